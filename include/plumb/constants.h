@@ -1,0 +1,44 @@
+/*
+ * plumb/constants.h - physical constants, each with its unit and source.
+ */
+#ifndef PLUMB_CONSTANTS_H
+#define PLUMB_CONSTANTS_H
+
+/* Standard gravity, m/s^2 (CGPM 1901; U.S. Standard Atmosphere 1976, Table 2). */
+#define PLUMB_G0_M_S2 9.80665
+/* Universal gas constant as used by US Std Atm 1976, J/(kmol K) (Table 2). */
+#define PLUMB_RSTAR_J_KMOL_K 8314.32
+/* Mean molecular weight of sea-level air, kg/kmol (US Std Atm 1976, Table 2). */
+#define PLUMB_M0_KG_KMOL 28.9644
+/* Specific gas constant of dry air R* / M0, J/(kg K). */
+#define PLUMB_RAIR_J_KG_K (PLUMB_RSTAR_J_KMOL_K / PLUMB_M0_KG_KMOL)
+/* Effective Earth radius for geopotential height, m (US Std Atm 1976). */
+#define PLUMB_R0_M 6356766.0
+/* Ratio of specific heats of air (US Std Atm 1976). */
+#define PLUMB_GAMMA_AIR 1.400
+/* Sutherland's law constants, kg/(s m K^1/2) and K (US Std Atm 1976, eq. 51). */
+#define PLUMB_SUTHERLAND_BETA 1.458e-6
+#define PLUMB_SUTHERLAND_S_K 110.4
+/* Sea-level standard temperature K and pressure Pa (US Std Atm 1976). */
+#define PLUMB_T0_K 288.15
+#define PLUMB_P0_PA 101325.0
+/* Geometric altitude of the top of the 1976 model, m. */
+#define PLUMB_STD1976_TOP_M 86000.0
+/* Ratio of molar masses water vapour / dry air (Rd/Rv), dimensionless
+ * (Wallace & Hobbs, Atmospheric Science, 2nd ed., eq. 3.14). */
+#define PLUMB_EPSILON_VAPOUR 0.622
+/* WGS 84 normal gravity, Somigliana closed form (NIMA TR8350.2, eq. 4-1):
+ * equatorial gravity m/s^2, k, first eccentricity squared. */
+#define PLUMB_WGS84_GAMMA_E 9.7803253359
+#define PLUMB_WGS84_K 0.00193185265241
+#define PLUMB_WGS84_E2 0.00669437999013
+/* Free-air gradient of gravity, s^-2 (NIMA TR8350.2, common approximation). */
+#define PLUMB_FREE_AIR_GRADIENT_S2 3.086e-6
+/* 1 foot pound-force in joules, exact (0.3048 m x 0.45359237 kg x g0). */
+#define PLUMB_FT_LBF_J 1.3558179483314004
+/* 1 foot in metres, exact (international yard and pound agreement, 1959). */
+#define PLUMB_FT_M 0.3048
+/* 1 pound in kilograms, exact (1959 agreement). */
+#define PLUMB_LB_KG 0.45359237
+
+#endif /* PLUMB_CONSTANTS_H */

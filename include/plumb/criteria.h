@@ -1,0 +1,74 @@
+/*
+ * plumb/criteria.h - named impact-energy criteria and verdicts.
+ *
+ * A criterion is one YAML file in profiles/criteria/ (its id is the file
+ * name without .yaml), e.g.
+ *
+ *     name: US operations over people, category 3
+ *     kind: limit                # or: helmet-test (what a helmet is tested to, not a safe limit)
+ *     energy_limit: 25 ft lbf
+ *     applies_to: rigid object striking a person, unmanned aircraft operations over people
+ *     source: 14 CFR 107.130(a)(1)
+ *     status: seen               # seen | transcribed | memory
+ *
+ * Verdict: ratio = energy / limit; "exceeds" when energy > limit, else
+ * "within".
+ *
+ * Ownership: a plumb_criteria set owns its criteria; pointers returned by
+ * plumb_criteria_get/find are valid until the set is freed.
+ */
+#ifndef PLUMB_CRITERIA_H
+#define PLUMB_CRITERIA_H
+
+#include <stddef.h>
+#include "plumb/error.h"
+#include "plumb/units.h"
+
+enum { PLUMB_CRIT_ID = 64, PLUMB_CRIT_TEXT = 256 };
+
+typedef enum plumb_criterion_kind {
+    PLUMB_CRIT_LIMIT = 0,      /* a published energy limit */
+    PLUMB_CRIT_HELMET_TEST     /* the energy a helmet is tested to: not a safe limit */
+} plumb_criterion_kind;
+
+typedef struct plumb_criterion {
+    char id[PLUMB_CRIT_ID];              /* file stem, e.g. "us-part107-cat3" */
+    char name[PLUMB_CRIT_TEXT];          /* human name */
+    plumb_criterion_kind kind;           /* limit or helmet test */
+    double energy_limit_j;               /* J (> 0) */
+    char applies_to[PLUMB_CRIT_TEXT];    /* what it applies to */
+    char source[PLUMB_CRIT_TEXT];        /* published source */
+    char status[PLUMB_CRIT_ID];          /* seen | transcribed | memory */
+} plumb_criterion;
+
+typedef struct plumb_verdict {
+    const plumb_criterion *criterion;    /* borrowed from the set */
+    double energy_j;                     /* the energy judged, J */
+    double ratio;                        /* energy / limit */
+    int exceeds;                         /* 1: energy > limit */
+} plumb_verdict;
+
+typedef struct plumb_criteria plumb_criteria;
+
+/* Loads every *.yaml in dir, in name order. Each file is parsed strictly
+ * (unknown keys, missing keys and bare numbers are errors with file, line
+ * and column). On error *out is NULL. */
+plumb_status plumb_criteria_load_dir(const char *dir, const plumb_units *units,
+                                     plumb_criteria **out, plumb_diag *diag);
+
+/* Frees the set. Accepts NULL. */
+void plumb_criteria_free(plumb_criteria *set);
+
+/* Number of criteria in the set; 0 for NULL. */
+size_t plumb_criteria_count(const plumb_criteria *set);
+
+/* The i-th criterion, NULL when i is out of range. */
+const plumb_criterion *plumb_criteria_get(const plumb_criteria *set, size_t i);
+
+/* The criterion with this id, or NULL. */
+const plumb_criterion *plumb_criteria_find(const plumb_criteria *set, const char *id);
+
+/* Judges an energy against a criterion. Can't fail. */
+void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out);
+
+#endif /* PLUMB_CRITERIA_H */

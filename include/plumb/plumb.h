@@ -1,0 +1,22 @@
+/*
+ * plumb/plumb.h - umbrella header of libplumb, the drop-and-descent safety
+ * calculator library. Include this, or the module headers one by one.
+ */
+#ifndef PLUMB_PLUMB_H
+#define PLUMB_PLUMB_H
+
+#define PLUMB_VERSION "0.1.0"
+
+#include "plumb/error.h"
+#include "plumb/constants.h"
+#include "plumb/units.h"
+#include "plumb/atmosphere.h"
+#include "plumb/gravity.h"
+#include "plumb/wind.h"
+#include "plumb/drag.h"
+#include "plumb/trajectory.h"
+#include "plumb/criteria.h"
+#include "plumb/profile.h"
+#include "plumb/report.h"
+
+#endif /* PLUMB_PLUMB_H */

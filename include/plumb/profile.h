@@ -1,0 +1,110 @@
+/*
+ * plumb/profile.h - payload profiles: strict YAML (libyaml) into fall specs.
+ *
+ * The format is design.md section 5. Every dimensional value carries its
+ * unit; unknown keys are errors with a did-you-mean; duplicate keys,
+ * anchors and aliases, tabs, invalid UTF-8, files over 1 MiB and empty
+ * files are refused. Every error fills the diagnostic with file, line,
+ * column and the dotted key.
+ *
+ * Overrides ("KEY=VALUE", as `--set`) replace or add a scalar at a dotted
+ * key path before the profile is interpreted, with the same units and
+ * checks as the YAML; their diagnostics name the file "--set".
+ *
+ * Ownership: a plumb_profile owns everything it returns (specs, tables,
+ * strings); nothing points into libyaml's buffers. Pointers returned are
+ * valid until plumb_profile_free. A loaded profile is read-only.
+ */
+#ifndef PLUMB_PROFILE_H
+#define PLUMB_PROFILE_H
+
+#include <stddef.h>
+#include "plumb/error.h"
+#include "plumb/units.h"
+#include "plumb/atmosphere.h"
+#include "plumb/trajectory.h"
+
+/* Largest profile file accepted, bytes. */
+#define PLUMB_PROFILE_MAX_BYTES (1024u * 1024u)
+
+typedef enum plumb_dist_kind {
+    PLUMB_DIST_NORMAL = 0,     /* normal: [mean, sd]; positive quantities truncated at 0 */
+    PLUMB_DIST_UNIFORM,        /* uniform: [lo, hi], or "value +- tolerance" */
+    PLUMB_DIST_TRIANGULAR      /* triangular: [lo, mode, hi] */
+} plumb_dist_kind;
+
+/* One uncertain input. Parameters are in the key's SI unit. */
+typedef struct plumb_uncertainty {
+    char key[PLUMB_DIAG_KEY];  /* dotted key, e.g. "wind.speed" */
+    plumb_dist_kind kind;      /* distribution */
+    double param[3];           /* normal: mean, sd; uniform: lo, hi; triangular: lo, mode, hi */
+    int line, col;             /* where it was given */
+} plumb_uncertainty;
+
+/* The profile's `zone:` map, with defaults filled. */
+typedef struct plumb_zone_spec {
+    size_t samples;            /* default 100 000 */
+    unsigned long seed;        /* default 1 */
+    double confidence;         /* 0 < c < 1, default 0.99 */
+    double scatter_m;          /* bounce/deflection allowance, m, default 0 */
+    int has_target;            /* 1: target_m is set */
+    double target_m[2];        /* east, north, m */
+} plumb_zone_spec;
+
+typedef struct plumb_profile plumb_profile;
+
+/* Loads and checks a profile. `sets` are n_sets "KEY=VALUE" overrides
+ * (may be NULL when n_sets is 0). On error *out is NULL, diag is filled,
+ * nothing is leaked. */
+plumb_status plumb_profile_load(const char *path, const plumb_units *units,
+                                const char *const *sets, size_t n_sets,
+                                plumb_profile **out, plumb_diag *diag);
+
+/* Makes a new profile from an already loaded one with more overrides
+ * applied (no file is read again). Same errors as plumb_profile_load. */
+plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,
+                                  const char *const *sets, size_t n_sets,
+                                  plumb_profile **out, plumb_diag *diag);
+
+/* Frees a profile. Accepts NULL. */
+void plumb_profile_free(plumb_profile *p);
+
+const char *plumb_profile_path(const plumb_profile *p);    /* as given to load */
+const char *plumb_profile_name(const plumb_profile *p);    /* `name:`, or the file stem */
+const char *plumb_profile_sha256(const plumb_profile *p);  /* hex SHA-256 of the file's bytes */
+
+/* 1 for a profile with `items:`, 0 for one with `payload:`. */
+int plumb_profile_is_inventory(const plumb_profile *p);
+
+/* Number of payloads (1 unless inventory) and the i-th one's fall spec. */
+size_t plumb_profile_item_count(const plumb_profile *p);
+const plumb_fall_spec *plumb_profile_item(const plumb_profile *p, size_t i);
+
+/* The shape of item i if it was given by `shape:` (kind != NONE), else kind NONE. */
+const plumb_shape_spec *plumb_profile_item_shape(const plumb_profile *p, size_t i);
+
+/* The atmosphere spec; its tables are owned by the profile. */
+const plumb_atm_spec *plumb_profile_atmosphere(const plumb_profile *p);
+
+/* Names of the criteria listed under `criteria:`. */
+size_t plumb_profile_criteria_count(const plumb_profile *p);
+const char *plumb_profile_criterion(const plumb_profile *p, size_t i);
+
+/* `uncertainty:` entries, in file order. */
+size_t plumb_profile_uncertainty_count(const plumb_profile *p);
+const plumb_uncertainty *plumb_profile_uncertainty(const plumb_profile *p, size_t i);
+
+/* `zone:` settings, defaults filled. */
+const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p);
+
+/* Dimension of a numeric profile key ("release.height" -> LENGTH).
+ * PLUMB_EKEY with a did-you-mean for an unknown key, PLUMB_EINVAL for a
+ * key that exists but is not numeric (e.g. "wind.profile"). */
+plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *diag);
+
+/* Address of the double that a numeric key sets in a fall spec (for
+ * sampling and root finding on a copy of a spec), or NULL when the key is
+ * not a per-fall numeric input. Keys under payload.* refer to the item. */
+double *plumb_fall_spec_field(plumb_fall_spec *spec, const char *key);
+
+#endif /* PLUMB_PROFILE_H */

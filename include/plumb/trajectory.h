@@ -1,0 +1,164 @@
+/*
+ * plumb/trajectory.h - the fall of a point mass through moving air.
+ *
+ * Frame: x east, y north, z up, metres; z = 0 is the strike level, whose
+ * height above MSL is site_elevation_m. Air is taken at elevation + z.
+ * Equation of motion (design.md section 2):
+ *
+ *     m dv/dt = -m g(alt) z^ - 1/2 rho(alt) CdA(t, Re) |v - w(z)| (v - w(z))
+ *               + rho(alt) V g(alt) z^                     (buoyancy, V > 0)
+ *     dx/dt   = v
+ *     dW/dt   = F_drag . v                                 (work done by drag)
+ *
+ * Integrated with GSL gsl_odeiv2 (rk8pd, 8th-order Dormand-Prince, by
+ * default) under adaptive error control. The impact, z = 0, is located by
+ * Henon's method (M. Henon, "On the numerical computation of Poincare
+ * maps", Physica D 5, 412-414, 1982): from the last state above the
+ * strike level the system is integrated with z as the independent
+ * variable, d(state)/dz = f / (dz/dt), from z_last to exactly 0.
+ * A fall that never lands (buoyant, held aloft) or exceeds the step or
+ * time budget is an error, never a number.
+ *
+ * Ownership: a plumb_trajectory workspace owns its GSL objects; reuse one
+ * per thread. The spec and the atmosphere are borrowed for the call.
+ */
+#ifndef PLUMB_TRAJECTORY_H
+#define PLUMB_TRAJECTORY_H
+
+#include <stddef.h>
+#include "plumb/error.h"
+#include "plumb/atmosphere.h"
+#include "plumb/gravity.h"
+#include "plumb/wind.h"
+#include "plumb/drag.h"
+
+enum { PLUMB_MAX_DESCENT = 2, PLUMB_NAME = 128 };
+
+typedef enum plumb_descent_kind {
+    PLUMB_DESCENT_PARACHUTE = 0,  /* "parachute" */
+    PLUMB_DESCENT_STREAMER,       /* "streamer" */
+    PLUMB_DESCENT_DROGUE          /* "drogue" */
+} plumb_descent_kind;
+
+typedef enum plumb_deploy_trigger {
+    PLUMB_DEPLOY_AFTER = 0,       /* deploy_value is a time from release, s */
+    PLUMB_DEPLOY_BELOW            /* deploy_value is a height above the strike level, m */
+} plumb_deploy_trigger;
+
+/* A descent device: canopy CdS grows linearly from 0 to cd x area over
+ * fill_time after line stretch, and adds to the body's CdA. */
+typedef struct plumb_descent_spec {
+    plumb_descent_kind kind;       /* parachute, streamer, drogue */
+    double cd;                     /* canopy drag coefficient on area_m2 */
+    double area_m2;                /* nominal area S0, m^2 */
+    double diameter_m;             /* nominal diameter D0, m (0 if area given directly) */
+    plumb_deploy_trigger trigger;  /* after a time or below a height */
+    double deploy_value;           /* s (after) or m (below) */
+    double fill_time_s;            /* fill time, s; used when fill_constant is 0 */
+    double fill_constant;          /* n in t_f = n D0 / v at line stretch; 0: use fill_time_s */
+    int disreefs_previous;         /* 1: this device replaces the previous one (main after drogue) */
+} plumb_descent_spec;
+
+/* Everything about one fall. Plain data; copy freely. */
+typedef struct plumb_fall_spec {
+    char name[PLUMB_NAME];         /* payload name, for reports */
+    double mass_kg;                /* payload mass, kg (> 0) */
+    double volume_m3;              /* displaced volume for buoyancy, m^3 (0: none) */
+    plumb_drag_spec drag;          /* the body's drag */
+    size_t n_descent;              /* number of descent devices, 0..PLUMB_MAX_DESCENT */
+    plumb_descent_spec descent[PLUMB_MAX_DESCENT]; /* in deployment order */
+    double release_m[3];           /* release point: east, north, height above strike level, m */
+    double velocity_m_s[3];        /* release velocity: east, north, up, m/s (ground frame) */
+    double site_elevation_m;       /* strike level above MSL, m */
+    plumb_gravity gravity;         /* g0 or WGS 84 at a latitude */
+    plumb_wind_spec wind;          /* wind by height */
+} plumb_fall_spec;
+
+typedef enum plumb_stepper {
+    PLUMB_STEPPER_RK8PD = 0,   /* explicit 8th-order Dormand-Prince (default) */
+    PLUMB_STEPPER_RKF45,       /* explicit Runge-Kutta-Fehlberg 4(5) */
+    PLUMB_STEPPER_MSBDF,       /* implicit multistep BDF, for stiff (very light) falls */
+    PLUMB_STEPPER_AUTO         /* rk8pd, or msbdf when 2 g H / v_t^2 exceeds stiff_ratio */
+} plumb_stepper;
+
+typedef struct plumb_trajectory_options {
+    plumb_stepper stepper;     /* default PLUMB_STEPPER_RK8PD */
+    double rel_tol;            /* relative error per step, default 1e-11 */
+    double abs_tol;            /* absolute error per step, default 1e-10 (m, m/s, J) */
+    double first_step_s;       /* initial step, s, default 1e-3 */
+    size_t max_steps;          /* step budget, default 2 000 000 */
+    double max_time_s;         /* fall-time budget, s, default 86 400 */
+    double stiff_ratio;        /* AUTO switches to msbdf above this 2gH/v_t^2, default 2000 */
+    int record_path;           /* 1: keep the accepted points for plumb_trajectory_path */
+} plumb_trajectory_options;
+
+/* Where the numbers of a fall came from, so cost is visible. */
+typedef struct plumb_solver_stats {
+    const char *method;        /* GSL stepper name, static string */
+    size_t steps;              /* accepted steps */
+    size_t rhs_evaluations;    /* evaluations of the right-hand side */
+} plumb_solver_stats;
+
+typedef struct plumb_fall_result {
+    double time_s;             /* time from release to impact, s */
+    double point_m[2];         /* impact point east, north, m */
+    double velocity_m_s[3];    /* impact velocity east, north, up (ground frame), m/s */
+    double speed_m_s;          /* |v| at impact, m/s */
+    double energy_j;           /* 1/2 m v^2 at impact, J */
+    double momentum_kg_m_s;    /* m |v| at impact, kg m/s */
+    double angle_deg;          /* angle of the impact velocity below horizontal, deg */
+    double drift_m;            /* horizontal distance from the release point, m */
+    double bearing_deg;        /* bearing of the impact point from the release point, deg from north */
+    double apex_m;             /* highest point above the strike level, m */
+    double terminal_speed_m_s; /* still-air terminal speed at the strike level, final configuration, m/s */
+    double drag_free_speed_m_s;/* sqrt(v0^2 + 2 g H): speed without drag, m/s */
+    double drag_free_energy_j; /* 1/2 m v0^2 + m g H: energy without drag, J */
+    double drag_work_j;        /* work done by drag on the body, J (negative) */
+    double max_mach;           /* largest Mach number of the relative air speed on the way */
+    double min_re, max_re;     /* Reynolds number range seen (sphere models), else 0 */
+    /* descent device figures (n_descent > 0) */
+    size_t n_deployed;         /* devices that reached line stretch before impact */
+    double deploy_time_s[PLUMB_MAX_DESCENT];     /* line stretch time, s */
+    double deploy_height_m[PLUMB_MAX_DESCENT];   /* line stretch height, m */
+    double deploy_speed_m_s[PLUMB_MAX_DESCENT];  /* airspeed at line stretch, m/s */
+    double peak_force_n;       /* largest drag force, N */
+    double peak_load_g;        /* largest drag force / (m g0) */
+    double steady_speed_m_s;   /* terminal speed with all devices open, at strike level, m/s */
+    plumb_solver_stats solver; /* cost of the integration */
+} plumb_fall_result;
+
+/* One recorded point of the path. */
+typedef struct plumb_path_point {
+    double t_s, x_m, y_m, z_m, vx_m_s, vy_m_s, vz_m_s;
+} plumb_path_point;
+
+typedef struct plumb_trajectory plumb_trajectory;
+
+/* Defaults as documented on each field. Can't fail. */
+void plumb_trajectory_options_init(plumb_trajectory_options *opt);
+
+/* Allocates a workspace (opt NULL: defaults). On error *out is NULL. */
+plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_trajectory **out);
+
+/* Frees a workspace. Accepts NULL. */
+void plumb_trajectory_free(plumb_trajectory *traj);
+
+/* Integrates one fall. On success fills *res. On failure *res is
+ * unspecified and diag says what failed and when ("ODE step failed at
+ * t=12.40 s"): PLUMB_ENOLAND, PLUMB_EBUDGET, PLUMB_ENUMERIC, or
+ * PLUMB_ERANGE when the path leaves the atmosphere model's range.
+ * Invalid specs (mass <= 0, release height <= 0 ...) give PLUMB_EINVAL. */
+plumb_status plumb_trajectory_run(plumb_trajectory *traj, const plumb_fall_spec *spec,
+                                  const plumb_atmosphere *atm, plumb_fall_result *res,
+                                  plumb_diag *diag);
+
+/* The points recorded by the last run (record_path = 1), else NULL / 0.
+ * Owned by the workspace; valid until the next run or free. */
+const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size_t *n);
+
+/* Still-air terminal speed of the spec's body (with all devices open when
+ * with_devices is 1) at height z_m above the strike level, m/s. */
+plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                  double z_m, int with_devices, double *v_m_s);
+
+#endif /* PLUMB_TRAJECTORY_H */

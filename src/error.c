@@ -1,0 +1,143 @@
+/*
+ * error.c - status strings and the one function every error passes through.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "plumb/error.h"
+#include "internal.h"
+
+static const char *const status_text[PLUMB_STATUS_COUNT] = {
+    [PLUMB_OK] = "success",
+    [PLUMB_EINVAL] = "invalid input",
+    [PLUMB_ENOMEM] = "out of memory",
+    [PLUMB_EIO] = "input/output error",
+    [PLUMB_EPARSE] = "malformed input",
+    [PLUMB_EUNIT] = "bad or missing unit",
+    [PLUMB_ERANGE] = "value out of range",
+    [PLUMB_EKEY] = "unknown, duplicate or missing key",
+    [PLUMB_ENOLAND] = "the object never reaches the strike level",
+    [PLUMB_EBUDGET] = "integration budget exhausted",
+    [PLUMB_ENUMERIC] = "numerical method failed",
+    [PLUMB_ENOSOLUTION] = "no solution in the physical range",
+};
+
+const char *plumb_strerror(plumb_status status)
+{
+    if ((unsigned)status >= PLUMB_STATUS_COUNT)
+        return "unknown status";
+    return status_text[status];
+}
+
+int plumb_status_is_input_error(plumb_status status)
+{
+    switch (status) {
+    case PLUMB_EINVAL: case PLUMB_EIO: case PLUMB_EPARSE: case PLUMB_EUNIT:
+    case PLUMB_ERANGE: case PLUMB_EKEY: case PLUMB_ENOMEM:
+        return 1;
+    default:
+        return 0;
+    }
+}
+
+void plumb_diag_clear(plumb_diag *diag)
+{
+    if (diag)
+        memset(diag, 0, sizeof *diag);
+}
+
+int plumb_diag_format(const plumb_diag *diag, char *buf, size_t size)
+{
+    char where[PLUMB_DIAG_FILE + 32] = "";
+    if (diag->file[0] && diag->line > 0)
+        snprintf(where, sizeof where, "%s:%d:%d: ", diag->file, diag->line,
+                 diag->col > 0 ? diag->col : 1);
+    else if (diag->file[0])
+        snprintf(where, sizeof where, "%s: ", diag->file);
+    const char *msg = diag->message[0] ? diag->message : plumb_strerror(diag->status);
+    if (diag->key[0])
+        return snprintf(buf, size, "%s%s: %s", where, diag->key, msg);
+    return snprintf(buf, size, "%s%s", where, msg);
+}
+
+plumb_status plumbp_vraise(plumb_diag *diag, plumb_status status, const char *file, int line,
+                           int col, const char *key, const char *fmt, va_list ap)
+{
+    if (!diag)
+        return status;
+    diag->status = status;
+    plumbp_strlcpy(diag->file, file ? file : "", sizeof diag->file);
+    diag->line = line;
+    diag->col = col;
+    plumbp_strlcpy(diag->key, key ? key : "", sizeof diag->key);
+    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    return status;
+}
+
+plumb_status plumbp_raise(plumb_diag *diag, plumb_status status, const char *file, int line,
+                          int col, const char *key, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    plumbp_vraise(diag, status, file, line, col, key, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
+char *plumbp_strlcpy(char *dst, const char *src, size_t n)
+{
+    if (n == 0)
+        return dst;
+    size_t len = strlen(src);
+    if (len >= n)
+        len = n - 1;
+    memcpy(dst, src, len);
+    dst[len] = '\0';
+    return dst;
+}
+
+int plumbp_edit_distance(const char *a, const char *b)
+{
+    size_t la = strlen(a), lb = strlen(b);
+    if (la > 63 || lb > 63)
+        return 99;
+    int row[64];
+    for (size_t j = 0; j <= lb; j++)
+        row[j] = (int)j;
+    for (size_t i = 1; i <= la; i++) {
+        int diag_prev = row[0];
+        row[0] = (int)i;
+        for (size_t j = 1; j <= lb; j++) {
+            int up = row[j];
+            int cost = a[i - 1] == b[j - 1] ? 0 : 1;
+            int best = diag_prev + cost;
+            if (up + 1 < best)
+                best = up + 1;
+            if (row[j - 1] + 1 < best)
+                best = row[j - 1] + 1;
+            row[j] = best;
+            diag_prev = up;
+        }
+    }
+    return row[lb] > 99 ? 99 : row[lb];
+}
+
+const char *plumbp_closest(const char *word, const char *const *candidates, size_t n)
+{
+    const char *best = NULL;
+    int best_d = 4;
+    for (size_t i = 0; i < n; i++) {
+        int d = plumbp_edit_distance(word, candidates[i]);
+        if (d < best_d) {
+            best_d = d;
+            best = candidates[i];
+        }
+    }
+    return best;
+}
+
+int plumbp_finite(double x)
+{
+    return isfinite(x);
+}

@@ -1,0 +1,29 @@
+/*
+ * plumb_test.h - shared test support: double asserts for cmocka (cmocka
+ * 1.1.5's float assert casts to float) and common setup.
+ *
+ * Include after <stdarg.h>, <stddef.h>, <setjmp.h>, <stdint.h>, <cmocka.h>.
+ */
+#ifndef PLUMB_TEST_H
+#define PLUMB_TEST_H
+
+/* Fails unless |got - want| <= rel * |want| (or |got - want| <= rel when
+ * want is 0). Prints both values to 17 digits. */
+#define assert_rel(got, want, rel) \
+    plumbt_assert_rel((got), (want), (rel), #got, __FILE__, __LINE__)
+/* Fails unless |got - want| <= tol. */
+#define assert_abs(got, want, tol) \
+    plumbt_assert_abs((got), (want), (tol), #got, __FILE__, __LINE__)
+
+void plumbt_assert_rel(double got, double want, double rel, const char *expr,
+                       const char *file, int line);
+void plumbt_assert_abs(double got, double want, double tol, const char *expr,
+                       const char *file, int line);
+
+/* Turns GSL's abort-on-error handler off; call in every test's group setup. */
+int plumbt_setup_gsl(void **state);
+
+/* Root of the source tree (where profiles/ lives): $PLUMB_SRCDIR or ".". */
+const char *plumbt_srcdir(void);
+
+#endif /* PLUMB_TEST_H */
