@@ -41,4 +41,7 @@
 /* 1 pound in kilograms, exact (1959 agreement). */
 #define PLUMB_LB_KG 0.45359237
 
+/* pi, to double precision. */
+#define PLUMB_PI 3.14159265358979323846
+
 #endif /* PLUMB_CONSTANTS_H */

@@ -21,7 +21,7 @@ typedef enum plumb_drag_model {
     PLUMB_DRAG_SPHERE_CGW         /* Cd(Re), Clift, Grace & Weber 1978 */
 } plumb_drag_model;
 
-enum { PLUMB_DRAG_SOURCE = 256 };
+enum { PLUMB_DRAG_SOURCE = 512 };
 
 typedef struct plumb_drag_spec {
     plumb_drag_model model;   /* how CdA is found */
