@@ -1,0 +1,717 @@
+/*
+ * trajectory.c - the 3-D fall of a point mass through moving air
+ * (design.md section 2; equations in include/plumb/trajectory.h).
+ *
+ * Method: GSL gsl_odeiv2 evolve/control/step (rk8pd by default: Prince &
+ * Dormand, J. Comp. Appl. Math. 7, 1981) over segments bounded by the
+ * events of the fall: a descent device's line stretch (at a known time, or
+ * when the height falls below a trigger), the end of its filling, and the
+ * strike level. A height event is located by Henon's method (M. Henon,
+ * Physica D 5, 412-414, 1982): the step that crossed it is undone and the
+ * system is integrated with the height as independent variable from the
+ * last point above to exactly the event height. The apex of an upward
+ * throw is located the same way with the vertical velocity as independent
+ * variable.
+ *
+ * State y: x, y, z (m), vx, vy, vz (m/s), W (J, work done by drag).
+ */
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <gsl/gsl_errno.h>
+#include <gsl/gsl_odeiv2.h>
+#include <gsl/gsl_roots.h>
+
+#include "plumb/constants.h"
+#include "plumb/trajectory.h"
+#include "internal.h"
+
+#define NSTATE 7
+enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
+
+/* Height of the start of the Henon phase above the event may not be
+ * reached with an upward or level velocity: the step before is halved
+ * until the object is descending. Bounded. */
+#define MAX_HALVINGS 60
+/* A rise this far above the drag-free apex means the object is buoyant. */
+#define RISE_MARGIN_M 1.0
+
+/* ---- per-run context of the right-hand side ---------------------------- */
+
+typedef struct device_state {
+    int deployed;        /* line stretch reached */
+    int removed;         /* replaced by the next device */
+    double t_ls_s;       /* line-stretch time */
+    double fill_s;       /* fill time */
+    double cds_m2;       /* full canopy CdS */
+} device_state;
+
+typedef struct fall_ctx {
+    const plumb_fall_spec *spec;
+    const plumb_atmosphere *atm;
+    double inv_m;               /* 1 / mass */
+    double body_cda_m2;         /* fixed-model CdA */
+    int sphere;                 /* 1: Cd(Re) sphere model */
+    size_t n_dev;
+    device_state dev[PLUMB_MAX_DESCENT];
+    size_t evals;               /* RHS evaluations */
+    plumb_status fail;          /* set when the RHS cannot be evaluated */
+    double fail_alt_m;
+} fall_ctx;
+
+/* Local air, relative velocity and drag acceleration at (t, y). */
+typedef struct local {
+    plumb_air air;
+    double g;
+    double vr[3];
+    double vr_abs;
+    double re;
+    double cda;
+} local;
+
+static double devices_cds(const fall_ctx *c, double t)
+{
+    double s = 0.0;
+    for (size_t i = 0; i < c->n_dev; i++) {
+        const device_state *d = &c->dev[i];
+        if (!d->deployed || d->removed || t < d->t_ls_s)
+            continue;
+        double f = d->fill_s > 0.0 ? (t - d->t_ls_s) / d->fill_s : 1.0;
+        s += d->cds_m2 * (f < 1.0 ? f : 1.0);
+    }
+    return s;
+}
+
+static int local_at(fall_ctx *c, double t, const double y[], local *L)
+{
+    const plumb_fall_spec *s = c->spec;
+    double alt = s->site_elevation_m + y[IZ];
+    if (plumb_atmosphere_at(c->atm, alt, &L->air) != PLUMB_OK) {
+        c->fail = PLUMB_ERANGE;
+        c->fail_alt_m = alt;
+        return GSL_EBADFUNC;
+    }
+    L->g = plumb_gravity_at(&s->gravity, alt);
+    double we = 0.0, wn = 0.0;
+    plumb_wind_at(&s->wind, y[IZ], &we, &wn);
+    L->vr[0] = y[IVX] - we;
+    L->vr[1] = y[IVY] - wn;
+    L->vr[2] = y[IVZ];
+    L->vr_abs = sqrt(L->vr[0] * L->vr[0] + L->vr[1] * L->vr[1] + L->vr[2] * L->vr[2]);
+    if (c->sphere) {
+        L->re = L->air.rho_kg_m3 * L->vr_abs * s->drag.diameter_m / L->air.mu_pa_s;
+        L->cda = plumb_drag_cd_area(&s->drag, L->re);
+    } else {
+        L->re = 0.0;
+        L->cda = c->body_cda_m2;
+    }
+    if (c->n_dev)
+        L->cda += devices_cds(c, t);
+    return GSL_SUCCESS;
+}
+
+static int rhs_time(double t, const double y[], double f[], void *params)
+{
+    fall_ctx *c = params;
+    local L;
+    c->evals++;
+    if (local_at(c, t, y, &L) != GSL_SUCCESS)
+        return GSL_EBADFUNC;
+    double k = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * c->inv_m;
+    f[IX] = y[IVX];
+    f[IY] = y[IVY];
+    f[IZ] = y[IVZ];
+    f[IVX] = -k * L.vr[0];
+    f[IVY] = -k * L.vr[1];
+    f[IVZ] = -k * L.vr[2] - L.g + L.air.rho_kg_m3 * c->spec->volume_m3 * L.g * c->inv_m;
+    f[IW] = -k * (L.vr[0] * y[IVX] + L.vr[1] * y[IVY] + L.vr[2] * y[IVZ]) / c->inv_m;
+    return GSL_SUCCESS;
+}
+
+/* Finite-difference Jacobian for the implicit stepper (msbdf). */
+static int jac_time(double t, const double y[], double *dfdy, double dfdt[], void *params)
+{
+    double f0[NSTATE], f1[NSTATE], yp[NSTATE];
+    if (rhs_time(t, y, f0, params) != GSL_SUCCESS)
+        return GSL_EBADFUNC;
+    for (int j = 0; j < NSTATE; j++) {
+        memcpy(yp, y, sizeof yp);
+        double h = 1e-7 * (fabs(y[j]) + 1.0);
+        yp[j] += h;
+        if (rhs_time(t, yp, f1, params) != GSL_SUCCESS)
+            return GSL_EBADFUNC;
+        for (int i = 0; i < NSTATE; i++)
+            dfdy[i * NSTATE + j] = (f1[i] - f0[i]) / h;
+    }
+    double ht = 1e-7 * (fabs(t) + 1.0);
+    if (rhs_time(t + ht, y, f1, params) != GSL_SUCCESS)
+        return GSL_EBADFUNC;
+    for (int i = 0; i < NSTATE; i++)
+        dfdt[i] = (f1[i] - f0[i]) / ht;
+    return GSL_SUCCESS;
+}
+
+/* Henon's system: independent variable s = y[k]; state u = y with u[k]
+ * replaced by the time t. du/ds = f / f[k], du[k]/ds = 1 / f[k]. */
+typedef struct henon_ctx {
+    fall_ctx *fall;
+    int k;
+} henon_ctx;
+
+static int rhs_henon(double s, const double u[], double du[], void *params)
+{
+    henon_ctx *h = params;
+    double y[NSTATE], f[NSTATE];
+    memcpy(y, u, sizeof y);
+    y[h->k] = s;
+    double t = u[h->k];
+    int rc = rhs_time(t, y, f, h->fall);
+    if (rc != GSL_SUCCESS)
+        return rc;
+    if (f[h->k] == 0.0)
+        return GSL_EBADFUNC;
+    double inv = 1.0 / f[h->k];
+    for (int i = 0; i < NSTATE; i++)
+        du[i] = f[i] * inv;
+    du[h->k] = inv;
+    return GSL_SUCCESS;
+}
+
+/* ---- workspace ------------------------------------------------------------ */
+
+struct plumb_trajectory {
+    plumb_trajectory_options opt;
+    gsl_odeiv2_step *step[3];      /* rk8pd, rkf45, msbdf */
+    gsl_odeiv2_control *control;
+    gsl_odeiv2_evolve *evolve;
+    gsl_odeiv2_step *side_step;    /* rk8pd for Henon phases and halvings */
+    gsl_odeiv2_control *side_control;
+    gsl_odeiv2_evolve *side_evolve;
+    plumb_path_point *path;
+    size_t path_n, path_cap;
+};
+
+void plumb_trajectory_options_init(plumb_trajectory_options *opt)
+{
+    opt->stepper = PLUMB_STEPPER_RK8PD;
+    opt->rel_tol = 1e-11;
+    opt->abs_tol = 1e-10;
+    opt->first_step_s = 1e-3;
+    opt->max_steps = 2000000;
+    opt->max_time_s = 86400.0;
+    opt->stiff_ratio = 2000.0;
+    opt->record_path = 0;
+}
+
+void plumb_trajectory_free(plumb_trajectory *traj)
+{
+    if (!traj)
+        return;
+    for (int i = 0; i < 3; i++)
+        if (traj->step[i])
+            gsl_odeiv2_step_free(traj->step[i]);
+    if (traj->control)
+        gsl_odeiv2_control_free(traj->control);
+    if (traj->evolve)
+        gsl_odeiv2_evolve_free(traj->evolve);
+    if (traj->side_step)
+        gsl_odeiv2_step_free(traj->side_step);
+    if (traj->side_control)
+        gsl_odeiv2_control_free(traj->side_control);
+    if (traj->side_evolve)
+        gsl_odeiv2_evolve_free(traj->side_evolve);
+    free(traj->path);
+    free(traj);
+}
+
+plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_trajectory **out)
+{
+    *out = NULL;
+    plumb_trajectory *t = calloc(1, sizeof *t);
+    if (!t)
+        return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
+    if (opt)
+        t->opt = *opt;
+    else
+        plumb_trajectory_options_init(&t->opt);
+    if (!(t->opt.rel_tol > 0.0) || !(t->opt.abs_tol >= 0.0) || t->opt.max_steps == 0 ||
+        !(t->opt.max_time_s > 0.0) || !(t->opt.first_step_s > 0.0)) {
+        free(t);
+        return PLUMB_RAISE(NULL, PLUMB_EINVAL, "invalid trajectory options");
+    }
+    t->step[0] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
+    t->step[1] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rkf45, NSTATE);
+    t->step[2] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_msbdf, NSTATE);
+    t->control = gsl_odeiv2_control_y_new(t->opt.abs_tol, t->opt.rel_tol);
+    t->evolve = gsl_odeiv2_evolve_alloc(NSTATE);
+    t->side_step = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
+    t->side_control = gsl_odeiv2_control_y_new(t->opt.abs_tol, t->opt.rel_tol);
+    t->side_evolve = gsl_odeiv2_evolve_alloc(NSTATE);
+    if (!t->step[0] || !t->step[1] || !t->step[2] || !t->control || !t->evolve ||
+        !t->side_step || !t->side_control || !t->side_evolve) {
+        plumb_trajectory_free(t);
+        return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory allocating the ODE workspace");
+    }
+    *out = t;
+    return PLUMB_OK;
+}
+
+const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size_t *n)
+{
+    *n = traj->path_n;
+    return traj->path_n ? traj->path : NULL;
+}
+
+/* ---- spec checks ---------------------------------------------------------- */
+
+static double body_cda(const plumb_drag_spec *d)
+{
+    return d->area_m2 > 0.0 ? d->cd * d->area_m2 : d->cd_area_m2;
+}
+
+static plumb_status check_spec(const plumb_fall_spec *s, plumb_diag *diag)
+{
+    const double *r = s->release_m, *v = s->velocity_m_s;
+    for (int i = 0; i < 3; i++)
+        if (!isfinite(r[i]) || !isfinite(v[i]))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "release", "release point and velocity must be finite");
+    if (!(s->mass_kg > 0.0) || !isfinite(s->mass_kg))
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.mass", "mass must be > 0 kg, found %g kg", s->mass_kg);
+    if (!(r[2] > 0.0))
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "release.height", "release height must be > 0 m, found %g m", r[2]);
+    if (!(s->volume_m3 >= 0.0) || !isfinite(s->volume_m3))
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.volume", "volume must be >= 0 m^3");
+    const plumb_drag_spec *d = &s->drag;
+    if (d->model == PLUMB_DRAG_FIXED) {
+        double cda = body_cda(d);
+        if (!(cda >= 0.0) || !isfinite(cda) || !(d->cd >= 0.0 && d->cd <= 10.0))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.drag", "drag must be finite with 0 <= cd <= 10 and CdA >= 0");
+    } else if (!(d->diameter_m > 0.0) || !(d->area_m2 > 0.0) || !isfinite(d->area_m2)) {
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.drag.diameter", "a sphere drag model needs a diameter > 0");
+    }
+    if (s->n_descent > PLUMB_MAX_DESCENT)
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "at most %d descent devices", PLUMB_MAX_DESCENT);
+    for (size_t i = 0; i < s->n_descent; i++) {
+        const plumb_descent_spec *dv = &s->descent[i];
+        if (!(dv->cd > 0.0 && dv->cd <= 10.0) || !(dv->area_m2 > 0.0) || !isfinite(dv->area_m2))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "device %zu needs 0 < cd <= 10 and area > 0", i + 1);
+        if (!(dv->fill_time_s >= 0.0) || !(dv->fill_constant >= 0.0) ||
+            (dv->fill_constant > 0.0 && !(dv->diameter_m > 0.0)))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.fill_time", "device %zu: fill time >= 0, a fill constant needs a diameter", i + 1);
+        if (dv->trigger == PLUMB_DEPLOY_AFTER && !(dv->deploy_value >= 0.0))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.after", "deploy time must be >= 0 s");
+        if (dv->trigger == PLUMB_DEPLOY_BELOW && !(dv->deploy_value > 0.0 && dv->deploy_value < r[2]))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.below",
+                                   "deploy height must lie between 0 m and the release height %g m, found %g m",
+                                   r[2], dv->deploy_value);
+    }
+    return PLUMB_OK;
+}
+
+/* ---- terminal speed ------------------------------------------------------- */
+
+typedef struct term_ctx {
+    const plumb_fall_spec *spec;
+    plumb_air air;
+    double g_net_m_s2;   /* g (1 - rho V / m) */
+    double extra_m2;     /* device CdS */
+} term_ctx;
+
+static double term_balance(double v, void *p)
+{
+    const term_ctx *c = p;
+    double re = c->air.rho_kg_m3 * v * c->spec->drag.diameter_m / c->air.mu_pa_s;
+    double cda = plumb_drag_cd_area(&c->spec->drag, re) + c->extra_m2;
+    return 0.5 * c->air.rho_kg_m3 * cda * v * v - c->spec->mass_kg * c->g_net_m_s2;
+}
+
+plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                  double z_m, int with_devices, double *v_m_s)
+{
+    term_ctx c = {.spec = spec};
+    double alt = spec->site_elevation_m + z_m;
+    if (plumb_atmosphere_at(atm, alt, &c.air) != PLUMB_OK)
+        return PLUMB_RAISE(NULL, PLUMB_ERANGE, "altitude %.1f m is outside the atmosphere model", alt);
+    double g = plumb_gravity_at(&spec->gravity, alt);
+    c.g_net_m_s2 = g * (1.0 - c.air.rho_kg_m3 * spec->volume_m3 / spec->mass_kg);
+    if (with_devices)
+        for (size_t i = 0; i < spec->n_descent; i++) {
+            if (i + 1 < spec->n_descent && spec->descent[i + 1].disreefs_previous)
+                continue; /* replaced by the next device */
+            c.extra_m2 += spec->descent[i].cd * spec->descent[i].area_m2;
+        }
+    if (!(c.g_net_m_s2 > 0.0))
+        return PLUMB_RAISE(NULL, PLUMB_ENOLAND, "buoyancy exceeds weight: no terminal speed");
+    if (spec->drag.model == PLUMB_DRAG_FIXED) {
+        double cda = body_cda(&spec->drag) + c.extra_m2;
+        if (!(cda > 0.0))
+            return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "no drag: no terminal speed");
+        *v_m_s = sqrt(2.0 * spec->mass_kg * c.g_net_m_s2 / (c.air.rho_kg_m3 * cda));
+        return PLUMB_OK;
+    }
+    /* Cd(Re): bracket the balance speed and solve with Brent's method. */
+    double lo = 1e-9, hi = 1.0;
+    while (term_balance(hi, &c) < 0.0 && hi < 1e6)
+        hi *= 2.0;
+    if (term_balance(hi, &c) < 0.0)
+        return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "terminal speed above 1e6 m/s");
+    gsl_function F = {term_balance, &c};
+    gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    if (!s)
+        return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
+    int rc = gsl_root_fsolver_set(s, &F, lo, hi);
+    for (int it = 0; rc == GSL_SUCCESS && it < 200; it++) {
+        rc = gsl_root_fsolver_iterate(s);
+        if (rc != GSL_SUCCESS)
+            break;
+        double a = gsl_root_fsolver_x_lower(s), b = gsl_root_fsolver_x_upper(s);
+        rc = gsl_root_test_interval(a, b, 0.0, 1e-14);
+        if (rc == GSL_SUCCESS)
+            break;
+        if (rc != GSL_CONTINUE)
+            break;
+        rc = GSL_SUCCESS;
+    }
+    double root = gsl_root_fsolver_root(s);
+    gsl_root_fsolver_free(s);
+    if (rc != GSL_SUCCESS)
+        return PLUMB_RAISE(NULL, PLUMB_ENUMERIC, "terminal speed root finder failed: %s", gsl_strerror(rc));
+    *v_m_s = root;
+    return PLUMB_OK;
+}
+
+/* ---- the run -------------------------------------------------------------- */
+
+typedef struct runner {
+    plumb_trajectory *w;
+    fall_ctx ctx;
+    gsl_odeiv2_system sys;
+    gsl_odeiv2_step *step;
+    plumb_fall_result *res;
+    plumb_diag *diag;
+    double t;
+    double y[NSTATE];
+    double h;
+    size_t steps;
+} runner;
+
+static plumb_status fail_rhs(runner *r, int rc, const char *what)
+{
+    if (r->ctx.fail == PLUMB_ERANGE)
+        return PLUMB_RAISE(r->diag, PLUMB_ERANGE,
+                           "the path left the atmosphere model's range at altitude %.1f m (t=%.2f s)",
+                           r->ctx.fail_alt_m, r->t);
+    return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC, "%s failed at t=%.2f s: %s", what, r->t, gsl_strerror(rc));
+}
+
+/* Records what is observed at an accepted point: Mach, Re, drag force, path. */
+static plumb_status observe(runner *r)
+{
+    local L;
+    if (local_at(&r->ctx, r->t, r->y, &L) != GSL_SUCCESS)
+        return fail_rhs(r, GSL_EBADFUNC, "air lookup");
+    plumb_fall_result *res = r->res;
+    double mach = L.vr_abs / L.air.a_m_s;
+    if (mach > res->max_mach)
+        res->max_mach = mach;
+    if (r->ctx.sphere && L.re > 0.0) {
+        if (res->min_re == 0.0 || L.re < res->min_re)
+            res->min_re = L.re;
+        if (L.re > res->max_re)
+            res->max_re = L.re;
+    }
+    double force = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * L.vr_abs;
+    if (force > res->peak_force_n)
+        res->peak_force_n = force;
+    if (r->y[IZ] > res->apex_m)
+        res->apex_m = r->y[IZ];
+    if (r->w->opt.record_path) {
+        plumb_trajectory *w = r->w;
+        if (w->path_n == w->path_cap) {
+            size_t cap = w->path_cap ? 2 * w->path_cap : 256;
+            plumb_path_point *p = realloc(w->path, cap * sizeof *p);
+            if (!p)
+                return PLUMB_RAISE(r->diag, PLUMB_ENOMEM, "out of memory recording the path");
+            w->path = p;
+            w->path_cap = cap;
+        }
+        w->path[w->path_n++] = (plumb_path_point){r->t, r->y[IX], r->y[IY], r->y[IZ],
+                                                  r->y[IVX], r->y[IVY], r->y[IVZ]};
+    }
+    return PLUMB_OK;
+}
+
+/* Integrates the state (t0, y0) along component k until y[k] == target,
+ * by Henon's method. Writes the time and state there. */
+static plumb_status henon_to(runner *r, int k, double target, double *t_io, double y_io[])
+{
+    henon_ctx hc = {&r->ctx, k};
+    gsl_odeiv2_system hs = {rhs_henon, NULL, NSTATE, &hc};
+    double u[NSTATE];
+    memcpy(u, y_io, sizeof u);
+    u[k] = *t_io;
+    double s = y_io[k];
+    double h = target - s;
+    gsl_odeiv2_evolve_reset(r->w->side_evolve);
+    gsl_odeiv2_step_reset(r->w->side_step);
+    for (size_t n = 0; s != target; n++) {
+        if (n >= r->w->opt.max_steps)
+            return PLUMB_RAISE(r->diag, PLUMB_EBUDGET, "event location ran past its step budget at t=%.2f s", *t_io);
+        int rc = gsl_odeiv2_evolve_apply(r->w->side_evolve, r->w->side_control, r->w->side_step, &hs,
+                                         &s, target, &h, u);
+        if (rc != GSL_SUCCESS)
+            return fail_rhs(r, rc, "event location");
+    }
+    *t_io = u[k];
+    memcpy(y_io, u, sizeof u);
+    y_io[k] = target;
+    return PLUMB_OK;
+}
+
+/* Apex inside the step from (t0, y0) to the current state: vz changed sign. */
+static plumb_status locate_apex(runner *r, double t0, const double y0[])
+{
+    double t = t0, y[NSTATE];
+    memcpy(y, y0, sizeof y);
+    plumb_status st = henon_to(r, IVZ, 0.0, &t, y);
+    if (st != PLUMB_OK)
+        return st;
+    if (y[IZ] > r->res->apex_m)
+        r->res->apex_m = y[IZ];
+    return PLUMB_OK;
+}
+
+/* The step from (t0, y0) crossed z_event: make sure the object descends at
+ * the start of the Henon phase, halving the step (of size h) where it
+ * does not. */
+static plumb_status descend_start(runner *r, double *t0, double y0[], double h, double z_event)
+{
+    for (int n = 0; y0[IVZ] >= 0.0 && n < MAX_HALVINGS; n++) {
+        double y[NSTATE], err[NSTATE];
+        h *= 0.5;
+        memcpy(y, y0, sizeof y);
+        gsl_odeiv2_step_reset(r->w->side_step);
+        int rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, NULL, NULL, &r->sys);
+        if (rc != GSL_SUCCESS)
+            return fail_rhs(r, rc, "ODE step");
+        if (y[IZ] > z_event) {
+            if (y0[IVZ] > 0.0 && y[IVZ] <= 0.0) {
+                plumb_status st = locate_apex(r, *t0, y0);
+                if (st != PLUMB_OK)
+                    return st;
+            }
+            *t0 += h;
+            memcpy(y0, y, sizeof y);
+        }
+    }
+    if (y0[IVZ] >= 0.0)
+        return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC, "could not locate the crossing of z=%.3f m at t=%.2f s", z_event, *t0);
+    return PLUMB_OK;
+}
+
+static void deploy(runner *r, size_t i)
+{
+    const plumb_descent_spec *d = &r->ctx.spec->descent[i];
+    device_state *ds = &r->ctx.dev[i];
+    local L;
+    ds->deployed = 1;
+    ds->t_ls_s = r->t;
+    ds->cds_m2 = d->cd * d->area_m2;
+    double v_ls = 0.0;
+    if (local_at(&r->ctx, r->t, r->y, &L) == GSL_SUCCESS)
+        v_ls = L.vr_abs;
+    ds->fill_s = d->fill_constant > 0.0 && v_ls > 0.0 ? d->fill_constant * d->diameter_m / v_ls
+                                                      : d->fill_time_s;
+    if (d->disreefs_previous && i > 0)
+        r->ctx.dev[i - 1].removed = 1;
+    size_t k = r->res->n_deployed++;
+    r->res->deploy_time_s[k] = r->t;
+    r->res->deploy_height_m[k] = r->y[IZ];
+    r->res->deploy_speed_m_s[k] = v_ls;
+}
+
+/* Next time at which the right-hand side changes form: a timed deployment
+ * or the end of a filling. */
+static double next_time_event(const runner *r)
+{
+    double next = r->w->opt.max_time_s;
+    const plumb_fall_spec *s = r->ctx.spec;
+    for (size_t i = 0; i < s->n_descent; i++) {
+        const device_state *d = &r->ctx.dev[i];
+        if (!d->deployed) {
+            if (s->descent[i].trigger == PLUMB_DEPLOY_AFTER && s->descent[i].deploy_value < next)
+                next = s->descent[i].deploy_value;
+        } else if (d->t_ls_s + d->fill_s > r->t && d->t_ls_s + d->fill_s < next) {
+            next = d->t_ls_s + d->fill_s;
+        }
+    }
+    return next;
+}
+
+/* Highest pending height event below the object: a `below` trigger or 0. */
+static double next_height_event(const runner *r, size_t *device)
+{
+    double z = 0.0;
+    *device = (size_t)-1;
+    const plumb_fall_spec *s = r->ctx.spec;
+    for (size_t i = 0; i < s->n_descent; i++)
+        if (!r->ctx.dev[i].deployed && s->descent[i].trigger == PLUMB_DEPLOY_BELOW &&
+            s->descent[i].deploy_value > z && s->descent[i].deploy_value < r->y[IZ]) {
+            z = s->descent[i].deploy_value;
+            *device = i;
+        }
+    return z;
+}
+
+static plumb_status finish(runner *r, const plumb_atmosphere *atm)
+{
+    const plumb_fall_spec *s = r->ctx.spec;
+    plumb_fall_result *res = r->res;
+    const double *v = &r->y[IVX];
+    res->time_s = r->t;
+    res->point_m[0] = r->y[IX];
+    res->point_m[1] = r->y[IY];
+    memcpy(res->velocity_m_s, v, 3 * sizeof *v);
+    double vh = hypot(v[0], v[1]);
+    res->speed_m_s = sqrt(v[0] * v[0] + v[1] * v[1] + v[2] * v[2]);
+    res->energy_j = 0.5 * s->mass_kg * res->speed_m_s * res->speed_m_s;
+    res->momentum_kg_m_s = s->mass_kg * res->speed_m_s;
+    res->angle_deg = atan2(-v[2], vh) * 180.0 / PLUMB_PI;
+    double dx = r->y[IX] - s->release_m[0], dy = r->y[IY] - s->release_m[1];
+    res->drift_m = hypot(dx, dy);
+    double b = atan2(dx, dy) * 180.0 / PLUMB_PI;
+    res->bearing_deg = res->drift_m > 0.0 ? (b < 0.0 ? b + 360.0 : b) : 0.0;
+    res->drag_work_j = r->y[IW];
+    /* Vacuum figures: gravity is linear in altitude, so its mean over the
+     * drop is its value at mid-height, exactly. */
+    double H = s->release_m[2];
+    double g_mid = plumb_gravity_at(&s->gravity, s->site_elevation_m + 0.5 * H);
+    const double *v0 = s->velocity_m_s;
+    double v0sq = v0[0] * v0[0] + v0[1] * v0[1] + v0[2] * v0[2];
+    res->drag_free_speed_m_s = sqrt(v0sq + 2.0 * g_mid * H);
+    res->drag_free_energy_j = 0.5 * s->mass_kg * v0sq + s->mass_kg * g_mid * H;
+    double vt = 0.0;
+    if (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)
+        if (plumb_terminal_speed(s, atm, 0.0, 0, &vt) != PLUMB_OK)
+            vt = 0.0;
+    res->terminal_speed_m_s = vt;
+    double vs = vt;
+    if (s->n_descent && plumb_terminal_speed(s, atm, 0.0, 1, &vs) != PLUMB_OK)
+        vs = 0.0;
+    res->steady_speed_m_s = vs;
+    res->peak_load_g = res->peak_force_n / (s->mass_kg * PLUMB_G0_M_S2);
+    res->solver.steps = r->steps;
+    res->solver.rhs_evaluations = r->ctx.evals;
+    res->solver.method = gsl_odeiv2_step_name(r->step);
+    return PLUMB_OK;
+}
+
+plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *spec,
+                                  const plumb_atmosphere *atm, plumb_fall_result *res,
+                                  plumb_diag *diag)
+{
+    plumb_status st = check_spec(spec, diag);
+    if (st != PLUMB_OK)
+        return st;
+    memset(res, 0, sizeof *res);
+    runner r = {.w = w, .res = res, .diag = diag};
+    r.ctx.spec = spec;
+    r.ctx.atm = atm;
+    r.ctx.inv_m = 1.0 / spec->mass_kg;
+    r.ctx.body_cda_m2 = body_cda(&spec->drag);
+    r.ctx.sphere = spec->drag.model != PLUMB_DRAG_FIXED;
+    r.ctx.n_dev = spec->n_descent;
+    r.sys = (gsl_odeiv2_system){rhs_time, jac_time, NSTATE, &r.ctx};
+    w->path_n = 0;
+
+    plumb_stepper kind = w->opt.stepper;
+    double vt = 0.0;
+    if (kind == PLUMB_STEPPER_AUTO) {
+        kind = PLUMB_STEPPER_RK8PD;
+        double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
+        if (spec->n_descent == 0 && plumb_terminal_speed(spec, atm, 0.0, 0, &vt) == PLUMB_OK &&
+            2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio)
+            kind = PLUMB_STEPPER_MSBDF;
+    }
+    r.step = w->step[kind == PLUMB_STEPPER_RKF45 ? 1 : kind == PLUMB_STEPPER_MSBDF ? 2 : 0];
+
+    memcpy(r.y, spec->release_m, 3 * sizeof(double));
+    memcpy(&r.y[IVX], spec->velocity_m_s, 3 * sizeof(double));
+    r.y[IW] = 0.0;
+    r.t = 0.0;
+    r.h = w->opt.first_step_s;
+    res->apex_m = r.y[IZ];
+    /* The highest the object could rise without drag, for buoyancy detection. */
+    double g0 = plumb_gravity_at(&spec->gravity, spec->site_elevation_m + r.y[IZ]);
+    double rise_cap = r.y[IZ] + (r.y[IVZ] > 0.0 ? r.y[IVZ] * r.y[IVZ] / (2.0 * g0) : 0.0) + RISE_MARGIN_M;
+
+    gsl_odeiv2_evolve_reset(w->evolve);
+    gsl_odeiv2_step_reset(r.step);
+    /* Deployments due at release. */
+    for (size_t i = 0; i < spec->n_descent; i++)
+        if (spec->descent[i].trigger == PLUMB_DEPLOY_AFTER && spec->descent[i].deploy_value == 0.0)
+            deploy(&r, i);
+    if ((st = observe(&r)) != PLUMB_OK)
+        return st;
+
+    for (;;) {
+        size_t dev;
+        double z_event = next_height_event(&r, &dev);
+        double t_event = next_time_event(&r);
+        double t0 = r.t, y0[NSTATE];
+        memcpy(y0, r.y, sizeof y0);
+        if (r.steps >= w->opt.max_steps)
+            return PLUMB_RAISE(diag, PLUMB_EBUDGET,
+                               "the fall ran past its budget of %zu steps at t=%.2f s, z=%.2f m",
+                               w->opt.max_steps, r.t, r.y[IZ]);
+        r.ctx.fail = PLUMB_OK;
+        int rc = gsl_odeiv2_evolve_apply(w->evolve, w->control, r.step, &r.sys, &r.t, t_event, &r.h, r.y);
+        if (rc != GSL_SUCCESS)
+            return fail_rhs(&r, rc, "ODE step");
+        r.steps++;
+        if (r.y[IZ] <= z_event) {
+            /* Crossed a height event inside this step: undo it, then Henon. */
+            double h_used = r.t - t0, tt = t0, yy[NSTATE];
+            r.t = t0;
+            memcpy(r.y, y0, sizeof y0);
+            memcpy(yy, y0, sizeof yy);
+            st = descend_start(&r, &tt, yy, h_used, z_event);
+            if (st != PLUMB_OK)
+                return st;
+            st = henon_to(&r, IZ, z_event, &tt, yy);
+            if (st != PLUMB_OK)
+                return st;
+            r.t = tt;
+            memcpy(r.y, yy, sizeof yy);
+            if ((st = observe(&r)) != PLUMB_OK)
+                return st;
+            if (z_event == 0.0)
+                return finish(&r, atm);
+            deploy(&r, dev);
+            gsl_odeiv2_evolve_reset(w->evolve);
+            gsl_odeiv2_step_reset(r.step);
+            continue;
+        }
+        if (y0[IVZ] > 0.0 && r.y[IVZ] <= 0.0 && (st = locate_apex(&r, t0, y0)) != PLUMB_OK)
+            return st;
+        if ((st = observe(&r)) != PLUMB_OK)
+            return st;
+        if (r.y[IZ] > rise_cap && r.y[IVZ] > 0.0)
+            return PLUMB_RAISE(diag, PLUMB_ENOLAND,
+                               "the object never reaches the strike level: it rises to %.1f m at t=%.2f s "
+                               "(buoyancy exceeds its weight)", r.y[IZ], r.t);
+        if (r.t >= t_event) {
+            if (t_event >= w->opt.max_time_s)
+                return PLUMB_RAISE(diag, PLUMB_EBUDGET,
+                                   "the fall did not end within its time budget of %g s (z=%.2f m)",
+                                   w->opt.max_time_s, r.y[IZ]);
+            for (size_t i = 0; i < spec->n_descent; i++)
+                if (!r.ctx.dev[i].deployed && spec->descent[i].trigger == PLUMB_DEPLOY_AFTER &&
+                    spec->descent[i].deploy_value <= r.t)
+                    deploy(&r, i);
+            gsl_odeiv2_evolve_reset(w->evolve);
+            gsl_odeiv2_step_reset(r.step);
+        }
+    }
+}

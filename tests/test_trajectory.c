@@ -1,0 +1,501 @@
+/*
+ * test_trajectory.c - the fall integrator against closed forms.
+ *
+ * Sources:
+ *  - Vertical fall with quadratic drag in constant air (shared/references.md,
+ *    "Closed forms"; any mechanics text, e.g. Marion & Thornton, Classical
+ *    Dynamics, sec. 2.4):
+ *      v_t = sqrt(2 m g / (rho CdA)),  v(y) = v_t sqrt(1 - exp(-2 g y / v_t^2)),
+ *      y(t) = (v_t^2 / g) ln cosh(g t / v_t).
+ *  - Drag-free projectile: v = sqrt(v0^2 + 2 g H), E = m g H (+ 1/2 m v0^2),
+ *    horizontal range x = v0 sqrt(2 H / g), apex H + v0z^2 / (2 g).
+ *  - Work-energy theorem: the mechanical energy lost equals the work done by
+ *    drag, integrated alongside the motion.
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <setjmp.h>
+#include <stdint.h>
+#include <string.h>
+#include <cmocka.h>
+
+#include "plumb/plumb.h"
+#include "plumb_test.h"
+
+/* Constant air: a density table with equal rows and a temperature column,
+ * so rho is the same at every altitude (linear in ln rho). */
+static const double const_alt_m[2] = {-1000.0, 30000.0};
+static const double const_rho[2] = {1.2041, 1.2041};
+static const double const_t_k[2] = {293.15, 293.15};
+
+static plumb_atmosphere *constant_air(void)
+{
+    plumb_atm_spec a;
+    plumb_atm_spec_init(&a);
+    a.model = PLUMB_ATM_TABLE;
+    a.table_n = 2;
+    a.table_alt_m = const_alt_m;
+    a.table_rho_kg_m3 = const_rho;
+    a.table_t_k = const_t_k;
+    plumb_atmosphere *atm = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
+    return atm;
+}
+
+static plumb_atmosphere *std_air(double dt_k)
+{
+    plumb_atm_spec a;
+    plumb_atm_spec_init(&a);
+    a.temperature_offset_k = dt_k;
+    plumb_atmosphere *atm = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
+    return atm;
+}
+
+static void base_spec(plumb_fall_spec *s, double mass_kg, double cda_m2, double h_m)
+{
+    memset(s, 0, sizeof *s);
+    s->mass_kg = mass_kg;
+    s->drag.model = PLUMB_DRAG_FIXED;
+    s->drag.cd_area_m2 = cda_m2;
+    s->release_m[2] = h_m;
+    plumb_wind_spec_init(&s->wind);
+}
+
+static plumb_trajectory *workspace(void)
+{
+    plumb_trajectory *t = NULL;
+    assert_int_equal(plumb_trajectory_alloc(NULL, &t), PLUMB_OK);
+    return t;
+}
+
+/* t(y) for the quadratic-drag fall from rest: inverse of y(t), written to
+ * avoid overflow: acosh(e^a) = a + ln(1 + sqrt(1 - e^-2a)). */
+static double closed_time(double y, double vt, double g)
+{
+    double a = g * y / (vt * vt);
+    return vt / g * (a + log1p(sqrt(-expm1(-2.0 * a))));
+}
+
+static void test_vertical_fall_matches_closed_form_in_constant_air(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = constant_air();
+    plumb_trajectory *w = workspace();
+    const double heights[] = {0.5, 3.7, 31.4, 247.0, 2000.0};
+    const double vts[] = {5.0, 23.7, 61.3, 150.0};
+    const double g = PLUMB_G0_M_S2, m = 2.385, rho = const_rho[0];
+    for (size_t i = 0; i < sizeof heights / sizeof *heights; i++) {
+        for (size_t j = 0; j < sizeof vts / sizeof *vts; j++) {
+            double H = heights[i], vt = vts[j];
+            plumb_fall_spec s;
+            base_spec(&s, m, 2.0 * m * g / (rho * vt * vt), H);
+            plumb_fall_result r;
+            plumb_diag d;
+            assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+            double v_want = vt * sqrt(-expm1(-2.0 * g * H / (vt * vt)));
+            assert_rel(r.speed_m_s, v_want, 1e-9);
+            assert_rel(r.time_s, closed_time(H, vt, g), 1e-9);
+            assert_rel(r.terminal_speed_m_s, vt, 1e-12);
+            assert_abs(r.drift_m, 0.0, 1e-12);
+            assert_rel(r.angle_deg, 90.0, 1e-12);
+        }
+    }
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_drag_free_fall_gives_vacuum_speed_energy_and_range(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 0.731, H = 43.7, v0 = 3.85;
+    plumb_fall_spec s;
+    base_spec(&s, m, 0.0, H);
+    s.drag.cd = 0.0;
+    s.drag.area_m2 = 0.0183; /* cd: 0 is the explicit drag-free case */
+    s.velocity_m_s[0] = v0;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    double t_fall = sqrt(2.0 * H / g);
+    assert_rel(r.time_s, t_fall, 1e-12);
+    assert_rel(r.point_m[0], v0 * t_fall, 1e-12);
+    assert_abs(r.point_m[1], 0.0, 1e-12);
+    assert_rel(r.speed_m_s, sqrt(v0 * v0 + 2.0 * g * H), 1e-12);
+    assert_rel(r.energy_j, 0.5 * m * v0 * v0 + m * g * H, 1e-12);
+    assert_rel(r.drag_free_speed_m_s, sqrt(v0 * v0 + 2.0 * g * H), 1e-15);
+    assert_rel(r.drag_free_energy_j, 0.5 * m * v0 * v0 + m * g * H, 1e-15);
+    assert_rel(r.bearing_deg, 90.0, 1e-12);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_drag_free_vertical_drop_reproduces_sqrt_2gh_and_mgh(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 2.385;
+    const double heights[] = {0.5, 7.3, 61.0, 1830.0};
+    for (size_t i = 0; i < sizeof heights / sizeof *heights; i++) {
+        plumb_fall_spec s;
+        base_spec(&s, m, 0.0, heights[i]);
+        plumb_fall_result r;
+        plumb_diag d;
+        assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+        assert_rel(r.speed_m_s, sqrt(2.0 * g * heights[i]), 1e-12);
+        assert_rel(r.energy_j, m * g * heights[i], 1e-12);
+    }
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_drag_free_upward_throw_reaches_the_ballistic_apex(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, H = 12.5, v0z = 7.9;
+    plumb_fall_spec s;
+    base_spec(&s, 0.412, 0.0, H);
+    s.velocity_m_s[2] = v0z;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_rel(r.apex_m, H + v0z * v0z / (2.0 * g), 1e-12);
+    double t_fall = (v0z + sqrt(v0z * v0z + 2.0 * g * H)) / g;
+    assert_rel(r.time_s, t_fall, 1e-12);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_mechanical_energy_lost_equals_drag_work(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(12.0);
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 1.137, H = 87.3;
+    plumb_fall_spec s;
+    base_spec(&s, m, 0.0, H);
+    s.drag.cd = 0.93;
+    s.drag.area_m2 = 0.0127;
+    s.site_elevation_m = 640.0;
+    s.velocity_m_s[0] = 1.3;
+    s.velocity_m_s[1] = -0.7;
+    s.velocity_m_s[2] = 2.1;
+    s.wind.profile = PLUMB_WIND_POWER;
+    s.wind.speed_m_s = 7.4;
+    s.wind.from_deg = 250.0;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    const double *v0 = s.velocity_m_s;
+    double e0 = 0.5 * m * (v0[0] * v0[0] + v0[1] * v0[1] + v0[2] * v0[2]) + m * g * H;
+    double e1 = r.energy_j;
+    assert_true(r.drag_work_j < 0.0);
+    assert_rel(e1 - e0, r.drag_work_j, 1e-8);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_wind_from_270_degrees_carries_the_object_east(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 0.52, 0.0, 40.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.02;
+    s.wind.speed_m_s = 8.0;
+    s.wind.from_deg = 270.0;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_true(r.point_m[0] > 1.0);
+    assert_abs(r.point_m[1], 0.0, 1e-9 * r.point_m[0]);
+    assert_rel(r.bearing_deg, 90.0, 1e-9);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_power_law_with_exponent_zero_equals_uniform_wind(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 0.52, 0.0, 75.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.02;
+    s.wind.speed_m_s = 6.3;
+    s.wind.from_deg = 137.0;
+    plumb_fall_result a, b;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &a, &d), PLUMB_OK);
+    s.wind.profile = PLUMB_WIND_POWER;
+    s.wind.exponent = 0.0;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &b, &d), PLUMB_OK);
+    assert_rel(b.point_m[0], a.point_m[0], 1e-14);
+    assert_rel(b.point_m[1], a.point_m[1], 1e-14);
+    assert_rel(b.speed_m_s, a.speed_m_s, 1e-14);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_impact_point_agrees_with_a_much_tighter_run(void **state)
+{
+    (void)state;
+    /* Henon's method puts the impact at z = 0 exactly, whatever the step. */
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace(), *tight = NULL;
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.rel_tol = 1e-13;
+    o.abs_tol = 1e-13;
+    assert_int_equal(plumb_trajectory_alloc(&o, &tight), PLUMB_OK);
+    plumb_fall_spec s;
+    base_spec(&s, 0.5, 0.0, 120.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.02;
+    s.velocity_m_s[1] = 10.0;
+    s.wind.profile = PLUMB_WIND_POWER;
+    s.wind.speed_m_s = 8.0;
+    s.wind.from_deg = 270.0;
+    s.wind.exponent = 1.0 / 7.0;
+    plumb_fall_result a, b;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &a, &d), PLUMB_OK);
+    assert_int_equal(plumb_trajectory_run(tight, &s, atm, &b, &d), PLUMB_OK);
+    assert_rel(a.time_s, b.time_s, 1e-9);
+    assert_rel(a.speed_m_s, b.speed_m_s, 1e-9);
+    assert_rel(a.drift_m, b.drift_m, 1e-9);
+    plumb_trajectory_free(tight);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_parachute_descends_at_body_plus_canopy_terminal_speed(void **state)
+{
+    (void)state;
+    /* Closed-form terminal speed with CdA = body + canopy (shared/references.md). */
+    plumb_atmosphere *atm = constant_air();
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 2.07, rho = const_rho[0];
+    plumb_fall_spec s;
+    base_spec(&s, m, 0.0, 400.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.0213;
+    s.n_descent = 1;
+    s.descent[0].kind = PLUMB_DESCENT_PARACHUTE;
+    s.descent[0].cd = 0.8;
+    s.descent[0].area_m2 = 1.23;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = 1.5;
+    s.descent[0].fill_time_s = 0.8;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    double vs = sqrt(2.0 * m * g / (rho * (0.0213 + 0.8 * 1.23)));
+    assert_rel(r.steady_speed_m_s, vs, 1e-12);
+    assert_rel(r.speed_m_s, vs, 1e-9);
+    assert_int_equal(r.n_deployed, 1);
+    assert_rel(r.deploy_time_s[0], 1.5, 1e-15);
+    /* the opening load lies above the steady drag (= weight) */
+    assert_true(r.peak_force_n > m * g);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_deploy_below_a_height_opens_exactly_there(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 1.5, 0.0, 150.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.02;
+    s.n_descent = 1;
+    s.descent[0].cd = 0.75;
+    s.descent[0].area_m2 = 0.9;
+    s.descent[0].trigger = PLUMB_DEPLOY_BELOW;
+    s.descent[0].deploy_value = 60.0;
+    s.descent[0].fill_time_s = 0.5;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_int_equal(r.n_deployed, 1);
+    assert_rel(r.deploy_height_m[0], 60.0, 1e-12);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_invalid_specs_are_refused(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    plumb_fall_result r;
+    plumb_diag d;
+    base_spec(&s, 0.0, 0.01, 10.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "payload.mass");
+    base_spec(&s, 1.0, 0.01, -2.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "release.height");
+    base_spec(&s, 1.0, 0.0, 10.0);
+    s.drag.cd = 11.0;
+    s.drag.area_m2 = 0.01;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EINVAL);
+    base_spec(&s, 1.0, 0.01, 10.0);
+    s.velocity_m_s[0] = NAN;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EINVAL);
+    base_spec(&s, 1.0, 0.01, 10.0);
+    s.n_descent = 1;
+    s.descent[0].cd = 0.8;
+    s.descent[0].area_m2 = 1.0;
+    s.descent[0].trigger = PLUMB_DEPLOY_BELOW;
+    s.descent[0].deploy_value = 12.0; /* above the release height */
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EINVAL);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_buoyant_object_never_lands_and_says_so(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 0.010, 0.0, 20.0);
+    s.drag.cd = 0.47;
+    s.drag.area_m2 = 0.05;
+    s.volume_m3 = 0.0167; /* a helium-light balloon: rho V = 0.0204 kg > 0.010 kg */
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_ENOLAND);
+    assert_non_null(strstr(d.message, "never reaches"));
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_step_and_time_budgets_are_errors_not_numbers(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.max_steps = 3;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    plumb_fall_spec s;
+    base_spec(&s, 0.01, 0.01, 500.0);
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EBUDGET);
+    plumb_trajectory_free(w);
+    plumb_trajectory_options_init(&o);
+    o.max_time_s = 2.0;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EBUDGET);
+    assert_non_null(strstr(d.message, "time budget"));
+    plumb_trajectory_free(w);
+    plumb_trajectory_options_init(&o);
+    o.rel_tol = 0.0;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_EINVAL);
+    assert_null(w);
+    plumb_trajectory_free(NULL);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_path_outside_the_atmosphere_is_a_range_error(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 1.0, 0.01, 1000.0);
+    s.site_elevation_m = 85500.0; /* release at 86.5 km */
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_ERANGE);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_recorded_path_starts_at_release_and_ends_on_the_ground(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.record_path = 1;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    plumb_fall_spec s;
+    base_spec(&s, 2.4, 0.005, 30.0);
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    size_t n = 0;
+    const plumb_path_point *p = plumb_trajectory_path(w, &n);
+    assert_true(n >= 2);
+    assert_rel(p[0].z_m, 30.0, 0.0);
+    assert_abs(p[n - 1].z_m, 0.0, 0.0);
+    assert_rel(p[n - 1].t_s, r.time_s, 0.0);
+    assert_true(r.solver.rhs_evaluations > 0 && r.solver.steps > 0);
+    assert_string_equal(r.solver.method, "rk8pd");
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_sphere_terminal_speed_balances_weight_and_morrison_drag(void **state)
+{
+    (void)state;
+    /* A rigid 1 mm water sphere: at v_t, 1/2 rho Cd(Re) A v^2 = m g. */
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_fall_spec s;
+    double dmm = 1.0e-3;
+    base_spec(&s, 998.2 * PLUMB_PI * dmm * dmm * dmm / 6.0, 0.0, 10.0);
+    s.drag.model = PLUMB_DRAG_SPHERE_MORRISON;
+    s.drag.diameter_m = dmm;
+    s.drag.area_m2 = PLUMB_PI * dmm * dmm / 4.0;
+    double vt = 0.0;
+    assert_int_equal(plumb_terminal_speed(&s, atm, 0.0, 0, &vt), PLUMB_OK);
+    plumb_air air;
+    assert_int_equal(plumb_atmosphere_at(atm, 0.0, &air), PLUMB_OK);
+    double re = air.rho_kg_m3 * vt * dmm / air.mu_pa_s;
+    double drag = 0.5 * air.rho_kg_m3 * plumb_drag_sphere_morrison(re) * s.drag.area_m2 * vt * vt;
+    assert_rel(drag, s.mass_kg * PLUMB_G0_M_S2, 1e-10);
+    plumb_atmosphere_free(atm);
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_vertical_fall_matches_closed_form_in_constant_air),
+        cmocka_unit_test(test_drag_free_fall_gives_vacuum_speed_energy_and_range),
+        cmocka_unit_test(test_drag_free_vertical_drop_reproduces_sqrt_2gh_and_mgh),
+        cmocka_unit_test(test_drag_free_upward_throw_reaches_the_ballistic_apex),
+        cmocka_unit_test(test_mechanical_energy_lost_equals_drag_work),
+        cmocka_unit_test(test_wind_from_270_degrees_carries_the_object_east),
+        cmocka_unit_test(test_power_law_with_exponent_zero_equals_uniform_wind),
+        cmocka_unit_test(test_impact_point_agrees_with_a_much_tighter_run),
+        cmocka_unit_test(test_parachute_descends_at_body_plus_canopy_terminal_speed),
+        cmocka_unit_test(test_deploy_below_a_height_opens_exactly_there),
+        cmocka_unit_test(test_invalid_specs_are_refused),
+        cmocka_unit_test(test_buoyant_object_never_lands_and_says_so),
+        cmocka_unit_test(test_step_and_time_budgets_are_errors_not_numbers),
+        cmocka_unit_test(test_path_outside_the_atmosphere_is_a_range_error),
+        cmocka_unit_test(test_recorded_path_starts_at_release_and_ends_on_the_ground),
+        cmocka_unit_test(test_sphere_terminal_speed_balances_weight_and_morrison_drag),
+    };
+    return cmocka_run_group_tests(tests, plumbt_setup_gsl, NULL);
+}
