@@ -1,0 +1,74 @@
+/*
+ * plumb/inverse.h - inverse answers: the value of one input at which a
+ * limit on the fall is just met ("how high is too high", "how big a
+ * canopy", "how much wind").
+ *
+ * Method: f(x) = metric(fall at x) - limit. Starting from the profile's
+ * own value, the key is stepped geometrically up and down inside its
+ * physical range until f changes sign (bracketing), then Brent's method
+ * (GSL gsl_root_fsolver_brent; R. P. Brent, Algorithms for Minimization
+ * without Derivatives, 1973) narrows the bracket to rel_tol. Each
+ * evaluation is a full fall of the profile derived with KEY set to x, so
+ * the answer is exactly what `plumb fall --set KEY=x` gives.
+ * Where no value in the range meets the limit the result says why in
+ * words (unlimited, or impossible even at the edge of the range).
+ *
+ * Ownership: everything is borrowed for the call; the result is plain data.
+ */
+#ifndef PLUMB_INVERSE_H
+#define PLUMB_INVERSE_H
+
+#include <stddef.h>
+#include "plumb/error.h"
+#include "plumb/units.h"
+#include "plumb/profile.h"
+#include "plumb/trajectory.h"
+#include "plumb/atmosphere.h"
+
+typedef enum plumb_metric {
+    PLUMB_METRIC_ENERGY = 0,   /* impact energy, J */
+    PLUMB_METRIC_SPEED,        /* impact speed, m/s */
+    PLUMB_METRIC_DRIFT         /* horizontal drift, m */
+} plumb_metric;
+
+typedef enum plumb_limit_outcome {
+    PLUMB_LIMIT_FOUND = 0,     /* value is where the limit is just met */
+    PLUMB_LIMIT_UNLIMITED,     /* the limit is met everywhere in the range */
+    PLUMB_LIMIT_IMPOSSIBLE     /* the limit is broken everywhere in the range */
+} plumb_limit_outcome;
+
+typedef struct plumb_limit_options {
+    double rel_tol;            /* relative tolerance on the key's value, default 1e-10 */
+    size_t max_evaluations;    /* falls allowed in all, default 200 */
+} plumb_limit_options;
+
+enum { PLUMB_LIMIT_TEXT = 512 };
+
+typedef struct plumb_limit_result {
+    plumb_limit_outcome outcome;  /* found, unlimited or impossible */
+    double value_si;              /* the key's value where the limit is met (found), SI unit of its dimension */
+    plumb_dim dim;                /* the key's dimension */
+    double metric_at_value;       /* the metric there (found) */
+    double base_value_si;         /* the profile's own value of the key */
+    double metric_at_base;        /* the metric at the profile's own value */
+    int increasing;               /* 1: the metric grows with the key near the answer */
+    int limit_is_upper_bound;     /* 1: values below value_si meet the limit */
+    size_t evaluations;           /* falls computed */
+    char explanation[PLUMB_LIMIT_TEXT]; /* why, in words (every outcome) */
+} plumb_limit_result;
+
+/* Defaults as documented on each field. Can't fail. */
+void plumb_limit_options_init(plumb_limit_options *opt);
+
+/* Finds the value of `key` (a numeric profile key; for an inventory the
+ * item's own key, e.g. "payload.mass" means items[item].mass) at which
+ * `metric` of item `item` equals `limit` (in the metric's SI unit).
+ * PLUMB_EKEY / PLUMB_EINVAL for a key that is unknown or not numeric;
+ * PLUMB_ENUMERIC when a fall fails. An unlimited or impossible answer is
+ * PLUMB_OK with the outcome and explanation set. */
+plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
+                               size_t item, const char *key, plumb_metric metric, double limit,
+                               const plumb_limit_options *opt, plumb_trajectory *traj,
+                               plumb_limit_result *res, plumb_diag *diag);
+
+#endif /* PLUMB_INVERSE_H */
