@@ -1,0 +1,142 @@
+/*
+ * wind.c - horizontal wind by height above the strike level (plumb/wind.h).
+ *
+ * Direction: meteorological convention (WMO-No. 8, Guide to Instruments and
+ * Methods of Observation): `from` is where the wind blows from, clockwise
+ * from north, so the air moves toward from + 180 deg:
+ *     (east, north) = -s (sin from, cos from).
+ * Speed profiles:
+ *   power  s = s_ref (z / z_ref)^alpha (Hellmann power law; alpha = 1/7 for
+ *          neutral air over open land is common practice)
+ *   log    s = s_ref ln(z / z0) / ln(z_ref / z0) for z > z0, else 0 (the
+ *          neutral logarithmic surface layer u = (u_star / kappa) ln(z / z0),
+ *          with u_star / kappa fixed by s_ref at z_ref; z0 by the
+ *          Davenport-Wieringa roughness classes)
+ *   table  east and north components linear in height, held beyond the ends.
+ * Every profile is calm at and below z = 0.
+ *
+ * plumb_wind_at is called at every right-hand side of the equation of motion:
+ * it allocates nothing and keeps no state (the spec is plain data). It takes
+ * one sin/cos pair per call for the direction; a caller that needs more
+ * speed can cache plumb_wind_components(1, from) and scale it.
+ */
+#include <math.h>
+#include <string.h>
+
+#include "plumb/wind.h"
+
+/* Degrees to radians. */
+#define WIND_RAD_PER_DEG (3.14159265358979323846 / 180.0)
+/* Defaults: anemometer height 10 m (WMO-No. 8 standard exposure); power-law
+ * exponent 1/7 (common practice for neutral air over open land); roughness
+ * length 0.03 m (Davenport-Wieringa class "open"). */
+#define WIND_DEFAULT_REF_HEIGHT_M 10.0
+#define WIND_DEFAULT_EXPONENT (1.0 / 7.0)
+#define WIND_DEFAULT_ROUGHNESS_M 0.03
+
+/* sin and cos of an angle in degrees, reduced to +-45 deg around the nearest
+ * multiple of 90 deg first, so that the cardinal directions are exact. */
+static void sincos_deg(double deg, double *s, double *c)
+{
+    if (!isfinite(deg)) {
+        *s = *c = NAN;
+        return;
+    }
+    double q = nearbyint(deg / 90.0);
+    double r = (deg - 90.0 * q) * WIND_RAD_PER_DEG;
+    double sr = sin(r), cr = cos(r);
+    int quadrant = (int)fmod(q, 4.0);
+    if (quadrant < 0)
+        quadrant += 4;
+    switch (quadrant) {
+    case 0: *s = sr; *c = cr; break;
+    case 1: *s = cr; *c = -sr; break;
+    case 2: *s = -sr; *c = -cr; break;
+    default: *s = -cr; *c = sr; break;
+    }
+}
+
+void plumb_wind_components(double speed_m_s, double from_deg, double *east_m_s,
+                           double *north_m_s)
+{
+    double s, c;
+    sincos_deg(from_deg, &s, &c);
+    /* + 0.0 turns a -0 (e.g. the north component of a west wind) into +0. */
+    *east_m_s = -speed_m_s * s + 0.0;
+    *north_m_s = -speed_m_s * c + 0.0;
+}
+
+void plumb_wind_spec_init(plumb_wind_spec *spec)
+{
+    memset(spec, 0, sizeof *spec);
+    spec->profile = PLUMB_WIND_UNIFORM;
+    spec->speed_m_s = 0.0;
+    spec->from_deg = 0.0;
+    spec->ref_height_m = WIND_DEFAULT_REF_HEIGHT_M;
+    spec->exponent = WIND_DEFAULT_EXPONENT;
+    spec->roughness_m = WIND_DEFAULT_ROUGHNESS_M;
+    spec->table_n = 0;
+    spec->table_h_m = NULL;
+    spec->table_east_m_s = NULL;
+    spec->table_north_m_s = NULL;
+}
+
+/* Table components at z: linear between rows, held beyond the ends. The
+ * rows are searched by bisection (heights increasing). */
+static void table_at(const plumb_wind_spec *w, double z_m, double *east, double *north)
+{
+    const double *h = w->table_h_m;
+    size_t n = w->table_n;
+    if (z_m <= h[0]) {
+        *east = w->table_east_m_s[0];
+        *north = w->table_north_m_s[0];
+        return;
+    }
+    if (z_m >= h[n - 1]) {
+        *east = w->table_east_m_s[n - 1];
+        *north = w->table_north_m_s[n - 1];
+        return;
+    }
+    size_t lo = 0, hi = n - 1; /* h[lo] < z < h[hi] */
+    while (hi - lo > 1) {
+        size_t mid = lo + (hi - lo) / 2;
+        if (h[mid] <= z_m)
+            lo = mid;
+        else
+            hi = mid;
+    }
+    double f = (z_m - h[lo]) / (h[hi] - h[lo]);
+    *east = w->table_east_m_s[lo] + f * (w->table_east_m_s[hi] - w->table_east_m_s[lo]);
+    *north = w->table_north_m_s[lo] + f * (w->table_north_m_s[hi] - w->table_north_m_s[lo]);
+}
+
+void plumb_wind_at(const plumb_wind_spec *spec, double z_m, double *east_m_s, double *north_m_s)
+{
+    *east_m_s = 0.0;
+    *north_m_s = 0.0;
+    if (!(z_m > 0.0)) /* calm at and below the strike level (and for NaN) */
+        return;
+    double s;
+    switch (spec->profile) {
+    case PLUMB_WIND_UNIFORM:
+        s = spec->speed_m_s;
+        break;
+    case PLUMB_WIND_POWER:
+        s = spec->speed_m_s * pow(z_m / spec->ref_height_m, spec->exponent);
+        break;
+    case PLUMB_WIND_LOG:
+        if (!(z_m > spec->roughness_m))
+            return;
+        s = spec->speed_m_s * log(z_m / spec->roughness_m) /
+            log(spec->ref_height_m / spec->roughness_m);
+        break;
+    case PLUMB_WIND_TABLE:
+        if (spec->table_n > 0 && spec->table_h_m && spec->table_east_m_s &&
+            spec->table_north_m_s)
+            table_at(spec, z_m, east_m_s, north_m_s);
+        return;
+    default:
+        return;
+    }
+    plumb_wind_components(s, spec->from_deg, east_m_s, north_m_s);
+}
