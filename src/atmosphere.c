@@ -286,10 +286,10 @@ static plumb_status setup_surface(const plumb_atm_spec *s, plumb_atmosphere *a,
         return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "site.elevation",
                                "expected a station altitude within -5000..86000 m, found %g m",
                                s->station_alt_m);
-    if ((st = check_positive(s->station_pressure_pa, "atmosphere.station_pressure",
+    if ((st = check_positive(s->station_pressure_pa, "atmosphere.pressure",
                              "station pressure", "Pa", diag)) != PLUMB_OK)
         return st;
-    if ((st = check_positive(s->station_temperature_k, "atmosphere.station_temperature",
+    if ((st = check_positive(s->station_temperature_k, "atmosphere.temperature",
                              "station temperature", "K", diag)) != PLUMB_OK)
         return st;
     if (!isfinite(s->lapse_rate_k_m))
@@ -391,10 +391,10 @@ plumb_status plumb_atmosphere_alloc(const plumb_atm_spec *spec, plumb_atmosphere
     if (!spec)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_atmosphere_alloc: spec is NULL");
     if (!isfinite(spec->relative_humidity))
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "atmosphere.relative_humidity",
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "atmosphere.humidity",
                                "expected a finite relative humidity");
     if (!in_range(spec->relative_humidity, 0.0, 1.0))
-        return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "atmosphere.relative_humidity",
+        return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "atmosphere.humidity",
                                "expected a relative humidity from 0 to 1 (0 to 100 %%), "
                                "found %g",
                                spec->relative_humidity);

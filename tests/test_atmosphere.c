@@ -581,16 +581,16 @@ static void test_bad_surface_values_are_refused_with_their_key(void **state)
     spec.station_temperature_k = 284.6;
     plumb_atm_spec bad = spec;
     bad.station_pressure_pa = 0.0; /* the default: surface needs it given */
-    expect_refused(&bad, PLUMB_ERANGE, "atmosphere.station_pressure");
+    expect_refused(&bad, PLUMB_ERANGE, "atmosphere.pressure");
     bad.station_pressure_pa = -97310.0;
-    expect_refused(&bad, PLUMB_ERANGE, "atmosphere.station_pressure");
+    expect_refused(&bad, PLUMB_ERANGE, "atmosphere.pressure");
     bad.station_pressure_pa = INFINITY;
-    expect_refused(&bad, PLUMB_EINVAL, "atmosphere.station_pressure");
+    expect_refused(&bad, PLUMB_EINVAL, "atmosphere.pressure");
     bad = spec;
     bad.station_temperature_k = 0.0;
-    expect_refused(&bad, PLUMB_ERANGE, "atmosphere.station_temperature");
+    expect_refused(&bad, PLUMB_ERANGE, "atmosphere.temperature");
     bad.station_temperature_k = NAN;
-    expect_refused(&bad, PLUMB_EINVAL, "atmosphere.station_temperature");
+    expect_refused(&bad, PLUMB_EINVAL, "atmosphere.temperature");
     bad = spec;
     bad.lapse_rate_k_m = NAN;
     expect_refused(&bad, PLUMB_EINVAL, "atmosphere.lapse_rate");
@@ -670,11 +670,11 @@ static void test_bad_humidity_model_and_arguments_are_refused(void **state)
     plumb_atm_spec spec;
     plumb_atm_spec_init(&spec);
     spec.relative_humidity = -0.01;
-    expect_refused(&spec, PLUMB_ERANGE, "atmosphere.relative_humidity");
+    expect_refused(&spec, PLUMB_ERANGE, "atmosphere.humidity");
     spec.relative_humidity = 1.2;
-    expect_refused(&spec, PLUMB_ERANGE, "atmosphere.relative_humidity");
+    expect_refused(&spec, PLUMB_ERANGE, "atmosphere.humidity");
     spec.relative_humidity = NAN;
-    expect_refused(&spec, PLUMB_EINVAL, "atmosphere.relative_humidity");
+    expect_refused(&spec, PLUMB_EINVAL, "atmosphere.humidity");
     plumb_atm_spec_init(&spec);
     spec.model = (plumb_atm_model)7;
     expect_refused(&spec, PLUMB_EINVAL, "atmosphere.model");
