@@ -34,6 +34,8 @@ enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
  * reached with an upward or level velocity: the step before is halved
  * until the object is descending. Bounded. */
 #define MAX_HALVINGS 60
+/* Fraction of the predicted time to an event covered by the approach step. */
+#define APPROACH_FRACTION 0.9
 /* A rise this far above the drag-free apex means the object is buoyant. */
 #define RISE_MARGIN_M 1.0
 
@@ -195,8 +197,10 @@ struct plumb_trajectory {
 void plumb_trajectory_options_init(plumb_trajectory_options *opt)
 {
     opt->stepper = PLUMB_STEPPER_RK8PD;
-    opt->rel_tol = 1e-11;
-    opt->abs_tol = 1e-10;
+    opt->rel_tol = 1e-8;
+    opt->abs_tol = 1e-12;
+    opt->event_rel_tol = 1e-12;
+    opt->event_abs_tol = 1e-12;
     opt->first_step_s = 1e-3;
     opt->max_steps = 2000000;
     opt->max_time_s = 86400.0;
@@ -236,7 +240,8 @@ plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_t
     else
         plumb_trajectory_options_init(&t->opt);
     if (!(t->opt.rel_tol > 0.0) || !(t->opt.abs_tol >= 0.0) || t->opt.max_steps == 0 ||
-        !(t->opt.max_time_s > 0.0) || !(t->opt.first_step_s > 0.0)) {
+        !(t->opt.max_time_s > 0.0) || !(t->opt.first_step_s > 0.0) ||
+        !(t->opt.event_rel_tol > 0.0) || !(t->opt.event_abs_tol >= 0.0)) {
         free(t);
         return PLUMB_RAISE(NULL, PLUMB_EINVAL, "invalid trajectory options");
     }
@@ -246,7 +251,7 @@ plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_t
     t->control = gsl_odeiv2_control_y_new(t->opt.abs_tol, t->opt.rel_tol);
     t->evolve = gsl_odeiv2_evolve_alloc(NSTATE);
     t->side_step = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
-    t->side_control = gsl_odeiv2_control_y_new(t->opt.abs_tol, t->opt.rel_tol);
+    t->side_control = gsl_odeiv2_control_y_new(t->opt.event_abs_tol, t->opt.event_rel_tol);
     t->side_evolve = gsl_odeiv2_evolve_alloc(NSTATE);
     if (!t->step[0] || !t->step[1] || !t->step[2] || !t->control || !t->evolve ||
         !t->side_step || !t->side_control || !t->side_evolve) {
@@ -510,6 +515,38 @@ static plumb_status descend_start(runner *r, double *t0, double y0[], double h, 
     return PLUMB_OK;
 }
 
+/* Brings the descending state (t0, y0) close above z_event with one time
+ * step, so that the Henon phase spans only a short height: the step length
+ * is APPROACH_FRACTION of the time to the event predicted from the
+ * current height, vertical speed and acceleration (constant-acceleration
+ * kinematics). The step is no longer than the accepted step h_max, so it
+ * is at least as accurate; if it would pass the event it is not taken. */
+static plumb_status approach(runner *r, double *t0, double y0[], double h_max, double z_event)
+{
+    double f[NSTATE], y[NSTATE], err[NSTATE];
+    int rc = rhs_time(*t0, y0, f, &r->ctx);
+    if (rc != GSL_SUCCESS)
+        return fail_rhs(r, rc, "ODE step");
+    double dz = y0[IZ] - z_event, v = -y0[IVZ], a = -f[IVZ]; /* downward positive */
+    double disc = v * v + 2.0 * a * dz;
+    double h = disc > 0.0 && a != 0.0 ? (-v + sqrt(disc)) / a : dz / v;
+    if (!(h > 0.0) || !isfinite(h))
+        return PLUMB_OK;
+    h *= APPROACH_FRACTION;
+    if (h > h_max)
+        h = h_max;
+    memcpy(y, y0, sizeof y);
+    gsl_odeiv2_step_reset(r->w->side_step);
+    rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, f, NULL, &r->sys);
+    if (rc != GSL_SUCCESS)
+        return fail_rhs(r, rc, "ODE step");
+    if (y[IZ] > z_event && y[IVZ] < 0.0) {
+        *t0 += h;
+        memcpy(y0, y, sizeof y);
+    }
+    return PLUMB_OK;
+}
+
 static void deploy(runner *r, size_t i)
 {
     const plumb_descent_spec *d = &r->ctx.spec->descent[i];
@@ -677,6 +714,9 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
             memcpy(r.y, y0, sizeof y0);
             memcpy(yy, y0, sizeof yy);
             st = descend_start(&r, &tt, yy, h_used, z_event);
+            if (st != PLUMB_OK)
+                return st;
+            st = approach(&r, &tt, yy, h_used, z_event);
             if (st != PLUMB_OK)
                 return st;
             st = henon_to(&r, IZ, z_event, &tt, yy);
