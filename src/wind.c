@@ -70,12 +70,9 @@ void plumb_wind_spec_init(plumb_wind_spec *spec)
 {
     memset(spec, 0, sizeof *spec);
     spec->profile = PLUMB_WIND_UNIFORM;
-    spec->speed_m_s = 0.0;
-    spec->from_deg = 0.0;
     spec->ref_height_m = WIND_DEFAULT_REF_HEIGHT_M;
     spec->exponent = WIND_DEFAULT_EXPONENT;
     spec->roughness_m = WIND_DEFAULT_ROUGHNESS_M;
-    spec->table_n = 0;
     spec->table_h_m = NULL;
     spec->table_east_m_s = NULL;
     spec->table_north_m_s = NULL;
