@@ -1,0 +1,1937 @@
+/*
+ * report.c - fall and air reports in text, JSON (jansson) and CSV, the
+ * cautions, and the verdicts of a finished fall (include/plumb/report.h).
+ *
+ * Method: a report is first made in a memory stream (POSIX open_memstream)
+ * or, for JSON, as a jansson tree; only when it is complete, and every
+ * figure in it has been found finite, is it copied to the caller's stream.
+ * So a refused report writes nothing at all.
+ *
+ * Units: the text and CSV reports show SI, or with --units us the units a
+ * crew in the US works in: the international foot and pound (1959
+ * agreement, PLUMB_FT_M and PLUMB_LB_KG), the statute mile of 5280 ft, the
+ * international nautical mile of 1852 m (1929), the pound-force
+ * lb x g0, the foot pound-force (PLUMB_FT_LBF_J) and the conventional inch
+ * of mercury (NIST SP 811, 2008, Appendix B.8: 1 inHg = 3.386389e3 Pa).
+ * Energy is always shown in both joules and foot pound-force.
+ * JSON is always SI, with unit-suffixed keys (design.md section 6), and its
+ * numbers are printed with 17 significant digits, enough for any IEEE 754
+ * double to read back exactly (IEEE 754-2008, section 5.12.2).
+ * CSV follows RFC 4180 (fields with commas, quotes or line ends quoted),
+ * with the cautions as leading "# " comment lines.
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <jansson.h>
+
+#include "plumb/constants.h"
+#include "plumb/report.h"
+#include "plumb/wind.h"
+#include "plumb/gravity.h"
+#include "internal.h"
+
+/* ---- named constants ---------------------------------------------------- */
+
+/* Statute mile per hour, m/s: 5280 international feet per 3600 s. */
+#define MPH_M_S (5280.0 * PLUMB_FT_M / 3600.0)
+/* Knot, m/s: international nautical mile 1852 m (1929) per 3600 s. */
+#define KNOT_M_S (1852.0 / 3600.0)
+/* Kilometre per hour, m/s. */
+#define KMH_M_S (1000.0 / 3600.0)
+/* Pound-force, N: the avoirdupois pound under standard gravity. */
+#define LBF_N (PLUMB_LB_KG * PLUMB_G0_M_S2)
+/* Conventional inch of mercury, Pa (NIST SP 811, 2008, Appendix B.8). */
+#define INHG_PA 3386.389
+/* Pascals per hectopascal. */
+#define HPA_PA 100.0
+/* Kelvin to degree Celsius offset, K (ITS-90 definition of the Celsius scale). */
+#define CELSIUS_ZERO_K 273.15
+/* Fahrenheit scale: T(degF) = T(K) x 9/5 - 459.67 (NIST SP 811, B.8). */
+#define FAHRENHEIT_PER_K 1.8
+#define FAHRENHEIT_ZERO_OFFSET 459.67
+
+/* Degrees per radian, 180 / pi (C11 has no M_PI). */
+#define DEG_PER_RAD 57.29577951308232087680
+
+/* Mach number above which the report warns: drag coefficients measured in
+ * incompressible flow no longer hold (common practice, no source). */
+#define WARN_MACH 0.5
+/* Upper end of the Reynolds-number range of the sphere-drag correlations:
+ * Morrison (2013) states Re <= 1e6; the Clift-Grace-Weber curve (1978,
+ * Table 5.2) ends with its 4e5 < Re < 1e6 piece. */
+#define MORRISON_RE_MAX 1.0e6
+#define CGW_RE_MAX 1.0e6
+
+/* Horizontal distance below which the text report says the object lands
+ * below its release point: half the last digit the text shows (1 cm). */
+#define DRIFT_SHOWN_M 0.005
+
+/* Significant digits of figures in the text report, and of numbers in CSV. */
+#define TEXT_SIG 4
+#define RATIO_SIG 3
+#define CSV_DIGITS 10
+/* JSON real precision: 17 significant digits round-trip any double. */
+#define JSON_DIGITS 17
+/* Width the text report wraps warnings and cautions at. */
+#define TEXT_WIDTH 78
+/* Compass points used to name a bearing. */
+#define COMPASS_POINTS 16
+
+/* ---- the cautions (design.md section 7; SAFETY.md has the full text) ---- */
+
+static const char *const cautions[] = {
+    "These figures are an engineering estimate from a point-mass model, not a measurement.",
+    "Real objects deflect, bounce, break and tumble: where one lands and how hard it strikes "
+    "can differ from these figures.",
+    "Energy thresholds are not guarantees of safety: sharp or dense objects injure below them.",
+    "Follow local codes and regulations and the judgment of a competent or licensed person.",
+    "See SAFETY.md for the full text of these cautions, their scope and their limits.",
+};
+
+const char *const *plumb_cautions(size_t *n)
+{
+    if (n)
+        *n = sizeof cautions / sizeof cautions[0];
+    return cautions;
+}
+
+/* ---- verdicts and warnings ---------------------------------------------- */
+
+/* Appends a warning (a sentence) to the item; silently stops when full. */
+static void add_warning(plumb_item_report *item, const char *fmt, ...) PLUMBP_PRINTF(2, 3);
+
+static void add_warning(plumb_item_report *item, const char *fmt, ...)
+{
+    if (item->n_warnings >= PLUMB_MAX_WARNINGS)
+        return;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(item->warnings[item->n_warnings], PLUMB_WARNING, fmt, ap);
+    va_end(ap);
+    item->n_warnings++;
+}
+
+static const char *descent_kind_name(plumb_descent_kind k)
+{
+    switch (k) {
+    case PLUMB_DESCENT_STREAMER: return "streamer";
+    case PLUMB_DESCENT_DROGUE: return "drogue";
+    default: return "parachute";
+    }
+}
+
+static plumb_status unknown_criterion(const char *name, size_t index,
+                                      const plumb_profile *profile,
+                                      const plumb_criteria *criteria, plumb_diag *diag)
+{
+    size_t n = plumb_criteria_count(criteria);
+    const char **ids = n ? malloc(n * sizeof *ids) : NULL;
+    const char *near = NULL;
+    if (ids) {
+        for (size_t i = 0; i < n; i++)
+            ids[i] = plumb_criteria_get(criteria, i)->id;
+        near = plumbp_closest(name, ids, n);
+    }
+    char key[PLUMB_DIAG_KEY];
+    snprintf(key, sizeof key, "criteria[%zu]", index);
+    plumb_status st;
+    if (near)
+        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, plumb_profile_path(profile), 0, 0, key,
+                            "unknown criterion '%s'; did you mean '%s'?", name, near);
+    else if (n)
+        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, plumb_profile_path(profile), 0, 0, key,
+                            "unknown criterion '%s'; the criteria directory has %zu others, "
+                            "e.g. '%s'", name, n, ids ? ids[0] : "");
+    else
+        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, plumb_profile_path(profile), 0, 0, key,
+                            "unknown criterion '%s'; no criteria are loaded", name);
+    free(ids);
+    return st;
+}
+
+/* Names the helmet-test criteria among the verdicts in one sentence, or
+ * says so without names when they do not fit. */
+static void warn_helmet_tests(plumb_item_report *item)
+{
+    char names[PLUMB_WARNING] = "";
+    size_t count = 0, len = 0;
+    int fits = 1;
+    for (size_t i = 0; i < item->n_verdicts; i++) {
+        const plumb_criterion *c = item->verdicts[i].criterion;
+        if (c->kind != PLUMB_CRIT_HELMET_TEST)
+            continue;
+        int w = snprintf(names + len, sizeof names - len, "%s%s", count ? ", " : "", c->id);
+        if (w < 0 || (size_t)w >= sizeof names - len)
+            fits = 0;
+        else
+            len += (size_t)w;
+        count++;
+    }
+    if (count == 0)
+        return;
+    char sentence[PLUMB_WARNING * 2];
+    if (fits)
+        snprintf(sentence, sizeof sentence,
+                 "%s %s the energy a helmet is tested to, not a safe limit: a blow below it "
+                 "can still injure, with or without a helmet.",
+                 names, count == 1 ? "is" : "are");
+    else
+        snprintf(sentence, sizeof sentence,
+                 "%zu of the criteria are the energies helmets are tested to, not safe limits: "
+                 "a blow below them can still injure, with or without a helmet.", count);
+    add_warning(item, "%s", sentence);
+}
+
+plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
+                              const plumb_criteria *criteria, const plumb_atmosphere *atm,
+                              plumb_diag *diag)
+{
+    (void)atm; /* the fall result already carries the Mach and Reynolds ranges */
+    if (!item || !item->spec)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no fall to judge");
+    item->n_verdicts = 0;
+    item->n_warnings = 0;
+    const plumb_fall_result *r = &item->result;
+
+    size_t named = profile ? plumb_profile_criteria_count(profile) : 0;
+    size_t total = named ? named : plumb_criteria_count(criteria);
+    if (total > PLUMB_MAX_VERDICTS)
+        return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "criteria",
+                               "%zu criteria to judge; at most %d are reported", total,
+                               PLUMB_MAX_VERDICTS);
+    for (size_t i = 0; i < total; i++) {
+        const plumb_criterion *c;
+        if (named) {
+            const char *name = plumb_profile_criterion(profile, i);
+            c = plumb_criteria_find(criteria, name);
+            if (!c) {
+                item->n_verdicts = 0;
+                return unknown_criterion(name, i, profile, criteria, diag);
+            }
+        } else {
+            c = plumb_criteria_get(criteria, i);
+        }
+        plumb_criterion_judge(c, r->energy_j, &item->verdicts[item->n_verdicts++]);
+    }
+
+    if (r->max_mach > WARN_MACH)
+        add_warning(item,
+                    "The air speed reaches Mach %.2f on the way down (above %.1f): the drag "
+                    "coefficient, measured in slower air, no longer holds, so the speed and "
+                    "energy are less certain.", r->max_mach, WARN_MACH);
+    const plumb_drag_spec *d = &item->spec->drag;
+    if (d->model == PLUMB_DRAG_SPHERE_MORRISON && r->max_re > MORRISON_RE_MAX)
+        add_warning(item,
+                    "The Reynolds number runs from %.3g to %.3g, beyond Morrison's sphere-drag "
+                    "correlation (valid for Re up to %.0e): its drag is extrapolated there.",
+                    r->min_re, r->max_re, MORRISON_RE_MAX);
+    if (d->model == PLUMB_DRAG_SPHERE_CGW && r->max_re > CGW_RE_MAX)
+        add_warning(item,
+                    "The Reynolds number runs from %.3g to %.3g, beyond the Clift-Grace-Weber "
+                    "sphere-drag curve (Re up to %.0e): its drag is extrapolated there.",
+                    r->min_re, r->max_re, CGW_RE_MAX);
+    for (size_t i = r->n_deployed; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
+        add_warning(item,
+                    "The %s (device %zu) does not open before impact: the figures are those "
+                    "of a fall without it.", descent_kind_name(item->spec->descent[i].kind),
+                    i + 1);
+    warn_helmet_tests(item);
+    return PLUMB_OK;
+}
+
+/* ---- finiteness: every figure checked before anything is written ------- */
+
+typedef struct finite_check {
+    plumb_diag *diag;
+    const char *item;      /* item name for the message */
+    plumb_status status;
+} finite_check;
+
+static void need_finite(finite_check *fc, const char *what, double x)
+{
+    if (fc->status != PLUMB_OK || plumbp_finite(x))
+        return;
+    fc->status = PLUMB_RAISE(fc->diag, PLUMB_ENUMERIC,
+                             "%s%s%s is not a finite number (%s); no report written",
+                             fc->item ? fc->item : "", fc->item ? ": " : "", what,
+                             isnan(x) ? "NaN" : "infinite");
+}
+
+static plumb_status check_item(const plumb_item_report *it, plumb_diag *diag)
+{
+    finite_check fc = {diag, it->spec->name[0] ? it->spec->name : NULL, PLUMB_OK};
+    const plumb_fall_result *r = &it->result;
+    const plumb_fall_spec *s = it->spec;
+    need_finite(&fc, "impact time", r->time_s);
+    need_finite(&fc, "impact point east", r->point_m[0]);
+    need_finite(&fc, "impact point north", r->point_m[1]);
+    for (int k = 0; k < 3; k++)
+        need_finite(&fc, "impact velocity", r->velocity_m_s[k]);
+    need_finite(&fc, "impact speed", r->speed_m_s);
+    need_finite(&fc, "impact energy", r->energy_j);
+    need_finite(&fc, "impact momentum", r->momentum_kg_m_s);
+    need_finite(&fc, "impact angle", r->angle_deg);
+    need_finite(&fc, "drift", r->drift_m);
+    need_finite(&fc, "bearing", r->bearing_deg);
+    need_finite(&fc, "apex", r->apex_m);
+    need_finite(&fc, "terminal speed", r->terminal_speed_m_s);
+    need_finite(&fc, "drag-free speed", r->drag_free_speed_m_s);
+    need_finite(&fc, "drag-free energy", r->drag_free_energy_j);
+    need_finite(&fc, "work done by drag", r->drag_work_j);
+    need_finite(&fc, "largest Mach number", r->max_mach);
+    need_finite(&fc, "smallest Reynolds number", r->min_re);
+    need_finite(&fc, "largest Reynolds number", r->max_re);
+    if (s->n_descent > 0) {
+        for (size_t i = 0; i < r->n_deployed && i < PLUMB_MAX_DESCENT; i++) {
+            need_finite(&fc, "line-stretch time", r->deploy_time_s[i]);
+            need_finite(&fc, "line-stretch height", r->deploy_height_m[i]);
+            need_finite(&fc, "line-stretch air speed", r->deploy_speed_m_s[i]);
+        }
+        need_finite(&fc, "peak drag force", r->peak_force_n);
+        need_finite(&fc, "peak load factor", r->peak_load_g);
+        need_finite(&fc, "steady descent speed", r->steady_speed_m_s);
+    }
+    for (size_t i = 0; i < it->n_verdicts; i++) {
+        need_finite(&fc, "judged energy", it->verdicts[i].energy_j);
+        need_finite(&fc, "energy ratio", it->verdicts[i].ratio);
+        need_finite(&fc, "energy limit", it->verdicts[i].criterion->energy_limit_j);
+    }
+    need_finite(&fc, "mass", s->mass_kg);
+    need_finite(&fc, "volume", s->volume_m3);
+    need_finite(&fc, "drag coefficient", s->drag.cd);
+    need_finite(&fc, "drag area", s->drag.area_m2);
+    need_finite(&fc, "drag area CdA", s->drag.cd_area_m2);
+    need_finite(&fc, "sphere diameter", s->drag.diameter_m);
+    for (int k = 0; k < 3; k++) {
+        need_finite(&fc, "release point", s->release_m[k]);
+        need_finite(&fc, "release velocity", s->velocity_m_s[k]);
+    }
+    need_finite(&fc, "site elevation", s->site_elevation_m);
+    need_finite(&fc, "wind speed", s->wind.speed_m_s);
+    need_finite(&fc, "wind direction", s->wind.from_deg);
+    return fc.status;
+}
+
+/* ---- shared helpers ----------------------------------------------------- */
+
+/* Air at the strike level [0] and at the release height [1]. */
+typedef struct item_air {
+    plumb_air at[2];
+    double g_m_s2;          /* gravity at the strike level */
+    double wind_release[2]; /* wind at the release height: speed m/s, from deg */
+} item_air;
+
+static double wrap_deg(double a)
+{
+    double w = fmod(a, 360.0);
+    if (w < 0.0)
+        w += 360.0;
+    return w;
+}
+
+/* Speed and direction blown from of an (east, north) air motion. */
+static void wind_polar(double e, double n, double *speed, double *from_deg)
+{
+    *speed = hypot(e, n);
+    *from_deg = *speed > 0.0 ? wrap_deg(atan2(-e, -n) * DEG_PER_RAD) : 0.0;
+}
+
+static plumb_status air_for(const plumb_fall_spec *s, const plumb_atmosphere *atm,
+                            item_air *ia, plumb_diag *diag)
+{
+    double alt[2] = {s->site_elevation_m, s->site_elevation_m + s->release_m[2]};
+    for (int k = 0; k < 2; k++) {
+        plumb_status st = plumb_atmosphere_at(atm, alt[k], &ia->at[k]);
+        if (st != PLUMB_OK)
+            return PLUMB_RAISE(diag, st, "no air properties at %.1f m above sea level", alt[k]);
+        finite_check fc = {diag, NULL, PLUMB_OK};
+        need_finite(&fc, "air temperature", ia->at[k].t_k);
+        need_finite(&fc, "air pressure", ia->at[k].p_pa);
+        need_finite(&fc, "air density", ia->at[k].rho_kg_m3);
+        need_finite(&fc, "air viscosity", ia->at[k].mu_pa_s);
+        need_finite(&fc, "speed of sound", ia->at[k].a_m_s);
+        if (fc.status != PLUMB_OK)
+            return fc.status;
+    }
+    ia->g_m_s2 = plumb_gravity_at(&s->gravity, s->site_elevation_m);
+    double e, n;
+    plumb_wind_at(&s->wind, s->release_m[2], &e, &n);
+    wind_polar(e, n, &ia->wind_release[0], &ia->wind_release[1]);
+    return PLUMB_OK;
+}
+
+static const char *verdict_word(const plumb_verdict *v)
+{
+    return v->exceeds ? "exceeds" : "within";
+}
+
+static const char *crit_kind_name(plumb_criterion_kind k)
+{
+    return k == PLUMB_CRIT_HELMET_TEST ? "helmet-test" : "limit";
+}
+
+static const char *drag_model_name(plumb_drag_model m)
+{
+    switch (m) {
+    case PLUMB_DRAG_SPHERE_MORRISON: return "sphere";
+    case PLUMB_DRAG_SPHERE_CGW: return "sphere-cgw";
+    default: return "fixed";
+    }
+}
+
+static const char *shape_kind_name(plumb_shape_kind k)
+{
+    switch (k) {
+    case PLUMB_SHAPE_SPHERE: return "sphere";
+    case PLUMB_SHAPE_CYLINDER: return "cylinder";
+    case PLUMB_SHAPE_BOX: return "box";
+    case PLUMB_SHAPE_PLATE: return "plate";
+    default: return "none";
+    }
+}
+
+static const char *attitude_name(plumb_attitude a)
+{
+    switch (a) {
+    case PLUMB_ATTITUDE_BROADSIDE: return "broadside";
+    case PLUMB_ATTITUDE_END_ON: return "end-on";
+    default: return "tumbling";
+    }
+}
+
+static const char *atm_model_name(plumb_atm_model m)
+{
+    switch (m) {
+    case PLUMB_ATM_SURFACE: return "surface";
+    case PLUMB_ATM_TABLE: return "table";
+    default: return "standard-1976";
+    }
+}
+
+static const char *wind_profile_name(plumb_wind_profile p)
+{
+    switch (p) {
+    case PLUMB_WIND_POWER: return "power";
+    case PLUMB_WIND_LOG: return "log";
+    case PLUMB_WIND_TABLE: return "table";
+    default: return "uniform";
+    }
+}
+
+/* Effective fixed CdA of the body, m^2 (fixed model only). */
+static double body_cd_area(const plumb_drag_spec *d)
+{
+    return d->area_m2 > 0.0 ? d->cd * d->area_m2 : d->cd_area_m2;
+}
+
+/* Index of the strictest criterion (lowest limit) among the verdicts of an
+ * item, or -1 when there are none. */
+static long strictest(const plumb_item_report *it)
+{
+    long best = -1;
+    for (size_t i = 0; i < it->n_verdicts; i++)
+        if (best < 0 || it->verdicts[i].criterion->energy_limit_j <
+                            it->verdicts[best].criterion->energy_limit_j)
+            best = (long)i;
+    return best;
+}
+
+/* The worst item: highest energy ratio against the strictest criterion,
+ * or, without criteria, highest energy. Ties go to the first. */
+static size_t worst_item(const plumb_fall_report *rep)
+{
+    size_t w = 0;
+    for (size_t i = 1; i < rep->n_items; i++) {
+        const plumb_item_report *a = &rep->items[i], *b = &rep->items[w];
+        long sa = strictest(a), sb = strictest(b);
+        double ka = sa >= 0 ? a->verdicts[sa].ratio : a->result.energy_j;
+        double kb = sb >= 0 ? b->verdicts[sb].ratio : b->result.energy_j;
+        if (ka > kb)
+            w = i;
+    }
+    return w;
+}
+
+static size_t largest_drift_item(const plumb_fall_report *rep)
+{
+    size_t w = 0;
+    for (size_t i = 1; i < rep->n_items; i++)
+        if (rep->items[i].result.drift_m > rep->items[w].result.drift_m)
+            w = i;
+    return w;
+}
+
+/* All items must be judged against the same criteria, in the same order,
+ * for the inventory table and the CSV columns. */
+static plumb_status check_same_criteria(const plumb_fall_report *rep, plumb_diag *diag)
+{
+    const plumb_item_report *first = &rep->items[0];
+    for (size_t i = 1; i < rep->n_items; i++) {
+        const plumb_item_report *it = &rep->items[i];
+        int same = it->n_verdicts == first->n_verdicts;
+        for (size_t k = 0; same && k < it->n_verdicts; k++)
+            same = it->verdicts[k].criterion == first->verdicts[k].criterion;
+        if (!same)
+            return PLUMB_RAISE(diag, PLUMB_EINVAL,
+                               "item %zu was judged against other criteria than item 1", i + 1);
+    }
+    return PLUMB_OK;
+}
+
+/* ---- text and CSV writer context --------------------------------------- */
+
+enum { RING = 32, NUMBUF = 96 };
+
+typedef struct writer {
+    FILE *f;                 /* memory stream being written */
+    int us;                  /* 1: US customary display units */
+    int bad;                 /* a non-finite figure was asked for */
+    char ring[RING][NUMBUF]; /* formatted numbers, reused round-robin */
+    unsigned next;
+} writer;
+
+static void put(writer *w, const char *fmt, ...) PLUMBP_PRINTF(2, 3);
+
+static void put(writer *w, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    vfprintf(w->f, fmt, ap);
+    va_end(ap);
+}
+
+static char *slot(writer *w)
+{
+    char *b = w->ring[w->next % RING];
+    w->next++;
+    return b;
+}
+
+/* x with `sig` significant digits in plain decimal notation (no exponent),
+ * never "-0". Flags a non-finite x. */
+static const char *num(writer *w, double x, int sig)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    if (x == 0.0) {
+        snprintf(b, NUMBUF, "0");
+        return b;
+    }
+    int mag = (int)floor(log10(fabs(x)));
+    int dec = sig - 1 - mag;
+    if (dec < 0)
+        dec = 0;
+    if (dec > 15)
+        dec = 15;
+    snprintf(b, NUMBUF, "%.*f", dec, x);
+    /* Rounding up to the next power of ten (9.9996 -> 10.000) adds a digit. */
+    double back = strtod(b, NULL);
+    if (back != 0.0 && (int)floor(log10(fabs(back))) > mag && dec > 0)
+        snprintf(b, NUMBUF, "%.*f", dec - 1, x);
+    if (strspn(b, "-0.") == strlen(b))
+        snprintf(b, NUMBUF, "0");
+    return b;
+}
+
+/* x with a fixed number of decimals, never "-0". */
+static const char *fixed(writer *w, double x, int dec)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    snprintf(b, NUMBUF, "%.*f", dec, x);
+    if (strspn(b, "-0.") == strlen(b))
+        snprintf(b, NUMBUF, "%.*f", dec, 0.0);
+    return b;
+}
+
+/* x in scientific notation with `sig` significant digits. */
+static const char *sci(writer *w, double x, int sig)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    snprintf(b, NUMBUF, "%.*e", sig - 1, x);
+    return b;
+}
+
+/* A number for CSV: CSV_DIGITS significant digits, shortest form. */
+static const char *csvnum(writer *w, double x)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    snprintf(b, NUMBUF, "%.*g", CSV_DIGITS, x == 0.0 ? 0.0 : x);
+    return b;
+}
+
+/* Characters shown for a UTF-8 string: bytes that do not continue a
+ * multi-byte sequence. */
+static size_t shown_width(const char *s)
+{
+    size_t n = 0;
+    for (const unsigned char *p = (const unsigned char *)s; *p; p++)
+        if ((*p & 0xC0) != 0x80)
+            n++;
+    return n;
+}
+
+/* s padded with spaces to `width` shown characters, left or right aligned. */
+static void pad(writer *w, const char *s, size_t width, int right)
+{
+    size_t n = shown_width(s);
+    size_t fill = n < width ? width - n : 0;
+    if (right)
+        put(w, "%*s%s", (int)fill, "", s);
+    else
+        put(w, "%s%*s", s, (int)fill, "");
+}
+
+/* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
+ * indented to the width of `lead`. */
+static void wrapped(writer *w, const char *lead, const char *text)
+{
+    size_t indent = shown_width(lead);
+    size_t col = indent;
+    put(w, "%s", lead);
+    const char *p = text;
+    int first = 1;
+    while (*p) {
+        while (*p == ' ')
+            p++;
+        if (!*p)
+            break;
+        size_t len = strcspn(p, " ");
+        char word[PLUMB_WARNING * 2];
+        size_t cut = len < sizeof word - 1 ? len : sizeof word - 1;
+        memcpy(word, p, cut);
+        word[cut] = '\0';
+        size_t ww = shown_width(word);
+        if (!first && col + 1 + ww > TEXT_WIDTH) {
+            put(w, "\n%*s", (int)indent, "");
+            col = indent;
+            first = 1;
+        }
+        put(w, "%s%s", first ? "" : " ", word);
+        col += ww + (first ? 0 : 1);
+        first = 0;
+        p += len;
+    }
+    put(w, "\n");
+}
+
+/* ---- text: quantities in the chosen units ------------------------------ */
+
+static const char *t_len(writer *w, double m)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft", num(w, m / PLUMB_FT_M, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s m", num(w, m, TEXT_SIG));
+    return b;
+}
+
+static const char *t_speed(writer *w, double v)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft/s", num(w, v / PLUMB_FT_M, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s m/s", num(w, v, TEXT_SIG));
+    return b;
+}
+
+/* A wind speed as a crew reads it: m/s, or mph with knots. */
+static const char *t_wind(writer *w, double v)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s mph (%s kn)", num(w, v / MPH_M_S, TEXT_SIG),
+                 num(w, v / KNOT_M_S, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s m/s", num(w, v, TEXT_SIG));
+    return b;
+}
+
+/* Energy in both units, the display system's first. */
+static const char *t_energy(writer *w, double j)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft·lbf (%s J)", num(w, j / PLUMB_FT_LBF_J, TEXT_SIG),
+                 num(w, j, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s J (%s ft·lbf)", num(w, j, TEXT_SIG),
+                 num(w, j / PLUMB_FT_LBF_J, TEXT_SIG));
+    return b;
+}
+
+static const char *t_mass(writer *w, double kg)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s lb (%s kg)", num(w, kg / PLUMB_LB_KG, TEXT_SIG),
+                 num(w, kg, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s kg", num(w, kg, TEXT_SIG));
+    return b;
+}
+
+static const char *t_area(writer *w, double m2)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft²", num(w, m2 / (PLUMB_FT_M * PLUMB_FT_M), TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s m²", num(w, m2, TEXT_SIG));
+    return b;
+}
+
+static const char *t_force(writer *w, double n)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s lbf", num(w, n / LBF_N, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s N", num(w, n, TEXT_SIG));
+    return b;
+}
+
+static const char *t_temp(writer *w, double k)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s °F",
+                 fixed(w, k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, 1));
+    else
+        snprintf(b, NUMBUF, "%s K (%s °C)", fixed(w, k, 1), fixed(w, k - CELSIUS_ZERO_K, 1));
+    return b;
+}
+
+static const char *t_press(writer *w, double pa)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s inHg", num(w, pa / INHG_PA, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s hPa", num(w, pa / HPA_PA, TEXT_SIG));
+    return b;
+}
+
+static const char *t_density(writer *w, double rho)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s lb/ft³",
+                 num(w, rho * PLUMB_FT_M * PLUMB_FT_M * PLUMB_FT_M / PLUMB_LB_KG, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s kg/m³", num(w, rho, TEXT_SIG));
+    return b;
+}
+
+/* " [23.61 m/s]" after a US figure; "" in SI. */
+static const char *si_bracket(writer *w, double x, const char *unit)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, " [%s %s]", num(w, x, TEXT_SIG), unit);
+    else
+        b[0] = '\0';
+    return b;
+}
+
+static const char *compass(double bearing_deg)
+{
+    static const char *const points[COMPASS_POINTS] = {
+        "N", "NNE", "NE", "ENE", "E", "ESE", "SE", "SSE",
+        "S", "SSW", "SW", "WSW", "W", "WNW", "NW", "NNW"};
+    double sector = 360.0 / COMPASS_POINTS;
+    long k = lround(floor(wrap_deg(bearing_deg + sector / 2.0) / sector));
+    return points[(size_t)k % COMPASS_POINTS];
+}
+
+/* "085° (E)" */
+static const char *t_bearing(writer *w, double deg)
+{
+    char *b = slot(w);
+    double d = wrap_deg(deg);
+    if (lround(d) == 360)
+        d = 0.0;
+    snprintf(b, NUMBUF, "%03ld° (%s)", lround(d), compass(d));
+    return b;
+}
+
+static void caution_lines_text(writer *w)
+{
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    put(w, "\nCautions\n");
+    for (size_t i = 0; i < n; i++)
+        wrapped(w, "  - ", c[i]);
+}
+
+/* ---- text: single fall --------------------------------------------------- */
+
+static void text_header(writer *w, const plumb_report_options *opt, const char *what,
+                        const char *name)
+{
+    if (opt->version)
+        put(w, "plumb %s - %s: %s\n", opt->version, what, name);
+    else
+        put(w, "plumb - %s: %s\n", what, name);
+}
+
+static void text_impact(writer *w, const plumb_item_report *it)
+{
+    const plumb_fall_result *r = &it->result;
+    put(w, "\nImpact\n");
+    if (w->us)
+        put(w, "  speed      %s (%s mph)%s\n", t_speed(w, r->speed_m_s),
+            num(w, r->speed_m_s / MPH_M_S, TEXT_SIG), si_bracket(w, r->speed_m_s, "m/s"));
+    else
+        put(w, "  speed      %s (%s km/h)\n", t_speed(w, r->speed_m_s),
+            num(w, r->speed_m_s / KMH_M_S, TEXT_SIG));
+    put(w, "  energy     %s\n", t_energy(w, r->energy_j));
+    put(w, "  time       %s s after release\n", num(w, r->time_s, TEXT_SIG));
+    if (r->drift_m < DRIFT_SHOWN_M)
+        put(w, "  drift      none: lands below the release point\n");
+    else
+        put(w, "  drift      %s toward %s from the release point%s\n", t_len(w, r->drift_m),
+            t_bearing(w, r->bearing_deg), si_bracket(w, r->drift_m, "m"));
+    const plumb_fall_spec *s = it->spec;
+    if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
+        put(w, "  lands at   %s east, %s north of the planned drop point\n",
+            t_len(w, r->point_m[0]), t_len(w, r->point_m[1]));
+    if (w->us)
+        put(w, "  momentum   %s lbf·s [%s kg·m/s]\n",
+            num(w, r->momentum_kg_m_s / LBF_N, TEXT_SIG), num(w, r->momentum_kg_m_s, TEXT_SIG));
+    else
+        put(w, "  momentum   %s kg·m/s\n", num(w, r->momentum_kg_m_s, TEXT_SIG));
+    put(w, "  angle      %s° below horizontal\n", fixed(w, r->angle_deg, 1));
+}
+
+static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t size)
+{
+    if (w->us)
+        snprintf(buf, size, "limit %s ft·lbf (%s J)",
+                 num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG),
+                 num(w, c->energy_limit_j, TEXT_SIG));
+    else
+        snprintf(buf, size, "limit %s J (%s ft·lbf)", num(w, c->energy_limit_j, TEXT_SIG),
+                 num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG));
+}
+
+static void text_verdicts(writer *w, const plumb_item_report *it)
+{
+    if (it->n_verdicts == 0) {
+        put(w, "\nCriteria\n  none judged\n");
+        return;
+    }
+    put(w, "\nCriteria, against %s at impact\n", t_energy(w, it->result.energy_j));
+    for (size_t i = 0; i < it->n_verdicts; i++) {
+        const plumb_verdict *v = &it->verdicts[i];
+        const plumb_criterion *c = v->criterion;
+        char lim[NUMBUF * 2], line[NUMBUF * 4];
+        text_limit(w, c, lim, sizeof lim);
+        put(w, "  %-8s %s\n", v->exceeds ? "EXCEEDS" : "WITHIN", c->name);
+        snprintf(line, sizeof line, "%s, ratio %s%s", lim, num(w, v->ratio, RATIO_SIG),
+                 c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "");
+        wrapped(w, "           ", line);
+        char src[PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 32];
+        snprintf(src, sizeof src, "%s [%s]", c->source[0] ? c->source : "source not given",
+                 c->id);
+        wrapped(w, "           source: ", src);
+    }
+}
+
+static void text_comparison(writer *w, const plumb_item_report *it)
+{
+    const plumb_fall_result *r = &it->result;
+    put(w, "\nFor comparison\n");
+    put(w, "  terminal speed   %s in still air at the strike level%s\n",
+        t_speed(w, r->terminal_speed_m_s), si_bracket(w, r->terminal_speed_m_s, "m/s"));
+    put(w, "  without drag     %s, %s\n", t_speed(w, r->drag_free_speed_m_s),
+        t_energy(w, r->drag_free_energy_j));
+    if (r->drag_free_energy_j > 0.0 && r->drag_work_j != 0.0)
+        put(w, "  drag took        %s (%s %% of the drag-free energy)\n",
+            t_energy(w, fabs(r->drag_work_j)),
+            num(w, 100.0 * fabs(r->drag_work_j) / r->drag_free_energy_j, RATIO_SIG));
+    if (r->apex_m > it->spec->release_m[2])
+        put(w, "  highest point    %s above the strike level\n", t_len(w, r->apex_m));
+}
+
+static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, size_t size)
+{
+    char fill[NUMBUF * 2];
+    if (d->fill_constant > 0.0)
+        snprintf(fill, sizeof fill, "fills in n D0 / v with n = %s", num(w, d->fill_constant, 3));
+    else
+        snprintf(fill, sizeof fill, "fills in %s s", num(w, d->fill_time_s, TEXT_SIG));
+    if (d->trigger == PLUMB_DEPLOY_AFTER)
+        snprintf(buf, size, "deploys %s s after release, %s", num(w, d->deploy_value, TEXT_SIG),
+                 fill);
+    else
+        snprintf(buf, size, "deploys below %s, %s", t_len(w, d->deploy_value), fill);
+}
+
+static void text_descent(writer *w, const plumb_item_report *it)
+{
+    const plumb_fall_spec *s = it->spec;
+    const plumb_fall_result *r = &it->result;
+    if (s->n_descent == 0)
+        return;
+    put(w, "\nDescent devices\n");
+    for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
+        const plumb_descent_spec *d = &s->descent[i];
+        char rule[NUMBUF * 4];
+        text_deploy_rule(w, d, rule, sizeof rule);
+        put(w, "  %s: Cd %s on %s; %s\n", descent_kind_name(d->kind), num(w, d->cd, 3),
+            t_area(w, d->area_m2), rule);
+        if (i < r->n_deployed)
+            put(w, "      line stretch %s s after release, %s above the strike level, at %s "
+                   "air speed\n", num(w, r->deploy_time_s[i], TEXT_SIG),
+                t_len(w, r->deploy_height_m[i]), t_speed(w, r->deploy_speed_m_s[i]));
+        else
+            put(w, "      does not open before impact\n");
+    }
+    put(w, "  peak drag force  %s (%s g)\n", t_force(w, r->peak_force_n),
+        num(w, r->peak_load_g, 3));
+    put(w, "  steady descent   %s with the devices open, at the strike level\n",
+        t_speed(w, r->steady_speed_m_s));
+}
+
+/* Drag as understood, in one line of prose. */
+static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t size)
+{
+    const plumb_drag_spec *d = &it->spec->drag;
+    char shape[NUMBUF * 4] = "";
+    const plumb_shape_spec *sh = it->shape;
+    if (sh && sh->kind != PLUMB_SHAPE_NONE) {
+        switch (sh->kind) {
+        case PLUMB_SHAPE_SPHERE:
+            snprintf(shape, sizeof shape, "sphere of diameter %s, ", t_len(w, sh->dims_m[0]));
+            break;
+        case PLUMB_SHAPE_CYLINDER:
+            snprintf(shape, sizeof shape, "cylinder %s long, diameter %s, %s, ",
+                     t_len(w, sh->dims_m[0]), t_len(w, sh->dims_m[1]),
+                     attitude_name(sh->attitude));
+            break;
+        case PLUMB_SHAPE_BOX:
+            snprintf(shape, sizeof shape, "box %s x %s x %s, %s, ", t_len(w, sh->dims_m[0]),
+                     t_len(w, sh->dims_m[1]), t_len(w, sh->dims_m[2]),
+                     attitude_name(sh->attitude));
+            break;
+        default:
+            snprintf(shape, sizeof shape, "plate %s x %s, %s thick, %s, ",
+                     t_len(w, sh->dims_m[0]), t_len(w, sh->dims_m[1]), t_len(w, sh->dims_m[2]),
+                     attitude_name(sh->attitude));
+            break;
+        }
+    }
+    char how[NUMBUF * 4];
+    if (d->model == PLUMB_DRAG_SPHERE_MORRISON || d->model == PLUMB_DRAG_SPHERE_CGW) {
+        const plumb_fall_result *r = &it->result;
+        snprintf(how, sizeof how, "sphere of diameter %s, Cd(Re) by %s; Re %s to %s on the way",
+                 t_len(w, d->diameter_m),
+                 d->model == PLUMB_DRAG_SPHERE_CGW ? "Clift, Grace & Weber (1978)"
+                                                   : "Morrison (2013)",
+                 sci(w, r->min_re, 3), sci(w, r->max_re, 3));
+    } else if (body_cd_area(d) == 0.0) {
+        snprintf(how, sizeof how, "none (drag-free)");
+    } else if (d->area_m2 > 0.0) {
+        snprintf(how, sizeof how, "Cd %s on %s, CdA %s", num(w, d->cd, TEXT_SIG),
+                 t_area(w, d->area_m2), t_area(w, body_cd_area(d)));
+    } else {
+        snprintf(how, sizeof how, "CdA %s", t_area(w, d->cd_area_m2));
+    }
+    snprintf(buf, size, "%s%s%s%s", shape, how, d->source[0] ? "; source: " : "", d->source);
+}
+
+static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t size)
+{
+    const double *v = s->velocity_m_s;
+    char vel[NUMBUF * 4];
+    if (v[0] == 0.0 && v[1] == 0.0 && v[2] == 0.0) {
+        snprintf(vel, sizeof vel, "at rest");
+    } else {
+        double hs = hypot(v[0], v[1]);
+        double heading = hs > 0.0 ? wrap_deg(atan2(v[0], v[1]) * DEG_PER_RAD) : 0.0;
+        if (hs > 0.0)
+            snprintf(vel, sizeof vel, "moving %s toward %s, %s %s", t_speed(w, hs),
+                     t_bearing(w, heading), v[2] >= 0.0 ? "climbing" : "sinking",
+                     t_speed(w, fabs(v[2])));
+        else
+            snprintf(vel, sizeof vel, "moving straight %s at %s", v[2] > 0.0 ? "up" : "down",
+                     t_speed(w, fabs(v[2])));
+    }
+    char pos[NUMBUF * 3] = "";
+    if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
+        snprintf(pos, sizeof pos, ", %s east and %s north of the planned drop point",
+                 t_len(w, s->release_m[0]), t_len(w, s->release_m[1]));
+    snprintf(buf, size, "%s above the strike level, %s%s", t_len(w, s->release_m[2]), vel, pos);
+}
+
+static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_t size)
+{
+    char what[NUMBUF * 4];
+    switch (a->model) {
+    case PLUMB_ATM_SURFACE:
+        snprintf(what, sizeof what, "surface: station %s, %s, lapse rate %s K/km",
+                 t_press(w, a->station_pressure_pa), t_temp(w, a->station_temperature_k),
+                 num(w, a->lapse_rate_k_m * 1000.0, 3));
+        break;
+    case PLUMB_ATM_TABLE:
+        snprintf(what, sizeof what, "table of %zu densities by altitude%s", a->table_n,
+                 a->table_t_k ? " with temperatures" : "");
+        break;
+    default:
+        if (a->temperature_offset_k != 0.0)
+            snprintf(what, sizeof what, "U.S. Standard Atmosphere 1976, temperature %s%s K",
+                     a->temperature_offset_k > 0.0 ? "+" : "",
+                     num(w, a->temperature_offset_k, 3));
+        else
+            snprintf(what, sizeof what, "U.S. Standard Atmosphere 1976");
+        break;
+    }
+    if (a->relative_humidity > 0.0)
+        snprintf(buf, size, "%s, relative humidity %s %%", what,
+                 num(w, a->relative_humidity * 100.0, 3));
+    else
+        snprintf(buf, size, "%s, dry", what);
+}
+
+static void text_air_line(writer *w, const char *lead, const plumb_air *a)
+{
+    char line[NUMBUF * 6];
+    snprintf(line, sizeof line, "%s MSL: %s, %s, %s", t_len(w, a->alt_m), t_temp(w, a->t_k),
+             t_press(w, a->p_pa), t_density(w, a->rho_kg_m3));
+    wrapped(w, lead, line);
+}
+
+static void text_wind(writer *w, const plumb_fall_spec *s, const item_air *ia, char *buf,
+                      size_t size)
+{
+    const plumb_wind_spec *wd = &s->wind;
+    char at_release[NUMBUF * 3];
+    snprintf(at_release, sizeof at_release, "%s from %s at the release height",
+             t_wind(w, ia->wind_release[0]), t_bearing(w, ia->wind_release[1]));
+    switch (wd->profile) {
+    case PLUMB_WIND_POWER:
+        snprintf(buf, size, "%s from %s at %s, power law exponent %s; %s",
+                 t_wind(w, wd->speed_m_s), t_bearing(w, wd->from_deg),
+                 t_len(w, wd->ref_height_m), num(w, wd->exponent, 3), at_release);
+        break;
+    case PLUMB_WIND_LOG:
+        snprintf(buf, size, "%s from %s at %s, log law roughness %s; %s",
+                 t_wind(w, wd->speed_m_s), t_bearing(w, wd->from_deg),
+                 t_len(w, wd->ref_height_m), t_len(w, wd->roughness_m), at_release);
+        break;
+    case PLUMB_WIND_TABLE:
+        snprintf(buf, size, "table of %zu heights; %s", wd->table_n, at_release);
+        break;
+    default:
+        if (wd->speed_m_s == 0.0)
+            snprintf(buf, size, "calm");
+        else
+            snprintf(buf, size, "%s from %s at every height", t_wind(w, wd->speed_m_s),
+                     t_bearing(w, wd->from_deg));
+        break;
+    }
+}
+
+static void text_site(writer *w, const plumb_fall_spec *s, const item_air *ia, char *buf,
+                      size_t size)
+{
+    char g[NUMBUF * 2];
+    if (s->gravity.has_latitude)
+        snprintf(g, sizeof g, "latitude %s°, WGS 84 gravity %s m/s²",
+                 num(w, s->gravity.latitude_deg, TEXT_SIG), fixed(w, ia->g_m_s2, 5));
+    else
+        snprintf(g, sizeof g, "standard gravity %s m/s²", fixed(w, ia->g_m_s2, 5));
+    snprintf(buf, size, "strike level %s above mean sea level; %s",
+             t_len(w, s->site_elevation_m), g);
+}
+
+/* Inputs of one item as understood (payload lines only when `payload`). */
+static void text_inputs(writer *w, const plumb_item_report *it, const plumb_profile *p,
+                        const item_air *ia, int payload)
+{
+    const plumb_fall_spec *s = it->spec;
+    char line[PLUMB_DRAG_SOURCE + NUMBUF * 8];
+    if (payload) {
+        char mass[NUMBUF * 3];
+        snprintf(mass, sizeof mass, "%s%s", t_mass(w, s->mass_kg),
+                 s->volume_m3 > 0.0 ? ", buoyancy included" : "");
+        wrapped(w, "  mass        ", mass);
+        text_drag(w, it, line, sizeof line);
+        wrapped(w, "  drag        ", line);
+    }
+    text_release(w, s, line, sizeof line);
+    wrapped(w, "  release     ", line);
+    text_site(w, s, ia, line, sizeof line);
+    wrapped(w, "  site        ", line);
+    text_atmosphere(w, plumb_profile_atmosphere(p), line, sizeof line);
+    wrapped(w, "  atmosphere  ", line);
+    text_air_line(w, "  air         strike level ", &ia->at[0]);
+    text_air_line(w, "              release      ", &ia->at[1]);
+    text_wind(w, s, ia, line, sizeof line);
+    wrapped(w, "  wind        ", line);
+}
+
+static void text_solver(writer *w, const plumb_item_report *it)
+{
+    const plumb_solver_stats *st = &it->result.solver;
+    put(w, "  solver      %s, %zu steps, %zu right-hand-side evaluations\n",
+        st->method ? st->method : "unknown", st->steps, st->rhs_evaluations);
+}
+
+static void text_profile(writer *w, const plumb_profile *p)
+{
+    put(w, "\nProfile  %s\nSHA-256  %s\n", plumb_profile_path(p), plumb_profile_sha256(p));
+}
+
+static void text_single(writer *w, const plumb_report_options *opt,
+                        const plumb_fall_report *rep, const item_air *ia)
+{
+    const plumb_item_report *it = &rep->items[0];
+    text_header(w, opt, "fall", plumb_profile_name(rep->profile));
+    text_impact(w, it);
+    text_verdicts(w, it);
+    text_comparison(w, it);
+    text_descent(w, it);
+    if (it->n_warnings) {
+        put(w, "\nWarnings\n");
+        for (size_t i = 0; i < it->n_warnings; i++)
+            wrapped(w, "  - ", it->warnings[i]);
+    }
+    put(w, "\nInputs as understood\n");
+    text_inputs(w, it, rep->profile, ia, 1);
+    text_solver(w, it);
+    text_profile(w, rep->profile);
+    caution_lines_text(w);
+}
+
+/* ---- text: inventory ----------------------------------------------------- */
+
+static void text_inventory(writer *w, const plumb_report_options *opt,
+                           const plumb_fall_report *rep, const item_air *ia)
+{
+    const plumb_item_report *first = &rep->items[0];
+    size_t nv = first->n_verdicts;
+    text_header(w, opt, "fall, inventory", plumb_profile_name(rep->profile));
+    put(w, "%zu items, each falling alone under the same release, site, air and wind.\n",
+        rep->n_items);
+
+    /* Column widths: item names, then fixed numeric columns, then one per criterion. */
+    size_t name_w = strlen("item");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        size_t n = shown_width(rep->items[i].spec->name);
+        if (n > name_w)
+            name_w = n;
+    }
+    enum { NUM_W = 10, CRIT_W = 14 };
+    const char *u_mass = w->us ? "lb" : "kg", *u_speed = w->us ? "ft/s" : "m/s";
+    const char *u_len = w->us ? "ft" : "m";
+    put(w, "\n   # ");
+    pad(w, "item", name_w, 0);
+    const char *heads[] = {"mass", "speed", "energy", "energy", "drift"};
+    for (size_t k = 0; k < 5; k++)
+        pad(w, heads[k], NUM_W, 1);
+    for (size_t k = 0; k < nv; k++) {
+        char h[32];
+        snprintf(h, sizeof h, "C%zu", k + 1);
+        pad(w, h, CRIT_W, 1);
+    }
+    put(w, "\n     ");
+    pad(w, "", name_w, 0);
+    const char *units[] = {u_mass, u_speed, "J", "ft·lbf", u_len};
+    for (size_t k = 0; k < 5; k++)
+        pad(w, units[k], NUM_W, 1);
+    for (size_t k = 0; k < nv; k++)
+        pad(w, "ratio verdict", CRIT_W, 1);
+    put(w, "\n");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_item_report *it = &rep->items[i];
+        const plumb_fall_result *r = &it->result;
+        put(w, "%4zu ", i + 1);
+        pad(w, it->spec->name, name_w, 0);
+        double conv_len = w->us ? PLUMB_FT_M : 1.0;
+        pad(w, num(w, it->spec->mass_kg / (w->us ? PLUMB_LB_KG : 1.0), TEXT_SIG), NUM_W, 1);
+        pad(w, num(w, r->speed_m_s / conv_len, TEXT_SIG), NUM_W, 1);
+        pad(w, num(w, r->energy_j, TEXT_SIG), NUM_W, 1);
+        pad(w, num(w, r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG), NUM_W, 1);
+        pad(w, fixed(w, r->drift_m / conv_len, 2), NUM_W, 1);
+        for (size_t k = 0; k < nv; k++) {
+            char cell[NUMBUF];
+            snprintf(cell, sizeof cell, "%s %s", num(w, it->verdicts[k].ratio, RATIO_SIG),
+                     it->verdicts[k].exceeds ? "EXCEEDS" : "within");
+            pad(w, cell, CRIT_W, 1);
+        }
+        put(w, "\n");
+    }
+
+    if (nv) {
+        put(w, "\nCriteria\n");
+        for (size_t k = 0; k < nv; k++) {
+            const plumb_criterion *c = first->verdicts[k].criterion;
+            char lead[32], lim[NUMBUF * 2];
+            char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 3];
+            snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
+            text_limit(w, c, lim, sizeof lim);
+            snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s", c->name, c->id, lim,
+                     c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
+                     c->source[0] ? c->source : "not given");
+            wrapped(w, lead, line);
+        }
+    }
+
+    size_t wi = worst_item(rep), di = largest_drift_item(rep);
+    const plumb_item_report *worst = &rep->items[wi], *drift = &rep->items[di];
+    char line[PLUMB_NAME + NUMBUF * 6];
+    long sk = strictest(worst);
+    if (sk >= 0)
+        snprintf(line, sizeof line, "%s, %s at %s, %s times the strictest limit (C%ld, %s J)",
+                 worst->spec->name, t_energy(w, worst->result.energy_j),
+                 t_speed(w, worst->result.speed_m_s), num(w, worst->verdicts[sk].ratio, RATIO_SIG),
+                 sk + 1, num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG));
+    else
+        snprintf(line, sizeof line, "%s, %s at %s", worst->spec->name,
+                 t_energy(w, worst->result.energy_j), t_speed(w, worst->result.speed_m_s));
+    put(w, "\n");
+    wrapped(w, "Worst item     ", line);
+    if (drift->result.drift_m < DRIFT_SHOWN_M)
+        snprintf(line, sizeof line, "none: every item lands below the release point");
+    else
+        snprintf(line, sizeof line, "%s, %s toward %s", drift->spec->name,
+                 t_len(w, drift->result.drift_m), t_bearing(w, drift->result.bearing_deg));
+    wrapped(w, "Largest drift  ", line);
+
+    for (size_t i = 0; i < rep->n_items; i++) {
+        if (rep->items[i].spec->n_descent == 0)
+            continue;
+        put(w, "\n%s:", rep->items[i].spec->name);
+        text_descent(w, &rep->items[i]);
+    }
+
+    int any_warning = 0;
+    for (size_t i = 0; i < rep->n_items; i++)
+        any_warning |= rep->items[i].n_warnings > 0;
+    if (any_warning) {
+        put(w, "\nWarnings\n");
+        for (size_t i = 0; i < rep->n_items; i++)
+            for (size_t k = 0; k < rep->items[i].n_warnings; k++) {
+                char text[PLUMB_NAME + PLUMB_WARNING + 8];
+                snprintf(text, sizeof text, "%s: %s", rep->items[i].spec->name,
+                         rep->items[i].warnings[k]);
+                wrapped(w, "  - ", text);
+            }
+    }
+
+    put(w, "\nInputs as understood\n");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_item_report *it = &rep->items[i];
+        char lead[32], text[PLUMB_NAME + PLUMB_DRAG_SOURCE + NUMBUF * 10];
+        char drag[PLUMB_DRAG_SOURCE + NUMBUF * 8];
+        snprintf(lead, sizeof lead, "  %4zu  ", i + 1);
+        text_drag(w, it, drag, sizeof drag);
+        snprintf(text, sizeof text, "%s: %s%s; drag %s", it->spec->name, t_mass(w, it->spec->mass_kg),
+                 it->spec->volume_m3 > 0.0 ? ", buoyancy included" : "", drag);
+        wrapped(w, lead, text);
+    }
+    text_inputs(w, first, rep->profile, ia, 0);
+    size_t steps = 0, evals = 0;
+    for (size_t i = 0; i < rep->n_items; i++) {
+        steps += rep->items[i].result.solver.steps;
+        evals += rep->items[i].result.solver.rhs_evaluations;
+    }
+    const char *method = first->result.solver.method;
+    put(w, "  solver      %s, %zu steps, %zu right-hand-side evaluations in all\n",
+        method ? method : "unknown", steps, evals);
+    text_profile(w, rep->profile);
+    caution_lines_text(w);
+}
+
+/* ---- CSV ----------------------------------------------------------------- */
+
+static void csv_field(writer *w, const char *s)
+{
+    if (strpbrk(s, ",\"\r\n") == NULL) {
+        put(w, "%s", s);
+        return;
+    }
+    fputc('"', w->f);
+    for (const char *p = s; *p; p++) {
+        if (*p == '"')
+            fputc('"', w->f);
+        fputc(*p, w->f);
+    }
+    fputc('"', w->f);
+}
+
+static void csv_comment(writer *w, const char *text)
+{
+    /* A comment line never contains a line end of its own. */
+    fputs("# ", w->f);
+    for (const char *p = text; *p; p++)
+        fputc((*p == '\n' || *p == '\r') ? ' ' : *p, w->f);
+    fputc('\n', w->f);
+}
+
+static void csv_cautions(writer *w)
+{
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    for (size_t i = 0; i < n; i++)
+        csv_comment(w, c[i]);
+}
+
+static void csv_fall(writer *w, const plumb_fall_report *rep)
+{
+    const plumb_item_report *first = &rep->items[0];
+    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
+             plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
+    csv_comment(w, text);
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        snprintf(text, sizeof text, "criterion %s: %s, %s limit %.*g J, source: %s", c->id,
+                 c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 c->source[0] ? c->source : "not given");
+        csv_comment(w, text);
+    }
+    for (size_t i = 0; i < rep->n_items; i++)
+        for (size_t k = 0; k < rep->items[i].n_warnings; k++) {
+            char wt[PLUMB_NAME + PLUMB_WARNING + 16];
+            snprintf(wt, sizeof wt, "warning: %s: %s", rep->items[i].spec->name,
+                     rep->items[i].warnings[k]);
+            csv_comment(w, wt);
+        }
+
+    if (w->us)
+        put(w, "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
+               "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
+               "drag_free_speed_ft_s,drag_free_energy_ft_lbf");
+    else
+        put(w, "name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
+               "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
+               "drag_free_speed_m_s,drag_free_energy_j");
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const char *id = first->verdicts[k].criterion->id;
+        put(w, ",");
+        snprintf(text, sizeof text, "%s_ratio", id);
+        csv_field(w, text);
+        put(w, ",");
+        snprintf(text, sizeof text, "%s_verdict", id);
+        csv_field(w, text);
+    }
+    put(w, "\n");
+
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_item_report *it = &rep->items[i];
+        const plumb_fall_result *r = &it->result;
+        csv_field(w, it->spec->name);
+        if (w->us) {
+            double ft = PLUMB_FT_M;
+            put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
+                csvnum(w, it->spec->mass_kg / PLUMB_LB_KG), csvnum(w, r->time_s),
+                csvnum(w, r->speed_m_s / ft), csvnum(w, r->speed_m_s / MPH_M_S),
+                csvnum(w, r->energy_j / PLUMB_FT_LBF_J), csvnum(w, r->energy_j),
+                csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
+                csvnum(w, r->drift_m / ft), csvnum(w, r->bearing_deg),
+                csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
+                csvnum(w, r->terminal_speed_m_s / ft));
+            /* The ring holds RING numbers: the rest in a second call. */
+            put(w, ",%s,%s,%s", csvnum(w, r->apex_m / ft), csvnum(w, r->drag_free_speed_m_s / ft),
+                csvnum(w, r->drag_free_energy_j / PLUMB_FT_LBF_J));
+        } else {
+            put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
+                csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
+                csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
+                csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
+                csvnum(w, r->bearing_deg), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
+                csvnum(w, r->terminal_speed_m_s));
+            put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
+                csvnum(w, r->drag_free_energy_j));
+        }
+        for (size_t k = 0; k < it->n_verdicts; k++)
+            put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), verdict_word(&it->verdicts[k]));
+        put(w, "\n");
+    }
+}
+
+/* ---- JSON ----------------------------------------------------------------- */
+
+typedef struct jctx {
+    int bad;        /* a non-finite number was met */
+    int nomem;      /* a jansson allocation failed */
+} jctx;
+
+static json_t *jreal(jctx *j, double x)
+{
+    if (!plumbp_finite(x)) {
+        j->bad = 1;
+        return json_null();
+    }
+    return json_real(x == 0.0 ? 0.0 : x);
+}
+
+static json_t *jstr(jctx *j, const char *s)
+{
+    json_t *v = json_string(s ? s : "");
+    if (!v)
+        j->nomem = 1; /* or invalid UTF-8: refused the same way */
+    return v;
+}
+
+static void jset(jctx *j, json_t *obj, const char *key, json_t *value)
+{
+    if (!value || !obj || json_object_set_new(obj, key, value) != 0)
+        j->nomem = 1;
+}
+
+static void jpush(jctx *j, json_t *arr, json_t *value)
+{
+    if (!value || !arr || json_array_append_new(arr, value) != 0)
+        j->nomem = 1;
+}
+
+static json_t *jobj(jctx *j)
+{
+    json_t *o = json_object();
+    if (!o)
+        j->nomem = 1;
+    return o;
+}
+
+static json_t *jarr(jctx *j)
+{
+    json_t *a = json_array();
+    if (!a)
+        j->nomem = 1;
+    return a;
+}
+
+static json_t *jvec(jctx *j, const double *x, size_t n)
+{
+    json_t *a = jarr(j);
+    for (size_t i = 0; i < n; i++)
+        jpush(j, a, jreal(j, x[i]));
+    return a;
+}
+
+static json_t *j_air(jctx *j, const plumb_air *a)
+{
+    json_t *o = jobj(j);
+    jset(j, o, "altitude_m", jreal(j, a->alt_m));
+    jset(j, o, "temperature_k", jreal(j, a->t_k));
+    jset(j, o, "pressure_pa", jreal(j, a->p_pa));
+    jset(j, o, "density_kg_m3", jreal(j, a->rho_kg_m3));
+    jset(j, o, "viscosity_pa_s", jreal(j, a->mu_pa_s));
+    jset(j, o, "speed_of_sound_m_s", jreal(j, a->a_m_s));
+    return o;
+}
+
+static json_t *j_cautions(jctx *j)
+{
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    json_t *a = jarr(j);
+    for (size_t i = 0; i < n; i++)
+        jpush(j, a, jstr(j, c[i]));
+    return a;
+}
+
+static json_t *j_impact(jctx *j, const plumb_fall_result *r)
+{
+    json_t *o = jobj(j);
+    jset(j, o, "time_s", jreal(j, r->time_s));
+    jset(j, o, "speed_m_s", jreal(j, r->speed_m_s));
+    jset(j, o, "energy_j", jreal(j, r->energy_j));
+    jset(j, o, "energy_ft_lbf", jreal(j, r->energy_j / PLUMB_FT_LBF_J));
+    jset(j, o, "momentum_kg_m_s", jreal(j, r->momentum_kg_m_s));
+    jset(j, o, "angle_deg", jreal(j, r->angle_deg));
+    jset(j, o, "point_m", jvec(j, r->point_m, 2));
+    jset(j, o, "drift_m", jreal(j, r->drift_m));
+    jset(j, o, "bearing_deg", jreal(j, r->bearing_deg));
+    jset(j, o, "velocity_m_s", jvec(j, r->velocity_m_s, 3));
+    return o;
+}
+
+static json_t *j_criteria(jctx *j, const plumb_item_report *it)
+{
+    json_t *a = jarr(j);
+    for (size_t i = 0; i < it->n_verdicts; i++) {
+        const plumb_verdict *v = &it->verdicts[i];
+        const plumb_criterion *c = v->criterion;
+        json_t *o = jobj(j);
+        jset(j, o, "name", jstr(j, c->name));
+        jset(j, o, "id", jstr(j, c->id));
+        jset(j, o, "source", jstr(j, c->source));
+        jset(j, o, "kind", jstr(j, crit_kind_name(c->kind)));
+        jset(j, o, "applies_to", jstr(j, c->applies_to));
+        jset(j, o, "status", jstr(j, c->status));
+        jset(j, o, "energy_limit_j", jreal(j, c->energy_limit_j));
+        jset(j, o, "energy_j", jreal(j, v->energy_j));
+        jset(j, o, "ratio", jreal(j, v->ratio));
+        jset(j, o, "verdict", jstr(j, verdict_word(v)));
+        jpush(j, a, o);
+    }
+    return a;
+}
+
+static json_t *j_descent(jctx *j, const plumb_item_report *it)
+{
+    const plumb_fall_spec *s = it->spec;
+    const plumb_fall_result *r = &it->result;
+    json_t *o = jobj(j);
+    json_t *devs = jarr(j);
+    for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
+        const plumb_descent_spec *d = &s->descent[i];
+        json_t *dv = jobj(j);
+        jset(j, dv, "kind", jstr(j, descent_kind_name(d->kind)));
+        jset(j, dv, "cd", jreal(j, d->cd));
+        jset(j, dv, "area_m2", jreal(j, d->area_m2));
+        if (d->diameter_m > 0.0)
+            jset(j, dv, "diameter_m", jreal(j, d->diameter_m));
+        json_t *dep = jobj(j);
+        if (d->trigger == PLUMB_DEPLOY_AFTER)
+            jset(j, dep, "after_s", jreal(j, d->deploy_value));
+        else
+            jset(j, dep, "below_m", jreal(j, d->deploy_value));
+        jset(j, dv, "deploy", dep);
+        if (d->fill_constant > 0.0)
+            jset(j, dv, "fill_constant", jreal(j, d->fill_constant));
+        else
+            jset(j, dv, "fill_time_s", jreal(j, d->fill_time_s));
+        jset(j, dv, "deployed", json_boolean(i < r->n_deployed));
+        if (i < r->n_deployed) {
+            json_t *ls = jobj(j);
+            jset(j, ls, "time_s", jreal(j, r->deploy_time_s[i]));
+            jset(j, ls, "height_m", jreal(j, r->deploy_height_m[i]));
+            jset(j, ls, "airspeed_m_s", jreal(j, r->deploy_speed_m_s[i]));
+            jset(j, dv, "line_stretch", ls);
+        } else {
+            jset(j, dv, "line_stretch", json_null());
+        }
+        jpush(j, devs, dv);
+    }
+    jset(j, o, "devices", devs);
+    jset(j, o, "peak_force_n", jreal(j, r->peak_force_n));
+    jset(j, o, "peak_load_g", jreal(j, r->peak_load_g));
+    jset(j, o, "steady_speed_m_s", jreal(j, r->steady_speed_m_s));
+    return o;
+}
+
+static json_t *j_inputs(jctx *j, const plumb_item_report *it, const plumb_profile *p,
+                        const item_air *ia)
+{
+    const plumb_fall_spec *s = it->spec;
+    json_t *o = jobj(j);
+    jset(j, o, "mass_kg", jreal(j, s->mass_kg));
+    jset(j, o, "volume_m3", jreal(j, s->volume_m3));
+
+    json_t *drag = jobj(j);
+    const plumb_drag_spec *d = &s->drag;
+    jset(j, drag, "model", jstr(j, drag_model_name(d->model)));
+    if (d->model == PLUMB_DRAG_FIXED) {
+        jset(j, drag, "cd", jreal(j, d->cd));
+        jset(j, drag, "area_m2", jreal(j, d->area_m2));
+        jset(j, drag, "cd_area_m2", jreal(j, body_cd_area(d)));
+    } else {
+        jset(j, drag, "diameter_m", jreal(j, d->diameter_m));
+        jset(j, drag, "reynolds_min", jreal(j, it->result.min_re));
+        jset(j, drag, "reynolds_max", jreal(j, it->result.max_re));
+    }
+    jset(j, drag, "source", jstr(j, d->source));
+    jset(j, o, "drag", drag);
+    if (it->shape && it->shape->kind != PLUMB_SHAPE_NONE) {
+        json_t *sh = jobj(j);
+        jset(j, sh, "kind", jstr(j, shape_kind_name(it->shape->kind)));
+        size_t nd = it->shape->kind == PLUMB_SHAPE_SPHERE ? 1
+                    : it->shape->kind == PLUMB_SHAPE_CYLINDER ? 2 : 3;
+        jset(j, sh, "dims_m", jvec(j, it->shape->dims_m, nd));
+        jset(j, sh, "attitude", jstr(j, attitude_name(it->shape->attitude)));
+        jset(j, o, "shape", sh);
+    }
+
+    json_t *rel = jobj(j);
+    jset(j, rel, "height_m", jreal(j, s->release_m[2]));
+    jset(j, rel, "position_m", jvec(j, s->release_m, 2));
+    jset(j, rel, "velocity_m_s", jvec(j, s->velocity_m_s, 3));
+    jset(j, o, "release", rel);
+
+    json_t *site = jobj(j);
+    jset(j, site, "elevation_m", jreal(j, s->site_elevation_m));
+    jset(j, site, "latitude_deg",
+         s->gravity.has_latitude ? jreal(j, s->gravity.latitude_deg) : json_null());
+    jset(j, site, "gravity_m_s2", jreal(j, ia->g_m_s2));
+    jset(j, o, "site", site);
+
+    const plumb_atm_spec *a = plumb_profile_atmosphere(p);
+    json_t *atm = jobj(j);
+    jset(j, atm, "model", jstr(j, atm_model_name(a->model)));
+    if (a->model == PLUMB_ATM_SURFACE) {
+        jset(j, atm, "pressure_pa", jreal(j, a->station_pressure_pa));
+        jset(j, atm, "temperature_k", jreal(j, a->station_temperature_k));
+        jset(j, atm, "lapse_rate_k_m", jreal(j, a->lapse_rate_k_m));
+    } else {
+        jset(j, atm, "temperature_offset_k", jreal(j, a->temperature_offset_k));
+        if (a->model == PLUMB_ATM_TABLE)
+            jset(j, atm, "table_rows", json_integer((json_int_t)a->table_n));
+    }
+    jset(j, atm, "relative_humidity", jreal(j, a->relative_humidity));
+    jset(j, atm, "strike_level", j_air(j, &ia->at[0]));
+    jset(j, atm, "release", j_air(j, &ia->at[1]));
+    jset(j, o, "atmosphere", atm);
+
+    const plumb_wind_spec *wd = &s->wind;
+    json_t *wind = jobj(j);
+    jset(j, wind, "profile", jstr(j, wind_profile_name(wd->profile)));
+    if (wd->profile == PLUMB_WIND_TABLE) {
+        json_t *rows = jarr(j);
+        for (size_t i = 0; i < wd->table_n; i++) {
+            json_t *row = jobj(j);
+            double sp, from;
+            wind_polar(wd->table_east_m_s[i], wd->table_north_m_s[i], &sp, &from);
+            jset(j, row, "height_m", jreal(j, wd->table_h_m[i]));
+            jset(j, row, "speed_m_s", jreal(j, sp));
+            jset(j, row, "from_deg", jreal(j, from));
+            jpush(j, rows, row);
+        }
+        jset(j, wind, "table", rows);
+    } else {
+        jset(j, wind, "speed_m_s", jreal(j, wd->speed_m_s));
+        jset(j, wind, "from_deg", jreal(j, wd->from_deg));
+        if (wd->profile != PLUMB_WIND_UNIFORM)
+            jset(j, wind, "reference_height_m", jreal(j, wd->ref_height_m));
+        if (wd->profile == PLUMB_WIND_POWER)
+            jset(j, wind, "exponent", jreal(j, wd->exponent));
+        if (wd->profile == PLUMB_WIND_LOG)
+            jset(j, wind, "roughness_m", jreal(j, wd->roughness_m));
+    }
+    jset(j, wind, "at_release_speed_m_s", jreal(j, ia->wind_release[0]));
+    jset(j, wind, "at_release_from_deg", jreal(j, ia->wind_release[1]));
+    jset(j, o, "wind", wind);
+    return o;
+}
+
+/* The per-fall keys of one item, into obj. */
+static void j_item_into(jctx *j, json_t *o, const plumb_item_report *it, const plumb_profile *p,
+                        const item_air *ia)
+{
+    const plumb_fall_result *r = &it->result;
+    jset(j, o, "name", jstr(j, it->spec->name));
+    jset(j, o, "impact", j_impact(j, r));
+    jset(j, o, "terminal_speed_m_s", jreal(j, r->terminal_speed_m_s));
+    jset(j, o, "apex_m", jreal(j, r->apex_m));
+    json_t *df = jobj(j);
+    jset(j, df, "speed_m_s", jreal(j, r->drag_free_speed_m_s));
+    jset(j, df, "energy_j", jreal(j, r->drag_free_energy_j));
+    jset(j, o, "drag_free", df);
+    jset(j, o, "drag_work_j", jreal(j, r->drag_work_j));
+    jset(j, o, "max_mach", jreal(j, r->max_mach));
+    jset(j, o, "criteria", j_criteria(j, it));
+    json_t *warn = jarr(j);
+    for (size_t i = 0; i < it->n_warnings; i++)
+        jpush(j, warn, jstr(j, it->warnings[i]));
+    jset(j, o, "warnings", warn);
+    json_t *sol = jobj(j);
+    jset(j, sol, "method", jstr(j, r->solver.method ? r->solver.method : "unknown"));
+    jset(j, sol, "rhs_evaluations", json_integer((json_int_t)r->solver.rhs_evaluations));
+    jset(j, sol, "steps", json_integer((json_int_t)r->solver.steps));
+    jset(j, o, "solver", sol);
+    if (it->spec->n_descent > 0)
+        jset(j, o, "descent", j_descent(j, it));
+    jset(j, o, "inputs", j_inputs(j, it, p, ia));
+}
+
+static json_t *j_profile(jctx *j, const plumb_profile *p)
+{
+    json_t *o = jobj(j);
+    jset(j, o, "path", jstr(j, plumb_profile_path(p)));
+    jset(j, o, "name", jstr(j, plumb_profile_name(p)));
+    jset(j, o, "sha256", jstr(j, plumb_profile_sha256(p)));
+    return o;
+}
+
+static json_t *j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,
+                      const item_air *ia)
+{
+    json_t *root = jobj(j);
+    if (opt->version)
+        jset(j, root, "plumb_version", jstr(j, opt->version));
+    if (!plumb_profile_is_inventory(rep->profile)) {
+        j_item_into(j, root, &rep->items[0], rep->profile, &ia[0]);
+    } else {
+        json_t *items = jarr(j);
+        for (size_t i = 0; i < rep->n_items; i++) {
+            json_t *o = jobj(j);
+            j_item_into(j, o, &rep->items[i], rep->profile, &ia[i]);
+            jpush(j, items, o);
+        }
+        jset(j, root, "items", items);
+        jset(j, root, "worst", jstr(j, rep->items[worst_item(rep)].spec->name));
+        jset(j, root, "largest_drift", jstr(j, rep->items[largest_drift_item(rep)].spec->name));
+    }
+    jset(j, root, "profile", j_profile(j, rep->profile));
+    jset(j, root, "cautions", j_cautions(j));
+    return root;
+}
+
+/* ---- output: all or nothing ---------------------------------------------- */
+
+static plumb_status emit(FILE *out, const char *buf, size_t len, plumb_diag *diag)
+{
+    if (len > 0 && fwrite(buf, 1, len, out) != len)
+        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the report");
+    if (fflush(out) != 0 || ferror(out))
+        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the report");
+    return PLUMB_OK;
+}
+
+static plumb_status emit_json(FILE *out, jctx *j, json_t *root, plumb_diag *diag)
+{
+    plumb_status st = PLUMB_OK;
+    if (j->bad)
+        st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no report "
+                                               "written");
+    else if (j->nomem || !root)
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the JSON report");
+    char *text = NULL;
+    if (st == PLUMB_OK) {
+        text = json_dumps(root, JSON_INDENT(2) | JSON_PRESERVE_ORDER |
+                                    JSON_REAL_PRECISION(JSON_DIGITS));
+        if (!text)
+            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory writing the JSON report");
+    }
+    if (st == PLUMB_OK) {
+        size_t len = strlen(text);
+        st = emit(out, text, len, diag);
+        if (st == PLUMB_OK)
+            st = emit(out, "\n", 1, diag);
+    }
+    free(text);
+    json_decref(root);
+    return st;
+}
+
+/* Opens the memory stream a text or CSV report is made in. */
+static plumb_status writer_open(writer *w, char **buf, size_t *len, plumb_unit_system units,
+                                plumb_diag *diag)
+{
+    memset(w, 0, sizeof *w);
+    *buf = NULL;
+    *len = 0;
+    w->us = units == PLUMB_UNITS_US;
+    w->f = open_memstream(buf, len);
+    if (!w->f)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
+    return PLUMB_OK;
+}
+
+static plumb_status writer_close(writer *w, char **buf, size_t *len, FILE *out,
+                                 plumb_diag *diag)
+{
+    int failed = ferror(w->f);
+    if (fclose(w->f) != 0)
+        failed = 1;
+    plumb_status st = PLUMB_OK;
+    if (w->bad)
+        st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no report "
+                                               "written");
+    else if (failed || !*buf)
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
+    else
+        st = emit(out, *buf, *len, diag);
+    free(*buf);
+    *buf = NULL;
+    return st;
+}
+
+static const plumb_report_options *opts_or_default(const plumb_report_options *opt,
+                                                   plumb_report_options *def)
+{
+    if (opt)
+        return opt;
+    memset(def, 0, sizeof *def);
+    def->format = PLUMB_FORMAT_TEXT;
+    def->units = PLUMB_UNITS_SI;
+    return def;
+}
+
+plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
+                               const plumb_fall_report *rep, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = opts_or_default(opt, &def);
+    if (!out || !rep || !rep->profile || rep->n_items == 0 || !rep->items)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no fall report to write");
+    for (size_t i = 0; i < rep->n_items; i++)
+        if (!rep->items[i].spec)
+            return PLUMB_RAISE(diag, PLUMB_EINVAL, "item %zu has no fall spec", i + 1);
+    plumb_status st = check_same_criteria(rep, diag);
+    for (size_t i = 0; st == PLUMB_OK && i < rep->n_items; i++)
+        st = check_item(&rep->items[i], diag);
+    if (st != PLUMB_OK)
+        return st;
+
+    plumb_atmosphere *atm = NULL;
+    st = plumb_atmosphere_alloc(plumb_profile_atmosphere(rep->profile), &atm, diag);
+    if (st != PLUMB_OK)
+        return st;
+    item_air *ia = calloc(rep->n_items, sizeof *ia);
+    if (!ia) {
+        plumb_atmosphere_free(atm);
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
+    }
+    for (size_t i = 0; st == PLUMB_OK && i < rep->n_items; i++)
+        st = air_for(rep->items[i].spec, atm, &ia[i], diag);
+    plumb_atmosphere_free(atm);
+
+    if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        json_t *root = j_fall(&j, opt, rep, ia);
+        st = emit_json(out, &j, root, diag);
+    } else if (st == PLUMB_OK) {
+        writer w;
+        char *buf;
+        size_t len;
+        st = writer_open(&w, &buf, &len, opt->units, diag);
+        if (st == PLUMB_OK) {
+            if (opt->format == PLUMB_FORMAT_CSV)
+                csv_fall(&w, rep);
+            else if (plumb_profile_is_inventory(rep->profile))
+                text_inventory(&w, opt, rep, ia);
+            else
+                text_single(&w, opt, rep, ia);
+            st = writer_close(&w, &buf, &len, out, diag);
+        }
+    }
+    free(ia);
+    return st;
+}
+
+/* ---- air table --------------------------------------------------------- */
+
+static void text_air(writer *w, const plumb_report_options *opt, const plumb_air *rows,
+                     size_t n)
+{
+    text_header(w, opt, "air", "properties by geometric altitude above mean sea level");
+    enum { COL_W = 14 };
+    const char *heads[] = {"altitude", "temperature", "pressure", "density", "viscosity",
+                           "sound speed"};
+    const char *si[] = {"m", "K", "Pa", "kg/m³", "Pa·s", "m/s"};
+    const char *us[] = {"ft", "°F", "inHg", "lb/ft³", "lbf·s/ft²", "ft/s"};
+    put(w, "\n");
+    for (size_t k = 0; k < 6; k++)
+        pad(w, heads[k], COL_W, 1);
+    put(w, "\n");
+    for (size_t k = 0; k < 6; k++)
+        pad(w, w->us ? us[k] : si[k], COL_W, 1);
+    put(w, "\n");
+    double ft = PLUMB_FT_M, ft2 = ft * ft, ft3 = ft2 * ft;
+    for (size_t i = 0; i < n; i++) {
+        const plumb_air *a = &rows[i];
+        if (w->us) {
+            pad(w, num(w, a->alt_m / ft, 7), COL_W, 1);
+            pad(w, fixed(w, a->t_k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, 2), COL_W, 1);
+            pad(w, num(w, a->p_pa / INHG_PA, 5), COL_W, 1);
+            pad(w, num(w, a->rho_kg_m3 * ft3 / PLUMB_LB_KG, 5), COL_W, 1);
+            pad(w, sci(w, a->mu_pa_s * ft2 / LBF_N, 5), COL_W, 1);
+            pad(w, fixed(w, a->a_m_s / ft, 1), COL_W, 1);
+        } else {
+            pad(w, num(w, a->alt_m, 7), COL_W, 1);
+            pad(w, fixed(w, a->t_k, 3), COL_W, 1);
+            pad(w, num(w, a->p_pa, 5), COL_W, 1);
+            pad(w, num(w, a->rho_kg_m3, 5), COL_W, 1);
+            pad(w, sci(w, a->mu_pa_s, 5), COL_W, 1);
+            pad(w, fixed(w, a->a_m_s, 2), COL_W, 1);
+        }
+        put(w, "\n");
+    }
+    caution_lines_text(w);
+}
+
+static void csv_air(writer *w, const plumb_air *rows, size_t n)
+{
+    csv_cautions(w);
+    if (w->us)
+        put(w, "altitude_ft,temperature_degf,pressure_inhg,density_lb_ft3,viscosity_lbf_s_ft2,"
+               "speed_of_sound_ft_s\n");
+    else
+        put(w, "altitude_m,temperature_k,pressure_pa,density_kg_m3,viscosity_pa_s,"
+               "speed_of_sound_m_s\n");
+    double ft = PLUMB_FT_M, ft2 = ft * ft, ft3 = ft2 * ft;
+    for (size_t i = 0; i < n; i++) {
+        const plumb_air *a = &rows[i];
+        if (w->us)
+            put(w, "%s,%s,%s,%s,%s,%s\n", csvnum(w, a->alt_m / ft),
+                csvnum(w, a->t_k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET),
+                csvnum(w, a->p_pa / INHG_PA), csvnum(w, a->rho_kg_m3 * ft3 / PLUMB_LB_KG),
+                csvnum(w, a->mu_pa_s * ft2 / LBF_N), csvnum(w, a->a_m_s / ft));
+        else
+            put(w, "%s,%s,%s,%s,%s,%s\n", csvnum(w, a->alt_m), csvnum(w, a->t_k),
+                csvnum(w, a->p_pa), csvnum(w, a->rho_kg_m3), csvnum(w, a->mu_pa_s),
+                csvnum(w, a->a_m_s));
+    }
+}
+
+plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
+                              const plumb_air *rows, size_t n_rows, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = opts_or_default(opt, &def);
+    if (!out || (n_rows > 0 && !rows))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no air table to write");
+    for (size_t i = 0; i < n_rows; i++) {
+        finite_check fc = {diag, NULL, PLUMB_OK};
+        need_finite(&fc, "altitude", rows[i].alt_m);
+        need_finite(&fc, "air temperature", rows[i].t_k);
+        need_finite(&fc, "air pressure", rows[i].p_pa);
+        need_finite(&fc, "air density", rows[i].rho_kg_m3);
+        need_finite(&fc, "air viscosity", rows[i].mu_pa_s);
+        need_finite(&fc, "speed of sound", rows[i].a_m_s);
+        if (fc.status != PLUMB_OK)
+            return fc.status;
+    }
+    if (opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        json_t *root = jobj(&j);
+        json_t *arr = jarr(&j);
+        for (size_t i = 0; i < n_rows; i++)
+            jpush(&j, arr, j_air(&j, &rows[i]));
+        jset(&j, root, "rows", arr);
+        jset(&j, root, "cautions", j_cautions(&j));
+        return emit_json(out, &j, root, diag);
+    }
+    writer w;
+    char *buf;
+    size_t len;
+    plumb_status st = writer_open(&w, &buf, &len, opt->units, diag);
+    if (st != PLUMB_OK)
+        return st;
+    if (opt->format == PLUMB_FORMAT_CSV)
+        csv_air(&w, rows, n_rows);
+    else
+        text_air(&w, opt, rows, n_rows);
+    return writer_close(&w, &buf, &len, out, diag);
+}
