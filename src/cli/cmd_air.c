@@ -1,0 +1,187 @@
+/*
+ * cmd_air.c - `plumb air [--alt FROM:TO:STEP]`: air properties of the U.S.
+ * Standard Atmosphere 1976 (NOAA-S/T 76-1562) by geometric altitude above
+ * mean sea level, with an optional temperature offset: temperature,
+ * pressure, density, Sutherland viscosity and speed of sound.
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "cli.h"
+
+/* Most rows a table may have: enough for 0 m to 86 km in 1 m steps would
+ * not be a table to read; 100 000 bounds memory and time. */
+#define AIR_MAX_ROWS 100000
+/* Slack on (TO - FROM) / STEP so that an end point reached by whole steps
+ * (0m:20km:1km) keeps its row despite rounding: a billionth of a step. */
+#define AIR_STEP_SLACK 1e-9
+
+static const char usage[] =
+    "Usage: plumb air [--alt FROM:TO:STEP] [--temperature-offset DT] [OPTIONS]\n"
+    "Air of the U.S. Standard Atmosphere 1976 by geometric altitude above mean sea\n"
+    "level: temperature, pressure, density, viscosity and speed of sound.\n"
+    "  --alt FROM:TO:STEP         altitudes, each with its unit (default 0m:20km:1km);\n"
+    "                             STEP > 0, FROM <= TO, at most 100000 rows\n"
+    "  --temperature-offset DT    added to the standard temperature, e.g. \"10 K\"\n"
+    "                             (default 0 K)\n";
+
+typedef struct air_job {
+    plumb_report_options opt;
+    const plumb_air *rows;
+    size_t n;
+} air_job;
+
+static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
+{
+    const air_job *job = ctx;
+    return plumb_report_air(out, &job->opt, job->rows, job->n, diag);
+}
+
+static plumb_status option_error(plumb_diag *diag, plumb_status st, const char *option,
+                                 const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 4, 5)))
+#endif
+    ;
+
+static plumb_status option_error(plumb_diag *diag, plumb_status st, const char *option,
+                                 const char *fmt, ...)
+{
+    char msg[PLUMB_DIAG_MSG];
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(msg, sizeof msg, fmt, ap);
+    va_end(ap);
+    plumb_diag_clear(diag);
+    diag->status = st;
+    snprintf(diag->key, sizeof diag->key, "%s", option);
+    snprintf(diag->message, sizeof diag->message, "%s", msg);
+    return st;
+}
+
+/* One quantity of an option, with its unit. */
+static plumb_status quantity(const plumb_units *units, const char *option, const char *part,
+                             const char *text, plumb_dim dim, double *out, plumb_diag *diag)
+{
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumb_units_parse(units, text, dim, out, &d);
+    if (st != PLUMB_OK)
+        return option_error(diag, st, option, "%s%s'%s': %s", part, part[0] ? " " : "", text,
+                            d.message[0] ? d.message : plumb_strerror(st));
+    return PLUMB_OK;
+}
+
+/* Parses "FROM:TO:STEP" into altitudes, m. */
+static plumb_status parse_alt(const plumb_units *units, const char *spec, double *from,
+                              double *to, double *step, plumb_diag *diag)
+{
+    char buf[256];
+    if (snprintf(buf, sizeof buf, "%s", spec) >= (int)sizeof buf)
+        return option_error(diag, PLUMB_EPARSE, "--alt", "too long");
+    char *parts[3];
+    char *p = buf;
+    for (int i = 0; i < 3; i++) {
+        parts[i] = p;
+        char *colon = strchr(p, ':');
+        if (i < 2) {
+            if (!colon)
+                return option_error(diag, PLUMB_EPARSE, "--alt",
+                                    "expected FROM:TO:STEP with units, e.g. 0m:20km:1km; found "
+                                    "'%s'", spec);
+            *colon = '\0';
+            p = colon + 1;
+        } else if (colon) {
+            return option_error(diag, PLUMB_EPARSE, "--alt",
+                                "expected FROM:TO:STEP, three parts; found '%s'", spec);
+        }
+    }
+    static const char *const names[3] = {"FROM", "TO", "STEP"};
+    double *vals[3] = {from, to, step};
+    for (int i = 0; i < 3; i++) {
+        plumb_status st = quantity(units, "--alt", names[i], parts[i], PLUMB_DIM_LENGTH, vals[i],
+                                   diag);
+        if (st != PLUMB_OK)
+            return st;
+    }
+    if (!(*step > 0.0))
+        return option_error(diag, PLUMB_ERANGE, "--alt", "STEP must be > 0, found '%s'",
+                            parts[2]);
+    if (*from > *to)
+        return option_error(diag, PLUMB_ERANGE, "--alt",
+                            "FROM (%s) must not be above TO (%s)", parts[0], parts[1]);
+    double span = (*to - *from) / *step;
+    if (!(span + 1.0 <= AIR_MAX_ROWS))
+        return option_error(diag, PLUMB_ERANGE, "--alt",
+                            "'%s' makes more than %d rows; use a larger STEP", spec,
+                            AIR_MAX_ROWS);
+    return PLUMB_OK;
+}
+
+static int run(const cli_args *a, const char *alt_text, const char *dt_text)
+{
+    if (a->n_args > 0)
+        return cli_usage_error(a->cmd, "takes no arguments, found '%s'", a->args[0]);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    plumb_units *units = NULL;
+    plumb_air *rows = NULL;
+    double from = 0.0, to = 0.0, step = 0.0, dt = 0.0;
+    size_t n = 0;
+
+    plumb_status st = plumb_units_alloc(&units, &diag);
+    if (st == PLUMB_OK)
+        st = parse_alt(units, alt_text ? alt_text : "0m:20km:1km", &from, &to, &step, &diag);
+    if (st == PLUMB_OK && dt_text)
+        st = quantity(units, "--temperature-offset", "", dt_text, PLUMB_DIM_TEMP_DIFF, &dt,
+                      &diag);
+    if (st == PLUMB_OK) {
+        n = (size_t)floor((to - from) / step + AIR_STEP_SLACK) + 1;
+        rows = calloc(n, sizeof *rows);
+        if (!rows)
+            st = option_error(&diag, PLUMB_ENOMEM, "--alt", "out of memory for %zu rows", n);
+    }
+    for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
+        double alt = from + (double)i * step;
+        if (alt > to)
+            alt = to;
+        plumb_status s = plumb_std1976(alt, dt, &rows[i]);
+        if (s != PLUMB_OK)
+            st = option_error(&diag, s, alt_text ? "--alt" : "",
+                              "no air at %g m above sea level with a temperature offset of "
+                              "%g K: %s (the model spans about -5 km to 86 km)", alt, dt,
+                              plumb_strerror(s));
+    }
+    int rc;
+    if (st == PLUMB_OK) {
+        air_job job;
+        memset(&job, 0, sizeof job);
+        job.opt.format = a->format;
+        job.opt.units = a->units;
+        job.opt.version = PLUMB_VERSION;
+        job.rows = rows;
+        job.n = n;
+        rc = cli_emit(a, write_report, &job);
+    } else {
+        rc = cli_fail(&diag);
+    }
+    free(rows);
+    plumb_units_free(units);
+    return rc;
+}
+
+int cmd_air(int argc, char **argv)
+{
+    cli_option extra[] = {{"--alt", NULL}, {"--temperature-offset", NULL}};
+    cli_args a;
+    int rc = cli_parse(argc, argv, CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET, extra,
+                       sizeof extra / sizeof extra[0], usage, &a);
+    if (rc != CLI_GO_ON)
+        return rc;
+    rc = run(&a, extra[0].value, extra[1].value);
+    cli_args_free(&a);
+    return rc;
+}

@@ -1,0 +1,71 @@
+/*
+ * main.c - the plumb command line: a table of subcommands over libplumb
+ * (design.md section 6). Each subcommand lives in cmd_<name>.c; what they
+ * share (option parsing, atomic output, error printing) is in cli.h, whose
+ * definitions are compiled here.
+ */
+#include <stdio.h>
+#include <string.h>
+
+#include <gsl/gsl_errno.h>
+
+#define CLI_IMPLEMENTATION
+#include "cli.h"
+
+static const cli_command commands[] = {
+    {"fall", cmd_fall, "one fall: impact speed, energy, time, drift, verdicts"},
+    {"air", cmd_air, "air properties by altitude (--alt 0m:20km:1km)"},
+    {"lint", cmd_lint, "validate profiles"},
+};
+enum { N_COMMANDS = sizeof commands / sizeof commands[0] };
+
+static void usage(FILE *f)
+{
+    fprintf(f, "Usage: plumb COMMAND [OPTIONS] [ARGS]\n"
+               "A drop-and-descent safety calculator: how fast and how hard a falling object\n"
+               "arrives, where it lands, and which published criteria that breaks.\n\n"
+               "Commands:\n");
+    for (size_t i = 0; i < N_COMMANDS; i++)
+        fprintf(f, "  %-6s %s\n", commands[i].name, commands[i].help);
+    fprintf(f, "\n'plumb COMMAND --help' describes a command and its options.\n"
+               "Every report is an engineering estimate; see SAFETY.md.\n");
+}
+
+int main(int argc, char **argv)
+{
+    /* GSL must report errors as status codes, never abort. */
+    gsl_set_error_handler_off();
+
+    if (argc < 2) {
+        usage(stderr);
+        return CLI_EXIT_INPUT;
+    }
+    const char *name = argv[1];
+    if (strcmp(name, "--help") == 0 || strcmp(name, "-h") == 0 || strcmp(name, "help") == 0) {
+        if (strcmp(name, "help") == 0 && argc > 2) {
+            for (size_t i = 0; i < N_COMMANDS; i++)
+                if (strcmp(argv[2], commands[i].name) == 0) {
+                    static char help_flag[] = "--help";
+                    char *help_argv[] = {argv[2], help_flag, NULL};
+                    return commands[i].run(2, help_argv);
+                }
+            return cli_usage_error(NULL, "unknown command '%s'", argv[2]);
+        }
+        usage(stdout);
+        return CLI_EXIT_OK;
+    }
+    if (strcmp(name, "--version") == 0) {
+        printf("plumb %s\n", PLUMB_VERSION);
+        return CLI_EXIT_OK;
+    }
+    for (size_t i = 0; i < N_COMMANDS; i++)
+        if (strcmp(name, commands[i].name) == 0)
+            return commands[i].run(argc - 1, argv + 1);
+
+    fprintf(stderr, "plumb: unknown %s '%s'; the commands are:", name[0] == '-' ? "option"
+                                                                              : "command", name);
+    for (size_t i = 0; i < N_COMMANDS; i++)
+        fprintf(stderr, " %s", commands[i].name);
+    fprintf(stderr, "\nTry 'plumb --help'.\n");
+    return CLI_EXIT_INPUT;
+}
