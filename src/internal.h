@@ -45,4 +45,12 @@ const char *plumbp_closest(const char *word, const char *const *candidates, size
 /* True when x is neither NaN nor infinite. */
 int plumbp_finite(double x);
 
+/* One evaluation of the fall's right-hand side (trajectory.c) at time t_s
+ * and state y (x, y, z, vx, vy, vz, W), into f; for measuring its cost
+ * (`make bench`). Returns 0 on success. */
+struct plumb_fall_spec;
+struct plumb_atmosphere;
+int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmosphere *atm,
+                    double t_s, const double y[7], double f[7]);
+
 #endif /* PLUMB_INTERNAL_H */

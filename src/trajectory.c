@@ -39,6 +39,10 @@ enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
 /* A rise this far above the drag-free apex means the object is buoyant. */
 #define RISE_MARGIN_M 1.0
 
+static double body_cda(const plumb_drag_spec *d);
+typedef struct fall_ctx fall_ctx;
+static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm);
+
 /* ---- per-run context of the right-hand side ---------------------------- */
 
 typedef struct device_state {
@@ -49,18 +53,33 @@ typedef struct device_state {
     double cds_m2;       /* full canopy CdS */
 } device_state;
 
-typedef struct fall_ctx {
+struct fall_ctx {
     const plumb_fall_spec *spec;
     const plumb_atmosphere *atm;
     double inv_m;               /* 1 / mass */
     double body_cda_m2;         /* fixed-model CdA */
     int sphere;                 /* 1: Cd(Re) sphere model */
+    int wind_table;             /* 1: table wind, components looked up */
+    double wind_dir[2];         /* else: east, north components of a unit wind */
     size_t n_dev;
     device_state dev[PLUMB_MAX_DESCENT];
     size_t evals;               /* RHS evaluations */
     plumb_status fail;          /* set when the RHS cannot be evaluated */
     double fail_alt_m;
-} fall_ctx;
+};
+
+static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm)
+{
+    memset(c, 0, sizeof *c);
+    c->spec = spec;
+    c->atm = atm;
+    c->inv_m = 1.0 / spec->mass_kg;
+    c->body_cda_m2 = body_cda(&spec->drag);
+    c->sphere = spec->drag.model != PLUMB_DRAG_FIXED;
+    c->n_dev = spec->n_descent;
+    c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;
+    plumb_wind_components(1.0, spec->wind.from_deg, &c->wind_dir[0], &c->wind_dir[1]);
+}
 
 /* Local air, relative velocity and drag acceleration at (t, y). */
 typedef struct local {
@@ -95,8 +114,14 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
         return GSL_EBADFUNC;
     }
     L->g = plumb_gravity_at(&s->gravity, alt);
-    double we = 0.0, wn = 0.0;
-    plumb_wind_at(&s->wind, y[IZ], &we, &wn);
+    double we, wn;
+    if (c->wind_table) {
+        plumb_wind_at(&s->wind, y[IZ], &we, &wn);
+    } else {
+        double w = plumb_wind_speed_at(&s->wind, y[IZ]);
+        we = w * c->wind_dir[0];
+        wn = w * c->wind_dir[1];
+    }
     L->vr[0] = y[IVX] - we;
     L->vr[1] = y[IVY] - wn;
     L->vr[2] = y[IVZ];
@@ -129,6 +154,14 @@ static int rhs_time(double t, const double y[], double f[], void *params)
     f[IVZ] = -k * L.vr[2] - L.g + L.air.rho_kg_m3 * c->spec->volume_m3 * L.g * c->inv_m;
     f[IW] = -k * (L.vr[0] * y[IVX] + L.vr[1] * y[IVY] + L.vr[2] * y[IVZ]) / c->inv_m;
     return GSL_SUCCESS;
+}
+
+int plumbp_fall_rhs(const plumb_fall_spec *spec, const plumb_atmosphere *atm, double t_s,
+                    const double y[NSTATE], double f[NSTATE])
+{
+    fall_ctx c;
+    ctx_init(&c, spec, atm);
+    return rhs_time(t_s, y, f, &c);
 }
 
 /* Finite-difference Jacobian for the implicit stepper (msbdf). */
@@ -653,12 +686,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
         return st;
     memset(res, 0, sizeof *res);
     runner r = {.w = w, .res = res, .diag = diag};
-    r.ctx.spec = spec;
-    r.ctx.atm = atm;
-    r.ctx.inv_m = 1.0 / spec->mass_kg;
-    r.ctx.body_cda_m2 = body_cda(&spec->drag);
-    r.ctx.sphere = spec->drag.model != PLUMB_DRAG_FIXED;
-    r.ctx.n_dev = spec->n_descent;
+    ctx_init(&r.ctx, spec, atm);
     r.sys = (gsl_odeiv2_system){rhs_time, jac_time, NSTATE, &r.ctx};
     w->path_n = 0;
 

@@ -107,33 +107,38 @@ static void table_at(const plumb_wind_spec *w, double z_m, double *east, double 
     *north = w->table_north_m_s[lo] + f * (w->table_north_m_s[hi] - w->table_north_m_s[lo]);
 }
 
+double plumb_wind_speed_at(const plumb_wind_spec *spec, double z_m)
+{
+    if (!(z_m > 0.0)) /* calm at and below the strike level (and for NaN) */
+        return 0.0;
+    switch (spec->profile) {
+    case PLUMB_WIND_UNIFORM:
+        return spec->speed_m_s;
+    case PLUMB_WIND_POWER:
+        return spec->speed_m_s * pow(z_m / spec->ref_height_m, spec->exponent);
+    case PLUMB_WIND_LOG:
+        if (!(z_m > spec->roughness_m))
+            return 0.0;
+        return spec->speed_m_s * log(z_m / spec->roughness_m) /
+               log(spec->ref_height_m / spec->roughness_m);
+    case PLUMB_WIND_TABLE:
+    default:
+        return 0.0;
+    }
+}
+
 void plumb_wind_at(const plumb_wind_spec *spec, double z_m, double *east_m_s, double *north_m_s)
 {
     *east_m_s = 0.0;
     *north_m_s = 0.0;
-    if (!(z_m > 0.0)) /* calm at and below the strike level (and for NaN) */
+    if (!(z_m > 0.0))
         return;
-    double s;
-    switch (spec->profile) {
-    case PLUMB_WIND_UNIFORM:
-        s = spec->speed_m_s;
-        break;
-    case PLUMB_WIND_POWER:
-        s = spec->speed_m_s * pow(z_m / spec->ref_height_m, spec->exponent);
-        break;
-    case PLUMB_WIND_LOG:
-        if (!(z_m > spec->roughness_m))
-            return;
-        s = spec->speed_m_s * log(z_m / spec->roughness_m) /
-            log(spec->ref_height_m / spec->roughness_m);
-        break;
-    case PLUMB_WIND_TABLE:
-        if (spec->table_n > 0 && spec->table_h_m && spec->table_east_m_s &&
-            spec->table_north_m_s)
+    if (spec->profile == PLUMB_WIND_TABLE) {
+        if (spec->table_n > 0 && spec->table_h_m && spec->table_east_m_s && spec->table_north_m_s)
             table_at(spec, z_m, east_m_s, north_m_s);
         return;
-    default:
-        return;
     }
-    plumb_wind_components(s, spec->from_deg, east_m_s, north_m_s);
+    double s = plumb_wind_speed_at(spec, z_m);
+    if (s != 0.0)
+        plumb_wind_components(s, spec->from_deg, east_m_s, north_m_s);
 }

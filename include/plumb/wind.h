@@ -49,6 +49,12 @@ void plumb_wind_spec_init(plumb_wind_spec *spec);
  * for a valid spec. */
 void plumb_wind_at(const plumb_wind_spec *spec, double z_m, double *east_m_s, double *north_m_s);
 
+/* Wind speed s(z) of a uniform, power or log profile at height z_m, m/s
+ * (0 for a table profile, whose direction varies: use plumb_wind_at).
+ * With the direction fixed, the components are s(z) times
+ * plumb_wind_components(1, from). Can't fail. */
+double plumb_wind_speed_at(const plumb_wind_spec *spec, double z_m);
+
 /* Converts (speed, from) into (east, north) components of the air's motion. */
 void plumb_wind_components(double speed_m_s, double from_deg, double *east_m_s, double *north_m_s);
 
