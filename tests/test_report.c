@@ -1,0 +1,785 @@
+/*
+ * test_report.c - the report module: cautions in every format, refusal of
+ * non-finite figures with nothing written, verdict ratios and words against
+ * the published criteria values, warnings, JSON contract keys and
+ * round-trip precision, CSV quoting and units, inventory summary lines.
+ *
+ * Sources of the checked values:
+ *   - 14 CFR 107.130(a)(1): 25 ft lbf (seen) and 14 CFR 107.120(a)(1):
+ *     11 ft lbf (transcribed), with 1 ft lbf = 1.3558179483 J exactly
+ *     (0.3048 m x 0.45359237 kg x 9.80665 m/s^2; references.md), so
+ *     33.895 J and 14.914 J.
+ *   - EN 397 shock absorption test energy 49 J (references.md, transcribed
+ *     table; a helmet test, not a safe limit).
+ *   - U.S. Standard Atmosphere 1976, Table I at 0 m (references.md).
+ *   - IEEE 754-2008 section 5.12.2: 17 significant decimal digits recover
+ *     any binary64 value exactly.
+ *   - RFC 4180 section 2: fields containing commas or quotes are quoted,
+ *     quotes doubled.
+ *   - design.md sections 6 and 7: the JSON keys and the cautions.
+ * The fall results are hand-built (not computed): these tests check what
+ * the report does with figures, not the physics that made them.
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <setjmp.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+#include <cmocka.h>
+#include <jansson.h>
+
+#include "plumb/plumb.h"
+#include "plumb_test.h"
+
+/* 1 ft lbf in J, references.md (exact by definition of the foot, pound and g0). */
+#define FT_LBF_J 1.3558179483
+
+typedef struct fixture {
+    char dir[64];             /* temporary directory */
+    char crit_dir[96];        /* its criteria/ */
+    plumb_units *units;
+    plumb_criteria *crit;
+} fixture;
+
+static void write_file(const char *path, const char *text)
+{
+    FILE *f = fopen(path, "w");
+    assert_non_null(f);
+    assert_true(fputs(text, f) >= 0);
+    assert_int_equal(fclose(f), 0);
+}
+
+static void remove_tree(const char *dir)
+{
+    char cmd[256];
+    snprintf(cmd, sizeof cmd, "rm -rf '%s'", dir);
+    assert_int_equal(system(cmd), 0);
+}
+
+static int setup(void **state)
+{
+    plumbt_setup_gsl(state);
+    fixture *fx = calloc(1, sizeof *fx);
+    if (!fx)
+        return -1;
+    snprintf(fx->dir, sizeof fx->dir, "/tmp/plumb-test-report-XXXXXX");
+    if (!mkdtemp(fx->dir))
+        return -1;
+    snprintf(fx->crit_dir, sizeof fx->crit_dir, "%s/criteria", fx->dir);
+    char cmd[160];
+    snprintf(cmd, sizeof cmd, "mkdir '%s'", fx->crit_dir);
+    if (system(cmd) != 0)
+        return -1;
+    char path[160];
+    /* 14 CFR 107.130(a)(1), seen: 25 ft lbf. */
+    snprintf(path, sizeof path, "%s/us-part107-cat3.yaml", fx->crit_dir);
+    write_file(path, "name: US operations over people, category 3\n"
+                     "kind: limit\n"
+                     "energy_limit: 25 ft lbf\n"
+                     "applies_to: rigid object striking a person\n"
+                     "source: 14 CFR 107.130(a)(1)\n"
+                     "status: seen\n");
+    /* 14 CFR 107.120(a)(1), transcribed: 11 ft lbf. */
+    snprintf(path, sizeof path, "%s/us-part107-cat2.yaml", fx->crit_dir);
+    write_file(path, "name: US operations over people, category 2\n"
+                     "kind: limit\n"
+                     "energy_limit: 11 ft lbf\n"
+                     "applies_to: rigid object striking a person\n"
+                     "source: 14 CFR 107.120(a)(1)\n"
+                     "status: transcribed\n");
+    /* EN 397 shock absorption, 49 J (references.md, transcribed). */
+    snprintf(path, sizeof path, "%s/en397-shock-49j.yaml", fx->crit_dir);
+    write_file(path, "name: EN 397 helmet shock absorption test\n"
+                     "kind: helmet-test\n"
+                     "energy_limit: 49 J\n"
+                     "applies_to: industrial safety helmet, as tested (not a safe limit)\n"
+                     "source: EN 397, shock absorption test\n"
+                     "status: transcribed\n");
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    if (plumb_units_alloc(&fx->units, &diag) != PLUMB_OK)
+        return -1;
+    if (plumb_criteria_load_dir(fx->crit_dir, fx->units, &fx->crit, &diag) != PLUMB_OK) {
+        fprintf(stderr, "criteria: %s\n", diag.message);
+        return -1;
+    }
+    *state = fx;
+    return 0;
+}
+
+static int teardown(void **state)
+{
+    fixture *fx = *state;
+    plumb_criteria_free(fx->crit);
+    plumb_units_free(fx->units);
+    remove_tree(fx->dir);
+    free(fx);
+    return 0;
+}
+
+/* Loads a profile written into the fixture's directory. */
+static plumb_profile *load_profile(fixture *fx, const char *name, const char *yaml)
+{
+    char path[160];
+    snprintf(path, sizeof path, "%s/%s", fx->dir, name);
+    write_file(path, yaml);
+    plumb_profile *p = NULL;
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    plumb_status st = plumb_profile_load(path, fx->units, NULL, 0, &p, &diag);
+    if (st != PLUMB_OK)
+        fprintf(stderr, "profile: %s: %s\n", diag.key, diag.message);
+    assert_int_equal(st, PLUMB_OK);
+    return p;
+}
+
+static const char spanner_yaml[] =
+    "name: Test spanner, 3/8 in\n"
+    "payload:\n"
+    "  mass: 2.385 kg\n"
+    "  drag: {cd: 0.93, area: 0.0187 m^2}\n"
+    "release:\n"
+    "  height: 28.7 m\n"
+    "criteria: [us-part107-cat3, us-part107-cat2]\n";
+
+/* A hand-built fall of the 2.385 kg spanner at impact speed v. */
+static void hand_built(plumb_item_report *it, const plumb_profile *p, double v)
+{
+    memset(it, 0, sizeof *it);
+    it->spec = plumb_profile_item(p, 0);
+    it->shape = plumb_profile_item_shape(p, 0);
+    plumb_fall_result *r = &it->result;
+    double m = it->spec->mass_kg;
+    r->time_s = 2.6381;
+    r->velocity_m_s[0] = 0.0;
+    r->velocity_m_s[1] = 0.0;
+    r->velocity_m_s[2] = -v;
+    r->speed_m_s = v;
+    r->energy_j = 0.5 * m * v * v;
+    r->momentum_kg_m_s = m * v;
+    r->angle_deg = 90.0;
+    r->apex_m = 28.7;
+    r->terminal_speed_m_s = 46.713;
+    r->drag_free_speed_m_s = sqrt(2.0 * PLUMB_G0_M_S2 * 28.7);
+    r->drag_free_energy_j = m * PLUMB_G0_M_S2 * 28.7;
+    r->drag_work_j = r->energy_j - r->drag_free_energy_j;
+    r->max_mach = v / 340.29;
+    r->solver.method = "rk8pd";
+    r->solver.steps = 37;
+    r->solver.rhs_evaluations = 481;
+}
+
+/* Runs the fall report into a string (caller frees); *st gets the status. */
+static char *fall_report(const plumb_profile *p, plumb_item_report *items, size_t n,
+                         plumb_format format, plumb_unit_system units, plumb_status *st,
+                         plumb_diag *diag)
+{
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *f = open_memstream(&buf, &len);
+    assert_non_null(f);
+    plumb_report_options opt = {format, units, "9.9.9"};
+    plumb_fall_report rep = {p, n, items};
+    plumb_diag_clear(diag);
+    *st = plumb_report_fall(f, &opt, &rep, diag);
+    assert_int_equal(fclose(f), 0);
+    return buf;
+}
+
+/* Copy of s with every run of white space made one space. */
+static char *squeeze(const char *s)
+{
+    char *out = malloc(strlen(s) + 1);
+    assert_non_null(out);
+    size_t k = 0;
+    int space = 0;
+    for (const char *p = s; *p; p++) {
+        if (*p == ' ' || *p == '\n' || *p == '\t') {
+            space = 1;
+            continue;
+        }
+        if (space && k > 0)
+            out[k++] = ' ';
+        space = 0;
+        out[k++] = *p;
+    }
+    out[k] = '\0';
+    return out;
+}
+
+static plumb_item_report judged_spanner(fixture *fx, const plumb_profile *p, double v)
+{
+    plumb_item_report it;
+    hand_built(&it, p, v);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    return it;
+}
+
+/* ---- cautions ----------------------------------------------------------- */
+
+static void test_cautions_say_what_design_section_7_requires(void **state)
+{
+    (void)state;
+    size_t n = 0;
+    const char *const *c = plumb_cautions(&n);
+    assert_true(n >= 4);
+    char all[2048] = "";
+    for (size_t i = 0; i < n; i++) {
+        assert_true(strlen(all) + strlen(c[i]) + 2 < sizeof all);
+        strcat(all, c[i]);
+        strcat(all, " ");
+    }
+    /* design.md section 7, point by point. */
+    assert_non_null(strstr(all, "engineering estimate"));
+    assert_non_null(strstr(all, "point-mass model"));
+    assert_non_null(strstr(all, "deflect, bounce, break and tumble"));
+    assert_non_null(strstr(all, "not guarantees of safety"));
+    assert_non_null(strstr(all, "sharp or dense objects injure below them"));
+    assert_non_null(strstr(all, "local codes and regulations"));
+    assert_non_null(strstr(all, "competent or licensed person"));
+    assert_non_null(strstr(all, "SAFETY.md"));
+}
+
+static void test_cautions_appear_in_text_json_and_csv_fall_reports(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_item_report it = judged_spanner(fx, p, 22.913);
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    plumb_status st;
+    plumb_diag diag;
+
+    char *text = fall_report(p, &it, 1, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    char *flat = squeeze(text);
+    for (size_t i = 0; i < n; i++) {
+        char *want = squeeze(c[i]);
+        if (!strstr(flat, want))
+            fail_msg("text report lacks caution: %s", c[i]);
+        free(want);
+    }
+    free(flat);
+    free(text);
+
+    char *json = fall_report(p, &it, 1, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    json_error_t err;
+    json_t *root = json_loads(json, 0, &err);
+    assert_non_null(root);
+    json_t *arr = json_object_get(root, "cautions");
+    assert_true(json_is_array(arr));
+    assert_int_equal(json_array_size(arr), n);
+    for (size_t i = 0; i < n; i++)
+        assert_string_equal(json_string_value(json_array_get(arr, i)), c[i]);
+    json_decref(root);
+    free(json);
+
+    char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    const char *header = strstr(csv, "\nname,");
+    assert_non_null(header);
+    for (size_t i = 0; i < n; i++) {
+        char line[512];
+        snprintf(line, sizeof line, "# %s\n", c[i]);
+        const char *at = strstr(csv, line);
+        if (!at || at > header)
+            fail_msg("CSV lacks caution comment before the header: %s", c[i]);
+    }
+    free(csv);
+    plumb_profile_free(p);
+}
+
+static void test_cautions_appear_in_air_reports_of_every_format(void **state)
+{
+    (void)state;
+    plumb_air row = {0.0, 288.15, 101325.0, 1.2250, 1.7894e-5, 340.294};
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        char *buf = NULL;
+        size_t len = 0;
+        FILE *out = open_memstream(&buf, &len);
+        plumb_report_options opt = {(plumb_format)f, PLUMB_UNITS_SI, NULL};
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_report_air(out, &opt, &row, 1, &diag), PLUMB_OK);
+        fclose(out);
+        char *flat = squeeze(buf);
+        for (size_t i = 0; i < n; i++) {
+            char *want = squeeze(c[i]);
+            if (!strstr(flat, want))
+                fail_msg("air report (format %d) lacks caution: %s", f, c[i]);
+            free(want);
+        }
+        free(flat);
+        free(buf);
+    }
+}
+
+/* ---- refusal of non-finite figures --------------------------------------- */
+
+static void test_non_finite_impact_speed_is_refused_with_nothing_written(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        plumb_item_report it = judged_spanner(fx, p, 22.913);
+        it.result.speed_m_s = NAN;
+        plumb_status st;
+        plumb_diag diag;
+        char *buf = fall_report(p, &it, 1, (plumb_format)f, PLUMB_UNITS_SI, &st, &diag);
+        assert_int_equal(st, PLUMB_ENUMERIC);
+        assert_int_equal(diag.status, PLUMB_ENUMERIC);
+        assert_non_null(strstr(diag.message, "impact speed"));
+        assert_true(buf == NULL || buf[0] == '\0');
+        free(buf);
+    }
+    plumb_profile_free(p);
+}
+
+static void test_infinite_energy_ratio_is_refused_with_nothing_written(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        plumb_item_report it = judged_spanner(fx, p, 22.913);
+        it.verdicts[1].ratio = INFINITY;
+        plumb_status st;
+        plumb_diag diag;
+        char *buf = fall_report(p, &it, 1, (plumb_format)f, PLUMB_UNITS_US, &st, &diag);
+        assert_int_equal(st, PLUMB_ENUMERIC);
+        assert_true(buf == NULL || buf[0] == '\0');
+        free(buf);
+    }
+    plumb_profile_free(p);
+}
+
+static void test_non_finite_air_density_is_refused_with_nothing_written(void **state)
+{
+    (void)state;
+    plumb_air rows[2] = {{0.0, 288.15, 101325.0, 1.2250, 1.7894e-5, 340.294},
+                         {1000.0, 281.651, 89876.0, NAN, 1.7579e-5, 336.43}};
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        char *buf = NULL;
+        size_t len = 0;
+        FILE *out = open_memstream(&buf, &len);
+        plumb_report_options opt = {(plumb_format)f, PLUMB_UNITS_SI, NULL};
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_report_air(out, &opt, rows, 2, &diag), PLUMB_ENUMERIC);
+        fclose(out);
+        assert_int_equal(len, 0);
+        free(buf);
+    }
+}
+
+/* ---- verdicts ------------------------------------------------------------ */
+
+static void test_part107_verdicts_use_33_895_and_14_914_joules(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    /* 5.291 m/s: 0.5 x 2.385 x 5.291^2 = 33.384 J, within 25 ft lbf but
+     * above 11 ft lbf. */
+    plumb_item_report it = judged_spanner(fx, p, 5.291);
+    assert_int_equal(it.n_verdicts, 2);
+    const plumb_verdict *cat3 = &it.verdicts[0], *cat2 = &it.verdicts[1];
+    assert_string_equal(cat3->criterion->id, "us-part107-cat3");
+    assert_string_equal(cat2->criterion->id, "us-part107-cat2");
+    /* 14 CFR 107.130(a)(1): 25 ft lbf = 33.895 J; 107.120(a)(1): 11 ft lbf = 14.914 J. */
+    assert_rel(cat3->criterion->energy_limit_j, 33.895, 2e-5);
+    assert_rel(cat2->criterion->energy_limit_j, 14.914, 2e-5);
+    double e = 0.5 * 2.385 * 5.291 * 5.291;
+    assert_rel(cat3->ratio, e / (25.0 * FT_LBF_J), 1e-12);
+    assert_rel(cat2->ratio, e / (11.0 * FT_LBF_J), 1e-12);
+    assert_false(cat3->exceeds);
+    assert_true(cat2->exceeds);
+
+    plumb_status st;
+    plumb_diag diag;
+    char *json = fall_report(p, &it, 1, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    json_t *root = json_loads(json, 0, NULL);
+    assert_non_null(root);
+    json_t *crit = json_object_get(root, "criteria");
+    assert_int_equal(json_array_size(crit), 2);
+    json_t *c0 = json_array_get(crit, 0), *c1 = json_array_get(crit, 1);
+    assert_string_equal(json_string_value(json_object_get(c0, "verdict")), "within");
+    assert_string_equal(json_string_value(json_object_get(c1, "verdict")), "exceeds");
+    assert_string_equal(json_string_value(json_object_get(c0, "source")), "14 CFR 107.130(a)(1)");
+    assert_rel(json_real_value(json_object_get(c0, "energy_limit_j")), 33.895, 2e-5);
+    assert_rel(json_real_value(json_object_get(c1, "ratio")), e / (11.0 * FT_LBF_J), 1e-12);
+    json_decref(root);
+    free(json);
+
+    char *text = fall_report(p, &it, 1, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(strstr(text, "WITHIN   US operations over people, category 3"));
+    assert_non_null(strstr(text, "EXCEEDS  US operations over people, category 2"));
+    /* Limits shown in both units: 33.90 J = 25.00 ft lbf, 14.91 J = 11.00 ft lbf. */
+    assert_non_null(strstr(text, "limit 33.90 J (25.00 ft·lbf)"));
+    assert_non_null(strstr(text, "limit 14.91 J (11.00 ft·lbf)"));
+    /* Ratio e / 14.914 = 2.238 shown to three figures. */
+    assert_non_null(strstr(text, "ratio 2.24"));
+    free(text);
+    plumb_profile_free(p);
+}
+
+static void test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    /* v such that E = 25 ft lbf exactly: 33.895 J. */
+    double v = sqrt(2.0 * 25.0 * FT_LBF_J / 2.385);
+    plumb_item_report it = judged_spanner(fx, p, v);
+    plumb_status st;
+    plumb_diag diag;
+    char *si = fall_report(p, &it, 1, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(strstr(si, "energy     33.90 J (25.00 ft·lbf)"));
+    char *us = fall_report(p, &it, 1, PLUMB_FORMAT_TEXT, PLUMB_UNITS_US, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(strstr(us, "energy     25.00 ft·lbf (33.90 J)"));
+    /* 1 ft = 0.3048 m: v m/s = v / 0.3048 ft/s. */
+    char want[64];
+    snprintf(want, sizeof want, "speed      %.2f ft/s", v / 0.3048);
+    assert_non_null(strstr(us, want));
+    free(si);
+    free(us);
+    plumb_profile_free(p);
+}
+
+static void test_unknown_named_criterion_is_a_key_error_with_did_you_mean(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "typo.yaml",
+                                    "name: Typo\n"
+                                    "payload: {mass: 0.734 kg, drag: {cd_area: 0.0041 m^2}}\n"
+                                    "release: {height: 17.3 m}\n"
+                                    "criteria: [us-part107-cat3, us-part107-cat4]\n");
+    plumb_item_report it;
+    hand_built(&it, p, 14.2);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_EKEY);
+    assert_int_equal(diag.status, PLUMB_EKEY);
+    assert_string_equal(diag.key, "criteria[1]");
+    assert_non_null(strstr(diag.message, "us-part107-cat4"));
+    assert_non_null(strstr(diag.message, "did you mean 'us-part107-cat3'"));
+    plumb_profile_free(p);
+}
+
+static void test_profile_naming_no_criteria_is_judged_against_all(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "all.yaml",
+                                    "payload: {mass: 0.734 kg, drag: {cd_area: 0.0041 m^2}}\n"
+                                    "release: {height: 17.3 m}\n");
+    plumb_item_report it;
+    hand_built(&it, p, 14.2);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    assert_int_equal(it.n_verdicts, plumb_criteria_count(fx->crit));
+    assert_int_equal(it.n_verdicts, 3);
+    plumb_profile_free(p);
+}
+
+/* ---- warnings ------------------------------------------------------------ */
+
+static int has_warning(const plumb_item_report *it, const char *needle)
+{
+    for (size_t i = 0; i < it->n_warnings; i++)
+        if (strstr(it->warnings[i], needle))
+            return 1;
+    return 0;
+}
+
+static void test_mach_above_one_half_gives_a_warning(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_item_report it;
+    hand_built(&it, p, 22.913);
+    it.result.max_mach = 0.537;
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    assert_true(has_warning(&it, "Mach 0.54"));
+    hand_built(&it, p, 22.913);
+    it.result.max_mach = 0.493;
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    assert_false(has_warning(&it, "Mach"));
+    plumb_profile_free(p);
+}
+
+static void test_reynolds_number_beyond_morrison_range_gives_a_warning(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_fall_spec sphere = *plumb_profile_item(p, 0);
+    sphere.drag.model = PLUMB_DRAG_SPHERE_MORRISON;
+    sphere.drag.diameter_m = 0.347;
+    plumb_item_report it;
+    hand_built(&it, p, 22.913);
+    it.spec = &sphere;
+    /* Morrison (2013): the correlation holds for Re <= 1e6. */
+    it.result.min_re = 1.13e4;
+    it.result.max_re = 1.27e6;
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    assert_true(has_warning(&it, "Reynolds number runs from 1.13e+04 to 1.27e+06"));
+    it.result.max_re = 9.71e5;
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    assert_false(has_warning(&it, "Reynolds"));
+    plumb_profile_free(p);
+}
+
+static void test_helmet_test_criterion_is_labelled_not_a_safe_limit(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "helmet.yaml",
+                                    "payload: {mass: 0.734 kg, drag: {cd_area: 0.0041 m^2}}\n"
+                                    "release: {height: 17.3 m}\n"
+                                    "criteria: [en397-shock-49j, us-part107-cat2]\n");
+    plumb_item_report it;
+    hand_built(&it, p, 14.2);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_OK);
+    assert_true(has_warning(&it, "en397-shock-49j is the energy a helmet is tested to, not a "
+                                 "safe limit"));
+    assert_false(has_warning(&it, "us-part107-cat2"));
+    plumb_profile_free(p);
+}
+
+/* ---- JSON ---------------------------------------------------------------- */
+
+static void test_json_has_the_keys_of_design_section_6(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_item_report it = judged_spanner(fx, p, 22.913);
+    plumb_status st;
+    plumb_diag diag;
+    char *json = fall_report(p, &it, 1, PLUMB_FORMAT_JSON, PLUMB_UNITS_US, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    json_t *root = json_loads(json, 0, NULL);
+    assert_non_null(root);
+    json_t *impact = json_object_get(root, "impact");
+    static const char *const impact_keys[] = {"time_s", "speed_m_s", "energy_j",
+                                              "momentum_kg_m_s", "angle_deg", "drift_m",
+                                              "bearing_deg"};
+    for (size_t i = 0; i < sizeof impact_keys / sizeof impact_keys[0]; i++)
+        assert_true(json_is_number(json_object_get(impact, impact_keys[i])));
+    assert_int_equal(json_array_size(json_object_get(impact, "point_m")), 2);
+    assert_int_equal(json_array_size(json_object_get(impact, "velocity_m_s")), 3);
+    assert_true(json_is_number(json_object_get(root, "terminal_speed_m_s")));
+    assert_true(json_is_number(json_object_get(root, "apex_m")));
+    json_t *df = json_object_get(root, "drag_free");
+    assert_true(json_is_number(json_object_get(df, "speed_m_s")));
+    assert_true(json_is_number(json_object_get(df, "energy_j")));
+    assert_true(json_is_array(json_object_get(root, "criteria")));
+    assert_true(json_is_array(json_object_get(root, "warnings")));
+    assert_true(json_is_object(json_object_get(root, "solver")));
+    assert_true(json_is_object(json_object_get(root, "inputs")));
+    assert_null(json_object_get(root, "descent"));
+    json_t *prof = json_object_get(root, "profile");
+    assert_string_equal(json_string_value(json_object_get(prof, "sha256")),
+                        plumb_profile_sha256(p));
+    /* JSON is SI whatever --units says: the speed is in m/s. */
+    assert_rel(json_real_value(json_object_get(impact, "speed_m_s")), 22.913, 1e-15);
+    json_decref(root);
+    free(json);
+    plumb_profile_free(p);
+}
+
+static void test_json_numbers_read_back_to_the_same_double(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    /* Values whose shortest decimal forms need all 17 digits. */
+    plumb_item_report it = judged_spanner(fx, p, 22.913000000000004);
+    it.result.time_s = 2.6381000000000001 + 2.220446049250313e-16;
+    plumb_status st;
+    plumb_diag diag;
+    char *json = fall_report(p, &it, 1, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    json_t *root = json_loads(json, 0, NULL);
+    json_t *impact = json_object_get(root, "impact");
+    assert_true(json_real_value(json_object_get(impact, "speed_m_s")) == it.result.speed_m_s);
+    assert_true(json_real_value(json_object_get(impact, "time_s")) == it.result.time_s);
+    assert_true(json_real_value(json_object_get(impact, "energy_j")) == it.result.energy_j);
+    json_decref(root);
+    free(json);
+    plumb_profile_free(p);
+}
+
+static void test_air_json_rows_carry_the_1976_sea_level_values(void **state)
+{
+    (void)state;
+    /* U.S. Standard Atmosphere 1976, Table I, 0 m (references.md). */
+    plumb_air row = {0.0, 288.15, 101325.0, 1.2250, 1.7894e-5, 340.294};
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *out = open_memstream(&buf, &len);
+    plumb_report_options opt = {PLUMB_FORMAT_JSON, PLUMB_UNITS_US, NULL};
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_air(out, &opt, &row, 1, &diag), PLUMB_OK);
+    fclose(out);
+    json_t *root = json_loads(buf, 0, NULL);
+    assert_non_null(root);
+    json_t *r0 = json_array_get(json_object_get(root, "rows"), 0);
+    assert_true(json_real_value(json_object_get(r0, "temperature_k")) == 288.15);
+    assert_true(json_real_value(json_object_get(r0, "pressure_pa")) == 101325.0);
+    assert_true(json_real_value(json_object_get(r0, "density_kg_m3")) == 1.2250);
+    assert_true(json_real_value(json_object_get(r0, "viscosity_pa_s")) == 1.7894e-5);
+    assert_true(json_is_number(json_object_get(r0, "altitude_m")));
+    assert_true(json_is_number(json_object_get(r0, "speed_of_sound_m_s")));
+    json_decref(root);
+    free(buf);
+}
+
+/* ---- CSV ----------------------------------------------------------------- */
+
+static void test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_fall_spec named = *plumb_profile_item(p, 0);
+    snprintf(named.name, sizeof named.name, "Spanner, \"3/8\" drive");
+    plumb_item_report it = judged_spanner(fx, p, 22.913);
+    it.spec = &named;
+    plumb_status st;
+    plumb_diag diag;
+    char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(strstr(csv, "\n\"Spanner, \"\"3/8\"\" drive\",2.385,"));
+    free(csv);
+    plumb_profile_free(p);
+}
+
+static void test_us_units_csv_names_columns_in_feet_and_pounds(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_item_report it = judged_spanner(fx, p, 22.913);
+    plumb_status st;
+    plumb_diag diag;
+    char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_US, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    const char *h = strstr(csv, "\nname,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,");
+    assert_non_null(h);
+    assert_non_null(strstr(h, ",us-part107-cat3_ratio,us-part107-cat3_verdict,"));
+    const char *row = strchr(h + 1, '\n');
+    assert_non_null(row);
+    /* mass 2.385 kg / 0.45359237 kg/lb; speed 22.913 m/s / 0.3048 m/ft. */
+    double mass_lb, time_s, speed_ft_s;
+    char name[64];
+    assert_int_equal(sscanf(row + 1, "%63[^,],%lf,%lf,%lf", name, &mass_lb, &time_s, &speed_ft_s),
+                     4);
+    assert_rel(mass_lb, 2.385 / 0.45359237, 1e-9);
+    assert_rel(speed_ft_s, 22.913 / 0.3048, 1e-9);
+    free(csv);
+    plumb_profile_free(p);
+}
+
+/* ---- inventory ------------------------------------------------------------ */
+
+static void test_inventory_names_the_worst_item_and_the_largest_drift(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "kit.yaml",
+                                    "name: Tower kit\n"
+                                    "items:\n"
+                                    "  - {name: Radio, mass: 0.412 kg, drag: {cd_area: 0.0063 m^2}}\n"
+                                    "  - {name: Torque wrench, mass: 2.385 kg, drag: {cd_area: 0.0174 m^2}}\n"
+                                    "  - {name: Tag line, mass: 0.916 kg, drag: {cd_area: 0.0412 m^2}}\n"
+                                    "release: {height: 41.3 m}\n"
+                                    "criteria: [us-part107-cat3]\n");
+    assert_int_equal(plumb_profile_item_count(p), 3);
+    plumb_item_report items[3];
+    double speed[3] = {21.37, 26.05, 17.82}, drift[3] = {1.93, 0.41, 6.77};
+    for (size_t i = 0; i < 3; i++) {
+        memset(&items[i], 0, sizeof items[i]);
+        items[i].spec = plumb_profile_item(p, i);
+        double m = items[i].spec->mass_kg;
+        plumb_fall_result *r = &items[i].result;
+        r->speed_m_s = speed[i];
+        r->energy_j = 0.5 * m * speed[i] * speed[i];
+        r->momentum_kg_m_s = m * speed[i];
+        r->drift_m = drift[i];
+        r->bearing_deg = 81.0;
+        r->time_s = 3.1;
+        r->angle_deg = 78.0;
+        r->solver.method = "rk8pd";
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_item_judge(&items[i], p, fx->crit, NULL, &diag), PLUMB_OK);
+    }
+    plumb_status st;
+    plumb_diag diag;
+    char *json = fall_report(p, items, 3, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    json_t *root = json_loads(json, 0, NULL);
+    assert_non_null(root);
+    /* 0.5 x 2.385 x 26.05^2 = 809.2 J, the highest ratio to 33.895 J. */
+    assert_string_equal(json_string_value(json_object_get(root, "worst")), "Torque wrench");
+    assert_string_equal(json_string_value(json_object_get(root, "largest_drift")), "Tag line");
+    assert_int_equal(json_array_size(json_object_get(root, "items")), 3);
+    json_t *item1 = json_array_get(json_object_get(root, "items"), 1);
+    assert_string_equal(json_string_value(json_object_get(item1, "name")), "Torque wrench");
+    assert_true(json_is_object(json_object_get(item1, "impact")));
+    assert_true(json_is_array(json_object_get(root, "cautions")));
+    json_decref(root);
+    free(json);
+
+    char *text = fall_report(p, items, 3, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(strstr(text, "Worst item     Torque wrench"));
+    assert_non_null(strstr(text, "Largest drift  Tag line, 6.770 m"));
+    free(text);
+
+    char *csv = fall_report(p, items, 3, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(strstr(csv, "\nRadio,0.412,"));
+    assert_non_null(strstr(csv, "\nTorque wrench,2.385,"));
+    assert_non_null(strstr(csv, "\nTag line,0.916,"));
+    free(csv);
+    plumb_profile_free(p);
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_cautions_say_what_design_section_7_requires),
+        cmocka_unit_test(test_cautions_appear_in_text_json_and_csv_fall_reports),
+        cmocka_unit_test(test_cautions_appear_in_air_reports_of_every_format),
+        cmocka_unit_test(test_non_finite_impact_speed_is_refused_with_nothing_written),
+        cmocka_unit_test(test_infinite_energy_ratio_is_refused_with_nothing_written),
+        cmocka_unit_test(test_non_finite_air_density_is_refused_with_nothing_written),
+        cmocka_unit_test(test_part107_verdicts_use_33_895_and_14_914_joules),
+        cmocka_unit_test(test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems),
+        cmocka_unit_test(test_unknown_named_criterion_is_a_key_error_with_did_you_mean),
+        cmocka_unit_test(test_profile_naming_no_criteria_is_judged_against_all),
+        cmocka_unit_test(test_mach_above_one_half_gives_a_warning),
+        cmocka_unit_test(test_reynolds_number_beyond_morrison_range_gives_a_warning),
+        cmocka_unit_test(test_helmet_test_criterion_is_labelled_not_a_safe_limit),
+        cmocka_unit_test(test_json_has_the_keys_of_design_section_6),
+        cmocka_unit_test(test_json_numbers_read_back_to_the_same_double),
+        cmocka_unit_test(test_air_json_rows_carry_the_1976_sea_level_values),
+        cmocka_unit_test(test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says),
+        cmocka_unit_test(test_us_units_csv_names_columns_in_feet_and_pounds),
+        cmocka_unit_test(test_inventory_names_the_worst_item_and_the_largest_drift),
+    };
+    return cmocka_run_group_tests(tests, setup, teardown);
+}
