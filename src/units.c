@@ -1,0 +1,788 @@
+/*
+ * units.c - quantities with units ("2.4 kg", "11 ft lbf", "15 degC"),
+ * parsed with udunits2 after an alias table for the trade's abbreviations.
+ *
+ * Method: the number is read with strtod; the unit text is rewritten token
+ * by token (whole words only) through the alias table below, then parsed by
+ * udunits2 (UDUNITS-2 C API, Unidata/UCAR, v2.2) in UTF-8 and converted to
+ * the SI reference unit of the requested dimension:
+ *
+ *     value_SI = cv(value)          cv = ut_get_converter(unit, reference)
+ *
+ * Temperatures: PLUMB_DIM_TEMPERATURE keeps the scale's offset
+ * (T/K = t/degC + 273.15 = (t/degF + 459.67)/1.8, NIST SP 811 (2008)
+ * B.9); every other dimension uses the unit's interval only (udunits2
+ * drops the offset of a unit multiplied by one), so "18 degF" as a
+ * temperature difference is 10 K and "6.5 degC/km" is 0.0065 K/m.
+ *
+ * Angles: udunits2 treats the radian as a dimensionless unit, so a
+ * percentage is "convertible" to degrees.  An angle must therefore carry
+ * the radian to the first power in its definition, and a fraction must not
+ * carry it at all.
+ *
+ * Exact definitions behind the alias table:
+ *   foot = 0.3048 m, pound = 0.45359237 kg (international yard and pound
+ *   agreement, 1959); g0 = 9.80665 m/s^2 (3rd CGPM, 1901), so
+ *   lbf = 4.4482216152605 N; nautical mile = 1852 m, knot = 1852/3600 m/s;
+ *   ounce (avoirdupois) = pound/16; conventional inch of mercury =
+ *   3.386 389 E+03 Pa (NIST SP 811 (2008) Appendix B.8).
+ *
+ * Ownership and threads: the handle owns the udunits2 unit system; udunits2
+ * is not thread-safe and ut_set_error_message_handler() is process-global
+ * (set to ut_ignore here so that the library never prints).
+ */
+#include <ctype.h>
+#include <errno.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <udunits2.h>
+
+#include "plumb/units.h"
+#include "internal.h"
+
+/* Longest quantity or unit text accepted, bytes (a sane unit is < 40). */
+#define UNITS_TEXT_MAX 256
+/* Room for the unit text once aliases are expanded. Aliases can grow a
+ * text up to about nine times ("kn%" -> 27 bytes); a real unit grows far
+ * less ("ft lbf" -> 34 bytes), so a text that needs more than this is not a
+ * plausible unit and is refused. */
+#define UNITS_EXPANDED_MAX (4 * UNITS_TEXT_MAX)
+/* Longest piece of user text quoted in a diagnostic, bytes. */
+#define UNITS_SHOW_MAX 80
+/* Room for a unit formatted by ut_format() in a diagnostic. */
+#define UNITS_FORMAT_MAX 128
+
+struct plumb_units {
+    ut_system *sys;                  /* the udunits2 unit system (owned) */
+    ut_unit *ref[PLUMB_DIM_COUNT];   /* SI reference unit of each dimension (owned) */
+    ut_unit *radian;                 /* the radian, to tell angles from numbers (owned) */
+    ut_unit *one;                    /* the dimensionless unit one (owned) */
+};
+
+/* What every dimension is called, returned in and exemplified by. */
+typedef struct dim_info {
+    const char *name;     /* human name, "mass" */
+    const char *article;  /* "a" or "an" before the name */
+    const char *si;       /* SI unit shown to people, "kg" */
+    const char *ud;       /* the same unit spelt for udunits2 */
+    const char *example;  /* an example value, used when no number was given */
+} dim_info;
+
+static const dim_info dims[PLUMB_DIM_COUNT] = {
+    [PLUMB_DIM_NONE] = {"dimensionless number", "a", "1", "1", "0.9"},
+    [PLUMB_DIM_LENGTH] = {"length", "a", "m", "m", "30 m"},
+    [PLUMB_DIM_MASS] = {"mass", "a", "kg", "kg", "2.4 kg"},
+    [PLUMB_DIM_TIME] = {"time", "a", "s", "s", "1.5 s"},
+    [PLUMB_DIM_SPEED] = {"speed", "a", "m/s", "m/s", "8 m/s"},
+    [PLUMB_DIM_AREA] = {"area", "an", "m^2", "m^2", "0.021 m^2"},
+    [PLUMB_DIM_VOLUME] = {"volume", "a", "m^3", "m^3", "0.0015 m^3"},
+    [PLUMB_DIM_ENERGY] = {"energy", "an", "J", "J", "80 J"},
+    [PLUMB_DIM_FORCE] = {"force", "a", "N", "N", "40 N"},
+    [PLUMB_DIM_ANGLE] = {"angle", "an", "deg", "arc_degree", "270 deg"},
+    [PLUMB_DIM_TEMPERATURE] = {"temperature", "a", "K", "K", "288.15 K"},
+    [PLUMB_DIM_TEMP_DIFF] = {"temperature difference", "a", "K", "K", "10 K"},
+    [PLUMB_DIM_PRESSURE] = {"pressure", "a", "Pa", "Pa", "101325 Pa"},
+    [PLUMB_DIM_DENSITY] = {"density", "a", "kg/m^3", "kg/m^3", "1.225 kg/m^3"},
+    [PLUMB_DIM_LAPSE] = {"lapse rate", "a", "K/m", "K/m", "0.0065 K/m"},
+    [PLUMB_DIM_FRACTION] = {"fraction", "a", "1", "1", "0.5"},
+};
+
+/* Dimensions tried, in this order, to name what a wrong unit measures.
+ * TEMP_DIFF and FRACTION are left out: they share TEMPERATURE's and
+ * NONE's dimension; angles and numbers are told apart by the radian. */
+static const plumb_dim describe_order[] = {
+    PLUMB_DIM_LENGTH, PLUMB_DIM_MASS,     PLUMB_DIM_TIME,        PLUMB_DIM_SPEED,
+    PLUMB_DIM_AREA,   PLUMB_DIM_VOLUME,   PLUMB_DIM_ENERGY,      PLUMB_DIM_FORCE,
+    PLUMB_DIM_PRESSURE, PLUMB_DIM_DENSITY, PLUMB_DIM_TEMPERATURE, PLUMB_DIM_LAPSE,
+};
+
+/* The alias table: a whole word of the unit text and the unambiguous
+ * udunits2 spelling that replaces it.  `dim` is what the alias measures;
+ * plumb_units_alloc() checks every entry against it, so a database that
+ * disagrees fails loudly instead of converting silently.  udunits2 2.2.28
+ * alone reads "mph" and "kph" as the milliphot and kilophot, "oz" as the
+ * US fluid ounce (a volume), "nmi" as a nano-mile, its avoirdupois_ounce is
+ * rounded to 2.834952e-2 kg, and it knows no "kn", "deg", "fps", "lbs" or
+ * "ftlbf". */
+typedef struct unit_alias {
+    const char *word;   /* token as written in a profile, case-sensitive */
+    const char *ud;     /* udunits2 expression it stands for */
+    plumb_dim dim;      /* what it measures */
+} unit_alias;
+
+static const unit_alias aliases[] = {
+    /* length: 1959 international yard and pound agreement (exact) */
+    {"ft", "international_foot", PLUMB_DIM_LENGTH},
+    {"feet", "international_foot", PLUMB_DIM_LENGTH},
+    {"foot", "international_foot", PLUMB_DIM_LENGTH},
+    {"in", "international_inch", PLUMB_DIM_LENGTH},
+    {"inch", "international_inch", PLUMB_DIM_LENGTH},
+    {"inches", "international_inch", PLUMB_DIM_LENGTH},
+    {"yd", "international_yard", PLUMB_DIM_LENGTH},
+    {"mi", "international_mile", PLUMB_DIM_LENGTH},
+    /* nautical mile = 1852 m exactly (NIST SP 811 (2008) B.8) */
+    {"nmi", "nautical_mile", PLUMB_DIM_LENGTH},
+    /* speed: mile per hour = 0.44704 m/s exactly; knot = 1852/3600 m/s
+     * (NIST SP 811 (2008) B.8) */
+    {"mph", "(international_mile/hour)", PLUMB_DIM_SPEED},
+    {"kn", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
+    {"kt", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
+    {"kts", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
+    {"knot", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
+    {"knots", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
+    {"kph", "(kilometer/hour)", PLUMB_DIM_SPEED},
+    {"fps", "(international_foot/second)", PLUMB_DIM_SPEED},
+    /* mass: avoirdupois pound 0.45359237 kg exactly (1959), ounce = lb/16 */
+    {"lb", "avoirdupois_pound", PLUMB_DIM_MASS},
+    {"lbs", "avoirdupois_pound", PLUMB_DIM_MASS},
+    {"lbm", "avoirdupois_pound", PLUMB_DIM_MASS},
+    {"oz", "(avoirdupois_pound/16)", PLUMB_DIM_MASS},
+    /* force and energy: lbf = 0.45359237 kg x 9.80665 m/s^2 (CGPM 1901) */
+    {"lbf", "pound_force", PLUMB_DIM_FORCE},
+    {"ftlbf", "(international_foot pound_force)", PLUMB_DIM_ENERGY},
+    {"inlbf", "(international_inch pound_force)", PLUMB_DIM_ENERGY},
+    /* temperature scales (NIST SP 811 (2008) B.9) */
+    {"degC", "degree_Celsius", PLUMB_DIM_TEMPERATURE},
+    {"degF", "degree_fahrenheit", PLUMB_DIM_TEMPERATURE},
+    /* pressure: hectopascal; conventional inch of mercury 3.386 389 E+03 Pa
+     * as tabulated in NIST SP 811 (2008) B.8 (udunits2's own inHg is
+     * 0.0254 m x 13595.10 kg/m^3 x g0 = 3386.38864 Pa, the same to the
+     * seven digits NIST gives); psi = lbf/in^2 */
+    {"hPa", "hectopascal", PLUMB_DIM_PRESSURE},
+    {"inHg", "(3386.389 pascal)", PLUMB_DIM_PRESSURE},
+    {"psi", "(pound_force/international_inch^2)", PLUMB_DIM_PRESSURE},
+    /* angle: degree = pi/180 rad */
+    {"deg", "arc_degree", PLUMB_DIM_ANGLE},
+    {"degree", "arc_degree", PLUMB_DIM_ANGLE},
+    {"degrees", "arc_degree", PLUMB_DIM_ANGLE},
+    {"rad", "radian", PLUMB_DIM_ANGLE},
+    /* fraction: per cent */
+    {"%", "percent", PLUMB_DIM_FRACTION},
+};
+
+#define N_ALIASES (sizeof aliases / sizeof aliases[0])
+
+/* Candidates for "did you mean" besides the alias words. */
+static const char *const common_units[] = {
+    "kg", "g", "m", "km", "cm", "mm", "s", "min", "h", "m/s", "km/h", "J", "kJ", "N",
+    "Pa", "kPa", "K", "m^2", "m^3", "kg/m^3", "K/m", "K/km",
+};
+
+#define N_COMMON (sizeof common_units / sizeof common_units[0])
+
+static int valid_dim(plumb_dim dim)
+{
+    return (unsigned)dim < (unsigned)PLUMB_DIM_COUNT;
+}
+
+const char *plumb_dim_si_unit(plumb_dim dim)
+{
+    return valid_dim(dim) ? dims[dim].si : "?";
+}
+
+const char *plumb_dim_name(plumb_dim dim)
+{
+    return valid_dim(dim) ? dims[dim].name : "unknown dimension";
+}
+
+/* ---- the unit's shape, from a udunits2 visitor ---------------------------- */
+
+/* What a parsed unit is made of, beyond its dimension. */
+typedef struct unit_shape {
+    const ut_visitor *self;   /* this visitor, to descend into Galilean units */
+    const ut_unit *radian;    /* the radian of the system */
+    int rad_power;            /* power of the radian in the definition */
+    int has_offset;           /* a Galilean unit with an offset (degC, degF) */
+    int is_timestamp;         /* "s since 2000-01-01" */
+    int is_log;               /* a logarithmic unit */
+    const ut_unit *product;   /* the underlying product of base units */
+} unit_shape;
+
+static ut_status visit_basic(const ut_unit *unit, void *arg)
+{
+    unit_shape *shape = arg;
+    if (ut_compare(unit, shape->radian) == 0)
+        shape->rad_power += 1;
+    shape->product = unit;
+    return UT_SUCCESS;
+}
+
+static ut_status visit_product(const ut_unit *unit, int count, const ut_unit *const *basic,
+                               const int *powers, void *arg)
+{
+    unit_shape *shape = arg;
+    for (int i = 0; i < count; i++)
+        if (ut_compare(basic[i], shape->radian) == 0)
+            shape->rad_power += powers[i];
+    shape->product = unit;
+    return UT_SUCCESS;
+}
+
+static ut_status visit_galilean(const ut_unit *unit, double scale, const ut_unit *underlying,
+                                double offset, void *arg)
+{
+    unit_shape *shape = arg;
+    (void)unit;
+    (void)scale;
+    if (offset != 0.0)
+        shape->has_offset = 1;
+    return ut_accept_visitor(underlying, shape->self, arg);
+}
+
+static ut_status visit_timestamp(const ut_unit *unit, const ut_unit *time_unit, double origin,
+                                 void *arg)
+{
+    unit_shape *shape = arg;
+    (void)unit;
+    (void)time_unit;
+    (void)origin;
+    shape->is_timestamp = 1;
+    return UT_SUCCESS;
+}
+
+static ut_status visit_logarithmic(const ut_unit *unit, double base, const ut_unit *reference,
+                                   void *arg)
+{
+    unit_shape *shape = arg;
+    (void)unit;
+    (void)base;
+    (void)reference;
+    shape->is_log = 1;
+    return UT_SUCCESS;
+}
+
+static const ut_visitor shape_visitor = {
+    visit_basic, visit_product, visit_galilean, visit_timestamp, visit_logarithmic,
+};
+
+/* Fills *shape for unit. Returns 0, or -1 when udunits2 could not visit it. */
+static int unit_shape_of(const plumb_units *units, const ut_unit *unit, unit_shape *shape)
+{
+    memset(shape, 0, sizeof *shape);
+    shape->self = &shape_visitor;
+    shape->radian = units->radian;
+    return ut_accept_visitor(unit, &shape_visitor, shape) == UT_SUCCESS ? 0 : -1;
+}
+
+/* ---- rewriting the unit text ---------------------------------------------- */
+
+static int is_word_char(unsigned char c)
+{
+    return (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || c == '_';
+}
+
+static const unit_alias *find_alias(const char *word, size_t len)
+{
+    for (size_t i = 0; i < N_ALIASES; i++)
+        if (strlen(aliases[i].word) == len && memcmp(aliases[i].word, word, len) == 0)
+            return &aliases[i];
+    return NULL;
+}
+
+/* A bounded output buffer: `full` is set instead of overflowing. */
+typedef struct outbuf {
+    char *p;
+    size_t len, cap;
+    int full;
+} outbuf;
+
+static void out_bytes(outbuf *o, const char *s, size_t n)
+{
+    if (o->full || o->len + n >= o->cap) {
+        o->full = 1;
+        return;
+    }
+    memcpy(o->p + o->len, s, n);
+    o->len += n;
+    o->p[o->len] = '\0';
+}
+
+static void out_str(outbuf *o, const char *s)
+{
+    out_bytes(o, s, strlen(s));
+}
+
+/* If s starts with a UTF-8 superscript digit or sign, returns its byte
+ * length and stores its ASCII counterpart in *ascii; else returns 0.
+ * Superscripts: U+00B2 U+00B3 U+00B9 U+2070 U+2074..U+2079 U+207A U+207B. */
+static size_t superscript(const unsigned char *s, char *ascii)
+{
+    if (s[0] == 0xC2 && (s[1] == 0xB2 || s[1] == 0xB3)) {
+        *ascii = (char)('2' + (s[1] - 0xB2));
+        return 2;
+    }
+    if (s[0] == 0xC2 && s[1] == 0xB9) {
+        *ascii = '1';
+        return 2;
+    }
+    if (s[0] == 0xE2 && s[1] == 0x81) {
+        if (s[2] == 0xB0) {
+            *ascii = '0';
+            return 3;
+        }
+        if (s[2] >= 0xB4 && s[2] <= 0xB9) {
+            *ascii = (char)('4' + (s[2] - 0xB4));
+            return 3;
+        }
+        if (s[2] == 0xBA || s[2] == 0xBB) {
+            *ascii = s[2] == 0xBA ? '+' : '-';
+            return 3;
+        }
+    }
+    return 0;
+}
+
+/* Length of a UTF-8 multiplication dot at s (U+00B7 middle dot, U+22C5 dot
+ * operator), else 0. */
+static size_t mult_dot(const unsigned char *s)
+{
+    if (s[0] == 0xC2 && s[1] == 0xB7)
+        return 2;
+    if (s[0] == 0xE2 && s[1] == 0x8B && s[2] == 0x85)
+        return 3;
+    return 0;
+}
+
+/* Rewrites the unit text for udunits2: whole-word aliases replaced, "%"
+ * spelt out, a multiplication dot made a space, superscript exponents
+ * ("m⁻³", which udunits2 2.2.28 cannot read) made ASCII ("m^-3"). A
+ * hyphen between names ("ft-lbf") is already a product for udunits2, and
+ * an exponent after an alias ("ft2" -> "international_foot2") still reads
+ * as a power.
+ * Returns 0, or -1 when the result does not fit. */
+static int rewrite_unit(const char *in, char *out, size_t cap)
+{
+    outbuf o = {out, 0, cap, 0};
+    const unsigned char *s = (const unsigned char *)in;
+    out[0] = '\0';
+    size_t i = 0;
+    while (s[i]) {
+        char sup;
+        size_t n;
+        if (is_word_char(s[i])) {
+            size_t start = i;
+            while (is_word_char(s[i]))
+                i++;
+            const unit_alias *a = find_alias(in + start, i - start);
+            if (a)
+                out_str(&o, a->ud);
+            else
+                out_bytes(&o, in + start, i - start);
+        } else if (s[i] == '%') {
+            out_str(&o, find_alias("%", 1)->ud);
+            i++;
+        } else if ((n = mult_dot(s + i)) > 0) {
+            out_str(&o, " ");
+            i += n;
+        } else if ((n = superscript(s + i, &sup)) > 0) {
+            out_str(&o, "^");
+            while ((n = superscript(s + i, &sup)) > 0) {
+                out_bytes(&o, &sup, 1);
+                i += n;
+            }
+        } else {
+            out_bytes(&o, in + i, 1);
+            i++;
+        }
+    }
+    return o.full ? -1 : 0;
+}
+
+/* True when the unit text holds a number that is not an exponent, e.g.
+ * "kg 3", "lb/16", "ft.5": udunits2 would silently scale by it.  An
+ * exponent follows a name, ")" or "^" ("m2", "m^2", "s-1", "(ft)2", "m**2").
+ * The unit "1" and a leading "1/" ("1/s") are allowed. */
+static int has_number_factor(const char *unit)
+{
+    const unsigned char *s = (const unsigned char *)unit;
+    size_t i = 0;
+    if (s[0] == '1' && (s[1] == '\0' || s[1] == '/'))
+        i = 1;
+    for (; s[i]; i++) {
+        if (s[i] == '.' && isdigit(s[i + 1]))
+            return 1; /* ".5", "ft.5", "m2.5": no decimal exponents */
+        if (!isdigit(s[i]) || (i > 0 && (isdigit(s[i - 1]) || s[i - 1] == '.')))
+            continue; /* not a digit, or inside a number already judged */
+        if (i == 0)
+            return 1;
+        unsigned char p = s[i - 1];
+        if (is_word_char(p) || p == ')' || p == '^')
+            continue;
+        if (p == '*' && i >= 2 && s[i - 2] == '*')
+            continue;
+        if ((p == '-' || p == '+') && i >= 2 && (is_word_char(s[i - 2]) || s[i - 2] == ')'))
+            continue;
+        return 1;
+    }
+    return 0;
+}
+
+/* ---- diagnostics ----------------------------------------------------------- */
+
+/* Describes what `unit` measures: "a length", "an angle", or "a quantity in
+ * m-2.cd.rad2" for dimensions plumb does not use. */
+static void describe_unit(const plumb_units *units, const ut_unit *unit, const unit_shape *shape,
+                          char *buf, size_t size)
+{
+    if (ut_are_convertible(unit, units->one)) {
+        snprintf(buf, size, "%s", shape->rad_power == 1 ? "an angle" : "a dimensionless number");
+        return;
+    }
+    for (size_t i = 0; i < sizeof describe_order / sizeof describe_order[0]; i++) {
+        plumb_dim d = describe_order[i];
+        if (ut_are_convertible(unit, units->ref[d])) {
+            snprintf(buf, size, "%s %s", dims[d].article, dims[d].name);
+            return;
+        }
+    }
+    char def[UNITS_FORMAT_MAX];
+    const ut_unit *base = shape->product ? shape->product : unit;
+    if (ut_format(base, def, sizeof def, UT_ASCII | UT_DEFINITION) < 0)
+        plumbp_strlcpy(def, "an unnamed dimension", sizeof def);
+    snprintf(buf, size, "a quantity in %s", def);
+}
+
+/* What a caller wanted, for messages: "a mass (kg)", "a fraction (a bare
+ * number or \"%\")", "a bare number". */
+static void describe_want(plumb_dim want, char *buf, size_t size)
+{
+    if (want == PLUMB_DIM_NONE)
+        snprintf(buf, size, "a bare number (dimensionless)");
+    else if (want == PLUMB_DIM_FRACTION)
+        snprintf(buf, size, "a fraction (a bare number or \"%%\")");
+    else
+        snprintf(buf, size, "%s %s (%s)", dims[want].article, dims[want].name, dims[want].si);
+}
+
+/* Raises the "unknown unit" error, with a did-you-mean when the unit is
+ * one word close to a known spelling. */
+static plumb_status raise_unknown(plumb_diag *diag, plumb_dim want, const char *unit,
+                                  const char *shown)
+{
+    char w[UNITS_SHOW_MAX + 64];
+    describe_want(want, w, sizeof w);
+    const char *cands[N_COMMON + N_ALIASES];
+    size_t n = 0;
+    for (size_t i = 0; i < N_COMMON; i++)
+        cands[n++] = common_units[i];
+    for (size_t i = 0; i < N_ALIASES; i++)
+        cands[n++] = aliases[i].word;
+    const char *best = plumbp_closest(unit, cands, n);
+    if (best)
+        return PLUMB_RAISE(diag, PLUMB_EUNIT,
+                           "expected %s; unknown unit \"%.*s\" in \"%.*s\" (did you mean \"%s\"?)",
+                           w, UNITS_SHOW_MAX, unit, UNITS_SHOW_MAX, shown, best);
+    return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; unknown unit \"%.*s\" in \"%.*s\"", w,
+                       UNITS_SHOW_MAX, unit, UNITS_SHOW_MAX, shown);
+}
+
+/* ---- conversion ------------------------------------------------------------ */
+
+/* Converts value in unit text `unit` (trimmed, may be "") to the SI unit of
+ * `want`. `shown` is the whole quantity as the user wrote it, `number` its
+ * number, both for messages. Writes *si_out only on success. */
+static plumb_status convert(const plumb_units *units, double value, const char *unit,
+                            plumb_dim want, const char *shown, const char *number,
+                            double *si_out, plumb_diag *diag)
+{
+    char w[UNITS_SHOW_MAX + 64];
+    describe_want(want, w, sizeof w);
+
+    if (unit[0] == '\0') {
+        if (want == PLUMB_DIM_NONE || want == PLUMB_DIM_FRACTION) {
+            *si_out = value;
+            return PLUMB_OK;
+        }
+        return PLUMB_RAISE(diag, PLUMB_EUNIT,
+                           "expected %s %s with its unit (e.g. \"%.*s %s\"); found a bare number "
+                           "\"%.*s\"",
+                           dims[want].article, dims[want].name, UNITS_SHOW_MAX, number,
+                           dims[want].si, UNITS_SHOW_MAX, number);
+    }
+    if (want == PLUMB_DIM_NONE) {
+        if (strcmp(unit, "1") == 0) {
+            *si_out = value;
+            return PLUMB_OK;
+        }
+        return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" with a unit", w,
+                           UNITS_SHOW_MAX, shown);
+    }
+    char expanded[UNITS_EXPANDED_MAX];
+    if (rewrite_unit(unit, expanded, sizeof expanded) != 0)
+        return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; the unit in \"%.*s...\" is too long",
+                           w, UNITS_SHOW_MAX, shown);
+
+    ut_unit *parsed = ut_parse(units->sys, expanded, UT_UTF8);
+    if (!parsed)
+        return raise_unknown(diag, want, unit, shown);
+
+    unit_shape shape;
+    plumb_status st = PLUMB_OK;
+    ut_unit *interval = NULL;
+    cv_converter *cv = NULL;
+    if (unit_shape_of(units, parsed, &shape) != 0) {
+        st = PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; udunits2 could not inspect \"%.*s\"",
+                         w, UNITS_SHOW_MAX, unit);
+        goto done;
+    }
+    if (shape.is_timestamp || shape.is_log) {
+        st = PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" (%s)", w,
+                         UNITS_SHOW_MAX, shown,
+                         shape.is_timestamp ? "a time stamp, not an amount"
+                                            : "a logarithmic unit");
+        goto done;
+    }
+    if (has_number_factor(unit)) {
+        st = PLUMB_RAISE(diag, PLUMB_EUNIT,
+                         "expected %s; the unit \"%.*s\" in \"%.*s\" contains a number "
+                         "(write one number, then the unit)",
+                         w, UNITS_SHOW_MAX, unit, UNITS_SHOW_MAX, shown);
+        goto done;
+    }
+    /* Only an absolute temperature keeps the scale's offset; elsewhere the
+     * unit is an interval ("10 degC" of difference is 10 K). */
+    ut_unit *use = parsed;
+    if (want != PLUMB_DIM_TEMPERATURE && shape.has_offset) {
+        interval = ut_multiply(parsed, units->one);
+        if (!interval) {
+            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory converting \"%.*s\"",
+                             UNITS_SHOW_MAX, shown);
+            goto done;
+        }
+        use = interval;
+    }
+    int ok = ut_are_convertible(use, units->ref[want]) != 0;
+    if (want == PLUMB_DIM_ANGLE && shape.rad_power != 1)
+        ok = 0;
+    if (want == PLUMB_DIM_FRACTION && shape.rad_power != 0)
+        ok = 0;
+    if (!ok) {
+        char found[UNITS_FORMAT_MAX + 32];
+        describe_unit(units, use, &shape, found, sizeof found);
+        st = PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" (%s)", w,
+                         UNITS_SHOW_MAX, shown, found);
+        goto done;
+    }
+    cv = ut_get_converter(use, units->ref[want]);
+    if (!cv) {
+        st = PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; udunits2 cannot convert \"%.*s\"", w,
+                         UNITS_SHOW_MAX, unit);
+        goto done;
+    }
+    double si = cv_convert_double(cv, value);
+    if (!plumbp_finite(si)) {
+        st = PLUMB_RAISE(diag, PLUMB_ERANGE, "\"%.*s\" is too large once converted to %s",
+                         UNITS_SHOW_MAX, shown, dims[want].si);
+        goto done;
+    }
+    if (want == PLUMB_DIM_TEMPERATURE && si < 0.0) {
+        st = PLUMB_RAISE(diag, PLUMB_ERANGE,
+                         "expected %s, found \"%.*s\", which is %.6g K: below absolute zero", w,
+                         UNITS_SHOW_MAX, shown, si);
+        goto done;
+    }
+    *si_out = si;
+done:
+    cv_free(cv);
+    ut_free(interval);
+    ut_free(parsed);
+    return st;
+}
+
+/* ---- public functions ------------------------------------------------------ */
+
+static const char *ut_status_text(ut_status s)
+{
+    switch (s) {
+    case UT_OPEN_ARG: return "cannot open the named database file";
+    case UT_OPEN_ENV: return "cannot open the database named by UDUNITS2_XML_PATH";
+    case UT_OPEN_DEFAULT: return "cannot open the installed database";
+    case UT_PARSE: return "the database is malformed";
+    case UT_OS: return "operating-system error";
+    default: return "udunits2 error";
+    }
+}
+
+/*
+ * Loads the default udunits2 database and builds the reference units.
+ * Every alias is parsed and checked against the dimension it claims, so a
+ * database that lacks or redefines one fails here (PLUMB_EIO), not later.
+ * On error *out is NULL and everything made so far is freed.
+ */
+plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
+{
+    if (!out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_alloc: out is NULL");
+    *out = NULL;
+    plumb_units *u = calloc(1, sizeof *u);
+    if (!u)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory allocating the unit system");
+
+    plumb_status st = PLUMB_OK;
+    ut_set_error_message_handler(ut_ignore);
+    u->sys = ut_read_xml(NULL);
+    if (!u->sys) {
+        ut_status us = ut_get_status();
+        st = PLUMB_RAISE(diag, PLUMB_EIO, "cannot load the udunits2 unit database: %s",
+                         ut_status_text(us));
+        goto fail;
+    }
+    u->one = ut_get_dimensionless_unit_one(u->sys);
+    u->radian = ut_get_unit_by_name(u->sys, "radian");
+    if (!u->one || !u->radian) {
+        st = PLUMB_RAISE(diag, PLUMB_EIO, "the udunits2 database has no %s",
+                         u->one ? "radian" : "dimensionless unit one");
+        goto fail;
+    }
+    for (int d = 0; d < PLUMB_DIM_COUNT; d++) {
+        u->ref[d] = ut_parse(u->sys, dims[d].ud, UT_ASCII);
+        if (!u->ref[d]) {
+            st = PLUMB_RAISE(diag, PLUMB_EIO, "the udunits2 database has no unit \"%s\" (%s)",
+                             dims[d].ud, dims[d].name);
+            goto fail;
+        }
+    }
+    for (size_t i = 0; i < N_ALIASES; i++) {
+        ut_unit *a = ut_parse(u->sys, aliases[i].ud, UT_ASCII);
+        int ok = a && ut_are_convertible(a, u->ref[aliases[i].dim]);
+        ut_free(a);
+        if (!ok) {
+            st = PLUMB_RAISE(diag, PLUMB_EIO,
+                             "the udunits2 database does not define \"%s\" (for \"%s\") as %s %s",
+                             aliases[i].ud, aliases[i].word, dims[aliases[i].dim].article,
+                             dims[aliases[i].dim].name);
+            goto fail;
+        }
+    }
+    *out = u;
+    return PLUMB_OK;
+fail:
+    plumb_units_free(u);
+    return st;
+}
+
+void plumb_units_free(plumb_units *units)
+{
+    if (!units)
+        return;
+    for (int d = 0; d < PLUMB_DIM_COUNT; d++)
+        ut_free(units->ref[d]);
+    ut_free(units->radian);
+    ut_free(units->one);
+    ut_free_system(units->sys);
+    free(units);
+}
+
+/* Copies [b, e) trimmed of white space into dst of size n; returns its
+ * length, or n when it does not fit. */
+static size_t copy_trimmed(char *dst, size_t n, const char *b, const char *e)
+{
+    while (b < e && isspace((unsigned char)*b))
+        b++;
+    while (e > b && isspace((unsigned char)e[-1]))
+        e--;
+    size_t len = (size_t)(e - b);
+    if (len >= n)
+        return n;
+    memcpy(dst, b, len);
+    dst[len] = '\0';
+    return len;
+}
+
+/*
+ * Parses "NUMBER UNIT" (see units.h). Statuses: PLUMB_EINVAL for a NULL
+ * argument or a dimension out of range; PLUMB_EPARSE for an empty text, a
+ * text that does not start with a number, a NaN or infinity, a hexadecimal
+ * number or a second number; PLUMB_ERANGE when the number over- or
+ * underflows a double, when the converted value overflows, or when a
+ * temperature lies below absolute zero; PLUMB_EUNIT for a missing, unknown
+ * or wrong unit. A fraction is not range-checked here (the caller knows
+ * its bounds). Can't fail otherwise; allocates nothing that outlives it.
+ */
+plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb_dim want,
+                               double *si_out, plumb_diag *diag)
+{
+    if (!units || !text || !si_out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_parse: %s is NULL",
+                           !units ? "units" : !text ? "text" : "si_out");
+    if (!valid_dim(want))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_parse: dimension %d is out of range",
+                           (int)want);
+
+    char shown[UNITS_TEXT_MAX + 1];
+    size_t len = copy_trimmed(shown, sizeof shown, text, text + strlen(text));
+    if (len >= sizeof shown)
+        return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected %s %s, found a text of more than %d bytes",
+                           dims[want].article, dims[want].name, UNITS_TEXT_MAX);
+    if (len == 0)
+        return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected %s %s (e.g. \"%s\"); found an empty value",
+                           dims[want].article, dims[want].name, dims[want].example);
+
+    const char *p = shown;
+    if (*p == '+' || *p == '-')
+        p++;
+    if (p[0] == '0' && (p[1] == 'x' || p[1] == 'X'))
+        return PLUMB_RAISE(diag, PLUMB_EPARSE,
+                           "expected %s %s, found \"%.*s\": hexadecimal numbers are not accepted",
+                           dims[want].article, dims[want].name, UNITS_SHOW_MAX, shown);
+
+    char *end;
+    errno = 0;
+    double value = strtod(shown, &end);
+    int err = errno;
+    if (end == shown)
+        return PLUMB_RAISE(diag, PLUMB_EPARSE,
+                           "expected %s %s (e.g. \"%s\"); found \"%.*s\", which does not start "
+                           "with a number",
+                           dims[want].article, dims[want].name, dims[want].example, UNITS_SHOW_MAX,
+                           shown);
+    if (err == ERANGE)
+        return PLUMB_RAISE(diag, PLUMB_ERANGE, "the number in \"%.*s\" is too %s for a double",
+                           UNITS_SHOW_MAX, shown, fabs(value) > 1.0 ? "large" : "small");
+    if (!plumbp_finite(value))
+        return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected %s %s, found \"%.*s\": not a finite number",
+                           dims[want].article, dims[want].name, UNITS_SHOW_MAX, shown);
+
+    char number[UNITS_TEXT_MAX + 1];
+    char unit[UNITS_TEXT_MAX + 1];
+    copy_trimmed(number, sizeof number, shown, end);
+    copy_trimmed(unit, sizeof unit, end, shown + len);
+    int unit_one = strcmp(unit, "1") == 0 || strncmp(unit, "1/", 2) == 0;
+    if (!unit_one && (isdigit((unsigned char)unit[0]) || unit[0] == '.' || unit[0] == '+' ||
+                      unit[0] == '-'))
+        return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected one number then a unit, found \"%.*s\"",
+                           UNITS_SHOW_MAX, shown);
+    return convert(units, value, unit, want, shown, number, si_out, diag);
+}
+
+/*
+ * Converts value in unit (see units.h). Statuses as plumb_units_parse,
+ * plus PLUMB_EINVAL for a NaN or infinite value; an empty unit counts as a
+ * bare number.
+ */
+plumb_status plumb_units_to_si(const plumb_units *units, double value, const char *unit,
+                               plumb_dim want, double *si_out, plumb_diag *diag)
+{
+    if (!units || !unit || !si_out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_to_si: %s is NULL",
+                           !units ? "units" : !unit ? "unit" : "si_out");
+    if (!valid_dim(want))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_to_si: dimension %d is out of range",
+                           (int)want);
+    if (!plumbp_finite(value))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_to_si: the value is not finite");
+
+    char trimmed[UNITS_TEXT_MAX + 1];
+    size_t len = copy_trimmed(trimmed, sizeof trimmed, unit, unit + strlen(unit));
+    if (len >= sizeof trimmed)
+        return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s %s, found a unit of more than %d bytes",
+                           dims[want].article, dims[want].name, UNITS_TEXT_MAX);
+    char number[32];
+    char shown[sizeof number + UNITS_TEXT_MAX + 2];
+    snprintf(number, sizeof number, "%.10g", value);
+    snprintf(shown, sizeof shown, "%s%s%s", number, len ? " " : "", trimmed);
+    return convert(units, value, trimmed, want, shown, number, si_out, diag);
+}
