@@ -138,7 +138,8 @@ static double eval_at(double x, void *params)
     }
     char set[PLUMB_DIAG_KEY + 64];
     const char *unit = plumb_dim_si_unit(c->dim);
-    snprintf(set, sizeof set, "%s=%.17g%s%s", c->set_key, x, *unit ? " " : "", unit);
+    int bare = !*unit || strcmp(unit, "1") == 0;
+    snprintf(set, sizeof set, "%s=%.17g%s%s", c->set_key, x, bare ? "" : " ", bare ? "" : unit);
     const char *sets[1] = {set};
     plumb_profile *p = NULL;
     plumb_diag d;

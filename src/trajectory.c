@@ -21,6 +21,7 @@
 
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_odeiv2.h>
+#include <gsl/gsl_min.h>
 #include <gsl/gsl_roots.h>
 
 #include "plumb/constants.h"
@@ -34,6 +35,9 @@ enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
  * reached with an upward or level velocity: the step before is halved
  * until the object is descending. Bounded. */
 #define MAX_HALVINGS 60
+/* Location of the peak opening force: Brent iterations and time tolerance, s. */
+#define PEAK_MAX_ITER 100
+#define PEAK_ABS_TOL_S 1e-9
 /* Fraction of the predicted time to an event covered by the approach step. */
 #define APPROACH_FRACTION 0.9
 /* A rise this far above the drag-free apex means the object is buoyant. */
@@ -109,9 +113,12 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
     const plumb_fall_spec *s = c->spec;
     double alt = s->site_elevation_m + y[IZ];
     if (plumb_atmosphere_at(c->atm, alt, &L->air) != PLUMB_OK) {
+        /* A trial stage of a too-long step can leave the model's range:
+         * GSL_EDOM makes the evolver retry with a shorter step, and only a
+         * path that really leaves the range ends as an error. */
         c->fail = PLUMB_ERANGE;
         c->fail_alt_m = alt;
-        return GSL_EBADFUNC;
+        return GSL_EDOM;
     }
     L->g = plumb_gravity_at(&s->gravity, alt);
     double we, wn;
@@ -143,8 +150,9 @@ static int rhs_time(double t, const double y[], double f[], void *params)
     fall_ctx *c = params;
     local L;
     c->evals++;
-    if (local_at(c, t, y, &L) != GSL_SUCCESS)
-        return GSL_EBADFUNC;
+    int rc = local_at(c, t, y, &L);
+    if (rc != GSL_SUCCESS)
+        return rc;
     double k = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * c->inv_m;
     f[IX] = y[IVX];
     f[IY] = y[IVY];
@@ -432,6 +440,9 @@ typedef struct runner {
     double y[NSTATE];
     double h;
     size_t steps;
+    /* the last three accepted points (devices only), for the peak force */
+    size_t n_hist;
+    double hist_t[3], hist_y[3][NSTATE], hist_f[3];
 } runner;
 
 static plumb_status fail_rhs(runner *r, int rc, const char *what)
@@ -441,6 +452,83 @@ static plumb_status fail_rhs(runner *r, int rc, const char *what)
                            "the path left the atmosphere model's range at altitude %.1f m (t=%.2f s)",
                            r->ctx.fail_alt_m, r->t);
     return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC, "%s failed at t=%.2f s: %s", what, r->t, gsl_strerror(rc));
+}
+
+/* Drag force at time t inside the step that starts at history point i:
+ * one rk8pd step from there (no longer than the accepted step). */
+typedef struct peak_ctx {
+    runner *r;
+    size_t i;
+    int fail;
+} peak_ctx;
+
+static double neg_force_at(double t, void *params)
+{
+    peak_ctx *p = params;
+    runner *r = p->r;
+    size_t i = t <= r->hist_t[1] ? 0 : 1;
+    double y[NSTATE], err[NSTATE];
+    memcpy(y, r->hist_y[i], sizeof y);
+    double h = t - r->hist_t[i];
+    if (h > 0.0) {
+        gsl_odeiv2_step_reset(r->w->side_step);
+        if (gsl_odeiv2_step_apply(r->w->side_step, r->hist_t[i], h, y, err, NULL, NULL, &r->sys) !=
+            GSL_SUCCESS) {
+            p->fail = 1;
+            return 0.0;
+        }
+    }
+    local L;
+    if (local_at(&r->ctx, t, y, &L) != GSL_SUCCESS) {
+        p->fail = 1;
+        return 0.0;
+    }
+    return -0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * L.vr_abs;
+}
+
+/* Keeps the last three points; when the middle one is a local maximum of
+ * the drag force, the maximum between its neighbours is located by Brent's
+ * minimisation (GSL gsl_min_fminimizer_brent) on -F(t). */
+static plumb_status track_peak(runner *r, double force)
+{
+    if (r->n_hist == 3) {
+        memmove(r->hist_t, r->hist_t + 1, 2 * sizeof *r->hist_t);
+        memmove(r->hist_f, r->hist_f + 1, 2 * sizeof *r->hist_f);
+        memmove(r->hist_y, r->hist_y + 1, 2 * sizeof *r->hist_y);
+        r->n_hist = 2;
+    }
+    r->hist_t[r->n_hist] = r->t;
+    r->hist_f[r->n_hist] = force;
+    memcpy(r->hist_y[r->n_hist], r->y, sizeof r->y);
+    r->n_hist++;
+    if (r->n_hist < 3 || !(r->hist_f[1] > r->hist_f[0] && r->hist_f[1] >= r->hist_f[2]) ||
+        !(r->hist_t[0] < r->hist_t[1] && r->hist_t[1] < r->hist_t[2]))
+        return PLUMB_OK;
+    peak_ctx p = {r, 0, 0};
+    gsl_function F = {neg_force_at, &p};
+    gsl_min_fminimizer *m = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
+    if (!m)
+        return PLUMB_RAISE(r->diag, PLUMB_ENOMEM, "out of memory");
+    int rc = gsl_min_fminimizer_set_with_values(m, &F, r->hist_t[1], -r->hist_f[1], r->hist_t[0],
+                                                -r->hist_f[0], r->hist_t[2], -r->hist_f[2]);
+    for (int it = 0; rc == GSL_SUCCESS && it < PEAK_MAX_ITER && !p.fail; it++) {
+        rc = gsl_min_fminimizer_iterate(m);
+        if (rc != GSL_SUCCESS)
+            break;
+        rc = gsl_min_test_interval(gsl_min_fminimizer_x_lower(m), gsl_min_fminimizer_x_upper(m),
+                                   PEAK_ABS_TOL_S, 0.0);
+        if (rc == GSL_SUCCESS)
+            break;
+        if (rc == GSL_CONTINUE)
+            rc = GSL_SUCCESS;
+    }
+    double best = -gsl_min_fminimizer_f_minimum(m);
+    gsl_min_fminimizer_free(m);
+    if (p.fail)
+        return fail_rhs(r, GSL_EBADFUNC, "peak force location");
+    if (best > r->res->peak_force_n)
+        r->res->peak_force_n = best;
+    return PLUMB_OK;
 }
 
 /* Records what is observed at an accepted point: Mach, Re, drag force, path. */
@@ -462,6 +550,11 @@ static plumb_status observe(runner *r)
     double force = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * L.vr_abs;
     if (force > res->peak_force_n)
         res->peak_force_n = force;
+    if (r->ctx.n_dev) {
+        plumb_status st = track_peak(r, force);
+        if (st != PLUMB_OK)
+            return st;
+    }
     if (r->y[IZ] > res->apex_m)
         res->apex_m = r->y[IZ];
     if (r->w->opt.record_path) {
@@ -599,6 +692,17 @@ static void deploy(runner *r, size_t i)
     r->res->deploy_time_s[k] = r->t;
     r->res->deploy_height_m[k] = r->y[IZ];
     r->res->deploy_speed_m_s[k] = v_ls;
+}
+
+/* After an event the right-hand side changes form (a canopy opens or
+ * finishes filling): restart the stepper from a short step, since the
+ * drag may now be far larger than what the last step size was made for. */
+static void restart(runner *r)
+{
+    gsl_odeiv2_evolve_reset(r->w->evolve);
+    gsl_odeiv2_step_reset(r->step);
+    if (r->h > r->w->opt.first_step_s)
+        r->h = r->w->opt.first_step_s;
 }
 
 /* Next time at which the right-hand side changes form: a timed deployment
@@ -757,8 +861,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
             if (z_event == 0.0)
                 return finish(&r, atm);
             deploy(&r, dev);
-            gsl_odeiv2_evolve_reset(w->evolve);
-            gsl_odeiv2_step_reset(r.step);
+            restart(&r);
             continue;
         }
         if (y0[IVZ] > 0.0 && r.y[IVZ] <= 0.0 && (st = locate_apex(&r, t0, y0)) != PLUMB_OK)
@@ -778,8 +881,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
                 if (!r.ctx.dev[i].deployed && spec->descent[i].trigger == PLUMB_DEPLOY_AFTER &&
                     spec->descent[i].deploy_value <= r.t)
                     deploy(&r, i);
-            gsl_odeiv2_evolve_reset(w->evolve);
-            gsl_odeiv2_step_reset(r.step);
+            restart(&r);
         }
     }
 }

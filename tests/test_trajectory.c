@@ -312,6 +312,87 @@ static void test_parachute_descends_at_body_plus_canopy_terminal_speed(void **st
     plumb_atmosphere_free(atm);
 }
 
+/* Opening load (Knacke, Parachute Recovery Systems Design Manual, NWC TP
+ * 6575, 1991, sec. 5): F = Cx X1 q (CdS)0. In plumb's model the drag area
+ * grows linearly to (CdS)0 and never overshoots, so Cx = 1; at infinite
+ * mass the speed does not fall during filling and X1 = 1, which bounds the
+ * peak by q_ls (CdS)0. A payload that slows while filling has X1 < 1; one
+ * whose canopy fills in a moment reaches the bound (the same limit). */
+static double opening_case(double mass_kg, double fill_s, plumb_fall_result *r)
+{
+    plumb_atmosphere *atm = constant_air();
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, mass_kg, 0.0, 600.0);
+    s.drag.cd = 1.05;
+    s.drag.area_m2 = 0.0314;
+    s.n_descent = 1;
+    s.descent[0].cd = 0.78;
+    s.descent[0].area_m2 = 2.27;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = 3.1;
+    s.descent[0].fill_time_s = fill_s;
+    plumb_diag d;
+    plumb_status st = plumb_trajectory_run(w, &s, atm, r, &d);
+    if (st != PLUMB_OK)
+        print_error("%s\n", d.message);
+    assert_int_equal(st, PLUMB_OK);
+    double q = 0.5 * const_rho[0] * r->deploy_speed_m_s[0] * r->deploy_speed_m_s[0];
+    /* lower bounds: the body's own drag at line stretch, and, when the
+     * canopy opens above its steady speed, the weight (it must slow down) */
+    assert_true(r->peak_force_n >= q * 1.05 * 0.0314);
+    if (r->deploy_speed_m_s[0] > r->steady_speed_m_s)
+        assert_true(r->peak_force_n >= mass_kg * PLUMB_G0_M_S2);
+    double bound = q * (1.05 * 0.0314 + 0.78 * 2.27);
+    assert_true(r->peak_force_n <= bound * (1.0 + 1e-9));
+    assert_rel(r->peak_load_g, r->peak_force_n / (mass_kg * PLUMB_G0_M_S2), 1e-15);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+    return r->peak_force_n / bound;
+}
+
+static void test_opening_force_lies_within_the_knacke_bounds(void **state)
+{
+    (void)state;
+    plumb_fall_result r;
+    double x_instant = opening_case(1.9, 1e-4, &r); /* no time to slow down */
+    assert_rel(x_instant, 1.0, 0.01);
+    double x_slow = opening_case(1.9, 0.35, &r);
+    assert_true(x_slow < 0.8);
+    double x_heavy = opening_case(40.0, 0.35, &r);
+    assert_true(x_heavy > x_slow);
+}
+
+static void test_peak_force_is_located_between_steps_not_sampled(void **state)
+{
+    (void)state;
+    /* A light payload peaks inside the filling; the located peak must not
+     * move when the steps are made much finer. */
+    plumb_fall_result a, b;
+    opening_case(1.9, 0.93, &a);
+    plumb_atmosphere *atm = constant_air();
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.rel_tol = 1e-13;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    plumb_fall_spec s;
+    base_spec(&s, 1.9, 0.0, 600.0);
+    s.drag.cd = 1.05;
+    s.drag.area_m2 = 0.0314;
+    s.n_descent = 1;
+    s.descent[0].cd = 0.78;
+    s.descent[0].area_m2 = 2.27;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = 3.1;
+    s.descent[0].fill_time_s = 0.93;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &b, &d), PLUMB_OK);
+    assert_rel(a.peak_force_n, b.peak_force_n, 1e-8);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_deploy_below_a_height_opens_exactly_there(void **state)
 {
     (void)state;
@@ -489,6 +570,8 @@ int main(void)
         cmocka_unit_test(test_power_law_with_exponent_zero_equals_uniform_wind),
         cmocka_unit_test(test_impact_point_agrees_with_a_much_tighter_run),
         cmocka_unit_test(test_parachute_descends_at_body_plus_canopy_terminal_speed),
+        cmocka_unit_test(test_opening_force_lies_within_the_knacke_bounds),
+        cmocka_unit_test(test_peak_force_is_located_between_steps_not_sampled),
         cmocka_unit_test(test_deploy_below_a_height_opens_exactly_there),
         cmocka_unit_test(test_invalid_specs_are_refused),
         cmocka_unit_test(test_buoyant_object_never_lands_and_says_so),
