@@ -542,7 +542,7 @@ static const char *num(writer *w, double x, int sig)
 }
 
 /* x with a fixed number of decimals, never "-0". */
-static const char *fixed(writer *w, double x, int dec)
+static char *fixed(writer *w, double x, int dec)
 {
     char *b = slot(w);
     if (!plumbp_finite(x)) {
@@ -566,6 +566,20 @@ static const char *sci(writer *w, double x, int sig)
         return b;
     }
     snprintf(b, NUMBUF, "%.*e", sig - 1, x);
+    return b;
+}
+
+/* x with at most `dec` decimals, trailing zeros dropped ("1000", "12.5"). */
+static const char *trimmed(writer *w, double x, int dec)
+{
+    char *b = fixed(w, x, dec);
+    if (strchr(b, '.')) {
+        size_t n = strlen(b);
+        while (n > 0 && b[n - 1] == '0')
+            b[--n] = '\0';
+        if (n > 0 && b[n - 1] == '.')
+            b[--n] = '\0';
+    }
     return b;
 }
 
@@ -1852,16 +1866,16 @@ static void text_air(writer *w, const plumb_report_options *opt, const plumb_air
     for (size_t i = 0; i < n; i++) {
         const plumb_air *a = &rows[i];
         if (w->us) {
-            pad(w, num(w, a->alt_m / ft, 7), COL_W, 1);
+            pad(w, trimmed(w, a->alt_m / ft, 2), COL_W, 1);
             pad(w, fixed(w, a->t_k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, 2), COL_W, 1);
             pad(w, num(w, a->p_pa / INHG_PA, 5), COL_W, 1);
             pad(w, num(w, a->rho_kg_m3 * ft3 / PLUMB_LB_KG, 5), COL_W, 1);
             pad(w, sci(w, a->mu_pa_s * ft2 / LBF_N, 5), COL_W, 1);
             pad(w, fixed(w, a->a_m_s / ft, 1), COL_W, 1);
         } else {
-            pad(w, num(w, a->alt_m, 7), COL_W, 1);
+            pad(w, trimmed(w, a->alt_m, 3), COL_W, 1);
             pad(w, fixed(w, a->t_k, 3), COL_W, 1);
-            pad(w, num(w, a->p_pa, 5), COL_W, 1);
+            pad(w, num(w, a->p_pa, 6), COL_W, 1);
             pad(w, num(w, a->rho_kg_m3, 5), COL_W, 1);
             pad(w, sci(w, a->mu_pa_s, 5), COL_W, 1);
             pad(w, fixed(w, a->a_m_s, 2), COL_W, 1);

@@ -150,10 +150,11 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
             alt = to;
         plumb_status s = plumb_std1976(alt, dt, &rows[i]);
         if (s != PLUMB_OK)
-            st = option_error(&diag, s, alt_text ? "--alt" : "",
+            st = option_error(&diag, s,
+                              alt_text ? "--alt" : dt_text ? "--temperature-offset" : "",
                               "no air at %g m above sea level with a temperature offset of "
-                              "%g K: %s (the model spans about -5 km to 86 km)", alt, dt,
-                              plumb_strerror(s));
+                              "%g K: %s (the model spans -5 km to 86 km and needs a positive "
+                              "temperature)", alt, dt, plumb_strerror(s));
     }
     int rc;
     if (st == PLUMB_OK) {
