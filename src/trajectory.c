@@ -225,7 +225,10 @@ static int rhs_henon(double s, const double u[], double du[], void *params)
 
 struct plumb_trajectory {
     plumb_trajectory_options opt;
-    gsl_odeiv2_step *step[3];      /* rk8pd, rkf45, msbdf */
+    fall_ctx ctx;                  /* the run's right-hand-side context */
+    gsl_odeiv2_system sys;         /* rhs_time over ctx */
+    gsl_odeiv2_driver *msbdf;      /* msbdf needs a driver; its evolve/control are used */
+    gsl_odeiv2_step *step[2];      /* rk8pd, rkf45 */
     gsl_odeiv2_control *control;
     gsl_odeiv2_evolve *evolve;
     gsl_odeiv2_step *side_step;    /* rk8pd for Henon phases and halvings */
@@ -237,7 +240,7 @@ struct plumb_trajectory {
 
 void plumb_trajectory_options_init(plumb_trajectory_options *opt)
 {
-    opt->stepper = PLUMB_STEPPER_RK8PD;
+    opt->stepper = PLUMB_STEPPER_AUTO;
     opt->rel_tol = 1e-8;
     opt->abs_tol = 1e-12;
     opt->event_rel_tol = 1e-12;
@@ -245,7 +248,9 @@ void plumb_trajectory_options_init(plumb_trajectory_options *opt)
     opt->first_step_s = 1e-3;
     opt->max_steps = 2000000;
     opt->max_time_s = 86400.0;
-    opt->stiff_ratio = 2000.0;
+    opt->stiff_ratio = 3000.0;
+    opt->stiff_rel_tol = 1e-12;
+    opt->stiff_abs_tol = 1e-14;
     opt->record_path = 0;
 }
 
@@ -253,9 +258,11 @@ void plumb_trajectory_free(plumb_trajectory *traj)
 {
     if (!traj)
         return;
-    for (int i = 0; i < 3; i++)
+    for (int i = 0; i < 2; i++)
         if (traj->step[i])
             gsl_odeiv2_step_free(traj->step[i]);
+    if (traj->msbdf)
+        gsl_odeiv2_driver_free(traj->msbdf);
     if (traj->control)
         gsl_odeiv2_control_free(traj->control);
     if (traj->evolve)
@@ -282,19 +289,22 @@ plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_t
         plumb_trajectory_options_init(&t->opt);
     if (!(t->opt.rel_tol > 0.0) || !(t->opt.abs_tol >= 0.0) || t->opt.max_steps == 0 ||
         !(t->opt.max_time_s > 0.0) || !(t->opt.first_step_s > 0.0) ||
-        !(t->opt.event_rel_tol > 0.0) || !(t->opt.event_abs_tol >= 0.0)) {
+        !(t->opt.event_rel_tol > 0.0) || !(t->opt.event_abs_tol >= 0.0) ||
+        !(t->opt.stiff_rel_tol > 0.0) || !(t->opt.stiff_abs_tol >= 0.0)) {
         free(t);
         return PLUMB_RAISE(NULL, PLUMB_EINVAL, "invalid trajectory options");
     }
     t->step[0] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
     t->step[1] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rkf45, NSTATE);
-    t->step[2] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_msbdf, NSTATE);
+    t->sys = (gsl_odeiv2_system){rhs_time, jac_time, NSTATE, &t->ctx};
+    t->msbdf = gsl_odeiv2_driver_alloc_y_new(&t->sys, gsl_odeiv2_step_msbdf, t->opt.first_step_s,
+                                             t->opt.stiff_abs_tol, t->opt.stiff_rel_tol);
     t->control = gsl_odeiv2_control_y_new(t->opt.abs_tol, t->opt.rel_tol);
     t->evolve = gsl_odeiv2_evolve_alloc(NSTATE);
     t->side_step = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
     t->side_control = gsl_odeiv2_control_y_new(t->opt.event_abs_tol, t->opt.event_rel_tol);
     t->side_evolve = gsl_odeiv2_evolve_alloc(NSTATE);
-    if (!t->step[0] || !t->step[1] || !t->step[2] || !t->control || !t->evolve ||
+    if (!t->step[0] || !t->step[1] || !t->msbdf || !t->control || !t->evolve ||
         !t->side_step || !t->side_control || !t->side_evolve) {
         plumb_trajectory_free(t);
         return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory allocating the ODE workspace");
@@ -431,9 +441,11 @@ plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmos
 
 typedef struct runner {
     plumb_trajectory *w;
-    fall_ctx ctx;
-    gsl_odeiv2_system sys;
-    gsl_odeiv2_step *step;
+    fall_ctx *ctx;                 /* the workspace's */
+    gsl_odeiv2_system *sys;        /* the workspace's */
+    gsl_odeiv2_step *step;         /* main stepper and its evolve/control */
+    gsl_odeiv2_evolve *evolve;
+    gsl_odeiv2_control *control;
     plumb_fall_result *res;
     plumb_diag *diag;
     double t;
@@ -447,10 +459,10 @@ typedef struct runner {
 
 static plumb_status fail_rhs(runner *r, int rc, const char *what)
 {
-    if (r->ctx.fail == PLUMB_ERANGE)
+    if (r->ctx->fail == PLUMB_ERANGE)
         return PLUMB_RAISE(r->diag, PLUMB_ERANGE,
                            "the path left the atmosphere model's range at altitude %.1f m (t=%.2f s)",
-                           r->ctx.fail_alt_m, r->t);
+                           r->ctx->fail_alt_m, r->t);
     return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC, "%s failed at t=%.2f s: %s", what, r->t, gsl_strerror(rc));
 }
 
@@ -472,14 +484,14 @@ static double neg_force_at(double t, void *params)
     double h = t - r->hist_t[i];
     if (h > 0.0) {
         gsl_odeiv2_step_reset(r->w->side_step);
-        if (gsl_odeiv2_step_apply(r->w->side_step, r->hist_t[i], h, y, err, NULL, NULL, &r->sys) !=
+        if (gsl_odeiv2_step_apply(r->w->side_step, r->hist_t[i], h, y, err, NULL, NULL, r->sys) !=
             GSL_SUCCESS) {
             p->fail = 1;
             return 0.0;
         }
     }
     local L;
-    if (local_at(&r->ctx, t, y, &L) != GSL_SUCCESS) {
+    if (local_at(r->ctx, t, y, &L) != GSL_SUCCESS) {
         p->fail = 1;
         return 0.0;
     }
@@ -535,13 +547,13 @@ static plumb_status track_peak(runner *r, double force)
 static plumb_status observe(runner *r)
 {
     local L;
-    if (local_at(&r->ctx, r->t, r->y, &L) != GSL_SUCCESS)
+    if (local_at(r->ctx, r->t, r->y, &L) != GSL_SUCCESS)
         return fail_rhs(r, GSL_EBADFUNC, "air lookup");
     plumb_fall_result *res = r->res;
     double mach = L.vr_abs / L.air.a_m_s;
     if (mach > res->max_mach)
         res->max_mach = mach;
-    if (r->ctx.sphere && L.re > 0.0) {
+    if (r->ctx->sphere && L.re > 0.0) {
         if (res->min_re == 0.0 || L.re < res->min_re)
             res->min_re = L.re;
         if (L.re > res->max_re)
@@ -550,7 +562,7 @@ static plumb_status observe(runner *r)
     double force = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * L.vr_abs;
     if (force > res->peak_force_n)
         res->peak_force_n = force;
-    if (r->ctx.n_dev) {
+    if (r->ctx->n_dev) {
         plumb_status st = track_peak(r, force);
         if (st != PLUMB_OK)
             return st;
@@ -577,7 +589,7 @@ static plumb_status observe(runner *r)
  * by Henon's method. Writes the time and state there. */
 static plumb_status henon_to(runner *r, int k, double target, double *t_io, double y_io[])
 {
-    henon_ctx hc = {&r->ctx, k};
+    henon_ctx hc = {r->ctx, k};
     gsl_odeiv2_system hs = {rhs_henon, NULL, NSTATE, &hc};
     double u[NSTATE];
     memcpy(u, y_io, sizeof u);
@@ -623,7 +635,7 @@ static plumb_status descend_start(runner *r, double *t0, double y0[], double h, 
         h *= 0.5;
         memcpy(y, y0, sizeof y);
         gsl_odeiv2_step_reset(r->w->side_step);
-        int rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, NULL, NULL, &r->sys);
+        int rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, NULL, NULL, r->sys);
         if (rc != GSL_SUCCESS)
             return fail_rhs(r, rc, "ODE step");
         if (y[IZ] > z_event) {
@@ -650,7 +662,7 @@ static plumb_status descend_start(runner *r, double *t0, double y0[], double h, 
 static plumb_status approach(runner *r, double *t0, double y0[], double h_max, double z_event)
 {
     double f[NSTATE], y[NSTATE], err[NSTATE];
-    int rc = rhs_time(*t0, y0, f, &r->ctx);
+    int rc = rhs_time(*t0, y0, f, r->ctx);
     if (rc != GSL_SUCCESS)
         return fail_rhs(r, rc, "ODE step");
     double dz = y0[IZ] - z_event, v = -y0[IVZ], a = -f[IVZ]; /* downward positive */
@@ -663,7 +675,7 @@ static plumb_status approach(runner *r, double *t0, double y0[], double h_max, d
         h = h_max;
     memcpy(y, y0, sizeof y);
     gsl_odeiv2_step_reset(r->w->side_step);
-    rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, f, NULL, &r->sys);
+    rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, f, NULL, r->sys);
     if (rc != GSL_SUCCESS)
         return fail_rhs(r, rc, "ODE step");
     if (y[IZ] > z_event && y[IVZ] < 0.0) {
@@ -675,19 +687,19 @@ static plumb_status approach(runner *r, double *t0, double y0[], double h_max, d
 
 static void deploy(runner *r, size_t i)
 {
-    const plumb_descent_spec *d = &r->ctx.spec->descent[i];
-    device_state *ds = &r->ctx.dev[i];
+    const plumb_descent_spec *d = &r->ctx->spec->descent[i];
+    device_state *ds = &r->ctx->dev[i];
     local L;
     ds->deployed = 1;
     ds->t_ls_s = r->t;
     ds->cds_m2 = d->cd * d->area_m2;
     double v_ls = 0.0;
-    if (local_at(&r->ctx, r->t, r->y, &L) == GSL_SUCCESS)
+    if (local_at(r->ctx, r->t, r->y, &L) == GSL_SUCCESS)
         v_ls = L.vr_abs;
     ds->fill_s = d->fill_constant > 0.0 && v_ls > 0.0 ? d->fill_constant * d->diameter_m / v_ls
                                                       : d->fill_time_s;
     if (d->disreefs_previous && i > 0)
-        r->ctx.dev[i - 1].removed = 1;
+        r->ctx->dev[i - 1].removed = 1;
     size_t k = r->res->n_deployed++;
     r->res->deploy_time_s[k] = r->t;
     r->res->deploy_height_m[k] = r->y[IZ];
@@ -699,7 +711,7 @@ static void deploy(runner *r, size_t i)
  * drag may now be far larger than what the last step size was made for. */
 static void restart(runner *r)
 {
-    gsl_odeiv2_evolve_reset(r->w->evolve);
+    gsl_odeiv2_evolve_reset(r->evolve);
     gsl_odeiv2_step_reset(r->step);
     if (r->h > r->w->opt.first_step_s)
         r->h = r->w->opt.first_step_s;
@@ -710,9 +722,9 @@ static void restart(runner *r)
 static double next_time_event(const runner *r)
 {
     double next = r->w->opt.max_time_s;
-    const plumb_fall_spec *s = r->ctx.spec;
+    const plumb_fall_spec *s = r->ctx->spec;
     for (size_t i = 0; i < s->n_descent; i++) {
-        const device_state *d = &r->ctx.dev[i];
+        const device_state *d = &r->ctx->dev[i];
         if (!d->deployed) {
             if (s->descent[i].trigger == PLUMB_DEPLOY_AFTER && s->descent[i].deploy_value < next)
                 next = s->descent[i].deploy_value;
@@ -728,9 +740,9 @@ static double next_height_event(const runner *r, size_t *device)
 {
     double z = 0.0;
     *device = (size_t)-1;
-    const plumb_fall_spec *s = r->ctx.spec;
+    const plumb_fall_spec *s = r->ctx->spec;
     for (size_t i = 0; i < s->n_descent; i++)
-        if (!r->ctx.dev[i].deployed && s->descent[i].trigger == PLUMB_DEPLOY_BELOW &&
+        if (!r->ctx->dev[i].deployed && s->descent[i].trigger == PLUMB_DEPLOY_BELOW &&
             s->descent[i].deploy_value > z && s->descent[i].deploy_value < r->y[IZ]) {
             z = s->descent[i].deploy_value;
             *device = i;
@@ -740,7 +752,7 @@ static double next_height_event(const runner *r, size_t *device)
 
 static plumb_status finish(runner *r, const plumb_atmosphere *atm)
 {
-    const plumb_fall_spec *s = r->ctx.spec;
+    const plumb_fall_spec *s = r->ctx->spec;
     plumb_fall_result *res = r->res;
     const double *v = &r->y[IVX];
     res->time_s = r->t;
@@ -776,7 +788,7 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
     res->steady_speed_m_s = vs;
     res->peak_load_g = res->peak_force_n / (s->mass_kg * PLUMB_G0_M_S2);
     res->solver.steps = r->steps;
-    res->solver.rhs_evaluations = r->ctx.evals;
+    res->solver.rhs_evaluations = r->ctx->evals;
     res->solver.method = gsl_odeiv2_step_name(r->step);
     return PLUMB_OK;
 }
@@ -790,8 +802,9 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
         return st;
     memset(res, 0, sizeof *res);
     runner r = {.w = w, .res = res, .diag = diag};
-    ctx_init(&r.ctx, spec, atm);
-    r.sys = (gsl_odeiv2_system){rhs_time, jac_time, NSTATE, &r.ctx};
+    r.ctx = &w->ctx;
+    r.sys = &w->sys;
+    ctx_init(r.ctx, spec, atm);
     w->path_n = 0;
 
     plumb_stepper kind = w->opt.stepper;
@@ -803,7 +816,15 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
             2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio)
             kind = PLUMB_STEPPER_MSBDF;
     }
-    r.step = w->step[kind == PLUMB_STEPPER_RKF45 ? 1 : kind == PLUMB_STEPPER_MSBDF ? 2 : 0];
+    if (kind == PLUMB_STEPPER_MSBDF) {
+        r.step = w->msbdf->s;
+        r.evolve = w->msbdf->e;
+        r.control = w->msbdf->c;
+    } else {
+        r.step = w->step[kind == PLUMB_STEPPER_RKF45 ? 1 : 0];
+        r.evolve = w->evolve;
+        r.control = w->control;
+    }
 
     memcpy(r.y, spec->release_m, 3 * sizeof(double));
     memcpy(&r.y[IVX], spec->velocity_m_s, 3 * sizeof(double));
@@ -815,7 +836,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
     double g0 = plumb_gravity_at(&spec->gravity, spec->site_elevation_m + r.y[IZ]);
     double rise_cap = r.y[IZ] + (r.y[IVZ] > 0.0 ? r.y[IVZ] * r.y[IVZ] / (2.0 * g0) : 0.0) + RISE_MARGIN_M;
 
-    gsl_odeiv2_evolve_reset(w->evolve);
+    gsl_odeiv2_evolve_reset(r.evolve);
     gsl_odeiv2_step_reset(r.step);
     /* Deployments due at release. */
     for (size_t i = 0; i < spec->n_descent; i++)
@@ -834,8 +855,8 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
             return PLUMB_RAISE(diag, PLUMB_EBUDGET,
                                "the fall ran past its budget of %zu steps at t=%.2f s, z=%.2f m",
                                w->opt.max_steps, r.t, r.y[IZ]);
-        r.ctx.fail = PLUMB_OK;
-        int rc = gsl_odeiv2_evolve_apply(w->evolve, w->control, r.step, &r.sys, &r.t, t_event, &r.h, r.y);
+        r.ctx->fail = PLUMB_OK;
+        int rc = gsl_odeiv2_evolve_apply(r.evolve, r.control, r.step, r.sys, &r.t, t_event, &r.h, r.y);
         if (rc != GSL_SUCCESS)
             return fail_rhs(&r, rc, "ODE step");
         r.steps++;
@@ -878,7 +899,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
                                    "the fall did not end within its time budget of %g s (z=%.2f m)",
                                    w->opt.max_time_s, r.y[IZ]);
             for (size_t i = 0; i < spec->n_descent; i++)
-                if (!r.ctx.dev[i].deployed && spec->descent[i].trigger == PLUMB_DEPLOY_AFTER &&
+                if (!r.ctx->dev[i].deployed && spec->descent[i].trigger == PLUMB_DEPLOY_AFTER &&
                     spec->descent[i].deploy_value <= r.t)
                     deploy(&r, i);
             restart(&r);

@@ -537,6 +537,39 @@ static void test_recorded_path_starts_at_release_and_ends_on_the_ground(void **s
     plumb_atmosphere_free(atm);
 }
 
+static void test_stiff_light_fall_switches_to_msbdf_and_stays_accurate(void **state)
+{
+    (void)state;
+    /* 0.5 g card, Cd 1, 0.01 m^2, from 1000 m: 2 g H / v_t^2 ~ 24 000.
+     * Reference: the explicit rk8pd stepper at rel_tol 1e-13. */
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace(), *ref = NULL;
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.stepper = PLUMB_STEPPER_RK8PD;
+    o.rel_tol = 1e-13;
+    o.abs_tol = 1e-13;
+    assert_int_equal(plumb_trajectory_alloc(&o, &ref), PLUMB_OK);
+    plumb_fall_spec s;
+    base_spec(&s, 0.0005, 0.0, 1000.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.01;
+    s.wind.profile = PLUMB_WIND_POWER;
+    s.wind.speed_m_s = 5.0;
+    plumb_fall_result a, b;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &a, &d), PLUMB_OK);
+    assert_int_equal(plumb_trajectory_run(ref, &s, atm, &b, &d), PLUMB_OK);
+    assert_string_equal(a.solver.method, "msbdf");
+    assert_rel(a.speed_m_s, b.speed_m_s, 1e-8);
+    assert_rel(a.time_s, b.time_s, 1e-8);
+    assert_rel(a.drift_m, b.drift_m, 1e-8);
+    assert_true(a.solver.rhs_evaluations * 5 < b.solver.rhs_evaluations);
+    plumb_trajectory_free(ref);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_sphere_terminal_speed_balances_weight_and_morrison_drag(void **state)
 {
     (void)state;
@@ -578,6 +611,7 @@ int main(void)
         cmocka_unit_test(test_step_and_time_budgets_are_errors_not_numbers),
         cmocka_unit_test(test_path_outside_the_atmosphere_is_a_range_error),
         cmocka_unit_test(test_recorded_path_starts_at_release_and_ends_on_the_ground),
+        cmocka_unit_test(test_stiff_light_fall_switches_to_msbdf_and_stays_accurate),
         cmocka_unit_test(test_sphere_terminal_speed_balances_weight_and_morrison_drag),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_gsl, NULL);
