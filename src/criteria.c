@@ -1,0 +1,217 @@
+/*
+ * criteria.c - named impact-energy criteria (design.md section 4) and
+ * verdicts.
+ *
+ * Each criterion is one strict YAML file (yamltree.c: no unknown or
+ * duplicate keys, no anchors, units required) in a directory, loaded in
+ * file-name order (strcmp, i.e. bytewise, so the order does not depend on
+ * the locale). Keys: name, kind (limit | helmet-test, default limit),
+ * energy_limit (an ENERGY with its unit, > 0), applies_to, source, status
+ * (seen | transcribed | memory); all but kind are required.
+ *
+ * Verdict: ratio = E / E_limit; "exceeds" when E > E_limit.
+ */
+#include <dirent.h>
+#include <errno.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "plumb/criteria.h"
+#include "plumb/profile.h"
+#include "internal.h"
+#include "yamltree.h"
+
+#define ARRAY_LEN(a) (sizeof(a) / sizeof((a)[0]))
+/* File name ending of a criterion. */
+#define CRIT_SUFFIX ".yaml"
+
+static const char *const crit_kinds[] = {"limit", "helmet-test"};
+static const char *const crit_statuses[] = {"seen", "transcribed", "memory"};
+
+static const plumby_schema crit_keys[] = {
+    {"name", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
+    {"kind", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_kinds,
+     ARRAY_LEN(crit_kinds)},
+    {"energy_limit", PLUMBY_T_NUM, PLUMB_DIM_ENERGY, PLUMBY_R_POSITIVE, NULL, 0, NULL, 0},
+    {"applies_to", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
+    {"source", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
+    {"status", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_statuses,
+     ARRAY_LEN(crit_statuses)},
+};
+static const plumby_schema crit_schema = {
+    "", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, crit_keys, ARRAY_LEN(crit_keys), NULL, 0};
+
+struct plumb_criteria {
+    size_t n;                 /* criteria in c */
+    plumb_criterion *c;       /* in file-name order */
+};
+
+void plumb_criteria_free(plumb_criteria *set)
+{
+    if (!set)
+        return;
+    free(set->c);
+    free(set);
+}
+
+size_t plumb_criteria_count(const plumb_criteria *set)
+{
+    return set ? set->n : 0;
+}
+
+const plumb_criterion *plumb_criteria_get(const plumb_criteria *set, size_t i)
+{
+    return set && i < set->n ? &set->c[i] : NULL;
+}
+
+const plumb_criterion *plumb_criteria_find(const plumb_criteria *set, const char *id)
+{
+    if (!set || !id)
+        return NULL;
+    for (size_t i = 0; i < set->n; i++)
+        if (strcmp(set->c[i].id, id) == 0)
+            return &set->c[i];
+    return NULL;
+}
+
+void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out)
+{
+    if (!out)
+        return;
+    out->criterion = c;
+    out->energy_j = energy_j;
+    out->ratio = c && c->energy_limit_j > 0.0 ? energy_j / c->energy_limit_j : 0.0;
+    out->exceeds = c ? energy_j > c->energy_limit_j : 0;
+}
+
+static int by_name(const void *a, const void *b)
+{
+    return strcmp(*(const char *const *)a, *(const char *const *)b);
+}
+
+static int is_criterion_file(const char *name)
+{
+    size_t n = strlen(name), s = strlen(CRIT_SUFFIX);
+    return name[0] != '.' && n > s && strcmp(name + n - s, CRIT_SUFFIX) == 0;
+}
+
+/* Loads one criterion file into c (id = stem). */
+static plumb_status load_one(const char *path, const char *stem, const plumb_units *units,
+                             plumb_criterion *c, plumb_diag *diag)
+{
+    char *buf;
+    size_t len;
+    plumb_status st = plumby_read_file(path, PLUMB_PROFILE_MAX_BYTES, &buf, &len, diag);
+    if (st != PLUMB_OK)
+        return st;
+    plumby_node *tree;
+    st = plumby_parse(buf, len, path, PLUMBY_FROM_FILE, 0, NULL, &tree, diag);
+    free(buf);
+    if (st != PLUMB_OK)
+        return st;
+    plumby_ctx ctx = {path, units, diag};
+    plumby_map m;
+    int kind = 0, status = 0;
+    memset(c, 0, sizeof *c);
+    plumbp_strlcpy(c->id, stem, sizeof c->id);
+    plumby_map_init(&m, &ctx, tree, &crit_schema, "");
+    if ((st = plumby_check(&ctx, tree, &crit_schema, "")) != PLUMB_OK ||
+        (st = plumby_text(&m, "name", NULL, c->name, sizeof c->name)) != PLUMB_OK ||
+        (st = plumby_word(&m, "kind", 0, &kind)) != PLUMB_OK ||
+        (st = plumby_num(&m, "energy_limit", 1, 0.0, &c->energy_limit_j, NULL)) != PLUMB_OK ||
+        (st = plumby_text(&m, "applies_to", NULL, c->applies_to, sizeof c->applies_to)) !=
+            PLUMB_OK ||
+        (st = plumby_text(&m, "source", NULL, c->source, sizeof c->source)) != PLUMB_OK ||
+        (st = plumby_word(&m, "status", -1, &status)) != PLUMB_OK) {
+        plumby_free(tree);
+        return st;
+    }
+    c->kind = kind == 0 ? PLUMB_CRIT_LIMIT : PLUMB_CRIT_HELMET_TEST;
+    plumbp_strlcpy(c->status, crit_statuses[status], sizeof c->status);
+    plumby_free(tree);
+    return PLUMB_OK;
+}
+
+plumb_status plumb_criteria_load_dir(const char *dir, const plumb_units *units,
+                                     plumb_criteria **out, plumb_diag *diag)
+{
+    if (out)
+        *out = NULL;
+    if (!dir || !units || !out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_criteria_load_dir: NULL argument");
+    DIR *d = opendir(dir);
+    if (!d) {
+        char why[128];
+        if (strerror_r(errno, why, sizeof why) != 0)
+            snprintf(why, sizeof why, "error %d", errno);
+        return PLUMB_RAISE_AT(diag, PLUMB_EIO, dir, 0, 0, NULL,
+                              "cannot open the criteria directory: %s", why);
+    }
+    char **names = NULL;
+    size_t n = 0, cap = 0;
+    plumb_status st = PLUMB_OK;
+    plumb_criteria *set = NULL;
+    char *path = NULL;
+    const struct dirent *e;
+    while ((e = readdir(d)) != NULL) {
+        if (!is_criterion_file(e->d_name))
+            continue;
+        if (n == cap) {
+            size_t nc = cap ? 2 * cap : 16;
+            char **nn = realloc(names, nc * sizeof *nn);
+            if (!nn)
+                goto nomem;
+            names = nn;
+            cap = nc;
+        }
+        size_t len = strlen(e->d_name);
+        if (!(names[n] = malloc(len + 1)))
+            goto nomem;
+        memcpy(names[n++], e->d_name, len + 1);
+    }
+    closedir(d);
+    d = NULL;
+    if (n > 0)
+        qsort(names, n, sizeof *names, by_name);
+    if (!(set = calloc(1, sizeof *set)) || (n > 0 && !(set->c = calloc(n, sizeof *set->c))))
+        goto nomem;
+    size_t dlen = strlen(dir);
+    for (size_t i = 0; i < n; i++) {
+        size_t nlen = strlen(names[i]), slen = nlen - strlen(CRIT_SUFFIX);
+        free(path);
+        if (!(path = malloc(dlen + 1 + nlen + 1)))
+            goto nomem;
+        snprintf(path, dlen + 1 + nlen + 1, "%s/%s", dir, names[i]);
+        if (slen >= PLUMB_CRIT_ID) {
+            st = PLUMB_RAISE_AT(diag, PLUMB_ERANGE, path, 0, 0, NULL,
+                                "a criterion id (the file name without %s) of %zu characters; at "
+                                "most %d are accepted",
+                                CRIT_SUFFIX, slen, PLUMB_CRIT_ID - 1);
+            goto fail;
+        }
+        char stem[PLUMB_CRIT_ID];
+        memcpy(stem, names[i], slen);
+        stem[slen] = '\0';
+        if ((st = load_one(path, stem, units, &set->c[i], diag)) != PLUMB_OK)
+            goto fail;
+        set->n = i + 1;
+    }
+    free(path);
+    for (size_t i = 0; i < n; i++)
+        free(names[i]);
+    free(names);
+    *out = set;
+    return PLUMB_OK;
+nomem:
+    st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading criteria from %s", dir);
+fail:
+    if (d)
+        closedir(d);
+    free(path);
+    for (size_t i = 0; i < n; i++)
+        free(names[i]);
+    free(names);
+    plumb_criteria_free(set);
+    return st;
+}

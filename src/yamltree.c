@@ -1,0 +1,1012 @@
+/*
+ * yamltree.c - strict YAML node tree with positions, and its schema checker.
+ *
+ * Built from libyaml's event API (yaml_parser_parse, libyaml 0.2,
+ * pyyaml.org/wiki/LibYAML) with an explicit stack, so no recursion on the
+ * input; the YAML 1.2 specification (yaml.org/spec/1.2.2) defines the
+ * anchors, aliases and tags refused here. See yamltree.h for the rules.
+ */
+#include <errno.h>
+#include <fcntl.h>
+#include <limits.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
+#include <yaml.h>
+
+#include "plumb/constants.h"
+#include "yamltree.h"
+
+/* First allocation of the file buffer, bytes. */
+#define READ_CHUNK 4096u
+/* Longest scalar quoted in full in a "found ..." message, characters. */
+#define DESCRIBE_MAX 40
+
+/* ---- files ------------------------------------------------------------- */
+
+static void errno_text(int err, char *buf, size_t size)
+{
+    if (strerror_r(err, buf, size) != 0)
+        snprintf(buf, size, "error %d", err);
+}
+
+plumb_status plumby_read_file(const char *path, size_t max_bytes, char **buf, size_t *len,
+                              plumb_diag *diag)
+{
+    char why[128];
+    *buf = NULL;
+    *len = 0;
+    int fd = open(path, O_RDONLY | O_CLOEXEC);
+    if (fd < 0) {
+        errno_text(errno, why, sizeof why);
+        return PLUMB_RAISE_AT(diag, PLUMB_EIO, path, 0, 0, NULL, "cannot open the file: %s", why);
+    }
+    struct stat st;
+    if (fstat(fd, &st) != 0) {
+        errno_text(errno, why, sizeof why);
+        close(fd);
+        return PLUMB_RAISE_AT(diag, PLUMB_EIO, path, 0, 0, NULL, "cannot stat the file: %s", why);
+    }
+    if (S_ISDIR(st.st_mode)) {
+        close(fd);
+        return PLUMB_RAISE_AT(diag, PLUMB_EIO, path, 0, 0, NULL,
+                              "is a directory, expected a YAML file");
+    }
+    if (S_ISREG(st.st_mode) && (unsigned long long)st.st_size > max_bytes) {
+        close(fd);
+        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, path, 0, 0, NULL,
+                              "the file has %lld bytes; at most %zu bytes are accepted",
+                              (long long)st.st_size, max_bytes);
+    }
+    size_t cap = READ_CHUNK, n = 0;
+    char *b = malloc(cap);
+    if (!b) {
+        close(fd);
+        return PLUMB_RAISE_AT(diag, PLUMB_ENOMEM, path, 0, 0, NULL, "out of memory reading the file");
+    }
+    for (;;) {
+        if (n + 1 >= cap) {
+            if (cap > max_bytes + 1) {
+                free(b);
+                close(fd);
+                return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, path, 0, 0, NULL,
+                                      "the file is longer than %zu bytes, the most accepted",
+                                      max_bytes);
+            }
+            char *nb = realloc(b, cap * 2);
+            if (!nb) {
+                free(b);
+                close(fd);
+                return PLUMB_RAISE_AT(diag, PLUMB_ENOMEM, path, 0, 0, NULL,
+                                      "out of memory reading the file");
+            }
+            b = nb;
+            cap *= 2;
+        }
+        ssize_t got = read(fd, b + n, cap - 1 - n);
+        if (got < 0 && errno == EINTR)
+            continue;
+        if (got < 0) {
+            errno_text(errno, why, sizeof why);
+            free(b);
+            close(fd);
+            return PLUMB_RAISE_AT(diag, PLUMB_EIO, path, 0, 0, NULL, "cannot read the file: %s",
+                                  why);
+        }
+        if (got == 0)
+            break;
+        n += (size_t)got;
+        if (n > max_bytes) {
+            free(b);
+            close(fd);
+            return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, path, 0, 0, NULL,
+                                  "the file is longer than %zu bytes, the most accepted",
+                                  max_bytes);
+        }
+    }
+    close(fd);
+    b[n] = '\0';
+    *buf = b;
+    *len = n;
+    return PLUMB_OK;
+}
+
+/* ---- nodes ------------------------------------------------------------- */
+
+plumby_node *plumby_new(plumby_kind kind, int line, int col, plumby_origin origin)
+{
+    plumby_node *n = calloc(1, sizeof *n);
+    if (!n)
+        return NULL;
+    n->kind = kind;
+    n->line = line;
+    n->col = col;
+    n->origin = origin;
+    n->plain = 1;
+    return n;
+}
+
+void plumby_free(plumby_node *node)
+{
+    if (!node)
+        return;
+    free(node->text);
+    for (size_t i = 0; i < node->n; i++) {
+        if (node->kind == PLUMBY_SEQ) {
+            plumby_free(node->items[i]);
+        } else if (node->kind == PLUMBY_MAP) {
+            free(node->pairs[i].key);
+            plumby_free(node->pairs[i].value);
+        }
+    }
+    free(node->items);
+    free(node->pairs);
+    free(node);
+}
+
+static char *dup_text(const char *s, size_t n)
+{
+    char *d = malloc(n + 1);
+    if (!d)
+        return NULL;
+    memcpy(d, s, n);
+    d[n] = '\0';
+    return d;
+}
+
+plumby_node *plumby_copy(const plumby_node *node)
+{
+    plumby_node *c = plumby_new(node->kind, node->line, node->col, node->origin);
+    if (!c)
+        return NULL;
+    c->plain = node->plain;
+    if (node->text && !(c->text = dup_text(node->text, strlen(node->text))))
+        goto fail;
+    for (size_t i = 0; i < node->n; i++) {
+        if (node->kind == PLUMBY_SEQ) {
+            plumby_node *it = plumby_copy(node->items[i]);
+            if (!it)
+                goto fail;
+            if (plumby_seq_push(c, it) != PLUMB_OK) {
+                plumby_free(it);
+                goto fail;
+            }
+        } else {
+            const plumby_pair *p = &node->pairs[i];
+            plumby_node *v = plumby_copy(p->value);
+            if (!v)
+                goto fail;
+            if (plumby_map_push(c, p->key, p->line, p->col, p->origin, v) != PLUMB_OK) {
+                plumby_free(v);
+                goto fail;
+            }
+        }
+    }
+    return c;
+fail:
+    plumby_free(c);
+    return NULL;
+}
+
+plumb_status plumby_seq_push(plumby_node *seq, plumby_node *item)
+{
+    if (seq->n == seq->cap) {
+        size_t cap = seq->cap ? 2 * seq->cap : 4;
+        plumby_node **ni = realloc(seq->items, cap * sizeof *ni);
+        if (!ni)
+            return PLUMB_ENOMEM;
+        seq->items = ni;
+        seq->cap = cap;
+    }
+    seq->items[seq->n++] = item;
+    return PLUMB_OK;
+}
+
+plumb_status plumby_map_push(plumby_node *map, const char *key, int line, int col,
+                             plumby_origin origin, plumby_node *value)
+{
+    if (map->n == map->cap) {
+        size_t cap = map->cap ? 2 * map->cap : 4;
+        plumby_pair *np = realloc(map->pairs, cap * sizeof *np);
+        if (!np)
+            return PLUMB_ENOMEM;
+        map->pairs = np;
+        map->cap = cap;
+    }
+    char *k = dup_text(key, strlen(key));
+    if (!k)
+        return PLUMB_ENOMEM;
+    map->pairs[map->n++] = (plumby_pair){k, line, col, origin, value};
+    return PLUMB_OK;
+}
+
+plumby_pair *plumby_find(const plumby_node *map, const char *key)
+{
+    if (!map || map->kind != PLUMBY_MAP)
+        return NULL;
+    for (size_t i = 0; i < map->n; i++)
+        if (strcmp(map->pairs[i].key, key) == 0)
+            return &map->pairs[i];
+    return NULL;
+}
+
+int plumby_is_null(const plumby_node *node)
+{
+    if (!node || node->kind != PLUMBY_SCALAR || !node->plain)
+        return 0;
+    const char *t = node->text;
+    return t[0] == '\0' || strcmp(t, "~") == 0 || strcmp(t, "null") == 0 ||
+           strcmp(t, "Null") == 0 || strcmp(t, "NULL") == 0;
+}
+
+const char *plumby_describe(const plumby_node *node, char *buf, size_t size)
+{
+    if (node->kind == PLUMBY_MAP)
+        snprintf(buf, size, "a map");
+    else if (node->kind == PLUMBY_SEQ)
+        snprintf(buf, size, "a list");
+    else if (plumby_is_null(node))
+        snprintf(buf, size, "an empty value");
+    else if (strlen(node->text) > DESCRIBE_MAX)
+        snprintf(buf, size, "'%.*s...'", DESCRIBE_MAX, node->text);
+    else
+        snprintf(buf, size, "'%s'", node->text);
+    return buf;
+}
+
+/* ---- parsing ----------------------------------------------------------- */
+
+/* Line and column (1-based, in characters) of byte offset off of buf. */
+static void offset_pos(const char *buf, size_t len, size_t off, int *line, int *col)
+{
+    int l = 1, c = 1;
+    if (off > len)
+        off = len;
+    for (size_t i = 0; i < off; i++) {
+        unsigned char ch = (unsigned char)buf[i];
+        if (ch == '\n' || (ch == '\r' && (i + 1 >= len || buf[i + 1] != '\n'))) {
+            l++;
+            c = 1;
+        } else if (ch != '\r' && (ch & 0xC0u) != 0x80u) {
+            c++;
+        }
+    }
+    *line = l;
+    *col = c;
+}
+
+typedef struct builder {
+    const char *file;
+    plumby_origin origin;
+    int col_offset;
+    const char *key_prefix;
+    plumb_diag *diag;
+    plumby_node *root;
+    size_t depth;                            /* open containers */
+    plumby_node *stack[PLUMBY_MAX_DEPTH];    /* open containers, borrowed */
+    char *pkey[PLUMBY_MAX_DEPTH];            /* map level: key awaiting its value (owned) */
+    int pline[PLUMBY_MAX_DEPTH], pcol[PLUMBY_MAX_DEPTH];
+} builder;
+
+static int out_col(const builder *b, int line, int col)
+{
+    return line == 1 ? col + b->col_offset : col;
+}
+
+/* Dotted key of the position being built, with `last` appended. */
+static void builder_key(const builder *b, const char *last, char *buf, size_t size)
+{
+    char tmp[PLUMB_DIAG_KEY];
+    plumbp_strlcpy(buf, b->key_prefix ? b->key_prefix : "", size);
+    for (size_t i = 0; i < b->depth; i++) {
+        const plumby_node *n = b->stack[i];
+        if (n->kind == PLUMBY_SEQ) {
+            plumby_key_join(tmp, sizeof tmp, buf, NULL, n->n);
+        } else if (b->pkey[i]) {
+            plumby_key_join(tmp, sizeof tmp, buf, b->pkey[i], 0);
+        } else {
+            continue;
+        }
+        plumbp_strlcpy(buf, tmp, size);
+    }
+    if (last) {
+        plumby_key_join(tmp, sizeof tmp, buf, last, 0);
+        plumbp_strlcpy(buf, tmp, size);
+    }
+}
+
+PLUMBP_PRINTF(6, 7)
+static plumb_status builder_raise(const builder *b, plumb_status st, int line, int col,
+                                  const char *last, const char *fmt, ...)
+{
+    char key[PLUMB_DIAG_KEY];
+    builder_key(b, last, key, sizeof key);
+    va_list ap;
+    va_start(ap, fmt);
+    plumbp_vraise(b->diag, st, b->file, line, col, key, fmt, ap);
+    va_end(ap);
+    return st;
+}
+
+/* Hands a finished or just-opened node to its parent (or makes it the
+ * root). On error the node is freed. */
+static plumb_status attach(builder *b, plumby_node *node)
+{
+    if (b->depth == 0) {
+        b->root = node;
+        return PLUMB_OK;
+    }
+    size_t lv = b->depth - 1;
+    plumby_node *parent = b->stack[lv];
+    plumb_status st;
+    if (parent->kind == PLUMBY_SEQ) {
+        st = plumby_seq_push(parent, node);
+        if (st != PLUMB_OK) {
+            plumby_free(node);
+            return PLUMB_RAISE(b->diag, st, "out of memory building the YAML tree");
+        }
+        return PLUMB_OK;
+    }
+    if (!b->pkey[lv]) {
+        /* node is a key */
+        if (node->kind != PLUMBY_SCALAR) {
+            st = builder_raise(b, PLUMB_EPARSE, node->line, node->col, NULL,
+                               "a key must be a plain word, found %s",
+                               node->kind == PLUMBY_MAP ? "a map" : "a list");
+            plumby_free(node);
+            return st;
+        }
+        const plumby_pair *first = plumby_find(parent, node->text);
+        if (first) {
+            st = builder_raise(b, PLUMB_EKEY, node->line, node->col, node->text,
+                               "duplicate key '%s' (first given at line %d, column %d)",
+                               node->text, first->line, first->col);
+            plumby_free(node);
+            return st;
+        }
+        if (parent->n >= PLUMBY_MAX_KEYS) {
+            st = builder_raise(b, PLUMB_ERANGE, node->line, node->col, NULL,
+                               "more than %d keys in one map", PLUMBY_MAX_KEYS);
+            plumby_free(node);
+            return st;
+        }
+        b->pkey[lv] = node->text;
+        b->pline[lv] = node->line;
+        b->pcol[lv] = node->col;
+        node->text = NULL;
+        plumby_free(node);
+        return PLUMB_OK;
+    }
+    st = plumby_map_push(parent, b->pkey[lv], b->pline[lv], b->pcol[lv], b->origin, node);
+    if (st != PLUMB_OK) {
+        plumby_free(node);
+        return PLUMB_RAISE(b->diag, st, "out of memory building the YAML tree");
+    }
+    free(b->pkey[lv]);
+    b->pkey[lv] = NULL;
+    return PLUMB_OK;
+}
+
+static plumb_status parser_error(const builder *b, const yaml_parser_t *p, const char *buf,
+                                 size_t len)
+{
+    const char *problem = p->problem ? p->problem : "unknown problem";
+    if (p->error == YAML_MEMORY_ERROR)
+        return PLUMB_RAISE(b->diag, PLUMB_ENOMEM, "out of memory parsing YAML");
+    if (p->error == YAML_READER_ERROR) {
+        int line, col;
+        offset_pos(buf, len, p->problem_offset, &line, &col);
+        col = out_col(b, line, col);
+        const char *what = strstr(problem, "UTF-8") ? "the text is not valid UTF-8: " : "";
+        if (p->problem_value >= 0)
+            return builder_raise(b, PLUMB_EPARSE, line, col, NULL, "%s%s (0x%02X)", what,
+                                 problem, (unsigned)p->problem_value);
+        return builder_raise(b, PLUMB_EPARSE, line, col, NULL, "%s%s", what, problem);
+    }
+    int line = (int)p->problem_mark.line + 1, col = (int)p->problem_mark.column + 1;
+    /* libyaml may point just past the text (a line it added at the end) */
+    int end_line, end_col;
+    offset_pos(buf, len, len, &end_line, &end_col);
+    if (line > end_line || (line == end_line && col > end_col)) {
+        line = end_line;
+        col = end_col;
+    }
+    col = out_col(b, line, col);
+    if (p->context) {
+        int cl = (int)p->context_mark.line + 1, cc = (int)p->context_mark.column + 1;
+        return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
+                             "malformed YAML: %s (%s that starts at line %d, column %d)", problem,
+                             p->context, cl, out_col(b, cl, cc));
+    }
+    return builder_raise(b, PLUMB_EPARSE, line, col, NULL, "malformed YAML: %s", problem);
+}
+
+/* Refuses anchors and tags on a node event. */
+static plumb_status check_props(const builder *b, const yaml_char_t *anchor,
+                                const yaml_char_t *tag, int line, int col)
+{
+    if (anchor)
+        return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
+                             "YAML anchors (&%s) are not allowed in a profile; write the value out",
+                             (const char *)anchor);
+    if (tag)
+        return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
+                             "YAML tags (%s) are not allowed in a profile", (const char *)tag);
+    return PLUMB_OK;
+}
+
+static plumb_status handle_event(builder *b, const yaml_event_t *ev, int *docs, int *done)
+{
+    int line = (int)ev->start_mark.line + 1;
+    int col = out_col(b, line, (int)ev->start_mark.column + 1);
+    plumby_node *node;
+    plumb_status st;
+    switch (ev->type) {
+    case YAML_DOCUMENT_START_EVENT:
+        if (++*docs > 1)
+            return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
+                                 "a second YAML document: a profile holds exactly one");
+        return PLUMB_OK;
+    case YAML_STREAM_END_EVENT:
+        *done = 1;
+        return PLUMB_OK;
+    case YAML_ALIAS_EVENT:
+        return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
+                             "YAML aliases (*%s) are not allowed in a profile; write the value out",
+                             (const char *)ev->data.alias.anchor);
+    case YAML_SCALAR_EVENT:
+        st = check_props(b, ev->data.scalar.anchor, ev->data.scalar.tag, line, col);
+        if (st != PLUMB_OK)
+            return st;
+        if (memchr(ev->data.scalar.value, '\0', ev->data.scalar.length))
+            return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
+                                 "a NUL character inside a value");
+        node = plumby_new(PLUMBY_SCALAR, line, col, b->origin);
+        if (!node || !(node->text = dup_text((const char *)ev->data.scalar.value,
+                                             ev->data.scalar.length))) {
+            plumby_free(node);
+            return PLUMB_RAISE(b->diag, PLUMB_ENOMEM, "out of memory building the YAML tree");
+        }
+        node->plain = ev->data.scalar.style == YAML_PLAIN_SCALAR_STYLE;
+        return attach(b, node);
+    case YAML_SEQUENCE_START_EVENT:
+    case YAML_MAPPING_START_EVENT:
+        if (ev->type == YAML_SEQUENCE_START_EVENT)
+            st = check_props(b, ev->data.sequence_start.anchor, ev->data.sequence_start.tag,
+                             line, col);
+        else
+            st = check_props(b, ev->data.mapping_start.anchor, ev->data.mapping_start.tag,
+                             line, col);
+        if (st != PLUMB_OK)
+            return st;
+        if (b->depth >= PLUMBY_MAX_DEPTH)
+            return builder_raise(b, PLUMB_ERANGE, line, col, NULL,
+                                 "nesting deeper than %d levels", PLUMBY_MAX_DEPTH);
+        node = plumby_new(ev->type == YAML_SEQUENCE_START_EVENT ? PLUMBY_SEQ : PLUMBY_MAP, line,
+                          col, b->origin);
+        if (!node)
+            return PLUMB_RAISE(b->diag, PLUMB_ENOMEM, "out of memory building the YAML tree");
+        st = attach(b, node);
+        if (st != PLUMB_OK)
+            return st;
+        b->stack[b->depth] = node;
+        b->pkey[b->depth] = NULL;
+        b->depth++;
+        return PLUMB_OK;
+    case YAML_SEQUENCE_END_EVENT:
+    case YAML_MAPPING_END_EVENT:
+        if (b->depth > 0) {
+            b->depth--;
+            free(b->pkey[b->depth]);
+            b->pkey[b->depth] = NULL;
+        }
+        return PLUMB_OK;
+    default:
+        return PLUMB_OK;
+    }
+}
+
+plumb_status plumby_parse(const char *buf, size_t len, const char *file, plumby_origin origin,
+                          int col_offset, const char *key_prefix, plumby_node **out,
+                          plumb_diag *diag)
+{
+    *out = NULL;
+    builder b;
+    memset(&b, 0, sizeof b);
+    b.file = file;
+    b.origin = origin;
+    b.col_offset = col_offset;
+    b.key_prefix = key_prefix;
+    b.diag = diag;
+
+    const char *tab = memchr(buf, '\t', len);
+    if (tab) {
+        int line, col;
+        offset_pos(buf, len, (size_t)(tab - buf), &line, &col);
+        col = out_col(&b, line, col);
+        return builder_raise(&b, PLUMB_EPARSE, line, col, NULL,
+                             "a tab character: YAML indents with spaces, and tabs are not "
+                             "allowed anywhere in a profile");
+    }
+
+    yaml_parser_t parser;
+    if (!yaml_parser_initialize(&parser))
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory starting the YAML parser");
+    yaml_parser_set_input_string(&parser, (const unsigned char *)buf, len);
+    yaml_parser_set_encoding(&parser, YAML_UTF8_ENCODING);
+
+    plumb_status st = PLUMB_OK;
+    int docs = 0, done = 0;
+    while (!done && st == PLUMB_OK) {
+        yaml_event_t ev;
+        if (!yaml_parser_parse(&parser, &ev)) {
+            st = parser_error(&b, &parser, buf, len);
+            break;
+        }
+        st = handle_event(&b, &ev, &docs, &done);
+        yaml_event_delete(&ev);
+    }
+    yaml_parser_delete(&parser);
+    for (size_t i = 0; i < b.depth; i++)
+        free(b.pkey[i]);
+    if (st == PLUMB_OK && (!b.root || plumby_is_null(b.root))) {
+        int line = 1, col = out_col(&b, 1, 1);
+        if (b.root) {
+            line = b.root->line;
+            col = b.root->col;
+        }
+        b.depth = 0;
+        st = builder_raise(&b, PLUMB_EPARSE, line, col, NULL,
+                           b.root ? "the YAML document is empty"
+                                  : "no YAML document: the text is empty or only comments");
+    }
+    if (st != PLUMB_OK) {
+        plumby_free(b.root);
+        return st;
+    }
+    *out = b.root;
+    return PLUMB_OK;
+}
+
+/* ---- schema ------------------------------------------------------------ */
+
+plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line, int col,
+                          const char *key, plumb_status status, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    plumbp_vraise(ctx->diag, status, origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : ctx->file,
+                  line, col, key, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
+const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *name)
+{
+    if (!map || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
+        return NULL;
+    for (size_t i = 0; i < map->n_sub; i++)
+        if (strcmp(map->sub[i].name, name) == 0)
+            return &map->sub[i];
+    return NULL;
+}
+
+const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
+{
+    const char *best = NULL;
+    int best_d = 4;
+    if (!map || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
+        return NULL;
+    for (size_t i = 0; i < map->n_sub; i++) {
+        int d = plumbp_edit_distance(name, map->sub[i].name);
+        if (d < best_d) {
+            best_d = d;
+            best = map->sub[i].name;
+        }
+    }
+    return best;
+}
+
+const char *plumby_expected(const plumby_schema *s, char *buf, size_t size)
+{
+    switch (s->type) {
+    case PLUMBY_T_NUM:
+        if (s->dim == PLUMB_DIM_NONE)
+            snprintf(buf, size, "a number");
+        else if (s->dim == PLUMB_DIM_FRACTION)
+            snprintf(buf, size, "a fraction (0.5, or 50 %%)");
+        else
+            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(s->dim),
+                     plumb_dim_si_unit(s->dim));
+        break;
+    case PLUMBY_T_COUNT:
+        snprintf(buf, size, "a whole number");
+        break;
+    case PLUMBY_T_WORD:
+        if (s->words) {
+            size_t used = (size_t)snprintf(buf, size, "one of ");
+            for (size_t i = 0; i < s->n_words && used < size; i++)
+                used += (size_t)snprintf(buf + used, size - used, "%s%s", i ? " | " : "",
+                                         s->words[i]);
+        } else {
+            snprintf(buf, size, "a word");
+        }
+        break;
+    case PLUMBY_T_TEXT:
+        snprintf(buf, size, "text");
+        break;
+    case PLUMBY_T_MAP:
+    case PLUMBY_T_FREE_MAP:
+        snprintf(buf, size, "a map (key: value lines or {key: value})");
+        break;
+    case PLUMBY_T_LIST:
+        snprintf(buf, size, "a list%s",
+                 s->n_sub && s->sub[0].type == PLUMBY_T_MAP ? " of maps" : " ([a, b] or - lines)");
+        break;
+    case PLUMBY_T_MAP_OR_LIST:
+        snprintf(buf, size, "a map, or a list of maps");
+        break;
+    }
+    return buf;
+}
+
+static plumb_status mismatch(const plumby_ctx *ctx, const plumby_node *node,
+                             const plumby_schema *s, const char *key)
+{
+    char want[256], found[64];
+    plumby_expected(s, want, sizeof want);
+    plumby_describe(node, found, sizeof found);
+    return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                        "expected %s, found %s", want, found);
+}
+
+static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
+                              const plumby_schema *s, const char *key)
+{
+    char sub_key[PLUMB_DIAG_KEY];
+    for (size_t i = 0; i < node->n; i++) {
+        const plumby_pair *p = &node->pairs[i];
+        const plumby_schema *c = plumby_schema_child(s, p->key);
+        plumby_key_join(sub_key, sizeof sub_key, key, p->key, 0);
+        if (!c) {
+            const char *best = plumby_schema_suggest(s, p->key);
+            if (best)
+                return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                    "unknown key '%s' (did you mean '%s'?)", p->key, best);
+            char list[512];
+            size_t used = 0;
+            list[0] = '\0';
+            for (size_t k = 0; k < s->n_sub && used < sizeof list; k++)
+                used += (size_t)snprintf(list + used, sizeof list - used, "%s%s", k ? ", " : "",
+                                         s->sub[k].name);
+            return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                "unknown key '%s' (keys here: %s)", p->key, list);
+        }
+        plumb_status st = plumby_check(ctx, p->value, c, sub_key);
+        if (st != PLUMB_OK)
+            return st;
+    }
+    return PLUMB_OK;
+}
+
+plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
+                          const plumby_schema *s, const char *key)
+{
+    char sub_key[PLUMB_DIAG_KEY];
+    switch (s->type) {
+    case PLUMBY_T_NUM:
+    case PLUMBY_T_COUNT:
+    case PLUMBY_T_WORD:
+    case PLUMBY_T_TEXT:
+        if (node->kind != PLUMBY_SCALAR || plumby_is_null(node))
+            return mismatch(ctx, node, s, key);
+        if (s->type == PLUMBY_T_WORD && s->words) {
+            for (size_t i = 0; i < s->n_words; i++)
+                if (strcmp(node->text, s->words[i]) == 0)
+                    return PLUMB_OK;
+            char want[256];
+            plumby_expected(s, want, sizeof want);
+            const char *best = plumbp_closest(node->text, s->words, s->n_words);
+            if (best)
+                return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                                    "expected %s, found '%s' (did you mean '%s'?)", want,
+                                    node->text, best);
+            return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                                "expected %s, found '%s'", want, node->text);
+        }
+        return PLUMB_OK;
+    case PLUMBY_T_MAP:
+        if (node->kind != PLUMBY_MAP)
+            return mismatch(ctx, node, s, key);
+        return check_map(ctx, node, s, key);
+    case PLUMBY_T_FREE_MAP:
+        if (node->kind != PLUMBY_MAP)
+            return mismatch(ctx, node, s, key);
+        return PLUMB_OK;
+    case PLUMBY_T_LIST:
+        if (node->kind != PLUMBY_SEQ)
+            return mismatch(ctx, node, s, key);
+        for (size_t i = 0; i < node->n; i++) {
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+            plumb_status st = plumby_check(ctx, node->items[i], &s->sub[0], sub_key);
+            if (st != PLUMB_OK)
+                return st;
+        }
+        return PLUMB_OK;
+    case PLUMBY_T_MAP_OR_LIST:
+        if (node->kind == PLUMBY_MAP)
+            return check_map(ctx, node, s, key);
+        if (node->kind != PLUMBY_SEQ)
+            return mismatch(ctx, node, s, key);
+        for (size_t i = 0; i < node->n; i++) {
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+            if (node->items[i]->kind != PLUMBY_MAP) {
+                char found[64];
+                plumby_describe(node->items[i], found, sizeof found);
+                return plumby_raise(ctx, node->items[i]->origin, node->items[i]->line,
+                                    node->items[i]->col, sub_key, PLUMB_EINVAL,
+                                    "expected a map, found %s", found);
+            }
+            plumb_status st = check_map(ctx, node->items[i], s, sub_key);
+            if (st != PLUMB_OK)
+                return st;
+        }
+        return PLUMB_OK;
+    }
+    return PLUMB_OK;
+}
+
+int plumby_range_ok(plumby_range range, double v)
+{
+    switch (range) {
+    case PLUMBY_R_ANY: return 1;
+    case PLUMBY_R_POSITIVE: return v > 0.0;
+    case PLUMBY_R_NONNEG: return v >= 0.0;
+    case PLUMBY_R_CD: return v >= 0.0 && v <= PLUMBY_CD_MAX;
+    case PLUMBY_R_CD_POSITIVE: return v > 0.0 && v <= PLUMBY_CD_MAX;
+    case PLUMBY_R_UNIT: return v >= 0.0 && v <= 1.0;
+    case PLUMBY_R_UNIT_OPEN: return v > 0.0 && v < 1.0;
+    case PLUMBY_R_LATITUDE: return v >= -90.0 && v <= 90.0;
+    case PLUMBY_R_ALTITUDE: return v >= PLUMBY_ALTITUDE_MIN_M && v <= PLUMB_STD1976_TOP_M;
+    }
+    return 0;
+}
+
+const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size_t size)
+{
+    char u[32] = "";
+    if (dim != PLUMB_DIM_NONE && dim != PLUMB_DIM_FRACTION)
+        snprintf(u, sizeof u, " %s", plumb_dim_si_unit(dim));
+    switch (range) {
+    case PLUMBY_R_ANY: snprintf(buf, size, "a finite number"); break;
+    case PLUMBY_R_POSITIVE: snprintf(buf, size, "> 0%s", u); break;
+    case PLUMBY_R_NONNEG: snprintf(buf, size, ">= 0%s", u); break;
+    case PLUMBY_R_CD: snprintf(buf, size, "0 .. %g (0: drag-free)", PLUMBY_CD_MAX); break;
+    case PLUMBY_R_CD_POSITIVE: snprintf(buf, size, "> 0 and <= %g", PLUMBY_CD_MAX); break;
+    case PLUMBY_R_UNIT: snprintf(buf, size, "0 .. 1 (0 %% .. 100 %%)"); break;
+    case PLUMBY_R_UNIT_OPEN: snprintf(buf, size, "> 0 and < 1"); break;
+    case PLUMBY_R_LATITUDE: snprintf(buf, size, "-90%s .. 90%s", u, u); break;
+    case PLUMBY_R_ALTITUDE:
+        snprintf(buf, size, "%g%s .. %g%s", PLUMBY_ALTITUDE_MIN_M, u, PLUMB_STD1976_TOP_M, u);
+        break;
+    }
+    return buf;
+}
+
+plumb_status plumby_quantity(const plumby_ctx *ctx, const plumby_node *node, plumb_dim dim,
+                             const char *key, double *out)
+{
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    double v = 0.0;
+    plumb_status st = plumb_units_parse(ctx->units, node->text, dim, &v, &d);
+    if (st != PLUMB_OK)
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, st, "%s",
+                            d.message[0] ? d.message : plumb_strerror(st));
+    if (!plumbp_finite(v))
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "expected a finite number, found '%s'", node->text);
+    *out = v;
+    return PLUMB_OK;
+}
+
+/* ---- reading ----------------------------------------------------------- */
+
+char *plumby_key_join(char *dst, size_t size, const char *prefix, const char *name, size_t i)
+{
+    if (!name)
+        snprintf(dst, size, "%s[%zu]", prefix, i);
+    else if (!prefix || !prefix[0])
+        snprintf(dst, size, "%s", name);
+    else
+        snprintf(dst, size, "%s.%s", prefix, name);
+    return dst;
+}
+
+void plumby_map_init(plumby_map *m, const plumby_ctx *ctx, const plumby_node *node,
+                     const plumby_schema *schema, const char *key)
+{
+    m->ctx = ctx;
+    m->node = node;
+    m->schema = schema;
+    plumbp_strlcpy(m->key, key, sizeof m->key);
+    m->line = node ? node->line : 1;
+    m->col = node ? node->col : 1;
+    m->origin = node ? node->origin : PLUMBY_FROM_FILE;
+}
+
+const plumby_node *plumby_get(const plumby_map *m, const char *name)
+{
+    const plumby_pair *p = plumby_find(m->node, name);
+    return p ? p->value : NULL;
+}
+
+void plumby_sub(const plumby_map *m, const char *name, plumby_map *out)
+{
+    const plumby_node *v = plumby_get(m, name);
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    plumby_map_init(out, m->ctx, v, plumby_schema_child(m->schema, name), key);
+    if (!v) {
+        out->line = m->line;
+        out->col = m->col;
+        out->origin = m->origin;
+    }
+}
+
+plumb_status plumby_missing(const plumby_map *m, const char *name, const char *why)
+{
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    const char *where = m->key[0] ? m->key : "the top level";
+    if (!m->node)
+        return plumby_raise(m->ctx, m->origin, m->line, m->col, key, PLUMB_EKEY,
+                            "required key '%s' is missing (%s is not given)%s%s", name, where,
+                            why ? ": " : "", why ? why : "");
+    return plumby_raise(m->ctx, m->origin, m->line, m->col, key, PLUMB_EKEY,
+                        "required key '%s' is missing from %s%s%s", name, where,
+                        why ? ": " : "", why ? why : "");
+}
+
+plumb_status plumby_forbid(const plumby_map *m, const char *name, const char *why)
+{
+    const plumby_pair *p = plumby_find(m->node, name);
+    if (!p)
+        return PLUMB_OK;
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    return plumby_raise(m->ctx, p->origin, p->line, p->col, key, PLUMB_EKEY,
+                        "'%s' is not used %s; remove it", name, why);
+}
+
+plumb_status plumby_raise_value(const plumby_map *m, const char *name, plumb_status status,
+                                const char *fmt, ...)
+{
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    const plumby_node *v = plumby_get(m, name);
+    va_list ap;
+    va_start(ap, fmt);
+    if (v)
+        plumbp_vraise(m->ctx->diag, status,
+                      v->origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : m->ctx->file, v->line,
+                      v->col, key, fmt, ap);
+    else
+        plumbp_vraise(m->ctx->diag, status,
+                      m->origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : m->ctx->file, m->line,
+                      m->col, key, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
+plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
+                             const plumby_schema *s, const char *key, double *out)
+{
+    double v;
+    plumb_status st = plumby_quantity(ctx, node, s->dim, key, &v);
+    if (st != PLUMB_OK)
+        return st;
+    if (!plumby_range_ok(s->range, v)) {
+        char r[96];
+        plumby_range_text(s->range, s->dim, r, sizeof r);
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "must be %s, found '%s'", r, node->text);
+    }
+    *out = v;
+    return PLUMB_OK;
+}
+
+plumb_status plumby_num(const plumby_map *m, const char *name, int required, double dflt,
+                        double *out, int *present)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (present)
+        *present = v != NULL;
+    if (!v) {
+        if (required)
+            return plumby_missing(m, name, NULL);
+        *out = dflt;
+        return PLUMB_OK;
+    }
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    return plumby_num_node(m->ctx, v, plumby_schema_child(m->schema, name), key, out);
+}
+
+plumb_status plumby_word(const plumby_map *m, const char *name, int dflt, int *out)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (!v) {
+        if (dflt < 0)
+            return plumby_missing(m, name, NULL);
+        *out = dflt;
+        return PLUMB_OK;
+    }
+    const plumby_schema *s = plumby_schema_child(m->schema, name);
+    for (size_t i = 0; i < s->n_words; i++) {
+        if (strcmp(v->text, s->words[i]) == 0) {
+            *out = (int)i;
+            return PLUMB_OK;
+        }
+    }
+    /* plumby_check has refused other words already. */
+    return plumby_raise_value(m, name, PLUMB_EINVAL, "unexpected word '%s'", v->text);
+}
+
+plumb_status plumby_text_node(const plumby_ctx *ctx, const plumby_node *node, const char *key,
+                              char *dst, size_t size)
+{
+    size_t len = strlen(node->text);
+    if (len >= size)
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "text of %zu bytes; at most %zu are accepted", len, size - 1);
+    for (size_t i = 0; i < len; i++) {
+        unsigned char c = (unsigned char)node->text[i];
+        if (c < 0x20u || c == 0x7fu)
+            return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                                "control character 0x%02X in text (one line of text expected)",
+                                (unsigned)c);
+    }
+    memcpy(dst, node->text, len + 1);
+    return PLUMB_OK;
+}
+
+plumb_status plumby_text(const plumby_map *m, const char *name, const char *dflt, char *dst,
+                         size_t size)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (!v) {
+        if (!dflt)
+            return plumby_missing(m, name, NULL);
+        plumbp_strlcpy(dst, dflt, size);
+        return PLUMB_OK;
+    }
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    return plumby_text_node(m->ctx, v, key, dst, size);
+}
+
+plumb_status plumby_count(const plumby_map *m, const char *name, unsigned long long dflt,
+                          unsigned long long lo, unsigned long long hi, unsigned long long *out)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (!v) {
+        *out = dflt;
+        return PLUMB_OK;
+    }
+    const char *t = v->text;
+    int digits = t[0] != '\0';
+    for (const char *c = t; *c; c++)
+        if (*c < '0' || *c > '9')
+            digits = 0;
+    errno = 0;
+    unsigned long long x = digits ? strtoull(t, NULL, 10) : 0;
+    if (!digits || errno == ERANGE || x < lo || x > hi)
+        return plumby_raise_value(m, name, digits ? PLUMB_ERANGE : PLUMB_EINVAL,
+                                  "expected a whole number %llu .. %llu, found '%s'", lo, hi, t);
+    *out = x;
+    return PLUMB_OK;
+}
