@@ -72,6 +72,7 @@
 
 /* Significant digits of figures in the text report, and of numbers in CSV. */
 #define TEXT_SIG 4
+#define INPUT_SIG 6
 #define RATIO_SIG 3
 #define CSV_DIGITS 10
 /* JSON real precision: 17 significant digits round-trip any double. */
@@ -486,10 +487,17 @@ static plumb_status check_same_criteria(const plumb_fall_report *rep, plumb_diag
 
 enum { RING = 32, NUMBUF = 96 };
 
+/* Joins a number to its unit so word wrapping never parts them; replaced
+ * by a plain space before the text leaves the writer. */
+#define NBSP "\x1F"
+#define NBSP_CHAR '\x1F'
+
+
 typedef struct writer {
     FILE *f;                 /* memory stream being written */
     int us;                  /* 1: US customary display units */
     int bad;                 /* a non-finite figure was asked for */
+    int exact;               /* 1: echoing inputs (see qty) */
     char ring[RING][NUMBUF]; /* formatted numbers, reused round-robin */
     unsigned next;
 } writer;
@@ -583,6 +591,28 @@ static const char *trimmed(writer *w, double x, int dec)
     return b;
 }
 
+/* x in the shortest of %g's forms with `sig` significant digits ("0.9"). */
+static const char *gnum(writer *w, double x, int sig)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    snprintf(b, NUMBUF, "%.*g", sig, x == 0.0 ? 0.0 : x);
+    return b;
+}
+
+/* A quantity in the text: TEXT_SIG figures; inputs echoed as given (in SI,
+ * INPUT_SIG figures) or converted (US, TEXT_SIG figures), zeros dropped. */
+static const char *qty(writer *w, double x)
+{
+    if (!w->exact)
+        return num(w, x, TEXT_SIG);
+    return gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);
+}
+
 /* A number for CSV: CSV_DIGITS significant digits, shortest form. */
 static const char *csvnum(writer *w, double x)
 {
@@ -657,9 +687,9 @@ static const char *t_len(writer *w, double m)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s ft", num(w, m / PLUMB_FT_M, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "ft", qty(w, m / PLUMB_FT_M));
     else
-        snprintf(b, NUMBUF, "%s m", num(w, m, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "m", qty(w, m));
     return b;
 }
 
@@ -667,9 +697,9 @@ static const char *t_speed(writer *w, double v)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s ft/s", num(w, v / PLUMB_FT_M, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "ft/s", qty(w, v / PLUMB_FT_M));
     else
-        snprintf(b, NUMBUF, "%s m/s", num(w, v, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "m/s", qty(w, v));
     return b;
 }
 
@@ -678,10 +708,10 @@ static const char *t_wind(writer *w, double v)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s mph (%s kn)", num(w, v / MPH_M_S, TEXT_SIG),
-                 num(w, v / KNOT_M_S, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "mph (%s" NBSP "kn)", qty(w, v / MPH_M_S),
+                 qty(w, v / KNOT_M_S));
     else
-        snprintf(b, NUMBUF, "%s m/s", num(w, v, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "m/s", qty(w, v));
     return b;
 }
 
@@ -690,11 +720,11 @@ static const char *t_energy(writer *w, double j)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s ft·lbf (%s J)", num(w, j / PLUMB_FT_LBF_J, TEXT_SIG),
-                 num(w, j, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "ft·lbf (%s" NBSP "J)",
+                 qty(w, j / PLUMB_FT_LBF_J), qty(w, j));
     else
-        snprintf(b, NUMBUF, "%s J (%s ft·lbf)", num(w, j, TEXT_SIG),
-                 num(w, j / PLUMB_FT_LBF_J, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "J (%s" NBSP "ft·lbf)", qty(w, j),
+                 qty(w, j / PLUMB_FT_LBF_J));
     return b;
 }
 
@@ -702,10 +732,10 @@ static const char *t_mass(writer *w, double kg)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s lb (%s kg)", num(w, kg / PLUMB_LB_KG, TEXT_SIG),
-                 num(w, kg, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "lb (%s" NBSP "kg)", qty(w, kg / PLUMB_LB_KG),
+                 qty(w, kg));
     else
-        snprintf(b, NUMBUF, "%s kg", num(w, kg, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "kg", qty(w, kg));
     return b;
 }
 
@@ -713,9 +743,9 @@ static const char *t_area(writer *w, double m2)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s ft²", num(w, m2 / (PLUMB_FT_M * PLUMB_FT_M), TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "ft²", qty(w, m2 / (PLUMB_FT_M * PLUMB_FT_M)));
     else
-        snprintf(b, NUMBUF, "%s m²", num(w, m2, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "m²", qty(w, m2));
     return b;
 }
 
@@ -723,9 +753,9 @@ static const char *t_force(writer *w, double n)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s lbf", num(w, n / LBF_N, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "lbf", num(w, n / LBF_N, TEXT_SIG));
     else
-        snprintf(b, NUMBUF, "%s N", num(w, n, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "N", num(w, n, TEXT_SIG));
     return b;
 }
 
@@ -733,10 +763,11 @@ static const char *t_temp(writer *w, double k)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s °F",
+        snprintf(b, NUMBUF, "%s" NBSP "°F",
                  fixed(w, k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, 1));
     else
-        snprintf(b, NUMBUF, "%s K (%s °C)", fixed(w, k, 1), fixed(w, k - CELSIUS_ZERO_K, 1));
+        snprintf(b, NUMBUF, "%s" NBSP "K (%s" NBSP "°C)", fixed(w, k, 1),
+                 fixed(w, k - CELSIUS_ZERO_K, 1));
     return b;
 }
 
@@ -744,9 +775,9 @@ static const char *t_press(writer *w, double pa)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s inHg", num(w, pa / INHG_PA, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "inHg", num(w, pa / INHG_PA, TEXT_SIG));
     else
-        snprintf(b, NUMBUF, "%s hPa", num(w, pa / HPA_PA, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "hPa", num(w, pa / HPA_PA, TEXT_SIG));
     return b;
 }
 
@@ -754,10 +785,10 @@ static const char *t_density(writer *w, double rho)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s lb/ft³",
+        snprintf(b, NUMBUF, "%s" NBSP "lb/ft³",
                  num(w, rho * PLUMB_FT_M * PLUMB_FT_M * PLUMB_FT_M / PLUMB_LB_KG, TEXT_SIG));
     else
-        snprintf(b, NUMBUF, "%s kg/m³", num(w, rho, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "kg/m³", num(w, rho, TEXT_SIG));
     return b;
 }
 
@@ -766,7 +797,7 @@ static const char *si_bracket(writer *w, double x, const char *unit)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, " [%s %s]", num(w, x, TEXT_SIG), unit);
+        snprintf(b, NUMBUF, " [%s" NBSP "%s]", num(w, x, TEXT_SIG), unit);
     else
         b[0] = '\0';
     return b;
@@ -801,6 +832,54 @@ static void caution_lines_text(writer *w)
     for (size_t i = 0; i < n; i++)
         wrapped(w, "  - ", c[i]);
 }
+
+/* ---- warnings shared by several items ------------------------------------ */
+
+static int item_has_warning(const plumb_item_report *it, const char *text)
+{
+    for (size_t k = 0; k < it->n_warnings; k++)
+        if (strcmp(it->warnings[k], text) == 0)
+            return 1;
+    return 0;
+}
+
+typedef void (*warning_fn)(writer *w, const char *who, const char *text);
+
+/* Calls fn once per distinct warning of the report, with the names of the
+ * items that have it, or "" when every item has it. */
+static void each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn)
+{
+    for (size_t i = 0; i < rep->n_items; i++)
+        for (size_t k = 0; k < rep->items[i].n_warnings; k++) {
+            const char *text = rep->items[i].warnings[k];
+            int seen = 0;
+            for (size_t j = 0; j < i && !seen; j++)
+                seen = item_has_warning(&rep->items[j], text);
+            if (seen)
+                continue;
+            char who[PLUMB_NAME * 4] = "";
+            size_t count = 0, len = 0;
+            for (size_t j = i; j < rep->n_items; j++) {
+                if (!item_has_warning(&rep->items[j], text))
+                    continue;
+                int n = snprintf(who + len, sizeof who - len, "%s%s", count ? ", " : "",
+                                 rep->items[j].spec->name);
+                if (n > 0 && (size_t)n < sizeof who - len)
+                    len += (size_t)n;
+                count++;
+            }
+            fn(w, count == rep->n_items ? "" : who, text);
+        }
+}
+
+static void text_warning_line(writer *w, const char *who, const char *text)
+{
+    char line[PLUMB_NAME * 4 + PLUMB_WARNING + 8];
+    snprintf(line, sizeof line, "%s%s%s", who, who[0] ? ": " : "", text);
+    wrapped(w, "  - ", line);
+}
+
+static void csv_warning_line(writer *w, const char *who, const char *text);
 
 /* ---- text: single fall --------------------------------------------------- */
 
@@ -885,7 +964,7 @@ static void text_comparison(writer *w, const plumb_item_report *it)
     put(w, "  without drag     %s, %s\n", t_speed(w, r->drag_free_speed_m_s),
         t_energy(w, r->drag_free_energy_j));
     if (r->drag_free_energy_j > 0.0 && r->drag_work_j != 0.0)
-        put(w, "  drag took        %s (%s %% of the drag-free energy)\n",
+        put(w, "  drag took        %s, %s %% of the drag-free energy\n",
             t_energy(w, fabs(r->drag_work_j)),
             num(w, 100.0 * fabs(r->drag_work_j) / r->drag_free_energy_j, RATIO_SIG));
     if (r->apex_m > it->spec->release_m[2])
@@ -895,15 +974,17 @@ static void text_comparison(writer *w, const plumb_item_report *it)
 static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, size_t size)
 {
     char fill[NUMBUF * 2];
+    w->exact = 1;
     if (d->fill_constant > 0.0)
-        snprintf(fill, sizeof fill, "fills in n D0 / v with n = %s", num(w, d->fill_constant, 3));
+        snprintf(fill, sizeof fill, "fills in n D0 / v with n = %s", gnum(w, d->fill_constant, 3));
     else
-        snprintf(fill, sizeof fill, "fills in %s s", num(w, d->fill_time_s, TEXT_SIG));
+        snprintf(fill, sizeof fill, "fills in %s" NBSP "s", gnum(w, d->fill_time_s, TEXT_SIG));
     if (d->trigger == PLUMB_DEPLOY_AFTER)
-        snprintf(buf, size, "deploys %s s after release, %s", num(w, d->deploy_value, TEXT_SIG),
-                 fill);
+        snprintf(buf, size, "deploys %s" NBSP "s after release, %s",
+                 gnum(w, d->deploy_value, TEXT_SIG), fill);
     else
         snprintf(buf, size, "deploys below %s, %s", t_len(w, d->deploy_value), fill);
+    w->exact = 0;
 }
 
 static void text_descent(writer *w, const plumb_item_report *it)
@@ -915,18 +996,24 @@ static void text_descent(writer *w, const plumb_item_report *it)
     put(w, "\nDescent devices\n");
     for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
         const plumb_descent_spec *d = &s->descent[i];
-        char rule[NUMBUF * 4];
+        char rule[NUMBUF * 4], line[NUMBUF * 8], lead[32];
         text_deploy_rule(w, d, rule, sizeof rule);
-        put(w, "  %s: Cd %s on %s; %s\n", descent_kind_name(d->kind), num(w, d->cd, 3),
-            t_area(w, d->area_m2), rule);
+        snprintf(lead, sizeof lead, "  %-16s ", descent_kind_name(d->kind));
+        w->exact = 1;
+        snprintf(line, sizeof line, "Cd %s on %s; %s", gnum(w, d->cd, INPUT_SIG),
+                 t_area(w, d->area_m2), rule);
+        w->exact = 0;
+        wrapped(w, lead, line);
         if (i < r->n_deployed)
-            put(w, "      line stretch %s s after release, %s above the strike level, at %s "
-                   "air speed\n", num(w, r->deploy_time_s[i], TEXT_SIG),
-                t_len(w, r->deploy_height_m[i]), t_speed(w, r->deploy_speed_m_s[i]));
+            snprintf(line, sizeof line,
+                     "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
+                     "air speed", num(w, r->deploy_time_s[i], TEXT_SIG),
+                     t_len(w, r->deploy_height_m[i]), t_speed(w, r->deploy_speed_m_s[i]));
         else
-            put(w, "      does not open before impact\n");
+            snprintf(line, sizeof line, "does not open before impact");
+        wrapped(w, "                   ", line);
     }
-    put(w, "  peak drag force  %s (%s g)\n", t_force(w, r->peak_force_n),
+    put(w, "  peak drag force  %s (%s" NBSP "g)\n", t_force(w, r->peak_force_n),
         num(w, r->peak_load_g, 3));
     put(w, "  steady descent   %s with the devices open, at the strike level\n",
         t_speed(w, r->steady_speed_m_s));
@@ -937,6 +1024,7 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
 {
     const plumb_drag_spec *d = &it->spec->drag;
     char shape[NUMBUF * 4] = "";
+    w->exact = 1;
     const plumb_shape_spec *sh = it->shape;
     if (sh && sh->kind != PLUMB_SHAPE_NONE) {
         switch (sh->kind) {
@@ -971,26 +1059,31 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
     } else if (body_cd_area(d) == 0.0) {
         snprintf(how, sizeof how, "none (drag-free)");
     } else if (d->area_m2 > 0.0) {
-        snprintf(how, sizeof how, "Cd %s on %s, CdA %s", num(w, d->cd, TEXT_SIG),
+        snprintf(how, sizeof how, "Cd %s on %s, CdA %s", gnum(w, d->cd, INPUT_SIG),
                  t_area(w, d->area_m2), t_area(w, body_cd_area(d)));
     } else {
         snprintf(how, sizeof how, "CdA %s", t_area(w, d->cd_area_m2));
     }
     snprintf(buf, size, "%s%s%s%s", shape, how, d->source[0] ? "; source: " : "", d->source);
+    w->exact = 0;
 }
 
 static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t size)
 {
     const double *v = s->velocity_m_s;
     char vel[NUMBUF * 4];
+    w->exact = 1;
     if (v[0] == 0.0 && v[1] == 0.0 && v[2] == 0.0) {
         snprintf(vel, sizeof vel, "at rest");
     } else {
         double hs = hypot(v[0], v[1]);
         double heading = hs > 0.0 ? wrap_deg(atan2(v[0], v[1]) * DEG_PER_RAD) : 0.0;
-        if (hs > 0.0)
+        if (hs > 0.0 && v[2] == 0.0)
+            snprintf(vel, sizeof vel, "moving %s toward %s, level", t_speed(w, hs),
+                     t_bearing(w, heading));
+        else if (hs > 0.0)
             snprintf(vel, sizeof vel, "moving %s toward %s, %s %s", t_speed(w, hs),
-                     t_bearing(w, heading), v[2] >= 0.0 ? "climbing" : "sinking",
+                     t_bearing(w, heading), v[2] > 0.0 ? "climbing" : "sinking",
                      t_speed(w, fabs(v[2])));
         else
             snprintf(vel, sizeof vel, "moving straight %s at %s", v[2] > 0.0 ? "up" : "down",
@@ -1001,6 +1094,7 @@ static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t 
         snprintf(pos, sizeof pos, ", %s east and %s north of the planned drop point",
                  t_len(w, s->release_m[0]), t_len(w, s->release_m[1]));
     snprintf(buf, size, "%s above the strike level, %s%s", t_len(w, s->release_m[2]), vel, pos);
+    w->exact = 0;
 }
 
 static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_t size)
@@ -1017,10 +1111,17 @@ static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
                  a->table_t_k ? " with temperatures" : "");
         break;
     default:
-        if (a->temperature_offset_k != 0.0)
-            snprintf(what, sizeof what, "U.S. Standard Atmosphere 1976, temperature %s%s K",
+        if (a->temperature_offset_k != 0.0 && w->us)
+            snprintf(what, sizeof what,
+                     "U.S. Standard Atmosphere 1976, temperature offset %s%s" NBSP "°F (%s"
+                     NBSP "K)", a->temperature_offset_k > 0.0 ? "+" : "",
+                     gnum(w, a->temperature_offset_k * FAHRENHEIT_PER_K, 3),
+                     gnum(w, a->temperature_offset_k, 3));
+        else if (a->temperature_offset_k != 0.0)
+            snprintf(what, sizeof what,
+                     "U.S. Standard Atmosphere 1976, temperature offset %s%s" NBSP "K",
                      a->temperature_offset_k > 0.0 ? "+" : "",
-                     num(w, a->temperature_offset_k, 3));
+                     gnum(w, a->temperature_offset_k, 3));
         else
             snprintf(what, sizeof what, "U.S. Standard Atmosphere 1976");
         break;
@@ -1035,8 +1136,8 @@ static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
 static void text_air_line(writer *w, const char *lead, const plumb_air *a)
 {
     char line[NUMBUF * 6];
-    snprintf(line, sizeof line, "%s MSL: %s, %s, %s", t_len(w, a->alt_m), t_temp(w, a->t_k),
-             t_press(w, a->p_pa), t_density(w, a->rho_kg_m3));
+    snprintf(line, sizeof line, "%s, %s, %s", t_temp(w, a->t_k), t_press(w, a->p_pa),
+             t_density(w, a->rho_kg_m3));
     wrapped(w, lead, line);
 }
 
@@ -1047,11 +1148,12 @@ static void text_wind(writer *w, const plumb_fall_spec *s, const item_air *ia, c
     char at_release[NUMBUF * 3];
     snprintf(at_release, sizeof at_release, "%s from %s at the release height",
              t_wind(w, ia->wind_release[0]), t_bearing(w, ia->wind_release[1]));
+    w->exact = 1;
     switch (wd->profile) {
     case PLUMB_WIND_POWER:
         snprintf(buf, size, "%s from %s at %s, power law exponent %s; %s",
                  t_wind(w, wd->speed_m_s), t_bearing(w, wd->from_deg),
-                 t_len(w, wd->ref_height_m), num(w, wd->exponent, 3), at_release);
+                 t_len(w, wd->ref_height_m), gnum(w, wd->exponent, INPUT_SIG), at_release);
         break;
     case PLUMB_WIND_LOG:
         snprintf(buf, size, "%s from %s at %s, log law roughness %s; %s",
@@ -1069,6 +1171,7 @@ static void text_wind(writer *w, const plumb_fall_spec *s, const item_air *ia, c
                      t_bearing(w, wd->from_deg));
         break;
     }
+    w->exact = 0;
 }
 
 static void text_site(writer *w, const plumb_fall_spec *s, const item_air *ia, char *buf,
@@ -1076,12 +1179,14 @@ static void text_site(writer *w, const plumb_fall_spec *s, const item_air *ia, c
 {
     char g[NUMBUF * 2];
     if (s->gravity.has_latitude)
-        snprintf(g, sizeof g, "latitude %s°, WGS 84 gravity %s m/s²",
-                 num(w, s->gravity.latitude_deg, TEXT_SIG), fixed(w, ia->g_m_s2, 5));
+        snprintf(g, sizeof g, "latitude %s°, WGS" NBSP "84 gravity %s" NBSP "m/s²",
+                 gnum(w, s->gravity.latitude_deg, 6), fixed(w, ia->g_m_s2, 5));
     else
-        snprintf(g, sizeof g, "standard gravity %s m/s²", fixed(w, ia->g_m_s2, 5));
+        snprintf(g, sizeof g, "standard gravity %s" NBSP "m/s²", fixed(w, ia->g_m_s2, 5));
+    w->exact = 1;
     snprintf(buf, size, "strike level %s above mean sea level; %s",
              t_len(w, s->site_elevation_m), g);
+    w->exact = 0;
 }
 
 /* Inputs of one item as understood (payload lines only when `payload`). */
@@ -1092,8 +1197,10 @@ static void text_inputs(writer *w, const plumb_item_report *it, const plumb_prof
     char line[PLUMB_DRAG_SOURCE + NUMBUF * 8];
     if (payload) {
         char mass[NUMBUF * 3];
+        w->exact = 1;
         snprintf(mass, sizeof mass, "%s%s", t_mass(w, s->mass_kg),
                  s->volume_m3 > 0.0 ? ", buoyancy included" : "");
+        w->exact = 0;
         wrapped(w, "  mass        ", mass);
         text_drag(w, it, line, sizeof line);
         wrapped(w, "  drag        ", line);
@@ -1104,8 +1211,8 @@ static void text_inputs(writer *w, const plumb_item_report *it, const plumb_prof
     wrapped(w, "  site        ", line);
     text_atmosphere(w, plumb_profile_atmosphere(p), line, sizeof line);
     wrapped(w, "  atmosphere  ", line);
-    text_air_line(w, "  air         strike level ", &ia->at[0]);
-    text_air_line(w, "              release      ", &ia->at[1]);
+    text_air_line(w, "  air         strike level  ", &ia->at[0]);
+    text_air_line(w, "              release       ", &ia->at[1]);
     text_wind(w, s, ia, line, sizeof line);
     wrapped(w, "  wind        ", line);
 }
@@ -1188,7 +1295,7 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
         put(w, "%4zu ", i + 1);
         pad(w, it->spec->name, name_w, 0);
         double conv_len = w->us ? PLUMB_FT_M : 1.0;
-        pad(w, num(w, it->spec->mass_kg / (w->us ? PLUMB_LB_KG : 1.0), TEXT_SIG), NUM_W, 1);
+        pad(w, gnum(w, it->spec->mass_kg / (w->us ? PLUMB_LB_KG : 1.0), TEXT_SIG), NUM_W, 1);
         pad(w, num(w, r->speed_m_s / conv_len, TEXT_SIG), NUM_W, 1);
         pad(w, num(w, r->energy_j, TEXT_SIG), NUM_W, 1);
         pad(w, num(w, r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG), NUM_W, 1);
@@ -1222,19 +1329,19 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
     char line[PLUMB_NAME + NUMBUF * 6];
     long sk = strictest(worst);
     if (sk >= 0)
-        snprintf(line, sizeof line, "%s, %s at %s, %s times the strictest limit (C%ld, %s J)",
+        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit (C%ld, %s J)",
                  worst->spec->name, t_energy(w, worst->result.energy_j),
                  t_speed(w, worst->result.speed_m_s), num(w, worst->verdicts[sk].ratio, RATIO_SIG),
                  sk + 1, num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG));
     else
-        snprintf(line, sizeof line, "%s, %s at %s", worst->spec->name,
+        snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,
                  t_energy(w, worst->result.energy_j), t_speed(w, worst->result.speed_m_s));
     put(w, "\n");
     wrapped(w, "Worst item     ", line);
     if (drift->result.drift_m < DRIFT_SHOWN_M)
         snprintf(line, sizeof line, "none: every item lands below the release point");
     else
-        snprintf(line, sizeof line, "%s, %s toward %s", drift->spec->name,
+        snprintf(line, sizeof line, "%s: %s toward %s", drift->spec->name,
                  t_len(w, drift->result.drift_m), t_bearing(w, drift->result.bearing_deg));
     wrapped(w, "Largest drift  ", line);
 
@@ -1250,13 +1357,7 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
         any_warning |= rep->items[i].n_warnings > 0;
     if (any_warning) {
         put(w, "\nWarnings\n");
-        for (size_t i = 0; i < rep->n_items; i++)
-            for (size_t k = 0; k < rep->items[i].n_warnings; k++) {
-                char text[PLUMB_NAME + PLUMB_WARNING + 8];
-                snprintf(text, sizeof text, "%s: %s", rep->items[i].spec->name,
-                         rep->items[i].warnings[k]);
-                wrapped(w, "  - ", text);
-            }
+        each_warning(w, rep, text_warning_line);
     }
 
     put(w, "\nInputs as understood\n");
@@ -1266,8 +1367,11 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
         char drag[PLUMB_DRAG_SOURCE + NUMBUF * 8];
         snprintf(lead, sizeof lead, "  %4zu  ", i + 1);
         text_drag(w, it, drag, sizeof drag);
-        snprintf(text, sizeof text, "%s: %s%s; drag %s", it->spec->name, t_mass(w, it->spec->mass_kg),
+        w->exact = 1;
+        snprintf(text, sizeof text, "%s: %s%s; drag %s", it->spec->name,
+                 t_mass(w, it->spec->mass_kg),
                  it->spec->volume_m3 > 0.0 ? ", buoyancy included" : "", drag);
+        w->exact = 0;
         wrapped(w, lead, text);
     }
     text_inputs(w, first, rep->profile, ia, 0);
@@ -1309,6 +1413,13 @@ static void csv_comment(writer *w, const char *text)
     fputc('\n', w->f);
 }
 
+static void csv_warning_line(writer *w, const char *who, const char *text)
+{
+    char line[PLUMB_NAME * 4 + PLUMB_WARNING + 16];
+    snprintf(line, sizeof line, "warning: %s%s%s", who, who[0] ? ": " : "", text);
+    csv_comment(w, line);
+}
+
 static void csv_cautions(writer *w)
 {
     size_t n;
@@ -1327,18 +1438,12 @@ static void csv_fall(writer *w, const plumb_fall_report *rep)
     csv_comment(w, text);
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
-        snprintf(text, sizeof text, "criterion %s: %s, %s limit %.*g J, source: %s", c->id,
+        snprintf(text, sizeof text, "criterion %s: %s, kind %s, limit %.*g J, source: %s", c->id,
                  c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
                  c->source[0] ? c->source : "not given");
         csv_comment(w, text);
     }
-    for (size_t i = 0; i < rep->n_items; i++)
-        for (size_t k = 0; k < rep->items[i].n_warnings; k++) {
-            char wt[PLUMB_NAME + PLUMB_WARNING + 16];
-            snprintf(wt, sizeof wt, "warning: %s: %s", rep->items[i].spec->name,
-                     rep->items[i].warnings[k]);
-            csv_comment(w, wt);
-        }
+    each_warning(w, rep, csv_warning_line);
 
     if (w->us)
         put(w, "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
@@ -1768,6 +1873,9 @@ static plumb_status writer_close(writer *w, char **buf, size_t *len, FILE *out,
     int failed = ferror(w->f);
     if (fclose(w->f) != 0)
         failed = 1;
+    for (size_t i = 0; *buf && i < *len; i++)
+        if ((*buf)[i] == NBSP_CHAR)
+            (*buf)[i] = ' ';
     plumb_status st = PLUMB_OK;
     if (w->bad)
         st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no report "

@@ -677,7 +677,8 @@ static void test_us_units_csv_names_columns_in_feet_and_pounds(void **state)
     plumb_diag diag;
     char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_US, &st, &diag);
     assert_int_equal(st, PLUMB_OK);
-    const char *h = strstr(csv, "\nname,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,");
+    const char *h =
+        strstr(csv, "\nname,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,");
     assert_non_null(h);
     assert_non_null(strstr(h, ",us-part107-cat3_ratio,us-part107-cat3_verdict,"));
     const char *row = strchr(h + 1, '\n');
@@ -698,14 +699,15 @@ static void test_us_units_csv_names_columns_in_feet_and_pounds(void **state)
 static void test_inventory_names_the_worst_item_and_the_largest_drift(void **state)
 {
     fixture *fx = *state;
-    plumb_profile *p = load_profile(fx, "kit.yaml",
-                                    "name: Tower kit\n"
-                                    "items:\n"
-                                    "  - {name: Radio, mass: 0.412 kg, drag: {cd_area: 0.0063 m^2}}\n"
-                                    "  - {name: Torque wrench, mass: 2.385 kg, drag: {cd_area: 0.0174 m^2}}\n"
-                                    "  - {name: Tag line, mass: 0.916 kg, drag: {cd_area: 0.0412 m^2}}\n"
-                                    "release: {height: 41.3 m}\n"
-                                    "criteria: [us-part107-cat3]\n");
+    plumb_profile *p = load_profile(
+        fx, "kit.yaml",
+        "name: Tower kit\n"
+        "items:\n"
+        "  - {name: Radio, mass: 0.412 kg, drag: {cd_area: 0.0063 m^2}}\n"
+        "  - {name: Torque wrench, mass: 2.385 kg, drag: {cd_area: 0.0174 m^2}}\n"
+        "  - {name: Tag line, mass: 0.916 kg, drag: {cd_area: 0.0412 m^2}}\n"
+        "release: {height: 41.3 m}\n"
+        "criteria: [us-part107-cat3]\n");
     assert_int_equal(plumb_profile_item_count(p), 3);
     plumb_item_report items[3];
     double speed[3] = {21.37, 26.05, 17.82}, drift[3] = {1.93, 0.41, 6.77};
