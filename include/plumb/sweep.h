@@ -1,0 +1,89 @@
+/*
+ * plumb/sweep.h - ranges of an input ("FROM:TO:STEP" with units) and the
+ * table of falls over one or two of them (`plumb sweep`).
+ *
+ * A range's values are computed in the unit the user typed when FROM, TO
+ * and STEP share it, else in SI: value_i = FROM + i STEP for every value
+ * not above TO, written with 15 significant digits (so 0.1 x 3 is "0.3",
+ * as a user would type it); each value is handed to
+ * the profile as the text "KEY=<value> <unit>", exactly as --set would
+ * pass it. So every row of a sweep is bit for bit what `plumb fall --set
+ * KEY=<value>` gives.
+ *
+ * Ownership: a plumb_sweep owns its derived profiles and results; the
+ * report structs it hands out point into it and live until
+ * plumb_sweep_free.
+ */
+#ifndef PLUMB_SWEEP_H
+#define PLUMB_SWEEP_H
+
+#include <stddef.h>
+#include "plumb/error.h"
+#include "plumb/units.h"
+#include "plumb/profile.h"
+#include "plumb/criteria.h"
+#include "plumb/trajectory.h"
+#include "plumb/report.h"
+
+/* Rows allowed in one range and in a whole sweep. */
+#define PLUMB_RANGE_MAX_VALUES 100000u
+#define PLUMB_SWEEP_MAX_ROWS 10000u
+
+enum { PLUMB_UNIT_TEXT = 64, PLUMB_MAX_AXES = 2 };
+
+typedef struct plumb_range {
+    char key[PLUMB_DIAG_KEY];     /* the profile key, "" for a bare range */
+    plumb_dim dim;                /* its dimension */
+    char unit[PLUMB_UNIT_TEXT];   /* the unit the values are written in ("" for bare numbers) */
+    double from, to, step;        /* in `unit` */
+    size_t n;                     /* number of values (>= 1) */
+} plumb_range;
+
+/* Parses "FROM:TO:STEP" (each a quantity of dimension dim, e.g.
+ * "2m:60m:2m" or "0 kn:25 kn:5 kn") into *out; `what` names the option
+ * for messages ("--vary release.height"). STEP must be > 0, FROM <= TO,
+ * all three of the same dimension; at most PLUMB_RANGE_MAX_VALUES values.
+ * Errors: PLUMB_EPARSE (shape), PLUMB_EUNIT (units), PLUMB_ERANGE. */
+plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb_dim dim,
+                               const char *what, plumb_range *out, plumb_diag *diag);
+
+/* Parses "KEY=FROM:TO:STEP" for a numeric profile key (its dimension
+ * from plumb_profile_key_dim). */
+plumb_status plumb_range_parse_key(const plumb_units *units, const char *text,
+                                   plumb_range *out, plumb_diag *diag);
+
+/* The i-th value in the range's unit (i < n). */
+double plumb_range_value(const plumb_range *r, size_t i);
+
+/* The i-th value in SI. */
+double plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i);
+
+/* "KEY=<value> <unit>" for the i-th value, as --set takes it. */
+void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size);
+
+/* One row: the axis values and the fall report of that profile. */
+typedef struct plumb_sweep_row {
+    size_t index[PLUMB_MAX_AXES];      /* value index on each axis */
+    double value[PLUMB_MAX_AXES];      /* value in the axis unit */
+    double value_si[PLUMB_MAX_AXES];   /* value in SI */
+    plumb_fall_report report;          /* the fall(s), as `plumb fall` reports them */
+} plumb_sweep_row;
+
+typedef struct plumb_sweep plumb_sweep;
+
+/* Runs the falls of `profile` over one or two ranges (the first varies
+ * slowest), judging each against `criteria` as `plumb fall` does.
+ * On error *out is NULL and diag names the row's key and value. */
+plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *units,
+                             const plumb_criteria *criteria, const plumb_range *axes,
+                             size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
+                             plumb_diag *diag);
+
+void plumb_sweep_free(plumb_sweep *s);
+
+size_t plumb_sweep_axis_count(const plumb_sweep *s);
+const plumb_range *plumb_sweep_axis(const plumb_sweep *s, size_t i);
+size_t plumb_sweep_row_count(const plumb_sweep *s);
+const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i);
+
+#endif /* PLUMB_SWEEP_H */

@@ -1,0 +1,284 @@
+/*
+ * sweep.c - ranges of an input and the table of falls over them
+ * (include/plumb/sweep.h). Every row is a profile derived with the row's
+ * values as --set texts, so it is exactly what `plumb fall` gives.
+ */
+#include <ctype.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "plumb/sweep.h"
+#include "plumb/atmosphere.h"
+#include "internal.h"
+
+/* Digits a range value is written with: enough for any value a user types,
+ * few enough that 0.1 x 3 is written "0.3", as the user would type it. */
+#define RANGE_DIGITS 15
+
+struct plumb_sweep {
+    size_t n_axes;
+    plumb_range axes[PLUMB_MAX_AXES];
+    size_t n_rows;
+    plumb_sweep_row *rows;
+    plumb_profile **profiles;   /* one per row, owned */
+    plumb_atmosphere **atms;    /* one per row, owned (verdict warnings use it) */
+};
+
+static const char *trim(char *s)
+{
+    while (isspace((unsigned char)*s))
+        s++;
+    char *e = s + strlen(s);
+    while (e > s && isspace((unsigned char)e[-1]))
+        *--e = '\0';
+    return s;
+}
+
+#define RANGE_ERROR(diag, st, what, ...) \
+    PLUMB_RAISE_AT((diag), (st), "<command line>", 0, 0, (what), __VA_ARGS__)
+
+plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb_dim dim,
+                               const char *what, plumb_range *out, plumb_diag *diag)
+{
+    char buf[256];
+    if (snprintf(buf, sizeof buf, "%s", text) >= (int)sizeof buf)
+        return RANGE_ERROR(diag, PLUMB_EPARSE, what, "range too long: '%s'", text);
+    char *parts[3], *p = buf;
+    for (int i = 0; i < 3; i++) {
+        parts[i] = p;
+        char *colon = strchr(p, ':');
+        if (i < 2 && !colon)
+            return RANGE_ERROR(diag, PLUMB_EPARSE, what,
+                               "expected FROM:TO:STEP, each with its unit (e.g. 2m:60m:2m); "
+                               "found '%s'", text);
+        if (i == 2 && colon)
+            return RANGE_ERROR(diag, PLUMB_EPARSE, what,
+                               "expected FROM:TO:STEP, three parts; found '%s'", text);
+        if (colon) {
+            *colon = '\0';
+            p = colon + 1;
+        }
+    }
+    static const char *const names[3] = {"FROM", "TO", "STEP"};
+    double si[3], num[3];
+    char unit[3][PLUMB_UNIT_TEXT];
+    for (int i = 0; i < 3; i++) {
+        const char *part = trim(parts[i]);
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        plumb_status st = plumb_units_parse(units, part, dim, &si[i], &d);
+        if (st != PLUMB_OK)
+            return RANGE_ERROR(diag, st, what, "%s '%s': %s", names[i], part, d.message);
+        char *end = NULL;
+        num[i] = strtod(part, &end);
+        snprintf(unit[i], sizeof unit[i], "%s", end ? end : "");
+        snprintf(unit[i], sizeof unit[i], "%s", trim(unit[i]));
+    }
+    memset(out, 0, sizeof *out);
+    out->dim = dim;
+    if (strcmp(unit[0], unit[1]) == 0 && strcmp(unit[1], unit[2]) == 0) {
+        /* one unit for all three: count in it */
+        plumbp_strlcpy(out->unit, unit[0], sizeof out->unit);
+        out->from = num[0];
+        out->to = num[1];
+        out->step = num[2];
+    } else {
+        const char *u = plumb_dim_si_unit(dim);
+        plumbp_strlcpy(out->unit, strcmp(u, "1") == 0 ? "" : u, sizeof out->unit);
+        out->from = si[0];
+        out->to = si[1];
+        out->step = si[2];
+    }
+    if (!(si[2] > 0.0))
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "STEP must be > 0, found '%s'", parts[2]);
+    if (si[0] > si[1])
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "FROM (%s) must not exceed TO (%s)", parts[0],
+                           parts[1]);
+    double span = (out->to - out->from) / out->step;
+    if (!(span < (double)PLUMB_RANGE_MAX_VALUES))
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "'%s' makes more than %u values; use a larger STEP", text,
+                           PLUMB_RANGE_MAX_VALUES);
+    /* the relative slack lets 0:1:0.1 end on 1 despite rounding */
+    out->n = (size_t)floor(span * (1.0 + 1e-12) + 1e-12) + 1;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, plumb_range *out,
+                                   plumb_diag *diag)
+{
+    const char *eq = strchr(text, '=');
+    if (!eq || eq == text)
+        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, NULL,
+                              "expected KEY=FROM:TO:STEP (e.g. release.height=2m:60m:2m), found '%s'",
+                              text);
+    char key[PLUMB_DIAG_KEY];
+    size_t klen = (size_t)(eq - text);
+    if (klen >= sizeof key)
+        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, NULL, "key too long");
+    memcpy(key, text, klen);
+    key[klen] = '\0';
+    plumb_dim dim;
+    plumb_status st = plumb_profile_key_dim(key, &dim, diag);
+    if (st != PLUMB_OK) {
+        if (diag && !diag->file[0])
+            plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
+        return st;
+    }
+    char what[PLUMB_DIAG_KEY];
+    snprintf(what, sizeof what, "%s", key);
+    st = plumb_range_parse(units, eq + 1, dim, what, out, diag);
+    if (st == PLUMB_OK)
+        plumbp_strlcpy(out->key, key, sizeof out->key);
+    return st;
+}
+
+double plumb_range_value(const plumb_range *r, size_t i)
+{
+    double v = r->from + (double)i * r->step;
+    if (v > r->to)
+        v = r->to;
+    char buf[64];
+    snprintf(buf, sizeof buf, "%.*g", RANGE_DIGITS, v);
+    return strtod(buf, NULL);
+}
+
+double plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i)
+{
+    double v = plumb_range_value(r, i), si = v;
+    if (r->unit[0] && plumb_units_to_si(units, v, r->unit, r->dim, &si, NULL) != PLUMB_OK)
+        return v;
+    return si;
+}
+
+void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size)
+{
+    snprintf(buf, size, "%s=%.*g%s%s", r->key, RANGE_DIGITS, plumb_range_value(r, i),
+             r->unit[0] ? " " : "", r->unit);
+}
+
+void plumb_sweep_free(plumb_sweep *s)
+{
+    if (!s)
+        return;
+    for (size_t i = 0; i < s->n_rows; i++) {
+        if (s->rows)
+            free(s->rows[i].report.items);
+        if (s->profiles)
+            plumb_profile_free(s->profiles[i]);
+        if (s->atms)
+            plumb_atmosphere_free(s->atms[i]);
+    }
+    free(s->rows);
+    free(s->profiles);
+    free(s->atms);
+    free(s);
+}
+
+/* Runs one row; its derived profile and atmosphere go into the sweep. */
+static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
+                            const plumb_units *units, const plumb_criteria *crit,
+                            plumb_trajectory *traj, plumb_diag *diag)
+{
+    plumb_sweep_row *row = &s->rows[r];
+    char sets[PLUMB_MAX_AXES][PLUMB_DIAG_KEY + 64];
+    const char *set_ptrs[PLUMB_MAX_AXES];
+    for (size_t a = 0; a < s->n_axes; a++) {
+        plumb_range_set_text(&s->axes[a], row->index[a], sets[a], sizeof sets[a]);
+        set_ptrs[a] = sets[a];
+        row->value[a] = plumb_range_value(&s->axes[a], row->index[a]);
+        row->value_si[a] = plumb_range_value_si(&s->axes[a], units, row->index[a]);
+    }
+    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], diag);
+    if (st == PLUMB_OK)
+        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], diag);
+    if (st != PLUMB_OK)
+        return st;
+    const plumb_profile *p = s->profiles[r];
+    size_t n = plumb_profile_item_count(p);
+    row->report.profile = p;
+    row->report.n_items = n;
+    row->report.items = calloc(n ? n : 1, sizeof *row->report.items);
+    if (!row->report.items)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    for (size_t i = 0; i < n; i++) {
+        plumb_item_report *it = &row->report.items[i];
+        it->spec = plumb_profile_item(p, i);
+        it->shape = plumb_profile_item_shape(p, i);
+        st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, diag);
+        if (st == PLUMB_OK)
+            st = plumb_item_judge(it, p, crit, s->atms[r], diag);
+        if (st != PLUMB_OK) {
+            char where[PLUMB_DIAG_MSG + PLUMB_DIAG_KEY + 80];
+            snprintf(where, sizeof where, "%s (at %s)", diag ? diag->message : "",
+                     sets[s->n_axes - 1]);
+            if (diag)
+                plumbp_strlcpy(diag->message, where, sizeof diag->message);
+            return st;
+        }
+    }
+    return PLUMB_OK;
+}
+
+plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *units,
+                             const plumb_criteria *criteria, const plumb_range *axes,
+                             size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
+                             plumb_diag *diag)
+{
+    *out = NULL;
+    if (n_axes < 1 || n_axes > PLUMB_MAX_AXES)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "a sweep takes one or two --vary ranges");
+    if (n_axes == 2 && strcmp(axes[0].key, axes[1].key) == 0)
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, axes[0].key, "the same key is varied twice");
+    size_t total = axes[0].n * (n_axes == 2 ? axes[1].n : 1);
+    if (total > PLUMB_SWEEP_MAX_ROWS)
+        return PLUMB_RAISE(diag, PLUMB_ERANGE, "the sweep has %zu rows, more than %u; use larger steps",
+                           total, PLUMB_SWEEP_MAX_ROWS);
+    plumb_sweep *s = calloc(1, sizeof *s);
+    if (!s)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    s->n_axes = n_axes;
+    memcpy(s->axes, axes, n_axes * sizeof *axes);
+    s->rows = calloc(total, sizeof *s->rows);
+    s->profiles = calloc(total, sizeof *s->profiles);
+    s->atms = calloc(total, sizeof *s->atms);
+    s->n_rows = total;
+    if (!s->rows || !s->profiles || !s->atms) {
+        plumb_sweep_free(s);
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    }
+    size_t inner = n_axes == 2 ? axes[1].n : 1;
+    for (size_t r = 0; r < total; r++) {
+        s->rows[r].index[0] = r / inner;
+        if (n_axes == 2)
+            s->rows[r].index[1] = r % inner;
+        plumb_status st = run_row(s, r, profile, units, criteria, traj, diag);
+        if (st != PLUMB_OK) {
+            plumb_sweep_free(s);
+            return st;
+        }
+    }
+    *out = s;
+    return PLUMB_OK;
+}
+
+size_t plumb_sweep_axis_count(const plumb_sweep *s)
+{
+    return s->n_axes;
+}
+
+const plumb_range *plumb_sweep_axis(const plumb_sweep *s, size_t i)
+{
+    return i < s->n_axes ? &s->axes[i] : NULL;
+}
+
+size_t plumb_sweep_row_count(const plumb_sweep *s)
+{
+    return s->n_rows;
+}
+
+const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i)
+{
+    return i < s->n_rows ? &s->rows[i] : NULL;
+}
