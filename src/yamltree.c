@@ -817,12 +817,16 @@ plumb_status plumby_quantity(const plumby_ctx *ctx, const plumby_node *node, plu
 
 char *plumby_key_join(char *dst, size_t size, const char *prefix, const char *name, size_t i)
 {
+    /* Built in room for the longest key and index, then cut to size: a key
+     * longer than dst is shortened; the diagnostic still names its start. */
+    char tmp[2 * PLUMB_DIAG_KEY + 32];
     if (!name)
-        snprintf(dst, size, "%s[%zu]", prefix, i);
+        snprintf(tmp, sizeof tmp, "%s[%zu]", prefix ? prefix : "", i);
     else if (!prefix || !prefix[0])
-        snprintf(dst, size, "%s", name);
+        snprintf(tmp, sizeof tmp, "%s", name);
     else
-        snprintf(dst, size, "%s.%s", prefix, name);
+        snprintf(tmp, sizeof tmp, "%s.%s", prefix, name);
+    plumbp_strlcpy(dst, tmp, size);
     return dst;
 }
 
