@@ -30,9 +30,12 @@
  *  - A temperature offset dT adds to T and T_M alike; rho = p / (R (T_M + dT)).
  *  - Humidity uses e = RH e_s(T), capped at p (vapour cannot exceed the total
  *    pressure), and Tv from T_M; e_s is 0 below the Magnus pole (T < 30 K).
- *  - surface: dz is the geopotential height difference (r0 = 6 356 766 m), so
- *    that "constant g0" means what it means in the 1976 model and the surface
- *    model reproduces the 1976 troposphere when given its sea-level values.
+ *  - surface: dz is the geometric height above the station, the height the
+ *    profile's lapse rate is quoted per (and the plain reading of design.md
+ *    section 2), with the hydrostatic law at constant g0. Given the 1976
+ *    sea-level values it is the 1976 troposphere with geometric height in
+ *    place of geopotential height (a difference of dz^2 / r0: 0.16 m at
+ *    1 km).
  *    Its range is the 1976 range cut to 5 km below and 11 km above the
  *    station: one lapse rate describes at most a troposphere. The offset is
  *    not used (the station temperature is the measured one).
@@ -106,10 +109,10 @@ struct plumb_atmosphere {
     double lo_m, hi_m;       /* valid range, geometric m above MSL */
     double dt_k;             /* standard-1976, table without T: offset, K */
     double rh;               /* relative humidity 0..1 */
-    double st_h_m;           /* surface: station geopotential height, m' */
+    double st_h_m;           /* surface: station altitude, m */
     double st_p_pa;          /* surface: station pressure, Pa */
     double st_t_k;           /* surface: station temperature, K */
-    double lapse_k_m;        /* surface: temperature fall per geopotential metre, K/m' */
+    double lapse_k_m;        /* surface: temperature fall per metre of height, K/m */
     double st_exponent;      /* surface: g0 / (R L), when L != 0 */
     size_t n;                /* table: rows */
     double *alt_m;           /* table: altitudes, m (owns the block below) */
@@ -297,7 +300,7 @@ static plumb_status setup_surface(const plumb_atm_spec *s, plumb_atmosphere *a,
                                "expected a finite lapse rate");
     a->lo_m = fmax(s->station_alt_m - ATM_SURFACE_BELOW_M, ATM_STD1976_BOTTOM_M);
     a->hi_m = fmin(s->station_alt_m + ATM_SURFACE_ABOVE_M, PLUMB_STD1976_TOP_M);
-    a->st_h_m = geopotential_m(s->station_alt_m);
+    a->st_h_m = s->station_alt_m;
     a->st_p_pa = s->station_pressure_pa;
     a->st_t_k = s->station_temperature_k;
     a->lapse_k_m = s->lapse_rate_k_m;
@@ -305,7 +308,7 @@ static plumb_status setup_surface(const plumb_atm_spec *s, plumb_atmosphere *a,
         a->st_exponent = PLUMB_G0_M_S2 / (PLUMB_RAIR_J_KG_K * a->lapse_k_m);
     const double ends[2] = {a->lo_m, a->hi_m};
     for (size_t i = 0; i < 2; i++) {
-        double t = a->st_t_k - a->lapse_k_m * (geopotential_m(ends[i]) - a->st_h_m);
+        double t = a->st_t_k - a->lapse_k_m * (ends[i] - a->st_h_m);
         if (!(t > 0.0))
             return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "atmosphere.lapse_rate",
                                    "a lapse rate of %g K/m from %g K makes the temperature "
@@ -455,7 +458,7 @@ void plumb_atmosphere_range(const plumb_atmosphere *atm, double *lo_m, double *h
 
 static plumb_status surface_air(const plumb_atmosphere *a, double alt_m, plumb_air *out)
 {
-    double dh = geopotential_m(alt_m) - a->st_h_m;
+    double dh = alt_m - a->st_h_m;
     double t = a->st_t_k - a->lapse_k_m * dh;
     if (!(t > 0.0))
         return PLUMB_RAISE(NULL, PLUMB_ERANGE, "temperature not positive at %.1f m", alt_m);
