@@ -79,6 +79,8 @@
 #define JSON_DIGITS 17
 /* Width the text report wraps warnings and cautions at. */
 #define TEXT_WIDTH 78
+/* Most rows of a wind table the text report lists. */
+#define WIND_ROWS_SHOWN 6
 /* Compass points used to name a bearing. */
 #define COMPASS_POINTS 16
 
@@ -175,11 +177,14 @@ static void warn_helmet_tests(plumb_item_report *item)
     if (count == 0)
         return;
     char sentence[PLUMB_WARNING * 2];
-    if (fits)
+    if (fits && count == 1)
         snprintf(sentence, sizeof sentence,
-                 "%s %s the energy a helmet is tested to, not a safe limit: a blow below it "
-                 "can still injure, with or without a helmet.",
-                 names, count == 1 ? "is" : "are");
+                 "%s is the energy a helmet is tested to, not a safe limit: a blow below it "
+                 "can still injure, with or without a helmet.", names);
+    else if (fits)
+        snprintf(sentence, sizeof sentence,
+                 "%s are the energies helmets are tested to, not safe limits: a blow below "
+                 "them can still injure, with or without a helmet.", names);
     else
         snprintf(sentence, sizeof sentence,
                  "%zu of the criteria are the energies helmets are tested to, not safe limits: "
@@ -535,8 +540,12 @@ static const char *num(writer *w, double x, int sig)
     }
     int mag = (int)floor(log10(fabs(x)));
     int dec = sig - 1 - mag;
-    if (dec < 0)
-        dec = 0;
+    if (dec < 0) {
+        /* Large figures keep `sig` digits and zeros after: 29984211 -> 29980000. */
+        double unit = pow(10.0, (double)-dec);
+        snprintf(b, NUMBUF, "%.0f", round(x / unit) * unit);
+        return b;
+    }
     if (dec > 15)
         dec = 15;
     snprintf(b, NUMBUF, "%.*f", dec, x);
@@ -762,12 +771,14 @@ static const char *t_force(writer *w, double n)
 static const char *t_temp(writer *w, double k)
 {
     char *b = slot(w);
+    double f = k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, c = k - CELSIUS_ZERO_K;
     if (w->us)
-        snprintf(b, NUMBUF, "%s" NBSP "°F",
-                 fixed(w, k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, 1));
+        snprintf(b, NUMBUF, "%s" NBSP "°F", w->exact ? gnum(w, f, TEXT_SIG) : fixed(w, f, 1));
+    else if (w->exact)
+        snprintf(b, NUMBUF, "%s" NBSP "K (%s" NBSP "°C)", gnum(w, k, INPUT_SIG),
+                 gnum(w, c, INPUT_SIG));
     else
-        snprintf(b, NUMBUF, "%s" NBSP "K (%s" NBSP "°C)", fixed(w, k, 1),
-                 fixed(w, k - CELSIUS_ZERO_K, 1));
+        snprintf(b, NUMBUF, "%s" NBSP "K (%s" NBSP "°C)", fixed(w, k, 1), fixed(w, c, 1));
     return b;
 }
 
@@ -775,9 +786,9 @@ static const char *t_press(writer *w, double pa)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s" NBSP "inHg", num(w, pa / INHG_PA, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "inHg", qty(w, pa / INHG_PA));
     else
-        snprintf(b, NUMBUF, "%s" NBSP "hPa", num(w, pa / HPA_PA, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "hPa", qty(w, pa / HPA_PA));
     return b;
 }
 
@@ -977,8 +988,10 @@ static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, 
     w->exact = 1;
     if (d->fill_constant > 0.0)
         snprintf(fill, sizeof fill, "fills in n D0 / v with n = %s", gnum(w, d->fill_constant, 3));
-    else
+    else if (d->fill_time_s > 0.0)
         snprintf(fill, sizeof fill, "fills in %s" NBSP "s", gnum(w, d->fill_time_s, TEXT_SIG));
+    else
+        snprintf(fill, sizeof fill, "opens at once");
     if (d->trigger == PLUMB_DEPLOY_AFTER)
         snprintf(buf, size, "deploys %s" NBSP "s after release, %s",
                  gnum(w, d->deploy_value, TEXT_SIG), fill);
@@ -987,13 +1000,13 @@ static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, 
     w->exact = 0;
 }
 
-static void text_descent(writer *w, const plumb_item_report *it)
+static void text_descent(writer *w, const plumb_item_report *it, const char *who)
 {
     const plumb_fall_spec *s = it->spec;
     const plumb_fall_result *r = &it->result;
     if (s->n_descent == 0)
         return;
-    put(w, "\nDescent devices\n");
+    put(w, "\nDescent devices%s%s\n", who ? " of " : "", who ? who : "");
     for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
         const plumb_descent_spec *d = &s->descent[i];
         char rule[NUMBUF * 4], line[NUMBUF * 8], lead[32];
@@ -1078,11 +1091,13 @@ static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t 
     } else {
         double hs = hypot(v[0], v[1]);
         double heading = hs > 0.0 ? wrap_deg(atan2(v[0], v[1]) * DEG_PER_RAD) : 0.0;
+        /* Ground speed as a crew reads it (mph and knots in US units). */
+        const char *ground = w->us ? t_wind(w, hs) : t_speed(w, hs);
         if (hs > 0.0 && v[2] == 0.0)
-            snprintf(vel, sizeof vel, "moving %s toward %s, level", t_speed(w, hs),
+            snprintf(vel, sizeof vel, "moving %s toward %s, level", ground,
                      t_bearing(w, heading));
         else if (hs > 0.0)
-            snprintf(vel, sizeof vel, "moving %s toward %s, %s %s", t_speed(w, hs),
+            snprintf(vel, sizeof vel, "moving %s toward %s, %s %s", ground,
                      t_bearing(w, heading), v[2] > 0.0 ? "climbing" : "sinking",
                      t_speed(w, fabs(v[2])));
         else
@@ -1102,9 +1117,11 @@ static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
     char what[NUMBUF * 4];
     switch (a->model) {
     case PLUMB_ATM_SURFACE:
-        snprintf(what, sizeof what, "surface: station %s, %s, lapse rate %s K/km",
+        w->exact = 1;
+        snprintf(what, sizeof what, "surface: station %s, %s, lapse rate %s" NBSP "K/km",
                  t_press(w, a->station_pressure_pa), t_temp(w, a->station_temperature_k),
-                 num(w, a->lapse_rate_k_m * 1000.0, 3));
+                 gnum(w, a->lapse_rate_k_m * 1000.0, INPUT_SIG));
+        w->exact = 0;
         break;
     case PLUMB_ATM_TABLE:
         snprintf(what, sizeof what, "table of %zu densities by altitude%s", a->table_n,
@@ -1127,8 +1144,8 @@ static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
         break;
     }
     if (a->relative_humidity > 0.0)
-        snprintf(buf, size, "%s, relative humidity %s %%", what,
-                 num(w, a->relative_humidity * 100.0, 3));
+        snprintf(buf, size, "%s, relative humidity %s" NBSP "%%", what,
+                 gnum(w, a->relative_humidity * 100.0, 3));
     else
         snprintf(buf, size, "%s, dry", what);
 }
@@ -1160,9 +1177,24 @@ static void text_wind(writer *w, const plumb_fall_spec *s, const item_air *ia, c
                  t_wind(w, wd->speed_m_s), t_bearing(w, wd->from_deg),
                  t_len(w, wd->ref_height_m), t_len(w, wd->roughness_m), at_release);
         break;
-    case PLUMB_WIND_TABLE:
-        snprintf(buf, size, "table of %zu heights; %s", wd->table_n, at_release);
+    case PLUMB_WIND_TABLE: {
+        /* The rows themselves when they are few enough to read. */
+        size_t len = (size_t)snprintf(buf, size, "table:");
+        for (size_t i = 0; i < wd->table_n && len < size; i++) {
+            double sp, from;
+            wind_polar(wd->table_east_m_s[i], wd->table_north_m_s[i], &sp, &from);
+            if (wd->table_n > WIND_ROWS_SHOWN) {
+                len += (size_t)snprintf(buf + len, size - len, " %zu heights;", wd->table_n);
+                break;
+            }
+            len += (size_t)snprintf(buf + len, size - len, " %s from %s at %s;",
+                                    t_wind(w, sp), t_bearing(w, from),
+                                    t_len(w, wd->table_h_m[i]));
+        }
+        if (len < size)
+            snprintf(buf + len, size - len, " %s", at_release);
         break;
+    }
     default:
         if (wd->speed_m_s == 0.0)
             snprintf(buf, size, "calm");
@@ -1237,7 +1269,7 @@ static void text_single(writer *w, const plumb_report_options *opt,
     text_impact(w, it);
     text_verdicts(w, it);
     text_comparison(w, it);
-    text_descent(w, it);
+    text_descent(w, it, NULL);
     if (it->n_warnings) {
         put(w, "\nWarnings\n");
         for (size_t i = 0; i < it->n_warnings; i++)
@@ -1348,8 +1380,7 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
     for (size_t i = 0; i < rep->n_items; i++) {
         if (rep->items[i].spec->n_descent == 0)
             continue;
-        put(w, "\n%s:", rep->items[i].spec->name);
-        text_descent(w, &rep->items[i]);
+        text_descent(w, &rep->items[i], rep->items[i].spec->name);
     }
 
     int any_warning = 0;
