@@ -1,15 +1,13 @@
 /*
  * main.c - the plumb command line: a table of subcommands over libplumb
  * (design.md section 6). Each subcommand lives in cmd_<name>.c; what they
- * share (option parsing, atomic output, error printing) is in cli.h, whose
- * definitions are compiled here.
+ * share (option parsing, atomic output, error printing) is in cli.c.
  */
 #include <stdio.h>
 #include <string.h>
 
 #include <gsl/gsl_errno.h>
 
-#define CLI_IMPLEMENTATION
 #include "cli.h"
 
 static const cli_command commands[] = {
