@@ -1459,23 +1459,11 @@ static void csv_cautions(writer *w)
         csv_comment(w, c[i]);
 }
 
-static void csv_fall(writer *w, const plumb_fall_report *rep)
+/* The columns of one item row (after any leading columns the caller wrote),
+ * ending the header line. */
+static void csv_header(writer *w, const plumb_item_report *first)
 {
-    const plumb_item_report *first = &rep->items[0];
-    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
-    csv_cautions(w);
-    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
-             plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
-    csv_comment(w, text);
-    for (size_t k = 0; k < first->n_verdicts; k++) {
-        const plumb_criterion *c = first->verdicts[k].criterion;
-        snprintf(text, sizeof text, "criterion %s: %s, kind %s, limit %.*g J, source: %s", c->id,
-                 c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
-                 c->source[0] ? c->source : "not given");
-        csv_comment(w, text);
-    }
-    each_warning(w, rep, csv_warning_line);
-
+    char text[PLUMB_CRIT_ID + 16];
     if (w->us)
         put(w, "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
                "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
@@ -1494,38 +1482,61 @@ static void csv_fall(writer *w, const plumb_fall_report *rep)
         csv_field(w, text);
     }
     put(w, "\n");
+}
 
-    for (size_t i = 0; i < rep->n_items; i++) {
-        const plumb_item_report *it = &rep->items[i];
-        const plumb_fall_result *r = &it->result;
-        csv_field(w, it->spec->name);
-        if (w->us) {
-            double ft = PLUMB_FT_M;
-            put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
-                csvnum(w, it->spec->mass_kg / PLUMB_LB_KG), csvnum(w, r->time_s),
-                csvnum(w, r->speed_m_s / ft), csvnum(w, r->speed_m_s / MPH_M_S),
-                csvnum(w, r->energy_j / PLUMB_FT_LBF_J), csvnum(w, r->energy_j),
-                csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
-                csvnum(w, r->drift_m / ft), csvnum(w, r->bearing_deg),
-                csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
-                csvnum(w, r->terminal_speed_m_s / ft));
-            /* The ring holds RING numbers: the rest in a second call. */
-            put(w, ",%s,%s,%s", csvnum(w, r->apex_m / ft), csvnum(w, r->drag_free_speed_m_s / ft),
-                csvnum(w, r->drag_free_energy_j / PLUMB_FT_LBF_J));
-        } else {
-            put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
-                csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
-                csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
-                csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
-                csvnum(w, r->bearing_deg), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
-                csvnum(w, r->terminal_speed_m_s));
-            put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
-                csvnum(w, r->drag_free_energy_j));
-        }
-        for (size_t k = 0; k < it->n_verdicts; k++)
-            put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), verdict_word(&it->verdicts[k]));
-        put(w, "\n");
+/* One item's columns, ending the row. */
+static void csv_item_row(writer *w, const plumb_item_report *it)
+{
+    const plumb_fall_result *r = &it->result;
+    csv_field(w, it->spec->name);
+    if (w->us) {
+        double ft = PLUMB_FT_M;
+        put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
+            csvnum(w, it->spec->mass_kg / PLUMB_LB_KG), csvnum(w, r->time_s),
+            csvnum(w, r->speed_m_s / ft), csvnum(w, r->speed_m_s / MPH_M_S),
+            csvnum(w, r->energy_j / PLUMB_FT_LBF_J), csvnum(w, r->energy_j),
+            csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
+            csvnum(w, r->drift_m / ft), csvnum(w, r->bearing_deg),
+            csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
+            csvnum(w, r->terminal_speed_m_s / ft));
+        /* The ring holds RING numbers: the rest in a second call. */
+        put(w, ",%s,%s,%s", csvnum(w, r->apex_m / ft), csvnum(w, r->drag_free_speed_m_s / ft),
+            csvnum(w, r->drag_free_energy_j / PLUMB_FT_LBF_J));
+    } else {
+        put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
+            csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
+            csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
+            csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
+            csvnum(w, r->bearing_deg), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
+            csvnum(w, r->terminal_speed_m_s));
+        put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
+            csvnum(w, r->drag_free_energy_j));
     }
+    for (size_t k = 0; k < it->n_verdicts; k++)
+        put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), verdict_word(&it->verdicts[k]));
+    put(w, "\n");
+}
+
+static void csv_fall(writer *w, const plumb_fall_report *rep)
+{
+    const plumb_item_report *first = &rep->items[0];
+    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
+             plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
+    csv_comment(w, text);
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        snprintf(text, sizeof text, "criterion %s: %s, kind %s, limit %.*g J, source: %s", c->id,
+                 c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 c->source[0] ? c->source : "not given");
+        csv_comment(w, text);
+    }
+    each_warning(w, rep, csv_warning_line);
+
+    csv_header(w, first);
+    for (size_t i = 0; i < rep->n_items; i++)
+        csv_item_row(w, &rep->items[i]);
 }
 
 /* ---- JSON ----------------------------------------------------------------- */
@@ -1931,12 +1942,12 @@ static const plumb_report_options *opts_or_default(const plumb_report_options *o
     return def;
 }
 
-plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
-                               const plumb_fall_report *rep, plumb_diag *diag)
+/* Checks a fall report and finds the air each item's text needs. On
+ * success *ia (n_items entries) is the caller's to free. */
+static plumb_status prepare_fall(const plumb_fall_report *rep, item_air **ia, plumb_diag *diag)
 {
-    plumb_report_options def;
-    opt = opts_or_default(opt, &def);
-    if (!out || !rep || !rep->profile || rep->n_items == 0 || !rep->items)
+    *ia = NULL;
+    if (!rep || !rep->profile || rep->n_items == 0 || !rep->items)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no fall report to write");
     for (size_t i = 0; i < rep->n_items; i++)
         if (!rep->items[i].spec)
@@ -1946,20 +1957,34 @@ plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
         st = check_item(&rep->items[i], diag);
     if (st != PLUMB_OK)
         return st;
-
     plumb_atmosphere *atm = NULL;
     st = plumb_atmosphere_alloc(plumb_profile_atmosphere(rep->profile), &atm, diag);
     if (st != PLUMB_OK)
         return st;
-    item_air *ia = calloc(rep->n_items, sizeof *ia);
-    if (!ia) {
+    *ia = calloc(rep->n_items, sizeof **ia);
+    if (!*ia) {
         plumb_atmosphere_free(atm);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
     }
     for (size_t i = 0; st == PLUMB_OK && i < rep->n_items; i++)
-        st = air_for(rep->items[i].spec, atm, &ia[i], diag);
+        st = air_for(rep->items[i].spec, atm, &(*ia)[i], diag);
     plumb_atmosphere_free(atm);
+    if (st != PLUMB_OK) {
+        free(*ia);
+        *ia = NULL;
+    }
+    return st;
+}
 
+plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
+                               const plumb_fall_report *rep, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = opts_or_default(opt, &def);
+    if (!out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no stream to write to");
+    item_air *ia = NULL;
+    plumb_status st = prepare_fall(rep, &ia, diag);
     if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         json_t *root = j_fall(&j, opt, rep, ia);
