@@ -296,17 +296,24 @@ static int out_col(const builder *b, int line, int col)
     return line == 1 ? col + b->col_offset : col;
 }
 
-/* Dotted key of the position being built, with `last` appended. */
+/* Dotted key of the position being built, with `last` appended. Open
+ * containers are attached to their parent when they start, so the open
+ * child of every level but the innermost is its parent's last entry. */
 static void builder_key(const builder *b, const char *last, char *buf, size_t size)
 {
     char tmp[PLUMB_DIAG_KEY];
     plumbp_strlcpy(buf, b->key_prefix ? b->key_prefix : "", size);
     for (size_t i = 0; i < b->depth; i++) {
         const plumby_node *n = b->stack[i];
+        int inner = i + 1 == b->depth;
         if (n->kind == PLUMBY_SEQ) {
-            plumby_key_join(tmp, sizeof tmp, buf, NULL, n->n);
-        } else if (b->pkey[i]) {
+            if (!inner && n->n == 0)
+                continue;
+            plumby_key_join(tmp, sizeof tmp, buf, NULL, inner ? n->n : n->n - 1);
+        } else if (inner && b->pkey[i]) {
             plumby_key_join(tmp, sizeof tmp, buf, b->pkey[i], 0);
+        } else if (!inner && n->n > 0) {
+            plumby_key_join(tmp, sizeof tmp, buf, n->pairs[n->n - 1].key, 0);
         } else {
             continue;
         }
@@ -398,7 +405,15 @@ static plumb_status parser_error(const builder *b, const yaml_parser_t *p, const
         return PLUMB_RAISE(b->diag, PLUMB_ENOMEM, "out of memory parsing YAML");
     if (p->error == YAML_READER_ERROR) {
         int line, col;
-        offset_pos(buf, len, p->problem_offset, &line, &col);
+        size_t off = p->problem_offset;
+        /* a broken multi-byte sequence is reported where it starts */
+        if (strstr(problem, "trailing") && off <= len) {
+            while (off > 0 && ((unsigned char)buf[off - 1] & 0xC0u) == 0x80u)
+                off--;
+            if (off > 0 && (unsigned char)buf[off - 1] >= 0xC0u)
+                off--;
+        }
+        offset_pos(buf, len, off, &line, &col);
         col = out_col(b, line, col);
         const char *what = strstr(problem, "UTF-8") ? "the text is not valid UTF-8: " : "";
         if (p->problem_value >= 0)
@@ -786,7 +801,9 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
     case PLUMBY_R_NONNEG: snprintf(buf, size, ">= 0%s", u); break;
     case PLUMBY_R_CD: snprintf(buf, size, "0 .. %g (0: drag-free)", PLUMBY_CD_MAX); break;
     case PLUMBY_R_CD_POSITIVE: snprintf(buf, size, "> 0 and <= %g", PLUMBY_CD_MAX); break;
-    case PLUMBY_R_UNIT: snprintf(buf, size, "0 .. 1 (0 %% .. 100 %%)"); break;
+    case PLUMBY_R_UNIT:
+        snprintf(buf, size, dim == PLUMB_DIM_FRACTION ? "0 .. 1 (0 %% .. 100 %%)" : "0 .. 1");
+        break;
     case PLUMBY_R_UNIT_OPEN: snprintf(buf, size, "> 0 and < 1"); break;
     case PLUMBY_R_LATITUDE: snprintf(buf, size, "-90%s .. 90%s", u, u); break;
     case PLUMBY_R_ALTITUDE:
