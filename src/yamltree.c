@@ -445,11 +445,11 @@ static plumb_status check_props(const builder *b, const yaml_char_t *anchor,
 {
     if (anchor)
         return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
-                             "YAML anchors (&%s) are not allowed in a profile; write the value out",
+                             "YAML anchors (&%s) are not allowed; write the value out",
                              (const char *)anchor);
     if (tag)
         return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
-                             "YAML tags (%s) are not allowed in a profile", (const char *)tag);
+                             "YAML tags (%s) are not allowed", (const char *)tag);
     return PLUMB_OK;
 }
 
@@ -470,7 +470,7 @@ static plumb_status handle_event(builder *b, const yaml_event_t *ev, int *docs, 
         return PLUMB_OK;
     case YAML_ALIAS_EVENT:
         return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
-                             "YAML aliases (*%s) are not allowed in a profile; write the value out",
+                             "YAML aliases (*%s) are not allowed; write the value out",
                              (const char *)ev->data.alias.anchor);
     case YAML_SCALAR_EVENT:
         st = check_props(b, ev->data.scalar.anchor, ev->data.scalar.tag, line, col);
@@ -544,7 +544,7 @@ plumb_status plumby_parse(const char *buf, size_t len, const char *file, plumby_
         col = out_col(&b, line, col);
         return builder_raise(&b, PLUMB_EPARSE, line, col, NULL,
                              "a tab character: YAML indents with spaces, and tabs are not "
-                             "allowed anywhere in a profile");
+                             "allowed anywhere");
     }
 
     yaml_parser_t parser;

@@ -1,0 +1,385 @@
+/*
+ * test_criteria.c - criteria loader and verdicts (src/criteria.c).
+ *
+ * Criterion files are written to a mkdtemp directory; every error path of
+ * the loader is provoked and located. Reference values: 1 ft lbf =
+ * 0.3048 m x 0.45359237 kg x 9.80665 m/s^2 = 1.3558179483314004 J exactly
+ * (1959 international yard and pound agreement; CGPM 1901 standard
+ * gravity); 14 CFR 107.130(a)(1): 25 ft lbf (references.md, seen).
+ */
+#include <stdarg.h>
+#include <stddef.h>
+#include <setjmp.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
+#include <cmocka.h>
+
+#include "plumb/criteria.h"
+#include "plumb_test.h"
+
+enum { PATH_LEN = 512, MAX_PATHS = 64 };
+
+static plumb_units *units;
+static char root[] = "/tmp/plumb-test-criteria-XXXXXX";
+static char *made[MAX_PATHS];   /* files and directories to remove, in order */
+static int made_dir[MAX_PATHS];
+static size_t n_made;
+static unsigned n_dirs;
+
+static int group_setup(void **state)
+{
+    plumb_diag d;
+    plumbt_setup_gsl(state);
+    if (plumb_units_alloc(&units, &d) != PLUMB_OK)
+        return -1;
+    return mkdtemp(root) ? 0 : -1;
+}
+
+static int group_teardown(void **state)
+{
+    (void)state;
+    for (size_t i = n_made; i-- > 0;) {
+        if (made_dir[i])
+            rmdir(made[i]);
+        else
+            unlink(made[i]);
+        free(made[i]);
+    }
+    rmdir(root);
+    plumb_units_free(units);
+    return 0;
+}
+
+static void remember(const char *path, int is_dir)
+{
+    assert_true(n_made < MAX_PATHS);
+    made[n_made] = strdup(path);
+    assert_non_null(made[n_made]);
+    made_dir[n_made++] = is_dir;
+}
+
+/* A new empty directory under the temp root; returns its path (static). */
+static const char *new_dir(void)
+{
+    static char path[PATH_LEN];
+    snprintf(path, sizeof path, "%s/set%u", root, n_dirs++);
+    assert_int_equal(mkdir(path, 0700), 0);
+    remember(path, 1);
+    return path;
+}
+
+static void put(const char *dir, const char *name, const char *text)
+{
+    char path[PATH_LEN * 2];
+    snprintf(path, sizeof path, "%s/%s", dir, name);
+    FILE *f = fopen(path, "wb");
+    assert_non_null(f);
+    assert_int_equal(fputs(text, f) >= 0, 1);
+    assert_int_equal(fclose(f), 0);
+    remember(path, 0);
+}
+
+#define GOOD_CRIT                                                                            \
+    "name: Falling-object benchmark\n"                                                      \
+    "energy_limit: 11 ft lbf\n"                                                             \
+    "applies_to: rigid object striking a person\n"                                          \
+    "source: 14 CFR 107.120(a)(1)\n"                                                        \
+    "status: transcribed\n"
+
+static void expect_error(const char *text, plumb_status want, int line, int col,
+                         const char *key, const char *msg)
+{
+    const char *dir = new_dir();
+    put(dir, "a-good.yaml", GOOD_CRIT);
+    put(dir, "b-bad.yaml", text);
+    plumb_criteria *set = (plumb_criteria *)(uintptr_t)1;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumb_criteria_load_dir(dir, units, &set, &d);
+    char buf[1024];
+    plumb_diag_format(&d, buf, sizeof buf);
+    print_message("    %s\n", buf);
+    if (st == PLUMB_OK)
+        plumb_criteria_free(set);
+    assert_int_equal(st, want);
+    assert_null(set);
+    assert_non_null(strstr(d.file, "b-bad.yaml"));
+    assert_int_equal(d.line, line);
+    assert_int_equal(d.col, col);
+    assert_string_equal(d.key, key);
+    if (msg && !strstr(d.message, msg)) {
+        print_error("message '%s' lacks '%s'\n", d.message, msg);
+        fail();
+    }
+}
+
+static void test_criteria_load_in_file_name_order_with_ids_from_the_stems(void **state)
+{
+    (void)state;
+    const char *dir = new_dir();
+    put(dir, "zz-helmet.yaml",
+        "name: Helmet crown test\nkind: helmet-test\nenergy_limit: 49.03 J\n"
+        "applies_to: industrial helmet, crown\nsource: EN 397\nstatus: memory\n");
+    put(dir, "aa-cat2.yaml", GOOD_CRIT);
+    put(dir, "mm-fragment.yaml",
+        "name: Fragment\nkind: limit\nenergy_limit: 58 ft lbf\napplies_to: fragment\n"
+        "source: DDESB Technical Paper 12\nstatus: seen\n");
+    put(dir, "notes.txt", "not a criterion\n");
+    put(dir, "old.yml", "not read: only .yaml files are criteria\n");
+    put(dir, ".hidden.yaml", "not read: hidden\n");
+    plumb_criteria *set;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_OK);
+    assert_int_equal(plumb_criteria_count(set), 3);
+    const plumb_criterion *c0 = plumb_criteria_get(set, 0);
+    const plumb_criterion *c1 = plumb_criteria_get(set, 1);
+    const plumb_criterion *c2 = plumb_criteria_get(set, 2);
+    assert_string_equal(c0->id, "aa-cat2");
+    assert_string_equal(c1->id, "mm-fragment");
+    assert_string_equal(c2->id, "zz-helmet");
+    assert_string_equal(c0->name, "Falling-object benchmark");
+    assert_int_equal(c0->kind, PLUMB_CRIT_LIMIT); /* kind defaults to limit */
+    assert_rel(c0->energy_limit_j, 11.0 * 1.3558179483314004, 1e-12);
+    assert_string_equal(c0->applies_to, "rigid object striking a person");
+    assert_string_equal(c0->source, "14 CFR 107.120(a)(1)");
+    assert_string_equal(c0->status, "transcribed");
+    assert_rel(c1->energy_limit_j, 58.0 * 1.3558179483314004, 1e-12);
+    assert_int_equal(c2->kind, PLUMB_CRIT_HELMET_TEST);
+    assert_rel(c2->energy_limit_j, 49.03, 1e-15);
+    assert_string_equal(c2->status, "memory");
+    assert_ptr_equal(plumb_criteria_find(set, "mm-fragment"), c1);
+    assert_null(plumb_criteria_find(set, "mm-fragmen"));
+    assert_null(plumb_criteria_get(set, 3));
+    plumb_criteria_free(set);
+}
+
+static void test_bundled_part_107_category_3_limit_is_25_ft_lbf(void **state)
+{
+    (void)state;
+    char dir[PATH_LEN];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    plumb_criteria *set;
+    plumb_diag d;
+    plumb_status st = plumb_criteria_load_dir(dir, units, &set, &d);
+    if (st == PLUMB_EIO)
+        skip();
+    assert_int_equal(st, PLUMB_OK);
+    const plumb_criterion *c = plumb_criteria_find(set, "us-part107-cat3");
+    assert_non_null(c);
+    /* 14 CFR 107.130(a)(1): 25 ft lbf = 33.895448708285 J */
+    assert_rel(c->energy_limit_j, 25.0 * 1.3558179483314004, 1e-12);
+    assert_int_equal(c->kind, PLUMB_CRIT_LIMIT);
+    for (size_t i = 1; i < plumb_criteria_count(set); i++)
+        assert_true(strcmp(plumb_criteria_get(set, i - 1)->id, plumb_criteria_get(set, i)->id) < 0);
+    plumb_criteria_free(set);
+}
+
+static void test_empty_directory_gives_an_empty_set(void **state)
+{
+    (void)state;
+    plumb_criteria *set;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(new_dir(), units, &set, &d), PLUMB_OK);
+    assert_int_equal(plumb_criteria_count(set), 0);
+    assert_null(plumb_criteria_get(set, 0));
+    plumb_criteria_free(set);
+}
+
+static void test_missing_directory_is_an_input_output_error(void **state)
+{
+    (void)state;
+    char dir[PATH_LEN];
+    snprintf(dir, sizeof dir, "%s/no-such-dir", root);
+    plumb_criteria *set = (plumb_criteria *)(uintptr_t)1;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_EIO);
+    assert_null(set);
+    assert_string_equal(d.file, dir);
+}
+
+static void test_directory_named_like_a_criterion_is_refused(void **state)
+{
+    (void)state;
+    const char *dir = new_dir();
+    char sub[PATH_LEN * 2];
+    snprintf(sub, sizeof sub, "%s/x.yaml", dir);
+    assert_int_equal(mkdir(sub, 0700), 0);
+    remember(sub, 1);
+    plumb_criteria *set = (plumb_criteria *)(uintptr_t)1;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_EIO);
+    assert_null(set);
+    assert_string_equal(d.file, sub);
+}
+
+static void test_id_longer_than_63_characters_is_refused(void **state)
+{
+    (void)state;
+    const char *dir = new_dir();
+    char name[128];
+    memset(name, 'k', 64);
+    strcpy(name + 64, ".yaml");
+    put(dir, name, GOOD_CRIT);
+    plumb_criteria *set = (plumb_criteria *)(uintptr_t)1;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_ERANGE);
+    assert_null(set);
+}
+
+static void test_unknown_key_suggests_the_closest(void **state)
+{
+    (void)state;
+    expect_error(GOOD_CRIT "sorce: x\n", PLUMB_EKEY, 6, 1, "sorce", "did you mean 'source'");
+}
+
+static void test_missing_source_is_reported_at_the_top_level(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 30 J\napplies_to: y\nstatus: seen\n", PLUMB_EKEY, 1, 1,
+                 "source", "required key 'source'");
+}
+
+static void test_missing_energy_limit_is_reported(void **state)
+{
+    (void)state;
+    expect_error("name: x\napplies_to: y\nsource: z\nstatus: seen\n", PLUMB_EKEY, 1, 1,
+                 "energy_limit", NULL);
+}
+
+static void test_missing_status_is_reported(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 30 J\napplies_to: y\nsource: z\n", PLUMB_EKEY, 1, 1,
+                 "status", NULL);
+}
+
+static void test_bare_energy_is_refused(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 33.9\napplies_to: y\nsource: z\nstatus: seen\n",
+                 PLUMB_EUNIT, 2, 15, "energy_limit", NULL);
+}
+
+static void test_energy_in_the_wrong_dimension_is_refused(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 25 ft\napplies_to: y\nsource: z\nstatus: seen\n",
+                 PLUMB_EUNIT, 2, 15, "energy_limit", NULL);
+}
+
+static void test_zero_energy_is_refused(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 0 J\napplies_to: y\nsource: z\nstatus: seen\n",
+                 PLUMB_ERANGE, 2, 15, "energy_limit", "> 0 J");
+}
+
+static void test_unknown_status_suggests_the_closest(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 30 J\napplies_to: y\nsource: z\nstatus: transcribd\n",
+                 PLUMB_EINVAL, 5, 9, "status", "did you mean 'transcribed'");
+}
+
+static void test_unknown_kind_is_refused(void **state)
+{
+    (void)state;
+    expect_error("name: x\nkind: helmet\nenergy_limit: 30 J\napplies_to: y\nsource: z\nstatus: "
+                 "seen\n",
+                 PLUMB_EINVAL, 2, 7, "kind", "limit | helmet-test");
+}
+
+static void test_duplicate_key_is_refused(void **state)
+{
+    (void)state;
+    expect_error(GOOD_CRIT "name: again\n", PLUMB_EKEY, 6, 1, "name", "duplicate key");
+}
+
+static void test_anchor_is_refused(void **state)
+{
+    (void)state;
+    expect_error("name: &n x\nenergy_limit: 30 J\napplies_to: y\nsource: z\nstatus: seen\n",
+                 PLUMB_EPARSE, 1, 7, "name", "anchors");
+}
+
+static void test_empty_criterion_file_is_refused(void **state)
+{
+    (void)state;
+    expect_error("# nothing\n", PLUMB_EPARSE, 1, 1, "", "no YAML document");
+}
+
+static void test_source_as_a_list_is_refused(void **state)
+{
+    (void)state;
+    expect_error("name: x\nenergy_limit: 30 J\napplies_to: y\nsource: [a, b]\nstatus: seen\n",
+                 PLUMB_EINVAL, 4, 9, "source", "expected text");
+}
+
+static void test_null_arguments_are_invalid(void **state)
+{
+    (void)state;
+    plumb_criteria *set = (plumb_criteria *)(uintptr_t)1;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(NULL, units, &set, &d), PLUMB_EINVAL);
+    assert_null(set);
+    assert_int_equal(plumb_criteria_load_dir(root, NULL, &set, &d), PLUMB_EINVAL);
+    assert_int_equal(plumb_criteria_load_dir(root, units, NULL, &d), PLUMB_EINVAL);
+    plumb_criteria_free(NULL);
+    assert_int_equal(plumb_criteria_count(NULL), 0);
+    assert_null(plumb_criteria_get(NULL, 0));
+    assert_null(plumb_criteria_find(NULL, "x"));
+}
+
+/* Verdict: ratio = E / limit, exceeds when E > limit (criteria.h). */
+static void test_verdict_ratio_and_exceeds_follow_the_definition(void **state)
+{
+    (void)state;
+    plumb_criterion c;
+    memset(&c, 0, sizeof c);
+    c.energy_limit_j = 33.895448708285;
+    plumb_verdict v;
+    plumb_criterion_judge(&c, 47.213, &v);
+    assert_ptr_equal(v.criterion, &c);
+    assert_rel(v.energy_j, 47.213, 0.0);
+    assert_rel(v.ratio, 47.213 / 33.895448708285, 1e-15);
+    assert_int_equal(v.exceeds, 1);
+    plumb_criterion_judge(&c, 12.657, &v);
+    assert_rel(v.ratio, 12.657 / 33.895448708285, 1e-15);
+    assert_int_equal(v.exceeds, 0);
+    /* exactly at the limit is within */
+    plumb_criterion_judge(&c, 33.895448708285, &v);
+    assert_rel(v.ratio, 1.0, 1e-15);
+    assert_int_equal(v.exceeds, 0);
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_criteria_load_in_file_name_order_with_ids_from_the_stems),
+        cmocka_unit_test(test_bundled_part_107_category_3_limit_is_25_ft_lbf),
+        cmocka_unit_test(test_empty_directory_gives_an_empty_set),
+        cmocka_unit_test(test_missing_directory_is_an_input_output_error),
+        cmocka_unit_test(test_directory_named_like_a_criterion_is_refused),
+        cmocka_unit_test(test_id_longer_than_63_characters_is_refused),
+        cmocka_unit_test(test_unknown_key_suggests_the_closest),
+        cmocka_unit_test(test_missing_source_is_reported_at_the_top_level),
+        cmocka_unit_test(test_missing_energy_limit_is_reported),
+        cmocka_unit_test(test_missing_status_is_reported),
+        cmocka_unit_test(test_bare_energy_is_refused),
+        cmocka_unit_test(test_energy_in_the_wrong_dimension_is_refused),
+        cmocka_unit_test(test_zero_energy_is_refused),
+        cmocka_unit_test(test_unknown_status_suggests_the_closest),
+        cmocka_unit_test(test_unknown_kind_is_refused),
+        cmocka_unit_test(test_duplicate_key_is_refused),
+        cmocka_unit_test(test_anchor_is_refused),
+        cmocka_unit_test(test_empty_criterion_file_is_refused),
+        cmocka_unit_test(test_source_as_a_list_is_refused),
+        cmocka_unit_test(test_null_arguments_are_invalid),
+        cmocka_unit_test(test_verdict_ratio_and_exceeds_follow_the_definition),
+    };
+    return cmocka_run_group_tests(tests, group_setup, group_teardown);
+}
