@@ -355,7 +355,7 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     res->increasing = (fb - fa) * (b - a) > 0.0;
     res->limit_is_upper_bound = res->increasing;
     snprintf(res->explanation, sizeof res->explanation,
-             "%s = %.6g (SI) gives a %s of %.6g %s, the limit; %s values stay within it",
+             "%s = %.6g (SI) gives the limit, %s %.6g %s; %s values stay within it",
              key, root, metric_name(metric), froot + limit, metric_unit(metric),
              res->increasing ? "lower" : "higher");
     return PLUMB_OK;

@@ -30,6 +30,8 @@
 
 #include "plumb/constants.h"
 #include "plumb/report.h"
+#include "plumb/sweep.h"
+#include "plumb/inverse.h"
 #include "plumb/wind.h"
 #include "plumb/gravity.h"
 #include "internal.h"
@@ -2111,5 +2113,461 @@ plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
         csv_air(&w, rows, n_rows);
     else
         text_air(&w, opt, rows, n_rows);
+    return writer_close(&w, &buf, &len, out, diag);
+}
+
+/* ---- sweep table --------------------------------------------------------- */
+
+/* A value of dimension `dim` in the display units, number and unit apart. */
+typedef struct shown {
+    double x;
+    const char *unit;
+} shown;
+
+static shown show_dim(const writer *w, plumb_dim dim, double si)
+{
+    double ft = PLUMB_FT_M;
+    switch (dim) {
+    case PLUMB_DIM_LENGTH:
+        return w->us ? (shown){si / ft, "ft"} : (shown){si, "m"};
+    case PLUMB_DIM_MASS:
+        return w->us ? (shown){si / PLUMB_LB_KG, "lb"} : (shown){si, "kg"};
+    case PLUMB_DIM_TIME:
+        return (shown){si, "s"};
+    case PLUMB_DIM_SPEED:
+        return w->us ? (shown){si / ft, "ft/s"} : (shown){si, "m/s"};
+    case PLUMB_DIM_AREA:
+        return w->us ? (shown){si / (ft * ft), "ft²"} : (shown){si, "m²"};
+    case PLUMB_DIM_VOLUME:
+        return w->us ? (shown){si / (ft * ft * ft), "ft³"} : (shown){si, "m³"};
+    case PLUMB_DIM_ENERGY:
+        return w->us ? (shown){si / PLUMB_FT_LBF_J, "ft·lbf"} : (shown){si, "J"};
+    case PLUMB_DIM_FORCE:
+        return w->us ? (shown){si / LBF_N, "lbf"} : (shown){si, "N"};
+    case PLUMB_DIM_ANGLE:
+        return (shown){si, "°"};
+    case PLUMB_DIM_TEMPERATURE:
+        return w->us ? (shown){si * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, "°F"}
+                     : (shown){si, "K"};
+    case PLUMB_DIM_TEMP_DIFF:
+        return w->us ? (shown){si * FAHRENHEIT_PER_K, "°F"} : (shown){si, "K"};
+    case PLUMB_DIM_PRESSURE:
+        return w->us ? (shown){si / INHG_PA, "inHg"} : (shown){si / HPA_PA, "hPa"};
+    case PLUMB_DIM_DENSITY:
+        return w->us ? (shown){si * ft * ft * ft / PLUMB_LB_KG, "lb/ft³"} : (shown){si, "kg/m³"};
+    case PLUMB_DIM_LAPSE:
+        return (shown){si * 1000.0, "K/km"};
+    case PLUMB_DIM_FRACTION:
+    case PLUMB_DIM_NONE:
+    default:
+        return (shown){si, ""};
+    }
+}
+
+enum { SWEEP_COL = 11, SWEEP_KEY_COL = 16 };
+
+/* "C1".."Cn" legend of the criteria a row was judged against. */
+static void text_criteria_legend(writer *w, const plumb_item_report *first)
+{
+    if (first->n_verdicts == 0)
+        return;
+    put(w, "\nCriteria (ratio = energy / limit; ! = exceeds)\n");
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
+        snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
+        snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]", c->name,
+                 t_energy(w, c->energy_limit_j),
+                 c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
+                 c->source[0] ? c->source : "source not given", c->id);
+        wrapped(w, lead, text);
+    }
+}
+
+static const char *ratio_cell(writer *w, const plumb_verdict *v)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s%s", num(w, v->ratio, 3), v->exceeds ? "!" : "");
+    return b;
+}
+
+static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
+{
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0);
+    const plumb_profile *p = r0->report.profile;
+    int inv = plumb_profile_is_inventory(p);
+    const plumb_item_report *first = &r0->report.items[0];
+    text_header(w, opt, "sweep", plumb_profile_name(p));
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)\n", a ? "and" : "over",
+            ax->key, gnum(w, ax->from, 10), gnum(w, ax->to, 10), ax->unit[0] ? " " : "",
+            ax->unit, gnum(w, ax->step, 10), ax->unit[0] ? " " : "", ax->unit, ax->n);
+    }
+    put(w, "\n");
+    for (size_t a = 0; a < na; a++)
+        pad(w, plumb_sweep_axis(sw, a)->key, SWEEP_KEY_COL, 1);
+    if (inv)
+        put(w, "  %-18s", "item");
+    const char *heads[] = {"speed", "energy", "energy", "time", "drift", "bearing"};
+    for (size_t k = 0; k < 6; k++)
+        pad(w, heads[k], SWEEP_COL, 1);
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        char c[32];
+        snprintf(c, sizeof c, "C%zu", k + 1);
+        pad(w, c, 8, 1);
+    }
+    put(w, "\n");
+    for (size_t a = 0; a < na; a++)
+        pad(w, plumb_sweep_axis(sw, a)->unit, SWEEP_KEY_COL, 1);
+    if (inv)
+        put(w, "  %-18s", "");
+    const char *units_si[] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
+    const char *units_us[] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
+    for (size_t k = 0; k < 6; k++)
+        pad(w, w->us ? units_us[k] : units_si[k], SWEEP_COL, 1);
+    for (size_t k = 0; k < first->n_verdicts; k++)
+        pad(w, "ratio", 8, 1);
+    put(w, "\n");
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            const plumb_item_report *item = &row->report.items[it];
+            const plumb_fall_result *r = &item->result;
+            for (size_t a = 0; a < na; a++)
+                pad(w, it == 0 ? gnum(w, row->value[a], 8) : "", SWEEP_KEY_COL, 1);
+            if (inv) {
+                char name[20];
+                snprintf(name, sizeof name, "%.18s", item->spec->name);
+                put(w, "  %-18s", name);
+            }
+            double e1 = w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j;
+            double e2 = w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J;
+            pad(w, num(w, w->us ? r->speed_m_s / PLUMB_FT_M : r->speed_m_s, 4), SWEEP_COL, 1);
+            pad(w, num(w, e1, 4), SWEEP_COL, 1);
+            pad(w, num(w, e2, 4), SWEEP_COL, 1);
+            pad(w, num(w, r->time_s, 4), SWEEP_COL, 1);
+            pad(w, num(w, w->us ? r->drift_m / PLUMB_FT_M : r->drift_m, 4), SWEEP_COL, 1);
+            pad(w, r->drift_m > 0.0 ? fixed(w, r->bearing_deg, 0) : "-", SWEEP_COL, 1);
+            for (size_t k = 0; k < item->n_verdicts; k++)
+                pad(w, ratio_cell(w, &item->verdicts[k]), 8, 1);
+            put(w, "\n");
+        }
+    }
+    if (na == 2) {
+        /* the energy of the worst item, as a matrix */
+        const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
+        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded\n",
+            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key);
+        pad(w, "", SWEEP_KEY_COL, 1);
+        for (size_t j = 0; j < a1->n; j++)
+            pad(w, gnum(w, plumb_range_value(a1, j), 6), 9, 1);
+        put(w, "\n");
+        for (size_t i = 0; i < a0->n; i++) {
+            pad(w, gnum(w, plumb_range_value(a0, i), 8), SWEEP_KEY_COL, 1);
+            for (size_t j = 0; j < a1->n; j++) {
+                const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * a1->n + j);
+                double e = 0.0;
+                int ex = 0;
+                for (size_t it = 0; it < row->report.n_items; it++) {
+                    const plumb_item_report *item = &row->report.items[it];
+                    if (item->result.energy_j > e)
+                        e = item->result.energy_j;
+                    for (size_t k = 0; k < item->n_verdicts; k++)
+                        ex |= item->verdicts[k].exceeds;
+                }
+                char cell[NUMBUF + 2];
+                snprintf(cell, sizeof cell, "%s%s", num(w, w->us ? e / PLUMB_FT_LBF_J : e, 4),
+                         ex ? "!" : "");
+                pad(w, cell, 9, 1);
+            }
+            put(w, "\n");
+        }
+    }
+    text_criteria_legend(w, first);
+    put(w, "\nEach row is exactly what `plumb fall` gives with --set at that value.\n");
+    text_profile(w, p);
+    caution_lines_text(w);
+}
+
+static void csv_sweep(writer *w, const plumb_sweep *sw)
+{
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0);
+    const plumb_profile *p = r0->report.profile;
+    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(p),
+             plumb_profile_path(p), plumb_profile_sha256(p));
+    csv_comment(w, text);
+    const plumb_item_report *first = &r0->report.items[0];
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        snprintf(text, sizeof text, "criterion %s: %s, limit %.*g J, source: %s", c->id, c->name,
+                 CSV_DIGITS, c->energy_limit_j, c->source[0] ? c->source : "not given");
+        csv_comment(w, text);
+    }
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "", ax->unit);
+        csv_field(w, text);
+        put(w, ",");
+    }
+    csv_header(w, first);
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, row->value[a]));
+            csv_item_row(w, &row->report.items[it]);
+        }
+    }
+}
+
+static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_sweep *sw,
+                       item_air *const *ia)
+{
+    json_t *root = jobj(j);
+    if (opt->version)
+        jset(j, root, "plumb_version", jstr(j, opt->version));
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    json_t *vary = jarr(j);
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        json_t *o = jobj(j);
+        jset(j, o, "key", jstr(j, ax->key));
+        jset(j, o, "unit", jstr(j, ax->unit));
+        jset(j, o, "from", jreal(j, ax->from));
+        jset(j, o, "to", jreal(j, ax->to));
+        jset(j, o, "step", jreal(j, ax->step));
+        jset(j, o, "count", json_integer((json_int_t)ax->n));
+        jpush(j, vary, o);
+    }
+    jset(j, root, "vary", vary);
+    json_t *rows = jarr(j);
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        const plumb_fall_report *rep = &row->report;
+        json_t *o = jobj(j);
+        json_t *vals = jobj(j), *vals_si = jobj(j);
+        for (size_t a = 0; a < na; a++) {
+            jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, row->value[a]));
+            jset(j, vals_si, plumb_sweep_axis(sw, a)->key, jreal(j, row->value_si[a]));
+        }
+        jset(j, o, "values", vals);
+        jset(j, o, "values_si", vals_si);
+        if (!plumb_profile_is_inventory(rep->profile)) {
+            j_item_into(j, o, &rep->items[0], rep->profile, &ia[i][0]);
+        } else {
+            json_t *items = jarr(j);
+            for (size_t it = 0; it < rep->n_items; it++) {
+                json_t *io = jobj(j);
+                j_item_into(j, io, &rep->items[it], rep->profile, &ia[i][it]);
+                jpush(j, items, io);
+            }
+            jset(j, o, "items", items);
+            jset(j, o, "worst", jstr(j, rep->items[worst_item(rep)].spec->name));
+            jset(j, o, "largest_drift", jstr(j, rep->items[largest_drift_item(rep)].spec->name));
+        }
+        jpush(j, rows, o);
+    }
+    jset(j, root, "rows", rows);
+    jset(j, root, "profile", j_profile(j, plumb_sweep_row_at(sw, 0)->report.profile));
+    jset(j, root, "cautions", j_cautions(j));
+    return root;
+}
+
+plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
+                                const plumb_sweep *sw, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = opts_or_default(opt, &def);
+    if (!out || !sw || plumb_sweep_row_count(sw) == 0)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no sweep to write");
+    size_t nr = plumb_sweep_row_count(sw);
+    item_air **ia = calloc(nr, sizeof *ia);
+    if (!ia)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
+    plumb_status st = PLUMB_OK;
+    for (size_t i = 0; st == PLUMB_OK && i < nr; i++)
+        st = prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
+    if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        st = emit_json(out, &j, j_sweep(&j, opt, sw, ia), diag);
+    } else if (st == PLUMB_OK) {
+        writer w;
+        char *buf;
+        size_t len;
+        st = writer_open(&w, &buf, &len, opt->units, diag);
+        if (st == PLUMB_OK) {
+            if (opt->format == PLUMB_FORMAT_CSV)
+                csv_sweep(&w, sw);
+            else
+                text_sweep(&w, opt, sw);
+            st = writer_close(&w, &buf, &len, out, diag);
+        }
+    }
+    for (size_t i = 0; i < nr; i++)
+        free(ia[i]);
+    free(ia);
+    return st;
+}
+
+/* ---- limit answer ------------------------------------------------------- */
+
+static const char *metric_word(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "impact speed" : m == PLUMB_METRIC_DRIFT ? "drift"
+                                                                              : "impact energy";
+}
+
+static const char *metric_key(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "speed_max_m_s" : m == PLUMB_METRIC_DRIFT ? "drift_max_m"
+                                                                               : "energy_max_j";
+}
+
+static const char *t_metric(writer *w, plumb_metric m, double x)
+{
+    return m == PLUMB_METRIC_SPEED ? t_speed(w, x) : m == PLUMB_METRIC_DRIFT ? t_len(w, x)
+                                                                             : t_energy(w, x);
+}
+
+static const char *outcome_word(plumb_limit_outcome o)
+{
+    return o == PLUMB_LIMIT_FOUND ? "found" : o == PLUMB_LIMIT_UNLIMITED ? "unlimited"
+                                                                         : "impossible";
+}
+
+static const char *t_value(writer *w, plumb_dim dim, double si)
+{
+    shown v = show_dim(w, dim, si);
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s%s%s", gnum(w, v.x, 6), v.unit[0] ? NBSP : "", v.unit);
+    return b;
+}
+
+static void text_limit_answer(writer *w, const plumb_report_options *opt,
+                              const plumb_limit_report *rep)
+{
+    const plumb_profile *p = rep->profile;
+    text_header(w, opt, "limit", plumb_profile_name(p));
+    char text[PLUMB_LIMIT_TEXT + 256];
+    snprintf(text, sizeof text, "the %s of %s at which the %s is %s%s%s%s", "value", rep->key,
+             metric_word(rep->metric), t_metric(w, rep->metric, rep->limit),
+             rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
+             rep->criterion ? ")" : "");
+    wrapped(w, "  ", text);
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_limit_result *r = &rep->results[i];
+        put(w, "\n");
+        if (plumb_profile_is_inventory(p))
+            put(w, "%s\n", plumb_profile_item(p, i)->name);
+        if (r->outcome == PLUMB_LIMIT_FOUND) {
+            put(w, "  %s = %s\n", rep->key, t_value(w, r->dim, r->value_si));
+            snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit.",
+                     metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
+                     r->limit_is_upper_bound ? "lower" : "higher");
+            wrapped(w, "  ", text);
+        } else {
+            put(w, "  %s: %s\n", rep->key,
+                r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"
+                                                    : "no value meets the limit");
+            wrapped(w, "  ", r->explanation);
+        }
+        snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu falls computed)",
+                 t_value(w, r->dim, r->base_value_si), t_metric(w, rep->metric, r->metric_at_base),
+                 r->evaluations);
+        wrapped(w, "  ", text);
+    }
+    text_profile(w, p);
+    caution_lines_text(w);
+}
+
+static void csv_limit(writer *w, const plumb_limit_report *rep)
+{
+    char text[PLUMB_CRIT_TEXT + PLUMB_DIAG_FILE + NUMBUF * 2];
+    csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
+             plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
+    csv_comment(w, text);
+    put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
+           "base_value_si,metric_at_base_si,evaluations,explanation\n");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_limit_result *r = &rep->results[i];
+        shown v = show_dim(w, r->dim, r->value_si);
+        csv_field(w, plumb_profile_item(rep->profile, i)->name);
+        put(w, ",");
+        csv_field(w, rep->key);
+        put(w, ",%s,%s,", outcome_word(r->outcome), csvnum(w, v.x));
+        csv_field(w, v.unit);
+        put(w, ",%s,%s,%s,%s,%s,%s,%zu,", csvnum(w, r->value_si), metric_word(rep->metric),
+            csvnum(w, rep->limit), csvnum(w, r->metric_at_value), csvnum(w, r->base_value_si),
+            csvnum(w, r->metric_at_base), r->evaluations);
+        csv_field(w, r->explanation);
+        put(w, "\n");
+    }
+}
+
+static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_limit_report *rep)
+{
+    json_t *root = jobj(j);
+    if (opt->version)
+        jset(j, root, "plumb_version", jstr(j, opt->version));
+    json_t *lim = jobj(j);
+    jset(j, lim, "key", jstr(j, rep->key));
+    jset(j, lim, "metric", jstr(j, metric_word(rep->metric)));
+    jset(j, lim, metric_key(rep->metric), jreal(j, rep->limit));
+    if (rep->criterion)
+        jset(j, lim, "criterion", jstr(j, rep->criterion));
+    json_t *items = jarr(j);
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_limit_result *r = &rep->results[i];
+        json_t *o = jobj(j);
+        const char *u = plumb_dim_si_unit(r->dim);
+        jset(j, o, "name", jstr(j, plumb_profile_item(rep->profile, i)->name));
+        jset(j, o, "outcome", jstr(j, outcome_word(r->outcome)));
+        if (r->outcome == PLUMB_LIMIT_FOUND) {
+            jset(j, o, "value_si", jreal(j, r->value_si));
+            jset(j, o, "metric_at_value", jreal(j, r->metric_at_value));
+        }
+        jset(j, o, "unit_si", jstr(j, strcmp(u, "1") == 0 ? "" : u));
+        jset(j, o, "base_value_si", jreal(j, r->base_value_si));
+        jset(j, o, "metric_at_base", jreal(j, r->metric_at_base));
+        jset(j, o, "lower_values_meet_limit",
+             json_boolean(r->outcome == PLUMB_LIMIT_FOUND && r->limit_is_upper_bound));
+        jset(j, o, "evaluations", json_integer((json_int_t)r->evaluations));
+        jset(j, o, "explanation", jstr(j, r->explanation));
+        jpush(j, items, o);
+    }
+    jset(j, lim, "items", items);
+    jset(j, root, "limit", lim);
+    jset(j, root, "profile", j_profile(j, rep->profile));
+    jset(j, root, "cautions", j_cautions(j));
+    return root;
+}
+
+plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
+                                const plumb_limit_report *rep, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = opts_or_default(opt, &def);
+    if (!out || !rep || !rep->profile || !rep->results || rep->n_items == 0 || !rep->key)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no limit answer to write");
+    if (opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        return emit_json(out, &j, j_limit(&j, opt, rep), diag);
+    }
+    writer w;
+    char *buf;
+    size_t len;
+    plumb_status st = writer_open(&w, &buf, &len, opt->units, diag);
+    if (st != PLUMB_OK)
+        return st;
+    if (opt->format == PLUMB_FORMAT_CSV)
+        csv_limit(&w, rep);
+    else
+        text_limit_answer(&w, opt, rep);
     return writer_close(&w, &buf, &len, out, diag);
 }

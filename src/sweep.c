@@ -73,8 +73,9 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
             return RANGE_ERROR(diag, st, what, "%s '%s': %s", names[i], part, d.message);
         char *end = NULL;
         num[i] = strtod(part, &end);
-        snprintf(unit[i], sizeof unit[i], "%s", end ? end : "");
-        snprintf(unit[i], sizeof unit[i], "%s", trim(unit[i]));
+        char rest[PLUMB_UNIT_TEXT];
+        plumbp_strlcpy(rest, end ? end : "", sizeof rest);
+        plumbp_strlcpy(unit[i], trim(rest), sizeof unit[i]);
     }
     memset(out, 0, sizeof *out);
     out->dim = dim;

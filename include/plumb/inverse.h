@@ -57,6 +57,17 @@ typedef struct plumb_limit_result {
     char explanation[PLUMB_LIMIT_TEXT]; /* why, in words (every outcome) */
 } plumb_limit_result;
 
+/* A whole `plumb limit` answer, for the report writer (report.h). */
+typedef struct plumb_limit_report {
+    const plumb_profile *profile;        /* borrowed */
+    const char *key;                     /* the key solved for */
+    plumb_metric metric;                 /* what is limited */
+    double limit;                        /* the limit, SI unit of the metric */
+    const char *criterion;               /* id of the criterion the limit came from, or NULL */
+    size_t n_items;                      /* one answer per item */
+    const plumb_limit_result *results;   /* borrowed array of n_items */
+} plumb_limit_report;
+
 /* Defaults as documented on each field. Can't fail. */
 void plumb_limit_options_init(plumb_limit_options *opt);
 

@@ -18,5 +18,7 @@
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
 #include "plumb/report.h"
+#include "plumb/inverse.h"
+#include "plumb/sweep.h"
 
 #endif /* PLUMB_PLUMB_H */

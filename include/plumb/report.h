@@ -71,4 +71,18 @@ plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
                               const plumb_air *rows, size_t n_rows, plumb_diag *diag);
 
+struct plumb_sweep;         /* sweep.h */
+struct plumb_limit_report;  /* inverse.h */
+
+/* Writes the table of a `plumb sweep`: one row per value (per item for an
+ * inventory), each row's figures exactly those of `plumb fall` at that
+ * value; text adds an energy matrix for a two-way sweep. */
+plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
+                                const struct plumb_sweep *sweep, plumb_diag *diag);
+
+/* Writes the answer of a `plumb limit`: the value found per item, or why
+ * there is none. */
+plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
+                                const struct plumb_limit_report *rep, plumb_diag *diag);
+
 #endif /* PLUMB_REPORT_H */

@@ -117,5 +117,7 @@ int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx,
 int cmd_fall(int argc, char **argv);
 int cmd_air(int argc, char **argv);
 int cmd_lint(int argc, char **argv);
+int cmd_sweep(int argc, char **argv);
+int cmd_limit(int argc, char **argv);
 
 #endif /* PLUMB_CLI_H */

@@ -12,6 +12,8 @@
 
 static const cli_command commands[] = {
     {"fall", cmd_fall, "one fall: impact speed, energy, time, drift, verdicts"},
+    {"sweep", cmd_sweep, "a table of falls over a range of an input (--vary KEY=FROM:TO:STEP)"},
+    {"limit", cmd_limit, "the value of an input at which a limit is just met (--find KEY)"},
     {"air", cmd_air, "air properties by altitude (--alt 0m:20km:1km)"},
     {"lint", cmd_lint, "validate profiles"},
 };
