@@ -1,0 +1,152 @@
+#!/bin/sh
+# Bad input at the command line: every malformed profile in tests/bad/, bad
+# --set overrides, bad `plumb air --alt` ranges, and files that are not
+# profiles (a directory, a missing file, /proc/self/mem, an oversize file,
+# an empty file). Each must exit with status 2 (design.md section 6), say
+# where on stderr as `plumb: FILE:LINE:COL: KEY: message`, and write
+# nothing: no -o file, no temporary file beside it.
+#
+# Each tests/bad/*.yaml starts with the line
+#   # expect: SUBSTRING @ LINE:COL key=KEY
+# naming part of the message, its position and the dotted key.
+#
+#   sh tests/cli/bad_inputs.sh PLUMB
+#
+# Ends with one line `cli: N passed, N failed`; exit 0 only if none failed.
+set -u
+LC_ALL=C
+export LC_ALL
+
+if [ $# -lt 1 ]; then
+  echo "usage: sh $0 PLUMB" >&2
+  exit 2
+fi
+bin=$1
+case $bin in /*) ;; *) bin=$(pwd)/$bin ;; esac
+
+here=$(cd "$(dirname "$0")" && pwd)
+root=$(cd "$here/../.." && pwd)
+cd "$root" || exit 2
+PLUMB_CRITERIA_DIR=profiles/criteria
+export PLUMB_CRITERIA_DIR
+good=profiles/payloads/torque-wrench.yaml
+
+tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-bad.XXXXXX") || exit 2
+trap 'rm -rf "$tmp"' EXIT
+trap 'exit 2' INT TERM
+
+pass=0
+fail=0
+bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
+
+# refused NAME WANT... -- ARGS...: runs plumb ARGS with -o into an empty
+# directory; passes when the status is 2, stderr holds every WANT (fixed
+# strings), and the directory is still empty.
+refused() {
+  name=$1
+  shift
+  n_wants=0
+  while [ $# -gt 0 ] && [ "$1" != "--" ]; do
+    n_wants=$((n_wants + 1))
+    eval "want_$n_wants=\$1"
+    shift
+  done
+  shift
+  out=$tmp/out.$$
+  rm -rf "$out"
+  mkdir "$out" || exit 2
+  "$bin" "$@" -o "$out/result" >"$tmp/stdout" 2>"$tmp/stderr"
+  rc=$?
+  why=""
+  [ $rc -eq 2 ] || why="exit status $rc, expected 2"
+  i=1
+  while [ $i -le $n_wants ]; do
+    eval "w=\$want_$i"
+    if [ -z "$why" ] && ! grep -F -q -e "$w" "$tmp/stderr"; then
+      why="stderr lacks '$w'"
+    fi
+    i=$((i + 1))
+  done
+  if [ -z "$why" ] && [ -n "$(ls -A "$out")" ]; then
+    why="wrote $(ls -A "$out" | head -n 3 | tr '\n' ' ')"
+  fi
+  if [ -z "$why" ] && [ -s "$tmp/stdout" ]; then
+    why="printed to stdout"
+  fi
+  if [ -n "$why" ]; then
+    bad "$name: $why"
+    sed -n '1,3s/^/  stderr: /p' "$tmp/stderr"
+  else
+    pass=$((pass + 1))
+  fi
+  rm -rf "$out"
+}
+
+# ---- every malformed profile ----------------------------------------------
+n_bad=0
+for f in tests/bad/*.yaml; do
+  [ -f "$f" ] || continue
+  n_bad=$((n_bad + 1))
+  line1=$(sed -n '1p' "$f")
+  case $line1 in
+    "# expect: "*" @ "*" key="*) ;;
+    *) bad "$f: first line is not '# expect: TEXT @ LINE:COL key=KEY'"; continue ;;
+  esac
+  rest=${line1#"# expect: "}
+  sub=${rest% @ *}
+  tail=${rest##* @ }
+  pos=${tail%% key=*}
+  key=${tail#* key=}
+  if [ -n "$key" ]; then
+    refused "$f" "plumb: $f:$pos: $key: " "$sub" -- fall "$f" --format json
+  else
+    refused "$f" "plumb: $f:$pos: " "$sub" -- fall "$f" --format json
+  fi
+done
+[ "$n_bad" -ge 30 ] && pass=$((pass + 1)) || bad "tests/bad holds $n_bad profiles, expected at least 30"
+
+# ---- overrides --------------------------------------------------------------
+refused "--set with an unknown key" "plumb: --set:1:9: release.hieght: " "did you mean 'release.height'" \
+  -- fall "$good" --set release.hieght=30m --format json
+refused "--set with a bare number" "plumb: --set:1:16: release.height: " \
+  -- fall "$good" --set release.height=30 --format json
+# (the command line may refuse this one itself, as a usage error)
+refused "--set without =" "KEY=VALUE" \
+  -- fall "$good" --set release.height --format json
+refused "--set with malformed YAML" "plumb: --set:1:" "malformed YAML" \
+  -- fall "$good" --set "payload.drag={cd: 1" --format json
+refused "--set with a value out of range" "plumb: --set:1:17: payload.drag.cd: " \
+  -- fall "$good" --set payload.drag.cd=-0.5 --format json
+refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
+  -- fall "$good" --set "descent[1].cd=0.8" --format json
+
+# ---- plumb air --alt ranges ------------------------------------------------
+for r in 0m:10km 10km:0m:1km 0:1000:100 0m:10km:0m 0m:10km:-1km 0m:x:1km; do
+  refused "air --alt $r" "--alt" -- air --alt "$r" --format json
+done
+
+# ---- files that are not profiles ------------------------------------------
+mkdir "$tmp/adir"
+refused "a directory" "plumb: $tmp/adir: " "directory" -- fall "$tmp/adir" --format json
+refused "a missing file" "plumb: $tmp/missing.yaml: " -- fall "$tmp/missing.yaml" --format json
+if [ -r /proc/self/mem ]; then
+  refused "/proc/self/mem (opens, cannot be read)" "plumb: /proc/self/mem: " \
+    -- fall /proc/self/mem --format json
+fi
+# one byte over 1 MiB (PLUMB_PROFILE_MAX_BYTES) of comment lines
+awk 'BEGIN { for (i = 0; i < 13200; i++) printf "# %077d\n", i }' | head -c 1048577 >"$tmp/big.yaml"
+size=$(wc -c <"$tmp/big.yaml" | tr -d ' ')
+if [ "$size" -eq 1048577 ]; then
+  refused "a file of 1 MiB + 1 byte" "plumb: $tmp/big.yaml: " "1048576" \
+    -- fall "$tmp/big.yaml" --format json
+else
+  bad "oversize file: generated $size bytes, expected 1048577"
+fi
+: >"$tmp/empty.yaml"
+refused "an empty file" "plumb: $tmp/empty.yaml:1:1: " "no YAML document" \
+  -- fall "$tmp/empty.yaml" --format json
+printf '# only a comment\n\n' >"$tmp/comment.yaml"
+refused "a comment-only file" "plumb: $tmp/comment.yaml:1:1: " -- fall "$tmp/comment.yaml" --format json
+
+echo "cli: $pass passed, $fail failed"
+[ "$fail" -eq 0 ]
