@@ -230,5 +230,6 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
     }
     }
     out->cd_area_m2 = out->cd * out->area_m2;
+    out->extrapolated = o.clamped;
     return PLUMB_OK;
 }

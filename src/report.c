@@ -242,6 +242,10 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     "The Reynolds number runs from %.3g to %.3g, beyond the Clift-Grace-Weber "
                     "sphere-drag curve (Re up to %.0e): its drag is extrapolated there.",
                     r->min_re, r->max_re, CGW_RE_MAX);
+    if (d->extrapolated)
+        add_warning(item,
+                    "The shape's aspect ratio lies outside the handbook table its drag "
+                    "coefficient comes from; the table's end value is used.");
     for (size_t i = r->n_deployed; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
         add_warning(item,
                     "The %s (device %zu) does not open before impact: the figures are those "

@@ -125,6 +125,12 @@ static void test_cylinder_broadside_and_end_on_cd_follow_the_handbook_table(void
     assert_int_equal(plumb_drag_from_shape(&s, &d), PLUMB_OK);
     assert_rel(d.cd, 0.78, 1e-14);
     assert_non_null(strstr(d.source, "Fig. 5.13"));
+    assert_int_equal(d.extrapolated, 0);
+    /* L/D = 0.4 lies below the end-on table (1..7): end value, flagged */
+    s = (plumb_shape_spec){PLUMB_SHAPE_CYLINDER, {0.04, 0.1, 0}, PLUMB_ATTITUDE_END_ON};
+    assert_int_equal(plumb_drag_from_shape(&s, &d), PLUMB_OK);
+    assert_rel(d.cd, 0.91, 1e-15);
+    assert_int_equal(d.extrapolated, 1);
     /* a cube face-on is 1.05 */
     s = (plumb_shape_spec){PLUMB_SHAPE_BOX, {0.2, 0.2, 0.2}, PLUMB_ATTITUDE_BROADSIDE};
     assert_int_equal(plumb_drag_from_shape(&s, &d), PLUMB_OK);

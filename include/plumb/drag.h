@@ -29,6 +29,7 @@ typedef struct plumb_drag_spec {
     double area_m2;           /* reference area, m^2; > 0: CdA = cd x area_m2 */
     double cd_area_m2;        /* CdA, m^2, used when area_m2 is 0 (`cd_area:` given) */
     double diameter_m;        /* sphere models: diameter, m (area_m2 = pi d^2 / 4) */
+    int extrapolated;         /* 1: a shape's aspect ratio lay outside the handbook table (end value held) */
     char source[PLUMB_DRAG_SOURCE]; /* where cd and area came from, for the report */
 } plumb_drag_spec;
 
