@@ -140,7 +140,7 @@ double plumb_shape_mean_projected_area(const plumb_shape_spec *s)
  *     Cd_t = sum(Cd_i A_i) / sum(A_i),
  * applied to Cauchy's mean projected area: the body spends equal time
  * facing each axis and is dragged in proportion to the area it shows. */
-typedef struct { double cd[3], area[3]; int clamped; } orientations;
+typedef struct { double cd[3], area[3]; int clamped[3]; } orientations;
 
 static void principal(const plumb_shape_spec *s, orientations *o)
 {
@@ -148,10 +148,11 @@ static void principal(const plumb_shape_spec *s, orientations *o)
     memset(o, 0, sizeof *o);
     if (s->kind == PLUMB_SHAPE_CYLINDER) {
         double ld = d[0] / d[1];
-        o->cd[0] = table_cd(cyl_end_on, sizeof cyl_end_on / sizeof *cyl_end_on, ld, &o->clamped);
+        o->cd[0] = table_cd(cyl_end_on, sizeof cyl_end_on / sizeof *cyl_end_on, ld, &o->clamped[0]);
         o->area[0] = PLUMB_PI * d[1] * d[1] / 4.0;
-        o->cd[1] = o->cd[2] =
-            table_cd(cyl_broadside, sizeof cyl_broadside / sizeof *cyl_broadside, ld, &o->clamped);
+        o->cd[1] = o->cd[2] = table_cd(cyl_broadside, sizeof cyl_broadside / sizeof *cyl_broadside,
+                                       ld, &o->clamped[1]);
+        o->clamped[2] = o->clamped[1];
         o->area[1] = o->area[2] = d[0] * d[1];
         return;
     }
@@ -192,7 +193,6 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
                             ? "cylinder Cd by L/D, Aeronautical Engineer Data Book Fig. 5.13"
                             : "face-on Cd between square plate 1.17 and cube 1.05 by depth/width, "
                               "Aeronautical Engineer Data Book Fig. 5.13";
-    const char *clamp = o.clamped ? "; aspect ratio outside the table, end value held" : "";
     size_t big = 0, small = 0;
     for (size_t i = 1; i < 3; i++) {
         if (o.area[i] > o.area[big])
@@ -200,6 +200,10 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
         if (o.area[i] < o.area[small])
             small = i;
     }
+    int clamped = shape->attitude == PLUMB_ATTITUDE_BROADSIDE ? o.clamped[big]
+                  : shape->attitude == PLUMB_ATTITUDE_END_ON  ? o.clamped[small]
+                                                              : o.clamped[0] | o.clamped[1] | o.clamped[2];
+    const char *clamp = clamped ? "; aspect ratio outside the table, end value held" : "";
     switch (shape->attitude) {
     case PLUMB_ATTITUDE_BROADSIDE:
         out->cd = o.cd[big];
@@ -230,6 +234,6 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
     }
     }
     out->cd_area_m2 = out->cd * out->area_m2;
-    out->extrapolated = o.clamped;
+    out->extrapolated = clamped;
     return PLUMB_OK;
 }
