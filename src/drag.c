@@ -193,12 +193,18 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
                             ? "cylinder Cd by L/D, Aeronautical Engineer Data Book Fig. 5.13"
                             : "face-on Cd between square plate 1.17 and cube 1.05 by depth/width, "
                               "Aeronautical Engineer Data Book Fig. 5.13";
-    size_t big = 0, small = 0;
-    for (size_t i = 1; i < 3; i++) {
-        if (o.area[i] > o.area[big])
-            big = i;
-        if (o.area[i] < o.area[small])
-            small = i;
+    /* A cylinder is end-on with its axis along the flow and broadside with
+     * it across, whatever its L/D; a box or plate shows its largest face
+     * broadside and its smallest end-on. */
+    size_t big = 1, small = 0;
+    if (shape->kind != PLUMB_SHAPE_CYLINDER) {
+        big = 0;
+        for (size_t i = 1; i < 3; i++) {
+            if (o.area[i] > o.area[big])
+                big = i;
+            if (o.area[i] < o.area[small])
+                small = i;
+        }
     }
     int clamped = shape->attitude == PLUMB_ATTITUDE_BROADSIDE ? o.clamped[big]
                   : shape->attitude == PLUMB_ATTITUDE_END_ON  ? o.clamped[small]
@@ -208,13 +214,13 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
     case PLUMB_ATTITUDE_BROADSIDE:
         out->cd = o.cd[big];
         out->area_m2 = o.area[big];
-        snprintf(out->source, sizeof out->source, "%s broadside: Cd %.3g on its largest frontal area (%s%s)",
+        snprintf(out->source, sizeof out->source, "%s broadside: Cd %.3g on its frontal area (%s%s)",
                  what, out->cd, table, clamp);
         break;
     case PLUMB_ATTITUDE_END_ON:
         out->cd = o.cd[small];
         out->area_m2 = o.area[small];
-        snprintf(out->source, sizeof out->source, "%s end-on: Cd %.3g on its smallest frontal area (%s%s)",
+        snprintf(out->source, sizeof out->source, "%s end-on: Cd %.3g on its frontal area (%s%s)",
                  what, out->cd, table, clamp);
         break;
     case PLUMB_ATTITUDE_TUMBLING:

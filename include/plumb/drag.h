@@ -43,8 +43,8 @@ typedef enum plumb_shape_kind {
 
 typedef enum plumb_attitude {
     PLUMB_ATTITUDE_TUMBLING = 0, /* mean projected area, Cauchy: surface area / 4 */
-    PLUMB_ATTITUDE_BROADSIDE,    /* largest face or side normal to the flow */
-    PLUMB_ATTITUDE_END_ON        /* smallest face or end normal to the flow */
+    PLUMB_ATTITUDE_BROADSIDE,    /* cylinder axis across the flow; box: largest face to the flow */
+    PLUMB_ATTITUDE_END_ON        /* cylinder axis along the flow; box: smallest face to the flow */
 } plumb_attitude;
 
 typedef struct plumb_shape_spec {
