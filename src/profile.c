@@ -524,7 +524,42 @@ static void tree_remove(plumby_node *root, const keypath *kp)
     }
 }
 
-/* Applies one "KEY=VALUE" to the tree; VALUE ~ or null removes KEY. */
+/* Keys that stand instead of one another in the same map: an override of
+ * one replaces the others, so `--set descent.area=1.2m^2` works on a
+ * profile that gives the canopy's diameter (and `plumb limit --find
+ * descent.area` with it). Within a map named `parent` ("" for any). */
+static const struct { const char *parent, *key, *drops[2]; } alternatives[] = {
+    {"descent", "area", {"diameter", NULL}},
+    {"descent", "diameter", {"area", NULL}},
+    {"descent", "fill_time", {"fill_constant", NULL}},
+    {"descent", "fill_constant", {"fill_time", NULL}},
+    {"deploy", "after", {"below", NULL}},
+    {"deploy", "below", {"after", NULL}},
+    {"drag", "cd_area", {"cd", "area"}},
+};
+
+static void drop_alternatives(plumby_node *root, const keypath *kp)
+{
+    if (kp->n < 2)
+        return;
+    const kseg *last = &kp->seg[kp->n - 1], *parent = &kp->seg[kp->n - 2];
+    if (last->index >= 0)
+        return;
+    for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
+        if (strcmp(alternatives[i].key, last->name) != 0 ||
+            strcmp(alternatives[i].parent, parent->name) != 0)
+            continue;
+        for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
+            keypath other = *kp;
+            plumbp_strlcpy(other.seg[kp->n - 1].name, alternatives[i].drops[k],
+                           sizeof other.seg[kp->n - 1].name);
+            tree_remove(root, &other);
+        }
+    }
+}
+
+/* Applies one "KEY=VALUE" to the tree; VALUE ~ or null removes KEY; a key
+ * given instead of another (see alternatives) replaces it. */
 static plumb_status apply_set(plumby_node *root, const char *arg, plumb_diag *diag)
 {
     const char *eq = strchr(arg, '=');
@@ -557,7 +592,10 @@ static plumb_status apply_set(plumby_node *root, const char *arg, plumb_diag *di
     st = plumby_parse(val, strlen(val), PLUMBY_SET_FILE, PLUMBY_FROM_SET, col0, key, &node, diag);
     if (st != PLUMB_OK)
         return st;
-    return tree_put(root, &kp, key, node, diag);
+    st = tree_put(root, &kp, key, node, diag);
+    if (st == PLUMB_OK)
+        drop_alternatives(root, &kp);
+    return st;
 }
 
 /* ---- interpretation ---------------------------------------------------- */
