@@ -393,6 +393,73 @@ static void test_peak_force_is_located_between_steps_not_sampled(void **state)
     plumb_atmosphere_free(atm);
 }
 
+static void test_energy_balance_holds_with_a_filling_canopy(void **state)
+{
+    (void)state;
+    /* Work-energy theorem with the drag of body and canopy, through the
+     * filling: the mechanical energy lost equals the drag work, 1e-8. */
+    plumb_atmosphere *atm = std_air(6.5);
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 1.83, H = 142.0;
+    plumb_fall_spec s;
+    base_spec(&s, m, 0.0, H);
+    s.drag.cd = 1.05;
+    s.drag.area_m2 = 0.0187;
+    s.velocity_m_s[0] = 6.1;
+    s.velocity_m_s[1] = -2.2;
+    s.wind.profile = PLUMB_WIND_POWER;
+    s.wind.speed_m_s = 6.4;
+    s.wind.from_deg = 200.0;
+    s.n_descent = 1;
+    s.descent[0].cd = 0.78;
+    s.descent[0].area_m2 = 0.95;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = 1.7;
+    s.descent[0].fill_time_s = 0.65;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    const double *v0 = s.velocity_m_s;
+    double e0 = 0.5 * m * (v0[0] * v0[0] + v0[1] * v0[1] + v0[2] * v0[2]) + m * g * H;
+    assert_int_equal(r.n_deployed, 1);
+    assert_rel(r.energy_j - e0, r.drag_work_j, 1e-8);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_drogue_then_main_open_in_sequence(void **state)
+{
+    (void)state;
+    /* The main replaces the drogue at its line stretch: the steady speed is
+     * the closed-form terminal speed with body + main only. */
+    plumb_atmosphere *atm = constant_air();
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 4.37, rho = const_rho[0];
+    plumb_fall_spec s;
+    base_spec(&s, m, 0.0, 900.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.031;
+    s.n_descent = 2;
+    s.descent[0] = (plumb_descent_spec){PLUMB_DESCENT_DROGUE, 0.55, 0.21, 0.0, PLUMB_DEPLOY_AFTER,
+                                        0.8, 0.2, 0.0, 0};
+    s.descent[1] = (plumb_descent_spec){PLUMB_DESCENT_PARACHUTE, 0.8, 3.4, 0.0, PLUMB_DEPLOY_BELOW,
+                                        250.0, 1.1, 0.0, 1};
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_int_equal(r.n_deployed, 2);
+    assert_rel(r.deploy_time_s[0], 0.8, 1e-15);
+    assert_rel(r.deploy_height_m[1], 250.0, 1e-12);
+    /* under the drogue alone the speed approaches its own terminal speed */
+    double v_drogue = sqrt(2.0 * m * g / (rho * (0.031 + 0.55 * 0.21)));
+    assert_rel(r.deploy_speed_m_s[1], v_drogue, 1e-3);
+    double v_main = sqrt(2.0 * m * g / (rho * (0.031 + 0.8 * 3.4)));
+    assert_rel(r.steady_speed_m_s, v_main, 1e-12);
+    assert_rel(r.speed_m_s, v_main, 1e-9);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_deploy_below_a_height_opens_exactly_there(void **state)
 {
     (void)state;
@@ -605,6 +672,8 @@ int main(void)
         cmocka_unit_test(test_parachute_descends_at_body_plus_canopy_terminal_speed),
         cmocka_unit_test(test_opening_force_lies_within_the_knacke_bounds),
         cmocka_unit_test(test_peak_force_is_located_between_steps_not_sampled),
+        cmocka_unit_test(test_energy_balance_holds_with_a_filling_canopy),
+        cmocka_unit_test(test_drogue_then_main_open_in_sequence),
         cmocka_unit_test(test_deploy_below_a_height_opens_exactly_there),
         cmocka_unit_test(test_invalid_specs_are_refused),
         cmocka_unit_test(test_buoyant_object_never_lands_and_says_so),
