@@ -243,8 +243,8 @@ void plumb_trajectory_options_init(plumb_trajectory_options *opt)
     opt->stepper = PLUMB_STEPPER_AUTO;
     opt->rel_tol = 1e-8;
     opt->abs_tol = 1e-12;
-    opt->event_rel_tol = 1e-12;
-    opt->event_abs_tol = 1e-12;
+    opt->event_rel_tol = 1e-10;
+    opt->event_abs_tol = 1e-10;
     opt->first_step_s = 1e-3;
     opt->max_steps = 2000000;
     opt->max_time_s = 86400.0;

@@ -87,8 +87,8 @@ typedef struct plumb_trajectory_options {
                                   relative error in impact speed on the benchmark cases) */
     double abs_tol;            /* absolute error per step, default 1e-12 (m, m/s, J) */
     double event_rel_tol;      /* the same for the short Henon phases that locate the
-                                  impact, a deployment height and the apex, default 1e-12 */
-    double event_abs_tol;      /* default 1e-12 */
+                                  impact, a deployment height and the apex, default 1e-10 */
+    double event_abs_tol;      /* default 1e-10 */
     double first_step_s;       /* initial step, s, default 1e-3 */
     size_t max_steps;          /* step budget, default 2 000 000 */
     double max_time_s;         /* fall-time budget, s, default 86 400 */
