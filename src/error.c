@@ -21,6 +21,7 @@ static const char *const status_text[PLUMB_STATUS_COUNT] = {
     [PLUMB_EBUDGET] = "integration budget exhausted",
     [PLUMB_ENUMERIC] = "numerical method failed",
     [PLUMB_ENOSOLUTION] = "no solution in the physical range",
+    [PLUMB_EOUTSIDE] = "the path left the range of a model",
 };
 
 const char *plumb_strerror(plumb_status status)

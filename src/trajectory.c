@@ -63,6 +63,7 @@ struct fall_ctx {
     double inv_m;               /* 1 / mass */
     double body_cda_m2;         /* fixed-model CdA */
     int sphere;                 /* 1: Cd(Re) sphere model */
+    double air_lo_m, air_hi_m;  /* altitudes the air model covers */
     int wind_table;             /* 1: table wind, components looked up */
     double wind_dir[2];         /* else: east, north components of a unit wind */
     size_t n_dev;
@@ -82,6 +83,7 @@ static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmos
     c->sphere = spec->drag.model != PLUMB_DRAG_FIXED;
     c->n_dev = spec->n_descent;
     c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;
+    plumb_atmosphere_range(atm, &c->air_lo_m, &c->air_hi_m);
     plumb_wind_components(1.0, spec->wind.from_deg, &c->wind_dir[0], &c->wind_dir[1]);
 }
 
@@ -112,11 +114,19 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
 {
     const plumb_fall_spec *s = c->spec;
     double alt = s->site_elevation_m + y[IZ];
+    if (!(alt >= c->air_lo_m && alt <= c->air_hi_m)) {
+        /* A trial stage of a long step (or a stage past the strike level)
+         * can leave the air model's range: it gets the air at the nearest
+         * edge, so the stepper's error control, not a failed evaluation,
+         * rejects the step. Accepted points are checked in observe(). */
+        alt = alt < c->air_lo_m ? c->air_lo_m : alt > c->air_hi_m ? c->air_hi_m : NAN;
+        if (isnan(alt)) {
+            c->fail = PLUMB_EOUTSIDE;
+            return GSL_EBADFUNC; /* a NaN state: nothing to retry */
+        }
+    }
     if (plumb_atmosphere_at(c->atm, alt, &L->air) != PLUMB_OK) {
-        /* A trial stage of a too-long step can leave the model's range:
-         * GSL_EDOM makes the evolver retry with a shorter step, and only a
-         * path that really leaves the range ends as an error. */
-        c->fail = PLUMB_ERANGE;
+        c->fail = PLUMB_EOUTSIDE;
         c->fail_alt_m = alt;
         return GSL_EDOM;
     }
@@ -459,11 +469,8 @@ typedef struct runner {
 
 static plumb_status fail_rhs(runner *r, int rc, const char *what)
 {
-    if (r->ctx->fail == PLUMB_ERANGE)
-        return PLUMB_RAISE(r->diag, PLUMB_ERANGE,
-                           "the path left the atmosphere model's range at altitude %.1f m (t=%.2f s)",
-                           r->ctx->fail_alt_m, r->t);
-    return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC, "%s failed at t=%.2f s: %s", what, r->t, gsl_strerror(rc));
+    return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC, "%s failed at t=%.2f s, %.2f m above the strike "
+                       "level: %s", what, r->t, r->y[IZ], gsl_strerror(rc));
 }
 
 /* Drag force at time t inside the step that starts at history point i:
@@ -546,6 +553,11 @@ static plumb_status track_peak(runner *r, double force)
 /* Records what is observed at an accepted point: Mach, Re, drag force, path. */
 static plumb_status observe(runner *r)
 {
+    double alt = r->ctx->spec->site_elevation_m + r->y[IZ];
+    if (!(alt >= r->ctx->air_lo_m && alt <= r->ctx->air_hi_m))
+        return PLUMB_RAISE(r->diag, PLUMB_EOUTSIDE,
+                           "the path leaves the air model's range (%.0f to %.0f m above sea level): "
+                           "it reaches %.1f m at t=%.2f s", r->ctx->air_lo_m, r->ctx->air_hi_m, alt, r->t);
     local L;
     if (local_at(r->ctx, r->t, r->y, &L) != GSL_SUCCESS)
         return fail_rhs(r, GSL_EBADFUNC, "air lookup");
@@ -793,6 +805,10 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
     return PLUMB_OK;
 }
 
+static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
+                             const plumb_atmosphere *atm, plumb_fall_result *res,
+                             plumb_diag *diag, plumb_stepper kind);
+
 plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *spec,
                                   const plumb_atmosphere *atm, plumb_fall_result *res,
                                   plumb_diag *diag)
@@ -800,22 +816,34 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
     plumb_status st = check_spec(spec, diag);
     if (st != PLUMB_OK)
         return st;
+    plumb_stepper kind = w->opt.stepper;
+    if (kind != PLUMB_STEPPER_AUTO)
+        return run_with(w, spec, atm, res, diag, kind);
+    double vt = 0.0;
+    double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
+    if (spec->n_descent == 0 && plumb_terminal_speed(spec, atm, 0.0, 0, &vt) == PLUMB_OK &&
+        2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio) {
+        /* Stiff: the implicit stepper, and the explicit one should its
+         * Newton iterations fail (seen on very light objects): slower, but
+         * an answer rather than an error. */
+        st = run_with(w, spec, atm, res, diag, PLUMB_STEPPER_MSBDF);
+        if (st != PLUMB_ENUMERIC && st != PLUMB_EBUDGET)
+            return st;
+    }
+    return run_with(w, spec, atm, res, diag, PLUMB_STEPPER_RK8PD);
+}
+
+static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
+                             const plumb_atmosphere *atm, plumb_fall_result *res,
+                             plumb_diag *diag, plumb_stepper kind)
+{
+    plumb_status st;
     memset(res, 0, sizeof *res);
     runner r = {.w = w, .res = res, .diag = diag};
     r.ctx = &w->ctx;
     r.sys = &w->sys;
     ctx_init(r.ctx, spec, atm);
     w->path_n = 0;
-
-    plumb_stepper kind = w->opt.stepper;
-    double vt = 0.0;
-    if (kind == PLUMB_STEPPER_AUTO) {
-        kind = PLUMB_STEPPER_RK8PD;
-        double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
-        if (spec->n_descent == 0 && plumb_terminal_speed(spec, atm, 0.0, 0, &vt) == PLUMB_OK &&
-            2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio)
-            kind = PLUMB_STEPPER_MSBDF;
-    }
     if (kind == PLUMB_STEPPER_MSBDF) {
         r.step = w->msbdf->s;
         r.evolve = w->msbdf->e;

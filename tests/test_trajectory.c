@@ -573,7 +573,14 @@ static void test_path_outside_the_atmosphere_is_a_range_error(void **state)
     s.site_elevation_m = 85500.0; /* release at 86.5 km */
     plumb_fall_result r;
     plumb_diag d;
-    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_ERANGE);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EOUTSIDE);
+    assert_false(plumb_status_is_input_error(PLUMB_EOUTSIDE)); /* exit status 3 */
+    /* thrown up through the top of the model: an error, not a budget run-out */
+    s.site_elevation_m = 84000.0;
+    s.release_m[2] = 1500.0;
+    s.velocity_m_s[2] = 400.0;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EOUTSIDE);
+    assert_non_null(strstr(d.message, "leaves the air model's range"));
     plumb_trajectory_free(w);
     plumb_atmosphere_free(atm);
 }

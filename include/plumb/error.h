@@ -28,6 +28,7 @@ typedef enum plumb_status {
     PLUMB_EBUDGET,       /* the integrator ran past its step or time budget */
     PLUMB_ENUMERIC,      /* a numerical method failed (ODE step, root finder) */
     PLUMB_ENOSOLUTION,   /* an inverse problem has no solution in range */
+    PLUMB_EOUTSIDE,      /* the computed path left the range of a model (air above 86 km ...) */
     PLUMB_STATUS_COUNT
 } plumb_status;
 
