@@ -10,13 +10,20 @@
 #include <gsl/gsl_errno.h>
 #include <gsl/gsl_roots.h>
 
+#include "plumb/constants.h"
 #include "plumb/inverse.h"
 #include "internal.h"
 
-/* Geometric and additive bracketing: each step doubles the distance. */
-#define GROWTH 2.0
-/* Positive inputs are searched from base / SPAN to base x SPAN. */
-#define SPAN 1e6
+/* Values scanned for changes of sign before Brent refines them: 10 per
+ * decade over a positive key's 6 decades. */
+#define SCAN_POINTS 61
+/* Positive inputs are scanned from base / SPAN to base x SPAN. */
+#define SPAN 1e3
+/* Practical ranges of the other inputs (SI). */
+#define MAX_SPEED_M_S 300.0
+#define MAX_WIND_M_S 60.0
+#define MAX_OFFSET_M 1e4
+#define MAX_TEMP_DIFF_K 100.0
 /* Brent iterations at most. */
 #define MAX_ITER 200
 
@@ -73,25 +80,35 @@ static int starts_with(const char *s, const char *prefix)
     return strncmp(s, prefix, strlen(prefix)) == 0;
 }
 
-static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec *spec)
+/* The range a key is scanned over. Positive quantities: SPAN either way
+ * of the profile's value (capped by physics, e.g. the release height at
+ * 86 km above sea level); others: their physical or practical range. */
+static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec *spec, double base)
 {
-    key_range r = {RANGE_POSITIVE, 0.0, INFINITY};
+    key_range r = {RANGE_POSITIVE, base / SPAN, base * SPAN};
     if (strcmp(key, "release.height") == 0) {
-        r.hi = 86000.0 - spec->site_elevation_m;
+        double top = PLUMB_STD1976_TOP_M - spec->site_elevation_m;
+        if (r.hi > top)
+            r.hi = top;
     } else if (strcmp(key, "site.elevation") == 0) {
-        r = (key_range){RANGE_BOUNDED, -5000.0, 86000.0 - spec->release_m[2]};
+        r = (key_range){RANGE_BOUNDED, -5000.0, PLUMB_STD1976_TOP_M - spec->release_m[2]};
     } else if (starts_with(key, "release.velocity.") && strcmp(key, "release.velocity.speed") != 0) {
-        r = (key_range){RANGE_SIGNED, -1000.0, 1000.0};
+        r = (key_range){RANGE_SIGNED, -MAX_SPEED_M_S, MAX_SPEED_M_S};
     } else if (starts_with(key, "release.position.")) {
-        r = (key_range){RANGE_SIGNED, -1e6, 1e6};
+        r = (key_range){RANGE_SIGNED, -MAX_OFFSET_M, MAX_OFFSET_M};
     } else if (dim == PLUMB_DIM_TEMP_DIFF) {
-        r = (key_range){RANGE_SIGNED, -150.0, 150.0};
+        r = (key_range){RANGE_SIGNED, -MAX_TEMP_DIFF_K, MAX_TEMP_DIFF_K};
     } else if (dim == PLUMB_DIM_FRACTION) {
         r = (key_range){RANGE_BOUNDED, 0.0, 1.0};
     } else if (dim == PLUMB_DIM_NONE && strstr(key, "cd") != NULL) {
         r = (key_range){RANGE_BOUNDED, 0.0, 10.0};
-    } else if (dim == PLUMB_DIM_SPEED || dim == PLUMB_DIM_TIME || dim == PLUMB_DIM_NONE) {
-        r = (key_range){RANGE_NONNEG, 0.0, dim == PLUMB_DIM_SPEED ? 1000.0 : 1e6};
+    } else if (strcmp(key, "wind.speed") == 0) {
+        r = (key_range){RANGE_NONNEG, 0.0, MAX_WIND_M_S};
+    } else if (dim == PLUMB_DIM_SPEED) {
+        r = (key_range){RANGE_NONNEG, 0.0, MAX_SPEED_M_S};
+    } else if (dim == PLUMB_DIM_TIME || dim == PLUMB_DIM_NONE || !(base > 0.0)) {
+        double hi = base > 0.0 ? base * SPAN : 1.0;
+        r = (key_range){RANGE_NONNEG, 0.0, hi};
     }
     return r;
 }
@@ -165,7 +182,7 @@ static double eval_at(double x, void *params)
     plumb_atmosphere_free(atm);
     plumb_profile_free(p);
     c->evals++;
-    if (st == PLUMB_EINVAL || st == PLUMB_ERANGE) {
+    if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE) {
         c->out_of_range = 1;
         if (c->diag)
             *c->diag = d;
@@ -178,21 +195,6 @@ static double eval_at(double x, void *params)
         return NAN;
     }
     return metric_of(&r, c->metric) - c->limit;
-}
-
-/* Next trial value outward from base, step k (1, 2, ...), in direction dir. */
-static double trial(const key_range *r, double base, double unit, int dir, int k)
-{
-    double x;
-    if (r->kind == RANGE_POSITIVE && base > 0.0)
-        x = base * pow(GROWTH, dir * k);
-    else
-        x = base + dir * unit * pow(GROWTH, k - 1);
-    if (x < r->lo)
-        x = r->lo;
-    if (x > r->hi)
-        x = r->hi;
-    return x;
 }
 
 static plumb_status brent(solver_ctx *c, double a, double fa, double b, double fb, double rel_tol,
@@ -227,6 +229,22 @@ static plumb_status brent(solver_ctx *c, double a, double fa, double b, double f
     return PLUMB_OK;
 }
 
+/* The scan's i-th value of n over [lo, hi]: geometric for a positive
+ * range, linear otherwise. */
+static double scan_value(const key_range *r, double lo, double hi, size_t i, size_t n)
+{
+    double f = (double)i / (double)(n - 1);
+    if (r->kind == RANGE_POSITIVE && lo > 0.0)
+        return lo * pow(hi / lo, f);
+    return lo + f * (hi - lo);
+}
+
+static const char *si_unit_text(plumb_dim dim)
+{
+    const char *u = plumb_dim_si_unit(dim);
+    return strcmp(u, "1") == 0 ? "" : u;
+}
+
 plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
                                size_t item, const char *key, plumb_metric metric, double limit,
                                const plumb_limit_options *opt, plumb_trajectory *traj,
@@ -257,19 +275,13 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
         plumbp_strlcpy(c.set_key, key, sizeof c.set_key);
     double base;
     if (!base_value(profile, item, key, &base))
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "this key cannot be solved for");
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
+                               "this key cannot be solved for (it is not a single input of the fall)");
     const plumb_fall_spec *spec = plumb_profile_item(profile, item);
-    key_range r = range_of(key, dim, spec);
-    if (r.kind == RANGE_POSITIVE) {
-        r.lo = base > 0.0 ? base / SPAN : 0.0;
-        if (!isfinite(r.hi))
-            r.hi = base > 0.0 ? base * SPAN : SPAN;
-    }
-    double unit = fabs(base) > 0.0 ? fabs(base) / 4.0 : 1.0;
-    if (r.kind == RANGE_BOUNDED)
-        unit = (r.hi - r.lo) / 64.0;
+    key_range r = range_of(key, dim, spec, base);
     res->dim = dim;
     res->base_value_si = base;
+    const char *unit = si_unit_text(dim);
 
     double f0 = eval_at(base, &c);
     if (c.fail != PLUMB_OK)
@@ -278,73 +290,77 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
         return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key, "the profile's own value cannot be computed");
     res->metric_at_base = f0 + limit;
 
-    /* Bracket: step outward both ways until the sign of f changes. */
-    double a = base, fa = f0, b = NAN, fb = NAN;
-    double edge[2] = {NAN, NAN}, fedge[2] = {NAN, NAN};
-    int done[2] = {0, 0};
-    for (int k = 1; !(done[0] && done[1]) && isnan(b); k++) {
-        for (int s = 0; s < 2 && isnan(b); s++) {
-            if (done[s])
-                continue;
-            int dir = s == 0 ? 1 : -1;
-            double x = trial(&r, base, unit, dir, k);
-            double fx = eval_at(x, &c);
-            if (c.fail != PLUMB_OK)
-                return c.fail;
-            if (isnan(fx)) { /* refused by the profile: the edge is nearer */
-                done[s] = 1;
-                continue;
+    /* Scan the range, then refine every change of sign with Brent's
+     * method: a metric need not be monotonic in its key (a canopy that
+     * opens only above some height, wind that adds to the impact speed). */
+    double xs[SCAN_POINTS + 1], fs[SCAN_POINTS + 1];
+    size_t n = 0;
+    int base_done = 0;
+    for (size_t i = 0; i < SCAN_POINTS; i++) {
+        double x = scan_value(&r, r.lo, r.hi, i, SCAN_POINTS);
+        if (!base_done && x >= base) {
+            if (x != base) {
+                xs[n] = base;
+                fs[n++] = f0;
             }
-            double prev = isnan(edge[s]) ? f0 : fedge[s];
-            double px = isnan(edge[s]) ? base : edge[s];
-            edge[s] = x;
-            fedge[s] = fx;
-            if ((fx > 0.0) != (prev > 0.0)) {
-                a = px;
-                fa = prev;
-                b = x;
-                fb = fx;
-            }
-            if (x <= r.lo || x >= r.hi)
-                done[s] = 1;
+            base_done = 1;
         }
+        double fx = eval_at(x, &c);
+        if (c.fail != PLUMB_OK)
+            return c.fail;
+        if (isnan(fx))
+            continue; /* refused by the profile: outside its range */
+        xs[n] = x;
+        fs[n++] = fx;
+    }
+    if (!base_done) {
+        xs[n] = base;
+        fs[n++] = f0;
+    }
+    double x_lo = xs[0], x_hi = xs[n - 1];
+    for (size_t i = 1; i < n && res->n_crossings < PLUMB_LIMIT_MAX_CROSSINGS; i++) {
+        if ((fs[i - 1] > 0.0) == (fs[i] > 0.0))
+            continue;
+        double root = NAN;
+        st = brent(&c, xs[i - 1], fs[i - 1], xs[i], fs[i], opt->rel_tol, &root);
+        if (st != PLUMB_OK)
+            return st;
+        res->crossings_si[res->n_crossings++] = root;
     }
     res->evaluations = c.evals;
-    if (isnan(b)) {
-        double x_hi = isnan(edge[0]) ? base : edge[0], x_lo = isnan(edge[1]) ? base : edge[1];
-        if (f0 <= 0.0) {
-            res->outcome = PLUMB_LIMIT_UNLIMITED;
-            double vt = 0.0;
-            plumb_atmosphere *atm = NULL;
-            if (strcmp(key, "release.height") == 0 && metric != PLUMB_METRIC_DRIFT &&
-                plumb_atmosphere_alloc(plumb_profile_atmosphere(profile), &atm, NULL) == PLUMB_OK &&
-                plumb_terminal_speed(spec, atm, 0.0, 1, &vt) == PLUMB_OK) {
-                double e = 0.5 * spec->mass_kg * vt * vt;
-                snprintf(res->explanation, sizeof res->explanation,
-                         "terminal speed (%.4g m/s, %.4g J at the strike level) keeps the %s below "
-                         "the limit at any height: %s is unlimited up to %.6g m",
-                         vt, e, metric_name(metric), key, x_hi);
-            } else {
-                snprintf(res->explanation, sizeof res->explanation,
-                         "the %s stays below the limit of %.6g %s for every %s from %.6g to %.6g "
-                         "(SI): no value of it breaks the limit",
-                         metric_name(metric), limit, metric_unit(metric), key, x_lo, x_hi);
-            }
-            plumb_atmosphere_free(atm);
-        } else {
-            res->outcome = PLUMB_LIMIT_IMPOSSIBLE;
+    res->within_at_low_end = fs[0] <= 0.0;
+    if (res->n_crossings == 0) {
+        res->outcome = fs[0] <= 0.0 ? PLUMB_LIMIT_UNLIMITED : PLUMB_LIMIT_IMPOSSIBLE;
+        if (res->outcome == PLUMB_LIMIT_UNLIMITED)
             snprintf(res->explanation, sizeof res->explanation,
-                     "the %s exceeds the limit of %.6g %s for every %s from %.6g to %.6g (SI)%s",
-                     metric_name(metric), limit, metric_unit(metric), key, x_lo, x_hi,
-                     strcmp(key, "release.height") == 0 ? ": even at (almost) zero height the limit is exceeded" : "");
-        }
+                     "the %s stays below the limit of %.6g %s for every %s scanned from %.6g to "
+                     "%.6g %s (%zu values); at the top of that range it is %.6g %s%s",
+                     metric_name(metric), limit, metric_unit(metric), key, x_lo, x_hi, unit, n,
+                     fs[n - 1] + limit, metric_unit(metric),
+                     strcmp(key, "release.height") == 0
+                         ? ", levelling off as the fall reaches its terminal speed"
+                         : "");
+        else
+            snprintf(res->explanation, sizeof res->explanation,
+                     "the %s exceeds the limit of %.6g %s for every %s scanned from %.6g to %.6g "
+                     "%s (%zu values)%s",
+                     metric_name(metric), limit, metric_unit(metric), key, x_lo, x_hi, unit, n,
+                     strcmp(key, "release.height") == 0
+                         ? ": even at (almost) zero height the limit is exceeded"
+                         : "");
         return PLUMB_OK;
     }
-    double root = NAN;
-    st = brent(&c, a, fa, b, fb, opt->rel_tol, &root);
-    res->evaluations = c.evals;
-    if (st != PLUMB_OK)
-        return st;
+    /* The answer: the crossing nearest the profile's own value. */
+    size_t best = 0;
+    for (size_t k = 1; k < res->n_crossings; k++) {
+        double dk = fabs(r.kind == RANGE_POSITIVE ? log(res->crossings_si[k] / base)
+                                                  : res->crossings_si[k] - base);
+        double db = fabs(r.kind == RANGE_POSITIVE ? log(res->crossings_si[best] / base)
+                                                  : res->crossings_si[best] - base);
+        if (dk < db)
+            best = k;
+    }
+    double root = res->crossings_si[best];
     double froot = eval_at(root, &c);
     res->evaluations = c.evals;
     if (c.fail != PLUMB_OK)
@@ -352,11 +368,30 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     res->outcome = PLUMB_LIMIT_FOUND;
     res->value_si = root;
     res->metric_at_value = froot + limit;
-    res->increasing = (fb - fa) * (b - a) > 0.0;
-    res->limit_is_upper_bound = res->increasing;
-    snprintf(res->explanation, sizeof res->explanation,
-             "%s = %.6g (SI) gives the limit, %s %.6g %s; %s values stay within it",
-             key, root, metric_name(metric), froot + limit, metric_unit(metric),
-             res->increasing ? "lower" : "higher");
+    /* within below the answer when the number of crossings below it and
+     * the low end's verdict say so */
+    int within = res->within_at_low_end;
+    for (size_t k = 0; k < best; k++)
+        within = !within;
+    res->limit_is_upper_bound = within;
+    res->increasing = within;
+    if (res->n_crossings == 1) {
+        snprintf(res->explanation, sizeof res->explanation,
+                 "%s = %.6g %s gives the limit, %s %.6g %s; %s values stay within it (scanned "
+                 "from %.6g to %.6g %s)",
+                 key, root, unit, metric_name(metric), froot + limit, metric_unit(metric),
+                 within ? "lower" : "higher", x_lo, x_hi, unit);
+    } else {
+        char list[PLUMB_LIMIT_TEXT / 2] = "";
+        size_t len = 0;
+        for (size_t k = 0; k < res->n_crossings && len + 32 < sizeof list; k++)
+            len += (size_t)snprintf(list + len, sizeof list - len, "%s%.6g", k ? ", " : "",
+                                    res->crossings_si[k]);
+        snprintf(res->explanation, sizeof res->explanation,
+                 "the %s is not monotonic in %s: it crosses the limit at %s %s (scanned from "
+                 "%.6g to %.6g %s); %s below the first crossing, and alternately beyond",
+                 metric_name(metric), key, list, unit, x_lo, x_hi, unit,
+                 res->within_at_low_end ? "within" : "exceeded");
+    }
     return PLUMB_OK;
 }

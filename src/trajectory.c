@@ -120,10 +120,8 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
          * edge, so the stepper's error control, not a failed evaluation,
          * rejects the step. Accepted points are checked in observe(). */
         alt = alt < c->air_lo_m ? c->air_lo_m : alt > c->air_hi_m ? c->air_hi_m : NAN;
-        if (isnan(alt)) {
-            c->fail = PLUMB_EOUTSIDE;
-            return GSL_EBADFUNC; /* a NaN state: nothing to retry */
-        }
+        if (isnan(alt))
+            return GSL_EDOM; /* a stage of an unstable step overflowed: retry shorter */
     }
     if (plumb_atmosphere_at(c->atm, alt, &L->air) != PLUMB_OK) {
         c->fail = PLUMB_EOUTSIDE;
@@ -163,6 +161,8 @@ static int rhs_time(double t, const double y[], double f[], void *params)
     int rc = local_at(c, t, y, &L);
     if (rc != GSL_SUCCESS)
         return rc;
+    if (!isfinite(L.vr_abs) || !isfinite(y[IVZ]))
+        return GSL_EDOM; /* as above: retry shorter */
     double k = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * c->inv_m;
     f[IX] = y[IVX];
     f[IY] = y[IVY];
@@ -553,6 +553,10 @@ static plumb_status track_peak(runner *r, double force)
 /* Records what is observed at an accepted point: Mach, Re, drag force, path. */
 static plumb_status observe(runner *r)
 {
+    for (int i = 0; i < NSTATE; i++)
+        if (!isfinite(r->y[i]))
+            return PLUMB_RAISE(r->diag, PLUMB_ENUMERIC,
+                               "the integration produced a non-finite state at t=%.2f s", r->t);
     double alt = r->ctx->spec->site_elevation_m + r->y[IZ];
     if (!(alt >= r->ctx->air_lo_m && alt <= r->ctx->air_hi_m))
         return PLUMB_RAISE(r->diag, PLUMB_EOUTSIDE,

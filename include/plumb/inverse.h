@@ -3,11 +3,16 @@
  * limit on the fall is just met ("how high is too high", "how big a
  * canopy", "how much wind").
  *
- * Method: f(x) = metric(fall at x) - limit. Starting from the profile's
- * own value, the key is stepped geometrically up and down inside its
- * physical range until f changes sign (bracketing), then Brent's method
+ * Method: f(x) = metric(fall at x) - limit. The key is scanned over its
+ * range (61 values: geometric over three decades either way of the
+ * profile's own value for a positive quantity, linear over the physical
+ * range otherwise), and every change of sign is refined by Brent's method
  * (GSL gsl_root_fsolver_brent; R. P. Brent, Algorithms for Minimization
- * without Derivatives, 1973) narrows the bracket to rel_tol. Each
+ * without Derivatives, 1973) to rel_tol. A metric need not be monotonic in
+ * its key (a canopy opens only above some height; wind adds to the impact
+ * speed): all crossings are reported, and the answer is the one nearest
+ * the profile's own value. A window narrower than the scan's spacing can
+ * be missed; the explanation says what was scanned. Each
  * evaluation is a full fall of the profile derived with KEY set to x, so
  * the answer is exactly what `plumb fall --set KEY=x` gives.
  * Where no value in the range meets the limit the result says why in
@@ -42,7 +47,7 @@ typedef struct plumb_limit_options {
     size_t max_evaluations;    /* falls allowed in all, default 200 */
 } plumb_limit_options;
 
-enum { PLUMB_LIMIT_TEXT = 512 };
+enum { PLUMB_LIMIT_TEXT = 512, PLUMB_LIMIT_MAX_CROSSINGS = 8 };
 
 typedef struct plumb_limit_result {
     plumb_limit_outcome outcome;  /* found, unlimited or impossible */
@@ -51,8 +56,11 @@ typedef struct plumb_limit_result {
     double metric_at_value;       /* the metric there (found) */
     double base_value_si;         /* the profile's own value of the key */
     double metric_at_base;        /* the metric at the profile's own value */
-    int increasing;               /* 1: the metric grows with the key near the answer */
-    int limit_is_upper_bound;     /* 1: values below value_si meet the limit */
+    int increasing;               /* 1: the metric grows with the key through the answer */
+    int limit_is_upper_bound;     /* 1: values just below value_si meet the limit */
+    size_t n_crossings;           /* values where the metric crosses the limit (found) */
+    double crossings_si[PLUMB_LIMIT_MAX_CROSSINGS]; /* in increasing order */
+    int within_at_low_end;        /* 1: the lowest value scanned meets the limit */
     size_t evaluations;           /* falls computed */
     char explanation[PLUMB_LIMIT_TEXT]; /* why, in words (every outcome) */
 } plumb_limit_result;
