@@ -228,7 +228,7 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
 
     if (r->max_mach > WARN_MACH)
         add_warning(item,
-                    "The air speed reaches Mach %.2f on the way down (above %.1f): the drag "
+                    "The air speed reaches Mach %.2f on the way (above %.1f): the drag "
                     "coefficient, measured in slower air, no longer holds, so the speed and "
                     "energy are less certain.", r->max_mach, WARN_MACH);
     const plumb_drag_spec *d = &item->spec->drag;
@@ -949,6 +949,17 @@ static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t si
                  num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG));
 }
 
+/* How sure the criterion's figure is, when it is not read in the source
+ * itself (criteria files: seen | transcribed | memory). */
+static const char *status_note(const plumb_criterion *c)
+{
+    if (strcmp(c->status, "memory") == 0)
+        return "figure from memory, not confirmed in the source";
+    if (strcmp(c->status, "transcribed") == 0)
+        return "figure transcribed from a copy of the source";
+    return "";
+}
+
 static void text_verdicts(writer *w, const plumb_item_report *it)
 {
     if (it->n_verdicts == 0) {
@@ -965,9 +976,9 @@ static void text_verdicts(writer *w, const plumb_item_report *it)
         snprintf(line, sizeof line, "%s, ratio %s%s", lim, num(w, v->ratio, RATIO_SIG),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "");
         wrapped(w, "           ", line);
-        char src[PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 32];
-        snprintf(src, sizeof src, "%s [%s]", c->source[0] ? c->source : "source not given",
-                 c->id);
+        char src[PLUMB_CRIT_TEXT + 2 * PLUMB_CRIT_ID + 64];
+        snprintf(src, sizeof src, "%s [%s]%s%s%s", c->source[0] ? c->source : "source not given",
+                 c->id, status_note(c)[0] ? " (" : "", status_note(c), status_note(c)[0] ? ")" : "");
         wrapped(w, "           source: ", src);
     }
 }
@@ -976,8 +987,11 @@ static void text_comparison(writer *w, const plumb_item_report *it)
 {
     const plumb_fall_result *r = &it->result;
     put(w, "\nFor comparison\n");
-    put(w, "  terminal speed   %s in still air at the strike level%s\n",
-        t_speed(w, r->terminal_speed_m_s), si_bracket(w, r->terminal_speed_m_s, "m/s"));
+    if (r->terminal_speed_m_s > 0.0)
+        put(w, "  terminal speed   %s in still air at the strike level%s\n",
+            t_speed(w, r->terminal_speed_m_s), si_bracket(w, r->terminal_speed_m_s, "m/s"));
+    else
+        put(w, "  terminal speed   none: without drag the speed grows without bound\n");
     put(w, "  without drag     %s, %s\n", t_speed(w, r->drag_free_speed_m_s),
         t_energy(w, r->drag_free_energy_j));
     if (r->drag_free_energy_j > 0.0 && r->drag_work_j != 0.0)
@@ -1504,7 +1518,7 @@ static void csv_item_row(writer *w, const plumb_item_report *it)
             csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
             csvnum(w, r->drift_m / ft), csvnum(w, r->bearing_deg),
             csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
-            csvnum(w, r->terminal_speed_m_s / ft));
+            r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s / ft) : "");
         /* The ring holds RING numbers: the rest in a second call. */
         put(w, ",%s,%s,%s", csvnum(w, r->apex_m / ft), csvnum(w, r->drag_free_speed_m_s / ft),
             csvnum(w, r->drag_free_energy_j / PLUMB_FT_LBF_J));
@@ -1514,7 +1528,7 @@ static void csv_item_row(writer *w, const plumb_item_report *it)
             csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
             csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
             csvnum(w, r->bearing_deg), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
-            csvnum(w, r->terminal_speed_m_s));
+            r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s) : "");
         put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
             csvnum(w, r->drag_free_energy_j));
     }
@@ -1533,9 +1547,9 @@ static void csv_fall(writer *w, const plumb_fall_report *rep)
     csv_comment(w, text);
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
-        snprintf(text, sizeof text, "criterion %s: %s, kind %s, limit %.*g J, source: %s", c->id,
-                 c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
-                 c->source[0] ? c->source : "not given");
+        snprintf(text, sizeof text, "criterion %s: %s, kind %s, limit %.*g J, source: %s, status %s",
+                 c->id, c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }
     each_warning(w, rep, csv_warning_line);
@@ -1808,7 +1822,10 @@ static void j_item_into(jctx *j, json_t *o, const plumb_item_report *it, const p
     const plumb_fall_result *r = &it->result;
     jset(j, o, "name", jstr(j, it->spec->name));
     jset(j, o, "impact", j_impact(j, r));
-    jset(j, o, "terminal_speed_m_s", jreal(j, r->terminal_speed_m_s));
+    /* null when there is no terminal speed (no drag, or buoyancy at least
+     * the weight); never a made-up number */
+    jset(j, o, "terminal_speed_m_s",
+         r->terminal_speed_m_s > 0.0 ? jreal(j, r->terminal_speed_m_s) : json_null());
     jset(j, o, "apex_m", jreal(j, r->apex_m));
     json_t *df = jobj(j);
     jset(j, df, "speed_m_s", jreal(j, r->drag_free_speed_m_s));
@@ -2195,6 +2212,66 @@ static const char *ratio_cell(writer *w, const plumb_verdict *v)
     return b;
 }
 
+/* Calls fn once for each distinct warning of any row and item of a sweep,
+ * with the number of rows it appears in. */
+static void each_sweep_warning(writer *w, const plumb_sweep *sw,
+                               void (*fn)(writer *w, const char *text, size_t rows, size_t of))
+{
+    size_t nr = plumb_sweep_row_count(sw);
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, i)->report;
+        for (size_t it = 0; it < rep->n_items; it++) {
+            const plumb_item_report *item = &rep->items[it];
+            for (size_t k = 0; k < item->n_warnings; k++) {
+                const char *text = item->warnings[k];
+                int seen = 0; /* already reported from an earlier row or item */
+                for (size_t j = 0; j <= i && !seen; j++) {
+                    const plumb_fall_report *rj = &plumb_sweep_row_at(sw, j)->report;
+                    size_t last = j < i ? rj->n_items : it;
+                    for (size_t t = 0; t < last && !seen; t++)
+                        seen = item_has_warning(&rj->items[t], text);
+                }
+                if (seen)
+                    continue;
+                size_t rows = 0;
+                for (size_t j = 0; j < nr; j++) {
+                    const plumb_fall_report *rj = &plumb_sweep_row_at(sw, j)->report;
+                    int in = 0;
+                    for (size_t t = 0; t < rj->n_items && !in; t++)
+                        in = item_has_warning(&rj->items[t], text);
+                    rows += (size_t)in;
+                }
+                fn(w, text, rows, nr);
+            }
+        }
+    }
+}
+
+static void text_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
+{
+    char line[PLUMB_WARNING + 64];
+    snprintf(line, sizeof line, "%s (%zu of %zu rows)", text, rows, of);
+    wrapped(w, "  - ", line);
+}
+
+static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
+{
+    char line[PLUMB_WARNING + 64];
+    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
+    csv_comment(w, line);
+}
+
+static int sweep_has_warnings(const plumb_sweep *sw)
+{
+    for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
+        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, i)->report;
+        for (size_t it = 0; it < rep->n_items; it++)
+            if (rep->items[it].n_warnings)
+                return 1;
+    }
+    return 0;
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
@@ -2205,9 +2282,12 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     text_header(w, opt, "sweep", plumb_profile_name(p));
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)\n", a ? "and" : "over",
-            ax->key, gnum(w, ax->from, 10), gnum(w, ax->to, 10), ax->unit[0] ? " " : "",
-            ax->unit, gnum(w, ax->step, 10), ax->unit[0] ? " " : "", ax->unit, ax->n);
+        double last = plumb_range_value(ax, ax->n - 1);
+        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s\n",
+            a ? "and" : "over", ax->key, gnum(w, ax->from, 10), gnum(w, last, 10),
+            ax->unit[0] ? " " : "", ax->unit, gnum(w, ax->step, 10), ax->unit[0] ? " " : "",
+            ax->unit, ax->n, last < ax->to ? "; the steps stop short of " : "",
+            last < ax->to ? gnum(w, ax->to, 10) : "");
     }
     put(w, "\n");
     for (size_t a = 0; a < na; a++)
@@ -2242,8 +2322,11 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             for (size_t a = 0; a < na; a++)
                 pad(w, it == 0 ? gnum(w, row->value[a], 8) : "", SWEEP_KEY_COL, 1);
             if (inv) {
-                char name[20];
-                snprintf(name, sizeof name, "%.18s", item->spec->name);
+                char name[PLUMB_NAME + 4];
+                if (shown_width(item->spec->name) > 18)
+                    snprintf(name, sizeof name, "%.17s~", item->spec->name);
+                else
+                    snprintf(name, sizeof name, "%s", item->spec->name);
                 put(w, "  %-18s", name);
             }
             double e1 = w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j;
@@ -2290,6 +2373,10 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
     }
     text_criteria_legend(w, first);
+    if (sweep_has_warnings(sw)) {
+        put(w, "\nWarnings\n");
+        each_sweep_warning(w, sw, text_sweep_warning);
+    }
     put(w, "\nEach row is exactly what `plumb fall` gives with --set at that value.\n");
     text_profile(w, p);
     caution_lines_text(w);
@@ -2308,10 +2395,12 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
     const plumb_item_report *first = &r0->report.items[0];
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
-        snprintf(text, sizeof text, "criterion %s: %s, limit %.*g J, source: %s", c->id, c->name,
-                 CSV_DIGITS, c->energy_limit_j, c->source[0] ? c->source : "not given");
+        snprintf(text, sizeof text, "criterion %s: %s, limit %.*g J, source: %s, status %s", c->id,
+                 c->name, CSV_DIGITS, c->energy_limit_j, c->source[0] ? c->source : "not given",
+                 c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }
+    each_sweep_warning(w, sw, csv_sweep_warning);
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "", ax->unit);
@@ -2359,7 +2448,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
             jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, row->value[a]));
             jset(j, vals_si, plumb_sweep_axis(sw, a)->key, jreal(j, row->value_si[a]));
         }
-        jset(j, o, "values", vals);
+        jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */
         jset(j, o, "values_si", vals_si);
         if (!plumb_profile_is_inventory(rep->profile)) {
             j_item_into(j, o, &rep->items[0], rep->profile, &ia[i][0]);
@@ -2432,6 +2521,16 @@ static const char *metric_key(plumb_metric m)
                                                                                : "energy_max_j";
 }
 
+static const char *metric_stem(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "speed" : m == PLUMB_METRIC_DRIFT ? "drift" : "energy";
+}
+
+static const char *metric_unit_key(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "m_s" : m == PLUMB_METRIC_DRIFT ? "m" : "j";
+}
+
 static const char *t_metric(writer *w, plumb_metric m, double x)
 {
     return m == PLUMB_METRIC_SPEED ? t_speed(w, x) : m == PLUMB_METRIC_DRIFT ? t_len(w, x)
@@ -2470,10 +2569,27 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
             put(w, "%s\n", plumb_profile_item(p, i)->name);
         if (r->outcome == PLUMB_LIMIT_FOUND) {
             put(w, "  %s = %s\n", rep->key, t_value(w, r->dim, r->value_si));
-            snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit.",
+            snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
                      metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
-                     r->limit_is_upper_bound ? "lower" : "higher");
+                     r->limit_is_upper_bound ? "lower" : "higher",
+                     r->n_crossings < 2           ? "."
+                     : r->limit_is_upper_bound ? ", down to the next crossing."
+                                               : ", up to the next crossing.");
             wrapped(w, "  ", text);
+            if (r->n_crossings > 1) {
+                char list[PLUMB_LIMIT_TEXT];
+                size_t len = 0;
+                list[0] = '\0';
+                for (size_t k = 0; k < r->n_crossings && len + NUMBUF < sizeof list; k++)
+                    len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", k ? ", " : "",
+                                            t_value(w, r->dim, r->crossings_si[k]));
+                snprintf(text, sizeof text,
+                         "the %s is not monotonic in %s: it crosses the limit at %s; %s at the "
+                         "low end of the range and alternately between the crossings.",
+                         metric_word(rep->metric), rep->key, list,
+                         r->within_at_low_end ? "within" : "exceeded");
+                wrapped(w, "  ", text);
+            }
         } else {
             put(w, "  %s: %s\n", rep->key,
                 r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"
@@ -2497,7 +2613,7 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
              plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
     csv_comment(w, text);
     put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
-           "base_value_si,metric_at_base_si,evaluations,explanation\n");
+           "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
         shown v = show_dim(w, r->dim, r->value_si);
@@ -2506,9 +2622,9 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
         csv_field(w, rep->key);
         put(w, ",%s,%s,", outcome_word(r->outcome), csvnum(w, v.x));
         csv_field(w, v.unit);
-        put(w, ",%s,%s,%s,%s,%s,%s,%zu,", csvnum(w, r->value_si), metric_word(rep->metric),
+        put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", csvnum(w, r->value_si), metric_word(rep->metric),
             csvnum(w, rep->limit), csvnum(w, r->metric_at_value), csvnum(w, r->base_value_si),
-            csvnum(w, r->metric_at_base), r->evaluations);
+            csvnum(w, r->metric_at_base), r->n_crossings, r->evaluations);
         csv_field(w, r->explanation);
         put(w, "\n");
     }
@@ -2532,13 +2648,24 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
         const char *u = plumb_dim_si_unit(r->dim);
         jset(j, o, "name", jstr(j, plumb_profile_item(rep->profile, i)->name));
         jset(j, o, "outcome", jstr(j, outcome_word(r->outcome)));
+        char k_value[64], k_base[64];
+        snprintf(k_value, sizeof k_value, "%s_at_value_%s", metric_stem(rep->metric),
+                 metric_unit_key(rep->metric));
+        snprintf(k_base, sizeof k_base, "%s_at_base_%s", metric_stem(rep->metric),
+                 metric_unit_key(rep->metric));
+        /* the key's value: in the SI unit named by unit_si (it varies with the key) */
         if (r->outcome == PLUMB_LIMIT_FOUND) {
             jset(j, o, "value_si", jreal(j, r->value_si));
-            jset(j, o, "metric_at_value", jreal(j, r->metric_at_value));
+            jset(j, o, k_value, jreal(j, r->metric_at_value));
+            json_t *cr = jarr(j);
+            for (size_t k = 0; k < r->n_crossings; k++)
+                jpush(j, cr, jreal(j, r->crossings_si[k]));
+            jset(j, o, "crossings_si", cr);
         }
         jset(j, o, "unit_si", jstr(j, strcmp(u, "1") == 0 ? "" : u));
         jset(j, o, "base_value_si", jreal(j, r->base_value_si));
-        jset(j, o, "metric_at_base", jreal(j, r->metric_at_base));
+        jset(j, o, k_base, jreal(j, r->metric_at_base));
+        jset(j, o, "within_at_low_end", json_boolean(r->within_at_low_end));
         jset(j, o, "lower_values_meet_limit",
              json_boolean(r->outcome == PLUMB_LIMIT_FOUND && r->limit_is_upper_bound));
         jset(j, o, "evaluations", json_integer((json_int_t)r->evaluations));

@@ -70,7 +70,7 @@ def sweep_rows_equal_falls(profile, varies, units=None):
     check(bool(d.get("cautions")), "sweep JSON carries the cautions")
     vary_units = {v["key"]: v["unit"] for v in d["vary"]}
     for row in d["rows"]:
-        sets = [f"{k}={v!r} {vary_units[k]}".rstrip() for k, v in row["values"].items()]
+        sets = [f"{k}={v!r} {vary_units[k]}".rstrip() for k, v in row["values_as_given"].items()]
         f = fall_json(profile, *sets)
         if "items" in f:
             ok = all(figures(a) == figures(b) for a, b in zip(row["items"], f["items"]))
@@ -78,7 +78,7 @@ def sweep_rows_equal_falls(profile, varies, units=None):
         else:
             ok = all(row[k] == f[k] for k in ("impact", "criteria", "terminal_speed_m_s",
                                               "apex_m", "drag_free", "solver"))
-        check(ok, f"sweep row {row['values']} of {os.path.basename(profile)} equals plumb fall")
+        check(ok, f"sweep row {row['values_as_given']} of {os.path.basename(profile)} equals plumb fall")
 
 
 def limit_meets(profile, key, flag, limit, metric, unit, expect_unlimited=()):
