@@ -28,6 +28,9 @@
 
 static const char *const crit_kinds[] = {"limit", "helmet-test"};
 static const char *const crit_statuses[] = {"seen", "transcribed", "memory"};
+/* When the limit counts as exceeded: energy above it (the default), or at
+ * or above it, for a criterion worded "less than" (EU 2019/945 C1). */
+static const char *const crit_exceeded[] = {"above", "at-or-above"};
 
 static const plumby_schema crit_keys[] = {
     {"name", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
@@ -38,6 +41,8 @@ static const plumby_schema crit_keys[] = {
     {"source", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
     {"status", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_statuses,
      ARRAY_LEN(crit_statuses)},
+    {"exceeded_when", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_exceeded,
+     ARRAY_LEN(crit_exceeded)},
 };
 static const plumby_schema crit_schema = {
     "", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, crit_keys, ARRAY_LEN(crit_keys), NULL, 0};
@@ -82,7 +87,8 @@ void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verd
     out->criterion = c;
     out->energy_j = energy_j;
     out->ratio = c && c->energy_limit_j > 0.0 ? energy_j / c->energy_limit_j : 0.0;
-    out->exceeds = c ? energy_j > c->energy_limit_j : 0;
+    out->exceeds = c ? (c->strict ? energy_j >= c->energy_limit_j : energy_j > c->energy_limit_j)
+                     : 0;
 }
 
 static int by_name(const void *a, const void *b)
@@ -112,7 +118,7 @@ static plumb_status load_one(const char *path, const char *stem, const plumb_uni
         return st;
     plumby_ctx ctx = {path, units, diag};
     plumby_map m;
-    int kind = 0, status = 0;
+    int kind = 0, status = 0, exceeded = 0;
     memset(c, 0, sizeof *c);
     plumbp_strlcpy(c->id, stem, sizeof c->id);
     plumby_map_init(&m, &ctx, tree, &crit_schema, "");
@@ -123,11 +129,13 @@ static plumb_status load_one(const char *path, const char *stem, const plumb_uni
         (st = plumby_text(&m, "applies_to", NULL, c->applies_to, sizeof c->applies_to)) !=
             PLUMB_OK ||
         (st = plumby_text(&m, "source", NULL, c->source, sizeof c->source)) != PLUMB_OK ||
-        (st = plumby_word(&m, "status", -1, &status)) != PLUMB_OK) {
+        (st = plumby_word(&m, "status", -1, &status)) != PLUMB_OK ||
+        (st = plumby_word(&m, "exceeded_when", 0, &exceeded)) != PLUMB_OK) {
         plumby_free(tree);
         return st;
     }
     c->kind = kind == 0 ? PLUMB_CRIT_LIMIT : PLUMB_CRIT_HELMET_TEST;
+    c->strict = exceeded == 1;
     plumbp_strlcpy(c->status, crit_statuses[status], sizeof c->status);
     plumby_free(tree);
     return PLUMB_OK;

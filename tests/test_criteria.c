@@ -178,6 +178,30 @@ static void test_bundled_part_107_category_3_limit_is_25_ft_lbf(void **state)
     plumb_criteria_free(set);
 }
 
+static void test_eu_c1_less_than_80_j_is_exceeded_at_exactly_80_j(void **state)
+{
+    (void)state;
+    /* Commission Delegated Regulation (EU) 2019/945, Annex Part 2: "less
+     * than 80 J"; 14 CFR 107.130(a)(1): "would not ... exceed 25 ft-lbs". */
+    char dir[PATH_LEN];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    plumb_criteria *set;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_OK);
+    const plumb_criterion *eu = plumb_criteria_find(set, "eu-c1-80j");
+    const plumb_criterion *us = plumb_criteria_find(set, "us-part107-cat3");
+    assert_non_null(eu);
+    assert_non_null(us);
+    plumb_verdict v;
+    plumb_criterion_judge(eu, 80.0, &v);
+    assert_int_equal(v.exceeds, 1);
+    plumb_criterion_judge(eu, 79.999, &v);
+    assert_int_equal(v.exceeds, 0);
+    plumb_criterion_judge(us, us->energy_limit_j, &v);
+    assert_int_equal(v.exceeds, 0);
+    plumb_criteria_free(set);
+}
+
 static void test_empty_directory_gives_an_empty_set(void **state)
 {
     (void)state;
@@ -361,6 +385,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_criteria_load_in_file_name_order_with_ids_from_the_stems),
         cmocka_unit_test(test_bundled_part_107_category_3_limit_is_25_ft_lbf),
+        cmocka_unit_test(test_eu_c1_less_than_80_j_is_exceeded_at_exactly_80_j),
         cmocka_unit_test(test_empty_directory_gives_an_empty_set),
         cmocka_unit_test(test_missing_directory_is_an_input_output_error),
         cmocka_unit_test(test_directory_named_like_a_criterion_is_refused),

@@ -11,7 +11,10 @@
  *     source: 14 CFR 107.130(a)(1)
  *     status: seen               # seen | transcribed | memory
  *
- * Verdict: ratio = energy / limit; "exceeds" when energy > limit, else
+ *     exceeded_when: above       # optional: above (default) | at-or-above
+ *
+ * Verdict: ratio = energy / limit; "exceeds" when energy > limit (or >=
+ * for exceeded_when: at-or-above, a limit worded "less than"), else
  * "within".
  *
  * Ownership: a plumb_criteria set owns its criteria; pointers returned by
@@ -39,6 +42,7 @@ typedef struct plumb_criterion {
     char applies_to[PLUMB_CRIT_TEXT];    /* what it applies to */
     char source[PLUMB_CRIT_TEXT];        /* published source */
     char status[PLUMB_CRIT_ID];          /* seen | transcribed | memory */
+    int strict;                          /* 1: reaching the limit exceeds it ("less than 80 J") */
 } plumb_criterion;
 
 typedef struct plumb_verdict {
