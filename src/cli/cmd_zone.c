@@ -1,0 +1,564 @@
+/*
+ * cmd_zone.c - `plumb zone PROFILE`: the Monte Carlo clearance zone of the
+ * profile's payload (or of each item of an inventory) over its
+ * `uncertainty:` distributions (design.md section 3; the method is in
+ * include/plumb/dispersion.h).
+ *
+ * Defaults come from the profile's `zone:` map; --samples, --seed,
+ * --threads, --confidence and --target override them. Every option is
+ * checked before anything runs; the report is made in memory and written
+ * (atomically, with -o) only when the whole run succeeded, and the
+ * --samples-out file is written to a temporary file beside its destination
+ * and renamed into place at the same moment.
+ * Progress goes to standard error only when it is a terminal, the run has
+ * taken more than PROGRESS_AFTER_S, and --quiet is not given.
+ */
+#include <errno.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <time.h>
+#include <unistd.h>
+
+#include "cli.h"
+#include "plumb/dispersion.h"
+
+/* The handler main.c's table calls (declared in cli.h with the others). */
+int cmd_zone(int argc, char **argv);
+
+/* Progress appears after this long, and is redrawn at most this often, s. */
+#define PROGRESS_AFTER_S 1.0
+#define PROGRESS_EVERY_S 0.25
+/* Most threads --threads accepts. */
+#define MAX_THREADS 1024u
+/* Largest seed: integers up to 2^53 - 1 read back exactly from JSON
+ * (IEEE 754 double, the number type of most JSON readers). */
+#define MAX_SEED 9007199254740991.0
+/* Digits of the per-sample CSV: 17 read back any double exactly. */
+#define SAMPLE_DIGITS 17
+/* Percent per unit fraction. */
+#define PERCENT 100.0
+
+static const char usage[] =
+    "Usage: plumb zone PROFILE [--samples N] [--seed S] [--threads T] [--confidence P]\n"
+    "                  [--target E,N] [--samples-out FILE] [OPTIONS]\n"
+    "The clearance zone below a drop, by Monte Carlo over the profile's uncertainty:\n"
+    "map: the impact-point cloud (mean, 95 % ellipse), the distance from the planned\n"
+    "drop point at 50, 90, 99 and 99.9 % with 95 % intervals, the clearance radius at\n"
+    "the confidence asked for (the upper bound of that percentile plus the profile's\n"
+    "zone.scatter allowance), impact energy percentiles, the probability of exceeding\n"
+    "each criterion, and beside them a radius equal to the drop height and the\n"
+    "drag-free throw. The figures are the same for any number of threads.\n"
+    "  --samples N        falls to compute, 1 to 100000000 (default: zone.samples)\n"
+    "  --seed S           random seed, 0 to 2^53-1 (default: zone.seed)\n"
+    "  --threads T        worker threads, 1 to 1024 (default: the processors online)\n"
+    "  --confidence P     the clearance radius's percentile, 0 < P < 1, or a percent\n"
+    "                     such as 99.9% (default: zone.confidence)\n"
+    "  --target E,N       the point the payload should land on, each with its unit,\n"
+    "                     e.g. --target 40m,-12m (default: zone.target): also gives the\n"
+    "                     release point that puts the median impact there, and the zone\n"
+    "                     of a run released there\n"
+    "  --samples-out FILE every sample's impact point, energy, speed and time as CSV\n"
+    "                     (SI units), in sample order\n"
+    "An inventory profile (items:) runs every item with the same samples and seed.\n"
+    "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
+    "on an error.\n";
+
+/* ---- option values ---------------------------------------------------------- */
+
+static plumb_status opt_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 3, 4)))
+#endif
+    ;
+
+static plumb_status opt_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+{
+    plumb_diag_clear(diag);
+    diag->status = PLUMB_EINVAL;
+    snprintf(diag->file, sizeof diag->file, "<command line>");
+    snprintf(diag->key, sizeof diag->key, "%s", option);
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    va_end(ap);
+    return PLUMB_EINVAL;
+}
+
+/* A whole number in [lo, hi]: digits, or a number in exponent form that is
+ * a whole number ("1e5"). */
+static plumb_status parse_whole(const char *option, const char *text, double lo, double hi,
+                                double *out, plumb_diag *diag)
+{
+    char *end = NULL;
+    errno = 0;
+    double v = text[0] == '\0' || text[0] == ' ' ? 0.0 : strtod(text, &end);
+    if (text[0] == '\0' || text[0] == ' ' || !end || *end != '\0' || errno == ERANGE ||
+        !(v == v) || v != (double)(long long)v || v < lo || v > hi)
+        return opt_error(diag, option, "expected a whole number from %.0f to %.0f, found '%s'", lo,
+                         hi, text);
+    *out = v;
+    return PLUMB_OK;
+}
+
+/* A fraction 0 < p < 1, or a percent "99.9%". */
+static plumb_status parse_confidence(const char *text, double *out, plumb_diag *diag)
+{
+    char *end = NULL;
+    errno = 0;
+    double v = text[0] ? strtod(text, &end) : 0.0;
+    int percent = end && *end == '%' && end[1] == '\0';
+    if (!text[0] || !end || (*end != '\0' && !percent) || errno == ERANGE)
+        return opt_error(diag, "--confidence", "expected a fraction such as 0.99 or a percent "
+                                               "such as 99%%, found '%s'", text);
+    if (percent)
+        v /= PERCENT;
+    if (!(v > 0.0 && v < 1.0))
+        return opt_error(diag, "--confidence", "expected 0 < confidence < 1 (0 %% to 100 %%), "
+                                               "found '%s'", text);
+    *out = v;
+    return PLUMB_OK;
+}
+
+/* The unit part of "NUMBER UNIT", spaces trimmed, into buf. */
+static void unit_part(const char *text, char *buf, size_t size)
+{
+    char *end = NULL;
+    (void)strtod(text, &end);
+    const char *u = end ? end : text;
+    while (*u == ' ')
+        u++;
+    snprintf(buf, size, "%s", u);
+    size_t n = strlen(buf);
+    while (n > 0 && buf[n - 1] == ' ')
+        buf[--n] = '\0';
+}
+
+/* "E,N", each a length with its unit, both in the same unit. */
+static plumb_status parse_target(const plumb_units *units, const char *text, double out[2],
+                                 plumb_diag *diag)
+{
+    const char *comma = strchr(text, ',');
+    if (!comma || strchr(comma + 1, ','))
+        return opt_error(diag, "--target", "expected EAST,NORTH with units, e.g. 40m,-12m, "
+                                           "found '%s'", text);
+    char part[2][PLUMB_DIAG_MSG / 2];
+    snprintf(part[0], sizeof part[0], "%.*s", (int)(comma - text), text);
+    snprintf(part[1], sizeof part[1], "%s", comma + 1);
+    char unit[2][64];
+    for (int k = 0; k < 2; k++) {
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        if (plumb_units_parse(units, part[k], PLUMB_DIM_LENGTH, &out[k], &d) != PLUMB_OK)
+            return opt_error(diag, "--target", "%s: %s", k == 0 ? "east" : "north",
+                             d.message[0] ? d.message : "expected a length with its unit");
+        unit_part(part[k], unit[k], sizeof unit[k]);
+    }
+    if (strcmp(unit[0], unit[1]) != 0)
+        return opt_error(diag, "--target", "east and north in different units ('%s' and '%s'); "
+                                           "give both in one unit", unit[0], unit[1]);
+    return PLUMB_OK;
+}
+
+/* ---- progress ---------------------------------------------------------------- */
+
+typedef struct progress_ctx {
+    struct timespec start, last;
+    int shown;                /* something is on the line */
+    size_t item, n_items;
+    int passes;               /* 1, or 2 with a target */
+} progress_ctx;
+
+static double since(const struct timespec *a, const struct timespec *b)
+{
+    return (double)(b->tv_sec - a->tv_sec) + 1e-9 * (double)(b->tv_nsec - a->tv_nsec);
+}
+
+static void progress(void *user, int pass, size_t done, size_t total)
+{
+    progress_ctx *p = user;
+    struct timespec now;
+    if (clock_gettime(CLOCK_MONOTONIC, &now) != 0)
+        return;
+    if (since(&p->start, &now) < PROGRESS_AFTER_S ||
+        (p->shown && since(&p->last, &now) < PROGRESS_EVERY_S && done < total))
+        return;
+    p->last = now;
+    p->shown = 1;
+    char where[64] = "";
+    if (p->n_items > 1)
+        snprintf(where, sizeof where, "item %zu of %zu, ", p->item + 1, p->n_items);
+    if (p->passes > 1)
+        snprintf(where + strlen(where), sizeof where - strlen(where), "%s, ",
+                 pass == 0 ? "planned release" : "released for the target");
+    fprintf(stderr, "\rplumb zone: %s%3.0f %% (%zu of %zu samples)  ", where,
+            PERCENT * (double)done / (double)total, done, total);
+    fflush(stderr);
+}
+
+static void progress_clear(progress_ctx *p)
+{
+    if (p->shown) {
+        fprintf(stderr, "\r%79s\r", "");
+        fflush(stderr);
+    }
+    p->shown = 0;
+}
+
+/* ---- the per-sample file -------------------------------------------------- */
+
+typedef struct samples_file {
+    const char *path;         /* destination */
+    char tmp[CLI_PATH_MAX];   /* temporary beside it */
+    FILE *f;
+    const char *item;         /* current item name */
+    int failed;
+} samples_file;
+
+static plumb_status samples_open(samples_file *s, plumb_diag *diag)
+{
+    const char *slash = strrchr(s->path, '/');
+    const char *base = slash ? slash + 1 : s->path;
+    int n;
+    if (!slash)
+        n = snprintf(s->tmp, sizeof s->tmp, "./.%s.XXXXXX", base);
+    else
+        n = snprintf(s->tmp, sizeof s->tmp, "%.*s/.%s.XXXXXX", (int)(slash - s->path), s->path, base);
+    if (*base == '\0' || n < 0 || (size_t)n >= sizeof s->tmp)
+        return opt_error(diag, "--samples-out", "cannot write '%s'", s->path);
+    int fd = mkstemp(s->tmp);
+    if (fd < 0) {
+        plumb_diag_clear(diag);
+        diag->status = PLUMB_EIO;
+        snprintf(diag->file, sizeof diag->file, "%s", s->path);
+        snprintf(diag->message, sizeof diag->message, "cannot create a temporary file beside it: %s",
+                 strerror(errno));
+        s->tmp[0] = '\0';
+        return PLUMB_EIO;
+    }
+    s->f = fdopen(fd, "w");
+    if (!s->f) {
+        close(fd);
+        unlink(s->tmp);
+        s->tmp[0] = '\0';
+        plumb_diag_clear(diag);
+        diag->status = PLUMB_ENOMEM;
+        snprintf(diag->message, sizeof diag->message, "out of memory");
+        return PLUMB_ENOMEM;
+    }
+    size_t nc;
+    const char *const *c = plumb_cautions(&nc);
+    for (size_t i = 0; i < nc; i++)
+        fprintf(s->f, "# %s\n", c[i]);
+    fprintf(s->f, "# every sample of plumb zone, in sample order, SI units; pass 0 is released at "
+                  "the planned point, pass 1 at the point aimed at the target\n"
+                  "item,pass,sample,east_m,north_m,energy_j,speed_m_s,time_s\n");
+    return PLUMB_OK;
+}
+
+static void csv_text(FILE *f, const char *s)
+{
+    if (!strpbrk(s, ",\"\r\n")) {
+        fputs(s, f);
+        return;
+    }
+    fputc('"', f);
+    for (const char *p = s; *p; p++) {
+        if (*p == '"')
+            fputc('"', f);
+        fputc(*p, f);
+    }
+    fputc('"', f);
+}
+
+static int samples_row(void *user, int pass, size_t index, const plumb_zone_sample *smp)
+{
+    samples_file *s = user;
+    csv_text(s->f, s->item);
+    if (fprintf(s->f, ",%d,%zu,%.*g,%.*g,%.*g,%.*g,%.*g\n", pass, index, SAMPLE_DIGITS,
+                smp->point_m[0], SAMPLE_DIGITS, smp->point_m[1], SAMPLE_DIGITS, smp->energy_j,
+                SAMPLE_DIGITS, smp->speed_m_s, SAMPLE_DIGITS, smp->time_s) < 0) {
+        s->failed = 1;
+        return 1;
+    }
+    return 0;
+}
+
+/* Flushes, syncs and renames the file into place (commit = 1), or removes it. */
+static plumb_status samples_close(samples_file *s, int commit, plumb_diag *diag)
+{
+    if (!s->f)
+        return PLUMB_OK;
+    int err = 0;
+    if (commit) {
+        mode_t mask = umask(0);
+        umask(mask);
+        if (fflush(s->f) != 0 || ferror(s->f) || s->failed || fsync(fileno(s->f)) != 0 ||
+            fchmod(fileno(s->f), (mode_t)(0666 & ~mask)) != 0)
+            err = errno ? errno : EIO;
+    }
+    if (fclose(s->f) != 0 && !err)
+        err = errno;
+    s->f = NULL;
+    if (commit && !err && rename(s->tmp, s->path) != 0)
+        err = errno;
+    if (!commit || err)
+        unlink(s->tmp);
+    if (commit && err) {
+        plumb_diag_clear(diag);
+        diag->status = PLUMB_EIO;
+        snprintf(diag->file, sizeof diag->file, "%s", s->path);
+        snprintf(diag->message, sizeof diag->message, "cannot write the samples: %s", strerror(err));
+        return PLUMB_EIO;
+    }
+    return PLUMB_OK;
+}
+
+/* ---- the run ------------------------------------------------------------------ */
+
+typedef struct zone_opts {
+    const char *samples, *seed, *threads, *confidence, *target, *samples_out;
+} zone_opts;
+
+/* Points a failed run's diagnostic at the profile and the item. */
+static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item, const char *name)
+{
+    if (diag->file[0] == '\0')
+        snprintf(diag->file, sizeof diag->file, "%s", plumb_profile_path(prof));
+    if (plumb_profile_is_inventory(prof)) {
+        /* "item 2 (spanner): " before the message, which is cut to fit */
+        char prefix[PLUMB_NAME + 32];
+        snprintf(prefix, sizeof prefix, "item %zu (%.*s): ", item, PLUMB_NAME - 1, name);
+        size_t pl = strlen(prefix), ml = strlen(diag->message);
+        if (pl + ml >= sizeof diag->message)
+            ml = sizeof diag->message - pl - 1;
+        memmove(diag->message + pl, diag->message, ml);
+        memcpy(diag->message, prefix, pl);
+        diag->message[pl + ml] = '\0';
+    }
+}
+
+static int run(const cli_args *a, const zone_opts *zo)
+{
+    if (a->n_args == 0)
+        return cli_usage_error(a->cmd, "needs a PROFILE");
+    if (a->n_args > 1)
+        return cli_usage_error(a->cmd, "takes one PROFILE, found %zu arguments", a->n_args);
+    const char *path = a->args[0];
+    if (a->output && cli_same_file(a->output, path))
+        return cli_usage_error(a->cmd, "-o %s would overwrite the profile", a->output);
+    if (zo->samples_out) {
+        if (zo->samples_out[0] == '\0' || strcmp(zo->samples_out, "-") == 0)
+            return cli_usage_error(a->cmd, "--samples-out needs a file name");
+        if (cli_same_file(zo->samples_out, path))
+            return cli_usage_error(a->cmd, "--samples-out %s would overwrite the profile",
+                                   zo->samples_out);
+        if (a->output && (strcmp(a->output, zo->samples_out) == 0 ||
+                          cli_same_file(a->output, zo->samples_out)))
+            return cli_usage_error(a->cmd, "-o and --samples-out name the same file");
+    }
+
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    plumb_units *units = NULL;
+    plumb_profile *prof = NULL;
+    plumb_criteria *crit = NULL;
+    plumb_atmosphere *atm = NULL;
+    plumb_zone_result *results = NULL;
+    plumb_zone_item *items = NULL;
+    samples_file sf;
+    memset(&sf, 0, sizeof sf);
+    char dir[CLI_PATH_MAX];
+
+    /* Options first: a bad one stops everything before any work. */
+    double samples = 0.0, seed = 0.0, threads = 0.0, confidence = 0.0, target[2] = {0.0, 0.0};
+    plumb_status st = plumb_units_alloc(&units, &diag);
+    if (st == PLUMB_OK && zo->samples)
+        st = parse_whole("--samples", zo->samples, 1.0, (double)PLUMB_ZONE_MAX_SAMPLES, &samples,
+                         &diag);
+    if (st == PLUMB_OK && zo->seed)
+        st = parse_whole("--seed", zo->seed, 0.0, MAX_SEED, &seed, &diag);
+    if (st == PLUMB_OK && zo->threads)
+        st = parse_whole("--threads", zo->threads, 1.0, (double)MAX_THREADS, &threads, &diag);
+    if (st == PLUMB_OK && zo->confidence)
+        st = parse_confidence(zo->confidence, &confidence, &diag);
+    if (st == PLUMB_OK && zo->target)
+        st = parse_target(units, zo->target, target, &diag);
+    if (st == PLUMB_OK)
+        st = plumb_profile_load(path, units, a->sets, a->n_sets, &prof, &diag);
+
+    plumb_zone_spec zone;
+    memset(&zone, 0, sizeof zone);
+    if (st == PLUMB_OK) {
+        zone = *plumb_profile_zone(prof);
+        if (zo->samples)
+            zone.samples = (size_t)samples;
+        if (zo->seed)
+            zone.seed = (unsigned long)seed;
+        if (zo->confidence)
+            zone.confidence = confidence;
+        if (zo->target) {
+            zone.has_target = 1;
+            zone.target_m[0] = target[0];
+            zone.target_m[1] = target[1];
+        }
+        if ((double)zone.seed > MAX_SEED) {
+            diag.status = st = PLUMB_EINVAL;
+            snprintf(diag.file, sizeof diag.file, "%s", path);
+            snprintf(diag.key, sizeof diag.key, "zone.seed");
+            snprintf(diag.message, sizeof diag.message, "expected a seed from 0 to 2^53-1");
+        }
+    }
+    plumb_zone_options zopt;
+    plumb_zone_options_init(&zopt);
+    if (st == PLUMB_OK) {
+        size_t need = plumb_zone_min_samples(zone.confidence, zopt.ci_level);
+        if (need == 0 || zone.samples < need) {
+            const char *by = zo->samples ? "--samples" : zo->confidence ? "--confidence" : NULL;
+            plumb_diag_clear(&diag);
+            diag.status = st = PLUMB_EINVAL;
+            snprintf(diag.file, sizeof diag.file, "%s", by ? "<command line>" : path);
+            snprintf(diag.key, sizeof diag.key, "%s", by ? by : "zone.samples");
+            snprintf(diag.message, sizeof diag.message,
+                     "%zu samples cannot bound the %g %% radius at %g %% confidence; at least "
+                     "%zu are needed", zone.samples, PERCENT * zone.confidence,
+                     PERCENT * zopt.ci_level, need);
+        }
+    }
+    if (st == PLUMB_OK)
+        st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
+    if (st == PLUMB_OK)
+        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(prof), &atm, &diag);
+    size_t n = st == PLUMB_OK ? plumb_profile_item_count(prof) : 0;
+    if (st == PLUMB_OK && (!(results = calloc(n ? n : 1, sizeof *results)) ||
+                           !(items = calloc(n ? n : 1, sizeof *items)))) {
+        st = diag.status = PLUMB_ENOMEM;
+        snprintf(diag.message, sizeof diag.message, "out of memory");
+    }
+    /* The uncertainty entries, in file order. */
+    size_t n_u = st == PLUMB_OK ? plumb_profile_uncertainty_count(prof) : 0;
+    plumb_uncertainty *unc = st == PLUMB_OK ? calloc(n_u ? n_u : 1, sizeof *unc) : NULL;
+    if (st == PLUMB_OK && !unc) {
+        st = diag.status = PLUMB_ENOMEM;
+        snprintf(diag.message, sizeof diag.message, "out of memory");
+    }
+    for (size_t i = 0; st == PLUMB_OK && i < n_u; i++)
+        unc[i] = *plumb_profile_uncertainty(prof, i);
+
+    if (st == PLUMB_OK && zo->samples_out) {
+        sf.path = zo->samples_out;
+        st = samples_open(&sf, &diag);
+    }
+    zopt.threads = zo->threads ? (size_t)threads : plumb_zone_default_threads();
+    zopt.source = prof ? plumb_profile_path(prof) : NULL;
+    progress_ctx pc;
+    memset(&pc, 0, sizeof pc);
+    pc.n_items = n;
+    pc.passes = zone.has_target ? 2 : 1;
+    if (!a->quiet && isatty(STDERR_FILENO) && clock_gettime(CLOCK_MONOTONIC, &pc.start) == 0) {
+        zopt.progress = progress;
+        zopt.progress_user = &pc;
+    }
+    if (sf.f) {
+        zopt.on_sample = samples_row;
+        zopt.sample_user = &sf;
+    }
+    for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
+        const plumb_fall_spec *spec = plumb_profile_item(prof, i);
+        /* The criteria exactly as plumb fall judges them (all when none named). */
+        plumb_item_report probe;
+        memset(&probe, 0, sizeof probe);
+        probe.spec = spec;
+        probe.shape = plumb_profile_item_shape(prof, i);
+        st = plumb_item_judge(&probe, prof, crit, atm, &diag);
+        const plumb_criterion *clist[PLUMB_MAX_VERDICTS];
+        for (size_t k = 0; st == PLUMB_OK && k < probe.n_verdicts; k++)
+            clist[k] = probe.verdicts[k].criterion;
+        pc.item = i;
+        sf.item = spec->name;
+        if (st == PLUMB_OK)
+            st = plumb_zone_run(spec, atm, unc, n_u, &zone, clist, probe.n_verdicts, &zopt,
+                                &results[i], &diag);
+        if (st != PLUMB_OK)
+            locate(&diag, prof, i, spec->name);
+        items[i].name = spec->name;
+        items[i].result = &results[i];
+    }
+    progress_clear(&pc);
+
+    int rc;
+    char *buf = NULL;
+    size_t len = 0;
+    if (st == PLUMB_OK) {
+        plumb_report_options ropt;
+        memset(&ropt, 0, sizeof ropt);
+        ropt.format = a->format;
+        ropt.units = a->units;
+        ropt.version = PLUMB_VERSION;
+        plumb_zone_report rep;
+        memset(&rep, 0, sizeof rep);
+        rep.profile_name = plumb_profile_name(prof);
+        rep.profile_path = plumb_profile_path(prof);
+        rep.profile_sha256 = plumb_profile_sha256(prof);
+        rep.inventory = plumb_profile_is_inventory(prof);
+        rep.n_items = n;
+        rep.items = items;
+        rep.threads = zopt.threads;
+        FILE *mem = open_memstream(&buf, &len);
+        if (!mem) {
+            st = diag.status = PLUMB_ENOMEM;
+            snprintf(diag.message, sizeof diag.message, "out of memory");
+        } else {
+            st = plumb_report_zone(mem, &ropt, &rep, &diag);
+            if (fclose(mem) != 0 && st == PLUMB_OK) {
+                st = diag.status = PLUMB_ENOMEM;
+                snprintf(diag.message, sizeof diag.message, "out of memory");
+            }
+        }
+    }
+    if (st == PLUMB_OK)
+        st = samples_close(&sf, 1, &diag);
+    if (st == PLUMB_OK) {
+        st = cli_write_output(a->output, buf, len, &diag);
+        if (st != PLUMB_OK && sf.path)
+            unlink(sf.path); /* the report failed: take the samples back too */
+    }
+    if (st == PLUMB_OK) {
+        if (!a->quiet && a->output && strcmp(a->output, "-") != 0)
+            fprintf(stderr, "plumb: wrote %s\n", a->output);
+        if (!a->quiet && sf.path)
+            fprintf(stderr, "plumb: wrote %s\n", sf.path);
+        rc = CLI_EXIT_OK;
+    } else {
+        samples_close(&sf, 0, NULL);
+        rc = cli_fail(&diag);
+    }
+    free(buf);
+    free(unc);
+    free(items);
+    free(results);
+    plumb_atmosphere_free(atm);
+    plumb_criteria_free(crit);
+    plumb_profile_free(prof);
+    plumb_units_free(units);
+    return rc;
+}
+
+int cmd_zone(int argc, char **argv)
+{
+    cli_option extra[] = {{"--samples", NULL},    {"--seed", NULL},   {"--threads", NULL},
+                          {"--confidence", NULL}, {"--target", NULL}, {"--samples-out", NULL}};
+    cli_args a;
+    int rc = cli_parse(argc, argv,
+                       CLI_SET | CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET | CLI_CRITERIA,
+                       extra, sizeof extra / sizeof extra[0], usage, &a);
+    if (rc != CLI_GO_ON)
+        return rc;
+    zone_opts zo = {extra[0].value, extra[1].value, extra[2].value,
+                    extra[3].value, extra[4].value, extra[5].value};
+    rc = run(&a, &zo);
+    cli_args_free(&a);
+    return rc;
+}
