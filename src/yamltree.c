@@ -537,6 +537,12 @@ plumb_status plumby_parse(const char *buf, size_t len, const char *file, plumby_
     b.key_prefix = key_prefix;
     b.diag = diag;
 
+    /* A UTF-8 byte-order mark (written by some editors) is not content;
+     * libyaml would skip it only when left to detect the encoding itself. */
+    if (len >= 3 && memcmp(buf, "\xEF\xBB\xBF", 3) == 0) {
+        buf += 3;
+        len -= 3;
+    }
     const char *tab = memchr(buf, '\t', len);
     if (tab) {
         int line, col;

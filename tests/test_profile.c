@@ -764,6 +764,18 @@ static void test_drag_source_longer_than_the_spec_field_is_refused(void **state)
     plumb_profile_free(p);
 }
 
+static void test_utf8_byte_order_mark_is_skipped(void **state)
+{
+    (void)state;
+    /* Some editors write EF BB BF first (Unicode Standard sec. 23.8); it is
+     * not content. */
+    plumb_profile *p = load_ok("\xEF\xBB\xBFpayload:\n  mass: 1.373 kg\n"
+                               "  drag: {cd: 0.91, area: 0.0113 m^2}\nrelease: {height: 17.3 m}\n",
+                               NULL, 0);
+    assert_rel(plumb_profile_item(p, 0)->mass_kg, 1.373, 1e-15);
+    plumb_profile_free(p);
+}
+
 static void test_null_arguments_are_invalid(void **state)
 {
     (void)state;
@@ -1510,6 +1522,7 @@ int main(void)
         cmocka_unit_test(test_comment_only_file_is_refused_at_line_1),
         cmocka_unit_test(test_nesting_deeper_than_32_levels_is_refused),
         cmocka_unit_test(test_drag_source_longer_than_the_spec_field_is_refused),
+        cmocka_unit_test(test_utf8_byte_order_mark_is_skipped),
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_design_md_section_5_example_loads_with_every_value_in_si),
         cmocka_unit_test(test_sha256_is_of_the_file_bytes),
