@@ -484,10 +484,24 @@ static plumb_status raise_unknown(plumb_diag *diag, plumb_dim want, const char *
 /* Converts value in unit text `unit` (trimmed, may be "") to the SI unit of
  * `want`. `shown` is the whole quantity as the user wrote it, `number` its
  * number, both for messages. Writes *si_out only on success. */
+/* The trade writes an energy in "foot-pounds" (14 CFR 107.120 says
+ * "11 foot-pounds"), which read literally is a length times a mass: where
+ * an energy is wanted these spellings mean the foot pound-force. */
+static const char *const foot_pound_words[] = {
+    "ft lb", "ft-lb", "ft lbs", "ft-lbs", "ft·lb", "ft·lbs", "ft*lb", "ft.lb",
+    "foot-pound", "foot-pounds", "foot pound", "foot pounds", "ft-pound", "ft-pounds",
+};
+
 static plumb_status convert(const plumb_units *units, double value, const char *unit,
                             plumb_dim want, const char *shown, const char *number,
                             double *si_out, plumb_diag *diag)
 {
+    if (want == PLUMB_DIM_ENERGY)
+        for (size_t i = 0; i < sizeof foot_pound_words / sizeof foot_pound_words[0]; i++)
+            if (strcmp(unit, foot_pound_words[i]) == 0) {
+                unit = "ft lbf";
+                break;
+            }
     char w[UNITS_SHOW_MAX + 64];
     describe_want(want, w, sizeof w);
 

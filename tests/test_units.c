@@ -778,9 +778,28 @@ static int group_teardown(void **state)
     return 0;
 }
 
+static void test_foot_pounds_mean_foot_pound_force_where_an_energy_is_wanted(void **state)
+{
+    /* 14 CFR 107.120(a)(1) writes "11 foot-pounds"; 1 ft lbf = 0.3048 m x
+     * 0.45359237 kg x 9.80665 m/s^2 exactly (1959 agreement, CGPM 1901). */
+    const plumb_units *u = *state;
+    const char *const spellings[] = {"11 ft lb", "11 ft-lbs", "11 foot-pounds", "11 ft·lb"};
+    for (size_t i = 0; i < 4; i++) {
+        double j = 0.0;
+        plumb_diag d;
+        assert_int_equal(plumb_units_parse(u, spellings[i], PLUMB_DIM_ENERGY, &j, &d), PLUMB_OK);
+        assert_rel(j, 11.0 * 0.3048 * 0.45359237 * 9.80665, 1e-14);
+    }
+    /* as a length times a mass elsewhere: not an energy alias for a mass */
+    double x = 0.0;
+    plumb_diag d;
+    assert_int_equal(plumb_units_parse(u, "11 ft lb", PLUMB_DIM_MASS, &x, &d), PLUMB_EUNIT);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_foot_pounds_mean_foot_pound_force_where_an_energy_is_wanted),
         cmocka_unit_test(test_mph_is_the_mile_per_hour_not_the_milliphot),
         cmocka_unit_test(test_every_knot_spelling_is_the_nautical_mile_per_hour),
         cmocka_unit_test(test_kt_is_the_knot_and_not_the_kilotonne),
