@@ -192,6 +192,11 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         row->value_si[a] = plumb_range_value_si(&s->axes[a], units, row->index[a]);
     }
     plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], diag);
+    if (st != PLUMB_OK && diag && strcmp(diag->file, "--set") == 0) {
+        /* the override is the sweep's own, made from --vary */
+        plumbp_strlcpy(diag->file, "--vary", sizeof diag->file);
+        diag->line = diag->col = 0;
+    }
     if (st == PLUMB_OK)
         st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], diag);
     if (st != PLUMB_OK)
