@@ -1182,9 +1182,12 @@ static void merge_slot(pass *ps, slot *sl)
             a->r_max = rad;
         if (a->n == 1 || r->energy_j > a->e_max)
             a->e_max = r->energy_j;
-        for (size_t c = 0; c < ps->n_crit; c++)
-            if (r->energy_j > ps->crit[c]->energy_limit_j)
+        for (size_t c = 0; c < ps->n_crit; c++) {
+            plumb_verdict verdict;
+            plumb_criterion_judge(ps->crit[c], r->energy_j, &verdict);
+            if (verdict.exceeds)
                 a->exceed[c]++;
+        }
         if (a->n == 1 || r->release_speed_m_s > a->speed_max ||
             (r->release_speed_m_s == a->speed_max && r->throw_m > a->throw_at_max)) {
             a->speed_max = r->release_speed_m_s;

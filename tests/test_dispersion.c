@@ -314,6 +314,33 @@ static void test_intervals_cover_the_true_values_in_at_least_93_percent_of_200_r
     plumb_atmosphere_free(atm);
 }
 
+/* criteria.h: a limit is exceeded above it, or from it on for a limit
+ * worded "less than" (EU 2019/945 C1, `exceeded_when: at-or-above`): with
+ * every sample exactly at the limit, the probability is 0 or 1. */
+static void test_exceedance_follows_the_criterion_wording_at_the_limit(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = constant_air();
+    plumb_fall_spec s;
+    drag_free_spec(&s, 1.377, 14.2);
+    plumb_zone_spec z = zone_spec(400, 9, 0.9);
+    static plumb_zone_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_zone_run(&s, atm, NULL, 0, &z, NULL, 0, NULL, &r, &d), PLUMB_OK);
+    double e0 = r.zone.energy_max_j; /* every sample is the same fall */
+    assert_rel(r.zone.energy[0].value, e0, 0.0);
+    plumb_criterion above = test_criterion("above", e0), at = test_criterion("at-or-above", e0);
+    at.strict = 1;
+    const plumb_criterion *cl[2] = {&above, &at};
+    assert_int_equal(plumb_zone_run(&s, atm, NULL, 0, &z, cl, 2, NULL, &r, &d), PLUMB_OK);
+    assert_int_equal(r.zone.exceedance[0].count, 0);
+    assert_int_equal(r.zone.exceedance[1].count, 400);
+    assert_rel(r.zone.exceedance[1].probability, 1.0, 0.0);
+    /* Clopper-Pearson at k = n: lower bound 0.025^(1/n) */
+    assert_rel(r.zone.exceedance[1].lo, pow(0.025, 1.0 / 400.0), 1e-14);
+    plumb_atmosphere_free(atm);
+}
+
 /* ---- 3. determinism --------------------------------------------------------- */
 
 static void drone_uncertainty(plumb_uncertainty *u)
@@ -960,6 +987,7 @@ int main(void)
         cmocka_unit_test(test_ballistic_throw_includes_the_upward_release_component),
         cmocka_unit_test(test_ellipse_major_axis_follows_the_larger_spread),
         cmocka_unit_test(test_intervals_cover_the_true_values_in_at_least_93_percent_of_200_runs),
+        cmocka_unit_test(test_exceedance_follows_the_criterion_wording_at_the_limit),
         cmocka_unit_test(test_zone_is_identical_for_one_two_and_three_threads),
         cmocka_unit_test(test_binned_percentiles_match_an_exact_sort_of_1e5_samples),
         cmocka_unit_test(test_release_point_puts_the_median_impact_on_the_target),

@@ -21,7 +21,7 @@
  *                          order-statistic bounds (H. A. David, H. N. Nagaraja,
  *                          Order Statistics, 3rd ed., 2003, section 7.1), the
  *                          ranks whose Clopper-Pearson interval excludes p
- *   exceedance             k of N samples above a criterion's limit; the
+ *   exceedance             k of N samples exceeding a criterion (plumb_criterion_judge); the
  *                          Clopper-Pearson interval (Biometrika 26, 404, 1934):
  *                          P(Bin(N, lo) >= k) = a/2, P(Bin(N, hi) <= k) = a/2
  *   clearance radius       upper bound of the radius percentile at the zone's
@@ -168,7 +168,9 @@ typedef struct plumb_zone_quantile {
 /* The probability that one criterion's energy limit is exceeded. */
 typedef struct plumb_zone_exceedance {
     const plumb_criterion *criterion; /* borrowed from the caller's list */
-    size_t count;             /* samples with impact energy > limit */
+    size_t count;             /* samples whose impact energy exceeds the limit, as
+                                 plumb_criterion_judge decides (> limit, or >= for a
+                                 limit worded "less than") */
     double probability;       /* count / samples */
     double lo, hi;            /* Clopper-Pearson interval at ci_level */
 } plumb_zone_exceedance;
