@@ -66,7 +66,7 @@
 /* ---- named constants ---------------------------------------------------- */
 
 /* Relative tolerance of the zone's falls (see plumb_zone_options). */
-#define ZONE_REL_TOL 1e-6
+#define ZONE_REL_TOL 1e-5
 /* Default level of every interval. */
 #define ZONE_CI_LEVEL 0.95
 /* Default samples per work unit and pilot size. */
@@ -263,7 +263,7 @@ typedef struct entry {
 } entry;
 
 struct plumb_sampler {
-    plumb_fall_spec base;    /* the spec without its uncertainty (latitude flag set) */
+    plumb_fall_spec base;    /* the spec without its uncertainty */
     size_t n;
     entry e[PLUMB_ZONE_MAX_INPUTS];
     int has_speed, has_heading, has_climb;
