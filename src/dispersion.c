@@ -313,6 +313,20 @@ static int in_range(const key_rule *r, double x)
     return x <= r->hi;
 }
 
+/* The rule's range in words: "> 0", ">= 0", "0 to 10", "-90 to 90". */
+static const char *range_text(const key_rule *r, char *buf, size_t size)
+{
+    if (isfinite(r->lo) && isfinite(r->hi))
+        snprintf(buf, size, "%g to %g", r->lo, r->hi);
+    else if (isfinite(r->lo))
+        snprintf(buf, size, "%s %g", r->lo_open ? ">" : ">=", r->lo);
+    else if (isfinite(r->hi))
+        snprintf(buf, size, "<= %g", r->hi);
+    else
+        snprintf(buf, size, "any value");
+    return buf;
+}
+
 /* Why a key resolved to a spec field still does not change this fall, or
  * NULL. norm is the normalised key; dev the descent device it addresses. */
 static const char *no_effect(const plumb_fall_spec *b, const char *norm, const plumb_descent_spec *dev)
@@ -362,6 +376,7 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
     const plumb_uncertainty *u = &e->u;
     const key_rule *r = &e->rule;
     const double *q = u->param;
+    char rt[64];
     int np = u->kind == PLUMB_DIST_TRIANGULAR ? 3 : 2;
     for (int i = 0; i < np; i++)
         if (!isfinite(q[i]))
@@ -379,18 +394,18 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
             return PLUMB_OK;
         if (!in_range(r, mean))
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
-                                  "normal: the mean %g lies outside the key's range %s%g, %g]",
-                                  mean, r->lo_open ? "(" : "[", r->lo, r->hi);
+                                  "normal: the mean %g lies outside the key's range (%s)",
+                                  mean, range_text(r, rt, sizeof rt));
         if (sd > 0.0) {
             double mass = gsl_cdf_ugaussian_P((r->hi - mean) / sd) -
                           gsl_cdf_ugaussian_P((r->lo - mean) / sd);
             if (!(mass >= TRUNC_MIN_MASS))
                 return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
                                       "normal [%g, %g]: only %.0f%% of it lies in the key's range "
-                                      "%s%g, %g]; truncating it there would change it beyond "
+                                      "(%s); truncating it there would change it beyond "
                                       "recognition: give a smaller sd or a uniform or "
                                       "triangular distribution", mean, sd, 100.0 * mass,
-                                      r->lo_open ? "(" : "[", r->lo, r->hi);
+                                      range_text(r, rt, sizeof rt));
         } else if (r->lo_open && !(mean > r->lo)) {
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
                                   "normal: the mean must be > %g", r->lo);
@@ -421,8 +436,8 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
                                   "the high end %g", q[1], q[0], q[2]);
         if (!r->angle && (!in_range(r, a) || !in_range(r, b)))
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
-                                  "%s [%g .. %g] leaves the key's range %s%g, %g]",
-                                  dist_name(u->kind), a, b, r->lo_open ? "(" : "[", r->lo, r->hi);
+                                  "%s [%g .. %g] leaves the key's range (%s)",
+                                  dist_name(u->kind), a, b, range_text(r, rt, sizeof rt));
         e->a = a;
         e->b = b;
         e->c = c;
