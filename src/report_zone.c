@@ -222,6 +222,11 @@ static const char *t_point(writer *w, const double p[2])
     return b;
 }
 
+/* Joins a number to its unit inside a sentence so that wrapping never
+ * parts them; printed as a space. */
+#define JOIN "\x1F"
+#define JOIN_CHAR '\x1F'
+
 /* Words wrapped at TEXT_WIDTH after `lead`, continuation lines indented. */
 static void wrapped(writer *w, const char *lead, const char *text)
 {
@@ -239,7 +244,9 @@ static void wrapped(writer *w, const char *lead, const char *text)
             col = indent;
             first = 1;
         }
-        put(w, "%s%.*s", first ? "" : " ", (int)len, p);
+        put(w, "%s", first ? "" : " ");
+        for (size_t k = 0; k < len; k++)
+            put(w, "%c", p[k] == JOIN_CHAR ? ' ' : p[k]);
         col += len + (first ? 0 : 1);
         first = 0;
         p += len;
@@ -303,7 +310,7 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
         const plumb_zone_input *in = &r->inputs[i];
         const char *u;
         double f = key_unit(w, in->key, &u);
-        const char *sp = u[0] && strcmp(u, "°") != 0 ? " " : "";
+        const char *sp = u[0] && strcmp(u, "°") != 0 ? JOIN : "";
         char line[512];
         switch (in->kind) {
         case PLUMB_DIST_UNIFORM:
@@ -434,6 +441,9 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     snprintf(line, sizeof line,
              "%s: the largest release speed sampled, %s, thrown without drag or wind",
              t_len(w, z->ballistic_throw_m), t_speed(w, z->max_release_speed_m_s));
+    for (char *c = line; *c; c++)
+        if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
+            *c = JOIN_CHAR;
     wrapped(w, "  drag-free throw            ", line);
     put(w, "\n");
 }
