@@ -395,6 +395,10 @@ static void text_cloud(writer *w, const plumb_zone_stats *z)
 {
     put(w, "  mean impact     %s\n", t_point(w, z->mean_m));
     double b2 = z->bearing_deg + 180.0;
+    if (!(z->semi_major_m > 0.0)) {
+        put(w, "  95 %% ellipse    none: every sample lands on the same point\n");
+        return;
+    }
     put(w, "  95 %% ellipse    semi-major %s, semi-minor %s\n", t_len(w, z->semi_major_m),
         t_len(w, z->semi_minor_m));
     put(w, "                  major axis along %s° – %s° (%s–%s)\n", trim(w, z->bearing_deg, 4, 1),
