@@ -20,5 +20,6 @@
 #include "plumb/report.h"
 #include "plumb/inverse.h"
 #include "plumb/sweep.h"
+#include "plumb/dispersion.h"
 
 #endif /* PLUMB_PLUMB_H */

@@ -119,5 +119,6 @@ int cmd_air(int argc, char **argv);
 int cmd_lint(int argc, char **argv);
 int cmd_sweep(int argc, char **argv);
 int cmd_limit(int argc, char **argv);
+int cmd_zone(int argc, char **argv);
 
 #endif /* PLUMB_CLI_H */
