@@ -25,9 +25,6 @@
 #include "cli.h"
 #include "plumb/dispersion.h"
 
-/* The handler main.c's table calls (declared in cli.h with the others). */
-int cmd_zone(int argc, char **argv);
-
 /* Progress appears after this long, and is redrawn at most this often, s. */
 #define PROGRESS_AFTER_S 1.0
 #define PROGRESS_EVERY_S 0.25
