@@ -35,6 +35,14 @@ enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
  * reached with an upward or level velocity: the step before is halved
  * until the object is descending. Bounded. */
 #define MAX_HALVINGS 60
+/* Power-law wind: height below which the fall ends in Henon's s variable. */
+#ifndef GROUND_SWITCH_M
+#define GROUND_SWITCH_M 5.0
+#endif
+/* Height at which the wind is taken for the right-hand side at or below
+ * the strike level (see local_at), m: far below any step the integrator
+ * resolves, yet positive. */
+#define WIND_Z_MIN_M 1e-9
 /* Location of the peak opening force: Brent iterations and time tolerance, s. */
 #define PEAK_MAX_ITER 100
 #define PEAK_ABS_TOL_S 1e-9
@@ -129,11 +137,19 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
         return GSL_EDOM;
     }
     L->g = plumb_gravity_at(&s->gravity, alt);
+    /* The wind is calm at and below the strike level, but only the path
+     * above it is ever used: at z <= 0 (the impact point itself, and trial
+     * stages past it) the right-hand side takes the wind just above the
+     * ground, so that a wind that does not vanish there (uniform, table)
+     * gives no jump for the stepper to resolve at the very end of the fall
+     * (measured: 1003 evaluations became 449 for the benchmark drone case
+     * in uniform wind). The integrated path is the same. */
+    double zw = y[IZ] > WIND_Z_MIN_M ? y[IZ] : WIND_Z_MIN_M;
     double we, wn;
     if (c->wind_table) {
-        plumb_wind_at(&s->wind, y[IZ], &we, &wn);
+        plumb_wind_at(&s->wind, zw, &we, &wn);
     } else {
-        double w = plumb_wind_speed_at(&s->wind, y[IZ]);
+        double w = plumb_wind_speed_at(&s->wind, zw);
         we = w * c->wind_dir[0];
         wn = w * c->wind_dir[1];
     }
@@ -207,9 +223,15 @@ static int jac_time(double t, const double y[], double *dfdy, double dfdt[], voi
 
 /* Henon's system: independent variable s = y[k]; state u = y with u[k]
  * replaced by the time t. du/ds = f / f[k], du[k]/ds = 1 / f[k]. */
+/* With a power-law wind w ~ z^alpha the shear is unbounded at the ground,
+ * and a stepper in z crawls toward it. Substituting z = target + s^m with
+ * m = 1/alpha makes w ~ s, smooth: d(state)/ds = d(state)/dz m s^(m-1).
+ * (m = 1 is Henon's plain form.) */
 typedef struct henon_ctx {
     fall_ctx *fall;
     int k;
+    double target;   /* the event value of y[k] */
+    double m;        /* z = target + s^m; 1 for the plain form (s = y[k]) */
 } henon_ctx;
 
 static int rhs_henon(double s, const double u[], double du[], void *params)
@@ -217,14 +239,21 @@ static int rhs_henon(double s, const double u[], double du[], void *params)
     henon_ctx *h = params;
     double y[NSTATE], f[NSTATE];
     memcpy(y, u, sizeof y);
-    y[h->k] = s;
+    double dyds = 1.0;
+    if (h->m == 1.0) {
+        y[h->k] = s;
+    } else {
+        double sm1 = s > 0.0 ? pow(s, h->m - 1.0) : 0.0;
+        y[h->k] = h->target + sm1 * s;
+        dyds = h->m * sm1;
+    }
     double t = u[h->k];
     int rc = rhs_time(t, y, f, h->fall);
     if (rc != GSL_SUCCESS)
         return rc;
     if (f[h->k] == 0.0)
         return GSL_EBADFUNC;
-    double inv = 1.0 / f[h->k];
+    double inv = dyds / f[h->k];
     for (int i = 0; i < NSTATE; i++)
         du[i] = f[i] * inv;
     du[h->k] = inv;
@@ -605,20 +634,25 @@ static plumb_status observe(runner *r)
  * by Henon's method. Writes the time and state there. */
 static plumb_status henon_to(runner *r, int k, double target, double *t_io, double y_io[])
 {
-    henon_ctx hc = {r->ctx, k};
+    henon_ctx hc = {r->ctx, k, target, 1.0};
+    const plumb_wind_spec *wind = &r->ctx->spec->wind;
+    if (k == IZ && target == 0.0 && y_io[IZ] > 0.0 && wind->profile == PLUMB_WIND_POWER &&
+        wind->speed_m_s > 0.0 && wind->exponent > 0.0 && wind->exponent < 1.0)
+        hc.m = 1.0 / wind->exponent;
     gsl_odeiv2_system hs = {rhs_henon, NULL, NSTATE, &hc};
     double u[NSTATE];
     memcpy(u, y_io, sizeof u);
     u[k] = *t_io;
-    double s = y_io[k];
-    double h = target - s;
+    double s = hc.m == 1.0 ? y_io[k] : pow(y_io[k] - target, 1.0 / hc.m);
+    double s_end = hc.m == 1.0 ? target : 0.0;
+    double h = s_end - s;
     gsl_odeiv2_evolve_reset(r->w->side_evolve);
     gsl_odeiv2_step_reset(r->w->side_step);
-    for (size_t n = 0; s != target; n++) {
+    for (size_t n = 0; s != s_end; n++) {
         if (n >= r->w->opt.max_steps)
             return PLUMB_RAISE(r->diag, PLUMB_EBUDGET, "event location ran past its step budget at t=%.2f s", *t_io);
         int rc = gsl_odeiv2_evolve_apply(r->w->side_evolve, r->w->side_control, r->w->side_step, &hs,
-                                         &s, target, &h, u);
+                                         &s, s_end, &h, u);
         if (rc != GSL_SUCCESS)
             return fail_rhs(r, rc, "event location");
     }
@@ -752,17 +786,49 @@ static double next_time_event(const runner *r)
 }
 
 /* Highest pending height event below the object: a `below` trigger or 0. */
+/* Height below which a fall in power-law wind finishes in Henon's s
+ * variable (0 for other winds): GROUND_SWITCH_M, or half the release
+ * height when that is lower. */
+static double ground_switch_m(const plumb_fall_spec *s)
+{
+    const plumb_wind_spec *w = &s->wind;
+    if (w->profile != PLUMB_WIND_POWER || !(w->speed_m_s > 0.0) || !(w->exponent > 0.0) ||
+        !(w->exponent < 1.0))
+        return 0.0;
+    double half = 0.5 * s->release_m[2];
+    return half < GROUND_SWITCH_M ? half : GROUND_SWITCH_M;
+}
+
+/* Highest pending height event below the object: a `below` trigger
+ * (*device its index), a height where the wind profile has a kink (the
+ * log law's roughness length, a table's rows: *device WIND_KINK), or the
+ * strike level (0, *device NO_DEVICE). Stopping exactly at a kink keeps
+ * the stepper from straddling it. */
+#define NO_DEVICE ((size_t)-1)
+#define WIND_KINK ((size_t)-2)
 static double next_height_event(const runner *r, size_t *device)
 {
-    double z = 0.0;
-    *device = (size_t)-1;
+    double z = 0.0, here = r->y[IZ];
+    *device = NO_DEVICE;
     const plumb_fall_spec *s = r->ctx->spec;
     for (size_t i = 0; i < s->n_descent; i++)
         if (!r->ctx->dev[i].deployed && s->descent[i].trigger == PLUMB_DEPLOY_BELOW &&
-            s->descent[i].deploy_value > z && s->descent[i].deploy_value < r->y[IZ]) {
+            s->descent[i].deploy_value > z && s->descent[i].deploy_value < here) {
             z = s->descent[i].deploy_value;
             *device = i;
         }
+    const plumb_wind_spec *w = &s->wind;
+    if (w->speed_m_s > 0.0 && w->profile == PLUMB_WIND_LOG && w->roughness_m > z &&
+        w->roughness_m < here) {
+        z = w->roughness_m;
+        *device = WIND_KINK;
+    }
+    if (w->profile == PLUMB_WIND_TABLE && w->table_h_m)
+        for (size_t i = 0; i < w->table_n; i++)
+            if (w->table_h_m[i] > z && w->table_h_m[i] < here) {
+                z = w->table_h_m[i];
+                *device = WIND_KINK;
+            }
     return z;
 }
 
@@ -881,6 +947,10 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
         size_t dev;
         double z_event = next_height_event(&r, &dev);
         double t_event = next_time_event(&r);
+        /* Power-law wind: the last stretch to the ground is integrated in
+         * the smooth variable s (see henon_ctx) from the first point below
+         * the switch height, not crawled to by the time stepper. */
+        double z_detect = z_event == 0.0 ? ground_switch_m(spec) : z_event;
         double t0 = r.t, y0[NSTATE];
         memcpy(y0, r.y, sizeof y0);
         if (r.steps >= w->opt.max_steps)
@@ -892,16 +962,17 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
         if (rc != GSL_SUCCESS)
             return fail_rhs(&r, rc, "ODE step");
         r.steps++;
-        if (r.y[IZ] <= z_event) {
+        if (r.y[IZ] <= z_detect) {
             /* Crossed a height event inside this step: undo it, then Henon. */
             double h_used = r.t - t0, tt = t0, yy[NSTATE];
             r.t = t0;
             memcpy(r.y, y0, sizeof y0);
             memcpy(yy, y0, sizeof yy);
-            st = descend_start(&r, &tt, yy, h_used, z_event);
+            st = descend_start(&r, &tt, yy, h_used, z_detect);
             if (st != PLUMB_OK)
                 return st;
-            st = approach(&r, &tt, yy, h_used, z_event);
+            if (z_detect == z_event)
+                st = approach(&r, &tt, yy, h_used, z_event);
             if (st != PLUMB_OK)
                 return st;
             st = henon_to(&r, IZ, z_event, &tt, yy);
@@ -913,7 +984,8 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
                 return st;
             if (z_event == 0.0)
                 return finish(&r, atm);
-            deploy(&r, dev);
+            if (dev != WIND_KINK)
+                deploy(&r, dev);
             restart(&r);
             continue;
         }
