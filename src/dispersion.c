@@ -65,8 +65,6 @@
 
 /* ---- named constants ---------------------------------------------------- */
 
-/* Relative tolerance of the zone's falls (see plumb_zone_options). */
-#define ZONE_REL_TOL 1e-5
 /* Default level of every interval. */
 #define ZONE_CI_LEVEL 0.95
 /* Default samples per work unit and pilot size. */
@@ -1427,7 +1425,6 @@ void plumb_zone_options_init(plumb_zone_options *opt)
     memset(opt, 0, sizeof *opt);
     opt->threads = 0;
     plumb_trajectory_options_init(&opt->trajectory);
-    opt->trajectory.rel_tol = ZONE_REL_TOL;
     opt->ci_level = ZONE_CI_LEVEL;
     opt->block_samples = ZONE_BLOCK;
     opt->pilot_samples = ZONE_PILOT;
