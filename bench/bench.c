@@ -13,12 +13,23 @@
  *              power-law wind 8 m/s at 10 m from 270 deg, exponent 1/7
  *   parachute  2.0 kg, CdA 0.5 m^2, 120 m, same wind
  *   light      10 g, Cd 1.0, A 0.01 m^2, 50 m, still air
- * The Monte Carlo part is in bench_zone.sh (run by `make bench` after this).
+ * Then `plumb zone` throughput on the drone case with mass +-10 %, Cd
+ * +-20 % and wind 0-12 m/s from any direction (uniform), at 1 thread and
+ * at all threads, and the peak resident memory of whole zone runs of 1e5,
+ * 1e6 and 1e7 samples (each in a child process, getrusage). The baseline
+ * measured in the same run is a general-purpose ODE script: SciPy's
+ * solve_ivp (DOP853, rtol 1e-10) on the same drone fall, when
+ * /usr/bin/python3 has SciPy.
+ * Set PLUMB_BENCH_MAX_SAMPLES to stop the memory runs earlier.
  */
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
+#include <stdlib.h>
+#include <sys/resource.h>
+#include <sys/wait.h>
 #include <time.h>
+#include <unistd.h>
 
 #include <gsl/gsl_errno.h>
 
@@ -64,6 +75,144 @@ static void make_spec(const bench_case *c, plumb_fall_spec *s)
         s->wind.exponent = 1.0 / 7.0;
         s->wind.ref_height_m = 10.0;
     }
+}
+
+/* The same drone fall by a general-purpose ODE script (SciPy solve_ivp,
+ * DOP853, the 1976 troposphere and the power law written again), timed in
+ * the same run; prints plumb's per-fall time as a ratio of it. */
+static void scipy_baseline(double plumb_us)
+{
+    static const char script[] =
+        "import math,time\n"
+        "from scipy.integrate import solve_ivp\n"
+        "def air(z):\n"
+        "    h=6356766.0*z/(6356766.0+z); t=288.15-0.0065*h\n"
+        "    p=101325.0*(288.15/t)**(9.80665*28.9644/(8314.32*-0.0065)); return p/(287.05307*t)\n"
+        "def f(t,y):\n"
+        "    w=8.0*(y[2]/10.0)**(1/7) if y[2]>0 else 0.0\n"
+        "    vr=(y[3]-w,y[4],y[5]); s=math.sqrt(vr[0]**2+vr[1]**2+vr[2]**2)\n"
+        "    k=0.5*air(y[2])*0.02*s/0.5\n"
+        "    return [y[3],y[4],y[5],-k*vr[0],-k*vr[1],-k*vr[2]-9.80665]\n"
+        "def g(t,y): return y[2]\n"
+        "g.terminal=True; g.direction=-1\n"
+        "n=20; t0=time.perf_counter()\n"
+        "for i in range(n): solve_ivp(f,(0,100),[0,0,120,0,10,0],method='DOP853',rtol=1e-10,atol=1e-10,events=g)\n"
+        "print((time.perf_counter()-t0)/n*1e6)\n";
+    char path[] = "/tmp/plumb-bench-XXXXXX";
+    int fd = mkstemp(path);
+    if (fd < 0)
+        return;
+    if (write(fd, script, sizeof script - 1) != (ssize_t)(sizeof script - 1)) {
+        close(fd);
+        unlink(path);
+        return;
+    }
+    close(fd);
+    char cmd[128];
+    snprintf(cmd, sizeof cmd, "/usr/bin/python3 %s 2>/dev/null", path);
+    FILE *py = popen(cmd, "r");
+    double us = 0.0;
+    if (py) {
+        if (fscanf(py, "%lf", &us) != 1)
+            us = 0.0;
+        pclose(py);
+    }
+    unlink(path);
+    if (us > 0.0)
+        printf("\nbaseline: the drone fall by SciPy solve_ivp (DOP853) takes %.0f us; plumb %.1f us, "
+               "%.0fx faster\n", us, plumb_us, us / plumb_us);
+    else
+        printf("\nbaseline: /usr/bin/python3 with SciPy not found; no baseline\n");
+}
+
+/* The issue's zone case: the drone fall with mass +-10 %, Cd +-20 %, wind
+ * 0-12 m/s from any direction. */
+static void zone_case(plumb_fall_spec *s, plumb_uncertainty u[4], plumb_zone_spec *z, size_t n)
+{
+    make_spec(&cases[1], s);
+    memset(u, 0, 4 * sizeof *u);
+    snprintf(u[0].key, sizeof u[0].key, "payload.mass");
+    u[0].kind = PLUMB_DIST_UNIFORM;
+    u[0].param[0] = 0.45, u[0].param[1] = 0.55;
+    snprintf(u[1].key, sizeof u[1].key, "payload.drag.cd");
+    u[1].kind = PLUMB_DIST_UNIFORM;
+    u[1].param[0] = 0.8, u[1].param[1] = 1.2;
+    snprintf(u[2].key, sizeof u[2].key, "wind.speed");
+    u[2].kind = PLUMB_DIST_UNIFORM;
+    u[2].param[0] = 0.0, u[2].param[1] = 12.0;
+    snprintf(u[3].key, sizeof u[3].key, "wind.from");
+    u[3].kind = PLUMB_DIST_UNIFORM;
+    u[3].param[0] = 0.0, u[3].param[1] = 360.0;
+    memset(z, 0, sizeof *z);
+    z->samples = n;
+    z->seed = 20250;
+    z->confidence = 0.99;
+}
+
+static double zone_rate(const plumb_atmosphere *atm, size_t threads, size_t n)
+{
+    plumb_fall_spec s;
+    plumb_uncertainty u[4];
+    plumb_zone_spec z;
+    zone_case(&s, u, &z, n);
+    plumb_zone_options o;
+    plumb_zone_options_init(&o);
+    o.threads = threads;
+    static plumb_zone_result res;
+    plumb_diag d;
+    double t0 = now_s();
+    if (plumb_zone_run(&s, atm, u, 4, &z, NULL, 0, &o, &res, &d) != PLUMB_OK) {
+        fprintf(stderr, "bench: zone failed: %s\n", d.message);
+        return 0.0;
+    }
+    return (double)n / (now_s() - t0);
+}
+
+/* Peak memory of whole zone runs, each in a child forked before this
+ * process has run any zone (so the child starts from the parent's small
+ * footprint, printed first). */
+static void zone_memory(const plumb_atmosphere *atm)
+{
+    size_t all = plumb_zone_default_threads();
+    struct rusage self;
+    getrusage(RUSAGE_SELF, &self);
+    printf("\nplumb zone memory (this process before any zone run: %.1f MB)\n",
+           (double)self.ru_maxrss / 1024.0);
+    const char *cap_env = getenv("PLUMB_BENCH_MAX_SAMPLES");
+    double cap = cap_env ? strtod(cap_env, NULL) : 1e7;
+    printf("  peak resident memory of a whole zone run (child process, all threads):\n");
+    for (double m = 1e5; m <= cap * (1.0 + 1e-9); m *= 10.0) {
+        fflush(stdout);
+        pid_t pid = fork();
+        if (pid == 0) {
+            double rate = zone_rate(atm, all, (size_t)m);
+            _exit(rate > 0.0 ? 0 : 3);
+        }
+        int status = 0;
+        struct rusage ru;
+        double t0 = now_s();
+        /* RUSAGE_CHILDREN holds the largest child's peak; the runs grow, so
+         * it is this one's */
+        if (pid < 0 || waitpid(pid, &status, 0) < 0 || getrusage(RUSAGE_CHILDREN, &ru) != 0) {
+            printf("    %.0e samples: could not run\n", m);
+            continue;
+        }
+        printf("    %.0e samples: %6.1f MB in %.1f s%s\n", m, (double)ru.ru_maxrss / 1024.0,
+               now_s() - t0, WIFEXITED(status) && WEXITSTATUS(status) == 0 ? "" : " (failed)");
+    }
+    printf("  target: <= 64 MB at 1e7 samples\n");
+}
+
+static void zone_bench(const plumb_atmosphere *atm)
+{
+    size_t all = plumb_zone_default_threads();
+    const size_t n = 100000;
+    double r1 = zone_rate(atm, 1, n), ra = zone_rate(atm, all, n);
+    printf("\nplumb zone, drone case (mass +-10%%, Cd +-20%%, wind 0-12 m/s from any direction), "
+           "%zu samples\n", n);
+    printf("  1 thread    %8.0f falls/s\n", r1);
+    printf("  %zu threads  %8.0f falls/s, %.2fx the 1-thread rate\n", all, ra, ra / r1);
+    printf("  targets: >= 30000 falls/s on 2 cores, 2 threads >= 1.8x 1 thread\n");
 }
 
 int main(void)
@@ -140,6 +289,25 @@ int main(void)
             status = 1;
     }
     printf("targets: evaluations <= target, ratio <= 1.5, speed error <= 1e-8\n");
+    double drone_us = 0.0;
+    {
+        plumb_fall_spec s;
+        make_spec(&cases[1], &s);
+        plumb_fall_result r;
+        size_t n = 0;
+        double t0 = now_s(), t1 = t0;
+        while (t1 - t0 < MIN_SECONDS) {
+            for (int k = 0; k < 50; k++, n++)
+                plumb_trajectory_run(w, &s, atm, &r, &d);
+            t1 = now_s();
+        }
+        drone_us = (t1 - t0) / (double)n * 1e6;
+    }
+    /* memory first: RUSAGE_CHILDREN keeps the largest child's peak, and the
+     * SciPy baseline's interpreter is a child too */
+    zone_memory(atm);
+    zone_bench(atm);
+    scipy_baseline(drone_us);
     plumb_trajectory_free(w);
     plumb_trajectory_free(rec);
     plumb_trajectory_free(tight);
