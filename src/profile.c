@@ -1284,6 +1284,21 @@ static int split_plus_minus(const char *t, char *a, char *b, size_t size)
     return 1;
 }
 
+
+/* The unit part of a quantity's text ("9 mph" -> "mph"), trimmed. */
+static void unit_text(const char *text, char *out, size_t size)
+{
+    char *end = NULL;
+    (void)strtod(text, &end);
+    const char *u = end && end != text ? end : text;
+    while (*u == ' ')
+        u++;
+    plumbp_strlcpy(out, u, size);
+    size_t n = strlen(out);
+    while (n > 0 && out[n - 1] == ' ')
+        out[--n] = '\0';
+}
+
 static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb_uncertainty *u)
 {
     plumb_status st;
@@ -1414,8 +1429,23 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
                                 "must be %s (the range of %s), found '%s'", rtext, pr->key,
                                 it->text);
     }
+    /* One unit in one distribution: [4 m/s, 9 mph] is a slip, not a range. */
+    char unit0[PLUMB_DIAG_MSG], unit_i[PLUMB_DIAG_MSG];
+    unit_text(list->items[0]->text, unit0, sizeof unit0);
+    for (size_t i = 1; i < want; i++) {
+        unit_text(list->items[i]->text, unit_i, sizeof unit_i);
+        if (strcmp(unit0, unit_i) != 0) {
+            char ikey[PLUMB_DIAG_KEY];
+            plumby_key_join(ikey, sizeof ikey, pkey, NULL, i);
+            return plumby_raise(ctx, list->items[i]->origin, list->items[i]->line,
+                                list->items[i]->col, ikey, PLUMB_EUNIT,
+                                "give every value of one distribution in the same unit: '%s' "
+                                "after '%s'", list->items[i]->text, list->items[0]->text);
+        }
+    }
     u->kind = kind == 0 ? PLUMB_DIST_NORMAL : kind == 1 ? PLUMB_DIST_UNIFORM : PLUMB_DIST_TRIANGULAR;
-    if (kind == 1 && u->param[0] > u->param[1])
+    /* A direction sector may run through north: uniform [350 deg, 10 deg]. */
+    if (kind == 1 && u->param[0] > u->param[1] && dim != PLUMB_DIM_ANGLE)
         return plumby_raise(ctx, list->origin, list->line, list->col, pkey, PLUMB_ERANGE,
                             "LO (%s) is above HI (%s)", list->items[0]->text,
                             list->items[1]->text);

@@ -764,6 +764,23 @@ static void test_drag_source_longer_than_the_spec_field_is_refused(void **state)
     plumb_profile_free(p);
 }
 
+static void test_a_direction_sector_may_run_through_north(void **state)
+{
+    (void)state;
+    /* uniform [LO, HI] with LO > HI on an angle is the sector from LO
+     * clockwise to HI (issue 4: "a direction sector wraps through north") */
+    plumb_profile *p = load_ok("payload:\n  mass: 1.373 kg\n  drag: {cd: 0.91, area: 0.0113 m^2}\n"
+                               "release: {height: 17.3 m}\nwind: {speed: 4.1 m/s, from: 355 deg}\n"
+                               "uncertainty:\n  wind.from: {uniform: [340 deg, 15 deg]}\n",
+                               NULL, 0);
+    assert_int_equal(plumb_profile_uncertainty_count(p), 1);
+    const plumb_uncertainty *u = plumb_profile_uncertainty(p, 0);
+    assert_int_equal(u->kind, PLUMB_DIST_UNIFORM);
+    assert_rel(u->param[0], 340.0, 1e-15);
+    assert_rel(u->param[1], 15.0, 1e-15);
+    plumb_profile_free(p);
+}
+
 static void test_utf8_byte_order_mark_is_skipped(void **state)
 {
     (void)state;
@@ -1522,6 +1539,7 @@ int main(void)
         cmocka_unit_test(test_comment_only_file_is_refused_at_line_1),
         cmocka_unit_test(test_nesting_deeper_than_32_levels_is_refused),
         cmocka_unit_test(test_drag_source_longer_than_the_spec_field_is_refused),
+        cmocka_unit_test(test_a_direction_sector_may_run_through_north),
         cmocka_unit_test(test_utf8_byte_order_mark_is_skipped),
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_design_md_section_5_example_loads_with_every_value_in_si),
