@@ -340,8 +340,9 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
                 snprintf(line + len, sizeof line - len, "; truncated at %s", lo[0] ? lo : hi);
             len = strlen(line);
             snprintf(line + len, sizeof line - len,
-                     " (%zu draws fell outside and were drawn again, for %zu samples)",
-                     in->redraws, r->samples);
+                     " (%zu draw%s fell outside and %s drawn again, for %zu samples)",
+                     in->redraws, in->redraws == 1 ? "" : "s", in->redraws == 1 ? "was" : "were",
+                     r->samples);
         }
         char lead[PLUMB_DIAG_KEY + 8];
         snprintf(lead, sizeof lead, "  %-26s ", in->key);
