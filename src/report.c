@@ -28,6 +28,8 @@
 
 #include <jansson.h>
 
+#include "jsonout.h"
+
 #include "plumb/constants.h"
 #include "plumb/report.h"
 #include "plumb/sweep.h"
@@ -77,8 +79,6 @@
 #define INPUT_SIG 6
 #define RATIO_SIG 3
 #define CSV_DIGITS 10
-/* JSON real precision: 17 significant digits round-trip any double. */
-#define JSON_DIGITS 17
 /* Width the text report wraps warnings and cautions at. */
 #define TEXT_WIDTH 78
 /* Most rows of a wind table the text report lists. */
@@ -1561,56 +1561,6 @@ static void csv_fall(writer *w, const plumb_fall_report *rep)
 
 /* ---- JSON ----------------------------------------------------------------- */
 
-typedef struct jctx {
-    int bad;        /* a non-finite number was met */
-    int nomem;      /* a jansson allocation failed */
-} jctx;
-
-static json_t *jreal(jctx *j, double x)
-{
-    if (!plumbp_finite(x)) {
-        j->bad = 1;
-        return json_null();
-    }
-    return json_real(x == 0.0 ? 0.0 : x);
-}
-
-static json_t *jstr(jctx *j, const char *s)
-{
-    json_t *v = json_string(s ? s : "");
-    if (!v)
-        j->nomem = 1; /* or invalid UTF-8: refused the same way */
-    return v;
-}
-
-static void jset(jctx *j, json_t *obj, const char *key, json_t *value)
-{
-    if (!value || !obj || json_object_set_new(obj, key, value) != 0)
-        j->nomem = 1;
-}
-
-static void jpush(jctx *j, json_t *arr, json_t *value)
-{
-    if (!value || !arr || json_array_append_new(arr, value) != 0)
-        j->nomem = 1;
-}
-
-static json_t *jobj(jctx *j)
-{
-    json_t *o = json_object();
-    if (!o)
-        j->nomem = 1;
-    return o;
-}
-
-static json_t *jarr(jctx *j)
-{
-    json_t *a = json_array();
-    if (!a)
-        j->nomem = 1;
-    return a;
-}
-
 static json_t *jvec(jctx *j, const double *x, size_t n)
 {
     json_t *a = jarr(j);
@@ -1629,16 +1579,6 @@ static json_t *j_air(jctx *j, const plumb_air *a)
     jset(j, o, "viscosity_pa_s", jreal(j, a->mu_pa_s));
     jset(j, o, "speed_of_sound_m_s", jreal(j, a->a_m_s));
     return o;
-}
-
-static json_t *j_cautions(jctx *j)
-{
-    size_t n;
-    const char *const *c = plumb_cautions(&n);
-    json_t *a = jarr(j);
-    for (size_t i = 0; i < n; i++)
-        jpush(j, a, jstr(j, c[i]));
-    return a;
 }
 
 static json_t *j_impact(jctx *j, const plumb_fall_result *r)
@@ -1882,41 +1822,6 @@ static json_t *j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall
 }
 
 /* ---- output: all or nothing ---------------------------------------------- */
-
-static plumb_status emit(FILE *out, const char *buf, size_t len, plumb_diag *diag)
-{
-    if (len > 0 && fwrite(buf, 1, len, out) != len)
-        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the report");
-    if (fflush(out) != 0 || ferror(out))
-        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the report");
-    return PLUMB_OK;
-}
-
-static plumb_status emit_json(FILE *out, jctx *j, json_t *root, plumb_diag *diag)
-{
-    plumb_status st = PLUMB_OK;
-    if (j->bad)
-        st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no report "
-                                               "written");
-    else if (j->nomem || !root)
-        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the JSON report");
-    char *text = NULL;
-    if (st == PLUMB_OK) {
-        text = json_dumps(root, JSON_INDENT(2) | JSON_PRESERVE_ORDER |
-                                    JSON_REAL_PRECISION(JSON_DIGITS));
-        if (!text)
-            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory writing the JSON report");
-    }
-    if (st == PLUMB_OK) {
-        size_t len = strlen(text);
-        st = emit(out, text, len, diag);
-        if (st == PLUMB_OK)
-            st = emit(out, "\n", 1, diag);
-    }
-    free(text);
-    json_decref(root);
-    return st;
-}
 
 /* Opens the memory stream a text or CSV report is made in. */
 static plumb_status writer_open(writer *w, char **buf, size_t *len, plumb_unit_system units,

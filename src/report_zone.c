@@ -30,11 +30,11 @@
 #include "plumb/plumb.h"
 #include "plumb/dispersion.h"
 #include "internal.h"
+#include "jsonout.h"
 
-/* Significant digits of text figures; CSV digits; JSON digits. */
+/* Significant digits of text figures; CSV digits (JSON: jsonout.h). */
 #define TEXT_SIG 4
 #define CSV_DIGITS 10
-#define JSON_DIGITS 17
 /* Width the text wraps sentences at. */
 #define TEXT_WIDTH 78
 /* Compass points naming a bearing. */
@@ -635,64 +635,6 @@ static void csv_report(writer *w, const plumb_zone_report *rep)
 
 /* ---- JSON --------------------------------------------------------------- */
 
-typedef struct jctx {
-    int bad;       /* a non-finite number */
-    int nomem;     /* a jansson allocation failed */
-} jctx;
-
-static json_t *jreal(jctx *j, double x)
-{
-    if (!plumbp_finite(x)) {
-        j->bad = 1;
-        return json_null();
-    }
-    return json_real(x == 0.0 ? 0.0 : x);
-}
-
-static json_t *jint(jctx *j, size_t n)
-{
-    if (n > (size_t)LLONG_MAX) {
-        j->bad = 1;
-        return json_null();
-    }
-    return json_integer((json_int_t)n);
-}
-
-static json_t *jstr(jctx *j, const char *s)
-{
-    json_t *v = json_string(s ? s : "");
-    if (!v)
-        j->nomem = 1;
-    return v;
-}
-
-static void jset(jctx *j, json_t *o, const char *key, json_t *v)
-{
-    if (!v || !o || json_object_set_new(o, key, v) != 0)
-        j->nomem = 1;
-}
-
-static void jpush(jctx *j, json_t *a, json_t *v)
-{
-    if (!v || !a || json_array_append_new(a, v) != 0)
-        j->nomem = 1;
-}
-
-static json_t *jobj(jctx *j)
-{
-    json_t *o = json_object();
-    if (!o)
-        j->nomem = 1;
-    return o;
-}
-
-static json_t *jarr(jctx *j)
-{
-    json_t *a = json_array();
-    if (!a)
-        j->nomem = 1;
-    return a;
-}
 
 static json_t *jpair(jctx *j, double a, double b)
 {
@@ -828,16 +770,6 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
     return o;
 }
 
-static json_t *j_cautions(jctx *j)
-{
-    size_t n;
-    const char *const *c = plumb_cautions(&n);
-    json_t *a = jarr(j);
-    for (size_t i = 0; i < n; i++)
-        jpush(j, a, jstr(j, c[i]));
-    return a;
-}
-
 static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zone_report *rep)
 {
     json_t *root = jobj(j);
@@ -875,13 +807,6 @@ static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zo
 
 /* ---- output --------------------------------------------------------------- */
 
-static plumb_status emit(FILE *out, const char *buf, size_t len, plumb_diag *diag)
-{
-    if ((len > 0 && fwrite(buf, 1, len, out) != len) || fflush(out) != 0 || ferror(out))
-        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the zone report");
-    return PLUMB_OK;
-}
-
 static plumb_status check_report(const plumb_zone_report *rep, plumb_diag *diag)
 {
     if (!rep || rep->n_items == 0 || !rep->items)
@@ -914,26 +839,7 @@ plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt_in,
         return st;
     if (opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
-        json_t *root = j_report(&j, opt, rep);
-        char *text = NULL;
-        if (j.bad)
-            st = PLUMB_RAISE(diag, PLUMB_ENUMERIC,
-                             "a zone figure is not a finite number; no report written");
-        else if (j.nomem || !root)
-            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the JSON zone report");
-        if (st == PLUMB_OK) {
-            text = json_dumps(root, JSON_INDENT(2) | JSON_PRESERVE_ORDER |
-                                        JSON_REAL_PRECISION(JSON_DIGITS));
-            if (!text)
-                st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory writing the JSON zone report");
-        }
-        if (st == PLUMB_OK)
-            st = emit(out, text, strlen(text), diag);
-        if (st == PLUMB_OK)
-            st = emit(out, "\n", 1, diag);
-        free(text);
-        json_decref(root);
-        return st;
+        return emit_json(out, &j, j_report(&j, opt, rep), diag);
     }
     writer w;
     memset(&w, 0, sizeof w);
