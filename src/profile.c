@@ -189,6 +189,7 @@ struct plumb_profile {
     double *wind_h_m, *wind_e_m_s, *wind_n_m_s; /* the specs' wind table */
     size_t n_criteria;
     char **criteria;
+    int (*criteria_pos)[2];          /* line, column of each (0, 0 from --set without one) */
     size_t n_unc;
     plumb_uncertainty *unc;
     plumb_zone_spec zone;
@@ -211,6 +212,7 @@ void plumb_profile_free(plumb_profile *p)
     for (size_t i = 0; i < p->n_criteria; i++)
         free(p->criteria[i]);
     free(p->criteria);
+    free(p->criteria_pos);
     free(p->unc);
     free(p);
 }
@@ -1218,7 +1220,8 @@ static plumb_status read_criteria(loader *L)
         return plumby_raise_value(&L->root, "criteria", PLUMB_EINVAL,
                                   "an empty list: name at least one criterion, or leave criteria "
                                   "out to judge against all of them");
-    if (!(L->p->criteria = calloc(c->n, sizeof(char *))))
+    if (!(L->p->criteria = calloc(c->n, sizeof(char *))) ||
+        !(L->p->criteria_pos = calloc(c->n, sizeof *L->p->criteria_pos)))
         return nomem(L);
     for (size_t i = 0; i < c->n; i++) {
         char id[PLUMB_CRIT_ID], key[PLUMB_DIAG_KEY];
@@ -1234,6 +1237,8 @@ static plumb_status read_criteria(loader *L)
         if (!(L->p->criteria[i] = malloc(strlen(id) + 1)))
             return nomem(L);
         memcpy(L->p->criteria[i], id, strlen(id) + 1);
+        L->p->criteria_pos[i][0] = it->line;
+        L->p->criteria_pos[i][1] = it->col;
         L->p->n_criteria = i + 1;
     }
     return PLUMB_OK;
@@ -1667,6 +1672,13 @@ const plumb_atm_spec *plumb_profile_atmosphere(const plumb_profile *p)
 }
 
 size_t plumb_profile_criteria_count(const plumb_profile *p) { return p ? p->n_criteria : 0; }
+
+void plumb_profile_criterion_position(const plumb_profile *p, size_t i, int *line, int *col)
+{
+    int ok = p && i < p->n_criteria && p->criteria_pos;
+    *line = ok ? p->criteria_pos[i][0] : 0;
+    *col = ok ? p->criteria_pos[i][1] : 0;
+}
 
 const char *plumb_profile_criterion(const plumb_profile *p, size_t i)
 {

@@ -143,16 +143,19 @@ static plumb_status unknown_criterion(const char *name, size_t index,
     }
     char key[PLUMB_DIAG_KEY];
     snprintf(key, sizeof key, "criteria[%zu]", index);
+    int line, col;
+    plumb_profile_criterion_position(profile, index, &line, &col);
+    const char *file = plumb_profile_path(profile);
     plumb_status st;
     if (near)
-        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, plumb_profile_path(profile), 0, 0, key,
+        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
                             "unknown criterion '%s'; did you mean '%s'?", name, near);
     else if (n)
-        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, plumb_profile_path(profile), 0, 0, key,
+        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
                             "unknown criterion '%s'; the criteria directory has %zu others, "
                             "e.g. '%s'", name, n, ids ? ids[0] : "");
     else
-        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, plumb_profile_path(profile), 0, 0, key,
+        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
                             "unknown criterion '%s'; no criteria are loaded", name);
     free(ids);
     return st;

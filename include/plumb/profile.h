@@ -89,6 +89,8 @@ const plumb_atm_spec *plumb_profile_atmosphere(const plumb_profile *p);
 /* Names of the criteria listed under `criteria:`. */
 size_t plumb_profile_criteria_count(const plumb_profile *p);
 const char *plumb_profile_criterion(const plumb_profile *p, size_t i);
+/* Where the i-th criterion was named in the file (0, 0 when not known). */
+void plumb_profile_criterion_position(const plumb_profile *p, size_t i, int *line, int *col);
 
 /* `uncertainty:` entries, in file order. */
 size_t plumb_profile_uncertainty_count(const plumb_profile *p);

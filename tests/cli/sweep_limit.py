@@ -166,6 +166,10 @@ bad = [
     (["limit", thrown, "--find", "payload.mass"], "--energy-max"),
     (["limit", thrown, "--find", "payload.mas", "--speed-max", "9 m/s"], "payload.mas"),
 ]
+# a criterion id with a typo: located at its entry, with a did-you-mean
+typo = os.path.join(PROF, "criterion-typo.yaml")
+bad.append((["fall", typo], "criterion-typo.yaml:7:23: criteria[1]"))
+bad.append((["fall", typo], "did you mean 'us-part107-cat3'"))
 for args, key in bad:
     rc, out, err = plumb(*args, "-o", out_file)
     check(rc == 2 and key in err and not os.path.exists(out_file),
