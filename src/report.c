@@ -20,6 +20,7 @@
  * CSV follows RFC 4180 (fields with commas, quotes or line ends quoted),
  * with the cautions as leading "# " comment lines.
  */
+#include <ctype.h>
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
@@ -668,6 +669,13 @@ static void pad(writer *w, const char *s, size_t width, int right)
 
 /* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
  * indented to the width of `lead`. */
+/* 1 when a word looks like the unit of the number before it ("m",
+ * "m^2", "kg", "ft·lbf"): short and starting with a letter. */
+static int unit_like(const char *p, size_t len)
+{
+    return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
+}
+
 static void wrapped(writer *w, const char *lead, const char *text)
 {
     size_t indent = shown_width(lead);
@@ -686,7 +694,20 @@ static void wrapped(writer *w, const char *lead, const char *text)
         memcpy(word, p, cut);
         word[cut] = '\0';
         size_t ww = shown_width(word);
-        if (!first && col + 1 + ww > TEXT_WIDTH) {
+        /* a number and its unit stay on one line: fit them as one */
+        size_t need = ww;
+        const char *next = p + len;
+        while (*next == ' ')
+            next++;
+        size_t nlen = strcspn(next, " ");
+        if (cut > 0 && isdigit((unsigned char)word[cut - 1]) && unit_like(next, nlen)) {
+            char unit[32];
+            size_t ucut = nlen < sizeof unit - 1 ? nlen : sizeof unit - 1;
+            memcpy(unit, next, ucut);
+            unit[ucut] = '\0';
+            need += 1 + shown_width(unit);
+        }
+        if (!first && col + 1 + need > TEXT_WIDTH) {
             put(w, "\n%*s", (int)indent, "");
             col = indent;
             first = 1;
