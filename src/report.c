@@ -1016,8 +1016,9 @@ static void text_comparison(writer *w, const plumb_item_report *it)
             t_speed(w, r->terminal_speed_m_s), si_bracket(w, r->terminal_speed_m_s, "m/s"));
     else
         put(w, "  terminal speed   none: without drag the speed grows without bound\n");
-    put(w, "  without drag     %s, %s\n", t_speed(w, r->drag_free_speed_m_s),
-        t_energy(w, r->drag_free_energy_j));
+    put(w, "  without drag     %s, %s%s\n", t_speed(w, r->drag_free_speed_m_s),
+        t_energy(w, r->drag_free_energy_j),
+        it->spec->volume_m3 > 0.0 ? " (and without buoyancy)" : "");
     if (r->drag_free_energy_j > 0.0 && r->drag_work_j != 0.0)
         put(w, "  drag took        %s, %s %% of the drag-free energy\n",
             t_energy(w, fabs(r->drag_work_j)),
@@ -1169,7 +1170,9 @@ static void text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
         break;
     case PLUMB_ATM_TABLE:
         snprintf(what, sizeof what, "table of %zu densities by altitude%s", a->table_n,
-                 a->table_t_k ? " with temperatures" : "");
+                 a->table_t_k ? " with temperatures"
+                              : "; temperature (for viscosity and the speed of sound) from "
+                                "the 1976 model with the offset");
         break;
     default:
         if (a->temperature_offset_k != 0.0 && w->us)
