@@ -19,6 +19,9 @@
 #define SCAN_POINTS 61
 /* Positive inputs are scanned from base / SPAN to base x SPAN. */
 #define SPAN 1e3
+/* A canopy is scanned over a narrower span: one 30 times the size falls
+ * for minutes. */
+#define DEVICE_SPAN 30.0
 /* Practical ranges of the other inputs (SI). */
 #define MAX_SPEED_M_S 300.0
 #define MAX_WIND_M_S 60.0
@@ -85,7 +88,8 @@ static int starts_with(const char *s, const char *prefix)
  * 86 km above sea level); others: their physical or practical range. */
 static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec *spec, double base)
 {
-    key_range r = {RANGE_POSITIVE, base / SPAN, base * SPAN};
+    double span = starts_with(key, "descent") ? DEVICE_SPAN : SPAN;
+    key_range r = {RANGE_POSITIVE, base / span, base * span};
     if (strcmp(key, "release.height") == 0) {
         double top = PLUMB_STD1976_TOP_M - spec->site_elevation_m;
         if (r.hi > top)
@@ -125,6 +129,36 @@ static int base_value(const plumb_profile *p, size_t item, const char *key, doub
     if (f) {
         *out = *f;
         return 1;
+    }
+    /* lengths the spec keeps only through what they imply */
+    size_t dev = 0;
+    if (strcmp(key, "descent.diameter") == 0 ||
+        sscanf(key, "descent[%zu].diameter", &dev) == 1) {
+        if (dev >= copy.n_descent)
+            return 0;
+        const plumb_descent_spec *d = &copy.descent[dev];
+        *out = d->diameter_m > 0.0 ? d->diameter_m : sqrt(4.0 * d->area_m2 / PLUMB_PI);
+        return 1;
+    }
+    if (strcmp(key, "payload.drag.diameter") == 0 && copy.drag.diameter_m > 0.0) {
+        *out = copy.drag.diameter_m;
+        return 1;
+    }
+    const plumb_shape_spec *sh = plumb_profile_item_shape(p, item);
+    if (sh && sh->kind != PLUMB_SHAPE_NONE) {
+        int cyl = sh->kind == PLUMB_SHAPE_CYLINDER;
+        if (strcmp(key, "payload.shape.diameter") == 0 && (cyl || sh->kind == PLUMB_SHAPE_SPHERE)) {
+            *out = cyl ? sh->dims_m[1] : sh->dims_m[0];
+            return 1;
+        }
+        if (strcmp(key, "payload.shape.length") == 0 && cyl) {
+            *out = sh->dims_m[0];
+            return 1;
+        }
+        if (strcmp(key, "payload.shape.thickness") == 0 && sh->kind == PLUMB_SHAPE_PLATE) {
+            *out = sh->dims_m[2];
+            return 1;
+        }
     }
     const plumb_atm_spec *a = plumb_profile_atmosphere(p);
     if (strcmp(key, "atmosphere.temperature_offset") == 0)
@@ -182,7 +216,8 @@ static double eval_at(double x, void *params)
     plumb_atmosphere_free(atm);
     plumb_profile_free(p);
     c->evals++;
-    if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE) {
+    if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE || st == PLUMB_EBUDGET ||
+        st == PLUMB_ENOLAND) {
         c->out_of_range = 1;
         if (c->diag)
             *c->diag = d;
@@ -274,9 +309,17 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     else
         plumbp_strlcpy(c.set_key, key, sizeof c.set_key);
     double base;
-    if (!base_value(profile, item, key, &base))
+    if (!base_value(profile, item, key, &base)) {
+        if (plumb_profile_is_inventory(profile) && starts_with(key, "payload.")) {
+            res->outcome = PLUMB_LIMIT_NOT_APPLICABLE;
+            res->dim = dim;
+            snprintf(res->explanation, sizeof res->explanation,
+                     "this item's drag does not use %s", key);
+            return PLUMB_OK;
+        }
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
                                "this key cannot be solved for (it is not a single input of the fall)");
+    }
     const plumb_fall_spec *spec = plumb_profile_item(profile, item);
     key_range r = range_of(key, dim, spec, base);
     res->dim = dim;

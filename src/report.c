@@ -2471,8 +2471,10 @@ static const char *t_metric(writer *w, plumb_metric m, double x)
 
 static const char *outcome_word(plumb_limit_outcome o)
 {
-    return o == PLUMB_LIMIT_FOUND ? "found" : o == PLUMB_LIMIT_UNLIMITED ? "unlimited"
-                                                                         : "impossible";
+    return o == PLUMB_LIMIT_FOUND       ? "found"
+           : o == PLUMB_LIMIT_UNLIMITED ? "unlimited"
+           : o == PLUMB_LIMIT_IMPOSSIBLE ? "impossible"
+                                         : "not applicable";
 }
 
 static const char *t_value(writer *w, plumb_dim dim, double si)
@@ -2522,6 +2524,9 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                          r->within_at_low_end ? "within" : "exceeded");
                 wrapped(w, "  ", text);
             }
+        } else if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE) {
+            wrapped(w, "  ", r->explanation);
+            continue;
         } else {
             put(w, "  %s: %s\n", rep->key,
                 r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"

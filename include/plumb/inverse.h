@@ -39,7 +39,9 @@ typedef enum plumb_metric {
 typedef enum plumb_limit_outcome {
     PLUMB_LIMIT_FOUND = 0,     /* value is where the limit is just met */
     PLUMB_LIMIT_UNLIMITED,     /* the limit is met everywhere in the range */
-    PLUMB_LIMIT_IMPOSSIBLE     /* the limit is broken everywhere in the range */
+    PLUMB_LIMIT_IMPOSSIBLE,    /* the limit is broken everywhere in the range */
+    PLUMB_LIMIT_NOT_APPLICABLE /* an inventory item without the key (a shape length of an
+                                  item whose drag is given) */
 } plumb_limit_outcome;
 
 typedef struct plumb_limit_options {
