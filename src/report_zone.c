@@ -31,75 +31,25 @@
 #include "plumb/dispersion.h"
 #include "internal.h"
 #include "jsonout.h"
+#include "textout.h"
 
 /* Significant digits of text figures; CSV digits (JSON: jsonout.h). */
-#define TEXT_SIG 4
-#define CSV_DIGITS 10
 /* Width the text wraps sentences at. */
-#define TEXT_WIDTH 78
 /* Compass points naming a bearing. */
-#define COMPASS_POINTS 16
 #define FULL_TURN_DEG 360.0
 /* Percent per unit fraction. */
 #define PERCENT 100.0
 
-enum { NUMBUF = 96, RING = 48 };
 
 static const char *const radius_names[PLUMB_ZONE_RADII] = {"p50", "p90", "p99", "p999"};
 static const char *const energy_names[PLUMB_ZONE_ENERGIES] = {"p50", "p95", "p99"};
 
 /* ---- writer ---------------------------------------------------------------- */
 
-typedef struct writer {
-    FILE *f;
-    int us;                  /* 1: US customary display units */
-    int bad;                 /* a figure was not finite */
-    char ring[RING][NUMBUF];
-    unsigned next;
-} writer;
 
-static void put(writer *w, const char *fmt, ...) PLUMBP_PRINTF(2, 3);
 
-static void put(writer *w, const char *fmt, ...)
-{
-    va_list ap;
-    va_start(ap, fmt);
-    vfprintf(w->f, fmt, ap);
-    va_end(ap);
-}
 
-static char *slot(writer *w)
-{
-    return w->ring[w->next++ % RING];
-}
 
-/* x with `sig` significant digits in plain decimal notation, never "-0". */
-static const char *num(writer *w, double x, int sig)
-{
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        return strcpy(b, "?");
-    }
-    if (x == 0.0)
-        return strcpy(b, "0");
-    int mag = (int)floor(log10(fabs(x)));
-    int dec = sig - 1 - mag;
-    if (dec < 0) {
-        double unit = pow(10.0, (double)-dec);
-        snprintf(b, NUMBUF, "%.0f", round(x / unit) * unit);
-        return b;
-    }
-    if (dec > 12)
-        dec = 12;
-    snprintf(b, NUMBUF, "%.*f", dec, x);
-    double back = strtod(b, NULL);
-    if (back != 0.0 && (int)floor(log10(fabs(back))) > mag && dec > 0)
-        snprintf(b, NUMBUF, "%.*f", dec - 1, x);
-    if (strspn(b, "-0.") == strlen(b))
-        strcpy(b, "0");
-    return b;
-}
 
 /* x with at most `sig` significant digits and `dec` decimals, trailing
  * zeros dropped: inputs as given ("0.8"), percents ("99.9"), and figures
@@ -149,17 +99,6 @@ static const char *fig(writer *w, double x, int dec)
 #define INPUT_SIG 6
 #define INPUT_DEC 9
 
-/* A number for CSV, shortest %g form with CSV_DIGITS digits. */
-static const char *csvnum(writer *w, double x)
-{
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        return strcpy(b, "?");
-    }
-    snprintf(b, NUMBUF, "%.*g", CSV_DIGITS, x == 0.0 ? 0.0 : x);
-    return b;
-}
 
 static double len_shown(const writer *w, double m)
 {
@@ -200,18 +139,6 @@ static const char *t_energy(writer *w, double j)
     return b;
 }
 
-static const char *compass(double bearing_deg)
-{
-    static const char *const pts[COMPASS_POINTS] = {"N", "NNE", "NE", "ENE", "E", "ESE", "SE",
-                                                    "SSE", "S", "SSW", "SW", "WSW", "W", "WNW",
-                                                    "NW", "NNW"};
-    double step = FULL_TURN_DEG / COMPASS_POINTS;
-    double b = fmod(bearing_deg + 0.5 * step, FULL_TURN_DEG);
-    if (b < 0.0)
-        b += FULL_TURN_DEG;
-    size_t i = (size_t)(b / step);
-    return pts[i < COMPASS_POINTS ? i : 0];
-}
 
 /* A point as "12.3 m E, 4.56 m S". */
 static const char *t_point(writer *w, const double p[2])
@@ -224,35 +151,7 @@ static const char *t_point(writer *w, const double p[2])
 
 /* Joins a number to its unit inside a sentence so that wrapping never
  * parts them; printed as a space. */
-#define JOIN "\x1F"
-#define JOIN_CHAR '\x1F'
 
-/* Words wrapped at TEXT_WIDTH after `lead`, continuation lines indented. */
-static void wrapped(writer *w, const char *lead, const char *text)
-{
-    size_t indent = strlen(lead), col = indent;
-    put(w, "%s", lead);
-    int first = 1;
-    for (const char *p = text; *p;) {
-        while (*p == ' ')
-            p++;
-        if (!*p)
-            break;
-        size_t len = strcspn(p, " ");
-        if (!first && col + 1 + len > TEXT_WIDTH) {
-            put(w, "\n%*s", (int)indent, "");
-            col = indent;
-            first = 1;
-        }
-        put(w, "%s", first ? "" : " ");
-        for (size_t k = 0; k < len; k++)
-            put(w, "%c", p[k] == JOIN_CHAR ? ' ' : p[k]);
-        col += len + (first ? 0 : 1);
-        first = 0;
-        p += len;
-    }
-    put(w, "\n");
-}
 
 /* ---- input echo --------------------------------------------------------- */
 
@@ -310,7 +209,7 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
         const plumb_zone_input *in = &r->inputs[i];
         const char *u;
         double f = key_unit(w, in->key, &u);
-        const char *sp = u[0] && strcmp(u, "°") != 0 ? JOIN : "";
+        const char *sp = u[0] && strcmp(u, "°") != 0 ? NBSP : "";
         char line[512];
         switch (in->kind) {
         case PLUMB_DIST_UNIFORM:
@@ -448,7 +347,7 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
              t_len(w, z->ballistic_throw_m), t_speed(w, z->max_release_speed_m_s));
     for (char *c = line; *c; c++)
         if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
-            *c = JOIN_CHAR;
+            *c = NBSP_CHAR;
     wrapped(w, "  drag-free throw            ", line);
     put(w, "\n");
 }
@@ -516,18 +415,6 @@ static void text_report(writer *w, const plumb_report_options *opt, const plumb_
 
 /* ---- CSV ---------------------------------------------------------------- */
 
-/* RFC 4180: a field with a comma, quote or line end is quoted, quotes doubled. */
-static void csv_field(writer *w, const char *s)
-{
-    if (!strpbrk(s, ",\"\r\n")) {
-        put(w, "%s", s);
-        return;
-    }
-    put(w, "\"");
-    for (const char *p = s; *p; p++)
-        put(w, *p == '"' ? "\"\"" : "%c", *p);
-    put(w, "\"");
-}
 
 static void csv_row(writer *w, const char *item, const char *quantity, double value,
                     const double *lo, const double *hi, const char *unit)
@@ -842,20 +729,15 @@ plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt_in,
         return emit_json(out, &j, j_report(&j, opt, rep), diag);
     }
     writer w;
-    memset(&w, 0, sizeof w);
-    w.us = opt->units == PLUMB_UNITS_US;
-    char *buf = NULL;
-    size_t len = 0;
-    w.f = open_memstream(&buf, &len);
-    if (!w.f)
+    char *buf;
+    size_t len;
+    if (!writer_start(&w, &buf, &len, opt->units == PLUMB_UNITS_US))
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the zone report");
     if (opt->format == PLUMB_FORMAT_CSV)
         csv_report(&w, rep);
     else
         text_report(&w, opt, rep);
-    int failed = ferror(w.f);
-    if (fclose(w.f) != 0)
-        failed = 1;
+    int failed = !writer_finish(&w, &buf, &len);
     if (w.bad)
         st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a zone figure is not a finite number; no report "
                                                "written");

@@ -1,0 +1,250 @@
+/*
+ * textout.h - what the text and CSV report writers share (report.c,
+ * report_zone.c): a memory-stream writer that remembers any non-finite
+ * figure, numbers in plain decimal, word wrapping that never parts a number
+ * from its unit, CSV fields and comment lines, compass points. Internal to
+ * libplumb; the inline helpers keep one definition for both writers.
+ */
+#ifndef PLUMB_TEXTOUT_H
+#define PLUMB_TEXTOUT_H
+
+#include <ctype.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "internal.h"
+
+/* Significant digits of text figures; digits of CSV numbers. */
+#define TEXT_SIG 4
+#define CSV_DIGITS 10
+/* Width the text wraps sentences at. */
+#define TEXT_WIDTH 78
+/* Compass points naming a bearing. */
+#define COMPASS_POINTS 16
+
+enum { RING = 48, NUMBUF = 96 };
+
+/* Joins a number to its unit so word wrapping never parts them; replaced
+ * by a plain space before the text leaves the writer. */
+#define NBSP "\x1F"
+#define NBSP_CHAR '\x1F'
+
+
+typedef struct writer {
+    FILE *f;                 /* memory stream being written */
+    int us;                  /* 1: US customary display units */
+    int bad;                 /* a non-finite figure was asked for */
+    int exact;               /* 1: echoing inputs (see qty) */
+    char ring[RING][NUMBUF]; /* formatted numbers, reused round-robin */
+    unsigned next;
+} writer;
+
+static inline void put(writer *w, const char *fmt, ...) PLUMBP_PRINTF(2, 3);
+
+static inline void put(writer *w, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    vfprintf(w->f, fmt, ap);
+    va_end(ap);
+}
+
+static inline char *slot(writer *w)
+{
+    char *b = w->ring[w->next % RING];
+    w->next++;
+    return b;
+}
+
+/* x with `sig` significant digits in plain decimal notation (no exponent),
+ * never "-0". Flags a non-finite x. */
+static inline const char *num(writer *w, double x, int sig)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    if (x == 0.0) {
+        snprintf(b, NUMBUF, "0");
+        return b;
+    }
+    int mag = (int)floor(log10(fabs(x)));
+    int dec = sig - 1 - mag;
+    if (dec < 0) {
+        /* Large figures keep `sig` digits and zeros after: 29984211 -> 29980000. */
+        double unit = pow(10.0, (double)-dec);
+        snprintf(b, NUMBUF, "%.0f", round(x / unit) * unit);
+        return b;
+    }
+    if (dec > 15)
+        dec = 15;
+    snprintf(b, NUMBUF, "%.*f", dec, x);
+    /* Rounding up to the next power of ten (9.9996 -> 10.000) adds a digit. */
+    double back = strtod(b, NULL);
+    if (back != 0.0 && (int)floor(log10(fabs(back))) > mag && dec > 0)
+        snprintf(b, NUMBUF, "%.*f", dec - 1, x);
+    if (strspn(b, "-0.") == strlen(b))
+        snprintf(b, NUMBUF, "0");
+    return b;
+}
+
+/* A number for CSV: CSV_DIGITS significant digits, shortest form. */
+static inline const char *csvnum(writer *w, double x)
+{
+    char *b = slot(w);
+    if (!plumbp_finite(x)) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+        return b;
+    }
+    snprintf(b, NUMBUF, "%.*g", CSV_DIGITS, x == 0.0 ? 0.0 : x);
+    return b;
+}
+
+/* Characters shown for a UTF-8 string: bytes that do not continue a
+ * multi-byte sequence. */
+static inline size_t shown_width(const char *s)
+{
+    size_t n = 0;
+    for (const unsigned char *p = (const unsigned char *)s; *p; p++)
+        if ((*p & 0xC0) != 0x80)
+            n++;
+    return n;
+}
+
+/* s padded with spaces to `width` shown characters, left or right aligned. */
+static inline void pad(writer *w, const char *s, size_t width, int right)
+{
+    size_t n = shown_width(s);
+    size_t fill = n < width ? width - n : 0;
+    if (right)
+        put(w, "%*s%s", (int)fill, "", s);
+    else
+        put(w, "%s%*s", s, (int)fill, "");
+}
+
+/* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
+ * indented to the width of `lead`. */
+/* 1 when a word looks like the unit of the number before it ("m",
+ * "m^2", "kg", "ft·lbf"): short and starting with a letter. */
+static inline int unit_like(const char *p, size_t len)
+{
+    return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
+}
+
+static inline void wrapped(writer *w, const char *lead, const char *text)
+{
+    size_t indent = shown_width(lead);
+    size_t col = indent;
+    put(w, "%s", lead);
+    const char *p = text;
+    int first = 1;
+    while (*p) {
+        while (*p == ' ')
+            p++;
+        if (!*p)
+            break;
+        size_t len = strcspn(p, " ");
+        char word[PLUMB_WARNING * 2];
+        size_t cut = len < sizeof word - 1 ? len : sizeof word - 1;
+        memcpy(word, p, cut);
+        word[cut] = '\0';
+        size_t ww = shown_width(word);
+        /* a number and its unit stay on one line: fit them as one */
+        size_t need = ww;
+        const char *next = p + len;
+        while (*next == ' ')
+            next++;
+        size_t nlen = strcspn(next, " ");
+        if (cut > 0 && isdigit((unsigned char)word[cut - 1]) && unit_like(next, nlen)) {
+            char unit[32];
+            size_t ucut = nlen < sizeof unit - 1 ? nlen : sizeof unit - 1;
+            memcpy(unit, next, ucut);
+            unit[ucut] = '\0';
+            need += 1 + shown_width(unit);
+        }
+        if (!first && col + 1 + need > TEXT_WIDTH) {
+            put(w, "\n%*s", (int)indent, "");
+            col = indent;
+            first = 1;
+        }
+        put(w, "%s%s", first ? "" : " ", word);
+        col += ww + (first ? 0 : 1);
+        first = 0;
+        p += len;
+    }
+    put(w, "\n");
+}
+
+static inline double wrap_deg(double a)
+{
+    double w = fmod(a, 360.0);
+    if (w < 0.0)
+        w += 360.0;
+    return w;
+}
+
+static inline const char *compass(double bearing_deg)
+{
+    static const char *const points[COMPASS_POINTS] = {
+        "N", "NNE", "NE", "ENE", "E", "ESE", "SE", "SSE",
+        "S", "SSW", "SW", "WSW", "W", "WNW", "NW", "NNW"};
+    double sector = 360.0 / COMPASS_POINTS;
+    long k = lround(floor(wrap_deg(bearing_deg + sector / 2.0) / sector));
+    return points[(size_t)k % COMPASS_POINTS];
+}
+
+static inline void csv_field(writer *w, const char *s)
+{
+    if (strpbrk(s, ",\"\r\n") == NULL) {
+        put(w, "%s", s);
+        return;
+    }
+    fputc('"', w->f);
+    for (const char *p = s; *p; p++) {
+        if (*p == '"')
+            fputc('"', w->f);
+        fputc(*p, w->f);
+    }
+    fputc('"', w->f);
+}
+
+static inline void csv_comment(writer *w, const char *text)
+{
+    /* A comment line never contains a line end of its own. */
+    fputs("# ", w->f);
+    for (const char *p = text; *p; p++)
+        fputc((*p == '\n' || *p == '\r') ? ' ' : *p, w->f);
+    fputc('\n', w->f);
+}
+
+/* Opens the memory stream a report is made in. */
+static inline int writer_start(writer *w, char **buf, size_t *len, int us)
+{
+    memset(w, 0, sizeof *w);
+    *buf = NULL;
+    *len = 0;
+    w->us = us;
+    w->f = open_memstream(buf, len);
+    return w->f != NULL;
+}
+
+/* Closes the stream and turns the number-unit joins into spaces; returns
+ * 0 when the stream failed. */
+static inline int writer_finish(writer *w, char **buf, size_t *len)
+{
+    int ok = !ferror(w->f);
+    if (fclose(w->f) != 0)
+        ok = 0;
+    for (size_t i = 0; *buf && i < *len; i++)
+        if ((*buf)[i] == NBSP_CHAR)
+            (*buf)[i] = ' ';
+    return ok && *buf;
+}
+
+#endif /* PLUMB_TEXTOUT_H */
