@@ -318,20 +318,26 @@ static void test_parachute_descends_at_body_plus_canopy_terminal_speed(void **st
  * mass the speed does not fall during filling and X1 = 1, which bounds the
  * peak by q_ls (CdS)0. A payload that slows while filling has X1 < 1; one
  * whose canopy fills in a moment reaches the bound (the same limit). */
+/* A 1.05 Cd body under a 0.78 x 2.27 m^2 canopy opening 3.1 s after release. */
+static void opening_spec(plumb_fall_spec *s, double mass_kg, double fill_s)
+{
+    base_spec(s, mass_kg, 0.0, 600.0);
+    s->drag.cd = 1.05;
+    s->drag.area_m2 = 0.0314;
+    s->n_descent = 1;
+    s->descent[0].cd = 0.78;
+    s->descent[0].area_m2 = 2.27;
+    s->descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s->descent[0].deploy_value = 3.1;
+    s->descent[0].fill_time_s = fill_s;
+}
+
 static double opening_case(double mass_kg, double fill_s, plumb_fall_result *r)
 {
     plumb_atmosphere *atm = constant_air();
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
-    base_spec(&s, mass_kg, 0.0, 600.0);
-    s.drag.cd = 1.05;
-    s.drag.area_m2 = 0.0314;
-    s.n_descent = 1;
-    s.descent[0].cd = 0.78;
-    s.descent[0].area_m2 = 2.27;
-    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
-    s.descent[0].deploy_value = 3.1;
-    s.descent[0].fill_time_s = fill_s;
+    opening_spec(&s, mass_kg, fill_s);
     plumb_diag d;
     plumb_status st = plumb_trajectory_run(w, &s, atm, r, &d);
     if (st != PLUMB_OK)
@@ -377,15 +383,7 @@ static void test_peak_force_is_located_between_steps_not_sampled(void **state)
     plumb_trajectory *w = NULL;
     assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
     plumb_fall_spec s;
-    base_spec(&s, 1.9, 0.0, 600.0);
-    s.drag.cd = 1.05;
-    s.drag.area_m2 = 0.0314;
-    s.n_descent = 1;
-    s.descent[0].cd = 0.78;
-    s.descent[0].area_m2 = 2.27;
-    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
-    s.descent[0].deploy_value = 3.1;
-    s.descent[0].fill_time_s = 0.93;
+    opening_spec(&s, 1.9, 0.93);
     plumb_diag d;
     assert_int_equal(plumb_trajectory_run(w, &s, atm, &b, &d), PLUMB_OK);
     assert_rel(a.peak_force_n, b.peak_force_n, 1e-8);
