@@ -49,6 +49,7 @@
  */
 #include <float.h>
 #include <math.h>
+#include <stddef.h>
 #include <pthread.h>
 #include <stdint.h>
 #include <stdlib.h>
@@ -508,11 +509,11 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
                 if ((const char *)f >= dk && (const char *)f < dk + sizeof probe.descent[k])
                     dev = &base->descent[k];
             }
-            if (e->offset == (size_t)((const char *)&probe.velocity_m_s[0] - lo))
+            if (e->offset == offsetof(plumb_fall_spec, velocity_m_s))
                 has_east = 1;
-            if (e->offset == (size_t)((const char *)&probe.velocity_m_s[1] - lo))
+            if (e->offset == offsetof(plumb_fall_spec, velocity_m_s) + sizeof(double))
                 has_north = 1;
-            if (e->offset == (size_t)((const char *)&probe.velocity_m_s[2] - lo))
+            if (e->offset == offsetof(plumb_fall_spec, velocity_m_s) + 2 * sizeof(double))
                 has_up = 1;
         }
         const char *why = no_effect(base, norm, dev);
