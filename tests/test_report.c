@@ -69,13 +69,17 @@ static int setup(void **state)
     if (!fx)
         return -1;
     snprintf(fx->dir, sizeof fx->dir, "/tmp/plumb-test-report-XXXXXX");
-    if (!mkdtemp(fx->dir))
+    if (!mkdtemp(fx->dir)) {
+        free(fx);
         return -1;
+    }
     snprintf(fx->crit_dir, sizeof fx->crit_dir, "%s/criteria", fx->dir);
     char cmd[160];
     snprintf(cmd, sizeof cmd, "mkdir '%s'", fx->crit_dir);
-    if (system(cmd) != 0)
+    if (system(cmd) != 0) {
+        free(fx);
         return -1;
+    }
     char path[160];
     /* 14 CFR 107.130(a)(1), seen: 25 ft lbf. */
     snprintf(path, sizeof path, "%s/us-part107-cat3.yaml", fx->crit_dir);
