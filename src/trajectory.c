@@ -648,7 +648,9 @@ static plumb_status henon_to(runner *r, int k, double target, double *t_io, doub
     double h = s_end - s;
     gsl_odeiv2_evolve_reset(r->w->side_evolve);
     gsl_odeiv2_step_reset(r->w->side_step);
-    for (size_t n = 0; s != s_end; n++) {
+    /* until s reaches s_end: a last step may land a rounding error past it */
+    const int down = h < 0.0;
+    for (size_t n = 0; down ? s > s_end : s < s_end; n++) {
         if (n >= r->w->opt.max_steps)
             return PLUMB_RAISE(r->diag, PLUMB_EBUDGET, "event location ran past its step budget at t=%.2f s", *t_io);
         int rc = gsl_odeiv2_evolve_apply(r->w->side_evolve, r->w->side_control, r->w->side_step, &hs,

@@ -155,6 +155,32 @@ static void test_drag_free_vertical_drop_reproduces_sqrt_2gh_and_mgh(void **stat
     plumb_atmosphere_free(atm);
 }
 
+static void test_drag_free_fall_ignores_every_wind_profile(void **state)
+{
+    (void)state;
+    /* No drag, no wind force: sqrt(2 g H) whatever the wind, including the
+     * log law's kink at its roughness length (an event the integration
+     * stops at) and the power law's ground layer. */
+    plumb_atmosphere *atm = std_air(0.0);
+    plumb_trajectory *w = workspace();
+    const plumb_wind_profile profiles[] = {PLUMB_WIND_UNIFORM, PLUMB_WIND_POWER, PLUMB_WIND_LOG};
+    const double g = PLUMB_G0_M_S2, H = 31.7;
+    for (size_t i = 0; i < 3; i++) {
+        plumb_fall_spec s;
+        base_spec(&s, 1.13, 0.0, H);
+        s.wind.profile = profiles[i];
+        s.wind.speed_m_s = 5.3;
+        s.wind.from_deg = 270.0;
+        plumb_fall_result r;
+        plumb_diag d;
+        assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+        assert_rel(r.speed_m_s, sqrt(2.0 * g * H), 1e-12);
+        assert_abs(r.drift_m, 0.0, 1e-12);
+    }
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_drag_free_upward_throw_reaches_the_ballistic_apex(void **state)
 {
     (void)state;
@@ -669,6 +695,7 @@ int main(void)
         cmocka_unit_test(test_vertical_fall_matches_closed_form_in_constant_air),
         cmocka_unit_test(test_drag_free_fall_gives_vacuum_speed_energy_and_range),
         cmocka_unit_test(test_drag_free_vertical_drop_reproduces_sqrt_2gh_and_mgh),
+        cmocka_unit_test(test_drag_free_fall_ignores_every_wind_profile),
         cmocka_unit_test(test_drag_free_upward_throw_reaches_the_ballistic_apex),
         cmocka_unit_test(test_mechanical_energy_lost_equals_drag_work),
         cmocka_unit_test(test_wind_from_270_degrees_carries_the_object_east),
