@@ -232,11 +232,12 @@ static double eval_at(double x, void *params)
     return metric_of(&r, c->metric) - c->limit;
 }
 
+/* Brent's method on [a, b] (f(a), f(b) of opposite signs) to rel_tol. The
+ * answer is the end of the final bracket on the side that meets the limit
+ * (f <= 0), so the value reported is never one that breaks it. */
 static plumb_status brent(solver_ctx *c, double a, double fa, double b, double fb, double rel_tol,
                           double *root)
 {
-    (void)fa;
-    (void)fb;
     gsl_function F = {eval_at, c};
     gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
     if (!s)
@@ -254,7 +255,8 @@ static plumb_status brent(solver_ctx *c, double a, double fa, double b, double f
         if (rc == GSL_CONTINUE)
             rc = GSL_SUCCESS;
     }
-    *root = gsl_root_fsolver_root(s);
+    double f_lo = a < b ? fa : fb;
+    *root = f_lo <= 0.0 ? gsl_root_fsolver_x_lower(s) : gsl_root_fsolver_x_upper(s);
     gsl_root_fsolver_free(s);
     if (c->fail != PLUMB_OK)
         return c->fail;

@@ -195,6 +195,18 @@ static void warn_helmet_tests(plumb_item_report *item)
     add_warning(item, "%s", sentence);
 }
 
+plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
+                                          const plumb_criteria *criteria, plumb_diag *diag)
+{
+    size_t named = plumb_profile_criteria_count(profile);
+    for (size_t i = 0; i < named; i++) {
+        const char *name = plumb_profile_criterion(profile, i);
+        if (!plumb_criteria_find(criteria, name))
+            return unknown_criterion(name, i, profile, criteria, diag);
+    }
+    return PLUMB_OK;
+}
+
 plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
                               const plumb_criteria *criteria, const plumb_atmosphere *atm,
                               plumb_diag *diag)
@@ -2288,6 +2300,21 @@ static const char *t_value(writer *w, plumb_dim dim, double si)
     return b;
 }
 
+/* A limit's value, 6 figures, rounded toward the side that meets the limit
+ * (down when lower values do), so that the printed value is a safe one. */
+static const char *t_limit_value(writer *w, plumb_dim dim, double si, int round_down)
+{
+    shown v = show_dim(w, dim, si);
+    double x = v.x;
+    if (x != 0.0 && plumbp_finite(x)) {
+        double scale = pow(10.0, floor(log10(fabs(x))) - 5.0);
+        x = (round_down ? floor(x / scale) : ceil(x / scale)) * scale;
+    }
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s%s%s", gnum(w, x, 6), v.unit[0] ? NBSP : "", v.unit);
+    return b;
+}
+
 static void text_limit_answer(writer *w, const plumb_report_options *opt,
                               const plumb_limit_report *rep)
 {
@@ -2305,7 +2332,8 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
         if (plumb_profile_is_inventory(p))
             put(w, "%s\n", plumb_profile_item(p, i)->name);
         if (r->outcome == PLUMB_LIMIT_FOUND) {
-            put(w, "  %s = %s\n", rep->key, t_value(w, r->dim, r->value_si));
+            put(w, "  %s = %s\n", rep->key,
+                t_limit_value(w, r->dim, r->value_si, r->limit_is_upper_bound));
             snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
                      metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher",

@@ -55,6 +55,11 @@ typedef struct plumb_fall_report {
 /* The cautions, in order; *n gets their count. Static strings. Can't fail. */
 const char *const *plumb_cautions(size_t *n);
 
+/* Checks that every criterion the profile names is in the set: PLUMB_EKEY
+ * located at the entry, with a did-you-mean, for one that is not. */
+plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
+                                          const plumb_criteria *criteria, plumb_diag *diag);
+
 /* Computes item->verdicts and item->warnings for a finished fall.
  * Criteria named by the profile and missing from the set give PLUMB_EKEY
  * with a did-you-mean. */

@@ -105,6 +105,8 @@ static int run(const cli_args *a, const cli_option *o)
     if (st == PLUMB_OK)
         st = plumb_profile_load(a->args[0], units, a->sets, a->n_sets, &prof, &diag);
     if (st == PLUMB_OK)
+        st = plumb_profile_criteria_check(prof, crit, &diag);
+    if (st == PLUMB_OK)
         st = plumb_trajectory_alloc(NULL, &traj);
     size_t n = st == PLUMB_OK ? plumb_profile_item_count(prof) : 0;
     if (st == PLUMB_OK && !(res = calloc(n, sizeof *res)))

@@ -33,14 +33,8 @@ static int lint_one(const cli_args *a, const plumb_units *units, const char *pat
         if (!*crit)
             st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, crit,
                                          &diag);
-        /* Judging an impact of no energy checks every named criterion
-         * exists, by the same code (and did-you-mean) as `plumb fall`. */
-        for (size_t i = 0; st == PLUMB_OK && i < plumb_profile_item_count(prof); i++) {
-            plumb_item_report item;
-            memset(&item, 0, sizeof item);
-            item.spec = plumb_profile_item(prof, i);
-            st = plumb_item_judge(&item, prof, *crit, atm, &diag);
-        }
+        if (st == PLUMB_OK)
+            st = plumb_profile_criteria_check(prof, *crit, &diag);
     }
     plumb_atmosphere_free(atm);
     plumb_profile_free(prof);

@@ -104,6 +104,9 @@ def limit_meets(profile, key, flag, limit, metric, unit, expect_unlimited=()):
         rel = abs(got - target) / target
         check(rel <= 1e-6, f"limit {key}: fall at {item['value_si']} gives {got}, limit {target} "
                            f"(rel {rel:.1e})")
+        # the value reported is on the side that meets the limit, never past it
+        check(got <= target, f"limit {key}: the value {item['value_si']} meets the limit "
+                             f"({got} <= {target})")
     return d
 
 
@@ -170,10 +173,16 @@ bad = [
 typo = os.path.join(PROF, "criterion-typo.yaml")
 bad.append((["fall", typo], "criterion-typo.yaml:7:23: criteria[1]"))
 bad.append((["fall", typo], "did you mean 'us-part107-cat3'"))
+bad.append((["limit", typo, "--find", "release.height", "--energy-max", "50J"],
+            "criterion-typo.yaml:7:23: criteria[1]"))
 for args, key in bad:
     rc, out, err = plumb(*args, "-o", out_file)
     check(rc == 2 and key in err and not os.path.exists(out_file),
           f"{' '.join(args[2:])}: exit {rc}, message {err.strip()!r}")
+
+rc, out, err = plumb("lint", typo)
+check(rc == 2 and "criterion-typo.yaml:7:23: criteria[1]" in err,
+      f"lint of a criterion typo: exit {rc}, message {err.strip()!r}")
 
 print(f"cli: {passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)
