@@ -2385,13 +2385,15 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
         shown v = show_dim(w, r->dim, r->value_si);
+        int found = r->outcome == PLUMB_LIMIT_FOUND; /* else no value: empty fields */
         csv_field(w, plumb_profile_item(rep->profile, i)->name);
         put(w, ",");
         csv_field(w, rep->key);
-        put(w, ",%s,%s,", outcome_word(r->outcome), csvnum(w, v.x));
+        put(w, ",%s,%s,", outcome_word(r->outcome), found ? csvnum(w, v.x) : "");
         csv_field(w, v.unit);
-        put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", csvnum(w, r->value_si), metric_word(rep->metric),
-            csvnum(w, rep->limit), csvnum(w, r->metric_at_value), csvnum(w, r->base_value_si),
+        put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", found ? csvnum(w, r->value_si) : "",
+            metric_word(rep->metric), csvnum(w, rep->limit),
+            found ? csvnum(w, r->metric_at_value) : "", csvnum(w, r->base_value_si),
             csvnum(w, r->metric_at_base), r->n_crossings, r->evaluations);
         csv_field(w, r->explanation);
         put(w, "\n");

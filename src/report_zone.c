@@ -201,7 +201,8 @@ static const char *dist_word(plumb_dist_kind k)
 static void text_inputs(writer *w, const plumb_zone_result *r)
 {
     if (r->n_inputs == 0) {
-        put(w, "Uncertain inputs\n  none: every sample is the same fall\n\n");
+        put(w, "Uncertain inputs\n  none: every sample is the same fall, so the radius below is "
+               "that fall's\n  drift alone; give the inputs' uncertainty to size a zone\n\n");
         return;
     }
     put(w, "Uncertain inputs\n");
@@ -265,7 +266,12 @@ static const char *t_interval(writer *w, const plumb_zone_quantile *q, double sc
 static const char *pct(writer *w, double p)
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %%", trim(w, PERCENT * p, TEXT_SIG, PCT_DEC));
+    double x = PERCENT * p;
+    /* a small non-zero bound keeps two figures rather than rounding to 0 */
+    if (x > 0.0 && x < 0.5 * pow(10.0, -PCT_DEC))
+        snprintf(b, NUMBUF, "%.2g %%", x);
+    else
+        snprintf(b, NUMBUF, "%s %%", trim(w, x, TEXT_SIG, PCT_DEC));
     return b;
 }
 
@@ -343,7 +349,8 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     put(w, "  %-26s %s\n", "radius = drop height", t_len(w, z->drop_height_m));
     char line[256];
     snprintf(line, sizeof line,
-             "%s: the largest release speed sampled, %s, thrown without drag or wind",
+             "%s: the range, without drag or wind, of the sample released fastest (%s, in "
+             "its own direction)",
              t_len(w, z->ballistic_throw_m), t_speed(w, z->max_release_speed_m_s));
     for (char *c = line; *c; c++)
         if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
