@@ -1932,7 +1932,7 @@ static shown show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
-enum { SWEEP_COL = 11, SWEEP_KEY_COL = 16 };
+enum { SWEEP_COL = 9, SWEEP_KEY_COL = 15 };
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
