@@ -49,38 +49,6 @@
 
 /* ---- helpers of this file ------------------------------------------------ */
 
-static plumb_atmosphere *std_air(double dt_k)
-{
-    plumb_atm_spec a;
-    plumb_atm_spec_init(&a);
-    a.temperature_offset_k = dt_k;
-    plumb_atmosphere *atm = NULL;
-    plumb_diag d;
-    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
-    return atm;
-}
-
-/* Constant air (a density table with equal rows): drag-free falls do not
- * depend on it, and it costs less to evaluate than the 1976 model. */
-static const double const_alt_m[2] = {-1000.0, 30000.0};
-static const double const_rho[2] = {1.2041, 1.2041};
-static const double const_t_k[2] = {293.15, 293.15};
-
-static plumb_atmosphere *constant_air(void)
-{
-    plumb_atm_spec a;
-    plumb_atm_spec_init(&a);
-    a.model = PLUMB_ATM_TABLE;
-    a.table_n = 2;
-    a.table_alt_m = const_alt_m;
-    a.table_rho_kg_m3 = const_rho;
-    a.table_t_k = const_t_k;
-    plumb_atmosphere *atm = NULL;
-    plumb_diag d;
-    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
-    return atm;
-}
-
 /* A drag-free (cd 0) payload dropped from h_m, constant g0, calm air. */
 static void drag_free_spec(plumb_fall_spec *s, double mass_kg, double h_m)
 {
@@ -165,7 +133,7 @@ static const double rad_p[PLUMB_ZONE_RADII] = {0.5, 0.9, 0.99, 0.999};
 static void test_drag_free_drift_with_normal_release_velocity_is_rayleigh(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     const double H = 37.3, sigma = 1.85, m = 1.937;
     plumb_fall_spec s;
     drag_free_spec(&s, m, H);
@@ -228,7 +196,7 @@ static void test_drag_free_drift_with_normal_release_velocity_is_rayleigh(void *
 static void test_ballistic_throw_includes_the_upward_release_component(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     const double H = 12.7, vz = 2.37;
     plumb_fall_spec s;
     drag_free_spec(&s, 0.731, H);
@@ -251,7 +219,7 @@ static void test_ballistic_throw_includes_the_upward_release_component(void **st
 static void test_ellipse_major_axis_follows_the_larger_spread(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_fall_spec s;
     drag_free_spec(&s, 2.385, 23.9);
     s.velocity_m_s[1] = 1.41;
@@ -282,7 +250,7 @@ static void test_ellipse_major_axis_follows_the_larger_spread(void **state)
 static void test_intervals_cover_the_true_values_in_at_least_93_percent_of_200_runs(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     const double H = 9.31, sigma = 2.17, m = 0.613, g = PLUMB_G0_M_S2;
     plumb_fall_spec s;
     drag_free_spec(&s, m, H);
@@ -320,7 +288,7 @@ static void test_intervals_cover_the_true_values_in_at_least_93_percent_of_200_r
 static void test_exceedance_follows_the_criterion_wording_at_the_limit(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_fall_spec s;
     drag_free_spec(&s, 1.377, 14.2);
     plumb_zone_spec z = zone_spec(400, 9, 0.9);
@@ -360,7 +328,7 @@ static void drone_uncertainty(plumb_uncertainty *u)
 static void test_zone_is_identical_for_one_two_and_three_threads(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(17.0);
+    plumb_atmosphere *atm = plumbt_std_air(17.0);
     plumb_fall_spec s;
     drone_spec(&s);
     plumb_uncertainty u[7];
@@ -436,7 +404,7 @@ static size_t rank_of(double p, size_t n)
 static void test_binned_percentiles_match_an_exact_sort_of_1e5_samples(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_fall_spec s;
     drag_free_spec(&s, 1.217, 17.9);
     s.velocity_m_s[0] = 2.3;
@@ -517,7 +485,7 @@ static void test_binned_percentiles_match_an_exact_sort_of_1e5_samples(void **st
 static void test_release_point_puts_the_median_impact_on_the_target(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(17.0);
+    plumb_atmosphere *atm = plumbt_std_air(17.0);
     plumb_fall_spec s;
     drone_spec(&s);
     plumb_uncertainty u[7];
@@ -879,7 +847,7 @@ static void test_bad_uncertainty_is_refused_with_its_key_and_location(void **sta
 static void test_bad_zone_settings_are_refused_with_their_key(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_fall_spec s;
     drag_free_spec(&s, 1.3, 10.7);
     plumb_uncertainty u = unc("release.velocity.east", PLUMB_DIST_NORMAL, 0.0, 1.0, 0.0);
@@ -915,7 +883,7 @@ static int stop_at_40(void *user, int pass, size_t index, const plumb_zone_sampl
 static void test_a_failing_sample_stops_the_run_at_the_same_index_for_any_threads(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_fall_spec s;
     drag_free_spec(&s, 0.0113, 8.3);
     s.drag.cd = 1.1; /* drag so that a light sample falls slowly */
@@ -966,7 +934,7 @@ static void progress(void *user, int pass, size_t done, size_t total)
 static void test_progress_is_reported_in_increasing_counts_to_the_total(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_fall_spec s;
     drag_free_spec(&s, 1.3, 10.7);
     plumb_uncertainty u = unc("release.velocity.east", PLUMB_DIST_NORMAL, 0.0, 1.0, 0.0);

@@ -23,38 +23,6 @@
 #include "plumb/plumb.h"
 #include "plumb_test.h"
 
-/* Constant air: a density table with equal rows and a temperature column,
- * so rho is the same at every altitude (linear in ln rho). */
-static const double const_alt_m[2] = {-1000.0, 30000.0};
-static const double const_rho[2] = {1.2041, 1.2041};
-static const double const_t_k[2] = {293.15, 293.15};
-
-static plumb_atmosphere *constant_air(void)
-{
-    plumb_atm_spec a;
-    plumb_atm_spec_init(&a);
-    a.model = PLUMB_ATM_TABLE;
-    a.table_n = 2;
-    a.table_alt_m = const_alt_m;
-    a.table_rho_kg_m3 = const_rho;
-    a.table_t_k = const_t_k;
-    plumb_atmosphere *atm = NULL;
-    plumb_diag d;
-    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
-    return atm;
-}
-
-static plumb_atmosphere *std_air(double dt_k)
-{
-    plumb_atm_spec a;
-    plumb_atm_spec_init(&a);
-    a.temperature_offset_k = dt_k;
-    plumb_atmosphere *atm = NULL;
-    plumb_diag d;
-    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
-    return atm;
-}
-
 static void base_spec(plumb_fall_spec *s, double mass_kg, double cda_m2, double h_m)
 {
     memset(s, 0, sizeof *s);
@@ -83,11 +51,11 @@ static double closed_time(double y, double vt, double g)
 static void test_vertical_fall_matches_closed_form_in_constant_air(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_trajectory *w = workspace();
     const double heights[] = {0.5, 3.7, 31.4, 247.0, 2000.0};
     const double vts[] = {5.0, 23.7, 61.3, 150.0};
-    const double g = PLUMB_G0_M_S2, m = 2.385, rho = const_rho[0];
+    const double g = PLUMB_G0_M_S2, m = 2.385, rho = PLUMBT_CONST_RHO;
     for (size_t i = 0; i < sizeof heights / sizeof *heights; i++) {
         for (size_t j = 0; j < sizeof vts / sizeof *vts; j++) {
             double H = heights[i], vt = vts[j];
@@ -111,7 +79,7 @@ static void test_vertical_fall_matches_closed_form_in_constant_air(void **state)
 static void test_drag_free_fall_gives_vacuum_speed_energy_and_range(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     const double g = PLUMB_G0_M_S2, m = 0.731, H = 43.7, v0 = 3.85;
     plumb_fall_spec s;
@@ -138,7 +106,7 @@ static void test_drag_free_fall_gives_vacuum_speed_energy_and_range(void **state
 static void test_drag_free_vertical_drop_reproduces_sqrt_2gh_and_mgh(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     const double g = PLUMB_G0_M_S2, m = 2.385;
     const double heights[] = {0.5, 7.3, 61.0, 1830.0};
@@ -161,7 +129,7 @@ static void test_drag_free_fall_ignores_every_wind_profile(void **state)
     /* No drag, no wind force: sqrt(2 g H) whatever the wind, including the
      * log law's kink at its roughness length (an event the integration
      * stops at) and the power law's ground layer. */
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     const plumb_wind_profile profiles[] = {PLUMB_WIND_UNIFORM, PLUMB_WIND_POWER, PLUMB_WIND_LOG};
     const double g = PLUMB_G0_M_S2, H = 31.7;
@@ -184,7 +152,7 @@ static void test_drag_free_fall_ignores_every_wind_profile(void **state)
 static void test_drag_free_upward_throw_reaches_the_ballistic_apex(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     const double g = PLUMB_G0_M_S2, H = 12.5, v0z = 7.9;
     plumb_fall_spec s;
@@ -203,7 +171,7 @@ static void test_drag_free_upward_throw_reaches_the_ballistic_apex(void **state)
 static void test_mechanical_energy_lost_equals_drag_work(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(12.0);
+    plumb_atmosphere *atm = plumbt_std_air(12.0);
     plumb_trajectory *w = workspace();
     const double g = PLUMB_G0_M_S2, m = 1.137, H = 87.3;
     plumb_fall_spec s;
@@ -232,7 +200,7 @@ static void test_mechanical_energy_lost_equals_drag_work(void **state)
 static void test_wind_from_270_degrees_carries_the_object_east(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     base_spec(&s, 0.52, 0.0, 40.0);
@@ -253,7 +221,7 @@ static void test_wind_from_270_degrees_carries_the_object_east(void **state)
 static void test_power_law_with_exponent_zero_equals_uniform_wind(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     base_spec(&s, 0.52, 0.0, 75.0);
@@ -278,7 +246,7 @@ static void test_impact_point_agrees_with_a_much_tighter_run(void **state)
 {
     (void)state;
     /* Henon's method puts the impact at z = 0 exactly, whatever the step. */
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace(), *tight = NULL;
     plumb_trajectory_options o;
     plumb_trajectory_options_init(&o);
@@ -310,9 +278,9 @@ static void test_parachute_descends_at_body_plus_canopy_terminal_speed(void **st
 {
     (void)state;
     /* Closed-form terminal speed with CdA = body + canopy (shared/references.md). */
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_trajectory *w = workspace();
-    const double g = PLUMB_G0_M_S2, m = 2.07, rho = const_rho[0];
+    const double g = PLUMB_G0_M_S2, m = 2.07, rho = PLUMBT_CONST_RHO;
     plumb_fall_spec s;
     base_spec(&s, m, 0.0, 400.0);
     s.drag.cd = 1.0;
@@ -360,7 +328,7 @@ static void opening_spec(plumb_fall_spec *s, double mass_kg, double fill_s)
 
 static double opening_case(double mass_kg, double fill_s, plumb_fall_result *r)
 {
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     opening_spec(&s, mass_kg, fill_s);
@@ -369,7 +337,7 @@ static double opening_case(double mass_kg, double fill_s, plumb_fall_result *r)
     if (st != PLUMB_OK)
         print_error("%s\n", d.message);
     assert_int_equal(st, PLUMB_OK);
-    double q = 0.5 * const_rho[0] * r->deploy_speed_m_s[0] * r->deploy_speed_m_s[0];
+    double q = 0.5 * PLUMBT_CONST_RHO * r->deploy_speed_m_s[0] * r->deploy_speed_m_s[0];
     /* lower bounds: the body's own drag at line stretch, and, when the
      * canopy opens above its steady speed, the weight (it must slow down) */
     assert_true(r->peak_force_n >= q * 1.05 * 0.0314);
@@ -402,7 +370,7 @@ static void test_peak_force_is_located_between_steps_not_sampled(void **state)
      * move when the steps are made much finer. */
     plumb_fall_result a, b;
     opening_case(1.9, 0.93, &a);
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_trajectory_options o;
     plumb_trajectory_options_init(&o);
     o.rel_tol = 1e-13;
@@ -422,7 +390,7 @@ static void test_energy_balance_holds_with_a_filling_canopy(void **state)
     (void)state;
     /* Work-energy theorem with the drag of body and canopy, through the
      * filling: the mechanical energy lost equals the drag work, 1e-8. */
-    plumb_atmosphere *atm = std_air(6.5);
+    plumb_atmosphere *atm = plumbt_std_air(6.5);
     plumb_trajectory *w = workspace();
     const double g = PLUMB_G0_M_S2, m = 1.83, H = 142.0;
     plumb_fall_spec s;
@@ -456,9 +424,9 @@ static void test_drogue_then_main_open_in_sequence(void **state)
     (void)state;
     /* The main replaces the drogue at its line stretch: the steady speed is
      * the closed-form terminal speed with body + main only. */
-    plumb_atmosphere *atm = constant_air();
+    plumb_atmosphere *atm = plumbt_constant_air();
     plumb_trajectory *w = workspace();
-    const double g = PLUMB_G0_M_S2, m = 4.37, rho = const_rho[0];
+    const double g = PLUMB_G0_M_S2, m = 4.37, rho = PLUMBT_CONST_RHO;
     plumb_fall_spec s;
     base_spec(&s, m, 0.0, 900.0);
     s.drag.cd = 1.0;
@@ -487,7 +455,7 @@ static void test_drogue_then_main_open_in_sequence(void **state)
 static void test_deploy_below_a_height_opens_exactly_there(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     base_spec(&s, 1.5, 0.0, 150.0);
@@ -511,7 +479,7 @@ static void test_deploy_below_a_height_opens_exactly_there(void **state)
 static void test_invalid_specs_are_refused(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     plumb_fall_result r;
@@ -543,7 +511,7 @@ static void test_invalid_specs_are_refused(void **state)
 static void test_buoyant_object_never_lands_and_says_so(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     base_spec(&s, 0.010, 0.0, 20.0);
@@ -561,7 +529,7 @@ static void test_buoyant_object_never_lands_and_says_so(void **state)
 static void test_step_and_time_budgets_are_errors_not_numbers(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory_options o;
     plumb_trajectory_options_init(&o);
     o.max_steps = 3;
@@ -590,7 +558,7 @@ static void test_step_and_time_budgets_are_errors_not_numbers(void **state)
 static void test_path_outside_the_atmosphere_is_a_range_error(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace();
     plumb_fall_spec s;
     base_spec(&s, 1.0, 0.01, 1000.0);
@@ -612,7 +580,7 @@ static void test_path_outside_the_atmosphere_is_a_range_error(void **state)
 static void test_recorded_path_starts_at_release_and_ends_on_the_ground(void **state)
 {
     (void)state;
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory_options o;
     plumb_trajectory_options_init(&o);
     o.record_path = 1;
@@ -640,7 +608,7 @@ static void test_stiff_light_fall_switches_to_msbdf_and_stays_accurate(void **st
     (void)state;
     /* 0.5 g card, Cd 1, 0.01 m^2, from 1000 m: 2 g H / v_t^2 ~ 24 000.
      * Reference: the explicit rk8pd stepper at rel_tol 1e-13. */
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_trajectory *w = workspace(), *ref = NULL;
     plumb_trajectory_options o;
     plumb_trajectory_options_init(&o);
@@ -672,7 +640,7 @@ static void test_sphere_terminal_speed_balances_weight_and_morrison_drag(void **
 {
     (void)state;
     /* A rigid 1 mm water sphere: at v_t, 1/2 rho Cd(Re) A v^2 = m g. */
-    plumb_atmosphere *atm = std_air(0.0);
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
     plumb_fall_spec s;
     double dmm = 1.0e-3;
     base_spec(&s, 998.2 * PLUMB_PI * dmm * dmm * dmm / 6.0, 0.0, 10.0);

@@ -10,6 +10,7 @@
 #include <cmocka.h>
 #include <gsl/gsl_errno.h>
 
+#include "plumb/plumb.h"
 #include "plumb_test.h"
 
 void plumbt_assert_rel(double got, double want, double rel, const char *expr,
@@ -47,4 +48,34 @@ const char *plumbt_srcdir(void)
 {
     const char *d = getenv("PLUMB_SRCDIR");
     return d && *d ? d : ".";
+}
+
+static const double const_alt_m[2] = {-1000.0, 30000.0};
+static const double const_rho[2] = {PLUMBT_CONST_RHO, PLUMBT_CONST_RHO};
+static const double const_t_k[2] = {293.15, 293.15};
+
+plumb_atmosphere *plumbt_constant_air(void)
+{
+    plumb_atm_spec a;
+    plumb_atm_spec_init(&a);
+    a.model = PLUMB_ATM_TABLE;
+    a.table_n = 2;
+    a.table_alt_m = const_alt_m;
+    a.table_rho_kg_m3 = const_rho;
+    a.table_t_k = const_t_k;
+    plumb_atmosphere *atm = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
+    return atm;
+}
+
+plumb_atmosphere *plumbt_std_air(double dt_k)
+{
+    plumb_atm_spec a;
+    plumb_atm_spec_init(&a);
+    a.temperature_offset_k = dt_k;
+    plumb_atmosphere *atm = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_atmosphere_alloc(&a, &atm, &d), PLUMB_OK);
+    return atm;
 }

@@ -23,6 +23,18 @@ void plumbt_assert_abs(double got, double want, double tol, const char *expr,
 /* Turns GSL's abort-on-error handler off; call in every test's group setup. */
 int plumbt_setup_gsl(void **state);
 
+/* Density of the constant air of plumbt_constant_air, kg/m^3. */
+#define PLUMBT_CONST_RHO 1.2041
+
+/* Constant air: a density table with equal rows (PLUMBT_CONST_RHO) and a
+ * temperature column (293.15 K) from -1 km to 30 km, so rho is the same at
+ * every altitude (linear in ln rho) and the closed forms of a fall in
+ * constant air apply. Fails the test when it cannot be made. */
+struct plumb_atmosphere *plumbt_constant_air(void);
+
+/* The U.S. Standard Atmosphere 1976 with a temperature offset dt_k. */
+struct plumb_atmosphere *plumbt_std_air(double dt_k);
+
 /* Root of the source tree (where profiles/ lives): $PLUMB_SRCDIR or ".". */
 const char *plumbt_srcdir(void);
 
