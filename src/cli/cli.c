@@ -50,6 +50,16 @@ static void cli_print_common(unsigned accept)
     }
 }
 
+plumb_report_options cli_report_options(const cli_args *a)
+{
+    plumb_report_options o;
+    memset(&o, 0, sizeof o);
+    o.format = a->format;
+    o.units = a->units;
+    o.version = PLUMB_VERSION;
+    return o;
+}
+
 int cli_usage_error(const char *cmd, const char *fmt, ...)
 {
     va_list ap;

@@ -82,6 +82,10 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
 /* Frees the arrays of a parsed command line. Accepts a zeroed struct. */
 void cli_args_free(cli_args *a);
 
+/* The report options the command line asked for: --format, --units, and
+ * this program's version. Can't fail. */
+plumb_report_options cli_report_options(const cli_args *a);
+
 /* Prints "plumb CMD: message" and a hint to stderr; returns 2. */
 int cli_usage_error(const char *cmd, const char *fmt, ...)
 #if defined(__GNUC__)

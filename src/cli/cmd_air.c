@@ -160,9 +160,7 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
     if (st == PLUMB_OK) {
         air_job job;
         memset(&job, 0, sizeof job);
-        job.opt.format = a->format;
-        job.opt.units = a->units;
-        job.opt.version = PLUMB_VERSION;
+        job.opt = cli_report_options(a);
         job.rows = rows;
         job.n = n;
         rc = cli_emit(a, write_report, &job);

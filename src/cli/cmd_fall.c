@@ -92,9 +92,7 @@ static int run(const cli_args *a)
     if (st == PLUMB_OK) {
         fall_job job;
         memset(&job, 0, sizeof job);
-        job.opt.format = a->format;
-        job.opt.units = a->units;
-        job.opt.version = PLUMB_VERSION;
+        job.opt = cli_report_options(a);
         job.rep.profile = prof;
         job.rep.n_items = n;
         job.rep.items = items;

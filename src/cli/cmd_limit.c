@@ -118,9 +118,7 @@ static int run(const cli_args *a, const cli_option *o)
     if (st == PLUMB_OK) {
         limit_job job;
         memset(&job, 0, sizeof job);
-        job.opt.format = a->format;
-        job.opt.units = a->units;
-        job.opt.version = PLUMB_VERSION;
+        job.opt = cli_report_options(a);
         job.rep = (plumb_limit_report){prof, o[OPT_FIND].value, metric, limit, criterion, n, res};
         rc = cli_emit(a, write_report, &job);
     } else {

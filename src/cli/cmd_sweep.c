@@ -64,9 +64,7 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
     if (st == PLUMB_OK) {
         sweep_job job;
         memset(&job, 0, sizeof job);
-        job.opt.format = a->format;
-        job.opt.units = a->units;
-        job.opt.version = PLUMB_VERSION;
+        job.opt = cli_report_options(a);
         job.sweep = sweep;
         rc = cli_emit(a, write_report, &job);
     } else {

@@ -489,11 +489,7 @@ static int run(const cli_args *a, const zone_opts *zo)
     char *buf = NULL;
     size_t len = 0;
     if (st == PLUMB_OK) {
-        plumb_report_options ropt;
-        memset(&ropt, 0, sizeof ropt);
-        ropt.format = a->format;
-        ropt.units = a->units;
-        ropt.version = PLUMB_VERSION;
+        plumb_report_options ropt = cli_report_options(a);
         plumb_zone_report rep;
         memset(&rep, 0, sizeof rep);
         rep.profile_name = plumb_profile_name(prof);
