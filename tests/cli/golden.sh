@@ -9,26 +9,11 @@
 #   sh tests/cli/golden.sh PLUMB --update   rewrite tests/cli/golden/* first
 #
 # Ends with one line `cli: N passed, N failed`; exit 0 only if none failed.
-set -u
-LC_ALL=C
-export LC_ALL
-
-if [ $# -lt 1 ]; then
-  echo "usage: sh $0 PLUMB [--update]" >&2
-  exit 2
-fi
-bin=$1
+usage_extra=" [--update]"
+. "$(dirname "$0")/lib/setup.sh"
 update=0
 [ "${2:-}" = "--update" ] && update=1
-case $bin in /*) ;; *) bin=$(pwd)/$bin ;; esac
-
-here=$(cd "$(dirname "$0")" && pwd)
-root=$(cd "$here/../.." && pwd)
-cd "$root" || exit 2
 gold=tests/cli/golden
-# Reports must not depend on where the binary was built.
-PLUMB_CRITERIA_DIR=profiles/criteria
-export PLUMB_CRITERIA_DIR
 
 tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-golden.XXXXXX") || exit 2
 trap 'rm -rf "$tmp"' EXIT

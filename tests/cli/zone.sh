@@ -11,22 +11,7 @@
 #   sh tests/cli/zone.sh PLUMB
 #
 # Ends with one line `cli: N passed, N failed`; exit 0 only if none failed.
-set -u
-LC_ALL=C
-export LC_ALL
-
-if [ $# -lt 1 ]; then
-  echo "usage: sh $0 PLUMB" >&2
-  exit 2
-fi
-bin=$1
-case $bin in /*) ;; *) bin=$(pwd)/$bin ;; esac
-
-here=$(cd "$(dirname "$0")" && pwd)
-root=$(cd "$here/../.." && pwd)
-cd "$root" || exit 2
-PLUMB_CRITERIA_DIR=profiles/criteria
-export PLUMB_CRITERIA_DIR
+. "$(dirname "$0")/lib/setup.sh"
 py=/usr/bin/python3
 
 tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-zone.XXXXXX") || exit 2
