@@ -2,10 +2,18 @@
  * drag.c - drag coefficients and areas of payloads.
  *
  * Sources:
- *  - Sphere Cd(Re): F. A. Morrison, An Introduction to Fluid Mechanics,
- *    Cambridge University Press 2013, eq. 8.13 (valid Re <= 1e6):
+ *  - Sphere Cd(Re): F. A. Morrison, "Data Correlation for Drag Coefficient
+ *    for Sphere", Department of Chemical Engineering, Michigan Technological
+ *    University, 2010, eq. (1) (seen in a transcription of the handout;
+ *    valid Re <= 1e6):
  *      Cd = 24/Re + 2.6 (Re/5) / (1 + (Re/5)^1.52)
  *           + 0.411 (Re/263000)^-7.94 / (1 + (Re/263000)^-8) + Re^0.8 / 461000
+ *    This is the form plumb uses and the one it cites. Morrison's book (An
+ *    Introduction to Fluid Mechanics, CUP 2013) prints a correlation of the
+ *    same family; a later form replaces the last term by
+ *    0.25 (Re/1e6) / (1 + Re/1e6) (from memory, not confirmed here: Cd then
+ *    differs by up to 0.3 % below Re 1e5 and by 9 % at 1e6). The book's
+ *    equation could not be checked, so it is not cited for the figures.
  *  - Sphere Cd(Re), standard drag curve: R. Clift, J. R. Grace, M. E. Weber,
  *    Bubbles, Drops, and Particles, Academic Press 1978, Table 5.2
  *    (piecewise in w = log10 Re; coefficients from memory except the
@@ -69,6 +77,33 @@ double plumb_drag_cd_area(const plumb_drag_spec *spec, double re)
     case PLUMB_DRAG_FIXED:
     default:
         return spec->area_m2 > 0.0 ? spec->cd * spec->area_m2 : spec->cd_area_m2;
+    }
+}
+
+/* Reynolds-number intervals outside which Cd(Re) Re^2 never decreases, so
+ * that the drag balance 1/2 rho Cd(Re) A v^2 = m g has at most one root
+ * there (Re is proportional to v). Inside them (the drag crisis, and the
+ * two small downward jumps where the Clift-Grace-Weber pieces meet) it
+ * may have several. Found by scanning each curve at a ratio of 1 + 1e-5
+ * in Re from 1e-3 to 1e9 (Morrison: decreasing on 2.392e5..3.563e5;
+ * Clift-Grace-Weber: at the joins 1.2e4 and 4.4e4 and on 3.380e5..4.000e5)
+ * and widened; tests/test_drag.c repeats the scan. */
+static const double morrison_crisis[][2] = {{2.30e5, 3.70e5}};
+static const double cgw_crisis[][2] = {{1.19e4, 1.21e4}, {4.39e4, 4.41e4}, {3.30e5, 4.10e5}};
+
+size_t plumbp_drag_crisis(plumb_drag_model model, const double (**re)[2])
+{
+    switch (model) {
+    case PLUMB_DRAG_SPHERE_MORRISON:
+        *re = morrison_crisis;
+        return sizeof morrison_crisis / sizeof *morrison_crisis;
+    case PLUMB_DRAG_SPHERE_CGW:
+        *re = cgw_crisis;
+        return sizeof cgw_crisis / sizeof *cgw_crisis;
+    case PLUMB_DRAG_FIXED:
+    default:
+        *re = NULL;
+        return 0;
     }
 }
 
@@ -180,7 +215,7 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
         out->area_m2 = PLUMB_PI * shape->dims_m[0] * shape->dims_m[0] / 4.0;
         out->cd = 0.47;
         snprintf(out->source, sizeof out->source,
-                 "sphere of diameter %.4g m: Cd(Re) by Morrison (2013), area pi d^2/4",
+                 "sphere of diameter %.4g m: Cd(Re) by Morrison (2010), area pi d^2/4",
                  shape->dims_m[0]);
         return PLUMB_OK;
     }

@@ -693,7 +693,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
             snprintf(d->source, sizeof d->source,
                      "sphere of diameter %.6g m as given in the profile: Cd(Re) by %s, area pi d^2/4",
                      d->diameter_m,
-                     model == 1 ? "Morrison (2013)" : "Clift, Grace & Weber (1978), Table 5.2");
+                     model == 1 ? "Morrison (2010)" : "Clift, Grace & Weber (1978), Table 5.2");
         }
         if (user_source[0])
             memcpy(d->source, user_source, sizeof d->source);

@@ -67,7 +67,7 @@
  * incompressible flow no longer hold (common practice, no source). */
 #define WARN_MACH 0.5
 /* Upper end of the Reynolds-number range of the sphere-drag correlations:
- * Morrison (2013) states Re <= 1e6; the Clift-Grace-Weber curve (1978,
+ * Morrison (2010 handout, eq. 1) states Re <= 1e6; the Clift-Grace-Weber curve (1978,
  * Table 5.2) ends with its 4e5 < Re < 1e6 piece. */
 #define MORRISON_RE_MAX 1.0e6
 #define CGW_RE_MAX 1.0e6
@@ -959,7 +959,7 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
         snprintf(how, sizeof how, "sphere of diameter %s, Cd(Re) by %s; Re %s to %s on the way",
                  t_len(w, d->diameter_m),
                  d->model == PLUMB_DRAG_SPHERE_CGW ? "Clift, Grace & Weber (1978)"
-                                                   : "Morrison (2013)",
+                                                   : "Morrison (2010)",
                  sci(w, r->min_re, 3), sci(w, r->max_re, 3));
     } else if (body_cd_area(d) == 0.0) {
         snprintf(how, sizeof how, "none (drag-free)");

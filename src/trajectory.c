@@ -79,6 +79,7 @@ struct fall_ctx {
     size_t evals;               /* RHS evaluations */
     plumb_status fail;          /* set when the RHS cannot be evaluated */
     double fail_alt_m;
+    double vt_max_m_s;          /* fixed drag: largest body terminal speed at the accepted points */
 };
 
 static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm)
@@ -273,6 +274,8 @@ struct plumb_trajectory {
     gsl_odeiv2_step *side_step;    /* rk8pd for Henon phases and halvings */
     gsl_odeiv2_control *side_control;
     gsl_odeiv2_evolve *side_evolve;
+    gsl_root_fsolver *root;        /* terminal speed: Brent root finder */
+    gsl_min_fminimizer *min;       /* terminal speed: Brent minimiser */
     plumb_path_point *path;
     size_t path_n, path_cap;
 };
@@ -280,7 +283,7 @@ struct plumb_trajectory {
 void plumb_trajectory_options_init(plumb_trajectory_options *opt)
 {
     opt->stepper = PLUMB_STEPPER_AUTO;
-    opt->rel_tol = 1e-8;
+    opt->rel_tol = 1e-9;
     opt->abs_tol = 1e-12;
     opt->event_rel_tol = 1e-10;
     opt->event_abs_tol = 1e-10;
@@ -290,6 +293,8 @@ void plumb_trajectory_options_init(plumb_trajectory_options *opt)
     opt->stiff_ratio = 3000.0;
     opt->stiff_rel_tol = 1e-12;
     opt->stiff_abs_tol = 1e-14;
+    opt->energy_check_tol = 1e-8;
+    opt->speed_check_tol = 1e-9;
     opt->record_path = 0;
 }
 
@@ -312,6 +317,10 @@ void plumb_trajectory_free(plumb_trajectory *traj)
         gsl_odeiv2_control_free(traj->side_control);
     if (traj->side_evolve)
         gsl_odeiv2_evolve_free(traj->side_evolve);
+    if (traj->root)
+        gsl_root_fsolver_free(traj->root);
+    if (traj->min)
+        gsl_min_fminimizer_free(traj->min);
     free(traj->path);
     free(traj);
 }
@@ -329,7 +338,8 @@ plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_t
     if (!(t->opt.rel_tol > 0.0) || !(t->opt.abs_tol >= 0.0) || t->opt.max_steps == 0 ||
         !(t->opt.max_time_s > 0.0) || !(t->opt.first_step_s > 0.0) ||
         !(t->opt.event_rel_tol > 0.0) || !(t->opt.event_abs_tol >= 0.0) ||
-        !(t->opt.stiff_rel_tol > 0.0) || !(t->opt.stiff_abs_tol >= 0.0)) {
+        !(t->opt.stiff_rel_tol > 0.0) || !(t->opt.stiff_abs_tol >= 0.0) ||
+        !(t->opt.energy_check_tol > 0.0) || !(t->opt.speed_check_tol >= 0.0)) {
         free(t);
         return PLUMB_RAISE(NULL, PLUMB_EINVAL, "invalid trajectory options");
     }
@@ -343,8 +353,10 @@ plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_t
     t->side_step = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
     t->side_control = gsl_odeiv2_control_y_new(t->opt.event_abs_tol, t->opt.event_rel_tol);
     t->side_evolve = gsl_odeiv2_evolve_alloc(NSTATE);
+    t->root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    t->min = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
     if (!t->step[0] || !t->step[1] || !t->msbdf || !t->control || !t->evolve ||
-        !t->side_step || !t->side_control || !t->side_evolve) {
+        !t->side_step || !t->side_control || !t->side_evolve || !t->root || !t->min) {
         plumb_trajectory_free(t);
         return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory allocating the ODE workspace");
     }
@@ -406,6 +418,23 @@ static plumb_status check_spec(const plumb_fall_spec *s, plumb_diag *diag)
 
 /* ---- terminal speed ------------------------------------------------------- */
 
+/* The drag balance B(v) = 1/2 rho CdA(Re(v)) v^2 - m g (1 - rho V / m) of a
+ * body falling through still air. With fixed drag it has one root, in
+ * closed form. With Cd(Re) it may have several in the drag crisis (a 50 mm
+ * steel ball in sea-level air, Clift-Grace-Weber curve: 93.72, 101.96 and
+ * 209.41 m/s). A body falling from rest accelerates while B < 0 and so
+ * settles at the lowest root: that is the terminal speed. It is found by
+ * walking up from v = 0 over the stretches where Cd Re^2 cannot decrease
+ * (one root at most: Brent's method on the stretch when B changes sign
+ * over it) and scanning the crisis intervals of the drag curve
+ * (plumbp_drag_crisis) at a ratio of CRISIS_SCAN_RATIO, with a local
+ * maximum of the samples refined (Brent minimisation of -B) so that a pair
+ * of roots closer than the scan step is not missed. */
+#define CRISIS_SCAN_RATIO 1.001
+#define ROOT_MAX_ITER 200
+#define ROOT_REL_TOL 1e-14
+#define TERMINAL_MAX_M_S 1e6
+
 typedef struct term_ctx {
     const plumb_fall_spec *spec;
     plumb_air air;
@@ -421,13 +450,76 @@ static double term_balance(double v, void *p)
     return 0.5 * c->air.rho_kg_m3 * cda * v * v - c->spec->mass_kg * c->g_net_m_s2;
 }
 
-plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                  double z_m, int with_devices, double *v_m_s)
+static double term_neg_balance(double v, void *p)
+{
+    return -term_balance(v, p);
+}
+
+/* The root of B in [lo, hi], where B(lo) < 0 <= B(hi). */
+static plumb_status term_bracketed(term_ctx *c, gsl_root_fsolver *s, double lo, double hi,
+                                   double *v_m_s)
+{
+    if (term_balance(hi, c) == 0.0) {
+        *v_m_s = hi;
+        return PLUMB_OK;
+    }
+    gsl_function F = {term_balance, c};
+    int rc = gsl_root_fsolver_set(s, &F, lo, hi);
+    for (int it = 0; rc == GSL_SUCCESS && it < ROOT_MAX_ITER; it++) {
+        rc = gsl_root_fsolver_iterate(s);
+        if (rc != GSL_SUCCESS)
+            break;
+        rc = gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s),
+                                    0.0, ROOT_REL_TOL);
+        if (rc == GSL_SUCCESS)
+            break;
+        if (rc == GSL_CONTINUE)
+            rc = GSL_SUCCESS;
+    }
+    if (rc != GSL_SUCCESS)
+        return PLUMB_RAISE(NULL, PLUMB_ENUMERIC, "terminal speed root finder failed: %s",
+                           gsl_strerror(rc));
+    *v_m_s = gsl_root_fsolver_root(s);
+    return PLUMB_OK;
+}
+
+/* The largest B on [a, b] around the sample m (B(m) >= B(a), B(b)), by
+ * Brent minimisation of -B; *at is where. */
+static double term_local_max(term_ctx *c, gsl_min_fminimizer *mz, double a, double m, double b,
+                             double *at)
+{
+    gsl_function F = {term_neg_balance, c};
+    double fm = term_neg_balance(m, c);
+    *at = m;
+    if (!(fm < term_neg_balance(a, c) && fm < term_neg_balance(b, c)))
+        return -fm; /* flat to rounding: the sample is the maximum */
+    int rc = gsl_min_fminimizer_set_with_values(mz, &F, m, fm, a, term_neg_balance(a, c), b,
+                                                term_neg_balance(b, c));
+    for (int it = 0; rc == GSL_SUCCESS && it < ROOT_MAX_ITER; it++) {
+        rc = gsl_min_fminimizer_iterate(mz);
+        if (rc != GSL_SUCCESS)
+            break;
+        if (-gsl_min_fminimizer_f_minimum(mz) >= 0.0)
+            break;
+        rc = gsl_min_test_interval(gsl_min_fminimizer_x_lower(mz), gsl_min_fminimizer_x_upper(mz),
+                                   0.0, ROOT_REL_TOL);
+        if (rc == GSL_SUCCESS)
+            break;
+        if (rc == GSL_CONTINUE)
+            rc = GSL_SUCCESS;
+    }
+    *at = gsl_min_fminimizer_x_minimum(mz);
+    return -gsl_min_fminimizer_f_minimum(mz);
+}
+
+static plumb_status terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                   double z_m, int with_devices, gsl_root_fsolver *root,
+                                   gsl_min_fminimizer *mz, double *v_m_s)
 {
     term_ctx c = {.spec = spec};
     double alt = spec->site_elevation_m + z_m;
     if (plumb_atmosphere_at(atm, alt, &c.air) != PLUMB_OK)
-        return PLUMB_RAISE(NULL, PLUMB_ERANGE, "altitude %.1f m is outside the atmosphere model", alt);
+        return PLUMB_RAISE(NULL, PLUMB_EOUTSIDE, "altitude %.1f m is outside the atmosphere model", alt);
     double g = plumb_gravity_at(&spec->gravity, alt);
     c.g_net_m_s2 = g * (1.0 - c.air.rho_kg_m3 * spec->volume_m3 / spec->mass_kg);
     if (with_devices)
@@ -445,35 +537,60 @@ plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmos
         *v_m_s = sqrt(2.0 * spec->mass_kg * c.g_net_m_s2 / (c.air.rho_kg_m3 * cda));
         return PLUMB_OK;
     }
-    /* Cd(Re): bracket the balance speed and solve with Brent's method. */
-    double lo = 1e-9, hi = 1.0;
-    while (term_balance(hi, &c) < 0.0 && hi < 1e6)
-        hi *= 2.0;
-    if (term_balance(hi, &c) < 0.0)
-        return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "terminal speed above 1e6 m/s");
-    gsl_function F = {term_balance, &c};
-    gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    if (!s)
-        return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
-    int rc = gsl_root_fsolver_set(s, &F, lo, hi);
-    for (int it = 0; rc == GSL_SUCCESS && it < 200; it++) {
-        rc = gsl_root_fsolver_iterate(s);
-        if (rc != GSL_SUCCESS)
-            break;
-        double a = gsl_root_fsolver_x_lower(s), b = gsl_root_fsolver_x_upper(s);
-        rc = gsl_root_test_interval(a, b, 0.0, 1e-14);
-        if (rc == GSL_SUCCESS)
-            break;
-        if (rc != GSL_CONTINUE)
-            break;
-        rc = GSL_SUCCESS;
+    /* v per unit Re */
+    double v_per_re = c.air.mu_pa_s / (c.air.rho_kg_m3 * spec->drag.diameter_m);
+    const double (*crisis)[2];
+    size_t n = plumbp_drag_crisis(spec->drag.model, &crisis);
+    double lo = 0.0; /* B(lo) < 0 */
+    for (size_t i = 0; i < n; i++) {
+        double a = crisis[i][0] * v_per_re, b = crisis[i][1] * v_per_re;
+        if (term_balance(a, &c) >= 0.0)
+            return term_bracketed(&c, root, lo, a, v_m_s); /* one root on [lo, a] */
+        /* scan the crisis interval */
+        double xp = a, fp = term_balance(a, &c), x0 = a, f0 = fp;
+        for (int last = 0; !last;) {
+            double x1 = x0 * CRISIS_SCAN_RATIO;
+            if (x1 >= b) {
+                x1 = b;
+                last = 1;
+            }
+            double f1 = term_balance(x1, &c);
+            if (f1 >= 0.0)
+                return term_bracketed(&c, root, x0, x1, v_m_s);
+            if (x0 > xp && f0 > fp && f0 >= f1) {
+                double at, top = term_local_max(&c, mz, xp, x0, x1, &at);
+                if (top >= 0.0)
+                    return term_bracketed(&c, root, xp, at, v_m_s);
+            }
+            xp = x0;
+            fp = f0;
+            x0 = x1;
+            f0 = f1;
+        }
+        lo = b;
     }
-    double root = gsl_root_fsolver_root(s);
-    gsl_root_fsolver_free(s);
-    if (rc != GSL_SUCCESS)
-        return PLUMB_RAISE(NULL, PLUMB_ENUMERIC, "terminal speed root finder failed: %s", gsl_strerror(rc));
-    *v_m_s = root;
-    return PLUMB_OK;
+    double hi = lo > 0.0 ? 2.0 * lo : 1.0;
+    while (term_balance(hi, &c) < 0.0 && hi < TERMINAL_MAX_M_S) {
+        lo = hi;
+        hi *= 2.0;
+    }
+    if (term_balance(hi, &c) < 0.0)
+        return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "terminal speed above %g m/s", TERMINAL_MAX_M_S);
+    return term_bracketed(&c, root, lo, hi, v_m_s);
+}
+
+plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                  double z_m, int with_devices, double *v_m_s)
+{
+    gsl_root_fsolver *root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    gsl_min_fminimizer *mz = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
+    plumb_status st = root && mz ? terminal_speed(spec, atm, z_m, with_devices, root, mz, v_m_s)
+                                 : PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
+    if (root)
+        gsl_root_fsolver_free(root);
+    if (mz)
+        gsl_min_fminimizer_free(mz);
+    return st;
 }
 
 /* ---- the run -------------------------------------------------------------- */
@@ -502,6 +619,42 @@ static plumb_status fail_rhs(runner *r, int rc, const char *what)
                        "level: %s", what, r->t, r->y[IZ], gsl_strerror(rc));
 }
 
+/* Advances (t0, y) by exactly h with the side stepper (rk8pd). One step
+ * is taken when its error estimate meets the main tolerances, as an
+ * accepted step of the explicit path does; otherwise (the step of an
+ * implicit stepper can span hundreds of the explicit one's stability
+ * limit, where a single explicit step is garbage) the span is integrated
+ * adaptively under the event tolerances. dydt_in may be NULL. */
+static int side_advance(runner *r, double t0, double h, double y[], const double dydt_in[])
+{
+    double y1[NSTATE], err[NSTATE];
+    memcpy(y1, y, sizeof y1);
+    gsl_odeiv2_step_reset(r->w->side_step);
+    int rc = gsl_odeiv2_step_apply(r->w->side_step, t0, h, y1, err, dydt_in, NULL, r->sys);
+    if (rc == GSL_SUCCESS) {
+        int ok = 1;
+        for (int i = 0; i < NSTATE && ok; i++)
+            ok = isfinite(y1[i]) &&
+                 fabs(err[i]) <= r->w->opt.abs_tol + r->w->opt.rel_tol * fabs(y1[i]);
+        if (ok) {
+            memcpy(y, y1, sizeof y1);
+            return GSL_SUCCESS;
+        }
+    }
+    double t = t0, t1 = t0 + h, hh = h;
+    gsl_odeiv2_evolve_reset(r->w->side_evolve);
+    gsl_odeiv2_step_reset(r->w->side_step);
+    for (size_t n = 0; t < t1; n++) {
+        if (n >= r->w->opt.max_steps)
+            return GSL_EMAXITER;
+        rc = gsl_odeiv2_evolve_apply(r->w->side_evolve, r->w->side_control, r->w->side_step, r->sys,
+                                     &t, t1, &hh, y);
+        if (rc != GSL_SUCCESS)
+            return rc;
+    }
+    return GSL_SUCCESS;
+}
+
 /* Drag force at time t inside the step that starts at history point i:
  * one rk8pd step from there (no longer than the accepted step). */
 typedef struct peak_ctx {
@@ -515,16 +668,12 @@ static double neg_force_at(double t, void *params)
     peak_ctx *p = params;
     runner *r = p->r;
     size_t i = t <= r->hist_t[1] ? 0 : 1;
-    double y[NSTATE], err[NSTATE];
+    double y[NSTATE];
     memcpy(y, r->hist_y[i], sizeof y);
     double h = t - r->hist_t[i];
-    if (h > 0.0) {
-        gsl_odeiv2_step_reset(r->w->side_step);
-        if (gsl_odeiv2_step_apply(r->w->side_step, r->hist_t[i], h, y, err, NULL, NULL, r->sys) !=
-            GSL_SUCCESS) {
-            p->fail = 1;
-            return 0.0;
-        }
+    if (h > 0.0 && side_advance(r, r->hist_t[i], h, y, NULL) != GSL_SUCCESS) {
+        p->fail = 1;
+        return 0.0;
     }
     local L;
     if (local_at(r->ctx, t, y, &L) != GSL_SUCCESS) {
@@ -603,6 +752,13 @@ static plumb_status observe(runner *r)
             res->min_re = L.re;
         if (L.re > res->max_re)
             res->max_re = L.re;
+    }
+    if (!r->ctx->sphere && r->ctx->body_cda_m2 > 0.0) {
+        const plumb_fall_spec *s = r->ctx->spec;
+        double g_net = L.g * (1.0 - L.air.rho_kg_m3 * s->volume_m3 * r->ctx->inv_m);
+        double vt = sqrt(2.0 * s->mass_kg * g_net / (L.air.rho_kg_m3 * r->ctx->body_cda_m2));
+        if (vt > r->ctx->vt_max_m_s)
+            r->ctx->vt_max_m_s = vt;
     }
     double force = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * L.vr_abs;
     if (force > res->peak_force_n)
@@ -683,11 +839,10 @@ static plumb_status locate_apex(runner *r, double t0, const double y0[])
 static plumb_status descend_start(runner *r, double *t0, double y0[], double h, double z_event)
 {
     for (int n = 0; y0[IVZ] >= 0.0 && n < MAX_HALVINGS; n++) {
-        double y[NSTATE], err[NSTATE];
+        double y[NSTATE];
         h *= 0.5;
         memcpy(y, y0, sizeof y);
-        gsl_odeiv2_step_reset(r->w->side_step);
-        int rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, NULL, NULL, r->sys);
+        int rc = side_advance(r, *t0, h, y, NULL);
         if (rc != GSL_SUCCESS)
             return fail_rhs(r, rc, "ODE step");
         if (y[IZ] > z_event) {
@@ -713,7 +868,7 @@ static plumb_status descend_start(runner *r, double *t0, double y0[], double h, 
  * is at least as accurate; if it would pass the event it is not taken. */
 static plumb_status approach(runner *r, double *t0, double y0[], double h_max, double z_event)
 {
-    double f[NSTATE], y[NSTATE], err[NSTATE];
+    double f[NSTATE], y[NSTATE];
     int rc = rhs_time(*t0, y0, f, r->ctx);
     if (rc != GSL_SUCCESS)
         return fail_rhs(r, rc, "ODE step");
@@ -726,8 +881,7 @@ static plumb_status approach(runner *r, double *t0, double y0[], double h_max, d
     if (h > h_max)
         h = h_max;
     memcpy(y, y0, sizeof y);
-    gsl_odeiv2_step_reset(r->w->side_step);
-    rc = gsl_odeiv2_step_apply(r->w->side_step, *t0, h, y, err, f, NULL, r->sys);
+    rc = side_advance(r, *t0, h, y, f);
     if (rc != GSL_SUCCESS)
         return fail_rhs(r, rc, "ODE step");
     if (y[IZ] > z_event && y[IVZ] < 0.0) {
@@ -863,11 +1017,11 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
     res->drag_free_energy_j = 0.5 * s->mass_kg * v0sq + s->mass_kg * g_mid * H;
     double vt = 0.0;
     if (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)
-        if (plumb_terminal_speed(s, atm, 0.0, 0, &vt) != PLUMB_OK)
+        if (terminal_speed(s, atm, 0.0, 0, r->w->root, r->w->min, &vt) != PLUMB_OK)
             vt = 0.0;
     res->terminal_speed_m_s = vt;
     double vs = vt;
-    if (s->n_descent && plumb_terminal_speed(s, atm, 0.0, 1, &vs) != PLUMB_OK)
+    if (s->n_descent && terminal_speed(s, atm, 0.0, 1, r->w->root, r->w->min, &vs) != PLUMB_OK)
         vs = 0.0;
     res->steady_speed_m_s = vs;
     res->peak_load_g = res->peak_force_n / (s->mass_kg * PLUMB_G0_M_S2);
@@ -881,6 +1035,82 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
                              const plumb_atmosphere *atm, plumb_fall_result *res,
                              plumb_diag *diag, plumb_stepper kind);
 
+/* Work of buoyancy, rho V g, from the strike level to height H: composite
+ * Simpson over BUOY_PANELS panels (the buoyancy is at most a small part of
+ * the weight, so its quadrature error is far below the check's). */
+#define BUOY_PANELS 256
+static plumb_status buoyancy_work(const plumb_fall_spec *s, const plumb_atmosphere *atm,
+                                  double *w_j)
+{
+    double H = s->release_m[2], h = H / BUOY_PANELS, sum = 0.0;
+    *w_j = 0.0;
+    if (!(s->volume_m3 > 0.0))
+        return PLUMB_OK;
+    for (int i = 0; i <= BUOY_PANELS; i++) {
+        double alt = s->site_elevation_m + i * h;
+        plumb_air air;
+        if (plumb_atmosphere_at(atm, alt, &air) != PLUMB_OK)
+            return PLUMB_RAISE(NULL, PLUMB_EOUTSIDE, "altitude %.1f m is outside the atmosphere model", alt);
+        double f = air.rho_kg_m3 * s->volume_m3 * plumb_gravity_at(&s->gravity, alt);
+        sum += f * (i == 0 || i == BUOY_PANELS ? 1.0 : i % 2 ? 4.0 : 2.0);
+    }
+    *w_j = sum * h / 3.0;
+    return PLUMB_OK;
+}
+
+static int calm(const plumb_wind_spec *w)
+{
+    if (w->profile != PLUMB_WIND_TABLE)
+        return w->speed_m_s == 0.0;
+    for (size_t i = 0; i < w->table_n; i++)
+        if (w->table_east_m_s[i] != 0.0 || w->table_north_m_s[i] != 0.0)
+            return 0;
+    return 1;
+}
+
+/* The checks every fall passes before its figures are given:
+ *  - the work-energy theorem, 1/2 m (v^2 - v0^2) = m g_mid H + W_buoyancy
+ *    + W_drag, with W_drag integrated alongside the motion and g linear in
+ *    altitude (so its work is m g(mid-height) H exactly);
+ *  - from rest in still air the object accelerates only while it is
+ *    slower than the local terminal speed (the lowest root of the drag
+ *    balance), so it can never arrive faster than the largest terminal
+ *    speed on its path: at the ends, and for fixed drag at every accepted
+ *    point as well. */
+static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const plumb_atmosphere *atm,
+                           const plumb_fall_result *res, plumb_diag *diag)
+{
+    const double *v0 = s->velocity_m_s;
+    double H = s->release_m[2];
+    double v0sq = v0[0] * v0[0] + v0[1] * v0[1] + v0[2] * v0[2];
+    double g_mid = plumb_gravity_at(&s->gravity, s->site_elevation_m + 0.5 * H);
+    double wb;
+    plumb_status st = buoyancy_work(s, atm, &wb);
+    if (st != PLUMB_OK)
+        return plumbp_raise(diag, st, NULL, 0, 0, NULL, "energy check: altitude outside the air model");
+    double gained = res->energy_j - 0.5 * s->mass_kg * v0sq;
+    double work = s->mass_kg * g_mid * H - wb + res->drag_work_j;
+    double scale = fmax(0.5 * s->mass_kg * v0sq + s->mass_kg * g_mid * H, fabs(res->drag_work_j));
+    if (!(fabs(gained - work) <= w->opt.energy_check_tol * scale))
+        return PLUMB_RAISE(diag, PLUMB_ENUMERIC,
+                           "the fall fails its energy balance: kinetic energy gained %.9g J, work "
+                           "of gravity, buoyancy and drag %.9g J (method %s)",
+                           gained, work, res->solver.method);
+    if (v0sq == 0.0 && calm(&s->wind) && (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
+        double vt_top, vt_max = w->ctx.vt_max_m_s;
+        if (terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK && vt_top > vt_max)
+            vt_max = vt_top;
+        if (res->terminal_speed_m_s > vt_max)
+            vt_max = res->terminal_speed_m_s;
+        if (vt_max > 0.0 && !(res->speed_m_s <= vt_max * (1.0 + w->opt.speed_check_tol)))
+            return PLUMB_RAISE(diag, PLUMB_ENUMERIC,
+                               "the fall arrives at %.10g m/s from rest in still air, faster than "
+                               "its terminal speed %.10g m/s (method %s)",
+                               res->speed_m_s, vt_max, res->solver.method);
+    }
+    return PLUMB_OK;
+}
+
 plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *spec,
                                   const plumb_atmosphere *atm, plumb_fall_result *res,
                                   plumb_diag *diag)
@@ -889,20 +1119,39 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
     if (st != PLUMB_OK)
         return st;
     plumb_stepper kind = w->opt.stepper;
-    if (kind != PLUMB_STEPPER_AUTO)
-        return run_with(w, spec, atm, res, diag, kind);
-    double vt = 0.0;
-    double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
-    if (spec->n_descent == 0 && plumb_terminal_speed(spec, atm, 0.0, 0, &vt) == PLUMB_OK &&
-        2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio) {
-        /* Stiff: the implicit stepper, and the explicit one should its
-         * Newton iterations fail (seen on very light objects): slower, but
-         * an answer rather than an error. */
-        st = run_with(w, spec, atm, res, diag, PLUMB_STEPPER_MSBDF);
-        if (st != PLUMB_ENUMERIC && st != PLUMB_EBUDGET)
-            return st;
+    if (kind == PLUMB_STEPPER_AUTO) {
+        double vt = 0.0;
+        double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
+        kind = spec->n_descent == 0 &&
+                       terminal_speed(spec, atm, 0.0, 0, w->root, w->min, &vt) == PLUMB_OK &&
+                       2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio
+                   ? PLUMB_STEPPER_MSBDF
+                   : PLUMB_STEPPER_RK8PD;
     }
-    return run_with(w, spec, atm, res, diag, PLUMB_STEPPER_RK8PD);
+    /* A fall whose integration fails, or whose figures fail their checks,
+     * is run again with the other kind of method (implicit msbdf for the
+     * explicit steppers, rk8pd for msbdf); if that fails too, it is an
+     * error, never a figure. */
+    st = run_with(w, spec, atm, res, diag, kind);
+    if (st == PLUMB_OK)
+        st = verify(w, spec, atm, res, diag);
+    if (st != PLUMB_ENUMERIC && st != PLUMB_EBUDGET)
+        return st;
+    plumb_diag first;
+    if (diag)
+        first = *diag;
+    plumb_stepper other = kind == PLUMB_STEPPER_MSBDF ? PLUMB_STEPPER_RK8PD : PLUMB_STEPPER_MSBDF;
+    plumb_status st2 = run_with(w, spec, atm, res, diag, other);
+    if (st2 == PLUMB_OK)
+        st2 = verify(w, spec, atm, res, diag);
+    if (st2 == PLUMB_OK || (st2 != PLUMB_ENUMERIC && st2 != PLUMB_EBUDGET))
+        return st2;
+    if (diag) {
+        plumb_diag second = *diag;
+        return PLUMB_RAISE(diag, st, "%s; run again with another method: %s", first.message,
+                           second.message);
+    }
+    return st;
 }
 
 static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,

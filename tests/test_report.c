@@ -536,7 +536,7 @@ static void test_reynolds_number_beyond_morrison_range_gives_a_warning(void **st
     plumb_item_report it;
     hand_built(&it, p, 22.913);
     it.spec = &sphere;
-    /* Morrison (2013): the correlation holds for Re <= 1e6. */
+    /* Morrison (2010 handout, eq. 1): the correlation holds for Re <= 1e6. */
     it.result.min_re = 1.13e4;
     it.result.max_re = 1.27e6;
     plumb_diag diag;

@@ -657,6 +657,226 @@ static void test_sphere_terminal_speed_balances_weight_and_morrison_drag(void **
     plumb_atmosphere_free(atm);
 }
 
+/* Closed form (header): v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)), t(H) by
+ * closed_time. A grid of heights 1 m to 3 km and masses 1 g to 100 g at
+ * CdA 0.01 m^2 in constant air spans 2gH/v_t^2 from 0.08 to 36 000, so it
+ * covers both the explicit and the implicit (stiff) path; each fall is
+ * checked on the path AUTO picks and on each path forced, and must meet
+ * 1e-9 on speed and time there (the retry on the other path would show
+ * as a different method name, which fails the check). */
+static void check_closed_form_grid(plumb_stepper kind)
+{
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.stepper = kind;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    const double masses[] = {0.001, 0.00237, 0.0052, 0.0113, 0.0241, 0.0538, 0.1};
+    const double g = PLUMB_G0_M_S2, rho = PLUMBT_CONST_RHO, cda = 0.01;
+    size_t n_stiff = 0, n = 0;
+    for (size_t i = 0; i < sizeof masses / sizeof *masses; i++) {
+        for (double H = 1.0; H <= 3000.0; H *= 1.23) {
+            plumb_fall_spec s;
+            base_spec(&s, masses[i], cda, H);
+            double vt = sqrt(2.0 * masses[i] * g / (rho * cda));
+            plumb_fall_result r;
+            plumb_diag d;
+            assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+            int stiff = 2.0 * g * H / (vt * vt) > o.stiff_ratio;
+            const char *want = kind == PLUMB_STEPPER_MSBDF || (kind == PLUMB_STEPPER_AUTO && stiff)
+                                   ? "msbdf" : "rk8pd";
+            assert_string_equal(r.solver.method, want);
+            n_stiff += strcmp(r.solver.method, "msbdf") == 0;
+            n++;
+            assert_rel(r.speed_m_s, vt * sqrt(-expm1(-2.0 * g * H / (vt * vt))), 1e-9);
+            assert_rel(r.time_s, closed_time(H, vt, g), 1e-9);
+            assert_true(r.speed_m_s <= vt * (1.0 + 1e-9));
+            /* work-energy theorem: m g H + W_drag = 1/2 m v^2 */
+            assert_abs(r.energy_j - r.drag_work_j, masses[i] * g * H, 1e-9 * masses[i] * g * H);
+        }
+    }
+    if (kind == PLUMB_STEPPER_AUTO)
+        assert_true(n_stiff > 0 && n_stiff < n); /* both paths were taken */
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_light_falls_meet_the_closed_form_on_the_path_auto_picks(void **state)
+{
+    (void)state;
+    check_closed_form_grid(PLUMB_STEPPER_AUTO);
+}
+
+static void test_light_falls_meet_the_closed_form_on_the_implicit_path(void **state)
+{
+    (void)state;
+    check_closed_form_grid(PLUMB_STEPPER_MSBDF);
+}
+
+static void test_light_falls_meet_the_closed_form_on_the_explicit_path(void **state)
+{
+    (void)state;
+    check_closed_form_grid(PLUMB_STEPPER_RK8PD);
+}
+
+/* The two falls of a 1 g object (CdA 0.01 m^2, 1.2 kg/m^3, g0) that were
+ * printed wrong: closed form from 630 m 1.2784528410 m/s and 492.87350 s,
+ * from 1500 m 1173.38 s (values of the closed form in the header). */
+static void test_one_gram_from_630_and_1500_m_is_right_on_the_stiff_path(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air_rho(1.2);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    plumb_fall_result r;
+    plumb_diag d;
+    base_spec(&s, 0.001, 0.01, 630.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_string_equal(r.solver.method, "msbdf");
+    assert_abs(r.speed_m_s, 1.2784528410, 1e-10);
+    assert_abs(r.time_s, 492.87350, 1e-5);
+    base_spec(&s, 0.001, 0.01, 1500.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_abs(r.time_s, 1173.38, 0.005);
+    /* drag took what gravity gave, less the kinetic energy at impact */
+    assert_rel(-r.drag_work_j, 0.001 * PLUMB_G0_M_S2 * 1500.0 - r.energy_j, 1e-9);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+/* A fall integrated too coarsely to balance its energy is refused on both
+ * paths: an error (exit status 3 at the command line), never a figure.
+ * The tolerances are loosened far past any sensible setting, so that the
+ * integration error is large, and the check is kept strict. */
+static void test_a_fall_that_fails_its_energy_balance_is_an_error(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.stepper = PLUMB_STEPPER_RKF45;
+    o.rel_tol = o.stiff_rel_tol = 0.5;
+    o.abs_tol = o.stiff_abs_tol = 1.0;
+    o.energy_check_tol = 1e-14;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    plumb_fall_spec s;
+    base_spec(&s, 0.0241, 0.01, 317.0);
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_ENUMERIC);
+    assert_non_null(strstr(d.message, "energy balance"));
+    assert_non_null(strstr(d.message, "run again with another method"));
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+/* The same coarse integration with the energy check relaxed: the speed
+ * bound (never faster than the terminal speed from rest in still air)
+ * still refuses a fall whose integration overshoots. */
+static void test_a_fall_faster_than_its_terminal_speed_is_an_error(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.stepper = PLUMB_STEPPER_RKF45;
+    o.rel_tol = o.stiff_rel_tol = 0.5;
+    o.abs_tol = o.stiff_abs_tol = 1.0;
+    o.energy_check_tol = 1e6;
+    o.speed_check_tol = 0.0;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    int refused = 0;
+    for (double H = 50.0; H < 2000.0; H *= 1.37) {
+        plumb_fall_spec s;
+        base_spec(&s, 0.0241, 0.01, H);
+        plumb_fall_result r;
+        plumb_diag d;
+        plumb_status st = plumb_trajectory_run(w, &s, atm, &r, &d);
+        if (st == PLUMB_OK) {
+            /* whatever passes obeys the bound */
+            double vt = sqrt(2.0 * 0.0241 * PLUMB_G0_M_S2 / (PLUMBT_CONST_RHO * 0.01));
+            assert_true(r.speed_m_s <= vt);
+        } else {
+            assert_int_equal(st, PLUMB_ENUMERIC);
+            assert_non_null(strstr(d.message, "faster than its terminal speed"));
+            refused++;
+        }
+    }
+    assert_true(refused > 0);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+/* Drag-crisis spheres in U.S. Standard Atmosphere 1976 sea-level air
+ * (rho = 101325 M0 / (R* 288.15) with the 1976 constants M0 = 28.9644,
+ * R* = 8314.32, mu by Sutherland): the terminal
+ * speed is the lowest root of 1/2 rho Cd(Re) A v^2 = m g. Expected roots
+ * computed independently in Python from the published correlations
+ * (Morrison 2010 eq. 1; Clift, Grace & Weber 1978 Table 5.2) by a sign
+ * scan at a ratio of 1 + 2e-5 and bisection; all roots listed, the lowest
+ * is the one a ball falling from rest settles at. */
+static void test_terminal_speed_is_the_lowest_root_in_the_drag_crisis(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
+    static const struct {
+        plumb_drag_model model;
+        double d_m, m_kg, vt_m_s; /* lowest root; the others in the comment */
+    } cases[] = {
+        {PLUMB_DRAG_SPHERE_CGW, 0.05, 0.5138, 93.716200054},     /* 101.958, 209.410 */
+        {PLUMB_DRAG_SPHERE_CGW, 0.065, 0.55, 74.753808811},      /* 76.878, 165.620 */
+        {PLUMB_DRAG_SPHERE_CGW, 0.08, 0.55, 60.737469659},       /* 62.463, 134.567 */
+        {PLUMB_DRAG_SPHERE_CGW, 0.03, 0.110977, 70.649148775},   /* single root */
+        {PLUMB_DRAG_SPHERE_MORRISON, 0.05, 0.175, 59.041029509}, /* 81.998, 129.709 */
+        {PLUMB_DRAG_SPHERE_MORRISON, 0.065, 0.15, 41.147548637}, /* 69.926, 91.509 */
+        {PLUMB_DRAG_SPHERE_MORRISON, 0.04, 0.263056, 192.838111093}, /* single root */
+    };
+    for (size_t i = 0; i < sizeof cases / sizeof *cases; i++) {
+        plumb_fall_spec s;
+        base_spec(&s, cases[i].m_kg, 0.0, 10.0);
+        s.drag.model = cases[i].model;
+        s.drag.diameter_m = cases[i].d_m;
+        s.drag.area_m2 = PLUMB_PI * cases[i].d_m * cases[i].d_m / 4.0;
+        double vt = 0.0;
+        assert_int_equal(plumb_terminal_speed(&s, atm, 0.0, 0, &vt), PLUMB_OK);
+        assert_rel(vt, cases[i].vt_m_s, 1e-9);
+        /* and the fall reports the same value */
+        plumb_trajectory *w = workspace();
+        plumb_fall_result r;
+        plumb_diag d;
+        assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+        assert_rel(r.terminal_speed_m_s, cases[i].vt_m_s, 1e-9);
+        plumb_trajectory_free(w);
+    }
+    plumb_atmosphere_free(atm);
+}
+
+/* A ball dropped from rest through the drag crisis in constant air
+ * settles at the lowest root and never passes it: the 50 mm steel ball of
+ * the case above from 8 km (2gH/v_t^2 about 18, so v is v_t to 1e-7). */
+static void test_a_crisis_ball_from_rest_settles_at_the_lowest_root(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 0.5138, 0.0, 8000.0);
+    s.drag.model = PLUMB_DRAG_SPHERE_CGW;
+    s.drag.diameter_m = 0.05;
+    s.drag.area_m2 = PLUMB_PI * 0.05 * 0.05 / 4.0;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_true(r.speed_m_s <= r.terminal_speed_m_s * (1.0 + 1e-9));
+    assert_rel(r.speed_m_s, r.terminal_speed_m_s, 1e-6);
+    assert_true(r.terminal_speed_m_s < 100.0); /* the lowest root, not 209 m/s */
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -682,6 +902,14 @@ int main(void)
         cmocka_unit_test(test_recorded_path_starts_at_release_and_ends_on_the_ground),
         cmocka_unit_test(test_stiff_light_fall_switches_to_msbdf_and_stays_accurate),
         cmocka_unit_test(test_sphere_terminal_speed_balances_weight_and_morrison_drag),
+        cmocka_unit_test(test_light_falls_meet_the_closed_form_on_the_path_auto_picks),
+        cmocka_unit_test(test_light_falls_meet_the_closed_form_on_the_implicit_path),
+        cmocka_unit_test(test_light_falls_meet_the_closed_form_on_the_explicit_path),
+        cmocka_unit_test(test_one_gram_from_630_and_1500_m_is_right_on_the_stiff_path),
+        cmocka_unit_test(test_a_fall_that_fails_its_energy_balance_is_an_error),
+        cmocka_unit_test(test_a_fall_faster_than_its_terminal_speed_is_an_error),
+        cmocka_unit_test(test_terminal_speed_is_the_lowest_root_in_the_drag_crisis),
+        cmocka_unit_test(test_a_crisis_ball_from_rest_settles_at_the_lowest_root),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_gsl, NULL);
 }

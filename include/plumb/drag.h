@@ -5,8 +5,9 @@
  * CdA comes from one of:
  *   fixed          cd x area, or cd_area directly (cd = 0: drag-free)
  *   sphere         Cd(Re) of a sphere of the given diameter, Re = rho |v_rel| D / mu,
- *                  by Morrison's correlation (F. A. Morrison, An Introduction
- *                  to Fluid Mechanics, CUP 2013, valid Re <= 1e6) or the
+ *                  by Morrison's correlation (F. A. Morrison, "Data Correlation
+ *                  for Drag Coefficient for Sphere", Michigan Technological
+ *                  University 2010, eq. 1, valid Re <= 1e6) or the
  *                  Clift-Grace-Weber standard drag curve (Bubbles, Drops,
  *                  and Particles, 1978, Table 5.2).
  */
@@ -17,7 +18,7 @@
 
 typedef enum plumb_drag_model {
     PLUMB_DRAG_FIXED = 0,         /* constant cd_area_m2 */
-    PLUMB_DRAG_SPHERE_MORRISON,   /* Cd(Re), Morrison 2013 */
+    PLUMB_DRAG_SPHERE_MORRISON,   /* Cd(Re), Morrison 2010 eq. 1 */
     PLUMB_DRAG_SPHERE_CGW         /* Cd(Re), Clift, Grace & Weber 1978 */
 } plumb_drag_model;
 
@@ -61,7 +62,8 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
 /* Surface area / 4 of a convex body (Cauchy's mean projected area), m^2. */
 double plumb_shape_mean_projected_area(const plumb_shape_spec *shape);
 
-/* Sphere drag coefficient by Morrison's correlation, Re > 0. */
+/* Sphere drag coefficient by Morrison's correlation (2010 handout, eq. 1,
+ * with the last term Re^0.8 / 461000), Re > 0. */
 double plumb_drag_sphere_morrison(double re);
 
 /* Sphere drag coefficient by the Clift-Grace-Weber curve, Re > 0. */

@@ -15,7 +15,7 @@ implementation, written here from the published definitions, of:
     per metre of altitude;
   - wind profiles uniform / power / log / table, `from` in the
     meteorological convention;
-  - sphere drag by Morrison (2013).
+  - sphere drag by Morrison (2010 handout, eq. 1).
 
 These scenarios have no closed form (wind, release velocity, altitude-
 dependent air). Agreement is required to 1e-7 relative.

@@ -51,11 +51,16 @@ const char *plumbt_srcdir(void)
 }
 
 static const double const_alt_m[2] = {-1000.0, 30000.0};
-static const double const_rho[2] = {PLUMBT_CONST_RHO, PLUMBT_CONST_RHO};
 static const double const_t_k[2] = {293.15, 293.15};
 
 plumb_atmosphere *plumbt_constant_air(void)
 {
+    return plumbt_constant_air_rho(PLUMBT_CONST_RHO);
+}
+
+plumb_atmosphere *plumbt_constant_air_rho(double rho_kg_m3)
+{
+    const double const_rho[2] = {rho_kg_m3, rho_kg_m3};
     plumb_atm_spec a;
     plumb_atm_spec_init(&a);
     a.model = PLUMB_ATM_TABLE;

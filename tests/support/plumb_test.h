@@ -32,6 +32,9 @@ int plumbt_setup_gsl(void **state);
  * constant air apply. Fails the test when it cannot be made. */
 struct plumb_atmosphere *plumbt_constant_air(void);
 
+/* The same at another density, kg/m^3. */
+struct plumb_atmosphere *plumbt_constant_air_rho(double rho_kg_m3);
+
 /* The U.S. Standard Atmosphere 1976 with a temperature offset dt_k. */
 struct plumb_atmosphere *plumbt_std_air(double dt_k);
 
