@@ -22,6 +22,7 @@ static const char *const status_text[PLUMB_STATUS_COUNT] = {
     [PLUMB_ENUMERIC] = "numerical method failed",
     [PLUMB_ENOSOLUTION] = "no solution in the physical range",
     [PLUMB_EOUTSIDE] = "the path left the range of a model",
+    [PLUMB_EWRITE] = "the output could not be written",
 };
 
 const char *plumb_strerror(plumb_status status)
@@ -35,7 +36,7 @@ int plumb_status_is_input_error(plumb_status status)
 {
     switch (status) {
     case PLUMB_EINVAL: case PLUMB_EIO: case PLUMB_EPARSE: case PLUMB_EUNIT:
-    case PLUMB_ERANGE: case PLUMB_EKEY: case PLUMB_ENOMEM:
+    case PLUMB_ERANGE: case PLUMB_EKEY:
         return 1;
     default:
         return 0;

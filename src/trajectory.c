@@ -703,9 +703,7 @@ static plumb_status track_peak(runner *r, double force)
         return PLUMB_OK;
     peak_ctx p = {r, 0, 0};
     gsl_function F = {neg_force_at, &p};
-    gsl_min_fminimizer *m = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    if (!m)
-        return PLUMB_RAISE(r->diag, PLUMB_ENOMEM, "out of memory");
+    gsl_min_fminimizer *m = r->w->min; /* the workspace's: nothing allocated per fall */
     int rc = gsl_min_fminimizer_set_with_values(m, &F, r->hist_t[1], -r->hist_f[1], r->hist_t[0],
                                                 -r->hist_f[0], r->hist_t[2], -r->hist_f[2]);
     for (int it = 0; rc == GSL_SUCCESS && it < PEAK_MAX_ITER && !p.fail; it++) {
@@ -720,7 +718,6 @@ static plumb_status track_peak(runner *r, double force)
             rc = GSL_SUCCESS;
     }
     double best = -gsl_min_fminimizer_f_minimum(m);
-    gsl_min_fminimizer_free(m);
     if (p.fail)
         return fail_rhs(r, GSL_EBADFUNC, "peak force location");
     if (best > r->res->peak_force_n)

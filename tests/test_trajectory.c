@@ -567,6 +567,9 @@ static void test_path_outside_the_atmosphere_is_a_range_error(void **state)
     plumb_diag d;
     assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EOUTSIDE);
     assert_false(plumb_status_is_input_error(PLUMB_EOUTSIDE)); /* exit status 3 */
+    assert_false(plumb_status_is_input_error(PLUMB_ENOMEM));   /* not the user's input: 3 */
+    assert_false(plumb_status_is_input_error(PLUMB_EWRITE));
+    assert_true(plumb_status_is_input_error(PLUMB_EIO));       /* a profile that cannot be read: 2 */
     /* thrown up through the top of the model: an error, not a budget run-out */
     s.site_elevation_m = 84000.0;
     s.release_m[2] = 1500.0;

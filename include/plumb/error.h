@@ -19,7 +19,7 @@ typedef enum plumb_status {
     PLUMB_OK = 0,        /* done */
     PLUMB_EINVAL,        /* an argument or input value is invalid */
     PLUMB_ENOMEM,        /* out of memory */
-    PLUMB_EIO,           /* a file could not be opened, read or written */
+    PLUMB_EIO,           /* an input file could not be opened or read */
     PLUMB_EPARSE,        /* malformed YAML or a malformed command-line value */
     PLUMB_EUNIT,         /* a unit is missing, unknown or of the wrong dimension */
     PLUMB_ERANGE,        /* a value lies outside its valid range */
@@ -27,8 +27,10 @@ typedef enum plumb_status {
     PLUMB_ENOLAND,       /* the object never reaches the strike level */
     PLUMB_EBUDGET,       /* the integrator ran past its step or time budget */
     PLUMB_ENUMERIC,      /* a numerical method failed (ODE step, root finder) */
-    PLUMB_ENOSOLUTION,   /* an inverse problem has no solution in range */
+    PLUMB_ENOSOLUTION,   /* no solution in the physical range: an inverse problem, or the
+                            terminal speed of a body without drag */
     PLUMB_EOUTSIDE,      /* the computed path left the range of a model (air above 86 km ...) */
+    PLUMB_EWRITE,        /* an output (report, samples file) could not be written */
     PLUMB_STATUS_COUNT
 } plumb_status;
 
@@ -48,7 +50,9 @@ typedef struct plumb_diag {
 const char *plumb_strerror(plumb_status status);
 
 /* True when the status is an input or usage error (exit status 2), false
- * when it is a failed computation (exit status 3). PLUMB_OK gives false. */
+ * when it is a failed computation or a failure of the machine rather than
+ * of the user's input: out of memory, an output that cannot be written
+ * (exit status 3). PLUMB_OK gives false. */
 int plumb_status_is_input_error(plumb_status status);
 
 /* Resets a diagnostic to "no error". Accepts NULL. */

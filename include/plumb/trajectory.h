@@ -165,9 +165,13 @@ void plumb_trajectory_free(plumb_trajectory *traj);
 
 /* Integrates one fall. On success fills *res. On failure *res is
  * unspecified and diag says what failed and when ("ODE step failed at
- * t=12.40 s"): PLUMB_ENOLAND, PLUMB_EBUDGET, PLUMB_ENUMERIC, or
- * PLUMB_ERANGE when the path leaves the atmosphere model's range.
- * Invalid specs (mass <= 0, release height <= 0 ...) give PLUMB_EINVAL. */
+ * t=12.40 s"): PLUMB_ENOLAND (never reaches the strike level),
+ * PLUMB_EBUDGET (step or time budget), PLUMB_ENUMERIC (the integration
+ * failed, or its result failed the energy-balance or terminal-speed check
+ * on both kinds of stepper), PLUMB_EOUTSIDE when the path leaves the
+ * atmosphere model's range, PLUMB_ENOMEM when recording the path runs out
+ * of memory. Invalid specs (mass <= 0, release height <= 0 ...) give
+ * PLUMB_EINVAL. Allocates nothing unless record_path is set. */
 plumb_status plumb_trajectory_run(plumb_trajectory *traj, const plumb_fall_spec *spec,
                                   const plumb_atmosphere *atm, plumb_fall_result *res,
                                   plumb_diag *diag);
@@ -177,7 +181,14 @@ plumb_status plumb_trajectory_run(plumb_trajectory *traj, const plumb_fall_spec 
 const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size_t *n);
 
 /* Still-air terminal speed of the spec's body (with all devices open when
- * with_devices is 1) at height z_m above the strike level, m/s. */
+ * with_devices is 1) at height z_m above the strike level, m/s: the lowest
+ * root of 1/2 rho CdA(Re) v^2 = m g (1 - rho V / m), where a body falling
+ * from rest settles (a sphere in the drag crisis can have three roots).
+ * Errors: PLUMB_ENOSOLUTION when the body has no drag (or its terminal
+ * speed is above 1e6 m/s), PLUMB_ENOLAND when buoyancy exceeds weight,
+ * PLUMB_EOUTSIDE when the altitude is outside the air model, PLUMB_ENUMERIC
+ * when the root finder fails, PLUMB_ENOMEM. *v_m_s is untouched on error.
+ * Allocates its solver per call: plumb_trajectory_run uses the workspace's. */
 plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
                                   double z_m, int with_devices, double *v_m_s);
 

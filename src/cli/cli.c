@@ -233,10 +233,10 @@ int cli_same_file(const char *out, const char *in)
 static plumb_status cli_io_error(plumb_diag *diag, const char *path, const char *what, int err)
 {
     plumb_diag_clear(diag);
-    diag->status = PLUMB_EIO;
+    diag->status = PLUMB_EWRITE;
     snprintf(diag->file, sizeof diag->file, "%s", path);
     snprintf(diag->message, sizeof diag->message, "%s: %s", what, strerror(err));
-    return PLUMB_EIO;
+    return PLUMB_EWRITE;
 }
 
 static int cli_write_all(int fd, const char *buf, size_t len)

@@ -74,7 +74,7 @@ int cmd_lint(int argc, char **argv)
         }
         if (fflush(stdout) != 0) {
             fprintf(stderr, "plumb: cannot write to standard output\n");
-            rc = CLI_EXIT_INPUT;
+            rc = CLI_EXIT_FAILED; /* not the user's input */
         }
     }
     plumb_criteria_free(crit);

@@ -228,12 +228,12 @@ static plumb_status samples_open(samples_file *s, plumb_diag *diag)
     int fd = mkstemp(s->tmp);
     if (fd < 0) {
         plumb_diag_clear(diag);
-        diag->status = PLUMB_EIO;
+        diag->status = PLUMB_EWRITE;
         snprintf(diag->file, sizeof diag->file, "%s", s->path);
         snprintf(diag->message, sizeof diag->message, "cannot create a temporary file beside it: %s",
                  strerror(errno));
         s->tmp[0] = '\0';
-        return PLUMB_EIO;
+        return PLUMB_EWRITE;
     }
     s->f = fdopen(fd, "w");
     if (!s->f) {
@@ -305,10 +305,10 @@ static plumb_status samples_close(samples_file *s, int commit, plumb_diag *diag)
         unlink(s->tmp);
     if (commit && err) {
         plumb_diag_clear(diag);
-        diag->status = PLUMB_EIO;
+        diag->status = PLUMB_EWRITE;
         snprintf(diag->file, sizeof diag->file, "%s", s->path);
         snprintf(diag->message, sizeof diag->message, "cannot write the samples: %s", strerror(err));
-        return PLUMB_EIO;
+        return PLUMB_EWRITE;
     }
     return PLUMB_OK;
 }

@@ -142,7 +142,9 @@ else bad "-o on an error touched the output or left a temporary file"; fi
 cp "$p" "$tmp/o/same.yaml"
 expect_status 2 "-o onto the profile" fall "$tmp/o/same.yaml" -o "$tmp/o/same.yaml"
 if cmp -s "$p" "$tmp/o/same.yaml"; then ok; else bad "-o overwrote its input profile"; fi
-expect_status 2 "-o into a missing directory" fall "$p" -o "$tmp/missing/dir/report.txt"
+# a report that cannot be written is a failure of the run, not of the input: 3
+expect_status 3 "-o into a missing directory" fall "$p" -o "$tmp/missing/dir/report.txt"
+expect_status 3 "--samples-out into a missing directory" zone "$p" --samples 400 --samples-out "$tmp/missing/dir/s.csv"
 
 # ---- plumb lint ---------------------------------------------------------------
 for p in profiles/demo/*.yaml; do
