@@ -189,7 +189,7 @@ struct plumb_profile {
     double *wind_h_m, *wind_e_m_s, *wind_n_m_s; /* the specs' wind table */
     size_t n_criteria;
     char **criteria;
-    int (*criteria_pos)[2];          /* line, column of each (0, 0 from --set without one) */
+    int (*criteria_pos)[3];          /* line, column, plumby_origin of each */
     size_t n_unc;
     plumb_uncertainty *unc;
     plumb_zone_spec zone;
@@ -1239,6 +1239,7 @@ static plumb_status read_criteria(loader *L)
         memcpy(L->p->criteria[i], id, strlen(id) + 1);
         L->p->criteria_pos[i][0] = it->line;
         L->p->criteria_pos[i][1] = it->col;
+        L->p->criteria_pos[i][2] = (int)it->origin;
         L->p->n_criteria = i + 1;
     }
     return PLUMB_OK;
@@ -1678,6 +1679,15 @@ void plumb_profile_criterion_position(const plumb_profile *p, size_t i, int *lin
     int ok = p && i < p->n_criteria && p->criteria_pos;
     *line = ok ? p->criteria_pos[i][0] : 0;
     *col = ok ? p->criteria_pos[i][1] : 0;
+}
+
+const char *plumb_profile_criterion_file(const plumb_profile *p, size_t i)
+{
+    if (!p)
+        return NULL;
+    if (i < p->n_criteria && p->criteria_pos && p->criteria_pos[i][2] == PLUMBY_FROM_SET)
+        return PLUMBY_SET_FILE;
+    return p->path;
 }
 
 const char *plumb_profile_criterion(const plumb_profile *p, size_t i)

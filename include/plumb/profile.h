@@ -91,6 +91,9 @@ size_t plumb_profile_criteria_count(const plumb_profile *p);
 const char *plumb_profile_criterion(const plumb_profile *p, size_t i);
 /* Where the i-th criterion was named in the file (0, 0 when not known). */
 void plumb_profile_criterion_position(const plumb_profile *p, size_t i, int *line, int *col);
+/* The file the i-th criterion was named in, for diagnostics: the profile's
+ * path, or "--set" when an override named it. NULL only for a NULL p. */
+const char *plumb_profile_criterion_file(const plumb_profile *p, size_t i);
 
 /* `uncertainty:` entries, in file order. */
 size_t plumb_profile_uncertainty_count(const plumb_profile *p);

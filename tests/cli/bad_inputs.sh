@@ -102,6 +102,8 @@ refused "--set with malformed YAML" "plumb: --set:1:" "malformed YAML" \
   -- fall "$good" --set "payload.drag={cd: 1" --format json
 refused "--set with a value out of range" "plumb: --set:1:17: payload.drag.cd: " \
   -- fall "$good" --set payload.drag.cd=-0.5 --format json
+refused "--set naming an unknown criterion" "plumb: --set:1:11: criteria[0]: " \
+  "did you mean 'eu-c1-80j'" -- fall tests/cli/profiles/thrown.yaml --set "criteria=[eu-c2]" --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
 
