@@ -104,6 +104,18 @@ refused "--set with a value out of range" "plumb: --set:1:17: payload.drag.cd: "
   -- fall "$good" --set payload.drag.cd=-0.5 --format json
 refused "--set naming an unknown criterion" "plumb: --set:1:11: criteria[0]: " \
   "did you mean 'eu-c1-80j'" -- fall tests/cli/profiles/thrown.yaml --set "criteria=[eu-c2]" --format json
+# an error in a --set value names --set and the key, and suggests a unit
+# of the key's own dimension (issue 9)
+refused "--set with a unit in capitals" "plumb: --set:1:14: payload.mass: " \
+  'did you mean "5 kg"?' "case-sensitive" -- fall "$good" --set "payload.mass=5 KG" --format json
+refused "--set with a mega for a metre" "plumb: --set:1:16: release.height: " \
+  'did you mean "60 m"?' "M is the prefix mega" -- fall "$good" --set "release.height=60 M" --format json
+refused "--set with a decimal comma" "plumb: --set:1:16: release.height: " \
+  'use a decimal point: "6.5 m"' -- fall "$good" --set "release.height=6,5 m" --format json
+refused "--set with a compass letter" "plumb: --set:1:15: site.latitude: " \
+  'write "54.2 deg"' -- fall "$good" --set "site.latitude=54.2 N" --format json
+refused "--set with a word that is not a number" "plumb: --set:1:14: payload.mass: " \
+  "does not start with a number" -- fall "$good" --set "payload.mass=heavy" --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
 
