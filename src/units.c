@@ -84,7 +84,7 @@ static const struct {
     {"a volume flow", "m^3/s"},
     {"a mass per area", "kg/m^2"},
     {"a mass per length", "kg/m"},
-    {"a reciprocal length (per length)", "1/m"},
+    {"a reciprocal length", "1/m"},
     {"an energy per mass", "J/kg"},
 };
 
@@ -509,6 +509,22 @@ static int has_number_factor(const char *unit)
     return 0;
 }
 
+/* ---- dimensions ------------------------------------------------------------ */
+
+/* True when a and b measure the same quantity. ut_are_convertible() is not
+ * enough: udunits2 2.2.28 also holds a unit convertible into its
+ * reciprocal, and its converter inverts the value (seen here: "5 1/kg"
+ * was read as a mass of 0.2 kg, "2 Hz" as a time of 0.5 s; its header
+ * does not say so). The quotient of two units of the same dimension is
+ * dimensionless. */
+static int same_dimension(const plumb_units *units, const ut_unit *a, const ut_unit *b)
+{
+    ut_unit *q = ut_divide(a, b);
+    int same = q && ut_are_convertible(q, units->one);
+    ut_free(q);
+    return same;
+}
+
 /* ---- diagnostics ----------------------------------------------------------- */
 
 /* Describes what `unit` measures, in words: "a length", "an angle", "an
@@ -523,13 +539,13 @@ static int describe_unit(const plumb_units *units, const ut_unit *unit, const un
     }
     for (size_t i = 0; i < sizeof describe_order / sizeof describe_order[0]; i++) {
         plumb_dim d = describe_order[i];
-        if (ut_are_convertible(unit, units->ref[d])) {
+        if (same_dimension(units, unit, units->ref[d])) {
             snprintf(buf, size, "%s %s", dims[d].article, dims[d].name);
             return 0;
         }
     }
     for (size_t i = 0; i < N_OTHER; i++) {
-        if (units->other[i] && ut_are_convertible(unit, units->other[i])) {
+        if (units->other[i] && same_dimension(units, unit, units->other[i])) {
             /* udunits2 takes the radian for a number: rad/s is a frequency */
             int angular = shape->rad_power != 0 && strcmp(other_quantities[i].ud, "1/s") == 0;
             snprintf(buf, size, "%s", angular ? "an angular speed" : other_quantities[i].what);
@@ -829,7 +845,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
         }
         use = interval;
     }
-    int ok = ut_are_convertible(use, units->ref[want]) != 0;
+    int ok = same_dimension(units, use, units->ref[want]);
     if (want == PLUMB_DIM_ANGLE && shape.rad_power != 1)
         ok = 0;
     if (want == PLUMB_DIM_FRACTION && shape.rad_power != 0)
@@ -919,7 +935,7 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
     }
     for (size_t i = 0; i < N_ALIASES; i++) {
         ut_unit *a = ut_parse(u->sys, aliases[i].ud, UT_ASCII);
-        int ok = a && ut_are_convertible(a, u->ref[aliases[i].dim]);
+        int ok = a && same_dimension(u, a, u->ref[aliases[i].dim]);
         ut_free(a);
         if (!ok) {
             st = PLUMB_RAISE(diag, PLUMB_EIO,

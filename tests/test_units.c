@@ -437,6 +437,21 @@ static void test_a_unit_of_another_dimension_names_both(void **state)
     parse_fails(state, "3 mol/s", PLUMB_DIM_MASS, PLUMB_EUNIT, "(a unit that is not a mass)");
 }
 
+/* A unit's reciprocal measures another quantity (dimensional analysis:
+ * dim(1/kg) = M^-1, not M), though udunits2 converts between the two:
+ * "5 1/kg" must not read as a mass of 0.2 kg, nor "2 Hz" as 0.5 s. */
+static void test_the_reciprocal_of_a_unit_is_not_that_unit(void **state)
+{
+    parse_fails(state, "5 1/kg", PLUMB_DIM_MASS, PLUMB_EUNIT, "(a unit that is not a mass)");
+    parse_fails(state, "2.6 1/m", PLUMB_DIM_LENGTH, PLUMB_EUNIT, "(a reciprocal length)");
+    parse_fails(state, "2 Hz", PLUMB_DIM_TIME, PLUMB_EUNIT, "(a frequency (per time))");
+    parse_fails(state, "4.1 s/m", PLUMB_DIM_SPEED, PLUMB_EUNIT, "(a unit that is not a speed)");
+    parse_fails(state, "0.3 1/Pa", PLUMB_DIM_PRESSURE, PLUMB_EUNIT, "not a pressure");
+    /* the siemens is the reciprocal ohm (SI Brochure table 4): named as itself */
+    parse_fails(state, "10 S", PLUMB_DIM_LENGTH, PLUMB_EUNIT, "(an electric conductance)");
+    to_si_fails(state, 2.0, "1/s", PLUMB_DIM_TIME, PLUMB_EUNIT, "expected a time (s)");
+}
+
 static void test_an_unknown_unit_is_named(void **state)
 {
     parse_fails(state, "2.4 kgz", PLUMB_DIM_MASS, PLUMB_EUNIT,
@@ -1028,6 +1043,7 @@ int main(void)
         cmocka_unit_test(test_a_compass_letter_after_an_angle_is_explained),
         cmocka_unit_test(test_a_decimal_comma_is_explained),
         cmocka_unit_test(test_every_listed_unit_reads_as_its_dimension),
+        cmocka_unit_test(test_the_reciprocal_of_a_unit_is_not_that_unit),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }
