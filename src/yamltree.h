@@ -6,7 +6,9 @@
  * wiki/LibYAML). Every string is copied out of libyaml's buffers, so
  * nothing in a tree points into them. Refused while building, each with
  * the line and column where it happens: bytes that are not UTF-8 (libyaml
- * reader), tab characters anywhere, anchors, aliases and tags (an alias
+ * reader), tab characters in the indentation or inside a value (a tab
+ * before or inside a comment, or between a key and its value, is white
+ * space, as YAML 1.2.2 6.1 allows), anchors, aliases and tags (an alias
  * bomb cannot be built), keys that are not scalars, duplicate keys, maps
  * with more than PLUMBY_MAX_KEYS keys, nesting deeper than PLUMBY_MAX_DEPTH,
  * NUL characters in scalars, a second document, and a stream with no

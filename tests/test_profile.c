@@ -514,9 +514,17 @@ static const bad_case bad_cases[] = {
      NULL, PLUMB_EPARSE, "payload.mass", "tags"},
     {"test_tab_is_refused_where_it_stands",
      "payload:\n  mass: 2.385 kg\n@@\tdrag: {cd_area: 0.01 m^2}\n" RELEASE, NULL, PLUMB_EPARSE,
-     "", "tab"},
-    {"test_tab_inside_a_value_is_refused_too", "name: caf@@\te\n" GOOD, NULL, PLUMB_EPARSE, "",
-     "tab"},
+     "", "tab character in the indentation"},
+    {"test_tab_inside_a_value_is_refused_too", "name: caf@@\te\n" GOOD, NULL, PLUMB_EPARSE, "name",
+     "a tab character inside a value"},
+    {"test_tab_inside_a_quoted_value_is_refused_where_it_stands",
+     "payload:\n  mass: \"2.3@@\t85 kg\"\n  drag: {cd_area: 0.01 m^2}\n" RELEASE, NULL, PLUMB_EPARSE,
+     "payload.mass", "a tab character inside a value"},
+    {"test_tab_after_a_list_dash_is_indentation",
+     "items:\n  -@@\tname: pin\n    mass: 0.183 kg\n    drag: {cd_area: 0.0003 m^2}\n" RELEASE,
+     NULL, PLUMB_EPARSE, "", "tab character in the indentation"},
+    {"test_tab_inside_a_set_value_is_refused_where_it_stands", GOOD, "payload.mass=2.3@@\t85 kg",
+     PLUMB_EPARSE, "payload.mass", "a tab character inside a value"},
     {"test_invalid_utf8_is_refused_with_its_position", "name: caf@@\xff\n" GOOD, NULL,
      PLUMB_EPARSE, "", "UTF-8"},
     {"test_truncated_utf8_sequence_is_refused", "name: ab\xc3\xa9@@\xe2\x82\n" GOOD, NULL,
@@ -790,6 +798,31 @@ static void test_utf8_byte_order_mark_is_skipped(void **state)
                                "  drag: {cd: 0.91, area: 0.0113 m^2}\nrelease: {height: 17.3 m}\n",
                                NULL, 0);
     assert_rel(plumb_profile_item(p, 0)->mass_kg, 1.373, 1e-15);
+    plumb_profile_free(p);
+}
+
+/* YAML 1.2.2 (6.1, 6.6) forbids tabs only as indentation: a tab that
+ * separates a value from its comment, or lies inside the comment, or
+ * between a key and its value, is white space (issue 9: "a tab inside a
+ * trailing comment is not an indentation error"). */
+static void test_tabs_around_and_in_a_trailing_comment_are_accepted(void **state)
+{
+    (void)state;
+    plumb_profile *p = load_ok("name: tabbed\t# tab-aligned comment\n"
+                               "payload:\n  mass: 1.373 kg\t# scale reading\n"
+                               "  volume: 0.0004 m^3  # a\tcomment with a tab\n"
+                               "  drag:\t{cd: 0.91, area: 0.0113 m^2}\n"
+                               "  # a whole-line comment\twith a tab\n"
+                               "release: {height: 17.3 m}\t\n",
+                               NULL, 0);
+    assert_string_equal(plumb_profile_name(p), "tabbed");
+    assert_rel(plumb_profile_item(p, 0)->mass_kg, 1.373, 1e-15);
+    assert_rel(plumb_profile_item(p, 0)->volume_m3, 0.0004, 1e-15);
+    assert_rel(plumb_profile_item(p, 0)->drag.cd, 0.91, 1e-15);
+    plumb_profile_free(p);
+    const char *sets[] = {"release.height=21.6 m\t# from --set"};
+    p = load_ok(GOOD, sets, 1);
+    assert_rel(plumb_profile_item(p, 0)->release_m[2], 21.6, 1e-15);
     plumb_profile_free(p);
 }
 
@@ -1541,6 +1574,7 @@ int main(void)
         cmocka_unit_test(test_drag_source_longer_than_the_spec_field_is_refused),
         cmocka_unit_test(test_a_direction_sector_may_run_through_north),
         cmocka_unit_test(test_utf8_byte_order_mark_is_skipped),
+        cmocka_unit_test(test_tabs_around_and_in_a_trailing_comment_are_accepted),
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_design_md_section_5_example_loads_with_every_value_in_si),
         cmocka_unit_test(test_sha256_is_of_the_file_bytes),

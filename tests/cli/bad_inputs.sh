@@ -90,6 +90,14 @@ for f in tests/bad/*.yaml; do
 done
 [ "$n_bad" -ge 30 ] && pass=$((pass + 1)) || bad "tests/bad holds $n_bad profiles, expected at least 30"
 
+# ---- tabs that are white space, not indentation (issue 9) --------------------
+printf 'payload:\n  mass: 2.385 kg\t# scale reading\n  drag: {cd_area: 0.0113 m^2}  # a\tcomment\nrelease:\n  height: 27.4 m\n' >"$tmp/tab-comment.yaml"
+if "$bin" lint "$tmp/tab-comment.yaml" >"$tmp/stdout" 2>"$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "a tab before and inside a trailing comment: $(cat "$tmp/stderr")"
+fi
+
 # ---- overrides --------------------------------------------------------------
 refused "--set with an unknown key" "plumb: --set:1:9: release.hieght: " "did you mean 'release.height'" \
   -- fall "$good" --set release.hieght=30m --format json
