@@ -904,7 +904,8 @@ char *plumby_key_join(char *dst, size_t size, const char *prefix, const char *na
      * longer than dst is shortened; the diagnostic still names its start. */
     char tmp[2 * PLUMB_DIAG_KEY + 32];
     if (!name)
-        snprintf(tmp, sizeof tmp, "%s[%zu]", prefix ? prefix : "", i);
+        snprintf(tmp, sizeof tmp, "%s[%zu]", prefix ? prefix : "",
+                 prefix && strcmp(prefix, PLUMBY_ITEMS_KEY) == 0 ? i + 1 : i);
     else if (!prefix || !prefix[0])
         snprintf(tmp, sizeof tmp, "%s", name);
     else

@@ -124,6 +124,16 @@ refused "--set with a compass letter" "plumb: --set:1:15: site.latitude: " \
   'write "54.2 deg"' -- fall "$good" --set "site.latitude=54.2 N" --format json
 refused "--set with a word that is not a number" "plumb: --set:1:14: payload.mass: " \
   "does not start with a number" -- fall "$good" --set "payload.mass=heavy" --format json
+# items are numbered from 1, as the reports number them (issue 9)
+inv=tests/cli/profiles/inventory.yaml
+refused "--set items[0]" "plumb: --set:1:7: items[0].mass: " "items are numbered from 1" \
+  -- fall "$inv" --set "items[0].mass=0.4 kg" --format json
+refused "--set an item by a name it does not have" "plumb: --set:1:1: items[glov].mass: " \
+  "did you mean 'glove'?" -- fall "$inv" --set "items[glov].mass=0.4 kg" --format json
+refused "--vary items[0]" "items[0].mass: " "items are numbered from 1" \
+  -- sweep "$inv" --vary "items[0].mass=0.1kg:0.3kg:0.1kg" --format json
+refused "limit --find items[2].mass" "items[2].mass: " "find payload.mass instead" \
+  -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
 
