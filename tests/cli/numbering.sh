@@ -8,7 +8,9 @@
 # - in the JSON, only the second item's mass_kg changes, to the value set;
 # - naming the item gives the same report as numbering it;
 # - a sweep over items[3].mass varies the glove: its momentum over its
-#   speed is the mass of the row (p = m v), the other items do not change.
+#   speed is the mass of the row (p = m v), the other items do not change;
+# - a fall or zone that fails on the second item (a balloon lighter than
+#   the air it displaces, which never lands: exit 3) names items[2] / item 2.
 #
 #   sh tests/cli/numbering.sh PLUMB
 #
@@ -75,6 +77,35 @@ EOF
 else
   bad "sweep --vary items[3].mass: $(cat "$tmp/err")"
 fi
+
+# ---- a failure names the item by its number from 1 ------------------------
+cat >"$tmp/buoy.yaml" <<'EOF'
+# invented: the second item is a balloon, 0.012 kg in 0.05 m^3 (about 0.06 kg
+# of air at sea level), so buoyancy exceeds its weight
+name: kit with a balloon
+items:
+  - name: spanner
+    mass: 0.43 kg
+    drag: {cd_area: 0.0113 m^2}
+  - name: balloon
+    mass: 0.012 kg
+    volume: 0.05 m^3
+    drag: {cd_area: 0.03 m^2}
+release:
+  height: 12 m
+wind: {profile: uniform, speed: 3 m/s, from: 270 deg}
+uncertainty:
+  wind.speed: {normal: [3 m/s, 1 m/s]}
+zone: {samples: 400}
+EOF
+"$bin" fall "$tmp/buoy.yaml" >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 3 ] && grep -q "buoy.yaml: items\[2\]: " "$tmp/err"; then ok
+else bad "fall failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
+"$bin" zone "$tmp/buoy.yaml" >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 3 ] && grep -q "item 2 (balloon): " "$tmp/err"; then ok
+else bad "zone failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
 
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
