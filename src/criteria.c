@@ -80,6 +80,40 @@ const plumb_criterion *plumb_criteria_find(const plumb_criteria *set, const char
     return NULL;
 }
 
+/* How far a typed id is from a real one (see plumb_criteria_nearest). */
+static int id_distance(const char *typed, const char *id)
+{
+    size_t lt = strlen(typed), li = strlen(id);
+    if (lt >= 3 && strstr(id, typed))
+        return lt == li ? 0 : 1;
+    int d = plumbp_edit_distance(typed, id);
+    if (li > lt && lt < PLUMB_CRIT_ID) {
+        char head[PLUMB_CRIT_ID];
+        memcpy(head, id, lt);
+        head[lt] = '\0';
+        int dh = plumbp_edit_distance(typed, head) + 1;
+        if (dh < d)
+            d = dh;
+    }
+    return d;
+}
+
+const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const char *id)
+{
+    if (!set || !id || set->n == 0)
+        return NULL;
+    size_t best = 0;
+    int best_d = id_distance(id, set->c[0].id);
+    for (size_t i = 1; i < set->n; i++) {
+        int d = id_distance(id, set->c[i].id);
+        if (d < best_d) {
+            best_d = d;
+            best = i;
+        }
+    }
+    return &set->c[best];
+}
+
 void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out)
 {
     if (!out)

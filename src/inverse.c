@@ -301,13 +301,21 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     plumb_status st = plumb_profile_key_dim(key, &dim, diag);
     if (st != PLUMB_OK)
         return st;
+    if (starts_with(key, "items[")) {
+        const char *rest = strchr(key, ']');
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
+                               "find payload%s instead: the answer is given for each item of the "
+                               "inventory, by name",
+                               rest && rest[1] == '.' ? rest + 1 : ".KEY");
+    }
     if (dim == PLUMB_DIM_ANGLE)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
                                "a direction does not change the answer one way; use `plumb sweep` over it");
     solver_ctx c = {.profile = profile, .units = units, .item = item, .dim = dim, .metric = metric,
                     .limit = limit, .traj = traj, .max_evals = opt->max_evaluations, .diag = diag};
     if (plumb_profile_is_inventory(profile) && starts_with(key, "payload."))
-        snprintf(c.set_key, sizeof c.set_key, "items[%zu].%s", item, key + strlen("payload."));
+        snprintf(c.set_key, sizeof c.set_key, "items[%zu].%s", item + 1,
+                 key + strlen("payload.")); /* items count from 1 in keys */
     else
         plumbp_strlcpy(c.set_key, key, sizeof c.set_key);
     double base;

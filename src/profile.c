@@ -189,7 +189,7 @@ struct plumb_profile {
     double *wind_h_m, *wind_e_m_s, *wind_n_m_s; /* the specs' wind table */
     size_t n_criteria;
     char **criteria;
-    int (*criteria_pos)[2];          /* line, column of each (0, 0 from --set without one) */
+    int (*criteria_pos)[3];          /* line, column, plumby_origin of each */
     size_t n_unc;
     plumb_uncertainty *unc;
     plumb_zone_spec zone;
@@ -219,9 +219,13 @@ void plumb_profile_free(plumb_profile *p)
 
 /* ---- key paths (overrides and plumb_profile_key_dim) -------------------- */
 
+/* kseg.index when the segment has no [index], or selects an item by name */
+enum { KSEG_NONE = -1, KSEG_NAMED = -2 };
+
 typedef struct kseg {
     char name[PLUMB_DIAG_KEY];     /* key in its map (for uncertainty: the whole rest) */
-    long index;                    /* [i], or -1 */
+    long index;                    /* [i] counted from 0, KSEG_NONE or KSEG_NAMED */
+    char item[PLUMB_NAME];         /* KSEG_NAMED: the item's name, items[NAME] */
     int col;                       /* 1-based position of the segment in the key */
     const plumby_schema *schema;   /* its schema; NULL under uncertainty */
 } kseg;
@@ -236,8 +240,12 @@ static int key_char(char c)
     return (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '_' || c == '-';
 }
 
-/* Resolves a dotted key ("descent[1].area") against the schema. Errors are
- * located at (file, line 1, column of the fault) when file is not NULL. */
+/* Resolves a dotted key ("descent[1].area") against the schema. Lists count
+ * from 0, except the top-level items, which count from 1 as every report
+ * numbers them ("items[2]" is index 1; "items[0]" is an error) and may be
+ * named ("items[box of M12 bolts]", KSEG_NAMED, found in the tree later).
+ * Errors are located at (file, line 1, column of the fault) when file is
+ * not NULL. */
 static plumb_status keypath_resolve(const char *key, keypath *kp, const char *file,
                                     plumb_diag *diag)
 {
@@ -255,7 +263,8 @@ static plumb_status keypath_resolve(const char *key, keypath *kp, const char *fi
                                   "a key of more than %d parts", KEY_SEGS);
         kseg *s = &kp->seg[kp->n];
         s->col = KP_COL(pos);
-        s->index = -1;
+        s->index = KSEG_NONE;
+        s->item[0] = '\0';
         if (cur->type == PLUMBY_T_FREE_MAP) {
             /* uncertainty: the rest is one (dotted) key */
             if (!key[pos])
@@ -294,6 +303,8 @@ static plumb_status keypath_resolve(const char *key, keypath *kp, const char *fi
                 return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
                                       "'%s' is not a list, so it takes no [index]", s->name);
             size_t d0 = ++pos;
+            /* an inventory's items: numbered from 1 as in the reports, or named */
+            int items = kp->n == 0 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0;
             long idx = 0;
             while (key[pos] >= '0' && key[pos] <= '9') {
                 if (idx > 1000000)
@@ -302,11 +313,33 @@ static plumb_status keypath_resolve(const char *key, keypath *kp, const char *fi
                 idx = idx * 10 + (key[pos] - '0');
                 pos++;
             }
-            if (pos == d0 || key[pos] != ']')
-                return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
-                                      "expected [N] with a whole number N");
-            pos++;
-            s->index = idx;
+            if (items && key[pos] != ']' && key[pos] != '\0') {
+                const char *close = strchr(key + d0, ']');
+                size_t nlen = close ? (size_t)(close - (key + d0)) : 0;
+                if (!close)
+                    return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(d0), key,
+                                          "expected items[N], N from 1, or items[NAME]: no "
+                                          "closing ']'");
+                if (nlen >= sizeof s->item)
+                    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file, line, KP_COL(d0), key,
+                                          "an item's name has at most %d characters",
+                                          (int)sizeof s->item - 1);
+                memcpy(s->item, key + d0, nlen);
+                s->item[nlen] = '\0';
+                pos = d0 + nlen + 1;
+                s->index = KSEG_NAMED;
+            } else {
+                if (pos == d0 || key[pos] != ']')
+                    return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                          items ? "expected items[N], N from 1, or items[NAME]"
+                                                : "expected [N] with a whole number N");
+                if (items && idx == 0)
+                    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file, line, KP_COL(d0), key,
+                                          "items are numbered from 1, as in the reports: "
+                                          "items[1] is the first item");
+                pos++;
+                s->index = items ? idx - 1 : idx;
+            }
         }
         kp->n++;
         if (key[pos] == '\0')
@@ -317,10 +350,11 @@ static plumb_status keypath_resolve(const char *key, keypath *kp, const char *fi
         pos++;
         switch (child->type) {
         case PLUMBY_T_LIST:
-            if (s->index < 0)
+            if (s->index == KSEG_NONE)
                 return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos - 1), key,
-                                      "'%s' is a list: give an index, e.g. %s[0].%s", s->name,
-                                      s->name, key + pos);
+                                      "'%s' is a list: give an index, e.g. %s[%d].%s", s->name,
+                                      s->name, kp->n == 1 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0,
+                                      key + pos);
             cur = &child->sub[0];
             if (cur->type != PLUMBY_T_MAP)
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, KP_COL(pos), key,
@@ -349,7 +383,7 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
         return st;
     const kseg *leaf = &kp.seg[kp.n - 1];
     const plumby_schema *s = leaf->schema;
-    if (s && s->type == PLUMBY_T_LIST && leaf->index >= 0)
+    if (s && s->type == PLUMBY_T_LIST && leaf->index != KSEG_NONE)
         s = &s->sub[0];
     if (!s || (s->type != PLUMBY_T_NUM && s->type != PLUMBY_T_COUNT))
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
@@ -370,6 +404,51 @@ static plumb_status set_raise(plumb_diag *diag, plumb_status st, int col, const 
     return st;
 }
 
+/* Index of the item of list whose name is `name`, or -1. */
+static long item_named(const plumby_node *list, const char *name)
+{
+    for (size_t i = 0; i < list->n; i++) {
+        const plumby_node *it = list->items[i];
+        const plumby_pair *np = it->kind == PLUMBY_MAP ? plumby_find(it, "name") : NULL;
+        if (np && np->value->kind == PLUMBY_SCALAR && strcmp(np->value->text, name) == 0)
+            return (long)i;
+    }
+    return -1;
+}
+
+/* Most bytes of the item names an "no item is named" message lists. */
+#define ITEM_LIST_MAX 200
+
+/* Raises "no item is named ...", with the nearest name and the names. */
+static plumb_status no_item_named(plumb_diag *diag, const kseg *s, const char *key,
+                                  const plumby_node *list)
+{
+    const char *names[64];
+    size_t n = 0;
+    char all[ITEM_LIST_MAX];
+    size_t len = 0;
+    all[0] = '\0';
+    for (size_t i = 0; i < list->n; i++) {
+        const plumby_node *it = list->items[i];
+        const plumby_pair *np = it->kind == PLUMBY_MAP ? plumby_find(it, "name") : NULL;
+        if (!np || np->value->kind != PLUMBY_SCALAR)
+            continue;
+        const char *name = np->value->text;
+        if (n < sizeof names / sizeof names[0])
+            names[n++] = name;
+        if (len + strlen(name) + 8 + sizeof ", ..." > sizeof all) {
+            if (len + sizeof ", ..." <= sizeof all)
+                len += (size_t)snprintf(all + len, sizeof all - len, ", ...");
+            continue;
+        }
+        len += (size_t)snprintf(all + len, sizeof all - len, "%s'%s'", len ? ", " : "", name);
+    }
+    const char *near = plumbp_closest(s->item, names, n);
+    return set_raise(diag, PLUMB_EKEY, s->col, key, "no item is named '%s'%s%s%s; the items are %s",
+                     s->item, near ? " (did you mean '" : "", near ? near : "",
+                     near ? "'?)" : "", all[0] ? all : "unnamed");
+}
+
 /* Puts value (owned; freed on error) at the key path in root. */
 static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *key,
                              plumby_node *value, plumb_diag *diag)
@@ -387,7 +466,7 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
             goto fail;
         }
         plumby_pair *pair = plumby_find(cur, s->name);
-        if (s->index < 0) {
+        if (s->index == KSEG_NONE) {
             if (last) {
                 if (pair) {
                     plumby_free(pair->value);
@@ -410,12 +489,14 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
             }
             continue;
         }
-        /* indexed */
+        /* indexed; items count from 1 in what people see */
+        int base = i == 0 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0;
         plumby_node *list;
         if (!pair) {
             if (s->index != 0) {
                 st = set_raise(diag, PLUMB_ERANGE, s->col, key,
-                               "'%s' has no items yet: the first one is %s[0]", s->name, s->name);
+                               "'%s' has no items yet: the first one is %s[%d]", s->name, s->name,
+                               base);
                 goto fail;
             }
             list = plumby_new(PLUMBY_SEQ, 1, s->col, PLUMBY_FROM_SET);
@@ -455,11 +536,22 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
                            list->col);
             goto fail;
         }
-        size_t idx = (size_t)s->index;
+        size_t idx;
+        if (s->index == KSEG_NAMED) {
+            long found = item_named(list, s->item);
+            if (found < 0) {
+                st = no_item_named(diag, s, key, list);
+                goto fail;
+            }
+            idx = (size_t)found;
+        } else {
+            idx = (size_t)s->index;
+        }
         if (idx > list->n) {
             st = set_raise(diag, PLUMB_ERANGE, s->col, key,
                            "index %zu is past the end: '%s' has %zu item%s (the next is [%zu])",
-                           idx, s->name, list->n, list->n == 1 ? "" : "s", list->n);
+                           idx + (size_t)base, s->name, list->n, list->n == 1 ? "" : "s",
+                           list->n + (size_t)base);
             goto fail;
         }
         if (last) {
@@ -499,10 +591,11 @@ static void tree_remove(plumby_node *root, const keypath *kp)
             return;
         plumby_node *v = pair->value;
         int last = i + 1 == kp->n;
-        if (s->index >= 0 && v->kind == PLUMBY_SEQ) {
-            size_t idx = (size_t)s->index;
-            if (idx >= v->n)
+        if (s->index != KSEG_NONE && v->kind == PLUMBY_SEQ) {
+            long at = s->index == KSEG_NAMED ? item_named(v, s->item) : s->index;
+            if (at < 0 || (size_t)at >= v->n)
                 return;
+            size_t idx = (size_t)at;
             if (last) {
                 plumby_free(v->items[idx]);
                 memmove(&v->items[idx], &v->items[idx + 1], (v->n - idx - 1) * sizeof *v->items);
@@ -512,7 +605,7 @@ static void tree_remove(plumby_node *root, const keypath *kp)
             cur = v->items[idx];
             continue;
         }
-        if (s->index > 0)
+        if (s->index > 0 || s->index == KSEG_NAMED)
             return;
         if (last) {
             size_t at = (size_t)(pair - cur->pairs);
@@ -545,7 +638,7 @@ static void drop_alternatives(plumby_node *root, const keypath *kp)
     if (kp->n < 2)
         return;
     const kseg *last = &kp->seg[kp->n - 1], *parent = &kp->seg[kp->n - 2];
-    if (last->index >= 0)
+    if (last->index != KSEG_NONE)
         return;
     for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
         if (strcmp(alternatives[i].key, last->name) != 0 ||
@@ -1239,6 +1332,7 @@ static plumb_status read_criteria(loader *L)
         memcpy(L->p->criteria[i], id, strlen(id) + 1);
         L->p->criteria_pos[i][0] = it->line;
         L->p->criteria_pos[i][1] = it->col;
+        L->p->criteria_pos[i][2] = (int)it->origin;
         L->p->n_criteria = i + 1;
     }
     return PLUMB_OK;
@@ -1336,7 +1430,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         if (!plumb_fall_spec_field(&L->p->items[i], pr->key)) {
             if (L->p->inventory)
                 return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
-                                    "'%s' is not an input of item %zu (%s): %s", pr->key, i,
+                                    "'%s' is not an input of item %zu (%s): %s", pr->key, i + 1,
                                     L->p->items[i].name, unc_reason(pr->key));
             return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
                                 "'%s' cannot carry an uncertainty: %s", pr->key,
@@ -1554,7 +1648,7 @@ static plumb_status interpret(loader *L)
                 if (strcmp(p->items[j].name, p->items[i].name) == 0)
                     return plumby_raise_value(&im, "name", PLUMB_EKEY,
                                               "item name '%s' is used twice (also items[%zu])",
-                                              p->items[i].name, j);
+                                              p->items[i].name, j + 1);
         }
     }
     if ((st = read_criteria(L)) != PLUMB_OK || (st = read_uncertainty(L)) != PLUMB_OK ||
@@ -1678,6 +1772,15 @@ void plumb_profile_criterion_position(const plumb_profile *p, size_t i, int *lin
     int ok = p && i < p->n_criteria && p->criteria_pos;
     *line = ok ? p->criteria_pos[i][0] : 0;
     *col = ok ? p->criteria_pos[i][1] : 0;
+}
+
+const char *plumb_profile_criterion_file(const plumb_profile *p, size_t i)
+{
+    if (!p)
+        return NULL;
+    if (i < p->n_criteria && p->criteria_pos && p->criteria_pos[i][2] == PLUMBY_FROM_SET)
+        return PLUMBY_SET_FILE;
+    return p->path;
 }
 
 const char *plumb_profile_criterion(const plumb_profile *p, size_t i)

@@ -127,36 +127,39 @@ static const char *descent_kind_name(plumb_descent_kind k)
     }
 }
 
+/* Most bytes of the list of criterion ids an unknown-criterion message
+ * quotes; a longer list ends in "...". */
+#define CRIT_LIST_MAX 300
+
 static plumb_status unknown_criterion(const char *name, size_t index,
                                       const plumb_profile *profile,
                                       const plumb_criteria *criteria, plumb_diag *diag)
 {
     size_t n = plumb_criteria_count(criteria);
-    const char **ids = n ? malloc(n * sizeof *ids) : NULL;
-    const char *near = NULL;
-    if (ids) {
-        for (size_t i = 0; i < n; i++)
-            ids[i] = plumb_criteria_get(criteria, i)->id;
-        near = plumbp_closest(name, ids, n);
-    }
     char key[PLUMB_DIAG_KEY];
     snprintf(key, sizeof key, "criteria[%zu]", index);
     int line, col;
     plumb_profile_criterion_position(profile, index, &line, &col);
-    const char *file = plumb_profile_path(profile);
-    plumb_status st;
-    if (near)
-        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
-                            "unknown criterion '%s'; did you mean '%s'?", name, near);
-    else if (n)
-        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
-                            "unknown criterion '%s'; the criteria directory has %zu others, "
-                            "e.g. '%s'", name, n, ids ? ids[0] : "");
-    else
-        st = PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
-                            "unknown criterion '%s'; no criteria are loaded", name);
-    free(ids);
-    return st;
+    const char *file = plumb_profile_criterion_file(profile, index);
+    if (n == 0)
+        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
+                              "unknown criterion '%s'; no criteria are loaded", name);
+    /* the ids there are, as many as fit */
+    char ids[CRIT_LIST_MAX];
+    size_t len = 0;
+    ids[0] = '\0';
+    for (size_t i = 0; i < n; i++) {
+        const char *id = plumb_criteria_get(criteria, i)->id;
+        if (len + strlen(id) + 2 + sizeof ", ..." > sizeof ids) {
+            snprintf(ids + len, sizeof ids - len, ", ...");
+            break;
+        }
+        len += (size_t)snprintf(ids + len, sizeof ids - len, "%s%s", i ? ", " : "", id);
+    }
+    return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
+                          "unknown criterion '%s'; did you mean '%s'? (the criteria directory "
+                          "has %zu: %s)",
+                          name, plumb_criteria_nearest(criteria, name)->id, n, ids);
 }
 
 /* Names the helmet-test criteria among the verdicts in one sentence, or

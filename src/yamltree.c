@@ -278,7 +278,53 @@ static void offset_pos(const char *buf, size_t len, size_t off, int *line, int *
     *col = c;
 }
 
+/* Byte offset of 0-based line and character column (a libyaml mark) in
+ * buf; len when past the end. */
+static size_t mark_offset(const char *buf, size_t len, size_t line, size_t column)
+{
+    size_t i = 0;
+    for (size_t l = 0; l < line && i < len; i++)
+        if (buf[i] == '\n' || (buf[i] == '\r' && (i + 1 >= len || buf[i + 1] != '\n')))
+            l++;
+    for (size_t c = 0; c < column && i < len; i++)
+        if (((unsigned char)buf[i] & 0xC0u) != 0x80u && ++c == column)
+            while (i + 1 < len && ((unsigned char)buf[i + 1] & 0xC0u) == 0x80u)
+                i++;
+    return i;
+}
+
+/* Offset of the first tab that indents a line: one in the white space at
+ * the start of a line, or after a "- ", "? " or ": " that opens it (YAML
+ * 1.2.2, 6.1: tabs are never indentation). Tabs elsewhere (before or in a
+ * comment, between a key and its value) separate tokens, which YAML
+ * allows; libyaml judges them. Returns len when there is none. */
+static size_t indent_tab(const char *buf, size_t len)
+{
+    size_t i = 0;
+    while (i < len) {
+        for (;;) {
+            while (i < len && (buf[i] == ' ' || buf[i] == '\t')) {
+                if (buf[i] == '\t')
+                    return i;
+                i++;
+            }
+            if (i + 1 < len && (buf[i] == '-' || buf[i] == '?' || buf[i] == ':') &&
+                (buf[i + 1] == ' ' || buf[i + 1] == '\t'))
+                i++;
+            else
+                break;
+        }
+        while (i < len && buf[i] != '\n' && buf[i] != '\r')
+            i++;
+        while (i < len && (buf[i] == '\n' || buf[i] == '\r'))
+            i++;
+    }
+    return len;
+}
+
 typedef struct builder {
+    const char *buf;                         /* the text parsed (for positions) */
+    size_t len;
     const char *file;
     plumby_origin origin;
     int col_offset;
@@ -479,6 +525,19 @@ static plumb_status handle_event(builder *b, const yaml_event_t *ev, int *docs, 
         if (memchr(ev->data.scalar.value, '\0', ev->data.scalar.length))
             return builder_raise(b, PLUMB_EPARSE, line, col, NULL,
                                  "a NUL character inside a value");
+        if (memchr(ev->data.scalar.value, '\t', ev->data.scalar.length)) {
+            /* where the tab is written, if it is (not a "\t" escape) */
+            size_t from = mark_offset(b->buf, b->len, ev->start_mark.line, ev->start_mark.column);
+            size_t to = mark_offset(b->buf, b->len, ev->end_mark.line, ev->end_mark.column);
+            const char *t = from < to ? memchr(b->buf + from, '\t', to - from) : NULL;
+            int tl = line, tc = col;
+            if (t) {
+                offset_pos(b->buf, b->len, (size_t)(t - b->buf), &tl, &tc);
+                tc = out_col(b, tl, tc);
+            }
+            return builder_raise(b, PLUMB_EPARSE, tl, tc, NULL,
+                                 "a tab character inside a value: write spaces");
+        }
         node = plumby_new(PLUMBY_SCALAR, line, col, b->origin);
         if (!node || !(node->text = dup_text((const char *)ev->data.scalar.value,
                                              ev->data.scalar.length))) {
@@ -543,14 +602,15 @@ plumb_status plumby_parse(const char *buf, size_t len, const char *file, plumby_
         buf += 3;
         len -= 3;
     }
-    const char *tab = memchr(buf, '\t', len);
-    if (tab) {
+    b.buf = buf;
+    b.len = len;
+    size_t tab = indent_tab(buf, len);
+    if (tab < len) {
         int line, col;
-        offset_pos(buf, len, (size_t)(tab - buf), &line, &col);
+        offset_pos(buf, len, tab, &line, &col);
         col = out_col(&b, line, col);
         return builder_raise(&b, PLUMB_EPARSE, line, col, NULL,
-                             "a tab character: YAML indents with spaces, and tabs are not "
-                             "allowed anywhere");
+                             "a tab character in the indentation: YAML indents with spaces only");
     }
 
     yaml_parser_t parser;
@@ -844,7 +904,8 @@ char *plumby_key_join(char *dst, size_t size, const char *prefix, const char *na
      * longer than dst is shortened; the diagnostic still names its start. */
     char tmp[2 * PLUMB_DIAG_KEY + 32];
     if (!name)
-        snprintf(tmp, sizeof tmp, "%s[%zu]", prefix ? prefix : "", i);
+        snprintf(tmp, sizeof tmp, "%s[%zu]", prefix ? prefix : "",
+                 prefix && strcmp(prefix, PLUMBY_ITEMS_KEY) == 0 ? i + 1 : i);
     else if (!prefix || !prefix[0])
         snprintf(tmp, sizeof tmp, "%s", name);
     else

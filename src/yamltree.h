@@ -6,7 +6,9 @@
  * wiki/LibYAML). Every string is copied out of libyaml's buffers, so
  * nothing in a tree points into them. Refused while building, each with
  * the line and column where it happens: bytes that are not UTF-8 (libyaml
- * reader), tab characters anywhere, anchors, aliases and tags (an alias
+ * reader), tab characters in the indentation or inside a value (a tab
+ * before or inside a comment, or between a key and its value, is white
+ * space, as YAML 1.2.2 6.1 allows), anchors, aliases and tags (an alias
  * bomb cannot be built), keys that are not scalars, duplicate keys, maps
  * with more than PLUMBY_MAX_KEYS keys, nesting deeper than PLUMBY_MAX_DEPTH,
  * NUL characters in scalars, a second document, and a stream with no
@@ -34,6 +36,10 @@
 #define PLUMBY_MAX_KEYS 1024
 /* File name that diagnostics of override nodes carry. */
 #define PLUMBY_SET_FILE "--set"
+/* The key of an inventory's list of items. Its items are numbered from 1
+ * in keys ("items[1]" is the first), as in every report, --set, --vary
+ * and message; every other list counts from 0 ("descent[0]"). */
+#define PLUMBY_ITEMS_KEY "items"
 
 typedef enum plumby_kind { PLUMBY_SCALAR = 0, PLUMBY_SEQ, PLUMBY_MAP } plumby_kind;
 
@@ -200,7 +206,8 @@ typedef struct plumby_map {
 } plumby_map;
 
 /* Joins "prefix" and "name" into "prefix.name" ("name" for an empty
- * prefix); "prefix[i]" when name is NULL. Returns dst. */
+ * prefix); "prefix[i]" when name is NULL, i counted from 0, except under
+ * PLUMBY_ITEMS_KEY, where the i-th item is "items[i+1]". Returns dst. */
 char *plumby_key_join(char *dst, size_t size, const char *prefix, const char *name, size_t i);
 
 /* Starts reading a map node (checked with plumby_check) at key. */

@@ -157,6 +157,39 @@ static void test_criteria_load_in_file_name_order_with_ids_from_the_stems(void *
     plumb_criteria_free(set);
 }
 
+/* A mistyped id finds the nearest real one, not always the same example.
+ * Distances worked by hand (Levenshtein, 1966): "eu-c2" is 1 edit from
+ * "eu-c1", the first five characters of eu-c1-80j, and at least 8 from
+ * every other id or its first five characters; "us-part107-cat33" is 1
+ * from us-part107-cat3; "fragment" and "z89-type2" lie inside an id. */
+static void test_nearest_criterion_is_the_closest_id_by_edit_distance(void **state)
+{
+    (void)state;
+    const char *dir = new_dir();
+    const char *const ids[] = {"ddesb-fragment-79j", "eu-c1-80j", "us-part107-cat3",
+                               "z89-type1-54j", "z89-type2-31j"};
+    for (size_t i = 0; i < 5; i++) {
+        char name[64];
+        snprintf(name, sizeof name, "%s.yaml", ids[i]);
+        put(dir, name, GOOD_CRIT);
+    }
+    plumb_criteria *set;
+    plumb_diag d;
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_OK);
+    assert_string_equal(plumb_criteria_nearest(set, "eu-c2")->id, "eu-c1-80j");
+    assert_string_equal(plumb_criteria_nearest(set, "us-part107-cat33")->id, "us-part107-cat3");
+    assert_string_equal(plumb_criteria_nearest(set, "fragment")->id, "ddesb-fragment-79j");
+    assert_string_equal(plumb_criteria_nearest(set, "z89-type2")->id, "z89-type2-31j");
+    assert_string_equal(plumb_criteria_nearest(set, "z89-type1-54j")->id, "z89-type1-54j");
+    assert_null(plumb_criteria_nearest(set, NULL));
+    assert_null(plumb_criteria_nearest(NULL, "eu-c2"));
+    plumb_criteria_free(set);
+    plumb_criteria *none;
+    assert_int_equal(plumb_criteria_load_dir(new_dir(), units, &none, &d), PLUMB_OK);
+    assert_null(plumb_criteria_nearest(none, "eu-c2"));
+    plumb_criteria_free(none);
+}
+
 static void test_bundled_part_107_category_3_limit_is_25_ft_lbf(void **state)
 {
     (void)state;
@@ -405,6 +438,7 @@ int main(void)
         cmocka_unit_test(test_source_as_a_list_is_refused),
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_verdict_ratio_and_exceeds_follow_the_definition),
+        cmocka_unit_test(test_nearest_criterion_is_the_closest_id_by_edit_distance),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

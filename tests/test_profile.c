@@ -460,8 +460,8 @@ static const bad_case bad_cases[] = {
      GOOD "uncertainty:\n  payload.mass: {uniform: [@@-1 kg, 3 kg]}\n", NULL, PLUMB_ERANGE,
      "uncertainty.payload.mass.uniform[0]", "> 0 kg"},
     {"test_uncertainty_on_an_item_key_points_to_payload_keys",
-     "items:\n" ITEM("a", "1.2 kg") RELEASE "uncertainty:\n  @@items[0].mass: \"1.2 kg +- 0.1 kg\"\n",
-     NULL, PLUMB_EINVAL, "uncertainty.items[0].mass", "payload.KEY"},
+     "items:\n" ITEM("a", "1.2 kg") RELEASE "uncertainty:\n  @@items[1].mass: \"1.2 kg +- 0.1 kg\"\n",
+     NULL, PLUMB_EINVAL, "uncertainty.items[1].mass", "payload.KEY"},
     {"test_uncertainty_as_a_list_is_refused", GOOD "uncertainty: @@[1, 2]\n", NULL, PLUMB_EINVAL,
      "uncertainty", "expected a map"},
     /* zone */
@@ -478,21 +478,22 @@ static const bad_case bad_cases[] = {
     {"test_negative_scatter_is_refused", GOOD "zone: {scatter: @@-2 m}\n", NULL, PLUMB_ERANGE,
      "zone.scatter", ">= 0 m"},
     /* inventory */
-    {"test_bad_mass_of_the_third_item_names_items_2_mass",
+    /* items are numbered from 1, as the reports number them (issue 9) */
+    {"test_bad_mass_of_the_third_item_names_items_3_mass",
      "items:\n" ITEM("a", "1.2 kg") ITEM("b", "0.7 kg") ITEM("c", "@@-1 kg") RELEASE, NULL,
-     PLUMB_ERANGE, "items[2].mass", "> 0 kg"},
+     PLUMB_ERANGE, "items[3].mass", "> 0 kg"},
     {"test_item_names_must_differ",
      "items:\n" ITEM("a", "1.2 kg") "  - name: @@a\n    mass: 1 kg\n    drag: {cd_area: 0.01 m^2}\n" RELEASE,
-     NULL, PLUMB_EKEY, "items[1].name", "used twice"},
+     NULL, PLUMB_EKEY, "items[2].name", "used twice (also items[1])"},
     {"test_item_without_name_is_refused",
      "items:\n  - @@mass: 1 kg\n    drag: {cd_area: 0.01 m^2}\n" RELEASE, NULL, PLUMB_EKEY,
-     "items[0].name", NULL},
+     "items[1].name", NULL},
     {"test_empty_items_list_is_refused", "items: @@[]\n" RELEASE, NULL, PLUMB_EINVAL, "items",
      "empty list"},
     {"test_item_descent_error_names_the_item",
      "items:\n  - name: a\n    mass: 1 kg\n    drag: {cd_area: 0.01 m^2}\n"
      "    descent: {cd: @@11, area: 1 m^2, deploy: {after: 1 s}}\n" RELEASE,
-     NULL, PLUMB_ERANGE, "items[0].descent.cd", NULL},
+     NULL, PLUMB_ERANGE, "items[1].descent.cd", NULL},
     {"test_items_as_a_map_is_refused", "items: @@{a: 1}\n" RELEASE, NULL, PLUMB_EINVAL, "items",
      "expected a list of maps"},
     /* text */
@@ -514,9 +515,17 @@ static const bad_case bad_cases[] = {
      NULL, PLUMB_EPARSE, "payload.mass", "tags"},
     {"test_tab_is_refused_where_it_stands",
      "payload:\n  mass: 2.385 kg\n@@\tdrag: {cd_area: 0.01 m^2}\n" RELEASE, NULL, PLUMB_EPARSE,
-     "", "tab"},
-    {"test_tab_inside_a_value_is_refused_too", "name: caf@@\te\n" GOOD, NULL, PLUMB_EPARSE, "",
-     "tab"},
+     "", "tab character in the indentation"},
+    {"test_tab_inside_a_value_is_refused_too", "name: caf@@\te\n" GOOD, NULL, PLUMB_EPARSE, "name",
+     "a tab character inside a value"},
+    {"test_tab_inside_a_quoted_value_is_refused_where_it_stands",
+     "payload:\n  mass: \"2.3@@\t85 kg\"\n  drag: {cd_area: 0.01 m^2}\n" RELEASE, NULL, PLUMB_EPARSE,
+     "payload.mass", "a tab character inside a value"},
+    {"test_tab_after_a_list_dash_is_indentation",
+     "items:\n  -@@\tname: pin\n    mass: 0.183 kg\n    drag: {cd_area: 0.0003 m^2}\n" RELEASE,
+     NULL, PLUMB_EPARSE, "", "tab character in the indentation"},
+    {"test_tab_inside_a_set_value_is_refused_where_it_stands", GOOD, "payload.mass=2.3@@\t85 kg",
+     PLUMB_EPARSE, "payload.mass", "a tab character inside a value"},
     {"test_invalid_utf8_is_refused_with_its_position", "name: caf@@\xff\n" GOOD, NULL,
      PLUMB_EPARSE, "", "UTF-8"},
     {"test_truncated_utf8_sequence_is_refused", "name: ab\xc3\xa9@@\xe2\x82\n" GOOD, NULL,
@@ -553,6 +562,26 @@ static const bad_case bad_cases[] = {
     {"test_override_into_a_list_without_an_index_is_refused", GOOD,
      "atmosphere.table@@.density=1 kg/m^3", PLUMB_EPARSE, "atmosphere.table.density",
      "give an index"},
+    /* items are numbered from 1 in --set and --vary, as in the reports (issue 9) */
+    {"test_item_zero_is_refused_since_items_count_from_one",
+     "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
+     "items[@@0].mass=0.4 kg", PLUMB_ERANGE, "items[0].mass",
+     "items are numbered from 1, as in the reports: items[1] is the first item"},
+    {"test_an_item_past_the_end_counts_from_one",
+     "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
+     "@@items[4].mass=0.4 kg", PLUMB_ERANGE, "items[4].mass",
+     "index 4 is past the end: 'items' has 2 items (the next is [3])"},
+    {"test_an_unknown_item_name_suggests_the_nearest",
+     "items:\n" ITEM("spanner", "0.43 kg") ITEM("box of M12 bolts", "2.6 kg") RELEASE,
+     "@@items[box of M12 bolt].mass=2.4 kg", PLUMB_EKEY, "items[box of M12 bolt].mass",
+     "no item is named 'box of M12 bolt' (did you mean 'box of M12 bolts'?); the items are "
+     "'spanner', 'box of M12 bolts'"},
+    {"test_an_item_name_without_its_bracket_is_refused",
+     "items:\n" ITEM("spanner", "0.43 kg") RELEASE, "items[@@spanner.mass=0.4 kg", PLUMB_EPARSE,
+     "items[spanner.mass", "expected items[N], N from 1, or items[NAME]: no closing ']'"},
+    {"test_an_item_of_a_single_payload_profile_starts_at_one", GOOD,
+     "@@items[2].mass=0.4 kg", PLUMB_ERANGE, "items[2].mass",
+     "'items' has no items yet: the first one is items[1]"},
     {"test_override_past_the_end_of_a_list_is_refused", GOOD, "@@descent[1].cd=0.8", PLUMB_ERANGE,
      "descent[1].cd", "no items yet"},
     {"test_override_below_a_single_value_is_refused", GOOD, "release.height.@@x=1", PLUMB_EKEY,
@@ -790,6 +819,65 @@ static void test_utf8_byte_order_mark_is_skipped(void **state)
                                "  drag: {cd: 0.91, area: 0.0113 m^2}\nrelease: {height: 17.3 m}\n",
                                NULL, 0);
     assert_rel(plumb_profile_item(p, 0)->mass_kg, 1.373, 1e-15);
+    plumb_profile_free(p);
+}
+
+/* YAML 1.2.2 (6.1, 6.6) forbids tabs only as indentation: a tab that
+ * separates a value from its comment, or lies inside the comment, or
+ * between a key and its value, is white space (issue 9: "a tab inside a
+ * trailing comment is not an indentation error"). */
+static void test_tabs_around_and_in_a_trailing_comment_are_accepted(void **state)
+{
+    (void)state;
+    plumb_profile *p = load_ok("name: tabbed\t# tab-aligned comment\n"
+                               "payload:\n  mass: 1.373 kg\t# scale reading\n"
+                               "  volume: 0.0004 m^3  # a\tcomment with a tab\n"
+                               "  drag:\t{cd: 0.91, area: 0.0113 m^2}\n"
+                               "  # a whole-line comment\twith a tab\n"
+                               "release: {height: 17.3 m}\t\n",
+                               NULL, 0);
+    assert_string_equal(plumb_profile_name(p), "tabbed");
+    assert_rel(plumb_profile_item(p, 0)->mass_kg, 1.373, 1e-15);
+    assert_rel(plumb_profile_item(p, 0)->volume_m3, 0.0004, 1e-15);
+    assert_rel(plumb_profile_item(p, 0)->drag.cd, 0.91, 1e-15);
+    plumb_profile_free(p);
+    const char *sets[] = {"release.height=21.6 m\t# from --set"};
+    p = load_ok(GOOD, sets, 1);
+    assert_rel(plumb_profile_item(p, 0)->release_m[2], 21.6, 1e-15);
+    plumb_profile_free(p);
+}
+
+/* Issue 9: the text report numbers an inventory's rows 1, 2, 3, so
+ * items[1] is the first row everywhere, and an item may be named. */
+#define KIT "items:\n" ITEM("spanner", "0.43 kg") ITEM("box of M12 bolts", "2.6 kg") \
+            ITEM("glove", "0.071 kg") RELEASE
+
+static void test_items_are_numbered_from_one_and_by_name_in_overrides(void **state)
+{
+    (void)state;
+    const char *first[] = {"items[1].mass=0.384 kg", "items[3].drag.cd_area=0.0217 m^2"};
+    plumb_profile *p = load_ok(KIT, first, 2);
+    assert_rel(plumb_profile_item(p, 0)->mass_kg, 0.384, 1e-15);
+    assert_rel(plumb_profile_item(p, 1)->mass_kg, 2.6, 1e-15);
+    assert_rel(plumb_profile_item(p, 2)->mass_kg, 0.071, 1e-15);
+    assert_rel(plumb_profile_item(p, 2)->drag.cd_area_m2, 0.0217, 1e-15);
+    plumb_profile_free(p);
+
+    const char *named[] = {"items[box of M12 bolts].mass=2.35 kg"};
+    p = load_ok(KIT, named, 1);
+    assert_string_equal(plumb_profile_item(p, 1)->name, "box of M12 bolts");
+    assert_rel(plumb_profile_item(p, 1)->mass_kg, 2.35, 1e-15);
+    assert_rel(plumb_profile_item(p, 0)->mass_kg, 0.43, 1e-15);
+    plumb_profile_free(p);
+
+    /* the next number appends an item; ~ removes one, by number or name */
+    const char *grow[] = {"items[4]={name: level, mass: 0.52 kg, drag: {cd_area: 0.004 m^2}}",
+                          "items[glove]=~", "items[1]=~"};
+    p = load_ok(KIT, grow, 3);
+    assert_int_equal(plumb_profile_item_count(p), 2);
+    assert_string_equal(plumb_profile_item(p, 0)->name, "box of M12 bolts");
+    assert_string_equal(plumb_profile_item(p, 1)->name, "level");
+    assert_rel(plumb_profile_item(p, 1)->mass_kg, 0.52, 1e-15);
     plumb_profile_free(p);
 }
 
@@ -1295,6 +1383,7 @@ static void test_key_dim_gives_the_dimension_of_numeric_keys(void **state)
         {"release.height", PLUMB_DIM_LENGTH},
         {"payload.mass", PLUMB_DIM_MASS},
         {"items[3].mass", PLUMB_DIM_MASS},
+        {"items[box of M12 bolts].mass", PLUMB_DIM_MASS},
         {"payload.drag.cd", PLUMB_DIM_NONE},
         {"descent.deploy.after", PLUMB_DIM_TIME},
         {"descent[1].area", PLUMB_DIM_AREA},
@@ -1329,6 +1418,15 @@ static void test_key_dim_refuses_unknown_and_non_numeric_keys(void **state)
     assert_int_equal(plumb_profile_key_dim("uncertainty.wind.speed", &dim, &d), PLUMB_EINVAL);
     assert_int_equal(plumb_profile_key_dim("", &dim, &d), PLUMB_EPARSE);
     assert_int_equal(plumb_profile_key_dim("items.mass", &dim, &d), PLUMB_EPARSE);
+    assert_non_null(strstr(d.message, "e.g. items[1].mass"));
+    assert_int_equal(plumb_profile_key_dim("items[0].mass", &dim, &d), PLUMB_ERANGE);
+    assert_non_null(strstr(d.message, "numbered from 1"));
+    assert_int_equal(plumb_profile_key_dim("items[].mass", &dim, &d), PLUMB_EPARSE);
+    char long_name[200] = "items[";
+    memset(long_name + 6, 'x', 140); /* a 140-character name */
+    strcpy(long_name + 146, "].mass");
+    assert_int_equal(plumb_profile_key_dim(long_name, &dim, &d), PLUMB_ERANGE);
+    assert_non_null(strstr(d.message, "at most 127 characters"));
     assert_int_equal(plumb_profile_key_dim(NULL, &dim, &d), PLUMB_EINVAL);
 }
 
@@ -1541,6 +1639,8 @@ int main(void)
         cmocka_unit_test(test_drag_source_longer_than_the_spec_field_is_refused),
         cmocka_unit_test(test_a_direction_sector_may_run_through_north),
         cmocka_unit_test(test_utf8_byte_order_mark_is_skipped),
+        cmocka_unit_test(test_tabs_around_and_in_a_trailing_comment_are_accepted),
+        cmocka_unit_test(test_items_are_numbered_from_one_and_by_name_in_overrides),
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_design_md_section_5_example_loads_with_every_value_in_si),
         cmocka_unit_test(test_sha256_is_of_the_file_bytes),

@@ -482,6 +482,34 @@ static void test_unknown_named_criterion_is_a_key_error_with_did_you_mean(void *
     plumb_profile_free(p);
 }
 
+/* A criterion named by --set is reported in "--set", at its column in the
+ * argument (design.md section 6: the file is the profile's path, "--set"
+ * for an override), even when the profile has no criteria key. */
+static void test_unknown_criterion_from_set_names_set_and_the_nearest_id(void **state)
+{
+    fixture *fx = *state;
+    char path[160];
+    snprintf(path, sizeof path, "%s/nocrit.yaml", fx->dir);
+    write_file(path, "payload: {mass: 0.734 kg, drag: {cd_area: 0.0041 m^2}}\n"
+                     "release: {height: 17.3 m}\n");
+    const char *sets[] = {"criteria=[en397-shok]"};
+    plumb_profile *p = NULL;
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_profile_load(path, fx->units, sets, 1, &p, &diag), PLUMB_OK);
+    assert_string_equal(plumb_profile_criterion_file(p, 0), "--set");
+    plumb_item_report it;
+    hand_built(&it, p, 14.2);
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, NULL, &diag), PLUMB_EKEY);
+    assert_string_equal(diag.file, "--set");
+    assert_int_equal(diag.line, 1);
+    assert_int_equal(diag.col, 11); /* criteria=[ is 10 characters */
+    assert_string_equal(diag.key, "criteria[0]");
+    assert_non_null(strstr(diag.message, "did you mean 'en397-shock-49j'"));
+    plumb_profile_free(p);
+}
+
 static void test_profile_naming_no_criteria_is_judged_against_all(void **state)
 {
     fixture *fx = *state;
@@ -779,6 +807,7 @@ int main(void)
         cmocka_unit_test(test_part107_verdicts_use_33_895_and_14_914_joules),
         cmocka_unit_test(test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems),
         cmocka_unit_test(test_unknown_named_criterion_is_a_key_error_with_did_you_mean),
+        cmocka_unit_test(test_unknown_criterion_from_set_names_set_and_the_nearest_id),
         cmocka_unit_test(test_profile_naming_no_criteria_is_judged_against_all),
         cmocka_unit_test(test_mach_above_one_half_gives_a_warning),
         cmocka_unit_test(test_reynolds_number_beyond_morrison_range_gives_a_warning),

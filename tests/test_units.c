@@ -429,16 +429,206 @@ static void test_a_unit_of_another_dimension_names_both(void **state)
     parse_fails(state, "3.5 K/m", PLUMB_DIM_TEMP_DIFF, PLUMB_EUNIT, "(a lapse rate)");
     parse_fails(state, "3.5 deg", PLUMB_DIM_LENGTH, PLUMB_EUNIT, "(an angle)");
     parse_fails(state, "3.5 %", PLUMB_DIM_LENGTH, PLUMB_EUNIT, "(a dimensionless number)");
-    parse_fails(state, "3.5 A", PLUMB_DIM_MASS, PLUMB_EUNIT, "(a quantity in A)");
+    /* named in words, never in udunits2's base units ("s.A"): the SI
+     * Brochure (BIPM, 9th ed., 2019, table 4) names A, C and W (seen) */
+    parse_fails(state, "3.5 A", PLUMB_DIM_MASS, PLUMB_EUNIT, "(an electric current)");
+    parse_fails(state, "15 C", PLUMB_DIM_MASS, PLUMB_EUNIT, "(an electric charge)");
+    parse_fails(state, "15 W", PLUMB_DIM_SPEED, PLUMB_EUNIT, "(a power)");
+    parse_fails(state, "3 mol/s", PLUMB_DIM_MASS, PLUMB_EUNIT, "(a unit that is not a mass)");
+}
+
+/* A unit's reciprocal measures another quantity (dimensional analysis:
+ * dim(1/kg) = M^-1, not M), though udunits2 converts between the two:
+ * "5 1/kg" must not read as a mass of 0.2 kg, nor "2 Hz" as 0.5 s. */
+static void test_the_reciprocal_of_a_unit_is_not_that_unit(void **state)
+{
+    parse_fails(state, "5 1/kg", PLUMB_DIM_MASS, PLUMB_EUNIT, "(a unit that is not a mass)");
+    parse_fails(state, "2.6 1/m", PLUMB_DIM_LENGTH, PLUMB_EUNIT, "(a reciprocal length)");
+    parse_fails(state, "2 Hz", PLUMB_DIM_TIME, PLUMB_EUNIT, "(a frequency (per time))");
+    parse_fails(state, "4.1 s/m", PLUMB_DIM_SPEED, PLUMB_EUNIT, "(a unit that is not a speed)");
+    parse_fails(state, "0.3 1/Pa", PLUMB_DIM_PRESSURE, PLUMB_EUNIT, "not a pressure");
+    /* the siemens is the reciprocal ohm (SI Brochure table 4): named as itself */
+    parse_fails(state, "10 S", PLUMB_DIM_LENGTH, PLUMB_EUNIT, "(an electric conductance)");
+    to_si_fails(state, 2.0, "1/s", PLUMB_DIM_TIME, PLUMB_EUNIT, "expected a time (s)");
 }
 
 static void test_an_unknown_unit_is_named(void **state)
 {
     parse_fails(state, "2.4 kgz", PLUMB_DIM_MASS, PLUMB_EUNIT,
-                "unknown unit \"kgz\" in \"2.4 kgz\" (did you mean \"kg\"?)");
+                "unknown unit \"kgz\" in \"2.4 kgz\"; did you mean \"2.4 kg\"?");
     parse_fails(state, "2.4 qwertyuiop", PLUMB_DIM_MASS, PLUMB_EUNIT,
-                "unknown unit \"qwertyuiop\"");
+                "unknown unit \"qwertyuiop\" in \"2.4 qwertyuiop\"; units of a mass: kg, g");
     parse_fails(state, "2.4 kg^", PLUMB_DIM_MASS, PLUMB_EUNIT, "unknown unit \"kg^\"");
+}
+
+/* ---- what a wrong unit's message suggests ----------------------------------- */
+
+/* Parses text as dim, expecting status; returns the message (static). */
+static const char *message_of(void **state, const char *text, plumb_dim dim, plumb_status status)
+{
+    static plumb_diag d;
+    plumb_diag_clear(&d);
+    double v = SENTINEL;
+    plumb_status st = plumb_units_parse(*state, text, dim, &v, &d);
+    if (st != status) {
+        print_error("plumb_units_parse(\"%s\", %s) gave %s (%s), expected %s\n", text,
+                    plumb_dim_name(dim), plumb_strerror(st), d.message, plumb_strerror(status));
+        fail();
+    }
+    return d.message;
+}
+
+static void lacks(const char *message, const char *part)
+{
+    if (strstr(message, part)) {
+        print_error("message \"%s\" has \"%s\"\n", message, part);
+        fail();
+    }
+}
+
+static void has(const char *message, const char *part)
+{
+    if (!strstr(message, part)) {
+        print_error("message \"%s\" lacks \"%s\"\n", message, part);
+        fail();
+    }
+}
+
+/* The quantity a message suggests ("did you mean \"5 kg\"?") parses as dim:
+ * a suggestion is never of another dimension. */
+static void suggestion_reads_as(void **state, const char *message, plumb_dim dim)
+{
+    const char *p = strstr(message, "did you mean \"");
+    assert_non_null(p);
+    p += strlen("did you mean \"");
+    char text[64];
+    size_t n = strcspn(p, "\"");
+    assert_true(n < sizeof text);
+    memcpy(text, p, n);
+    text[n] = '\0';
+    (void)parse_ok(state, text, dim);
+}
+
+/* Issue 9's cases. Unit symbols are case-sensitive: M is the prefix mega, m
+ * the metre, K the kelvin, k the prefix kilo (BIPM SI Brochure, 9th ed.,
+ * 2019, tables 2 and 7; seen). A suggestion is a unit of the dimension
+ * wanted, so never the kelvin for a mass nor the gram for a length. */
+static void test_a_suggested_unit_is_of_the_wanted_dimension(void **state)
+{
+    const char *m = message_of(state, "5 KG", PLUMB_DIM_MASS, PLUMB_EUNIT);
+    has(m, "did you mean \"5 kg\"?");
+    has(m, "unit symbols are case-sensitive: K is the kelvin");
+    suggestion_reads_as(state, m, PLUMB_DIM_MASS);
+
+    m = message_of(state, "10 KT", PLUMB_DIM_SPEED, PLUMB_EUNIT);
+    has(m, "did you mean \"10 kt\"?");
+    has(m, "case-sensitive");
+    suggestion_reads_as(state, m, PLUMB_DIM_SPEED);
+
+    m = message_of(state, "60 M", PLUMB_DIM_LENGTH, PLUMB_EUNIT);
+    has(m, "did you mean \"60 m\"?");
+    has(m, "M is the prefix mega, not the metre");
+    suggestion_reads_as(state, m, PLUMB_DIM_LENGTH);
+
+    m = message_of(state, "5 MG", PLUMB_DIM_MASS, PLUMB_EUNIT);
+    has(m, "did you mean \"5 mg\"?");
+    suggestion_reads_as(state, m, PLUMB_DIM_MASS);
+
+    /* udunits2 reads "kilos" as kilo-seconds (the SI prefix on the second) */
+    m = message_of(state, "5 kilos", PLUMB_DIM_MASS, PLUMB_EUNIT);
+    has(m, "(a time: \"kilos\" reads as kiloseconds)");
+    has(m, "did you mean \"5 kg\"?");
+    suggestion_reads_as(state, m, PLUMB_DIM_MASS);
+
+    /* C is the coulomb (SI Brochure table 4); a temperature means degC */
+    m = message_of(state, "15 C", PLUMB_DIM_TEMPERATURE, PLUMB_EUNIT);
+    has(m, "(an electric charge: C is the coulomb)");
+    has(m, "did you mean \"15 degC\"?");
+    suggestion_reads_as(state, m, PLUMB_DIM_TEMPERATURE);
+    m = message_of(state, "18 F", PLUMB_DIM_TEMP_DIFF, PLUMB_EUNIT);
+    suggestion_reads_as(state, m, PLUMB_DIM_TEMP_DIFF);
+
+    /* for a mass, C is nothing near: the list of mass units, no jargon */
+    m = message_of(state, "15 C", PLUMB_DIM_MASS, PLUMB_EUNIT);
+    lacks(m, "did you mean");
+    lacks(m, "s.A");
+    has(m, "units of a mass: kg, g");
+
+    /* a one-letter unit gets no edit-distance guess ("M" is one edit from "g") */
+    m = message_of(state, "60 Q", PLUMB_DIM_LENGTH, PLUMB_EUNIT);
+    lacks(m, "did you mean");
+    has(m, "units of a length: m, km");
+
+    m = message_of(state, "30 fet", PLUMB_DIM_LENGTH, PLUMB_EUNIT);
+    has(m, "did you mean \"30 ft\"?");
+    lacks(m, "case-sensitive");
+}
+
+/* Latitude and longitude are signed degrees, north and east positive
+ * (WGS 84 convention; from memory); a compass letter is not a unit. */
+static void test_a_compass_letter_after_an_angle_is_explained(void **state)
+{
+    const char *m = message_of(state, "54.2 N", PLUMB_DIM_ANGLE, PLUMB_EUNIT);
+    has(m, "signed number of degrees, north and east positive: write \"54.2 deg\"");
+    lacks(m, "force");
+    m = message_of(state, "54.2 S", PLUMB_DIM_ANGLE, PLUMB_EUNIT);
+    has(m, "write \"-54.2 deg\"");
+    m = message_of(state, "3.17 deg W", PLUMB_DIM_ANGLE, PLUMB_EUNIT);
+    has(m, "write \"-3.17 deg\"");
+    m = message_of(state, "-3.17 W", PLUMB_DIM_ANGLE, PLUMB_EUNIT);
+    has(m, "write \"3.17 deg\"");
+    m = message_of(state, "1.5 E", PLUMB_DIM_ANGLE, PLUMB_EUNIT);
+    has(m, "write \"1.5 deg\"");
+    /* a bearing written as a compass point: 16 points, 22.5 deg apart */
+    m = message_of(state, "NW", PLUMB_DIM_ANGLE, PLUMB_EPARSE);
+    has(m, "NW is \"315 deg\"");
+    m = message_of(state, "ssw", PLUMB_DIM_ANGLE, PLUMB_EPARSE);
+    has(m, "ssw is \"202.5 deg\"");
+    /* elsewhere N is still the newton */
+    m = message_of(state, "54.2 N", PLUMB_DIM_LENGTH, PLUMB_EUNIT);
+    has(m, "(a force)");
+}
+
+/* plumb reads a decimal point only, and no thousands separator (the SI
+ * Brochure, 9th ed., 5.4.4, allows either decimal marker and groups digits
+ * with a thin space, never a comma; seen): a comma is explained. */
+static void test_a_decimal_comma_is_explained(void **state)
+{
+    const char *m = message_of(state, "6,5 m", PLUMB_DIM_LENGTH, PLUMB_EPARSE);
+    has(m, "found \"6,5 m\": use a decimal point: \"6.5 m\"");
+    m = message_of(state, "0,85", PLUMB_DIM_NONE, PLUMB_EPARSE);
+    has(m, "use a decimal point: \"0.85\"");
+    m = message_of(state, "1,500 m", PLUMB_DIM_LENGTH, PLUMB_EPARSE);
+    has(m, "write \"1.500 m\" or \"1500 m\", whichever is meant");
+    m = message_of(state, "1,234,567.5 ft", PLUMB_DIM_LENGTH, PLUMB_EPARSE);
+    has(m, "no thousands separator: write \"1234567.5 ft\"");
+    m = message_of(state, "2,34,5 m", PLUMB_DIM_LENGTH, PLUMB_EPARSE);
+    has(m, "no thousands separator");
+}
+
+/* Every unit a message lists for a dimension reads as that dimension. */
+static void test_every_listed_unit_reads_as_its_dimension(void **state)
+{
+    for (int i = 1; i < PLUMB_DIM_COUNT; i++) {
+        plumb_dim dim = (plumb_dim)i;
+        const char *m = message_of(state, "1.25 qqqq", dim, PLUMB_EUNIT);
+        const char *list = strstr(m, "units of ");
+        assert_non_null(list);
+        list = strstr(list, ": ");
+        assert_non_null(list);
+        char copy[256];
+        snprintf(copy, sizeof copy, "%s", list + 2);
+        size_t n = 0;
+        for (char *u = strtok(copy, ","); u; u = strtok(NULL, ",")) {
+            while (*u == ' ')
+                u++;
+            char text[64];
+            snprintf(text, sizeof text, "1.25 %s", u);
+            (void)parse_ok(state, text, dim);
+            n++;
+        }
+        assert_true(n >= 1);
+    }
 }
 
 static void test_a_time_stamp_is_not_a_duration(void **state)
@@ -849,6 +1039,11 @@ int main(void)
         cmocka_unit_test(test_alloc_fails_cleanly_on_a_database_without_the_radian),
         cmocka_unit_test(test_alloc_fails_cleanly_on_a_database_without_the_kilogram),
         cmocka_unit_test(test_alloc_fails_cleanly_when_an_alias_is_undefined),
+        cmocka_unit_test(test_a_suggested_unit_is_of_the_wanted_dimension),
+        cmocka_unit_test(test_a_compass_letter_after_an_angle_is_explained),
+        cmocka_unit_test(test_a_decimal_comma_is_explained),
+        cmocka_unit_test(test_every_listed_unit_reads_as_its_dimension),
+        cmocka_unit_test(test_the_reciprocal_of_a_unit_is_not_that_unit),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

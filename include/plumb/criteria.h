@@ -72,6 +72,14 @@ const plumb_criterion *plumb_criteria_get(const plumb_criteria *set, size_t i);
 /* The criterion with this id, or NULL. */
 const plumb_criterion *plumb_criteria_find(const plumb_criteria *set, const char *id);
 
+/* The criterion whose id is nearest to `id` (a mistyped one), for a
+ * did-you-mean: the least Levenshtein distance to the whole id, or to the
+ * id's first strlen(id) characters plus one (so "eu-c2" finds "eu-c1-80j"),
+ * with an id that contains `id` (of 3 or more characters) at distance 1;
+ * ties go to the first in name order. NULL only when the set is empty or
+ * an argument is NULL. Can't fail. */
+const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const char *id);
+
 /* Judges an energy against a criterion. Can't fail. */
 void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out);
 

@@ -82,9 +82,11 @@ typedef struct plumb_limit_report {
 void plumb_limit_options_init(plumb_limit_options *opt);
 
 /* Finds the value of `key` (a numeric profile key; for an inventory the
- * item's own key, e.g. "payload.mass" means items[item].mass) at which
- * `metric` of item `item` equals `limit` (in the metric's SI unit).
- * PLUMB_EKEY / PLUMB_EINVAL for a key that is unknown or not numeric;
+ * item's own key, e.g. "payload.mass" means the key items[item + 1].mass,
+ * item counting from 0 here and items from 1 in keys) at which `metric`
+ * of item `item` equals `limit` (in the metric's SI unit).
+ * PLUMB_EKEY / PLUMB_EINVAL for a key that is unknown or not numeric, or
+ * an items[...] key (find payload.KEY: it is answered for each item);
  * PLUMB_ENUMERIC when a fall fails. An unlimited or impossible answer is
  * PLUMB_OK with the outcome and explanation set. */
 plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,

@@ -54,8 +54,10 @@ typedef struct plumb_zone_spec {
 typedef struct plumb_profile plumb_profile;
 
 /* Loads and checks a profile. `sets` are n_sets "KEY=VALUE" overrides
- * (may be NULL when n_sets is 0). On error *out is NULL, diag is filled,
- * nothing is leaked. */
+ * (may be NULL when n_sets is 0). In keys, an inventory's items count
+ * from 1 ("items[1]" is the first, plumb_profile_item(p, 0)) or are named
+ * ("items[glove].mass"); other lists count from 0 ("descent[0]"). On
+ * error *out is NULL, diag is filled, nothing is leaked. */
 plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets,
                                 plumb_profile **out, plumb_diag *diag);
@@ -91,6 +93,9 @@ size_t plumb_profile_criteria_count(const plumb_profile *p);
 const char *plumb_profile_criterion(const plumb_profile *p, size_t i);
 /* Where the i-th criterion was named in the file (0, 0 when not known). */
 void plumb_profile_criterion_position(const plumb_profile *p, size_t i, int *line, int *col);
+/* The file the i-th criterion was named in, for diagnostics: the profile's
+ * path, or "--set" when an override named it. NULL only for a NULL p. */
+const char *plumb_profile_criterion_file(const plumb_profile *p, size_t i);
 
 /* `uncertainty:` entries, in file order. */
 size_t plumb_profile_uncertainty_count(const plumb_profile *p);

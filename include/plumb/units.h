@@ -58,8 +58,14 @@ void plumb_units_free(plumb_units *units);
  * one is required, an unknown unit or one of another dimension is
  * PLUMB_EUNIT, a non-number PLUMB_EPARSE, an overflow PLUMB_ERANGE.
  * The diagnostic's message says what was expected (with the SI unit
- * suggested) and what was found; its file/line/col/key are left for the
- * caller to fill. On error *si_out is unchanged. */
+ * suggested) and what was found, in words ("an electric charge", never
+ * udunits2's "s.A"); for a unit that is unknown or of another dimension it
+ * offers the unit of the wanted dimension that was probably meant ("5 KG":
+ * "5 kg", saying that symbols are case-sensitive) or lists that
+ * dimension's units. A decimal comma ("6,5 m") is PLUMB_EPARSE with the
+ * number written with a point; a compass letter after an angle ("54.2 N")
+ * is PLUMB_EUNIT with the signed angle meant. Its file/line/col/key are
+ * left for the caller to fill. On error *si_out is unchanged. */
 plumb_status plumb_units_parse(const plumb_units *units, const char *text,
                                plumb_dim want, double *si_out, plumb_diag *diag);
 

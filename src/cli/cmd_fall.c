@@ -38,7 +38,7 @@ static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item)
     if (diag->file[0] == '\0')
         snprintf(diag->file, sizeof diag->file, "%s", plumb_profile_path(prof));
     if (diag->key[0] == '\0' && plumb_profile_is_inventory(prof))
-        snprintf(diag->key, sizeof diag->key, "items[%zu]", item);
+        snprintf(diag->key, sizeof diag->key, "items[%zu]", item + 1); /* from 1 */
 }
 
 static int run(const cli_args *a)

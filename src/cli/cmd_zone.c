@@ -327,7 +327,7 @@ static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item, con
     if (plumb_profile_is_inventory(prof)) {
         /* "item 2 (spanner): " before the message, which is cut to fit */
         char prefix[PLUMB_NAME + 32];
-        snprintf(prefix, sizeof prefix, "item %zu (%.*s): ", item, PLUMB_NAME - 1, name);
+        snprintf(prefix, sizeof prefix, "item %zu (%.*s): ", item + 1, PLUMB_NAME - 1, name);
         size_t pl = strlen(prefix), ml = strlen(diag->message);
         if (pl + ml >= sizeof diag->message)
             ml = sizeof diag->message - pl - 1;

@@ -90,6 +90,14 @@ for f in tests/bad/*.yaml; do
 done
 [ "$n_bad" -ge 30 ] && pass=$((pass + 1)) || bad "tests/bad holds $n_bad profiles, expected at least 30"
 
+# ---- tabs that are white space, not indentation (issue 9) --------------------
+printf 'payload:\n  mass: 2.385 kg\t# scale reading\n  drag: {cd_area: 0.0113 m^2}  # a\tcomment\nrelease:\n  height: 27.4 m\n' >"$tmp/tab-comment.yaml"
+if "$bin" lint "$tmp/tab-comment.yaml" >"$tmp/stdout" 2>"$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "a tab before and inside a trailing comment: $(cat "$tmp/stderr")"
+fi
+
 # ---- overrides --------------------------------------------------------------
 refused "--set with an unknown key" "plumb: --set:1:9: release.hieght: " "did you mean 'release.height'" \
   -- fall "$good" --set release.hieght=30m --format json
@@ -102,6 +110,30 @@ refused "--set with malformed YAML" "plumb: --set:1:" "malformed YAML" \
   -- fall "$good" --set "payload.drag={cd: 1" --format json
 refused "--set with a value out of range" "plumb: --set:1:17: payload.drag.cd: " \
   -- fall "$good" --set payload.drag.cd=-0.5 --format json
+refused "--set naming an unknown criterion" "plumb: --set:1:11: criteria[0]: " \
+  "did you mean 'eu-c1-80j'" -- fall tests/cli/profiles/thrown.yaml --set "criteria=[eu-c2]" --format json
+# an error in a --set value names --set and the key, and suggests a unit
+# of the key's own dimension (issue 9)
+refused "--set with a unit in capitals" "plumb: --set:1:14: payload.mass: " \
+  'did you mean "5 kg"?' "case-sensitive" -- fall "$good" --set "payload.mass=5 KG" --format json
+refused "--set with a mega for a metre" "plumb: --set:1:16: release.height: " \
+  'did you mean "60 m"?' "M is the prefix mega" -- fall "$good" --set "release.height=60 M" --format json
+refused "--set with a decimal comma" "plumb: --set:1:16: release.height: " \
+  'use a decimal point: "6.5 m"' -- fall "$good" --set "release.height=6,5 m" --format json
+refused "--set with a compass letter" "plumb: --set:1:15: site.latitude: " \
+  'write "54.2 deg"' -- fall "$good" --set "site.latitude=54.2 N" --format json
+refused "--set with a word that is not a number" "plumb: --set:1:14: payload.mass: " \
+  "does not start with a number" -- fall "$good" --set "payload.mass=heavy" --format json
+# items are numbered from 1, as the reports number them (issue 9)
+inv=tests/cli/profiles/inventory.yaml
+refused "--set items[0]" "plumb: --set:1:7: items[0].mass: " "items are numbered from 1" \
+  -- fall "$inv" --set "items[0].mass=0.4 kg" --format json
+refused "--set an item by a name it does not have" "plumb: --set:1:1: items[glov].mass: " \
+  "did you mean 'glove'?" -- fall "$inv" --set "items[glov].mass=0.4 kg" --format json
+refused "--vary items[0]" "items[0].mass: " "items are numbered from 1" \
+  -- sweep "$inv" --vary "items[0].mass=0.1kg:0.3kg:0.1kg" --format json
+refused "limit --find items[2].mass" "items[2].mass: " "find payload.mass instead" \
+  -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
 

@@ -97,7 +97,7 @@ def limit_meets(profile, key, flag, limit, metric, unit, expect_unlimited=()):
             continue
         set_key = key
         if len(d["items"]) > 1 and key.startswith("payload."):
-            set_key = f"items[{i}].{key[len('payload.'):]}"
+            set_key = f"items[{i + 1}].{key[len('payload.'):]}"  # items count from 1
         f = fall_json(profile, f"{set_key}={item['value_si']!r} {unit}".rstrip())
         imp = f["items"][i]["impact"] if "items" in f else f["impact"]
         got = {"energy": imp["energy_j"], "speed": imp["speed_m_s"], "drift": imp["drift_m"]}[metric]

@@ -1,0 +1,111 @@
+#!/bin/sh
+# An inventory's items are numbered one way everywhere (design.md section 5,
+# issue 9): the text report counts rows from 1, so `--set items[2].X`
+# changes the second row, `--vary items[3].X` the third, and an item may be
+# named instead (`items[chain sling].mass`). Checked on the invented
+# tests/cli/profiles/inventory.yaml (pin punch, chain sling, glove):
+# - the text report's row 2 is the item `--set items[2]` changed;
+# - in the JSON, only the second item's mass_kg changes, to the value set;
+# - naming the item gives the same report as numbering it;
+# - a sweep over items[3].mass varies the glove: its momentum over its
+#   speed is the mass of the row (p = m v), the other items do not change;
+# - a fall or zone that fails on the second item (a balloon lighter than
+#   the air it displaces, which never lands: exit 3) names items[2] / item 2.
+#
+#   sh tests/cli/numbering.sh PLUMB
+#
+# Ends with one line `cli: N passed, N failed`; exit 0 only if none failed.
+. "$(dirname "$0")/lib/setup.sh"
+py=/usr/bin/python3
+inv=tests/cli/profiles/inventory.yaml
+
+tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-numbering.XXXXXX") || exit 2
+trap 'rm -rf "$tmp"' EXIT
+trap 'exit 2' INT TERM
+
+pass=0
+fail=0
+ok() { pass=$((pass + 1)); }
+bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
+
+# ---- --set items[2] is the text report's row 2 ------------------------------
+if "$bin" fall "$inv" --set "items[2].mass=0.4 kg" >"$tmp/set.txt" 2>"$tmp/err"; then
+  if grep -q '^   2 chain sling  *0\.4 ' "$tmp/set.txt"; then ok
+  else bad "row 2 of the text report is not the chain sling at 0.4 kg"; sed -n '1,12p' "$tmp/set.txt"; fi
+else
+  bad "fall --set items[2].mass: $(cat "$tmp/err")"
+fi
+
+# ---- JSON: only the second item changes ------------------------------------
+"$bin" fall "$inv" --format json >"$tmp/base.json" 2>"$tmp/err" || bad "fall: $(cat "$tmp/err")"
+"$bin" fall "$inv" --set "items[2].mass=0.4 kg" --format json >"$tmp/num.json" 2>"$tmp/err" ||
+  bad "fall --set items[2]: $(cat "$tmp/err")"
+"$bin" fall "$inv" --set "items[chain sling].mass=0.4 kg" --format json >"$tmp/name.json" \
+  2>"$tmp/err" || bad "fall --set items[chain sling]: $(cat "$tmp/err")"
+if "$py" - "$tmp/base.json" "$tmp/num.json" <<'EOF'
+import json, sys
+base = json.load(open(sys.argv[1]))["items"]
+num = json.load(open(sys.argv[2]))["items"]
+assert [i["name"] for i in num] == ["pin punch", "chain sling", "glove"], [i["name"] for i in num]
+assert num[1]["inputs"]["mass_kg"] == 0.4, num[1]["inputs"]
+assert base[1]["inputs"]["mass_kg"] == 3.42, base[1]["inputs"]
+for k in (0, 2):
+    assert num[k] == base[k], f"item {k + 1} changed"
+EOF
+then ok; else bad "JSON after --set items[2].mass"; fi
+if cmp -s "$tmp/num.json" "$tmp/name.json"; then ok
+else bad "items[chain sling] and items[2] give different reports"; fi
+
+# ---- --vary items[3] varies the third item ---------------------------------
+if "$bin" sweep "$inv" --vary "items[3].mass=0.1kg:0.3kg:0.1kg" --format json >"$tmp/sweep.json" \
+  2>"$tmp/err"; then
+  if "$py" - "$tmp/base.json" "$tmp/sweep.json" <<'EOF'
+import json, sys
+base = json.load(open(sys.argv[1]))["items"]
+d = json.load(open(sys.argv[2]))
+assert len(d["rows"]) == 3, len(d["rows"])
+for row, m in zip(d["rows"], (0.1, 0.2, 0.3)):
+    names = [i["name"] for i in row["items"]]
+    assert names == ["pin punch", "chain sling", "glove"], names
+    glove = row["items"][2]["impact"]
+    got = glove["momentum_kg_m_s"] / glove["speed_m_s"]   # p = m v
+    assert abs(got - m) <= 1e-12 * m, (got, m)
+    for k in (0, 1):
+        assert row["items"][k]["impact"] == base[k]["impact"], f"item {k + 1} changed"
+EOF
+  then ok; else bad "sweep over items[3].mass does not vary the glove alone"; fi
+else
+  bad "sweep --vary items[3].mass: $(cat "$tmp/err")"
+fi
+
+# ---- a failure names the item by its number from 1 ------------------------
+cat >"$tmp/buoy.yaml" <<'EOF'
+# invented: the second item is a balloon, 0.012 kg in 0.05 m^3 (about 0.06 kg
+# of air at sea level), so buoyancy exceeds its weight
+name: kit with a balloon
+items:
+  - name: spanner
+    mass: 0.43 kg
+    drag: {cd_area: 0.0113 m^2}
+  - name: balloon
+    mass: 0.012 kg
+    volume: 0.05 m^3
+    drag: {cd_area: 0.03 m^2}
+release:
+  height: 12 m
+wind: {profile: uniform, speed: 3 m/s, from: 270 deg}
+uncertainty:
+  wind.speed: {normal: [3 m/s, 1 m/s]}
+zone: {samples: 400}
+EOF
+"$bin" fall "$tmp/buoy.yaml" >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 3 ] && grep -q "buoy.yaml: items\[2\]: " "$tmp/err"; then ok
+else bad "fall failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
+"$bin" zone "$tmp/buoy.yaml" >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 3 ] && grep -q "item 2 (balloon): " "$tmp/err"; then ok
+else bad "zone failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
+
+echo "cli: $pass passed, $fail failed"
+[ "$fail" -eq 0 ]
