@@ -2033,8 +2033,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s\n",
             a ? "and" : "over", ax->key, gnum(w, ax->from, 10), gnum(w, last, 10),
             ax->unit[0] ? " " : "", ax->unit, gnum(w, ax->step, 10), ax->unit[0] ? " " : "",
-            ax->unit, ax->n, last < ax->to ? "; the steps stop short of " : "",
-            last < ax->to ? gnum(w, ax->to, 10) : "");
+            ax->unit, ax->n, last != ax->to ? "; the steps stop short of " : "",
+            last != ax->to ? gnum(w, ax->to, 10) : "");
     }
     put(w, "\n");
     for (size_t a = 0; a < na; a++)
