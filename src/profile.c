@@ -1634,6 +1634,28 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     return build(path, sha, tree, units, sets, n_sets, out, diag);
 }
 
+plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t len,
+                                       const plumb_units *units, const char *const *sets,
+                                       size_t n_sets, plumb_profile **out, plumb_diag *diag)
+{
+    if (out)
+        *out = NULL;
+    if (!name || (!buf && len > 0) || !units || !out || (n_sets > 0 && !sets))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_load_buffer: NULL argument");
+    if (len > PLUMB_PROFILE_MAX_BYTES)
+        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, name, 0, 0, NULL,
+                              "the profile has %zu bytes; at most %u bytes are accepted", len,
+                              PLUMB_PROFILE_MAX_BYTES);
+    char sha[PLUMBP_SHA256_HEX];
+    plumbp_sha256_hex(buf ? buf : "", len, sha);
+    plumby_node *tree;
+    plumb_status st = plumby_parse(buf ? buf : "", len, name, PLUMBY_FROM_FILE, 0, NULL, &tree,
+                                   diag);
+    if (st != PLUMB_OK)
+        return st;
+    return build(name, sha, tree, units, sets, n_sets, out, diag);
+}
+
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,
                                   const char *const *sets, size_t n_sets, plumb_profile **out,
                                   plumb_diag *diag)

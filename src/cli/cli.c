@@ -225,7 +225,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
 int cli_same_file(const char *out, const char *in)
 {
     struct stat so, si;
-    if (!out || !in || stat(out, &so) != 0 || stat(in, &si) != 0)
+    if (!out || !in || strcmp(in, "-") == 0 || stat(out, &so) != 0 || stat(in, &si) != 0)
         return 0;
     return so.st_dev == si.st_dev && so.st_ino == si.st_ino;
 }
@@ -299,6 +299,71 @@ plumb_status cli_write_output(const char *path, const char *buf, size_t len, plu
         close(dfd);
     }
     return PLUMB_OK;
+}
+
+/* Reads standard input to its end into a malloc'd buffer (*buf, *len);
+ * more than `max` bytes is PLUMB_ERANGE, a read error PLUMB_EIO. */
+static plumb_status cli_read_stdin(size_t max, char **buf, size_t *len, plumb_diag *diag)
+{
+    *buf = NULL;
+    *len = 0;
+    size_t cap = 0, n = 0;
+    char *b = NULL;
+    for (;;) {
+        if (n == cap) {
+            if (cap > max) {
+                free(b);
+                plumb_diag_clear(diag);
+                diag->status = PLUMB_ERANGE;
+                snprintf(diag->file, sizeof diag->file, "%s", CLI_STDIN_NAME);
+                snprintf(diag->message, sizeof diag->message,
+                         "standard input holds more than %zu bytes, the most a profile may have",
+                         max);
+                return PLUMB_ERANGE;
+            }
+            size_t ncap = cap ? cap * 2 : 65536;
+            char *nb = realloc(b, ncap);
+            if (!nb) {
+                free(b);
+                plumb_diag_clear(diag);
+                diag->status = PLUMB_ENOMEM;
+                snprintf(diag->message, sizeof diag->message, "out of memory reading standard input");
+                return PLUMB_ENOMEM;
+            }
+            b = nb;
+            cap = ncap;
+        }
+        ssize_t got = read(STDIN_FILENO, b + n, cap - n);
+        if (got < 0 && errno == EINTR)
+            continue;
+        if (got < 0) {
+            int err = errno;
+            free(b);
+            return cli_io_error(diag, CLI_STDIN_NAME, "cannot read standard input", err);
+        }
+        if (got == 0)
+            break;
+        n += (size_t)got;
+    }
+    *buf = b;
+    *len = n;
+    return PLUMB_OK;
+}
+
+plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
+                              plumb_profile **out, plumb_diag *diag)
+{
+    if (strcmp(path, "-") != 0)
+        return plumb_profile_load(path, units, a->sets, a->n_sets, out, diag);
+    *out = NULL;
+    char *buf;
+    size_t len;
+    plumb_status st = cli_read_stdin(PLUMB_PROFILE_MAX_BYTES, &buf, &len, diag);
+    if (st != PLUMB_OK)
+        return st;
+    st = plumb_profile_load_buffer(CLI_STDIN_NAME, buf, len, units, a->sets, a->n_sets, out, diag);
+    free(buf);
+    return st;
 }
 
 static int cli_is_dir(const char *path)

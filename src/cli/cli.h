@@ -102,7 +102,19 @@ int cli_fail(const plumb_diag *diag);
  * behind (the temporary file is removed) and diag says why (PLUMB_EIO). */
 plumb_status cli_write_output(const char *path, const char *buf, size_t len, plumb_diag *diag);
 
-/* 1 when path `out` is an existing file that is the same file as `in`. */
+/* What diagnostics and reports call standard input read as a profile. */
+#define CLI_STDIN_NAME "<stdin>"
+
+/* Loads the profile PATH with the command line's --set overrides; "-" is
+ * standard input, read to its end (at most PLUMB_PROFILE_MAX_BYTES), named
+ * "<stdin>" in diagnostics and reports, its SHA-256 that of the bytes
+ * read. Standard input can be read only once. Errors as
+ * plumb_profile_load (PLUMB_EIO when standard input cannot be read). */
+plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
+                              plumb_profile **out, plumb_diag *diag);
+
+/* 1 when path `out` is an existing file that is the same file as `in`
+ * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);
 
 /* The criteria directory: --criteria-dir, else $PLUMB_CRITERIA_DIR, else

@@ -63,7 +63,7 @@ static int run(const cli_args *a)
 
     plumb_status st = plumb_units_alloc(&units, &diag);
     if (st == PLUMB_OK)
-        st = plumb_profile_load(path, units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, path, units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
     if (st == PLUMB_OK)

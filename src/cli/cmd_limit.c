@@ -103,7 +103,7 @@ static int run(const cli_args *a, const cli_option *o)
             snprintf(diag.file, sizeof diag.file, "<command line>");
     }
     if (st == PLUMB_OK)
-        st = plumb_profile_load(a->args[0], units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, a->args[0], units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_profile_criteria_check(prof, crit, &diag);
     if (st == PLUMB_OK)

@@ -53,7 +53,7 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
     for (size_t i = 0; st == PLUMB_OK && i < n_vary; i++)
         st = plumb_range_parse_key(units, vary[i], &axes[i], &diag);
     if (st == PLUMB_OK)
-        st = plumb_profile_load(a->args[0], units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, a->args[0], units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
     if (st == PLUMB_OK)

@@ -384,7 +384,7 @@ static int run(const cli_args *a, const zone_opts *zo)
     if (st == PLUMB_OK && zo->target)
         st = parse_target(units, zo->target, target, &diag);
     if (st == PLUMB_OK)
-        st = plumb_profile_load(path, units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, path, units, &prof, &diag);
 
     plumb_zone_spec zone;
     memset(&zone, 0, sizeof zone);
