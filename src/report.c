@@ -1331,19 +1331,26 @@ static void csv_cautions(writer *w)
         csv_comment(w, c[i]);
 }
 
-/* The columns of one item row (after any leading columns the caller wrote),
- * ending the header line. */
-static void csv_header(writer *w, const plumb_item_report *first)
+/* The names of one item's columns, in US and SI units. */
+static const char csv_item_cols_us[] =
+    "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
+    "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
+    "drag_free_speed_ft_s,drag_free_energy_ft_lbf";
+static const char csv_item_cols_si[] =
+    "name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
+    "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
+    "drag_free_speed_m_s,drag_free_energy_j";
+
+/* The header of one item's columns (after any leading columns the caller
+ * wrote), the line left open; returns how many columns it names. */
+static size_t csv_header_cols(writer *w, const plumb_item_report *first)
 {
     char text[PLUMB_CRIT_ID + 16];
-    if (w->us)
-        put(w, "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
-               "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
-               "drag_free_speed_ft_s,drag_free_energy_ft_lbf");
-    else
-        put(w, "name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
-               "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
-               "drag_free_speed_m_s,drag_free_energy_j");
+    const char *cols = w->us ? csv_item_cols_us : csv_item_cols_si;
+    size_t n = 1;
+    for (const char *c = cols; *c; c++)
+        n += *c == ',';
+    put(w, "%s", cols);
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const char *id = first->verdicts[k].criterion->id;
         put(w, ",");
@@ -1353,11 +1360,18 @@ static void csv_header(writer *w, const plumb_item_report *first)
         snprintf(text, sizeof text, "%s_verdict", id);
         csv_field(w, text);
     }
+    return n + 2 * first->n_verdicts;
+}
+
+/* The header of one item's columns, ending the line. */
+static void csv_header(writer *w, const plumb_item_report *first)
+{
+    (void)csv_header_cols(w, first);
     put(w, "\n");
 }
 
-/* One item's columns, ending the row. */
-static void csv_item_row(writer *w, const plumb_item_report *it)
+/* One item's columns, the line left open. */
+static void csv_item_cols(writer *w, const plumb_item_report *it)
 {
     const plumb_fall_result *r = &it->result;
     csv_field(w, it->spec->name);
@@ -1386,6 +1400,12 @@ static void csv_item_row(writer *w, const plumb_item_report *it)
     }
     for (size_t k = 0; k < it->n_verdicts; k++)
         put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), verdict_word(&it->verdicts[k]));
+}
+
+/* One item's columns, ending the row. */
+static void csv_item_row(writer *w, const plumb_item_report *it)
+{
+    csv_item_cols(w, it);
     put(w, "\n");
 }
 
@@ -2019,10 +2039,41 @@ static int sweep_has_warnings(const plumb_sweep *sw)
     return 0;
 }
 
+/* The first row with figures (plumb_sweep_run fails when there is none). */
+static const plumb_sweep_row *first_computed_row(const plumb_sweep *sw)
+{
+    for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status == PLUMB_OK && row->report.n_items > 0)
+            return row;
+    }
+    return NULL;
+}
+
+/* "release.height = 0 m, wind.speed = 5 kn": the values of a row, in b. */
+enum { ROW_VALUES = PLUMB_MAX_AXES * (PLUMB_DIAG_KEY + PLUMB_UNIT_TEXT + NUMBUF) };
+static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *row, char *b,
+                       size_t size)
+{
+    b[0] = '\0';
+    for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        size_t len = strlen(b);
+        snprintf(b + len, size - len, "%s%s = %s%s%s", a ? ", " : "", ax->key,
+                 gnum(w, row->value[a], 10), ax->unit[0] ? " " : "", ax->unit);
+    }
+}
+
+/* The diagnostic of a row that has no figures, as one line. */
+static void row_error_text(const plumb_sweep_row *row, char *buf, size_t size)
+{
+    plumb_diag_format(&row->error, buf, size);
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0);
+    const plumb_sweep_row *r0 = first_computed_row(sw);
     const plumb_profile *p = r0->report.profile;
     int inv = plumb_profile_is_inventory(p);
     const plumb_item_report *first = &r0->report.items[0];
@@ -2061,8 +2112,15 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     for (size_t k = 0; k < first->n_verdicts; k++)
         pad(w, "ratio", 8, 1);
     put(w, "\n");
+    size_t n_failed = 0;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
+            for (size_t a = 0; a < na; a++)
+                pad(w, gnum(w, row->value[a], 8), SWEEP_KEY_COL, 1);
+            put(w, "  not computed, see (%zu) below\n", ++n_failed);
+            continue;
+        }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
             const plumb_fall_result *r = &item->result;
@@ -2092,8 +2150,9 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     if (na == 2) {
         /* the energy of the worst item, as a matrix */
         const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
-        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded\n",
-            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key);
+        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded%s\n",
+            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key,
+            n_failed ? ", - = not computed" : "");
         pad(w, "", SWEEP_KEY_COL, 1);
         for (size_t j = 0; j < a1->n; j++)
             pad(w, gnum(w, plumb_range_value(a1, j), 6), 9, 1);
@@ -2102,6 +2161,10 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             pad(w, gnum(w, plumb_range_value(a0, i), 8), SWEEP_KEY_COL, 1);
             for (size_t j = 0; j < a1->n; j++) {
                 const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * a1->n + j);
+                if (row->status != PLUMB_OK) {
+                    pad(w, "-", 9, 1);
+                    continue;
+                }
                 double e = 0.0;
                 int ex = 0;
                 for (size_t it = 0; it < row->report.n_items; it++) {
@@ -2119,6 +2182,22 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             put(w, "\n");
         }
     }
+    if (n_failed) {
+        put(w, "\nRows not computed (%zu of %zu)\n", n_failed, nr);
+        size_t k = 0;
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            if (row->status == PLUMB_OK)
+                continue;
+            char lead[32], why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            char vals[ROW_VALUES], text[sizeof why + sizeof vals + 8];
+            snprintf(lead, sizeof lead, "  (%zu) ", ++k);
+            row_error_text(row, why, sizeof why);
+            row_values(w, sw, row, vals, sizeof vals);
+            snprintf(text, sizeof text, "%s: %s", vals, why);
+            wrapped(w, lead, text);
+        }
+    }
     text_criteria_legend(w, first);
     if (sweep_has_warnings(sw)) {
         put(w, "\nWarnings\n");
@@ -2132,7 +2211,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
 static void csv_sweep(writer *w, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0);
+    const plumb_sweep_row *r0 = first_computed_row(sw);
     const plumb_profile *p = r0->report.profile;
     char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
     csv_cautions(w);
@@ -2148,19 +2227,37 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
         csv_comment(w, text);
     }
     each_sweep_warning(w, sw, csv_sweep_warning);
+    if (plumb_sweep_failed_count(sw) > 0) {
+        snprintf(text, sizeof text, "%zu of %zu rows could not be computed: their figures are "
+                 "empty and the last column says why", plumb_sweep_failed_count(sw), nr);
+        csv_comment(w, text);
+    }
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "", ax->unit);
         csv_field(w, text);
         put(w, ",");
     }
-    csv_header(w, first);
+    size_t n_cols = csv_header_cols(w, first);
+    put(w, ",error\n");
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, row->value[a]));
+            for (size_t c = 0; c < n_cols; c++)
+                put(w, ",");
+            row_error_text(row, why, sizeof why);
+            csv_field(w, why);
+            put(w, "\n");
+            continue;
+        }
         for (size_t it = 0; it < row->report.n_items; it++) {
             for (size_t a = 0; a < na; a++)
                 put(w, "%s,", csvnum(w, row->value[a]));
-            csv_item_row(w, &row->report.items[it]);
+            csv_item_cols(w, &row->report.items[it]);
+            put(w, ",\n");
         }
     }
 }
@@ -2185,6 +2282,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         jpush(j, vary, o);
     }
     jset(j, root, "vary", vary);
+    jset(j, root, "failed_rows", jint(j, plumb_sweep_failed_count(sw)));
     json_t *rows = jarr(j);
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -2197,6 +2295,19 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         }
         jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */
         jset(j, o, "values_si", vals_si);
+        if (row->status != PLUMB_OK) {
+            /* no figures: why, as the command line would print it */
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            row_error_text(row, why, sizeof why);
+            json_t *e = jobj(j);
+            jset(j, e, "message", jstr(j, why));
+            jset(j, e, "kind", jstr(j, plumb_strerror(row->status)));
+            jset(j, e, "computation_failed",
+                 json_boolean(!plumb_status_is_input_error(row->status)));
+            jset(j, o, "error", e);
+            jpush(j, rows, o);
+            continue;
+        }
         if (!plumb_profile_is_inventory(rep->profile)) {
             j_item_into(j, o, &rep->items[0], rep->profile, &ia[i][0]);
         } else {
@@ -2213,7 +2324,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         jpush(j, rows, o);
     }
     jset(j, root, "rows", rows);
-    jset(j, root, "profile", j_profile(j, plumb_sweep_row_at(sw, 0)->report.profile));
+    jset(j, root, "profile", j_profile(j, first_computed_row(sw)->report.profile));
     jset(j, root, "cautions", j_cautions(j));
     return root;
 }
@@ -2223,7 +2334,7 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
 {
     plumb_report_options def;
     opt = opts_or_default(opt, &def);
-    if (!out || !sw || plumb_sweep_row_count(sw) == 0)
+    if (!out || !sw || plumb_sweep_row_count(sw) == 0 || !first_computed_row(sw))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no sweep to write");
     size_t nr = plumb_sweep_row_count(sw);
     item_air **ia = calloc(nr, sizeof *ia);
@@ -2231,7 +2342,8 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
     plumb_status st = PLUMB_OK;
     for (size_t i = 0; st == PLUMB_OK && i < nr; i++)
-        st = prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
+        if (plumb_sweep_row_at(sw, i)->status == PLUMB_OK)
+            st = prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
     if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         st = emit_json(out, &j, j_sweep(&j, opt, sw, ia), diag);

@@ -21,6 +21,7 @@ struct plumb_sweep {
     size_t n_axes;
     plumb_range axes[PLUMB_MAX_AXES];
     size_t n_rows;
+    size_t n_failed;            /* rows without figures (status != PLUMB_OK) */
     plumb_sweep_row *rows;
     plumb_profile **profiles;   /* one per row, owned */
     plumb_atmosphere **atms;    /* one per row, owned (verdict warnings use it) */
@@ -202,7 +203,10 @@ void plumb_sweep_free(plumb_sweep *s)
     free(s);
 }
 
-/* Runs one row; its derived profile and atmosphere go into the sweep. */
+/* Runs one row; its derived profile and atmosphere go into the sweep.
+ * A row that cannot be computed (a value out of range, a fall that never
+ * lands ...) keeps its status and diagnostic in the row, no figures, and
+ * returns PLUMB_OK; only running out of memory stops the sweep. */
 static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
                             const plumb_units *units, const plumb_criteria *crit,
                             plumb_trajectory *traj, plumb_diag *diag)
@@ -216,38 +220,56 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         row->value[a] = plumb_range_value(&s->axes[a], row->index[a]);
         row->value_si[a] = plumb_range_value_si(&s->axes[a], units, row->index[a]);
     }
-    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], diag);
-    if (st != PLUMB_OK && diag && strcmp(diag->file, "--set") == 0) {
+    plumb_diag *rd = &row->error;
+    plumb_diag_clear(rd);
+    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], rd);
+    if (st != PLUMB_OK && strcmp(rd->file, "--set") == 0) {
         /* the override is the sweep's own, made from --vary */
-        plumbp_strlcpy(diag->file, "--vary", sizeof diag->file);
-        diag->line = diag->col = 0;
+        plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
+        rd->line = rd->col = 0;
     }
     if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], diag);
-    if (st != PLUMB_OK)
-        return st;
+        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], rd);
     const plumb_profile *p = s->profiles[r];
-    size_t n = plumb_profile_item_count(p);
-    row->report.profile = p;
-    row->report.n_items = n;
-    row->report.items = calloc(n ? n : 1, sizeof *row->report.items);
-    if (!row->report.items)
-        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
-    for (size_t i = 0; i < n; i++) {
+    size_t n = st == PLUMB_OK ? plumb_profile_item_count(p) : 0;
+    if (st == PLUMB_OK) {
+        row->report.profile = p;
+        row->report.items = calloc(n ? n : 1, sizeof *row->report.items);
+        if (!row->report.items)
+            return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+        row->report.n_items = n;
+    }
+    for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
         plumb_item_report *it = &row->report.items[i];
         it->spec = plumb_profile_item(p, i);
         it->shape = plumb_profile_item_shape(p, i);
-        st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, diag);
+        st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, rd);
         if (st == PLUMB_OK)
-            st = plumb_item_judge(it, p, crit, s->atms[r], diag);
-        if (st != PLUMB_OK) {
-            char where[PLUMB_DIAG_MSG + PLUMB_DIAG_KEY + 80];
-            snprintf(where, sizeof where, "%s (at %s)", diag ? diag->message : "",
-                     sets[s->n_axes - 1]);
-            if (diag)
-                plumbp_strlcpy(diag->message, where, sizeof diag->message);
-            return st;
+            st = plumb_item_judge(it, p, crit, s->atms[r], rd);
+        if (st != PLUMB_OK && plumb_profile_is_inventory(p)) {
+            /* name the item whose fall failed */
+            char where[PLUMB_DIAG_MSG + PLUMB_NAME + 16];
+            snprintf(where, sizeof where, "item %s: %s", it->spec->name, rd->message);
+            plumbp_strlcpy(rd->message, where, sizeof rd->message);
         }
+    }
+    if (st == PLUMB_ENOMEM) {
+        if (diag)
+            *diag = *rd;
+        return st;
+    }
+    if (st != PLUMB_OK) {
+        if (rd->status == PLUMB_OK)
+            rd->status = st;
+        row->status = st;
+        /* no figures for this row: its profile and air go too */
+        free(row->report.items);
+        memset(&row->report, 0, sizeof row->report);
+        plumb_atmosphere_free(s->atms[r]);
+        plumb_profile_free(s->profiles[r]);
+        s->atms[r] = NULL;
+        s->profiles[r] = NULL;
+        s->n_failed++;
     }
     return PLUMB_OK;
 }
@@ -305,6 +327,26 @@ plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *un
             return st;
         }
     }
+    if (s->n_failed == total) {
+        /* No row has figures: the range itself is at fault (a key the
+         * profile cannot take, every value out of range) or nothing
+         * lands; report the first row's error, naming its values. */
+        plumb_status st = s->rows[0].status;
+        if (diag) {
+            *diag = s->rows[0].error;
+            char at[PLUMB_MAX_AXES * (PLUMB_DIAG_KEY + 64) + 16] = "", one[PLUMB_DIAG_KEY + 64];
+            for (size_t a = 0; a < n_axes; a++) {
+                plumb_range_set_text(&s->axes[a], 0, one, sizeof one);
+                snprintf(at + strlen(at), sizeof at - strlen(at), "%s%s", a ? ", " : "", one);
+            }
+            char msg[PLUMB_DIAG_MSG + sizeof at + 64];
+            snprintf(msg, sizeof msg, "%s (at %s; no row of the sweep could be computed)",
+                     diag->message, at);
+            plumbp_strlcpy(diag->message, msg, sizeof diag->message);
+        }
+        plumb_sweep_free(s);
+        return st;
+    }
     *out = s;
     return PLUMB_OK;
 }
@@ -322,6 +364,11 @@ const plumb_range *plumb_sweep_axis(const plumb_sweep *s, size_t i)
 size_t plumb_sweep_row_count(const plumb_sweep *s)
 {
     return s->n_rows;
+}
+
+size_t plumb_sweep_failed_count(const plumb_sweep *s)
+{
+    return s->n_failed;
 }
 
 const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i)

@@ -7,6 +7,9 @@
  *     1 degC is 1 K, of 1 degF is 1/1.8 K.
  *   - The count of FROM:TO:STEP is 1 + floor((TO - FROM) / STEP), the
  *     arithmetic of an inclusive range (closed form, as `seq` counts).
+ *   - Archimedes' principle and the U.S. Standard Atmosphere 1976
+ *     (NOAA-S/T 76-1562, Table I, transcribed) for when a light payload
+ *     floats.
  *   - The caps PLUMB_RANGE_MAX_VALUES and PLUMB_SWEEP_MAX_ROWS are the
  *     contract of include/plumb/sweep.h.
  * The regression these tests keep fixed: a step typed in degC was checked
@@ -208,6 +211,77 @@ static void test_two_ranges_past_the_row_cap_are_refused_before_running(void **s
     assert_string_equal(d.key, "--vary");
 }
 
+/* Loads tests/cli/profiles/<name> of the source tree. */
+static plumb_profile *test_profile(const char *name)
+{
+    char path[512];
+    snprintf(path, sizeof path, "%s/tests/cli/profiles/%s", plumbt_srcdir(), name);
+    plumb_profile *p = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    if (plumb_profile_load(path, units, NULL, 0, &p, &d) != PLUMB_OK)
+        fprintf(stderr, "%s: %s\n", path, d.message);
+    assert_non_null(p);
+    return p;
+}
+
+/* Archimedes: the 47 g grip of light.yaml floats in air of 1.2221 kg/m^3
+ * (U.S. Standard Atmosphere 1976 at 25 m, transcribed) when its volume
+ * exceeds 0.047 / 1.2221 = 0.03846 m^3. Of 0.030, 0.036, 0.042 and
+ * 0.048 m^3 the last two never land: those rows carry the error, the
+ * first two their figures. */
+static void test_a_row_that_never_lands_is_that_rows_error(void **state)
+{
+    (void)state;
+    plumb_profile *p = test_profile("light.yaml");
+    char dir[512];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    plumb_criteria *crit = NULL;
+    plumb_trajectory *traj = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &crit, &d), PLUMB_OK);
+    assert_int_equal(plumb_trajectory_alloc(NULL, &traj), PLUMB_OK);
+    plumb_range r;
+    assert_int_equal(plumb_range_parse_key(units, "payload.volume=0.030m^3:0.048m^3:0.006m^3",
+                                           &r, &d), PLUMB_OK);
+    plumb_sweep *s = NULL;
+    assert_int_equal(plumb_sweep_run(p, units, crit, &r, 1, traj, &s, &d), PLUMB_OK);
+    assert_int_equal(plumb_sweep_row_count(s), 4);
+    assert_int_equal(plumb_sweep_failed_count(s), 2);
+    for (size_t i = 0; i < 4; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(s, i);
+        if (i < 2) {
+            assert_int_equal(row->status, PLUMB_OK);
+            assert_int_equal(row->report.n_items, 1);
+        } else {
+            assert_int_equal(row->status, PLUMB_ENOLAND);
+            assert_int_equal(row->error.status, PLUMB_ENOLAND);
+            assert_int_equal(row->report.n_items, 0);
+            assert_null(row->report.profile);
+        }
+    }
+    plumb_sweep_free(s);
+
+    /* every row floats: the sweep fails, naming the first row's value */
+    assert_int_equal(plumb_range_parse_key(units, "payload.volume=0.042m^3:0.048m^3:0.006m^3",
+                                           &r, &d), PLUMB_OK);
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_sweep_run(p, units, crit, &r, 1, traj, &s, &d), PLUMB_ENOLAND);
+    assert_null(s);
+    assert_non_null(strstr(d.message, "(at payload.volume=0.042 m^3;"));
+
+    /* every value out of range: an input error of the range */
+    assert_int_equal(plumb_range_parse_key(units, "release.height=-8m:-2m:3m", &r, &d), PLUMB_OK);
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_sweep_run(p, units, crit, &r, 1, traj, &s, &d), PLUMB_ERANGE);
+    assert_string_equal(d.file, "--vary");
+    assert_string_equal(d.key, "release.height");
+    plumb_trajectory_free(traj);
+    plumb_criteria_free(crit);
+    plumb_profile_free(p);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -222,6 +296,7 @@ int main(void)
         cmocka_unit_test(test_malformed_ranges_are_refused),
         cmocka_unit_test(test_values_are_written_as_a_user_would_type_them),
         cmocka_unit_test(test_two_ranges_past_the_row_cap_are_refused_before_running),
+        cmocka_unit_test(test_a_row_that_never_lands_is_that_rows_error),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

@@ -71,12 +71,17 @@ double plumb_range_value_si(const plumb_range *r, const plumb_units *units, size
 /* "KEY=<value> <unit>" for the i-th value, as --set takes it. */
 void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size);
 
-/* One row: the axis values and the fall report of that profile. */
+/* One row: the axis values and the fall report of that profile, or why
+ * there is none. Fields added after `report` are new in this version; the
+ * struct is only ever handed out by the library. */
 typedef struct plumb_sweep_row {
     size_t index[PLUMB_MAX_AXES];      /* value index on each axis */
     double value[PLUMB_MAX_AXES];      /* value in the axis unit */
     double value_si[PLUMB_MAX_AXES];   /* value in SI */
-    plumb_fall_report report;          /* the fall(s), as `plumb fall` reports them */
+    plumb_fall_report report;          /* the fall(s), as `plumb fall` reports them;
+                                          n_items 0 and profile NULL when status != OK */
+    plumb_status status;               /* PLUMB_OK, or why this row has no figures */
+    plumb_diag error;                  /* when status != PLUMB_OK: where and why */
 } plumb_sweep_row;
 
 typedef struct plumb_sweep plumb_sweep;
@@ -85,7 +90,13 @@ typedef struct plumb_sweep plumb_sweep;
  * slowest), judging each against `criteria` as `plumb fall` does. More
  * than PLUMB_SWEEP_MAX_ROWS rows (the product of the counts, computed
  * without overflow) is PLUMB_ERANGE before anything runs.
- * On error *out is NULL and diag names the row's key and value. */
+ * A row that cannot be computed (a value out of its key's range, a fall
+ * that never lands, the air model left ...) keeps its status and
+ * diagnostic in the row and the other rows are still computed; the sweep
+ * succeeds when at least one row has figures (plumb_sweep_failed_count
+ * says how many have none). When no row can be computed, or memory runs
+ * out, the sweep fails: *out is NULL and diag is the first row's error,
+ * naming its values. */
 plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *units,
                              const plumb_criteria *criteria, const plumb_range *axes,
                              size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
@@ -96,6 +107,8 @@ void plumb_sweep_free(plumb_sweep *s);
 size_t plumb_sweep_axis_count(const plumb_sweep *s);
 const plumb_range *plumb_sweep_axis(const plumb_sweep *s, size_t i);
 size_t plumb_sweep_row_count(const plumb_sweep *s);
+/* Rows without figures (status != PLUMB_OK). Can't fail. */
+size_t plumb_sweep_failed_count(const plumb_sweep *s);
 const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i);
 
 #endif /* PLUMB_SWEEP_H */

@@ -15,8 +15,11 @@ static const char usage[] =
     "table), each value with its unit:\n"
     "  --vary release.height=2m:60m:2m     --vary wind.speed=0kn:25kn:5kn\n"
     "Every row is exactly what `plumb fall --set KEY=VALUE` gives for that value.\n"
-    "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
-    "on an error.\n";
+    "A row that cannot be computed (a value out of range, a fall that never lands)\n"
+    "is reported with its value and why, and the other rows are still given.\n"
+    "Exit status: 0 done; 2 input error (a bad range, or no row can be computed for\n"
+    "one), nothing written; 3 the report is written but some rows could not be\n"
+    "computed, or no row could (then nothing is written).\n";
 
 typedef struct sweep_job {
     plumb_report_options opt;
@@ -67,6 +70,14 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         job.opt = cli_report_options(a);
         job.sweep = sweep;
         rc = cli_emit(a, write_report, &job);
+        size_t failed = plumb_sweep_failed_count(sweep);
+        if (rc == CLI_EXIT_OK && failed > 0) {
+            /* the report is written, with these rows' errors in it */
+            fprintf(stderr, "plumb sweep: %zu of %zu rows could not be computed; the report "
+                            "gives each one's value and why\n",
+                    failed, plumb_sweep_row_count(sweep));
+            rc = CLI_EXIT_FAILED;
+        }
     } else {
         if (diag.status == PLUMB_OK)
             diag.status = st;
