@@ -18,12 +18,7 @@
 static const char usage[] =
     "Usage: plumb air [--alt FROM:TO:STEP] [--temperature-offset DT] [OPTIONS]\n"
     "Air of the U.S. Standard Atmosphere 1976 by geometric altitude above mean sea\n"
-    "level: temperature, pressure, density, viscosity and speed of sound.\n"
-    "  --alt FROM:TO:STEP         altitudes, each with its unit (default 0m:20km:1km);\n"
-    "                             STEP not zero and towards TO (negative to go\n"
-    "                             down), at most 100000 rows\n"
-    "  --temperature-offset DT    added to the standard temperature, e.g. \"10 K\"\n"
-    "                             (default 0 K)\n";
+    "level: temperature, pressure, density, viscosity and speed of sound.\n";
 
 typedef struct air_job {
     plumb_report_options opt;
@@ -125,7 +120,14 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
 
 int cmd_air(int argc, char **argv)
 {
-    cli_option extra[] = {{"--alt", NULL}, {"--temperature-offset", NULL}};
+    cli_option extra[] = {
+        {.name = "--alt", .arg = "FROM:TO:STEP",
+         .help = "altitudes, each with its unit (default " AIR_DEFAULT_ALT ");\n"
+                 "STEP not zero and towards TO (negative to go down),\n"
+                 "at most 100000 rows"},
+        {.name = "--temperature-offset", .arg = "DT",
+         .help = "added to the standard temperature, e.g. \"10 K\"\n(default 0 K)"},
+    };
     cli_args a;
     int rc = cli_parse(argc, argv, CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET, extra,
                        sizeof extra / sizeof extra[0], usage, &a);

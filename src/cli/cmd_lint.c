@@ -14,7 +14,8 @@ static const char usage[] =
     "Checks each profile as `plumb fall` reads it - YAML, keys, units, ranges, the\n"
     "atmosphere and the named criteria - without computing a fall. Prints\n"
     "\"PROFILE: ok\" for each good profile; each bad one gets its located error on\n"
-    "standard error, and the exit status is 2.\n";
+    "standard error, and the exit status is 2. A PROFILE '-' is read from standard\n"
+    "input (once).\n";
 
 /* Checks one profile; prints its error and returns the exit status. The
  * criteria set is loaded on first need into *crit. */
