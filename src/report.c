@@ -1800,10 +1800,29 @@ plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
 
 /* ---- air table --------------------------------------------------------- */
 
-static void text_air(writer *w, const plumb_report_options *opt, const plumb_air *rows,
-                     size_t n)
+/* "U.S. Standard Atmosphere 1976, temperature offset +10 K, dry". */
+static void air_model_text(writer *w, double dt_k, char *buf, size_t size)
 {
+    plumb_atm_spec a;
+    plumb_atm_spec_init(&a);
+    a.temperature_offset_k = dt_k;
+    text_atmosphere(w, &a, buf, size);
+    if (dt_k == 0.0) {
+        size_t n = strlen(buf);
+        snprintf(buf + n, size - n, "; no temperature offset");
+    }
+    for (char *p = buf; *p; p++)
+        if (*p == NBSP_CHAR)
+            *p = ' ';
+}
+
+static void text_air(writer *w, const plumb_report_options *opt, const plumb_air *rows,
+                     size_t n, double dt_k)
+{
+    char model[NUMBUF * 5];
     text_header(w, opt, "air", "properties by geometric altitude above mean sea level");
+    air_model_text(w, dt_k, model, sizeof model);
+    put(w, "  %s\n", model);
     enum { COL_W = 14 };
     const char *heads[] = {"altitude", "temperature", "pressure", "density", "viscosity",
                            "sound speed"};
@@ -1839,9 +1858,13 @@ static void text_air(writer *w, const plumb_report_options *opt, const plumb_air
     caution_lines_text(w);
 }
 
-static void csv_air(writer *w, const plumb_air *rows, size_t n)
+static void csv_air(writer *w, const plumb_air *rows, size_t n, double dt_k)
 {
+    char model[NUMBUF * 5], line[NUMBUF * 6];
     csv_cautions(w);
+    air_model_text(w, dt_k, model, sizeof model);
+    snprintf(line, sizeof line, "model: %s", model);
+    csv_comment(w, line);
     if (w->us)
         put(w, "altitude_ft,temperature_degf,pressure_inhg,density_lb_ft3,viscosity_lbf_s_ft2,"
                "speed_of_sound_ft_s\n");
@@ -1866,10 +1889,22 @@ static void csv_air(writer *w, const plumb_air *rows, size_t n)
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
                               const plumb_air *rows, size_t n_rows, plumb_diag *diag)
 {
+    plumb_air_table t = {rows, n_rows, 0.0};
+    return plumb_report_air_table(out, opt, &t, diag);
+}
+
+plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
+                                    const plumb_air_table *table, plumb_diag *diag)
+{
     plumb_report_options def;
     opt = opts_or_default(opt, &def);
-    if (!out || (n_rows > 0 && !rows))
+    if (!out || !table || (table->n_rows > 0 && !table->rows))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no air table to write");
+    const plumb_air *rows = table->rows;
+    size_t n_rows = table->n_rows;
+    double dt_k = table->temperature_offset_k;
+    if (!plumbp_finite(dt_k))
+        return PLUMB_RAISE(diag, PLUMB_ENUMERIC, "the temperature offset is not a finite number");
     for (size_t i = 0; i < n_rows; i++) {
         finite_check fc = {diag, NULL, PLUMB_OK};
         need_finite(&fc, "altitude", rows[i].alt_m);
@@ -1884,6 +1919,10 @@ plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
     if (opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         json_t *root = jobj(&j);
+        if (opt->version)
+            jset(&j, root, "plumb_version", jstr(&j, opt->version));
+        jset(&j, root, "model", jstr(&j, "standard-1976"));
+        jset(&j, root, "temperature_offset_k", jreal(&j, dt_k));
         json_t *arr = jarr(&j);
         for (size_t i = 0; i < n_rows; i++)
             jpush(&j, arr, j_air(&j, &rows[i]));
@@ -1898,9 +1937,9 @@ plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
     if (st != PLUMB_OK)
         return st;
     if (opt->format == PLUMB_FORMAT_CSV)
-        csv_air(&w, rows, n_rows);
+        csv_air(&w, rows, n_rows, dt_k);
     else
-        text_air(&w, opt, rows, n_rows);
+        text_air(&w, opt, rows, n_rows, dt_k);
     return writer_close(&w, &buf, &len, out, diag);
 }
 

@@ -655,6 +655,72 @@ static void test_air_json_rows_carry_the_1976_sea_level_values(void **state)
     free(buf);
 }
 
+/* The air table with a temperature offset states it in every format, and
+ * its JSON names the program version like every other report. The row is
+ * the 1976 sea-level air 10 K warmer: T = 288.15 + 10 = 298.15 K (U.S.
+ * Standard Atmosphere 1976, T0 = 288.15 K, transcribed); 10 K is 18 degF
+ * as a difference (NIST SP 811 (2008) B.9: 1 K = 1.8 degF). */
+static void test_air_table_states_its_temperature_offset_in_every_format(void **state)
+{
+    (void)state;
+    plumb_air row;
+    assert_int_equal(plumb_std1976(0.0, 10.0, &row), PLUMB_OK);
+    assert_rel(row.t_k, 298.15, 1e-12);
+    plumb_air_table t = {&row, 1, 10.0};
+    static const char *const want[3] = {"temperature offset +10 K",
+                                        "\"temperature_offset_k\": 10.0",
+                                        "# model: U.S. Standard Atmosphere 1976, temperature "
+                                        "offset +10 K"};
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        char *buf = NULL;
+        size_t len = 0;
+        FILE *out = open_memstream(&buf, &len);
+        plumb_report_options opt = {(plumb_format)f, PLUMB_UNITS_SI, "9.9.9"};
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_OK);
+        fclose(out);
+        if (!strstr(buf, want[f]))
+            fail_msg("air report (format %d) lacks '%s':\n%s", f, want[f], buf);
+        if (f == PLUMB_FORMAT_JSON) {
+            json_t *root = json_loads(buf, 0, NULL);
+            assert_non_null(root);
+            assert_string_equal(json_string_value(json_object_get(root, "plumb_version")), "9.9.9");
+            assert_true(json_real_value(json_object_get(root, "temperature_offset_k")) == 10.0);
+            json_decref(root);
+        }
+        free(buf);
+    }
+    /* US text: the offset as a difference in degF beside kelvin */
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *out = open_memstream(&buf, &len);
+    plumb_report_options opt = {PLUMB_FORMAT_TEXT, PLUMB_UNITS_US, NULL};
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_OK);
+    fclose(out);
+    assert_non_null(strstr(buf, "temperature offset +18 °F (10 K)"));
+    free(buf);
+    /* a table with no offset says so */
+    buf = NULL;
+    out = open_memstream(&buf, &len);
+    opt.units = PLUMB_UNITS_SI;
+    assert_int_equal(plumb_report_air(out, &opt, &row, 1, &diag), PLUMB_OK);
+    fclose(out);
+    assert_non_null(strstr(buf, "no temperature offset"));
+    free(buf);
+    /* a non-finite offset is refused */
+    t.temperature_offset_k = NAN;
+    buf = NULL;
+    out = open_memstream(&buf, &len);
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_ENUMERIC);
+    fclose(out);
+    assert_int_equal(len, 0);
+    free(buf);
+}
+
 /* ---- CSV ----------------------------------------------------------------- */
 
 static void test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says(void **state)
@@ -786,6 +852,7 @@ int main(void)
         cmocka_unit_test(test_json_has_the_keys_of_design_section_6),
         cmocka_unit_test(test_json_numbers_read_back_to_the_same_double),
         cmocka_unit_test(test_air_json_rows_carry_the_1976_sea_level_values),
+        cmocka_unit_test(test_air_table_states_its_temperature_offset_in_every_format),
         cmocka_unit_test(test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says),
         cmocka_unit_test(test_us_units_csv_names_columns_in_feet_and_pounds),
         cmocka_unit_test(test_inventory_names_the_worst_item_and_the_largest_drift),

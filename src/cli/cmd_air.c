@@ -22,14 +22,13 @@ static const char usage[] =
 
 typedef struct air_job {
     plumb_report_options opt;
-    const plumb_air *rows;
-    size_t n;
+    plumb_air_table table;
 } air_job;
 
 static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
 {
     const air_job *job = ctx;
-    return plumb_report_air(out, &job->opt, job->rows, job->n, diag);
+    return plumb_report_air_table(out, &job->opt, &job->table, diag);
 }
 
 static plumb_status option_error(plumb_diag *diag, plumb_status st, const char *option,
@@ -107,8 +106,9 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
         air_job job;
         memset(&job, 0, sizeof job);
         job.opt = cli_report_options(a);
-        job.rows = rows;
-        job.n = n;
+        job.table.rows = rows;
+        job.table.n_rows = n;
+        job.table.temperature_offset_k = dt;
         rc = cli_emit(a, write_report, &job);
     } else {
         rc = cli_fail(&diag);

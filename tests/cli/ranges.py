@@ -1,5 +1,6 @@
 #!/usr/bin/python3
-"""Ranges on the command line: `plumb sweep --vary` and `plumb air --alt`.
+"""Ranges on the command line: `plumb sweep --vary` and `plumb air --alt`
+(and the temperature offset `plumb air` states).
 
 Each range is checked in the unit it was typed in, counted without
 overflow, and refused (exit 2, the option named, nothing written) for a
@@ -131,6 +132,18 @@ refused(["air", "--alt", "0m:20km:-1km"], ["<command line>: --alt: ", "positive 
         "air --alt with a step of the wrong sign")
 refused(["air", "--alt", "0m:20km:0km"], ["--alt: ", "must not be zero"], "air --alt zero step")
 refused(["air", "--alt", "0m:20km:0.1m"], ["--alt: ", "200001 values"], "air --alt too many rows")
+
+# ---- plumb air states its temperature offset in every format ----------------
+# 18 degF as a difference is 10 K (NIST SP 811 B.9); T0 = 288.15 K (1976).
+rc, so, se = plumb("air", "--alt", "0m:0m:1m", "--temperature-offset", "18degF", "--format", "json")
+d = json.loads(so) if rc == 0 else {}
+check(d.get("temperature_offset_k") == 10 and "plumb_version" in d
+      and abs(d["rows"][0]["temperature_k"] - 298.15) <= 1e-9,
+      f"air JSON states the offset and the version: {so[:200]!r}")
+for fmt, want in [("text", "temperature offset +10 K"), ("csv", "# model: U.S. Standard Atmosphere "
+                                                                 "1976, temperature offset +10 K")]:
+    rc, so, se = plumb("air", "--alt", "0m:0m:1m", "--temperature-offset", "10K", "--format", fmt)
+    check(rc == 0 and want in so, f"air {fmt} states the offset ({so[:300]!r})")
 
 print(f"cli: {passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)
