@@ -844,7 +844,8 @@ static void text_verdicts(writer *w, const plumb_item_report *it)
         char lim[NUMBUF * 2], line[NUMBUF * 4];
         text_limit(w, c, lim, sizeof lim);
         put(w, "  %-8s %s\n", v->exceeds ? "EXCEEDS" : "WITHIN", c->name);
-        snprintf(line, sizeof line, "%s, ratio %s%s", lim, num(w, v->ratio, RATIO_SIG),
+        snprintf(line, sizeof line, "%s, ratio %s, %s%s", lim, num(w, v->ratio, RATIO_SIG),
+                 verdict_word(v),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "");
         wrapped(w, "           ", line);
         char src[PLUMB_CRIT_TEXT + 2 * PLUMB_CRIT_ID + 64];
@@ -1255,10 +1256,11 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
     char line[PLUMB_NAME + NUMBUF * 6];
     long sk = strictest(worst);
     if (sk >= 0)
-        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit (C%ld, %s J)",
+        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit (C%ld, %s J): %s",
                  worst->spec->name, t_energy(w, worst->result.energy_j),
                  t_speed(w, worst->result.speed_m_s), num(w, worst->verdicts[sk].ratio, RATIO_SIG),
-                 sk + 1, num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG));
+                 sk + 1, num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG),
+                 verdict_word(&worst->verdicts[sk]));
     else
         snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,
                  t_energy(w, worst->result.energy_j), t_speed(w, worst->result.speed_m_s));
@@ -1991,14 +1993,15 @@ static shown show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
-enum { SWEEP_COL = 9, SWEEP_KEY_COL = 15 };
+/* Numeric columns of a sweep row, and the spaces between columns. */
+enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15 };
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
 {
     if (first->n_verdicts == 0)
         return;
-    put(w, "\nCriteria (ratio = energy / limit; ! = exceeds)\n");
+    put(w, "\nCriteria (ratio = energy / limit)\n");
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
         char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
@@ -2011,11 +2014,37 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
     }
 }
 
+/* A ratio with its verdict beside it, "1.00 EXCEEDS" / "0.997 within", so
+ * that a ratio rounded to 1.00 still shows which side of the limit it is. */
 static const char *ratio_cell(writer *w, const plumb_verdict *v)
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%s%s", num(w, v->ratio, 3), v->exceeds ? "!" : "");
+    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
     return b;
+}
+
+/* The figure of numeric column k of a sweep row (speed, energy in the
+ * display unit, energy in the other, time, drift, bearing). A fall with no
+ * drift has no bearing. */
+static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int k)
+{
+    const plumb_fall_result *r = &item->result;
+    double ft = PLUMB_FT_M;
+    switch (k) {
+    case 0:
+        return num(w, w->us ? r->speed_m_s / ft : r->speed_m_s, TEXT_SIG);
+    case 1:
+        return num(w, w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j, TEXT_SIG);
+    case 2:
+        return num(w, w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG);
+    case 3:
+        return num(w, r->time_s, TEXT_SIG);
+    case 4:
+        return r->drift_m < DRIFT_SHOWN_M ? "0" : num(w, w->us ? r->drift_m / ft : r->drift_m,
+                                                     TEXT_SIG);
+    default:
+        return r->drift_m < DRIFT_SHOWN_M ? "-" : fixed(w, r->bearing_deg, 0);
+    }
 }
 
 /* Calls fn once for each distinct warning of any row and item of a sweep,
@@ -2127,44 +2156,74 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             last != ax->to ? gnum(w, ax->to, 10) : "");
     }
     put(w, "\n");
+    /* Column widths: the widest header, unit or cell of each, so that no
+     * two figures ever touch and a one-criterion table stays narrow. */
+    size_t nv = first->n_verdicts;
+    size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
+    const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
+    const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
+    const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
+    const char *const *units = w->us ? units_us : units_si;
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        wkey[a] = shown_width(ax->key);
+        if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
+            wkey[a] = shown_width(unit_shown(w, ax->unit));
+    }
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        wnum[k] = shown_width(heads[k]) > shown_width(units[k]) ? shown_width(heads[k])
+                                                                : shown_width(units[k]);
+    for (size_t k = 0; k < nv; k++)
+        wcrit[k] = shown_width("ratio verdict");
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        for (size_t a = 0; a < na; a++)
+            if (shown_width(gnum(w, row->value[a], 8)) > wkey[a])
+                wkey[a] = shown_width(gnum(w, row->value[a], 8));
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            const plumb_item_report *item = &row->report.items[it];
+            for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+                if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
+                    wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
+            for (size_t k = 0; k < nv && k < item->n_verdicts; k++)
+                if (shown_width(ratio_cell(w, &item->verdicts[k])) > wcrit[k])
+                    wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
+        }
+    }
     for (size_t a = 0; a < na; a++)
-        pad(w, plumb_sweep_axis(sw, a)->key, SWEEP_KEY_COL, 1);
+        pad(w, plumb_sweep_axis(sw, a)->key, wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (inv)
         put(w, "  %-18s", "item");
-    const char *heads[] = {"speed", "energy", "energy", "time", "drift", "bearing"};
-    for (size_t k = 0; k < 6; k++)
-        pad(w, heads[k], SWEEP_COL, 1);
-    for (size_t k = 0; k < first->n_verdicts; k++) {
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; k < nv; k++) {
         char c[32];
         snprintf(c, sizeof c, "C%zu", k + 1);
-        pad(w, c, 8, 1);
+        pad(w, c, wcrit[k] + SWEEP_GAP, 1);
     }
     put(w, "\n");
     for (size_t a = 0; a < na; a++)
-        pad(w, plumb_sweep_axis(sw, a)->unit, SWEEP_KEY_COL, 1);
+        pad(w, unit_shown(w, plumb_sweep_axis(sw, a)->unit), wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (inv)
         put(w, "  %-18s", "");
-    const char *units_si[] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
-    const char *units_us[] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
-    for (size_t k = 0; k < 6; k++)
-        pad(w, w->us ? units_us[k] : units_si[k], SWEEP_COL, 1);
-    for (size_t k = 0; k < first->n_verdicts; k++)
-        pad(w, "ratio", 8, 1);
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; k < nv; k++)
+        pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
     put(w, "\n");
     size_t n_failed = 0;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         if (row->status != PLUMB_OK) {
             for (size_t a = 0; a < na; a++)
-                pad(w, gnum(w, row->value[a], 8), SWEEP_KEY_COL, 1);
+                pad(w, gnum(w, row->value[a], 8), wkey[a] + (a ? SWEEP_GAP : 1), 1);
             put(w, "  not computed, see (%zu) below\n", ++n_failed);
             continue;
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            const plumb_fall_result *r = &item->result;
             for (size_t a = 0; a < na; a++)
-                pad(w, it == 0 ? gnum(w, row->value[a], 8) : "", SWEEP_KEY_COL, 1);
+                pad(w, it == 0 ? gnum(w, row->value[a], 8) : "", wkey[a] + (a ? SWEEP_GAP : 1), 1);
             if (inv) {
                 char name[PLUMB_NAME + 4];
                 if (shown_width(item->spec->name) > 18)
@@ -2173,16 +2232,10 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                     snprintf(name, sizeof name, "%s", item->spec->name);
                 put(w, "  %-18s", name);
             }
-            double e1 = w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j;
-            double e2 = w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J;
-            pad(w, num(w, w->us ? r->speed_m_s / PLUMB_FT_M : r->speed_m_s, 4), SWEEP_COL, 1);
-            pad(w, num(w, e1, 4), SWEEP_COL, 1);
-            pad(w, num(w, e2, 4), SWEEP_COL, 1);
-            pad(w, num(w, r->time_s, 4), SWEEP_COL, 1);
-            pad(w, num(w, w->us ? r->drift_m / PLUMB_FT_M : r->drift_m, 4), SWEEP_COL, 1);
-            pad(w, r->drift_m > 0.0 ? fixed(w, r->bearing_deg, 0) : "-", SWEEP_COL, 1);
+            for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+                pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; k < item->n_verdicts; k++)
-                pad(w, ratio_cell(w, &item->verdicts[k]), 8, 1);
+                pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
             put(w, "\n");
         }
     }

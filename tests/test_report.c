@@ -438,6 +438,37 @@ static void test_part107_verdicts_use_33_895_and_14_914_joules(void **state)
     plumb_profile_free(p);
 }
 
+/* A ratio that prints as 1.00 keeps the side of the limit it is on: the
+ * verdict word is beside it in text and CSV. Energies 0.04 % below and
+ * above 25 ft lbf (14 CFR 107.130(a)(1), seen; 1 ft lbf = 1.3558179483 J):
+ * ratios 0.9996 and 1.0004, both 1.00 to three figures. */
+static void test_a_ratio_printed_as_one_shows_its_verdict_beside_it(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    static const double factor[2] = {0.9996, 1.0004};
+    static const char *const text_want[2] = {"ratio 1.00, within", "ratio 1.00, exceeds"};
+    static const char *const csv_want[2] = {",0.9996,within,", ",1.0004,exceeds,"};
+    for (int i = 0; i < 2; i++) {
+        double e = factor[i] * 25.0 * FT_LBF_J;
+        plumb_item_report it = judged_spanner(fx, p, sqrt(2.0 * e / 2.385));
+        assert_rel(it.verdicts[0].ratio, factor[i], 1e-12);
+        plumb_status st;
+        plumb_diag diag;
+        char *text = fall_report(p, &it, 1, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, &st, &diag);
+        assert_int_equal(st, PLUMB_OK);
+        if (!strstr(text, text_want[i]))
+            fail_msg("text lacks '%s':\n%s", text_want[i], text);
+        free(text);
+        char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
+        assert_int_equal(st, PLUMB_OK);
+        if (!strstr(csv, csv_want[i]))
+            fail_msg("CSV lacks '%s':\n%s", csv_want[i], csv);
+        free(csv);
+    }
+    plumb_profile_free(p);
+}
+
 static void test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems(void **state)
 {
     fixture *fx = *state;
@@ -843,6 +874,7 @@ int main(void)
         cmocka_unit_test(test_infinite_energy_ratio_is_refused_with_nothing_written),
         cmocka_unit_test(test_non_finite_air_density_is_refused_with_nothing_written),
         cmocka_unit_test(test_part107_verdicts_use_33_895_and_14_914_joules),
+        cmocka_unit_test(test_a_ratio_printed_as_one_shows_its_verdict_beside_it),
         cmocka_unit_test(test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems),
         cmocka_unit_test(test_unknown_named_criterion_is_a_key_error_with_did_you_mean),
         cmocka_unit_test(test_profile_naming_no_criteria_is_judged_against_all),
