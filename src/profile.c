@@ -666,7 +666,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                     (st = plumby_num(&dm, "cd_area", 1, 0.0, &d->cd_area_m2, NULL)) != PLUMB_OK)
                     return st;
                 snprintf(d->source, sizeof d->source,
-                         "cd_area %.6g m^2 as given in the profile", d->cd_area_m2);
+                         "cd_area %.6g m² as given in the profile", d->cd_area_m2);
             } else {
                 if (!plumby_get(&dm, "cd"))
                     return plumby_missing(&dm, "cd", "give cd and area, or cd_area");
@@ -677,7 +677,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                     return st;
                 d->cd_area_m2 = d->cd * d->area_m2;
                 snprintf(d->source, sizeof d->source,
-                         "cd %.6g and area %.6g m^2 as given in the profile", d->cd, d->area_m2);
+                         "cd %.6g and area %.6g m² as given in the profile", d->cd, d->area_m2);
             }
         } else {
             d->model = model == 1 ? PLUMB_DRAG_SPHERE_MORRISON : PLUMB_DRAG_SPHERE_CGW;

@@ -588,6 +588,19 @@ static const char *t_len(writer *w, double m)
     return b;
 }
 
+/* "3.2 m west", "1.1 m north": an offset along one axis in words. One
+ * that prints as zero takes the word of the positive side: never
+ * "0 m south". */
+static const char *t_offset(writer *w, double x, const char *pos, const char *neg)
+{
+    char *b = slot(w);
+    const char *l = t_len(w, fabs(x));
+    size_t n = strcspn(l, NBSP);
+    int zero = n > 0 && strspn(l, "0.") >= n;
+    snprintf(b, NUMBUF, "%s %s", l, x < 0.0 && !zero ? neg : pos);
+    return b;
+}
+
 static const char *t_speed(writer *w, double v)
 {
     char *b = slot(w);
@@ -799,8 +812,8 @@ static void text_impact(writer *w, const plumb_item_report *it)
             t_bearing(w, r->bearing_deg), si_bracket(w, r->drift_m, "m"));
     const plumb_fall_spec *s = it->spec;
     if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
-        put(w, "  lands at   %s east, %s north of the planned drop point\n",
-            t_len(w, r->point_m[0]), t_len(w, r->point_m[1]));
+        put(w, "  lands at   %s, %s of the planned drop point\n",
+            t_offset(w, r->point_m[0], "east", "west"), t_offset(w, r->point_m[1], "north", "south"));
     if (w->us)
         put(w, "  momentum   %s lbf·s [%s kg·m/s]\n",
             num(w, r->momentum_kg_m_s / LBF_N, TEXT_SIG), num(w, r->momentum_kg_m_s, TEXT_SIG));
@@ -999,8 +1012,9 @@ static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t 
     }
     char pos[NUMBUF * 3] = "";
     if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
-        snprintf(pos, sizeof pos, ", %s east and %s north of the planned drop point",
-                 t_len(w, s->release_m[0]), t_len(w, s->release_m[1]));
+        snprintf(pos, sizeof pos, ", %s and %s of the planned drop point",
+                 t_offset(w, s->release_m[0], "east", "west"),
+                 t_offset(w, s->release_m[1], "north", "south"));
     snprintf(buf, size, "%s above the strike level, %s%s", t_len(w, s->release_m[2]), vel, pos);
     w->exact = 0;
 }
@@ -1372,6 +1386,12 @@ static void csv_header(writer *w, const plumb_item_report *first)
     put(w, "\n");
 }
 
+/* The bearing of the drift, empty when there is no drift to have one. */
+static const char *csv_bearing(writer *w, const plumb_fall_result *r)
+{
+    return r->drift_m < DRIFT_SHOWN_M ? "" : csvnum(w, r->bearing_deg);
+}
+
 /* One item's columns, the line left open. */
 static void csv_item_cols(writer *w, const plumb_item_report *it)
 {
@@ -1384,7 +1404,7 @@ static void csv_item_cols(writer *w, const plumb_item_report *it)
             csvnum(w, r->speed_m_s / ft), csvnum(w, r->speed_m_s / MPH_M_S),
             csvnum(w, r->energy_j / PLUMB_FT_LBF_J), csvnum(w, r->energy_j),
             csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
-            csvnum(w, r->drift_m / ft), csvnum(w, r->bearing_deg),
+            csvnum(w, r->drift_m / ft), csv_bearing(w, r),
             csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
             r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s / ft) : "");
         /* The ring holds RING numbers: the rest in a second call. */
@@ -1395,7 +1415,7 @@ static void csv_item_cols(writer *w, const plumb_item_report *it)
             csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
             csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
             csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
-            csvnum(w, r->bearing_deg), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
+            csv_bearing(w, r), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
             r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s) : "");
         put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
             csvnum(w, r->drag_free_energy_j));
@@ -2128,7 +2148,7 @@ static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         size_t len = strlen(b);
         snprintf(b + len, size - len, "%s%s = %s%s%s", a ? ", " : "", ax->key,
-                 gnum(w, row->value[a], 10), ax->unit[0] ? " " : "", ax->unit);
+                 gnum(w, row->value[a], 10), ax->unit[0] ? " " : "", unit_shown(w, ax->unit));
     }
 }
 
@@ -2149,10 +2169,11 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         double last = plumb_range_value(ax, ax->n - 1);
+        const char *u = unit_shown(w, ax->unit);
         put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s\n",
             a ? "and" : "over", ax->key, gnum(w, ax->from, 10), gnum(w, last, 10),
-            ax->unit[0] ? " " : "", ax->unit, gnum(w, ax->step, 10), ax->unit[0] ? " " : "",
-            ax->unit, ax->n, last != ax->to ? "; the steps stop short of " : "",
+            u[0] ? " " : "", u, gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
+            last != ax->to ? "; the steps stop short of " : "",
             last != ax->to ? gnum(w, ax->to, 10) : "");
     }
     put(w, "\n");
@@ -2326,7 +2347,8 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
     }
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "", ax->unit);
+        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "",
+                 unit_shown(w, ax->unit));
         csv_field(w, text);
         put(w, ",");
     }

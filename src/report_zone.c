@@ -140,12 +140,21 @@ static const char *t_energy(writer *w, double j)
 }
 
 
-/* A point as "12.3 m E, 4.56 m S". */
+/* 1 when a figure as printed ("0 m", "0.000 ft") is zero. */
+static int shows_zero(const char *s)
+{
+    size_t n = strcspn(s, " ");
+    return n > 0 && strspn(s, "0.") >= n;
+}
+
+/* A point as "12.3 m E, 4.56 m S". A coordinate that prints as zero is
+ * E or N whatever its sign: never "0 m S" for -1e-12 m. */
 static const char *t_point(writer *w, const double p[2])
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s, %s %s", t_len(w, fabs(p[0])), p[0] < 0.0 ? "W" : "E",
-             t_len(w, fabs(p[1])), p[1] < 0.0 ? "S" : "N");
+    const char *e = t_len(w, fabs(p[0])), *n = t_len(w, fabs(p[1]));
+    snprintf(b, NUMBUF, "%s %s, %s %s", e, p[0] < 0.0 && !shows_zero(e) ? "W" : "E", n,
+             p[1] < 0.0 && !shows_zero(n) ? "S" : "N");
     return b;
 }
 
@@ -162,6 +171,13 @@ static double key_unit(const writer *w, const char *key, const char **unit)
     if (plumb_profile_key_dim(key, &dim, NULL) != PLUMB_OK)
         dim = PLUMB_DIM_NONE;
     *unit = plumb_dim_si_unit(dim);
+    /* one spelling of square and cubic metres in every report */
+    if (dim == PLUMB_DIM_AREA)
+        *unit = "m²";
+    else if (dim == PLUMB_DIM_VOLUME)
+        *unit = "m³";
+    else if (dim == PLUMB_DIM_DENSITY)
+        *unit = "kg/m³";
     switch (dim) {
     case PLUMB_DIM_NONE: case PLUMB_DIM_FRACTION:
         *unit = "";
