@@ -837,11 +837,7 @@ static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t si
  * itself (criteria files: seen | transcribed | memory). */
 static const char *status_note(const plumb_criterion *c)
 {
-    if (strcmp(c->status, "memory") == 0)
-        return "figure from memory, not confirmed in the source";
-    if (strcmp(c->status, "transcribed") == 0)
-        return "figure transcribed from a copy of the source";
-    return "";
+    return status_note_of(c->status);
 }
 
 static void text_verdicts(writer *w, const plumb_item_report *it)
@@ -1258,9 +1254,10 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
             char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 3];
             snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
             text_limit(w, c, lim, sizeof lim);
-            snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s", c->name, c->id, lim,
+            snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s%s%s%s", c->name, c->id, lim,
                      c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
-                     c->source[0] ? c->source : "not given");
+                     c->source[0] ? c->source : "not given", status_note(c)[0] ? " (" : "",
+                     status_note(c), status_note(c)[0] ? ")" : "");
             wrapped(w, lead, line);
         }
     }
@@ -2026,10 +2023,11 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
         const plumb_criterion *c = first->verdicts[k].criterion;
         char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
         snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
-        snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]", c->name,
+        snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
                  t_energy(w, c->energy_limit_j),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
-                 c->source[0] ? c->source : "source not given", c->id);
+                 c->source[0] ? c->source : "source not given", c->id,
+                 status_note(c)[0] ? " (" : "", status_note(c), status_note(c)[0] ? ")" : "");
         wrapped(w, lead, text);
     }
 }
@@ -2552,6 +2550,14 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
              rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
              rep->criterion ? ")" : "");
     wrapped(w, "  ", text);
+    const plumb_criterion *c = rep->criterion_info;
+    if (c) {
+        char src[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + 64];
+        snprintf(src, sizeof src, "%s: %s%s%s%s%s", c->id, c->source[0] ? c->source : "not given",
+                 status_note(c)[0] ? " (" : "", status_note(c), status_note(c)[0] ? ")" : "",
+                 c->kind == PLUMB_CRIT_HELMET_TEST ? "; a helmet test, not a safe limit" : "");
+        wrapped(w, "  source of ", src);
+    }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
         put(w, "\n");
@@ -2606,6 +2612,14 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
     snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
              plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
     csv_comment(w, text);
+    const plumb_criterion *c = rep->criterion_info;
+    if (c) {
+        char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 2];
+        snprintf(line, sizeof line, "criterion %s: %s, kind %s, limit %.*g J, source: %s, status %s",
+                 c->id, c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
+        csv_comment(w, line);
+    }
     put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
            "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
@@ -2637,6 +2651,10 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
     jset(j, lim, metric_key(rep->metric), jreal(j, rep->limit));
     if (rep->criterion)
         jset(j, lim, "criterion", jstr(j, rep->criterion));
+    if (rep->criterion_info) {
+        jset(j, lim, "criterion_source", jstr(j, rep->criterion_info->source));
+        jset(j, lim, "criterion_status", jstr(j, rep->criterion_info->status));
+    }
     json_t *items = jarr(j);
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];

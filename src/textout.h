@@ -151,6 +151,18 @@ static inline const char *unit_shown(writer *w, const char *u)
     return b;
 }
 
+/* How sure a criterion's figure is when it was not read in the source
+ * itself (criteria files' status: seen | transcribed | memory), for every
+ * report that names the criterion; "" for a figure seen in the source. */
+static inline const char *status_note_of(const char *status)
+{
+    if (strcmp(status, "memory") == 0)
+        return "figure from memory, not confirmed in the source";
+    if (strcmp(status, "transcribed") == 0)
+        return "figure transcribed from a copy of the source";
+    return "";
+}
+
 /* s padded with spaces to `width` shown characters, left or right aligned. */
 static inline void pad(writer *w, const char *s, size_t width, int right)
 {

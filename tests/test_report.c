@@ -7,10 +7,12 @@
  * Sources of the checked values:
  *   - 14 CFR 107.130(a)(1): 25 ft lbf (seen) and 14 CFR 107.120(a)(1):
  *     11 ft lbf (transcribed), with 1 ft lbf = 1.3558179483 J exactly
- *     (0.3048 m x 0.45359237 kg x 9.80665 m/s^2; references.md), so
+ *     (0.3048 m x 0.45359237 kg x 9.80665 m/s^2: 1959 international yard
+ *     and pound agreement, CGPM 1901 standard gravity), so
  *     33.895 J and 14.914 J.
- *   - EN 397 shock absorption test energy 49 J (references.md, transcribed
- *     table; a helmet test, not a safe limit).
+ *   - EN 397:2012+A1:2012 shock absorption test energy 49 J (a 5.0 kg
+ *     striker dropped 1 m; from memory, not confirmed in the standard; a
+ *     helmet test, not a safe limit).
  *   - U.S. Standard Atmosphere 1976, Table I at 0 m (references.md).
  *   - IEEE 754-2008 section 5.12.2: 17 significant decimal digits recover
  *     any binary64 value exactly.
@@ -37,7 +39,7 @@
 
 /* 1 ft lbf in J, exact by definition: the international foot 0.3048 m and
  * pound 0.45359237 kg (1959 agreement) under standard gravity 9.80665 m/s^2
- * (CGPM 1901); references.md quotes it as 1.3558179483 J. */
+ * (CGPM 1901): 1.3558179483 J to ten decimals. */
 #define FT_LBF_J (0.3048 * 0.45359237 * 9.80665)
 
 typedef struct fixture {
@@ -97,7 +99,8 @@ static int setup(void **state)
                      "applies_to: rigid object striking a person\n"
                      "source: 14 CFR 107.120(a)(1)\n"
                      "status: transcribed\n");
-    /* EN 397 shock absorption, 49 J (references.md, transcribed). */
+    /* EN 397:2012+A1:2012 shock absorption, 49 J (from memory; the
+     * fixture's status is its own). */
     snprintf(path, sizeof path, "%s/en397-shock-49j.yaml", fx->crit_dir);
     write_file(path, "name: EN 397 helmet shock absorption test\n"
                      "kind: helmet-test\n"

@@ -67,6 +67,7 @@ static int run(const cli_args *a, const cli_option *o)
                                                    : PLUMB_DIM_LENGTH;
     double limit = 0.0;
     const char *criterion = NULL;
+    const plumb_criterion *criterion_info = NULL;
 
     plumb_status st = plumb_units_alloc(&units, &diag);
     if (st == PLUMB_OK)
@@ -77,6 +78,7 @@ static int run(const cli_args *a, const cli_option *o)
         if (c) {
             limit = c->energy_limit_j;
             criterion = c->id;
+            criterion_info = c;
         } else {
             st = plumb_units_parse(units, text, dim, &limit, &diag);
             if (st != PLUMB_OK) {
@@ -118,7 +120,8 @@ static int run(const cli_args *a, const cli_option *o)
         limit_job job;
         memset(&job, 0, sizeof job);
         job.opt = cli_report_options(a);
-        job.rep = (plumb_limit_report){prof, o[OPT_FIND].value, metric, limit, criterion, n, res};
+        job.rep = (plumb_limit_report){prof, o[OPT_FIND].value, metric, limit, criterion, n, res,
+                                       criterion_info};
         rc = cli_emit(a, write_report, &job);
     } else {
         if (diag.status == PLUMB_OK)
