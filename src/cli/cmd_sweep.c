@@ -58,6 +58,8 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         st = cli_profile_load(a, a->args[0], units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
+    if (st == PLUMB_OK) /* a criterion typo is the profile's error, not every row's */
+        st = plumb_profile_criteria_check(prof, crit, &diag);
     if (st == PLUMB_OK)
         st = plumb_trajectory_alloc(NULL, &traj);
     if (st == PLUMB_OK)

@@ -126,5 +126,11 @@ with tempfile.TemporaryDirectory(prefix="plumb-rows-") as tmp:
         check(rc == want_rc and want in err and not os.listdir(tmp) and out == "",
               f"{args[1]}: exit {rc} (want {want_rc}), {err.strip()!r}, wrote {os.listdir(tmp)}")
 
+# a criterion typo is the profile's error, located at its entry, not a row's
+rc, out, err = plumb("sweep", os.path.join(HERE, "profiles", "criterion-typo.yaml"),
+                     "--vary", "release.height=2m:4m:2m")
+check(rc == 2 and "criterion-typo.yaml:7:23: criteria[1]" in err and "no row" not in err and out == "",
+      f"sweep: criterion typo: exit {rc}, {err.strip()!r}")
+
 print(f"cli: {passed} passed, {failed} failed")
 sys.exit(1 if failed else 0)
