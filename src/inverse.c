@@ -276,8 +276,20 @@ static double scan_value(const key_range *r, double lo, double hi, size_t i, siz
     return lo + f * (hi - lo);
 }
 
+/* The SI unit as the reports spell it: "m²", not "m^2" (one spelling of
+ * square metres in every report), "" for a number. */
 static const char *si_unit_text(plumb_dim dim)
 {
+    switch (dim) {
+    case PLUMB_DIM_AREA:
+        return "m²";
+    case PLUMB_DIM_VOLUME:
+        return "m³";
+    case PLUMB_DIM_DENSITY:
+        return "kg/m³";
+    default:
+        break;
+    }
     const char *u = plumb_dim_si_unit(dim);
     return strcmp(u, "1") == 0 ? "" : u;
 }

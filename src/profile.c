@@ -759,7 +759,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                     (st = plumby_num(&dm, "cd_area", 1, 0.0, &d->cd_area_m2, NULL)) != PLUMB_OK)
                     return st;
                 snprintf(d->source, sizeof d->source,
-                         "cd_area %.6g m^2 as given in the profile", d->cd_area_m2);
+                         "cd_area %.6g m² as given in the profile", d->cd_area_m2);
             } else {
                 if (!plumby_get(&dm, "cd"))
                     return plumby_missing(&dm, "cd", "give cd and area, or cd_area");
@@ -770,7 +770,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                     return st;
                 d->cd_area_m2 = d->cd * d->area_m2;
                 snprintf(d->source, sizeof d->source,
-                         "cd %.6g and area %.6g m^2 as given in the profile", d->cd, d->area_m2);
+                         "cd %.6g and area %.6g m² as given in the profile", d->cd, d->area_m2);
             }
         } else {
             d->model = model == 1 ? PLUMB_DRAG_SPHERE_MORRISON : PLUMB_DRAG_SPHERE_CGW;
@@ -1726,6 +1726,28 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     if (st != PLUMB_OK)
         return st;
     return build(path, sha, tree, units, sets, n_sets, out, diag);
+}
+
+plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t len,
+                                       const plumb_units *units, const char *const *sets,
+                                       size_t n_sets, plumb_profile **out, plumb_diag *diag)
+{
+    if (out)
+        *out = NULL;
+    if (!name || (!buf && len > 0) || !units || !out || (n_sets > 0 && !sets))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_load_buffer: NULL argument");
+    if (len > PLUMB_PROFILE_MAX_BYTES)
+        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, name, 0, 0, NULL,
+                              "the profile has %zu bytes; at most %u bytes are accepted", len,
+                              PLUMB_PROFILE_MAX_BYTES);
+    char sha[PLUMBP_SHA256_HEX];
+    plumbp_sha256_hex(buf ? buf : "", len, sha);
+    plumby_node *tree;
+    plumb_status st = plumby_parse(buf ? buf : "", len, name, PLUMBY_FROM_FILE, 0, NULL, &tree,
+                                   diag);
+    if (st != PLUMB_OK)
+        return st;
+    return build(name, sha, tree, units, sets, n_sets, out, diag);
 }
 
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,

@@ -591,6 +591,19 @@ static const char *t_len(writer *w, double m)
     return b;
 }
 
+/* "3.2 m west", "1.1 m north": an offset along one axis in words. One
+ * that prints as zero takes the word of the positive side: never
+ * "0 m south". */
+static const char *t_offset(writer *w, double x, const char *pos, const char *neg)
+{
+    char *b = slot(w);
+    const char *l = t_len(w, fabs(x));
+    size_t n = strcspn(l, NBSP);
+    int zero = n > 0 && strspn(l, "0.") >= n;
+    snprintf(b, NUMBUF, "%s %s", l, x < 0.0 && !zero ? neg : pos);
+    return b;
+}
+
 static const char *t_speed(writer *w, double v)
 {
     char *b = slot(w);
@@ -802,8 +815,8 @@ static void text_impact(writer *w, const plumb_item_report *it)
             t_bearing(w, r->bearing_deg), si_bracket(w, r->drift_m, "m"));
     const plumb_fall_spec *s = it->spec;
     if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
-        put(w, "  lands at   %s east, %s north of the planned drop point\n",
-            t_len(w, r->point_m[0]), t_len(w, r->point_m[1]));
+        put(w, "  lands at   %s, %s of the planned drop point\n",
+            t_offset(w, r->point_m[0], "east", "west"), t_offset(w, r->point_m[1], "north", "south"));
     if (w->us)
         put(w, "  momentum   %s lbf·s [%s kg·m/s]\n",
             num(w, r->momentum_kg_m_s / LBF_N, TEXT_SIG), num(w, r->momentum_kg_m_s, TEXT_SIG));
@@ -827,11 +840,7 @@ static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t si
  * itself (criteria files: seen | transcribed | memory). */
 static const char *status_note(const plumb_criterion *c)
 {
-    if (strcmp(c->status, "memory") == 0)
-        return "figure from memory, not confirmed in the source";
-    if (strcmp(c->status, "transcribed") == 0)
-        return "figure transcribed from a copy of the source";
-    return "";
+    return status_note_of(c->status);
 }
 
 static void text_verdicts(writer *w, const plumb_item_report *it)
@@ -847,7 +856,8 @@ static void text_verdicts(writer *w, const plumb_item_report *it)
         char lim[NUMBUF * 2], line[NUMBUF * 4];
         text_limit(w, c, lim, sizeof lim);
         put(w, "  %-8s %s\n", v->exceeds ? "EXCEEDS" : "WITHIN", c->name);
-        snprintf(line, sizeof line, "%s, ratio %s%s", lim, num(w, v->ratio, RATIO_SIG),
+        snprintf(line, sizeof line, "%s, ratio %s, %s%s", lim, num(w, v->ratio, RATIO_SIG),
+                 verdict_word(v),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "");
         wrapped(w, "           ", line);
         char src[PLUMB_CRIT_TEXT + 2 * PLUMB_CRIT_ID + 64];
@@ -1001,8 +1011,9 @@ static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t 
     }
     char pos[NUMBUF * 3] = "";
     if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
-        snprintf(pos, sizeof pos, ", %s east and %s north of the planned drop point",
-                 t_len(w, s->release_m[0]), t_len(w, s->release_m[1]));
+        snprintf(pos, sizeof pos, ", %s and %s of the planned drop point",
+                 t_offset(w, s->release_m[0], "east", "west"),
+                 t_offset(w, s->release_m[1], "north", "south"));
     snprintf(buf, size, "%s above the strike level, %s%s", t_len(w, s->release_m[2]), vel, pos);
     w->exact = 0;
 }
@@ -1246,9 +1257,10 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
             char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 3];
             snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
             text_limit(w, c, lim, sizeof lim);
-            snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s", c->name, c->id, lim,
+            snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s%s%s%s", c->name, c->id, lim,
                      c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
-                     c->source[0] ? c->source : "not given");
+                     c->source[0] ? c->source : "not given", status_note(c)[0] ? " (" : "",
+                     status_note(c), status_note(c)[0] ? ")" : "");
             wrapped(w, lead, line);
         }
     }
@@ -1258,10 +1270,11 @@ static void text_inventory(writer *w, const plumb_report_options *opt,
     char line[PLUMB_NAME + NUMBUF * 6];
     long sk = strictest(worst);
     if (sk >= 0)
-        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit (C%ld, %s J)",
+        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit (C%ld, %s J): %s",
                  worst->spec->name, t_energy(w, worst->result.energy_j),
                  t_speed(w, worst->result.speed_m_s), num(w, worst->verdicts[sk].ratio, RATIO_SIG),
-                 sk + 1, num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG));
+                 sk + 1, num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG),
+                 verdict_word(&worst->verdicts[sk]));
     else
         snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,
                  t_energy(w, worst->result.energy_j), t_speed(w, worst->result.speed_m_s));
@@ -1334,19 +1347,26 @@ static void csv_cautions(writer *w)
         csv_comment(w, c[i]);
 }
 
-/* The columns of one item row (after any leading columns the caller wrote),
- * ending the header line. */
-static void csv_header(writer *w, const plumb_item_report *first)
+/* The names of one item's columns, in US and SI units. */
+static const char csv_item_cols_us[] =
+    "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
+    "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
+    "drag_free_speed_ft_s,drag_free_energy_ft_lbf";
+static const char csv_item_cols_si[] =
+    "name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
+    "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
+    "drag_free_speed_m_s,drag_free_energy_j";
+
+/* The header of one item's columns (after any leading columns the caller
+ * wrote), the line left open; returns how many columns it names. */
+static size_t csv_header_cols(writer *w, const plumb_item_report *first)
 {
     char text[PLUMB_CRIT_ID + 16];
-    if (w->us)
-        put(w, "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
-               "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
-               "drag_free_speed_ft_s,drag_free_energy_ft_lbf");
-    else
-        put(w, "name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
-               "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
-               "drag_free_speed_m_s,drag_free_energy_j");
+    const char *cols = w->us ? csv_item_cols_us : csv_item_cols_si;
+    size_t n = 1;
+    for (const char *c = cols; *c; c++)
+        n += *c == ',';
+    put(w, "%s", cols);
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const char *id = first->verdicts[k].criterion->id;
         put(w, ",");
@@ -1356,11 +1376,24 @@ static void csv_header(writer *w, const plumb_item_report *first)
         snprintf(text, sizeof text, "%s_verdict", id);
         csv_field(w, text);
     }
+    return n + 2 * first->n_verdicts;
+}
+
+/* The header of one item's columns, ending the line. */
+static void csv_header(writer *w, const plumb_item_report *first)
+{
+    (void)csv_header_cols(w, first);
     put(w, "\n");
 }
 
-/* One item's columns, ending the row. */
-static void csv_item_row(writer *w, const plumb_item_report *it)
+/* The bearing of the drift, empty when there is no drift to have one. */
+static const char *csv_bearing(writer *w, const plumb_fall_result *r)
+{
+    return r->drift_m < DRIFT_SHOWN_M ? "" : csvnum(w, r->bearing_deg);
+}
+
+/* One item's columns, the line left open. */
+static void csv_item_cols(writer *w, const plumb_item_report *it)
 {
     const plumb_fall_result *r = &it->result;
     csv_field(w, it->spec->name);
@@ -1371,7 +1404,7 @@ static void csv_item_row(writer *w, const plumb_item_report *it)
             csvnum(w, r->speed_m_s / ft), csvnum(w, r->speed_m_s / MPH_M_S),
             csvnum(w, r->energy_j / PLUMB_FT_LBF_J), csvnum(w, r->energy_j),
             csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
-            csvnum(w, r->drift_m / ft), csvnum(w, r->bearing_deg),
+            csvnum(w, r->drift_m / ft), csv_bearing(w, r),
             csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
             r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s / ft) : "");
         /* The ring holds RING numbers: the rest in a second call. */
@@ -1382,13 +1415,19 @@ static void csv_item_row(writer *w, const plumb_item_report *it)
             csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
             csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
             csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
-            csvnum(w, r->bearing_deg), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
+            csv_bearing(w, r), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
             r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s) : "");
         put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
             csvnum(w, r->drag_free_energy_j));
     }
     for (size_t k = 0; k < it->n_verdicts; k++)
         put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), verdict_word(&it->verdicts[k]));
+}
+
+/* One item's columns, ending the row. */
+static void csv_item_row(writer *w, const plumb_item_report *it)
+{
+    csv_item_cols(w, it);
     put(w, "\n");
 }
 
@@ -1783,10 +1822,29 @@ plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
 
 /* ---- air table --------------------------------------------------------- */
 
-static void text_air(writer *w, const plumb_report_options *opt, const plumb_air *rows,
-                     size_t n)
+/* "U.S. Standard Atmosphere 1976, temperature offset +10 K, dry". */
+static void air_model_text(writer *w, double dt_k, char *buf, size_t size)
 {
+    plumb_atm_spec a;
+    plumb_atm_spec_init(&a);
+    a.temperature_offset_k = dt_k;
+    text_atmosphere(w, &a, buf, size);
+    if (dt_k == 0.0) {
+        size_t n = strlen(buf);
+        snprintf(buf + n, size - n, "; no temperature offset");
+    }
+    for (char *p = buf; *p; p++)
+        if (*p == NBSP_CHAR)
+            *p = ' ';
+}
+
+static void text_air(writer *w, const plumb_report_options *opt, const plumb_air *rows,
+                     size_t n, double dt_k)
+{
+    char model[NUMBUF * 5];
     text_header(w, opt, "air", "properties by geometric altitude above mean sea level");
+    air_model_text(w, dt_k, model, sizeof model);
+    put(w, "  %s\n", model);
     enum { COL_W = 14 };
     const char *heads[] = {"altitude", "temperature", "pressure", "density", "viscosity",
                            "sound speed"};
@@ -1822,9 +1880,13 @@ static void text_air(writer *w, const plumb_report_options *opt, const plumb_air
     caution_lines_text(w);
 }
 
-static void csv_air(writer *w, const plumb_air *rows, size_t n)
+static void csv_air(writer *w, const plumb_air *rows, size_t n, double dt_k)
 {
+    char model[NUMBUF * 5], line[NUMBUF * 6];
     csv_cautions(w);
+    air_model_text(w, dt_k, model, sizeof model);
+    snprintf(line, sizeof line, "model: %s", model);
+    csv_comment(w, line);
     if (w->us)
         put(w, "altitude_ft,temperature_degf,pressure_inhg,density_lb_ft3,viscosity_lbf_s_ft2,"
                "speed_of_sound_ft_s\n");
@@ -1849,10 +1911,22 @@ static void csv_air(writer *w, const plumb_air *rows, size_t n)
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
                               const plumb_air *rows, size_t n_rows, plumb_diag *diag)
 {
+    plumb_air_table t = {rows, n_rows, 0.0};
+    return plumb_report_air_table(out, opt, &t, diag);
+}
+
+plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
+                                    const plumb_air_table *table, plumb_diag *diag)
+{
     plumb_report_options def;
     opt = opts_or_default(opt, &def);
-    if (!out || (n_rows > 0 && !rows))
+    if (!out || !table || (table->n_rows > 0 && !table->rows))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no air table to write");
+    const plumb_air *rows = table->rows;
+    size_t n_rows = table->n_rows;
+    double dt_k = table->temperature_offset_k;
+    if (!plumbp_finite(dt_k))
+        return PLUMB_RAISE(diag, PLUMB_ENUMERIC, "the temperature offset is not a finite number");
     for (size_t i = 0; i < n_rows; i++) {
         finite_check fc = {diag, NULL, PLUMB_OK};
         need_finite(&fc, "altitude", rows[i].alt_m);
@@ -1867,6 +1941,10 @@ plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
     if (opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         json_t *root = jobj(&j);
+        if (opt->version)
+            jset(&j, root, "plumb_version", jstr(&j, opt->version));
+        jset(&j, root, "model", jstr(&j, "standard-1976"));
+        jset(&j, root, "temperature_offset_k", jreal(&j, dt_k));
         json_t *arr = jarr(&j);
         for (size_t i = 0; i < n_rows; i++)
             jpush(&j, arr, j_air(&j, &rows[i]));
@@ -1881,9 +1959,9 @@ plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
     if (st != PLUMB_OK)
         return st;
     if (opt->format == PLUMB_FORMAT_CSV)
-        csv_air(&w, rows, n_rows);
+        csv_air(&w, rows, n_rows, dt_k);
     else
-        text_air(&w, opt, rows, n_rows);
+        text_air(&w, opt, rows, n_rows, dt_k);
     return writer_close(&w, &buf, &len, out, diag);
 }
 
@@ -1935,31 +2013,59 @@ static shown show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
-enum { SWEEP_COL = 9, SWEEP_KEY_COL = 15 };
+/* Numeric columns of a sweep row, and the spaces between columns. */
+enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15 };
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
 {
     if (first->n_verdicts == 0)
         return;
-    put(w, "\nCriteria (ratio = energy / limit; ! = exceeds)\n");
+    put(w, "\nCriteria (ratio = energy / limit)\n");
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
         char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
         snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
-        snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]", c->name,
+        snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
                  t_energy(w, c->energy_limit_j),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
-                 c->source[0] ? c->source : "source not given", c->id);
+                 c->source[0] ? c->source : "source not given", c->id,
+                 status_note(c)[0] ? " (" : "", status_note(c), status_note(c)[0] ? ")" : "");
         wrapped(w, lead, text);
     }
 }
 
+/* A ratio with its verdict beside it, "1.00 EXCEEDS" / "0.997 within", so
+ * that a ratio rounded to 1.00 still shows which side of the limit it is. */
 static const char *ratio_cell(writer *w, const plumb_verdict *v)
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%s%s", num(w, v->ratio, 3), v->exceeds ? "!" : "");
+    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
     return b;
+}
+
+/* The figure of numeric column k of a sweep row (speed, energy in the
+ * display unit, energy in the other, time, drift, bearing). A fall with no
+ * drift has no bearing. */
+static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int k)
+{
+    const plumb_fall_result *r = &item->result;
+    double ft = PLUMB_FT_M;
+    switch (k) {
+    case 0:
+        return num(w, w->us ? r->speed_m_s / ft : r->speed_m_s, TEXT_SIG);
+    case 1:
+        return num(w, w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j, TEXT_SIG);
+    case 2:
+        return num(w, w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG);
+    case 3:
+        return num(w, r->time_s, TEXT_SIG);
+    case 4:
+        return r->drift_m < DRIFT_SHOWN_M ? "0" : num(w, w->us ? r->drift_m / ft : r->drift_m,
+                                                     TEXT_SIG);
+    default:
+        return r->drift_m < DRIFT_SHOWN_M ? "-" : fixed(w, r->bearing_deg, 0);
+    }
 }
 
 /* Calls fn once for each distinct warning of any row and item of a sweep,
@@ -2022,10 +2128,41 @@ static int sweep_has_warnings(const plumb_sweep *sw)
     return 0;
 }
 
+/* The first row with figures (plumb_sweep_run fails when there is none). */
+static const plumb_sweep_row *first_computed_row(const plumb_sweep *sw)
+{
+    for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status == PLUMB_OK && row->report.n_items > 0)
+            return row;
+    }
+    return NULL;
+}
+
+/* "release.height = 0 m, wind.speed = 5 kn": the values of a row, in b. */
+enum { ROW_VALUES = PLUMB_MAX_AXES * (PLUMB_DIAG_KEY + PLUMB_UNIT_TEXT + NUMBUF) };
+static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *row, char *b,
+                       size_t size)
+{
+    b[0] = '\0';
+    for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        size_t len = strlen(b);
+        snprintf(b + len, size - len, "%s%s = %s%s%s", a ? ", " : "", ax->key,
+                 gnum(w, row->value[a], 10), ax->unit[0] ? " " : "", unit_shown(w, ax->unit));
+    }
+}
+
+/* The diagnostic of a row that has no figures, as one line. */
+static void row_error_text(const plumb_sweep_row *row, char *buf, size_t size)
+{
+    plumb_diag_format(&row->error, buf, size);
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0);
+    const plumb_sweep_row *r0 = first_computed_row(sw);
     const plumb_profile *p = r0->report.profile;
     int inv = plumb_profile_is_inventory(p);
     const plumb_item_report *first = &r0->report.items[0];
@@ -2033,44 +2170,82 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         double last = plumb_range_value(ax, ax->n - 1);
+        const char *u = unit_shown(w, ax->unit);
         put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s\n",
             a ? "and" : "over", ax->key, gnum(w, ax->from, 10), gnum(w, last, 10),
-            ax->unit[0] ? " " : "", ax->unit, gnum(w, ax->step, 10), ax->unit[0] ? " " : "",
-            ax->unit, ax->n, last < ax->to ? "; the steps stop short of " : "",
-            last < ax->to ? gnum(w, ax->to, 10) : "");
+            u[0] ? " " : "", u, gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
+            last != ax->to ? "; the steps stop short of " : "",
+            last != ax->to ? gnum(w, ax->to, 10) : "");
     }
     put(w, "\n");
-    for (size_t a = 0; a < na; a++)
-        pad(w, plumb_sweep_axis(sw, a)->key, SWEEP_KEY_COL, 1);
-    if (inv)
-        put(w, "  %-18s", "item");
-    const char *heads[] = {"speed", "energy", "energy", "time", "drift", "bearing"};
-    for (size_t k = 0; k < 6; k++)
-        pad(w, heads[k], SWEEP_COL, 1);
-    for (size_t k = 0; k < first->n_verdicts; k++) {
-        char c[32];
-        snprintf(c, sizeof c, "C%zu", k + 1);
-        pad(w, c, 8, 1);
+    /* Column widths: the widest header, unit or cell of each, so that no
+     * two figures ever touch and a one-criterion table stays narrow. */
+    size_t nv = first->n_verdicts;
+    size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
+    const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
+    const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
+    const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
+    const char *const *units = w->us ? units_us : units_si;
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        wkey[a] = shown_width(ax->key);
+        if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
+            wkey[a] = shown_width(unit_shown(w, ax->unit));
     }
-    put(w, "\n");
-    for (size_t a = 0; a < na; a++)
-        pad(w, plumb_sweep_axis(sw, a)->unit, SWEEP_KEY_COL, 1);
-    if (inv)
-        put(w, "  %-18s", "");
-    const char *units_si[] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
-    const char *units_us[] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
-    for (size_t k = 0; k < 6; k++)
-        pad(w, w->us ? units_us[k] : units_si[k], SWEEP_COL, 1);
-    for (size_t k = 0; k < first->n_verdicts; k++)
-        pad(w, "ratio", 8, 1);
-    put(w, "\n");
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        wnum[k] = shown_width(heads[k]) > shown_width(units[k]) ? shown_width(heads[k])
+                                                                : shown_width(units[k]);
+    for (size_t k = 0; k < nv; k++)
+        wcrit[k] = shown_width("ratio verdict");
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        for (size_t a = 0; a < na; a++)
+            if (shown_width(gnum(w, row->value[a], 8)) > wkey[a])
+                wkey[a] = shown_width(gnum(w, row->value[a], 8));
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            const plumb_fall_result *r = &item->result;
+            for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+                if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
+                    wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
+            for (size_t k = 0; k < nv && k < item->n_verdicts; k++)
+                if (shown_width(ratio_cell(w, &item->verdicts[k])) > wcrit[k])
+                    wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
+        }
+    }
+    for (size_t a = 0; a < na; a++)
+        pad(w, plumb_sweep_axis(sw, a)->key, wkey[a] + (a ? SWEEP_GAP : 1), 1);
+    if (inv)
+        put(w, "  %-18s", "item");
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; k < nv; k++) {
+        char c[32];
+        snprintf(c, sizeof c, "C%zu", k + 1);
+        pad(w, c, wcrit[k] + SWEEP_GAP, 1);
+    }
+    put(w, "\n");
+    for (size_t a = 0; a < na; a++)
+        pad(w, unit_shown(w, plumb_sweep_axis(sw, a)->unit), wkey[a] + (a ? SWEEP_GAP : 1), 1);
+    if (inv)
+        put(w, "  %-18s", "");
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; k < nv; k++)
+        pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+    put(w, "\n");
+    size_t n_failed = 0;
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
             for (size_t a = 0; a < na; a++)
-                pad(w, it == 0 ? gnum(w, row->value[a], 8) : "", SWEEP_KEY_COL, 1);
+                pad(w, gnum(w, row->value[a], 8), wkey[a] + (a ? SWEEP_GAP : 1), 1);
+            put(w, "  not computed, see (%zu) below\n", ++n_failed);
+            continue;
+        }
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            const plumb_item_report *item = &row->report.items[it];
+            for (size_t a = 0; a < na; a++)
+                pad(w, it == 0 ? gnum(w, row->value[a], 8) : "", wkey[a] + (a ? SWEEP_GAP : 1), 1);
             if (inv) {
                 char name[PLUMB_NAME + 4];
                 if (shown_width(item->spec->name) > 18)
@@ -2079,24 +2254,19 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                     snprintf(name, sizeof name, "%s", item->spec->name);
                 put(w, "  %-18s", name);
             }
-            double e1 = w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j;
-            double e2 = w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J;
-            pad(w, num(w, w->us ? r->speed_m_s / PLUMB_FT_M : r->speed_m_s, 4), SWEEP_COL, 1);
-            pad(w, num(w, e1, 4), SWEEP_COL, 1);
-            pad(w, num(w, e2, 4), SWEEP_COL, 1);
-            pad(w, num(w, r->time_s, 4), SWEEP_COL, 1);
-            pad(w, num(w, w->us ? r->drift_m / PLUMB_FT_M : r->drift_m, 4), SWEEP_COL, 1);
-            pad(w, r->drift_m > 0.0 ? fixed(w, r->bearing_deg, 0) : "-", SWEEP_COL, 1);
+            for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+                pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; k < item->n_verdicts; k++)
-                pad(w, ratio_cell(w, &item->verdicts[k]), 8, 1);
+                pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
             put(w, "\n");
         }
     }
     if (na == 2) {
         /* the energy of the worst item, as a matrix */
         const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
-        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded\n",
-            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key);
+        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded%s\n",
+            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key,
+            n_failed ? ", - = not computed" : "");
         pad(w, "", SWEEP_KEY_COL, 1);
         for (size_t j = 0; j < a1->n; j++)
             pad(w, gnum(w, plumb_range_value(a1, j), 6), 9, 1);
@@ -2105,6 +2275,10 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             pad(w, gnum(w, plumb_range_value(a0, i), 8), SWEEP_KEY_COL, 1);
             for (size_t j = 0; j < a1->n; j++) {
                 const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * a1->n + j);
+                if (row->status != PLUMB_OK) {
+                    pad(w, "-", 9, 1);
+                    continue;
+                }
                 double e = 0.0;
                 int ex = 0;
                 for (size_t it = 0; it < row->report.n_items; it++) {
@@ -2122,6 +2296,22 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             put(w, "\n");
         }
     }
+    if (n_failed) {
+        put(w, "\nRows not computed (%zu of %zu)\n", n_failed, nr);
+        size_t k = 0;
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            if (row->status == PLUMB_OK)
+                continue;
+            char lead[32], why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            char vals[ROW_VALUES], text[sizeof why + sizeof vals + 8];
+            snprintf(lead, sizeof lead, "  (%zu) ", ++k);
+            row_error_text(row, why, sizeof why);
+            row_values(w, sw, row, vals, sizeof vals);
+            snprintf(text, sizeof text, "%s: %s", vals, why);
+            wrapped(w, lead, text);
+        }
+    }
     text_criteria_legend(w, first);
     if (sweep_has_warnings(sw)) {
         put(w, "\nWarnings\n");
@@ -2135,7 +2325,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
 static void csv_sweep(writer *w, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0);
+    const plumb_sweep_row *r0 = first_computed_row(sw);
     const plumb_profile *p = r0->report.profile;
     char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
     csv_cautions(w);
@@ -2151,19 +2341,38 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
         csv_comment(w, text);
     }
     each_sweep_warning(w, sw, csv_sweep_warning);
+    if (plumb_sweep_failed_count(sw) > 0) {
+        snprintf(text, sizeof text, "%zu of %zu rows could not be computed: their figures are "
+                 "empty and the last column says why", plumb_sweep_failed_count(sw), nr);
+        csv_comment(w, text);
+    }
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "", ax->unit);
+        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "",
+                 unit_shown(w, ax->unit));
         csv_field(w, text);
         put(w, ",");
     }
-    csv_header(w, first);
+    size_t n_cols = csv_header_cols(w, first);
+    put(w, ",error\n");
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, row->value[a]));
+            for (size_t c = 0; c < n_cols; c++)
+                put(w, ",");
+            row_error_text(row, why, sizeof why);
+            csv_field(w, why);
+            put(w, "\n");
+            continue;
+        }
         for (size_t it = 0; it < row->report.n_items; it++) {
             for (size_t a = 0; a < na; a++)
                 put(w, "%s,", csvnum(w, row->value[a]));
-            csv_item_row(w, &row->report.items[it]);
+            csv_item_cols(w, &row->report.items[it]);
+            put(w, ",\n");
         }
     }
 }
@@ -2188,6 +2397,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         jpush(j, vary, o);
     }
     jset(j, root, "vary", vary);
+    jset(j, root, "failed_rows", jint(j, plumb_sweep_failed_count(sw)));
     json_t *rows = jarr(j);
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -2200,6 +2410,19 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         }
         jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */
         jset(j, o, "values_si", vals_si);
+        if (row->status != PLUMB_OK) {
+            /* no figures: why, as the command line would print it */
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            row_error_text(row, why, sizeof why);
+            json_t *e = jobj(j);
+            jset(j, e, "message", jstr(j, why));
+            jset(j, e, "kind", jstr(j, plumb_strerror(row->status)));
+            jset(j, e, "computation_failed",
+                 json_boolean(!plumb_status_is_input_error(row->status)));
+            jset(j, o, "error", e);
+            jpush(j, rows, o);
+            continue;
+        }
         if (!plumb_profile_is_inventory(rep->profile)) {
             j_item_into(j, o, &rep->items[0], rep->profile, &ia[i][0]);
         } else {
@@ -2216,7 +2439,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         jpush(j, rows, o);
     }
     jset(j, root, "rows", rows);
-    jset(j, root, "profile", j_profile(j, plumb_sweep_row_at(sw, 0)->report.profile));
+    jset(j, root, "profile", j_profile(j, first_computed_row(sw)->report.profile));
     jset(j, root, "cautions", j_cautions(j));
     return root;
 }
@@ -2226,7 +2449,7 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
 {
     plumb_report_options def;
     opt = opts_or_default(opt, &def);
-    if (!out || !sw || plumb_sweep_row_count(sw) == 0)
+    if (!out || !sw || plumb_sweep_row_count(sw) == 0 || !first_computed_row(sw))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no sweep to write");
     size_t nr = plumb_sweep_row_count(sw);
     item_air **ia = calloc(nr, sizeof *ia);
@@ -2234,7 +2457,8 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
     plumb_status st = PLUMB_OK;
     for (size_t i = 0; st == PLUMB_OK && i < nr; i++)
-        st = prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
+        if (plumb_sweep_row_at(sw, i)->status == PLUMB_OK)
+            st = prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
     if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         st = emit_json(out, &j, j_sweep(&j, opt, sw, ia), diag);
@@ -2329,6 +2553,14 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
              rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
              rep->criterion ? ")" : "");
     wrapped(w, "  ", text);
+    const plumb_criterion *c = rep->criterion_info;
+    if (c) {
+        char src[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + 64];
+        snprintf(src, sizeof src, "%s: %s%s%s%s%s", c->id, c->source[0] ? c->source : "not given",
+                 status_note(c)[0] ? " (" : "", status_note(c), status_note(c)[0] ? ")" : "",
+                 c->kind == PLUMB_CRIT_HELMET_TEST ? "; a helmet test, not a safe limit" : "");
+        wrapped(w, "  source of ", src);
+    }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
         put(w, "\n");
@@ -2383,6 +2615,14 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
     snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
              plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
     csv_comment(w, text);
+    const plumb_criterion *c = rep->criterion_info;
+    if (c) {
+        char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 2];
+        snprintf(line, sizeof line, "criterion %s: %s, kind %s, limit %.*g J, source: %s, status %s",
+                 c->id, c->name, crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
+        csv_comment(w, line);
+    }
     put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
            "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
@@ -2414,6 +2654,10 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
     jset(j, lim, metric_key(rep->metric), jreal(j, rep->limit));
     if (rep->criterion)
         jset(j, lim, "criterion", jstr(j, rep->criterion));
+    if (rep->criterion_info) {
+        jset(j, lim, "criterion_source", jstr(j, rep->criterion_info->source));
+        jset(j, lim, "criterion_status", jstr(j, rep->criterion_info->status));
+    }
     json_t *items = jarr(j);
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];

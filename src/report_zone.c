@@ -140,12 +140,21 @@ static const char *t_energy(writer *w, double j)
 }
 
 
-/* A point as "12.3 m E, 4.56 m S". */
+/* 1 when a figure as printed ("0 m", "0.000 ft") is zero. */
+static int shows_zero(const char *s)
+{
+    size_t n = strcspn(s, " ");
+    return n > 0 && strspn(s, "0.") >= n;
+}
+
+/* A point as "12.3 m E, 4.56 m S". A coordinate that prints as zero is
+ * E or N whatever its sign: never "0 m S" for -1e-12 m. */
 static const char *t_point(writer *w, const double p[2])
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s, %s %s", t_len(w, fabs(p[0])), p[0] < 0.0 ? "W" : "E",
-             t_len(w, fabs(p[1])), p[1] < 0.0 ? "S" : "N");
+    const char *e = t_len(w, fabs(p[0])), *n = t_len(w, fabs(p[1]));
+    snprintf(b, NUMBUF, "%s %s, %s %s", e, p[0] < 0.0 && !shows_zero(e) ? "W" : "E", n,
+             p[1] < 0.0 && !shows_zero(n) ? "S" : "N");
     return b;
 }
 
@@ -162,6 +171,13 @@ static double key_unit(const writer *w, const char *key, const char **unit)
     if (plumb_profile_key_dim(key, &dim, NULL) != PLUMB_OK)
         dim = PLUMB_DIM_NONE;
     *unit = plumb_dim_si_unit(dim);
+    /* one spelling of square and cubic metres in every report */
+    if (dim == PLUMB_DIM_AREA)
+        *unit = "m²";
+    else if (dim == PLUMB_DIM_VOLUME)
+        *unit = "m³";
+    else if (dim == PLUMB_DIM_DENSITY)
+        *unit = "kg/m³";
     switch (dim) {
     case PLUMB_DIM_NONE: case PLUMB_DIM_FRACTION:
         *unit = "";
@@ -334,8 +350,10 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
         put(w, "  %-9s %s – %s, %zu of %zu samples above %s\n", pct(w, x->probability),
             pct(w, x->lo), pct(w, x->hi), x->count, z->samples, t_energy(w, c->energy_limit_j));
         char src[2 * PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 128];
-        snprintf(src, sizeof src, "%s [%s]; source: %s%s", c->name, c->id,
-                 c->source[0] ? c->source : "not given",
+        const char *note = status_note_of(c->status);
+        snprintf(src, sizeof src, "%s [%s]; source: %s%s%s%s%s", c->name, c->id,
+                 c->source[0] ? c->source : "not given", note[0] ? " (" : "", note,
+                 note[0] ? ")" : "",
                  c->kind == PLUMB_CRIT_HELMET_TEST
                      ? " (the energy a helmet is tested to, not a safe limit)" : "");
         wrapped(w, "            ", src);
@@ -506,6 +524,13 @@ static void csv_report(writer *w, const plumb_zone_report *rep)
     put(w, "# zone: %zu samples, seed %lu, confidence %s, intervals at %s, %zu threads (the "
            "figures do not depend on them)\n", r0->samples, r0->seed, csvnum(w, r0->confidence),
         csvnum(w, r0->ci_level), rep->threads);
+    /* the criteria of the exceedance rows, with their source and status */
+    for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
+        const plumb_criterion *cr = r0->zone.exceedance[k].criterion;
+        put(w, "# criterion %s: %s, limit %s J, source: %s, status %s\n", cr->id, cr->name,
+            csvnum(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
+            cr->status[0] ? cr->status : "not given");
+    }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
         for (size_t k = 0; k < r->n_inputs; k++)
@@ -594,6 +619,8 @@ static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
         jset(j, e, "criterion", jstr(j, x->criterion->id));
         jset(j, e, "name", jstr(j, x->criterion->name));
         jset(j, e, "energy_limit_j", jreal(j, x->criterion->energy_limit_j));
+        jset(j, e, "source", jstr(j, x->criterion->source));
+        jset(j, e, "status", jstr(j, x->criterion->status));
         jset(j, e, "count", jint(j, x->count));
         jset(j, e, "probability", jreal(j, x->probability));
         jset(j, e, "ci", jpair(j, x->lo, x->hi));

@@ -21,6 +21,7 @@ struct plumb_sweep {
     size_t n_axes;
     plumb_range axes[PLUMB_MAX_AXES];
     size_t n_rows;
+    size_t n_failed;            /* rows without figures (status != PLUMB_OK) */
     plumb_sweep_row *rows;
     plumb_profile **profiles;   /* one per row, owned */
     plumb_atmosphere **atms;    /* one per row, owned (verdict warnings use it) */
@@ -39,15 +40,14 @@ static const char *trim(char *s)
 #define RANGE_ERROR(diag, st, what, ...) \
     PLUMB_RAISE_AT((diag), (st), "<command line>", 0, 0, (what), __VA_ARGS__)
 
-plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb_dim dim,
-                               const char *what, plumb_range *out, plumb_diag *diag)
+/* Splits "FROM:TO:STEP" of `text` into buf, the three parts trimmed. */
+static plumb_status range_split(const char *text, const char *what, char *buf, size_t size,
+                                const char *parts[3], plumb_diag *diag)
 {
-    char buf[256];
-    if (snprintf(buf, sizeof buf, "%s", text) >= (int)sizeof buf)
+    if (snprintf(buf, size, "%s", text) >= (int)size)
         return RANGE_ERROR(diag, PLUMB_EPARSE, what, "range too long: '%s'", text);
-    char *parts[3], *p = buf;
+    char *p = buf;
     for (int i = 0; i < 3; i++) {
-        parts[i] = p;
         char *colon = strchr(p, ':');
         if (i < 2 && !colon)
             return RANGE_ERROR(diag, PLUMB_EPARSE, what,
@@ -56,31 +56,51 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
         if (i == 2 && colon)
             return RANGE_ERROR(diag, PLUMB_EPARSE, what,
                                "expected FROM:TO:STEP, three parts; found '%s'", text);
-        if (colon) {
+        if (colon)
             *colon = '\0';
+        parts[i] = trim(p);
+        if (colon)
             p = colon + 1;
-        }
     }
+    return PLUMB_OK;
+}
+
+plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb_dim dim,
+                               const char *what, plumb_range *out, plumb_diag *diag)
+{
+    char buf[256];
+    const char *parts[3];
+    plumb_status st = range_split(text, what, buf, sizeof buf, parts, diag);
+    if (st != PLUMB_OK)
+        return st;
     static const char *const names[3] = {"FROM", "TO", "STEP"};
+    /* A step is a difference: "5 degC" as a step is 5 K, not 278.15 K. */
+    plumb_dim dims[3] = {dim, dim, dim == PLUMB_DIM_TEMPERATURE ? PLUMB_DIM_TEMP_DIFF : dim};
     double si[3], num[3];
     char unit[3][PLUMB_UNIT_TEXT];
+    int typed = 1; /* 1: all three are NUMBER UNIT in one unit, and count in it */
     for (int i = 0; i < 3; i++) {
-        const char *part = trim(parts[i]);
         plumb_diag d;
         plumb_diag_clear(&d);
-        plumb_status st = plumb_units_parse(units, part, dim, &si[i], &d);
+        st = plumb_units_parse(units, parts[i], dims[i], &si[i], &d);
         if (st != PLUMB_OK)
-            return RANGE_ERROR(diag, st, what, "%s '%s': %s", names[i], part, d.message);
+            return RANGE_ERROR(diag, st, what, "%s '%s': %s", names[i], parts[i], d.message);
         char *end = NULL;
-        num[i] = strtod(part, &end);
+        num[i] = strtod(parts[i], &end);
         char rest[PLUMB_UNIT_TEXT];
         plumbp_strlcpy(rest, end ? end : "", sizeof rest);
         plumbp_strlcpy(unit[i], trim(rest), sizeof unit[i]);
+        /* the number and unit must give back the quantity udunits read */
+        double back = num[i];
+        if (!end || end == parts[i] || !plumbp_finite(num[i]) ||
+            (unit[i][0] && plumb_units_to_si(units, num[i], unit[i], dims[i], &back, NULL) != PLUMB_OK) ||
+            !(fabs(back - si[i]) <= 1e-12 * fabs(si[i])))
+            typed = 0;
     }
+    typed = typed && strcmp(unit[0], unit[1]) == 0 && strcmp(unit[1], unit[2]) == 0;
     memset(out, 0, sizeof *out);
     out->dim = dim;
-    if (strcmp(unit[0], unit[1]) == 0 && strcmp(unit[1], unit[2]) == 0) {
-        /* one unit for all three: count in it */
+    if (typed) {
         plumbp_strlcpy(out->unit, unit[0], sizeof out->unit);
         out->from = num[0];
         out->to = num[1];
@@ -92,14 +112,20 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
         out->to = si[1];
         out->step = si[2];
     }
-    if (!(si[2] > 0.0))
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "STEP must be > 0, found '%s'", parts[2]);
-    if (si[0] > si[1])
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "FROM (%s) must not exceed TO (%s)", parts[0],
-                           parts[1]);
-    double span = (out->to - out->from) / out->step;
+    /* Signs and the count in the unit the values are counted in. */
+    if (out->step == 0.0)
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "STEP must not be zero, found '%s'",
+                           parts[2]);
+    if ((out->to > out->from && out->step < 0.0) || (out->to < out->from && out->step > 0.0))
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+                           "STEP '%s' goes the wrong way: from %s %s to %s needs a %s STEP",
+                           parts[2], parts[0], out->to > out->from ? "up" : "down", parts[1],
+                           out->to > out->from ? "positive" : "negative");
+    double span = (out->to - out->from) / out->step; /* >= 0, in double: never wraps */
     if (!(span < (double)PLUMB_RANGE_MAX_VALUES))
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "'%s' makes more than %u values; use a larger STEP", text,
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+                           "'%s' makes %s%.*g values, more than %u; use a larger STEP", text,
+                           span < 1e12 ? "" : "about ", span < 1e12 ? 12 : 2, floor(span) + 1.0,
                            PLUMB_RANGE_MAX_VALUES);
     /* the relative slack lets 0:1:0.1 end on 1 despite rounding */
     out->n = (size_t)floor(span * (1.0 + 1e-12) + 1e-12) + 1;
@@ -127,8 +153,8 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
             plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
         return st;
     }
-    char what[PLUMB_DIAG_KEY];
-    snprintf(what, sizeof what, "%s", key);
+    char what[PLUMB_DIAG_KEY + 8];
+    snprintf(what, sizeof what, "--vary %s", key);
     st = plumb_range_parse(units, eq + 1, dim, what, out, diag);
     if (st == PLUMB_OK)
         plumbp_strlcpy(out->key, key, sizeof out->key);
@@ -138,7 +164,7 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
 double plumb_range_value(const plumb_range *r, size_t i)
 {
     double v = r->from + (double)i * r->step;
-    if (v > r->to)
+    if ((r->step > 0.0 && v > r->to) || (r->step < 0.0 && v < r->to))
         v = r->to;
     char buf[64];
     snprintf(buf, sizeof buf, "%.*g", RANGE_DIGITS, v);
@@ -177,7 +203,10 @@ void plumb_sweep_free(plumb_sweep *s)
     free(s);
 }
 
-/* Runs one row; its derived profile and atmosphere go into the sweep. */
+/* Runs one row; its derived profile and atmosphere go into the sweep.
+ * A row that cannot be computed (a value out of range, a fall that never
+ * lands ...) keeps its status and diagnostic in the row, no figures, and
+ * returns PLUMB_OK; only running out of memory stops the sweep. */
 static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
                             const plumb_units *units, const plumb_criteria *crit,
                             plumb_trajectory *traj, plumb_diag *diag)
@@ -191,38 +220,56 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         row->value[a] = plumb_range_value(&s->axes[a], row->index[a]);
         row->value_si[a] = plumb_range_value_si(&s->axes[a], units, row->index[a]);
     }
-    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], diag);
-    if (st != PLUMB_OK && diag && strcmp(diag->file, "--set") == 0) {
+    plumb_diag *rd = &row->error;
+    plumb_diag_clear(rd);
+    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], rd);
+    if (st != PLUMB_OK && strcmp(rd->file, "--set") == 0) {
         /* the override is the sweep's own, made from --vary */
-        plumbp_strlcpy(diag->file, "--vary", sizeof diag->file);
-        diag->line = diag->col = 0;
+        plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
+        rd->line = rd->col = 0;
     }
     if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], diag);
-    if (st != PLUMB_OK)
-        return st;
+        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], rd);
     const plumb_profile *p = s->profiles[r];
-    size_t n = plumb_profile_item_count(p);
-    row->report.profile = p;
-    row->report.n_items = n;
-    row->report.items = calloc(n ? n : 1, sizeof *row->report.items);
-    if (!row->report.items)
-        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
-    for (size_t i = 0; i < n; i++) {
+    size_t n = st == PLUMB_OK ? plumb_profile_item_count(p) : 0;
+    if (st == PLUMB_OK) {
+        row->report.profile = p;
+        row->report.items = calloc(n ? n : 1, sizeof *row->report.items);
+        if (!row->report.items)
+            return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+        row->report.n_items = n;
+    }
+    for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
         plumb_item_report *it = &row->report.items[i];
         it->spec = plumb_profile_item(p, i);
         it->shape = plumb_profile_item_shape(p, i);
-        st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, diag);
+        st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, rd);
         if (st == PLUMB_OK)
-            st = plumb_item_judge(it, p, crit, s->atms[r], diag);
-        if (st != PLUMB_OK) {
-            char where[PLUMB_DIAG_MSG + PLUMB_DIAG_KEY + 80];
-            snprintf(where, sizeof where, "%s (at %s)", diag ? diag->message : "",
-                     sets[s->n_axes - 1]);
-            if (diag)
-                plumbp_strlcpy(diag->message, where, sizeof diag->message);
-            return st;
+            st = plumb_item_judge(it, p, crit, s->atms[r], rd);
+        if (st != PLUMB_OK && plumb_profile_is_inventory(p)) {
+            /* name the item whose fall failed */
+            char where[PLUMB_DIAG_MSG + PLUMB_NAME + 16];
+            snprintf(where, sizeof where, "item %s: %s", it->spec->name, rd->message);
+            plumbp_strlcpy(rd->message, where, sizeof rd->message);
         }
+    }
+    if (st == PLUMB_ENOMEM) {
+        if (diag)
+            *diag = *rd;
+        return st;
+    }
+    if (st != PLUMB_OK) {
+        if (rd->status == PLUMB_OK)
+            rd->status = st;
+        row->status = st;
+        /* no figures for this row: its profile and air go too */
+        free(row->report.items);
+        memset(&row->report, 0, sizeof row->report);
+        plumb_atmosphere_free(s->atms[r]);
+        plumb_profile_free(s->profiles[r]);
+        s->atms[r] = NULL;
+        s->profiles[r] = NULL;
+        s->n_failed++;
     }
     return PLUMB_OK;
 }
@@ -237,10 +284,25 @@ plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *un
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "a sweep takes one or two --vary ranges");
     if (n_axes == 2 && strcmp(axes[0].key, axes[1].key) == 0)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, axes[0].key, "the same key is varied twice");
-    size_t total = axes[0].n * (n_axes == 2 ? axes[1].n : 1);
-    if (total > PLUMB_SWEEP_MAX_ROWS)
-        return PLUMB_RAISE(diag, PLUMB_ERANGE, "the sweep has %zu rows, more than %u; use larger steps",
-                           total, PLUMB_SWEEP_MAX_ROWS);
+    /* The rows in double: a product of two counts never wraps. */
+    double rows = 1.0;
+    for (size_t a = 0; a < n_axes; a++) {
+        if (axes[a].n < 1 || axes[a].n > PLUMB_RANGE_MAX_VALUES)
+            return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, axes[a].key,
+                                  "a range has 1 to %u values, found %zu",
+                                  PLUMB_RANGE_MAX_VALUES, axes[a].n);
+        rows *= (double)axes[a].n;
+    }
+    if (rows > (double)PLUMB_SWEEP_MAX_ROWS) {
+        if (n_axes == 2)
+            return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, "--vary",
+                                  "%zu x %zu values make %.0f rows, more than %u; use larger "
+                                  "steps", axes[0].n, axes[1].n, rows, PLUMB_SWEEP_MAX_ROWS);
+        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, "--vary",
+                              "%zu values make more than %u rows; use a larger step", axes[0].n,
+                              PLUMB_SWEEP_MAX_ROWS);
+    }
+    size_t total = (size_t)rows;
     plumb_sweep *s = calloc(1, sizeof *s);
     if (!s)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
@@ -265,6 +327,26 @@ plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *un
             return st;
         }
     }
+    if (s->n_failed == total) {
+        /* No row has figures: the range itself is at fault (a key the
+         * profile cannot take, every value out of range) or nothing
+         * lands; report the first row's error, naming its values. */
+        plumb_status st = s->rows[0].status;
+        if (diag) {
+            *diag = s->rows[0].error;
+            char at[PLUMB_MAX_AXES * (PLUMB_DIAG_KEY + 64) + 16] = "", one[PLUMB_DIAG_KEY + 64];
+            for (size_t a = 0; a < n_axes; a++) {
+                plumb_range_set_text(&s->axes[a], 0, one, sizeof one);
+                snprintf(at + strlen(at), sizeof at - strlen(at), "%s%s", a ? ", " : "", one);
+            }
+            char msg[PLUMB_DIAG_MSG + sizeof at + 64];
+            snprintf(msg, sizeof msg, "%s (at %s; no row of the sweep could be computed)",
+                     diag->message, at);
+            plumbp_strlcpy(diag->message, msg, sizeof diag->message);
+        }
+        plumb_sweep_free(s);
+        return st;
+    }
     *out = s;
     return PLUMB_OK;
 }
@@ -282,6 +364,11 @@ const plumb_range *plumb_sweep_axis(const plumb_sweep *s, size_t i)
 size_t plumb_sweep_row_count(const plumb_sweep *s)
 {
     return s->n_rows;
+}
+
+size_t plumb_sweep_failed_count(const plumb_sweep *s)
+{
+    return s->n_failed;
 }
 
 const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i)

@@ -117,6 +117,52 @@ static inline size_t shown_width(const char *s)
     return n;
 }
 
+/* A unit as typed ("m^2", "m2", "m**2", "kg/m^3") as the reports spell
+ * it ("m²", "kg/m³"): one spelling of square and cubic units whatever the
+ * user typed. Other text is returned as it is. */
+static inline const char *unit_shown(writer *w, const char *u)
+{
+    char *b = slot(w);
+    size_t n = 0;
+    for (const char *p = u; *p && n + 3 < NUMBUF;) {
+        const char *sup = NULL;
+        size_t skip = 0;
+        char d = 0;
+        if (p[0] == '^' && (p[1] == '2' || p[1] == '3'))
+            d = p[1], skip = 2;
+        else if (p[0] == '*' && p[1] == '*' && (p[2] == '2' || p[2] == '3'))
+            d = p[2], skip = 3;
+        else if ((p[0] == '2' || p[0] == '3') && p > u && isalpha((unsigned char)p[-1]))
+            d = p[0], skip = 1;
+        /* only a whole exponent: "m^2" and "m2/s", never the 2 of "m^25" */
+        if (d && isdigit((unsigned char)p[skip]))
+            d = 0;
+        if (d)
+            sup = d == '2' ? "\xC2\xB2" : "\xC2\xB3";
+        if (sup) {
+            b[n++] = sup[0];
+            b[n++] = sup[1];
+            p += skip;
+        } else {
+            b[n++] = *p++;
+        }
+    }
+    b[n] = '\0';
+    return b;
+}
+
+/* How sure a criterion's figure is when it was not read in the source
+ * itself (criteria files' status: seen | transcribed | memory), for every
+ * report that names the criterion; "" for a figure seen in the source. */
+static inline const char *status_note_of(const char *status)
+{
+    if (strcmp(status, "memory") == 0)
+        return "figure from memory, not confirmed in the source";
+    if (strcmp(status, "transcribed") == 0)
+        return "figure transcribed from a copy of the source";
+    return "";
+}
+
 /* s padded with spaces to `width` shown characters, left or right aligned. */
 static inline void pad(writer *w, const char *s, size_t width, int right)
 {

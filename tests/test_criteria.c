@@ -5,7 +5,14 @@
  * the loader is provoked and located. Reference values: 1 ft lbf =
  * 0.3048 m x 0.45359237 kg x 9.80665 m/s^2 = 1.3558179483314004 J exactly
  * (1959 international yard and pound agreement; CGPM 1901 standard
- * gravity); 14 CFR 107.130(a)(1): 25 ft lbf (references.md, seen).
+ * gravity); 14 CFR 107.130(a)(1) (Part 107, Subpart D, in force from
+ * 21 April 2021): 25 ft lbf (seen).
+ *
+ * The bundled criteria (profiles/criteria) are checked against their
+ * published figures or the conditions of the test they come from, each
+ * source named beside its check: an exact published figure must be exact,
+ * and a figure derived from a test's conditions may be rounded only
+ * toward the strict side (down), never toward the lenient side.
  */
 #include <stdarg.h>
 #include <stddef.h>
@@ -208,6 +215,113 @@ static void test_bundled_part_107_category_3_limit_is_25_ft_lbf(void **state)
     assert_int_equal(c->kind, PLUMB_CRIT_LIMIT);
     for (size_t i = 1; i < plumb_criteria_count(set); i++)
         assert_true(strcmp(plumb_criteria_get(set, i - 1)->id, plumb_criteria_get(set, i)->id) < 0);
+    plumb_criteria_free(set);
+}
+
+/* 1 ft lbf in J: 0.3048 m x 0.45359237 kg x 9.80665 m/s^2, exact (1959
+ * international yard and pound agreement; CGPM 1901 standard gravity). */
+#define FT_LBF_J (0.3048 * 0.45359237 * 9.80665)
+/* Standard gravity, m/s^2 (CGPM 1901), for m g h of a drop test. */
+#define G0 9.80665
+
+/* One bundled criterion: the figure its source gives or implies, and how
+ * the file may state it. */
+typedef struct bundled {
+    const char *id;
+    double published_j;  /* the published figure, or the test's energy */
+    double round_rel;    /* 0: exact; else the most it may sit below, relative */
+    int strict;          /* 1: "less than" (reaching it exceeds) */
+    const char *status;  /* seen | transcribed | memory */
+} bundled;
+
+static const bundled bundled_criteria[] = {
+    /* DDESB Technical Paper No. 12: 58 ft lbf (transcribed) */
+    {"ddesb-fragment-79j", 58.0 * FT_LBF_J, 0.0, 0, "transcribed"},
+    /* EN 397:2012+A1:2012 penetration: 3 kg striker dropped 1 m, m g h (memory) */
+    {"en397-penetration-29j", 3.0 * G0 * 1.0, 0.005, 0, "memory"},
+    /* EN 397:2012+A1:2012 shock absorption: 5.0 kg striker dropped 1 m (memory) */
+    {"en397-shock-49j", 5.0 * G0 * 1.0, 0.005, 0, "memory"},
+    /* Commission Delegated Regulation (EU) 2019/945, Annex, Part 2: less
+     * than 80 J (transcribed) */
+    {"eu-c1-80j", 80.0, 0.0, 1, "transcribed"},
+    /* 14 CFR 107.120(a)(1): 11 ft lbf (transcribed) */
+    {"us-part107-cat2", 11.0 * FT_LBF_J, 0.0, 0, "transcribed"},
+    /* 14 CFR 107.130(a)(1): 25 ft lbf (seen) */
+    {"us-part107-cat3", 25.0 * FT_LBF_J, 0.0, 0, "seen"},
+    /* ANSI/ISEA Z89.1-2014 Type I: 3.6 kg at 5.5 m/s, 1/2 m v^2 (memory) */
+    {"z89-type1-54j", 0.5 * 3.6 * 5.5 * 5.5, 0.01, 0, "memory"},
+    /* ANSI/ISEA Z89.1-2014 Type II: 5 kg at 3.5 m/s, 1/2 m v^2 = 30.625 J (memory) */
+    {"z89-type2-30j", 0.5 * 5.0 * 3.5 * 3.5, 0.005, 0, "memory"},
+};
+enum { N_BUNDLED = sizeof bundled_criteria / sizeof bundled_criteria[0] };
+
+static plumb_criteria *load_bundled(void)
+{
+    char dir[PATH_LEN];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    plumb_criteria *set = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    if (plumb_criteria_load_dir(dir, units, &set, &d) != PLUMB_OK)
+        fail_msg("%s: %s", dir, d.message);
+    return set;
+}
+
+/* Every bundled criterion is in the table above (a new file must be added
+ * to it), and none is rounded toward the lenient side: a published figure
+ * is exact, a test energy is at most the test's own and only a little
+ * below it. Regression: z89-type2-31j set 31 J for a 30.625 J test. */
+static void test_bundled_criteria_are_never_rounded_toward_the_lenient_side(void **state)
+{
+    (void)state;
+    plumb_criteria *set = load_bundled();
+    assert_int_equal(plumb_criteria_count(set), N_BUNDLED);
+    for (size_t i = 0; i < N_BUNDLED; i++) {
+        const bundled *b = &bundled_criteria[i];
+        const plumb_criterion *c = plumb_criteria_find(set, b->id);
+        if (!c)
+            fail_msg("no bundled criterion '%s'", b->id);
+        if (b->round_rel == 0.0) {
+            assert_rel(c->energy_limit_j, b->published_j, 1e-12);
+        } else if (!(c->energy_limit_j <= b->published_j &&
+                     c->energy_limit_j >= b->published_j * (1.0 - b->round_rel))) {
+            fail_msg("%s: limit %.6g J for a test energy of %.6g J: rounded toward the lenient "
+                     "side or too far", b->id, c->energy_limit_j, b->published_j);
+        }
+        assert_int_equal(c->strict, b->strict);
+        assert_string_equal(c->status, b->status);
+    }
+    assert_null(plumb_criteria_find(set, "z89-type2-31j"));
+    plumb_criteria_free(set);
+}
+
+/* Each bundled criterion cites its source in full in its own file: an
+ * edition (a year) in `source:`, and no path outside the repository. */
+static void test_bundled_criteria_cite_their_source_in_their_own_file(void **state)
+{
+    (void)state;
+    plumb_criteria *set = load_bundled();
+    for (size_t i = 0; i < plumb_criteria_count(set); i++) {
+        const plumb_criterion *c = plumb_criteria_get(set, i);
+        int year = 0;
+        for (const char *p = c->source; *p && !year; p++)
+            year = (p[0] == '1' || p[0] == '2') && (p[1] == '9' || p[1] == '0') &&
+                   p[2] >= '0' && p[2] <= '9' && p[3] >= '0' && p[3] <= '9';
+        if (!year)
+            fail_msg("%s: source '%s' names no edition", c->id, c->source);
+        char path[PATH_LEN * 2];
+        snprintf(path, sizeof path, "%s/profiles/criteria/%s.yaml", plumbt_srcdir(), c->id);
+        FILE *f = fopen(path, "rb");
+        assert_non_null(f);
+        char text[8192];
+        size_t n = fread(text, 1, sizeof text - 1, f);
+        fclose(f);
+        text[n] = '\0';
+        if (strstr(text, "references.md") || strstr(text, "../") || strstr(text, "shared/"))
+            fail_msg("%s cites a path outside the repository", path);
+        if (!strstr(text, "Source, in full:"))
+            fail_msg("%s has no full citation ('Source, in full:')", path);
+    }
     plumb_criteria_free(set);
 }
 
@@ -418,6 +532,8 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_criteria_load_in_file_name_order_with_ids_from_the_stems),
         cmocka_unit_test(test_bundled_part_107_category_3_limit_is_25_ft_lbf),
+        cmocka_unit_test(test_bundled_criteria_are_never_rounded_toward_the_lenient_side),
+        cmocka_unit_test(test_bundled_criteria_cite_their_source_in_their_own_file),
         cmocka_unit_test(test_eu_c1_less_than_80_j_is_exceeded_at_exactly_80_j),
         cmocka_unit_test(test_empty_directory_gives_an_empty_set),
         cmocka_unit_test(test_missing_directory_is_an_input_output_error),

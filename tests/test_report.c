@@ -7,10 +7,12 @@
  * Sources of the checked values:
  *   - 14 CFR 107.130(a)(1): 25 ft lbf (seen) and 14 CFR 107.120(a)(1):
  *     11 ft lbf (transcribed), with 1 ft lbf = 1.3558179483 J exactly
- *     (0.3048 m x 0.45359237 kg x 9.80665 m/s^2; references.md), so
+ *     (0.3048 m x 0.45359237 kg x 9.80665 m/s^2: 1959 international yard
+ *     and pound agreement, CGPM 1901 standard gravity), so
  *     33.895 J and 14.914 J.
- *   - EN 397 shock absorption test energy 49 J (references.md, transcribed
- *     table; a helmet test, not a safe limit).
+ *   - EN 397:2012+A1:2012 shock absorption test energy 49 J (a 5.0 kg
+ *     striker dropped 1 m; from memory, not confirmed in the standard; a
+ *     helmet test, not a safe limit).
  *   - U.S. Standard Atmosphere 1976, Table I at 0 m (references.md).
  *   - IEEE 754-2008 section 5.12.2: 17 significant decimal digits recover
  *     any binary64 value exactly.
@@ -37,7 +39,7 @@
 
 /* 1 ft lbf in J, exact by definition: the international foot 0.3048 m and
  * pound 0.45359237 kg (1959 agreement) under standard gravity 9.80665 m/s^2
- * (CGPM 1901); references.md quotes it as 1.3558179483 J. */
+ * (CGPM 1901): 1.3558179483 J to ten decimals. */
 #define FT_LBF_J (0.3048 * 0.45359237 * 9.80665)
 
 typedef struct fixture {
@@ -97,7 +99,8 @@ static int setup(void **state)
                      "applies_to: rigid object striking a person\n"
                      "source: 14 CFR 107.120(a)(1)\n"
                      "status: transcribed\n");
-    /* EN 397 shock absorption, 49 J (references.md, transcribed). */
+    /* EN 397:2012+A1:2012 shock absorption, 49 J (from memory; the
+     * fixture's status is its own). */
     snprintf(path, sizeof path, "%s/en397-shock-49j.yaml", fx->crit_dir);
     write_file(path, "name: EN 397 helmet shock absorption test\n"
                      "kind: helmet-test\n"
@@ -438,6 +441,37 @@ static void test_part107_verdicts_use_33_895_and_14_914_joules(void **state)
     plumb_profile_free(p);
 }
 
+/* A ratio that prints as 1.00 keeps the side of the limit it is on: the
+ * verdict word is beside it in text and CSV. Energies 0.04 % below and
+ * above 25 ft lbf (14 CFR 107.130(a)(1), seen; 1 ft lbf = 1.3558179483 J):
+ * ratios 0.9996 and 1.0004, both 1.00 to three figures. */
+static void test_a_ratio_printed_as_one_shows_its_verdict_beside_it(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    static const double factor[2] = {0.9996, 1.0004};
+    static const char *const text_want[2] = {"ratio 1.00, within", "ratio 1.00, exceeds"};
+    static const char *const csv_want[2] = {",0.9996,within,", ",1.0004,exceeds,"};
+    for (int i = 0; i < 2; i++) {
+        double e = factor[i] * 25.0 * FT_LBF_J;
+        plumb_item_report it = judged_spanner(fx, p, sqrt(2.0 * e / 2.385));
+        assert_rel(it.verdicts[0].ratio, factor[i], 1e-12);
+        plumb_status st;
+        plumb_diag diag;
+        char *text = fall_report(p, &it, 1, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, &st, &diag);
+        assert_int_equal(st, PLUMB_OK);
+        if (!strstr(text, text_want[i]))
+            fail_msg("text lacks '%s':\n%s", text_want[i], text);
+        free(text);
+        char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
+        assert_int_equal(st, PLUMB_OK);
+        if (!strstr(csv, csv_want[i]))
+            fail_msg("CSV lacks '%s':\n%s", csv_want[i], csv);
+        free(csv);
+    }
+    plumb_profile_free(p);
+}
+
 static void test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems(void **state)
 {
     fixture *fx = *state;
@@ -683,6 +717,72 @@ static void test_air_json_rows_carry_the_1976_sea_level_values(void **state)
     free(buf);
 }
 
+/* The air table with a temperature offset states it in every format, and
+ * its JSON names the program version like every other report. The row is
+ * the 1976 sea-level air 10 K warmer: T = 288.15 + 10 = 298.15 K (U.S.
+ * Standard Atmosphere 1976, T0 = 288.15 K, transcribed); 10 K is 18 degF
+ * as a difference (NIST SP 811 (2008) B.9: 1 K = 1.8 degF). */
+static void test_air_table_states_its_temperature_offset_in_every_format(void **state)
+{
+    (void)state;
+    plumb_air row;
+    assert_int_equal(plumb_std1976(0.0, 10.0, &row), PLUMB_OK);
+    assert_rel(row.t_k, 298.15, 1e-12);
+    plumb_air_table t = {&row, 1, 10.0};
+    static const char *const want[3] = {"temperature offset +10 K",
+                                        "\"temperature_offset_k\": 10.0",
+                                        "# model: U.S. Standard Atmosphere 1976, temperature "
+                                        "offset +10 K"};
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        char *buf = NULL;
+        size_t len = 0;
+        FILE *out = open_memstream(&buf, &len);
+        plumb_report_options opt = {(plumb_format)f, PLUMB_UNITS_SI, "9.9.9"};
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_OK);
+        fclose(out);
+        if (!strstr(buf, want[f]))
+            fail_msg("air report (format %d) lacks '%s':\n%s", f, want[f], buf);
+        if (f == PLUMB_FORMAT_JSON) {
+            json_t *root = json_loads(buf, 0, NULL);
+            assert_non_null(root);
+            assert_string_equal(json_string_value(json_object_get(root, "plumb_version")), "9.9.9");
+            assert_true(json_real_value(json_object_get(root, "temperature_offset_k")) == 10.0);
+            json_decref(root);
+        }
+        free(buf);
+    }
+    /* US text: the offset as a difference in degF beside kelvin */
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *out = open_memstream(&buf, &len);
+    plumb_report_options opt = {PLUMB_FORMAT_TEXT, PLUMB_UNITS_US, NULL};
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_OK);
+    fclose(out);
+    assert_non_null(strstr(buf, "temperature offset +18 °F (10 K)"));
+    free(buf);
+    /* a table with no offset says so */
+    buf = NULL;
+    out = open_memstream(&buf, &len);
+    opt.units = PLUMB_UNITS_SI;
+    assert_int_equal(plumb_report_air(out, &opt, &row, 1, &diag), PLUMB_OK);
+    fclose(out);
+    assert_non_null(strstr(buf, "no temperature offset"));
+    free(buf);
+    /* a non-finite offset is refused */
+    t.temperature_offset_k = NAN;
+    buf = NULL;
+    out = open_memstream(&buf, &len);
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_ENUMERIC);
+    fclose(out);
+    assert_int_equal(len, 0);
+    free(buf);
+}
+
 /* ---- CSV ----------------------------------------------------------------- */
 
 static void test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says(void **state)
@@ -805,6 +905,7 @@ int main(void)
         cmocka_unit_test(test_infinite_energy_ratio_is_refused_with_nothing_written),
         cmocka_unit_test(test_non_finite_air_density_is_refused_with_nothing_written),
         cmocka_unit_test(test_part107_verdicts_use_33_895_and_14_914_joules),
+        cmocka_unit_test(test_a_ratio_printed_as_one_shows_its_verdict_beside_it),
         cmocka_unit_test(test_energy_is_shown_in_joules_and_foot_pounds_in_both_unit_systems),
         cmocka_unit_test(test_unknown_named_criterion_is_a_key_error_with_did_you_mean),
         cmocka_unit_test(test_unknown_criterion_from_set_names_set_and_the_nearest_id),
@@ -815,6 +916,7 @@ int main(void)
         cmocka_unit_test(test_json_has_the_keys_of_design_section_6),
         cmocka_unit_test(test_json_numbers_read_back_to_the_same_double),
         cmocka_unit_test(test_air_json_rows_carry_the_1976_sea_level_values),
+        cmocka_unit_test(test_air_table_states_its_temperature_offset_in_every_format),
         cmocka_unit_test(test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says),
         cmocka_unit_test(test_us_units_csv_names_columns_in_feet_and_pounds),
         cmocka_unit_test(test_inventory_names_the_worst_item_and_the_largest_drift),

@@ -29,6 +29,7 @@
 #include "plumb/profile.h"
 #include "plumb/trajectory.h"
 #include "plumb/atmosphere.h"
+#include "plumb/criteria.h"
 
 typedef enum plumb_metric {
     PLUMB_METRIC_ENERGY = 0,   /* impact energy, J */
@@ -76,6 +77,9 @@ typedef struct plumb_limit_report {
     const char *criterion;               /* id of the criterion the limit came from, or NULL */
     size_t n_items;                      /* one answer per item */
     const plumb_limit_result *results;   /* borrowed array of n_items */
+    const plumb_criterion *criterion_info; /* that criterion (source, status), or NULL;
+                                            borrowed (new field, last, so older
+                                            initialisers still compile) */
 } plumb_limit_report;
 
 /* Defaults as documented on each field. Can't fail. */

@@ -62,6 +62,16 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets,
                                 plumb_profile **out, plumb_diag *diag);
 
+/* Loads and checks a profile from the len bytes at buf (not necessarily
+ * NUL-terminated), as plumb_profile_load does from a file: `name` stands
+ * for the file in diagnostics and reports ("<stdin>"), and the SHA-256 is
+ * of these bytes. More than PLUMB_PROFILE_MAX_BYTES is PLUMB_ERANGE.
+ * The buffer is not kept. On error *out is NULL, diag is filled, nothing
+ * is leaked. */
+plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t len,
+                                       const plumb_units *units, const char *const *sets,
+                                       size_t n_sets, plumb_profile **out, plumb_diag *diag);
+
 /* Makes a new profile from an already loaded one with more overrides
  * applied (no file is read again). Same errors as plumb_profile_load. */
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,

@@ -72,7 +72,20 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
 plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
                                const plumb_fall_report *rep, plumb_diag *diag);
 
-/* Writes an air-properties table (`plumb air`). */
+/* An air-properties table (`plumb air`): rows of the dry U.S. Standard
+ * Atmosphere 1976 with a temperature offset. */
+typedef struct plumb_air_table {
+    const plumb_air *rows;         /* borrowed array of n_rows */
+    size_t n_rows;
+    double temperature_offset_k;   /* added to the standard temperature, K */
+} plumb_air_table;
+
+/* Writes an air-properties table, stating the model and its temperature
+ * offset in every format. PLUMB_ENUMERIC if any figure is not finite. */
+plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
+                                    const plumb_air_table *table, plumb_diag *diag);
+
+/* The same for rows with no temperature offset. */
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
                               const plumb_air *rows, size_t n_rows, plumb_diag *diag);
 

@@ -4,8 +4,13 @@
  *
  * A range's values are computed in the unit the user typed when FROM, TO
  * and STEP share it, else in SI: value_i = FROM + i STEP for every value
- * not above TO, written with 15 significant digits (so 0.1 x 3 is "0.3",
- * as a user would type it); each value is handed to
+ * not past TO, written with 15 significant digits (so 0.1 x 3 is "0.3",
+ * as a user would type it). A range may run down (60m:2m:-2m); its STEP's
+ * sign is checked in the unit it is counted in, and a temperature's STEP
+ * is a difference (0degC:30degC:5degC counts 0, 5, ... 30 degC; -20degC is
+ * a step down, not 253.15 K). The count is made in double and refused
+ * above the cap before it is converted, so no range wraps round. Each
+ * value is handed to
  * the profile as the text "KEY=<value> <unit>", exactly as --set would
  * pass it. So every row of a sweep is bit for bit what `plumb fall --set
  * KEY=<value>` gives.
@@ -41,14 +46,19 @@ typedef struct plumb_range {
 
 /* Parses "FROM:TO:STEP" (each a quantity of dimension dim, e.g.
  * "2m:60m:2m" or "0 kn:25 kn:5 kn") into *out; `what` names the option
- * for messages ("--vary release.height"). STEP must be > 0, FROM <= TO,
- * all three of the same dimension; at most PLUMB_RANGE_MAX_VALUES values.
- * Errors: PLUMB_EPARSE (shape), PLUMB_EUNIT (units), PLUMB_ERANGE. */
+ * for messages ("--vary release.height", "--alt"), which go in the
+ * diagnostic's key with the file "<command line>". STEP must not be zero
+ * and must lead from FROM towards TO (negative when TO < FROM); all three
+ * of the same dimension (STEP a difference for a temperature); at most
+ * PLUMB_RANGE_MAX_VALUES values.
+ * Errors: PLUMB_EPARSE (shape), PLUMB_EUNIT (units), PLUMB_ERANGE (a zero
+ * STEP, one of the wrong sign, too many values). */
 plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb_dim dim,
                                const char *what, plumb_range *out, plumb_diag *diag);
 
 /* Parses "KEY=FROM:TO:STEP" for a numeric profile key (its dimension
- * from plumb_profile_key_dim). */
+ * from plumb_profile_key_dim), as the value of --vary: messages name
+ * "--vary KEY". */
 plumb_status plumb_range_parse_key(const plumb_units *units, const char *text,
                                    plumb_range *out, plumb_diag *diag);
 
@@ -61,19 +71,32 @@ double plumb_range_value_si(const plumb_range *r, const plumb_units *units, size
 /* "KEY=<value> <unit>" for the i-th value, as --set takes it. */
 void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size);
 
-/* One row: the axis values and the fall report of that profile. */
+/* One row: the axis values and the fall report of that profile, or why
+ * there is none. Fields added after `report` are new in this version; the
+ * struct is only ever handed out by the library. */
 typedef struct plumb_sweep_row {
     size_t index[PLUMB_MAX_AXES];      /* value index on each axis */
     double value[PLUMB_MAX_AXES];      /* value in the axis unit */
     double value_si[PLUMB_MAX_AXES];   /* value in SI */
-    plumb_fall_report report;          /* the fall(s), as `plumb fall` reports them */
+    plumb_fall_report report;          /* the fall(s), as `plumb fall` reports them;
+                                          n_items 0 and profile NULL when status != OK */
+    plumb_status status;               /* PLUMB_OK, or why this row has no figures */
+    plumb_diag error;                  /* when status != PLUMB_OK: where and why */
 } plumb_sweep_row;
 
 typedef struct plumb_sweep plumb_sweep;
 
 /* Runs the falls of `profile` over one or two ranges (the first varies
- * slowest), judging each against `criteria` as `plumb fall` does.
- * On error *out is NULL and diag names the row's key and value. */
+ * slowest), judging each against `criteria` as `plumb fall` does. More
+ * than PLUMB_SWEEP_MAX_ROWS rows (the product of the counts, computed
+ * without overflow) is PLUMB_ERANGE before anything runs.
+ * A row that cannot be computed (a value out of its key's range, a fall
+ * that never lands, the air model left ...) keeps its status and
+ * diagnostic in the row and the other rows are still computed; the sweep
+ * succeeds when at least one row has figures (plumb_sweep_failed_count
+ * says how many have none). When no row can be computed, or memory runs
+ * out, the sweep fails: *out is NULL and diag is the first row's error,
+ * naming its values. */
 plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *units,
                              const plumb_criteria *criteria, const plumb_range *axes,
                              size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
@@ -84,6 +107,8 @@ void plumb_sweep_free(plumb_sweep *s);
 size_t plumb_sweep_axis_count(const plumb_sweep *s);
 const plumb_range *plumb_sweep_axis(const plumb_sweep *s, size_t i);
 size_t plumb_sweep_row_count(const plumb_sweep *s);
+/* Rows without figures (status != PLUMB_OK). Can't fail. */
+size_t plumb_sweep_failed_count(const plumb_sweep *s);
 const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i);
 
 #endif /* PLUMB_SWEEP_H */

@@ -14,39 +14,76 @@
 
 #include "cli.h"
 
-static const char cli_common_help[] =
-    "Common options:\n"
-    "  --set KEY=VALUE      override a profile value, same keys and units as the YAML\n"
-    "                       (e.g. --set release.height=\"30 ft\"); repeatable\n"
-    "  --format FORMAT      text (default), json or csv\n"
-    "  --units SYSTEM       si (default) or us: display units of text and CSV\n"
-    "                       (JSON is always SI)\n"
-    "  -o, --output FILE    write the report to FILE (atomically), not to standard output\n"
-    "  --quiet              no notices on standard error\n"
-    "  --criteria-dir DIR   the criteria files (default: $PLUMB_CRITERIA_DIR, or the\n"
-    "                       installed or built-in profiles/criteria)\n"
-    "  --help               this help\n"
-    "  --version            the program version\n";
+/* The options every subcommand may accept (by its `accept` bits): how
+ * they are spelt, whether they take a value, and their help. */
+typedef struct cli_common {
+    const char *name;        /* "--output" */
+    const char *alias;       /* "-o", or NULL */
+    unsigned bit;            /* CLI_* accept bit, 0 for --help and --version */
+    int takes_value;
+    const char *arg;         /* its value in the help */
+    const char *help;        /* lines split by '\n' */
+} cli_common;
 
-/* The lines of cli_common_help each option has, by accept bit. */
-static void cli_print_common(unsigned accept)
+static const cli_common common_options[] = {
+    {"--set", NULL, CLI_SET, 1, "KEY=VALUE",
+     "override a profile value, same keys and units as the YAML\n"
+     "(e.g. --set release.height=\"30 ft\"); repeatable"},
+    {"--format", NULL, CLI_FORMAT, 1, "FORMAT", "text (default), json or csv"},
+    {"--units", NULL, CLI_UNITS, 1, "SYSTEM",
+     "si (default) or us: display units of text and CSV\n(JSON is always SI)"},
+    {"--output", "-o", CLI_OUTPUT, 1, "FILE",
+     "write the report to FILE (atomically), not to standard\noutput"},
+    {"--quiet", NULL, CLI_QUIET, 0, NULL, "no notices on standard error"},
+    {"--criteria-dir", NULL, CLI_CRITERIA, 1, "DIR",
+     "the criteria files (default: $PLUMB_CRITERIA_DIR, or the\n"
+     "installed or built-in profiles/criteria)"},
+    {"--help", "-h", 0, 0, NULL, "this help"},
+    {"--version", NULL, 0, 0, NULL, "the program version"},
+};
+enum { N_COMMON = sizeof common_options / sizeof common_options[0] };
+
+/* Column the help of an option starts at. */
+#define HELP_COL 23
+
+/* One option of the help: "  -o, --output FILE    write ...", its help's
+ * further lines indented to HELP_COL; a label too long for the column
+ * gets a line of its own. */
+static void cli_print_option(const char *alias, const char *name, const char *arg,
+                             const char *help)
 {
-    static const struct { unsigned bit; const char *prefix; int lines; } rows[] = {
-        {CLI_SET, "  --set ", 2},        {CLI_FORMAT, "  --format ", 1},
-        {CLI_UNITS, "  --units ", 2},    {CLI_OUTPUT, "  -o, --output ", 1},
-        {CLI_QUIET, "  --quiet ", 1},    {CLI_CRITERIA, "  --criteria-dir ", 2},
-        {0, "  --help ", 1},             {0, "  --version ", 1},
-    };
-    printf("\nOptions:\n");
-    for (size_t i = 0; i < sizeof rows / sizeof rows[0]; i++) {
-        if (rows[i].bit && !(accept & rows[i].bit))
-            continue;
-        const char *p = strstr(cli_common_help, rows[i].prefix);
-        for (int k = 0; p && k < rows[i].lines; k++) {
-            const char *nl = strchr(p, '\n');
-            printf("%.*s\n", (int)(nl - p), p);
-            p = nl + 1;
+    char label[128];
+    snprintf(label, sizeof label, "  %s%s%s%s%s", alias ? alias : "", alias ? ", " : "", name,
+             arg ? " " : "", arg ? arg : "");
+    size_t len = strlen(label);
+    if (len + 1 > HELP_COL)
+        printf("%s\n%*s", label, HELP_COL, "");
+    else
+        printf("%s%*s", label, (int)(HELP_COL - len), "");
+    for (const char *p = help; *p;) {
+        const char *nl = strchr(p, '\n');
+        size_t n = nl ? (size_t)(nl - p) : strlen(p);
+        printf("%.*s\n", (int)n, p);
+        p += n;
+        if (*p == '\n') {
+            p++;
+            printf("%*s", HELP_COL, "");
         }
+    }
+}
+
+/* The "Options:" list of --help: the command's own, then the common ones
+ * it accepts. */
+static void cli_print_options(unsigned accept, const cli_option *extra, size_t n_extra)
+{
+    printf("\nOptions:\n");
+    for (size_t i = 0; i < n_extra; i++)
+        cli_print_option(NULL, extra[i].name, extra[i].arg, extra[i].help ? extra[i].help : "");
+    for (size_t i = 0; i < N_COMMON; i++) {
+        const cli_common *c = &common_options[i];
+        if (c->bit && !(accept & c->bit))
+            continue;
+        cli_print_option(c->alias, c->name, c->arg, c->help);
     }
 }
 
@@ -133,7 +170,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
         }
         if (strcmp(arg, "--help") == 0 || strcmp(arg, "-h") == 0) {
             fputs(usage, stdout);
-            cli_print_common(accept);
+            cli_print_options(accept, extra, n_extra);
             cli_args_free(a);
             return CLI_EXIT_OK;
         }
@@ -144,37 +181,48 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
         }
         const char *name = NULL, *value = NULL;
         int found = 0;
-        static const struct { const char *name; unsigned bit; int takes_value; } common[] = {
-            {"--set", CLI_SET, 1},       {"--format", CLI_FORMAT, 1},
-            {"--units", CLI_UNITS, 1},   {"--output", CLI_OUTPUT, 1},
-            {"-o", CLI_OUTPUT, 1},       {"--quiet", CLI_QUIET, 0},
-            {"--criteria-dir", CLI_CRITERIA, 1},
-        };
-        for (size_t k = 0; !found && k < sizeof common / sizeof common[0]; k++) {
-            if (!(accept & common[k].bit) || !cli_is(arg, common[k].name))
+        for (size_t k = 0; !found && k < N_COMMON; k++) {
+            const cli_common *c = &common_options[k];
+            if (!c->bit || !(accept & c->bit))
+                continue;
+            if (cli_is(arg, c->name))
+                name = c->name;
+            else if (c->alias && cli_is(arg, c->alias))
+                name = c->alias;
+            else
                 continue;
             found = 1;
-            name = common[k].name;
-            if (!common[k].takes_value) {
+            if (!c->takes_value) {
                 if (arg[strlen(name)] == '=') {
                     cli_args_free(a);
                     return cli_usage_error(a->cmd, "%s takes no value", name);
                 }
             } else if (!(value = cli_value(argc, argv, &i, arg, strlen(name)))) {
                 cli_args_free(a);
-                return cli_usage_error(a->cmd, "%s needs a value", name);
+                return cli_usage_error(a->cmd, "%s needs a value (%s)", name, c->arg);
             }
+            name = c->name; /* -o is --output from here on */
         }
         for (size_t k = 0; !found && k < n_extra; k++) {
-            if (!cli_is(arg, extra[k].name))
+            cli_option *o = &extra[k];
+            if (!cli_is(arg, o->name))
                 continue;
             found = 1;
-            name = extra[k].name;
+            name = o->name;
             if (!(value = cli_value(argc, argv, &i, arg, strlen(name)))) {
                 cli_args_free(a);
-                return cli_usage_error(a->cmd, "%s needs a value", name);
+                return cli_usage_error(a->cmd, "%s needs a value (%s)", name,
+                                       o->arg ? o->arg : "see --help");
             }
-            extra[k].value = value;
+            if (o->max > 0 && o->n_values >= o->max) {
+                cli_args_free(a);
+                return cli_usage_error(a->cmd, "%s may be given at most %zu time%s", name,
+                                       o->max, o->max == 1 ? "" : "s");
+            }
+            if (o->max > 0 && o->n_values < CLI_OPTION_VALUES)
+                o->values[o->n_values] = value;
+            o->n_values++;
+            o->value = value;
         }
         if (!found) {
             cli_args_free(a);
@@ -207,10 +255,10 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 cli_args_free(a);
                 return cli_usage_error(a->cmd, "--units must be si or us, found '%s'", value);
             }
-        } else if (strcmp(name, "--output") == 0 || strcmp(name, "-o") == 0) {
+        } else if (strcmp(name, "--output") == 0) {
             if (value[0] == '\0') {
                 cli_args_free(a);
-                return cli_usage_error(a->cmd, "%s needs a file name", name);
+                return cli_usage_error(a->cmd, "%s needs a file name", arg[1] == 'o' ? "-o" : name);
             }
             a->output = value;
         } else if (strcmp(name, "--quiet") == 0) {
@@ -225,18 +273,26 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
 int cli_same_file(const char *out, const char *in)
 {
     struct stat so, si;
-    if (!out || !in || stat(out, &so) != 0 || stat(in, &si) != 0)
+    if (!out || !in || strcmp(in, "-") == 0 || stat(out, &so) != 0 || stat(in, &si) != 0)
         return 0;
     return so.st_dev == si.st_dev && so.st_ino == si.st_ino;
 }
 
-static plumb_status cli_io_error(plumb_diag *diag, const char *path, const char *what, int err)
+/* A failed read of the user's input is PLUMB_EIO (exit 2); a failed write of
+ * a report is PLUMB_EWRITE (exit 3), not the user's fault. */
+static plumb_status cli_io_status(plumb_diag *diag, plumb_status st, const char *path,
+                                  const char *what, int err)
 {
     plumb_diag_clear(diag);
-    diag->status = PLUMB_EWRITE;
+    diag->status = st;
     snprintf(diag->file, sizeof diag->file, "%s", path);
     snprintf(diag->message, sizeof diag->message, "%s: %s", what, strerror(err));
-    return PLUMB_EWRITE;
+    return st;
+}
+
+static plumb_status cli_io_error(plumb_diag *diag, const char *path, const char *what, int err)
+{
+    return cli_io_status(diag, PLUMB_EWRITE, path, what, err);
 }
 
 static int cli_write_all(int fd, const char *buf, size_t len)
@@ -299,6 +355,71 @@ plumb_status cli_write_output(const char *path, const char *buf, size_t len, plu
         close(dfd);
     }
     return PLUMB_OK;
+}
+
+/* Reads standard input to its end into a malloc'd buffer (*buf, *len);
+ * more than `max` bytes is PLUMB_ERANGE, a read error PLUMB_EIO. */
+static plumb_status cli_read_stdin(size_t max, char **buf, size_t *len, plumb_diag *diag)
+{
+    *buf = NULL;
+    *len = 0;
+    size_t cap = 0, n = 0;
+    char *b = NULL;
+    for (;;) {
+        if (n == cap) {
+            if (cap > max) {
+                free(b);
+                plumb_diag_clear(diag);
+                diag->status = PLUMB_ERANGE;
+                snprintf(diag->file, sizeof diag->file, "%s", CLI_STDIN_NAME);
+                snprintf(diag->message, sizeof diag->message,
+                         "standard input holds more than %zu bytes, the most a profile may have",
+                         max);
+                return PLUMB_ERANGE;
+            }
+            size_t ncap = cap ? cap * 2 : 65536;
+            char *nb = realloc(b, ncap);
+            if (!nb) {
+                free(b);
+                plumb_diag_clear(diag);
+                diag->status = PLUMB_ENOMEM;
+                snprintf(diag->message, sizeof diag->message, "out of memory reading standard input");
+                return PLUMB_ENOMEM;
+            }
+            b = nb;
+            cap = ncap;
+        }
+        ssize_t got = read(STDIN_FILENO, b + n, cap - n);
+        if (got < 0 && errno == EINTR)
+            continue;
+        if (got < 0) {
+            int err = errno;
+            free(b);
+            return cli_io_status(diag, PLUMB_EIO, CLI_STDIN_NAME, "cannot read standard input", err);
+        }
+        if (got == 0)
+            break;
+        n += (size_t)got;
+    }
+    *buf = b;
+    *len = n;
+    return PLUMB_OK;
+}
+
+plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
+                              plumb_profile **out, plumb_diag *diag)
+{
+    if (strcmp(path, "-") != 0)
+        return plumb_profile_load(path, units, a->sets, a->n_sets, out, diag);
+    *out = NULL;
+    char *buf;
+    size_t len;
+    plumb_status st = cli_read_stdin(PLUMB_PROFILE_MAX_BYTES, &buf, &len, diag);
+    if (st != PLUMB_OK)
+        return st;
+    st = plumb_profile_load_buffer(CLI_STDIN_NAME, buf, len, units, a->sets, a->n_sets, out, diag);
+    free(buf);
+    return st;
 }
 
 static int cli_is_dir(const char *path)

@@ -39,11 +39,21 @@ enum {
     CLI_CRITERIA = 1u << 5   /* --criteria-dir DIR */
 };
 
+/* Most values a repeatable option keeps (cli_option.max). */
+#define CLI_OPTION_VALUES 4
+
 /* An option of one subcommand that takes a value ("--alt 0m:20km:1km" or
- * "--alt=0m:20km:1km"); the last one given wins. */
+ * "--alt=0m:20km:1km"). Its name, argument and help are what --help
+ * prints, so the help lists every option the command accepts. */
 typedef struct cli_option {
     const char *name;        /* "--alt" */
-    const char *value;       /* NULL until given; points into argv */
+    const char *arg;         /* its value in the help, "FROM:TO:STEP" */
+    const char *help;        /* what it does; lines split by '\n' */
+    size_t max;              /* 0: may be given again, the last wins; n (at most
+                                CLI_OPTION_VALUES): at most n times, all kept */
+    const char *value;       /* the last value given, NULL until given; points into argv */
+    const char *values[CLI_OPTION_VALUES]; /* with max > 0, every value, in order */
+    size_t n_values;         /* how many times it was given */
 } cli_option;
 
 /* A parsed command line. Strings point into argv; the arrays are owned. */
@@ -71,8 +81,9 @@ typedef struct cli_command {
 /* Parses argv[1..argc) of a subcommand. Options may come before or after
  * the positional arguments; "--" ends the options. `accept` says which
  * common options the subcommand takes; `extra` lists its own n_extra
- * options with values. `usage` is the subcommand's help text, printed by
- * --help on standard output with the common options appended.
+ * options with values. `usage` is the subcommand's help text; --help
+ * prints it on standard output, then an "Options:" list made from `extra`
+ * and the accepted common options, so no option goes unlisted.
  * Returns CLI_GO_ON when the caller should carry on, else an exit status:
  * 0 after --help or --version, 2 after a usage error (already printed).
  * On CLI_GO_ON the caller owns *a and frees it with cli_args_free. */
@@ -102,7 +113,19 @@ int cli_fail(const plumb_diag *diag);
  * behind (the temporary file is removed) and diag says why (PLUMB_EIO). */
 plumb_status cli_write_output(const char *path, const char *buf, size_t len, plumb_diag *diag);
 
-/* 1 when path `out` is an existing file that is the same file as `in`. */
+/* What diagnostics and reports call standard input read as a profile. */
+#define CLI_STDIN_NAME "<stdin>"
+
+/* Loads the profile PATH with the command line's --set overrides; "-" is
+ * standard input, read to its end (at most PLUMB_PROFILE_MAX_BYTES), named
+ * "<stdin>" in diagnostics and reports, its SHA-256 that of the bytes
+ * read. Standard input can be read only once. Errors as
+ * plumb_profile_load (PLUMB_EIO when standard input cannot be read). */
+plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
+                              plumb_profile **out, plumb_diag *diag);
+
+/* 1 when path `out` is an existing file that is the same file as `in`
+ * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);
 
 /* The criteria directory: --criteria-dir, else $PLUMB_CRITERIA_DIR, else

@@ -4,7 +4,6 @@
  * mean sea level, with an optional temperature offset: temperature,
  * pressure, density, Sutherland viscosity and speed of sound.
  */
-#include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -12,32 +11,24 @@
 
 #include "cli.h"
 
-/* Most rows a table may have: enough for 0 m to 86 km in 1 m steps would
- * not be a table to read; 100 000 bounds memory and time. */
-#define AIR_MAX_ROWS 100000
-/* Slack on (TO - FROM) / STEP so that an end point reached by whole steps
- * (0m:20km:1km) keeps its row despite rounding: a billionth of a step. */
-#define AIR_STEP_SLACK 1e-9
+/* The altitudes when --alt is not given. The range is read by libplumb's
+ * plumb_range_parse, as sweep's are: at most PLUMB_RANGE_MAX_VALUES rows. */
+#define AIR_DEFAULT_ALT "0m:20km:1km"
 
 static const char usage[] =
     "Usage: plumb air [--alt FROM:TO:STEP] [--temperature-offset DT] [OPTIONS]\n"
     "Air of the U.S. Standard Atmosphere 1976 by geometric altitude above mean sea\n"
-    "level: temperature, pressure, density, viscosity and speed of sound.\n"
-    "  --alt FROM:TO:STEP         altitudes, each with its unit (default 0m:20km:1km);\n"
-    "                             STEP > 0, FROM <= TO, at most 100000 rows\n"
-    "  --temperature-offset DT    added to the standard temperature, e.g. \"10 K\"\n"
-    "                             (default 0 K)\n";
+    "level: temperature, pressure, density, viscosity and speed of sound.\n";
 
 typedef struct air_job {
     plumb_report_options opt;
-    const plumb_air *rows;
-    size_t n;
+    plumb_air_table table;
 } air_job;
 
 static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
 {
     const air_job *job = ctx;
-    return plumb_report_air(out, &job->opt, job->rows, job->n, diag);
+    return plumb_report_air_table(out, &job->opt, &job->table, diag);
 }
 
 static plumb_status option_error(plumb_diag *diag, plumb_status st, const char *option,
@@ -75,52 +66,6 @@ static plumb_status quantity(const plumb_units *units, const char *option, const
     return PLUMB_OK;
 }
 
-/* Parses "FROM:TO:STEP" into altitudes, m. */
-static plumb_status parse_alt(const plumb_units *units, const char *spec, double *from,
-                              double *to, double *step, plumb_diag *diag)
-{
-    char buf[256];
-    if (snprintf(buf, sizeof buf, "%s", spec) >= (int)sizeof buf)
-        return option_error(diag, PLUMB_EPARSE, "--alt", "too long");
-    char *parts[3];
-    char *p = buf;
-    for (int i = 0; i < 3; i++) {
-        parts[i] = p;
-        char *colon = strchr(p, ':');
-        if (i < 2) {
-            if (!colon)
-                return option_error(diag, PLUMB_EPARSE, "--alt",
-                                    "expected FROM:TO:STEP with units, e.g. 0m:20km:1km; found "
-                                    "'%s'", spec);
-            *colon = '\0';
-            p = colon + 1;
-        } else if (colon) {
-            return option_error(diag, PLUMB_EPARSE, "--alt",
-                                "expected FROM:TO:STEP, three parts; found '%s'", spec);
-        }
-    }
-    static const char *const names[3] = {"FROM", "TO", "STEP"};
-    double *vals[3] = {from, to, step};
-    for (int i = 0; i < 3; i++) {
-        plumb_status st = quantity(units, "--alt", names[i], parts[i], PLUMB_DIM_LENGTH, vals[i],
-                                   diag);
-        if (st != PLUMB_OK)
-            return st;
-    }
-    if (!(*step > 0.0))
-        return option_error(diag, PLUMB_ERANGE, "--alt", "STEP must be > 0, found '%s'",
-                            parts[2]);
-    if (*from > *to)
-        return option_error(diag, PLUMB_ERANGE, "--alt",
-                            "FROM (%s) must not be above TO (%s)", parts[0], parts[1]);
-    double span = (*to - *from) / *step;
-    if (!(span + 1.0 <= AIR_MAX_ROWS))
-        return option_error(diag, PLUMB_ERANGE, "--alt",
-                            "'%s' makes more than %d rows; use a larger STEP", spec,
-                            AIR_MAX_ROWS);
-    return PLUMB_OK;
-}
-
 static int run(const cli_args *a, const char *alt_text, const char *dt_text)
 {
     if (a->n_args > 0)
@@ -129,40 +74,41 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
     plumb_diag_clear(&diag);
     plumb_units *units = NULL;
     plumb_air *rows = NULL;
-    double from = 0.0, to = 0.0, step = 0.0, dt = 0.0;
+    plumb_range alt;
+    double dt = 0.0;
     size_t n = 0;
 
     plumb_status st = plumb_units_alloc(&units, &diag);
     if (st == PLUMB_OK)
-        st = parse_alt(units, alt_text ? alt_text : "0m:20km:1km", &from, &to, &step, &diag);
+        st = plumb_range_parse(units, alt_text ? alt_text : AIR_DEFAULT_ALT, PLUMB_DIM_LENGTH,
+                               "--alt", &alt, &diag);
     if (st == PLUMB_OK && dt_text)
         st = quantity(units, "--temperature-offset", "", dt_text, PLUMB_DIM_TEMP_DIFF, &dt,
                       &diag);
     if (st == PLUMB_OK) {
-        n = (size_t)floor((to - from) / step + AIR_STEP_SLACK) + 1;
+        n = alt.n;
         rows = calloc(n, sizeof *rows);
         if (!rows)
             st = option_error(&diag, PLUMB_ENOMEM, "--alt", "out of memory for %zu rows", n);
     }
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
-        double alt = from + (double)i * step;
-        if (alt > to)
-            alt = to;
-        plumb_status s = plumb_std1976(alt, dt, &rows[i]);
+        double alt_m = plumb_range_value_si(&alt, units, i);
+        plumb_status s = plumb_std1976(alt_m, dt, &rows[i]);
         if (s != PLUMB_OK)
             st = option_error(&diag, s,
                               alt_text ? "--alt" : dt_text ? "--temperature-offset" : "",
                               "no air at %g m above sea level with a temperature offset of "
                               "%g K: %s (the model spans -5 km to 86 km and needs a positive "
-                              "temperature)", alt, dt, plumb_strerror(s));
+                              "temperature)", alt_m, dt, plumb_strerror(s));
     }
     int rc;
     if (st == PLUMB_OK) {
         air_job job;
         memset(&job, 0, sizeof job);
         job.opt = cli_report_options(a);
-        job.rows = rows;
-        job.n = n;
+        job.table.rows = rows;
+        job.table.n_rows = n;
+        job.table.temperature_offset_k = dt;
         rc = cli_emit(a, write_report, &job);
     } else {
         rc = cli_fail(&diag);
@@ -174,7 +120,14 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
 
 int cmd_air(int argc, char **argv)
 {
-    cli_option extra[] = {{"--alt", NULL}, {"--temperature-offset", NULL}};
+    cli_option extra[] = {
+        {.name = "--alt", .arg = "FROM:TO:STEP",
+         .help = "altitudes, each with its unit (default " AIR_DEFAULT_ALT ");\n"
+                 "STEP not zero and towards TO (negative to go down),\n"
+                 "at most 100000 rows"},
+        {.name = "--temperature-offset", .arg = "DT",
+         .help = "added to the standard temperature, e.g. \"10 K\"\n(default 0 K)"},
+    };
     cli_args a;
     int rc = cli_parse(argc, argv, CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET, extra,
                        sizeof extra / sizeof extra[0], usage, &a);

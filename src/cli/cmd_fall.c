@@ -17,7 +17,8 @@ static const char usage[] =
     "The fall of the profile's payload from its release point: impact speed, energy\n"
     "(J and ft-lbf), time, drift and bearing, momentum and angle, with a verdict for\n"
     "each criterion the profile names (all criteria when it names none). An inventory\n"
-    "profile (items:) gives one row per item and names the worst.\n"
+    "profile (items:) gives one row per item and names the worst. PROFILE '-' is read\n"
+    "from standard input.\n"
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";
 
@@ -63,7 +64,7 @@ static int run(const cli_args *a)
 
     plumb_status st = plumb_units_alloc(&units, &diag);
     if (st == PLUMB_OK)
-        st = plumb_profile_load(path, units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, path, units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
     if (st == PLUMB_OK)

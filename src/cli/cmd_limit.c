@@ -14,9 +14,8 @@ static const char usage[] =
     "Usage: plumb limit PROFILE --find KEY (--energy-max E | --speed-max V | --drift-max D)\n"
     "The value of a numeric profile key (release.height, payload.mass, descent.area,\n"
     "wind.speed, ...) at which the impact energy, impact speed or drift just meets the\n"
-    "limit; or why no value in the physical range does. Limits carry their units\n"
-    "(--energy-max \"25 ft lbf\", --speed-max 8m/s, --drift-max 30m); --energy-max also\n"
-    "takes a criterion's name (--energy-max us-part107-cat3).\n"
+    "limit; or why no value in the physical range does. Give --find and exactly one\n"
+    "of the limits. PROFILE '-' is read from standard input.\n"
     "Re-running `plumb fall --set KEY=VALUE` at the value found meets the limit.\n"
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";
@@ -68,6 +67,7 @@ static int run(const cli_args *a, const cli_option *o)
                                                    : PLUMB_DIM_LENGTH;
     double limit = 0.0;
     const char *criterion = NULL;
+    const plumb_criterion *criterion_info = NULL;
 
     plumb_status st = plumb_units_alloc(&units, &diag);
     if (st == PLUMB_OK)
@@ -78,6 +78,7 @@ static int run(const cli_args *a, const cli_option *o)
         if (c) {
             limit = c->energy_limit_j;
             criterion = c->id;
+            criterion_info = c;
         } else {
             st = plumb_units_parse(units, text, dim, &limit, &diag);
             if (st != PLUMB_OK) {
@@ -103,7 +104,7 @@ static int run(const cli_args *a, const cli_option *o)
             snprintf(diag.file, sizeof diag.file, "<command line>");
     }
     if (st == PLUMB_OK)
-        st = plumb_profile_load(a->args[0], units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, a->args[0], units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_profile_criteria_check(prof, crit, &diag);
     if (st == PLUMB_OK)
@@ -119,7 +120,8 @@ static int run(const cli_args *a, const cli_option *o)
         limit_job job;
         memset(&job, 0, sizeof job);
         job.opt = cli_report_options(a);
-        job.rep = (plumb_limit_report){prof, o[OPT_FIND].value, metric, limit, criterion, n, res};
+        job.rep = (plumb_limit_report){prof, o[OPT_FIND].value, metric, limit, criterion, n, res,
+                                       criterion_info};
         rc = cli_emit(a, write_report, &job);
     } else {
         if (diag.status == PLUMB_OK)
@@ -136,8 +138,18 @@ static int run(const cli_args *a, const cli_option *o)
 
 int cmd_limit(int argc, char **argv)
 {
-    cli_option o[N_OPT] = {{"--find", NULL}, {"--energy-max", NULL}, {"--speed-max", NULL},
-                           {"--drift-max", NULL}};
+    cli_option o[N_OPT] = {
+        [OPT_FIND] = {.name = "--find", .arg = "KEY",
+                      .help = "the numeric profile key to solve for (release.height,\n"
+                              "payload.mass, descent.area, wind.speed, ...)"},
+        [OPT_ENERGY] = {.name = "--energy-max", .arg = "E",
+                        .help = "the impact energy limit with its unit (\"25 ft lbf\", 40J),\n"
+                                "or a criterion's id (us-part107-cat3)"},
+        [OPT_SPEED] = {.name = "--speed-max", .arg = "V",
+                       .help = "the impact speed limit with its unit (8m/s)"},
+        [OPT_DRIFT] = {.name = "--drift-max", .arg = "D",
+                       .help = "the drift limit with its unit (30m)"},
+    };
     cli_args a;
     int rc = cli_parse(argc, argv,
                        CLI_SET | CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET | CLI_CRITERIA, o,

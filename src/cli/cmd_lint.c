@@ -14,7 +14,8 @@ static const char usage[] =
     "Checks each profile as `plumb fall` reads it - YAML, keys, units, ranges, the\n"
     "atmosphere and the named criteria - without computing a fall. Prints\n"
     "\"PROFILE: ok\" for each good profile; each bad one gets its located error on\n"
-    "standard error, and the exit status is 2.\n";
+    "standard error, and the exit status is 2. A PROFILE '-' is read from standard\n"
+    "input (once).\n";
 
 /* Checks one profile; prints its error and returns the exit status. The
  * criteria set is loaded on first need into *crit. */
@@ -25,7 +26,7 @@ static int lint_one(const cli_args *a, const plumb_units *units, const char *pat
     plumb_diag_clear(&diag);
     plumb_profile *prof = NULL;
     plumb_atmosphere *atm = NULL;
-    plumb_status st = plumb_profile_load(path, units, a->sets, a->n_sets, &prof, &diag);
+    plumb_status st = cli_profile_load(a, path, units, &prof, &diag);
     if (st == PLUMB_OK)
         st = plumb_atmosphere_alloc(plumb_profile_atmosphere(prof), &atm, &diag);
     if (st == PLUMB_OK && plumb_profile_criteria_count(prof) > 0) {
@@ -38,13 +39,14 @@ static int lint_one(const cli_args *a, const plumb_units *units, const char *pat
     }
     plumb_atmosphere_free(atm);
     plumb_profile_free(prof);
+    const char *name = strcmp(path, "-") == 0 ? CLI_STDIN_NAME : path;
     if (st != PLUMB_OK) {
         if (diag.file[0] == '\0')
-            snprintf(diag.file, sizeof diag.file, "%s", path);
+            snprintf(diag.file, sizeof diag.file, "%s", name);
         return cli_fail(&diag);
     }
     if (!a->quiet)
-        printf("%s: ok\n", path);
+        printf("%s: ok\n", name);
     return CLI_EXIT_OK;
 }
 
@@ -56,6 +58,15 @@ int cmd_lint(int argc, char **argv)
         return rc;
     if (a.n_args == 0) {
         rc = cli_usage_error(a.cmd, "needs at least one PROFILE");
+        cli_args_free(&a);
+        return rc;
+    }
+    size_t n_stdin = 0;
+    for (size_t i = 0; i < a.n_args; i++)
+        n_stdin += strcmp(a.args[i], "-") == 0;
+    if (n_stdin > 1) {
+        rc = cli_usage_error(a.cmd, "'-' (standard input) may be given once, found %zu times",
+                             n_stdin);
         cli_args_free(&a);
         return rc;
     }

@@ -48,18 +48,8 @@ static const char usage[] =
     "zone.scatter allowance), impact energy percentiles, the probability of exceeding\n"
     "each criterion, and beside them a radius equal to the drop height and the\n"
     "drag-free throw. The figures are the same for any number of threads.\n"
-    "  --samples N        falls to compute, 1 to 100000000 (default: zone.samples)\n"
-    "  --seed S           random seed, 0 to 2^53-1 (default: zone.seed)\n"
-    "  --threads T        worker threads, 1 to 1024 (default: the processors online)\n"
-    "  --confidence P     the clearance radius's percentile, 0 < P < 1, or a percent\n"
-    "                     such as 99.9% (default: zone.confidence)\n"
-    "  --target E,N       the point the payload should land on, each with its unit,\n"
-    "                     e.g. --target 40m,-12m (default: zone.target): also gives the\n"
-    "                     release point that puts the median impact there, and the zone\n"
-    "                     of a run released there\n"
-    "  --samples-out FILE every sample's impact point, energy, speed and time as CSV\n"
-    "                     (SI units), in sample order\n"
     "An inventory profile (items:) runs every item with the same samples and seed.\n"
+    "PROFILE '-' is read from standard input.\n"
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";
 
@@ -384,7 +374,7 @@ static int run(const cli_args *a, const zone_opts *zo)
     if (st == PLUMB_OK && zo->target)
         st = parse_target(units, zo->target, target, &diag);
     if (st == PLUMB_OK)
-        st = plumb_profile_load(path, units, a->sets, a->n_sets, &prof, &diag);
+        st = cli_profile_load(a, path, units, &prof, &diag);
 
     plumb_zone_spec zone;
     memset(&zone, 0, sizeof zone);
@@ -541,8 +531,24 @@ static int run(const cli_args *a, const zone_opts *zo)
 
 int cmd_zone(int argc, char **argv)
 {
-    cli_option extra[] = {{"--samples", NULL},    {"--seed", NULL},   {"--threads", NULL},
-                          {"--confidence", NULL}, {"--target", NULL}, {"--samples-out", NULL}};
+    cli_option extra[] = {
+        {.name = "--samples", .arg = "N",
+         .help = "falls to compute, 1 to 100000000 (default: zone.samples)"},
+        {.name = "--seed", .arg = "S", .help = "random seed, 0 to 2^53-1 (default: zone.seed)"},
+        {.name = "--threads", .arg = "T",
+         .help = "worker threads, 1 to 1024 (default: the processors\nonline)"},
+        {.name = "--confidence", .arg = "P",
+         .help = "the clearance radius's percentile, 0 < P < 1, or a\n"
+                 "percent such as 99.9% (default: zone.confidence)"},
+        {.name = "--target", .arg = "E,N",
+         .help = "the point the payload should land on, each with its\n"
+                 "unit, e.g. --target 40m,-12m (default: zone.target):\n"
+                 "also gives the release point that puts the median\n"
+                 "impact there, and the zone of a run released there"},
+        {.name = "--samples-out", .arg = "FILE",
+         .help = "every sample's impact point, energy, speed and time as\n"
+                 "CSV (SI units), in sample order"},
+    };
     cli_args a;
     int rc = cli_parse(argc, argv,
                        CLI_SET | CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET | CLI_CRITERIA,

@@ -1,0 +1,95 @@
+#!/usr/bin/python3
+"""Every command's --help lists every option the command accepts.
+
+The list is derived from the code, so this test cannot go stale: the
+commands are those `plumb --help` prints (main.c's dispatch table), each
+checked to have its src/cli/cmd_<name>.c; the candidate options are every
+string literal in src/cli/*.c spelt like an option ("--alt", "-o"). For
+each command, each candidate is tried on the command line: unless plumb
+answers "unknown option", the command accepts it, and then it must have a
+line of its own in the "Options:" list of `plumb COMMAND --help`. The other
+way round, every option the list names must be accepted. --help itself
+must go to standard output with status 0 (design.md section 6).
+Usage: help.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
+"""
+import glob
+import os
+import re
+import subprocess
+import sys
+
+PLUMB = sys.argv[1]
+ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
+passed = failed = 0
+
+
+def check(ok, what):
+    global passed, failed
+    if ok:
+        passed += 1
+    else:
+        failed += 1
+        print(f"FAIL {what}")
+
+
+def plumb(*args):
+    r = subprocess.run([PLUMB, *args], capture_output=True, text=True, stdin=subprocess.DEVNULL,
+                       timeout=60, env=dict(os.environ, LC_ALL="C"))
+    return r.returncode, r.stdout, r.stderr
+
+
+# The commands, from `plumb --help` ("  NAME   one-line help" under "Commands:").
+rc, out, err = plumb("--help")
+check(rc == 0 and out.startswith("Usage: plumb"), "plumb --help: usage on stdout, status 0")
+commands = re.findall(r"^  ([a-z]+) +\S", out.split("Commands:", 1)[-1].split("\n\n")[0], re.M)
+sources = sorted(os.path.basename(p)[4:-2] for p in glob.glob(os.path.join(ROOT, "src/cli/cmd_*.c")))
+check(commands and sorted(commands) == sources,
+      f"plumb --help lists the commands of src/cli/cmd_*.c: {commands} vs {sources}")
+
+# Candidate options: every option-like string literal of the command line's code.
+candidates = set()
+for path in glob.glob(os.path.join(ROOT, "src/cli/*.c")):
+    with open(path, encoding="utf-8") as f:
+        candidates |= set(re.findall(r'"(--?[a-z][a-z-]*)"', f.read()))
+check({"--set", "--format", "-o", "--help"} <= candidates,
+      f"the option literals were found in src/cli ({sorted(candidates)})")
+
+
+def listed(help_text):
+    """Options named at the start of a line of the Options: list."""
+    section = help_text.split("\nOptions:\n", 1)
+    if len(section) < 2:
+        return set()
+    names = set()
+    for line in section[1].splitlines():
+        m = re.match(r"^  (-[a-z]), (--[a-z][a-z-]*)\b", line) or re.match(r"^  (--[a-z][a-z-]*)\b", line)
+        if m:
+            names |= set(m.groups())
+    return names
+
+
+def accepted(cmd, opt):
+    rc, out, err = plumb(cmd, opt)
+    return "unknown option" not in err
+
+
+for cmd in commands:
+    rc, out, err = plumb(cmd, "--help")
+    check(rc == 0 and out.startswith(f"Usage: plumb {cmd}") and err == "",
+          f"{cmd} --help: usage on stdout, status 0 (got {rc}, {err.strip()!r})")
+    names = listed(out)
+    check(bool(names), f"{cmd} --help has an Options: list")
+    for opt in sorted(candidates):
+        if accepted(cmd, opt):
+            check(opt in names, f"{cmd} accepts {opt} but its --help does not list it")
+    for opt in sorted(names):
+        check(accepted(cmd, opt), f"{cmd} --help lists {opt}, which {cmd} refuses")
+
+# The options the issue found missing (issue 9), by name.
+for cmd, opts in [("sweep", ["--vary"]), ("limit", ["--find", "--energy-max", "--speed-max", "--drift-max"])]:
+    rc, out, err = plumb(cmd, "--help")
+    for opt in opts:
+        check(opt in listed(out), f"{cmd} --help lists {opt}")
+
+print(f"cli: {passed} passed, {failed} failed")
+sys.exit(1 if failed else 0)
