@@ -190,9 +190,10 @@ static void test_a_duplicate_key_in_a_nested_map_names_its_dotted_key(void **sta
     (void)state;
     refused("payload:\n  mass: 2.385 kg\n  drag: {cd: 0.93, cd: 0.87}\n", PLUMB_EKEY, 3, 20,
             "payload.drag.cd", "first given at line 3, column 10");
-    /* in a list item: items[1].mass */
-    refused("items:\n  - {name: a, mass: 1 kg}\n  - {name: b, mass: 1 kg, mass: 2 kg}\n",
-            PLUMB_EKEY, 3, 27, "items[1].mass", "duplicate key 'mass'");
+    /* in the second item of a list (counted from 0): table[1].density */
+    refused("table:\n  - {altitude: 1 m, density: 1 kg/m^3}\n"
+            "  - {altitude: 2 m, density: 1 kg/m^3, density: 2 kg/m^3}\n",
+            PLUMB_EKEY, 3, 40, "table[1].density", "duplicate key 'density'");
 }
 
 static void test_a_tab_in_the_indentation_is_refused_where_it_is(void **state)
