@@ -1,0 +1,617 @@
+/*
+ * test_report_zone.c - the zone report (plumb_report_zone, written by
+ * src/report_zone.c; include/plumb/dispersion.h): the cautions in every
+ * format, never a NaN or an infinity, a non-finite figure refused with
+ * nothing written, figures that read back, US units, the inventory's
+ * worst item, and the refusals of an empty or inconsistent report.
+ *
+ * The zone is a real run (drag-free, 500 samples, with a target and two
+ * criteria, one input a truncated normal) made once for the file; the tests
+ * check what the writer does with its figures, not the statistics (those
+ * are test_dispersion.c's).
+ *
+ * Sources of the checked values:
+ *   - design.md section 7 / report.h: the cautions (plumb_cautions) in every
+ *     report, text and CSV as closing or "# " lines, JSON as "cautions";
+ *     reports never contain NaN or infinity; a non-finite figure makes the
+ *     writer fail with PLUMB_ENUMERIC before anything is written.
+ *   - IEEE 754-2008, 5.12.2: 17 significant digits read back to the same
+ *     binary64 value (the JSON writer's precision).
+ *   - 1 ft = 0.3048 m and 1 ft lbf = 0.3048 x 0.45359237 x 9.80665 J,
+ *     exactly (1959 international yard and pound agreement; CGPM 1901).
+ *   - RFC 4180, section 2: a field holding a comma is quoted.
+ *   - README "plumb zone": JSON "worst" names the item with the largest
+ *     clearance radius; an interval end that N samples cannot bound is
+ *     "open" (JSON null).
+ *   - 14 CFR 107.130(a)(1): 25 ft lbf; EN 397 shock absorption test: 49 J
+ *     (references.md, transcribed; a helmet test, not a safe limit).
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <setjmp.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <cmocka.h>
+#include <jansson.h>
+
+#include "plumb/plumb.h"
+#include "plumb/dispersion.h"
+#include "plumb_test.h"
+
+/* 1 ft, m, and 1 ft lbf, J, by definition (1959 agreement, CGPM 1901). */
+#define FT_M 0.3048
+#define FT_LBF_J (0.3048 * 0.45359237 * 9.80665)
+
+static plumb_criterion crit[2];
+static plumb_zone_result base;
+
+static plumb_uncertainty unc(const char *key, plumb_dist_kind kind, double a, double b)
+{
+    plumb_uncertainty u;
+    memset(&u, 0, sizeof u);
+    snprintf(u.key, sizeof u.key, "%s", key);
+    u.kind = kind;
+    u.param[0] = a;
+    u.param[1] = b;
+    u.line = 11;
+    u.col = 3;
+    return u;
+}
+
+static int group_setup(void **state)
+{
+    plumbt_setup_gsl(state);
+    /* 14 CFR 107.130(a)(1): 25 ft lbf */
+    snprintf(crit[0].id, sizeof crit[0].id, "us-part107-cat3");
+    snprintf(crit[0].name, sizeof crit[0].name, "US operations over people, category 3");
+    snprintf(crit[0].source, sizeof crit[0].source, "14 CFR 107.130(a)(1)");
+    crit[0].kind = PLUMB_CRIT_LIMIT;
+    crit[0].energy_limit_j = 25.0 * FT_LBF_J;
+    /* EN 397 shock absorption test, 49 J: a helmet test */
+    snprintf(crit[1].id, sizeof crit[1].id, "en397-shock-49j");
+    snprintf(crit[1].name, sizeof crit[1].name, "EN 397 helmet shock absorption test");
+    snprintf(crit[1].source, sizeof crit[1].source, "EN 397, shock absorption test");
+    crit[1].kind = PLUMB_CRIT_HELMET_TEST;
+    crit[1].energy_limit_j = 49.0;
+
+    /* a drag-free 2.385 kg bag released at 23.7 m */
+    plumb_fall_spec s;
+    memset(&s, 0, sizeof s);
+    snprintf(s.name, sizeof s.name, "marker bag");
+    s.mass_kg = 2.385;
+    s.drag.model = PLUMB_DRAG_FIXED;
+    s.drag.area_m2 = 0.0187;
+    s.release_m[2] = 23.7;
+    s.velocity_m_s[0] = 4.3;
+    plumb_wind_spec_init(&s.wind);
+    plumb_uncertainty u[3] = {
+        unc("release.velocity.east", PLUMB_DIST_NORMAL, 4.3, 1.3),
+        unc("release.velocity.north", PLUMB_DIST_UNIFORM, -0.7, 0.9),
+        unc("payload.mass", PLUMB_DIST_NORMAL, 2.385, 0.9), /* truncated at 0 kg */
+    };
+    plumb_zone_spec z;
+    memset(&z, 0, sizeof z);
+    z.samples = 500; /* too few to bound the 99.9 % radius above: an open end */
+    z.seed = 20240917;
+    z.confidence = 0.9;
+    z.scatter_m = 1.7;
+    z.has_target = 1;
+    z.target_m[0] = 12.5;
+    z.target_m[1] = -4.3;
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
+    const plumb_criterion *cl[2] = {&crit[0], &crit[1]};
+    plumb_zone_options o;
+    plumb_zone_options_init(&o);
+    o.threads = 1;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumb_zone_run(&s, atm, u, 3, &z, cl, 2, &o, &base, &d);
+    plumb_atmosphere_free(atm);
+    if (st != PLUMB_OK) {
+        fprintf(stderr, "zone: %s: %s\n", d.key, d.message);
+        return -1;
+    }
+    return 0;
+}
+
+static int group_teardown(void **state)
+{
+    (void)state;
+    return 0;
+}
+
+static const char sha[] = "0123456789abcdef0123456789abcdef0123456789abcdef0123456789abcdef";
+
+/* A one-item report of r. */
+static plumb_zone_report single(const plumb_zone_item *item)
+{
+    plumb_zone_report rep;
+    memset(&rep, 0, sizeof rep);
+    rep.profile_name = "Test drop, field 7";
+    rep.profile_path = "tests/t.yaml";
+    rep.profile_sha256 = sha;
+    rep.inventory = 0;
+    rep.n_items = 1;
+    rep.items = item;
+    rep.threads = 3;
+    return rep;
+}
+
+/* Writes rep in a format into a string (caller frees); *st its status. */
+static char *report(const plumb_zone_report *rep, plumb_format f, plumb_unit_system u,
+                    plumb_status *st, plumb_diag *d, size_t *len)
+{
+    char *buf = NULL;
+    size_t n = 0;
+    FILE *out = open_memstream(&buf, &n);
+    assert_non_null(out);
+    plumb_report_options opt = {f, u, "9.9.9"};
+    plumb_diag_clear(d);
+    *st = plumb_report_zone(out, &opt, rep, d);
+    assert_int_equal(fclose(out), 0);
+    if (len)
+        *len = n;
+    return buf;
+}
+
+static char *good(const plumb_zone_report *rep, plumb_format f, plumb_unit_system u)
+{
+    plumb_status st;
+    plumb_diag d;
+    char *buf = report(rep, f, u, &st, &d, NULL);
+    if (st != PLUMB_OK)
+        fprintf(stderr, "zone report: %s\n", d.message);
+    assert_int_equal(st, PLUMB_OK);
+    assert_non_null(buf);
+    return buf;
+}
+
+/* Copy of s with every run of white space made one space. */
+static char *squeeze(const char *s)
+{
+    char *out = malloc(strlen(s) + 1);
+    assert_non_null(out);
+    size_t k = 0;
+    int space = 0;
+    for (const char *p = s; *p; p++) {
+        if (*p == ' ' || *p == '\n') {
+            space = 1;
+            continue;
+        }
+        if (space && k > 0)
+            out[k++] = ' ';
+        space = 0;
+        out[k++] = *p;
+    }
+    out[k] = '\0';
+    return out;
+}
+
+static void assert_cautions_in(const char *out, plumb_format f)
+{
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    assert_true(n >= 4);
+    if (f == PLUMB_FORMAT_JSON) {
+        json_t *root = json_loads(out, 0, NULL);
+        assert_non_null(root);
+        json_t *a = json_object_get(root, "cautions");
+        assert_int_equal(json_array_size(a), n);
+        for (size_t i = 0; i < n; i++)
+            assert_string_equal(json_string_value(json_array_get(a, i)), c[i]);
+        json_decref(root);
+    } else if (f == PLUMB_FORMAT_CSV) {
+        const char *header = strstr(out, "\nitem,quantity,value,ci_low,ci_high,unit\n");
+        assert_non_null(header);
+        for (size_t i = 0; i < n; i++) {
+            char line[512];
+            snprintf(line, sizeof line, "# %s\n", c[i]);
+            const char *at = strstr(out, line);
+            if (!at || at > header)
+                fail_msg("CSV lacks caution before the header: %s", c[i]);
+        }
+    } else {
+        char *flat = squeeze(out);
+        for (size_t i = 0; i < n; i++) {
+            char *want = squeeze(c[i]);
+            if (!strstr(flat, want))
+                fail_msg("text lacks caution: %s", c[i]);
+            free(want);
+        }
+        free(flat);
+    }
+}
+
+/* ---- cautions ------------------------------------------------------------------ */
+
+static void test_every_format_and_unit_system_carries_the_cautions(void **state)
+{
+    (void)state;
+    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_report rep = single(&item);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+            char *out = good(&rep, (plumb_format)f, (plumb_unit_system)u);
+            assert_cautions_in(out, (plumb_format)f);
+            free(out);
+        }
+    }
+    /* an inventory too */
+    plumb_zone_item items[2] = {{"marker bag", &base}, {"tag line", &base}};
+    rep.inventory = 1;
+    rep.n_items = 2;
+    rep.items = items;
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        char *out = good(&rep, (plumb_format)f, PLUMB_UNITS_SI);
+        assert_cautions_in(out, (plumb_format)f);
+        free(out);
+    }
+}
+
+static void test_a_helmet_test_criterion_is_called_not_a_safe_limit(void **state)
+{
+    (void)state;
+    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_report rep = single(&item);
+    char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    char *flat = squeeze(out);
+    assert_non_null(strstr(flat, "[en397-shock-49j]; source: EN 397, shock absorption test "
+                                 "(the energy a helmet is tested to, not a safe limit)"));
+    assert_null(strstr(flat, "[us-part107-cat3]; source: 14 CFR 107.130(a)(1) (the energy"));
+    free(flat);
+    free(out);
+}
+
+/* ---- no NaN, no infinity ---------------------------------------------------------- */
+
+/* 1 when text has the word nan, inf or infinity in any case. */
+static int has_non_finite_word(const char *text)
+{
+    const char *p = text;
+    while (*p) {
+        while (*p && !((*p >= 'a' && *p <= 'z') || (*p >= 'A' && *p <= 'Z')))
+            p++;
+        const char *s = p;
+        while ((*p >= 'a' && *p <= 'z') || (*p >= 'A' && *p <= 'Z'))
+            p++;
+        size_t n = (size_t)(p - s);
+        char w[16];
+        if (n > 0 && n < sizeof w) {
+            for (size_t i = 0; i < n; i++)
+                w[i] = (char)(s[i] | 0x20);
+            w[n] = '\0';
+            if (!strcmp(w, "nan") || !strcmp(w, "inf") || !strcmp(w, "infinity"))
+                return 1;
+        }
+    }
+    return 0;
+}
+
+static void test_no_format_prints_nan_or_infinity_for_open_ends_and_half_ranges(void **state)
+{
+    (void)state;
+    /* the run has what could print as inf: a 99.9 % radius with no upper
+     * bound at 500 samples, and a normal truncated at 0 kg only */
+    assert_true(base.zone.radius[3].hi_open);
+    assert_int_equal(base.n_inputs, 3);
+    assert_true(base.inputs[2].truncated);
+    assert_true(isinf(base.inputs[2].upper));
+    assert_true(has_non_finite_word("x = NaN") && has_non_finite_word("-inf m"));
+    assert_false(has_non_finite_word("information, infinite, nano"));
+    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_report rep = single(&item);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+            char *out = good(&rep, (plumb_format)f, (plumb_unit_system)u);
+            if (has_non_finite_word(out))
+                fail_msg("format %d units %d prints NaN or infinity:\n%s", f, u, out);
+            free(out);
+        }
+    }
+    /* JSON: open ends and the missing bound are null */
+    char *out = good(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI);
+    json_t *root = json_loads(out, 0, NULL);
+    assert_non_null(root);
+    json_t *zone = json_object_get(root, "zone");
+    json_t *ci = json_object_get(json_object_get(zone, "radius_ci_m"), "p999");
+    assert_true(json_is_null(json_array_get(ci, 1)));
+    json_t *in = json_array_get(json_object_get(zone, "inputs"), 2);
+    assert_string_equal(json_string_value(json_object_get(in, "key")), "payload.mass");
+    json_t *range = json_object_get(in, "range");
+    assert_true(json_is_number(json_array_get(range, 0)));
+    assert_true(json_is_null(json_array_get(range, 1)));
+    json_decref(root);
+    free(out);
+}
+
+/* ---- non-finite figures ------------------------------------------------------------ */
+
+/* The k-th figure every format prints, in r; NULL past the last. */
+static double *figure(plumb_zone_result *r, int k, const char **name)
+{
+    plumb_zone_stats *z = &r->zone, *t = &r->at_target;
+#define F(expr)        \
+    do {               \
+        *name = #expr; \
+        return &(expr); \
+    } while (0)
+    switch (k) {
+    case 0: F(z->mean_m[0]);
+    case 1: F(z->mean_m[1]);
+    case 2: F(z->semi_minor_m);
+    case 3: F(z->bearing_deg);
+    case 4: F(z->radius[0].value);
+    case 5: F(z->radius[1].value);
+    case 6: F(z->radius[2].value);
+    case 7: F(z->radius[3].value);
+    case 8: F(z->radius[2].lo);
+    case 9: F(z->radius[2].hi);
+    case 10: F(z->radius_max_m);
+    case 11: F(z->radius_conf.value);
+    case 12: F(z->radius_conf.hi);
+    case 13: F(z->scatter_m);
+    case 14: F(z->clearance_radius_m);
+    case 15: F(z->energy[0].value);
+    case 16: F(z->energy[2].value);
+    case 17: F(z->energy[1].lo);
+    case 18: F(z->energy_max_j);
+    case 19: F(z->exceedance[0].probability);
+    case 20: F(z->exceedance[1].lo);
+    case 21: F(z->exceedance[1].hi);
+    case 22: F(z->drop_height_m);
+    case 23: F(z->ballistic_throw_m);
+    case 24: F(z->max_release_speed_m_s);
+    case 25: F(z->release_m[0]);
+    case 26: F(r->confidence);
+    case 27: F(r->ci_level);
+    case 28: F(r->target_m[0]);
+    case 29: F(t->clearance_radius_m);
+    case 30: F(t->displacement[0].value);
+    case 31: F(t->mean_m[1]);
+    case 32: F(t->radius[1].hi);
+    case 33: F(z->semi_major_m); /* text once said "every sample lands on one point" */
+    default: return NULL;
+    }
+#undef F
+}
+
+static void test_a_non_finite_figure_fails_every_format_and_writes_nothing(void **state)
+{
+    (void)state;
+    static const double bad_values[3] = {NAN, INFINITY, -INFINITY};
+    const char *name = NULL;
+    int k;
+    for (k = 0; k < 100; k++) {
+        plumb_zone_result r = base;
+        double *x = figure(&r, k, &name);
+        if (!x)
+            break;
+        *x = bad_values[k % 3];
+        plumb_zone_item item = {"marker bag", &r};
+        plumb_zone_report rep = single(&item);
+        for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+            for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+                plumb_status st;
+                plumb_diag d;
+                size_t len = 0;
+                char *out = report(&rep, (plumb_format)f, (plumb_unit_system)u, &st, &d, &len);
+                if (st != PLUMB_ENUMERIC || len != 0)
+                    fail_msg("%s = %g: format %d units %d gave status %d and %zu bytes", name,
+                             *x, f, u, (int)st, len);
+                assert_int_equal(d.status, PLUMB_ENUMERIC);
+                assert_non_null(strstr(d.message, "not a finite number"));
+                free(out);
+            }
+        }
+    }
+    assert_int_equal(k, 34); /* every figure of the list was tried */
+}
+
+static void test_json_refuses_non_finite_figures_only_it_prints(void **state)
+{
+    (void)state;
+    /* the covariance, the centre and the ellipse's chi-square are JSON's own */
+    for (int k = 0; k < 3; k++) {
+        plumb_zone_result r = base;
+        double *x = k == 0 ? &r.zone.cov_m2[2] : k == 1 ? &r.zone.centre_m[1] : &r.zone.ellipse_chi2;
+        *x = NAN;
+        plumb_zone_item item = {"marker bag", &r};
+        plumb_zone_report rep = single(&item);
+        plumb_status st;
+        plumb_diag d;
+        size_t len = 1;
+        char *out = report(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI, &st, &d, &len);
+        assert_int_equal(st, PLUMB_ENUMERIC);
+        assert_int_equal(len, 0);
+        free(out);
+    }
+}
+
+/* ---- figures -------------------------------------------------------------------------- */
+
+static void test_json_figures_read_back_to_the_same_doubles(void **state)
+{
+    (void)state;
+    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_report rep = single(&item);
+    char *out = good(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_US); /* JSON is SI whatever --units */
+    json_t *root = json_loads(out, 0, NULL);
+    assert_non_null(root);
+    json_t *zone = json_object_get(root, "zone");
+    const plumb_zone_stats *z = &base.zone;
+    /* IEEE 754-2008 5.12.2: 17 digits give back the same double */
+    assert_true(json_real_value(json_object_get(zone, "clearance_radius_m")) ==
+                z->clearance_radius_m);
+    assert_true(json_real_value(json_object_get(json_object_get(zone, "radius_m"), "p99")) ==
+                z->radius[2].value);
+    assert_true(json_real_value(json_object_get(json_object_get(zone, "energy_j"), "max")) ==
+                z->energy_max_j);
+    assert_true(json_real_value(json_object_get(json_object_get(zone, "ellipse95"),
+                                                "semi_major_m")) == z->semi_major_m);
+    json_t *ex = json_array_get(json_object_get(zone, "exceedance"), 0);
+    assert_string_equal(json_string_value(json_object_get(ex, "criterion")), "us-part107-cat3");
+    assert_true(json_real_value(json_object_get(ex, "probability")) ==
+                z->exceedance[0].probability);
+    assert_rel(json_real_value(json_object_get(ex, "energy_limit_j")), 25.0 * FT_LBF_J, 1e-15);
+    assert_int_equal(json_integer_value(json_object_get(root, "seed")), 20240917);
+    assert_int_equal(json_integer_value(json_object_get(root, "threads")), 3);
+    assert_int_equal(json_integer_value(json_object_get(zone, "samples")), 500);
+    json_t *prof = json_object_get(root, "profile");
+    assert_string_equal(json_string_value(json_object_get(prof, "sha256")), sha);
+    json_t *tg = json_object_get(zone, "target");
+    assert_true(json_is_object(tg));
+    json_t *tp = json_object_get(tg, "target_m");
+    assert_true(json_real_value(json_array_get(tp, 0)) == 12.5);
+    assert_true(json_real_value(json_array_get(tp, 1)) == -4.3);
+    json_decref(root);
+    free(out);
+}
+
+/* The value column of the CSV row of `quantity` for `item`. */
+static double csv_value(const char *csv, const char *item_quantity)
+{
+    char needle[160];
+    snprintf(needle, sizeof needle, "\n%s,", item_quantity);
+    const char *at = strstr(csv, needle);
+    if (!at)
+        fail_msg("no CSV row %s", item_quantity);
+    char *end = NULL;
+    double v = strtod(at + strlen(needle), &end);
+    assert_true(end && *end == ',');
+    return v;
+}
+
+static void test_us_csv_gives_feet_and_foot_pounds_and_quotes_names(void **state)
+{
+    (void)state;
+    plumb_zone_item item = {"marker bag, red", &base};
+    plumb_zone_report rep = single(&item);
+    char *si = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI);
+    char *us = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_US);
+    const plumb_zone_stats *z = &base.zone;
+    /* RFC 4180: the name with a comma is quoted; CSV numbers have 10 digits */
+    const char *row = "\"marker bag, red\",clearance_radius";
+    assert_rel(csv_value(si, row), z->clearance_radius_m, 1e-9);
+    assert_rel(csv_value(us, row), z->clearance_radius_m / FT_M, 1e-9); /* 1 ft = 0.3048 m */
+    assert_non_null(strstr(us, "\n\"marker bag, red\",clearance_radius,"));
+    row = "\"marker bag, red\",energy_max";
+    assert_rel(csv_value(si, row), z->energy_max_j, 1e-9);
+    assert_rel(csv_value(us, row), z->energy_max_j / FT_LBF_J, 1e-9);
+    assert_non_null(strstr(us, ",ft_lbf\n"));
+    row = "\"marker bag, red\",target.east";
+    assert_rel(csv_value(us, row), 12.5 / FT_M, 1e-9);
+    free(si);
+    free(us);
+}
+
+static void test_inventory_json_names_the_item_with_the_largest_clearance_radius(void **state)
+{
+    (void)state;
+    plumb_zone_result wider = base;
+    wider.zone.clearance_radius_m = 1.37 * base.zone.clearance_radius_m;
+    plumb_zone_item items[3] = {{"marker bag", &base}, {"tag line", &wider}, {"radio", &base}};
+    plumb_zone_report rep = single(items);
+    rep.inventory = 1;
+    rep.n_items = 3;
+    char *out = good(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI);
+    json_t *root = json_loads(out, 0, NULL);
+    assert_non_null(root);
+    assert_string_equal(json_string_value(json_object_get(root, "worst")), "tag line");
+    assert_int_equal(json_array_size(json_object_get(root, "items")), 3);
+    assert_null(json_object_get(root, "zone"));
+    json_decref(root);
+    free(out);
+    out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    assert_non_null(strstr(out, "==== tag line\n"));
+    free(out);
+}
+
+/* ---- refusals ----------------------------------------------------------------------------- */
+
+static void refused(const plumb_zone_report *rep, const char *part)
+{
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        plumb_status st;
+        plumb_diag d;
+        size_t len = 1;
+        char *out = report(rep, (plumb_format)f, PLUMB_UNITS_SI, &st, &d, &len);
+        if (st != PLUMB_EINVAL || !strstr(d.message, part))
+            fprintf(stderr, "status %d: %s\n", (int)st, d.message);
+        assert_int_equal(st, PLUMB_EINVAL);
+        assert_int_equal(len, 0);
+        assert_non_null(strstr(d.message, part));
+        free(out);
+    }
+}
+
+static void test_empty_and_inconsistent_reports_are_refused_with_nothing_written(void **state)
+{
+    (void)state;
+    plumb_zone_item items[2] = {{"marker bag", &base}, {"tag line", &base}};
+    plumb_zone_report rep = single(items);
+    rep.n_items = 0;
+    refused(&rep, "no zone report");
+    refused(NULL, "no zone report");
+    rep.n_items = 2; /* two items but not an inventory */
+    refused(&rep, "one item");
+    rep.inventory = 1;
+    plumb_zone_result other = base;
+    other.samples = 501;
+    items[1].result = &other;
+    refused(&rep, "other settings");
+    other = base;
+    other.seed = base.seed + 1;
+    refused(&rep, "other settings");
+    items[1].result = NULL;
+    refused(&rep, "no result or name");
+    items[1].result = &base;
+    items[1].name = NULL;
+    refused(&rep, "no result or name");
+    items[1].name = "tag line";
+    other = base;
+    other.zone.exceedance[1].criterion = NULL;
+    items[1].result = &other;
+    refused(&rep, "criterion missing");
+    /* no stream */
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_report_options opt = {PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, NULL};
+    assert_int_equal(plumb_report_zone(NULL, &opt, &rep, &d), PLUMB_EINVAL);
+}
+
+static void test_a_stream_that_cannot_be_written_is_an_io_error(void **state)
+{
+    (void)state;
+    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_report rep = single(&item);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        FILE *full = fopen("/dev/full", "w"); /* every write fails with ENOSPC */
+        assert_non_null(full);
+        plumb_report_options opt = {(plumb_format)f, PLUMB_UNITS_SI, NULL};
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        assert_int_equal(plumb_report_zone(full, &opt, &rep, &d), PLUMB_EIO);
+        assert_int_equal(d.status, PLUMB_EIO);
+        fclose(full);
+    }
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_every_format_and_unit_system_carries_the_cautions),
+        cmocka_unit_test(test_a_helmet_test_criterion_is_called_not_a_safe_limit),
+        cmocka_unit_test(test_no_format_prints_nan_or_infinity_for_open_ends_and_half_ranges),
+        cmocka_unit_test(test_a_non_finite_figure_fails_every_format_and_writes_nothing),
+        cmocka_unit_test(test_json_refuses_non_finite_figures_only_it_prints),
+        cmocka_unit_test(test_json_figures_read_back_to_the_same_doubles),
+        cmocka_unit_test(test_us_csv_gives_feet_and_foot_pounds_and_quotes_names),
+        cmocka_unit_test(test_inventory_json_names_the_item_with_the_largest_clearance_radius),
+        cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
+        cmocka_unit_test(test_a_stream_that_cannot_be_written_is_an_io_error),
+    };
+    return cmocka_run_group_tests(tests, group_setup, group_teardown);
+}
