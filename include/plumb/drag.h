@@ -22,7 +22,8 @@ typedef enum plumb_drag_model {
     PLUMB_DRAG_SPHERE_CGW         /* Cd(Re), Clift, Grace & Weber 1978 */
 } plumb_drag_model;
 
-enum { PLUMB_DRAG_SOURCE = 512 };
+/* Room for a source text: a shape's names every value and its source. */
+enum { PLUMB_DRAG_SOURCE = 1536 };
 
 typedef struct plumb_drag_spec {
     plumb_drag_model model;   /* how CdA is found */
