@@ -10,6 +10,20 @@
  *                  University 2010, eq. 1, valid Re <= 1e6) or the
  *                  Clift-Grace-Weber standard drag curve (Bubbles, Drops,
  *                  and Particles, 1978, Table 5.2).
+ *   shape          a body's Cd on its frontal area from published bluff-body
+ *                  tables (subcritical Re, sharp edges), interpolated by aspect
+ *                  ratio, each row with its source and status (src/drag.c):
+ *                  rectangular plates by b/h (White, Fluid Mechanics, Table 7.3,
+ *                  after Hoerner 1965), square prisms along the flow by L/D
+ *                  (cube: Munson et al. Fig. 9.20; L/D 1.5-5: DNVGL-RP-N103
+ *                  Table B-2), circular cylinders end-on from the disc (L/D 0)
+ *                  to L/D 7 and broadside by L/D (Aeronautical Engineer Data
+ *                  Book Fig. 5.13). A box face is Cd_plate(b/h) x
+ *                  Cd_prism(depth / sqrt(face area)) / Cd_prism(0). Tumbling:
+ *                  Cauchy's mean projected area (surface / 4) with
+ *                  Cd = sum(w Cd A) / sum(w A) over the tabulated orientations,
+ *                  a box's edge-on ones from the cube's edge-on value (plumb's
+ *                  own averaging; no published tumbling Cd).
  */
 #ifndef PLUMB_DRAG_H
 #define PLUMB_DRAG_H
@@ -22,7 +36,8 @@ typedef enum plumb_drag_model {
     PLUMB_DRAG_SPHERE_CGW         /* Cd(Re), Clift, Grace & Weber 1978 */
 } plumb_drag_model;
 
-enum { PLUMB_DRAG_SOURCE = 512 };
+/* Room for a source text: a shape's names every value and its source. */
+enum { PLUMB_DRAG_SOURCE = 1536 };
 
 typedef struct plumb_drag_spec {
     plumb_drag_model model;   /* how CdA is found */
@@ -30,7 +45,7 @@ typedef struct plumb_drag_spec {
     double area_m2;           /* reference area, m^2; > 0: CdA = cd x area_m2 */
     double cd_area_m2;        /* CdA, m^2, used when area_m2 is 0 (`cd_area:` given) */
     double diameter_m;        /* sphere models: diameter, m (area_m2 = pi d^2 / 4) */
-    int extrapolated;         /* 1: a shape's aspect ratio lay outside the handbook table (end value held) */
+    int extrapolated;         /* 1: a shape's aspect ratio lay outside a table it uses (end value held) */
     char source[PLUMB_DRAG_SOURCE]; /* where cd and area came from, for the report */
 } plumb_drag_spec;
 
@@ -54,9 +69,14 @@ typedef struct plumb_shape_spec {
     plumb_attitude attitude;  /* how it meets the air */
 } plumb_shape_spec;
 
-/* Fills *out (model, cd, area_m2, cd_area_m2, source) from a shape, with
- * handbook Cd values interpolated by aspect ratio; every value's source is
- * written into out->source. PLUMB_EINVAL for a non-positive edge. */
+/* Fills *out (model, cd, area_m2, cd_area_m2, extrapolated, source) from a
+ * shape, with published Cd values interpolated by aspect ratio (see the top
+ * of this header); out->source names every value, the table rows it came
+ * from and their sources with status, and out->extrapolated is 1 when an
+ * aspect ratio lay outside a table (its end row held). Broadside: a
+ * cylinder's axis across the flow, a box's or plate's largest face to it;
+ * end-on: the axis along the flow, the smallest face to it. PLUMB_EINVAL
+ * for a non-positive or non-finite edge, *out then untouched. */
 plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spec *out);
 
 /* Surface area / 4 of a convex body (Cauchy's mean projected area), m^2. */
