@@ -187,12 +187,12 @@ coverage: deps-test
 	@sh scripts/coverage.sh $(COV_BUILD)
 
 demo: deps
-	@$(SUBMAKE) all
+	@$(SUBMAKE) -j$(JOBS) all
 	@for p in profiles/demo/*.yaml; do \
 	  echo; echo "==> plumb fall $$p"; $(BIN) fall "$$p" || exit $$?; done
 
 bench: deps
-	@$(SUBMAKE) all $(BENCH_BIN)
+	@$(SUBMAKE) -j$(JOBS) all $(BENCH_BIN)
 	@for b in $(BENCH_BIN); do $$b || exit $$?; done
 
 install: all $(PC)
