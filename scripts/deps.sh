@@ -3,6 +3,8 @@
 # missing, on Debian: probes with pkg-config and a header/module test, then
 # runs `apt-get update` once and `apt-get install -y` as root, or through
 # sudo. With neither, prints the exact apt line and exits 2.
+# Says nothing when nothing is missing; otherwise one line, with apt's own
+# output kept in a temporary log that is shown only if the install fails.
 set -u
 want_tests=0
 [ "${1:-}" = "--tests" ] && want_tests=1
@@ -28,7 +30,6 @@ missing=$(echo $missing | tr ' ' '\n' | sort -u | tr '\n' ' ')
 [ -z "$(echo $missing | tr -d ' ')" ] && exit 0
 
 line="apt-get update && apt-get install -y $missing"
-echo "plumb: installing missing packages: $missing" >&2
 if [ "$(id -u)" = 0 ]; then
   SUDO=""
 elif command -v sudo >/dev/null 2>&1 && sudo -n true 2>/dev/null; then
@@ -39,7 +40,16 @@ else
   exit 2
 fi
 export DEBIAN_FRONTEND=noninteractive
-$SUDO apt-get update -qq >&2 || { echo "plumb: apt-get update failed; run: $line" >&2; exit 2; }
+# apt's output goes to a log, shown only when something fails.
+log=$(mktemp "${TMPDIR:-/tmp}/plumb-deps.XXXXXX") || exit 2
+trap 'rm -f "$log"' EXIT
+printf 'plumb: installing %s... ' "$missing" >&2
 # shellcheck disable=SC2086
-$SUDO apt-get install -y -qq $missing >&2 || { echo "plumb: install failed; run: $line" >&2; exit 2; }
-exit 0
+if $SUDO apt-get update -q >"$log" 2>&1 && $SUDO apt-get install -y -q $missing >>"$log" 2>&1; then
+  echo "done" >&2
+  exit 0
+fi
+echo "failed:" >&2
+cat "$log" >&2
+echo "plumb: could not install the packages; run: $line" >&2
+exit 2

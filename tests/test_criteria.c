@@ -31,7 +31,7 @@
 enum { PATH_LEN = 512, MAX_PATHS = 64 };
 
 static plumb_units *units;
-static char root[] = "/tmp/plumb-test-criteria-XXXXXX";
+static char root[PATH_LEN / 2];   /* $TMPDIR/plumb-test-criteria-XXXXXX */
 static char *made[MAX_PATHS];   /* files and directories to remove, in order */
 static int made_dir[MAX_PATHS];
 static size_t n_made;
@@ -43,7 +43,7 @@ static int group_setup(void **state)
     plumbt_setup_gsl(state);
     if (plumb_units_alloc(&units, &d) != PLUMB_OK)
         return -1;
-    return mkdtemp(root) ? 0 : -1;
+    return plumbt_mkdtemp("test-criteria", root, sizeof root) ? 0 : -1;
 }
 
 static int group_teardown(void **state)

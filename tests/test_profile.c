@@ -36,7 +36,7 @@
 enum { MAX_FILES = 512, PATH_LEN = 512, TEXT_LEN = 8192 };
 
 static plumb_units *units;
-static char tmpdir[] = "/tmp/plumb-test-profile-XXXXXX";
+static char tmpdir[PATH_LEN / 2]; /* $TMPDIR/plumb-test-profile-XXXXXX */
 static char *files[MAX_FILES];
 static size_t n_files;
 
@@ -48,7 +48,7 @@ static int group_setup(void **state)
         fprintf(stderr, "units: %s\n", d.message);
         return -1;
     }
-    return mkdtemp(tmpdir) ? 0 : -1;
+    return plumbt_mkdtemp("test-profile", tmpdir, sizeof tmpdir) ? 0 : -1;
 }
 
 static int group_teardown(void **state)

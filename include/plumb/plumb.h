@@ -5,8 +5,7 @@
 #ifndef PLUMB_PLUMB_H
 #define PLUMB_PLUMB_H
 
-#define PLUMB_VERSION "0.1.0"
-
+#include "plumb/version.h"
 #include "plumb/error.h"
 #include "plumb/constants.h"
 #include "plumb/units.h"

@@ -93,7 +93,7 @@ plumb_report_options cli_report_options(const cli_args *a)
     memset(&o, 0, sizeof o);
     o.format = a->format;
     o.units = a->units;
-    o.version = PLUMB_VERSION;
+    o.version = plumb_version();
     return o;
 }
 
@@ -175,7 +175,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
             return CLI_EXIT_OK;
         }
         if (strcmp(arg, "--version") == 0) {
-            printf("plumb %s\n", PLUMB_VERSION);
+            printf("plumb %s\n", plumb_version());
             cli_args_free(a);
             return CLI_EXIT_OK;
         }

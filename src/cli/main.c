@@ -56,7 +56,7 @@ int main(int argc, char **argv)
         return CLI_EXIT_OK;
     }
     if (strcmp(name, "--version") == 0) {
-        printf("plumb %s\n", PLUMB_VERSION);
+        printf("plumb %s\n", plumb_version());
         return CLI_EXIT_OK;
     }
     for (size_t i = 0; i < N_COMMANDS; i++)

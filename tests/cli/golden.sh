@@ -97,7 +97,7 @@ else bad "--help: no usage on standard output"; fi
 expect_status 0 "fall --help" fall --help
 if grep -q '^Usage: plumb fall' "$tmp/out"; then ok; else bad "fall --help: no usage"; fi
 expect_status 0 "--version" --version
-ver=$(sed -n 's/^#define PLUMB_VERSION "\(.*\)"$/\1/p' include/plumb/plumb.h)
+ver=$(sed -n 's/^#define PLUMB_VERSION "\(.*\)"$/\1/p' include/plumb/version.h)
 if [ "$(cat "$tmp/out")" = "plumb $ver" ]; then ok
 else bad "--version printed '$(cat "$tmp/out")', expected 'plumb $ver'"; fi
 expect_status 2 "unknown command" fal profiles/demo/hand-tool.yaml

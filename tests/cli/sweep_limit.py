@@ -15,8 +15,10 @@ against closed forms and SciPy):
     and writes nothing.
 Usage: sweep_limit.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
+import atexit
 import json
 import os
+import shutil
 import subprocess
 import sys
 import tempfile
@@ -153,6 +155,7 @@ check(rc == 0 and d.get("outcome") == "impossible" and "zero height" in d.get("e
 
 # bad input: exit 2, the key named, nothing written
 tmp = tempfile.mkdtemp(prefix="plumb-sweep-")
+atexit.register(shutil.rmtree, tmp, ignore_errors=True)  # make check leaves nothing in /tmp
 out_file = os.path.join(tmp, "out.json")
 bad = [
     (["sweep", thrown, "--vary", "release.height=2m:20m"], "release.height"),

@@ -22,9 +22,11 @@ dependent air). Agreement is required to 1e-7 relative.
 
 Usage: scipy_ref.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
+import atexit
 import json
 import math
 import os
+import shutil
 import subprocess
 import sys
 import tempfile
@@ -268,6 +270,7 @@ def main():
     plumb = sys.argv[1]
     passed = failed = 0
     tmp = tempfile.mkdtemp(prefix="plumb-ref-")
+    atexit.register(shutil.rmtree, tmp, ignore_errors=True)  # make check leaves nothing in /tmp
     for i, sc in enumerate(SCENARIOS):
         path = os.path.join(tmp, f"ref{i}.yaml")
         with open(path, "w") as f:

@@ -6,6 +6,7 @@
 #include <stddef.h>
 #include <setjmp.h>
 #include <stdint.h>
+#include <stdio.h>
 #include <stdlib.h>
 #include <cmocka.h>
 #include <gsl/gsl_errno.h>
@@ -48,6 +49,15 @@ const char *plumbt_srcdir(void)
 {
     const char *d = getenv("PLUMB_SRCDIR");
     return d && *d ? d : ".";
+}
+
+char *plumbt_mkdtemp(const char *stem, char *buf, size_t size)
+{
+    const char *dir = getenv("TMPDIR");
+    int n = snprintf(buf, size, "%s/plumb-%s-XXXXXX", dir && *dir ? dir : "/tmp", stem);
+    if (n < 0 || (size_t)n >= size)
+        return NULL;
+    return mkdtemp(buf);
 }
 
 static const double const_alt_m[2] = {-1000.0, 30000.0};

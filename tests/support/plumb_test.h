@@ -41,4 +41,9 @@ struct plumb_atmosphere *plumbt_std_air(double dt_k);
 /* Root of the source tree (where profiles/ lives): $PLUMB_SRCDIR or ".". */
 const char *plumbt_srcdir(void);
 
+/* Makes a new directory $TMPDIR/plumb-STEM-XXXXXX ($TMPDIR unset or empty:
+ * /tmp) and writes its path into buf. Returns buf, or NULL when the path
+ * does not fit or mkdtemp fails. The caller removes the directory. */
+char *plumbt_mkdtemp(const char *stem, char *buf, size_t size);
+
 #endif /* PLUMB_TEST_H */
