@@ -34,7 +34,7 @@
 #include <gsl/gsl_errno.h>
 
 #include "plumb/plumb.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Measure each figure over at least this long, s. */
 #define MIN_SECONDS 0.4

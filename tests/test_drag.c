@@ -32,7 +32,7 @@
 #include <gsl/gsl_integration.h>
 
 #include "plumb/plumb.h"
-#include "internal.h"
+#include "core/internal.h"
 #include "plumb_test.h"
 
 static void test_morrison_cd_at_re_200_equals_the_published_value(void **state)

@@ -31,7 +31,7 @@
 #include "plumb/constants.h"
 #include "plumb/profile.h"
 #include "plumb_test.h"
-#include "sha256.h"
+#include "io/sha256.h"
 
 enum { MAX_FILES = 512, PATH_LEN = 512, TEXT_LEN = 8192 };
 

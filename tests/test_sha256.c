@@ -17,7 +17,7 @@
 #include <cmocka.h>
 
 #include "plumb_test.h"
-#include "sha256.h"
+#include "io/sha256.h"
 
 static void test_digest_of_abc_matches_fips_180_2_appendix_b1(void **state)
 {

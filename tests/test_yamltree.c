@@ -28,7 +28,7 @@
 
 #include "plumb/plumb.h"
 #include "plumb_test.h"
-#include "yamltree.h"
+#include "io/yamltree.h"
 
 static plumb_units *units;
 

@@ -12,7 +12,7 @@
  */
 #include <string.h>
 
-#include "sha256.h"
+#include "io/sha256.h"
 
 /* First 32 bits of the fractional parts of the cube roots of the first
  * 64 primes (FIPS 180-4 section 4.2.2). */

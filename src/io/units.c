@@ -41,7 +41,7 @@
 #include <udunits2.h>
 
 #include "plumb/units.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Longest quantity or unit text accepted, bytes (a sane unit is < 40). */
 #define UNITS_TEXT_MAX 256

@@ -29,9 +29,9 @@
 #include "plumb/constants.h"
 #include "plumb/plumb.h"
 #include "plumb/dispersion.h"
-#include "internal.h"
-#include "jsonout.h"
-#include "textout.h"
+#include "core/internal.h"
+#include "report/jsonout.h"
+#include "report/textout.h"
 
 /* Significant digits of text figures; CSV digits (JSON: jsonout.h). */
 /* Width the text wraps sentences at. */

@@ -34,9 +34,9 @@
 #include "plumb/constants.h"
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
-#include "internal.h"
-#include "sha256.h"
-#include "yamltree.h"
+#include "core/internal.h"
+#include "io/sha256.h"
+#include "io/yamltree.h"
 
 #define ARRAY_LEN(a) (sizeof(a) / sizeof((a)[0]))
 

@@ -18,7 +18,7 @@
 #include <yaml.h>
 
 #include "plumb/constants.h"
-#include "yamltree.h"
+#include "io/yamltree.h"
 
 /* First allocation of the file buffer, bytes. */
 #define READ_CHUNK 4096u

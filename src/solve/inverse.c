@@ -12,7 +12,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/inverse.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Values scanned for changes of sign before Brent refines them: 10 per
  * decade over a positive key's 6 decades. */

@@ -15,7 +15,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "internal.h"
+#include "core/internal.h"
 
 /* Significant digits of text figures; digits of CSV numbers. */
 #define TEXT_SIG 4

@@ -62,7 +62,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/dispersion.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* ---- named constants ---------------------------------------------------- */
 

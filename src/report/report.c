@@ -29,8 +29,8 @@
 
 #include <jansson.h>
 
-#include "jsonout.h"
-#include "textout.h"
+#include "report/jsonout.h"
+#include "report/textout.h"
 
 #include "plumb/constants.h"
 #include "plumb/report.h"
@@ -38,7 +38,7 @@
 #include "plumb/inverse.h"
 #include "plumb/wind.h"
 #include "plumb/gravity.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* ---- named constants ---------------------------------------------------- */
 

@@ -11,7 +11,7 @@
 
 #include "plumb/sweep.h"
 #include "plumb/atmosphere.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Digits a range value is written with: enough for any value a user types,
  * few enough that 0.1 x 3 is written "0.3", as the user would type it. */

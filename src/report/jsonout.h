@@ -17,7 +17,7 @@
 
 #include "plumb/error.h"
 #include "plumb/report.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Significant digits of JSON numbers: enough to round-trip a double. */
 #define PLUMBP_JSON_DIGITS 17

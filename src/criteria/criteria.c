@@ -19,8 +19,8 @@
 
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
-#include "internal.h"
-#include "yamltree.h"
+#include "core/internal.h"
+#include "io/yamltree.h"
 
 #define ARRAY_LEN(a) (sizeof(a) / sizeof((a)[0]))
 /* File name ending of a criterion. */

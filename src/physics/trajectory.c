@@ -26,7 +26,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/trajectory.h"
-#include "internal.h"
+#include "core/internal.h"
 
 #define NSTATE 7
 enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };

@@ -6,7 +6,7 @@
 #include <string.h>
 
 #include "plumb/error.h"
-#include "internal.h"
+#include "core/internal.h"
 
 static const char *const status_text[PLUMB_STATUS_COUNT] = {
     [PLUMB_OK] = "success",

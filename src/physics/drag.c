@@ -39,7 +39,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/drag.h"
-#include "internal.h"
+#include "core/internal.h"
 
 double plumb_drag_sphere_morrison(double re)
 {

@@ -52,7 +52,7 @@
 
 #include "plumb/atmosphere.h"
 #include "plumb/constants.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Lowest geometric altitude of the 1976 tables, m (NOAA-S/T 76-1562, Table I). */
 #define ATM_STD1976_BOTTOM_M (-5000.0)

@@ -28,7 +28,7 @@
 #include <stddef.h>
 #include "plumb/error.h"
 #include "plumb/units.h"
-#include "internal.h"
+#include "core/internal.h"
 
 /* Deepest nesting of maps and lists accepted. */
 #define PLUMBY_MAX_DEPTH 32
