@@ -35,6 +35,7 @@
 
 #include "plumb/plumb.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 
 /* Measure each figure over at least this long, s. */
 #define MIN_SECONDS 0.4

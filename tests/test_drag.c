@@ -33,6 +33,7 @@
 
 #include "plumb/plumb.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 #include "plumb_test.h"
 
 static void test_morrison_cd_at_re_200_equals_the_published_value(void **state)

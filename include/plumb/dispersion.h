@@ -51,7 +51,6 @@
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
-#include "plumb/report.h"
 
 enum {
     PLUMB_ZONE_MAX_INPUTS = 32,    /* uncertain inputs per run */
@@ -269,34 +268,5 @@ plumb_status plumb_clopper_pearson(size_t k, size_t n, double level, double *lo,
  * samples at `level`: *l = 0 when no rank bounds it below, *u = n + 1 when
  * none bounds it above. PLUMB_EINVAL for bad arguments. */
 plumb_status plumb_quantile_ranks(size_t n, double p, double level, size_t *l, size_t *u);
-
-/* ---- the report (src/report_zone.c) ---------------------------------------
- *
- * Same conventions as plumb/report.h: the cautions in every format, JSON
- * always SI with unit-suffixed keys and 17 significant digits, CSV as
- * RFC 4180 with "# " comment lines; a figure that is not finite makes the
- * writer fail with PLUMB_ENUMERIC before anything is written. Nothing in
- * JSON's "zone" objects depends on the thread count; `threads` is printed
- * beside them. */
-
-typedef struct plumb_zone_item {
-    const char *name;                 /* payload name, borrowed */
-    const plumb_zone_result *result;  /* borrowed */
-} plumb_zone_item;
-
-typedef struct plumb_zone_report {
-    const char *profile_name;         /* borrowed, may be NULL */
-    const char *profile_path;         /* borrowed, may be NULL */
-    const char *profile_sha256;       /* hex SHA-256 of the profile file, may be NULL */
-    int inventory;                    /* 1: "items": [...]; 0: one "zone" */
-    size_t n_items;                   /* items[0..n), >= 1 */
-    const plumb_zone_item *items;     /* borrowed */
-    size_t threads;                   /* threads used (reported outside "zone") */
-} plumb_zone_report;
-
-/* Writes a zone report. PLUMB_ENUMERIC if a figure is not finite,
- * PLUMB_EIO on a write error, PLUMB_EINVAL for an empty report. */
-plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt,
-                               const plumb_zone_report *rep, plumb_diag *diag);
 
 #endif /* PLUMB_DISPERSION_H */

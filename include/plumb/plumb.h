@@ -16,6 +16,7 @@
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
+#include "plumb/judge.h"
 #include "plumb/report.h"
 #include "plumb/inverse.h"
 #include "plumb/sweep.h"

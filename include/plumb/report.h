@@ -22,8 +22,10 @@
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
-
-enum { PLUMB_MAX_VERDICTS = 32, PLUMB_MAX_WARNINGS = 16, PLUMB_WARNING = 256 };
+#include "plumb/judge.h"
+#include "plumb/sweep.h"
+#include "plumb/inverse.h"
+#include "plumb/dispersion.h"
 
 typedef enum plumb_format { PLUMB_FORMAT_TEXT = 0, PLUMB_FORMAT_JSON, PLUMB_FORMAT_CSV } plumb_format;
 typedef enum plumb_unit_system { PLUMB_UNITS_SI = 0, PLUMB_UNITS_US } plumb_unit_system;
@@ -34,38 +36,8 @@ typedef struct plumb_report_options {
     const char *version;          /* program version for the header, may be NULL */
 } plumb_report_options;
 
-/* One payload's fall, judged. */
-typedef struct plumb_item_report {
-    const plumb_fall_spec *spec;                 /* borrowed */
-    const plumb_shape_spec *shape;               /* borrowed, kind NONE if drag given */
-    plumb_fall_result result;                    /* the computed fall */
-    size_t n_verdicts;                           /* verdicts[0..n) */
-    plumb_verdict verdicts[PLUMB_MAX_VERDICTS];  /* one per criterion of the profile */
-    size_t n_warnings;                           /* warnings[0..n) */
-    char warnings[PLUMB_MAX_WARNINGS][PLUMB_WARNING]; /* Mach, correlation range ... */
-} plumb_item_report;
-
-/* A whole `plumb fall` report. */
-typedef struct plumb_fall_report {
-    const plumb_profile *profile;   /* borrowed: name, path, sha256, inputs */
-    size_t n_items;                 /* 1 unless inventory */
-    plumb_item_report *items;       /* borrowed array of n_items */
-} plumb_fall_report;
-
 /* The cautions, in order; *n gets their count. Static strings. Can't fail. */
 const char *const *plumb_cautions(size_t *n);
-
-/* Checks that every criterion the profile names is in the set: PLUMB_EKEY
- * located at the entry, with a did-you-mean, for one that is not. */
-plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
-                                          const plumb_criteria *criteria, plumb_diag *diag);
-
-/* Computes item->verdicts and item->warnings for a finished fall.
- * Criteria named by the profile and missing from the set give PLUMB_EKEY
- * with a did-you-mean. */
-plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
-                              const plumb_criteria *criteria, const plumb_atmosphere *atm,
-                              plumb_diag *diag);
 
 /* Writes a fall report. PLUMB_ENUMERIC if any figure is not finite,
  * PLUMB_EIO on a write error. */
@@ -89,18 +61,44 @@ plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
                               const plumb_air *rows, size_t n_rows, plumb_diag *diag);
 
-struct plumb_sweep;         /* sweep.h */
-struct plumb_limit_report;  /* inverse.h */
-
 /* Writes the table of a `plumb sweep`: one row per value (per item for an
  * inventory), each row's figures exactly those of `plumb fall` at that
  * value; text adds an energy matrix for a two-way sweep. */
 plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
-                                const struct plumb_sweep *sweep, plumb_diag *diag);
+                                const plumb_sweep *sweep, plumb_diag *diag);
 
 /* Writes the answer of a `plumb limit`: the value found per item, or why
  * there is none. */
 plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
-                                const struct plumb_limit_report *rep, plumb_diag *diag);
+                                const plumb_limit_report *rep, plumb_diag *diag);
+
+/* ---- the zone report (src/report/report_zone.c) ---------------------------------------
+ *
+ * Same conventions as plumb/report.h: the cautions in every format, JSON
+ * always SI with unit-suffixed keys and 17 significant digits, CSV as
+ * RFC 4180 with "# " comment lines; a figure that is not finite makes the
+ * writer fail with PLUMB_ENUMERIC before anything is written. Nothing in
+ * JSON's "zone" objects depends on the thread count; `threads` is printed
+ * beside them. */
+
+typedef struct plumb_zone_item {
+    const char *name;                 /* payload name, borrowed */
+    const plumb_zone_result *result;  /* borrowed */
+} plumb_zone_item;
+
+typedef struct plumb_zone_report {
+    const char *profile_name;         /* borrowed, may be NULL */
+    const char *profile_path;         /* borrowed, may be NULL */
+    const char *profile_sha256;       /* hex SHA-256 of the profile file, may be NULL */
+    int inventory;                    /* 1: "items": [...]; 0: one "zone" */
+    size_t n_items;                   /* items[0..n), >= 1 */
+    const plumb_zone_item *items;     /* borrowed */
+    size_t threads;                   /* threads used (reported outside "zone") */
+} plumb_zone_report;
+
+/* Writes a zone report. PLUMB_ENUMERIC if a figure is not finite,
+ * PLUMB_EIO on a write error, PLUMB_EINVAL for an empty report. */
+plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt,
+                               const plumb_zone_report *rep, plumb_diag *diag);
 
 #endif /* PLUMB_REPORT_H */

@@ -28,7 +28,7 @@
 #include "plumb/profile.h"
 #include "plumb/criteria.h"
 #include "plumb/trajectory.h"
-#include "plumb/report.h"
+#include "plumb/judge.h"
 
 /* Rows allowed in one range and in a whole sweep. */
 #define PLUMB_RANGE_MAX_VALUES 100000u

@@ -40,6 +40,10 @@ typedef enum plumb_descent_kind {
     PLUMB_DESCENT_DROGUE          /* "drogue" */
 } plumb_descent_kind;
 
+/* The profile's word for a kind of device ("parachute", "streamer",
+ * "drogue"); a static string. Can't fail. */
+const char *plumb_descent_kind_name(plumb_descent_kind kind);
+
 typedef enum plumb_deploy_trigger {
     PLUMB_DEPLOY_AFTER = 0,       /* deploy_value is a time from release, s */
     PLUMB_DEPLOY_BELOW            /* deploy_value is a height above the strike level, m */

@@ -7,7 +7,6 @@
 #include <stdarg.h>
 #include <stddef.h>
 #include "plumb/error.h"
-#include "plumb/drag.h"
 
 #if defined(__GNUC__)
 #define PLUMBP_PRINTF(f, a) __attribute__((format(printf, f, a)))
@@ -46,19 +45,5 @@ const char *plumbp_closest(const char *word, const char *const *candidates, size
 
 /* True when x is neither NaN nor infinite. */
 int plumbp_finite(double x);
-
-/* One evaluation of the fall's right-hand side (trajectory.c) at time t_s
- * and state y (x, y, z, vx, vy, vz, W), into f; for measuring its cost
- * (`make bench`). Returns 0 on success. */
-struct plumb_fall_spec;
-struct plumb_atmosphere;
-int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmosphere *atm,
-                    double t_s, const double y[7], double f[7]);
-
-/* The Reynolds-number intervals of a sphere drag model on which
- * Cd(Re) Re^2 may decrease (drag.c), sorted and disjoint; outside them the
- * drag balance has at most one root. Sets *re (static table) and returns
- * their number; 0 and NULL for fixed drag. */
-size_t plumbp_drag_crisis(plumb_drag_model model, const double (**re)[2]);
 
 #endif /* PLUMB_INTERNAL_H */

@@ -18,7 +18,7 @@
 #include <string.h>
 
 #include "plumb/criteria.h"
-#include "plumb/profile.h"
+#include "plumb/profile.h" /* PLUMB_PROFILE_MAX_BYTES: a criteria file is read as a profile is */
 #include "core/internal.h"
 #include "io/yamltree.h"
 

@@ -32,7 +32,6 @@
 #include <string.h>
 
 #include "plumb/constants.h"
-#include "plumb/criteria.h"
 #include "plumb/profile.h"
 #include "core/internal.h"
 #include "io/sha256.h"
@@ -1317,7 +1316,7 @@ static plumb_status read_criteria(loader *L)
         !(L->p->criteria_pos = calloc(c->n, sizeof *L->p->criteria_pos)))
         return nomem(L);
     for (size_t i = 0; i < c->n; i++) {
-        char id[PLUMB_CRIT_ID], key[PLUMB_DIAG_KEY];
+        char id[PLUMB_DIAG_KEY], key[PLUMB_DIAG_KEY]; /* an id longer than a criterion id is unknown */
         const plumby_node *it = c->items[i];
         plumby_key_join(key, sizeof key, "criteria", NULL, i);
         plumb_status st = plumby_text_node(&L->ctx, it, key, id, sizeof id);

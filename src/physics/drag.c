@@ -40,6 +40,7 @@
 #include "plumb/constants.h"
 #include "plumb/drag.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 
 double plumb_drag_sphere_morrison(double re)
 {

@@ -27,6 +27,7 @@
 #include "plumb/constants.h"
 #include "plumb/trajectory.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 
 #define NSTATE 7
 enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
@@ -259,6 +260,16 @@ static int rhs_henon(double s, const double u[], double du[], void *params)
         du[i] = f[i] * inv;
     du[h->k] = inv;
     return GSL_SUCCESS;
+}
+
+const char *plumb_descent_kind_name(plumb_descent_kind kind)
+{
+    switch (kind) {
+    case PLUMB_DESCENT_STREAMER: return "streamer";
+    case PLUMB_DESCENT_DROGUE: return "drogue";
+    case PLUMB_DESCENT_PARACHUTE:
+    default: return "parachute";
+    }
 }
 
 /* ---- workspace ------------------------------------------------------------ */

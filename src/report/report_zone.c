@@ -27,7 +27,8 @@
 #include <jansson.h>
 
 #include "plumb/constants.h"
-#include "plumb/plumb.h"
+#include "plumb/report.h"
+#include "plumb/version.h"
 #include "plumb/dispersion.h"
 #include "core/internal.h"
 #include "report/jsonout.h"

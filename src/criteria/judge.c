@@ -1,0 +1,181 @@
+/*
+ * judge.c - a finished fall judged against the criteria, and the warnings
+ * that go with its figures (include/plumb/judge.h). Judging lives with the
+ * criteria: the report writers only print what is decided here.
+ */
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "plumb/judge.h"
+#include "core/internal.h"
+
+/* Mach number above which the report warns: drag coefficients measured in
+ * incompressible flow no longer hold (common practice, no source). */
+#define WARN_MACH 0.5
+/* Upper end of the Reynolds-number range of the sphere-drag correlations:
+ * Morrison (2010 handout, eq. 1) states Re <= 1e6; the Clift-Grace-Weber curve (1978,
+ * Table 5.2) ends with its 4e5 < Re < 1e6 piece. */
+#define MORRISON_RE_MAX 1.0e6
+#define CGW_RE_MAX 1.0e6
+
+/* ---- verdicts and warnings ---------------------------------------------- */
+
+/* Appends a warning (a sentence) to the item; silently stops when full. */
+static void add_warning(plumb_item_report *item, const char *fmt, ...) PLUMBP_PRINTF(2, 3);
+
+static void add_warning(plumb_item_report *item, const char *fmt, ...)
+{
+    if (item->n_warnings >= PLUMB_MAX_WARNINGS)
+        return;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(item->warnings[item->n_warnings], PLUMB_WARNING, fmt, ap);
+    va_end(ap);
+    item->n_warnings++;
+}
+
+/* Most bytes of the list of criterion ids an unknown-criterion message
+ * quotes; a longer list ends in "...". */
+#define CRIT_LIST_MAX 300
+
+static plumb_status unknown_criterion(const char *name, size_t index,
+                                      const plumb_profile *profile,
+                                      const plumb_criteria *criteria, plumb_diag *diag)
+{
+    size_t n = plumb_criteria_count(criteria);
+    char key[PLUMB_DIAG_KEY];
+    snprintf(key, sizeof key, "criteria[%zu]", index);
+    int line, col;
+    plumb_profile_criterion_position(profile, index, &line, &col);
+    const char *file = plumb_profile_criterion_file(profile, index);
+    if (n == 0)
+        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
+                              "unknown criterion '%s'; no criteria are loaded", name);
+    /* the ids there are, as many as fit */
+    char ids[CRIT_LIST_MAX];
+    size_t len = 0;
+    ids[0] = '\0';
+    for (size_t i = 0; i < n; i++) {
+        const char *id = plumb_criteria_get(criteria, i)->id;
+        if (len + strlen(id) + 2 + sizeof ", ..." > sizeof ids) {
+            snprintf(ids + len, sizeof ids - len, ", ...");
+            break;
+        }
+        len += (size_t)snprintf(ids + len, sizeof ids - len, "%s%s", i ? ", " : "", id);
+    }
+    return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
+                          "unknown criterion '%s'; did you mean '%s'? (the criteria directory "
+                          "has %zu: %s)",
+                          name, plumb_criteria_nearest(criteria, name)->id, n, ids);
+}
+
+/* Names the helmet-test criteria among the verdicts in one sentence, or
+ * says so without names when they do not fit. */
+static void warn_helmet_tests(plumb_item_report *item)
+{
+    char names[PLUMB_WARNING] = "";
+    size_t count = 0, len = 0;
+    int fits = 1;
+    for (size_t i = 0; i < item->n_verdicts; i++) {
+        const plumb_criterion *c = item->verdicts[i].criterion;
+        if (c->kind != PLUMB_CRIT_HELMET_TEST)
+            continue;
+        int w = snprintf(names + len, sizeof names - len, "%s%s", count ? ", " : "", c->id);
+        if (w < 0 || (size_t)w >= sizeof names - len)
+            fits = 0;
+        else
+            len += (size_t)w;
+        count++;
+    }
+    if (count == 0)
+        return;
+    char sentence[PLUMB_WARNING * 2];
+    if (fits && count == 1)
+        snprintf(sentence, sizeof sentence,
+                 "%s is the energy a helmet is tested to, not a safe limit: a blow below it "
+                 "can still injure, with or without a helmet.", names);
+    else if (fits)
+        snprintf(sentence, sizeof sentence,
+                 "%s are the energies helmets are tested to, not safe limits: a blow below "
+                 "them can still injure, with or without a helmet.", names);
+    else
+        snprintf(sentence, sizeof sentence,
+                 "%zu of the criteria are the energies helmets are tested to, not safe limits: "
+                 "a blow below them can still injure, with or without a helmet.", count);
+    add_warning(item, "%s", sentence);
+}
+
+plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
+                                          const plumb_criteria *criteria, plumb_diag *diag)
+{
+    size_t named = plumb_profile_criteria_count(profile);
+    for (size_t i = 0; i < named; i++) {
+        const char *name = plumb_profile_criterion(profile, i);
+        if (!plumb_criteria_find(criteria, name))
+            return unknown_criterion(name, i, profile, criteria, diag);
+    }
+    return PLUMB_OK;
+}
+
+plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
+                              const plumb_criteria *criteria, const plumb_atmosphere *atm,
+                              plumb_diag *diag)
+{
+    (void)atm; /* the fall result already carries the Mach and Reynolds ranges */
+    if (!item || !item->spec)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no fall to judge");
+    item->n_verdicts = 0;
+    item->n_warnings = 0;
+    const plumb_fall_result *r = &item->result;
+
+    size_t named = profile ? plumb_profile_criteria_count(profile) : 0;
+    size_t total = named ? named : plumb_criteria_count(criteria);
+    if (total > PLUMB_MAX_VERDICTS)
+        return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "criteria",
+                               "%zu criteria to judge; at most %d are reported", total,
+                               PLUMB_MAX_VERDICTS);
+    for (size_t i = 0; i < total; i++) {
+        const plumb_criterion *c;
+        if (named) {
+            const char *name = plumb_profile_criterion(profile, i);
+            c = plumb_criteria_find(criteria, name);
+            if (!c) {
+                item->n_verdicts = 0;
+                return unknown_criterion(name, i, profile, criteria, diag);
+            }
+        } else {
+            c = plumb_criteria_get(criteria, i);
+        }
+        plumb_criterion_judge(c, r->energy_j, &item->verdicts[item->n_verdicts++]);
+    }
+
+    if (r->max_mach > WARN_MACH)
+        add_warning(item,
+                    "The air speed reaches Mach %.2f on the way (above %.1f): the drag "
+                    "coefficient, measured in slower air, no longer holds, so the speed and "
+                    "energy are less certain.", r->max_mach, WARN_MACH);
+    const plumb_drag_spec *d = &item->spec->drag;
+    if (d->model == PLUMB_DRAG_SPHERE_MORRISON && r->max_re > MORRISON_RE_MAX)
+        add_warning(item,
+                    "The Reynolds number runs from %.3g to %.3g, beyond Morrison's sphere-drag "
+                    "correlation (valid for Re up to %.0e): its drag is extrapolated there.",
+                    r->min_re, r->max_re, MORRISON_RE_MAX);
+    if (d->model == PLUMB_DRAG_SPHERE_CGW && r->max_re > CGW_RE_MAX)
+        add_warning(item,
+                    "The Reynolds number runs from %.3g to %.3g, beyond the Clift-Grace-Weber "
+                    "sphere-drag curve (Re up to %.0e): its drag is extrapolated there.",
+                    r->min_re, r->max_re, CGW_RE_MAX);
+    if (d->extrapolated)
+        add_warning(item,
+                    "The shape's aspect ratio lies outside the handbook table its drag "
+                    "coefficient comes from; the table's end value is used.");
+    for (size_t i = r->n_deployed; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
+        add_warning(item,
+                    "The %s (device %zu) does not open before impact: the figures are those "
+                    "of a fall without it.", plumb_descent_kind_name(item->spec->descent[i].kind),
+                    i + 1);
+    warn_helmet_tests(item);
+    return PLUMB_OK;
+}
+
