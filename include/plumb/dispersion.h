@@ -269,4 +269,21 @@ plumb_status plumb_clopper_pearson(size_t k, size_t n, double level, double *lo,
  * none bounds it above. PLUMB_EINVAL for bad arguments. */
 plumb_status plumb_quantile_ranks(size_t n, double p, double level, size_t *l, size_t *u);
 
+/* A zone report: the zones of a profile's items, for the writer
+ * plumb_report_zone (report.h). */
+typedef struct plumb_zone_item {
+    const char *name;                 /* payload name, borrowed */
+    const plumb_zone_result *result;  /* borrowed */
+} plumb_zone_item;
+
+typedef struct plumb_zone_report {
+    const char *profile_name;         /* borrowed, may be NULL */
+    const char *profile_path;         /* borrowed, may be NULL */
+    const char *profile_sha256;       /* hex SHA-256 of the profile file, may be NULL */
+    int inventory;                    /* 1: "items": [...]; 0: one "zone" */
+    size_t n_items;                   /* items[0..n), >= 1 */
+    const plumb_zone_item *items;     /* borrowed */
+    size_t threads;                   /* threads used (reported outside "zone") */
+} plumb_zone_report;
+
 #endif /* PLUMB_DISPERSION_H */

@@ -21,5 +21,6 @@
 #include "plumb/inverse.h"
 #include "plumb/sweep.h"
 #include "plumb/dispersion.h"
+#include "plumb/study.h"
 
 #endif /* PLUMB_PLUMB_H */

@@ -78,6 +78,23 @@ plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *
                                   const char *const *sets, size_t n_sets,
                                   plumb_profile **out, plumb_diag *diag);
 
+/* The path of a profile made by plumb_profile_from_spec. */
+#define PLUMB_PROFILE_FROM_CODE "<built in code>"
+
+/* Makes a one-item profile of a fall spec built in code, with its air and
+ * the ids of the criteria it names (n_criteria 0: none named, so every
+ * criterion of a set applies). Everything is copied: the spec, its wind
+ * table, the air spec's tables, the ids. Its path is
+ * PLUMB_PROFILE_FROM_CODE, its name spec->name ("payload" when empty), its
+ * zone settings the defaults, with no uncertainty; its SHA-256 is that of
+ * a canonical text of every input (each number to 17 significant digits),
+ * so its reports can be traced to what was computed. PLUMB_EINVAL for a
+ * table wind or air without its rows; on error *out is NULL. The spec's
+ * values are checked when it is run, not here. */
+plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_atm_spec *atm,
+                                     const char *const *criteria, size_t n_criteria,
+                                     plumb_profile **out, plumb_diag *diag);
+
 /* Frees a profile. Accepts NULL. */
 void plumb_profile_free(plumb_profile *p);
 

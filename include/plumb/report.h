@@ -81,21 +81,6 @@ plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
  * JSON's "zone" objects depends on the thread count; `threads` is printed
  * beside them. */
 
-typedef struct plumb_zone_item {
-    const char *name;                 /* payload name, borrowed */
-    const plumb_zone_result *result;  /* borrowed */
-} plumb_zone_item;
-
-typedef struct plumb_zone_report {
-    const char *profile_name;         /* borrowed, may be NULL */
-    const char *profile_path;         /* borrowed, may be NULL */
-    const char *profile_sha256;       /* hex SHA-256 of the profile file, may be NULL */
-    int inventory;                    /* 1: "items": [...]; 0: one "zone" */
-    size_t n_items;                   /* items[0..n), >= 1 */
-    const plumb_zone_item *items;     /* borrowed */
-    size_t threads;                   /* threads used (reported outside "zone") */
-} plumb_zone_report;
-
 /* Writes a zone report. PLUMB_ENUMERIC if a figure is not finite,
  * PLUMB_EIO on a write error, PLUMB_EINVAL for an empty report. */
 plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt,

@@ -422,6 +422,33 @@ plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_u
     return st;
 }
 
+plumb_status cli_study_open(const cli_args *a, const char *path, cli_study *cs, plumb_diag *diag)
+{
+    char dir[CLI_PATH_MAX];
+    memset(cs, 0, sizeof *cs);
+    plumb_diag_clear(diag);
+    plumb_status st = plumb_units_alloc(&cs->units, diag);
+    if (st == PLUMB_OK)
+        st = cli_profile_load(a, path, cs->units, &cs->profile, diag);
+    if (st == PLUMB_OK)
+        st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), cs->units,
+                                     &cs->criteria, diag);
+    if (st == PLUMB_OK)
+        st = plumb_study_open(cs->profile, cs->criteria, cs->units, NULL, &cs->study, diag);
+    if (st != PLUMB_OK && diag->status == PLUMB_OK)
+        diag->status = st;
+    return st;
+}
+
+void cli_study_close(cli_study *cs)
+{
+    plumb_study_free(cs->study);
+    plumb_criteria_free(cs->criteria);
+    plumb_profile_free(cs->profile);
+    plumb_units_free(cs->units);
+    memset(cs, 0, sizeof *cs);
+}
+
 static int cli_is_dir(const char *path)
 {
     struct stat st;

@@ -124,6 +124,23 @@ plumb_status cli_write_output(const char *path, const char *buf, size_t len, plu
 plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
                               plumb_profile **out, plumb_diag *diag);
 
+/* What a command opens before it asks its question: units, the profile
+ * (cli_profile_load), the criteria (cli_criteria_dir) and the study over
+ * them (plumb_study_open). */
+typedef struct cli_study {
+    plumb_units *units;
+    plumb_profile *profile;
+    plumb_criteria *criteria;
+    plumb_study *study;
+} cli_study;
+
+/* Opens all of a cli_study in that order; on error the diagnostic says
+ * why and cs holds only what was made (cli_study_close frees it). */
+plumb_status cli_study_open(const cli_args *a, const char *path, cli_study *cs, plumb_diag *diag);
+
+/* Frees everything a cli_study holds. */
+void cli_study_close(cli_study *cs);
+
 /* 1 when path `out` is an existing file that is the same file as `in`
  * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);

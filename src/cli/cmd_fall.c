@@ -3,11 +3,10 @@
  * of each item of an inventory) from its release point, judged against the
  * named criteria, as text, JSON or CSV (design.md sections 2, 4 and 6).
  *
- * One trajectory workspace (default options: rk8pd, Henon impact location)
- * is reused for every item, and one atmosphere is built per profile.
+ * The work is the study's (plumb/study.h): this handler parses the
+ * options, opens the study, asks for the falls and writes the report.
  */
 #include <stdio.h>
-#include <stdlib.h>
 #include <string.h>
 
 #include "cli.h"
@@ -24,22 +23,13 @@ static const char usage[] =
 
 typedef struct fall_job {
     plumb_report_options opt;
-    plumb_fall_report rep;
+    const plumb_fall_report *rep;
 } fall_job;
 
 static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
 {
     const fall_job *job = ctx;
-    return plumb_report_fall(out, &job->opt, &job->rep, diag);
-}
-
-/* Points a failed fall's diagnostic at the profile and the item. */
-static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item)
-{
-    if (diag->file[0] == '\0')
-        snprintf(diag->file, sizeof diag->file, "%s", plumb_profile_path(prof));
-    if (diag->key[0] == '\0' && plumb_profile_is_inventory(prof))
-        snprintf(diag->key, sizeof diag->key, "items[%zu]", item + 1); /* from 1 */
+    return plumb_report_fall(out, &job->opt, job->rep, diag);
 }
 
 static int run(const cli_args *a)
@@ -52,61 +42,14 @@ static int run(const cli_args *a)
     if (a->output && cli_same_file(a->output, path))
         return cli_usage_error(a->cmd, "-o %s would overwrite the profile", a->output);
 
+    cli_study cs;
     plumb_diag diag;
-    plumb_diag_clear(&diag);
-    plumb_units *units = NULL;
-    plumb_profile *prof = NULL;
-    plumb_criteria *crit = NULL;
-    plumb_atmosphere *atm = NULL;
-    plumb_trajectory *traj = NULL;
-    plumb_item_report *items = NULL;
-    char dir[CLI_PATH_MAX];
-
-    plumb_status st = plumb_units_alloc(&units, &diag);
+    fall_job job = {cli_report_options(a), NULL};
+    plumb_status st = cli_study_open(a, path, &cs, &diag);
     if (st == PLUMB_OK)
-        st = cli_profile_load(a, path, units, &prof, &diag);
-    if (st == PLUMB_OK)
-        st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
-    if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(prof), &atm, &diag);
-    if (st == PLUMB_OK && (st = plumb_trajectory_alloc(NULL, &traj)) != PLUMB_OK) {
-        diag.status = st;
-        snprintf(diag.message, sizeof diag.message, "cannot make the trajectory workspace: %s",
-                 plumb_strerror(st));
-    }
-    size_t n = st == PLUMB_OK ? plumb_profile_item_count(prof) : 0;
-    if (st == PLUMB_OK && (items = calloc(n ? n : 1, sizeof *items)) == NULL) {
-        st = diag.status = PLUMB_ENOMEM;
-        snprintf(diag.message, sizeof diag.message, "out of memory");
-    }
-    for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
-        items[i].spec = plumb_profile_item(prof, i);
-        items[i].shape = plumb_profile_item_shape(prof, i);
-        st = plumb_trajectory_run(traj, items[i].spec, atm, &items[i].result, &diag);
-        if (st == PLUMB_OK)
-            st = plumb_item_judge(&items[i], prof, crit, atm, &diag);
-        if (st != PLUMB_OK)
-            locate(&diag, prof, i);
-    }
-
-    int rc;
-    if (st == PLUMB_OK) {
-        fall_job job;
-        memset(&job, 0, sizeof job);
-        job.opt = cli_report_options(a);
-        job.rep.profile = prof;
-        job.rep.n_items = n;
-        job.rep.items = items;
-        rc = cli_emit(a, write_report, &job);
-    } else {
-        rc = cli_fail(&diag);
-    }
-    free(items);
-    plumb_trajectory_free(traj);
-    plumb_atmosphere_free(atm);
-    plumb_criteria_free(crit);
-    plumb_profile_free(prof);
-    plumb_units_free(units);
+        st = plumb_study_fall(cs.study, &job.rep, &diag);
+    int rc = st == PLUMB_OK ? cli_emit(a, write_report, &job) : cli_fail(&diag);
+    cli_study_close(&cs);
     return rc;
 }
 

@@ -41,35 +41,20 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         return cli_usage_error(a->cmd, "needs --vary KEY=FROM:TO:STEP");
     if (a->output && cli_same_file(a->output, a->args[0]))
         return cli_usage_error(a->cmd, "-o %s would overwrite the profile", a->output);
+    cli_study cs;
     plumb_diag diag;
-    plumb_diag_clear(&diag);
-    plumb_units *units = NULL;
-    plumb_profile *prof = NULL;
-    plumb_criteria *crit = NULL;
-    plumb_trajectory *traj = NULL;
     plumb_sweep *sweep = NULL;
     plumb_range axes[PLUMB_MAX_AXES];
-    char dir[CLI_PATH_MAX];
-
-    plumb_status st = plumb_units_alloc(&units, &diag);
+    plumb_status st = cli_study_open(a, a->args[0], &cs, &diag);
+    /* a bad range is the command line's error; ranges are read with the
+     * study's units before any fall is run */
     for (size_t i = 0; st == PLUMB_OK && i < n_vary; i++)
-        st = plumb_range_parse_key(units, vary[i], &axes[i], &diag);
+        st = plumb_range_parse_key(cs.units, vary[i], &axes[i], &diag);
     if (st == PLUMB_OK)
-        st = cli_profile_load(a, a->args[0], units, &prof, &diag);
-    if (st == PLUMB_OK)
-        st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
-    if (st == PLUMB_OK) /* a criterion typo is the profile's error, not every row's */
-        st = plumb_profile_criteria_check(prof, crit, &diag);
-    if (st == PLUMB_OK)
-        st = plumb_trajectory_alloc(NULL, &traj);
-    if (st == PLUMB_OK)
-        st = plumb_sweep_run(prof, units, crit, axes, n_vary, traj, &sweep, &diag);
+        st = plumb_study_sweep(cs.study, axes, n_vary, &sweep, &diag);
     int rc;
     if (st == PLUMB_OK) {
-        sweep_job job;
-        memset(&job, 0, sizeof job);
-        job.opt = cli_report_options(a);
-        job.sweep = sweep;
+        sweep_job job = {cli_report_options(a), sweep};
         rc = cli_emit(a, write_report, &job);
         size_t failed = plumb_sweep_failed_count(sweep);
         if (rc == CLI_EXIT_OK && failed > 0) {
@@ -85,10 +70,7 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         rc = cli_fail(&diag);
     }
     plumb_sweep_free(sweep);
-    plumb_trajectory_free(traj);
-    plumb_criteria_free(crit);
-    plumb_profile_free(prof);
-    plumb_units_free(units);
+    cli_study_close(&cs);
     return rc;
 }
 

@@ -1,0 +1,285 @@
+/*
+ * study.c - the one engine under every command (include/plumb/study.h):
+ * a profile and a set of criteria resolved once (air, trajectory
+ * workspace, the criteria the profile names), then the fall of each item,
+ * a sweep, a limit or a zone from it. The command-line handlers only parse
+ * options, call these and write.
+ */
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "plumb/study.h"
+#include "core/internal.h"
+
+struct plumb_study {
+    const plumb_profile *profile;   /* borrowed, or own_profile */
+    plumb_profile *own_profile;     /* plumb_study_open_spec's */
+    const plumb_criteria *criteria; /* borrowed */
+    const plumb_units *units;       /* borrowed */
+    plumb_atmosphere *atm;
+    plumb_trajectory *traj;
+    size_t n_items;
+    plumb_item_report *items;       /* the falls (plumb_study_fall) */
+    plumb_fall_report fall;
+    plumb_limit_result *limits;     /* the limits (plumb_study_limit) */
+    plumb_limit_report limit;
+    char limit_key[PLUMB_DIAG_KEY];
+    plumb_zone_result *zones;       /* the zones (plumb_study_zone) */
+    plumb_zone_item *zone_items;
+    plumb_zone_report zone;
+};
+
+void plumb_study_free(plumb_study *s)
+{
+    if (!s)
+        return;
+    free(s->items);
+    free(s->limits);
+    free(s->zones);
+    free(s->zone_items);
+    plumb_trajectory_free(s->traj);
+    plumb_atmosphere_free(s->atm);
+    plumb_profile_free(s->own_profile);
+    free(s);
+}
+
+plumb_status plumb_study_open(const plumb_profile *profile, const plumb_criteria *criteria,
+                              const plumb_units *units, const plumb_trajectory_options *opt,
+                              plumb_study **out, plumb_diag *diag)
+{
+    *out = NULL;
+    if (!profile || !criteria || !units)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "a study needs a profile, criteria and units");
+    plumb_study *s = calloc(1, sizeof *s);
+    if (!s)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    s->profile = profile;
+    s->criteria = criteria;
+    s->units = units;
+    s->n_items = plumb_profile_item_count(profile);
+    plumb_status st = plumb_profile_criteria_check(profile, criteria, diag);
+    if (st == PLUMB_OK)
+        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(profile), &s->atm, diag);
+    if (st == PLUMB_OK && (st = plumb_trajectory_alloc(opt, &s->traj)) != PLUMB_OK)
+        st = plumbp_raise(diag, st, NULL, 0, 0, NULL, "cannot make the trajectory workspace: %s",
+                          plumb_strerror(st));
+    if (st == PLUMB_OK && !(s->items = calloc(s->n_items ? s->n_items : 1, sizeof *s->items)))
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    if (st != PLUMB_OK) {
+        plumb_study_free(s);
+        return st;
+    }
+    *out = s;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_study_open_spec(const plumb_fall_spec *spec, const plumb_atm_spec *atm,
+                                   const char *const *criterion_ids, size_t n_ids,
+                                   const plumb_criteria *criteria, const plumb_units *units,
+                                   plumb_study **out, plumb_diag *diag)
+{
+    *out = NULL;
+    plumb_profile *p = NULL;
+    plumb_status st = plumb_profile_from_spec(spec, atm, criterion_ids, n_ids, &p, diag);
+    if (st != PLUMB_OK)
+        return st;
+    st = plumb_study_open(p, criteria, units, NULL, out, diag);
+    if (st != PLUMB_OK) {
+        plumb_profile_free(p);
+        return st;
+    }
+    (*out)->own_profile = p;
+    return PLUMB_OK;
+}
+
+const plumb_profile *plumb_study_profile(const plumb_study *s)
+{
+    return s->profile;
+}
+
+const plumb_atmosphere *plumb_study_atmosphere(const plumb_study *s)
+{
+    return s->atm;
+}
+
+/* Points a failed item's diagnostic at the profile and, for an inventory,
+ * at the item, counted from 1 as the reports count. */
+static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item)
+{
+    if (!diag)
+        return;
+    if (diag->file[0] == '\0')
+        plumbp_strlcpy(diag->file, plumb_profile_path(prof), sizeof diag->file);
+    if (diag->key[0] == '\0' && plumb_profile_is_inventory(prof))
+        snprintf(diag->key, sizeof diag->key, "items[%zu]", item + 1);
+}
+
+plumb_status plumb_study_fall(plumb_study *s, const plumb_fall_report **out, plumb_diag *diag)
+{
+    *out = NULL;
+    for (size_t i = 0; i < s->n_items; i++) {
+        plumb_item_report *it = &s->items[i];
+        memset(it, 0, sizeof *it);
+        it->spec = plumb_profile_item(s->profile, i);
+        it->shape = plumb_profile_item_shape(s->profile, i);
+        plumb_status st = plumb_trajectory_run(s->traj, it->spec, s->atm, &it->result, diag);
+        if (st == PLUMB_OK)
+            st = plumb_item_judge(it, s->profile, s->criteria, s->atm, diag);
+        if (st != PLUMB_OK) {
+            locate(diag, s->profile, i);
+            return st;
+        }
+    }
+    s->fall = (plumb_fall_report){s->profile, s->n_items, s->items};
+    *out = &s->fall;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_study_sweep(plumb_study *s, const plumb_range *axes, size_t n_axes,
+                               plumb_sweep **out, plumb_diag *diag)
+{
+    return plumb_sweep_run(s->profile, s->units, s->criteria, axes, n_axes, s->traj, out, diag);
+}
+
+static plumb_status at_option(plumb_diag *diag, plumb_status st, const char *option)
+{
+    if (diag) {
+        if (!diag->file[0])
+            plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
+        if (!diag->key[0] && option)
+            plumbp_strlcpy(diag->key, option, sizeof diag->key);
+    }
+    return st;
+}
+
+plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
+                                     const char *text, const char *option, double *limit,
+                                     const plumb_criterion **criterion, plumb_diag *diag)
+{
+    *criterion = NULL;
+    if (metric == PLUMB_METRIC_ENERGY) {
+        const plumb_criterion *c = plumb_criteria_find(s->criteria, text);
+        if (c) {
+            *criterion = c;
+            *limit = c->energy_limit_j;
+            return PLUMB_OK;
+        }
+    }
+    plumb_dim dim = metric == PLUMB_METRIC_ENERGY ? PLUMB_DIM_ENERGY
+                    : metric == PLUMB_METRIC_SPEED ? PLUMB_DIM_SPEED
+                                                   : PLUMB_DIM_LENGTH;
+    double x = 0.0;
+    plumb_status st = plumb_units_parse(s->units, text, dim, &x, diag);
+    if (st != PLUMB_OK) {
+        static const char more[] = " (or a criterion's name)";
+        size_t len = diag ? strlen(diag->message) : 0;
+        if (diag && metric == PLUMB_METRIC_ENERGY && len + sizeof more <= sizeof diag->message)
+            memcpy(diag->message + len, more, sizeof more);
+        if (diag)
+            diag->file[0] = diag->key[0] = '\0';
+        return at_option(diag, st, option);
+    }
+    if (!(x > 0.0))
+        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, option,
+                              "the limit must be > 0, found '%s'", text);
+    *limit = x;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric metric,
+                               double limit, const plumb_criterion *criterion,
+                               const plumb_limit_options *opt, const plumb_limit_report **out,
+                               plumb_diag *diag)
+{
+    *out = NULL;
+    plumb_dim kd;
+    plumb_status st = plumb_profile_key_dim(key, &kd, diag);
+    if (st != PLUMB_OK)
+        return at_option(diag, st, NULL);
+    free(s->limits);
+    if (!(s->limits = calloc(s->n_items ? s->n_items : 1, sizeof *s->limits)))
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    for (size_t i = 0; i < s->n_items; i++) {
+        st = plumb_limit_solve(s->profile, s->units, i, key, metric, limit, opt, s->traj,
+                               &s->limits[i], diag);
+        if (st != PLUMB_OK)
+            return st;
+    }
+    plumbp_strlcpy(s->limit_key, key, sizeof s->limit_key);
+    s->limit = (plumb_limit_report){s->profile, s->limit_key, metric, limit,
+                                    criterion ? criterion->id : NULL, s->n_items, s->limits,
+                                    criterion};
+    *out = &s->limit;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
+                              const plumb_zone_options *opt, plumb_study_item_fn on_item,
+                              void *user, const plumb_zone_report **out, plumb_diag *diag)
+{
+    *out = NULL;
+    free(s->zones);
+    free(s->zone_items);
+    s->zones = calloc(s->n_items ? s->n_items : 1, sizeof *s->zones);
+    s->zone_items = calloc(s->n_items ? s->n_items : 1, sizeof *s->zone_items);
+    if (!s->zones || !s->zone_items)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    size_t n_u = plumb_profile_uncertainty_count(s->profile);
+    plumb_uncertainty *unc = calloc(n_u ? n_u : 1, sizeof *unc);
+    if (!unc)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    for (size_t i = 0; i < n_u; i++)
+        unc[i] = *plumb_profile_uncertainty(s->profile, i);
+    plumb_zone_options zopt = *opt;
+    zopt.source = plumb_profile_path(s->profile);
+    plumb_status st = PLUMB_OK;
+    for (size_t i = 0; st == PLUMB_OK && i < s->n_items; i++) {
+        const plumb_fall_spec *spec = plumb_profile_item(s->profile, i);
+        /* the criteria exactly as plumb fall judges them (all when none named) */
+        plumb_item_report probe;
+        memset(&probe, 0, sizeof probe);
+        probe.spec = spec;
+        probe.shape = plumb_profile_item_shape(s->profile, i);
+        st = plumb_item_judge(&probe, s->profile, s->criteria, s->atm, diag);
+        const plumb_criterion *clist[PLUMB_MAX_VERDICTS];
+        for (size_t k = 0; st == PLUMB_OK && k < probe.n_verdicts; k++)
+            clist[k] = probe.verdicts[k].criterion;
+        if (on_item)
+            on_item(user, i, spec);
+        if (st == PLUMB_OK)
+            st = plumb_zone_run(spec, s->atm, unc, n_u, zone, clist, probe.n_verdicts, &zopt,
+                                &s->zones[i], diag);
+        if (st != PLUMB_OK && diag) {
+            if (diag->file[0] == '\0')
+                plumbp_strlcpy(diag->file, plumb_profile_path(s->profile), sizeof diag->file);
+            if (plumb_profile_is_inventory(s->profile)) {
+                /* "item 2 (spanner): " before the message, which is cut to fit */
+                char prefix[PLUMB_NAME + 32];
+                snprintf(prefix, sizeof prefix, "item %zu (%.*s): ", i + 1, PLUMB_NAME - 1,
+                         spec->name);
+                size_t pl = strlen(prefix), ml = strlen(diag->message);
+                if (pl + ml >= sizeof diag->message)
+                    ml = sizeof diag->message - pl - 1;
+                memmove(diag->message + pl, diag->message, ml);
+                memcpy(diag->message, prefix, pl);
+                diag->message[pl + ml] = '\0';
+            }
+        }
+        s->zone_items[i].name = spec->name;
+        s->zone_items[i].result = &s->zones[i];
+    }
+    free(unc);
+    if (st != PLUMB_OK)
+        return st;
+    memset(&s->zone, 0, sizeof s->zone);
+    s->zone.profile_name = plumb_profile_name(s->profile);
+    s->zone.profile_path = plumb_profile_path(s->profile);
+    s->zone.profile_sha256 = plumb_profile_sha256(s->profile);
+    s->zone.inventory = plumb_profile_is_inventory(s->profile);
+    s->zone.n_items = s->n_items;
+    s->zone.items = s->zone_items;
+    s->zone.threads = zopt.threads;
+    *out = &s->zone;
+    return PLUMB_OK;
+}
