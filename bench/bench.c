@@ -20,6 +20,13 @@
  * measured in the same run is a general-purpose ODE script: SciPy's
  * solve_ivp (DOP853, rtol 1e-10) on the same drone fall, when
  * /usr/bin/python3 has SciPy.
+ * Then the cost of one `plumb sweep` row and of one `plumb limit`
+ * evaluation, each as a ratio to one bare plumb_trajectory_run of the same
+ * fall (issue 8's target: at most 1.5), on a profile like the drone case
+ * (log wind, 1976 air with an offset, a site 1650 m up): the sweep over a
+ * wind key and over an air key (which rebuilds the air), the limit over
+ * release.position.east (every fall costs the same) and over
+ * atmosphere.temperature_offset (air rebuilt per evaluation).
  * Set PLUMB_BENCH_MAX_SAMPLES to stop the memory runs earlier.
  */
 #include <math.h>
@@ -128,6 +135,135 @@ static void scipy_baseline(double plumb_us)
 
 /* The issue's zone case: the drone fall with mass +-10 %, Cd +-20 %, wind
  * 0-12 m/s from any direction. */
+/* ---- sweep rows and limit evaluations against bare falls -------------- */
+
+static const char study_profile[] =
+    "name: bench study\n"
+    "payload:\n  mass: 0.85 kg\n  drag: {cd: 1.05, area: 0.0376 m^2}\n"
+    "release:\n  height: 30 m\n  velocity: {east: -6.4 m/s, north: 1.13 m/s, up: 0 m/s}\n"
+    "site: {elevation: 1650 m, latitude: -31.4 deg}\n"
+    "atmosphere: {model: standard-1976, temperature_offset: 18 K, humidity: 25 %}\n"
+    "wind: {profile: log, speed: 5.8 m/s, from: 280 deg, reference_height: 10 m, "
+    "roughness: 0.03 m}\n";
+
+/* Mean time of a bare fall of each spec (with its own air), s. */
+static double bare_time(plumb_trajectory *w, const plumb_fall_spec *const *specs,
+                        plumb_atmosphere *const *atms, size_t n)
+{
+    plumb_fall_result r;
+    plumb_diag d;
+    size_t m = 0;
+    double t0 = now_s(), t1 = t0;
+    while (t1 - t0 < MIN_SECONDS) {
+        for (size_t k = 0; k < n; k++, m++)
+            plumb_trajectory_run(w, specs[k], atms[k], &r, &d);
+        t1 = now_s();
+    }
+    return (t1 - t0) / (double)m;
+}
+
+static void sweep_case(const plumb_profile *p, const plumb_units *u, const plumb_criteria *cr,
+                       plumb_trajectory *w, const char *vary)
+{
+    plumb_range ax;
+    plumb_diag d;
+    if (plumb_range_parse_key(u, vary, &ax, &d) != PLUMB_OK) {
+        fprintf(stderr, "bench: %s: %s\n", vary, d.message);
+        return;
+    }
+    size_t n = 0, rows = 0;
+    double t0 = now_s(), t1 = t0;
+    while (t1 - t0 < MIN_SECONDS) {
+        plumb_sweep *sw = NULL;
+        if (plumb_sweep_run(p, u, cr, &ax, 1, w, &sw, &d) != PLUMB_OK) {
+            fprintf(stderr, "bench: sweep %s: %s\n", vary, d.message);
+            return;
+        }
+        rows += plumb_sweep_row_count(sw);
+        n++;
+        t1 = now_s();
+        plumb_sweep_free(sw);
+    }
+    double per_row = (t1 - t0) / (double)rows;
+    /* the same falls, bare: each row's spec in that row's air */
+    plumb_sweep *sw = NULL;
+    plumb_sweep_run(p, u, cr, &ax, 1, w, &sw, &d);
+    size_t nr = plumb_sweep_row_count(sw);
+    const plumb_fall_spec *specs[64] = {NULL};
+    plumb_atmosphere *atms[64] = {NULL};
+    size_t m = 0;
+    for (size_t i = 0; i < nr && m < 64; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK)
+            continue;
+        if (plumb_atmosphere_alloc(plumb_profile_atmosphere(row->report.profile), &atms[m], &d) !=
+            PLUMB_OK)
+            break;
+        specs[m++] = row->report.items[0].spec;
+    }
+    double bare = bare_time(w, specs, atms, m);
+    printf("sweep %-44s %5zu rows %9.2f us/row %9.2f us/fall %6.2f\n", vary, nr, per_row * 1e6,
+           bare * 1e6, per_row / bare);
+    for (size_t i = 0; i < m; i++)
+        plumb_atmosphere_free(atms[i]);
+    plumb_sweep_free(sw);
+}
+
+static void limit_case(const plumb_profile *p, const plumb_units *u, plumb_trajectory *w,
+                       const char *key, plumb_metric metric, double limit)
+{
+    plumb_limit_result res;
+    plumb_diag d;
+    size_t evals = 0;
+    double t0 = now_s(), t1 = t0;
+    while (t1 - t0 < MIN_SECONDS) {
+        if (plumb_limit_solve(p, u, 0, key, metric, limit, NULL, w, &res, &d) != PLUMB_OK) {
+            fprintf(stderr, "bench: limit %s: %s\n", key, d.message);
+            return;
+        }
+        evals += res.evaluations;
+        t1 = now_s();
+    }
+    double per_eval = (t1 - t0) / (double)evals;
+    plumb_atmosphere *atm = NULL;
+    if (plumb_atmosphere_alloc(plumb_profile_atmosphere(p), &atm, &d) != PLUMB_OK)
+        return;
+    const plumb_fall_spec *spec = plumb_profile_item(p, 0);
+    double bare = bare_time(w, &spec, &atm, 1);
+    printf("limit %-44s %5zu evals %8.2f us/eval %8.2f us/fall %6.2f\n", key, res.evaluations,
+           per_eval * 1e6, bare * 1e6, per_eval / bare);
+    plumb_atmosphere_free(atm);
+}
+
+static void study_bench(plumb_trajectory *w)
+{
+    plumb_units *u = NULL;
+    plumb_profile *p = NULL;
+    plumb_criteria *cr = NULL;
+    plumb_diag d;
+    if (plumb_units_alloc(&u, &d) != PLUMB_OK ||
+        plumb_profile_load_buffer("<bench>", study_profile, sizeof study_profile - 1, u, NULL, 0,
+                                  &p, &d) != PLUMB_OK ||
+        plumb_criteria_load_dir("profiles/criteria", u, &cr, &d) != PLUMB_OK) {
+        fprintf(stderr, "bench: study profile: %s\n", d.message);
+        plumb_profile_free(p);
+        plumb_units_free(u);
+        return;
+    }
+    printf("\nplumb bench: one sweep row and one limit evaluation against one bare fall\n");
+    printf("%-50s %10s %16s %14s %6s\n", "case", "count", "cost", "bare", "ratio");
+    sweep_case(p, u, cr, w, "wind.speed=5 m/s:5.9 m/s:0.1 m/s");
+    sweep_case(p, u, cr, w, "payload.mass=0.80 kg:0.89 kg:0.01 kg");
+    sweep_case(p, u, cr, w, "atmosphere.temperature_offset=10 K:19 K:1 K");
+    limit_case(p, u, w, "release.position.east", PLUMB_METRIC_DRIFT, 1.0);
+    limit_case(p, u, w, "atmosphere.temperature_offset", PLUMB_METRIC_ENERGY, 100.0);
+    limit_case(p, u, w, "wind.speed", PLUMB_METRIC_DRIFT, 4.0);
+    printf("target: ratio <= 1.5 (issue 8)\n");
+    plumb_criteria_free(cr);
+    plumb_profile_free(p);
+    plumb_units_free(u);
+}
+
 static void zone_case(plumb_fall_spec *s, plumb_uncertainty u[4], plumb_zone_spec *z, size_t n)
 {
     make_spec(&cases[1], s);
@@ -306,6 +442,7 @@ int main(void)
     }
     /* memory first: RUSAGE_CHILDREN keeps the largest child's peak, and the
      * SciPy baseline's interpreter is a child too */
+    study_bench(w);
     zone_memory(atm);
     zone_bench(atm);
     scipy_baseline(drone_us);

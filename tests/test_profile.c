@@ -5,8 +5,9 @@
  * to a mkdtemp directory. Each bad text carries the marker "@@" exactly
  * where the diagnostic must point (line and column, 1-based, counted in
  * characters); the marker is removed before the file is written, so the
- * expected position is stated by the text itself. The schema is
- * notes/profile-keys.md; positive loads use the design.md section 5
+ * expected position is stated by the text itself. The keys are those of
+ * README "Profile keys" (src/io/keys.c describes the numeric ones once,
+ * tests/test_keys.c holds it to the loader); positive loads use the design.md section 5
  * example. Reference values: the navigation convention east = s sin(h),
  * north = s cos(h) (heading clockwise from north); the meteorological wind
  * convention w = -s (sin from, cos from) (WMO No. 8, from memory); the
@@ -1048,7 +1049,7 @@ static void test_defaults_fill_site_air_wind_and_zone(void **state)
     assert_int_equal(plumb_profile_uncertainty_count(p), 0);
     assert_null(plumb_profile_uncertainty(p, 0));
     const plumb_zone_spec *z = plumb_profile_zone(p);
-    /* profile-keys.md: samples 100000, seed 1, confidence 0.99, scatter 0 m */
+    /* README "Profile keys": samples 100000, seed 1, confidence 0.99, scatter 0 m */
     assert_int_equal(z->samples, 100000);
     assert_int_equal(z->seed, 1);
     assert_rel(z->confidence, 0.99, 1e-15);

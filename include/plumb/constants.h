@@ -24,6 +24,11 @@
 #define PLUMB_P0_PA 101325.0
 /* Geometric altitude of the top of the 1976 model, m. */
 #define PLUMB_STD1976_TOP_M 86000.0
+/* Geometric altitude of the bottom of the 1976 model's tables, m
+ * (NOAA-S/T 76-1562, Table I starts at -5000 m). The one altitude floor:
+ * the air models, the profile's altitude keys, the zone's ranges and the
+ * limit's scan all use it. */
+#define PLUMB_STD1976_BOTTOM_M (-5000.0)
 /* Ratio of molar masses water vapour / dry air (Rd/Rv), dimensionless
  * (Wallace & Hobbs, Atmospheric Science, 2nd ed., eq. 3.14). */
 #define PLUMB_EPSILON_VAPOUR 0.622

@@ -1,7 +1,8 @@
 /*
  * profile.c - strict YAML payload profiles into fall specs (design.md
- * section 5; the key schema is notes/profile-keys.md, the README's
- * "Profile keys" table).
+ * section 5; the numeric keys are described once in the key table,
+ * src/io/keys.c, which tests/test_keys.c holds to the schema below; the
+ * README's "Profile keys" table documents them for users).
  *
  * Method: the file is read whole (at most PLUMB_PROFILE_MAX_BYTES),
  * fingerprinted with SHA-256 (FIPS 180-4, sha256.c), parsed into a node
@@ -34,12 +35,13 @@
 #include "plumb/constants.h"
 #include "plumb/profile.h"
 #include "core/internal.h"
+#include "io/keys.h"
 #include "io/sha256.h"
 #include "io/yamltree.h"
 
 #define ARRAY_LEN(a) (sizeof(a) / sizeof((a)[0]))
 
-/* Defaults of profile-keys.md. */
+/* Defaults of the zone: map (README "Profile keys"). */
 #define ZONE_SAMPLES_DEFAULT 100000ull   /* zone.samples */
 #define ZONE_SAMPLES_MAX 100000000ull    /* zone.samples upper bound, 1e8 */
 #define ZONE_SEED_DEFAULT 1ull           /* zone.seed */
@@ -1820,95 +1822,31 @@ const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p) { return p ? &
 
 /* ---- fields of a fall spec --------------------------------------------- */
 
-/* descent.X or descent[i].X: the device index and X, or NULL. */
-static const char *descent_part(const char *key, size_t *idx)
+const plumby_schema *plumbp_profile_schema(void)
 {
-    *idx = 0;
-    if (strncmp(key, "descent.", 8) == 0)
-        return key + 8;
-    if (strncmp(key, "descent[", 8) != 0 || key[8] < '0' || key[8] > '9' || key[9] != ']' ||
-        key[10] != '.')
-        return NULL;
-    *idx = (size_t)(key[8] - '0');
-    return key + 11;
+    return &root_schema;
 }
 
 /*
  * The double a key sets, or NULL when the key is not a per-fall numeric
- * input of this spec: not a single double (release.velocity.speed and
- * heading become east/north; shapes become cd and area; a diameter becomes
- * an area), or not in effect for the spec's form or model (payload.drag.cd
- * when cd_area was given, descent[1] with one device, deploy.below for a
- * device deployed `after`, site.latitude without a latitude, wind.exponent
- * for a profile other than power ...).
+ * input of this spec: not a single double of the spec (the key table's
+ * home, io/keys.c: release.velocity.speed and heading become east/north;
+ * shapes become cd and area; a diameter becomes an area; the air is not
+ * in a fall spec), or not in effect for the spec's form or model (the
+ * table's `when`: payload.drag.cd when cd_area was given, descent[1] with
+ * one device, deploy.below for a device deployed `after`, site.latitude
+ * without a latitude, wind.exponent for a profile other than power ...).
  */
 double *plumb_fall_spec_field(plumb_fall_spec *s, const char *key)
 {
     if (!s || !key)
         return NULL;
-    if (strncmp(key, "payload.", 8) == 0) {
-        const char *k = key + 8;
-        int fixed = s->drag.model == PLUMB_DRAG_FIXED, by_area = s->drag.area_m2 > 0.0;
-        if (strcmp(k, "mass") == 0)
-            return &s->mass_kg;
-        if (strcmp(k, "volume") == 0)
-            return &s->volume_m3;
-        if (strcmp(k, "drag.cd") == 0)
-            return fixed && by_area ? &s->drag.cd : NULL;
-        if (strcmp(k, "drag.area") == 0)
-            return fixed && by_area ? &s->drag.area_m2 : NULL;
-        if (strcmp(k, "drag.cd_area") == 0)
-            return fixed && !by_area ? &s->drag.cd_area_m2 : NULL;
+    size_t dev;
+    long item;
+    const plumbp_key *k = plumbp_key_find(key, &dev, &item);
+    if (!k || item != -1 || k->home == PLUMBP_HOME_AIR)
         return NULL;
-    }
-    size_t i;
-    const char *k = descent_part(key, &i);
-    if (k) {
-        if (i >= s->n_descent)
-            return NULL;
-        plumb_descent_spec *d = &s->descent[i];
-        if (strcmp(k, "cd") == 0)
-            return &d->cd;
-        if (strcmp(k, "area") == 0)
-            return &d->area_m2;
-        if (strcmp(k, "deploy.after") == 0)
-            return d->trigger == PLUMB_DEPLOY_AFTER ? &d->deploy_value : NULL;
-        if (strcmp(k, "deploy.below") == 0)
-            return d->trigger == PLUMB_DEPLOY_BELOW ? &d->deploy_value : NULL;
-        if (strcmp(k, "fill_time") == 0)
-            return d->fill_constant > 0.0 ? NULL : &d->fill_time_s;
-        if (strcmp(k, "fill_constant") == 0)
-            return d->fill_constant > 0.0 ? &d->fill_constant : NULL;
-        return NULL;
-    }
-    if (strcmp(key, "release.height") == 0)
-        return &s->release_m[2];
-    if (strcmp(key, "release.position.east") == 0)
-        return &s->release_m[0];
-    if (strcmp(key, "release.position.north") == 0)
-        return &s->release_m[1];
-    if (strcmp(key, "release.velocity.east") == 0)
-        return &s->velocity_m_s[0];
-    if (strcmp(key, "release.velocity.north") == 0)
-        return &s->velocity_m_s[1];
-    if (strcmp(key, "release.velocity.up") == 0 || strcmp(key, "release.velocity.climb") == 0)
-        return &s->velocity_m_s[2];
-    if (strcmp(key, "site.elevation") == 0)
-        return &s->site_elevation_m;
-    if (strcmp(key, "site.latitude") == 0)
-        return s->gravity.has_latitude ? &s->gravity.latitude_deg : NULL;
-    plumb_wind_profile wp = s->wind.profile;
-    if (strcmp(key, "wind.speed") == 0)
-        return wp != PLUMB_WIND_TABLE ? &s->wind.speed_m_s : NULL;
-    if (strcmp(key, "wind.from") == 0)
-        return wp != PLUMB_WIND_TABLE ? &s->wind.from_deg : NULL;
-    if (strcmp(key, "wind.reference_height") == 0)
-        return wp == PLUMB_WIND_POWER || wp == PLUMB_WIND_LOG ? &s->wind.ref_height_m : NULL;
-    if (strcmp(key, "wind.exponent") == 0)
-        return wp == PLUMB_WIND_POWER ? &s->wind.exponent : NULL;
-    if (strcmp(key, "wind.roughness") == 0)
-        return wp == PLUMB_WIND_LOG ? &s->wind.roughness_m : NULL;
-    return NULL;
+    return plumbp_key_field(k, s, NULL, dev);
 }
 
 /* ---- a profile of a spec built in code ------------------------------------ */

@@ -133,7 +133,7 @@ typedef enum plumby_range {
     PLUMBY_R_UNIT,        /* 0 .. 1 */
     PLUMBY_R_UNIT_OPEN,   /* 0 < x < 1 */
     PLUMBY_R_LATITUDE,    /* -90 .. 90 deg */
-    PLUMBY_R_ALTITUDE     /* -5 km .. 86 km, the span of the 1976 atmosphere */
+    PLUMBY_R_ALTITUDE     /* PLUMB_STD1976_BOTTOM_M .. PLUMB_STD1976_TOP_M, the span of the 1976 atmosphere */
 } plumby_range;
 
 typedef struct plumby_schema plumby_schema;
@@ -148,8 +148,6 @@ struct plumby_schema {
     size_t n_words;                /* entries in words */
 };
 
-/* Lowest altitude of the 1976 model's tables, m (NOAA-S/T 76-1562). */
-#define PLUMBY_ALTITUDE_MIN_M (-5000.0)
 /* Largest drag coefficient accepted (a plausibility bound, common
  * practice, no source: bluff bodies stay below about 2). */
 #define PLUMBY_CD_MAX 10.0

@@ -54,11 +54,9 @@
 #include "plumb/constants.h"
 #include "core/internal.h"
 
-/* Lowest geometric altitude of the 1976 tables, m (NOAA-S/T 76-1562, Table I). */
-#define ATM_STD1976_BOTTOM_M (-5000.0)
 /* surface model: how far below and above the station it is valid, m (our
  * choice: the 1976 tables' depth below sea level, and one troposphere). */
-#define ATM_SURFACE_BELOW_M 5000.0
+#define ATM_SURFACE_BELOW_M (-PLUMB_STD1976_BOTTOM_M)
 #define ATM_SURFACE_ABOVE_M 11000.0
 /* Default lapse rate of the surface model, K/m (US Std Atm 1976, layer 0). */
 #define ATM_DEFAULT_LAPSE_K_M 0.0065
@@ -201,9 +199,9 @@ static int in_range(double x, double lo, double hi)
 
 static plumb_status std1976_air(double alt_m, double dt_k, double rh, plumb_air *out)
 {
-    if (!in_range(alt_m, ATM_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
-        return PLUMB_RAISE(NULL, PLUMB_ERANGE,
-                           "altitude outside the 1976 model's -5000..86000 m");
+    if (!in_range(alt_m, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
+        return PLUMB_RAISE(NULL, PLUMB_ERANGE, "altitude outside the 1976 model's %g..%g m",
+                           PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M);
     double tm, t, p;
     std1976_dry(alt_m, &tm, &t, &p);
     t += dt_k;
@@ -285,10 +283,10 @@ static plumb_status setup_surface(const plumb_atm_spec *s, plumb_atmosphere *a,
     if (!isfinite(s->station_alt_m))
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "site.elevation",
                                "expected a finite station altitude");
-    if (!in_range(s->station_alt_m, ATM_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
+    if (!in_range(s->station_alt_m, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
         return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "site.elevation",
-                               "expected a station altitude within -5000..86000 m, found %g m",
-                               s->station_alt_m);
+                               "expected a station altitude within %g..%g m, found %g m",
+                               PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M, s->station_alt_m);
     if ((st = check_positive(s->station_pressure_pa, "atmosphere.pressure",
                              "station pressure", "Pa", diag)) != PLUMB_OK)
         return st;
@@ -298,7 +296,7 @@ static plumb_status setup_surface(const plumb_atm_spec *s, plumb_atmosphere *a,
     if (!isfinite(s->lapse_rate_k_m))
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "atmosphere.lapse_rate",
                                "expected a finite lapse rate");
-    a->lo_m = fmax(s->station_alt_m - ATM_SURFACE_BELOW_M, ATM_STD1976_BOTTOM_M);
+    a->lo_m = fmax(s->station_alt_m - ATM_SURFACE_BELOW_M, PLUMB_STD1976_BOTTOM_M);
     a->hi_m = fmin(s->station_alt_m + ATM_SURFACE_ABOVE_M, PLUMB_STD1976_TOP_M);
     a->st_h_m = s->station_alt_m;
     a->st_p_pa = s->station_pressure_pa;
@@ -349,12 +347,12 @@ static plumb_status setup_table(const plumb_atm_spec *s, plumb_atmosphere *a, pl
     a->lo_m = s->table_alt_m[0];
     a->hi_m = s->table_alt_m[n - 1];
     if (!s->table_t_k) {
-        if (!in_range(a->lo_m, ATM_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M) ||
-            !in_range(a->hi_m, ATM_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
+        if (!in_range(a->lo_m, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M) ||
+            !in_range(a->hi_m, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
             return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, key,
                                    "without temperatures the table must lie within the 1976 "
-                                   "model's -5000..86000 m, found %g..%g m",
-                                   a->lo_m, a->hi_m);
+                                   "model's %g..%g m, found %g..%g m",
+                                   PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M, a->lo_m, a->hi_m);
         plumb_status st = check_offset(s->temperature_offset_k, a->lo_m, a->hi_m, diag);
         if (st != PLUMB_OK)
             return st;
@@ -410,7 +408,7 @@ plumb_status plumb_atmosphere_alloc(const plumb_atm_spec *spec, plumb_atmosphere
     plumb_status st;
     switch (spec->model) {
     case PLUMB_ATM_STD1976:
-        a->lo_m = ATM_STD1976_BOTTOM_M;
+        a->lo_m = PLUMB_STD1976_BOTTOM_M;
         a->hi_m = PLUMB_STD1976_TOP_M;
         a->dt_k = spec->temperature_offset_k;
         st = check_offset(spec->temperature_offset_k, a->lo_m, a->hi_m, diag);

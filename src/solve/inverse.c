@@ -13,6 +13,7 @@
 #include "plumb/constants.h"
 #include "plumb/inverse.h"
 #include "core/internal.h"
+#include "io/keys.h"
 
 /* Values scanned for changes of sign before Brent refines them: 10 per
  * decade over a positive key's 6 decades. */
@@ -55,6 +56,12 @@ typedef struct solver_ctx {
     plumb_status fail;
     plumb_diag *diag;
     int out_of_range;   /* the last x was refused by the profile's checks */
+    /* the fast path: the key varied on a copy of the resolved spec */
+    const plumbp_key *k;       /* the key's row in the table, or NULL: through the loader */
+    size_t device;             /* the descent device it addresses */
+    plumb_fall_spec spec;      /* the copy */
+    plumb_atm_spec atm_spec;   /* the air's spec (PLUMBP_KEY_AIR keys) */
+    const plumb_atmosphere *atm; /* the profile's air, built once (other keys) */
 } solver_ctx;
 
 void plumb_limit_options_init(plumb_limit_options *opt)
@@ -88,6 +95,7 @@ static int starts_with(const char *s, const char *prefix)
  * 86 km above sea level); others: their physical or practical range. */
 static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec *spec, double base)
 {
+    const plumbp_key *k = plumbp_key_find(key, NULL, NULL);
     double span = starts_with(key, "descent") ? DEVICE_SPAN : SPAN;
     key_range r = {RANGE_POSITIVE, base / span, base * span};
     if (strcmp(key, "release.height") == 0) {
@@ -95,7 +103,7 @@ static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec 
         if (r.hi > top)
             r.hi = top;
     } else if (strcmp(key, "site.elevation") == 0) {
-        r = (key_range){RANGE_BOUNDED, -5000.0, PLUMB_STD1976_TOP_M - spec->release_m[2]};
+        r = (key_range){RANGE_BOUNDED, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M - spec->release_m[2]};
     } else if (starts_with(key, "release.velocity.") && strcmp(key, "release.velocity.speed") != 0) {
         r = (key_range){RANGE_SIGNED, -MAX_SPEED_M_S, MAX_SPEED_M_S};
     } else if (starts_with(key, "release.position.")) {
@@ -104,8 +112,8 @@ static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec 
         r = (key_range){RANGE_SIGNED, -MAX_TEMP_DIFF_K, MAX_TEMP_DIFF_K};
     } else if (dim == PLUMB_DIM_FRACTION) {
         r = (key_range){RANGE_BOUNDED, 0.0, 1.0};
-    } else if (dim == PLUMB_DIM_NONE && strstr(key, "cd") != NULL) {
-        r = (key_range){RANGE_BOUNDED, 0.0, 10.0};
+    } else if (k && (k->range == PLUMBY_R_CD || k->range == PLUMBY_R_CD_POSITIVE)) {
+        r = (key_range){RANGE_BOUNDED, 0.0, PLUMBY_CD_MAX};
     } else if (strcmp(key, "wind.speed") == 0) {
         r = (key_range){RANGE_NONNEG, 0.0, MAX_WIND_M_S};
     } else if (dim == PLUMB_DIM_SPEED) {
@@ -176,6 +184,68 @@ static int base_value(const plumb_profile *p, size_t item, const char *key, doub
     return 1;
 }
 
+/* The falls's status into the context: metric - limit, or NaN. */
+static double eval_done(solver_ctx *c, plumb_status st, const plumb_fall_result *r,
+                        const plumb_diag *d)
+{
+    c->evals++;
+    if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE || st == PLUMB_EBUDGET ||
+        st == PLUMB_ENOLAND) {
+        c->out_of_range = 1;
+        if (c->diag)
+            *c->diag = *d;
+        return NAN;
+    }
+    if (st != PLUMB_OK) {
+        if (c->diag)
+            *c->diag = *d;
+        c->fail = st;
+        return NAN;
+    }
+    return metric_of(r, c->metric) - c->limit;
+}
+
+/* The key (c->k, a plain double of the spec or the air with no check
+ * against other keys) set to x on a copy of the resolved spec: the same
+ * double the loader would have stored from "KEY=x SI-unit" (the SI unit
+ * converts to itself exactly), with the same range check; the air is
+ * built again only for a key that changes it. */
+static double eval_fast(solver_ctx *c, double x)
+{
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    if (!plumby_range_ok(c->k->range, x)) {
+        c->out_of_range = 1;
+        if (c->diag)
+            *c->diag = d;
+        return NAN;
+    }
+    plumb_fall_spec spec = c->spec;
+    plumb_atm_spec as = c->atm_spec;
+    double *f = plumbp_key_field(c->k, &spec, &as, c->device);
+    *f = x;
+    if (c->k->effects & PLUMBP_KEY_DRAG)
+        spec.drag.cd_area_m2 = spec.drag.area_m2 > 0.0 ? spec.drag.cd * spec.drag.area_m2
+                                                       : spec.drag.cd_area_m2;
+    plumb_fall_result r;
+    plumb_status st;
+    if (c->k->effects & PLUMBP_KEY_AIR) {
+        plumb_atmosphere *atm = NULL;
+        st = plumb_atmosphere_alloc(&as, &atm, &d);
+        if (st != PLUMB_OK) {
+            c->out_of_range = 1;
+            if (c->diag)
+                *c->diag = d;
+            return NAN;
+        }
+        st = plumb_trajectory_run(c->traj, &spec, atm, &r, &d);
+        plumb_atmosphere_free(atm);
+    } else {
+        st = plumb_trajectory_run(c->traj, &spec, c->atm, &r, &d);
+    }
+    return eval_done(c, st, &r, &d);
+}
+
 /* One fall at key = x. Returns the metric minus the limit, or NaN with
  * ctx->fail set (or ctx->out_of_range for a value the profile refuses). */
 static double eval_at(double x, void *params)
@@ -187,6 +257,8 @@ static double eval_at(double x, void *params)
                                   "no answer within %zu falls", c->max_evals);
         return NAN;
     }
+    if (c->k)
+        return eval_fast(c, x);
     char set[PLUMB_DIAG_KEY + 64];
     const char *unit = plumb_dim_si_unit(c->dim);
     int bare = !*unit || strcmp(unit, "1") == 0;
@@ -215,21 +287,7 @@ static double eval_at(double x, void *params)
     st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);
     plumb_atmosphere_free(atm);
     plumb_profile_free(p);
-    c->evals++;
-    if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE || st == PLUMB_EBUDGET ||
-        st == PLUMB_ENOLAND) {
-        c->out_of_range = 1;
-        if (c->diag)
-            *c->diag = d;
-        return NAN;
-    }
-    if (st != PLUMB_OK) {
-        if (c->diag)
-            *c->diag = d;
-        c->fail = st;
-        return NAN;
-    }
-    return metric_of(&r, c->metric) - c->limit;
+    return eval_done(c, st, &r, &d);
 }
 
 /* Brent's method on [a, b] (f(a), f(b) of opposite signs) to rel_tol. The
@@ -294,6 +352,10 @@ static const char *si_unit_text(plumb_dim dim)
     return strcmp(u, "1") == 0 ? "" : u;
 }
 
+static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const char *key,
+                          plumb_metric metric, double limit, const plumb_limit_options *opt,
+                          double base, const key_range *r_, plumb_limit_result *res);
+
 plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
                                size_t item, const char *key, plumb_metric metric, double limit,
                                const plumb_limit_options *opt, plumb_trajectory *traj,
@@ -344,6 +406,43 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     }
     const plumb_fall_spec *spec = plumb_profile_item(profile, item);
     key_range r = range_of(key, dim, spec, base);
+    /* The fast path: a key that is one double of the resolved spec or air,
+     * checked against no other key, in a single-payload profile. Others
+     * (derived keys, rows of tables, keys the loader checks against
+     * others) go through plumb_profile_derive. */
+    plumb_atmosphere *own_atm = NULL;
+    const plumbp_key *k = plumbp_key_find(key, &c.device, NULL);
+    if (k && !plumb_profile_is_inventory(profile) && !(k->effects & PLUMBP_KEY_CHECKED) &&
+        (k->home == PLUMBP_HOME_SPEC || k->home == PLUMBP_HOME_DEVICE ||
+         k->home == PLUMBP_HOME_AIR)) {
+        c.spec = *spec;
+        c.atm_spec = *plumb_profile_atmosphere(profile);
+        if (plumbp_key_field(k, &c.spec, &c.atm_spec, c.device)) {
+            if (!(k->effects & PLUMBP_KEY_AIR)) {
+                st = plumb_atmosphere_alloc(&c.atm_spec, &own_atm, diag);
+                if (st != PLUMB_OK)
+                    return st;
+                c.atm = own_atm;
+            }
+            c.k = k;
+        }
+    }
+    st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
+    plumb_atmosphere_free(own_atm);
+    return st;
+}
+
+/* The scan and the refinement (plumb_limit_solve, after its checks). */
+static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const char *key,
+                          plumb_metric metric, double limit, const plumb_limit_options *opt,
+                          double base, const key_range *r_, plumb_limit_result *res)
+{
+    solver_ctx c = *c_;
+    key_range r = *r_;
+    plumb_diag *diag = c.diag;
+    plumb_status st;
+    plumb_dim dim = c.dim;
+    (void)profile;
     res->dim = dim;
     res->base_value_si = base;
     const char *unit = si_unit_text(dim);

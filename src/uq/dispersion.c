@@ -63,6 +63,7 @@
 #include "plumb/constants.h"
 #include "plumb/dispersion.h"
 #include "core/internal.h"
+#include "io/keys.h"
 
 /* ---- named constants ---------------------------------------------------- */
 
@@ -182,40 +183,6 @@ typedef struct key_rule {
 } key_rule;
 
 #define INF_ HUGE_VAL
-/* Ranges from the profile schema (notes/profile-keys.md, README "Profile keys"). */
-static const key_rule key_rules[] = {
-    {"payload.mass", 0.0, INF_, 1, 0},
-    {"payload.volume", 0.0, INF_, 0, 0},
-    {"payload.drag.cd", 0.0, 10.0, 0, 0},
-    {"payload.drag.area", 0.0, INF_, 1, 0},
-    {"payload.drag.cd_area", 0.0, INF_, 0, 0},
-    {"payload.drag.diameter", 0.0, INF_, 1, 0},
-    {"descent.cd", 0.0, 10.0, 1, 0},
-    {"descent.area", 0.0, INF_, 1, 0},
-    {"descent.diameter", 0.0, INF_, 1, 0},
-    {"descent.deploy.after", 0.0, INF_, 0, 0},
-    {"descent.deploy.below", 0.0, INF_, 1, 0},
-    {"descent.fill_time", 0.0, INF_, 0, 0},
-    {"descent.fill_constant", 0.0, INF_, 1, 0},
-    {"release.height", 0.0, INF_, 1, 0},
-    {"release.velocity.east", -INF_, INF_, 0, 0},
-    {"release.velocity.north", -INF_, INF_, 0, 0},
-    {"release.velocity.up", -INF_, INF_, 0, 0},
-    {"release.velocity.speed", 0.0, INF_, 0, 0},
-    {"release.velocity.heading", 0.0, FULL_TURN_DEG, 0, 1},
-    {"release.velocity.climb", -INF_, INF_, 0, 0},
-    {"release.position.east", -INF_, INF_, 0, 0},
-    {"release.position.north", -INF_, INF_, 0, 0},
-    {"site.elevation", -5000.0, 86000.0, 0, 0},
-    {"site.latitude", -90.0, 90.0, 0, 0},
-    {"wind.speed", 0.0, INF_, 0, 0},
-    {"wind.from", 0.0, FULL_TURN_DEG, 0, 1},
-    {"wind.reference_height", 0.0, INF_, 1, 0},
-    {"wind.exponent", 0.0, 1.0, 0, 0},
-    {"wind.roughness", 0.0, INF_, 1, 0},
-};
-#define N_KEY_RULES (sizeof key_rules / sizeof key_rules[0])
-
 static const key_rule unbounded_rule = {"", -INF_, INF_, 0, 0};
 
 /* "descent[1].fill_time" -> "descent.fill_time"; other keys unchanged. */
@@ -232,12 +199,22 @@ static void normalise_key(const char *key, char *out, size_t size)
     plumbp_strlcpy(out, key, size);
 }
 
-static const key_rule *find_rule(const char *norm)
+/* The range of a key from the key table (io/keys.h); 0 for a key not in it. */
+static int find_rule(const char *key, key_rule *out)
 {
-    for (size_t i = 0; i < N_KEY_RULES; i++)
-        if (strcmp(key_rules[i].key, norm) == 0)
-            return &key_rules[i];
-    return NULL;
+    const plumbp_key *k = plumbp_key_find(key, NULL, NULL);
+    if (!k)
+        return 0;
+    out->key = k->key;
+    out->angle = k->angle;
+    if (k->angle) {
+        out->lo = 0.0;
+        out->hi = FULL_TURN_DEG;
+        out->lo_open = 0;
+    } else {
+        plumbp_key_bounds(k, &out->lo, &out->hi, &out->lo_open);
+    }
+    return 1;
 }
 
 static double wrap_deg(double a)
@@ -473,8 +450,8 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
         const char *key = e->u.key;
         char norm[PLUMB_DIAG_KEY];
         normalise_key(key, norm, sizeof norm);
-        const key_rule *rule = find_rule(norm);
-        e->rule = rule ? *rule : unbounded_rule;
+        if (!find_rule(key, &e->rule))
+            e->rule = unbounded_rule;
         const plumb_descent_spec *dev = NULL;
         if (strcmp(norm, "release.velocity.speed") == 0) {
             e->target = TGT_SPEED;
