@@ -1,6 +1,6 @@
 /*
- * textout.h - what the text and CSV report writers share (report.c,
- * report_zone.c): a memory-stream writer that remembers any non-finite
+ * textout.h - what the text and CSV report writers share (the files of
+ * src/report/): a memory-stream writer that remembers any non-finite
  * figure, numbers in plain decimal, word wrapping that never parts a number
  * from its unit, CSV fields and comment lines, compass points. Internal to
  * libplumb; the inline helpers keep one definition for both writers.
