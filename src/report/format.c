@@ -92,12 +92,10 @@ plumb_status plumbp_check_item(const plumb_item_report *it, plumb_diag *diag)
 /* x with a fixed number of decimals, never "-0". */
 char *plumbp_fixed(writer *w, double x, int dec)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     snprintf(b, NUMBUF, "%.*f", dec, x);
     if (strspn(b, "-0.") == strlen(b))
         snprintf(b, NUMBUF, "%.*f", dec, 0.0);
@@ -107,12 +105,10 @@ char *plumbp_fixed(writer *w, double x, int dec)
 /* x in scientific notation with `sig` significant digits. */
 const char *plumbp_sci(writer *w, double x, int sig)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     snprintf(b, NUMBUF, "%.*e", sig - 1, x);
     return b;
 }
@@ -131,15 +127,41 @@ const char *plumbp_trimmed(writer *w, double x, int dec)
     return b;
 }
 
+/* x with at most `sig` significant digits and `dec` decimals, trailing
+ * zeros dropped: inputs as given ("0.8"), percents ("99.9"), and figures
+ * whose last digit would be below what they are good for (mm, mJ). */
+const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    double ax = fabs(x);
+    int d = ax > 0.0 ? sig - 1 - (int)floor(log10(ax)) : 0;
+    if (d > dec)
+        d = dec;
+    if (d < 0)
+        return num(w, x, sig);
+    snprintf(b, NUMBUF, "%.*f", d, x);
+    if (strip && strchr(b, '.')) {
+        size_t n = strlen(b);
+        while (n > 0 && b[n - 1] == '0')
+            b[--n] = '\0';
+        if (n > 0 && b[n - 1] == '.')
+            b[--n] = '\0';
+    }
+    if (strspn(b, "-0.") == strlen(b))
+        strcpy(b, "0");
+    return b;
+}
+
 /* x in the shortest of %g's forms with `sig` significant digits ("0.9"). */
 const char *plumbp_gnum(writer *w, double x, int sig)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     snprintf(b, NUMBUF, "%.*g", sig, x == 0.0 ? 0.0 : x);
     return b;
 }
@@ -170,6 +192,13 @@ const char *plumbp_t_len(writer *w, double m)
     return b;
 }
 
+/* 1 when a figure as printed ("0 m", "0.000 ft") is zero. */
+int plumbp_shows_zero(const char *s)
+{
+    size_t n = strcspn(s, " " NBSP);
+    return n > 0 && strspn(s, "0.") >= n;
+}
+
 /* "3.2 m west", "1.1 m north": an offset along one axis in words. One
  * that prints as zero takes the word of the positive side: never
  * "0 m south". */
@@ -177,9 +206,7 @@ const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *ne
 {
     char *b = slot(w);
     const char *l = plumbp_t_len(w, fabs(x));
-    size_t n = strcspn(l, NBSP);
-    int zero = n > 0 && strspn(l, "0.") >= n;
-    snprintf(b, NUMBUF, "%s %s", l, x < 0.0 && !zero ? neg : pos);
+    snprintf(b, NUMBUF, "%s %s", l, x < 0.0 && !plumbp_shows_zero(l) ? neg : pos);
     return b;
 }
 

@@ -60,6 +60,10 @@ plumb_status plumbp_check_item(const plumb_item_report *it, plumb_diag *diag);
 char *plumbp_fixed(writer *w, double x, int dec);
 const char *plumbp_sci(writer *w, double x, int sig);
 const char *plumbp_trimmed(writer *w, double x, int dec);
+/* x with at most `sig` significant digits and `dec` decimals; trailing
+ * zeros dropped when `strip`. */
+const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
+int plumbp_shows_zero(const char *s);
 const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
 const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg);

@@ -59,16 +59,27 @@ static inline char *slot(writer *w)
     return b;
 }
 
+/* A slot for the figure x. When x is not finite the writer is flagged
+ * (the report will be refused), the slot holds "?" and *ok is 0. */
+static inline char *num_slot(writer *w, double x, int *ok)
+{
+    char *b = slot(w);
+    *ok = plumbp_finite(x);
+    if (!*ok) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+    }
+    return b;
+}
+
 /* x with `sig` significant digits in plain decimal notation (no exponent),
  * never "-0". Flags a non-finite x. */
 static inline const char *num(writer *w, double x, int sig)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     if (x == 0.0) {
         snprintf(b, NUMBUF, "0");
         return b;
@@ -96,12 +107,10 @@ static inline const char *num(writer *w, double x, int sig)
 /* A number for CSV: CSV_DIGITS significant digits, shortest form. */
 static inline const char *csvnum(writer *w, double x)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     snprintf(b, NUMBUF, "%.*g", CSV_DIGITS, x == 0.0 ? 0.0 : x);
     return b;
 }
