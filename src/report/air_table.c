@@ -34,7 +34,7 @@ static void text_air(writer *w, const plumb_report_options *opt, const plumb_air
     plumbp_text_header(w, opt, "air", "properties by geometric altitude above mean sea level");
     air_model_text(w, dt_k, model, sizeof model);
     put(w, "  %s\n", model);
-    enum { COL_W = 14 };
+    enum { COL_W = 13 }; /* six columns in 80 */
     const char *heads[] = {"altitude", "temperature", "pressure", "density", "viscosity",
                            "sound speed"};
     const char *si[] = {"m", "K", "Pa", "kg/m³", "Pa·s", "m/s"};

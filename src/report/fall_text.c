@@ -355,10 +355,10 @@ static void text_site(writer *w, const plumb_fall_spec *s, const item_air *ia, c
 {
     char g[NUMBUF * 2];
     if (s->gravity.has_latitude)
-        snprintf(g, sizeof g, "latitude %s°, WGS" NBSP "84 gravity %s" NBSP "m/s²",
-                 plumbp_gnum(w, s->gravity.latitude_deg, 6), plumbp_fixed(w, ia->g_m_s2, 5));
+        snprintf(g, sizeof g, "latitude %s°, WGS" NBSP "84 gravity %s",
+                 plumbp_gnum(w, s->gravity.latitude_deg, 6), plumbp_t_gravity(w, ia->g_m_s2));
     else
-        snprintf(g, sizeof g, "standard gravity %s" NBSP "m/s²", plumbp_fixed(w, ia->g_m_s2, 5));
+        snprintf(g, sizeof g, "standard gravity %s", plumbp_t_gravity(w, ia->g_m_s2));
     w->exact = 1;
     snprintf(buf, size, "strike level %s above mean sea level; %s",
              plumbp_t_len(w, s->site_elevation_m), g);
@@ -428,6 +428,23 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
 
 /* ---- text: inventory ----------------------------------------------------- */
 
+/* "2.52 EXCEEDS": a verdict in an inventory table cell. */
+static const char *inventory_verdict(writer *w, const plumb_verdict *v)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
+    return b;
+}
+
+/* The continuation lines of a name wrapped in its table column. */
+static void name_continued(writer *w, const char *rest, size_t name_w, char *part, size_t size)
+{
+    while (*rest) {
+        rest = wrap_cell(rest, name_w, part, size);
+        put(w, "     %s\n", part);
+    }
+}
+
 void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plumb_fall_report *rep,
                            const item_air *ia)
 {
@@ -437,14 +454,22 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     put(w, "%zu items, each falling alone under the same release, site, air and wind.\n",
         rep->n_items);
 
-    /* Column widths: item names, then fixed numeric columns, then one per criterion. */
-    size_t name_w = strlen("item");
+    /* Columns: number, item name, five figures, then one per criterion.
+     * The table keeps to TABLE_WIDTH columns: a long name is wrapped onto
+     * continuation lines of its own column, never cut, and criteria that
+     * do not fit beside the figures get a table of their own, as many per
+     * block as fit. */
+    enum { NUM_W = 10, CRIT_W = 14, NO_W = 5, NAME_MIN = 4 };
+    size_t name_w = NAME_MIN;
     for (size_t i = 0; i < rep->n_items; i++) {
         size_t n = shown_width(rep->items[i].spec->name);
         if (n > name_w)
             name_w = n;
     }
-    enum { NUM_W = 10, CRIT_W = 14 };
+    size_t figs_w = NO_W + 5 * NUM_W;
+    if (name_w > TABLE_WIDTH - figs_w)
+        name_w = TABLE_WIDTH - figs_w;
+    int inline_crit = figs_w + name_w + nv * CRIT_W <= TABLE_WIDTH;
     const char *u_mass = w->us ? "lb" : "kg", *u_speed = w->us ? "ft/s" : "m/s";
     const char *u_len = w->us ? "ft" : "m";
     put(w, "\n   # ");
@@ -452,37 +477,67 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     const char *heads[] = {"mass", "speed", "energy", "energy", "drift"};
     for (size_t k = 0; k < 5; k++)
         pad(w, heads[k], NUM_W, 1);
-    for (size_t k = 0; k < nv; k++) {
+    for (size_t k = 0; inline_crit && k < nv; k++) {
         char h[32];
         snprintf(h, sizeof h, "C%zu", k + 1);
         pad(w, h, CRIT_W, 1);
     }
     put(w, "\n     ");
     pad(w, "", name_w, 0);
-    const char *units[] = {u_mass, u_speed, "J", "ft·lbf", u_len};
+    /* energy in the display system's unit first, as everywhere else */
+    const char *units[] = {u_mass, u_speed, w->us ? "ft·lbf" : "J", w->us ? "J" : "ft·lbf",
+                           u_len};
     for (size_t k = 0; k < 5; k++)
         pad(w, units[k], NUM_W, 1);
-    for (size_t k = 0; k < nv; k++)
+    for (size_t k = 0; inline_crit && k < nv; k++)
         pad(w, "ratio verdict", CRIT_W, 1);
     put(w, "\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_item_report *it = &rep->items[i];
         const plumb_fall_result *r = &it->result;
+        char part[PLUMB_NAME];
+        const char *rest = wrap_cell(it->spec->name, name_w, part, sizeof part);
         put(w, "%4zu ", i + 1);
-        pad(w, it->spec->name, name_w, 0);
+        pad(w, part, name_w, 0);
         double conv_len = w->us ? PLUMB_FT_M : 1.0;
+        double e_j = r->energy_j, e_ftlbf = r->energy_j / PLUMB_FT_LBF_J;
         pad(w, plumbp_gnum(w, it->spec->mass_kg / (w->us ? PLUMB_LB_KG : 1.0), TEXT_SIG), NUM_W, 1);
         pad(w, num(w, r->speed_m_s / conv_len, TEXT_SIG), NUM_W, 1);
-        pad(w, num(w, r->energy_j, TEXT_SIG), NUM_W, 1);
-        pad(w, num(w, r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG), NUM_W, 1);
+        pad(w, num(w, w->us ? e_ftlbf : e_j, TEXT_SIG), NUM_W, 1);
+        pad(w, num(w, w->us ? e_j : e_ftlbf, TEXT_SIG), NUM_W, 1);
         pad(w, plumbp_fixed(w, r->drift_m / conv_len, 2), NUM_W, 1);
-        for (size_t k = 0; k < nv; k++) {
-            char cell[NUMBUF];
-            snprintf(cell, sizeof cell, "%s %s", num(w, it->verdicts[k].ratio, RATIO_SIG),
-                     it->verdicts[k].exceeds ? "EXCEEDS" : "within");
-            pad(w, cell, CRIT_W, 1);
-        }
+        for (size_t k = 0; inline_crit && k < nv; k++)
+            pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
         put(w, "\n");
+        name_continued(w, rest, name_w, part, sizeof part);
+    }
+    /* the verdicts, in blocks of as many criteria as fit */
+    size_t per = (TABLE_WIDTH - NO_W - name_w) / CRIT_W;
+    for (size_t k0 = 0; !inline_crit && k0 < nv; k0 += per) {
+        size_t k1 = k0 + per < nv ? k0 + per : nv;
+        put(w, "\n   # ");
+        pad(w, "item", name_w, 0);
+        for (size_t k = k0; k < k1; k++) {
+            char h[32];
+            snprintf(h, sizeof h, "C%zu", k + 1);
+            pad(w, h, CRIT_W, 1);
+        }
+        put(w, "\n     ");
+        pad(w, "", name_w, 0);
+        for (size_t k = k0; k < k1; k++)
+            pad(w, "ratio verdict", CRIT_W, 1);
+        put(w, "\n");
+        for (size_t i = 0; i < rep->n_items; i++) {
+            const plumb_item_report *it = &rep->items[i];
+            char part[PLUMB_NAME];
+            const char *rest = wrap_cell(it->spec->name, name_w, part, sizeof part);
+            put(w, "%4zu ", i + 1);
+            pad(w, part, name_w, 0);
+            for (size_t k = k0; k < k1; k++)
+                pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
+            put(w, "\n");
+            name_continued(w, rest, name_w, part, sizeof part);
+        }
     }
 
     if (nv) {
@@ -506,11 +561,11 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     char line[PLUMB_NAME + NUMBUF * 6];
     long sk = plumbp_strictest(worst);
     if (sk >= 0)
-        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit (C%ld, %s J): %s",
+        snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit, C%ld of %s: %s",
                  worst->spec->name, plumbp_t_energy(w, worst->result.energy_j),
                  plumbp_t_speed(w, worst->result.speed_m_s),
                  num(w, worst->verdicts[sk].ratio, RATIO_SIG), sk + 1,
-                 num(w, worst->verdicts[sk].criterion->energy_limit_j, TEXT_SIG),
+                 plumbp_t_energy(w, worst->verdicts[sk].criterion->energy_limit_j),
                  plumbp_verdict_word(&worst->verdicts[sk]));
     else
         snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,

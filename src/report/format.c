@@ -313,6 +313,17 @@ const char *plumbp_t_density(writer *w, double rho)
     return b;
 }
 
+/* Gravity to six figures: m/s², or ft/s² in US units. */
+const char *plumbp_t_gravity(writer *w, double g)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "ft/s²", plumbp_fixed(w, g / PLUMB_FT_M, 4));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m/s²", plumbp_fixed(w, g, 5));
+    return b;
+}
+
 /* " [23.61 m/s]" after a US figure; "" in SI. */
 const char *plumbp_si_bracket(writer *w, double x, const char *unit)
 {

@@ -75,6 +75,7 @@ const char *plumbp_t_area(writer *w, double m2);
 const char *plumbp_t_force(writer *w, double n);
 const char *plumbp_t_temp(writer *w, double k);
 const char *plumbp_t_press(writer *w, double pa);
+const char *plumbp_t_gravity(writer *w, double g);
 const char *plumbp_t_density(writer *w, double rho);
 const char *plumbp_si_bracket(writer *w, double x, const char *unit);
 const char *plumbp_t_bearing(writer *w, double deg);

@@ -300,7 +300,7 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
 {
     if (z->n_exceedance == 0)
         return;
-    put(w, "Probability that the impact energy exceeds each criterion, with its %s interval\n",
+    put(w, "Probability that the impact energy exceeds each criterion (%s interval)\n",
         pct(w, level));
     for (size_t i = 0; i < z->n_exceedance; i++) {
         const plumb_zone_exceedance *x = &z->exceedance[i];

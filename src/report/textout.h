@@ -20,8 +20,9 @@
 /* Significant digits of text figures; digits of CSV numbers. */
 #define TEXT_SIG 4
 #define CSV_DIGITS 10
-/* Width the text wraps sentences at. */
+/* Width the text wraps sentences at, and the widest a table may be. */
 #define TEXT_WIDTH 78
+#define TABLE_WIDTH 80
 /* Compass points naming a bearing. */
 #define COMPASS_POINTS 16
 
@@ -234,6 +235,41 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
         p += len;
     }
     put(w, "\n");
+}
+
+/* The first line of s word-wrapped to `width` shown characters, into
+ * part; a word longer than the width is broken. Returns the rest of s
+ * (past the spaces that end the line), "" when s fits. */
+static inline const char *wrap_cell(const char *s, size_t width, char *part, size_t size)
+{
+    size_t n = 0, shown = 0, last_space = 0;
+    const char *p = s, *cut = NULL;
+    while (*p && n + 1 < size) {
+        unsigned char c = (unsigned char)*p;
+        if ((c & 0xC0) != 0x80) {
+            if (shown == width)
+                break;
+            shown++;
+        }
+        if (c == ' ') {
+            last_space = n;
+            cut = p;
+        }
+        part[n++] = *p++;
+    }
+    /* a multi-byte character is never split */
+    while (*p && ((unsigned char)*p & 0xC0) == 0x80 && n + 1 < size)
+        part[n++] = *p++;
+    if (*p && *p != ' ' && cut) {
+        n = last_space;
+        p = cut;
+    }
+    while (n > 0 && part[n - 1] == ' ')
+        n--;
+    part[n] = '\0';
+    while (*p == ' ')
+        p++;
+    return p;
 }
 
 static inline double wrap_deg(double a)
