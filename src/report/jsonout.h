@@ -1,5 +1,5 @@
 /*
- * jsonout.h - what the JSON report writers share (report.c, report_zone.c):
+ * jsonout.h - what the JSON report writers share (the files of src/report/):
  * building a jansson tree while remembering whether any figure was not
  * finite or any allocation failed, and writing it all or nothing.
  * Internal to libplumb; the inline helpers keep one definition for both

@@ -32,7 +32,7 @@
 #include "plumb/dispersion.h"
 #include "core/internal.h"
 #include "report/jsonout.h"
-#include "report/textout.h"
+#include "report/format.h"
 
 /* Significant digits of text figures; CSV digits (JSON: jsonout.h). */
 /* Width the text wraps sentences at. */
@@ -52,44 +52,15 @@ static const char *const energy_names[PLUMB_ZONE_ENERGIES] = {"p50", "p95", "p99
 
 
 
-/* x with at most `sig` significant digits and `dec` decimals, trailing
- * zeros dropped: inputs as given ("0.8"), percents ("99.9"), and figures
- * whose last digit would be below what they are good for (mm, mJ). */
-static const char *trim_to(writer *w, double x, int sig, int dec, int strip)
-{
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        return strcpy(b, "?");
-    }
-    double ax = fabs(x);
-    int d = ax > 0.0 ? sig - 1 - (int)floor(log10(ax)) : 0;
-    if (d > dec)
-        d = dec;
-    if (d < 0)
-        return num(w, x, sig);
-    snprintf(b, NUMBUF, "%.*f", d, x);
-    if (strip && strchr(b, '.')) {
-        size_t n = strlen(b);
-        while (n > 0 && b[n - 1] == '0')
-            b[--n] = '\0';
-        if (n > 0 && b[n - 1] == '.')
-            b[--n] = '\0';
-    }
-    if (strspn(b, "-0.") == strlen(b))
-        strcpy(b, "0");
-    return b;
-}
-
 /* Inputs and percents without trailing zeros; computed figures with them. */
 static const char *trim(writer *w, double x, int sig, int dec)
 {
-    return trim_to(w, x, sig, dec, 1);
+    return plumbp_trim_to(w, x, sig, dec, 1);
 }
 
 static const char *fig(writer *w, double x, int dec)
 {
-    return trim_to(w, x, TEXT_SIG, dec, 0);
+    return plumbp_trim_to(w, x, TEXT_SIG, dec, 0);
 }
 
 /* Decimals figures are shown to: a millimetre, a millijoule, a hundredth
@@ -97,7 +68,6 @@ static const char *fig(writer *w, double x, int dec)
 #define LEN_DEC 3
 #define ENERGY_DEC 3
 #define PCT_DEC 2
-#define INPUT_SIG 6
 #define INPUT_DEC 9
 
 
@@ -111,20 +81,14 @@ static const char *len_unit(const writer *w)
     return w->us ? "ft" : "m";
 }
 
+/* Lengths and energies of a zone keep TEXT_SIG figures but no digit below
+ * a millimetre or a millijoule (a spread of samples is not known finer);
+ * the fall reports' plumbp_t_len and plumbp_t_energy keep all TEXT_SIG
+ * figures. Speeds are the shared plumbp_t_speed. */
 static const char *t_len(writer *w, double m)
 {
     char *b = slot(w);
     snprintf(b, NUMBUF, "%s %s", fig(w, len_shown(w, m), LEN_DEC), len_unit(w));
-    return b;
-}
-
-static const char *t_speed(writer *w, double v)
-{
-    char *b = slot(w);
-    if (w->us)
-        snprintf(b, NUMBUF, "%s ft/s", num(w, v / PLUMB_FT_M, TEXT_SIG));
-    else
-        snprintf(b, NUMBUF, "%s m/s", num(w, v, TEXT_SIG));
     return b;
 }
 
@@ -141,21 +105,14 @@ static const char *t_energy(writer *w, double j)
 }
 
 
-/* 1 when a figure as printed ("0 m", "0.000 ft") is zero. */
-static int shows_zero(const char *s)
-{
-    size_t n = strcspn(s, " ");
-    return n > 0 && strspn(s, "0.") >= n;
-}
-
 /* A point as "12.3 m E, 4.56 m S". A coordinate that prints as zero is
  * E or N whatever its sign: never "0 m S" for -1e-12 m. */
 static const char *t_point(writer *w, const double p[2])
 {
     char *b = slot(w);
     const char *e = t_len(w, fabs(p[0])), *n = t_len(w, fabs(p[1]));
-    snprintf(b, NUMBUF, "%s %s, %s %s", e, p[0] < 0.0 && !shows_zero(e) ? "W" : "E", n,
-             p[1] < 0.0 && !shows_zero(n) ? "S" : "N");
+    snprintf(b, NUMBUF, "%s %s, %s %s", e, p[0] < 0.0 && !plumbp_shows_zero(e) ? "W" : "E", n,
+             p[1] < 0.0 && !plumbp_shows_zero(n) ? "S" : "N");
     return b;
 }
 
@@ -343,7 +300,7 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
 {
     if (z->n_exceedance == 0)
         return;
-    put(w, "Probability that the impact energy exceeds each criterion, with its %s interval\n",
+    put(w, "Probability that the impact energy exceeds each criterion (%s interval)\n",
         pct(w, level));
     for (size_t i = 0; i < z->n_exceedance; i++) {
         const plumb_zone_exceedance *x = &z->exceedance[i];
@@ -370,7 +327,7 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     snprintf(line, sizeof line,
              "%s: the range, without drag or wind, of the sample released fastest (%s, in "
              "its own direction)",
-             t_len(w, z->ballistic_throw_m), t_speed(w, z->max_release_speed_m_s));
+             t_len(w, z->ballistic_throw_m), plumbp_t_speed(w, z->max_release_speed_m_s));
     for (char *c = line; *c; c++)
         if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
             *c = NBSP_CHAR;

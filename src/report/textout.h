@@ -1,6 +1,6 @@
 /*
- * textout.h - what the text and CSV report writers share (report.c,
- * report_zone.c): a memory-stream writer that remembers any non-finite
+ * textout.h - what the text and CSV report writers share (the files of
+ * src/report/): a memory-stream writer that remembers any non-finite
  * figure, numbers in plain decimal, word wrapping that never parts a number
  * from its unit, CSV fields and comment lines, compass points. Internal to
  * libplumb; the inline helpers keep one definition for both writers.
@@ -20,8 +20,9 @@
 /* Significant digits of text figures; digits of CSV numbers. */
 #define TEXT_SIG 4
 #define CSV_DIGITS 10
-/* Width the text wraps sentences at. */
+/* Width the text wraps sentences at, and the widest a table may be. */
 #define TEXT_WIDTH 78
+#define TABLE_WIDTH 80
 /* Compass points naming a bearing. */
 #define COMPASS_POINTS 16
 
@@ -59,16 +60,27 @@ static inline char *slot(writer *w)
     return b;
 }
 
+/* A slot for the figure x. When x is not finite the writer is flagged
+ * (the report will be refused), the slot holds "?" and *ok is 0. */
+static inline char *num_slot(writer *w, double x, int *ok)
+{
+    char *b = slot(w);
+    *ok = plumbp_finite(x);
+    if (!*ok) {
+        w->bad = 1;
+        snprintf(b, NUMBUF, "?");
+    }
+    return b;
+}
+
 /* x with `sig` significant digits in plain decimal notation (no exponent),
  * never "-0". Flags a non-finite x. */
 static inline const char *num(writer *w, double x, int sig)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     if (x == 0.0) {
         snprintf(b, NUMBUF, "0");
         return b;
@@ -96,12 +108,10 @@ static inline const char *num(writer *w, double x, int sig)
 /* A number for CSV: CSV_DIGITS significant digits, shortest form. */
 static inline const char *csvnum(writer *w, double x)
 {
-    char *b = slot(w);
-    if (!plumbp_finite(x)) {
-        w->bad = 1;
-        snprintf(b, NUMBUF, "?");
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
         return b;
-    }
     snprintf(b, NUMBUF, "%.*g", CSV_DIGITS, x == 0.0 ? 0.0 : x);
     return b;
 }
@@ -225,6 +235,41 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
         p += len;
     }
     put(w, "\n");
+}
+
+/* The first line of s word-wrapped to `width` shown characters, into
+ * part; a word longer than the width is broken. Returns the rest of s
+ * (past the spaces that end the line), "" when s fits. */
+static inline const char *wrap_cell(const char *s, size_t width, char *part, size_t size)
+{
+    size_t n = 0, shown = 0, last_space = 0;
+    const char *p = s, *cut = NULL;
+    while (*p && n + 1 < size) {
+        unsigned char c = (unsigned char)*p;
+        if ((c & 0xC0) != 0x80) {
+            if (shown == width)
+                break;
+            shown++;
+        }
+        if (c == ' ') {
+            last_space = n;
+            cut = p;
+        }
+        part[n++] = *p++;
+    }
+    /* a multi-byte character is never split */
+    while (*p && ((unsigned char)*p & 0xC0) == 0x80 && n + 1 < size)
+        part[n++] = *p++;
+    if (*p && *p != ' ' && cut) {
+        n = last_space;
+        p = cut;
+    }
+    while (n > 0 && part[n - 1] == ' ')
+        n--;
+    part[n] = '\0';
+    while (*p == ' ')
+        p++;
+    return p;
 }
 
 static inline double wrap_deg(double a)

@@ -1,0 +1,80 @@
+/*
+ * common.h - what the fall, air, sweep and limit writers share inside the
+ * report layer: the air each item's text needs, names of enumerations,
+ * the worst item, warnings grouped over items, the memory-stream writer
+ * opened and closed all or nothing, and the pieces of one writer another
+ * reuses (the fall's text header and atmosphere line, the CSV item
+ * columns, the JSON item object). Internal to the report layer.
+ */
+#ifndef PLUMB_REPORT_COMMON_H
+#define PLUMB_REPORT_COMMON_H
+
+#include <jansson.h>
+
+#include "plumb/atmosphere.h"
+#include "plumb/inverse.h"
+#include "plumb/report.h"
+#include "plumb/sweep.h"
+#include "report/format.h"
+#include "report/jsonout.h"
+
+/* Air at the strike level [0] and at the release height [1]. */
+typedef struct item_air {
+    plumb_air at[2];
+    double g_m_s2;          /* gravity at the strike level */
+    double wind_release[2]; /* wind at the release height: speed m/s, from deg */
+} item_air;
+
+/* Called once per distinct warning (plumbp_each_warning). */
+typedef void (*warning_fn)(writer *w, const char *who, const char *text);
+
+/* A value of dimension `dim` in the display units, number and unit apart. */
+typedef struct shown {
+    double x;
+    const char *unit;
+} shown;
+
+void plumbp_csv_cautions(writer *w);
+size_t plumbp_csv_header_cols(writer *w, const plumb_item_report *first);
+void plumbp_csv_item_cols(writer *w, const plumb_item_report *it);
+void plumbp_csv_fall(writer *w, const plumb_fall_report *rep);
+json_t *plumbp_j_air(jctx *j, const plumb_air *a);
+void plumbp_j_item_into(jctx *j, json_t *o, const plumb_item_report *it, const plumb_profile *p,
+                        const item_air *ia);
+json_t *plumbp_j_profile(jctx *j, const plumb_profile *p);
+json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,
+                      const item_air *ia);
+void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,
+                        const char *name);
+const char *plumbp_status_note(const plumb_criterion *c);
+void plumbp_text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_t size);
+void plumbp_text_profile(writer *w, const plumb_profile *p);
+void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_fall_report *rep,
+                        const item_air *ia);
+void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plumb_fall_report *rep,
+                           const item_air *ia);
+void plumbp_wind_polar(double e, double n, double *speed, double *from_deg);
+const char *plumbp_verdict_word(const plumb_verdict *v);
+const char *plumbp_crit_kind_name(plumb_criterion_kind k);
+const char *plumbp_drag_model_name(plumb_drag_model m);
+const char *plumbp_shape_kind_name(plumb_shape_kind k);
+const char *plumbp_attitude_name(plumb_attitude a);
+const char *plumbp_atm_model_name(plumb_atm_model m);
+const char *plumbp_wind_profile_name(plumb_wind_profile p);
+double plumbp_body_cd_area(const plumb_drag_spec *d);
+long plumbp_strictest(const plumb_item_report *it);
+size_t plumbp_worst_item(const plumb_fall_report *rep);
+size_t plumbp_largest_drift_item(const plumb_fall_report *rep);
+void plumbp_caution_lines_text(writer *w);
+int plumbp_item_has_warning(const plumb_item_report *it, const char *text);
+void plumbp_each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn);
+void plumbp_text_warning_line(writer *w, const char *who, const char *text);
+plumb_status plumbp_writer_open(writer *w, char **buf, size_t *len, plumb_unit_system units,
+                                plumb_diag *diag);
+plumb_status plumbp_writer_close(writer *w, char **buf, size_t *len, FILE *out, plumb_diag *diag);
+const plumb_report_options *plumbp_opts_or_default(const plumb_report_options *opt,
+                                                   plumb_report_options *def);
+plumb_status plumbp_prepare_fall(const plumb_fall_report *rep, item_air **ia, plumb_diag *diag);
+shown plumbp_show_dim(const writer *w, plumb_dim dim, double si);
+
+#endif /* PLUMB_REPORT_COMMON_H */

@@ -1,0 +1,348 @@
+/*
+ * format.c - the shared number and unit formatter of the report writers
+ * (format.h), and the finiteness checks made before a report is written.
+ *
+ * Units: the text and CSV reports show SI, or with --units us the units a
+ * crew in the US works in: the international foot and pound (1959
+ * agreement, PLUMB_FT_M and PLUMB_LB_KG), the statute mile of 5280 ft, the
+ * international nautical mile of 1852 m (1929), the pound-force
+ * lb x g0, the foot pound-force (PLUMB_FT_LBF_J) and the conventional inch
+ * of mercury (NIST SP 811, 2008, Appendix B.8: 1 inHg = 3.386389e3 Pa).
+ * Energy is always shown in both joules and foot pound-force.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "report/format.h"
+
+/* ---- finiteness: every figure checked before anything is written ------- */
+
+void plumbp_need_finite(finite_check *fc, const char *what, double x)
+{
+    if (fc->status != PLUMB_OK || plumbp_finite(x))
+        return;
+    fc->status = PLUMB_RAISE(fc->diag, PLUMB_ENUMERIC,
+                             "%s%s%s is not a finite number (%s); no report written",
+                             fc->item ? fc->item : "", fc->item ? ": " : "", what,
+                             isnan(x) ? "NaN" : "infinite");
+}
+
+plumb_status plumbp_check_item(const plumb_item_report *it, plumb_diag *diag)
+{
+    finite_check fc = {diag, it->spec->name[0] ? it->spec->name : NULL, PLUMB_OK};
+    const plumb_fall_result *r = &it->result;
+    const plumb_fall_spec *s = it->spec;
+    plumbp_need_finite(&fc, "impact time", r->time_s);
+    plumbp_need_finite(&fc, "impact point east", r->point_m[0]);
+    plumbp_need_finite(&fc, "impact point north", r->point_m[1]);
+    for (int k = 0; k < 3; k++)
+        plumbp_need_finite(&fc, "impact velocity", r->velocity_m_s[k]);
+    plumbp_need_finite(&fc, "impact speed", r->speed_m_s);
+    plumbp_need_finite(&fc, "impact energy", r->energy_j);
+    plumbp_need_finite(&fc, "impact momentum", r->momentum_kg_m_s);
+    plumbp_need_finite(&fc, "impact angle", r->angle_deg);
+    plumbp_need_finite(&fc, "drift", r->drift_m);
+    plumbp_need_finite(&fc, "bearing", r->bearing_deg);
+    plumbp_need_finite(&fc, "apex", r->apex_m);
+    plumbp_need_finite(&fc, "terminal speed", r->terminal_speed_m_s);
+    plumbp_need_finite(&fc, "drag-free speed", r->drag_free_speed_m_s);
+    plumbp_need_finite(&fc, "drag-free energy", r->drag_free_energy_j);
+    plumbp_need_finite(&fc, "work done by drag", r->drag_work_j);
+    plumbp_need_finite(&fc, "largest Mach number", r->max_mach);
+    plumbp_need_finite(&fc, "smallest Reynolds number", r->min_re);
+    plumbp_need_finite(&fc, "largest Reynolds number", r->max_re);
+    if (s->n_descent > 0) {
+        for (size_t i = 0; i < r->n_deployed && i < PLUMB_MAX_DESCENT; i++) {
+            plumbp_need_finite(&fc, "line-stretch time", r->deploy_time_s[i]);
+            plumbp_need_finite(&fc, "line-stretch height", r->deploy_height_m[i]);
+            plumbp_need_finite(&fc, "line-stretch air speed", r->deploy_speed_m_s[i]);
+        }
+        plumbp_need_finite(&fc, "peak drag force", r->peak_force_n);
+        plumbp_need_finite(&fc, "peak load factor", r->peak_load_g);
+        plumbp_need_finite(&fc, "steady descent speed", r->steady_speed_m_s);
+    }
+    for (size_t i = 0; i < it->n_verdicts; i++) {
+        plumbp_need_finite(&fc, "judged energy", it->verdicts[i].energy_j);
+        plumbp_need_finite(&fc, "energy ratio", it->verdicts[i].ratio);
+        plumbp_need_finite(&fc, "energy limit", it->verdicts[i].criterion->energy_limit_j);
+    }
+    plumbp_need_finite(&fc, "mass", s->mass_kg);
+    plumbp_need_finite(&fc, "volume", s->volume_m3);
+    plumbp_need_finite(&fc, "drag coefficient", s->drag.cd);
+    plumbp_need_finite(&fc, "drag area", s->drag.area_m2);
+    plumbp_need_finite(&fc, "drag area CdA", s->drag.cd_area_m2);
+    plumbp_need_finite(&fc, "sphere diameter", s->drag.diameter_m);
+    for (int k = 0; k < 3; k++) {
+        plumbp_need_finite(&fc, "release point", s->release_m[k]);
+        plumbp_need_finite(&fc, "release velocity", s->velocity_m_s[k]);
+    }
+    plumbp_need_finite(&fc, "site elevation", s->site_elevation_m);
+    plumbp_need_finite(&fc, "wind speed", s->wind.speed_m_s);
+    plumbp_need_finite(&fc, "wind direction", s->wind.from_deg);
+    return fc.status;
+}
+/* ---- text and CSV writer context --------------------------------------- */
+
+
+
+
+
+
+/* x with a fixed number of decimals, never "-0". */
+char *plumbp_fixed(writer *w, double x, int dec)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    snprintf(b, NUMBUF, "%.*f", dec, x);
+    if (strspn(b, "-0.") == strlen(b))
+        snprintf(b, NUMBUF, "%.*f", dec, 0.0);
+    return b;
+}
+
+/* x in scientific notation with `sig` significant digits. */
+const char *plumbp_sci(writer *w, double x, int sig)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    snprintf(b, NUMBUF, "%.*e", sig - 1, x);
+    return b;
+}
+
+/* x with at most `dec` decimals, trailing zeros dropped ("1000", "12.5"). */
+const char *plumbp_trimmed(writer *w, double x, int dec)
+{
+    char *b = plumbp_fixed(w, x, dec);
+    if (strchr(b, '.')) {
+        size_t n = strlen(b);
+        while (n > 0 && b[n - 1] == '0')
+            b[--n] = '\0';
+        if (n > 0 && b[n - 1] == '.')
+            b[--n] = '\0';
+    }
+    return b;
+}
+
+/* x with at most `sig` significant digits and `dec` decimals, trailing
+ * zeros dropped: inputs as given ("0.8"), percents ("99.9"), and figures
+ * whose last digit would be below what they are good for (mm, mJ). */
+const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    double ax = fabs(x);
+    int d = ax > 0.0 ? sig - 1 - (int)floor(log10(ax)) : 0;
+    if (d > dec)
+        d = dec;
+    if (d < 0)
+        return num(w, x, sig);
+    snprintf(b, NUMBUF, "%.*f", d, x);
+    if (strip && strchr(b, '.')) {
+        size_t n = strlen(b);
+        while (n > 0 && b[n - 1] == '0')
+            b[--n] = '\0';
+        if (n > 0 && b[n - 1] == '.')
+            b[--n] = '\0';
+    }
+    if (strspn(b, "-0.") == strlen(b))
+        strcpy(b, "0");
+    return b;
+}
+
+/* x in the shortest of %g's forms with `sig` significant digits ("0.9"). */
+const char *plumbp_gnum(writer *w, double x, int sig)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    snprintf(b, NUMBUF, "%.*g", sig, x == 0.0 ? 0.0 : x);
+    return b;
+}
+
+/* A quantity in the text: TEXT_SIG figures; inputs echoed as given (in SI,
+ * INPUT_SIG figures) or converted (US, TEXT_SIG figures), zeros dropped. */
+static const char *qty(writer *w, double x)
+{
+    if (!w->exact)
+        return num(w, x, TEXT_SIG);
+    return plumbp_gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);
+}
+
+
+
+
+
+
+/* ---- text: quantities in the chosen units ------------------------------ */
+
+const char *plumbp_t_len(writer *w, double m)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "ft", qty(w, m / PLUMB_FT_M));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m", qty(w, m));
+    return b;
+}
+
+/* 1 when a figure as printed ("0 m", "0.000 ft") is zero. */
+int plumbp_shows_zero(const char *s)
+{
+    size_t n = strcspn(s, " " NBSP);
+    return n > 0 && strspn(s, "0.") >= n;
+}
+
+/* "3.2 m west", "1.1 m north": an offset along one axis in words. One
+ * that prints as zero takes the word of the positive side: never
+ * "0 m south". */
+const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg)
+{
+    char *b = slot(w);
+    const char *l = plumbp_t_len(w, fabs(x));
+    snprintf(b, NUMBUF, "%s %s", l, x < 0.0 && !plumbp_shows_zero(l) ? neg : pos);
+    return b;
+}
+
+const char *plumbp_t_speed(writer *w, double v)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "ft/s", qty(w, v / PLUMB_FT_M));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m/s", qty(w, v));
+    return b;
+}
+
+/* A wind speed as a crew reads it: m/s, or mph with knots. */
+const char *plumbp_t_wind(writer *w, double v)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "mph (%s" NBSP "kn)", qty(w, v / MPH_M_S),
+                 qty(w, v / KNOT_M_S));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m/s", qty(w, v));
+    return b;
+}
+
+/* Energy in both units, the display system's first. */
+const char *plumbp_t_energy(writer *w, double j)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "ft·lbf (%s" NBSP "J)",
+                 qty(w, j / PLUMB_FT_LBF_J), qty(w, j));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "J (%s" NBSP "ft·lbf)", qty(w, j),
+                 qty(w, j / PLUMB_FT_LBF_J));
+    return b;
+}
+
+const char *plumbp_t_mass(writer *w, double kg)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "lb (%s" NBSP "kg)", qty(w, kg / PLUMB_LB_KG),
+                 qty(w, kg));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "kg", qty(w, kg));
+    return b;
+}
+
+const char *plumbp_t_area(writer *w, double m2)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "ft²", qty(w, m2 / (PLUMB_FT_M * PLUMB_FT_M)));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m²", qty(w, m2));
+    return b;
+}
+
+const char *plumbp_t_force(writer *w, double n)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "lbf", num(w, n / LBF_N, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "N", num(w, n, TEXT_SIG));
+    return b;
+}
+
+const char *plumbp_t_temp(writer *w, double k)
+{
+    char *b = slot(w);
+    double f = k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, c = k - CELSIUS_ZERO_K;
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "°F",
+                 w->exact ? plumbp_gnum(w, f, TEXT_SIG) : plumbp_fixed(w, f, 1));
+    else if (w->exact)
+        snprintf(b, NUMBUF, "%s" NBSP "K (%s" NBSP "°C)", plumbp_gnum(w, k, INPUT_SIG),
+                 plumbp_gnum(w, c, INPUT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "K (%s" NBSP "°C)", plumbp_fixed(w, k, 1),
+                 plumbp_fixed(w, c, 1));
+    return b;
+}
+
+const char *plumbp_t_press(writer *w, double pa)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "inHg", qty(w, pa / INHG_PA));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "hPa", qty(w, pa / HPA_PA));
+    return b;
+}
+
+const char *plumbp_t_density(writer *w, double rho)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "lb/ft³",
+                 num(w, rho * PLUMB_FT_M * PLUMB_FT_M * PLUMB_FT_M / PLUMB_LB_KG, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "kg/m³", num(w, rho, TEXT_SIG));
+    return b;
+}
+
+/* Gravity to six figures: m/s², or ft/s² in US units. */
+const char *plumbp_t_gravity(writer *w, double g)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "ft/s²", plumbp_fixed(w, g / PLUMB_FT_M, 4));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m/s²", plumbp_fixed(w, g, 5));
+    return b;
+}
+
+/* " [23.61 m/s]" after a US figure; "" in SI. */
+const char *plumbp_si_bracket(writer *w, double x, const char *unit)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, " [%s" NBSP "%s]", num(w, x, TEXT_SIG), unit);
+    else
+        b[0] = '\0';
+    return b;
+}
+
+
+/* "085° (E)" */
+const char *plumbp_t_bearing(writer *w, double deg)
+{
+    char *b = slot(w);
+    double d = wrap_deg(deg);
+    if (lround(d) == 360)
+        d = 0.0;
+    snprintf(b, NUMBUF, "%03ld° (%s)", lround(d), compass(d));
+    return b;
+}

@@ -1,0 +1,83 @@
+/*
+ * format.h - the shared number and unit formatter of the report writers
+ * (format.c): figures in fixed, scientific, trimmed and %g forms, the
+ * quantities of the text and CSV reports in the chosen units (SI or US
+ * customary), and the finiteness checks made before anything is written.
+ * Internal to the report layer.
+ */
+#ifndef PLUMB_REPORT_FORMAT_H
+#define PLUMB_REPORT_FORMAT_H
+
+#include "plumb/constants.h"
+#include "plumb/error.h"
+#include "plumb/report.h"
+#include "report/textout.h"
+
+/* Statute mile per hour, m/s: 5280 international feet per 3600 s. */
+#define MPH_M_S (5280.0 * PLUMB_FT_M / 3600.0)
+/* Knot, m/s: international nautical mile 1852 m (1929) per 3600 s. */
+#define KNOT_M_S (1852.0 / 3600.0)
+/* Kilometre per hour, m/s. */
+#define KMH_M_S (1000.0 / 3600.0)
+/* Pound-force, N: the avoirdupois pound under standard gravity. */
+#define LBF_N (PLUMB_LB_KG * PLUMB_G0_M_S2)
+/* Conventional inch of mercury, Pa (NIST SP 811, 2008, Appendix B.8). */
+#define INHG_PA 3386.389
+/* Pascals per hectopascal. */
+#define HPA_PA 100.0
+/* Kelvin to degree Celsius offset, K (ITS-90 definition of the Celsius scale). */
+#define CELSIUS_ZERO_K 273.15
+/* Fahrenheit scale: T(degF) = T(K) x 9/5 - 459.67 (NIST SP 811, B.8). */
+#define FAHRENHEIT_PER_K 1.8
+#define FAHRENHEIT_ZERO_OFFSET 459.67
+
+/* Degrees per radian, 180 / pi (C11 has no M_PI). */
+#define DEG_PER_RAD 57.29577951308232087680
+
+
+/* Horizontal distance below which the text report says the object lands
+ * below its release point: half the last digit the text shows (1 cm). */
+#define DRIFT_SHOWN_M 0.005
+
+/* Significant digits of figures in the text report, and of numbers in CSV. */
+#define INPUT_SIG 6
+#define RATIO_SIG 3
+/* Width the text report wraps warnings and cautions at. */
+/* Most rows of a wind table the text report lists. */
+#define WIND_ROWS_SHOWN 6
+/* Compass points used to name a bearing. */
+
+/* A finiteness check in progress: the first non-finite figure raises
+ * PLUMB_ENUMERIC naming it (and the item, when there is one). */
+typedef struct finite_check {
+    plumb_diag *diag;
+    const char *item;      /* item name for the message */
+    plumb_status status;
+} finite_check;
+
+void plumbp_need_finite(finite_check *fc, const char *what, double x);
+plumb_status plumbp_check_item(const plumb_item_report *it, plumb_diag *diag);
+char *plumbp_fixed(writer *w, double x, int dec);
+const char *plumbp_sci(writer *w, double x, int sig);
+const char *plumbp_trimmed(writer *w, double x, int dec);
+/* x with at most `sig` significant digits and `dec` decimals; trailing
+ * zeros dropped when `strip`. */
+const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
+int plumbp_shows_zero(const char *s);
+const char *plumbp_gnum(writer *w, double x, int sig);
+const char *plumbp_t_len(writer *w, double m);
+const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg);
+const char *plumbp_t_speed(writer *w, double v);
+const char *plumbp_t_wind(writer *w, double v);
+const char *plumbp_t_energy(writer *w, double j);
+const char *plumbp_t_mass(writer *w, double kg);
+const char *plumbp_t_area(writer *w, double m2);
+const char *plumbp_t_force(writer *w, double n);
+const char *plumbp_t_temp(writer *w, double k);
+const char *plumbp_t_press(writer *w, double pa);
+const char *plumbp_t_gravity(writer *w, double g);
+const char *plumbp_t_density(writer *w, double rho);
+const char *plumbp_si_bracket(writer *w, double x, const char *unit);
+const char *plumbp_t_bearing(writer *w, double deg);
+
+#endif /* PLUMB_REPORT_FORMAT_H */

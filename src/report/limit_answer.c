@@ -1,0 +1,253 @@
+/*
+ * limit_answer.c - the answer of a limit search (plumb_report_limit): the
+ * largest or smallest value of an input that keeps a fall within a limit,
+ * in text, CSV and JSON.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "report/common.h"
+
+/* ---- limit answer ------------------------------------------------------- */
+
+static const char *metric_word(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "impact speed" : m == PLUMB_METRIC_DRIFT ? "drift"
+                                                                              : "impact energy";
+}
+
+static const char *metric_key(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "speed_max_m_s" : m == PLUMB_METRIC_DRIFT ? "drift_max_m"
+                                                                               : "energy_max_j";
+}
+
+static const char *metric_stem(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "speed" : m == PLUMB_METRIC_DRIFT ? "drift" : "energy";
+}
+
+static const char *metric_unit_key(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? "m_s" : m == PLUMB_METRIC_DRIFT ? "m" : "j";
+}
+
+static const char *t_metric(writer *w, plumb_metric m, double x)
+{
+    return m == PLUMB_METRIC_SPEED   ? plumbp_t_speed(w, x)
+           : m == PLUMB_METRIC_DRIFT ? plumbp_t_len(w, x)
+                                     : plumbp_t_energy(w, x);
+}
+
+static const char *outcome_word(plumb_limit_outcome o)
+{
+    return o == PLUMB_LIMIT_FOUND       ? "found"
+           : o == PLUMB_LIMIT_UNLIMITED ? "unlimited"
+           : o == PLUMB_LIMIT_IMPOSSIBLE ? "impossible"
+                                         : "not applicable";
+}
+
+static const char *t_value(writer *w, plumb_dim dim, double si)
+{
+    shown v = plumbp_show_dim(w, dim, si);
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s%s%s", plumbp_gnum(w, v.x, 6), v.unit[0] ? NBSP : "", v.unit);
+    return b;
+}
+
+/* A limit's value, 6 figures, rounded toward the side that meets the limit
+ * (down when lower values do), so that the printed value is a safe one. */
+static const char *t_limit_value(writer *w, plumb_dim dim, double si, int round_down)
+{
+    shown v = plumbp_show_dim(w, dim, si);
+    double x = v.x;
+    if (x != 0.0 && plumbp_finite(x)) {
+        double scale = pow(10.0, floor(log10(fabs(x))) - 5.0);
+        x = (round_down ? floor(x / scale) : ceil(x / scale)) * scale;
+    }
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s%s%s", plumbp_gnum(w, x, 6), v.unit[0] ? NBSP : "", v.unit);
+    return b;
+}
+
+static void text_limit_answer(writer *w, const plumb_report_options *opt,
+                              const plumb_limit_report *rep)
+{
+    const plumb_profile *p = rep->profile;
+    plumbp_text_header(w, opt, "limit", plumb_profile_name(p));
+    char text[PLUMB_LIMIT_TEXT + 256];
+    snprintf(text, sizeof text, "the %s of %s at which the %s is %s%s%s%s", "value", rep->key,
+             metric_word(rep->metric), t_metric(w, rep->metric, rep->limit),
+             rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
+             rep->criterion ? ")" : "");
+    wrapped(w, "  ", text);
+    const plumb_criterion *c = rep->criterion_info;
+    if (c) {
+        char src[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + 64];
+        snprintf(src, sizeof src, "%s: %s%s%s%s%s", c->id, c->source[0] ? c->source : "not given",
+                 plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
+                 plumbp_status_note(c)[0] ? ")" : "",
+                 c->kind == PLUMB_CRIT_HELMET_TEST ? "; a helmet test, not a safe limit" : "");
+        wrapped(w, "  source of ", src);
+    }
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_limit_result *r = &rep->results[i];
+        put(w, "\n");
+        if (plumb_profile_is_inventory(p))
+            put(w, "%s\n", plumb_profile_item(p, i)->name);
+        if (r->outcome == PLUMB_LIMIT_FOUND) {
+            put(w, "  %s = %s\n", rep->key,
+                t_limit_value(w, r->dim, r->value_si, r->limit_is_upper_bound));
+            snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
+                     metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
+                     r->limit_is_upper_bound ? "lower" : "higher",
+                     r->n_crossings < 2           ? "."
+                     : r->limit_is_upper_bound ? ", down to the next crossing."
+                                               : ", up to the next crossing.");
+            wrapped(w, "  ", text);
+            if (r->n_crossings > 1) {
+                char list[PLUMB_LIMIT_TEXT];
+                size_t len = 0;
+                list[0] = '\0';
+                for (size_t k = 0; k < r->n_crossings && len + NUMBUF < sizeof list; k++)
+                    len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", k ? ", " : "",
+                                            t_value(w, r->dim, r->crossings_si[k]));
+                snprintf(text, sizeof text,
+                         "the %s is not monotonic in %s: it crosses the limit at %s; %s at the "
+                         "low end of the range and alternately between the crossings.",
+                         metric_word(rep->metric), rep->key, list,
+                         r->within_at_low_end ? "within" : "exceeded");
+                wrapped(w, "  ", text);
+            }
+        } else if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE) {
+            wrapped(w, "  ", r->explanation);
+            continue;
+        } else {
+            put(w, "  %s: %s\n", rep->key,
+                r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"
+                                                    : "no value meets the limit");
+            wrapped(w, "  ", r->explanation);
+        }
+        snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu falls computed)",
+                 t_value(w, r->dim, r->base_value_si), t_metric(w, rep->metric, r->metric_at_base),
+                 r->evaluations);
+        wrapped(w, "  ", text);
+    }
+    plumbp_text_profile(w, p);
+    plumbp_caution_lines_text(w);
+}
+
+static void csv_limit(writer *w, const plumb_limit_report *rep)
+{
+    char text[PLUMB_CRIT_TEXT + PLUMB_DIAG_FILE + NUMBUF * 2];
+    plumbp_csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
+             plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
+    csv_comment(w, text);
+    const plumb_criterion *c = rep->criterion_info;
+    if (c) {
+        char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 2];
+        snprintf(line, sizeof line,
+                 "criterion %s: %s, kind %s, limit %.*g J, source: %s, status %s", c->id, c->name,
+                 plumbp_crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
+        csv_comment(w, line);
+    }
+    put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
+           "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_limit_result *r = &rep->results[i];
+        shown v = plumbp_show_dim(w, r->dim, r->value_si);
+        int found = r->outcome == PLUMB_LIMIT_FOUND; /* else no value: empty fields */
+        csv_field(w, plumb_profile_item(rep->profile, i)->name);
+        put(w, ",");
+        csv_field(w, rep->key);
+        put(w, ",%s,%s,", outcome_word(r->outcome), found ? csvnum(w, v.x) : "");
+        csv_field(w, v.unit);
+        put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", found ? csvnum(w, r->value_si) : "",
+            metric_word(rep->metric), csvnum(w, rep->limit),
+            found ? csvnum(w, r->metric_at_value) : "", csvnum(w, r->base_value_si),
+            csvnum(w, r->metric_at_base), r->n_crossings, r->evaluations);
+        csv_field(w, r->explanation);
+        put(w, "\n");
+    }
+}
+
+static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_limit_report *rep)
+{
+    json_t *root = jobj(j);
+    if (opt->version)
+        jset(j, root, "plumb_version", jstr(j, opt->version));
+    json_t *lim = jobj(j);
+    jset(j, lim, "key", jstr(j, rep->key));
+    jset(j, lim, "metric", jstr(j, metric_word(rep->metric)));
+    jset(j, lim, metric_key(rep->metric), jreal(j, rep->limit));
+    if (rep->criterion)
+        jset(j, lim, "criterion", jstr(j, rep->criterion));
+    if (rep->criterion_info) {
+        jset(j, lim, "criterion_source", jstr(j, rep->criterion_info->source));
+        jset(j, lim, "criterion_status", jstr(j, rep->criterion_info->status));
+    }
+    json_t *items = jarr(j);
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_limit_result *r = &rep->results[i];
+        json_t *o = jobj(j);
+        const char *u = plumb_dim_si_unit(r->dim);
+        jset(j, o, "name", jstr(j, plumb_profile_item(rep->profile, i)->name));
+        jset(j, o, "outcome", jstr(j, outcome_word(r->outcome)));
+        char k_value[64], k_base[64];
+        snprintf(k_value, sizeof k_value, "%s_at_value_%s", metric_stem(rep->metric),
+                 metric_unit_key(rep->metric));
+        snprintf(k_base, sizeof k_base, "%s_at_base_%s", metric_stem(rep->metric),
+                 metric_unit_key(rep->metric));
+        /* the key's value: in the SI unit named by unit_si (it varies with the key) */
+        if (r->outcome == PLUMB_LIMIT_FOUND) {
+            jset(j, o, "value_si", jreal(j, r->value_si));
+            jset(j, o, k_value, jreal(j, r->metric_at_value));
+            json_t *cr = jarr(j);
+            for (size_t k = 0; k < r->n_crossings; k++)
+                jpush(j, cr, jreal(j, r->crossings_si[k]));
+            jset(j, o, "crossings_si", cr);
+        }
+        jset(j, o, "unit_si", jstr(j, strcmp(u, "1") == 0 ? "" : u));
+        jset(j, o, "base_value_si", jreal(j, r->base_value_si));
+        jset(j, o, k_base, jreal(j, r->metric_at_base));
+        jset(j, o, "within_at_low_end", json_boolean(r->within_at_low_end));
+        jset(j, o, "lower_values_meet_limit",
+             json_boolean(r->outcome == PLUMB_LIMIT_FOUND && r->limit_is_upper_bound));
+        jset(j, o, "evaluations", json_integer((json_int_t)r->evaluations));
+        jset(j, o, "explanation", jstr(j, r->explanation));
+        jpush(j, items, o);
+    }
+    jset(j, lim, "items", items);
+    jset(j, root, "limit", lim);
+    jset(j, root, "profile", plumbp_j_profile(j, rep->profile));
+    jset(j, root, "cautions", j_cautions(j));
+    return root;
+}
+
+plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
+                                const plumb_limit_report *rep, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = plumbp_opts_or_default(opt, &def);
+    if (!out || !rep || !rep->profile || !rep->results || rep->n_items == 0 || !rep->key)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no limit answer to write");
+    if (opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        return emit_json(out, &j, j_limit(&j, opt, rep), diag);
+    }
+    writer w;
+    char *buf;
+    size_t len;
+    plumb_status st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+    if (st != PLUMB_OK)
+        return st;
+    if (opt->format == PLUMB_FORMAT_CSV)
+        csv_limit(&w, rep);
+    else
+        text_limit_answer(&w, opt, rep);
+    return plumbp_writer_close(&w, &buf, &len, out, diag);
+}

@@ -1,0 +1,526 @@
+/*
+ * sweep_table.c - the table of a sweep (plumb_report_sweep): one row per
+ * value of the varied inputs, in text, CSV and JSON, with each row's
+ * verdicts and the warnings counted over the rows.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "report/common.h"
+
+/* ---- sweep table --------------------------------------------------------- */
+
+shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
+{
+    double ft = PLUMB_FT_M;
+    switch (dim) {
+    case PLUMB_DIM_LENGTH:
+        return w->us ? (shown){si / ft, "ft"} : (shown){si, "m"};
+    case PLUMB_DIM_MASS:
+        return w->us ? (shown){si / PLUMB_LB_KG, "lb"} : (shown){si, "kg"};
+    case PLUMB_DIM_TIME:
+        return (shown){si, "s"};
+    case PLUMB_DIM_SPEED:
+        return w->us ? (shown){si / ft, "ft/s"} : (shown){si, "m/s"};
+    case PLUMB_DIM_AREA:
+        return w->us ? (shown){si / (ft * ft), "ft²"} : (shown){si, "m²"};
+    case PLUMB_DIM_VOLUME:
+        return w->us ? (shown){si / (ft * ft * ft), "ft³"} : (shown){si, "m³"};
+    case PLUMB_DIM_ENERGY:
+        return w->us ? (shown){si / PLUMB_FT_LBF_J, "ft·lbf"} : (shown){si, "J"};
+    case PLUMB_DIM_FORCE:
+        return w->us ? (shown){si / LBF_N, "lbf"} : (shown){si, "N"};
+    case PLUMB_DIM_ANGLE:
+        return (shown){si, "°"};
+    case PLUMB_DIM_TEMPERATURE:
+        return w->us ? (shown){si * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, "°F"}
+                     : (shown){si, "K"};
+    case PLUMB_DIM_TEMP_DIFF:
+        return w->us ? (shown){si * FAHRENHEIT_PER_K, "°F"} : (shown){si, "K"};
+    case PLUMB_DIM_PRESSURE:
+        return w->us ? (shown){si / INHG_PA, "inHg"} : (shown){si / HPA_PA, "hPa"};
+    case PLUMB_DIM_DENSITY:
+        return w->us ? (shown){si * ft * ft * ft / PLUMB_LB_KG, "lb/ft³"} : (shown){si, "kg/m³"};
+    case PLUMB_DIM_LAPSE:
+        return (shown){si * 1000.0, "K/km"};
+    case PLUMB_DIM_FRACTION:
+    case PLUMB_DIM_NONE:
+    default:
+        return (shown){si, ""};
+    }
+}
+
+/* Numeric columns of a sweep row, and the spaces between columns. */
+enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15 };
+
+/* "C1".."Cn" legend of the criteria a row was judged against. */
+static void text_criteria_legend(writer *w, const plumb_item_report *first)
+{
+    if (first->n_verdicts == 0)
+        return;
+    put(w, "\nCriteria (ratio = energy / limit)\n");
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
+        snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
+        snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
+                 plumbp_t_energy(w, c->energy_limit_j),
+                 c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
+                 c->source[0] ? c->source : "source not given", c->id,
+                 plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
+                 plumbp_status_note(c)[0] ? ")" : "");
+        wrapped(w, lead, text);
+    }
+}
+
+/* A ratio with its verdict beside it, "1.00 EXCEEDS" / "0.997 within", so
+ * that a ratio rounded to 1.00 still shows which side of the limit it is. */
+static const char *ratio_cell(writer *w, const plumb_verdict *v)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
+    return b;
+}
+
+/* The figure of numeric column k of a sweep row (speed, energy in the
+ * display unit, energy in the other, time, drift, bearing). A fall with no
+ * drift has no bearing. */
+static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int k)
+{
+    const plumb_fall_result *r = &item->result;
+    double ft = PLUMB_FT_M;
+    switch (k) {
+    case 0:
+        return num(w, w->us ? r->speed_m_s / ft : r->speed_m_s, TEXT_SIG);
+    case 1:
+        return num(w, w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j, TEXT_SIG);
+    case 2:
+        return num(w, w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG);
+    case 3:
+        return num(w, r->time_s, TEXT_SIG);
+    case 4:
+        return r->drift_m < DRIFT_SHOWN_M ? "0" : num(w, w->us ? r->drift_m / ft : r->drift_m,
+                                                     TEXT_SIG);
+    default:
+        return r->drift_m < DRIFT_SHOWN_M ? "-" : plumbp_fixed(w, r->bearing_deg, 0);
+    }
+}
+
+/* Calls fn once for each distinct warning of any row and item of a sweep,
+ * with the number of rows it appears in. */
+static void each_sweep_warning(writer *w, const plumb_sweep *sw,
+                               void (*fn)(writer *w, const char *text, size_t rows, size_t of))
+{
+    size_t nr = plumb_sweep_row_count(sw);
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, i)->report;
+        for (size_t it = 0; it < rep->n_items; it++) {
+            const plumb_item_report *item = &rep->items[it];
+            for (size_t k = 0; k < item->n_warnings; k++) {
+                const char *text = item->warnings[k];
+                int seen = 0; /* already reported from an earlier row or item */
+                for (size_t j = 0; j <= i && !seen; j++) {
+                    const plumb_fall_report *rj = &plumb_sweep_row_at(sw, j)->report;
+                    size_t last = j < i ? rj->n_items : it;
+                    for (size_t t = 0; t < last && !seen; t++)
+                        seen = plumbp_item_has_warning(&rj->items[t], text);
+                }
+                if (seen)
+                    continue;
+                size_t rows = 0;
+                for (size_t j = 0; j < nr; j++) {
+                    const plumb_fall_report *rj = &plumb_sweep_row_at(sw, j)->report;
+                    int in = 0;
+                    for (size_t t = 0; t < rj->n_items && !in; t++)
+                        in = plumbp_item_has_warning(&rj->items[t], text);
+                    rows += (size_t)in;
+                }
+                fn(w, text, rows, nr);
+            }
+        }
+    }
+}
+
+static void text_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
+{
+    char line[PLUMB_WARNING + 64];
+    snprintf(line, sizeof line, "%s (%zu of %zu rows)", text, rows, of);
+    wrapped(w, "  - ", line);
+}
+
+static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
+{
+    char line[PLUMB_WARNING + 64];
+    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
+    csv_comment(w, line);
+}
+
+static int sweep_has_warnings(const plumb_sweep *sw)
+{
+    for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
+        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, i)->report;
+        for (size_t it = 0; it < rep->n_items; it++)
+            if (rep->items[it].n_warnings)
+                return 1;
+    }
+    return 0;
+}
+
+/* The first row with figures (plumb_sweep_run fails when there is none). */
+static const plumb_sweep_row *first_computed_row(const plumb_sweep *sw)
+{
+    for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status == PLUMB_OK && row->report.n_items > 0)
+            return row;
+    }
+    return NULL;
+}
+
+/* "release.height = 0 m, wind.speed = 5 kn": the values of a row, in b. */
+enum { ROW_VALUES = PLUMB_MAX_AXES * (PLUMB_DIAG_KEY + PLUMB_UNIT_TEXT + NUMBUF) };
+static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *row, char *b,
+                       size_t size)
+{
+    b[0] = '\0';
+    for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        size_t len = strlen(b);
+        snprintf(b + len, size - len, "%s%s = %s%s%s", a ? ", " : "", ax->key,
+                 plumbp_gnum(w, row->value[a], 10), ax->unit[0] ? " " : "",
+                 unit_shown(w, ax->unit));
+    }
+}
+
+/* The diagnostic of a row that has no figures, as one line. */
+static void row_error_text(const plumb_sweep_row *row, char *buf, size_t size)
+{
+    plumb_diag_format(&row->error, buf, size);
+}
+
+static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
+{
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    const plumb_sweep_row *r0 = first_computed_row(sw);
+    const plumb_profile *p = r0->report.profile;
+    int inv = plumb_profile_is_inventory(p);
+    const plumb_item_report *first = &r0->report.items[0];
+    plumbp_text_header(w, opt, "sweep", plumb_profile_name(p));
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        double last = plumb_range_value(ax, ax->n - 1);
+        const char *u = unit_shown(w, ax->unit);
+        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s\n",
+            a ? "and" : "over", ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
+            u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
+            last != ax->to ? "; the steps stop short of " : "",
+            last != ax->to ? plumbp_gnum(w, ax->to, 10) : "");
+    }
+    put(w, "\n");
+    /* Column widths: the widest header, unit or cell of each, so that no
+     * two figures ever touch and a one-criterion table stays narrow. */
+    size_t nv = first->n_verdicts;
+    size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
+    const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
+    const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
+    const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
+    const char *const *units = w->us ? units_us : units_si;
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        wkey[a] = shown_width(ax->key);
+        if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
+            wkey[a] = shown_width(unit_shown(w, ax->unit));
+    }
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        wnum[k] = shown_width(heads[k]) > shown_width(units[k]) ? shown_width(heads[k])
+                                                                : shown_width(units[k]);
+    for (size_t k = 0; k < nv; k++)
+        wcrit[k] = shown_width("ratio verdict");
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        for (size_t a = 0; a < na; a++)
+            if (shown_width(plumbp_gnum(w, row->value[a], 8)) > wkey[a])
+                wkey[a] = shown_width(plumbp_gnum(w, row->value[a], 8));
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            const plumb_item_report *item = &row->report.items[it];
+            for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+                if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
+                    wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
+            for (size_t k = 0; k < nv && k < item->n_verdicts; k++)
+                if (shown_width(ratio_cell(w, &item->verdicts[k])) > wcrit[k])
+                    wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
+        }
+    }
+    for (size_t a = 0; a < na; a++)
+        pad(w, plumb_sweep_axis(sw, a)->key, wkey[a] + (a ? SWEEP_GAP : 1), 1);
+    if (inv)
+        put(w, "  %-18s", "item");
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; k < nv; k++) {
+        char c[32];
+        snprintf(c, sizeof c, "C%zu", k + 1);
+        pad(w, c, wcrit[k] + SWEEP_GAP, 1);
+    }
+    put(w, "\n");
+    for (size_t a = 0; a < na; a++)
+        pad(w, unit_shown(w, plumb_sweep_axis(sw, a)->unit), wkey[a] + (a ? SWEEP_GAP : 1), 1);
+    if (inv)
+        put(w, "  %-18s", "");
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; k < nv; k++)
+        pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+    put(w, "\n");
+    size_t n_failed = 0;
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
+            for (size_t a = 0; a < na; a++)
+                pad(w, plumbp_gnum(w, row->value[a], 8), wkey[a] + (a ? SWEEP_GAP : 1), 1);
+            put(w, "  not computed, see (%zu) below\n", ++n_failed);
+            continue;
+        }
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            const plumb_item_report *item = &row->report.items[it];
+            for (size_t a = 0; a < na; a++)
+                pad(w, it == 0 ? plumbp_gnum(w, row->value[a], 8) : "",
+                    wkey[a] + (a ? SWEEP_GAP : 1), 1);
+            if (inv) {
+                char name[PLUMB_NAME + 4];
+                if (shown_width(item->spec->name) > 18)
+                    snprintf(name, sizeof name, "%.17s~", item->spec->name);
+                else
+                    snprintf(name, sizeof name, "%s", item->spec->name);
+                put(w, "  %-18s", name);
+            }
+            for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+                pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
+            for (size_t k = 0; k < item->n_verdicts; k++)
+                pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+            put(w, "\n");
+        }
+    }
+    if (na == 2) {
+        /* the energy of the worst item, as a matrix */
+        const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
+        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded%s\n",
+            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key,
+            n_failed ? ", - = not computed" : "");
+        pad(w, "", SWEEP_KEY_COL, 1);
+        for (size_t j = 0; j < a1->n; j++)
+            pad(w, plumbp_gnum(w, plumb_range_value(a1, j), 6), 9, 1);
+        put(w, "\n");
+        for (size_t i = 0; i < a0->n; i++) {
+            pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), SWEEP_KEY_COL, 1);
+            for (size_t j = 0; j < a1->n; j++) {
+                const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * a1->n + j);
+                if (row->status != PLUMB_OK) {
+                    pad(w, "-", 9, 1);
+                    continue;
+                }
+                double e = 0.0;
+                int ex = 0;
+                for (size_t it = 0; it < row->report.n_items; it++) {
+                    const plumb_item_report *item = &row->report.items[it];
+                    if (item->result.energy_j > e)
+                        e = item->result.energy_j;
+                    for (size_t k = 0; k < item->n_verdicts; k++)
+                        ex |= item->verdicts[k].exceeds;
+                }
+                char cell[NUMBUF + 2];
+                snprintf(cell, sizeof cell, "%s%s", num(w, w->us ? e / PLUMB_FT_LBF_J : e, 4),
+                         ex ? "!" : "");
+                pad(w, cell, 9, 1);
+            }
+            put(w, "\n");
+        }
+    }
+    if (n_failed) {
+        put(w, "\nRows not computed (%zu of %zu)\n", n_failed, nr);
+        size_t k = 0;
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            if (row->status == PLUMB_OK)
+                continue;
+            char lead[32], why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            char vals[ROW_VALUES], text[sizeof why + sizeof vals + 8];
+            snprintf(lead, sizeof lead, "  (%zu) ", ++k);
+            row_error_text(row, why, sizeof why);
+            row_values(w, sw, row, vals, sizeof vals);
+            snprintf(text, sizeof text, "%s: %s", vals, why);
+            wrapped(w, lead, text);
+        }
+    }
+    text_criteria_legend(w, first);
+    if (sweep_has_warnings(sw)) {
+        put(w, "\nWarnings\n");
+        each_sweep_warning(w, sw, text_sweep_warning);
+    }
+    put(w, "\nEach row is exactly what `plumb fall` gives with --set at that value.\n");
+    plumbp_text_profile(w, p);
+    plumbp_caution_lines_text(w);
+}
+
+static void csv_sweep(writer *w, const plumb_sweep *sw)
+{
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    const plumb_sweep_row *r0 = first_computed_row(sw);
+    const plumb_profile *p = r0->report.profile;
+    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    plumbp_csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(p),
+             plumb_profile_path(p), plumb_profile_sha256(p));
+    csv_comment(w, text);
+    const plumb_item_report *first = &r0->report.items[0];
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        snprintf(text, sizeof text, "criterion %s: %s, limit %.*g J, source: %s, status %s", c->id,
+                 c->name, CSV_DIGITS, c->energy_limit_j, c->source[0] ? c->source : "not given",
+                 c->status[0] ? c->status : "not given");
+        csv_comment(w, text);
+    }
+    each_sweep_warning(w, sw, csv_sweep_warning);
+    if (plumb_sweep_failed_count(sw) > 0) {
+        snprintf(text, sizeof text, "%zu of %zu rows could not be computed: their figures are "
+                 "empty and the last column says why", plumb_sweep_failed_count(sw), nr);
+        csv_comment(w, text);
+    }
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "",
+                 unit_shown(w, ax->unit));
+        csv_field(w, text);
+        put(w, ",");
+    }
+    size_t n_cols = plumbp_csv_header_cols(w, first);
+    put(w, ",error\n");
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, row->value[a]));
+            for (size_t c = 0; c < n_cols; c++)
+                put(w, ",");
+            row_error_text(row, why, sizeof why);
+            csv_field(w, why);
+            put(w, "\n");
+            continue;
+        }
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, row->value[a]));
+            plumbp_csv_item_cols(w, &row->report.items[it]);
+            put(w, ",\n");
+        }
+    }
+}
+
+static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_sweep *sw,
+                       item_air *const *ia)
+{
+    json_t *root = jobj(j);
+    if (opt->version)
+        jset(j, root, "plumb_version", jstr(j, opt->version));
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    json_t *vary = jarr(j);
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        json_t *o = jobj(j);
+        jset(j, o, "key", jstr(j, ax->key));
+        jset(j, o, "unit", jstr(j, ax->unit));
+        jset(j, o, "from", jreal(j, ax->from));
+        jset(j, o, "to", jreal(j, ax->to));
+        jset(j, o, "step", jreal(j, ax->step));
+        jset(j, o, "count", json_integer((json_int_t)ax->n));
+        jpush(j, vary, o);
+    }
+    jset(j, root, "vary", vary);
+    jset(j, root, "failed_rows", jint(j, plumb_sweep_failed_count(sw)));
+    json_t *rows = jarr(j);
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        const plumb_fall_report *rep = &row->report;
+        json_t *o = jobj(j);
+        json_t *vals = jobj(j), *vals_si = jobj(j);
+        for (size_t a = 0; a < na; a++) {
+            jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, row->value[a]));
+            jset(j, vals_si, plumb_sweep_axis(sw, a)->key, jreal(j, row->value_si[a]));
+        }
+        jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */
+        jset(j, o, "values_si", vals_si);
+        if (row->status != PLUMB_OK) {
+            /* no figures: why, as the command line would print it */
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            row_error_text(row, why, sizeof why);
+            json_t *e = jobj(j);
+            jset(j, e, "message", jstr(j, why));
+            jset(j, e, "kind", jstr(j, plumb_strerror(row->status)));
+            jset(j, e, "computation_failed",
+                 json_boolean(!plumb_status_is_input_error(row->status)));
+            jset(j, o, "error", e);
+            jpush(j, rows, o);
+            continue;
+        }
+        if (!plumb_profile_is_inventory(rep->profile)) {
+            plumbp_j_item_into(j, o, &rep->items[0], rep->profile, &ia[i][0]);
+        } else {
+            json_t *items = jarr(j);
+            for (size_t it = 0; it < rep->n_items; it++) {
+                json_t *io = jobj(j);
+                plumbp_j_item_into(j, io, &rep->items[it], rep->profile, &ia[i][it]);
+                jpush(j, items, io);
+            }
+            jset(j, o, "items", items);
+            jset(j, o, "worst", jstr(j, rep->items[plumbp_worst_item(rep)].spec->name));
+            jset(j, o, "largest_drift",
+                 jstr(j, rep->items[plumbp_largest_drift_item(rep)].spec->name));
+        }
+        jpush(j, rows, o);
+    }
+    jset(j, root, "rows", rows);
+    jset(j, root, "profile", plumbp_j_profile(j, first_computed_row(sw)->report.profile));
+    jset(j, root, "cautions", j_cautions(j));
+    return root;
+}
+
+plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
+                                const plumb_sweep *sw, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = plumbp_opts_or_default(opt, &def);
+    if (!out || !sw || plumb_sweep_row_count(sw) == 0 || !first_computed_row(sw))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no sweep to write");
+    size_t nr = plumb_sweep_row_count(sw);
+    item_air **ia = calloc(nr, sizeof *ia);
+    if (!ia)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
+    plumb_status st = PLUMB_OK;
+    for (size_t i = 0; st == PLUMB_OK && i < nr; i++)
+        if (plumb_sweep_row_at(sw, i)->status == PLUMB_OK)
+            st = plumbp_prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
+    if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        st = emit_json(out, &j, j_sweep(&j, opt, sw, ia), diag);
+    } else if (st == PLUMB_OK) {
+        writer w;
+        char *buf;
+        size_t len;
+        st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+        if (st == PLUMB_OK) {
+            if (opt->format == PLUMB_FORMAT_CSV)
+                csv_sweep(&w, sw);
+            else
+                text_sweep(&w, opt, sw);
+            st = plumbp_writer_close(&w, &buf, &len, out, diag);
+        }
+    }
+    for (size_t i = 0; i < nr; i++)
+        free(ia[i]);
+    free(ia);
+    return st;
+}
+

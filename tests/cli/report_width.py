@@ -1,0 +1,130 @@
+#!/usr/bin/python3
+"""What a text report looks like on a terminal (issue 9):
+  - no line of a fall, air, limit or zone text report is wider than 80
+    characters, over the demo profiles in SI and US units (80 columns:
+    the classic terminal width, VT100 / ECMA-48 default line; common
+    practice, no source);
+  - every item name of an inventory appears whole: a long name is wrapped
+    onto continuation lines of its column, never cut to "~";
+  - with --units us the text gives gravity in ft/s^2 (1 ft = 0.3048 m,
+    international foot, 1959 agreement) and energy in ft*lbf before J in
+    the inventory table, as in every other US figure.
+Usage: report_width.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
+"""
+import glob
+import os
+import re
+import shutil
+import subprocess
+import sys
+import tempfile
+
+PLUMB = sys.argv[1]
+ROOT = os.environ.get("PLUMB_SRCDIR", ".")
+DEMO = sorted(glob.glob(os.path.join(ROOT, "profiles", "demo", "*.yaml")))
+WIDTH = 80
+passed = failed = 0
+
+
+def check(ok, what):
+    global passed, failed
+    if ok:
+        passed += 1
+    else:
+        failed += 1
+        print(f"FAIL {what}")
+
+
+def plumb(*args):
+    r = subprocess.run([PLUMB, *args], capture_output=True, text=True,
+                       env=dict(os.environ, LC_ALL="C"))
+    return r.returncode, r.stdout, r.stderr
+
+
+def wide(out):
+    return [l for l in out.splitlines() if len(l) > WIDTH]
+
+
+check(len(DEMO) >= 4, f"demo profiles found: {DEMO}")
+for prof in DEMO:
+    name = os.path.basename(prof)
+    for units in ("si", "us"):
+        runs = [("fall", prof), ("limit", prof, "--find", "release.height",
+                                 "--energy-max", "40J"),
+                ("zone", prof, "--samples", "400", "--threads", "1")]
+        for args in runs:
+            rc, out, err = plumb(*args, "--units", units)
+            check(rc in (0, 3) and (out or rc == 3),
+                  f"{args[0]} {name} --units {units}: exit {rc} {err.strip()}")
+            w = wide(out)
+            check(not w, f"{args[0]} {name} --units {units}: {len(w)} lines over "
+                  f"{WIDTH} columns:\n" + "\n".join(w[:5]))
+for units in ("si", "us"):
+    rc, out, err = plumb("air", "--alt", "0m:3000m:500m", "--units", units)
+    check(rc == 0 and not wide(out), f"air --units {units}: {err.strip()} {wide(out)[:3]}")
+
+# ---- long names: wrapped in their column, never cut --------------------------
+NAMES = ["insulated torque wrench 1/2 in drive with lanyard and tool tether",
+         "box of M12 galvanised hex bolts, washers and nyloc nuts for the mast",
+         "spare radio in a padded pouch"]
+tmp = tempfile.mkdtemp(prefix="plumb-width.", dir=os.environ.get("TMPDIR"))
+try:
+    src = open(os.path.join(ROOT, "profiles", "demo", "tower-kit.yaml")).read()
+    old = re.findall(r"^  - name: (.*)$", src, re.M)
+    check(len(old) >= 3, f"tower-kit.yaml has items: {old}")
+    for o, n in zip(old, NAMES):
+        src = src.replace(f"  - name: {o}\n", f'  - name: "{n}"\n', 1)
+    path = os.path.join(tmp, "long-names.yaml")
+    with open(path, "w") as f:
+        f.write(src)
+    for units in ("si", "us"):
+        rc, out, err = plumb("fall", path, "--units", units)
+        check(rc == 0, f"fall long names --units {units}: {err.strip()}")
+        check(not wide(out), f"long names --units {units}: wide lines {wide(out)[:3]}")
+        check("~" not in out, f"long names --units {units}: a name was cut to ~")
+        # the name column of each table: rows start "%4d " then continuation
+        # lines indented by 5; joined, every name appears whole in each table
+        lines = out.splitlines()
+        starts = [i for i, l in enumerate(lines) if l.startswith("   # item")]
+        check(len(starts) >= 1, f"long names --units {units}: no table")
+        for s in starts:
+            col = lines[s].index("item")
+            width = len(lines[s]) - col
+            nxt = [len(lines[s + 2].rstrip())]
+            names, cur = [], None
+            for l in lines[s + 2:]:
+                if not l.strip():
+                    break
+                m = re.match(r"^ {0,3}(\d+) (.*)$", l)
+                cell = l[col:].split("  ")[0].strip() if len(l) > col else ""
+                if m:
+                    if cur is not None:
+                        names.append(cur)
+                    cur = cell
+                else:
+                    cur = (cur + " " + l.strip()) if cur else l.strip()
+            if cur is not None:
+                names.append(cur)
+            for n in NAMES:
+                check(any(x == n for x in names),
+                      f"long names --units {units}: '{n}' not whole in {names}")
+finally:
+    shutil.rmtree(tmp)
+
+# ---- US units throughout ----------------------------------------------------------
+for prof in DEMO:
+    rc, out, err = plumb("fall", prof, "--units", "us")
+    grav = [l for l in out.splitlines() if "gravity" in l]
+    check(rc == 0 and grav and all("ft/s²" in l and "m/s²" not in l for l in grav),
+          f"fall {os.path.basename(prof)} --units us: gravity line {grav}")
+rc, out, err = plumb("fall", os.path.join(ROOT, "profiles", "demo", "tower-kit.yaml"),
+                     "--units", "us")
+units_row = [l for l in out.splitlines() if "ft/s" in l and "ft·lbf" in l and " J " in l + " "]
+check(rc == 0 and units_row and units_row[0].index("ft·lbf") < units_row[0].index(" J"),
+      f"inventory --units us: ft·lbf before J in the table ({units_row[:1]})")
+worst = " ".join(out.split("Worst item", 1)[-1].split("Largest drift")[0].split())
+check("ft·lbf" in worst and re.search(r"strictest limit, C\d+ of [\d.]+ ft·lbf", worst),
+      f"inventory --units us: the strictest limit in ft·lbf: {worst}")
+
+print(f"cli: {passed} passed, {failed} failed")
+sys.exit(1 if failed else 0)
