@@ -90,7 +90,10 @@ plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *
  * a canonical text of every input (each number to 17 significant digits),
  * so its reports can be traced to what was computed. PLUMB_EINVAL for a
  * table wind or air without its rows; on error *out is NULL. The spec's
- * values are checked when it is run, not here. */
+ * values are checked when it is run, not here. Such a profile has no
+ * profile text, so plumb_profile_derive refuses it (PLUMB_EINVAL): a sweep,
+ * or a limit on a key that is not set directly on the spec, needs a
+ * profile loaded from text. */
 plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_atm_spec *atm,
                                      const char *const *criteria, size_t n_criteria,
                                      plumb_profile **out, plumb_diag *diag);

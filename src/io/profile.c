@@ -1759,6 +1759,10 @@ plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *
         *out = NULL;
     if (!base || !units || !out || (n_sets > 0 && !sets))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_derive: NULL argument");
+    if (!base->tree)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL,
+                           "a profile built in code (plumb_profile_from_spec) has no profile "
+                           "text to derive another from: change its spec and make a new one");
     plumby_node *tree = plumby_copy(base->tree);
     if (!tree)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory copying the profile");

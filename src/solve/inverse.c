@@ -450,6 +450,8 @@ static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const ch
     double f0 = eval_at(base, &c);
     if (c.fail != PLUMB_OK)
         return c.fail;
+    if (isnan(f0) && diag && plumb_status_is_input_error(diag->status))
+        return diag->status; /* the profile cannot be re-made at its own value (built in code) */
     if (isnan(f0))
         return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key, "the profile's own value cannot be computed");
     res->metric_at_base = f0 + limit;

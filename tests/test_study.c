@@ -1,0 +1,244 @@
+/*
+ * test_study.c - the study API (include/plumb/study.h): one engine under
+ * every command, checked against closed forms and against itself.
+ *
+ * Sources:
+ *  - Drag-free fall: v = sqrt(v0^2 + 2 g H), E = 1/2 m v0^2 + m g H, and
+ *    the height for an energy H = E / (m g) - v0^2 / (2 g) (work-energy
+ *    theorem; g = g0 = 9.80665 m/s^2, CGPM 1901, with no latitude).
+ *  - Quadratic drag in constant air: v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)),
+ *    v_t = sqrt(2 m g / (rho CdA)) (any mechanics text, e.g. Marion &
+ *    Thornton, Classical Dynamics, sec. 2.4).
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <setjmp.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <cmocka.h>
+
+#include "plumb/plumb.h"
+#include "plumb_test.h"
+
+typedef struct fixture {
+    plumb_units *units;
+    plumb_criteria *criteria;
+} fixture;
+
+static int setup(void **state)
+{
+    plumbt_setup_gsl(state);
+    fixture *f = calloc(1, sizeof *f);
+    plumb_diag d;
+    char dir[1024];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    if (!f || plumb_units_alloc(&f->units, &d) != PLUMB_OK ||
+        plumb_criteria_load_dir(dir, f->units, &f->criteria, &d) != PLUMB_OK)
+        return -1;
+    *state = f;
+    return 0;
+}
+
+static int teardown(void **state)
+{
+    fixture *f = *state;
+    plumb_criteria_free(f->criteria);
+    plumb_units_free(f->units);
+    free(f);
+    return 0;
+}
+
+static void drag_free_spec(plumb_fall_spec *s, double m_kg, double h_m, double v0_east)
+{
+    memset(s, 0, sizeof *s);
+    snprintf(s->name, sizeof s->name, "test weight");
+    s->mass_kg = m_kg;
+    s->drag.model = PLUMB_DRAG_FIXED; /* cd 0: drag-free */
+    s->release_m[2] = h_m;
+    s->velocity_m_s[0] = v0_east;
+    plumb_wind_spec_init(&s->wind);
+}
+
+/* A spec built in code runs, is judged and reports: closed-form drag-free
+ * figures, the verdict against a named criterion, and a JSON report that
+ * names it as built in code with a SHA-256 of its inputs. */
+static void test_a_spec_built_in_code_is_run_judged_and_reported(void **state)
+{
+    fixture *f = *state;
+    plumb_fall_spec s;
+    drag_free_spec(&s, 2.385, 31.6, 7.3);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    const char *ids[] = {"us-part107-cat3"};
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, ids, 1, f->criteria, f->units, &st, &d),
+                     PLUMB_OK);
+    const plumb_fall_report *rep = NULL;
+    assert_int_equal(plumb_study_fall(st, &rep, &d), PLUMB_OK);
+    assert_int_equal(rep->n_items, 1);
+    const double g = PLUMB_G0_M_S2;
+    assert_rel(rep->items[0].result.speed_m_s, sqrt(7.3 * 7.3 + 2.0 * g * 31.6), 1e-12);
+    assert_rel(rep->items[0].result.energy_j, 0.5 * 2.385 * 7.3 * 7.3 + 2.385 * g * 31.6, 1e-12);
+    assert_int_equal(rep->items[0].n_verdicts, 1);
+    assert_string_equal(rep->items[0].verdicts[0].criterion->id, "us-part107-cat3");
+    /* 14 CFR 107.130(a)(1): 25 ft-lbf = 33.8954 J; the weight brings ~802 J */
+    assert_true(rep->items[0].verdicts[0].exceeds);
+
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mem = open_memstream(&buf, &len);
+    assert_non_null(mem);
+    plumb_report_options ro = {PLUMB_FORMAT_JSON, PLUMB_UNITS_SI, NULL};
+    assert_int_equal(plumb_report_fall(mem, &ro, rep, &d), PLUMB_OK);
+    fclose(mem);
+    assert_non_null(strstr(buf, PLUMB_PROFILE_FROM_CODE));
+    assert_non_null(strstr(buf, "test weight"));
+    const char *sha = plumb_profile_sha256(plumb_study_profile(st));
+    assert_int_equal(strlen(sha), 64);
+    assert_non_null(strstr(buf, sha));
+    assert_non_null(strstr(buf, "cautions"));
+    free(buf);
+    plumb_study_free(st);
+}
+
+/* The SHA-256 of a code-built profile follows its inputs: the same spec
+ * gives the same hash, a mass differing in the last digit another. */
+static void test_a_code_built_profile_is_traced_by_the_hash_of_its_inputs(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    drag_free_spec(&s, 0.731, 43.7, 0.0);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    plumb_profile *a = NULL, *b = NULL, *c = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_profile_from_spec(&s, &atm, NULL, 0, &a, &d), PLUMB_OK);
+    assert_int_equal(plumb_profile_from_spec(&s, &atm, NULL, 0, &b, &d), PLUMB_OK);
+    s.mass_kg = nextafter(s.mass_kg, 1.0);
+    assert_int_equal(plumb_profile_from_spec(&s, &atm, NULL, 0, &c, &d), PLUMB_OK);
+    assert_string_equal(plumb_profile_sha256(a), plumb_profile_sha256(b));
+    assert_string_not_equal(plumb_profile_sha256(a), plumb_profile_sha256(c));
+    assert_string_equal(plumb_profile_path(a), PLUMB_PROFILE_FROM_CODE);
+    plumb_profile_free(a);
+    plumb_profile_free(b);
+    plumb_profile_free(c);
+    /* a table wind without its rows is refused, nothing made */
+    s.wind.profile = PLUMB_WIND_TABLE;
+    assert_int_equal(plumb_profile_from_spec(&s, &atm, NULL, 0, &a, &d), PLUMB_EINVAL);
+    assert_null(a);
+}
+
+/* An unknown criterion id is refused when the study is opened, with the
+ * nearest id suggested. */
+static void test_a_study_refuses_an_unknown_criterion_when_opened(void **state)
+{
+    fixture *f = *state;
+    plumb_fall_spec s;
+    drag_free_spec(&s, 1.0, 10.0, 0.0);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    const char *ids[] = {"us-part107-cat4"};
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, ids, 1, f->criteria, f->units, &st, &d),
+                     PLUMB_EKEY);
+    assert_null(st);
+    assert_string_equal(d.key, "criteria[0]");
+    assert_non_null(strstr(d.message, "us-part107-cat"));
+}
+
+/* The limit through the study: the drag-free mass for 913.7 J of a weight
+ * thrown level at 7.3 m/s from 31.6 m, m = E / (v0^2/2 + g H) (work-energy
+ * theorem); and the limit given as text, a quantity or a criterion's id.
+ * A key that needs the profile's text (release.height is checked against
+ * other keys by the loader) is refused for a code-built profile. */
+static void test_the_study_limit_meets_the_work_energy_theorem(void **state)
+{
+    fixture *f = *state;
+    plumb_fall_spec s;
+    drag_free_spec(&s, 2.385, 31.6, 7.3);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, NULL, 0, f->criteria, f->units, &st, &d),
+                     PLUMB_OK);
+    double limit;
+    const plumb_criterion *c;
+    assert_int_equal(plumb_study_limit_value(st, PLUMB_METRIC_ENERGY, "913.7 J", "--energy-max",
+                                             &limit, &c, &d), PLUMB_OK);
+    assert_null(c);
+    assert_rel(limit, 913.7, 1e-15);
+    const plumb_limit_report *lr = NULL;
+    assert_int_equal(plumb_study_limit(st, "payload.mass", PLUMB_METRIC_ENERGY, limit, NULL,
+                                       NULL, &lr, &d), PLUMB_OK);
+    const double g = PLUMB_G0_M_S2;
+    assert_int_equal(lr->results[0].outcome, PLUMB_LIMIT_FOUND);
+    assert_rel(lr->results[0].value_si, 913.7 / (0.5 * 7.3 * 7.3 + g * 31.6), 1e-9);
+    assert_int_equal(plumb_study_limit(st, "release.height", PLUMB_METRIC_ENERGY, limit, NULL,
+                                       NULL, &lr, &d), PLUMB_EINVAL);
+    assert_non_null(strstr(d.message, "built in code"));
+    /* a criterion's id: 14 CFR 107.130(a)(1), 25 ft-lbf */
+    assert_int_equal(plumb_study_limit_value(st, PLUMB_METRIC_ENERGY, "us-part107-cat3",
+                                             "--energy-max", &limit, &c, &d), PLUMB_OK);
+    assert_non_null(c);
+    assert_rel(limit, 25.0 * PLUMB_FT_LBF_J, 1e-12);
+    /* not a quantity of the metric's dimension, nor an id: located at the option */
+    assert_int_not_equal(plumb_study_limit_value(st, PLUMB_METRIC_SPEED, "8 m", "--speed-max",
+                                                 &limit, &c, &d), PLUMB_OK);
+    assert_string_equal(d.file, "<command line>");
+    assert_string_equal(d.key, "--speed-max");
+    assert_int_equal(plumb_study_limit_value(st, PLUMB_METRIC_DRIFT, "-3 m", "--drift-max",
+                                             &limit, &c, &d), PLUMB_ERANGE);
+    /* an unknown key */
+    assert_int_equal(plumb_study_limit(st, "release.hieght", PLUMB_METRIC_ENERGY, 10.0, NULL,
+                                       NULL, &lr, &d), PLUMB_EKEY);
+    plumb_study_free(st);
+}
+
+/* The same study answers a fall in constant air as the closed form says,
+ * twice in a row (results are the study's, recomputed each call). */
+static void test_a_study_of_a_profile_gives_the_closed_form_in_constant_air(void **state)
+{
+    fixture *f = *state;
+    plumb_fall_spec s;
+    drag_free_spec(&s, 0.0241, 317.0, 0.0);
+    s.drag.cd_area_m2 = 0.01;
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    const double alt[2] = {-100.0, 5000.0}, rho[2] = {1.2, 1.2};
+    atm.model = PLUMB_ATM_TABLE;
+    atm.table_n = 2;
+    atm.table_alt_m = alt;
+    atm.table_rho_kg_m3 = rho;
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, NULL, 0, f->criteria, f->units, &st, &d),
+                     PLUMB_OK);
+    const double g = PLUMB_G0_M_S2, vt = sqrt(2.0 * 0.0241 * g / (1.2 * 0.01));
+    for (int k = 0; k < 2; k++) {
+        const plumb_fall_report *rep = NULL;
+        assert_int_equal(plumb_study_fall(st, &rep, &d), PLUMB_OK);
+        assert_rel(rep->items[0].result.speed_m_s, vt * sqrt(-expm1(-2.0 * g * 317.0 / (vt * vt))),
+                   1e-9);
+        /* every criterion of the set is judged when none is named */
+        assert_int_equal(rep->items[0].n_verdicts, plumb_criteria_count(f->criteria));
+    }
+    plumb_study_free(st);
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_a_spec_built_in_code_is_run_judged_and_reported),
+        cmocka_unit_test(test_a_code_built_profile_is_traced_by_the_hash_of_its_inputs),
+        cmocka_unit_test(test_a_study_refuses_an_unknown_criterion_when_opened),
+        cmocka_unit_test(test_the_study_limit_meets_the_work_energy_theorem),
+        cmocka_unit_test(test_a_study_of_a_profile_gives_the_closed_form_in_constant_air),
+    };
+    return cmocka_run_group_tests(tests, setup, teardown);
+}
