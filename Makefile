@@ -186,10 +186,14 @@ coverage: deps-test
 	  echo "coverage: some tests failed (see $(COV_BUILD)/tests.log); counting anyway"
 	@sh scripts/coverage.sh $(COV_BUILD)
 
+# -s keeps an up-to-date build quiet ("Nothing to be done"); V=1 shows all.
 demo: deps
-	@$(MAKE) --no-print-directory -j$(JOBS) all
+	@$(MAKE) --no-print-directory $(if $(filter 1,$(V)),,-s) -j$(JOBS) all
 	@for p in profiles/demo/*.yaml; do \
 	  echo; echo "==> plumb fall $$p"; $(BIN) fall "$$p" || exit $$?; done
+	@printf '\n==> next: %s\n    %s\n' \
+	  "$(BIN) --help, and README.md for what each figure means" \
+	  "a clearance zone: $(BIN) zone profiles/demo/drone-release.yaml"
 
 bench: deps
 	@$(MAKE) --no-print-directory -j$(JOBS) all $(BENCH_BIN)

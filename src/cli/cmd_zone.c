@@ -12,6 +12,12 @@
  * and renamed into place at the same moment.
  * Progress goes to standard error only when it is a terminal, the run has
  * taken more than PROGRESS_AFTER_S, and --quiet is not given.
+ * Once the run has taken ESTIMATE_AFTER_S, the time the whole run will take
+ * is estimated from the samples done so far; when it is over NOTE_OVER_S a
+ * note says so on standard error (terminal or not: a log shows it too), and
+ * over WARN_OVER_S it is a warning that names a --samples that would fit.
+ * The run goes on either way; --quiet silences both. For the tests only,
+ * PLUMB_TEST_ZONE_TIMES="AFTER,NOTE,WARN" (seconds) replaces the three.
  */
 #include <errno.h>
 #include <stdarg.h>
@@ -28,6 +34,14 @@
 /* Progress appears after this long, and is redrawn at most this often, s. */
 #define PROGRESS_AFTER_S 1.0
 #define PROGRESS_EVERY_S 0.25
+/* The estimate is made after this long; a note above NOTE_OVER_S, a warning
+ * above WARN_OVER_S (what a person waits for without planning it), s. */
+#define ESTIMATE_AFTER_S 0.5
+#define NOTE_OVER_S 10.0
+#define WARN_OVER_S 600.0
+#define SECONDS_PER_MINUTE 60.0
+#define SECONDS_PER_HOUR 3600.0
+#define SECONDS_PER_DAY 86400.0
 /* Most threads --threads accepts. */
 #define MAX_THREADS 1024u
 /* Largest seed: integers up to 2^53 - 1 read back exactly from JSON
@@ -50,6 +64,8 @@ static const char usage[] =
     "drag-free throw. The figures are the same for any number of threads.\n"
     "An inventory profile (items:) runs every item with the same samples and seed.\n"
     "PROFILE '-' is read from standard input.\n"
+    "A run that will take over 10 s says so on standard error after half a second,\n"
+    "over 10 minutes as a warning; on a terminal it shows its progress.\n"
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";
 
@@ -153,14 +169,80 @@ static plumb_status parse_target(const plumb_units *units, const char *text, dou
 
 typedef struct progress_ctx {
     struct timespec start, last;
+    int tty;                  /* standard error is a terminal: show progress */
     int shown;                /* something is on the line */
     size_t item, n_items;
     int passes;               /* 1, or 2 with a target */
+    const char *samples_from; /* "--samples" or "zone.samples" */
+    size_t min_samples;       /* fewest samples the confidence allows */
+    double after_s, note_s, warn_s; /* ESTIMATE_AFTER_S, NOTE_OVER_S, WARN_OVER_S */
+    int estimated;            /* the estimate is made */
+    double total_s;           /* the estimated length of the whole run, s */
 } progress_ctx;
 
 static double since(const struct timespec *a, const struct timespec *b)
 {
     return (double)(b->tv_sec - a->tv_sec) + 1e-9 * (double)(b->tv_nsec - a->tv_nsec);
+}
+
+/* "42 s", "7 min", "3.5 h", "2.1 days". */
+static void duration(double s, char *buf, size_t size)
+{
+    if (s < 1.5 * SECONDS_PER_MINUTE)
+        snprintf(buf, size, "%.0f s", s);
+    else if (s < 1.5 * SECONDS_PER_HOUR)
+        snprintf(buf, size, "%.0f min", s / SECONDS_PER_MINUTE);
+    else if (s < 2.0 * SECONDS_PER_DAY)
+        snprintf(buf, size, "%.1f h", s / SECONDS_PER_HOUR);
+    else
+        snprintf(buf, size, "%.1f days", s / SECONDS_PER_DAY);
+}
+
+static void progress_clear(progress_ctx *p);
+
+/* The samples done so far and in all, over every item and pass. */
+static void work(const progress_ctx *p, int pass, size_t done, size_t total, double *so_far,
+                 double *all)
+{
+    double per_run = (double)total; /* samples of one pass of one item */
+    *all = per_run * (double)p->n_items * (double)p->passes;
+    *so_far = per_run * ((double)p->item * (double)p->passes + (double)pass) + (double)done;
+}
+
+/* The estimate of the whole run from the samples done so far (of every
+ * item and pass), said once when the run will be long. */
+static void estimate(progress_ctx *p, int pass, size_t done, size_t total, double elapsed)
+{
+    double per_run = (double)total, so_far, all;
+    work(p, pass, done, total, &so_far, &all);
+    if (so_far <= 0.0 || so_far >= all)
+        return;
+    p->estimated = 1;
+    p->total_s = elapsed * all / so_far;
+    if (p->total_s <= p->note_s)
+        return;
+    char len[32];
+    duration(p->total_s, len, sizeof len);
+    progress_clear(p);
+    if (p->total_s <= p->warn_s) {
+        fprintf(stderr, "plumb zone: this run will take about %s (timed on the first %.0f of "
+                        "%.0f samples)\n", len, so_far, all);
+    } else {
+        /* the samples per run that would take about WARN_OVER_S, one digit */
+        double fit = per_run * p->warn_s / p->total_s;
+        double mag = 1.0;
+        while (mag * 10.0 <= fit)
+            mag *= 10.0;
+        fit = mag * (double)(long)(fit / mag);
+        char lim[32];
+        duration(p->warn_s, lim, sizeof lim);
+        fprintf(stderr, "plumb zone: warning: this run will take about %s (timed on the first "
+                        "%.0f of %.0f samples); it goes on, Ctrl-C stops it", len, so_far, all);
+        if (fit >= (double)p->min_samples && fit >= 1.0)
+            fprintf(stderr, "; %s %.0f would take about %s", p->samples_from, fit, lim);
+        fputs("\n", stderr);
+    }
+    fflush(stderr);
 }
 
 static void progress(void *user, int pass, size_t done, size_t total)
@@ -169,7 +251,10 @@ static void progress(void *user, int pass, size_t done, size_t total)
     struct timespec now;
     if (clock_gettime(CLOCK_MONOTONIC, &now) != 0)
         return;
-    if (since(&p->start, &now) < PROGRESS_AFTER_S ||
+    double elapsed = since(&p->start, &now);
+    if (!p->estimated && elapsed >= p->after_s)
+        estimate(p, pass, done, total, elapsed);
+    if (!p->tty || elapsed < PROGRESS_AFTER_S ||
         (p->shown && since(&p->last, &now) < PROGRESS_EVERY_S && done < total))
         return;
     p->last = now;
@@ -180,9 +265,42 @@ static void progress(void *user, int pass, size_t done, size_t total)
     if (p->passes > 1)
         snprintf(where + strlen(where), sizeof where - strlen(where), "%s, ",
                  pass == 0 ? "planned release" : "released for the target");
-    fprintf(stderr, "\rplumb zone: %s%3.0f %% (%zu of %zu samples)  ", where,
-            PERCENT * (double)done / (double)total, done, total);
+    char left[48] = "";
+    double so_far, all;
+    work(p, pass, done, total, &so_far, &all);
+    if (p->estimated && so_far > 0.0 && so_far < all) {
+        char len[32];
+        duration(elapsed * (all - so_far) / so_far, len, sizeof len);
+        snprintf(left, sizeof left, ", about %s left", len);
+    }
+    fprintf(stderr, "\rplumb zone: %s%3.0f %% (%zu of %zu samples%s)  ", where,
+            PERCENT * (double)done / (double)total, done, total, left);
     fflush(stderr);
+}
+
+/* ESTIMATE_AFTER_S, NOTE_OVER_S and WARN_OVER_S, or for the tests the
+ * three of PLUMB_TEST_ZONE_TIMES="AFTER,NOTE,WARN" when it reads whole. */
+static void test_times(progress_ctx *p)
+{
+    p->after_s = ESTIMATE_AFTER_S;
+    p->note_s = NOTE_OVER_S;
+    p->warn_s = WARN_OVER_S;
+    const char *env = getenv("PLUMB_TEST_ZONE_TIMES");
+    if (!env || !*env)
+        return;
+    double v[3];
+    char *end = NULL;
+    const char *s = env;
+    for (int k = 0; k < 3; k++) {
+        errno = 0;
+        v[k] = strtod(s, &end);
+        if (end == s || errno != 0 || !(v[k] >= 0.0) || *end != (k < 2 ? ',' : '\0'))
+            return;
+        s = end + 1;
+    }
+    p->after_s = v[0];
+    p->note_s = v[1];
+    p->warn_s = v[2];
 }
 
 static void progress_clear(progress_ctx *p)
@@ -444,7 +562,11 @@ static int run(const cli_args *a, const zone_opts *zo)
     memset(&pc, 0, sizeof pc);
     pc.n_items = n;
     pc.passes = zone.has_target ? 2 : 1;
-    if (!a->quiet && isatty(STDERR_FILENO) && clock_gettime(CLOCK_MONOTONIC, &pc.start) == 0) {
+    pc.tty = isatty(STDERR_FILENO);
+    pc.samples_from = zo->samples ? "--samples" : "zone.samples";
+    pc.min_samples = st == PLUMB_OK ? plumb_zone_min_samples(zone.confidence, zopt.ci_level) : 0;
+    test_times(&pc);
+    if (!a->quiet && clock_gettime(CLOCK_MONOTONIC, &pc.start) == 0) {
         zopt.progress = progress;
         zopt.progress_user = &pc;
     }
