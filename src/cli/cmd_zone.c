@@ -428,21 +428,17 @@ typedef struct zone_opts {
 } zone_opts;
 
 /* Points a failed run's diagnostic at the profile and the item. */
-static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item, const char *name)
+/* Before each item's run: progress and the sample file name the item. */
+typedef struct item_ctx {
+    progress_ctx *pc;
+    samples_file *sf;
+} item_ctx;
+
+static void on_item(void *user, size_t item, const plumb_fall_spec *spec)
 {
-    if (diag->file[0] == '\0')
-        snprintf(diag->file, sizeof diag->file, "%s", plumb_profile_path(prof));
-    if (plumb_profile_is_inventory(prof)) {
-        /* "item 2 (spanner): " before the message, which is cut to fit */
-        char prefix[PLUMB_NAME + 32];
-        snprintf(prefix, sizeof prefix, "item %zu (%.*s): ", item + 1, PLUMB_NAME - 1, name);
-        size_t pl = strlen(prefix), ml = strlen(diag->message);
-        if (pl + ml >= sizeof diag->message)
-            ml = sizeof diag->message - pl - 1;
-        memmove(diag->message + pl, diag->message, ml);
-        memcpy(diag->message, prefix, pl);
-        diag->message[pl + ml] = '\0';
-    }
+    item_ctx *ic = user;
+    ic->pc->item = item;
+    ic->sf->item = spec->name;
 }
 
 static int run(const cli_args *a, const zone_opts *zo)
@@ -466,20 +462,15 @@ static int run(const cli_args *a, const zone_opts *zo)
     }
 
     plumb_diag diag;
-    plumb_diag_clear(&diag);
-    plumb_units *units = NULL;
-    plumb_profile *prof = NULL;
-    plumb_criteria *crit = NULL;
-    plumb_atmosphere *atm = NULL;
-    plumb_zone_result *results = NULL;
-    plumb_zone_item *items = NULL;
+    cli_study cs;
     samples_file sf;
     memset(&sf, 0, sizeof sf);
-    char dir[CLI_PATH_MAX];
 
-    /* Options first: a bad one stops everything before any work. */
+    /* The study (profile, criteria, air), then the options: a bad one
+     * stops everything before any fall is run. */
     double samples = 0.0, seed = 0.0, threads = 0.0, confidence = 0.0, target[2] = {0.0, 0.0};
-    plumb_status st = plumb_units_alloc(&units, &diag);
+    plumb_status st = cli_study_open(a, path, &cs, &diag);
+    const plumb_profile *prof = cs.profile;
     if (st == PLUMB_OK && zo->samples)
         st = parse_whole("--samples", zo->samples, 1.0, (double)PLUMB_ZONE_MAX_SAMPLES, &samples,
                          &diag);
@@ -490,9 +481,7 @@ static int run(const cli_args *a, const zone_opts *zo)
     if (st == PLUMB_OK && zo->confidence)
         st = parse_confidence(zo->confidence, &confidence, &diag);
     if (st == PLUMB_OK && zo->target)
-        st = parse_target(units, zo->target, target, &diag);
-    if (st == PLUMB_OK)
-        st = cli_profile_load(a, path, units, &prof, &diag);
+        st = parse_target(cs.units, zo->target, target, &diag);
 
     plumb_zone_spec zone;
     memset(&zone, 0, sizeof zone);
@@ -532,32 +521,13 @@ static int run(const cli_args *a, const zone_opts *zo)
                      PERCENT * zopt.ci_level, need);
         }
     }
-    if (st == PLUMB_OK)
-        st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, &crit, &diag);
-    if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(prof), &atm, &diag);
     size_t n = st == PLUMB_OK ? plumb_profile_item_count(prof) : 0;
-    if (st == PLUMB_OK && (!(results = calloc(n ? n : 1, sizeof *results)) ||
-                           !(items = calloc(n ? n : 1, sizeof *items)))) {
-        st = diag.status = PLUMB_ENOMEM;
-        snprintf(diag.message, sizeof diag.message, "out of memory");
-    }
-    /* The uncertainty entries, in file order. */
-    size_t n_u = st == PLUMB_OK ? plumb_profile_uncertainty_count(prof) : 0;
-    plumb_uncertainty *unc = st == PLUMB_OK ? calloc(n_u ? n_u : 1, sizeof *unc) : NULL;
-    if (st == PLUMB_OK && !unc) {
-        st = diag.status = PLUMB_ENOMEM;
-        snprintf(diag.message, sizeof diag.message, "out of memory");
-    }
-    for (size_t i = 0; st == PLUMB_OK && i < n_u; i++)
-        unc[i] = *plumb_profile_uncertainty(prof, i);
 
     if (st == PLUMB_OK && zo->samples_out) {
         sf.path = zo->samples_out;
         st = samples_open(&sf, &diag);
     }
     zopt.threads = zo->threads ? (size_t)threads : plumb_zone_default_threads();
-    zopt.source = prof ? plumb_profile_path(prof) : NULL;
     progress_ctx pc;
     memset(&pc, 0, sizeof pc);
     pc.n_items = n;
@@ -574,27 +544,10 @@ static int run(const cli_args *a, const zone_opts *zo)
         zopt.on_sample = samples_row;
         zopt.sample_user = &sf;
     }
-    for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
-        const plumb_fall_spec *spec = plumb_profile_item(prof, i);
-        /* The criteria exactly as plumb fall judges them (all when none named). */
-        plumb_item_report probe;
-        memset(&probe, 0, sizeof probe);
-        probe.spec = spec;
-        probe.shape = plumb_profile_item_shape(prof, i);
-        st = plumb_item_judge(&probe, prof, crit, atm, &diag);
-        const plumb_criterion *clist[PLUMB_MAX_VERDICTS];
-        for (size_t k = 0; st == PLUMB_OK && k < probe.n_verdicts; k++)
-            clist[k] = probe.verdicts[k].criterion;
-        pc.item = i;
-        sf.item = spec->name;
-        if (st == PLUMB_OK)
-            st = plumb_zone_run(spec, atm, unc, n_u, &zone, clist, probe.n_verdicts, &zopt,
-                                &results[i], &diag);
-        if (st != PLUMB_OK)
-            locate(&diag, prof, i, spec->name);
-        items[i].name = spec->name;
-        items[i].result = &results[i];
-    }
+    item_ctx ic = {&pc, &sf};
+    const plumb_zone_report *rep = NULL;
+    if (st == PLUMB_OK)
+        st = plumb_study_zone(cs.study, &zone, &zopt, on_item, &ic, &rep, &diag);
     progress_clear(&pc);
 
     int rc;
@@ -602,21 +555,12 @@ static int run(const cli_args *a, const zone_opts *zo)
     size_t len = 0;
     if (st == PLUMB_OK) {
         plumb_report_options ropt = cli_report_options(a);
-        plumb_zone_report rep;
-        memset(&rep, 0, sizeof rep);
-        rep.profile_name = plumb_profile_name(prof);
-        rep.profile_path = plumb_profile_path(prof);
-        rep.profile_sha256 = plumb_profile_sha256(prof);
-        rep.inventory = plumb_profile_is_inventory(prof);
-        rep.n_items = n;
-        rep.items = items;
-        rep.threads = zopt.threads;
         FILE *mem = open_memstream(&buf, &len);
         if (!mem) {
             st = diag.status = PLUMB_ENOMEM;
             snprintf(diag.message, sizeof diag.message, "out of memory");
         } else {
-            st = plumb_report_zone(mem, &ropt, &rep, &diag);
+            st = plumb_report_zone(mem, &ropt, rep, &diag);
             if (fclose(mem) != 0 && st == PLUMB_OK) {
                 st = diag.status = PLUMB_ENOMEM;
                 snprintf(diag.message, sizeof diag.message, "out of memory");
@@ -641,13 +585,7 @@ static int run(const cli_args *a, const zone_opts *zo)
         rc = cli_fail(&diag);
     }
     free(buf);
-    free(unc);
-    free(items);
-    free(results);
-    plumb_atmosphere_free(atm);
-    plumb_criteria_free(crit);
-    plumb_profile_free(prof);
-    plumb_units_free(units);
+    cli_study_close(&cs);
     return rc;
 }
 
