@@ -9,32 +9,16 @@ Usage: criteria_status.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import json
 import os
-import subprocess
 import sys
 
-PLUMB = sys.argv[1]
-HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import HERE, check, finish, plumb  # noqa: E402
+
 THROWN = os.path.join(HERE, "profiles", "thrown.yaml")
 INVENTORY = os.path.join(HERE, "profiles", "inventory.yaml")
 CRIT = "criteria=[en397-shock-49j]"
 UNC = "uncertainty={payload.drag.cd: {uniform: [0.7, 0.9]}}"
 TEXT_NOTE = "figure from memory, not confirmed in the source"
-passed = failed = 0
-
-
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
-
-
-def plumb(*args):
-    r = subprocess.run([PLUMB, *args], capture_output=True, text=True,
-                       env=dict(os.environ, LC_ALL="C"))
-    return r.returncode, r.stdout, r.stderr
 
 
 def flat(text):
@@ -77,5 +61,4 @@ for name, args in commands.items():
         got = [f"no status: {e!r}"]
     check(rc == 0 and got and all(s == "memory" for s in got), f"{name} JSON status: {got}")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

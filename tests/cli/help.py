@@ -18,24 +18,13 @@ import re
 import subprocess
 import sys
 
-PLUMB = sys.argv[1]
-ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__))))
-passed = failed = 0
-
-
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+import plumbcli  # noqa: E402
+from plumbcli import ROOT, check, finish  # noqa: E402
 
 
 def plumb(*args):
-    r = subprocess.run([PLUMB, *args], capture_output=True, text=True, stdin=subprocess.DEVNULL,
-                       timeout=60, env=dict(os.environ, LC_ALL="C"))
-    return r.returncode, r.stdout, r.stderr
+    return plumbcli.plumb(*args, stdin=subprocess.DEVNULL, timeout=60)
 
 
 # The commands, from `plumb --help` ("  NAME   one-line help" under "Commands:").
@@ -91,5 +80,4 @@ for cmd, opts in [("sweep", ["--vary"]), ("limit", ["--find", "--energy-max", "-
     for opt in opts:
         check(opt in listed(out), f"{cmd} --help lists {opt}")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

@@ -25,32 +25,22 @@ import subprocess
 import sys
 import tempfile
 
-PLUMB = sys.argv[1]
-HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+import plumbcli  # noqa: E402
+from plumbcli import HERE, check, finish  # noqa: E402
+
 SURFACE = os.path.join(HERE, "profiles", "surface-air.yaml")
 THROWN = os.path.join(HERE, "profiles", "thrown.yaml")
-passed = failed = 0
 # Every refusal here must come before any fall is computed; a run that
 # needs longer than this has not refused the range up front.
 TIMEOUT_S = 20
 
 
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
-
-
 def plumb(*args):
     try:
-        r = subprocess.run([PLUMB, *args], capture_output=True, text=True, timeout=TIMEOUT_S,
-                           env=dict(os.environ, LC_ALL="C"))
+        return plumbcli.plumb(*args, timeout=TIMEOUT_S)
     except subprocess.TimeoutExpired:
         return None, "", f"did not finish in {TIMEOUT_S} s"
-    return r.returncode, r.stdout, r.stderr
 
 
 def refused(args, wants, what):
@@ -145,5 +135,4 @@ for fmt, want in [("text", "temperature offset +10 K"), ("csv", "# model: U.S. S
     rc, so, se = plumb("air", "--alt", "0m:0m:1m", "--temperature-offset", "10K", "--format", fmt)
     check(rc == 0 and want in so, f"air {fmt} states the offset ({so[:300]!r})")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

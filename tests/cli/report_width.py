@@ -15,30 +15,15 @@ import glob
 import os
 import re
 import shutil
-import subprocess
 import sys
 import tempfile
 
-PLUMB = sys.argv[1]
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import check, finish, plumb  # noqa: E402
+
 ROOT = os.environ.get("PLUMB_SRCDIR", ".")
 DEMO = sorted(glob.glob(os.path.join(ROOT, "profiles", "demo", "*.yaml")))
 WIDTH = 80
-passed = failed = 0
-
-
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
-
-
-def plumb(*args):
-    r = subprocess.run([PLUMB, *args], capture_output=True, text=True,
-                       env=dict(os.environ, LC_ALL="C"))
-    return r.returncode, r.stdout, r.stderr
 
 
 def wide(out):
@@ -126,5 +111,4 @@ worst = " ".join(out.split("Worst item", 1)[-1].split("Largest drift")[0].split(
 check("ft·lbf" in worst and re.search(r"strictest limit, C\d+ of [\d.]+ ft·lbf", worst),
       f"inventory --units us: the strictest limit in ft·lbf: {worst}")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

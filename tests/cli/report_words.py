@@ -14,31 +14,15 @@ Usage: report_words.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 import csv
 import io
 import os
-import subprocess
 import sys
 
-PLUMB = sys.argv[1]
-HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import HERE, check, finish, plumb  # noqa: E402
+
 PROF = os.path.join(HERE, "profiles")
 CANOPY = os.path.join(PROF, "canopy.yaml")
 LIGHT = os.path.join(PROF, "light.yaml")
 THROWN = os.path.join(PROF, "thrown.yaml")
-passed = failed = 0
-
-
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
-
-
-def plumb(*args):
-    r = subprocess.run([PLUMB, *args], capture_output=True, text=True,
-                       env=dict(os.environ, LC_ALL="C"))
-    return r.returncode, r.stdout, r.stderr
 
 
 # ---- no "0 m S" ----------------------------------------------------------------
@@ -87,5 +71,4 @@ for args in runs:
         check(rc == 0 and shown and not odd,
               f"{' '.join(args[:1])} {fmt}: square metres spelt {odd} ({err.strip()})")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

@@ -19,29 +19,13 @@ import atexit
 import json
 import os
 import shutil
-import subprocess
 import sys
 import tempfile
 
-PLUMB = sys.argv[1]
-HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import HERE, check, finish, plumb  # noqa: E402
+
 PROF = os.path.join(HERE, "profiles")
-passed = failed = 0
-
-
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
-
-
-def plumb(*args):
-    r = subprocess.run([PLUMB, *args], capture_output=True, text=True,
-                       env=dict(os.environ, LC_ALL="C"))
-    return r.returncode, r.stdout, r.stderr
 
 
 def fall_json(profile, *sets):
@@ -187,5 +171,4 @@ rc, out, err = plumb("lint", typo)
 check(rc == 2 and "criterion-typo.yaml:7:23: criteria[1]" in err,
       f"lint of a criterion typo: exit {rc}, message {err.strip()!r}")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()

@@ -21,31 +21,15 @@ import csv
 import io
 import json
 import os
-import subprocess
 import sys
 import tempfile
 
-PLUMB = sys.argv[1]
-HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import HERE, check, finish, plumb  # noqa: E402
+
 LIGHT = os.path.join(HERE, "profiles", "light.yaml")
 THROWN = os.path.join(HERE, "profiles", "thrown.yaml")
 INVENTORY = os.path.join(HERE, "profiles", "inventory.yaml")
-passed = failed = 0
-
-
-def check(ok, what):
-    global passed, failed
-    if ok:
-        passed += 1
-    else:
-        failed += 1
-        print(f"FAIL {what}")
-
-
-def plumb(*args):
-    r = subprocess.run([PLUMB, *args], capture_output=True, text=True,
-                       env=dict(os.environ, LC_ALL="C"))
-    return r.returncode, r.stdout, r.stderr
 
 
 VOL = "payload.volume=0.030m^3:0.048m^3:0.006m^3"   # 0.030, 0.036 land; 0.042, 0.048 float
@@ -132,5 +116,4 @@ rc, out, err = plumb("sweep", os.path.join(HERE, "profiles", "criterion-typo.yam
 check(rc == 2 and "criterion-typo.yaml:7:23: criteria[1]" in err and "no row" not in err and out == "",
       f"sweep: criterion typo: exit {rc}, {err.strip()!r}")
 
-print(f"cli: {passed} passed, {failed} failed")
-sys.exit(1 if failed else 0)
+finish()
