@@ -50,7 +50,7 @@ typedef struct plumb_limit_options {
     size_t max_evaluations;    /* falls allowed in all, default 200 */
 } plumb_limit_options;
 
-enum { PLUMB_LIMIT_TEXT = 512, PLUMB_LIMIT_MAX_CROSSINGS = 8 };
+enum { PLUMB_LIMIT_TEXT = 512, PLUMB_LIMIT_MAX_CROSSINGS = 8, PLUMB_LIMIT_UNIT = 32 };
 
 typedef struct plumb_limit_result {
     plumb_limit_outcome outcome;  /* found, unlimited or impossible */
@@ -66,6 +66,11 @@ typedef struct plumb_limit_result {
     int within_at_low_end;        /* 1: the lowest value scanned meets the limit */
     size_t evaluations;           /* falls computed */
     char explanation[PLUMB_LIMIT_TEXT]; /* why, in words (every outcome) */
+    /* The unit the profile gave the key in ("" for none or a bare number;
+     * filled by plumb_study_limit, not by plumb_limit_solve), and how a
+     * value in it converts: value_si = given_offset_si + given_scale_si x. */
+    char given_unit[PLUMB_LIMIT_UNIT];
+    double given_offset_si, given_scale_si;
 } plumb_limit_result;
 
 /* A whole `plumb limit` answer, for the report writer (report.h). */

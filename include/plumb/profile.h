@@ -98,6 +98,14 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
                                      const char *const *criteria, size_t n_criteria,
                                      plumb_profile **out, plumb_diag *diag);
 
+/* The unit a numeric key was written in, as typed ("ft" for
+ * "release.height: 100 ft", "kn" for "--set wind.speed=15 kn"; for an
+ * inventory, "payload.X" is item's own X), into unit (size bytes). "" when
+ * the key was not given, was a bare number, or the profile was built in
+ * code. PLUMB_EINVAL for NULL arguments; otherwise can't fail. */
+plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const char *key,
+                                    char *unit, size_t size);
+
 /* Frees a profile. Accepts NULL. */
 void plumb_profile_free(plumb_profile *p);
 

@@ -2003,3 +2003,65 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
     *out = p;
     return PLUMB_OK;
 }
+
+/* ---- the unit a key was given in -------------------------------------- */
+
+/* The scalar node of a dotted key ("release.height", "descent[1].area";
+ * for an inventory, "payload.X" is item's own X), or NULL. */
+static const plumby_node *key_node(const plumb_profile *p, size_t item, const char *key)
+{
+    const plumby_node *cur = p->tree;
+    if (!cur)
+        return NULL;
+    if (p->inventory && strncmp(key, "payload.", 8) == 0) {
+        const plumby_pair *items = plumby_find(cur, "items");
+        if (!items || !items->value || items->value->kind != PLUMBY_SEQ || item >= items->value->n)
+            return NULL;
+        cur = items->value->items[item];
+        key += 8;
+    }
+    char seg[PLUMB_DIAG_KEY];
+    while (cur && *key) {
+        size_t len = strcspn(key, ".");
+        if (len >= sizeof seg)
+            return NULL;
+        memcpy(seg, key, len);
+        seg[len] = '\0';
+        key += len + (key[len] == '.');
+        char *br = strchr(seg, '[');
+        long idx = -1;
+        if (br) {
+            char *end;
+            idx = strtol(br + 1, &end, 10);
+            if (end == br + 1 || *end != ']' || idx < 0)
+                return NULL;
+            *br = '\0';
+        }
+        if (cur->kind != PLUMBY_MAP)
+            return NULL;
+        const plumby_pair *pair = plumby_find(cur, seg);
+        cur = pair ? pair->value : NULL;
+        if (cur && idx >= 0)
+            cur = cur->kind == PLUMBY_SEQ && (size_t)idx < cur->n ? cur->items[idx] : NULL;
+    }
+    return cur && cur->kind == PLUMBY_SCALAR ? cur : NULL;
+}
+
+plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const char *key,
+                                    char *unit, size_t size)
+{
+    if (!p || !key || !unit || size == 0)
+        return PLUMB_RAISE(NULL, PLUMB_EINVAL, "plumb_profile_key_unit: NULL argument");
+    unit[0] = '\0';
+    const plumby_node *n = key_node(p, item, key);
+    if (!n || !n->text)
+        return PLUMB_OK;
+    char *end;
+    (void)strtod(n->text, &end);
+    if (end == n->text)
+        return PLUMB_OK;
+    while (*end == ' ' || *end == '\t')
+        end++;
+    plumbp_strlcpy(unit, end, size);
+    return PLUMB_OK;
+}

@@ -72,6 +72,29 @@ static const char *t_limit_value(writer *w, plumb_dim dim, double si, int round_
     return b;
 }
 
+/* The answer in the unit the profile gave the key in, rounded toward the
+ * side that meets the limit like t_limit_value, as " (11.5003 ft)"; ""
+ * when the key was not given with a unit or that is the unit shown. */
+static const char *t_given_value(writer *w, const plumb_limit_result *r, int round_down)
+{
+    char *b = slot(w);
+    b[0] = '\0';
+    if (!r->given_unit[0] || !(r->given_scale_si != 0.0))
+        return b;
+    shown v = plumbp_show_dim(w, r->dim, r->value_si);
+    if (strcmp(v.unit, r->given_unit) == 0)
+        return b;
+    double x = (r->value_si - r->given_offset_si) / r->given_scale_si;
+    if (r->given_scale_si < 0.0)
+        round_down = !round_down;
+    if (x != 0.0 && plumbp_finite(x)) {
+        double scale = pow(10.0, floor(log10(fabs(x))) - 5.0);
+        x = (round_down ? floor(x / scale) : ceil(x / scale)) * scale;
+    }
+    snprintf(b, NUMBUF, " (%s%s%s, the profile's unit)", plumbp_gnum(w, x, 6), NBSP, r->given_unit);
+    return b;
+}
+
 static void text_limit_answer(writer *w, const plumb_report_options *opt,
                               const plumb_limit_report *rep)
 {
@@ -98,8 +121,9 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
         if (plumb_profile_is_inventory(p))
             put(w, "%s\n", plumb_profile_item(p, i)->name);
         if (r->outcome == PLUMB_LIMIT_FOUND) {
-            put(w, "  %s = %s\n", rep->key,
-                t_limit_value(w, r->dim, r->value_si, r->limit_is_upper_bound));
+            put(w, "  %s = %s%s\n", rep->key,
+                t_limit_value(w, r->dim, r->value_si, r->limit_is_upper_bound),
+                t_given_value(w, r, r->limit_is_upper_bound));
             snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
                      metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher",
@@ -205,6 +229,12 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
         /* the key's value: in the SI unit named by unit_si (it varies with the key) */
         if (r->outcome == PLUMB_LIMIT_FOUND) {
             jset(j, o, "value_si", jreal(j, r->value_si));
+            if (r->given_unit[0] && r->given_scale_si != 0.0) {
+                /* the same value in the unit the profile gave the key in */
+                jset(j, o, "given_unit", jstr(j, r->given_unit));
+                jset(j, o, "value_in_given_unit",
+                     jreal(j, (r->value_si - r->given_offset_si) / r->given_scale_si));
+            }
             jset(j, o, k_value, jreal(j, r->metric_at_value));
             json_t *cr = jarr(j);
             for (size_t k = 0; k < r->n_crossings; k++)

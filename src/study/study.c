@@ -187,6 +187,27 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
     return PLUMB_OK;
 }
 
+/* The unit the profile wrote the key in, and its conversion to SI (an
+ * affine map, for degC and degF), so the answer can be given in it too. */
+static void given_unit(const plumb_study *s, size_t item, const char *key, plumb_dim dim,
+                       plumb_limit_result *r)
+{
+    char unit[PLUMB_LIMIT_UNIT], text[PLUMB_LIMIT_UNIT + 8];
+    double zero, one;
+    r->given_unit[0] = '\0';
+    if (plumb_profile_key_unit(s->profile, item, key, unit, sizeof unit) != PLUMB_OK || !unit[0])
+        return;
+    snprintf(text, sizeof text, "0 %s", unit);
+    if (plumb_units_parse(s->units, text, dim, &zero, NULL) != PLUMB_OK)
+        return;
+    snprintf(text, sizeof text, "1 %s", unit);
+    if (plumb_units_parse(s->units, text, dim, &one, NULL) != PLUMB_OK || !(one != zero))
+        return;
+    plumbp_strlcpy(r->given_unit, unit, sizeof r->given_unit);
+    r->given_offset_si = zero;
+    r->given_scale_si = one - zero;
+}
+
 plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric metric,
                                double limit, const plumb_criterion *criterion,
                                const plumb_limit_options *opt, const plumb_limit_report **out,
@@ -205,6 +226,7 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
                                &s->limits[i], diag);
         if (st != PLUMB_OK)
             return st;
+        given_unit(s, i, key, kd, &s->limits[i]);
     }
     plumbp_strlcpy(s->limit_key, key, sizeof s->limit_key);
     s->limit = (plumb_limit_report){s->profile, s->limit_key, metric, limit,

@@ -1,0 +1,48 @@
+#!/bin/sh
+# `plumb limit` answers in the unit the profile gave the key in as well as
+# in the report's units (issue 9). Conversions checked against their
+# definitions: the international foot is 0.3048 m exactly (1959
+# agreement), the knot 1852/3600 m/s (international nautical mile, 1929).
+. "$(dirname "$0")/lib/setup.sh"
+pass=0; fail=0
+ok() { pass=$((pass + 1)); }
+bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
+tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-limit-units.XXXXXX") || exit 2
+trap 'rm -rf "$tmp"' EXIT
+p=profiles/demo/hand-tool.yaml
+
+"$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=100 ft' >"$tmp/t" 2>&1 || bad "limit in ft failed"
+if grep -q "release.height = [0-9.]* m ([0-9.]* ft, the profile's unit)" "$tmp/t"; then ok
+else bad "no answer in the profile's unit:"; sed -n 1,8p "$tmp/t"; fi
+"$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=31.6 m' >"$tmp/m" 2>&1
+if grep -q "the profile's unit" "$tmp/m"; then bad "an answer in m repeated in m"; else ok; fi
+
+check_json() { # ARGS... ; FACTOR
+  factor=$1; shift
+  "$bin" limit "$@" --format json >"$tmp/j" 2>"$tmp/e" || { bad "limit $*: $(cat "$tmp/e")"; return; }
+  if /usr/bin/python3 - "$tmp/j" "$factor" <<'PY'
+import json, sys
+d = json.load(open(sys.argv[1])); f = float(sys.argv[2])
+r = (d.get("items") or [d])[0] if "items" in d else d
+res = r.get("result", r)
+def find(o):
+    if isinstance(o, dict):
+        if "value_in_given_unit" in o:
+            return o
+        for v in o.values():
+            x = find(v)
+            if x: return x
+    if isinstance(o, list):
+        for v in o:
+            x = find(v)
+            if x: return x
+o = find(d)
+sys.exit(0 if o and abs(o["value_in_given_unit"] * f / o["value_si"] - 1) < 1e-12 else 1)
+PY
+  then ok; else bad "value_in_given_unit x $factor is not value_si for: $*"; fi
+}
+check_json 0.3048 "$p" --find release.height --energy-max 40J --set 'release.height=100 ft'
+check_json 0.51444444444444444 profiles/demo/drone-release.yaml --find wind.speed --drift-max 60m --set 'wind.speed=9 kn'
+
+echo "cli: $pass passed, $fail failed"
+[ "$fail" -eq 0 ]
