@@ -42,6 +42,7 @@ json_t *plumbp_j_air(jctx *j, const plumb_air *a);
 void plumbp_j_item_into(jctx *j, json_t *o, const plumb_item_report *it, const plumb_profile *p,
                         const item_air *ia);
 json_t *plumbp_j_profile(jctx *j, const plumb_profile *p);
+void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const item_air *ia);
 json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,
                       const item_air *ia);
 void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,

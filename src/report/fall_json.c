@@ -250,26 +250,34 @@ json_t *plumbp_j_profile(jctx *j, const plumb_profile *p)
     return o;
 }
 
+/* One shape for a single payload and a kit: a single payload is a kit of
+ * one ("inventory", "items", "worst", "largest_drift" always there), and
+ * keeps its figures at the top level of o too, where design.md section 6
+ * fixes them. Used by the fall report and by every row of a sweep. */
+void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const item_air *ia)
+{
+    int kit = plumb_profile_is_inventory(rep->profile);
+    if (!kit)
+        plumbp_j_item_into(j, o, &rep->items[0], rep->profile, &ia[0]);
+    jset(j, o, "inventory", json_boolean(kit));
+    json_t *items = jarr(j);
+    for (size_t i = 0; i < rep->n_items; i++) {
+        json_t *io = jobj(j);
+        plumbp_j_item_into(j, io, &rep->items[i], rep->profile, &ia[i]);
+        jpush(j, items, io);
+    }
+    jset(j, o, "items", items);
+    jset(j, o, "worst", jstr(j, rep->items[plumbp_worst_item(rep)].spec->name));
+    jset(j, o, "largest_drift", jstr(j, rep->items[plumbp_largest_drift_item(rep)].spec->name));
+}
+
 json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,
                       const item_air *ia)
 {
     json_t *root = jobj(j);
     if (opt->version)
         jset(j, root, "plumb_version", jstr(j, opt->version));
-    if (!plumb_profile_is_inventory(rep->profile)) {
-        plumbp_j_item_into(j, root, &rep->items[0], rep->profile, &ia[0]);
-    } else {
-        json_t *items = jarr(j);
-        for (size_t i = 0; i < rep->n_items; i++) {
-            json_t *o = jobj(j);
-            plumbp_j_item_into(j, o, &rep->items[i], rep->profile, &ia[i]);
-            jpush(j, items, o);
-        }
-        jset(j, root, "items", items);
-        jset(j, root, "worst", jstr(j, rep->items[plumbp_worst_item(rep)].spec->name));
-        jset(j, root, "largest_drift",
-             jstr(j, rep->items[plumbp_largest_drift_item(rep)].spec->name));
-    }
+    plumbp_j_items_into(j, root, rep, ia);
     jset(j, root, "profile", plumbp_j_profile(j, rep->profile));
     jset(j, root, "cautions", j_cautions(j));
     return root;

@@ -662,7 +662,7 @@ static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zo
     const plumb_zone_result *r0 = rep->items[0].result;
     jset(j, root, "seed", r0->seed <= (unsigned long)LLONG_MAX ? json_integer((json_int_t)r0->seed)
                                                              : (j->bad = 1, json_null()));
-    jset(j, root, "threads", jint(j, rep->threads));
+    /* no thread count: nothing in the JSON depends on it (the text names it) */
     if (!rep->inventory) {
         jset(j, root, "zone", j_zone(j, r0));
     } else {

@@ -465,20 +465,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
             jpush(j, rows, o);
             continue;
         }
-        if (!plumb_profile_is_inventory(rep->profile)) {
-            plumbp_j_item_into(j, o, &rep->items[0], rep->profile, &ia[i][0]);
-        } else {
-            json_t *items = jarr(j);
-            for (size_t it = 0; it < rep->n_items; it++) {
-                json_t *io = jobj(j);
-                plumbp_j_item_into(j, io, &rep->items[it], rep->profile, &ia[i][it]);
-                jpush(j, items, io);
-            }
-            jset(j, o, "items", items);
-            jset(j, o, "worst", jstr(j, rep->items[plumbp_worst_item(rep)].spec->name));
-            jset(j, o, "largest_drift",
-                 jstr(j, rep->items[plumbp_largest_drift_item(rep)].spec->name));
-        }
+        plumbp_j_items_into(j, o, rep, ia[i]);
         jpush(j, rows, o);
     }
     jset(j, root, "rows", rows);
