@@ -173,7 +173,7 @@ static void test_nearest_criterion_is_the_closest_id_by_edit_distance(void **sta
 {
     (void)state;
     const char *dir = new_dir();
-    const char *const ids[] = {"ddesb-fragment-79j", "eu-c1-80j", "us-part107-cat3",
+    const char *const ids[] = {"ddesb-fragment-58ftlbf", "eu-c1-80j", "us-part107-cat3",
                                "z89-type1-54j", "z89-type2-31j"};
     for (size_t i = 0; i < 5; i++) {
         char name[64];
@@ -185,7 +185,7 @@ static void test_nearest_criterion_is_the_closest_id_by_edit_distance(void **sta
     assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_OK);
     assert_string_equal(plumb_criteria_nearest(set, "eu-c2")->id, "eu-c1-80j");
     assert_string_equal(plumb_criteria_nearest(set, "us-part107-cat33")->id, "us-part107-cat3");
-    assert_string_equal(plumb_criteria_nearest(set, "fragment")->id, "ddesb-fragment-79j");
+    assert_string_equal(plumb_criteria_nearest(set, "fragment")->id, "ddesb-fragment-58ftlbf");
     assert_string_equal(plumb_criteria_nearest(set, "z89-type2")->id, "z89-type2-31j");
     assert_string_equal(plumb_criteria_nearest(set, "z89-type1-54j")->id, "z89-type1-54j");
     assert_null(plumb_criteria_nearest(set, NULL));
@@ -236,7 +236,7 @@ typedef struct bundled {
 
 static const bundled bundled_criteria[] = {
     /* DDESB Technical Paper No. 12: 58 ft lbf (transcribed) */
-    {"ddesb-fragment-79j", 58.0 * FT_LBF_J, 0.0, 0, "transcribed"},
+    {"ddesb-fragment-58ftlbf", 58.0 * FT_LBF_J, 0.0, 0, "transcribed"},
     /* EN 397:2012+A1:2012 penetration: 3 kg striker dropped 1 m, m g h (memory) */
     {"en397-penetration-29j", 3.0 * G0 * 1.0, 0.005, 0, "memory"},
     /* EN 397:2012+A1:2012 shock absorption: 5.0 kg striker dropped 1 m (memory) */
@@ -292,6 +292,20 @@ static void test_bundled_criteria_are_never_rounded_toward_the_lenient_side(void
         assert_string_equal(c->status, b->status);
     }
     assert_null(plumb_criteria_find(set, "z89-type2-31j"));
+    /* Nor does an id show a figure above its limit: "ddesb-fragment-79j"
+     * named a 78.64 J (58 ft lbf) limit. An id ending in <N>j has N <= the
+     * limit in J; the old id is unknown, with the new one suggested. */
+    for (size_t i = 0; i < plumb_criteria_count(set); i++) {
+        const plumb_criterion *c = plumb_criteria_get(set, i);
+        const char *dash = strrchr(c->id, '-');
+        char *end;
+        double n = dash ? strtod(dash + 1, &end) : 0.0;
+        if (dash && end != dash + 1 && strcmp(end, "j") == 0 && !(n <= c->energy_limit_j))
+            fail_msg("%s names %g J for a limit of %.6g J", c->id, n, c->energy_limit_j);
+    }
+    assert_null(plumb_criteria_find(set, "ddesb-fragment-79j"));
+    assert_string_equal(plumb_criteria_nearest(set, "ddesb-fragment-79j")->id,
+                        "ddesb-fragment-58ftlbf");
     plumb_criteria_free(set);
 }
 

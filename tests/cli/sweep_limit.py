@@ -132,7 +132,7 @@ check(rc == 0 and d.get("outcome") == "unlimited" and "terminal speed" in d.get(
       f"unlimited height is explained ({d.get('explanation')})")
 # impossible: thrown down at 11 m/s, 2.31 kg carries 150 J even at zero height
 rc, out, err = plumb("limit", thrown, "--find", "release.height", "--energy-max",
-                     "ddesb-fragment-79j", "--format", "json")
+                     "ddesb-fragment-58ftlbf", "--format", "json")
 d = json.loads(out)["limit"]["items"][0] if rc == 0 else {}
 check(rc == 0 and d.get("outcome") == "impossible" and "zero height" in d.get("explanation", ""),
       f"impossible height is explained ({d.get('explanation')})")

@@ -79,7 +79,7 @@ check(rc == 3 and "not computed, see (1) below" in out and "Rows not computed (2
 # every ratio in the text table has its verdict word beside it (issue 9:
 # a ratio printed as 1.00 must not hide its side of the limit)
 rc, out, err = plumb("sweep", THROWN, "--vary", "release.height=2m:20m:9m",
-                     "--set", "criteria=[ddesb-fragment-79j, eu-c1-80j]")
+                     "--set", "criteria=[ddesb-fragment-58ftlbf, eu-c1-80j]")
 table = [l for l in out.split("\n\n")[1].splitlines()[2:]] if rc == 0 else []
 check(len(table) == 3 and all(l.count("EXCEEDS") + l.count("within") == 2 for l in table),
       f"sweep text gives a verdict beside each of two ratios:\n" + "\n".join(table))
