@@ -70,10 +70,11 @@ const plumb_atmosphere *plumb_study_atmosphere(const plumb_study *study);
 plumb_status plumb_study_fall(plumb_study *study, const plumb_fall_report **out,
                               plumb_diag *diag);
 
-/* The falls over one or two ranges (plumb_sweep_run); the caller frees
- * *out with plumb_sweep_free. */
+/* The falls over one or two ranges (plumb_sweep_run_progress; progress
+ * may be NULL); the caller frees *out with plumb_sweep_free. */
 plumb_status plumb_study_sweep(plumb_study *study, const plumb_range *axes, size_t n_axes,
-                               plumb_sweep **out, plumb_diag *diag);
+                               plumb_sweep_progress_fn progress, void *user, plumb_sweep **out,
+                               plumb_diag *diag);
 
 /* A limit given as text: a criterion's id (energy only) or a quantity of
  * the metric's dimension ("25 ft lbf", "8 m/s", "30 m"), > 0. `option`

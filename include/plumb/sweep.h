@@ -102,6 +102,17 @@ plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *un
                              size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
                              plumb_diag *diag);
 
+/* Called after each row with the rows done and in all (for a person
+ * waiting: an estimate, progress). */
+typedef void (*plumb_sweep_progress_fn)(void *user, size_t done, size_t total);
+
+/* plumb_sweep_run, calling progress (if not NULL) after each row. */
+plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_units *units,
+                                      const plumb_criteria *criteria, const plumb_range *axes,
+                                      size_t n_axes, plumb_trajectory *traj,
+                                      plumb_sweep_progress_fn progress, void *user,
+                                      plumb_sweep **out, plumb_diag *diag);
+
 void plumb_sweep_free(plumb_sweep *s);
 
 size_t plumb_sweep_axis_count(const plumb_sweep *s);

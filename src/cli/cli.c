@@ -449,6 +449,45 @@ void cli_study_close(cli_study *cs)
     memset(cs, 0, sizeof *cs);
 }
 
+#define SECONDS_PER_MINUTE 60.0
+#define SECONDS_PER_HOUR 3600.0
+#define SECONDS_PER_DAY 86400.0
+
+void cli_duration(double s, char *buf, size_t size)
+{
+    if (s < 1.5 * SECONDS_PER_MINUTE)
+        snprintf(buf, size, "%.0f s", s);
+    else if (s < 1.5 * SECONDS_PER_HOUR)
+        snprintf(buf, size, "%.0f min", s / SECONDS_PER_MINUTE);
+    else if (s < 2.0 * SECONDS_PER_DAY)
+        snprintf(buf, size, "%.1f h", s / SECONDS_PER_HOUR);
+    else
+        snprintf(buf, size, "%.1f days", s / SECONDS_PER_DAY);
+}
+
+void cli_estimate_times(double *after_s, double *note_s, double *warn_s)
+{
+    *after_s = CLI_ESTIMATE_AFTER_S;
+    *note_s = CLI_NOTE_OVER_S;
+    *warn_s = CLI_WARN_OVER_S;
+    const char *env = getenv("PLUMB_TEST_ESTIMATE_TIMES");
+    if (!env || !*env)
+        return;
+    double v[3];
+    char *end = NULL;
+    const char *s = env;
+    for (int k = 0; k < 3; k++) {
+        errno = 0;
+        v[k] = strtod(s, &end);
+        if (end == s || errno != 0 || !(v[k] >= 0.0) || *end != (k < 2 ? ',' : '\0'))
+            return;
+        s = end + 1;
+    }
+    *after_s = v[0];
+    *note_s = v[1];
+    *warn_s = v[2];
+}
+
 static int cli_is_dir(const char *path)
 {
     struct stat st;

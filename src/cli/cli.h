@@ -141,6 +141,22 @@ plumb_status cli_study_open(const cli_args *a, const char *path, cli_study *cs, 
 /* Frees everything a cli_study holds. */
 void cli_study_close(cli_study *cs);
 
+/* A long run's estimate (zone, sweep): made once the run has taken
+ * CLI_ESTIMATE_AFTER_S; a note on standard error above CLI_NOTE_OVER_S, a
+ * warning above CLI_WARN_OVER_S (what a person waits for without planning
+ * it), seconds. */
+#define CLI_ESTIMATE_AFTER_S 0.5
+#define CLI_NOTE_OVER_S 10.0
+#define CLI_WARN_OVER_S 600.0
+
+/* The three thresholds, or for the tests only the values of
+ * PLUMB_TEST_ESTIMATE_TIMES="AFTER,NOTE,WARN" (seconds) when it is set and
+ * well formed. Can't fail. */
+void cli_estimate_times(double *after_s, double *note_s, double *warn_s);
+
+/* A duration for a person: "42 s", "7 min", "3.5 h", "2.1 days". */
+void cli_duration(double s, char *buf, size_t size);
+
 /* 1 when path `out` is an existing file that is the same file as `in`
  * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);

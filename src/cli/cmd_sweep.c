@@ -1,11 +1,14 @@
 /*
  * cmd_sweep.c - `plumb sweep PROFILE --vary KEY=FROM:TO:STEP [--vary ...]`:
  * the falls of a profile over one or two ranges of an input, as a table;
- * each row is exactly what `plumb fall --set KEY=VALUE` gives.
+ * each row is exactly what `plumb fall --set KEY=VALUE` gives. A sweep
+ * that will take long says so on standard error, estimated from its first
+ * rows (cli_estimate_times); --quiet silences it.
  */
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <time.h>
 
 #include "cli.h"
 
@@ -33,6 +36,38 @@ static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
     return plumb_report_sweep(out, &job->opt, job->sweep, diag);
 }
 
+/* The estimate of a long sweep, made once the rows done have taken
+ * after_s: a note on standard error when the whole will take over note_s,
+ * a warning over warn_s (the thresholds of cli_estimate_times). */
+typedef struct estimate_ctx {
+    struct timespec start;
+    double after_s, note_s, warn_s;
+    int done;
+} estimate_ctx;
+
+static void estimate(void *user, size_t done, size_t total)
+{
+    estimate_ctx *e = user;
+    struct timespec now;
+    if (e->done || done >= total || clock_gettime(CLOCK_MONOTONIC, &now) != 0)
+        return;
+    double elapsed = (double)(now.tv_sec - e->start.tv_sec) +
+                     1e-9 * (double)(now.tv_nsec - e->start.tv_nsec);
+    if (elapsed < e->after_s)
+        return;
+    e->done = 1;
+    double all_s = elapsed * (double)total / (double)done;
+    if (all_s <= e->note_s)
+        return;
+    char len[32];
+    cli_duration(all_s, len, sizeof len);
+    fprintf(stderr, "plumb sweep: %sthis sweep will take about %s (timed on the first %zu of %zu "
+                    "rows)%s\n",
+            all_s > e->warn_s ? "warning: " : "", len, done, total,
+            all_s > e->warn_s ? "; it goes on, Ctrl-C stops it" : "");
+    fflush(stderr);
+}
+
 static int run(const cli_args *a, const char *const *vary, size_t n_vary)
 {
     if (a->n_args != 1)
@@ -50,8 +85,13 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
      * study's units before any fall is run */
     for (size_t i = 0; st == PLUMB_OK && i < n_vary; i++)
         st = plumb_range_parse_key(cs.units, vary[i], &axes[i], &diag);
-    if (st == PLUMB_OK)
-        st = plumb_study_sweep(cs.study, axes, n_vary, &sweep, &diag);
+    if (st == PLUMB_OK) {
+        estimate_ctx e = {.done = 0};
+        cli_estimate_times(&e.after_s, &e.note_s, &e.warn_s);
+        int timed = !a->quiet && clock_gettime(CLOCK_MONOTONIC, &e.start) == 0;
+        st = plumb_study_sweep(cs.study, axes, n_vary, timed ? estimate : NULL, &e, &sweep,
+                               &diag);
+    }
     int rc;
     if (st == PLUMB_OK) {
         sweep_job job = {cli_report_options(a), sweep};

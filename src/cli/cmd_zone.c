@@ -12,12 +12,12 @@
  * and renamed into place at the same moment.
  * Progress goes to standard error only when it is a terminal, the run has
  * taken more than PROGRESS_AFTER_S, and --quiet is not given.
- * Once the run has taken ESTIMATE_AFTER_S, the time the whole run will take
- * is estimated from the samples done so far; when it is over NOTE_OVER_S a
+ * Once the run has taken CLI_ESTIMATE_AFTER_S, the time the whole run will take
+ * is estimated from the samples done so far; when it is over CLI_NOTE_OVER_S a
  * note says so on standard error (terminal or not: a log shows it too), and
- * over WARN_OVER_S it is a warning that names a --samples that would fit.
+ * over CLI_WARN_OVER_S it is a warning that names a --samples that would fit.
  * The run goes on either way; --quiet silences both. For the tests only,
- * PLUMB_TEST_ZONE_TIMES="AFTER,NOTE,WARN" (seconds) replaces the three.
+ * PLUMB_TEST_ESTIMATE_TIMES="AFTER,NOTE,WARN" (seconds) replaces the three.
  */
 #include <errno.h>
 #include <stdarg.h>
@@ -34,14 +34,6 @@
 /* Progress appears after this long, and is redrawn at most this often, s. */
 #define PROGRESS_AFTER_S 1.0
 #define PROGRESS_EVERY_S 0.25
-/* The estimate is made after this long; a note above NOTE_OVER_S, a warning
- * above WARN_OVER_S (what a person waits for without planning it), s. */
-#define ESTIMATE_AFTER_S 0.5
-#define NOTE_OVER_S 10.0
-#define WARN_OVER_S 600.0
-#define SECONDS_PER_MINUTE 60.0
-#define SECONDS_PER_HOUR 3600.0
-#define SECONDS_PER_DAY 86400.0
 /* Most threads --threads accepts. */
 #define MAX_THREADS 1024u
 /* Largest seed: integers up to 2^53 - 1 read back exactly from JSON
@@ -175,7 +167,7 @@ typedef struct progress_ctx {
     int passes;               /* 1, or 2 with a target */
     const char *samples_from; /* "--samples" or "zone.samples" */
     size_t min_samples;       /* fewest samples the confidence allows */
-    double after_s, note_s, warn_s; /* ESTIMATE_AFTER_S, NOTE_OVER_S, WARN_OVER_S */
+    double after_s, note_s, warn_s; /* CLI_ESTIMATE_AFTER_S, CLI_NOTE_OVER_S, CLI_WARN_OVER_S */
     int estimated;            /* the estimate is made */
     double total_s;           /* the estimated length of the whole run, s */
 } progress_ctx;
@@ -183,19 +175,6 @@ typedef struct progress_ctx {
 static double since(const struct timespec *a, const struct timespec *b)
 {
     return (double)(b->tv_sec - a->tv_sec) + 1e-9 * (double)(b->tv_nsec - a->tv_nsec);
-}
-
-/* "42 s", "7 min", "3.5 h", "2.1 days". */
-static void duration(double s, char *buf, size_t size)
-{
-    if (s < 1.5 * SECONDS_PER_MINUTE)
-        snprintf(buf, size, "%.0f s", s);
-    else if (s < 1.5 * SECONDS_PER_HOUR)
-        snprintf(buf, size, "%.0f min", s / SECONDS_PER_MINUTE);
-    else if (s < 2.0 * SECONDS_PER_DAY)
-        snprintf(buf, size, "%.1f h", s / SECONDS_PER_HOUR);
-    else
-        snprintf(buf, size, "%.1f days", s / SECONDS_PER_DAY);
 }
 
 static void progress_clear(progress_ctx *p);
@@ -222,20 +201,20 @@ static void estimate(progress_ctx *p, int pass, size_t done, size_t total, doubl
     if (p->total_s <= p->note_s)
         return;
     char len[32];
-    duration(p->total_s, len, sizeof len);
+    cli_duration(p->total_s, len, sizeof len);
     progress_clear(p);
     if (p->total_s <= p->warn_s) {
         fprintf(stderr, "plumb zone: this run will take about %s (timed on the first %.0f of "
                         "%.0f samples)\n", len, so_far, all);
     } else {
-        /* the samples per run that would take about WARN_OVER_S, one digit */
+        /* the samples per run that would take about CLI_WARN_OVER_S, one digit */
         double fit = per_run * p->warn_s / p->total_s;
         double mag = 1.0;
         while (mag * 10.0 <= fit)
             mag *= 10.0;
         fit = mag * (double)(long)(fit / mag);
         char lim[32];
-        duration(p->warn_s, lim, sizeof lim);
+        cli_duration(p->warn_s, lim, sizeof lim);
         fprintf(stderr, "plumb zone: warning: this run will take about %s (timed on the first "
                         "%.0f of %.0f samples); it goes on, Ctrl-C stops it", len, so_far, all);
         if (fit >= (double)p->min_samples && fit >= 1.0)
@@ -270,37 +249,12 @@ static void progress(void *user, int pass, size_t done, size_t total)
     work(p, pass, done, total, &so_far, &all);
     if (p->estimated && so_far > 0.0 && so_far < all) {
         char len[32];
-        duration(elapsed * (all - so_far) / so_far, len, sizeof len);
+        cli_duration(elapsed * (all - so_far) / so_far, len, sizeof len);
         snprintf(left, sizeof left, ", about %s left", len);
     }
     fprintf(stderr, "\rplumb zone: %s%3.0f %% (%zu of %zu samples%s)  ", where,
             PERCENT * (double)done / (double)total, done, total, left);
     fflush(stderr);
-}
-
-/* ESTIMATE_AFTER_S, NOTE_OVER_S and WARN_OVER_S, or for the tests the
- * three of PLUMB_TEST_ZONE_TIMES="AFTER,NOTE,WARN" when it reads whole. */
-static void test_times(progress_ctx *p)
-{
-    p->after_s = ESTIMATE_AFTER_S;
-    p->note_s = NOTE_OVER_S;
-    p->warn_s = WARN_OVER_S;
-    const char *env = getenv("PLUMB_TEST_ZONE_TIMES");
-    if (!env || !*env)
-        return;
-    double v[3];
-    char *end = NULL;
-    const char *s = env;
-    for (int k = 0; k < 3; k++) {
-        errno = 0;
-        v[k] = strtod(s, &end);
-        if (end == s || errno != 0 || !(v[k] >= 0.0) || *end != (k < 2 ? ',' : '\0'))
-            return;
-        s = end + 1;
-    }
-    p->after_s = v[0];
-    p->note_s = v[1];
-    p->warn_s = v[2];
 }
 
 static void progress_clear(progress_ctx *p)
@@ -535,7 +489,7 @@ static int run(const cli_args *a, const zone_opts *zo)
     pc.tty = isatty(STDERR_FILENO);
     pc.samples_from = zo->samples ? "--samples" : "zone.samples";
     pc.min_samples = st == PLUMB_OK ? plumb_zone_min_samples(zone.confidence, zopt.ci_level) : 0;
-    test_times(&pc);
+    cli_estimate_times(&pc.after_s, &pc.note_s, &pc.warn_s);
     if (!a->quiet && clock_gettime(CLOCK_MONOTONIC, &pc.start) == 0) {
         zopt.progress = progress;
         zopt.progress_user = &pc;

@@ -279,6 +279,16 @@ plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *un
                              size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
                              plumb_diag *diag)
 {
+    return plumb_sweep_run_progress(profile, units, criteria, axes, n_axes, traj, NULL, NULL, out,
+                                    diag);
+}
+
+plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_units *units,
+                                      const plumb_criteria *criteria, const plumb_range *axes,
+                                      size_t n_axes, plumb_trajectory *traj,
+                                      plumb_sweep_progress_fn progress, void *user,
+                                      plumb_sweep **out, plumb_diag *diag)
+{
     *out = NULL;
     if (n_axes < 1 || n_axes > PLUMB_MAX_AXES)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "a sweep takes one or two --vary ranges");
@@ -326,6 +336,8 @@ plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *un
             plumb_sweep_free(s);
             return st;
         }
+        if (progress)
+            progress(user, r + 1, total);
     }
     if (s->n_failed == total) {
         /* No row has figures: the range itself is at fault (a key the

@@ -137,9 +137,11 @@ plumb_status plumb_study_fall(plumb_study *s, const plumb_fall_report **out, plu
 }
 
 plumb_status plumb_study_sweep(plumb_study *s, const plumb_range *axes, size_t n_axes,
-                               plumb_sweep **out, plumb_diag *diag)
+                               plumb_sweep_progress_fn progress, void *user, plumb_sweep **out,
+                               plumb_diag *diag)
 {
-    return plumb_sweep_run(s->profile, s->units, s->criteria, axes, n_axes, s->traj, out, diag);
+    return plumb_sweep_run_progress(s->profile, s->units, s->criteria, axes, n_axes, s->traj,
+                                    progress, user, out, diag);
 }
 
 static plumb_status at_option(plumb_diag *diag, plumb_status st, const char *option)

@@ -3,7 +3,7 @@
 # (0.5 s) it estimates the whole run from the samples done, and says so on
 # standard error when that is over 10 s, as a warning over 10 min; the run
 # goes on, the report on standard output is unchanged, --quiet silences it.
-# The thresholds are src/cli/cmd_zone.c's; PLUMB_TEST_ZONE_TIMES=
+# The thresholds are src/cli/cmd_zone.c's; PLUMB_TEST_ESTIMATE_TIMES=
 # "AFTER,NOTE,WARN" (seconds, for the tests only) lowers them so that a
 # short run shows them. Common practice, no source: a person expects to
 # be told before a wait of more than a few seconds.
@@ -25,19 +25,19 @@ bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
 
 # A short run (600 samples) as the reference: nothing on standard error.
 zone() { "$bin" zone "$prof" --samples 600 --seed 11 --threads 1 --confidence 0.9 "$@"; }
-unset PLUMB_TEST_ZONE_TIMES
+unset PLUMB_TEST_ESTIMATE_TIMES
 zone >"$tmp/ref.out" 2>"$tmp/ref.err"
 rc=$?
 if [ $rc -eq 0 ] && [ -s "$tmp/ref.out" ] && [ ! -s "$tmp/ref.err" ]; then ok
 else bad "short run: exit $rc, stderr '$(head -c 200 "$tmp/ref.err")'"; fi
 
-# run NAME TIMES PATTERN [ARGS]: with PLUMB_TEST_ZONE_TIMES=TIMES, exit 0,
+# run NAME TIMES PATTERN [ARGS]: with PLUMB_TEST_ESTIMATE_TIMES=TIMES, exit 0,
 # the same report as the reference, and PATTERN on standard error (or
 # nothing there when PATTERN is empty).
 run() {
   name=$1 times=$2 pattern=$3
   shift 3
-  PLUMB_TEST_ZONE_TIMES=$times zone "$@" >"$tmp/out" 2>"$tmp/err"
+  PLUMB_TEST_ESTIMATE_TIMES=$times zone "$@" >"$tmp/out" 2>"$tmp/err"
   rc=$?
   if [ $rc -ne 0 ]; then bad "$name: exit $rc: $(head -c 200 "$tmp/err")"
   elif ! cmp -s "$tmp/ref.out" "$tmp/out"; then bad "$name: the report changed"
@@ -58,7 +58,7 @@ run "warning" 0,0,0 "$warn"
 run "under the note threshold" 0,1e9,1e9 ""
 run "--quiet" 0,0,0 "" --quiet
 # A malformed value is ignored: the real thresholds, a short run says nothing.
-run "malformed PLUMB_TEST_ZONE_TIMES" 0,0 ""
+run "malformed PLUMB_TEST_ESTIMATE_TIMES" 0,0 ""
 # Two items (an inventory) or two passes (a target) count all their samples.
 "$bin" zone "$prof" --samples 600 --seed 11 --threads 1 --confidence 0.9 --target 5m,5m \
   >"$tmp/ref.out" 2>/dev/null
