@@ -2006,45 +2006,42 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
 
 /* ---- the unit a key was given in -------------------------------------- */
 
+/* The node at a resolved key path in a tree, or NULL: the walk of
+ * tree_remove, reading. */
+static const plumby_node *tree_get(const plumby_node *root, const keypath *kp)
+{
+    const plumby_node *cur = root;
+    for (size_t i = 0; cur && i < kp->n; i++) {
+        const kseg *s = &kp->seg[i];
+        const plumby_pair *pair = cur->kind == PLUMBY_MAP ? plumby_find(cur, s->name) : NULL;
+        if (!pair)
+            return NULL;
+        cur = pair->value;
+        if (s->index != KSEG_NONE && cur->kind == PLUMBY_SEQ) {
+            long at = s->index == KSEG_NAMED ? item_named(cur, s->item) : s->index;
+            cur = at >= 0 && (size_t)at < cur->n ? cur->items[at] : NULL;
+        } else if (s->index > 0 || s->index == KSEG_NAMED) {
+            return NULL;
+        }
+    }
+    return cur;
+}
+
 /* The scalar node of a dotted key ("release.height", "descent[1].area";
- * for an inventory, "payload.X" is item's own X), or NULL. */
+ * for an inventory, "payload.X" is item's own X, items[item + 1].X), or
+ * NULL, through the key parser --set uses. */
 static const plumby_node *key_node(const plumb_profile *p, size_t item, const char *key)
 {
-    const plumby_node *cur = p->tree;
-    if (!cur)
+    char full[PLUMB_DIAG_KEY + 32];
+    if (p->inventory && strncmp(key, "payload.", 8) == 0)
+        snprintf(full, sizeof full, "items[%zu].%s", item + 1, key + 8);
+    else
+        snprintf(full, sizeof full, "%s", key);
+    keypath kp;
+    if (!p->tree || keypath_resolve(full, &kp, NULL, NULL) != PLUMB_OK)
         return NULL;
-    if (p->inventory && strncmp(key, "payload.", 8) == 0) {
-        const plumby_pair *items = plumby_find(cur, "items");
-        if (!items || !items->value || items->value->kind != PLUMBY_SEQ || item >= items->value->n)
-            return NULL;
-        cur = items->value->items[item];
-        key += 8;
-    }
-    char seg[PLUMB_DIAG_KEY];
-    while (cur && *key) {
-        size_t len = strcspn(key, ".");
-        if (len >= sizeof seg)
-            return NULL;
-        memcpy(seg, key, len);
-        seg[len] = '\0';
-        key += len + (key[len] == '.');
-        char *br = strchr(seg, '[');
-        long idx = -1;
-        if (br) {
-            char *end;
-            idx = strtol(br + 1, &end, 10);
-            if (end == br + 1 || *end != ']' || idx < 0)
-                return NULL;
-            *br = '\0';
-        }
-        if (cur->kind != PLUMBY_MAP)
-            return NULL;
-        const plumby_pair *pair = plumby_find(cur, seg);
-        cur = pair ? pair->value : NULL;
-        if (cur && idx >= 0)
-            cur = cur->kind == PLUMBY_SEQ && (size_t)idx < cur->n ? cur->items[idx] : NULL;
-    }
-    return cur && cur->kind == PLUMBY_SCALAR ? cur : NULL;
+    const plumby_node *n = tree_get(p->tree, &kp);
+    return n && n->kind == PLUMBY_SCALAR ? n : NULL;
 }
 
 plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const char *key,

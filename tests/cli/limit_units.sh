@@ -17,6 +17,12 @@ else bad "no answer in the profile's unit:"; sed -n 1,8p "$tmp/t"; fi
 "$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=31.6 m' >"$tmp/m" 2>&1
 if grep -q "the profile's unit" "$tmp/m"; then bad "an answer in m repeated in m"; else ok; fi
 
+# an inventory: each item in its own unit, here the second one in lb
+"$bin" limit profiles/demo/tower-kit.yaml --find payload.mass --energy-max 40J \
+  --set 'items[2].mass=9 lb' >"$tmp/kit" 2>&1 || bad "limit on a kit failed"
+if [ "$(grep -c "lb, the profile's unit)" "$tmp/kit")" -eq 1 ]; then ok
+else bad "the kit's item given in lb is not answered in lb:"; grep "payload.mass" "$tmp/kit"; fi
+
 check_json() { # ARGS... ; FACTOR
   factor=$1; shift
   "$bin" limit "$@" --format json >"$tmp/j" 2>"$tmp/e" || { bad "limit $*: $(cat "$tmp/e")"; return; }
