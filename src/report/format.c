@@ -113,17 +113,23 @@ const char *plumbp_sci(writer *w, double x, int sig)
     return b;
 }
 
+/* Drops the trailing zeros of a decimal fraction, and a bare point. */
+static void strip_zeros(char *b)
+{
+    if (!strchr(b, '.'))
+        return;
+    size_t n = strlen(b);
+    while (n > 0 && b[n - 1] == '0')
+        b[--n] = '\0';
+    if (n > 0 && b[n - 1] == '.')
+        b[--n] = '\0';
+}
+
 /* x with at most `dec` decimals, trailing zeros dropped ("1000", "12.5"). */
 const char *plumbp_trimmed(writer *w, double x, int dec)
 {
     char *b = plumbp_fixed(w, x, dec);
-    if (strchr(b, '.')) {
-        size_t n = strlen(b);
-        while (n > 0 && b[n - 1] == '0')
-            b[--n] = '\0';
-        if (n > 0 && b[n - 1] == '.')
-            b[--n] = '\0';
-    }
+    strip_zeros(b);
     return b;
 }
 
@@ -143,13 +149,8 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip)
     if (d < 0)
         return num(w, x, sig);
     snprintf(b, NUMBUF, "%.*f", d, x);
-    if (strip && strchr(b, '.')) {
-        size_t n = strlen(b);
-        while (n > 0 && b[n - 1] == '0')
-            b[--n] = '\0';
-        if (n > 0 && b[n - 1] == '.')
-            b[--n] = '\0';
-    }
+    if (strip)
+        strip_zeros(b);
     if (strspn(b, "-0.") == strlen(b))
         strcpy(b, "0");
     return b;

@@ -59,14 +59,21 @@ static const char *t_value(writer *w, plumb_dim dim, double si)
 
 /* A limit's value, 6 figures, rounded toward the side that meets the limit
  * (down when lower values do), so that the printed value is a safe one. */
-static const char *t_limit_value(writer *w, plumb_dim dim, double si, int round_down)
+/* x to 6 significant figures, rounded down or up: toward the side of the
+ * answer that meets the limit, so a printed value never breaks it. */
+static double round_safe(double x, int round_down)
 {
-    shown v = plumbp_show_dim(w, dim, si);
-    double x = v.x;
     if (x != 0.0 && plumbp_finite(x)) {
         double scale = pow(10.0, floor(log10(fabs(x))) - 5.0);
         x = (round_down ? floor(x / scale) : ceil(x / scale)) * scale;
     }
+    return x;
+}
+
+static const char *t_limit_value(writer *w, plumb_dim dim, double si, int round_down)
+{
+    shown v = plumbp_show_dim(w, dim, si);
+    double x = round_safe(v.x, round_down);
     char *b = slot(w);
     snprintf(b, NUMBUF, "%s%s%s", plumbp_gnum(w, x, 6), v.unit[0] ? NBSP : "", v.unit);
     return b;
@@ -85,12 +92,7 @@ static const char *t_given_value(writer *w, const plumb_limit_result *r, int rou
     if (strcmp(v.unit, r->given_unit) == 0)
         return b;
     double x = (r->value_si - r->given_offset_si) / r->given_scale_si;
-    if (r->given_scale_si < 0.0)
-        round_down = !round_down;
-    if (x != 0.0 && plumbp_finite(x)) {
-        double scale = pow(10.0, floor(log10(fabs(x))) - 5.0);
-        x = (round_down ? floor(x / scale) : ceil(x / scale)) * scale;
-    }
+    x = round_safe(x, r->given_scale_si < 0.0 ? !round_down : round_down);
     snprintf(b, NUMBUF, " (%s%s%s, the profile's unit)", plumbp_gnum(w, x, 6), NBSP, r->given_unit);
     return b;
 }
