@@ -44,8 +44,11 @@ export DEBIAN_FRONTEND=noninteractive
 log=$(mktemp "${TMPDIR:-/tmp}/plumb-deps.XXXXXX") || exit 2
 trap 'rm -f "$log"' EXIT
 printf 'plumb: installing %s... ' "$missing" >&2
+# Another install in progress (a second build, unattended upgrades) holds
+# dpkg's lock: wait for it rather than fail.
+wait_lock="-o DPkg::Lock::Timeout=600"
 # shellcheck disable=SC2086
-if $SUDO apt-get update -q >"$log" 2>&1 && $SUDO apt-get install -y -q $missing >>"$log" 2>&1; then
+if $SUDO apt-get update -q $wait_lock >"$log" 2>&1 && $SUDO apt-get install -y -q $wait_lock $missing >>"$log" 2>&1; then
   echo "done" >&2
   exit 0
 fi

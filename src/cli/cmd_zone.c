@@ -311,7 +311,7 @@ static plumb_status samples_open(samples_file *s, plumb_diag *diag)
     const char *const *c = plumb_cautions(&nc);
     for (size_t i = 0; i < nc; i++)
         fprintf(s->f, "# %s\n", c[i]);
-    fprintf(s->f, "# every sample of plumb zone, in sample order, SI units; pass 0 is released at "
+    fprintf(s->f, "# every sample of plumb zone, in sample order, numbered from 1, SI units; pass 0 is released at "
                   "the planned point, pass 1 at the point aimed at the target\n"
                   "item,pass,sample,east_m,north_m,energy_j,speed_m_s,time_s\n");
     return PLUMB_OK;
@@ -336,7 +336,7 @@ static int samples_row(void *user, int pass, size_t index, const plumb_zone_samp
 {
     samples_file *s = user;
     csv_text(s->f, s->item);
-    if (fprintf(s->f, ",%d,%zu,%.*g,%.*g,%.*g,%.*g,%.*g\n", pass, index, SAMPLE_DIGITS,
+    if (fprintf(s->f, ",%d,%zu,%.*g,%.*g,%.*g,%.*g,%.*g\n", pass, index + 1, SAMPLE_DIGITS,
                 smp->point_m[0], SAMPLE_DIGITS, smp->point_m[1], SAMPLE_DIGITS, smp->energy_j,
                 SAMPLE_DIGITS, smp->speed_m_s, SAMPLE_DIGITS, smp->time_s) < 0) {
         s->failed = 1;

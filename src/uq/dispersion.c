@@ -572,7 +572,7 @@ static plumb_status draw_one(const entry *e, gsl_rng *r, size_t index, double *x
                 if (tries++ >= TRUNC_MAX_DRAWS)
                     return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, e->u.key,
                                            "sample %zu: no value inside the key's range in %d "
-                                           "draws of the truncated normal", index,
+                                           "draws of the truncated normal", index + 1,
                                            TRUNC_MAX_DRAWS);
                 v = q[0] + gsl_ran_gaussian_ziggurat(r, q[1]);
             }
@@ -1097,7 +1097,7 @@ static void compute_block(worker *w, slot *sl)
         if (st != PLUMB_OK) {
             sl->st = st;
             plumbp_raise(&sl->diag, st, NULL, 0, 0, d.key[0] ? d.key : NULL,
-                         "sample %zu of %zu (seed %lu): %s", i, ps->n, ps->seed,
+                         "sample %zu of %zu (seed %lu): %s", i + 1, ps->n, ps->seed,
                          d.message[0] ? d.message : plumb_strerror(st));
             return;
         }
@@ -1155,7 +1155,7 @@ static void merge_slot(pass *ps, slot *sl)
                                      r->energy_j, r->speed_m_s, r->time_s};
             if (opt->on_sample(opt->sample_user, ps->pass_no, i, &smp) != 0) {
                 ps->st = PLUMB_RAISE(&ps->diag, PLUMB_EIO,
-                                     "the sample writer stopped the run at sample %zu", i);
+                                     "the sample writer stopped the run at sample %zu", i + 1);
                 ps->abort = 1;
                 return;
             }

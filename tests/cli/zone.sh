@@ -172,7 +172,7 @@ rows = rows[1:]
 assert len(rows) == 3000, len(rows)  # 1500 planned + 1500 aimed at the target
 for p in (0, 1):
     idx = [int(r[2]) for r in rows if r[1] == str(p)]
-    assert idx == list(range(1500)), p
+    assert idx == list(range(1, 1501)), p  # numbered from 1, as every list a person reads
 z = json.load(open(sys.argv[2]))["zone"]
 east = [float(r[3]) for r in rows if r[1] == "0"]
 mean = sum(east) / len(east)
