@@ -53,7 +53,7 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
 }
 
 /* Numeric columns of a sweep row, and the spaces between columns. */
-enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15 };
+enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15, SWEEP_KEY_HEAD = 16, SWEEP_NAME_MIN = 4 };
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
@@ -72,6 +72,68 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
                  plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
                  plumbp_status_note(c)[0] ? ")" : "");
         wrapped(w, lead, text);
+    }
+}
+
+/* The leading columns of a sweep table: the varied keys' values, and for
+ * an inventory the item's name in a column name_w wide. */
+typedef struct sweep_cols {
+    size_t na;
+    const size_t *wkey;
+    int inv;
+    size_t name_w;
+} sweep_cols;
+
+/* The header of a varied key's column: the key, or when that is longer
+ * than SWEEP_KEY_HEAD its last part (the line above the table names the
+ * whole key), so two long keys still leave room for the figures. */
+static const char *sweep_key_head(const char *key)
+{
+    const char *dot = strrchr(key, '.');
+    return shown_width(key) > SWEEP_KEY_HEAD && dot ? dot + 1 : key;
+}
+
+/* The two header lines of the leading columns: names (units = 0) or units. */
+static void sweep_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
+                        const char *const *khead, int units)
+{
+    for (size_t a = 0; a < c->na; a++)
+        pad(w, units ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : khead[a],
+            c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
+    if (c->inv) {
+        put(w, "  ");
+        pad(w, units ? "" : "item", c->name_w, 0);
+    }
+}
+
+/* The leading columns of item `it` of a row: the values on the row's first
+ * line only, then the first line of the item's name. Returns the rest of
+ * the name, for sweep_name_continued. */
+static const char *sweep_lead(writer *w, const sweep_cols *c, const plumb_sweep_row *row,
+                              size_t it)
+{
+    for (size_t a = 0; a < c->na; a++)
+        pad(w, it == 0 ? plumbp_gnum(w, row->value[a], 8) : "", c->wkey[a] + (a ? SWEEP_GAP : 1),
+            1);
+    if (!c->inv)
+        return "";
+    char part[PLUMB_NAME];
+    const char *rest = wrap_cell(row->report.items[it].spec->name, c->name_w, part, sizeof part);
+    put(w, "  ");
+    pad(w, part, c->name_w, 0);
+    return rest;
+}
+
+/* The continuation lines of an item's name wrapped in its column. */
+static void sweep_name_continued(writer *w, const sweep_cols *c, const char *rest)
+{
+    size_t keys_w = 0;
+    for (size_t a = 0; a < c->na; a++)
+        keys_w += c->wkey[a] + (a ? SWEEP_GAP : 1);
+    while (*rest) {
+        char part[PLUMB_NAME];
+        rest = wrap_cell(rest, c->name_w, part, sizeof part);
+        put(w, "%*s%s\n", (int)(keys_w + SWEEP_GAP), "", part);
     }
 }
 
@@ -220,16 +282,22 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     }
     put(w, "\n");
     /* Column widths: the widest header, unit or cell of each, so that no
-     * two figures ever touch and a one-criterion table stays narrow. */
+     * two figures ever touch and a one-criterion table stays narrow. The
+     * table keeps to TABLE_WIDTH columns: an item's name is wrapped onto
+     * continuation lines of its own column, never cut, and criteria that
+     * do not fit beside the figures get a table of their own, in blocks of
+     * as many as fit, as the inventory table of `plumb fall` does. */
     size_t nv = first->n_verdicts;
     size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
+    const char *khead[PLUMB_MAX_AXES];
     const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
     const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
     const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
     const char *const *units = w->us ? units_us : units_si;
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        wkey[a] = shown_width(ax->key);
+        khead[a] = sweep_key_head(ax->key);
+        wkey[a] = shown_width(khead[a]);
         if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
             wkey[a] = shown_width(unit_shown(w, ax->unit));
     }
@@ -238,6 +306,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                                                                 : shown_width(units[k]);
     for (size_t k = 0; k < nv; k++)
         wcrit[k] = shown_width("ratio verdict");
+    size_t name_w = SWEEP_NAME_MIN;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         for (size_t a = 0; a < na; a++)
@@ -245,6 +314,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 wkey[a] = shown_width(plumbp_gnum(w, row->value[a], 8));
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
+            if (shown_width(item->spec->name) > name_w)
+                name_w = shown_width(item->spec->name);
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
                     wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
@@ -253,25 +324,35 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                     wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
         }
     }
+    sweep_cols c = {na, wkey, inv, 0};
+    size_t keys_w = 0, figs_w = 0, crit_w = 0;
     for (size_t a = 0; a < na; a++)
-        pad(w, plumb_sweep_axis(sw, a)->key, wkey[a] + (a ? SWEEP_GAP : 1), 1);
-    if (inv)
-        put(w, "  %-18s", "item");
+        keys_w += wkey[a] + (a ? SWEEP_GAP : 1);
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        figs_w += wnum[k] + SWEEP_GAP;
+    for (size_t k = 0; k < nv; k++)
+        crit_w += wcrit[k] + SWEEP_GAP;
+    if (inv) {
+        size_t room = TABLE_WIDTH > keys_w + figs_w + SWEEP_GAP
+                          ? TABLE_WIDTH - keys_w - figs_w - SWEEP_GAP
+                          : 0;
+        c.name_w = name_w < room ? name_w : room < SWEEP_NAME_MIN ? SWEEP_NAME_MIN : room;
+    }
+    size_t lead_w = keys_w + (inv ? SWEEP_GAP + c.name_w : 0);
+    int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
+    sweep_heads(w, sw, &c, khead, 0);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
-    for (size_t k = 0; k < nv; k++) {
-        char c[32];
-        snprintf(c, sizeof c, "C%zu", k + 1);
-        pad(w, c, wcrit[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; inline_crit && k < nv; k++) {
+        char h[32];
+        snprintf(h, sizeof h, "C%zu", k + 1);
+        pad(w, h, wcrit[k] + SWEEP_GAP, 1);
     }
     put(w, "\n");
-    for (size_t a = 0; a < na; a++)
-        pad(w, unit_shown(w, plumb_sweep_axis(sw, a)->unit), wkey[a] + (a ? SWEEP_GAP : 1), 1);
-    if (inv)
-        put(w, "  %-18s", "");
+    sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
-    for (size_t k = 0; k < nv; k++)
+    for (size_t k = 0; inline_crit && k < nv; k++)
         pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
     put(w, "\n");
     size_t n_failed = 0;
@@ -285,23 +366,46 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            for (size_t a = 0; a < na; a++)
-                pad(w, it == 0 ? plumbp_gnum(w, row->value[a], 8) : "",
-                    wkey[a] + (a ? SWEEP_GAP : 1), 1);
-            if (inv) {
-                char name[PLUMB_NAME + 4];
-                if (shown_width(item->spec->name) > 18)
-                    snprintf(name, sizeof name, "%.17s~", item->spec->name);
-                else
-                    snprintf(name, sizeof name, "%s", item->spec->name);
-                put(w, "  %-18s", name);
-            }
+            const char *rest = sweep_lead(w, &c, row, it);
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
-            for (size_t k = 0; k < item->n_verdicts; k++)
+            for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
                 pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
             put(w, "\n");
+            sweep_name_continued(w, &c, rest);
         }
+    }
+    /* the verdicts, in blocks of as many criteria as fit */
+    for (size_t k0 = 0; !inline_crit && k0 < nv;) {
+        size_t k1 = k0, used = lead_w;
+        while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
+            used += wcrit[k1++] + SWEEP_GAP;
+        put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
+        sweep_heads(w, sw, &c, khead, 0);
+        for (size_t k = k0; k < k1; k++) {
+            char h[32];
+            snprintf(h, sizeof h, "C%zu", k + 1);
+            pad(w, h, wcrit[k] + SWEEP_GAP, 1);
+        }
+        put(w, "\n");
+        sweep_heads(w, sw, &c, khead, 1);
+        for (size_t k = k0; k < k1; k++)
+            pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+        put(w, "\n");
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            if (row->status != PLUMB_OK)
+                continue;
+            for (size_t it = 0; it < row->report.n_items; it++) {
+                const plumb_item_report *item = &row->report.items[it];
+                const char *rest = sweep_lead(w, &c, row, it);
+                for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
+                    pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+                put(w, "\n");
+                sweep_name_continued(w, &c, rest);
+            }
+        }
+        k0 = k1;
     }
     if (na == 2) {
         /* the energy of the worst item, as a matrix */
