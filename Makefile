@@ -104,6 +104,11 @@ all: $(BIN) $(LIB) $(SO_REAL) $(SO_LINKS)
 
 $(LIB_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS)
 $(TEST_OBJ) $(SUPP_OBJ): EXTRA_OBJ_FLAGS = -Itests/support
+# Where the command looks for the criteria when neither --criteria-dir nor
+# $PLUMB_CRITERIA_DIR says and none sits beside the executable: the
+# installed data directory, then this source tree (an out-of-tree build).
+$(CLI_OBJ): EXTRA_OBJ_FLAGS = -DPLUMB_CRITERIA_INSTALLED='"$(DATADIR)/plumb/criteria"' \
+  -DPLUMB_CRITERIA_SOURCE='"$(CURDIR)/profiles/criteria"'
 
 $(BUILD)/obj/%.o: %.c Makefile
 	@mkdir -p $(dir $@)

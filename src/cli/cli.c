@@ -516,6 +516,13 @@ const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
             }
         }
     }
+    /* the installed data directory, the working directory's
+     * profiles/criteria, then the source tree this program was built from */
+    static const char *const fixed[] = {PLUMB_CRITERIA_INSTALLED, "profiles/criteria",
+                                        PLUMB_CRITERIA_SOURCE};
+    for (size_t i = 0; i < sizeof fixed / sizeof fixed[0]; i++)
+        if (cli_is_dir(fixed[i]))
+            return fixed[i];
     return "profiles/criteria";
 }
 

@@ -163,7 +163,9 @@ int cli_same_file(const char *out, const char *in);
 
 /* The criteria directory: --criteria-dir, else $PLUMB_CRITERIA_DIR, else
  * <directory of /proc/self/exe>/../profiles/criteria (build tree), else
- * <exe dir>/../share/plumb/criteria (installed), else ./profiles/criteria.
+ * <exe dir>/../share/plumb/criteria (installed), else the data directory
+ * the program was built for, else ./profiles/criteria, else the source
+ * tree's profiles/criteria (an out-of-tree build run from elsewhere).
  * The result is a, the environment, a literal, or buf (size bytes). */
 const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size);
 
