@@ -1,6 +1,8 @@
 /*
  * yamltree.h - a small, strict YAML node tree with positions, and a schema
- * checker over it (internal; shared by profile.c and criteria.c).
+ * checker over it (internal; shared by profile.c and criteria.c). The tree
+ * is yamltree.c; the schema and the readers of a checked map are
+ * yamltree_schema.c.
  *
  * The tree is built from libyaml's event parser (YAML 1.1, pyyaml.org/
  * wiki/LibYAML). Every string is copied out of libyaml's buffers, so
