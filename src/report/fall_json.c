@@ -268,7 +268,10 @@ void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const
     }
     jset(j, o, "items", items);
     jset(j, o, "worst", jstr(j, rep->items[plumbp_worst_item(rep)].spec->name));
-    jset(j, o, "largest_drift", jstr(j, rep->items[plumbp_largest_drift_item(rep)].spec->name));
+    /* no item drifts: no largest drift to name */
+    const plumb_item_report *d = &rep->items[plumbp_largest_drift_item(rep)];
+    jset(j, o, "largest_drift",
+         d->result.drift_m < DRIFT_SHOWN_M ? json_null() : jstr(j, d->spec->name));
 }
 
 json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,

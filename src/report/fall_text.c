@@ -51,15 +51,10 @@ static void text_impact(writer *w, const plumb_item_report *it)
     put(w, "  angle      %s° below horizontal\n", plumbp_fixed(w, r->angle_deg, 1));
 }
 
+/* A criterion's limit, rounded down in both units (the strict side). */
 static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t size)
 {
-    if (w->us)
-        snprintf(buf, size, "limit %s ft·lbf (%s J)",
-                 num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG),
-                 num(w, c->energy_limit_j, TEXT_SIG));
-    else
-        snprintf(buf, size, "limit %s J (%s ft·lbf)", num(w, c->energy_limit_j, TEXT_SIG),
-                 num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG));
+    snprintf(buf, size, "limit %s", plumbp_t_limit_energy(w, c->energy_limit_j));
 }
 
 /* How sure the criterion's figure is, when it is not read in the source
@@ -565,7 +560,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
                  worst->spec->name, plumbp_t_energy(w, worst->result.energy_j),
                  plumbp_t_speed(w, worst->result.speed_m_s),
                  num(w, worst->verdicts[sk].ratio, RATIO_SIG), sk + 1,
-                 plumbp_t_energy(w, worst->verdicts[sk].criterion->energy_limit_j),
+                 plumbp_t_limit_energy(w, worst->verdicts[sk].criterion->energy_limit_j),
                  plumbp_verdict_word(&worst->verdicts[sk]));
     else
         snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,

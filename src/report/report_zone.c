@@ -306,7 +306,7 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
         const plumb_zone_exceedance *x = &z->exceedance[i];
         const plumb_criterion *c = x->criterion;
         put(w, "  %-9s %s – %s, %zu of %zu samples above %s\n", pct(w, x->probability),
-            pct(w, x->lo), pct(w, x->hi), x->count, z->samples, t_energy(w, c->energy_limit_j));
+            pct(w, x->lo), pct(w, x->hi), x->count, z->samples, plumbp_t_limit_energy(w, c->energy_limit_j));
         char src[2 * PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 128];
         const char *note = status_note_of(c->status);
         snprintf(src, sizeof src, "%s [%s]; source: %s%s%s%s%s", c->name, c->id,

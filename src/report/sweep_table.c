@@ -52,6 +52,15 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
+/* A value of input `key` in the display units: as plumbp_show_dim, but a
+ * wind speed in US units is in mph, as a crew reads it (plumbp_t_wind). */
+shown plumbp_show_key(const writer *w, const char *key, plumb_dim dim, double si)
+{
+    if (w->us && dim == PLUMB_DIM_SPEED && strncmp(key, "wind.", 5) == 0)
+        return (shown){si / MPH_M_S, "mph"};
+    return plumbp_show_dim(w, dim, si);
+}
+
 /* Numeric columns of a sweep row, and the spaces between columns. */
 enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15, SWEEP_KEY_HEAD = 16, SWEEP_NAME_MIN = 4 };
 
@@ -66,7 +75,7 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
         char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
         snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
         snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
-                 plumbp_t_energy(w, c->energy_limit_j),
+                 plumbp_t_limit_energy(w, c->energy_limit_j),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
                  c->source[0] ? c->source : "source not given", c->id,
                  plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
