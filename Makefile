@@ -62,7 +62,10 @@ ASAN_VARS  = BUILD=$(ASAN_BUILD) OPT="-Og -g" \
   EXTRA_LDFLAGS="-fsanitize=address,undefined"
 # The gcov build of `make coverage`.
 COV_BUILD  := $(BUILD)/cov
-COV_VARS   = BUILD=$(COV_BUILD) OPT="-O0 -g" EXTRA_CFLAGS="--coverage" EXTRA_LDFLAGS="--coverage"
+# -fprofile-update=atomic: the zone runs threads, whose counts would
+# otherwise race and undercount.
+COV_VARS   = BUILD=$(COV_BUILD) OPT="-O0 -g" EXTRA_CFLAGS="--coverage -fprofile-update=atomic" \
+  EXTRA_LDFLAGS="--coverage"
 
 # One line per step unless V=1.
 ifeq ($(V),1)

@@ -127,7 +127,7 @@ typedef struct plumb_zone_sample {
 /* Called for every sample of pass 0 (released at the planned point) and,
  * with a target, of pass 1 (released at the aiming point), in sample order
  * (index 0, 1, 2 ...), from one thread at a time; return 0 to go on,
- * nonzero to stop the run (it then fails with PLUMB_EIO). */
+ * nonzero to stop the run (it then fails with PLUMB_EWRITE). */
 typedef int (*plumb_zone_sample_fn)(void *user, int pass, size_t index,
                                     const plumb_zone_sample *s);
 
@@ -250,7 +250,7 @@ size_t plumb_zone_min_samples(double confidence, double ci_level);
  * bad zone spec, too few samples for the confidence, or a bad entry (see
  * plumb_sampler_alloc); a sample whose fall fails stops the run with that
  * fall's status and the sample's index in the message (the lowest failing
- * index, whatever the threads); PLUMB_EIO when on_sample stops it;
+ * index, whatever the threads); PLUMB_EWRITE when on_sample stops it;
  * PLUMB_ENOMEM. On error *res is unspecified. */
 plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere *atm,
                             const plumb_uncertainty *u, size_t n_u,

@@ -40,7 +40,7 @@ typedef struct plumb_report_options {
 const char *const *plumb_cautions(size_t *n);
 
 /* Writes a fall report. PLUMB_ENUMERIC if any figure is not finite,
- * PLUMB_EIO on a write error. */
+ * PLUMB_EWRITE on a write error. */
 plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
                                const plumb_fall_report *rep, plumb_diag *diag);
 
@@ -82,7 +82,7 @@ plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
  * beside them. */
 
 /* Writes a zone report. PLUMB_ENUMERIC if a figure is not finite,
- * PLUMB_EIO on a write error, PLUMB_EINVAL for an empty report. */
+ * PLUMB_EWRITE on a write error, PLUMB_EINVAL for an empty report. */
 plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt,
                                const plumb_zone_report *rep, plumb_diag *diag);
 

@@ -270,43 +270,21 @@ static void progress_clear(progress_ctx *p)
 
 typedef struct samples_file {
     const char *path;         /* destination */
-    char tmp[CLI_PATH_MAX];   /* temporary beside it */
-    FILE *f;
+    cli_outfile out;          /* written through cli.h: beside it, or in place */
+    FILE *f;                  /* out.f while open */
     const char *item;         /* current item name */
-    int failed;
+    int failed;               /* errno of a failed row, or 0 */
 } samples_file;
 
 static plumb_status samples_open(samples_file *s, plumb_diag *diag)
 {
     const char *slash = strrchr(s->path, '/');
-    const char *base = slash ? slash + 1 : s->path;
-    int n;
-    if (!slash)
-        n = snprintf(s->tmp, sizeof s->tmp, "./.%s.XXXXXX", base);
-    else
-        n = snprintf(s->tmp, sizeof s->tmp, "%.*s/.%s.XXXXXX", (int)(slash - s->path), s->path, base);
-    if (*base == '\0' || n < 0 || (size_t)n >= sizeof s->tmp)
+    if (*(slash ? slash + 1 : s->path) == '\0')
         return opt_error(diag, "--samples-out", "cannot write '%s'", s->path);
-    int fd = mkstemp(s->tmp);
-    if (fd < 0) {
-        plumb_diag_clear(diag);
-        diag->status = PLUMB_EWRITE;
-        snprintf(diag->file, sizeof diag->file, "%s", s->path);
-        snprintf(diag->message, sizeof diag->message, "cannot create a temporary file beside it: %s",
-                 strerror(errno));
-        s->tmp[0] = '\0';
-        return PLUMB_EWRITE;
-    }
-    s->f = fdopen(fd, "w");
-    if (!s->f) {
-        close(fd);
-        unlink(s->tmp);
-        s->tmp[0] = '\0';
-        plumb_diag_clear(diag);
-        diag->status = PLUMB_ENOMEM;
-        snprintf(diag->message, sizeof diag->message, "out of memory");
-        return PLUMB_ENOMEM;
-    }
+    plumb_status st = cli_outfile_open(&s->out, s->path, "cannot write the samples", diag);
+    if (st != PLUMB_OK)
+        return st;
+    s->f = s->out.f;
     size_t nc;
     const char *const *c = plumb_cautions(&nc);
     for (size_t i = 0; i < nc; i++)
@@ -339,7 +317,7 @@ static int samples_row(void *user, int pass, size_t index, const plumb_zone_samp
     if (fprintf(s->f, ",%d,%zu,%.*g,%.*g,%.*g,%.*g,%.*g\n", pass, index + 1, SAMPLE_DIGITS,
                 smp->point_m[0], SAMPLE_DIGITS, smp->point_m[1], SAMPLE_DIGITS, smp->energy_j,
                 SAMPLE_DIGITS, smp->speed_m_s, SAMPLE_DIGITS, smp->time_s) < 0) {
-        s->failed = 1;
+        s->failed = errno ? errno : EIO;
         return 1;
     }
     return 0;
@@ -350,29 +328,10 @@ static plumb_status samples_close(samples_file *s, int commit, plumb_diag *diag)
 {
     if (!s->f)
         return PLUMB_OK;
-    int err = 0;
-    if (commit) {
-        mode_t mask = umask(0);
-        umask(mask);
-        if (fflush(s->f) != 0 || ferror(s->f) || s->failed || fsync(fileno(s->f)) != 0 ||
-            fchmod(fileno(s->f), (mode_t)(0666 & ~mask)) != 0)
-            err = errno ? errno : EIO;
-    }
-    if (fclose(s->f) != 0 && !err)
-        err = errno;
     s->f = NULL;
-    if (commit && !err && rename(s->tmp, s->path) != 0)
-        err = errno;
-    if (!commit || err)
-        unlink(s->tmp);
-    if (commit && err) {
-        plumb_diag_clear(diag);
-        diag->status = PLUMB_EWRITE;
-        snprintf(diag->file, sizeof diag->file, "%s", s->path);
-        snprintf(diag->message, sizeof diag->message, "cannot write the samples: %s", strerror(err));
-        return PLUMB_EWRITE;
-    }
-    return PLUMB_OK;
+    /* A row that failed (samples_row) has set the stream's error flag,
+     * which cli_outfile_close reports. */
+    return cli_outfile_close(&s->out, commit, diag);
 }
 
 /* ---- the run ------------------------------------------------------------------ */
@@ -503,6 +462,13 @@ static int run(const cli_args *a, const zone_opts *zo)
     if (st == PLUMB_OK)
         st = plumb_study_zone(cs.study, &zone, &zopt, on_item, &ic, &rep, &diag);
     progress_clear(&pc);
+    if (st != PLUMB_OK && sf.failed) { /* the samples file stopped the run: say why */
+        plumb_diag_clear(&diag);
+        diag.status = st = PLUMB_EWRITE;
+        snprintf(diag.file, sizeof diag.file, "%s", sf.path);
+        snprintf(diag.message, sizeof diag.message, "cannot write the samples: %s",
+                 strerror(sf.failed));
+    }
 
     int rc;
     char *buf = NULL;
@@ -525,7 +491,7 @@ static int run(const cli_args *a, const zone_opts *zo)
         st = samples_close(&sf, 1, &diag);
     if (st == PLUMB_OK) {
         st = cli_write_output(a->output, buf, len, &diag);
-        if (st != PLUMB_OK && sf.path)
+        if (st != PLUMB_OK && sf.path && !sf.out.in_place)
             unlink(sf.path); /* the report failed: take the samples back too */
     }
     if (st == PLUMB_OK) {

@@ -1154,7 +1154,7 @@ static void merge_slot(pass *ps, slot *sl)
             plumb_zone_sample smp = {{ps->release[0] + r->dx, ps->release[1] + r->dy},
                                      r->energy_j, r->speed_m_s, r->time_s};
             if (opt->on_sample(opt->sample_user, ps->pass_no, i, &smp) != 0) {
-                ps->st = PLUMB_RAISE(&ps->diag, PLUMB_EIO,
+                ps->st = PLUMB_RAISE(&ps->diag, PLUMB_EWRITE,
                                      "the sample writer stopped the run at sample %zu", i + 1);
                 ps->abort = 1;
                 return;
