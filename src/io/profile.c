@@ -59,6 +59,10 @@ static const char *const drag_models[] = {"fixed", "sphere", "sphere-cgw"};
 static const char *const shape_kinds[] = {"sphere", "cylinder", "box", "plate"};
 static const char *const attitudes[] = {"tumbling", "broadside", "end-on"};
 static const char *const descent_kinds[] = {"parachute", "streamer", "drogue"};
+/* the words of plumb_canopy, in its order after PLUMB_CANOPY_UNSPECIFIED */
+static const char *const canopy_kinds[] = {"flat-circular", "conical", "hemispherical",
+                                           "extended-skirt", "cross", "ribbon",
+                                           "ringslot", "ringsail"};
 static const char *const atm_models[] = {"standard-1976", "surface", "table"};
 static const char *const wind_profiles[] = {"uniform", "power", "log", "table"};
 
@@ -92,6 +96,8 @@ static const plumby_schema descent_keys[] = {
     S_NUM("area", AREA, POSITIVE),     S_NUM("diameter", LENGTH, POSITIVE),
     S_MAP("deploy", deploy_keys),      S_NUM("fill_time", TIME, NONNEG),
     S_NUM("fill_constant", NONE, POSITIVE),
+    S_WORD("canopy", canopy_kinds),    S_NUM("inflation_exponent", NONE, POSITIVE),
+    S_NUM("opening_factor", NONE, POSITIVE),
 };
 static const plumby_schema payload_keys[] = {
     S_NUM("mass", MASS, POSITIVE), S_NUM("volume", VOLUME, NONNEG),
@@ -867,6 +873,47 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
     return PLUMB_OK;
 }
 
+/* The canopy type and its inflation curve (plumb/inflation.h): j and C_x
+ * from the type's table unless given; the fill constant n from the table
+ * when neither fill_time nor fill_constant is given (t_f = n D0 / v_1, D0
+ * the nominal diameter when only the area is given). */
+static plumb_status read_inflation(const plumby_map *dm, plumb_descent_spec *d, int has_fill)
+{
+    plumb_status st;
+    int word = -1;
+    if ((plumby_get(dm, "canopy") && (st = plumby_word(dm, "canopy", 0, &word)) != PLUMB_OK) ||
+        (st = plumby_num(dm, "inflation_exponent", 0, 0.0, &d->inflation_exponent, NULL)) !=
+            PLUMB_OK ||
+        (st = plumby_num(dm, "opening_factor", 0, 0.0, &d->opening_factor, NULL)) != PLUMB_OK)
+        return st;
+    if (d->inflation_exponent > PLUMB_INFLATION_J_MAX)
+        return plumby_raise_value(dm, "inflation_exponent", PLUMB_ERANGE,
+                                  "must lie between 0 and %g (published curves run from 1/2 to "
+                                  "about 6), found '%s'",
+                                  PLUMB_INFLATION_J_MAX, plumby_get(dm, "inflation_exponent")->text);
+    d->canopy = word < 0 ? PLUMB_CANOPY_UNSPECIFIED : (plumb_canopy)(word + 1);
+    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+    if (!ci)
+        return PLUMB_OK;
+    if (!(d->inflation_exponent > 0.0)) {
+        if (!(ci->exponent > 0.0))
+            return plumby_missing(dm, "inflation_exponent",
+                                  "the map of published values gives no inflation exponent for "
+                                  "this canopy type: give inflation_exponent");
+        d->inflation_exponent = ci->exponent;
+    }
+    if (!(d->opening_factor > 0.0))
+        d->opening_factor = ci->opening_factor;
+    if (!has_fill) {
+        if (!(ci->fill_constant > 0.0))
+            return plumby_missing(dm, "fill_time",
+                                  "the map of published values gives no fill constant for this "
+                                  "canopy type: give fill_time or fill_constant");
+        d->fill_constant = ci->fill_constant;
+    }
+    return PLUMB_OK;
+}
+
 /* One descent device from map dm (index i of the list). */
 static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_descent_spec *d)
 {
@@ -925,7 +972,7 @@ static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_des
         return plumby_raise_value(dm, "fill_constant", PLUMB_EINVAL,
                                   "needs the canopy's diameter (t_f = n D0 / v); give diameter "
                                   "instead of area, or use fill_time");
-    return PLUMB_OK;
+    return read_inflation(dm, d, has_ft || has_fc);
 }
 
 /* The descent devices of a node (map or list) at key into spec. */
@@ -1962,6 +2009,12 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
         canon(&h, "descent.fill_time", d->fill_time_s);
         canon(&h, "descent.fill_constant", d->fill_constant);
         canon(&h, "descent.disreefs", (double)d->disreefs_previous);
+        if (d->canopy != PLUMB_CANOPY_UNSPECIFIED || d->inflation_exponent > 0.0 ||
+            d->opening_factor > 0.0) {
+            canon(&h, "descent.canopy", (double)d->canopy);
+            canon(&h, "descent.inflation_exponent", d->inflation_exponent);
+            canon(&h, "descent.opening_factor", d->opening_factor);
+        }
     }
     for (int i = 0; i < 3; i++) {
         canon(&h, "release", s->release_m[i]);
