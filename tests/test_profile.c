@@ -328,6 +328,9 @@ static const bad_case bad_cases[] = {
     {"test_unknown_canopy_type_is_refused",
      GOOD "descent: {cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, canopy: @@flat-round}\n", NULL,
      PLUMB_EINVAL, "descent.canopy", "flat-circular"},
+    {"test_unknown_glide_word_is_refused",
+     "payload:\n  mass: 2.385 kg\n  drag: {cd_area: 0.0113 m^2}\n  glide: @@sideways\n" RELEASE,
+     NULL, PLUMB_EINVAL, "payload.glide", NULL},
     {"test_fill_time_with_fill_constant_is_refused",
      GOOD "descent: {cd: 0.8, diameter: 1.2 m, deploy: {after: 1 s}, fill_time: 1 s, "
           "@@fill_constant: 8}\n",
@@ -1152,6 +1155,35 @@ static void test_canopy_type_supplies_exponent_fill_constant_and_opening_factor(
     plumb_profile_free(p);
 }
 
+/* payload.glide auto: a plate, or a thin box, glides in the regime its I*
+ * gives (plumb/glide.h); a thick box does not; words force it. */
+static void test_plates_and_thin_boxes_glide_by_default(void **state)
+{
+    (void)state;
+    plumb_profile *p = load_ok(
+        "items:\n"
+        "  - name: steel plate\n    mass: 3.2 kg\n"
+        "    shape: {kind: plate, edges: [0.6 m, 0.4 m], thickness: 0.0017 m}\n"
+        "  - name: ply sheet\n    mass: 0.9 kg\n    shape: {kind: box, edges: [0.3 m, 0.012 m, 0.5 m]}\n"
+        "  - name: brick\n    mass: 2.1 kg\n    shape: {kind: box, edges: [0.2 m, 0.1 m, 0.065 m]}\n"
+        "  - name: tile\n    mass: 2.1 kg\n    shape: {kind: box, edges: [0.2 m, 0.1 m, 0.065 m]}\n"
+        "    glide: flutter\n"
+        "  - name: card\n    mass: 0.01 kg\n"
+        "    shape: {kind: plate, edges: [0.1 m, 0.1 m], thickness: 0.0003 m}\n    glide: off\n"
+        RELEASE, NULL, 0);
+    const plumb_fall_spec *s = plumb_profile_item(p, 0);
+    assert_int_equal(s->glide.mode, PLUMB_GLIDE_TUMBLE);
+    assert_rel(s->glide.istar, 3.2 / (0.6 * 0.4) / (1.225 * 0.4), 1e-12);
+    assert_int_equal(s->glide.from_shape, 1);
+    s = plumb_profile_item(p, 1);
+    assert_int_equal(s->glide.mode, PLUMB_GLIDE_TUMBLE);
+    assert_rel(s->glide.istar, 0.9 / (0.3 * 0.5) / (1.225 * 0.3), 1e-12);
+    assert_int_equal(plumb_profile_item(p, 2)->glide.mode, PLUMB_GLIDE_OFF);
+    assert_int_equal(plumb_profile_item(p, 3)->glide.mode, PLUMB_GLIDE_FLUTTER);
+    assert_int_equal(plumb_profile_item(p, 4)->glide.mode, PLUMB_GLIDE_OFF);
+    plumb_profile_free(p);
+}
+
 static void test_descent_diameter_gives_the_nominal_area(void **state)
 {
     (void)state;
@@ -1690,6 +1722,7 @@ int main(void)
         cmocka_unit_test(test_feet_and_degrees_celsius_are_converted_to_si),
         cmocka_unit_test(test_wind_table_rows_become_east_and_north_components),
         cmocka_unit_test(test_descent_diameter_gives_the_nominal_area),
+        cmocka_unit_test(test_plates_and_thin_boxes_glide_by_default),
         cmocka_unit_test(test_canopy_type_supplies_exponent_fill_constant_and_opening_factor),
         cmocka_unit_test(test_sphere_model_takes_its_area_from_the_diameter),
         cmocka_unit_test(test_cd_of_zero_is_allowed_as_drag_free),

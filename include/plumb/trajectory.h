@@ -32,6 +32,7 @@
 #include "plumb/wind.h"
 #include "plumb/drag.h"
 #include "plumb/inflation.h"
+#include "plumb/glide.h"
 
 enum { PLUMB_MAX_DESCENT = 2, PLUMB_NAME = 128 };
 
@@ -82,6 +83,7 @@ typedef struct plumb_fall_spec {
     double site_elevation_m;       /* strike level above MSL, m */
     plumb_gravity gravity;         /* g0 or WGS 84 at a latitude */
     plumb_wind_spec wind;          /* wind by height */
+    plumb_glide_spec glide;        /* sideways glide of a plate, applied by the zone only */
 } plumb_fall_spec;
 
 typedef enum plumb_stepper {

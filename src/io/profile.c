@@ -63,6 +63,7 @@ static const char *const descent_kinds[] = {"parachute", "streamer", "drogue"};
 static const char *const canopy_kinds[] = {"flat-circular", "conical", "hemispherical",
                                            "extended-skirt", "cross", "ribbon",
                                            "ringslot", "ringsail"};
+static const char *const glide_words[] = {"auto", "tumble", "flutter", "off"};
 static const char *const atm_models[] = {"standard-1976", "surface", "table"};
 static const char *const wind_profiles[] = {"uniform", "power", "log", "table"};
 
@@ -102,11 +103,13 @@ static const plumby_schema descent_keys[] = {
 static const plumby_schema payload_keys[] = {
     S_NUM("mass", MASS, POSITIVE), S_NUM("volume", VOLUME, NONNEG),
     S_MAP("drag", drag_keys),      S_MAP("shape", shape_keys),
+    S_WORD("glide", glide_words),
 };
 static const plumby_schema item_keys[] = {
     S_TEXT("name"),           S_NUM("mass", MASS, POSITIVE),
     S_NUM("volume", VOLUME, NONNEG), S_MAP("drag", drag_keys),
     S_MAP("shape", shape_keys), S_MAP_OR_LIST("descent", descent_keys),
+    S_WORD("glide", glide_words),
 };
 static const plumby_schema item_item[] = {S_MAP("", item_keys)};
 static const plumby_schema velocity_keys[] = {
@@ -1034,6 +1037,55 @@ static plumb_status read_descent(const loader *L, const plumby_node *node, const
     return PLUMB_OK;
 }
 
+/* Air density for a plate's I* (plumb/glide.h): the 1976 standard at sea
+ * level; I* only picks the regime, and a site's density changes it by a few
+ * per cent. kg/m^3. */
+#define GLIDE_RHO_F_KG_M3 1.225
+
+/* payload.glide: auto (default: a plate, or a box whose smallest edge is at
+ * most PLUMB_GLIDE_THIN_FRACTION of its middle one, glides in the regime
+ * its I* gives; anything else does not), tumble, flutter or off. */
+static plumb_status read_glide(const plumby_map *im, plumb_fall_spec *spec,
+                               const plumb_shape_spec *shape)
+{
+    int word = 0;
+    plumb_status st = plumby_word(im, "glide", 0, &word);
+    if (st != PLUMB_OK)
+        return st;
+    memset(&spec->glide, 0, sizeof spec->glide);
+    if (word == 1 || word == 2) {
+        spec->glide.mode = word == 1 ? PLUMB_GLIDE_TUMBLE : PLUMB_GLIDE_FLUTTER;
+        return PLUMB_OK;
+    }
+    if (word == 3 || !shape)
+        return PLUMB_OK;
+    const double *d = shape->dims_m;
+    double a = 0.0, b = 0.0;
+    if (shape->kind == PLUMB_SHAPE_PLATE) {
+        a = d[0];
+        b = d[1];
+    } else if (shape->kind == PLUMB_SHAPE_BOX) {
+        double e[3] = {d[0], d[1], d[2]};
+        for (int i = 0; i < 2; i++) /* sort ascending */
+            for (int k = 0; k < 2 - i; k++)
+                if (e[k] > e[k + 1]) {
+                    double t = e[k];
+                    e[k] = e[k + 1];
+                    e[k + 1] = t;
+                }
+        if (!(e[0] <= PLUMB_GLIDE_THIN_FRACTION * e[1]))
+            return PLUMB_OK;
+        a = e[1];
+        b = e[2];
+    } else {
+        return PLUMB_OK;
+    }
+    spec->glide.istar = plumb_glide_istar(spec->mass_kg, a, b, GLIDE_RHO_F_KG_M3);
+    spec->glide.mode = plumb_glide_regime(spec->glide.istar);
+    spec->glide.from_shape = 1;
+    return PLUMB_OK;
+}
+
 /* One payload (map at key "payload" or "items[i]") into spec and shape. */
 static plumb_status read_item(const loader *L, const plumby_map *im, int is_item,
                               const plumb_fall_spec *base, plumb_fall_spec *spec,
@@ -1049,7 +1101,8 @@ static plumb_status read_item(const loader *L, const plumby_map *im, int is_item
     }
     if ((st = plumby_num(im, "mass", 1, 0.0, &spec->mass_kg, NULL)) != PLUMB_OK ||
         (st = plumby_num(im, "volume", 0, 0.0, &spec->volume_m3, NULL)) != PLUMB_OK ||
-        (st = read_drag(L, im, spec, shape)) != PLUMB_OK)
+        (st = read_drag(L, im, spec, shape)) != PLUMB_OK ||
+        (st = read_glide(im, spec, shape)) != PLUMB_OK)
         return st;
     const plumby_node *own = is_item ? plumby_get(im, "descent") : NULL;
     char key[PLUMB_DIAG_KEY];
