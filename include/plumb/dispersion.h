@@ -200,6 +200,8 @@ typedef struct plumb_zone_stats {
     plumb_zone_quantile displacement[2]; /* median of impact - planned release point,
                                             east and north (component-wise), m */
     double drop_height_m;     /* planned release height: the "radius = height" rule, m */
+    double glide_ratio_max;   /* a plate's largest glide, sideways travel / height fallen
+                                 (plumb/glide.h); 0: no glide */
     double max_release_speed_m_s; /* largest release speed sampled, m/s */
     double ballistic_throw_m; /* drag-free throw of the sample with that speed, m */
     size_t steps;             /* integrator steps, all samples */

@@ -59,6 +59,11 @@ static const char *const drag_models[] = {"fixed", "sphere", "sphere-cgw"};
 static const char *const shape_kinds[] = {"sphere", "cylinder", "box", "plate"};
 static const char *const attitudes[] = {"tumbling", "broadside", "end-on"};
 static const char *const descent_kinds[] = {"parachute", "streamer", "drogue"};
+/* the words of plumb_canopy, in its order after PLUMB_CANOPY_UNSPECIFIED */
+static const char *const canopy_kinds[] = {"flat-circular", "conical", "hemispherical",
+                                           "extended-skirt", "cross", "ribbon",
+                                           "ringslot", "ringsail"};
+static const char *const glide_words[] = {"auto", "tumble", "flutter", "off"};
 static const char *const atm_models[] = {"standard-1976", "surface", "table"};
 static const char *const wind_profiles[] = {"uniform", "power", "log", "table"};
 
@@ -92,15 +97,19 @@ static const plumby_schema descent_keys[] = {
     S_NUM("area", AREA, POSITIVE),     S_NUM("diameter", LENGTH, POSITIVE),
     S_MAP("deploy", deploy_keys),      S_NUM("fill_time", TIME, NONNEG),
     S_NUM("fill_constant", NONE, POSITIVE),
+    S_WORD("canopy", canopy_kinds),    S_NUM("inflation_exponent", NONE, POSITIVE),
+    S_NUM("opening_factor", NONE, POSITIVE),
 };
 static const plumby_schema payload_keys[] = {
     S_NUM("mass", MASS, POSITIVE), S_NUM("volume", VOLUME, NONNEG),
     S_MAP("drag", drag_keys),      S_MAP("shape", shape_keys),
+    S_WORD("glide", glide_words),
 };
 static const plumby_schema item_keys[] = {
     S_TEXT("name"),           S_NUM("mass", MASS, POSITIVE),
     S_NUM("volume", VOLUME, NONNEG), S_MAP("drag", drag_keys),
     S_MAP("shape", shape_keys), S_MAP_OR_LIST("descent", descent_keys),
+    S_WORD("glide", glide_words),
 };
 static const plumby_schema item_item[] = {S_MAP("", item_keys)};
 static const plumby_schema velocity_keys[] = {
@@ -867,6 +876,47 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
     return PLUMB_OK;
 }
 
+/* The canopy type and its inflation curve (plumb/inflation.h): j and C_x
+ * from the type's table unless given; the fill constant n from the table
+ * when neither fill_time nor fill_constant is given (t_f = n D0 / v_1, D0
+ * the nominal diameter when only the area is given). */
+static plumb_status read_inflation(const plumby_map *dm, plumb_descent_spec *d, int has_fill)
+{
+    plumb_status st;
+    int word = -1;
+    if ((plumby_get(dm, "canopy") && (st = plumby_word(dm, "canopy", 0, &word)) != PLUMB_OK) ||
+        (st = plumby_num(dm, "inflation_exponent", 0, 0.0, &d->inflation_exponent, NULL)) !=
+            PLUMB_OK ||
+        (st = plumby_num(dm, "opening_factor", 0, 0.0, &d->opening_factor, NULL)) != PLUMB_OK)
+        return st;
+    if (d->inflation_exponent > PLUMB_INFLATION_J_MAX)
+        return plumby_raise_value(dm, "inflation_exponent", PLUMB_ERANGE,
+                                  "must lie between 0 and %g (published curves run from 1/2 to "
+                                  "about 6), found '%s'",
+                                  PLUMB_INFLATION_J_MAX, plumby_get(dm, "inflation_exponent")->text);
+    d->canopy = word < 0 ? PLUMB_CANOPY_UNSPECIFIED : (plumb_canopy)(word + 1);
+    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+    if (!ci)
+        return PLUMB_OK;
+    if (!(d->inflation_exponent > 0.0)) {
+        if (!(ci->exponent > 0.0))
+            return plumby_missing(dm, "inflation_exponent",
+                                  "the map of published values gives no inflation exponent for "
+                                  "this canopy type: give inflation_exponent");
+        d->inflation_exponent = ci->exponent;
+    }
+    if (!(d->opening_factor > 0.0))
+        d->opening_factor = ci->opening_factor;
+    if (!has_fill) {
+        if (!(ci->fill_constant > 0.0))
+            return plumby_missing(dm, "fill_time",
+                                  "the map of published values gives no fill constant for this "
+                                  "canopy type: give fill_time or fill_constant");
+        d->fill_constant = ci->fill_constant;
+    }
+    return PLUMB_OK;
+}
+
 /* One descent device from map dm (index i of the list). */
 static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_descent_spec *d)
 {
@@ -925,7 +975,7 @@ static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_des
         return plumby_raise_value(dm, "fill_constant", PLUMB_EINVAL,
                                   "needs the canopy's diameter (t_f = n D0 / v); give diameter "
                                   "instead of area, or use fill_time");
-    return PLUMB_OK;
+    return read_inflation(dm, d, has_ft || has_fc);
 }
 
 /* The descent devices of a node (map or list) at key into spec. */
@@ -987,6 +1037,55 @@ static plumb_status read_descent(const loader *L, const plumby_node *node, const
     return PLUMB_OK;
 }
 
+/* Air density for a plate's I* (plumb/glide.h): the 1976 standard at sea
+ * level; I* only picks the regime, and a site's density changes it by a few
+ * per cent. kg/m^3. */
+#define GLIDE_RHO_F_KG_M3 1.225
+
+/* payload.glide: auto (default: a plate, or a box whose smallest edge is at
+ * most PLUMB_GLIDE_THIN_FRACTION of its middle one, glides in the regime
+ * its I* gives; anything else does not), tumble, flutter or off. */
+static plumb_status read_glide(const plumby_map *im, plumb_fall_spec *spec,
+                               const plumb_shape_spec *shape)
+{
+    int word = 0;
+    plumb_status st = plumby_word(im, "glide", 0, &word);
+    if (st != PLUMB_OK)
+        return st;
+    memset(&spec->glide, 0, sizeof spec->glide);
+    if (word == 1 || word == 2) {
+        spec->glide.mode = word == 1 ? PLUMB_GLIDE_TUMBLE : PLUMB_GLIDE_FLUTTER;
+        return PLUMB_OK;
+    }
+    if (word == 3 || !shape)
+        return PLUMB_OK;
+    const double *d = shape->dims_m;
+    double a = 0.0, b = 0.0;
+    if (shape->kind == PLUMB_SHAPE_PLATE) {
+        a = d[0];
+        b = d[1];
+    } else if (shape->kind == PLUMB_SHAPE_BOX) {
+        double e[3] = {d[0], d[1], d[2]};
+        for (int i = 0; i < 2; i++) /* sort ascending */
+            for (int k = 0; k < 2 - i; k++)
+                if (e[k] > e[k + 1]) {
+                    double t = e[k];
+                    e[k] = e[k + 1];
+                    e[k + 1] = t;
+                }
+        if (!(e[0] <= PLUMB_GLIDE_THIN_FRACTION * e[1]))
+            return PLUMB_OK;
+        a = e[1];
+        b = e[2];
+    } else {
+        return PLUMB_OK;
+    }
+    spec->glide.istar = plumb_glide_istar(spec->mass_kg, a, b, GLIDE_RHO_F_KG_M3);
+    spec->glide.mode = plumb_glide_regime(spec->glide.istar);
+    spec->glide.from_shape = 1;
+    return PLUMB_OK;
+}
+
 /* One payload (map at key "payload" or "items[i]") into spec and shape. */
 static plumb_status read_item(const loader *L, const plumby_map *im, int is_item,
                               const plumb_fall_spec *base, plumb_fall_spec *spec,
@@ -1002,7 +1101,8 @@ static plumb_status read_item(const loader *L, const plumby_map *im, int is_item
     }
     if ((st = plumby_num(im, "mass", 1, 0.0, &spec->mass_kg, NULL)) != PLUMB_OK ||
         (st = plumby_num(im, "volume", 0, 0.0, &spec->volume_m3, NULL)) != PLUMB_OK ||
-        (st = read_drag(L, im, spec, shape)) != PLUMB_OK)
+        (st = read_drag(L, im, spec, shape)) != PLUMB_OK ||
+        (st = read_glide(im, spec, shape)) != PLUMB_OK)
         return st;
     const plumby_node *own = is_item ? plumby_get(im, "descent") : NULL;
     char key[PLUMB_DIAG_KEY];
@@ -1962,6 +2062,12 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
         canon(&h, "descent.fill_time", d->fill_time_s);
         canon(&h, "descent.fill_constant", d->fill_constant);
         canon(&h, "descent.disreefs", (double)d->disreefs_previous);
+        if (d->canopy != PLUMB_CANOPY_UNSPECIFIED || d->inflation_exponent > 0.0 ||
+            d->opening_factor > 0.0) {
+            canon(&h, "descent.canopy", (double)d->canopy);
+            canon(&h, "descent.inflation_exponent", d->inflation_exponent);
+            canon(&h, "descent.opening_factor", d->opening_factor);
+        }
     }
     for (int i = 0; i < 3; i++) {
         canon(&h, "release", s->release_m[i]);

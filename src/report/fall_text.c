@@ -130,6 +130,49 @@ static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, 
     w->exact = 0;
 }
 
+/* The inflation curve of a device and where its figures come from. */
+static void text_inflation(writer *w, const plumb_descent_spec *d)
+{
+    char line[NUMBUF * 8];
+    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+    double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
+    w->exact = 1;
+    snprintf(line, sizeof line, "%s%sdrag area grows as (t/t_f)^%s over the fill (Knacke 1991)%s",
+             ci ? ci->name : "", ci ? " canopy: " : "", plumbp_gnum(w, j, 3),
+             d->inflation_exponent > 0.0 ? "" : "; linear: no canopy type or exponent given");
+    w->exact = 0;
+    wrapped(w, "                   ", line);
+    if (ci)
+        wrapped(w, "                   source: ", ci->source);
+}
+
+/* Pflanz's hand estimate beside the integrated peak. */
+static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall_result *r,
+                        size_t i, double weight_n)
+{
+    char line[NUMBUF * 10];
+    if (!(r->fill_time_s[i] > 0.0)) {
+        wrapped(w, "                   ", "opens at once: no fill, so no Pflanz estimate");
+        return;
+    }
+    if (d->opening_factor > 0.0)
+        snprintf(line, sizeof line,
+                 "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
+                 "X1 %s, C_x %s: opening force %s (%s" NBSP "g)",
+                 num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
+                 num(w, r->pflanz_x1[i], 3), num(w, d->opening_factor, 3),
+                 plumbp_t_force(w, r->pflanz_force_n[i]),
+                 num(w, r->pflanz_force_n[i] / weight_n, 3));
+    else
+        snprintf(line, sizeof line,
+                 "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
+                 "X1 %s: X1 q1 CdS0 %s, times C_x (not known: give canopy or opening_factor)",
+                 num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
+                 num(w, r->pflanz_x1[i], 3),
+                 plumbp_t_force(w, r->pflanz_x1[i] * r->pflanz_q1s_n[i]));
+    wrapped(w, "                   ", line);
+}
+
 static void text_descent(writer *w, const plumb_item_report *it, const char *who)
 {
     const plumb_fall_spec *s = it->spec;
@@ -147,6 +190,7 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
                  plumbp_t_area(w, d->area_m2), rule);
         w->exact = 0;
         wrapped(w, lead, line);
+        text_inflation(w, d);
         if (i < r->n_deployed)
             snprintf(line, sizeof line,
                      "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
@@ -156,9 +200,11 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
         else
             snprintf(line, sizeof line, "does not open before impact");
         wrapped(w, "                   ", line);
+        if (i < r->n_deployed)
+            text_pflanz(w, d, r, i, s->mass_kg * PLUMB_G0_M_S2);
     }
-    put(w, "  peak drag force  %s (%s" NBSP "g)\n", plumbp_t_force(w, r->peak_force_n),
-        num(w, r->peak_load_g, 3));
+    put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
+        plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
     put(w, "  steady descent   %s with the devices open, at the strike level\n",
         plumbp_t_speed(w, r->steady_speed_m_s));
 }

@@ -324,6 +324,15 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     put(w, "Simple rules, beside the computed radius\n");
     put(w, "  %-26s %s\n", "radius = drop height", t_len(w, z->drop_height_m));
     char line[256];
+    if (z->glide_ratio_max > 0.0) {
+        snprintf(line, sizeof line,
+                 "up to %s (%s x the drop height): a plate gliding in still air, published "
+                 "range of glide ratios 0 to %s; \"radius = drop height\" is not conservative "
+                 "for it (plumb/glide.h)",
+                 t_len(w, z->glide_ratio_max * z->drop_height_m),
+                 num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4));
+        wrapped(w, "  plate glide                ", line);
+    }
     snprintf(line, sizeof line,
              "%s: the range, without drag or wind, of the sample released fastest (%s, in "
              "its own direction)",
@@ -464,6 +473,9 @@ static void csv_stats(writer *w, const char *item, const char *prefix, const plu
     if (!target_pass) {
         csv_row(w, item, Q("drop_height"), z->drop_height_m * L, NULL, NULL, lu);
         csv_row(w, item, Q("ballistic_throw"), z->ballistic_throw_m * L, NULL, NULL, lu);
+        if (z->glide_ratio_max > 0.0)
+            csv_row(w, item, Q("plate_glide"), z->glide_ratio_max * z->drop_height_m * L, NULL,
+                    NULL, lu);
         csv_row(w, item, Q("max_release_speed"), z->max_release_speed_m_s * L, NULL, NULL,
                 w->us ? "ft/s" : "m/s");
     }
@@ -607,6 +619,8 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
     json_t *rules = jobj(j);
     jset(j, rules, "drop_height_m", jreal(j, r->zone.drop_height_m));
     jset(j, rules, "ballistic_throw_m", jreal(j, r->zone.ballistic_throw_m));
+    jset(j, rules, "glide_ratio_max", jreal(j, r->zone.glide_ratio_max));
+    jset(j, rules, "glide_m", jreal(j, r->zone.glide_ratio_max * r->zone.drop_height_m));
     jset(j, rules, "max_release_speed_m_s", jreal(j, r->zone.max_release_speed_m_s));
     jset(j, o, "rules_of_thumb", rules);
     json_t *tr = jarr(j), *inputs = jarr(j);

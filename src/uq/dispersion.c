@@ -1075,6 +1075,18 @@ static double ballistic_throw(const plumb_fall_spec *s)
     return vh * (v[2] + sqrt(v[2] * v[2] + 2.0 * g * H)) / g;
 }
 
+/* Substream `salt` of sample `index`: n uniforms in [0, 1) from a stream
+ * of its own, so that what a sample draws for its inputs is untouched by
+ * the draws of the glide or the gusts (and identical for any thread count). */
+#define SALT_GLIDE UINT64_C(0x676C696465) /* "glide" */
+static void substream_uniforms(unsigned long seed, uint64_t salt, size_t index, double *u, size_t n)
+{
+    taus_state t;
+    taus_seed(&t, (unsigned long)((uint64_t)seed ^ splitmix64_mix(salt)), index);
+    for (size_t i = 0; i < n; i++)
+        u[i] = taus_get_double(&t);
+}
+
 static void compute_block(worker *w, slot *sl)
 {
     pass *ps = w->ps;
@@ -1104,6 +1116,14 @@ static void compute_block(worker *w, slot *sl)
         rec *r = &sl->recs[k];
         r->dx = res.point_m[0] - ps->release[0];
         r->dy = res.point_m[1] - ps->release[1];
+        if (spec.glide.mode != PLUMB_GLIDE_OFF && spec.n_descent == 0) {
+            /* a plate glides sideways from its highest point (plumb/glide.h) */
+            double u[2], g[2];
+            substream_uniforms(ps->seed, SALT_GLIDE, i, u, 2);
+            plumb_glide_offset(spec.glide.mode, res.apex_m, u[0], u[1], g);
+            r->dx += g[0];
+            r->dy += g[1];
+        }
         r->energy_j = res.energy_j;
         r->speed_m_s = res.speed_m_s;
         r->time_s = res.time_s;
@@ -1316,6 +1336,8 @@ static plumb_status finish_stats(pass *ps, const plumb_fall_spec *base, const pl
     read_quantile(&a->sk[PV_DX], n, 0.5, level, &z->displacement[0]);
     read_quantile(&a->sk[PV_DY], n, 0.5, level, &z->displacement[1]);
     z->drop_height_m = base->release_m[2];
+    z->glide_ratio_max =
+        base->n_descent == 0 ? plumb_glide_ratio_max(base->glide.mode) : 0.0;
     z->max_release_speed_m_s = a->speed_max;
     z->ballistic_throw_m = a->throw_at_max;
     z->steps = a->steps;
