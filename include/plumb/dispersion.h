@@ -56,8 +56,14 @@ enum {
     PLUMB_ZONE_MAX_INPUTS = 32,    /* uncertain inputs per run */
     PLUMB_ZONE_MAX_CRITERIA = 32,  /* criteria judged per run */
     PLUMB_ZONE_RADII = 4,          /* radius percentiles: 50, 90, 99, 99.9 % */
-    PLUMB_ZONE_ENERGIES = 3        /* energy percentiles: 50, 95, 99 % */
+    PLUMB_ZONE_ENERGIES = 3,       /* energy percentiles: 50, 95, 99 % */
+    PLUMB_ZONE_MAX_WARNINGS = 16,  /* warnings per zone result */
+    PLUMB_ZONE_WARNING = 320       /* bytes of one warning, with its '\0' */
 };
+
+/* Largest spread of the impact points, m, below which the uncertain inputs
+ * are said not to move the impact point (impact_point_fixed). */
+#define PLUMB_ZONE_FIXED_M 1e-6
 
 /* Largest number of samples a run accepts. */
 #define PLUMB_ZONE_MAX_SAMPLES 100000000u
@@ -202,6 +208,9 @@ typedef struct plumb_zone_stats {
     double drop_height_m;     /* planned release height: the "radius = height" rule, m */
     double max_release_speed_m_s; /* largest release speed sampled, m/s */
     double ballistic_throw_m; /* drag-free throw of the sample with that speed, m */
+    int impact_point_fixed;   /* 1: every impact lies within PLUMB_ZONE_FIXED_M of the
+                                 first in east and north: the uncertainty does not move
+                                 the impact point, the radii are one fall's drift */
     size_t steps;             /* integrator steps, all samples */
     size_t rhs_evaluations;   /* right-hand-side evaluations, all samples */
 } plumb_zone_stats;
@@ -229,7 +238,19 @@ typedef struct plumb_zone_result {
     double aim_release_m[2];  /* release point putting the median impact on the target:
                                  target - zone.displacement[].value, m */
     plumb_zone_stats at_target; /* pass 1: released at aim_release_m, radii from the target */
+    size_t n_warnings;        /* warnings[0..n) */
+    char warnings[PLUMB_ZONE_MAX_WARNINGS][PLUMB_ZONE_WARNING]; /* sentences qualifying the
+                                 figures: the impact point fixed (first, when so), and those
+                                 the caller adds (plumb_zone_add_warning) */
 } plumb_zone_result;
+
+/* Appends a warning (a sentence) to a result; silently stops when full.
+ * Can't fail. */
+void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 2, 3)))
+#endif
+    ;
 
 /* Defaults as documented on each field. Can't fail. */
 void plumb_zone_options_init(plumb_zone_options *opt);

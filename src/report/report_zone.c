@@ -335,9 +335,20 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     put(w, "\n");
 }
 
+static void text_warnings(writer *w, const plumb_zone_result *r)
+{
+    if (r->n_warnings == 0)
+        return;
+    put(w, "Warnings\n");
+    for (size_t i = 0; i < r->n_warnings; i++)
+        wrapped(w, "  - ", r->warnings[i]);
+    put(w, "\n");
+}
+
 static void text_item(writer *w, const plumb_zone_result *r)
 {
     const plumb_zone_stats *z = &r->zone;
+    text_warnings(w, r);
     text_inputs(w, r);
     put(w, "Impact cloud, released at the planned drop point (%s)\n", t_point(w, z->release_m));
     text_cloud(w, z);
@@ -491,6 +502,11 @@ static void csv_report(writer *w, const plumb_zone_report *rep)
     }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
+        for (size_t k = 0; k < r->n_warnings; k++)
+            put(w, "# warning: %s: %s\n", rep->items[i].name, r->warnings[k]);
+    }
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_zone_result *r = rep->items[i].result;
         for (size_t k = 0; k < r->n_inputs; k++)
             if (r->inputs[k].truncated)
                 put(w, "# %s: %s: normal truncated to its range, %zu draws redrawn\n",
@@ -603,6 +619,11 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
                                                          : (j->bad = 1, json_null()));
     jset(j, o, "confidence", jreal(j, r->confidence));
     jset(j, o, "interval_level", jreal(j, r->ci_level));
+    jset(j, o, "impact_point_fixed", json_boolean(r->zone.impact_point_fixed));
+    json_t *warn = jarr(j);
+    for (size_t i = 0; i < r->n_warnings; i++)
+        jpush(j, warn, jstr(j, r->warnings[i]));
+    jset(j, o, "warnings", warn);
     j_stats_into(j, o, &r->zone);
     json_t *rules = jobj(j);
     jset(j, rules, "drop_height_m", jreal(j, r->zone.drop_height_m));

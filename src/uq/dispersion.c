@@ -48,6 +48,8 @@
  * blocks ahead of the merge, which bounds the memory.
  */
 #include <float.h>
+#include <stdarg.h>
+#include <stdio.h>
 #include <math.h>
 #include <stddef.h>
 #include <pthread.h>
@@ -1318,9 +1320,22 @@ static plumb_status finish_stats(pass *ps, const plumb_fall_spec *base, const pl
     z->drop_height_m = base->release_m[2];
     z->max_release_speed_m_s = a->speed_max;
     z->ballistic_throw_m = a->throw_at_max;
+    z->impact_point_fixed = a->sk[PV_DX].max - a->sk[PV_DX].min <= PLUMB_ZONE_FIXED_M &&
+                            a->sk[PV_DY].max - a->sk[PV_DY].min <= PLUMB_ZONE_FIXED_M;
     z->steps = a->steps;
     z->rhs_evaluations = a->evals;
     return PLUMB_OK;
+}
+
+void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
+{
+    if (!res || res->n_warnings >= PLUMB_ZONE_MAX_WARNINGS)
+        return;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(res->warnings[res->n_warnings], PLUMB_ZONE_WARNING, fmt, ap);
+    va_end(ap);
+    res->n_warnings++;
 }
 
 /* Shared storage of both passes. */
@@ -1549,6 +1564,13 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
             in->truncated = plumb_sampler_truncated(s0, i, &in->lower, &in->upper);
             in->redraws = ps.a.redraws[i];
         }
+        if (res->zone.impact_point_fixed)
+            plumb_zone_add_warning(
+                res, "impact_point_fixed: the uncertain inputs do not move the impact point "
+                     "(every sample lands within %g mm of the same point), so the radii are "
+                     "the drift of one fall, not a zone. Give the uncertainty of the wind, "
+                     "the release point or the release velocity to size one.",
+                1e3 * PLUMB_ZONE_FIXED_M);
     }
     /* Pass 1: released where the median impact falls on the target. */
     if (st == PLUMB_OK && zone->has_target) {
