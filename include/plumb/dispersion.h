@@ -51,6 +51,7 @@
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
+#include "plumb/region.h"
 
 enum {
     PLUMB_ZONE_MAX_INPUTS = 32,    /* uncertain inputs per run */
@@ -208,6 +209,18 @@ typedef struct plumb_zone_stats {
     double drop_height_m;     /* planned release height: the "radius = height" rule, m */
     double max_release_speed_m_s; /* largest release speed sampled, m/s */
     double ballistic_throw_m; /* drag-free throw of the sample with that speed, m */
+    /* Where things land, wherever that is on the ground (region.h): the
+     * first landing_training samples fix the centre (their mean) and the
+     * density grid; the others are counted against them. */
+    size_t landing_training;  /* m = min(pilot, max(1, N / 4)) */
+    double landing_centre_m[2]; /* centre of the landing circle: mean of those m, m */
+    plumb_zone_quantile landing_radius; /* distance from that centre of the other N - m
+                                 samples at p = the zone's confidence, with its interval:
+                                 the smallest circle there holding p of the impacts */
+    double landing_circle_m;  /* landing_radius.hi + scatter_m: the landing circle with
+                                 the scatter allowance as a buffer (0 when hi_open) */
+    plumb_region_result landing; /* the polygon holding p of the impacts, with the
+                                    scatter allowance as a buffer */
     int impact_point_fixed;   /* 1: every impact lies within PLUMB_ZONE_FIXED_M of the
                                  first in east and north: the uncertainty does not move
                                  the impact point, the radii are one fall's drift */

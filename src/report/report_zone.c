@@ -319,6 +319,44 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
     put(w, "\n");
 }
 
+/* Where the impacts land: the circle around the cloud's centre and the
+ * polygon, each holding the confidence's share of impacts. */
+static void text_landing(writer *w, const plumb_zone_stats *z, double confidence, double level)
+{
+    const plumb_zone_quantile *q = &z->landing_radius;
+    const plumb_region_result *lr = &z->landing;
+    put(w, "Where %s of the impacts land, wherever that is on the ground\n", pct(w, confidence));
+    char line[512];
+    put(w, "  circle centre   %s (mean of the first %zu samples)\n",
+        t_point(w, z->landing_centre_m), z->landing_training);
+    if (q->hi_open) {
+        put(w, "  circle radius   open: more samples needed to bound it\n");
+    } else {
+        put(w, "  circle radius   %s, %s interval %s\n", t_len(w, q->value), pct(w, level),
+            t_interval(w, q, len_shown(w, 1.0), len_unit(w)));
+        put(w, "  landing circle  %s = upper bound %s + scatter %s\n",
+            t_len(w, z->landing_circle_m), t_len(w, q->hi), t_len(w, z->scatter_m));
+    }
+    if (lr->open) {
+        put(w, "  polygon         open: more samples needed to bound it\n");
+    } else {
+        put(w, "  polygon         %s in %zu part%s; with the scatter allowance as a buffer\n"
+               "                  %s\n",
+            plumbp_t_area(w, lr->polygon.area_m2),
+            lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s",
+            plumbp_t_area(w, lr->buffered.area_m2));
+    }
+    snprintf(line, sizeof line,
+             "the first %zu samples fix the centre and a density grid; the other %zu are "
+             "counted against them, so each figure holds at least %s of the impacts with %s "
+             "confidence (order statistics; split conformal for the polygon, Lei, Robins & "
+             "Wasserman 2013). The polygons are in --regions-out and --format geojson.",
+             z->landing_training, z->samples - z->landing_training, pct(w, confidence),
+             pct(w, level));
+    wrapped(w, "  ", line);
+    put(w, "\n");
+}
+
 static void text_rules(writer *w, const plumb_zone_stats *z)
 {
     put(w, "Simple rules, beside the computed radius\n");
@@ -355,6 +393,7 @@ static void text_item(writer *w, const plumb_zone_result *r)
     put(w, "\n");
     text_radii(w, z, r->ci_level, "the planned drop point");
     text_clearance(w, z, r->confidence, r->ci_level, "");
+    text_landing(w, z, r->confidence, r->ci_level);
     text_rules(w, z);
     text_energy(w, z, r->ci_level);
     text_exceedance(w, z, r->ci_level);
@@ -546,6 +585,57 @@ static json_t *jci(jctx *j, const plumb_zone_quantile *q, double off)
     return v;
 }
 
+/* A polygon's rings, each a list of [east, north] closed on its first point. */
+static json_t *j_rings(jctx *j, const plumb_region_polygon *pg)
+{
+    json_t *rings = jarr(j);
+    for (size_t r = 0; r < pg->n_rings; r++) {
+        json_t *ring = jarr(j);
+        for (size_t k = 0; k < pg->ring_count[r]; k++) {
+            const double *v = pg->vertex_m[pg->ring_first[r] + k];
+            jpush(j, ring, jpair(j, v[0], v[1]));
+        }
+        jpush(j, rings, ring);
+    }
+    return rings;
+}
+
+static json_t *j_landing(jctx *j, const plumb_zone_stats *z)
+{
+    const plumb_region_result *lr = &z->landing;
+    json_t *o = jobj(j);
+    jset(j, o, "p", jreal(j, z->landing_radius.p));
+    jset(j, o, "training_samples", jint(j, z->landing_training));
+    jset(j, o, "counted_samples", jint(j, z->samples - z->landing_training));
+    json_t *c = jobj(j);
+    jset(j, c, "centre_m", jpair(j, z->landing_centre_m[0], z->landing_centre_m[1]));
+    jset(j, c, "radius_m", jreal(j, z->landing_radius.value));
+    jset(j, c, "ci_m", jci(j, &z->landing_radius, 0.0));
+    jset(j, c, "open", json_boolean(z->landing_radius.hi_open));
+    jset(j, c, "radius_bound_m", z->landing_radius.hi_open ? json_null()
+                                                          : jreal(j, z->landing_radius.hi));
+    jset(j, c, "scatter_m", jreal(j, z->scatter_m));
+    jset(j, c, "clearance_radius_m", z->landing_radius.hi_open ? json_null()
+                                                              : jreal(j, z->landing_circle_m));
+    jset(j, o, "circle", c);
+    json_t *pg = jobj(j);
+    jset(j, pg, "method", jstr(j, "split-conformal highest-density region"));
+    jset(j, pg, "open", json_boolean(lr->open));
+    if (!lr->open) {
+        jset(j, pg, "area_m2", jreal(j, lr->polygon.area_m2));
+        jset(j, pg, "calibration_rank", jint(j, lr->rank));
+        jset(j, pg, "calibration_inside", jint(j, lr->inside));
+        jset(j, pg, "cell_m", jpair(j, lr->cell_m[0], lr->cell_m[1]));
+        jset(j, pg, "axis_bearing_deg", jreal(j, lr->axis_deg));
+        jset(j, pg, "rings_m", j_rings(j, &lr->polygon));
+        jset(j, pg, "scatter_m", jreal(j, lr->buffer_m));
+        jset(j, pg, "buffered_area_m2", jreal(j, lr->buffered.area_m2));
+        jset(j, pg, "buffered_rings_m", j_rings(j, &lr->buffered));
+    }
+    jset(j, o, "polygon", pg);
+    return o;
+}
+
 static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
 {
     jset(j, o, "release_point_m", jpair(j, z->release_m[0], z->release_m[1]));
@@ -605,6 +695,7 @@ static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
     jpush(j, md, jreal(j, z->displacement[0].value));
     jpush(j, md, jreal(j, z->displacement[1].value));
     jset(j, o, "median_displacement_m", md);
+    jset(j, o, "landing", j_landing(j, z));
     json_t *sol = jobj(j);
     jset(j, sol, "steps", jint(j, z->steps));
     jset(j, sol, "rhs_evaluations", jint(j, z->rhs_evaluations));
