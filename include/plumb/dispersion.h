@@ -318,6 +318,12 @@ typedef struct plumb_zone_report {
     size_t n_items;                   /* items[0..n), >= 1 */
     const plumb_zone_item *items;     /* borrowed */
     size_t threads;                   /* threads used (reported outside "zone") */
+    size_t kit_item;                  /* the item that sets the kit's zone: the largest
+                                         clearance radius around the planned drop point
+                                         (the first of equals); 0 for one payload */
+    size_t kit_landing_item;          /* the item with the largest landing circle */
+    int has_site;                     /* 1: site_deg is the WGS 84 site (map output) */
+    double site_deg[2];               /* latitude, longitude of east = north = 0, deg */
 } plumb_zone_report;
 
 #endif /* PLUMB_DISPERSION_H */

@@ -33,6 +33,7 @@
 #include "core/internal.h"
 #include "report/jsonout.h"
 #include "report/format.h"
+#include "report/zone_map.h"
 
 /* Significant digits of text figures; CSV digits (JSON: jsonout.h). */
 /* Width the text wraps sentences at. */
@@ -424,6 +425,34 @@ static void text_cautions(writer *w)
         wrapped(w, "  - ", c[i]);
 }
 
+/* The kit as a whole: the largest clearance radius and landing circle,
+ * and the items that set them. */
+static void text_kit(writer *w, const plumb_zone_report *rep)
+{
+    const plumb_zone_result *k = rep->items[rep->kit_item].result;
+    const plumb_zone_result *l = rep->items[rep->kit_landing_item].result;
+    put(w, "==== The kit\n\n");
+    char line[512];
+    snprintf(line, sizeof line, "%s around the planned drop point, set by %s (the item with "
+             "the largest radius; every item's zone lies within it)",
+             t_len(w, k->zone.clearance_radius_m), rep->items[rep->kit_item].name);
+    put(w, "Kit clearance radius at %s:\n", pct(w, k->confidence));
+    wrapped(w, "  ", line);
+    if (!l->zone.landing_radius.hi_open) {
+        snprintf(line, sizeof line, "largest landing circle %s (with the scatter allowance), "
+                 "set by %s", t_len(w, l->zone.landing_circle_m),
+                 rep->items[rep->kit_landing_item].name);
+        wrapped(w, "  ", line);
+    }
+    put(w, "  %-30s %-14s %s\n", "item", "clearance", "landing circle");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_zone_stats *z = &rep->items[i].result->zone;
+        put(w, "  %-30.30s %-14s %s\n", rep->items[i].name, t_len(w, z->clearance_radius_m),
+            z->landing_radius.hi_open ? "open" : t_len(w, z->landing_circle_m));
+    }
+    put(w, "\n");
+}
+
 static void text_report(writer *w, const plumb_report_options *opt, const plumb_zone_report *rep)
 {
     const plumb_zone_result *r0 = rep->items[0].result;
@@ -438,6 +467,8 @@ static void text_report(writer *w, const plumb_report_options *opt, const plumb_
             put(w, "==== %s\n\n", rep->items[i].name);
         text_item(w, rep->items[i].result);
     }
+    if (rep->inventory)
+        text_kit(w, rep);
     if (rep->profile_path)
         put(w, "Profile  %s\n", rep->profile_path);
     if (rep->profile_sha256)
@@ -499,6 +530,18 @@ static void csv_stats(writer *w, const char *item, const char *prefix, const plu
     csv_quantile(w, item, Q("radius_at_confidence"), &z->radius_conf, L, lu);
     csv_row(w, item, Q("scatter"), z->scatter_m * L, NULL, NULL, lu);
     csv_row(w, item, Q("clearance_radius"), z->clearance_radius_m * L, NULL, NULL, lu);
+    csv_row(w, item, Q("landing_centre_east"), z->landing_centre_m[0] * L, NULL, NULL, lu);
+    csv_row(w, item, Q("landing_centre_north"), z->landing_centre_m[1] * L, NULL, NULL, lu);
+    csv_quantile(w, item, Q("landing_radius"), &z->landing_radius, L, lu);
+    if (!z->landing_radius.hi_open)
+        csv_row(w, item, Q("landing_circle"), z->landing_circle_m * L, NULL, NULL, lu);
+    if (!z->landing.open) {
+        double A = L * L;
+        const char *au = w->us ? "ft2" : "m2";
+        csv_row(w, item, Q("landing_area"), z->landing.polygon.area_m2 * A, NULL, NULL, au);
+        csv_row(w, item, Q("landing_area_buffered"), z->landing.buffered.area_m2 * A, NULL, NULL,
+                au);
+    }
     for (int i = 0; i < PLUMB_ZONE_ENERGIES; i++) {
         char name[32];
         snprintf(name, sizeof name, "energy_%s", energy_names[i]);
@@ -791,6 +834,16 @@ static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zo
         }
         jset(j, root, "items", items);
         jset(j, root, "worst", jstr(j, rep->items[worst].name));
+        json_t *kit = jobj(j);
+        const plumb_zone_result *kr = rep->items[rep->kit_item].result;
+        const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
+        jset(j, kit, "clearance_radius_m", jreal(j, kr->zone.clearance_radius_m));
+        jset(j, kit, "set_by", jstr(j, rep->items[rep->kit_item].name));
+        jset(j, kit, "landing_circle_m", lr->zone.landing_radius.hi_open
+                                             ? json_null()
+                                             : jreal(j, lr->zone.landing_circle_m));
+        jset(j, kit, "landing_circle_set_by", jstr(j, rep->items[rep->kit_landing_item].name));
+        jset(j, root, "kit", kit);
     }
     jset(j, root, "cautions", j_cautions(j));
     return root;
@@ -831,6 +884,11 @@ plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt_in,
     if (opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         return emit_json(out, &j, j_report(&j, opt, rep), diag);
+    }
+    if (opt->format == PLUMB_FORMAT_GEOJSON) {
+        jctx j = {0, 0};
+        json_t *root = plumbp_zone_geojson(&j, opt, rep, &st, diag);
+        return st != PLUMB_OK ? st : emit_json(out, &j, root, diag);
     }
     writer w;
     char *buf;

@@ -322,6 +322,17 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
     s->zone.n_items = s->n_items;
     s->zone.items = s->zone_items;
     s->zone.threads = zopt.threads;
+    for (size_t i = 1; i < s->n_items; i++) {
+        if (s->zones[i].zone.clearance_radius_m > s->zones[s->zone.kit_item].zone.clearance_radius_m)
+            s->zone.kit_item = i;
+        if (s->zones[i].zone.landing_circle_m >
+            s->zones[s->zone.kit_landing_item].zone.landing_circle_m)
+            s->zone.kit_landing_item = i;
+    }
+    const plumb_zone_spec *pz = plumb_profile_zone(s->profile);
+    s->zone.has_site = pz->has_site;
+    s->zone.site_deg[0] = pz->site_deg[0];
+    s->zone.site_deg[1] = pz->site_deg[1];
     *out = &s->zone;
     return PLUMB_OK;
 }
