@@ -40,7 +40,8 @@ enum {
     CLI_UNITS = 1u << 2,     /* --units si|us */
     CLI_OUTPUT = 1u << 3,    /* -o FILE, --output FILE */
     CLI_QUIET = 1u << 4,     /* --quiet */
-    CLI_CRITERIA = 1u << 5   /* --criteria-dir DIR */
+    CLI_CRITERIA = 1u << 5,  /* --criteria-dir DIR */
+    CLI_GEOJSON = 1u << 6    /* --format geojson too (with CLI_FORMAT) */
 };
 
 /* Most values a repeatable option keeps (cli_option.max). */

@@ -34,6 +34,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/profile.h"
+#include "plumb/geodesy.h"
 #include "core/internal.h"
 #include "io/keys.h"
 #include "io/sha256.h"
@@ -120,6 +121,8 @@ static const plumby_schema velocity_keys[] = {
 static const plumby_schema position_keys[] = {
     S_NUM("east", LENGTH, ANY),
     S_NUM("north", LENGTH, ANY),
+    S_NUM("latitude", ANGLE, LATITUDE),
+    S_NUM("longitude", ANGLE, LONGITUDE),
 };
 static const plumby_schema release_keys[] = {
     S_NUM("height", LENGTH, POSITIVE),
@@ -129,6 +132,7 @@ static const plumby_schema release_keys[] = {
 static const plumby_schema site_keys[] = {
     S_NUM("elevation", LENGTH, ALTITUDE),
     S_NUM("latitude", ANGLE, LATITUDE),
+    S_NUM("longitude", ANGLE, LONGITUDE),
 };
 static const plumby_schema atm_row_keys[] = {
     S_NUM("altitude", LENGTH, ALTITUDE),
@@ -162,6 +166,8 @@ static const plumby_schema criteria_item[] = {
 static const plumby_schema target_keys[] = {
     S_NUM("east", LENGTH, ANY),
     S_NUM("north", LENGTH, ANY),
+    S_NUM("latitude", ANGLE, LATITUDE),
+    S_NUM("longitude", ANGLE, LONGITUDE),
 };
 static const plumby_schema zone_keys[] = {
     S_COUNT("samples"), S_COUNT("seed"),
@@ -1113,6 +1119,38 @@ static plumb_status read_item(const loader *L, const plumby_map *im, int is_item
     return read_descent(L, plumby_get(&L->root, "descent"), "descent", spec);
 }
 
+/* A point of `m` given as latitude and longitude instead of east and
+ * north: turned into east, north metres from the site (geodesy.h). */
+static plumb_status map_point(loader *L, const plumby_map *m, double en[2])
+{
+    const plumb_zone_spec *z = &L->p->zone;
+    int has_lat = plumby_get(m, "latitude") != NULL, has_lon = plumby_get(m, "longitude") != NULL;
+    if (!has_lat && !has_lon)
+        return PLUMB_OK;
+    plumb_status st;
+    if ((st = plumby_forbid(m, "east", "together with latitude and longitude (give one or the "
+                                       "other)")) != PLUMB_OK ||
+        (st = plumby_forbid(m, "north", "together with latitude and longitude (give one or the "
+                                        "other)")) != PLUMB_OK)
+        return st;
+    if (!has_lat || !has_lon)
+        return plumby_missing(m, has_lat ? "longitude" : "latitude",
+                              "a point on the map needs both latitude and longitude");
+    double ll[2];
+    if ((st = plumby_num(m, "latitude", 1, 0.0, &ll[0], NULL)) != PLUMB_OK ||
+        (st = plumby_num(m, "longitude", 1, 0.0, &ll[1], NULL)) != PLUMB_OK)
+        return st;
+    if (!z->has_site)
+        return plumby_raise_value(m, "latitude", PLUMB_EINVAL,
+                                  "a point given by latitude and longitude needs the site's: "
+                                  "site.latitude and site.longitude (WGS 84)");
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    if (plumb_geodesy_inverse(z->site_deg[0], z->site_deg[1], ll[0], ll[1], en, &d) != PLUMB_OK)
+        return plumby_raise_value(m, "latitude", PLUMB_EINVAL, "%s", d.message);
+    return PLUMB_OK;
+}
+
 static plumb_status read_release_site(loader *L, plumb_fall_spec *base)
 {
     plumby_map rm, vm, pm, sm;
@@ -1167,6 +1205,17 @@ static plumb_status read_release_site(loader *L, plumb_fall_spec *base)
         return st;
     base->gravity.has_latitude = has_lat;
     base->site_elevation_m = L->elevation_m;
+    int has_lon;
+    double lon;
+    if ((st = plumby_num(&sm, "longitude", 0, 0.0, &lon, &has_lon)) != PLUMB_OK)
+        return st;
+    if (has_lon && !has_lat)
+        return plumby_missing(&sm, "latitude", "a site longitude needs the site latitude too");
+    L->p->zone.has_site = has_lon;
+    L->p->zone.site_deg[0] = base->gravity.latitude_deg;
+    L->p->zone.site_deg[1] = has_lon ? lon : 0.0;
+    if ((st = map_point(L, &pm, base->release_m)) != PLUMB_OK)
+        return st;
     if (L->elevation_m + L->height_m > PLUMB_STD1976_TOP_M)
         return plumby_raise_value(&rm, "height", PLUMB_ERANGE,
                                   "the release point, %.6g m above the strike level at %.6g m "
@@ -1690,6 +1739,8 @@ static plumb_status read_zone(loader *L)
     z->samples = (size_t)samples;
     z->seed = (unsigned long)seed;
     z->has_target = tm.node != NULL;
+    if (tm.node && (plumby_get(&tm, "latitude") || plumby_get(&tm, "longitude")))
+        return map_point(L, &tm, z->target_m);
     if (tm.node && ((st = plumby_num(&tm, "east", 1, 0.0, &z->target_m[0], NULL)) != PLUMB_OK ||
                     (st = plumby_num(&tm, "north", 1, 0.0, &z->target_m[1], NULL)) != PLUMB_OK))
         return st;

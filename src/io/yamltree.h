@@ -135,6 +135,7 @@ typedef enum plumby_range {
     PLUMBY_R_UNIT,        /* 0 .. 1 */
     PLUMBY_R_UNIT_OPEN,   /* 0 < x < 1 */
     PLUMBY_R_LATITUDE,    /* -90 .. 90 deg */
+    PLUMBY_R_LONGITUDE,   /* -180 .. 180 deg */
     PLUMBY_R_ALTITUDE     /* PLUMB_STD1976_BOTTOM_M .. PLUMB_STD1976_TOP_M, the span of the 1976 atmosphere */
 } plumby_range;
 

@@ -215,6 +215,7 @@ int plumby_range_ok(plumby_range range, double v)
     case PLUMBY_R_UNIT: return v >= 0.0 && v <= 1.0;
     case PLUMBY_R_UNIT_OPEN: return v > 0.0 && v < 1.0;
     case PLUMBY_R_LATITUDE: return v >= -90.0 && v <= 90.0;
+    case PLUMBY_R_LONGITUDE: return v >= -180.0 && v <= 180.0;
     case PLUMBY_R_ALTITUDE: return v >= PLUMB_STD1976_BOTTOM_M && v <= PLUMB_STD1976_TOP_M;
     }
     return 0;
@@ -236,6 +237,7 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
         break;
     case PLUMBY_R_UNIT_OPEN: snprintf(buf, size, "> 0 and < 1"); break;
     case PLUMBY_R_LATITUDE: snprintf(buf, size, "-90%s .. 90%s", u, u); break;
+    case PLUMBY_R_LONGITUDE: snprintf(buf, size, "-180%s .. 180%s", u, u); break;
     case PLUMBY_R_ALTITUDE:
         snprintf(buf, size, "%g%s .. %g%s", PLUMB_STD1976_BOTTOM_M, u, PLUMB_STD1976_TOP_M, u);
         break;

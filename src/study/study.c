@@ -250,6 +250,18 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
     if (!s->zones || !s->zone_items)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     size_t n_u = plumb_profile_uncertainty_count(s->profile);
+    /* Without uncertain inputs every sample is the same fall: its drift
+     * would be printed as a clearance radius. Refused, with an example. */
+    if (n_u == 0)
+        return PLUMB_RAISE_AT(
+            diag, PLUMB_EINVAL, plumb_profile_path(s->profile), 0, 0, "uncertainty",
+            "a zone needs the uncertainty of the inputs, and the profile has no `uncertainty:` "
+            "map, so every sample would be the same fall. Add one, for example:\n"
+            "  uncertainty:\n"
+            "    wind.speed: {normal: [5 m/s, 1.5 m/s]}\n"
+            "    wind.from: \"270 deg +- 20 deg\"\n"
+            "    release.position.east: {normal: [0 m, 1 m]}\n"
+            "    release.position.north: {normal: [0 m, 1 m]}");
     plumb_uncertainty *unc = calloc(n_u ? n_u : 1, sizeof *unc);
     if (!unc)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
@@ -265,6 +277,8 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
         memset(&probe, 0, sizeof probe);
         probe.spec = spec;
         probe.shape = plumb_profile_item_shape(s->profile, i);
+        /* no fall yet: nothing to say of Mach, Reynolds or a device opening */
+        probe.result.n_deployed = spec->n_descent;
         st = plumb_item_judge(&probe, s->profile, s->criteria, s->atm, diag);
         const plumb_criterion *clist[PLUMB_MAX_VERDICTS];
         for (size_t k = 0; st == PLUMB_OK && k < probe.n_verdicts; k++)
@@ -274,6 +288,10 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
         if (st == PLUMB_OK)
             st = plumb_zone_run(spec, s->atm, unc, n_u, zone, clist, probe.n_verdicts, &zopt,
                                 &s->zones[i], diag);
+        /* the notes that qualify the criteria (a helmet test energy is not a
+         * safe limit; a drag table used beyond its range), as plumb fall gives */
+        for (size_t k = 0; st == PLUMB_OK && k < probe.n_warnings; k++)
+            plumb_zone_add_warning(&s->zones[i], "%s", probe.warnings[k]);
         if (st != PLUMB_OK && diag) {
             if (diag->file[0] == '\0')
                 plumbp_strlcpy(diag->file, plumb_profile_path(s->profile), sizeof diag->file);
@@ -304,6 +322,17 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
     s->zone.n_items = s->n_items;
     s->zone.items = s->zone_items;
     s->zone.threads = zopt.threads;
+    for (size_t i = 1; i < s->n_items; i++) {
+        if (s->zones[i].zone.clearance_radius_m > s->zones[s->zone.kit_item].zone.clearance_radius_m)
+            s->zone.kit_item = i;
+        if (s->zones[i].zone.landing_circle_m >
+            s->zones[s->zone.kit_landing_item].zone.landing_circle_m)
+            s->zone.kit_landing_item = i;
+    }
+    const plumb_zone_spec *pz = plumb_profile_zone(s->profile);
+    s->zone.has_site = pz->has_site;
+    s->zone.site_deg[0] = pz->site_deg[0];
+    s->zone.site_deg[1] = pz->site_deg[1];
     *out = &s->zone;
     return PLUMB_OK;
 }
