@@ -11,6 +11,7 @@
 
 #include "plumb/study.h"
 #include "core/internal.h"
+#include "study/study_internal.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -101,6 +102,16 @@ const plumb_profile *plumb_study_profile(const plumb_study *s)
 const plumb_atmosphere *plumb_study_atmosphere(const plumb_study *s)
 {
     return s->atm;
+}
+
+const plumb_units *plumbp_study_units(const plumb_study *s)
+{
+    return s->units;
+}
+
+plumb_trajectory *plumbp_study_trajectory(plumb_study *s)
+{
+    return s->traj;
 }
 
 /* Points a failed item's diagnostic at the profile and, for an inventory,
