@@ -155,6 +155,11 @@ plumb_status plumb_study_sweep(plumb_study *s, const plumb_range *axes, size_t n
                                     progress, user, out, diag);
 }
 
+plumb_status plumb_study_sweep_boundaries(plumb_study *s, plumb_sweep *sweep, plumb_diag *diag)
+{
+    return plumb_sweep_find_boundaries(sweep, s->profile, s->units, s->traj, diag);
+}
+
 static plumb_status at_option(plumb_diag *diag, plumb_status st, const char *option)
 {
     if (diag) {

@@ -279,6 +279,14 @@ check(rc == 2 and no_leftovers(d), f"too few samples for the confidence: exit {r
 rc, _, err = run("sheet", DRONE, "-o", os.path.join(d, "no", "such", "dir.pdf"), "--samples",
                  "1000")
 check(rc == 3 and "plumb:" in err and no_leftovers(d), f"unwritable output: exit {rc} (want 3)")
+# no fonts at all (an empty fontconfig configuration): exit 3, a clear message
+conf = os.path.join(tmp, "empty.conf")
+with open(conf, "w") as f:
+    f.write('<?xml version="1.0"?>\n<!DOCTYPE fontconfig SYSTEM "fonts.dtd">\n<fontconfig></fontconfig>\n')
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "1000", env={"FONTCONFIG_FILE": conf})
+check(rc == 3 and "DejaVu Sans" in err and no_leftovers(d),
+      f"no font: exit {rc} (want 3), message {err.strip()[-120:]!r}")
+os.remove(conf)
 os.rmdir(d)
 
 os.remove(pdf)
