@@ -39,12 +39,16 @@ EPOCH = "1767225600"  # 2026-01-01 00:00:00 UTC
 # The sheet's margin is 15 mm; a text box or a dark pixel closer than
 # 14 mm to the edge is outside it (1 mm for rounding of the boxes).
 MARGIN_PT = 14.0 * 72.0 / 25.4
+# Under the sanitizer build: fontconfig's process-long caches are not leaks
+# of ours (tests/lsan.supp says why).
+SUPP = "suppressions=" + os.path.join(ROOT, "tests/lsan.supp") + ":print_suppressions=0"
 
 tmp = tempfile.mkdtemp(prefix="plumb-sheet.", dir=os.environ.get("TMPDIR"))
 
 
 def run(*args, env=None):
-    e = dict(os.environ, LC_ALL="C", SOURCE_DATE_EPOCH=EPOCH)
+    e = dict(os.environ, LC_ALL="C", SOURCE_DATE_EPOCH=EPOCH,
+             LSAN_OPTIONS=SUPP + ":" + os.environ.get("LSAN_OPTIONS", ""))
     if env:
         e.update(env)
     r = subprocess.run([PLUMB, *args], capture_output=True, text=True, env=e, timeout=300)
