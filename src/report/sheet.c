@@ -324,7 +324,7 @@ static void section_header(sheet_doc *d, const plumb_brief *b)
     const plumb_zone_result *z = b->zone ? b->zone->items[b->zone_item].result : NULL;
     const char *prog = sheet_fmt(d, "plumb %s", d->opt->version ? d->opt->version : "");
     const char *seed = z ? sheet_fmt(d, "%lu, %zu samples", z->seed, z->samples)
-                         : sheet_fmt(d, "none: %s", b->no_zone);
+                         : "none (no clearance zone)";
     field(d, d->left, d->y, half, "Program:", prog, 0);
     field(d, d->left + half + 12.0, d->y, half, "Seed:", seed, 0);
     d->y += row;

@@ -83,6 +83,7 @@ void sheet_stroke(sheet_doc *d, sheet_line style, double width);
 typedef struct sheet_axes {
     double x, y, w, h;
     double x0, x1, y0, y1;      /* value ranges shown */
+    int ylog;                   /* 1: y on a logarithmic scale (y0 > 0) */
 } sheet_axes;
 double sheet_ax_x(const sheet_axes *a, double v);
 double sheet_ax_y(const sheet_axes *a, double v);

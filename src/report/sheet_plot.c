@@ -20,6 +20,9 @@
 #define AX_RIGHT 8.0
 #define TICK 3.0
 #define LEGEND_LINE 22.0
+/* The energy axis is logarithmic when the largest energy shown is more
+ * than this many times the lowest limit. */
+#define LOG_RATIO 8.0
 
 double sheet_ax_x(const sheet_axes *a, double v)
 {
@@ -28,6 +31,8 @@ double sheet_ax_x(const sheet_axes *a, double v)
 
 double sheet_ax_y(const sheet_axes *a, double v)
 {
+    if (a->ylog) /* below the axis for v <= 0: the caller clips */
+        return a->y + a->h - (v > 0.0 ? log10(v / a->y0) / log10(a->y1 / a->y0) : -1.0) * a->h;
     return a->y + a->h - (v - a->y0) / (a->y1 - a->y0) * a->h;
 }
 
@@ -69,7 +74,27 @@ void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, cons
         cairo_set_source_rgb(cr, 0, 0, 0);
         sheet_text_at(d, px, a->y + a->h + TICK + 1.0, 2, font, tick_text(d, v, sx));
     }
-    for (double v = ceil(a->y0 / sy) * sy; v <= a->y1 + sy * 1e-9; v += sy) {
+    double ylog_ticks[64];
+    size_t n_yt = 0;
+    if (a->ylog) /* 1, 2, 5 times each power of ten in the range */
+        for (double dec = pow(10.0, floor(log10(a->y0))); dec <= a->y1 && n_yt < 60; dec *= 10.0)
+            for (int m = 0; m < 3; m++) {
+                double v = dec * (m == 0 ? 1.0 : m == 1 ? 2.0 : 5.0);
+                if (v >= a->y0 * (1.0 - 1e-9) && v <= a->y1 * (1.0 + 1e-9))
+                    ylog_ticks[n_yt++] = v;
+            }
+    for (size_t t = 0;; t++) {
+        double v;
+        if (a->ylog) {
+            if (t >= n_yt)
+                break;
+            v = ylog_ticks[t];
+            sy = v < 1.0 ? pow(10.0, floor(log10(v))) : 1.0;
+        } else {
+            v = ceil(a->y0 / sy) * sy + (double)t * sy;
+            if (v > a->y1 + sy * 1e-9)
+                break;
+        }
         double py = sheet_ax_y(a, v);
         cairo_move_to(cr, a->x - TICK, py);
         cairo_line_to(cr, a->x, py);
@@ -148,7 +173,7 @@ double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, d
     }
     double legend_h = 34.0 + (pl->n_deploy ? 12.0 : 0.0);
     sheet_axes a = {x + AX_LEFT, y + AX_TOP, w - AX_LEFT - AX_RIGHT, h - AX_TOP - AX_BOTTOM - legend_h,
-                    dmin * ls, dmax * ls, 0.0, zmax * 1.05 * ls};
+                    dmin * ls, dmax * ls, 0.0, zmax * 1.05 * ls, 0};
     double pad = 0.04 * (a.x1 - a.x0);
     a.x0 -= pad;
     a.x1 += pad;
@@ -210,12 +235,25 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         }
     for (size_t k = 0; k < b->n_criteria; k++)
         emax = fmax(emax, b->criteria[k]->energy_limit_j);
+    double lmin = emax;
+    for (size_t k = 0; k < b->n_criteria; k++)
+        lmin = fmin(lmin, b->criteria[k]->energy_limit_j);
+    /* limits far below the energies: a logarithmic energy axis, so the
+     * lines and where the curves cross them can be read */
+    int ylog = b->n_criteria > 0 && emax > LOG_RATIO * lmin;
     size_t n_leg = b->n_plots + 2;
-    double legend_h = 11.0 * (double)n_leg + 6.0;
+    double legend_h = 11.0 * (double)n_leg + 6.0 + (ylog ? 11.0 : 0.0);
     sheet_axes a = {x + AX_LEFT, y + AX_TOP, w - AX_LEFT - AX_RIGHT, h - AX_TOP - AX_BOTTOM - legend_h,
-                    0.0, hmax * ls, 0.0, emax * 1.12 * es};
+                    0.0, hmax * ls, 0.0, emax * 1.12 * es, ylog};
+    if (ylog) {
+        a.y0 = pow(10.0, floor(log10(lmin * es / 4.0)));
+        /* the top: the next 1, 2 or 5 times a power of ten */
+        double top = emax * es * 1.05, dec = pow(10.0, floor(log10(top)));
+        a.y1 = top <= dec ? dec : top <= 2.0 * dec ? 2.0 * dec : top <= 5.0 * dec ? 5.0 * dec
+                                                                               : 10.0 * dec;
+    }
     sheet_draw_axes(d, &a, sheet_fmt(d, "drop height above the strike level, %s", lu),
-                    sheet_fmt(d, "impact energy, %s", eu));
+                    sheet_fmt(d, "impact energy, %s%s", eu, ylog ? " (logarithmic scale)" : ""));
     char font[64], bold[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.0);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, 8.0);
@@ -228,7 +266,7 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         const plumb_brief_plot *pl = &b->plots[p];
         int pen = 0;
         for (size_t i = 0; i < pl->n_curve; i++) {
-            if (!pl->curve_ok[i]) {
+            if (!pl->curve_ok[i] || (a.ylog && !(pl->curve_e_j[i] > 0.0))) {
                 pen = 0;
                 continue;
             }
@@ -242,50 +280,70 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         sheet_stroke(d, item_styles[p], p == 0 ? 1.8 : 1.1);
     }
     cairo_restore(d->cr);
-    /* each criterion: a horizontal line with its name and where it is reached */
+    /* each criterion: a horizontal line with its name and where it is
+     * reached; labels from the lowest line up, each at least a line above
+     * the one below it so none overlaps another */
     const plumb_brief_plot *w0 = &b->plots[0];
-    double last_label = -1e9, mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
-    size_t n_marks = 0;
-    for (size_t k = 0; k < b->n_criteria; k++) {
-        const plumb_criterion *c = b->criteria[k];
-        double py = sheet_ax_y(&a, c->energy_limit_j * es);
+    double mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
+    size_t n_marks = 0, byy[PLUMB_MAX_VERDICTS];
+    for (size_t k = 0; k < b->n_criteria; k++)
+        byy[k] = k;
+    for (size_t k = 1; k < b->n_criteria; k++) /* by limit, lowest first */
+        for (size_t j = k; j > 0 && b->criteria[byy[j]]->energy_limit_j <
+                                        b->criteria[byy[j - 1]]->energy_limit_j; j--) {
+            size_t t = byy[j];
+            byy[j] = byy[j - 1];
+            byy[j - 1] = t;
+        }
+    for (size_t q = 0; q < b->n_criteria; q++) { /* every line first, then the words */
+        double py = sheet_ax_y(&a, b->criteria[q]->energy_limit_j * es);
         cairo_move_to(d->cr, a.x, py);
         cairo_line_to(d->cr, a.x + a.w, py);
         sheet_stroke(d, SHEET_DASHED, 0.8);
+    }
+    double below = a.y + a.h + 1.0; /* the top of the label below */
+    for (size_t q = 0; q < b->n_criteria; q++) {
+        const plumb_criterion *c = b->criteria[byy[q]];
+        double py = sheet_ax_y(&a, c->energy_limit_j * es);
         const char *where = "";
-        for (size_t v = 0; v < w0->n_limits; v++) {
-            const plumb_item_report *it = &b->fall->items[w0->item];
-            if (v < it->n_verdicts && it->verdicts[v].criterion == c) {
-                const plumb_limit_result *r = &w0->limits[v];
-                if (r->outcome == PLUMB_LIMIT_FOUND) {
-                    where = sheet_fmt(d, ", reached at %s", plumbp_t_len(P, r->value_si));
-                    if (r->value_si * ls <= a.x1 && n_marks < PLUMB_MAX_VERDICTS) {
-                        mark_x[n_marks] = sheet_ax_x(&a, r->value_si * ls);
-                        mark_y[n_marks++] = py;
-                    }
-                } else if (r->outcome == PLUMB_LIMIT_UNLIMITED) {
-                    where = ", not reached at any height";
-                } else if (r->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
-                    where = ", exceeded at every height";
+        const plumb_item_report *it = &b->fall->items[w0->item];
+        for (size_t v = 0; v < w0->n_limits && v < it->n_verdicts; v++) {
+            if (it->verdicts[v].criterion != c)
+                continue;
+            const plumb_limit_result *r = &w0->limits[v];
+            if (r->outcome == PLUMB_LIMIT_FOUND) {
+                where = sheet_fmt(d, ", reached at %s", plumbp_t_len(P, r->value_si));
+                if (r->value_si * ls <= a.x1 && n_marks < PLUMB_MAX_VERDICTS) {
+                    mark_x[n_marks] = sheet_ax_x(&a, r->value_si * ls);
+                    mark_y[n_marks++] = py;
                 }
+            } else if (r->outcome == PLUMB_LIMIT_UNLIMITED) {
+                where = ", not reached at any height";
+            } else if (r->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
+                where = ", exceeded at every height";
             }
         }
         const char *label =
             sheet_fmt(d, "\x02%s: %s%s", sheet_esc(d, c->id),
                       sheet_fmt(d, "%s", plumbp_t_energy(P, c->energy_limit_j)), where);
-        double ty = py - 10.0;
-        if (ty > last_label - 10.0 && ty < last_label + 10.0)
-            ty = last_label - 10.0; /* two limits close together: keep the labels apart */
+        double lh = 10.0, ty = py - lh;
+        if (ty > below - lh)
+            ty = below - lh;
         if (ty < a.y + 1.0)
-            ty = py + 1.5;
-        /* a white ground so the grid does not cross the words */
+            ty = a.y + 1.0;
+        below = ty;
+        /* a white ground so the grid and curves do not cross the words */
         double tw = sheet_text_width(d, bold, label);
         cairo_set_source_rgb(d->cr, 1, 1, 1);
-        cairo_rectangle(d->cr, a.x + 4.0, ty, tw + 2.0, 8.5);
+        cairo_rectangle(d->cr, a.x + 30.0, ty, tw + 2.0, lh - 0.5);
         cairo_fill(d->cr);
         cairo_set_source_rgb(d->cr, 0, 0, 0);
-        sheet_text_at(d, a.x + 5.0, ty, 0, bold, label);
-        last_label = ty;
+        sheet_text_at(d, a.x + 31.0, ty, 0, bold, label);
+        if (ty + lh < py - 1.0) { /* moved up: a leader down to its line */
+            cairo_move_to(d->cr, a.x + 27.0, ty + lh / 2.0);
+            cairo_line_to(d->cr, a.x + 27.0, py);
+            sheet_stroke(d, SHEET_SOLID, 0.5);
+        }
     }
     /* where the first curve reaches each limit, over the labels */
     for (size_t k = 0; k < n_marks; k++) {
@@ -306,10 +364,11 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     const char *pl_text = sheet_fmt(d, "planned %s", plumbp_t_len(P, hp));
     double tw = sheet_text_width(d, font, pl_text);
     cairo_set_source_rgb(d->cr, 1, 1, 1);
-    cairo_rectangle(d->cr, px + 2.0, a.y + a.h - 11.0, tw + 2.0, 9.0);
+    double tx = px + 3.0 + tw + 4.0 > a.x + a.w ? px - tw - 5.0 : px + 2.0;
+    cairo_rectangle(d->cr, tx, a.y + 2.0, tw + 2.0, 9.0);
     cairo_fill(d->cr);
     cairo_set_source_rgb(d->cr, 0, 0, 0);
-    sheet_text_at(d, px + 3.0, a.y + a.h - 11.0, 0, font, pl_text);
+    sheet_text_at(d, tx + 1.0, a.y + 2.0, 0, font, pl_text);
     /* the legend */
     double ly = a.y + a.h + AX_BOTTOM;
     for (size_t p = 0; p < b->n_plots; p++) {
@@ -322,5 +381,9 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
                  "each criterion's energy limit, named on the line; a circle where the "
                  "first curve reaches it (plumb limit --find release.height)");
     ly += legend(d, x, ly, w, SHEET_DOTTED, 1.2, "the planned drop height");
+    if (ylog)
+        ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
+                         "The energy axis is logarithmic: each step up is ten times the energy.",
+                         1) + 1.5;
     return ly - y + 4.0;
 }

@@ -172,9 +172,15 @@ static plumb_status make_curve(plumb_study *study, const plumb_item_report *it, 
             top = LIMIT_MARGIN * r->value_si;
     }
     pl->n_curve = PLUMB_BRIEF_CURVE;
-    for (size_t i = 0; i < PLUMB_BRIEF_CURVE; i++) {
+    /* from zero height, where the impact energy is the release's kinetic
+     * energy 1/2 m |v0|^2 (no fall, nothing to integrate) */
+    const double *v0 = it->spec->velocity_m_s;
+    pl->curve_h_m[0] = 0.0;
+    pl->curve_e_j[0] = 0.5 * it->spec->mass_kg * (v0[0] * v0[0] + v0[1] * v0[1] + v0[2] * v0[2]);
+    pl->curve_ok[0] = 1;
+    for (size_t i = 1; i < PLUMB_BRIEF_CURVE; i++) {
         plumb_fall_spec s = *it->spec;
-        double h = top * (double)(i + 1) / (double)PLUMB_BRIEF_CURVE;
+        double h = top * (double)i / (double)(PLUMB_BRIEF_CURVE - 1);
         double *f = plumb_fall_spec_field(&s, "release.height");
         pl->curve_h_m[i] = h;
         if (!f) {
