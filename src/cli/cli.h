@@ -211,5 +211,6 @@ int cmd_lint(int argc, char **argv);
 int cmd_sweep(int argc, char **argv);
 int cmd_limit(int argc, char **argv);
 int cmd_zone(int argc, char **argv);
+int cmd_sheet(int argc, char **argv);
 
 #endif /* PLUMB_CLI_H */

@@ -92,6 +92,9 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         st = plumb_study_sweep(cs.study, axes, n_vary, timed ? estimate : NULL, &e, &sweep,
                                &diag);
     }
+    /* the text of a two-way sweep is its boundary: where each limit is reached */
+    if (st == PLUMB_OK && n_vary == 2 && a->format == PLUMB_FORMAT_TEXT)
+        st = plumb_study_sweep_boundaries(cs.study, sweep, &diag);
     int rc;
     if (st == PLUMB_OK) {
         sweep_job job = {cli_report_options(a), sweep};

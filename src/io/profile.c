@@ -174,8 +174,13 @@ static const plumby_schema zone_keys[] = {
     S_NUM("confidence", FRACTION, UNIT_OPEN), S_NUM("scatter", LENGTH, NONNEG),
     S_MAP("target", target_keys),
 };
+static const plumby_schema job_keys[] = {
+    S_TEXT("title"),       S_TEXT("site"),       S_TEXT("reference"),
+    S_TEXT("prepared_by"), S_TEXT("checked_by"),
+};
 static const plumby_schema root_keys[] = {
     S_TEXT("name"),
+    S_MAP("job", job_keys),
     S_MAP("payload", payload_keys),
     S_LIST("items", item_item),
     S_MAP_OR_LIST("descent", descent_keys),
@@ -209,6 +214,7 @@ struct plumb_profile {
     size_t n_unc;
     plumb_uncertainty *unc;
     plumb_zone_spec zone;
+    plumb_job job;                   /* `job:`, "" where not given */
 };
 
 void plumb_profile_free(plumb_profile *p)
@@ -1747,6 +1753,23 @@ static plumb_status read_zone(loader *L)
     return PLUMB_OK;
 }
 
+/* The optional `job:` map: who and what the calculation is for. */
+static plumb_status read_job(loader *L)
+{
+    plumb_job *j = &L->p->job;
+    plumby_map jm;
+    plumb_status st;
+    plumby_sub(&L->root, "job", &jm);
+    if ((st = plumby_text(&jm, "title", "", j->title, sizeof j->title)) != PLUMB_OK ||
+        (st = plumby_text(&jm, "site", "", j->site, sizeof j->site)) != PLUMB_OK ||
+        (st = plumby_text(&jm, "reference", "", j->reference, sizeof j->reference)) != PLUMB_OK ||
+        (st = plumby_text(&jm, "prepared_by", "", j->prepared_by, sizeof j->prepared_by)) !=
+            PLUMB_OK ||
+        (st = plumby_text(&jm, "checked_by", "", j->checked_by, sizeof j->checked_by)) != PLUMB_OK)
+        return st;
+    return PLUMB_OK;
+}
+
 static plumb_status interpret(loader *L)
 {
     plumb_profile *p = L->p;
@@ -1804,7 +1827,7 @@ static plumb_status interpret(loader *L)
         }
     }
     if ((st = read_criteria(L)) != PLUMB_OK || (st = read_uncertainty(L)) != PLUMB_OK ||
-        (st = read_zone(L)) != PLUMB_OK)
+        (st = read_zone(L)) != PLUMB_OK || (st = read_job(L)) != PLUMB_OK)
         return st;
     return PLUMB_OK;
 }
@@ -1974,6 +1997,8 @@ const plumb_uncertainty *plumb_profile_uncertainty(const plumb_profile *p, size_
 }
 
 const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p) { return p ? &p->zone : NULL; }
+
+const plumb_job *plumb_profile_job(const plumb_profile *p) { return p ? &p->job : NULL; }
 
 /* ---- fields of a fall spec --------------------------------------------- */
 

@@ -271,6 +271,78 @@ static void row_error_text(const plumb_sweep_row *row, char *buf, size_t size)
     plumb_diag_format(&row->error, buf, size);
 }
 
+/* A two-way sweep as its boundary: for each value of the first input and
+ * each criterion, the value of the second at which the limit is reached
+ * (plumb_sweep_find_boundaries). The full figures are in CSV and JSON. */
+static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const plumb_range *a1,
+                                 int *beyond)
+{
+    if (!b || b->status != PLUMB_OK)
+        return "-";
+    switch (b->outcome) {
+    case PLUMB_LIMIT_FOUND: {
+        char *c = slot(w);
+        double lo = a1->from < a1->to ? a1->from : a1->to, hi = a1->from < a1->to ? a1->to : a1->from;
+        int out = b->value < lo || b->value > hi;
+        *beyond |= out;
+        snprintf(c, NUMBUF, "%s %s%s", b->limit_is_upper_bound ? "up to" : "from",
+                 plumbp_gnum(w, b->value, 4), out ? "*" : "");
+        return c;
+    }
+    case PLUMB_LIMIT_UNLIMITED: return "never reached";
+    case PLUMB_LIMIT_IMPOSSIBLE: return "exceeded throughout";
+    default: return "n/a";
+    }
+}
+
+static void text_boundary(writer *w, const plumb_sweep *sw)
+{
+    const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
+    size_t nc = plumb_sweep_boundary_criteria(sw);
+    if (nc == 0) {
+        put(w, "\nNo boundary was computed; every figure is in --format csv or json.\n");
+        return;
+    }
+    const plumb_sweep_row *r0 = first_computed_row(sw);
+    int inv = r0->report.n_items > 1;
+    char text[PLUMB_NAME + PLUMB_DIAG_KEY * 2 + 3 * PLUMB_UNIT_TEXT + 320];
+    snprintf(text, sizeof text,
+             "Where each limit is reached%s%s%s: the %s%s%s%s at which the impact energy "
+             "equals the criterion's limit, for each %s%s%s%s (plumb limit's solver); within "
+             "the limit up to or from that value.",
+             inv ? " (the item with the highest energy, " : "",
+             inv ? r0->report.items[plumb_sweep_boundary_item(sw)].spec->name : "", inv ? ")" : "",
+             a1->key, a1->unit[0] ? " (" : "", unit_shown(w, a1->unit), a1->unit[0] ? ")" : "",
+             a0->key, a0->unit[0] ? " (" : "", unit_shown(w, a0->unit), a0->unit[0] ? ")" : "");
+    put(w, "\n");
+    wrapped(w, "", text);
+    size_t wk = shown_width(a0->key) > SWEEP_KEY_COL ? shown_width(a0->key) : SWEEP_KEY_COL;
+    size_t wc[PLUMB_MAX_VERDICTS];
+    pad(w, a0->key, wk, 1);
+    for (size_t k = 0; k < nc; k++) {
+        const char *id = plumb_sweep_boundary_criterion(sw, k)->id;
+        wc[k] = shown_width(id) > 19 ? shown_width(id) : 19;
+        pad(w, id, wc[k] + SWEEP_GAP, 1);
+    }
+    put(w, "\n");
+    int missing = 0, beyond = 0;
+    for (size_t i = 0; i < a0->n; i++) {
+        pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), wk, 1);
+        for (size_t k = 0; k < nc; k++) {
+            const plumb_sweep_boundary *b = plumb_sweep_boundary_at(sw, i, k);
+            missing |= !b || b->status != PLUMB_OK;
+            pad(w, boundary_cell(w, b, a1, &beyond), wc[k] + SWEEP_GAP, 1);
+        }
+        put(w, "\n");
+    }
+    if (beyond)
+        put(w, "  * = beyond the range swept (%s to %s)\n", plumbp_gnum(w, a1->from, 8),
+            plumbp_gnum(w, a1->to, 8));
+    if (missing)
+        put(w, "  - = no answer at that value (the value is refused or a fall fails there)\n");
+    put(w, "Every row's figures are in --format csv and --format json.\n");
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
@@ -416,41 +488,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         k0 = k1;
     }
-    if (na == 2) {
-        /* the energy of the worst item, as a matrix */
-        const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
-        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded%s\n",
-            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key,
-            n_failed ? ", - = not computed" : "");
-        pad(w, "", SWEEP_KEY_COL, 1);
-        for (size_t j = 0; j < a1->n; j++)
-            pad(w, plumbp_gnum(w, plumb_range_value(a1, j), 6), 9, 1);
-        put(w, "\n");
-        for (size_t i = 0; i < a0->n; i++) {
-            pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), SWEEP_KEY_COL, 1);
-            for (size_t j = 0; j < a1->n; j++) {
-                const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * a1->n + j);
-                if (row->status != PLUMB_OK) {
-                    pad(w, "-", 9, 1);
-                    continue;
-                }
-                double e = 0.0;
-                int ex = 0;
-                for (size_t it = 0; it < row->report.n_items; it++) {
-                    const plumb_item_report *item = &row->report.items[it];
-                    if (item->result.energy_j > e)
-                        e = item->result.energy_j;
-                    for (size_t k = 0; k < item->n_verdicts; k++)
-                        ex |= item->verdicts[k].exceeds;
-                }
-                char cell[NUMBUF + 2];
-                snprintf(cell, sizeof cell, "%s%s", num(w, w->us ? e / PLUMB_FT_LBF_J : e, 4),
-                         ex ? "!" : "");
-                pad(w, cell, 9, 1);
-            }
-            put(w, "\n");
-        }
-    }
+    if (na == 2)
+        text_boundary(w, sw);
     if (n_failed) {
         put(w, "\nRows not computed (%zu of %zu)\n", n_failed, nr);
         size_t k = 0;

@@ -11,6 +11,7 @@
 
 #include "plumb/study.h"
 #include "core/internal.h"
+#include "study/study_internal.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -103,6 +104,16 @@ const plumb_atmosphere *plumb_study_atmosphere(const plumb_study *s)
     return s->atm;
 }
 
+const plumb_units *plumbp_study_units(const plumb_study *s)
+{
+    return s->units;
+}
+
+plumb_trajectory *plumbp_study_trajectory(plumb_study *s)
+{
+    return s->traj;
+}
+
 /* Points a failed item's diagnostic at the profile and, for an inventory,
  * at the item, counted from 1 as the reports count. */
 static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item)
@@ -142,6 +153,11 @@ plumb_status plumb_study_sweep(plumb_study *s, const plumb_range *axes, size_t n
 {
     return plumb_sweep_run_progress(s->profile, s->units, s->criteria, axes, n_axes, s->traj,
                                     progress, user, out, diag);
+}
+
+plumb_status plumb_study_sweep_boundaries(plumb_study *s, plumb_sweep *sweep, plumb_diag *diag)
+{
+    return plumb_sweep_find_boundaries(sweep, s->profile, s->units, s->traj, diag);
 }
 
 static plumb_status at_option(plumb_diag *diag, plumb_status st, const char *option)
