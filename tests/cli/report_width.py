@@ -56,6 +56,12 @@ for prof in DEMO:
                              "--set", ALL_CRITERIA, "--units", units)
         check(rc == 0 and not wide(out),
               f"sweep {name} --units {units}, all criteria: exit {rc} {err.strip()} {wide(out)[:3]}")
+        rc2, out2, err2 = plumb("sweep", prof, "--vary", "release.height=5m:25m:10m",
+                                "--vary", ("items[1].mass" if "kit" in name else "payload.mass") + "=0.1kg:0.3kg:0.1kg",
+                                "--set", ALL_CRITERIA, "--units", units)
+        check(rc2 in (0, 3) and out2 and not wide(out2),
+              f"two-way sweep {name} --units {units}, all criteria: exit {rc2} "
+              f"{err2.strip()[:200]} {wide(out2)[:3]}")
         verdicts = sum(l.count("EXCEEDS") + l.count("within") for l in out.splitlines())
         ncrit = ALL_CRITERIA.count(",") + 1
         check(verdicts >= ncrit * 3,
@@ -83,6 +89,10 @@ try:
                              "--units", units)
         check(rc == 0 and not wide(out) and "~" not in out,
               f"sweep long names --units {units}: exit {rc}, wide {wide(out)[:3]}, cut {'~' in out}")
+        rc, out2, err = plumb("sweep", path, "--vary", "release.height=10m:40m:10m",
+                              "--vary", "wind.speed=0kn:20kn:10kn", "--units", units)
+        check(rc == 0 and not wide(out2) and "~" not in out2,
+              f"two-way sweep long names --units {units}: exit {rc}, wide {wide(out2)[:3]}")
         # in each table the item column: a line with figures after the name
         # starts an item, a line with only a name continues it
         names, cur, col = [], None, None
