@@ -242,6 +242,7 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
     char how[NUMBUF * 4];
     if (d->model == PLUMB_DRAG_SPHERE_MORRISON || d->model == PLUMB_DRAG_SPHERE_CGW) {
         const plumb_fall_result *r = &it->result;
+        shape[0] = '\0'; /* the sphere is named once, with its drag law */
         snprintf(how, sizeof how, "sphere of diameter %s, Cd(Re) by %s; Re %s to %s on the way",
                  plumbp_t_len(w, d->diameter_m),
                  d->model == PLUMB_DRAG_SPHERE_CGW ? "Clift, Grace & Weber (1978)"

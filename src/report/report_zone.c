@@ -584,9 +584,10 @@ static void csv_report(writer *w, const plumb_zone_report *rep)
     const plumb_zone_result *r0 = rep->items[0].result;
     put(w, "# profile: %s (%s), sha256 %s\n", rep->profile_name ? rep->profile_name : "",
         rep->profile_path ? rep->profile_path : "", rep->profile_sha256 ? rep->profile_sha256 : "");
-    put(w, "# zone: %zu samples, seed %lu, confidence %s, intervals at %s, %zu threads (the "
-           "figures do not depend on them)\n", r0->samples, r0->seed, csvnum(w, r0->confidence),
-        csvnum(w, r0->ci_level), rep->threads);
+    put(w, "# zone: %zu samples, seed %lu, confidence %s, intervals at %s, %zu thread%s (the "
+           "figures do not depend on the number)\n", r0->samples, r0->seed,
+        csvnum(w, r0->confidence), csvnum(w, r0->ci_level), rep->threads,
+        rep->threads == 1 ? "" : "s");
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;

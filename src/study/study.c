@@ -7,6 +7,7 @@
  */
 #include <stdio.h>
 #include <stdlib.h>
+#include <ctype.h>
 #include <string.h>
 
 #include "plumb/study.h"
@@ -190,7 +191,16 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
     double x = 0.0;
     plumb_status st = plumb_units_parse(s->units, text, dim, &x, diag);
     if (st != PLUMB_OK) {
-        static const char more[] = " (or a criterion's name)";
+        /* no number: perhaps a criterion's id mistyped ("en397-shock") */
+        int id_like = metric == PLUMB_METRIC_ENERGY && !isdigit((unsigned char)text[0]) &&
+                      strchr(text, '-') && !strpbrk(text, " \t");
+        const plumb_criterion *near = id_like ? plumb_criteria_nearest(s->criteria, text) : NULL;
+        if (near)
+            return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, option,
+                                  "'%s' is neither an energy with its unit nor a criterion's "
+                                  "id; did you mean %s?",
+                                  text, near->id);
+        static const char more[] = " (or a criterion's id)";
         size_t len = diag ? strlen(diag->message) : 0;
         if (diag && metric == PLUMB_METRIC_ENERGY && len + sizeof more <= sizeof diag->message)
             memcpy(diag->message + len, more, sizeof more);
