@@ -833,9 +833,12 @@ static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zo
     jset(j, root, "seed", r0->seed <= (unsigned long)LLONG_MAX ? json_integer((json_int_t)r0->seed)
                                                              : (j->bad = 1, json_null()));
     /* no thread count: nothing in the JSON depends on it (the text names it) */
-    if (!rep->inventory) {
+    /* One shape for a single payload and a kit, as in the fall JSON: a
+     * single payload is a kit of one, and keeps its zone at the top too. */
+    if (!rep->inventory)
         jset(j, root, "zone", j_zone(j, r0));
-    } else {
+    jset(j, root, "inventory", json_boolean(rep->inventory));
+    {
         json_t *items = jarr(j);
         size_t worst = 0;
         for (size_t i = 0; i < rep->n_items; i++) {
