@@ -148,6 +148,8 @@ static double key_unit(const writer *w, const char *key, const char **unit)
         if (w->us) { *unit = "ft"; return 1.0 / PLUMB_FT_M; }
         return 1.0;
     case PLUMB_DIM_SPEED:
+        /* a wind speed as a crew reads it, as plumbp_show_key gives it */
+        if (w->us && strncmp(key, "wind.", 5) == 0) { *unit = "mph"; return 1.0 / MPH_M_S; }
         if (w->us) { *unit = "ft/s"; return 1.0 / PLUMB_FT_M; }
         return 1.0;
     case PLUMB_DIM_MASS:

@@ -154,6 +154,13 @@ for prof in DEMO:
     grav = [l for l in out.splitlines() if "gravity" in l]
     check(rc == 0 and grav and all("ft/s²" in l and "m/s²" not in l for l in grav),
           f"fall {os.path.basename(prof)} --units us: gravity line {grav}")
+# a wind speed in a US zone report is in mph, as in the fall report
+# (1 mph = 0.44704 m/s exactly, NIST SP 811 (2008) B.8)
+rc, out, err = plumb("zone", os.path.join(ROOT, "profiles", "demo", "drone-canopy.yaml"),
+                     "--samples", "400", "--threads", "1", "--units", "us")
+windl = [l for l in out.splitlines() if l.strip().startswith("wind.speed")]
+check(rc == 0 and windl and "mph" in windl[0] and "ft/s" not in windl[0],
+      f"zone --units us: the uncertain wind speed in mph: {windl[:1]}")
 rc, out, err = plumb("fall", os.path.join(ROOT, "profiles", "demo", "tower-kit.yaml"),
                      "--units", "us")
 units_row = [l for l in out.splitlines() if "ft/s" in l and "ft·lbf" in l and " J " in l + " "]
