@@ -54,16 +54,28 @@ static inline json_t *jstr(jctx *j, const char *s)
     return v;
 }
 
+/* Sets obj[key] = value, taking the reference to value in every case: a
+ * value whose object could not be made is freed here (json_object_set_new
+ * frees it itself when it fails), or it would leak. */
 static inline void jset(jctx *j, json_t *obj, const char *key, json_t *value)
 {
-    if (!value || !obj || json_object_set_new(obj, key, value) != 0)
+    if (!value || !obj) {
+        json_decref(value);
         j->nomem = 1;
+    } else if (json_object_set_new(obj, key, value) != 0) {
+        j->nomem = 1;
+    }
 }
 
+/* Appends value to arr, taking the reference as jset does. */
 static inline void jpush(jctx *j, json_t *arr, json_t *value)
 {
-    if (!value || !arr || json_array_append_new(arr, value) != 0)
+    if (!value || !arr) {
+        json_decref(value);
         j->nomem = 1;
+    } else if (json_array_append_new(arr, value) != 0) {
+        j->nomem = 1;
+    }
 }
 
 static inline json_t *jobj(jctx *j)
