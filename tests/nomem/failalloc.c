@@ -346,8 +346,12 @@ static void report_at_exit(void)
 {
     if (!from_env)
         return;
+    /* what runs after this (the gcov dump of a coverage build, linked with
+     * the same --wrap) is not the program's and is not counted */
+    unsigned long armed = atomic_load(&target);
+    failalloc_disarm();
     if (atomic_load(&fired))
-        fprintf(stderr, "failalloc: allocation %lu failed\n", atomic_load(&target));
+        fprintf(stderr, "failalloc: allocation %lu failed\n", armed);
     else
         fprintf(stderr, "failalloc: %lu allocations, none failed\n", atomic_load(&seen));
 }
