@@ -287,6 +287,81 @@ static void test_sweeps_samplers_and_zones_refuse_bad_arguments(void **state)
     plumb_atmosphere_free(atm);
 }
 
+/* --set keys that cannot name anything, each refused where it goes wrong. */
+static void test_set_keys_that_cannot_name_a_value_are_refused(void **state)
+{
+    (void)state;
+    static const char text[] = "name: Test spanner (invented)\n"
+                               "payload:\n"
+                               "  mass: 2.385 kg\n"
+                               "  drag: {cd: 0.93, area: 0.0187 m^2}\n"
+                               "release:\n"
+                               "  height: 28.7 m\n"
+                               "criteria: [us-part107-cat3]\n";
+    static char long_key[300];
+    memset(long_key, 'k', 260);
+    strcpy(long_key + 260, "=1");
+    static const struct { const char *set; plumb_status st; const char *want; } bad[] = {
+        {"release.height!=3 m", PLUMB_EPARSE, "unexpected character '!'"},
+        {"uncertainty.=1", PLUMB_EPARSE, "expected a key after"},
+        {"items[99999999].mass=1 kg", PLUMB_ERANGE, "index too large"},
+        {"criteria[1].foo=1", PLUMB_EKEY, "have no keys"},
+        {"release[1].height=3 m", PLUMB_EPARSE, "takes no [index]"},
+        {long_key, PLUMB_EPARSE, "is too long"},
+    };
+    for (size_t i = 0; i < sizeof bad / sizeof bad[0]; i++) {
+        plumb_profile *p = NULL;
+        plumb_diag d;
+        const char *sets[1] = {bad[i].set};
+        plumb_diag_clear(&d);
+        plumb_status st =
+            plumb_profile_load_buffer("<test>", text, sizeof text - 1, units, sets, 1, &p, &d);
+        if (st != bad[i].st || !strstr(d.message, bad[i].want))
+            fail_msg("--set %.40s: status %d, \"%s\"; want %d, \"%s\"", bad[i].set, (int)st,
+                     d.message, (int)bad[i].st, bad[i].want);
+        assert_string_equal(d.file, "--set");
+        assert_null(p);
+    }
+}
+
+/* A hand-made report whose figure is not finite is never written
+ * (design.md section 7: never print NaN); an item without its spec is refused. */
+static void test_a_report_with_a_figure_not_finite_is_not_written(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    spanner(&s);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, NULL, 0, criteria, units, &st, &d), PLUMB_OK);
+    const plumb_fall_report *rep = NULL;
+    assert_int_equal(plumb_study_fall(st, &rep, &d), PLUMB_OK);
+    plumb_item_report item = rep->items[0];
+    plumb_fall_report copy = *rep;
+    copy.items = &item;
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mem = open_memstream(&buf, &len);
+    assert_non_null(mem);
+    plumb_report_options o = {PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, NULL};
+    item.result.speed_m_s = NAN;
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        o.format = (plumb_format)f;
+        assert_raised(plumb_report_fall(mem, &o, &copy, &d), PLUMB_ENUMERIC, d);
+    }
+    fflush(mem);
+    assert_int_equal(len, 0); /* nothing written */
+    item = rep->items[0];
+    item.spec = NULL;
+    assert_raised(plumb_report_fall(mem, &o, &copy, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_report_fall(NULL, &o, rep, &d), PLUMB_EINVAL, d);
+    fclose(mem);
+    free(buf);
+    plumb_study_free(st);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -296,6 +371,8 @@ int main(void)
         cmocka_unit_test(test_writers_refuse_a_missing_report_or_stream),
         cmocka_unit_test(test_a_fall_report_to_a_full_stream_is_a_write_error),
         cmocka_unit_test(test_sweeps_samplers_and_zones_refuse_bad_arguments),
+        cmocka_unit_test(test_set_keys_that_cannot_name_a_value_are_refused),
+        cmocka_unit_test(test_a_report_with_a_figure_not_finite_is_not_written),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
