@@ -490,6 +490,7 @@ static plumb_status call_limit(void *ctx, plumb_diag *d)
 typedef struct zone_ctx {
     study_ctx *sc;
     size_t threads;
+    size_t samples;               /* 0: 160 */
     const plumb_zone_report *rep; /* the last zone made (owned by the study) */
 } zone_ctx;
 
@@ -497,7 +498,7 @@ static plumb_status call_zone(void *ctx, plumb_diag *d)
 {
     zone_ctx *c = ctx;
     plumb_zone_spec z = *plumb_profile_zone(c->sc->profile);
-    z.samples = 160;
+    z.samples = c->samples ? c->samples : 160;
     z.confidence = 0.9;
     z.seed = 7;
     z.has_target = 1;
@@ -615,12 +616,41 @@ static void test_zones_fail_cleanly_at_every_allocation_on_one_and_two_threads(v
     (void)s;
     study_ctx sc;
     study_make(&sc, "profiles/demo/drone-release.yaml", NULL, 0);
-    zone_ctx one = {&sc, 1, NULL}, two = {&sc, 2, NULL};
+    zone_ctx one = {&sc, 1, 0, NULL}, two = {&sc, 2, 0, NULL};
     each_allocation_fails_in_turn("zone, one thread", call_zone, &one);
     each_allocation_fails_in_turn("zone, two threads", call_zone, &two);
     plumb_diag d;
     assert_int_equal(call_zone(&two, &d), PLUMB_OK); /* the last run above failed */
     every_report("zone", call_report_zone, two.rep);
+    study_done(&sc);
+}
+
+/* Allocations one call makes (recorded, none failing). */
+static unsigned long allocations_of(call_fn call, void *ctx)
+{
+    plumb_diag d;
+    failalloc_record(1);
+    plumb_status st = call(ctx, &d);
+    failalloc_record(0);
+    assert_int_equal(st, PLUMB_OK);
+    return failalloc_recorded();
+}
+
+/* Issue 8: nothing is allocated per fall or per sample; the workspaces are
+ * made once. A study's fall allocates nothing once the study is open, and
+ * a zone of 8 times the samples makes as many allocations. */
+static void test_nothing_is_allocated_per_fall_or_per_sample(void **s)
+{
+    (void)s;
+    study_ctx sc;
+    study_make(&sc, "profiles/demo/drone-release.yaml", NULL, 0);
+    assert_int_equal(allocations_of(call_study_fall, &sc), 0);
+    assert_int_equal(allocations_of(call_study_fall, &sc), 0);
+    zone_ctx few = {&sc, 1, 160, NULL}, many = {&sc, 1, 1280, NULL};
+    unsigned long a_few = allocations_of(call_zone, &few);
+    unsigned long a_many = allocations_of(call_zone, &many);
+    print_message("zone: %lu allocations for 160 samples, %lu for 1280\n", a_few, a_many);
+    assert_int_equal(a_few, a_many);
     study_done(&sc);
 }
 
@@ -632,6 +662,7 @@ int main(void)
         cmocka_unit_test(test_every_fall_and_its_reports_fail_cleanly_at_every_allocation),
         cmocka_unit_test(test_sweeps_and_limits_fail_cleanly_at_every_allocation),
         cmocka_unit_test(test_zones_fail_cleanly_at_every_allocation_on_one_and_two_threads),
+        cmocka_unit_test(test_nothing_is_allocated_per_fall_or_per_sample),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
