@@ -98,6 +98,18 @@ TEST_SRC  := $(wildcard tests/test_*.c)
 SUPP_SRC  := $(wildcard tests/support/*.c)
 BENCH_SRC := $(wildcard bench/*.c)
 
+# The allocation-failure tests (tests/nomem): linked with --wrap for every
+# allocating call libplumb makes, so that tests/nomem/failalloc.c can fail
+# the Nth one (failalloc.h).
+NOMEM_WRAP := malloc calloc realloc strdup strndup open_memstream \
+  pthread_mutex_init pthread_cond_init \
+  gsl_root_fsolver_alloc gsl_min_fminimizer_alloc gsl_interp_alloc gsl_odeiv2_step_alloc \
+  gsl_odeiv2_evolve_alloc gsl_odeiv2_control_y_new gsl_odeiv2_driver_alloc_y_new gsl_rng_alloc \
+  yaml_parser_initialize yaml_parser_parse ut_read_xml ut_parse ut_multiply ut_divide \
+  ut_get_converter
+NOMEM_LDFLAGS := $(foreach f,$(NOMEM_WRAP),-Wl,--wrap=$(f))
+NOMEM_SRC := $(wildcard tests/nomem/test_*.c)
+
 LIB_OBJ   := $(LIB_SRC:%.c=$(BUILD)/obj/%.o)
 SHEET_OBJ := $(SHEET_SRC:%.c=$(BUILD)/obj/%.o)
 CLI_OBJ   := $(CLI_SRC:%.c=$(BUILD)/obj/%.o)
@@ -105,6 +117,11 @@ TEST_OBJ  := $(TEST_SRC:%.c=$(BUILD)/obj/%.o)
 SUPP_OBJ  := $(SUPP_SRC:%.c=$(BUILD)/obj/%.o)
 TEST_BIN  := $(TEST_SRC:tests/%.c=$(BUILD)/tests/%)
 BENCH_BIN := $(BENCH_SRC:bench/%.c=$(BUILD)/bench/%)
+NOMEM_OBJ := $(BUILD)/obj/tests/nomem/failalloc.o
+NOMEM_TEST_OBJ := $(NOMEM_SRC:%.c=$(BUILD)/obj/%.o)
+NOMEM_BIN := $(NOMEM_SRC:tests/nomem/%.c=$(BUILD)/tests/%)
+# The command line with the hook: PLUMB_FAILALLOC=N fails its Nth allocation.
+NOMEM_CLI := $(BUILD)/tests/plumb-nomem
 
 LIB     := $(BUILD)/libplumb.a
 SHEET_LIB := $(BUILD)/libplumb-sheet.a
@@ -130,6 +147,7 @@ $(TEST_OBJ) $(SUPP_OBJ): EXTRA_OBJ_FLAGS = -Itests/support
 # installed data directory, then this source tree (an out-of-tree build).
 $(CLI_OBJ): EXTRA_OBJ_FLAGS = -DPLUMB_CRITERIA_INSTALLED='"$(DATADIR)/plumb/criteria"' \
   -DPLUMB_CRITERIA_SOURCE='"$(CURDIR)/profiles/criteria"'
+$(NOMEM_OBJ) $(NOMEM_TEST_OBJ): EXTRA_OBJ_FLAGS = -Itests/support -Itests/nomem
 
 $(BUILD)/obj/%.o: %.c Makefile
 	@mkdir -p $(dir $@)
@@ -170,6 +188,16 @@ $(BUILD)/tests/%: $(BUILD)/obj/tests/%.o $(SUPP_OBJ) $(LIB)
 	$(call say,LD,$@)
 	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $< $(SUPP_OBJ) $(LIB) $(LIBS) $(TEST_LIBS)
 
+$(NOMEM_BIN): $(BUILD)/tests/%: $(BUILD)/obj/tests/nomem/%.o $(NOMEM_OBJ) $(SUPP_OBJ) $(LIB)
+	@mkdir -p $(dir $@)
+	$(call say,LD,$@)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(TEST_LIBS)
+
+$(NOMEM_CLI): $(CLI_OBJ) $(NOMEM_OBJ) $(LIB)
+	@mkdir -p $(dir $@)
+	$(call say,LD,$@)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS)
+
 $(BUILD)/bench/%: bench/%.c $(LIB) Makefile
 	@mkdir -p $(dir $@)
 	$(call say,CC,$<)
@@ -184,7 +212,7 @@ $(PC): plumb.pc.in Makefile include/plumb/version.h
 	  -e 's|@PKGS@|$(PKGS)|g' plumb.pc.in >$@
 
 # Everything tests/run.sh runs against $(BUILD).
-tests: all $(TEST_BIN)
+tests: all $(TEST_BIN) $(NOMEM_BIN) $(NOMEM_CLI)
 
 # Runs every test program and the CLI tests against $(BUILD); prints the summary line.
 test-run: tests

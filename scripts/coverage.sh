@@ -90,8 +90,11 @@ awk '
     next
   }
   FNR == 1 && pass == 2 && open { finish(); open = 0 }
+  FNR == 1 { cont = 0 }
   {
     text = $0
+    # a macro definition and its continuation lines are not sites
+    if (cont || text ~ /^[ \t]*#[ \t]*define/) { cont = (text ~ /\\$/); next }
     if (open) {
       best = best_of(FILENAME, FNR, best); stmt = stmt " " text
       if (text ~ /;[ \t]*$/ || FNR - start > 12) { finish(); open = 0 }

@@ -66,8 +66,13 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text,
 /* The i-th value in the range's unit (i < n). */
 double plumb_range_value(const plumb_range *r, size_t i);
 
-/* The i-th value in SI. */
-double plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i);
+/* The i-th value in SI, into *si_out, converted by udunits2 as the profile
+ * loader converts a --set value (so a sweep row equals `plumb fall --set`
+ * bit for bit). The unit was checked by plumb_range_parse, so the only
+ * failure is PLUMB_ENOMEM (*si_out unchanged): never a value left in the
+ * range's own unit. */
+plumb_status plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i,
+                                  double *si_out, plumb_diag *diag);
 
 /* "KEY=<value> <unit>" for the i-th value, as --set takes it. */
 void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size);

@@ -92,7 +92,10 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
             st = option_error(&diag, PLUMB_ENOMEM, "--alt", "out of memory for %zu rows", n);
     }
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
-        double alt_m = plumb_range_value_si(&alt, units, i);
+        double alt_m = 0.0;
+        st = plumb_range_value_si(&alt, units, i, &alt_m, &diag);
+        if (st != PLUMB_OK)
+            break;
         plumb_status s = plumb_std1976(alt_m, dt, &rows[i]);
         if (s != PLUMB_OK)
             st = option_error(&diag, s,

@@ -136,6 +136,7 @@ static int unit_shape_of(const plumb_units *units, const ut_unit *unit, unit_sha
     return ut_accept_visitor(unit, &shape_visitor, shape) == UT_SUCCESS ? 0 : -1;
 }
 
+
 /* ---- rewriting the unit text ---------------------------------------------- */
 
 static int is_word_char(unsigned char c)
@@ -343,6 +344,9 @@ static plumb_status convert(const plumb_units *units, double value, const char *
                            w, UNITS_SHOW_MAX, shown);
 
     ut_unit *parsed = ut_parse(units->sys, expanded, UT_UTF8);
+    if (!parsed && ut_out_of_memory())
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
+                           UNITS_SHOW_MAX, shown);
     if (!parsed)
         return plumbp_units_raise_unknown(diag, want, unit, shown, number);
 
@@ -382,6 +386,11 @@ static plumb_status convert(const plumb_units *units, double value, const char *
         use = interval;
     }
     int ok = same_dimension(units, use, units->ref[want]);
+    if (ok < 0) {
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory converting \"%.*s\"", UNITS_SHOW_MAX,
+                         shown);
+        goto done;
+    }
     if (want == PLUMB_DIM_ANGLE && shape.rad_power != 1)
         ok = 0;
     if (want == PLUMB_DIM_FRACTION && shape.rad_power != 0)
@@ -391,6 +400,11 @@ static plumb_status convert(const plumb_units *units, double value, const char *
         goto done;
     }
     cv = ut_get_converter(use, units->ref[want]);
+    if (!cv && ut_out_of_memory()) {
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory converting \"%.*s\"", UNITS_SHOW_MAX,
+                         shown);
+        goto done;
+    }
     if (!cv) {
         st = PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; udunits2 cannot convert \"%.*s\"", w,
                          UNITS_SHOW_MAX, unit);
@@ -450,8 +464,10 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
     u->sys = ut_read_xml(NULL);
     if (!u->sys) {
         ut_status us = ut_get_status();
-        st = PLUMB_RAISE(diag, PLUMB_EIO, "cannot load the udunits2 unit database: %s",
-                         ut_status_text(us));
+        st = ut_out_of_memory()
+                 ? PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the udunits2 unit database")
+                 : PLUMB_RAISE(diag, PLUMB_EIO, "cannot load the udunits2 unit database: %s",
+                               ut_status_text(us));
         goto fail;
     }
     u->one = ut_get_dimensionless_unit_one(u->sys);
@@ -463,6 +479,11 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
     }
     for (int d = 0; d < PLUMB_DIM_COUNT; d++) {
         u->ref[d] = ut_parse(u->sys, dims[d].ud, UT_ASCII);
+        if (!u->ref[d] && ut_out_of_memory()) {
+            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the unit \"%s\"",
+                             dims[d].ud);
+            goto fail;
+        }
         if (!u->ref[d]) {
             st = PLUMB_RAISE(diag, PLUMB_EIO, "the udunits2 database has no unit \"%s\" (%s)",
                              dims[d].ud, dims[d].name);
@@ -471,8 +492,13 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
     }
     for (size_t i = 0; i < N_ALIASES; i++) {
         ut_unit *a = ut_parse(u->sys, aliases[i].ud, UT_ASCII);
-        int ok = a && same_dimension(u, a, u->ref[aliases[i].dim]);
+        int ok = a ? same_dimension(u, a, u->ref[aliases[i].dim]) : ut_out_of_memory() ? -1 : 0;
         ut_free(a);
+        if (ok < 0) {
+            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the unit \"%s\"",
+                             aliases[i].ud);
+            goto fail;
+        }
         if (!ok) {
             st = PLUMB_RAISE(diag, PLUMB_EIO,
                              "the udunits2 database does not define \"%s\" (for \"%s\") as %s %s",
@@ -482,8 +508,14 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
         }
     }
     /* only for naming a wrong unit: one the database lacks stays NULL */
-    for (size_t i = 0; i < N_OTHER; i++)
+    for (size_t i = 0; i < N_OTHER; i++) {
         u->other[i] = ut_parse(u->sys, other_quantities[i].ud, UT_ASCII);
+        if (!u->other[i] && ut_out_of_memory()) {
+            st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the unit \"%s\"",
+                             other_quantities[i].ud);
+            goto fail;
+        }
+    }
     *out = u;
     return PLUMB_OK;
 fail:

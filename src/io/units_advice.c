@@ -99,13 +99,13 @@ static int describe_unit(const plumb_units *units, const ut_unit *unit, const un
     }
     for (size_t i = 0; i < sizeof describe_order / sizeof describe_order[0]; i++) {
         plumb_dim d = describe_order[i];
-        if (same_dimension(units, unit, units->ref[d])) {
+        if (same_dimension(units, unit, units->ref[d]) > 0) {
             snprintf(buf, size, "%s %s", dims[d].article, dims[d].name);
             return 0;
         }
     }
     for (size_t i = 0; i < N_OTHER; i++) {
-        if (units->other[i] && same_dimension(units, unit, units->other[i])) {
+        if (units->other[i] && same_dimension(units, unit, units->other[i]) > 0) {
             /* udunits2 takes the radian for a number: rad/s is a frequency */
             int angular = shape->rad_power != 0 && strcmp(other_quantities[i].ud, "1/s") == 0;
             snprintf(buf, size, "%s", angular ? "an angular speed" : other_quantities[i].what);

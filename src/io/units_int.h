@@ -175,16 +175,26 @@ typedef struct unit_shape {
     int is_log;               /* a logarithmic unit */
 } unit_shape;
 
+/* 1 when udunits2's last call failed for want of memory (UT_OS: its
+ * allocation failed, errno ENOMEM; udunits2.h). */
+static inline int ut_out_of_memory(void)
+{
+    return ut_get_status() == UT_OS;
+}
+
 /* True when a and b measure the same quantity. ut_are_convertible() is not
  * enough: udunits2 2.2.28 also holds a unit convertible into its
  * reciprocal, and its converter inverts the value (seen here: "5 1/kg"
  * was read as a mass of 0.2 kg, "2 Hz" as a time of 0.5 s; its header
  * does not say so). The quotient of two units of the same dimension is
- * dimensionless. */
+ * dimensionless. Returns 1 (same), 0 (not), or -1 when udunits2 ran out of
+ * memory. */
 static inline int same_dimension(const plumb_units *units, const ut_unit *a, const ut_unit *b)
 {
     ut_unit *q = ut_divide(a, b);
-    int same = q && ut_are_convertible(q, units->one);
+    if (!q)
+        return ut_out_of_memory() ? -1 : 0;
+    int same = ut_are_convertible(q, units->one) != 0;
     ut_free(q);
     return same;
 }

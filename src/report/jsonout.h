@@ -54,16 +54,28 @@ static inline json_t *jstr(jctx *j, const char *s)
     return v;
 }
 
+/* Sets obj[key] = value, taking the reference to value in every case: a
+ * value whose object could not be made is freed here (json_object_set_new
+ * frees it itself when it fails), or it would leak. */
 static inline void jset(jctx *j, json_t *obj, const char *key, json_t *value)
 {
-    if (!value || !obj || json_object_set_new(obj, key, value) != 0)
+    if (!value || !obj) {
+        json_decref(value);
         j->nomem = 1;
+    } else if (json_object_set_new(obj, key, value) != 0) {
+        j->nomem = 1;
+    }
 }
 
+/* Appends value to arr, taking the reference as jset does. */
 static inline void jpush(jctx *j, json_t *arr, json_t *value)
 {
-    if (!value || !arr || json_array_append_new(arr, value) != 0)
+    if (!value || !arr) {
+        json_decref(value);
         j->nomem = 1;
+    } else if (json_array_append_new(arr, value) != 0) {
+        j->nomem = 1;
+    }
 }
 
 static inline json_t *jobj(jctx *j)
@@ -103,8 +115,47 @@ static inline plumb_status emit(FILE *out, const char *buf, size_t len, plumb_di
     return PLUMB_OK;
 }
 
+/* The text of a JSON report as jansson dumps it (json_dump_callback). */
+typedef struct jtext {
+    char *buf;
+    size_t len, cap;
+    int nomem;      /* an append failed */
+} jtext;
+
+static inline int jtext_add(const char *bytes, size_t n, void *data)
+{
+    jtext *t = data;
+    if (t->nomem)
+        return -1;
+    if (n >= t->cap - t->len || !t->buf) {
+        size_t cap = t->cap ? t->cap : 4096;
+        while (cap - t->len <= n) {
+            if (cap > (size_t)-1 / 2) {
+                t->nomem = 1;
+                return -1;
+            }
+            cap *= 2;
+        }
+        char *nb = realloc(t->buf, cap);
+        if (!nb) {
+            t->nomem = 1;
+            return -1;
+        }
+        t->buf = nb;
+        t->cap = cap;
+    }
+    memcpy(t->buf + t->len, bytes, n);
+    t->len += n;
+    t->buf[t->len] = '\0';
+    return 0;
+}
+
 /* Writes the tree (and frees it) unless a figure was not finite
- * (PLUMB_ENUMERIC) or memory ran out (PLUMB_ENOMEM): then nothing. */
+ * (PLUMB_ENUMERIC) or memory ran out (PLUMB_ENOMEM): then nothing.
+ * json_dump_callback, not json_dumps: jansson 2.14 ignores a failed write
+ * of an object's key (dump.c, do_dump), so json_dumps can return a text
+ * with keys missing when memory runs out; our callback remembers the
+ * failure. */
 static inline plumb_status emit_json(FILE *out, jctx *j, json_t *root, plumb_diag *diag)
 {
     plumb_status st = PLUMB_OK;
@@ -113,19 +164,17 @@ static inline plumb_status emit_json(FILE *out, jctx *j, json_t *root, plumb_dia
                                                "written");
     else if (j->nomem || !root)
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the JSON report");
-    char *text = NULL;
+    jtext text = {NULL, 0, 0, 0};
     if (st == PLUMB_OK) {
-        text = json_dumps(root, JSON_INDENT(2) | JSON_PRESERVE_ORDER |
-                                    JSON_REAL_PRECISION(PLUMBP_JSON_DIGITS));
-        if (!text)
+        int rc = json_dump_callback(root, jtext_add, &text,
+                                    JSON_INDENT(2) | JSON_PRESERVE_ORDER |
+                                        JSON_REAL_PRECISION(PLUMBP_JSON_DIGITS));
+        if (rc != 0 || text.nomem || !text.buf || jtext_add("\n", 1, &text) != 0)
             st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory writing the JSON report");
     }
-    if (st == PLUMB_OK) {
-        st = emit(out, text, strlen(text), diag);
-        if (st == PLUMB_OK)
-            st = emit(out, "\n", 1, diag);
-    }
-    free(text);
+    if (st == PLUMB_OK)
+        st = emit(out, text.buf, text.len, diag);
+    free(text.buf);
     json_decref(root);
     return st;
 }

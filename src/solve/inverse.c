@@ -205,6 +205,20 @@ static double eval_done(solver_ctx *c, plumb_status st, const plumb_fall_result 
     return metric_of(r, c->metric) - c->limit;
 }
 
+/* A value the profile or the air refuses (an input error) is out of the
+ * key's range and the search goes on; anything else (out of memory) stops
+ * it with that status. Returns NaN. */
+static double eval_refused(solver_ctx *c, plumb_status st, const plumb_diag *d)
+{
+    if (c->diag)
+        *c->diag = *d;
+    if (plumb_status_is_input_error(st))
+        c->out_of_range = 1;
+    else
+        c->fail = st;
+    return NAN;
+}
+
 /* The key (c->k, a plain double of the spec or the air with no check
  * against other keys) set to x on a copy of the resolved spec: the same
  * double the loader would have stored from "KEY=x SI-unit" (the SI unit
@@ -232,12 +246,8 @@ static double eval_fast(solver_ctx *c, double x)
     if (c->k->effects & PLUMBP_KEY_AIR) {
         plumb_atmosphere *atm = NULL;
         st = plumb_atmosphere_alloc(&as, &atm, &d);
-        if (st != PLUMB_OK) {
-            c->out_of_range = 1;
-            if (c->diag)
-                *c->diag = d;
-            return NAN;
-        }
+        if (st != PLUMB_OK)
+            return eval_refused(c, st, &d);
         st = plumb_trajectory_run(c->traj, &spec, atm, &r, &d);
         plumb_atmosphere_free(atm);
     } else {
@@ -268,20 +278,13 @@ static double eval_at(double x, void *params)
     plumb_diag d;
     plumb_diag_clear(&d);
     plumb_status st = plumb_profile_derive(c->profile, c->units, sets, 1, &p, &d);
-    if (st != PLUMB_OK) {
-        c->out_of_range = 1;
-        if (c->diag)
-            *c->diag = d;
-        return NAN;
-    }
+    if (st != PLUMB_OK)
+        return eval_refused(c, st, &d);
     plumb_atmosphere *atm = NULL;
     st = plumb_atmosphere_alloc(plumb_profile_atmosphere(p), &atm, &d);
     if (st != PLUMB_OK) {
         plumb_profile_free(p);
-        c->out_of_range = 1;
-        if (c->diag)
-            *c->diag = d;
-        return NAN;
+        return eval_refused(c, st, &d);
     }
     plumb_fall_result r;
     st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);

@@ -97,8 +97,13 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
         plumbp_strlcpy(unit[i], trim(rest), sizeof unit[i]);
         /* the number and unit must give back the quantity udunits read */
         double back = num[i];
-        if (!end || end == parts[i] || !plumbp_finite(num[i]) ||
-            (unit[i][0] && plumb_units_to_si(units, num[i], unit[i], dims[i], &back, NULL) != PLUMB_OK) ||
+        plumb_status bs = PLUMB_OK;
+        if (end && end != parts[i] && plumbp_finite(num[i]) && unit[i][0]) {
+            bs = plumb_units_to_si(units, num[i], unit[i], dims[i], &back, &d);
+            if (bs == PLUMB_ENOMEM) /* not a reason to count in SI: a failure */
+                return PLUMB_RAISE(diag, bs, "%s", d.message);
+        }
+        if (!end || end == parts[i] || !plumbp_finite(num[i]) || bs != PLUMB_OK ||
             !(fabs(back - si[i]) <= 1e-12 * fabs(si[i])))
             typed = 0;
     }
@@ -182,12 +187,15 @@ double plumb_range_value(const plumb_range *r, size_t i)
     return strtod(buf, NULL);
 }
 
-double plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i)
+plumb_status plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i,
+                                  double *si_out, plumb_diag *diag)
 {
-    double v = plumb_range_value(r, i), si = v;
-    if (r->unit[0] && plumb_units_to_si(units, v, r->unit, r->dim, &si, NULL) != PLUMB_OK)
-        return v;
-    return si;
+    double v = plumb_range_value(r, i);
+    if (!r->unit[0]) {
+        *si_out = v;
+        return PLUMB_OK;
+    }
+    return plumb_units_to_si(units, v, r->unit, r->dim, si_out, diag);
 }
 
 void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size)
@@ -269,7 +277,10 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         plumb_range_set_text(&s->axes[a], row->index[a], sets[a], sizeof sets[a]);
         set_ptrs[a] = sets[a];
         row->value[a] = plumb_range_value(&s->axes[a], row->index[a]);
-        row->value_si[a] = plumb_range_value_si(&s->axes[a], units, row->index[a]);
+        plumb_status vs = plumb_range_value_si(&s->axes[a], units, row->index[a],
+                                               &row->value_si[a], diag);
+        if (vs != PLUMB_OK)
+            return vs; /* out of memory: stops the sweep */
     }
     plumb_diag *rd = &row->error;
     plumb_diag_clear(rd);

@@ -216,24 +216,32 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
 }
 
 /* The unit the profile wrote the key in, and its conversion to SI (an
- * affine map, for degC and degF), so the answer can be given in it too. */
-static void given_unit(const plumb_study *s, size_t item, const char *key, plumb_dim dim,
-                       plumb_limit_result *r)
+ * affine map, for degC and degF), so the answer can be given in it too.
+ * A unit that cannot be had leaves the answer in SI only; running out of
+ * memory is PLUMB_ENOMEM (the report would otherwise depend on it). */
+static plumb_status given_unit(const plumb_study *s, size_t item, const char *key, plumb_dim dim,
+                               plumb_limit_result *r, plumb_diag *diag)
 {
     char unit[PLUMB_LIMIT_UNIT], text[PLUMB_LIMIT_UNIT + 8];
     double zero, one;
     r->given_unit[0] = '\0';
     if (plumb_profile_key_unit(s->profile, item, key, unit, sizeof unit) != PLUMB_OK || !unit[0])
-        return;
+        return PLUMB_OK;
+    plumb_diag d;
     snprintf(text, sizeof text, "0 %s", unit);
-    if (plumb_units_parse(s->units, text, dim, &zero, NULL) != PLUMB_OK)
-        return;
-    snprintf(text, sizeof text, "1 %s", unit);
-    if (plumb_units_parse(s->units, text, dim, &one, NULL) != PLUMB_OK || !(one != zero))
-        return;
+    plumb_status st = plumb_units_parse(s->units, text, dim, &zero, &d);
+    if (st == PLUMB_OK) {
+        snprintf(text, sizeof text, "1 %s", unit);
+        st = plumb_units_parse(s->units, text, dim, &one, &d);
+    }
+    if (st == PLUMB_ENOMEM)
+        return PLUMB_RAISE(diag, st, "%s", d.message);
+    if (st != PLUMB_OK || !(one != zero))
+        return PLUMB_OK;
     plumbp_strlcpy(r->given_unit, unit, sizeof r->given_unit);
     r->given_offset_si = zero;
     r->given_scale_si = one - zero;
+    return PLUMB_OK;
 }
 
 plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric metric,
@@ -252,9 +260,10 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     for (size_t i = 0; i < s->n_items; i++) {
         st = plumb_limit_solve(s->profile, s->units, i, key, metric, limit, opt, s->traj,
                                &s->limits[i], diag);
+        if (st == PLUMB_OK)
+            st = given_unit(s, i, key, kd, &s->limits[i], diag);
         if (st != PLUMB_OK)
             return st;
-        given_unit(s, i, key, kd, &s->limits[i]);
     }
     plumbp_strlcpy(s->limit_key, key, sizeof s->limit_key);
     s->limit = (plumb_limit_report){s->profile, s->limit_key, metric, limit,

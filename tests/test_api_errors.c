@@ -1,0 +1,378 @@
+/*
+ * test_api_errors.c - the error paths of the public API that no input file
+ * reaches: NULL arguments, specs built in code that break a contract,
+ * arguments out of their documented ranges. Each call must return the
+ * status its header promises, fill the diagnostic when given one, and make
+ * nothing (its out-pointer NULL).
+ *
+ * Source: the contracts in include/plumb/ headers (the status each call returns
+ * for each kind of bad argument), and for the ranges: the U.S. Standard
+ * Atmosphere 1976 (NOAA-S/T 76-1562) spans -5 km to 86 km geometric height.
+ */
+#include <float.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <setjmp.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <cmocka.h>
+
+#include "plumb/plumb.h"
+#include "plumb_test.h"
+
+static plumb_units *units;
+static plumb_criteria *criteria;
+
+static int setup(void **state)
+{
+    plumbt_setup_gsl(state);
+    plumb_diag d;
+    char dir[1024];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    if (plumb_units_alloc(&units, &d) != PLUMB_OK ||
+        plumb_criteria_load_dir(dir, units, &criteria, &d) != PLUMB_OK)
+        return -1;
+    return 0;
+}
+
+static int teardown(void **state)
+{
+    (void)state;
+    plumb_criteria_free(criteria);
+    plumb_units_free(units);
+    return 0;
+}
+
+/* A 2.385 kg spanner (invented) with drag, dropped from 31.6 m. */
+static void spanner(plumb_fall_spec *s)
+{
+    memset(s, 0, sizeof *s);
+    snprintf(s->name, sizeof s->name, "spanner");
+    s->mass_kg = 2.385;
+    s->drag.model = PLUMB_DRAG_FIXED;
+    s->drag.cd = 0.93;
+    s->drag.area_m2 = 0.0187;
+    s->drag.cd_area_m2 = 0.93 * 0.0187;
+    s->release_m[2] = 31.6;
+    plumb_wind_spec_init(&s->wind);
+}
+
+/* status, and the same status in the diagnostic with a message */
+#define assert_raised(call, want, d)                   \
+    do {                                               \
+        plumb_diag_clear(&(d));                        \
+        assert_int_equal((call), (want));              \
+        assert_int_equal((d).status, (want));          \
+        assert_true((d).message[0] != '\0');           \
+    } while (0)
+
+static void test_loading_and_opening_refuse_null_arguments(void **state)
+{
+    (void)state;
+    plumb_diag d;
+    plumb_profile *p = (plumb_profile *)&d; /* must come back NULL */
+    assert_raised(plumb_profile_load_buffer(NULL, "x", 1, units, NULL, 0, &p, &d), PLUMB_EINVAL, d);
+    assert_null(p);
+    assert_raised(plumb_profile_load_buffer("b", NULL, 3, units, NULL, 0, &p, &d), PLUMB_EINVAL, d);
+    /* more than PLUMB_PROFILE_MAX_BYTES: refused before it is read */
+    size_t big = (size_t)PLUMB_PROFILE_MAX_BYTES + 1;
+    char *buf = calloc(big, 1);
+    assert_non_null(buf);
+    memset(buf, '#', big);
+    assert_raised(plumb_profile_load_buffer("big", buf, big, units, NULL, 0, &p, &d), PLUMB_ERANGE,
+                  d);
+    assert_null(p);
+    free(buf);
+
+    plumb_fall_spec s;
+    spanner(&s);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    assert_raised(plumb_profile_from_spec(NULL, &atm, NULL, 0, &p, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_profile_from_spec(&s, NULL, NULL, 0, &p, &d), PLUMB_EINVAL, d);
+    atm.model = PLUMB_ATM_TABLE; /* with no rows */
+    assert_raised(plumb_profile_from_spec(&s, &atm, NULL, 0, &p, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "atmosphere.table");
+    assert_null(p);
+
+    plumb_study *st = (plumb_study *)&d;
+    assert_raised(plumb_study_open(NULL, criteria, units, NULL, &st, &d), PLUMB_EINVAL, d);
+    assert_null(st);
+
+    char unit[32];
+    assert_int_equal(plumb_profile_key_unit(NULL, 0, "payload.mass", unit, sizeof unit),
+                     PLUMB_EINVAL);
+}
+
+static void test_the_air_refuses_altitudes_outside_the_1976_model(void **state)
+{
+    (void)state;
+    plumb_atm_spec as;
+    plumb_atm_spec_init(&as);
+    plumb_atmosphere *atm = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_atmosphere_alloc(&as, &atm, &d), PLUMB_OK);
+    plumb_air air;
+    assert_int_equal(plumb_atmosphere_at(atm, -5001.0, &air), PLUMB_ERANGE);
+    assert_int_equal(plumb_atmosphere_at(atm, 86001.0, &air), PLUMB_ERANGE);
+    assert_int_equal(plumb_atmosphere_at(NULL, 0.0, &air), PLUMB_EINVAL);
+    assert_int_equal(plumb_atmosphere_at(atm, 0.0, NULL), PLUMB_EINVAL);
+    /* the terminal speed asked for outside the model */
+    plumb_fall_spec s;
+    spanner(&s);
+    double v = -1.0;
+    assert_int_equal(plumb_terminal_speed(&s, atm, 90000.0, 0, &v), PLUMB_EOUTSIDE);
+    assert_true(v == -1.0); /* untouched */
+    /* a sphere whose terminal speed is above 1e6 m/s (trajectory.h): a
+     * 1000 t mass on a 0.1 mm sphere (Morrison 2010 Cd(Re) <= ~0.5 at high
+     * Re: 1/2 rho Cd A v^2 stays below m g well past 1e6 m/s) */
+    s.mass_kg = 1e6;
+    s.drag.model = PLUMB_DRAG_SPHERE_MORRISON;
+    s.drag.diameter_m = 1e-4;
+    s.drag.area_m2 = 7.853981634e-9; /* its cross-section, pi d^2 / 4 */
+    s.drag.cd_area_m2 = 0.0;
+    assert_int_equal(plumb_terminal_speed(&s, atm, 10.0, 0, &v), PLUMB_ENOSOLUTION);
+    plumb_atmosphere_free(atm);
+}
+
+static void test_a_fall_refuses_specs_that_break_its_contract(void **state)
+{
+    (void)state;
+    plumb_atm_spec as;
+    plumb_atm_spec_init(&as);
+    plumb_atmosphere *atm = NULL;
+    plumb_trajectory *traj = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_atmosphere_alloc(&as, &atm, &d), PLUMB_OK);
+    assert_int_equal(plumb_trajectory_alloc(NULL, &traj), PLUMB_OK);
+    plumb_fall_result r;
+    plumb_fall_spec s;
+
+    spanner(&s);
+    s.volume_m3 = -0.001;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "payload.volume");
+
+    spanner(&s);
+    s.n_descent = PLUMB_MAX_DESCENT + 1;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "descent");
+
+    spanner(&s);
+    s.n_descent = 1;
+    s.descent[0].cd = 0.0; /* 0 < cd <= 10 */
+    s.descent[0].area_m2 = 0.95;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "descent");
+
+    s.descent[0].cd = 0.78;
+    s.descent[0].fill_time_s = -0.5;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "descent.fill_time");
+
+    s.descent[0].fill_time_s = 0.6;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = -1.0;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "descent.deploy.after");
+
+    plumb_trajectory_free(traj);
+    plumb_atmosphere_free(atm);
+
+    plumb_shape_spec shape;
+    memset(&shape, 0, sizeof shape);
+    shape.kind = PLUMB_SHAPE_NONE;
+    plumb_drag_spec drag;
+    assert_int_equal(plumb_drag_from_shape(&shape, &drag), PLUMB_EINVAL);
+}
+
+static void test_writers_refuse_a_missing_report_or_stream(void **state)
+{
+    (void)state;
+    FILE *sink = fopen("/dev/null", "w");
+    assert_non_null(sink);
+    plumb_report_options o = {PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, NULL};
+    plumb_diag d;
+    assert_raised(plumb_report_fall(sink, &o, NULL, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_report_air_table(sink, &o, NULL, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_report_sweep(sink, &o, NULL, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_report_limit(sink, &o, NULL, &d), PLUMB_EINVAL, d);
+    plumb_fall_report empty = {NULL, 0, NULL};
+    assert_raised(plumb_report_fall(sink, &o, &empty, &d), PLUMB_EINVAL, d);
+    plumb_item_report item;
+    memset(&item, 0, sizeof item); /* no spec */
+    plumb_fall_report noitem = {NULL, 1, &item};
+    assert_raised(plumb_report_fall(sink, &o, &noitem, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_item_judge(NULL, NULL, criteria, NULL, &d), PLUMB_EINVAL, d);
+    fclose(sink);
+}
+
+/* A stream that cannot be written (ENOSPC from the full device) is an
+ * output failure, PLUMB_EWRITE, and not an input error (exit 3, not 2). */
+static void test_a_fall_report_to_a_full_stream_is_a_write_error(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    spanner(&s);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, NULL, 0, criteria, units, &st, &d), PLUMB_OK);
+    const plumb_fall_report *rep = NULL;
+    assert_int_equal(plumb_study_fall(st, &rep, &d), PLUMB_OK);
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        FILE *full = fopen("/dev/full", "w");
+        if (!full)
+            skip();
+        plumb_report_options o = {(plumb_format)f, PLUMB_UNITS_SI, NULL};
+        assert_raised(plumb_report_fall(full, &o, rep, &d), PLUMB_EWRITE, d);
+        assert_false(plumb_status_is_input_error(d.status));
+        fclose(full);
+    }
+    plumb_study_free(st);
+}
+
+static void test_sweeps_samplers_and_zones_refuse_bad_arguments(void **state)
+{
+    (void)state;
+    plumb_diag d;
+    plumb_range r;
+    /* a key longer than a diagnostic's key field */
+    char text[PLUMB_DIAG_KEY + 64];
+    memset(text, 'k', PLUMB_DIAG_KEY + 8);
+    snprintf(text + PLUMB_DIAG_KEY + 8, sizeof text - PLUMB_DIAG_KEY - 8, "=1m:2m:1m");
+    assert_raised(plumb_range_parse_key(units, text, &r, &d), PLUMB_EPARSE, d);
+
+    size_t l, u;
+    assert_int_equal(plumb_quantile_ranks(0, 0.5, 0.95, &l, &u), PLUMB_EINVAL);
+    assert_int_equal(plumb_quantile_ranks(100, 1.0, 0.95, &l, &u), PLUMB_EINVAL);
+
+    plumb_sampler *smp = (plumb_sampler *)&d;
+    assert_raised(plumb_sampler_alloc(NULL, NULL, 0, NULL, &smp, &d), PLUMB_EINVAL, d);
+    assert_null(smp);
+
+    plumb_fall_spec s;
+    spanner(&s);
+    plumb_atm_spec as;
+    plumb_atm_spec_init(&as);
+    plumb_atmosphere *atm = NULL;
+    assert_int_equal(plumb_atmosphere_alloc(&as, &atm, &d), PLUMB_OK);
+    plumb_zone_spec z;
+    memset(&z, 0, sizeof z);
+    z.samples = 1000;
+    z.seed = 3;
+    z.confidence = 0.9;
+    plumb_zone_options o;
+    plumb_zone_options_init(&o);
+    plumb_zone_result res;
+    assert_raised(plumb_zone_run(NULL, atm, NULL, 0, &z, NULL, 0, &o, &res, &d), PLUMB_EINVAL, d);
+    z.has_target = 1;
+    z.target_m[0] = NAN;
+    assert_raised(plumb_zone_run(&s, atm, NULL, 0, &z, NULL, 0, &o, &res, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "zone.target");
+    z.has_target = 0;
+    o.ci_level = 1.0;
+    assert_raised(plumb_zone_run(&s, atm, NULL, 0, &z, NULL, 0, &o, &res, &d), PLUMB_EINVAL, d);
+    plumb_zone_options_init(&o);
+    o.block_samples = 0;
+    assert_raised(plumb_zone_run(&s, atm, NULL, 0, &z, NULL, 0, &o, &res, &d), PLUMB_EINVAL, d);
+    plumb_zone_options_init(&o);
+    const plumb_criterion *none[1] = {NULL};
+    assert_raised(plumb_zone_run(&s, atm, NULL, 0, &z, none, 1, &o, &res, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "criteria");
+    plumb_atmosphere_free(atm);
+}
+
+/* --set keys that cannot name anything, each refused where it goes wrong. */
+static void test_set_keys_that_cannot_name_a_value_are_refused(void **state)
+{
+    (void)state;
+    static const char text[] = "name: Test spanner (invented)\n"
+                               "payload:\n"
+                               "  mass: 2.385 kg\n"
+                               "  drag: {cd: 0.93, area: 0.0187 m^2}\n"
+                               "release:\n"
+                               "  height: 28.7 m\n"
+                               "criteria: [us-part107-cat3]\n";
+    static char long_key[300];
+    memset(long_key, 'k', 260);
+    strcpy(long_key + 260, "=1");
+    static const struct { const char *set; plumb_status st; const char *want; } bad[] = {
+        {"release.height!=3 m", PLUMB_EPARSE, "unexpected character '!'"},
+        {"uncertainty.=1", PLUMB_EPARSE, "expected a key after"},
+        {"items[99999999].mass=1 kg", PLUMB_ERANGE, "index too large"},
+        {"criteria[1].foo=1", PLUMB_EKEY, "have no keys"},
+        {"release[1].height=3 m", PLUMB_EPARSE, "takes no [index]"},
+        {long_key, PLUMB_EPARSE, "is too long"},
+    };
+    for (size_t i = 0; i < sizeof bad / sizeof bad[0]; i++) {
+        plumb_profile *p = NULL;
+        plumb_diag d;
+        const char *sets[1] = {bad[i].set};
+        plumb_diag_clear(&d);
+        plumb_status st =
+            plumb_profile_load_buffer("<test>", text, sizeof text - 1, units, sets, 1, &p, &d);
+        if (st != bad[i].st || !strstr(d.message, bad[i].want))
+            fail_msg("--set %.40s: status %d, \"%s\"; want %d, \"%s\"", bad[i].set, (int)st,
+                     d.message, (int)bad[i].st, bad[i].want);
+        assert_string_equal(d.file, "--set");
+        assert_null(p);
+    }
+}
+
+/* A hand-made report whose figure is not finite is never written
+ * (design.md section 7: never print NaN); an item without its spec is refused. */
+static void test_a_report_with_a_figure_not_finite_is_not_written(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    spanner(&s);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, NULL, 0, criteria, units, &st, &d), PLUMB_OK);
+    const plumb_fall_report *rep = NULL;
+    assert_int_equal(plumb_study_fall(st, &rep, &d), PLUMB_OK);
+    plumb_item_report item = rep->items[0];
+    plumb_fall_report copy = *rep;
+    copy.items = &item;
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mem = open_memstream(&buf, &len);
+    assert_non_null(mem);
+    plumb_report_options o = {PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI, NULL};
+    item.result.speed_m_s = NAN;
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        o.format = (plumb_format)f;
+        assert_raised(plumb_report_fall(mem, &o, &copy, &d), PLUMB_ENUMERIC, d);
+    }
+    fflush(mem);
+    assert_int_equal(len, 0); /* nothing written */
+    item = rep->items[0];
+    item.spec = NULL;
+    assert_raised(plumb_report_fall(mem, &o, &copy, &d), PLUMB_EINVAL, d);
+    assert_raised(plumb_report_fall(NULL, &o, rep, &d), PLUMB_EINVAL, d);
+    fclose(mem);
+    free(buf);
+    plumb_study_free(st);
+}
+
+int main(void)
+{
+    const struct CMUnitTest tests[] = {
+        cmocka_unit_test(test_loading_and_opening_refuse_null_arguments),
+        cmocka_unit_test(test_the_air_refuses_altitudes_outside_the_1976_model),
+        cmocka_unit_test(test_a_fall_refuses_specs_that_break_its_contract),
+        cmocka_unit_test(test_writers_refuse_a_missing_report_or_stream),
+        cmocka_unit_test(test_a_fall_report_to_a_full_stream_is_a_write_error),
+        cmocka_unit_test(test_sweeps_samplers_and_zones_refuse_bad_arguments),
+        cmocka_unit_test(test_set_keys_that_cannot_name_a_value_are_refused),
+        cmocka_unit_test(test_a_report_with_a_figure_not_finite_is_not_written),
+    };
+    return cmocka_run_group_tests(tests, setup, teardown);
+}
