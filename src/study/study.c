@@ -285,6 +285,10 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
             clist[k] = probe.verdicts[k].criterion;
         if (on_item)
             on_item(user, i, spec);
+        /* the attitude's drag is the item's own */
+        for (size_t k = 0; k < n_u; k++)
+            if (unc[k].kind == PLUMB_DIST_CHOICE)
+                (void)plumb_profile_attitude_drag(s->profile, i, unc[k].choice_drag);
         if (st == PLUMB_OK)
             st = plumb_zone_run(spec, s->atm, unc, n_u, zone, clist, probe.n_verdicts, &zopt,
                                 &s->zones[i], diag);
