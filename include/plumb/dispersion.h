@@ -223,6 +223,19 @@ typedef struct plumb_zone_stats {
                                  the scatter allowance as a buffer (0 when hi_open) */
     plumb_region_result landing; /* the polygon holding p of the impacts, with the
                                     scatter allowance as a buffer */
+    /* The attitude (payload.attitude), when it is uncertain: the samples
+     * of each, and the attitude of the largest impact energy (which sets
+     * the top energy percentiles) and of the farthest impact from the
+     * planned point (which sets the radii). */
+    size_t n_attitudes;       /* 0: the attitude is not uncertain */
+    struct {
+        char name[PLUMB_ATTITUDE_NAME];
+        size_t count;         /* samples that fell in it */
+        double energy_max_j;  /* largest impact energy among them, J */
+        double radius_max_m;  /* farthest distance from centre_m among them, m */
+    } attitude[PLUMB_MAX_ATTITUDES];
+    size_t attitude_energy;   /* index of the attitude of the largest energy */
+    size_t attitude_radius;   /* index of the attitude of the farthest impact */
     int impact_point_fixed;   /* 1: every impact lies within PLUMB_ZONE_FIXED_M of the
                                  first in east and north: the uncertainty does not move
                                  the impact point, the radii are one fall's drift */
@@ -238,6 +251,10 @@ typedef struct plumb_zone_input {
     int truncated;            /* 1: normal truncated to [lower, upper] */
     double lower, upper;      /* the range when truncated (either may be infinite) */
     size_t redraws;           /* draws rejected and redrawn in pass 0 */
+    size_t n_choice;          /* choice: the attitudes, weights and drag (cd, area m^2) */
+    char choice[PLUMB_MAX_ATTITUDES][PLUMB_ATTITUDE_NAME];
+    double weight[PLUMB_MAX_ATTITUDES];
+    double choice_drag[PLUMB_MAX_ATTITUDES][2];
 } plumb_zone_input;
 
 typedef struct plumb_zone_result {

@@ -20,6 +20,8 @@
 #include "plumb/report.h"
 #include "plumb/inverse.h"
 #include "plumb/sweep.h"
+#include "plumb/geodesy.h"
+#include "plumb/region.h"
 #include "plumb/dispersion.h"
 #include "plumb/study.h"
 #include "plumb/brief.h"

@@ -30,8 +30,11 @@
 typedef enum plumb_dist_kind {
     PLUMB_DIST_NORMAL = 0,     /* normal: [mean, sd]; positive quantities truncated at 0 */
     PLUMB_DIST_UNIFORM,        /* uniform: [lo, hi], or "value +- tolerance" */
-    PLUMB_DIST_TRIANGULAR      /* triangular: [lo, mode, hi] */
+    PLUMB_DIST_TRIANGULAR,     /* triangular: [lo, mode, hi] */
+    PLUMB_DIST_CHOICE          /* payload.attitude: one of n_choice attitudes, by weight */
 } plumb_dist_kind;
+
+enum { PLUMB_MAX_ATTITUDES = 4, PLUMB_ATTITUDE_NAME = 24 };
 
 /* One uncertain input. Parameters are in the key's SI unit. */
 typedef struct plumb_uncertainty {
@@ -39,6 +42,14 @@ typedef struct plumb_uncertainty {
     plumb_dist_kind kind;      /* distribution */
     double param[3];           /* normal: mean, sd; uniform: lo, hi; triangular: lo, mode, hi */
     int line, col;             /* where it was given */
+    /* choice (key "payload.attitude"): the attitudes, their weights (> 0,
+     * as given) and, for one item, the drag of each: cd and area, m^2
+     * (plumb_profile_attitude_drag gives every item's; the entries of
+     * plumb_profile_uncertainty hold the first item's) */
+    size_t n_choice;
+    char choice[PLUMB_MAX_ATTITUDES][PLUMB_ATTITUDE_NAME];
+    double weight[PLUMB_MAX_ATTITUDES];
+    double choice_drag[PLUMB_MAX_ATTITUDES][2];
 } plumb_uncertainty;
 
 /* The profile's `zone:` map, with defaults filled. */
@@ -156,6 +167,12 @@ const plumb_uncertainty *plumb_profile_uncertainty(const plumb_profile *p, size_
 
 /* `job:` settings, "" where not given. NULL only for a NULL p. */
 const plumb_job *plumb_profile_job(const plumb_profile *p);
+
+/* The drag (cd, area m^2) of each attitude of the payload.attitude
+ * entry for item i, into out[0..n_choice). 0 when there is no such entry
+ * or i is out of range, else 1. Can't fail. */
+int plumb_profile_attitude_drag(const plumb_profile *p, size_t item,
+                                double out[PLUMB_MAX_ATTITUDES][2]);
 
 /* `zone:` settings, defaults filled. */
 const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p);

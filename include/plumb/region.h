@@ -92,7 +92,8 @@ void plumb_region_free(plumb_region *r);
  * PLUMB_EINVAL for a bad count. */
 plumb_status plumb_region_reset(plumb_region *r, size_t training, plumb_diag *diag);
 
-/* Adds the next point (east, north, m; finite). Can't fail. */
+/* Adds the next point (east, north, m; finite); ignored before the first
+ * plumb_region_reset. Can't fail. */
 void plumb_region_add(plumb_region *r, double east, double north);
 
 /* The mean of the training points (both 0 before any). Can't fail. */

@@ -107,6 +107,12 @@ plumb_status plumb_study_limit(plumb_study *study, const char *key, plumb_metric
  * plumb fall judges it. `on_item`, if not NULL, is called before each
  * item's run (for progress and per-item sample files). */
 typedef void (*plumb_study_item_fn)(void *user, size_t item, const plumb_fall_spec *spec);
+/* PLUMB_EINVAL (key "uncertainty", with an example of the map) when the
+ * profile has no uncertain inputs: a zone of identical falls is refused.
+ * plumb_study_zone checks it first; a caller may check it before its own
+ * checks of the options. */
+plumb_status plumb_study_zone_check(const plumb_study *study, plumb_diag *diag);
+
 plumb_status plumb_study_zone(plumb_study *study, const plumb_zone_spec *zone,
                               const plumb_zone_options *opt, plumb_study_item_fn on_item,
                               void *user, const plumb_zone_report **out, plumb_diag *diag);

@@ -132,6 +132,8 @@ static int run(const cli_args *a, const cli_zone_opts *zo)
     plumb_zone_options_init(&zopt);
     plumb_status st = cli_study_open(a, path, &cs, &diag);
     if (st == PLUMB_OK)
+        st = plumb_study_zone_check(cs.study, &diag);
+    if (st == PLUMB_OK)
         st = cli_zone_spec(a, zo, cs.profile, cs.units, path, &zone, &zopt, &diag);
     if (st == PLUMB_OK && zo->samples_out) {
         sf.path = zo->samples_out;

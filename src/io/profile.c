@@ -37,6 +37,7 @@
 #include "plumb/geodesy.h"
 #include "core/internal.h"
 #include "io/keys.h"
+#include "io/attitude.h"
 #include "io/sha256.h"
 #include "io/yamltree.h"
 
@@ -205,6 +206,7 @@ struct plumb_profile {
     size_t n_items;
     plumb_fall_spec *items;          /* n_items specs */
     plumb_shape_spec *shapes;        /* n_items shapes (kind NONE: drag given) */
+    double (*att_drag)[PLUMB_MAX_ATTITUDES][2]; /* n_items rows: payload.attitude's drag, or NULL */
     plumb_atm_spec atm;              /* tables point into atm_* */
     double *atm_alt_m, *atm_rho_kg_m3, *atm_t_k;
     double *wind_h_m, *wind_e_m_s, *wind_n_m_s; /* the specs' wind table */
@@ -225,6 +227,7 @@ void plumb_profile_free(plumb_profile *p)
     plumby_free(p->tree);
     free(p->items);
     free(p->shapes);
+    free(p->att_drag);
     free(p->atm_alt_m);
     free(p->atm_rho_kg_m3);
     free(p->atm_t_k);
@@ -1564,6 +1567,13 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     plumbp_strlcpy(u->key, pr->key, sizeof u->key);
     u->line = pr->line;
     u->col = pr->col;
+    if (strcmp(pr->key, "payload.attitude") == 0) {
+        free(L->p->att_drag);
+        if (!(L->p->att_drag = calloc(L->p->n_items ? L->p->n_items : 1, sizeof *L->p->att_drag)))
+            return nomem(L);
+        return plumbp_attitude_read(ctx, pr, L->p->shapes, L->p->n_items, L->p->inventory, u,
+                                    L->p->att_drag);
+    }
 
     /* the key: numeric, and an input of every fall */
     plumb_dim dim;
@@ -1999,6 +2009,15 @@ const plumb_uncertainty *plumb_profile_uncertainty(const plumb_profile *p, size_
 const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p) { return p ? &p->zone : NULL; }
 
 const plumb_job *plumb_profile_job(const plumb_profile *p) { return p ? &p->job : NULL; }
+
+int plumb_profile_attitude_drag(const plumb_profile *p, size_t item,
+                                double out[PLUMB_MAX_ATTITUDES][2])
+{
+    if (!p || !p->att_drag || item >= p->n_items)
+        return 0;
+    memcpy(out, p->att_drag[item], sizeof p->att_drag[item]);
+    return 1;
+}
 
 /* ---- fields of a fall spec --------------------------------------------- */
 

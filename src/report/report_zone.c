@@ -166,11 +166,14 @@ static double key_unit(const writer *w, const char *key, const char **unit)
     }
 }
 
+static const char *pct(writer *w, double p);
+
 static const char *dist_word(plumb_dist_kind k)
 {
     switch (k) {
     case PLUMB_DIST_UNIFORM: return "uniform";
     case PLUMB_DIST_TRIANGULAR: return "triangular";
+    case PLUMB_DIST_CHOICE: return "choice";
     default: return "normal";
     }
 }
@@ -190,6 +193,19 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
         const char *sp = u[0] && strcmp(u, "°") != 0 ? NBSP : "";
         char line[512];
         switch (in->kind) {
+        case PLUMB_DIST_CHOICE: {
+            double total = 0.0;
+            for (size_t k = 0; k < in->n_choice; k++)
+                total += in->weight[k];
+            size_t len = (size_t)snprintf(line, sizeof line, "one of");
+            for (size_t k = 0; k < in->n_choice && len < sizeof line; k++)
+                len += (size_t)snprintf(line + len, sizeof line - len, "%s %s (%s, cd %s on %s)",
+                                        k ? "," : "", in->choice[k],
+                                        pct(w, in->weight[k] / total),
+                                        trim(w, in->choice_drag[k][0], INPUT_SIG, INPUT_DEC),
+                                        plumbp_t_area(w, in->choice_drag[k][1]));
+            break;
+        }
         case PLUMB_DIST_UNIFORM:
             snprintf(line, sizeof line, "uniform %s%s%s to %s%s%s", trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC),
                      sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u);
@@ -286,6 +302,25 @@ static void text_cloud(writer *w, const plumb_zone_stats *z)
         t_len(w, z->semi_minor_m));
     put(w, "                  major axis along %s° – %s° (%s–%s)\n", trim(w, z->bearing_deg, 4, 1),
         trim(w, b2, 4, 1), compass(z->bearing_deg), compass(b2));
+}
+
+/* Which attitude set the energy and which the distance. */
+static void text_attitudes(writer *w, const plumb_zone_stats *z)
+{
+    if (z->n_attitudes == 0)
+        return;
+    char line[512];
+    size_t len = (size_t)snprintf(line, sizeof line, "the largest impact energy came from a "
+                                  "fall %s (it sets the top energy percentiles), the farthest "
+                                  "impact from one %s (it sets the radii); samples:",
+                                  z->attitude[z->attitude_energy].name,
+                                  z->attitude[z->attitude_radius].name);
+    for (size_t k = 0; k < z->n_attitudes && len < sizeof line; k++)
+        len += (size_t)snprintf(line + len, sizeof line - len, "%s %s %zu", k ? "," : "",
+                                z->attitude[k].name, z->attitude[k].count);
+    put(w, "Attitude\n");
+    wrapped(w, "  ", line);
+    put(w, "\n");
 }
 
 static void text_energy(writer *w, const plumb_zone_stats *z, double level)
@@ -408,6 +443,7 @@ static void text_item(writer *w, const plumb_zone_result *r)
     text_landing(w, z, r->confidence, r->ci_level);
     text_rules(w, z);
     text_energy(w, z, r->ci_level);
+    text_attitudes(w, z);
     text_exceedance(w, z, r->ci_level);
     if (r->has_target) {
         const plumb_zone_stats *t = &r->at_target;
@@ -754,6 +790,20 @@ static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
     jpush(j, md, jreal(j, z->displacement[1].value));
     jset(j, o, "median_displacement_m", md);
     jset(j, o, "landing", j_landing(j, z));
+    if (z->n_attitudes) {
+        json_t *at = jarr(j);
+        for (size_t k = 0; k < z->n_attitudes; k++) {
+            json_t *a = jobj(j);
+            jset(j, a, "attitude", jstr(j, z->attitude[k].name));
+            jset(j, a, "samples", jint(j, z->attitude[k].count));
+            jset(j, a, "energy_max_j", jreal(j, z->attitude[k].energy_max_j));
+            jset(j, a, "radius_max_m", jreal(j, z->attitude[k].radius_max_m));
+            jpush(j, at, a);
+        }
+        jset(j, o, "attitudes", at);
+        jset(j, o, "attitude_sets_energy", jstr(j, z->attitude[z->attitude_energy].name));
+        jset(j, o, "attitude_sets_radius", jstr(j, z->attitude[z->attitude_radius].name));
+    }
     json_t *sol = jobj(j);
     jset(j, sol, "steps", jint(j, z->steps));
     jset(j, sol, "rhs_evaluations", jint(j, z->rhs_evaluations));
@@ -794,6 +844,18 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
             jpush(j, pa, jreal(j, in->param[k]));
         jset(j, e, "params", pa);
         jset(j, e, "truncated", json_boolean(in->truncated));
+        if (in->kind == PLUMB_DIST_CHOICE) {
+            json_t *ch = jarr(j);
+            for (size_t k = 0; k < in->n_choice; k++) {
+                json_t *c = jobj(j);
+                jset(j, c, "attitude", jstr(j, in->choice[k]));
+                jset(j, c, "weight", jreal(j, in->weight[k]));
+                jset(j, c, "cd", jreal(j, in->choice_drag[k][0]));
+                jset(j, c, "area_m2", jreal(j, in->choice_drag[k][1]));
+                jpush(j, ch, c);
+            }
+            jset(j, e, "choice", ch);
+        }
         if (in->truncated) {
             json_t *rg = jarr(j);
             jpush(j, rg, isfinite(in->lower) ? jreal(j, in->lower) : json_null());

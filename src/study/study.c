@@ -273,21 +273,11 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     return PLUMB_OK;
 }
 
-plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
-                              const plumb_zone_options *opt, plumb_study_item_fn on_item,
-                              void *user, const plumb_zone_report **out, plumb_diag *diag)
+plumb_status plumb_study_zone_check(const plumb_study *s, plumb_diag *diag)
 {
-    *out = NULL;
-    free(s->zones);
-    free(s->zone_items);
-    s->zones = calloc(s->n_items ? s->n_items : 1, sizeof *s->zones);
-    s->zone_items = calloc(s->n_items ? s->n_items : 1, sizeof *s->zone_items);
-    if (!s->zones || !s->zone_items)
-        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
-    size_t n_u = plumb_profile_uncertainty_count(s->profile);
     /* Without uncertain inputs every sample is the same fall: its drift
      * would be printed as a clearance radius. Refused, with an example. */
-    if (n_u == 0)
+    if (plumb_profile_uncertainty_count(s->profile) == 0)
         return PLUMB_RAISE_AT(
             diag, PLUMB_EINVAL, plumb_profile_path(s->profile), 0, 0, "uncertainty",
             "a zone needs the uncertainty of the inputs, and the profile has no `uncertainty:` "
@@ -297,6 +287,24 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
             "    wind.from: \"270 deg +- 20 deg\"\n"
             "    release.position.east: {normal: [0 m, 1 m]}\n"
             "    release.position.north: {normal: [0 m, 1 m]}");
+    return PLUMB_OK;
+}
+
+plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
+                              const plumb_zone_options *opt, plumb_study_item_fn on_item,
+                              void *user, const plumb_zone_report **out, plumb_diag *diag)
+{
+    *out = NULL;
+    plumb_status zst = plumb_study_zone_check(s, diag);
+    if (zst != PLUMB_OK)
+        return zst;
+    free(s->zones);
+    free(s->zone_items);
+    s->zones = calloc(s->n_items ? s->n_items : 1, sizeof *s->zones);
+    s->zone_items = calloc(s->n_items ? s->n_items : 1, sizeof *s->zone_items);
+    if (!s->zones || !s->zone_items)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    size_t n_u = plumb_profile_uncertainty_count(s->profile);
     plumb_uncertainty *unc = calloc(n_u ? n_u : 1, sizeof *unc);
     if (!unc)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
@@ -320,6 +328,10 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
             clist[k] = probe.verdicts[k].criterion;
         if (on_item)
             on_item(user, i, spec);
+        /* the attitude's drag is the item's own */
+        for (size_t k = 0; k < n_u; k++)
+            if (unc[k].kind == PLUMB_DIST_CHOICE)
+                (void)plumb_profile_attitude_drag(s->profile, i, unc[k].choice_drag);
         if (st == PLUMB_OK)
             st = plumb_zone_run(spec, s->atm, unc, n_u, zone, clist, probe.n_verdicts, &zopt,
                                 &s->zones[i], diag);

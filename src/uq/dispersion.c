@@ -173,7 +173,8 @@ typedef enum target_kind {
     TGT_FIELD = 0,    /* a double of the spec, by offset */
     TGT_SPEED,        /* release.velocity.speed */
     TGT_HEADING,      /* release.velocity.heading */
-    TGT_CLIMB         /* release.velocity.climb */
+    TGT_CLIMB,        /* release.velocity.climb */
+    TGT_CHOICE        /* payload.attitude: the drag of one attitude */
 } target_kind;
 
 /* Range of a key's values; angles wrap instead. */
@@ -238,6 +239,7 @@ typedef struct entry {
     key_rule rule;           /* range and angle flag */
     int truncated;           /* normal with a finite end of range */
     double a, c, b;          /* uniform/triangular: lo, mode, hi, unwrapped for angles */
+    double cum[PLUMB_MAX_ATTITUDES]; /* choice: cumulative weights, the last 1 */
 } entry;
 
 struct plumb_sampler {
@@ -245,6 +247,7 @@ struct plumb_sampler {
     size_t n;
     entry e[PLUMB_ZONE_MAX_INPUTS];
     int has_speed, has_heading, has_climb;
+    int choice;              /* index of the payload.attitude entry, or -1 */
     double base_speed_m_s, base_heading_deg, base_up_m_s;
     gsl_rng *rng;
 };
@@ -443,6 +446,7 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     s->base = *base;
     s->n = n;
+    s->choice = -1;
     plumb_status st = PLUMB_OK;
     int has_east = 0, has_north = 0, has_up = 0;
     for (size_t i = 0; i < n && st == PLUMB_OK; i++) {
@@ -455,6 +459,43 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
         if (!find_rule(key, &e->rule))
             e->rule = unbounded_rule;
         const plumb_descent_spec *dev = NULL;
+        if (e->u.kind == PLUMB_DIST_CHOICE) {
+            /* the attitude: a weighted choice of drags (profile.h) */
+            double total = 0.0;
+            for (size_t k = 0; k < e->u.n_choice; k++)
+                total += e->u.weight[k];
+            if (strcmp(norm, "payload.attitude") != 0 || e->u.n_choice < 2 ||
+                e->u.n_choice > PLUMB_MAX_ATTITUDES || !(total > 0.0) || !isfinite(total)) {
+                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                                    "a choice is for payload.attitude, with 2 to %d attitudes of "
+                                    "positive weight", PLUMB_MAX_ATTITUDES);
+                break;
+            }
+            double c = 0.0;
+            for (size_t k = 0; k < e->u.n_choice; k++) {
+                c += e->u.weight[k];
+                e->cum[k] = k + 1 == e->u.n_choice ? 1.0 : c / total;
+                if (!(e->u.choice_drag[k][0] > 0.0) || !(e->u.choice_drag[k][1] > 0.0))
+                    st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                                        "attitude '%s' has no drag", e->u.choice[k]);
+            }
+            for (size_t k = 0; k < n && st == PLUMB_OK; k++) {
+                char nk[PLUMB_DIAG_KEY];
+                normalise_key(u[k].key, nk, sizeof nk);
+                if (strncmp(nk, "payload.drag.", 13) == 0)
+                    st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u[k].line, u[k].col, u[k].key,
+                                        "the attitude sets the drag; give no uncertainty of "
+                                        "payload.drag besides it");
+            }
+            if (s->choice >= 0)
+                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                                    "is uncertain twice");
+            if (st != PLUMB_OK)
+                break;
+            e->target = TGT_CHOICE;
+            s->choice = (int)i;
+            continue;
+        }
         if (strcmp(norm, "release.velocity.speed") == 0) {
             e->target = TGT_SPEED;
         } else if (strcmp(norm, "release.velocity.heading") == 0) {
@@ -564,6 +605,14 @@ static plumb_status draw_one(const entry *e, gsl_rng *r, size_t index, double *x
     const double *q = e->u.param;
     double v;
     switch (e->u.kind) {
+    case PLUMB_DIST_CHOICE: {
+        double uu = gsl_rng_uniform(r);
+        size_t k = 0;
+        while (k + 1 < e->u.n_choice && !(uu < e->cum[k]))
+            k++;
+        *x = (double)k;
+        return PLUMB_OK;
+    }
     case PLUMB_DIST_NORMAL:
         v = q[0] + gsl_ran_gaussian_ziggurat(r, q[1]);
         if (e->truncated) {
@@ -618,6 +667,14 @@ plumb_status plumb_sampler_draw(plumb_sampler *s, unsigned long seed, size_t ind
         case TGT_SPEED: speed = x; break;
         case TGT_HEADING: heading = x; break;
         case TGT_CLIMB: climb = x; break;
+        case TGT_CHOICE: {
+            size_t k = (size_t)x;
+            out->drag.model = PLUMB_DRAG_FIXED;
+            out->drag.cd = e->u.choice_drag[k][0];
+            out->drag.area_m2 = e->u.choice_drag[k][1];
+            out->drag.cd_area_m2 = out->drag.cd * out->drag.area_m2;
+            break;
+        }
         default:
             memcpy(bytes + e->offset, &x, sizeof x);
             break;
@@ -1001,6 +1058,7 @@ typedef struct rec {
     double energy_j, speed_m_s, time_s;
     double release_speed_m_s;/* |v0| */
     double throw_m;          /* drag-free throw from the release */
+    int attitude;            /* index of the attitude drawn, or -1 */
 } rec;
 
 /* What the pilot keeps: the four histogrammed values. */
@@ -1033,6 +1091,8 @@ typedef struct acc {
     double me, mn, cee, cnn, cen; /* Welford: means and co-moments of (dx, dy) */
     double r_max, e_max;
     double speed_max, throw_at_max;
+    size_t att_n[PLUMB_MAX_ATTITUDES];
+    double att_e[PLUMB_MAX_ATTITUDES], att_r[PLUMB_MAX_ATTITUDES];
     size_t exceed[PLUMB_ZONE_MAX_CRITERIA];
     size_t redraws[PLUMB_ZONE_MAX_INPUTS];
     size_t steps, evals;
@@ -1105,7 +1165,8 @@ static void compute_block(worker *w, slot *sl)
     for (size_t k = 0; k < sl->count; k++) {
         size_t i = sl->first + k;
         plumb_diag_clear(&d);
-        plumb_status st = plumb_sampler_draw(w->sampler, ps->seed, i, &spec, NULL, sl->redraws, &d);
+        double vals[PLUMB_ZONE_MAX_INPUTS];
+        plumb_status st = plumb_sampler_draw(w->sampler, ps->seed, i, &spec, vals, sl->redraws, &d);
         if (st == PLUMB_OK) {
             spec.release_m[0] += ps->shift[0];
             spec.release_m[1] += ps->shift[1];
@@ -1135,6 +1196,7 @@ static void compute_block(worker *w, slot *sl)
         const double *v = spec.velocity_m_s;
         r->release_speed_m_s = sqrt(v[0] * v[0] + v[1] * v[1] + v[2] * v[2]);
         r->throw_m = ballistic_throw(&spec);
+        r->attitude = w->sampler->choice >= 0 ? (int)vals[w->sampler->choice] : -1;
         sl->steps += res.solver.steps;
         sl->evals += res.solver.rhs_evaluations;
         sl->n_ok = k + 1;
@@ -1209,6 +1271,13 @@ static void merge_slot(pass *ps, slot *sl)
             a->r_max = rad;
         if (a->n == 1 || r->energy_j > a->e_max)
             a->e_max = r->energy_j;
+        if (r->attitude >= 0 && r->attitude < PLUMB_MAX_ATTITUDES) {
+            size_t ak = (size_t)r->attitude;
+            if (a->att_n[ak]++ == 0 || r->energy_j > a->att_e[ak])
+                a->att_e[ak] = r->energy_j;
+            if (rad > a->att_r[ak])
+                a->att_r[ak] = rad;
+        }
         for (size_t c = 0; c < ps->n_crit; c++) {
             plumb_verdict verdict;
             plumb_criterion_judge(ps->crit[c], r->energy_j, &verdict);
@@ -1375,6 +1444,15 @@ static plumb_status finish_stats(pass *ps, const plumb_fall_spec *base, const pl
                                            &z->landing, diag);
     if (rst != PLUMB_OK)
         return rst;
+    for (size_t k = 0; k < PLUMB_MAX_ATTITUDES; k++) {
+        z->attitude[k].count = a->att_n[k];
+        z->attitude[k].energy_max_j = a->att_e[k];
+        z->attitude[k].radius_max_m = a->att_r[k];
+        if (a->att_n[k] && (!a->att_n[z->attitude_energy] || a->att_e[k] > a->att_e[z->attitude_energy]))
+            z->attitude_energy = k;
+        if (a->att_n[k] && (!a->att_n[z->attitude_radius] || a->att_r[k] > a->att_r[z->attitude_radius]))
+            z->attitude_radius = k;
+    }
     z->impact_point_fixed = a->sk[PV_DX].max - a->sk[PV_DX].min <= PLUMB_ZONE_FIXED_M &&
                             a->sk[PV_DY].max - a->sk[PV_DY].min <= PLUMB_ZONE_FIXED_M;
     z->steps = a->steps;
@@ -1391,6 +1469,17 @@ void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
     vsnprintf(res->warnings[res->n_warnings], PLUMB_ZONE_WARNING, fmt, ap);
     va_end(ap);
     res->n_warnings++;
+}
+
+/* Names the attitudes of a pass's statistics from the choice entry. */
+static void name_attitudes(const plumb_uncertainty *u, size_t n_u, plumb_zone_stats *z)
+{
+    for (size_t i = 0; i < n_u; i++)
+        if (u[i].kind == PLUMB_DIST_CHOICE) {
+            z->n_attitudes = u[i].n_choice;
+            for (size_t k = 0; k < u[i].n_choice && k < PLUMB_MAX_ATTITUDES; k++)
+                plumbp_strlcpy(z->attitude[k].name, u[i].choice[k], sizeof z->attitude[k].name);
+        }
 }
 
 /* Shared storage of both passes. */
@@ -1432,6 +1521,9 @@ static plumb_status do_pass(run *rn, pass *ps, plumb_diag *diag)
     a->r_max = a->e_max = a->speed_max = a->throw_at_max = 0.0;
     memset(a->exceed, 0, sizeof a->exceed);
     memset(a->redraws, 0, sizeof a->redraws);
+    memset(a->att_n, 0, sizeof a->att_n);
+    memset(a->att_e, 0, sizeof a->att_e);
+    memset(a->att_r, 0, sizeof a->att_r);
     a->steps = a->evals = 0;
     for (int q = 0; q < PV_N; q++)
         sk_reset(&a->sk[q]);
@@ -1623,6 +1715,8 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
     st = do_pass(&rn, &ps, diag);
     if (st == PLUMB_OK)
         st = finish_stats(&ps, base, zone, opt.ci_level, &res->zone, diag);
+    if (st == PLUMB_OK)
+        name_attitudes(u, n_u, &res->zone);
     if (st == PLUMB_OK) {
         const plumb_sampler *s0 = rn.w[0].sampler;
         res->n_inputs = n_u;
@@ -1633,6 +1727,10 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
             memcpy(in->param, u[i].param, sizeof in->param);
             in->truncated = plumb_sampler_truncated(s0, i, &in->lower, &in->upper);
             in->redraws = ps.a.redraws[i];
+            in->n_choice = u[i].n_choice;
+            memcpy(in->choice, u[i].choice, sizeof in->choice);
+            memcpy(in->weight, u[i].weight, sizeof in->weight);
+            memcpy(in->choice_drag, u[i].choice_drag, sizeof in->choice_drag);
         }
         if (res->zone.impact_point_fixed)
             plumb_zone_add_warning(
@@ -1656,6 +1754,8 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
         st = do_pass(&rn, &ps, diag);
         if (st == PLUMB_OK)
             st = finish_stats(&ps, base, zone, opt.ci_level, &res->at_target, diag);
+        if (st == PLUMB_OK)
+            name_attitudes(u, n_u, &res->at_target);
     }
     run_free(&rn);
     return st;

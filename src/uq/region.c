@@ -213,6 +213,8 @@ static void train(plumb_region *r)
 
 void plumb_region_add(plumb_region *r, double east, double north)
 {
+    if (r->m == 0)
+        return; /* not reset yet: nothing to fill */
     if (!r->trained) {
         r->train[r->n][0] = east;
         r->train[r->n][1] = north;

@@ -22,6 +22,11 @@ Checks, each against something outside plumb:
   the landing circle's centre downwind (the mean drift of a light payload
   goes with the wind).
 - A kit names the item that sets its zone in text, JSON and GeoJSON.
+- Attitude as an uncertain input: drawn by weight (the counts within 4
+  binomial standard deviations of N w), the end-on fall (the smaller
+  cd x area: the faster fall, Newton's drag law) sets the largest energy
+  and the broadside one (the larger cd x area: the more drift) the
+  farthest impact; named attitudes on shapes for a kit; bad forms exit 2.
 - The GeoJSON is byte for byte the same for 1 and 3 threads; without the
   site on the map it is refused with exit status 2 and nothing written.
 """
@@ -257,6 +262,59 @@ if rc == 0:
     check(d["properties"]["kit_zone_item"] == "glove", "kit GeoJSON names the glove")
     check(any(f["properties"].get("sets_kit_zone") for f in d["features"]),
           "kit GeoJSON marks the glove's features")
+
+# ---- attitude as an uncertain input ---------------------------------------------
+att = write("att.yaml", """# Invented test case: a hammer in wind, either attitude.
+name: hammer attitudes
+payload: {mass: 0.68 kg, drag: {cd: 0.99, area: 0.000804 m^2}}
+release: {height: 30 m}
+wind: {profile: uniform, speed: 6 m/s, from: 270 deg}
+uncertainty:
+  payload.attitude:
+    choice:
+      - {name: end-on, cd: 0.99, area: 0.000804 m^2, weight: 1}
+      - {name: broadside, cd: 0.82, area: 0.0106 m^2, weight: 3}
+  wind.speed: {normal: [6 m/s, 1 m/s]}
+zone: {samples: 2000, seed: 3, confidence: 0.9}
+""")
+rc, so, se = plumb("zone", att, "--format", "json", "--threads", "2")
+check(rc == 0, f"attitude choice runs: {se}")
+if rc == 0:
+    z = json.loads(so)["zone"]
+    check(z["attitude_sets_energy"] == "end-on", f"energy set by end-on: {z.get('attitudes')}")
+    check(z["attitude_sets_radius"] == "broadside", "radius set by broadside")
+    nb = [a["samples"] for a in z["attitudes"] if a["attitude"] == "broadside"][0]
+    sd = math.sqrt(2000 * 0.75 * 0.25)
+    check(abs(nb - 1500) <= 4 * sd, f"broadside drawn {nb} of 2000 at weight 3:1")
+rc, so, se = plumb("zone", att, "--threads", "2")
+check(rc == 0 and "Attitude" in so and "end-on" in so.split("Attitude")[1][:300],
+      "text names the attitude of the largest energy")
+kit2 = write("kitshape.yaml", """# Invented test case: two rods, any attitude.
+name: rods
+items:
+  - {name: long rod, mass: 0.5 kg, shape: {kind: cylinder, length: 0.4 m, diameter: 0.03 m}}
+  - {name: short rod, mass: 0.3 kg, shape: {kind: cylinder, length: 0.15 m, diameter: 0.03 m}}
+release: {height: 20 m}
+wind: {profile: uniform, speed: 5 m/s, from: 90 deg}
+uncertainty:
+  payload.attitude: {choice: [tumbling, broadside, end-on]}
+  wind.speed: {normal: [5 m/s, 1 m/s]}
+zone: {samples: 1000, seed: 8, confidence: 0.9}
+""")
+rc, so, se = plumb("zone", kit2, "--format", "json", "--threads", "2")
+check(rc == 0, f"named attitudes on a kit of shapes: {se}")
+if rc == 0:
+    for it in json.loads(so)["items"]:
+        at = it["zone"]["attitudes"]
+        check(len(at) == 3 and sum(a["samples"] for a in at) == 1000,
+              f"{it['name']}: three attitudes, every sample in one")
+        ch = [i for i in it["zone"]["inputs"] if i["key"] == "payload.attitude"][0]["choice"]
+        cda = {c["attitude"]: c["cd"] * c["area_m2"] for c in ch}
+        check(cda["end-on"] < cda["broadside"], f"{it['name']}: end-on has the least cd x area")
+for bad_set, why in (("uncertainty.payload.attitude={choice: [tumbling, sideways]}", "unknown"),
+                     ("uncertainty.payload.drag.cd={uniform: [0.8, 1.0]}", "drag")):
+    rc, so, se = plumb("zone", kit2 if why == "unknown" else att, "--set", bad_set)
+    check(rc == 2 and so == "", f"bad attitude ({why}): exit 2, got {rc}: {se}")
 
 shutil.rmtree(tmp)
 finish()

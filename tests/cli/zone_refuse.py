@@ -1,7 +1,7 @@
 """issue 10: what a zone says when its inputs cannot make one.
 
 - A profile with no `uncertainty:` map is refused in every format (GeoJSON
-  too, with the site on the map), with
+  too, before its need of a site on the map), with
   exit status 2, a message naming the `uncertainty:` map with an example
   of it, nothing on standard output and no -o or --samples-out file.
 - Only the mass uncertain, dropped from rest in still air: the impact
@@ -35,8 +35,7 @@ zone: {samples: 2000, seed: 5}
 for fmt in ("text", "json", "csv", "geojson"):
     out = os.path.join(tmp, f"out.{fmt}")
     smp = os.path.join(tmp, f"samples.{fmt}.csv")
-    site = ["--set", "site.latitude=52 deg", "--set", "site.longitude=-1.5 deg"]
-    rc, so, se = plumb("zone", bare, "--format", fmt, "-o", out, "--samples-out", smp, *site)
+    rc, so, se = plumb("zone", bare, "--format", fmt, "-o", out, "--samples-out", smp)
     check(rc == 2, f"{fmt}: no uncertainty exits 2, got {rc}: {se}")
     check("uncertainty:" in se and "{normal:" in se,
           f"{fmt}: the message names the uncertainty: map with an example: {se}")
