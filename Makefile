@@ -193,10 +193,10 @@ $(NOMEM_BIN): $(BUILD)/tests/%: $(BUILD)/obj/tests/nomem/%.o $(NOMEM_OBJ) $(SUPP
 	$(call say,LD,$@)
 	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(TEST_LIBS)
 
-$(NOMEM_CLI): $(CLI_OBJ) $(NOMEM_OBJ) $(LIB)
+$(NOMEM_CLI): $(CLI_OBJ) $(NOMEM_OBJ) $(SHEET_LIB) $(LIB)
 	@mkdir -p $(dir $@)
 	$(call say,LD,$@)
-	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(SHEET_LIBS)
 
 $(BUILD)/bench/%: bench/%.c $(LIB) Makefile
 	@mkdir -p $(dir $@)
@@ -256,6 +256,9 @@ demo: deps
 	  o=out/$$(basename "$$p" .yaml).pdf; \
 	  $(BIN) sheet "$$p" -o "$$o" --samples $(DEMO_SAMPLES) --quiet || exit $$?; \
 	  echo "==> plumb sheet $$p: wrote $$o"; done
+	@$(BIN) zone profiles/demo/drone-release.yaml --samples $(DEMO_SAMPLES) --quiet \
+	  --format geojson -o out/drone-release.geojson || exit $$?; \
+	  echo "==> plumb zone profiles/demo/drone-release.yaml: wrote out/drone-release.geojson (a map program opens it)"
 	@printf '\n==> next: %s\n    %s\n' \
 	  "$(BIN) --help, and README.md for what each figure means" \
 	  "a clearance zone: $(BIN) zone profiles/demo/drone-release.yaml"
