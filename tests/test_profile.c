@@ -331,6 +331,12 @@ static const bad_case bad_cases[] = {
     {"test_unknown_glide_word_is_refused",
      "payload:\n  mass: 2.385 kg\n  drag: {cd_area: 0.0113 m^2}\n  glide: @@sideways\n" RELEASE,
      NULL, PLUMB_EINVAL, "payload.glide", NULL},
+    {"test_downwash_without_disk_area_is_refused",
+     PAYLOAD "release:\n  height: 27.4 m\n  downwash: @@{aircraft_mass: 2 kg}\n", NULL,
+     PLUMB_EKEY, "release.downwash.disk_area", NULL},
+    {"test_negative_downwash_mass_is_refused",
+     PAYLOAD "release:\n  height: 27.4 m\n  downwash: {aircraft_mass: @@-2 kg, disk_area: 0.2 m^2}\n",
+     NULL, PLUMB_ERANGE, "release.downwash.aircraft_mass", "> 0"},
     {"test_fill_time_with_fill_constant_is_refused",
      GOOD "descent: {cd: 0.8, diameter: 1.2 m, deploy: {after: 1 s}, fill_time: 1 s, "
           "@@fill_constant: 8}\n",

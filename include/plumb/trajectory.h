@@ -33,6 +33,7 @@
 #include "plumb/drag.h"
 #include "plumb/inflation.h"
 #include "plumb/glide.h"
+#include "plumb/downwash.h"
 
 enum { PLUMB_MAX_DESCENT = 2, PLUMB_NAME = 128 };
 
@@ -84,6 +85,7 @@ typedef struct plumb_fall_spec {
     plumb_gravity gravity;         /* g0 or WGS 84 at a latitude */
     plumb_wind_spec wind;          /* wind by height */
     plumb_glide_spec glide;        /* sideways glide of a plate, applied by the zone only */
+    plumb_downwash_spec downwash;  /* rotor wake of the aircraft at release (0: none) */
 } plumb_fall_spec;
 
 typedef enum plumb_stepper {

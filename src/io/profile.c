@@ -121,10 +121,15 @@ static const plumby_schema position_keys[] = {
     S_NUM("east", LENGTH, ANY),
     S_NUM("north", LENGTH, ANY),
 };
+static const plumby_schema downwash_keys[] = {
+    S_NUM("aircraft_mass", MASS, POSITIVE),
+    S_NUM("disk_area", AREA, POSITIVE),
+};
 static const plumby_schema release_keys[] = {
     S_NUM("height", LENGTH, POSITIVE),
     S_MAP("velocity", velocity_keys),
     S_MAP("position", position_keys),
+    S_MAP("downwash", downwash_keys),
 };
 static const plumby_schema site_keys[] = {
     S_NUM("elevation", LENGTH, ALTITUDE),
@@ -1121,6 +1126,14 @@ static plumb_status read_release_site(loader *L, plumb_fall_spec *base)
     plumby_sub(&rm, "velocity", &vm);
     plumby_sub(&rm, "position", &pm);
     plumby_sub(&L->root, "site", &sm);
+    plumby_map dwm;
+    plumby_sub(&rm, "downwash", &dwm);
+    if (dwm.node &&
+        ((st = plumby_num(&dwm, "aircraft_mass", 1, 0.0, &base->downwash.aircraft_mass_kg, NULL)) !=
+             PLUMB_OK ||
+         (st = plumby_num(&dwm, "disk_area", 1, 0.0, &base->downwash.disk_area_m2, NULL)) !=
+             PLUMB_OK))
+        return st;
     if ((st = plumby_num(&rm, "height", 1, 0.0, &L->height_m, NULL)) != PLUMB_OK ||
         (st = plumby_num(&pm, "east", 0, 0.0, &base->release_m[0], NULL)) != PLUMB_OK ||
         (st = plumby_num(&pm, "north", 0, 0.0, &base->release_m[1], NULL)) != PLUMB_OK)
@@ -2073,6 +2086,12 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
         canon(&h, "release", s->release_m[i]);
         canon(&h, "velocity", s->velocity_m_s[i]);
     }
+    if (s->downwash.aircraft_mass_kg > 0.0 || s->downwash.disk_area_m2 > 0.0) {
+        canon(&h, "downwash.aircraft_mass", s->downwash.aircraft_mass_kg);
+        canon(&h, "downwash.disk_area", s->downwash.disk_area_m2);
+    }
+    if (s->glide.mode != PLUMB_GLIDE_OFF)
+        canon(&h, "glide", (double)s->glide.mode);
     canon(&h, "site.elevation", s->site_elevation_m);
     canon(&h, "gravity.latitude", s->gravity.has_latitude ? s->gravity.latitude_deg : NAN);
     canon(&h, "wind.profile", (double)s->wind.profile);

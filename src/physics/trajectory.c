@@ -82,6 +82,7 @@ struct fall_ctx {
     plumb_status fail;          /* set when the RHS cannot be evaluated */
     double fail_alt_m;
     double vt_max_m_s;          /* fixed drag: largest body terminal speed at the accepted points */
+    plumb_downwash dw;          /* the rotor wake at release, if any */
 };
 
 static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm)
@@ -96,6 +97,19 @@ static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmos
     c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;
     plumb_atmosphere_range(atm, &c->air_lo_m, &c->air_hi_m);
     plumb_wind_components(1.0, spec->wind.from_deg, &c->wind_dir[0], &c->wind_dir[1]);
+    if (spec->downwash.aircraft_mass_kg > 0.0 && spec->downwash.disk_area_m2 > 0.0) {
+        double alt = spec->site_elevation_m + spec->release_m[2];
+        plumb_air air;
+        if (plumb_atmosphere_at(atm, alt, &air) == PLUMB_OK) {
+            double we, wn;
+            plumb_wind_at(&spec->wind, spec->release_m[2], &we, &wn);
+            const double *v = spec->velocity_m_s;
+            double rel[2] = {we - v[0], wn - v[1]};
+            plumb_downwash_init(&spec->downwash, air.rho_kg_m3,
+                                plumb_gravity_at(&spec->gravity, alt), spec->release_m, v, rel,
+                                &c->dw);
+        }
+    }
 }
 
 /* Local air, relative velocity and drag acceleration at (t, y). */
@@ -156,9 +170,17 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
         we = w * c->wind_dir[0];
         wn = w * c->wind_dir[1];
     }
+    double wz = 0.0;
+    if (c->dw.on) {
+        double w3[3];
+        plumb_downwash_at(&c->dw, t, y, w3);
+        we += w3[0];
+        wn += w3[1];
+        wz = w3[2];
+    }
     L->vr[0] = y[IVX] - we;
     L->vr[1] = y[IVY] - wn;
-    L->vr[2] = y[IVZ];
+    L->vr[2] = y[IVZ] - wz;
     L->vr_abs = sqrt(L->vr[0] * L->vr[0] + L->vr[1] * L->vr[1] + L->vr[2] * L->vr[2]);
     if (c->sphere) {
         L->re = L->air.rho_kg_m3 * L->vr_abs * s->drag.diameter_m / L->air.mu_pa_s;
@@ -409,6 +431,10 @@ static plumb_status check_spec(const plumb_fall_spec *s, plumb_diag *diag)
     } else if (!(d->diameter_m > 0.0) || !(d->area_m2 > 0.0) || !isfinite(d->area_m2)) {
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.drag.diameter", "a sphere drag model needs a diameter > 0");
     }
+    if (!(s->downwash.aircraft_mass_kg >= 0.0) || !isfinite(s->downwash.aircraft_mass_kg) ||
+        !(s->downwash.disk_area_m2 >= 0.0) || !isfinite(s->downwash.disk_area_m2))
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "release.downwash",
+                               "aircraft mass and disk area must be finite and >= 0");
     if (s->n_descent > PLUMB_MAX_DESCENT)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "at most %d descent devices", PLUMB_MAX_DESCENT);
     for (size_t i = 0; i < s->n_descent; i++) {
@@ -1125,7 +1151,7 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
                            "the fall fails its energy balance: kinetic energy gained %.9g J, work "
                            "of gravity, buoyancy and drag %.9g J (method %s)",
                            gained, work, res->solver.method);
-    if (v0sq == 0.0 && calm(&s->wind) && (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
+    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
         double vt_top, vt_max = w->ctx.vt_max_m_s;
         if (terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK && vt_top > vt_max)
             vt_max = vt_top;
