@@ -228,6 +228,20 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     "conservative for plates.",
                     gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why);
     note_downwash(item, atm);
+    const plumb_turbulence_spec *tb = &item->spec->turbulence;
+    if (tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
+        add_warning(item,
+                    "Gusts (wind.turbulence, %s, W20 %.3g m/s) apply only to plumb zone, where "
+                    "every sample falls through its own realisation; this single fall uses the "
+                    "mean wind.",
+                    tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
+                    plumb_fall_w20(item->spec));
+    else if (tb->model != PLUMB_TURB_NONE)
+        add_warning(item,
+                    "Gusts: this fall went through one realisation of the %s model (W20 %.3g "
+                    "m/s), sum of %zu random Fourier modes per component.",
+                    tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
+                    plumb_fall_w20(item->spec), tb->n_modes);
     warn_helmet_tests(item);
     return PLUMB_OK;
 }

@@ -101,6 +101,8 @@ static const plumbp_key table[] = {
     {"wind.exponent", D(NONE), 0, R(UNIT), 0, SPEC(wind.exponent), W(WIND_POWER), 0, SHARED},
     {"wind.roughness", D(LENGTH), 0, R(POSITIVE), 0, SPEC(wind.roughness_m), W(WIND_LOG), 0,
      SHARED | CHECKED},
+    {"wind.turbulence.w20", D(SPEED), 0, R(NONNEG), 0, SPEC(turbulence.w20_m_s), W(ALWAYS), 0,
+     SHARED},
     {"wind.table[].height", D(LENGTH), 0, R(NONNEG), 0, ROW, W(WIND_TABLE), 0, SHARED | CHECKED},
     {"wind.table[].speed", D(SPEED), 0, R(NONNEG), 0, ROW, W(WIND_TABLE), 0, SHARED},
     {"wind.table[].from", D(ANGLE), 0, R(ANY), 1, ROW, W(WIND_TABLE), 0, SHARED},

@@ -156,11 +156,19 @@ static const plumby_schema wind_row_keys[] = {
     S_NUM("from", ANGLE, ANY),
 };
 static const plumby_schema wind_row_item[] = {S_MAP("", wind_row_keys)};
+static const char *const turb_models[] = {"dryden", "von-karman"};
+static const char *const turb_words[] = {"light", "moderate", "severe"};
+static const plumby_schema turb_keys[] = {
+    S_WORD("model", turb_models),
+    S_WORD("intensity", turb_words),
+    S_NUM("w20", SPEED, NONNEG),
+};
 static const plumby_schema wind_keys[] = {
     S_WORD("profile", wind_profiles),       S_NUM("speed", SPEED, NONNEG),
     S_NUM("from", ANGLE, ANY),              S_NUM("reference_height", LENGTH, POSITIVE),
     S_NUM("exponent", NONE, UNIT),          S_NUM("roughness", LENGTH, POSITIVE),
     S_LIST("table", wind_row_item),
+    S_MAP("turbulence", turb_keys),
 };
 static const plumby_schema criteria_item[] = {
     {"", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0}};
@@ -1337,6 +1345,39 @@ static plumb_status read_atmosphere(loader *L)
     return PLUMB_OK;
 }
 
+/* wind.turbulence (plumb/turbulence.h): a model (default dryden) and its
+ * intensity as a word or W20; neither: W20 from the mean wind at 20 ft. */
+static plumb_status read_turbulence(loader *L, plumb_turbulence_spec *t)
+{
+    plumby_map wm, tm;
+    plumb_status st;
+    memset(t, 0, sizeof *t);
+    plumby_sub(&L->root, "wind", &wm);
+    plumby_sub(&wm, "turbulence", &tm);
+    if (!tm.node)
+        return PLUMB_OK;
+    int model = 0, word = 0;
+    if ((st = plumby_word(&tm, "model", 0, &model)) != PLUMB_OK)
+        return st;
+    t->model = model == 0 ? PLUMB_TURB_DRYDEN : PLUMB_TURB_VON_KARMAN;
+    int has_i = plumby_get(&tm, "intensity") != NULL, has_w = plumby_get(&tm, "w20") != NULL;
+    if (has_i && has_w)
+        return plumby_forbid(&tm, "w20", "together with intensity (give intensity or w20)");
+    if (has_i) {
+        static const double w20[] = {PLUMB_TURB_W20_LIGHT_M_S, PLUMB_TURB_W20_MODERATE_M_S,
+                                     PLUMB_TURB_W20_SEVERE_M_S};
+        if ((st = plumby_word(&tm, "intensity", 0, &word)) != PLUMB_OK)
+            return st;
+        t->w20_m_s = w20[word];
+    } else if (has_w) {
+        if ((st = plumby_num(&tm, "w20", 1, 0.0, &t->w20_m_s, NULL)) != PLUMB_OK)
+            return st;
+    } else {
+        t->from_wind = 1;
+    }
+    return PLUMB_OK;
+}
+
 static plumb_status read_wind(loader *L, plumb_wind_spec *w)
 {
     plumby_map wm;
@@ -1724,7 +1765,8 @@ static plumb_status interpret(loader *L)
     memset(&base, 0, sizeof base);
     plumbp_strlcpy(base.name, p->name, sizeof base.name);
     if ((st = read_release_site(L, &base)) != PLUMB_OK || (st = read_atmosphere(L)) != PLUMB_OK ||
-        (st = read_wind(L, &base.wind)) != PLUMB_OK)
+        (st = read_wind(L, &base.wind)) != PLUMB_OK ||
+        (st = read_turbulence(L, &base.turbulence)) != PLUMB_OK)
         return st;
 
     const plumby_node *items = plumby_get(&L->root, "items");
@@ -2092,6 +2134,10 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
     }
     if (s->glide.mode != PLUMB_GLIDE_OFF)
         canon(&h, "glide", (double)s->glide.mode);
+    if (s->turbulence.model != PLUMB_TURB_NONE) {
+        canon(&h, "turbulence.model", (double)s->turbulence.model);
+        canon(&h, "turbulence.w20", s->turbulence.from_wind ? NAN : s->turbulence.w20_m_s);
+    }
     canon(&h, "site.elevation", s->site_elevation_m);
     canon(&h, "gravity.latitude", s->gravity.has_latitude ? s->gravity.latitude_deg : NAN);
     canon(&h, "wind.profile", (double)s->wind.profile);

@@ -83,6 +83,8 @@ struct fall_ctx {
     double fail_alt_m;
     double vt_max_m_s;          /* fixed drag: largest body terminal speed at the accepted points */
     plumb_downwash dw;          /* the rotor wake at release, if any */
+    int turb;                   /* 1: realised gusts are added to the wind */
+    double w20_m_s;             /* their W20 */
 };
 
 static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm)
@@ -97,6 +99,9 @@ static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmos
     c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;
     plumb_atmosphere_range(atm, &c->air_lo_m, &c->air_hi_m);
     plumb_wind_components(1.0, spec->wind.from_deg, &c->wind_dir[0], &c->wind_dir[1]);
+    c->w20_m_s = plumb_fall_w20(spec);
+    c->turb = spec->turbulence.model != PLUMB_TURB_NONE && spec->turbulence.n_modes > 0 &&
+              c->w20_m_s > 0.0;
     if (spec->downwash.aircraft_mass_kg > 0.0 && spec->downwash.disk_area_m2 > 0.0) {
         double alt = spec->site_elevation_m + spec->release_m[2];
         plumb_air air;
@@ -171,12 +176,20 @@ static int local_at(fall_ctx *c, double t, const double y[], local *L)
         wn = w * c->wind_dir[1];
     }
     double wz = 0.0;
+    if (c->turb) {
+        /* u along the mean wind (toward where it blows), v to its left, w up */
+        double g[3];
+        plumb_turbulence_at(&s->turbulence, c->w20_m_s, zw, t, g);
+        we += g[0] * c->wind_dir[0] - g[1] * c->wind_dir[1];
+        wn += g[0] * c->wind_dir[1] + g[1] * c->wind_dir[0];
+        wz += g[2];
+    }
     if (c->dw.on) {
         double w3[3];
         plumb_downwash_at(&c->dw, t, y, w3);
         we += w3[0];
         wn += w3[1];
-        wz = w3[2];
+        wz += w3[2];
     }
     L->vr[0] = y[IVX] - we;
     L->vr[1] = y[IVY] - wn;
@@ -283,6 +296,18 @@ static int rhs_henon(double s, const double u[], double du[], void *params)
         du[i] = f[i] * inv;
     du[h->k] = inv;
     return GSL_SUCCESS;
+}
+
+double plumb_fall_w20(const plumb_fall_spec *spec)
+{
+    const plumb_turbulence_spec *t = &spec->turbulence;
+    if (t->model == PLUMB_TURB_NONE)
+        return 0.0;
+    if (t->w20_m_s > 0.0 || !t->from_wind)
+        return t->w20_m_s;
+    double e, n;
+    plumb_wind_at(&spec->wind, PLUMB_TURB_W20_HEIGHT_M, &e, &n);
+    return hypot(e, n);
 }
 
 const char *plumb_descent_kind_name(plumb_descent_kind kind)
@@ -1151,7 +1176,7 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
                            "the fall fails its energy balance: kinetic energy gained %.9g J, work "
                            "of gravity, buoyancy and drag %.9g J (method %s)",
                            gained, work, res->solver.method);
-    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
+    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
         double vt_top, vt_max = w->ctx.vt_max_m_s;
         if (terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK && vt_top > vt_max)
             vt_max = vt_top;
