@@ -1567,6 +1567,8 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
     res->seed = zone->seed;
     res->confidence = zone->confidence;
     res->ci_level = opt.ci_level;
+    res->gust_model = (int)base->turbulence.model;
+    res->gust_w20_m_s = plumb_fall_w20(base);
 
     /* Pass 0: released at the planned point, radii from it. */
     ps.pass_no = 0;
