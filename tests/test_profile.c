@@ -331,6 +331,21 @@ static const bad_case bad_cases[] = {
     {"test_unknown_glide_word_is_refused",
      "payload:\n  mass: 2.385 kg\n  drag: {cd_area: 0.0113 m^2}\n  glide: @@sideways\n" RELEASE,
      NULL, PLUMB_EINVAL, "payload.glide", NULL},
+    {"test_downwash_without_disk_area_is_refused",
+     PAYLOAD "release:\n  height: 27.4 m\n  downwash: @@{aircraft_mass: 2 kg}\n", NULL,
+     PLUMB_EKEY, "release.downwash.disk_area", NULL},
+    {"test_negative_downwash_mass_is_refused",
+     PAYLOAD "release:\n  height: 27.4 m\n  downwash: {aircraft_mass: @@-2 kg, disk_area: 0.2 m^2}\n",
+     NULL, PLUMB_ERANGE, "release.downwash.aircraft_mass", "> 0"},
+    {"test_turbulence_intensity_with_w20_is_refused",
+     GOOD "wind:\n  turbulence: {intensity: light, @@w20: 15 kn}\n", NULL, PLUMB_EKEY,
+     "wind.turbulence.w20", "intensity or w20"},
+    {"test_unknown_turbulence_model_is_refused",
+     GOOD "wind:\n  turbulence: {model: @@karman}\n", NULL, PLUMB_EINVAL,
+     "wind.turbulence.model", "von-karman"},
+    {"test_negative_turbulence_w20_is_refused",
+     GOOD "wind:\n  turbulence: {w20: @@-3 m/s}\n", NULL, PLUMB_ERANGE,
+     "wind.turbulence.w20", ">= 0"},
     {"test_fill_time_with_fill_constant_is_refused",
      GOOD "descent: {cd: 0.8, diameter: 1.2 m, deploy: {after: 1 s}, fill_time: 1 s, "
           "@@fill_constant: 8}\n",
@@ -1184,6 +1199,26 @@ static void test_plates_and_thin_boxes_glide_by_default(void **state)
     plumb_profile_free(p);
 }
 
+/* wind.turbulence: model word, intensity words as W20 15/30/45 kn
+ * (MIL-F-8785C), or W20 from the mean wind at 20 ft. */
+static void test_turbulence_reads_model_and_intensity(void **state)
+{
+    (void)state;
+    plumb_profile *p = load_ok(GOOD "wind:\n  speed: 6 m/s\n  turbulence: {model: von-karman, "
+                                    "intensity: severe}\n", NULL, 0);
+    const plumb_fall_spec *s = plumb_profile_item(p, 0);
+    assert_int_equal(s->turbulence.model, PLUMB_TURB_VON_KARMAN);
+    assert_rel(s->turbulence.w20_m_s, 45.0 * 1852.0 / 3600.0, 1e-15);
+    assert_int_equal(s->turbulence.n_modes, 0);
+    plumb_profile_free(p);
+    p = load_ok(GOOD "wind:\n  profile: power\n  speed: 6 m/s\n  turbulence: {}\n", NULL, 0);
+    s = plumb_profile_item(p, 0);
+    assert_int_equal(s->turbulence.model, PLUMB_TURB_DRYDEN);
+    assert_int_equal(s->turbulence.from_wind, 1);
+    assert_rel(plumb_fall_w20(s), 6.0 * pow(6.096 / 10.0, 1.0 / 7.0), 1e-12);
+    plumb_profile_free(p);
+}
+
 static void test_descent_diameter_gives_the_nominal_area(void **state)
 {
     (void)state;
@@ -1723,6 +1758,7 @@ int main(void)
         cmocka_unit_test(test_wind_table_rows_become_east_and_north_components),
         cmocka_unit_test(test_descent_diameter_gives_the_nominal_area),
         cmocka_unit_test(test_plates_and_thin_boxes_glide_by_default),
+        cmocka_unit_test(test_turbulence_reads_model_and_intensity),
         cmocka_unit_test(test_canopy_type_supplies_exponent_fill_constant_and_opening_factor),
         cmocka_unit_test(test_sphere_model_takes_its_area_from_the_diameter),
         cmocka_unit_test(test_cd_of_zero_is_allowed_as_drag_free),

@@ -262,6 +262,8 @@ typedef struct plumb_zone_result {
     unsigned long seed;       /* the seed */
     double confidence;        /* the zone's confidence, 0 < c < 1 */
     double ci_level;          /* level of every interval */
+    int gust_model;           /* plumb_turbulence_model of the gusts (0: none) */
+    double gust_w20_m_s;      /* their W20, m/s (each sample has its own realisation) */
     size_t n_inputs;          /* inputs[0..n) */
     plumb_zone_input inputs[PLUMB_ZONE_MAX_INPUTS]; /* in the entries' order */
     plumb_zone_stats zone;    /* pass 0: released at the planned point, radii from it */

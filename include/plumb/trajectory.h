@@ -33,6 +33,8 @@
 #include "plumb/drag.h"
 #include "plumb/inflation.h"
 #include "plumb/glide.h"
+#include "plumb/downwash.h"
+#include "plumb/turbulence.h"
 
 enum { PLUMB_MAX_DESCENT = 2, PLUMB_NAME = 128 };
 
@@ -84,6 +86,8 @@ typedef struct plumb_fall_spec {
     plumb_gravity gravity;         /* g0 or WGS 84 at a latitude */
     plumb_wind_spec wind;          /* wind by height */
     plumb_glide_spec glide;        /* sideways glide of a plate, applied by the zone only */
+    plumb_downwash_spec downwash;  /* rotor wake of the aircraft at release (0: none) */
+    plumb_turbulence_spec turbulence; /* gusts: the model, and a realisation (zone samples only) */
 } plumb_fall_spec;
 
 typedef enum plumb_stepper {
@@ -198,6 +202,10 @@ plumb_status plumb_trajectory_run(plumb_trajectory *traj, const plumb_fall_spec 
 /* The points recorded by the last run (record_path = 1), else NULL / 0.
  * Owned by the workspace; valid until the next run or free. */
 const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size_t *n);
+
+/* W20 of the spec's turbulence, m/s: as given, or the mean wind's speed at
+ * 20 ft (6.096 m) when from_wind is set; 0 without turbulence. Can't fail. */
+double plumb_fall_w20(const plumb_fall_spec *spec);
 
 /* Still-air terminal speed of the spec's body (with all devices open when
  * with_devices is 1) at height z_m above the strike level, m/s: the lowest

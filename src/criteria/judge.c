@@ -3,11 +3,14 @@
  * that go with its figures (include/plumb/judge.h). Judging lives with the
  * criteria: the report writers only print what is decided here.
  */
+#include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
 
+#include "plumb/constants.h"
 #include "plumb/judge.h"
+#include "plumb/trajectory.h"
 #include "core/internal.h"
 
 /* Mach number above which the report warns: drag coefficients measured in
@@ -118,11 +121,48 @@ plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
     return PLUMB_OK;
 }
 
+/* The rotor wake's figures and assumptions (plumb/downwash.h). */
+static void note_downwash(plumb_item_report *item, const plumb_atmosphere *atm)
+{
+    const plumb_fall_spec *s = item->spec;
+    if (!(s->downwash.aircraft_mass_kg > 0.0 && s->downwash.disk_area_m2 > 0.0) || !atm)
+        return;
+    double alt = s->site_elevation_m + s->release_m[2];
+    plumb_air air;
+    if (plumb_atmosphere_at(atm, alt, &air) != PLUMB_OK)
+        return;
+    double we, wn;
+    plumb_wind_at(&s->wind, s->release_m[2], &we, &wn);
+    const double *v = s->velocity_m_s;
+    double rel[2] = {we - v[0], wn - v[1]};
+    plumb_downwash dw;
+    plumb_downwash_init(&s->downwash, air.rho_kg_m3, plumb_gravity_at(&s->gravity, alt),
+                        s->release_m, v, rel, &dw);
+    add_warning(item,
+                "Rotor downwash: hover thrust %.3g N over %.3g m^2 gives v_i %.3g m/s and a far "
+                "wake of %.3g m/s (momentum theory); %s it decays below the rotor as a round jet "
+                "(B %.3g; plumb's blend). The aircraft is taken to keep its release velocity "
+                "for the whole fall.",
+                dw.thrust_n, s->downwash.disk_area_m2, dw.v_hover_m_s, 2.0 * dw.v_hover_m_s,
+                dw.skew_rad > 1e-9 ? "air moving past the rotor lowers v_i (Glauert) and leans "
+                                     "the wake downwind;"
+                                   : "in hover",
+                PLUMB_DOWNWASH_JET_B);
+    if (dw.skew_rad > 1e-9)
+        add_warning(item,
+                    "Rotor downwash: the air moves past the rotor at %.3g m/s, so v_i is %.3g "
+                    "m/s and the wake leans %.0f deg from the vertical (Glauert, Leishman 2006; "
+                    "from memory). The model is for hover and slow flight (below about %.3g "
+                    "m/s); faster, the wake is swept behind the aircraft and this is a rough "
+                    "guide only.",
+                    hypot(rel[0], rel[1]), dw.v_i_m_s, dw.skew_rad * 180.0 / PLUMB_PI,
+                    dw.v_hover_m_s);
+}
+
 plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
                               const plumb_criteria *criteria, const plumb_atmosphere *atm,
                               plumb_diag *diag)
 {
-    (void)atm; /* the fall result already carries the Mach and Reynolds ranges */
     if (!item || !item->spec)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no fall to judge");
     item->n_verdicts = 0;
@@ -187,6 +227,21 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     "the glide, this fall does not; \"radius = drop height\" is not "
                     "conservative for plates.",
                     gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why);
+    note_downwash(item, atm);
+    const plumb_turbulence_spec *tb = &item->spec->turbulence;
+    if (tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
+        add_warning(item,
+                    "Gusts (wind.turbulence, %s, W20 %.3g m/s) apply only to plumb zone, where "
+                    "every sample falls through its own realisation; this single fall uses the "
+                    "mean wind.",
+                    tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
+                    plumb_fall_w20(item->spec));
+    else if (tb->model != PLUMB_TURB_NONE)
+        add_warning(item,
+                    "Gusts: this fall went through one realisation of the %s model (W20 %.3g "
+                    "m/s), sum of %zu random Fourier modes per component.",
+                    tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
+                    plumb_fall_w20(item->spec), tb->n_modes);
     warn_helmet_tests(item);
     return PLUMB_OK;
 }

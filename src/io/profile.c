@@ -125,10 +125,15 @@ static const plumby_schema position_keys[] = {
     S_NUM("latitude", ANGLE, LATITUDE),
     S_NUM("longitude", ANGLE, LONGITUDE),
 };
+static const plumby_schema downwash_keys[] = {
+    S_NUM("aircraft_mass", MASS, POSITIVE),
+    S_NUM("disk_area", AREA, POSITIVE),
+};
 static const plumby_schema release_keys[] = {
     S_NUM("height", LENGTH, POSITIVE),
     S_MAP("velocity", velocity_keys),
     S_MAP("position", position_keys),
+    S_MAP("downwash", downwash_keys),
 };
 static const plumby_schema site_keys[] = {
     S_NUM("elevation", LENGTH, ALTITUDE),
@@ -156,11 +161,19 @@ static const plumby_schema wind_row_keys[] = {
     S_NUM("from", ANGLE, ANY),
 };
 static const plumby_schema wind_row_item[] = {S_MAP("", wind_row_keys)};
+static const char *const turb_models[] = {"dryden", "von-karman"};
+static const char *const turb_words[] = {"light", "moderate", "severe"};
+static const plumby_schema turb_keys[] = {
+    S_WORD("model", turb_models),
+    S_WORD("intensity", turb_words),
+    S_NUM("w20", SPEED, NONNEG),
+};
 static const plumby_schema wind_keys[] = {
     S_WORD("profile", wind_profiles),       S_NUM("speed", SPEED, NONNEG),
     S_NUM("from", ANGLE, ANY),              S_NUM("reference_height", LENGTH, POSITIVE),
     S_NUM("exponent", NONE, UNIT),          S_NUM("roughness", LENGTH, POSITIVE),
     S_LIST("table", wind_row_item),
+    S_MAP("turbulence", turb_keys),
 };
 static const plumby_schema criteria_item[] = {
     {"", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0}};
@@ -1168,6 +1181,14 @@ static plumb_status read_release_site(loader *L, plumb_fall_spec *base)
     plumby_sub(&rm, "velocity", &vm);
     plumby_sub(&rm, "position", &pm);
     plumby_sub(&L->root, "site", &sm);
+    plumby_map dwm;
+    plumby_sub(&rm, "downwash", &dwm);
+    if (dwm.node &&
+        ((st = plumby_num(&dwm, "aircraft_mass", 1, 0.0, &base->downwash.aircraft_mass_kg, NULL)) !=
+             PLUMB_OK ||
+         (st = plumby_num(&dwm, "disk_area", 1, 0.0, &base->downwash.disk_area_m2, NULL)) !=
+             PLUMB_OK))
+        return st;
     if ((st = plumby_num(&rm, "height", 1, 0.0, &L->height_m, NULL)) != PLUMB_OK ||
         (st = plumby_num(&pm, "east", 0, 0.0, &base->release_m[0], NULL)) != PLUMB_OK ||
         (st = plumby_num(&pm, "north", 0, 0.0, &base->release_m[1], NULL)) != PLUMB_OK)
@@ -1379,6 +1400,39 @@ static plumb_status read_atmosphere(loader *L)
     a->table_t_k = L->p->atm_t_k;
     if (!with_t)
         return check_std_temperature(&am, a->temperature_offset_k, lo, hi);
+    return PLUMB_OK;
+}
+
+/* wind.turbulence (plumb/turbulence.h): a model (default dryden) and its
+ * intensity as a word or W20; neither: W20 from the mean wind at 20 ft. */
+static plumb_status read_turbulence(loader *L, plumb_turbulence_spec *t)
+{
+    plumby_map wm, tm;
+    plumb_status st;
+    memset(t, 0, sizeof *t);
+    plumby_sub(&L->root, "wind", &wm);
+    plumby_sub(&wm, "turbulence", &tm);
+    if (!tm.node)
+        return PLUMB_OK;
+    int model = 0, word = 0;
+    if ((st = plumby_word(&tm, "model", 0, &model)) != PLUMB_OK)
+        return st;
+    t->model = model == 0 ? PLUMB_TURB_DRYDEN : PLUMB_TURB_VON_KARMAN;
+    int has_i = plumby_get(&tm, "intensity") != NULL, has_w = plumby_get(&tm, "w20") != NULL;
+    if (has_i && has_w)
+        return plumby_forbid(&tm, "w20", "together with intensity (give intensity or w20)");
+    if (has_i) {
+        static const double w20[] = {PLUMB_TURB_W20_LIGHT_M_S, PLUMB_TURB_W20_MODERATE_M_S,
+                                     PLUMB_TURB_W20_SEVERE_M_S};
+        if ((st = plumby_word(&tm, "intensity", 0, &word)) != PLUMB_OK)
+            return st;
+        t->w20_m_s = w20[word];
+    } else if (has_w) {
+        if ((st = plumby_num(&tm, "w20", 1, 0.0, &t->w20_m_s, NULL)) != PLUMB_OK)
+            return st;
+    } else {
+        t->from_wind = 1;
+    }
     return PLUMB_OK;
 }
 
@@ -1795,7 +1849,8 @@ static plumb_status interpret(loader *L)
     memset(&base, 0, sizeof base);
     plumbp_strlcpy(base.name, p->name, sizeof base.name);
     if ((st = read_release_site(L, &base)) != PLUMB_OK || (st = read_atmosphere(L)) != PLUMB_OK ||
-        (st = read_wind(L, &base.wind)) != PLUMB_OK)
+        (st = read_wind(L, &base.wind)) != PLUMB_OK ||
+        (st = read_turbulence(L, &base.turbulence)) != PLUMB_OK)
         return st;
 
     const plumby_node *items = plumby_get(&L->root, "items");
@@ -2167,6 +2222,16 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
     for (int i = 0; i < 3; i++) {
         canon(&h, "release", s->release_m[i]);
         canon(&h, "velocity", s->velocity_m_s[i]);
+    }
+    if (s->downwash.aircraft_mass_kg > 0.0 || s->downwash.disk_area_m2 > 0.0) {
+        canon(&h, "downwash.aircraft_mass", s->downwash.aircraft_mass_kg);
+        canon(&h, "downwash.disk_area", s->downwash.disk_area_m2);
+    }
+    if (s->glide.mode != PLUMB_GLIDE_OFF)
+        canon(&h, "glide", (double)s->glide.mode);
+    if (s->turbulence.model != PLUMB_TURB_NONE) {
+        canon(&h, "turbulence.model", (double)s->turbulence.model);
+        canon(&h, "turbulence.w20", s->turbulence.from_wind ? NAN : s->turbulence.w20_m_s);
     }
     canon(&h, "site.elevation", s->site_elevation_m);
     canon(&h, "gravity.latitude", s->gravity.has_latitude ? s->gravity.latitude_deg : NAN);

@@ -22,4 +22,9 @@ int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmos
  * their number; 0 and NULL for fixed drag. */
 size_t plumbp_drag_crisis(plumb_drag_model model, const double (**re)[2]);
 
+/* zeta_u from a realisation's Chebyshev series (turbulence.c), for tests
+ * against plumb_turbulence_zeta. */
+struct plumb_turbulence_spec;
+double plumbp_turbulence_zeta_fast(const struct plumb_turbulence_spec *t, double z_m);
+
 #endif /* PLUMB_PHYSICS_INTERNAL_H */

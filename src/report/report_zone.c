@@ -178,6 +178,19 @@ static const char *dist_word(plumb_dist_kind k)
     }
 }
 
+/* The gusts each sample falls through (plumb/turbulence.h). */
+static void text_gusts(writer *w, const plumb_zone_result *r)
+{
+    if (r->gust_model == PLUMB_TURB_NONE)
+        return;
+    char line[256];
+    snprintf(line, sizeof line,
+             "%s (MIL-F-8785C low altitude), W20 %s: each sample falls through its own "
+             "realisation", r->gust_model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
+             plumbp_t_speed(w, r->gust_w20_m_s));
+    wrapped(w, "  wind.turbulence            ", line);
+}
+
 static void text_inputs(writer *w, const plumb_zone_result *r)
 {
     if (r->n_inputs == 0) {
@@ -241,6 +254,7 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
         snprintf(lead, sizeof lead, "  %-26s ", in->key);
         wrapped(w, lead, line);
     }
+    text_gusts(w, r);
     put(w, "\n");
 }
 
@@ -867,6 +881,13 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
     }
     jset(j, o, "truncated", tr);
     jset(j, o, "inputs", inputs);
+    if (r->gust_model != PLUMB_TURB_NONE) {
+        json_t *g = jobj(j);
+        jset(j, g, "model", jstr(j, plumb_turbulence_model_name((plumb_turbulence_model)r->gust_model)));
+        jset(j, g, "w20_m_s", jreal(j, r->gust_w20_m_s));
+        jset(j, g, "realisation", jstr(j, "one per sample, from the sample's own random stream"));
+        jset(j, o, "gusts", g);
+    }
     if (r->has_target) {
         const plumb_zone_stats *t = &r->at_target;
         json_t *tg = jobj(j);

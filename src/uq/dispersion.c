@@ -1144,6 +1144,11 @@ static double ballistic_throw(const plumb_fall_spec *s)
  * of its own, so that what a sample draws for its inputs is untouched by
  * the draws of the glide or the gusts (and identical for any thread count). */
 #define SALT_GLIDE UINT64_C(0x676C696465) /* "glide" */
+#define SALT_GUST UINT64_C(0x67757374)    /* "gust" */
+static double taus_uniform(void *state)
+{
+    return taus_get_double(state);
+}
 static void substream_uniforms(unsigned long seed, uint64_t salt, size_t index, double *u, size_t n)
 {
     taus_state t;
@@ -1167,6 +1172,16 @@ static void compute_block(worker *w, slot *sl)
         plumb_diag_clear(&d);
         double vals[PLUMB_ZONE_MAX_INPUTS];
         plumb_status st = plumb_sampler_draw(w->sampler, ps->seed, i, &spec, vals, sl->redraws, &d);
+                if (st == PLUMB_OK && spec.turbulence.model != PLUMB_TURB_NONE) {
+            /* this sample's gusts, from a stream of its own (plumb/turbulence.h) */
+            double w20 = plumb_fall_w20(&spec);
+            if (w20 > 0.0) {
+                taus_state ts;
+                taus_seed(&ts, (unsigned long)((uint64_t)ps->seed ^ splitmix64_mix(SALT_GUST)), i);
+                plumb_turbulence_realise(&spec.turbulence, PLUMB_TURB_MODES, w20,
+                                         spec.release_m[2], taus_uniform, &ts);
+            }
+        }
         if (st == PLUMB_OK) {
             spec.release_m[0] += ps->shift[0];
             spec.release_m[1] += ps->shift[1];
@@ -1707,6 +1722,8 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
     res->seed = zone->seed;
     res->confidence = zone->confidence;
     res->ci_level = opt.ci_level;
+    res->gust_model = (int)base->turbulence.model;
+    res->gust_w20_m_s = plumb_fall_w20(base);
 
     /* Pass 0: released at the planned point, radii from it. */
     ps.pass_no = 0;
