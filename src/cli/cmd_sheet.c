@@ -130,7 +130,7 @@ static int run(const cli_args *a, const cli_option *o)
     for (size_t i = 0; st == PLUMB_OK && i < a->n_args; i++) {
         st = cli_study_open(a, a->args[i], &cs[i], &diag);
         if (st == PLUMB_OK)
-            st = plumb_brief_make(cs[i].study, &bo, &briefs[i], &diag);
+            st = plumb_brief_alloc(cs[i].study, &bo, &briefs[i], &diag);
     }
     int rc;
     if (st == PLUMB_OK) {

@@ -33,11 +33,6 @@
 /* Space after a block, pt. */
 #define GAP 6.0
 #define SECTION_GAP 12.0
-/* Ring of formatted strings. */
-enum { FMT_RING = 32, FMT_LEN = 2048 };
-
-static char fmt_ring[FMT_RING][FMT_LEN];
-static unsigned fmt_next;
 
 /* The short caution of every footer (design.md section 7). */
 static const char footer_caution[] =
@@ -64,8 +59,7 @@ static const char *const assumptions[] = {
 
 const char *sheet_esc(sheet_doc *d, const char *s)
 {
-    (void)d;
-    char *b = fmt_ring[fmt_next++ % FMT_RING];
+    char *b = d->ring[d->next++ % SHEET_RING];
     gchar *e = g_markup_escape_text(s, -1);
     snprintf(b, FMT_LEN, "%s", e ? e : "");
     g_free(e);
@@ -93,7 +87,7 @@ const char *sheet_fmt(sheet_doc *d, const char *fmt, ...)
     }
     joined[j] = '\0';
     if (markup) {
-        char *b = fmt_ring[fmt_next++ % FMT_RING];
+        char *b = d->ring[d->next++ % SHEET_RING];
         snprintf(b, FMT_LEN, "%s", joined);
         return b;
     }
