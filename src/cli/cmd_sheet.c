@@ -89,9 +89,15 @@ static int run(const cli_args *a, const cli_option *o)
         return cli_usage_error(a->cmd, "needs at least one PROFILE");
     if (!a->output || strcmp(a->output, "-") == 0)
         return cli_usage_error(a->cmd, "needs -o FILE.pdf");
-    for (size_t i = 0; i < a->n_args; i++)
+    size_t n_stdin = 0;
+    for (size_t i = 0; i < a->n_args; i++) {
         if (cli_same_file(a->output, a->args[i]))
             return cli_usage_error(a->cmd, "-o %s would overwrite the profile", a->output);
+        n_stdin += strcmp(a->args[i], "-") == 0;
+    }
+    if (n_stdin > 1)
+        return cli_usage_error(a->cmd, "'-' (standard input) may be given once, found %zu times",
+                               n_stdin);
     sheet_job job;
     memset(&job, 0, sizeof job);
     job.so.units = a->units;

@@ -278,6 +278,8 @@ rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--paper", "a5")
 check(rc == 2 and "a4 or letter" in err and no_leftovers(d), f"--paper a5: exit {rc}")
 rc, _, err = run("sheet", DRONE)
 check(rc == 2 and "-o" in err, f"no -o: exit {rc}")
+rc, _, err = run("sheet", "-", "-", "-o", bad_pdf)
+check(rc == 2 and "once" in err and no_leftovers(d), f"'-' twice: exit {rc}")
 rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "10")
 check(rc == 2 and no_leftovers(d), f"too few samples for the confidence: exit {rc}: {err}")
 rc, _, err = run("sheet", DRONE, "-o", os.path.join(d, "no", "such", "dir.pdf"), "--samples",
