@@ -667,6 +667,10 @@ static void section_plan(sheet_doc *d, const plumb_brief *b)
     const plumb_zone_result *z = b->zone->items[b->zone_item].result;
     const plumb_zone_stats *s = &z->zone;
     const plumb_fall_spec *spec = b->fall->items[b->zone_item].spec;
+    if (b->zone->n_items > 1)
+        sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY),
+                   sheet_fmt(d, "The zone of %s, the item with the largest clearance radius; "
+                                "section 6 names every item.", b->zone->items[b->zone_item].name));
     sheet_plan pv;
     memset(&pv, 0, sizeof pv);
     pv.drop_m[0] = s->release_m[0];
