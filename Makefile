@@ -70,7 +70,10 @@ ASAN_VARS  = BUILD=$(ASAN_BUILD) OPT="-Og -g" \
   EXTRA_LDFLAGS="-fsanitize=address,undefined"
 # The gcov build of `make coverage`.
 COV_BUILD  := $(BUILD)/cov
-COV_VARS   = BUILD=$(COV_BUILD) OPT="-O0 -g" EXTRA_CFLAGS="--coverage" EXTRA_LDFLAGS="--coverage"
+# -fprofile-update=atomic: the zone runs threads, whose counts would
+# otherwise race and undercount.
+COV_VARS   = BUILD=$(COV_BUILD) OPT="-O0 -g" EXTRA_CFLAGS="--coverage -fprofile-update=atomic" \
+  EXTRA_LDFLAGS="--coverage"
 
 # One line per step unless V=1.
 ifeq ($(V),1)
@@ -122,6 +125,11 @@ all: $(BIN) $(LIB) $(SHEET_LIB) $(SO_REAL) $(SO_LINKS)
 $(LIB_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS)
 $(SHEET_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS) $(SHEET_CFLAGS)
 $(TEST_OBJ) $(SUPP_OBJ): EXTRA_OBJ_FLAGS = -Itests/support
+# Where the command looks for the criteria when neither --criteria-dir nor
+# $PLUMB_CRITERIA_DIR says and none sits beside the executable: the
+# installed data directory, then this source tree (an out-of-tree build).
+$(CLI_OBJ): EXTRA_OBJ_FLAGS = -DPLUMB_CRITERIA_INSTALLED='"$(DATADIR)/plumb/criteria"' \
+  -DPLUMB_CRITERIA_SOURCE='"$(CURDIR)/profiles/criteria"'
 
 $(BUILD)/obj/%.o: %.c Makefile
 	@mkdir -p $(dir $@)

@@ -30,6 +30,9 @@ if [ "$want_tests" = 1 ]; then
   # the sheet's tests read the PDF with poppler's tools
   command -v pdftotext >/dev/null 2>&1 || need poppler-utils
   /usr/bin/python3 -c 'import scipy.integrate, numpy' >/dev/null 2>&1 || need python3-scipy
+  # the zone's GeoJSON read back by GDAL, its coordinates by PROJ's geodesic
+  command -v ogrinfo >/dev/null 2>&1 || need gdal-bin
+  /usr/bin/python3 -c 'import pyproj' >/dev/null 2>&1 || need python3-pyproj
 fi
 
 missing=$(echo $missing | tr ' ' '\n' | sort -u | tr '\n' ' ')

@@ -911,7 +911,7 @@ static void test_a_failing_sample_stops_the_run_at_the_same_index_for_any_thread
     plumb_zone_options_init(&o);
     o.on_sample = stop_at_40;
     plumb_diag d;
-    assert_int_equal(plumb_zone_run(&s, atm, &u, 1, &z, NULL, 0, &o, &r, &d), PLUMB_EIO);
+    assert_int_equal(plumb_zone_run(&s, atm, &u, 1, &z, NULL, 0, &o, &r, &d), PLUMB_EWRITE);
     /* the callback's index counts from 0; the message counts from 1, as
        the sample file and every list a person reads do */
     assert_non_null(strstr(d.message, "at sample 41"));

@@ -582,7 +582,7 @@ static void test_empty_and_inconsistent_reports_are_refused_with_nothing_written
     assert_int_equal(plumb_report_zone(NULL, &opt, &rep, &d), PLUMB_EINVAL);
 }
 
-static void test_a_stream_that_cannot_be_written_is_an_io_error(void **state)
+static void test_a_stream_that_cannot_be_written_is_a_write_error(void **state)
 {
     (void)state;
     plumb_zone_item item = {"marker bag", &base};
@@ -593,8 +593,8 @@ static void test_a_stream_that_cannot_be_written_is_an_io_error(void **state)
         plumb_report_options opt = {(plumb_format)f, PLUMB_UNITS_SI, NULL};
         plumb_diag d;
         plumb_diag_clear(&d);
-        assert_int_equal(plumb_report_zone(full, &opt, &rep, &d), PLUMB_EIO);
-        assert_int_equal(d.status, PLUMB_EIO);
+        assert_int_equal(plumb_report_zone(full, &opt, &rep, &d), PLUMB_EWRITE);
+        assert_int_equal(d.status, PLUMB_EWRITE);
         fclose(full);
     }
 }
@@ -611,7 +611,7 @@ int main(void)
         cmocka_unit_test(test_us_csv_gives_feet_and_foot_pounds_and_quotes_names),
         cmocka_unit_test(test_inventory_json_names_the_item_with_the_largest_clearance_radius),
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
-        cmocka_unit_test(test_a_stream_that_cannot_be_written_is_an_io_error),
+        cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

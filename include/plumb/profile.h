@@ -48,7 +48,11 @@ typedef struct plumb_zone_spec {
     double confidence;         /* 0 < c < 1, default 0.99 */
     double scatter_m;          /* bounce/deflection allowance, m, default 0 */
     int has_target;            /* 1: target_m is set */
-    double target_m[2];        /* east, north, m */
+    double target_m[2];        /* east, north, m (given so, or from zone.target.latitude
+                                  and .longitude) */
+    int has_site;              /* 1: site.latitude and site.longitude are both given */
+    double site_deg[2];        /* the site (the origin of east, north): WGS 84 latitude,
+                                  longitude, deg */
 } plumb_zone_spec;
 
 /* The profile's optional `job:` map, for the printed sheet: what the

@@ -83,7 +83,11 @@ static void cli_print_options(unsigned accept, const cli_option *extra, size_t n
         const cli_common *c = &common_options[i];
         if (c->bit && !(accept & c->bit))
             continue;
-        cli_print_option(c->alias, c->name, c->arg, c->help);
+        cli_print_option(c->alias, c->name, c->arg,
+                         c->bit == CLI_FORMAT && (accept & CLI_GEOJSON)
+                             ? "text (default), json, csv or geojson (RFC 7946,\n"
+                               "needs site.latitude and site.longitude)"
+                             : c->help);
     }
 }
 
@@ -241,10 +245,13 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 a->format = PLUMB_FORMAT_JSON;
             else if (strcmp(value, "csv") == 0)
                 a->format = PLUMB_FORMAT_CSV;
+            else if (strcmp(value, "geojson") == 0 && (accept & CLI_GEOJSON))
+                a->format = PLUMB_FORMAT_GEOJSON;
             else {
                 cli_args_free(a);
-                return cli_usage_error(a->cmd, "--format must be text, json or csv, found '%s'",
-                                       value);
+                return cli_usage_error(a->cmd, "--format must be text, json%s csv%s, found '%s'",
+                                       accept & CLI_GEOJSON ? "," : " or",
+                                       accept & CLI_GEOJSON ? " or geojson" : "", value);
             }
         } else if (strcmp(name, "--units") == 0) {
             if (strcmp(value, "si") == 0)
@@ -295,19 +302,110 @@ static plumb_status cli_io_error(plumb_diag *diag, const char *path, const char 
     return cli_io_status(diag, PLUMB_EWRITE, path, what, err);
 }
 
-static int cli_write_all(int fd, const char *buf, size_t len)
+plumb_status cli_outfile_open(cli_outfile *o, const char *path, const char *what,
+                              plumb_diag *diag)
 {
-    while (len > 0) {
-        ssize_t w = write(fd, buf, len);
-        if (w < 0) {
-            if (errno == EINTR)
-                continue;
-            return -1;
+    memset(o, 0, sizeof *o);
+    o->path = path;
+    o->what = what;
+    const char *slash = strrchr(path, '/');
+    const char *base = slash ? slash + 1 : path;
+    if (*base == '\0' || strcmp(base, ".") == 0 || strcmp(base, "..") == 0)
+        return cli_io_error(diag, path, what, EISDIR);
+
+    /* Anything that exists and is not a regular file (a character or block
+     * device such as /dev/null, a FIFO, a terminal) is written in place:
+     * renaming a file over it would replace the device node itself, and
+     * as root that destroys /dev/null for the whole system. */
+    struct stat st;
+    if (stat(path, &st) == 0 && !S_ISREG(st.st_mode)) {
+        if (S_ISDIR(st.st_mode))
+            return cli_io_error(diag, path, what, EISDIR);
+        int fd = open(path, O_WRONLY | O_NOCTTY);
+        if (fd < 0)
+            return cli_io_error(diag, path, what, errno);
+        o->f = fdopen(fd, "w");
+        if (!o->f) {
+            int err = errno;
+            close(fd);
+            return cli_io_error(diag, path, what, err);
         }
-        buf += w;
-        len -= (size_t)w;
+        o->in_place = 1;
+        return PLUMB_OK;
     }
-    return 0;
+
+    if (!slash)
+        snprintf(o->dir, sizeof o->dir, ".");
+    else if (slash == path)
+        snprintf(o->dir, sizeof o->dir, "/");
+    else if (snprintf(o->dir, sizeof o->dir, "%.*s", (int)(slash - path), path) >=
+             (int)sizeof o->dir)
+        return cli_io_error(diag, path, what, ENAMETOOLONG);
+    if (snprintf(o->tmp, sizeof o->tmp, "%s/.%s.XXXXXX", o->dir, base) >= (int)sizeof o->tmp) {
+        o->tmp[0] = '\0';
+        return cli_io_error(diag, path, what, ENAMETOOLONG);
+    }
+    int fd = mkstemp(o->tmp);
+    if (fd < 0) {
+        int err = errno;
+        o->tmp[0] = '\0';
+        return cli_io_status(diag, PLUMB_EWRITE, path, "cannot create a temporary file beside it",
+                             err);
+    }
+    o->f = fdopen(fd, "w");
+    if (!o->f) {
+        int err = errno;
+        close(fd);
+        unlink(o->tmp);
+        o->tmp[0] = '\0';
+        return cli_io_error(diag, path, what, err);
+    }
+    return PLUMB_OK;
+}
+
+plumb_status cli_outfile_close(cli_outfile *o, int commit, plumb_diag *diag)
+{
+    if (!o->f)
+        return PLUMB_OK;
+    int err = 0;
+    errno = 0;
+    if (commit) {
+        if (fflush(o->f) != 0 || ferror(o->f))
+            err = errno ? errno : EIO;
+        /* fsync and the permissions of a new file only for the temporary
+         * file: a device or a FIFO has its own (fsync fails on a pipe). */
+        if (!err && !o->in_place) {
+            mode_t mask = umask(0);
+            umask(mask);
+            if (fsync(fileno(o->f)) != 0 || fchmod(fileno(o->f), (mode_t)(0666 & ~mask)) != 0)
+                err = errno;
+        }
+    }
+    if (fclose(o->f) != 0 && !err)
+        err = errno;
+    o->f = NULL;
+    if (o->in_place) {
+        if (commit && err)
+            return cli_io_error(diag, o->path, o->what, err);
+        return PLUMB_OK;
+    }
+    if (commit && !err && rename(o->tmp, o->path) != 0)
+        err = errno;
+    if (!commit || err) {
+        unlink(o->tmp);
+        o->tmp[0] = '\0';
+    }
+    if (commit && err)
+        return cli_io_error(diag, o->path, o->what, err);
+    if (commit) {
+        /* Make the rename itself durable; a failure here loses nothing written. */
+        int dfd = open(o->dir, O_RDONLY);
+        if (dfd >= 0) {
+            (void)fsync(dfd);
+            close(dfd);
+        }
+    }
+    return PLUMB_OK;
 }
 
 plumb_status cli_write_output(const char *path, const char *buf, size_t len, plumb_diag *diag)
@@ -317,44 +415,17 @@ plumb_status cli_write_output(const char *path, const char *buf, size_t len, plu
             return cli_io_error(diag, "<standard output>", "cannot write", errno);
         return PLUMB_OK;
     }
-    const char *slash = strrchr(path, '/');
-    const char *base = slash ? slash + 1 : path;
-    if (*base == '\0' || strcmp(base, ".") == 0 || strcmp(base, "..") == 0)
-        return cli_io_error(diag, path, "cannot write the report", EISDIR);
-    char dir[CLI_PATH_MAX], tmp[CLI_PATH_MAX];
-    if (!slash)
-        snprintf(dir, sizeof dir, ".");
-    else if (slash == path)
-        snprintf(dir, sizeof dir, "/");
-    else
-        snprintf(dir, sizeof dir, "%.*s", (int)(slash - path), path);
-    if (snprintf(tmp, sizeof tmp, "%s/.%s.XXXXXX", dir, base) >= (int)sizeof tmp)
-        return cli_io_error(diag, path, "cannot write the report", ENAMETOOLONG);
-
-    int fd = mkstemp(tmp);
-    if (fd < 0)
-        return cli_io_error(diag, path, "cannot create a temporary file beside it", errno);
-    mode_t mask = umask(0);
-    umask(mask);
-    int err = 0;
-    if (cli_write_all(fd, buf, len) != 0 || fsync(fd) != 0 ||
-        fchmod(fd, (mode_t)(0666 & ~mask)) != 0)
-        err = errno;
-    if (close(fd) != 0 && !err)
-        err = errno;
-    if (!err && rename(tmp, path) != 0)
-        err = errno;
-    if (err) {
-        unlink(tmp);
+    cli_outfile o;
+    plumb_status st = cli_outfile_open(&o, path, "cannot write the report", diag);
+    if (st != PLUMB_OK)
+        return st;
+    errno = 0;
+    if (len > 0 && fwrite(buf, 1, len, o.f) != len) {
+        int err = errno ? errno : EIO;
+        (void)cli_outfile_close(&o, 0, diag);
         return cli_io_error(diag, path, "cannot write the report", err);
     }
-    /* Make the rename itself durable; a failure here loses nothing written. */
-    int dfd = open(dir, O_RDONLY);
-    if (dfd >= 0) {
-        (void)fsync(dfd);
-        close(dfd);
-    }
-    return PLUMB_OK;
+    return cli_outfile_close(&o, 1, diag);
 }
 
 /* Reads standard input to its end into a malloc'd buffer (*buf, *len);
@@ -516,6 +587,13 @@ const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
             }
         }
     }
+    /* the installed data directory, the working directory's
+     * profiles/criteria, then the source tree this program was built from */
+    static const char *const fixed[] = {PLUMB_CRITERIA_INSTALLED, "profiles/criteria",
+                                        PLUMB_CRITERIA_SOURCE};
+    for (size_t i = 0; i < sizeof fixed / sizeof fixed[0]; i++)
+        if (cli_is_dir(fixed[i]))
+            return fixed[i];
     return "profiles/criteria";
 }
 

@@ -13,12 +13,16 @@
  * mkstemp in the output's own directory, flushed to disk with fsync, given
  * the permissions a new file would get (0666 less the umask) and renamed
  * over the destination; rename(2) within one file system is atomic, so a
- * reader sees the old file or the whole new one, never a part.
+ * reader sees the old file or the whole new one, never a part. A
+ * destination that exists and is not a regular file (a character or block
+ * device such as /dev/null, a FIFO, a terminal) is written in place
+ * instead: a rename would replace the device node itself.
  */
 #ifndef PLUMB_CLI_H
 #define PLUMB_CLI_H
 
 #include <stddef.h>
+#include <stdio.h>
 #include "plumb/plumb.h"
 
 enum { CLI_EXIT_OK = 0, CLI_EXIT_INPUT = 2, CLI_EXIT_FAILED = 3 };
@@ -36,7 +40,8 @@ enum {
     CLI_UNITS = 1u << 2,     /* --units si|us */
     CLI_OUTPUT = 1u << 3,    /* -o FILE, --output FILE */
     CLI_QUIET = 1u << 4,     /* --quiet */
-    CLI_CRITERIA = 1u << 5   /* --criteria-dir DIR */
+    CLI_CRITERIA = 1u << 5,  /* --criteria-dir DIR */
+    CLI_GEOJSON = 1u << 6    /* --format geojson too (with CLI_FORMAT) */
 };
 
 /* Most values a repeatable option keeps (cli_option.max). */
@@ -108,6 +113,30 @@ int cli_usage_error(const char *cmd, const char *fmt, ...)
  * input error (plumb_status_is_input_error), else 3. */
 int cli_fail(const plumb_diag *diag);
 
+/* An output file being written (cli_outfile_open, cli_outfile_close). */
+typedef struct cli_outfile {
+    const char *path;          /* destination */
+    const char *what;          /* "cannot write the report", for messages */
+    char dir[CLI_PATH_MAX];    /* its directory */
+    char tmp[CLI_PATH_MAX];    /* the temporary file beside it, "" when none */
+    int in_place;              /* 1: the destination itself (not a regular file) */
+    FILE *f;                   /* write here; NULL once closed */
+} cli_outfile;
+
+/* Opens the output file `path` as the top of this file says: a temporary
+ * file beside it, or the destination itself when it exists and is not a
+ * regular file. `what` starts the messages ("cannot write the samples").
+ * On error (PLUMB_EWRITE, diag says why) nothing is left behind and o->f
+ * is NULL. */
+plumb_status cli_outfile_open(cli_outfile *o, const char *path, const char *what,
+                              plumb_diag *diag);
+
+/* commit = 1: flushes, syncs and renames the temporary file over the
+ * destination (PLUMB_EWRITE and nothing left behind when any step fails);
+ * commit = 0: removes the temporary file (what was written in place
+ * stays written). Accepts a closed or never opened o. */
+plumb_status cli_outfile_close(cli_outfile *o, int commit, plumb_diag *diag);
+
 /* Writes len bytes of buf to `path` atomically (see the top of this file),
  * or to standard output when path is NULL or "-". On error nothing is left
  * behind (the temporary file is removed) and diag says why (PLUMB_EIO). */
@@ -163,7 +192,9 @@ int cli_same_file(const char *out, const char *in);
 
 /* The criteria directory: --criteria-dir, else $PLUMB_CRITERIA_DIR, else
  * <directory of /proc/self/exe>/../profiles/criteria (build tree), else
- * <exe dir>/../share/plumb/criteria (installed), else ./profiles/criteria.
+ * <exe dir>/../share/plumb/criteria (installed), else the data directory
+ * the program was built for, else ./profiles/criteria, else the source
+ * tree's profiles/criteria (an out-of-tree build run from elsewhere).
  * The result is a, the environment, a literal, or buf (size bytes). */
 const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size);
 

@@ -93,13 +93,13 @@ static inline json_t *j_cautions(jctx *j)
     return a;
 }
 
-/* Writes len bytes to out; PLUMB_EIO on failure. */
+/* Writes len bytes to out; PLUMB_EWRITE on failure (an output, not the input). */
 static inline plumb_status emit(FILE *out, const char *buf, size_t len, plumb_diag *diag)
 {
     if (len > 0 && fwrite(buf, 1, len, out) != len)
-        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the report");
+        return PLUMB_RAISE(diag, PLUMB_EWRITE, "could not write the report");
     if (fflush(out) != 0 || ferror(out))
-        return PLUMB_RAISE(diag, PLUMB_EIO, "could not write the report");
+        return PLUMB_RAISE(diag, PLUMB_EWRITE, "could not write the report");
     return PLUMB_OK;
 }
 

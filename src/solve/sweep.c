@@ -126,7 +126,13 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
                            "STEP '%s' goes the wrong way: from %s %s to %s needs a %s STEP",
                            parts[2], parts[0], out->to > out->from ? "up" : "down", parts[1],
                            out->to > out->from ? "positive" : "negative");
-    double span = (out->to - out->from) / out->step; /* >= 0, in double: never wraps */
+    /* >= 0, in double: never wraps; each end divided first, so that ends
+     * near the largest double do not overflow their difference */
+    double span = out->to / out->step - out->from / out->step;
+    if (!plumbp_finite(span))
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+                           "'%s' makes more values than can be counted, far more than %u; use "
+                           "a larger STEP", text, PLUMB_RANGE_MAX_VALUES);
     if (!(span < (double)PLUMB_RANGE_MAX_VALUES))
         return RANGE_ERROR(diag, PLUMB_ERANGE, what,
                            "'%s' makes %s%.*g values, more than %u; use a larger STEP", text,
