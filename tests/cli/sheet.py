@@ -173,6 +173,8 @@ r_drop = sig4(z["clearance_radius_m"]) + " m"
 r_target = sig4(z["target"]["clearance_radius_m"]) + " m"
 check(r_drop in p1, f"page 1 has the clearance radius {r_drop} of plumb zone")
 check(r_target in p1, f"page 1 has the clearance radius around the target {r_target}")
+r_land = sig4(z["landing"]["circle"]["clearance_radius_m"]) + " m"
+check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
 check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
 for v in ("exceeds",):
     check(v in p1, f"page 1 has the verdict word '{v}'")
