@@ -247,12 +247,18 @@ static void field(sheet_doc *d, double x, double y, double w, const char *label,
     if (value[0])
         sheet_text(d, x + lw, y, w - lw, font, value, 1);
     double base = y + SHEET_BODY * 1.35;
-    if (!value[0] || sign) {
-        double from = value[0] ? x + lw + sheet_text_width(d, font, value) + 8.0 : x + lw;
-        if (sign) {
-            sheet_text(d, from, y, 0.0, font, "signature", 1);
-            from += sheet_text_width(d, font, "signature") + 4.0;
-        }
+    /* a line for the name when none is given, then one to sign on */
+    double from = value[0] ? x + lw + sheet_text_width(d, font, value) + 8.0 : x + lw;
+    double name_end = sign && !value[0] ? x + w * 0.5 : x + w;
+    if (!value[0]) {
+        cairo_move_to(d->cr, from, base);
+        cairo_line_to(d->cr, name_end, base);
+        sheet_stroke(d, SHEET_SOLID, 0.5);
+        from = name_end + 8.0;
+    }
+    if (sign) {
+        sheet_text(d, from, y, 0.0, font, "signature", 1);
+        from += sheet_text_width(d, font, "signature") + 4.0;
         cairo_move_to(d->cr, from, base);
         cairo_line_to(d->cr, x + w, base);
         sheet_stroke(d, SHEET_SOLID, 0.5);
