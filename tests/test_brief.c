@@ -68,7 +68,7 @@ static void open_brief(fixture *f, const char *yaml, plumb_profile **p, plumb_st
                                                &d),
                      PLUMB_OK);
     assert_int_equal(plumb_study_open(*p, f->criteria, f->units, NULL, st, &d), PLUMB_OK);
-    assert_int_equal(plumb_brief_make(*st, NULL, b, &d), PLUMB_OK);
+    assert_int_equal(plumb_brief_alloc(*st, NULL, b, &d), PLUMB_OK);
 }
 
 /* The curve, the limit heights and the drag-free path of a drag-free

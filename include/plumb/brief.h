@@ -86,7 +86,7 @@ void plumb_brief_options_init(plumb_brief_options *opt);
  * Errors: those of plumb_study_fall, plumb_study_limit and plumb_study_zone
  * (a zone spec refused is PLUMB_EINVAL at zone.samples ...), PLUMB_ENOMEM.
  * On error *out is NULL. */
-plumb_status plumb_brief_make(plumb_study *study, const plumb_brief_options *opt,
+plumb_status plumb_brief_alloc(plumb_study *study, const plumb_brief_options *opt,
                               plumb_brief **out, plumb_diag *diag);
 
 /* Frees a brief. Accepts NULL. */

@@ -33,11 +33,6 @@
 /* Space after a block, pt. */
 #define GAP 6.0
 #define SECTION_GAP 12.0
-/* Ring of formatted strings. */
-enum { FMT_RING = 32, FMT_LEN = 2048 };
-
-static char fmt_ring[FMT_RING][FMT_LEN];
-static unsigned fmt_next;
 
 /* The short caution of every footer (design.md section 7). */
 static const char footer_caution[] =
@@ -64,8 +59,7 @@ static const char *const assumptions[] = {
 
 const char *sheet_esc(sheet_doc *d, const char *s)
 {
-    (void)d;
-    char *b = fmt_ring[fmt_next++ % FMT_RING];
+    char *b = d->ring[d->next++ % SHEET_RING];
     gchar *e = g_markup_escape_text(s, -1);
     snprintf(b, FMT_LEN, "%s", e ? e : "");
     g_free(e);
@@ -93,7 +87,7 @@ const char *sheet_fmt(sheet_doc *d, const char *fmt, ...)
     }
     joined[j] = '\0';
     if (markup) {
-        char *b = fmt_ring[fmt_next++ % FMT_RING];
+        char *b = d->ring[d->next++ % SHEET_RING];
         snprintf(b, FMT_LEN, "%s", joined);
         return b;
     }
@@ -253,12 +247,18 @@ static void field(sheet_doc *d, double x, double y, double w, const char *label,
     if (value[0])
         sheet_text(d, x + lw, y, w - lw, font, value, 1);
     double base = y + SHEET_BODY * 1.35;
-    if (!value[0] || sign) {
-        double from = value[0] ? x + lw + sheet_text_width(d, font, value) + 8.0 : x + lw;
-        if (sign) {
-            sheet_text(d, from, y, 0.0, font, "signature", 1);
-            from += sheet_text_width(d, font, "signature") + 4.0;
-        }
+    /* a line for the name when none is given, then one to sign on */
+    double from = value[0] ? x + lw + sheet_text_width(d, font, value) + 8.0 : x + lw;
+    double name_end = sign && !value[0] ? x + w * 0.5 : x + w;
+    if (!value[0]) {
+        cairo_move_to(d->cr, from, base);
+        cairo_line_to(d->cr, name_end, base);
+        sheet_stroke(d, SHEET_SOLID, 0.5);
+        from = name_end + 8.0;
+    }
+    if (sign) {
+        sheet_text(d, from, y, 0.0, font, "signature", 1);
+        from += sheet_text_width(d, font, "signature") + 4.0;
         cairo_move_to(d->cr, from, base);
         cairo_line_to(d->cr, x + w, base);
         sheet_stroke(d, SHEET_SOLID, 0.5);
@@ -381,10 +381,28 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                                   s->scatter_m > 0.0 ? plumbp_t_len(P, s->scatter_m) : "",
                                   s->scatter_m > 0.0 ? " for bounce and roll" : "", who));
     double dx = s->mean_m[0] - s->release_m[0], dy = s->mean_m[1] - s->release_m[1];
+    if (s->impact_point_fixed)
+        sheet_para(d, font, "The uncertain inputs do not move the impact point: the radii are "
+                            "one fall's drift.");
+    if (s->landing_circle_m > 0.0) {
+        double lx = s->landing_centre_m[0] - s->release_m[0];
+        double ly = s->landing_centre_m[1] - s->release_m[1];
+        sheet_para(d, font,
+                   sheet_fmt(d, "Where things land: %s%% of impacts within %s (%s) of their "
+                                "centre, %s toward %s of the drop point (the landing circle, "
+                                "upper %s%% bound%s).",
+                             plumbp_trimmed(P, 100.0 * z->confidence, 2),
+                             plumbp_t_len(P, s->landing_circle_m),
+                             plumbp_t_len(S, s->landing_circle_m), plumbp_t_len(P, hypot(lx, ly)),
+                             plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
+                             plumbp_trimmed(P, 100.0 * z->ci_level, 2),
+                             s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
+    }
     sheet_para(d, font,
-               sheet_fmt(d, "Where things land: 95%% of impacts within an ellipse of semi-axes %s "
+               sheet_fmt(d, "%s95%% of impacts within an ellipse of semi-axes %s "
                             "and %s (major axis toward %s) around the mean impact point, %s toward "
                             "%s of the drop point.",
+                         s->landing_circle_m > 0.0 ? "" : "Where things land: ",
                          plumbp_t_len(P, s->semi_major_m), plumbp_t_len(P, s->semi_minor_m),
                          plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
@@ -658,7 +676,6 @@ static void section_plots(sheet_doc *d, const plumb_brief *b)
 /* The plan view from whatever the zone gives: circles around the drop
  * point and the target, the 95 % ellipse as a polygon, the impact points
  * binned into a density grid. */
-enum { ELLIPSE_VERTICES = 72, GRID_CELLS = 64 };
 
 static void section_plan(sheet_doc *d, const plumb_brief *b)
 {
@@ -673,6 +690,10 @@ static void section_plan(sheet_doc *d, const plumb_brief *b)
     const plumb_zone_result *z = b->zone->items[b->zone_item].result;
     const plumb_zone_stats *s = &z->zone;
     const plumb_fall_spec *spec = b->fall->items[b->zone_item].spec;
+    if (b->zone->n_items > 1)
+        sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY),
+                   sheet_fmt(d, "The zone of %s, the item with the largest clearance radius; "
+                                "section 6 names every item.", b->zone->items[b->zone_item].name));
     sheet_plan pv;
     memset(&pv, 0, sizeof pv);
     pv.drop_m[0] = s->release_m[0];
@@ -685,14 +706,22 @@ static void section_plan(sheet_doc *d, const plumb_brief *b)
                         ""};
     snprintf(c->label, sizeof c->label, "heavy solid circle: keep clear, %s around the drop point",
              sheet_fmt(d, "%s", plumbp_t_len(P, s->clearance_radius_m)));
-    for (int k = 0; k < 2; k++) {
+    /* the 90 % radius around the drop point */
+    c = &pv.circles[pv.n_circles++];
+    *c = (sheet_circle){{s->centre_m[0], s->centre_m[1]}, s->radius[1].value, SHEET_DASHED, 0.8,
+                        ""};
+    snprintf(c->label, sizeof c->label, "dashed circle: %s%% of impacts within %s of the drop point",
+             sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->radius[1].p, 2)),
+             sheet_fmt(d, "%s", plumbp_t_len(P, s->radius[1].value)));
+    /* where things land: the landing circle around the impacts' centre */
+    if (s->landing_circle_m > 0.0) {
         c = &pv.circles[pv.n_circles++];
-        *c = (sheet_circle){{s->centre_m[0], s->centre_m[1]}, s->radius[k].value,
-                            k == 0 ? SHEET_DOTTED : SHEET_DASHED, 0.8, ""};
-        snprintf(c->label, sizeof c->label, "%s circle: %s%% of impacts within %s",
-                 k == 0 ? "dotted" : "dashed",
-                 sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->radius[k].p, 2)),
-                 sheet_fmt(d, "%s", plumbp_t_len(P, s->radius[k].value)));
+        *c = (sheet_circle){{s->landing_centre_m[0], s->landing_centre_m[1]}, s->landing_circle_m,
+                            SHEET_SOLID, 0.8, ""};
+        snprintf(c->label, sizeof c->label,
+                 "thin solid circle: where things land, %s%% of impacts within %s of their centre",
+                 sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * z->confidence, 2)),
+                 sheet_fmt(d, "%s", plumbp_t_len(P, s->landing_circle_m)));
     }
     if (z->has_target) {
         pv.has_target = 1;
@@ -708,19 +737,22 @@ static void section_plan(sheet_doc *d, const plumb_brief *b)
                  "dash-dot circle: keep clear, %s around the target when released to land on it",
                  sheet_fmt(d, "%s", plumbp_t_len(P, z->at_target.clearance_radius_m)));
     }
-    /* the 95 % ellipse (its axes from the zone) */
-    double ell[2 * ELLIPSE_VERTICES];
-    double th = s->bearing_deg / DEG_PER_RAD;
-    for (int i = 0; i < ELLIPSE_VERTICES; i++) {
-        double a = 2.0 * 3.14159265358979323846 * i / ELLIPSE_VERTICES;
-        double u = s->semi_major_m * cos(a), v = s->semi_minor_m * sin(a);
-        ell[2 * i] = s->mean_m[0] + u * sin(th) + v * cos(th);
-        ell[2 * i + 1] = s->mean_m[1] + u * cos(th) - v * sin(th);
+    /* the landing region: the polygon holding the zone's share of the
+     * impacts, with the scatter allowance as a buffer, one entry per ring */
+    const plumb_region_polygon *rg = &s->landing.buffered;
+    for (size_t r = 0; !s->landing.open && r < rg->n_rings && pv.n_polygons < SHEET_PLAN_POLYGONS;
+         r++) {
+        sheet_polygon *pg = &pv.polygons[pv.n_polygons++];
+        *pg = (sheet_polygon){rg->ring_count[r], &rg->vertex_m[rg->ring_first[r]][0], SHEET_DOTTED,
+                              1.3, ""};
+        if (r == 0)
+            snprintf(pg->label, sizeof pg->label,
+                     "dotted outline: the landing region, %s%% of impacts inside (%s %s)",
+                     sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->landing.p, 2)),
+                     sheet_fmt(d, "%s", num(P, P->us ? rg->area_m2 / (PLUMB_FT_M * PLUMB_FT_M)
+                                                     : rg->area_m2, TEXT_SIG)),
+                     P->us ? "ft\u00B2" : "m\u00B2");
     }
-    sheet_polygon *pg = &pv.polygons[pv.n_polygons++];
-    *pg = (sheet_polygon){ELLIPSE_VERTICES, ell, SHEET_DOTTED, 1.2, ""};
-    snprintf(pg->label, sizeof pg->label,
-             "dotted ellipse: 95%% of impacts, around the mean impact point");
     pv.n_points = b->n_points[0];
     pv.points_m = b->points_m[0];
     snprintf(pv.points_label, sizeof pv.points_label,

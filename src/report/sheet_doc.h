@@ -21,6 +21,9 @@
 #define SHEET_BODY 10.0
 #define SHEET_SMALL 8.0
 
+/* Formatted strings kept at once (sheet_fmt, sheet_esc), and their size. */
+enum { SHEET_RING = 32, FMT_LEN = 2048 };
+
 typedef struct sheet_doc {
     cairo_t *cr;
     PangoLayout *layout;
@@ -36,6 +39,8 @@ typedef struct sheet_doc {
     writer si, us;               /* number formatters, SI and US customary */
     char *sbuf, *ubuf;
     size_t slen, ulen;
+    char ring[SHEET_RING][FMT_LEN];  /* sheet_fmt's strings, reused round-robin */
+    unsigned next;
 } sheet_doc;
 
 /* The body's width. */

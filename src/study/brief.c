@@ -287,7 +287,7 @@ static plumb_status make_zone(plumb_study *study, const plumb_brief_options *opt
     return st;
 }
 
-plumb_status plumb_brief_make(plumb_study *study, const plumb_brief_options *opt, plumb_brief **out,
+plumb_status plumb_brief_alloc(plumb_study *study, const plumb_brief_options *opt, plumb_brief **out,
                               plumb_diag *diag)
 {
     *out = NULL;

@@ -142,7 +142,7 @@ def no_leftovers(d, keep=()):
 
 # ---- the drone release: a single payload with a zone and a target -----------
 pdf = os.path.join(tmp, "drone.pdf")
-rc, out, err = run("sheet", DRONE, "-o", pdf, "--samples", "2000", "--seed", "7")
+rc, out, err = run("sheet", DRONE, "-o", pdf, "--samples", "1000", "--seed", "7")
 check(rc == 0 and os.path.exists(pdf), f"sheet of the drone release: exit {rc}: {err}")
 pages = pages_text(pdf)
 info = pdfinfo(pdf)
@@ -167,13 +167,15 @@ for what, fig in (("speed", speed), ("energy", energy), ("time", tfall + " s"),
 
 # the clearance figures as plumb zone --format json gives them, same seed
 import json  # noqa: E402
-_, zj, _ = plumb("zone", DRONE, "--samples", "2000", "--seed", "7", "--format", "json")
+_, zj, _ = plumb("zone", DRONE, "--samples", "1000", "--seed", "7", "--format", "json")
 z = json.loads(zj)["zone"]
 r_drop = sig4(z["clearance_radius_m"]) + " m"
 r_target = sig4(z["target"]["clearance_radius_m"]) + " m"
 check(r_drop in p1, f"page 1 has the clearance radius {r_drop} of plumb zone")
 check(r_target in p1, f"page 1 has the clearance radius around the target {r_target}")
-check("Seed: 7, 2000 samples" in text, "the seed and samples are stated")
+r_land = sig4(z["landing"]["circle"]["clearance_radius_m"]) + " m"
+check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
+check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
 for v in ("exceeds",):
     check(v in p1, f"page 1 has the verdict word '{v}'")
 
@@ -211,14 +213,14 @@ check(n == m and not bad, f"grey renders: {n} pages, margins not blank on {bad}"
 
 # reproducible: the same bytes twice
 pdf2 = os.path.join(tmp, "drone2.pdf")
-run("sheet", DRONE, "-o", pdf2, "--samples", "2000", "--seed", "7")
+run("sheet", DRONE, "-o", pdf2, "--samples", "1000", "--seed", "7")
 with open(pdf, "rb") as a, open(pdf2, "rb") as b:
     check(a.read() == b.read(), "SOURCE_DATE_EPOCH: two runs byte for byte the same")
 os.remove(pdf2)
 
 # ---- letter paper, US units ------------------------------------------------------
 pdf_us = os.path.join(tmp, "us.pdf")
-rc, _, err = run("sheet", DRONE, "-o", pdf_us, "--samples", "2000", "--paper", "letter",
+rc, _, err = run("sheet", DRONE, "-o", pdf_us, "--samples", "500", "--paper", "letter",
                  "--units", "us")
 check(rc == 0, f"letter, us: exit {rc}: {err}")
 check(pdfinfo(pdf_us).get("Page size", "").startswith("612 x 792 pts"), "letter paper")
@@ -260,7 +262,7 @@ os.remove(pdf_kit)
 
 # ---- several profiles: one document ------------------------------------------------
 both = os.path.join(tmp, "both.pdf")
-rc, _, err = run("sheet", DRONE, KIT, "-o", both, "--samples", "1000")
+rc, _, err = run("sheet", DRONE, KIT, "-o", both, "--samples", "500")
 check(rc == 0, f"two profiles: exit {rc}: {err}")
 bt = pages_text(both)
 check(any(sha256(DRONE) in p for p in bt) and any(sha256(KIT) in p for p in bt),
@@ -278,16 +280,18 @@ rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--paper", "a5")
 check(rc == 2 and "a4 or letter" in err and no_leftovers(d), f"--paper a5: exit {rc}")
 rc, _, err = run("sheet", DRONE)
 check(rc == 2 and "-o" in err, f"no -o: exit {rc}")
+rc, _, err = run("sheet", "-", "-", "-o", bad_pdf)
+check(rc == 2 and "once" in err and no_leftovers(d), f"'-' twice: exit {rc}")
 rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "10")
 check(rc == 2 and no_leftovers(d), f"too few samples for the confidence: exit {rc}: {err}")
 rc, _, err = run("sheet", DRONE, "-o", os.path.join(d, "no", "such", "dir.pdf"), "--samples",
-                 "1000")
+                 "500")
 check(rc == 3 and "plumb:" in err and no_leftovers(d), f"unwritable output: exit {rc} (want 3)")
 # no fonts at all (an empty fontconfig configuration): exit 3, a clear message
 conf = os.path.join(tmp, "empty.conf")
 with open(conf, "w") as f:
     f.write('<?xml version="1.0"?>\n<!DOCTYPE fontconfig SYSTEM "fonts.dtd">\n<fontconfig></fontconfig>\n')
-rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "1000", env={"FONTCONFIG_FILE": conf})
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "500", env={"FONTCONFIG_FILE": conf})
 check(rc == 3 and "DejaVu Sans" in err and no_leftovers(d),
       f"no font: exit {rc} (want 3), message {err.strip()[-120:]!r}")
 os.remove(conf)
