@@ -4,7 +4,9 @@
 #   make check    install missing dependencies, build, run every test
 #                 (plain, then under AddressSanitizer + UBSan), in parallel
 #   make demo     install missing dependencies, build, run `plumb fall` on
-#                 the bundled demo profiles
+#                 the bundled demo profiles and write their sheets to out/
+#   make sheet-image  docs/sheet-page1.png, page 1 of the drone release's
+#                 sheet (pdftoppm), for the README
 #   make bench    benchmark (not a test)
 #   make asan     build and run the tests under ASan + UBSan only
 #   make coverage build with gcov into build/cov, run the tests, count the
@@ -31,6 +33,9 @@ JOBS      ?= $(shell nproc 2>/dev/null || echo 2)
 V         ?= 0
 PKGS      := gsl yaml-0.1 udunits jansson
 TEST_PKGS := cmocka
+# The PDF sheet (src/report/sheet*.c) is a separate archive,
+# libplumb-sheet.a, so libplumb itself does not need cairo or pango.
+SHEET_PKGS := cairo pangocairo
 # Debian's udunits.pc gives no include path although the header lives in
 # /usr/include/udunits2/.
 UDUNITS_INC ?= -I/usr/include/udunits2
@@ -49,6 +54,9 @@ CFLAGS_ALL = -std=c11 -D_POSIX_C_SOURCE=200809L $(OPT) $(WARN) -MMD -MP \
              $(shell pkg-config --cflags $(PKGS) 2>/dev/null) $(EXTRA_CFLAGS) $(CFLAGS)
 LIBS       = $(shell pkg-config --libs $(PKGS) 2>/dev/null) -lm -lpthread
 TEST_LIBS  = $(shell pkg-config --libs $(TEST_PKGS) 2>/dev/null)
+# cairo's and pango's headers as system headers: our warnings are for our code.
+SHEET_CFLAGS = $(patsubst -I%,-isystem %,$(shell pkg-config --cflags $(SHEET_PKGS) 2>/dev/null))
+SHEET_LIBS   = $(shell pkg-config --libs $(SHEET_PKGS) 2>/dev/null)
 LDFLAGS_ALL = $(EXTRA_LDFLAGS) $(LDFLAGS)
 # The library's objects serve both the archive and the shared object.
 # -fno-semantic-interposition keeps calls inside the library direct.
@@ -76,8 +84,15 @@ Q    := @
 say   = @printf '  %-6s %s\n' '$(1)' '$(2)'
 endif
 
+# The demo sheets (`make demo`, under out/): the mast crew's kit and the
+# drone release with a target, with a zone of DEMO_SAMPLES falls so the
+# demo stays quick (the profiles' own zone.samples is for a real run).
+DEMO_SHEETS  := profiles/demo/tower-kit.yaml profiles/demo/drone-release.yaml
+DEMO_SAMPLES ?= 5000
+
 # ---- sources --------------------------------------------------------------
-LIB_SRC   := $(sort $(shell find src -name '*.c' ! -path 'src/cli/*'))
+LIB_SRC   := $(sort $(shell find src -name '*.c' ! -path 'src/cli/*' ! -name 'sheet*.c'))
+SHEET_SRC := $(sort $(wildcard src/report/sheet*.c))
 CLI_SRC   := $(wildcard src/cli/*.c)
 TEST_SRC  := $(wildcard tests/test_*.c)
 SUPP_SRC  := $(wildcard tests/support/*.c)
@@ -96,6 +111,7 @@ NOMEM_LDFLAGS := $(foreach f,$(NOMEM_WRAP),-Wl,--wrap=$(f))
 NOMEM_SRC := $(wildcard tests/nomem/test_*.c)
 
 LIB_OBJ   := $(LIB_SRC:%.c=$(BUILD)/obj/%.o)
+SHEET_OBJ := $(SHEET_SRC:%.c=$(BUILD)/obj/%.o)
 CLI_OBJ   := $(CLI_SRC:%.c=$(BUILD)/obj/%.o)
 TEST_OBJ  := $(TEST_SRC:%.c=$(BUILD)/obj/%.o)
 SUPP_OBJ  := $(SUPP_SRC:%.c=$(BUILD)/obj/%.o)
@@ -108,23 +124,30 @@ NOMEM_BIN := $(NOMEM_SRC:tests/nomem/%.c=$(BUILD)/tests/%)
 NOMEM_CLI := $(BUILD)/tests/plumb-nomem
 
 LIB     := $(BUILD)/libplumb.a
+SHEET_LIB := $(BUILD)/libplumb-sheet.a
 SO_REAL := $(BUILD)/libplumb.so.$(VERSION)
 SO_LINKS := $(BUILD)/$(SONAME) $(BUILD)/libplumb.so
 SO_MAP  := src/libplumb.map
 PC      := $(BUILD)/plumb.pc
 BIN     := $(BUILD)/plumb
 
-.PHONY: all check demo bench asan coverage install clean deps deps-test tests test-run \
+.PHONY: all check demo sheet-image bench asan coverage install clean deps deps-test tests test-run \
         check-build-plain check-build-asan
 .DELETE_ON_ERROR:
 # Objects are intermediate files of the test programs; keep them.
 .SECONDARY:
 
-all: $(BIN) $(LIB) $(SO_REAL) $(SO_LINKS)
+all: $(BIN) $(LIB) $(SHEET_LIB) $(SO_REAL) $(SO_LINKS)
 
 $(LIB_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS)
+$(SHEET_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS) $(SHEET_CFLAGS)
 $(TEST_OBJ) $(SUPP_OBJ): EXTRA_OBJ_FLAGS = -Itests/support
 $(NOMEM_OBJ) $(NOMEM_TEST_OBJ): EXTRA_OBJ_FLAGS = -Itests/support -Itests/nomem
+# Where the command looks for the criteria when neither --criteria-dir nor
+# $PLUMB_CRITERIA_DIR says and none sits beside the executable: the
+# installed data directory, then this source tree (an out-of-tree build).
+$(CLI_OBJ): EXTRA_OBJ_FLAGS = -DPLUMB_CRITERIA_INSTALLED='"$(DATADIR)/plumb/criteria"' \
+  -DPLUMB_CRITERIA_SOURCE='"$(CURDIR)/profiles/criteria"'
 
 $(BUILD)/obj/%.o: %.c Makefile
 	@mkdir -p $(dir $@)
@@ -132,6 +155,12 @@ $(BUILD)/obj/%.o: %.c Makefile
 	$(Q)$(CC) $(CFLAGS_ALL) $(EXTRA_OBJ_FLAGS) -c $< -o $@
 
 $(LIB): $(LIB_OBJ)
+	@mkdir -p $(dir $@)
+	$(call say,AR,$@)
+	$(Q)rm -f $@
+	$(Q)ar rcs $@ $^
+
+$(SHEET_LIB): $(SHEET_OBJ)
 	@mkdir -p $(dir $@)
 	$(call say,AR,$@)
 	$(Q)rm -f $@
@@ -150,9 +179,9 @@ $(BUILD)/$(SONAME): $(SO_REAL)
 $(BUILD)/libplumb.so: $(BUILD)/$(SONAME)
 	$(Q)ln -sf $(notdir $<) $@
 
-$(BIN): $(CLI_OBJ) $(LIB)
+$(BIN): $(CLI_OBJ) $(SHEET_LIB) $(LIB)
 	$(call say,LD,$@)
-	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $(CLI_OBJ) $(LIB) $(LIBS)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $(CLI_OBJ) $(SHEET_LIB) $(LIB) $(LIBS) $(SHEET_LIBS)
 
 $(BUILD)/tests/%: $(BUILD)/obj/tests/%.o $(SUPP_OBJ) $(LIB)
 	@mkdir -p $(dir $@)
@@ -164,10 +193,10 @@ $(NOMEM_BIN): $(BUILD)/tests/%: $(BUILD)/obj/tests/nomem/%.o $(NOMEM_OBJ) $(SUPP
 	$(call say,LD,$@)
 	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(TEST_LIBS)
 
-$(NOMEM_CLI): $(CLI_OBJ) $(NOMEM_OBJ) $(LIB)
+$(NOMEM_CLI): $(CLI_OBJ) $(NOMEM_OBJ) $(SHEET_LIB) $(LIB)
 	@mkdir -p $(dir $@)
 	$(call say,LD,$@)
-	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(SHEET_LIBS)
 
 $(BUILD)/bench/%: bench/%.c $(LIB) Makefile
 	@mkdir -p $(dir $@)
@@ -222,9 +251,26 @@ demo: deps
 	@$(MAKE) --no-print-directory $(if $(filter 1,$(V)),,-s) -j$(JOBS) all
 	@for p in profiles/demo/*.yaml; do \
 	  echo; echo "==> plumb fall $$p"; $(BIN) fall "$$p" || exit $$?; done
+	@mkdir -p out
+	@for p in $(DEMO_SHEETS); do \
+	  o=out/$$(basename "$$p" .yaml).pdf; \
+	  $(BIN) sheet "$$p" -o "$$o" --samples $(DEMO_SAMPLES) --quiet || exit $$?; \
+	  echo "==> plumb sheet $$p: wrote $$o"; done
 	@printf '\n==> next: %s\n    %s\n' \
 	  "$(BIN) --help, and README.md for what each figure means" \
 	  "a clearance zone: $(BIN) zone profiles/demo/drone-release.yaml"
+
+# page 1 of a demo sheet as a picture for the README, made from the real
+# PDF; the time on it is that of the last commit, so it changes only with
+# the code or the profile.
+sheet-image: deps-test
+	@$(MAKE) --no-print-directory $(if $(filter 1,$(V)),,-s) -j$(JOBS) all
+	@mkdir -p docs
+	$(Q)SOURCE_DATE_EPOCH=$$(git log -1 --format=%ct 2>/dev/null || echo 0) \
+	  $(BIN) sheet profiles/demo/drone-release.yaml -o $(BUILD)/sheet-image.pdf \
+	  --samples $(DEMO_SAMPLES) --quiet
+	$(Q)pdftoppm -png -r 70 -f 1 -l 1 -singlefile $(BUILD)/sheet-image.pdf docs/sheet-page1
+	@echo "==> wrote docs/sheet-page1.png"
 
 bench: deps
 	@$(MAKE) --no-print-directory -j$(JOBS) all $(BENCH_BIN)
@@ -236,6 +282,7 @@ install: all $(PC)
 	  $(DESTDIR)$(INCLUDEDIR)/plumb $(DESTDIR)$(DATADIR)/plumb/criteria
 	$(Q)install -m 755 $(BIN) $(DESTDIR)$(BINDIR)/plumb
 	$(Q)install -m 644 $(LIB) $(DESTDIR)$(LIBDIR)/libplumb.a
+	$(Q)install -m 644 $(SHEET_LIB) $(DESTDIR)$(LIBDIR)/libplumb-sheet.a
 	$(Q)install -m 755 $(SO_REAL) $(DESTDIR)$(LIBDIR)/
 	$(Q)ln -sf $(notdir $(SO_REAL)) $(DESTDIR)$(LIBDIR)/$(SONAME)
 	$(Q)ln -sf $(SONAME) $(DESTDIR)$(LIBDIR)/libplumb.so

@@ -21,9 +21,18 @@ pc yaml-0.1  || need libyaml-dev
 pc udunits   || need libudunits2-dev
 [ -f /usr/include/udunits2/udunits2.h ] || [ -f /usr/include/udunits2.h ] || need libudunits2-dev
 pc jansson   || need libjansson-dev
+# the PDF sheet: cairo and pango, and a font for them to embed
+pc cairo      || need libcairo2-dev
+pc pangocairo || need libpango1.0-dev
+[ -f /usr/share/fonts/truetype/dejavu/DejaVuSans.ttf ] || need fonts-dejavu-core
 if [ "$want_tests" = 1 ]; then
   pc cmocka || need libcmocka-dev
+  # the sheet's tests read the PDF with poppler's tools
+  command -v pdftotext >/dev/null 2>&1 || need poppler-utils
   /usr/bin/python3 -c 'import scipy.integrate, numpy' >/dev/null 2>&1 || need python3-scipy
+  # the zone's GeoJSON read back by GDAL, its coordinates by PROJ's geodesic
+  command -v ogrinfo >/dev/null 2>&1 || need gdal-bin
+  /usr/bin/python3 -c 'import pyproj' >/dev/null 2>&1 || need python3-pyproj
 fi
 
 missing=$(echo $missing | tr ' ' '\n' | sort -u | tr '\n' ' ')

@@ -313,6 +313,24 @@ static const bad_case bad_cases[] = {
     {"test_fill_constant_without_diameter_is_refused",
      GOOD "descent: {cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, fill_constant: @@8}\n", NULL,
      PLUMB_EINVAL, "descent.fill_constant", "diameter"},
+    {"test_ringsail_without_an_inflation_exponent_is_refused",
+     GOOD "descent: @@{cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, canopy: ringsail}\n", NULL,
+     PLUMB_EKEY, "descent.inflation_exponent", "no inflation exponent"},
+    {"test_cross_canopy_without_a_fill_is_refused",
+     GOOD "descent: @@{cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, canopy: cross}\n", NULL,
+     PLUMB_EKEY, "descent.fill_time", "no fill constant"},
+    {"test_inflation_exponent_above_20_is_refused",
+     GOOD "descent: {cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, inflation_exponent: @@25}\n",
+     NULL, PLUMB_ERANGE, "descent.inflation_exponent", "between 0 and 20"},
+    {"test_zero_opening_factor_is_refused",
+     GOOD "descent: {cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, opening_factor: @@0}\n", NULL,
+     PLUMB_ERANGE, "descent.opening_factor", "> 0"},
+    {"test_unknown_canopy_type_is_refused",
+     GOOD "descent: {cd: 0.8, area: 1.2 m^2, deploy: {after: 1 s}, canopy: @@flat-round}\n", NULL,
+     PLUMB_EINVAL, "descent.canopy", "flat-circular"},
+    {"test_unknown_glide_word_is_refused",
+     "payload:\n  mass: 2.385 kg\n  drag: {cd_area: 0.0113 m^2}\n  glide: @@sideways\n" RELEASE,
+     NULL, PLUMB_EINVAL, "payload.glide", NULL},
     {"test_fill_time_with_fill_constant_is_refused",
      GOOD "descent: {cd: 0.8, diameter: 1.2 m, deploy: {after: 1 s}, fill_time: 1 s, "
           "@@fill_constant: 8}\n",
@@ -1113,6 +1131,59 @@ static void test_wind_table_rows_become_east_and_north_components(void **state)
     plumb_profile_free(p);
 }
 
+/* A canopy type fills j, n and C_x from the table (Knacke 1991, from
+ * memory: plumb/inflation.h) unless the profile gives them. */
+static void test_canopy_type_supplies_exponent_fill_constant_and_opening_factor(void **state)
+{
+    (void)state;
+    plumb_profile *p = load_ok(GOOD "descent:\n  - {kind: drogue, cd: 0.55, area: 0.21 m^2, "
+                                    "deploy: {after: 0.3 s}, canopy: ribbon}\n"
+                                    "  - {cd: 0.78, diameter: 1.37 m, deploy: {below: 15.6 m}, "
+                                    "canopy: extended-skirt, inflation_exponent: 2.5, "
+                                    "opening_factor: 1.55, fill_time: 0.9 s}\n",
+                               NULL, 0);
+    const plumb_fall_spec *s = plumb_profile_item(p, 0);
+    assert_int_equal(s->descent[0].canopy, PLUMB_CANOPY_RIBBON);
+    assert_abs(s->descent[0].inflation_exponent, 1.0, 0.0);
+    assert_abs(s->descent[0].fill_constant, 12.0, 0.0);
+    assert_abs(s->descent[0].opening_factor, 1.05, 0.0);
+    assert_int_equal(s->descent[1].canopy, PLUMB_CANOPY_EXTENDED_SKIRT);
+    assert_abs(s->descent[1].inflation_exponent, 2.5, 0.0);
+    assert_abs(s->descent[1].opening_factor, 1.55, 0.0);
+    assert_abs(s->descent[1].fill_constant, 0.0, 0.0);
+    assert_abs(s->descent[1].fill_time_s, 0.9, 0.0);
+    plumb_profile_free(p);
+}
+
+/* payload.glide auto: a plate, or a thin box, glides in the regime its I*
+ * gives (plumb/glide.h); a thick box does not; words force it. */
+static void test_plates_and_thin_boxes_glide_by_default(void **state)
+{
+    (void)state;
+    plumb_profile *p = load_ok(
+        "items:\n"
+        "  - name: steel plate\n    mass: 3.2 kg\n"
+        "    shape: {kind: plate, edges: [0.6 m, 0.4 m], thickness: 0.0017 m}\n"
+        "  - name: ply sheet\n    mass: 0.9 kg\n    shape: {kind: box, edges: [0.3 m, 0.012 m, 0.5 m]}\n"
+        "  - name: brick\n    mass: 2.1 kg\n    shape: {kind: box, edges: [0.2 m, 0.1 m, 0.065 m]}\n"
+        "  - name: tile\n    mass: 2.1 kg\n    shape: {kind: box, edges: [0.2 m, 0.1 m, 0.065 m]}\n"
+        "    glide: flutter\n"
+        "  - name: card\n    mass: 0.01 kg\n"
+        "    shape: {kind: plate, edges: [0.1 m, 0.1 m], thickness: 0.0003 m}\n    glide: off\n"
+        RELEASE, NULL, 0);
+    const plumb_fall_spec *s = plumb_profile_item(p, 0);
+    assert_int_equal(s->glide.mode, PLUMB_GLIDE_TUMBLE);
+    assert_rel(s->glide.istar, 3.2 / (0.6 * 0.4) / (1.225 * 0.4), 1e-12);
+    assert_int_equal(s->glide.from_shape, 1);
+    s = plumb_profile_item(p, 1);
+    assert_int_equal(s->glide.mode, PLUMB_GLIDE_TUMBLE);
+    assert_rel(s->glide.istar, 0.9 / (0.3 * 0.5) / (1.225 * 0.3), 1e-12);
+    assert_int_equal(plumb_profile_item(p, 2)->glide.mode, PLUMB_GLIDE_OFF);
+    assert_int_equal(plumb_profile_item(p, 3)->glide.mode, PLUMB_GLIDE_FLUTTER);
+    assert_int_equal(plumb_profile_item(p, 4)->glide.mode, PLUMB_GLIDE_OFF);
+    plumb_profile_free(p);
+}
+
 static void test_descent_diameter_gives_the_nominal_area(void **state)
 {
     (void)state;
@@ -1651,6 +1722,8 @@ int main(void)
         cmocka_unit_test(test_feet_and_degrees_celsius_are_converted_to_si),
         cmocka_unit_test(test_wind_table_rows_become_east_and_north_components),
         cmocka_unit_test(test_descent_diameter_gives_the_nominal_area),
+        cmocka_unit_test(test_plates_and_thin_boxes_glide_by_default),
+        cmocka_unit_test(test_canopy_type_supplies_exponent_fill_constant_and_opening_factor),
         cmocka_unit_test(test_sphere_model_takes_its_area_from_the_diameter),
         cmocka_unit_test(test_cd_of_zero_is_allowed_as_drag_free),
         cmocka_unit_test(test_cd_area_alone_is_kept_with_zero_reference_area),

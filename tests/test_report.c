@@ -432,8 +432,10 @@ static void test_part107_verdicts_use_33_895_and_14_914_joules(void **state)
     assert_int_equal(st, PLUMB_OK);
     assert_non_null(strstr(text, "WITHIN   US operations over people, category 3"));
     assert_non_null(strstr(text, "EXCEEDS  US operations over people, category 2"));
-    /* Limits shown in both units: 33.90 J = 25.00 ft lbf, 14.91 J = 11.00 ft lbf. */
-    assert_non_null(strstr(text, "limit 33.90 J (25.00 ft·lbf)"));
+    /* Limits shown in both units, each rounded down (the strict side, issue
+     * 9): 25 ft lbf = 33.8954 J -> 33.89 J, 11 ft lbf = 14.9140 J -> 14.91 J
+     * (1 ft lbf = 1.3558179483 J exactly, 1959 agreement and CGPM 1901). */
+    assert_non_null(strstr(text, "limit 33.89 J (25.00 ft·lbf)"));
     assert_non_null(strstr(text, "limit 14.91 J (11.00 ft·lbf)"));
     /* Ratio e / 14.914 = 2.238 shown to three figures. */
     assert_non_null(strstr(text, "ratio 2.24"));

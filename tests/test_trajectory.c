@@ -433,9 +433,9 @@ static void test_drogue_then_main_open_in_sequence(void **state)
     s.drag.area_m2 = 0.031;
     s.n_descent = 2;
     s.descent[0] = (plumb_descent_spec){PLUMB_DESCENT_DROGUE, 0.55, 0.21, 0.0, PLUMB_DEPLOY_AFTER,
-                                        0.8, 0.2, 0.0, 0};
+                                        0.8, 0.2, 0.0, 0, PLUMB_CANOPY_UNSPECIFIED, 0.0, 0.0};
     s.descent[1] = (plumb_descent_spec){PLUMB_DESCENT_PARACHUTE, 0.8, 3.4, 0.0, PLUMB_DEPLOY_BELOW,
-                                        250.0, 1.1, 0.0, 1};
+                                        250.0, 1.1, 0.0, 1, PLUMB_CANOPY_UNSPECIFIED, 0.0, 0.0};
     plumb_fall_result r;
     plumb_diag d;
     assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);

@@ -27,7 +27,7 @@
 #include "plumb/error.h"
 #include "plumb/units.h"
 
-enum { PLUMB_CRIT_ID = 64, PLUMB_CRIT_TEXT = 256 };
+enum { PLUMB_CRIT_ID = 64, PLUMB_CRIT_TEXT = 256, PLUMB_CRIT_PATH = 1024, PLUMB_CRIT_SHA256 = 65 };
 
 typedef enum plumb_criterion_kind {
     PLUMB_CRIT_LIMIT = 0,      /* a published energy limit */
@@ -43,6 +43,8 @@ typedef struct plumb_criterion {
     char source[PLUMB_CRIT_TEXT];        /* published source */
     char status[PLUMB_CRIT_ID];          /* seen | transcribed | memory */
     int strict;                          /* 1: reaching the limit exceeds it ("less than 80 J") */
+    char path[PLUMB_CRIT_PATH];          /* the file it was read from ("" when built in code) */
+    char sha256[PLUMB_CRIT_SHA256];      /* hex SHA-256 of that file's bytes ("" likewise) */
 } plumb_criterion;
 
 typedef struct plumb_verdict {

@@ -51,13 +51,20 @@
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
+#include "plumb/region.h"
 
 enum {
     PLUMB_ZONE_MAX_INPUTS = 32,    /* uncertain inputs per run */
     PLUMB_ZONE_MAX_CRITERIA = 32,  /* criteria judged per run */
     PLUMB_ZONE_RADII = 4,          /* radius percentiles: 50, 90, 99, 99.9 % */
-    PLUMB_ZONE_ENERGIES = 3        /* energy percentiles: 50, 95, 99 % */
+    PLUMB_ZONE_ENERGIES = 3,       /* energy percentiles: 50, 95, 99 % */
+    PLUMB_ZONE_MAX_WARNINGS = 16,  /* warnings per zone result */
+    PLUMB_ZONE_WARNING = 320       /* bytes of one warning, with its '\0' */
 };
+
+/* Largest spread of the impact points, m, below which the uncertain inputs
+ * are said not to move the impact point (impact_point_fixed). */
+#define PLUMB_ZONE_FIXED_M 1e-6
 
 /* Largest number of samples a run accepts. */
 #define PLUMB_ZONE_MAX_SAMPLES 100000000u
@@ -200,8 +207,25 @@ typedef struct plumb_zone_stats {
     plumb_zone_quantile displacement[2]; /* median of impact - planned release point,
                                             east and north (component-wise), m */
     double drop_height_m;     /* planned release height: the "radius = height" rule, m */
+    double glide_ratio_max;   /* a plate's largest glide, sideways travel / height fallen
+                                 (plumb/glide.h); 0: no glide */
     double max_release_speed_m_s; /* largest release speed sampled, m/s */
     double ballistic_throw_m; /* drag-free throw of the sample with that speed, m */
+    /* Where things land, wherever that is on the ground (region.h): the
+     * first landing_training samples fix the centre (their mean) and the
+     * density grid; the others are counted against them. */
+    size_t landing_training;  /* m = min(pilot, max(1, N / 4)) */
+    double landing_centre_m[2]; /* centre of the landing circle: mean of those m, m */
+    plumb_zone_quantile landing_radius; /* distance from that centre of the other N - m
+                                 samples at p = the zone's confidence, with its interval:
+                                 the smallest circle there holding p of the impacts */
+    double landing_circle_m;  /* landing_radius.hi + scatter_m: the landing circle with
+                                 the scatter allowance as a buffer (0 when hi_open) */
+    plumb_region_result landing; /* the polygon holding p of the impacts, with the
+                                    scatter allowance as a buffer */
+    int impact_point_fixed;   /* 1: every impact lies within PLUMB_ZONE_FIXED_M of the
+                                 first in east and north: the uncertainty does not move
+                                 the impact point, the radii are one fall's drift */
     size_t steps;             /* integrator steps, all samples */
     size_t rhs_evaluations;   /* right-hand-side evaluations, all samples */
 } plumb_zone_stats;
@@ -229,7 +253,19 @@ typedef struct plumb_zone_result {
     double aim_release_m[2];  /* release point putting the median impact on the target:
                                  target - zone.displacement[].value, m */
     plumb_zone_stats at_target; /* pass 1: released at aim_release_m, radii from the target */
+    size_t n_warnings;        /* warnings[0..n) */
+    char warnings[PLUMB_ZONE_MAX_WARNINGS][PLUMB_ZONE_WARNING]; /* sentences qualifying the
+                                 figures: the impact point fixed (first, when so), and those
+                                 the caller adds (plumb_zone_add_warning) */
 } plumb_zone_result;
+
+/* Appends a warning (a sentence) to a result; silently stops when full.
+ * Can't fail. */
+void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 2, 3)))
+#endif
+    ;
 
 /* Defaults as documented on each field. Can't fail. */
 void plumb_zone_options_init(plumb_zone_options *opt);
@@ -284,6 +320,12 @@ typedef struct plumb_zone_report {
     size_t n_items;                   /* items[0..n), >= 1 */
     const plumb_zone_item *items;     /* borrowed */
     size_t threads;                   /* threads used (reported outside "zone") */
+    size_t kit_item;                  /* the item that sets the kit's zone: the largest
+                                         clearance radius around the planned drop point
+                                         (the first of equals); 0 for one payload */
+    size_t kit_landing_item;          /* the item with the largest landing circle */
+    int has_site;                     /* 1: site_deg is the WGS 84 site (map output) */
+    double site_deg[2];               /* latitude, longitude of east = north = 0, deg */
 } plumb_zone_report;
 
 #endif /* PLUMB_DISPERSION_H */

@@ -20,7 +20,7 @@
 #include "plumb/criteria.h"
 #include "plumb/profile.h"
 
-enum { PLUMB_MAX_VERDICTS = 32, PLUMB_MAX_WARNINGS = 16, PLUMB_WARNING = 256 };
+enum { PLUMB_MAX_VERDICTS = 32, PLUMB_MAX_WARNINGS = 16, PLUMB_WARNING = 512 };
 
 /* One payload's fall, judged. */
 typedef struct plumb_item_report {

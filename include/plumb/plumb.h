@@ -22,5 +22,6 @@
 #include "plumb/sweep.h"
 #include "plumb/dispersion.h"
 #include "plumb/study.h"
+#include "plumb/brief.h"
 
 #endif /* PLUMB_PLUMB_H */

@@ -48,8 +48,23 @@ typedef struct plumb_zone_spec {
     double confidence;         /* 0 < c < 1, default 0.99 */
     double scatter_m;          /* bounce/deflection allowance, m, default 0 */
     int has_target;            /* 1: target_m is set */
-    double target_m[2];        /* east, north, m */
+    double target_m[2];        /* east, north, m (given so, or from zone.target.latitude
+                                  and .longitude) */
+    int has_site;              /* 1: site.latitude and site.longitude are both given */
+    double site_deg[2];        /* the site (the origin of east, north): WGS 84 latitude,
+                                  longitude, deg */
 } plumb_zone_spec;
+
+/* The profile's optional `job:` map, for the printed sheet: what the
+ * calculation is for and who prepared and checked it. "" where not given. */
+enum { PLUMB_JOB_TEXT = 256 };
+typedef struct plumb_job {
+    char title[PLUMB_JOB_TEXT];        /* the job, e.g. "Feeder swap, north face" */
+    char site[PLUMB_JOB_TEXT];         /* where */
+    char reference[PLUMB_JOB_TEXT];    /* permit or job number */
+    char prepared_by[PLUMB_JOB_TEXT];  /* who prepared the calculation */
+    char checked_by[PLUMB_JOB_TEXT];   /* who checked it */
+} plumb_job;
 
 typedef struct plumb_profile plumb_profile;
 
@@ -138,6 +153,9 @@ const char *plumb_profile_criterion_file(const plumb_profile *p, size_t i);
 /* `uncertainty:` entries, in file order. */
 size_t plumb_profile_uncertainty_count(const plumb_profile *p);
 const plumb_uncertainty *plumb_profile_uncertainty(const plumb_profile *p, size_t i);
+
+/* `job:` settings, "" where not given. NULL only for a NULL p. */
+const plumb_job *plumb_profile_job(const plumb_profile *p);
 
 /* `zone:` settings, defaults filled. */
 const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p);

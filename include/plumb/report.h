@@ -27,7 +27,12 @@
 #include "plumb/inverse.h"
 #include "plumb/dispersion.h"
 
-typedef enum plumb_format { PLUMB_FORMAT_TEXT = 0, PLUMB_FORMAT_JSON, PLUMB_FORMAT_CSV } plumb_format;
+typedef enum plumb_format {
+    PLUMB_FORMAT_TEXT = 0,
+    PLUMB_FORMAT_JSON,
+    PLUMB_FORMAT_CSV,
+    PLUMB_FORMAT_GEOJSON  /* RFC 7946; the zone report only (plumb_report_zone) */
+} plumb_format;
 typedef enum plumb_unit_system { PLUMB_UNITS_SI = 0, PLUMB_UNITS_US } plumb_unit_system;
 
 typedef struct plumb_report_options {
@@ -85,5 +90,13 @@ plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
  * PLUMB_EWRITE on a write error, PLUMB_EINVAL for an empty report. */
 plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt,
                                const plumb_zone_report *rep, plumb_diag *diag);
+
+/* Writes the zone's circles and regions as polygons in local east, north
+ * metres (CSV, src/report/zone_map.c): one row per vertex, each ring
+ * closed and counter-clockwise, the cautions as "# " lines. Format
+ * PLUMB_FORMAT_GEOJSON of plumb_report_zone writes the same shapes on the
+ * map (RFC 7946); it needs rep->has_site (PLUMB_EINVAL, key
+ * site.longitude, without). */
+plumb_status plumb_report_zone_regions(FILE *out, const plumb_zone_report *rep, plumb_diag *diag);
 
 #endif /* PLUMB_REPORT_H */

@@ -76,6 +76,12 @@ plumb_status plumb_study_sweep(plumb_study *study, const plumb_range *axes, size
                                plumb_sweep_progress_fn progress, void *user, plumb_sweep **out,
                                plumb_diag *diag);
 
+/* For a two-way sweep made by plumb_study_sweep: the value of the second
+ * input at which each limit is reached, for each value of the first
+ * (plumb_sweep_find_boundaries), kept in the sweep for its text report. */
+plumb_status plumb_study_sweep_boundaries(plumb_study *study, plumb_sweep *sweep,
+                                          plumb_diag *diag);
+
 /* A limit given as text: a criterion's id (energy only) or a quantity of
  * the metric's dimension ("25 ft lbf", "8 m/s", "30 m"), > 0. `option`
  * names it in messages ("--energy-max"). *criterion is the criterion or

@@ -29,6 +29,7 @@
 #include "plumb/criteria.h"
 #include "plumb/trajectory.h"
 #include "plumb/judge.h"
+#include "plumb/inverse.h"
 
 /* Rows allowed in one range and in a whole sweep. */
 #define PLUMB_RANGE_MAX_VALUES 100000u
@@ -126,5 +127,40 @@ size_t plumb_sweep_row_count(const plumb_sweep *s);
 /* Rows without figures (status != PLUMB_OK). Can't fail. */
 size_t plumb_sweep_failed_count(const plumb_sweep *s);
 const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i);
+
+/* ---- the boundary of a two-way sweep (sweep_boundary.c) -------------------
+ *
+ * For each value of the first input and each criterion, the value of the
+ * second input at which the impact energy of one item just reaches the
+ * criterion's limit: plumb_limit_solve on the profile derived with the
+ * first input set to that value (the text "KEY=<value> <unit>" of --set),
+ * so each boundary is exactly what `plumb limit --set KEY=<value> --find
+ * KEY2 --energy-max ID` gives. The item is the one with the highest impact
+ * energy in the first computed row (the only one for a single payload);
+ * the criteria are that item's verdicts there, in order. */
+typedef struct plumb_sweep_boundary {
+    plumb_status status;            /* PLUMB_OK, or why there is no answer (the first
+                                       value refused, a fall failed ...) */
+    plumb_limit_outcome outcome;    /* found, unlimited or impossible (status OK) */
+    double value_si;                /* the second input there (found), SI */
+    double value;                   /* the same in the second range's unit */
+    int limit_is_upper_bound;       /* 1: values below it keep within the limit */
+} plumb_sweep_boundary;
+
+/* Finds every boundary of a two-way sweep of `profile` (the profile the
+ * sweep was run on), keeping them in the sweep. A boundary that cannot be
+ * found keeps its status; PLUMB_EINVAL for a sweep that is not two-way,
+ * PLUMB_ENOMEM. */
+plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *profile,
+                                         const plumb_units *units, plumb_trajectory *traj,
+                                         plumb_diag *diag);
+
+/* Criteria with boundaries (0 until plumb_sweep_find_boundaries has run),
+ * the k-th of them, the item the boundaries are of, and the boundary for
+ * value i0 of the first input and criterion k (NULL out of range). */
+size_t plumb_sweep_boundary_criteria(const plumb_sweep *s);
+const plumb_criterion *plumb_sweep_boundary_criterion(const plumb_sweep *s, size_t k);
+size_t plumb_sweep_boundary_item(const plumb_sweep *s);
+const plumb_sweep_boundary *plumb_sweep_boundary_at(const plumb_sweep *s, size_t i0, size_t k);
 
 #endif /* PLUMB_SWEEP_H */

@@ -31,6 +31,8 @@
 #include "plumb/gravity.h"
 #include "plumb/wind.h"
 #include "plumb/drag.h"
+#include "plumb/inflation.h"
+#include "plumb/glide.h"
 
 enum { PLUMB_MAX_DESCENT = 2, PLUMB_NAME = 128 };
 
@@ -49,8 +51,9 @@ typedef enum plumb_deploy_trigger {
     PLUMB_DEPLOY_BELOW            /* deploy_value is a height above the strike level, m */
 } plumb_deploy_trigger;
 
-/* A descent device: canopy CdS grows linearly from 0 to cd x area over
- * fill_time after line stretch, and adds to the body's CdA. */
+/* A descent device: after line stretch the canopy's CdS grows from 0 to
+ * cd x area as (t / t_f)^j over the fill time t_f (plumb/inflation.h), and
+ * adds to the body's CdA. */
 typedef struct plumb_descent_spec {
     plumb_descent_kind kind;       /* parachute, streamer, drogue */
     double cd;                     /* canopy drag coefficient on area_m2 */
@@ -61,6 +64,10 @@ typedef struct plumb_descent_spec {
     double fill_time_s;            /* fill time, s; used when fill_constant is 0 */
     double fill_constant;          /* n in t_f = n D0 / v at line stretch; 0: use fill_time_s */
     int disreefs_previous;         /* 1: this device replaces the previous one (main after drogue) */
+    plumb_canopy canopy;           /* canopy type (0: unspecified); the loader fills j, n and
+                                      C_x from its table where the profile gives none */
+    double inflation_exponent;     /* j of CdS ~ (t/t_f)^j; 0 means 1 (linear) */
+    double opening_factor;         /* C_x for Pflanz's estimate; 0: not known */
 } plumb_descent_spec;
 
 /* Everything about one fall. Plain data; copy freely. */
@@ -76,6 +83,7 @@ typedef struct plumb_fall_spec {
     double site_elevation_m;       /* strike level above MSL, m */
     plumb_gravity gravity;         /* g0 or WGS 84 at a latitude */
     plumb_wind_spec wind;          /* wind by height */
+    plumb_glide_spec glide;        /* sideways glide of a plate, applied by the zone only */
 } plumb_fall_spec;
 
 typedef enum plumb_stepper {
@@ -145,6 +153,13 @@ typedef struct plumb_fall_result {
     double deploy_time_s[PLUMB_MAX_DESCENT];     /* line stretch time, s */
     double deploy_height_m[PLUMB_MAX_DESCENT];   /* line stretch height, m */
     double deploy_speed_m_s[PLUMB_MAX_DESCENT];  /* airspeed at line stretch, m/s */
+    double fill_time_s[PLUMB_MAX_DESCENT];       /* fill time used, s */
+    /* Pflanz's hand estimate per deployed device (plumb/inflation.h), an
+     * independent check beside the integrated peak: */
+    double pflanz_a[PLUMB_MAX_DESCENT];          /* ballistic parameter A at line stretch */
+    double pflanz_x1[PLUMB_MAX_DESCENT];         /* force-reduction factor X_1(A, j) */
+    double pflanz_q1s_n[PLUMB_MAX_DESCENT];      /* q_1 (CdS)_0 at line stretch, N */
+    double pflanz_force_n[PLUMB_MAX_DESCENT];    /* C_x X_1 q_1 (CdS)_0, N (0 when C_x unknown) */
     double peak_force_n;       /* largest drag force, N */
     double peak_load_g;        /* largest drag force / (m g0) */
     double steady_speed_m_s;   /* terminal speed with all devices open, at strike level, m/s */

@@ -83,7 +83,11 @@ static void cli_print_options(unsigned accept, const cli_option *extra, size_t n
         const cli_common *c = &common_options[i];
         if (c->bit && !(accept & c->bit))
             continue;
-        cli_print_option(c->alias, c->name, c->arg, c->help);
+        cli_print_option(c->alias, c->name, c->arg,
+                         c->bit == CLI_FORMAT && (accept & CLI_GEOJSON)
+                             ? "text (default), json, csv or geojson (RFC 7946,\n"
+                               "needs site.latitude and site.longitude)"
+                             : c->help);
     }
 }
 
@@ -241,10 +245,13 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 a->format = PLUMB_FORMAT_JSON;
             else if (strcmp(value, "csv") == 0)
                 a->format = PLUMB_FORMAT_CSV;
+            else if (strcmp(value, "geojson") == 0 && (accept & CLI_GEOJSON))
+                a->format = PLUMB_FORMAT_GEOJSON;
             else {
                 cli_args_free(a);
-                return cli_usage_error(a->cmd, "--format must be text, json or csv, found '%s'",
-                                       value);
+                return cli_usage_error(a->cmd, "--format must be text, json%s csv%s, found '%s'",
+                                       accept & CLI_GEOJSON ? "," : " or",
+                                       accept & CLI_GEOJSON ? " or geojson" : "", value);
             }
         } else if (strcmp(name, "--units") == 0) {
             if (strcmp(value, "si") == 0)
@@ -580,6 +587,13 @@ const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
             }
         }
     }
+    /* the installed data directory, the working directory's
+     * profiles/criteria, then the source tree this program was built from */
+    static const char *const fixed[] = {PLUMB_CRITERIA_INSTALLED, "profiles/criteria",
+                                        PLUMB_CRITERIA_SOURCE};
+    for (size_t i = 0; i < sizeof fixed / sizeof fixed[0]; i++)
+        if (cli_is_dir(fixed[i]))
+            return fixed[i];
     return "profiles/criteria";
 }
 

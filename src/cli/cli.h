@@ -40,7 +40,8 @@ enum {
     CLI_UNITS = 1u << 2,     /* --units si|us */
     CLI_OUTPUT = 1u << 3,    /* -o FILE, --output FILE */
     CLI_QUIET = 1u << 4,     /* --quiet */
-    CLI_CRITERIA = 1u << 5   /* --criteria-dir DIR */
+    CLI_CRITERIA = 1u << 5,  /* --criteria-dir DIR */
+    CLI_GEOJSON = 1u << 6    /* --format geojson too (with CLI_FORMAT) */
 };
 
 /* Most values a repeatable option keeps (cli_option.max). */
@@ -191,7 +192,9 @@ int cli_same_file(const char *out, const char *in);
 
 /* The criteria directory: --criteria-dir, else $PLUMB_CRITERIA_DIR, else
  * <directory of /proc/self/exe>/../profiles/criteria (build tree), else
- * <exe dir>/../share/plumb/criteria (installed), else ./profiles/criteria.
+ * <exe dir>/../share/plumb/criteria (installed), else the data directory
+ * the program was built for, else ./profiles/criteria, else the source
+ * tree's profiles/criteria (an out-of-tree build run from elsewhere).
  * The result is a, the environment, a literal, or buf (size bytes). */
 const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size);
 
@@ -208,5 +211,6 @@ int cmd_lint(int argc, char **argv);
 int cmd_sweep(int argc, char **argv);
 int cmd_limit(int argc, char **argv);
 int cmd_zone(int argc, char **argv);
+int cmd_sheet(int argc, char **argv);
 
 #endif /* PLUMB_CLI_H */

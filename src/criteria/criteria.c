@@ -20,6 +20,7 @@
 #include "plumb/criteria.h"
 #include "plumb/profile.h" /* PLUMB_PROFILE_MAX_BYTES: a criteria file is read as a profile is */
 #include "core/internal.h"
+#include "io/sha256.h"
 #include "io/yamltree.h"
 
 #define ARRAY_LEN(a) (sizeof(a) / sizeof((a)[0]))
@@ -146,6 +147,8 @@ static plumb_status load_one(const char *path, const char *stem, const plumb_uni
     if (st != PLUMB_OK)
         return st;
     plumby_node *tree;
+    char sha[PLUMBP_SHA256_HEX];
+    plumbp_sha256_hex(buf, len, sha);
     st = plumby_parse(buf, len, path, PLUMBY_FROM_FILE, 0, NULL, &tree, diag);
     free(buf);
     if (st != PLUMB_OK)
@@ -155,6 +158,8 @@ static plumb_status load_one(const char *path, const char *stem, const plumb_uni
     int kind = 0, status = 0, exceeded = 0;
     memset(c, 0, sizeof *c);
     plumbp_strlcpy(c->id, stem, sizeof c->id);
+    plumbp_strlcpy(c->path, path, sizeof c->path);
+    plumbp_strlcpy(c->sha256, sha, sizeof c->sha256);
     plumby_map_init(&m, &ctx, tree, &crit_schema, "");
     if ((st = plumby_check(&ctx, tree, &crit_schema, "")) != PLUMB_OK ||
         (st = plumby_text(&m, "name", NULL, c->name, sizeof c->name)) != PLUMB_OK ||

@@ -175,6 +175,18 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     "The %s (device %zu) does not open before impact: the figures are those "
                     "of a fall without it.", plumb_descent_kind_name(item->spec->descent[i].kind),
                     i + 1);
+    const plumb_glide_spec *gl = &item->spec->glide;
+    char why[96] = "as the profile says";
+    if (gl->from_shape)
+        snprintf(why, sizeof why, "I* %.3g, Andersen et al. 2005", gl->istar);
+    if (gl->mode != PLUMB_GLIDE_OFF && item->spec->n_descent == 0)
+        add_warning(item,
+                    "Plate-like: taken to %s (%s). Tumbling plates glide sideways up to 1.375 x "
+                    "the height fallen in still air (36 deg below horizontal; Smith 1970), "
+                    "fluttering ones up to 0.36 x (Tinklenberg et al. 2023). plumb zone adds "
+                    "the glide, this fall does not; \"radius = drop height\" is not "
+                    "conservative for plates.",
+                    gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why);
     warn_helmet_tests(item);
     return PLUMB_OK;
 }

@@ -57,6 +57,9 @@ static const plumbp_key table[] = {
     {"descent.fill_time", D(TIME), 0, R(NONNEG), 0, DEV(fill_time_s), W(FILL_TIME), 0, 0},
     {"descent.fill_constant", D(NONE), 0, R(POSITIVE), 0, DEV(fill_constant), W(FILL_CONSTANT), 0,
      0},
+    {"descent.inflation_exponent", D(NONE), 0, R(POSITIVE), 0, DEV(inflation_exponent), W(DEVICE),
+     0, 0},
+    {"descent.opening_factor", D(NONE), 0, R(POSITIVE), 0, DEV(opening_factor), W(DEVICE), 0, 0},
     {"release.height", D(LENGTH), 0, R(POSITIVE), 0, SPEC(release_m[2]), W(ALWAYS), 0,
      SHARED | CHECKED},
     {"release.velocity.east", D(SPEED), 0, R(ANY), 0, SPEC(velocity_m_s[0]), W(ALWAYS), 0, SHARED | CHECKED},
@@ -69,10 +72,15 @@ static const plumbp_key table[] = {
     {"release.velocity.climb", D(SPEED), 0, R(ANY), 0, SPEC(velocity_m_s[2]), W(ALWAYS), 0, SHARED | CHECKED},
     {"release.position.east", D(LENGTH), 0, R(ANY), 0, SPEC(release_m[0]), W(ALWAYS), 0, SHARED},
     {"release.position.north", D(LENGTH), 0, R(ANY), 0, SPEC(release_m[1]), W(ALWAYS), 0, SHARED},
+    /* the release point on the map, turned into east and north from the site */
+    {"release.position.latitude", D(ANGLE), 0, R(LATITUDE), 0, ZONE, W(ALWAYS), 0, 0},
+    {"release.position.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
     {"site.elevation", D(LENGTH), 0, R(ALTITUDE), 0, SPEC(site_elevation_m), W(ALWAYS), 0,
      AIRK | CHECKED},
     {"site.latitude", D(ANGLE), 0, R(LATITUDE), 0, SPEC(gravity.latitude_deg), W(LATITUDE), 0,
      SHARED},
+    /* WGS 84; only for map output (plumb zone --format geojson) */
+    {"site.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
     {"atmosphere.temperature_offset", D(TEMP_DIFF), 0, R(ANY), 0, AIR(temperature_offset_k),
      W(AIR_OFFSET), 0, AIRK | CHECKED},
     {"atmosphere.pressure", D(PRESSURE), 0, R(POSITIVE), 0, AIR(station_pressure_pa),
@@ -103,6 +111,8 @@ static const plumbp_key table[] = {
     {"zone.scatter", D(LENGTH), 0, R(NONNEG), 0, ZONE, W(ALWAYS), 0, 0},
     {"zone.target.east", D(LENGTH), 0, R(ANY), 0, ZONE, W(ALWAYS), 0, 0},
     {"zone.target.north", D(LENGTH), 0, R(ANY), 0, ZONE, W(ALWAYS), 0, 0},
+    {"zone.target.latitude", D(ANGLE), 0, R(LATITUDE), 0, ZONE, W(ALWAYS), 0, 0},
+    {"zone.target.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
 };
 
 const plumbp_key *plumbp_keys(size_t *n)
@@ -259,6 +269,7 @@ void plumbp_key_bounds(const plumbp_key *k, double *lo, double *hi, int *lo_open
     case PLUMBY_R_UNIT: *lo = 0.0; *hi = 1.0; break;
     case PLUMBY_R_UNIT_OPEN: *lo = 0.0; *hi = 1.0; *lo_open = 1; break;
     case PLUMBY_R_LATITUDE: *lo = -90.0; *hi = 90.0; break;
+    case PLUMBY_R_LONGITUDE: *lo = -180.0; *hi = 180.0; break;
     case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
     }
 }

@@ -34,6 +34,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/profile.h"
+#include "plumb/geodesy.h"
 #include "core/internal.h"
 #include "io/keys.h"
 #include "io/sha256.h"
@@ -59,6 +60,11 @@ static const char *const drag_models[] = {"fixed", "sphere", "sphere-cgw"};
 static const char *const shape_kinds[] = {"sphere", "cylinder", "box", "plate"};
 static const char *const attitudes[] = {"tumbling", "broadside", "end-on"};
 static const char *const descent_kinds[] = {"parachute", "streamer", "drogue"};
+/* the words of plumb_canopy, in its order after PLUMB_CANOPY_UNSPECIFIED */
+static const char *const canopy_kinds[] = {"flat-circular", "conical", "hemispherical",
+                                           "extended-skirt", "cross", "ribbon",
+                                           "ringslot", "ringsail"};
+static const char *const glide_words[] = {"auto", "tumble", "flutter", "off"};
 static const char *const atm_models[] = {"standard-1976", "surface", "table"};
 static const char *const wind_profiles[] = {"uniform", "power", "log", "table"};
 
@@ -92,15 +98,19 @@ static const plumby_schema descent_keys[] = {
     S_NUM("area", AREA, POSITIVE),     S_NUM("diameter", LENGTH, POSITIVE),
     S_MAP("deploy", deploy_keys),      S_NUM("fill_time", TIME, NONNEG),
     S_NUM("fill_constant", NONE, POSITIVE),
+    S_WORD("canopy", canopy_kinds),    S_NUM("inflation_exponent", NONE, POSITIVE),
+    S_NUM("opening_factor", NONE, POSITIVE),
 };
 static const plumby_schema payload_keys[] = {
     S_NUM("mass", MASS, POSITIVE), S_NUM("volume", VOLUME, NONNEG),
     S_MAP("drag", drag_keys),      S_MAP("shape", shape_keys),
+    S_WORD("glide", glide_words),
 };
 static const plumby_schema item_keys[] = {
     S_TEXT("name"),           S_NUM("mass", MASS, POSITIVE),
     S_NUM("volume", VOLUME, NONNEG), S_MAP("drag", drag_keys),
     S_MAP("shape", shape_keys), S_MAP_OR_LIST("descent", descent_keys),
+    S_WORD("glide", glide_words),
 };
 static const plumby_schema item_item[] = {S_MAP("", item_keys)};
 static const plumby_schema velocity_keys[] = {
@@ -111,6 +121,8 @@ static const plumby_schema velocity_keys[] = {
 static const plumby_schema position_keys[] = {
     S_NUM("east", LENGTH, ANY),
     S_NUM("north", LENGTH, ANY),
+    S_NUM("latitude", ANGLE, LATITUDE),
+    S_NUM("longitude", ANGLE, LONGITUDE),
 };
 static const plumby_schema release_keys[] = {
     S_NUM("height", LENGTH, POSITIVE),
@@ -120,6 +132,7 @@ static const plumby_schema release_keys[] = {
 static const plumby_schema site_keys[] = {
     S_NUM("elevation", LENGTH, ALTITUDE),
     S_NUM("latitude", ANGLE, LATITUDE),
+    S_NUM("longitude", ANGLE, LONGITUDE),
 };
 static const plumby_schema atm_row_keys[] = {
     S_NUM("altitude", LENGTH, ALTITUDE),
@@ -153,14 +166,21 @@ static const plumby_schema criteria_item[] = {
 static const plumby_schema target_keys[] = {
     S_NUM("east", LENGTH, ANY),
     S_NUM("north", LENGTH, ANY),
+    S_NUM("latitude", ANGLE, LATITUDE),
+    S_NUM("longitude", ANGLE, LONGITUDE),
 };
 static const plumby_schema zone_keys[] = {
     S_COUNT("samples"), S_COUNT("seed"),
     S_NUM("confidence", FRACTION, UNIT_OPEN), S_NUM("scatter", LENGTH, NONNEG),
     S_MAP("target", target_keys),
 };
+static const plumby_schema job_keys[] = {
+    S_TEXT("title"),       S_TEXT("site"),       S_TEXT("reference"),
+    S_TEXT("prepared_by"), S_TEXT("checked_by"),
+};
 static const plumby_schema root_keys[] = {
     S_TEXT("name"),
+    S_MAP("job", job_keys),
     S_MAP("payload", payload_keys),
     S_LIST("items", item_item),
     S_MAP_OR_LIST("descent", descent_keys),
@@ -194,6 +214,7 @@ struct plumb_profile {
     size_t n_unc;
     plumb_uncertainty *unc;
     plumb_zone_spec zone;
+    plumb_job job;                   /* `job:`, "" where not given */
 };
 
 void plumb_profile_free(plumb_profile *p)
@@ -867,6 +888,47 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
     return PLUMB_OK;
 }
 
+/* The canopy type and its inflation curve (plumb/inflation.h): j and C_x
+ * from the type's table unless given; the fill constant n from the table
+ * when neither fill_time nor fill_constant is given (t_f = n D0 / v_1, D0
+ * the nominal diameter when only the area is given). */
+static plumb_status read_inflation(const plumby_map *dm, plumb_descent_spec *d, int has_fill)
+{
+    plumb_status st;
+    int word = -1;
+    if ((plumby_get(dm, "canopy") && (st = plumby_word(dm, "canopy", 0, &word)) != PLUMB_OK) ||
+        (st = plumby_num(dm, "inflation_exponent", 0, 0.0, &d->inflation_exponent, NULL)) !=
+            PLUMB_OK ||
+        (st = plumby_num(dm, "opening_factor", 0, 0.0, &d->opening_factor, NULL)) != PLUMB_OK)
+        return st;
+    if (d->inflation_exponent > PLUMB_INFLATION_J_MAX)
+        return plumby_raise_value(dm, "inflation_exponent", PLUMB_ERANGE,
+                                  "must lie between 0 and %g (published curves run from 1/2 to "
+                                  "about 6), found '%s'",
+                                  PLUMB_INFLATION_J_MAX, plumby_get(dm, "inflation_exponent")->text);
+    d->canopy = word < 0 ? PLUMB_CANOPY_UNSPECIFIED : (plumb_canopy)(word + 1);
+    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+    if (!ci)
+        return PLUMB_OK;
+    if (!(d->inflation_exponent > 0.0)) {
+        if (!(ci->exponent > 0.0))
+            return plumby_missing(dm, "inflation_exponent",
+                                  "the map of published values gives no inflation exponent for "
+                                  "this canopy type: give inflation_exponent");
+        d->inflation_exponent = ci->exponent;
+    }
+    if (!(d->opening_factor > 0.0))
+        d->opening_factor = ci->opening_factor;
+    if (!has_fill) {
+        if (!(ci->fill_constant > 0.0))
+            return plumby_missing(dm, "fill_time",
+                                  "the map of published values gives no fill constant for this "
+                                  "canopy type: give fill_time or fill_constant");
+        d->fill_constant = ci->fill_constant;
+    }
+    return PLUMB_OK;
+}
+
 /* One descent device from map dm (index i of the list). */
 static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_descent_spec *d)
 {
@@ -925,7 +987,7 @@ static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_des
         return plumby_raise_value(dm, "fill_constant", PLUMB_EINVAL,
                                   "needs the canopy's diameter (t_f = n D0 / v); give diameter "
                                   "instead of area, or use fill_time");
-    return PLUMB_OK;
+    return read_inflation(dm, d, has_ft || has_fc);
 }
 
 /* The descent devices of a node (map or list) at key into spec. */
@@ -987,6 +1049,55 @@ static plumb_status read_descent(const loader *L, const plumby_node *node, const
     return PLUMB_OK;
 }
 
+/* Air density for a plate's I* (plumb/glide.h): the 1976 standard at sea
+ * level; I* only picks the regime, and a site's density changes it by a few
+ * per cent. kg/m^3. */
+#define GLIDE_RHO_F_KG_M3 1.225
+
+/* payload.glide: auto (default: a plate, or a box whose smallest edge is at
+ * most PLUMB_GLIDE_THIN_FRACTION of its middle one, glides in the regime
+ * its I* gives; anything else does not), tumble, flutter or off. */
+static plumb_status read_glide(const plumby_map *im, plumb_fall_spec *spec,
+                               const plumb_shape_spec *shape)
+{
+    int word = 0;
+    plumb_status st = plumby_word(im, "glide", 0, &word);
+    if (st != PLUMB_OK)
+        return st;
+    memset(&spec->glide, 0, sizeof spec->glide);
+    if (word == 1 || word == 2) {
+        spec->glide.mode = word == 1 ? PLUMB_GLIDE_TUMBLE : PLUMB_GLIDE_FLUTTER;
+        return PLUMB_OK;
+    }
+    if (word == 3 || !shape)
+        return PLUMB_OK;
+    const double *d = shape->dims_m;
+    double a = 0.0, b = 0.0;
+    if (shape->kind == PLUMB_SHAPE_PLATE) {
+        a = d[0];
+        b = d[1];
+    } else if (shape->kind == PLUMB_SHAPE_BOX) {
+        double e[3] = {d[0], d[1], d[2]};
+        for (int i = 0; i < 2; i++) /* sort ascending */
+            for (int k = 0; k < 2 - i; k++)
+                if (e[k] > e[k + 1]) {
+                    double t = e[k];
+                    e[k] = e[k + 1];
+                    e[k + 1] = t;
+                }
+        if (!(e[0] <= PLUMB_GLIDE_THIN_FRACTION * e[1]))
+            return PLUMB_OK;
+        a = e[1];
+        b = e[2];
+    } else {
+        return PLUMB_OK;
+    }
+    spec->glide.istar = plumb_glide_istar(spec->mass_kg, a, b, GLIDE_RHO_F_KG_M3);
+    spec->glide.mode = plumb_glide_regime(spec->glide.istar);
+    spec->glide.from_shape = 1;
+    return PLUMB_OK;
+}
+
 /* One payload (map at key "payload" or "items[i]") into spec and shape. */
 static plumb_status read_item(const loader *L, const plumby_map *im, int is_item,
                               const plumb_fall_spec *base, plumb_fall_spec *spec,
@@ -1002,7 +1113,8 @@ static plumb_status read_item(const loader *L, const plumby_map *im, int is_item
     }
     if ((st = plumby_num(im, "mass", 1, 0.0, &spec->mass_kg, NULL)) != PLUMB_OK ||
         (st = plumby_num(im, "volume", 0, 0.0, &spec->volume_m3, NULL)) != PLUMB_OK ||
-        (st = read_drag(L, im, spec, shape)) != PLUMB_OK)
+        (st = read_drag(L, im, spec, shape)) != PLUMB_OK ||
+        (st = read_glide(im, spec, shape)) != PLUMB_OK)
         return st;
     const plumby_node *own = is_item ? plumby_get(im, "descent") : NULL;
     char key[PLUMB_DIAG_KEY];
@@ -1011,6 +1123,38 @@ static plumb_status read_item(const loader *L, const plumby_map *im, int is_item
         return read_descent(L, own, key, spec);
     }
     return read_descent(L, plumby_get(&L->root, "descent"), "descent", spec);
+}
+
+/* A point of `m` given as latitude and longitude instead of east and
+ * north: turned into east, north metres from the site (geodesy.h). */
+static plumb_status map_point(loader *L, const plumby_map *m, double en[2])
+{
+    const plumb_zone_spec *z = &L->p->zone;
+    int has_lat = plumby_get(m, "latitude") != NULL, has_lon = plumby_get(m, "longitude") != NULL;
+    if (!has_lat && !has_lon)
+        return PLUMB_OK;
+    plumb_status st;
+    if ((st = plumby_forbid(m, "east", "together with latitude and longitude (give one or the "
+                                       "other)")) != PLUMB_OK ||
+        (st = plumby_forbid(m, "north", "together with latitude and longitude (give one or the "
+                                        "other)")) != PLUMB_OK)
+        return st;
+    if (!has_lat || !has_lon)
+        return plumby_missing(m, has_lat ? "longitude" : "latitude",
+                              "a point on the map needs both latitude and longitude");
+    double ll[2];
+    if ((st = plumby_num(m, "latitude", 1, 0.0, &ll[0], NULL)) != PLUMB_OK ||
+        (st = plumby_num(m, "longitude", 1, 0.0, &ll[1], NULL)) != PLUMB_OK)
+        return st;
+    if (!z->has_site)
+        return plumby_raise_value(m, "latitude", PLUMB_EINVAL,
+                                  "a point given by latitude and longitude needs the site's: "
+                                  "site.latitude and site.longitude (WGS 84)");
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    if (plumb_geodesy_inverse(z->site_deg[0], z->site_deg[1], ll[0], ll[1], en, &d) != PLUMB_OK)
+        return plumby_raise_value(m, "latitude", PLUMB_EINVAL, "%s", d.message);
+    return PLUMB_OK;
 }
 
 static plumb_status read_release_site(loader *L, plumb_fall_spec *base)
@@ -1067,6 +1211,17 @@ static plumb_status read_release_site(loader *L, plumb_fall_spec *base)
         return st;
     base->gravity.has_latitude = has_lat;
     base->site_elevation_m = L->elevation_m;
+    int has_lon;
+    double lon;
+    if ((st = plumby_num(&sm, "longitude", 0, 0.0, &lon, &has_lon)) != PLUMB_OK)
+        return st;
+    if (has_lon && !has_lat)
+        return plumby_missing(&sm, "latitude", "a site longitude needs the site latitude too");
+    L->p->zone.has_site = has_lon;
+    L->p->zone.site_deg[0] = base->gravity.latitude_deg;
+    L->p->zone.site_deg[1] = has_lon ? lon : 0.0;
+    if ((st = map_point(L, &pm, base->release_m)) != PLUMB_OK)
+        return st;
     if (L->elevation_m + L->height_m > PLUMB_STD1976_TOP_M)
         return plumby_raise_value(&rm, "height", PLUMB_ERANGE,
                                   "the release point, %.6g m above the strike level at %.6g m "
@@ -1590,8 +1745,27 @@ static plumb_status read_zone(loader *L)
     z->samples = (size_t)samples;
     z->seed = (unsigned long)seed;
     z->has_target = tm.node != NULL;
+    if (tm.node && (plumby_get(&tm, "latitude") || plumby_get(&tm, "longitude")))
+        return map_point(L, &tm, z->target_m);
     if (tm.node && ((st = plumby_num(&tm, "east", 1, 0.0, &z->target_m[0], NULL)) != PLUMB_OK ||
                     (st = plumby_num(&tm, "north", 1, 0.0, &z->target_m[1], NULL)) != PLUMB_OK))
+        return st;
+    return PLUMB_OK;
+}
+
+/* The optional `job:` map: who and what the calculation is for. */
+static plumb_status read_job(loader *L)
+{
+    plumb_job *j = &L->p->job;
+    plumby_map jm;
+    plumb_status st;
+    plumby_sub(&L->root, "job", &jm);
+    if ((st = plumby_text(&jm, "title", "", j->title, sizeof j->title)) != PLUMB_OK ||
+        (st = plumby_text(&jm, "site", "", j->site, sizeof j->site)) != PLUMB_OK ||
+        (st = plumby_text(&jm, "reference", "", j->reference, sizeof j->reference)) != PLUMB_OK ||
+        (st = plumby_text(&jm, "prepared_by", "", j->prepared_by, sizeof j->prepared_by)) !=
+            PLUMB_OK ||
+        (st = plumby_text(&jm, "checked_by", "", j->checked_by, sizeof j->checked_by)) != PLUMB_OK)
         return st;
     return PLUMB_OK;
 }
@@ -1653,7 +1827,7 @@ static plumb_status interpret(loader *L)
         }
     }
     if ((st = read_criteria(L)) != PLUMB_OK || (st = read_uncertainty(L)) != PLUMB_OK ||
-        (st = read_zone(L)) != PLUMB_OK)
+        (st = read_zone(L)) != PLUMB_OK || (st = read_job(L)) != PLUMB_OK)
         return st;
     return PLUMB_OK;
 }
@@ -1824,6 +1998,8 @@ const plumb_uncertainty *plumb_profile_uncertainty(const plumb_profile *p, size_
 
 const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p) { return p ? &p->zone : NULL; }
 
+const plumb_job *plumb_profile_job(const plumb_profile *p) { return p ? &p->job : NULL; }
+
 /* ---- fields of a fall spec --------------------------------------------- */
 
 const plumby_schema *plumbp_profile_schema(void)
@@ -1962,6 +2138,12 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
         canon(&h, "descent.fill_time", d->fill_time_s);
         canon(&h, "descent.fill_constant", d->fill_constant);
         canon(&h, "descent.disreefs", (double)d->disreefs_previous);
+        if (d->canopy != PLUMB_CANOPY_UNSPECIFIED || d->inflation_exponent > 0.0 ||
+            d->opening_factor > 0.0) {
+            canon(&h, "descent.canopy", (double)d->canopy);
+            canon(&h, "descent.inflation_exponent", d->inflation_exponent);
+            canon(&h, "descent.opening_factor", d->opening_factor);
+        }
     }
     for (int i = 0; i < 3; i++) {
         canon(&h, "release", s->release_m[i]);

@@ -3,9 +3,9 @@
  * parsed with udunits2 after an alias table for the trade's abbreviations.
  *
  * Method: the number is read with strtod; the unit text is rewritten token
- * by token (whole words only) through the alias table below, then parsed by
- * udunits2 (UDUNITS-2 C API, Unidata/UCAR, v2.2) in UTF-8 and converted to
- * the SI reference unit of the requested dimension:
+ * by token (whole words only) through the alias table (units_int.h), then
+ * parsed by udunits2 (UDUNITS-2 C API, Unidata/UCAR, v2.2) in UTF-8 and
+ * converted to the SI reference unit of the requested dimension:
  *
  *     value_SI = cv(value)          cv = ut_get_converter(unit, reference)
  *
@@ -30,6 +30,10 @@
  * Ownership and threads: the handle owns the udunits2 unit system; udunits2
  * is not thread-safe and ut_set_error_message_handler() is process-global
  * (set to ut_ignore here so that the library never prints).
+ *
+ * This file reads and converts; the messages for a quantity that cannot be
+ * read (unknown or wrong unit, compass letter, decimal comma) are in
+ * units_advice.c, and the tables both use in units_int.h.
  */
 #include <ctype.h>
 #include <errno.h>
@@ -42,227 +46,13 @@
 
 #include "plumb/units.h"
 #include "core/internal.h"
+#include "io/units_int.h"
 
-/* Longest quantity or unit text accepted, bytes (a sane unit is < 40). */
-#define UNITS_TEXT_MAX 256
 /* Room for the unit text once aliases are expanded. Aliases can grow a
  * text up to about nine times ("kn%" -> 27 bytes); a real unit grows far
  * less ("ft lbf" -> 34 bytes), so a text that needs more than this is not a
  * plausible unit and is refused. */
 #define UNITS_EXPANDED_MAX (4 * UNITS_TEXT_MAX)
-/* Longest piece of user text quoted in a diagnostic, bytes. */
-#define UNITS_SHOW_MAX 80
-
-/* Quantities plumb takes no input of, named in words when a unit of one
- * is given where another is wanted ("15 C" for a mass is an electric
- * charge): SI derived units, BIPM SI Brochure (9th ed., 2019) tables 2
- * and 4. Tried after the dimensions of plumb_dim; a unit that matches
- * none is "a unit that is not a mass". */
-static const struct {
-    const char *what;  /* with its article */
-    const char *ud;    /* a unit of it, spelt for udunits2 */
-} other_quantities[] = {
-    {"an acceleration", "m/s^2"},
-    {"a frequency (per time)", "1/s"},
-    {"an electric current", "A"},
-    {"an electric charge", "C"},
-    {"an electric potential (a voltage)", "V"},
-    {"a power", "W"},
-    {"an electric resistance", "ohm"},
-    {"an electric conductance", "S"},
-    {"a capacitance", "F"},
-    {"an inductance", "H"},
-    {"a magnetic flux", "Wb"},
-    {"a magnetic flux density", "T"},
-    {"an amount of substance", "mol"},
-    {"a luminous intensity", "cd"},
-    {"an illuminance", "lx"},
-    {"a dynamic viscosity", "Pa s"},
-    {"a kinematic viscosity", "m^2/s"},
-    {"a momentum", "kg m/s"},
-    {"a mass flow", "kg/s"},
-    {"a volume flow", "m^3/s"},
-    {"a mass per area", "kg/m^2"},
-    {"a mass per length", "kg/m"},
-    {"a reciprocal length", "1/m"},
-    {"an energy per mass", "J/kg"},
-};
-
-#define N_OTHER (sizeof other_quantities / sizeof other_quantities[0])
-
-struct plumb_units {
-    ut_system *sys;                  /* the udunits2 unit system (owned) */
-    ut_unit *ref[PLUMB_DIM_COUNT];   /* SI reference unit of each dimension (owned) */
-    ut_unit *radian;                 /* the radian, to tell angles from numbers (owned) */
-    ut_unit *one;                    /* the dimensionless unit one (owned) */
-    ut_unit *other[N_OTHER];         /* units of other_quantities[], NULL if unknown (owned) */
-};
-
-/* What every dimension is called, returned in and exemplified by. */
-typedef struct dim_info {
-    const char *name;     /* human name, "mass" */
-    const char *article;  /* "a" or "an" before the name */
-    const char *si;       /* SI unit shown to people, "kg" */
-    const char *ud;       /* the same unit spelt for udunits2 */
-    const char *example;  /* an example value, used when no number was given */
-} dim_info;
-
-static const dim_info dims[PLUMB_DIM_COUNT] = {
-    [PLUMB_DIM_NONE] = {"dimensionless number", "a", "1", "1", "0.9"},
-    [PLUMB_DIM_LENGTH] = {"length", "a", "m", "m", "30 m"},
-    [PLUMB_DIM_MASS] = {"mass", "a", "kg", "kg", "2.4 kg"},
-    [PLUMB_DIM_TIME] = {"time", "a", "s", "s", "1.5 s"},
-    [PLUMB_DIM_SPEED] = {"speed", "a", "m/s", "m/s", "8 m/s"},
-    [PLUMB_DIM_AREA] = {"area", "an", "m^2", "m^2", "0.021 m^2"},
-    [PLUMB_DIM_VOLUME] = {"volume", "a", "m^3", "m^3", "0.0015 m^3"},
-    [PLUMB_DIM_ENERGY] = {"energy", "an", "J", "J", "80 J"},
-    [PLUMB_DIM_FORCE] = {"force", "a", "N", "N", "40 N"},
-    [PLUMB_DIM_ANGLE] = {"angle", "an", "deg", "arc_degree", "270 deg"},
-    [PLUMB_DIM_TEMPERATURE] = {"temperature", "a", "K", "K", "288.15 K"},
-    [PLUMB_DIM_TEMP_DIFF] = {"temperature difference", "a", "K", "K", "10 K"},
-    [PLUMB_DIM_PRESSURE] = {"pressure", "a", "Pa", "Pa", "101325 Pa"},
-    [PLUMB_DIM_DENSITY] = {"density", "a", "kg/m^3", "kg/m^3", "1.225 kg/m^3"},
-    [PLUMB_DIM_LAPSE] = {"lapse rate", "a", "K/m", "K/m", "0.0065 K/m"},
-    [PLUMB_DIM_FRACTION] = {"fraction", "a", "1", "1", "0.5"},
-};
-
-/* Dimensions tried, in this order, to name what a wrong unit measures.
- * TEMP_DIFF and FRACTION are left out: they share TEMPERATURE's and
- * NONE's dimension; angles and numbers are told apart by the radian. */
-static const plumb_dim describe_order[] = {
-    PLUMB_DIM_LENGTH, PLUMB_DIM_MASS,     PLUMB_DIM_TIME,        PLUMB_DIM_SPEED,
-    PLUMB_DIM_AREA,   PLUMB_DIM_VOLUME,   PLUMB_DIM_ENERGY,      PLUMB_DIM_FORCE,
-    PLUMB_DIM_PRESSURE, PLUMB_DIM_DENSITY, PLUMB_DIM_TEMPERATURE, PLUMB_DIM_LAPSE,
-};
-
-/* The alias table: a whole word of the unit text and the unambiguous
- * udunits2 spelling that replaces it.  `dim` is what the alias measures;
- * plumb_units_alloc() checks every entry against it, so a database that
- * disagrees fails loudly instead of converting silently.  udunits2 2.2.28
- * alone reads "mph" and "kph" as the milliphot and kilophot, "oz" as the
- * US fluid ounce (a volume), "nmi" as a nano-mile, its avoirdupois_ounce is
- * rounded to 2.834952e-2 kg, and it knows no "kn", "deg", "fps", "lbs" or
- * "ftlbf". */
-typedef struct unit_alias {
-    const char *word;   /* token as written in a profile, case-sensitive */
-    const char *ud;     /* udunits2 expression it stands for */
-    plumb_dim dim;      /* what it measures */
-} unit_alias;
-
-static const unit_alias aliases[] = {
-    /* length: 1959 international yard and pound agreement (exact) */
-    {"ft", "international_foot", PLUMB_DIM_LENGTH},
-    {"feet", "international_foot", PLUMB_DIM_LENGTH},
-    {"foot", "international_foot", PLUMB_DIM_LENGTH},
-    {"in", "international_inch", PLUMB_DIM_LENGTH},
-    {"inch", "international_inch", PLUMB_DIM_LENGTH},
-    {"inches", "international_inch", PLUMB_DIM_LENGTH},
-    {"yd", "international_yard", PLUMB_DIM_LENGTH},
-    {"mi", "international_mile", PLUMB_DIM_LENGTH},
-    /* nautical mile = 1852 m exactly (NIST SP 811 (2008) B.8) */
-    {"nmi", "nautical_mile", PLUMB_DIM_LENGTH},
-    /* speed: mile per hour = 0.44704 m/s exactly; knot = 1852/3600 m/s
-     * (NIST SP 811 (2008) B.8) */
-    {"mph", "(international_mile/hour)", PLUMB_DIM_SPEED},
-    {"kn", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
-    {"kt", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
-    {"kts", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
-    {"knot", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
-    {"knots", "(nautical_mile/hour)", PLUMB_DIM_SPEED},
-    {"kph", "(kilometer/hour)", PLUMB_DIM_SPEED},
-    {"fps", "(international_foot/second)", PLUMB_DIM_SPEED},
-    /* mass: avoirdupois pound 0.45359237 kg exactly (1959), ounce = lb/16 */
-    {"lb", "avoirdupois_pound", PLUMB_DIM_MASS},
-    {"lbs", "avoirdupois_pound", PLUMB_DIM_MASS},
-    {"lbm", "avoirdupois_pound", PLUMB_DIM_MASS},
-    {"oz", "(avoirdupois_pound/16)", PLUMB_DIM_MASS},
-    /* force and energy: lbf = 0.45359237 kg x 9.80665 m/s^2 (CGPM 1901) */
-    {"lbf", "pound_force", PLUMB_DIM_FORCE},
-    {"ftlbf", "(international_foot pound_force)", PLUMB_DIM_ENERGY},
-    {"inlbf", "(international_inch pound_force)", PLUMB_DIM_ENERGY},
-    /* temperature scales (NIST SP 811 (2008) B.9) */
-    {"degC", "degree_Celsius", PLUMB_DIM_TEMPERATURE},
-    {"degF", "degree_fahrenheit", PLUMB_DIM_TEMPERATURE},
-    /* pressure: hectopascal; conventional inch of mercury 3.386 389 E+03 Pa
-     * as tabulated in NIST SP 811 (2008) B.8 (udunits2's own inHg is
-     * 0.0254 m x 13595.10 kg/m^3 x g0 = 3386.38864 Pa, the same to the
-     * seven digits NIST gives); psi = lbf/in^2 */
-    {"hPa", "hectopascal", PLUMB_DIM_PRESSURE},
-    {"inHg", "(3386.389 pascal)", PLUMB_DIM_PRESSURE},
-    {"psi", "(pound_force/international_inch^2)", PLUMB_DIM_PRESSURE},
-    /* angle: degree = pi/180 rad */
-    {"deg", "arc_degree", PLUMB_DIM_ANGLE},
-    {"degree", "arc_degree", PLUMB_DIM_ANGLE},
-    {"degrees", "arc_degree", PLUMB_DIM_ANGLE},
-    {"rad", "radian", PLUMB_DIM_ANGLE},
-    /* fraction: per cent */
-    {"%", "percent", PLUMB_DIM_FRACTION},
-};
-
-#define N_ALIASES (sizeof aliases / sizeof aliases[0])
-
-/* The units a quantity of each dimension is usually written in: the only
- * candidates of a did-you-mean (with the alias words of the dimension), and
- * the list a wrong unit's message shows. Each must read as its dimension
- * (tests/test_units.c checks every one through the message). */
-static const char *const dim_units[PLUMB_DIM_COUNT] = {
-    [PLUMB_DIM_NONE] = "",
-    [PLUMB_DIM_LENGTH] = "m, km, cm, mm, ft, in, yd, mi, nmi",
-    [PLUMB_DIM_MASS] = "kg, g, mg, t, lb, oz",
-    [PLUMB_DIM_TIME] = "s, ms, min, h",
-    [PLUMB_DIM_SPEED] = "m/s, km/h, kn, kt, mph, ft/s",
-    [PLUMB_DIM_AREA] = "m^2, cm^2, mm^2, ft^2, in^2",
-    [PLUMB_DIM_VOLUME] = "m^3, L, cm^3, ft^3, in^3",
-    [PLUMB_DIM_ENERGY] = "J, kJ, ft lbf, in lbf",
-    [PLUMB_DIM_FORCE] = "N, kN, lbf",
-    [PLUMB_DIM_ANGLE] = "deg, rad",
-    [PLUMB_DIM_TEMPERATURE] = "K, degC, degF",
-    [PLUMB_DIM_TEMP_DIFF] = "K, degC, degF",
-    [PLUMB_DIM_PRESSURE] = "Pa, hPa, kPa, bar, mbar, inHg, psi",
-    [PLUMB_DIM_DENSITY] = "kg/m^3, g/cm^3, lb/ft^3",
-    [PLUMB_DIM_LAPSE] = "K/m, K/km, degC/km",
-    [PLUMB_DIM_FRACTION] = "%",
-};
-
-/* Words people write for a unit that udunits2 reads otherwise or not at
- * all, with what they mean where `dim` is wanted ("5 kilos" is 5000 s to
- * udunits2: the prefix kilo on the second). `why` (may be NULL) completes
- * the description of what was found. */
-static const struct {
-    const char *word;
-    plumb_dim dim;
-    const char *use;
-    const char *why;
-} unit_hints[] = {
-    {"kilo", PLUMB_DIM_MASS, "kg", NULL},
-    {"kilos", PLUMB_DIM_MASS, "kg", "\"kilos\" reads as kiloseconds"},
-    {"kgs", PLUMB_DIM_MASS, "kg", NULL},
-    {"C", PLUMB_DIM_TEMPERATURE, "degC", "C is the coulomb"},
-    {"C", PLUMB_DIM_TEMP_DIFF, "degC", "C is the coulomb"},
-    {"F", PLUMB_DIM_TEMPERATURE, "degF", "F is the farad"},
-    {"F", PLUMB_DIM_TEMP_DIFF, "degF", "F is the farad"},
-    {"hrs", PLUMB_DIM_TIME, "h", NULL},
-    {"mins", PLUMB_DIM_TIME, "min", NULL},
-    {"kmh", PLUMB_DIM_SPEED, "km/h", NULL},
-    {"kmph", PLUMB_DIM_SPEED, "km/h", NULL},
-    {"mps", PLUMB_DIM_SPEED, "m/s", NULL},
-};
-
-#define N_HINTS (sizeof unit_hints / sizeof unit_hints[0])
-
-/* What a one-letter unit symbol or prefix is, to say why a change of case
- * matters (BIPM SI Brochure, 9th ed., tables 4, 7 and 8). */
-static const struct {
-    char c;
-    const char *is;
-} letters[] = {
-    {'A', "the ampere"}, {'C', "the coulomb"}, {'E', "the prefix exa"}, {'F', "the farad"},
-    {'G', "the prefix giga"}, {'H', "the henry"}, {'J', "the joule"}, {'K', "the kelvin"},
-    {'L', "the litre"}, {'M', "the prefix mega"}, {'N', "the newton"}, {'P', "the prefix peta"},
-    {'S', "the siemens"}, {'T', "the tesla (or the prefix tera)"}, {'V', "the volt"},
-    {'W', "the watt"}, {'g', "the gram"}, {'h', "the hour"}, {'k', "the prefix kilo"},
-    {'m', "the metre"}, {'s', "the second"}, {'t', "the tonne"},
-};
 
 static int valid_dim(plumb_dim dim)
 {
@@ -280,16 +70,6 @@ const char *plumb_dim_name(plumb_dim dim)
 }
 
 /* ---- the unit's shape, from a udunits2 visitor ---------------------------- */
-
-/* What a parsed unit is made of, beyond its dimension. */
-typedef struct unit_shape {
-    const ut_visitor *self;   /* this visitor, to descend into Galilean units */
-    const ut_unit *radian;    /* the radian of the system */
-    int rad_power;            /* power of the radian in the definition */
-    int has_offset;           /* a Galilean unit with an offset (degC, degF) */
-    int is_timestamp;         /* "s since 2000-01-01" */
-    int is_log;               /* a logarithmic unit */
-} unit_shape;
 
 static ut_status visit_basic(const ut_unit *unit, void *arg)
 {
@@ -354,13 +134,6 @@ static int unit_shape_of(const plumb_units *units, const ut_unit *unit, unit_sha
     shape->self = &shape_visitor;
     shape->radian = units->radian;
     return ut_accept_visitor(unit, &shape_visitor, shape) == UT_SUCCESS ? 0 : -1;
-}
-
-/* 1 when udunits2's last call failed for want of memory (UT_OS: its
- * allocation failed, errno ENOMEM; udunits2.h). */
-static int ut_out_of_memory(void)
-{
-    return ut_get_status() == UT_OS;
 }
 
 /* ---- rewriting the unit text ---------------------------------------------- */
@@ -516,253 +289,6 @@ static int has_number_factor(const char *unit)
     return 0;
 }
 
-/* ---- dimensions ------------------------------------------------------------ */
-
-/* True when a and b measure the same quantity. ut_are_convertible() is not
- * enough: udunits2 2.2.28 also holds a unit convertible into its
- * reciprocal, and its converter inverts the value (seen here: "5 1/kg"
- * was read as a mass of 0.2 kg, "2 Hz" as a time of 0.5 s; its header
- * does not say so). The quotient of two units of the same dimension is
- * dimensionless. Returns 1 (same), 0 (not), or -1 when udunits2 ran out of
- * memory. */
-static int same_dimension(const plumb_units *units, const ut_unit *a, const ut_unit *b)
-{
-    ut_unit *q = ut_divide(a, b);
-    if (!q)
-        return ut_out_of_memory() ? -1 : 0;
-    int same = ut_are_convertible(q, units->one) != 0;
-    ut_free(q);
-    return same;
-}
-
-/* ---- diagnostics ----------------------------------------------------------- */
-
-/* Describes what `unit` measures, in words: "a length", "an angle", "an
- * electric charge". Returns 0, or -1 (buf untouched) when it is none of the
- * quantities named in this file. */
-static int describe_unit(const plumb_units *units, const ut_unit *unit, const unit_shape *shape,
-                         char *buf, size_t size)
-{
-    if (ut_are_convertible(unit, units->one)) {
-        snprintf(buf, size, "%s", shape->rad_power == 1 ? "an angle" : "a dimensionless number");
-        return 0;
-    }
-    for (size_t i = 0; i < sizeof describe_order / sizeof describe_order[0]; i++) {
-        plumb_dim d = describe_order[i];
-        if (same_dimension(units, unit, units->ref[d]) > 0) {
-            snprintf(buf, size, "%s %s", dims[d].article, dims[d].name);
-            return 0;
-        }
-    }
-    for (size_t i = 0; i < N_OTHER; i++) {
-        if (units->other[i] && same_dimension(units, unit, units->other[i]) > 0) {
-            /* udunits2 takes the radian for a number: rad/s is a frequency */
-            int angular = shape->rad_power != 0 && strcmp(other_quantities[i].ud, "1/s") == 0;
-            snprintf(buf, size, "%s", angular ? "an angular speed" : other_quantities[i].what);
-            return 0;
-        }
-    }
-    return -1;
-}
-
-/* What a caller wanted, for messages: "a mass (kg)", "a fraction (a bare
- * number or \"%\")", "a bare number". */
-static void describe_want(plumb_dim want, char *buf, size_t size)
-{
-    if (want == PLUMB_DIM_NONE)
-        snprintf(buf, size, "a bare number (dimensionless)");
-    else if (want == PLUMB_DIM_FRACTION)
-        snprintf(buf, size, "a fraction (a bare number or \"%%\")");
-    else
-        snprintf(buf, size, "%s %s (%s)", dims[want].article, dims[want].name, dims[want].si);
-}
-
-/* The ASCII lower case of s into dst (size bytes). */
-static void fold(const char *s, char *dst, size_t size)
-{
-    size_t i = 0;
-    for (; s[i] && i + 1 < size; i++)
-        dst[i] = (char)(s[i] >= 'A' && s[i] <= 'Z' ? s[i] - 'A' + 'a' : s[i]);
-    dst[i] = '\0';
-}
-
-/* What the one-letter symbol c stands for, or NULL. */
-static const char *letter_is(char c)
-{
-    for (size_t i = 0; i < sizeof letters / sizeof letters[0]; i++)
-        if (letters[i].c == c)
-            return letters[i].is;
-    return NULL;
-}
-
-/* Advice on a unit that is unknown or of the wrong dimension. */
-typedef struct unit_advice {
-    char use[UNITS_SHOW_MAX];   /* the unit to write instead, "" when none is near */
-    const char *why;            /* completes what was found ("C is the coulomb"), or NULL */
-    char note[128];             /* "unit symbols are case-sensitive: ...", or "" */
-} unit_advice;
-
-/* Most candidates of one dimension (its list plus its alias words). */
-#define UNITS_CANDIDATES 48
-
-/* The units of dimension want that a did-you-mean may offer, into cand[];
- * their text lives in store. Returns how many. */
-static size_t candidates(plumb_dim want, const char **cand, char *store, size_t size)
-{
-    size_t n = 0;
-    plumbp_strlcpy(store, dim_units[want], size);
-    for (char *p = store; *p && n < UNITS_CANDIDATES;) {
-        cand[n++] = p;
-        char *comma = strstr(p, ", ");
-        if (!comma)
-            break;
-        *comma = '\0';
-        p = comma + 2;
-    }
-    plumb_dim alias_dim = want == PLUMB_DIM_TEMP_DIFF ? PLUMB_DIM_TEMPERATURE : want;
-    for (size_t i = 0; i < N_ALIASES && n < UNITS_CANDIDATES; i++)
-        if (aliases[i].dim == alias_dim)
-            cand[n++] = aliases[i].word;
-    return n;
-}
-
-/* Looks for the unit of dimension `want` that `unit` was meant to be: a
- * known slip (unit_hints), the same letters in another case ("KG" -> "kg",
- * with a note that symbols are case-sensitive), or a near spelling. Only
- * units of the wanted dimension are offered, and a one- or two-letter unit
- * only for a change of case: "M" is one edit from "g", which says nothing. */
-static void advise(plumb_dim want, const char *unit, unit_advice *adv)
-{
-    memset(adv, 0, sizeof *adv);
-    for (size_t i = 0; i < N_HINTS; i++)
-        if (unit_hints[i].dim == want && strcmp(unit, unit_hints[i].word) == 0) {
-            plumbp_strlcpy(adv->use, unit_hints[i].use, sizeof adv->use);
-            adv->why = unit_hints[i].why;
-            return;
-        }
-    const char *cand[UNITS_CANDIDATES];
-    char store[UNITS_SHOW_MAX * 2];
-    size_t n = candidates(want, cand, store, sizeof store);
-    char lower[UNITS_SHOW_MAX], lc[UNITS_SHOW_MAX];
-    fold(unit, lower, sizeof lower);
-    for (size_t i = 0; i < n; i++) {
-        fold(cand[i], lc, sizeof lc);
-        if (strcmp(lower, lc) != 0 || strcmp(unit, cand[i]) == 0)
-            continue;
-        plumbp_strlcpy(adv->use, cand[i], sizeof adv->use);
-        size_t k = 0;
-        while (unit[k] == cand[i][k])
-            k++;
-        const char *was = letter_is(unit[k]);
-        const char *meant = cand[i][1] == '\0' ? letter_is(cand[i][0]) : NULL;
-        if (was && meant)
-            snprintf(adv->note, sizeof adv->note,
-                     "unit symbols are case-sensitive: %c is %s, not %s", unit[k], was, meant);
-        else if (was)
-            snprintf(adv->note, sizeof adv->note, "unit symbols are case-sensitive: %c is %s",
-                     unit[k], was);
-        else
-            snprintf(adv->note, sizeof adv->note, "unit symbols are case-sensitive");
-        return;
-    }
-    size_t len = strlen(unit);
-    int limit = len <= 2 ? 0 : len <= 4 ? 1 : 2;
-    int best_d = limit + 1;
-    for (size_t i = 0; i < n; i++) {
-        fold(cand[i], lc, sizeof lc);
-        int d = plumbp_edit_distance(lower, lc);
-        if (d < best_d) {
-            best_d = d;
-            plumbp_strlcpy(adv->use, cand[i], sizeof adv->use);
-        }
-    }
-}
-
-/* The end of a wrong-unit message: "; did you mean \"5 kg\"? (note)", or
- * the units of the wanted dimension. */
-static void advice_tail(plumb_dim want, const char *number, const unit_advice *adv, char *buf,
-                        size_t size)
-{
-    if (adv->use[0])
-        snprintf(buf, size, "; did you mean \"%.*s %s\"?%s%s%s", UNITS_SHOW_MAX, number,
-                 adv->use, adv->note[0] ? " (" : "", adv->note, adv->note[0] ? ")" : "");
-    else if (dim_units[want][0])
-        snprintf(buf, size, "; units of %s %s: %s", dims[want].article, dims[want].name,
-                 dim_units[want]);
-    else
-        buf[0] = '\0';
-}
-
-/* Raises the "unknown unit" error, with the unit of the wanted dimension
- * that was probably meant, or the list of them. */
-static plumb_status raise_unknown(plumb_diag *diag, plumb_dim want, const char *unit,
-                                  const char *shown, const char *number)
-{
-    char w[UNITS_SHOW_MAX + 64], tail[UNITS_SHOW_MAX * 5];
-    describe_want(want, w, sizeof w);
-    unit_advice adv;
-    advise(want, unit, &adv);
-    advice_tail(want, number, &adv, tail, sizeof tail);
-    return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; unknown unit \"%.*s\" in \"%.*s\"%s", w,
-                       UNITS_SHOW_MAX, unit, UNITS_SHOW_MAX, shown, tail);
-}
-
-/* Raises the error of a unit of another dimension: what it measures, in
- * words, and what was probably meant. */
-static plumb_status raise_wrong(const plumb_units *units, plumb_diag *diag, plumb_dim want,
-                                const ut_unit *unit, const unit_shape *shape, const char *text,
-                                const char *shown, const char *number)
-{
-    char w[UNITS_SHOW_MAX + 64], found[128], tail[UNITS_SHOW_MAX * 5];
-    describe_want(want, w, sizeof w);
-    unit_advice adv;
-    advise(want, text, &adv);
-    if (describe_unit(units, unit, shape, found, sizeof found) != 0)
-        snprintf(found, sizeof found, "a unit that is not %s %s", dims[want].article,
-                 dims[want].name);
-    advice_tail(want, number, &adv, tail, sizeof tail);
-    return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" (%s%s%s)%s", w,
-                       UNITS_SHOW_MAX, shown, found, adv.why ? ": " : "", adv.why ? adv.why : "",
-                       tail);
-}
-
-/* Compass letters after an angle ("54.2 N", "3.1 deg W"): 1 for N or E,
- * -1 for S or W, 0 for anything else. */
-static int compass_letter(const char *unit)
-{
-    static const char *const degree_words[] = {"degrees", "degree", "deg", "\xC2\xB0"};
-    for (size_t i = 0; i < sizeof degree_words / sizeof degree_words[0]; i++) {
-        size_t n = strlen(degree_words[i]);
-        if (strncmp(unit, degree_words[i], n) == 0) {
-            unit += n;
-            break;
-        }
-    }
-    while (*unit == ' ')
-        unit++;
-    if (unit[0] == '\0' || unit[1] != '\0')
-        return 0;
-    switch (unit[0]) {
-    case 'N': case 'n': case 'E': case 'e': return 1;
-    case 'S': case 's': case 'W': case 'w': return -1;
-    default: return 0;
-    }
-}
-
-/* Raises the error of a compass letter after an angle, with the signed
- * angle it means. */
-static plumb_status raise_compass(plumb_diag *diag, int sign, const char *shown,
-                                  const char *number)
-{
-    const char *digits = number[0] == '+' || number[0] == '-' ? number + 1 : number;
-    int negative = (number[0] == '-') != (sign < 0);
-    return PLUMB_RAISE(diag, PLUMB_EUNIT,
-                       "expected an angle (deg), found \"%.*s\": compass letters are not units; "
-                       "a latitude or longitude is a signed number of degrees, north and east "
-                       "positive: write \"%s%.*s deg\"",
-                       UNITS_SHOW_MAX, shown, negative ? "-" : "", UNITS_SHOW_MAX, digits);
-}
-
 /* ---- conversion ------------------------------------------------------------ */
 
 /* Converts value in unit text `unit` (trimmed, may be "") to the SI unit of
@@ -787,7 +313,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
                 break;
             }
     char w[UNITS_SHOW_MAX + 64];
-    describe_want(want, w, sizeof w);
+    plumbp_units_describe_want(want, w, sizeof w);
 
     if (unit[0] == '\0') {
         if (want == PLUMB_DIM_NONE || want == PLUMB_DIM_FRACTION) {
@@ -808,9 +334,9 @@ static plumb_status convert(const plumb_units *units, double value, const char *
         return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" with a unit", w,
                            UNITS_SHOW_MAX, shown);
     }
-    int sign = want == PLUMB_DIM_ANGLE ? compass_letter(unit) : 0;
+    int sign = want == PLUMB_DIM_ANGLE ? plumbp_units_compass_letter(unit) : 0;
     if (sign != 0)
-        return raise_compass(diag, sign, shown, number);
+        return plumbp_units_raise_compass(diag, sign, shown, number);
     char expanded[UNITS_EXPANDED_MAX];
     if (rewrite_unit(unit, expanded, sizeof expanded) != 0)
         return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; the unit in \"%.*s...\" is too long",
@@ -821,7 +347,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
                            UNITS_SHOW_MAX, shown);
     if (!parsed)
-        return raise_unknown(diag, want, unit, shown, number);
+        return plumbp_units_raise_unknown(diag, want, unit, shown, number);
 
     unit_shape shape;
     plumb_status st = PLUMB_OK;
@@ -869,7 +395,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
     if (want == PLUMB_DIM_FRACTION && shape.rad_power != 0)
         ok = 0;
     if (!ok) {
-        st = raise_wrong(units, diag, want, use, &shape, unit, shown, number);
+        st = plumbp_units_raise_wrong(units, diag, want, use, &shape, unit, shown, number);
         goto done;
     }
     cv = ut_get_converter(use, units->ref[want]);
@@ -1047,56 +573,6 @@ static double compass_bearing(const char *text)
     return -1.0;
 }
 
-/* Raises the error of a number written with a comma ("6,5 m", "1,500 m"):
- * plumb reads a decimal point and no thousands separator. `end` is where
- * strtod stopped in `shown`, at the comma. */
-static plumb_status raise_comma(plumb_diag *diag, plumb_dim want, const char *shown,
-                                const char *end)
-{
-    char w[UNITS_SHOW_MAX + 64];
-    describe_want(want, w, sizeof w);
-    const char *q = end;
-    int commas = 0, threes = 1, point = memchr(shown, '.', (size_t)(end - shown)) != NULL;
-    while (q[0] == ',' && isdigit((unsigned char)q[1])) {
-        commas++;
-        size_t nd = 0;
-        for (q++; isdigit((unsigned char)*q); q++)
-            nd++;
-        threes &= nd == 3;
-    }
-    if (q[0] == '.' && isdigit((unsigned char)q[1])) {
-        point = 1;
-        for (q++; isdigit((unsigned char)*q); q++)
-            ;
-    }
-    /* the number with its commas as points, and without them */
-    char as_point[UNITS_TEXT_MAX + 1], as_plain[UNITS_TEXT_MAX + 1];
-    size_t a = 0, b = 0;
-    for (const char *c = shown; *c; c++) {
-        int in_number = c < q;
-        as_point[a++] = in_number && *c == ',' ? '.' : *c;
-        if (!(in_number && *c == ','))
-            as_plain[b++] = *c;
-    }
-    as_point[a] = as_plain[b] = '\0';
-    if (commas == 1 && !point && !threes)
-        return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected %s, found \"%.*s\": use a decimal point: \"%.*s\"", w,
-                           UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point);
-    if (commas == 1 && !point)
-        return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected %s, found \"%.*s\": numbers take a decimal point and no "
-                           "thousands separator: write \"%.*s\" or \"%.*s\", whichever is meant",
-                           w, UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point, UNITS_SHOW_MAX,
-                           as_plain);
-    return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                       "expected %s, found \"%.*s\": numbers take a decimal point and no "
-                       "thousands separator%s%.*s%s",
-                       w, UNITS_SHOW_MAX, shown, threes && commas > 0 ? ": write \"" : "",
-                       threes && commas > 0 ? UNITS_SHOW_MAX : 0, as_plain,
-                       threes && commas > 0 ? "\"" : "");
-}
-
 /*
  * Parses "NUMBER UNIT" (see units.h). Statuses: PLUMB_EINVAL for a NULL
  * argument or a dimension out of range; PLUMB_EPARSE for an empty text, a
@@ -1158,7 +634,7 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
                            dims[want].article, dims[want].name, UNITS_SHOW_MAX, shown);
 
     if (end[0] == ',' && isdigit((unsigned char)end[1]))
-        return raise_comma(diag, want, shown, end);
+        return plumbp_units_raise_comma(diag, want, shown, end);
 
     char number[UNITS_TEXT_MAX + 1];
     char unit[UNITS_TEXT_MAX + 1];

@@ -1,6 +1,8 @@
 /*
  * yamltree.h - a small, strict YAML node tree with positions, and a schema
- * checker over it (internal; shared by profile.c and criteria.c).
+ * checker over it (internal; shared by profile.c and criteria.c). The tree
+ * is yamltree.c; the schema and the readers of a checked map are
+ * yamltree_schema.c.
  *
  * The tree is built from libyaml's event parser (YAML 1.1, pyyaml.org/
  * wiki/LibYAML). Every string is copied out of libyaml's buffers, so
@@ -133,6 +135,7 @@ typedef enum plumby_range {
     PLUMBY_R_UNIT,        /* 0 .. 1 */
     PLUMBY_R_UNIT_OPEN,   /* 0 < x < 1 */
     PLUMBY_R_LATITUDE,    /* -90 .. 90 deg */
+    PLUMBY_R_LONGITUDE,   /* -180 .. 180 deg */
     PLUMBY_R_ALTITUDE     /* PLUMB_STD1976_BOTTOM_M .. PLUMB_STD1976_TOP_M, the span of the 1976 atmosphere */
 } plumby_range;
 

@@ -64,6 +64,7 @@ typedef struct device_state {
     double t_ls_s;       /* line-stretch time */
     double fill_s;       /* fill time */
     double cds_m2;       /* full canopy CdS */
+    double j;            /* inflation exponent */
 } device_state;
 
 struct fall_ctx {
@@ -115,7 +116,7 @@ static double devices_cds(const fall_ctx *c, double t)
         if (!d->deployed || d->removed || t < d->t_ls_s)
             continue;
         double f = d->fill_s > 0.0 ? (t - d->t_ls_s) / d->fill_s : 1.0;
-        s += d->cds_m2 * (f < 1.0 ? f : 1.0);
+        s += d->cds_m2 * plumb_inflation_fraction(f, d->j);
     }
     return s;
 }
@@ -414,9 +415,14 @@ static plumb_status check_spec(const plumb_fall_spec *s, plumb_diag *diag)
         const plumb_descent_spec *dv = &s->descent[i];
         if (!(dv->cd > 0.0 && dv->cd <= 10.0) || !(dv->area_m2 > 0.0) || !isfinite(dv->area_m2))
             return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "device %zu needs 0 < cd <= 10 and area > 0", i + 1);
-        if (!(dv->fill_time_s >= 0.0) || !(dv->fill_constant >= 0.0) ||
-            (dv->fill_constant > 0.0 && !(dv->diameter_m > 0.0)))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.fill_time", "device %zu: fill time >= 0, a fill constant needs a diameter", i + 1);
+        if (!(dv->fill_time_s >= 0.0) || !(dv->fill_constant >= 0.0) || !isfinite(dv->fill_constant))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.fill_time", "device %zu: fill time and fill constant must be >= 0", i + 1);
+        if (!(dv->inflation_exponent >= 0.0 && dv->inflation_exponent <= PLUMB_INFLATION_J_MAX))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.inflation_exponent",
+                                   "device %zu: the inflation exponent must lie in 0 (linear) to %g",
+                                   i + 1, PLUMB_INFLATION_J_MAX);
+        if (!(dv->opening_factor >= 0.0) || !isfinite(dv->opening_factor))
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.opening_factor", "device %zu: C_x must be >= 0", i + 1);
         if (dv->trigger == PLUMB_DEPLOY_AFTER && !(dv->deploy_value >= 0.0))
             return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.after", "deploy time must be >= 0 s");
         if (dv->trigger == PLUMB_DEPLOY_BELOW && !(dv->deploy_value > 0.0 && dv->deploy_value < r[2]))
@@ -904,20 +910,35 @@ static void deploy(runner *r, size_t i)
     const plumb_descent_spec *d = &r->ctx->spec->descent[i];
     device_state *ds = &r->ctx->dev[i];
     local L;
+    memset(&L, 0, sizeof L);
     ds->deployed = 1;
     ds->t_ls_s = r->t;
     ds->cds_m2 = d->cd * d->area_m2;
     double v_ls = 0.0;
     if (local_at(r->ctx, r->t, r->y, &L) == GSL_SUCCESS)
         v_ls = L.vr_abs;
-    ds->fill_s = d->fill_constant > 0.0 && v_ls > 0.0 ? d->fill_constant * d->diameter_m / v_ls
+    /* D0: the given diameter, else the nominal diameter sqrt(4 S0 / pi) (Knacke) */
+    double d0 = d->diameter_m > 0.0 ? d->diameter_m : sqrt(4.0 * d->area_m2 / PLUMB_PI);
+    ds->fill_s = d->fill_constant > 0.0 && v_ls > 0.0 ? d->fill_constant * d0 / v_ls
                                                       : d->fill_time_s;
+    ds->j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
     if (d->disreefs_previous && i > 0)
         r->ctx->dev[i - 1].removed = 1;
     size_t k = r->res->n_deployed++;
     r->res->deploy_time_s[k] = r->t;
     r->res->deploy_height_m[k] = r->y[IZ];
     r->res->deploy_speed_m_s[k] = v_ls;
+    r->res->fill_time_s[k] = ds->fill_s;
+    /* Pflanz's estimate from the state at line stretch (inflation.h) */
+    if (v_ls > 0.0 && ds->fill_s > 0.0) {
+        double rho = L.air.rho_kg_m3;
+        double a = plumb_pflanz_ballistic(r->ctx->spec->mass_kg, rho, ds->cds_m2, v_ls, ds->fill_s);
+        double q1s = 0.5 * rho * v_ls * v_ls * ds->cds_m2;
+        r->res->pflanz_a[k] = a;
+        r->res->pflanz_x1[k] = plumb_pflanz_x1(a, ds->j, NULL);
+        r->res->pflanz_q1s_n[k] = q1s;
+        r->res->pflanz_force_n[k] = d->opening_factor * r->res->pflanz_x1[k] * q1s;
+    }
 }
 
 /* After an event the right-hand side changes form (a canopy opens or

@@ -77,5 +77,6 @@ const plumb_report_options *plumbp_opts_or_default(const plumb_report_options *o
                                                    plumb_report_options *def);
 plumb_status plumbp_prepare_fall(const plumb_fall_report *rep, item_air **ia, plumb_diag *diag);
 shown plumbp_show_dim(const writer *w, plumb_dim dim, double si);
+shown plumbp_show_key(const writer *w, const char *key, plumb_dim dim, double si);
 
 #endif /* PLUMB_REPORT_COMMON_H */

@@ -96,6 +96,17 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
             jset(j, dv, "fill_constant", jreal(j, d->fill_constant));
         else
             jset(j, dv, "fill_time_s", jreal(j, d->fill_time_s));
+        const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+        json_t *inf = jobj(j);
+        jset(j, inf, "canopy", ci ? jstr(j, ci->name) : json_null());
+        jset(j, inf, "exponent", jreal(j, d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0));
+        jset(j, inf, "opening_factor",
+             d->opening_factor > 0.0 ? jreal(j, d->opening_factor) : json_null());
+        jset(j, inf, "source",
+             jstr(j, ci ? ci->source
+                        : d->inflation_exponent > 0.0 ? "given in the profile"
+                                                      : "linear fill: no canopy type or exponent given"));
+        jset(j, dv, "inflation", inf);
         jset(j, dv, "deployed", json_boolean(i < r->n_deployed));
         if (i < r->n_deployed) {
             json_t *ls = jobj(j);
@@ -103,6 +114,24 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
             jset(j, ls, "height_m", jreal(j, r->deploy_height_m[i]));
             jset(j, ls, "airspeed_m_s", jreal(j, r->deploy_speed_m_s[i]));
             jset(j, dv, "line_stretch", ls);
+            jset(j, dv, "fill_time_used_s", jreal(j, r->fill_time_s[i]));
+            if (r->fill_time_s[i] > 0.0) {
+                json_t *pf = jobj(j);
+                jset(j, pf, "method", jstr(j, "Pflanz (Knacke 1991): weightless, horizontal "
+                                              "deployment, constant density, point mass"));
+                jset(j, pf, "ballistic_parameter", jreal(j, r->pflanz_a[i]));
+                jset(j, pf, "x1", jreal(j, r->pflanz_x1[i]));
+                jset(j, pf, "q1_cds0_n", jreal(j, r->pflanz_q1s_n[i]));
+                jset(j, pf, "opening_force_n",
+                     d->opening_factor > 0.0 ? jreal(j, r->pflanz_force_n[i]) : json_null());
+                jset(j, pf, "opening_load_g",
+                     d->opening_factor > 0.0
+                         ? jreal(j, r->pflanz_force_n[i] / (s->mass_kg * PLUMB_G0_M_S2))
+                         : json_null());
+                jset(j, dv, "pflanz", pf);
+            } else {
+                jset(j, dv, "pflanz", json_null());
+            }
         } else {
             jset(j, dv, "line_stretch", json_null());
         }
@@ -268,7 +297,10 @@ void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const
     }
     jset(j, o, "items", items);
     jset(j, o, "worst", jstr(j, rep->items[plumbp_worst_item(rep)].spec->name));
-    jset(j, o, "largest_drift", jstr(j, rep->items[plumbp_largest_drift_item(rep)].spec->name));
+    /* no item drifts: no largest drift to name */
+    const plumb_item_report *d = &rep->items[plumbp_largest_drift_item(rep)];
+    jset(j, o, "largest_drift",
+         d->result.drift_m < DRIFT_SHOWN_M ? json_null() : jstr(j, d->spec->name));
 }
 
 json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,

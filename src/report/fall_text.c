@@ -51,15 +51,10 @@ static void text_impact(writer *w, const plumb_item_report *it)
     put(w, "  angle      %s° below horizontal\n", plumbp_fixed(w, r->angle_deg, 1));
 }
 
+/* A criterion's limit, rounded down in both units (the strict side). */
 static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t size)
 {
-    if (w->us)
-        snprintf(buf, size, "limit %s ft·lbf (%s J)",
-                 num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG),
-                 num(w, c->energy_limit_j, TEXT_SIG));
-    else
-        snprintf(buf, size, "limit %s J (%s ft·lbf)", num(w, c->energy_limit_j, TEXT_SIG),
-                 num(w, c->energy_limit_j / PLUMB_FT_LBF_J, TEXT_SIG));
+    snprintf(buf, size, "limit %s", plumbp_t_limit_energy(w, c->energy_limit_j));
 }
 
 /* How sure the criterion's figure is, when it is not read in the source
@@ -135,6 +130,49 @@ static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, 
     w->exact = 0;
 }
 
+/* The inflation curve of a device and where its figures come from. */
+static void text_inflation(writer *w, const plumb_descent_spec *d)
+{
+    char line[NUMBUF * 8];
+    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+    double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
+    w->exact = 1;
+    snprintf(line, sizeof line, "%s%sdrag area grows as (t/t_f)^%s over the fill (Knacke 1991)%s",
+             ci ? ci->name : "", ci ? " canopy: " : "", plumbp_gnum(w, j, 3),
+             d->inflation_exponent > 0.0 ? "" : "; linear: no canopy type or exponent given");
+    w->exact = 0;
+    wrapped(w, "                   ", line);
+    if (ci)
+        wrapped(w, "                   source: ", ci->source);
+}
+
+/* Pflanz's hand estimate beside the integrated peak. */
+static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall_result *r,
+                        size_t i, double weight_n)
+{
+    char line[NUMBUF * 10];
+    if (!(r->fill_time_s[i] > 0.0)) {
+        wrapped(w, "                   ", "opens at once: no fill, so no Pflanz estimate");
+        return;
+    }
+    if (d->opening_factor > 0.0)
+        snprintf(line, sizeof line,
+                 "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
+                 "X1 %s, C_x %s: opening force %s (%s" NBSP "g)",
+                 num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
+                 num(w, r->pflanz_x1[i], 3), num(w, d->opening_factor, 3),
+                 plumbp_t_force(w, r->pflanz_force_n[i]),
+                 num(w, r->pflanz_force_n[i] / weight_n, 3));
+    else
+        snprintf(line, sizeof line,
+                 "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
+                 "X1 %s: X1 q1 CdS0 %s, times C_x (not known: give canopy or opening_factor)",
+                 num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
+                 num(w, r->pflanz_x1[i], 3),
+                 plumbp_t_force(w, r->pflanz_x1[i] * r->pflanz_q1s_n[i]));
+    wrapped(w, "                   ", line);
+}
+
 static void text_descent(writer *w, const plumb_item_report *it, const char *who)
 {
     const plumb_fall_spec *s = it->spec;
@@ -152,6 +190,7 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
                  plumbp_t_area(w, d->area_m2), rule);
         w->exact = 0;
         wrapped(w, lead, line);
+        text_inflation(w, d);
         if (i < r->n_deployed)
             snprintf(line, sizeof line,
                      "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
@@ -161,9 +200,11 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
         else
             snprintf(line, sizeof line, "does not open before impact");
         wrapped(w, "                   ", line);
+        if (i < r->n_deployed)
+            text_pflanz(w, d, r, i, s->mass_kg * PLUMB_G0_M_S2);
     }
-    put(w, "  peak drag force  %s (%s" NBSP "g)\n", plumbp_t_force(w, r->peak_force_n),
-        num(w, r->peak_load_g, 3));
+    put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
+        plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
     put(w, "  steady descent   %s with the devices open, at the strike level\n",
         plumbp_t_speed(w, r->steady_speed_m_s));
 }
@@ -201,6 +242,7 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
     char how[NUMBUF * 4];
     if (d->model == PLUMB_DRAG_SPHERE_MORRISON || d->model == PLUMB_DRAG_SPHERE_CGW) {
         const plumb_fall_result *r = &it->result;
+        shape[0] = '\0'; /* the sphere is named once, with its drag law */
         snprintf(how, sizeof how, "sphere of diameter %s, Cd(Re) by %s; Re %s to %s on the way",
                  plumbp_t_len(w, d->diameter_m),
                  d->model == PLUMB_DRAG_SPHERE_CGW ? "Clift, Grace & Weber (1978)"
@@ -565,7 +607,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
                  worst->spec->name, plumbp_t_energy(w, worst->result.energy_j),
                  plumbp_t_speed(w, worst->result.speed_m_s),
                  num(w, worst->verdicts[sk].ratio, RATIO_SIG), sk + 1,
-                 plumbp_t_energy(w, worst->verdicts[sk].criterion->energy_limit_j),
+                 plumbp_t_limit_energy(w, worst->verdicts[sk].criterion->energy_limit_j),
                  plumbp_verdict_word(&worst->verdicts[sk]));
     else
         snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,

@@ -156,6 +156,38 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip)
     return b;
 }
 
+/* x rounded to `sig` significant figures, down (round_down 1) or up: the
+ * side of a limit that meets it, so that a printed limit or answer is
+ * never more lenient than the figure it stands for. A quotient that is a
+ * whole number to within round-off (25 ft·lbf from 33.895 J) stays that
+ * number rather than dropping to the next one down. */
+double plumbp_round_safe(double x, int sig, int round_down)
+{
+    if (x == 0.0 || !plumbp_finite(x))
+        return x;
+    double scale = pow(10.0, floor(log10(fabs(x))) - (sig - 1));
+    double q = x / scale, whole = nearbyint(q);
+    if (fabs(q - whole) <= 1e-9 * fabs(q))
+        return whole * scale;
+    return (round_down ? floor(q) : ceil(q)) * scale;
+}
+
+/* An upper limit in the display units, each figure rounded down: the
+ * strict side (a criterion's limit, --energy-max, --speed-max). */
+const char *plumbp_t_limit(writer *w, const char *(*t)(writer *, double), double x)
+{
+    int was = w->strict;
+    w->strict = 1;
+    const char *b = t(w, x);
+    w->strict = was;
+    return b;
+}
+
+const char *plumbp_t_limit_energy(writer *w, double j)
+{
+    return plumbp_t_limit(w, plumbp_t_energy, j);
+}
+
 /* x in the shortest of %g's forms with `sig` significant digits ("0.9"). */
 const char *plumbp_gnum(writer *w, double x, int sig)
 {
@@ -171,6 +203,8 @@ const char *plumbp_gnum(writer *w, double x, int sig)
  * INPUT_SIG figures) or converted (US, TEXT_SIG figures), zeros dropped. */
 static const char *qty(writer *w, double x)
 {
+    if (w->strict)
+        return num(w, plumbp_round_safe(x, TEXT_SIG, 1), TEXT_SIG);
     if (!w->exact)
         return num(w, x, TEXT_SIG);
     return plumbp_gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);

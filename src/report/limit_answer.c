@@ -49,51 +49,47 @@ static const char *outcome_word(plumb_limit_outcome o)
                                          : "not applicable";
 }
 
-static const char *t_value(writer *w, plumb_dim dim, double si)
+static const char *t_value(writer *w, const char *key, plumb_dim dim, double si)
 {
-    shown v = plumbp_show_dim(w, dim, si);
+    shown v = plumbp_show_key(w, key, dim, si);
     char *b = slot(w);
     snprintf(b, NUMBUF, "%s%s%s", plumbp_gnum(w, v.x, 6), v.unit[0] ? NBSP : "", v.unit);
     return b;
 }
 
-/* A limit's value, 6 figures, rounded toward the side that meets the limit
- * (down when lower values do), so that the printed value is a safe one. */
 /* x to 6 significant figures, rounded down or up: toward the side of the
  * answer that meets the limit, so a printed value never breaks it. */
 static double round_safe(double x, int round_down)
 {
-    if (x != 0.0 && plumbp_finite(x)) {
-        double scale = pow(10.0, floor(log10(fabs(x))) - 5.0);
-        x = (round_down ? floor(x / scale) : ceil(x / scale)) * scale;
-    }
-    return x;
+    return plumbp_round_safe(x, 6, round_down);
 }
 
-static const char *t_limit_value(writer *w, plumb_dim dim, double si, int round_down)
+static const char *t_limit_value(writer *w, const char *key, plumb_dim dim, double si,
+                                 int round_down)
 {
-    shown v = plumbp_show_dim(w, dim, si);
+    shown v = plumbp_show_key(w, key, dim, si);
     double x = round_safe(v.x, round_down);
     char *b = slot(w);
     snprintf(b, NUMBUF, "%s%s%s", plumbp_gnum(w, x, 6), v.unit[0] ? NBSP : "", v.unit);
     return b;
 }
 
-/* The answer in the unit the profile gave the key in, rounded toward the
+/* The answer in the unit the profile (or --set) gave the key in, rounded toward the
  * side that meets the limit like t_limit_value, as " (11.5003 ft)"; ""
  * when the key was not given with a unit or that is the unit shown. */
-static const char *t_given_value(writer *w, const plumb_limit_result *r, int round_down)
+static const char *t_given_value(writer *w, const char *key, const plumb_limit_result *r,
+                                 int round_down)
 {
     char *b = slot(w);
     b[0] = '\0';
     if (!r->given_unit[0] || !(r->given_scale_si != 0.0))
         return b;
-    shown v = plumbp_show_dim(w, r->dim, r->value_si);
+    shown v = plumbp_show_key(w, key, r->dim, r->value_si);
     if (strcmp(v.unit, r->given_unit) == 0)
         return b;
     double x = (r->value_si - r->given_offset_si) / r->given_scale_si;
     x = round_safe(x, r->given_scale_si < 0.0 ? !round_down : round_down);
-    snprintf(b, NUMBUF, " (%s%s%s, the profile's unit)", plumbp_gnum(w, x, 6), NBSP, r->given_unit);
+    snprintf(b, NUMBUF, " (%s%s%s, the unit it was given in)", plumbp_gnum(w, x, 6), NBSP, r->given_unit);
     return b;
 }
 
@@ -104,7 +100,11 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
     plumbp_text_header(w, opt, "limit", plumb_profile_name(p));
     char text[PLUMB_LIMIT_TEXT + 256];
     snprintf(text, sizeof text, "the %s of %s at which the %s is %s%s%s%s", "value", rep->key,
-             metric_word(rep->metric), t_metric(w, rep->metric, rep->limit),
+             metric_word(rep->metric),
+             plumbp_t_limit(w, rep->metric == PLUMB_METRIC_SPEED   ? plumbp_t_speed
+                               : rep->metric == PLUMB_METRIC_DRIFT ? plumbp_t_len
+                                                                   : plumbp_t_energy,
+                            rep->limit),
              rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
              rep->criterion ? ")" : "");
     wrapped(w, "  ", text);
@@ -124,8 +124,8 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
             put(w, "%s\n", plumb_profile_item(p, i)->name);
         if (r->outcome == PLUMB_LIMIT_FOUND) {
             put(w, "  %s = %s%s\n", rep->key,
-                t_limit_value(w, r->dim, r->value_si, r->limit_is_upper_bound),
-                t_given_value(w, r, r->limit_is_upper_bound));
+                t_limit_value(w, rep->key, r->dim, r->value_si, r->limit_is_upper_bound),
+                t_given_value(w, rep->key, r, r->limit_is_upper_bound));
             snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
                      metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher",
@@ -139,7 +139,7 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                 list[0] = '\0';
                 for (size_t k = 0; k < r->n_crossings && len + NUMBUF < sizeof list; k++)
                     len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", k ? ", " : "",
-                                            t_value(w, r->dim, r->crossings_si[k]));
+                                            t_value(w, rep->key, r->dim, r->crossings_si[k]));
                 snprintf(text, sizeof text,
                          "the %s is not monotonic in %s: it crosses the limit at %s; %s at the "
                          "low end of the range and alternately between the crossings.",
@@ -157,7 +157,7 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
             wrapped(w, "  ", r->explanation);
         }
         snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu falls computed)",
-                 t_value(w, r->dim, r->base_value_si), t_metric(w, rep->metric, r->metric_at_base),
+                 t_value(w, rep->key, r->dim, r->base_value_si), t_metric(w, rep->metric, r->metric_at_base),
                  r->evaluations);
         wrapped(w, "  ", text);
     }
@@ -185,7 +185,11 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
            "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
-        shown v = plumbp_show_dim(w, r->dim, r->value_si);
+        /* value and unit: in the unit the key was given in, when it was
+         * given in one, else in the report's units */
+        shown v = plumbp_show_key(w, rep->key, r->dim, r->value_si);
+        if (r->given_unit[0] && r->given_scale_si != 0.0)
+            v = (shown){(r->value_si - r->given_offset_si) / r->given_scale_si, r->given_unit};
         int found = r->outcome == PLUMB_LIMIT_FOUND; /* else no value: empty fields */
         csv_field(w, plumb_profile_item(rep->profile, i)->name);
         put(w, ",");

@@ -33,6 +33,7 @@
 #include "core/internal.h"
 #include "report/jsonout.h"
 #include "report/format.h"
+#include "report/zone_map.h"
 
 /* Significant digits of text figures; CSV digits (JSON: jsonout.h). */
 /* Width the text wraps sentences at. */
@@ -147,6 +148,8 @@ static double key_unit(const writer *w, const char *key, const char **unit)
         if (w->us) { *unit = "ft"; return 1.0 / PLUMB_FT_M; }
         return 1.0;
     case PLUMB_DIM_SPEED:
+        /* a wind speed as a crew reads it, as plumbp_show_key gives it */
+        if (w->us && strncmp(key, "wind.", 5) == 0) { *unit = "mph"; return 1.0 / MPH_M_S; }
         if (w->us) { *unit = "ft/s"; return 1.0 / PLUMB_FT_M; }
         return 1.0;
     case PLUMB_DIM_MASS:
@@ -306,7 +309,7 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
         const plumb_zone_exceedance *x = &z->exceedance[i];
         const plumb_criterion *c = x->criterion;
         put(w, "  %-9s %s – %s, %zu of %zu samples above %s\n", pct(w, x->probability),
-            pct(w, x->lo), pct(w, x->hi), x->count, z->samples, t_energy(w, c->energy_limit_j));
+            pct(w, x->lo), pct(w, x->hi), x->count, z->samples, plumbp_t_limit_energy(w, c->energy_limit_j));
         char src[2 * PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 128];
         const char *note = status_note_of(c->status);
         snprintf(src, sizeof src, "%s [%s]; source: %s%s%s%s%s", c->name, c->id,
@@ -319,11 +322,58 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
     put(w, "\n");
 }
 
+/* Where the impacts land: the circle around the cloud's centre and the
+ * polygon, each holding the confidence's share of impacts. */
+static void text_landing(writer *w, const plumb_zone_stats *z, double confidence, double level)
+{
+    const plumb_zone_quantile *q = &z->landing_radius;
+    const plumb_region_result *lr = &z->landing;
+    put(w, "Where %s of the impacts land, wherever that is on the ground\n", pct(w, confidence));
+    char line[512];
+    put(w, "  circle centre   %s (mean of the first %zu samples)\n",
+        t_point(w, z->landing_centre_m), z->landing_training);
+    if (q->hi_open) {
+        put(w, "  circle radius   open: more samples needed to bound it\n");
+    } else {
+        put(w, "  circle radius   %s, %s interval %s\n", t_len(w, q->value), pct(w, level),
+            t_interval(w, q, len_shown(w, 1.0), len_unit(w)));
+        put(w, "  landing circle  %s = upper bound %s + scatter %s\n",
+            t_len(w, z->landing_circle_m), t_len(w, q->hi), t_len(w, z->scatter_m));
+    }
+    if (lr->open) {
+        put(w, "  polygon         open: more samples needed to bound it\n");
+    } else {
+        put(w, "  polygon         %s in %zu part%s; with the scatter allowance as a buffer\n"
+               "                  %s\n",
+            plumbp_t_area(w, lr->polygon.area_m2),
+            lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s",
+            plumbp_t_area(w, lr->buffered.area_m2));
+    }
+    snprintf(line, sizeof line,
+             "the first %zu samples fix the centre and a density grid; the other %zu are "
+             "counted against them, so each figure holds at least %s of the impacts with %s "
+             "confidence (order statistics; split conformal for the polygon, Lei, Robins & "
+             "Wasserman 2013). The polygons are in --regions-out and --format geojson.",
+             z->landing_training, z->samples - z->landing_training, pct(w, confidence),
+             pct(w, level));
+    wrapped(w, "  ", line);
+    put(w, "\n");
+}
+
 static void text_rules(writer *w, const plumb_zone_stats *z)
 {
     put(w, "Simple rules, beside the computed radius\n");
     put(w, "  %-26s %s\n", "radius = drop height", t_len(w, z->drop_height_m));
     char line[256];
+    if (z->glide_ratio_max > 0.0) {
+        snprintf(line, sizeof line,
+                 "up to %s (%s x the drop height): a plate gliding in still air, published "
+                 "range of glide ratios 0 to %s; \"radius = drop height\" is not conservative "
+                 "for it (plumb/glide.h)",
+                 t_len(w, z->glide_ratio_max * z->drop_height_m),
+                 num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4));
+        wrapped(w, "  plate glide                ", line);
+    }
     snprintf(line, sizeof line,
              "%s: the range, without drag or wind, of the sample released fastest (%s, in "
              "its own direction)",
@@ -335,15 +385,27 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     put(w, "\n");
 }
 
+static void text_warnings(writer *w, const plumb_zone_result *r)
+{
+    if (r->n_warnings == 0)
+        return;
+    put(w, "Warnings\n");
+    for (size_t i = 0; i < r->n_warnings; i++)
+        wrapped(w, "  - ", r->warnings[i]);
+    put(w, "\n");
+}
+
 static void text_item(writer *w, const plumb_zone_result *r)
 {
     const plumb_zone_stats *z = &r->zone;
+    text_warnings(w, r);
     text_inputs(w, r);
     put(w, "Impact cloud, released at the planned drop point (%s)\n", t_point(w, z->release_m));
     text_cloud(w, z);
     put(w, "\n");
     text_radii(w, z, r->ci_level, "the planned drop point");
     text_clearance(w, z, r->confidence, r->ci_level, "");
+    text_landing(w, z, r->confidence, r->ci_level);
     text_rules(w, z);
     text_energy(w, z, r->ci_level);
     text_exceedance(w, z, r->ci_level);
@@ -374,6 +436,34 @@ static void text_cautions(writer *w)
         wrapped(w, "  - ", c[i]);
 }
 
+/* The kit as a whole: the largest clearance radius and landing circle,
+ * and the items that set them. */
+static void text_kit(writer *w, const plumb_zone_report *rep)
+{
+    const plumb_zone_result *k = rep->items[rep->kit_item].result;
+    const plumb_zone_result *l = rep->items[rep->kit_landing_item].result;
+    put(w, "==== The kit\n\n");
+    char line[512];
+    snprintf(line, sizeof line, "%s around the planned drop point, set by %s (the item with "
+             "the largest radius; every item's zone lies within it)",
+             t_len(w, k->zone.clearance_radius_m), rep->items[rep->kit_item].name);
+    put(w, "Kit clearance radius at %s:\n", pct(w, k->confidence));
+    wrapped(w, "  ", line);
+    if (!l->zone.landing_radius.hi_open) {
+        snprintf(line, sizeof line, "largest landing circle %s (with the scatter allowance), "
+                 "set by %s", t_len(w, l->zone.landing_circle_m),
+                 rep->items[rep->kit_landing_item].name);
+        wrapped(w, "  ", line);
+    }
+    put(w, "  %-30s %-14s %s\n", "item", "clearance", "landing circle");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_zone_stats *z = &rep->items[i].result->zone;
+        put(w, "  %-30.30s %-14s %s\n", rep->items[i].name, t_len(w, z->clearance_radius_m),
+            z->landing_radius.hi_open ? "open" : t_len(w, z->landing_circle_m));
+    }
+    put(w, "\n");
+}
+
 static void text_report(writer *w, const plumb_report_options *opt, const plumb_zone_report *rep)
 {
     const plumb_zone_result *r0 = rep->items[0].result;
@@ -388,6 +478,8 @@ static void text_report(writer *w, const plumb_report_options *opt, const plumb_
             put(w, "==== %s\n\n", rep->items[i].name);
         text_item(w, rep->items[i].result);
     }
+    if (rep->inventory)
+        text_kit(w, rep);
     if (rep->profile_path)
         put(w, "Profile  %s\n", rep->profile_path);
     if (rep->profile_sha256)
@@ -449,6 +541,18 @@ static void csv_stats(writer *w, const char *item, const char *prefix, const plu
     csv_quantile(w, item, Q("radius_at_confidence"), &z->radius_conf, L, lu);
     csv_row(w, item, Q("scatter"), z->scatter_m * L, NULL, NULL, lu);
     csv_row(w, item, Q("clearance_radius"), z->clearance_radius_m * L, NULL, NULL, lu);
+    csv_row(w, item, Q("landing_centre_east"), z->landing_centre_m[0] * L, NULL, NULL, lu);
+    csv_row(w, item, Q("landing_centre_north"), z->landing_centre_m[1] * L, NULL, NULL, lu);
+    csv_quantile(w, item, Q("landing_radius"), &z->landing_radius, L, lu);
+    if (!z->landing_radius.hi_open)
+        csv_row(w, item, Q("landing_circle"), z->landing_circle_m * L, NULL, NULL, lu);
+    if (!z->landing.open) {
+        double A = L * L;
+        const char *au = w->us ? "ft2" : "m2";
+        csv_row(w, item, Q("landing_area"), z->landing.polygon.area_m2 * A, NULL, NULL, au);
+        csv_row(w, item, Q("landing_area_buffered"), z->landing.buffered.area_m2 * A, NULL, NULL,
+                au);
+    }
     for (int i = 0; i < PLUMB_ZONE_ENERGIES; i++) {
         char name[32];
         snprintf(name, sizeof name, "energy_%s", energy_names[i]);
@@ -464,6 +568,9 @@ static void csv_stats(writer *w, const char *item, const char *prefix, const plu
     if (!target_pass) {
         csv_row(w, item, Q("drop_height"), z->drop_height_m * L, NULL, NULL, lu);
         csv_row(w, item, Q("ballistic_throw"), z->ballistic_throw_m * L, NULL, NULL, lu);
+        if (z->glide_ratio_max > 0.0)
+            csv_row(w, item, Q("plate_glide"), z->glide_ratio_max * z->drop_height_m * L, NULL,
+                    NULL, lu);
         csv_row(w, item, Q("max_release_speed"), z->max_release_speed_m_s * L, NULL, NULL,
                 w->us ? "ft/s" : "m/s");
     }
@@ -479,15 +586,21 @@ static void csv_report(writer *w, const plumb_zone_report *rep)
     const plumb_zone_result *r0 = rep->items[0].result;
     put(w, "# profile: %s (%s), sha256 %s\n", rep->profile_name ? rep->profile_name : "",
         rep->profile_path ? rep->profile_path : "", rep->profile_sha256 ? rep->profile_sha256 : "");
-    put(w, "# zone: %zu samples, seed %lu, confidence %s, intervals at %s, %zu threads (the "
-           "figures do not depend on them)\n", r0->samples, r0->seed, csvnum(w, r0->confidence),
-        csvnum(w, r0->ci_level), rep->threads);
+    put(w, "# zone: %zu samples, seed %lu, confidence %s, intervals at %s, %zu thread%s (the "
+           "figures do not depend on the number)\n", r0->samples, r0->seed,
+        csvnum(w, r0->confidence), csvnum(w, r0->ci_level), rep->threads,
+        rep->threads == 1 ? "" : "s");
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;
         put(w, "# criterion %s: %s, limit %s J, source: %s, status %s\n", cr->id, cr->name,
             csvnum(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
             cr->status[0] ? cr->status : "not given");
+    }
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_zone_result *r = rep->items[i].result;
+        for (size_t k = 0; k < r->n_warnings; k++)
+            put(w, "# warning: %s: %s\n", rep->items[i].name, r->warnings[k]);
     }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
@@ -528,6 +641,57 @@ static json_t *jci(jctx *j, const plumb_zone_quantile *q, double off)
     jpush(j, v, q->lo_open ? json_null() : jreal(j, off + q->lo));
     jpush(j, v, q->hi_open ? json_null() : jreal(j, off + q->hi));
     return v;
+}
+
+/* A polygon's rings, each a list of [east, north] closed on its first point. */
+static json_t *j_rings(jctx *j, const plumb_region_polygon *pg)
+{
+    json_t *rings = jarr(j);
+    for (size_t r = 0; r < pg->n_rings; r++) {
+        json_t *ring = jarr(j);
+        for (size_t k = 0; k < pg->ring_count[r]; k++) {
+            const double *v = pg->vertex_m[pg->ring_first[r] + k];
+            jpush(j, ring, jpair(j, v[0], v[1]));
+        }
+        jpush(j, rings, ring);
+    }
+    return rings;
+}
+
+static json_t *j_landing(jctx *j, const plumb_zone_stats *z)
+{
+    const plumb_region_result *lr = &z->landing;
+    json_t *o = jobj(j);
+    jset(j, o, "p", jreal(j, z->landing_radius.p));
+    jset(j, o, "training_samples", jint(j, z->landing_training));
+    jset(j, o, "counted_samples", jint(j, z->samples - z->landing_training));
+    json_t *c = jobj(j);
+    jset(j, c, "centre_m", jpair(j, z->landing_centre_m[0], z->landing_centre_m[1]));
+    jset(j, c, "radius_m", jreal(j, z->landing_radius.value));
+    jset(j, c, "ci_m", jci(j, &z->landing_radius, 0.0));
+    jset(j, c, "open", json_boolean(z->landing_radius.hi_open));
+    jset(j, c, "radius_bound_m", z->landing_radius.hi_open ? json_null()
+                                                          : jreal(j, z->landing_radius.hi));
+    jset(j, c, "scatter_m", jreal(j, z->scatter_m));
+    jset(j, c, "clearance_radius_m", z->landing_radius.hi_open ? json_null()
+                                                              : jreal(j, z->landing_circle_m));
+    jset(j, o, "circle", c);
+    json_t *pg = jobj(j);
+    jset(j, pg, "method", jstr(j, "split-conformal highest-density region"));
+    jset(j, pg, "open", json_boolean(lr->open));
+    if (!lr->open) {
+        jset(j, pg, "area_m2", jreal(j, lr->polygon.area_m2));
+        jset(j, pg, "calibration_rank", jint(j, lr->rank));
+        jset(j, pg, "calibration_inside", jint(j, lr->inside));
+        jset(j, pg, "cell_m", jpair(j, lr->cell_m[0], lr->cell_m[1]));
+        jset(j, pg, "axis_bearing_deg", jreal(j, lr->axis_deg));
+        jset(j, pg, "rings_m", j_rings(j, &lr->polygon));
+        jset(j, pg, "scatter_m", jreal(j, lr->buffer_m));
+        jset(j, pg, "buffered_area_m2", jreal(j, lr->buffered.area_m2));
+        jset(j, pg, "buffered_rings_m", j_rings(j, &lr->buffered));
+    }
+    jset(j, o, "polygon", pg);
+    return o;
 }
 
 static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
@@ -589,6 +753,7 @@ static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
     jpush(j, md, jreal(j, z->displacement[0].value));
     jpush(j, md, jreal(j, z->displacement[1].value));
     jset(j, o, "median_displacement_m", md);
+    jset(j, o, "landing", j_landing(j, z));
     json_t *sol = jobj(j);
     jset(j, sol, "steps", jint(j, z->steps));
     jset(j, sol, "rhs_evaluations", jint(j, z->rhs_evaluations));
@@ -603,10 +768,17 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
                                                          : (j->bad = 1, json_null()));
     jset(j, o, "confidence", jreal(j, r->confidence));
     jset(j, o, "interval_level", jreal(j, r->ci_level));
+    jset(j, o, "impact_point_fixed", json_boolean(r->zone.impact_point_fixed));
+    json_t *warn = jarr(j);
+    for (size_t i = 0; i < r->n_warnings; i++)
+        jpush(j, warn, jstr(j, r->warnings[i]));
+    jset(j, o, "warnings", warn);
     j_stats_into(j, o, &r->zone);
     json_t *rules = jobj(j);
     jset(j, rules, "drop_height_m", jreal(j, r->zone.drop_height_m));
     jset(j, rules, "ballistic_throw_m", jreal(j, r->zone.ballistic_throw_m));
+    jset(j, rules, "glide_ratio_max", jreal(j, r->zone.glide_ratio_max));
+    jset(j, rules, "glide_m", jreal(j, r->zone.glide_ratio_max * r->zone.drop_height_m));
     jset(j, rules, "max_release_speed_m_s", jreal(j, r->zone.max_release_speed_m_s));
     jset(j, o, "rules_of_thumb", rules);
     json_t *tr = jarr(j), *inputs = jarr(j);
@@ -663,9 +835,12 @@ static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zo
     jset(j, root, "seed", r0->seed <= (unsigned long)LLONG_MAX ? json_integer((json_int_t)r0->seed)
                                                              : (j->bad = 1, json_null()));
     /* no thread count: nothing in the JSON depends on it (the text names it) */
-    if (!rep->inventory) {
+    /* One shape for a single payload and a kit, as in the fall JSON: a
+     * single payload is a kit of one, and keeps its zone at the top too. */
+    if (!rep->inventory)
         jset(j, root, "zone", j_zone(j, r0));
-    } else {
+    jset(j, root, "inventory", json_boolean(rep->inventory));
+    {
         json_t *items = jarr(j);
         size_t worst = 0;
         for (size_t i = 0; i < rep->n_items; i++) {
@@ -679,6 +854,16 @@ static json_t *j_report(jctx *j, const plumb_report_options *opt, const plumb_zo
         }
         jset(j, root, "items", items);
         jset(j, root, "worst", jstr(j, rep->items[worst].name));
+        json_t *kit = jobj(j);
+        const plumb_zone_result *kr = rep->items[rep->kit_item].result;
+        const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
+        jset(j, kit, "clearance_radius_m", jreal(j, kr->zone.clearance_radius_m));
+        jset(j, kit, "set_by", jstr(j, rep->items[rep->kit_item].name));
+        jset(j, kit, "landing_circle_m", lr->zone.landing_radius.hi_open
+                                             ? json_null()
+                                             : jreal(j, lr->zone.landing_circle_m));
+        jset(j, kit, "landing_circle_set_by", jstr(j, rep->items[rep->kit_landing_item].name));
+        jset(j, root, "kit", kit);
     }
     jset(j, root, "cautions", j_cautions(j));
     return root;
@@ -719,6 +904,11 @@ plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt_in,
     if (opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
         return emit_json(out, &j, j_report(&j, opt, rep), diag);
+    }
+    if (opt->format == PLUMB_FORMAT_GEOJSON) {
+        jctx j = {0, 0};
+        json_t *root = plumbp_zone_geojson(&j, opt, rep, &st, diag);
+        return st != PLUMB_OK ? st : emit_json(out, &j, root, diag);
     }
     writer w;
     char *buf;

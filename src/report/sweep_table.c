@@ -52,8 +52,24 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
+/* A value of input `key` in the display units: as plumbp_show_dim, but a
+ * wind speed in US units is in mph, as a crew reads it (plumbp_t_wind). */
+shown plumbp_show_key(const writer *w, const char *key, plumb_dim dim, double si)
+{
+    if (w->us && dim == PLUMB_DIM_SPEED && strncmp(key, "wind.", 5) == 0)
+        return (shown){si / MPH_M_S, "mph"};
+    return plumbp_show_dim(w, dim, si);
+}
+
 /* Numeric columns of a sweep row, and the spaces between columns. */
-enum { SWEEP_NUM_COLS = 6, SWEEP_GAP = 2, SWEEP_KEY_COL = 15 };
+enum {
+    SWEEP_NUM_COLS = 6,
+    SWEEP_GAP = 2,
+    SWEEP_KEY_COL = 15,
+    SWEEP_KEY_HEAD = 16,
+    SWEEP_NAME_MIN = 4,
+    SWEEP_NAME_ROOM = 12 /* narrower than this, a name goes on a line of its own */
+};
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
@@ -66,12 +82,87 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
         char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
         snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
         snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
-                 plumbp_t_energy(w, c->energy_limit_j),
+                 plumbp_t_limit_energy(w, c->energy_limit_j),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
                  c->source[0] ? c->source : "source not given", c->id,
                  plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
                  plumbp_status_note(c)[0] ? ")" : "");
         wrapped(w, lead, text);
+    }
+}
+
+/* The leading columns of a sweep table: the varied keys' values, and for
+ * an inventory the item's name in a column name_w wide. */
+typedef struct sweep_cols {
+    size_t na;
+    const size_t *wkey;
+    int inv;
+    size_t name_w;
+    int own_line; /* 1: no room for a name column; each name on a line of its own */
+} sweep_cols;
+
+/* The header of a varied key's column: the key, or its last part when it
+ * is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
+ * table name the whole keys), so the figures and names keep their room. */
+static const char *sweep_key_head(const char *key, size_t n_axes)
+{
+    const char *dot = strrchr(key, '.');
+    return (shown_width(key) > SWEEP_KEY_HEAD || n_axes > 1) && dot ? dot + 1 : key;
+}
+
+/* The two header lines of the leading columns: names (units = 0) or units. */
+static void sweep_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
+                        const char *const *khead, int units)
+{
+    for (size_t a = 0; a < c->na; a++)
+        pad(w, units ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : khead[a],
+            c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
+    if (c->inv && !c->own_line) {
+        put(w, "  ");
+        pad(w, units ? "" : "item", c->name_w, 0);
+    }
+}
+
+static void sweep_name_continued(writer *w, const sweep_cols *c, const char *rest);
+
+/* The leading columns of item `it` of a row: the values on the row's first
+ * line only, then the first line of the item's name. Returns the rest of
+ * the name, for sweep_name_continued. */
+static const char *sweep_lead(writer *w, const sweep_cols *c, const plumb_sweep_row *row,
+                              size_t it)
+{
+    for (size_t a = 0; a < c->na; a++)
+        pad(w, it == 0 ? plumbp_gnum(w, row->value[a], 8) : "", c->wkey[a] + (a ? SWEEP_GAP : 1),
+            1);
+    if (!c->inv)
+        return "";
+    char part[PLUMB_NAME];
+    const char *rest = wrap_cell(row->report.items[it].spec->name, c->name_w, part, sizeof part);
+    put(w, "  ");
+    if (!c->own_line) {
+        pad(w, part, c->name_w, 0);
+        return rest;
+    }
+    /* the name on lines of its own, the figures on the next line */
+    put(w, "%s\n", part);
+    sweep_name_continued(w, c, rest);
+    size_t keys_w = 0;
+    for (size_t a = 0; a < c->na; a++)
+        keys_w += c->wkey[a] + (a ? SWEEP_GAP : 1);
+    put(w, "%*s", (int)keys_w, "");
+    return "";
+}
+
+/* The continuation lines of an item's name wrapped in its column. */
+static void sweep_name_continued(writer *w, const sweep_cols *c, const char *rest)
+{
+    size_t keys_w = 0;
+    for (size_t a = 0; a < c->na; a++)
+        keys_w += c->wkey[a] + (a ? SWEEP_GAP : 1);
+    while (*rest) {
+        char part[PLUMB_NAME];
+        rest = wrap_cell(rest, c->name_w, part, sizeof part);
+        put(w, "%*s%s\n", (int)(keys_w + SWEEP_GAP), "", part);
     }
 }
 
@@ -200,6 +291,106 @@ static void row_error_text(const plumb_sweep_row *row, char *buf, size_t size)
     plumb_diag_format(&row->error, buf, size);
 }
 
+/* A two-way sweep as its boundary: for each value of the first input and
+ * each criterion, the value of the second at which the limit is reached
+ * (plumb_sweep_find_boundaries). The full figures are in CSV and JSON. */
+static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const plumb_range *a1,
+                                 int *beyond)
+{
+    if (!b || b->status != PLUMB_OK)
+        return "-";
+    switch (b->outcome) {
+    case PLUMB_LIMIT_FOUND: {
+        char *c = slot(w);
+        double lo = a1->from < a1->to ? a1->from : a1->to, hi = a1->from < a1->to ? a1->to : a1->from;
+        int out = b->value < lo || b->value > hi;
+        *beyond |= out;
+        snprintf(c, NUMBUF, "%s %s%s", b->limit_is_upper_bound ? "up to" : "from",
+                 plumbp_gnum(w, b->value, 4), out ? "*" : "");
+        return c;
+    }
+    case PLUMB_LIMIT_UNLIMITED: return "never reached";
+    case PLUMB_LIMIT_IMPOSSIBLE: return "exceeded throughout";
+    default: return "n/a";
+    }
+}
+
+static void text_boundary(writer *w, const plumb_sweep *sw)
+{
+    const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
+    size_t nc = plumb_sweep_boundary_criteria(sw);
+    if (nc == 0) {
+        put(w, "\nNo boundary was computed; every figure is in --format csv or json.\n");
+        return;
+    }
+    const plumb_sweep_row *r0 = first_computed_row(sw);
+    int inv = r0->report.n_items > 1;
+    char text[PLUMB_NAME + PLUMB_DIAG_KEY * 2 + 3 * PLUMB_UNIT_TEXT + 320];
+    snprintf(text, sizeof text,
+             "Where each limit is reached%s%s%s: the %s%s%s%s at which the impact energy "
+             "equals the criterion's limit, for each %s%s%s%s (plumb limit's solver); within "
+             "the limit up to or from that value.",
+             inv ? " (the item with the highest energy, " : "",
+             inv ? r0->report.items[plumb_sweep_boundary_item(sw)].spec->name : "", inv ? ")" : "",
+             a1->key, a1->unit[0] ? " (" : "", unit_shown(w, a1->unit), a1->unit[0] ? ")" : "",
+             a0->key, a0->unit[0] ? " (" : "", unit_shown(w, a0->unit), a0->unit[0] ? ")" : "");
+    put(w, "\n");
+    wrapped(w, "", text);
+    /* Columns headed C1..Cn as in the legend below; each as wide as its
+     * widest cell, in blocks of as many as fit in TABLE_WIDTH columns. */
+    const plumb_item_report *it0 = &r0->report.items[0];
+    size_t wk = shown_width(a0->key) > SWEEP_KEY_COL ? shown_width(a0->key) : SWEEP_KEY_COL;
+    size_t wc[PLUMB_MAX_VERDICTS];
+    char head[PLUMB_MAX_VERDICTS][PLUMB_CRIT_ID + 8];
+    int missing = 0, beyond = 0;
+    for (size_t i = 0; i < a0->n; i++)
+        if (shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8)) > wk)
+            wk = shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8));
+    for (size_t k = 0; k < nc && k < PLUMB_MAX_VERDICTS; k++) {
+        const plumb_criterion *c = plumb_sweep_boundary_criterion(sw, k);
+        snprintf(head[k], sizeof head[k], "%s", c->id);
+        for (size_t v = 0; v < it0->n_verdicts; v++)
+            if (strcmp(it0->verdicts[v].criterion->id, c->id) == 0)
+                snprintf(head[k], sizeof head[k], "C%zu", v + 1);
+        wc[k] = shown_width(head[k]);
+        for (size_t i = 0; i < a0->n; i++) {
+            int dummy = 0;
+            size_t cw = shown_width(boundary_cell(w, plumb_sweep_boundary_at(sw, i, k), a1, &dummy));
+            if (cw > wc[k])
+                wc[k] = cw;
+        }
+    }
+    if (nc > PLUMB_MAX_VERDICTS)
+        nc = PLUMB_MAX_VERDICTS;
+    for (size_t k0 = 0; k0 < nc;) {
+        size_t k1 = k0, used = wk;
+        while (k1 < nc && (k1 == k0 || used + wc[k1] + SWEEP_GAP <= TABLE_WIDTH))
+            used += wc[k1++] + SWEEP_GAP;
+        if (k0 > 0)
+            put(w, "\n");
+        pad(w, a0->key, wk, 1);
+        for (size_t k = k0; k < k1; k++)
+            pad(w, head[k], wc[k] + SWEEP_GAP, 1);
+        put(w, "\n");
+        for (size_t i = 0; i < a0->n; i++) {
+            pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), wk, 1);
+            for (size_t k = k0; k < k1; k++) {
+                const plumb_sweep_boundary *b = plumb_sweep_boundary_at(sw, i, k);
+                missing |= !b || b->status != PLUMB_OK;
+                pad(w, boundary_cell(w, b, a1, &beyond), wc[k] + SWEEP_GAP, 1);
+            }
+            put(w, "\n");
+        }
+        k0 = k1;
+    }
+    if (beyond)
+        put(w, "  * = beyond the range swept (%s to %s)\n", plumbp_gnum(w, a1->from, 8),
+            plumbp_gnum(w, a1->to, 8));
+    if (missing)
+        put(w, "  - = no answer at that value (the value is refused or a fall fails there)\n");
+    put(w, "Every row's figures are in --format csv and --format json.\n");
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
@@ -212,24 +403,31 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         double last = plumb_range_value(ax, ax->n - 1);
         const char *u = unit_shown(w, ax->unit);
-        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s\n",
+        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s%s%s\n",
             a ? "and" : "over", ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
             u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
             last != ax->to ? "; the steps stop short of " : "",
-            last != ax->to ? plumbp_gnum(w, ax->to, 10) : "");
+            last != ax->to ? plumbp_gnum(w, ax->to, 10) : "", last != ax->to && u[0] ? " " : "",
+            last != ax->to ? u : "");
     }
     put(w, "\n");
     /* Column widths: the widest header, unit or cell of each, so that no
-     * two figures ever touch and a one-criterion table stays narrow. */
+     * two figures ever touch and a one-criterion table stays narrow. The
+     * table keeps to TABLE_WIDTH columns: an item's name is wrapped onto
+     * continuation lines of its own column, never cut, and criteria that
+     * do not fit beside the figures get a table of their own, in blocks of
+     * as many as fit, as the inventory table of `plumb fall` does. */
     size_t nv = first->n_verdicts;
     size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
+    const char *khead[PLUMB_MAX_AXES];
     const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
     const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
     const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
     const char *const *units = w->us ? units_us : units_si;
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        wkey[a] = shown_width(ax->key);
+        khead[a] = sweep_key_head(ax->key, na);
+        wkey[a] = shown_width(khead[a]);
         if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
             wkey[a] = shown_width(unit_shown(w, ax->unit));
     }
@@ -238,6 +436,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                                                                 : shown_width(units[k]);
     for (size_t k = 0; k < nv; k++)
         wcrit[k] = shown_width("ratio verdict");
+    size_t name_w = SWEEP_NAME_MIN;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         for (size_t a = 0; a < na; a++)
@@ -245,6 +444,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 wkey[a] = shown_width(plumbp_gnum(w, row->value[a], 8));
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
+            if (shown_width(item->spec->name) > name_w)
+                name_w = shown_width(item->spec->name);
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
                     wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
@@ -253,25 +454,36 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                     wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
         }
     }
+    sweep_cols c = {na, wkey, inv, 0, 0};
+    size_t keys_w = 0, figs_w = 0, crit_w = 0;
     for (size_t a = 0; a < na; a++)
-        pad(w, plumb_sweep_axis(sw, a)->key, wkey[a] + (a ? SWEEP_GAP : 1), 1);
-    if (inv)
-        put(w, "  %-18s", "item");
+        keys_w += wkey[a] + (a ? SWEEP_GAP : 1);
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+        figs_w += wnum[k] + SWEEP_GAP;
+    for (size_t k = 0; k < nv; k++)
+        crit_w += wcrit[k] + SWEEP_GAP;
+    if (inv) {
+        size_t room = TABLE_WIDTH > keys_w + figs_w + SWEEP_GAP
+                          ? TABLE_WIDTH - keys_w - figs_w - SWEEP_GAP
+                          : 0;
+        c.own_line = room < SWEEP_NAME_ROOM && name_w > room;
+        c.name_w = c.own_line ? TABLE_WIDTH - keys_w - SWEEP_GAP : name_w < room ? name_w : room;
+    }
+    size_t lead_w = keys_w + (inv && !c.own_line ? SWEEP_GAP + c.name_w : 0);
+    int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
+    sweep_heads(w, sw, &c, khead, 0);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
-    for (size_t k = 0; k < nv; k++) {
-        char c[32];
-        snprintf(c, sizeof c, "C%zu", k + 1);
-        pad(w, c, wcrit[k] + SWEEP_GAP, 1);
+    for (size_t k = 0; inline_crit && k < nv; k++) {
+        char h[32];
+        snprintf(h, sizeof h, "C%zu", k + 1);
+        pad(w, h, wcrit[k] + SWEEP_GAP, 1);
     }
     put(w, "\n");
-    for (size_t a = 0; a < na; a++)
-        pad(w, unit_shown(w, plumb_sweep_axis(sw, a)->unit), wkey[a] + (a ? SWEEP_GAP : 1), 1);
-    if (inv)
-        put(w, "  %-18s", "");
+    sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
-    for (size_t k = 0; k < nv; k++)
+    for (size_t k = 0; inline_crit && k < nv; k++)
         pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
     put(w, "\n");
     size_t n_failed = 0;
@@ -285,59 +497,49 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            for (size_t a = 0; a < na; a++)
-                pad(w, it == 0 ? plumbp_gnum(w, row->value[a], 8) : "",
-                    wkey[a] + (a ? SWEEP_GAP : 1), 1);
-            if (inv) {
-                char name[PLUMB_NAME + 4];
-                if (shown_width(item->spec->name) > 18)
-                    snprintf(name, sizeof name, "%.17s~", item->spec->name);
-                else
-                    snprintf(name, sizeof name, "%s", item->spec->name);
-                put(w, "  %-18s", name);
-            }
+            const char *rest = sweep_lead(w, &c, row, it);
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
-            for (size_t k = 0; k < item->n_verdicts; k++)
+            for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
                 pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
             put(w, "\n");
+            sweep_name_continued(w, &c, rest);
         }
     }
-    if (na == 2) {
-        /* the energy of the worst item, as a matrix */
-        const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
-        put(w, "\nImpact energy (%s%s) by %s (down) and %s (across); ! = a criterion exceeded%s\n",
-            w->us ? "ft·lbf" : "J", inv ? ", worst item" : "", a0->key, a1->key,
-            n_failed ? ", - = not computed" : "");
-        pad(w, "", SWEEP_KEY_COL, 1);
-        for (size_t j = 0; j < a1->n; j++)
-            pad(w, plumbp_gnum(w, plumb_range_value(a1, j), 6), 9, 1);
+    /* the verdicts, in blocks of as many criteria as fit */
+    for (size_t k0 = 0; !inline_crit && k0 < nv;) {
+        size_t k1 = k0, used = lead_w;
+        while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
+            used += wcrit[k1++] + SWEEP_GAP;
+        put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
+        sweep_heads(w, sw, &c, khead, 0);
+        for (size_t k = k0; k < k1; k++) {
+            char h[32];
+            snprintf(h, sizeof h, "C%zu", k + 1);
+            pad(w, h, wcrit[k] + SWEEP_GAP, 1);
+        }
         put(w, "\n");
-        for (size_t i = 0; i < a0->n; i++) {
-            pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), SWEEP_KEY_COL, 1);
-            for (size_t j = 0; j < a1->n; j++) {
-                const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * a1->n + j);
-                if (row->status != PLUMB_OK) {
-                    pad(w, "-", 9, 1);
-                    continue;
-                }
-                double e = 0.0;
-                int ex = 0;
-                for (size_t it = 0; it < row->report.n_items; it++) {
-                    const plumb_item_report *item = &row->report.items[it];
-                    if (item->result.energy_j > e)
-                        e = item->result.energy_j;
-                    for (size_t k = 0; k < item->n_verdicts; k++)
-                        ex |= item->verdicts[k].exceeds;
-                }
-                char cell[NUMBUF + 2];
-                snprintf(cell, sizeof cell, "%s%s", num(w, w->us ? e / PLUMB_FT_LBF_J : e, 4),
-                         ex ? "!" : "");
-                pad(w, cell, 9, 1);
+        sweep_heads(w, sw, &c, khead, 1);
+        for (size_t k = k0; k < k1; k++)
+            pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+        put(w, "\n");
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            if (row->status != PLUMB_OK)
+                continue;
+            for (size_t it = 0; it < row->report.n_items; it++) {
+                const plumb_item_report *item = &row->report.items[it];
+                const char *rest = sweep_lead(w, &c, row, it);
+                for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
+                    pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+                put(w, "\n");
+                sweep_name_continued(w, &c, rest);
             }
-            put(w, "\n");
         }
+        k0 = k1;
     }
+    if (na == 2)
+        text_boundary(w, sw);
     if (n_failed) {
         put(w, "\nRows not computed (%zu of %zu)\n", n_failed, nr);
         size_t k = 0;

@@ -39,6 +39,7 @@ typedef struct writer {
     int us;                  /* 1: US customary display units */
     int bad;                 /* a non-finite figure was asked for */
     int exact;               /* 1: echoing inputs (see qty) */
+    int strict;              /* 1: an upper limit, rounded down (see qty) */
     char ring[RING][NUMBUF]; /* formatted numbers, reused round-robin */
     unsigned next;
 } writer;

@@ -12,6 +12,7 @@
 #include "plumb/sweep.h"
 #include "plumb/atmosphere.h"
 #include "core/internal.h"
+#include "solve/sweep_internal.h"
 
 /* Digits a range value is written with: enough for any value a user types,
  * few enough that 0.1 x 3 is written "0.3", as the user would type it. */
@@ -25,6 +26,10 @@ struct plumb_sweep {
     plumb_sweep_row *rows;
     plumb_profile **profiles;   /* one per row, owned */
     plumb_atmosphere **atms;    /* one per row, owned (verdict warnings use it) */
+    /* the boundary of a two-way sweep (sweep_boundary.c), owned */
+    size_t n_bcrit, b_item;
+    const plumb_criterion *bcrit[PLUMB_MAX_VERDICTS];
+    plumb_sweep_boundary *bounds; /* [value of the first input][criterion] */
 };
 
 static const char *trim(char *s)
@@ -126,7 +131,13 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
                            "STEP '%s' goes the wrong way: from %s %s to %s needs a %s STEP",
                            parts[2], parts[0], out->to > out->from ? "up" : "down", parts[1],
                            out->to > out->from ? "positive" : "negative");
-    double span = (out->to - out->from) / out->step; /* >= 0, in double: never wraps */
+    /* >= 0, in double: never wraps; each end divided first, so that ends
+     * near the largest double do not overflow their difference */
+    double span = out->to / out->step - out->from / out->step;
+    if (!plumbp_finite(span))
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+                           "'%s' makes more values than can be counted, far more than %u; use "
+                           "a larger STEP", text, PLUMB_RANGE_MAX_VALUES);
     if (!(span < (double)PLUMB_RANGE_MAX_VALUES))
         return RANGE_ERROR(diag, PLUMB_ERANGE, what,
                            "'%s' makes %s%.*g values, more than %u; use a larger STEP", text,
@@ -208,7 +219,47 @@ void plumb_sweep_free(plumb_sweep *s)
     free(s->rows);
     free(s->profiles);
     free(s->atms);
+    free(s->bounds);
     free(s);
+}
+
+/* ---- the boundary's storage (sweep_boundary.c fills it) ------------------------ */
+
+plumb_sweep_boundary *plumbp_sweep_boundaries_alloc(plumb_sweep *s, size_t item,
+                                                    const plumb_criterion *const *crit, size_t n)
+{
+    free(s->bounds);
+    s->n_bcrit = 0;
+    s->bounds = calloc((s->axes[0].n ? s->axes[0].n : 1) * (n ? n : 1), sizeof *s->bounds);
+    if (!s->bounds)
+        return NULL;
+    s->b_item = item;
+    s->n_bcrit = n;
+    for (size_t k = 0; k < n; k++)
+        s->bcrit[k] = crit[k];
+    return s->bounds;
+}
+
+size_t plumb_sweep_boundary_criteria(const plumb_sweep *s)
+{
+    return s && s->bounds ? s->n_bcrit : 0;
+}
+
+const plumb_criterion *plumb_sweep_boundary_criterion(const plumb_sweep *s, size_t k)
+{
+    return s && s->bounds && k < s->n_bcrit ? s->bcrit[k] : NULL;
+}
+
+size_t plumb_sweep_boundary_item(const plumb_sweep *s)
+{
+    return s ? s->b_item : 0;
+}
+
+const plumb_sweep_boundary *plumb_sweep_boundary_at(const plumb_sweep *s, size_t i0, size_t k)
+{
+    if (!s || !s->bounds || k >= s->n_bcrit || i0 >= s->axes[0].n)
+        return NULL;
+    return &s->bounds[i0 * s->n_bcrit + k];
 }
 
 /* Runs one row; its derived profile and atmosphere go into the sweep.

@@ -7,10 +7,12 @@
  */
 #include <stdio.h>
 #include <stdlib.h>
+#include <ctype.h>
 #include <string.h>
 
 #include "plumb/study.h"
 #include "core/internal.h"
+#include "study/study_internal.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -103,6 +105,16 @@ const plumb_atmosphere *plumb_study_atmosphere(const plumb_study *s)
     return s->atm;
 }
 
+const plumb_units *plumbp_study_units(const plumb_study *s)
+{
+    return s->units;
+}
+
+plumb_trajectory *plumbp_study_trajectory(plumb_study *s)
+{
+    return s->traj;
+}
+
 /* Points a failed item's diagnostic at the profile and, for an inventory,
  * at the item, counted from 1 as the reports count. */
 static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item)
@@ -144,6 +156,11 @@ plumb_status plumb_study_sweep(plumb_study *s, const plumb_range *axes, size_t n
                                     progress, user, out, diag);
 }
 
+plumb_status plumb_study_sweep_boundaries(plumb_study *s, plumb_sweep *sweep, plumb_diag *diag)
+{
+    return plumb_sweep_find_boundaries(sweep, s->profile, s->units, s->traj, diag);
+}
+
 static plumb_status at_option(plumb_diag *diag, plumb_status st, const char *option)
 {
     if (diag) {
@@ -174,7 +191,16 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
     double x = 0.0;
     plumb_status st = plumb_units_parse(s->units, text, dim, &x, diag);
     if (st != PLUMB_OK) {
-        static const char more[] = " (or a criterion's name)";
+        /* no number: perhaps a criterion's id mistyped ("en397-shock") */
+        int id_like = metric == PLUMB_METRIC_ENERGY && !isdigit((unsigned char)text[0]) &&
+                      strchr(text, '-') && !strpbrk(text, " \t");
+        const plumb_criterion *near = id_like ? plumb_criteria_nearest(s->criteria, text) : NULL;
+        if (near)
+            return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, option,
+                                  "'%s' is neither an energy with its unit nor a criterion's "
+                                  "id; did you mean %s?",
+                                  text, near->id);
+        static const char more[] = " (or a criterion's id)";
         size_t len = diag ? strlen(diag->message) : 0;
         if (diag && metric == PLUMB_METRIC_ENERGY && len + sizeof more <= sizeof diag->message)
             memcpy(diag->message + len, more, sizeof more);
@@ -259,6 +285,18 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
     if (!s->zones || !s->zone_items)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     size_t n_u = plumb_profile_uncertainty_count(s->profile);
+    /* Without uncertain inputs every sample is the same fall: its drift
+     * would be printed as a clearance radius. Refused, with an example. */
+    if (n_u == 0)
+        return PLUMB_RAISE_AT(
+            diag, PLUMB_EINVAL, plumb_profile_path(s->profile), 0, 0, "uncertainty",
+            "a zone needs the uncertainty of the inputs, and the profile has no `uncertainty:` "
+            "map, so every sample would be the same fall. Add one, for example:\n"
+            "  uncertainty:\n"
+            "    wind.speed: {normal: [5 m/s, 1.5 m/s]}\n"
+            "    wind.from: \"270 deg +- 20 deg\"\n"
+            "    release.position.east: {normal: [0 m, 1 m]}\n"
+            "    release.position.north: {normal: [0 m, 1 m]}");
     plumb_uncertainty *unc = calloc(n_u ? n_u : 1, sizeof *unc);
     if (!unc)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
@@ -274,6 +312,8 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
         memset(&probe, 0, sizeof probe);
         probe.spec = spec;
         probe.shape = plumb_profile_item_shape(s->profile, i);
+        /* no fall yet: nothing to say of Mach, Reynolds or a device opening */
+        probe.result.n_deployed = spec->n_descent;
         st = plumb_item_judge(&probe, s->profile, s->criteria, s->atm, diag);
         const plumb_criterion *clist[PLUMB_MAX_VERDICTS];
         for (size_t k = 0; st == PLUMB_OK && k < probe.n_verdicts; k++)
@@ -283,6 +323,10 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
         if (st == PLUMB_OK)
             st = plumb_zone_run(spec, s->atm, unc, n_u, zone, clist, probe.n_verdicts, &zopt,
                                 &s->zones[i], diag);
+        /* the notes that qualify the criteria (a helmet test energy is not a
+         * safe limit; a drag table used beyond its range), as plumb fall gives */
+        for (size_t k = 0; st == PLUMB_OK && k < probe.n_warnings; k++)
+            plumb_zone_add_warning(&s->zones[i], "%s", probe.warnings[k]);
         if (st != PLUMB_OK && diag) {
             if (diag->file[0] == '\0')
                 plumbp_strlcpy(diag->file, plumb_profile_path(s->profile), sizeof diag->file);
@@ -313,6 +357,17 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
     s->zone.n_items = s->n_items;
     s->zone.items = s->zone_items;
     s->zone.threads = zopt.threads;
+    for (size_t i = 1; i < s->n_items; i++) {
+        if (s->zones[i].zone.clearance_radius_m > s->zones[s->zone.kit_item].zone.clearance_radius_m)
+            s->zone.kit_item = i;
+        if (s->zones[i].zone.landing_circle_m >
+            s->zones[s->zone.kit_landing_item].zone.landing_circle_m)
+            s->zone.kit_landing_item = i;
+    }
+    const plumb_zone_spec *pz = plumb_profile_zone(s->profile);
+    s->zone.has_site = pz->has_site;
+    s->zone.site_deg[0] = pz->site_deg[0];
+    s->zone.site_deg[1] = pz->site_deg[1];
     *out = &s->zone;
     return PLUMB_OK;
 }

@@ -48,6 +48,8 @@
  * blocks ahead of the merge, which bounds the memory.
  */
 #include <float.h>
+#include <stdarg.h>
+#include <stdio.h>
 #include <math.h>
 #include <stddef.h>
 #include <pthread.h>
@@ -1035,6 +1037,8 @@ typedef struct acc {
     size_t redraws[PLUMB_ZONE_MAX_INPUTS];
     size_t steps, evals;
     sketch sk[PV_N];
+    sketch skc;              /* distance from the landing centre, samples >= train */
+    plumb_region *reg;       /* the landing region */
     int configured;
     size_t pilot_n;
     double *pilot;           /* PV_N x pilot_cap, column-major by quantity */
@@ -1052,6 +1056,7 @@ struct pass {
     unsigned long seed;
     int pass_no;
     size_t n, block, nblocks, window, pilot_cap;
+    size_t train;            /* samples that fix the landing centre and grid (<= pilot_cap) */
     double shift[2];         /* added to the sampled release point */
     double release[2];       /* planned release point of this pass */
     double centre[2];        /* radii from here */
@@ -1073,6 +1078,18 @@ static double ballistic_throw(const plumb_fall_spec *s)
     double g = plumb_gravity_at(&s->gravity, s->site_elevation_m + 0.5 * H);
     double vh = hypot(v[0], v[1]);
     return vh * (v[2] + sqrt(v[2] * v[2] + 2.0 * g * H)) / g;
+}
+
+/* Substream `salt` of sample `index`: n uniforms in [0, 1) from a stream
+ * of its own, so that what a sample draws for its inputs is untouched by
+ * the draws of the glide or the gusts (and identical for any thread count). */
+#define SALT_GLIDE UINT64_C(0x676C696465) /* "glide" */
+static void substream_uniforms(unsigned long seed, uint64_t salt, size_t index, double *u, size_t n)
+{
+    taus_state t;
+    taus_seed(&t, (unsigned long)((uint64_t)seed ^ splitmix64_mix(salt)), index);
+    for (size_t i = 0; i < n; i++)
+        u[i] = taus_get_double(&t);
 }
 
 static void compute_block(worker *w, slot *sl)
@@ -1104,6 +1121,14 @@ static void compute_block(worker *w, slot *sl)
         rec *r = &sl->recs[k];
         r->dx = res.point_m[0] - ps->release[0];
         r->dy = res.point_m[1] - ps->release[1];
+        if (spec.glide.mode != PLUMB_GLIDE_OFF && spec.n_descent == 0) {
+            /* a plate glides sideways from its highest point (plumb/glide.h) */
+            double u[2], g[2];
+            substream_uniforms(ps->seed, SALT_GLIDE, i, u, 2);
+            plumb_glide_offset(spec.glide.mode, res.apex_m, u[0], u[1], g);
+            r->dx += g[0];
+            r->dy += g[1];
+        }
         r->energy_j = res.energy_j;
         r->speed_m_s = res.speed_m_s;
         r->time_s = res.time_s;
@@ -1138,6 +1163,17 @@ static void configure(pass *ps)
             v[q] = a->pilot[(size_t)q * ps->pilot_cap + i];
         sk_insert(a, v);
     }
+    /* the landing circle: distances from the training samples' mean, the
+     * scale from the training samples, the counts from the others */
+    double c[2];
+    plumb_region_centre(a->reg, c);
+    for (size_t i = 0; i < n; i++)
+        sorted[i] = hypot(ps->release[0] + a->pilot[(size_t)PV_DX * ps->pilot_cap + i] - c[0],
+                          ps->release[1] + a->pilot[(size_t)PV_DY * ps->pilot_cap + i] - c[1]);
+    /* sorts the first train values in place, leaves the rest */
+    sk_configure(&a->skc, sorted, ps->train < n ? ps->train : n, a->scratch);
+    for (size_t i = ps->train; i < n; i++)
+        sk_add(&a->skc, sorted[i]);
     a->configured = 1;
 }
 
@@ -1185,8 +1221,13 @@ static void merge_slot(pass *ps, slot *sl)
             a->throw_at_max = r->throw_m;
         }
         double v[PV_N] = {rad, r->energy_j, r->dx, r->dy};
+        double pe = ps->release[0] + r->dx, pn = ps->release[1] + r->dy;
+        plumb_region_add(a->reg, pe, pn);
         if (a->configured) {
             sk_insert(a, v);
+            double c[2];
+            plumb_region_centre(a->reg, c);
+            sk_add(&a->skc, hypot(pe - c[0], pn - c[1]));
         } else {
             for (int q = 0; q < PV_N; q++)
                 a->pilot[(size_t)q * ps->pilot_cap + a->pilot_n] = v[q];
@@ -1316,11 +1357,40 @@ static plumb_status finish_stats(pass *ps, const plumb_fall_spec *base, const pl
     read_quantile(&a->sk[PV_DX], n, 0.5, level, &z->displacement[0]);
     read_quantile(&a->sk[PV_DY], n, 0.5, level, &z->displacement[1]);
     z->drop_height_m = base->release_m[2];
+    z->glide_ratio_max =
+        base->n_descent == 0 ? plumb_glide_ratio_max(base->glide.mode) : 0.0;
     z->max_release_speed_m_s = a->speed_max;
     z->ballistic_throw_m = a->throw_at_max;
+    z->landing_training = ps->train;
+    plumb_region_centre(a->reg, z->landing_centre_m);
+    size_t ncal = n - ps->train;
+    if (ncal >= 1) {
+        read_quantile(&a->skc, ncal, zone->confidence, level, &z->landing_radius);
+    } else {
+        z->landing_radius.p = zone->confidence;
+        z->landing_radius.lo_open = z->landing_radius.hi_open = 1;
+    }
+    z->landing_circle_m = z->landing_radius.hi_open ? 0.0 : z->landing_radius.hi + zone->scatter_m;
+    plumb_status rst = plumb_region_finish(a->reg, zone->confidence, level, zone->scatter_m,
+                                           &z->landing, diag);
+    if (rst != PLUMB_OK)
+        return rst;
+    z->impact_point_fixed = a->sk[PV_DX].max - a->sk[PV_DX].min <= PLUMB_ZONE_FIXED_M &&
+                            a->sk[PV_DY].max - a->sk[PV_DY].min <= PLUMB_ZONE_FIXED_M;
     z->steps = a->steps;
     z->rhs_evaluations = a->evals;
     return PLUMB_OK;
+}
+
+void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
+{
+    if (!res || res->n_warnings >= PLUMB_ZONE_MAX_WARNINGS)
+        return;
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(res->warnings[res->n_warnings], PLUMB_ZONE_WARNING, fmt, ap);
+    va_end(ap);
+    res->n_warnings++;
 }
 
 /* Shared storage of both passes. */
@@ -1331,6 +1401,7 @@ typedef struct run {
     rec *recs;
     uint32_t *bins;
     double *pilot, *scratch;
+    plumb_region *reg;
 } run;
 
 static void run_free(run *r)
@@ -1346,6 +1417,7 @@ static void run_free(run *r)
     free(r->bins);
     free(r->pilot);
     free(r->scratch);
+    plumb_region_free(r->reg);
 }
 
 static plumb_status do_pass(run *rn, pass *ps, plumb_diag *diag)
@@ -1363,7 +1435,11 @@ static plumb_status do_pass(run *rn, pass *ps, plumb_diag *diag)
     a->steps = a->evals = 0;
     for (int q = 0; q < PV_N; q++)
         sk_reset(&a->sk[q]);
+    sk_reset(&a->skc);
     a->configured = 0;
+    plumb_status rst = plumb_region_reset(a->reg, ps->train, diag);
+    if (rst != PLUMB_OK)
+        return rst;
     a->pilot_n = 0;
     for (size_t i = 0; i < ps->window; i++)
         ps->slots[i].ready = 0;
@@ -1480,6 +1556,11 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
         rn.threads = ps.nblocks;
     ps.window = ZONE_WINDOW_PER_THREAD * rn.threads;
     ps.pilot_cap = opt.pilot_samples < ps.n ? opt.pilot_samples : ps.n;
+    ps.train = ps.n / 4 > 1 ? ps.n / 4 : 1;
+    if (ps.train > ps.pilot_cap)
+        ps.train = ps.pilot_cap;
+    if (ps.train > PLUMB_REGION_MAX_TRAINING)
+        ps.train = PLUMB_REGION_MAX_TRAINING;
 
     /* Workers: a sampler (checks the entries) and a workspace each. */
     rn.w = calloc(rn.threads, sizeof *rn.w);
@@ -1493,10 +1574,12 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
     if (st == PLUMB_OK) {
         rn.slots = calloc(ps.window, sizeof *rn.slots);
         rn.recs = calloc(ps.window * ps.block, sizeof *rn.recs);
-        rn.bins = calloc(6 * SK_SIDE, sizeof *rn.bins);
+        rn.bins = calloc(7 * SK_SIDE, sizeof *rn.bins);
+        if (plumb_region_alloc(&rn.reg, diag) != PLUMB_OK)
+            st = PLUMB_ENOMEM;
         rn.pilot = calloc(PV_N * ps.pilot_cap, sizeof *rn.pilot);
         rn.scratch = calloc(2 * ps.pilot_cap, sizeof *rn.scratch);
-        if (!rn.slots || !rn.recs || !rn.bins || !rn.pilot || !rn.scratch)
+        if (st == PLUMB_OK && (!rn.slots || !rn.recs || !rn.bins || !rn.pilot || !rn.scratch))
             st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory for the zone's histograms");
     }
     if (st != PLUMB_OK) {
@@ -1519,6 +1602,8 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
             bins += SK_SIDE;
         }
     }
+    ps.a.skc.pos = bins;
+    ps.a.reg = rn.reg;
     ps.atm = atm;
     ps.opt = &opt;
     ps.crit = criteria;
@@ -1549,6 +1634,13 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
             in->truncated = plumb_sampler_truncated(s0, i, &in->lower, &in->upper);
             in->redraws = ps.a.redraws[i];
         }
+        if (res->zone.impact_point_fixed)
+            plumb_zone_add_warning(
+                res, "impact_point_fixed: the uncertain inputs do not move the impact point "
+                     "(every sample lands within %g mm of the same point), so the radii are "
+                     "the drift of one fall, not a zone. Give the uncertainty of the wind, "
+                     "the release point or the release velocity to size one.",
+                1e3 * PLUMB_ZONE_FIXED_M);
     }
     /* Pass 1: released where the median impact falls on the target. */
     if (st == PLUMB_OK && zone->has_target) {

@@ -136,6 +136,9 @@ refused "limit --find items[2].mass" "items[2].mass: " "find payload.mass instea
   -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
+# a criterion's id mistyped in --energy-max gets the nearest id (issue 9)
+refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
+  "did you mean en397-shock-49j?" -- limit "$good" --find release.height --energy-max en397-shock --format json
 
 # ---- plumb air --alt ranges ------------------------------------------------
 for r in 0m:10km 10km:0m:1km 0:1000:100 0m:10km:0m 0m:10km:-1km 0m:x:1km; do

@@ -10,9 +10,10 @@ Usage: criteria_status.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 import json
 import os
 import sys
+import subprocess
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
-from plumbcli import HERE, check, finish, plumb  # noqa: E402
+from plumbcli import HERE, PLUMB, ROOT, check, finish, plumb  # noqa: E402
 
 THROWN = os.path.join(HERE, "profiles", "thrown.yaml")
 INVENTORY = os.path.join(HERE, "profiles", "inventory.yaml")
@@ -60,5 +61,17 @@ for name, args in commands.items():
     except (ValueError, KeyError, TypeError) as e:
         got = [f"no status: {e!r}"]
     check(rc == 0 and got and all(s == "memory" for s in got), f"{name} JSON status: {got}")
+
+# a new user runs the program from another directory, with no
+# PLUMB_CRITERIA_DIR: the criteria are still found (the ones beside the
+# program, installed with it, or of the source tree it was built from)
+import tempfile  # noqa: E402
+with tempfile.TemporaryDirectory(prefix="plumb-elsewhere.", dir=os.environ.get("TMPDIR")) as where:
+    env = {k: v for k, v in os.environ.items() if k != "PLUMB_CRITERIA_DIR"}
+    r = subprocess.run([os.path.abspath(PLUMB), "fall",
+                        os.path.join(os.path.abspath(ROOT), "profiles", "demo", "drone-release.yaml")],
+                       capture_output=True, text=True, cwd=where, env=dict(env, LC_ALL="C"))
+    check(r.returncode == 0 and "us-part107-cat3" in r.stdout,
+          f"run from another directory finds the criteria: exit {r.returncode} {r.stderr.strip()}")
 
 finish()

@@ -3,7 +3,8 @@
 # report, and every row of a sweep, has "inventory", "items", "worst" and
 # "largest_drift"; a single payload is a kit of one whose item is the same
 # object as its top-level figures (kept where design.md section 6 fixes
-# them); and no zone JSON depends on the thread count.
+# them), in the zone JSON too; and no zone JSON depends on the thread
+# count.
 . "$(dirname "$0")/lib/setup.sh"
 tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-json-shape.XXXXXX") || exit 2
 trap 'rm -rf "$tmp"' EXIT
@@ -14,6 +15,10 @@ done
   >"$tmp/hand.sweep.json" 2>/dev/null
 "$bin" sweep profiles/demo/tower-kit.yaml --vary release.height=5m:25m:10m --format json \
   >"$tmp/kit.sweep.json" 2>/dev/null
+for p in drone-canopy tower-kit; do
+  "$bin" zone "profiles/demo/$p.yaml" --samples 500 --threads 1 --format json \
+    >"$tmp/$p.zone.json" 2>/dev/null
+done
 /usr/bin/python3 - "$tmp" <<'PY'
 import glob, json, os, sys
 sys.path.insert(0, os.path.join(os.getcwd(), "tests", "cli", "lib"))
@@ -38,5 +43,18 @@ for f in ("hand.sweep.json", "kit.sweep.json"):
     check(len(rows) == 3, f + ": three rows")
     for i, r in enumerate(rows):
         shape(r, f"{f} row {i + 1}")
+# zone: the same shape, a single payload a kit of one with its zone also
+# at the top level
+for f, kit in (("drone-canopy.zone.json", False), ("tower-kit.zone.json", True)):
+    try:
+        z = json.load(open(os.path.join(tmp, f)))
+    except ValueError:
+        z = {}
+    check(all(k in z for k in ("inventory", "items", "worst", "kit")) and z["inventory"] == kit,
+          f"{f}: inventory, items, worst, kit ({list(z)})")
+    if z and not kit:
+        check(len(z["items"]) == 1 and z["items"][0]["zone"] == z["zone"]
+              and z["worst"] == z["items"][0]["name"] == z["kit"]["set_by"],
+              f"{f}: a single payload's zone is a kit of one")
 finish()
 PY

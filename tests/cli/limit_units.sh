@@ -12,16 +12,46 @@ trap 'rm -rf "$tmp"' EXIT
 p=profiles/demo/hand-tool.yaml
 
 "$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=100 ft' >"$tmp/t" 2>&1 || bad "limit in ft failed"
-if grep -q "release.height = [0-9.]* m ([0-9.]* ft, the profile's unit)" "$tmp/t"; then ok
-else bad "no answer in the profile's unit:"; sed -n 1,8p "$tmp/t"; fi
+if grep -q "release.height = [0-9.]* m ([0-9.]* ft, the unit it was given in)" "$tmp/t"; then ok
+else bad "no answer in the unit it was given in:"; sed -n 1,8p "$tmp/t"; fi
 "$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=31.6 m' >"$tmp/m" 2>&1
-if grep -q "the profile's unit" "$tmp/m"; then bad "an answer in m repeated in m"; else ok; fi
+if grep -q "the unit it was given in" "$tmp/m"; then bad "an answer in m repeated in m"; else ok; fi
 
 # an inventory: each item in its own unit, here the second one in lb
 "$bin" limit profiles/demo/tower-kit.yaml --find payload.mass --energy-max 40J \
   --set 'items[2].mass=9 lb' >"$tmp/kit" 2>&1 || bad "limit on a kit failed"
-if [ "$(grep -c "lb, the profile's unit)" "$tmp/kit")" -eq 1 ]; then ok
+if [ "$(grep -c "lb, the unit it was given in)" "$tmp/kit")" -eq 1 ]; then ok
 else bad "the kit's item given in lb is not answered in lb:"; grep "payload.mass" "$tmp/kit"; fi
+
+# CSV: value and unit in the unit the key was given in (here ft, and oz
+# in a US report)
+"$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=100 ft' \
+  --format csv >"$tmp/c" 2>&1 || bad "limit CSV in ft failed"
+if /usr/bin/python3 - "$tmp/c" 0.3048 ft <<'PY'
+import csv, sys
+rows = list(csv.DictReader(l for l in open(sys.argv[1]) if not l.startswith("#")))
+r = rows[0]
+sys.exit(0 if r["unit"] == sys.argv[3] and
+         abs(float(r["value"]) * float(sys.argv[2]) / float(r["value_si"]) - 1) < 1e-9 else 1)
+PY
+then ok; else bad "limit CSV not in ft:"; cat "$tmp/c"; fi
+"$bin" limit "$p" --find payload.mass --energy-max 40J --set 'payload.mass=18 oz' --units us \
+  --format csv >"$tmp/c" 2>&1 || bad "limit CSV in oz failed"
+if /usr/bin/python3 - "$tmp/c" 0.028349523125 oz <<'PY'
+import csv, sys
+rows = list(csv.DictReader(l for l in open(sys.argv[1]) if not l.startswith("#")))
+r = rows[0]
+sys.exit(0 if r["unit"] == sys.argv[3] and
+         abs(float(r["value"]) * float(sys.argv[2]) / float(r["value_si"]) - 1) < 1e-9 else 1)
+PY
+then ok; else bad "limit CSV not in oz:"; cat "$tmp/c"; fi
+
+# a wind speed in a US report is in mph, as a crew reads it (1 mph =
+# 0.44704 m/s exactly, NIST SP 811 (2008) B.8), whatever it was given in
+"$bin" limit profiles/demo/drone-release.yaml --find wind.speed --drift-max 60m --units us \
+  --set 'wind.speed=20 m/s' >"$tmp/w" 2>&1 || bad "limit on wind in US failed"
+if grep -q "wind.speed = [0-9.]* mph ([0-9.]* m/s, the unit it was given in)" "$tmp/w"; then ok
+else bad "wind speed not in mph:"; sed -n 1,12p "$tmp/w"; fi
 
 check_json() { # ARGS... ; FACTOR
   factor=$1; shift

@@ -122,6 +122,14 @@ refused(["air", "--alt", "0m:20km:-1km"], ["<command line>: --alt: ", "positive 
         "air --alt with a step of the wrong sign")
 refused(["air", "--alt", "0m:20km:0km"], ["--alt: ", "must not be zero"], "air --alt zero step")
 refused(["air", "--alt", "0m:20km:0.1m"], ["--alt: ", "200001 values"], "air --alt too many rows")
+# counts past what a double holds are refused without printing "inf", and
+# ends near the largest double (1.8e308, IEEE 754) are counted exactly
+refused(["air", "--alt", "0m:1e300m:1e-300m"], ["--alt: ", "more values than can be counted"],
+        "air --alt a count past the largest double")
+refused(["air", "--alt", "-1e308m:1e308m:1e300m"], ["--alt: ", "makes 200000001 values"],
+        "air --alt ends near the largest double")
+rc, so, se = plumb("air", "--alt", "0m:1e300m:1e-300m")
+check("inf" not in se and "nan" not in se, f"no inf or nan in the message: {se.strip()!r}")
 
 # ---- plumb air states its temperature offset in every format ----------------
 # 18 degF as a difference is 10 K (NIST SP 811 B.9); T0 = 288.15 K (1976).

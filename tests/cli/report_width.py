@@ -44,6 +44,28 @@ for prof in DEMO:
             w = wide(out)
             check(not w, f"{args[0]} {name} --units {units}: {len(w)} lines over "
                   f"{WIDTH} columns:\n" + "\n".join(w[:5]))
+# a one-way sweep against every bundled criterion: the ratios that do not fit
+# beside the figures go in blocks of their own, each within 80 columns
+ALL_CRITERIA = "criteria=[" + ", ".join(sorted(
+    os.path.basename(c)[:-5] for c in glob.glob(os.path.join(ROOT, "profiles", "criteria", "*.yaml")))) + "]"
+check(ALL_CRITERIA.count(",") >= 5, f"bundled criteria found: {ALL_CRITERIA}")
+for prof in DEMO:
+    name = os.path.basename(prof)
+    for units in ("si", "us"):
+        rc, out, err = plumb("sweep", prof, "--vary", "release.height=5m:25m:10m",
+                             "--set", ALL_CRITERIA, "--units", units)
+        check(rc == 0 and not wide(out),
+              f"sweep {name} --units {units}, all criteria: exit {rc} {err.strip()} {wide(out)[:3]}")
+        rc2, out2, err2 = plumb("sweep", prof, "--vary", "release.height=5m:25m:10m",
+                                "--vary", ("items[1].mass" if "kit" in name else "payload.mass") + "=0.1kg:0.3kg:0.1kg",
+                                "--set", ALL_CRITERIA, "--units", units)
+        check(rc2 in (0, 3) and out2 and not wide(out2),
+              f"two-way sweep {name} --units {units}, all criteria: exit {rc2} "
+              f"{err2.strip()[:200]} {wide(out2)[:3]}")
+        verdicts = sum(l.count("EXCEEDS") + l.count("within") for l in out.splitlines())
+        ncrit = ALL_CRITERIA.count(",") + 1
+        check(verdicts >= ncrit * 3,
+              f"sweep {name} --units {units}: {verdicts} verdicts for {ncrit} criteria x 3 rows")
 for units in ("si", "us"):
     rc, out, err = plumb("air", "--alt", "0m:3000m:500m", "--units", units)
     check(rc == 0 and not wide(out), f"air --units {units}: {err.strip()} {wide(out)[:3]}")
@@ -63,6 +85,36 @@ try:
     with open(path, "w") as f:
         f.write(src)
     for units in ("si", "us"):
+        rc, out, err = plumb("sweep", path, "--vary", "release.height=5m:25m:10m",
+                             "--units", units)
+        check(rc == 0 and not wide(out) and "~" not in out,
+              f"sweep long names --units {units}: exit {rc}, wide {wide(out)[:3]}, cut {'~' in out}")
+        rc, out2, err = plumb("sweep", path, "--vary", "release.height=10m:40m:10m",
+                              "--vary", "wind.speed=0kn:20kn:10kn", "--units", units)
+        check(rc == 0 and not wide(out2) and "~" not in out2,
+              f"two-way sweep long names --units {units}: exit {rc}, wide {wide(out2)[:3]}")
+        # in each table the item column: a line with figures after the name
+        # starts an item, a line with only a name continues it
+        names, cur, col = [], None, None
+        for l in out.splitlines():
+            if " item " in l:
+                col = l.index(" item ") + 1
+                continue
+            if col is None or not l.strip():
+                col = None if not l.strip() else col
+                continue
+            cell, rest = (l[col:] + "  ").split("  ", 1) if len(l) > col else ("", "")
+            if rest.strip():
+                if cur is not None:
+                    names.append(cur)
+                cur = cell.strip()
+            elif cur is not None:
+                cur += " " + cell.strip()
+        if cur is not None:
+            names.append(cur)
+        for n in NAMES:
+            check(names.count(n) >= 6, f"sweep long names --units {units}: "
+                  f"'{n}' whole {names.count(n)} times of 6 (3 rows, 2 tables)")
         rc, out, err = plumb("fall", path, "--units", units)
         check(rc == 0, f"fall long names --units {units}: {err.strip()}")
         check(not wide(out), f"long names --units {units}: wide lines {wide(out)[:3]}")
@@ -102,6 +154,13 @@ for prof in DEMO:
     grav = [l for l in out.splitlines() if "gravity" in l]
     check(rc == 0 and grav and all("ft/s²" in l and "m/s²" not in l for l in grav),
           f"fall {os.path.basename(prof)} --units us: gravity line {grav}")
+# a wind speed in a US zone report is in mph, as in the fall report
+# (1 mph = 0.44704 m/s exactly, NIST SP 811 (2008) B.8)
+rc, out, err = plumb("zone", os.path.join(ROOT, "profiles", "demo", "drone-canopy.yaml"),
+                     "--samples", "400", "--threads", "1", "--units", "us")
+windl = [l for l in out.splitlines() if l.strip().startswith("wind.speed")]
+check(rc == 0 and windl and "mph" in windl[0] and "ft/s" not in windl[0],
+      f"zone --units us: the uncertain wind speed in mph: {windl[:1]}")
 rc, out, err = plumb("fall", os.path.join(ROOT, "profiles", "demo", "tower-kit.yaml"),
                      "--units", "us")
 units_row = [l for l in out.splitlines() if "ft/s" in l and "ft·lbf" in l and " J " in l + " "]

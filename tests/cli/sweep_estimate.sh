@@ -29,5 +29,32 @@ else bad "the warning reached the JSON"; fi
 PLUMB_TEST_ESTIMATE_TIMES=0,0,0 "$bin" sweep "$p" --vary "$v" --quiet >/dev/null 2>"$tmp/q.err"
 if [ -s "$tmp/q.err" ]; then bad "--quiet did not silence the estimate"; else ok; fi
 
+# on a terminal (a pseudo-terminal, Python's pty module) the progress is
+# shown after the estimate and cleared before the report; never in a file
+if PLUMB_TEST_ESTIMATE_TIMES=0,1000,1000 /usr/bin/python3 - "$bin" "$p" "$v" "$tmp/tty.out" <<'PY'
+import os, pty, subprocess, sys
+master, slave = pty.openpty()
+r = subprocess.run([sys.argv[1], "sweep", sys.argv[2], "--vary", sys.argv[3]],
+                   stdout=open(sys.argv[4], "w"), stderr=slave)
+os.close(slave)
+seen = b""
+while True:
+    try:
+        chunk = os.read(master, 4096)
+    except OSError:
+        break
+    if not chunk:
+        break
+    seen += chunk
+text = seen.decode()
+ok = (r.returncode == 0 and "\rplumb sweep: " in text and " rows, about " in text
+      and text.rstrip(" ").endswith("\r"))
+if not ok:
+    print(repr(text))
+sys.exit(0 if ok else 1)
+PY
+then ok; else bad "no progress line on a terminal"; fi
+if cmp -s "$tmp/plain" "$tmp/tty.out"; then ok; else bad "the progress changed the report"; fi
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

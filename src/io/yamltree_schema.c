@@ -1,0 +1,466 @@
+/*
+ * yamltree_schema.c - the schema checker over a YAML tree (yamltree.h) and
+ * the readers of a checked map: every key known (with a did-you-mean by
+ * edit distance), every value of the right kind, words in their lists;
+ * then numbers with their units (units.c) in their ranges, words, one-line
+ * text and whole numbers, each error located at the file, line, column and
+ * dotted key of the value. The altitude range is the span of the U.S.
+ * Standard Atmosphere 1976 (plumb/constants.h).
+ */
+#include <errno.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "plumb/constants.h"
+#include "io/yamltree.h"
+
+/* ---- schema ------------------------------------------------------------ */
+
+plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line, int col,
+                          const char *key, plumb_status status, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    plumbp_vraise(ctx->diag, status, origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : ctx->file,
+                  line, col, key, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
+const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *name)
+{
+    if (!map || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
+        return NULL;
+    for (size_t i = 0; i < map->n_sub; i++)
+        if (strcmp(map->sub[i].name, name) == 0)
+            return &map->sub[i];
+    return NULL;
+}
+
+const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
+{
+    const char *best = NULL;
+    int best_d = 4;
+    if (!map || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
+        return NULL;
+    for (size_t i = 0; i < map->n_sub; i++) {
+        int d = plumbp_edit_distance(name, map->sub[i].name);
+        if (d < best_d) {
+            best_d = d;
+            best = map->sub[i].name;
+        }
+    }
+    return best;
+}
+
+const char *plumby_expected(const plumby_schema *s, char *buf, size_t size)
+{
+    switch (s->type) {
+    case PLUMBY_T_NUM:
+        if (s->dim == PLUMB_DIM_NONE)
+            snprintf(buf, size, "a number");
+        else if (s->dim == PLUMB_DIM_FRACTION)
+            snprintf(buf, size, "a fraction (0.5, or 50 %%)");
+        else
+            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(s->dim),
+                     plumb_dim_si_unit(s->dim));
+        break;
+    case PLUMBY_T_COUNT:
+        snprintf(buf, size, "a whole number");
+        break;
+    case PLUMBY_T_WORD:
+        if (s->words) {
+            size_t used = (size_t)snprintf(buf, size, "one of ");
+            for (size_t i = 0; i < s->n_words && used < size; i++)
+                used += (size_t)snprintf(buf + used, size - used, "%s%s", i ? " | " : "",
+                                         s->words[i]);
+        } else {
+            snprintf(buf, size, "a word");
+        }
+        break;
+    case PLUMBY_T_TEXT:
+        snprintf(buf, size, "text");
+        break;
+    case PLUMBY_T_MAP:
+    case PLUMBY_T_FREE_MAP:
+        snprintf(buf, size, "a map (key: value lines or {key: value})");
+        break;
+    case PLUMBY_T_LIST:
+        snprintf(buf, size, "a list%s",
+                 s->n_sub && s->sub[0].type == PLUMBY_T_MAP ? " of maps" : " ([a, b] or - lines)");
+        break;
+    case PLUMBY_T_MAP_OR_LIST:
+        snprintf(buf, size, "a map, or a list of maps");
+        break;
+    }
+    return buf;
+}
+
+static plumb_status mismatch(const plumby_ctx *ctx, const plumby_node *node,
+                             const plumby_schema *s, const char *key)
+{
+    char want[256], found[64];
+    plumby_expected(s, want, sizeof want);
+    plumby_describe(node, found, sizeof found);
+    return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                        "expected %s, found %s", want, found);
+}
+
+static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
+                              const plumby_schema *s, const char *key)
+{
+    char sub_key[PLUMB_DIAG_KEY];
+    for (size_t i = 0; i < node->n; i++) {
+        const plumby_pair *p = &node->pairs[i];
+        const plumby_schema *c = plumby_schema_child(s, p->key);
+        plumby_key_join(sub_key, sizeof sub_key, key, p->key, 0);
+        if (!c) {
+            const char *best = plumby_schema_suggest(s, p->key);
+            if (best)
+                return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                    "unknown key '%s' (did you mean '%s'?)", p->key, best);
+            char list[512];
+            size_t used = 0;
+            list[0] = '\0';
+            for (size_t k = 0; k < s->n_sub && used < sizeof list; k++)
+                used += (size_t)snprintf(list + used, sizeof list - used, "%s%s", k ? ", " : "",
+                                         s->sub[k].name);
+            return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                "unknown key '%s' (keys here: %s)", p->key, list);
+        }
+        plumb_status st = plumby_check(ctx, p->value, c, sub_key);
+        if (st != PLUMB_OK)
+            return st;
+    }
+    return PLUMB_OK;
+}
+
+plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
+                          const plumby_schema *s, const char *key)
+{
+    char sub_key[PLUMB_DIAG_KEY];
+    switch (s->type) {
+    case PLUMBY_T_NUM:
+    case PLUMBY_T_COUNT:
+    case PLUMBY_T_WORD:
+    case PLUMBY_T_TEXT:
+        if (node->kind != PLUMBY_SCALAR || plumby_is_null(node))
+            return mismatch(ctx, node, s, key);
+        if (s->type == PLUMBY_T_WORD && s->words) {
+            for (size_t i = 0; i < s->n_words; i++)
+                if (strcmp(node->text, s->words[i]) == 0)
+                    return PLUMB_OK;
+            char want[256];
+            plumby_expected(s, want, sizeof want);
+            const char *best = plumbp_closest(node->text, s->words, s->n_words);
+            if (best)
+                return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                                    "expected %s, found '%s' (did you mean '%s'?)", want,
+                                    node->text, best);
+            return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                                "expected %s, found '%s'", want, node->text);
+        }
+        return PLUMB_OK;
+    case PLUMBY_T_MAP:
+        if (node->kind != PLUMBY_MAP)
+            return mismatch(ctx, node, s, key);
+        return check_map(ctx, node, s, key);
+    case PLUMBY_T_FREE_MAP:
+        if (node->kind != PLUMBY_MAP)
+            return mismatch(ctx, node, s, key);
+        return PLUMB_OK;
+    case PLUMBY_T_LIST:
+        if (node->kind != PLUMBY_SEQ)
+            return mismatch(ctx, node, s, key);
+        for (size_t i = 0; i < node->n; i++) {
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+            plumb_status st = plumby_check(ctx, node->items[i], &s->sub[0], sub_key);
+            if (st != PLUMB_OK)
+                return st;
+        }
+        return PLUMB_OK;
+    case PLUMBY_T_MAP_OR_LIST:
+        if (node->kind == PLUMBY_MAP)
+            return check_map(ctx, node, s, key);
+        if (node->kind != PLUMBY_SEQ)
+            return mismatch(ctx, node, s, key);
+        for (size_t i = 0; i < node->n; i++) {
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+            if (node->items[i]->kind != PLUMBY_MAP) {
+                char found[64];
+                plumby_describe(node->items[i], found, sizeof found);
+                return plumby_raise(ctx, node->items[i]->origin, node->items[i]->line,
+                                    node->items[i]->col, sub_key, PLUMB_EINVAL,
+                                    "expected a map, found %s", found);
+            }
+            plumb_status st = check_map(ctx, node->items[i], s, sub_key);
+            if (st != PLUMB_OK)
+                return st;
+        }
+        return PLUMB_OK;
+    }
+    return PLUMB_OK;
+}
+
+int plumby_range_ok(plumby_range range, double v)
+{
+    switch (range) {
+    case PLUMBY_R_ANY: return 1;
+    case PLUMBY_R_POSITIVE: return v > 0.0;
+    case PLUMBY_R_NONNEG: return v >= 0.0;
+    case PLUMBY_R_CD: return v >= 0.0 && v <= PLUMBY_CD_MAX;
+    case PLUMBY_R_CD_POSITIVE: return v > 0.0 && v <= PLUMBY_CD_MAX;
+    case PLUMBY_R_UNIT: return v >= 0.0 && v <= 1.0;
+    case PLUMBY_R_UNIT_OPEN: return v > 0.0 && v < 1.0;
+    case PLUMBY_R_LATITUDE: return v >= -90.0 && v <= 90.0;
+    case PLUMBY_R_LONGITUDE: return v >= -180.0 && v <= 180.0;
+    case PLUMBY_R_ALTITUDE: return v >= PLUMB_STD1976_BOTTOM_M && v <= PLUMB_STD1976_TOP_M;
+    }
+    return 0;
+}
+
+const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size_t size)
+{
+    char u[32] = "";
+    if (dim != PLUMB_DIM_NONE && dim != PLUMB_DIM_FRACTION)
+        snprintf(u, sizeof u, " %s", plumb_dim_si_unit(dim));
+    switch (range) {
+    case PLUMBY_R_ANY: snprintf(buf, size, "a finite number"); break;
+    case PLUMBY_R_POSITIVE: snprintf(buf, size, "> 0%s", u); break;
+    case PLUMBY_R_NONNEG: snprintf(buf, size, ">= 0%s", u); break;
+    case PLUMBY_R_CD: snprintf(buf, size, "0 .. %g (0: drag-free)", PLUMBY_CD_MAX); break;
+    case PLUMBY_R_CD_POSITIVE: snprintf(buf, size, "> 0 and <= %g", PLUMBY_CD_MAX); break;
+    case PLUMBY_R_UNIT:
+        snprintf(buf, size, dim == PLUMB_DIM_FRACTION ? "0 .. 1 (0 %% .. 100 %%)" : "0 .. 1");
+        break;
+    case PLUMBY_R_UNIT_OPEN: snprintf(buf, size, "> 0 and < 1"); break;
+    case PLUMBY_R_LATITUDE: snprintf(buf, size, "-90%s .. 90%s", u, u); break;
+    case PLUMBY_R_LONGITUDE: snprintf(buf, size, "-180%s .. 180%s", u, u); break;
+    case PLUMBY_R_ALTITUDE:
+        snprintf(buf, size, "%g%s .. %g%s", PLUMB_STD1976_BOTTOM_M, u, PLUMB_STD1976_TOP_M, u);
+        break;
+    }
+    return buf;
+}
+
+plumb_status plumby_quantity(const plumby_ctx *ctx, const plumby_node *node, plumb_dim dim,
+                             const char *key, double *out)
+{
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    double v = 0.0;
+    plumb_status st = plumb_units_parse(ctx->units, node->text, dim, &v, &d);
+    if (st != PLUMB_OK)
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, st, "%s",
+                            d.message[0] ? d.message : plumb_strerror(st));
+    if (!plumbp_finite(v))
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "expected a finite number, found '%s'", node->text);
+    *out = v;
+    return PLUMB_OK;
+}
+
+/* ---- reading ----------------------------------------------------------- */
+
+char *plumby_key_join(char *dst, size_t size, const char *prefix, const char *name, size_t i)
+{
+    /* Built in room for the longest key and index, then cut to size: a key
+     * longer than dst is shortened; the diagnostic still names its start. */
+    char tmp[2 * PLUMB_DIAG_KEY + 32];
+    if (!name)
+        snprintf(tmp, sizeof tmp, "%s[%zu]", prefix ? prefix : "",
+                 prefix && strcmp(prefix, PLUMBY_ITEMS_KEY) == 0 ? i + 1 : i);
+    else if (!prefix || !prefix[0])
+        snprintf(tmp, sizeof tmp, "%s", name);
+    else
+        snprintf(tmp, sizeof tmp, "%s.%s", prefix, name);
+    plumbp_strlcpy(dst, tmp, size);
+    return dst;
+}
+
+void plumby_map_init(plumby_map *m, const plumby_ctx *ctx, const plumby_node *node,
+                     const plumby_schema *schema, const char *key)
+{
+    m->ctx = ctx;
+    m->node = node;
+    m->schema = schema;
+    plumbp_strlcpy(m->key, key, sizeof m->key);
+    m->line = node ? node->line : 1;
+    m->col = node ? node->col : 1;
+    m->origin = node ? node->origin : PLUMBY_FROM_FILE;
+}
+
+const plumby_node *plumby_get(const plumby_map *m, const char *name)
+{
+    const plumby_pair *p = plumby_find(m->node, name);
+    return p ? p->value : NULL;
+}
+
+void plumby_sub(const plumby_map *m, const char *name, plumby_map *out)
+{
+    const plumby_node *v = plumby_get(m, name);
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    plumby_map_init(out, m->ctx, v, plumby_schema_child(m->schema, name), key);
+    if (!v) {
+        out->line = m->line;
+        out->col = m->col;
+        out->origin = m->origin;
+    }
+}
+
+plumb_status plumby_missing(const plumby_map *m, const char *name, const char *why)
+{
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    const char *where = m->key[0] ? m->key : "the top level";
+    if (!m->node)
+        return plumby_raise(m->ctx, m->origin, m->line, m->col, key, PLUMB_EKEY,
+                            "required key '%s' is missing (%s is not given)%s%s", name, where,
+                            why ? ": " : "", why ? why : "");
+    return plumby_raise(m->ctx, m->origin, m->line, m->col, key, PLUMB_EKEY,
+                        "required key '%s' is missing from %s%s%s", name, where,
+                        why ? ": " : "", why ? why : "");
+}
+
+plumb_status plumby_forbid(const plumby_map *m, const char *name, const char *why)
+{
+    const plumby_pair *p = plumby_find(m->node, name);
+    if (!p)
+        return PLUMB_OK;
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    return plumby_raise(m->ctx, p->origin, p->line, p->col, key, PLUMB_EKEY,
+                        "'%s' is not used %s; remove it", name, why);
+}
+
+plumb_status plumby_raise_value(const plumby_map *m, const char *name, plumb_status status,
+                                const char *fmt, ...)
+{
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    const plumby_node *v = plumby_get(m, name);
+    va_list ap;
+    va_start(ap, fmt);
+    if (v)
+        plumbp_vraise(m->ctx->diag, status,
+                      v->origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : m->ctx->file, v->line,
+                      v->col, key, fmt, ap);
+    else
+        plumbp_vraise(m->ctx->diag, status,
+                      m->origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : m->ctx->file, m->line,
+                      m->col, key, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
+plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
+                             const plumby_schema *s, const char *key, double *out)
+{
+    double v;
+    plumb_status st = plumby_quantity(ctx, node, s->dim, key, &v);
+    if (st != PLUMB_OK)
+        return st;
+    if (!plumby_range_ok(s->range, v)) {
+        char r[96];
+        plumby_range_text(s->range, s->dim, r, sizeof r);
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "must be %s, found '%s'", r, node->text);
+    }
+    *out = v;
+    return PLUMB_OK;
+}
+
+plumb_status plumby_num(const plumby_map *m, const char *name, int required, double dflt,
+                        double *out, int *present)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (present)
+        *present = v != NULL;
+    if (!v) {
+        if (required)
+            return plumby_missing(m, name, NULL);
+        *out = dflt;
+        return PLUMB_OK;
+    }
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    return plumby_num_node(m->ctx, v, plumby_schema_child(m->schema, name), key, out);
+}
+
+plumb_status plumby_word(const plumby_map *m, const char *name, int dflt, int *out)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (!v) {
+        if (dflt < 0)
+            return plumby_missing(m, name, NULL);
+        *out = dflt;
+        return PLUMB_OK;
+    }
+    const plumby_schema *s = plumby_schema_child(m->schema, name);
+    for (size_t i = 0; i < s->n_words; i++) {
+        if (strcmp(v->text, s->words[i]) == 0) {
+            *out = (int)i;
+            return PLUMB_OK;
+        }
+    }
+    /* plumby_check has refused other words already. */
+    return plumby_raise_value(m, name, PLUMB_EINVAL, "unexpected word '%s'", v->text);
+}
+
+plumb_status plumby_text_node(const plumby_ctx *ctx, const plumby_node *node, const char *key,
+                              char *dst, size_t size)
+{
+    size_t len = strlen(node->text);
+    if (len >= size)
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "text of %zu bytes; at most %zu are accepted", len, size - 1);
+    for (size_t i = 0; i < len; i++) {
+        unsigned char c = (unsigned char)node->text[i];
+        if (c < 0x20u || c == 0x7fu)
+            return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
+                                "control character 0x%02X in text (one line of text expected)",
+                                (unsigned)c);
+    }
+    memcpy(dst, node->text, len + 1);
+    return PLUMB_OK;
+}
+
+plumb_status plumby_text(const plumby_map *m, const char *name, const char *dflt, char *dst,
+                         size_t size)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (!v) {
+        if (!dflt)
+            return plumby_missing(m, name, NULL);
+        plumbp_strlcpy(dst, dflt, size);
+        return PLUMB_OK;
+    }
+    char key[PLUMB_DIAG_KEY];
+    plumby_key_join(key, sizeof key, m->key, name, 0);
+    return plumby_text_node(m->ctx, v, key, dst, size);
+}
+
+plumb_status plumby_count(const plumby_map *m, const char *name, unsigned long long dflt,
+                          unsigned long long lo, unsigned long long hi, unsigned long long *out)
+{
+    const plumby_node *v = plumby_get(m, name);
+    if (!v) {
+        *out = dflt;
+        return PLUMB_OK;
+    }
+    const char *t = v->text;
+    int digits = t[0] != '\0';
+    for (const char *c = t; *c; c++)
+        if (*c < '0' || *c > '9')
+            digits = 0;
+    errno = 0;
+    unsigned long long x = digits ? strtoull(t, NULL, 10) : 0;
+    if (!digits || errno == ERANGE || x < lo || x > hi)
+        return plumby_raise_value(m, name, digits ? PLUMB_ERANGE : PLUMB_EINVAL,
+                                  "expected a whole number %llu .. %llu, found '%s'", lo, hi, t);
+    *out = x;
+    return PLUMB_OK;
+}

@@ -1,0 +1,147 @@
+/*
+ * sheet_doc.h - what the files of the PDF sheet share (sheet.c: the
+ * document, its pages and text sections; sheet_plot.c: the side view and
+ * the energy plot; sheet_plan.c: the plan view). Internal to
+ * libplumb-sheet.
+ *
+ * Units on the page are PostScript points (1/72 in), y downwards.
+ */
+#ifndef PLUMB_SHEET_DOC_H
+#define PLUMB_SHEET_DOC_H
+
+#include <cairo.h>
+#include <pango/pangocairo.h>
+
+#include "plumb/sheet.h"
+#include "report/format.h"
+
+/* The type: one family, embedded; sizes in points. */
+#define SHEET_FONT "DejaVu Sans"
+#define SHEET_MONO "DejaVu Sans Mono"
+#define SHEET_BODY 10.0
+#define SHEET_SMALL 8.0
+
+typedef struct sheet_doc {
+    cairo_t *cr;
+    PangoLayout *layout;
+    const plumb_sheet_options *opt;
+    double pw, ph;               /* page size */
+    double left, right;          /* text margins (x) */
+    double top, bottom;          /* the body's top and bottom (y); the footer is below */
+    double y;                    /* where the next block goes */
+    int page;                    /* the page being drawn, from 1 (0: none yet) */
+    int pages;                   /* pages in all (0 on the counting pass) */
+    char footer_hash[PLUMB_CRIT_SHA256]; /* the profile of the pages being drawn */
+    const char *running;         /* the section going on, repeated on a new page */
+    writer si, us;               /* number formatters, SI and US customary */
+    char *sbuf, *ubuf;
+    size_t slen, ulen;
+} sheet_doc;
+
+/* The body's width. */
+static inline double sheet_width(const sheet_doc *d) { return d->right - d->left; }
+
+/* Text at (x, y) in width w (0: no wrapping): `markup` in pango markup,
+ * `font` a pango font description ("DejaVu Sans Bold 9"). Draws only when
+ * draw is 1; returns the height. */
+double sheet_text(sheet_doc *d, double x, double y, double w, const char *font,
+                  const char *markup, int draw);
+/* The width of one line of text (no wrapping). */
+double sheet_text_width(sheet_doc *d, const char *font, const char *markup);
+/* Text right-aligned to x, or centred on it (align 1: right, 2: centre). */
+void sheet_text_at(sheet_doc *d, double x, double y, int align, const char *font,
+                   const char *markup);
+
+/* Starts a new page when h more points do not fit. */
+void sheet_need(sheet_doc *d, double h);
+/* A paragraph across the body (markup), paginated as a block. */
+void sheet_para(sheet_doc *d, const char *font, const char *markup);
+/* A numbered section heading, kept with `keep` points of what follows. */
+void sheet_heading(sheet_doc *d, const char *title, double keep);
+
+/* printf into a ring of buffers, with the formatters' number-unit joins
+ * made non-breaking spaces; the text is escaped for pango markup unless
+ * the format starts with '\x02' (already markup). */
+const char *sheet_fmt(sheet_doc *d, const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 2, 3)))
+#endif
+    ;
+/* A string escaped for pango markup (ring buffer). */
+const char *sheet_esc(sheet_doc *d, const char *s);
+
+/* Line styles: every line says what it is by weight and dash. */
+typedef enum sheet_line {
+    SHEET_SOLID = 0,   /* the planned fall, the clearance radius */
+    SHEET_DASHED,      /* drag-free path, criteria limits */
+    SHEET_DOTTED,      /* comparisons: ellipse, planned height */
+    SHEET_DASHDOT
+} sheet_line;
+void sheet_stroke(sheet_doc *d, sheet_line style, double width);
+
+/* Axes of a plot: the frame at (x, y, w, h), value ranges, ticks and labels. */
+typedef struct sheet_axes {
+    double x, y, w, h;
+    double x0, x1, y0, y1;      /* value ranges shown */
+    int ylog;                   /* 1: y on a logarithmic scale (y0 > 0) */
+} sheet_axes;
+double sheet_ax_x(const sheet_axes *a, double v);
+double sheet_ax_y(const sheet_axes *a, double v);
+/* A tick step of about `span / n` rounded to 1, 2 or 5 times a power of ten. */
+double sheet_nice_step(double span, double n);
+void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, const char *ylabel);
+
+/* The sections drawn by sheet_plot.c and sheet_plan.c; each returns the
+ * height used. */
+double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h);
+double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y, double w,
+                         double h);
+
+/* ---- the plan view (sheet_plan.c) ------------------------------------------
+ * Whatever a zone gives, in metres east and north of the planned drop
+ * point's origin: circles, polygons, points and a density grid, each with
+ * its words; the drop point, the target, the wind. */
+enum { SHEET_PLAN_CIRCLES = 8, SHEET_PLAN_POLYGONS = 4, SHEET_PLAN_LABEL = 160 };
+
+typedef struct sheet_circle {
+    double centre_m[2], radius_m;
+    sheet_line style;
+    double width;               /* line width, pt */
+    char label[SHEET_PLAN_LABEL];
+} sheet_circle;
+
+typedef struct sheet_polygon {
+    size_t n;                   /* vertices */
+    const double *xy_m;         /* east, north pairs, borrowed */
+    sheet_line style;
+    double width;
+    char label[SHEET_PLAN_LABEL];
+} sheet_polygon;
+
+typedef struct sheet_grid {
+    size_t nx, ny;              /* cells east and north */
+    double x0_m, y0_m, cell_m;  /* south-west corner and cell size */
+    const double *density;      /* nx * ny, row by row from the south; any scale */
+    char label[SHEET_PLAN_LABEL];
+} sheet_grid;
+
+typedef struct sheet_plan {
+    double drop_m[2];           /* the planned drop point */
+    int has_target;
+    double target_m[2];
+    int has_aim;
+    double aim_m[2];            /* the release point that aims at the target */
+    double wind_m_s, wind_from_deg; /* the wind at the release height */
+    size_t n_circles;
+    sheet_circle circles[SHEET_PLAN_CIRCLES];
+    size_t n_polygons;
+    sheet_polygon polygons[SHEET_PLAN_POLYGONS];
+    size_t n_points;            /* impact points, east, north pairs, borrowed */
+    const double *points_m;
+    const sheet_grid *grid;     /* or NULL */
+    char points_label[SHEET_PLAN_LABEL];
+} sheet_plan;
+
+double sheet_plan_view(sheet_doc *d, const sheet_plan *p, double x, double y, double w, double h);
+
+#endif /* PLUMB_SHEET_DOC_H */

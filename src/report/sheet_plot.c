@@ -1,0 +1,389 @@
+/*
+ * sheet_plot.c - the sheet's two graphs: the side view of the fall
+ * (height against horizontal distance, the drag-free path dashed, the
+ * deploy point of a descent device marked) and impact energy against drop
+ * height (one curve per plotted item, each criterion's limit a labelled
+ * horizontal line with the height where it is reached, the planned height
+ * marked). Black lines that differ by weight and dash, every one named.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "report/sheet_doc.h"
+#include "report/common.h"
+
+/* Space for the tick labels and axis titles, pt. */
+#define AX_LEFT 46.0
+#define AX_BOTTOM 28.0
+#define AX_TOP 6.0
+#define AX_RIGHT 8.0
+#define TICK 3.0
+#define LEGEND_LINE 22.0
+/* The energy axis is logarithmic when the largest energy shown is more
+ * than this many times the lowest limit. */
+#define LOG_RATIO 8.0
+
+double sheet_ax_x(const sheet_axes *a, double v)
+{
+    return a->x + (v - a->x0) / (a->x1 - a->x0) * a->w;
+}
+
+double sheet_ax_y(const sheet_axes *a, double v)
+{
+    if (a->ylog) /* below the axis for v <= 0: the caller clips */
+        return a->y + a->h - (v > 0.0 ? log10(v / a->y0) / log10(a->y1 / a->y0) : -1.0) * a->h;
+    return a->y + a->h - (v - a->y0) / (a->y1 - a->y0) * a->h;
+}
+
+double sheet_nice_step(double span, double n)
+{
+    if (!(span > 0.0))
+        return 1.0;
+    double raw = span / n, mag = pow(10.0, floor(log10(raw))), f = raw / mag;
+    return (f < 1.5 ? 1.0 : f < 3.5 ? 2.0 : f < 7.5 ? 5.0 : 10.0) * mag;
+}
+
+/* A tick value as text: as few digits as the step needs. */
+static const char *tick_text(sheet_doc *d, double v, double step)
+{
+    int dec = step >= 1.0 ? 0 : (int)ceil(-log10(step) - 1e-9);
+    if (fabs(v) < step * 1e-6)
+        v = 0.0;
+    return sheet_fmt(d, "%.*f", dec, v);
+}
+
+void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, const char *ylabel)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.0);
+    cairo_t *cr = d->cr;
+    cairo_set_source_rgb(cr, 0, 0, 0);
+    cairo_rectangle(cr, a->x, a->y, a->w, a->h);
+    sheet_stroke(d, SHEET_SOLID, 0.7);
+    double sx = sheet_nice_step(a->x1 - a->x0, 6.0), sy = sheet_nice_step(a->y1 - a->y0, 5.0);
+    for (double v = ceil(a->x0 / sx) * sx; v <= a->x1 + sx * 1e-9; v += sx) {
+        double px = sheet_ax_x(a, v);
+        cairo_move_to(cr, px, a->y + a->h);
+        cairo_line_to(cr, px, a->y + a->h + TICK);
+        sheet_stroke(d, SHEET_SOLID, 0.6);
+        cairo_move_to(cr, px, a->y);
+        cairo_line_to(cr, px, a->y + a->h);
+        cairo_set_source_rgb(cr, 0.82, 0.82, 0.82);
+        sheet_stroke(d, SHEET_SOLID, 0.3);
+        cairo_set_source_rgb(cr, 0, 0, 0);
+        sheet_text_at(d, px, a->y + a->h + TICK + 1.0, 2, font, tick_text(d, v, sx));
+    }
+    double ylog_ticks[64];
+    size_t n_yt = 0;
+    if (a->ylog) /* 1, 2, 5 times each power of ten in the range */
+        for (double dec = pow(10.0, floor(log10(a->y0))); dec <= a->y1 && n_yt < 60; dec *= 10.0)
+            for (int m = 0; m < 3; m++) {
+                double v = dec * (m == 0 ? 1.0 : m == 1 ? 2.0 : 5.0);
+                if (v >= a->y0 * (1.0 - 1e-9) && v <= a->y1 * (1.0 + 1e-9))
+                    ylog_ticks[n_yt++] = v;
+            }
+    for (size_t t = 0;; t++) {
+        double v;
+        if (a->ylog) {
+            if (t >= n_yt)
+                break;
+            v = ylog_ticks[t];
+            sy = v < 1.0 ? pow(10.0, floor(log10(v))) : 1.0;
+        } else {
+            v = ceil(a->y0 / sy) * sy + (double)t * sy;
+            if (v > a->y1 + sy * 1e-9)
+                break;
+        }
+        double py = sheet_ax_y(a, v);
+        cairo_move_to(cr, a->x - TICK, py);
+        cairo_line_to(cr, a->x, py);
+        sheet_stroke(d, SHEET_SOLID, 0.6);
+        cairo_move_to(cr, a->x, py);
+        cairo_line_to(cr, a->x + a->w, py);
+        cairo_set_source_rgb(cr, 0.82, 0.82, 0.82);
+        sheet_stroke(d, SHEET_SOLID, 0.3);
+        cairo_set_source_rgb(cr, 0, 0, 0);
+        sheet_text_at(d, a->x - TICK - 2.0, py - 4.5, 1, font, tick_text(d, v, sy));
+    }
+    sheet_text_at(d, a->x + a->w / 2.0, a->y + a->h + TICK + 11.0, 2, font, sheet_esc(d, xlabel));
+    /* the y title, turned a quarter */
+    cairo_save(cr);
+    double tw = sheet_text_width(d, font, sheet_esc(d, ylabel));
+    cairo_translate(cr, a->x - AX_LEFT + 2.0, a->y + a->h / 2.0 + tw / 2.0);
+    cairo_rotate(cr, -3.14159265358979323846 / 2.0);
+    cairo_move_to(cr, 0.0, 0.0);
+    pango_cairo_update_layout(cr, d->layout);
+    pango_cairo_show_layout(cr, d->layout);
+    cairo_restore(cr);
+    pango_cairo_update_layout(cr, d->layout);
+}
+
+/* A legend entry: a short line in the style, then the words. Returns the
+ * height. */
+static double legend(sheet_doc *d, double x, double y, double w, sheet_line style, double width,
+                     const char *words)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.5);
+    cairo_set_source_rgb(d->cr, 0, 0, 0);
+    cairo_move_to(d->cr, x, y + 5.0);
+    cairo_line_to(d->cr, x + LEGEND_LINE - 4.0, y + 5.0);
+    sheet_stroke(d, style, width);
+    return sheet_text(d, x + LEGEND_LINE, y, w - LEGEND_LINE, font, words, 1) + 1.5;
+}
+
+static void polyline(sheet_doc *d, const sheet_axes *a, const double *x, const double *y, size_t n,
+                     double xs, double ys)
+{
+    for (size_t i = 0; i < n; i++) {
+        if (i == 0)
+            cairo_move_to(d->cr, sheet_ax_x(a, x[i] * xs), sheet_ax_y(a, y[i] * ys));
+        else
+            cairo_line_to(d->cr, sheet_ax_x(a, x[i] * xs), sheet_ax_y(a, y[i] * ys));
+    }
+}
+
+static const sheet_line item_styles[PLUMB_BRIEF_PLOTTED] = {SHEET_SOLID, SHEET_DASHDOT,
+                                                            SHEET_DOTTED, SHEET_DASHED};
+
+double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h)
+{
+    if (b->n_plots == 0)
+        return 0.0;
+    int us = d->opt->units == PLUMB_UNITS_US;
+    double ls = us ? 1.0 / PLUMB_FT_M : 1.0;
+    const char *lu = us ? "ft" : "m";
+    const plumb_brief_plot *pl = &b->plots[0];
+    const plumb_item_report *it = &b->fall->items[pl->item];
+    double dmin = 0.0, dmax = 0.0, zmax = 0.0;
+    for (int k = 0; k < 2; k++) {
+        const plumb_brief_path *p = k ? &pl->drag_free : &pl->path;
+        for (size_t i = 0; i < p->n; i++) {
+            dmin = fmin(dmin, p->d_m[i]);
+            dmax = fmax(dmax, p->d_m[i]);
+            zmax = fmax(zmax, p->z_m[i]);
+        }
+    }
+    double span = dmax - dmin;
+    if (span < 0.1 * zmax) { /* a nearly vertical fall: some room either side */
+        double mid = (dmax + dmin) / 2.0;
+        dmin = mid - 0.05 * zmax;
+        dmax = mid + 0.05 * zmax;
+    }
+    double legend_h = 34.0 + (pl->n_deploy ? 12.0 : 0.0);
+    sheet_axes a = {x + AX_LEFT, y + AX_TOP, w - AX_LEFT - AX_RIGHT, h - AX_TOP - AX_BOTTOM - legend_h,
+                    dmin * ls, dmax * ls, 0.0, zmax * 1.05 * ls, 0};
+    double pad = 0.04 * (a.x1 - a.x0);
+    a.x0 -= pad;
+    a.x1 += pad;
+    sheet_draw_axes(d, &a, sheet_fmt(d, "horizontal distance along the drift from the release "
+                                        "point, %s", lu),
+                    sheet_fmt(d, "height above the strike level, %s", lu));
+    cairo_save(d->cr);
+    cairo_rectangle(d->cr, a.x, a.y, a.w, a.h);
+    cairo_clip(d->cr);
+    cairo_set_source_rgb(d->cr, 0, 0, 0);
+    polyline(d, &a, pl->drag_free.d_m, pl->drag_free.z_m, pl->drag_free.n, ls, ls);
+    sheet_stroke(d, SHEET_DASHED, 1.0);
+    polyline(d, &a, pl->path.d_m, pl->path.z_m, pl->path.n, ls, ls);
+    sheet_stroke(d, SHEET_SOLID, 1.8);
+    for (size_t k = 0; k < pl->n_deploy; k++) {
+        double px = sheet_ax_x(&a, pl->deploy_d_m[k] * ls), py = sheet_ax_y(&a, pl->deploy_z_m[k] * ls);
+        cairo_rectangle(d->cr, px - 3.5, py - 3.5, 7.0, 7.0);
+        sheet_stroke(d, SHEET_SOLID, 1.2);
+    }
+    cairo_restore(d->cr);
+    writer *P = d->opt->units == PLUMB_UNITS_US ? &d->us : &d->si;
+    double ly = a.y + a.h + AX_BOTTOM;
+    ly += legend(d, x, ly, w, SHEET_SOLID, 1.8,
+                 sheet_fmt(d, "%s: the planned fall, landing %s from the release point after %s s",
+                           it->spec->name, plumbp_t_len(P, it->result.drift_m),
+                           num(P, it->result.time_s, TEXT_SIG)));
+    ly += legend(d, x, ly, w, SHEET_DASHED, 1.0,
+                 sheet_fmt(d, "the same release without drag, for comparison (%s)",
+                           plumbp_t_speed(P, it->result.drag_free_speed_m_s)));
+    for (size_t k = 0; k < pl->n_deploy; k++) {
+        char font[64];
+        snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.5);
+        cairo_rectangle(d->cr, x + 7.0, ly + 1.5, 7.0, 7.0);
+        sheet_stroke(d, SHEET_SOLID, 1.2);
+        ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
+                         sheet_fmt(d, "square: the %s deploys (line stretch) at %s, %s s after "
+                                      "release",
+                                   plumb_descent_kind_name(it->spec->descent[k].kind),
+                                   plumbp_t_len(P, it->result.deploy_height_m[k]),
+                                   num(P, it->result.deploy_time_s[k], TEXT_SIG)), 1) + 1.5;
+    }
+    return ly - y + 4.0;
+}
+
+double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h)
+{
+    if (b->n_plots == 0)
+        return 0.0;
+    int us = d->opt->units == PLUMB_UNITS_US;
+    double ls = us ? 1.0 / PLUMB_FT_M : 1.0, es = us ? 1.0 / PLUMB_FT_LBF_J : 1.0;
+    const char *lu = us ? "ft" : "m", *eu = us ? "ft\u00B7lbf" : "J";
+    writer *P = us ? &d->us : &d->si;
+    double hmax = 0.0, emax = 0.0;
+    for (size_t p = 0; p < b->n_plots; p++)
+        for (size_t i = 0; i < b->plots[p].n_curve; i++) {
+            hmax = fmax(hmax, b->plots[p].curve_h_m[i]);
+            if (b->plots[p].curve_ok[i])
+                emax = fmax(emax, b->plots[p].curve_e_j[i]);
+        }
+    for (size_t k = 0; k < b->n_criteria; k++)
+        emax = fmax(emax, b->criteria[k]->energy_limit_j);
+    double lmin = emax;
+    for (size_t k = 0; k < b->n_criteria; k++)
+        lmin = fmin(lmin, b->criteria[k]->energy_limit_j);
+    /* limits far below the energies: a logarithmic energy axis, so the
+     * lines and where the curves cross them can be read */
+    int ylog = b->n_criteria > 0 && emax > LOG_RATIO * lmin;
+    size_t n_leg = b->n_plots + 2;
+    double legend_h = 11.0 * (double)n_leg + 6.0 + (ylog ? 11.0 : 0.0);
+    sheet_axes a = {x + AX_LEFT, y + AX_TOP, w - AX_LEFT - AX_RIGHT, h - AX_TOP - AX_BOTTOM - legend_h,
+                    0.0, hmax * ls, 0.0, emax * 1.12 * es, ylog};
+    if (ylog) {
+        a.y0 = pow(10.0, floor(log10(lmin * es / 4.0)));
+        /* the top: the next 1, 2 or 5 times a power of ten */
+        double top = emax * es * 1.05, dec = pow(10.0, floor(log10(top)));
+        a.y1 = top <= dec ? dec : top <= 2.0 * dec ? 2.0 * dec : top <= 5.0 * dec ? 5.0 * dec
+                                                                               : 10.0 * dec;
+    }
+    sheet_draw_axes(d, &a, sheet_fmt(d, "drop height above the strike level, %s", lu),
+                    sheet_fmt(d, "impact energy, %s%s", eu, ylog ? " (logarithmic scale)" : ""));
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.0);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, 8.0);
+    cairo_save(d->cr);
+    cairo_rectangle(d->cr, a.x, a.y, a.w, a.h);
+    cairo_clip(d->cr);
+    cairo_set_source_rgb(d->cr, 0, 0, 0);
+    /* the curves, from the origin, broken where a height has no fall */
+    for (size_t p = 0; p < b->n_plots; p++) {
+        const plumb_brief_plot *pl = &b->plots[p];
+        int pen = 0;
+        for (size_t i = 0; i < pl->n_curve; i++) {
+            if (!pl->curve_ok[i] || (a.ylog && !(pl->curve_e_j[i] > 0.0))) {
+                pen = 0;
+                continue;
+            }
+            double px = sheet_ax_x(&a, pl->curve_h_m[i] * ls), py = sheet_ax_y(&a, pl->curve_e_j[i] * es);
+            if (!pen)
+                cairo_move_to(d->cr, px, py);
+            else
+                cairo_line_to(d->cr, px, py);
+            pen = 1;
+        }
+        sheet_stroke(d, item_styles[p], p == 0 ? 1.8 : 1.1);
+    }
+    cairo_restore(d->cr);
+    /* each criterion: a horizontal line with its name and where it is
+     * reached; labels from the lowest line up, each at least a line above
+     * the one below it so none overlaps another */
+    const plumb_brief_plot *w0 = &b->plots[0];
+    double mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
+    size_t n_marks = 0, byy[PLUMB_MAX_VERDICTS];
+    for (size_t k = 0; k < b->n_criteria; k++)
+        byy[k] = k;
+    for (size_t k = 1; k < b->n_criteria; k++) /* by limit, lowest first */
+        for (size_t j = k; j > 0 && b->criteria[byy[j]]->energy_limit_j <
+                                        b->criteria[byy[j - 1]]->energy_limit_j; j--) {
+            size_t t = byy[j];
+            byy[j] = byy[j - 1];
+            byy[j - 1] = t;
+        }
+    for (size_t q = 0; q < b->n_criteria; q++) { /* every line first, then the words */
+        double py = sheet_ax_y(&a, b->criteria[q]->energy_limit_j * es);
+        cairo_move_to(d->cr, a.x, py);
+        cairo_line_to(d->cr, a.x + a.w, py);
+        sheet_stroke(d, SHEET_DASHED, 0.8);
+    }
+    double below = a.y + a.h + 1.0; /* the top of the label below */
+    for (size_t q = 0; q < b->n_criteria; q++) {
+        const plumb_criterion *c = b->criteria[byy[q]];
+        double py = sheet_ax_y(&a, c->energy_limit_j * es);
+        const char *where = "";
+        const plumb_item_report *it = &b->fall->items[w0->item];
+        for (size_t v = 0; v < w0->n_limits && v < it->n_verdicts; v++) {
+            if (it->verdicts[v].criterion != c)
+                continue;
+            const plumb_limit_result *r = &w0->limits[v];
+            if (r->outcome == PLUMB_LIMIT_FOUND) {
+                where = sheet_fmt(d, ", reached at %s", plumbp_t_len(P, r->value_si));
+                if (r->value_si * ls <= a.x1 && n_marks < PLUMB_MAX_VERDICTS) {
+                    mark_x[n_marks] = sheet_ax_x(&a, r->value_si * ls);
+                    mark_y[n_marks++] = py;
+                }
+            } else if (r->outcome == PLUMB_LIMIT_UNLIMITED) {
+                where = ", not reached at any height";
+            } else if (r->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
+                where = ", exceeded at every height";
+            }
+        }
+        const char *label =
+            sheet_fmt(d, "\x02%s: %s%s", sheet_esc(d, c->id),
+                      sheet_fmt(d, "%s", plumbp_t_energy(P, c->energy_limit_j)), where);
+        double lh = 10.0, ty = py - lh;
+        if (ty > below - lh)
+            ty = below - lh;
+        if (ty < a.y + 1.0)
+            ty = a.y + 1.0;
+        below = ty;
+        /* a white ground so the grid and curves do not cross the words */
+        double tw = sheet_text_width(d, bold, label);
+        cairo_set_source_rgb(d->cr, 1, 1, 1);
+        cairo_rectangle(d->cr, a.x + 30.0, ty, tw + 2.0, lh - 0.5);
+        cairo_fill(d->cr);
+        cairo_set_source_rgb(d->cr, 0, 0, 0);
+        sheet_text_at(d, a.x + 31.0, ty, 0, bold, label);
+        if (ty + lh < py - 1.0) { /* moved up: a leader down to its line */
+            cairo_move_to(d->cr, a.x + 27.0, ty + lh / 2.0);
+            cairo_line_to(d->cr, a.x + 27.0, py);
+            sheet_stroke(d, SHEET_SOLID, 0.5);
+        }
+    }
+    /* where the first curve reaches each limit, over the labels */
+    for (size_t k = 0; k < n_marks; k++) {
+        cairo_new_sub_path(d->cr);
+        cairo_arc(d->cr, mark_x[k], mark_y[k], 3.0, 0.0, 2.0 * 3.14159265358979323846);
+        cairo_set_source_rgb(d->cr, 1, 1, 1);
+        cairo_fill_preserve(d->cr);
+        cairo_set_source_rgb(d->cr, 0, 0, 0);
+        sheet_stroke(d, SHEET_SOLID, 1.0);
+    }
+    /* the planned height */
+    const plumb_item_report *worst = &b->fall->items[w0->item];
+    double hp = worst->spec->release_m[2];
+    double px = sheet_ax_x(&a, hp * ls);
+    cairo_move_to(d->cr, px, a.y);
+    cairo_line_to(d->cr, px, a.y + a.h);
+    sheet_stroke(d, SHEET_DOTTED, 1.2);
+    const char *pl_text = sheet_fmt(d, "planned %s", plumbp_t_len(P, hp));
+    double tw = sheet_text_width(d, font, pl_text);
+    cairo_set_source_rgb(d->cr, 1, 1, 1);
+    double tx = px + 3.0 + tw + 4.0 > a.x + a.w ? px - tw - 5.0 : px + 2.0;
+    cairo_rectangle(d->cr, tx, a.y + 2.0, tw + 2.0, 9.0);
+    cairo_fill(d->cr);
+    cairo_set_source_rgb(d->cr, 0, 0, 0);
+    sheet_text_at(d, tx + 1.0, a.y + 2.0, 0, font, pl_text);
+    /* the legend */
+    double ly = a.y + a.h + AX_BOTTOM;
+    for (size_t p = 0; p < b->n_plots; p++) {
+        const plumb_item_report *it = &b->fall->items[b->plots[p].item];
+        ly += legend(d, x, ly, w, item_styles[p], p == 0 ? 1.8 : 1.1,
+                     sheet_fmt(d, "%s: %s at the planned %s", it->spec->name,
+                               plumbp_t_energy(P, it->result.energy_j), plumbp_t_len(P, hp)));
+    }
+    ly += legend(d, x, ly, w, SHEET_DASHED, 0.8,
+                 "each criterion's energy limit, named on the line; a circle where the "
+                 "first curve reaches it (plumb limit --find release.height)");
+    ly += legend(d, x, ly, w, SHEET_DOTTED, 1.2, "the planned drop height");
+    if (ylog)
+        ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
+                         "The energy axis is logarithmic: each step up is ten times the energy.",
+                         1) + 1.5;
+    return ly - y + 4.0;
+}

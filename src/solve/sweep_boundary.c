@@ -1,0 +1,103 @@
+/*
+ * sweep_boundary.c - the boundary of a two-way sweep (include/plumb/sweep.h):
+ * for each value of the first input and each criterion, the value of the
+ * second input at which the impact energy just reaches the limit, by the
+ * limit solver (inverse.c: a scan over the key's range, then Brent's
+ * method on each change of sign) on the profile derived with the first
+ * input set to that value, exactly as --set sets it.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "plumb/sweep.h"
+#include "core/internal.h"
+#include "solve/sweep_internal.h"
+
+/* value_si = offset + scale x for a value x in `unit` (SI when ""). */
+static int unit_map(const plumb_units *units, const char *unit, plumb_dim dim, double *offset,
+                    double *scale)
+{
+    *offset = 0.0;
+    *scale = 1.0;
+    if (!unit[0])
+        return 1;
+    char text[PLUMB_UNIT_TEXT + 8];
+    double zero, one;
+    snprintf(text, sizeof text, "0 %s", unit);
+    if (plumb_units_parse(units, text, dim, &zero, NULL) != PLUMB_OK)
+        return 0;
+    snprintf(text, sizeof text, "1 %s", unit);
+    if (plumb_units_parse(units, text, dim, &one, NULL) != PLUMB_OK || !(one != zero))
+        return 0;
+    *offset = zero;
+    *scale = one - zero;
+    return 1;
+}
+
+plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *profile,
+                                         const plumb_units *units, plumb_trajectory *traj,
+                                         plumb_diag *diag)
+{
+    if (!s || !profile || !units || !traj || plumb_sweep_axis_count(s) != 2)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "a boundary needs a two-way sweep");
+    const plumb_sweep_row *first = NULL;
+    for (size_t r = 0; !first && r < plumb_sweep_row_count(s); r++)
+        if (plumb_sweep_row_at(s, r)->status == PLUMB_OK)
+            first = plumb_sweep_row_at(s, r);
+    if (!first)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "a boundary needs a computed row");
+    /* the item with the highest impact energy there, and its criteria */
+    size_t item = 0;
+    for (size_t i = 1; i < first->report.n_items; i++)
+        if (first->report.items[i].result.energy_j > first->report.items[item].result.energy_j)
+            item = i;
+    const plumb_item_report *it = &first->report.items[item];
+    const plumb_criterion *crit[PLUMB_MAX_VERDICTS];
+    size_t n = it->n_verdicts;
+    for (size_t k = 0; k < n; k++)
+        crit[k] = it->verdicts[k].criterion;
+    plumb_sweep_boundary *b = plumbp_sweep_boundaries_alloc(s, item, crit, n);
+    if (!b)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    const plumb_range *a0 = plumb_sweep_axis(s, 0), *a1 = plumb_sweep_axis(s, 1);
+    double off = 0.0, scale = 1.0;
+    int mapped = unit_map(units, a1->unit, a1->dim, &off, &scale);
+    for (size_t i = 0; i < a0->n; i++) {
+        char set[PLUMB_DIAG_KEY + 64];
+        plumb_range_set_text(a0, i, set, sizeof set);
+        const char *sets[1] = {set};
+        plumb_profile *derived = NULL;
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        plumb_status st = plumb_profile_derive(profile, units, sets, 1, &derived, &d);
+        for (size_t k = 0; k < n; k++) {
+            plumb_sweep_boundary *bk = &b[i * n + k];
+            bk->status = st;
+            if (st != PLUMB_OK)
+                continue;
+            plumb_limit_result res;
+            plumb_diag_clear(&d);
+            bk->status = plumb_limit_solve(derived, units, item, a1->key, PLUMB_METRIC_ENERGY,
+                                           crit[k]->energy_limit_j, NULL, traj, &res, &d);
+            if (bk->status == PLUMB_ENOMEM) {
+                plumb_profile_free(derived);
+                return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+            }
+            if (bk->status != PLUMB_OK)
+                continue;
+            bk->outcome = res.outcome;
+            bk->limit_is_upper_bound = res.limit_is_upper_bound;
+            if (res.outcome == PLUMB_LIMIT_FOUND) {
+                bk->value_si = res.value_si;
+                if (mapped) {
+                    bk->value = (res.value_si - off) / scale;
+                } else { /* a unit that cannot be read back: no value rather than a wrong one */
+                    bk->status = PLUMB_EUNIT;
+                }
+            }
+        }
+        plumb_profile_free(derived);
+    }
+    return PLUMB_OK;
+}

@@ -1,0 +1,298 @@
+"""`plumb sheet` end to end, the PDF read back with poppler's tools
+(pdftotext, pdffonts, pdfinfo, pdftoppm: independent of cairo and pango,
+which wrote it):
+- the answer figures are those of `plumb fall` (SI and --units us) and the
+  clearance radii those of `plumb zone --format json` for the same seed,
+  formatted to the text report's 4 significant digits;
+- the eight sections in order; the cautions in full; on every page the
+  footer's short caution, "page n of m" and the profile's SHA-256;
+- the SHA-256 of the profile and of every criteria file it names
+  (Python's hashlib, FIPS 180-4) and the seed;
+- every font embedded (pdffonts); the paper size asked for (pdfinfo:
+  ISO 216 A4 is 595.276 x 841.89 pt, US letter 612 x 792 pt);
+- a 40-item inventory gives a table over several pages with its headers
+  repeated, and every item name appears in the text;
+- a bad value, a bad option or an unwritable output: exit 2 or 3 and no
+  file, no temporary file left beside it;
+- with SOURCE_DATE_EPOCH two runs are byte for byte the same;
+- every page rendered in grey (pdftoppm -gray) is blank in the margins, and
+  no text box (pdftotext -bbox) lies outside them.
+A profile without `uncertainty:` says "no clearance zone: inputs carry no
+uncertainty" in its zone section and still makes a sheet.
+"""
+import hashlib
+import math
+import os
+import re
+import shutil
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import PLUMB, ROOT, check, finish, plumb  # noqa: E402
+
+DRONE = os.path.join(ROOT, "profiles/demo/drone-release.yaml")
+KIT = os.path.join(ROOT, "profiles/demo/tower-kit.yaml")
+CRIT = os.path.join(ROOT, "profiles/criteria")
+EPOCH = "1767225600"  # 2026-01-01 00:00:00 UTC
+# The sheet's margin is 15 mm; a text box or a dark pixel closer than
+# 14 mm to the edge is outside it (1 mm for rounding of the boxes).
+MARGIN_PT = 14.0 * 72.0 / 25.4
+# Under the sanitizer build: fontconfig's process-long caches are not leaks
+# of ours (tests/lsan.supp says why).
+SUPP = "suppressions=" + os.path.join(ROOT, "tests/lsan.supp") + ":print_suppressions=0"
+
+tmp = tempfile.mkdtemp(prefix="plumb-sheet.", dir=os.environ.get("TMPDIR"))
+
+
+def run(*args, env=None):
+    e = dict(os.environ, LC_ALL="C", SOURCE_DATE_EPOCH=EPOCH,
+             LSAN_OPTIONS=SUPP + ":" + os.environ.get("LSAN_OPTIONS", ""))
+    if env:
+        e.update(env)
+    r = subprocess.run([PLUMB, *args], capture_output=True, text=True, env=e, timeout=300)
+    return r.returncode, r.stdout, r.stderr
+
+
+def tool(*args):
+    return subprocess.run(list(args), capture_output=True, text=True).stdout
+
+
+def pages_text(pdf):
+    """The text of each page, no-break spaces as spaces, runs of white space as one."""
+    t = tool("pdftotext", "-enc", "UTF-8", pdf, "-").replace("\u00a0", " ")
+    pages = t.split("\f")
+    if pages and not pages[-1].strip():
+        pages = pages[:-1]
+    return [re.sub(r"\s+", " ", p) for p in pages]
+
+
+def sig4(x):
+    """x to 4 significant digits, trailing zeros kept, as the text report writes it."""
+    dec = max(0, 3 - int(math.floor(math.log10(abs(x))))) if x != 0 else 0
+    return f"{x:.{dec}f}"
+
+
+def sha256(path):
+    with open(path, "rb") as f:
+        return hashlib.sha256(f.read()).hexdigest()
+
+
+def pdfinfo(pdf):
+    info = {}
+    for line in tool("pdfinfo", pdf).splitlines():
+        k, _, v = line.partition(":")
+        info[k.strip()] = v.strip()
+    return info
+
+
+def fonts_embedded(pdf):
+    rows = tool("pdffonts", pdf).splitlines()[2:]
+    return len(rows) > 0 and all(r.split()[-5] == "yes" for r in rows), len(rows)
+
+
+def bbox_outside(pdf):
+    """Words whose box lies outside the margins, per pdftotext -bbox."""
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    out = []
+    for page in re.finditer(r'<page width="([\d.]+)" height="([\d.]+)">(.*?)</page>', html, re.S):
+        w, h = float(page.group(1)), float(page.group(2))
+        for m in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                             r'yMax="([\d.]+)">(.*?)</word>', page.group(3)):
+            x0, y0, x1, y1 = (float(m.group(i)) for i in range(1, 5))
+            if x0 < MARGIN_PT or y0 < MARGIN_PT or x1 > w - MARGIN_PT or y1 > h - MARGIN_PT:
+                out.append(m.group(5))
+    return out
+
+
+def grey_margins_blank(pdf, dpi=50):
+    """Renders every page in grey (pdftoppm -gray, PGM) and checks that the
+    band inside 14 mm of each edge is white. Returns (pages, bad pages)."""
+    base = os.path.join(tmp, "grey")
+    subprocess.run(["pdftoppm", "-gray", "-r", str(dpi), pdf, base], check=True)
+    bad, n = [], 0
+    for name in sorted(os.listdir(tmp)):
+        if not name.startswith("grey") or not name.endswith(".pgm"):
+            continue
+        n += 1
+        with open(os.path.join(tmp, name), "rb") as f:
+            data = f.read()
+        os.remove(os.path.join(tmp, name))
+        # P5 header: magic, width, height, maxval, one white-space byte
+        m = re.match(rb"P5\s+(\d+)\s+(\d+)\s+(\d+)\s", data)
+        w, h = int(m.group(1)), int(m.group(2))
+        px = data[m.end():]
+        band = int(MARGIN_PT / 72.0 * dpi)
+        dark = 0
+        for y in range(h):
+            row = px[y * w:(y + 1) * w]
+            if y < band or y >= h - band:
+                dark += sum(1 for v in row if v < 200)
+            else:
+                dark += sum(1 for v in row[:band] if v < 200) + sum(1 for v in row[w - band:] if v < 200)
+        if dark:
+            bad.append(name)
+    return n, bad
+
+
+def no_leftovers(d, keep=()):
+    return sorted(set(os.listdir(d)) - set(keep)) == []
+
+
+# ---- the drone release: a single payload with a zone and a target -----------
+pdf = os.path.join(tmp, "drone.pdf")
+rc, out, err = run("sheet", DRONE, "-o", pdf, "--samples", "2000", "--seed", "7")
+check(rc == 0 and os.path.exists(pdf), f"sheet of the drone release: exit {rc}: {err}")
+pages = pages_text(pdf)
+info = pdfinfo(pdf)
+m = len(pages)
+check(info.get("Pages") == str(m) and m >= 3, f"pages: pdfinfo {info.get('Pages')}, text {m}")
+check(info.get("Page size", "").startswith("595.276 x 841.89 pts"), f"A4: {info.get('Page size')}")
+ok, nf = fonts_embedded(pdf)
+check(ok, f"every font embedded ({nf} fonts)")
+text = " ".join(pages)
+
+# the answer as plumb fall gives it, SI and US
+_, fall_si, _ = plumb("fall", DRONE)
+_, fall_us, _ = plumb("fall", DRONE, "--units", "us")
+speed = re.search(r"speed\s+(\S+ m/s)", fall_si).group(1)
+energy = re.search(r"energy\s+(.+)", fall_si).group(1).strip()
+tfall = re.search(r"time\s+(\S+) s after", fall_si).group(1)
+speed_us = re.search(r"speed\s+(\S+ ft/s)", fall_us).group(1)
+p1 = pages[0]
+for what, fig in (("speed", speed), ("energy", energy), ("time", tfall + " s"),
+                  ("speed in ft/s", speed_us)):
+    check(fig in p1, f"page 1 has the impact {what} '{fig}' of plumb fall")
+
+# the clearance figures as plumb zone --format json gives them, same seed
+import json  # noqa: E402
+_, zj, _ = plumb("zone", DRONE, "--samples", "2000", "--seed", "7", "--format", "json")
+z = json.loads(zj)["zone"]
+r_drop = sig4(z["clearance_radius_m"]) + " m"
+r_target = sig4(z["target"]["clearance_radius_m"]) + " m"
+check(r_drop in p1, f"page 1 has the clearance radius {r_drop} of plumb zone")
+check(r_target in p1, f"page 1 has the clearance radius around the target {r_target}")
+check("Seed: 7, 2000 samples" in text, "the seed and samples are stated")
+for v in ("exceeds",):
+    check(v in p1, f"page 1 has the verdict word '{v}'")
+
+# sections in order
+heads = ["1. Job, date and inputs", "2. The answer", "3. Side view of the fall",
+         "4. Impact energy against drop height", "5. Plan view of the clearance zone",
+         "7. Inputs as understood", "8. Cautions"]
+pos = [text.find(h) for h in heads]
+check(all(p >= 0 for p in pos) and pos == sorted(pos), f"sections in order: {pos}")
+check("6. Every item" not in text, "no inventory table for a single payload")
+
+# hashes: the profile and every criteria file it names
+check(sha256(DRONE) in text, "the profile's SHA-256")
+for cid in ("us-part107-cat3", "eu-c1-80j"):
+    check(sha256(os.path.join(CRIT, cid + ".yaml")) in text, f"the SHA-256 of criteria file {cid}")
+check("2026-01-01 00:00:00 UTC" in p1, "the calculation time is SOURCE_DATE_EPOCH, in UTC")
+
+# footers on every page, the cautions in full
+for i, p in enumerate(pages, 1):
+    check(f"page {i} of {m}" in p, f"page {i}: 'page {i} of {m}'")
+    check("competent or licensed person" in p and "local codes" in p,
+          f"page {i}: the short caution and the deference")
+    check(sha256(DRONE) in p, f"page {i}: the profile's SHA-256 in the footer")
+cautions = fall_si.split("\nCautions\n")[1]
+for c in re.split(r"\n\s*- ", "\n" + cautions):
+    c = re.sub(r"\s+", " ", c).strip()
+    if c:
+        check(c in text, f"caution in full: {c[:40]}...")
+
+# the PDF reads in grey: nothing in the margins
+outside = bbox_outside(pdf)
+check(not outside, f"text outside the margins: {outside[:5]}")
+n, bad = grey_margins_blank(pdf)
+check(n == m and not bad, f"grey renders: {n} pages, margins not blank on {bad}")
+
+# reproducible: the same bytes twice
+pdf2 = os.path.join(tmp, "drone2.pdf")
+run("sheet", DRONE, "-o", pdf2, "--samples", "2000", "--seed", "7")
+with open(pdf, "rb") as a, open(pdf2, "rb") as b:
+    check(a.read() == b.read(), "SOURCE_DATE_EPOCH: two runs byte for byte the same")
+os.remove(pdf2)
+
+# ---- letter paper, US units ------------------------------------------------------
+pdf_us = os.path.join(tmp, "us.pdf")
+rc, _, err = run("sheet", DRONE, "-o", pdf_us, "--samples", "2000", "--paper", "letter",
+                 "--units", "us")
+check(rc == 0, f"letter, us: exit {rc}: {err}")
+check(pdfinfo(pdf_us).get("Page size", "").startswith("612 x 792 pts"), "letter paper")
+tu = " ".join(pages_text(pdf_us))
+check(speed_us in tu and re.search(r"\d ft\b", tu), "US units: ft/s first, a scale in ft")
+check(not bbox_outside(pdf_us), "letter: no text outside the margins")
+n, bad = grey_margins_blank(pdf_us)
+check(not bad, f"letter: margins blank in grey, not on {bad}")
+os.remove(pdf_us)
+
+# ---- a 40-item inventory, no uncertainty -------------------------------------------
+names = [f"item {i:02d} {'long descriptive name of a tool ' * (i % 3)}end".strip()
+         for i in range(1, 41)]
+kit = os.path.join(tmp, "kit40.yaml")
+with open(kit, "w") as f:
+    f.write("name: forty items\njob: {title: Test job, prepared_by: A. Tester}\nitems:\n")
+    for i, nm in enumerate(names, 1):
+        f.write(f"  - name: {nm}\n    mass: {0.1 * i:.1f} kg\n"
+                f"    drag: {{cd: 1.0, area: {0.002 + 0.0005 * i:.4f} m^2}}\n")
+    f.write("release: {height: 20 m}\ncriteria: [en397-shock-49j, z89-type2-30j]\n")
+pdf_kit = os.path.join(tmp, "kit.pdf")
+rc, _, err = run("sheet", kit, "-o", pdf_kit)
+check(rc == 0, f"40 items: exit {rc}: {err}")
+kp = pages_text(pdf_kit)
+kt = " ".join(kp)
+squeezed = re.sub(r"\s+", "", kt)
+missing = [nm for nm in names if re.sub(r"\s+", "", nm) not in squeezed]
+check(not missing, f"every item name in the text, missing {missing[:3]}")
+layout = tool("pdftotext", "-layout", pdf_kit, "-").split("\f")
+with_header = [i for i, p in enumerate(layout) if re.search(r"#\s+Item\s+Mass\s+Impact energy\s+Ratio to", p)]
+check(len(with_header) >= 2, f"the table's header repeated on its pages: {with_header}")
+check("no clearance zone: inputs carry no uncertainty" in kt, "no uncertainty: said in words")
+check("Test job" in kp[0] and "A. Tester" in kp[0], "the job map on page 1")
+check(not bbox_outside(pdf_kit), "40 items: no text outside the margins")
+for i, p in enumerate(kp, 1):
+    check(f"page {i} of {len(kp)}" in p, f"40 items, page {i} of {len(kp)}")
+os.remove(kit)
+os.remove(pdf_kit)
+
+# ---- several profiles: one document ------------------------------------------------
+both = os.path.join(tmp, "both.pdf")
+rc, _, err = run("sheet", DRONE, KIT, "-o", both, "--samples", "1000")
+check(rc == 0, f"two profiles: exit {rc}: {err}")
+bt = pages_text(both)
+check(any(sha256(DRONE) in p for p in bt) and any(sha256(KIT) in p for p in bt),
+      "two profiles: both hashes in the footers")
+check(sum("1. Job, date and inputs" in p for p in bt) == 2, "two profiles: two headers")
+os.remove(both)
+
+# ---- errors: nothing written ----------------------------------------------------------
+d = os.path.join(tmp, "err")
+os.mkdir(d)
+bad_pdf = os.path.join(d, "bad.pdf")
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--set", "payload.mass=-1 kg")
+check(rc == 2 and no_leftovers(d), f"a bad value: exit {rc} (want 2), left {os.listdir(d)}")
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--paper", "a5")
+check(rc == 2 and "a4 or letter" in err and no_leftovers(d), f"--paper a5: exit {rc}")
+rc, _, err = run("sheet", DRONE)
+check(rc == 2 and "-o" in err, f"no -o: exit {rc}")
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "10")
+check(rc == 2 and no_leftovers(d), f"too few samples for the confidence: exit {rc}: {err}")
+rc, _, err = run("sheet", DRONE, "-o", os.path.join(d, "no", "such", "dir.pdf"), "--samples",
+                 "1000")
+check(rc == 3 and "plumb:" in err and no_leftovers(d), f"unwritable output: exit {rc} (want 3)")
+# no fonts at all (an empty fontconfig configuration): exit 3, a clear message
+conf = os.path.join(tmp, "empty.conf")
+with open(conf, "w") as f:
+    f.write('<?xml version="1.0"?>\n<!DOCTYPE fontconfig SYSTEM "fonts.dtd">\n<fontconfig></fontconfig>\n')
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "1000", env={"FONTCONFIG_FILE": conf})
+check(rc == 3 and "DejaVu Sans" in err and no_leftovers(d),
+      f"no font: exit {rc} (want 3), message {err.strip()[-120:]!r}")
+os.remove(conf)
+os.rmdir(d)
+
+os.remove(pdf)
+shutil.rmtree(tmp)
+finish()

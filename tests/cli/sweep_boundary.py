@@ -1,0 +1,77 @@
+"""The text of a two-way `plumb sweep` is its boundary (issue 11): for each
+value of the first input and each criterion, the value of the second at
+which the impact energy reaches the limit. Checked against a closed form,
+the work-energy theorem for a drag-free fall from rest (1/2 m v^2 = m g H,
+so the mass at which the energy is E from height H is m = E / (g0 H);
+standard gravity g0 = 9.80665 m/s^2, 3rd CGPM 1901; 25 ft lbf = 25 x
+0.3048 x 0.45359237 x 9.80665 J by the 1959 agreement), printed to 4
+significant digits, so within half a unit of the 4th digit. Also: no grid
+of energies with `!` flags remains; CSV and JSON keep every row's figures;
+a boundary beyond the range swept is marked `*`; "never reached" when no
+value reaches the limit.
+"""
+import json
+import math
+import os
+import re
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import check, finish, plumb  # noqa: E402
+
+G0 = 9.80665
+FT_LBF = 0.3048 * 0.45359237 * 9.80665
+LIMITS = {"us-part107-cat3": 25.0 * FT_LBF, "eu-c1-80j": 80.0}
+
+tmp = tempfile.mkdtemp(prefix="plumb-boundary.", dir=os.environ.get("TMPDIR"))
+prof = os.path.join(tmp, "free.yaml")
+with open(prof, "w") as f:
+    f.write("# Invented test profile: a drag-free payload dropped from rest.\n"
+            "name: drag-free payload\n"
+            "payload: {mass: 1.3 kg, drag: {cd: 0, area: 0.0117 m^2}}\n"
+            "release: {height: 12.5 m}\n"
+            "criteria: [us-part107-cat3, eu-c1-80j]\n")
+
+heights = [5.0, 10.0, 15.0, 20.0]
+rc, out, err = plumb("sweep", prof, "--vary", "release.height=5m:20m:5m",
+                     "--vary", "payload.mass=0.1kg:1kg:0.3kg")
+check(rc == 0, f"two-way sweep: exit {rc}: {err}")
+check("! = a criterion exceeded" not in out and not re.search(r"\d!", out),
+      "no energy grid with ! flags")
+check("Where each limit is reached" in out, "the boundary table is there")
+rows = {}
+for line in out.splitlines():
+    m = re.match(r"\s+(\d+)\s+up to ([\d.]+)(\*?)\s+up to ([\d.]+)(\*?)\s*$", line)
+    if m:
+        rows[float(m.group(1))] = (float(m.group(2)), m.group(3), float(m.group(4)), m.group(5))
+check(sorted(rows) == heights, f"one boundary row per height: {sorted(rows)}")
+for h, (m1, star1, m2, star2) in rows.items():
+    for got, star, cid in ((m1, star1, "us-part107-cat3"), (m2, star2, "eu-c1-80j")):
+        want = LIMITS[cid] / (G0 * h)
+        # 4 significant digits: half a unit of the 4th digit
+        tol = 0.5 * 10 ** (math.floor(math.log10(want)) - 3)
+        check(abs(got - want) <= tol * 1.0001,
+              f"H {h} m, {cid}: mass {got} kg, closed form E/(g0 H) = {want:.6g} kg")
+        beyond = want < 0.1 or want > 1.0
+        check((star == "*") == beyond, f"H {h} m, {cid}: '*' exactly when beyond 0.1-1 kg")
+
+# the full figures stay in CSV and JSON: 4 heights x 4 masses
+rc, out, _ = plumb("sweep", prof, "--vary", "release.height=5m:20m:5m",
+                   "--vary", "payload.mass=0.1kg:1kg:0.3kg", "--format", "json")
+check(rc == 0 and len(json.loads(out)["rows"]) == 16, "JSON keeps all 16 rows")
+rc, out, _ = plumb("sweep", prof, "--vary", "release.height=5m:20m:5m",
+                   "--vary", "payload.mass=0.1kg:1kg:0.3kg", "--format", "csv")
+data = [ln for ln in out.splitlines() if ln and not ln.startswith("#")]
+check(rc == 0 and len(data) == 17, f"CSV keeps a header and all 16 rows ({len(data)} lines)")
+
+# a second input that cannot reach the limit: the wind, in still air from
+# rest, does not change a drag-free fall's energy
+rc, out, err = plumb("sweep", prof, "--vary", "payload.mass=0.1kg:0.2kg:0.1kg",
+                     "--vary", "wind.speed=0m/s:10m/s:5m/s")
+check(rc == 0 and "never reached" in out and "Where each limit is reached" in out,
+      f"a limit no wind reaches: 'never reached' (exit {rc}: {err.strip()})")
+
+os.remove(prof)
+os.rmdir(tmp)
+finish()
