@@ -7,7 +7,7 @@
 # (tests/nomem/failalloc.h): PLUMB_FAILALLOC=N fails its Nth allocation and
 # says at exit whether it did. For each command, a run with no failure
 # counts the allocations (M); then N = 1, 1 + s, 1 + 2s ... up to M (some
-# 8 runs, s = M / 8) must each fail as said, and N = M + 1 must succeed.
+# 8 runs, s = M / 8; 3 in the sanitizer build) must each fail as said, and N = M + 1 must succeed.
 # Every allocation of the library calls is failed in turn by
 # tests/nomem/test_nomem.c; this checks the command line's exit status.
 #
@@ -31,6 +31,12 @@ if [ ! -x "$nomem" ]; then
   exit 1
 fi
 
+# The sanitizer build runs each command some ten times slower: 3 runs per
+# command there (LeakSanitizer still checks what each failed run leaves),
+# 8 in the plain build.
+runs_per_command=8
+if grep -q __asan_init "$nomem" 2>/dev/null; then runs_per_command=3; fi
+
 # each NAME ARGS...: plumb ARGS -o $tmp/out/r, with every 1/8th allocation failing.
 each() {
   name=$1; shift
@@ -41,7 +47,7 @@ each() {
   if [ $rc -ne 0 ] || [ -z "$m" ]; then
     bad "$name: the run with no failure: exit $rc, $(head -c 300 "$tmp/stderr")"; return
   fi
-  step=$(( m / 8 )); [ "$step" -lt 1 ] && step=1
+  step=$(( m / runs_per_command )); [ "$step" -lt 1 ] && step=1
   n=1; bads=0; runs=0
   while [ "$n" -le "$m" ]; do
     rm -rf "$tmp/out"; mkdir "$tmp/out"

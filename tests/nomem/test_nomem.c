@@ -625,6 +625,37 @@ static void test_zones_fail_cleanly_at_every_allocation_on_one_and_two_threads(v
     study_done(&sc);
 }
 
+/* The brief of a study (include/plumb/brief.h): its falls, paths and,
+ * with uncertainty, a small zone. */
+static plumb_status call_brief(void *ctx, plumb_diag *d)
+{
+    study_ctx *c = ctx;
+    plumb_brief_options o;
+    plumb_brief_options_init(&o);
+    o.zone = 1;
+    o.samples = 368; /* the fewest that bound the profile's 99 % radius at 95 % */
+    o.has_seed = 1;
+    o.seed = 5;
+    o.threads = 1;
+    o.max_points = 100;
+    plumb_brief *b = NULL;
+    plumb_status st = plumb_brief_alloc(c->study, &o, &b, d);
+    plumb_brief_free(b);
+    return st;
+}
+
+static void test_a_brief_fails_cleanly_at_every_allocation(void **s)
+{
+    (void)s;
+    study_ctx sc;
+    study_make(&sc, "profiles/demo/drone-release.yaml", NULL, 0);
+    each_allocation_fails_in_turn("brief with a zone", call_brief, &sc);
+    study_done(&sc);
+    study_make(&sc, "tests/cli/profiles/inventory.yaml", NULL, 0);
+    each_allocation_fails_in_turn("brief of an inventory", call_brief, &sc);
+    study_done(&sc);
+}
+
 /* Allocations one call makes (recorded, none failing). */
 static unsigned long allocations_of(call_fn call, void *ctx)
 {
@@ -663,6 +694,7 @@ int main(void)
         cmocka_unit_test(test_sweeps_and_limits_fail_cleanly_at_every_allocation),
         cmocka_unit_test(test_zones_fail_cleanly_at_every_allocation_on_one_and_two_threads),
         cmocka_unit_test(test_nothing_is_allocated_per_fall_or_per_sample),
+        cmocka_unit_test(test_a_brief_fails_cleanly_at_every_allocation),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
