@@ -444,7 +444,7 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
         sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
                    sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 1);
         sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font,
-                   sheet_fmt(d, "%s", plumbp_t_energy(P, v->criterion->energy_limit_j)), 1);
+                   sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)), 1);
         sheet_text(d, d->left + cx[3] * w, d->y, 0.0, font,
                    sheet_fmt(d, "%s", num(P, v->ratio, RATIO_SIG)), 1);
         sheet_text(d, d->left + cx[4] * w, d->y, 0.0, v->exceeds ? bold : font,

@@ -312,7 +312,11 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
                 continue;
             const plumb_limit_result *r = &w0->limits[v];
             if (r->outcome == PLUMB_LIMIT_FOUND) {
-                where = sheet_fmt(d, ", reached at %s", plumbp_t_len(P, r->value_si));
+                /* rounded down when lower heights keep within the limit:
+                 * the printed height is a safe one */
+                where = sheet_fmt(d, ", reached at %s",
+                                  r->limit_is_upper_bound ? plumbp_t_limit(P, plumbp_t_len, r->value_si)
+                                                          : plumbp_t_len(P, r->value_si));
                 if (r->value_si * ls <= a.x1 && n_marks < PLUMB_MAX_VERDICTS) {
                     mark_x[n_marks] = sheet_ax_x(&a, r->value_si * ls);
                     mark_y[n_marks++] = py;
@@ -325,7 +329,7 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         }
         const char *label =
             sheet_fmt(d, "\x02%s: %s%s", sheet_esc(d, c->id),
-                      sheet_fmt(d, "%s", plumbp_t_energy(P, c->energy_limit_j)), where);
+                      sheet_fmt(d, "%s", plumbp_t_limit_energy(P, c->energy_limit_j)), where);
         double lh = 10.0, ty = py - lh;
         if (ty > below - lh)
             ty = below - lh;
