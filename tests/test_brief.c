@@ -24,33 +24,8 @@
 
 #define G0 9.80665
 
-typedef struct fixture {
-    plumb_units *units;
-    plumb_criteria *criteria;
-} fixture;
-
-static int setup(void **state)
-{
-    plumbt_setup_gsl(state);
-    fixture *f = calloc(1, sizeof *f);
-    plumb_diag d;
-    char dir[1024];
-    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
-    if (!f || plumb_units_alloc(&f->units, &d) != PLUMB_OK ||
-        plumb_criteria_load_dir(dir, f->units, &f->criteria, &d) != PLUMB_OK)
-        return -1;
-    *state = f;
-    return 0;
-}
-
-static int teardown(void **state)
-{
-    fixture *f = *state;
-    plumb_criteria_free(f->criteria);
-    plumb_units_free(f->units);
-    free(f);
-    return 0;
-}
+/* the units and the bundled criteria (tests/support/plumb_test.h) */
+typedef plumbt_fixture fixture;
 
 /* An invented drag-free payload thrown level at 3.1 m/s east from 17.3 m. */
 static const char drag_free_yaml[] =
@@ -183,5 +158,5 @@ int main(void)
         cmocka_unit_test(test_an_inventory_is_ordered_worst_first),
         cmocka_unit_test(test_a_bad_job_value_is_refused),
     };
-    return cmocka_run_group_tests(tests, setup, teardown);
+    return cmocka_run_group_tests(tests, plumbt_setup_units_criteria, plumbt_teardown_units_criteria);
 }

@@ -23,33 +23,8 @@
 #include "plumb/plumb.h"
 #include "plumb_test.h"
 
-typedef struct fixture {
-    plumb_units *units;
-    plumb_criteria *criteria;
-} fixture;
-
-static int setup(void **state)
-{
-    plumbt_setup_gsl(state);
-    fixture *f = calloc(1, sizeof *f);
-    plumb_diag d;
-    char dir[1024];
-    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
-    if (!f || plumb_units_alloc(&f->units, &d) != PLUMB_OK ||
-        plumb_criteria_load_dir(dir, f->units, &f->criteria, &d) != PLUMB_OK)
-        return -1;
-    *state = f;
-    return 0;
-}
-
-static int teardown(void **state)
-{
-    fixture *f = *state;
-    plumb_criteria_free(f->criteria);
-    plumb_units_free(f->units);
-    free(f);
-    return 0;
-}
+/* the units and the bundled criteria (tests/support/plumb_test.h) */
+typedef plumbt_fixture fixture;
 
 static void drag_free_spec(plumb_fall_spec *s, double m_kg, double h_m, double v0_east)
 {
@@ -240,5 +215,5 @@ int main(void)
         cmocka_unit_test(test_the_study_limit_meets_the_work_energy_theorem),
         cmocka_unit_test(test_a_study_of_a_profile_gives_the_closed_form_in_constant_air),
     };
-    return cmocka_run_group_tests(tests, setup, teardown);
+    return cmocka_run_group_tests(tests, plumbt_setup_units_criteria, plumbt_teardown_units_criteria);
 }

@@ -25,26 +25,20 @@ else bad "the kit's item given in lb is not answered in lb:"; grep "payload.mass
 
 # CSV: value and unit in the unit the key was given in (here ft, and oz
 # in a US report)
-"$bin" limit "$p" --find release.height --energy-max 40J --set 'release.height=100 ft' \
-  --format csv >"$tmp/c" 2>&1 || bad "limit CSV in ft failed"
-if /usr/bin/python3 - "$tmp/c" 0.3048 ft <<'PY'
+check_csv() { # UNIT FACTOR ARGS...: value and unit of the CSV in UNIT
+  unit=$1; factor=$2; shift 2
+  "$bin" limit "$@" --format csv >"$tmp/c" 2>&1 || { bad "limit CSV $*: $(cat "$tmp/c")"; return; }
+  if /usr/bin/python3 - "$tmp/c" "$factor" "$unit" <<'PY'
 import csv, sys
 rows = list(csv.DictReader(l for l in open(sys.argv[1]) if not l.startswith("#")))
 r = rows[0]
 sys.exit(0 if r["unit"] == sys.argv[3] and
          abs(float(r["value"]) * float(sys.argv[2]) / float(r["value_si"]) - 1) < 1e-9 else 1)
 PY
-then ok; else bad "limit CSV not in ft:"; cat "$tmp/c"; fi
-"$bin" limit "$p" --find payload.mass --energy-max 40J --set 'payload.mass=18 oz' --units us \
-  --format csv >"$tmp/c" 2>&1 || bad "limit CSV in oz failed"
-if /usr/bin/python3 - "$tmp/c" 0.028349523125 oz <<'PY'
-import csv, sys
-rows = list(csv.DictReader(l for l in open(sys.argv[1]) if not l.startswith("#")))
-r = rows[0]
-sys.exit(0 if r["unit"] == sys.argv[3] and
-         abs(float(r["value"]) * float(sys.argv[2]) / float(r["value_si"]) - 1) < 1e-9 else 1)
-PY
-then ok; else bad "limit CSV not in oz:"; cat "$tmp/c"; fi
+  then ok; else bad "limit CSV not in $unit:"; cat "$tmp/c"; fi
+}
+check_csv ft 0.3048 "$p" --find release.height --energy-max 40J --set 'release.height=100 ft'
+check_csv oz 0.028349523125 "$p" --find payload.mass --energy-max 40J --set 'payload.mass=18 oz' --units us
 
 # a wind speed in a US report is in mph, as a crew reads it (1 mph =
 # 0.44704 m/s exactly, NIST SP 811 (2008) B.8), whatever it was given in

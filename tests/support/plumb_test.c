@@ -45,6 +45,33 @@ int plumbt_setup_gsl(void **state)
     return 0;
 }
 
+int plumbt_setup_units_criteria(void **state)
+{
+    plumbt_setup_gsl(state);
+    plumbt_fixture *f = calloc(1, sizeof *f);
+    plumb_diag d;
+    char dir[1024];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    if (!f || plumb_units_alloc(&f->units, &d) != PLUMB_OK ||
+        plumb_criteria_load_dir(dir, f->units, &f->criteria, &d) != PLUMB_OK) {
+        if (f)
+            plumb_units_free(f->units);
+        free(f);
+        return -1;
+    }
+    *state = f;
+    return 0;
+}
+
+int plumbt_teardown_units_criteria(void **state)
+{
+    plumbt_fixture *f = *state;
+    plumb_criteria_free(f->criteria);
+    plumb_units_free(f->units);
+    free(f);
+    return 0;
+}
+
 const char *plumbt_srcdir(void)
 {
     const char *d = getenv("PLUMB_SRCDIR");

@@ -38,6 +38,16 @@ struct plumb_atmosphere *plumbt_constant_air_rho(double rho_kg_m3);
 /* The U.S. Standard Atmosphere 1976 with a temperature offset dt_k. */
 struct plumb_atmosphere *plumbt_std_air(double dt_k);
 
+/* The units and the bundled criteria, for a group of tests that open
+ * studies: plumbt_setup_units_criteria puts a plumbt_fixture in *state (it
+ * also calls plumbt_setup_gsl); plumbt_teardown_units_criteria frees it. */
+typedef struct plumbt_fixture {
+    struct plumb_units *units;
+    struct plumb_criteria *criteria;
+} plumbt_fixture;
+int plumbt_setup_units_criteria(void **state);
+int plumbt_teardown_units_criteria(void **state);
+
 /* Root of the source tree (where profiles/ lives): $PLUMB_SRCDIR or ".". */
 const char *plumbt_srcdir(void);
 
