@@ -540,6 +540,13 @@ static void test_a_suggested_unit_is_of_the_wanted_dimension(void **state)
     has(m, "did you mean \"5 kg\"?");
     suggestion_reads_as(state, m, PLUMB_DIM_MASS);
 
+    /* mb is the millibarn (the barn, 1e-28 m^2: SI Brochure, 9th ed.,
+     * table 8); a pressure means mbar */
+    m = message_of(state, "1000 mb", PLUMB_DIM_PRESSURE, PLUMB_EUNIT);
+    has(m, "(an area: mb is the millibarn, an area)");
+    has(m, "did you mean \"1000 mbar\"?");
+    suggestion_reads_as(state, m, PLUMB_DIM_PRESSURE);
+
     /* C is the coulomb (SI Brochure table 4); a temperature means degC */
     m = message_of(state, "15 C", PLUMB_DIM_TEMPERATURE, PLUMB_EUNIT);
     has(m, "(an electric charge: C is the coulomb)");

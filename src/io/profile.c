@@ -271,6 +271,7 @@ typedef struct kseg {
 typedef struct keypath {
     size_t n;
     kseg seg[KEY_SEGS];
+    int line; /* of a --set: which one (the "--set" pseudo-file's line) */
 } keypath;
 
 static int key_char(char c)
@@ -285,12 +286,13 @@ static int key_char(char c)
  * Errors are located at (file, line 1, column of the fault) when file is
  * not NULL. */
 static plumb_status keypath_resolve(const char *key, keypath *kp, const char *file,
-                                    plumb_diag *diag)
+                                    int file_line, plumb_diag *diag)
 {
     const plumby_schema *cur = &root_schema;
     size_t pos = 0;
-    int line = file ? 1 : 0;
+    int line = file ? file_line : 0;
     kp->n = 0;
+    kp->line = file_line > 0 ? file_line : 1;
 #define KP_COL(p) (file ? (int)(p) + 1 : 0)
     if (!key[0])
         return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(0), key,
@@ -416,7 +418,7 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
     keypath kp;
     if (!key || !dim)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_key_dim: NULL argument");
-    plumb_status st = keypath_resolve(key, &kp, NULL, diag);
+    plumb_status st = keypath_resolve(key, &kp, NULL, 0, diag);
     if (st != PLUMB_OK)
         return st;
     const kseg *leaf = &kp.seg[kp.n - 1];
@@ -431,13 +433,13 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
 
 /* ---- overrides --------------------------------------------------------- */
 
-PLUMBP_PRINTF(5, 6)
-static plumb_status set_raise(plumb_diag *diag, plumb_status st, int col, const char *key,
-                              const char *fmt, ...)
+PLUMBP_PRINTF(6, 7)
+static plumb_status set_raise(plumb_diag *diag, plumb_status st, int line, int col,
+                              const char *key, const char *fmt, ...)
 {
     va_list ap;
     va_start(ap, fmt);
-    plumbp_vraise(diag, st, PLUMBY_SET_FILE, 1, col, key, fmt, ap);
+    plumbp_vraise(diag, st, PLUMBY_SET_FILE, line, col, key, fmt, ap);
     va_end(ap);
     return st;
 }
@@ -458,7 +460,7 @@ static long item_named(const plumby_node *list, const char *name)
 #define ITEM_LIST_MAX 200
 
 /* Raises "no item is named ...", with the nearest name and the names. */
-static plumb_status no_item_named(plumb_diag *diag, const kseg *s, const char *key,
+static plumb_status no_item_named(plumb_diag *diag, int line, const kseg *s, const char *key,
                                   const plumby_node *list)
 {
     const char *names[64];
@@ -482,7 +484,7 @@ static plumb_status no_item_named(plumb_diag *diag, const kseg *s, const char *k
         len += (size_t)snprintf(all + len, sizeof all - len, "%s'%s'", len ? ", " : "", name);
     }
     const char *near = plumbp_closest(s->item, names, n);
-    return set_raise(diag, PLUMB_EKEY, s->col, key, "no item is named '%s'%s%s%s; the items are %s",
+    return set_raise(diag, PLUMB_EKEY, line, s->col, key, "no item is named '%s'%s%s%s; the items are %s",
                      s->item, near ? " (did you mean '" : "", near ? near : "",
                      near ? "'?)" : "", all[0] ? all : "unnamed");
 }
@@ -498,7 +500,7 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
         int last = i + 1 == kp->n;
         if (cur->kind != PLUMBY_MAP) {
             char found[64];
-            st = set_raise(diag, PLUMB_EINVAL, s->col, key,
+            st = set_raise(diag, PLUMB_EINVAL, kp->line, s->col, key,
                            "cannot set it: the profile gives %s at line %d, column %d, not a map",
                            plumby_describe(cur, found, sizeof found), cur->line, cur->col);
             goto fail;
@@ -509,15 +511,15 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
                 if (pair) {
                     plumby_free(pair->value);
                     pair->value = value;
-                } else if ((st = plumby_map_push(cur, s->name, 1, s->col, PLUMBY_FROM_SET,
+                } else if ((st = plumby_map_push(cur, s->name, kp->line, s->col, PLUMBY_FROM_SET,
                                                  value)) != PLUMB_OK) {
                     goto nomem;
                 }
                 return PLUMB_OK;
             }
             if (!pair) {
-                plumby_node *m = plumby_new(PLUMBY_MAP, 1, s->col, PLUMBY_FROM_SET);
-                if (!m || plumby_map_push(cur, s->name, 1, s->col, PLUMBY_FROM_SET, m) != PLUMB_OK) {
+                plumby_node *m = plumby_new(PLUMBY_MAP, kp->line, s->col, PLUMBY_FROM_SET);
+                if (!m || plumby_map_push(cur, s->name, kp->line, s->col, PLUMBY_FROM_SET, m) != PLUMB_OK) {
                     plumby_free(m);
                     goto nomem;
                 }
@@ -532,14 +534,14 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
         plumby_node *list;
         if (!pair) {
             if (s->index != 0) {
-                st = set_raise(diag, PLUMB_ERANGE, s->col, key,
+                st = set_raise(diag, PLUMB_ERANGE, kp->line, s->col, key,
                                "'%s' has no items yet: the first one is %s[%d]", s->name, s->name,
                                base);
                 goto fail;
             }
-            list = plumby_new(PLUMBY_SEQ, 1, s->col, PLUMBY_FROM_SET);
+            list = plumby_new(PLUMBY_SEQ, kp->line, s->col, PLUMBY_FROM_SET);
             if (!list ||
-                plumby_map_push(cur, s->name, 1, s->col, PLUMBY_FROM_SET, list) != PLUMB_OK) {
+                plumby_map_push(cur, s->name, kp->line, s->col, PLUMBY_FROM_SET, list) != PLUMB_OK) {
                 plumby_free(list);
                 goto nomem;
             }
@@ -567,7 +569,7 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
         }
         if (list->kind != PLUMBY_SEQ) {
             char found[64];
-            st = set_raise(diag, PLUMB_EINVAL, s->col, key,
+            st = set_raise(diag, PLUMB_EINVAL, kp->line, s->col, key,
                            "cannot index it: the profile gives %s for '%s' at line %d, column %d, "
                            "not a list",
                            plumby_describe(list, found, sizeof found), s->name, list->line,
@@ -578,7 +580,7 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
         if (s->index == KSEG_NAMED) {
             long found = item_named(list, s->item);
             if (found < 0) {
-                st = no_item_named(diag, s, key, list);
+                st = no_item_named(diag, kp->line, s, key, list);
                 goto fail;
             }
             idx = (size_t)found;
@@ -586,7 +588,7 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
             idx = (size_t)s->index;
         }
         if (idx > list->n) {
-            st = set_raise(diag, PLUMB_ERANGE, s->col, key,
+            st = set_raise(diag, PLUMB_ERANGE, kp->line, s->col, key,
                            "index %zu is past the end: '%s' has %zu item%s (the next is [%zu])",
                            idx + (size_t)base, s->name, list->n, list->n == 1 ? "" : "s",
                            list->n + (size_t)base);
@@ -602,7 +604,7 @@ static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *k
             return PLUMB_OK;
         }
         if (idx == list->n) {
-            plumby_node *m = plumby_new(PLUMBY_MAP, 1, s->col, PLUMBY_FROM_SET);
+            plumby_node *m = plumby_new(PLUMBY_MAP, kp->line, s->col, PLUMBY_FROM_SET);
             if (!m || plumby_seq_push(list, m) != PLUMB_OK) {
                 plumby_free(m);
                 goto nomem;
@@ -693,26 +695,42 @@ static void drop_alternatives(plumby_node *root, const keypath *kp)
 
 /* Applies one "KEY=VALUE" to the tree; VALUE ~ or null removes KEY; a key
  * given instead of another (see alternatives) replaces it. */
-static plumb_status apply_set(plumby_node *root, const char *arg, plumb_diag *diag)
+/* Every node of a --set value at `line`: the overrides are the lines of
+ * the "--set" pseudo-file, so an error names which --set it is in. */
+static void set_lines(plumby_node *n, int line)
+{
+    if (!n)
+        return;
+    n->line = line;
+    for (size_t i = 0; n->items && i < n->n; i++)
+        set_lines(n->items[i], line);
+    for (size_t i = 0; n->pairs && i < n->n; i++) {
+        n->pairs[i].line = line;
+        set_lines(n->pairs[i].value, line);
+    }
+}
+
+/* Applies the override `arg`, the line-th --set (counted from 1). */
+static plumb_status apply_set(plumby_node *root, const char *arg, int line, plumb_diag *diag)
 {
     const char *eq = strchr(arg, '=');
     if (!eq || eq == arg)
-        return set_raise(diag, PLUMB_EPARSE, 1, "",
+        return set_raise(diag, PLUMB_EPARSE, line, 1, "",
                          "expected KEY=VALUE (e.g. release.height=\"30 ft\"), found '%s'", arg);
     char key[PLUMB_DIAG_KEY];
     size_t klen = (size_t)(eq - arg);
     if (klen >= sizeof key)
-        return set_raise(diag, PLUMB_EPARSE, 1, "", "the key of '%s' is too long", arg);
+        return set_raise(diag, PLUMB_EPARSE, line, 1, "", "the key of '%s' is too long", arg);
     memcpy(key, arg, klen);
     key[klen] = '\0';
     keypath kp;
-    plumb_status st = keypath_resolve(key, &kp, PLUMBY_SET_FILE, diag);
+    plumb_status st = keypath_resolve(key, &kp, PLUMBY_SET_FILE, line, diag);
     if (st != PLUMB_OK)
         return st;
     const char *val = eq + 1;
     int col0 = (int)klen + 1;
     if (strspn(val, " ") == strlen(val))
-        return set_raise(diag, PLUMB_EPARSE, col0 + 1, key,
+        return set_raise(diag, PLUMB_EPARSE, line, col0 + 1, key,
                          "expected a value after '=', found nothing");
     size_t lead = strspn(val, " "), vlen = strlen(val + lead);
     while (vlen > 0 && val[lead + vlen - 1] == ' ')
@@ -723,8 +741,12 @@ static plumb_status apply_set(plumby_node *root, const char *arg, plumb_diag *di
     }
     plumby_node *node;
     st = plumby_parse(val, strlen(val), PLUMBY_SET_FILE, PLUMBY_FROM_SET, col0, key, &node, diag);
-    if (st != PLUMB_OK)
+    if (st != PLUMB_OK) {
+        if (diag && strcmp(diag->file, PLUMBY_SET_FILE) == 0)
+            diag->line = line;
         return st;
+    }
+    set_lines(node, line);
     st = tree_put(root, &kp, key, node, diag);
     if (st == PLUMB_OK)
         drop_alternatives(root, &kp);
@@ -1637,7 +1659,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     st = plumb_profile_key_dim(pr->key, &dim, &kd);
     if (st != PLUMB_OK)
         return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, st, "%s", kd.message);
-    (void)keypath_resolve(pr->key, &kp, NULL, NULL);
+    (void)keypath_resolve(pr->key, &kp, NULL, 0, NULL);
     const plumby_schema *ks = kp.seg[kp.n - 1].schema;
     if (ks->type == PLUMBY_T_LIST)
         ks = &ks->sub[0];
@@ -1910,7 +1932,7 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
         }
         if (tree->kind != PLUMBY_MAP)
             break; /* reported by the check below */
-        if ((st = apply_set(tree, sets[i], diag)) != PLUMB_OK) {
+        if ((st = apply_set(tree, sets[i], (int)i + 1, diag)) != PLUMB_OK) {
             plumby_free(tree);
             return st;
         }
@@ -2304,7 +2326,7 @@ static const plumby_node *key_node(const plumb_profile *p, size_t item, const ch
     else
         snprintf(full, sizeof full, "%s", key);
     keypath kp;
-    if (!p->tree || keypath_resolve(full, &kp, NULL, NULL) != PLUMB_OK)
+    if (!p->tree || keypath_resolve(full, &kp, NULL, 0, NULL) != PLUMB_OK)
         return NULL;
     const plumby_node *n = tree_get(p->tree, &kp);
     return n && n->kind == PLUMBY_SCALAR ? n : NULL;

@@ -58,6 +58,8 @@ static const struct {
     {"kilo", PLUMB_DIM_MASS, "kg", NULL},
     {"kilos", PLUMB_DIM_MASS, "kg", "\"kilos\" reads as kiloseconds"},
     {"kgs", PLUMB_DIM_MASS, "kg", NULL},
+    /* the barn is 1e-28 m^2 (BIPM SI Brochure, 9th ed., table 8) */
+    {"mb", PLUMB_DIM_PRESSURE, "mbar", "mb is the millibarn, an area"},
     {"C", PLUMB_DIM_TEMPERATURE, "degC", "C is the coulomb"},
     {"C", PLUMB_DIM_TEMP_DIFF, "degC", "C is the coulomb"},
     {"F", PLUMB_DIM_TEMPERATURE, "degF", "F is the farad"},
@@ -309,8 +311,10 @@ plumb_status plumbp_units_raise_compass(plumb_diag *diag, int sign, const char *
     return PLUMB_RAISE(diag, PLUMB_EUNIT,
                        "expected an angle (deg), found \"%.*s\": compass letters are not units; "
                        "a latitude or longitude is a signed number of degrees, north and east "
-                       "positive: write \"%s%.*s deg\"",
-                       UNITS_SHOW_MAX, shown, negative ? "-" : "", UNITS_SHOW_MAX, digits);
+                       "positive: write \"%s%.*s deg\"; a direction is degrees clockwise from "
+                       "north (\"%.*s deg\") or a compass point alone (\"NE\")",
+                       UNITS_SHOW_MAX, shown, negative ? "-" : "", UNITS_SHOW_MAX, digits,
+                       UNITS_SHOW_MAX, digits);
 }
 
 /* Raises the error of a number written with a comma ("6,5 m", "1,500 m"):

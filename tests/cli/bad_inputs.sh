@@ -136,6 +136,15 @@ refused "limit --find items[2].mass" "items[2].mass: " "find payload.mass instea
   -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
+# with several --set, the error names which: the N-th --set is line N of
+# the "--set" pseudo-file (issue 9)
+refused "the second --set is wrong" "plumb: --set:2:14: payload.mass: " \
+  "does not start with a number" -- fall "$good" --set release.height=30m --set "payload.mass=heavy" --format json
+refused "the third --set names an unknown key" "plumb: --set:3:9: release.hieght: " \
+  -- fall "$good" --set release.height=30m --set wind.speed=5m/s --set release.hieght=3m --format json
+# a compass letter on a direction says what a direction takes
+refused "--set a direction with a compass letter" "plumb: --set:1:11: wind.from: " \
+  'a compass point alone ("NE")' -- fall "$good" --set "wind.from=54.2 N" --format json
 # a criterion's id mistyped in --energy-max gets the nearest id (issue 9)
 refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
   "did you mean en397-shock-49j?" -- limit "$good" --find release.height --energy-max en397-shock --format json
