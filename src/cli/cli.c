@@ -267,6 +267,11 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 cli_args_free(a);
                 return cli_usage_error(a->cmd, "%s needs a file name", arg[1] == 'o' ? "-o" : name);
             }
+            struct stat sb;
+            if (stat(value, &sb) == 0 && S_ISDIR(sb.st_mode)) {
+                cli_args_free(a);
+                return cli_usage_error(a->cmd, "-o %s is a directory; give a file name", value);
+            }
             a->output = value;
         } else if (strcmp(name, "--quiet") == 0) {
             a->quiet = 1;

@@ -125,6 +125,15 @@ fails "limit -o into a missing directory" "No such file or directory" \
 fails "air -o into a missing directory" "No such file or directory" \
   air --alt 0m:1km:500m -o "$tmp/out/none/a.txt"
 
+# -o naming a directory is the user's slip, not the machine's: exit 2
+# before anything is computed, and the directory is left as it was
+rm -rf "$tmp/out"; mkdir "$tmp/out"
+"$bin" fall "$prof" -o "$tmp/out" >"$tmp/stdout" 2>"$tmp/stderr"
+rc=$?
+if [ $rc -eq 2 ] && grep -q "is a directory; give a file name" "$tmp/stderr" &&
+   [ -d "$tmp/out" ] && [ -z "$(ls -A "$tmp/out")" ]; then ok
+else bad "-o a directory: exit $rc ($(cat "$tmp/stderr"))"; fi
+
 # The file size limit (setrlimit RLIMIT_FSIZE, 1 block of 512 bytes): the
 # write fails with EFBIG (SIGXFSZ ignored), the temporary file goes.
 rm -rf "$tmp/out"; mkdir "$tmp/out"
