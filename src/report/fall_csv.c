@@ -125,8 +125,8 @@ void plumbp_csv_fall(writer *w, const plumb_fall_report *rep)
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
         snprintf(text, sizeof text,
-                 "criterion %s: %s, kind %s, limit %.*g J, source: %s, status %s", c->id, c->name,
-                 plumbp_crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 "criterion %s: %s, kind %s, limit %s, source: %s, status %s", c->id, c->name,
+                 plumbp_crit_kind_name(c->kind), plumbp_csv_limit(w, c->energy_limit_j),
                  c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }

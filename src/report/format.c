@@ -10,6 +10,7 @@
  * of mercury (NIST SP 811, 2008, Appendix B.8: 1 inHg = 3.386389e3 Pa).
  * Energy is always shown in both joules and foot pound-force.
  */
+#include <float.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -167,7 +168,9 @@ double plumbp_round_safe(double x, int sig, int round_down)
         return x;
     double scale = pow(10.0, floor(log10(fabs(x))) - (sig - 1));
     double q = x / scale, whole = nearbyint(q);
-    if (fabs(q - whole) <= 1e-9 * fabs(q))
+    /* within the round-off of a conversion, a few units in the last
+     * place of q, not a fraction of the last digit shown */
+    if (fabs(q - whole) <= 16.0 * DBL_EPSILON * fabs(q))
         return whole * scale;
     return (round_down ? floor(q) : ceil(q)) * scale;
 }
@@ -186,6 +189,22 @@ const char *plumbp_t_limit(writer *w, const char *(*t)(writer *, double), double
 const char *plumbp_t_limit_energy(writer *w, double j)
 {
     return plumbp_t_limit(w, plumbp_t_energy, j);
+}
+
+/* A criterion's energy limit in a CSV comment, CSV_DIGITS figures rounded
+ * down (the strict side): "33.89544871 J", or with --units us
+ * "25 ft·lbf (33.89544871 J)". */
+const char *plumbp_csv_limit(writer *w, double j)
+{
+    char si[32], us[32]; /* CSV_DIGITS figures and an exponent */
+    snprintf(si, sizeof si, "%s", csvnum(w, plumbp_round_safe(j, CSV_DIGITS, 1)));
+    snprintf(us, sizeof us, "%s", csvnum(w, plumbp_round_safe(j / PLUMB_FT_LBF_J, CSV_DIGITS, 1)));
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft·lbf (%s J)", us, si);
+    else
+        snprintf(b, NUMBUF, "%s J", si);
+    return b;
 }
 
 /* x in the shortest of %g's forms with `sig` significant digits ("0.9"). */

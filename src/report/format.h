@@ -73,6 +73,7 @@ const char *plumbp_t_energy(writer *w, double j);
 double plumbp_round_safe(double x, int sig, int round_down);
 const char *plumbp_t_limit(writer *w, const char *(*t)(writer *, double), double x);
 const char *plumbp_t_limit_energy(writer *w, double j);
+const char *plumbp_csv_limit(writer *w, double j);
 const char *plumbp_t_mass(writer *w, double kg);
 const char *plumbp_t_area(writer *w, double m2);
 const char *plumbp_t_force(writer *w, double n);

@@ -176,8 +176,8 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
     if (c) {
         char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 2];
         snprintf(line, sizeof line,
-                 "criterion %s: %s, kind %s, limit %.*g J, source: %s, status %s", c->id, c->name,
-                 plumbp_crit_kind_name(c->kind), CSV_DIGITS, c->energy_limit_j,
+                 "criterion %s: %s, kind %s, limit %s, source: %s, status %s", c->id, c->name,
+                 plumbp_crit_kind_name(c->kind), plumbp_csv_limit(w, c->energy_limit_j),
                  c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
         csv_comment(w, line);
     }

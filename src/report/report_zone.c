@@ -643,8 +643,8 @@ static void csv_report(writer *w, const plumb_zone_report *rep)
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;
-        put(w, "# criterion %s: %s, limit %s J, source: %s, status %s\n", cr->id, cr->name,
-            csvnum(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
+        put(w, "# criterion %s: %s, limit %s, source: %s, status %s\n", cr->id, cr->name,
+            plumbp_csv_limit(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
             cr->status[0] ? cr->status : "not given");
     }
     for (size_t i = 0; i < rep->n_items; i++) {

@@ -579,8 +579,8 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
     const plumb_item_report *first = &r0->report.items[0];
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
-        snprintf(text, sizeof text, "criterion %s: %s, limit %.*g J, source: %s, status %s", c->id,
-                 c->name, CSV_DIGITS, c->energy_limit_j, c->source[0] ? c->source : "not given",
+        snprintf(text, sizeof text, "criterion %s: %s, limit %s, source: %s, status %s", c->id,
+                 c->name, plumbp_csv_limit(w, c->energy_limit_j), c->source[0] ? c->source : "not given",
                  c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }

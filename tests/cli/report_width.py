@@ -154,6 +154,15 @@ for prof in DEMO:
     grav = [l for l in out.splitlines() if "gravity" in l]
     check(rc == 0 and grav and all("ft/s²" in l and "m/s²" not in l for l in grav),
           f"fall {os.path.basename(prof)} --units us: gravity line {grav}")
+# CSV criteria comments in US units give the limit in ft*lbf first; each
+# figure rounded down at 10 digits (the strict side): 25 ft lbf =
+# 25 x 1.3558179483 J = 33.8954487075 J -> 33.8954487 J (1959 agreement,
+# CGPM 1901)
+rc, out, err = plumb("fall", os.path.join(ROOT, "profiles", "demo", "drone-release.yaml"),
+                     "--format", "csv", "--units", "us")
+check(rc == 0 and "limit 25 ft·lbf (33.8954487 J)" in out,
+      f"fall CSV --units us: criterion limit in ft·lbf, strict side: "
+      f"{[l for l in out.splitlines() if l.startswith('# criterion')][:1]}")
 # a wind speed in a US zone report is in mph, as in the fall report
 # (1 mph = 0.44704 m/s exactly, NIST SP 811 (2008) B.8)
 rc, out, err = plumb("zone", os.path.join(ROOT, "profiles", "demo", "drone-canopy.yaml"),
