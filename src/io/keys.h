@@ -6,10 +6,10 @@
  * its dotted key, its dimension, its allowed range, where it lives in a
  * resolved plumb_fall_spec (or the atmosphere spec), when it applies to a
  * given spec, and what else changes when it changes. The profile loader's
- * schema (profile.c) gives the same dimensions and ranges; the test
+ * schema (profile_schema.c) gives the same dimensions and ranges; the test
  * tests/test_keys.c fails when the two disagree. plumb_fall_spec_field,
- * the zone's sampler ranges (dispersion.c), the limit's scan (inverse.c)
- * and the sweep read the table.
+ * the zone's sampler ranges (dispersion_sampler.c), the limit's scan
+ * (inverse.c) and the sweep read the table.
  *
  * Keys are written in their general form: an inventory's items[N].X is
  * payload.X; descent[i].X is descent.X; a list's rows are "[]"
@@ -109,7 +109,7 @@ double *plumbp_key_field(const plumbp_key *k, plumb_fall_spec *spec, plumb_atm_s
  * is refused. Can't fail. */
 void plumbp_key_bounds(const plumbp_key *k, double *lo, double *hi, int *lo_open);
 
-/* The profile loader's schema (profile.c), for tests/test_keys.c. */
+/* The profile loader's schema (profile_schema.c), for tests/test_keys.c. */
 const plumby_schema *plumbp_profile_schema(void);
 
 #endif /* PLUMB_IO_KEYS_H */

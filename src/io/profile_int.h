@@ -1,0 +1,121 @@
+/*
+ * profile_int.h - what the files of the profile module share: profile.c
+ * (loading, building, interpreting and reading a profile back),
+ * profile_schema.c (the schema of the keys), profile_set.c (dotted key
+ * paths: --set overrides, key dimensions and units), profile_item.c (a
+ * payload or item: drag, shape, descent devices, glide), profile_scene.c
+ * (release, site, atmosphere, wind, turbulence), profile_study.c
+ * (criteria, uncertainty, zone, job) and profile_spec.c (a profile of a
+ * spec built in code). The profile's definition, the loader, the key
+ * path, the schema items the readers walk, and the functions called
+ * across files (plumbp_profile_ prefix). Internal to libplumb; not
+ * installed.
+ */
+#ifndef PLUMB_PROFILE_INT_H
+#define PLUMB_PROFILE_INT_H
+
+#include <stddef.h>
+
+#include "plumb/constants.h"
+#include "plumb/profile.h"
+#include "core/internal.h"
+#include "io/keys.h"
+#include "io/sha256.h"
+#include "io/yamltree.h"
+
+#define ARRAY_LEN(a) (sizeof(a) / sizeof((a)[0]))
+
+/* Defaults of the zone: map (README "Profile keys"). */
+#define ZONE_SAMPLES_DEFAULT 100000ull   /* zone.samples */
+#define ZONE_SAMPLES_MAX 100000000ull    /* zone.samples upper bound, 1e8 */
+#define ZONE_SEED_DEFAULT 1ull           /* zone.seed */
+#define ZONE_CONFIDENCE_DEFAULT 0.99     /* zone.confidence */
+/* Most characters of a --set KEY path segment list. */
+enum { KEY_SEGS = 16 };
+
+/* ---- the profile ------------------------------------------------------- */
+
+struct plumb_profile {
+    char *path;                      /* as given to load */
+    char name[PLUMB_NAME];           /* `name:` or the file stem */
+    char sha256[PLUMBP_SHA256_HEX];  /* of the file's bytes */
+    plumby_node *tree;               /* the tree after overrides, for derive */
+    int inventory;                   /* 1: items: */
+    size_t n_items;
+    plumb_fall_spec *items;          /* n_items specs */
+    plumb_shape_spec *shapes;        /* n_items shapes (kind NONE: drag given) */
+    double (*att_drag)[PLUMB_MAX_ATTITUDES][2]; /* n_items rows: payload.attitude's drag, or NULL */
+    plumb_atm_spec atm;              /* tables point into atm_* */
+    double *atm_alt_m, *atm_rho_kg_m3, *atm_t_k;
+    double *wind_h_m, *wind_e_m_s, *wind_n_m_s; /* the specs' wind table */
+    size_t n_criteria;
+    char **criteria;
+    int (*criteria_pos)[3];          /* line, column, plumby_origin of each */
+    size_t n_unc;
+    plumb_uncertainty *unc;
+    plumb_zone_spec zone;
+    plumb_job job;                   /* `job:`, "" where not given */
+};
+
+/* kseg.index when the segment has no [index], or selects an item by name */
+enum { KSEG_NONE = -1, KSEG_NAMED = -2 };
+
+typedef struct kseg {
+    char name[PLUMB_DIAG_KEY];     /* key in its map (for uncertainty: the whole rest) */
+    long index;                    /* [i] counted from 0, KSEG_NONE or KSEG_NAMED */
+    char item[PLUMB_NAME];         /* KSEG_NAMED: the item's name, items[NAME] */
+    int col;                       /* 1-based position of the segment in the key */
+    const plumby_schema *schema;   /* its schema; NULL under uncertainty */
+} kseg;
+
+typedef struct keypath {
+    size_t n;
+    kseg seg[KEY_SEGS];
+    int line; /* of a --set: which one (the "--set" pseudo-file's line) */
+} keypath;
+
+/* ---- interpretation ---------------------------------------------------- */
+
+typedef struct loader {
+    plumby_ctx ctx;
+    plumb_profile *p;
+    plumby_map root;
+    double height_m;        /* release.height */
+    double elevation_m;     /* site.elevation */
+} loader;
+
+static inline plumb_status nomem(const loader *L)
+{
+    return PLUMB_RAISE(L->ctx.diag, PLUMB_ENOMEM, "out of memory loading the profile");
+}
+
+/* The schema's list items that the readers walk (profile_schema.c). */
+extern const plumby_schema plumbp_profile_edge_item[];
+extern const plumby_schema plumbp_profile_atm_row_item[];
+extern const plumby_schema plumbp_profile_wind_row_item[];
+
+/* profile_set.c */
+plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
+                                            int file_line, plumb_diag *diag);
+plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
+                                      plumb_diag *diag);
+
+/* profile_item.c */
+plumb_status plumbp_profile_read_item(const loader *L, const plumby_map *im, int is_item,
+                                      const plumb_fall_spec *base, plumb_fall_spec *spec,
+                                      plumb_shape_spec *shape);
+
+/* profile_scene.c */
+plumb_status plumbp_profile_map_point(loader *L, const plumby_map *m, double en[2]);
+plumb_status plumbp_profile_read_release_site(loader *L, plumb_fall_spec *base);
+plumb_status plumbp_profile_read_atmosphere(loader *L);
+plumb_status plumbp_profile_read_turbulence(loader *L, plumb_turbulence_spec *t);
+plumb_status plumbp_profile_read_wind(loader *L, plumb_wind_spec *w);
+
+/* profile_study.c */
+plumb_status plumbp_profile_read_criteria(loader *L);
+plumb_status plumbp_profile_read_uncertainty(loader *L);
+plumb_status plumbp_profile_read_zone(loader *L);
+plumb_status plumbp_profile_read_job(loader *L);
+
+#endif

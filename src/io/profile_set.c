@@ -1,0 +1,555 @@
+/*
+ * profile_set.c - dotted key paths into a profile ("descent[1].area",
+ * "items[box of M12 bolts].mass"): resolved against the schema, applied
+ * to the parsed tree as `--set KEY=VALUE` overrides (with the keys they
+ * make moot dropped), and used to tell a key's dimension
+ * (plumb_profile_key_dim) and the unit it was given in
+ * (plumb_profile_key_unit).
+ */
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "io/profile_int.h"
+
+/* ---- key paths (overrides and plumb_profile_key_dim) -------------------- */
+
+static int key_char(char c)
+{
+    return (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '_' || c == '-';
+}
+
+/* Resolves a dotted key ("descent[1].area") against the schema. Lists count
+ * from 0, except the top-level items, which count from 1 as every report
+ * numbers them ("items[2]" is index 1; "items[0]" is an error) and may be
+ * named ("items[box of M12 bolts]", KSEG_NAMED, found in the tree later).
+ * Errors are located at (file, line 1, column of the fault) when file is
+ * not NULL. */
+plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
+                                            int file_line, plumb_diag *diag)
+{
+    const plumby_schema *cur = plumbp_profile_schema();
+    size_t pos = 0;
+    int line = file ? file_line : 0;
+    kp->n = 0;
+    kp->line = file_line > 0 ? file_line : 1;
+#define KP_COL(p) (file ? (int)(p) + 1 : 0)
+    if (!key[0])
+        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(0), key,
+                              "expected a dotted key such as release.height, found nothing");
+    for (;;) {
+        if (kp->n >= KEY_SEGS)
+            return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                  "a key of more than %d parts", KEY_SEGS);
+        kseg *s = &kp->seg[kp->n];
+        s->col = KP_COL(pos);
+        s->index = KSEG_NONE;
+        s->item[0] = '\0';
+        if (cur->type == PLUMBY_T_FREE_MAP) {
+            /* uncertainty: the rest is one (dotted) key */
+            if (!key[pos])
+                return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                      "expected a key after '%.*s'", (int)pos, key);
+            plumbp_strlcpy(s->name, key + pos, sizeof s->name);
+            s->schema = NULL;
+            kp->n++;
+            return PLUMB_OK;
+        }
+        size_t start = pos;
+        while (key_char(key[pos]))
+            pos++;
+        if (pos == start)
+            return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                  "expected a key name (a-z, 0-9, _ or -) at '%s'", key + pos);
+        size_t len = pos - start;
+        if (len >= sizeof s->name)
+            len = sizeof s->name - 1;
+        memcpy(s->name, key + start, len);
+        s->name[len] = '\0';
+        const plumby_schema *child = plumby_schema_child(cur, s->name);
+        if (!child) {
+            const char *best = plumby_schema_suggest(cur, s->name);
+            if (best)
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s' (did you mean '%.*s%s'?)", key,
+                                      (int)start, key, best);
+            return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                  "unknown key '%s': '%s' is not a key of %s", key, s->name,
+                                  start ? "this map" : "a profile");
+        }
+        s->schema = child;
+        if (key[pos] == '[') {
+            if (child->type != PLUMBY_T_LIST && child->type != PLUMBY_T_MAP_OR_LIST)
+                return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                      "'%s' is not a list, so it takes no [index]", s->name);
+            size_t d0 = ++pos;
+            /* an inventory's items: numbered from 1 as in the reports, or named */
+            int items = kp->n == 0 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0;
+            long idx = 0;
+            while (key[pos] >= '0' && key[pos] <= '9') {
+                if (idx > 1000000)
+                    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file, line, KP_COL(d0), key,
+                                          "index too large");
+                idx = idx * 10 + (key[pos] - '0');
+                pos++;
+            }
+            if (items && key[pos] != ']' && key[pos] != '\0') {
+                const char *close = strchr(key + d0, ']');
+                size_t nlen = close ? (size_t)(close - (key + d0)) : 0;
+                if (!close)
+                    return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(d0), key,
+                                          "expected items[N], N from 1, or items[NAME]: no "
+                                          "closing ']'");
+                if (nlen >= sizeof s->item)
+                    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file, line, KP_COL(d0), key,
+                                          "an item's name has at most %d characters",
+                                          (int)sizeof s->item - 1);
+                memcpy(s->item, key + d0, nlen);
+                s->item[nlen] = '\0';
+                pos = d0 + nlen + 1;
+                s->index = KSEG_NAMED;
+            } else {
+                if (pos == d0 || key[pos] != ']')
+                    return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                          items ? "expected items[N], N from 1, or items[NAME]"
+                                                : "expected [N] with a whole number N");
+                if (items && idx == 0)
+                    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file, line, KP_COL(d0), key,
+                                          "items are numbered from 1, as in the reports: "
+                                          "items[1] is the first item");
+                pos++;
+                s->index = items ? idx - 1 : idx;
+            }
+        }
+        kp->n++;
+        if (key[pos] == '\0')
+            return PLUMB_OK;
+        if (key[pos] != '.')
+            return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos), key,
+                                  "unexpected character '%c' in the key", key[pos]);
+        pos++;
+        switch (child->type) {
+        case PLUMBY_T_LIST:
+            if (s->index == KSEG_NONE)
+                return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos - 1), key,
+                                      "'%s' is a list: give an index, e.g. %s[%d].%s", s->name,
+                                      s->name, kp->n == 1 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0,
+                                      key + pos);
+            cur = &child->sub[0];
+            if (cur->type != PLUMBY_T_MAP)
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, KP_COL(pos), key,
+                                      "the items of '%s' have no keys", s->name);
+            break;
+        case PLUMBY_T_MAP:
+        case PLUMBY_T_MAP_OR_LIST:
+        case PLUMBY_T_FREE_MAP:
+            cur = child;
+            break;
+        default:
+            return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, KP_COL(pos), key,
+                                  "'%s' is a single value; it has no keys under it", s->name);
+        }
+    }
+#undef KP_COL
+}
+
+plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *diag)
+{
+    keypath kp;
+    if (!key || !dim)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_key_dim: NULL argument");
+    plumb_status st = plumbp_profile_keypath_resolve(key, &kp, NULL, 0, diag);
+    if (st != PLUMB_OK)
+        return st;
+    const kseg *leaf = &kp.seg[kp.n - 1];
+    const plumby_schema *s = leaf->schema;
+    if (s && s->type == PLUMBY_T_LIST && leaf->index != KSEG_NONE)
+        s = &s->sub[0];
+    if (!s || (s->type != PLUMBY_T_NUM && s->type != PLUMBY_T_COUNT))
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
+    *dim = s->type == PLUMBY_T_NUM ? s->dim : PLUMB_DIM_NONE;
+    return PLUMB_OK;
+}
+
+/* ---- overrides --------------------------------------------------------- */
+
+PLUMBP_PRINTF(6, 7)
+static plumb_status set_raise(plumb_diag *diag, plumb_status st, int line, int col,
+                              const char *key, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    plumbp_vraise(diag, st, PLUMBY_SET_FILE, line, col, key, fmt, ap);
+    va_end(ap);
+    return st;
+}
+
+/* Index of the item of list whose name is `name`, or -1. */
+static long item_named(const plumby_node *list, const char *name)
+{
+    for (size_t i = 0; i < list->n; i++) {
+        const plumby_node *it = list->items[i];
+        const plumby_pair *np = it->kind == PLUMBY_MAP ? plumby_find(it, "name") : NULL;
+        if (np && np->value->kind == PLUMBY_SCALAR && strcmp(np->value->text, name) == 0)
+            return (long)i;
+    }
+    return -1;
+}
+
+/* Most bytes of the item names an "no item is named" message lists. */
+#define ITEM_LIST_MAX 200
+
+/* Raises "no item is named ...", with the nearest name and the names. */
+static plumb_status no_item_named(plumb_diag *diag, int line, const kseg *s, const char *key,
+                                  const plumby_node *list)
+{
+    const char *names[64];
+    size_t n = 0;
+    char all[ITEM_LIST_MAX];
+    size_t len = 0;
+    all[0] = '\0';
+    for (size_t i = 0; i < list->n; i++) {
+        const plumby_node *it = list->items[i];
+        const plumby_pair *np = it->kind == PLUMBY_MAP ? plumby_find(it, "name") : NULL;
+        if (!np || np->value->kind != PLUMBY_SCALAR)
+            continue;
+        const char *name = np->value->text;
+        if (n < sizeof names / sizeof names[0])
+            names[n++] = name;
+        if (len + strlen(name) + 8 + sizeof ", ..." > sizeof all) {
+            if (len + sizeof ", ..." <= sizeof all)
+                len += (size_t)snprintf(all + len, sizeof all - len, ", ...");
+            continue;
+        }
+        len += (size_t)snprintf(all + len, sizeof all - len, "%s'%s'", len ? ", " : "", name);
+    }
+    const char *near = plumbp_closest(s->item, names, n);
+    return set_raise(diag, PLUMB_EKEY, line, s->col, key, "no item is named '%s'%s%s%s; the items are %s",
+                     s->item, near ? " (did you mean '" : "", near ? near : "",
+                     near ? "'?)" : "", all[0] ? all : "unnamed");
+}
+
+/* Puts value (owned; freed on error) at the key path in root. */
+static plumb_status tree_put(plumby_node *root, const keypath *kp, const char *key,
+                             plumby_node *value, plumb_diag *diag)
+{
+    plumby_node *cur = root;
+    plumb_status st = PLUMB_OK;
+    for (size_t i = 0; i < kp->n; i++) {
+        const kseg *s = &kp->seg[i];
+        int last = i + 1 == kp->n;
+        if (cur->kind != PLUMBY_MAP) {
+            char found[64];
+            st = set_raise(diag, PLUMB_EINVAL, kp->line, s->col, key,
+                           "cannot set it: the profile gives %s at line %d, column %d, not a map",
+                           plumby_describe(cur, found, sizeof found), cur->line, cur->col);
+            goto fail;
+        }
+        plumby_pair *pair = plumby_find(cur, s->name);
+        if (s->index == KSEG_NONE) {
+            if (last) {
+                if (pair) {
+                    plumby_free(pair->value);
+                    pair->value = value;
+                } else if ((st = plumby_map_push(cur, s->name, kp->line, s->col, PLUMBY_FROM_SET,
+                                                 value)) != PLUMB_OK) {
+                    goto nomem;
+                }
+                return PLUMB_OK;
+            }
+            if (!pair) {
+                plumby_node *m = plumby_new(PLUMBY_MAP, kp->line, s->col, PLUMBY_FROM_SET);
+                if (!m || plumby_map_push(cur, s->name, kp->line, s->col, PLUMBY_FROM_SET, m) != PLUMB_OK) {
+                    plumby_free(m);
+                    goto nomem;
+                }
+                cur = m;
+            } else {
+                cur = pair->value;
+            }
+            continue;
+        }
+        /* indexed; items count from 1 in what people see */
+        int base = i == 0 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0;
+        plumby_node *list;
+        if (!pair) {
+            if (s->index != 0) {
+                st = set_raise(diag, PLUMB_ERANGE, kp->line, s->col, key,
+                               "'%s' has no items yet: the first one is %s[%d]", s->name, s->name,
+                               base);
+                goto fail;
+            }
+            list = plumby_new(PLUMBY_SEQ, kp->line, s->col, PLUMBY_FROM_SET);
+            if (!list ||
+                plumby_map_push(cur, s->name, kp->line, s->col, PLUMBY_FROM_SET, list) != PLUMB_OK) {
+                plumby_free(list);
+                goto nomem;
+            }
+        } else {
+            list = pair->value;
+        }
+        if (list->kind == PLUMBY_MAP && s->schema && s->schema->type == PLUMBY_T_MAP_OR_LIST) {
+            /* one device given as a map: it is [0]; [1] makes it a list */
+            if (s->index == 0) {
+                if (last) {
+                    plumby_free(pair->value);
+                    pair->value = value;
+                    return PLUMB_OK;
+                }
+                cur = list;
+                continue;
+            }
+            plumby_node *seq = plumby_new(PLUMBY_SEQ, list->line, list->col, list->origin);
+            if (!seq || plumby_seq_push(seq, list) != PLUMB_OK) {
+                plumby_free(seq);
+                goto nomem;
+            }
+            pair->value = seq;
+            list = seq;
+        }
+        if (list->kind != PLUMBY_SEQ) {
+            char found[64];
+            st = set_raise(diag, PLUMB_EINVAL, kp->line, s->col, key,
+                           "cannot index it: the profile gives %s for '%s' at line %d, column %d, "
+                           "not a list",
+                           plumby_describe(list, found, sizeof found), s->name, list->line,
+                           list->col);
+            goto fail;
+        }
+        size_t idx;
+        if (s->index == KSEG_NAMED) {
+            long found = item_named(list, s->item);
+            if (found < 0) {
+                st = no_item_named(diag, kp->line, s, key, list);
+                goto fail;
+            }
+            idx = (size_t)found;
+        } else {
+            idx = (size_t)s->index;
+        }
+        if (idx > list->n) {
+            st = set_raise(diag, PLUMB_ERANGE, kp->line, s->col, key,
+                           "index %zu is past the end: '%s' has %zu item%s (the next is [%zu])",
+                           idx + (size_t)base, s->name, list->n, list->n == 1 ? "" : "s",
+                           list->n + (size_t)base);
+            goto fail;
+        }
+        if (last) {
+            if (idx < list->n) {
+                plumby_free(list->items[idx]);
+                list->items[idx] = value;
+            } else if (plumby_seq_push(list, value) != PLUMB_OK) {
+                goto nomem;
+            }
+            return PLUMB_OK;
+        }
+        if (idx == list->n) {
+            plumby_node *m = plumby_new(PLUMBY_MAP, kp->line, s->col, PLUMBY_FROM_SET);
+            if (!m || plumby_seq_push(list, m) != PLUMB_OK) {
+                plumby_free(m);
+                goto nomem;
+            }
+        }
+        cur = list->items[idx];
+    }
+    return PLUMB_OK;
+nomem:
+    st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory applying --set %s", key);
+fail:
+    plumby_free(value);
+    return st;
+}
+
+/* Removes the node at the key path, if there is one. */
+static void tree_remove(plumby_node *root, const keypath *kp)
+{
+    plumby_node *cur = root;
+    for (size_t i = 0; i < kp->n; i++) {
+        const kseg *s = &kp->seg[i];
+        plumby_pair *pair = cur->kind == PLUMBY_MAP ? plumby_find(cur, s->name) : NULL;
+        if (!pair)
+            return;
+        plumby_node *v = pair->value;
+        int last = i + 1 == kp->n;
+        if (s->index != KSEG_NONE && v->kind == PLUMBY_SEQ) {
+            long at = s->index == KSEG_NAMED ? item_named(v, s->item) : s->index;
+            if (at < 0 || (size_t)at >= v->n)
+                return;
+            size_t idx = (size_t)at;
+            if (last) {
+                plumby_free(v->items[idx]);
+                memmove(&v->items[idx], &v->items[idx + 1], (v->n - idx - 1) * sizeof *v->items);
+                v->n--;
+                return;
+            }
+            cur = v->items[idx];
+            continue;
+        }
+        if (s->index > 0 || s->index == KSEG_NAMED)
+            return;
+        if (last) {
+            size_t at = (size_t)(pair - cur->pairs);
+            free(pair->key);
+            plumby_free(pair->value);
+            memmove(&cur->pairs[at], &cur->pairs[at + 1], (cur->n - at - 1) * sizeof *cur->pairs);
+            cur->n--;
+            return;
+        }
+        cur = v;
+    }
+}
+
+/* Keys that stand instead of one another in the same map: an override of
+ * one replaces the others, so `--set descent.area=1.2m^2` works on a
+ * profile that gives the canopy's diameter (and `plumb limit --find
+ * descent.area` with it). Within a map named `parent` ("" for any). */
+static const struct { const char *parent, *key, *drops[2]; } alternatives[] = {
+    {"descent", "area", {"diameter", NULL}},
+    {"descent", "diameter", {"area", NULL}},
+    {"descent", "fill_time", {"fill_constant", NULL}},
+    {"descent", "fill_constant", {"fill_time", NULL}},
+    {"deploy", "after", {"below", NULL}},
+    {"deploy", "below", {"after", NULL}},
+    {"drag", "cd_area", {"cd", "area"}},
+};
+
+static void drop_alternatives(plumby_node *root, const keypath *kp)
+{
+    if (kp->n < 2)
+        return;
+    const kseg *last = &kp->seg[kp->n - 1], *parent = &kp->seg[kp->n - 2];
+    if (last->index != KSEG_NONE)
+        return;
+    for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
+        if (strcmp(alternatives[i].key, last->name) != 0 ||
+            strcmp(alternatives[i].parent, parent->name) != 0)
+            continue;
+        for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
+            keypath other = *kp;
+            plumbp_strlcpy(other.seg[kp->n - 1].name, alternatives[i].drops[k],
+                           sizeof other.seg[kp->n - 1].name);
+            tree_remove(root, &other);
+        }
+    }
+}
+
+/* Applies one "KEY=VALUE" to the tree; VALUE ~ or null removes KEY; a key
+ * given instead of another (see alternatives) replaces it. */
+/* Every node of a --set value at `line`: the overrides are the lines of
+ * the "--set" pseudo-file, so an error names which --set it is in. */
+static void set_lines(plumby_node *n, int line)
+{
+    if (!n)
+        return;
+    n->line = line;
+    for (size_t i = 0; n->items && i < n->n; i++)
+        set_lines(n->items[i], line);
+    for (size_t i = 0; n->pairs && i < n->n; i++) {
+        n->pairs[i].line = line;
+        set_lines(n->pairs[i].value, line);
+    }
+}
+
+/* Applies the override `arg`, the line-th --set (counted from 1). */
+plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
+                                      plumb_diag *diag)
+{
+    const char *eq = strchr(arg, '=');
+    if (!eq || eq == arg)
+        return set_raise(diag, PLUMB_EPARSE, line, 1, "",
+                         "expected KEY=VALUE (e.g. release.height=\"30 ft\"), found '%s'", arg);
+    char key[PLUMB_DIAG_KEY];
+    size_t klen = (size_t)(eq - arg);
+    if (klen >= sizeof key)
+        return set_raise(diag, PLUMB_EPARSE, line, 1, "", "the key of '%s' is too long", arg);
+    memcpy(key, arg, klen);
+    key[klen] = '\0';
+    keypath kp;
+    plumb_status st = plumbp_profile_keypath_resolve(key, &kp, PLUMBY_SET_FILE, line, diag);
+    if (st != PLUMB_OK)
+        return st;
+    const char *val = eq + 1;
+    int col0 = (int)klen + 1;
+    if (strspn(val, " ") == strlen(val))
+        return set_raise(diag, PLUMB_EPARSE, line, col0 + 1, key,
+                         "expected a value after '=', found nothing");
+    size_t lead = strspn(val, " "), vlen = strlen(val + lead);
+    while (vlen > 0 && val[lead + vlen - 1] == ' ')
+        vlen--;
+    if ((vlen == 1 && val[lead] == '~') || (vlen == 4 && strncmp(val + lead, "null", 4) == 0)) {
+        tree_remove(root, &kp);
+        return PLUMB_OK;
+    }
+    plumby_node *node;
+    st = plumby_parse(val, strlen(val), PLUMBY_SET_FILE, PLUMBY_FROM_SET, col0, key, &node, diag);
+    if (st != PLUMB_OK) {
+        if (diag && strcmp(diag->file, PLUMBY_SET_FILE) == 0)
+            diag->line = line;
+        return st;
+    }
+    set_lines(node, line);
+    st = tree_put(root, &kp, key, node, diag);
+    if (st == PLUMB_OK)
+        drop_alternatives(root, &kp);
+    return st;
+}
+
+/* ---- the unit a key was given in -------------------------------------- */
+
+/* The node at a resolved key path in a tree, or NULL: the walk of
+ * tree_remove, reading. */
+static const plumby_node *tree_get(const plumby_node *root, const keypath *kp)
+{
+    const plumby_node *cur = root;
+    for (size_t i = 0; cur && i < kp->n; i++) {
+        const kseg *s = &kp->seg[i];
+        const plumby_pair *pair = cur->kind == PLUMBY_MAP ? plumby_find(cur, s->name) : NULL;
+        if (!pair)
+            return NULL;
+        cur = pair->value;
+        if (s->index != KSEG_NONE && cur->kind == PLUMBY_SEQ) {
+            long at = s->index == KSEG_NAMED ? item_named(cur, s->item) : s->index;
+            cur = at >= 0 && (size_t)at < cur->n ? cur->items[at] : NULL;
+        } else if (s->index > 0 || s->index == KSEG_NAMED) {
+            return NULL;
+        }
+    }
+    return cur;
+}
+
+/* The scalar node of a dotted key ("release.height", "descent[1].area";
+ * for an inventory, "payload.X" is item's own X, items[item + 1].X), or
+ * NULL, through the key parser --set uses. */
+static const plumby_node *key_node(const plumb_profile *p, size_t item, const char *key)
+{
+    char full[PLUMB_DIAG_KEY + 32];
+    if (p->inventory && strncmp(key, "payload.", 8) == 0)
+        snprintf(full, sizeof full, "items[%zu].%s", item + 1, key + 8);
+    else
+        snprintf(full, sizeof full, "%s", key);
+    keypath kp;
+    if (!p->tree || plumbp_profile_keypath_resolve(full, &kp, NULL, 0, NULL) != PLUMB_OK)
+        return NULL;
+    const plumby_node *n = tree_get(p->tree, &kp);
+    return n && n->kind == PLUMBY_SCALAR ? n : NULL;
+}
+
+plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const char *key,
+                                    char *unit, size_t size)
+{
+    if (!p || !key || !unit || size == 0)
+        return PLUMB_RAISE(NULL, PLUMB_EINVAL, "plumb_profile_key_unit: NULL argument");
+    unit[0] = '\0';
+    const plumby_node *n = key_node(p, item, key);
+    if (!n || !n->text)
+        return PLUMB_OK;
+    char *end;
+    (void)strtod(n->text, &end);
+    if (end == n->text)
+        return PLUMB_OK;
+    while (*end == ' ' || *end == '\t')
+        end++;
+    plumbp_strlcpy(unit, end, size);
+    return PLUMB_OK;
+}
