@@ -202,5 +202,13 @@ refused "an uncertain attitude and an uncertain drag coefficient" \
   "plumb: $tmp/attitude-and-cd.yaml:5:3: " "the attitude sets the drag" \
   -- zone "$tmp/attitude-and-cd.yaml" --format json --threads 1
 
+# A profile naming a criterion when the criteria directory holds none.
+mkdir "$tmp/no-criteria"
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}\nrelease: {height: 6 m}\ncriteria: [en397-shock-49j]\n' \
+  >"$tmp/one-criterion.yaml"
+refused "a criterion named with no criteria loaded" \
+  "plumb: $tmp/one-criterion.yaml:3:12: criteria[0]: " "unknown criterion 'en397-shock-49j'; no criteria are loaded" \
+  -- fall "$tmp/one-criterion.yaml" --criteria-dir "$tmp/no-criteria" --format json
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
