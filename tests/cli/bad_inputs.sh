@@ -210,5 +210,18 @@ refused "a criterion named with no criteria loaded" \
   "plumb: $tmp/one-criterion.yaml:3:12: criteria[0]: " "unknown criterion 'en397-shock-49j'; no criteria are loaded" \
   -- fall "$tmp/one-criterion.yaml" --criteria-dir "$tmp/no-criteria" --format json
 
+# A criteria directory of 33 benchmarks (invented) and a profile naming none:
+# all would be judged, one more than a report holds (PLUMB_MAX_VERDICTS).
+mkdir "$tmp/many-criteria"
+i=1
+while [ $i -le 33 ]; do
+  printf 'name: Invented benchmark %d\nkind: helmet-test\nenergy_limit: %d J\napplies_to: a test\nsource: invented for a test\nstatus: memory\n' \
+    $i $((10 + i)) >"$tmp/many-criteria/t$i.yaml"
+  i=$((i + 1))
+done
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}\nrelease: {height: 6 m}\n' >"$tmp/no-criterion.yaml"
+refused "33 criteria to judge" "plumb: $tmp/no-criterion.yaml: criteria: " "33 criteria to judge; at most 32" \
+  -- fall "$tmp/no-criterion.yaml" --criteria-dir "$tmp/many-criteria" --format json
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
