@@ -384,6 +384,19 @@ static void test_a_report_with_a_figure_not_finite_is_not_written(void **state)
     }
     fflush(mem);
     assert_int_equal(len, 0); /* nothing written */
+    /* two items judged against different criteria: no common table or columns */
+    assert_true(rep->items[0].n_verdicts >= 2);
+    plumb_item_report two[2] = {rep->items[0], rep->items[0]};
+    two[1].n_verdicts--;
+    plumb_fall_report pair = {rep->profile, 2, two};
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        o.format = (plumb_format)f;
+        assert_raised(plumb_report_fall(mem, &o, &pair, &d), PLUMB_EINVAL, d);
+        assert_non_null(strstr(d.message, "item 2 was judged against other criteria"));
+    }
+    fflush(mem);
+    assert_int_equal(len, 0);
+    o.format = PLUMB_FORMAT_TEXT;
     item = rep->items[0];
     item.spec = NULL;
     assert_raised(plumb_report_fall(mem, &o, &copy, &d), PLUMB_EINVAL, d);
