@@ -179,6 +179,22 @@ static void test_a_fall_refuses_specs_that_break_its_contract(void **state)
     assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
     assert_string_equal(d.key, "descent.deploy.after");
 
+    spanner(&s);
+    s.drag.model = PLUMB_DRAG_SPHERE_MORRISON; /* Morrison's Cd(Re) needs the diameter for Re */
+    s.drag.diameter_m = 0.0;
+    s.drag.area_m2 = 0.01;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "payload.drag.diameter");
+
+    spanner(&s);
+    s.downwash.aircraft_mass_kg = -1.0;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "release.downwash");
+    spanner(&s);
+    s.downwash.disk_area_m2 = INFINITY;
+    assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
+    assert_string_equal(d.key, "release.downwash");
+
     plumb_trajectory_free(traj);
     plumb_atmosphere_free(atm);
 
@@ -207,6 +223,21 @@ static void test_writers_refuse_a_missing_report_or_stream(void **state)
     plumb_fall_report noitem = {NULL, 1, &item};
     assert_raised(plumb_report_fall(sink, &o, &noitem, &d), PLUMB_EINVAL, d);
     assert_raised(plumb_item_judge(NULL, NULL, criteria, NULL, &d), PLUMB_EINVAL, d);
+    fclose(sink);
+}
+
+/* A sweep's boundaries need a two-way sweep; the regions file a zone report. */
+static void test_boundaries_and_regions_refuse_what_they_cannot_draw(void **state)
+{
+    (void)state;
+    plumb_diag d;
+    assert_raised(plumb_sweep_find_boundaries(NULL, NULL, NULL, NULL, &d), PLUMB_EINVAL, d);
+    assert_non_null(strstr(d.message, "two-way sweep"));
+    FILE *sink = fopen("/dev/null", "w");
+    assert_non_null(sink);
+    assert_raised(plumb_report_zone_regions(sink, NULL, &d), PLUMB_EINVAL, d);
+    assert_non_null(strstr(d.message, "no zone report"));
+    assert_raised(plumb_report_zone_regions(NULL, NULL, &d), PLUMB_EINVAL, d);
     fclose(sink);
 }
 
@@ -353,6 +384,19 @@ static void test_a_report_with_a_figure_not_finite_is_not_written(void **state)
     }
     fflush(mem);
     assert_int_equal(len, 0); /* nothing written */
+    /* two items judged against different criteria: no common table or columns */
+    assert_true(rep->items[0].n_verdicts >= 2);
+    plumb_item_report two[2] = {rep->items[0], rep->items[0]};
+    two[1].n_verdicts--;
+    plumb_fall_report pair = {rep->profile, 2, two};
+    for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
+        o.format = (plumb_format)f;
+        assert_raised(plumb_report_fall(mem, &o, &pair, &d), PLUMB_EINVAL, d);
+        assert_non_null(strstr(d.message, "item 2 was judged against other criteria"));
+    }
+    fflush(mem);
+    assert_int_equal(len, 0);
+    o.format = PLUMB_FORMAT_TEXT;
     item = rep->items[0];
     item.spec = NULL;
     assert_raised(plumb_report_fall(mem, &o, &copy, &d), PLUMB_EINVAL, d);
@@ -370,6 +414,7 @@ int main(void)
         cmocka_unit_test(test_a_fall_refuses_specs_that_break_its_contract),
         cmocka_unit_test(test_writers_refuse_a_missing_report_or_stream),
         cmocka_unit_test(test_a_fall_report_to_a_full_stream_is_a_write_error),
+        cmocka_unit_test(test_boundaries_and_regions_refuse_what_they_cannot_draw),
         cmocka_unit_test(test_sweeps_samplers_and_zones_refuse_bad_arguments),
         cmocka_unit_test(test_set_keys_that_cannot_name_a_value_are_refused),
         cmocka_unit_test(test_a_report_with_a_figure_not_finite_is_not_written),

@@ -14,7 +14,8 @@
 #include "core/internal.h"
 #include "solve/sweep_internal.h"
 
-/* value_si = offset + scale x for a value x in `unit` (SI when ""). */
+/* value_si = offset + scale x for a value x in `unit` (SI when ""); 1, or 0
+ * when the unit cannot be read back, or -1 when memory ran out. */
 static int unit_map(const plumb_units *units, const char *unit, plumb_dim dim, double *offset,
                     double *scale)
 {
@@ -24,12 +25,13 @@ static int unit_map(const plumb_units *units, const char *unit, plumb_dim dim, d
         return 1;
     char text[PLUMB_UNIT_TEXT + 8];
     double zero, one;
+    plumb_status st;
     snprintf(text, sizeof text, "0 %s", unit);
-    if (plumb_units_parse(units, text, dim, &zero, NULL) != PLUMB_OK)
-        return 0;
+    if ((st = plumb_units_parse(units, text, dim, &zero, NULL)) != PLUMB_OK)
+        return st == PLUMB_ENOMEM ? -1 : 0;
     snprintf(text, sizeof text, "1 %s", unit);
-    if (plumb_units_parse(units, text, dim, &one, NULL) != PLUMB_OK || !(one != zero))
-        return 0;
+    if ((st = plumb_units_parse(units, text, dim, &one, NULL)) != PLUMB_OK || !(one != zero))
+        return st == PLUMB_ENOMEM ? -1 : 0;
     *offset = zero;
     *scale = one - zero;
     return 1;
@@ -63,6 +65,8 @@ plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *pr
     const plumb_range *a0 = plumb_sweep_axis(s, 0), *a1 = plumb_sweep_axis(s, 1);
     double off = 0.0, scale = 1.0;
     int mapped = unit_map(units, a1->unit, a1->dim, &off, &scale);
+    if (mapped < 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     for (size_t i = 0; i < a0->n; i++) {
         char set[PLUMB_DIAG_KEY + 64];
         plumb_range_set_text(a0, i, set, sizeof set);
@@ -71,6 +75,8 @@ plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *pr
         plumb_diag d;
         plumb_diag_clear(&d);
         plumb_status st = plumb_profile_derive(profile, units, sets, 1, &derived, &d);
+        if (st == PLUMB_ENOMEM) /* a failure of the machine, not a row's outcome */
+            return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
         for (size_t k = 0; k < n; k++) {
             plumb_sweep_boundary *bk = &b[i * n + k];
             bk->status = st;

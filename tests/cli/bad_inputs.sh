@@ -177,5 +177,51 @@ refused "an empty file" "plumb: $tmp/empty.yaml:1:1: " "no YAML document" \
 printf '# only a comment\n\n' >"$tmp/comment.yaml"
 refused "a comment-only file" "plumb: $tmp/comment.yaml:1:1: " -- fall "$tmp/comment.yaml" --format json
 
+# A file that is not regular (a FIFO) and longer than the most accepted: its
+# size is unknown before reading, so the reader stops at the limit.
+if mkfifo "$tmp/long.fifo" 2>/dev/null; then
+  (head -c 1100000 /dev/zero | tr '\0' a >"$tmp/long.fifo") &
+  refused "a FIFO longer than 1 MiB" "plumb: $tmp/long.fifo: " "longer than 1048576 bytes" \
+    -- fall "$tmp/long.fifo" --format json
+  wait
+  rm -f "$tmp/long.fifo"
+else
+  bad "mkfifo failed in $tmp"
+fi
+
+# Uncertainties the zone's sampler refuses (src/uq/dispersion.c), in the
+# profile itself so that the position is the file's.
+zbase='payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}
+release: {height: 60 m}
+zone: {samples: 400, seed: 5}
+uncertainty:'
+printf '%s\n  payload.drag.cd: {uniform: [0.8, 1]}\n  payload.attitude: {choice: [tumbling, end-on]}\n' \
+  "$zbase" | sed 's/drag: {cd: 0.9, area: 0.003 m^2}/shape: {kind: cylinder, length: 0.3 m, diameter: 0.05 m}/' \
+  >"$tmp/attitude-and-cd.yaml"
+refused "an uncertain attitude and an uncertain drag coefficient" \
+  "plumb: $tmp/attitude-and-cd.yaml:5:3: " "the attitude sets the drag" \
+  -- zone "$tmp/attitude-and-cd.yaml" --format json --threads 1
+
+# A profile naming a criterion when the criteria directory holds none.
+mkdir "$tmp/no-criteria"
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}\nrelease: {height: 6 m}\ncriteria: [en397-shock-49j]\n' \
+  >"$tmp/one-criterion.yaml"
+refused "a criterion named with no criteria loaded" \
+  "plumb: $tmp/one-criterion.yaml:3:12: criteria[0]: " "unknown criterion 'en397-shock-49j'; no criteria are loaded" \
+  -- fall "$tmp/one-criterion.yaml" --criteria-dir "$tmp/no-criteria" --format json
+
+# A criteria directory of 33 benchmarks (invented) and a profile naming none:
+# all would be judged, one more than a report holds (PLUMB_MAX_VERDICTS).
+mkdir "$tmp/many-criteria"
+i=1
+while [ $i -le 33 ]; do
+  printf 'name: Invented benchmark %d\nkind: helmet-test\nenergy_limit: %d J\napplies_to: a test\nsource: invented for a test\nstatus: memory\n' \
+    $i $((10 + i)) >"$tmp/many-criteria/t$i.yaml"
+  i=$((i + 1))
+done
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}\nrelease: {height: 6 m}\n' >"$tmp/no-criterion.yaml"
+refused "33 criteria to judge" "plumb: $tmp/no-criterion.yaml: criteria: " "33 criteria to judge; at most 32" \
+  -- fall "$tmp/no-criterion.yaml" --criteria-dir "$tmp/many-criteria" --format json
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

@@ -581,6 +581,20 @@ static void test_every_fall_and_its_reports_fail_cleanly_at_every_allocation(voi
     }
 }
 
+/* The boundaries of a two-way sweep kept by call_sweep (*keep). */
+static plumb_status call_sweep_boundaries(void *ctx, plumb_diag *d)
+{
+    sweep_ctx *c = ctx;
+    return plumb_study_sweep_boundaries(c->sc->study, *c->keep, d);
+}
+
+/* The regions file (CSV polygons) of the last zone made. */
+static plumb_status call_zone_regions(void *ctx, plumb_diag *d)
+{
+    zone_ctx *c = ctx;
+    return plumb_report_zone_regions(fx.sink, c->rep, d);
+}
+
 static void test_sweeps_and_limits_fail_cleanly_at_every_allocation(void **s)
 {
     (void)s;
@@ -594,6 +608,8 @@ static void test_sweeps_and_limits_fail_cleanly_at_every_allocation(void **s)
     each_allocation_fails_in_turn("two-way sweep", call_sweep, &two);
     assert_non_null(sw);
     every_report("two-way sweep", call_report_sweep, sw);
+    sweep_ctx bound = {&sc, {NULL}, 0, &sw};
+    each_allocation_fails_in_turn("two-way sweep's boundaries", call_sweep_boundaries, &bound);
     plumb_sweep_free(sw);
     study_done(&sc);
 
@@ -622,6 +638,7 @@ static void test_zones_fail_cleanly_at_every_allocation_on_one_and_two_threads(v
     plumb_diag d;
     assert_int_equal(call_zone(&two, &d), PLUMB_OK); /* the last run above failed */
     every_report("zone", call_report_zone, two.rep);
+    each_allocation_fails_in_turn("zone regions (CSV)", call_zone_regions, &two);
     study_done(&sc);
 }
 
