@@ -8,7 +8,7 @@
 #include <stddef.h>
 #include "plumb/drag.h"
 
-/* One evaluation of the fall's right-hand side (trajectory.c) at time t_s
+/* One evaluation of the fall's right-hand side (trajectory_rhs.c) at time t_s
  * and state y (x, y, z, vx, vy, vz, W), into f; for measuring its cost
  * (`make bench`). Returns 0 on success. */
 struct plumb_fall_spec;

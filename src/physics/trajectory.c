@@ -14,6 +14,9 @@
  * variable.
  *
  * State y: x, y, z (m), vx, vy, vz (m/s), W (J, work done by drag).
+ *
+ * This file runs the fall; trajectory_int.h names the files of its
+ * right-hand side, workspace and terminal speed.
  */
 #include <math.h>
 #include <stdlib.h>
@@ -28,643 +31,7 @@
 #include "plumb/trajectory.h"
 #include "core/internal.h"
 #include "physics/physics.h"
-
-#define NSTATE 7
-enum { IX = 0, IY, IZ, IVX, IVY, IVZ, IW };
-
-/* Height of the start of the Henon phase above the event may not be
- * reached with an upward or level velocity: the step before is halved
- * until the object is descending. Bounded. */
-#define MAX_HALVINGS 60
-/* Power-law wind: height below which the fall ends in Henon's s variable. */
-#ifndef GROUND_SWITCH_M
-#define GROUND_SWITCH_M 5.0
-#endif
-/* Height at which the wind is taken for the right-hand side at or below
- * the strike level (see local_at), m: far below any step the integrator
- * resolves, yet positive. */
-#define WIND_Z_MIN_M 1e-9
-/* Location of the peak opening force: Brent iterations and time tolerance, s.
- * Near a smooth maximum F(t* + d) = F* (1 - d^2 / (2 tau^2)) with tau the
- * force's time scale (0.01 s or more through a fill), so 1e-6 s places the
- * peak force to 5e-9 relative at worst, 5e-11 at tau = 0.1 s (measured: the
- * drone-canopy demo's peak is the same to all 17 digits as at 1e-9 s, with
- * 1477 right-hand-side evaluations instead of 5915). */
-#define PEAK_MAX_ITER 100
-#define PEAK_ABS_TOL_S 1e-6
-/* Fraction of the predicted time to an event covered by the approach step. */
-#define APPROACH_FRACTION 0.9
-/* A rise this far above the drag-free apex means the object is buoyant. */
-#define RISE_MARGIN_M 1.0
-
-static double body_cda(const plumb_drag_spec *d);
-typedef struct fall_ctx fall_ctx;
-static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm);
-
-/* ---- per-run context of the right-hand side ---------------------------- */
-
-typedef struct device_state {
-    int deployed;        /* line stretch reached */
-    int removed;         /* replaced by the next device */
-    double t_ls_s;       /* line-stretch time */
-    double fill_s;       /* fill time */
-    double cds_m2;       /* full canopy CdS */
-    double j;            /* inflation exponent */
-} device_state;
-
-struct fall_ctx {
-    const plumb_fall_spec *spec;
-    const plumb_atmosphere *atm;
-    double inv_m;               /* 1 / mass */
-    double body_cda_m2;         /* fixed-model CdA */
-    int sphere;                 /* 1: Cd(Re) sphere model */
-    double air_lo_m, air_hi_m;  /* altitudes the air model covers */
-    int wind_table;             /* 1: table wind, components looked up */
-    double wind_dir[2];         /* else: east, north components of a unit wind */
-    size_t n_dev;
-    device_state dev[PLUMB_MAX_DESCENT];
-    size_t evals;               /* RHS evaluations */
-    plumb_status fail;          /* set when the RHS cannot be evaluated */
-    double fail_alt_m;
-    double vt_max_m_s;          /* fixed drag: largest body terminal speed at the accepted points */
-    plumb_downwash dw;          /* the rotor wake at release, if any */
-    int turb;                   /* 1: realised gusts are added to the wind */
-    double w20_m_s;             /* their W20 */
-};
-
-static void ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm)
-{
-    memset(c, 0, sizeof *c);
-    c->spec = spec;
-    c->atm = atm;
-    c->inv_m = 1.0 / spec->mass_kg;
-    c->body_cda_m2 = body_cda(&spec->drag);
-    c->sphere = spec->drag.model != PLUMB_DRAG_FIXED;
-    c->n_dev = spec->n_descent;
-    c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;
-    plumb_atmosphere_range(atm, &c->air_lo_m, &c->air_hi_m);
-    plumb_wind_components(1.0, spec->wind.from_deg, &c->wind_dir[0], &c->wind_dir[1]);
-    c->w20_m_s = plumb_fall_w20(spec);
-    c->turb = spec->turbulence.model != PLUMB_TURB_NONE && spec->turbulence.n_modes > 0 &&
-              c->w20_m_s > 0.0;
-    if (spec->downwash.aircraft_mass_kg > 0.0 && spec->downwash.disk_area_m2 > 0.0) {
-        double alt = spec->site_elevation_m + spec->release_m[2];
-        plumb_air air;
-        if (plumb_atmosphere_at(atm, alt, &air) == PLUMB_OK) {
-            double we, wn;
-            plumb_wind_at(&spec->wind, spec->release_m[2], &we, &wn);
-            const double *v = spec->velocity_m_s;
-            double rel[2] = {we - v[0], wn - v[1]};
-            plumb_downwash_init(&spec->downwash, air.rho_kg_m3,
-                                plumb_gravity_at(&spec->gravity, alt), spec->release_m, v, rel,
-                                &c->dw);
-        }
-    }
-}
-
-/* Local air, relative velocity and drag acceleration at (t, y). */
-typedef struct local {
-    plumb_air air;
-    double g;
-    double vr[3];
-    double vr_abs;
-    double re;
-    double cda;
-} local;
-
-static double devices_cds(const fall_ctx *c, double t)
-{
-    double s = 0.0;
-    for (size_t i = 0; i < c->n_dev; i++) {
-        const device_state *d = &c->dev[i];
-        if (!d->deployed || d->removed || t < d->t_ls_s)
-            continue;
-        double f = d->fill_s > 0.0 ? (t - d->t_ls_s) / d->fill_s : 1.0;
-        s += d->cds_m2 * plumb_inflation_fraction(f, d->j);
-    }
-    return s;
-}
-
-static int local_at(fall_ctx *c, double t, const double y[], local *L)
-{
-    const plumb_fall_spec *s = c->spec;
-    double alt = s->site_elevation_m + y[IZ];
-    if (!(alt >= c->air_lo_m && alt <= c->air_hi_m)) {
-        /* A trial stage of a long step (or a stage past the strike level)
-         * can leave the air model's range: it gets the air at the nearest
-         * edge, so the stepper's error control, not a failed evaluation,
-         * rejects the step. Accepted points are checked in observe(). */
-        alt = alt < c->air_lo_m ? c->air_lo_m : alt > c->air_hi_m ? c->air_hi_m : NAN;
-        if (isnan(alt))
-            return GSL_EDOM; /* a stage of an unstable step overflowed: retry shorter */
-    }
-    if (plumb_atmosphere_at(c->atm, alt, &L->air) != PLUMB_OK) {
-        c->fail = PLUMB_EOUTSIDE;
-        c->fail_alt_m = alt;
-        return GSL_EDOM;
-    }
-    L->g = plumb_gravity_at(&s->gravity, alt);
-    /* The wind is calm at and below the strike level, but only the path
-     * above it is ever used: at z <= 0 (the impact point itself, and trial
-     * stages past it) the right-hand side takes the wind just above the
-     * ground, so that a wind that does not vanish there (uniform, table)
-     * gives no jump for the stepper to resolve at the very end of the fall
-     * (measured: 1003 evaluations became 449 for the benchmark drone case
-     * in uniform wind). The integrated path is the same. */
-    double zw = y[IZ] > WIND_Z_MIN_M ? y[IZ] : WIND_Z_MIN_M;
-    double we, wn;
-    if (c->wind_table) {
-        plumb_wind_at(&s->wind, zw, &we, &wn);
-    } else {
-        double w = plumb_wind_speed_at(&s->wind, zw);
-        we = w * c->wind_dir[0];
-        wn = w * c->wind_dir[1];
-    }
-    double wz = 0.0;
-    if (c->turb) {
-        /* u along the mean wind (toward where it blows), v to its left, w up */
-        double g[3];
-        plumb_turbulence_at(&s->turbulence, c->w20_m_s, zw, t, g);
-        we += g[0] * c->wind_dir[0] - g[1] * c->wind_dir[1];
-        wn += g[0] * c->wind_dir[1] + g[1] * c->wind_dir[0];
-        wz += g[2];
-    }
-    if (c->dw.on) {
-        double w3[3];
-        plumb_downwash_at(&c->dw, t, y, w3);
-        we += w3[0];
-        wn += w3[1];
-        wz += w3[2];
-    }
-    L->vr[0] = y[IVX] - we;
-    L->vr[1] = y[IVY] - wn;
-    L->vr[2] = y[IVZ] - wz;
-    L->vr_abs = sqrt(L->vr[0] * L->vr[0] + L->vr[1] * L->vr[1] + L->vr[2] * L->vr[2]);
-    if (c->sphere) {
-        L->re = L->air.rho_kg_m3 * L->vr_abs * s->drag.diameter_m / L->air.mu_pa_s;
-        L->cda = plumb_drag_cd_area(&s->drag, L->re);
-    } else {
-        L->re = 0.0;
-        L->cda = c->body_cda_m2;
-    }
-    if (c->n_dev)
-        L->cda += devices_cds(c, t);
-    return GSL_SUCCESS;
-}
-
-static int rhs_time(double t, const double y[], double f[], void *params)
-{
-    fall_ctx *c = params;
-    local L;
-    c->evals++;
-    int rc = local_at(c, t, y, &L);
-    if (rc != GSL_SUCCESS)
-        return rc;
-    if (!isfinite(L.vr_abs) || !isfinite(y[IVZ]))
-        return GSL_EDOM; /* as above: retry shorter */
-    double k = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * c->inv_m;
-    f[IX] = y[IVX];
-    f[IY] = y[IVY];
-    f[IZ] = y[IVZ];
-    f[IVX] = -k * L.vr[0];
-    f[IVY] = -k * L.vr[1];
-    f[IVZ] = -k * L.vr[2] - L.g + L.air.rho_kg_m3 * c->spec->volume_m3 * L.g * c->inv_m;
-    f[IW] = -k * (L.vr[0] * y[IVX] + L.vr[1] * y[IVY] + L.vr[2] * y[IVZ]) / c->inv_m;
-    return GSL_SUCCESS;
-}
-
-int plumbp_fall_rhs(const plumb_fall_spec *spec, const plumb_atmosphere *atm, double t_s,
-                    const double y[NSTATE], double f[NSTATE])
-{
-    fall_ctx c;
-    ctx_init(&c, spec, atm);
-    return rhs_time(t_s, y, f, &c);
-}
-
-/* Finite-difference Jacobian for the implicit stepper (msbdf). */
-static int jac_time(double t, const double y[], double *dfdy, double dfdt[], void *params)
-{
-    double f0[NSTATE], f1[NSTATE], yp[NSTATE];
-    if (rhs_time(t, y, f0, params) != GSL_SUCCESS)
-        return GSL_EBADFUNC;
-    for (int j = 0; j < NSTATE; j++) {
-        memcpy(yp, y, sizeof yp);
-        double h = 1e-7 * (fabs(y[j]) + 1.0);
-        yp[j] += h;
-        if (rhs_time(t, yp, f1, params) != GSL_SUCCESS)
-            return GSL_EBADFUNC;
-        for (int i = 0; i < NSTATE; i++)
-            dfdy[i * NSTATE + j] = (f1[i] - f0[i]) / h;
-    }
-    double ht = 1e-7 * (fabs(t) + 1.0);
-    if (rhs_time(t + ht, y, f1, params) != GSL_SUCCESS)
-        return GSL_EBADFUNC;
-    for (int i = 0; i < NSTATE; i++)
-        dfdt[i] = (f1[i] - f0[i]) / ht;
-    return GSL_SUCCESS;
-}
-
-/* Henon's system: independent variable s = y[k]; state u = y with u[k]
- * replaced by the time t. du/ds = f / f[k], du[k]/ds = 1 / f[k]. */
-/* With a power-law wind w ~ z^alpha the shear is unbounded at the ground,
- * and a stepper in z crawls toward it. Substituting z = target + s^m with
- * m = 1/alpha makes w ~ s, smooth: d(state)/ds = d(state)/dz m s^(m-1).
- * (m = 1 is Henon's plain form.) */
-typedef struct henon_ctx {
-    fall_ctx *fall;
-    int k;
-    double target;   /* the event value of y[k] */
-    double m;        /* z = target + s^m; 1 for the plain form (s = y[k]) */
-} henon_ctx;
-
-static int rhs_henon(double s, const double u[], double du[], void *params)
-{
-    henon_ctx *h = params;
-    double y[NSTATE], f[NSTATE];
-    memcpy(y, u, sizeof y);
-    double dyds = 1.0;
-    if (h->m == 1.0) {
-        y[h->k] = s;
-    } else {
-        double sm1 = s > 0.0 ? pow(s, h->m - 1.0) : 0.0;
-        y[h->k] = h->target + sm1 * s;
-        dyds = h->m * sm1;
-    }
-    double t = u[h->k];
-    int rc = rhs_time(t, y, f, h->fall);
-    if (rc != GSL_SUCCESS)
-        return rc;
-    if (f[h->k] == 0.0)
-        return GSL_EBADFUNC;
-    double inv = dyds / f[h->k];
-    for (int i = 0; i < NSTATE; i++)
-        du[i] = f[i] * inv;
-    du[h->k] = inv;
-    return GSL_SUCCESS;
-}
-
-double plumb_fall_w20(const plumb_fall_spec *spec)
-{
-    const plumb_turbulence_spec *t = &spec->turbulence;
-    if (t->model == PLUMB_TURB_NONE)
-        return 0.0;
-    if (t->w20_m_s > 0.0 || !t->from_wind)
-        return t->w20_m_s;
-    double e, n;
-    plumb_wind_at(&spec->wind, PLUMB_TURB_W20_HEIGHT_M, &e, &n);
-    return hypot(e, n);
-}
-
-const char *plumb_descent_kind_name(plumb_descent_kind kind)
-{
-    switch (kind) {
-    case PLUMB_DESCENT_STREAMER: return "streamer";
-    case PLUMB_DESCENT_DROGUE: return "drogue";
-    case PLUMB_DESCENT_PARACHUTE:
-    default: return "parachute";
-    }
-}
-
-/* ---- workspace ------------------------------------------------------------ */
-
-struct plumb_trajectory {
-    plumb_trajectory_options opt;
-    fall_ctx ctx;                  /* the run's right-hand-side context */
-    gsl_odeiv2_system sys;         /* rhs_time over ctx */
-    gsl_odeiv2_driver *msbdf;      /* msbdf needs a driver; its evolve/control are used */
-    gsl_odeiv2_step *step[2];      /* rk8pd, rkf45 */
-    gsl_odeiv2_control *control;
-    gsl_odeiv2_evolve *evolve;
-    gsl_odeiv2_step *side_step;    /* rk8pd for Henon phases and halvings */
-    gsl_odeiv2_control *side_control;
-    gsl_odeiv2_evolve *side_evolve;
-    gsl_root_fsolver *root;        /* terminal speed: Brent root finder */
-    gsl_min_fminimizer *min;       /* terminal speed: Brent minimiser */
-    plumb_path_point *path;
-    size_t path_n, path_cap;
-};
-
-void plumb_trajectory_options_init(plumb_trajectory_options *opt)
-{
-    opt->stepper = PLUMB_STEPPER_AUTO;
-    opt->rel_tol = 1e-9;
-    opt->abs_tol = 1e-12;
-    opt->event_rel_tol = 1e-10;
-    opt->event_abs_tol = 1e-10;
-    opt->first_step_s = 1e-3;
-    opt->max_steps = 2000000;
-    opt->max_time_s = 86400.0;
-    opt->stiff_ratio = 3000.0;
-    opt->stiff_rel_tol = 1e-12;
-    opt->stiff_abs_tol = 1e-14;
-    opt->energy_check_tol = 1e-8;
-    opt->speed_check_tol = 1e-9;
-    opt->record_path = 0;
-}
-
-void plumb_trajectory_free(plumb_trajectory *traj)
-{
-    if (!traj)
-        return;
-    for (int i = 0; i < 2; i++)
-        if (traj->step[i])
-            gsl_odeiv2_step_free(traj->step[i]);
-    if (traj->msbdf)
-        gsl_odeiv2_driver_free(traj->msbdf);
-    if (traj->control)
-        gsl_odeiv2_control_free(traj->control);
-    if (traj->evolve)
-        gsl_odeiv2_evolve_free(traj->evolve);
-    if (traj->side_step)
-        gsl_odeiv2_step_free(traj->side_step);
-    if (traj->side_control)
-        gsl_odeiv2_control_free(traj->side_control);
-    if (traj->side_evolve)
-        gsl_odeiv2_evolve_free(traj->side_evolve);
-    if (traj->root)
-        gsl_root_fsolver_free(traj->root);
-    if (traj->min)
-        gsl_min_fminimizer_free(traj->min);
-    free(traj->path);
-    free(traj);
-}
-
-plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_trajectory **out)
-{
-    *out = NULL;
-    plumb_trajectory *t = calloc(1, sizeof *t);
-    if (!t)
-        return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
-    if (opt)
-        t->opt = *opt;
-    else
-        plumb_trajectory_options_init(&t->opt);
-    if (!(t->opt.rel_tol > 0.0) || !(t->opt.abs_tol >= 0.0) || t->opt.max_steps == 0 ||
-        !(t->opt.max_time_s > 0.0) || !(t->opt.first_step_s > 0.0) ||
-        !(t->opt.event_rel_tol > 0.0) || !(t->opt.event_abs_tol >= 0.0) ||
-        !(t->opt.stiff_rel_tol > 0.0) || !(t->opt.stiff_abs_tol >= 0.0) ||
-        !(t->opt.energy_check_tol > 0.0) || !(t->opt.speed_check_tol >= 0.0)) {
-        free(t);
-        return PLUMB_RAISE(NULL, PLUMB_EINVAL, "invalid trajectory options");
-    }
-    t->step[0] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
-    t->step[1] = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rkf45, NSTATE);
-    t->sys = (gsl_odeiv2_system){rhs_time, jac_time, NSTATE, &t->ctx};
-    t->msbdf = gsl_odeiv2_driver_alloc_y_new(&t->sys, gsl_odeiv2_step_msbdf, t->opt.first_step_s,
-                                             t->opt.stiff_abs_tol, t->opt.stiff_rel_tol);
-    t->control = gsl_odeiv2_control_y_new(t->opt.abs_tol, t->opt.rel_tol);
-    t->evolve = gsl_odeiv2_evolve_alloc(NSTATE);
-    t->side_step = gsl_odeiv2_step_alloc(gsl_odeiv2_step_rk8pd, NSTATE);
-    t->side_control = gsl_odeiv2_control_y_new(t->opt.event_abs_tol, t->opt.event_rel_tol);
-    t->side_evolve = gsl_odeiv2_evolve_alloc(NSTATE);
-    t->root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    t->min = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    if (!t->step[0] || !t->step[1] || !t->msbdf || !t->control || !t->evolve ||
-        !t->side_step || !t->side_control || !t->side_evolve || !t->root || !t->min) {
-        plumb_trajectory_free(t);
-        return PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory allocating the ODE workspace");
-    }
-    *out = t;
-    return PLUMB_OK;
-}
-
-const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size_t *n)
-{
-    *n = traj->path_n;
-    return traj->path_n ? traj->path : NULL;
-}
-
-/* ---- spec checks ---------------------------------------------------------- */
-
-static double body_cda(const plumb_drag_spec *d)
-{
-    return d->area_m2 > 0.0 ? d->cd * d->area_m2 : d->cd_area_m2;
-}
-
-static plumb_status check_spec(const plumb_fall_spec *s, plumb_diag *diag)
-{
-    const double *r = s->release_m, *v = s->velocity_m_s;
-    for (int i = 0; i < 3; i++)
-        if (!isfinite(r[i]) || !isfinite(v[i]))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "release", "release point and velocity must be finite");
-    if (!(s->mass_kg > 0.0) || !isfinite(s->mass_kg))
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.mass", "mass must be > 0 kg, found %g kg", s->mass_kg);
-    if (!(r[2] > 0.0))
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "release.height", "release height must be > 0 m, found %g m", r[2]);
-    if (!(s->volume_m3 >= 0.0) || !isfinite(s->volume_m3))
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.volume", "volume must be >= 0 m^3");
-    const plumb_drag_spec *d = &s->drag;
-    if (d->model == PLUMB_DRAG_FIXED) {
-        double cda = body_cda(d);
-        if (!(cda >= 0.0) || !isfinite(cda) || !(d->cd >= 0.0 && d->cd <= 10.0))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.drag", "drag must be finite with 0 <= cd <= 10 and CdA >= 0");
-    } else if (!(d->diameter_m > 0.0) || !(d->area_m2 > 0.0) || !isfinite(d->area_m2)) {
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.drag.diameter", "a sphere drag model needs a diameter > 0");
-    }
-    if (!(s->downwash.aircraft_mass_kg >= 0.0) || !isfinite(s->downwash.aircraft_mass_kg) ||
-        !(s->downwash.disk_area_m2 >= 0.0) || !isfinite(s->downwash.disk_area_m2))
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "release.downwash",
-                               "aircraft mass and disk area must be finite and >= 0");
-    if (s->n_descent > PLUMB_MAX_DESCENT)
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "at most %d descent devices", PLUMB_MAX_DESCENT);
-    for (size_t i = 0; i < s->n_descent; i++) {
-        const plumb_descent_spec *dv = &s->descent[i];
-        if (!(dv->cd > 0.0 && dv->cd <= 10.0) || !(dv->area_m2 > 0.0) || !isfinite(dv->area_m2))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "device %zu needs 0 < cd <= 10 and area > 0", i + 1);
-        if (!(dv->fill_time_s >= 0.0) || !(dv->fill_constant >= 0.0) || !isfinite(dv->fill_constant))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.fill_time", "device %zu: fill time and fill constant must be >= 0", i + 1);
-        if (!(dv->inflation_exponent >= 0.0 && dv->inflation_exponent <= PLUMB_INFLATION_J_MAX))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.inflation_exponent",
-                                   "device %zu: the inflation exponent must lie in 0 (linear) to %g",
-                                   i + 1, PLUMB_INFLATION_J_MAX);
-        if (!(dv->opening_factor >= 0.0) || !isfinite(dv->opening_factor))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.opening_factor", "device %zu: C_x must be >= 0", i + 1);
-        if (dv->trigger == PLUMB_DEPLOY_AFTER && !(dv->deploy_value >= 0.0))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.after", "deploy time must be >= 0 s");
-        if (dv->trigger == PLUMB_DEPLOY_BELOW && !(dv->deploy_value > 0.0 && dv->deploy_value < r[2]))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.below",
-                                   "deploy height must lie between 0 m and the release height %g m, found %g m",
-                                   r[2], dv->deploy_value);
-    }
-    return PLUMB_OK;
-}
-
-/* ---- terminal speed ------------------------------------------------------- */
-
-/* The drag balance B(v) = 1/2 rho CdA(Re(v)) v^2 - m g (1 - rho V / m) of a
- * body falling through still air. With fixed drag it has one root, in
- * closed form. With Cd(Re) it may have several in the drag crisis (a 50 mm
- * steel ball in sea-level air, Clift-Grace-Weber curve: 93.72, 101.96 and
- * 209.41 m/s). A body falling from rest accelerates while B < 0 and so
- * settles at the lowest root: that is the terminal speed. It is found by
- * walking up from v = 0 over the stretches where Cd Re^2 cannot decrease
- * (one root at most: Brent's method on the stretch when B changes sign
- * over it) and scanning the crisis intervals of the drag curve
- * (plumbp_drag_crisis) at a ratio of CRISIS_SCAN_RATIO, with a local
- * maximum of the samples refined (Brent minimisation of -B) so that a pair
- * of roots closer than the scan step is not missed. */
-#define CRISIS_SCAN_RATIO 1.001
-#define ROOT_MAX_ITER 200
-#define ROOT_REL_TOL 1e-14
-#define TERMINAL_MAX_M_S 1e6
-
-typedef struct term_ctx {
-    const plumb_fall_spec *spec;
-    plumb_air air;
-    double g_net_m_s2;   /* g (1 - rho V / m) */
-    double extra_m2;     /* device CdS */
-} term_ctx;
-
-static double term_balance(double v, void *p)
-{
-    const term_ctx *c = p;
-    double re = c->air.rho_kg_m3 * v * c->spec->drag.diameter_m / c->air.mu_pa_s;
-    double cda = plumb_drag_cd_area(&c->spec->drag, re) + c->extra_m2;
-    return 0.5 * c->air.rho_kg_m3 * cda * v * v - c->spec->mass_kg * c->g_net_m_s2;
-}
-
-static double term_neg_balance(double v, void *p)
-{
-    return -term_balance(v, p);
-}
-
-/* The root of B in [lo, hi], where B(lo) < 0 <= B(hi). */
-static plumb_status term_bracketed(term_ctx *c, gsl_root_fsolver *s, double lo, double hi,
-                                   double *v_m_s)
-{
-    if (term_balance(hi, c) == 0.0) {
-        *v_m_s = hi;
-        return PLUMB_OK;
-    }
-    gsl_function F = {term_balance, c};
-    int rc = gsl_root_fsolver_set(s, &F, lo, hi);
-    for (int it = 0; rc == GSL_SUCCESS && it < ROOT_MAX_ITER; it++) {
-        rc = gsl_root_fsolver_iterate(s);
-        if (rc != GSL_SUCCESS)
-            break;
-        rc = gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s),
-                                    0.0, ROOT_REL_TOL);
-        if (rc == GSL_SUCCESS)
-            break;
-        if (rc == GSL_CONTINUE)
-            rc = GSL_SUCCESS;
-    }
-    if (rc != GSL_SUCCESS)
-        return PLUMB_RAISE(NULL, PLUMB_ENUMERIC, "terminal speed root finder failed: %s",
-                           gsl_strerror(rc));
-    *v_m_s = gsl_root_fsolver_root(s);
-    return PLUMB_OK;
-}
-
-/* The largest B on [a, b] around the sample m (B(m) >= B(a), B(b)), by
- * Brent minimisation of -B; *at is where. */
-static double term_local_max(term_ctx *c, gsl_min_fminimizer *mz, double a, double m, double b,
-                             double *at)
-{
-    gsl_function F = {term_neg_balance, c};
-    double fm = term_neg_balance(m, c);
-    *at = m;
-    if (!(fm < term_neg_balance(a, c) && fm < term_neg_balance(b, c)))
-        return -fm; /* flat to rounding: the sample is the maximum */
-    int rc = gsl_min_fminimizer_set_with_values(mz, &F, m, fm, a, term_neg_balance(a, c), b,
-                                                term_neg_balance(b, c));
-    for (int it = 0; rc == GSL_SUCCESS && it < ROOT_MAX_ITER; it++) {
-        rc = gsl_min_fminimizer_iterate(mz);
-        if (rc != GSL_SUCCESS)
-            break;
-        if (-gsl_min_fminimizer_f_minimum(mz) >= 0.0)
-            break;
-        rc = gsl_min_test_interval(gsl_min_fminimizer_x_lower(mz), gsl_min_fminimizer_x_upper(mz),
-                                   0.0, ROOT_REL_TOL);
-        if (rc == GSL_SUCCESS)
-            break;
-        if (rc == GSL_CONTINUE)
-            rc = GSL_SUCCESS;
-    }
-    *at = gsl_min_fminimizer_x_minimum(mz);
-    return -gsl_min_fminimizer_f_minimum(mz);
-}
-
-static plumb_status terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                   double z_m, int with_devices, gsl_root_fsolver *root,
-                                   gsl_min_fminimizer *mz, double *v_m_s)
-{
-    term_ctx c = {.spec = spec};
-    double alt = spec->site_elevation_m + z_m;
-    if (plumb_atmosphere_at(atm, alt, &c.air) != PLUMB_OK)
-        return PLUMB_RAISE(NULL, PLUMB_EOUTSIDE, "altitude %.1f m is outside the atmosphere model", alt);
-    double g = plumb_gravity_at(&spec->gravity, alt);
-    c.g_net_m_s2 = g * (1.0 - c.air.rho_kg_m3 * spec->volume_m3 / spec->mass_kg);
-    if (with_devices)
-        for (size_t i = 0; i < spec->n_descent; i++) {
-            if (i + 1 < spec->n_descent && spec->descent[i + 1].disreefs_previous)
-                continue; /* replaced by the next device */
-            c.extra_m2 += spec->descent[i].cd * spec->descent[i].area_m2;
-        }
-    if (!(c.g_net_m_s2 > 0.0))
-        return PLUMB_RAISE(NULL, PLUMB_ENOLAND, "buoyancy exceeds weight: no terminal speed");
-    if (spec->drag.model == PLUMB_DRAG_FIXED) {
-        double cda = body_cda(&spec->drag) + c.extra_m2;
-        if (!(cda > 0.0))
-            return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "no drag: no terminal speed");
-        *v_m_s = sqrt(2.0 * spec->mass_kg * c.g_net_m_s2 / (c.air.rho_kg_m3 * cda));
-        return PLUMB_OK;
-    }
-    /* v per unit Re */
-    double v_per_re = c.air.mu_pa_s / (c.air.rho_kg_m3 * spec->drag.diameter_m);
-    const double (*crisis)[2];
-    size_t n = plumbp_drag_crisis(spec->drag.model, &crisis);
-    double lo = 0.0; /* B(lo) < 0 */
-    for (size_t i = 0; i < n; i++) {
-        double a = crisis[i][0] * v_per_re, b = crisis[i][1] * v_per_re;
-        if (term_balance(a, &c) >= 0.0)
-            return term_bracketed(&c, root, lo, a, v_m_s); /* one root on [lo, a] */
-        /* scan the crisis interval */
-        double xp = a, fp = term_balance(a, &c), x0 = a, f0 = fp;
-        for (int last = 0; !last;) {
-            double x1 = x0 * CRISIS_SCAN_RATIO;
-            if (x1 >= b) {
-                x1 = b;
-                last = 1;
-            }
-            double f1 = term_balance(x1, &c);
-            if (f1 >= 0.0)
-                return term_bracketed(&c, root, x0, x1, v_m_s);
-            if (x0 > xp && f0 > fp && f0 >= f1) {
-                double at, top = term_local_max(&c, mz, xp, x0, x1, &at);
-                if (top >= 0.0)
-                    return term_bracketed(&c, root, xp, at, v_m_s);
-            }
-            xp = x0;
-            fp = f0;
-            x0 = x1;
-            f0 = f1;
-        }
-        lo = b;
-    }
-    double hi = lo > 0.0 ? 2.0 * lo : 1.0;
-    while (term_balance(hi, &c) < 0.0 && hi < TERMINAL_MAX_M_S) {
-        lo = hi;
-        hi *= 2.0;
-    }
-    if (term_balance(hi, &c) < 0.0)
-        return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "terminal speed above %g m/s", TERMINAL_MAX_M_S);
-    return term_bracketed(&c, root, lo, hi, v_m_s);
-}
-
-plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                  double z_m, int with_devices, double *v_m_s)
-{
-    gsl_root_fsolver *root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
-    gsl_min_fminimizer *mz = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    plumb_status st = root && mz ? terminal_speed(spec, atm, z_m, with_devices, root, mz, v_m_s)
-                                 : PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
-    if (root)
-        gsl_root_fsolver_free(root);
-    if (mz)
-        gsl_min_fminimizer_free(mz);
-    return st;
-}
+#include "physics/trajectory_int.h"
 
 /* ---- the run -------------------------------------------------------------- */
 
@@ -749,7 +116,7 @@ static double neg_force_at(double t, void *params)
         return 0.0;
     }
     local L;
-    if (local_at(r->ctx, t, y, &L) != GSL_SUCCESS) {
+    if (plumbp_traj_local_at(r->ctx, t, y, &L) != GSL_SUCCESS) {
         p->fail = 1;
         return 0.0;
     }
@@ -811,7 +178,7 @@ static plumb_status observe(runner *r)
                            "the path leaves the air model's range (%.0f to %.0f m above sea level): "
                            "it reaches %.1f m at t=%.2f s", r->ctx->air_lo_m, r->ctx->air_hi_m, alt, r->t);
     local L;
-    if (local_at(r->ctx, r->t, r->y, &L) != GSL_SUCCESS)
+    if (plumbp_traj_local_at(r->ctx, r->t, r->y, &L) != GSL_SUCCESS)
         return fail_rhs(r, GSL_EBADFUNC, "air lookup");
     plumb_fall_result *res = r->res;
     double mach = L.vr_abs / L.air.a_m_s;
@@ -865,7 +232,7 @@ static plumb_status henon_to(runner *r, int k, double target, double *t_io, doub
     if (k == IZ && target == 0.0 && y_io[IZ] > 0.0 && wind->profile == PLUMB_WIND_POWER &&
         wind->speed_m_s > 0.0 && wind->exponent > 0.0 && wind->exponent < 1.0)
         hc.m = 1.0 / wind->exponent;
-    gsl_odeiv2_system hs = {rhs_henon, NULL, NSTATE, &hc};
+    gsl_odeiv2_system hs = {plumbp_traj_rhs_henon, NULL, NSTATE, &hc};
     double u[NSTATE];
     memcpy(u, y_io, sizeof u);
     u[k] = *t_io;
@@ -939,7 +306,7 @@ static plumb_status descend_start(runner *r, double *t0, double y0[], double h, 
 static plumb_status approach(runner *r, double *t0, double y0[], double h_max, double z_event)
 {
     double f[NSTATE], y[NSTATE];
-    int rc = rhs_time(*t0, y0, f, r->ctx);
+    int rc = plumbp_traj_rhs_time(*t0, y0, f, r->ctx);
     if (rc != GSL_SUCCESS)
         return fail_rhs(r, rc, "ODE step");
     double dz = y0[IZ] - z_event, v = -y0[IVZ], a = -f[IVZ]; /* downward positive */
@@ -971,7 +338,7 @@ static void deploy(runner *r, size_t i)
     ds->t_ls_s = r->t;
     ds->cds_m2 = d->cd * d->area_m2;
     double v_ls = 0.0;
-    if (local_at(r->ctx, r->t, r->y, &L) == GSL_SUCCESS)
+    if (plumbp_traj_local_at(r->ctx, r->t, r->y, &L) == GSL_SUCCESS)
         v_ls = L.vr_abs;
     /* D0: the given diameter, else the nominal diameter sqrt(4 S0 / pi) (Knacke) */
     double d0 = d->diameter_m > 0.0 ? d->diameter_m : sqrt(4.0 * d->area_m2 / PLUMB_PI);
@@ -1101,12 +468,13 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
     res->drag_free_speed_m_s = sqrt(v0sq + 2.0 * g_mid * H);
     res->drag_free_energy_j = 0.5 * s->mass_kg * v0sq + s->mass_kg * g_mid * H;
     double vt = 0.0;
-    if (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)
-        if (terminal_speed(s, atm, 0.0, 0, r->w->root, r->w->min, &vt) != PLUMB_OK)
+    if (plumbp_traj_body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)
+        if (plumbp_traj_terminal_speed(s, atm, 0.0, 0, r->w->root, r->w->min, &vt) != PLUMB_OK)
             vt = 0.0;
     res->terminal_speed_m_s = vt;
     double vs = vt;
-    if (s->n_descent && terminal_speed(s, atm, 0.0, 1, r->w->root, r->w->min, &vs) != PLUMB_OK)
+    if (s->n_descent &&
+        plumbp_traj_terminal_speed(s, atm, 0.0, 1, r->w->root, r->w->min, &vs) != PLUMB_OK)
         vs = 0.0;
     res->steady_speed_m_s = vs;
     res->peak_load_g = res->peak_force_n / (s->mass_kg * PLUMB_G0_M_S2);
@@ -1181,9 +549,10 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
                            "the fall fails its energy balance: kinetic energy gained %.9g J, work "
                            "of gravity, buoyancy and drag %.9g J (method %s)",
                            gained, work, res->solver.method);
-    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
+    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (plumbp_traj_body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
         double vt_top, vt_max = w->ctx.vt_max_m_s;
-        if (terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK && vt_top > vt_max)
+        if (plumbp_traj_terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK &&
+            vt_top > vt_max)
             vt_max = vt_top;
         if (res->terminal_speed_m_s > vt_max)
             vt_max = res->terminal_speed_m_s;
@@ -1200,7 +569,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
                                   const plumb_atmosphere *atm, plumb_fall_result *res,
                                   plumb_diag *diag)
 {
-    plumb_status st = check_spec(spec, diag);
+    plumb_status st = plumbp_traj_check_spec(spec, diag);
     if (st != PLUMB_OK)
         return st;
     plumb_stepper kind = w->opt.stepper;
@@ -1208,7 +577,8 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
         double vt = 0.0;
         double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
         kind = spec->n_descent == 0 &&
-                       terminal_speed(spec, atm, 0.0, 0, w->root, w->min, &vt) == PLUMB_OK &&
+                       plumbp_traj_terminal_speed(spec, atm, 0.0, 0, w->root, w->min, &vt) ==
+                           PLUMB_OK &&
                        2.0 * g * spec->release_m[2] / (vt * vt) > w->opt.stiff_ratio
                    ? PLUMB_STEPPER_MSBDF
                    : PLUMB_STEPPER_RK8PD;
@@ -1248,7 +618,7 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
     runner r = {.w = w, .res = res, .diag = diag};
     r.ctx = &w->ctx;
     r.sys = &w->sys;
-    ctx_init(r.ctx, spec, atm);
+    plumbp_traj_ctx_init(r.ctx, spec, atm);
     w->path_n = 0;
     if (kind == PLUMB_STEPPER_MSBDF) {
         r.step = w->msbdf->s;

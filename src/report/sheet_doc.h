@@ -1,8 +1,8 @@
 /*
  * sheet_doc.h - what the files of the PDF sheet share (sheet.c: the
- * document, its pages and text sections; sheet_plot.c: the side view and
- * the energy plot; sheet_plan.c: the plan view). Internal to
- * libplumb-sheet.
+ * document; sheet_page.c: its text, pages and footers; sheet_sections.c:
+ * its text sections; sheet_plot.c: the side view and the energy plot;
+ * sheet_plan.c: the plan view). Internal to libplumb-sheet.
  *
  * Units on the page are PostScript points (1/72 in), y downwards.
  */
@@ -20,6 +20,15 @@
 #define SHEET_MONO "DejaVu Sans Mono"
 #define SHEET_BODY 10.0
 #define SHEET_SMALL 8.0
+
+/* Millimetres to points. */
+#define MM_PT (72.0 / 25.4)
+/* Margins, pt: 15 mm each side, the footer's band at the bottom. */
+#define MARGIN (15.0 * MM_PT)
+#define FOOTER_BAND 50.0
+/* Space after a block, pt. */
+#define GAP 6.0
+#define SECTION_GAP 12.0
 
 /* Formatted strings kept at once (sheet_fmt, sheet_esc), and their size. */
 enum { SHEET_RING = 32, FMT_LEN = 2048 };
@@ -148,5 +157,19 @@ typedef struct sheet_plan {
 } sheet_plan;
 
 double sheet_plan_view(sheet_doc *d, const sheet_plan *p, double x, double y, double w, double h);
+
+/* Pages (sheet_page.c): the current one ended with its footer; a new
+ * one begun. */
+void sheet_end_page(sheet_doc *d);
+void sheet_new_page(sheet_doc *d);
+
+/* The sections that are text (sheet_sections.c), in the sheet's order. */
+void sheet_section_header(sheet_doc *d, const plumb_brief *b);
+void sheet_section_answer(sheet_doc *d, const plumb_brief *b);
+void sheet_section_inventory(sheet_doc *d, const plumb_brief *b);
+plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag *diag);
+void sheet_section_cautions(sheet_doc *d);
+void sheet_section_plots(sheet_doc *d, const plumb_brief *b);
+void sheet_section_plan(sheet_doc *d, const plumb_brief *b);
 
 #endif /* PLUMB_SHEET_DOC_H */

@@ -1,0 +1,192 @@
+/*
+ * trajectory_terminal.c - the terminal speed of a body falling through
+ * still air: the lowest root of the drag balance, with Brent's method
+ * (GSL gsl_root_fsolver_brent, gsl_min_fminimizer_brent) over the
+ * stretches of the drag curve (plumb_terminal_speed).
+ */
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <gsl/gsl_errno.h>
+
+#include "physics/trajectory_int.h"
+
+/* ---- terminal speed ------------------------------------------------------- */
+
+/* The drag balance B(v) = 1/2 rho CdA(Re(v)) v^2 - m g (1 - rho V / m) of a
+ * body falling through still air. With fixed drag it has one root, in
+ * closed form. With Cd(Re) it may have several in the drag crisis (a 50 mm
+ * steel ball in sea-level air, Clift-Grace-Weber curve: 93.72, 101.96 and
+ * 209.41 m/s). A body falling from rest accelerates while B < 0 and so
+ * settles at the lowest root: that is the terminal speed. It is found by
+ * walking up from v = 0 over the stretches where Cd Re^2 cannot decrease
+ * (one root at most: Brent's method on the stretch when B changes sign
+ * over it) and scanning the crisis intervals of the drag curve
+ * (plumbp_drag_crisis) at a ratio of CRISIS_SCAN_RATIO, with a local
+ * maximum of the samples refined (Brent minimisation of -B) so that a pair
+ * of roots closer than the scan step is not missed. */
+#define CRISIS_SCAN_RATIO 1.001
+#define ROOT_MAX_ITER 200
+#define ROOT_REL_TOL 1e-14
+#define TERMINAL_MAX_M_S 1e6
+
+typedef struct term_ctx {
+    const plumb_fall_spec *spec;
+    plumb_air air;
+    double g_net_m_s2;   /* g (1 - rho V / m) */
+    double extra_m2;     /* device CdS */
+} term_ctx;
+
+static double term_balance(double v, void *p)
+{
+    const term_ctx *c = p;
+    double re = c->air.rho_kg_m3 * v * c->spec->drag.diameter_m / c->air.mu_pa_s;
+    double cda = plumb_drag_cd_area(&c->spec->drag, re) + c->extra_m2;
+    return 0.5 * c->air.rho_kg_m3 * cda * v * v - c->spec->mass_kg * c->g_net_m_s2;
+}
+
+static double term_neg_balance(double v, void *p)
+{
+    return -term_balance(v, p);
+}
+
+/* The root of B in [lo, hi], where B(lo) < 0 <= B(hi). */
+static plumb_status term_bracketed(term_ctx *c, gsl_root_fsolver *s, double lo, double hi,
+                                   double *v_m_s)
+{
+    if (term_balance(hi, c) == 0.0) {
+        *v_m_s = hi;
+        return PLUMB_OK;
+    }
+    gsl_function F = {term_balance, c};
+    int rc = gsl_root_fsolver_set(s, &F, lo, hi);
+    for (int it = 0; rc == GSL_SUCCESS && it < ROOT_MAX_ITER; it++) {
+        rc = gsl_root_fsolver_iterate(s);
+        if (rc != GSL_SUCCESS)
+            break;
+        rc = gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s),
+                                    0.0, ROOT_REL_TOL);
+        if (rc == GSL_SUCCESS)
+            break;
+        if (rc == GSL_CONTINUE)
+            rc = GSL_SUCCESS;
+    }
+    if (rc != GSL_SUCCESS)
+        return PLUMB_RAISE(NULL, PLUMB_ENUMERIC, "terminal speed root finder failed: %s",
+                           gsl_strerror(rc));
+    *v_m_s = gsl_root_fsolver_root(s);
+    return PLUMB_OK;
+}
+
+/* The largest B on [a, b] around the sample m (B(m) >= B(a), B(b)), by
+ * Brent minimisation of -B; *at is where. */
+static double term_local_max(term_ctx *c, gsl_min_fminimizer *mz, double a, double m, double b,
+                             double *at)
+{
+    gsl_function F = {term_neg_balance, c};
+    double fm = term_neg_balance(m, c);
+    *at = m;
+    if (!(fm < term_neg_balance(a, c) && fm < term_neg_balance(b, c)))
+        return -fm; /* flat to rounding: the sample is the maximum */
+    int rc = gsl_min_fminimizer_set_with_values(mz, &F, m, fm, a, term_neg_balance(a, c), b,
+                                                term_neg_balance(b, c));
+    for (int it = 0; rc == GSL_SUCCESS && it < ROOT_MAX_ITER; it++) {
+        rc = gsl_min_fminimizer_iterate(mz);
+        if (rc != GSL_SUCCESS)
+            break;
+        if (-gsl_min_fminimizer_f_minimum(mz) >= 0.0)
+            break;
+        rc = gsl_min_test_interval(gsl_min_fminimizer_x_lower(mz), gsl_min_fminimizer_x_upper(mz),
+                                   0.0, ROOT_REL_TOL);
+        if (rc == GSL_SUCCESS)
+            break;
+        if (rc == GSL_CONTINUE)
+            rc = GSL_SUCCESS;
+    }
+    *at = gsl_min_fminimizer_x_minimum(mz);
+    return -gsl_min_fminimizer_f_minimum(mz);
+}
+
+plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                   double z_m, int with_devices, gsl_root_fsolver *root,
+                                   gsl_min_fminimizer *mz, double *v_m_s)
+{
+    term_ctx c = {.spec = spec};
+    double alt = spec->site_elevation_m + z_m;
+    if (plumb_atmosphere_at(atm, alt, &c.air) != PLUMB_OK)
+        return PLUMB_RAISE(NULL, PLUMB_EOUTSIDE, "altitude %.1f m is outside the atmosphere model", alt);
+    double g = plumb_gravity_at(&spec->gravity, alt);
+    c.g_net_m_s2 = g * (1.0 - c.air.rho_kg_m3 * spec->volume_m3 / spec->mass_kg);
+    if (with_devices)
+        for (size_t i = 0; i < spec->n_descent; i++) {
+            if (i + 1 < spec->n_descent && spec->descent[i + 1].disreefs_previous)
+                continue; /* replaced by the next device */
+            c.extra_m2 += spec->descent[i].cd * spec->descent[i].area_m2;
+        }
+    if (!(c.g_net_m_s2 > 0.0))
+        return PLUMB_RAISE(NULL, PLUMB_ENOLAND, "buoyancy exceeds weight: no terminal speed");
+    if (spec->drag.model == PLUMB_DRAG_FIXED) {
+        double cda = plumbp_traj_body_cda(&spec->drag) + c.extra_m2;
+        if (!(cda > 0.0))
+            return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "no drag: no terminal speed");
+        *v_m_s = sqrt(2.0 * spec->mass_kg * c.g_net_m_s2 / (c.air.rho_kg_m3 * cda));
+        return PLUMB_OK;
+    }
+    /* v per unit Re */
+    double v_per_re = c.air.mu_pa_s / (c.air.rho_kg_m3 * spec->drag.diameter_m);
+    const double (*crisis)[2];
+    size_t n = plumbp_drag_crisis(spec->drag.model, &crisis);
+    double lo = 0.0; /* B(lo) < 0 */
+    for (size_t i = 0; i < n; i++) {
+        double a = crisis[i][0] * v_per_re, b = crisis[i][1] * v_per_re;
+        if (term_balance(a, &c) >= 0.0)
+            return term_bracketed(&c, root, lo, a, v_m_s); /* one root on [lo, a] */
+        /* scan the crisis interval */
+        double xp = a, fp = term_balance(a, &c), x0 = a, f0 = fp;
+        for (int last = 0; !last;) {
+            double x1 = x0 * CRISIS_SCAN_RATIO;
+            if (x1 >= b) {
+                x1 = b;
+                last = 1;
+            }
+            double f1 = term_balance(x1, &c);
+            if (f1 >= 0.0)
+                return term_bracketed(&c, root, x0, x1, v_m_s);
+            if (x0 > xp && f0 > fp && f0 >= f1) {
+                double at, top = term_local_max(&c, mz, xp, x0, x1, &at);
+                if (top >= 0.0)
+                    return term_bracketed(&c, root, xp, at, v_m_s);
+            }
+            xp = x0;
+            fp = f0;
+            x0 = x1;
+            f0 = f1;
+        }
+        lo = b;
+    }
+    double hi = lo > 0.0 ? 2.0 * lo : 1.0;
+    while (term_balance(hi, &c) < 0.0 && hi < TERMINAL_MAX_M_S) {
+        lo = hi;
+        hi *= 2.0;
+    }
+    if (term_balance(hi, &c) < 0.0)
+        return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "terminal speed above %g m/s", TERMINAL_MAX_M_S);
+    return term_bracketed(&c, root, lo, hi, v_m_s);
+}
+
+plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                  double z_m, int with_devices, double *v_m_s)
+{
+    gsl_root_fsolver *root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
+    gsl_min_fminimizer *mz = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
+    plumb_status st = root && mz ? plumbp_traj_terminal_speed(spec, atm, z_m, with_devices, root,
+                                                              mz, v_m_s)
+                                 : PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
+    if (root)
+        gsl_root_fsolver_free(root);
+    if (mz)
+        gsl_min_fminimizer_free(mz);
+    return st;
+}
+

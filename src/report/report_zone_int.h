@@ -1,0 +1,49 @@
+/*
+ * report_zone_int.h - what the writers of the zone report share:
+ * report_zone.c (plumb_report_zone: the checks and the choice of format),
+ * zone_text.c (the text report), zone_csv.c (CSV, RFC 4180) and
+ * zone_json.c (JSON, jansson). Names of the percentiles, the small
+ * helpers two writers use (static inline), and the writers (plumbp_zone_
+ * prefix). Internal to libplumb; not installed.
+ */
+#ifndef PLUMB_REPORT_ZONE_INT_H
+#define PLUMB_REPORT_ZONE_INT_H
+
+#include <jansson.h>
+
+#include "plumb/constants.h"
+#include "plumb/report.h"
+#include "plumb/dispersion.h"
+#include "report/jsonout.h"
+#include "report/textout.h"
+
+extern const char *const plumbp_zone_radius_names[PLUMB_ZONE_RADII];
+extern const char *const plumbp_zone_energy_names[PLUMB_ZONE_ENERGIES];
+
+static inline double len_shown(const writer *w, double m)
+{
+    return w->us ? m / PLUMB_FT_M : m;
+}
+
+static inline const char *len_unit(const writer *w)
+{
+    return w->us ? "ft" : "m";
+}
+
+static inline const char *dist_word(plumb_dist_kind k)
+{
+    switch (k) {
+    case PLUMB_DIST_UNIFORM: return "uniform";
+    case PLUMB_DIST_TRIANGULAR: return "triangular";
+    case PLUMB_DIST_CHOICE: return "choice";
+    default: return "normal";
+    }
+}
+
+void plumbp_zone_text_report(writer *w, const plumb_report_options *opt,
+                             const plumb_zone_report *rep);
+void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep);
+json_t *plumbp_zone_json_report(jctx *j, const plumb_report_options *opt,
+                                const plumb_zone_report *rep);
+
+#endif

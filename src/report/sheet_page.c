@@ -1,0 +1,199 @@
+/*
+ * sheet_page.c - the PDF sheet's text and pages: pango markup set and
+ * measured, escaped and formatted strings (the text report's formatters,
+ * format.c), line styles, and the pages with their footers (page n of m
+ * and the short caution, design.md section 7), headings and paragraphs
+ * kept together.
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <time.h>
+
+#include <cairo-pdf.h>
+
+#include "report/sheet_doc.h"
+#include "report/common.h"
+
+/* The short caution of every footer (design.md section 7). */
+static const char footer_caution[] =
+    "An engineering estimate from a point-mass model, not a measurement: real objects deflect, "
+    "bounce, break and tumble, and energy limits are not guarantees of safety. Follow local codes "
+    "and regulations and the judgment of a competent or licensed person.";
+
+
+/* ---- text ------------------------------------------------------------------ */
+
+const char *sheet_esc(sheet_doc *d, const char *s)
+{
+    char *b = d->ring[d->next++ % SHEET_RING];
+    gchar *e = g_markup_escape_text(s, -1);
+    snprintf(b, FMT_LEN, "%s", e ? e : "");
+    g_free(e);
+    return b;
+}
+
+const char *sheet_fmt(sheet_doc *d, const char *fmt, ...)
+{
+    char raw[FMT_LEN];
+    int markup = fmt[0] == '\x02';
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(raw, sizeof raw, markup ? fmt + 1 : fmt, ap);
+    va_end(ap);
+    /* the formatters' number-unit join becomes a no-break space, U+00A0 */
+    char joined[FMT_LEN];
+    size_t j = 0;
+    for (const char *p = raw; *p && j + 3 < sizeof joined; p++) {
+        if (*p == NBSP_CHAR) {
+            joined[j++] = '\xC2';
+            joined[j++] = '\xA0';
+        } else {
+            joined[j++] = *p;
+        }
+    }
+    joined[j] = '\0';
+    if (markup) {
+        char *b = d->ring[d->next++ % SHEET_RING];
+        snprintf(b, FMT_LEN, "%s", joined);
+        return b;
+    }
+    return sheet_esc(d, joined);
+}
+
+static void set_markup(sheet_doc *d, double w, const char *font, const char *markup)
+{
+    PangoFontDescription *fd = pango_font_description_from_string(font);
+    pango_layout_set_font_description(d->layout, fd);
+    pango_font_description_free(fd);
+    pango_layout_set_width(d->layout, w > 0.0 ? (int)(w * PANGO_SCALE) : -1);
+    pango_layout_set_wrap(d->layout, PANGO_WRAP_WORD_CHAR);
+    pango_layout_set_markup(d->layout, markup, -1);
+}
+
+double sheet_text(sheet_doc *d, double x, double y, double w, const char *font, const char *markup,
+                  int draw)
+{
+    set_markup(d, w, font, markup);
+    int pw, ph;
+    pango_layout_get_size(d->layout, &pw, &ph);
+    if (draw) {
+        cairo_move_to(d->cr, x, y);
+        pango_cairo_show_layout(d->cr, d->layout);
+    }
+    return (double)ph / PANGO_SCALE;
+}
+
+double sheet_text_width(sheet_doc *d, const char *font, const char *markup)
+{
+    set_markup(d, 0.0, font, markup);
+    int pw, ph;
+    pango_layout_get_size(d->layout, &pw, &ph);
+    return (double)pw / PANGO_SCALE;
+}
+
+void sheet_text_at(sheet_doc *d, double x, double y, int align, const char *font,
+                   const char *markup)
+{
+    double w = sheet_text_width(d, font, markup);
+    double x0 = align == 1 ? x - w : align == 2 ? x - w / 2.0 : x;
+    cairo_move_to(d->cr, x0, y);
+    pango_cairo_show_layout(d->cr, d->layout);
+}
+
+void sheet_stroke(sheet_doc *d, sheet_line style, double width)
+{
+    static const double dash[] = {5.0, 3.0}, dot[] = {1.0, 2.5}, dashdot[] = {6.0, 2.5, 1.0, 2.5};
+    cairo_set_line_width(d->cr, width);
+    switch (style) {
+    case SHEET_DASHED: cairo_set_dash(d->cr, dash, 2, 0.0); break;
+    case SHEET_DOTTED:
+        cairo_set_line_cap(d->cr, CAIRO_LINE_CAP_ROUND);
+        cairo_set_dash(d->cr, dot, 2, 0.0);
+        break;
+    case SHEET_DASHDOT: cairo_set_dash(d->cr, dashdot, 4, 0.0); break;
+    default: cairo_set_dash(d->cr, NULL, 0, 0.0); break;
+    }
+    cairo_stroke(d->cr);
+    cairo_set_dash(d->cr, NULL, 0, 0.0);
+    cairo_set_line_cap(d->cr, CAIRO_LINE_CAP_BUTT);
+}
+
+/* ---- pages ------------------------------------------------------------------ */
+
+static void footer(sheet_doc *d)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 7.0);
+    double y = d->ph - MARGIN - FOOTER_BAND + 8.0;
+    cairo_set_source_rgb(d->cr, 0, 0, 0);
+    cairo_move_to(d->cr, d->left, y - 4.0);
+    cairo_line_to(d->cr, d->right, y - 4.0);
+    sheet_stroke(d, SHEET_SOLID, 0.5);
+    double h = sheet_text(d, d->left, y, sheet_width(d), font, sheet_esc(d, footer_caution), 1);
+    const char *pg = d->pages ? sheet_fmt(d, "page %d of %d", d->page, d->pages)
+                              : sheet_fmt(d, "page %d of %d", d->page, d->page);
+    char mono[64];
+    snprintf(mono, sizeof mono, "%s %.1f", SHEET_MONO, 7.0);
+    sheet_text(d, d->left, y + h + 2.0, 0.0, mono,
+               sheet_fmt(d, "profile SHA-256 %s", d->footer_hash), 1);
+    char bold[64];
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, 8.0);
+    sheet_text_at(d, d->right, y + h + 1.5, 1, bold, pg);
+}
+
+void sheet_end_page(sheet_doc *d)
+{
+    if (d->page == 0)
+        return;
+    footer(d);
+    cairo_show_page(d->cr);
+}
+
+void sheet_new_page(sheet_doc *d)
+{
+    sheet_end_page(d);
+    d->page++;
+    d->y = d->top;
+    if (d->running) {
+        char font[64];
+        snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
+        d->y += sheet_text(d, d->left, d->y, sheet_width(d), font,
+                           sheet_fmt(d, "%s (continued)", d->running), 1) + GAP;
+    }
+}
+
+void sheet_need(sheet_doc *d, double h)
+{
+    if (d->page == 0 || d->y + h > d->bottom)
+        sheet_new_page(d);
+}
+
+void sheet_para(sheet_doc *d, const char *font, const char *markup)
+{
+    double h = sheet_text(d, d->left, d->y, sheet_width(d), font, markup, 0);
+    sheet_need(d, h);
+    sheet_text(d, d->left, d->y, sheet_width(d), font, markup, 1);
+    d->y += h + GAP / 2.0;
+}
+
+void sheet_heading(sheet_doc *d, const char *title, double keep)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, 13.0);
+    d->running = NULL;
+    double h = sheet_text(d, d->left, d->y, sheet_width(d), font, sheet_esc(d, title), 0);
+    if (d->y > d->top)
+        d->y += SECTION_GAP - GAP;
+    sheet_need(d, h + 4.0 + keep);
+    sheet_text(d, d->left, d->y, sheet_width(d), font, sheet_esc(d, title), 1);
+    d->y += h + 1.5;
+    cairo_move_to(d->cr, d->left, d->y);
+    cairo_line_to(d->cr, d->right, d->y);
+    sheet_stroke(d, SHEET_SOLID, 0.8);
+    d->y += 4.0;
+    d->running = title;
+}
+

@@ -1,0 +1,566 @@
+/*
+ * sheet_sections.c - the sections of the PDF sheet that sheet.c draws in
+ * order: 1 the header, 2 the answer (verdicts, the zone), 6 the
+ * inventory table, 7 the inputs and what the model assumes, 8 the
+ * cautions, and the frames of the pictures (sheet_plot.c, sheet_plan.c).
+ */
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <time.h>
+
+#include <cairo-pdf.h>
+
+#include "report/sheet_doc.h"
+#include "report/common.h"
+
+/* What the model assumes (design.md section 2), for section 7. */
+static const char *const assumptions[] = {
+    "The payload is a point mass: its drag is a drag coefficient on a reference area (or a "
+    "shape's correlation), with no lift, spin or tumbling dynamics beyond the attitude stated.",
+    "Air is the atmosphere model named in the inputs, at rest except for the wind profile given; "
+    "gusts and turbulence enter only through the uncertainty of the clearance zone.",
+    "The ground is level at the strike level; the figures are for the first impact. Bounce, roll, "
+    "deflection and breakage are not modelled: the zone's scatter allowance stands for them.",
+    "A descent device opens as stated (line stretch at its trigger, canopy area growing over the "
+    "fill time); a device that fails to open is not considered unless the profile is run without "
+    "it.",
+    "The clearance zone is a Monte Carlo estimate over the stated input distributions: it is only "
+    "as good as those distributions.",
+};
+
+/* ---- 1. the header ------------------------------------------------------------ */
+
+static const char *or_blank(sheet_doc *d, const char *s)
+{
+    return s && s[0] ? sheet_esc(d, s) : "";
+}
+
+/* "label: value" with a line to write on when the value is blank. */
+static void field(sheet_doc *d, double x, double y, double w, const char *label, const char *value,
+                  int sign)
+{
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
+    double lw = sheet_text_width(d, bold, sheet_esc(d, label)) + 4.0;
+    sheet_text(d, x, y, 0.0, bold, sheet_esc(d, label), 1);
+    if (value[0])
+        sheet_text(d, x + lw, y, w - lw, font, value, 1);
+    double base = y + SHEET_BODY * 1.35;
+    /* a line for the name when none is given, then one to sign on */
+    double from = value[0] ? x + lw + sheet_text_width(d, font, value) + 8.0 : x + lw;
+    double name_end = sign && !value[0] ? x + w * 0.5 : x + w;
+    if (!value[0]) {
+        cairo_move_to(d->cr, from, base);
+        cairo_line_to(d->cr, name_end, base);
+        sheet_stroke(d, SHEET_SOLID, 0.5);
+        from = name_end + 8.0;
+    }
+    if (sign) {
+        sheet_text(d, from, y, 0.0, font, "signature", 1);
+        from += sheet_text_width(d, font, "signature") + 4.0;
+        cairo_move_to(d->cr, from, base);
+        cairo_line_to(d->cr, x + w, base);
+        sheet_stroke(d, SHEET_SOLID, 0.5);
+    }
+}
+
+static void when_text(const plumb_sheet_options *o, char *buf, size_t size)
+{
+    time_t t = (time_t)o->time_utc, lt = (time_t)(o->time_utc + o->utc_offset_s);
+    struct tm u, l;
+    gmtime_r(&t, &u);
+    gmtime_r(&lt, &l);
+    int off = o->utc_offset_s < 0 ? -o->utc_offset_s : o->utc_offset_s;
+    snprintf(buf, size,
+             "%04d-%02d-%02d %02d:%02d:%02d UTC (local %04d-%02d-%02d %02d:%02d, UTC%c%02d:%02d)",
+             u.tm_year + 1900, u.tm_mon + 1, u.tm_mday, u.tm_hour, u.tm_min, u.tm_sec,
+             l.tm_year + 1900, l.tm_mon + 1, l.tm_mday, l.tm_hour, l.tm_min,
+             o->utc_offset_s < 0 ? '-' : '+', off / 3600, off % 3600 / 60);
+}
+
+static void file_row(sheet_doc *d, const char *what, const char *path, const char *sha)
+{
+    char font[64], mono[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_SMALL);
+    snprintf(mono, sizeof mono, "%s %.1f", SHEET_MONO, 7.5);
+    double w = sheet_width(d);
+    const char *name = sheet_fmt(d, "%s  %s", what, path);
+    double h1 = sheet_text(d, d->left, d->y, w, font, name, 0);
+    sheet_need(d, h1 + 9.0);
+    sheet_text(d, d->left, d->y, w, font, name, 1);
+    d->y += h1;
+    d->y += sheet_text(d, d->left + 10.0, d->y, w - 10.0, mono, sheet_fmt(d, "SHA-256 %s", sha), 1) +
+            1.5;
+}
+
+void sheet_section_header(sheet_doc *d, const plumb_brief *b)
+{
+    const plumb_job *job = plumb_profile_job(b->profile);
+    char big[64], font[64];
+    snprintf(big, sizeof big, "%s Bold %.1f", SHEET_FONT, 20.0);
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    double w = sheet_width(d);
+    d->running = NULL;
+    sheet_need(d, 200.0);
+    const char *title = job->title[0] ? job->title : plumb_profile_name(b->profile);
+    d->y += sheet_text(d, d->left, d->y, w, big, sheet_esc(d, title), 1) + 2.0;
+    d->y += sheet_text(d, d->left, d->y, w, font,
+                       sheet_fmt(d, "Drop and fall safety sheet. %s: %s", b->fall->n_items > 1 ?
+                                 "Inventory" : "Payload", plumb_profile_name(b->profile)), 1) + 6.0;
+    sheet_heading(d, "1. Job, date and inputs", 120.0);
+    char when[160];
+    when_text(d->opt, when, sizeof when);
+    double row = SHEET_BODY * 2.0, half = (w - 12.0) / 2.0;
+    field(d, d->left, d->y, half, "Site:", or_blank(d, job->site), 0);
+    field(d, d->left + half + 12.0, d->y, half, "Reference:", or_blank(d, job->reference), 0);
+    d->y += row;
+    field(d, d->left, d->y, w, "Calculated:", sheet_esc(d, when), 0);
+    d->y += row;
+    field(d, d->left, d->y, w, "Prepared by:", or_blank(d, job->prepared_by), 1);
+    d->y += row;
+    field(d, d->left, d->y, w, "Checked by:", or_blank(d, job->checked_by), 1);
+    d->y += row;
+    const plumb_zone_result *z = b->zone ? b->zone->items[b->zone_item].result : NULL;
+    const char *prog = sheet_fmt(d, "plumb %s", d->opt->version ? d->opt->version : "");
+    const char *seed = z ? sheet_fmt(d, "%lu, %zu samples", z->seed, z->samples)
+                         : "none (no clearance zone)";
+    field(d, d->left, d->y, half, "Program:", prog, 0);
+    field(d, d->left + half + 12.0, d->y, half, "Seed:", seed, 0);
+    d->y += row;
+    file_row(d, "Profile", plumb_profile_path(b->profile), plumb_profile_sha256(b->profile));
+    for (size_t i = 0; i < b->n_criteria; i++) {
+        const plumb_criterion *c = b->criteria[i];
+        file_row(d, sheet_fmt(d, "Criterion %s", c->id), c->path[0] ? c->path : "(built in code)",
+                 c->sha256[0] ? c->sha256 : "(none: not read from a file)");
+    }
+}
+
+/* ---- 2. the answer -------------------------------------------------------------- */
+
+static writer *primary(sheet_doc *d) { return d->opt->units == PLUMB_UNITS_US ? &d->us : &d->si; }
+static writer *secondary(sheet_doc *d) { return d->opt->units == PLUMB_UNITS_US ? &d->si : &d->us; }
+
+static void answer_line(sheet_doc *d, const char *label, const char *value)
+{
+    char big[64], lab[64];
+    snprintf(big, sizeof big, "%s Bold %.1f", SHEET_FONT, 18.0);
+    snprintf(lab, sizeof lab, "%s %.1f", SHEET_FONT, 12.0);
+    double lw = 110.0;
+    double h = sheet_text(d, d->left + lw, d->y, sheet_width(d) - lw, big, value, 0);
+    sheet_need(d, h);
+    sheet_text(d, d->left, d->y + 3.0, lw, lab, sheet_esc(d, label), 1);
+    sheet_text(d, d->left + lw, d->y, sheet_width(d) - lw, big, value, 1);
+    d->y += h + 1.0;
+}
+
+static void zone_answer(sheet_doc *d, const plumb_brief *b)
+{
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, 11.0);
+    writer *P = primary(d), *S = secondary(d);
+    if (!b->zone) {
+        sheet_para(d, bold, sheet_esc(d, b->no_zone));
+        return;
+    }
+    const plumb_zone_result *z = b->zone->items[b->zone_item].result;
+    const plumb_zone_stats *s = &z->zone;
+    const char *who = b->zone->n_items > 1
+                          ? sheet_fmt(d, " (set by %s, the item with the largest radius)",
+                                      b->zone->items[b->zone_item].name)
+                          : "";
+    sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s (%s) around the planned drop point",
+                                  plumbp_t_len(P, s->clearance_radius_m),
+                                  plumbp_t_len(S, s->clearance_radius_m)));
+    sheet_para(d, font, sheet_fmt(d, "%s%% of impacts fall within this radius, taken as the upper "
+                                     "%s%% confidence bound from %zu samples%s%s%s.%s",
+                                  plumbp_trimmed(P, 100.0 * z->confidence, 2),
+                                  plumbp_trimmed(P, 100.0 * z->ci_level, 2), z->samples,
+                                  s->scatter_m > 0.0 ? ", plus a scatter allowance of " : "",
+                                  s->scatter_m > 0.0 ? plumbp_t_len(P, s->scatter_m) : "",
+                                  s->scatter_m > 0.0 ? " for bounce and roll" : "", who));
+    double dx = s->mean_m[0] - s->release_m[0], dy = s->mean_m[1] - s->release_m[1];
+    if (s->impact_point_fixed)
+        sheet_para(d, font, "The uncertain inputs do not move the impact point: the radii are "
+                            "one fall's drift.");
+    if (s->landing_circle_m > 0.0) {
+        double lx = s->landing_centre_m[0] - s->release_m[0];
+        double ly = s->landing_centre_m[1] - s->release_m[1];
+        sheet_para(d, font,
+                   sheet_fmt(d, "Where things land: %s%% of impacts within %s (%s) of their "
+                                "centre, %s toward %s of the drop point (the landing circle, "
+                                "upper %s%% bound%s).",
+                             plumbp_trimmed(P, 100.0 * z->confidence, 2),
+                             plumbp_t_len(P, s->landing_circle_m),
+                             plumbp_t_len(S, s->landing_circle_m), plumbp_t_len(P, hypot(lx, ly)),
+                             plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
+                             plumbp_trimmed(P, 100.0 * z->ci_level, 2),
+                             s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
+    }
+    sheet_para(d, font,
+               sheet_fmt(d, "%s95%% of impacts within an ellipse of semi-axes %s "
+                            "and %s (major axis toward %s) around the mean impact point, %s toward "
+                            "%s of the drop point.",
+                         s->landing_circle_m > 0.0 ? "" : "Where things land: ",
+                         plumbp_t_len(P, s->semi_major_m), plumbp_t_len(P, s->semi_minor_m),
+                         plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
+                         plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
+    if (z->has_target)
+        sheet_para(d, font,
+                   sheet_fmt(d, "Released to land on the target (%s, %s): keep clear %s (%s) "
+                                "around the target.",
+                             plumbp_t_offset(P, z->target_m[0], "east", "west"),
+                             plumbp_t_offset(P, z->target_m[1], "north", "south"),
+                             plumbp_t_len(P, z->at_target.clearance_radius_m),
+                             plumbp_t_len(S, z->at_target.clearance_radius_m)));
+}
+
+static void verdict_table(sheet_doc *d, const plumb_item_report *it)
+{
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
+    writer *P = primary(d);
+    double w = sheet_width(d);
+    double cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
+    static const char *const head[5] = {"Criterion", "Energy", "Limit", "Ratio", "Verdict"};
+    sheet_need(d, 30.0);
+    for (int c = 0; c < 5; c++)
+        sheet_text(d, d->left + cx[c] * w, d->y, 0.0, bold, head[c], 1);
+    d->y += SHEET_BODY * 1.5;
+    for (size_t k = 0; k < it->n_verdicts; k++) {
+        const plumb_verdict *v = &it->verdicts[k];
+        const char *name = sheet_fmt(d, "%s [%s]%s", v->criterion->name, v->criterion->id,
+                                     v->criterion->kind == PLUMB_CRIT_HELMET_TEST
+                                         ? " (a helmet test, not a safe limit)" : "");
+        double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
+        double h2 = sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
+                               sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 0);
+        if (h2 > h)
+            h = h2;
+        sheet_need(d, h);
+        sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 1);
+        sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
+                   sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 1);
+        sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font,
+                   sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)), 1);
+        sheet_text(d, d->left + cx[3] * w, d->y, 0.0, font,
+                   sheet_fmt(d, "%s", num(P, v->ratio, RATIO_SIG)), 1);
+        sheet_text(d, d->left + cx[4] * w, d->y, 0.0, v->exceeds ? bold : font,
+                   v->exceeds ? "exceeds" : "within", 1);
+        d->y += h + 2.0;
+    }
+}
+
+void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    writer *P = primary(d), *S = secondary(d);
+    const plumb_item_report *it = &b->fall->items[b->order[0]];
+    const plumb_fall_result *r = &it->result;
+    sheet_heading(d, "2. The answer", 120.0);
+    if (b->fall->n_items > 1)
+        sheet_para(d, font, sheet_fmt(d, "For the worst of %zu items, %s (every item is in "
+                                         "section 6).", b->fall->n_items, it->spec->name));
+    answer_line(d, "Impact speed", sheet_fmt(d, "%s (%s)", plumbp_t_speed(P, r->speed_m_s),
+                                             plumbp_t_speed(S, r->speed_m_s)));
+    answer_line(d, "Impact energy", sheet_fmt(d, "%s", plumbp_t_energy(P, r->energy_j)));
+    answer_line(d, "Time of fall", sheet_fmt(d, "%s s", num(P, r->time_s, TEXT_SIG)));
+    answer_line(d, "Drift", r->drift_m < DRIFT_SHOWN_M
+                                ? "none: lands below the release point"
+                                : sheet_fmt(d, "%s (%s) toward %s", plumbp_t_len(P, r->drift_m),
+                                            plumbp_t_len(S, r->drift_m),
+                                            plumbp_t_bearing(P, r->bearing_deg)));
+    d->y += GAP / 2.0;
+    zone_answer(d, b);
+    d->y += GAP / 2.0;
+    if (it->n_verdicts > 0)
+        verdict_table(d, it);
+    else
+        sheet_para(d, font, "No criterion was judged.");
+}
+
+/* ---- 6. the inventory ------------------------------------------------------------ */
+
+static double table_row(sheet_doc *d, const double *cx, size_t n, const char *const *cells,
+                        const char *font, int draw)
+{
+    double w = sheet_width(d), h = 0.0;
+    for (size_t c = 0; c < n; c++) {
+        double cw = (c + 1 < n ? cx[c + 1] : 1.0) * w - cx[c] * w - 4.0;
+        double ch = sheet_text(d, d->left + cx[c] * w, d->y, cw, font, cells[c], draw);
+        if (ch > h)
+            h = ch;
+    }
+    return h;
+}
+
+enum { TABLE_COLS = 6 + PLUMB_MAX_VERDICTS };
+
+static void inventory_header(sheet_doc *d, const plumb_brief *b, const double *cx, size_t n,
+                             const char *bold)
+{
+    const char *cells[TABLE_COLS];
+    cells[0] = "#";
+    cells[1] = "Item";
+    cells[2] = sheet_fmt(d, "Mass");
+    cells[3] = "Impact energy";
+    for (size_t k = 0; k < b->n_criteria; k++)
+        cells[4 + k] = sheet_fmt(d, "\x02Ratio to\n<span font_size=\"smaller\">%s</span>",
+                                 sheet_esc(d, b->criteria[k]->id));
+    cells[4 + b->n_criteria] = "Verdict";
+    cells[5 + b->n_criteria] = "Drift";
+    double h = table_row(d, cx, n, cells, bold, 0);
+    sheet_need(d, h + 16.0);
+    table_row(d, cx, n, cells, bold, 1);
+    d->y += h + 1.0;
+    cairo_move_to(d->cr, d->left, d->y);
+    cairo_line_to(d->cr, d->right, d->y);
+    sheet_stroke(d, SHEET_SOLID, 0.6);
+    d->y += 2.0;
+}
+
+void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
+{
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_SMALL);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_SMALL);
+    writer *P = primary(d);
+    sheet_heading(d, "6. Every item, worst first", 60.0);
+    const char *note = sheet_fmt(
+        d, "%zu items, sorted by their largest ratio to a criterion. Worst: %s.%s", b->fall->n_items,
+        b->fall->items[b->order[0]].spec->name,
+        b->zone ? sheet_fmt(d, " The clearance zone is set by %s (largest clearance radius, %s).",
+                            b->zone->items[b->zone_item].name,
+                            plumbp_t_len(P, b->zone->items[b->zone_item].result->zone
+                                                .clearance_radius_m))
+                : "");
+    sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY), sheet_esc(d, note));
+    size_t n = 6 + b->n_criteria;
+    /* column starts, fractions of the width: #, item, mass, energy, one
+     * ratio per criterion, verdict, drift; the item's name takes what the
+     * criteria leave */
+    double cx[TABLE_COLS], ratio_w = 0.085, item_w = 0.47 - ratio_w * (double)b->n_criteria;
+    if (item_w < 0.16)
+        item_w = 0.16;
+    cx[0] = 0.0;
+    cx[1] = 0.035;
+    cx[2] = cx[1] + item_w;
+    cx[3] = cx[2] + 0.095;
+    cx[4] = cx[3] + 0.14;
+    for (size_t k = 0; k < b->n_criteria; k++)
+        cx[5 + k] = cx[4 + k] + ratio_w;
+    cx[5 + b->n_criteria] = cx[4 + b->n_criteria] + 0.09;
+    /* a profile with very many criteria: squeeze everything to fit */
+    double end = cx[5 + b->n_criteria] + 0.12;
+    for (size_t c = 0; end > 1.0 && c < n; c++)
+        cx[c] /= end;
+    inventory_header(d, b, cx, n, bold);
+    d->running = "6. Every item, worst first";
+    for (size_t r = 0; r < b->fall->n_items; r++) {
+        const plumb_item_report *it = &b->fall->items[b->order[r]];
+        const char *cells[TABLE_COLS];
+        int exceeds = 0;
+        cells[0] = sheet_fmt(d, "%zu", b->order[r] + 1);
+        cells[1] = sheet_esc(d, it->spec->name);
+        cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
+        cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
+        for (size_t k = 0; k < b->n_criteria; k++) {
+            cells[4 + k] = "-";
+            for (size_t v = 0; v < it->n_verdicts; v++)
+                if (it->verdicts[v].criterion == b->criteria[k]) {
+                    cells[4 + k] = sheet_fmt(d, "%s\n%s", num(P, it->verdicts[v].ratio, RATIO_SIG),
+                                             it->verdicts[v].exceeds ? "exceeds" : "within");
+                    exceeds |= it->verdicts[v].exceeds;
+                }
+        }
+        cells[4 + b->n_criteria] = exceeds ? "<b>exceeds</b>" : "within all";
+        cells[5 + b->n_criteria] =
+            it->result.drift_m < DRIFT_SHOWN_M
+                ? "none"
+                : sheet_fmt(d, "%s toward %s", plumbp_t_len(P, it->result.drift_m),
+                            plumbp_t_bearing(P, it->result.bearing_deg));
+        double h = table_row(d, cx, n, cells, font, 0);
+        if (d->y + h > d->bottom) {
+            sheet_new_page(d);
+            inventory_header(d, b, cx, n, bold);
+        }
+        table_row(d, cx, n, cells, font, 1);
+        d->y += h + 1.5;
+    }
+    d->running = NULL;
+}
+
+/* ---- 7. inputs and assumptions; 8. cautions ---------------------------------------- */
+
+/* The text report's block from `from` up to `to`, as lines in mono. */
+static void text_block(sheet_doc *d, const char *text, const char *from, const char *to)
+{
+    const char *a = strstr(text, from);
+    if (!a)
+        return;
+    a += strlen(from);
+    const char *z = strstr(a, to);
+    if (!z)
+        z = a + strlen(a);
+    char mono[64];
+    snprintf(mono, sizeof mono, "%s %.1f", SHEET_MONO, 8.0);
+    while (a < z) {
+        const char *nl = memchr(a, '\n', (size_t)(z - a));
+        size_t len = nl ? (size_t)(nl - a) : (size_t)(z - a);
+        char line[FMT_LEN];
+        snprintf(line, sizeof line, "%.*s", (int)(len < sizeof line ? len : sizeof line - 1), a);
+        const char *m = sheet_fmt(d, "%s", line[0] ? line : " ");
+        double h = sheet_text(d, d->left, d->y, sheet_width(d), mono, m, 0);
+        sheet_need(d, h);
+        sheet_text(d, d->left, d->y, sheet_width(d), mono, m, 1);
+        d->y += h;
+        a += len + (nl ? 1 : 0);
+    }
+}
+
+plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag *diag)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    sheet_heading(d, "7. Inputs as understood, and the model's assumptions", 80.0);
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mem = open_memstream(&buf, &len);
+    if (!mem)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
+    plumb_report_options ro = {PLUMB_FORMAT_TEXT, d->opt->units, d->opt->version};
+    plumb_status st = plumb_report_fall(mem, &ro, b->fall, diag);
+    if (fclose(mem) != 0 && st == PLUMB_OK)
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
+    if (st == PLUMB_OK) {
+        text_block(d, buf, "\nInputs as understood\n", "\nProfile  ");
+        if (strstr(buf, "\nWarnings\n")) {
+            d->y += GAP;
+            sheet_para(d, sheet_fmt(d, "%s Bold %.1f", SHEET_FONT, SHEET_BODY), "Warnings");
+            text_block(d, buf, "\nWarnings\n", "\nInputs as understood\n");
+        }
+        d->y += GAP;
+        sheet_para(d, sheet_fmt(d, "%s Bold %.1f", SHEET_FONT, SHEET_BODY), "The model assumes");
+        for (size_t i = 0; i < sizeof assumptions / sizeof assumptions[0]; i++)
+            sheet_para(d, font, sheet_fmt(d, "\u2022 %s", assumptions[i]));
+    }
+    free(buf);
+    return st;
+}
+
+void sheet_section_cautions(sheet_doc *d)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    sheet_heading(d, "8. Cautions", 60.0);
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    for (size_t i = 0; i < n; i++)
+        sheet_para(d, font, sheet_fmt(d, "\u2022 %s", c[i]));
+}
+
+/* ---- the pictures' sections --------------------------------------------------------- */
+
+void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
+{
+    double w = sheet_width(d);
+    sheet_heading(d, "3. Side view of the fall", 220.0);
+    d->y += sheet_side_view(d, b, d->left, d->y, w, 215.0);
+    sheet_heading(d, "4. Impact energy against drop height", 260.0);
+    d->y += sheet_energy_plot(d, b, d->left, d->y, w, 250.0);
+}
+
+/* The plan view from whatever the zone gives: circles around the drop
+ * point and the target, the 95 % ellipse as a polygon, the impact points
+ * binned into a density grid. */
+
+void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
+{
+    char font[64];
+    snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, 11.0);
+    sheet_heading(d, "5. Plan view of the clearance zone", b->zone ? 330.0 : 20.0);
+    if (!b->zone) {
+        sheet_para(d, font, sheet_esc(d, b->no_zone));
+        return;
+    }
+    writer *P = primary(d);
+    const plumb_zone_result *z = b->zone->items[b->zone_item].result;
+    const plumb_zone_stats *s = &z->zone;
+    const plumb_fall_spec *spec = b->fall->items[b->zone_item].spec;
+    if (b->zone->n_items > 1)
+        sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY),
+                   sheet_fmt(d, "The zone of %s, the item with the largest clearance radius; "
+                                "section 6 names every item.", b->zone->items[b->zone_item].name));
+    sheet_plan pv;
+    memset(&pv, 0, sizeof pv);
+    pv.drop_m[0] = s->release_m[0];
+    pv.drop_m[1] = s->release_m[1];
+    double we, wn;
+    plumb_wind_at(&spec->wind, spec->release_m[2], &we, &wn);
+    plumbp_wind_polar(we, wn, &pv.wind_m_s, &pv.wind_from_deg);
+    sheet_circle *c = &pv.circles[pv.n_circles++];
+    *c = (sheet_circle){{s->centre_m[0], s->centre_m[1]}, s->clearance_radius_m, SHEET_SOLID, 1.8,
+                        ""};
+    snprintf(c->label, sizeof c->label, "heavy solid circle: keep clear, %s around the drop point",
+             sheet_fmt(d, "%s", plumbp_t_len(P, s->clearance_radius_m)));
+    /* the 90 % radius around the drop point */
+    c = &pv.circles[pv.n_circles++];
+    *c = (sheet_circle){{s->centre_m[0], s->centre_m[1]}, s->radius[1].value, SHEET_DASHED, 0.8,
+                        ""};
+    snprintf(c->label, sizeof c->label, "dashed circle: %s%% of impacts within %s of the drop point",
+             sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->radius[1].p, 2)),
+             sheet_fmt(d, "%s", plumbp_t_len(P, s->radius[1].value)));
+    /* where things land: the landing circle around the impacts' centre */
+    if (s->landing_circle_m > 0.0) {
+        c = &pv.circles[pv.n_circles++];
+        *c = (sheet_circle){{s->landing_centre_m[0], s->landing_centre_m[1]}, s->landing_circle_m,
+                            SHEET_SOLID, 0.8, ""};
+        snprintf(c->label, sizeof c->label,
+                 "thin solid circle: where things land, %s%% of impacts within %s of their centre",
+                 sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * z->confidence, 2)),
+                 sheet_fmt(d, "%s", plumbp_t_len(P, s->landing_circle_m)));
+    }
+    if (z->has_target) {
+        pv.has_target = 1;
+        pv.target_m[0] = z->target_m[0];
+        pv.target_m[1] = z->target_m[1];
+        pv.has_aim = 1;
+        pv.aim_m[0] = z->aim_release_m[0];
+        pv.aim_m[1] = z->aim_release_m[1];
+        c = &pv.circles[pv.n_circles++];
+        *c = (sheet_circle){{z->target_m[0], z->target_m[1]}, z->at_target.clearance_radius_m,
+                            SHEET_DASHDOT, 1.2, ""};
+        snprintf(c->label, sizeof c->label,
+                 "dash-dot circle: keep clear, %s around the target when released to land on it",
+                 sheet_fmt(d, "%s", plumbp_t_len(P, z->at_target.clearance_radius_m)));
+    }
+    /* the landing region: the polygon holding the zone's share of the
+     * impacts, with the scatter allowance as a buffer, one entry per ring */
+    const plumb_region_polygon *rg = &s->landing.buffered;
+    for (size_t r = 0; !s->landing.open && r < rg->n_rings && pv.n_polygons < SHEET_PLAN_POLYGONS;
+         r++) {
+        sheet_polygon *pg = &pv.polygons[pv.n_polygons++];
+        *pg = (sheet_polygon){rg->ring_count[r], &rg->vertex_m[rg->ring_first[r]][0], SHEET_DOTTED,
+                              1.3, ""};
+        if (r == 0)
+            snprintf(pg->label, sizeof pg->label,
+                     "dotted outline: the landing region, %s%% of impacts inside (%s %s)",
+                     sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->landing.p, 2)),
+                     sheet_fmt(d, "%s", num(P, P->us ? rg->area_m2 / (PLUMB_FT_M * PLUMB_FT_M)
+                                                     : rg->area_m2, TEXT_SIG)),
+                     P->us ? "ft\u00B2" : "m\u00B2");
+    }
+    pv.n_points = b->n_points[0];
+    pv.points_m = b->points_m[0];
+    snprintf(pv.points_label, sizeof pv.points_label,
+             "grey shading: where the first %zu of %zu sampled impacts fell, darker where more did",
+             b->n_points[0], z->samples);
+    d->y += sheet_plan_view(d, &pv, d->left, d->y, sheet_width(d), 300.0);
+}
+

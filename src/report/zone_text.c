@@ -1,0 +1,500 @@
+/*
+ * zone_text.c - the text report of a Monte Carlo clearance zone: the
+ * inputs echoed, the radii, clearance, cloud, attitudes, energies,
+ * exceedances, landing region and rules of each item, its warnings, and
+ * the cautions (conventions of report_zone.c and include/plumb/report.h).
+ */
+#include <limits.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <jansson.h>
+
+#include "plumb/constants.h"
+#include "plumb/report.h"
+#include "plumb/version.h"
+#include "plumb/dispersion.h"
+#include "core/internal.h"
+#include "report/jsonout.h"
+#include "report/format.h"
+#include "report/zone_map.h"
+#include "report/report_zone_int.h"
+
+/* Percent per unit fraction. */
+#define PERCENT 100.0
+
+/* ---- writer ---------------------------------------------------------------- */
+
+
+
+
+
+
+/* Inputs and percents without trailing zeros; computed figures with them. */
+static const char *trim(writer *w, double x, int sig, int dec)
+{
+    return plumbp_trim_to(w, x, sig, dec, 1);
+}
+
+static const char *fig(writer *w, double x, int dec)
+{
+    return plumbp_trim_to(w, x, TEXT_SIG, dec, 0);
+}
+
+/* Decimals figures are shown to: a millimetre, a millijoule, a hundredth
+ * of a percent, input digits. */
+#define LEN_DEC 3
+#define ENERGY_DEC 3
+#define PCT_DEC 2
+#define INPUT_DEC 9
+
+/* Lengths and energies of a zone keep TEXT_SIG figures but no digit below
+ * a millimetre or a millijoule (a spread of samples is not known finer);
+ * the fall reports' plumbp_t_len and plumbp_t_energy keep all TEXT_SIG
+ * figures. Speeds are the shared plumbp_t_speed. */
+static const char *t_len(writer *w, double m)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s %s", fig(w, len_shown(w, m), LEN_DEC), len_unit(w));
+    return b;
+}
+
+static const char *t_energy(writer *w, double j)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft·lbf (%s J)", fig(w, j / PLUMB_FT_LBF_J, ENERGY_DEC),
+                 fig(w, j, ENERGY_DEC));
+    else
+        snprintf(b, NUMBUF, "%s J (%s ft·lbf)", fig(w, j, ENERGY_DEC),
+                 fig(w, j / PLUMB_FT_LBF_J, ENERGY_DEC));
+    return b;
+}
+
+
+/* A point as "12.3 m E, 4.56 m S". A coordinate that prints as zero is
+ * E or N whatever its sign: never "0 m S" for -1e-12 m. */
+static const char *t_point(writer *w, const double p[2])
+{
+    char *b = slot(w);
+    const char *e = t_len(w, fabs(p[0])), *n = t_len(w, fabs(p[1]));
+    snprintf(b, NUMBUF, "%s %s, %s %s", e, p[0] < 0.0 && !plumbp_shows_zero(e) ? "W" : "E", n,
+             p[1] < 0.0 && !plumbp_shows_zero(n) ? "S" : "N");
+    return b;
+}
+
+/* Joins a number to its unit inside a sentence so that wrapping never
+ * parts them; printed as a space. */
+
+
+/* ---- input echo --------------------------------------------------------- */
+
+/* Display factor and unit of a key's SI values. */
+static double key_unit(const writer *w, const char *key, const char **unit)
+{
+    plumb_dim dim = PLUMB_DIM_NONE;
+    if (plumb_profile_key_dim(key, &dim, NULL) != PLUMB_OK)
+        dim = PLUMB_DIM_NONE;
+    *unit = plumb_dim_si_unit(dim);
+    /* one spelling of square and cubic metres in every report */
+    if (dim == PLUMB_DIM_AREA)
+        *unit = "m²";
+    else if (dim == PLUMB_DIM_VOLUME)
+        *unit = "m³";
+    else if (dim == PLUMB_DIM_DENSITY)
+        *unit = "kg/m³";
+    switch (dim) {
+    case PLUMB_DIM_NONE: case PLUMB_DIM_FRACTION:
+        *unit = "";
+        return 1.0;
+    case PLUMB_DIM_ANGLE:
+        *unit = "°";
+        return 1.0;
+    case PLUMB_DIM_LENGTH:
+        if (w->us) { *unit = "ft"; return 1.0 / PLUMB_FT_M; }
+        return 1.0;
+    case PLUMB_DIM_SPEED:
+        /* a wind speed as a crew reads it, as plumbp_show_key gives it */
+        if (w->us && strncmp(key, "wind.", 5) == 0) { *unit = "mph"; return 1.0 / MPH_M_S; }
+        if (w->us) { *unit = "ft/s"; return 1.0 / PLUMB_FT_M; }
+        return 1.0;
+    case PLUMB_DIM_MASS:
+        if (w->us) { *unit = "lb"; return 1.0 / PLUMB_LB_KG; }
+        return 1.0;
+    case PLUMB_DIM_AREA:
+        if (w->us) { *unit = "ft²"; return 1.0 / (PLUMB_FT_M * PLUMB_FT_M); }
+        return 1.0;
+    case PLUMB_DIM_VOLUME:
+        if (w->us) { *unit = "ft³"; return 1.0 / (PLUMB_FT_M * PLUMB_FT_M * PLUMB_FT_M); }
+        return 1.0;
+    default:
+        return 1.0;
+    }
+}
+
+static const char *pct(writer *w, double p);
+
+/* The gusts each sample falls through (plumb/turbulence.h). */
+static void text_gusts(writer *w, const plumb_zone_result *r)
+{
+    if (r->gust_model == PLUMB_TURB_NONE)
+        return;
+    char line[256];
+    snprintf(line, sizeof line,
+             "%s (MIL-F-8785C low altitude), W20 %s: each sample falls through its own "
+             "realisation", r->gust_model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
+             plumbp_t_speed(w, r->gust_w20_m_s));
+    wrapped(w, "  wind.turbulence            ", line);
+}
+
+static void text_inputs(writer *w, const plumb_zone_result *r)
+{
+    if (r->n_inputs == 0) {
+        put(w, "Uncertain inputs\n  none: every sample is the same fall, so the radius below is "
+               "that fall's\n  drift alone; give the inputs' uncertainty to size a zone\n\n");
+        return;
+    }
+    put(w, "Uncertain inputs\n");
+    for (size_t i = 0; i < r->n_inputs; i++) {
+        const plumb_zone_input *in = &r->inputs[i];
+        const char *u;
+        double f = key_unit(w, in->key, &u);
+        const char *sp = u[0] && strcmp(u, "°") != 0 ? NBSP : "";
+        char line[512];
+        switch (in->kind) {
+        case PLUMB_DIST_CHOICE: {
+            double total = 0.0;
+            for (size_t k = 0; k < in->n_choice; k++)
+                total += in->weight[k];
+            size_t len = (size_t)snprintf(line, sizeof line, "one of");
+            for (size_t k = 0; k < in->n_choice && len < sizeof line; k++)
+                len += (size_t)snprintf(line + len, sizeof line - len, "%s %s (%s, cd %s on %s)",
+                                        k ? "," : "", in->choice[k],
+                                        pct(w, in->weight[k] / total),
+                                        trim(w, in->choice_drag[k][0], INPUT_SIG, INPUT_DEC),
+                                        plumbp_t_area(w, in->choice_drag[k][1]));
+            break;
+        }
+        case PLUMB_DIST_UNIFORM:
+            snprintf(line, sizeof line, "uniform %s%s%s to %s%s%s", trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC),
+                     sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u);
+            break;
+        case PLUMB_DIST_TRIANGULAR:
+            snprintf(line, sizeof line, "triangular %s%s%s, mode %s%s%s, to %s%s%s",
+                     trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC), sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u,
+                     trim(w, f * in->param[2], INPUT_SIG, INPUT_DEC), sp, u);
+            break;
+        default:
+            snprintf(line, sizeof line, "normal, mean %s%s%s, sd %s%s%s", trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC),
+                     sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u);
+            break;
+        }
+        if (in->truncated) {
+            size_t len = strlen(line);
+            char lo[64] = "", hi[64] = "";
+            if (isfinite(in->lower))
+                snprintf(lo, sizeof lo, "%s%s%s", trim(w, f * in->lower, INPUT_SIG, INPUT_DEC), sp, u);
+            if (isfinite(in->upper))
+                snprintf(hi, sizeof hi, "%s%s%s", trim(w, f * in->upper, INPUT_SIG, INPUT_DEC), sp, u);
+            if (lo[0] && hi[0])
+                snprintf(line + len, sizeof line - len, "; truncated to %s – %s", lo, hi);
+            else
+                snprintf(line + len, sizeof line - len, "; truncated at %s", lo[0] ? lo : hi);
+            len = strlen(line);
+            snprintf(line + len, sizeof line - len,
+                     " (%zu draw%s fell outside and %s drawn again, for %zu samples)",
+                     in->redraws, in->redraws == 1 ? "" : "s", in->redraws == 1 ? "was" : "were",
+                     r->samples);
+        }
+        char lead[PLUMB_DIAG_KEY + 8];
+        snprintf(lead, sizeof lead, "  %-26s ", in->key);
+        wrapped(w, lead, line);
+    }
+    text_gusts(w, r);
+    put(w, "\n");
+}
+
+/* ---- text --------------------------------------------------------------- */
+
+static const char *t_interval(writer *w, const plumb_zone_quantile *q, double scale,
+                              const char *unit)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s%s – %s %s%s", q->lo_open ? "(open) " : "",
+             fig(w, q->lo * scale, LEN_DEC), fig(w, q->hi * scale, LEN_DEC),
+             unit, q->hi_open ? " (open: more samples needed)" : "");
+    return b;
+}
+
+static const char *pct(writer *w, double p)
+{
+    char *b = slot(w);
+    double x = PERCENT * p;
+    /* a small non-zero bound keeps two figures rather than rounding to 0 */
+    if (x > 0.0 && x < 0.5 * pow(10.0, -PCT_DEC))
+        snprintf(b, NUMBUF, "%.2g %%", x);
+    else
+        snprintf(b, NUMBUF, "%s %%", trim(w, x, TEXT_SIG, PCT_DEC));
+    return b;
+}
+
+static void text_radii(writer *w, const plumb_zone_stats *z, double level, const char *from)
+{
+    put(w, "Distance from %s\n", from);
+    put(w, "  %-8s %-12s %s interval\n", "", "radius", pct(w, level));
+    for (int i = 0; i < PLUMB_ZONE_RADII; i++) {
+        const plumb_zone_quantile *q = &z->radius[i];
+        put(w, "  %-8s %-12s %s\n", pct(w, q->p), t_len(w, q->value),
+            t_interval(w, q, len_shown(w, 1.0), len_unit(w)));
+    }
+    put(w, "  %-8s %s\n\n", "largest", t_len(w, z->radius_max_m));
+}
+
+static void text_clearance(writer *w, const plumb_zone_stats *z, double confidence, double level,
+                           const char *around)
+{
+    put(w, "Clearance radius at %s%s: %s\n", pct(w, confidence), around, t_len(w, z->clearance_radius_m));
+    put(w, "  = %-12s upper %s bound of the %s radius (estimate %s)\n",
+        t_len(w, z->radius_conf.hi), pct(w, level), pct(w, confidence), t_len(w, z->radius_conf.value));
+    put(w, "  + %-12s scatter allowance for bounce and deflection, as given\n\n",
+        t_len(w, z->scatter_m));
+}
+
+static void text_cloud(writer *w, const plumb_zone_stats *z)
+{
+    put(w, "  mean impact     %s\n", t_point(w, z->mean_m));
+    double b2 = z->bearing_deg + 180.0;
+    if (z->semi_major_m == 0.0) {
+        put(w, "  95 %% ellipse    none: every sample lands on the same point\n");
+        return;
+    }
+    put(w, "  95 %% ellipse    semi-major %s, semi-minor %s\n", t_len(w, z->semi_major_m),
+        t_len(w, z->semi_minor_m));
+    put(w, "                  major axis along %s° – %s° (%s–%s)\n", trim(w, z->bearing_deg, 4, 1),
+        trim(w, b2, 4, 1), compass(z->bearing_deg), compass(b2));
+}
+
+/* Which attitude set the energy and which the distance. */
+static void text_attitudes(writer *w, const plumb_zone_stats *z)
+{
+    if (z->n_attitudes == 0)
+        return;
+    char line[512];
+    size_t len = (size_t)snprintf(line, sizeof line, "the largest impact energy came from a "
+                                  "fall %s (it sets the top energy percentiles), the farthest "
+                                  "impact from one %s (it sets the radii); samples:",
+                                  z->attitude[z->attitude_energy].name,
+                                  z->attitude[z->attitude_radius].name);
+    for (size_t k = 0; k < z->n_attitudes && len < sizeof line; k++)
+        len += (size_t)snprintf(line + len, sizeof line - len, "%s %s %zu", k ? "," : "",
+                                z->attitude[k].name, z->attitude[k].count);
+    put(w, "Attitude\n");
+    wrapped(w, "  ", line);
+    put(w, "\n");
+}
+
+static void text_energy(writer *w, const plumb_zone_stats *z, double level)
+{
+    put(w, "Impact energy, with the %s interval\n", pct(w, level));
+    for (int i = 0; i < PLUMB_ZONE_ENERGIES; i++) {
+        const plumb_zone_quantile *q = &z->energy[i];
+        put(w, "  %-8s %-26s %s\n", pct(w, q->p), t_energy(w, q->value),
+            t_interval(w, q, w->us ? 1.0 / PLUMB_FT_LBF_J : 1.0, w->us ? "ft·lbf" : "J"));
+    }
+    put(w, "  %-8s %s\n\n", "largest", t_energy(w, z->energy_max_j));
+}
+
+static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
+{
+    if (z->n_exceedance == 0)
+        return;
+    put(w, "Probability that the impact energy exceeds each criterion (%s interval)\n",
+        pct(w, level));
+    for (size_t i = 0; i < z->n_exceedance; i++) {
+        const plumb_zone_exceedance *x = &z->exceedance[i];
+        const plumb_criterion *c = x->criterion;
+        put(w, "  %-9s %s – %s, %zu of %zu samples above %s\n", pct(w, x->probability),
+            pct(w, x->lo), pct(w, x->hi), x->count, z->samples, plumbp_t_limit_energy(w, c->energy_limit_j));
+        char src[2 * PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 128];
+        const char *note = status_note_of(c->status);
+        snprintf(src, sizeof src, "%s [%s]; source: %s%s%s%s%s", c->name, c->id,
+                 c->source[0] ? c->source : "not given", note[0] ? " (" : "", note,
+                 note[0] ? ")" : "",
+                 c->kind == PLUMB_CRIT_HELMET_TEST
+                     ? " (the energy a helmet is tested to, not a safe limit)" : "");
+        wrapped(w, "            ", src);
+    }
+    put(w, "\n");
+}
+
+/* Where the impacts land: the circle around the cloud's centre and the
+ * polygon, each holding the confidence's share of impacts. */
+static void text_landing(writer *w, const plumb_zone_stats *z, double confidence, double level)
+{
+    const plumb_zone_quantile *q = &z->landing_radius;
+    const plumb_region_result *lr = &z->landing;
+    put(w, "Where %s of the impacts land, wherever that is on the ground\n", pct(w, confidence));
+    char line[512];
+    put(w, "  circle centre   %s (mean of the first %zu samples)\n",
+        t_point(w, z->landing_centre_m), z->landing_training);
+    if (q->hi_open) {
+        put(w, "  circle radius   open: more samples needed to bound it\n");
+    } else {
+        put(w, "  circle radius   %s, %s interval %s\n", t_len(w, q->value), pct(w, level),
+            t_interval(w, q, len_shown(w, 1.0), len_unit(w)));
+        put(w, "  landing circle  %s = upper bound %s + scatter %s\n",
+            t_len(w, z->landing_circle_m), t_len(w, q->hi), t_len(w, z->scatter_m));
+    }
+    if (lr->open) {
+        put(w, "  polygon         open: more samples needed to bound it\n");
+    } else {
+        put(w, "  polygon         %s in %zu part%s; with the scatter allowance as a buffer\n"
+               "                  %s\n",
+            plumbp_t_area(w, lr->polygon.area_m2),
+            lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s",
+            plumbp_t_area(w, lr->buffered.area_m2));
+    }
+    snprintf(line, sizeof line,
+             "the first %zu samples fix the centre and a density grid; the other %zu are "
+             "counted against them, so each figure holds at least %s of the impacts with %s "
+             "confidence (order statistics; split conformal for the polygon, Lei, Robins & "
+             "Wasserman 2013). The polygons are in --regions-out and --format geojson.",
+             z->landing_training, z->samples - z->landing_training, pct(w, confidence),
+             pct(w, level));
+    wrapped(w, "  ", line);
+    put(w, "\n");
+}
+
+static void text_rules(writer *w, const plumb_zone_stats *z)
+{
+    put(w, "Simple rules, beside the computed radius\n");
+    put(w, "  %-26s %s\n", "radius = drop height", t_len(w, z->drop_height_m));
+    char line[256];
+    if (z->glide_ratio_max > 0.0) {
+        snprintf(line, sizeof line,
+                 "up to %s (%s x the drop height): a plate gliding in still air, published "
+                 "range of glide ratios 0 to %s; \"radius = drop height\" is not conservative "
+                 "for it (plumb/glide.h)",
+                 t_len(w, z->glide_ratio_max * z->drop_height_m),
+                 num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4));
+        wrapped(w, "  plate glide                ", line);
+    }
+    snprintf(line, sizeof line,
+             "%s: the range, without drag or wind, of the sample released fastest (%s, in "
+             "its own direction)",
+             t_len(w, z->ballistic_throw_m), plumbp_t_speed(w, z->max_release_speed_m_s));
+    for (char *c = line; *c; c++)
+        if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
+            *c = NBSP_CHAR;
+    wrapped(w, "  drag-free throw            ", line);
+    put(w, "\n");
+}
+
+static void text_warnings(writer *w, const plumb_zone_result *r)
+{
+    if (r->n_warnings == 0)
+        return;
+    put(w, "Warnings\n");
+    for (size_t i = 0; i < r->n_warnings; i++)
+        wrapped(w, "  - ", r->warnings[i]);
+    put(w, "\n");
+}
+
+static void text_item(writer *w, const plumb_zone_result *r)
+{
+    const plumb_zone_stats *z = &r->zone;
+    text_warnings(w, r);
+    text_inputs(w, r);
+    put(w, "Impact cloud, released at the planned drop point (%s)\n", t_point(w, z->release_m));
+    text_cloud(w, z);
+    put(w, "\n");
+    text_radii(w, z, r->ci_level, "the planned drop point");
+    text_clearance(w, z, r->confidence, r->ci_level, "");
+    text_landing(w, z, r->confidence, r->ci_level);
+    text_rules(w, z);
+    text_energy(w, z, r->ci_level);
+    text_attitudes(w, z);
+    text_exceedance(w, z, r->ci_level);
+    if (r->has_target) {
+        const plumb_zone_stats *t = &r->at_target;
+        put(w, "Target %s\n", t_point(w, r->target_m));
+        put(w, "  release at      %s puts the median impact on the target\n",
+            t_point(w, r->aim_release_m));
+        double med[2] = {t->release_m[0] + t->displacement[0].value,
+                         t->release_m[1] + t->displacement[1].value};
+        put(w, "  median impact   %s, in a run of %zu samples released there\n", t_point(w, med),
+            t->samples);
+        text_cloud(w, t);
+        put(w, "\n");
+        text_radii(w, t, r->ci_level, "the target, released at that point");
+        text_clearance(w, t, r->confidence, r->ci_level, " around the target");
+        text_energy(w, t, r->ci_level);
+        text_exceedance(w, t, r->ci_level);
+    }
+}
+
+static void text_cautions(writer *w)
+{
+    size_t n;
+    const char *const *c = plumb_cautions(&n);
+    put(w, "Cautions\n");
+    for (size_t i = 0; i < n; i++)
+        wrapped(w, "  - ", c[i]);
+}
+
+/* The kit as a whole: the largest clearance radius and landing circle,
+ * and the items that set them. */
+static void text_kit(writer *w, const plumb_zone_report *rep)
+{
+    const plumb_zone_result *k = rep->items[rep->kit_item].result;
+    const plumb_zone_result *l = rep->items[rep->kit_landing_item].result;
+    put(w, "==== The kit\n\n");
+    char line[512];
+    snprintf(line, sizeof line, "%s around the planned drop point, set by %s (the item with "
+             "the largest radius; every item's zone lies within it)",
+             t_len(w, k->zone.clearance_radius_m), rep->items[rep->kit_item].name);
+    put(w, "Kit clearance radius at %s:\n", pct(w, k->confidence));
+    wrapped(w, "  ", line);
+    if (!l->zone.landing_radius.hi_open) {
+        snprintf(line, sizeof line, "largest landing circle %s (with the scatter allowance), "
+                 "set by %s", t_len(w, l->zone.landing_circle_m),
+                 rep->items[rep->kit_landing_item].name);
+        wrapped(w, "  ", line);
+    }
+    put(w, "  %-30s %-14s %s\n", "item", "clearance", "landing circle");
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_zone_stats *z = &rep->items[i].result->zone;
+        put(w, "  %-30.30s %-14s %s\n", rep->items[i].name, t_len(w, z->clearance_radius_m),
+            z->landing_radius.hi_open ? "open" : t_len(w, z->landing_circle_m));
+    }
+    put(w, "\n");
+}
+
+void plumbp_zone_text_report(writer *w, const plumb_report_options *opt,
+                             const plumb_zone_report *rep)
+{
+    const plumb_zone_result *r0 = rep->items[0].result;
+    put(w, "plumb %s - zone: %s\n\n", opt->version ? opt->version : PLUMB_VERSION,
+        rep->profile_name ? rep->profile_name : rep->items[0].name);
+    put(w, "Monte Carlo  %zu samples per run, seed %lu, %zu thread%s (the figures do not\n"
+           "             depend on the thread count); intervals at %s: order statistics\n"
+           "             for percentiles, Clopper-Pearson for probabilities\n\n",
+        r0->samples, r0->seed, rep->threads, rep->threads == 1 ? "" : "s", pct(w, r0->ci_level));
+    for (size_t i = 0; i < rep->n_items; i++) {
+        if (rep->inventory)
+            put(w, "==== %s\n\n", rep->items[i].name);
+        text_item(w, rep->items[i].result);
+    }
+    if (rep->inventory)
+        text_kit(w, rep);
+    if (rep->profile_path)
+        put(w, "Profile  %s\n", rep->profile_path);
+    if (rep->profile_sha256)
+        put(w, "SHA-256  %s\n", rep->profile_sha256);
+    put(w, "\n");
+    text_cautions(w);
+}
+
