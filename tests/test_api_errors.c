@@ -241,6 +241,51 @@ static void test_boundaries_and_regions_refuse_what_they_cannot_draw(void **stat
     fclose(sink);
 }
 
+/* Uncertainties built in code that the profile loader would have refused:
+ * the sampler refuses them too, each with its own message and position. */
+static void test_the_sampler_refuses_uncertainties_the_loader_would(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    spanner(&s);
+    plumb_sampler *smp = NULL;
+    plumb_diag d;
+    plumb_uncertainty u[2];
+    memset(u, 0, sizeof u);
+    strcpy(u[0].key, "payload.mass");
+    u[0].line = 7;
+    u[0].col = 3;
+
+    u[0].kind = (plumb_dist_kind)99;
+    assert_raised(plumb_sampler_alloc(&s, u, 1, "code", &smp, &d), PLUMB_EINVAL, d);
+    assert_non_null(strstr(d.message, "unknown distribution kind 99"));
+    assert_int_equal(d.line, 7);
+    assert_null(smp);
+
+    u[0].kind = PLUMB_DIST_CHOICE; /* a choice of masses */
+    u[0].n_choice = 2;
+    strcpy(u[0].choice[0], "light");
+    strcpy(u[0].choice[1], "heavy");
+    u[0].weight[0] = u[0].weight[1] = 1.0;
+    for (int k = 0; k < 2; k++) {
+        u[0].choice_drag[k][0] = 0.9;
+        u[0].choice_drag[k][1] = 0.01;
+    }
+    assert_raised(plumb_sampler_alloc(&s, u, 1, "code", &smp, &d), PLUMB_EINVAL, d);
+    assert_non_null(strstr(d.message, "a choice is for payload.attitude"));
+
+    strcpy(u[0].key, "payload.attitude");
+    u[1] = u[0];
+    u[1].line = 9;
+    assert_raised(plumb_sampler_alloc(&s, u, 2, "code", &smp, &d), PLUMB_EINVAL, d);
+    assert_non_null(strstr(d.message, "is uncertain twice"));
+
+    u[0].choice_drag[1][1] = 0.0; /* an attitude of no area */
+    assert_raised(plumb_sampler_alloc(&s, u, 1, "code", &smp, &d), PLUMB_EINVAL, d);
+    assert_non_null(strstr(d.message, "attitude 'heavy' has no drag"));
+    assert_null(smp);
+}
+
 /* A stream that cannot be written (ENOSPC from the full device) is an
  * output failure, PLUMB_EWRITE, and not an input error (exit 3, not 2). */
 static void test_a_fall_report_to_a_full_stream_is_a_write_error(void **state)
@@ -415,6 +460,7 @@ int main(void)
         cmocka_unit_test(test_writers_refuse_a_missing_report_or_stream),
         cmocka_unit_test(test_a_fall_report_to_a_full_stream_is_a_write_error),
         cmocka_unit_test(test_boundaries_and_regions_refuse_what_they_cannot_draw),
+        cmocka_unit_test(test_the_sampler_refuses_uncertainties_the_loader_would),
         cmocka_unit_test(test_sweeps_samplers_and_zones_refuse_bad_arguments),
         cmocka_unit_test(test_set_keys_that_cannot_name_a_value_are_refused),
         cmocka_unit_test(test_a_report_with_a_figure_not_finite_is_not_written),

@@ -223,5 +223,11 @@ printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}\nrelease: {heigh
 refused "33 criteria to judge" "plumb: $tmp/no-criterion.yaml: criteria: " "33 criteria to judge; at most 32" \
   -- fall "$tmp/no-criterion.yaml" --criteria-dir "$tmp/many-criteria" --format json
 
+# A one-way sweep of more rows than a sweep holds (PLUMB_SWEEP_MAX_ROWS,
+# 10000), refused before any fall is run.
+refused "a one-way sweep of 20000 rows" "plumb: <command line>: --vary: " \
+  "20000 values make more than 10000 rows" \
+  -- sweep "$tmp/no-criterion.yaml" --vary "release.height=1 m:20000 m:1 m"
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
