@@ -529,6 +529,15 @@ void cli_study_close(cli_study *cs)
 #define SECONDS_PER_HOUR 3600.0
 #define SECONDS_PER_DAY 86400.0
 
+void cli_progress_clear(int *shown)
+{
+    if (*shown) {
+        fprintf(stderr, "\r%79s\r", "");
+        fflush(stderr);
+    }
+    *shown = 0;
+}
+
 void cli_duration(double s, char *buf, size_t size)
 {
     if (s < 1.5 * SECONDS_PER_MINUTE)

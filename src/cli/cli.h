@@ -186,6 +186,13 @@ void cli_estimate_times(double *after_s, double *note_s, double *warn_s);
 /* A duration for a person: "42 s", "7 min", "3.5 h", "2.1 days". */
 void cli_duration(double s, char *buf, size_t size);
 
+/* A progress line on a terminal is redrawn at most this often, seconds. */
+#define CLI_PROGRESS_EVERY_S 0.25
+
+/* Clears the progress line on standard error when *shown, and clears
+ * *shown. */
+void cli_progress_clear(int *shown);
+
 /* 1 when path `out` is an existing file that is the same file as `in`
  * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);

@@ -18,7 +18,6 @@
 
 /* Progress appears after this long, and is redrawn at most this often, s. */
 #define PROGRESS_AFTER_S 1.0
-#define PROGRESS_EVERY_S 0.25
 /* Digits of the per-sample CSV: 17 read back any double exactly. */
 #define SAMPLE_DIGITS 17
 /* Percent per unit fraction. */
@@ -197,7 +196,7 @@ void cli_zone_progress(void *user, int pass, size_t done, size_t total)
     if (!p->estimated && elapsed >= p->after_s)
         estimate(p, pass, done, total, elapsed);
     if (!p->tty || elapsed < PROGRESS_AFTER_S ||
-        (p->shown && since(&p->last, &now) < PROGRESS_EVERY_S && done < total))
+        (p->shown && since(&p->last, &now) < CLI_PROGRESS_EVERY_S && done < total))
         return;
     p->last = now;
     p->shown = 1;
@@ -222,11 +221,7 @@ void cli_zone_progress(void *user, int pass, size_t done, size_t total)
 
 void cli_zone_progress_clear(progress_ctx *p)
 {
-    if (p->shown) {
-        fprintf(stderr, "\r%79s\r", "");
-        fflush(stderr);
-    }
-    p->shown = 0;
+    cli_progress_clear(&p->shown);
 }
 
 /* ---- the per-sample file -------------------------------------------------- */

@@ -41,10 +41,8 @@ static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
 /* The estimate of a long sweep, made once the rows done have taken
  * after_s: a note on standard error when the whole will take over note_s,
  * a warning over warn_s (the thresholds of cli_estimate_times); then, on a
- * terminal, a progress line redrawn at most every PROGRESS_EVERY_S and
+ * terminal, a progress line redrawn at most every CLI_PROGRESS_EVERY_S and
  * cleared at the end. */
-#define PROGRESS_EVERY_S 0.25
-
 typedef struct estimate_ctx {
     struct timespec start;
     double after_s, note_s, warn_s;
@@ -56,7 +54,7 @@ typedef struct estimate_ctx {
 
 static void progress(estimate_ctx *e, size_t done, size_t total, double elapsed)
 {
-    if (!e->tty || (e->shown && elapsed - e->drawn_s < PROGRESS_EVERY_S))
+    if (!e->tty || (e->shown && elapsed - e->drawn_s < CLI_PROGRESS_EVERY_S))
         return;
     char left[32];
     cli_duration(elapsed * (double)(total - done) / (double)done, left, sizeof left);
@@ -65,15 +63,6 @@ static void progress(estimate_ctx *e, size_t done, size_t total, double elapsed)
     fflush(stderr);
     e->shown = 1;
     e->drawn_s = elapsed;
-}
-
-static void progress_clear(estimate_ctx *e)
-{
-    if (e->shown) {
-        fprintf(stderr, "\r%79s\r", "");
-        fflush(stderr);
-    }
-    e->shown = 0;
 }
 
 static void estimate(void *user, size_t done, size_t total)
@@ -126,7 +115,7 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         int timed = !a->quiet && clock_gettime(CLOCK_MONOTONIC, &e.start) == 0;
         st = plumb_study_sweep(cs.study, axes, n_vary, timed ? estimate : NULL, &e, &sweep,
                                &diag);
-        progress_clear(&e);
+        cli_progress_clear(&e.shown);
     }
     /* the text of a two-way sweep is its boundary: where each limit is reached */
     if (st == PLUMB_OK && n_vary == 2 && a->format == PLUMB_FORMAT_TEXT)
