@@ -20,6 +20,7 @@
 #include "core/internal.h"
 #include "report/jsonout.h"
 #include "report/format.h"
+#include "report/common.h"
 #include "report/zone_map.h"
 #include "report/report_zone_int.h"
 
@@ -117,10 +118,13 @@ static double key_unit(const writer *w, const char *key, const char **unit)
         if (w->us) { *unit = "ft"; return 1.0 / PLUMB_FT_M; }
         return 1.0;
     case PLUMB_DIM_SPEED:
-        /* a wind speed as a crew reads it, as plumbp_show_key gives it */
-        if (w->us && strncmp(key, "wind.", 5) == 0) { *unit = "mph"; return 1.0 / MPH_M_S; }
-        if (w->us) { *unit = "ft/s"; return 1.0 / PLUMB_FT_M; }
-        return 1.0;
+    {
+        /* linear: the factor is the display value of 1 m/s (a wind speed
+         * in mph in US units, as everywhere) */
+        shown v = plumbp_show_key(w, key, dim, 1.0);
+        *unit = v.unit;
+        return v.x;
+    }
     case PLUMB_DIM_MASS:
         if (w->us) { *unit = "lb"; return 1.0 / PLUMB_LB_KG; }
         return 1.0;
