@@ -25,6 +25,8 @@ LIBDIR    ?= $(PREFIX)/lib
 INCLUDEDIR ?= $(PREFIX)/include
 DATADIR   ?= $(PREFIX)/share
 PKGCONFIGDIR ?= $(LIBDIR)/pkgconfig
+# plumb-sheet, the program `plumb sheet` runs (src/cli/cli_sheet_exec.c).
+LIBEXECDIR ?= $(PREFIX)/libexec/plumb
 BUILD     ?= build
 CC        ?= cc
 OPT       ?= -O2 -g
@@ -94,6 +96,10 @@ DEMO_SAMPLES ?= 5000
 LIB_SRC   := $(sort $(shell find src -name '*.c' ! -path 'src/cli/*' ! -name 'sheet*.c'))
 SHEET_SRC := $(sort $(wildcard src/report/sheet*.c))
 CLI_SRC   := $(wildcard src/cli/*.c)
+# The two programs' main()s; the rest of the command line is an archive
+# both link, each taking what it calls: plumb does not take cmd_sheet.c,
+# so it does not need cairo and pango (src/cli/cli_sheet_exec.c).
+MAIN_SRC  := src/cli/main.c src/cli/sheet_main.c
 TEST_SRC  := $(wildcard tests/test_*.c)
 SUPP_SRC  := $(wildcard tests/support/*.c)
 BENCH_SRC := $(wildcard bench/*.c)
@@ -113,6 +119,9 @@ NOMEM_SRC := $(wildcard tests/nomem/test_*.c)
 LIB_OBJ   := $(LIB_SRC:%.c=$(BUILD)/obj/%.o)
 SHEET_OBJ := $(SHEET_SRC:%.c=$(BUILD)/obj/%.o)
 CLI_OBJ   := $(CLI_SRC:%.c=$(BUILD)/obj/%.o)
+CLI_LIB_OBJ := $(filter-out $(MAIN_SRC:%.c=$(BUILD)/obj/%.o),$(CLI_OBJ))
+MAIN_OBJ  := $(BUILD)/obj/src/cli/main.o
+SHEET_MAIN_OBJ := $(BUILD)/obj/src/cli/sheet_main.o
 TEST_OBJ  := $(TEST_SRC:%.c=$(BUILD)/obj/%.o)
 SUPP_OBJ  := $(SUPP_SRC:%.c=$(BUILD)/obj/%.o)
 TEST_BIN  := $(TEST_SRC:tests/%.c=$(BUILD)/tests/%)
@@ -125,19 +134,21 @@ NOMEM_CLI := $(BUILD)/tests/plumb-nomem
 
 LIB     := $(BUILD)/libplumb.a
 SHEET_LIB := $(BUILD)/libplumb-sheet.a
+CLI_LIB   := $(BUILD)/libplumb-cli.a
 SO_REAL := $(BUILD)/libplumb.so.$(VERSION)
 SO_LINKS := $(BUILD)/$(SONAME) $(BUILD)/libplumb.so
 SO_MAP  := src/libplumb.map
 PC      := $(BUILD)/plumb.pc
 BIN     := $(BUILD)/plumb
+SHEET_BIN := $(BUILD)/plumb-sheet
 
-.PHONY: all check demo sheet-image bench asan coverage install clean deps deps-test tests test-run \
+.PHONY: FORCE all check demo sheet-image bench asan coverage install clean deps deps-test tests test-run \
         check-build-plain check-build-asan
 .DELETE_ON_ERROR:
 # Objects are intermediate files of the test programs; keep them.
 .SECONDARY:
 
-all: $(BIN) $(LIB) $(SHEET_LIB) $(SO_REAL) $(SO_LINKS)
+all: $(BIN) $(SHEET_BIN) $(LIB) $(SHEET_LIB) $(SO_REAL) $(SO_LINKS)
 
 $(LIB_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS)
 $(SHEET_OBJ): EXTRA_OBJ_FLAGS = $(PIC_FLAGS) $(SHEET_CFLAGS)
@@ -146,7 +157,8 @@ $(TEST_OBJ) $(SUPP_OBJ): EXTRA_OBJ_FLAGS = -Itests/support
 # $PLUMB_CRITERIA_DIR says and none sits beside the executable: the
 # installed data directory, then this source tree (an out-of-tree build).
 $(CLI_OBJ): EXTRA_OBJ_FLAGS = -DPLUMB_CRITERIA_INSTALLED='"$(DATADIR)/plumb/criteria"' \
-  -DPLUMB_CRITERIA_SOURCE='"$(CURDIR)/profiles/criteria"'
+  -DPLUMB_CRITERIA_SOURCE='"$(CURDIR)/profiles/criteria"' \
+  -DPLUMB_LIBEXEC_DIR='"$(LIBEXECDIR)"'
 $(NOMEM_OBJ) $(NOMEM_TEST_OBJ): EXTRA_OBJ_FLAGS = -Itests/support -Itests/nomem
 
 $(BUILD)/obj/%.o: %.c Makefile
@@ -166,6 +178,12 @@ $(SHEET_LIB): $(SHEET_OBJ)
 	$(Q)rm -f $@
 	$(Q)ar rcs $@ $^
 
+$(CLI_LIB): $(CLI_LIB_OBJ)
+	@mkdir -p $(dir $@)
+	$(call say,AR,$@)
+	$(Q)rm -f $@
+	$(Q)ar rcs $@ $^
+
 # Only the plumb_* functions of the public headers are exported (the
 # version script); tests/cli/library.sh checks the list with nm -D.
 $(SO_REAL): $(LIB_OBJ) $(SO_MAP)
@@ -179,9 +197,13 @@ $(BUILD)/$(SONAME): $(SO_REAL)
 $(BUILD)/libplumb.so: $(BUILD)/$(SONAME)
 	$(Q)ln -sf $(notdir $<) $@
 
-$(BIN): $(CLI_OBJ) $(SHEET_LIB) $(LIB)
+$(BIN): $(MAIN_OBJ) $(CLI_LIB) $(LIB)
 	$(call say,LD,$@)
-	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $(CLI_OBJ) $(SHEET_LIB) $(LIB) $(LIBS) $(SHEET_LIBS)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $^ $(LIBS)
+
+$(SHEET_BIN): $(SHEET_MAIN_OBJ) $(CLI_LIB) $(SHEET_LIB) $(LIB)
+	$(call say,LD,$@)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $^ $(LIBS) $(SHEET_LIBS)
 
 $(BUILD)/tests/%: $(BUILD)/obj/tests/%.o $(SUPP_OBJ) $(LIB)
 	@mkdir -p $(dir $@)
@@ -193,18 +215,19 @@ $(NOMEM_BIN): $(BUILD)/tests/%: $(BUILD)/obj/tests/nomem/%.o $(NOMEM_OBJ) $(SUPP
 	$(call say,LD,$@)
 	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(TEST_LIBS)
 
-$(NOMEM_CLI): $(CLI_OBJ) $(NOMEM_OBJ) $(SHEET_LIB) $(LIB)
+$(NOMEM_CLI): $(MAIN_OBJ) $(NOMEM_OBJ) $(CLI_LIB) $(LIB)
 	@mkdir -p $(dir $@)
 	$(call say,LD,$@)
-	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(SHEET_LIBS)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS)
 
 $(BUILD)/bench/%: bench/%.c $(LIB) Makefile
 	@mkdir -p $(dir $@)
 	$(call say,CC,$<)
 	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $< $(LIB) $(LIBS)
 
-# pkg-config file for the installed library (PREFIX, LIBDIR, INCLUDEDIR).
-$(PC): plumb.pc.in Makefile include/plumb/version.h
+# pkg-config file for the installed library (PREFIX, LIBDIR, INCLUDEDIR);
+# made again at every install, as those may differ from the last one.
+$(PC): plumb.pc.in Makefile include/plumb/version.h FORCE
 	@mkdir -p $(dir $@)
 	$(call say,GEN,$@)
 	$(Q)sed -e 's|@PREFIX@|$(PREFIX)|g' -e 's|@LIBDIR@|$(LIBDIR)|g' \
@@ -281,9 +304,10 @@ bench: deps
 
 install: all $(PC)
 	$(call say,INSTALL,$(DESTDIR)$(PREFIX))
-	$(Q)install -d $(DESTDIR)$(BINDIR) $(DESTDIR)$(LIBDIR) $(DESTDIR)$(PKGCONFIGDIR) \
+	$(Q)install -d $(DESTDIR)$(BINDIR) $(DESTDIR)$(LIBEXECDIR) $(DESTDIR)$(LIBDIR) $(DESTDIR)$(PKGCONFIGDIR) \
 	  $(DESTDIR)$(INCLUDEDIR)/plumb $(DESTDIR)$(DATADIR)/plumb/criteria
 	$(Q)install -m 755 $(BIN) $(DESTDIR)$(BINDIR)/plumb
+	$(Q)install -m 755 $(SHEET_BIN) $(DESTDIR)$(LIBEXECDIR)/plumb-sheet
 	$(Q)install -m 644 $(LIB) $(DESTDIR)$(LIBDIR)/libplumb.a
 	$(Q)install -m 644 $(SHEET_LIB) $(DESTDIR)$(LIBDIR)/libplumb-sheet.a
 	$(Q)install -m 755 $(SO_REAL) $(DESTDIR)$(LIBDIR)/
@@ -295,5 +319,7 @@ install: all $(PC)
 
 clean:
 	rm -rf build
+
+FORCE:
 
 -include $(shell find $(BUILD)/obj -name '*.d' 2>/dev/null)

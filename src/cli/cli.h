@@ -220,4 +220,9 @@ int cmd_limit(int argc, char **argv);
 int cmd_zone(int argc, char **argv);
 int cmd_sheet(int argc, char **argv);
 
+/* `plumb sheet`: runs the program plumb-sheet (sheet_main.c), which alone
+ * links cairo and pango, with the same arguments (cli_sheet_exec.c).
+ * Returns only on failure: CLI_EXIT_FAILED, the error printed. */
+int cli_sheet_exec(int argc, char **argv);
+
 #endif /* PLUMB_CLI_H */

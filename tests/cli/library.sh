@@ -72,7 +72,8 @@ elif make --no-print-directory BUILD="$b" DESTDIR="$stage" PREFIX="$prefix" inst
   ok
   d=$stage$prefix
   for f in bin/plumb lib/libplumb.a "lib/libplumb.so.$ver" lib/pkgconfig/plumb.pc \
-           include/plumb/plumb.h include/plumb/version.h share/plumb/criteria/eu-c1-80j.yaml; do
+           include/plumb/plumb.h include/plumb/version.h share/plumb/criteria/eu-c1-80j.yaml \
+           libexec/plumb/plumb-sheet; do
     check "installed $f" test -f "$d/$f"
   done
   for h in include/plumb/*.h; do
@@ -125,6 +126,10 @@ C
         "$root/profiles/demo/hand-tool.yaml" --format json 2>&1 | grep -c '"id": "en397-shock-49j"')
   check "installed plumb finds share/plumb/criteria" test "$out" -ge 1
   check "installed plumb --version" test "$("$d/bin/plumb" --version)" = "plumb $ver"
+  # `plumb sheet` runs the installed libexec/plumb/plumb-sheet (found from
+  # the program's own place: the build's PREFIX is not this one).
+  out=$(cd "$tmp" && "$d/bin/plumb" sheet --help 2>&1 | head -n 1)
+  case $out in "Usage: plumb sheet"*) ok ;; *) bad "installed plumb sheet --help: '$out'" ;; esac
 else
   bad "make install failed: $(tail -n 5 "$tmp/install.log")"
 fi

@@ -295,6 +295,16 @@ rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "500", env={"FONTCO
 check(rc == 3 and "DejaVu Sans" in err and no_leftovers(d),
       f"no font: exit {rc} (want 3), message {err.strip()[-120:]!r}")
 os.remove(conf)
+# plumb without plumb-sheet beside it (nor installed): exit 3, the missing
+# program named, nothing written (src/cli/cli_sheet_exec.c)
+lone = os.path.join(tmp, "lone")
+os.mkdir(lone)
+shutil.copy(PLUMB, os.path.join(lone, "plumb"))
+r = subprocess.run([os.path.join(lone, "plumb"), "sheet", DRONE, "-o", bad_pdf, "--samples", "500"],
+                   capture_output=True, text=True, env=dict(os.environ, LC_ALL="C"), timeout=60)
+check(r.returncode == 3 and "plumb-sheet" in r.stderr and "not installed" in r.stderr
+      and no_leftovers(d), f"no plumb-sheet: exit {r.returncode} (want 3), {r.stderr.strip()!r}")
+shutil.rmtree(lone)
 os.rmdir(d)
 
 os.remove(pdf)
