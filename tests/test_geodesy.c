@@ -145,6 +145,33 @@ static void bad_points_are_refused(void **state)
     assert_int_equal(plumb_geodesy_inverse(10.0, 0.0, 10.2, 0.0, ll, &d), PLUMB_EINVAL);
 }
 
+/* A far point is refused with its distance right: over the pole from
+ * (80 N, 0) to (80 N, 180 E) is 20 degrees of arc, 2224 km on the sphere
+ * of the mean radius 6371.0088 km (20 x pi/180 x R1; Moritz 1980); the
+ * ellipsoid's meridian arc is within 0.5 % of it. The mid-latitude
+ * formulas alone said 3488 km. And 5 degrees of a meridian from 45 N,
+ * 556 km (WGS 84 meridian arc 45 to 50 deg: 555.9 km, from memory). */
+static void far_points_get_their_distance(void **state)
+{
+    (void)state;
+    double en[2];
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_geodesy_inverse(80.0, 0.0, 80.0, 180.0, en, &d), PLUMB_EINVAL);
+    double km = 0.0;
+    const char *p = strstr(d.message, "about ");
+    assert_non_null(p);
+    assert_int_equal(sscanf(p, "about %lf km", &km), 1);
+    assert_true(fabs(km - 2224.0) <= 0.01 * 2224.0);
+    assert_non_null(strstr(d.message, "beyond the 10000 m"));
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_geodesy_inverse(45.0, 7.0, 50.0, 7.0, en, &d), PLUMB_EINVAL);
+    p = strstr(d.message, "about ");
+    assert_non_null(p);
+    assert_int_equal(sscanf(p, "about %lf km", &km), 1);
+    assert_true(fabs(km - 556.0) <= 0.01 * 556.0);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -153,6 +180,7 @@ int main(void)
         cmocka_unit_test(radii_of_curvature_at_the_equator_and_pole),
         cmocka_unit_test(across_the_antimeridian_longitude_wraps),
         cmocka_unit_test(bad_points_are_refused),
+        cmocka_unit_test(far_points_get_their_distance),
     };
     return cmocka_run_group_tests(tests, NULL, NULL);
 }
