@@ -210,10 +210,20 @@ $(BUILD)/tests/%: $(BUILD)/obj/tests/%.o $(SUPP_OBJ) $(LIB)
 	$(call say,LD,$@)
 	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $< $(SUPP_OBJ) $(LIB) $(LIBS) $(TEST_LIBS)
 
-$(NOMEM_BIN): $(BUILD)/tests/%: $(BUILD)/obj/tests/nomem/%.o $(NOMEM_OBJ) $(SUPP_OBJ) $(LIB)
+# The sheet's own test links its archive, with cairo and pango.
+$(BUILD)/tests/test_sheet: $(BUILD)/obj/tests/test_sheet.o $(SUPP_OBJ) $(SHEET_LIB) $(LIB)
 	@mkdir -p $(dir $@)
 	$(call say,LD,$@)
-	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(TEST_LIBS)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) -o $@ $< $(SUPP_OBJ) $(SHEET_LIB) $(LIB) $(LIBS) \
+	  $(TEST_LIBS) $(SHEET_LIBS)
+
+# (with the sheet's archive: its own allocations are failed too)
+$(NOMEM_BIN): $(BUILD)/tests/%: $(BUILD)/obj/tests/nomem/%.o $(NOMEM_OBJ) $(SUPP_OBJ) $(SHEET_LIB) \
+              $(LIB)
+	@mkdir -p $(dir $@)
+	$(call say,LD,$@)
+	$(Q)$(CC) $(CFLAGS_ALL) $(LDFLAGS_ALL) $(NOMEM_LDFLAGS) -o $@ $^ $(LIBS) $(TEST_LIBS) \
+	  $(SHEET_LIBS)
 
 $(NOMEM_CLI): $(MAIN_OBJ) $(NOMEM_OBJ) $(CLI_LIB) $(LIB)
 	@mkdir -p $(dir $@)

@@ -161,10 +161,49 @@ static plumb_status one_pass(sheet_doc *d, const plumb_brief *const *briefs, siz
     if (cs == CAIRO_STATUS_SUCCESS)
         cs = cairo_surface_status(sf);
     cairo_surface_destroy(sf);
-    if (st == PLUMB_OK && (cs != CAIRO_STATUS_SUCCESS || (m && m->failed)))
+    /* out of memory is not a write error: exit 3 either way, but the
+     * status says which (include/plumb/error.h) */
+    if (st == PLUMB_OK && m && m->failed)
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
+    else if (st == PLUMB_OK && cs != CAIRO_STATUS_SUCCESS)
         st = PLUMB_RAISE(diag, PLUMB_EWRITE, "cannot make the PDF: %s",
-                         m && m->failed ? "out of memory" : cairo_status_to_string(cs));
+                         cairo_status_to_string(cs));
     return st;
+}
+
+static int all_finite(const double *x, size_t n)
+{
+    for (size_t i = 0; i < n; i++)
+        if (!isfinite(x[i]))
+            return 0;
+    return 1;
+}
+
+/* 1 when every number the sheet draws from the brief is finite: the
+ * paths, the energy curves where there is a fall, the deploy points, the
+ * limit heights found and the zone's impact points. (The figures printed
+ * as text go through the number writer, which marks a non-finite one.) */
+static int brief_finite(const plumb_brief *b)
+{
+    for (size_t i = 0; i < b->n_plots; i++) {
+        const plumb_brief_plot *pl = &b->plots[i];
+        if (!all_finite(pl->path.d_m, pl->path.n) || !all_finite(pl->path.z_m, pl->path.n) ||
+            !all_finite(pl->drag_free.d_m, pl->drag_free.n) ||
+            !all_finite(pl->drag_free.z_m, pl->drag_free.n) ||
+            !all_finite(pl->deploy_d_m, pl->n_deploy) || !all_finite(pl->deploy_z_m, pl->n_deploy))
+            return 0;
+        for (size_t k = 0; k < pl->n_curve; k++)
+            if (pl->curve_ok[k] && !(isfinite(pl->curve_h_m[k]) && isfinite(pl->curve_e_j[k])))
+                return 0;
+        for (size_t k = 0; k < pl->n_limits; k++)
+            if (pl->limits[k].outcome == PLUMB_LIMIT_FOUND &&
+                !(isfinite(pl->limits[k].value_si) && isfinite(pl->limits[k].metric_at_value)))
+                return 0;
+    }
+    for (int pass = 0; pass < 2; pass++)
+        if (!all_finite(b->points_m[pass], 2 * b->n_points[pass]))
+            return 0;
+    return 1;
 }
 
 plumb_status plumb_sheet_write(FILE *out, const plumb_sheet_options *opt,
@@ -172,6 +211,11 @@ plumb_status plumb_sheet_write(FILE *out, const plumb_sheet_options *opt,
 {
     if (!out || !opt || !briefs || n == 0)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_sheet_write: nothing to write");
+    for (size_t i = 0; i < n; i++)
+        if (!briefs[i] || !brief_finite(briefs[i]))
+            return PLUMB_RAISE(diag, briefs[i] ? PLUMB_ENUMERIC : PLUMB_EINVAL,
+                               briefs[i] ? "a figure is not a finite number; no sheet written"
+                                         : "plumb_sheet_write: no brief %zu", i + 1);
     sheet_doc d;
     memset(&d, 0, sizeof d);
     d.opt = opt;

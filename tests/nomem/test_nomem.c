@@ -27,6 +27,7 @@
 #include <cmocka.h>
 
 #include "plumb/plumb.h"
+#include "plumb/sheet.h"
 #include "plumb_test.h"
 #include "failalloc.h"
 
@@ -673,6 +674,45 @@ static void test_a_brief_fails_cleanly_at_every_allocation(void **s)
     study_done(&sc);
 }
 
+/* The PDF sheet of a brief (include/plumb/sheet.h, libplumb-sheet.a):
+ * only the sheet's own allocations are wrapped (cairo's and pango's are
+ * inside their shared libraries, not ours to fail). The PDF goes to a
+ * temporary file opened before the hook is armed. */
+typedef struct sheet_ctx {
+    plumb_brief *brief;
+    FILE *out;
+} sheet_ctx;
+
+static plumb_status call_sheet(void *ctx, plumb_diag *d)
+{
+    sheet_ctx *c = ctx;
+    plumb_sheet_options so;
+    memset(&so, 0, sizeof so);
+    so.paper = PLUMB_PAPER_A4;
+    so.units = PLUMB_UNITS_US;
+    so.version = PLUMB_VERSION;
+    const plumb_brief *const briefs[] = {c->brief};
+    rewind(c->out);
+    return plumb_sheet_write(c->out, &so, briefs, 1, d);
+}
+
+static void test_a_sheet_fails_cleanly_at_every_allocation(void **s)
+{
+    (void)s;
+    study_ctx sc;
+    study_make(&sc, "tests/cli/profiles/inventory.yaml", NULL, 0);
+    plumb_brief_options o;
+    plumb_brief_options_init(&o);
+    sheet_ctx c = {NULL, tmpfile()};
+    plumb_diag d;
+    assert_non_null(c.out);
+    assert_int_equal(plumb_brief_alloc(sc.study, &o, &c.brief, &d), PLUMB_OK);
+    each_allocation_fails_in_turn("sheet of an inventory", call_sheet, &c);
+    plumb_brief_free(c.brief);
+    fclose(c.out);
+    study_done(&sc);
+}
+
 /* Allocations one call makes (recorded, none failing). */
 static unsigned long allocations_of(call_fn call, void *ctx)
 {
@@ -712,6 +752,7 @@ int main(void)
         cmocka_unit_test(test_zones_fail_cleanly_at_every_allocation_on_one_and_two_threads),
         cmocka_unit_test(test_nothing_is_allocated_per_fall_or_per_sample),
         cmocka_unit_test(test_a_brief_fails_cleanly_at_every_allocation),
+        cmocka_unit_test(test_a_sheet_fails_cleanly_at_every_allocation),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }
