@@ -23,6 +23,10 @@ set -u
 export LC_ALL=C
 root=$(cd "$(dirname "$0")/.." && pwd)
 optional=$root/tests/optional.txt
+# Under the sanitizer build: fontconfig's process-long caches (the sheet's,
+# through pango) are not leaks of ours; tests/lsan.supp says why.
+LSAN_OPTIONS="suppressions=$root/tests/lsan.supp:print_suppressions=0${LSAN_OPTIONS:+:$LSAN_OPTIONS}"
+export LSAN_OPTIONS
 
 # ---- one test (run by xargs): --one WORKDIR INDEX ---------------------------
 if [ "${1:-}" = "--one" ]; then
