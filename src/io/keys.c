@@ -33,8 +33,9 @@ enum {
     DRAG = PLUMBP_KEY_DRAG
 };
 
-/* key, dim, count, range, angle, home, offset, when, shapes, effects */
-static const plumbp_key table[] = {
+/* key, dim, count, range, angle, home, offset, when, shapes, effects; in the
+ * order of plumbp_key_id (keys.h) */
+const plumbp_key plumbp_key_table[] = {
     {"payload.mass", D(MASS), 0, R(POSITIVE), 0, SPEC(mass_kg), W(ALWAYS), 0, 0},
     {"payload.volume", D(VOLUME), 0, R(NONNEG), 0, SPEC(volume_m3), W(ALWAYS), 0, 0},
     {"payload.drag.cd", D(NONE), 0, R(CD), 0, SPEC(drag.cd), W(CD_AND_AREA), 0, DRAG},
@@ -121,10 +122,14 @@ static const plumbp_key table[] = {
     {"zone.target.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
 };
 
+/* a row added or removed here is added or removed in plumbp_key_id too */
+_Static_assert(sizeof plumbp_key_table / sizeof plumbp_key_table[0] == PLUMBP_K_COUNT,
+               "one plumbp_key_id per row of the key table");
+
 const plumbp_key *plumbp_keys(size_t *n)
 {
-    *n = sizeof table / sizeof table[0];
-    return table;
+    *n = PLUMBP_K_COUNT;
+    return plumbp_key_table;
 }
 
 /* Writes the general form of key into out: items[..] -> payload, a
@@ -202,9 +207,9 @@ const plumbp_key *plumbp_key_find(const char *key, size_t *device, long *item)
         item = &item_dummy;
     if (!key || !general_form(key, g, sizeof g, device, item))
         return NULL;
-    for (size_t i = 0; i < sizeof table / sizeof table[0]; i++)
-        if (strcmp(table[i].key, g) == 0)
-            return &table[i];
+    for (size_t i = 0; i < PLUMBP_K_COUNT; i++)
+        if (strcmp(plumbp_key_table[i].key, g) == 0)
+            return &plumbp_key_table[i];
     return NULL;
 }
 

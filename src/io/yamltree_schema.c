@@ -14,6 +14,7 @@
 #include <string.h>
 
 #include "plumb/constants.h"
+#include "io/keys.h"
 #include "io/yamltree.h"
 
 /* ---- schema ------------------------------------------------------------ */
@@ -55,18 +56,30 @@ const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
     return best;
 }
 
+plumb_dim plumby_num_dim(const plumby_schema *s)
+{
+    return s->key ? s->key->dim : s->dim;
+}
+
+plumby_range plumby_num_range(const plumby_schema *s)
+{
+    return s->key ? s->key->range : s->range;
+}
+
 const char *plumby_expected(const plumby_schema *s, char *buf, size_t size)
 {
     switch (s->type) {
-    case PLUMBY_T_NUM:
-        if (s->dim == PLUMB_DIM_NONE)
+    case PLUMBY_T_NUM: {
+        plumb_dim dim = plumby_num_dim(s);
+        if (dim == PLUMB_DIM_NONE)
             snprintf(buf, size, "a number");
-        else if (s->dim == PLUMB_DIM_FRACTION)
+        else if (dim == PLUMB_DIM_FRACTION)
             snprintf(buf, size, "a fraction (0.5, or 50 %%)");
         else
-            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(s->dim),
-                     plumb_dim_si_unit(s->dim));
+            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(dim),
+                     plumb_dim_si_unit(dim));
         break;
+    }
     case PLUMBY_T_COUNT:
         snprintf(buf, size, "a whole number");
         break;
@@ -360,12 +373,14 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
                              const plumby_schema *s, const char *key, double *out)
 {
     double v;
-    plumb_status st = plumby_quantity(ctx, node, s->dim, key, &v);
+    plumb_dim dim = plumby_num_dim(s);
+    plumby_range range = plumby_num_range(s);
+    plumb_status st = plumby_quantity(ctx, node, dim, key, &v);
     if (st != PLUMB_OK)
         return st;
-    if (!plumby_range_ok(s->range, v)) {
+    if (!plumby_range_ok(range, v)) {
         char r[96];
-        plumby_range_text(s->range, s->dim, r, sizeof r);
+        plumby_range_text(range, dim, r, sizeof r);
         return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
                             "must be %s, found '%s'", r, node->text);
     }
