@@ -11,10 +11,13 @@
  * row would be read with no dimension and no range); whole numbers are
  * whole numbers in the table too; and every row is named by some leaf,
  * so the table holds no key the loader refuses. The reference for the
- * keys is the loader's schema itself, walked from the top. The altitude
+ * keys is the loader's schema itself, walked from the top. A range's
+ * bounds are written once too (plumby_range_bounds); its check, the
+ * sampler's bounds and its message are held to them. The altitude
  * floor is the bottom of the U.S. Standard Atmosphere 1976 tables,
  * -5000 m geometric (NOAA-S/T 76-1562, Table I, from memory).
  */
+#include <math.h>
 #include <stdarg.h>
 #include <stddef.h>
 #include <setjmp.h>
@@ -194,6 +197,71 @@ static void test_the_check_refuses_a_leaf_without_its_row_and_a_row_without_a_le
     (void)state;
 }
 
+/* A range has one meaning, its bounds (plumby_range_bounds); the check,
+ * the sampler's bounds and the message must all say the same. The bounds
+ * themselves: latitude -90 .. 90 deg and longitude -180 .. 180 deg (WGS 84
+ * definitions, from memory); the altitude span in the test below. */
+static void test_each_range_reads_the_same_in_its_check_its_bounds_and_its_text(void **state)
+{
+    static const plumb_dim dims[] = {PLUMB_DIM_LENGTH, PLUMB_DIM_FRACTION, PLUMB_DIM_NONE};
+    for (int r = PLUMBY_R_ANY; r <= PLUMBY_R_ALTITUDE; r++) {
+        plumby_range range = (plumby_range)r;
+        double lo, hi;
+        int lo_open, hi_open;
+        plumby_range_bounds(range, &lo, &hi, &lo_open, &hi_open);
+        assert_true(lo < hi);
+        const double eps = 1e-9;
+        if (isfinite(lo)) {
+            assert_int_equal(plumby_range_ok(range, lo), !lo_open);
+            assert_false(plumby_range_ok(range, lo - eps));
+            assert_true(plumby_range_ok(range, lo + eps));
+        } else {
+            assert_true(plumby_range_ok(range, -1e300));
+        }
+        if (isfinite(hi)) {
+            assert_int_equal(plumby_range_ok(range, hi), !hi_open);
+            assert_false(plumby_range_ok(range, hi + eps));
+            assert_true(plumby_range_ok(range, hi - eps));
+        } else {
+            assert_true(plumby_range_ok(range, 1e300));
+        }
+        /* the message names each finite bound */
+        for (size_t d = 0; d < sizeof dims / sizeof dims[0]; d++) {
+            char text[96], num[32];
+            plumby_range_text(range, dims[d], text, sizeof text);
+            if (isfinite(lo)) {
+                snprintf(num, sizeof num, "%g", lo);
+                if (!strstr(text, num))
+                    fail_msg("range %d: '%s' does not name its lower bound %s", r, text, num);
+            }
+            if (isfinite(hi)) {
+                snprintf(num, sizeof num, "%g", hi);
+                if (!strstr(text, num))
+                    fail_msg("range %d: '%s' does not name its upper bound %s", r, text, num);
+            }
+        }
+    }
+    /* and a key's bounds are its range's */
+    size_t n;
+    const plumbp_key *t = plumbp_keys(&n);
+    for (size_t i = 0; i < n; i++) {
+        double lo, hi, klo, khi;
+        int lo_open, hi_open, klo_open;
+        plumby_range_bounds(t[i].range, &lo, &hi, &lo_open, &hi_open);
+        plumbp_key_bounds(&t[i], &klo, &khi, &klo_open);
+        assert_true(lo == klo && hi == khi && lo_open == klo_open);
+    }
+    double lo, hi;
+    int lo_open, hi_open;
+    plumby_range_bounds(PLUMBY_R_LATITUDE, &lo, &hi, &lo_open, &hi_open);
+    assert_abs(lo, -90.0, 0.0);
+    assert_abs(hi, 90.0, 0.0);
+    plumby_range_bounds(PLUMBY_R_LONGITUDE, &lo, &hi, &lo_open, &hi_open);
+    assert_abs(lo, -180.0, 0.0);
+    assert_abs(hi, 180.0, 0.0);
+    (void)state;
+}
+
 /* Forms of a key (README "Profile keys": items count from 1, lists from 0). */
 static void test_written_forms_of_a_key_find_its_row(void **state)
 {
@@ -271,6 +339,7 @@ int main(void)
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_every_numeric_leaf_names_its_own_row_and_every_row_is_named),
         cmocka_unit_test(test_the_check_refuses_a_leaf_without_its_row_and_a_row_without_a_leaf),
+        cmocka_unit_test(test_each_range_reads_the_same_in_its_check_its_bounds_and_its_text),
         cmocka_unit_test(test_written_forms_of_a_key_find_its_row),
         cmocka_unit_test(test_a_key_reaches_the_spec_only_where_it_applies),
         cmocka_unit_test(test_the_altitude_floor_is_the_1976_tables_bottom_everywhere),

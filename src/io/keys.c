@@ -1,17 +1,17 @@
 /*
  * keys.c - the one table of numeric profile keys (io/keys.h).
  *
- * Each row: the key, its dimension and range (as the loader checks them;
- * README "Profile keys" documents them for users), where the value lives
- * in a resolved spec, when it applies, and what else changes with it.
- * Ranges: plumby_range (yamltree.h); the altitude floor and ceiling are
- * PLUMB_STD1976_BOTTOM_M and PLUMB_STD1976_TOP_M (constants.h).
+ * Each row: the key, its dimension and range (the only place either is
+ * written: the loader's schema names the row, profile_schema.c; README
+ * "Profile keys" documents them for users), where the value lives in a
+ * resolved spec, when it applies, and what else changes with it.
+ * Ranges: plumby_range (yamltree.h), whose bounds plumby_range_bounds
+ * gives; the altitude floor and ceiling are PLUMB_STD1976_BOTTOM_M and
+ * PLUMB_STD1976_TOP_M (constants.h).
  */
-#include <math.h>
 #include <stdio.h>
 #include <string.h>
 
-#include "plumb/constants.h"
 #include "io/keys.h"
 #include "core/internal.h"
 
@@ -268,19 +268,6 @@ double *plumbp_key_field(const plumbp_key *k, plumb_fall_spec *spec, plumb_atm_s
 
 void plumbp_key_bounds(const plumbp_key *k, double *lo, double *hi, int *lo_open)
 {
-    *lo = -HUGE_VAL;
-    *hi = HUGE_VAL;
-    *lo_open = 0;
-    switch (k->range) {
-    case PLUMBY_R_ANY: break;
-    case PLUMBY_R_POSITIVE: *lo = 0.0; *lo_open = 1; break;
-    case PLUMBY_R_NONNEG: *lo = 0.0; break;
-    case PLUMBY_R_CD: *lo = 0.0; *hi = PLUMBY_CD_MAX; break;
-    case PLUMBY_R_CD_POSITIVE: *lo = 0.0; *hi = PLUMBY_CD_MAX; *lo_open = 1; break;
-    case PLUMBY_R_UNIT: *lo = 0.0; *hi = 1.0; break;
-    case PLUMBY_R_UNIT_OPEN: *lo = 0.0; *hi = 1.0; *lo_open = 1; break;
-    case PLUMBY_R_LATITUDE: *lo = -90.0; *hi = 90.0; break;
-    case PLUMBY_R_LONGITUDE: *lo = -180.0; *hi = 180.0; break;
-    case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
-    }
+    int hi_open; /* only zone.confidence has one, and no sampler draws it */
+    plumby_range_bounds(k->range, lo, hi, lo_open, &hi_open);
 }

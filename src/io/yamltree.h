@@ -198,7 +198,14 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
  * (SI: kg)", into buf. Returns buf. */
 const char *plumby_expected(const plumby_schema *schema, char *buf, size_t size);
 
-/* 1 when v lies in the range. */
+/* The bounds of a range, SI: lo .. hi (-HUGE_VAL, HUGE_VAL where it has
+ * none); *lo_open, *hi_open 1 when the bound itself is outside. The one
+ * meaning of each range: plumby_range_ok and plumbp_key_bounds (io/keys.h)
+ * read it from here. Can't fail. */
+void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_open,
+                         int *hi_open);
+
+/* 1 when v lies in the range (any v for PLUMBY_R_ANY). */
 int plumby_range_ok(plumby_range range, double v);
 
 /* The range as text, e.g. "> 0 kg" or "0 .. 10", into buf. Returns buf. */

@@ -8,6 +8,7 @@
  * Standard Atmosphere 1976 (plumb/constants.h).
  */
 #include <errno.h>
+#include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -217,21 +218,34 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
     return PLUMB_OK;
 }
 
+void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_open,
+                         int *hi_open)
+{
+    *lo = -HUGE_VAL;
+    *hi = HUGE_VAL;
+    *lo_open = *hi_open = 0;
+    switch (range) {
+    case PLUMBY_R_ANY: break;
+    case PLUMBY_R_POSITIVE: *lo = 0.0; *lo_open = 1; break;
+    case PLUMBY_R_NONNEG: *lo = 0.0; break;
+    case PLUMBY_R_CD: *lo = 0.0; *hi = PLUMBY_CD_MAX; break;
+    case PLUMBY_R_CD_POSITIVE: *lo = 0.0; *hi = PLUMBY_CD_MAX; *lo_open = 1; break;
+    case PLUMBY_R_UNIT: *lo = 0.0; *hi = 1.0; break;
+    case PLUMBY_R_UNIT_OPEN: *lo = 0.0; *hi = 1.0; *lo_open = *hi_open = 1; break;
+    case PLUMBY_R_LATITUDE: *lo = -90.0; *hi = 90.0; break;
+    case PLUMBY_R_LONGITUDE: *lo = -180.0; *hi = 180.0; break;
+    case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
+    }
+}
+
 int plumby_range_ok(plumby_range range, double v)
 {
-    switch (range) {
-    case PLUMBY_R_ANY: return 1;
-    case PLUMBY_R_POSITIVE: return v > 0.0;
-    case PLUMBY_R_NONNEG: return v >= 0.0;
-    case PLUMBY_R_CD: return v >= 0.0 && v <= PLUMBY_CD_MAX;
-    case PLUMBY_R_CD_POSITIVE: return v > 0.0 && v <= PLUMBY_CD_MAX;
-    case PLUMBY_R_UNIT: return v >= 0.0 && v <= 1.0;
-    case PLUMBY_R_UNIT_OPEN: return v > 0.0 && v < 1.0;
-    case PLUMBY_R_LATITUDE: return v >= -90.0 && v <= 90.0;
-    case PLUMBY_R_LONGITUDE: return v >= -180.0 && v <= 180.0;
-    case PLUMBY_R_ALTITUDE: return v >= PLUMB_STD1976_BOTTOM_M && v <= PLUMB_STD1976_TOP_M;
-    }
-    return 0;
+    double lo, hi;
+    int lo_open, hi_open;
+    if (range == PLUMBY_R_ANY)
+        return 1;
+    plumby_range_bounds(range, &lo, &hi, &lo_open, &hi_open);
+    return (lo_open ? v > lo : v >= lo) && (hi_open ? v < hi : v <= hi);
 }
 
 const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size_t size)
