@@ -1,14 +1,23 @@
 /*
  * test_keys.c - the one table of numeric profile keys (src/io/keys.c)
- * against the profile loader's schema (src/io/profile.c), and the one
- * altitude floor.
+ * against the profile loader's schema (src/io/profile_schema.c), and the
+ * one altitude floor.
  *
- * The reference for the keys is the loader itself: every numeric key it
- * accepts must be in the table with the same dimension and range, and
- * every key of the table must be one the loader accepts. The altitude
+ * A key's dimension and range are written only in the table: each numeric
+ * leaf of the schema names its row (plumbp_key_id), and the loader takes
+ * the dimension and range from there. What can still go wrong is the
+ * binding, so this checks it both ways: every numeric leaf the loader
+ * accepts names a row, and the row of its own key (a leaf that named no
+ * row would be read with no dimension and no range); whole numbers are
+ * whole numbers in the table too; and every row is named by some leaf,
+ * so the table holds no key the loader refuses. The reference for the
+ * keys is the loader's schema itself, walked from the top. A range's
+ * bounds are written once too (plumby_range_bounds); its check, the
+ * sampler's bounds and its message are held to them. The altitude
  * floor is the bottom of the U.S. Standard Atmosphere 1976 tables,
  * -5000 m geometric (NOAA-S/T 76-1562, Table I, from memory).
  */
+#include <math.h>
 #include <stdarg.h>
 #include <stddef.h>
 #include <setjmp.h>
@@ -22,11 +31,13 @@
 #include "io/keys.h"
 #include "io/yamltree.h"
 
-enum { MAX_SEEN = 128 };
+/* Numeric leaves found in the schema walk; the schema has fewer. */
+enum { MAX_LEAVES = 128 };
 
 typedef struct seen {
-    size_t n;
-    char key[MAX_SEEN][PLUMB_DIAG_KEY];
+    size_t n;                          /* leaves found */
+    const plumbp_key *row[MAX_LEAVES]; /* the row each one names */
+    char why[2 * PLUMB_DIAG_KEY + 96]; /* the first fault found, or "" */
 } seen;
 
 /* The general form the table uses: items[] -> payload; an item's own
@@ -41,6 +52,10 @@ static void general(const char *path, char *out, size_t size)
         snprintf(out, size, "%s", path);
 }
 
+/* Walks a schema below `path`, recording each numeric leaf's row and the
+ * first leaf that names no row, the row of another key, or a row of the
+ * other kind (quantity or whole number), or that gives a dimension or
+ * range of its own (a second description of the key). */
 static void walk(const plumby_schema *s, const char *path, seen *found)
 {
     char here[PLUMB_DIAG_KEY];
@@ -54,22 +69,22 @@ static void walk(const plumby_schema *s, const char *path, seen *found)
     case PLUMBY_T_COUNT: {
         char g[PLUMB_DIAG_KEY];
         general(here, g, sizeof g);
-        size_t n;
-        const plumbp_key *t = plumbp_keys(&n);
-        const plumbp_key *k = NULL;
-        for (size_t i = 0; i < n; i++)
-            if (strcmp(t[i].key, g) == 0)
-                k = &t[i];
+        const plumbp_key *k = s->key;
+        if (found->why[0])
+            break;
         if (!k)
-            fail_msg("the loader accepts the numeric key %s; the key table lacks it", g);
-        assert_int_equal(k->count, s->type == PLUMBY_T_COUNT);
-        if (s->type == PLUMBY_T_NUM) {
-            if (k->dim != s->dim || k->range != s->range)
-                fail_msg("%s: the table says dim %d range %d, the loader dim %d range %d", g,
-                         (int)k->dim, (int)k->range, (int)s->dim, (int)s->range);
-        }
-        if (found->n < MAX_SEEN)
-            snprintf(found->key[found->n++], PLUMB_DIAG_KEY, "%s", g);
+            snprintf(found->why, sizeof found->why, "the leaf of %s names no row", g);
+        else if (strcmp(k->key, g) != 0)
+            snprintf(found->why, sizeof found->why, "the leaf of %s names the row of %s", g,
+                     k->key);
+        else if (k->count != (s->type == PLUMBY_T_COUNT))
+            snprintf(found->why, sizeof found->why, "%s is a %s to the loader, not to the table",
+                     g, s->type == PLUMBY_T_COUNT ? "whole number" : "quantity");
+        else if (s->dim != PLUMB_DIM_NONE || s->range != PLUMBY_R_ANY)
+            snprintf(found->why, sizeof found->why, "the leaf of %s gives its own dimension or "
+                     "range", g);
+        else if (found->n < MAX_LEAVES)
+            found->row[found->n++] = k;
         break;
     }
     case PLUMBY_T_MAP:
@@ -88,21 +103,39 @@ static void walk(const plumby_schema *s, const char *path, seen *found)
     }
 }
 
-/* The reference: the loader's own schema, key by key. */
-static void test_every_numeric_key_the_loader_accepts_is_in_the_table_and_back(void **state)
+/* The first row of the table no leaf of the walk named, or NULL. */
+static const plumbp_key *unnamed_row(const seen *found)
+{
+    size_t n;
+    const plumbp_key *t = plumbp_keys(&n);
+    for (size_t i = 0; i < n; i++) {
+        int hit = 0;
+        for (size_t j = 0; j < found->n; j++)
+            hit |= found->row[j] == &t[i];
+        if (!hit)
+            return &t[i];
+    }
+    return NULL;
+}
+
+/* The reference: the loader's own schema, leaf by leaf. */
+static void test_every_numeric_leaf_names_its_own_row_and_every_row_is_named(void **state)
 {
     seen found = {0};
     walk(plumbp_profile_schema(), "", &found);
+    if (found.why[0])
+        fail_msg("%s", found.why);
     size_t n;
     const plumbp_key *t = plumbp_keys(&n);
-    assert_true(found.n > 30);
+    assert_int_equal(n, PLUMBP_K_COUNT);
+    assert_ptr_equal(t, plumbp_key_table);
+    assert_true(found.n > n); /* item keys share the payload's rows */
+    assert_true(found.n < MAX_LEAVES);
+    const plumbp_key *lone = unnamed_row(&found);
+    if (lone)
+        fail_msg("the key table has %s, which no leaf of the loader's schema names", lone->key);
     for (size_t i = 0; i < n; i++) {
-        int hit = 0;
-        for (size_t j = 0; j < found.n; j++)
-            hit |= strcmp(found.key[j], t[i].key) == 0;
-        if (!hit)
-            fail_msg("the key table has %s, which the loader does not accept", t[i].key);
-        /* and every written form of it resolves to its row */
+        /* every written form of a row resolves to it, and --set reads its dimension */
         plumb_dim dim;
         char written[PLUMB_DIAG_KEY];
         snprintf(written, sizeof written, "%s", t[i].key);
@@ -114,6 +147,118 @@ static void test_every_numeric_key_the_loader_accepts_is_in_the_table_and_back(v
         assert_int_equal(dim, t[i].dim);
         assert_ptr_equal(plumbp_key_find(written, NULL, NULL), &t[i]);
     }
+    (void)state;
+}
+
+/* The walk above refuses what would bring a second description or none:
+ * a leaf without its row (read with no dimension and no range), with the
+ * row of another key, with a dimension of its own, and a table row no
+ * leaf names. Shown on small schemas of our own. */
+static void test_the_check_refuses_a_leaf_without_its_row_and_a_row_without_a_leaf(void **state)
+{
+    const plumbp_key *mass = &plumbp_key_table[PLUMBP_K_PAYLOAD_MASS];
+    const plumbp_key *volume = &plumbp_key_table[PLUMBP_K_PAYLOAD_VOLUME];
+    assert_string_equal(mass->key, "payload.mass");
+    assert_string_equal(volume->key, "payload.volume");
+    plumby_schema leaf[1] = {{.name = "mass", .type = PLUMBY_T_NUM, .key = mass}};
+    plumby_schema payload[1] = {{.name = "payload", .type = PLUMBY_T_MAP, .sub = leaf, .n_sub = 1}};
+    plumby_schema top = {.name = "", .type = PLUMBY_T_MAP, .sub = payload, .n_sub = 1};
+
+    seen found = {0};
+    walk(&top, "", &found);
+    assert_string_equal(found.why, "");
+    assert_int_equal(found.n, 1);
+    assert_ptr_equal(unnamed_row(&found), volume); /* the rows after payload.mass: unnamed */
+
+    leaf[0].key = NULL;
+    memset(&found, 0, sizeof found);
+    walk(&top, "", &found);
+    assert_string_equal(found.why, "the leaf of payload.mass names no row");
+    assert_int_equal(plumby_num_dim(&leaf[0]), PLUMB_DIM_NONE); /* what the loader would read */
+    assert_int_equal(plumby_num_range(&leaf[0]), PLUMBY_R_ANY);
+
+    leaf[0].key = volume;
+    memset(&found, 0, sizeof found);
+    walk(&top, "", &found);
+    assert_string_equal(found.why, "the leaf of payload.mass names the row of payload.volume");
+
+    leaf[0].key = mass;
+    leaf[0].dim = PLUMB_DIM_MASS;
+    memset(&found, 0, sizeof found);
+    walk(&top, "", &found);
+    assert_string_equal(found.why, "the leaf of payload.mass gives its own dimension or range");
+
+    leaf[0].dim = PLUMB_DIM_NONE;
+    leaf[0].type = PLUMBY_T_COUNT;
+    memset(&found, 0, sizeof found);
+    walk(&top, "", &found);
+    assert_string_equal(found.why,
+                        "payload.mass is a whole number to the loader, not to the table");
+    (void)state;
+}
+
+/* A range has one meaning, its bounds (plumby_range_bounds); the check,
+ * the sampler's bounds and the message must all say the same. The bounds
+ * themselves: latitude -90 .. 90 deg and longitude -180 .. 180 deg (WGS 84
+ * definitions, from memory); the altitude span in the test below. */
+static void test_each_range_reads_the_same_in_its_check_its_bounds_and_its_text(void **state)
+{
+    static const plumb_dim dims[] = {PLUMB_DIM_LENGTH, PLUMB_DIM_FRACTION, PLUMB_DIM_NONE};
+    for (int r = PLUMBY_R_ANY; r <= PLUMBY_R_ALTITUDE; r++) {
+        plumby_range range = (plumby_range)r;
+        double lo, hi;
+        int lo_open, hi_open;
+        plumby_range_bounds(range, &lo, &hi, &lo_open, &hi_open);
+        assert_true(lo < hi);
+        const double eps = 1e-9;
+        if (isfinite(lo)) {
+            assert_int_equal(plumby_range_ok(range, lo), !lo_open);
+            assert_false(plumby_range_ok(range, lo - eps));
+            assert_true(plumby_range_ok(range, lo + eps));
+        } else {
+            assert_true(plumby_range_ok(range, -1e300));
+        }
+        if (isfinite(hi)) {
+            assert_int_equal(plumby_range_ok(range, hi), !hi_open);
+            assert_false(plumby_range_ok(range, hi + eps));
+            assert_true(plumby_range_ok(range, hi - eps));
+        } else {
+            assert_true(plumby_range_ok(range, 1e300));
+        }
+        /* the message names each finite bound */
+        for (size_t d = 0; d < sizeof dims / sizeof dims[0]; d++) {
+            char text[96], num[32];
+            plumby_range_text(range, dims[d], text, sizeof text);
+            if (isfinite(lo)) {
+                snprintf(num, sizeof num, "%g", lo);
+                if (!strstr(text, num))
+                    fail_msg("range %d: '%s' does not name its lower bound %s", r, text, num);
+            }
+            if (isfinite(hi)) {
+                snprintf(num, sizeof num, "%g", hi);
+                if (!strstr(text, num))
+                    fail_msg("range %d: '%s' does not name its upper bound %s", r, text, num);
+            }
+        }
+    }
+    /* and a key's bounds are its range's */
+    size_t n;
+    const plumbp_key *t = plumbp_keys(&n);
+    for (size_t i = 0; i < n; i++) {
+        double lo, hi, klo, khi;
+        int lo_open, hi_open, klo_open;
+        plumby_range_bounds(t[i].range, &lo, &hi, &lo_open, &hi_open);
+        plumbp_key_bounds(&t[i], &klo, &khi, &klo_open);
+        assert_true(lo == klo && hi == khi && lo_open == klo_open);
+    }
+    double lo, hi;
+    int lo_open, hi_open;
+    plumby_range_bounds(PLUMBY_R_LATITUDE, &lo, &hi, &lo_open, &hi_open);
+    assert_abs(lo, -90.0, 0.0);
+    assert_abs(hi, 90.0, 0.0);
+    plumby_range_bounds(PLUMBY_R_LONGITUDE, &lo, &hi, &lo_open, &hi_open);
+    assert_abs(lo, -180.0, 0.0);
+    assert_abs(hi, 180.0, 0.0);
     (void)state;
 }
 
@@ -192,7 +337,9 @@ static void test_the_altitude_floor_is_the_1976_tables_bottom_everywhere(void **
 int main(void)
 {
     const struct CMUnitTest tests[] = {
-        cmocka_unit_test(test_every_numeric_key_the_loader_accepts_is_in_the_table_and_back),
+        cmocka_unit_test(test_every_numeric_leaf_names_its_own_row_and_every_row_is_named),
+        cmocka_unit_test(test_the_check_refuses_a_leaf_without_its_row_and_a_row_without_a_leaf),
+        cmocka_unit_test(test_each_range_reads_the_same_in_its_check_its_bounds_and_its_text),
         cmocka_unit_test(test_written_forms_of_a_key_find_its_row),
         cmocka_unit_test(test_a_key_reaches_the_spec_only_where_it_applies),
         cmocka_unit_test(test_the_altitude_floor_is_the_1976_tables_bottom_everywhere),

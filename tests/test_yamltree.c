@@ -492,21 +492,21 @@ static void test_null_is_a_plain_empty_tilde_or_null_and_never_quoted(void **sta
 
 static const char *const kinds[] = {"parachute", "streamer", "drogue"};
 static const plumby_schema drag_keys[] = {
-    {"cd", PLUMBY_T_NUM, PLUMB_DIM_NONE, PLUMBY_R_CD, NULL, 0, NULL, 0},
-    {"area", PLUMBY_T_NUM, PLUMB_DIM_AREA, PLUMBY_R_POSITIVE, NULL, 0, NULL, 0},
+    {"cd", PLUMBY_T_NUM, PLUMB_DIM_NONE, PLUMBY_R_CD, NULL, 0, NULL, 0, NULL},
+    {"area", PLUMBY_T_NUM, PLUMB_DIM_AREA, PLUMBY_R_POSITIVE, NULL, 0, NULL, 0, NULL},
 };
 static const plumby_schema payload_keys[] = {
-    {"mass", PLUMBY_T_NUM, PLUMB_DIM_MASS, PLUMBY_R_POSITIVE, NULL, 0, NULL, 0},
-    {"drag", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, drag_keys, 2, NULL, 0},
-    {"kind", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, kinds, 3},
-    {"name", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
-    {"samples", PLUMBY_T_COUNT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
+    {"mass", PLUMBY_T_NUM, PLUMB_DIM_MASS, PLUMBY_R_POSITIVE, NULL, 0, NULL, 0, NULL},
+    {"drag", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, drag_keys, 2, NULL, 0, NULL},
+    {"kind", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, kinds, 3, NULL},
+    {"name", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0, NULL},
+    {"samples", PLUMBY_T_COUNT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0, NULL},
 };
 static const plumby_schema top_keys[] = {
-    {"payload", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, payload_keys, 5, NULL, 0},
+    {"payload", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, payload_keys, 5, NULL, 0, NULL},
 };
 static const plumby_schema top = {"", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, top_keys, 1,
-                                  NULL, 0};
+                                  NULL, 0, NULL};
 
 /* Checks text against the schema; returns the status, d filled. */
 static plumb_status checked(const char *text, plumb_diag *d, plumby_node **out)

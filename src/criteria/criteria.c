@@ -33,20 +33,22 @@ static const char *const crit_statuses[] = {"seen", "transcribed", "memory"};
  * or above it, for a criterion worded "less than" (EU 2019/945 C1). */
 static const char *const crit_exceeded[] = {"above", "at-or-above"};
 
+/* The one number of a criterion is no profile key: its dimension and range
+ * are given here, not by the key table (io/keys.h). */
 static const plumby_schema crit_keys[] = {
-    {"name", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
-    {"kind", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_kinds,
-     ARRAY_LEN(crit_kinds)},
-    {"energy_limit", PLUMBY_T_NUM, PLUMB_DIM_ENERGY, PLUMBY_R_POSITIVE, NULL, 0, NULL, 0},
-    {"applies_to", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
-    {"source", PLUMBY_T_TEXT, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, NULL, 0},
-    {"status", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_statuses,
-     ARRAY_LEN(crit_statuses)},
-    {"exceeded_when", PLUMBY_T_WORD, PLUMB_DIM_NONE, PLUMBY_R_ANY, NULL, 0, crit_exceeded,
-     ARRAY_LEN(crit_exceeded)},
+    {.name = "name", .type = PLUMBY_T_TEXT},
+    {.name = "kind", .type = PLUMBY_T_WORD, .words = crit_kinds, .n_words = ARRAY_LEN(crit_kinds)},
+    {.name = "energy_limit", .type = PLUMBY_T_NUM, .dim = PLUMB_DIM_ENERGY,
+     .range = PLUMBY_R_POSITIVE},
+    {.name = "applies_to", .type = PLUMBY_T_TEXT},
+    {.name = "source", .type = PLUMBY_T_TEXT},
+    {.name = "status", .type = PLUMBY_T_WORD, .words = crit_statuses,
+     .n_words = ARRAY_LEN(crit_statuses)},
+    {.name = "exceeded_when", .type = PLUMBY_T_WORD, .words = crit_exceeded,
+     .n_words = ARRAY_LEN(crit_exceeded)},
 };
 static const plumby_schema crit_schema = {
-    "", PLUMBY_T_MAP, PLUMB_DIM_NONE, PLUMBY_R_ANY, crit_keys, ARRAY_LEN(crit_keys), NULL, 0};
+    .name = "", .type = PLUMBY_T_MAP, .sub = crit_keys, .n_sub = ARRAY_LEN(crit_keys)};
 
 struct plumb_criteria {
     size_t n;                 /* criteria in c */

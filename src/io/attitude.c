@@ -15,6 +15,7 @@
 
 #include "plumb/drag.h"
 #include "io/attitude.h"
+#include "io/keys.h"
 #include "core/internal.h"
 
 static const char *const names[] = {"tumbling", "broadside", "end-on"};
@@ -146,13 +147,21 @@ plumb_status plumbp_attitude_read(const plumby_ctx *ctx, const plumby_pair *pr,
                 return plumby_raise(ctx, m->origin, m->line, m->col, ik, PLUMB_EKEY,
                                     "an attitude needs a name");
             plumbp_strlcpy(u->choice[k], nm, sizeof u->choice[k]);
-            if ((st = field(ctx, m, ik, "cd", PLUMB_DIM_NONE, &table[0][k][0], 1)) != PLUMB_OK ||
-                (st = field(ctx, m, ik, "area", PLUMB_DIM_AREA, &table[0][k][1], 1)) != PLUMB_OK ||
+            /* cd and area as payload.drag gives them (the key table's rows), but
+             * with drag: a falling attitude without any is no alternative */
+            const plumbp_key *cd = &plumbp_key_table[PLUMBP_K_PAYLOAD_DRAG_CD];
+            const plumbp_key *area = &plumbp_key_table[PLUMBP_K_PAYLOAD_DRAG_AREA];
+            if ((st = field(ctx, m, ik, "cd", cd->dim, &table[0][k][0], 1)) != PLUMB_OK ||
+                (st = field(ctx, m, ik, "area", area->dim, &table[0][k][1], 1)) != PLUMB_OK ||
                 (st = field(ctx, m, ik, "weight", PLUMB_DIM_NONE, &u->weight[k], 0)) != PLUMB_OK)
                 return st;
-            if (!(table[0][k][0] > 0.0 && table[0][k][0] <= 10.0) || !(table[0][k][1] > 0.0))
+            char area_range[64];
+            if (!plumby_range_ok(PLUMBY_R_CD_POSITIVE, table[0][k][0]) ||
+                !plumby_range_ok(area->range, table[0][k][1]))
                 return plumby_raise(ctx, m->origin, m->line, m->col, ik, PLUMB_ERANGE,
-                                    "expected 0 < cd <= 10 and an area > 0 m^2");
+                                    "expected 0 < cd <= %g and an area %s", PLUMBY_CD_MAX,
+                                    plumby_range_text(area->range, area->dim, area_range,
+                                                      sizeof area_range));
         } else {
             return bad(ctx, c->items[k], ik, "an attitude is a name or a map");
         }

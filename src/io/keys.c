@@ -1,17 +1,17 @@
 /*
  * keys.c - the one table of numeric profile keys (io/keys.h).
  *
- * Each row: the key, its dimension and range (as the loader checks them;
- * README "Profile keys" documents them for users), where the value lives
- * in a resolved spec, when it applies, and what else changes with it.
- * Ranges: plumby_range (yamltree.h); the altitude floor and ceiling are
- * PLUMB_STD1976_BOTTOM_M and PLUMB_STD1976_TOP_M (constants.h).
+ * Each row: the key, its dimension and range (the only place either is
+ * written: the loader's schema names the row, profile_schema.c; README
+ * "Profile keys" documents them for users), where the value lives in a
+ * resolved spec, when it applies, and what else changes with it.
+ * Ranges: plumby_range (yamltree.h), whose bounds plumby_range_bounds
+ * gives; the altitude floor and ceiling are PLUMB_STD1976_BOTTOM_M and
+ * PLUMB_STD1976_TOP_M (constants.h).
  */
-#include <math.h>
 #include <stdio.h>
 #include <string.h>
 
-#include "plumb/constants.h"
 #include "io/keys.h"
 #include "core/internal.h"
 
@@ -33,8 +33,9 @@ enum {
     DRAG = PLUMBP_KEY_DRAG
 };
 
-/* key, dim, count, range, angle, home, offset, when, shapes, effects */
-static const plumbp_key table[] = {
+/* key, dim, count, range, angle, home, offset, when, shapes, effects; in the
+ * order of plumbp_key_id (keys.h) */
+const plumbp_key plumbp_key_table[] = {
     {"payload.mass", D(MASS), 0, R(POSITIVE), 0, SPEC(mass_kg), W(ALWAYS), 0, 0},
     {"payload.volume", D(VOLUME), 0, R(NONNEG), 0, SPEC(volume_m3), W(ALWAYS), 0, 0},
     {"payload.drag.cd", D(NONE), 0, R(CD), 0, SPEC(drag.cd), W(CD_AND_AREA), 0, DRAG},
@@ -121,10 +122,14 @@ static const plumbp_key table[] = {
     {"zone.target.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
 };
 
+/* a row added or removed here is added or removed in plumbp_key_id too */
+_Static_assert(sizeof plumbp_key_table / sizeof plumbp_key_table[0] == PLUMBP_K_COUNT,
+               "one plumbp_key_id per row of the key table");
+
 const plumbp_key *plumbp_keys(size_t *n)
 {
-    *n = sizeof table / sizeof table[0];
-    return table;
+    *n = PLUMBP_K_COUNT;
+    return plumbp_key_table;
 }
 
 /* Writes the general form of key into out: items[..] -> payload, a
@@ -202,9 +207,9 @@ const plumbp_key *plumbp_key_find(const char *key, size_t *device, long *item)
         item = &item_dummy;
     if (!key || !general_form(key, g, sizeof g, device, item))
         return NULL;
-    for (size_t i = 0; i < sizeof table / sizeof table[0]; i++)
-        if (strcmp(table[i].key, g) == 0)
-            return &table[i];
+    for (size_t i = 0; i < PLUMBP_K_COUNT; i++)
+        if (strcmp(plumbp_key_table[i].key, g) == 0)
+            return &plumbp_key_table[i];
     return NULL;
 }
 
@@ -263,19 +268,6 @@ double *plumbp_key_field(const plumbp_key *k, plumb_fall_spec *spec, plumb_atm_s
 
 void plumbp_key_bounds(const plumbp_key *k, double *lo, double *hi, int *lo_open)
 {
-    *lo = -HUGE_VAL;
-    *hi = HUGE_VAL;
-    *lo_open = 0;
-    switch (k->range) {
-    case PLUMBY_R_ANY: break;
-    case PLUMBY_R_POSITIVE: *lo = 0.0; *lo_open = 1; break;
-    case PLUMBY_R_NONNEG: *lo = 0.0; break;
-    case PLUMBY_R_CD: *lo = 0.0; *hi = PLUMBY_CD_MAX; break;
-    case PLUMBY_R_CD_POSITIVE: *lo = 0.0; *hi = PLUMBY_CD_MAX; *lo_open = 1; break;
-    case PLUMBY_R_UNIT: *lo = 0.0; *hi = 1.0; break;
-    case PLUMBY_R_UNIT_OPEN: *lo = 0.0; *hi = 1.0; *lo_open = 1; break;
-    case PLUMBY_R_LATITUDE: *lo = -90.0; *hi = 90.0; break;
-    case PLUMBY_R_LONGITUDE: *lo = -180.0; *hi = 180.0; break;
-    case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
-    }
+    int hi_open; /* only zone.confidence has one, and no sampler draws it */
+    plumby_range_bounds(k->range, lo, hi, lo_open, &hi_open);
 }

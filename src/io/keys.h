@@ -5,11 +5,16 @@
  * Every numeric key a profile accepts is described once, in src/io/keys.c:
  * its dotted key, its dimension, its allowed range, where it lives in a
  * resolved plumb_fall_spec (or the atmosphere spec), when it applies to a
- * given spec, and what else changes when it changes. The profile loader's
- * schema (profile_schema.c) gives the same dimensions and ranges; the test
- * tests/test_keys.c fails when the two disagree. plumb_fall_spec_field,
- * the zone's sampler ranges (dispersion_sampler.c), the limit's scan
- * (inverse.c) and the sweep read the table.
+ * given spec, and what else changes when it changes. Nothing else gives a
+ * key's dimension or range: the profile loader's schema (profile_schema.c)
+ * names, at each numeric leaf, the row of its key (plumbp_key_id), and
+ * the checker and readers (yamltree_schema.c), --set and the uncertainty
+ * block take the dimension and range from that row. The rows are bound at
+ * build time, so loading costs no lookup; tests/test_keys.c fails when a
+ * leaf names a row of another key, a key the loader accepts has no row, or
+ * a row is a key the loader does not accept. plumb_fall_spec_field, the
+ * zone's sampler ranges (dispersion_sampler.c), the limit's scan
+ * (inverse.c) and the sweep read the table by key (plumbp_key_find).
  *
  * Keys are written in their general form: an inventory's items[N].X is
  * payload.X; descent[i].X is descent.X; a list's rows are "[]"
@@ -86,6 +91,46 @@ typedef struct plumbp_key {
     unsigned shapes;          /* WHEN_SHAPE: PLUMBP_SHAPE_BIT of each kind that takes it */
     unsigned effects;         /* PLUMBP_KEY_* */
 } plumbp_key;
+
+/* The rows of the table, in its order: PLUMBP_K_ and the general key in
+ * capitals, "." as "_", "[]" left out. A schema leaf names its key by
+ * this id (profile_schema.c); keys.c refuses to build when the table has
+ * another number of rows, and tests/test_keys.c checks each id against
+ * its row's key. */
+typedef enum plumbp_key_id {
+    PLUMBP_K_PAYLOAD_MASS, PLUMBP_K_PAYLOAD_VOLUME, PLUMBP_K_PAYLOAD_DRAG_CD,
+    PLUMBP_K_PAYLOAD_DRAG_AREA, PLUMBP_K_PAYLOAD_DRAG_CD_AREA, PLUMBP_K_PAYLOAD_DRAG_DIAMETER,
+    PLUMBP_K_PAYLOAD_SHAPE_DIAMETER, PLUMBP_K_PAYLOAD_SHAPE_LENGTH, PLUMBP_K_PAYLOAD_SHAPE_EDGES,
+    PLUMBP_K_PAYLOAD_SHAPE_THICKNESS,
+    PLUMBP_K_DESCENT_CD, PLUMBP_K_DESCENT_AREA, PLUMBP_K_DESCENT_DIAMETER,
+    PLUMBP_K_DESCENT_DEPLOY_AFTER, PLUMBP_K_DESCENT_DEPLOY_BELOW, PLUMBP_K_DESCENT_FILL_TIME,
+    PLUMBP_K_DESCENT_FILL_CONSTANT, PLUMBP_K_DESCENT_INFLATION_EXPONENT,
+    PLUMBP_K_DESCENT_OPENING_FACTOR,
+    PLUMBP_K_RELEASE_HEIGHT, PLUMBP_K_RELEASE_VELOCITY_EAST, PLUMBP_K_RELEASE_VELOCITY_NORTH,
+    PLUMBP_K_RELEASE_VELOCITY_UP, PLUMBP_K_RELEASE_VELOCITY_SPEED,
+    PLUMBP_K_RELEASE_VELOCITY_HEADING, PLUMBP_K_RELEASE_VELOCITY_CLIMB,
+    PLUMBP_K_RELEASE_DOWNWASH_AIRCRAFT_MASS, PLUMBP_K_RELEASE_DOWNWASH_DISK_AREA,
+    PLUMBP_K_RELEASE_POSITION_EAST, PLUMBP_K_RELEASE_POSITION_NORTH,
+    PLUMBP_K_RELEASE_POSITION_LATITUDE, PLUMBP_K_RELEASE_POSITION_LONGITUDE,
+    PLUMBP_K_SITE_ELEVATION, PLUMBP_K_SITE_LATITUDE, PLUMBP_K_SITE_LONGITUDE,
+    PLUMBP_K_ATMOSPHERE_TEMPERATURE_OFFSET, PLUMBP_K_ATMOSPHERE_PRESSURE,
+    PLUMBP_K_ATMOSPHERE_TEMPERATURE, PLUMBP_K_ATMOSPHERE_LAPSE_RATE,
+    PLUMBP_K_ATMOSPHERE_HUMIDITY, PLUMBP_K_ATMOSPHERE_TABLE_ALTITUDE,
+    PLUMBP_K_ATMOSPHERE_TABLE_DENSITY, PLUMBP_K_ATMOSPHERE_TABLE_TEMPERATURE,
+    PLUMBP_K_WIND_SPEED, PLUMBP_K_WIND_FROM, PLUMBP_K_WIND_REFERENCE_HEIGHT,
+    PLUMBP_K_WIND_EXPONENT, PLUMBP_K_WIND_ROUGHNESS, PLUMBP_K_WIND_TURBULENCE_W20,
+    PLUMBP_K_WIND_TABLE_HEIGHT, PLUMBP_K_WIND_TABLE_SPEED, PLUMBP_K_WIND_TABLE_FROM,
+    PLUMBP_K_ZONE_SAMPLES, PLUMBP_K_ZONE_SEED, PLUMBP_K_ZONE_CONFIDENCE, PLUMBP_K_ZONE_SCATTER,
+    PLUMBP_K_ZONE_TARGET_EAST, PLUMBP_K_ZONE_TARGET_NORTH, PLUMBP_K_ZONE_TARGET_LATITUDE,
+    PLUMBP_K_ZONE_TARGET_LONGITUDE,
+    PLUMBP_K_COUNT /* rows in the table */
+} plumbp_key_id;
+
+/* The table itself: PLUMBP_K_COUNT rows, the row of each id at that index;
+ * declared for the schema's leaves, which name their row by address
+ * (&plumbp_key_table[PLUMBP_K_...]). Elsewhere use plumbp_keys or
+ * plumbp_key_find. */
+extern const plumbp_key plumbp_key_table[];
 
 /* The table: *n entries. Can't fail. */
 const plumbp_key *plumbp_keys(size_t *n);

@@ -1,9 +1,9 @@
 /*
  * profile.c - strict YAML payload profiles into fall specs (design.md
- * section 5; the numeric keys are described once in the key table,
- * src/io/keys.c, which tests/test_keys.c holds to the schema in
- * profile_schema.c; the README's "Profile keys" table documents them for
- * users).
+ * section 5; the numeric keys are described once, in the key table
+ * src/io/keys.c, whose rows the schema in profile_schema.c names and
+ * tests/test_keys.c holds to it; the README's "Profile keys" table
+ * documents them for users).
  *
  * Method: the file is read whole (at most PLUMB_PROFILE_MAX_BYTES),
  * fingerprinted with SHA-256 (FIPS 180-4, sha256.c), parsed into a node

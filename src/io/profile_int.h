@@ -1,10 +1,12 @@
 /*
  * profile_int.h - what the files of the profile module share: profile.c
  * (loading, building, interpreting and reading a profile back),
- * profile_schema.c (the schema of the keys), profile_set.c (dotted key
- * paths: --set overrides, key dimensions and units), profile_item.c (a
- * payload or item: drag, shape, descent devices, glide), profile_scene.c
- * (release, site, atmosphere, wind, turbulence), profile_study.c
+ * profile_schema.c (the schema of the keys; a numeric key's dimension
+ * and range are its row's in the key table, io/keys.h), profile_set.c
+ * (dotted key paths: --set overrides, key dimensions and units),
+ * profile_item.c (a payload or item: drag, shape, descent devices,
+ * glide), profile_scene.c (release, site, atmosphere, wind, turbulence),
+ * profile_study.c
  * (criteria, uncertainty, zone, job) and profile_spec.c (a profile of a
  * spec built in code). The profile's definition, the loader, the key
  * path, the schema items the readers walk, and the functions called

@@ -168,7 +168,7 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
         s = &s->sub[0];
     if (!s || (s->type != PLUMBY_T_NUM && s->type != PLUMBY_T_COUNT))
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
-    *dim = s->type == PLUMBY_T_NUM ? s->dim : PLUMB_DIM_NONE;
+    *dim = s->type == PLUMBY_T_NUM ? plumby_num_dim(s) : PLUMB_DIM_NONE;
     return PLUMB_OK;
 }
 

@@ -140,6 +140,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     if (ks->type != PLUMBY_T_NUM)
         return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
                             "'%s' is a count, not a quantity that can vary", pr->key);
+    plumby_range range = plumby_num_range(ks);
     int polar = strcmp(pr->key, "release.velocity.speed") == 0 ||
                 strcmp(pr->key, "release.velocity.heading") == 0;
     for (size_t i = 0; i < L->p->n_items && !polar; i++) {
@@ -156,7 +157,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
 
     const plumby_node *v = pr->value;
     char rtext[96];
-    plumby_range_text(ks->range, dim, rtext, sizeof rtext);
+    plumby_range_text(range, dim, rtext, sizeof rtext);
     if (v->kind == PLUMBY_SCALAR) {
         char a[PLUMB_DIAG_MSG], b[PLUMB_DIAG_MSG];
         if (plumby_is_null(v) || !split_plus_minus(v->text, a, b, sizeof a))
@@ -175,7 +176,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         if (!(tol >= 0.0))
             return plumby_raise(ctx, v->origin, v->line, v->col, dkey, PLUMB_ERANGE,
                                 "the tolerance must be >= 0, found '%s'", b);
-        if (!plumby_range_ok(ks->range, x - tol) || !plumby_range_ok(ks->range, x + tol))
+        if (!plumby_range_ok(range, x - tol) || !plumby_range_ok(range, x + tol))
             return plumby_raise(ctx, v->origin, v->line, v->col, dkey, PLUMB_ERANGE,
                                 "'%s' reaches outside the key's range (%s)", v->text, rtext);
         u->kind = PLUMB_DIST_UNIFORM;
@@ -239,7 +240,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         if (is_sd && !(u->param[1] >= 0.0))
             return plumby_raise(ctx, it->origin, it->line, it->col, ikey, PLUMB_ERANGE,
                                 "the standard deviation must be >= 0, found '%s'", it->text);
-        if (!is_sd && !plumby_range_ok(ks->range, u->param[i]))
+        if (!is_sd && !plumby_range_ok(range, u->param[i]))
             return plumby_raise(ctx, it->origin, it->line, it->col, ikey, PLUMB_ERANGE,
                                 "must be %s (the range of %s), found '%s'", rtext, pr->key,
                                 it->text);

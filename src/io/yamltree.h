@@ -139,17 +139,32 @@ typedef enum plumby_range {
     PLUMBY_R_ALTITUDE     /* PLUMB_STD1976_BOTTOM_M .. PLUMB_STD1976_TOP_M, the span of the 1976 atmosphere */
 } plumby_range;
 
+/* A row of the key table (io/keys.h), which describes every numeric key of
+ * a profile. */
+struct plumbp_key;
+
+/* One node of a schema. A numeric leaf of the profile's schema (NUM or
+ * COUNT) names its row of the key table in `key` and leaves dim and range
+ * unset: the row gives them (plumby_num_dim, plumby_num_range). A schema
+ * outside the profile (a criteria file) has no key table; its NUM leaves
+ * give dim and range here, with `key` NULL. */
 typedef struct plumby_schema plumby_schema;
 struct plumby_schema {
     const char *name;              /* key in its parent map ("" for a list item) */
     plumby_type type;              /* what the value must be */
-    plumb_dim dim;                 /* NUM: the dimension; LIST of NUM: in sub[0] */
-    plumby_range range;            /* NUM: valid range */
+    plumb_dim dim;                 /* NUM without a key row: the dimension */
+    plumby_range range;            /* NUM without a key row: valid range */
     const plumby_schema *sub;      /* MAP, MAP_OR_LIST: the keys; LIST: the item */
     size_t n_sub;                  /* entries in sub */
     const char *const *words;      /* WORD: allowed words, or NULL for any */
     size_t n_words;                /* entries in words */
+    const struct plumbp_key *key;  /* NUM, COUNT: the key's row, or NULL (see above) */
 };
+
+/* The dimension and the range of a NUM leaf: its key row's, or its own
+ * when it has no row. Can't fail. */
+plumb_dim plumby_num_dim(const plumby_schema *s);
+plumby_range plumby_num_range(const plumby_schema *s);
 
 /* Largest drag coefficient accepted (a plausibility bound, common
  * practice, no source: bluff bodies stay below about 2). */
@@ -183,7 +198,14 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
  * (SI: kg)", into buf. Returns buf. */
 const char *plumby_expected(const plumby_schema *schema, char *buf, size_t size);
 
-/* 1 when v lies in the range. */
+/* The bounds of a range, SI: lo .. hi (-HUGE_VAL, HUGE_VAL where it has
+ * none); *lo_open, *hi_open 1 when the bound itself is outside. The one
+ * meaning of each range: plumby_range_ok and plumbp_key_bounds (io/keys.h)
+ * read it from here. Can't fail. */
+void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_open,
+                         int *hi_open);
+
+/* 1 when v lies in the range (any v for PLUMBY_R_ANY). */
 int plumby_range_ok(plumby_range range, double v);
 
 /* The range as text, e.g. "> 0 kg" or "0 .. 10", into buf. Returns buf. */

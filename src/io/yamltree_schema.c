@@ -8,12 +8,14 @@
  * Standard Atmosphere 1976 (plumb/constants.h).
  */
 #include <errno.h>
+#include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
 #include "plumb/constants.h"
+#include "io/keys.h"
 #include "io/yamltree.h"
 
 /* ---- schema ------------------------------------------------------------ */
@@ -55,18 +57,30 @@ const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
     return best;
 }
 
+plumb_dim plumby_num_dim(const plumby_schema *s)
+{
+    return s->key ? s->key->dim : s->dim;
+}
+
+plumby_range plumby_num_range(const plumby_schema *s)
+{
+    return s->key ? s->key->range : s->range;
+}
+
 const char *plumby_expected(const plumby_schema *s, char *buf, size_t size)
 {
     switch (s->type) {
-    case PLUMBY_T_NUM:
-        if (s->dim == PLUMB_DIM_NONE)
+    case PLUMBY_T_NUM: {
+        plumb_dim dim = plumby_num_dim(s);
+        if (dim == PLUMB_DIM_NONE)
             snprintf(buf, size, "a number");
-        else if (s->dim == PLUMB_DIM_FRACTION)
+        else if (dim == PLUMB_DIM_FRACTION)
             snprintf(buf, size, "a fraction (0.5, or 50 %%)");
         else
-            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(s->dim),
-                     plumb_dim_si_unit(s->dim));
+            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(dim),
+                     plumb_dim_si_unit(dim));
         break;
+    }
     case PLUMBY_T_COUNT:
         snprintf(buf, size, "a whole number");
         break;
@@ -204,21 +218,34 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
     return PLUMB_OK;
 }
 
+void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_open,
+                         int *hi_open)
+{
+    *lo = -HUGE_VAL;
+    *hi = HUGE_VAL;
+    *lo_open = *hi_open = 0;
+    switch (range) {
+    case PLUMBY_R_ANY: break;
+    case PLUMBY_R_POSITIVE: *lo = 0.0; *lo_open = 1; break;
+    case PLUMBY_R_NONNEG: *lo = 0.0; break;
+    case PLUMBY_R_CD: *lo = 0.0; *hi = PLUMBY_CD_MAX; break;
+    case PLUMBY_R_CD_POSITIVE: *lo = 0.0; *hi = PLUMBY_CD_MAX; *lo_open = 1; break;
+    case PLUMBY_R_UNIT: *lo = 0.0; *hi = 1.0; break;
+    case PLUMBY_R_UNIT_OPEN: *lo = 0.0; *hi = 1.0; *lo_open = *hi_open = 1; break;
+    case PLUMBY_R_LATITUDE: *lo = -90.0; *hi = 90.0; break;
+    case PLUMBY_R_LONGITUDE: *lo = -180.0; *hi = 180.0; break;
+    case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
+    }
+}
+
 int plumby_range_ok(plumby_range range, double v)
 {
-    switch (range) {
-    case PLUMBY_R_ANY: return 1;
-    case PLUMBY_R_POSITIVE: return v > 0.0;
-    case PLUMBY_R_NONNEG: return v >= 0.0;
-    case PLUMBY_R_CD: return v >= 0.0 && v <= PLUMBY_CD_MAX;
-    case PLUMBY_R_CD_POSITIVE: return v > 0.0 && v <= PLUMBY_CD_MAX;
-    case PLUMBY_R_UNIT: return v >= 0.0 && v <= 1.0;
-    case PLUMBY_R_UNIT_OPEN: return v > 0.0 && v < 1.0;
-    case PLUMBY_R_LATITUDE: return v >= -90.0 && v <= 90.0;
-    case PLUMBY_R_LONGITUDE: return v >= -180.0 && v <= 180.0;
-    case PLUMBY_R_ALTITUDE: return v >= PLUMB_STD1976_BOTTOM_M && v <= PLUMB_STD1976_TOP_M;
-    }
-    return 0;
+    double lo, hi;
+    int lo_open, hi_open;
+    if (range == PLUMBY_R_ANY)
+        return 1;
+    plumby_range_bounds(range, &lo, &hi, &lo_open, &hi_open);
+    return (lo_open ? v > lo : v >= lo) && (hi_open ? v < hi : v <= hi);
 }
 
 const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size_t size)
@@ -360,12 +387,14 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
                              const plumby_schema *s, const char *key, double *out)
 {
     double v;
-    plumb_status st = plumby_quantity(ctx, node, s->dim, key, &v);
+    plumb_dim dim = plumby_num_dim(s);
+    plumby_range range = plumby_num_range(s);
+    plumb_status st = plumby_quantity(ctx, node, dim, key, &v);
     if (st != PLUMB_OK)
         return st;
-    if (!plumby_range_ok(s->range, v)) {
+    if (!plumby_range_ok(range, v)) {
         char r[96];
-        plumby_range_text(s->range, s->dim, r, sizeof r);
+        plumby_range_text(range, dim, r, sizeof r);
         return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
                             "must be %s, found '%s'", r, node->text);
     }
