@@ -111,6 +111,15 @@ for phrase, n in (("box ", 3), ("cylinder ", 2), ("sphere of diameter", 1), ("pl
 # the shim plate's 7.25 in comes back as typed (to the 4 digits shown)
 check("plate 7.25 in x 3.1 in, 0.248 in thick" in flat(us),
       f"fall US: a size given in inches reads as given: {sizes(us, 'drag plate')!r}")
+# no length in metres in the inputs as understood (the drag's source words
+# the faces and edges without figures: the figures are those printed
+# before it)
+def inputs(text):
+    return flat(text.split("\nInputs as understood\n")[-1].split("\nProfile ")[0])
+
+
+m_us = [f for f in figs(inputs(us)) if f[2] == "m"]
+check("Inputs as understood" in us and not m_us, f"fall US: no length in metres: {m_us}")
 # heights stay in feet: 17.3 m = 56.76 ft
 check("56.76 ft above the strike level" in flat(us), "fall US: the release height in feet")
 
@@ -120,6 +129,8 @@ s_si, s_us = sizes(si, "sphere of diameter"), sizes(us, "sphere of diameter")
 check(rc_si == 0 and rc_us == 0 and re.search(r"diameter \d[\d.]* in,", s_us)
       and not agree(figs(s_us)[:1], figs(s_si)[:1]),
       f"fall US: a sphere drag model's diameter in inches: {s_us!r} / {s_si!r}")
+m_us = [f for f in figs(inputs(us)) if f[2] == "m"]
+check(not m_us, f"fall US: no length in metres for a sphere model: {m_us}")
 
 # ---- limit: the answer, the scan and the profile's own value ---------------------
 args = ("limit", KIT, "--find", "payload.shape.thickness", "--energy-max", "7.3J")
