@@ -12,11 +12,13 @@
  * its key (a canopy opens only above some height; wind adds to the impact
  * speed): all crossings are reported, and the answer is the one nearest
  * the profile's own value. A window narrower than the scan's spacing can
- * be missed; the explanation says what was scanned. Each
+ * be missed; the result says what was scanned. Each
  * evaluation is a full fall of the profile derived with KEY set to x, so
  * the answer is exactly what `plumb fall --set KEY=x` gives.
- * Where no value in the range meets the limit the result says why in
- * words (unlimited, or impossible even at the edge of the range).
+ * Where no value in the range meets the limit the result says why
+ * (unlimited, or impossible even at the edge of the range), in figures
+ * and, where the figures do not say it, in words without figures: the
+ * report writers (report.h) word the figures in the report's units.
  *
  * Ownership: everything is borrowed for the call; the result is plain data.
  */
@@ -65,12 +67,27 @@ typedef struct plumb_limit_result {
     double crossings_si[PLUMB_LIMIT_MAX_CROSSINGS]; /* in increasing order */
     int within_at_low_end;        /* 1: the lowest value scanned meets the limit */
     size_t evaluations;           /* falls computed */
-    char explanation[PLUMB_LIMIT_TEXT]; /* why, in words (every outcome) */
+    /* Why, in words without figures or units, "" when the figures say it
+     * all: "it levels off as the fall reaches its terminal speed" (unlimited
+     * release height), "even at (almost) zero height the limit is exceeded"
+     * (impossible release height), "this item's drag does not use KEY"
+     * (not applicable). The report writers word the figures (the range
+     * scanned, the crossings, the metric) in the report's units from the
+     * fields of this struct. */
+    char explanation[PLUMB_LIMIT_TEXT];
     /* The unit the profile gave the key in ("" for none or a bare number;
      * filled by plumb_study_limit, not by plumb_limit_solve), and how a
      * value in it converts: value_si = given_offset_si + given_scale_si x. */
     char given_unit[PLUMB_LIMIT_UNIT];
     double given_offset_si, given_scale_si;
+    /* What was scanned (every outcome but not applicable): the lowest and
+     * highest values of the key computed, SI unit of its dimension; how
+     * many values were computed (the profile's own value among them;
+     * values the profile refuses are left out); and the metric at the
+     * highest one, SI unit of the metric. */
+    double scan_lo_si, scan_hi_si;
+    size_t n_scanned;
+    double metric_at_scan_hi;
 } plumb_limit_result;
 
 /* A whole `plumb limit` answer, for the report writer (report.h). */
@@ -97,7 +114,7 @@ void plumb_limit_options_init(plumb_limit_options *opt);
  * PLUMB_EKEY / PLUMB_EINVAL for a key that is unknown or not numeric, or
  * an items[...] key (find payload.KEY: it is answered for each item);
  * PLUMB_ENUMERIC when a fall fails. An unlimited or impossible answer is
- * PLUMB_OK with the outcome and explanation set. */
+ * PLUMB_OK with the outcome, the range scanned and the explanation set. */
 plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
                                size_t item, const char *key, plumb_metric metric, double limit,
                                const plumb_limit_options *opt, plumb_trajectory *traj,

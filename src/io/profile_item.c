@@ -45,8 +45,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                                                      "or cd_area)")) != PLUMB_OK ||
                     (st = plumby_num(&dm, "cd_area", 1, 0.0, &d->cd_area_m2, NULL)) != PLUMB_OK)
                     return st;
-                snprintf(d->source, sizeof d->source,
-                         "cd_area %.6g m² as given in the profile", d->cd_area_m2);
+                snprintf(d->source, sizeof d->source, "cd_area as given in the profile");
             } else {
                 if (!plumby_get(&dm, "cd"))
                     return plumby_missing(&dm, "cd", "give cd and area, or cd_area");
@@ -56,8 +55,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                     (st = plumby_num(&dm, "area", 1, 0.0, &d->area_m2, NULL)) != PLUMB_OK)
                     return st;
                 d->cd_area_m2 = d->cd * d->area_m2;
-                snprintf(d->source, sizeof d->source,
-                         "cd %.6g and area %.6g m² as given in the profile", d->cd, d->area_m2);
+                snprintf(d->source, sizeof d->source, "cd and area as given in the profile");
             }
         } else {
             d->model = model == 1 ? PLUMB_DRAG_SPHERE_MORRISON : PLUMB_DRAG_SPHERE_CGW;
@@ -71,8 +69,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                 return st;
             d->area_m2 = PLUMB_PI * d->diameter_m * d->diameter_m / 4.0;
             snprintf(d->source, sizeof d->source,
-                     "sphere of diameter %.6g m as given in the profile: Cd(Re) by %s, area pi d^2/4",
-                     d->diameter_m,
+                     "diameter as given in the profile: Cd(Re) by %s, area pi d^2/4",
                      model == 1 ? "Morrison (2010)" : "Clift, Grace & Weber (1978), Table 5.2");
         }
         if (user_source[0])

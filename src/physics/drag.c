@@ -413,13 +413,11 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
         out->area_m2 = PLUMB_PI * shape->dims_m[0] * shape->dims_m[0] / 4.0;
         out->cd = 0.47;
         snprintf(out->source, sizeof out->source,
-                 "sphere of diameter %.4g m: Cd(Re) by Morrison (2010), area pi d^2/4",
-                 shape->dims_m[0]);
+                 "sphere: Cd(Re) by Morrison (2010), area pi d^2/4");
         return PLUMB_OK;
     }
     orient o[MAX_ORIENT];
     size_t n = orientations(shape, o);
-    const double *d = shape->dims_m;
     int cyl = shape->kind == PLUMB_SHAPE_CYLINDER;
     const char *what = cyl ? "cylinder" : shape->kind == PLUMB_SHAPE_BOX ? "box" : "plate";
     text t = {out->source, sizeof out->source, 0, 0};
@@ -444,8 +442,8 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
             add_lookup(&t, &o[1].plate);
             add(&t, ", w 2");
         } else {
-            add(&t, "face-on along the %.3g, %.3g, %.3g m edges Cd %.3g, %.3g, %.3g, w 1 "
-                    "(plate Cd by b/h ", d[0], d[1], d[2], o[0].cd, o[1].cd, o[2].cd);
+            add(&t, "face-on along each edge in the order given Cd %.3g, %.3g, %.3g, w 1 "
+                    "(plate Cd by b/h ", o[0].cd, o[1].cd, o[2].cd);
             lookup pl[3] = {o[0].plate, o[1].plate, o[2].plate};
             lookup pr[3] = {o[0].prism, o[1].prism, o[2].prism};
             add_tags(&t, pl, 3);
@@ -486,8 +484,10 @@ plumb_status plumb_drag_from_shape(const plumb_shape_spec *shape, plumb_drag_spe
         add(&t, "cylinder %s: Cd %.3g on %s at ", att, out->cd, broadside ? "L x D" : "pi D^2/4");
         add_lookup(&t, &o[pick].plate);
     } else {
-        add(&t, "%s %s: Cd %.3g on the %.3g m x %.3g m face, %.3g m deep = ", what, att, out->cd,
-            d[(pick + 1) % 3], d[(pick + 2) % 3], d[pick]);
+        /* the largest face is that of the two longest edges, the smallest
+         * that of the two shortest */
+        add(&t, "%s %s: Cd %.3g on its %s face, its %s edge deep = ", what, att, out->cd,
+            broadside ? "largest" : "smallest", broadside ? "shortest" : "longest");
         add_face(&t, &o[pick]);
     }
     add_legend(&t);

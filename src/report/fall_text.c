@@ -220,22 +220,22 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
         switch (sh->kind) {
         case PLUMB_SHAPE_SPHERE:
             snprintf(shape, sizeof shape, "sphere of diameter %s, ",
-                     plumbp_t_len(w, sh->dims_m[0]));
+                     plumbp_t_size(w, sh->dims_m[0]));
             break;
         case PLUMB_SHAPE_CYLINDER:
             snprintf(shape, sizeof shape, "cylinder %s long, diameter %s, %s, ",
-                     plumbp_t_len(w, sh->dims_m[0]), plumbp_t_len(w, sh->dims_m[1]),
+                     plumbp_t_size(w, sh->dims_m[0]), plumbp_t_size(w, sh->dims_m[1]),
                      plumbp_attitude_name(sh->attitude));
             break;
         case PLUMB_SHAPE_BOX:
-            snprintf(shape, sizeof shape, "box %s x %s x %s, %s, ", plumbp_t_len(w, sh->dims_m[0]),
-                     plumbp_t_len(w, sh->dims_m[1]), plumbp_t_len(w, sh->dims_m[2]),
+            snprintf(shape, sizeof shape, "box %s x %s x %s, %s, ", plumbp_t_size(w, sh->dims_m[0]),
+                     plumbp_t_size(w, sh->dims_m[1]), plumbp_t_size(w, sh->dims_m[2]),
                      plumbp_attitude_name(sh->attitude));
             break;
         default:
             snprintf(shape, sizeof shape, "plate %s x %s, %s thick, %s, ",
-                     plumbp_t_len(w, sh->dims_m[0]), plumbp_t_len(w, sh->dims_m[1]),
-                     plumbp_t_len(w, sh->dims_m[2]), plumbp_attitude_name(sh->attitude));
+                     plumbp_t_size(w, sh->dims_m[0]), plumbp_t_size(w, sh->dims_m[1]),
+                     plumbp_t_size(w, sh->dims_m[2]), plumbp_attitude_name(sh->attitude));
             break;
         }
     }
@@ -244,7 +244,7 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
         const plumb_fall_result *r = &it->result;
         shape[0] = '\0'; /* the sphere is named once, with its drag law */
         snprintf(how, sizeof how, "sphere of diameter %s, Cd(Re) by %s; Re %s to %s on the way",
-                 plumbp_t_len(w, d->diameter_m),
+                 plumbp_t_size(w, d->diameter_m),
                  d->model == PLUMB_DRAG_SPHERE_CGW ? "Clift, Grace & Weber (1978)"
                                                    : "Morrison (2010)",
                  plumbp_sci(w, r->min_re, 3), plumbp_sci(w, r->max_re, 3));

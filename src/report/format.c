@@ -4,7 +4,8 @@
  *
  * Units: the text and CSV reports show SI, or with --units us the units a
  * crew in the US works in: the international foot and pound (1959
- * agreement, PLUMB_FT_M and PLUMB_LB_KG), the statute mile of 5280 ft, the
+ * agreement, PLUMB_FT_M and PLUMB_LB_KG), the inch (1/12 ft) for the size
+ * of the body itself (plumbp_t_size), the statute mile of 5280 ft, the
  * international nautical mile of 1852 m (1929), the pound-force
  * lb x g0, the foot pound-force (PLUMB_FT_LBF_J) and the conventional inch
  * of mercury (NIST SP 811, 2008, Appendix B.8: 1 inHg = 3.386389e3 Pa).
@@ -241,6 +242,19 @@ const char *plumbp_t_len(writer *w, double m)
     char *b = slot(w);
     if (w->us)
         snprintf(b, NUMBUF, "%s" NBSP "ft", qty(w, m / PLUMB_FT_M));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "m", qty(w, m));
+    return b;
+}
+
+/* A size of the body itself (a shape's edges, length, diameter and
+ * thickness, a sphere's diameter): m, or in US units inches, as a tool or
+ * a box is measured (heights and distances stay in feet). */
+const char *plumbp_t_size(writer *w, double m)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "in", qty(w, m / INCH_M));
     else
         snprintf(b, NUMBUF, "%s" NBSP "m", qty(w, m));
     return b;

@@ -13,6 +13,9 @@
 #include "plumb/report.h"
 #include "report/textout.h"
 
+/* International inch, m: 1/12 of the foot, 0.0254 m exactly (1959
+ * agreement; NIST SP 811, 2008, Appendix B.8). */
+#define INCH_M 0.0254
 /* Statute mile per hour, m/s: 5280 international feet per 3600 s. */
 #define MPH_M_S (5280.0 * PLUMB_FT_M / 3600.0)
 /* Knot, m/s: international nautical mile 1852 m (1929) per 3600 s. */
@@ -66,6 +69,7 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
 int plumbp_shows_zero(const char *s);
 const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
+const char *plumbp_t_size(writer *w, double m);
 const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg);
 const char *plumbp_t_speed(writer *w, double v);
 const char *plumbp_t_wind(writer *w, double v);

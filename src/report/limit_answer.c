@@ -12,6 +12,10 @@
 
 /* ---- limit answer ------------------------------------------------------- */
 
+/* Room for a sentence of the answer: the explanation's words and up to
+ * PLUMB_LIMIT_MAX_CROSSINGS figures with their units. */
+#define EXPLAIN_TEXT (PLUMB_LIMIT_TEXT * 3)
+
 static const char *metric_word(plumb_metric m)
 {
     return m == PLUMB_METRIC_SPEED ? "impact speed" : m == PLUMB_METRIC_DRIFT ? "drift"
@@ -85,12 +89,78 @@ static const char *t_given_value(writer *w, const char *key, const plumb_limit_r
     if (!r->given_unit[0] || !(r->given_scale_si != 0.0))
         return b;
     shown v = plumbp_show_key(w, key, r->dim, r->value_si);
-    if (strcmp(v.unit, r->given_unit) == 0)
+    char given[PLUMB_LIMIT_UNIT * 2]; /* "m²" for "m^2": never longer than typed */
+    snprintf(given, sizeof given, "%s", unit_shown(w, r->given_unit));
+    if (strcmp(v.unit, given) == 0)
         return b;
     double x = (r->value_si - r->given_offset_si) / r->given_scale_si;
     x = round_safe(x, r->given_scale_si < 0.0 ? !round_down : round_down);
-    snprintf(b, NUMBUF, " (%s%s%s, the unit it was given in)", plumbp_gnum(w, x, 6), NBSP, r->given_unit);
+    snprintf(b, NUMBUF, " (%s%s%s, the unit it was given in)", plumbp_gnum(w, x, 6), NBSP, given);
     return b;
+}
+
+/* The limit in the report's units, each figure rounded down (the strict
+ * side), as the header states it. */
+static const char *t_the_limit(writer *w, const plumb_limit_report *rep)
+{
+    return plumbp_t_limit(w, rep->metric == PLUMB_METRIC_SPEED   ? plumbp_t_speed
+                             : rep->metric == PLUMB_METRIC_DRIFT ? plumbp_t_len
+                                                                 : plumbp_t_energy,
+                          rep->limit);
+}
+
+/* Why, in words, with every figure in the writer's units: what the solver
+ * returned as numbers (the range scanned, the crossings, the metric) and
+ * its words without figures (r->explanation), into buf. The text and CSV
+ * reports word it in the report's units; the JSON in SI, as all of the
+ * JSON (design.md section 6). */
+static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_result *r,
+                    char *buf, size_t size)
+{
+    const char *key = rep->key, *note = r->explanation;
+    const char *sep = note[0] ? "; " : "";
+    char scanned[NUMBUF * 3];
+    snprintf(scanned, sizeof scanned, "from %s to %s", t_value(w, key, r->dim, r->scan_lo_si),
+             t_value(w, key, r->dim, r->scan_hi_si));
+    switch (r->outcome) {
+    case PLUMB_LIMIT_UNLIMITED:
+        snprintf(buf, size,
+                 "the %s stays below the limit of %s for every %s scanned %s (%zu values); at "
+                 "the top of that range it is %s%s%s",
+                 metric_word(rep->metric), t_the_limit(w, rep), key, scanned, r->n_scanned,
+                 t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+        break;
+    case PLUMB_LIMIT_IMPOSSIBLE:
+        snprintf(buf, size, "the %s exceeds the limit of %s for every %s scanned %s (%zu values)%s%s",
+                 metric_word(rep->metric), t_the_limit(w, rep), key, scanned, r->n_scanned, sep,
+                 note);
+        break;
+    case PLUMB_LIMIT_FOUND:
+        if (r->n_crossings < 2) {
+            snprintf(buf, size,
+                     "%s = %s gives the limit, %s %s; %s values stay within it (scanned %s, %zu "
+                     "values)",
+                     key, t_limit_value(w, key, r->dim, r->value_si, r->limit_is_upper_bound),
+                     metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
+                     r->limit_is_upper_bound ? "lower" : "higher", scanned, r->n_scanned);
+        } else {
+            char list[PLUMB_LIMIT_TEXT];
+            size_t len = 0;
+            list[0] = '\0';
+            for (size_t k = 0; k < r->n_crossings && len + NUMBUF < sizeof list; k++)
+                len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", k ? ", " : "",
+                                        t_value(w, key, r->dim, r->crossings_si[k]));
+            snprintf(buf, size,
+                     "the %s is not monotonic in %s: it crosses the limit at %s (scanned %s, %zu "
+                     "values); %s below the first crossing, and alternately beyond",
+                     metric_word(rep->metric), key, list, scanned, r->n_scanned,
+                     r->within_at_low_end ? "within" : "exceeded");
+        }
+        break;
+    default: /* not applicable: no figures */
+        snprintf(buf, size, "%s", note);
+        break;
+    }
 }
 
 static void text_limit_answer(writer *w, const plumb_report_options *opt,
@@ -98,14 +168,9 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
 {
     const plumb_profile *p = rep->profile;
     plumbp_text_header(w, opt, "limit", plumb_profile_name(p));
-    char text[PLUMB_LIMIT_TEXT + 256];
+    char text[EXPLAIN_TEXT];
     snprintf(text, sizeof text, "the %s of %s at which the %s is %s%s%s%s", "value", rep->key,
-             metric_word(rep->metric),
-             plumbp_t_limit(w, rep->metric == PLUMB_METRIC_SPEED   ? plumbp_t_speed
-                               : rep->metric == PLUMB_METRIC_DRIFT ? plumbp_t_len
-                                                                   : plumbp_t_energy,
-                            rep->limit),
-             rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
+             metric_word(rep->metric), t_the_limit(w, rep), rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
              rep->criterion ? ")" : "");
     wrapped(w, "  ", text);
     const plumb_criterion *c = rep->criterion_info;
@@ -123,9 +188,10 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
         if (plumb_profile_is_inventory(p))
             put(w, "%s\n", plumb_profile_item(p, i)->name);
         if (r->outcome == PLUMB_LIMIT_FOUND) {
-            put(w, "  %s = %s%s\n", rep->key,
-                t_limit_value(w, rep->key, r->dim, r->value_si, r->limit_is_upper_bound),
-                t_given_value(w, rep->key, r, r->limit_is_upper_bound));
+            snprintf(text, sizeof text, "%s = %s%s", rep->key,
+                     t_limit_value(w, rep->key, r->dim, r->value_si, r->limit_is_upper_bound),
+                     t_given_value(w, rep->key, r, r->limit_is_upper_bound));
+            wrapped(w, "  ", text);
             snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
                      metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher",
@@ -148,13 +214,15 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                 wrapped(w, "  ", text);
             }
         } else if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE) {
-            wrapped(w, "  ", r->explanation);
+            explain(w, rep, r, text, sizeof text);
+            wrapped(w, "  ", text);
             continue;
         } else {
             put(w, "  %s: %s\n", rep->key,
                 r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"
                                                     : "no value meets the limit");
-            wrapped(w, "  ", r->explanation);
+            explain(w, rep, r, text, sizeof text);
+            wrapped(w, "  ", text);
         }
         snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu falls computed)",
                  t_value(w, rep->key, r->dim, r->base_value_si), t_metric(w, rep->metric, r->metric_at_base),
@@ -167,7 +235,7 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
 
 static void csv_limit(writer *w, const plumb_limit_report *rep)
 {
-    char text[PLUMB_CRIT_TEXT + PLUMB_DIAG_FILE + NUMBUF * 2];
+    char text[EXPLAIN_TEXT];
     plumbp_csv_cautions(w);
     snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
              plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
@@ -189,7 +257,8 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
          * given in one, else in the report's units */
         shown v = plumbp_show_key(w, rep->key, r->dim, r->value_si);
         if (r->given_unit[0] && r->given_scale_si != 0.0)
-            v = (shown){(r->value_si - r->given_offset_si) / r->given_scale_si, r->given_unit};
+            v = (shown){(r->value_si - r->given_offset_si) / r->given_scale_si,
+                        unit_shown(w, r->given_unit)};
         int found = r->outcome == PLUMB_LIMIT_FOUND; /* else no value: empty fields */
         csv_field(w, plumb_profile_item(rep->profile, i)->name);
         put(w, ",");
@@ -200,13 +269,31 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
             metric_word(rep->metric), csvnum(w, rep->limit),
             found ? csvnum(w, r->metric_at_value) : "", csvnum(w, r->base_value_si),
             csvnum(w, r->metric_at_base), r->n_crossings, r->evaluations);
-        csv_field(w, r->explanation);
+        explain(w, rep, r, text, sizeof text);
+        csv_field(w, text);
         put(w, "\n");
     }
 }
 
+/* The explanation of the JSON: in SI, whatever --units says (design.md
+ * section 6), words joined by plain spaces. */
+static const char *j_explain(jctx *j, const plumb_limit_report *rep, const plumb_limit_result *r,
+                             char *buf, size_t size)
+{
+    writer si;
+    memset(&si, 0, sizeof si); /* no stream: only its figures are used */
+    explain(&si, rep, r, buf, size);
+    for (char *c = buf; *c; c++)
+        if (*c == NBSP_CHAR)
+            *c = ' ';
+    if (si.bad)
+        j->bad = 1;
+    return buf;
+}
+
 static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_limit_report *rep)
 {
+    char text[EXPLAIN_TEXT];
     json_t *root = jobj(j);
     if (opt->version)
         jset(j, root, "plumb_version", jstr(j, opt->version));
@@ -254,7 +341,12 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
         jset(j, o, "lower_values_meet_limit",
              json_boolean(r->outcome == PLUMB_LIMIT_FOUND && r->limit_is_upper_bound));
         jset(j, o, "evaluations", json_integer((json_int_t)r->evaluations));
-        jset(j, o, "explanation", jstr(j, r->explanation));
+        if (r->outcome != PLUMB_LIMIT_NOT_APPLICABLE) {
+            jset(j, o, "scanned_from_si", jreal(j, r->scan_lo_si));
+            jset(j, o, "scanned_to_si", jreal(j, r->scan_hi_si));
+            jset(j, o, "values_scanned", jint(j, r->n_scanned));
+        }
+        jset(j, o, "explanation", jstr(j, j_explain(j, rep, r, text, sizeof text)));
         jpush(j, items, o);
     }
     jset(j, lim, "items", items);

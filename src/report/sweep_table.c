@@ -8,6 +8,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "io/keys.h"
 #include "report/common.h"
 
 /* ---- sweep table --------------------------------------------------------- */
@@ -52,12 +53,27 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
-/* A value of input `key` in the display units: as plumbp_show_dim, but a
- * wind speed in US units is in mph, as a crew reads it (plumbp_t_wind). */
+/* 1 when `key` (in any written form: items[N].shape.length,
+ * payload.shape.edges[1]) is a size of the body itself: a shape's
+ * diameter, length, edges or thickness, or a sphere drag model's
+ * diameter. A canopy's diameter is not: it is sized with its area. */
+static int body_size_key(const char *key)
+{
+    const plumbp_key *k = plumbp_key_find(key, NULL, NULL);
+    return k && k->dim == PLUMB_DIM_LENGTH &&
+           (strncmp(k->key, "payload.shape.", strlen("payload.shape.")) == 0 ||
+            strcmp(k->key, "payload.drag.diameter") == 0);
+}
+
+/* A value of input `key` in the display units: as plumbp_show_dim, but in
+ * US units a wind speed is in mph, as a crew reads it (plumbp_t_wind), and
+ * a size of the body itself in inches (plumbp_t_size). */
 shown plumbp_show_key(const writer *w, const char *key, plumb_dim dim, double si)
 {
     if (w->us && dim == PLUMB_DIM_SPEED && strncmp(key, "wind.", 5) == 0)
         return (shown){si / MPH_M_S, "mph"};
+    if (w->us && dim == PLUMB_DIM_LENGTH && body_size_key(key))
+        return (shown){si / INCH_M, "in"};
     return plumbp_show_dim(w, dim, si);
 }
 

@@ -115,12 +115,11 @@ static double key_unit(const writer *w, const char *key, const char **unit)
         *unit = "°";
         return 1.0;
     case PLUMB_DIM_LENGTH:
-        if (w->us) { *unit = "ft"; return 1.0 / PLUMB_FT_M; }
-        return 1.0;
     case PLUMB_DIM_SPEED:
     {
-        /* linear: the factor is the display value of 1 m/s (a wind speed
-         * in mph in US units, as everywhere) */
+        /* linear: the factor is the display value of 1 m or 1 m/s (a size
+         * of the body in inches and a wind speed in mph in US units, as
+         * everywhere) */
         shown v = plumbp_show_key(w, key, dim, 1.0);
         *unit = v.unit;
         return v.x;

@@ -70,16 +70,6 @@ void plumb_limit_options_init(plumb_limit_options *opt)
     opt->max_evaluations = 200;
 }
 
-static const char *metric_name(plumb_metric m)
-{
-    return m == PLUMB_METRIC_SPEED ? "impact speed" : m == PLUMB_METRIC_DRIFT ? "drift" : "impact energy";
-}
-
-static const char *metric_unit(plumb_metric m)
-{
-    return m == PLUMB_METRIC_SPEED ? "m/s" : m == PLUMB_METRIC_DRIFT ? "m" : "J";
-}
-
 static double metric_of(const plumb_fall_result *r, plumb_metric m)
 {
     return m == PLUMB_METRIC_SPEED ? r->speed_m_s : m == PLUMB_METRIC_DRIFT ? r->drift_m : r->energy_j;
@@ -337,27 +327,9 @@ static double scan_value(const key_range *r, double lo, double hi, size_t i, siz
     return lo + f * (hi - lo);
 }
 
-/* The SI unit as the reports spell it: "m²", not "m^2" (one spelling of
- * square metres in every report), "" for a number. */
-static const char *si_unit_text(plumb_dim dim)
-{
-    switch (dim) {
-    case PLUMB_DIM_AREA:
-        return "m²";
-    case PLUMB_DIM_VOLUME:
-        return "m³";
-    case PLUMB_DIM_DENSITY:
-        return "kg/m³";
-    default:
-        break;
-    }
-    const char *u = plumb_dim_si_unit(dim);
-    return strcmp(u, "1") == 0 ? "" : u;
-}
-
-static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const char *key,
-                          plumb_metric metric, double limit, const plumb_limit_options *opt,
-                          double base, const key_range *r_, plumb_limit_result *res);
+static plumb_status solve(solver_ctx *c_, const char *key, double limit,
+                          const plumb_limit_options *opt, double base, const key_range *r_,
+                          plumb_limit_result *res);
 
 plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
                                size_t item, const char *key, plumb_metric metric, double limit,
@@ -430,25 +402,22 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
             c.k = k;
         }
     }
-    st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
+    st = solve(&c, key, limit, opt, base, &r, res);
     plumb_atmosphere_free(own_atm);
     return st;
 }
 
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
-static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const char *key,
-                          plumb_metric metric, double limit, const plumb_limit_options *opt,
-                          double base, const key_range *r_, plumb_limit_result *res)
+static plumb_status solve(solver_ctx *c_, const char *key, double limit,
+                          const plumb_limit_options *opt, double base, const key_range *r_,
+                          plumb_limit_result *res)
 {
     solver_ctx c = *c_;
     key_range r = *r_;
     plumb_diag *diag = c.diag;
     plumb_status st;
-    plumb_dim dim = c.dim;
-    (void)profile;
-    res->dim = dim;
+    res->dim = c.dim;
     res->base_value_si = base;
-    const char *unit = si_unit_text(dim);
 
     double f0 = eval_at(base, &c);
     if (c.fail != PLUMB_OK)
@@ -498,25 +467,19 @@ static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const ch
     }
     res->evaluations = c.evals;
     res->within_at_low_end = fs[0] <= 0.0;
+    res->scan_lo_si = x_lo;
+    res->scan_hi_si = x_hi;
+    res->n_scanned = n;
+    res->metric_at_scan_hi = fs[n - 1] + limit;
     if (res->n_crossings == 0) {
         res->outcome = fs[0] <= 0.0 ? PLUMB_LIMIT_UNLIMITED : PLUMB_LIMIT_IMPOSSIBLE;
-        if (res->outcome == PLUMB_LIMIT_UNLIMITED)
-            snprintf(res->explanation, sizeof res->explanation,
-                     "the %s stays below the limit of %.6g %s for every %s scanned from %.6g to "
-                     "%.6g %s (%zu values); at the top of that range it is %.6g %s%s",
-                     metric_name(metric), limit, metric_unit(metric), key, x_lo, x_hi, unit, n,
-                     fs[n - 1] + limit, metric_unit(metric),
-                     strcmp(key, "release.height") == 0
-                         ? ", levelling off as the fall reaches its terminal speed"
-                         : "");
-        else
-            snprintf(res->explanation, sizeof res->explanation,
-                     "the %s exceeds the limit of %.6g %s for every %s scanned from %.6g to %.6g "
-                     "%s (%zu values)%s",
-                     metric_name(metric), limit, metric_unit(metric), key, x_lo, x_hi, unit, n,
-                     strcmp(key, "release.height") == 0
-                         ? ": even at (almost) zero height the limit is exceeded"
-                         : "");
+        /* the figures (range scanned, the metric at its top) say the rest */
+        if (strcmp(key, "release.height") == 0)
+            plumbp_strlcpy(res->explanation,
+                           res->outcome == PLUMB_LIMIT_UNLIMITED
+                               ? "it levels off as the fall reaches its terminal speed"
+                               : "even at (almost) zero height the limit is exceeded",
+                           sizeof res->explanation);
         return PLUMB_OK;
     }
     /* The answer: the crossing nearest the profile's own value. */
@@ -544,23 +507,5 @@ static plumb_status solve(solver_ctx *c_, const plumb_profile *profile, const ch
         within = !within;
     res->limit_is_upper_bound = within;
     res->increasing = within;
-    if (res->n_crossings == 1) {
-        snprintf(res->explanation, sizeof res->explanation,
-                 "%s = %.6g %s gives the limit, %s %.6g %s; %s values stay within it (scanned "
-                 "from %.6g to %.6g %s)",
-                 key, root, unit, metric_name(metric), froot + limit, metric_unit(metric),
-                 within ? "lower" : "higher", x_lo, x_hi, unit);
-    } else {
-        char list[PLUMB_LIMIT_TEXT / 2] = "";
-        size_t len = 0;
-        for (size_t k = 0; k < res->n_crossings && len + 32 < sizeof list; k++)
-            len += (size_t)snprintf(list + len, sizeof list - len, "%s%.6g", k ? ", " : "",
-                                    res->crossings_si[k]);
-        snprintf(res->explanation, sizeof res->explanation,
-                 "the %s is not monotonic in %s: it crosses the limit at %s %s (scanned from "
-                 "%.6g to %.6g %s); %s below the first crossing, and alternately beyond",
-                 metric_name(metric), key, list, unit, x_lo, x_hi, unit,
-                 res->within_at_low_end ? "within" : "exceeded");
-    }
     return PLUMB_OK;
 }

@@ -1,0 +1,175 @@
+#!/usr/bin/python3
+"""A limit answer's words are in the report's units (issue 9: "--units us is
+US throughout a report"): for every kind of answer (found, found at several
+crossings, not reached at the top of the range scanned, exceeded all the
+way down, already over at zero height, not applicable to an item) and every
+kind of limit (--energy-max, --speed-max, --drift-max):
+  - the US text and CSV name no SI unit but the joules beside foot
+    pound-force (every energy is shown in both) and the unit a key was
+    given in, where the answer says so;
+  - every figure of the US explanation is the SI run's figure converted by
+    an independent factor, to the digits printed;
+  - the JSON is SI whatever --units says (design.md section 6): the same
+    bytes from --units si and --units us;
+  - no line of the text is wider than 80 columns.
+Factors (exact by definition; NIST SP 811 (2008), Appendix B.8, seen):
+1 ft = 0.3048 m, 1 in = 0.0254 m, 1 lb = 0.45359237 kg, 1 mph = 0.44704 m/s,
+1 ft·lbf = 0.3048 m x 0.45359237 kg x 9.80665 m/s² (standard gravity,
+3rd CGPM 1901), 1 degF of difference = 5/9 K.
+Usage: limit_words.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
+"""
+import csv
+import io
+import json
+import os
+import re
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import HERE, ROOT, check, finish, plumb  # noqa: E402
+
+FT, INCH, LB, MPH, G0 = 0.3048, 0.0254, 0.45359237, 0.44704, 9.80665
+FT_LBF = FT * LB * G0
+# unit -> (dimension, factor to SI, offset); SI units factor 1
+UNITS = {
+    "m": ("length", 1.0), "ft": ("length", FT), "in": ("length", INCH),
+    "m/s": ("speed", 1.0), "ft/s": ("speed", FT), "mph": ("speed", MPH),
+    "J": ("energy", 1.0), "ft·lbf": ("energy", FT_LBF),
+    "kg": ("mass", 1.0), "lb": ("mass", LB),
+    "m²": ("area", 1.0), "ft²": ("area", FT * FT),
+    "K": ("tempdiff", 1.0), "°F": ("tempdiff", 5.0 / 9.0),
+}
+SI = {"m", "m/s", "J", "kg", "m²", "K"}
+FIG = re.compile(r"(?<![\w.])(-?\d+(?:\.\d+)?(?:e[-+]?\d+)?) (ft·lbf|ft/s|ft²|m/s|m²|mph|°F|ft|in|lb|kg|m|J|K)(?![\w/²·])")
+
+DEMO = os.path.join(ROOT, "profiles", "demo")
+TOOL = os.path.join(DEMO, "hand-tool.yaml")
+CANOPY = os.path.join(DEMO, "drone-canopy.yaml")
+KIT = os.path.join(DEMO, "tower-kit.yaml")
+
+CASES = [  # (what, args, outcomes wanted)
+    ("found", [TOOL, "--find", "release.height", "--energy-max", "40J"], {"found"}),
+    ("found, lighter", [TOOL, "--find", "payload.mass", "--energy-max", "40J"], {"found"}),
+    ("found at two crossings", [TOOL, "--find", "release.velocity.climb", "--energy-max", "360J"],
+     {"found"}),
+    ("found, a speed limit, two crossings", [CANOPY, "--find", "descent.diameter",
+                                             "--speed-max", "5m/s"], {"found"}),
+    ("found, a temperature offset", [TOOL, "--find", "atmosphere.temperature_offset",
+                                     "--energy-max", "350J"], {"found"}),
+    ("not reached at the top of the scan", [TOOL, "--find", "release.height",
+                                            "--energy-max", "1000000J"], {"unlimited"}),
+    ("not reached, a drift limit in mph", [TOOL, "--find", "wind.speed", "--drift-max", "3000m"],
+     {"unlimited"}),
+    ("exceeded even at the largest canopy", [CANOPY, "--find", "descent.area",
+                                             "--speed-max", "0.05m/s"], {"impossible"}),
+    ("already over at zero height", [TOOL, "--find", "release.height", "--energy-max", "0.001J"],
+     {"impossible"}),
+    ("not applicable to some items", [KIT, "--find", "payload.shape.diameter",
+                                      "--energy-max", "40J"], {"found", "not applicable"}),
+]
+
+
+def figures(text):
+    """(dimension, SI value, SI ulp) of every figure with a unit in text."""
+    out = []
+    for num, unit in FIG.findall(text.replace("\u00a0", " ")):
+        dim, f = UNITS[unit]
+        x = float(num)
+        mant, _, exp = num.lstrip("-").partition("e")
+        if "." in mant:
+            last = -len(mant.split(".")[1])
+        else:  # trailing zeros of a whole number may be rounding's
+            last = len(mant) - len(mant.rstrip("0")) if mant.strip("0") else 0
+        # a figure is within one unit of its last digit of the true value
+        # (rounded, or rounded toward the side that meets a limit)
+        ulp = 10.0 ** (last + (int(exp) if exp else 0))
+        out.append((dim, x * f, ulp * abs(f), unit))
+    return out
+
+
+def rows(out):
+    return list(csv.DictReader(io.StringIO("\n".join(l for l in out.splitlines()
+                                                     if not l.startswith("#")))))
+
+
+def body(text):
+    """The answer's lines of a text report, between the header and Profile,
+    as one line (a sentence may wrap anywhere but inside a figure)."""
+    b = text.split("\n\n", 1)[1].split("\nProfile ")[0] if "\n\n" in text else ""
+    return " ".join(b.split())
+
+
+def agree(us, si):
+    """Every US figure matches the SI run's figure of its dimension in the
+    same place, both read as SI (energy is printed in both units, in the
+    report system's order, so figures are matched per dimension)."""
+    if len(us) != len(si):
+        return f"{len(us)} figures in US, {len(si)} in SI"
+    by = {}
+    for f in si:
+        by.setdefault(f[0], []).append(f)
+    for f in us:
+        cands = by.get(f[0], [])
+        hit = next((g for g in cands if abs(f[1] - g[1]) <= f[2] + g[2] + 1e-12 * abs(g[1])), None)
+        if hit is None:
+            return f"{f[3]} figure {f[1]!r} (SI) matches no SI figure of {[g[1] for g in cands]}"
+        cands.remove(hit)
+    return ""
+
+
+def us_words_ok(text, given=()):
+    """SI units appear only as the joules beside ft·lbf, or as a unit given."""
+    bad = []
+    for m in FIG.finditer(text.replace("\u00a0", " ")):
+        unit = m.group(2)
+        if unit not in SI:
+            continue
+        before = text[:m.start()].rstrip()
+        if unit == "J" and before.endswith("ft·lbf ("):
+            continue
+        if unit in given and text[m.end():].startswith(", the unit it was given in"):
+            continue
+        bad.append(m.group(0))
+    return bad
+
+
+for what, args, outcomes in CASES:
+    # CSV: the explanation column, per item
+    rc_si, out_si, err_si = plumb("limit", *args, "--format", "csv")
+    rc_us, out_us, err_us = plumb("limit", *args, "--format", "csv", "--units", "us")
+    r_si, r_us = rows(out_si), rows(out_us)
+    check(rc_si == 0 and rc_us == 0 and r_si and len(r_si) == len(r_us)
+          and {r["outcome"] for r in r_us} == outcomes,
+          f"{what}: CSV answers {outcomes} ({err_si.strip()} {err_us.strip()})")
+    for a, b in zip(r_si, r_us):
+        ex_si, ex_us = a["explanation"], b["explanation"]
+        bad = us_words_ok(ex_us)
+        check(not bad, f"{what}: US CSV explanation names SI units {bad}: {ex_us}")
+        msg = agree(figures(ex_us), figures(ex_si))
+        check(not msg and (figures(ex_si) or b["outcome"] == "not applicable"),
+              f"{what}: US CSV figures agree with SI ({msg}):\n  {ex_si}\n  {ex_us}")
+
+    # text: the answer's lines
+    rc_si, t_si, _ = plumb("limit", *args)
+    rc_us, t_us, _ = plumb("limit", *args, "--units", "us")
+    b_si, b_us = body(t_si), body(t_us)
+    given = {u for _, _, _, u in figures(b_us)
+             if re.search(r"\d " + re.escape(u) + ", the unit it was given in", b_us)}
+    bad = us_words_ok(b_us, given)
+    check(rc_si == 0 and rc_us == 0 and b_us and not bad,
+          f"{what}: US text names SI units {bad}:\n{b_us}")
+    # the bracket in the unit given is the same in both runs: leave it out
+    strip = re.compile(r" \([^()]*, the unit it was given in\)")
+    msg = agree(figures(strip.sub("", b_us)), figures(strip.sub("", b_si)))
+    check(not msg, f"{what}: US text figures agree with SI ({msg}):\n{b_si}\n{b_us}")
+    wide = [l for l in (t_si + t_us).splitlines() if len(l) > 80]
+    check(not wide, f"{what}: text wider than 80 columns: {wide}")
+
+    # JSON: SI whatever --units says, its explanation the SI CSV's
+    rc_a, j_si, _ = plumb("limit", *args, "--format", "json")
+    rc_b, j_us, _ = plumb("limit", *args, "--format", "json", "--units", "us")
+    ex = [it["explanation"] for it in json.loads(j_si)["limit"]["items"]] if rc_a == 0 else []
+    check(rc_b == 0 and j_si == j_us and ex == [r["explanation"] for r in r_si],
+          f"{what}: JSON the same in SI and US, its explanation in SI:\n{ex}")
+
+finish()
