@@ -11,6 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "plumb/suggest.h"
 #include "io/profile_int.h"
 
 /* ---- key paths (overrides and plumb_profile_key_dim) -------------------- */
@@ -224,7 +225,7 @@ static plumb_status no_item_named(plumb_diag *diag, int line, const kseg *s, con
         }
         len += (size_t)snprintf(all + len, sizeof all - len, "%s'%s'", len ? ", " : "", name);
     }
-    const char *near = plumbp_closest(s->item, names, n);
+    const char *near = plumb_suggest_closest(s->item, names, n);
     return set_raise(diag, PLUMB_EKEY, line, s->col, key, "no item is named '%s'%s%s%s; the items are %s",
                      s->item, near ? " (did you mean '" : "", near ? near : "",
                      near ? "'?)" : "", all[0] ? all : "unnamed");

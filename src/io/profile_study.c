@@ -10,6 +10,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "plumb/suggest.h"
 #include "io/attitude.h"
 #include "io/profile_int.h"
 
@@ -202,7 +203,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     char pkey[PLUMB_DIAG_KEY];
     plumby_key_join(pkey, sizeof pkey, dkey, dp->key, 0);
     if (kind < 0) {
-        const char *best = plumbp_closest(dp->key, dists, 3);
+        const char *best = plumb_suggest_closest(dp->key, dists, 3);
         return plumby_raise(ctx, dp->origin, dp->line, dp->col, pkey, PLUMB_EKEY,
                             "unknown distribution '%s'%s%s%s (normal, uniform or triangular)",
                             dp->key, best ? " (did you mean '" : "", best ? best : "",
