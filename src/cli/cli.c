@@ -146,6 +146,35 @@ static int cli_is(const char *arg, const char *name)
     return strncmp(arg, name, n) == 0 && (arg[n] == '\0' || arg[n] == '=');
 }
 
+/* Most options a command accepts, with their aliases (the suggestion's
+ * candidates). */
+#define CLI_MAX_OPTIONS 40
+
+/* "unknown option '--frmat' (did you mean '--format'?)", the nearest of the
+ * options the command accepts; returns 2. */
+static int cli_unknown_option(const char *cmd, const char *arg, unsigned accept,
+                              const cli_option *extra, size_t n_extra)
+{
+    const char *names[CLI_MAX_OPTIONS];
+    size_t n = 0;
+    for (size_t k = 0; k < N_COMMON && n + 2 <= CLI_MAX_OPTIONS; k++) {
+        const cli_common *c = &common_options[k];
+        if (c->bit && !(accept & c->bit))
+            continue;
+        names[n++] = c->name;
+        if (c->alias)
+            names[n++] = c->alias;
+    }
+    for (size_t k = 0; k < n_extra && n < CLI_MAX_OPTIONS; k++)
+        names[n++] = extra[k].name;
+    char typed[64]; /* the option without its "=value" */
+    snprintf(typed, sizeof typed, "%.*s", (int)strcspn(arg, "="), arg);
+    const char *near = plumb_suggest_closest(typed, names, n);
+    if (near)
+        return cli_usage_error(cmd, "unknown option '%s' (did you mean '%s'?)", arg, near);
+    return cli_usage_error(cmd, "unknown option '%s'", arg);
+}
+
 int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t n_extra,
               const char *usage, cli_args *a)
 {
@@ -230,7 +259,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
         }
         if (!found) {
             cli_args_free(a);
-            return cli_usage_error(a->cmd, "unknown option '%s'", arg);
+            return cli_unknown_option(a->cmd, arg, accept, extra, n_extra);
         }
         if (strcmp(name, "--set") == 0) {
             if (!strchr(value, '=') || value[0] == '=') {

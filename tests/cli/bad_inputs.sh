@@ -149,6 +149,36 @@ refused "--set a direction with a compass letter" "plumb: --set:1:11: wind.from:
 refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
   "did you mean en397-shock-49j?" -- limit "$good" --find release.height --energy-max en397-shock --format json
 
+# ---- a misspelt option or command gets the nearest one (issue 9) -----------
+# Every option each command's --help lists, misspelt by dropping its first
+# letter ("--format" -> "--ormat", one edit): refused as unknown with the
+# option meant suggested, exit 2, nothing written.
+for c in fall sweep limit zone sheet air lint; do
+  "$bin" "$c" --help >"$tmp/help" 2>&1
+  opts=$(sed -n '/^Options:/,$s/^  \(-[a-z], \)\{0,1\}\(--[a-z][a-z-]*\).*/\2/p' "$tmp/help")
+  n=0
+  for o in $opts; do
+    typo=--$(printf '%s' "$o" | cut -c4-)
+    refused "$c $typo" "plumb $c: unknown option '$typo' (did you mean '$o'?)" \
+      "Try 'plumb $c --help'." -- "$c" "$good" "$typo"
+    n=$((n + 1))
+  done
+  [ "$n" -ge 5 ] && pass=$((pass + 1)) || bad "$c --help lists $n options, expected at least 5"
+done
+refused "fall --frmat=json" "plumb fall: unknown option '--frmat=json' (did you mean '--format'?)" \
+  -- fall "$good" --frmat=json
+refused "zone -0 for -o" "plumb zone: unknown option '-0' (did you mean '-o'?)" -- zone "$good" -0
+# a word far from every option gets no guess
+refused "fall --xyz" "plumb fall: unknown option '--xyz'" -- fall "$good" --xyz
+grep -q "did you mean" "$tmp/stderr" && bad "fall --xyz: suggested $(cat "$tmp/stderr")" || pass=$((pass + 1))
+# a misspelt command, and one asked about with help
+refused "plumb fal" "plumb: unknown command 'fal' (did you mean 'fall'?); the commands are: fall sweep" \
+  -- fal "$good"
+refused "plumb swep" "plumb: unknown command 'swep' (did you mean 'sweep'?)" -- swep "$good"
+refused "plumb help lmit" "plumb: unknown command 'lmit' (did you mean 'limit'?)" -- help lmit
+refused "plumb --verison" "plumb: unknown option '--verison' (did you mean '--version'?)" -- --verison
+refused "plumb xyz" "plumb: unknown command 'xyz'; the commands are:" -- xyz "$good"
+
 # ---- plumb air --alt ranges ------------------------------------------------
 for r in 0m:10km 10km:0m:1km 0:1000:100 0m:10km:0m 0m:10km:-1km 0m:x:1km; do
   refused "air --alt $r" "--alt" -- air --alt "$r" --format json
