@@ -92,7 +92,7 @@ typedef struct plumb_sampler plumb_sampler;
 
 /* Checks the n entries against the base spec and makes a sampler. source
  * names the file for diagnostics (may be NULL); an entry's line and column
- * locate its error. PLUMB_EINVAL (key set) for a key that is not a
+ * locate its error, in PLUMB_DIAG_SET_FILE for an entry with from_set. PLUMB_EINVAL (key set) for a key that is not a
  * per-fall numeric input, a duplicate or conflicting key, sd < 0, lo > hi
  * for a non-angle key, a mode outside [lo, hi], a range violated, or more
  * than PLUMB_ZONE_MAX_INPUTS entries. On error *out is NULL and nothing is

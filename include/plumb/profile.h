@@ -40,6 +40,8 @@ enum { PLUMB_MAX_ATTITUDES = 4, PLUMB_ATTITUDE_NAME = 24 };
 typedef struct plumb_uncertainty {
     char key[PLUMB_DIAG_KEY];  /* dotted key, e.g. "wind.speed" */
     plumb_dist_kind kind;      /* distribution */
+    int from_set;              /* 1: given by a --set override, whose number (from 1) is
+                                  `line`; 0: in the profile's file (or built in code) */
     double param[3];           /* normal: mean, sd; uniform: lo, hi; triangular: lo, mode, hi */
     int line, col;             /* where it was given */
     /* choice (key "payload.attitude"): the attitudes, their weights (> 0,

@@ -116,8 +116,13 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     plumby_key_join(dkey, sizeof dkey, "uncertainty", pr->key, 0);
     memset(u, 0, sizeof *u);
     plumbp_strlcpy(u->key, pr->key, sizeof u->key);
-    u->line = pr->line;
-    u->col = pr->col;
+    /* where it was given: the key, or the value when a --set replaced
+     * the value of a key of the file */
+    const plumby_node *val = pr->value;
+    int replaced = val && val->origin != pr->origin;
+    u->line = replaced ? val->line : pr->line;
+    u->col = replaced ? val->col : pr->col;
+    u->from_set = (replaced ? val->origin : pr->origin) == PLUMBY_FROM_SET;
     if (strcmp(pr->key, "payload.attitude") == 0) {
         free(L->p->att_drag);
         if (!(L->p->att_drag = calloc(L->p->n_items ? L->p->n_items : 1, sizeof *L->p->att_drag)))

@@ -232,6 +232,26 @@ refused "an uncertain attitude and an uncertain drag coefficient" \
   "plumb: $tmp/attitude-and-cd.yaml:5:3: " "the attitude sets the drag" \
   -- zone "$tmp/attitude-and-cd.yaml" --format json --threads 1
 
+# The same refusals of an uncertainty given by --set name that --set (the
+# N-th --set is line N of "--set", issue 9): a new entry at its key, a
+# value given over one of the file at the value; one in the file still
+# names the file when a --set is also given.
+printf '%s\n  release.velocity.speed: "3 m/s +- 1 m/s"\n  wind.from: {uniform: [10 deg, 50 deg]}\n' \
+  "$zbase" | sed 's/^release: {height: 60 m}/release: {height: 60 m, velocity: {speed: 3 m\/s, heading: 90 deg}}\nwind: {speed: 4 m\/s, from: 30 deg}/' \
+  >"$tmp/velocity.yaml"
+refused "an uncertainty added by the second --set" \
+  "plumb: --set:2:13: release.velocity.east: " "either as east/north or as speed/heading" \
+  -- zone "$tmp/velocity.yaml" --format json --threads 1 --set zone.seed=7 \
+  --set "uncertainty.release.velocity.east={uniform: [0.5 m/s, 0.9 m/s]}"
+refused "an uncertainty of the file given again by --set" \
+  "plumb: --set:1:23: wind.from: " "wider than a full turn" \
+  -- zone "$tmp/velocity.yaml" --format json --threads 1 \
+  --set "uncertainty.wind.from={uniform: [0 deg, 400 deg]}"
+sed 's/\[10 deg, 50 deg\]/[0 deg, 400 deg]/' "$tmp/velocity.yaml" >"$tmp/sector.yaml"
+refused "an uncertainty of the file, with a --set beside it" \
+  "plumb: $tmp/sector.yaml:7:3: wind.from: " "wider than a full turn" \
+  -- zone "$tmp/sector.yaml" --format json --threads 1 --set zone.seed=7
+
 # A profile naming a criterion when the criteria directory holds none.
 mkdir "$tmp/no-criteria"
 printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.003 m^2}}\nrelease: {height: 6 m}\ncriteria: [en397-shock-49j]\n' \
