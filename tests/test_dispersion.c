@@ -899,6 +899,19 @@ static void test_bad_zone_settings_are_refused_with_their_key(void **state)
     z.scatter_m = -1.0;
     assert_int_equal(plumb_zone_run(&s, atm, &u, 1, &z, NULL, 0, NULL, &r, &d), PLUMB_EINVAL);
     assert_string_equal(d.key, "zone.scatter");
+    /* the seed is printed in JSON: at most 2^53 - 1, the largest integer
+     * below which every integer is a binary64 (53-bit significand, IEEE
+     * 754-2008, table 3.5), so 2^53 + 1 would read back as 2^53 */
+    z = zone_spec(1000, 1, 0.9);
+    z.seed = 9007199254740993ul;
+    assert_int_equal(plumb_zone_check(&z, NULL, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.seed");
+    assert_int_equal(plumb_zone_run(&s, atm, &u, 1, &z, NULL, 0, NULL, &r, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.seed");
+    z.seed = 9007199254740991ul;
+    assert_int_equal(plumb_zone_check(&z, NULL, &d), PLUMB_OK);
+    assert_int_equal(plumb_zone_check(NULL, NULL, &d), PLUMB_EINVAL);
+    assert_true((double)z.seed == 9007199254740991.0);
     plumb_atmosphere_free(atm);
 }
 

@@ -1476,6 +1476,44 @@ static void test_uncertainty_entries_know_where_they_were_given(void **state)
     plumb_profile_free(p);
 }
 
+/* Where a key's value was given: the file or the --set, line and column;
+ * nothing for a default or an unknown key. */
+static void test_key_origin_names_the_file_or_the_set(void **state)
+{
+    (void)state;
+    const char *text = GOOD "zone:\n  samples: 5000\n";
+    const char *sets[] = {"zone.seed=17", "release.height=31.6 m"};
+    plumb_profile *p = load_ok(text, sets, 2);
+    int line, col;
+    const char *file = plumb_profile_key_origin(p, "zone.samples", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, plumb_profile_path(p));
+    assert_int_equal(line, line_of(text, "  samples:"));
+    assert_int_equal(col, 12);
+    file = plumb_profile_key_origin(p, "zone.seed", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, "--set");
+    assert_int_equal(line, 1);
+    assert_int_equal(col, (int)strlen("zone.seed=") + 1);
+    file = plumb_profile_key_origin(p, "release.height", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, "--set");
+    assert_int_equal(line, 2);
+    assert_int_equal(col, (int)strlen("release.height=") + 1);
+    file = plumb_profile_key_origin(p, "payload.mass", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, plumb_profile_path(p));
+    assert_int_equal(line, line_of(text, "  mass:"));
+    assert_int_equal(col, 9);
+    /* a default, an unknown key, no profile */
+    assert_null(plumb_profile_key_origin(p, "zone.confidence", &line, &col));
+    assert_int_equal(line, 0);
+    assert_int_equal(col, 0);
+    assert_null(plumb_profile_key_origin(p, "zone.sampels", &line, &col));
+    assert_null(plumb_profile_key_origin(NULL, "zone.samples", &line, &col));
+    plumb_profile_free(p);
+}
+
 static void test_derive_applies_overrides_without_reading_the_file(void **state)
 {
     (void)state;
@@ -1804,6 +1842,7 @@ int main(void)
         cmocka_unit_test(test_override_appends_a_second_descent_device),
         cmocka_unit_test(test_override_adds_an_uncertainty_entry),
         cmocka_unit_test(test_uncertainty_entries_know_where_they_were_given),
+        cmocka_unit_test(test_key_origin_names_the_file_or_the_set),
         cmocka_unit_test(test_derive_applies_overrides_without_reading_the_file),
         cmocka_unit_test(test_key_dim_gives_the_dimension_of_numeric_keys),
         cmocka_unit_test(test_key_dim_refuses_unknown_and_non_numeric_keys),
