@@ -640,6 +640,28 @@ const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
     return "profiles/criteria";
 }
 
+plumb_status cli_nomem(plumb_diag *diag)
+{
+    plumb_diag_clear(diag);
+    diag->status = PLUMB_ENOMEM;
+    snprintf(diag->message, sizeof diag->message, "out of memory");
+    return PLUMB_ENOMEM;
+}
+
+plumb_status cli_render(plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
+                        const void *ctx, char **buf, size_t *len, plumb_diag *diag)
+{
+    *buf = NULL;
+    *len = 0;
+    FILE *mem = open_memstream(buf, len);
+    if (!mem)
+        return cli_nomem(diag);
+    plumb_status st = make(mem, ctx, diag);
+    if (fclose(mem) != 0 && st == PLUMB_OK)
+        st = cli_nomem(diag);
+    return st;
+}
+
 int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
              const void *ctx)
 {
@@ -647,16 +669,7 @@ int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx,
     plumb_diag_clear(&diag);
     char *buf = NULL;
     size_t len = 0;
-    FILE *mem = open_memstream(&buf, &len);
-    if (!mem) {
-        fprintf(stderr, "plumb: out of memory\n");
-        return CLI_EXIT_FAILED;
-    }
-    plumb_status st = make(mem, ctx, &diag);
-    if (fclose(mem) != 0 && st == PLUMB_OK) {
-        plumb_diag_clear(&diag);
-        diag.status = st = PLUMB_ENOMEM;
-    }
+    plumb_status st = cli_render(make, ctx, &buf, &len, &diag);
     if (st == PLUMB_OK)
         st = cli_write_output(a->output, buf, len, &diag);
     free(buf);
@@ -666,4 +679,3 @@ int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx,
         fprintf(stderr, "plumb: wrote %s\n", a->output);
     return CLI_EXIT_OK;
 }
-
