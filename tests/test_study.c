@@ -228,8 +228,8 @@ static plumb_study *settings_study(fixture *f, const char *zone, const char *con
 }
 
 /* Zone settings are refused where they were given (issue 9): the file's
- * line and column, the --set's, the profile alone for a default, no file
- * for the caller's own value. Too few samples: the 99 % radius needs
+ * line and column, the --set's, the profile alone for a default or the
+ * caller's own value. Too few samples: the 99 % radius needs
  * 0.99^N <= 0.025, N >= 368 (the order-statistic bound of dispersion.h). */
 static void test_zone_settings_are_refused_where_they_were_given(void **state)
 {
@@ -248,11 +248,12 @@ static void test_zone_settings_are_refused_where_they_were_given(void **state)
     assert_int_equal(d.line, 6);
     assert_int_equal(d.col, 12);
     assert_non_null(strstr(d.message, "at least 368"));
-    /* the caller's own value: no file */
+    /* the caller's own value: the profile, no line */
     z.samples = 367;
     assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
-    assert_string_equal(d.file, "");
+    assert_string_equal(d.file, "settings.yaml");
     assert_int_equal(d.line, 0);
+    assert_int_equal(d.col, 0);
     z.samples = 368;
     assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_OK);
     plumb_study_free(st);

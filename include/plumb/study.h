@@ -117,9 +117,10 @@ plumb_status plumb_study_zone_check(const plumb_study *study, plumb_diag *diag);
  * does before its first fall, so that a caller can refuse them before it
  * starts anything else. A setting the profile gave (its value is the
  * profile's) is located where it was given: the profile's file or --set,
- * line and column (plumb_profile_key_origin), or the profile alone when it
- * is the default; a value the caller put in `zone` has no file, and the
- * caller may say where it came from. PLUMB_EINVAL with the setting's key. */
+ * line and column (plumb_profile_key_origin); a default, or a value the
+ * caller put in `zone`, at the profile without a line (a caller that knows
+ * where its value came from may say so). PLUMB_EINVAL with the setting's
+ * key. */
 plumb_status plumb_study_zone_check_settings(const plumb_study *study,
                                              const plumb_zone_spec *zone,
                                              const plumb_zone_options *opt, plumb_diag *diag);

@@ -315,10 +315,10 @@ plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_z
     plumb_status st = plumb_zone_check(zone, opt, &d);
     if (st == PLUMB_OK)
         return PLUMB_OK;
-    if (profile_gave(zone, plumb_profile_zone(s->profile), d.key)) {
-        const char *file = plumb_profile_key_origin(s->profile, d.key, &d.line, &d.col);
-        plumbp_strlcpy(d.file, file ? file : plumb_profile_path(s->profile), sizeof d.file);
-    }
+    const char *file = NULL;
+    if (profile_gave(zone, plumb_profile_zone(s->profile), d.key))
+        file = plumb_profile_key_origin(s->profile, d.key, &d.line, &d.col);
+    plumbp_strlcpy(d.file, file ? file : plumb_profile_path(s->profile), sizeof d.file);
     if (diag)
         *diag = d;
     return st;
