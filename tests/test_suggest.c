@@ -79,9 +79,16 @@ static void test_a_word_far_from_every_candidate_gets_none(void **state)
     /* xyz -> air is 3 edits of 3 letters */
     assert_int_equal(plumbp_edit_distance("xyz", "air"), 3);
     assert_null(plumb_suggest_closest("xyz", cmds, 7));
-    /* a 4-letter word 2 edits away is still suggested ... */
+    /* edits over half the longer word: "ab" -> "job" is 2 of 3 */
+    const char *top[] = {"job", "payload", "release"};
+    assert_int_equal(plumbp_edit_distance("ab", "job"), 2);
+    assert_null(plumb_suggest_closest("ab", top, 3));
+    /* a 4-letter word 2 edits away is still suggested, and an
+     * abbreviation 2 edits short of a 5-letter word ... */
     const char *keys[] = {"drag"};
     assert_string_equal(plumb_suggest_closest("drga", keys, 1), "drag");
+    const char *profiles[] = {"uniform", "power", "log", "table"};
+    assert_string_equal(plumb_suggest_closest("pow", profiles, 4), "power");
     /* ... a long one 4 edits away is not */
     const char *words[] = {"standard-1976"};
     assert_int_equal(plumbp_edit_distance("standard-2000", "standard-1976"), 4);

@@ -13,10 +13,10 @@
  *   d(a, b) = D(|a|, |b|).
  * A candidate is suggested when it is the nearest, at most
  * PLUMB_SUGGEST_MAX_EDITS edits away, and those edits are at most half the
- * typed word's length (a 3-letter word gets at most 1 edit), so that a
- * word that merely shares a few letters with a candidate gets no
- * suggestion (common practice, no source). Case counts: "Fall" is one
- * edit from "fall".
+ * length of the longer of the two words ("pow" is 2 edits from "power",
+ * suggested; "ab" is 2 from "job", not), so that a word that merely shares
+ * a letter or two with a candidate gets no suggestion (common practice,
+ * no source). Case counts: "Fall" is one edit from "fall".
  *
  * Ownership: nothing is allocated; the result points into the caller's
  * candidates.

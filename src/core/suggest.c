@@ -50,7 +50,8 @@ const char *plumb_suggest_closest(const char *word, const char *const *candidate
         if (!candidates[i])
             continue;
         int d = plumbp_edit_distance(word, candidates[i]);
-        if (d < best_d && 2 * (size_t)d <= len) {
+        size_t longer = strlen(candidates[i]) > len ? strlen(candidates[i]) : len;
+        if (d < best_d && 2 * (size_t)d <= longer) {
             best_d = d;
             best = candidates[i];
         }
