@@ -843,6 +843,38 @@ static void test_bad_uncertainty_is_refused_with_its_key_and_location(void **sta
     plumb_sampler_free(NULL);
 }
 
+/* An entry given by a --set is located in "--set", its line the number of
+ * that --set (issue 9); the others in the file named, even beside it. */
+static void test_bad_uncertainty_from_a_set_names_the_set(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    drone_spec(&s);
+    plumb_uncertainty two[2] = {unc("release.velocity.speed", PLUMB_DIST_UNIFORM, 5.0, 6.0, 0.0),
+                                unc("release.velocity.east", PLUMB_DIST_UNIFORM, -6.0, -5.0, 0.0)};
+    two[1].from_set = 1;
+    two[1].line = 2;
+    two[1].col = 13;
+    plumb_sampler *sm = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_sampler_alloc(&s, two, 2, "p.yaml", &sm, &d), PLUMB_EINVAL);
+    assert_null(sm);
+    assert_string_equal(d.file, PLUMB_DIAG_SET_FILE);
+    assert_string_equal(d.file, "--set");
+    assert_int_equal(d.line, 2);
+    assert_int_equal(d.col, 13);
+    assert_string_equal(d.key, "release.velocity.east");
+    /* the entry at fault is the file's: the file is named */
+    two[0] = unc("wind.from", PLUMB_DIST_UNIFORM, 10.0, 380.0, 0.0);
+    two[1] = unc("wind.speed", PLUMB_DIST_UNIFORM, 4.0, 6.0, 0.0);
+    two[1].from_set = 1;
+    assert_int_equal(plumb_sampler_alloc(&s, two, 2, "p.yaml", &sm, &d), PLUMB_EINVAL);
+    assert_string_equal(d.file, "p.yaml");
+    assert_int_equal(d.line, 17);
+    assert_string_equal(d.key, "wind.from");
+}
+
 /* Bad zone settings, through plumb_zone_run. */
 static void test_bad_zone_settings_are_refused_with_their_key(void **state)
 {
@@ -867,6 +899,19 @@ static void test_bad_zone_settings_are_refused_with_their_key(void **state)
     z.scatter_m = -1.0;
     assert_int_equal(plumb_zone_run(&s, atm, &u, 1, &z, NULL, 0, NULL, &r, &d), PLUMB_EINVAL);
     assert_string_equal(d.key, "zone.scatter");
+    /* the seed is printed in JSON: at most 2^53 - 1, the largest integer
+     * below which every integer is a binary64 (53-bit significand, IEEE
+     * 754-2008, table 3.5), so 2^53 + 1 would read back as 2^53 */
+    z = zone_spec(1000, 1, 0.9);
+    z.seed = 9007199254740993ul;
+    assert_int_equal(plumb_zone_check(&z, NULL, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.seed");
+    assert_int_equal(plumb_zone_run(&s, atm, &u, 1, &z, NULL, 0, NULL, &r, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.seed");
+    z.seed = 9007199254740991ul;
+    assert_int_equal(plumb_zone_check(&z, NULL, &d), PLUMB_OK);
+    assert_int_equal(plumb_zone_check(NULL, NULL, &d), PLUMB_EINVAL);
+    assert_true((double)z.seed == 9007199254740991.0);
     plumb_atmosphere_free(atm);
 }
 
@@ -974,6 +1019,7 @@ int main(void)
         cmocka_unit_test(test_clopper_pearson_matches_closed_forms_and_beta_quantiles),
         cmocka_unit_test(test_quantile_ranks_satisfy_the_binomial_coverage_conditions),
         cmocka_unit_test(test_bad_uncertainty_is_refused_with_its_key_and_location),
+        cmocka_unit_test(test_bad_uncertainty_from_a_set_names_the_set),
         cmocka_unit_test(test_bad_zone_settings_are_refused_with_their_key),
         cmocka_unit_test(test_a_failing_sample_stops_the_run_at_the_same_index_for_any_threads),
         cmocka_unit_test(test_progress_is_reported_in_increasing_counts_to_the_total),

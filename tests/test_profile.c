@@ -1445,6 +1445,75 @@ static void test_override_adds_an_uncertainty_entry(void **state)
     plumb_profile_free(p);
 }
 
+/* Where an entry was given, for the sampler's messages (issue 9): the file's
+ * at its key; one a --set adds at its key in that --set (line = which
+ * --set, column in it); one whose value a --set gives again at that value. */
+static void test_uncertainty_entries_know_where_they_were_given(void **state)
+{
+    (void)state;
+    const char *text = GOOD "uncertainty:\n  payload.mass: {normal: [2.385 kg, 0.05 kg]}\n"
+                            "  payload.drag.cd: {uniform: [0.8, 1.0]}\n";
+    const char *sets[] = {"release.height=31.6 m", "uncertainty.payload.drag.cd={uniform: [0.85, 1.0]}",
+                          "uncertainty.release.velocity.east={normal: [0 m/s, 0.4 m/s]}"};
+    plumb_profile *p = load_ok(text, sets, 3);
+    assert_int_equal(plumb_profile_uncertainty_count(p), 3);
+    const plumb_uncertainty *mass = plumb_profile_uncertainty(p, 0);
+    assert_string_equal(mass->key, "payload.mass");
+    assert_int_equal(mass->from_set, 0);
+    assert_int_equal(mass->line, line_of(text, "  payload.mass:"));
+    assert_int_equal(mass->col, 3);
+    const plumb_uncertainty *cd = plumb_profile_uncertainty(p, 1);
+    assert_string_equal(cd->key, "payload.drag.cd");
+    assert_rel(cd->param[0], 0.85, 1e-15);
+    assert_int_equal(cd->from_set, 1);
+    assert_int_equal(cd->line, 2);
+    assert_int_equal(cd->col, (int)strlen("uncertainty.payload.drag.cd=") + 1);
+    const plumb_uncertainty *east = plumb_profile_uncertainty(p, 2);
+    assert_string_equal(east->key, "release.velocity.east");
+    assert_int_equal(east->from_set, 1);
+    assert_int_equal(east->line, 3);
+    assert_int_equal(east->col, (int)strlen("uncertainty.") + 1);
+    plumb_profile_free(p);
+}
+
+/* Where a key's value was given: the file or the --set, line and column;
+ * nothing for a default or an unknown key. */
+static void test_key_origin_names_the_file_or_the_set(void **state)
+{
+    (void)state;
+    const char *text = GOOD "zone:\n  samples: 5000\n";
+    const char *sets[] = {"zone.seed=17", "release.height=31.6 m"};
+    plumb_profile *p = load_ok(text, sets, 2);
+    int line, col;
+    const char *file = plumb_profile_key_origin(p, "zone.samples", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, plumb_profile_path(p));
+    assert_int_equal(line, line_of(text, "  samples:"));
+    assert_int_equal(col, 12);
+    file = plumb_profile_key_origin(p, "zone.seed", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, "--set");
+    assert_int_equal(line, 1);
+    assert_int_equal(col, (int)strlen("zone.seed=") + 1);
+    file = plumb_profile_key_origin(p, "release.height", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, "--set");
+    assert_int_equal(line, 2);
+    assert_int_equal(col, (int)strlen("release.height=") + 1);
+    file = plumb_profile_key_origin(p, "payload.mass", &line, &col);
+    assert_non_null(file);
+    assert_string_equal(file, plumb_profile_path(p));
+    assert_int_equal(line, line_of(text, "  mass:"));
+    assert_int_equal(col, 9);
+    /* a default, an unknown key, no profile */
+    assert_null(plumb_profile_key_origin(p, "zone.confidence", &line, &col));
+    assert_int_equal(line, 0);
+    assert_int_equal(col, 0);
+    assert_null(plumb_profile_key_origin(p, "zone.sampels", &line, &col));
+    assert_null(plumb_profile_key_origin(NULL, "zone.samples", &line, &col));
+    plumb_profile_free(p);
+}
+
 static void test_derive_applies_overrides_without_reading_the_file(void **state)
 {
     (void)state;
@@ -1772,6 +1841,8 @@ int main(void)
         cmocka_unit_test(test_override_with_null_removes_a_key),
         cmocka_unit_test(test_override_appends_a_second_descent_device),
         cmocka_unit_test(test_override_adds_an_uncertainty_entry),
+        cmocka_unit_test(test_uncertainty_entries_know_where_they_were_given),
+        cmocka_unit_test(test_key_origin_names_the_file_or_the_set),
         cmocka_unit_test(test_derive_applies_overrides_without_reading_the_file),
         cmocka_unit_test(test_key_dim_gives_the_dimension_of_numeric_keys),
         cmocka_unit_test(test_key_dim_refuses_unknown_and_non_numeric_keys),

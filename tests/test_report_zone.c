@@ -34,6 +34,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <unistd.h>
 #include <cmocka.h>
 #include <jansson.h>
 
@@ -599,6 +600,74 @@ static void test_a_stream_that_cannot_be_written_is_a_write_error(void **state)
     }
 }
 
+/* The per-sample file: the cautions first as "# " lines, the header row,
+ * then rows whose numbers read back to the same doubles (IEEE 754-2008,
+ * 5.12.2: 17 significant digits) and whose item name is quoted when it
+ * holds a comma or a quote, the quote doubled (RFC 4180, section 2, rules
+ * 6 and 7); a non-finite figure is refused with nothing written; a stream
+ * that cannot be written is a write error. */
+static void test_the_samples_file_reads_back_and_quotes_names(void **state)
+{
+    (void)state;
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mem = open_memstream(&buf, &len);
+    assert_non_null(mem);
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    const plumb_zone_sample smp = {{12.345678901234567, -0.1}, 31.6 / 3.0, 7.3e-3, 2.385};
+    assert_int_equal(plumb_report_zone_samples_head(mem, &d), PLUMB_OK);
+    assert_int_equal(plumb_report_zone_sample(mem, "bag, \"red\"", 1, 41, &smp, &d), PLUMB_OK);
+    plumb_zone_sample bad = smp;
+    bad.energy_j = NAN;
+    long before = ftell(mem);
+    assert_int_equal(plumb_report_zone_sample(mem, "bag", 0, 42, &bad, &d), PLUMB_ENUMERIC);
+    assert_int_equal(d.status, PLUMB_ENUMERIC);
+    assert_int_equal(ftell(mem), before);
+    assert_int_equal(fclose(mem), 0);
+
+    size_t nc;
+    const char *const *c = plumb_cautions(&nc);
+    const char *at = buf;
+    for (size_t i = 0; i < nc; i++) {
+        assert_true(strncmp(at, "# ", 2) == 0);
+        assert_true(strncmp(at + 2, c[i], strlen(c[i])) == 0);
+        at = strchr(at, '\n') + 1;
+    }
+    const char *head = strstr(at, "\nitem,pass,sample,east_m,north_m,energy_j,speed_m_s,time_s\n");
+    assert_non_null(head);
+    const char *row = strchr(head + 1, '\n') + 1;
+    const char *want = "\"bag, \"\"red\"\"\",1,42,";
+    assert_true(strncmp(row, want, strlen(want)) == 0);
+    const char *p = row + strlen(want);
+    const double v[5] = {smp.point_m[0], smp.point_m[1], smp.energy_j, smp.speed_m_s, smp.time_s};
+    for (int k = 0; k < 5; k++) {
+        char *end = NULL;
+        double got = strtod(p, &end);
+        assert_true(got == v[k]);
+        assert_int_equal(*end, k < 4 ? ',' : '\n');
+        p = end + 1;
+    }
+    assert_int_equal(*p, '\0');
+    free(buf);
+
+    /* a stream open for reading only: every write fails */
+    char dir[256];
+    assert_non_null(plumbt_mkdtemp("report-zone", dir, sizeof dir));
+    char path[300];
+    snprintf(path, sizeof path, "%s/ro.csv", dir);
+    FILE *w = fopen(path, "w");
+    assert_non_null(w);
+    fclose(w);
+    FILE *ro = fopen(path, "r");
+    assert_non_null(ro);
+    assert_int_equal(plumb_report_zone_samples_head(ro, &d), PLUMB_EWRITE);
+    assert_int_equal(plumb_report_zone_sample(ro, "bag", 0, 0, &smp, &d), PLUMB_EWRITE);
+    fclose(ro);
+    assert_int_equal(unlink(path), 0);
+    assert_int_equal(rmdir(dir), 0);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -612,6 +681,7 @@ int main(void)
         cmocka_unit_test(test_inventory_json_names_the_item_with_the_largest_clearance_radius),
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
         cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
+        cmocka_unit_test(test_the_samples_file_reads_back_and_quotes_names),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

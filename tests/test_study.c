@@ -206,6 +206,88 @@ static void test_a_study_of_a_profile_gives_the_closed_form_in_constant_air(void
     plumb_study_free(st);
 }
 
+/* A profile with one uncertain input, loaded from text with overrides. */
+static plumb_study *settings_study(fixture *f, const char *zone, const char *const *sets,
+                                   size_t n_sets, plumb_profile **p)
+{
+    char text[512];
+    snprintf(text, sizeof text,
+             "payload: {mass: 2.385 kg, drag: {cd: 0.93, area: 0.0217 m^2}}\n"
+             "release: {height: 27.4 m}\n"
+             "uncertainty:\n"
+             "  wind.speed: {normal: [4.3 m/s, 1.1 m/s]}\n"
+             "%s",
+             zone);
+    plumb_diag d;
+    assert_int_equal(plumb_profile_load_buffer("settings.yaml", text, strlen(text), f->units,
+                                               sets, n_sets, p, &d),
+                     PLUMB_OK);
+    plumb_study *st = NULL;
+    assert_int_equal(plumb_study_open(*p, f->criteria, f->units, NULL, &st, &d), PLUMB_OK);
+    return st;
+}
+
+/* Zone settings are refused where they were given (issue 9): the file's
+ * line and column, the --set's, the profile alone for a default or the
+ * caller's own value. Too few samples: the 99 % radius needs
+ * 0.99^N <= 0.025, N >= 368 (the order-statistic bound of dispersion.h). */
+static void test_zone_settings_are_refused_where_they_were_given(void **state)
+{
+    fixture *f = *state;
+    plumb_zone_options opt;
+    plumb_zone_options_init(&opt);
+    plumb_diag d;
+    plumb_profile *p = NULL;
+    const char *few = "zone:\n  samples: 100\n  confidence: 0.99\n";
+
+    plumb_study *st = settings_study(f, few, NULL, 0, &p);
+    plumb_zone_spec z = *plumb_profile_zone(p);
+    assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.samples");
+    assert_string_equal(d.file, "settings.yaml");
+    assert_int_equal(d.line, 6);
+    assert_int_equal(d.col, 12);
+    assert_non_null(strstr(d.message, "at least 368"));
+    /* the caller's own value: the profile, no line */
+    z.samples = 367;
+    assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
+    assert_string_equal(d.file, "settings.yaml");
+    assert_int_equal(d.line, 0);
+    assert_int_equal(d.col, 0);
+    z.samples = 368;
+    assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_OK);
+    plumb_study_free(st);
+    plumb_profile_free(p);
+
+    /* given by the second --set */
+    const char *sets[] = {"zone.seed=11", "zone.samples=50"};
+    st = settings_study(f, few, sets, 2, &p);
+    z = *plumb_profile_zone(p);
+    assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
+    assert_string_equal(d.file, PLUMB_DIAG_SET_FILE);
+    assert_int_equal(d.line, 2);
+    assert_int_equal(d.col, (int)strlen("zone.samples=") + 1);
+    /* and plumb_study_zone refuses it the same way, before any fall */
+    const plumb_zone_report *rep = NULL;
+    assert_int_equal(plumb_study_zone(st, &z, &opt, NULL, NULL, &rep, &d), PLUMB_EINVAL);
+    assert_null(rep);
+    assert_string_equal(d.file, PLUMB_DIAG_SET_FILE);
+    assert_int_equal(d.line, 2);
+    plumb_study_free(st);
+    plumb_profile_free(p);
+
+    /* a default (100 000 samples) too few for a confidence the caller asks */
+    st = settings_study(f, "", NULL, 0, &p);
+    z = *plumb_profile_zone(p);
+    z.confidence = 0.99999;
+    assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.samples");
+    assert_string_equal(d.file, "settings.yaml");
+    assert_int_equal(d.line, 0);
+    plumb_study_free(st);
+    plumb_profile_free(p);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -214,6 +296,7 @@ int main(void)
         cmocka_unit_test(test_a_study_refuses_an_unknown_criterion_when_opened),
         cmocka_unit_test(test_the_study_limit_meets_the_work_energy_theorem),
         cmocka_unit_test(test_a_study_of_a_profile_gives_the_closed_form_in_constant_air),
+        cmocka_unit_test(test_zone_settings_are_refused_where_they_were_given),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_units_criteria, plumbt_teardown_units_criteria);
 }

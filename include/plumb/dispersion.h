@@ -69,6 +69,11 @@ enum {
 /* Largest number of samples a run accepts. */
 #define PLUMB_ZONE_MAX_SAMPLES 100000000u
 
+/* Largest seed, 2^53 - 1: reports print the seed, and integers up to it
+ * read back exactly from JSON (IEEE 754 double, the number type of most
+ * JSON readers). */
+#define PLUMB_ZONE_MAX_SEED 9007199254740991.0
+
 /* ---- the sampler ----------------------------------------------------------
  *
  * Draws the uncertain inputs of one fall into a copy of the base spec.
@@ -92,7 +97,7 @@ typedef struct plumb_sampler plumb_sampler;
 
 /* Checks the n entries against the base spec and makes a sampler. source
  * names the file for diagnostics (may be NULL); an entry's line and column
- * locate its error. PLUMB_EINVAL (key set) for a key that is not a
+ * locate its error, in PLUMB_DIAG_SET_FILE for an entry with from_set. PLUMB_EINVAL (key set) for a key that is not a
  * per-fall numeric input, a duplicate or conflicting key, sd < 0, lo > hi
  * for a non-angle key, a mode outside [lo, hi], a range violated, or more
  * than PLUMB_ZONE_MAX_INPUTS entries. On error *out is NULL and nothing is
@@ -297,12 +302,22 @@ size_t plumb_zone_default_threads(void);
  * arguments. */
 size_t plumb_zone_min_samples(double confidence, double ci_level);
 
+/* Checks a zone's settings as plumb_zone_run does before its first fall:
+ * zone->samples from 1 to PLUMB_ZONE_MAX_SAMPLES and enough to bound the
+ * zone->confidence percentile at opt->ci_level (plumb_zone_min_samples),
+ * 0 < confidence < 1, scatter >= 0, a finite target, a seed at most
+ * PLUMB_ZONE_MAX_SEED, and opt's levels and sizes (opt NULL: defaults).
+ * PLUMB_EINVAL with the setting's key ("zone.samples", "zone.seed" ...)
+ * and no file. */
+plumb_status plumb_zone_check(const plumb_zone_spec *zone, const plumb_zone_options *opt,
+                              plumb_diag *diag);
+
 /* Runs the zone of one payload: zone->samples falls of `base` with the n_u
  * uncertain inputs, judged against the n_crit criteria (may be 0), and,
  * with zone->has_target, a second pass released at the aiming point.
  * opt NULL: defaults. The result is the same for every thread count.
  * Errors: PLUMB_EINVAL (key "zone.samples", "zone.confidence" ...) for a
- * bad zone spec, too few samples for the confidence, or a bad entry (see
+ * bad zone spec (plumb_zone_check), or a bad entry (see
  * plumb_sampler_alloc); a sample whose fall fails stops the run with that
  * fall's status and the sample's index in the message (the lowest failing
  * index, whatever the threads); PLUMB_EWRITE when on_sample stops it;

@@ -37,9 +37,13 @@ typedef enum plumb_status {
 /* Sizes of the text fields of a diagnostic, terminating NUL included. */
 enum { PLUMB_DIAG_FILE = 256, PLUMB_DIAG_KEY = 128, PLUMB_DIAG_MSG = 512 };
 
+/* The file of a diagnostic in a --set KEY=VALUE override: its line is
+ * which --set (counted from 1), its column the column in that argument. */
+#define PLUMB_DIAG_SET_FILE "--set"
+
 typedef struct plumb_diag {
     plumb_status status;            /* status of the failure, PLUMB_OK if none */
-    char file[PLUMB_DIAG_FILE];     /* input file, "--set", "<command line>" or "" */
+    char file[PLUMB_DIAG_FILE];     /* input file, PLUMB_DIAG_SET_FILE, "<command line>" or "" */
     int line;                       /* 1-based line in file, 0 if not known */
     int col;                        /* 1-based column in file, 0 if not known */
     char key[PLUMB_DIAG_KEY];       /* dotted profile key, e.g. "payload.mass", or "" */

@@ -7,6 +7,7 @@
 
 #include "plumb/version.h"
 #include "plumb/error.h"
+#include "plumb/suggest.h"
 #include "plumb/constants.h"
 #include "plumb/units.h"
 #include "plumb/atmosphere.h"

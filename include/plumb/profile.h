@@ -40,6 +40,8 @@ enum { PLUMB_MAX_ATTITUDES = 4, PLUMB_ATTITUDE_NAME = 24 };
 typedef struct plumb_uncertainty {
     char key[PLUMB_DIAG_KEY];  /* dotted key, e.g. "wind.speed" */
     plumb_dist_kind kind;      /* distribution */
+    int from_set;              /* 1: given by a --set override, whose number (from 1) is
+                                  `line`; 0: in the profile's file (or built in code) */
     double param[3];           /* normal: mean, sd; uniform: lo, hi; triangular: lo, mode, hi */
     int line, col;             /* where it was given */
     /* choice (key "payload.attitude"): the attitudes, their weights (> 0,
@@ -131,6 +133,16 @@ plumb_status plumb_profile_from_spec(const plumb_fall_spec *spec, const plumb_at
  * code. PLUMB_EINVAL for NULL arguments; otherwise can't fail. */
 plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const char *key,
                                     char *unit, size_t size);
+
+/* Where a key's value was given, for a diagnostic about it: returns the
+ * file (the profile's path, or PLUMB_DIAG_SET_FILE for a --set override,
+ * whose number, from 1, is then *line) and sets *line and *col (1-based).
+ * NULL, with *line and *col 0, when the key was not given (its default
+ * holds), is not a key of a profile, or the profile was built in code.
+ * Keys are spelt as --set takes them ("zone.samples", "items[2].mass").
+ * Can't fail. */
+const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, int *line,
+                                     int *col);
 
 /* Frees a profile. Accepts NULL. */
 void plumb_profile_free(plumb_profile *p);

@@ -99,4 +99,17 @@ plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt,
  * site.longitude, without). */
 plumb_status plumb_report_zone_regions(FILE *out, const plumb_zone_report *rep, plumb_diag *diag);
 
+/* The per-sample file of a zone (src/report/zone_samples.c, `plumb zone
+ * --samples-out`): CSV whose columns are item, pass, sample (numbered from
+ * 1), east_m, north_m, energy_j, speed_m_s, time_s, SI units, 17
+ * significant digits. plumb_report_zone_samples_head writes the cautions
+ * as "# " lines, a line saying what the rows are, and the header row;
+ * plumb_report_zone_sample one row, for a plumb_zone_sample_fn to call with
+ * what it is given (index from 0) and the item's name. PLUMB_EWRITE when
+ * the stream has failed, PLUMB_ENUMERIC (nothing written) for a figure
+ * that is not finite. */
+plumb_status plumb_report_zone_samples_head(FILE *out, plumb_diag *diag);
+plumb_status plumb_report_zone_sample(FILE *out, const char *item, int pass, size_t index,
+                                      const plumb_zone_sample *smp, plumb_diag *diag);
+
 #endif /* PLUMB_REPORT_H */

@@ -113,6 +113,18 @@ typedef void (*plumb_study_item_fn)(void *user, size_t item, const plumb_fall_sp
  * checks of the options. */
 plumb_status plumb_study_zone_check(const plumb_study *study, plumb_diag *diag);
 
+/* Checks the zone settings of a run (plumb_zone_check), as plumb_study_zone
+ * does before its first fall, so that a caller can refuse them before it
+ * starts anything else. A setting the profile gave (its value is the
+ * profile's) is located where it was given: the profile's file or --set,
+ * line and column (plumb_profile_key_origin); a default, or a value the
+ * caller put in `zone`, at the profile without a line (a caller that knows
+ * where its value came from may say so). PLUMB_EINVAL with the setting's
+ * key. */
+plumb_status plumb_study_zone_check_settings(const plumb_study *study,
+                                             const plumb_zone_spec *zone,
+                                             const plumb_zone_options *opt, plumb_diag *diag);
+
 plumb_status plumb_study_zone(plumb_study *study, const plumb_zone_spec *zone,
                               const plumb_zone_options *opt, plumb_study_item_fn on_item,
                               void *user, const plumb_zone_report **out, plumb_diag *diag);

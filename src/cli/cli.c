@@ -146,6 +146,35 @@ static int cli_is(const char *arg, const char *name)
     return strncmp(arg, name, n) == 0 && (arg[n] == '\0' || arg[n] == '=');
 }
 
+/* Most options a command accepts, with their aliases (the suggestion's
+ * candidates). */
+#define CLI_MAX_OPTIONS 40
+
+/* "unknown option '--frmat' (did you mean '--format'?)", the nearest of the
+ * options the command accepts; returns 2. */
+static int cli_unknown_option(const char *cmd, const char *arg, unsigned accept,
+                              const cli_option *extra, size_t n_extra)
+{
+    const char *names[CLI_MAX_OPTIONS];
+    size_t n = 0;
+    for (size_t k = 0; k < N_COMMON && n + 2 <= CLI_MAX_OPTIONS; k++) {
+        const cli_common *c = &common_options[k];
+        if (c->bit && !(accept & c->bit))
+            continue;
+        names[n++] = c->name;
+        if (c->alias)
+            names[n++] = c->alias;
+    }
+    for (size_t k = 0; k < n_extra && n < CLI_MAX_OPTIONS; k++)
+        names[n++] = extra[k].name;
+    char typed[64]; /* the option without its "=value" */
+    snprintf(typed, sizeof typed, "%.*s", (int)strcspn(arg, "="), arg);
+    const char *near = plumb_suggest_closest(typed, names, n);
+    if (near)
+        return cli_usage_error(cmd, "unknown option '%s' (did you mean '%s'?)", arg, near);
+    return cli_usage_error(cmd, "unknown option '%s'", arg);
+}
+
 int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t n_extra,
               const char *usage, cli_args *a)
 {
@@ -230,7 +259,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
         }
         if (!found) {
             cli_args_free(a);
-            return cli_usage_error(a->cmd, "unknown option '%s'", arg);
+            return cli_unknown_option(a->cmd, arg, accept, extra, n_extra);
         }
         if (strcmp(name, "--set") == 0) {
             if (!strchr(value, '=') || value[0] == '=') {
@@ -611,6 +640,28 @@ const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
     return "profiles/criteria";
 }
 
+plumb_status cli_nomem(plumb_diag *diag)
+{
+    plumb_diag_clear(diag);
+    diag->status = PLUMB_ENOMEM;
+    snprintf(diag->message, sizeof diag->message, "out of memory");
+    return PLUMB_ENOMEM;
+}
+
+plumb_status cli_render(plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
+                        const void *ctx, char **buf, size_t *len, plumb_diag *diag)
+{
+    *buf = NULL;
+    *len = 0;
+    FILE *mem = open_memstream(buf, len);
+    if (!mem)
+        return cli_nomem(diag);
+    plumb_status st = make(mem, ctx, diag);
+    if (fclose(mem) != 0 && st == PLUMB_OK)
+        st = cli_nomem(diag);
+    return st;
+}
+
 int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
              const void *ctx)
 {
@@ -618,16 +669,7 @@ int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx,
     plumb_diag_clear(&diag);
     char *buf = NULL;
     size_t len = 0;
-    FILE *mem = open_memstream(&buf, &len);
-    if (!mem) {
-        fprintf(stderr, "plumb: out of memory\n");
-        return CLI_EXIT_FAILED;
-    }
-    plumb_status st = make(mem, ctx, &diag);
-    if (fclose(mem) != 0 && st == PLUMB_OK) {
-        plumb_diag_clear(&diag);
-        diag.status = st = PLUMB_ENOMEM;
-    }
+    plumb_status st = cli_render(make, ctx, &buf, &len, &diag);
     if (st == PLUMB_OK)
         st = cli_write_output(a->output, buf, len, &diag);
     free(buf);
@@ -637,4 +679,3 @@ int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx,
         fprintf(stderr, "plumb: wrote %s\n", a->output);
     return CLI_EXIT_OK;
 }
-

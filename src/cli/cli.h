@@ -205,9 +205,19 @@ int cli_same_file(const char *out, const char *in);
  * The result is a, the environment, a literal, or buf (size bytes). */
 const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size);
 
+/* "out of memory" into diag; PLUMB_ENOMEM. */
+plumb_status cli_nomem(plumb_diag *diag);
+
 /* Runs `make` (a report writer) into a memory stream (POSIX
- * open_memstream) and, only when it succeeds, writes the whole text with
- * cli_write_output. Returns the exit status, the error printed. */
+ * open_memstream): *buf (malloc'd; the caller frees it, whatever the
+ * status) holds the text and *len its length. make's status, or
+ * PLUMB_ENOMEM. */
+plumb_status cli_render(plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
+                        const void *ctx, char **buf, size_t *len, plumb_diag *diag);
+
+/* Runs `make` into memory (cli_render) and, only when it succeeds, writes
+ * the whole text with cli_write_output. Returns the exit status, the
+ * error printed. */
 int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
              const void *ctx);
 

@@ -1,8 +1,11 @@
 /*
- * cli_zone.c - what `plumb zone` needs around the run (src/cli/cli_zone.h):
- * its option values, its progress and time estimate on standard error,
- * and the --samples-out file written beside its destination and renamed
- * into place. The run itself is the study's (plumb_study_zone).
+ * cli_zone.c - what `plumb zone` does around the study's run
+ * (src/cli/cli_zone.h): the files checked first, its option values over
+ * the profile's `zone:` map, its progress and time estimate on standard
+ * error, the --samples-out file written beside its destination (rows by
+ * the report layer, plumb_report_zone_sample), and the report,
+ * --regions-out and --samples-out files written all or none. The run
+ * itself is the study's (plumb_study_zone).
  */
 #include <errno.h>
 #include <stdarg.h>
@@ -16,25 +19,12 @@
 #include "cli.h"
 #include "cli_zone.h"
 
-/* Progress appears after this long, and is redrawn at most this often, s. */
+/* Progress appears after this long, s. */
 #define PROGRESS_AFTER_S 1.0
-/* Digits of the per-sample CSV: 17 read back any double exactly. */
-#define SAMPLE_DIGITS 17
 /* Percent per unit fraction. */
 #define PERCENT 100.0
 /* Most threads --threads accepts. */
 #define MAX_THREADS 1024u
-/* Largest seed: integers up to 2^53 - 1 read back exactly from JSON
- * (IEEE 754 double, the number type of most JSON readers). */
-#define MAX_SEED 9007199254740991.0
-
-plumb_status plumbp_cli_nomem(plumb_diag *diag)
-{
-    plumb_diag_clear(diag);
-    diag->status = PLUMB_ENOMEM;
-    snprintf(diag->message, sizeof diag->message, "out of memory");
-    return PLUMB_ENOMEM;
-}
 
 /* ---- option values ---------------------------------------------------------- */
 
@@ -59,7 +49,7 @@ static plumb_status opt_error(plumb_diag *diag, const char *option, const char *
 
 /* A whole number in [lo, hi]: digits, or a number in exponent form that is
  * a whole number ("1e5"). */
-plumb_status cli_zone_parse_whole(const char *option, const char *text, double lo, double hi,
+static plumb_status parse_whole(const char *option, const char *text, double lo, double hi,
                                 double *out, plumb_diag *diag)
 {
     char *end = NULL;
@@ -74,7 +64,7 @@ plumb_status cli_zone_parse_whole(const char *option, const char *text, double l
 }
 
 /* A fraction 0 < p < 1, or a percent "99.9%". */
-plumb_status cli_zone_parse_confidence(const char *text, double *out, plumb_diag *diag)
+static plumb_status parse_confidence(const char *text, double *out, plumb_diag *diag)
 {
     char *end = NULL;
     errno = 0;
@@ -107,7 +97,7 @@ static void unit_part(const char *text, char *buf, size_t size)
 }
 
 /* "E,N", each a length with its unit, both in the same unit. */
-plumb_status cli_zone_parse_target(const plumb_units *units, const char *text, double out[2],
+static plumb_status parse_target(const plumb_units *units, const char *text, double out[2],
                                  plumb_diag *diag)
 {
     const char *comma = strchr(text, ',');
@@ -142,7 +132,7 @@ static double since(const struct timespec *a, const struct timespec *b)
 
 
 /* The samples done so far and in all, over every item and pass. */
-static void work(const progress_ctx *p, int pass, size_t done, size_t total, double *so_far,
+static void work(const cli_zone_progress *p, int pass, size_t done, size_t total, double *so_far,
                  double *all)
 {
     double per_run = (double)total; /* samples of one pass of one item */
@@ -152,7 +142,7 @@ static void work(const progress_ctx *p, int pass, size_t done, size_t total, dou
 
 /* The estimate of the whole run from the samples done so far (of every
  * item and pass), said once when the run will be long. */
-static void estimate(progress_ctx *p, int pass, size_t done, size_t total, double elapsed)
+static void estimate(cli_zone_progress *p, int pass, size_t done, size_t total, double elapsed)
 {
     double per_run = (double)total, so_far, all;
     work(p, pass, done, total, &so_far, &all);
@@ -164,7 +154,7 @@ static void estimate(progress_ctx *p, int pass, size_t done, size_t total, doubl
         return;
     char len[32];
     cli_duration(p->total_s, len, sizeof len);
-    cli_zone_progress_clear(p);
+    cli_progress_clear(&p->shown);
     if (p->total_s <= p->warn_s) {
         fprintf(stderr, "plumb zone: this run will take about %s (timed on the first %.0f of "
                         "%.0f samples)\n", len, so_far, all);
@@ -186,9 +176,9 @@ static void estimate(progress_ctx *p, int pass, size_t done, size_t total, doubl
     fflush(stderr);
 }
 
-void cli_zone_progress(void *user, int pass, size_t done, size_t total)
+static void progress(void *user, int pass, size_t done, size_t total)
 {
-    progress_ctx *p = user;
+    cli_zone_progress *p = user;
     struct timespec now;
     if (clock_gettime(CLOCK_MONOTONIC, &now) != 0)
         return;
@@ -219,151 +209,247 @@ void cli_zone_progress(void *user, int pass, size_t done, size_t total)
     fflush(stderr);
 }
 
-void cli_zone_progress_clear(progress_ctx *p)
-{
-    cli_progress_clear(&p->shown);
-}
-
 /* ---- the per-sample file -------------------------------------------------- */
 
-
-plumb_status cli_zone_samples_open(samples_file *s, plumb_diag *diag)
+static plumb_status samples_open(cli_zone_samples *s, plumb_diag *diag)
 {
     const char *slash = strrchr(s->path, '/');
     if (*(slash ? slash + 1 : s->path) == '\0')
         return opt_error(diag, "--samples-out", "cannot write '%s'", s->path);
     plumb_status st = cli_outfile_open(&s->out, s->path, "cannot write the samples", diag);
-    if (st != PLUMB_OK)
-        return st;
-    s->f = s->out.f;
-    size_t nc;
-    const char *const *c = plumb_cautions(&nc);
-    for (size_t i = 0; i < nc; i++)
-        fprintf(s->f, "# %s\n", c[i]);
-    fprintf(s->f, "# every sample of plumb zone, in sample order, numbered from 1, SI units; pass 0 is released at "
-                  "the planned point, pass 1 at the point aimed at the target\n"
-                  "item,pass,sample,east_m,north_m,energy_j,speed_m_s,time_s\n");
-    return PLUMB_OK;
+    if (st == PLUMB_OK)
+        st = plumb_report_zone_samples_head(s->out.f, diag);
+    return st;
 }
 
-static void csv_text(FILE *f, const char *s)
+/* One sample's row (the plumb_zone_sample_fn): nonzero, with s->why set,
+ * stops the run. */
+static int samples_row(void *user, int pass, size_t index, const plumb_zone_sample *smp)
 {
-    if (!strpbrk(s, ",\"\r\n")) {
-        fputs(s, f);
+    cli_zone_samples *s = user;
+    errno = 0;
+    plumb_status st = plumb_report_zone_sample(s->out.f, s->item, pass, index, smp, &s->why);
+    if (st == PLUMB_OK)
+        return 0;
+    if (st == PLUMB_EWRITE) {
+        int err = errno ? errno : EIO;
+        plumb_diag_clear(&s->why);
+        s->why.status = PLUMB_EWRITE;
+        snprintf(s->why.file, sizeof s->why.file, "%s", s->path);
+        snprintf(s->why.message, sizeof s->why.message, "cannot write the samples: %s",
+                 strerror(err));
+    }
+    s->failed = 1;
+    return 1;
+}
+
+/* ---- the run ---------------------------------------------------------------- */
+
+/* A side file (--samples-out, --regions-out) must not be the profile or -o. */
+static int check_side(const cli_args *a, const char *opt, const char *file, const char *path)
+{
+    if (!file)
+        return CLI_GO_ON;
+    if (file[0] == '\0' || strcmp(file, "-") == 0)
+        return cli_usage_error(a->cmd, "%s needs a file name", opt);
+    if (cli_same_file(file, path))
+        return cli_usage_error(a->cmd, "%s %s would overwrite the profile", opt, file);
+    if (a->output && (strcmp(a->output, file) == 0 || cli_same_file(a->output, file)))
+        return cli_usage_error(a->cmd, "-o and %s name the same file", opt);
+    return CLI_GO_ON;
+}
+
+int cli_zone_check_files(const cli_args *a, const cli_zone_opts *zo)
+{
+    if (a->n_args != 1)
+        return a->n_args == 0 ? cli_usage_error(a->cmd, "needs a PROFILE")
+                              : cli_usage_error(a->cmd, "takes one PROFILE, found %zu arguments",
+                                                a->n_args);
+    const char *path = a->args[0];
+    if (a->output && cli_same_file(a->output, path))
+        return cli_usage_error(a->cmd, "-o %s would overwrite the profile", a->output);
+    int rc;
+    if ((rc = check_side(a, "--samples-out", zo->samples_out, path)) != CLI_GO_ON ||
+        (rc = check_side(a, "--regions-out", zo->regions_out, path)) != CLI_GO_ON)
+        return rc;
+    if (zo->samples_out && zo->regions_out && strcmp(zo->samples_out, zo->regions_out) == 0)
+        return cli_usage_error(a->cmd, "--samples-out and --regions-out name the same file");
+    return CLI_GO_ON;
+}
+
+void cli_zone_init(cli_zone_run *r, const cli_args *a, const cli_zone_opts *zo)
+{
+    memset(r, 0, sizeof *r);
+    r->a = a;
+    r->zo = zo;
+    plumb_zone_options_init(&r->opt);
+}
+
+/* A setting that an option gave is refused at that option: too few
+ * samples for the confidence at --samples, or at --confidence when only
+ * that was given; the others where the profile gave them. */
+static void at_option(const cli_zone_opts *zo, plumb_diag *diag)
+{
+    const char *by = NULL;
+    if (strcmp(diag->key, "zone.samples") == 0)
+        by = zo->samples ? "--samples" : zo->confidence ? "--confidence" : NULL;
+    else if (strcmp(diag->key, "zone.confidence") == 0)
+        by = zo->confidence ? "--confidence" : NULL;
+    else if (strcmp(diag->key, "zone.seed") == 0)
+        by = zo->seed ? "--seed" : NULL;
+    else if (strcmp(diag->key, "zone.target") == 0)
+        by = zo->target ? "--target" : NULL;
+    if (!by)
         return;
-    }
-    fputc('"', f);
-    for (const char *p = s; *p; p++) {
-        if (*p == '"')
-            fputc('"', f);
-        fputc(*p, f);
-    }
-    fputc('"', f);
+    snprintf(diag->file, sizeof diag->file, "<command line>");
+    diag->line = diag->col = 0;
+    snprintf(diag->key, sizeof diag->key, "%s", by);
 }
 
-int cli_zone_samples_row(void *user, int pass, size_t index, const plumb_zone_sample *smp)
+/* The option values over the profile's `zone:` map, checked. */
+static plumb_status settings(cli_zone_run *r, const cli_study *cs, plumb_diag *diag)
 {
-    samples_file *s = user;
-    csv_text(s->f, s->item);
-    if (fprintf(s->f, ",%d,%zu,%.*g,%.*g,%.*g,%.*g,%.*g\n", pass, index + 1, SAMPLE_DIGITS,
-                smp->point_m[0], SAMPLE_DIGITS, smp->point_m[1], SAMPLE_DIGITS, smp->energy_j,
-                SAMPLE_DIGITS, smp->speed_m_s, SAMPLE_DIGITS, smp->time_s) < 0) {
-        s->failed = errno ? errno : EIO;
-        return 1;
-    }
-    return 0;
-}
-
-/* Flushes, syncs and renames the file into place (commit = 1), or removes it. */
-plumb_status cli_zone_samples_close(samples_file *s, int commit, plumb_diag *diag)
-{
-    if (!s->f)
-        return PLUMB_OK;
-    s->f = NULL;
-    /* A row that failed (cli_zone_samples_row) has set the stream's error
-     * flag, which cli_outfile_close reports. */
-    return cli_outfile_close(&s->out, commit, diag);
-}
-
-
-/* ---- the zone settings ---------------------------------------------------- */
-
-static plumb_status at_profile(plumb_diag *diag, const char *path, const char *key,
-                               const char *message)
-{
-    plumb_diag_clear(diag);
-    diag->status = PLUMB_EINVAL;
-    snprintf(diag->file, sizeof diag->file, "%s", path);
-    snprintf(diag->key, sizeof diag->key, "%s", key);
-    snprintf(diag->message, sizeof diag->message, "%s", message);
-    return PLUMB_EINVAL;
-}
-
-plumb_status cli_zone_spec(const cli_args *a, const cli_zone_opts *zo, const plumb_profile *prof,
-                           const plumb_units *units, const char *path, plumb_zone_spec *zone,
-                           plumb_zone_options *opt, plumb_diag *diag)
-{
+    const cli_zone_opts *zo = r->zo;
     double samples = 0.0, seed = 0.0, threads = 0.0, confidence = 0.0, target[2] = {0.0, 0.0};
     plumb_status st = PLUMB_OK;
     if (zo->samples)
-        st = cli_zone_parse_whole("--samples", zo->samples, 1.0, (double)PLUMB_ZONE_MAX_SAMPLES,
-                                  &samples, diag);
+        st = parse_whole("--samples", zo->samples, 1.0, (double)PLUMB_ZONE_MAX_SAMPLES, &samples,
+                         diag);
     if (st == PLUMB_OK && zo->seed)
-        st = cli_zone_parse_whole("--seed", zo->seed, 0.0, MAX_SEED, &seed, diag);
+        st = parse_whole("--seed", zo->seed, 0.0, PLUMB_ZONE_MAX_SEED, &seed, diag);
     if (st == PLUMB_OK && zo->threads)
-        st = cli_zone_parse_whole("--threads", zo->threads, 1.0, (double)MAX_THREADS, &threads,
-                                  diag);
+        st = parse_whole("--threads", zo->threads, 1.0, (double)MAX_THREADS, &threads, diag);
     if (st == PLUMB_OK && zo->confidence)
-        st = cli_zone_parse_confidence(zo->confidence, &confidence, diag);
+        st = parse_confidence(zo->confidence, &confidence, diag);
     if (st == PLUMB_OK && zo->target)
-        st = cli_zone_parse_target(units, zo->target, target, diag);
+        st = parse_target(cs->units, zo->target, target, diag);
     if (st != PLUMB_OK)
         return st;
-    *zone = *plumb_profile_zone(prof);
+    plumb_zone_spec *z = &r->zone;
+    *z = *plumb_profile_zone(cs->profile);
     if (zo->samples)
-        zone->samples = (size_t)samples;
+        z->samples = (size_t)samples;
     if (zo->seed)
-        zone->seed = (unsigned long)seed;
+        z->seed = (unsigned long)seed;
     if (zo->confidence)
-        zone->confidence = confidence;
+        z->confidence = confidence;
     if (zo->target) {
-        zone->has_target = 1;
-        zone->target_m[0] = target[0];
-        zone->target_m[1] = target[1];
+        z->has_target = 1;
+        z->target_m[0] = target[0];
+        z->target_m[1] = target[1];
     }
-    opt->threads = zo->threads ? (size_t)threads : plumb_zone_default_threads();
-    if ((double)zone->seed > MAX_SEED)
-        return at_profile(diag, path, "zone.seed", "expected a seed from 0 to 2^53-1");
-    if (a->format == PLUMB_FORMAT_GEOJSON && !zone->has_site)
-        return at_profile(diag, path, "site.longitude",
-                          "--format geojson needs the site on the map: give site.latitude and "
-                          "site.longitude (WGS 84 degrees)");
-    size_t need = plumb_zone_min_samples(zone->confidence, opt->ci_level);
-    if (need == 0 || zone->samples < need) {
-        const char *by = zo->samples ? "--samples" : zo->confidence ? "--confidence" : NULL;
-        char msg[PLUMB_DIAG_MSG];
-        snprintf(msg, sizeof msg,
-                 "%zu samples cannot bound the %g %% radius at %g %% confidence; at least %zu "
-                 "are needed", zone->samples, PERCENT * zone->confidence, PERCENT * opt->ci_level,
-                 need);
-        return at_profile(diag, by ? "<command line>" : path, by ? by : "zone.samples", msg);
+    r->opt.threads = zo->threads ? (size_t)threads : plumb_zone_default_threads();
+    if (r->a->format == PLUMB_FORMAT_GEOJSON && !z->has_site) {
+        plumb_diag_clear(diag);
+        diag->status = PLUMB_EINVAL;
+        snprintf(diag->file, sizeof diag->file, "%s", plumb_profile_path(cs->profile));
+        snprintf(diag->key, sizeof diag->key, "site.longitude");
+        snprintf(diag->message, sizeof diag->message,
+                 "--format geojson needs the site on the map: give site.latitude and "
+                 "site.longitude (WGS 84 degrees)");
+        return PLUMB_EINVAL;
+    }
+    st = plumb_study_zone_check_settings(cs->study, z, &r->opt, diag);
+    if (st != PLUMB_OK)
+        at_option(zo, diag);
+    return st;
+}
+
+plumb_status cli_zone_start(cli_zone_run *r, const cli_study *cs, plumb_diag *diag)
+{
+    plumb_status st = settings(r, cs, diag);
+    if (st == PLUMB_OK && r->zo->samples_out) {
+        r->samples.path = r->zo->samples_out;
+        st = samples_open(&r->samples, diag);
+        r->opt.on_sample = samples_row;
+        r->opt.sample_user = &r->samples;
+    }
+    if (st != PLUMB_OK)
+        return st;
+    cli_zone_progress *p = &r->progress;
+    p->n_items = plumb_profile_item_count(cs->profile);
+    p->passes = r->zone.has_target ? 2 : 1;
+    p->tty = isatty(STDERR_FILENO);
+    p->samples_from = r->zo->samples ? "--samples" : "zone.samples";
+    p->min_samples = plumb_zone_min_samples(r->zone.confidence, r->opt.ci_level);
+    cli_estimate_times(&p->after_s, &p->note_s, &p->warn_s);
+    if (!r->a->quiet && clock_gettime(CLOCK_MONOTONIC, &p->start) == 0) {
+        r->opt.progress = progress;
+        r->opt.progress_user = p;
     }
     return PLUMB_OK;
 }
 
-void cli_zone_progress_init(progress_ctx *p, const cli_args *a, const cli_zone_opts *zo,
-                            const plumb_zone_spec *zone, plumb_zone_options *opt,
-                            const plumb_profile *prof)
+void cli_zone_item(void *user, size_t item, const plumb_fall_spec *spec)
 {
-    memset(p, 0, sizeof *p);
-    p->n_items = prof ? plumb_profile_item_count(prof) : 0;
-    p->passes = prof && zone->has_target ? 2 : 1;
-    p->tty = isatty(STDERR_FILENO);
-    p->samples_from = zo->samples ? "--samples" : "zone.samples";
-    p->min_samples = prof ? plumb_zone_min_samples(zone->confidence, opt->ci_level) : 0;
-    cli_estimate_times(&p->after_s, &p->note_s, &p->warn_s);
-    if (!a->quiet && clock_gettime(CLOCK_MONOTONIC, &p->start) == 0) {
-        opt->progress = cli_zone_progress;
-        opt->progress_user = p;
+    cli_zone_run *r = user;
+    r->progress.item = item;
+    r->samples.item = spec->name;
+}
+
+/* The writers cli_render runs: the report, the --regions-out file. */
+typedef struct zone_out {
+    plumb_report_options opt;
+    const plumb_zone_report *rep;
+} zone_out;
+
+static plumb_status make_report(FILE *out, const void *ctx, plumb_diag *diag)
+{
+    const zone_out *z = ctx;
+    return plumb_report_zone(out, &z->opt, z->rep, diag);
+}
+
+static plumb_status make_regions(FILE *out, const void *ctx, plumb_diag *diag)
+{
+    const zone_out *z = ctx;
+    return plumb_report_zone_regions(out, z->rep, diag);
+}
+
+/* Removes a file this run wrote when a later one failed: a regular file
+ * only, never a device or FIFO written in place. */
+static void take_back(const char *path, int in_place)
+{
+    struct stat st;
+    if (path && !in_place && lstat(path, &st) == 0 && S_ISREG(st.st_mode))
+        unlink(path);
+}
+
+int cli_zone_finish(cli_zone_run *r, plumb_status st, const plumb_zone_report *rep,
+                    plumb_diag *diag)
+{
+    cli_progress_clear(&r->progress.shown);
+    cli_zone_samples *sf = &r->samples;
+    if (st != PLUMB_OK && sf->failed) /* the samples file stopped the run: say why */
+        *diag = sf->why;
+    const cli_args *a = r->a;
+    const char *regions = r->zo->regions_out;
+    /* Everything in memory first; then the files, all or none. */
+    char *buf = NULL, *rbuf = NULL;
+    size_t len = 0, rlen = 0;
+    zone_out z = {cli_report_options(a), rep};
+    if (st == PLUMB_OK)
+        st = cli_render(make_report, &z, &buf, &len, diag);
+    if (st == PLUMB_OK && regions)
+        st = cli_render(make_regions, &z, &rbuf, &rlen, diag);
+    if (st == PLUMB_OK)
+        st = cli_outfile_close(&sf->out, 1, diag);
+    if (st == PLUMB_OK && regions && (st = cli_write_output(regions, rbuf, rlen, diag)) != PLUMB_OK)
+        take_back(sf->path, sf->out.in_place);
+    if (st == PLUMB_OK && (st = cli_write_output(a->output, buf, len, diag)) != PLUMB_OK) {
+        /* the report failed: take the other files back too */
+        take_back(sf->path, sf->out.in_place);
+        take_back(regions, 0);
     }
+    free(buf);
+    free(rbuf);
+    if (st != PLUMB_OK) {
+        cli_outfile_close(&sf->out, 0, NULL);
+        return cli_fail(diag);
+    }
+    const char *wrote[3] = {a->output && strcmp(a->output, "-") != 0 ? a->output : NULL,
+                            sf->path, regions};
+    for (int k = 0; k < 3 && !a->quiet; k++)
+        if (wrote[k])
+            fprintf(stderr, "plumb: wrote %s\n", wrote[k]);
+    return CLI_EXIT_OK;
 }

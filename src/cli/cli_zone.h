@@ -1,7 +1,10 @@
 /*
- * cli_zone.h - option values, progress and the per-sample file of `plumb
- * zone` (src/cli/cli_zone.c), so that cmd_zone.c only wires them to the
- * study and the writers.
+ * cli_zone.h - what `plumb zone` does around the study's run
+ * (src/cli/cli_zone.c), so that cmd_zone.c only parses its options, asks
+ * the study and hands the answer over: the files checked before anything
+ * is opened, the option values over the profile's `zone:` map, progress
+ * and the time estimate on standard error, the --samples-out file, and the
+ * report, --regions-out and --samples-out files written all or none.
  */
 #ifndef PLUMB_CLI_ZONE_H
 #define PLUMB_CLI_ZONE_H
@@ -10,40 +13,15 @@
 #include <time.h>
 
 #include "plumb/plumb.h"
-#include "plumb/dispersion.h"
+#include "cli.h"
 
 /* The options of `plumb zone` as given (NULL when absent). */
 typedef struct cli_zone_opts {
     const char *samples, *seed, *threads, *confidence, *target, *samples_out, *regions_out;
 } cli_zone_opts;
 
-#include "cli.h"
-
-/* The zone settings: the profile's `zone:` map with the options over it,
- * into *zone, and the threads into opt. PLUMB_EINVAL (located at the
- * option or the profile key) for a bad value, too few samples for the
- * confidence, or --format geojson without the site's latitude and
- * longitude. */
-plumb_status cli_zone_spec(const cli_args *a, const cli_zone_opts *zo,
-                           const plumb_profile *prof, const plumb_units *units, const char *path,
-                           plumb_zone_spec *zone, plumb_zone_options *opt, plumb_diag *diag);
-
-/* "out of memory" into diag; PLUMB_ENOMEM. */
-plumb_status plumbp_cli_nomem(plumb_diag *diag);
-
-/* A whole number in [lo, hi] for `option` ("1e5" too). PLUMB_EINVAL. */
-plumb_status cli_zone_parse_whole(const char *option, const char *text, double lo, double hi,
-                                  double *out, plumb_diag *diag);
-
-/* A fraction 0 < p < 1, or a percent "99.9%". PLUMB_EINVAL. */
-plumb_status cli_zone_parse_confidence(const char *text, double *out, plumb_diag *diag);
-
-/* "E,N", each a length with its unit, both in the same unit. PLUMB_EINVAL. */
-plumb_status cli_zone_parse_target(const plumb_units *units, const char *text, double out[2],
-                                   plumb_diag *diag);
-
-/* Progress and the time estimate of a run (the plumb_zone_progress_fn). */
-typedef struct progress_ctx {
+/* Progress and the time estimate of a run (a plumb_zone_progress_fn's). */
+typedef struct cli_zone_progress {
     struct timespec start, last;
     int tty;                  /* standard error is a terminal: show progress */
     int shown;                /* something is on the line */
@@ -54,37 +32,52 @@ typedef struct progress_ctx {
     double after_s, note_s, warn_s; /* CLI_ESTIMATE_AFTER_S, CLI_NOTE_OVER_S, CLI_WARN_OVER_S */
     int estimated;            /* the estimate is made */
     double total_s;           /* the estimated length of the whole run, s */
-} progress_ctx;
+} cli_zone_progress;
 
-void cli_zone_progress(void *user, int pass, size_t done, size_t total);
-
-/* Sets up p for a run of `zone` over prof's items (prof NULL: nothing
- * runs) and hooks it into opt unless --quiet. */
-void cli_zone_progress_init(progress_ctx *p, const cli_args *a, const cli_zone_opts *zo,
-                            const plumb_zone_spec *zone, plumb_zone_options *opt,
-                            const plumb_profile *prof);
-
-/* Clears the progress line, if any. */
-void cli_zone_progress_clear(progress_ctx *p);
-
-/* The --samples-out file: a temporary file beside path until closed. */
-typedef struct samples_file {
-    const char *path;         /* destination */
+/* The --samples-out file: a temporary file beside path until the end. */
+typedef struct cli_zone_samples {
+    const char *path;         /* destination, NULL without --samples-out */
     cli_outfile out;          /* written through cli.h: beside it, or in place */
-    FILE *f;                  /* out.f while open */
-    const char *item;         /* current item name */
-    int failed;               /* errno of a failed row, or 0 */
-} samples_file;
+    const char *item;         /* the current item's name */
+    int failed;               /* a row could not be written: why is in `why` */
+    plumb_diag why;
+} cli_zone_samples;
 
-/* Opens the file (cli_outfile_open: beside it, or in place) and writes
- * the header. PLUMB_EINVAL,
- * PLUMB_EWRITE, PLUMB_ENOMEM. */
-plumb_status cli_zone_samples_open(samples_file *s, plumb_diag *diag);
+/* One run of `plumb zone`. */
+typedef struct cli_zone_run {
+    const cli_args *a;
+    const cli_zone_opts *zo;
+    plumb_zone_spec zone;     /* the profile's `zone:` with the options over it */
+    plumb_zone_options opt;   /* threads, progress and the samples file hooked in */
+    cli_zone_progress progress;
+    cli_zone_samples samples;
+} cli_zone_run;
 
-/* One sample's row (the plumb_zone_sample_fn): nonzero stops the run. */
-int cli_zone_samples_row(void *user, int pass, size_t index, const plumb_zone_sample *smp);
+/* Before anything is opened: one PROFILE, and -o, --samples-out and
+ * --regions-out neither the profile nor each other. CLI_GO_ON, or 2 with
+ * the usage error printed. */
+int cli_zone_check_files(const cli_args *a, const cli_zone_opts *zo);
 
-/* Renames the file into place (commit = 1), or removes it. PLUMB_EWRITE. */
-plumb_status cli_zone_samples_close(samples_file *s, int commit, plumb_diag *diag);
+/* Sets r up empty (cli_zone_finish may follow at once). Can't fail. */
+void cli_zone_init(cli_zone_run *r, const cli_args *a, const cli_zone_opts *zo);
+
+/* Gets r ready to run on an open study: every option value read and put
+ * over the profile's `zone:` map, the settings checked by the study
+ * (plumb_study_zone_check_settings; an error in a value an option gave
+ * names that option at "<command line>"), --format geojson refused without
+ * the site, the --samples-out file opened and progress hooked into r->opt
+ * (unless --quiet). PLUMB_EINVAL, PLUMB_EWRITE, PLUMB_ENOMEM. */
+plumb_status cli_zone_start(cli_zone_run *r, const cli_study *cs, plumb_diag *diag);
+
+/* The plumb_study_item_fn of the run (user: the cli_zone_run). */
+void cli_zone_item(void *user, size_t item, const plumb_fall_spec *spec);
+
+/* Ends a run whose status is st: clears the progress line; when st is
+ * PLUMB_OK, makes the report (and --regions-out) in memory and writes
+ * every file, all or none, saying what it wrote unless --quiet; otherwise
+ * (or when a write fails) removes what this run wrote and prints why (a
+ * failed samples file says so). Returns the exit status. */
+int cli_zone_finish(cli_zone_run *r, plumb_status st, const plumb_zone_report *rep,
+                    plumb_diag *diag);
 
 #endif /* PLUMB_CLI_ZONE_H */

@@ -10,7 +10,8 @@
  * (atomically, with -o) only when the whole run succeeded, and the
  * --samples-out file is written to a temporary file beside its destination
  * and renamed into place at the same moment, as is the --regions-out file.
- * The option values, progress and the samples file are in cli_zone.c.
+ * What happens around the run (option values, progress, the files) is in
+ * cli_zone.c.
  * Progress goes to standard error only when it is a terminal, the run has
  * taken more than PROGRESS_AFTER_S, and --quiet is not given.
  * Once the run has taken CLI_ESTIMATE_AFTER_S, the time the whole run will take
@@ -20,16 +21,8 @@
  * The run goes on either way; --quiet silences both. For the tests only,
  * PLUMB_TEST_ESTIMATE_TIMES="AFTER,NOTE,WARN" (seconds) replaces the three.
  */
-#include <stdio.h>
-#include <stdlib.h>
-#include <string.h>
-#include <sys/stat.h>
-#include <unistd.h>
-
 #include "cli.h"
 #include "cli_zone.h"
-#include "plumb/dispersion.h"
-
 
 static const char usage[] =
     "Usage: plumb zone PROFILE [--samples N] [--seed S] [--threads T] [--confidence P]\n"
@@ -53,146 +46,26 @@ static const char usage[] =
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";
 
-/* ---- the run ------------------------------------------------------------------ */
-
-/* Before each item's run: progress and the sample file name the item. */
-typedef struct item_ctx {
-    progress_ctx *pc;
-    samples_file *sf;
-} item_ctx;
-
-static void on_item(void *user, size_t item, const plumb_fall_spec *spec)
-{
-    item_ctx *ic = user;
-    ic->pc->item = item;
-    ic->sf->item = spec->name;
-}
-
-/* A side file (--samples-out, --regions-out) must not be the profile or -o. */
-static int check_side(const cli_args *a, const char *opt, const char *file, const char *path)
-{
-    if (!file)
-        return CLI_GO_ON;
-    if (file[0] == '\0' || strcmp(file, "-") == 0)
-        return cli_usage_error(a->cmd, "%s needs a file name", opt);
-    if (cli_same_file(file, path))
-        return cli_usage_error(a->cmd, "%s %s would overwrite the profile", opt, file);
-    if (a->output && (strcmp(a->output, file) == 0 || cli_same_file(a->output, file)))
-        return cli_usage_error(a->cmd, "-o and %s name the same file", opt);
-    return CLI_GO_ON;
-}
-
-/* Writes what rep says with `write` into a memory buffer. */
-static plumb_status render(const plumb_report_options *ropt, const plumb_zone_report *rep,
-                           int regions, char **buf, size_t *len, plumb_diag *diag)
-{
-    FILE *mem = open_memstream(buf, len);
-    if (!mem)
-        return plumbp_cli_nomem(diag);
-    plumb_status st = regions ? plumb_report_zone_regions(mem, rep, diag)
-                              : plumb_report_zone(mem, ropt, rep, diag);
-    if (fclose(mem) != 0 && st == PLUMB_OK)
-        st = plumbp_cli_nomem(diag);
-    return st;
-}
-
-/* Removes a file this run wrote when a later one failed: a regular file
- * only, never a device or FIFO written in place. */
-static void take_back(const char *path, const samples_file *sf)
-{
-    struct stat st;
-    if (path && !(sf && sf->out.in_place) && lstat(path, &st) == 0 && S_ISREG(st.st_mode))
-        unlink(path);
-}
-
+/* Parses, asks the study, writes (the work around the run is cli_zone.c's). */
 static int run(const cli_args *a, const cli_zone_opts *zo)
 {
-    if (a->n_args != 1)
-        return a->n_args == 0 ? cli_usage_error(a->cmd, "needs a PROFILE")
-                              : cli_usage_error(a->cmd, "takes one PROFILE, found %zu arguments",
-                                                a->n_args);
-    const char *path = a->args[0];
-    if (a->output && cli_same_file(a->output, path))
-        return cli_usage_error(a->cmd, "-o %s would overwrite the profile", a->output);
-    int rc;
-    if ((rc = check_side(a, "--samples-out", zo->samples_out, path)) != CLI_GO_ON ||
-        (rc = check_side(a, "--regions-out", zo->regions_out, path)) != CLI_GO_ON)
+    int rc = cli_zone_check_files(a, zo);
+    if (rc != CLI_GO_ON)
         return rc;
-    if (zo->samples_out && zo->regions_out && strcmp(zo->samples_out, zo->regions_out) == 0)
-        return cli_usage_error(a->cmd, "--samples-out and --regions-out name the same file");
-
-    /* The study, then the options: a bad one stops everything before any
-     * fall is run. */
     plumb_diag diag;
     cli_study cs;
-    samples_file sf;
-    memset(&sf, 0, sizeof sf);
-    plumb_zone_spec zone;
-    plumb_zone_options zopt;
-    plumb_zone_options_init(&zopt);
-    plumb_status st = cli_study_open(a, path, &cs, &diag);
+    cli_zone_run zr;
+    cli_zone_init(&zr, a, zo);
+    const plumb_zone_report *rep = NULL;
+    /* every option checked before any fall is run */
+    plumb_status st = cli_study_open(a, a->args[0], &cs, &diag);
     if (st == PLUMB_OK)
         st = plumb_study_zone_check(cs.study, &diag);
     if (st == PLUMB_OK)
-        st = cli_zone_spec(a, zo, cs.profile, cs.units, path, &zone, &zopt, &diag);
-    if (st == PLUMB_OK && zo->samples_out) {
-        sf.path = zo->samples_out;
-        st = cli_zone_samples_open(&sf, &diag);
-    }
-    progress_ctx pc;
-    cli_zone_progress_init(&pc, a, zo, &zone, &zopt, st == PLUMB_OK ? cs.profile : NULL);
-    if (sf.f) {
-        zopt.on_sample = cli_zone_samples_row;
-        zopt.sample_user = &sf;
-    }
-    item_ctx ic = {&pc, &sf};
-    const plumb_zone_report *rep = NULL;
+        st = cli_zone_start(&zr, &cs, &diag);
     if (st == PLUMB_OK)
-        st = plumb_study_zone(cs.study, &zone, &zopt, on_item, &ic, &rep, &diag);
-    cli_zone_progress_clear(&pc);
-    if (st != PLUMB_OK && sf.failed) { /* the samples file stopped the run: say why */
-        plumb_diag_clear(&diag);
-        diag.status = st = PLUMB_EWRITE;
-        snprintf(diag.file, sizeof diag.file, "%s", sf.path);
-        snprintf(diag.message, sizeof diag.message, "cannot write the samples: %s",
-                 strerror(sf.failed));
-    }
-
-    /* Everything in memory first; then the files, all or none. */
-    char *buf = NULL, *rbuf = NULL;
-    size_t len = 0, rlen = 0;
-    plumb_report_options ropt = cli_report_options(a);
-    if (st == PLUMB_OK)
-        st = render(&ropt, rep, 0, &buf, &len, &diag);
-    if (st == PLUMB_OK && zo->regions_out)
-        st = render(&ropt, rep, 1, &rbuf, &rlen, &diag);
-    if (st == PLUMB_OK)
-        st = cli_zone_samples_close(&sf, 1, &diag);
-    if (st == PLUMB_OK && zo->regions_out) {
-        st = cli_write_output(zo->regions_out, rbuf, rlen, &diag);
-        if (st != PLUMB_OK)
-            take_back(sf.path, &sf);
-    }
-    if (st == PLUMB_OK) {
-        st = cli_write_output(a->output, buf, len, &diag);
-        if (st != PLUMB_OK) { /* the report failed: take the other files back too */
-            take_back(sf.path, &sf);
-            take_back(zo->regions_out, NULL);
-        }
-    }
-    if (st == PLUMB_OK) {
-        const char *wrote[3] = {a->output && strcmp(a->output, "-") != 0 ? a->output : NULL,
-                                sf.path, zo->regions_out};
-        for (int k = 0; k < 3 && !a->quiet; k++)
-            if (wrote[k])
-                fprintf(stderr, "plumb: wrote %s\n", wrote[k]);
-        rc = CLI_EXIT_OK;
-    } else {
-        cli_zone_samples_close(&sf, 0, NULL);
-        rc = cli_fail(&diag);
-    }
-    free(buf);
-    free(rbuf);
+        st = plumb_study_zone(cs.study, &zr.zone, &zr.opt, cli_zone_item, &zr, &rep, &diag);
+    rc = cli_zone_finish(&zr, st, rep, &diag);
     cli_study_close(&cs);
     return rc;
 }

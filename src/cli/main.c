@@ -33,6 +33,20 @@ static void usage(FILE *f)
                "Every report is an engineering estimate; see SAFETY.md.\n");
 }
 
+/* The command (or, for a word starting with '-', the option of plumb
+ * itself) nearest to a mistyped one, or NULL (plumb_suggest_closest). */
+static const char *nearest(const char *typed)
+{
+    static const char *const options[] = {"--help", "-h", "--version"};
+    const char *names[N_COMMANDS + 1];
+    for (size_t i = 0; i < N_COMMANDS; i++)
+        names[i] = commands[i].name;
+    names[N_COMMANDS] = "help";
+    if (typed[0] == '-')
+        return plumb_suggest_closest(typed, options, sizeof options / sizeof options[0]);
+    return plumb_suggest_closest(typed, names, N_COMMANDS + 1);
+}
+
 int main(int argc, char **argv)
 {
     /* GSL must report errors as status codes, never abort. */
@@ -51,7 +65,10 @@ int main(int argc, char **argv)
                     char *help_argv[] = {argv[2], help_flag, NULL};
                     return commands[i].run(2, help_argv);
                 }
-            return cli_usage_error(NULL, "unknown command '%s'", argv[2]);
+            const char *near = nearest(argv[2]);
+            return cli_usage_error(NULL, "unknown command '%s'%s%s%s", argv[2],
+                                   near ? " (did you mean '" : "", near ? near : "",
+                                   near ? "'?)" : "");
         }
         usage(stdout);
         return CLI_EXIT_OK;
@@ -64,8 +81,10 @@ int main(int argc, char **argv)
         if (strcmp(name, commands[i].name) == 0)
             return commands[i].run(argc - 1, argv + 1);
 
-    fprintf(stderr, "plumb: unknown %s '%s'; the commands are:", name[0] == '-' ? "option"
-                                                                              : "command", name);
+    const char *near = nearest(name);
+    fprintf(stderr, "plumb: unknown %s '%s'%s%s%s; the commands are:",
+            name[0] == '-' ? "option" : "command", name, near ? " (did you mean '" : "",
+            near ? near : "", near ? "'?)" : "");
     for (size_t i = 0; i < N_COMMANDS; i++)
         fprintf(stderr, " %s", commands[i].name);
     fprintf(stderr, "\nTry 'plumb --help'.\n");

@@ -99,46 +99,6 @@ char *plumbp_strlcpy(char *dst, const char *src, size_t n)
     return dst;
 }
 
-int plumbp_edit_distance(const char *a, const char *b)
-{
-    size_t la = strlen(a), lb = strlen(b);
-    if (la > 63 || lb > 63)
-        return 99;
-    int row[64];
-    for (size_t j = 0; j <= lb; j++)
-        row[j] = (int)j;
-    for (size_t i = 1; i <= la; i++) {
-        int diag_prev = row[0];
-        row[0] = (int)i;
-        for (size_t j = 1; j <= lb; j++) {
-            int up = row[j];
-            int cost = a[i - 1] == b[j - 1] ? 0 : 1;
-            int best = diag_prev + cost;
-            if (up + 1 < best)
-                best = up + 1;
-            if (row[j - 1] + 1 < best)
-                best = row[j - 1] + 1;
-            row[j] = best;
-            diag_prev = up;
-        }
-    }
-    return row[lb] > 99 ? 99 : row[lb];
-}
-
-const char *plumbp_closest(const char *word, const char *const *candidates, size_t n)
-{
-    const char *best = NULL;
-    int best_d = 4;
-    for (size_t i = 0; i < n; i++) {
-        int d = plumbp_edit_distance(word, candidates[i]);
-        if (d < best_d) {
-            best_d = d;
-            best = candidates[i];
-        }
-    }
-    return best;
-}
-
 int plumbp_finite(double x)
 {
     return isfinite(x);

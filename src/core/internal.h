@@ -37,11 +37,10 @@ plumb_status plumbp_vraise(plumb_diag *diag, plumb_status status, const char *fi
 /* Copies src into dst of size n, always NUL-terminated; returns dst. */
 char *plumbp_strlcpy(char *dst, const char *src, size_t n);
 
-/* Levenshtein distance of two short strings (did-you-mean); caps at 99. */
+/* Levenshtein distance of two strings of at most 63 characters, 99 for
+ * longer ones (suggest.c, the distance of plumb_suggest_closest); for a
+ * did-you-mean scored its own way (criteria ids, units). Can't fail. */
 int plumbp_edit_distance(const char *a, const char *b);
-
-/* Closest of n candidate strings to word within distance 3, or NULL. */
-const char *plumbp_closest(const char *word, const char *const *candidates, size_t n);
 
 /* True when x is neither NaN nor infinite. */
 int plumbp_finite(double x);

@@ -14,6 +14,7 @@
 #include <string.h>
 
 #include "plumb/drag.h"
+#include "plumb/suggest.h"
 #include "io/attitude.h"
 #include "io/keys.h"
 #include "core/internal.h"
@@ -50,7 +51,7 @@ static plumb_status by_name(const plumby_ctx *ctx, const plumby_node *at, const 
 {
     int a = named(name);
     if (a < 0) {
-        const char *best = plumbp_closest(name, names, 3);
+        const char *best = plumb_suggest_closest(name, names, 3);
         return plumby_raise(ctx, at->origin, at->line, at->col, key, PLUMB_EINVAL,
                             "unknown attitude '%s'%s%s%s (tumbling, broadside or end-on)", name,
                             best ? " (did you mean '" : "", best ? best : "", best ? "'?)" : "");

@@ -3,14 +3,15 @@
  * "items[box of M12 bolts].mass"): resolved against the schema, applied
  * to the parsed tree as `--set KEY=VALUE` overrides (with the keys they
  * make moot dropped), and used to tell a key's dimension
- * (plumb_profile_key_dim) and the unit it was given in
- * (plumb_profile_key_unit).
+ * (plumb_profile_key_dim), the unit it was given in
+ * (plumb_profile_key_unit) and where (plumb_profile_key_origin).
  */
 #include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
+#include "plumb/suggest.h"
 #include "io/profile_int.h"
 
 /* ---- key paths (overrides and plumb_profile_key_dim) -------------------- */
@@ -224,7 +225,7 @@ static plumb_status no_item_named(plumb_diag *diag, int line, const kseg *s, con
         }
         len += (size_t)snprintf(all + len, sizeof all - len, "%s'%s'", len ? ", " : "", name);
     }
-    const char *near = plumbp_closest(s->item, names, n);
+    const char *near = plumb_suggest_closest(s->item, names, n);
     return set_raise(diag, PLUMB_EKEY, line, s->col, key, "no item is named '%s'%s%s%s; the items are %s",
                      s->item, near ? " (did you mean '" : "", near ? near : "",
                      near ? "'?)" : "", all[0] ? all : "unnamed");
@@ -552,4 +553,20 @@ plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const c
         end++;
     plumbp_strlcpy(unit, end, size);
     return PLUMB_OK;
+}
+
+const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, int *line,
+                                     int *col)
+{
+    *line = 0;
+    *col = 0;
+    keypath kp;
+    if (!p || !key || !p->tree || plumbp_profile_keypath_resolve(key, &kp, NULL, 0, NULL) != PLUMB_OK)
+        return NULL;
+    const plumby_node *n = tree_get(p->tree, &kp);
+    if (!n)
+        return NULL;
+    *line = n->line;
+    *col = n->col;
+    return n->origin == PLUMBY_FROM_SET ? PLUMBY_SET_FILE : p->path;
 }

@@ -10,6 +10,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "plumb/suggest.h"
 #include "io/attitude.h"
 #include "io/profile_int.h"
 
@@ -115,8 +116,13 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     plumby_key_join(dkey, sizeof dkey, "uncertainty", pr->key, 0);
     memset(u, 0, sizeof *u);
     plumbp_strlcpy(u->key, pr->key, sizeof u->key);
-    u->line = pr->line;
-    u->col = pr->col;
+    /* where it was given: the key, or the value when a --set replaced
+     * the value of a key of the file */
+    const plumby_node *val = pr->value;
+    int replaced = val && val->origin != pr->origin;
+    u->line = replaced ? val->line : pr->line;
+    u->col = replaced ? val->col : pr->col;
+    u->from_set = (replaced ? val->origin : pr->origin) == PLUMBY_FROM_SET;
     if (strcmp(pr->key, "payload.attitude") == 0) {
         free(L->p->att_drag);
         if (!(L->p->att_drag = calloc(L->p->n_items ? L->p->n_items : 1, sizeof *L->p->att_drag)))
@@ -203,7 +209,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     char pkey[PLUMB_DIAG_KEY];
     plumby_key_join(pkey, sizeof pkey, dkey, dp->key, 0);
     if (kind < 0) {
-        const char *best = plumbp_closest(dp->key, dists, 3);
+        const char *best = plumb_suggest_closest(dp->key, dists, 3);
         return plumby_raise(ctx, dp->origin, dp->line, dp->col, pkey, PLUMB_EKEY,
                             "unknown distribution '%s'%s%s%s (normal, uniform or triangular)",
                             dp->key, best ? " (did you mean '" : "", best ? best : "",

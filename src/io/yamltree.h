@@ -37,7 +37,7 @@
 /* Most keys in one map (keeps the duplicate check linear-time bounded). */
 #define PLUMBY_MAX_KEYS 1024
 /* File name that diagnostics of override nodes carry. */
-#define PLUMBY_SET_FILE "--set"
+#define PLUMBY_SET_FILE PLUMB_DIAG_SET_FILE
 /* The key of an inventory's list of items. Its items are numbered from 1
  * in keys ("items[1]" is the first), as in every report, --set, --vary
  * and message; every other list counts from 0 ("descent[0]"). */

@@ -15,6 +15,7 @@
 #include <string.h>
 
 #include "plumb/constants.h"
+#include "plumb/suggest.h"
 #include "io/keys.h"
 #include "io/yamltree.h"
 
@@ -43,16 +44,19 @@ const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *n
 
 const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
 {
-    const char *best = NULL;
-    int best_d = 4;
     if (!map || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
         return NULL;
-    for (size_t i = 0; i < map->n_sub; i++) {
-        int d = plumbp_edit_distance(name, map->sub[i].name);
-        if (d < best_d) {
-            best_d = d;
-            best = map->sub[i].name;
-        }
+    /* The keys' names a block at a time, the nearest so far first, so that
+     * the first of equally near keys wins as in one call. */
+    const char *names[32];
+    const char *best = NULL;
+    for (size_t i = 0; i < map->n_sub;) {
+        size_t n = 0;
+        if (best)
+            names[n++] = best;
+        while (i < map->n_sub && n < sizeof names / sizeof names[0])
+            names[n++] = map->sub[i++].name;
+        best = plumb_suggest_closest(name, names, n);
     }
     return best;
 }
@@ -168,7 +172,7 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
                     return PLUMB_OK;
             char want[256];
             plumby_expected(s, want, sizeof want);
-            const char *best = plumbp_closest(node->text, s->words, s->n_words);
+            const char *best = plumb_suggest_closest(node->text, s->words, s->n_words);
             if (best)
                 return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_EINVAL,
                                     "expected %s, found '%s' (did you mean '%s'?)", want,

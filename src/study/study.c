@@ -290,12 +290,48 @@ plumb_status plumb_study_zone_check(const plumb_study *s, plumb_diag *diag)
     return PLUMB_OK;
 }
 
+/* 1 when the setting `key` of zone is the profile's own value. */
+static int profile_gave(const plumb_zone_spec *zone, const plumb_zone_spec *given, const char *key)
+{
+    if (strcmp(key, "zone.samples") == 0)
+        return zone->samples == given->samples;
+    if (strcmp(key, "zone.seed") == 0)
+        return zone->seed == given->seed;
+    if (strcmp(key, "zone.confidence") == 0)
+        return zone->confidence == given->confidence;
+    if (strcmp(key, "zone.scatter") == 0)
+        return zone->scatter_m == given->scatter_m;
+    if (strcmp(key, "zone.target") == 0)
+        return zone->has_target == given->has_target && zone->target_m[0] == given->target_m[0] &&
+               zone->target_m[1] == given->target_m[1];
+    return 0;
+}
+
+plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_zone_spec *zone,
+                                             const plumb_zone_options *opt, plumb_diag *diag)
+{
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumb_zone_check(zone, opt, &d);
+    if (st == PLUMB_OK)
+        return PLUMB_OK;
+    const char *file = NULL;
+    if (profile_gave(zone, plumb_profile_zone(s->profile), d.key))
+        file = plumb_profile_key_origin(s->profile, d.key, &d.line, &d.col);
+    plumbp_strlcpy(d.file, file ? file : plumb_profile_path(s->profile), sizeof d.file);
+    if (diag)
+        *diag = d;
+    return st;
+}
+
 plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
                               const plumb_zone_options *opt, plumb_study_item_fn on_item,
                               void *user, const plumb_zone_report **out, plumb_diag *diag)
 {
     *out = NULL;
     plumb_status zst = plumb_study_zone_check(s, diag);
+    if (zst == PLUMB_OK)
+        zst = plumb_study_zone_check_settings(s, zone, opt, diag);
     if (zst != PLUMB_OK)
         return zst;
     free(s->zones);

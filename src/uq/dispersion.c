@@ -616,13 +616,24 @@ size_t plumb_zone_default_threads(void)
     return n >= 1 ? (size_t)n : 1;
 }
 
-static plumb_status check_zone(const plumb_zone_spec *z, const plumb_zone_options *o,
-                               plumb_diag *diag)
+plumb_status plumb_zone_check(const plumb_zone_spec *z, const plumb_zone_options *opt,
+                              plumb_diag *diag)
 {
+    plumb_zone_options dflt;
+    const plumb_zone_options *o = opt;
+    if (!o) {
+        plumb_zone_options_init(&dflt);
+        o = &dflt;
+    }
+    if (!z)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_zone_check: NULL argument");
     if (z->samples < 1 || z->samples > PLUMB_ZONE_MAX_SAMPLES)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "zone.samples",
                                "expected 1 to %u samples, found %zu", PLUMB_ZONE_MAX_SAMPLES,
                                z->samples);
+    if ((double)z->seed > PLUMB_ZONE_MAX_SEED)
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "zone.seed",
+                               "expected a seed from 0 to 2^53-1");
     if (!(z->confidence > 0.0 && z->confidence < 1.0))
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "zone.confidence",
                                "expected 0 < confidence < 1, found %g", z->confidence);
@@ -639,7 +650,7 @@ static plumb_status check_zone(const plumb_zone_spec *z, const plumb_zone_option
     size_t need = plumb_zone_min_samples(z->confidence, o->ci_level);
     if (z->samples < need)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "zone.samples",
-                               "%zu samples cannot bound the %g%% radius at %g%% confidence; "
+                               "%zu samples cannot bound the %g %% radius at %g %% confidence; "
                                "at least %zu are needed", z->samples, 100.0 * z->confidence,
                                100.0 * o->ci_level, need);
     return PLUMB_OK;
@@ -659,7 +670,7 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
         opt = *opt_in;
     else
         plumb_zone_options_init(&opt);
-    plumb_status st = check_zone(zone, &opt, diag);
+    plumb_status st = plumb_zone_check(zone, &opt, diag);
     if (st != PLUMB_OK)
         return st;
     if (n_crit > PLUMB_ZONE_MAX_CRITERIA)

@@ -161,6 +161,13 @@ static const char *no_effect(const plumb_fall_spec *b, const char *norm, const p
     return NULL;
 }
 
+/* The file an entry's error names: "--set" for an entry an override
+ * gave (its line is which --set), else the profile's. */
+static const char *at(const plumb_uncertainty *u, const char *source)
+{
+    return u->from_set ? PLUMB_DIAG_SET_FILE : source;
+}
+
 /* Checks an entry's distribution against its rule; fills e->a, b, c and
  * e->truncated. */
 static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
@@ -172,34 +179,34 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
     int np = u->kind == PLUMB_DIST_TRIANGULAR ? 3 : 2;
     for (int i = 0; i < np; i++)
         if (!isfinite(q[i]))
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "the %s distribution's parameters must be finite numbers",
                                   dist_name(u->kind));
     switch (u->kind) {
     case PLUMB_DIST_NORMAL: {
         double mean = q[0], sd = q[1];
         if (sd < 0.0)
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "normal: the standard deviation must be >= 0, found %g", sd);
         e->truncated = !r->angle && (isfinite(r->lo) || isfinite(r->hi));
         if (!e->truncated)
             return PLUMB_OK;
         if (!in_range(r, mean))
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "normal: the mean %g lies outside the key's range (%s)",
                                   mean, range_text(r, rt, sizeof rt));
         if (sd > 0.0) {
             double mass = gsl_cdf_ugaussian_P((r->hi - mean) / sd) -
                           gsl_cdf_ugaussian_P((r->lo - mean) / sd);
             if (!(mass >= TRUNC_MIN_MASS))
-                return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+                return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                       "normal [%g, %g]: only %.0f%% of it lies in the key's range "
                                       "(%s); truncating it there would change it beyond "
                                       "recognition: give a smaller sd or a uniform or "
                                       "triangular distribution", mean, sd, 100.0 * mass,
                                       range_text(r, rt, sizeof rt));
         } else if (r->lo_open && !(mean > r->lo)) {
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "normal: the mean must be > %g", r->lo);
         }
         return PLUMB_OK;
@@ -214,20 +221,20 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
             if (u->kind == PLUMB_DIST_TRIANGULAR && c < a)
                 c += FULL_TURN_DEG;
             if (!(b - a <= FULL_TURN_DEG))
-                return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+                return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                       "%s: the sector from %g to %g deg is wider than a full turn",
                                       dist_name(u->kind), q[0], u->kind == PLUMB_DIST_UNIFORM ? q[1] : q[2]);
         } else if (b < a) {
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "%s: the low end %g is above the high end %g", dist_name(u->kind),
                                   a, b);
         }
         if (u->kind == PLUMB_DIST_TRIANGULAR && !(c >= a && c <= b))
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "triangular: the mode %g must lie between the low end %g and "
                                   "the high end %g", q[1], q[0], q[2]);
         if (!r->angle && (!in_range(r, a) || !in_range(r, b)))
-            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+            return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "%s [%g .. %g] leaves the key's range (%s)",
                                   dist_name(u->kind), a, b, range_text(r, rt, sizeof rt));
         e->a = a;
@@ -236,7 +243,7 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
         return PLUMB_OK;
     }
     default:
-        return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u->line, u->col, u->key,
+        return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                               "unknown distribution kind %d", (int)u->kind);
     }
 }
@@ -277,7 +284,7 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
                 total += e->u.weight[k];
             if (strcmp(norm, "payload.attitude") != 0 || e->u.n_choice < 2 ||
                 e->u.n_choice > PLUMB_MAX_ATTITUDES || !(total > 0.0) || !isfinite(total)) {
-                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                     "a choice is for payload.attitude, with 2 to %d attitudes of "
                                     "positive weight", PLUMB_MAX_ATTITUDES);
                 break;
@@ -287,19 +294,19 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
                 c += e->u.weight[k];
                 e->cum[k] = k + 1 == e->u.n_choice ? 1.0 : c / total;
                 if (!(e->u.choice_drag[k][0] > 0.0) || !(e->u.choice_drag[k][1] > 0.0))
-                    st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                    st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                         "attitude '%s' has no drag", e->u.choice[k]);
             }
             for (size_t k = 0; k < n && st == PLUMB_OK; k++) {
                 char nk[PLUMB_DIAG_KEY];
                 normalise_key(u[k].key, nk, sizeof nk);
                 if (strncmp(nk, "payload.drag.", 13) == 0)
-                    st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, u[k].line, u[k].col, u[k].key,
+                    st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&u[k], source), u[k].line, u[k].col, u[k].key,
                                         "the attitude sets the drag; give no uncertainty of "
                                         "payload.drag besides it");
             }
             if (s->choice >= 0)
-                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                     "is uncertain twice");
             if (st != PLUMB_OK)
                 break;
@@ -329,7 +336,7 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
                               ? "the area is derived from the diameter; put the uncertainty on "
                                 "the area"
                               : "it is not a per-fall numeric input of this payload";
-                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                     "cannot be sampled: %s", why);
                 break;
             }
@@ -359,7 +366,7 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
                 why = "the planned horizontal release speed is 0, so a heading changes nothing";
         }
         if (why) {
-            st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+            st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                 "sampling it has no effect: %s", why);
             break;
         }
@@ -368,7 +375,7 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
             int same = o->target == e->target &&
                        (e->target != TGT_FIELD || o->offset == e->offset);
             if (same) {
-                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+                st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                     "is uncertain twice (also as '%s')", o->u.key);
                 break;
             }
@@ -382,11 +389,11 @@ plumb_status plumb_sampler_alloc(const plumb_fall_spec *base, const plumb_uncert
         if (e->target == TGT_CLIMB)
             s->has_climb = 1;
         if ((s->has_speed || s->has_heading) && (has_east || has_north))
-            st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+            st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                 "the release velocity's uncertainty must be given either as "
                                 "east/north or as speed/heading, not both");
         else if (s->has_climb && has_up)
-            st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, source, e->u.line, e->u.col, key,
+            st = PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(&e->u, source), e->u.line, e->u.col, key,
                                 "release.velocity.climb and release.velocity.up are the same "
                                 "input; give one");
         if (st == PLUMB_OK)

@@ -149,6 +149,36 @@ refused "--set a direction with a compass letter" "plumb: --set:1:11: wind.from:
 refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
   "did you mean en397-shock-49j?" -- limit "$good" --find release.height --energy-max en397-shock --format json
 
+# ---- a misspelt option or command gets the nearest one (issue 9) -----------
+# Every option each command's --help lists, misspelt by dropping its first
+# letter ("--format" -> "--ormat", one edit): refused as unknown with the
+# option meant suggested, exit 2, nothing written.
+for c in fall sweep limit zone sheet air lint; do
+  "$bin" "$c" --help >"$tmp/help" 2>&1
+  opts=$(sed -n '/^Options:/,$s/^  \(-[a-z], \)\{0,1\}\(--[a-z][a-z-]*\).*/\2/p' "$tmp/help")
+  n=0
+  for o in $opts; do
+    typo=--$(printf '%s' "$o" | cut -c4-)
+    refused "$c $typo" "plumb $c: unknown option '$typo' (did you mean '$o'?)" \
+      "Try 'plumb $c --help'." -- "$c" "$good" "$typo"
+    n=$((n + 1))
+  done
+  [ "$n" -ge 5 ] && pass=$((pass + 1)) || bad "$c --help lists $n options, expected at least 5"
+done
+refused "fall --frmat=json" "plumb fall: unknown option '--frmat=json' (did you mean '--format'?)" \
+  -- fall "$good" --frmat=json
+refused "zone -0 for -o" "plumb zone: unknown option '-0' (did you mean '-o'?)" -- zone "$good" -0
+# a word far from every option gets no guess
+refused "fall --xyz" "plumb fall: unknown option '--xyz'" -- fall "$good" --xyz
+grep -q "did you mean" "$tmp/stderr" && bad "fall --xyz: suggested $(cat "$tmp/stderr")" || pass=$((pass + 1))
+# a misspelt command, and one asked about with help
+refused "plumb fal" "plumb: unknown command 'fal' (did you mean 'fall'?); the commands are: fall sweep" \
+  -- fal "$good"
+refused "plumb swep" "plumb: unknown command 'swep' (did you mean 'sweep'?)" -- swep "$good"
+refused "plumb help lmit" "plumb: unknown command 'lmit' (did you mean 'limit'?)" -- help lmit
+refused "plumb --verison" "plumb: unknown option '--verison' (did you mean '--version'?)" -- --verison
+refused "plumb xyz" "plumb: unknown command 'xyz'; the commands are:" -- xyz "$good"
+
 # ---- plumb air --alt ranges ------------------------------------------------
 for r in 0m:10km 10km:0m:1km 0:1000:100 0m:10km:0m 0m:10km:-1km 0m:x:1km; do
   refused "air --alt $r" "--alt" -- air --alt "$r" --format json
@@ -201,6 +231,26 @@ printf '%s\n  payload.drag.cd: {uniform: [0.8, 1]}\n  payload.attitude: {choice:
 refused "an uncertain attitude and an uncertain drag coefficient" \
   "plumb: $tmp/attitude-and-cd.yaml:5:3: " "the attitude sets the drag" \
   -- zone "$tmp/attitude-and-cd.yaml" --format json --threads 1
+
+# The same refusals of an uncertainty given by --set name that --set (the
+# N-th --set is line N of "--set", issue 9): a new entry at its key, a
+# value given over one of the file at the value; one in the file still
+# names the file when a --set is also given.
+printf '%s\n  release.velocity.speed: "3 m/s +- 1 m/s"\n  wind.from: {uniform: [10 deg, 50 deg]}\n' \
+  "$zbase" | sed 's/^release: {height: 60 m}/release: {height: 60 m, velocity: {speed: 3 m\/s, heading: 90 deg}}\nwind: {speed: 4 m\/s, from: 30 deg}/' \
+  >"$tmp/velocity.yaml"
+refused "an uncertainty added by the second --set" \
+  "plumb: --set:2:13: release.velocity.east: " "either as east/north or as speed/heading" \
+  -- zone "$tmp/velocity.yaml" --format json --threads 1 --set zone.seed=7 \
+  --set "uncertainty.release.velocity.east={uniform: [0.5 m/s, 0.9 m/s]}"
+refused "an uncertainty of the file given again by --set" \
+  "plumb: --set:1:23: wind.from: " "wider than a full turn" \
+  -- zone "$tmp/velocity.yaml" --format json --threads 1 \
+  --set "uncertainty.wind.from={uniform: [0 deg, 400 deg]}"
+sed 's/\[10 deg, 50 deg\]/[0 deg, 400 deg]/' "$tmp/velocity.yaml" >"$tmp/sector.yaml"
+refused "an uncertainty of the file, with a --set beside it" \
+  "plumb: $tmp/sector.yaml:7:3: wind.from: " "wider than a full turn" \
+  -- zone "$tmp/sector.yaml" --format json --threads 1 --set zone.seed=7
 
 # A profile naming a criterion when the criteria directory holds none.
 mkdir "$tmp/no-criteria"

@@ -262,6 +262,16 @@ refused 2 "--samples too few for the confidence" "$cl: --samples: 100 samples ca
   -- zone "$prof" --samples 100
 refused 2 "--confidence too high for the samples" "$cl: --confidence:" \
   -- zone "$prof" --confidence 0.999
+# the same settings from the profile or a --set are refused where they were
+# given (issue 9: an error in a --set value names that --set)
+refused 2 "zone.samples too few, by --set" \
+  "plumb: --set:2:14: zone.samples: 100 samples cannot bound the 99 % radius" \
+  -- zone "$prof" --set zone.seed=5 --set zone.samples=100
+sed 's/samples: 1500,/samples: 100,/' "$prof" >"$tmp/few.yaml"
+refused 2 "zone.samples too few, in the file" \
+  "plumb: $tmp/few.yaml:21:17: zone.samples: 100 samples cannot bound" -- zone "$tmp/few.yaml"
+refused 2 "zone.seed above 2^53, by --set" "plumb: --set:1:11: zone.seed: expected a seed from 0 to 2^53-1" \
+  -- zone "$prof" --set zone.seed=9007199254740992
 refused 2 "--seed -1" "$cl: --seed:" -- zone "$prof" --seed -1
 refused 2 "--seed x" "$cl: --seed:" -- zone "$prof" --seed x
 refused 2 "--seed above 2^53" "$cl: --seed:" -- zone "$prof" --seed 9007199254740992
