@@ -151,12 +151,43 @@ static void test_a_bad_job_value_is_refused(void **state)
     assert_non_null(strstr(d.key, "job.title"));
 }
 
+/* The falls the zone will run, for the note before a long run: the drone
+ * release demo (one payload, zone.samples 50000, a target: two passes)
+ * runs 100 000, or 2 x --samples; a profile without uncertainty none. */
+static void test_the_zone_falls_are_counted_before_the_run(void **state)
+{
+    fixture *f = *state;
+    char path[1024];
+    snprintf(path, sizeof path, "%s/profiles/demo/drone-release.yaml", plumbt_srcdir());
+    plumb_profile *p = NULL;
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_profile_load(path, f->units, NULL, 0, &p, &d), PLUMB_OK);
+    assert_int_equal(plumb_study_open(p, f->criteria, f->units, NULL, &st, &d), PLUMB_OK);
+    plumb_brief_options o;
+    plumb_brief_options_init(&o);
+    assert_true(plumb_brief_zone_falls(st, NULL) == 100000.0);
+    o.samples = 1234;
+    assert_true(plumb_brief_zone_falls(st, &o) == 2468.0);
+    o.zone = 0;
+    assert_true(plumb_brief_zone_falls(st, &o) == 0.0);
+    plumb_study_free(st);
+    plumb_profile_free(p);
+    assert_int_equal(plumb_profile_load_buffer("<test>", drag_free_yaml, strlen(drag_free_yaml),
+                                               f->units, NULL, 0, &p, &d), PLUMB_OK);
+    assert_int_equal(plumb_study_open(p, f->criteria, f->units, NULL, &st, &d), PLUMB_OK);
+    assert_true(plumb_brief_zone_falls(st, NULL) == 0.0);
+    plumb_study_free(st);
+    plumb_profile_free(p);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_a_drag_free_brief_is_the_closed_form),
         cmocka_unit_test(test_an_inventory_is_ordered_worst_first),
         cmocka_unit_test(test_a_bad_job_value_is_refused),
+        cmocka_unit_test(test_the_zone_falls_are_counted_before_the_run),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_units_criteria, plumbt_teardown_units_criteria);
 }

@@ -16,6 +16,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <time.h>
 #include <cmocka.h>
 
 #include "plumb/plumb.h"
@@ -49,10 +50,9 @@ static void open_case(void **state, sheet_case *c)
     assert_int_equal(plumb_study_open(c->profile, c->f->criteria, c->f->units, NULL, &c->study, &d),
                      PLUMB_OK);
     assert_int_equal(plumb_brief_alloc(c->study, NULL, &c->brief, &d), PLUMB_OK);
-    c->so.paper = PLUMB_PAPER_A4;
-    c->so.units = PLUMB_UNITS_SI;
-    c->so.version = PLUMB_VERSION;
-    c->so.time_utc = 1767225600; /* 2026-01-01T00:00:00Z */
+    plumb_sheet_options_init(&c->so, 1767225600); /* 2026-01-01T00:00:00Z */
+    assert_int_equal(c->so.paper, PLUMB_PAPER_A4);
+    assert_string_equal(c->so.version, PLUMB_VERSION);
 }
 
 static void close_case(sheet_case *c)
@@ -88,6 +88,28 @@ static void test_a_sheet_is_a_pdf(void **state)
     assert_memory_equal(buf, "%PDF-1.", 7);
     free(buf);
     close_case(&c);
+}
+
+/* The local offset from UTC, from the time zone: POSIX TZ "ABC-3" is three
+ * hours east of UTC (IEEE Std 1003.1-2017, 8.3: the offset is added to
+ * local time to give UTC), so local time is UTC + 10 800 s. */
+static void test_the_local_offset_comes_from_the_time_zone(void **state)
+{
+    (void)state;
+    const char *old = getenv("TZ");
+    char *saved = old ? strdup(old) : NULL;
+    setenv("TZ", "ABC-3", 1);
+    tzset();
+    plumb_sheet_options so;
+    plumb_sheet_options_init(&so, 1767225600);
+    assert_int_equal(so.utc_offset_s, 10800);
+    assert_true(so.time_utc == 1767225600);
+    if (saved)
+        setenv("TZ", saved, 1);
+    else
+        unsetenv("TZ");
+    tzset();
+    free(saved);
 }
 
 static void test_nothing_to_write_is_refused(void **state)
@@ -133,6 +155,7 @@ int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_a_sheet_is_a_pdf),
+        cmocka_unit_test(test_the_local_offset_comes_from_the_time_zone),
         cmocka_unit_test(test_nothing_to_write_is_refused),
         cmocka_unit_test(test_a_stream_that_takes_no_more_is_a_write_error),
         cmocka_unit_test(test_a_figure_that_is_not_finite_gives_no_sheet),

@@ -89,6 +89,12 @@ void plumb_brief_options_init(plumb_brief_options *opt);
 plumb_status plumb_brief_alloc(plumb_study *study, const plumb_brief_options *opt,
                               plumb_brief **out, plumb_diag *diag);
 
+/* The falls the brief's zone will compute: samples (opt's, else the
+ * profile's zone.samples) x items x passes (two with a target); 0 when no
+ * zone is run (not asked for, or no uncertainty). For a note before a
+ * long run. opt NULL: the defaults. Can't fail. */
+double plumb_brief_zone_falls(const plumb_study *study, const plumb_brief_options *opt);
+
 /* Frees a brief. Accepts NULL. */
 void plumb_brief_free(plumb_brief *b);
 

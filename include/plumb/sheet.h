@@ -37,6 +37,11 @@ typedef struct plumb_sheet_options {
     int utc_offset_s;            /* the local offset from UTC at that time, s */
 } plumb_sheet_options;
 
+/* Defaults: A4, SI, this library's version, the calculation made at
+ * time_utc (s since 1970 UTC), and the local time zone's offset from UTC
+ * then (localtime_r, so TZ decides). Can't fail. */
+void plumb_sheet_options_init(plumb_sheet_options *opt, long long time_utc);
+
 /* Writes the sheet of n briefs (n >= 1) as one PDF to out. The PDF's
  * creation date is time_utc, so the same inputs and time give the same
  * bytes. PLUMB_ENUMERIC if a figure is not finite; PLUMB_EWRITE when the

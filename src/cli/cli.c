@@ -112,6 +112,33 @@ int cli_usage_error(const char *cmd, const char *fmt, ...)
     return CLI_EXIT_INPUT;
 }
 
+plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+{
+    plumb_diag_clear(diag);
+    diag->status = PLUMB_EINVAL;
+    snprintf(diag->file, sizeof diag->file, "<command line>");
+    snprintf(diag->key, sizeof diag->key, "%s", option);
+    va_list ap;
+    va_start(ap, fmt);
+    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    va_end(ap);
+    return PLUMB_EINVAL;
+}
+
+plumb_status cli_parse_whole(const char *option, const char *text, double lo, double hi,
+                             double *out, plumb_diag *diag)
+{
+    char *end = NULL;
+    errno = 0;
+    double v = text[0] == '\0' || text[0] == ' ' ? 0.0 : strtod(text, &end);
+    if (text[0] == '\0' || text[0] == ' ' || !end || *end != '\0' || errno == ERANGE ||
+        !(v == v) || v != (double)(long long)v || v < lo || v > hi)
+        return cli_option_error(diag, option, "expected a whole number from %.0f to %.0f, found "
+                                              "'%s'", lo, hi, text);
+    *out = v;
+    return PLUMB_OK;
+}
+
 int cli_fail(const plumb_diag *diag)
 {
     char buf[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 64];

@@ -102,6 +102,20 @@ void cli_args_free(cli_args *a);
  * this program's version. Can't fail. */
 plumb_report_options cli_report_options(const cli_args *a);
 
+/* Fills diag with an error in an option's value, at "<command line>" with
+ * the option as its key; returns PLUMB_EINVAL. */
+plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 3, 4)))
+#endif
+    ;
+
+/* An option's value that must be a whole number in [lo, hi]: digits, or a
+ * number in exponent form that is a whole number ("1e5"). PLUMB_OK with
+ * *out, else PLUMB_EINVAL with diag saying which option and why. */
+plumb_status cli_parse_whole(const char *option, const char *text, double lo, double hi,
+                             double *out, plumb_diag *diag);
+
 /* Prints "plumb CMD: message" and a hint to stderr; returns 2. */
 int cli_usage_error(const char *cmd, const char *fmt, ...)
 #if defined(__GNUC__)

@@ -28,41 +28,6 @@
 
 /* ---- option values ---------------------------------------------------------- */
 
-static plumb_status opt_error(plumb_diag *diag, const char *option, const char *fmt, ...)
-#if defined(__GNUC__)
-    __attribute__((format(printf, 3, 4)))
-#endif
-    ;
-
-static plumb_status opt_error(plumb_diag *diag, const char *option, const char *fmt, ...)
-{
-    plumb_diag_clear(diag);
-    diag->status = PLUMB_EINVAL;
-    snprintf(diag->file, sizeof diag->file, "<command line>");
-    snprintf(diag->key, sizeof diag->key, "%s", option);
-    va_list ap;
-    va_start(ap, fmt);
-    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
-    va_end(ap);
-    return PLUMB_EINVAL;
-}
-
-/* A whole number in [lo, hi]: digits, or a number in exponent form that is
- * a whole number ("1e5"). */
-static plumb_status parse_whole(const char *option, const char *text, double lo, double hi,
-                                double *out, plumb_diag *diag)
-{
-    char *end = NULL;
-    errno = 0;
-    double v = text[0] == '\0' || text[0] == ' ' ? 0.0 : strtod(text, &end);
-    if (text[0] == '\0' || text[0] == ' ' || !end || *end != '\0' || errno == ERANGE ||
-        !(v == v) || v != (double)(long long)v || v < lo || v > hi)
-        return opt_error(diag, option, "expected a whole number from %.0f to %.0f, found '%s'", lo,
-                         hi, text);
-    *out = v;
-    return PLUMB_OK;
-}
-
 /* A fraction 0 < p < 1, or a percent "99.9%". */
 static plumb_status parse_confidence(const char *text, double *out, plumb_diag *diag)
 {
@@ -71,12 +36,12 @@ static plumb_status parse_confidence(const char *text, double *out, plumb_diag *
     double v = text[0] ? strtod(text, &end) : 0.0;
     int percent = end && *end == '%' && end[1] == '\0';
     if (!text[0] || !end || (*end != '\0' && !percent) || errno == ERANGE)
-        return opt_error(diag, "--confidence", "expected a fraction such as 0.99 or a percent "
+        return cli_option_error(diag, "--confidence", "expected a fraction such as 0.99 or a percent "
                                                "such as 99%%, found '%s'", text);
     if (percent)
         v /= PERCENT;
     if (!(v > 0.0 && v < 1.0))
-        return opt_error(diag, "--confidence", "expected 0 < confidence < 1 (0 %% to 100 %%), "
+        return cli_option_error(diag, "--confidence", "expected 0 < confidence < 1 (0 %% to 100 %%), "
                                                "found '%s'", text);
     *out = v;
     return PLUMB_OK;
@@ -102,7 +67,7 @@ static plumb_status parse_target(const plumb_units *units, const char *text, dou
 {
     const char *comma = strchr(text, ',');
     if (!comma || strchr(comma + 1, ','))
-        return opt_error(diag, "--target", "expected EAST,NORTH with units, e.g. 40m,-12m, "
+        return cli_option_error(diag, "--target", "expected EAST,NORTH with units, e.g. 40m,-12m, "
                                            "found '%s'", text);
     char part[2][PLUMB_DIAG_MSG / 2];
     snprintf(part[0], sizeof part[0], "%.*s", (int)(comma - text), text);
@@ -112,12 +77,12 @@ static plumb_status parse_target(const plumb_units *units, const char *text, dou
         plumb_diag d;
         plumb_diag_clear(&d);
         if (plumb_units_parse(units, part[k], PLUMB_DIM_LENGTH, &out[k], &d) != PLUMB_OK)
-            return opt_error(diag, "--target", "%s: %s", k == 0 ? "east" : "north",
+            return cli_option_error(diag, "--target", "%s: %s", k == 0 ? "east" : "north",
                              d.message[0] ? d.message : "expected a length with its unit");
         unit_part(part[k], unit[k], sizeof unit[k]);
     }
     if (strcmp(unit[0], unit[1]) != 0)
-        return opt_error(diag, "--target", "east and north in different units ('%s' and '%s'); "
+        return cli_option_error(diag, "--target", "east and north in different units ('%s' and '%s'); "
                                            "give both in one unit", unit[0], unit[1]);
     return PLUMB_OK;
 }
@@ -215,7 +180,7 @@ static plumb_status samples_open(cli_zone_samples *s, plumb_diag *diag)
 {
     const char *slash = strrchr(s->path, '/');
     if (*(slash ? slash + 1 : s->path) == '\0')
-        return opt_error(diag, "--samples-out", "cannot write '%s'", s->path);
+        return cli_option_error(diag, "--samples-out", "cannot write '%s'", s->path);
     plumb_status st = cli_outfile_open(&s->out, s->path, "cannot write the samples", diag);
     if (st == PLUMB_OK)
         st = plumb_report_zone_samples_head(s->out.f, diag);
@@ -313,12 +278,12 @@ static plumb_status settings(cli_zone_run *r, const cli_study *cs, plumb_diag *d
     double samples = 0.0, seed = 0.0, threads = 0.0, confidence = 0.0, target[2] = {0.0, 0.0};
     plumb_status st = PLUMB_OK;
     if (zo->samples)
-        st = parse_whole("--samples", zo->samples, 1.0, (double)PLUMB_ZONE_MAX_SAMPLES, &samples,
+        st = cli_parse_whole("--samples", zo->samples, 1.0, (double)PLUMB_ZONE_MAX_SAMPLES, &samples,
                          diag);
     if (st == PLUMB_OK && zo->seed)
-        st = parse_whole("--seed", zo->seed, 0.0, PLUMB_ZONE_MAX_SEED, &seed, diag);
+        st = cli_parse_whole("--seed", zo->seed, 0.0, PLUMB_ZONE_MAX_SEED, &seed, diag);
     if (st == PLUMB_OK && zo->threads)
-        st = parse_whole("--threads", zo->threads, 1.0, (double)MAX_THREADS, &threads, diag);
+        st = cli_parse_whole("--threads", zo->threads, 1.0, (double)MAX_THREADS, &threads, diag);
     if (st == PLUMB_OK && zo->confidence)
         st = parse_confidence(zo->confidence, &confidence, diag);
     if (st == PLUMB_OK && zo->target)

@@ -9,7 +9,6 @@
  * are now, or SOURCE_DATE_EPOCH when it is set (reproducible builds), so
  * two runs with it set give the same bytes.
  */
-#include <errno.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -40,42 +39,6 @@ enum { OPT_PAPER, OPT_SAMPLES, OPT_SEED, N_OPT };
  * on one busy core). */
 #define NOTE_FALLS 50000.0
 
-/* Largest seed: integers up to 2^53 - 1 read back exactly from JSON. */
-#define MAX_SEED 9007199254740991.0
-
-/* A whole number in [lo, hi], or a usage error naming the option. */
-static int whole(const cli_args *a, const cli_option *o, double lo, double hi, double *out)
-{
-    char *end = NULL;
-    errno = 0;
-    double v = o->value[0] && o->value[0] != ' ' ? strtod(o->value, &end) : -1.0;
-    if (!end || *end != '\0' || errno == ERANGE || !(v >= lo && v <= hi) ||
-        v != (double)(long long)v)
-        return cli_usage_error(a->cmd, "%s expects a whole number from %.0f to %.0f, found '%s'",
-                               o->name, lo, hi, o->value);
-    *out = v;
-    return CLI_GO_ON;
-}
-
-/* When the calculation is made: SOURCE_DATE_EPOCH or now; and the local
- * offset from UTC then, from the local and UTC calendars. */
-static void calc_time(plumb_sheet_options *so)
-{
-    const char *sde = getenv("SOURCE_DATE_EPOCH");
-    char *end = NULL;
-    long long t = sde && *sde ? strtoll(sde, &end, 10) : -1;
-    if (!end || *end != '\0' || t < 0)
-        t = (long long)time(NULL);
-    time_t tt = (time_t)t;
-    struct tm u, l;
-    gmtime_r(&tt, &u);
-    localtime_r(&tt, &l);
-    int days = l.tm_year != u.tm_year ? (l.tm_year > u.tm_year ? 1 : -1) : l.tm_yday - u.tm_yday;
-    so->time_utc = t;
-    so->utc_offset_s = days * 86400 + (l.tm_hour - u.tm_hour) * 3600 + (l.tm_min - u.tm_min) * 60 +
-                       (l.tm_sec - u.tm_sec);
-}
-
 typedef struct sheet_job {
     plumb_sheet_options so;
     const plumb_brief *const *briefs;
@@ -86,6 +49,36 @@ static plumb_status write_sheet(FILE *out, const void *ctx, plumb_diag *diag)
 {
     const sheet_job *job = ctx;
     return plumb_sheet_write(out, &job->so, job->briefs, job->n, diag);
+}
+
+/* The options over the defaults: paper, units, samples, seed, and the time
+ * of the calculation (SOURCE_DATE_EPOCH, for reproducible files, or now). */
+static plumb_status read_options(const cli_args *a, const cli_option *o, plumb_sheet_options *so,
+                                 plumb_brief_options *bo, plumb_diag *diag)
+{
+    const char *sde = getenv("SOURCE_DATE_EPOCH");
+    char *end = NULL;
+    long long t = sde && *sde ? strtoll(sde, &end, 10) : -1;
+    plumb_sheet_options_init(so, end && *end == '\0' && t >= 0 ? t : (long long)time(NULL));
+    so->units = a->units;
+    plumb_brief_options_init(bo);
+    const char *paper = o[OPT_PAPER].value;
+    if (paper && strcmp(paper, "a4") != 0 && strcmp(paper, "letter") != 0)
+        return cli_option_error(diag, "--paper", "expected a4 or letter, found '%s'", paper);
+    so->paper = paper && strcmp(paper, "letter") == 0 ? PLUMB_PAPER_LETTER : PLUMB_PAPER_A4;
+    double v = 0.0;
+    plumb_status st = PLUMB_OK;
+    if (o[OPT_SAMPLES].value &&
+        (st = cli_parse_whole("--samples", o[OPT_SAMPLES].value, 1.0,
+                              (double)PLUMB_ZONE_MAX_SAMPLES, &v, diag)) == PLUMB_OK)
+        bo->samples = (size_t)v;
+    if (st == PLUMB_OK && o[OPT_SEED].value &&
+        (st = cli_parse_whole("--seed", o[OPT_SEED].value, 0.0, PLUMB_ZONE_MAX_SEED, &v, diag)) ==
+            PLUMB_OK) {
+        bo->has_seed = 1;
+        bo->seed = (unsigned long)v;
+    }
+    return st;
 }
 
 static int run(const cli_args *a, const cli_option *o)
@@ -103,64 +96,28 @@ static int run(const cli_args *a, const cli_option *o)
     if (n_stdin > 1)
         return cli_usage_error(a->cmd, "'-' (standard input) may be given once, found %zu times",
                                n_stdin);
-    sheet_job job;
-    memset(&job, 0, sizeof job);
-    job.so.units = a->units;
-    job.so.version = PLUMB_VERSION;
-    if (o[OPT_PAPER].value && strcmp(o[OPT_PAPER].value, "a4") != 0 &&
-        strcmp(o[OPT_PAPER].value, "letter") != 0)
-        return cli_usage_error(a->cmd, "--paper must be a4 or letter, found '%s'",
-                               o[OPT_PAPER].value);
-    job.so.paper = o[OPT_PAPER].value && strcmp(o[OPT_PAPER].value, "letter") == 0
-                       ? PLUMB_PAPER_LETTER : PLUMB_PAPER_A4;
+    sheet_job job = {.n = a->n_args};
     plumb_brief_options bo;
-    plumb_brief_options_init(&bo);
-    double v = 0.0;
-    if (o[OPT_SAMPLES].value) {
-        int rc = whole(a, &o[OPT_SAMPLES], 1.0, (double)PLUMB_ZONE_MAX_SAMPLES, &v);
-        if (rc != CLI_GO_ON)
-            return rc;
-        bo.samples = (size_t)v;
-    }
-    if (o[OPT_SEED].value) {
-        int rc = whole(a, &o[OPT_SEED], 0.0, MAX_SEED, &v);
-        if (rc != CLI_GO_ON)
-            return rc;
-        bo.has_seed = 1;
-        bo.seed = (unsigned long)v;
-    }
-    calc_time(&job.so);
-
-    cli_study *cs = calloc(a->n_args, sizeof *cs);
-    plumb_brief **briefs = calloc(a->n_args, sizeof *briefs);
     plumb_diag diag;
     plumb_diag_clear(&diag);
-    plumb_status st = cs && briefs ? PLUMB_OK : PLUMB_ENOMEM;
+    plumb_status st = read_options(a, o, &job.so, &bo, &diag);
     if (st != PLUMB_OK)
-        snprintf(diag.message, sizeof diag.message, "out of memory");
+        return cli_fail(&diag);
+    cli_study *cs = calloc(a->n_args, sizeof *cs);
+    plumb_brief **briefs = calloc(a->n_args, sizeof *briefs);
+    if (!cs || !briefs)
+        st = cli_nomem(&diag);
     for (size_t i = 0; st == PLUMB_OK && i < a->n_args; i++) {
         st = cli_study_open(a, a->args[i], &cs[i], &diag);
-        const plumb_zone_spec *z = st == PLUMB_OK ? plumb_profile_zone(cs[i].profile) : NULL;
-        double falls = z && plumb_profile_uncertainty_count(cs[i].profile) > 0
-                           ? (double)(bo.samples ? bo.samples : z->samples) *
-                                 (double)plumb_profile_item_count(cs[i].profile) *
-                                 (z->has_target ? 2.0 : 1.0)
-                           : 0.0;
+        double falls = st == PLUMB_OK ? plumb_brief_zone_falls(cs[i].study, &bo) : 0.0;
         if (!a->quiet && falls > NOTE_FALLS)
             fprintf(stderr, "plumb sheet: %s: the clearance zone runs %.0f falls (--samples sets "
                             "fewer)\n", a->args[i], falls);
         if (st == PLUMB_OK)
             st = plumb_brief_alloc(cs[i].study, &bo, &briefs[i], &diag);
     }
-    int rc;
-    if (st == PLUMB_OK) {
-        job.briefs = (const plumb_brief *const *)briefs;
-        job.n = a->n_args;
-        rc = cli_emit(a, write_sheet, &job);
-    } else {
-        diag.status = st;
-        rc = cli_fail(&diag);
-    }
+    job.briefs = (const plumb_brief *const *)briefs;
+    int rc = st == PLUMB_OK ? cli_emit(a, write_sheet, &job) : cli_fail(&diag);
     for (size_t i = 0; briefs && i < a->n_args; i++)
         plumb_brief_free(briefs[i]);
     for (size_t i = 0; cs && i < a->n_args; i++)

@@ -19,6 +19,7 @@
 
 #include <cairo-pdf.h>
 
+#include "plumb/version.h"
 #include "report/sheet_doc.h"
 #include "report/common.h"
 
@@ -169,6 +170,23 @@ static plumb_status one_pass(sheet_doc *d, const plumb_brief *const *briefs, siz
         st = PLUMB_RAISE(diag, PLUMB_EWRITE, "cannot make the PDF: %s",
                          cairo_status_to_string(cs));
     return st;
+}
+
+void plumb_sheet_options_init(plumb_sheet_options *opt, long long time_utc)
+{
+    memset(opt, 0, sizeof *opt);
+    opt->paper = PLUMB_PAPER_A4;
+    opt->units = PLUMB_UNITS_SI;
+    opt->version = plumb_version();
+    opt->time_utc = time_utc;
+    /* the local offset from UTC then, from the local and UTC calendars */
+    time_t tt = (time_t)time_utc;
+    struct tm u, l;
+    if (!gmtime_r(&tt, &u) || !localtime_r(&tt, &l))
+        return;
+    int days = l.tm_year != u.tm_year ? (l.tm_year > u.tm_year ? 1 : -1) : l.tm_yday - u.tm_yday;
+    opt->utc_offset_s = days * 86400 + (l.tm_hour - u.tm_hour) * 3600 + (l.tm_min - u.tm_min) * 60 +
+                        (l.tm_sec - u.tm_sec);
 }
 
 static int all_finite(const double *x, size_t n)

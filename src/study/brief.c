@@ -287,6 +287,16 @@ static plumb_status make_zone(plumb_study *study, const plumb_brief_options *opt
     return st;
 }
 
+double plumb_brief_zone_falls(const plumb_study *study, const plumb_brief_options *opt)
+{
+    const plumb_profile *prof = plumb_study_profile(study);
+    if ((opt && !opt->zone) || plumb_profile_uncertainty_count(prof) == 0)
+        return 0.0;
+    const plumb_zone_spec *z = plumb_profile_zone(prof);
+    double samples = (double)(opt && opt->samples ? opt->samples : z->samples);
+    return samples * (double)plumb_profile_item_count(prof) * (z->has_target ? 2.0 : 1.0);
+}
+
 plumb_status plumb_brief_alloc(plumb_study *study, const plumb_brief_options *opt, plumb_brief **out,
                               plumb_diag *diag)
 {
