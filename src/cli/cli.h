@@ -23,6 +23,7 @@
 
 #include <stddef.h>
 #include <stdio.h>
+#include <time.h>
 #include "plumb/plumb.h"
 
 enum { CLI_EXIT_OK = 0, CLI_EXIT_INPUT = 2, CLI_EXIT_FAILED = 3 };
@@ -206,6 +207,27 @@ void cli_duration(double s, char *buf, size_t size);
 /* Clears the progress line on standard error when *shown, and clears
  * *shown. */
 void cli_progress_clear(int *shown);
+
+/* The estimate of a long run counted in rows (sweep), made once the rows
+ * done have taken CLI_ESTIMATE_AFTER_S: a note on standard error when the
+ * whole will take over CLI_NOTE_OVER_S, a warning over CLI_WARN_OVER_S
+ * (cli_estimate_times); then, on a terminal, a progress line redrawn at
+ * most every CLI_PROGRESS_EVERY_S, cleared by cli_progress_clear(&shown). */
+typedef struct cli_rows_progress {
+    const char *cmd, *what;  /* "sweep", "rows": for the messages */
+    struct timespec start;
+    double after_s, note_s, warn_s;
+    int done;                /* the estimate is made */
+    int tty;                 /* standard error is a terminal */
+    int shown;               /* a progress line is on the terminal */
+    double drawn_s;          /* when it was last drawn */
+} cli_rows_progress;
+
+/* Starts the clock; 0 when there is no clock (then no estimate). */
+int cli_rows_progress_start(cli_rows_progress *e, const char *cmd, const char *what);
+
+/* The progress callback (user: the cli_rows_progress): done of total rows. */
+void cli_rows_progress_step(void *user, size_t done, size_t total);
 
 /* 1 when path `out` is an existing file that is the same file as `in`
  * (0 when `in` is "-", standard input). */

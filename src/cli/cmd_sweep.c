@@ -3,14 +3,12 @@
  * the falls of a profile over one or two ranges of an input, as a table;
  * each row is exactly what `plumb fall --set KEY=VALUE` gives. A sweep
  * that will take long says so on standard error, estimated from its first
- * rows (cli_estimate_times), and on a terminal shows its progress;
- * --quiet silences both.
+ * rows, and on a terminal shows its progress (cli_rows_progress); --quiet
+ * silences both.
  */
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
-#include <time.h>
-#include <unistd.h>
 
 #include "cli.h"
 
@@ -38,60 +36,6 @@ static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
     return plumb_report_sweep(out, &job->opt, job->sweep, diag);
 }
 
-/* The estimate of a long sweep, made once the rows done have taken
- * after_s: a note on standard error when the whole will take over note_s,
- * a warning over warn_s (the thresholds of cli_estimate_times); then, on a
- * terminal, a progress line redrawn at most every CLI_PROGRESS_EVERY_S and
- * cleared at the end. */
-typedef struct estimate_ctx {
-    struct timespec start;
-    double after_s, note_s, warn_s;
-    int done;        /* the estimate is made */
-    int tty;         /* standard error is a terminal */
-    int shown;       /* a progress line is on the terminal */
-    double drawn_s;  /* when it was last drawn */
-} estimate_ctx;
-
-static void progress(estimate_ctx *e, size_t done, size_t total, double elapsed)
-{
-    if (!e->tty || (e->shown && elapsed - e->drawn_s < CLI_PROGRESS_EVERY_S))
-        return;
-    char left[32];
-    cli_duration(elapsed * (double)(total - done) / (double)done, left, sizeof left);
-    fprintf(stderr, "\rplumb sweep: %3.0f %% (%zu of %zu rows, about %s left)  ",
-            100.0 * (double)done / (double)total, done, total, left);
-    fflush(stderr);
-    e->shown = 1;
-    e->drawn_s = elapsed;
-}
-
-static void estimate(void *user, size_t done, size_t total)
-{
-    estimate_ctx *e = user;
-    struct timespec now;
-    if (done == 0 || done >= total || clock_gettime(CLOCK_MONOTONIC, &now) != 0)
-        return;
-    double elapsed = (double)(now.tv_sec - e->start.tv_sec) +
-                     1e-9 * (double)(now.tv_nsec - e->start.tv_nsec);
-    if (elapsed < e->after_s)
-        return;
-    if (e->done) {
-        progress(e, done, total, elapsed);
-        return;
-    }
-    e->done = 1;
-    double all_s = elapsed * (double)total / (double)done;
-    if (all_s <= e->note_s)
-        return;
-    char len[32];
-    cli_duration(all_s, len, sizeof len);
-    fprintf(stderr, "plumb sweep: %sthis sweep will take about %s (timed on the first %zu of %zu "
-                    "rows)%s\n",
-            all_s > e->warn_s ? "warning: " : "", len, done, total,
-            all_s > e->warn_s ? "; it goes on, Ctrl-C stops it" : "");
-    fflush(stderr);
-}
-
 static int run(const cli_args *a, const char *const *vary, size_t n_vary)
 {
     if (a->n_args != 1)
@@ -110,11 +54,10 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
     for (size_t i = 0; st == PLUMB_OK && i < n_vary; i++)
         st = plumb_range_parse_key(cs.units, vary[i], &axes[i], &diag);
     if (st == PLUMB_OK) {
-        estimate_ctx e = {.done = 0, .tty = isatty(STDERR_FILENO)};
-        cli_estimate_times(&e.after_s, &e.note_s, &e.warn_s);
-        int timed = !a->quiet && clock_gettime(CLOCK_MONOTONIC, &e.start) == 0;
-        st = plumb_study_sweep(cs.study, axes, n_vary, timed ? estimate : NULL, &e, &sweep,
-                               &diag);
+        cli_rows_progress e;
+        int timed = !a->quiet && cli_rows_progress_start(&e, "sweep", "rows");
+        st = plumb_study_sweep(cs.study, axes, n_vary, timed ? cli_rows_progress_step : NULL, &e,
+                               &sweep, &diag);
         cli_progress_clear(&e.shown);
     }
     /* the text of a two-way sweep is its boundary: where each limit is reached */
