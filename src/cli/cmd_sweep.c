@@ -55,7 +55,7 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
         st = plumb_range_parse_key(cs.units, vary[i], &axes[i], &diag);
     if (st == PLUMB_OK) {
         cli_rows_progress e;
-        int timed = !a->quiet && cli_rows_progress_start(&e, "sweep", "rows");
+        int timed = cli_rows_progress_start(&e, "sweep", "rows") && !a->quiet;
         st = plumb_study_sweep(cs.study, axes, n_vary, timed ? cli_rows_progress_step : NULL, &e,
                                &sweep, &diag);
         cli_progress_clear(&e.shown);
