@@ -111,7 +111,7 @@ export PLUMB_SRCDIR
 
 work=$(mktemp -d "${TMPDIR:-/tmp}/plumb-run.XXXXXX") || exit 2
 trap 'rm -rf "$work"' EXIT
-trap 'exit 2' INT TERM
+trap 'exit 2' HUP INT PIPE TERM
 
 # Scripts first, the last build directory (the sanitizer build) first: they
 # are the slow ones, so the short test programs fill in at the end.
