@@ -8,9 +8,9 @@
  * given spec, and what else changes when it changes. The profile loader's
  * schema (profile_schema.c) gives the same dimensions and ranges; the test
  * tests/test_keys.c fails when the two disagree. plumb_fall_spec_field,
- * the zone's sampler ranges (dispersion_sampler.c), the limit's scan
- * (inverse.c) and the sweep read the table; io/vary.h varies a key on a copy
- * of a resolved profile by it.
+ * the zone's sampler ranges (dispersion_sampler.c) and the limit's scan
+ * (inverse.c) read the table; the sweep and the limit set a key on copies
+ * of a resolved profile by it (io/vary.h).
  *
  * Keys are written in their general form: an inventory's items[N].X is
  * payload.X; descent[i].X is descent.X; a list's rows are "[]"

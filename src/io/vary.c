@@ -56,6 +56,11 @@ int plumbp_vary_init(plumbp_vary *v, const plumb_profile *p, const char *key)
     return 1;
 }
 
+int plumbp_vary_is_template(const plumb_profile *p)
+{
+    return p && !p->tree;
+}
+
 int plumbp_vary_air(const plumbp_vary *v)
 {
     return (v->k->effects & PLUMBP_KEY_AIR) != 0;

@@ -54,6 +54,10 @@ typedef struct plumbp_vary {
  * template: derived with the key set, or built in code. Can't fail. */
 int plumbp_vary_init(plumbp_vary *v, const plumb_profile *p, const char *key);
 
+/* 1 when p is a template as it is: a profile built in code, which has no
+ * text to derive another from. Can't fail. */
+int plumbp_vary_is_template(const plumb_profile *p);
+
 /* 1 when setting the key rebuilds the air (PLUMBP_KEY_AIR). */
 int plumbp_vary_air(const plumbp_vary *v);
 
