@@ -61,9 +61,10 @@ int plumbp_vary_is_template(const plumb_profile *p);
 /* 1 when setting the key rebuilds the air (PLUMBP_KEY_AIR). */
 int plumbp_vary_air(const plumbp_vary *v);
 
-/* Sets the key to x (SI) in specs[0 .. n) and *atm, copies of the
- * template's items and air, with what the loader derives from it, and
- * checks the copies as the loader would. Returns 1 when the loader takes
+/* Sets the key to x (SI) in specs[0 .. n) and *atm, copies of all the
+ * template's items (the loader checks a value against every item) and of
+ * its air, with what the loader derives from it, and checks the copies as
+ * the loader would. Returns 1 when the loader takes
  * x; 0 when it would refuse it (out of the key's range, or against another
  * key), the copies then half changed. Can't fail otherwise. */
 int plumbp_vary_set(const plumbp_vary *v, double x, plumb_fall_spec *specs, size_t n,

@@ -5,6 +5,7 @@
  */
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include <gsl/gsl_errno.h>
@@ -64,6 +65,8 @@ typedef struct solver_ctx {
     plumb_profile *own_tmpl;   /* the template when derived here, owned */
     int fast;                  /* 1: the key is set on copies of tmpl's specs */
     plumbp_vary vary;
+    plumb_fall_spec *work;     /* copies of all of tmpl's items (the loader checks a value
+                                  against every item), owned */
     plumb_atmosphere *atm;     /* tmpl's air, owned (keys that leave the air) */
 } solver_ctx;
 
@@ -229,6 +232,8 @@ static plumb_status take_template(solver_ctx *c, const plumb_profile *p, plumb_p
     c->tmpl = p;
     c->own_tmpl = own;
     c->fast = plumbp_vary_init(&c->vary, p, c->set_key);
+    if (c->fast && !(c->work = malloc(plumb_profile_item_count(p) * sizeof *c->work)))
+        return PLUMB_RAISE(c->diag, PLUMB_ENOMEM, "out of memory");
     if (c->fast && !plumbp_vary_air(&c->vary)) {
         plumb_diag d;
         plumb_diag_clear(&d);
@@ -289,10 +294,12 @@ static double eval_slow(solver_ctx *c, double x)
  * diagnostic. */
 static double eval_fast(solver_ctx *c, double x)
 {
-    plumb_fall_spec spec = *plumb_profile_item(c->tmpl, c->item);
+    size_t n = plumb_profile_item_count(c->tmpl);
+    memcpy(c->work, plumb_profile_item(c->tmpl, 0), n * sizeof *c->work);
     plumb_atm_spec as = *plumb_profile_atmosphere(c->tmpl);
-    if (!plumbp_vary_set(&c->vary, x, &spec, 1, &as))
+    if (!plumbp_vary_set(&c->vary, x, c->work, n, &as))
         return eval_slow(c, x);
+    const plumb_fall_spec *spec = &c->work[c->item];
     plumb_diag d;
     plumb_diag_clear(&d);
     plumb_fall_result r;
@@ -304,10 +311,10 @@ static double eval_fast(solver_ctx *c, double x)
             return eval_refused(c, st, &d);
         if (st != PLUMB_OK)
             return eval_slow(c, x);
-        st = plumb_trajectory_run(c->traj, &spec, atm, &r, &d);
+        st = plumb_trajectory_run(c->traj, spec, atm, &r, &d);
         plumb_atmosphere_free(atm);
     } else {
-        st = plumb_trajectory_run(c->traj, &spec, c->atm, &r, &d);
+        st = plumb_trajectory_run(c->traj, spec, c->atm, &r, &d);
     }
     return eval_done(c, st, &r, &d);
 }
@@ -450,6 +457,7 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     if (st == PLUMB_OK)
         st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
     plumb_atmosphere_free(c.atm);
+    free(c.work);
     plumb_profile_free(c.own_tmpl);
     return st;
 }
