@@ -470,6 +470,16 @@ static void test_bad_limits_items_and_keys_are_refused_with_their_reason(void **
     refused(p, 0, "zone.scatter", 913.7, NULL, PLUMB_EINVAL, "zone.scatter",
             "cannot be solved for");
     plumb_profile_free(p);
+    /* a profile whose own fall never lands has no answer: 47 g in 0.048 m^3
+     * floats, rho V = 1.2250 x 0.048 = 0.0588 kg > 0.047 kg at sea level
+     * (Archimedes' principle; rho of U.S. Standard Atmosphere 1976,
+     * Table I, transcribed) */
+    p = load("name: floating grip\n"
+             "payload: {mass: 0.047 kg, volume: 0.048 m^3, drag: {cd_area: 0.0031 m^2}}\n"
+             "release: {height: 25 m}\n");
+    refused(p, 0, "release.height", 1.0, NULL, PLUMB_ENUMERIC, "release.height",
+            "own value cannot be computed");
+    plumb_profile_free(p);
 }
 
 static void test_running_out_of_falls_is_a_numerical_failure_naming_the_key(void **state)
