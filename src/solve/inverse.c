@@ -225,8 +225,9 @@ static double eval_refused(solver_ctx *c, plumb_status st, const plumb_diag *d)
     return NAN;
 }
 
-/* Makes p the template of the fast path when the key can be set on copies
- * of its specs; *own 1: p is derived here and kept. PLUMB_ENOMEM stops. */
+/* Makes p the template of the fast path (used when the key can be set on
+ * copies of its specs); own is p when derived here (kept to the end of the
+ * solve, then freed), NULL for the caller's profile. PLUMB_ENOMEM stops. */
 static plumb_status take_template(solver_ctx *c, const plumb_profile *p, plumb_profile *own)
 {
     c->tmpl = p;
