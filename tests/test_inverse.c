@@ -419,6 +419,42 @@ static void test_an_item_whose_drag_lacks_the_key_is_not_applicable(void **state
     plumb_profile_free(p);
 }
 
+/* A shared key is checked against every item, as the loader checks it: a
+ * release height is refused at or below any item's deploy height (README,
+ * descent.deploy.below: below the release height). For the drag-free
+ * spanner of an inventory whose radio opens a streamer below 17.3 m, the
+ * height for 250 J by the work-energy theorem, H = E/(m g0) = 10.69 m, is
+ * such a height: no height the profile takes meets the limit. Between the
+ * deploy height and the profile's 31.6 m, the spanner's energy m g0 H
+ * (405 to 739 J) crosses 500 J at H = E/(m g0) = 21.38 m. */
+static void test_a_shared_key_is_checked_against_every_item(void **state)
+{
+    (void)state;
+    plumb_profile *p = load("name: kit with a streamer\n"
+                            "items:\n"
+                            "  - {name: spanner, mass: 2.385 kg, drag: {cd: 0, area: 0.0117 m^2}}\n"
+                            "  - name: radio\n"
+                            "    mass: 0.412 kg\n"
+                            "    drag: {cd_area: 0.0063 m^2}\n"
+                            "    descent: {kind: streamer, cd: 0.4, area: 0.083 m^2,\n"
+                            "              deploy: {below: 17.3 m}, fill_time: 0.2 s}\n"
+                            "release: {height: 31.6 m}\n");
+    plumb_limit_result r;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_limit_solve(p, units, 0, "release.height", PLUMB_METRIC_ENERGY, 250.0,
+                                       NULL, traj, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_IMPOSSIBLE);
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_limit_solve(p, units, 0, "release.height", PLUMB_METRIC_ENERGY, 500.0,
+                                       NULL, traj, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_FOUND);
+    assert_rel(r.value_si, 500.0 / (MASS_KG * G0), 1e-9);
+    plumb_profile_free(p);
+}
+
 /* ---- refusals ------------------------------------------------------------------ */
 
 static void refused(const plumb_profile *p, size_t item, const char *key, double limit,
@@ -453,6 +489,16 @@ static void test_bad_limits_items_and_keys_are_refused_with_their_reason(void **
     refused(p, 0, "zone.scatter", 913.7, NULL, PLUMB_EINVAL, "zone.scatter",
             "cannot be solved for");
     plumb_profile_free(p);
+    /* a profile whose own fall never lands has no answer: 47 g in 0.048 m^3
+     * floats, rho V = 1.2250 x 0.048 = 0.0588 kg > 0.047 kg at sea level
+     * (Archimedes' principle; rho of U.S. Standard Atmosphere 1976,
+     * Table I, transcribed) */
+    p = load("name: floating grip\n"
+             "payload: {mass: 0.047 kg, volume: 0.048 m^3, drag: {cd_area: 0.0031 m^2}}\n"
+             "release: {height: 25 m}\n");
+    refused(p, 0, "release.height", 1.0, NULL, PLUMB_ENUMERIC, "release.height",
+            "own value cannot be computed");
+    plumb_profile_free(p);
 }
 
 static void test_running_out_of_falls_is_a_numerical_failure_naming_the_key(void **state)
@@ -479,6 +525,7 @@ int main(void)
         cmocka_unit_test(test_a_speed_limit_above_terminal_speed_is_unlimited_and_says_so),
         cmocka_unit_test(test_an_energy_below_the_release_energy_is_impossible_and_says_so),
         cmocka_unit_test(test_an_item_whose_drag_lacks_the_key_is_not_applicable),
+        cmocka_unit_test(test_a_shared_key_is_checked_against_every_item),
         cmocka_unit_test(test_bad_limits_items_and_keys_are_refused_with_their_reason),
         cmocka_unit_test(test_running_out_of_falls_is_a_numerical_failure_naming_the_key),
     };

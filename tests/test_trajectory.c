@@ -660,6 +660,64 @@ static void test_sphere_terminal_speed_balances_weight_and_morrison_drag(void **
     plumb_atmosphere_free(atm);
 }
 
+/* trajectory.h: PLUMB_ENOSOLUTION when the body has no drag or its terminal
+ * speed is above 1e6 m/s, *v_m_s untouched. Fixed drag of CdA = 0 (given
+ * as cd_area 0, or cd 0 on an area) has no terminal speed; neither has a
+ * CdA of 1e-20 m^2, whose closed-form v_t = sqrt(2 m g / (rho CdA)) is
+ * 4.6e10 m/s for 1.3 kg in sea-level air (rho 1.225 kg/m^3, U.S. Standard
+ * Atmosphere 1976, Table I, transcribed), nor the smallest CdA a double
+ * holds, where 2 m g / (rho CdA) overflows. The same body under a canopy
+ * has the closed-form speed of the canopy's CdS alone (shared/references.md). */
+static void test_a_body_without_drag_has_no_terminal_speed(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
+    plumb_fall_spec s;
+    const double m = 1.3;
+    const double cdas[] = {0.0, 1e-20, 4.9406564584124654e-324};
+    for (size_t i = 0; i < sizeof cdas / sizeof *cdas; i++) {
+        base_spec(&s, m, cdas[i], 21.7);
+        double v = -1.0;
+        assert_int_equal(plumb_terminal_speed(&s, atm, 0.0, 0, &v), PLUMB_ENOSOLUTION);
+        assert_true(v == -1.0);
+    }
+    base_spec(&s, m, 0.0, 21.7);
+    s.drag.cd = 0.0;
+    s.drag.area_m2 = 0.0173;
+    double v = -1.0;
+    assert_int_equal(plumb_terminal_speed(&s, atm, 0.0, 0, &v), PLUMB_ENOSOLUTION);
+    assert_true(v == -1.0);
+    /* with a canopy: CdS 0.83 x 1.17 m^2 */
+    s.n_descent = 1;
+    s.descent[0].kind = PLUMB_DESCENT_PARACHUTE;
+    s.descent[0].cd = 0.83;
+    s.descent[0].area_m2 = 1.17;
+    plumb_air air;
+    assert_int_equal(plumb_atmosphere_at(atm, 0.0, &air), PLUMB_OK);
+    assert_int_equal(plumb_terminal_speed(&s, atm, 0.0, 1, &v), PLUMB_OK);
+    assert_rel(v, sqrt(2.0 * m * PLUMB_G0_M_S2 / (air.rho_kg_m3 * 0.83 * 1.17)), 1e-14);
+    plumb_atmosphere_free(atm);
+}
+
+/* A fall reports no terminal speed (0, printed as none) rather than a
+ * number when there is none: the 1.3 kg body of CdA 1e-20 m^2 from 21.7 m
+ * lands at the drag-free speed sqrt(2 g H) (work-energy theorem). */
+static void test_a_fall_without_a_terminal_speed_reports_none(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 1.3, 1e-20, 21.7);
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_true(r.terminal_speed_m_s == 0.0);
+    assert_rel(r.speed_m_s, sqrt(2.0 * PLUMB_G0_M_S2 * 21.7), 1e-9);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 /* Closed form (header): v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)), t(H) by
  * closed_time. A grid of heights 1 m to 3 km and masses 1 g to 100 g at
  * CdA 0.01 m^2 in constant air spans 2gH/v_t^2 from 0.08 to 36 000, so it
@@ -905,6 +963,8 @@ int main(void)
         cmocka_unit_test(test_recorded_path_starts_at_release_and_ends_on_the_ground),
         cmocka_unit_test(test_stiff_light_fall_switches_to_msbdf_and_stays_accurate),
         cmocka_unit_test(test_sphere_terminal_speed_balances_weight_and_morrison_drag),
+        cmocka_unit_test(test_a_body_without_drag_has_no_terminal_speed),
+        cmocka_unit_test(test_a_fall_without_a_terminal_speed_reports_none),
         cmocka_unit_test(test_light_falls_meet_the_closed_form_on_the_path_auto_picks),
         cmocka_unit_test(test_light_falls_meet_the_closed_form_on_the_implicit_path),
         cmocka_unit_test(test_light_falls_meet_the_closed_form_on_the_explicit_path),

@@ -13,8 +13,12 @@
  * speed): all crossings are reported, and the answer is the one nearest
  * the profile's own value. A window narrower than the scan's spacing can
  * be missed; the result says what was scanned. Each
- * evaluation is a full fall of the profile derived with KEY set to x, so
- * the answer is exactly what `plumb fall --set KEY=x` gives.
+ * evaluation is a full fall of the profile with KEY set to x, bit for bit
+ * what `plumb fall --set KEY=x` gives: the first is derived by the loader
+ * from the text; for most keys the others set x on copies of that
+ * profile's resolved specs, with the loader's checks, and rebuild the air
+ * only for a key that changes it (the rest go through the loader each
+ * time).
  * Where no value in the range meets the limit the result says why
  * (unlimited, or impossible even at the edge of the range), in figures
  * and, where the figures do not say it, in words without figures: the

@@ -9,15 +9,20 @@
  * sign is checked in the unit it is counted in, and a temperature's STEP
  * is a difference (0degC:30degC:5degC counts 0, 5, ... 30 degC; -20degC is
  * a step down, not 253.15 K). The count is made in double and refused
- * above the cap before it is converted, so no range wraps round. Each
- * value is handed to
- * the profile as the text "KEY=<value> <unit>", exactly as --set would
- * pass it. So every row of a sweep is bit for bit what `plumb fall --set
- * KEY=<value>` gives.
+ * above the cap before it is converted, so no range wraps round. Every
+ * row of a sweep is bit for bit what `plumb fall --set KEY=<value> <unit>`
+ * gives: the first row the loader can make is derived from that text;
+ * for most keys the other rows set the value, converted by the same
+ * udunits2 converter (plumb_range_value_si), on copies of that profile's
+ * resolved specs, with the loader's checks, and rebuild the air only for
+ * a key that changes it. Keys that the loader alone can set (derived
+ * ones such as release.velocity.speed, rows of tables, shape dimensions,
+ * one item of an inventory) and values the copies refuse go through the
+ * loader row by row, so a refused row carries the loader's diagnostic.
  *
- * Ownership: a plumb_sweep owns its derived profiles and results; the
+ * Ownership: a plumb_sweep owns its rows' profiles and results; the
  * report structs it hands out point into it and live until
- * plumb_sweep_free.
+ * plumb_sweep_free. It keeps nothing of the profile it was run on.
  */
 #ifndef PLUMB_SWEEP_H
 #define PLUMB_SWEEP_H

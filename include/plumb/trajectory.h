@@ -146,7 +146,8 @@ typedef struct plumb_fall_result {
     double drift_m;            /* horizontal distance from the release point, m */
     double bearing_deg;        /* bearing of the impact point from the release point, deg from north */
     double apex_m;             /* highest point above the strike level, m */
-    double terminal_speed_m_s; /* still-air terminal speed at the strike level, final configuration, m/s */
+    double terminal_speed_m_s; /* still-air terminal speed of the body at the strike level, m/s;
+                                  0 when it has none (plumb_terminal_speed's errors: no drag) */
     double drag_free_speed_m_s;/* sqrt(v0^2 + 2 g H): speed without drag, m/s */
     double drag_free_energy_j; /* 1/2 m v0^2 + m g H: energy without drag, J */
     double drag_work_j;        /* work done by drag on the body, J (negative) */
@@ -166,7 +167,8 @@ typedef struct plumb_fall_result {
     double pflanz_force_n[PLUMB_MAX_DESCENT];    /* C_x X_1 q_1 (CdS)_0, N (0 when C_x unknown) */
     double peak_force_n;       /* largest drag force, N */
     double peak_load_g;        /* largest drag force / (m g0) */
-    double steady_speed_m_s;   /* terminal speed with all devices open, at strike level, m/s */
+    double steady_speed_m_s;   /* terminal speed with all devices open, at strike level, m/s;
+                                  0 when there is none */
     plumb_solver_stats solver; /* cost of the integration */
 } plumb_fall_result;
 
@@ -207,12 +209,17 @@ const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size
  * 20 ft (6.096 m) when from_wind is set; 0 without turbulence. Can't fail. */
 double plumb_fall_w20(const plumb_fall_spec *spec);
 
+/* Terminal speeds above this are none (PLUMB_ENOSOLUTION), m/s: a body
+ * with so little drag falls as if it had none over any height the air
+ * model spans. */
+#define PLUMB_TERMINAL_MAX_M_S 1e6
+
 /* Still-air terminal speed of the spec's body (with all devices open when
  * with_devices is 1) at height z_m above the strike level, m/s: the lowest
  * root of 1/2 rho CdA(Re) v^2 = m g (1 - rho V / m), where a body falling
  * from rest settles (a sphere in the drag crisis can have three roots).
  * Errors: PLUMB_ENOSOLUTION when the body has no drag (or its terminal
- * speed is above 1e6 m/s), PLUMB_ENOLAND when buoyancy exceeds weight,
+ * speed is above PLUMB_TERMINAL_MAX_M_S), PLUMB_ENOLAND when buoyancy exceeds weight,
  * PLUMB_EOUTSIDE when the altitude is outside the air model, PLUMB_ENUMERIC
  * when the root finder fails, PLUMB_ENOMEM. *v_m_s is untouched on error.
  * Allocates its solver per call: plumb_trajectory_run uses the workspace's. */

@@ -36,7 +36,7 @@ enum {
 /* key, dim, count, range, angle, home, offset, when, shapes, effects; in the
  * order of plumbp_key_id (keys.h) */
 const plumbp_key plumbp_key_table[] = {
-    {"payload.mass", D(MASS), 0, R(POSITIVE), 0, SPEC(mass_kg), W(ALWAYS), 0, 0},
+    {"payload.mass", D(MASS), 0, R(POSITIVE), 0, SPEC(mass_kg), W(ALWAYS), 0, PLUMBP_KEY_GLIDE},
     {"payload.volume", D(VOLUME), 0, R(NONNEG), 0, SPEC(volume_m3), W(ALWAYS), 0, 0},
     {"payload.drag.cd", D(NONE), 0, R(CD), 0, SPEC(drag.cd), W(CD_AND_AREA), 0, DRAG},
     {"payload.drag.area", D(AREA), 0, R(POSITIVE), 0, SPEC(drag.area_m2), W(CD_AND_AREA), 0, DRAG},
@@ -58,8 +58,9 @@ const plumbp_key plumbp_key_table[] = {
     {"descent.fill_time", D(TIME), 0, R(NONNEG), 0, DEV(fill_time_s), W(FILL_TIME), 0, 0},
     {"descent.fill_constant", D(NONE), 0, R(POSITIVE), 0, DEV(fill_constant), W(FILL_CONSTANT), 0,
      0},
+    /* checked against PLUMB_INFLATION_J_MAX by the loader */
     {"descent.inflation_exponent", D(NONE), 0, R(POSITIVE), 0, DEV(inflation_exponent), W(DEVICE),
-     0, 0},
+     0, CHECKED},
     {"descent.opening_factor", D(NONE), 0, R(POSITIVE), 0, DEV(opening_factor), W(DEVICE), 0, 0},
     {"release.height", D(LENGTH), 0, R(POSITIVE), 0, SPEC(release_m[2]), W(ALWAYS), 0,
      SHARED | CHECKED},
@@ -81,9 +82,10 @@ const plumbp_key plumbp_key_table[] = {
     {"release.position.latitude", D(ANGLE), 0, R(LATITUDE), 0, ZONE, W(ALWAYS), 0, 0},
     {"release.position.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
     {"site.elevation", D(LENGTH), 0, R(ALTITUDE), 0, SPEC(site_elevation_m), W(ALWAYS), 0,
-     AIRK | CHECKED},
+     AIRK | CHECKED | PLUMBP_KEY_STATION},
+    /* places the release point and the zone's target given by latitude and longitude */
     {"site.latitude", D(ANGLE), 0, R(LATITUDE), 0, SPEC(gravity.latitude_deg), W(LATITUDE), 0,
-     SHARED},
+     SHARED | PLUMBP_KEY_LOADER},
     /* WGS 84; only for map output (plumb zone --format geojson) */
     {"site.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
     {"atmosphere.temperature_offset", D(TEMP_DIFF), 0, R(ANY), 0, AIR(temperature_offset_k),

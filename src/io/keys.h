@@ -13,8 +13,9 @@
  * build time, so loading costs no lookup; tests/test_keys.c fails when a
  * leaf names a row of another key, a key the loader accepts has no row, or
  * a row is a key the loader does not accept. plumb_fall_spec_field, the
- * zone's sampler ranges (dispersion_sampler.c), the limit's scan
- * (inverse.c) and the sweep read the table by key (plumbp_key_find).
+ * zone's sampler ranges (dispersion_sampler.c) and the limit's scan
+ * (inverse.c) read the table by key (plumbp_key_find); the sweep and the
+ * limit set a key on copies of a resolved profile by it (io/vary.h).
  *
  * Keys are written in their general form: an inventory's items[N].X is
  * payload.X; descent[i].X is descent.X; a list's rows are "[]"
@@ -71,9 +72,15 @@ enum {
     PLUMBP_KEY_AREA = 1u << 2,      /* a canopy's area is derived again from its diameter */
     PLUMBP_KEY_VELOCITY = 1u << 3,  /* the release velocity is derived again (speed, heading) */
     PLUMBP_KEY_SHARED = 1u << 4,    /* the same for every item (release, site, air, wind) */
-    PLUMBP_KEY_CHECKED = 1u << 5    /* checked against other keys by the loader (release
+    PLUMBP_KEY_CHECKED = 1u << 5,   /* checked against other keys by the loader (release
                                        height, deploy heights, the air's temperature, the
-                                       velocity's two forms): varied only through the loader */
+                                       inflation exponent's top): a varied copy is checked
+                                       again the same way (io/vary.h) */
+    PLUMBP_KEY_GLIDE = 1u << 6,     /* a plate's glide taken from its shape is derived again
+                                       (its I* from the mass) */
+    PLUMBP_KEY_STATION = 1u << 7,   /* the surface air's station altitude follows it */
+    PLUMBP_KEY_LOADER = 1u << 8     /* varied only through the loader: it places other
+                                       values (points given by latitude and longitude) */
 };
 
 /* Shape kinds for PLUMBP_WHEN_SHAPE (bits of plumb_shape_kind). */

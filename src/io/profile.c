@@ -40,6 +40,11 @@ void plumb_profile_free(plumb_profile *p)
 {
     if (!p)
         return;
+    if (p->borrowed) {
+        free(p->items);
+        free(p);
+        return;
+    }
     free(p->path);
     plumby_free(p->tree);
     free(p->items);

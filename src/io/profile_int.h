@@ -6,9 +6,9 @@
  * (dotted key paths: --set overrides, key dimensions and units),
  * profile_item.c (a payload or item: drag, shape, descent devices,
  * glide), profile_scene.c (release, site, atmosphere, wind, turbulence),
- * profile_study.c
- * (criteria, uncertainty, zone, job) and profile_spec.c (a profile of a
- * spec built in code). The profile's definition, the loader, the key
+ * profile_study.c (criteria, uncertainty, zone, job), profile_spec.c (a
+ * profile of a spec built in code) and vary.c (an input set on copies of
+ * a resolved profile, io/vary.h). The profile's definition, the loader, the key
  * path, the schema items the readers walk, and the functions called
  * across files (plumbp_profile_ prefix). Internal to libplumb; not
  * installed.
@@ -57,6 +57,8 @@ struct plumb_profile {
     plumb_uncertainty *unc;
     plumb_zone_spec zone;
     plumb_job job;                   /* `job:`, "" where not given */
+    int borrowed;                    /* 1: a variant (vary.c): only the struct and items are
+                                        its own, the rest is its template's */
 };
 
 /* kseg.index when the segment has no [index], or selects an item by name */
@@ -96,6 +98,65 @@ extern const plumby_schema plumbp_profile_edge_item[];
 extern const plumby_schema plumbp_profile_atm_row_item[];
 extern const plumby_schema plumbp_profile_wind_row_item[];
 
+/* ---- the loader's checks of a value against other keys ----------------
+ *
+ * Each is used by the loader, which raises its own message, and by vary.c,
+ * which checks a varied copy of a resolved profile again (plumbp_vary_set),
+ * so that both refuse the same values. */
+
+/* The release point above the top of the 1976 atmosphere. */
+static inline int plumbp_release_too_high(double elevation_m, double height_m)
+{
+    return elevation_m + height_m > PLUMB_STD1976_TOP_M;
+}
+
+/* A device deploying below a height at or above the release height. */
+static inline int plumbp_deploy_not_below(const plumb_descent_spec *d, double height_m)
+{
+    return d->trigger == PLUMB_DEPLOY_BELOW && !(d->deploy_value < height_m);
+}
+
+/* Device b, listed after a, deploying before it. */
+static inline int plumbp_devices_out_of_order(const plumb_descent_spec *a,
+                                              const plumb_descent_spec *b)
+{
+    return a->trigger == b->trigger &&
+           (a->trigger == PLUMB_DEPLOY_AFTER ? b->deploy_value < a->deploy_value
+                                             : b->deploy_value > a->deploy_value);
+}
+
+/* An inflation exponent beyond the published curves' range. */
+static inline int plumbp_inflation_exponent_too_large(double j)
+{
+    return j > PLUMB_INFLATION_J_MAX;
+}
+
+/* A log wind's roughness length not below its reference height. */
+static inline int plumbp_log_wind_too_rough(const plumb_wind_spec *w)
+{
+    return w->profile == PLUMB_WIND_LOG && !(w->roughness_m < w->ref_height_m);
+}
+
+/* The surface model's temperature at the release height, K. */
+static inline double plumbp_surface_top_k(const plumb_atm_spec *a, double height_m)
+{
+    return a->station_temperature_k - a->lapse_rate_k_m * height_m;
+}
+
+/* A table of air not spanning lo_m .. hi_m. */
+static inline int plumbp_table_misses(const plumb_atm_spec *a, double lo_m, double hi_m)
+{
+    return a->table_alt_m[0] > lo_m || a->table_alt_m[a->table_n - 1] < hi_m;
+}
+
+/* profile_scene.c: the first height of lo_m .. hi_m (its ends and the 1976
+ * layer bases between) where the 1976 temperature plus dt_k is not above
+ * 0 K: 1 with *at_m, the standard temperature there *t_k and *st
+ * PLUMB_ERANGE, or *st the status of plumb_std1976 when it has no
+ * temperature there; 0 when it stays above 0 K. */
+int plumbp_std_temperature_fails(double dt_k, double lo_m, double hi_m, double *at_m, double *t_k,
+                                 plumb_status *st);
+
 /* profile_set.c */
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag);
@@ -103,6 +164,9 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
                                       plumb_diag *diag);
 
 /* profile_item.c */
+/* A fixed drag given as cd and area (area_m2 > 0: cd_area_m2 = cd x area)
+ * or as cd_area: its cd_area_m2 and the source text that names the values. */
+void plumbp_profile_fixed_drag(plumb_drag_spec *d);
 plumb_status plumbp_profile_read_item(const loader *L, const plumby_map *im, int is_item,
                                       const plumb_fall_spec *base, plumb_fall_spec *spec,
                                       plumb_shape_spec *shape);

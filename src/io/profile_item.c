@@ -11,6 +11,16 @@
 
 #include "io/profile_int.h"
 
+void plumbp_profile_fixed_drag(plumb_drag_spec *d)
+{
+    if (d->area_m2 > 0.0) {
+        d->cd_area_m2 = d->cd * d->area_m2;
+        snprintf(d->source, sizeof d->source, "cd and area as given in the profile");
+    } else {
+        snprintf(d->source, sizeof d->source, "cd_area as given in the profile");
+    }
+}
+
 static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fall_spec *spec,
                               plumb_shape_spec *shape)
 {
@@ -45,7 +55,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                                                      "or cd_area)")) != PLUMB_OK ||
                     (st = plumby_num(&dm, "cd_area", 1, 0.0, &d->cd_area_m2, NULL)) != PLUMB_OK)
                     return st;
-                snprintf(d->source, sizeof d->source, "cd_area as given in the profile");
+                plumbp_profile_fixed_drag(d);
             } else {
                 if (!plumby_get(&dm, "cd"))
                     return plumby_missing(&dm, "cd", "give cd and area, or cd_area");
@@ -54,8 +64,7 @@ static plumb_status read_drag(const loader *L, const plumby_map *item, plumb_fal
                 if ((st = plumby_num(&dm, "cd", 1, 0.0, &d->cd, NULL)) != PLUMB_OK ||
                     (st = plumby_num(&dm, "area", 1, 0.0, &d->area_m2, NULL)) != PLUMB_OK)
                     return st;
-                d->cd_area_m2 = d->cd * d->area_m2;
-                snprintf(d->source, sizeof d->source, "cd and area as given in the profile");
+                plumbp_profile_fixed_drag(d);
             }
         } else {
             d->model = model == 1 ? PLUMB_DRAG_SPHERE_MORRISON : PLUMB_DRAG_SPHERE_CGW;
@@ -163,7 +172,7 @@ static plumb_status read_inflation(const plumby_map *dm, plumb_descent_spec *d, 
             PLUMB_OK ||
         (st = plumby_num(dm, "opening_factor", 0, 0.0, &d->opening_factor, NULL)) != PLUMB_OK)
         return st;
-    if (d->inflation_exponent > PLUMB_INFLATION_J_MAX)
+    if (plumbp_inflation_exponent_too_large(d->inflation_exponent))
         return plumby_raise_value(dm, "inflation_exponent", PLUMB_ERANGE,
                                   "must lie between 0 and %g (published curves run from 1/2 to "
                                   "about 6), found '%s'",
@@ -233,7 +242,7 @@ static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_des
         d->trigger = PLUMB_DEPLOY_BELOW;
         if ((st = plumby_num(&dep, "below", 1, 0.0, &d->deploy_value, NULL)) != PLUMB_OK)
             return st;
-        if (!(d->deploy_value < L->height_m))
+        if (plumbp_deploy_not_below(d, L->height_m))
             return plumby_raise_value(&dep, "below", PLUMB_ERANGE,
                                       "must be below the release height %.6g m, found '%s'",
                                       L->height_m, plumby_get(&dep, "below")->text);
@@ -289,10 +298,7 @@ static plumb_status read_descent(const loader *L, const plumby_node *node, const
             return st;
         if (i > 0) {
             const plumb_descent_spec *a = &spec->descent[i - 1], *b = &spec->descent[i];
-            int out_of_order = a->trigger == b->trigger &&
-                               (a->trigger == PLUMB_DEPLOY_AFTER ? b->deploy_value < a->deploy_value
-                                                                 : b->deploy_value > a->deploy_value);
-            if (out_of_order) {
+            if (plumbp_devices_out_of_order(a, b)) {
                 plumby_map dep;
                 plumby_sub(&dm, "deploy", &dep);
                 return plumby_raise_value(

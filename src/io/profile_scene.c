@@ -122,7 +122,7 @@ plumb_status plumbp_profile_read_release_site(loader *L, plumb_fall_spec *base)
     L->p->zone.site_deg[1] = has_lon ? lon : 0.0;
     if ((st = plumbp_profile_map_point(L, &pm, base->release_m)) != PLUMB_OK)
         return st;
-    if (L->elevation_m + L->height_m > PLUMB_STD1976_TOP_M)
+    if (plumbp_release_too_high(L->elevation_m, L->height_m))
         return plumby_raise_value(&rm, "height", PLUMB_ERANGE,
                                   "the release point, %.6g m above the strike level at %.6g m "
                                   "above sea level, is above %.6g m, the top of the 1976 "
@@ -131,9 +131,8 @@ plumb_status plumbp_profile_read_release_site(loader *L, plumb_fall_spec *base)
     return PLUMB_OK;
 }
 
-/* 1976 temperature + dt_k > 0 over lo_m..hi_m (see the file comment). */
-static plumb_status check_std_temperature(const plumby_map *am, double dt_k, double lo_m,
-                                          double hi_m)
+int plumbp_std_temperature_fails(double dt_k, double lo_m, double hi_m, double *at_m, double *t_k,
+                                 plumb_status *st)
 {
     double at[2 + ARRAY_LEN(std1976_bases_gp_m)];
     size_t n = 0;
@@ -147,17 +146,34 @@ static plumb_status check_std_temperature(const plumby_map *am, double dt_k, dou
     }
     for (size_t i = 0; i < n; i++) {
         plumb_air air;
-        plumb_status st = plumb_std1976(at[i], 0.0, &air);
-        if (st != PLUMB_OK)
-            return plumby_raise_value(am, "temperature_offset", st,
-                                      "the 1976 atmosphere has no temperature at %.6g m", at[i]);
-        if (!(air.t_k + dt_k > 0.0))
-            return plumby_raise_value(am, "temperature_offset", PLUMB_ERANGE,
-                                      "the temperature at %.6g m above sea level would be %.6g K "
-                                      "(1976 standard %.6g K %+.6g K); it must stay above 0 K",
-                                      at[i], air.t_k + dt_k, air.t_k, dt_k);
+        *at_m = at[i];
+        *st = plumb_std1976(at[i], 0.0, &air);
+        if (*st != PLUMB_OK)
+            return 1;
+        *t_k = air.t_k;
+        if (!(air.t_k + dt_k > 0.0)) {
+            *st = PLUMB_ERANGE;
+            return 1;
+        }
     }
-    return PLUMB_OK;
+    return 0;
+}
+
+/* 1976 temperature + dt_k > 0 over lo_m..hi_m (see the file comment). */
+static plumb_status check_std_temperature(const plumby_map *am, double dt_k, double lo_m,
+                                          double hi_m)
+{
+    double at_m = 0.0, t_k = 0.0;
+    plumb_status st = PLUMB_OK;
+    if (!plumbp_std_temperature_fails(dt_k, lo_m, hi_m, &at_m, &t_k, &st))
+        return PLUMB_OK;
+    if (st != PLUMB_ERANGE)
+        return plumby_raise_value(am, "temperature_offset", st,
+                                  "the 1976 atmosphere has no temperature at %.6g m", at_m);
+    return plumby_raise_value(am, "temperature_offset", PLUMB_ERANGE,
+                              "the temperature at %.6g m above sea level would be %.6g K "
+                              "(1976 standard %.6g K %+.6g K); it must stay above 0 K",
+                              at_m, t_k + dt_k, t_k, dt_k);
 }
 
 plumb_status plumbp_profile_read_atmosphere(loader *L)
@@ -198,7 +214,7 @@ plumb_status plumbp_profile_read_atmosphere(loader *L)
                 PLUMB_OK)
             return st;
         a->station_alt_m = L->elevation_m;
-        double t_top = a->station_temperature_k - a->lapse_rate_k_m * L->height_m;
+        double t_top = plumbp_surface_top_k(a, L->height_m);
         if (!(t_top > 0.0))
             return plumby_raise_value(&am, has_lapse ? "lapse_rate" : "temperature", PLUMB_ERANGE,
                                       "the temperature at the release height would be %.6g K "
@@ -265,15 +281,15 @@ plumb_status plumbp_profile_read_atmosphere(loader *L)
     if ((st = plumby_num(&am, "temperature_offset", 0, 0.0, &a->temperature_offset_k, NULL)) !=
         PLUMB_OK)
         return st;
-    if (L->p->atm_alt_m[0] > lo || L->p->atm_alt_m[n - 1] < hi)
-        return plumby_raise(&L->ctx, t->origin, t->line, t->col, tkey, PLUMB_ERANGE,
-                            "the table spans %.6g m .. %.6g m above sea level, but the fall spans "
-                            "%.6g m .. %.6g m",
-                            L->p->atm_alt_m[0], L->p->atm_alt_m[n - 1], lo, hi);
     a->table_n = n;
     a->table_alt_m = L->p->atm_alt_m;
     a->table_rho_kg_m3 = L->p->atm_rho_kg_m3;
     a->table_t_k = L->p->atm_t_k;
+    if (plumbp_table_misses(a, lo, hi))
+        return plumby_raise(&L->ctx, t->origin, t->line, t->col, tkey, PLUMB_ERANGE,
+                            "the table spans %.6g m .. %.6g m above sea level, but the fall spans "
+                            "%.6g m .. %.6g m",
+                            L->p->atm_alt_m[0], L->p->atm_alt_m[n - 1], lo, hi);
     if (!with_t)
         return check_std_temperature(&am, a->temperature_offset_k, lo, hi);
     return PLUMB_OK;
@@ -343,7 +359,7 @@ plumb_status plumbp_profile_read_wind(loader *L, plumb_wind_spec *w)
             (st = plumby_num(&wm, "roughness", 0, w->roughness_m, &w->roughness_m, NULL)) !=
                 PLUMB_OK)
             return st;
-        if (prof == 2 && !(w->roughness_m < w->ref_height_m))
+        if (plumbp_log_wind_too_rough(w))
             return plumby_raise_value(&wm, plumby_get(&wm, "roughness") ? "roughness"
                                                                           : "reference_height",
                                       PLUMB_ERANGE,

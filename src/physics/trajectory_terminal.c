@@ -29,7 +29,7 @@
 #define CRISIS_SCAN_RATIO 1.001
 #define ROOT_MAX_ITER 200
 #define ROOT_REL_TOL 1e-14
-#define TERMINAL_MAX_M_S 1e6
+#define TERMINAL_MAX_M_S PLUMB_TERMINAL_MAX_M_S
 
 typedef struct term_ctx {
     const plumb_fall_spec *spec;
@@ -108,9 +108,11 @@ static double term_local_max(term_ctx *c, gsl_min_fminimizer *mz, double a, doub
     return -gsl_min_fminimizer_f_minimum(mz);
 }
 
-plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                   double z_m, int with_devices, gsl_root_fsolver *root,
-                                   gsl_min_fminimizer *mz, double *v_m_s)
+/* The lowest root of the drag balance (see above) into *v_m_s, which may
+ * lie above TERMINAL_MAX_M_S (the caller checks). */
+static plumb_status terminal_root(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                  double z_m, int with_devices, gsl_root_fsolver *root,
+                                  gsl_min_fminimizer *mz, double *v_m_s)
 {
     term_ctx c = {.spec = spec};
     double alt = spec->site_elevation_m + z_m;
@@ -173,6 +175,25 @@ plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb
     if (term_balance(hi, &c) < 0.0)
         return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "terminal speed above %g m/s", TERMINAL_MAX_M_S);
     return term_bracketed(&c, root, lo, hi, v_m_s);
+}
+
+/* trajectory.h: a body with no drag, or with so little that it balances
+ * the weight only above TERMINAL_MAX_M_S (a CdA of 1e-20 m^2; one so
+ * small that the closed form overflows), has no terminal speed:
+ * PLUMB_ENOSOLUTION, never a huge number, *v_m_s untouched. */
+plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
+                                        double z_m, int with_devices, gsl_root_fsolver *root,
+                                        gsl_min_fminimizer *mz, double *v_m_s)
+{
+    double v = 0.0;
+    plumb_status st = terminal_root(spec, atm, z_m, with_devices, root, mz, &v);
+    if (st != PLUMB_OK)
+        return st;
+    if (!(v <= TERMINAL_MAX_M_S))
+        return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "too little drag: no terminal speed up to %g m/s",
+                           TERMINAL_MAX_M_S);
+    *v_m_s = v;
+    return PLUMB_OK;
 }
 
 plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,

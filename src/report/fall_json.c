@@ -140,7 +140,9 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
     jset(j, o, "devices", devs);
     jset(j, o, "peak_force_n", jreal(j, r->peak_force_n));
     jset(j, o, "peak_load_g", jreal(j, r->peak_load_g));
-    jset(j, o, "steady_speed_m_s", jreal(j, r->steady_speed_m_s));
+    /* null when there is none, as terminal_speed_m_s */
+    jset(j, o, "steady_speed_m_s",
+         r->steady_speed_m_s > 0.0 ? jreal(j, r->steady_speed_m_s) : json_null());
     return o;
 }
 

@@ -97,6 +97,10 @@ static void text_comparison(writer *w, const plumb_item_report *it)
         put(w, "  terminal speed   %s in still air at the strike level%s\n",
             plumbp_t_speed(w, r->terminal_speed_m_s),
             plumbp_si_bracket(w, r->terminal_speed_m_s, "m/s"));
+    else if (plumbp_body_cd_area(&it->spec->drag) > 0.0 ||
+             it->spec->drag.model != PLUMB_DRAG_FIXED)
+        put(w, "  terminal speed   none up to %s: too little drag for the weight\n",
+            plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S));
     else
         put(w, "  terminal speed   none: without drag the speed grows without bound\n");
     put(w, "  without drag     %s, %s%s\n", plumbp_t_speed(w, r->drag_free_speed_m_s),
@@ -205,8 +209,12 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
     }
     put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
         plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
-    put(w, "  steady descent   %s with the devices open, at the strike level\n",
-        plumbp_t_speed(w, r->steady_speed_m_s));
+    if (r->steady_speed_m_s > 0.0)
+        put(w, "  steady descent   %s with the devices open, at the strike level\n",
+            plumbp_t_speed(w, r->steady_speed_m_s));
+    else
+        put(w, "  steady descent   none up to %s: too little drag, devices open\n",
+            plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S));
 }
 
 /* Drag as understood, in one line of prose. */

@@ -5,6 +5,7 @@
  */
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include <gsl/gsl_errno.h>
@@ -14,6 +15,7 @@
 #include "plumb/inverse.h"
 #include "core/internal.h"
 #include "io/keys.h"
+#include "io/vary.h"
 
 /* Values scanned for changes of sign before Brent refines them: 10 per
  * decade over a positive key's 6 decades. */
@@ -56,12 +58,16 @@ typedef struct solver_ctx {
     plumb_status fail;
     plumb_diag *diag;
     int out_of_range;   /* the last x was refused by the profile's checks */
-    /* the fast path: the key varied on a copy of the resolved spec */
-    const plumbp_key *k;       /* the key's row in the table, or NULL: through the loader */
-    size_t device;             /* the descent device it addresses */
-    plumb_fall_spec spec;      /* the copy */
-    plumb_atm_spec atm_spec;   /* the air's spec (PLUMBP_KEY_AIR keys) */
-    const plumb_atmosphere *atm; /* the profile's air, built once (other keys) */
+    /* the fast path: the key set on copies of a template's resolved specs
+     * (io/vary.h); the template is the first profile the loader derives
+     * with the key set, or a profile built in code */
+    const plumb_profile *tmpl; /* NULL until the loader has made one */
+    plumb_profile *own_tmpl;   /* the template when derived here, owned */
+    int fast;                  /* 1: the key is set on copies of tmpl's specs */
+    plumbp_vary vary;
+    plumb_fall_spec *work;     /* copies of all of tmpl's items (the loader checks a value
+                                  against every item), owned */
+    plumb_atmosphere *atm;     /* tmpl's air, owned (keys that leave the air) */
 } solver_ctx;
 
 void plumb_limit_options_init(plumb_limit_options *opt)
@@ -209,39 +215,97 @@ static double eval_refused(solver_ctx *c, plumb_status st, const plumb_diag *d)
     return NAN;
 }
 
-/* The key (c->k, a plain double of the spec or the air with no check
- * against other keys) set to x on a copy of the resolved spec: the same
- * double the loader would have stored from "KEY=x SI-unit" (the SI unit
- * converts to itself exactly), with the same range check; the air is
- * built again only for a key that changes it. */
-static double eval_fast(solver_ctx *c, double x)
+/* Makes p the template of the fast path (used when the key can be set on
+ * copies of its specs); own is p when derived here (kept to the end of the
+ * solve, then freed), NULL for the caller's profile. PLUMB_ENOMEM stops. */
+static plumb_status take_template(solver_ctx *c, const plumb_profile *p, plumb_profile *own)
 {
+    c->tmpl = p;
+    c->own_tmpl = own;
+    c->fast = plumbp_vary_init(&c->vary, p, c->set_key);
+    if (c->fast && !(c->work = malloc(plumb_profile_item_count(p) * sizeof *c->work)))
+        return PLUMB_RAISE(c->diag, PLUMB_ENOMEM, "out of memory");
+    if (c->fast && !plumbp_vary_air(&c->vary)) {
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        plumb_status st = plumb_atmosphere_alloc(plumb_profile_atmosphere(p), &c->atm, &d);
+        if (st == PLUMB_ENOMEM) {
+            if (c->diag)
+                *c->diag = d;
+            return st;
+        }
+        c->fast = st == PLUMB_OK; /* air the profile cannot have: every value goes through
+                                     the loader, which says why */
+    }
+    return PLUMB_OK;
+}
+
+/* One fall at key = x through the loader, from the text "KEY=x SI-unit";
+ * the first profile it makes becomes the fast path's template. */
+static double eval_slow(solver_ctx *c, double x)
+{
+    char set[PLUMB_DIAG_KEY + 64];
+    const char *unit = plumb_dim_si_unit(c->dim);
+    int bare = !*unit || strcmp(unit, "1") == 0;
+    snprintf(set, sizeof set, "%s=%.17g%s%s", c->set_key, x, bare ? "" : " ", bare ? "" : unit);
+    const char *sets[1] = {set};
+    plumb_profile *p = NULL;
     plumb_diag d;
     plumb_diag_clear(&d);
-    if (!plumby_range_ok(c->k->range, x)) {
-        c->out_of_range = 1;
-        if (c->diag)
-            *c->diag = d;
-        return NAN;
+    plumb_status st = plumb_profile_derive(c->profile, c->units, sets, 1, &p, &d);
+    if (st != PLUMB_OK)
+        return eval_refused(c, st, &d);
+    if (!c->tmpl) {
+        st = take_template(c, p, p);
+        if (st != PLUMB_OK) {
+            c->fail = st;
+            return NAN;
+        }
     }
-    plumb_fall_spec spec = c->spec;
-    plumb_atm_spec as = c->atm_spec;
-    double *f = plumbp_key_field(c->k, &spec, &as, c->device);
-    *f = x;
-    if (c->k->effects & PLUMBP_KEY_DRAG)
-        spec.drag.cd_area_m2 = spec.drag.area_m2 > 0.0 ? spec.drag.cd * spec.drag.area_m2
-                                                       : spec.drag.cd_area_m2;
+    plumb_atmosphere *atm = NULL;
+    st = plumb_atmosphere_alloc(plumb_profile_atmosphere(p), &atm, &d);
+    if (st != PLUMB_OK) {
+        if (p != c->own_tmpl)
+            plumb_profile_free(p);
+        return eval_refused(c, st, &d);
+    }
+    plumb_fall_result r;
+    st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);
+    plumb_atmosphere_free(atm);
+    if (p != c->own_tmpl)
+        plumb_profile_free(p);
+    return eval_done(c, st, &r, &d);
+}
+
+/* One fall at key = x on copies of the template's spec and air (io/vary.h):
+ * the same double the loader would have stored from "KEY=x SI-unit" (the
+ * SI unit converts to itself exactly), checked as the loader checks it; the
+ * air built again only for a key that changes it. A value a copy refuses,
+ * or air that cannot be made, goes through the loader for its own
+ * diagnostic. */
+static double eval_fast(solver_ctx *c, double x)
+{
+    size_t n = plumb_profile_item_count(c->tmpl);
+    memcpy(c->work, plumb_profile_item(c->tmpl, 0), n * sizeof *c->work);
+    plumb_atm_spec as = *plumb_profile_atmosphere(c->tmpl);
+    if (!plumbp_vary_set(&c->vary, x, c->work, n, &as))
+        return eval_slow(c, x);
+    const plumb_fall_spec *spec = &c->work[c->item];
+    plumb_diag d;
+    plumb_diag_clear(&d);
     plumb_fall_result r;
     plumb_status st;
-    if (c->k->effects & PLUMBP_KEY_AIR) {
+    if (plumbp_vary_air(&c->vary)) {
         plumb_atmosphere *atm = NULL;
         st = plumb_atmosphere_alloc(&as, &atm, &d);
-        if (st != PLUMB_OK)
+        if (st == PLUMB_ENOMEM)
             return eval_refused(c, st, &d);
-        st = plumb_trajectory_run(c->traj, &spec, atm, &r, &d);
+        if (st != PLUMB_OK)
+            return eval_slow(c, x);
+        st = plumb_trajectory_run(c->traj, spec, atm, &r, &d);
         plumb_atmosphere_free(atm);
     } else {
-        st = plumb_trajectory_run(c->traj, &spec, c->atm, &r, &d);
+        st = plumb_trajectory_run(c->traj, spec, c->atm, &r, &d);
     }
     return eval_done(c, st, &r, &d);
 }
@@ -257,30 +321,7 @@ static double eval_at(double x, void *params)
                                   "no answer within %zu falls", c->max_evals);
         return NAN;
     }
-    if (c->k)
-        return eval_fast(c, x);
-    char set[PLUMB_DIAG_KEY + 64];
-    const char *unit = plumb_dim_si_unit(c->dim);
-    int bare = !*unit || strcmp(unit, "1") == 0;
-    snprintf(set, sizeof set, "%s=%.17g%s%s", c->set_key, x, bare ? "" : " ", bare ? "" : unit);
-    const char *sets[1] = {set};
-    plumb_profile *p = NULL;
-    plumb_diag d;
-    plumb_diag_clear(&d);
-    plumb_status st = plumb_profile_derive(c->profile, c->units, sets, 1, &p, &d);
-    if (st != PLUMB_OK)
-        return eval_refused(c, st, &d);
-    plumb_atmosphere *atm = NULL;
-    st = plumb_atmosphere_alloc(plumb_profile_atmosphere(p), &atm, &d);
-    if (st != PLUMB_OK) {
-        plumb_profile_free(p);
-        return eval_refused(c, st, &d);
-    }
-    plumb_fall_result r;
-    st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);
-    plumb_atmosphere_free(atm);
-    plumb_profile_free(p);
-    return eval_done(c, st, &r, &d);
+    return c->fast ? eval_fast(c, x) : eval_slow(c, x);
 }
 
 /* Brent's method on [a, b] (f(a), f(b) of opposite signs) to rel_tol. The
@@ -327,9 +368,9 @@ static double scan_value(const key_range *r, double lo, double hi, size_t i, siz
     return lo + f * (hi - lo);
 }
 
-static plumb_status solve(solver_ctx *c_, const char *key, double limit,
-                          const plumb_limit_options *opt, double base, const key_range *r_,
-                          plumb_limit_result *res);
+static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
+                          plumb_metric metric, double limit, const plumb_limit_options *opt,
+                          double base, const key_range *r_, plumb_limit_result *res);
 
 plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
                                size_t item, const char *key, plumb_metric metric, double limit,
@@ -381,47 +422,36 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     }
     const plumb_fall_spec *spec = plumb_profile_item(profile, item);
     key_range r = range_of(key, dim, spec, base);
-    /* The fast path: a key that is one double of the resolved spec or air,
-     * checked against no other key, in a single-payload profile. Others
-     * (derived keys, rows of tables, keys the loader checks against
-     * others) go through plumb_profile_derive. */
-    plumb_atmosphere *own_atm = NULL;
-    const plumbp_key *k = plumbp_key_find(key, &c.device, NULL);
-    if (k && !plumb_profile_is_inventory(profile) && !(k->effects & PLUMBP_KEY_CHECKED) &&
-        (k->home == PLUMBP_HOME_SPEC || k->home == PLUMBP_HOME_DEVICE ||
-         k->home == PLUMBP_HOME_AIR)) {
-        c.spec = *spec;
-        c.atm_spec = *plumb_profile_atmosphere(profile);
-        if (plumbp_key_field(k, &c.spec, &c.atm_spec, c.device)) {
-            if (!(k->effects & PLUMBP_KEY_AIR)) {
-                st = plumb_atmosphere_alloc(&c.atm_spec, &own_atm, diag);
-                if (st != PLUMB_OK)
-                    return st;
-                c.atm = own_atm;
-            }
-            c.k = k;
-        }
-    }
-    st = solve(&c, key, limit, opt, base, &r, res);
-    plumb_atmosphere_free(own_atm);
+    /* The fast path (io/vary.h): the key set on copies of the resolved
+     * specs of the first profile the loader derives with it (the first
+     * evaluation), or of a profile built in code, which has no text.
+     * Keys it cannot set go through plumb_profile_derive every time. */
+    st = plumbp_vary_is_template(profile) ? take_template(&c, profile, NULL) : PLUMB_OK;
+    if (st == PLUMB_OK)
+        st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
+    plumb_atmosphere_free(c.atm);
+    free(c.work);
+    plumb_profile_free(c.own_tmpl);
     return st;
 }
 
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
-static plumb_status solve(solver_ctx *c_, const char *key, double limit,
-                          const plumb_limit_options *opt, double base, const key_range *r_,
-                          plumb_limit_result *res)
+static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
+                          plumb_metric metric, double limit, const plumb_limit_options *opt,
+                          double base, const key_range *r_, plumb_limit_result *res)
 {
-    solver_ctx c = *c_;
     key_range r = *r_;
-    plumb_diag *diag = c.diag;
+    plumb_diag *diag = c->diag;
     plumb_status st;
-    res->dim = c.dim;
+    plumb_dim dim = c->dim;
+    (void)profile;
+    (void)metric;
+    res->dim = dim;
     res->base_value_si = base;
 
-    double f0 = eval_at(base, &c);
-    if (c.fail != PLUMB_OK)
-        return c.fail;
+    double f0 = eval_at(base, c);
+    if (c->fail != PLUMB_OK)
+        return c->fail;
     if (isnan(f0) && diag && plumb_status_is_input_error(diag->status))
         return diag->status; /* the profile cannot be re-made at its own value (built in code) */
     if (isnan(f0))
@@ -443,9 +473,9 @@ static plumb_status solve(solver_ctx *c_, const char *key, double limit,
             }
             base_done = 1;
         }
-        double fx = eval_at(x, &c);
-        if (c.fail != PLUMB_OK)
-            return c.fail;
+        double fx = eval_at(x, c);
+        if (c->fail != PLUMB_OK)
+            return c->fail;
         if (isnan(fx))
             continue; /* refused by the profile: outside its range */
         xs[n] = x;
@@ -460,12 +490,12 @@ static plumb_status solve(solver_ctx *c_, const char *key, double limit,
         if ((fs[i - 1] > 0.0) == (fs[i] > 0.0))
             continue;
         double root = NAN;
-        st = brent(&c, xs[i - 1], fs[i - 1], xs[i], fs[i], opt->rel_tol, &root);
+        st = brent(c, xs[i - 1], fs[i - 1], xs[i], fs[i], opt->rel_tol, &root);
         if (st != PLUMB_OK)
             return st;
         res->crossings_si[res->n_crossings++] = root;
     }
-    res->evaluations = c.evals;
+    res->evaluations = c->evals;
     res->within_at_low_end = fs[0] <= 0.0;
     res->scan_lo_si = x_lo;
     res->scan_hi_si = x_hi;
@@ -493,10 +523,10 @@ static plumb_status solve(solver_ctx *c_, const char *key, double limit,
             best = k;
     }
     double root = res->crossings_si[best];
-    double froot = eval_at(root, &c);
-    res->evaluations = c.evals;
-    if (c.fail != PLUMB_OK)
-        return c.fail;
+    double froot = eval_at(root, c);
+    res->evaluations = c->evals;
+    if (c->fail != PLUMB_OK)
+        return c->fail;
     res->outcome = PLUMB_LIMIT_FOUND;
     res->value_si = root;
     res->metric_at_value = froot + limit;

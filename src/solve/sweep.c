@@ -1,7 +1,13 @@
 /*
  * sweep.c - ranges of an input and the table of falls over them
- * (include/plumb/sweep.h). Every row is a profile derived with the row's
- * values as --set texts, so it is exactly what `plumb fall` gives.
+ * (include/plumb/sweep.h). Every row is exactly what `plumb fall --set`
+ * gives at its values. The first row the loader can make is derived from
+ * the row's values as --set texts (plumb_profile_derive); it is the
+ * template of the others, which set the values on copies of its resolved
+ * specs (io/vary.h), with the air rebuilt only for a key that changes it.
+ * A row goes through the loader again when a key cannot be set on a copy
+ * (see io/vary.h for which) or when the copy refuses the value, so that
+ * its diagnostic is the loader's own.
  */
 #include <ctype.h>
 #include <math.h>
@@ -12,6 +18,7 @@
 #include "plumb/sweep.h"
 #include "plumb/atmosphere.h"
 #include "core/internal.h"
+#include "io/vary.h"
 #include "solve/sweep_internal.h"
 
 /* Digits a range value is written with: enough for any value a user types,
@@ -24,8 +31,15 @@ struct plumb_sweep {
     size_t n_rows;
     size_t n_failed;            /* rows without figures (status != PLUMB_OK) */
     plumb_sweep_row *rows;
-    plumb_profile **profiles;   /* one per row, owned */
-    plumb_atmosphere **atms;    /* one per row, owned (verdict warnings use it) */
+    plumb_profile **profiles;   /* one per row, owned (the template's row: see tmpl) */
+    plumb_atmosphere **atms;    /* one per row, owned unless it is `air` (verdict warnings
+                                   use it) */
+    /* rows varied on copies (io/vary.h) */
+    plumb_profile *tmpl;        /* the first row the loader made, owned; NULL before */
+    int fast;                   /* 1: every axis is set on copies of tmpl's specs */
+    plumbp_vary vary[PLUMB_MAX_AXES];
+    plumb_fall_spec *work;      /* tmpl's items, copied and varied row by row */
+    plumb_atmosphere *air;      /* tmpl's air, owned: rows whose keys leave the air share it */
     /* the boundary of a two-way sweep (sweep_boundary.c), owned */
     size_t n_bcrit, b_item;
     const plumb_criterion *bcrit[PLUMB_MAX_VERDICTS];
@@ -211,11 +225,14 @@ void plumb_sweep_free(plumb_sweep *s)
     for (size_t i = 0; i < s->n_rows; i++) {
         if (s->rows)
             free(s->rows[i].report.items);
-        if (s->profiles)
+        if (s->profiles && s->profiles[i] != s->tmpl)
             plumb_profile_free(s->profiles[i]);
-        if (s->atms)
+        if (s->atms && s->atms[i] != s->air)
             plumb_atmosphere_free(s->atms[i]);
     }
+    plumb_profile_free(s->tmpl);
+    plumb_atmosphere_free(s->air);
+    free(s->work);
     free(s->rows);
     free(s->profiles);
     free(s->atms);
@@ -262,20 +279,93 @@ const plumb_sweep_boundary *plumb_sweep_boundary_at(const plumb_sweep *s, size_t
     return &s->bounds[i0 * s->n_bcrit + k];
 }
 
-/* Runs one row; its derived profile and atmosphere go into the sweep.
- * A row that cannot be computed (a value out of range, a fall that never
- * lands ...) keeps its status and diagnostic in the row, no figures, and
- * returns PLUMB_OK; only running out of memory stops the sweep. */
+/* Row r's profile and air through the loader, from its values as --set
+ * texts; the first profile it makes becomes the template of the rows
+ * after it. Returns the row's status (rd says why it is not PLUMB_OK). */
+static plumb_status derive_row(plumb_sweep *s, size_t r, const plumb_profile *base,
+                               const plumb_units *units, plumb_diag *rd)
+{
+    char sets[PLUMB_MAX_AXES][PLUMB_DIAG_KEY + 64];
+    const char *set_ptrs[PLUMB_MAX_AXES];
+    for (size_t a = 0; a < s->n_axes; a++) {
+        plumb_range_set_text(&s->axes[a], s->rows[r].index[a], sets[a], sizeof sets[a]);
+        set_ptrs[a] = sets[a];
+    }
+    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], rd);
+    if (st != PLUMB_OK && strcmp(rd->file, "--set") == 0) {
+        /* the override is the sweep's own, made from --vary */
+        plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
+        rd->line = rd->col = 0;
+    }
+    if (st != PLUMB_OK)
+        return st;
+    if (!s->tmpl) {
+        const plumb_profile *p = s->profiles[r];
+        s->tmpl = s->profiles[r];
+        s->fast = 1;
+        for (size_t a = 0; a < s->n_axes; a++)
+            s->fast = s->fast && plumbp_vary_init(&s->vary[a], p, s->axes[a].key);
+        if (s->fast && !(s->work = malloc(plumb_profile_item_count(p) * sizeof *s->work)))
+            return PLUMB_RAISE(rd, PLUMB_ENOMEM, "out of memory");
+    }
+    return plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], rd);
+}
+
+/* Row r's profile and air set on copies of the template's (io/vary.h).
+ * *done 0: the row is to go through the loader instead (a value a copy
+ * refuses, air that cannot be made: the loader's diagnostic is wanted).
+ * Returns PLUMB_OK, or PLUMB_ENOMEM (in rd). */
+static plumb_status vary_row(plumb_sweep *s, size_t r, int *done, plumb_diag *rd)
+{
+    const plumb_profile *t = s->tmpl;
+    size_t n = plumb_profile_item_count(t);
+    int air = 0;
+    *done = 0;
+    memcpy(s->work, plumb_profile_item(t, 0), n * sizeof *s->work);
+    plumb_atm_spec as = *plumb_profile_atmosphere(t);
+    for (size_t a = 0; a < s->n_axes; a++) {
+        if (!plumbp_vary_set(&s->vary[a], s->rows[r].value_si[a], s->work, n, &as))
+            return PLUMB_OK;
+        air = air || plumbp_vary_air(&s->vary[a]);
+    }
+    plumb_atmosphere *atm = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st;
+    if (air) {
+        st = plumb_atmosphere_alloc(&as, &atm, &d);
+    } else {
+        st = s->air ? PLUMB_OK : plumb_atmosphere_alloc(&as, &s->air, &d);
+        atm = s->air;
+    }
+    if (st == PLUMB_ENOMEM) {
+        if (rd)
+            *rd = d;
+        return st;
+    }
+    if (st != PLUMB_OK)
+        return PLUMB_OK;
+    st = plumbp_profile_variant(t, s->work, &as, &s->profiles[r], rd);
+    if (st != PLUMB_OK) {
+        if (atm != s->air)
+            plumb_atmosphere_free(atm);
+        return st;
+    }
+    s->atms[r] = atm;
+    *done = 1;
+    return PLUMB_OK;
+}
+
+/* Runs one row; its profile and atmosphere go into the sweep. A row that
+ * cannot be computed (a value out of range, a fall that never lands ...)
+ * keeps its status and diagnostic in the row, no figures, and returns
+ * PLUMB_OK; only running out of memory stops the sweep. */
 static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
                             const plumb_units *units, const plumb_criteria *crit,
                             plumb_trajectory *traj, plumb_diag *diag)
 {
     plumb_sweep_row *row = &s->rows[r];
-    char sets[PLUMB_MAX_AXES][PLUMB_DIAG_KEY + 64];
-    const char *set_ptrs[PLUMB_MAX_AXES];
     for (size_t a = 0; a < s->n_axes; a++) {
-        plumb_range_set_text(&s->axes[a], row->index[a], sets[a], sizeof sets[a]);
-        set_ptrs[a] = sets[a];
         row->value[a] = plumb_range_value(&s->axes[a], row->index[a]);
         plumb_status vs = plumb_range_value_si(&s->axes[a], units, row->index[a],
                                                &row->value_si[a], diag);
@@ -284,14 +374,10 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
     }
     plumb_diag *rd = &row->error;
     plumb_diag_clear(rd);
-    plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], rd);
-    if (st != PLUMB_OK && strcmp(rd->file, "--set") == 0) {
-        /* the override is the sweep's own, made from --vary */
-        plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
-        rd->line = rd->col = 0;
-    }
-    if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], rd);
+    int done = 0;
+    plumb_status st = s->fast ? vary_row(s, r, &done, rd) : PLUMB_OK;
+    if (st == PLUMB_OK && !done)
+        st = derive_row(s, r, base, units, rd);
     const plumb_profile *p = s->profiles[r];
     size_t n = st == PLUMB_OK ? plumb_profile_item_count(p) : 0;
     if (st == PLUMB_OK) {
@@ -324,11 +410,14 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         if (rd->status == PLUMB_OK)
             rd->status = st;
         row->status = st;
-        /* no figures for this row: its profile and air go too */
+        /* no figures for this row: its profile and air go too (the
+         * template stays for the rows after it) */
         free(row->report.items);
         memset(&row->report, 0, sizeof row->report);
-        plumb_atmosphere_free(s->atms[r]);
-        plumb_profile_free(s->profiles[r]);
+        if (s->atms[r] != s->air)
+            plumb_atmosphere_free(s->atms[r]);
+        if (s->profiles[r] != s->tmpl)
+            plumb_profile_free(s->profiles[r]);
         s->atms[r] = NULL;
         s->profiles[r] = NULL;
         s->n_failed++;
