@@ -43,9 +43,11 @@ SHEET_PKGS := cairo pangocairo
 UDUNITS_INC ?= -I/usr/include/udunits2
 
 # The version is written once, in include/plumb/version.h; the shared
-# object is libplumb.so.VERSION with the SONAME libplumb.so.MAJOR.
+# object is libplumb.so.VERSION with the SONAME libplumb.so.MAJOR, and
+# while MAJOR is 0 (no stable ABI yet) libplumb.so.0.MINOR: a 0.x release
+# that breaks the ABI raises the minor number.
 VERSION   := $(shell sed -n 's/^\#define PLUMB_VERSION "\([0-9.]*\)"$$/\1/p' include/plumb/version.h)
-SOMAJOR   := $(firstword $(subst ., ,$(VERSION)))
+SOMAJOR   := $(if $(filter 0,$(word 1,$(subst ., ,$(VERSION)))),0.$(word 2,$(subst ., ,$(VERSION))),$(word 1,$(subst ., ,$(VERSION))))
 SONAME    := libplumb.so.$(SOMAJOR)
 
 WARN := -Wall -Wextra -Werror -Wshadow -Wconversion -Wstrict-prototypes \

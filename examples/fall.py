@@ -11,7 +11,7 @@ energy are printed, full precision, one line per payload.
 
 PROFILE defaults to profiles/demo/hand-tool.yaml. The library is --lib, else
 $PLUMB_LIB, else build/libplumb.so of this source tree, else the installed
-libplumb.so.0. An error is printed as plumb prints it (file:line:col: key:
+libplumb.so. An error is printed as plumb prints it (file:line:col: key:
 message) and exits 2 for bad input, 3 for a failed computation.
 """
 import ctypes
@@ -77,7 +77,7 @@ class FallResult(ctypes.Structure):
 def load_library(path=None):
     """Opens libplumb and declares the functions used here."""
     candidates = [path, os.environ.get("PLUMB_LIB"),
-                  os.path.join(ROOT, "build", "libplumb.so"), "libplumb.so.0"]
+                  os.path.join(ROOT, "build", "libplumb.so"), "libplumb.so"]
     last = None
     for c in candidates:
         if not c or (os.sep in c and not os.path.exists(c)):

@@ -35,6 +35,8 @@ cc=${CC:-cc}
 
 ver=$(sed -n 's/^#define PLUMB_VERSION "\([0-9.]*\)"$/\1/p' include/plumb/version.h)
 major=${ver%%.*}
+# while the major is 0, the SONAME carries the minor too (Makefile, SOMAJOR)
+if [ "$major" = 0 ]; then rest=${ver#*.}; major=0.${rest%%.*}; fi
 soname=libplumb.so.$major
 
 # ---- the shared object and its links ------------------------------------------
