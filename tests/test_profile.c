@@ -604,7 +604,8 @@ static const bad_case bad_cases[] = {
     {"test_an_item_past_the_end_counts_from_one",
      "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
      "@@items[4].mass=0.4 kg", PLUMB_ERANGE, "items[4].mass",
-     "index 4 is past the end: 'items' has 2 items (the next is [3])"},
+     "items[4] is past the end: counted as the profile is written, with any item a --set "
+     "added, there are 2 items (the next is items[3])"},
     {"test_an_unknown_item_name_suggests_the_nearest",
      "items:\n" ITEM("spanner", "0.43 kg") ITEM("box of M12 bolts", "2.6 kg") RELEASE,
      "@@items[box of M12 bolt].mass=2.4 kg", PLUMB_EKEY, "items[box of M12 bolt].mass",
