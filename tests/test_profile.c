@@ -614,9 +614,10 @@ static const bad_case bad_cases[] = {
     {"test_an_item_name_without_its_bracket_is_refused",
      "items:\n" ITEM("spanner", "0.43 kg") RELEASE, "items[@@spanner.mass=0.4 kg", PLUMB_EPARSE,
      "items[spanner.mass", "expected items[N], N from 1, or items[NAME]: no closing ']'"},
-    {"test_an_item_of_a_single_payload_profile_starts_at_one", GOOD,
-     "@@items[2].mass=0.4 kg", PLUMB_ERANGE, "items[2].mass",
-     "'items' has no items yet: the first one is items[1]"},
+    {"test_an_item_of_a_single_payload_profile_is_refused_at_the_set", GOOD,
+     "@@items[2].mass=0.4 kg", PLUMB_EKEY, "items[2].mass",
+     "the profile has a single payload (payload: at line 1), not items: set its keys as "
+     "payload.X, here payload.mass"},
     {"test_override_past_the_end_of_a_list_is_refused", GOOD, "@@descent[1].cd=0.8", PLUMB_ERANGE,
      "descent[1].cd", "no items yet"},
     {"test_override_below_a_single_value_is_refused", GOOD, "release.height.@@x=1", PLUMB_EKEY,

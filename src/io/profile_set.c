@@ -413,24 +413,36 @@ static const struct { const char *parent, *key, *drops[2]; } alternatives[] = {
     {"deploy", "after", {"below", NULL}},
     {"deploy", "below", {"after", NULL}},
     {"drag", "cd_area", {"cd", "area"}},
+    {"payload", "drag", {"shape", NULL}},
+    {"payload", "shape", {"drag", NULL}},
+    {"items", "drag", {"shape", NULL}},
+    {"items", "shape", {"drag", NULL}},
 };
 
+/* Drops what the key of kp stands instead of, and what any key on its way
+ * does (payload.shape.kind replaces the profile's payload.drag). */
 static void drop_alternatives(plumby_node *root, const keypath *kp)
 {
-    if (kp->n < 2)
-        return;
-    const kseg *last = &kp->seg[kp->n - 1], *parent = &kp->seg[kp->n - 2];
-    if (last->index != KSEG_NONE)
-        return;
-    for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
-        if (strcmp(alternatives[i].key, last->name) != 0 ||
-            strcmp(alternatives[i].parent, parent->name) != 0)
+    for (size_t n = 2; n <= kp->n; n++) {
+        const kseg *last = &kp->seg[n - 1], *parent = &kp->seg[n - 2];
+        if (last->index != KSEG_NONE)
             continue;
-        for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
-            keypath other = *kp;
-            plumbp_strlcpy(other.seg[kp->n - 1].name, alternatives[i].drops[k],
-                           sizeof other.seg[kp->n - 1].name);
-            tree_remove(root, &other);
+        for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
+            if (strcmp(alternatives[i].key, last->name) != 0 ||
+                strcmp(alternatives[i].parent, parent->name) != 0)
+                continue;
+            /* only where the key path itself is the alternative's map */
+            if (strcmp(parent->name, "payload") == 0 && n != 2)
+                continue;
+            if (strcmp(parent->name, PLUMBY_ITEMS_KEY) == 0 && n != 2)
+                continue;
+            for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
+                keypath other = *kp;
+                other.n = n;
+                plumbp_strlcpy(other.seg[n - 1].name, alternatives[i].drops[k],
+                               sizeof other.seg[n - 1].name);
+                tree_remove(root, &other);
+            }
         }
     }
 }
@@ -557,6 +569,40 @@ static plumb_status slot_resolve(plumbp_set_items *nb, plumby_node *root, keypat
                        k + 1);
 }
 
+/* Refuses a --set of payload.X on an inventory, and of items[N].X on a
+ * profile of one payload: the schema would blame the file's own key, far
+ * from the --set that is wrong. */
+static plumb_status check_payload_or_items(plumby_node *root, const keypath *kp,
+                                           const char *key, int line, plumb_diag *diag)
+{
+    if (root->kind != PLUMBY_MAP)
+        return PLUMB_OK;
+    const kseg *s = &kp->seg[0];
+    const plumby_pair *items = plumby_find(root, PLUMBY_ITEMS_KEY);
+    const plumby_pair *payload = plumby_find(root, "payload");
+    const char *rest = kp->n > 1 ? strchr(key, '.') + 1 : NULL;
+    if (strcmp(s->name, "payload") == 0 && items && !payload) {
+        if (rest)
+            return set_raise(diag, PLUMB_EKEY, line, 1, key,
+                             "the profile is an inventory (items: at line %d), with no single "
+                             "payload: set one item's %s with items[N].%s (N from 1, as the "
+                             "report numbers them) or items[NAME].%s; remove items (--set "
+                             "items=~) first to give one payload instead",
+                             items->line, rest, rest, rest);
+        return set_raise(diag, PLUMB_EKEY, line, 1, key,
+                         "the profile is an inventory (items: at line %d): a payload is not "
+                         "used together with items; remove items (--set items=~) first to give "
+                         "one payload instead",
+                         items->line);
+    }
+    if (strcmp(s->name, PLUMBY_ITEMS_KEY) == 0 && payload && !items && s->index != KSEG_NONE)
+        return set_raise(diag, PLUMB_EKEY, line, 1, key,
+                         "the profile has a single payload (payload: at line %d), not items: "
+                         "set its keys as payload.X%s%s",
+                         payload->line, rest ? ", here payload." : "", rest ? rest : "");
+    return PLUMB_OK;
+}
+
 /* Applies the override `arg`, the line-th --set (counted from 1). */
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
                                       plumbp_set_items *numbering, plumb_diag *diag)
@@ -578,6 +624,8 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
     if (st != PLUMB_OK)
         return st;
     int on_items = strcmp(kp.seg[0].name, PLUMBY_ITEMS_KEY) == 0;
+    if ((st = check_payload_or_items(root, &kp, key, line, diag)) != PLUMB_OK)
+        return st;
     int whole_item = on_items && kp.n == 1 && kp.seg[0].index != KSEG_NONE;
     plumby_node *target = NULL;
     long slot = -1;

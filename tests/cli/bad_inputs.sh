@@ -136,6 +136,33 @@ refused "limit --find items[2].mass" "items[2].mass: " "find payload.mass instea
   -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
+# a --set of drag stands instead of the file's shape and the other way round
+# (README: a key given instead of another replaces it); an error in its own
+# value is at --set, and payload.X on an inventory names the --set (issue 9)
+printf 'name: rod (invented)\npayload:\n  mass: 0.5 kg\n  shape: {kind: cylinder, length: 0.3 m, diameter: 0.02 m}\nrelease: {height: 10 m}\n' \
+  >"$tmp/shape.yaml"
+refused "--set drag over a shape, with a bad unit in it" "plumb: --set:1:28: payload.drag.area: " \
+  -- fall "$tmp/shape.yaml" --set "payload.drag={cd: 1, area: 5 KG}" --format json
+refused "--set shape over a drag, with a bad unit in it" "plumb: --set:1:40: payload.shape.diameter: " \
+  -- fall "$good" --set "payload.shape={kind: sphere, diameter: 5 KG}" --format json
+refused "--set payload.mass on an inventory" "plumb: --set:1:1: payload.mass: " \
+  "items[N].mass" "items[NAME].mass" -- fall "$inv" --set "payload.mass=1 kg" --format json
+refused "--set items[1].mass on a single payload" "plumb: --set:1:1: items[1].mass: " \
+  "payload.mass" -- fall "$good" --set "items[1].mass=1 kg" --format json
+for s in "payload.drag={cd: 1, area: 0.0105 m^2}" "payload.drag.cd_area=0.0105 m^2"; do
+  if "$bin" fall "$tmp/shape.yaml" --set "$s" --format json >"$tmp/stdout" 2>"$tmp/stderr" &&
+     grep -q '"cd_area_m2": 0.0105' "$tmp/stdout"; then
+    pass=$((pass + 1))
+  else
+    bad "--set '$s' over a shape: $(cat "$tmp/stderr")"
+  fi
+done
+if "$bin" fall "$good" --set "payload.shape.kind=sphere" --set "payload.shape.diameter=0.05 m" \
+   >"$tmp/stdout" 2>"$tmp/stderr" && grep -q "sphere of diameter 0.05 m" "$tmp/stdout"; then
+  pass=$((pass + 1))
+else
+  bad "--set payload.shape.kind over a drag: $(cat "$tmp/stderr")"
+fi
 # with several --set, the error names which: the N-th --set is line N of
 # the "--set" pseudo-file (issue 9)
 refused "the second --set is wrong" "plumb: --set:2:14: payload.mass: " \
