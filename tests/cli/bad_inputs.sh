@@ -172,6 +172,26 @@ refused "the third --set names an unknown key" "plumb: --set:3:9: release.hieght
 # a compass letter on a direction says what a direction takes
 refused "--set a direction with a compass letter" "plumb: --set:1:11: wind.from: " \
   'a compass point alone ("NE")' -- fall "$good" --set "wind.from=54.2 N" --format json
+# a direction may be a compass point alone, as the latitude's message says
+# (issue 9): on the 16-point compass rose each point is 360/16 = 22.5 deg
+# clockwise from the one before, N = 0 (the rose's definition, common
+# practice, no source), so NE is 45 deg and SSW 202.5 deg: the report is
+# the same as for the degrees. A latitude is not a direction: refused.
+for pair in "NE:45 deg" "ssw:202.5 deg"; do
+  pt=${pair%%:*}
+  deg=${pair#*:}
+  "$bin" fall "$good" --set wind.speed=5m/s --set "wind.from=$pt" \
+    --set "release.velocity={speed: 1 m/s, heading: $pt}" --format json >"$tmp/pt.json" 2>"$tmp/stderr"
+  "$bin" fall "$good" --set wind.speed=5m/s --set "wind.from=$deg" \
+    --set "release.velocity={speed: 1 m/s, heading: $deg}" --format json >"$tmp/deg.json" 2>>"$tmp/stderr"
+  if [ -s "$tmp/pt.json" ] && cmp -s "$tmp/pt.json" "$tmp/deg.json"; then
+    pass=$((pass + 1))
+  else
+    bad "wind.from=$pt is not wind.from=$deg: $(cat "$tmp/stderr")"
+  fi
+done
+refused "--set a latitude to a compass point" "plumb: --set:1:15: site.latitude: " \
+  "a compass point names a direction" -- fall "$good" --set "site.latitude=NE" --format json
 # a criterion's id mistyped in --energy-max gets the nearest id (issue 9)
 refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
   "did you mean en397-shock-49j?" -- limit "$good" --find release.height --energy-max en397-shock --format json
