@@ -132,7 +132,7 @@ refused "--set an item by a name it does not have" "plumb: --set:1:1: items[glov
   "did you mean 'glove'?" -- fall "$inv" --set "items[glov].mass=0.4 kg" --format json
 refused "--vary items[0]" "items[0].mass: " "items are numbered from 1" \
   -- sweep "$inv" --vary "items[0].mass=0.1kg:0.3kg:0.1kg" --format json
-refused "limit --find items[2].mass" "items[2].mass: " "find payload.mass instead" \
+refused "limit --find items[2].mass" "<command line>: --find items[2].mass: " "find payload.mass instead" \
   -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
@@ -162,6 +162,27 @@ if "$bin" fall "$good" --set "payload.shape.kind=sphere" --set "payload.shape.di
   pass=$((pass + 1))
 else
   bad "--set payload.shape.kind over a drag: $(cat "$tmp/stderr")"
+fi
+# an error in what an option gave names that option (issue 9): an unknown
+# --vary or --find key, and a sheet's --samples too few for the zone's
+# confidence, also with the profile on standard input
+refused "--vary an unknown key" "plumb: <command line>: --vary release.heigth: " \
+  "did you mean 'release.height'?" -- sweep "$good" --vary "release.heigth=1m:3m:1m" --format json
+refused "limit --find an unknown key" "plumb: <command line>: --find release.heigth: " \
+  "did you mean 'release.height'?" -- limit "$good" --find release.heigth --energy-max 40J --format json
+refused "limit --find items[3].mass names --find" "plumb: <command line>: --find items[3].mass: " \
+  "find payload.mass instead" -- limit "$inv" --find "items[3].mass" --energy-max 40J --format json
+mkdir "$tmp/sheet-out"
+[ -x "$(dirname "$bin")/plumb-sheet" ] &&  # built with cairo and pango
+"$bin" sheet - --samples 300 -o "$tmp/sheet-out/x.pdf" <"$good" >"$tmp/stdout" 2>"$tmp/stderr"
+rc=$?
+[ -x "$(dirname "$bin")/plumb-sheet" ] || rc=skip
+if [ "$rc" = skip ]; then :
+elif [ $rc -eq 2 ] && [ -z "$(ls -A "$tmp/sheet-out")" ] &&
+   grep -q '^plumb: <command line>: --samples: 300 samples cannot bound' "$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "sheet - --samples 300: exit $rc, $(cat "$tmp/stderr")"
 fi
 # with several --set, the error names which: the N-th --set is line N of
 # the "--set" pseudo-file (issue 9)
