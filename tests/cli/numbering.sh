@@ -123,6 +123,18 @@ rc=$?
 if [ $rc -eq 2 ] && grep -q '^plumb: --set:2:1: items\[5\]\.mass: items\[5\] is past the end: .* there are 3 items' "$tmp/err"
 then ok; else bad "items[5] of three after items[1]=~: exit $rc, $(cat "$tmp/err")"; fi
 
+# ---- descent devices count from 0, as their keys do ------------------------
+# (issue 9) A device that does not open is named by its key: on the demo
+# canopy, a second device set to open 60 s after a release 90 m up is
+# descent[1]: under the first canopy the load sinks at about 6.5 m/s, so
+# it lands after roughly 90 / 6.5 = 14 s, long before.
+"$bin" fall profiles/demo/drone-canopy.yaml \
+  --set 'descent[1]={kind: drogue, cd: 0.5, area: 0.1 m^2, deploy: {after: 60 s}}' \
+  >"$tmp/out" 2>"$tmp/err"
+if grep -q "(descent\[1\]) does not open before impact" "$tmp/out" &&
+   ! grep -q "device [0-9]" "$tmp/out"; then ok
+else bad "the second device's warning: $(grep -i 'open' "$tmp/out") $(cat "$tmp/err")"; fi
+
 # ---- a failure names the item by its number from 1 ------------------------
 cat >"$tmp/buoy.yaml" <<'EOF'
 # invented: the second item is a balloon, 0.012 kg in 0.05 m^3 (about 0.06 kg
