@@ -580,7 +580,10 @@ static plumb_status check_payload_or_items(plumby_node *root, const keypath *kp,
     const kseg *s = &kp->seg[0];
     const plumby_pair *items = plumby_find(root, PLUMBY_ITEMS_KEY);
     const plumby_pair *payload = plumby_find(root, "payload");
-    const char *rest = kp->n > 1 ? strchr(key, '.') + 1 : NULL;
+    /* the key after its first part (past items[NAME], whose name may hold a '.') */
+    const char *after = s->index != KSEG_NONE ? strchr(key, ']') : key;
+    const char *dot = kp->n > 1 && after ? strchr(after, '.') : NULL;
+    const char *rest = dot ? dot + 1 : NULL;
     if (strcmp(s->name, "payload") == 0 && items && !payload) {
         if (rest)
             return set_raise(diag, PLUMB_EKEY, line, 1, key,
@@ -648,11 +651,7 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
             numbering->node[slot] = NULL;
             numbering->removed_by[slot] = line;
         } else if (on_items && kp.seg[0].index == KSEG_NONE && kp.n == 1) {
-            for (size_t k = 0; k < numbering->n; k++)
-                if (numbering->node[k]) {
-                    numbering->node[k] = NULL;
-                    numbering->removed_by[k] = line;
-                }
+            numbering->n = 0; /* no items: a later items[1] starts a new list */
         }
         return PLUMB_OK;
     }

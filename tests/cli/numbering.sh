@@ -123,6 +123,14 @@ rc=$?
 if [ $rc -eq 2 ] && grep -q '^plumb: --set:2:1: items\[5\]\.mass: items\[5\] is past the end: .* there are 3 items' "$tmp/err"
 then ok; else bad "items[5] of three after items[1]=~: exit $rc, $(cat "$tmp/err")"; fi
 
+# after the whole list is removed (items=~), items[1] starts a new one
+if "$bin" fall "$inv" --set 'items=~' \
+  --set 'items[1]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' --format json \
+  >"$tmp/new.json" 2>"$tmp/err" &&
+   "$py" -c 'import json,sys; i=json.load(open(sys.argv[1]))["items"]; assert [x["name"] for x in i] == ["torch"], i' \
+   "$tmp/new.json"; then ok
+else bad "items[1] after items=~: $(cat "$tmp/err")"; fi
+
 # ---- descent devices count from 0, as their keys do ------------------------
 # (issue 9) A device that does not open is named by its key: on the demo
 # canopy, a second device set to open 60 s after a release 90 m up is
