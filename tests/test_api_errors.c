@@ -166,18 +166,18 @@ static void test_a_fall_refuses_specs_that_break_its_contract(void **state)
     s.descent[0].cd = 0.0; /* 0 < cd <= 10 */
     s.descent[0].area_m2 = 0.95;
     assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
-    assert_string_equal(d.key, "descent");
+    assert_string_equal(d.key, "descent[0]"); /* numbered as the keys are (issue 9) */
 
     s.descent[0].cd = 0.78;
     s.descent[0].fill_time_s = -0.5;
     assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
-    assert_string_equal(d.key, "descent.fill_time");
+    assert_string_equal(d.key, "descent[0].fill_time");
 
     s.descent[0].fill_time_s = 0.6;
     s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
     s.descent[0].deploy_value = -1.0;
     assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
-    assert_string_equal(d.key, "descent.deploy.after");
+    assert_string_equal(d.key, "descent[0].deploy.after");
 
     spanner(&s);
     s.drag.model = PLUMB_DRAG_SPHERE_MORRISON; /* Morrison's Cd(Re) needs the diameter for Re */

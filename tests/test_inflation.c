@@ -165,6 +165,30 @@ static void canopy_spec(plumb_fall_spec *s, double m, double h)
     d->deploy_value = 0.0;
 }
 
+/* A bad second device is named as the profile's keys count devices,
+ * descent[1] (from 0, README "descent"), not "device 2" (issue 9). */
+static void test_a_bad_second_device_is_named_descent_1(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air_rho(1.225);
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(NULL, &w), PLUMB_OK);
+    plumb_fall_spec s;
+    canopy_spec(&s, 10.0, 400.0);
+    s.n_descent = 2;
+    s.descent[0].cd = 0.8;
+    s.descent[0].area_m2 = 1.0;
+    s.descent[1] = s.descent[0];
+    s.descent[1].opening_factor = -1.0; /* C_x must be >= 0 */
+    plumb_fall_result r;
+    plumb_diag dg;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &dg), PLUMB_EINVAL);
+    assert_string_equal(dg.key, "descent[1].opening_factor");
+    assert_null(strstr(dg.message, "device 2"));
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 /* Worked case, shared/references-physics.md 1c (computed there): 10 kg,
  * D0 2.0 m, C_D0 0.80, v_1 20 m/s, n 8, j 6, rho 1.225. Pflanz (no
  * gravity): A 0.40601, X_1 0.54719. Integrated as a vertical descent with
@@ -271,6 +295,7 @@ int main(void)
         cmocka_unit_test(test_x1_equals_the_largest_force_of_the_integrated_method),
         cmocka_unit_test(test_inflation_fraction_is_the_power_law_held_at_the_ends),
         cmocka_unit_test(test_canopy_table_carries_the_mapped_values),
+        cmocka_unit_test(test_a_bad_second_device_is_named_descent_1),
         cmocka_unit_test(test_vertical_fill_with_gravity_reaches_the_computed_peak),
         cmocka_unit_test(test_horizontal_fast_fill_integrates_to_the_pflanz_peak),
         cmocka_unit_test(test_exponent_zero_is_the_linear_fill),

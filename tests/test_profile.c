@@ -604,7 +604,8 @@ static const bad_case bad_cases[] = {
     {"test_an_item_past_the_end_counts_from_one",
      "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
      "@@items[4].mass=0.4 kg", PLUMB_ERANGE, "items[4].mass",
-     "index 4 is past the end: 'items' has 2 items (the next is [3])"},
+     "items[4] is past the end: counted as the profile is written, with any item a --set "
+     "added, there are 2 items (the next is items[3])"},
     {"test_an_unknown_item_name_suggests_the_nearest",
      "items:\n" ITEM("spanner", "0.43 kg") ITEM("box of M12 bolts", "2.6 kg") RELEASE,
      "@@items[box of M12 bolt].mass=2.4 kg", PLUMB_EKEY, "items[box of M12 bolt].mass",
@@ -613,9 +614,10 @@ static const bad_case bad_cases[] = {
     {"test_an_item_name_without_its_bracket_is_refused",
      "items:\n" ITEM("spanner", "0.43 kg") RELEASE, "items[@@spanner.mass=0.4 kg", PLUMB_EPARSE,
      "items[spanner.mass", "expected items[N], N from 1, or items[NAME]: no closing ']'"},
-    {"test_an_item_of_a_single_payload_profile_starts_at_one", GOOD,
-     "@@items[2].mass=0.4 kg", PLUMB_ERANGE, "items[2].mass",
-     "'items' has no items yet: the first one is items[1]"},
+    {"test_an_item_of_a_single_payload_profile_is_refused_at_the_set", GOOD,
+     "@@items[2].mass=0.4 kg", PLUMB_EKEY, "items[2].mass",
+     "the profile has a single payload (payload: at line 1), not items: set its keys as "
+     "payload.X, here payload.mass"},
     {"test_override_past_the_end_of_a_list_is_refused", GOOD, "@@descent[1].cd=0.8", PLUMB_ERANGE,
      "descent[1].cd", "no items yet"},
     {"test_override_below_a_single_value_is_refused", GOOD, "release.height.@@x=1", PLUMB_EKEY,

@@ -212,9 +212,9 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     "coefficient comes from; the table's end value is used.");
     for (size_t i = r->n_deployed; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
         add_warning(item,
-                    "The %s (device %zu) does not open before impact: the figures are those "
-                    "of a fall without it.", plumb_descent_kind_name(item->spec->descent[i].kind),
-                    i + 1);
+                    "The %s (descent[%zu]) does not open before impact: the figures are "
+                    "those of a fall without it.",
+                    plumb_descent_kind_name(item->spec->descent[i].kind), i);
     const plumb_glide_spec *gl = &item->spec->glide;
     char why[96] = "as the profile says";
     if (gl->from_shape)

@@ -155,18 +155,24 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
                           plumb_profile **out, plumb_diag *diag)
 {
     plumb_status st;
+    plumbp_set_items numbering;
+    memset(&numbering, 0, sizeof numbering);
     for (size_t i = 0; i < n_sets; i++) {
         if (!sets[i]) {
+            plumbp_set_items_free(&numbering);
             plumby_free(tree);
             return PLUMB_RAISE(diag, PLUMB_EINVAL, "override %zu is NULL", i);
         }
         if (tree->kind != PLUMBY_MAP)
             break; /* reported by the check below */
-        if ((st = plumbp_profile_apply_set(tree, sets[i], (int)i + 1, diag)) != PLUMB_OK) {
+        if ((st = plumbp_profile_apply_set(tree, sets[i], (int)i + 1, &numbering, diag)) !=
+            PLUMB_OK) {
+            plumbp_set_items_free(&numbering);
             plumby_free(tree);
             return st;
         }
     }
+    plumbp_set_items_free(&numbering);
     plumb_profile *p = calloc(1, sizeof *p);
     size_t plen = strlen(path);
     if (!p || !(p->path = malloc(plen + 1))) {

@@ -160,8 +160,22 @@ int plumbp_std_temperature_fails(double dt_k, double lo_m, double hi_m, double *
 /* profile_set.c */
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag);
+/* How the --set options of one command number an inventory's items: as
+ * the profile is written, before any --set removes or adds one, so that
+ * items[N] is the same item in every --set. Slot k is items[k + 1]: its
+ * node in the tree, or NULL once a --set removed it (removed_by, that
+ * --set's number); items a --set adds take the next slots. Zeroed before
+ * the first --set; plumbp_set_items_free frees it. */
+typedef struct plumbp_set_items {
+    int ready;
+    size_t n, cap;
+    plumby_node **node;
+    int *removed_by;
+} plumbp_set_items;
+
+void plumbp_set_items_free(plumbp_set_items *numbering);
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
-                                      plumb_diag *diag);
+                                      plumbp_set_items *numbering, plumb_diag *diag);
 
 /* profile_item.c */
 /* A fixed drag given as cd and area (area_m2 > 0: cd_area_m2 = cd x area)

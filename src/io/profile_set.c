@@ -413,24 +413,36 @@ static const struct { const char *parent, *key, *drops[2]; } alternatives[] = {
     {"deploy", "after", {"below", NULL}},
     {"deploy", "below", {"after", NULL}},
     {"drag", "cd_area", {"cd", "area"}},
+    {"payload", "drag", {"shape", NULL}},
+    {"payload", "shape", {"drag", NULL}},
+    {"items", "drag", {"shape", NULL}},
+    {"items", "shape", {"drag", NULL}},
 };
 
+/* Drops what the key of kp stands instead of, and what any key on its way
+ * does (payload.shape.kind replaces the profile's payload.drag). */
 static void drop_alternatives(plumby_node *root, const keypath *kp)
 {
-    if (kp->n < 2)
-        return;
-    const kseg *last = &kp->seg[kp->n - 1], *parent = &kp->seg[kp->n - 2];
-    if (last->index != KSEG_NONE)
-        return;
-    for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
-        if (strcmp(alternatives[i].key, last->name) != 0 ||
-            strcmp(alternatives[i].parent, parent->name) != 0)
+    for (size_t n = 2; n <= kp->n; n++) {
+        const kseg *last = &kp->seg[n - 1], *parent = &kp->seg[n - 2];
+        if (last->index != KSEG_NONE)
             continue;
-        for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
-            keypath other = *kp;
-            plumbp_strlcpy(other.seg[kp->n - 1].name, alternatives[i].drops[k],
-                           sizeof other.seg[kp->n - 1].name);
-            tree_remove(root, &other);
+        for (size_t i = 0; i < sizeof alternatives / sizeof alternatives[0]; i++) {
+            if (strcmp(alternatives[i].key, last->name) != 0 ||
+                strcmp(alternatives[i].parent, parent->name) != 0)
+                continue;
+            /* only where the key path itself is the alternative's map */
+            if (strcmp(parent->name, "payload") == 0 && n != 2)
+                continue;
+            if (strcmp(parent->name, PLUMBY_ITEMS_KEY) == 0 && n != 2)
+                continue;
+            for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
+                keypath other = *kp;
+                other.n = n;
+                plumbp_strlcpy(other.seg[n - 1].name, alternatives[i].drops[k],
+                               sizeof other.seg[n - 1].name);
+                tree_remove(root, &other);
+            }
         }
     }
 }
@@ -452,10 +464,154 @@ static void set_lines(plumby_node *n, int line)
     }
 }
 
+/* ---- one numbering of the items for every --set ------------------------ */
+
+void plumbp_set_items_free(plumbp_set_items *numbering)
+{
+    if (!numbering)
+        return;
+    free(numbering->node);
+    free(numbering->removed_by);
+    memset(numbering, 0, sizeof *numbering);
+}
+
+/* The top-level items list of root, or NULL. */
+static plumby_node *items_list(plumby_node *root)
+{
+    plumby_pair *pair = root->kind == PLUMBY_MAP ? plumby_find(root, PLUMBY_ITEMS_KEY) : NULL;
+    return pair && pair->value->kind == PLUMBY_SEQ ? pair->value : NULL;
+}
+
+static int slot_push(plumbp_set_items *nb, plumby_node *node)
+{
+    if (nb->n == nb->cap) {
+        size_t cap = nb->cap ? 2 * nb->cap : 16;
+        plumby_node **n2 = realloc(nb->node, cap * sizeof *n2);
+        if (!n2)
+            return -1;
+        nb->node = n2;
+        int *r2 = realloc(nb->removed_by, cap * sizeof *r2);
+        if (!r2)
+            return -1;
+        nb->removed_by = r2;
+        nb->cap = cap;
+    }
+    nb->node[nb->n] = node;
+    nb->removed_by[nb->n] = 0;
+    nb->n++;
+    return 0;
+}
+
+/* Takes the numbering from the items of root as they are now. */
+static int slots_capture(plumbp_set_items *nb, plumby_node *root)
+{
+    nb->n = 0;
+    nb->ready = 1;
+    const plumby_node *list = items_list(root);
+    for (size_t i = 0; list && i < list->n; i++)
+        if (slot_push(nb, list->items[i]) != 0)
+            return -1;
+    return 0;
+}
+
+/* The slot holding node, or -1. */
+static long slot_of(const plumbp_set_items *nb, const plumby_node *node)
+{
+    for (size_t k = 0; node && k < nb->n; k++)
+        if (nb->node[k] == node)
+            return (long)k;
+    return -1;
+}
+
+/* Turns a numbered items[N] of kp (N as the profile is written) into the
+ * item's place in the list now, or raises when that item is gone or N is
+ * past the end. *target is the item's node (NULL for one to be added). */
+static plumb_status slot_resolve(plumbp_set_items *nb, plumby_node *root, keypath *kp,
+                                 const char *key, int line, plumby_node **target,
+                                 plumb_diag *diag)
+{
+    kseg *s = &kp->seg[0];
+    plumby_node *list = items_list(root);
+    *target = NULL;
+    if (s->index == KSEG_NAMED) {
+        long at = list ? item_named(list, s->item) : -1;
+        if (at >= 0) {
+            *target = list->items[at];
+            s->index = at;
+        }
+        return PLUMB_OK;
+    }
+    size_t k = (size_t)s->index;
+    if (k < nb->n && !nb->node[k])
+        return set_raise(diag, PLUMB_EKEY, line, s->col, key,
+                         "items[%zu] was removed by --set %d; items[N] counts the items of the "
+                         "profile as written, before any --set removes or adds one, so every "
+                         "--set of a command means the same item by the same number",
+                         k + 1, nb->removed_by[k]);
+    if (k > nb->n && (list || nb->n > 0))
+        return set_raise(diag, PLUMB_ERANGE, line, s->col, key,
+                         "items[%zu] is past the end: counted as the profile is written, with "
+                         "any item a --set added, there %s %zu item%s (the next is items[%zu])",
+                         k + 1, nb->n == 1 ? "is" : "are", nb->n, nb->n == 1 ? "" : "s",
+                         nb->n + 1);
+    if (k >= nb->n) {
+        /* a new item, at the end (past it, with no list yet: tree_put says so) */
+        s->index = list ? (long)list->n : (long)k;
+        return PLUMB_OK;
+    }
+    *target = nb->node[k];
+    for (size_t i = 0; list && i < list->n; i++)
+        if (list->items[i] == *target) {
+            s->index = (long)i;
+            return PLUMB_OK;
+        }
+    return PLUMB_RAISE(diag, PLUMB_EINVAL, "--set %d: items[%zu] is lost from the list", line,
+                       k + 1);
+}
+
+/* Refuses a --set of payload.X on an inventory, and of items[N].X on a
+ * profile of one payload: the schema would blame the file's own key, far
+ * from the --set that is wrong. */
+static plumb_status check_payload_or_items(plumby_node *root, const keypath *kp,
+                                           const char *key, int line, plumb_diag *diag)
+{
+    if (root->kind != PLUMBY_MAP)
+        return PLUMB_OK;
+    const kseg *s = &kp->seg[0];
+    const plumby_pair *items = plumby_find(root, PLUMBY_ITEMS_KEY);
+    const plumby_pair *payload = plumby_find(root, "payload");
+    /* the key after its first part (past items[NAME], whose name may hold a '.') */
+    const char *after = s->index != KSEG_NONE ? strchr(key, ']') : key;
+    const char *dot = kp->n > 1 && after ? strchr(after, '.') : NULL;
+    const char *rest = dot ? dot + 1 : NULL;
+    if (strcmp(s->name, "payload") == 0 && items && !payload) {
+        if (rest)
+            return set_raise(diag, PLUMB_EKEY, line, 1, key,
+                             "the profile is an inventory (items: at line %d), with no single "
+                             "payload: set one item's %s with items[N].%s (N from 1, as the "
+                             "report numbers them) or items[NAME].%s; remove items (--set "
+                             "items=~) first to give one payload instead",
+                             items->line, rest, rest, rest);
+        return set_raise(diag, PLUMB_EKEY, line, 1, key,
+                         "the profile is an inventory (items: at line %d): a payload is not "
+                         "used together with items; remove items (--set items=~) first to give "
+                         "one payload instead",
+                         items->line);
+    }
+    if (strcmp(s->name, PLUMBY_ITEMS_KEY) == 0 && payload && !items && s->index != KSEG_NONE)
+        return set_raise(diag, PLUMB_EKEY, line, 1, key,
+                         "the profile has a single payload (payload: at line %d), not items: "
+                         "set its keys as payload.X%s%s",
+                         payload->line, rest ? ", here payload." : "", rest ? rest : "");
+    return PLUMB_OK;
+}
+
 /* Applies the override `arg`, the line-th --set (counted from 1). */
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
-                                      plumb_diag *diag)
+                                      plumbp_set_items *numbering, plumb_diag *diag)
 {
+    if (!numbering->ready && slots_capture(numbering, root) != 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory applying --set %d", line);
     const char *eq = strchr(arg, '=');
     if (!eq || eq == arg)
         return set_raise(diag, PLUMB_EPARSE, line, 1, "",
@@ -470,6 +626,17 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
     plumb_status st = plumbp_profile_keypath_resolve(key, &kp, PLUMBY_SET_FILE, line, diag);
     if (st != PLUMB_OK)
         return st;
+    int on_items = strcmp(kp.seg[0].name, PLUMBY_ITEMS_KEY) == 0;
+    if ((st = check_payload_or_items(root, &kp, key, line, diag)) != PLUMB_OK)
+        return st;
+    int whole_item = on_items && kp.n == 1 && kp.seg[0].index != KSEG_NONE;
+    plumby_node *target = NULL;
+    long slot = -1;
+    if (on_items && kp.seg[0].index != KSEG_NONE) {
+        if ((st = slot_resolve(numbering, root, &kp, key, line, &target, diag)) != PLUMB_OK)
+            return st;
+        slot = target ? slot_of(numbering, target) : -1;
+    }
     const char *val = eq + 1;
     int col0 = (int)klen + 1;
     if (strspn(val, " ") == strlen(val))
@@ -480,6 +647,12 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
         vlen--;
     if ((vlen == 1 && val[lead] == '~') || (vlen == 4 && strncmp(val + lead, "null", 4) == 0)) {
         tree_remove(root, &kp);
+        if (whole_item && slot >= 0) {
+            numbering->node[slot] = NULL;
+            numbering->removed_by[slot] = line;
+        } else if (on_items && kp.seg[0].index == KSEG_NONE && kp.n == 1) {
+            numbering->n = 0; /* no items: a later items[1] starts a new list */
+        }
         return PLUMB_OK;
     }
     plumby_node *node;
@@ -491,9 +664,23 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
     }
     set_lines(node, line);
     st = tree_put(root, &kp, key, node, diag);
-    if (st == PLUMB_OK)
-        drop_alternatives(root, &kp);
-    return st;
+    if (st != PLUMB_OK)
+        return st;
+    drop_alternatives(root, &kp);
+    if (on_items && kp.seg[0].index == KSEG_NONE && kp.n == 1) {
+        /* the whole list given: later --set options count it as given */
+        if (slots_capture(numbering, root) != 0)
+            return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory applying --set %d", line);
+    } else if (on_items && kp.seg[0].index != KSEG_NONE) {
+        plumby_node *list = items_list(root);
+        plumby_node *now = list && (size_t)kp.seg[0].index < list->n
+                               ? list->items[kp.seg[0].index] : NULL;
+        if (slot >= 0)
+            numbering->node[slot] = now; /* the same item, perhaps given anew */
+        else if (!target && now && slot_push(numbering, now) != 0)
+            return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory applying --set %d", line);
+    }
+    return PLUMB_OK;
 }
 
 /* ---- the unit a key was given in -------------------------------------- */

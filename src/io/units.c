@@ -560,7 +560,7 @@ static const char *const compass_points[16] = {
 };
 
 /* The bearing of a compass point written in text (any case), or -1. */
-static double compass_bearing(const char *text)
+double plumbp_units_compass_bearing(const char *text)
 {
     char up[8];
     size_t n = strlen(text);
@@ -615,11 +615,12 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
     errno = 0;
     double value = strtod(shown, &end);
     int err = errno;
-    double bearing = want == PLUMB_DIM_ANGLE ? compass_bearing(shown) : -1.0;
+    double bearing = want == PLUMB_DIM_ANGLE ? plumbp_units_compass_bearing(shown) : -1.0;
     if (end == shown && bearing >= 0.0)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected an angle (e.g. \"%s\"); found \"%s\": a direction is a "
-                           "number of degrees clockwise from north, so %s is \"%g deg\"",
+                           "expected an angle (e.g. \"%s\"); found \"%s\": a compass point "
+                           "names a direction (wind.from, release.velocity.heading take one); "
+                           "here give a number of degrees (as a direction, %s is \"%g deg\")",
                            dims[want].example, shown, shown, bearing);
     if (end == shown)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,

@@ -219,6 +219,10 @@ plumb_status plumbp_units_raise_wrong(const plumb_units *units, plumb_diag *diag
                                       const ut_unit *unit, const unit_shape *shape,
                                       const char *text, const char *shown, const char *number);
 
+/* The bearing in degrees of a 16-point compass point written alone ("NE",
+ * any case; N = 0, clockwise in steps of 22.5 deg), or -1. Can't fail. */
+double plumbp_units_compass_bearing(const char *text);
+
 /* Compass letters after an angle ("54.2 N", "3.1 deg W"): 1 for N or E,
  * -1 for S or W, 0 for anything else. */
 int plumbp_units_compass_letter(const char *unit);

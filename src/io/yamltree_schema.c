@@ -17,6 +17,7 @@
 #include "plumb/constants.h"
 #include "plumb/suggest.h"
 #include "io/keys.h"
+#include "io/units_int.h"
 #include "io/yamltree.h"
 
 /* ---- schema ------------------------------------------------------------ */
@@ -393,6 +394,14 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
     double v;
     plumb_dim dim = plumby_num_dim(s);
     plumby_range range = plumby_num_range(s);
+    /* a direction (an angle of any value: wind.from, a heading) may be a
+     * compass point alone, as people on site give it: "NE" is 45 deg */
+    double bearing = dim == PLUMB_DIM_ANGLE && range == PLUMBY_R_ANY && node->text
+                         ? plumbp_units_compass_bearing(node->text) : -1.0;
+    if (bearing >= 0.0) {
+        *out = bearing; /* angles are read in degrees (units.h) */
+        return PLUMB_OK;
+    }
     plumb_status st = plumby_quantity(ctx, node, dim, key, &v);
     if (st != PLUMB_OK)
         return st;

@@ -5,6 +5,7 @@
  * of a fall spec before a run.
  */
 #include <math.h>
+#include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -111,6 +112,14 @@ double plumbp_traj_body_cda(const plumb_drag_spec *d)
     return d->area_m2 > 0.0 ? d->cd * d->area_m2 : d->cd_area_m2;
 }
 
+/* The key of descent device i, numbered as the profile's keys count them
+ * (descent[0] is the first), with the rest of the key: "descent[1].area". */
+static const char *device_key(char *buf, size_t size, size_t i, const char *rest)
+{
+    snprintf(buf, size, "descent[%zu]%s", i, rest);
+    return buf;
+}
+
 plumb_status plumbp_traj_check_spec(const plumb_fall_spec *s, plumb_diag *diag)
 {
     const double *r = s->release_m, *v = s->velocity_m_s;
@@ -139,20 +148,21 @@ plumb_status plumbp_traj_check_spec(const plumb_fall_spec *s, plumb_diag *diag)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "at most %d descent devices", PLUMB_MAX_DESCENT);
     for (size_t i = 0; i < s->n_descent; i++) {
         const plumb_descent_spec *dv = &s->descent[i];
+        char k[48];
         if (!(dv->cd > 0.0 && dv->cd <= 10.0) || !(dv->area_m2 > 0.0) || !isfinite(dv->area_m2))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent", "device %zu needs 0 < cd <= 10 and area > 0", i + 1);
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, device_key(k, sizeof k, i, ""), "needs 0 < cd <= 10 and area > 0");
         if (!(dv->fill_time_s >= 0.0) || !(dv->fill_constant >= 0.0) || !isfinite(dv->fill_constant))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.fill_time", "device %zu: fill time and fill constant must be >= 0", i + 1);
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, device_key(k, sizeof k, i, ".fill_time"), "fill time and fill constant must be >= 0");
         if (!(dv->inflation_exponent >= 0.0 && dv->inflation_exponent <= PLUMB_INFLATION_J_MAX))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.inflation_exponent",
-                                   "device %zu: the inflation exponent must lie in 0 (linear) to %g",
-                                   i + 1, PLUMB_INFLATION_J_MAX);
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, device_key(k, sizeof k, i, ".inflation_exponent"),
+                                   "the inflation exponent must lie in 0 (linear) to %g",
+                                   PLUMB_INFLATION_J_MAX);
         if (!(dv->opening_factor >= 0.0) || !isfinite(dv->opening_factor))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.opening_factor", "device %zu: C_x must be >= 0", i + 1);
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, device_key(k, sizeof k, i, ".opening_factor"), "C_x must be >= 0");
         if (dv->trigger == PLUMB_DEPLOY_AFTER && !(dv->deploy_value >= 0.0))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.after", "deploy time must be >= 0 s");
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, device_key(k, sizeof k, i, ".deploy.after"), "deploy time must be >= 0 s");
         if (dv->trigger == PLUMB_DEPLOY_BELOW && !(dv->deploy_value > 0.0 && dv->deploy_value < r[2]))
-            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "descent.deploy.below",
+            return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, device_key(k, sizeof k, i, ".deploy.below"),
                                    "deploy height must lie between 0 m and the release height %g m, found %g m",
                                    r[2], dv->deploy_value);
     }

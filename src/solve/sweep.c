@@ -167,24 +167,29 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
 {
     const char *eq = strchr(text, '=');
     if (!eq || eq == text)
-        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, NULL,
+        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, "--vary",
                               "expected KEY=FROM:TO:STEP (e.g. release.height=2m:60m:2m), found '%s'",
                               text);
     char key[PLUMB_DIAG_KEY];
     size_t klen = (size_t)(eq - text);
     if (klen >= sizeof key)
-        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, NULL, "key too long");
+        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, "--vary",
+                              "the key of '%.40s...' is too long", text);
     memcpy(key, text, klen);
     key[klen] = '\0';
     plumb_dim dim;
-    plumb_status st = plumb_profile_key_dim(key, &dim, diag);
-    if (st != PLUMB_OK) {
-        if (diag && !diag->file[0])
-            plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
-        return st;
-    }
     char what[PLUMB_DIAG_KEY + 8];
     snprintf(what, sizeof what, "--vary %s", key);
+    plumb_status st = plumb_profile_key_dim(key, &dim, diag);
+    if (st != PLUMB_OK) {
+        /* the key is the option's: named as every other --vary error is */
+        if (diag && (!diag->file[0] || strcmp(diag->file, "<command line>") == 0)) {
+            plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
+            diag->line = diag->col = 0;
+            plumbp_strlcpy(diag->key, what, sizeof diag->key);
+        }
+        return st;
+    }
     st = plumb_range_parse(units, eq + 1, dim, what, out, diag);
     if (st == PLUMB_OK)
         plumbp_strlcpy(out->key, key, sizeof out->key);

@@ -78,6 +78,71 @@ else
   bad "sweep --vary items[3].mass: $(cat "$tmp/err")"
 fi
 
+# ---- items[N] is the same item in every --set of one command -------------
+# (issue 9) N counts the items of the profile as written: after
+# `items[2]=~` (the chain sling removed), `items[3]` is still the glove,
+# not the item that moved up into third place; a second use of items[2]
+# is refused, naming the --set that removed it.
+if "$bin" fall "$inv" --set 'items[2]=~' --set 'items[3].mass=0.5 kg' --format json \
+  >"$tmp/rm.json" 2>"$tmp/err"; then
+  if "$py" - "$tmp/base.json" "$tmp/rm.json" <<'EOF'
+import json, sys
+base = json.load(open(sys.argv[1]))["items"]
+got = json.load(open(sys.argv[2]))["items"]
+assert [i["name"] for i in got] == ["pin punch", "glove"], [i["name"] for i in got]
+assert got[1]["inputs"]["mass_kg"] == 0.5, got[1]["inputs"]
+assert got[0]["inputs"] == base[0]["inputs"], "the pin punch changed"
+EOF
+  then ok; else bad "items[3] after items[2]=~ is not the glove"; fi
+else
+  bad "fall --set items[2]=~ --set items[3].mass: $(cat "$tmp/err")"
+fi
+"$bin" fall "$inv" --set 'items[2]=~' --set 'items[2].mass=0.5 kg' >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 2 ] && [ ! -s "$tmp/out" ] &&
+   grep -q '^plumb: --set:2:1: items\[2\]\.mass: items\[2\] was removed by --set 1' "$tmp/err"
+then ok; else bad "items[2] after items[2]=~: exit $rc, $(cat "$tmp/err")"; fi
+# an item added by --set takes the next number after the profile's own
+if "$bin" fall "$inv" --set 'items[1]=~' \
+  --set 'items[4]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' \
+  --set 'items[4].mass=0.25 kg' --set 'items[3].mass=0.08 kg' --format json \
+  >"$tmp/add.json" 2>"$tmp/err"; then
+  if "$py" - "$tmp/add.json" <<'EOF'
+import json, sys
+got = json.load(open(sys.argv[1]))["items"]
+assert [i["name"] for i in got] == ["chain sling", "glove", "torch"], [i["name"] for i in got]
+assert got[1]["inputs"]["mass_kg"] == 0.08, got[1]["inputs"]
+assert got[2]["inputs"]["mass_kg"] == 0.25, got[2]["inputs"]
+EOF
+  then ok; else bad "items[4] added after items[1]=~ is not numbered 4"; fi
+else
+  bad "fall --set items[1]=~ --set items[4]=...: $(cat "$tmp/err")"
+fi
+"$bin" fall "$inv" --set 'items[1]=~' --set 'items[5].mass=1 kg' >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 2 ] && grep -q '^plumb: --set:2:1: items\[5\]\.mass: items\[5\] is past the end: .* there are 3 items' "$tmp/err"
+then ok; else bad "items[5] of three after items[1]=~: exit $rc, $(cat "$tmp/err")"; fi
+
+# after the whole list is removed (items=~), items[1] starts a new one
+if "$bin" fall "$inv" --set 'items=~' \
+  --set 'items[1]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' --format json \
+  >"$tmp/new.json" 2>"$tmp/err" &&
+   "$py" -c 'import json,sys; i=json.load(open(sys.argv[1]))["items"]; assert [x["name"] for x in i] == ["torch"], i' \
+   "$tmp/new.json"; then ok
+else bad "items[1] after items=~: $(cat "$tmp/err")"; fi
+
+# ---- descent devices count from 0, as their keys do ------------------------
+# (issue 9) A device that does not open is named by its key: on the demo
+# canopy, a second device set to open 60 s after a release 90 m up is
+# descent[1]: under the first canopy the load sinks at about 6.5 m/s, so
+# it lands after roughly 90 / 6.5 = 14 s, long before.
+"$bin" fall profiles/demo/drone-canopy.yaml \
+  --set 'descent[1]={kind: drogue, cd: 0.5, area: 0.1 m^2, deploy: {after: 60 s}}' \
+  >"$tmp/out" 2>"$tmp/err"
+if grep -q "(descent\[1\]) does not open before impact" "$tmp/out" &&
+   ! grep -q "device [0-9]" "$tmp/out"; then ok
+else bad "the second device's warning: $(grep -i 'open' "$tmp/out") $(cat "$tmp/err")"; fi
+
 # ---- a failure names the item by its number from 1 ------------------------
 cat >"$tmp/buoy.yaml" <<'EOF'
 # invented: the second item is a balloon, 0.012 kg in 0.05 m^3 (about 0.06 kg
