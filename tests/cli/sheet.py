@@ -3,7 +3,8 @@
 which wrote it):
 - the answer figures are those of `plumb fall` (SI and --units us) and the
   clearance radii those of `plumb zone --format json` for the same seed,
-  formatted to the text report's 4 significant digits;
+  formatted to the text report's 4 significant digits; the wind arrow's
+  speed in the text report's unit (mph and knots under --units us);
 - the eight sections in order; the cautions in full; on every page the
   footer's short caution, "page n of m" and the profile's SHA-256;
 - the SHA-256 of the profile and of every criteria file it names
@@ -226,6 +227,17 @@ check(rc == 0, f"letter, us: exit {rc}: {err}")
 check(pdfinfo(pdf_us).get("Page size", "").startswith("612 x 792 pts"), "letter paper")
 tu = " ".join(pages_text(pdf_us))
 check(speed_us in tu and re.search(r"\d ft\b", tu), "US units: ft/s first, a scale in ft")
+# the wind arrow's speed in the text report's display unit: mph (knots)
+# under --units us, m/s in SI, the same figure as `plumb fall` at the
+# release height (issue 9: "wind in knots or mph where a person expects them")
+for rep, sheet_text, what in ((fall_us, tu, "US"), (fall_si, text, "SI")):
+    wm = re.search(r"([\d.]+ (?:mph \([\d.]+ kn\)|m/s)) from (\S+ \(\w+\)) at\s+the\s+release\s+height",
+                   re.sub(r"\s+", " ", rep.replace("\u00a0", " ")))
+    check(wm is not None and f"the way the wind blows, {wm.group(1)} from {wm.group(2)}" in sheet_text,
+          f"{what}: the wind arrow gives the text report's wind "
+          f"{wm.group(0) if wm else '(none found in plumb fall)'}")
+check("the way the wind blows" in tu and not re.search(r"wind blows, [\d.]+ ft/s", tu),
+      "US: the wind arrow is not in ft/s")
 check(not bbox_outside(pdf_us), "letter: no text outside the margins")
 n, bad = grey_margins_blank(pdf_us)
 check(not bad, f"letter: margins blank in grey, not on {bad}")
