@@ -7,6 +7,9 @@ which wrote it):
   speed in the text report's unit (mph and knots under --units us);
 - the eight sections in order; the cautions in full; on every page the
   footer's short caution, "page n of m" and the profile's SHA-256;
+- every criterion's source in full as its file gives it and its status
+  in the text report's words ("from memory", "transcribed"), in its own
+  entry; no criterion id broken across lines (pdftotext -bbox words);
 - the SHA-256 of the profile and of every criteria file it names
   (Python's hashlib, FIPS 180-4) and the seed;
 - every font embedded (pdffonts); the paper size asked for (pdfinfo:
@@ -22,6 +25,7 @@ A profile without `uncertainty:` says "no clearance zone: inputs carry no
 uncertainty" in its zone section and still makes a sheet.
 """
 import hashlib
+from html import unescape
 import math
 import os
 import re
@@ -137,6 +141,72 @@ def grey_margins_blank(pdf, dpi=50):
     return n, bad
 
 
+def words(pdf):
+    """Every word of the PDF in order, from pdftotext -bbox: a line's end is
+    a word's end, and nothing is joined back across a hyphen at a line's
+    end as plain pdftotext does ("[z89-" + "type2-30j]" -> "[z89type2-30j]")."""
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    return [unescape(w).replace("\u00a0", " ")
+            for w in re.findall(r"<word [^>]*>(.*?)</word>", html)]
+
+
+def squeeze(s):
+    return re.sub(r"\s+", "", s)
+
+
+def ids_broken(pdf, ids):
+    """Words that are the start of a criterion's id but not the whole id:
+    an id broken across lines ("[z89-" then "type2-30j]"), which can be
+    neither read nor searched."""
+    bad = []
+    for w in words(pdf):
+        for x in w.split():
+            x = x.lstrip("[(").rstrip("]):,;.")
+            if any(len(x) >= 3 and x != cid and cid.startswith(x) for cid in ids):
+                bad.append(x)
+    return bad
+
+
+def criterion_file(cid):
+    """The source and status of a criteria file, as the file gives them."""
+    src = status = None
+    with open(os.path.join(CRIT, cid + ".yaml")) as f:
+        for line in f:
+            if line.startswith("source: "):
+                src = line[len("source: "):].strip()
+            elif line.startswith("status: "):
+                status = line[len("status: "):].strip()
+    return src, status
+
+
+def check_sources(pdf, ids, report, what):
+    """Issue 9: every criterion used shows its source in full as its file
+    gives it, and the status of its figure in the words of the text report
+    `report` ("figure from memory, not confirmed in the source"), in its own
+    entry of the sheet's list of criteria (after "[id]: limit", before the
+    next one)."""
+    sheet = squeeze(" ".join(words(pdf)))
+    flat = re.sub(r"\s+", " ", report.replace("\u00a0", " "))
+    starts = [sheet.find(squeeze(f"[{cid}]: limit")) for cid in ids]
+    check(all(p >= 0 for p in starts) and starts == sorted(starts),
+          f"{what}: an entry for each criterion in the list of criteria: {starts}")
+    for k, cid in enumerate(ids):
+        src, status = criterion_file(cid)
+        m = re.search(re.escape(f"source: {src}") + rf"(?: \[{re.escape(cid)}\])?(?: \(([^()]*)\))?",
+                      flat)
+        note = m.group(1) if m else None
+        # the text report's words for the status (criteria files: seen,
+        # transcribed, memory); a figure seen in the source has none there
+        want = {"memory": "from memory", "transcribed": "transcribed"}.get(status)
+        check(m is not None and ((want is None and note is None) or (want and want in (note or ""))),
+              f"{what}: the text report gives {cid}'s source and status {status}: {note!r}")
+        words_ = note if note else "figure seen in the source"
+        end = starts[k + 1] if k + 1 < len(starts) else len(sheet)
+        entry = sheet[starts[k]:end] if starts[k] >= 0 else ""
+        check(squeeze(f"source: {src} ({words_}).") in entry,
+              f"{what}: {cid}: the source in full and '{words_}' in its entry")
+
+
 def no_leftovers(d, keep=()):
     return sorted(set(os.listdir(d)) - set(keep)) == []
 
@@ -193,6 +263,12 @@ check(sha256(DRONE) in text, "the profile's SHA-256")
 for cid in ("us-part107-cat3", "eu-c1-80j"):
     check(sha256(os.path.join(CRIT, cid + ".yaml")) in text, f"the SHA-256 of criteria file {cid}")
 check("2026-01-01 00:00:00 UTC" in p1, "the calculation time is SOURCE_DATE_EPOCH, in UTC")
+
+# every criterion's source in full and its status (us-part107-cat3 is
+# seen, eu-c1-80j transcribed), and no id broken across lines
+check_sources(pdf, ["us-part107-cat3", "eu-c1-80j"], fall_si, "drone")
+broken = ids_broken(pdf, ["us-part107-cat3", "eu-c1-80j"])
+check(not broken, f"drone: no criterion id broken across lines: {broken}")
 
 # footers on every page, the cautions in full
 for i, p in enumerate(pages, 1):
@@ -267,6 +343,18 @@ check(len(with_header) >= 2, f"the table's header repeated on its pages: {with_h
 check("no clearance zone: inputs carry no uncertainty" in kt, "no uncertainty: said in words")
 check("Test job" in kp[0] and "A. Tester" in kp[0], "the job map on page 1")
 check(not bbox_outside(pdf_kit), "40 items: no text outside the margins")
+# both criteria from memory; z89-type2-30j was broken as "[z89-" / "type2-30j]"
+# in the answer's table, and both ids in the ratio columns' headers
+kit_ids = ["en397-shock-49j", "z89-type2-30j"]
+_, kit_fall, _ = plumb("fall", kit)
+check_sources(pdf_kit, kit_ids, kit_fall, "40 items")
+broken = ids_broken(pdf_kit, kit_ids)
+check(not broken, f"40 items: no criterion id broken across lines: {broken}")
+plain = tool("pdftotext", "-enc", "UTF-8", pdf_kit, "-")
+check(all(f"[{cid}]" in plain for cid in kit_ids) and "\u2060" not in plain and "\u2011" not in plain,
+      "40 items: plain pdftotext gives each id as typed (to search and copy), no invisible joiners")
+check("Ratio columns: C1 [en397-shock-49j], C2 [z89-type2-30j]" in kt,
+      "40 items: the ratio columns' key names each criterion's id")
 for i, p in enumerate(kp, 1):
     check(f"page {i} of {len(kp)}" in p, f"40 items, page {i} of {len(kp)}")
 os.remove(kit)
