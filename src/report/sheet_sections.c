@@ -536,8 +536,14 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
     double w = sheet_width(d);
     sheet_heading(d, "3. Side view of the fall", 220.0);
     d->y += sheet_side_view(d, b, d->left, d->y, w, 215.0);
-    sheet_heading(d, "4. Impact energy against drop height", 260.0);
-    d->y += sheet_energy_plot(d, b, d->left, d->y, w, 250.0);
+    /* taller with more criteria, so that their labels find room beside
+     * their lines and clear of the curves (it still fits a letter page
+     * under the side view) */
+    double h = 250.0 + 14.0 * (b->n_criteria > 3 ? (double)(b->n_criteria - 3) : 0.0);
+    if (h > 370.0)
+        h = 370.0;
+    sheet_heading(d, "4. Impact energy against drop height", h + 10.0);
+    d->y += sheet_energy_plot(d, b, d->left, d->y, w, h);
 }
 
 /* The plan view from whatever the zone gives: circles around the drop
