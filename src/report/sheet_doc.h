@@ -66,6 +66,9 @@ double sheet_text_width(sheet_doc *d, const char *font, const char *markup);
 void sheet_text_at(sheet_doc *d, double x, double y, int align, const char *font,
                    const char *markup);
 
+/* "[id]" as markup kept on one line (pango allow_breaks="false"), unless
+ * it is wider than w points in font by itself (w <= 0: no check). */
+const char *sheet_id(sheet_doc *d, const char *font, const char *id, double w);
 /* Starts a new page when h more points do not fit. */
 void sheet_need(sheet_doc *d, double h);
 /* A paragraph across the body (markup), paginated as a block. */

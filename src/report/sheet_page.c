@@ -63,6 +63,21 @@ const char *sheet_fmt(sheet_doc *d, const char *fmt, ...)
     return sheet_esc(d, joined);
 }
 
+/* A criterion's id in brackets as markup that pango never breaks across
+ * lines (a span with allow_breaks="false": no invisible characters, so the
+ * PDF's text is the plain id, to be searched and copied), unless the id
+ * alone is wider than `w` points in `font`, when breaking is the only way
+ * to keep it inside the column (w <= 0: no check). */
+const char *sheet_id(sheet_doc *d, const char *font, const char *id, double w)
+{
+    const char *esc = sheet_esc(d, id);
+    char plain[FMT_LEN];
+    snprintf(plain, sizeof plain, "[%s]", esc);
+    if (w > 0.0 && sheet_text_width(d, font, plain) > w)
+        return sheet_fmt(d, "\x02%s", plain);
+    return sheet_fmt(d, "\x02<span allow_breaks=\"false\">%s</span>", plain);
+}
+
 static void set_markup(sheet_doc *d, double w, const char *font, const char *markup)
 {
     PangoFontDescription *fd = pango_font_description_from_string(font);

@@ -199,7 +199,7 @@ double sheet_plan_view(sheet_doc *d, const sheet_plan *p, double x, double y, do
         arrow(d, ax - 9.0 * sin(to), ay + 9.0 * cos(to), ax + 9.0 * sin(to), ay - 9.0 * cos(to), 1.2);
         ly += sheet_text(d, lx + 24.0, ly, lw - 24.0, font,
                          sheet_fmt(d, "arrow: the way the wind blows, %s from %s at the release height",
-                                   plumbp_t_speed(P, p->wind_m_s),
+                                   plumbp_t_wind(P, p->wind_m_s),
                                    plumbp_t_bearing(P, p->wind_from_deg)), 1) + 6.0;
     } else {
         ly += sheet_text(d, lx, ly, lw, font, "still air", 1) + 4.0;

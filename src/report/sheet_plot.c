@@ -147,6 +147,145 @@ static void polyline(sheet_doc *d, const sheet_axes *a, const double *x, const d
 static const sheet_line item_styles[PLUMB_BRIEF_PLOTTED] = {SHEET_SOLID, SHEET_DASHDOT,
                                                             SHEET_DOTTED, SHEET_DASHED};
 
+/* ---- where the limits' labels go -----------------------------------------------
+ * Each label is a box tried along its own line, just above or below it,
+ * then further away with a leader to the line; the place that costs least
+ * wins: a label over a curve, another label, the planned height or a
+ * circle costs far more than one moved away from its line, so a label
+ * overlaps any of them only when nothing else is left. */
+enum { LABEL_SEGS = PLUMB_BRIEF_PLOTTED * PLUMB_BRIEF_CURVE + PLUMB_MAX_VERDICTS * 2 + 4,
+       LABEL_BOXES = PLUMB_MAX_VERDICTS * 2 + 2 };
+#define COST_LABEL 1.0e6   /* over another label or its leader */
+#define COST_CURVE 1.0e5   /* over a curve */
+#define COST_MARK 1.0e5    /* over a circle where a curve reaches a limit */
+#define COST_PLANNED 1.0e4 /* over the planned height's line */
+#define COST_LINE 300.0    /* over another criterion's line: as much as 15 pt away */
+#define COST_AWAY 20.0     /* each point away from its own line */
+#define COST_TWO_LINES 40.0 /* a label on two lines rather than one */
+#define LABEL_CLEAR 1.5    /* pt kept clear around a label */
+#define LEADER_IN 6.0      /* the leader's place from the label's left, pt */
+
+typedef struct label_obstacles {
+    size_t n_segs, n_boxes;
+    double seg[LABEL_SEGS][4], seg_cost[LABEL_SEGS];
+    int seg_owner[LABEL_SEGS];          /* the criterion whose line it is, or -1 */
+    double box[LABEL_BOXES][4], box_cost[LABEL_BOXES];
+} label_obstacles;
+
+static void add_seg(label_obstacles *o, double x0, double y0, double x1, double y1, double cost,
+                    int owner)
+{
+    if (o->n_segs >= LABEL_SEGS)
+        return;
+    double *s = o->seg[o->n_segs];
+    s[0] = x0, s[1] = y0, s[2] = x1, s[3] = y1;
+    o->seg_cost[o->n_segs] = cost;
+    o->seg_owner[o->n_segs++] = owner;
+}
+
+static void add_box(label_obstacles *o, double x0, double y0, double x1, double y1, double cost)
+{
+    if (o->n_boxes >= LABEL_BOXES)
+        return;
+    double *b = o->box[o->n_boxes];
+    b[0] = x0, b[1] = y0, b[2] = x1, b[3] = y1;
+    o->box_cost[o->n_boxes++] = cost;
+}
+
+/* 1 when the segment crosses the box (x0, y0)-(x1, y1): Liang-Barsky
+ * clipping of the segment to the box. */
+static int seg_in_box(const double *s, double x0, double y0, double x1, double y1)
+{
+    double dx = s[2] - s[0], dy = s[3] - s[1], t0 = 0.0, t1 = 1.0;
+    double p[4] = {-dx, dx, -dy, dy}, q[4] = {s[0] - x0, x1 - s[0], s[1] - y0, y1 - s[1]};
+    for (int i = 0; i < 4; i++) {
+        if (p[i] == 0.0) {
+            if (q[i] < 0.0)
+                return 0;
+        } else {
+            double t = q[i] / p[i];
+            if (p[i] < 0.0) {
+                if (t > t1)
+                    return 0;
+                if (t > t0)
+                    t0 = t;
+            } else {
+                if (t < t0)
+                    return 0;
+                if (t < t1)
+                    t1 = t;
+            }
+        }
+    }
+    return 1;
+}
+
+static double label_cost(const label_obstacles *o, int owner, double x0, double y0, double x1,
+                         double y1, double py)
+{
+    double c = 0.0, cx0 = x0 - LABEL_CLEAR, cy0 = y0 - LABEL_CLEAR, cx1 = x1 + LABEL_CLEAR,
+           cy1 = y1 + LABEL_CLEAR;
+    for (size_t i = 0; i < o->n_segs; i++)
+        if (o->seg_owner[i] != owner && seg_in_box(o->seg[i], cx0, cy0, cx1, cy1))
+            c += o->seg_cost[i];
+    for (size_t i = 0; i < o->n_boxes; i++) {
+        const double *b = o->box[i];
+        if (b[0] < cx1 && b[2] > cx0 && b[1] < cy1 && b[3] > cy0)
+            c += o->box_cost[i];
+    }
+    /* away from its line: the gap, and the leader across what is between */
+    double gap = y1 < py ? py - y1 : y0 > py ? y0 - py : 0.0;
+    if (gap > 1.0) {
+        double leader[4] = {x0 + LEADER_IN, y1 < py ? y1 : py, x0 + LEADER_IN, y1 < py ? py : y0};
+        for (size_t i = 0; i < o->n_boxes; i++)
+            if (seg_in_box(leader, o->box[i][0], o->box[i][1], o->box[i][2], o->box[i][3]))
+                c += o->box_cost[i];
+        c += COST_AWAY * gap;
+    }
+    return c;
+}
+
+/* A placed label becomes an obstacle, and so does its leader. */
+static void label_claim(label_obstacles *o, double tx, double ty, double tw, double lh, double py)
+{
+    add_box(o, tx, ty, tx + tw, ty + lh, COST_LABEL);
+    if (ty + lh < py - 1.0 || ty > py + 1.0)
+        add_seg(o, tx + LEADER_IN, ty + lh < py ? ty + lh : ty, tx + LEADER_IN, py, COST_LABEL, -1);
+}
+
+/* The least costly place (*tx, *ty: top left) for a label tw x lh of the
+ * line at py, inside the plot. Can't fail. */
+static void place_label(const label_obstacles *o, const sheet_axes *a, int owner, double py,
+                        double tw, double lh, double *tx, double *ty)
+{
+    double xmin = a->x + 3.0, xmax = a->x + a->w - tw - 3.0;
+    double ymin = a->y + 1.0, ymax = a->y + a->h - lh - 1.0;
+    if (xmax < xmin)
+        xmax = xmin;
+    double best = HUGE_VAL;
+    *tx = xmin;
+    *ty = fmin(fmax(py - lh - 0.5, ymin), ymax);
+    /* just above, just below, then ever further away */
+    for (int step = 0; step < 400; step++) {
+        /* a row 2k pt further away costs at least COST_AWAY for each point */
+        if (step >= 2 && best < COST_AWAY * (0.5 + 2.0 * (double)(step / 2)))
+            break;
+        double y = step == 0 ? py - lh - 0.5 : step == 1 ? py + 0.5
+                 : (step % 2 ? py + 0.5 + (double)(step / 2) * 2.0
+                             : py - lh - 0.5 - (double)(step / 2) * 2.0);
+        if (y < ymin || y > ymax)
+            continue;
+        for (double x = xmin; x <= xmax + 1e-9; x += 4.0) {
+            double c = label_cost(o, owner, x, y, x + tw, y + lh, py) + 1e-3 * (x - xmin);
+            if (c < best) {
+                best = c;
+                *tx = x;
+                *ty = y;
+            }
+        }
+    }
+}
+
 double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h)
 {
     if (b->n_plots == 0)
@@ -280,12 +419,44 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         sheet_stroke(d, item_styles[p], p == 0 ? 1.8 : 1.1);
     }
     cairo_restore(d->cr);
-    /* each criterion: a horizontal line with its name and where it is
-     * reached; labels from the lowest line up, each at least a line above
-     * the one below it so none overlaps another */
+    /* what the labels must keep clear of: the curves, every limit line,
+     * the planned height's line and its label, the circles where the
+     * first curve reaches a limit, and the labels already placed */
+    label_obstacles ob;
+    memset(&ob, 0, sizeof ob);
+    for (size_t p = 0; p < b->n_plots; p++) {
+        const plumb_brief_plot *pl = &b->plots[p];
+        int pen = 0;
+        double qx = 0.0, qy = 0.0;
+        for (size_t i = 0; i < pl->n_curve; i++) {
+            if (!pl->curve_ok[i] || (a.ylog && !(pl->curve_e_j[i] > 0.0))) {
+                pen = 0;
+                continue;
+            }
+            double px = sheet_ax_x(&a, pl->curve_h_m[i] * ls), py = sheet_ax_y(&a, pl->curve_e_j[i] * es);
+            if (pen)
+                add_seg(&ob, qx, qy, px, py, COST_CURVE, -1);
+            qx = px;
+            qy = py;
+            pen = 1;
+        }
+    }
     const plumb_brief_plot *w0 = &b->plots[0];
+    const plumb_item_report *worst = &b->fall->items[w0->item];
+    double hp = worst->spec->release_m[2];
+    double px_plan = sheet_ax_x(&a, hp * ls);
+    add_seg(&ob, px_plan, a.y, px_plan, a.y + a.h, COST_PLANNED, -1);
+    /* kept: sheet_fmt's ring is reused before the line is drawn */
+    char pl_text[FMT_LEN];
+    snprintf(pl_text, sizeof pl_text, "%s", sheet_fmt(d, "planned %s", plumbp_t_len(P, hp)));
+    double pl_w = sheet_text_width(d, font, pl_text);
+    double pl_x = px_plan + 3.0 + pl_w + 4.0 > a.x + a.w ? px_plan - pl_w - 5.0 : px_plan + 2.0;
+    add_box(&ob, pl_x, a.y + 2.0, pl_x + pl_w + 2.0, a.y + 11.0, COST_LABEL);
+    /* each criterion: a horizontal line with its name and where it is
+     * reached, from the lowest line up */
     double mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
     size_t n_marks = 0, byy[PLUMB_MAX_VERDICTS];
+    char where[PLUMB_MAX_VERDICTS][FMT_LEN / 8];
     for (size_t k = 0; k < b->n_criteria; k++)
         byy[k] = k;
     for (size_t k = 1; k < b->n_criteria; k++) /* by limit, lowest first */
@@ -296,16 +467,13 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
             byy[j - 1] = t;
         }
     for (size_t q = 0; q < b->n_criteria; q++) { /* every line first, then the words */
-        double py = sheet_ax_y(&a, b->criteria[q]->energy_limit_j * es);
+        const plumb_criterion *c = b->criteria[byy[q]];
+        double py = sheet_ax_y(&a, c->energy_limit_j * es);
         cairo_move_to(d->cr, a.x, py);
         cairo_line_to(d->cr, a.x + a.w, py);
         sheet_stroke(d, SHEET_DASHED, 0.8);
-    }
-    double below = a.y + a.h + 1.0; /* the top of the label below */
-    for (size_t q = 0; q < b->n_criteria; q++) {
-        const plumb_criterion *c = b->criteria[byy[q]];
-        double py = sheet_ax_y(&a, c->energy_limit_j * es);
-        const char *where = "";
+        add_seg(&ob, a.x, py, a.x + a.w, py, COST_LINE, (int)q);
+        where[q][0] = '\0';
         const plumb_item_report *it = &b->fall->items[w0->item];
         for (size_t v = 0; v < w0->n_limits && v < it->n_verdicts; v++) {
             if (it->verdicts[v].criterion != c)
@@ -314,39 +482,101 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
             if (r->outcome == PLUMB_LIMIT_FOUND) {
                 /* rounded down when lower heights keep within the limit:
                  * the printed height is a safe one */
-                where = sheet_fmt(d, ", reached at %s",
-                                  r->limit_is_upper_bound ? plumbp_t_limit(P, plumbp_t_len, r->value_si)
-                                                          : plumbp_t_len(P, r->value_si));
+                snprintf(where[q], sizeof where[q], "%s",
+                         sheet_fmt(d, ", reached at %s",
+                                   r->limit_is_upper_bound
+                                       ? plumbp_t_limit(P, plumbp_t_len, r->value_si)
+                                       : plumbp_t_len(P, r->value_si)));
                 if (r->value_si * ls <= a.x1 && n_marks < PLUMB_MAX_VERDICTS) {
                     mark_x[n_marks] = sheet_ax_x(&a, r->value_si * ls);
-                    mark_y[n_marks++] = py;
+                    mark_y[n_marks] = py;
+                    add_box(&ob, mark_x[n_marks] - 4.0, py - 4.0, mark_x[n_marks] + 4.0, py + 4.0,
+                            COST_MARK);
+                    n_marks++;
                 }
             } else if (r->outcome == PLUMB_LIMIT_UNLIMITED) {
-                where = ", not reached at any height";
+                snprintf(where[q], sizeof where[q], ", not reached at any height");
             } else if (r->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
-                where = ", exceeded at every height";
+                snprintf(where[q], sizeof where[q], ", exceeded at every height");
             }
         }
-        const char *label =
-            sheet_fmt(d, "\x02%s: %s%s", sheet_esc(d, c->id),
-                      sheet_fmt(d, "%s", plumbp_t_limit_energy(P, c->energy_limit_j)), where);
-        double lh = 10.0, ty = py - lh;
-        if (ty > below - lh)
-            ty = below - lh;
-        if (ty < a.y + 1.0)
-            ty = a.y + 1.0;
-        below = ty;
-        /* a white ground so the grid and curves do not cross the words */
-        double tw = sheet_text_width(d, bold, label);
+    }
+    /* each label on one line, or on two ("ID: LIMIT," / "reached at H"),
+     * which fits where one line does not */
+    char text[PLUMB_MAX_VERDICTS][2][FMT_LEN / 4];
+    double tw[PLUMB_MAX_VERDICTS][2], th[PLUMB_MAX_VERDICTS][2], line_y[PLUMB_MAX_VERDICTS];
+    for (size_t q = 0; q < b->n_criteria; q++) {
+        const plumb_criterion *c = b->criteria[byy[q]];
+        line_y[q] = sheet_ax_y(&a, c->energy_limit_j * es);
+        /* the limit in the axis's unit only (both are in section 2): a
+         * shorter label finds a clear place more often */
+        char lim[FMT_LEN / 8];
+        snprintf(lim, sizeof lim, "%s", plumbp_t_limit_energy(P, c->energy_limit_j));
+        char *other = strstr(lim, " (");
+        if (other)
+            *other = '\0';
+        const char *id = sheet_esc(d, c->id), *lm = sheet_fmt(d, "%s", lim);
+        snprintf(text[q][0], sizeof text[q][0], "%.200s: %.60s%.200s", id, lm, where[q]);
+        if (where[q][0])
+            snprintf(text[q][1], sizeof text[q][1], "%.200s: %.60s,\n%.200s", id, lm, where[q] + 2);
+        else
+            text[q][1][0] = '\0';
+        for (int v = 0; v < 2; v++) {
+            tw[q][v] = text[q][v][0] ? sheet_text_width(d, bold, text[q][v]) + 2.0 : 0.0;
+            th[q][v] = v == 0 ? 10.0 : sheet_text(d, 0.0, 0.0, 0.0, bold, text[q][v], 0) + 0.7;
+        }
+    }
+    /* placed from the lowest line up, then from the highest down: the
+     * order with the lesser cost is drawn */
+    double lx_[PLUMB_MAX_VERDICTS], ly_[PLUMB_MAX_VERDICTS], best_total = HUGE_VAL;
+    int lv_[PLUMB_MAX_VERDICTS];
+    for (int order = 0; order < 2; order++) {
+        label_obstacles trial = ob;
+        double total = 0.0, px_[PLUMB_MAX_VERDICTS], py_[PLUMB_MAX_VERDICTS];
+        int pv_[PLUMB_MAX_VERDICTS];
+        for (size_t i = 0; i < b->n_criteria; i++) {
+            size_t q = order == 0 ? i : b->n_criteria - 1 - i;
+            double cost = HUGE_VAL;
+            for (int v = 0; v < 2; v++) {
+                if (!text[q][v][0])
+                    continue;
+                double tx, ty;
+                place_label(&trial, &a, (int)q, line_y[q], tw[q][v], th[q][v], &tx, &ty);
+                double cv = label_cost(&trial, (int)q, tx, ty, tx + tw[q][v], ty + th[q][v],
+                                       line_y[q]) + (v ? COST_TWO_LINES : 0.0);
+                if (cv < cost) {
+                    cost = cv;
+                    px_[q] = tx;
+                    py_[q] = ty;
+                    pv_[q] = v;
+                }
+            }
+            total += cost;
+            label_claim(&trial, px_[q], py_[q], tw[q][pv_[q]], th[q][pv_[q]], line_y[q]);
+        }
+        if (total < best_total) {
+            best_total = total;
+            memcpy(lx_, px_, sizeof lx_);
+            memcpy(ly_, py_, sizeof ly_);
+            memcpy(lv_, pv_, sizeof lv_);
+        }
+    }
+    for (size_t q = 0; q < b->n_criteria; q++) {
+        double tx = lx_[q], ty = ly_[q], w_ = tw[q][lv_[q]], lh = th[q][lv_[q]], py = line_y[q];
+        /* a white ground so the grid does not cross the words */
         cairo_set_source_rgb(d->cr, 1, 1, 1);
-        cairo_rectangle(d->cr, a.x + 30.0, ty, tw + 2.0, lh - 0.5);
+        cairo_rectangle(d->cr, tx, ty, w_, lh - 0.5);
         cairo_fill(d->cr);
         cairo_set_source_rgb(d->cr, 0, 0, 0);
-        sheet_text_at(d, a.x + 31.0, ty, 0, bold, label);
-        if (ty + lh < py - 1.0) { /* moved up: a leader down to its line */
-            cairo_move_to(d->cr, a.x + 27.0, ty + lh / 2.0);
-            cairo_line_to(d->cr, a.x + 27.0, py);
+        sheet_text_at(d, tx + 1.0, ty, 0, bold, sheet_fmt(d, "\x02%s", text[q][lv_[q]]));
+        double lx = tx + LEADER_IN;
+        if (ty + lh < py - 1.0 || ty > py + 1.0) { /* away from its line: a leader to it */
+            cairo_move_to(d->cr, lx, ty + lh < py ? ty + lh : ty);
+            cairo_line_to(d->cr, lx, py);
             sheet_stroke(d, SHEET_SOLID, 0.5);
+            cairo_new_sub_path(d->cr); /* a dot where it meets its line */
+            cairo_arc(d->cr, lx, py, 1.6, 0.0, 2.0 * 3.14159265358979323846);
+            cairo_fill(d->cr);
         }
     }
     /* where the first curve reaches each limit, over the labels */
@@ -359,20 +589,14 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         sheet_stroke(d, SHEET_SOLID, 1.0);
     }
     /* the planned height */
-    const plumb_item_report *worst = &b->fall->items[w0->item];
-    double hp = worst->spec->release_m[2];
-    double px = sheet_ax_x(&a, hp * ls);
-    cairo_move_to(d->cr, px, a.y);
-    cairo_line_to(d->cr, px, a.y + a.h);
+    cairo_move_to(d->cr, px_plan, a.y);
+    cairo_line_to(d->cr, px_plan, a.y + a.h);
     sheet_stroke(d, SHEET_DOTTED, 1.2);
-    const char *pl_text = sheet_fmt(d, "planned %s", plumbp_t_len(P, hp));
-    double tw = sheet_text_width(d, font, pl_text);
     cairo_set_source_rgb(d->cr, 1, 1, 1);
-    double tx = px + 3.0 + tw + 4.0 > a.x + a.w ? px - tw - 5.0 : px + 2.0;
-    cairo_rectangle(d->cr, tx, a.y + 2.0, tw + 2.0, 9.0);
+    cairo_rectangle(d->cr, pl_x, a.y + 2.0, pl_w + 2.0, 9.0);
     cairo_fill(d->cr);
     cairo_set_source_rgb(d->cr, 0, 0, 0);
-    sheet_text_at(d, tx + 1.0, a.y + 2.0, 0, font, pl_text);
+    sheet_text_at(d, pl_x + 1.0, a.y + 2.0, 0, font, pl_text);
     /* the legend */
     double ly = a.y + a.h + AX_BOTTOM;
     for (size_t p = 0; p < b->n_plots; p++) {

@@ -234,7 +234,9 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
     d->y += SHEET_BODY * 1.5;
     for (size_t k = 0; k < it->n_verdicts; k++) {
         const plumb_verdict *v = &it->verdicts[k];
-        const char *name = sheet_fmt(d, "%s [%s]%s", v->criterion->name, v->criterion->id,
+        /* the id in one piece: "[z89-" / "type2-30j]" cannot be searched */
+        const char *name = sheet_fmt(d, "\x02%s %s%s", sheet_esc(d, v->criterion->name),
+                                     sheet_id(d, font, v->criterion->id, cx[1] * w - 6.0),
                                      v->criterion->kind == PLUMB_CRIT_HELMET_TEST
                                          ? " (a helmet test, not a safe limit)" : "");
         double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
@@ -252,6 +254,56 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
                    sheet_fmt(d, "%s", num(P, v->ratio, RATIO_SIG)), 1);
         sheet_text(d, d->left + cx[4] * w, d->y, 0.0, v->exceeds ? bold : font,
                    v->exceeds ? "exceeds" : "within", 1);
+        d->y += h + 2.0;
+    }
+}
+
+/* The words of a criterion's status, as the text report gives them
+ * (plumbp_status_note), and for a figure seen in the source too, so that
+ * every criterion on the sheet says how sure its figure is. */
+static const char *status_words(const plumb_criterion *c)
+{
+    const char *note = plumbp_status_note(c);
+    if (note[0])
+        return note;
+    return strcmp(c->status, "seen") == 0 ? "figure seen in the source" : "status not given";
+}
+
+/* Every criterion used, keyed C1..Cn (the inventory's ratio columns),
+ * with what it applies to, its source in full as its file gives it and
+ * the status of its figure: what the adviser who signs the sheet cites. */
+static void criteria_sources(sheet_doc *d, const plumb_brief *b)
+{
+    if (b->n_criteria == 0)
+        return;
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 9.0);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
+    writer *P = primary(d);
+    double key_w = 22.0, w = sheet_width(d) - key_w;
+    d->y += GAP / 2.0;
+    double first = 0.0;
+    for (size_t k = 0; k < b->n_criteria; k++) {
+        const plumb_criterion *c = b->criteria[k];
+        const char *body = sheet_fmt(
+            d, "\x02<b>%s</b> %s: limit %s%s; applies to %s; source: %s (%s).",
+            sheet_esc(d, c->name), sheet_id(d, font, c->id, w),
+            sheet_fmt(d, "%s", plumbp_t_limit_energy(P, c->energy_limit_j)),
+            c->kind == PLUMB_CRIT_HELMET_TEST ? " (a helmet test, not a safe limit)" : "",
+            c->applies_to[0] ? sheet_esc(d, c->applies_to) : "not given",
+            c->source[0] ? sheet_esc(d, c->source) : "not given", sheet_esc(d, status_words(c)));
+        double h = sheet_text(d, d->left + key_w, d->y, w, font, body, 0);
+        if (k == 0) { /* the title kept with the first entry */
+            first = sheet_text(d, d->left, d->y, sheet_width(d), bold, "Criteria and their sources",
+                               0) + 2.0;
+            sheet_need(d, first + h);
+            d->y += sheet_text(d, d->left, d->y, sheet_width(d), bold,
+                               "Criteria and their sources", 1) + 2.0;
+        } else {
+            sheet_need(d, h);
+        }
+        sheet_text(d, d->left, d->y, key_w, font, sheet_fmt(d, "C%zu", k + 1), 1);
+        sheet_text(d, d->left + key_w, d->y, w, font, body, 1);
         d->y += h + 2.0;
     }
 }
@@ -283,6 +335,7 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
         verdict_table(d, it);
     else
         sheet_para(d, font, "No criterion was judged.");
+    criteria_sources(d, b);
 }
 
 /* ---- 6. the inventory ------------------------------------------------------------ */
@@ -311,8 +364,9 @@ static void inventory_header(sheet_doc *d, const plumb_brief *b, const double *c
     cells[2] = sheet_fmt(d, "Mass");
     cells[3] = "Impact energy";
     for (size_t k = 0; k < b->n_criteria; k++)
-        cells[4 + k] = sheet_fmt(d, "\x02Ratio to\n<span font_size=\"smaller\">%s</span>",
-                                 sheet_esc(d, b->criteria[k]->id));
+        /* the key of section 2's list of criteria: an id does not fit a
+         * ratio's column without being broken */
+        cells[4 + k] = sheet_fmt(d, "Ratio to\nC%zu", k + 1);
     cells[4 + b->n_criteria] = "Verdict";
     cells[5 + b->n_criteria] = "Drift";
     double h = table_row(d, cx, n, cells, bold, 0);
@@ -341,6 +395,16 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
                                                 .clearance_radius_m))
                 : "");
     sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY), sheet_esc(d, note));
+    if (b->n_criteria > 0) { /* the key of the ratio columns */
+        char key[FMT_LEN] = "", body[64];
+        size_t len = 0;
+        snprintf(body, sizeof body, "%s %.1f", SHEET_FONT, SHEET_BODY);
+        for (size_t k = 0; k < b->n_criteria && len < sizeof key; k++)
+            len += (size_t)snprintf(key + len, sizeof key - len, "%sC%zu %s", k ? ", " : "", k + 1,
+                                    sheet_id(d, body, b->criteria[k]->id, sheet_width(d)));
+        sheet_para(d, body, sheet_fmt(d, "\x02Ratio columns: %s (their sources are in section 2).",
+                                      key));
+    }
     size_t n = 6 + b->n_criteria;
     /* column starts, fractions of the width: #, item, mass, energy, one
      * ratio per criterion, verdict, drift; the item's name takes what the
@@ -472,8 +536,14 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
     double w = sheet_width(d);
     sheet_heading(d, "3. Side view of the fall", 220.0);
     d->y += sheet_side_view(d, b, d->left, d->y, w, 215.0);
-    sheet_heading(d, "4. Impact energy against drop height", 260.0);
-    d->y += sheet_energy_plot(d, b, d->left, d->y, w, 250.0);
+    /* taller with more criteria, so that their labels find room beside
+     * their lines and clear of the curves (it still fits a letter page
+     * under the side view) */
+    double h = 250.0 + 14.0 * (b->n_criteria > 3 ? (double)(b->n_criteria - 3) : 0.0);
+    if (h > 370.0)
+        h = 370.0;
+    sheet_heading(d, "4. Impact energy against drop height", h + 10.0);
+    d->y += sheet_energy_plot(d, b, d->left, d->y, w, h);
 }
 
 /* The plan view from whatever the zone gives: circles around the drop

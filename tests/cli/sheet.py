@@ -3,9 +3,13 @@
 which wrote it):
 - the answer figures are those of `plumb fall` (SI and --units us) and the
   clearance radii those of `plumb zone --format json` for the same seed,
-  formatted to the text report's 4 significant digits;
+  formatted to the text report's 4 significant digits; the wind arrow's
+  speed in the text report's unit (mph and knots under --units us);
 - the eight sections in order; the cautions in full; on every page the
   footer's short caution, "page n of m" and the profile's SHA-256;
+- every criterion's source in full as its file gives it and its status
+  in the text report's words ("from memory", "transcribed"), in its own
+  entry; no criterion id broken across lines (pdftotext -bbox words);
 - the SHA-256 of the profile and of every criteria file it names
   (Python's hashlib, FIPS 180-4) and the seed;
 - every font embedded (pdffonts); the paper size asked for (pdfinfo:
@@ -16,11 +20,15 @@ which wrote it):
   file, no temporary file left beside it;
 - with SOURCE_DATE_EPOCH two runs are byte for byte the same;
 - every page rendered in grey (pdftoppm -gray) is blank in the margins, and
-  no text box (pdftotext -bbox) lies outside them.
+  no text box (pdftotext -bbox) lies outside them;
+- on the energy-against-height plot no criterion's label lies over a curve
+  (the page's stroked polylines, read from its content stream) or over
+  another label (pdftotext -bbox-layout), with two and with eight criteria.
 A profile without `uncertainty:` says "no clearance zone: inputs carry no
 uncertainty" in its zone section and still makes a sheet.
 """
 import hashlib
+from html import unescape
 import math
 import os
 import re
@@ -28,6 +36,7 @@ import shutil
 import subprocess
 import sys
 import tempfile
+import zlib
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
 from plumbcli import PLUMB, ROOT, check, finish, plumb  # noqa: E402
@@ -136,6 +145,178 @@ def grey_margins_blank(pdf, dpi=50):
     return n, bad
 
 
+def words(pdf):
+    """Every word of the PDF in order, from pdftotext -bbox: a line's end is
+    a word's end, and nothing is joined back across a hyphen at a line's
+    end as plain pdftotext does ("[z89-" + "type2-30j]" -> "[z89type2-30j]")."""
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    return [unescape(w).replace("\u00a0", " ")
+            for w in re.findall(r"<word [^>]*>(.*?)</word>", html)]
+
+
+def squeeze(s):
+    return re.sub(r"\s+", "", s)
+
+
+def ids_broken(pdf, ids):
+    """Words that are the start of a criterion's id but not the whole id:
+    an id broken across lines ("[z89-" then "type2-30j]"), which can be
+    neither read nor searched."""
+    bad = []
+    for w in words(pdf):
+        for x in w.split():
+            x = x.lstrip("[(").rstrip("]):,;.")
+            if any(len(x) >= 3 and x != cid and cid.startswith(x) for cid in ids):
+                bad.append(x)
+    return bad
+
+
+def criterion_file(cid):
+    """The source and status of a criteria file, as the file gives them."""
+    src = status = None
+    with open(os.path.join(CRIT, cid + ".yaml")) as f:
+        for line in f:
+            if line.startswith("source: "):
+                src = line[len("source: "):].strip()
+            elif line.startswith("status: "):
+                status = line[len("status: "):].strip()
+    return src, status
+
+
+def check_sources(pdf, ids, report, what):
+    """Issue 9: every criterion used shows its source in full as its file
+    gives it, and the status of its figure in the words of the text report
+    `report` ("figure from memory, not confirmed in the source"), in its own
+    entry of the sheet's list of criteria (after "[id]: limit", before the
+    next one)."""
+    sheet = squeeze(" ".join(words(pdf)))
+    flat = re.sub(r"\s+", " ", report.replace("\u00a0", " "))
+    starts = [sheet.find(squeeze(f"[{cid}]: limit")) for cid in ids]
+    check(all(p >= 0 for p in starts) and starts == sorted(starts),
+          f"{what}: an entry for each criterion in the list of criteria: {starts}")
+    for k, cid in enumerate(ids):
+        src, status = criterion_file(cid)
+        m = re.search(re.escape(f"source: {src}") + rf"(?: \[{re.escape(cid)}\])?(?: \(([^()]*)\))?",
+                      flat)
+        note = m.group(1) if m else None
+        # the text report's words for the status (criteria files: seen,
+        # transcribed, memory); a figure seen in the source has none there
+        want = {"memory": "from memory", "transcribed": "transcribed"}.get(status)
+        check(m is not None and ((want is None and note is None) or (want and want in (note or ""))),
+              f"{what}: the text report gives {cid}'s source and status {status}: {note!r}")
+        words_ = note if note else "figure seen in the source"
+        end = starts[k + 1] if k + 1 < len(starts) else len(sheet)
+        entry = sheet[starts[k]:end] if starts[k] >= 0 else ""
+        check(squeeze(f"source: {src} ({words_}).") in entry,
+              f"{what}: {cid}: the source in full and '{words_}' in its entry")
+
+
+def page_paths(pdf, page):
+    """The stroked polylines of one page, as lists of (x, y) in points from
+    the top left: the page's content streams (pdfseparate; cairo writes
+    them Flate-compressed under one page-wide "1 0 0 -1 0 H cm", so a
+    path's coordinates are pdftotext -bbox's) read for m / l ... S."""
+    one = os.path.join(tmp, "page.pdf")
+    subprocess.run(["pdfseparate", "-f", str(page), "-l", str(page), pdf, one], check=True)
+    with open(one, "rb") as f:
+        data = f.read()
+    os.remove(one)
+    paths = []
+    for m in re.finditer(rb"stream\r?\n(.*?)\r?\nendstream", data, re.S):
+        try:
+            body = zlib.decompress(m.group(1)).decode("latin-1")
+        except zlib.error:
+            continue
+        if not body.lstrip().startswith("1 0 0 -1 0 "):
+            continue
+        cur, nums = [], []
+        for tok in re.findall(r"\(.*?\)|\S+", body):
+            if re.fullmatch(r"-?[\d.]+", tok):
+                nums.append(float(tok))
+                continue
+            if tok == "m":
+                cur = [(nums[-2], nums[-1])]
+            elif tok == "l" and cur:
+                cur.append((nums[-2], nums[-1]))
+            elif tok in ("S", "s") and len(cur) > 1:
+                paths.append(cur)
+                cur = []
+            elif tok in ("n", "f", "f*", "B", "W"):
+                cur = []
+            nums = []
+    return paths
+
+
+def seg_in_box(p, q, box):
+    """Liang-Barsky: does segment p-q cross box (x0, y0, x1, y1)?"""
+    (x0, y0), (x1, y1) = p, q
+    dx, dy, t0, t1 = x1 - x0, y1 - y0, 0.0, 1.0
+    for pi, qi in ((-dx, x0 - box[0]), (dx, box[2] - x0), (-dy, y0 - box[1]), (dy, box[3] - y0)):
+        if pi == 0:
+            if qi < 0:
+                return False
+        else:
+            t = qi / pi
+            if pi < 0:
+                t0 = max(t0, t)
+            else:
+                t1 = min(t1, t)
+            if t0 > t1:
+                return False
+    return True
+
+
+def energy_plot_clash(pdf):
+    """Issue 9: the criteria's labels on the energy-against-height plot
+    must not overprint its curves nor one another. The plot is found by
+    its heading and x-axis title (pdftotext -bbox-layout), its labels are
+    its lines of text "ID: LIMIT ...", its curves the polylines of more
+    than 5 points between heading and axis title. Returns (labels found,
+    clashes)."""
+    html = tool("pdftotext", "-bbox-layout", pdf, "-")
+    for n, page in enumerate(re.findall(r"<page [^>]*>(.*?)</page>", html, re.S), 1):
+        # runs of words of a line, split where the gap is wider than a
+        # space (two labels side by side are one line to pdftotext)
+        lines = []
+        for ln in re.finditer(r"<line [^>]*>(.*?)</line>", page, re.S):
+            run = []
+            for w in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                                 r'yMax="([\d.]+)">(.*?)</word>', ln.group(1)):
+                b = [float(w.group(i)) for i in range(1, 5)]
+                if run and b[0] - run[-1][0][2] > 0.45 * (b[3] - b[1]):
+                    lines.append(run)
+                    run = []
+                run.append((b, unescape(w.group(5)).replace("\u00a0", " ")))
+            if run:
+                lines.append(run)
+        lines = [([min(b[0] for b, _ in r), min(b[1] for b, _ in r), max(b[2] for b, _ in r),
+                   max(b[3] for b, _ in r)], " ".join(t for _, t in r)) for r in lines]
+        head = [b for b, t in lines if t.startswith("4. Impact energy against drop height")]
+        foot = [b for b, t in lines if t.startswith("drop height above the strike level")]
+        if not head or not foot:
+            continue
+        top, bottom = head[0][3], foot[0][1]
+        # a label is "ID: LIMIT..." on one line or two (the second "reached
+        # at H", "not reached ...", "exceeded ..."), or the planned height's
+        labels = [b for b, t in lines if top < b[1] < bottom and
+                  (re.match(r"\S+: [\d.]+ (J|ft·lbf)", t) or
+                   re.match(r"(planned|reached at|not reached|exceeded at) ", t))]
+        # the curves: polylines of more than 5 points, most of them inside
+        # the plot (on a logarithmic axis the lowest run below it, clipped)
+        curves = [p for p in page_paths(pdf, n) if len(p) > 5 and
+                  sum(top < y < bottom for _, y in p) > len(p) / 2]
+        clashes = []
+        inner = [(b[0] + 0.5, b[1] + 0.5, b[2] - 0.5, b[3] - 0.5) for b in labels]
+        for i, b in enumerate(inner):
+            if any(seg_in_box(c[k], c[k + 1], b) for c in curves for k in range(len(c) - 1)):
+                clashes.append(f"label over a curve at {labels[i]}")
+            for o in inner[i + 1:]:
+                if b[0] < o[2] and o[0] < b[2] and b[1] < o[3] and o[1] < b[3]:
+                    clashes.append(f"labels over each other at {b} and {o}")
+        return len(labels), len(curves), clashes
+    return 0, 0, ["no energy plot found"]
+
+
 def no_leftovers(d, keep=()):
     return sorted(set(os.listdir(d)) - set(keep)) == []
 
@@ -193,6 +374,16 @@ for cid in ("us-part107-cat3", "eu-c1-80j"):
     check(sha256(os.path.join(CRIT, cid + ".yaml")) in text, f"the SHA-256 of criteria file {cid}")
 check("2026-01-01 00:00:00 UTC" in p1, "the calculation time is SOURCE_DATE_EPOCH, in UTC")
 
+# every criterion's source in full and its status (us-part107-cat3 is
+# seen, eu-c1-80j transcribed), and no id broken across lines
+check_sources(pdf, ["us-part107-cat3", "eu-c1-80j"], fall_si, "drone")
+broken = ids_broken(pdf, ["us-part107-cat3", "eu-c1-80j"])
+check(not broken, f"drone: no criterion id broken across lines: {broken}")
+
+# the energy plot: no criterion's label over a curve or over another label
+nl, nc, clash = energy_plot_clash(pdf)
+check(nl >= 3 and nc >= 1 and not clash, f"drone: {nl} labels, {nc} curves on the energy plot: {clash}")
+
 # footers on every page, the cautions in full
 for i, p in enumerate(pages, 1):
     check(f"page {i} of {m}" in p, f"page {i}: 'page {i} of {m}'")
@@ -226,6 +417,17 @@ check(rc == 0, f"letter, us: exit {rc}: {err}")
 check(pdfinfo(pdf_us).get("Page size", "").startswith("612 x 792 pts"), "letter paper")
 tu = " ".join(pages_text(pdf_us))
 check(speed_us in tu and re.search(r"\d ft\b", tu), "US units: ft/s first, a scale in ft")
+# the wind arrow's speed in the text report's display unit: mph (knots)
+# under --units us, m/s in SI, the same figure as `plumb fall` at the
+# release height (issue 9: "wind in knots or mph where a person expects them")
+for rep, sheet_text, what in ((fall_us, tu, "US"), (fall_si, text, "SI")):
+    wm = re.search(r"([\d.]+ (?:mph \([\d.]+ kn\)|m/s)) from (\S+ \(\w+\)) at\s+the\s+release\s+height",
+                   re.sub(r"\s+", " ", rep.replace("\u00a0", " ")))
+    check(wm is not None and f"the way the wind blows, {wm.group(1)} from {wm.group(2)}" in sheet_text,
+          f"{what}: the wind arrow gives the text report's wind "
+          f"{wm.group(0) if wm else '(none found in plumb fall)'}")
+check("the way the wind blows" in tu and not re.search(r"wind blows, [\d.]+ ft/s", tu),
+      "US: the wind arrow is not in ft/s")
 check(not bbox_outside(pdf_us), "letter: no text outside the margins")
 n, bad = grey_margins_blank(pdf_us)
 check(not bad, f"letter: margins blank in grey, not on {bad}")
@@ -255,10 +457,45 @@ check(len(with_header) >= 2, f"the table's header repeated on its pages: {with_h
 check("no clearance zone: inputs carry no uncertainty" in kt, "no uncertainty: said in words")
 check("Test job" in kp[0] and "A. Tester" in kp[0], "the job map on page 1")
 check(not bbox_outside(pdf_kit), "40 items: no text outside the margins")
+# both criteria from memory; z89-type2-30j was broken as "[z89-" / "type2-30j]"
+# in the answer's table, and both ids in the ratio columns' headers
+kit_ids = ["en397-shock-49j", "z89-type2-30j"]
+_, kit_fall, _ = plumb("fall", kit)
+check_sources(pdf_kit, kit_ids, kit_fall, "40 items")
+broken = ids_broken(pdf_kit, kit_ids)
+check(not broken, f"40 items: no criterion id broken across lines: {broken}")
+plain = tool("pdftotext", "-enc", "UTF-8", pdf_kit, "-")
+check(all(f"[{cid}]" in plain for cid in kit_ids) and "\u2060" not in plain and "\u2011" not in plain,
+      "40 items: plain pdftotext gives each id as typed (to search and copy), no invisible joiners")
+check("Ratio columns: C1 [en397-shock-49j], C2 [z89-type2-30j]" in kt,
+      "40 items: the ratio columns' key names each criterion's id")
+nl, nc, clash = energy_plot_clash(pdf_kit)
+check(nl >= 3 and nc == 4 and not clash, f"40 items: {nl} labels, {nc} curves on the energy plot: {clash}")
 for i, p in enumerate(kp, 1):
     check(f"page {i} of {len(kp)}" in p, f"40 items, page {i} of {len(kp)}")
 os.remove(kit)
 os.remove(pdf_kit)
+
+# ---- a kit judged against eight criteria: the labels of the energy plot ------------
+# Eight limit lines within a decade of energy on a logarithmic axis, four
+# curves crossing them: every label still clear of the curves and of the
+# other labels (the labels were drawn at the left, over the rising curves).
+crowd = os.path.join(tmp, "crowd.yaml")
+with open(crowd, "w") as f:
+    f.write("name: crowded plot\nitems:\n")
+    for nm, kg, area in (("spanner", 0.312, 0.0031), ("radio", 0.413, 0.0042),
+                         ("bolts", 2.385, 0.0063), ("tie", 0.087, 0.0117)):
+        f.write(f"  - name: {nm}\n    mass: {kg} kg\n    drag: {{cd: 1.0, area: {area} m^2}}\n")
+    f.write("release: {height: 31.6 m}\ncriteria: [" + ", ".join(sorted(
+        n[:-5] for n in os.listdir(CRIT) if n.endswith(".yaml"))) + "]\n")
+pdf_crowd = os.path.join(tmp, "crowd.pdf")
+rc, _, err = run("sheet", crowd, "-o", pdf_crowd)
+check(rc == 0, f"eight criteria: exit {rc}: {err}")
+nl, nc, clash = energy_plot_clash(pdf_crowd)
+check(nl >= 9 and nc == 4 and not clash, f"eight criteria: {nl} labels, {nc} curves: {clash}")
+check(not bbox_outside(pdf_crowd), "eight criteria: no text outside the margins")
+os.remove(crowd)
+os.remove(pdf_crowd)
 
 # ---- several profiles: one document ------------------------------------------------
 both = os.path.join(tmp, "both.pdf")
