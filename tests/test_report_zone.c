@@ -584,6 +584,38 @@ static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it
     free(si);
 }
 
+/* A zone dropped from rest has no throw: the drag-free throw rule says so
+ * plainly instead of "0 m ... (0 m/s, in its own direction)" (issue 9);
+ * with a release velocity it gives the range and the speed. The range of
+ * a drag-free throw is kinematics (v t, t the fall time). */
+static void test_a_drop_from_rest_says_there_is_no_throw(void **state)
+{
+    (void)state;
+    plumb_zone_result rest = base;
+    rest.zone.max_release_speed_m_s = 0.0;
+    rest.zone.ballistic_throw_m = 0.0;
+    plumb_zone_item item = {"marker bag", &rest};
+    plumb_zone_report rep = single(&item);
+    for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+        char *out = good(&rep, PLUMB_FORMAT_TEXT, (plumb_unit_system)u);
+        char *flat = squeeze(out);
+        assert_non_null(strstr(flat, "drag-free throw none: every sample is dropped from rest "
+                                     "(no release velocity), so nothing is thrown"));
+        assert_null(strstr(flat, "in its own direction"));
+        free(flat);
+        free(out);
+    }
+    /* thrown: the range and the fastest release speed */
+    item.result = &base;
+    char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    char *flat = squeeze(out);
+    assert_true(base.zone.max_release_speed_m_s > 1.0);
+    assert_non_null(strstr(flat, "of the sample released fastest ("));
+    assert_null(strstr(flat, "dropped from rest"));
+    free(flat);
+    free(out);
+}
+
 /* ---- refusals ----------------------------------------------------------------------------- */
 
 static void refused(const plumb_zone_report *rep, const char *part)
@@ -734,6 +766,7 @@ int main(void)
         cmocka_unit_test(test_us_csv_gives_feet_and_foot_pounds_and_quotes_names),
         cmocka_unit_test(test_inventory_json_names_the_item_with_the_largest_clearance_radius),
         cmocka_unit_test(test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it),
+        cmocka_unit_test(test_a_drop_from_rest_says_there_is_no_throw),
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
         cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
         cmocka_unit_test(test_the_samples_file_reads_back_and_quotes_names),

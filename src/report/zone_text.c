@@ -385,10 +385,16 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
                  num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4));
         wrapped(w, "  plate glide                ", line);
     }
-    snprintf(line, sizeof line,
-             "%s: the range, without drag or wind, of the sample released fastest (%s, in "
-             "its own direction)",
-             t_len(w, z->ballistic_throw_m), plumbp_t_speed(w, z->max_release_speed_m_s));
+    const char *speed = plumbp_t_speed(w, z->max_release_speed_m_s);
+    if (plumbp_shows_zero(speed))
+        /* dropped from rest: there is no throw to give a range */
+        snprintf(line, sizeof line, "none: every sample is dropped from rest (no release "
+                 "velocity), so nothing is thrown");
+    else
+        snprintf(line, sizeof line,
+                 "%s: the range, without drag or wind, of the sample released fastest (%s, "
+                 "in its own direction)",
+                 t_len(w, z->ballistic_throw_m), speed);
     for (char *c = line; *c; c++)
         if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
             *c = NBSP_CHAR;
