@@ -725,7 +725,7 @@ static void test_helmet_tests_too_many_to_name_are_counted_not_cut(void **state)
     size_t len = (size_t)snprintf(yaml, sizeof yaml, "payload: {mass: 0.734 kg, drag: {cd_area: "
                                   "0.0041 m^2}}\nrelease: {height: 17.3 m}\ncriteria: [");
     for (int i = 0; i < 7; i++) {
-        char id[64];
+        char id[80];
         snprintf(id, sizeof id, "helmet-test-%d-with-an-identifier-as-long-as-a-file-may-give1", i);
         assert_int_equal(strlen(id), 60);
         snprintf(path, sizeof path, "%s/%s.yaml", dir, id);
