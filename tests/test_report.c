@@ -35,6 +35,7 @@
 #include <jansson.h>
 
 #include "plumb/plumb.h"
+#include "core/internal.h"
 #include "plumb_test.h"
 
 /* 1 ft lbf in J, exact by definition: the international foot 0.3048 m and
@@ -631,6 +632,163 @@ static void test_helmet_test_criterion_is_labelled_not_a_safe_limit(void **state
     plumb_profile_free(p);
 }
 
+/* Fails unless a warning is whole: it ends its sentence with a full stop
+ * and carries neither mark of a warning cut or left out
+ * (core/internal.h), and it fits its slot with room to spare. */
+static void assert_whole(const char *w)
+{
+    size_t n = strlen(w);
+    if (n == 0 || w[n - 1] != '.' || strstr(w, PLUMBP_WARNING_CUT) ||
+        strstr(w, PLUMBP_WARNINGS_LEFT_OUT) || n + 1 >= PLUMB_WARNING)
+        fail_msg("warning not whole (%zu bytes): %s", n, w);
+}
+
+/* The zone carries a fall's warnings as plumb fall gives them (study.c):
+ * each, added to a zone result, must read back the same, whole. */
+static void assert_whole_in_a_zone(const plumb_item_report *it)
+{
+    plumb_zone_result *z = calloc(1, sizeof *z);
+    assert_non_null(z);
+    for (size_t i = 0; i < it->n_warnings; i++) {
+        assert_whole(it->warnings[i]);
+        plumb_zone_add_warning(z, "%s", it->warnings[i]);
+        assert_string_equal(z->warnings[z->n_warnings - 1], it->warnings[i]);
+    }
+    assert_int_equal(z->n_warnings, it->n_warnings);
+    free(z);
+}
+
+/* Every warning the judge writes, each at its longest: the widest words
+ * (flutter, von Karman) and figures as wide as %.3g prints (three digits
+ * and a three-digit exponent; the wake's a two-digit one, since its
+ * fourth powers must stay finite), with room to spare in the slot. The Mach figure (%.2f) is given six integer digits: Mach
+ * 98765 is 3.4e7 m/s, beyond the terminal speeds plumb computes. Before
+ * this test a zone kept 320 bytes of each and cut the glide and downwash
+ * warnings mid-word (issue 9). */
+static void test_the_longest_warnings_of_a_fall_are_whole_in_the_fall_and_its_zone(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
+    plumb_fall_spec s = *plumb_profile_item(p, 0);
+    s.drag.model = PLUMB_DRAG_SPHERE_MORRISON;
+    s.drag.diameter_m = 0.347;
+    s.drag.extrapolated = 1;
+    s.glide.mode = PLUMB_GLIDE_FLUTTER;
+    s.glide.from_shape = 1;
+    s.glide.istar = -1.23456e-100;
+    /* a wake whose figures print wide but whose fourth powers stay finite */
+    s.downwash.aircraft_mass_kg = 1.23456e+60;
+    s.downwash.disk_area_m2 = 1.23456e-60;
+    s.velocity_m_s[0] = -1.23456e+62; /* air past the rotor: the skewed wake too */
+    s.turbulence.model = PLUMB_TURB_VON_KARMAN;
+    s.turbulence.w20_m_s = 1.23456e+101;
+    s.turbulence.n_modes = (size_t)-1;
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
+    plumb_item_report it;
+    hand_built(&it, p, 22.913);
+    it.spec = &s;
+    it.result.max_mach = 98765.4321;
+    it.result.min_re = 1.23456e-100;
+    it.result.max_re = 1.23456e+101;
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, atm, &diag), PLUMB_OK);
+    /* Mach, Reynolds, the table's end, the glide, two of downwash, gusts */
+    assert_int_equal(it.n_warnings, 7);
+    assert_true(has_warning(&it, "Plate-like: taken to flutter"));
+    assert_true(has_warning(&it, "for the whole fall."));
+    assert_true(has_warning(&it, "rough guide only."));
+    assert_whole_in_a_zone(&it);
+    /* the descent devices that do not open (no glide with a device) */
+    s.n_descent = PLUMB_MAX_DESCENT;
+    for (size_t i = 0; i < PLUMB_MAX_DESCENT; i++)
+        s.descent[i].kind = PLUMB_DESCENT_STREAMER;
+    it.result.n_deployed = 0;
+    assert_int_equal(plumb_item_judge(&it, p, fx->crit, atm, &diag), PLUMB_OK);
+    assert_true(has_warning(&it, "(device 2) does not open"));
+    assert_false(has_warning(&it, "Plate-like"));
+    assert_whole_in_a_zone(&it);
+    plumb_atmosphere_free(atm);
+    plumb_profile_free(p);
+}
+
+/* Helmet tests whose ids fit in a warning but whose sentence would not
+ * are counted, not named and cut: seven ids of 60 characters are 432
+ * bytes of names, the sentence about them 547 (PLUMB_WARNING is 512). */
+static void test_helmet_tests_too_many_to_name_are_counted_not_cut(void **state)
+{
+    fixture *fx = *state;
+    char dir[160], path[256], yaml[1024];
+    snprintf(dir, sizeof dir, "%s/helmets", fx->dir);
+    snprintf(path, sizeof path, "mkdir '%s'", dir);
+    assert_int_equal(system(path), 0);
+    size_t len = (size_t)snprintf(yaml, sizeof yaml, "payload: {mass: 0.734 kg, drag: {cd_area: "
+                                  "0.0041 m^2}}\nrelease: {height: 17.3 m}\ncriteria: [");
+    for (int i = 0; i < 7; i++) {
+        char id[80];
+        snprintf(id, sizeof id, "helmet-test-%d-with-an-identifier-as-long-as-a-file-may-give1", i);
+        assert_int_equal(strlen(id), 60);
+        snprintf(path, sizeof path, "%s/%s.yaml", dir, id);
+        /* EN 397 shock absorption test energy, 49 J (see the file's sources) */
+        write_file(path, "name: EN 397 helmet shock absorption test\nkind: helmet-test\n"
+                         "energy_limit: 49 J\napplies_to: industrial safety helmet, as tested\n"
+                         "source: EN 397, shock absorption test\nstatus: transcribed\n");
+        len += (size_t)snprintf(yaml + len, sizeof yaml - len, "%s%s", i ? ", " : "", id);
+    }
+    snprintf(yaml + len, sizeof yaml - len, "]\n");
+    plumb_criteria *crit = NULL;
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_criteria_load_dir(dir, fx->units, &crit, &diag), PLUMB_OK);
+    plumb_profile *p = load_profile(fx, "helmets.yaml", yaml);
+    plumb_item_report it;
+    hand_built(&it, p, 14.2);
+    assert_int_equal(plumb_item_judge(&it, p, crit, NULL, &diag), PLUMB_OK);
+    assert_int_equal(it.n_warnings, 1);
+    assert_whole(it.warnings[0]);
+    assert_non_null(strstr(it.warnings[0], "7 of the criteria are the energies helmets are "
+                                           "tested to"));
+    plumb_profile_free(p);
+    plumb_criteria_free(crit);
+}
+
+/* A warning longer than its slot, or one more than a list holds, is
+ * marked as such, never cut or dropped in silence. */
+static void test_a_warning_that_does_not_fit_says_so(void **state)
+{
+    (void)state;
+    plumb_zone_result *z = calloc(1, sizeof *z);
+    assert_non_null(z);
+    char longest[PLUMB_ZONE_WARNING + 200];
+    memset(longest, 'x', sizeof longest - 1);
+    longest[sizeof longest - 1] = '\0';
+    /* the longest that fits is kept whole */
+    plumb_zone_add_warning(z, "%.*s", PLUMB_ZONE_WARNING - 1, longest);
+    assert_int_equal(strlen(z->warnings[0]), PLUMB_ZONE_WARNING - 1);
+    assert_null(strstr(z->warnings[0], PLUMBP_WARNING_CUT));
+    /* one byte more ends in the mark; a two-byte character is never split */
+    plumb_zone_add_warning(z, "%s", longest);
+    const char *w = z->warnings[1];
+    assert_true(strlen(w) < PLUMB_ZONE_WARNING);
+    assert_string_equal(w + strlen(w) - strlen(PLUMBP_WARNING_CUT), PLUMBP_WARNING_CUT);
+    for (size_t i = 0; i + 1 < sizeof longest; i += 2)
+        memcpy(longest + i, "\xC2\xB0", 2);
+    longest[sizeof longest - 1 - (sizeof longest - 1) % 2] = '\0';
+    plumb_zone_add_warning(z, "%s", longest);
+    w = z->warnings[2];
+    size_t keep = strlen(w) - strlen(PLUMBP_WARNING_CUT);
+    assert_int_equal(keep % 2, 0);
+    assert_int_equal(strncmp(w, longest, keep), 0);
+    /* the list full: the last says that more were left out */
+    while (z->n_warnings < PLUMB_ZONE_MAX_WARNINGS)
+        plumb_zone_add_warning(z, "Warning %zu.", z->n_warnings);
+    assert_string_equal(z->warnings[PLUMB_ZONE_MAX_WARNINGS - 1], "Warning 15.");
+    plumb_zone_add_warning(z, "One too many.");
+    assert_int_equal(z->n_warnings, PLUMB_ZONE_MAX_WARNINGS);
+    assert_string_equal(z->warnings[PLUMB_ZONE_MAX_WARNINGS - 1], PLUMBP_WARNINGS_LEFT_OUT);
+    free(z);
+}
+
 /* ---- JSON ---------------------------------------------------------------- */
 
 static void test_json_has_the_keys_of_design_section_6(void **state)
@@ -922,6 +1080,9 @@ int main(void)
         cmocka_unit_test(test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says),
         cmocka_unit_test(test_us_units_csv_names_columns_in_feet_and_pounds),
         cmocka_unit_test(test_inventory_names_the_worst_item_and_the_largest_drift),
+        cmocka_unit_test(test_the_longest_warnings_of_a_fall_are_whole_in_the_fall_and_its_zone),
+        cmocka_unit_test(test_helmet_tests_too_many_to_name_are_counted_not_cut),
+        cmocka_unit_test(test_a_warning_that_does_not_fit_says_so),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }

@@ -501,7 +501,12 @@ static void test_us_csv_gives_feet_and_foot_pounds_and_quotes_names(void **state
     row = "\"marker bag, red\",energy_max";
     assert_rel(csv_value(si, row), z->energy_max_j, 1e-9);
     assert_rel(csv_value(us, row), z->energy_max_j / FT_LBF_J, 1e-9);
-    assert_non_null(strstr(us, ",ft_lbf\n"));
+    /* the energy unit spelt as the comment lines and the text spell it
+     * ("limit 36.14 ft·lbf (49 J)"), not as a column name's ft_lbf */
+    assert_non_null(strstr(us, ",energy_max,"));
+    assert_non_null(strstr(us, ",ft·lbf\n"));
+    assert_null(strstr(us, ",ft_lbf\n"));
+    assert_non_null(strstr(si, ",J\n"));
     row = "\"marker bag, red\",target.east";
     assert_rel(csv_value(us, row), 12.5 / FT_M, 1e-9);
     free(si);
@@ -527,6 +532,87 @@ static void test_inventory_json_names_the_item_with_the_largest_clearance_radius
     free(out);
     out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
     assert_non_null(strstr(out, "==== tag line\n"));
+    free(out);
+}
+
+/* README "Kits": the kit's clearance radius and landing circle and the
+ * items that set them, in CSV as in text and JSON: a "# kit:" comment and
+ * a row of each in the row of the item that sets it. */
+static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it(void **state)
+{
+    (void)state;
+    plumb_zone_result wider = base, landing = base;
+    wider.zone.clearance_radius_m = 1.37 * base.zone.clearance_radius_m;
+    landing.zone.landing_radius.hi_open = 0;
+    landing.zone.landing_circle_m = 0.83 * base.zone.clearance_radius_m;
+    plumb_zone_item items[3] = {{"marker bag", &base}, {"tag line, orange", &wider},
+                                {"radio", &landing}};
+    plumb_zone_report rep = single(items);
+    rep.inventory = 1;
+    rep.n_items = 3;
+    rep.kit_item = 1;
+    rep.kit_landing_item = 2;
+    char *si = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI);
+    char *us = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_US);
+    double r = wider.zone.clearance_radius_m, c = landing.zone.landing_circle_m;
+    assert_rel(csv_value(si, "\"tag line, orange\",kit_clearance_radius"), r, 1e-9);
+    assert_rel(csv_value(us, "\"tag line, orange\",kit_clearance_radius"), r / FT_M, 1e-9);
+    assert_rel(csv_value(si, "radio,kit_landing_circle"), c, 1e-9);
+    assert_rel(csv_value(us, "radio,kit_landing_circle"), c / FT_M, 1e-9); /* 1 ft = 0.3048 m */
+    /* one row each, nowhere else */
+    assert_null(strstr(si, "marker bag,kit_"));
+    const char *row = "\"tag line, orange\",kit_clearance_radius";
+    assert_null(strstr(strstr(si, row) + strlen(row), ",kit_clearance_radius"));
+    const char *kit = strstr(si, "\n# kit: clearance radius at confidence 0.9: ");
+    assert_non_null(kit);
+    assert_true(kit < strstr(si, "\nitem,quantity,"));
+    assert_non_null(strstr(kit, ", set by tag line, orange (the item with the largest radius"));
+    assert_non_null(strstr(kit, "largest landing circle "));
+    assert_non_null(strstr(strstr(us, "\n# kit: "), " ft, set by radio\n"));
+    free(si);
+    free(us);
+    /* a landing circle no item bounds: no row, the comment says open */
+    landing.zone.landing_radius.hi_open = 1;
+    si = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI);
+    assert_null(strstr(si, ",kit_landing_circle,"));
+    assert_non_null(strstr(si, "largest landing circle open"));
+    free(si);
+    /* a single payload has no kit rows */
+    plumb_zone_report one = single(items);
+    si = good(&one, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI);
+    assert_null(strstr(si, "kit"));
+    free(si);
+}
+
+/* A zone dropped from rest has no throw: the drag-free throw rule says so
+ * plainly instead of "0 m ... (0 m/s, in its own direction)" (issue 9);
+ * with a release velocity it gives the range and the speed. The range of
+ * a drag-free throw is kinematics (v t, t the fall time). */
+static void test_a_drop_from_rest_says_there_is_no_throw(void **state)
+{
+    (void)state;
+    plumb_zone_result rest = base;
+    rest.zone.max_release_speed_m_s = 0.0;
+    rest.zone.ballistic_throw_m = 0.0;
+    plumb_zone_item item = {"marker bag", &rest};
+    plumb_zone_report rep = single(&item);
+    for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+        char *out = good(&rep, PLUMB_FORMAT_TEXT, (plumb_unit_system)u);
+        char *flat = squeeze(out);
+        assert_non_null(strstr(flat, "drag-free throw none: every sample is dropped from rest "
+                                     "(no release velocity), so nothing is thrown"));
+        assert_null(strstr(flat, "in its own direction"));
+        free(flat);
+        free(out);
+    }
+    /* thrown: the range and the fastest release speed */
+    item.result = &base;
+    char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    char *flat = squeeze(out);
+    assert_true(base.zone.max_release_speed_m_s > 1.0);
+    assert_non_null(strstr(flat, "of the sample released fastest ("));
+    assert_null(strstr(flat, "dropped from rest"));
+    free(flat);
     free(out);
 }
 
@@ -679,6 +765,8 @@ int main(void)
         cmocka_unit_test(test_json_figures_read_back_to_the_same_doubles),
         cmocka_unit_test(test_us_csv_gives_feet_and_foot_pounds_and_quotes_names),
         cmocka_unit_test(test_inventory_json_names_the_item_with_the_largest_clearance_radius),
+        cmocka_unit_test(test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it),
+        cmocka_unit_test(test_a_drop_from_rest_says_there_is_no_throw),
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
         cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
         cmocka_unit_test(test_the_samples_file_reads_back_and_quotes_names),

@@ -50,6 +50,7 @@
 #include "plumb/atmosphere.h"
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
+#include "plumb/judge.h"
 #include "plumb/profile.h"
 #include "plumb/region.h"
 
@@ -59,7 +60,9 @@ enum {
     PLUMB_ZONE_RADII = 4,          /* radius percentiles: 50, 90, 99, 99.9 % */
     PLUMB_ZONE_ENERGIES = 3,       /* energy percentiles: 50, 95, 99 % */
     PLUMB_ZONE_MAX_WARNINGS = 16,  /* warnings per zone result */
-    PLUMB_ZONE_WARNING = 320       /* bytes of one warning, with its '\0' */
+    /* bytes of one warning, with its '\0': a fall's (plumb/judge.h), since
+     * a zone carries its fall's warnings as plumb fall prints them */
+    PLUMB_ZONE_WARNING = PLUMB_WARNING
 };
 
 /* Largest spread of the impact points, m, below which the uncertain inputs
@@ -283,8 +286,10 @@ typedef struct plumb_zone_result {
                                  the caller adds (plumb_zone_add_warning) */
 } plumb_zone_result;
 
-/* Appends a warning (a sentence) to a result; silently stops when full.
- * Can't fail. */
+/* Appends a warning (a sentence) to a result, whole. Never silent: a
+ * sentence longer than PLUMB_ZONE_WARNING - 1 bytes ends in a note that it
+ * was cut, and one more than PLUMB_ZONE_MAX_WARNINGS makes the last say
+ * that some were left out. Can't fail. */
 void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
 #if defined(__GNUC__)
     __attribute__((format(printf, 2, 3)))

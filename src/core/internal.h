@@ -42,6 +42,21 @@ char *plumbp_strlcpy(char *dst, const char *src, size_t n);
  * did-you-mean scored its own way (criteria ids, units). Can't fail. */
 int plumbp_edit_distance(const char *a, const char *b);
 
+/* The ends a warning gets when it does not fit (plumbp_warning_add). */
+#define PLUMBP_WARNING_CUT " [warning cut short here: longer than plumb keeps; a defect, please report it]"
+#define PLUMBP_WARNINGS_LEFT_OUT "Further warnings were left out: more than plumb keeps; a defect, please report it."
+
+/* Appends a warning sentence to a list of `max` slots of `slot_size`
+ * bytes each (slots[0..*n) in use) and counts it in *n. Never silent: a
+ * sentence longer than its slot ends in PLUMBP_WARNING_CUT, cut at a
+ * character boundary; one more than the list holds makes the last slot
+ * PLUMBP_WARNINGS_LEFT_OUT. The slots are sized for the longest sentence
+ * the library writes, so neither happens (tests/test_report.c). Can't fail. */
+void plumbp_warning_add(char *slots, size_t slot_size, size_t max, size_t *n, const char *fmt, ...)
+    PLUMBP_PRINTF(5, 6);
+void plumbp_warning_vadd(char *slots, size_t slot_size, size_t max, size_t *n, const char *fmt,
+                         va_list ap);
+
 /* True when x is neither NaN nor infinite. */
 int plumbp_finite(double x);
 

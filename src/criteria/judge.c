@@ -24,18 +24,17 @@
 
 /* ---- verdicts and warnings ---------------------------------------------- */
 
-/* Appends a warning (a sentence) to the item; silently stops when full. */
+/* Appends a warning (a sentence) to the item, whole; one that does not
+ * fit is marked, never cut or dropped in silence (plumbp_warning_add). */
 static void add_warning(plumb_item_report *item, const char *fmt, ...) PLUMBP_PRINTF(2, 3);
 
 static void add_warning(plumb_item_report *item, const char *fmt, ...)
 {
-    if (item->n_warnings >= PLUMB_MAX_WARNINGS)
-        return;
     va_list ap;
     va_start(ap, fmt);
-    vsnprintf(item->warnings[item->n_warnings], PLUMB_WARNING, fmt, ap);
+    plumbp_warning_vadd(&item->warnings[0][0], PLUMB_WARNING, PLUMB_MAX_WARNINGS,
+                        &item->n_warnings, fmt, ap);
     va_end(ap);
-    item->n_warnings++;
 }
 
 /* Most bytes of the list of criterion ids an unknown-criterion message
@@ -74,7 +73,8 @@ static plumb_status unknown_criterion(const char *name, size_t index,
 }
 
 /* Names the helmet-test criteria among the verdicts in one sentence, or
- * says so without names when they do not fit. */
+ * says so without names when the sentence with them would not fit in a
+ * warning. */
 static void warn_helmet_tests(plumb_item_report *item)
 {
     char names[PLUMB_WARNING] = "";
@@ -94,15 +94,17 @@ static void warn_helmet_tests(plumb_item_report *item)
     if (count == 0)
         return;
     char sentence[PLUMB_WARNING * 2];
+    int n = -1;
     if (fits && count == 1)
-        snprintf(sentence, sizeof sentence,
-                 "%s is the energy a helmet is tested to, not a safe limit: a blow below it "
-                 "can still injure, with or without a helmet.", names);
+        n = snprintf(sentence, sizeof sentence,
+                     "%s is the energy a helmet is tested to, not a safe limit: a blow below it "
+                     "can still injure, with or without a helmet.", names);
     else if (fits)
-        snprintf(sentence, sizeof sentence,
-                 "%s are the energies helmets are tested to, not safe limits: a blow below "
-                 "them can still injure, with or without a helmet.", names);
-    else
+        n = snprintf(sentence, sizeof sentence,
+                     "%s are the energies helmets are tested to, not safe limits: a blow below "
+                     "them can still injure, with or without a helmet.", names);
+    /* the names alone may fit where the sentence around them does not */
+    if (n < 0 || (size_t)n >= PLUMB_WARNING)
         snprintf(sentence, sizeof sentence,
                  "%zu of the criteria are the energies helmets are tested to, not safe limits: "
                  "a blow below them can still injure, with or without a helmet.", count);

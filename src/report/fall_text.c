@@ -486,13 +486,11 @@ static const char *inventory_verdict(writer *w, const plumb_verdict *v)
     return b;
 }
 
-/* The continuation lines of a name wrapped in its table column. */
-static void name_continued(writer *w, const char *rest, size_t name_w, char *part, size_t size)
+/* The continuation lines of a name wrapped in its table column, under
+ * the "%4zu " of the item's number. */
+static void name_continued(writer *w, const char *rest, size_t name_w)
 {
-    while (*rest) {
-        rest = wrap_cell(rest, name_w, part, size);
-        put(w, "     %s\n", part);
-    }
+    cell_continued(w, 5, rest, name_w);
 }
 
 void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plumb_fall_report *rep,
@@ -559,7 +557,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         for (size_t k = 0; inline_crit && k < nv; k++)
             pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
         put(w, "\n");
-        name_continued(w, rest, name_w, part, sizeof part);
+        name_continued(w, rest, name_w);
     }
     /* the verdicts, in blocks of as many criteria as fit */
     size_t per = (TABLE_WIDTH - NO_W - name_w) / CRIT_W;
@@ -586,7 +584,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
             for (size_t k = k0; k < k1; k++)
                 pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
             put(w, "\n");
-            name_continued(w, rest, name_w, part, sizeof part);
+            name_continued(w, rest, name_w);
         }
     }
 

@@ -175,11 +175,7 @@ static void sweep_name_continued(writer *w, const sweep_cols *c, const char *res
     size_t keys_w = 0;
     for (size_t a = 0; a < c->na; a++)
         keys_w += c->wkey[a] + (a ? SWEEP_GAP : 1);
-    while (*rest) {
-        char part[PLUMB_NAME];
-        rest = wrap_cell(rest, c->name_w, part, sizeof part);
-        put(w, "%*s%s\n", (int)(keys_w + SWEEP_GAP), "", part);
-    }
+    cell_continued(w, keys_w + SWEEP_GAP, rest, c->name_w);
 }
 
 /* A ratio with its verdict beside it, "1.00 EXCEEDS" / "0.997 within", so

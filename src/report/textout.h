@@ -273,6 +273,19 @@ static inline const char *wrap_cell(const char *s, size_t width, char *part, siz
     return p;
 }
 
+/* The continuation lines of a table cell wrapped in its column (an item's
+ * name in the tables of fall, sweep and zone): the rest of the cell after
+ * its first line (wrap_cell), `width` shown characters a line, each line
+ * `indent` spaces in. Writes nothing when rest is "". */
+static inline void cell_continued(writer *w, size_t indent, const char *rest, size_t width)
+{
+    while (*rest) {
+        char part[4 * TABLE_WIDTH + 1]; /* a line of the widest column, 4 bytes a character */
+        rest = wrap_cell(rest, width, part, sizeof part);
+        put(w, "%*s%s\n", (int)indent, "", part);
+    }
+}
+
 static inline double wrap_deg(double a)
 {
     double w = fmod(a, 360.0);

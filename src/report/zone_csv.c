@@ -48,7 +48,8 @@ static void csv_stats(writer *w, const char *item, const char *prefix, const plu
     char q[128];
     double L = len_shown(w, 1.0);
     const char *lu = len_unit(w);
-    const char *eu = w->us ? "ft_lbf" : "J";
+    /* the unit as the comment lines and every text report spell it */
+    const char *eu = w->us ? "ft·lbf" : "J";
     double E = w->us ? 1.0 / PLUMB_FT_LBF_J : 1.0;
 #define Q(name) (snprintf(q, sizeof q, "%s%s", prefix, name), q)
     csv_row(w, item, Q("release_east"), z->release_m[0] * L, NULL, NULL, lu);
@@ -130,6 +131,21 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
             plumbp_csv_limit(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
             cr->status[0] ? cr->status : "not given");
     }
+    if (rep->inventory) {
+        /* the kit as a whole, as the text and JSON give it */
+        const plumb_zone_result *kr = rep->items[rep->kit_item].result;
+        const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
+        put(w, "# kit: clearance radius at confidence %s: %s %s, set by %s (the item with the largest "
+               "radius; every item's zone lies within it); ", csvnum(w, kr->confidence),
+            csvnum(w, len_shown(w, kr->zone.clearance_radius_m)), len_unit(w),
+            rep->items[rep->kit_item].name);
+        if (lr->zone.landing_radius.hi_open)
+            put(w, "largest landing circle open (more samples needed to bound it)\n");
+        else
+            put(w, "largest landing circle %s %s, set by %s\n",
+                csvnum(w, len_shown(w, lr->zone.landing_circle_m)), len_unit(w),
+                rep->items[rep->kit_landing_item].name);
+    }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
         for (size_t k = 0; k < r->n_warnings; k++)
@@ -153,6 +169,17 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
                     NULL, len_unit(w));
             csv_stats(w, rep->items[i].name, "target.", &r->at_target, 1);
         }
+    }
+    /* the kit's clearance radius and landing circle, each in the row of the
+     * item that sets it (the landing circle only when bounded, as an item's) */
+    if (rep->inventory) {
+        const plumb_zone_result *kr = rep->items[rep->kit_item].result;
+        const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
+        csv_row(w, rep->items[rep->kit_item].name, "kit_clearance_radius",
+                len_shown(w, kr->zone.clearance_radius_m), NULL, NULL, len_unit(w));
+        if (!lr->zone.landing_radius.hi_open)
+            csv_row(w, rep->items[rep->kit_landing_item].name, "kit_landing_circle",
+                    len_shown(w, lr->zone.landing_circle_m), NULL, NULL, len_unit(w));
     }
 }
 

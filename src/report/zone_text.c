@@ -385,10 +385,16 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
                  num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4));
         wrapped(w, "  plate glide                ", line);
     }
-    snprintf(line, sizeof line,
-             "%s: the range, without drag or wind, of the sample released fastest (%s, in "
-             "its own direction)",
-             t_len(w, z->ballistic_throw_m), plumbp_t_speed(w, z->max_release_speed_m_s));
+    const char *speed = plumbp_t_speed(w, z->max_release_speed_m_s);
+    if (plumbp_shows_zero(speed))
+        /* dropped from rest: there is no throw to give a range */
+        snprintf(line, sizeof line, "none: every sample is dropped from rest (no release "
+                 "velocity), so nothing is thrown");
+    else
+        snprintf(line, sizeof line,
+                 "%s: the range, without drag or wind, of the sample released fastest (%s, "
+                 "in its own direction)",
+                 t_len(w, z->ballistic_throw_m), speed);
     for (char *c = line; *c; c++)
         if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
             *c = NBSP_CHAR;
@@ -467,11 +473,29 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
                  rep->items[rep->kit_landing_item].name);
         wrapped(w, "  ", line);
     }
-    put(w, "  %-30s %-14s %s\n", "item", "clearance", "landing circle");
+    /* The table keeps to TABLE_WIDTH columns: a long name is wrapped onto
+     * continuation lines of its own column, never cut, as in the tables of
+     * plumb fall and sweep. */
+    enum { LEAD_W = 2, GAP_W = 2, FIG_W = 13, LAST_W = 14, NAME_MIN = 4 };
+    const char *heads[2] = {"clearance", "landing circle"};
+    size_t name_w = NAME_MIN;
+    for (size_t i = 0; i < rep->n_items; i++)
+        if (shown_width(rep->items[i].name) > name_w)
+            name_w = shown_width(rep->items[i].name);
+    if (name_w > TABLE_WIDTH - LEAD_W - GAP_W - FIG_W - 1 - LAST_W)
+        name_w = TABLE_WIDTH - LEAD_W - GAP_W - FIG_W - 1 - LAST_W;
+    put(w, "%*s", LEAD_W, "");
+    pad(w, "item", name_w, 0);
+    put(w, "%*s%-*s %s\n", GAP_W, "", FIG_W, heads[0], heads[1]);
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_stats *z = &rep->items[i].result->zone;
-        put(w, "  %-30.30s %-14s %s\n", rep->items[i].name, t_len(w, z->clearance_radius_m),
+        char part[4 * TABLE_WIDTH + 1];
+        const char *rest = wrap_cell(rep->items[i].name, name_w, part, sizeof part);
+        put(w, "%*s", LEAD_W, "");
+        pad(w, part, name_w, 0);
+        put(w, "%*s%-*s %s\n", GAP_W, "", FIG_W, t_len(w, z->clearance_radius_m),
             z->landing_radius.hi_open ? "open" : t_len(w, z->landing_circle_m));
+        cell_continued(w, LEAD_W, rest, name_w);
     }
     put(w, "\n");
 }
@@ -487,8 +511,10 @@ void plumbp_zone_text_report(writer *w, const plumb_report_options *opt,
            "             for percentiles, Clopper-Pearson for probabilities\n\n",
         r0->samples, r0->seed, rep->threads, rep->threads == 1 ? "" : "s", pct(w, r0->ci_level));
     for (size_t i = 0; i < rep->n_items; i++) {
-        if (rep->inventory)
-            put(w, "==== %s\n\n", rep->items[i].name);
+        if (rep->inventory) {
+            wrapped(w, "==== ", rep->items[i].name);
+            put(w, "\n");
+        }
         text_item(w, rep->items[i].result);
     }
     if (rep->inventory)

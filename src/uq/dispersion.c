@@ -496,13 +496,13 @@ static plumb_status finish_stats(pass *ps, const plumb_fall_spec *base, const pl
 
 void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
 {
-    if (!res || res->n_warnings >= PLUMB_ZONE_MAX_WARNINGS)
+    if (!res)
         return;
     va_list ap;
     va_start(ap, fmt);
-    vsnprintf(res->warnings[res->n_warnings], PLUMB_ZONE_WARNING, fmt, ap);
+    plumbp_warning_vadd(&res->warnings[0][0], PLUMB_ZONE_WARNING, PLUMB_ZONE_MAX_WARNINGS,
+                        &res->n_warnings, fmt, ap);
     va_end(ap);
-    res->n_warnings++;
 }
 
 /* Names the attitudes of a pass's statistics from the choice entry. */

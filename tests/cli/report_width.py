@@ -5,7 +5,8 @@
     the classic terminal width, VT100 / ECMA-48 default line; common
     practice, no source);
   - every item name of an inventory appears whole: a long name is wrapped
-    onto continuation lines of its column, never cut to "~";
+    onto continuation lines of its column, never cut to "~" (fall and
+    sweep tables, and the kit table of a zone);
   - with --units us the text gives gravity in ft/s^2 (1 ft = 0.3048 m,
     international foot, 1959 agreement) and energy in ft*lbf before J in
     the inventory table, as in every other US figure.
@@ -145,6 +146,38 @@ try:
             for n in NAMES:
                 check(any(x == n for x in names),
                       f"long names --units {units}: '{n}' not whole in {names}")
+        # the zone's kit table: a row with figures after the name starts an
+        # item, a line with the name column alone continues it (issue 9: the
+        # names were cut at 30 characters)
+        rc, out, err = plumb("zone", path, "--samples", "400", "--threads", "1",
+                             "--units", units)
+        check(rc == 0, f"zone long names --units {units}: exit {rc} {err.strip()[:200]}")
+        check(not wide(out), f"zone long names --units {units}: wide lines {wide(out)[:3]}")
+        check("~" not in out, f"zone long names --units {units}: a name was cut to ~")
+        lines = out.splitlines()
+        head = [i for i, l in enumerate(lines) if re.match(r"^  item +clearance +landing circle$", l)]
+        check(len(head) == 1, f"zone long names --units {units}: one kit table, found {len(head)}")
+        names, cur = [], None
+        for l in lines[head[0] + 1:] if head else []:
+            if not l.strip():
+                break
+            col = lines[head[0]].index("clearance")
+            cell, figs = l[:col].strip(), l[col:].strip()
+            if figs:
+                if cur is not None:
+                    names.append(cur)
+                cur = cell
+            else:
+                cur = (cur + " " + cell) if cur else cell
+        if cur is not None:
+            names.append(cur)
+        for n in NAMES:
+            check(n in names, f"zone long names --units {units}: '{n}' not whole in the kit "
+                  f"table {names}")
+        # and whole in each item's heading, wrapped at the width
+        flat = " ".join(out.split())
+        for n in NAMES:
+            check(f"==== {n} " in flat, f"zone long names --units {units}: no heading '==== {n}'")
 finally:
     shutil.rmtree(tmp)
 

@@ -1,0 +1,144 @@
+#!/usr/bin/python3
+"""A zone's warnings, whole (issue 9): plumb zone carries the warnings of
+each item's fall (the glide of a plate, the rotor downwash) and must print
+every one of them whole, as plumb fall does, in text, JSON and CSV; none
+may end cut mid-word or carry the library's mark of a cut warning. Before
+the fix a zone kept 320 bytes of each: the glide warning ended
+`..."radius = drop height" is not conservati` and the downwash one
+`...release velocity for the whol`.
+
+The profiles are invented test scenarios (a tumbling plate in wind; a
+payload let go from a moving multirotor, so that both downwash warnings
+appear; a kit of the two); the figures are not checked here, only that
+the sentences are the same in both commands.
+Usage: zone_warnings.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
+"""
+import json
+import os
+import shutil
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import check, finish, plumb  # noqa: E402
+
+CUT = "warning cut short"
+
+SCENE = """release:
+  height: 27.3 m
+  velocity: {speed: 3.7 m/s, heading: 283 deg, climb: 0 m/s}
+  downwash: {aircraft_mass: 6.35 kg, disk_area: 0.93 m^2}
+site:
+  elevation: 143 m
+  latitude: 51.3 deg
+wind:
+  profile: uniform
+  speed: 6.3 m/s
+  from: 251 deg
+uncertainty:
+  wind.speed: {normal: [6.3 m/s, 1.1 m/s]}
+"""
+PLATE = """name: tumbling plate in wind
+payload:
+  mass: 0.437 kg
+  shape: {kind: plate, edges: [0.31 m, 0.23 m], thickness: 0.004 m, attitude: tumbling}
+  glide: tumble
+release:
+  height: 23.7 m
+site:
+  elevation: 120 m
+  latitude: 51.3 deg
+wind:
+  profile: uniform
+  speed: 6.3 m/s
+  from: 250 deg
+uncertainty:
+  wind.speed: {normal: [6.3 m/s, 1.1 m/s]}
+"""
+DRONE = """name: pouch let go from a moving multirotor
+payload:
+  mass: 0.85 kg
+  drag: {cd: 1.05, area: 0.0376 m^2, source: invented test value}
+""" + SCENE
+KIT = """name: kit of a plate and a pouch under a multirotor
+items:
+  - name: tumbling plate
+    mass: 0.437 kg
+    shape: {kind: plate, edges: [0.31 m, 0.23 m], thickness: 0.004 m, attitude: tumbling}
+    glide: tumble
+  - name: pouch
+    mass: 0.85 kg
+    drag: {cd: 1.05, area: 0.0376 m^2, source: invented test value}
+""" + SCENE
+
+
+def squeeze(text):
+    return " ".join(text.split())
+
+
+def fall_warnings(path):
+    """{item name: [warnings]} of plumb fall --format json."""
+    rc, out, err = plumb("fall", path, "--format", "json")
+    check(rc == 0, f"fall {path}: exit {rc} {err.strip()[:200]}")
+    if rc != 0:
+        return {}
+    d = json.loads(out)
+    if d.get("inventory"):
+        return {it["name"]: it.get("warnings", []) for it in d["items"]}
+    return {d.get("profile", {}).get("name", ""): d.get("warnings", [])}
+
+
+tmp = tempfile.mkdtemp(prefix="plumb-zone-warnings.", dir=os.environ.get("TMPDIR"))
+try:
+    for label, text, want in (("plate", PLATE, ['"radius = drop height" is not conservative '
+                                                'for plates.']),
+                              ("drone", DRONE, ["release velocity for the whole fall.",
+                                                "this is a rough guide only."]),
+                              ("kit", KIT, ['is not conservative for plates.',
+                                            "release velocity for the whole fall."])):
+        path = os.path.join(tmp, label + ".yaml")
+        with open(path, "w") as f:
+            f.write(text)
+        fw = fall_warnings(path)
+        every = [w for ws in fw.values() for w in ws]
+        # the fall itself gives the long warnings whole (the reference here)
+        for end in want:
+            check(any(w.endswith(end) for w in every),
+                  f"{label}: plumb fall has a warning ending {end!r}: {every}")
+        check(all(w.endswith(".") and CUT not in w for w in every),
+              f"{label}: plumb fall's warnings end their sentences: {every}")
+        run = ("zone", path, "--samples", "400", "--threads", "1")
+        rc, out, err = plumb(*run, "--format", "json")
+        check(rc == 0, f"zone {label} json: exit {rc} {err.strip()[:200]}")
+        if rc == 0:
+            d = json.loads(out)
+            if d.get("inventory"):
+                zw = {it["name"]: it["zone"]["warnings"] for it in d["items"]}
+            else:
+                zw = {name: d["zone"]["warnings"] for name in fw}
+            for name, ws in fw.items():
+                for w in ws:
+                    check(w in zw.get(name, []), f"zone {label} json, {name}: lacks the whole "
+                          f"warning {w!r}; has {zw.get(name)}")
+            allz = [w for ws in zw.values() for w in ws]
+            check(all(w.endswith(".") and CUT not in w for w in allz),
+                  f"zone {label} json: a warning cut: {allz}")
+        rc, out, err = plumb(*run, "--format", "csv")
+        check(rc == 0, f"zone {label} csv: exit {rc} {err.strip()[:200]}")
+        lines = out.splitlines()
+        for name, ws in fw.items():
+            for w in ws:
+                check(f"# warning: {name}: {w}" in lines,
+                      f"zone {label} csv: lacks the line '# warning: {name}: {w}'")
+        warn = [l for l in lines if l.startswith("# warning: ")]
+        check(warn and all(l.endswith(".") and CUT not in l for l in warn),
+              f"zone {label} csv: a warning cut: {warn}")
+        rc, out, err = plumb(*run)
+        check(rc == 0, f"zone {label} text: exit {rc} {err.strip()[:200]}")
+        flat = squeeze(out)
+        for w in every:
+            check(squeeze(w) in flat, f"zone {label} text: lacks the whole warning {w!r}")
+        check(CUT not in flat, f"zone {label} text: a warning is marked cut")
+finally:
+    shutil.rmtree(tmp)
+finish()
