@@ -705,7 +705,7 @@ static void test_the_longest_warnings_of_a_fall_are_whole_in_the_fall_and_its_zo
         s.descent[i].kind = PLUMB_DESCENT_STREAMER;
     it.result.n_deployed = 0;
     assert_int_equal(plumb_item_judge(&it, p, fx->crit, atm, &diag), PLUMB_OK);
-    assert_true(has_warning(&it, "(device 2) does not open"));
+    assert_true(has_warning(&it, "(descent[1]) does not open"));
     assert_false(has_warning(&it, "Plate-like"));
     assert_whole_in_a_zone(&it);
     plumb_atmosphere_free(atm);
