@@ -635,6 +635,21 @@ static int cli_is_dir(const char *path)
     return stat(path, &st) == 0 && S_ISDIR(st.st_mode);
 }
 
+int cli_beside_self(const char *rel, char *buf, size_t size)
+{
+    char exe[CLI_PATH_MAX];
+    ssize_t n = readlink("/proc/self/exe", exe, sizeof exe - 1);
+    if (n <= 0)
+        return 0;
+    exe[n] = '\0';
+    char *slash = strrchr(exe, '/');
+    if (!slash)
+        return 0;
+    *slash = '\0';
+    int len = snprintf(buf, size, "%s/%s", exe, rel);
+    return len > 0 && (size_t)len < size;
+}
+
 const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
 {
     if (a && a->criteria_dir)
@@ -642,21 +657,10 @@ const char *cli_criteria_dir(const cli_args *a, char *buf, size_t size)
     const char *env = getenv("PLUMB_CRITERIA_DIR");
     if (env && *env)
         return env;
-    char exe[CLI_PATH_MAX];
-    ssize_t n = readlink("/proc/self/exe", exe, sizeof exe - 1);
-    if (n > 0) {
-        exe[n] = '\0';
-        char *slash = strrchr(exe, '/');
-        if (slash) {
-            *slash = '\0';
-            static const char *const rel[] = {"../profiles/criteria", "../share/plumb/criteria"};
-            for (size_t i = 0; i < sizeof rel / sizeof rel[0]; i++) {
-                int len = snprintf(buf, size, "%s/%s", exe, rel[i]);
-                if (len > 0 && (size_t)len < size && cli_is_dir(buf))
-                    return buf;
-            }
-        }
-    }
+    static const char *const rel[] = {"../profiles/criteria", "../share/plumb/criteria"};
+    for (size_t i = 0; i < sizeof rel / sizeof rel[0]; i++)
+        if (cli_beside_self(rel[i], buf, size) && cli_is_dir(buf))
+            return buf;
     /* the installed data directory, the working directory's
      * profiles/criteria, then the source tree this program was built from */
     static const char *const fixed[] = {PLUMB_CRITERIA_INSTALLED, "profiles/criteria",

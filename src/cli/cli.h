@@ -233,6 +233,11 @@ void cli_rows_progress_step(void *user, size_t done, size_t total);
  * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);
 
+/* Writes into buf (size bytes) the path `rel` taken from the running
+ * program's directory (/proc/self/exe); 0 when there is no such path or
+ * it does not fit. */
+int cli_beside_self(const char *rel, char *buf, size_t size);
+
 /* The criteria directory: --criteria-dir, else $PLUMB_CRITERIA_DIR, else
  * <directory of /proc/self/exe>/../profiles/criteria (build tree), else
  * <exe dir>/../share/plumb/criteria (installed), else the data directory

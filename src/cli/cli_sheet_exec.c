@@ -31,32 +31,15 @@
 
 #define SHEET_PROGRAM "plumb-sheet"
 
-/* Writes into buf the path `rel` from the running program's directory;
- * 0 when there is no such path. */
-static int beside_self(const char *rel, char *buf, size_t size)
-{
-    char exe[CLI_PATH_MAX];
-    ssize_t n = readlink("/proc/self/exe", exe, sizeof exe - 1);
-    if (n <= 0)
-        return 0;
-    exe[n] = '\0';
-    char *slash = strrchr(exe, '/');
-    if (!slash)
-        return 0;
-    *slash = '\0';
-    int len = snprintf(buf, size, "%s/%s", exe, rel);
-    return len > 0 && (size_t)len < size;
-}
-
 int cli_sheet_exec(int argc, char **argv)
 {
     char here[CLI_PATH_MAX], moved[CLI_PATH_MAX];
     const char *where[3];
     size_t n_where = 0;
-    if (beside_self(SHEET_PROGRAM, here, sizeof here))
+    if (cli_beside_self(SHEET_PROGRAM, here, sizeof here))
         where[n_where++] = here;
     where[n_where++] = PLUMB_LIBEXEC_DIR "/" SHEET_PROGRAM;
-    if (beside_self("../libexec/plumb/" SHEET_PROGRAM, moved, sizeof moved))
+    if (cli_beside_self("../libexec/plumb/" SHEET_PROGRAM, moved, sizeof moved))
         where[n_where++] = moved;
 
     /* plumb-sheet's argv: its path, then "sheet" and the options as given */

@@ -230,11 +230,6 @@ static const char *qty(writer *w, double x)
     return plumbp_gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);
 }
 
-
-
-
-
-
 /* ---- text: quantities in the chosen units ------------------------------ */
 
 const char *plumbp_t_len(writer *w, double m)
