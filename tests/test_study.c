@@ -129,8 +129,7 @@ static void test_a_study_refuses_an_unknown_criterion_when_opened(void **state)
 /* The limit through the study: the drag-free mass for 913.7 J of a weight
  * thrown level at 7.3 m/s from 31.6 m, m = E / (v0^2/2 + g H) (work-energy
  * theorem); and the limit given as text, a quantity or a criterion's id.
- * A key that needs the profile's text (release.height is checked against
- * other keys by the loader) is refused for a code-built profile. */
+ * A key that only the loader derives is refused for a code-built profile. */
 static void test_the_study_limit_meets_the_work_energy_theorem(void **state)
 {
     fixture *f = *state;
@@ -154,8 +153,16 @@ static void test_the_study_limit_meets_the_work_energy_theorem(void **state)
     const double g = PLUMB_G0_M_S2;
     assert_int_equal(lr->results[0].outcome, PLUMB_LIMIT_FOUND);
     assert_rel(lr->results[0].value_si, 913.7 / (0.5 * 7.3 * 7.3 + g * 31.6), 1e-9);
+    /* a key the loader checks against others varies on the spec too:
+     * H = E / (m g) - v0^2 / (2 g) (work-energy theorem) */
     assert_int_equal(plumb_study_limit(st, "release.height", PLUMB_METRIC_ENERGY, limit, NULL,
-                                       NULL, &lr, &d), PLUMB_EINVAL);
+                                       NULL, &lr, &d), PLUMB_OK);
+    assert_int_equal(lr->results[0].outcome, PLUMB_LIMIT_FOUND);
+    assert_rel(lr->results[0].value_si, 913.7 / (2.385 * g) - 7.3 * 7.3 / (2.0 * g), 1e-9);
+    /* a key only the loader derives (the speed of a velocity given by
+     * components) is refused, saying why */
+    assert_int_equal(plumb_study_limit(st, "release.velocity.speed", PLUMB_METRIC_ENERGY, limit,
+                                       NULL, NULL, &lr, &d), PLUMB_EINVAL);
     assert_non_null(strstr(d.message, "built in code"));
     /* a criterion's id: 14 CFR 107.130(a)(1), 25 ft-lbf */
     assert_int_equal(plumb_study_limit_value(st, PLUMB_METRIC_ENERGY, "us-part107-cat3",
@@ -172,6 +179,53 @@ static void test_the_study_limit_meets_the_work_energy_theorem(void **state)
     /* an unknown key */
     assert_int_equal(plumb_study_limit(st, "release.hieght", PLUMB_METRIC_ENERGY, 10.0, NULL,
                                        NULL, &lr, &d), PLUMB_EKEY);
+    plumb_study_free(st);
+}
+
+/* A sweep of a spec built in code: every row on a copy of the spec, with
+ * the drag-free energy E = 1/2 m v0^2 + m g H (work-energy theorem) at
+ * each height; a height above the top of the 1976 atmosphere (86 km,
+ * NOAA-S/T 76-1562) is that row's error, saying why, and the other rows
+ * are still given. */
+static void test_a_sweep_of_a_spec_built_in_code_runs_every_row(void **state)
+{
+    fixture *f = *state;
+    plumb_fall_spec s;
+    drag_free_spec(&s, 0.613, 12.0, 3.1);
+    plumb_atm_spec atm;
+    plumb_atm_spec_init(&atm);
+    plumb_study *st = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_study_open_spec(&s, &atm, NULL, 0, f->criteria, f->units, &st, &d),
+                     PLUMB_OK);
+    plumb_range r;
+    assert_int_equal(plumb_range_parse_key(f->units, "release.height=10 m:90 km:44995 m", &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.n, 3);
+    plumb_sweep *sw = NULL;
+    assert_int_equal(plumb_study_sweep(st, &r, 1, NULL, NULL, &sw, &d), PLUMB_OK);
+    assert_int_equal(plumb_sweep_row_count(sw), 3);
+    assert_int_equal(plumb_sweep_failed_count(sw), 1);
+    const double g = PLUMB_G0_M_S2;
+    for (size_t i = 0; i < 2; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        double h = 10.0 + 44995.0 * (double)i;
+        assert_int_equal(row->status, PLUMB_OK);
+        assert_rel(row->value_si[0], h, 1e-15);
+        assert_rel(row->report.items[0].result.energy_j,
+                   0.5 * 0.613 * 3.1 * 3.1 + 0.613 * g * h, 1e-9);
+    }
+    const plumb_sweep_row *top = plumb_sweep_row_at(sw, 2);
+    assert_int_equal(top->status, PLUMB_ERANGE);
+    assert_string_equal(top->error.key, "release.height");
+    assert_non_null(strstr(top->error.message, "1976 atmosphere"));
+    plumb_sweep_free(sw);
+    /* a key only the loader derives: refused before any row runs */
+    assert_int_equal(plumb_range_parse_key(f->units, "release.velocity.speed=1 m/s:3 m/s:1 m/s",
+                                           &r, &d), PLUMB_OK);
+    assert_int_equal(plumb_study_sweep(st, &r, 1, NULL, NULL, &sw, &d), PLUMB_EINVAL);
+    assert_null(sw);
+    assert_non_null(strstr(d.message, "built in code"));
     plumb_study_free(st);
 }
 
@@ -295,6 +349,7 @@ int main(void)
         cmocka_unit_test(test_a_code_built_profile_is_traced_by_the_hash_of_its_inputs),
         cmocka_unit_test(test_a_study_refuses_an_unknown_criterion_when_opened),
         cmocka_unit_test(test_the_study_limit_meets_the_work_energy_theorem),
+        cmocka_unit_test(test_a_sweep_of_a_spec_built_in_code_runs_every_row),
         cmocka_unit_test(test_a_study_of_a_profile_gives_the_closed_form_in_constant_air),
         cmocka_unit_test(test_zone_settings_are_refused_where_they_were_given),
     };

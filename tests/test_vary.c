@@ -481,9 +481,9 @@ static void test_keys_only_the_loader_varies_are_left_to_it(void **state)
     }
 }
 
-/* A profile built in code has no text: the keys the loader does not check
- * against others vary on its own specs, the others are not varied. */
-static void test_a_code_built_profile_varies_only_unchecked_keys(void **state)
+/* A profile built in code has no text: its keys vary on its own specs,
+ * checked as the loader checks them, and a refusal says why. */
+static void test_a_code_built_profile_varies_on_its_specs(void **state)
 {
     (void)state;
     plumb_fall_spec s;
@@ -501,7 +501,20 @@ static void test_a_code_built_profile_varies_only_unchecked_keys(void **state)
     plumb_diag d;
     assert_int_equal(plumb_profile_from_spec(&s, &atm, NULL, 0, &p, &d), PLUMB_OK);
     plumbp_vary v;
-    assert_false(plumbp_vary_init(&v, p, "release.height"));
+    assert_true(plumbp_vary_init(&v, p, "release.height"));
+    {
+        plumb_fall_spec w = *plumb_profile_item(p, 0);
+        plumb_atm_spec as = *plumb_profile_atmosphere(p);
+        assert_true(plumbp_vary_set(&v, 61.0, &w, 1, &as));
+        assert_true(w.release_m[2] == 61.0);
+        /* the top of the 1976 atmosphere is 86 km (NOAA-S/T 76-1562) */
+        assert_false(plumbp_vary_set(&v, 90e3, &w, 1, &as));
+        plumb_diag_clear(&d);
+        assert_int_equal(plumbp_vary_refusal(&v, 90e3, &w, 1, &as, &d), PLUMB_ERANGE);
+        assert_string_equal(d.key, "release.height");
+        assert_non_null(strstr(d.message, "above the top of the 1976 atmosphere"));
+    }
+    assert_false(plumbp_vary_init(&v, p, "release.velocity.speed")); /* derived by the loader */
     assert_true(plumbp_vary_init(&v, p, "payload.drag.cd"));
     plumb_fall_spec w = *plumb_profile_item(p, 0);
     plumb_atm_spec as = *plumb_profile_atmosphere(p);
@@ -510,6 +523,10 @@ static void test_a_code_built_profile_varies_only_unchecked_keys(void **state)
     assert_true(w.drag.cd == 1.19 && w.drag.cd_area_m2 == 1.19 * 0.0213);
     assert_string_equal(w.drag.source, "from a catalogue");
     assert_false(plumbp_vary_set(&v, -0.2, &w, 1, &as)); /* Cd >= 0 (README, profile keys) */
+    plumb_diag_clear(&d);
+    assert_int_equal(plumbp_vary_refusal(&v, -0.2, &w, 1, &as, &d), PLUMB_ERANGE);
+    assert_string_equal(d.key, "payload.drag.cd");
+    assert_non_null(strstr(d.message, "must be"));
     plumb_profile_free(p);
 }
 
@@ -522,7 +539,7 @@ int main(void)
         cmocka_unit_test(test_wind_keys_on_copies_are_the_loaders),
         cmocka_unit_test(test_descent_keys_on_copies_are_the_loaders),
         cmocka_unit_test(test_keys_only_the_loader_varies_are_left_to_it),
-        cmocka_unit_test(test_a_code_built_profile_varies_only_unchecked_keys),
+        cmocka_unit_test(test_a_code_built_profile_varies_on_its_specs),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

@@ -4,6 +4,7 @@
  * from it, and the loader's own checks of it against other keys
  * (io/profile_int.h).
  */
+#include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -40,10 +41,6 @@ int plumbp_vary_init(plumbp_vary *v, const plumb_profile *p, const char *key)
         return 0;
     if (p->inventory && !(k->effects & PLUMBP_KEY_SHARED))
         return 0;
-    /* a profile built in code was never checked by the loader: only the
-     * keys it does not check against others */
-    if (!p->tree && (k->effects & PLUMBP_KEY_CHECKED))
-        return 0;
     for (size_t i = 0; i < p->n_items; i++) {
         if (!plumbp_key_applies(k, &p->items[i], &p->shapes[i], &p->atm, device))
             return 0;
@@ -51,6 +48,7 @@ int plumbp_vary_init(plumbp_vary *v, const plumb_profile *p, const char *key)
             return 0;
     }
     v->k = k;
+    v->key = key;
     v->device = device;
     v->keep_source = (k->effects & PLUMBP_KEY_DRAG) && (!p->tree || drag_source_given(p));
     return 1;
@@ -67,20 +65,35 @@ int plumbp_vary_air(const plumbp_vary *v)
 }
 
 /* The loader's checks of values against other keys (profile_scene.c,
- * profile_item.c), on the resolved copies: 1 when all pass. */
-static int loader_checks_pass(const plumb_fall_spec *specs, size_t n, const plumb_atm_spec *atm)
+ * profile_item.c), on the resolved copies: NULL when all pass, else what
+ * fails, in words (written into why[size] where it has figures). */
+static const char *loader_check_fails(const plumb_fall_spec *specs, size_t n,
+                                      const plumb_atm_spec *atm, char *why, size_t size)
 {
     for (size_t i = 0; i < n; i++) {
         const plumb_fall_spec *s = &specs[i];
         double h = s->release_m[2], lo = s->site_elevation_m;
-        if (plumbp_release_too_high(lo, h) || plumbp_log_wind_too_rough(&s->wind))
-            return 0;
+        if (plumbp_release_too_high(lo, h))
+            return "the release point is above the top of the 1976 atmosphere";
+        if (plumbp_log_wind_too_rough(&s->wind))
+            return "the wind's roughness length must be below its reference height";
         for (size_t j = 0; j < s->n_descent; j++) {
             const plumb_descent_spec *d = &s->descent[j];
-            if (plumbp_deploy_not_below(d, h) ||
-                plumbp_inflation_exponent_too_large(d->inflation_exponent) ||
-                (j > 0 && plumbp_devices_out_of_order(&s->descent[j - 1], d)))
-                return 0;
+            if (plumbp_deploy_not_below(d, h)) {
+                snprintf(why, size, "descent[%zu] must deploy below the release height", j);
+                return why;
+            }
+            if (plumbp_inflation_exponent_too_large(d->inflation_exponent)) {
+                snprintf(why, size, "descent[%zu]'s inflation exponent must lie between 0 and %g",
+                         j, PLUMB_INFLATION_J_MAX);
+                return why;
+            }
+            if (j > 0 && plumbp_devices_out_of_order(&s->descent[j - 1], d)) {
+                snprintf(why, size,
+                         "devices are listed in deployment order: descent[%zu] deploys before "
+                         "descent[%zu]", j, j - 1);
+                return why;
+            }
         }
         /* the air is checked over the fall (every item shares release and site) */
         double hi = lo + h, at_m, t_k;
@@ -88,21 +101,28 @@ static int loader_checks_pass(const plumb_fall_spec *specs, size_t n, const plum
         switch (atm->model) {
         case PLUMB_ATM_STD1976:
             if (plumbp_std_temperature_fails(atm->temperature_offset_k, lo, hi, &at_m, &t_k, &st))
-                return 0;
+                return "the 1976 temperature plus the offset must stay above 0 K over the fall";
             break;
         case PLUMB_ATM_SURFACE:
             if (!(plumbp_surface_top_k(atm, h) > 0.0))
-                return 0;
+                return "the temperature at the release height must stay above 0 K";
             break;
         case PLUMB_ATM_TABLE:
-            if (plumbp_table_misses(atm, lo, hi) ||
-                (!atm->table_t_k && plumbp_std_temperature_fails(atm->temperature_offset_k, lo,
-                                                                 hi, &at_m, &t_k, &st)))
-                return 0;
+            if (plumbp_table_misses(atm, lo, hi))
+                return "the table of air must span the fall";
+            if (!atm->table_t_k &&
+                plumbp_std_temperature_fails(atm->temperature_offset_k, lo, hi, &at_m, &t_k, &st))
+                return "the 1976 temperature plus the offset must stay above 0 K over the fall";
             break;
         }
     }
-    return 1;
+    return NULL;
+}
+
+static int loader_checks_pass(const plumb_fall_spec *specs, size_t n, const plumb_atm_spec *atm)
+{
+    char why[160];
+    return loader_check_fails(specs, n, atm, why, sizeof why) == NULL;
 }
 
 int plumbp_vary_set(const plumbp_vary *v, double x, plumb_fall_spec *specs, size_t n,
@@ -130,6 +150,25 @@ int plumbp_vary_set(const plumbp_vary *v, double x, plumb_fall_spec *specs, size
             break; /* the air is one for every item */
     }
     return !(k->effects & PLUMBP_KEY_CHECKED) || loader_checks_pass(specs, n, atm);
+}
+
+plumb_status plumbp_vary_refusal(const plumbp_vary *v, double x, const plumb_fall_spec *specs,
+                                  size_t n, const plumb_atm_spec *atm, plumb_diag *diag)
+{
+    const plumbp_key *k = v->k;
+    const char *unit = plumb_dim_si_unit(k->dim);
+    int bare = !*unit || strcmp(unit, "1") == 0;
+    if (!plumby_range_ok(k->range, x)) {
+        char r[96];
+        plumby_range_text(k->range, k->dim, r, sizeof r);
+        return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, v->key, "must be %s, found %.6g%s%s", r, x,
+                               bare ? "" : " ", bare ? "" : unit);
+    }
+    char buf[160];
+    const char *why = loader_check_fails(specs, n, atm, buf, sizeof buf);
+    return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, v->key, "%.6g%s%s is refused: %s", x,
+                           bare ? "" : " ", bare ? "" : unit,
+                           why ? why : "the key has no place in this profile");
 }
 
 plumb_status plumbp_profile_variant(const plumb_profile *tmpl, const plumb_fall_spec *items,

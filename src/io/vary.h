@@ -13,7 +13,8 @@
  * the loader makes of the value against other keys are made again by the
  * same predicates (io/profile_int.h). A value the loader would refuse is
  * refused here too, so that the caller can go through the loader for the
- * loader's own diagnostic.
+ * loader's own diagnostic; a profile built in code has no loader, and
+ * plumbp_vary_refusal says why instead.
  *
  * What the loader decides from which keys are present (a key together
  * with one it excludes, a device's other keys, a turbulence map that the
@@ -43,6 +44,7 @@
 
 typedef struct plumbp_vary {
     const plumbp_key *k;    /* the key's row */
+    const char *key;        /* the key as given to plumbp_vary_init (borrowed) */
     size_t device;          /* the descent device it addresses */
     int keep_source;        /* 1: the drag's source text is the profile's own (given, or
                                built in code), not remade from the values */
@@ -69,6 +71,12 @@ int plumbp_vary_air(const plumbp_vary *v);
  * key), the copies then half changed. Can't fail otherwise. */
 int plumbp_vary_set(const plumbp_vary *v, double x, plumb_fall_spec *specs, size_t n,
                     plumb_atm_spec *atm);
+
+/* Why plumbp_vary_set refused x, after it returned 0 (specs and *atm as
+ * it left them): raised as PLUMB_ERANGE naming the key, for a template
+ * built in code, which has no loader to say it. Returns PLUMB_ERANGE. */
+plumb_status plumbp_vary_refusal(const plumbp_vary *v, double x, const plumb_fall_spec *specs,
+                                 size_t n, const plumb_atm_spec *atm, plumb_diag *diag);
 
 /* A profile that is `tmpl` with items[0 .. n_items of tmpl) and *atm in
  * place of its own (the result of plumbp_vary_set on copies of them): what

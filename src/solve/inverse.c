@@ -288,8 +288,14 @@ static double eval_fast(solver_ctx *c, double x)
     size_t n = plumb_profile_item_count(c->tmpl);
     memcpy(c->work, plumb_profile_item(c->tmpl, 0), n * sizeof *c->work);
     plumb_atm_spec as = *plumb_profile_atmosphere(c->tmpl);
-    if (!plumbp_vary_set(&c->vary, x, c->work, n, &as))
-        return eval_slow(c, x);
+    int coded = plumbp_vary_is_template(c->tmpl);
+    if (!plumbp_vary_set(&c->vary, x, c->work, n, &as)) {
+        if (!coded)
+            return eval_slow(c, x);
+        plumb_diag why;
+        plumb_diag_clear(&why);
+        return eval_refused(c, plumbp_vary_refusal(&c->vary, x, c->work, n, &as, &why), &why);
+    }
     const plumb_fall_spec *spec = &c->work[c->item];
     plumb_diag d;
     plumb_diag_clear(&d);
@@ -298,7 +304,7 @@ static double eval_fast(solver_ctx *c, double x)
     if (plumbp_vary_air(&c->vary)) {
         plumb_atmosphere *atm = NULL;
         st = plumb_atmosphere_alloc(&as, &atm, &d);
-        if (st == PLUMB_ENOMEM)
+        if (st == PLUMB_ENOMEM || (st != PLUMB_OK && coded))
             return eval_refused(c, st, &d);
         if (st != PLUMB_OK)
             return eval_slow(c, x);
@@ -427,6 +433,10 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
      * evaluation), or of a profile built in code, which has no text.
      * Keys it cannot set go through plumb_profile_derive every time. */
     st = plumbp_vary_is_template(profile) ? take_template(&c, profile, NULL) : PLUMB_OK;
+    if (st == PLUMB_OK && plumbp_vary_is_template(profile) && !c.fast)
+        st = PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
+                             "a profile built in code cannot vary this key: only the profile "
+                             "loader derives it (read the profile from a file to vary it)");
     if (st == PLUMB_OK)
         st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
     plumb_atmosphere_free(c.atm);

@@ -35,7 +35,9 @@ struct plumb_sweep {
     plumb_atmosphere **atms;    /* one per row, owned unless it is `air` (verdict warnings
                                    use it) */
     /* rows varied on copies (io/vary.h) */
-    plumb_profile *tmpl;        /* the first row the loader made, owned; NULL before */
+    const plumb_profile *tmpl;  /* the rows' template: own_tmpl, or the caller's profile
+                                   when it was built in code; NULL before */
+    plumb_profile *own_tmpl;    /* the first row the loader made, owned */
     int fast;                   /* 1: every axis is set on copies of tmpl's specs */
     plumbp_vary vary[PLUMB_MAX_AXES];
     plumb_fall_spec *work;      /* tmpl's items, copied and varied row by row */
@@ -235,7 +237,7 @@ void plumb_sweep_free(plumb_sweep *s)
         if (s->atms && s->atms[i] != s->air)
             plumb_atmosphere_free(s->atms[i]);
     }
-    plumb_profile_free(s->tmpl);
+    plumb_profile_free(s->own_tmpl);
     plumb_atmosphere_free(s->air);
     free(s->work);
     free(s->rows);
@@ -284,6 +286,20 @@ const plumb_sweep_boundary *plumb_sweep_boundary_at(const plumb_sweep *s, size_t
     return &s->bounds[i0 * s->n_bcrit + k];
 }
 
+/* Makes s->tmpl the template of the rows after it: fast when every axis
+ * can be set on copies of its specs (io/vary.h). PLUMB_ENOMEM (in rd) is
+ * the only failure. */
+static plumb_status take_template(plumb_sweep *s, plumb_diag *rd)
+{
+    const plumb_profile *p = s->tmpl;
+    s->fast = 1;
+    for (size_t a = 0; a < s->n_axes; a++)
+        s->fast = s->fast && plumbp_vary_init(&s->vary[a], p, s->axes[a].key);
+    if (s->fast && !(s->work = malloc(plumb_profile_item_count(p) * sizeof *s->work)))
+        return PLUMB_RAISE(rd, PLUMB_ENOMEM, "out of memory");
+    return PLUMB_OK;
+}
+
 /* Row r's profile and air through the loader, from its values as --set
  * texts; the first profile it makes becomes the template of the rows
  * after it. Returns the row's status (rd says why it is not PLUMB_OK). */
@@ -305,13 +321,10 @@ static plumb_status derive_row(plumb_sweep *s, size_t r, const plumb_profile *ba
     if (st != PLUMB_OK)
         return st;
     if (!s->tmpl) {
-        const plumb_profile *p = s->profiles[r];
-        s->tmpl = s->profiles[r];
-        s->fast = 1;
-        for (size_t a = 0; a < s->n_axes; a++)
-            s->fast = s->fast && plumbp_vary_init(&s->vary[a], p, s->axes[a].key);
-        if (s->fast && !(s->work = malloc(plumb_profile_item_count(p) * sizeof *s->work)))
-            return PLUMB_RAISE(rd, PLUMB_ENOMEM, "out of memory");
+        s->tmpl = s->own_tmpl = s->profiles[r];
+        st = take_template(s, rd);
+        if (st != PLUMB_OK)
+            return st;
     }
     return plumb_atmosphere_alloc(plumb_profile_atmosphere(s->profiles[r]), &s->atms[r], rd);
 }
@@ -319,7 +332,9 @@ static plumb_status derive_row(plumb_sweep *s, size_t r, const plumb_profile *ba
 /* Row r's profile and air set on copies of the template's (io/vary.h).
  * *done 0: the row is to go through the loader instead (a value a copy
  * refuses, air that cannot be made: the loader's diagnostic is wanted).
- * Returns PLUMB_OK, or PLUMB_ENOMEM (in rd). */
+ * A template built in code has no loader: the row then fails here with
+ * why (in rd). Returns PLUMB_OK, the row's status, or PLUMB_ENOMEM (in
+ * rd). */
 static plumb_status vary_row(plumb_sweep *s, size_t r, int *done, plumb_diag *rd)
 {
     const plumb_profile *t = s->tmpl;
@@ -328,9 +343,11 @@ static plumb_status vary_row(plumb_sweep *s, size_t r, int *done, plumb_diag *rd
     *done = 0;
     memcpy(s->work, plumb_profile_item(t, 0), n * sizeof *s->work);
     plumb_atm_spec as = *plumb_profile_atmosphere(t);
+    int coded = plumbp_vary_is_template(t);
     for (size_t a = 0; a < s->n_axes; a++) {
-        if (!plumbp_vary_set(&s->vary[a], s->rows[r].value_si[a], s->work, n, &as))
-            return PLUMB_OK;
+        double x = s->rows[r].value_si[a];
+        if (!plumbp_vary_set(&s->vary[a], x, s->work, n, &as))
+            return coded ? plumbp_vary_refusal(&s->vary[a], x, s->work, n, &as, rd) : PLUMB_OK;
         air = air || plumbp_vary_air(&s->vary[a]);
     }
     plumb_atmosphere *atm = NULL;
@@ -343,7 +360,7 @@ static plumb_status vary_row(plumb_sweep *s, size_t r, int *done, plumb_diag *rd
         st = s->air ? PLUMB_OK : plumb_atmosphere_alloc(&as, &s->air, &d);
         atm = s->air;
     }
-    if (st == PLUMB_ENOMEM) {
+    if (st == PLUMB_ENOMEM || (st != PLUMB_OK && coded)) {
         if (rd)
             *rd = d;
         return st;
@@ -481,6 +498,21 @@ plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_
     if (!s->rows || !s->profiles || !s->atms) {
         plumb_sweep_free(s);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    }
+    if (plumbp_vary_is_template(profile)) {
+        /* built in code: no loader to derive rows from, only copies */
+        s->tmpl = profile;
+        plumb_status st = take_template(s, diag);
+        for (size_t a = 0; st == PLUMB_OK && !s->fast && a < n_axes; a++)
+            if (!plumbp_vary_init(&s->vary[a], profile, axes[a].key))
+                st = PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, axes[a].key,
+                                     "a profile built in code cannot vary this key: only "
+                                     "the profile loader derives it (read the profile from "
+                                     "a file to vary it)");
+        if (st != PLUMB_OK) {
+            plumb_sweep_free(s);
+            return st;
+        }
     }
     size_t inner = n_axes == 2 ? axes[1].n : 1;
     for (size_t r = 0; r < total; r++) {
