@@ -337,21 +337,30 @@ plumb_status plumbp_profile_read_wind(loader *L, plumb_wind_spec *w)
     plumb_wind_spec_init(w);
     if ((st = plumby_word(&wm, "profile", 0, &prof)) != PLUMB_OK)
         return st;
-    static const char *const why[] = {"with profile uniform", "with profile power",
-                                      "with profile log", "with profile table"};
+    static const char *const names[] = {"uniform", "power", "log", "table"};
     static const plumb_wind_profile kinds[] = {PLUMB_WIND_UNIFORM, PLUMB_WIND_POWER, PLUMB_WIND_LOG,
                                                PLUMB_WIND_TABLE};
     w->profile = kinds[prof];
-    if (prof != 1 && (st = plumby_forbid(&wm, "exponent", why[prof])) != PLUMB_OK)
-        return st;
-    if (prof != 2 && (st = plumby_forbid(&wm, "roughness", why[prof])) != PLUMB_OK)
-        return st;
-    if ((prof == 0 || prof == 3) &&
-        (st = plumby_forbid(&wm, "reference_height", why[prof])) != PLUMB_OK)
-        return st;
+    /* what a key belongs to, so that the message says how to use it */
+    static const struct {
+        const char *key, *owner;
+        unsigned used; /* bit k: used with names[k] */
+    } owned[] = {{"exponent", "power", 1u << 1},
+                 {"roughness", "log", 1u << 2},
+                 {"reference_height", "power or log", 1u << 1 | 1u << 2},
+                 {"table", "table", 1u << 3}};
+    int given = plumby_get(&wm, "profile") != NULL;
+    for (size_t i = 0; i < sizeof owned / sizeof owned[0]; i++) {
+        if (owned[i].used & (1u << prof))
+            continue;
+        char why[128];
+        snprintf(why, sizeof why, "with profile %s%s (it belongs to profile %s)", names[prof],
+                 given ? "" : ", the default when wind.profile is not given", owned[i].owner);
+        if ((st = plumby_forbid(&wm, owned[i].key, why)) != PLUMB_OK)
+            return st;
+    }
     if (prof != 3) {
-        if ((st = plumby_forbid(&wm, "table", why[prof])) != PLUMB_OK ||
-            (st = plumby_num(&wm, "speed", 0, 0.0, &w->speed_m_s, NULL)) != PLUMB_OK ||
+        if ((st = plumby_num(&wm, "speed", 0, 0.0, &w->speed_m_s, NULL)) != PLUMB_OK ||
             (st = plumby_num(&wm, "from", 0, 0.0, &w->from_deg, NULL)) != PLUMB_OK ||
             (st = plumby_num(&wm, "reference_height", 0, w->ref_height_m, &w->ref_height_m,
                              NULL)) != PLUMB_OK ||
@@ -368,8 +377,9 @@ plumb_status plumbp_profile_read_wind(loader *L, plumb_wind_spec *w)
                                       w->roughness_m, w->ref_height_m);
         return PLUMB_OK;
     }
-    if ((st = plumby_forbid(&wm, "speed", why[3])) != PLUMB_OK ||
-        (st = plumby_forbid(&wm, "from", why[3])) != PLUMB_OK)
+    const char *rows = "with profile table (the table's rows give the speed and direction)";
+    if ((st = plumby_forbid(&wm, "speed", rows)) != PLUMB_OK ||
+        (st = plumby_forbid(&wm, "from", rows)) != PLUMB_OK)
         return st;
     const plumby_node *t = plumby_get(&wm, "table");
     if (!t)
