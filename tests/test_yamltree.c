@@ -535,6 +535,11 @@ static void test_an_unknown_key_is_refused_with_a_did_you_mean(void **state)
     /* nothing close: the keys of that map are listed */
     assert_int_equal(checked("payload:\n  colour: red\n", &d, NULL), PLUMB_EKEY);
     assert_non_null(strstr(d.message, "keys here: mass, drag, kind, name, samples"));
+    /* a key written a level too high: where it belongs is named */
+    assert_int_equal(checked("cd: 0.93\n", &d, NULL), PLUMB_EKEY);
+    assert_string_equal(d.key, "cd");
+    assert_non_null(strstr(d.message, "did you mean payload.drag.cd?"));
+    assert_non_null(strstr(d.message, "keys here: payload"));
     /* a word not in its list: the nearest one suggested */
     assert_int_equal(checked("payload: {kind: parchute}\n", &d, NULL), PLUMB_EINVAL);
     assert_string_equal(d.key, "payload.kind");

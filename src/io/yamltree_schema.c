@@ -127,6 +127,32 @@ static plumb_status mismatch(const plumby_ctx *ctx, const plumby_node *node,
                         "expected %s, found %s", want, found);
 }
 
+/* The dotted path, below s, of the first key called `name` (a list's item
+ * written [N]): 1 with it in path[size], 0 when none. For a key written
+ * one or more levels too high ("downwash" for release.downwash). */
+static int find_below(const plumby_schema *s, const char *name, char *path, size_t size,
+                      int depth)
+{
+    if (depth > 6)
+        return 0;
+    for (size_t k = 0; k < s->n_sub; k++) {
+        const plumby_schema *c = &s->sub[k];
+        const char *sep = *path && *c->name ? "." : "";
+        const char *own = *c->name ? c->name : "[N]";
+        size_t len = strlen(path);
+        if (snprintf(path + len, size - len, "%s%s", sep, own) >= (int)(size - len)) {
+            path[len] = '\0';
+            continue;
+        }
+        if (*c->name && depth > 0 && strcmp(c->name, name) == 0)
+            return 1;
+        if (c->sub && find_below(c, name, path, size, depth + 1))
+            return 1;
+        path[len] = '\0';
+    }
+    return 0;
+}
+
 static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
                               const plumby_schema *s, const char *key)
 {
@@ -146,6 +172,11 @@ static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
             for (size_t k = 0; k < s->n_sub && used < sizeof list; k++)
                 used += (size_t)snprintf(list + used, sizeof list - used, "%s%s", k ? ", " : "",
                                          s->sub[k].name);
+            char below[PLUMB_DIAG_KEY] = "";
+            if (find_below(s, p->key, below, sizeof below, 0))
+                return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                    "unknown key '%s' here (did you mean %s%s%s? keys "
+                                    "here: %s)", p->key, key, *key ? "." : "", below, list);
             return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
                                 "unknown key '%s' (keys here: %s)", p->key, list);
         }
