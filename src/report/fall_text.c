@@ -12,13 +12,37 @@
 
 /* ---- text: single fall --------------------------------------------------- */
 
+/* The title line of every text report, "plumb VERSION - what: NAME". A
+ * name too long for the line is wrapped at TEXT_WIDTH onto continuation
+ * lines indented under its first character, never cut; a word longer than
+ * the room is broken (wrap_cell). The name is the user's own text, so the
+ * whole of it is shown whatever its length. */
 void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,
                         const char *name)
 {
+    enum { NAME_ROOM_MIN = 24 }; /* narrowest name column before the name starts a line of its own */
+    char lead[NUMBUF];
     if (opt->version)
-        put(w, "plumb %s - %s: %s\n", opt->version, what, name);
+        snprintf(lead, sizeof lead, "plumb %s - %s: ", opt->version, what);
     else
-        put(w, "plumb - %s: %s\n", what, name);
+        snprintf(lead, sizeof lead, "plumb - %s: ", what);
+    size_t indent = shown_width(lead);
+    int first = 1;
+    if (indent + NAME_ROOM_MIN > TEXT_WIDTH) {
+        /* a lead too long to leave room: the name on lines of its own */
+        put(w, "%.*s\n", (int)(strlen(lead) - 1), lead);
+        indent = 2;
+        first = 0;
+    } else {
+        put(w, "%s", lead);
+    }
+    const char *rest = name;
+    do {
+        char part[4 * TEXT_WIDTH + 1]; /* a line of the name, 4 bytes a character */
+        rest = wrap_cell(rest, TEXT_WIDTH - indent, part, sizeof part);
+        put(w, "%*s%s\n", first ? 0 : (int)indent, "", part);
+        first = 0;
+    } while (*rest);
 }
 
 static void text_impact(writer *w, const plumb_item_report *it)
