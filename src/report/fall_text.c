@@ -502,12 +502,27 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
 
 /* ---- text: inventory ----------------------------------------------------- */
 
-/* "2.52 EXCEEDS": a verdict in an inventory table cell. */
-static const char *inventory_verdict(writer *w, const plumb_verdict *v)
+/* An item's verdict on criterion k as a table cell (verdict_cell). */
+static void inventory_verdict(writer *w, const plumb_verdict *v, size_t gap, size_t ratio_w,
+                              int last)
 {
-    char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
-    return b;
+    verdict_cell(w, gap, ratio_w, num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within",
+                 last);
+}
+
+/* The two header lines' criterion cells k0..k1 of an inventory table. */
+static void inventory_crit_heads(writer *w, size_t k0, size_t k1, size_t gap, const size_t *rw,
+                                 int units)
+{
+    for (size_t k = k0; k < k1; k++) {
+        if (units) {
+            verdict_cell(w, gap, rw[k], "ratio", "verdict", k + 1 == k1);
+        } else {
+            char h[32];
+            snprintf(h, sizeof h, "C%zu", k + 1);
+            pad(w, h, verdict_cell_width(gap, rw[k]), 1);
+        }
+    }
 }
 
 /* The continuation lines of a name wrapped in its table column, under
@@ -530,8 +545,10 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
      * The table keeps to TABLE_WIDTH columns: a long name is wrapped onto
      * continuation lines of its own column, never cut, and criteria that
      * do not fit beside the figures get a table of their own, as many per
-     * block as fit. */
-    enum { NUM_W = 10, CRIT_W = 14, NO_W = 5, NAME_MIN = 4 };
+     * block as fit. Each criterion's ratios are right-aligned in a column
+     * as wide as the widest of them, its verdict words left-aligned beside
+     * it (verdict_cell). */
+    enum { NUM_W = 10, CRIT_GAP = 2, NO_W = 5, NAME_MIN = 4 };
     size_t name_w = NAME_MIN;
     for (size_t i = 0; i < rep->n_items; i++) {
         size_t n = shown_width(rep->items[i].spec->name);
@@ -541,7 +558,17 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     size_t figs_w = NO_W + 5 * NUM_W;
     if (name_w > TABLE_WIDTH - figs_w)
         name_w = TABLE_WIDTH - figs_w;
-    int inline_crit = figs_w + name_w + nv * CRIT_W <= TABLE_WIDTH;
+    size_t rw[PLUMB_MAX_VERDICTS], crit_w = 0;
+    for (size_t k = 0; k < nv && k < PLUMB_MAX_VERDICTS; k++) {
+        rw[k] = shown_width("ratio");
+        for (size_t i = 0; i < rep->n_items; i++) {
+            size_t n = shown_width(num(w, rep->items[i].verdicts[k].ratio, RATIO_SIG));
+            if (n > rw[k])
+                rw[k] = n;
+        }
+        crit_w += verdict_cell_width(CRIT_GAP, rw[k]);
+    }
+    int inline_crit = figs_w + name_w + crit_w <= TABLE_WIDTH;
     const char *u_mass = w->us ? "lb" : "kg", *u_speed = w->us ? "ft/s" : "m/s";
     const char *u_len = w->us ? "ft" : "m";
     put(w, "\n   # ");
@@ -549,11 +576,8 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     const char *heads[] = {"mass", "speed", "energy", "energy", "drift"};
     for (size_t k = 0; k < 5; k++)
         pad(w, heads[k], NUM_W, 1);
-    for (size_t k = 0; inline_crit && k < nv; k++) {
-        char h[32];
-        snprintf(h, sizeof h, "C%zu", k + 1);
-        pad(w, h, CRIT_W, 1);
-    }
+    if (inline_crit)
+        inventory_crit_heads(w, 0, nv, CRIT_GAP, rw, 0);
     put(w, "\n     ");
     pad(w, "", name_w, 0);
     /* energy in the display system's unit first, as everywhere else */
@@ -561,8 +585,8 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
                            u_len};
     for (size_t k = 0; k < 5; k++)
         pad(w, units[k], NUM_W, 1);
-    for (size_t k = 0; inline_crit && k < nv; k++)
-        pad(w, "ratio verdict", CRIT_W, 1);
+    if (inline_crit)
+        inventory_crit_heads(w, 0, nv, CRIT_GAP, rw, 1);
     put(w, "\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_item_report *it = &rep->items[i];
@@ -579,25 +603,22 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         pad(w, num(w, w->us ? e_j : e_ftlbf, TEXT_SIG), NUM_W, 1);
         pad(w, plumbp_fixed(w, r->drift_m / conv_len, 2), NUM_W, 1);
         for (size_t k = 0; inline_crit && k < nv; k++)
-            pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
+            inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == nv);
         put(w, "\n");
         name_continued(w, rest, name_w);
     }
     /* the verdicts, in blocks of as many criteria as fit */
-    size_t per = (TABLE_WIDTH - NO_W - name_w) / CRIT_W;
-    for (size_t k0 = 0; !inline_crit && k0 < nv; k0 += per) {
-        size_t k1 = k0 + per < nv ? k0 + per : nv;
+    for (size_t k0 = 0; !inline_crit && k0 < nv;) {
+        size_t k1 = k0, used = NO_W + name_w;
+        while (k1 < nv &&
+               (k1 == k0 || used + verdict_cell_width(CRIT_GAP, rw[k1]) <= TABLE_WIDTH))
+            used += verdict_cell_width(CRIT_GAP, rw[k1++]);
         put(w, "\n   # ");
         pad(w, "item", name_w, 0);
-        for (size_t k = k0; k < k1; k++) {
-            char h[32];
-            snprintf(h, sizeof h, "C%zu", k + 1);
-            pad(w, h, CRIT_W, 1);
-        }
+        inventory_crit_heads(w, k0, k1, CRIT_GAP, rw, 0);
         put(w, "\n     ");
         pad(w, "", name_w, 0);
-        for (size_t k = k0; k < k1; k++)
-            pad(w, "ratio verdict", CRIT_W, 1);
+        inventory_crit_heads(w, k0, k1, CRIT_GAP, rw, 1);
         put(w, "\n");
         for (size_t i = 0; i < rep->n_items; i++) {
             const plumb_item_report *it = &rep->items[i];
@@ -606,10 +627,11 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
             put(w, "%4zu ", i + 1);
             pad(w, part, name_w, 0);
             for (size_t k = k0; k < k1; k++)
-                pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
+                inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == k1);
             put(w, "\n");
             name_continued(w, rest, name_w);
         }
+        k0 = k1;
     }
 
     if (nv) {

@@ -179,12 +179,21 @@ static void sweep_name_continued(writer *w, const sweep_cols *c, const char *res
 }
 
 /* A ratio with its verdict beside it, "1.00 EXCEEDS" / "0.997 within", so
- * that a ratio rounded to 1.00 still shows which side of the limit it is. */
-static const char *ratio_cell(writer *w, const plumb_verdict *v)
+ * that a ratio rounded to 1.00 still shows which side of the limit it is;
+ * the ratio right-aligned in ratio_w, the word in a column of its own
+ * (verdict_cell), SWEEP_GAP spaces before. */
+static void ratio_cell(writer *w, const plumb_verdict *v, size_t ratio_w, int last)
 {
-    char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
-    return b;
+    verdict_cell(w, SWEEP_GAP, ratio_w, num(w, v->ratio, RATIO_SIG),
+                 v->exceeds ? "EXCEEDS" : "within", last);
+}
+
+/* The "ratio verdict" header of criteria k0..k1 (wratio: their ratio
+ * columns' widths). */
+static void ratio_heads(writer *w, size_t k0, size_t k1, const size_t *wratio)
+{
+    for (size_t k = k0; k < k1; k++)
+        verdict_cell(w, SWEEP_GAP, wratio[k], "ratio", "verdict", k + 1 == k1);
 }
 
 /* The figure of numeric column k of a sweep row (speed, energy in the
@@ -431,6 +440,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
      * as many as fit, as the inventory table of `plumb fall` does. */
     size_t nv = first->n_verdicts;
     size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
+    size_t wratio[PLUMB_MAX_VERDICTS]; /* the ratio's part of wcrit */
     const char *khead[PLUMB_MAX_AXES];
     const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
     const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
@@ -447,7 +457,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         wnum[k] = shown_width(heads[k]) > shown_width(units[k]) ? shown_width(heads[k])
                                                                 : shown_width(units[k]);
     for (size_t k = 0; k < nv; k++)
-        wcrit[k] = shown_width("ratio verdict");
+        wratio[k] = shown_width("ratio");
     size_t name_w = SWEEP_NAME_MIN;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -462,10 +472,12 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
                     wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
             for (size_t k = 0; k < nv && k < item->n_verdicts; k++)
-                if (shown_width(ratio_cell(w, &item->verdicts[k])) > wcrit[k])
-                    wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
+                if (shown_width(num(w, item->verdicts[k].ratio, RATIO_SIG)) > wratio[k])
+                    wratio[k] = shown_width(num(w, item->verdicts[k].ratio, RATIO_SIG));
         }
     }
+    for (size_t k = 0; k < nv; k++)
+        wcrit[k] = verdict_cell_width(0, wratio[k]);
     sweep_cols c = {na, wkey, inv, 0, 0};
     size_t keys_w = 0, figs_w = 0, crit_w = 0;
     for (size_t a = 0; a < na; a++)
@@ -495,8 +507,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
-    for (size_t k = 0; inline_crit && k < nv; k++)
-        pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+    if (inline_crit)
+        ratio_heads(w, 0, nv, wratio);
     put(w, "\n");
     size_t n_failed = 0;
     for (size_t i = 0; i < nr; i++) {
@@ -513,7 +525,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
-                pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+                ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == item->n_verdicts);
             put(w, "\n");
             sweep_name_continued(w, &c, rest);
         }
@@ -532,8 +544,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         put(w, "\n");
         sweep_heads(w, sw, &c, khead, 1);
-        for (size_t k = k0; k < k1; k++)
-            pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+        ratio_heads(w, k0, k1, wratio);
         put(w, "\n");
         for (size_t i = 0; i < nr; i++) {
             const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -543,7 +554,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 const plumb_item_report *item = &row->report.items[it];
                 const char *rest = sweep_lead(w, &c, row, it);
                 for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
-                    pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+                    ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1);
                 put(w, "\n");
                 sweep_name_continued(w, &c, rest);
             }
