@@ -117,26 +117,110 @@ typedef struct sweep_cols {
     int own_line; /* 1: no room for a name column; each name on a line of its own */
 } sweep_cols;
 
-/* The header of a varied key's column: the key, or its last part when it
- * is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
- * table name the whole keys), so the figures and names keep their room. */
-static const char *sweep_key_head(const char *key, size_t n_axes)
+/* The header of a varied key's column, on up to two lines (top, then
+ * name). */
+typedef struct key_head {
+    char top[PLUMB_DIAG_KEY];
+    char name[PLUMB_DIAG_KEY];
+} key_head;
+
+/* The headers of the figures' columns; no key's header may be one of them. */
+static const char *const sweep_fig_heads[] = {"speed", "energy", "time", "drift", "bearing",
+                                              "item"};
+
+/* The last `parts` dotted parts of key, or all of it. */
+static const char *key_suffix(const char *key, size_t parts)
 {
-    const char *dot = strrchr(key, '.');
-    return (shown_width(key) > SWEEP_KEY_HEAD || n_axes > 1) && dot ? dot + 1 : key;
+    size_t n = 0;
+    for (const char *p = key + strlen(key); p > key; p--)
+        if (p[-1] == '.' && ++n == parts)
+            return p;
+    return key;
 }
 
-/* The two header lines of the leading columns: names (units = 0) or units. */
+/* 1 when head[a] is a figure's header or another key's. */
+static int key_head_clashes(const char *const *head, size_t na, size_t a)
+{
+    for (size_t k = 0; k < sizeof sweep_fig_heads / sizeof sweep_fig_heads[0]; k++)
+        if (strcmp(head[a], sweep_fig_heads[k]) == 0)
+            return 1;
+    for (size_t b = 0; b < na; b++)
+        if (b != a && strcmp(head[a], head[b]) == 0)
+            return 1;
+    return 0;
+}
+
+/* The headers of the varied keys' columns: each key, or its last part when
+ * it is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
+ * table name the whole keys), so the figures and names keep their room;
+ * but never the same header twice: a last part shared by two keys
+ * (items[1].mass, items[2].mass) or by a figure's column (speed) takes the
+ * parts before it until it is told apart. A header wider than
+ * SWEEP_KEY_HEAD is split after a dot over two lines, where the split
+ * leaves the narrower column. */
+static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
+{
+    const char *head[PLUMB_MAX_AXES];
+    size_t parts[PLUMB_MAX_AXES];
+    for (size_t a = 0; a < na; a++) {
+        const char *key = plumb_sweep_axis(sw, a)->key;
+        parts[a] = 1;
+        head[a] = shown_width(key) > SWEEP_KEY_HEAD || na > 1 ? key_suffix(key, 1) : key;
+    }
+    /* every clashing header grows at once, so two keys that share their
+     * last part are both told apart, not only the first */
+    for (int changed = 1; changed;) {
+        int grow[PLUMB_MAX_AXES];
+        changed = 0;
+        for (size_t a = 0; a < na; a++)
+            grow[a] = head[a] != plumb_sweep_axis(sw, a)->key && key_head_clashes(head, na, a);
+        for (size_t a = 0; a < na; a++)
+            if (grow[a]) {
+                head[a] = key_suffix(plumb_sweep_axis(sw, a)->key, ++parts[a]);
+                changed = 1;
+            }
+    }
+    for (size_t a = 0; a < na; a++) {
+        const char *h = head[a], *cut = NULL;
+        size_t best = shown_width(h);
+        for (const char *p = h; best > SWEEP_KEY_HEAD && (p = strchr(p, '.')) != NULL; p++) {
+            size_t rest = shown_width(p + 1), top = shown_width(h) - rest;
+            size_t wid = top > rest ? top : rest;
+            if (wid < best) {
+                best = wid;
+                cut = p + 1;
+            }
+        }
+        snprintf(kh[a].top, sizeof kh[a].top, "%.*s", cut ? (int)(cut - h) : 0, h);
+        snprintf(kh[a].name, sizeof kh[a].name, "%s", cut ? cut : h);
+    }
+}
+
+/* A header line of the leading columns: the keys' top lines (line 0, see
+ * sweep_top_heads), names (1) or units (2). */
 static void sweep_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
-                        const char *const *khead, int units)
+                        const key_head *kh, int line)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, units ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : khead[a],
+        pad(w, line == 2 ? unit_shown(w, plumb_sweep_axis(sw, a)->unit)
+                         : line == 1 ? kh[a].name : kh[a].top,
             c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
-    if (c->inv && !c->own_line) {
+    if (c->inv && !c->own_line && line > 0) {
         put(w, "  ");
-        pad(w, units ? "" : "item", c->name_w, 0);
+        pad(w, line == 2 ? "" : "item", c->name_w, 0);
     }
+}
+
+/* The top header line of the keys' columns, when a key's header has one. */
+static void sweep_top_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
+                            const key_head *kh)
+{
+    for (size_t a = 0; a < c->na; a++)
+        if (kh[a].top[0]) {
+            sweep_heads(w, sw, c, kh, 0);
+            put(w, "\n");
+            return;
+        }
 }
 
 static void sweep_name_continued(writer *w, const sweep_cols *c, const char *rest);
@@ -441,15 +525,17 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     size_t nv = first->n_verdicts;
     size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
     size_t wratio[PLUMB_MAX_VERDICTS]; /* the ratio's part of wcrit */
-    const char *khead[PLUMB_MAX_AXES];
+    key_head khead[PLUMB_MAX_AXES];
     const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
     const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
     const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
     const char *const *units = w->us ? units_us : units_si;
+    sweep_key_heads(sw, na, khead);
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        khead[a] = sweep_key_head(ax->key, na);
-        wkey[a] = shown_width(khead[a]);
+        wkey[a] = shown_width(khead[a].name);
+        if (shown_width(khead[a].top) > wkey[a])
+            wkey[a] = shown_width(khead[a].top);
         if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
             wkey[a] = shown_width(unit_shown(w, ax->unit));
     }
@@ -495,7 +581,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     }
     size_t lead_w = keys_w + (inv && !c.own_line ? SWEEP_GAP + c.name_w : 0);
     int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
-    sweep_heads(w, sw, &c, khead, 0);
+    sweep_top_heads(w, sw, &c, khead);
+    sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
     for (size_t k = 0; inline_crit && k < nv; k++) {
@@ -504,7 +591,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         pad(w, h, wcrit[k] + SWEEP_GAP, 1);
     }
     put(w, "\n");
-    sweep_heads(w, sw, &c, khead, 1);
+    sweep_heads(w, sw, &c, khead, 2);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
     if (inline_crit)
@@ -536,14 +623,15 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wcrit[k1++] + SWEEP_GAP;
         put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
-        sweep_heads(w, sw, &c, khead, 0);
+        sweep_top_heads(w, sw, &c, khead);
+        sweep_heads(w, sw, &c, khead, 1);
         for (size_t k = k0; k < k1; k++) {
             char h[32];
             snprintf(h, sizeof h, "C%zu", k + 1);
             pad(w, h, wcrit[k] + SWEEP_GAP, 1);
         }
         put(w, "\n");
-        sweep_heads(w, sw, &c, khead, 1);
+        sweep_heads(w, sw, &c, khead, 2);
         ratio_heads(w, k0, k1, wratio);
         put(w, "\n");
         for (size_t i = 0; i < nr; i++) {
