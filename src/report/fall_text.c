@@ -548,7 +548,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
      * block as fit. Each criterion's ratios are right-aligned in a column
      * as wide as the widest of them, its verdict words left-aligned beside
      * it (verdict_cell). */
-    enum { NUM_W = 10, CRIT_GAP = 2, NO_W = 5, NAME_MIN = 4 };
+    enum { NUM_W = 10, NUM_GAP = 4, CRIT_GAP = 2, NO_W = 5, NAME_MIN = 4 };
     size_t name_w = NAME_MIN;
     for (size_t i = 0; i < rep->n_items; i++) {
         size_t n = shown_width(rep->items[i].spec->name);
@@ -574,8 +574,15 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     put(w, "\n   # ");
     pad(w, "item", name_w, 0);
     const char *heads[] = {"mass", "speed", "energy", "energy", "drift"};
-    for (size_t k = 0; k < 5; k++)
+    for (size_t k = 0; k < 5; k++) {
+        if (k == 2) { /* one header over the energy in both units */
+            put(w, "%*s", NUM_GAP, "");
+            span_head(w, heads[k], 2 * NUM_W - NUM_GAP);
+            k++;
+            continue;
+        }
         pad(w, heads[k], NUM_W, 1);
+    }
     if (inline_crit)
         inventory_crit_heads(w, 0, nv, CRIT_GAP, rw, 0);
     put(w, "\n     ");

@@ -583,8 +583,15 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
     sweep_top_heads(w, sw, &c, khead);
     sweep_heads(w, sw, &c, khead, 1);
-    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++) {
+        if (k == 1) { /* one header over the energy in both units */
+            put(w, "%*s", SWEEP_GAP, "");
+            span_head(w, heads[k], wnum[1] + SWEEP_GAP + wnum[2]);
+            k++;
+            continue;
+        }
         pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
+    }
     for (size_t k = 0; inline_crit && k < nv; k++) {
         char h[32];
         snprintf(h, sizeof h, "C%zu", k + 1);
