@@ -201,6 +201,65 @@ static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall
     wrapped(w, "                   ", line);
 }
 
+/* "the drogue and the parachute do not open", "the parachute does not
+ * open": the devices i0..n of s that never open, by kind; by number when
+ * two of them are of one kind. */
+static void devices_not_open(const plumb_fall_spec *s, size_t i0, char *buf, size_t size)
+{
+    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
+    int same = 0;
+    for (size_t i = i0; i < n; i++)
+        for (size_t k = i + 1; k < n; k++)
+            same |= s->descent[i].kind == s->descent[k].kind;
+    if (same) {
+        snprintf(buf, size, "%s %zu devices %s", i0 ? "the last" : "none of the", n - i0,
+                 i0 ? "do not open" : "opens");
+        return;
+    }
+    size_t len = (size_t)snprintf(buf, size, "the");
+    for (size_t i = i0; i < n && len < size; i++)
+        len += (size_t)snprintf(buf + len, size - len, "%s %s", i == i0 ? "" : i + 1 == n ? " and the" : ", the",
+                                plumb_descent_kind_name(s->descent[i].kind));
+    if (len < size)
+        snprintf(buf + len, size - len, " %s", n - i0 > 1 ? "do not open" : "does not open");
+}
+
+/* The steady descent speed, worded by what this fall deployed: a device
+ * that never opens gives none, so with no device open the figure does not
+ * apply; with some open, the figure (with every device open, as in JSON
+ * steady_speed_m_s) is not what this fall reaches, and says so. */
+static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_result *r)
+{
+    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
+    char closed[NUMBUF * 2], line[NUMBUF * 5];
+    if (r->n_deployed == 0) {
+        devices_not_open(s, 0, closed, sizeof closed);
+        snprintf(line, sizeof line, "does not apply (%s before impact)", closed);
+    } else if (r->n_deployed >= n) {
+        if (r->steady_speed_m_s > 0.0)
+            snprintf(line, sizeof line, "%s with the %s open, at the strike level",
+                     plumbp_t_speed(w, r->steady_speed_m_s),
+                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
+        else
+            snprintf(line, sizeof line, "none up to %s even with the %s open: too little drag",
+                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S),
+                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
+    } else {
+        devices_not_open(s, r->n_deployed, closed, sizeof closed);
+        if (r->steady_speed_m_s > 0.0)
+            snprintf(line, sizeof line,
+                     "%s with every device open, at the strike level; not this fall's: %s "
+                     "before impact",
+                     plumbp_t_speed(w, r->steady_speed_m_s), closed);
+        else
+            snprintf(line, sizeof line,
+                     "none up to %s even with every device open: too little drag; and %s "
+                     "before impact",
+                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), closed);
+    }
+    wrapped(w, "  steady descent   ", line);
+}
+
 static void text_descent(writer *w, const plumb_item_report *it, const char *who)
 {
     const plumb_fall_spec *s = it->spec;
@@ -233,12 +292,7 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
     }
     put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
         plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
-    if (r->steady_speed_m_s > 0.0)
-        put(w, "  steady descent   %s with the devices open, at the strike level\n",
-            plumbp_t_speed(w, r->steady_speed_m_s));
-    else
-        put(w, "  steady descent   none up to %s: too little drag, devices open\n",
-            plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S));
+    text_steady(w, s, r);
 }
 
 /* Drag as understood, in one line of prose. */
