@@ -117,24 +117,29 @@ typedef struct sweep_cols {
     int own_line; /* 1: no room for a name column; each name on a line of its own */
 } sweep_cols;
 
-/* The header of a varied key's column, on up to two lines (top, then
- * name). */
+/* The header of a varied key's column, on one line or more: line[n - 1]
+ * (the name line, beside the figures' names) and the lines above it. */
+enum { KEY_HEAD_LINES = 12 };
 typedef struct key_head {
-    char top[PLUMB_DIAG_KEY];
-    char name[PLUMB_DIAG_KEY];
+    char line[KEY_HEAD_LINES][PLUMB_DIAG_KEY];
+    size_t n;
 } key_head;
 
 /* The headers of the figures' columns; no key's header may be one of them. */
 static const char *const sweep_fig_heads[] = {"speed", "energy", "time", "drift", "bearing",
                                               "item"};
 
-/* The last `parts` dotted parts of key, or all of it. */
+/* The last `parts` dotted parts of key, or all of it; a dot inside an
+ * item's name (items[1/2 in. wrench].mass) parts nothing. */
 static const char *key_suffix(const char *key, size_t parts)
 {
     size_t n = 0;
-    for (const char *p = key + strlen(key); p > key; p--)
-        if (p[-1] == '.' && ++n == parts)
+    int depth = 0;
+    for (const char *p = key + strlen(key); p > key; p--) {
+        depth += p[-1] == ']' ? 1 : p[-1] == '[' ? -1 : 0;
+        if (p[-1] == '.' && depth == 0 && ++n == parts)
             return p;
+    }
     return key;
 }
 
@@ -150,14 +155,68 @@ static int key_head_clashes(const char *const *head, size_t na, size_t a)
     return 0;
 }
 
+/* A piece of a header: a dotted part with its dot, or a line's worth of a
+ * part too long for a line; `glue` 1 when the next piece may follow it on
+ * its line without a space (the next dotted part). */
+typedef struct head_piece {
+    char text[PLUMB_DIAG_KEY];
+    int glue;
+} head_piece;
+
+/* h on lines of at most SWEEP_KEY_HEAD shown characters, split after a
+ * dot outside brackets, a part longer than that wrapped at its spaces
+ * (wrap_cell); packed from the end, so that the name line holds as much
+ * of the key's tail as fits. */
+static void key_head_lines(const char *h, key_head *kh)
+{
+    head_piece piece[PLUMB_DIAG_KEY];
+    size_t np = 0;
+    int depth = 0;
+    const char *start = h;
+    for (const char *p = h; *p && np < PLUMB_DIAG_KEY; p++) {
+        depth += *p == '[' ? 1 : *p == ']' ? -1 : 0;
+        if ((*p != '.' || depth != 0) && p[1])
+            continue;
+        char part[PLUMB_DIAG_KEY];
+        snprintf(part, sizeof part, "%.*s", (int)(p + 1 - start), start);
+        start = p + 1;
+        /* a part with spaces (an item's name) is wrapped; one word whole */
+        for (const char *rest = part; *rest && np < PLUMB_DIAG_KEY;) {
+            if (strchr(rest, ' '))
+                rest = wrap_cell(rest, SWEEP_KEY_HEAD, piece[np].text, sizeof piece[np].text);
+            else
+                rest += snprintf(piece[np].text, sizeof piece[np].text, "%s", rest);
+            piece[np++].glue = *rest == '\0';
+        }
+    }
+    char lines[KEY_HEAD_LINES][PLUMB_DIAG_KEY];
+    size_t nl = 0;
+    char cur[PLUMB_DIAG_KEY] = "";
+    for (size_t i = np; i-- > 0;) {
+        char joined[2 * PLUMB_DIAG_KEY];
+        snprintf(joined, sizeof joined, "%s%s", piece[i].text, cur);
+        if (cur[0] && (!piece[i].glue || shown_width(joined) > SWEEP_KEY_HEAD ||
+                       strlen(joined) >= sizeof cur) && nl + 1 < KEY_HEAD_LINES) {
+            snprintf(lines[nl++], sizeof lines[0], "%s", cur);
+            snprintf(cur, sizeof cur, "%s", piece[i].text);
+        } else {
+            snprintf(cur, sizeof cur, "%.*s", (int)(sizeof cur - 1), joined);
+        }
+    }
+    snprintf(lines[nl++], sizeof lines[0], "%s", cur);
+    kh->n = nl;
+    for (size_t k = 0; k < nl; k++)
+        snprintf(kh->line[k], sizeof kh->line[k], "%s", lines[nl - 1 - k]);
+}
+
 /* The headers of the varied keys' columns: each key, or its last part when
  * it is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
  * table name the whole keys), so the figures and names keep their room;
  * but never the same header twice: a last part shared by two keys
  * (items[1].mass, items[2].mass) or by a figure's column (speed) takes the
  * parts before it until it is told apart. A header wider than
- * SWEEP_KEY_HEAD is split after a dot over two lines, where the split
- * leaves the narrower column. */
+ * SWEEP_KEY_HEAD goes on lines of their own above the name line
+ * (key_head_lines). */
 static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
 {
     const char *head[PLUMB_MAX_AXES];
@@ -180,47 +239,54 @@ static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
                 changed = 1;
             }
     }
-    for (size_t a = 0; a < na; a++) {
-        const char *h = head[a], *cut = NULL;
-        size_t best = shown_width(h);
-        for (const char *p = h; best > SWEEP_KEY_HEAD && (p = strchr(p, '.')) != NULL; p++) {
-            size_t rest = shown_width(p + 1), top = shown_width(h) - rest;
-            size_t wid = top > rest ? top : rest;
-            if (wid < best) {
-                best = wid;
-                cut = p + 1;
-            }
-        }
-        snprintf(kh[a].top, sizeof kh[a].top, "%.*s", cut ? (int)(cut - h) : 0, h);
-        snprintf(kh[a].name, sizeof kh[a].name, "%s", cut ? cut : h);
-    }
+    for (size_t a = 0; a < na; a++)
+        key_head_lines(head[a], &kh[a]);
 }
 
-/* A header line of the leading columns: the keys' top lines (line 0, see
- * sweep_top_heads), names (1) or units (2). */
+/* The widest line of a key's header. */
+static size_t key_head_width(const key_head *kh)
+{
+    size_t wid = 0;
+    for (size_t k = 0; k < kh->n; k++)
+        if (shown_width(kh->line[k]) > wid)
+            wid = shown_width(kh->line[k]);
+    return wid;
+}
+
+/* A header line of the leading columns: the keys' name lines (line 1) or
+ * units (2); the lines above the name line are sweep_top_heads'. */
 static void sweep_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
                         const key_head *kh, int line)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, line == 2 ? unit_shown(w, plumb_sweep_axis(sw, a)->unit)
-                         : line == 1 ? kh[a].name : kh[a].top,
+        pad(w, line == 2 ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : kh[a].line[kh[a].n - 1],
             c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
-    if (c->inv && !c->own_line && line > 0) {
+    if (c->inv && !c->own_line) {
         put(w, "  ");
         pad(w, line == 2 ? "" : "item", c->name_w, 0);
     }
 }
 
-/* The top header line of the keys' columns, when a key's header has one. */
-static void sweep_top_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
-                            const key_head *kh)
+/* The lines of the keys' headers above their name lines, bottom-aligned;
+ * nothing when every header is one line. */
+static void sweep_top_heads(writer *w, const sweep_cols *c, const key_head *kh)
 {
+    size_t top = 0;
     for (size_t a = 0; a < c->na; a++)
-        if (kh[a].top[0]) {
-            sweep_heads(w, sw, c, kh, 0);
-            put(w, "\n");
-            return;
+        if (kh[a].n - 1 > top)
+            top = kh[a].n - 1;
+    for (size_t t = 0; t < top; t++) {
+        size_t last = 0; /* no line ends in spaces: the last key with a line here */
+        for (size_t a = 0; a < c->na; a++)
+            if (t + kh[a].n - 1 >= top)
+                last = a;
+        for (size_t a = 0; a <= last; a++) {
+            size_t above = kh[a].n - 1; /* lines above this key's name line */
+            pad(w, t + above >= top ? kh[a].line[t + above - top] : "",
+                c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
         }
+        put(w, "\n");
+    }
 }
 
 static void sweep_name_continued(writer *w, const sweep_cols *c, const char *rest);
@@ -508,12 +574,15 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         double last = plumb_range_value(ax, ax->n - 1);
         const char *u = unit_shown(w, ax->unit);
-        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s%s%s\n",
-            a ? "and" : "over", ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
-            u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
-            last != ax->to ? "; the steps stop short of " : "",
-            last != ax->to ? plumbp_gnum(w, ax->to, 10) : "", last != ax->to && u[0] ? " " : "",
-            last != ax->to ? u : "");
+        char line[PLUMB_DIAG_KEY + 2 * PLUMB_UNIT_TEXT + NUMBUF * 4];
+        /* wrapped: a long key (an item's name) must not run past the edge */
+        snprintf(line, sizeof line, "%s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s%s%s",
+                 ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
+                 u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
+                 last != ax->to ? "; the steps stop short of " : "",
+                 last != ax->to ? plumbp_gnum(w, ax->to, 10) : "",
+                 last != ax->to && u[0] ? " " : "", last != ax->to ? u : "");
+        wrapped(w, a ? "  and " : "  over ", line);
     }
     put(w, "\n");
     /* Column widths: the widest header, unit or cell of each, so that no
@@ -533,9 +602,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     sweep_key_heads(sw, na, khead);
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        wkey[a] = shown_width(khead[a].name);
-        if (shown_width(khead[a].top) > wkey[a])
-            wkey[a] = shown_width(khead[a].top);
+        wkey[a] = key_head_width(&khead[a]);
         if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
             wkey[a] = shown_width(unit_shown(w, ax->unit));
     }
@@ -581,7 +648,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     }
     size_t lead_w = keys_w + (inv && !c.own_line ? SWEEP_GAP + c.name_w : 0);
     int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
-    sweep_top_heads(w, sw, &c, khead);
+    sweep_top_heads(w, &c, khead);
     sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++) {
         if (k == 1) { /* one header over the energy in both units */
@@ -630,7 +697,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wcrit[k1++] + SWEEP_GAP;
         put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
-        sweep_top_heads(w, sw, &c, khead);
+        sweep_top_heads(w, &c, khead);
         sweep_heads(w, sw, &c, khead, 1);
         for (size_t k = k0; k < k1; k++) {
             char h[32];

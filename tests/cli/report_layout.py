@@ -150,15 +150,20 @@ for units in ("si", "us"):
 
 # ---- sweep headers: distinct ---------------------------------------------------
 def header_names(out):
-    """The column headers of the first sweep table: the line above the
-    units line (and a top line above it, joined by right edge)."""
+    """The column headers of the first sweep table: the cells of the line
+    above the units line, each with the cells ending at the same column in
+    the header lines above it (a key's header over several lines; a line
+    ending in a dot continues without a space)."""
     lines = out.splitlines()
     u = next(i for i, l in enumerate(lines) if re.search(r"^\s+\S.*\b(deg|ratio verdict)$", l))
-    names = {m.end(): m.group(0) for m in re.finditer(r"\S+", lines[u - 1])}
-    if u >= 2 and lines[u - 2].strip() and not lines[u - 2].startswith(("plumb", "  over", "  and")):
-        for m in re.finditer(r"\S+", lines[u - 2]):
-            if m.end() in names:
-                names[m.end()] = m.group(0) + names[m.end()]
+    cells = lambda l: {m.end(): m.group(0) for m in re.finditer(r"\S+(?: \S+)*", l)}
+    names = cells(lines[u - 1])
+    k = u - 2
+    while k > 0 and lines[k].strip() and not lines[k].startswith(("plumb", "  over", "  and")):
+        for end, text in cells(lines[k]).items():
+            if end in names:
+                names[end] = text + ("" if text.endswith(".") else " ") + names[end]
+        k -= 1
     return list(names.values())
 
 
@@ -168,6 +173,9 @@ sweeps = [
     ["--vary", "release.velocity.speed=0m/s:2m/s:2m/s", "--vary", "wind.speed=0m/s:4m/s:4m/s"],
     ["--vary", "items[1].drag.area=0.01m^2:0.02m^2:0.01m^2",
      "--vary", "items[2].drag.area=0.01m^2:0.02m^2:0.01m^2"],
+    ["--vary", "items[radio in a padded pouch].mass=0.3kg:0.4kg:0.1kg",
+     "--vary", "items[cable ties].mass=0.04kg:0.05kg:0.01kg"],
+    ["--vary", "atmosphere.temperature_offset=0K:10K:10K"],
 ]
 for args in sweeps:
     for units in ("si", "us"):
