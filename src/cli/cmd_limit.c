@@ -11,11 +11,12 @@
 #include "cli.h"
 
 static const char usage[] =
-    "Usage: plumb limit PROFILE --find KEY (--energy-max E | --speed-max V | --drift-max D)\n"
+    "Usage: plumb limit PROFILE --find KEY\n"
+    "                   (--energy-max E | --speed-max V | --drift-max D) [OPTIONS]\n"
     "The value of a numeric profile key (release.height, payload.mass, descent.area,\n"
-    "wind.speed, ...) at which the impact energy, impact speed or drift just meets the\n"
-    "limit; or why no value in the physical range does. Give --find and exactly one\n"
-    "of the limits. PROFILE '-' is read from standard input.\n"
+    "wind.speed, ...) at which the impact energy, impact speed or drift just meets\n"
+    "the limit; or why no value in the physical range does. Give --find and exactly\n"
+    "one of the limits. PROFILE '-' is read from standard input.\n"
     "Re-running `plumb fall --set KEY=VALUE` at the value found meets the limit.\n"
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";

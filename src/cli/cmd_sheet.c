@@ -19,18 +19,19 @@
 #include "plumb/sheet.h"
 
 static const char usage[] =
-    "Usage: plumb sheet PROFILE... -o FILE.pdf [--paper a4|letter] [--samples N] [--seed S]\n"
-    "                   [--units si|us] [OPTIONS]\n"
-    "The printable safety sheet: one PDF for all the profiles given, each with its job,\n"
-    "date and the SHA-256 of every input file, the answer (impact speed and energy,\n"
-    "time, clearance, one line per criterion), a side view of the fall, impact energy\n"
-    "against drop height with each criterion's limit, a plan view of the clearance zone\n"
-    "(when the profile has uncertainty:), the items of an inventory worst first, the\n"
-    "inputs as understood and the cautions; on every page the short caution, page n of\n"
-    "m and the profile's SHA-256. --samples and --seed override the profiles' zone.\n"
-    "SOURCE_DATE_EPOCH, when set, is taken as the time of the calculation.\n"
-    "Exit status: 0 done, 2 input error, 3 the computation failed or the PDF could not\n"
-    "be made or written; nothing is written on an error.\n";
+    "Usage: plumb sheet PROFILE... -o FILE.pdf [--paper a4|letter] [--samples N]\n"
+    "                   [--seed S] [--units si|us] [OPTIONS]\n"
+    "The printable safety sheet: one PDF for all the profiles given, each with its\n"
+    "job, date and the SHA-256 of every input file, the answer (impact speed and\n"
+    "energy, time, clearance, one line per criterion), a side view of the fall,\n"
+    "impact energy against drop height with each criterion's limit, a plan view of\n"
+    "the clearance zone (when the profile has uncertainty:), the items of an\n"
+    "inventory worst first, the inputs as understood and the cautions; on every page\n"
+    "the short caution, page n of m and the profile's SHA-256. --samples and --seed\n"
+    "override the profiles' zone. SOURCE_DATE_EPOCH, when set, is taken as the time\n"
+    "of the calculation.\n"
+    "Exit status: 0 done, 2 input error, 3 the computation failed or the PDF could\n"
+    "not be made or written; nothing is written on an error.\n";
 
 enum { OPT_PAPER, OPT_SAMPLES, OPT_SEED, N_OPT };
 

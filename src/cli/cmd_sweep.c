@@ -13,7 +13,8 @@
 #include "cli.h"
 
 static const char usage[] =
-    "Usage: plumb sweep PROFILE --vary KEY=FROM:TO:STEP [--vary KEY=FROM:TO:STEP] [OPTIONS]\n"
+    "Usage: plumb sweep PROFILE --vary KEY=FROM:TO:STEP [--vary KEY=FROM:TO:STEP]\n"
+    "                   [OPTIONS]\n"
     "A table of falls over a range of one numeric profile key, or over two (a two-way\n"
     "table), each value with its unit:\n"
     "  --vary release.height=2m:60m:2m     --vary wind.speed=0kn:25kn:5kn\n"

@@ -15,7 +15,7 @@ static const cli_command commands[] = {
     {"sweep", cmd_sweep, "a table of falls over a range of an input (--vary KEY=FROM:TO:STEP)"},
     {"limit", cmd_limit, "the value of an input at which a limit is just met (--find KEY)"},
     {"zone", cmd_zone, "clearance zone by Monte Carlo over the profile's uncertainty"},
-    {"sheet", cli_sheet_exec, "the printable safety sheet: one PDF of one or more profiles (-o FILE.pdf)"},
+    {"sheet", cli_sheet_exec, "the printable safety sheet: one PDF of one or more profiles (-o FILE)"},
     {"air", cmd_air, "air properties by altitude (--alt 0m:20km:1km)"},
     {"lint", cmd_lint, "validate profiles"},
 };

@@ -12,13 +12,37 @@
 
 /* ---- text: single fall --------------------------------------------------- */
 
+/* The title line of every text report, "plumb VERSION - what: NAME". A
+ * name too long for the line is wrapped at TEXT_WIDTH onto continuation
+ * lines indented under its first character, never cut; a word longer than
+ * the room is broken (wrap_cell). The name is the user's own text, so the
+ * whole of it is shown whatever its length. */
 void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,
                         const char *name)
 {
+    enum { NAME_ROOM_MIN = 24 }; /* narrowest name column before the name starts a line of its own */
+    char lead[NUMBUF];
     if (opt->version)
-        put(w, "plumb %s - %s: %s\n", opt->version, what, name);
+        snprintf(lead, sizeof lead, "plumb %s - %s: ", opt->version, what);
     else
-        put(w, "plumb - %s: %s\n", what, name);
+        snprintf(lead, sizeof lead, "plumb - %s: ", what);
+    size_t indent = shown_width(lead);
+    int first = 1;
+    if (indent + NAME_ROOM_MIN > TEXT_WIDTH) {
+        /* a lead too long to leave room: the name on lines of its own */
+        put(w, "%.*s\n", (int)(strlen(lead) - 1), lead);
+        indent = 2;
+        first = 0;
+    } else {
+        put(w, "%s", lead);
+    }
+    const char *rest = name;
+    do {
+        char part[4 * TEXT_WIDTH + 1]; /* a line of the name, 4 bytes a character */
+        rest = wrap_cell(rest, TEXT_WIDTH - indent, part, sizeof part);
+        put(w, "%*s%s\n", first ? 0 : (int)indent, "", part);
+        first = 0;
+    } while (*rest);
 }
 
 static void text_impact(writer *w, const plumb_item_report *it)
@@ -177,6 +201,65 @@ static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall
     wrapped(w, "                   ", line);
 }
 
+/* "the drogue and the parachute do not open", "the parachute does not
+ * open": the devices i0..n of s that never open, by kind; by number when
+ * two of them are of one kind. */
+static void devices_not_open(const plumb_fall_spec *s, size_t i0, char *buf, size_t size)
+{
+    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
+    int same = 0;
+    for (size_t i = i0; i < n; i++)
+        for (size_t k = i + 1; k < n; k++)
+            same |= s->descent[i].kind == s->descent[k].kind;
+    if (same) {
+        snprintf(buf, size, "%s %zu devices %s", i0 ? "the last" : "none of the", n - i0,
+                 i0 ? "do not open" : "opens");
+        return;
+    }
+    size_t len = (size_t)snprintf(buf, size, "the");
+    for (size_t i = i0; i < n && len < size; i++)
+        len += (size_t)snprintf(buf + len, size - len, "%s %s", i == i0 ? "" : i + 1 == n ? " and the" : ", the",
+                                plumb_descent_kind_name(s->descent[i].kind));
+    if (len < size)
+        snprintf(buf + len, size - len, " %s", n - i0 > 1 ? "do not open" : "does not open");
+}
+
+/* The steady descent speed, worded by what this fall deployed: a device
+ * that never opens gives none, so with no device open the figure does not
+ * apply; with some open, the figure (with every device open, as in JSON
+ * steady_speed_m_s) is not what this fall reaches, and says so. */
+static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_result *r)
+{
+    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
+    char closed[NUMBUF * 2], line[NUMBUF * 5];
+    if (r->n_deployed == 0) {
+        devices_not_open(s, 0, closed, sizeof closed);
+        snprintf(line, sizeof line, "does not apply (%s before impact)", closed);
+    } else if (r->n_deployed >= n) {
+        if (r->steady_speed_m_s > 0.0)
+            snprintf(line, sizeof line, "%s with the %s open, at the strike level",
+                     plumbp_t_speed(w, r->steady_speed_m_s),
+                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
+        else
+            snprintf(line, sizeof line, "none up to %s even with the %s open: too little drag",
+                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S),
+                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
+    } else {
+        devices_not_open(s, r->n_deployed, closed, sizeof closed);
+        if (r->steady_speed_m_s > 0.0)
+            snprintf(line, sizeof line,
+                     "%s with every device open, at the strike level; not this fall's: %s "
+                     "before impact",
+                     plumbp_t_speed(w, r->steady_speed_m_s), closed);
+        else
+            snprintf(line, sizeof line,
+                     "none up to %s even with every device open: too little drag; and %s "
+                     "before impact",
+                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), closed);
+    }
+    wrapped(w, "  steady descent   ", line);
+}
+
 static void text_descent(writer *w, const plumb_item_report *it, const char *who)
 {
     const plumb_fall_spec *s = it->spec;
@@ -209,12 +292,7 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
     }
     put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
         plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
-    if (r->steady_speed_m_s > 0.0)
-        put(w, "  steady descent   %s with the devices open, at the strike level\n",
-            plumbp_t_speed(w, r->steady_speed_m_s));
-    else
-        put(w, "  steady descent   none up to %s: too little drag, devices open\n",
-            plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S));
+    text_steady(w, s, r);
 }
 
 /* Drag as understood, in one line of prose. */
@@ -478,12 +556,27 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
 
 /* ---- text: inventory ----------------------------------------------------- */
 
-/* "2.52 EXCEEDS": a verdict in an inventory table cell. */
-static const char *inventory_verdict(writer *w, const plumb_verdict *v)
+/* An item's verdict on criterion k as a table cell (verdict_cell). */
+static void inventory_verdict(writer *w, const plumb_verdict *v, size_t gap, size_t ratio_w,
+                              int last)
 {
-    char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
-    return b;
+    verdict_cell(w, gap, ratio_w, num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within",
+                 last);
+}
+
+/* The two header lines' criterion cells k0..k1 of an inventory table. */
+static void inventory_crit_heads(writer *w, size_t k0, size_t k1, size_t gap, const size_t *rw,
+                                 int units)
+{
+    for (size_t k = k0; k < k1; k++) {
+        if (units) {
+            verdict_cell(w, gap, rw[k], "ratio", "verdict", k + 1 == k1);
+        } else {
+            char h[32];
+            snprintf(h, sizeof h, "C%zu", k + 1);
+            pad(w, h, verdict_cell_width(gap, rw[k]), 1);
+        }
+    }
 }
 
 /* The continuation lines of a name wrapped in its table column, under
@@ -506,8 +599,10 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
      * The table keeps to TABLE_WIDTH columns: a long name is wrapped onto
      * continuation lines of its own column, never cut, and criteria that
      * do not fit beside the figures get a table of their own, as many per
-     * block as fit. */
-    enum { NUM_W = 10, CRIT_W = 14, NO_W = 5, NAME_MIN = 4 };
+     * block as fit. Each criterion's ratios are right-aligned in a column
+     * as wide as the widest of them, its verdict words left-aligned beside
+     * it (verdict_cell). */
+    enum { NUM_W = 10, NUM_GAP = 4, CRIT_GAP = 2, NO_W = 5, NAME_MIN = 4 };
     size_t name_w = NAME_MIN;
     for (size_t i = 0; i < rep->n_items; i++) {
         size_t n = shown_width(rep->items[i].spec->name);
@@ -517,19 +612,33 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     size_t figs_w = NO_W + 5 * NUM_W;
     if (name_w > TABLE_WIDTH - figs_w)
         name_w = TABLE_WIDTH - figs_w;
-    int inline_crit = figs_w + name_w + nv * CRIT_W <= TABLE_WIDTH;
+    size_t rw[PLUMB_MAX_VERDICTS], crit_w = 0;
+    for (size_t k = 0; k < nv && k < PLUMB_MAX_VERDICTS; k++) {
+        rw[k] = shown_width("ratio");
+        for (size_t i = 0; i < rep->n_items; i++) {
+            size_t n = shown_width(num(w, rep->items[i].verdicts[k].ratio, RATIO_SIG));
+            if (n > rw[k])
+                rw[k] = n;
+        }
+        crit_w += verdict_cell_width(CRIT_GAP, rw[k]);
+    }
+    int inline_crit = figs_w + name_w + crit_w <= TABLE_WIDTH;
     const char *u_mass = w->us ? "lb" : "kg", *u_speed = w->us ? "ft/s" : "m/s";
     const char *u_len = w->us ? "ft" : "m";
     put(w, "\n   # ");
     pad(w, "item", name_w, 0);
     const char *heads[] = {"mass", "speed", "energy", "energy", "drift"};
-    for (size_t k = 0; k < 5; k++)
+    for (size_t k = 0; k < 5; k++) {
+        if (k == 2) { /* one header over the energy in both units */
+            put(w, "%*s", NUM_GAP, "");
+            span_head(w, heads[k], 2 * NUM_W - NUM_GAP);
+            k++;
+            continue;
+        }
         pad(w, heads[k], NUM_W, 1);
-    for (size_t k = 0; inline_crit && k < nv; k++) {
-        char h[32];
-        snprintf(h, sizeof h, "C%zu", k + 1);
-        pad(w, h, CRIT_W, 1);
     }
+    if (inline_crit)
+        inventory_crit_heads(w, 0, nv, CRIT_GAP, rw, 0);
     put(w, "\n     ");
     pad(w, "", name_w, 0);
     /* energy in the display system's unit first, as everywhere else */
@@ -537,8 +646,8 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
                            u_len};
     for (size_t k = 0; k < 5; k++)
         pad(w, units[k], NUM_W, 1);
-    for (size_t k = 0; inline_crit && k < nv; k++)
-        pad(w, "ratio verdict", CRIT_W, 1);
+    if (inline_crit)
+        inventory_crit_heads(w, 0, nv, CRIT_GAP, rw, 1);
     put(w, "\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_item_report *it = &rep->items[i];
@@ -555,25 +664,22 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         pad(w, num(w, w->us ? e_j : e_ftlbf, TEXT_SIG), NUM_W, 1);
         pad(w, plumbp_fixed(w, r->drift_m / conv_len, 2), NUM_W, 1);
         for (size_t k = 0; inline_crit && k < nv; k++)
-            pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
+            inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == nv);
         put(w, "\n");
         name_continued(w, rest, name_w);
     }
     /* the verdicts, in blocks of as many criteria as fit */
-    size_t per = (TABLE_WIDTH - NO_W - name_w) / CRIT_W;
-    for (size_t k0 = 0; !inline_crit && k0 < nv; k0 += per) {
-        size_t k1 = k0 + per < nv ? k0 + per : nv;
+    for (size_t k0 = 0; !inline_crit && k0 < nv;) {
+        size_t k1 = k0, used = NO_W + name_w;
+        while (k1 < nv &&
+               (k1 == k0 || used + verdict_cell_width(CRIT_GAP, rw[k1]) <= TABLE_WIDTH))
+            used += verdict_cell_width(CRIT_GAP, rw[k1++]);
         put(w, "\n   # ");
         pad(w, "item", name_w, 0);
-        for (size_t k = k0; k < k1; k++) {
-            char h[32];
-            snprintf(h, sizeof h, "C%zu", k + 1);
-            pad(w, h, CRIT_W, 1);
-        }
+        inventory_crit_heads(w, k0, k1, CRIT_GAP, rw, 0);
         put(w, "\n     ");
         pad(w, "", name_w, 0);
-        for (size_t k = k0; k < k1; k++)
-            pad(w, "ratio verdict", CRIT_W, 1);
+        inventory_crit_heads(w, k0, k1, CRIT_GAP, rw, 1);
         put(w, "\n");
         for (size_t i = 0; i < rep->n_items; i++) {
             const plumb_item_report *it = &rep->items[i];
@@ -582,10 +688,11 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
             put(w, "%4zu ", i + 1);
             pad(w, part, name_w, 0);
             for (size_t k = k0; k < k1; k++)
-                pad(w, inventory_verdict(w, &it->verdicts[k]), CRIT_W, 1);
+                inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == k1);
             put(w, "\n");
             name_continued(w, rest, name_w);
         }
+        k0 = k1;
     }
 
     if (nv) {

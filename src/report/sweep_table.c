@@ -117,25 +117,175 @@ typedef struct sweep_cols {
     int own_line; /* 1: no room for a name column; each name on a line of its own */
 } sweep_cols;
 
-/* The header of a varied key's column: the key, or its last part when it
- * is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
- * table name the whole keys), so the figures and names keep their room. */
-static const char *sweep_key_head(const char *key, size_t n_axes)
+/* The header of a varied key's column, on one line or more: line[n - 1]
+ * (the name line, beside the figures' names) and the lines above it. */
+enum { KEY_HEAD_LINES = 12 };
+typedef struct key_head {
+    char line[KEY_HEAD_LINES][PLUMB_DIAG_KEY];
+    size_t n;
+} key_head;
+
+/* The headers of the figures' columns; no key's header may be one of them. */
+static const char *const sweep_fig_heads[] = {"speed", "energy", "time", "drift", "bearing",
+                                              "item"};
+
+/* The last `parts` dotted parts of key, or all of it; a dot inside an
+ * item's name (items[1/2 in. wrench].mass) parts nothing. */
+static const char *key_suffix(const char *key, size_t parts)
 {
-    const char *dot = strrchr(key, '.');
-    return (shown_width(key) > SWEEP_KEY_HEAD || n_axes > 1) && dot ? dot + 1 : key;
+    size_t n = 0;
+    int depth = 0;
+    for (const char *p = key + strlen(key); p > key; p--) {
+        depth += p[-1] == ']' ? 1 : p[-1] == '[' ? -1 : 0;
+        if (p[-1] == '.' && depth == 0 && ++n == parts)
+            return p;
+    }
+    return key;
 }
 
-/* The two header lines of the leading columns: names (units = 0) or units. */
+/* 1 when head[a] is a figure's header or another key's. */
+static int key_head_clashes(const char *const *head, size_t na, size_t a)
+{
+    for (size_t k = 0; k < sizeof sweep_fig_heads / sizeof sweep_fig_heads[0]; k++)
+        if (strcmp(head[a], sweep_fig_heads[k]) == 0)
+            return 1;
+    for (size_t b = 0; b < na; b++)
+        if (b != a && strcmp(head[a], head[b]) == 0)
+            return 1;
+    return 0;
+}
+
+/* A piece of a header: a dotted part with its dot, or a line's worth of a
+ * part too long for a line; `glue` 1 when the next piece may follow it on
+ * its line without a space (the next dotted part). */
+typedef struct head_piece {
+    char text[PLUMB_DIAG_KEY];
+    int glue;
+} head_piece;
+
+/* h on lines of at most SWEEP_KEY_HEAD shown characters, split after a
+ * dot outside brackets, a part longer than that wrapped at its spaces
+ * (wrap_cell); packed from the end, so that the name line holds as much
+ * of the key's tail as fits. */
+static void key_head_lines(const char *h, key_head *kh)
+{
+    head_piece piece[PLUMB_DIAG_KEY];
+    size_t np = 0;
+    int depth = 0;
+    const char *start = h;
+    for (const char *p = h; *p && np < PLUMB_DIAG_KEY; p++) {
+        depth += *p == '[' ? 1 : *p == ']' ? -1 : 0;
+        if ((*p != '.' || depth != 0) && p[1])
+            continue;
+        char part[PLUMB_DIAG_KEY];
+        snprintf(part, sizeof part, "%.*s", (int)(p + 1 - start), start);
+        start = p + 1;
+        /* a part with spaces (an item's name) is wrapped; one word whole */
+        for (const char *rest = part; *rest && np < PLUMB_DIAG_KEY;) {
+            if (strchr(rest, ' '))
+                rest = wrap_cell(rest, SWEEP_KEY_HEAD, piece[np].text, sizeof piece[np].text);
+            else
+                rest += snprintf(piece[np].text, sizeof piece[np].text, "%s", rest);
+            piece[np++].glue = *rest == '\0';
+        }
+    }
+    char lines[KEY_HEAD_LINES][PLUMB_DIAG_KEY];
+    size_t nl = 0;
+    char cur[PLUMB_DIAG_KEY] = "";
+    for (size_t i = np; i-- > 0;) {
+        char joined[2 * PLUMB_DIAG_KEY];
+        snprintf(joined, sizeof joined, "%s%s", piece[i].text, cur);
+        if (cur[0] && (!piece[i].glue || shown_width(joined) > SWEEP_KEY_HEAD ||
+                       strlen(joined) >= sizeof cur) && nl + 1 < KEY_HEAD_LINES) {
+            snprintf(lines[nl++], sizeof lines[0], "%s", cur);
+            snprintf(cur, sizeof cur, "%s", piece[i].text);
+        } else {
+            snprintf(cur, sizeof cur, "%.*s", (int)(sizeof cur - 1), joined);
+        }
+    }
+    snprintf(lines[nl++], sizeof lines[0], "%s", cur);
+    kh->n = nl;
+    for (size_t k = 0; k < nl; k++)
+        snprintf(kh->line[k], sizeof kh->line[k], "%s", lines[nl - 1 - k]);
+}
+
+/* The headers of the varied keys' columns: each key, or its last part when
+ * it is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
+ * table name the whole keys), so the figures and names keep their room;
+ * but never the same header twice: a last part shared by two keys
+ * (items[1].mass, items[2].mass) or by a figure's column (speed) takes the
+ * parts before it until it is told apart. A header wider than
+ * SWEEP_KEY_HEAD goes on lines of their own above the name line
+ * (key_head_lines). */
+static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
+{
+    const char *head[PLUMB_MAX_AXES];
+    size_t parts[PLUMB_MAX_AXES];
+    for (size_t a = 0; a < na; a++) {
+        const char *key = plumb_sweep_axis(sw, a)->key;
+        parts[a] = 1;
+        head[a] = shown_width(key) > SWEEP_KEY_HEAD || na > 1 ? key_suffix(key, 1) : key;
+    }
+    /* every clashing header grows at once, so two keys that share their
+     * last part are both told apart, not only the first */
+    for (int changed = 1; changed;) {
+        int grow[PLUMB_MAX_AXES];
+        changed = 0;
+        for (size_t a = 0; a < na; a++)
+            grow[a] = head[a] != plumb_sweep_axis(sw, a)->key && key_head_clashes(head, na, a);
+        for (size_t a = 0; a < na; a++)
+            if (grow[a]) {
+                head[a] = key_suffix(plumb_sweep_axis(sw, a)->key, ++parts[a]);
+                changed = 1;
+            }
+    }
+    for (size_t a = 0; a < na; a++)
+        key_head_lines(head[a], &kh[a]);
+}
+
+/* The widest line of a key's header. */
+static size_t key_head_width(const key_head *kh)
+{
+    size_t wid = 0;
+    for (size_t k = 0; k < kh->n; k++)
+        if (shown_width(kh->line[k]) > wid)
+            wid = shown_width(kh->line[k]);
+    return wid;
+}
+
+/* A header line of the leading columns: the keys' name lines (line 1) or
+ * units (2); the lines above the name line are sweep_top_heads'. */
 static void sweep_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
-                        const char *const *khead, int units)
+                        const key_head *kh, int line)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, units ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : khead[a],
+        pad(w, line == 2 ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : kh[a].line[kh[a].n - 1],
             c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (c->inv && !c->own_line) {
         put(w, "  ");
-        pad(w, units ? "" : "item", c->name_w, 0);
+        pad(w, line == 2 ? "" : "item", c->name_w, 0);
+    }
+}
+
+/* The lines of the keys' headers above their name lines, bottom-aligned;
+ * nothing when every header is one line. */
+static void sweep_top_heads(writer *w, const sweep_cols *c, const key_head *kh)
+{
+    size_t top = 0;
+    for (size_t a = 0; a < c->na; a++)
+        if (kh[a].n - 1 > top)
+            top = kh[a].n - 1;
+    for (size_t t = 0; t < top; t++) {
+        size_t last = 0; /* no line ends in spaces: the last key with a line here */
+        for (size_t a = 0; a < c->na; a++)
+            if (t + kh[a].n - 1 >= top)
+                last = a;
+        for (size_t a = 0; a <= last; a++) {
+            size_t above = kh[a].n - 1; /* lines above this key's name line */
+            pad(w, t + above >= top ? kh[a].line[t + above - top] : "",
+                c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
+        }
+        put(w, "\n");
     }
 }
 
@@ -179,12 +329,21 @@ static void sweep_name_continued(writer *w, const sweep_cols *c, const char *res
 }
 
 /* A ratio with its verdict beside it, "1.00 EXCEEDS" / "0.997 within", so
- * that a ratio rounded to 1.00 still shows which side of the limit it is. */
-static const char *ratio_cell(writer *w, const plumb_verdict *v)
+ * that a ratio rounded to 1.00 still shows which side of the limit it is;
+ * the ratio right-aligned in ratio_w, the word in a column of its own
+ * (verdict_cell), SWEEP_GAP spaces before. */
+static void ratio_cell(writer *w, const plumb_verdict *v, size_t ratio_w, int last)
 {
-    char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s", num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within");
-    return b;
+    verdict_cell(w, SWEEP_GAP, ratio_w, num(w, v->ratio, RATIO_SIG),
+                 v->exceeds ? "EXCEEDS" : "within", last);
+}
+
+/* The "ratio verdict" header of criteria k0..k1 (wratio: their ratio
+ * columns' widths). */
+static void ratio_heads(writer *w, size_t k0, size_t k1, const size_t *wratio)
+{
+    for (size_t k = k0; k < k1; k++)
+        verdict_cell(w, SWEEP_GAP, wratio[k], "ratio", "verdict", k + 1 == k1);
 }
 
 /* The figure of numeric column k of a sweep row (speed, energy in the
@@ -415,12 +574,15 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         double last = plumb_range_value(ax, ax->n - 1);
         const char *u = unit_shown(w, ax->unit);
-        put(w, "  %s %s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s%s%s\n",
-            a ? "and" : "over", ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
-            u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
-            last != ax->to ? "; the steps stop short of " : "",
-            last != ax->to ? plumbp_gnum(w, ax->to, 10) : "", last != ax->to && u[0] ? " " : "",
-            last != ax->to ? u : "");
+        char line[PLUMB_DIAG_KEY + 2 * PLUMB_UNIT_TEXT + NUMBUF * 4];
+        /* wrapped: a long key (an item's name) must not run past the edge */
+        snprintf(line, sizeof line, "%s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s%s%s",
+                 ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
+                 u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
+                 last != ax->to ? "; the steps stop short of " : "",
+                 last != ax->to ? plumbp_gnum(w, ax->to, 10) : "",
+                 last != ax->to && u[0] ? " " : "", last != ax->to ? u : "");
+        wrapped(w, a ? "  and " : "  over ", line);
     }
     put(w, "\n");
     /* Column widths: the widest header, unit or cell of each, so that no
@@ -431,15 +593,16 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
      * as many as fit, as the inventory table of `plumb fall` does. */
     size_t nv = first->n_verdicts;
     size_t wkey[PLUMB_MAX_AXES], wnum[SWEEP_NUM_COLS], wcrit[PLUMB_MAX_VERDICTS];
-    const char *khead[PLUMB_MAX_AXES];
+    size_t wratio[PLUMB_MAX_VERDICTS]; /* the ratio's part of wcrit */
+    key_head khead[PLUMB_MAX_AXES];
     const char *heads[SWEEP_NUM_COLS] = {"speed", "energy", "energy", "time", "drift", "bearing"};
     const char *units_si[SWEEP_NUM_COLS] = {"m/s", "J", "ft·lbf", "s", "m", "deg"};
     const char *units_us[SWEEP_NUM_COLS] = {"ft/s", "ft·lbf", "J", "s", "ft", "deg"};
     const char *const *units = w->us ? units_us : units_si;
+    sweep_key_heads(sw, na, khead);
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        khead[a] = sweep_key_head(ax->key, na);
-        wkey[a] = shown_width(khead[a]);
+        wkey[a] = key_head_width(&khead[a]);
         if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
             wkey[a] = shown_width(unit_shown(w, ax->unit));
     }
@@ -447,7 +610,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         wnum[k] = shown_width(heads[k]) > shown_width(units[k]) ? shown_width(heads[k])
                                                                 : shown_width(units[k]);
     for (size_t k = 0; k < nv; k++)
-        wcrit[k] = shown_width("ratio verdict");
+        wratio[k] = shown_width("ratio");
     size_t name_w = SWEEP_NAME_MIN;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -462,10 +625,12 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
                     wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
             for (size_t k = 0; k < nv && k < item->n_verdicts; k++)
-                if (shown_width(ratio_cell(w, &item->verdicts[k])) > wcrit[k])
-                    wcrit[k] = shown_width(ratio_cell(w, &item->verdicts[k]));
+                if (shown_width(num(w, item->verdicts[k].ratio, RATIO_SIG)) > wratio[k])
+                    wratio[k] = shown_width(num(w, item->verdicts[k].ratio, RATIO_SIG));
         }
     }
+    for (size_t k = 0; k < nv; k++)
+        wcrit[k] = verdict_cell_width(0, wratio[k]);
     sweep_cols c = {na, wkey, inv, 0, 0};
     size_t keys_w = 0, figs_w = 0, crit_w = 0;
     for (size_t a = 0; a < na; a++)
@@ -483,20 +648,28 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     }
     size_t lead_w = keys_w + (inv && !c.own_line ? SWEEP_GAP + c.name_w : 0);
     int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
-    sweep_heads(w, sw, &c, khead, 0);
-    for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
+    sweep_top_heads(w, &c, khead);
+    sweep_heads(w, sw, &c, khead, 1);
+    for (size_t k = 0; k < SWEEP_NUM_COLS; k++) {
+        if (k == 1) { /* one header over the energy in both units */
+            put(w, "%*s", SWEEP_GAP, "");
+            span_head(w, heads[k], wnum[1] + SWEEP_GAP + wnum[2]);
+            k++;
+            continue;
+        }
         pad(w, heads[k], wnum[k] + SWEEP_GAP, 1);
+    }
     for (size_t k = 0; inline_crit && k < nv; k++) {
         char h[32];
         snprintf(h, sizeof h, "C%zu", k + 1);
         pad(w, h, wcrit[k] + SWEEP_GAP, 1);
     }
     put(w, "\n");
-    sweep_heads(w, sw, &c, khead, 1);
+    sweep_heads(w, sw, &c, khead, 2);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         pad(w, units[k], wnum[k] + SWEEP_GAP, 1);
-    for (size_t k = 0; inline_crit && k < nv; k++)
-        pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+    if (inline_crit)
+        ratio_heads(w, 0, nv, wratio);
     put(w, "\n");
     size_t n_failed = 0;
     for (size_t i = 0; i < nr; i++) {
@@ -513,7 +686,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
-                pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+                ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == item->n_verdicts);
             put(w, "\n");
             sweep_name_continued(w, &c, rest);
         }
@@ -524,16 +697,16 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wcrit[k1++] + SWEEP_GAP;
         put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
-        sweep_heads(w, sw, &c, khead, 0);
+        sweep_top_heads(w, &c, khead);
+        sweep_heads(w, sw, &c, khead, 1);
         for (size_t k = k0; k < k1; k++) {
             char h[32];
             snprintf(h, sizeof h, "C%zu", k + 1);
             pad(w, h, wcrit[k] + SWEEP_GAP, 1);
         }
         put(w, "\n");
-        sweep_heads(w, sw, &c, khead, 1);
-        for (size_t k = k0; k < k1; k++)
-            pad(w, "ratio verdict", wcrit[k] + SWEEP_GAP, 1);
+        sweep_heads(w, sw, &c, khead, 2);
+        ratio_heads(w, k0, k1, wratio);
         put(w, "\n");
         for (size_t i = 0; i < nr; i++) {
             const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -543,7 +716,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 const plumb_item_report *item = &row->report.items[it];
                 const char *rest = sweep_lead(w, &c, row, it);
                 for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
-                    pad(w, ratio_cell(w, &item->verdicts[k]), wcrit[k] + SWEEP_GAP, 1);
+                    ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1);
                 put(w, "\n");
                 sweep_name_continued(w, &c, rest);
             }

@@ -185,6 +185,46 @@ static inline void pad(writer *w, const char *s, size_t width, int right)
         put(w, "%s%*s", s, (int)fill, "");
 }
 
+/* One header over two columns that hold the same quantity in two units
+ * (energy in J and in ft·lbf): the label centred in `width` shown
+ * characters, dashes either side to mark how far it reaches, so that no
+ * two columns of a table share a header; the unit line below tells the
+ * two apart. */
+static inline void span_head(writer *w, const char *label, size_t width)
+{
+    size_t n = shown_width(label), fill = width > n + 2 ? width - n : 2;
+    size_t left = fill / 2, right = fill - left;
+    for (size_t i = 0; i < left; i++)
+        put(w, "-");
+    put(w, "%s", label);
+    for (size_t i = 0; i < right; i++)
+        put(w, "-");
+}
+
+/* A criterion's cell in a table (the inventory of a fall, a sweep): the
+ * ratio right-aligned in a column ratio_w wide, a space, the verdict word
+ * ("EXCEEDS", "within") left-aligned in one VERDICT_W wide, after `gap`
+ * spaces; so the ratios and the words of a criterion line up row under
+ * row. The word is not padded when the cell ends its line (`last`): no
+ * line ends in spaces. The header "ratio verdict" is a cell as well. */
+enum { VERDICT_W = 7 };
+static inline size_t verdict_cell_width(size_t gap, size_t ratio_w)
+{
+    return gap + ratio_w + 1 + VERDICT_W;
+}
+
+static inline void verdict_cell(writer *w, size_t gap, size_t ratio_w, const char *ratio,
+                                const char *word, int last)
+{
+    put(w, "%*s", (int)gap, "");
+    pad(w, ratio, ratio_w, 1);
+    put(w, " ");
+    if (last)
+        put(w, "%s", word);
+    else
+        pad(w, word, VERDICT_W, 0);
+}
+
 /* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
  * indented to the width of `lead`. */
 /* 1 when a word looks like the unit of the number before it ("m",

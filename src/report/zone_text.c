@@ -15,7 +15,6 @@
 
 #include "plumb/constants.h"
 #include "plumb/report.h"
-#include "plumb/version.h"
 #include "plumb/dispersion.h"
 #include "core/internal.h"
 #include "report/jsonout.h"
@@ -504,8 +503,8 @@ void plumbp_zone_text_report(writer *w, const plumb_report_options *opt,
                              const plumb_zone_report *rep)
 {
     const plumb_zone_result *r0 = rep->items[0].result;
-    put(w, "plumb %s - zone: %s\n\n", opt->version ? opt->version : PLUMB_VERSION,
-        rep->profile_name ? rep->profile_name : rep->items[0].name);
+    plumbp_text_header(w, opt, "zone", rep->profile_name ? rep->profile_name : rep->items[0].name);
+    put(w, "\n");
     put(w, "Monte Carlo  %zu samples per run, seed %lu, %zu thread%s (the figures do not\n"
            "             depend on the thread count); intervals at %s: order statistics\n"
            "             for percentiles, Clopper-Pearson for probabilities\n\n",

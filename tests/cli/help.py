@@ -9,7 +9,10 @@ each command, each candidate is tried on the command line: unless plumb
 answers "unknown option", the command accepts it, and then it must have a
 line of its own in the "Options:" list of `plumb COMMAND --help`. The other
 way round, every option the list names must be accepted. --help itself
-must go to standard output with status 0 (design.md section 6).
+must go to standard output with status 0 (design.md section 6), and no
+line of plumb --help or of any command's --help is wider than 80
+characters (issue 9; 80 columns: the classic terminal width, VT100 /
+ECMA-48 default line; common practice, no source).
 Usage: help.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import glob
@@ -73,6 +76,17 @@ for cmd in commands:
             check(opt in names, f"{cmd} accepts {opt} but its --help does not list it")
     for opt in sorted(names):
         check(accepted(cmd, opt), f"{cmd} --help lists {opt}, which {cmd} refuses")
+
+# Every --help fits an 80-column terminal, counted in characters (not
+# bytes: "ft·lbf" is six wide).
+WIDTH = 80
+for cmd in [None] + commands:
+    rc, out, err = plumb(*([cmd] if cmd else []), "--help")
+    wide = [l for l in out.splitlines() if len(l) > WIDTH]
+    check(rc == 0 and out and not wide,
+          f"plumb {cmd + ' ' if cmd else ''}--help fits {WIDTH} columns: "
+          f"{len(wide)} wider lines {[(len(l), l) for l in wide[:3]]}")
+check(len(commands) >= 7, f"the width check covered every command: {commands}")
 
 # The options the issue found missing (issue 9), by name.
 for cmd, opts in [("sweep", ["--vary"]), ("limit", ["--find", "--energy-max", "--speed-max", "--drift-max"])]:

@@ -1,0 +1,246 @@
+#!/usr/bin/python3
+"""The layout of the text reports a person reads on a terminal (issue 9):
+  - the title line "plumb VERSION - what: NAME" of fall, sweep, limit and
+    zone wraps a long profile name onto continuation lines indented under
+    its first character, every line within 80 columns, the name whole
+    (80 columns: the classic terminal width, VT100 / ECMA-48 default line;
+    common practice, no source);
+  - in the kit table of `plumb fall` and in the sweep table, each
+    criterion's ratios end in one column and its verdict words start in
+    one column, row under row, in SI and US units;
+  - no two columns of a sweep table share a header, whatever keys vary;
+  - the steady descent line of a fall with a descent device says it does
+    not apply when no device opens, is honest about a partial deployment,
+    says when there is no steady speed below the terminal cap, and
+    otherwise gives the speed, which is checked against the closed form
+    v = sqrt(2 m g / (rho (CdA_body + Cd S))) (balance of weight and drag,
+    e.g. Knacke, Parachute Recovery Systems Design Manual, 1991, ch. 5:
+    from memory) with the U.S. Standard Atmosphere 1976 sea-level density
+    1.225 kg/m^3 and standard gravity 9.80665 m/s^2 (CGPM 1901).
+Usage: report_layout.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
+"""
+import json
+import math
+import os
+import re
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import HERE, check, finish, plumb  # noqa: E402
+
+WIDTH = 80
+PROF = os.path.join(HERE, "profiles")
+KIT = os.path.join(PROF, "long-kit.yaml")
+CANOPY = os.path.join(PROF, "long-canopy.yaml")
+TWO = os.path.join(PROF, "two-devices.yaml")
+
+
+def profile_name(path):
+    m = re.search(r'^name: "(.*)"$', open(path).read(), re.M)
+    return m.group(1) if m else None
+
+
+def wide(out):
+    return [l for l in out.splitlines() if len(l) > WIDTH]
+
+
+# ---- the title: wrapped under the name, never past 80 columns, name whole ----
+for path in (KIT, CANOPY):
+    name = profile_name(path)
+    check(name and len(name) > WIDTH, f"{path}: a name longer than a line ({name!r})")
+    runs = [("fall",), ("sweep", "--vary", "release.height=20m:40m:20m"),
+            ("limit", "--find", "release.height", "--energy-max", "40J"),
+            ("zone", "--samples", "400", "--threads", "1")]
+    for units in ("si", "us"):
+        for run in runs:
+            what = run[0]
+            rc, out, err = plumb(run[0], path, *run[1:], "--units", units)
+            check(rc in (0, 3) and out, f"{what} {os.path.basename(path)} --units {units}: "
+                  f"exit {rc} {err.strip()[:200]}")
+            lines = out.splitlines()
+            m = re.match(r"^(plumb \S+ - [a-z, ]+: )(.*)$", lines[0] if lines else "")
+            check(m is not None, f"{what} --units {units}: title {lines[:1]}")
+            if not m:
+                continue
+            indent = len(m.group(1))
+            title, k = [m.group(2)], 1
+            while k < len(lines) and lines[k].startswith(" " * indent) and lines[k].strip():
+                title.append(lines[k].strip())
+                k += 1
+            check(len(title) >= 2, f"{what} --units {units}: the long name was not wrapped "
+                  f"({lines[:2]})")
+            check(all(len(l) <= WIDTH for l in lines[:k]),
+                  f"{what} --units {units}: title lines over {WIDTH}: {lines[:k]}")
+            check(" ".join(title) == name,
+                  f"{what} --units {units}: the title's name {' '.join(title)!r} is not "
+                  f"the profile's {name!r}")
+            check(not wide(out), f"{what} {os.path.basename(path)} --units {units}: "
+                  f"lines over {WIDTH}: {wide(out)[:3]}")
+# a name with a word longer than a line is broken, not run past the edge
+rc, out, err = plumb("fall", CANOPY, "--set", "name=" + "x" * 120)
+first = out.splitlines()[:3]
+check(rc == 0 and all(len(l) <= WIDTH for l in first) and len(first) == 3 and
+      "".join(l.split(": ", 1)[-1].strip() for l in first) == "x" * 120,
+      f"fall with a 120-character word as the name: {first} {err.strip()[:200]}")
+
+
+# ---- verdict cells: ratios and words in columns -------------------------------
+def verdict_columns(out):
+    """For each table with a 'ratio verdict' header line: a list of
+    (ratio right edge, verdict start) per criterion, and its data rows."""
+    tables, lines = [], out.splitlines()
+    for i, l in enumerate(lines):
+        if "ratio verdict" not in l:
+            continue
+        cols = [(m.start() + len("ratio"), m.start() + len("ratio ")) for m in
+                re.finditer(r"ratio verdict", l)]
+        rows = []
+        for r in lines[i + 1:]:
+            if not r.strip():
+                break
+            if "EXCEEDS" in r or "within" in r:
+                rows.append(r)
+        tables.append((cols, rows))
+    return tables
+
+
+def check_verdict_table(label, out, ncrit, nrows):
+    tables = verdict_columns(out)
+    check(tables, f"{label}: no 'ratio verdict' table")
+    seen = 0
+    for cols, rows in tables:
+        check(len(rows) >= nrows, f"{label}: {len(rows)} rows with verdicts, expected {nrows}")
+        seen += len(cols)
+        for r in rows:
+            for end, start in cols:
+                word = r[start:start + 7].rstrip()
+                ratio = r[:end].split(" ")[-1]
+                ok = (word in ("EXCEEDS", "within") and r[end:end + 1] == " " and
+                      re.fullmatch(r"\d+(\.\d+)?", ratio) is not None)
+                check(ok, f"{label}: the ratio does not end at column {end} or the verdict "
+                      f"does not start at {start}: {r!r}")
+    check(seen == ncrit, f"{label}: {seen} criteria columns in all, expected {ncrit}")
+
+
+for units in ("si", "us"):
+    rc, out, err = plumb("fall", KIT, "--units", units)
+    check(rc == 0, f"fall kit --units {units}: {err.strip()[:200]}")
+    check_verdict_table(f"fall kit --units {units}", out, 5, 4)
+    rc, out, err = plumb("fall", os.path.join(PROF, "inventory.yaml"), "--units", units)
+    check_verdict_table(f"fall inventory.yaml --units {units}", out, 2, 3)
+    rc, out, err = plumb("sweep", KIT, "--vary", "release.height=5m:85m:40m", "--units", units)
+    check(rc == 0, f"sweep kit --units {units}: {err.strip()[:200]}")
+    check_verdict_table(f"sweep kit --units {units}", out, 5, 12)
+    rc, out, err = plumb("sweep", CANOPY, "--vary", "release.height=2m:74m:8m", "--units", units)
+    check(rc == 0, f"sweep canopy --units {units}: {err.strip()[:200]}")
+    check_verdict_table(f"sweep canopy --units {units}", out, 2, 10)
+    # a ratio that rounds to 1.00 keeps its verdict beside it, in its column:
+    # without drag the energy is m g0 H (work-energy theorem), 1.617 kg x
+    # 9.80665 m/s^2 x H, so the 80 J of eu-c1-80j is reached at H =
+    # 5.04494 m; 5.0430 m gives 79.969 J (ratio 0.9996, "1.00 within") and
+    # 5.0450 m gives 80.0003 J ("1.00 EXCEEDS")
+    rc, out, err = plumb("sweep", CANOPY, "--vary", "release.height=5.043m:5.045m:0.0005m",
+                         "--set", "descent=~", "--set", "payload.drag.cd=0", "--units", units)
+    check(rc == 0, f"sweep near the limit --units {units}: {err.strip()[:200]}")
+    check_verdict_table(f"sweep near the limit --units {units}", out, 2, 5)
+    cells = [" ".join(l.split()[-2:]) for l in out.splitlines() if l.endswith(("EXCEEDS", "within"))]
+    check(cells[:1] == ["1.00 within"] and cells[-1:] == ["1.00 EXCEEDS"],
+          f"sweep near the limit --units {units}: 1.00 on both sides of the limit, {cells}")
+
+
+# ---- sweep headers: distinct ---------------------------------------------------
+def header_names(out):
+    """The column headers of the first sweep table: the cells of the line
+    above the units line, each with the cells ending at the same column in
+    the header lines above it (a key's header over several lines; a line
+    ending in a dot continues without a space)."""
+    lines = out.splitlines()
+    u = next(i for i, l in enumerate(lines) if re.search(r"^\s+\S.*\b(deg|ratio verdict)$", l))
+    cells = lambda l: {m.end(): m.group(0) for m in re.finditer(r"\S+(?: \S+)*", l)}
+    names = cells(lines[u - 1])
+    k = u - 2
+    while k > 0 and lines[k].strip() and not lines[k].startswith(("plumb", "  over", "  and")):
+        for end, text in cells(lines[k]).items():
+            if end in names:
+                names[end] = text + ("" if text.endswith(".") else " ") + names[end]
+        k -= 1
+    return list(names.values())
+
+
+sweeps = [
+    ["--vary", "items[1].mass=1kg:2kg:1kg", "--vary", "items[2].mass=2kg:3kg:1kg"],
+    ["--vary", "release.velocity.speed=0m/s:2m/s:1m/s"],
+    ["--vary", "release.velocity.speed=0m/s:2m/s:2m/s", "--vary", "wind.speed=0m/s:4m/s:4m/s"],
+    ["--vary", "items[1].drag.area=0.01m^2:0.02m^2:0.01m^2",
+     "--vary", "items[2].drag.area=0.01m^2:0.02m^2:0.01m^2"],
+    ["--vary", "items[radio in a padded pouch].mass=0.3kg:0.4kg:0.1kg",
+     "--vary", "items[cable ties].mass=0.04kg:0.05kg:0.01kg"],
+    ["--vary", "atmosphere.temperature_offset=0K:10K:10K"],
+]
+for args in sweeps:
+    for units in ("si", "us"):
+        rc, out, err = plumb("sweep", KIT, *args, "--units", units)
+        label = f"sweep {' '.join(args)} --units {units}"
+        check(rc == 0, f"{label}: exit {rc} {err.strip()[:200]}")
+        if rc != 0:
+            continue
+        heads = header_names(out)
+        dup = sorted({h for h in heads if heads.count(h) > 1})
+        check(len(heads) >= 7 and not dup, f"{label}: headers {heads}, repeated {dup}")
+        keys = [a.split("=")[0] for a in args if "=" in a]
+        for key in keys:
+            check(any(key == h or key.endswith("." + h) for h in heads),
+                  f"{label}: no header names {key} ({heads})")
+        check(not wide(out), f"{label}: lines over {WIDTH}: {wide(out)[:3]}")
+
+# ---- steady descent -----------------------------------------------------------
+rho, g = 1.225, 9.80665
+m, cda = 1.617, 1.05 * 0.0174 + 0.78 * 1.327
+v = math.sqrt(2 * m * g / (rho * cda))
+for units, conv, unit in (("si", 1.0, "m/s"), ("us", 0.3048, "ft/s")):
+    rc, out, err = plumb("fall", CANOPY, "--units", units)
+    line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+    m_ = re.match(r"([\d.]+) (\S+) with the parachute open", line)
+    check(rc == 0 and m_ and m_.group(2) == unit and
+          abs(float(m_.group(1)) * conv - v) <= 0.0005 * v,
+          f"steady descent --units {units}: {line!r}, closed form {v / conv:.4g} {unit}")
+    rc, out, err = plumb("fall", CANOPY, "--set", "descent.deploy.after=60s", "--units", units)
+    line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+    check(rc == 0 and line.startswith("does not apply (the parachute does not open before "
+                                      "impact)") and unit not in line,
+          f"steady descent, no device open --units {units}: {line!r}")
+    rc, j, err = plumb("fall", CANOPY, "--set", "descent.deploy.after=60s", "--format", "json")
+    d = json.loads(j) if rc == 0 else {}
+    dev = (d.get("descent") or {}).get("devices") or [{}]
+    check(rc == 0 and "impact" in d and dev[0].get("line_stretch", 0) is None,
+          f"JSON of a fall whose parachute does not open: line_stretch null ({dev[:1]})")
+# partial: the main never opens (deploys after 60 s), the drogue does
+rc, out, err = plumb("fall", TWO, "--set", "descent[1].deploy.after=60s")
+line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+check(rc == 0 and "with every device open" in line and
+      "not this fall's: the parachute does not open before impact" in line,
+      f"steady descent, drogue open, main not: {line!r}")
+rc, out, err = plumb("fall", TWO, "--set", "descent[0].deploy.after=60s",
+                     "--set", "descent[1].deploy.after=70s")
+line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+check(rc == 0 and line.startswith("does not apply (the drogue and the parachute do not open "
+                                  "before impact)"),
+      f"steady descent, neither device open: {line!r}")
+rc, out, err = plumb("fall", TWO)
+line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+check(rc == 0 and re.match(r"[\d.]+ m/s with the devices open", line),
+      f"steady descent, both open: {line!r}")
+# no steady speed below the cap: a canopy of 1e-25 m^2 on a body without
+# drag balances 1.617 kg only at sqrt(2 m g / (rho Cd S)) ~ 1e13 m/s
+rc, out, err = plumb("fall", CANOPY, "--set", "descent.area=1e-25 m^2",
+                     "--set", "payload.drag.cd=0")
+line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+check(rc == 0 and line.startswith("none up to") and "even with the parachute open" in line,
+      f"steady descent above the cap: {line!r}")
+rc, j, err = plumb("fall", CANOPY, "--set", "descent.area=1e-25 m^2",
+                   "--set", "payload.drag.cd=0", "--format", "json")
+d = json.loads(j) if rc == 0 else {}
+check(rc == 0 and (d.get("descent") or {}).get("steady_speed_m_s", 0) is None,
+      f"JSON steady_speed_m_s null above the cap (README, JSON): {(d.get('descent') or {}).keys()}")
+
+finish()
