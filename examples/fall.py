@@ -60,6 +60,7 @@ class FallResult(ctypes.Structure):
                 ("min_re", ctypes.c_double),
                 ("max_re", ctypes.c_double),
                 ("n_deployed", ctypes.c_size_t),
+                ("deployed", ctypes.c_int * MAX_DESCENT),
                 ("deploy_time_s", ctypes.c_double * MAX_DESCENT),
                 ("deploy_height_m", ctypes.c_double * MAX_DESCENT),
                 ("deploy_speed_m_s", ctypes.c_double * MAX_DESCENT),

@@ -452,6 +452,48 @@ static void test_drogue_then_main_open_in_sequence(void **state)
     plumb_atmosphere_free(atm);
 }
 
+/* Devices with different triggers open in the order the fall reaches them,
+ * not the order they are listed: a drogue timed for 20 s listed before a
+ * main opening below 250 m opens after it. The figures stay the device's
+ * own ([i] is descent[i]); a drogue timed for after the landing never
+ * opens while the main does. The main's steady speed is the closed form
+ * sqrt(2 m g / (rho CdA)) in constant air. */
+static void test_devices_opening_out_of_listed_order_keep_their_own_figures(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory *w = workspace();
+    const double g = PLUMB_G0_M_S2, m = 4.37, rho = PLUMBT_CONST_RHO;
+    plumb_fall_spec s;
+    base_spec(&s, m, 0.0, 300.0);
+    s.drag.cd = 1.0;
+    s.drag.area_m2 = 0.031;
+    s.n_descent = 2;
+    s.descent[0] = (plumb_descent_spec){PLUMB_DESCENT_DROGUE, 0.55, 0.21, 0.0, PLUMB_DEPLOY_AFTER,
+                                        20.0, 0.2, 0.0, 0, PLUMB_CANOPY_UNSPECIFIED, 0.0, 0.0};
+    s.descent[1] = (plumb_descent_spec){PLUMB_DESCENT_PARACHUTE, 0.8, 3.4, 0.0, PLUMB_DEPLOY_BELOW,
+                                        250.0, 1.1, 0.0, 0, PLUMB_CANOPY_UNSPECIFIED, 0.0, 0.0};
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_int_equal(r.n_deployed, 2);
+    assert_true(r.deployed[0] && r.deployed[1]);
+    assert_rel(r.deploy_time_s[0], 20.0, 1e-15);
+    assert_rel(r.deploy_height_m[1], 250.0, 1e-12);
+    assert_true(r.deploy_time_s[1] < r.deploy_time_s[0]);
+    /* timed for after the landing: the drogue never opens, the main does */
+    s.descent[0].deploy_value = 600.0;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_int_equal(r.n_deployed, 1);
+    assert_false(r.deployed[0]);
+    assert_true(r.deployed[1]);
+    assert_rel(r.deploy_height_m[1], 250.0, 1e-12);
+    double v_main = sqrt(2.0 * m * g / (rho * (0.031 + 0.8 * 3.4)));
+    assert_rel(r.speed_m_s, v_main, 1e-6);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_deploy_below_a_height_opens_exactly_there(void **state)
 {
     (void)state;
@@ -956,6 +998,7 @@ int main(void)
         cmocka_unit_test(test_energy_balance_holds_with_a_filling_canopy),
         cmocka_unit_test(test_drogue_then_main_open_in_sequence),
         cmocka_unit_test(test_deploy_below_a_height_opens_exactly_there),
+        cmocka_unit_test(test_devices_opening_out_of_listed_order_keep_their_own_figures),
         cmocka_unit_test(test_invalid_specs_are_refused),
         cmocka_unit_test(test_buoyant_object_never_lands_and_says_so),
         cmocka_unit_test(test_step_and_time_budgets_are_errors_not_numbers),

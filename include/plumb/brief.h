@@ -54,6 +54,7 @@ typedef struct plumb_brief_plot {
     plumb_brief_path drag_free;  /* the same release without drag (closed form) */
     size_t n_deploy;             /* descent devices deployed: where, on the path */
     double deploy_d_m[PLUMB_MAX_DESCENT], deploy_z_m[PLUMB_MAX_DESCENT];
+    size_t deploy_device[PLUMB_MAX_DESCENT]; /* [k]: which descent[] deployed there */
     size_t n_curve;              /* energy against drop height */
     double curve_h_m[PLUMB_BRIEF_CURVE], curve_e_j[PLUMB_BRIEF_CURVE];
     int curve_ok[PLUMB_BRIEF_CURVE]; /* 0: no fall at that height (a gap in the curve) */

@@ -153,8 +153,12 @@ typedef struct plumb_fall_result {
     double drag_work_j;        /* work done by drag on the body, J (negative) */
     double max_mach;           /* largest Mach number of the relative air speed on the way */
     double min_re, max_re;     /* Reynolds number range seen (sphere models), else 0 */
-    /* descent device figures (n_descent > 0) */
+    /* descent device figures (n_descent > 0), indexed as the spec's
+     * descent[]: devices with different triggers may open in another
+     * order than they are listed (a main by height before a drogue by
+     * time), so [i] is always descent[i]'s, valid where deployed[i] */
     size_t n_deployed;         /* devices that reached line stretch before impact */
+    int deployed[PLUMB_MAX_DESCENT];             /* 1: descent[i] reached line stretch */
     double deploy_time_s[PLUMB_MAX_DESCENT];     /* line stretch time, s */
     double deploy_height_m[PLUMB_MAX_DESCENT];   /* line stretch height, m */
     double deploy_speed_m_s[PLUMB_MAX_DESCENT];  /* airspeed at line stretch, m/s */

@@ -212,8 +212,9 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
         add_warning(item,
                     "The shape's aspect ratio lies outside the handbook table its drag "
                     "coefficient comes from; the table's end value is used.");
-    for (size_t i = r->n_deployed; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
-        add_warning(item,
+    for (size_t i = 0; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
+        if (!r->deployed[i])
+            add_warning(item,
                     "The %s (descent[%zu]) does not open before impact: the figures are "
                     "those of a fall without it.",
                     plumb_descent_kind_name(item->spec->descent[i].kind), i);

@@ -347,7 +347,9 @@ static void deploy(runner *r, size_t i)
     ds->j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
     if (d->disreefs_previous && i > 0)
         r->ctx->dev[i - 1].removed = 1;
-    size_t k = r->res->n_deployed++;
+    size_t k = i; /* the result's figures are the device's, in any order of opening */
+    r->res->n_deployed++;
+    r->res->deployed[k] = 1;
     r->res->deploy_time_s[k] = r->t;
     r->res->deploy_height_m[k] = r->y[IZ];
     r->res->deploy_speed_m_s[k] = v_ls;

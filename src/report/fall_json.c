@@ -107,8 +107,8 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
                         : d->inflation_exponent > 0.0 ? "given in the profile"
                                                       : "linear fill: no canopy type or exponent given"));
         jset(j, dv, "inflation", inf);
-        jset(j, dv, "deployed", json_boolean(i < r->n_deployed));
-        if (i < r->n_deployed) {
+        jset(j, dv, "deployed", json_boolean(r->deployed[i]));
+        if (r->deployed[i]) {
             json_t *ls = jobj(j);
             jset(j, ls, "time_s", jreal(j, r->deploy_time_s[i]));
             jset(j, ls, "height_m", jreal(j, r->deploy_height_m[i]));

@@ -164,6 +164,12 @@ static void text_inflation(writer *w, const plumb_descent_spec *d)
     char line[NUMBUF * 8];
     const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
     double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
+    if (!(d->fill_time_s > 0.0) && !(d->fill_constant > 0.0)) {
+        /* no fill: the deploy rule already says "opens at once" */
+        if (ci)
+            wrapped(w, "                   canopy: ", ci->name);
+        return;
+    }
     w->exact = 1;
     snprintf(line, sizeof line, "%s%sdrag area grows as (t/t_f)^%s over the fill (Knacke 1991)%s",
              ci ? ci->name : "", ci ? " canopy: " : "", plumbp_gnum(w, j, 3),
@@ -204,24 +210,40 @@ static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall
 /* "the drogue and the parachute do not open", "the parachute does not
  * open": the devices i0..n of s that never open, by kind; by number when
  * two of them are of one kind. */
-static void devices_not_open(const plumb_fall_spec *s, size_t i0, char *buf, size_t size)
+static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
+                             size_t size)
 {
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
+    size_t closed = 0, last = 0;
     int same = 0;
-    for (size_t i = i0; i < n; i++)
+    for (size_t i = 0; i < n; i++) {
+        if (r->deployed[i])
+            continue;
+        closed++;
+        last = i;
         for (size_t k = i + 1; k < n; k++)
-            same |= s->descent[i].kind == s->descent[k].kind;
+            same |= !r->deployed[k] && s->descent[i].kind == s->descent[k].kind;
+    }
     if (same) {
-        snprintf(buf, size, "%s %zu devices %s", i0 ? "the last" : "none of the", n - i0,
-                 i0 ? "do not open" : "opens");
+        /* two of a kind: counted, since their names would not tell them apart */
+        if (closed == n)
+            snprintf(buf, size, "none of the %zu devices opens", n);
+        else
+            snprintf(buf, size, "%zu of the %zu devices do not open", closed, n);
         return;
     }
     size_t len = (size_t)snprintf(buf, size, "the");
-    for (size_t i = i0; i < n && len < size; i++)
-        len += (size_t)snprintf(buf + len, size - len, "%s %s", i == i0 ? "" : i + 1 == n ? " and the" : ", the",
+    size_t seen = 0;
+    for (size_t i = 0; i < n && len < size; i++) {
+        if (r->deployed[i])
+            continue;
+        len += (size_t)snprintf(buf + len, size - len, "%s %s",
+                                seen == 0 ? "" : i == last ? " and the" : ", the",
                                 plumb_descent_kind_name(s->descent[i].kind));
+        seen++;
+    }
     if (len < size)
-        snprintf(buf + len, size - len, " %s", n - i0 > 1 ? "do not open" : "does not open");
+        snprintf(buf + len, size - len, " %s", closed > 1 ? "do not open" : "does not open");
 }
 
 /* The steady descent speed, worded by what this fall deployed: a device
@@ -233,7 +255,7 @@ static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_re
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
     char closed[NUMBUF * 2], line[NUMBUF * 5];
     if (r->n_deployed == 0) {
-        devices_not_open(s, 0, closed, sizeof closed);
+        devices_not_open(s, r, closed, sizeof closed);
         snprintf(line, sizeof line, "does not apply (%s before impact)", closed);
     } else if (r->n_deployed >= n) {
         if (r->steady_speed_m_s > 0.0)
@@ -245,7 +267,7 @@ static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_re
                      plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S),
                      n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
     } else {
-        devices_not_open(s, r->n_deployed, closed, sizeof closed);
+        devices_not_open(s, r, closed, sizeof closed);
         if (r->steady_speed_m_s > 0.0)
             snprintf(line, sizeof line,
                      "%s with every device open, at the strike level; not this fall's: %s "
@@ -278,7 +300,7 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
         w->exact = 0;
         wrapped(w, lead, line);
         text_inflation(w, d);
-        if (i < r->n_deployed)
+        if (r->deployed[i])
             snprintf(line, sizeof line,
                      "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
                      "air speed",
@@ -287,7 +309,7 @@ static void text_descent(writer *w, const plumb_item_report *it, const char *who
         else
             snprintf(line, sizeof line, "does not open before impact");
         wrapped(w, "                   ", line);
-        if (i < r->n_deployed)
+        if (r->deployed[i])
             text_pflanz(w, d, r, i, s->mass_kg * PLUMB_G0_M_S2);
     }
     put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",

@@ -55,7 +55,9 @@ plumb_status plumbp_check_item(const plumb_item_report *it, plumb_diag *diag)
     plumbp_need_finite(&fc, "smallest Reynolds number", r->min_re);
     plumbp_need_finite(&fc, "largest Reynolds number", r->max_re);
     if (s->n_descent > 0) {
-        for (size_t i = 0; i < r->n_deployed && i < PLUMB_MAX_DESCENT; i++) {
+        for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
+            if (!r->deployed[i])
+                continue;
             plumbp_need_finite(&fc, "line-stretch time", r->deploy_time_s[i]);
             plumbp_need_finite(&fc, "line-stretch height", r->deploy_height_m[i]);
             plumbp_need_finite(&fc, "line-stretch air speed", r->deploy_speed_m_s[i]);

@@ -343,6 +343,7 @@ double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, d
                  sheet_fmt(d, "the same release without drag, for comparison (%s)",
                            plumbp_t_speed(P, it->result.drag_free_speed_m_s)));
     for (size_t k = 0; k < pl->n_deploy; k++) {
+        size_t dev = pl->deploy_device[k];
         char font[64];
         snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.5);
         cairo_rectangle(d->cr, x + 7.0, ly + 1.5, 7.0, 7.0);
@@ -350,9 +351,9 @@ double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, d
         ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
                          sheet_fmt(d, "square: the %s deploys (line stretch) at %s, %s s after "
                                       "release",
-                                   plumb_descent_kind_name(it->spec->descent[k].kind),
-                                   plumbp_t_len(P, it->result.deploy_height_m[k]),
-                                   num(P, it->result.deploy_time_s[k], TEXT_SIG)), 1) + 1.5;
+                                   plumb_descent_kind_name(it->spec->descent[dev].kind),
+                                   plumbp_t_len(P, it->result.deploy_height_m[dev]),
+                                   num(P, it->result.deploy_time_s[dev], TEXT_SIG)), 1) + 1.5;
     }
     return ly - y + 4.0;
 }

@@ -121,15 +121,20 @@ static plumb_status make_paths(const plumb_study *study, plumb_trajectory *traj,
         pl->path.d_m[i] = (pts[i].x_m - s->release_m[0]) * ux + (pts[i].y_m - s->release_m[1]) * uy;
         pl->path.z_m[i] = pts[i].z_m;
     }
-    pl->n_deploy = res.n_deployed;
-    for (size_t k = 0; k < res.n_deployed && k < PLUMB_MAX_DESCENT; k++) {
-        pl->deploy_z_m[k] = res.deploy_height_m[k];
+    pl->n_deploy = 0;
+    for (size_t dev = 0; dev < s->n_descent && dev < PLUMB_MAX_DESCENT; dev++) {
+        if (!res.deployed[dev])
+            continue;
+        size_t k = pl->n_deploy++;
+        double zd = res.deploy_height_m[dev];
+        pl->deploy_device[k] = dev;
+        pl->deploy_z_m[k] = zd;
         /* the distance along the path where it passes the deploy height */
         pl->deploy_d_m[k] = 0.0;
         for (size_t i = 1; i < n; i++)
-            if (pts[i].z_m <= res.deploy_height_m[k]) {
+            if (pts[i].z_m <= zd) {
                 double z0 = pl->path.z_m[i - 1], z1 = pl->path.z_m[i];
-                double f = z0 != z1 ? (z0 - res.deploy_height_m[k]) / (z0 - z1) : 0.0;
+                double f = z0 != z1 ? (z0 - zd) / (z0 - z1) : 0.0;
                 pl->deploy_d_m[k] = pl->path.d_m[i - 1] + f * (pl->path.d_m[i] - pl->path.d_m[i - 1]);
                 break;
             }

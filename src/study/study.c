@@ -358,6 +358,8 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
         probe.shape = plumb_profile_item_shape(s->profile, i);
         /* no fall yet: nothing to say of Mach, Reynolds or a device opening */
         probe.result.n_deployed = spec->n_descent;
+        for (size_t k = 0; k < spec->n_descent && k < PLUMB_MAX_DESCENT; k++)
+            probe.result.deployed[k] = 1;
         st = plumb_item_judge(&probe, s->profile, s->criteria, s->atm, diag);
         const plumb_criterion *clist[PLUMB_MAX_VERDICTS];
         for (size_t k = 0; st == PLUMB_OK && k < probe.n_verdicts; k++)

@@ -226,6 +226,28 @@ line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
 check(rc == 0 and line.startswith("does not apply (the drogue and the parachute do not open "
                                   "before impact)"),
       f"steady descent, neither device open: {line!r}")
+# out of listed order: the drogue timed for after the landing, the main
+# opening below 40 m; the report names the drogue as the one that does not
+# open, and the main's line stretch is at its own 40 m (its deploy height)
+rc, out, err = plumb("fall", TWO, "--set", "descent[0].deploy.after=60s",
+                     "--set", "descent[1].deploy=~", "--set", "descent[1].deploy.below=40m")
+line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
+check(rc == 0 and "not this fall's: the drogue does not open before impact" in line,
+      f"steady descent, main opened by height, drogue not: {line!r}")
+dev = " ".join(out.split("Descent devices", 1)[-1].split("peak drag")[0].split())
+check(rc == 0 and re.search(r"drogue .* does not open before impact parachute .* line stretch "
+                            r"[\d.]+ s after release, 40\.00 m above", dev) is not None,
+      f"devices out of listed order keep their own figures: {dev!r}")
+warn = " ".join(out.split("Warnings", 1)[-1].split("\n\n")[0].split())
+check("The drogue (descent[0]) does not open before impact" in warn,
+      f"the warning names the device that does not open: {warn!r}")
+rc, j, err = plumb("fall", TWO, "--set", "descent[0].deploy.after=60s",
+                   "--set", "descent[1].deploy=~", "--set", "descent[1].deploy.below=40m",
+                   "--format", "json")
+devs = ((json.loads(j) if rc == 0 else {}).get("descent") or {}).get("devices") or [{}, {}]
+check(rc == 0 and devs[0].get("deployed") is False and devs[1].get("deployed") is True and
+      abs(devs[1]["line_stretch"]["height_m"] - 40.0) < 1e-9,
+      f"JSON: each device's own deployed flag and line stretch ({devs})")
 rc, out, err = plumb("fall", TWO)
 line = " ".join(out.split("steady descent", 1)[-1].split("\n\n")[0].split())
 check(rc == 0 and re.match(r"[\d.]+ m/s with the devices open", line),
