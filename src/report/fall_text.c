@@ -466,8 +466,10 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
     text_descent(w, it, NULL);
     if (it->n_warnings) {
         put(w, "\nWarnings\n");
-        for (size_t i = 0; i < it->n_warnings; i++)
-            wrapped(w, "  - ", it->warnings[i]);
+        for (size_t i = 0; i < it->n_warnings; i++) {
+            char text[PLUMB_WARNING * 2];
+            wrapped(w, "  - ", plumbp_t_warning(w, it->warnings[i], text, sizeof text));
+        }
     }
     put(w, "\nInputs as understood\n");
     text_inputs(w, it, rep->profile, ia, 1);

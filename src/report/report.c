@@ -234,13 +234,15 @@ void plumbp_each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn)
                     len += (size_t)n;
                 count++;
             }
-            fn(w, count == rep->n_items ? "" : who, text);
+            char said[PLUMB_WARNING * 2];
+            fn(w, count == rep->n_items ? "" : who,
+               plumbp_t_warning(w, text, said, sizeof said));
         }
 }
 
 void plumbp_text_warning_line(writer *w, const char *who, const char *text)
 {
-    char line[PLUMB_NAME * 4 + PLUMB_WARNING + 8];
+    char line[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 8];
     snprintf(line, sizeof line, "%s%s%s", who, who[0] ? ": " : "", text);
     wrapped(w, "  - ", line);
 }

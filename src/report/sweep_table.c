@@ -248,15 +248,17 @@ static void each_sweep_warning(writer *w, const plumb_sweep *sw,
 
 static void text_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
 {
-    char line[PLUMB_WARNING + 64];
-    snprintf(line, sizeof line, "%s (%zu of %zu rows)", text, rows, of);
+    char line[PLUMB_WARNING * 2 + 64], said[PLUMB_WARNING * 2];
+    snprintf(line, sizeof line, "%s (%zu of %zu rows)",
+             plumbp_t_warning(w, text, said, sizeof said), rows, of);
     wrapped(w, "  - ", line);
 }
 
 static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
 {
-    char line[PLUMB_WARNING + 64];
-    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
+    char line[PLUMB_WARNING * 2 + 64], said[PLUMB_WARNING * 2];
+    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)",
+             plumbp_t_warning(w, text, said, sizeof said), rows, of);
     csv_comment(w, line);
 }
 

@@ -407,8 +407,10 @@ static void text_warnings(writer *w, const plumb_zone_result *r)
     if (r->n_warnings == 0)
         return;
     put(w, "Warnings\n");
-    for (size_t i = 0; i < r->n_warnings; i++)
-        wrapped(w, "  - ", r->warnings[i]);
+    for (size_t i = 0; i < r->n_warnings; i++) {
+        char text[PLUMB_ZONE_WARNING * 2];
+        wrapped(w, "  - ", plumbp_t_warning(w, r->warnings[i], text, sizeof text));
+    }
     put(w, "\n");
 }
 
