@@ -308,11 +308,13 @@ const char *plumbp_t_energy(writer *w, double j)
     return b;
 }
 
+/* A mass: kg, or lb with the kilograms in the brackets that hold a US
+ * report's SI figures ("1.874 lb [0.85 kg]"). */
 const char *plumbp_t_mass(writer *w, double kg)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s" NBSP "lb (%s" NBSP "kg)", qty(w, kg / PLUMB_LB_KG),
+        snprintf(b, NUMBUF, "%s" NBSP "lb [%s" NBSP "kg]", qty(w, kg / PLUMB_LB_KG),
                  qty(w, kg));
     else
         snprintf(b, NUMBUF, "%s" NBSP "kg", qty(w, kg));
@@ -373,6 +375,19 @@ const char *plumbp_t_density(writer *w, double rho)
                  num(w, rho * PLUMB_FT_M * PLUMB_FT_M * PLUMB_FT_M / PLUMB_LB_KG, TEXT_SIG));
     else
         snprintf(b, NUMBUF, "%s" NBSP "kg/m³", num(w, rho, TEXT_SIG));
+    return b;
+}
+
+/* A temperature lapse rate (fall per height) as given, INPUT_SIG
+ * figures: K/km, or °F per 1000 ft in US units. */
+const char *plumbp_t_lapse(writer *w, double k_m)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "°F/1000" NBSP "ft",
+                 plumbp_gnum(w, k_m * FAHRENHEIT_PER_K * 1000.0 * PLUMB_FT_M, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "K/km", plumbp_gnum(w, k_m * 1000.0, INPUT_SIG));
     return b;
 }
 

@@ -88,6 +88,7 @@ const char *plumbp_t_density(writer *w, double rho);
 const char *plumbp_si_bracket(writer *w, double x, const char *unit);
 const char *plumbp_t_bearing(writer *w, double deg);
 const char *plumbp_t_small(writer *w, double m);
+const char *plumbp_t_lapse(writer *w, double k_m);
 const char *plumbp_t_angle(writer *w, double deg);
 /* A warning sentence (plumb/judge.h, plumb/dispersion.h) with each
  * quantity's mark (PLUMBP_Q_*, core/internal.h) put in the writer's units,

@@ -45,7 +45,8 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
     case PLUMB_DIM_DENSITY:
         return w->us ? (shown){si * ft * ft * ft / PLUMB_LB_KG, "lb/ft³"} : (shown){si, "kg/m³"};
     case PLUMB_DIM_LAPSE:
-        return (shown){si * 1000.0, "K/km"};
+        return w->us ? (shown){si * FAHRENHEIT_PER_K * 1000.0 * ft, "°F/1000 ft"}
+                     : (shown){si * 1000.0, "K/km"};
     case PLUMB_DIM_FRACTION:
     case PLUMB_DIM_NONE:
     default:
