@@ -15,6 +15,8 @@ turbulence):
   - the gusts' W20 of `intensity: light` is 15 kn (MIL-F-8785C low-altitude
     light turbulence, as README.md "Gusts" gives it; from memory), printed
     as 17.3 mph (15.0 kn);
+  - a sweep over a small range of the release height says each warning
+    once, in all its rows, in either units;
   - the hover thrust is the aircraft's weight, 6.35 kg x g: 14.0 lbf
     (g between 9.78 and 9.83 m/s^2 anywhere on the ground, WGS 84; 1 lbf
     = 4.4482216152605 N); its disk of 0.93 m² is 10.0 ft².
@@ -202,6 +204,23 @@ try:
         lean_us, lean_si = after(us[1], "the wake leans"), after(js[1], "the wake leans")
         check(lean_us is not None and lean_us == lean_si,
               f"the wake's lean is the same angle in both: {lean_us} and {lean_si}")
+
+    # a sweep says a sentence once with the rows it is in: rows whose figures
+    # differ beyond the digits shown say the same sentence (before the marks
+    # it was grouped by its SI text; the marks must not split it)
+    vary = ("sweep", path, "--vary", "release.height=27.2m:27.4m:0.1m")
+    for units in ("si", "us"):
+        rc, out, err = plumb(*vary, "--units", units, "--format", "csv")
+        check(rc == 0, f"sweep --units {units}: exit {rc} {err.strip()[:200]}")
+        sw = [l for l in out.splitlines() if l.startswith("# warning: ")]
+        said = [l[:l.rfind(" (")] for l in sw]
+        check(len(said) == len(set(said)), f"sweep --units {units}: a sentence said twice: {sw}")
+        check(len(sw) == 4 and all(l.endswith("(3 of 3 rows)") for l in sw),
+              f"sweep --units {units}: each warning once, in 3 of 3 rows: {sw}")
+        for l in ours([x[len("# warning: "):] for x in said]):
+            bad = SI_UNIT if units == "us" else US_UNIT
+            check(not bad.search(l.replace("the mean wind at 20 ft", "")),
+                  f"sweep --units {units}: a unit of the other system in {l!r}")
 finally:
     shutil.rmtree(tmp)
 finish()
