@@ -812,6 +812,13 @@ static void test_a_warnings_figures_are_shown_in_the_units_asked_for(void **stat
     plumb_report_warning(z->warnings[0], PLUMB_UNITS_SI, buf, sizeof buf);
     assert_string_equal(buf, "thrust 8.90 N over 0.279 m², wake 2.24 m/s, fall 2.13 m/s, "
                              "leans 74°, height 3.35 m.");
+    /* a small length: mm, or inches (1 in = 25.4 mm exactly, NIST SP 811 B.8) */
+    plumb_zone_add_warning(z, "within " PLUMBP_Q_SMALL ".", 0.0254e-3);
+    plumb_report_warning(z->warnings[1], PLUMB_UNITS_SI, buf, sizeof buf);
+    assert_string_equal(buf, "within 0.0254 mm.");
+    plumb_report_warning(z->warnings[1], PLUMB_UNITS_US, buf, sizeof buf);
+    assert_string_equal(buf, "within 0.001 in.");
+    plumb_report_warning(z->warnings[0], PLUMB_UNITS_SI, buf, sizeof buf);
     /* a short buffer gets what fits, and the length of the whole */
     char small[8];
     assert_int_equal(plumb_report_warning(z->warnings[0], PLUMB_UNITS_SI, small, sizeof small),
@@ -819,7 +826,7 @@ static void test_a_warnings_figures_are_shown_in_the_units_asked_for(void **stat
     assert_string_equal(small, "thrust ");
     /* a figure that is not finite is never printed as NaN */
     plumb_zone_add_warning(z, "wake " PLUMBP_Q_AIR ".", NAN);
-    plumb_report_warning(z->warnings[1], PLUMB_UNITS_US, buf, sizeof buf);
+    plumb_report_warning(z->warnings[2], PLUMB_UNITS_US, buf, sizeof buf);
     assert_null(strstr(buf, "nan"));
     assert_non_null(strstr(buf, "?"));
     /* a cut never parts a mark: the sentence ends before it, with the note */
@@ -831,7 +838,7 @@ static void test_a_warnings_figures_are_shown_in_the_units_asked_for(void **stat
     memset(tail, 'y', sizeof tail - 1);
     tail[sizeof tail - 1] = '\0';
     plumb_zone_add_warning(z, "%s " PLUMBP_Q_FORCE " %s", pad, 4.4482216152605, tail);
-    const char *w = z->warnings[2];
+    const char *w = z->warnings[3];
     assert_null(strchr(w, PLUMBP_QTY_OPEN));
     assert_int_equal(strncmp(w, pad, strlen(pad)), 0);
     assert_int_equal(strlen(w), strlen(pad) + 1 + strlen(PLUMBP_WARNING_CUT));

@@ -425,14 +425,16 @@ const char *plumbp_t_bearing(writer *w, double deg)
     return b;
 }
 
-/* A small length (a tolerance, a gap): mm, or in inches in US units. */
+/* A small length (a tolerance, a gap): mm, or in inches in US units,
+ * trailing zeros dropped ("0.001 mm", "0.0000394 in"). */
 const char *plumbp_t_small(writer *w, double m)
 {
     char *b = slot(w);
+    int sig = w->sig ? w->sig : TEXT_SIG;
     if (w->us)
-        snprintf(b, NUMBUF, "%s" NBSP "in", qty(w, m / INCH_M));
+        snprintf(b, NUMBUF, "%s" NBSP "in", plumbp_trim_to(w, m / INCH_M, sig, 12, 1));
     else
-        snprintf(b, NUMBUF, "%s" NBSP "mm", qty(w, m * 1e3));
+        snprintf(b, NUMBUF, "%s" NBSP "mm", plumbp_trim_to(w, m * 1e3, sig, 12, 1));
     return b;
 }
 
