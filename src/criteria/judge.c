@@ -142,11 +142,10 @@ static void note_downwash(plumb_item_report *item, const plumb_atmosphere *atm)
     plumb_downwash_init(&s->downwash, air.rho_kg_m3, plumb_gravity_at(&s->gravity, alt),
                         s->release_m, v, rel, &dw);
     add_warning(item,
-                "Rotor downwash: hover thrust " PLUMBP_Q_FORCE " over " PLUMBP_Q_AREA
-                " gives v_i " PLUMBP_Q_AIR " and a far wake of " PLUMBP_Q_AIR
-                " (momentum theory); %s it decays below the rotor as a round jet (B %.3g; "
-                "plumb's blend). The aircraft is taken to keep its release velocity for the "
-                "whole fall.",
+                "Rotor downwash: by momentum theory, hover thrust " PLUMBP_Q_FORCE " over "
+                PLUMBP_Q_AREA " gives v_i " PLUMBP_Q_AIR " and a far wake of " PLUMBP_Q_AIR
+                "; %s it decays below the rotor as a round jet (B %.3g; plumb's blend). The "
+                "aircraft is taken to keep its release velocity for the whole fall.",
                 dw.thrust_n, s->downwash.disk_area_m2, dw.v_hover_m_s, 2.0 * dw.v_hover_m_s,
                 dw.skew_rad > 1e-9 ? "air moving past the rotor lowers v_i (Glauert) and leans "
                                      "the wake downwind;"
