@@ -69,8 +69,9 @@ int plumbp_edit_distance(const char *a, const char *b);
  * bytes each (slots[0..*n) in use) and counts it in *n. Never silent: a
  * sentence longer than its slot ends in PLUMBP_WARNING_CUT, cut at a
  * character boundary and never inside a quantity's mark; one more than
- * the list holds makes the last slot PLUMBP_WARNINGS_LEFT_OUT. The slots are sized for the longest sentence
- * the library writes, so neither happens (tests/test_report.c). Can't fail. */
+ * the list holds makes the last slot PLUMBP_WARNINGS_LEFT_OUT. The slots
+ * are sized for the longest sentence the library writes, so neither
+ * happens (tests/test_report.c). Can't fail. */
 void plumbp_warning_add(char *slots, size_t slot_size, size_t max, size_t *n, const char *fmt, ...)
     PLUMBP_PRINTF(5, 6);
 void plumbp_warning_vadd(char *slots, size_t slot_size, size_t max, size_t *n, const char *fmt,

@@ -225,11 +225,10 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
     if (gl->mode != PLUMB_GLIDE_OFF && item->spec->n_descent == 0)
         add_warning(item,
                     "Plate-like: taken to %s (%s). Tumbling plates glide sideways up to 1.375 x "
-                    "the height fallen in still air (" PLUMBP_Q_ANGLE " below horizontal; Smith "
-                    "1970), "
-                    "fluttering ones up to 0.36 x (Tinklenberg et al. 2023). plumb zone adds "
-                    "the glide, this fall does not; \"radius = drop height\" is not "
-                    "conservative for plates.",
+                    "the height fallen in still air (" PLUMBP_Q_ANGLE " below horizontal; "
+                    "Smith 1970), fluttering ones up to 0.36 x (Tinklenberg et al. 2023). "
+                    "plumb zone adds the glide, this fall does not; \"radius = drop height\" "
+                    "is not conservative for plates.",
                     gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why,
                     atan(1.0 / 1.375) * 180.0 / PLUMB_PI);
     note_downwash(item, atm);
@@ -237,8 +236,8 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
     if (tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
         add_warning(item,
                     "Gusts of the %s model (wind.turbulence) with W20 = " PLUMBP_Q_AIR
-                    ", the mean wind at 20 ft, apply only to plumb zone, where every sample falls "
-                    "through its own realisation; this single fall uses the mean wind.",
+                    ", the mean wind at 20 ft, apply only to plumb zone, where every sample "
+                    "falls through its own realisation; this single fall uses the mean wind.",
                     tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
                     plumb_fall_w20(item->spec));
     else if (tb->model != PLUMB_TURB_NONE)

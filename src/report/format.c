@@ -219,8 +219,9 @@ const char *plumbp_gnum(writer *w, double x, int sig)
     return b;
 }
 
-/* A quantity in the text: TEXT_SIG figures (w->sig when set); inputs echoed as given (in SI,
- * INPUT_SIG figures) or converted (US, TEXT_SIG figures), zeros dropped. */
+/* A quantity in the text: TEXT_SIG figures (w->sig when set); inputs
+ * echoed as given (in SI, INPUT_SIG figures) or converted (US, TEXT_SIG
+ * figures), zeros dropped. */
 static const char *qty(writer *w, double x)
 {
     if (w->strict)
@@ -378,8 +379,8 @@ const char *plumbp_t_density(writer *w, double rho)
     return b;
 }
 
-/* A temperature lapse rate (fall per height) as given, INPUT_SIG
- * figures: K/km, or °F per 1000 ft in US units. */
+/* A temperature lapse rate (fall per height), an input: K/km as given
+ * (INPUT_SIG figures), or converted to °F per 1000 ft (TEXT_SIG). */
 const char *plumbp_t_lapse(writer *w, double k_m)
 {
     char *b = slot(w);
