@@ -789,6 +789,63 @@ static void test_a_warning_that_does_not_fit_says_so(void **state)
     free(z);
 }
 
+/* A warning's figures are marks with their SI values, shown in the units
+ * asked for. Conversions: 1 lbf = 0.45359237 kg x 9.80665 m/s^2 =
+ * 4.4482216152605 N, 1 ft = 0.3048 m (1959 international yard and pound
+ * agreement; NIST SP 811, 2008, B.8); 1 mph = 1609.344 m / 3600 s =
+ * 0.44704 m/s, 1 kn = 1852 m / 3600 s (NIST SP 811, B.8). */
+static void test_a_warnings_figures_are_shown_in_the_units_asked_for(void **state)
+{
+    (void)state;
+    plumb_zone_result *z = calloc(1, sizeof *z);
+    assert_non_null(z);
+    plumb_zone_add_warning(z, "thrust " PLUMBP_Q_FORCE " over " PLUMBP_Q_AREA ", wake "
+                           PLUMBP_Q_AIR ", fall " PLUMBP_Q_SPEED ", leans " PLUMBP_Q_ANGLE
+                           ", height " PLUMBP_Q_LENGTH ".",
+                           2.0 * 4.4482216152605, 3.0 * 0.3048 * 0.3048, 5.0 * 0.44704,
+                           7.0 * 0.3048, 74.4, 11.0 * 0.3048);
+    char buf[PLUMB_ZONE_WARNING * 2];
+    size_t n = plumb_report_warning(z->warnings[0], PLUMB_UNITS_US, buf, sizeof buf);
+    assert_string_equal(buf, "thrust 2.00 lbf over 3.00 ft², wake 5.00 mph (4.34 kn), "
+                             "fall 7.00 ft/s, leans 74°, height 11.0 ft.");
+    assert_int_equal(n, strlen(buf));
+    plumb_report_warning(z->warnings[0], PLUMB_UNITS_SI, buf, sizeof buf);
+    assert_string_equal(buf, "thrust 8.90 N over 0.279 m², wake 2.24 m/s, fall 2.13 m/s, "
+                             "leans 74°, height 3.35 m.");
+    /* a small length: mm, or inches (1 in = 25.4 mm exactly, NIST SP 811 B.8) */
+    plumb_zone_add_warning(z, "within " PLUMBP_Q_SMALL ".", 0.0254e-3);
+    plumb_report_warning(z->warnings[1], PLUMB_UNITS_SI, buf, sizeof buf);
+    assert_string_equal(buf, "within 0.0254 mm.");
+    plumb_report_warning(z->warnings[1], PLUMB_UNITS_US, buf, sizeof buf);
+    assert_string_equal(buf, "within 0.001 in.");
+    plumb_report_warning(z->warnings[0], PLUMB_UNITS_SI, buf, sizeof buf);
+    /* a short buffer gets what fits, and the length of the whole */
+    char small[8];
+    assert_int_equal(plumb_report_warning(z->warnings[0], PLUMB_UNITS_SI, small, sizeof small),
+                     strlen(buf));
+    assert_string_equal(small, "thrust ");
+    /* a figure that is not finite is never printed as NaN */
+    plumb_zone_add_warning(z, "wake " PLUMBP_Q_AIR ".", NAN);
+    plumb_report_warning(z->warnings[2], PLUMB_UNITS_US, buf, sizeof buf);
+    assert_null(strstr(buf, "nan"));
+    assert_non_null(strstr(buf, "?"));
+    /* a cut never parts a mark: the sentence ends before it, with the note */
+    char pad[PLUMB_ZONE_WARNING];
+    size_t room = PLUMB_ZONE_WARNING - strlen(PLUMBP_WARNING_CUT) - 1;
+    memset(pad, 'x', room - 4);
+    pad[room - 4] = '\0';
+    char tail[200];
+    memset(tail, 'y', sizeof tail - 1);
+    tail[sizeof tail - 1] = '\0';
+    plumb_zone_add_warning(z, "%s " PLUMBP_Q_FORCE " %s", pad, 4.4482216152605, tail);
+    const char *w = z->warnings[3];
+    assert_null(strchr(w, PLUMBP_QTY_OPEN));
+    assert_int_equal(strncmp(w, pad, strlen(pad)), 0);
+    assert_int_equal(strlen(w), strlen(pad) + 1 + strlen(PLUMBP_WARNING_CUT));
+    assert_string_equal(w + strlen(w) - strlen(PLUMBP_WARNING_CUT), PLUMBP_WARNING_CUT);
+    free(z);
+}
+
 /* ---- JSON ---------------------------------------------------------------- */
 
 static void test_json_has_the_keys_of_design_section_6(void **state)
@@ -913,7 +970,7 @@ static void test_air_table_states_its_temperature_offset_in_every_format(void **
         }
         free(buf);
     }
-    /* US text: the offset as a difference in degF beside kelvin */
+    /* US text: the offset as a difference in degF, kelvin in the SI brackets */
     char *buf = NULL;
     size_t len = 0;
     FILE *out = open_memstream(&buf, &len);
@@ -922,7 +979,7 @@ static void test_air_table_states_its_temperature_offset_in_every_format(void **
     plumb_diag_clear(&diag);
     assert_int_equal(plumb_report_air_table(out, &opt, &t, &diag), PLUMB_OK);
     fclose(out);
-    assert_non_null(strstr(buf, "temperature offset +18 °F (10 K)"));
+    assert_non_null(strstr(buf, "temperature offset +18 °F [10 K]"));
     free(buf);
     /* a table with no offset says so */
     buf = NULL;
@@ -1083,6 +1140,7 @@ int main(void)
         cmocka_unit_test(test_the_longest_warnings_of_a_fall_are_whole_in_the_fall_and_its_zone),
         cmocka_unit_test(test_helmet_tests_too_many_to_name_are_counted_not_cut),
         cmocka_unit_test(test_a_warning_that_does_not_fit_says_so),
+        cmocka_unit_test(test_a_warnings_figures_are_shown_in_the_units_asked_for),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }

@@ -283,7 +283,8 @@ typedef struct plumb_zone_result {
     size_t n_warnings;        /* warnings[0..n) */
     char warnings[PLUMB_ZONE_MAX_WARNINGS][PLUMB_ZONE_WARNING]; /* sentences qualifying the
                                  figures: the impact point fixed (first, when so), and those
-                                 the caller adds (plumb_zone_add_warning) */
+                                 the caller adds (plumb_zone_add_warning); figures kept as
+                                 marks: read with plumb_report_warning (report.h) */
 } plumb_zone_result;
 
 /* Appends a warning (a sentence) to a result, whole. Never silent: a

@@ -4,7 +4,10 @@
  * qualify its figures (Mach above 0.5, a drag correlation or table used
  * beyond its range, a descent device that does not open, helmet-test
  * energies that are not safe limits). Judging lives with the criteria; the
- * report writers (report.h) print what is decided here.
+ * report writers (report.h) print what is decided here. A warning's
+ * figures with a unit are kept as marks with their SI values, which the
+ * writers show in the report's units (plumb_report_warning, report.h), so
+ * that --units us puts a rotor wake in mph and its thrust in lbf.
  *
  * Ownership: an item report borrows its spec and shape; the verdicts
  * point at criteria owned by the plumb_criteria set, which must outlive
@@ -30,7 +33,8 @@ typedef struct plumb_item_report {
     size_t n_verdicts;                           /* verdicts[0..n) */
     plumb_verdict verdicts[PLUMB_MAX_VERDICTS];  /* one per criterion of the profile */
     size_t n_warnings;                           /* warnings[0..n) */
-    char warnings[PLUMB_MAX_WARNINGS][PLUMB_WARNING]; /* Mach, correlation range ... */
+    char warnings[PLUMB_MAX_WARNINGS][PLUMB_WARNING]; /* Mach, correlation range ...;
+                                 figures kept as marks: read with plumb_report_warning */
 } plumb_item_report;
 
 /* A whole `plumb fall` report. */

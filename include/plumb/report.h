@@ -44,6 +44,17 @@ typedef struct plumb_report_options {
 /* The cautions, in order; *n gets their count. Static strings. Can't fail. */
 const char *const *plumb_cautions(size_t *n);
 
+/* A warning of a fall or a zone (plumb_item_report's and
+ * plumb_zone_result's `warnings`) as a sentence in the given units. The
+ * library keeps a warning's figures as marks, each with its SI value, so
+ * that every report shows them in its own units (text and CSV in the
+ * --units chosen, JSON in SI); this is how a program reads one. Writes at
+ * most size bytes to buf ('\0'-terminated when size > 0; buf may be NULL
+ * with size 0) and returns the length of the whole sentence, as snprintf
+ * does. A figure that is not finite shows as "?". Can't fail. */
+size_t plumb_report_warning(const char *warning, plumb_unit_system units, char *buf,
+                            size_t size);
+
 /* Writes a fall report. PLUMB_ENUMERIC if any figure is not finite,
  * PLUMB_EWRITE on a write error. */
 plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,

@@ -42,6 +42,25 @@ char *plumbp_strlcpy(char *dst, const char *src, size_t n);
  * did-you-mean scored its own way (criteria ids, units). Can't fail. */
 int plumbp_edit_distance(const char *a, const char *b);
 
+/* A quantity in a warning sentence: the sentence is made below the report
+ * layer, which alone knows the display units (--units si|us), so a figure
+ * with a unit is kept as a mark, its kind and its SI value, and the report
+ * writers put it in the chosen units with the one formatter they share
+ * (src/report/format.c, plumbp_t_warning; plumb_report_warning for
+ * programs). A mark is PLUMBP_QTY_OPEN, a kind letter, the value as "%.9g"
+ * and PLUMBP_QTY_CLOSE. Each macro below is one printf conversion taking a
+ * double in the SI unit named; the letters are read by plumbp_t_warning.
+ * (The literals are split so that a hex escape never takes the letter.) */
+#define PLUMBP_QTY_OPEN '\x02'
+#define PLUMBP_QTY_CLOSE '\x03'
+#define PLUMBP_Q_LENGTH "\x02" "L%.9g" "\x03"  /* m: m, or ft */
+#define PLUMBP_Q_SMALL "\x02" "l%.9g" "\x03"   /* m: mm, or in */
+#define PLUMBP_Q_SPEED "\x02" "S%.9g" "\x03"   /* m/s of an object: m/s, or ft/s */
+#define PLUMBP_Q_AIR "\x02" "W%.9g" "\x03"     /* m/s of air (wind, gust, wake): m/s, or mph */
+#define PLUMBP_Q_FORCE "\x02" "F%.9g" "\x03"   /* N: N, or lbf */
+#define PLUMBP_Q_AREA "\x02" "A%.9g" "\x03"    /* m^2: m², or ft² */
+#define PLUMBP_Q_ANGLE "\x02" "D%.9g" "\x03"   /* deg: ° in both */
+
 /* The ends a warning gets when it does not fit (plumbp_warning_add). */
 #define PLUMBP_WARNING_CUT " [warning cut short here: longer than plumb keeps; a defect, please report it]"
 #define PLUMBP_WARNINGS_LEFT_OUT "Further warnings were left out: more than plumb keeps; a defect, please report it."
@@ -49,9 +68,10 @@ int plumbp_edit_distance(const char *a, const char *b);
 /* Appends a warning sentence to a list of `max` slots of `slot_size`
  * bytes each (slots[0..*n) in use) and counts it in *n. Never silent: a
  * sentence longer than its slot ends in PLUMBP_WARNING_CUT, cut at a
- * character boundary; one more than the list holds makes the last slot
- * PLUMBP_WARNINGS_LEFT_OUT. The slots are sized for the longest sentence
- * the library writes, so neither happens (tests/test_report.c). Can't fail. */
+ * character boundary and never inside a quantity's mark; one more than
+ * the list holds makes the last slot PLUMBP_WARNINGS_LEFT_OUT. The slots
+ * are sized for the longest sentence the library writes, so neither
+ * happens (tests/test_report.c). Can't fail. */
 void plumbp_warning_add(char *slots, size_t slot_size, size_t max, size_t *n, const char *fmt, ...)
     PLUMBP_PRINTF(5, 6);
 void plumbp_warning_vadd(char *slots, size_t slot_size, size_t max, size_t *n, const char *fmt,

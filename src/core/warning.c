@@ -2,7 +2,8 @@
  * warning.c - a warning sentence appended to a report's fixed list of
  * slots (plumb_item_report's and plumb_zone_result's), whole or visibly
  * marked: a sentence longer than its slot, or one more than the list
- * holds, is never dropped or cut in silence.
+ * holds, is never dropped or cut in silence, and a cut never parts a
+ * quantity's mark (PLUMBP_Q_*, core/internal.h).
  */
 #include <stdarg.h>
 #include <stdio.h>
@@ -37,6 +38,15 @@ void plumbp_warning_vadd(char *slots, size_t slot_size, size_t max, size_t *n, c
         keep = 0;
     while (keep > 0 && ((unsigned char)dst[keep] & 0xC0) == 0x80)
         keep--;
+    /* a quantity's mark is kept whole or not at all */
+    for (size_t i = keep; i-- > 0;) {
+        if (dst[i] == PLUMBP_QTY_CLOSE)
+            break;
+        if (dst[i] == PLUMBP_QTY_OPEN) {
+            keep = i;
+            break;
+        }
+    }
     memcpy(dst + keep, PLUMBP_WARNING_CUT, mark + 1);
 }
 

@@ -123,7 +123,8 @@ plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
     return PLUMB_OK;
 }
 
-/* The rotor wake's figures and assumptions (plumb/downwash.h). */
+/* The rotor wake's figures and assumptions (plumb/downwash.h). Its speeds
+ * are speeds of air, shown as the wind is (PLUMBP_Q_AIR). */
 static void note_downwash(plumb_item_report *item, const plumb_atmosphere *atm)
 {
     const plumb_fall_spec *s = item->spec;
@@ -141,10 +142,10 @@ static void note_downwash(plumb_item_report *item, const plumb_atmosphere *atm)
     plumb_downwash_init(&s->downwash, air.rho_kg_m3, plumb_gravity_at(&s->gravity, alt),
                         s->release_m, v, rel, &dw);
     add_warning(item,
-                "Rotor downwash: hover thrust %.3g N over %.3g m^2 gives v_i %.3g m/s and a far "
-                "wake of %.3g m/s (momentum theory); %s it decays below the rotor as a round jet "
-                "(B %.3g; plumb's blend). The aircraft is taken to keep its release velocity "
-                "for the whole fall.",
+                "Rotor downwash: by momentum theory, hover thrust " PLUMBP_Q_FORCE " over "
+                PLUMBP_Q_AREA " gives v_i " PLUMBP_Q_AIR " and a far wake of " PLUMBP_Q_AIR
+                "; %s it decays below the rotor as a round jet (B %.3g; plumb's blend). The "
+                "aircraft is taken to keep its release velocity for the whole fall.",
                 dw.thrust_n, s->downwash.disk_area_m2, dw.v_hover_m_s, 2.0 * dw.v_hover_m_s,
                 dw.skew_rad > 1e-9 ? "air moving past the rotor lowers v_i (Glauert) and leans "
                                      "the wake downwind;"
@@ -152,11 +153,11 @@ static void note_downwash(plumb_item_report *item, const plumb_atmosphere *atm)
                 PLUMB_DOWNWASH_JET_B);
     if (dw.skew_rad > 1e-9)
         add_warning(item,
-                    "Rotor downwash: the air moves past the rotor at %.3g m/s, so v_i is %.3g "
-                    "m/s and the wake leans %.0f deg from the vertical (Glauert, Leishman 2006; "
-                    "from memory). The model is for hover and slow flight (below about %.3g "
-                    "m/s); faster, the wake is swept behind the aircraft and this is a rough "
-                    "guide only.",
+                    "Rotor downwash: the air moves past the rotor at " PLUMBP_Q_AIR
+                    ", so v_i is " PLUMBP_Q_AIR " and the wake leans " PLUMBP_Q_ANGLE
+                    " from the vertical (Glauert, Leishman 2006; from memory). The model is "
+                    "for hover and slow flight, below about " PLUMBP_Q_AIR "; faster, the "
+                    "wake is swept behind the aircraft and this is a rough guide only.",
                     hypot(rel[0], rel[1]), dw.v_i_m_s, dw.skew_rad * 180.0 / PLUMB_PI,
                     dw.v_hover_m_s);
 }
@@ -225,24 +226,26 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
     if (gl->mode != PLUMB_GLIDE_OFF && item->spec->n_descent == 0)
         add_warning(item,
                     "Plate-like: taken to %s (%s). Tumbling plates glide sideways up to 1.375 x "
-                    "the height fallen in still air (36 deg below horizontal; Smith 1970), "
-                    "fluttering ones up to 0.36 x (Tinklenberg et al. 2023). plumb zone adds "
-                    "the glide, this fall does not; \"radius = drop height\" is not "
-                    "conservative for plates.",
-                    gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why);
+                    "the height fallen in still air (" PLUMBP_Q_ANGLE " below horizontal; "
+                    "Smith 1970), fluttering ones up to 0.36 x (Tinklenberg et al. 2023). "
+                    "plumb zone adds the glide, this fall does not; \"radius = drop height\" "
+                    "is not conservative for plates.",
+                    gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why,
+                    atan(1.0 / 1.375) * 180.0 / PLUMB_PI);
     note_downwash(item, atm);
     const plumb_turbulence_spec *tb = &item->spec->turbulence;
     if (tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
         add_warning(item,
-                    "Gusts (wind.turbulence, %s, W20 %.3g m/s) apply only to plumb zone, where "
-                    "every sample falls through its own realisation; this single fall uses the "
-                    "mean wind.",
+                    "Gusts of the %s model (wind.turbulence) with W20 = " PLUMBP_Q_AIR
+                    ", the mean wind at 20 ft, apply only to plumb zone, where every sample "
+                    "falls through its own realisation; this single fall uses the mean wind.",
                     tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
                     plumb_fall_w20(item->spec));
     else if (tb->model != PLUMB_TURB_NONE)
         add_warning(item,
-                    "Gusts: this fall went through one realisation of the %s model (W20 %.3g "
-                    "m/s), sum of %zu random Fourier modes per component.",
+                    "Gusts: this fall went through one realisation of the %s model with "
+                    "W20 = " PLUMBP_Q_AIR " (the mean wind at 20 ft), a sum of %zu random "
+                    "Fourier modes per component.",
                     tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
                     plumb_fall_w20(item->spec), tb->n_modes);
     warn_helmet_tests(item);

@@ -67,7 +67,22 @@ long plumbp_strictest(const plumb_item_report *it);
 size_t plumbp_worst_item(const plumb_fall_report *rep);
 size_t plumbp_largest_drift_item(const plumb_fall_report *rep);
 void plumbp_caution_lines_text(writer *w);
-int plumbp_item_has_warning(const plumb_item_report *it, const char *text);
+/* A warning as a report shows it: the same sentence said of two items or
+ * rows is one warning, though the marks of its figures (PLUMBP_Q_*) may
+ * differ beyond the digits shown. */
+typedef struct said_warning {
+    size_t report;   /* which of the reports given (a sweep's row) */
+    size_t item;     /* which item of it */
+    char *text;      /* the sentence in the writer's units (plumbp_t_warning) */
+} said_warning;
+/* Every warning of n reports, in order (report, item, warning), each
+ * shown once; *n_said of them. NULL when out of memory, with w->nomem
+ * set (the report is refused). Free with plumbp_said_free. */
+said_warning *plumbp_said_warnings(writer *w, const plumb_fall_report *const *reps, size_t n,
+                                   size_t *n_said);
+void plumbp_said_free(said_warning *s, size_t n);
+/* The first of s[0..e] with the sentence of s[e] (e when none before it). */
+size_t plumbp_said_before(const said_warning *s, size_t e);
 void plumbp_each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn);
 void plumbp_text_warning_line(writer *w, const char *who, const char *text);
 plumb_status plumbp_writer_open(writer *w, char **buf, size_t *len, plumb_unit_system units,

@@ -17,7 +17,7 @@
 
 static void csv_warning_line(writer *w, const char *who, const char *text)
 {
-    char line[PLUMB_NAME * 4 + PLUMB_WARNING + 16];
+    char line[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 16];
     snprintf(line, sizeof line, "warning: %s%s%s", who, who[0] ? ": " : "", text);
     csv_comment(w, line);
 }

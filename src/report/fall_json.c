@@ -260,7 +260,7 @@ void plumbp_j_item_into(jctx *j, json_t *o, const plumb_item_report *it, const p
     jset(j, o, "criteria", j_criteria(j, it));
     json_t *warn = jarr(j);
     for (size_t i = 0; i < it->n_warnings; i++)
-        jpush(j, warn, jstr(j, it->warnings[i]));
+        jpush(j, warn, jwarning(j, it->warnings[i]));
     jset(j, o, "warnings", warn);
     json_t *sol = jobj(j);
     jset(j, sol, "method", jstr(j, r->solver.method ? r->solver.method : "unknown"));

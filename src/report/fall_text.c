@@ -378,8 +378,9 @@ static void text_release(writer *w, const plumb_fall_spec *s, char *buf, size_t 
     } else {
         double hs = hypot(v[0], v[1]);
         double heading = hs > 0.0 ? wrap_deg(atan2(v[0], v[1]) * DEG_PER_RAD) : 0.0;
-        /* Ground speed as a crew reads it (mph and knots in US units). */
-        const char *ground = w->us ? plumbp_t_wind(w, hs) : plumbp_t_speed(w, hs);
+        /* the object's own speed, in the unit of every object speed (ft/s
+         * in US units); mph and knots are for the wind */
+        const char *ground = plumbp_t_speed(w, hs);
         if (hs > 0.0 && v[2] == 0.0)
             snprintf(vel, sizeof vel, "moving %s toward %s, level", ground,
                      plumbp_t_bearing(w, heading));
@@ -407,10 +408,9 @@ void plumbp_text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
     switch (a->model) {
     case PLUMB_ATM_SURFACE:
         w->exact = 1;
-        snprintf(what, sizeof what, "surface: station %s, %s, lapse rate %s" NBSP "K/km",
+        snprintf(what, sizeof what, "surface: station %s, %s, lapse rate %s",
                  plumbp_t_press(w, a->station_pressure_pa),
-                 plumbp_t_temp(w, a->station_temperature_k),
-                 plumbp_gnum(w, a->lapse_rate_k_m * 1000.0, INPUT_SIG));
+                 plumbp_t_temp(w, a->station_temperature_k), plumbp_t_lapse(w, a->lapse_rate_k_m));
         w->exact = 0;
         break;
     case PLUMB_ATM_TABLE:
@@ -422,8 +422,8 @@ void plumbp_text_atmosphere(writer *w, const plumb_atm_spec *a, char *buf, size_
     default:
         if (a->temperature_offset_k != 0.0 && w->us)
             snprintf(what, sizeof what,
-                     "U.S. Standard Atmosphere 1976, temperature offset %s%s" NBSP "°F (%s" NBSP
-                     "K)",
+                     "U.S. Standard Atmosphere 1976, temperature offset %s%s" NBSP "°F [%s" NBSP
+                     "K]",
                      a->temperature_offset_k > 0.0 ? "+" : "",
                      plumbp_gnum(w, a->temperature_offset_k * FAHRENHEIT_PER_K, 3),
                      plumbp_gnum(w, a->temperature_offset_k, 3));
@@ -566,8 +566,10 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
     text_descent(w, it, NULL);
     if (it->n_warnings) {
         put(w, "\nWarnings\n");
-        for (size_t i = 0; i < it->n_warnings; i++)
-            wrapped(w, "  - ", it->warnings[i]);
+        for (size_t i = 0; i < it->n_warnings; i++) {
+            char text[PLUMB_WARNING * 2];
+            wrapped(w, "  - ", plumbp_t_warning(w, it->warnings[i], text, sizeof text));
+        }
     }
     put(w, "\nInputs as understood\n");
     text_inputs(w, it, rep->profile, ia, 1);

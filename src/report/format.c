@@ -221,14 +221,15 @@ const char *plumbp_gnum(writer *w, double x, int sig)
     return b;
 }
 
-/* A quantity in the text: TEXT_SIG figures; inputs echoed as given (in SI,
- * INPUT_SIG figures) or converted (US, TEXT_SIG figures), zeros dropped. */
+/* A quantity in the text: TEXT_SIG figures (w->sig when set); inputs
+ * echoed as given (in SI, INPUT_SIG figures) or converted (US, TEXT_SIG
+ * figures), zeros dropped. */
 static const char *qty(writer *w, double x)
 {
     if (w->strict)
         return num(w, plumbp_round_safe(x, TEXT_SIG, 1), TEXT_SIG);
     if (!w->exact)
-        return num(w, x, TEXT_SIG);
+        return num(w, x, w->sig ? w->sig : TEXT_SIG);
     return plumbp_gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);
 }
 
@@ -310,11 +311,13 @@ const char *plumbp_t_energy(writer *w, double j)
     return b;
 }
 
+/* A mass: kg, or lb with the kilograms in the brackets that hold a US
+ * report's SI figures ("1.874 lb [0.85 kg]"). */
 const char *plumbp_t_mass(writer *w, double kg)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s" NBSP "lb (%s" NBSP "kg)", qty(w, kg / PLUMB_LB_KG),
+        snprintf(b, NUMBUF, "%s" NBSP "lb [%s" NBSP "kg]", qty(w, kg / PLUMB_LB_KG),
                  qty(w, kg));
     else
         snprintf(b, NUMBUF, "%s" NBSP "kg", qty(w, kg));
@@ -335,9 +338,9 @@ const char *plumbp_t_force(writer *w, double n)
 {
     char *b = slot(w);
     if (w->us)
-        snprintf(b, NUMBUF, "%s" NBSP "lbf", num(w, n / LBF_N, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "lbf", qty(w, n / LBF_N));
     else
-        snprintf(b, NUMBUF, "%s" NBSP "N", num(w, n, TEXT_SIG));
+        snprintf(b, NUMBUF, "%s" NBSP "N", qty(w, n));
     return b;
 }
 
@@ -378,6 +381,19 @@ const char *plumbp_t_density(writer *w, double rho)
     return b;
 }
 
+/* A temperature lapse rate (fall per height), an input: K/km as given
+ * (INPUT_SIG figures), or converted to °F per 1000 ft (TEXT_SIG). */
+const char *plumbp_t_lapse(writer *w, double k_m)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "°F/1000" NBSP "ft",
+                 plumbp_gnum(w, k_m * FAHRENHEIT_PER_K * 1000.0 * PLUMB_FT_M, TEXT_SIG));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "K/km", plumbp_gnum(w, k_m * 1000.0, INPUT_SIG));
+    return b;
+}
+
 /* Gravity to six figures: m/s², or ft/s² in US units. */
 const char *plumbp_t_gravity(writer *w, double g)
 {
@@ -410,4 +426,107 @@ const char *plumbp_t_bearing(writer *w, double deg)
         d = 0.0;
     snprintf(b, NUMBUF, "%03ld° (%s)", lround(d), compass(d));
     return b;
+}
+
+/* A small length (a tolerance, a gap): mm, or in inches in US units,
+ * trailing zeros dropped ("0.001 mm", "0.0000394 in"). */
+const char *plumbp_t_small(writer *w, double m)
+{
+    char *b = slot(w);
+    int sig = w->sig ? w->sig : TEXT_SIG;
+    if (w->us)
+        snprintf(b, NUMBUF, "%s" NBSP "in", plumbp_trim_to(w, m / INCH_M, sig, 12, 1));
+    else
+        snprintf(b, NUMBUF, "%s" NBSP "mm", plumbp_trim_to(w, m * 1e3, sig, 12, 1));
+    return b;
+}
+
+/* An angle in whole degrees, "74°", in both unit systems. */
+const char *plumbp_t_angle(writer *w, double deg)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s°", plumbp_fixed(w, deg, 0));
+    return b;
+}
+
+/* ---- warnings: their quantities in the display units -------------------- */
+
+/* Significant figures of a quantity in a warning: the rough figures of a
+ * model's assumptions (a rotor wake, a gust), not results. */
+#define WARNING_SIG 3
+
+/* The quantity of one mark (PLUMBP_Q_*, core/internal.h), or NULL for a
+ * kind letter this formatter does not know. */
+static const char *warning_qty(writer *w, char kind, double x)
+{
+    switch (kind) {
+    case 'L': return plumbp_t_len(w, x);
+    case 'l': return plumbp_t_small(w, x);
+    case 'S': return plumbp_t_speed(w, x);
+    case 'W': return plumbp_t_wind(w, x);
+    case 'F': return plumbp_t_force(w, x);
+    case 'A': return plumbp_t_area(w, x);
+    case 'D': return plumbp_t_angle(w, x);
+    default: return NULL;
+    }
+}
+
+const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size)
+{
+    size_t n = 0;
+    int was_sig = w->sig, was_exact = w->exact, was_strict = w->strict;
+    w->sig = WARNING_SIG;
+    w->exact = w->strict = 0;
+    if (size == 0)
+        return out;
+    out[0] = '\0';
+    for (const char *p = text; *p && n + 1 < size;) {
+        const char *end = *p == PLUMBP_QTY_OPEN ? strchr(p, PLUMBP_QTY_CLOSE) : NULL;
+        const char *shown = NULL;
+        if (end) {
+            char *stop;
+            double x = strtod(p + 2, &stop);
+            if (stop == end && stop > p + 2)
+                shown = warning_qty(w, p[1], x);
+        }
+        if (!shown && *p == PLUMBP_QTY_OPEN) {
+            /* a mark that cannot be read: never printed as it is */
+            w->bad = 1;
+            shown = "?";
+            end = end ? end : p + strlen(p) - 1;
+        }
+        if (shown) {
+            int k = snprintf(out + n, size - n, "%s", shown);
+            n = k < 0 ? n : (size_t)k < size - n ? n + (size_t)k : size - 1;
+            p = end + 1;
+        } else {
+            out[n++] = *p++;
+            out[n] = '\0';
+        }
+    }
+    w->sig = was_sig;
+    w->exact = was_exact;
+    w->strict = was_strict;
+    return out;
+}
+
+int plumbp_warning_plain(const char *text, int us, char *out, size_t size)
+{
+    writer w;
+    memset(&w, 0, sizeof w);
+    w.us = us;
+    plumbp_t_warning(&w, text, out, size);
+    for (char *c = out; size > 0 && *c; c++)
+        if (*c == NBSP_CHAR)
+            *c = ' ';
+    return !w.bad;
+}
+
+size_t plumb_report_warning(const char *warning, plumb_unit_system units, char *buf, size_t size)
+{
+    char whole[PLUMB_WARNING * 2];
+    plumbp_warning_plain(warning ? warning : "", units == PLUMB_UNITS_US, whole, sizeof whole);
+    if (buf && size > 0)
+        plumbp_strlcpy(buf, whole, size);
+    return strlen(whole);
 }

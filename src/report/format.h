@@ -87,5 +87,18 @@ const char *plumbp_t_gravity(writer *w, double g);
 const char *plumbp_t_density(writer *w, double rho);
 const char *plumbp_si_bracket(writer *w, double x, const char *unit);
 const char *plumbp_t_bearing(writer *w, double deg);
+const char *plumbp_t_small(writer *w, double m);
+const char *plumbp_t_lapse(writer *w, double k_m);
+const char *plumbp_t_angle(writer *w, double deg);
+/* A warning sentence (plumb/judge.h, plumb/dispersion.h) with each
+ * quantity's mark (PLUMBP_Q_*, core/internal.h) put in the writer's units,
+ * the one place a warning's figures are formatted; numbers stay joined to
+ * their units for wrapping. A mark that cannot be read shows "?" and flags
+ * the writer (the report is refused). Writes at most size bytes to out
+ * and returns it. */
+const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size);
+/* The same in a writer of its own (JSON, GeoJSON: us 0), plain spaces;
+ * returns 0 when a mark could not be read or a figure is not finite. */
+int plumbp_warning_plain(const char *text, int us, char *out, size_t size);
 
 #endif /* PLUMB_REPORT_FORMAT_H */

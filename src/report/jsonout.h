@@ -18,6 +18,7 @@
 #include "plumb/error.h"
 #include "plumb/report.h"
 #include "core/internal.h"
+#include "report/format.h"
 
 /* Significant digits of JSON numbers: enough to round-trip a double. */
 #define PLUMBP_JSON_DIGITS 17
@@ -52,6 +53,17 @@ static inline json_t *jstr(jctx *j, const char *s)
     if (!v)
         j->nomem = 1; /* or invalid UTF-8: refused the same way */
     return v;
+}
+
+/* A warning sentence with its figures in SI (plumbp_warning_plain): JSON
+ * is SI whatever --units says. A mark that cannot be read or a figure that
+ * is not finite is refused (j->bad). */
+static inline json_t *jwarning(jctx *j, const char *text)
+{
+    char s[PLUMB_WARNING * 2];
+    if (!plumbp_warning_plain(text, 0, s, sizeof s))
+        j->bad = 1;
+    return jstr(j, s);
 }
 
 /* Sets obj[key] = value, taking the reference to value in every case: a

@@ -14,6 +14,7 @@
  * those of format.c; JSON is always SI (design.md section 6).
  */
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -202,45 +203,85 @@ void plumbp_caution_lines_text(writer *w)
 
 /* ---- warnings shared by several items ------------------------------------ */
 
-int plumbp_item_has_warning(const plumb_item_report *it, const char *text)
+said_warning *plumbp_said_warnings(writer *w, const plumb_fall_report *const *reps, size_t n,
+                                   size_t *n_said)
 {
-    for (size_t k = 0; k < it->n_warnings; k++)
-        if (strcmp(it->warnings[k], text) == 0)
-            return 1;
-    return 0;
+    size_t total = 0;
+    *n_said = 0;
+    for (size_t r = 0; r < n; r++)
+        for (size_t i = 0; i < reps[r]->n_items; i++)
+            total += reps[r]->items[i].n_warnings;
+    said_warning *s = calloc(total ? total : 1, sizeof *s);
+    if (!s) {
+        w->nomem = 1;
+        return NULL;
+    }
+    for (size_t r = 0; r < n; r++)
+        for (size_t i = 0; i < reps[r]->n_items; i++)
+            for (size_t k = 0; k < reps[r]->items[i].n_warnings; k++) {
+                char shown_text[PLUMB_WARNING * 2];
+                plumbp_t_warning(w, reps[r]->items[i].warnings[k], shown_text,
+                                 sizeof shown_text);
+                said_warning *e = &s[(*n_said)++];
+                size_t len = strlen(shown_text) + 1;
+                e->report = r;
+                e->item = i;
+                if ((e->text = malloc(len)) != NULL)
+                    memcpy(e->text, shown_text, len);
+                else {
+                    w->nomem = 1;
+                    plumbp_said_free(s, *n_said);
+                    *n_said = 0;
+                    return NULL;
+                }
+            }
+    return s;
 }
 
+void plumbp_said_free(said_warning *s, size_t n)
+{
+    for (size_t i = 0; s && i < n; i++)
+        free(s[i].text);
+    free(s);
+}
 
-/* Calls fn once per distinct warning of the report, with the names of the
- * items that have it, or "" when every item has it. */
+size_t plumbp_said_before(const said_warning *s, size_t e)
+{
+    size_t i = 0;
+    while (i < e && strcmp(s[i].text, s[e].text) != 0)
+        i++;
+    return i;
+}
+
+/* Calls fn once per distinct warning of the report as shown, with the
+ * names of the items that have it, or "" when every item has it. */
 void plumbp_each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn)
 {
-    for (size_t i = 0; i < rep->n_items; i++)
-        for (size_t k = 0; k < rep->items[i].n_warnings; k++) {
-            const char *text = rep->items[i].warnings[k];
-            int seen = 0;
-            for (size_t j = 0; j < i && !seen; j++)
-                seen = plumbp_item_has_warning(&rep->items[j], text);
-            if (seen)
+    size_t n;
+    said_warning *s = plumbp_said_warnings(w, &rep, 1, &n);
+    for (size_t e = 0; s && e < n; e++) {
+        if (plumbp_said_before(s, e) < e)
+            continue;
+        char who[PLUMB_NAME * 4] = "";
+        size_t count = 0, len = 0, last = SIZE_MAX;
+        for (size_t f = e; f < n; f++) {
+            if (s[f].item == last || strcmp(s[f].text, s[e].text) != 0)
                 continue;
-            char who[PLUMB_NAME * 4] = "";
-            size_t count = 0, len = 0;
-            for (size_t j = i; j < rep->n_items; j++) {
-                if (!plumbp_item_has_warning(&rep->items[j], text))
-                    continue;
-                int n = snprintf(who + len, sizeof who - len, "%s%s", count ? ", " : "",
-                                 rep->items[j].spec->name);
-                if (n > 0 && (size_t)n < sizeof who - len)
-                    len += (size_t)n;
-                count++;
-            }
-            fn(w, count == rep->n_items ? "" : who, text);
+            last = s[f].item;
+            int k = snprintf(who + len, sizeof who - len, "%s%s", count ? ", " : "",
+                             rep->items[s[f].item].spec->name);
+            if (k > 0 && (size_t)k < sizeof who - len)
+                len += (size_t)k;
+            count++;
         }
+        fn(w, count == rep->n_items ? "" : who, s[e].text);
+    }
+    plumbp_said_free(s, n);
 }
 
 void plumbp_text_warning_line(writer *w, const char *who, const char *text)
 {
-    char line[PLUMB_NAME * 4 + PLUMB_WARNING + 8];
+    char line[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 8];
     snprintf(line, sizeof line, "%s%s%s", who, who[0] ? ": " : "", text);
     wrapped(w, "  - ", line);
 }
@@ -263,7 +304,7 @@ plumb_status plumbp_writer_close(writer *w, char **buf, size_t *len, FILE *out, 
     if (w->bad)
         st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no report "
                                                "written");
-    else if (failed)
+    else if (failed || w->nomem)
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
     else
         st = emit(out, *buf, *len, diag);

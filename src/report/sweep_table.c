@@ -4,6 +4,7 @@
  * verdicts and the warnings counted over the rows.
  */
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -45,7 +46,8 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
     case PLUMB_DIM_DENSITY:
         return w->us ? (shown){si * ft * ft * ft / PLUMB_LB_KG, "lb/ft³"} : (shown){si, "kg/m³"};
     case PLUMB_DIM_LAPSE:
-        return (shown){si * 1000.0, "K/km"};
+        return w->us ? (shown){si * FAHRENHEIT_PER_K * 1000.0 * ft, "°F/1000 ft"}
+                     : (shown){si * 1000.0, "K/km"};
     case PLUMB_DIM_FRACTION:
     case PLUMB_DIM_NONE:
     default:
@@ -370,51 +372,46 @@ static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int 
     }
 }
 
-/* Calls fn once for each distinct warning of any row and item of a sweep,
- * with the number of rows it appears in. */
+/* Calls fn once for each distinct warning of any row and item of a sweep
+ * as shown (the same sentence from rows whose figures differ only beyond
+ * the digits shown is one), with the number of rows it appears in. */
 static void each_sweep_warning(writer *w, const plumb_sweep *sw,
                                void (*fn)(writer *w, const char *text, size_t rows, size_t of))
 {
-    size_t nr = plumb_sweep_row_count(sw);
-    for (size_t i = 0; i < nr; i++) {
-        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, i)->report;
-        for (size_t it = 0; it < rep->n_items; it++) {
-            const plumb_item_report *item = &rep->items[it];
-            for (size_t k = 0; k < item->n_warnings; k++) {
-                const char *text = item->warnings[k];
-                int seen = 0; /* already reported from an earlier row or item */
-                for (size_t j = 0; j <= i && !seen; j++) {
-                    const plumb_fall_report *rj = &plumb_sweep_row_at(sw, j)->report;
-                    size_t last = j < i ? rj->n_items : it;
-                    for (size_t t = 0; t < last && !seen; t++)
-                        seen = plumbp_item_has_warning(&rj->items[t], text);
-                }
-                if (seen)
-                    continue;
-                size_t rows = 0;
-                for (size_t j = 0; j < nr; j++) {
-                    const plumb_fall_report *rj = &plumb_sweep_row_at(sw, j)->report;
-                    int in = 0;
-                    for (size_t t = 0; t < rj->n_items && !in; t++)
-                        in = plumbp_item_has_warning(&rj->items[t], text);
-                    rows += (size_t)in;
-                }
-                fn(w, text, rows, nr);
-            }
-        }
+    size_t nr = plumb_sweep_row_count(sw), n = 0;
+    const plumb_fall_report **reps = calloc(nr ? nr : 1, sizeof *reps);
+    if (!reps) {
+        w->nomem = 1;
+        return;
     }
+    for (size_t i = 0; i < nr; i++)
+        reps[i] = &plumb_sweep_row_at(sw, i)->report;
+    said_warning *s = plumbp_said_warnings(w, reps, nr, &n);
+    for (size_t e = 0; s && e < n; e++) {
+        if (plumbp_said_before(s, e) < e)
+            continue;
+        size_t rows = 0, last = SIZE_MAX;
+        for (size_t f = e; f < n; f++)
+            if (s[f].report != last && strcmp(s[f].text, s[e].text) == 0) {
+                last = s[f].report;
+                rows++;
+            }
+        fn(w, s[e].text, rows, nr);
+    }
+    plumbp_said_free(s, n);
+    free(reps);
 }
 
 static void text_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
 {
-    char line[PLUMB_WARNING + 64];
+    char line[PLUMB_WARNING * 2 + 64];
     snprintf(line, sizeof line, "%s (%zu of %zu rows)", text, rows, of);
     wrapped(w, "  - ", line);
 }
 
 static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
 {
-    char line[PLUMB_WARNING + 64];
+    char line[PLUMB_WARNING * 2 + 64];
     snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
     csv_comment(w, line);
 }

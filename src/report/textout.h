@@ -40,6 +40,8 @@ typedef struct writer {
     int bad;                 /* a non-finite figure was asked for */
     int exact;               /* 1: echoing inputs (see qty) */
     int strict;              /* 1: an upper limit, rounded down (see qty) */
+    int sig;                 /* figures of a computed quantity; 0: TEXT_SIG (see qty) */
+    int nomem;               /* an allocation failed: the report is refused */
     char ring[RING][NUMBUF]; /* formatted numbers, reused round-robin */
     unsigned next;
 } writer;

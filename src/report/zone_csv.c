@@ -148,8 +148,11 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
     }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
-        for (size_t k = 0; k < r->n_warnings; k++)
-            put(w, "# warning: %s: %s\n", rep->items[i].name, r->warnings[k]);
+        for (size_t k = 0; k < r->n_warnings; k++) {
+            char text[PLUMB_ZONE_WARNING * 2];
+            put(w, "# warning: %s: %s\n", rep->items[i].name,
+                plumbp_t_warning(w, r->warnings[k], text, sizeof text));
+        }
     }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;

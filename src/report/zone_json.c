@@ -184,7 +184,7 @@ static json_t *j_zone(jctx *j, const plumb_zone_result *r)
     jset(j, o, "impact_point_fixed", json_boolean(r->zone.impact_point_fixed));
     json_t *warn = jarr(j);
     for (size_t i = 0; i < r->n_warnings; i++)
-        jpush(j, warn, jstr(j, r->warnings[i]));
+        jpush(j, warn, jwarning(j, r->warnings[i]));
     jset(j, o, "warnings", warn);
     j_stats_into(j, o, &r->zone);
     json_t *rules = jobj(j);

@@ -276,9 +276,11 @@ json_t *plumbp_zone_geojson(jctx *j, const plumb_report_options *opt,
     json_t *warn = jarr(j);
     for (size_t i = 0; i < rep->n_items; i++)
         for (size_t k = 0; k < rep->items[i].result->n_warnings; k++) {
-            char buf[PLUMB_NAME + PLUMB_ZONE_WARNING + 4];
+            char buf[PLUMB_NAME + PLUMB_ZONE_WARNING * 2 + 4], text[PLUMB_ZONE_WARNING * 2];
+            if (!plumbp_warning_plain(rep->items[i].result->warnings[k], 0, text, sizeof text))
+                j->bad = 1;
             snprintf(buf, sizeof buf, "%s%s%s", rep->inventory ? rep->items[i].name : "",
-                     rep->inventory ? ": " : "", rep->items[i].result->warnings[k]);
+                     rep->inventory ? ": " : "", text);
             jpush(j, warn, jstr(j, buf));
         }
     jset(j, pr, "warnings", warn);

@@ -16,6 +16,7 @@
 #include "plumb/constants.h"
 #include "plumb/report.h"
 #include "plumb/dispersion.h"
+#include "plumb/glide.h"
 #include "core/internal.h"
 #include "report/jsonout.h"
 #include "report/format.h"
@@ -148,7 +149,7 @@ static void text_gusts(writer *w, const plumb_zone_result *r)
     snprintf(line, sizeof line,
              "%s (MIL-F-8785C low altitude), W20 %s: each sample falls through its own "
              "realisation", r->gust_model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
-             plumbp_t_speed(w, r->gust_w20_m_s));
+             plumbp_t_wind(w, r->gust_w20_m_s));
     wrapped(w, "  wind.turbulence            ", line);
 }
 
@@ -376,12 +377,17 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
     put(w, "  %-26s %s\n", "radius = drop height", t_len(w, z->drop_height_m));
     char line[256];
     if (z->glide_ratio_max > 0.0) {
+        /* the published source of the largest ratio: a tumbling plate's
+         * (Smith), or a fluttering one's (Tinklenberg et al.) */
+        int tumbling = z->glide_ratio_max >= PLUMB_GLIDE_TUMBLE_RATIO;
         snprintf(line, sizeof line,
                  "up to %s (%s x the drop height): a plate gliding in still air, published "
-                 "range of glide ratios 0 to %s; \"radius = drop height\" is not conservative "
-                 "for it (plumb/glide.h)",
+                 "range of glide ratios 0 to %s (%s); \"radius = drop height\" is not "
+                 "conservative for it",
                  t_len(w, z->glide_ratio_max * z->drop_height_m),
-                 num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4));
+                 num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4),
+                 tumbling ? "tumbling plates, Smith 1970"
+                          : "fluttering plates, Tinklenberg et al. 2023");
         wrapped(w, "  plate glide                ", line);
     }
     const char *speed = plumbp_t_speed(w, z->max_release_speed_m_s);
@@ -406,8 +412,10 @@ static void text_warnings(writer *w, const plumb_zone_result *r)
     if (r->n_warnings == 0)
         return;
     put(w, "Warnings\n");
-    for (size_t i = 0; i < r->n_warnings; i++)
-        wrapped(w, "  - ", r->warnings[i]);
+    for (size_t i = 0; i < r->n_warnings; i++) {
+        char text[PLUMB_ZONE_WARNING * 2];
+        wrapped(w, "  - ", plumbp_t_warning(w, r->warnings[i], text, sizeof text));
+    }
     put(w, "\n");
 }
 

@@ -782,10 +782,10 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
         if (res->zone.impact_point_fixed)
             plumb_zone_add_warning(
                 res, "impact_point_fixed: the uncertain inputs do not move the impact point "
-                     "(every sample lands within %g mm of the same point), so the radii are "
+                     "(every sample lands within " PLUMBP_Q_SMALL " of the same point), so the radii are "
                      "the drift of one fall, not a zone. Give the uncertainty of the wind, "
                      "the release point or the release velocity to size one.",
-                1e3 * PLUMB_ZONE_FIXED_M);
+                PLUMB_ZONE_FIXED_M);
     }
     /* Pass 1: released where the median impact falls on the target. */
     if (st == PLUMB_OK && zone->has_target) {

@@ -89,6 +89,10 @@ done
 golden air.text air
 golden air.json air --alt 0m:20km:1km --format json
 golden air.csv air --alt 0m:20km:1km --format csv
+# US units where an input is not a plain conversion: a lapse rate in
+# °F/1000 ft, a temperature offset in °F with its kelvin in brackets
+golden surface-air.us.text fall tests/cli/profiles/surface-air.yaml --units us
+golden air.us.text air --alt 0m:3km:1km --temperature-offset 10K --units us
 
 # ---- help, version, usage errors ------------------------------------------
 expect_status 0 "--help" --help
