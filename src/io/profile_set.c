@@ -75,6 +75,12 @@ plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const 
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s' (did you mean '%.*s%s'?)", key,
                                       (int)start, key, best);
+            const char *under = plumby_schema_nested(cur, s->name);
+            if (under)
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s': '%s' is a key of '%s' (did you mean "
+                                      "'%.*s%s.%s'?)", key, s->name, under, (int)start, key,
+                                      under, s->name);
             return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                   "unknown key '%s': '%s' is not a key of %s", key, s->name,
                                   start ? "this map" : "a profile");

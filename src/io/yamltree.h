@@ -188,6 +188,11 @@ const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *n
 /* Closest child name of a map schema to `name` (did-you-mean), or NULL. */
 const char *plumby_schema_suggest(const plumby_schema *map, const char *name);
 
+/* The name of the child map of a map schema that has a key `name` ("drag"
+ * for "area" in payload: the key is one level deeper than written), or
+ * NULL. */
+const char *plumby_schema_nested(const plumby_schema *map, const char *name);
+
 /* Checks a tree against a schema: every key known (with a did-you-mean
  * otherwise), every value of the right kind (scalar, map, list), words in
  * their lists. `key` is the dotted key of node ("" at the top). */

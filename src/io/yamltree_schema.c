@@ -62,6 +62,19 @@ const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
     return best;
 }
 
+const char *plumby_schema_nested(const plumby_schema *map, const char *name)
+{
+    if (!map || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
+        return NULL;
+    for (size_t i = 0; i < map->n_sub; i++) {
+        const plumby_schema *c = &map->sub[i];
+        if ((c->type == PLUMBY_T_MAP || c->type == PLUMBY_T_MAP_OR_LIST) &&
+            plumby_schema_child(c, name))
+            return c->name;
+    }
+    return NULL;
+}
+
 plumb_dim plumby_num_dim(const plumby_schema *s)
 {
     return s->key ? s->key->dim : s->dim;
@@ -140,6 +153,11 @@ static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
             if (best)
                 return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
                                     "unknown key '%s' (did you mean '%s'?)", p->key, best);
+            const char *under = plumby_schema_nested(s, p->key);
+            if (under)
+                return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                    "unknown key '%s' here; it is a key of '%s' (did you mean "
+                                    "'%s.%s'?)", p->key, under, under, p->key);
             char list[512];
             size_t used = 0;
             list[0] = '\0';
