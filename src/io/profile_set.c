@@ -13,6 +13,8 @@
 
 #include "plumb/suggest.h"
 #include "io/profile_int.h"
+#include "io/units_int.h"
+#include "io/vary.h"
 
 /* ---- key paths (overrides and plumb_profile_key_dim) -------------------- */
 
@@ -177,6 +179,25 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
     *dim = s->type == PLUMBY_T_NUM ? plumby_num_dim(s) : PLUMB_DIM_NONE;
     return PLUMB_OK;
+}
+
+/* A direction is an angle of any value (wind.from, a heading, a wind
+ * table's from): the keys that take a compass point alone. */
+int plumbp_key_is_direction(const char *key)
+{
+    keypath kp;
+    if (!key || plumbp_profile_keypath_resolve(key, &kp, NULL, 0, NULL) != PLUMB_OK)
+        return 0;
+    const plumby_schema *s = kp.seg[kp.n - 1].schema;
+    if (s && s->type == PLUMBY_T_LIST && kp.seg[kp.n - 1].index != KSEG_NONE)
+        s = &s->sub[0];
+    return s && s->type == PLUMBY_T_NUM && plumby_num_dim(s) == PLUMB_DIM_ANGLE &&
+           plumby_num_range(s) == PLUMBY_R_ANY;
+}
+
+double plumbp_direction_bearing(const char *text)
+{
+    return text ? plumbp_units_compass_bearing(text) : -1.0;
 }
 
 /* ---- overrides --------------------------------------------------------- */
