@@ -596,6 +596,51 @@ static plumb_status slot_resolve(plumbp_set_items *nb, plumby_node *root, keypat
                        k + 1);
 }
 
+plumb_status plumbp_set_items_numbers(plumbp_set_items *nb, plumby_node *root,
+                                      plumb_profile *p)
+{
+    plumby_node *list = items_list(root);
+    if (!list || list->n == 0)
+        return PLUMB_OK;
+    if (!nb->ready && slots_capture(nb, root) != 0)
+        return PLUMB_ENOMEM;
+    p->item_no = malloc(list->n * sizeof *p->item_no);
+    p->slot_removed_by = calloc(nb->n ? nb->n : 1, sizeof *p->slot_removed_by);
+    if (!p->item_no || !p->slot_removed_by)
+        return PLUMB_ENOMEM;
+    p->n_slots = nb->n;
+    p->n_item_no = list->n;
+    for (size_t k = 0; k < nb->n; k++)
+        p->slot_removed_by[k] = nb->node[k] ? 0 : nb->removed_by[k] ? nb->removed_by[k] : -1;
+    for (size_t j = 0; j < list->n; j++) {
+        long k = slot_of(nb, list->items[j]);
+        /* every item now in the list holds a slot (slot_resolve, slot_push) */
+        p->item_no[j] = k >= 0 ? (size_t)k + 1 : j + 1;
+    }
+    return PLUMB_OK;
+}
+
+plumb_status plumbp_set_items_seed(plumbp_set_items *nb, plumby_node *root,
+                                   const plumb_profile *base)
+{
+    plumby_node *list = items_list(root);
+    if (!list || !base->item_no || base->n_item_no != list->n)
+        return PLUMB_OK; /* counted from the tree as it is, on first use */
+    nb->n = 0;
+    nb->ready = 1;
+    for (size_t k = 0; k < base->n_slots; k++) {
+        if (slot_push(nb, NULL) != 0)
+            return PLUMB_ENOMEM;
+        nb->removed_by[k] = base->slot_removed_by[k] > 0 ? base->slot_removed_by[k] : 0;
+    }
+    for (size_t j = 0; j < list->n; j++) {
+        size_t k = base->item_no[j] - 1;
+        if (k < nb->n)
+            nb->node[k] = list->items[j];
+    }
+    return PLUMB_OK;
+}
+
 /* Refuses a --set of payload.X on an inventory, and of items[N].X on a
  * profile of one payload: the schema would blame the file's own key, far
  * from the --set that is wrong. */
@@ -777,6 +822,16 @@ const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, in
     keypath kp;
     if (!p || !key || !p->tree || plumbp_profile_keypath_resolve(key, &kp, NULL, 0, NULL) != PLUMB_OK)
         return NULL;
+    if (p->item_no && strcmp(kp.seg[0].name, PLUMBY_ITEMS_KEY) == 0 && kp.seg[0].index >= 0) {
+        /* items[N] as written: the item's place in the list now */
+        long at = -1;
+        for (size_t i = 0; i < p->n_item_no; i++)
+            if (p->item_no[i] == (size_t)kp.seg[0].index + 1)
+                at = (long)i;
+        if (at < 0)
+            return NULL;
+        kp.seg[0].index = at;
+    }
     const plumby_node *n = tree_get(p->tree, &kp);
     if (!n)
         return NULL;

@@ -175,7 +175,8 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         if (!plumb_fall_spec_field(&L->p->items[i], pr->key)) {
             if (L->p->inventory)
                 return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
-                                    "'%s' is not an input of item %zu (%s): %s", pr->key, i + 1,
+                                    "'%s' is not an input of item %zu (%s): %s", pr->key,
+                                    plumb_profile_item_number(L->p, i),
                                     L->p->items[i].name, unc_reason(pr->key));
             return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
                                 "'%s' cannot carry an uncertainty: %s", pr->key,

@@ -175,6 +175,9 @@ typedef struct plumby_ctx {
     const char *file;              /* file name for PLUMBY_FROM_FILE nodes */
     const plumb_units *units;      /* for numbers with units */
     plumb_diag *diag;              /* filled on error (may be NULL) */
+    const size_t *item_no;         /* the top-level items' numbers, from 1, as items[N]
+                                      counts them (NULL: place in the list + 1) */
+    size_t n_item_no;              /* entries in item_no */
 } plumby_ctx;
 
 /* Raises status at a position of the given origin. */

@@ -212,7 +212,10 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
         if (node->kind != PLUMBY_SEQ)
             return mismatch(ctx, node, s, key);
         for (size_t i = 0; i < node->n; i++) {
-            plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+            /* an inventory's items are named by their number as written */
+            size_t at = ctx->item_no && i < ctx->n_item_no && strcmp(key, PLUMBY_ITEMS_KEY) == 0
+                            ? ctx->item_no[i] - 1 : i;
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, at);
             plumb_status st = plumby_check(ctx, node->items[i], &s->sub[0], sub_key);
             if (st != PLUMB_OK)
                 return st;

@@ -294,6 +294,8 @@ void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const
     json_t *items = jarr(j);
     for (size_t i = 0; i < rep->n_items; i++) {
         json_t *io = jobj(j);
+        /* the number items[N] gives it: as written, kept after a removal */
+        jset(j, io, "item_number", jint(j, plumb_profile_item_number(rep->profile, i)));
         plumbp_j_item_into(j, io, &rep->items[i], rep->profile, &ia[i]);
         jpush(j, items, io);
     }

@@ -430,7 +430,7 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
         const plumb_item_report *it = &b->fall->items[b->order[r]];
         const char *cells[TABLE_COLS];
         int exceeds = 0;
-        cells[0] = sheet_fmt(d, "%zu", b->order[r] + 1);
+        cells[0] = sheet_fmt(d, "%zu", plumb_profile_item_number(b->profile, b->order[r]));
         cells[1] = sheet_esc(d, it->spec->name);
         cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
         cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
