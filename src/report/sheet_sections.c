@@ -169,15 +169,16 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
     }
     const plumb_zone_result *z = b->zone->items[b->zone_item].result;
     const plumb_zone_stats *s = &z->zone;
-    const char *who = b->zone->n_items > 1
-                          ? sheet_fmt(d, " (set by %s, the item with the largest radius)",
-                                      b->zone->items[b->zone_item].name)
-                          : "";
+    /* plain text: the sheet_fmt it goes into escapes it, once */
+    char who[PLUMB_NAME + 64] = "";
+    if (b->zone->n_items > 1)
+        snprintf(who, sizeof who, " (set by %s, the item with the largest radius)",
+                 b->zone->items[b->zone_item].name);
     sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s (%s) around the planned drop point",
                                   plumbp_t_len(P, s->clearance_radius_m),
                                   plumbp_t_len(S, s->clearance_radius_m)));
     sheet_para(d, font, sheet_fmt(d, "%s%% of impacts fall within this radius, taken as the upper "
-                                     "%s%% confidence bound from %zu samples%s%s%s.%s",
+                                     "%s%% confidence bound from %zu samples%s%s%s%s.",
                                   plumbp_trimmed(P, 100.0 * z->confidence, 2),
                                   plumbp_trimmed(P, 100.0 * z->ci_level, 2), z->samples,
                                   s->scatter_m > 0.0 ? ", plus a scatter allowance of " : "",
@@ -340,28 +341,26 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
 
 /* ---- 6. the inventory ------------------------------------------------------------ */
 
-static double table_row(sheet_doc *d, const double *cx, size_t n, const char *const *cells,
-                        const char *font, int draw)
-{
-    double w = sheet_width(d), h = 0.0;
-    for (size_t c = 0; c < n; c++) {
-        double cw = (c + 1 < n ? cx[c + 1] : 1.0) * w - cx[c] * w - 4.0;
-        double ch = sheet_text(d, d->left + cx[c] * w, d->y, cw, font, cells[c], draw);
-        if (ch > h)
-            h = ch;
-    }
-    return h;
-}
-
 enum { TABLE_COLS = 6 + PLUMB_MAX_VERDICTS };
 
-static void inventory_header(sheet_doc *d, const plumb_brief *b, const double *cx, size_t n,
-                             const char *bold)
+/* The table's type: 8 pt, smaller (by half points, to 6 pt) when the
+ * columns' longest words do not fit the width beside each other. */
+#define TABLE_PT_MAX SHEET_SMALL
+#define TABLE_PT_MIN 6.0
+/* Space between columns, pt (table_row leaves it at each column's right). */
+#define TABLE_PAD 4.0
+
+static void table_fonts(double pt, char *font, char *bold, size_t size)
 {
-    const char *cells[TABLE_COLS];
+    snprintf(font, size, "%s %.1f", SHEET_FONT, pt);
+    snprintf(bold, size, "%s Bold %.1f", SHEET_FONT, pt);
+}
+
+static void inventory_header_cells(sheet_doc *d, const plumb_brief *b, const char **cells)
+{
     cells[0] = "#";
     cells[1] = "Item";
-    cells[2] = sheet_fmt(d, "Mass");
+    cells[2] = "Mass";
     cells[3] = "Impact energy";
     for (size_t k = 0; k < b->n_criteria; k++)
         /* the key of section 2's list of criteria: an id does not fit a
@@ -369,6 +368,139 @@ static void inventory_header(sheet_doc *d, const plumb_brief *b, const double *c
         cells[4 + k] = sheet_fmt(d, "Ratio to\nC%zu", k + 1);
     cells[4 + b->n_criteria] = "Verdict";
     cells[5 + b->n_criteria] = "Drift";
+}
+
+/* Row r (worst first) of the table, as markup. The strings live in the
+ * ring of sheet_fmt: use them before making another row. */
+static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, const char **cells)
+{
+    writer *P = primary(d);
+    const plumb_item_report *it = &b->fall->items[b->order[r]];
+    int exceeds = 0;
+    cells[0] = sheet_fmt(d, "%zu", plumb_profile_item_number(b->profile, b->order[r]));
+    cells[1] = sheet_esc(d, it->spec->name);
+    cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
+    cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
+    for (size_t k = 0; k < b->n_criteria; k++) {
+        cells[4 + k] = "-";
+        for (size_t v = 0; v < it->n_verdicts; v++)
+            if (it->verdicts[v].criterion == b->criteria[k]) {
+                cells[4 + k] = sheet_fmt(d, "%s\n%s", num(P, it->verdicts[v].ratio, RATIO_SIG),
+                                         it->verdicts[v].exceeds ? "exceeds" : "within");
+                exceeds |= it->verdicts[v].exceeds;
+            }
+    }
+    cells[4 + b->n_criteria] = exceeds ? "<b>exceeds</b>" : "within all";
+    cells[5 + b->n_criteria] =
+        it->result.drift_m < DRIFT_SHOWN_M
+            ? "none"
+            : sheet_fmt(d, "%s toward %s", plumbp_t_len(P, it->result.drift_m),
+                        plumbp_t_bearing(P, it->result.bearing_deg));
+}
+
+/* Widens need[c] to the widest word of each cell (words end at a space or
+ * a line break; a number and its unit are joined by a no-break space and
+ * stay one word), in font. */
+static void widest_words(sheet_doc *d, const char *const *cells, size_t n, const char *font,
+                         double *need)
+{
+    for (size_t c = 0; c < n; c++) {
+        char word[FMT_LEN];
+        const char *p = cells[c];
+        while (*p) {
+            size_t len = strcspn(p, " \n");
+            if (len > 0 && len < sizeof word) {
+                memcpy(word, p, len);
+                word[len] = '\0';
+                double w = sheet_text_width(d, font, word) + TABLE_PAD + 1.0;
+                if (w > need[c])
+                    need[c] = w;
+            }
+            p += len;
+            p += strspn(p, " \n");
+        }
+    }
+}
+
+/* The columns' starts, fractions of the width, into cx, and the type size
+ * into *pt. Each column is at least as wide as its widest word, so that no
+ * word is broken inside it: "exceeds" and "(616.7 ft·lbf)" stay whole. The
+ * width left over goes to the columns that want more than their words,
+ * most to the item's name, as the shares below say. When the words alone
+ * do not fit, the type is made smaller; at TABLE_PT_MIN the columns are
+ * squeezed to fit and pango breaks what it must. */
+static void inventory_columns(sheet_doc *d, const plumb_brief *b, double *cx, double *pt)
+{
+    size_t n = 6 + b->n_criteria;
+    double W = sheet_width(d);
+    /* the shares wanted: #, item, mass, energy, one per criterion, verdict, drift */
+    double want[TABLE_COLS], ratio_w = 0.085, item_w = 0.47 - ratio_w * (double)b->n_criteria;
+    if (item_w < 0.16)
+        item_w = 0.16;
+    want[0] = 0.035;
+    want[1] = item_w;
+    want[2] = 0.095;
+    want[3] = 0.14;
+    for (size_t k = 0; k < b->n_criteria; k++)
+        want[4 + k] = ratio_w;
+    want[4 + b->n_criteria] = 0.09;
+    want[5 + b->n_criteria] = 0.12;
+    double need[TABLE_COLS], total = 0.0;
+    for (*pt = TABLE_PT_MAX;; *pt -= 0.5) {
+        char font[64], bold[64];
+        table_fonts(*pt, font, bold, sizeof font);
+        const char *cells[TABLE_COLS];
+        for (size_t c = 0; c < n; c++)
+            need[c] = 0.0;
+        inventory_header_cells(d, b, cells);
+        widest_words(d, cells, n, bold, need);
+        for (size_t r = 0; r < b->fall->n_items; r++) {
+            inventory_row_cells(d, b, r, cells);
+            widest_words(d, cells, n, font, need);
+        }
+        total = 0.0;
+        for (size_t c = 0; c < n; c++)
+            total += need[c];
+        if (total <= W || *pt - 0.5 < TABLE_PT_MIN)
+            break;
+    }
+    double width[TABLE_COLS];
+    if (total > W) {
+        for (size_t c = 0; c < n; c++)
+            width[c] = need[c] * W / total;
+    } else {
+        double more = 0.0;
+        for (size_t c = 0; c < n; c++)
+            more += fmax(want[c] * W - need[c], 0.0);
+        for (size_t c = 0; c < n; c++) {
+            double extra = more > 0.0 ? fmax(want[c] * W - need[c], 0.0) / more
+                                      : (c == 1 ? 1.0 : 0.0);
+            width[c] = need[c] + (W - total) * extra;
+        }
+    }
+    cx[0] = 0.0;
+    for (size_t c = 1; c < n; c++)
+        cx[c] = cx[c - 1] + width[c - 1] / W;
+}
+
+static double table_row(sheet_doc *d, const double *cx, size_t n, const char *const *cells,
+                        const char *font, int draw)
+{
+    double w = sheet_width(d), h = 0.0;
+    for (size_t c = 0; c < n; c++) {
+        double cw = (c + 1 < n ? cx[c + 1] : 1.0) * w - cx[c] * w - TABLE_PAD;
+        double ch = sheet_text(d, d->left + cx[c] * w, d->y, cw, font, cells[c], draw);
+        if (ch > h)
+            h = ch;
+    }
+    return h;
+}
+
+static void inventory_header(sheet_doc *d, const plumb_brief *b, const double *cx, size_t n,
+                             const char *bold)
+{
+    const char *cells[TABLE_COLS];
+    inventory_header_cells(d, b, cells);
     double h = table_row(d, cx, n, cells, bold, 0);
     sheet_need(d, h + 16.0);
     table_row(d, cx, n, cells, bold, 1);
@@ -382,19 +514,21 @@ static void inventory_header(sheet_doc *d, const plumb_brief *b, const double *c
 void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
 {
     char font[64], bold[64];
-    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_SMALL);
-    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_SMALL);
     writer *P = primary(d);
     sheet_heading(d, "6. Every item, worst first", 60.0);
+    /* markup made once: each name escaped once (sheet_fmt without \x02
+     * escapes what it is given, so a note built of two would escape the
+     * inner one twice: "nuts &amp;amp; bolts") */
+    const char *zone_note =
+        b->zone ? sheet_fmt(d, "\x02 The clearance zone is set by %s (largest clearance radius, %s).",
+                            sheet_esc(d, b->zone->items[b->zone_item].name),
+                            sheet_fmt(d, "%s", plumbp_t_len(P, b->zone->items[b->zone_item]
+                                                                   .result->zone.clearance_radius_m)))
+                : "";
     const char *note = sheet_fmt(
-        d, "%zu items, sorted by their largest ratio to a criterion. Worst: %s.%s", b->fall->n_items,
-        b->fall->items[b->order[0]].spec->name,
-        b->zone ? sheet_fmt(d, " The clearance zone is set by %s (largest clearance radius, %s).",
-                            b->zone->items[b->zone_item].name,
-                            plumbp_t_len(P, b->zone->items[b->zone_item].result->zone
-                                                .clearance_radius_m))
-                : "");
-    sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY), sheet_esc(d, note));
+        d, "\x02%zu items, sorted by their largest ratio to a criterion. Worst: %s.%s",
+        b->fall->n_items, sheet_esc(d, b->fall->items[b->order[0]].spec->name), zone_note);
+    sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY), note);
     if (b->n_criteria > 0) { /* the key of the ratio columns */
         char key[FMT_LEN] = "", body[64];
         size_t len = 0;
@@ -406,53 +540,19 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
                                       key));
     }
     size_t n = 6 + b->n_criteria;
-    /* column starts, fractions of the width: #, item, mass, energy, one
-     * ratio per criterion, verdict, drift; the item's name takes what the
-     * criteria leave */
-    double cx[TABLE_COLS], ratio_w = 0.085, item_w = 0.47 - ratio_w * (double)b->n_criteria;
-    if (item_w < 0.16)
-        item_w = 0.16;
-    cx[0] = 0.0;
-    cx[1] = 0.035;
-    cx[2] = cx[1] + item_w;
-    cx[3] = cx[2] + 0.095;
-    cx[4] = cx[3] + 0.14;
-    for (size_t k = 0; k < b->n_criteria; k++)
-        cx[5 + k] = cx[4 + k] + ratio_w;
-    cx[5 + b->n_criteria] = cx[4 + b->n_criteria] + 0.09;
-    /* a profile with very many criteria: squeeze everything to fit */
-    double end = cx[5 + b->n_criteria] + 0.12;
-    for (size_t c = 0; end > 1.0 && c < n; c++)
-        cx[c] /= end;
+    double cx[TABLE_COLS], pt;
+    inventory_columns(d, b, cx, &pt);
+    table_fonts(pt, font, bold, sizeof font);
     inventory_header(d, b, cx, n, bold);
     d->running = "6. Every item, worst first";
     for (size_t r = 0; r < b->fall->n_items; r++) {
-        const plumb_item_report *it = &b->fall->items[b->order[r]];
         const char *cells[TABLE_COLS];
-        int exceeds = 0;
-        cells[0] = sheet_fmt(d, "%zu", plumb_profile_item_number(b->profile, b->order[r]));
-        cells[1] = sheet_esc(d, it->spec->name);
-        cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
-        cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
-        for (size_t k = 0; k < b->n_criteria; k++) {
-            cells[4 + k] = "-";
-            for (size_t v = 0; v < it->n_verdicts; v++)
-                if (it->verdicts[v].criterion == b->criteria[k]) {
-                    cells[4 + k] = sheet_fmt(d, "%s\n%s", num(P, it->verdicts[v].ratio, RATIO_SIG),
-                                             it->verdicts[v].exceeds ? "exceeds" : "within");
-                    exceeds |= it->verdicts[v].exceeds;
-                }
-        }
-        cells[4 + b->n_criteria] = exceeds ? "<b>exceeds</b>" : "within all";
-        cells[5 + b->n_criteria] =
-            it->result.drift_m < DRIFT_SHOWN_M
-                ? "none"
-                : sheet_fmt(d, "%s toward %s", plumbp_t_len(P, it->result.drift_m),
-                            plumbp_t_bearing(P, it->result.bearing_deg));
+        inventory_row_cells(d, b, r, cells);
         double h = table_row(d, cx, n, cells, font, 0);
         if (d->y + h > d->bottom) {
             sheet_new_page(d);
             inventory_header(d, b, cx, n, bold);
+            inventory_row_cells(d, b, r, cells); /* the header used the ring */
         }
         table_row(d, cx, n, cells, font, 1);
         d->y += h + 1.5;
@@ -522,9 +622,15 @@ void sheet_section_cautions(sheet_doc *d)
 {
     char font[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
-    sheet_heading(d, "8. Cautions", 60.0);
     size_t n;
     const char *const *c = plumb_cautions(&n);
+    /* kept whole on one page: read together, and never a last page that
+     * holds only the end of the list under "(continued)" */
+    double keep = 0.0;
+    for (size_t i = 0; i < n; i++)
+        keep += sheet_text(d, d->left, d->y, sheet_width(d), font,
+                           sheet_fmt(d, "\u2022 %s", c[i]), 0) + GAP / 2.0;
+    sheet_heading(d, "8. Cautions", keep);
     for (size_t i = 0; i < n; i++)
         sheet_para(d, font, sheet_fmt(d, "\u2022 %s", c[i]));
 }
