@@ -542,6 +542,55 @@ check(not bbox_outside(pdf8), "section 6, eight criteria: no text outside the ma
 os.remove(kit8)
 os.remove(pdf8)
 
+# ---- twelve criteria: the ratio columns go on in a further table ---------------------
+# Twelve invented criteria (copies of eu-c1-80j with limits 21 .. 32 J) do
+# not fit beside each other even in 6.5 pt type: the ratios go on in a
+# table of their own ("Ratios to C11 to C12"), each word still whole, one
+# verdict word per (item, criterion) pair and one per item (the Verdict
+# column), as `plumb fall --format json` judges them with the same files.
+crit12 = os.path.join(tmp, "crit12")
+os.mkdir(crit12)
+with open(os.path.join(CRIT, "eu-c1-80j.yaml")) as f:
+    c1 = f.read()
+ids12 = []
+for i in range(1, 13):
+    cid = f"t{i:02d}-limit"
+    ids12.append(cid)
+    with open(os.path.join(crit12, cid + ".yaml"), "w") as f:
+        f.write(re.sub(r"(?m)^energy_limit: .*$", f"energy_limit: {20 + i} J",
+                       re.sub(r"(?m)^name: .*$", f"name: invented test limit {i}", c1)))
+k12 = os.path.join(tmp, "k12.yaml")
+with open(k12, "w") as f:
+    f.write("name: twelve criteria\nitems:\n"
+            "  - name: bolts\n    mass: 2.4 kg\n    drag: {cd: 1.0, area: 0.0063 m^2}\n"
+            "  - name: tie\n    mass: 0.085 kg\n    drag: {cd: 1.0, area: 0.0117 m^2}\n"
+            "release: {height: 20 m}\ncriteria: [" + ", ".join(ids12) + "]\n")
+pdf12 = os.path.join(tmp, "k12.pdf")
+rc, _, err = run("sheet", k12, "-o", pdf12, env={"PLUMB_CRITERIA_DIR": crit12})
+check(rc == 0, f"twelve criteria: exit {rc}: {err}")
+flat = [x for w in words(pdf12) for x in w.split()]
+try:
+    a = next(i for i in range(len(flat)) if flat[i:i + 3] == ["6.", "Every", "item,"])
+    z = next(i for i in range(a, len(flat)) if flat[i:i + 2] == ["7.", "Inputs"])
+    table = flat[a:z]
+except StopIteration:
+    table = []
+r12 = subprocess.run([PLUMB, "fall", k12, "--format", "json"], capture_output=True, text=True,
+                     env=dict(os.environ, LC_ALL="C", PLUMB_CRITERIA_DIR=crit12))
+items12 = json.loads(r12.stdout)["items"] if r12.returncode == 0 else []
+pairs = sum(len(i["criteria"]) for i in items12)
+vw = sum(1 for x in table if x in ("exceeds", "within"))
+check(pairs == 24 and vw == pairs + len(items12),
+      f"twelve criteria: {vw} verdict words, expected {pairs} + {len(items12)}")
+check(" ".join(table).count("Ratios to C") >= 2 and "C12" in table,
+      "twelve criteria: the ratio columns go on in a further table, to C12")
+hyph = [x for x in table if x.endswith("-") and not x.startswith("[")]
+check(not hyph, f"twelve criteria: words broken with a hyphen: {hyph[:5]}")
+check(not bbox_outside(pdf12), "twelve criteria: no text outside the margins")
+shutil.rmtree(crit12)
+os.remove(k12)
+os.remove(pdf12)
+
 # ---- names with markup characters: escaped once -----------------------------------
 # pango markup needs & and < escaped; text escaped twice reads "&amp;" in
 # the PDF (section 6's note and section 2's "set by" did). Every name is
