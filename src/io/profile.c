@@ -161,7 +161,8 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     plumb_status st;
     plumbp_set_items numbering;
     memset(&numbering, 0, sizeof numbering);
-    if (base && tree->kind == PLUMBY_MAP && plumbp_set_items_seed(&numbering, tree, base) != PLUMB_OK) {
+    if (base && tree->kind == PLUMBY_MAP &&
+        plumbp_set_items_seed(&numbering, tree, base) != PLUMB_OK) {
         plumbp_set_items_free(&numbering);
         plumby_free(tree);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");

@@ -607,12 +607,15 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
     /* markup made once: each name escaped once (sheet_fmt without \x02
      * escapes what it is given, so a note built of two would escape the
      * inner one twice: "nuts &amp;amp; bolts") */
-    const char *zone_note =
-        b->zone ? sheet_fmt(d, "\x02 The clearance zone is set by %s (largest clearance radius, %s).",
-                            sheet_esc(d, b->zone->items[b->zone_item].name),
-                            sheet_fmt(d, "%s", plumbp_t_len(P, b->zone->items[b->zone_item]
-                                                                   .result->zone.clearance_radius_m)))
-                : "";
+    const char *zone_note = "";
+    if (b->zone) {
+        const plumb_zone_item *zi = &b->zone->items[b->zone_item];
+        zone_note = sheet_fmt(d, "\x02 The clearance zone is set by %s (largest clearance radius, "
+                                 "%s).",
+                              sheet_esc(d, zi->name),
+                              sheet_fmt(d, "%s",
+                                        plumbp_t_len(P, zi->result->zone.clearance_radius_m)));
+    }
     const char *note = sheet_fmt(
         d, "\x02%zu items, sorted by their largest ratio to a criterion. Worst: %s.%s",
         b->fall->n_items, sheet_esc(d, b->fall->items[b->order[0]].spec->name), zone_note);
