@@ -917,6 +917,55 @@ static void test_items_are_numbered_from_one_and_by_name_in_overrides(void **sta
     plumb_profile_free(p);
 }
 
+/* design.md section 5: items are numbered one way everywhere. After
+ * --set 'items[2]=~' the items keep the numbers of the profile as written
+ * (1 and 3), an added item takes the next (4), a profile derived from it
+ * (a sweep's row, a limit's fall) counts items[N] the same way, and a
+ * loader's message names the item by that number. */
+static void test_items_keep_their_numbers_as_written_after_a_removal(void **state)
+{
+    (void)state;
+    const char *sets[] = {"items[2]=~",
+                          "items[4]={name: level, mass: 0.52 kg, drag: {cd_area: 0.004 m^2}}"};
+    plumb_profile *p = load_ok(KIT, sets, 2);
+    assert_int_equal(plumb_profile_item_count(p), 3);
+    assert_string_equal(plumb_profile_item(p, 1)->name, "glove");
+    assert_int_equal(plumb_profile_item_number(p, 0), 1);
+    assert_int_equal(plumb_profile_item_number(p, 1), 3);
+    assert_int_equal(plumb_profile_item_number(p, 2), 4);
+    assert_int_equal(plumb_profile_item_number(p, 3), 0);
+    assert_int_equal(plumb_profile_item_number(NULL, 0), 0);
+    int line, col;
+    assert_string_equal(plumb_profile_key_origin(p, "items[4].mass", &line, &col), "--set");
+    assert_null(plumb_profile_key_origin(p, "items[2].mass", &line, &col));
+
+    /* derived: items[3] is still the glove, items[2] still removed */
+    const char *more[] = {"items[3].mass=0.093 kg"};
+    plumb_profile *q = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_profile_derive(p, units, more, 1, &q, &d), PLUMB_OK);
+    assert_rel(plumb_profile_item(q, 1)->mass_kg, 0.093, 1e-15);
+    assert_rel(plumb_profile_item(q, 2)->mass_kg, 0.52, 1e-15);
+    assert_int_equal(plumb_profile_item_number(q, 1), 3);
+    plumb_profile_free(q);
+    const char *gone[] = {"items[2].mass=1 kg"};
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_profile_derive(p, units, gone, 1, &q, &d), PLUMB_EKEY);
+    assert_non_null(strstr(d.message, "items[2] was removed"));
+    /* a message of the loader names the item as written */
+    const char *bad[] = {"items[3].mass=-1 kg"};
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_profile_derive(p, units, bad, 1, &q, &d), PLUMB_ERANGE);
+    assert_string_equal(d.key, "items[3].mass");
+    plumb_profile_free(p);
+
+    /* without a removal the numbers are the places in the list */
+    p = load_ok(KIT, NULL, 0);
+    assert_int_equal(plumb_profile_item_number(p, 2), 3);
+    plumb_profile_free(p);
+}
+
 static void test_null_arguments_are_invalid(void **state)
 {
     (void)state;
@@ -1819,6 +1868,7 @@ int main(void)
         cmocka_unit_test(test_utf8_byte_order_mark_is_skipped),
         cmocka_unit_test(test_tabs_around_and_in_a_trailing_comment_are_accepted),
         cmocka_unit_test(test_items_are_numbered_from_one_and_by_name_in_overrides),
+        cmocka_unit_test(test_items_keep_their_numbers_as_written_after_a_removal),
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_design_md_section_5_example_loads_with_every_value_in_si),
         cmocka_unit_test(test_sha256_is_of_the_file_bytes),

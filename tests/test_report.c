@@ -293,7 +293,7 @@ static void test_cautions_appear_in_text_json_and_csv_fall_reports(void **state)
 
     char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
     assert_int_equal(st, PLUMB_OK);
-    const char *header = strstr(csv, "\nname,");
+    const char *header = strstr(csv, "\nitem_number,name,");
     assert_non_null(header);
     for (size_t i = 0; i < n; i++) {
         char line[512];
@@ -1014,7 +1014,7 @@ static void test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says(void **state)
     plumb_diag diag;
     char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
     assert_int_equal(st, PLUMB_OK);
-    assert_non_null(strstr(csv, "\n\"Spanner, \"\"3/8\"\" drive\",2.385,"));
+    assert_non_null(strstr(csv, "\n1,\"Spanner, \"\"3/8\"\" drive\",2.385,"));
     free(csv);
     plumb_profile_free(p);
 }
@@ -1029,7 +1029,7 @@ static void test_us_units_csv_names_columns_in_feet_and_pounds(void **state)
     char *csv = fall_report(p, &it, 1, PLUMB_FORMAT_CSV, PLUMB_UNITS_US, &st, &diag);
     assert_int_equal(st, PLUMB_OK);
     const char *h =
-        strstr(csv, "\nname,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,");
+        strstr(csv, "\nitem_number,name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,");
     assert_non_null(h);
     assert_non_null(strstr(h, ",us-part107-cat3_ratio,us-part107-cat3_verdict,"));
     const char *row = strchr(h + 1, '\n');
@@ -1092,6 +1092,7 @@ static void test_inventory_names_the_worst_item_and_the_largest_drift(void **sta
     assert_int_equal(json_array_size(json_object_get(root, "items")), 3);
     json_t *item1 = json_array_get(json_object_get(root, "items"), 1);
     assert_string_equal(json_string_value(json_object_get(item1, "name")), "Torque wrench");
+    assert_int_equal(json_integer_value(json_object_get(item1, "item_number")), 2);
     assert_true(json_is_object(json_object_get(item1, "impact")));
     assert_true(json_is_array(json_object_get(root, "cautions")));
     json_decref(root);
@@ -1105,9 +1106,10 @@ static void test_inventory_names_the_worst_item_and_the_largest_drift(void **sta
 
     char *csv = fall_report(p, items, 3, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI, &st, &diag);
     assert_int_equal(st, PLUMB_OK);
-    assert_non_null(strstr(csv, "\nRadio,0.412,"));
-    assert_non_null(strstr(csv, "\nTorque wrench,2.385,"));
-    assert_non_null(strstr(csv, "\nTag line,0.916,"));
+    /* each row starts with the item's number as items[N] counts it */
+    assert_non_null(strstr(csv, "\n1,Radio,0.412,"));
+    assert_non_null(strstr(csv, "\n2,Torque wrench,2.385,"));
+    assert_non_null(strstr(csv, "\n3,Tag line,0.916,"));
     free(csv);
     plumb_profile_free(p);
 }

@@ -291,6 +291,54 @@ static void test_a_row_that_never_lands_is_that_rows_error(void **state)
     plumb_profile_free(p);
 }
 
+/* A direction's range may start or end at a compass point. On the
+ * 16-point rose each point is 360/16 = 22.5 deg clockwise from the one
+ * before, N = 0 (the rose's definition; common practice, no source): NW is
+ * 315 deg, NE 45 deg. The values turn the way STEP turns (positive is
+ * clockwise, as bearings count) and so cross north when TO lies behind
+ * FROM: NW:NE:22.5deg is 315, 337.5, 360, 382.5, 405 deg, five values. */
+static void test_a_direction_range_may_run_between_compass_points(void **state)
+{
+    (void)state;
+    plumb_range r;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_range_parse_key(units, "wind.from=NW:NE:22.5deg", &r, &d), PLUMB_OK);
+    assert_string_equal(r.key, "wind.from");
+    assert_string_equal(r.unit, "deg");
+    assert_rel(r.from, 315.0, 1e-15);
+    assert_rel(r.to, 405.0, 1e-15);
+    assert_int_equal(r.n, 5);
+    /* anticlockwise from NE (45) to NW (315): 45, 0, -45 */
+    assert_int_equal(plumb_range_parse_key(units, "wind.from=ne:nw:-45 deg", &r, &d), PLUMB_OK);
+    assert_rel(r.from, 45.0, 1e-15);
+    assert_rel(r.to, -45.0, 1e-15);
+    assert_int_equal(r.n, 3);
+    /* a point at one end, degrees at the other; the heading is a direction */
+    assert_int_equal(plumb_range_parse_key(units, "release.velocity.heading=S:200deg:10deg", &r,
+                                           &d), PLUMB_OK);
+    assert_rel(r.from, 180.0, 1e-15);
+    assert_int_equal(r.n, 3);
+    assert_int_equal(plumb_range_parse_key(units, "wind.table[1].from=ESE:SE:11.25deg", &r, &d),
+                     PLUMB_OK);
+    assert_rel(r.from, 112.5, 1e-15);
+    assert_int_equal(r.n, 3);
+    /* degrees alone keep their own check of STEP's sign */
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_range_parse_key(units, "wind.from=315deg:45deg:22.5deg", &r, &d),
+                     PLUMB_ERANGE);
+    assert_string_equal(d.key, "--vary wind.from");
+    /* a compass point is no step, and no latitude */
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_range_parse_key(units, "wind.from=N:E:NE", &r, &d), PLUMB_EPARSE);
+    assert_string_equal(d.key, "--vary wind.from");
+    assert_non_null(strstr(d.message, "STEP 'NE' is a compass point"));
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_range_parse_key(units, "site.latitude=N:E:1deg", &r, &d), PLUMB_EPARSE);
+    assert_string_equal(d.key, "--vary site.latitude");
+    assert_non_null(strstr(d.message, "FROM 'N'"));
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -306,6 +354,7 @@ int main(void)
         cmocka_unit_test(test_values_are_written_as_a_user_would_type_them),
         cmocka_unit_test(test_two_ranges_past_the_row_cap_are_refused_before_running),
         cmocka_unit_test(test_a_row_that_never_lands_is_that_rows_error),
+        cmocka_unit_test(test_a_direction_range_may_run_between_compass_points),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

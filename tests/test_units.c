@@ -566,6 +566,23 @@ static void test_a_suggested_unit_is_of_the_wanted_dimension(void **state)
     lacks(m, "did you mean");
     has(m, "units of a length: m, km");
 
+    /* a unit of another dimension in another case: kg is a mass, so for an
+     * area "KG" gets no "did you mean kg" but the area units and why KG is
+     * unknown (SI Brochure, 9th ed., tables 2 and 7: symbols are
+     * case-sensitive; seen) */
+    m = message_of(state, "5 KG", PLUMB_DIM_AREA, PLUMB_EUNIT);
+    lacks(m, "did you mean");
+    has(m, "unit symbols are case-sensitive: KG is not a unit; kg is a mass");
+    has(m, "units of an area: m^2");
+    m = message_of(state, "10 KT", PLUMB_DIM_LENGTH, PLUMB_EUNIT);
+    lacks(m, "did you mean");
+    has(m, "KT is not a unit; kt is a speed");
+    has(m, "units of a length: m,");
+    m = message_of(state, "60 M", PLUMB_DIM_MASS, PLUMB_EUNIT);
+    lacks(m, "did you mean");
+    has(m, "M is the prefix mega, not a unit of its own; m is a length");
+    has(m, "units of a mass: kg,");
+
     m = message_of(state, "30 fet", PLUMB_DIM_LENGTH, PLUMB_EUNIT);
     has(m, "did you mean \"30 ft\"?");
     lacks(m, "case-sensitive");

@@ -158,6 +158,14 @@ int plumb_profile_is_inventory(const plumb_profile *p);
 size_t plumb_profile_item_count(const plumb_profile *p);
 const plumb_fall_spec *plumb_profile_item(const plumb_profile *p, size_t i);
 
+/* The number of item i as items[N] counts it, from 1: its place in the
+ * profile as written, before any --set removed an item (after --set
+ * 'items[2]=~' the items are 1, 3, 4 ...; an item a --set added takes the
+ * next number). i + 1 for a profile without removals or built in code; 0
+ * when i is out of range or p is NULL. Reports number their rows by it.
+ * Can't fail. */
+size_t plumb_profile_item_number(const plumb_profile *p, size_t i);
+
 /* The shape of item i if it was given by `shape:` (kind != NONE), else kind NONE. */
 const plumb_shape_spec *plumb_profile_item_shape(const plumb_profile *p, size_t i);
 

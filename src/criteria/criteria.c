@@ -155,7 +155,7 @@ static plumb_status load_one(const char *path, const char *stem, const plumb_uni
     free(buf);
     if (st != PLUMB_OK)
         return st;
-    plumby_ctx ctx = {path, units, diag};
+    plumby_ctx ctx = {.file = path, .units = units, .diag = diag};
     plumby_map m;
     int kind = 0, status = 0, exceeded = 0;
     memset(c, 0, sizeof *c);

@@ -61,6 +61,8 @@ void plumb_profile_free(plumb_profile *p)
     free(p->criteria);
     free(p->criteria_pos);
     free(p->unc);
+    free(p->item_no);
+    free(p->slot_removed_by);
     free(p);
 }
 
@@ -129,7 +131,7 @@ static plumb_status interpret(loader *L)
         for (size_t i = 0; i < items->n; i++) {
             plumby_map im;
             char key[PLUMB_DIAG_KEY];
-            plumby_key_join(key, sizeof key, "items", NULL, i);
+            plumby_key_join(key, sizeof key, "items", NULL, p->item_no ? p->item_no[i] - 1 : i);
             plumby_map_init(&im, &L->ctx, items->items[i], is, key);
             if ((st = plumbp_profile_read_item(L, &im, 1, &base, &p->items[i],
                                                &p->shapes[i])) != PLUMB_OK)
@@ -138,7 +140,8 @@ static plumb_status interpret(loader *L)
                 if (strcmp(p->items[j].name, p->items[i].name) == 0)
                     return plumby_raise_value(&im, "name", PLUMB_EKEY,
                                               "item name '%s' is used twice (also items[%zu])",
-                                              p->items[i].name, j + 1);
+                                              p->items[i].name,
+                                              plumb_profile_item_number(p, j));
         }
     }
     if ((st = plumbp_profile_read_criteria(L)) != PLUMB_OK ||
@@ -151,12 +154,19 @@ static plumb_status interpret(loader *L)
 
 /* Applies sets to tree (owned), checks and interprets it into *out. */
 static plumb_status build(const char *path, const char *sha, plumby_node *tree,
-                          const plumb_units *units, const char *const *sets, size_t n_sets,
-                          plumb_profile **out, plumb_diag *diag)
+                          const plumb_profile *base, const plumb_units *units,
+                          const char *const *sets, size_t n_sets, plumb_profile **out,
+                          plumb_diag *diag)
 {
     plumb_status st;
     plumbp_set_items numbering;
     memset(&numbering, 0, sizeof numbering);
+    if (base && tree->kind == PLUMBY_MAP &&
+        plumbp_set_items_seed(&numbering, tree, base) != PLUMB_OK) {
+        plumbp_set_items_free(&numbering);
+        plumby_free(tree);
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
+    }
     for (size_t i = 0; i < n_sets; i++) {
         if (!sets[i]) {
             plumbp_set_items_free(&numbering);
@@ -172,16 +182,22 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
             return st;
         }
     }
-    plumbp_set_items_free(&numbering);
     plumb_profile *p = calloc(1, sizeof *p);
     size_t plen = strlen(path);
     if (!p || !(p->path = malloc(plen + 1))) {
+        plumbp_set_items_free(&numbering);
         free(p);
         plumby_free(tree);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
     }
     memcpy(p->path, path, plen + 1);
     p->tree = tree;
+    st = tree->kind == PLUMBY_MAP ? plumbp_set_items_numbers(&numbering, tree, p) : PLUMB_OK;
+    plumbp_set_items_free(&numbering);
+    if (st != PLUMB_OK) {
+        plumb_profile_free(p);
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
+    }
     plumbp_strlcpy(p->sha256, sha, sizeof p->sha256);
 
     loader L;
@@ -189,6 +205,8 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     L.ctx.file = path;
     L.ctx.units = units;
     L.ctx.diag = diag;
+    L.ctx.item_no = p->item_no;
+    L.ctx.n_item_no = p->n_item_no;
     L.p = p;
     st = plumby_check(&L.ctx, tree, plumbp_profile_schema(), "");
     if (st == PLUMB_OK) {
@@ -223,7 +241,7 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     free(buf);
     if (st != PLUMB_OK)
         return st;
-    return build(path, sha, tree, units, sets, n_sets, out, diag);
+    return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
 plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t len,
@@ -245,7 +263,7 @@ plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t
                                    diag);
     if (st != PLUMB_OK)
         return st;
-    return build(name, sha, tree, units, sets, n_sets, out, diag);
+    return build(name, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,
@@ -263,7 +281,7 @@ plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *
     plumby_node *tree = plumby_copy(base->tree);
     if (!tree)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory copying the profile");
-    return build(base->path, base->sha256, tree, units, sets, n_sets, out, diag);
+    return build(base->path, base->sha256, tree, base, units, sets, n_sets, out, diag);
 }
 
 /* ---- accessors --------------------------------------------------------- */
@@ -277,6 +295,13 @@ size_t plumb_profile_item_count(const plumb_profile *p) { return p ? p->n_items 
 const plumb_fall_spec *plumb_profile_item(const plumb_profile *p, size_t i)
 {
     return p && i < p->n_items ? &p->items[i] : NULL;
+}
+
+size_t plumb_profile_item_number(const plumb_profile *p, size_t i)
+{
+    if (!p || i >= p->n_items)
+        return 0;
+    return p->item_no ? p->item_no[i] : i + 1;
 }
 
 const plumb_shape_spec *plumb_profile_item_shape(const plumb_profile *p, size_t i)

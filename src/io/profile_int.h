@@ -59,6 +59,14 @@ struct plumb_profile {
     plumb_job job;                   /* `job:`, "" where not given */
     int borrowed;                    /* 1: a variant (vary.c): only the struct and items are
                                         its own, the rest is its template's */
+    /* An inventory's numbering, as items[N] counts (profile_set.c): */
+    size_t *item_no;                 /* n_items: item i is items[item_no[i]], from 1; NULL:
+                                        items[i + 1] (no items, or built in code) */
+    size_t n_item_no;                /* entries in item_no: the list's length when loaded */
+    size_t n_slots;                  /* numbers given out: the items as written and any a
+                                        --set added */
+    int *slot_removed_by;            /* n_slots: 0 present, else the --set that removed it
+                                        (-1: removed with the whole list) */
 };
 
 /* kseg.index when the segment has no [index], or selects an item by name */
@@ -174,6 +182,17 @@ typedef struct plumbp_set_items {
 } plumbp_set_items;
 
 void plumbp_set_items_free(plumbp_set_items *numbering);
+/* Once the --set options are applied: p's item_no, n_slots and
+ * slot_removed_by from the numbering and the list in root. PLUMB_ENOMEM
+ * (nothing raised: the caller says so) is the only failure. */
+plumb_status plumbp_set_items_numbers(plumbp_set_items *numbering, plumby_node *root,
+                                      plumb_profile *p);
+/* Before the --set options of a derived profile: the numbering of base,
+ * whose tree root is a copy of, so that items[N] means the same item in
+ * every --set of a command however many steps apply them (a sweep's rows
+ * after the command's --set). PLUMB_ENOMEM is the only failure. */
+plumb_status plumbp_set_items_seed(plumbp_set_items *numbering, plumby_node *root,
+                                   const plumb_profile *base);
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
                                       plumbp_set_items *numbering, plumb_diag *diag);
 

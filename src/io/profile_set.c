@@ -13,6 +13,8 @@
 
 #include "plumb/suggest.h"
 #include "io/profile_int.h"
+#include "io/units_int.h"
+#include "io/vary.h"
 
 /* ---- key paths (overrides and plumb_profile_key_dim) -------------------- */
 
@@ -75,6 +77,13 @@ plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const 
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s' (did you mean '%.*s%s'?)", key,
                                       (int)start, key, best);
+            char path[PLUMB_DIAG_KEY];
+            const char *under = plumby_schema_nested(cur, s->name, path, sizeof path);
+            if (under)
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s': '%s' is a key of '%s' (did you mean "
+                                      "'%.*s%s.%s'?)", key, s->name, under, (int)start, key,
+                                      under, s->name);
             return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                   "unknown key '%s': '%s' is not a key of %s", key, s->name,
                                   start ? "this map" : "a profile");
@@ -171,6 +180,25 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
     *dim = s->type == PLUMBY_T_NUM ? plumby_num_dim(s) : PLUMB_DIM_NONE;
     return PLUMB_OK;
+}
+
+/* A direction is an angle of any value (wind.from, a heading, a wind
+ * table's from): the keys that take a compass point alone. */
+int plumbp_key_is_direction(const char *key)
+{
+    keypath kp;
+    if (!key || plumbp_profile_keypath_resolve(key, &kp, NULL, 0, NULL) != PLUMB_OK)
+        return 0;
+    const plumby_schema *s = kp.seg[kp.n - 1].schema;
+    if (s && s->type == PLUMBY_T_LIST && kp.seg[kp.n - 1].index != KSEG_NONE)
+        s = &s->sub[0];
+    return s && s->type == PLUMBY_T_NUM && plumby_num_dim(s) == PLUMB_DIM_ANGLE &&
+           plumby_num_range(s) == PLUMBY_R_ANY;
+}
+
+double plumbp_direction_bearing(const char *text)
+{
+    return text ? plumbp_units_compass_bearing(text) : -1.0;
 }
 
 /* ---- overrides --------------------------------------------------------- */
@@ -569,6 +597,51 @@ static plumb_status slot_resolve(plumbp_set_items *nb, plumby_node *root, keypat
                        k + 1);
 }
 
+plumb_status plumbp_set_items_numbers(plumbp_set_items *nb, plumby_node *root,
+                                      plumb_profile *p)
+{
+    plumby_node *list = items_list(root);
+    if (!list || list->n == 0)
+        return PLUMB_OK;
+    if (!nb->ready && slots_capture(nb, root) != 0)
+        return PLUMB_ENOMEM;
+    p->item_no = malloc(list->n * sizeof *p->item_no);
+    p->slot_removed_by = calloc(nb->n ? nb->n : 1, sizeof *p->slot_removed_by);
+    if (!p->item_no || !p->slot_removed_by)
+        return PLUMB_ENOMEM;
+    p->n_slots = nb->n;
+    p->n_item_no = list->n;
+    for (size_t k = 0; k < nb->n; k++)
+        p->slot_removed_by[k] = nb->node[k] ? 0 : nb->removed_by[k] ? nb->removed_by[k] : -1;
+    for (size_t j = 0; j < list->n; j++) {
+        long k = slot_of(nb, list->items[j]);
+        /* every item now in the list holds a slot (slot_resolve, slot_push) */
+        p->item_no[j] = k >= 0 ? (size_t)k + 1 : j + 1;
+    }
+    return PLUMB_OK;
+}
+
+plumb_status plumbp_set_items_seed(plumbp_set_items *nb, plumby_node *root,
+                                   const plumb_profile *base)
+{
+    plumby_node *list = items_list(root);
+    if (!list || !base->item_no || base->n_item_no != list->n)
+        return PLUMB_OK; /* counted from the tree as it is, on first use */
+    nb->n = 0;
+    nb->ready = 1;
+    for (size_t k = 0; k < base->n_slots; k++) {
+        if (slot_push(nb, NULL) != 0)
+            return PLUMB_ENOMEM;
+        nb->removed_by[k] = base->slot_removed_by[k] > 0 ? base->slot_removed_by[k] : 0;
+    }
+    for (size_t j = 0; j < list->n; j++) {
+        size_t k = base->item_no[j] - 1;
+        if (k < nb->n)
+            nb->node[k] = list->items[j];
+    }
+    return PLUMB_OK;
+}
+
 /* Refuses a --set of payload.X on an inventory, and of items[N].X on a
  * profile of one payload: the schema would blame the file's own key, far
  * from the --set that is wrong. */
@@ -750,6 +823,16 @@ const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, in
     keypath kp;
     if (!p || !key || !p->tree || plumbp_profile_keypath_resolve(key, &kp, NULL, 0, NULL) != PLUMB_OK)
         return NULL;
+    if (p->item_no && strcmp(kp.seg[0].name, PLUMBY_ITEMS_KEY) == 0 && kp.seg[0].index >= 0) {
+        /* items[N] as written: the item's place in the list now */
+        long at = -1;
+        for (size_t i = 0; i < p->n_item_no; i++)
+            if (p->item_no[i] == (size_t)kp.seg[0].index + 1)
+                at = (long)i;
+        if (at < 0)
+            return NULL;
+        kp.seg[0].index = at;
+    }
     const plumby_node *n = tree_get(p->tree, &kp);
     if (!n)
         return NULL;

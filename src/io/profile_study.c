@@ -13,6 +13,7 @@
 #include "plumb/suggest.h"
 #include "io/attitude.h"
 #include "io/profile_int.h"
+#include "io/units_int.h"
 
 plumb_status plumbp_profile_read_criteria(loader *L)
 {
@@ -94,9 +95,30 @@ static int split_plus_minus(const char *t, char *a, char *b, size_t size)
 }
 
 
-/* The unit part of a quantity's text ("9 mph" -> "mph"), trimmed. */
+/* A value of an uncertainty: for a direction (an angle of any value, which
+ * the loader reads as plumby_num_node does) a compass point alone is its
+ * bearing ("NW" is 315 deg), as in the key itself. */
+static plumb_status unc_quantity(const plumby_ctx *ctx, const plumby_node *node,
+                                 const plumby_schema *ks, plumb_dim dim, const char *key,
+                                 double *out)
+{
+    double bearing = dim == PLUMB_DIM_ANGLE && plumby_num_range(ks) == PLUMBY_R_ANY
+                         ? plumbp_units_compass_bearing(node->text) : -1.0;
+    if (bearing >= 0.0) {
+        *out = bearing; /* angles are read in degrees (units.h) */
+        return PLUMB_OK;
+    }
+    return plumby_quantity(ctx, node, dim, key, out);
+}
+
+/* The unit part of a quantity's text ("9 mph" -> "mph"), trimmed; "deg"
+ * for a compass point. */
 static void unit_text(const char *text, char *out, size_t size)
 {
+    if (plumbp_units_compass_bearing(text) >= 0.0) {
+        plumbp_strlcpy(out, "deg", size);
+        return;
+    }
     char *end = NULL;
     (void)strtod(text, &end);
     const char *u = end && end != text ? end : text;
@@ -153,7 +175,8 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         if (!plumb_fall_spec_field(&L->p->items[i], pr->key)) {
             if (L->p->inventory)
                 return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
-                                    "'%s' is not an input of item %zu (%s): %s", pr->key, i + 1,
+                                    "'%s' is not an input of item %zu (%s): %s", pr->key,
+                                    plumb_profile_item_number(L->p, i),
                                     L->p->items[i].name, unc_reason(pr->key));
             return plumby_raise(ctx, pr->origin, pr->line, pr->col, dkey, PLUMB_EINVAL,
                                 "'%s' cannot carry an uncertainty: %s", pr->key,
@@ -175,7 +198,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         na.text = a;
         nb.text = b;
         double x, tol;
-        if ((st = plumby_quantity(ctx, &na, dim, dkey, &x)) != PLUMB_OK ||
+        if ((st = unc_quantity(ctx, &na, ks, dim, dkey, &x)) != PLUMB_OK ||
             (st = plumby_quantity(ctx, &nb, dim == PLUMB_DIM_TEMPERATURE ? PLUMB_DIM_TEMP_DIFF : dim,
                                   dkey, &tol)) != PLUMB_OK)
             return st;
@@ -240,7 +263,9 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
         plumb_dim d = dim;
         if (kind == 0 && i == 1 && dim == PLUMB_DIM_TEMPERATURE)
             d = PLUMB_DIM_TEMP_DIFF;
-        if ((st = plumby_quantity(ctx, it, d, ikey, &u->param[i])) != PLUMB_OK)
+        int compass_ok = !(kind == 0 && i == 1); /* a standard deviation is no direction */
+        if ((st = compass_ok ? unc_quantity(ctx, it, ks, d, ikey, &u->param[i])
+                             : plumby_quantity(ctx, it, d, ikey, &u->param[i])) != PLUMB_OK)
             return st;
         int is_sd = kind == 0 && i == 1;
         if (is_sd && !(u->param[1] >= 0.0))

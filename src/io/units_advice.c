@@ -178,12 +178,51 @@ static size_t candidates(plumb_dim want, const char **cand, char *store, size_t 
     return n;
 }
 
+/* Dimensions whose units an unknown unit may be another case of. */
+static const plumb_dim case_order[] = {
+    PLUMB_DIM_LENGTH, PLUMB_DIM_MASS,     PLUMB_DIM_TIME,        PLUMB_DIM_SPEED,
+    PLUMB_DIM_AREA,   PLUMB_DIM_VOLUME,   PLUMB_DIM_ENERGY,      PLUMB_DIM_FORCE,
+    PLUMB_DIM_ANGLE,  PLUMB_DIM_PRESSURE, PLUMB_DIM_DENSITY,     PLUMB_DIM_TEMPERATURE,
+    PLUMB_DIM_LAPSE,
+};
+
+/* An unknown unit that is a unit of another dimension in another case
+ * ("KG" for an area: kg is a mass) gets a note saying so, since offering
+ * "kg" for an area would be wrong and saying nothing leaves the reader
+ * wondering why KG is unknown. Returns 1 when the note was written. */
+static int case_of_other_dimension(plumb_dim want, const char *unit, unit_advice *adv)
+{
+    const char *cand[UNITS_CANDIDATES];
+    char store[UNITS_SHOW_MAX * 2], lower[UNITS_SHOW_MAX], lc[UNITS_SHOW_MAX];
+    fold(unit, lower, sizeof lower);
+    for (size_t j = 0; j < sizeof case_order / sizeof case_order[0]; j++) {
+        plumb_dim d = case_order[j];
+        if (d == want || (want == PLUMB_DIM_TEMP_DIFF && d == PLUMB_DIM_TEMPERATURE))
+            continue;
+        size_t n = candidates(d, cand, store, sizeof store);
+        for (size_t i = 0; i < n; i++) {
+            fold(cand[i], lc, sizeof lc);
+            if (strcmp(lower, lc) != 0 || strcmp(unit, cand[i]) == 0)
+                continue;
+            const char *is = unit[1] == '\0' ? letter_is(unit[0]) : NULL;
+            snprintf(adv->note, sizeof adv->note,
+                     "unit symbols are case-sensitive: %.16s is %s%s; %.16s is %s %s", unit,
+                     is ? is : "not a unit", is ? ", not a unit of its own" : "", cand[i],
+                     dims[d].article, dims[d].name);
+            return 1;
+        }
+    }
+    return 0;
+}
+
 /* Looks for the unit of dimension `want` that `unit` was meant to be: a
  * known slip (unit_hints), the same letters in another case ("KG" -> "kg",
  * with a note that symbols are case-sensitive), or a near spelling. Only
  * units of the wanted dimension are offered, and a one- or two-letter unit
- * only for a change of case: "M" is one edit from "g", which says nothing. */
-static void advise(plumb_dim want, const char *unit, unit_advice *adv)
+ * only for a change of case: "M" is one edit from "g", which says nothing.
+ * An `unknown` unit that is another dimension's unit in another case gets
+ * a note naming that dimension instead ("KG" for an area). */
+static void advise(plumb_dim want, const char *unit, int unknown, unit_advice *adv)
 {
     memset(adv, 0, sizeof *adv);
     for (size_t i = 0; i < N_HINTS; i++)
@@ -217,6 +256,8 @@ static void advise(plumb_dim want, const char *unit, unit_advice *adv)
             snprintf(adv->note, sizeof adv->note, "unit symbols are case-sensitive");
         return;
     }
+    if (unknown && case_of_other_dimension(want, unit, adv))
+        return;
     size_t len = strlen(unit);
     int limit = len <= 2 ? 0 : len <= 4 ? 1 : 2;
     int best_d = limit + 1;
@@ -239,8 +280,8 @@ static void advice_tail(plumb_dim want, const char *number, const unit_advice *a
         snprintf(buf, size, "; did you mean \"%.*s %s\"?%s%s%s", UNITS_SHOW_MAX, number,
                  adv->use, adv->note[0] ? " (" : "", adv->note, adv->note[0] ? ")" : "");
     else if (dim_units[want][0])
-        snprintf(buf, size, "; units of %s %s: %s", dims[want].article, dims[want].name,
-                 dim_units[want]);
+        snprintf(buf, size, "%s%s%s; units of %s %s: %s", adv->note[0] ? " (" : "", adv->note,
+                 adv->note[0] ? ")" : "", dims[want].article, dims[want].name, dim_units[want]);
     else
         buf[0] = '\0';
 }
@@ -253,7 +294,7 @@ plumb_status plumbp_units_raise_unknown(plumb_diag *diag, plumb_dim want, const 
     char w[UNITS_SHOW_MAX + 64], tail[UNITS_SHOW_MAX * 5];
     plumbp_units_describe_want(want, w, sizeof w);
     unit_advice adv;
-    advise(want, unit, &adv);
+    advise(want, unit, 1, &adv);
     advice_tail(want, number, &adv, tail, sizeof tail);
     return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; unknown unit \"%.*s\" in \"%.*s\"%s", w,
                        UNITS_SHOW_MAX, unit, UNITS_SHOW_MAX, shown, tail);
@@ -268,7 +309,7 @@ plumb_status plumbp_units_raise_wrong(const plumb_units *units, plumb_diag *diag
     char w[UNITS_SHOW_MAX + 64], found[128], tail[UNITS_SHOW_MAX * 5];
     plumbp_units_describe_want(want, w, sizeof w);
     unit_advice adv;
-    advise(want, text, &adv);
+    advise(want, text, 0, &adv);
     if (describe_unit(units, unit, shape, found, sizeof found) != 0)
         snprintf(found, sizeof found, "a unit that is not %s %s", dims[want].article,
                  dims[want].name);

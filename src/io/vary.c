@@ -15,7 +15,7 @@
  * (profile_item.c, read_drag): 1 when one is given. */
 static int drag_source_given(const plumb_profile *p)
 {
-    plumby_ctx ctx = {p->path, NULL, NULL};
+    plumby_ctx ctx = {.file = p->path};
     plumby_map root, pm, dm;
     plumby_map_init(&root, &ctx, p->tree, plumbp_profile_schema(), "");
     plumby_sub(&root, "payload", &pm);

@@ -42,6 +42,15 @@
 #include "plumb/trajectory.h"
 #include "io/keys.h"
 
+/* 1 when `key` (as --set writes it) is a direction: an angle of any value,
+ * which a compass point alone may give (wind.from, release.velocity.heading,
+ * wind.table[N].from). Can't fail. */
+int plumbp_key_is_direction(const char *key);
+
+/* The bearing in degrees of a 16-point compass point written alone, any
+ * case ("NW" is 315), or -1 for any other text. Can't fail. */
+double plumbp_direction_bearing(const char *text);
+
 typedef struct plumbp_vary {
     const plumbp_key *k;    /* the key's row */
     const char *key;        /* the key as given to plumbp_vary_init (borrowed) */

@@ -175,6 +175,9 @@ typedef struct plumby_ctx {
     const char *file;              /* file name for PLUMBY_FROM_FILE nodes */
     const plumb_units *units;      /* for numbers with units */
     plumb_diag *diag;              /* filled on error (may be NULL) */
+    const size_t *item_no;         /* the top-level items' numbers, from 1, as items[N]
+                                      counts them (NULL: place in the list + 1) */
+    size_t n_item_no;              /* entries in item_no */
 } plumby_ctx;
 
 /* Raises status at a position of the given origin. */
@@ -187,6 +190,14 @@ const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *n
 
 /* Closest child name of a map schema to `name` (did-you-mean), or NULL. */
 const char *plumby_schema_suggest(const plumby_schema *map, const char *name);
+
+/* Where, below a map schema, the key `name` belongs when it was written
+ * too high: the dotted path of the nearest map (up to four levels down,
+ * a list's item written [N]) that has it ("drag" for "area" in payload,
+ * "release" for "downwash" at the top), written into path[size] and
+ * returned; NULL when no map below has it. */
+const char *plumby_schema_nested(const plumby_schema *map, const char *name, char *path,
+                                 size_t size);
 
 /* Checks a tree against a schema: every key known (with a did-you-mean
  * otherwise), every value of the right kind (scalar, map, list), words in

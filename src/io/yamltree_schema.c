@@ -62,6 +62,57 @@ const char *plumby_schema_suggest(const plumby_schema *map, const char *name)
     return best;
 }
 
+/* Appends ".part" (or "part" at the start) to path[size]; 0 when it does
+ * not fit (path unchanged). */
+static int path_push(char *path, size_t size, const char *part)
+{
+    size_t len = strlen(path);
+    int n = snprintf(path + len, size - len, "%s%s", len ? "." : "", part);
+    if (n < 0 || (size_t)n >= size - len) {
+        path[len] = '\0';
+        return 0;
+    }
+    return 1;
+}
+
+/* Breadth first, to `depth` levels below map: the path of the nearest
+ * map that has a key `name` (a list's item written [N]). */
+static int nested_below(const plumby_schema *map, const char *name, char *path, size_t size,
+                        int depth)
+{
+    size_t len = strlen(path);
+    for (size_t i = 0; i < map->n_sub; i++) {
+        const plumby_schema *c = &map->sub[i];
+        const plumby_schema *m = c->type == PLUMBY_T_LIST && c->n_sub ? &c->sub[0] : c;
+        if ((m->type == PLUMBY_T_MAP || m->type == PLUMBY_T_MAP_OR_LIST) &&
+            plumby_schema_child(m, name) && path_push(path, size, c->name) &&
+            (m == c || path_push(path, size, "[N]")))
+            return 1;
+        path[len] = '\0';
+    }
+    if (depth <= 1)
+        return 0;
+    for (size_t i = 0; i < map->n_sub; i++) {
+        const plumby_schema *c = &map->sub[i];
+        const plumby_schema *m = c->type == PLUMBY_T_LIST && c->n_sub ? &c->sub[0] : c;
+        if ((m->type == PLUMBY_T_MAP || m->type == PLUMBY_T_MAP_OR_LIST) &&
+            path_push(path, size, c->name) && (m == c || path_push(path, size, "[N]")) &&
+            nested_below(m, name, path, size, depth - 1))
+            return 1;
+        path[len] = '\0';
+    }
+    return 0;
+}
+
+const char *plumby_schema_nested(const plumby_schema *map, const char *name, char *path,
+                                 size_t size)
+{
+    if (!map || !size || (map->type != PLUMBY_T_MAP && map->type != PLUMBY_T_MAP_OR_LIST))
+        return NULL;
+    path[0] = '\0';
+    return nested_below(map, name, path, size, 4) ? path : NULL;
+}
+
 plumb_dim plumby_num_dim(const plumby_schema *s)
 {
     return s->key ? s->key->dim : s->dim;
@@ -127,32 +178,6 @@ static plumb_status mismatch(const plumby_ctx *ctx, const plumby_node *node,
                         "expected %s, found %s", want, found);
 }
 
-/* The dotted path, below s, of the first key called `name` (a list's item
- * written [N]): 1 with it in path[size], 0 when none. For a key written
- * one or more levels too high ("downwash" for release.downwash). */
-static int find_below(const plumby_schema *s, const char *name, char *path, size_t size,
-                      int depth)
-{
-    if (depth > 6)
-        return 0;
-    for (size_t k = 0; k < s->n_sub; k++) {
-        const plumby_schema *c = &s->sub[k];
-        const char *sep = *path && *c->name ? "." : "";
-        const char *own = *c->name ? c->name : "[N]";
-        size_t len = strlen(path);
-        if (snprintf(path + len, size - len, "%s%s", sep, own) >= (int)(size - len)) {
-            path[len] = '\0';
-            continue;
-        }
-        if (*c->name && depth > 0 && strcmp(c->name, name) == 0)
-            return 1;
-        if (c->sub && find_below(c, name, path, size, depth + 1))
-            return 1;
-        path[len] = '\0';
-    }
-    return 0;
-}
-
 static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
                               const plumby_schema *s, const char *key)
 {
@@ -166,17 +191,18 @@ static plumb_status check_map(const plumby_ctx *ctx, const plumby_node *node,
             if (best)
                 return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
                                     "unknown key '%s' (did you mean '%s'?)", p->key, best);
+            char path[PLUMB_DIAG_KEY];
+            const char *under = plumby_schema_nested(s, p->key, path, sizeof path);
+            if (under)
+                return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
+                                    "unknown key '%s' here; it is a key of '%s' (did you mean "
+                                    "'%s.%s'?)", p->key, under, under, p->key);
             char list[512];
             size_t used = 0;
             list[0] = '\0';
             for (size_t k = 0; k < s->n_sub && used < sizeof list; k++)
                 used += (size_t)snprintf(list + used, sizeof list - used, "%s%s", k ? ", " : "",
                                          s->sub[k].name);
-            char below[PLUMB_DIAG_KEY] = "";
-            if (find_below(s, p->key, below, sizeof below, 0))
-                return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
-                                    "unknown key '%s' here (did you mean %s%s%s? keys "
-                                    "here: %s)", p->key, key, *key ? "." : "", below, list);
             return plumby_raise(ctx, p->origin, p->line, p->col, sub_key, PLUMB_EKEY,
                                 "unknown key '%s' (keys here: %s)", p->key, list);
         }
@@ -225,7 +251,10 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
         if (node->kind != PLUMBY_SEQ)
             return mismatch(ctx, node, s, key);
         for (size_t i = 0; i < node->n; i++) {
-            plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+            /* an inventory's items are named by their number as written */
+            size_t at = ctx->item_no && i < ctx->n_item_no && strcmp(key, PLUMBY_ITEMS_KEY) == 0
+                            ? ctx->item_no[i] - 1 : i;
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, at);
             plumb_status st = plumby_check(ctx, node->items[i], &s->sub[0], sub_key);
             if (st != PLUMB_OK)
                 return st;

@@ -36,7 +36,8 @@ typedef struct shown {
 
 void plumbp_csv_cautions(writer *w);
 size_t plumbp_csv_header_cols(writer *w, const plumb_item_report *first);
-void plumbp_csv_item_cols(writer *w, const plumb_item_report *it);
+/* `number` is the item's as items[N] counts it (plumb_profile_item_number). */
+void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number);
 void plumbp_csv_fall(writer *w, const plumb_fall_report *rep);
 json_t *plumbp_j_air(jctx *j, const plumb_air *a);
 void plumbp_j_item_into(jctx *j, json_t *o, const plumb_item_report *it, const plumb_profile *p,

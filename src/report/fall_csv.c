@@ -30,13 +30,15 @@ void plumbp_csv_cautions(writer *w)
         csv_comment(w, c[i]);
 }
 
-/* The names of one item's columns, in US and SI units. */
+/* The names of one item's columns, in US and SI units. item_number is the
+ * item's number as items[N] counts it: as the profile is written, so after
+ * --set 'items[2]=~' the rows are 1, 3 ... (design.md section 5). */
 static const char csv_item_cols_us[] =
-    "name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
+    "item_number,name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
     "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
     "drag_free_speed_ft_s,drag_free_energy_ft_lbf";
 static const char csv_item_cols_si[] =
-    "name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
+    "item_number,name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
     "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
     "drag_free_speed_m_s,drag_free_energy_j";
 
@@ -76,9 +78,10 @@ static const char *csv_bearing(writer *w, const plumb_fall_result *r)
 }
 
 /* One item's columns, the line left open. */
-void plumbp_csv_item_cols(writer *w, const plumb_item_report *it)
+void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
 {
     const plumb_fall_result *r = &it->result;
+    put(w, "%zu,", number);
     csv_field(w, it->spec->name);
     if (w->us) {
         double ft = PLUMB_FT_M;
@@ -108,9 +111,9 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it)
 }
 
 /* One item's columns, ending the row. */
-static void csv_item_row(writer *w, const plumb_item_report *it)
+static void csv_item_row(writer *w, const plumb_item_report *it, size_t number)
 {
-    plumbp_csv_item_cols(w, it);
+    plumbp_csv_item_cols(w, it, number);
     put(w, "\n");
 }
 
@@ -134,6 +137,6 @@ void plumbp_csv_fall(writer *w, const plumb_fall_report *rep)
 
     csv_header(w, first);
     for (size_t i = 0; i < rep->n_items; i++)
-        csv_item_row(w, &rep->items[i]);
+        csv_item_row(w, &rep->items[i], plumb_profile_item_number(rep->profile, i));
 }
 

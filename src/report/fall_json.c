@@ -288,12 +288,17 @@ json_t *plumbp_j_profile(jctx *j, const plumb_profile *p)
 void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const item_air *ia)
 {
     int kit = plumb_profile_is_inventory(rep->profile);
-    if (!kit)
+    if (!kit) {
+        /* its figures, and its number, at the top level as in its item */
         plumbp_j_item_into(j, o, &rep->items[0], rep->profile, &ia[0]);
+        jset(j, o, "item_number", jint(j, plumb_profile_item_number(rep->profile, 0)));
+    }
     jset(j, o, "inventory", json_boolean(kit));
     json_t *items = jarr(j);
     for (size_t i = 0; i < rep->n_items; i++) {
         json_t *io = jobj(j);
+        /* the number items[N] gives it: as written, kept after a removal */
+        jset(j, io, "item_number", jint(j, plumb_profile_item_number(rep->profile, i)));
         plumbp_j_item_into(j, io, &rep->items[i], rep->profile, &ia[i]);
         jpush(j, items, io);
     }

@@ -678,7 +678,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         const plumb_fall_result *r = &it->result;
         char part[PLUMB_NAME];
         const char *rest = wrap_cell(it->spec->name, name_w, part, sizeof part);
-        put(w, "%4zu ", i + 1);
+        put(w, "%4zu ", plumb_profile_item_number(rep->profile, i));
         pad(w, part, name_w, 0);
         double conv_len = w->us ? PLUMB_FT_M : 1.0;
         double e_j = r->energy_j, e_ftlbf = r->energy_j / PLUMB_FT_LBF_J;
@@ -709,7 +709,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
             const plumb_item_report *it = &rep->items[i];
             char part[PLUMB_NAME];
             const char *rest = wrap_cell(it->spec->name, name_w, part, sizeof part);
-            put(w, "%4zu ", i + 1);
+            put(w, "%4zu ", plumb_profile_item_number(rep->profile, i));
             pad(w, part, name_w, 0);
             for (size_t k = k0; k < k1; k++)
                 inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == k1);
@@ -779,7 +779,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         const plumb_item_report *it = &rep->items[i];
         char lead[32], text[PLUMB_NAME + PLUMB_DRAG_SOURCE + NUMBUF * 10];
         char drag[PLUMB_DRAG_SOURCE + NUMBUF * 8];
-        snprintf(lead, sizeof lead, "  %4zu  ", i + 1);
+        snprintf(lead, sizeof lead, "  %4zu  ", plumb_profile_item_number(rep->profile, i));
         text_drag(w, it, drag, sizeof drag);
         w->exact = 1;
         snprintf(text, sizeof text, "%s: %s%s; drag %s", it->spec->name,

@@ -797,7 +797,8 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
         for (size_t it = 0; it < row->report.n_items; it++) {
             for (size_t a = 0; a < na; a++)
                 put(w, "%s,", csvnum(w, row->value[a]));
-            plumbp_csv_item_cols(w, &row->report.items[it]);
+            plumbp_csv_item_cols(w, &row->report.items[it],
+                                 plumb_profile_item_number(row->report.profile, it));
             put(w, ",\n");
         }
     }

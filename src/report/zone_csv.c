@@ -82,7 +82,7 @@ static void csv_stats(writer *w, const char *item, const char *prefix, const plu
         csv_row(w, item, Q("landing_circle"), z->landing_circle_m * L, NULL, NULL, lu);
     if (!z->landing.open) {
         double A = L * L;
-        const char *au = w->us ? "ft2" : "m2";
+        const char *au = w->us ? "ft\xC2\xB2" : "m\xC2\xB2"; /* as the text and sweep CSV */
         csv_row(w, item, Q("landing_area"), z->landing.polygon.area_m2 * A, NULL, NULL, au);
         csv_row(w, item, Q("landing_area_buffered"), z->landing.buffered.area_m2 * A, NULL, NULL,
                 au);

@@ -410,8 +410,9 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     solver_ctx c = {.profile = profile, .units = units, .item = item, .dim = dim, .metric = metric,
                     .limit = limit, .traj = traj, .max_evals = opt->max_evaluations, .diag = diag};
     if (plumb_profile_is_inventory(profile) && starts_with(key, "payload."))
-        snprintf(c.set_key, sizeof c.set_key, "items[%zu].%s", item + 1,
-                 key + strlen("payload.")); /* items count from 1 in keys */
+        snprintf(c.set_key, sizeof c.set_key, "items[%zu].%s",
+                 plumb_profile_item_number(profile, item),
+                 key + strlen("payload.")); /* items[N] as the profile is written */
     else
         plumbp_strlcpy(c.set_key, key, sizeof c.set_key);
     double base;

@@ -164,6 +164,58 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
     return PLUMB_OK;
 }
 
+/* A range of a direction (io/vary.h) whose FROM or TO is a compass point
+ * ("NW:NE:22.5deg"), as degrees into buf: each point is its bearing, and
+ * the values run from FROM the way STEP turns (positive clockwise, as
+ * bearings count) until they reach TO, through north when TO lies behind:
+ * NW:NE:22.5deg is 315 to 405 deg, NE:NW:-22.5deg 45 to -45 deg (a
+ * direction of 405 deg is one of 45 deg; the wind and the heading take any
+ * value). A range without a compass point is copied as it is, and its
+ * STEP's sign checked as any other. STEP is an angle: a compass point there
+ * is an error naming the option. */
+static plumb_status direction_range(const plumb_units *units, const char *text, const char *what,
+                                    char *buf, size_t size, plumb_diag *diag)
+{
+    char split[256];
+    const char *parts[3];
+    plumb_status st = range_split(text, what, split, sizeof split, parts, diag);
+    if (st != PLUMB_OK)
+        return st;
+    double from = plumbp_direction_bearing(parts[0]), to = plumbp_direction_bearing(parts[1]);
+    if (plumbp_direction_bearing(parts[2]) >= 0.0)
+        return RANGE_ERROR(diag, PLUMB_EPARSE, what,
+                           "STEP '%s' is a compass point, a direction; a step is an angle "
+                           "turned, e.g. 22.5 deg (one point of 16) or -22.5 deg "
+                           "(anticlockwise)", parts[2]);
+    if (from < 0.0 && to < 0.0) {
+        plumbp_strlcpy(buf, text, size);
+        return PLUMB_OK;
+    }
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    double v[2], step;
+    const double given[2] = {from, to};
+    for (int i = 0; i < 2; i++) {
+        if (given[i] >= 0.0)
+            v[i] = given[i];
+        else if ((st = plumb_units_parse(units, parts[i], PLUMB_DIM_ANGLE, &v[i], &d)) !=
+                 PLUMB_OK)
+            return RANGE_ERROR(diag, st, what, "%s '%s': %s", i ? "TO" : "FROM", parts[i],
+                               d.message);
+    }
+    if ((st = plumb_units_parse(units, parts[2], PLUMB_DIM_ANGLE, &step, &d)) != PLUMB_OK)
+        return RANGE_ERROR(diag, st, what, "STEP '%s': %s", parts[2], d.message);
+    /* angles are read in degrees (units.h) */
+    if (step > 0.0 && v[1] < v[0])
+        v[1] += 360.0;
+    else if (step < 0.0 && v[1] > v[0])
+        v[1] -= 360.0;
+    if (snprintf(buf, size, "%.*g deg:%.*g deg:%.*g deg", RANGE_DIGITS, v[0], RANGE_DIGITS, v[1],
+                 RANGE_DIGITS, step) >= (int)size)
+        return RANGE_ERROR(diag, PLUMB_EPARSE, what, "range too long: '%s'", text);
+    return PLUMB_OK;
+}
+
 plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, plumb_range *out,
                                    plumb_diag *diag)
 {
@@ -192,7 +244,15 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
         }
         return st;
     }
-    st = plumb_range_parse(units, eq + 1, dim, what, out, diag);
+    char turned[256];
+    const char *range = eq + 1;
+    if (plumbp_key_is_direction(key)) {
+        st = direction_range(units, range, what, turned, sizeof turned, diag);
+        if (st != PLUMB_OK)
+            return st;
+        range = turned;
+    }
+    st = plumb_range_parse(units, range, dim, what, out, diag);
     if (st == PLUMB_OK)
         plumbp_strlcpy(out->key, key, sizeof out->key);
     return st;

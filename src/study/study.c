@@ -124,7 +124,7 @@ static void locate(plumb_diag *diag, const plumb_profile *prof, size_t item)
     if (diag->file[0] == '\0')
         plumbp_strlcpy(diag->file, plumb_profile_path(prof), sizeof diag->file);
     if (diag->key[0] == '\0' && plumb_profile_is_inventory(prof))
-        snprintf(diag->key, sizeof diag->key, "items[%zu]", item + 1);
+        snprintf(diag->key, sizeof diag->key, "items[%zu]", plumb_profile_item_number(prof, item));
 }
 
 plumb_status plumb_study_fall(plumb_study *s, const plumb_fall_report **out, plumb_diag *diag)
@@ -383,7 +383,8 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
             if (plumb_profile_is_inventory(s->profile)) {
                 /* "item 2 (spanner): " before the message, which is cut to fit */
                 char prefix[PLUMB_NAME + 32];
-                snprintf(prefix, sizeof prefix, "item %zu (%.*s): ", i + 1, PLUMB_NAME - 1,
+                snprintf(prefix, sizeof prefix, "item %zu (%.*s): ",
+                         plumb_profile_item_number(s->profile, i), PLUMB_NAME - 1,
                          spec->name);
                 size_t pl = strlen(prefix), ml = strlen(diag->message);
                 if (pl + ml >= sizeof diag->message)

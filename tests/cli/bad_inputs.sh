@@ -118,6 +118,18 @@ refused "--set with a unit in capitals" "plumb: --set:1:14: payload.mass: " \
   'did you mean "5 kg"?' "case-sensitive" -- fall "$good" --set "payload.mass=5 KG" --format json
 refused "--set with a mega for a metre" "plumb: --set:1:16: release.height: " \
   'did you mean "60 m"?' "M is the prefix mega" -- fall "$good" --set "release.height=60 M" --format json
+# a unit of another quantity in another case: kg is a mass, so an area is
+# not offered it (BIPM SI Brochure, 9th ed., 2019, tables 2 and 7: unit
+# symbols are case-sensitive; seen)
+refused "--set an area in capital KG" "plumb: --set:1:19: payload.drag.area: " "expected an area" \
+  "KG is not a unit; kg is a mass" "units of an area: m^2" \
+  -- fall "$good" --set "payload.drag.area=5 KG" --format json
+refused "--set wind speed in KT" "plumb: --set:1:12: wind.speed: " 'did you mean "10 kt"?' \
+  "case-sensitive" -- fall "$good" --set "wind.speed=10 KT" --format json
+refused "--set a mass in kilos" "plumb: --set:1:14: payload.mass: " '"kilos" reads as kiloseconds' \
+  'did you mean "5 kg"?' -- fall "$good" --set "payload.mass=5 kilos" --format json
+refused "--set a key one level up" "plumb: --set:1:9: payload.area: " \
+  "did you mean 'payload.drag.area'?" -- fall "$good" --set "payload.area=5 KG" --format json
 refused "--set with a decimal comma" "plumb: --set:1:16: release.height: " \
   'use a decimal point: "6.5 m"' -- fall "$good" --set "release.height=6,5 m" --format json
 refused "--set with a compass letter" "plumb: --set:1:15: site.latitude: " \

@@ -123,6 +123,56 @@ rc=$?
 if [ $rc -eq 2 ] && grep -q '^plumb: --set:2:1: items\[5\]\.mass: items\[5\] is past the end: .* there are 3 items' "$tmp/err"
 then ok; else bad "items[5] of three after items[1]=~: exit $rc, $(cat "$tmp/err")"; fi
 
+# ---- the reports keep the numbers as written after a removal ----------------
+# (design.md section 5: one numbering in reports and in --set) after
+# items[2]=~ the text rows, the CSV's item_number column and the JSON's
+# item_number are 1 and 3, the numbers --set items[N] takes; an added item
+# is 4. A sweep's --vary items[3] after the removal varies the glove (its
+# momentum over its speed is the row's mass, p = m v), and items[2] there
+# is refused as removed.
+"$bin" fall "$inv" --set 'items[2]=~' \
+  --set 'items[4]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' >"$tmp/rm.txt" 2>"$tmp/err"
+rows=$(sed -n 's/^ *\([0-9][0-9]*\) \(pin punch\|glove\|torch\)  .*/\1 \2/p' "$tmp/rm.txt" | sort -u | tr '\n' ';')
+if [ "$rows" = "1 pin punch;3 glove;4 torch;" ]; then ok
+else bad "text rows after items[2]=~ are '$rows', expected 1, 3, 4 ($(cat "$tmp/err"))"; fi
+"$bin" fall "$inv" --set 'items[2]=~' \
+  --set 'items[4]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' --format csv \
+  >"$tmp/rm.csv" 2>"$tmp/err"
+"$bin" fall "$inv" --set 'items[2]=~' \
+  --set 'items[4]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' --format json \
+  >"$tmp/rm4.json" 2>>"$tmp/err"
+if "$py" - "$tmp/rm.csv" "$tmp/rm4.json" <<'EOF'
+import csv, json, sys
+rows = [r for r in csv.reader(l for l in open(sys.argv[1]) if not l.startswith("#"))]
+head, body = rows[0], rows[1:]
+assert head[:2] == ["item_number", "name"], head[:3]
+assert [(r[0], r[1]) for r in body] == [("1", "pin punch"), ("3", "glove"), ("4", "torch")], body
+items = json.load(open(sys.argv[2]))["items"]
+assert [(i["item_number"], i["name"]) for i in items] == [(1, "pin punch"), (3, "glove"), (4, "torch")]
+EOF
+then ok; else bad "CSV/JSON numbers after items[2]=~ ($(cat "$tmp/err"))"; fi
+if "$bin" sweep "$inv" --set 'items[2]=~' --vary "items[3].mass=0.1kg:0.2kg:0.1kg" --format json \
+  >"$tmp/rmsweep.json" 2>"$tmp/err" && "$py" - "$tmp/rmsweep.json" <<'EOF'
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert len(d["rows"]) == 2
+for row, m in zip(d["rows"], (0.1, 0.2)):
+    glove = [i for i in row["items"] if i["name"] == "glove"][0]
+    assert glove["item_number"] == 3
+    got = glove["impact"]["momentum_kg_m_s"] / glove["impact"]["speed_m_s"]   # p = m v
+    assert abs(got - m) <= 1e-12 * m, (got, m)
+EOF
+then ok; else bad "sweep --vary items[3] after items[2]=~ does not vary the glove: $(cat "$tmp/err")"; fi
+"$bin" sweep "$inv" --set 'items[2]=~' --vary "items[2].mass=0.1kg:0.2kg:0.1kg" >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 2 ] && grep -q "items\[2\] was removed by --set 1" "$tmp/err"; then ok
+else bad "sweep --vary items[2] after items[2]=~: exit $rc, $(cat "$tmp/err")"; fi
+# a loader's message names the item as written
+"$bin" fall "$inv" --set 'items[2]=~' --set 'items[3].mass=-1 kg' >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 2 ] && grep -q "^plumb: --set:2:15: items\[3\]\.mass: must be > 0 kg" "$tmp/err"; then ok
+else bad "a bad items[3].mass after items[2]=~: exit $rc, $(cat "$tmp/err")"; fi
+
 # after the whole list is removed (items=~), items[1] starts a new one
 if "$bin" fall "$inv" --set 'items=~' \
   --set 'items[1]={name: torch, mass: 0.2 kg, drag: {cd_area: 0.004 m^2}}' --format json \

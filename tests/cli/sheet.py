@@ -28,6 +28,7 @@ A profile without `uncertainty:` says "no clearance zone: inputs carry no
 uncertainty" in its zone section and still makes a sheet.
 """
 import hashlib
+import json
 from html import unescape
 import math
 import os
@@ -496,6 +497,143 @@ check(nl >= 9 and nc == 4 and not clash, f"eight criteria: {nl} labels, {nc} cur
 check(not bbox_outside(pdf_crowd), "eight criteria: no text outside the margins")
 os.remove(crowd)
 os.remove(pdf_crowd)
+
+# ---- section 6 with eight criteria: no word broken inside a column -----------------
+# Every cell's words are whole (the columns are as wide as their widest
+# word, the type smaller when they do not fit): each ratio is followed by
+# its verdict word, so the words "exceeds" and "within" number one per
+# (item, criterion) pair plus one per item in the Verdict column, as
+# `plumb fall --format json` judges them; no word ends in a hyphen put in
+# by a break ("excee-" / "ds", "Verdi-" / "ct" before).
+kit8 = os.path.join(tmp, "kit8.yaml")
+with open(kit8, "w") as f:
+    f.write("name: eight criteria\nitems:\n")
+    for nm, kg, area in (("box of M12 bolts", 2.4, 0.0063), ("torque wrench 1/2 in", 1.86, 0.0042),
+                         ("cable tie bundle", 0.085, 0.0117), ("coaxial feeder offcut", 0.74, 0.005)):
+        f.write(f"  - name: {nm}\n    mass: {kg} kg\n    drag: {{cd: 1.0, area: {area} m^2}}\n")
+    f.write("release: {height: 41.5 m}\ncriteria: [" + ", ".join(sorted(
+        n[:-5] for n in os.listdir(CRIT) if n.endswith(".yaml"))) + "]\n")
+pdf8 = os.path.join(tmp, "kit8.pdf")
+rc, _, err = run("sheet", kit8, "-o", pdf8)
+check(rc == 0, f"section 6, eight criteria: exit {rc}: {err}")
+ws = words(pdf8)
+flat = [x for w in ws for x in w.split()]
+try:
+    a = next(i for i in range(len(flat)) if flat[i:i + 3] == ["6.", "Every", "item,"])
+    z = next(i for i in range(a, len(flat)) if flat[i:i + 2] == ["7.", "Inputs"])
+    table = flat[a:z]
+except StopIteration:
+    table = []
+check(bool(table), "section 6, eight criteria: the section's words found")
+_, j8, _ = plumb("fall", kit8, "--format", "json")
+items8 = json.loads(j8)["items"]
+n_pairs = sum(len(i["criteria"]) for i in items8)
+verdict_words = sum(1 for x in table if x in ("exceeds", "within"))
+check(n_pairs == 32 and verdict_words == n_pairs + len(items8),
+      f"section 6, eight criteria: {verdict_words} verdict words, expected {n_pairs} + {len(items8)}")
+check("Verdict" in table, "section 6, eight criteria: the Verdict header whole")
+hyph = [x for x in table if x.endswith("-") and not x.startswith("[")]
+check(not hyph, f"section 6, eight criteria: words broken with a hyphen: {hyph[:5]}")
+# each item's energy in the primary unit, 4 significant digits as the text
+# report gives it, whole in its cell
+missing = [i["name"] for i in items8 if sig4(i["impact"]["energy_j"]) not in table]
+check(not missing, f"section 6, eight criteria: energies not whole for {missing}")
+check(not bbox_outside(pdf8), "section 6, eight criteria: no text outside the margins")
+os.remove(kit8)
+os.remove(pdf8)
+
+# ---- twelve criteria: the ratio columns go on in a further table ---------------------
+# Twelve invented criteria (copies of eu-c1-80j with limits 21 .. 32 J) do
+# not fit beside each other even in 6.5 pt type: the ratios go on in a
+# table of their own ("Ratios to C11 to C12"), each word still whole, one
+# verdict word per (item, criterion) pair and one per item (the Verdict
+# column), as `plumb fall --format json` judges them with the same files.
+crit12 = os.path.join(tmp, "crit12")
+os.mkdir(crit12)
+with open(os.path.join(CRIT, "eu-c1-80j.yaml")) as f:
+    c1 = f.read()
+ids12 = []
+for i in range(1, 13):
+    cid = f"t{i:02d}-limit"
+    ids12.append(cid)
+    with open(os.path.join(crit12, cid + ".yaml"), "w") as f:
+        f.write(re.sub(r"(?m)^energy_limit: .*$", f"energy_limit: {20 + i} J",
+                       re.sub(r"(?m)^name: .*$", f"name: invented test limit {i}", c1)))
+k12 = os.path.join(tmp, "k12.yaml")
+with open(k12, "w") as f:
+    f.write("name: twelve criteria\nitems:\n"
+            "  - name: bolts\n    mass: 2.4 kg\n    drag: {cd: 1.0, area: 0.0063 m^2}\n"
+            "  - name: tie\n    mass: 0.085 kg\n    drag: {cd: 1.0, area: 0.0117 m^2}\n"
+            "release: {height: 20 m}\ncriteria: [" + ", ".join(ids12) + "]\n")
+pdf12 = os.path.join(tmp, "k12.pdf")
+rc, _, err = run("sheet", k12, "-o", pdf12, env={"PLUMB_CRITERIA_DIR": crit12})
+check(rc == 0, f"twelve criteria: exit {rc}: {err}")
+flat = [x for w in words(pdf12) for x in w.split()]
+try:
+    a = next(i for i in range(len(flat)) if flat[i:i + 3] == ["6.", "Every", "item,"])
+    z = next(i for i in range(a, len(flat)) if flat[i:i + 2] == ["7.", "Inputs"])
+    table = flat[a:z]
+except StopIteration:
+    table = []
+r12 = subprocess.run([PLUMB, "fall", k12, "--format", "json"], capture_output=True, text=True,
+                     env=dict(os.environ, LC_ALL="C", PLUMB_CRITERIA_DIR=crit12))
+items12 = json.loads(r12.stdout)["items"] if r12.returncode == 0 else []
+pairs = sum(len(i["criteria"]) for i in items12)
+vw = sum(1 for x in table if x in ("exceeds", "within"))
+check(pairs == 24 and vw == pairs + len(items12),
+      f"twelve criteria: {vw} verdict words, expected {pairs} + {len(items12)}")
+check(" ".join(table).count("Ratios to C") >= 2 and "C12" in table,
+      "twelve criteria: the ratio columns go on in a further table, to C12")
+hyph = [x for x in table if x.endswith("-") and not x.startswith("[")]
+check(not hyph, f"twelve criteria: words broken with a hyphen: {hyph[:5]}")
+check(not bbox_outside(pdf12), "twelve criteria: no text outside the margins")
+shutil.rmtree(crit12)
+os.remove(k12)
+os.remove(pdf12)
+
+# ---- names with markup characters: escaped once -----------------------------------
+# pango markup needs & and < escaped; text escaped twice reads "&amp;" in
+# the PDF (section 6's note and section 2's "set by" did). Every name is
+# read back as typed, and no entity is left in the text.
+amp = os.path.join(tmp, "amp.yaml")
+with open(amp, "w") as f:
+    f.write('name: "Kit & tools <A>"\njob: {title: "Mast & antenna <works>", site: "A&B"}\n'
+            'items:\n'
+            '  - name: "nuts & bolts <M12>"\n    mass: 2.4 kg\n    drag: {cd: 1.0, area: 0.0063 m^2}\n'
+            '  - name: "tie & clip"\n    mass: 0.085 kg\n    drag: {cd: 1.2, area: 0.0117 m^2}\n'
+            "release: {height: 20 m}\nwind: {speed: 4 m/s, from: 270 deg}\n"
+            "criteria: [en397-shock-49j]\n"
+            "uncertainty:\n  wind.speed: {normal: [4 m/s, 1 m/s]}\n")
+pdf_amp = os.path.join(tmp, "amp.pdf")
+rc, _, err = run("sheet", amp, "-o", pdf_amp, "--samples", "500")
+check(rc == 0, f"names with & and <: exit {rc}: {err}")
+at = " ".join(pages_text(pdf_amp))
+ents = sorted(set(re.findall(r"&(?:amp|lt|gt|quot|apos|#\d+);", at)))
+check(not ents, f"names with & and <: entities left in the text: {ents}")
+check("Worst: nuts & bolts <M12>." in at, "names with & and <: section 6's note names the worst item")
+check("set by tie & clip" in at, "names with & and <: the zone's item named as typed")
+check("Mast & antenna <works>" in at and "A&B" in at, "names with & and <: the job map as typed")
+os.remove(amp)
+os.remove(pdf_amp)
+
+# ---- the cautions are kept on one page ----------------------------------------------
+# The demo canopy's cautions began at the foot of page 3 and left their
+# last bullet alone on a fourth page under "8. Cautions (continued)":
+# section 8 is now moved whole, so every caution is on the page of its
+# heading and no page continues it.
+pdf_can = os.path.join(tmp, "canopy.pdf")
+rc, _, err = run("sheet", os.path.join(ROOT, "profiles/demo/drone-canopy.yaml"), "-o", pdf_can,
+                 "--samples", "2000")
+check(rc == 0, f"canopy: exit {rc}: {err}")
+cp = pages_text(pdf_can)
+with_8 = [p for p in cp if "8. Cautions" in p]
+_, can_fall, _ = plumb("fall", os.path.join(ROOT, "profiles/demo/drone-canopy.yaml"))
+bullets = [re.sub(r"\s+", " ", c).strip()
+           for c in re.split(r"\n\s*- ", "\n" + can_fall.split("\nCautions\n")[1]) if c.strip()]
+check(len(with_8) == 1 and not any("8. Cautions (continued)" in p for p in cp)
+      and all(c in with_8[0] for c in bullets),
+      f"canopy: section 8 whole on one page ({len(with_8)} pages name it, {len(bullets)} cautions)")
+os.remove(pdf_can)
 
 # ---- several profiles: one document ------------------------------------------------
 both = os.path.join(tmp, "both.pdf")
