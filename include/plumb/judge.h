@@ -49,7 +49,11 @@ typedef struct plumb_fall_report {
 plumb_status plumb_profile_criteria_check(const plumb_profile *profile,
                                           const plumb_criteria *criteria, plumb_diag *diag);
 
-/* Computes item->verdicts and item->warnings for a finished fall.
+/* Computes item->verdicts and item->warnings for a finished fall. A
+ * result with time_s 0 stands for no fall yet (plumb zone judges before
+ * its samples): it gets the notes on the criteria and the inputs, not
+ * those on what a single fall leaves out (the plate glide and the gusts,
+ * which the zone's samples include).
  * Criteria named by the profile and missing from the set give PLUMB_EKEY
  * with a did-you-mean. */
 plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,

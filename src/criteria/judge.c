@@ -223,7 +223,11 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
     char why[96] = "as the profile says";
     if (gl->from_shape)
         snprintf(why, sizeof why, "I* %.3g, Andersen et al. 2005", gl->istar);
-    if (gl->mode != PLUMB_GLIDE_OFF && item->spec->n_descent == 0)
+    /* no fall yet (plumb zone judges before its samples, which add the
+     * glide and the gusts): the notes on what this one fall leaves out
+     * would be wrong there */
+    int one_fall = r->time_s > 0.0;
+    if (one_fall && gl->mode != PLUMB_GLIDE_OFF && item->spec->n_descent == 0)
         add_warning(item,
                     "Plate-like: taken to %s (%s). Tumbling plates glide sideways up to 1.375 x "
                     "the height fallen in still air (" PLUMBP_Q_ANGLE " below horizontal; "
@@ -234,14 +238,14 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     atan(1.0 / 1.375) * 180.0 / PLUMB_PI);
     note_downwash(item, atm);
     const plumb_turbulence_spec *tb = &item->spec->turbulence;
-    if (tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
+    if (one_fall && tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
         add_warning(item,
                     "Gusts of the %s model (wind.turbulence) with W20 = " PLUMBP_Q_AIR
                     ", the mean wind at 20 ft, apply only to plumb zone, where every sample "
                     "falls through its own realisation; this single fall uses the mean wind.",
                     tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
                     plumb_fall_w20(item->spec));
-    else if (tb->model != PLUMB_TURB_NONE)
+    else if (one_fall && tb->model != PLUMB_TURB_NONE)
         add_warning(item,
                     "Gusts: this fall went through one realisation of the %s model with "
                     "W20 = " PLUMBP_Q_AIR " (the mean wind at 20 ft), a sum of %zu random "
