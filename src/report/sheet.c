@@ -38,6 +38,7 @@ static plumb_status draw_all(sheet_doc *d, const plumb_brief *const *briefs, siz
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
         const plumb_brief *b = briefs[i];
         d->running = NULL;
+        d->section = 0;
         if (d->page > 0)
             sheet_end_page(d);
         d->page++;

@@ -45,6 +45,8 @@ typedef struct sheet_doc {
     int pages;                   /* pages in all (0 on the counting pass) */
     char footer_hash[PLUMB_CRIT_SHA256]; /* the profile of the pages being drawn */
     const char *running;         /* the section going on, repeated on a new page */
+    int section;                 /* the last section's number (sheet_heading) */
+    char heading[96];            /* the last section's numbered title */
     writer si, us;               /* number formatters, SI and US customary */
     char *sbuf, *ubuf;
     size_t slen, ulen;
@@ -74,7 +76,7 @@ void sheet_need(sheet_doc *d, double h);
 /* A paragraph across the body (markup), paginated as a block. */
 void sheet_para(sheet_doc *d, const char *font, const char *markup);
 /* A numbered section heading, kept with `keep` points of what follows. */
-void sheet_heading(sheet_doc *d, const char *title, double keep);
+void sheet_heading(sheet_doc *d, const char *name, double keep);
 
 /* printf into a ring of buffers, with the formatters' number-unit joins
  * made non-breaking spaces; the text is escaped for pango markup unless

@@ -194,11 +194,15 @@ void sheet_para(sheet_doc *d, const char *font, const char *markup)
     d->y += h + GAP / 2.0;
 }
 
-void sheet_heading(sheet_doc *d, const char *title, double keep)
+void sheet_heading(sheet_doc *d, const char *name, double keep)
 {
     char font[64];
     snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, 13.0);
     d->running = NULL;
+    /* numbered in the order drawn, so that no number is skipped when a
+     * section does not apply (the inventory of a single payload) */
+    snprintf(d->heading, sizeof d->heading, "%d. %s", ++d->section, name);
+    const char *title = d->heading;
     double h = sheet_text(d, d->left, d->y, sheet_width(d), font, sheet_esc(d, title), 0);
     if (d->y > d->top)
         d->y += SECTION_GAP - GAP;

@@ -111,7 +111,7 @@ void sheet_section_header(sheet_doc *d, const plumb_brief *b)
     d->y += sheet_text(d, d->left, d->y, w, font,
                        sheet_fmt(d, "Drop and fall safety sheet. %s: %s", b->fall->n_items > 1 ?
                                  "Inventory" : "Payload", plumb_profile_name(b->profile)), 1) + 6.0;
-    sheet_heading(d, "1. Job, date and inputs", 120.0);
+    sheet_heading(d, "Job, date and inputs", 120.0);
     char when[160];
     when_text(d->opt, when, sizeof when);
     double row = SHEET_BODY * 2.0, half = (w - 12.0) / 2.0;
@@ -316,7 +316,7 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
     writer *P = primary(d), *S = secondary(d);
     const plumb_item_report *it = &b->fall->items[b->order[0]];
     const plumb_fall_result *r = &it->result;
-    sheet_heading(d, "2. The answer", 120.0);
+    sheet_heading(d, "The answer", 120.0);
     if (b->fall->n_items > 1)
         sheet_para(d, font, sheet_fmt(d, "For the worst of %zu items, %s (every item is in "
                                          "section 6).", b->fall->n_items, it->spec->name));
@@ -603,7 +603,7 @@ static void inventory_header(sheet_doc *d, const plumb_brief *b, const inv_table
 void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
 {
     writer *P = primary(d);
-    sheet_heading(d, "6. Every item, worst first", 60.0);
+    sheet_heading(d, "Every item, worst first", 60.0);
     /* markup made once: each name escaped once (sheet_fmt without \x02
      * escapes what it is given, so a note built of two would escape the
      * inner one twice: "nuts &amp;amp; bolts") */
@@ -639,7 +639,7 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
         const inv_table *t = &tables[ti];
         char font[64], bold[64];
         table_fonts(t->pt, font, bold, sizeof font);
-        d->running = "6. Every item, worst first";
+        d->running = d->heading;
         if (nt > 1) {
             d->y += ti > 0 ? GAP : 0.0;
             sheet_need(d, 60.0);
@@ -696,7 +696,7 @@ plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag
 {
     char font[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
-    sheet_heading(d, "7. Inputs as understood, and the model's assumptions", 80.0);
+    sheet_heading(d, "Inputs as understood, and the model's assumptions", 80.0);
     char *buf = NULL;
     size_t len = 0;
     FILE *mem = open_memstream(&buf, &len);
@@ -734,7 +734,7 @@ void sheet_section_cautions(sheet_doc *d)
     for (size_t i = 0; i < n; i++)
         keep += sheet_text(d, d->left, d->y, sheet_width(d), font,
                            sheet_fmt(d, "\u2022 %s", c[i]), 0) + GAP / 2.0;
-    sheet_heading(d, "8. Cautions", keep);
+    sheet_heading(d, "Cautions", keep);
     for (size_t i = 0; i < n; i++)
         sheet_para(d, font, sheet_fmt(d, "\u2022 %s", c[i]));
 }
@@ -744,7 +744,7 @@ void sheet_section_cautions(sheet_doc *d)
 void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
 {
     double w = sheet_width(d);
-    sheet_heading(d, "3. Side view of the fall", 220.0);
+    sheet_heading(d, "Side view of the fall", 220.0);
     d->y += sheet_side_view(d, b, d->left, d->y, w, 215.0);
     /* taller with more criteria, so that their labels find room beside
      * their lines and clear of the curves (it still fits a letter page
@@ -752,7 +752,7 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
     double h = 250.0 + 14.0 * (b->n_criteria > 3 ? (double)(b->n_criteria - 3) : 0.0);
     if (h > 370.0)
         h = 370.0;
-    sheet_heading(d, "4. Impact energy against drop height", h + 10.0);
+    sheet_heading(d, "Impact energy against drop height", h + 10.0);
     d->y += sheet_energy_plot(d, b, d->left, d->y, w, h);
 }
 
@@ -764,7 +764,7 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
 {
     char font[64];
     snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, 11.0);
-    sheet_heading(d, "5. Plan view of the clearance zone", b->zone ? 330.0 : 20.0);
+    sheet_heading(d, "Plan view of the clearance zone", b->zone ? 330.0 : 20.0);
     if (!b->zone) {
         sheet_para(d, font, sheet_esc(d, b->no_zone));
         return;
@@ -776,7 +776,8 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
     if (b->zone->n_items > 1)
         sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY),
                    sheet_fmt(d, "The zone of %s, the item with the largest clearance radius; "
-                                "section 6 names every item.", b->zone->items[b->zone_item].name));
+                                "section %d names every item.", b->zone->items[b->zone_item].name,
+                             d->section + 1));
     sheet_plan pv;
     memset(&pv, 0, sizeof pv);
     pv.drop_m[0] = s->release_m[0];

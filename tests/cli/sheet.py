@@ -364,10 +364,11 @@ for v in ("exceeds",):
 # sections in order
 heads = ["1. Job, date and inputs", "2. The answer", "3. Side view of the fall",
          "4. Impact energy against drop height", "5. Plan view of the clearance zone",
-         "7. Inputs as understood", "8. Cautions"]
+         "6. Inputs as understood", "7. Cautions"]
 pos = [text.find(h) for h in heads]
 check(all(p >= 0 for p in pos) and pos == sorted(pos), f"sections in order: {pos}")
-check("6. Every item" not in text, "no inventory table for a single payload")
+check("Every item" not in text and "8. " not in text,
+      "no inventory table for a single payload, and no number skipped")
 
 # hashes: the profile and every criteria file it names
 check(sha256(DRONE) in text, "the profile's SHA-256")
@@ -618,21 +619,21 @@ os.remove(pdf_amp)
 
 # ---- the cautions are kept on one page ----------------------------------------------
 # The demo canopy's cautions began at the foot of page 3 and left their
-# last bullet alone on a fourth page under "8. Cautions (continued)":
-# section 8 is now moved whole, so every caution is on the page of its
-# heading and no page continues it.
+# last bullet alone on a fourth page under "Cautions (continued)": the
+# section (7 for a single payload) is now moved whole, so every caution is
+# on the page of its heading and no page continues it.
 pdf_can = os.path.join(tmp, "canopy.pdf")
 rc, _, err = run("sheet", os.path.join(ROOT, "profiles/demo/drone-canopy.yaml"), "-o", pdf_can,
                  "--samples", "2000")
 check(rc == 0, f"canopy: exit {rc}: {err}")
 cp = pages_text(pdf_can)
-with_8 = [p for p in cp if "8. Cautions" in p]
+with_8 = [p for p in cp if "7. Cautions" in p]
 _, can_fall, _ = plumb("fall", os.path.join(ROOT, "profiles/demo/drone-canopy.yaml"))
 bullets = [re.sub(r"\s+", " ", c).strip()
            for c in re.split(r"\n\s*- ", "\n" + can_fall.split("\nCautions\n")[1]) if c.strip()]
-check(len(with_8) == 1 and not any("8. Cautions (continued)" in p for p in cp)
+check(len(with_8) == 1 and not any("7. Cautions (continued)" in p for p in cp)
       and all(c in with_8[0] for c in bullets),
-      f"canopy: section 8 whole on one page ({len(with_8)} pages name it, {len(bullets)} cautions)")
+      f"canopy: section 7 whole on one page ({len(with_8)} pages name it, {len(bullets)} cautions)")
 os.remove(pdf_can)
 
 # ---- several profiles: one document ------------------------------------------------
