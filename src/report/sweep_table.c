@@ -10,6 +10,7 @@
 #include <string.h>
 
 #include "io/keys.h"
+#include "io/vary.h"
 #include "report/common.h"
 
 /* ---- sweep table --------------------------------------------------------- */
@@ -59,6 +60,22 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
  * payload.shape.edges[1]) is a size of the body itself: a shape's
  * diameter, length, edges or thickness, or a sphere drag model's
  * diameter. A canopy's diameter is not: it is sized with its area. */
+
+/* Axis a's value v as shown: a direction swept through north (wind.from
+ * NW:NE:22.5deg runs 315 to 405 deg, io/vary.h) as the bearing it is, from
+ * 0 to 360 deg; any other value as it is. */
+static double shown_value(const plumb_range *ax, double v)
+{
+    if (!plumbp_key_is_direction(ax->key) || strcmp(ax->unit, "deg") != 0)
+        return v;
+    double b = fmod(v, 360.0);
+    return b < 0.0 ? b + 360.0 : b;
+}
+
+static double row_value(const plumb_sweep *sw, const plumb_sweep_row *row, size_t a)
+{
+    return shown_value(plumb_sweep_axis(sw, a), row->value[a]);
+}
 static int body_size_key(const char *key)
 {
     const plumbp_key *k = plumbp_key_find(key, NULL, NULL);
@@ -112,6 +129,7 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
 /* The leading columns of a sweep table: the varied keys' values, and for
  * an inventory the item's name in a column name_w wide. */
 typedef struct sweep_cols {
+    const plumb_sweep *sw;
     size_t na;
     const size_t *wkey;
     int inv;
@@ -300,7 +318,7 @@ static const char *sweep_lead(writer *w, const sweep_cols *c, const plumb_sweep_
                               size_t it)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, it == 0 ? plumbp_gnum(w, row->value[a], 8) : "", c->wkey[a] + (a ? SWEEP_GAP : 1),
+        pad(w, it == 0 ? plumbp_gnum(w, row_value(c->sw, row, a), 8) : "", c->wkey[a] + (a ? SWEEP_GAP : 1),
             1);
     if (!c->inv)
         return "";
@@ -448,7 +466,7 @@ static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         size_t len = strlen(b);
         snprintf(b + len, size - len, "%s%s = %s%s%s", a ? ", " : "", ax->key,
-                 plumbp_gnum(w, row->value[a], 10), ax->unit[0] ? " " : "",
+                 plumbp_gnum(w, shown_value(ax, row->value[a]), 10), ax->unit[0] ? " " : "",
                  unit_shown(w, ax->unit));
     }
 }
@@ -573,9 +591,15 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const char *u = unit_shown(w, ax->unit);
         char line[PLUMB_DIAG_KEY + 2 * PLUMB_UNIT_TEXT + NUMBUF * 4];
         /* wrapped: a long key (an item's name) must not run past the edge */
-        snprintf(line, sizeof line, "%s from %s to %s%s%s in steps of %s%s%s (%zu values)%s%s%s%s",
-                 ax->key, plumbp_gnum(w, ax->from, 10), plumbp_gnum(w, last, 10),
-                 u[0] ? " " : "", u, plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
+        /* a direction through north: its bearings, and which way it turns */
+        int north = shown_value(ax, 360.0) == 0.0 &&
+                    floor(ax->from / 360.0) != floor(last / 360.0);
+        snprintf(line, sizeof line, "%s from %s to %s%s%s%s in steps of %s%s%s (%zu values)%s%s%s%s",
+                 ax->key, plumbp_gnum(w, shown_value(ax, ax->from), 10),
+                 plumbp_gnum(w, shown_value(ax, last), 10), u[0] ? " " : "", u,
+                 north ? (ax->step > 0.0 ? " clockwise through north"
+                                         : " anticlockwise through north") : "",
+                 plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
                  last != ax->to ? "; the steps stop short of " : "",
                  last != ax->to ? plumbp_gnum(w, ax->to, 10) : "",
                  last != ax->to && u[0] ? " " : "", last != ax->to ? u : "");
@@ -612,8 +636,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         for (size_t a = 0; a < na; a++)
-            if (shown_width(plumbp_gnum(w, row->value[a], 8)) > wkey[a])
-                wkey[a] = shown_width(plumbp_gnum(w, row->value[a], 8));
+            if (shown_width(plumbp_gnum(w, row_value(sw, row, a), 8)) > wkey[a])
+                wkey[a] = shown_width(plumbp_gnum(w, row_value(sw, row, a), 8));
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
             if (shown_width(item->spec->name) > name_w)
@@ -628,7 +652,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     }
     for (size_t k = 0; k < nv; k++)
         wcrit[k] = verdict_cell_width(0, wratio[k]);
-    sweep_cols c = {na, wkey, inv, 0, 0};
+    sweep_cols c = {sw, na, wkey, inv, 0, 0};
     size_t keys_w = 0, figs_w = 0, crit_w = 0;
     for (size_t a = 0; a < na; a++)
         keys_w += wkey[a] + (a ? SWEEP_GAP : 1);
@@ -673,7 +697,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         if (row->status != PLUMB_OK) {
             for (size_t a = 0; a < na; a++)
-                pad(w, plumbp_gnum(w, row->value[a], 8), wkey[a] + (a ? SWEEP_GAP : 1), 1);
+                pad(w, plumbp_gnum(w, row_value(sw, row, a), 8), wkey[a] + (a ? SWEEP_GAP : 1), 1);
             put(w, "  not computed, see (%zu) below\n", ++n_failed);
             continue;
         }
@@ -786,7 +810,7 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
         if (row->status != PLUMB_OK) {
             char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
             for (size_t a = 0; a < na; a++)
-                put(w, "%s,", csvnum(w, row->value[a]));
+                put(w, "%s,", csvnum(w, row_value(sw, row, a)));
             for (size_t c = 0; c < n_cols; c++)
                 put(w, ",");
             row_error_text(row, why, sizeof why);
@@ -796,7 +820,7 @@ static void csv_sweep(writer *w, const plumb_sweep *sw)
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             for (size_t a = 0; a < na; a++)
-                put(w, "%s,", csvnum(w, row->value[a]));
+                put(w, "%s,", csvnum(w, row_value(sw, row, a)));
             plumbp_csv_item_cols(w, &row->report.items[it],
                                  plumb_profile_item_number(row->report.profile, it));
             put(w, ",\n");
@@ -832,7 +856,7 @@ static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_swe
         json_t *o = jobj(j);
         json_t *vals = jobj(j), *vals_si = jobj(j);
         for (size_t a = 0; a < na; a++) {
-            jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, row->value[a]));
+            jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, row_value(sw, row, a)));
             jset(j, vals_si, plumb_sweep_axis(sw, a)->key, jreal(j, row->value_si[a]));
         }
         jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */

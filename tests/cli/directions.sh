@@ -72,6 +72,22 @@ same "--vary wind.from=NE:NW:-45deg" -- sweep "$prof" --vary "wind.from=NE:NW:-4
   -- sweep "$prof" --vary "wind.from=45deg:-45deg:-45deg" --format csv
 same "--vary heading=e:S:45 deg" -- sweep "$prof" --vary "release.velocity.heading=e:S:45 deg" \
   --format csv -- sweep "$prof" --vary "release.velocity.heading=90deg:180deg:45deg" --format csv
+# a direction swept through north is shown as the bearings it is, 0 to
+# 360 deg (405 deg is 45 deg), and the range line says which way it turns
+out=$("$bin" sweep "$prof" --vary "wind.from=NW:NE:22.5deg" --format csv 2>&1 | grep -v '^#' |
+  sed 1d | cut -d, -f1 | uniq | tr '\n' ' ')
+if [ "$out" = "315 337.5 0 22.5 45 " ]; then pass=$((pass + 1)); else bad "sweep through north: values '$out'"; fi
+out=$("$bin" sweep "$prof" --vary "wind.from=NW:NE:22.5deg" 2>&1 | tr -s ' \n' '  ')
+case $out in
+  *"wind.from from 315 to 45 deg clockwise through north in steps of 22.5 deg"*)
+    pass=$((pass + 1)) ;;
+  *) bad "sweep through north: range line in '$(echo "$out" | cut -c1-200)'" ;;
+esac
+out=$("$bin" sweep "$prof" --vary "wind.from=NE:NW:-45deg" 2>&1 | tr -s ' \n' '  ')
+case $out in
+  *"from 45 to 315 deg anticlockwise through north"*) pass=$((pass + 1)) ;;
+  *) bad "sweep anticlockwise through north: '$(echo "$out" | cut -c1-200)'" ;;
+esac
 refused "--vary with a compass STEP" "<command line>: --vary wind.from: STEP 'NE' is a compass point" \
   -- sweep "$prof" --vary "wind.from=N:E:NE"
 refused "--vary a latitude between compass points" "--vary site.latitude: FROM 'N'" \
