@@ -205,7 +205,7 @@ static void assert_cautions_in(const char *out, plumb_format f)
             assert_string_equal(json_string_value(json_array_get(a, i)), c[i]);
         json_decref(root);
     } else if (f == PLUMB_FORMAT_CSV) {
-        const char *header = strstr(out, "\nitem,quantity,value,ci_low,ci_high,unit\n");
+        const char *header = strstr(out, "\nitem_number,item,quantity,value,ci_low,ci_high,unit\n");
         assert_non_null(header);
         for (size_t i = 0; i < n; i++) {
             char line[512];
@@ -231,7 +231,7 @@ static void assert_cautions_in(const char *out, plumb_format f)
 static void test_every_format_and_unit_system_carries_the_cautions(void **state)
 {
     (void)state;
-    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_item item = {"marker bag", &base, 0};
     plumb_zone_report rep = single(&item);
     for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
         for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
@@ -241,7 +241,7 @@ static void test_every_format_and_unit_system_carries_the_cautions(void **state)
         }
     }
     /* an inventory too */
-    plumb_zone_item items[2] = {{"marker bag", &base}, {"tag line", &base}};
+    plumb_zone_item items[2] = {{"marker bag", &base, 0}, {"tag line", &base, 0}};
     rep.inventory = 1;
     rep.n_items = 2;
     rep.items = items;
@@ -255,7 +255,7 @@ static void test_every_format_and_unit_system_carries_the_cautions(void **state)
 static void test_a_helmet_test_criterion_is_called_not_a_safe_limit(void **state)
 {
     (void)state;
-    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_item item = {"marker bag", &base, 0};
     plumb_zone_report rep = single(&item);
     char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
     char *flat = squeeze(out);
@@ -302,7 +302,7 @@ static void test_no_format_prints_nan_or_infinity_for_open_ends_and_half_ranges(
     assert_true(isinf(base.inputs[2].upper));
     assert_true(has_non_finite_word("x = NaN") && has_non_finite_word("-inf m"));
     assert_false(has_non_finite_word("information, infinite, nano"));
-    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_item item = {"marker bag", &base, 0};
     plumb_zone_report rep = single(&item);
     for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
         for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
@@ -391,7 +391,7 @@ static void test_a_non_finite_figure_fails_every_format_and_writes_nothing(void 
         if (!x)
             break;
         *x = bad_values[k % 3];
-        plumb_zone_item item = {"marker bag", &r};
+        plumb_zone_item item = {"marker bag", &r, 0};
         plumb_zone_report rep = single(&item);
         for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
             for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
@@ -419,7 +419,7 @@ static void test_json_refuses_non_finite_figures_only_it_prints(void **state)
         plumb_zone_result r = base;
         double *x = k == 0 ? &r.zone.cov_m2[2] : k == 1 ? &r.zone.centre_m[1] : &r.zone.ellipse_chi2;
         *x = NAN;
-        plumb_zone_item item = {"marker bag", &r};
+        plumb_zone_item item = {"marker bag", &r, 0};
         plumb_zone_report rep = single(&item);
         plumb_status st;
         plumb_diag d;
@@ -436,7 +436,7 @@ static void test_json_refuses_non_finite_figures_only_it_prints(void **state)
 static void test_json_figures_read_back_to_the_same_doubles(void **state)
 {
     (void)state;
-    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_item item = {"marker bag", &base, 0};
     plumb_zone_report rep = single(&item);
     char *out = good(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_US); /* JSON is SI whatever --units */
     json_t *root = json_loads(out, 0, NULL);
@@ -471,11 +471,12 @@ static void test_json_figures_read_back_to_the_same_doubles(void **state)
     free(out);
 }
 
-/* The value column of the CSV row of `quantity` for `item`. */
+/* The value column of the CSV row of `quantity` for `item` (after its
+ * item_number). */
 static double csv_value(const char *csv, const char *item_quantity)
 {
     char needle[160];
-    snprintf(needle, sizeof needle, "\n%s,", item_quantity);
+    snprintf(needle, sizeof needle, ",%s,", item_quantity);
     const char *at = strstr(csv, needle);
     if (!at)
         fail_msg("no CSV row %s", item_quantity);
@@ -488,7 +489,7 @@ static double csv_value(const char *csv, const char *item_quantity)
 static void test_us_csv_gives_feet_and_foot_pounds_and_quotes_names(void **state)
 {
     (void)state;
-    plumb_zone_item item = {"marker bag, red", &base};
+    plumb_zone_item item = {"marker bag, red", &base, 0};
     plumb_zone_report rep = single(&item);
     char *si = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_SI);
     char *us = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_US);
@@ -497,7 +498,7 @@ static void test_us_csv_gives_feet_and_foot_pounds_and_quotes_names(void **state
     const char *row = "\"marker bag, red\",clearance_radius";
     assert_rel(csv_value(si, row), z->clearance_radius_m, 1e-9);
     assert_rel(csv_value(us, row), z->clearance_radius_m / FT_M, 1e-9); /* 1 ft = 0.3048 m */
-    assert_non_null(strstr(us, "\n\"marker bag, red\",clearance_radius,"));
+    assert_non_null(strstr(us, "\n1,\"marker bag, red\",clearance_radius,"));
     row = "\"marker bag, red\",energy_max";
     assert_rel(csv_value(si, row), z->energy_max_j, 1e-9);
     assert_rel(csv_value(us, row), z->energy_max_j / FT_LBF_J, 1e-9);
@@ -518,7 +519,7 @@ static void test_inventory_json_names_the_item_with_the_largest_clearance_radius
     (void)state;
     plumb_zone_result wider = base;
     wider.zone.clearance_radius_m = 1.37 * base.zone.clearance_radius_m;
-    plumb_zone_item items[3] = {{"marker bag", &base}, {"tag line", &wider}, {"radio", &base}};
+    plumb_zone_item items[3] = {{"marker bag", &base, 0}, {"tag line", &wider, 0}, {"radio", &base, 0}};
     plumb_zone_report rep = single(items);
     rep.inventory = 1;
     rep.n_items = 3;
@@ -531,7 +532,7 @@ static void test_inventory_json_names_the_item_with_the_largest_clearance_radius
     json_decref(root);
     free(out);
     out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
-    assert_non_null(strstr(out, "==== tag line\n"));
+    assert_non_null(strstr(out, "==== 2 tag line\n")); /* numbered as items[N] is */
     free(out);
 }
 
@@ -545,8 +546,8 @@ static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it
     wider.zone.clearance_radius_m = 1.37 * base.zone.clearance_radius_m;
     landing.zone.landing_radius.hi_open = 0;
     landing.zone.landing_circle_m = 0.83 * base.zone.clearance_radius_m;
-    plumb_zone_item items[3] = {{"marker bag", &base}, {"tag line, orange", &wider},
-                                {"radio", &landing}};
+    plumb_zone_item items[3] = {{"marker bag", &base, 0}, {"tag line, orange", &wider, 0},
+                                {"radio", &landing, 0}};
     plumb_zone_report rep = single(items);
     rep.inventory = 1;
     rep.n_items = 3;
@@ -565,7 +566,7 @@ static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it
     assert_null(strstr(strstr(si, row) + strlen(row), ",kit_clearance_radius"));
     const char *kit = strstr(si, "\n# kit: clearance radius at confidence 0.9: ");
     assert_non_null(kit);
-    assert_true(kit < strstr(si, "\nitem,quantity,"));
+    assert_true(kit < strstr(si, "\nitem_number,item,quantity,"));
     assert_non_null(strstr(kit, ", set by tag line, orange (the item with the largest radius"));
     assert_non_null(strstr(kit, "largest landing circle "));
     assert_non_null(strstr(strstr(us, "\n# kit: "), " ft, set by radio\n"));
@@ -594,7 +595,7 @@ static void test_a_drop_from_rest_says_there_is_no_throw(void **state)
     plumb_zone_result rest = base;
     rest.zone.max_release_speed_m_s = 0.0;
     rest.zone.ballistic_throw_m = 0.0;
-    plumb_zone_item item = {"marker bag", &rest};
+    plumb_zone_item item = {"marker bag", &rest, 0};
     plumb_zone_report rep = single(&item);
     for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
         char *out = good(&rep, PLUMB_FORMAT_TEXT, (plumb_unit_system)u);
@@ -637,7 +638,7 @@ static void refused(const plumb_zone_report *rep, const char *part)
 static void test_empty_and_inconsistent_reports_are_refused_with_nothing_written(void **state)
 {
     (void)state;
-    plumb_zone_item items[2] = {{"marker bag", &base}, {"tag line", &base}};
+    plumb_zone_item items[2] = {{"marker bag", &base, 0}, {"tag line", &base, 0}};
     plumb_zone_report rep = single(items);
     rep.n_items = 0;
     refused(&rep, "no zone report");
@@ -672,7 +673,7 @@ static void test_empty_and_inconsistent_reports_are_refused_with_nothing_written
 static void test_a_stream_that_cannot_be_written_is_a_write_error(void **state)
 {
     (void)state;
-    plumb_zone_item item = {"marker bag", &base};
+    plumb_zone_item item = {"marker bag", &base, 0};
     plumb_zone_report rep = single(&item);
     for (int f = PLUMB_FORMAT_TEXT; f <= PLUMB_FORMAT_CSV; f++) {
         FILE *full = fopen("/dev/full", "w"); /* every write fails with ENOSPC */

@@ -350,6 +350,9 @@ plumb_status plumb_quantile_ranks(size_t n, double p, double level, size_t *l, s
 typedef struct plumb_zone_item {
     const char *name;                 /* payload name, borrowed */
     const plumb_zone_result *result;  /* borrowed */
+    size_t number;                    /* the item's number as the profile is written
+                                         (items[N], plumb_profile_item_number); 0: its
+                                         place in items[], from 1 */
 } plumb_zone_item;
 
 typedef struct plumb_zone_report {

@@ -20,6 +20,12 @@
 extern const char *const plumbp_zone_radius_names[PLUMB_ZONE_RADII];
 extern const char *const plumbp_zone_energy_names[PLUMB_ZONE_ENERGIES];
 
+/* Item i's number, as items[N] names it (plumb_zone_item). */
+static inline size_t item_number(const plumb_zone_report *rep, size_t i)
+{
+    return rep->items[i].number ? rep->items[i].number : i + 1;
+}
+
 static inline double len_shown(const writer *w, double m)
 {
     return w->us ? m / PLUMB_FT_M : m;

@@ -24,10 +24,16 @@
 /* ---- CSV ---------------------------------------------------------------- */
 
 
-static void csv_row(writer *w, const char *item, const char *quantity, double value,
+typedef struct csv_item {
+    size_t number;
+    const char *name;
+} csv_item;
+
+static void csv_row(writer *w, const csv_item *item, const char *quantity, double value,
                     const double *lo, const double *hi, const char *unit)
 {
-    csv_field(w, item);
+    put(w, "%zu,", item->number);
+    csv_field(w, item->name);
     put(w, ",");
     csv_field(w, quantity);
     put(w, ",%s,%s,%s,", csvnum(w, value), lo ? csvnum(w, *lo) : "", hi ? csvnum(w, *hi) : "");
@@ -35,14 +41,14 @@ static void csv_row(writer *w, const char *item, const char *quantity, double va
     put(w, "\n");
 }
 
-static void csv_quantile(writer *w, const char *item, const char *name,
+static void csv_quantile(writer *w, const csv_item *item, const char *name,
                          const plumb_zone_quantile *q, double scale, const char *unit)
 {
     double lo = q->lo * scale, hi = q->hi * scale;
     csv_row(w, item, name, q->value * scale, q->lo_open ? NULL : &lo, q->hi_open ? NULL : &hi, unit);
 }
 
-static void csv_stats(writer *w, const char *item, const char *prefix, const plumb_zone_stats *z,
+static void csv_stats(writer *w, const csv_item *item, const char *prefix, const plumb_zone_stats *z,
                       int target_pass)
 {
     char q[128];
@@ -161,16 +167,17 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
                 put(w, "# %s: %s: normal truncated to its range, %zu draws redrawn\n",
                     rep->items[i].name, r->inputs[k].key, r->inputs[k].redraws);
     }
-    put(w, "item,quantity,value,ci_low,ci_high,unit\n");
+    put(w, "item_number,item,quantity,value,ci_low,ci_high,unit\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
-        csv_stats(w, rep->items[i].name, "", &r->zone, 0);
+        const csv_item it = {item_number(rep, i), rep->items[i].name};
+        csv_stats(w, &it, "", &r->zone, 0);
         if (r->has_target) {
-            csv_row(w, rep->items[i].name, "target.east", r->target_m[0] * len_shown(w, 1.0), NULL,
+            csv_row(w, &it, "target.east", r->target_m[0] * len_shown(w, 1.0), NULL,
                     NULL, len_unit(w));
-            csv_row(w, rep->items[i].name, "target.north", r->target_m[1] * len_shown(w, 1.0), NULL,
+            csv_row(w, &it, "target.north", r->target_m[1] * len_shown(w, 1.0), NULL,
                     NULL, len_unit(w));
-            csv_stats(w, rep->items[i].name, "target.", &r->at_target, 1);
+            csv_stats(w, &it, "target.", &r->at_target, 1);
         }
     }
     /* the kit's clearance radius and landing circle, each in the row of the
@@ -178,10 +185,13 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
     if (rep->inventory) {
         const plumb_zone_result *kr = rep->items[rep->kit_item].result;
         const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
-        csv_row(w, rep->items[rep->kit_item].name, "kit_clearance_radius",
+        const csv_item ki = {item_number(rep, rep->kit_item), rep->items[rep->kit_item].name};
+        const csv_item li = {item_number(rep, rep->kit_landing_item),
+                             rep->items[rep->kit_landing_item].name};
+        csv_row(w, &ki, "kit_clearance_radius",
                 len_shown(w, kr->zone.clearance_radius_m), NULL, NULL, len_unit(w));
         if (!lr->zone.landing_radius.hi_open)
-            csv_row(w, rep->items[rep->kit_landing_item].name, "kit_landing_circle",
+            csv_row(w, &li, "kit_landing_circle",
                     len_shown(w, lr->zone.landing_circle_m), NULL, NULL, len_unit(w));
     }
 }

@@ -278,6 +278,7 @@ json_t *plumbp_zone_json_report(jctx *j, const plumb_report_options *opt,
         size_t worst = 0;
         for (size_t i = 0; i < rep->n_items; i++) {
             json_t *o = jobj(j);
+            jset(j, o, "item_number", json_integer((json_int_t)item_number(rep, i)));
             jset(j, o, "name", jstr(j, rep->items[i].name));
             jset(j, o, "zone", j_zone(j, rep->items[i].result));
             jpush(j, items, o);

@@ -483,7 +483,7 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
     /* The table keeps to TABLE_WIDTH columns: a long name is wrapped onto
      * continuation lines of its own column, never cut, as in the tables of
      * plumb fall and sweep. */
-    enum { LEAD_W = 2, GAP_W = 2, FIG_W = 13, LAST_W = 14, NAME_MIN = 4 };
+    enum { LEAD_W = 5, GAP_W = 2, FIG_W = 13, LAST_W = 14, NAME_MIN = 4 };
     const char *heads[2] = {"clearance", "landing circle"};
     size_t name_w = NAME_MIN;
     for (size_t i = 0; i < rep->n_items; i++)
@@ -491,14 +491,14 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
             name_w = shown_width(rep->items[i].name);
     if (name_w > TABLE_WIDTH - LEAD_W - GAP_W - FIG_W - 1 - LAST_W)
         name_w = TABLE_WIDTH - LEAD_W - GAP_W - FIG_W - 1 - LAST_W;
-    put(w, "%*s", LEAD_W, "");
+    put(w, "%*s ", LEAD_W - 1, "#");
     pad(w, "item", name_w, 0);
     put(w, "%*s%-*s %s\n", GAP_W, "", FIG_W, heads[0], heads[1]);
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_stats *z = &rep->items[i].result->zone;
         char part[4 * TABLE_WIDTH + 1];
         const char *rest = wrap_cell(rep->items[i].name, name_w, part, sizeof part);
-        put(w, "%*s", LEAD_W, "");
+        put(w, "%*zu ", LEAD_W - 1, item_number(rep, i));
         pad(w, part, name_w, 0);
         put(w, "%*s%-*s %s\n", GAP_W, "", FIG_W, t_len(w, z->clearance_radius_m),
             z->landing_radius.hi_open ? "open" : t_len(w, z->landing_circle_m));
@@ -519,7 +519,10 @@ void plumbp_zone_text_report(writer *w, const plumb_report_options *opt,
         r0->samples, r0->seed, rep->threads, rep->threads == 1 ? "" : "s", pct(w, r0->ci_level));
     for (size_t i = 0; i < rep->n_items; i++) {
         if (rep->inventory) {
-            wrapped(w, "==== ", rep->items[i].name);
+            /* numbered as items[N] is, the profile as written */
+            char head[PLUMB_NAME + 32];
+            snprintf(head, sizeof head, "%zu %s", item_number(rep, i), rep->items[i].name);
+            wrapped(w, "==== ", head);
             put(w, "\n");
         }
         text_item(w, rep->items[i].result);

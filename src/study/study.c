@@ -395,6 +395,7 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
             }
         }
         s->zone_items[i].name = spec->name;
+        s->zone_items[i].number = plumb_profile_item_number(s->profile, i);
         s->zone_items[i].result = &s->zones[i];
     }
     free(unc);

@@ -31,17 +31,17 @@ def rows(name):
     with open(os.path.join(tmp, name), encoding="utf-8") as f:
         return list(csv.reader(l for l in f if not l.startswith("#")))
 si, us = rows("si.csv"), rows("us.csv")
-check(si[0] == ["item", "quantity", "value", "ci_low", "ci_high", "unit"], f"zone CSV header {si[0]}")
-area = {r[1]: r for r in si[1:] if r[1].startswith("landing_area")}
-area_us = {r[1]: r for r in us[1:] if r[1].startswith("landing_area")}
+check(si[0] == ["item_number", "item", "quantity", "value", "ci_low", "ci_high", "unit"], f"zone CSV header {si[0]}")
+area = {r[2]: r for r in si[1:] if r[2].startswith("landing_area")}
+area_us = {r[2]: r for r in us[1:] if r[2].startswith("landing_area")}
 check(set(area) == {"landing_area", "landing_area_buffered"}, f"zone CSV areas: {sorted(area)}")
 for q in area:
-    check(area[q][5] == "m²", f"{q}: unit {area[q][5]!r}, expected m²")
-    check(area_us[q][5] == "ft²", f"{q} --units us: unit {area_us[q][5]!r}, expected ft²")
-    ratio = float(area[q][2]) / float(area_us[q][2])
+    check(area[q][6] == "m²", f"{q}: unit {area[q][6]!r}, expected m²")
+    check(area_us[q][6] == "ft²", f"{q} --units us: unit {area_us[q][6]!r}, expected ft²")
+    ratio = float(area[q][3]) / float(area_us[q][3])
     check(abs(ratio - 0.3048 ** 2) <= 1e-9 * 0.3048 ** 2, f"{q}: SI / US = {ratio}, expected 0.3048²")
 for name, table in (("si", si), ("us", us)):
-    bad = sorted({r[5] for r in table[1:] if re.search(r"[a-z][23]\b", r[5])})
+    bad = sorted({r[6] for r in table[1:] if re.search(r"[a-z][23]\b", r[6])})
     check(not bad, f"zone CSV ({name}) spells a unit with a bare digit: {bad}")
 sw = rows("sweep.csv")
 check(sw[0][0] == "payload.drag.area m²", f"sweep CSV axis column {sw[0][0]!r}")

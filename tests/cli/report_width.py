@@ -155,7 +155,8 @@ try:
         check(not wide(out), f"zone long names --units {units}: wide lines {wide(out)[:3]}")
         check("~" not in out, f"zone long names --units {units}: a name was cut to ~")
         lines = out.splitlines()
-        head = [i for i, l in enumerate(lines) if re.match(r"^  item +clearance +landing circle$", l)]
+        head = [i for i, l in enumerate(lines)
+                if re.match(r"^ +# item +clearance +landing circle$", l)]
         check(len(head) == 1, f"zone long names --units {units}: one kit table, found {len(head)}")
         names, cur = [], None
         for l in lines[head[0] + 1:] if head else []:
@@ -163,6 +164,10 @@ try:
                 break
             col = lines[head[0]].index("clearance")
             cell, figs = l[:col].strip(), l[col:].strip()
+            if figs:
+                # the item's number, as items[N] (issue 9), before its name
+                num, _, cell = cell.partition(" ")
+                check(num.isdigit(), f"zone kit table row without its number: {l!r}")
             if figs:
                 if cur is not None:
                     names.append(cur)
@@ -176,8 +181,9 @@ try:
                   f"table {names}")
         # and whole in each item's heading, wrapped at the width
         flat = " ".join(out.split())
-        for n in NAMES:
-            check(f"==== {n} " in flat, f"zone long names --units {units}: no heading '==== {n}'")
+        for k, n in enumerate(NAMES):
+            check(re.search(r"==== \d+ " + re.escape(n) + " ", flat),
+                  f"zone long names --units {units}: no heading '==== N {n}'")
 finally:
     shutil.rmtree(tmp)
 

@@ -144,7 +144,7 @@ check "csv caution lines start with '# '" sh -c "grep -F 'engineering estimate' 
 check "text states the seed and the SHA-256" sh -c "grep -q 'seed 73' '$tmp/z.txt' && grep -q '$sha' '$tmp/z.txt'"
 check "text states the clearance radius and the scatter" sh -c "grep -q '^Clearance radius at 99 %' '$tmp/z.txt' && grep -q 'scatter allowance' '$tmp/z.txt'"
 check "text --units us shows feet" grep -q ' ft' "$tmp/us.txt"
-check "csv has its header row" grep -q '^item,quantity,value,ci_low,ci_high,unit$' "$tmp/z.csv"
+check "csv has its header row" grep -q '^item_number,item,quantity,value,ci_low,ci_high,unit$' "$tmp/z.csv"
 check "no NaN in text or csv" sh -c "! grep -q -i -w -e nan -e inf '$tmp/z.txt' '$tmp/z.csv' '$tmp/us.txt'"
 check "no progress on a non-terminal stderr" test ! -s "$tmp/stderr"
 zone_json "$tmp/us.json" --units us --threads 1 --target 12.5m,-4m
