@@ -614,5 +614,37 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
                          "The energy axis is logarithmic: each step up is ten times the energy.",
                          1) + 1.5;
+    /* a curve with no figures at some heights says why, rather than
+     * leaving a gap the reader might take for zero energy */
+    for (size_t p = 0; p < b->n_plots; p++) {
+        const plumb_brief_plot *cp = &b->plots[p];
+        const plumb_fall_spec *sp = b->fall->items[cp->item].spec;
+        size_t first = 0, missing = 0;
+        for (size_t i = 1; i < cp->n_curve; i++) {
+            if (!cp->curve_ok[i])
+                missing++;
+            else if (!first)
+                first = i;
+        }
+        if (!missing)
+            continue;
+        double below = 0.0;
+        size_t dev = 0;
+        for (size_t k = 0; k < sp->n_descent && k < PLUMB_MAX_DESCENT; k++)
+            if (sp->descent[k].trigger == PLUMB_DEPLOY_BELOW && sp->descent[k].deploy_value > below) {
+                below = sp->descent[k].deploy_value;
+                dev = k;
+            }
+        const char *why =
+            below > 0.0 && first > 1 && cp->curve_h_m[first - 1] <= below
+                ? sheet_fmt(d, "%s: no curve at drop heights up to %s; its %s deploys "
+                               "below that height, so the drop must start above it.",
+                            sheet_esc(d, sp->name), plumbp_t_len(P, below),
+                            plumb_descent_kind_name(sp->descent[dev].kind))
+                : sheet_fmt(d, "%s: no curve at %zu of the %zu heights plotted, where the fall "
+                               "cannot be computed.",
+                            sheet_esc(d, sp->name), missing, cp->n_curve);
+        ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font, why, 1) + 1.5;
+    }
     return ly - y + 4.0;
 }

@@ -636,6 +636,21 @@ check(len(with_8) == 1 and not any("7. Cautions (continued)" in p for p in cp)
       f"canopy: section 7 whole on one page ({len(with_8)} pages name it, {len(bullets)} cautions)")
 os.remove(pdf_can)
 
+# ---- a curve with a gap says why ---------------------------------------------------
+# A parachute deploying below 40 m needs a drop from above 40 m (the loader
+# refuses a deploy height at or above the release height), so the energy
+# curve has no points up to 40 m: the legend says so, rather than leaving a
+# gap a reader could take for no energy.
+pdf_gap = os.path.join(tmp, "gap.pdf")
+rc, _, err = run("sheet", os.path.join(ROOT, "profiles/demo/drone-canopy.yaml"), "-o", pdf_gap,
+                 "--samples", "400", "--set", "descent.deploy=~",
+                 "--set", "descent.deploy.below=40 m")
+check(rc == 0, f"gap: exit {rc}: {err}")
+gap = re.sub(r"\s+", " ", "".join(pages_text(pdf_gap)))
+check("no curve at drop heights up to 40.00 m; its parachute deploys below that height" in gap,
+      "a curve starting above a deploy height says why")
+os.remove(pdf_gap)
+
 # ---- several profiles: one document ------------------------------------------------
 both = os.path.join(tmp, "both.pdf")
 rc, _, err = run("sheet", DRONE, KIT, "-o", both, "--samples", "500")
