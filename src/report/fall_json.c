@@ -182,6 +182,12 @@ static json_t *j_inputs(jctx *j, const plumb_item_report *it, const plumb_profil
     jset(j, rel, "height_m", jreal(j, s->release_m[2]));
     jset(j, rel, "position_m", jvec(j, s->release_m, 2));
     jset(j, rel, "velocity_m_s", jvec(j, s->velocity_m_s, 3));
+    if (s->downwash.aircraft_mass_kg > 0.0 && s->downwash.disk_area_m2 > 0.0) {
+        json_t *dw = jobj(j);
+        jset(j, dw, "aircraft_mass_kg", jreal(j, s->downwash.aircraft_mass_kg));
+        jset(j, dw, "disk_area_m2", jreal(j, s->downwash.disk_area_m2));
+        jset(j, rel, "downwash", dw);
+    }
     jset(j, o, "release", rel);
 
     json_t *site = jobj(j);

@@ -533,6 +533,17 @@ static void text_inputs(writer *w, const plumb_item_report *it, const plumb_prof
     }
     text_release(w, s, line, sizeof line);
     wrapped(w, "  release     ", line);
+    if (s->downwash.aircraft_mass_kg > 0.0 && s->downwash.disk_area_m2 > 0.0) {
+        /* the rotor wake's inputs, beside the warnings that give its figures */
+        char mass[NUMBUF * 3], area[NUMBUF * 3];
+        w->exact = 1;
+        snprintf(mass, sizeof mass, "%s", plumbp_t_mass(w, s->downwash.aircraft_mass_kg));
+        snprintf(area, sizeof area, "%s", plumbp_t_area(w, s->downwash.disk_area_m2));
+        w->exact = 0;
+        snprintf(line, sizeof line, "aircraft mass %s, rotor disk area %s (all rotors)", mass,
+                 area);
+        wrapped(w, "  downwash    ", line);
+    }
     text_site(w, s, ia, line, sizeof line);
     wrapped(w, "  site        ", line);
     plumbp_text_atmosphere(w, plumb_profile_atmosphere(p), line, sizeof line);

@@ -166,6 +166,9 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
         const char *u;
         double f = key_unit(w, in->key, &u);
         const char *sp = u[0] && strcmp(u, "°") != 0 ? NBSP : "";
+        /* as given, or, converted to another unit, to the report's figures
+         * (8.948 mph, not the 8.94775 that 4 m/s converts to) */
+        int sig = f == 1.0 ? INPUT_SIG : TEXT_SIG;
         char line[512];
         switch (in->kind) {
         case PLUMB_DIST_CHOICE: {
@@ -177,31 +180,31 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
                 len += (size_t)snprintf(line + len, sizeof line - len, "%s %s (%s, cd %s on %s)",
                                         k ? "," : "", in->choice[k],
                                         pct(w, in->weight[k] / total),
-                                        trim(w, in->choice_drag[k][0], INPUT_SIG, INPUT_DEC),
+                                        trim(w, in->choice_drag[k][0], sig, INPUT_DEC),
                                         plumbp_t_area(w, in->choice_drag[k][1]));
             break;
         }
         case PLUMB_DIST_UNIFORM:
-            snprintf(line, sizeof line, "uniform %s%s%s to %s%s%s", trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC),
-                     sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u);
+            snprintf(line, sizeof line, "uniform %s%s%s to %s%s%s", trim(w, f * in->param[0], sig, INPUT_DEC),
+                     sp, u, trim(w, f * in->param[1], sig, INPUT_DEC), sp, u);
             break;
         case PLUMB_DIST_TRIANGULAR:
             snprintf(line, sizeof line, "triangular %s%s%s, mode %s%s%s, to %s%s%s",
-                     trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC), sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u,
-                     trim(w, f * in->param[2], INPUT_SIG, INPUT_DEC), sp, u);
+                     trim(w, f * in->param[0], sig, INPUT_DEC), sp, u, trim(w, f * in->param[1], sig, INPUT_DEC), sp, u,
+                     trim(w, f * in->param[2], sig, INPUT_DEC), sp, u);
             break;
         default:
-            snprintf(line, sizeof line, "normal, mean %s%s%s, sd %s%s%s", trim(w, f * in->param[0], INPUT_SIG, INPUT_DEC),
-                     sp, u, trim(w, f * in->param[1], INPUT_SIG, INPUT_DEC), sp, u);
+            snprintf(line, sizeof line, "normal, mean %s%s%s, sd %s%s%s", trim(w, f * in->param[0], sig, INPUT_DEC),
+                     sp, u, trim(w, f * in->param[1], sig, INPUT_DEC), sp, u);
             break;
         }
         if (in->truncated) {
             size_t len = strlen(line);
             char lo[64] = "", hi[64] = "";
             if (isfinite(in->lower))
-                snprintf(lo, sizeof lo, "%s%s%s", trim(w, f * in->lower, INPUT_SIG, INPUT_DEC), sp, u);
+                snprintf(lo, sizeof lo, "%s%s%s", trim(w, f * in->lower, sig, INPUT_DEC), sp, u);
             if (isfinite(in->upper))
-                snprintf(hi, sizeof hi, "%s%s%s", trim(w, f * in->upper, INPUT_SIG, INPUT_DEC), sp, u);
+                snprintf(hi, sizeof hi, "%s%s%s", trim(w, f * in->upper, sig, INPUT_DEC), sp, u);
             if (lo[0] && hi[0])
                 snprintf(line + len, sizeof line - len, "; truncated to %s – %s", lo, hi);
             else

@@ -230,6 +230,20 @@ try:
             bad = SI_UNIT if units == "us" else US_UNIT
             check(not bad.search(l.replace("the mean wind at 20 ft", "")),
                   f"sweep --units {units}: a unit of the other system in {l!r}")
+    # the rotor's inputs are stated with the other inputs, in the report's
+    # units (1 lb = 0.45359237 kg, 1 ft = 0.3048 m: NIST SP 811), and JSON
+    # gives them in SI under release.downwash
+    si_in = " ".join(runs[("fall", "si", "text")].split("Inputs as understood", 1)[-1].split())
+    us_in = " ".join(runs[("fall", "us", "text")].split("Inputs as understood", 1)[-1].split())
+    check("downwash aircraft mass 6.35 kg, rotor disk area 0.93 m² (all rotors)" in si_in,
+          f"fall --units si: the downwash inputs stated: {si_in[:300]!r}")
+    want_us = (f"downwash aircraft mass {6.35 / 0.45359237:.4g} lb [6.35 kg], rotor disk area "
+               f"{0.93 / 0.3048 ** 2:.4g} ft²")
+    check(want_us in us_in, f"fall --units us: {want_us!r} in {us_in[:300]!r}")
+    dj = json.loads(runs[("fall", "si", "json")])
+    dw = (dj.get("inputs") or dj).get("release", {}).get("downwash") or {}
+    check(dw.get("aircraft_mass_kg") == 6.35 and dw.get("disk_area_m2") == 0.93,
+          f"fall json: release.downwash {dw}")
 finally:
     shutil.rmtree(tmp)
 finish()
