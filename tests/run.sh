@@ -78,7 +78,6 @@ if [ "${1:-}" = "--one" ]; then
   fi
   rm -rf "$tmp"
   echo "$p $f $s" >"$work/$i.res"
-  echo "$cpu $t" >"$work/$i.cpu"
   [ -n "$why" ] && echo "!! $why" >>"$log"
   if [ "$f" -gt 0 ]; then word=FAIL; elif [ "$s" -gt 0 ]; then word=skip; else word=ok; fi
   printf '%-4s %s [%s]: %d passed, %d failed, %d skipped (%d s, %s s CPU)%s\n' \
@@ -118,36 +117,18 @@ work=$(mktemp -d "${TMPDIR:-/tmp}/plumb-run.XXXXXX") || exit 2
 trap 'rm -rf "$work"' EXIT
 trap 'exit 2' HUP INT PIPE TERM
 
-# Longest first, so that the JOBS slots finish together: by the CPU seconds
-# each test took in the last run against the same build directory
-# (BUILD/test-cpu.txt, written at the end of every run). Tests with no
-# time yet come before all others, in this order: scripts first, the last
-# build directory (the sanitizer build) first, as those are the slow ones.
-k=0
-: >"$work/list"
+# Scripts first, the last build directory (the sanitizer build) first: they
+# are the slow ones, so the short test programs fill in at the end.
+n=0
+add() { n=$((n + 1)); printf '%s\n%s\n%s\n' "$1" "$2" "$3" >"$work/job.$n"; }
 rev=""
 for b in $dirs; do rev="$b $rev"; done
 for b in $rev; do
-  for t in tests/cli/*.sh tests/ref/*.sh; do
-    [ -f "$t" ] && { k=$((k + 1)); echo "$k script $t $b"; }
-  done
-done >>"$work/list"
+  for t in tests/cli/*.sh tests/ref/*.sh; do [ -f "$t" ] && add script "$t" "$b"; done
+done
 for b in $rev; do
-  for t in "$b"/tests/test_*; do
-    [ -f "$t" ] && [ -x "$t" ] && { k=$((k + 1)); echo "$k prog ${t##*/} $b"; }
-  done
-done >>"$work/list"
-n=0
-for b in $dirs; do [ -f "$b/test-cpu.txt" ] && echo "$b" ; done >"$work/known"
-awk -v work="$work" '
-  FILENAME == work "/known" { f = $0 "/test-cpu.txt"
-    while ((getline line < f) > 0) { split(line, a, " "); cpu[$0 " " a[2]] = a[1] }
-    close(f); next }
-  { w = (($4 " " $3) in cpu) ? cpu[$4 " " $3] : 1e9; print w, $0 }
-' "$work/known" "$work/list" | sort -k1,1gr -k2,2n >"$work/order"
-while read -r w k kind t b; do
-  n=$((n + 1)); printf '%s\n%s\n%s\n' "$kind" "$t" "$b" >"$work/job.$n"
-done <"$work/order"
+  for t in "$b"/tests/test_*; do [ -f "$t" ] && [ -x "$t" ] && add prog "${t##*/}" "$b"; done
+done
 
 i=1
 while [ "$i" -le "$n" ]; do echo "$i"; i=$((i + 1)); done |
@@ -187,18 +168,6 @@ if [ -s "$work/skips" ]; then
     fi
   done <"$work/skips"
 fi
-
-# This run's CPU seconds per test, for the order of the next run; a build
-# directory that cannot be written keeps its old times.
-for b in $dirs; do
-  i=1
-  while [ "$i" -le "$n" ]; do
-    { read -r kind; read -r t; read -r bb; } <"$work/job.$i"
-    [ "$bb" = "$b" ] && [ -f "$work/$i.cpu" ] && cat "$work/$i.cpu"
-    i=$((i + 1))
-  done >"$work/cpu"
-  [ -s "$work/cpu" ] && cp "$work/cpu" "$b/test-cpu.txt" 2>/dev/null
-done
 
 echo "check: $passed passed, $failed failed, $skipped skipped"
 [ "$failed" -eq 0 ]
