@@ -68,8 +68,11 @@ PIC_FLAGS := -fPIC -fno-semantic-interposition
 
 # The sanitizer build of `make check` and `make asan`. -Og: measured on
 # report.c, 2.9 s to compile against 7.2 s at -O1, and no slower tests.
+# -g1: line tables only, which is all a sanitizer's report needs (file and
+# line of each frame); the full -g of variables and types made the build
+# take 30 % longer (measured on seven of the largest sources).
 ASAN_BUILD := $(BUILD)/asan
-ASAN_VARS  = BUILD=$(ASAN_BUILD) OPT="-Og -g" \
+ASAN_VARS  = BUILD=$(ASAN_BUILD) OPT="-Og -g1" \
   EXTRA_CFLAGS="-fsanitize=address,undefined -fno-sanitize-recover=all -fno-omit-frame-pointer" \
   EXTRA_LDFLAGS="-fsanitize=address,undefined"
 # The gcov build of `make coverage`.

@@ -42,6 +42,10 @@ if [ "${1:-}" = "--one" ]; then
   esac
   rc=$?
   secs=$(( $(date +%s) - start ))
+  # CPU seconds (user + sys) of the test and all it started: the second
+  # line of `times` (run in this shell, not a subshell, which would count 0).
+  times >"$work/$i.times"
+  cpu=$(sed -n '2{s/[ms]/ /g;p;}' "$work/$i.times" | awk '{printf "%.1f", $1 * 60 + $2 + $3 * 60 + $4}')
   p=0; f=0; s=0; why=""
   : >"$work/$i.skips"
   if [ "$kind" = prog ]; then
@@ -76,8 +80,8 @@ if [ "${1:-}" = "--one" ]; then
   echo "$p $f $s" >"$work/$i.res"
   [ -n "$why" ] && echo "!! $why" >>"$log"
   if [ "$f" -gt 0 ]; then word=FAIL; elif [ "$s" -gt 0 ]; then word=skip; else word=ok; fi
-  printf '%-4s %s [%s]: %d passed, %d failed, %d skipped (%d s)%s\n' \
-    "$word" "$t" "$b" "$p" "$f" "$s" "$secs" "${why:+ - $why}"
+  printf '%-4s %s [%s]: %d passed, %d failed, %d skipped (%d s, %s s CPU)%s\n' \
+    "$word" "$t" "$b" "$p" "$f" "$s" "$secs" "$cpu" "${why:+ - $why}"
   exit 0
 fi
 

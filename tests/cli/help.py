@@ -26,8 +26,17 @@ import plumbcli  # noqa: E402
 from plumbcli import ROOT, check, finish  # noqa: E402
 
 
+_runs = {}
+
+
 def plumb(*args):
-    return plumbcli.plumb(*args, stdin=subprocess.DEVNULL, timeout=60)
+    """plumbcli.plumb, once per command line: nothing here changes between two
+    runs of the same arguments (no input, no file written), so a repeated
+    question (an option both a candidate and listed) is answered by the same
+    run's output instead of a second start of plumb."""
+    if args not in _runs:
+        _runs[args] = plumbcli.plumb(*args, stdin=subprocess.DEVNULL, timeout=60)
+    return _runs[args]
 
 
 # The commands, from `plumb --help` ("  NAME   one-line help" under "Commands:").
