@@ -250,10 +250,7 @@ void cli_zone_init(cli_zone_run *r, const cli_args *a, const cli_zone_opts *zo)
     plumb_zone_options_init(&r->opt);
 }
 
-/* A setting that an option gave is refused at that option: too few
- * samples for the confidence at --samples, or at --confidence when only
- * that was given; the others where the profile gave them. */
-static void at_option(const cli_zone_opts *zo, plumb_diag *diag)
+void cli_zone_at_option(const cli_zone_opts *zo, plumb_diag *diag)
 {
     const char *by = NULL;
     if (strcmp(diag->key, "zone.samples") == 0)
@@ -316,7 +313,7 @@ static plumb_status settings(cli_zone_run *r, const cli_study *cs, plumb_diag *d
     }
     st = plumb_study_zone_check_settings(cs->study, z, &r->opt, diag);
     if (st != PLUMB_OK)
-        at_option(zo, diag);
+        cli_zone_at_option(zo, diag);
     return st;
 }
 

@@ -58,6 +58,12 @@ typedef struct cli_zone_run {
  * the usage error printed. */
 int cli_zone_check_files(const cli_args *a, const cli_zone_opts *zo);
 
+/* A zone setting that an option gave is refused at that option: too few
+ * samples for the confidence at --samples, or at --confidence when only
+ * that was given; the others where the profile gave them. (plumb zone and
+ * plumb sheet, whose --samples and --seed set the zone too.) */
+void cli_zone_at_option(const cli_zone_opts *zo, plumb_diag *diag);
+
 /* Sets r up empty (cli_zone_finish may follow at once). Can't fail. */
 void cli_zone_init(cli_zone_run *r, const cli_args *a, const cli_zone_opts *zo);
 

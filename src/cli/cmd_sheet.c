@@ -15,6 +15,7 @@
 #include <time.h>
 
 #include "cli.h"
+#include "cli_zone.h"
 #include "plumb/brief.h"
 #include "plumb/sheet.h"
 
@@ -50,22 +51,6 @@ static plumb_status write_sheet(FILE *out, const void *ctx, plumb_diag *diag)
 {
     const sheet_job *job = ctx;
     return plumb_sheet_write(out, &job->so, job->briefs, job->n, diag);
-}
-
-/* A zone setting that --samples or --seed gave is refused at that option,
- * not at the profile's zone: key it never held (as plumb zone does). */
-static void at_option(const cli_option *o, plumb_diag *diag)
-{
-    const char *by = NULL;
-    if (strcmp(diag->key, "zone.samples") == 0 && o[OPT_SAMPLES].value)
-        by = "--samples";
-    else if (strcmp(diag->key, "zone.seed") == 0 && o[OPT_SEED].value)
-        by = "--seed";
-    if (!by)
-        return;
-    snprintf(diag->file, sizeof diag->file, "<command line>");
-    diag->line = diag->col = 0;
-    snprintf(diag->key, sizeof diag->key, "%s", by);
 }
 
 /* The options over the defaults: paper, units, samples, seed, and the time
@@ -130,9 +115,10 @@ static int run(const cli_args *a, const cli_option *o)
         if (!a->quiet && falls > NOTE_FALLS)
             fprintf(stderr, "plumb sheet: %s: the clearance zone runs %.0f falls (--samples sets "
                             "fewer)\n", a->args[i], falls);
+        cli_zone_opts zo = {.samples = o[OPT_SAMPLES].value, .seed = o[OPT_SEED].value};
         if (st == PLUMB_OK && (st = plumb_brief_alloc(cs[i].study, &bo, &briefs[i], &diag)) !=
                                   PLUMB_OK)
-            at_option(o, &diag);
+            cli_zone_at_option(&zo, &diag);
     }
     job.briefs = (const plumb_brief *const *)briefs;
     int rc = st == PLUMB_OK ? cli_emit(a, write_sheet, &job) : cli_fail(&diag);
