@@ -93,6 +93,8 @@ int cmd_sweep(int argc, char **argv)
         {.name = "--vary", .arg = "KEY=FROM:TO:STEP", .max = PLUMB_MAX_AXES,
          .help = "the key and its range, each value with its unit\n"
                  "(release.height=2m:60m:2m); a negative STEP runs down;\n"
+                 "a direction's ends may be compass points, turning\n"
+                 "through north as STEP does (wind.from=NW:NE:22.5deg);\n"
                  "given twice, a two-way table"},
     };
     cli_args a;
