@@ -1,7 +1,7 @@
 /*
  * sweep_table.c - the table of a sweep (plumb_report_sweep): one row per
- * value of the varied inputs, in text, CSV and JSON, with each row's
- * verdicts and the warnings counted over the rows.
+ * value of the varied inputs, with each row's verdicts and the warnings
+ * counted over the rows, as text; CSV and JSON are sweep_data.c's.
  */
 #include <math.h>
 #include <stdint.h>
@@ -12,6 +12,7 @@
 #include "io/keys.h"
 #include "io/vary.h"
 #include "report/common.h"
+#include "report/sweep_int.h"
 
 /* ---- sweep table --------------------------------------------------------- */
 
@@ -72,7 +73,7 @@ static double shown_value(const plumb_range *ax, double v)
     return b < 0.0 ? b + 360.0 : b;
 }
 
-static double row_value(const plumb_sweep *sw, const plumb_sweep_row *row, size_t a)
+double plumbp_sweep_row_value(const plumb_sweep *sw, const plumb_sweep_row *row, size_t a)
 {
     return shown_value(plumb_sweep_axis(sw, a), row->value[a]);
 }
@@ -318,8 +319,8 @@ static const char *sweep_lead(writer *w, const sweep_cols *c, const plumb_sweep_
                               size_t it)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, it == 0 ? plumbp_gnum(w, row_value(c->sw, row, a), 8) : "", c->wkey[a] + (a ? SWEEP_GAP : 1),
-            1);
+        pad(w, it == 0 ? plumbp_gnum(w, plumbp_sweep_row_value(c->sw, row, a), 8) : "",
+            c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (!c->inv)
         return "";
     char part[PLUMB_NAME];
@@ -393,7 +394,7 @@ static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int 
 /* Calls fn once for each distinct warning of any row and item of a sweep
  * as shown (the same sentence from rows whose figures differ only beyond
  * the digits shown is one), with the number of rows it appears in. */
-static void each_sweep_warning(writer *w, const plumb_sweep *sw,
+void plumbp_each_sweep_warning(writer *w, const plumb_sweep *sw,
                                void (*fn)(writer *w, const char *text, size_t rows, size_t of))
 {
     size_t nr = plumb_sweep_row_count(sw), n = 0;
@@ -427,13 +428,6 @@ static void text_sweep_warning(writer *w, const char *text, size_t rows, size_t 
     wrapped(w, "  - ", line);
 }
 
-static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
-{
-    char line[PLUMB_WARNING * 2 + 64];
-    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
-    csv_comment(w, line);
-}
-
 static int sweep_has_warnings(const plumb_sweep *sw)
 {
     for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
@@ -446,7 +440,7 @@ static int sweep_has_warnings(const plumb_sweep *sw)
 }
 
 /* The first row with figures (plumb_sweep_run fails when there is none). */
-static const plumb_sweep_row *first_computed_row(const plumb_sweep *sw)
+const plumb_sweep_row *plumbp_sweep_first_row(const plumb_sweep *sw)
 {
     for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
@@ -472,7 +466,7 @@ static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *
 }
 
 /* The diagnostic of a row that has no figures, as one line. */
-static void row_error_text(const plumb_sweep_row *row, char *buf, size_t size)
+void plumbp_sweep_row_error(const plumb_sweep_row *row, char *buf, size_t size)
 {
     plumb_diag_format(&row->error, buf, size);
 }
@@ -509,7 +503,7 @@ static void text_boundary(writer *w, const plumb_sweep *sw)
         put(w, "\nNo boundary was computed; every figure is in --format csv or json.\n");
         return;
     }
-    const plumb_sweep_row *r0 = first_computed_row(sw);
+    const plumb_sweep_row *r0 = plumbp_sweep_first_row(sw);
     int inv = r0->report.n_items > 1;
     char text[PLUMB_NAME + PLUMB_DIAG_KEY * 2 + 3 * PLUMB_UNIT_TEXT + 320];
     snprintf(text, sizeof text,
@@ -580,7 +574,7 @@ static void text_boundary(writer *w, const plumb_sweep *sw)
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    const plumb_sweep_row *r0 = first_computed_row(sw);
+    const plumb_sweep_row *r0 = plumbp_sweep_first_row(sw);
     const plumb_profile *p = r0->report.profile;
     int inv = plumb_profile_is_inventory(p);
     const plumb_item_report *first = &r0->report.items[0];
@@ -636,8 +630,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         for (size_t a = 0; a < na; a++)
-            if (shown_width(plumbp_gnum(w, row_value(sw, row, a), 8)) > wkey[a])
-                wkey[a] = shown_width(plumbp_gnum(w, row_value(sw, row, a), 8));
+            if (shown_width(plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8)) > wkey[a])
+                wkey[a] = shown_width(plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8));
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
             if (shown_width(item->spec->name) > name_w)
@@ -697,7 +691,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         if (row->status != PLUMB_OK) {
             for (size_t a = 0; a < na; a++)
-                pad(w, plumbp_gnum(w, row_value(sw, row, a), 8), wkey[a] + (a ? SWEEP_GAP : 1), 1);
+                pad(w, plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8),
+                    wkey[a] + (a ? SWEEP_GAP : 1), 1);
             put(w, "  not computed, see (%zu) below\n", ++n_failed);
             continue;
         }
@@ -756,7 +751,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             char lead[32], why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
             char vals[ROW_VALUES], text[sizeof why + sizeof vals + 8];
             snprintf(lead, sizeof lead, "  (%zu) ", ++k);
-            row_error_text(row, why, sizeof why);
+            plumbp_sweep_row_error(row, why, sizeof why);
             row_values(w, sw, row, vals, sizeof vals);
             snprintf(text, sizeof text, "%s: %s", vals, why);
             wrapped(w, lead, text);
@@ -765,122 +760,11 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     text_criteria_legend(w, first);
     if (sweep_has_warnings(sw)) {
         put(w, "\nWarnings\n");
-        each_sweep_warning(w, sw, text_sweep_warning);
+        plumbp_each_sweep_warning(w, sw, text_sweep_warning);
     }
     put(w, "\nEach row is exactly what `plumb fall` gives with --set at that value.\n");
     plumbp_text_profile(w, p);
     plumbp_caution_lines_text(w);
-}
-
-static void csv_sweep(writer *w, const plumb_sweep *sw)
-{
-    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    const plumb_sweep_row *r0 = first_computed_row(sw);
-    const plumb_profile *p = r0->report.profile;
-    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
-    plumbp_csv_cautions(w);
-    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(p),
-             plumb_profile_path(p), plumb_profile_sha256(p));
-    csv_comment(w, text);
-    const plumb_item_report *first = &r0->report.items[0];
-    for (size_t k = 0; k < first->n_verdicts; k++) {
-        const plumb_criterion *c = first->verdicts[k].criterion;
-        snprintf(text, sizeof text, "criterion %s: %s, limit %s, source: %s, status %s", c->id,
-                 c->name, plumbp_csv_limit(w, c->energy_limit_j), c->source[0] ? c->source : "not given",
-                 c->status[0] ? c->status : "not given");
-        csv_comment(w, text);
-    }
-    each_sweep_warning(w, sw, csv_sweep_warning);
-    if (plumb_sweep_failed_count(sw) > 0) {
-        snprintf(text, sizeof text, "%zu of %zu rows could not be computed: their figures are "
-                 "empty and the last column says why", plumb_sweep_failed_count(sw), nr);
-        csv_comment(w, text);
-    }
-    for (size_t a = 0; a < na; a++) {
-        const plumb_range *ax = plumb_sweep_axis(sw, a);
-        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "",
-                 unit_shown(w, ax->unit));
-        csv_field(w, text);
-        put(w, ",");
-    }
-    size_t n_cols = plumbp_csv_header_cols(w, first);
-    put(w, ",error\n");
-    for (size_t i = 0; i < nr; i++) {
-        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
-        if (row->status != PLUMB_OK) {
-            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
-            for (size_t a = 0; a < na; a++)
-                put(w, "%s,", csvnum(w, row_value(sw, row, a)));
-            for (size_t c = 0; c < n_cols; c++)
-                put(w, ",");
-            row_error_text(row, why, sizeof why);
-            csv_field(w, why);
-            put(w, "\n");
-            continue;
-        }
-        for (size_t it = 0; it < row->report.n_items; it++) {
-            for (size_t a = 0; a < na; a++)
-                put(w, "%s,", csvnum(w, row_value(sw, row, a)));
-            plumbp_csv_item_cols(w, &row->report.items[it],
-                                 plumb_profile_item_number(row->report.profile, it));
-            put(w, ",\n");
-        }
-    }
-}
-
-static json_t *j_sweep(jctx *j, const plumb_report_options *opt, const plumb_sweep *sw,
-                       item_air *const *ia)
-{
-    json_t *root = jobj(j);
-    if (opt->version)
-        jset(j, root, "plumb_version", jstr(j, opt->version));
-    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
-    json_t *vary = jarr(j);
-    for (size_t a = 0; a < na; a++) {
-        const plumb_range *ax = plumb_sweep_axis(sw, a);
-        json_t *o = jobj(j);
-        jset(j, o, "key", jstr(j, ax->key));
-        jset(j, o, "unit", jstr(j, ax->unit));
-        jset(j, o, "from", jreal(j, ax->from));
-        jset(j, o, "to", jreal(j, ax->to));
-        jset(j, o, "step", jreal(j, ax->step));
-        jset(j, o, "count", json_integer((json_int_t)ax->n));
-        jpush(j, vary, o);
-    }
-    jset(j, root, "vary", vary);
-    jset(j, root, "failed_rows", jint(j, plumb_sweep_failed_count(sw)));
-    json_t *rows = jarr(j);
-    for (size_t i = 0; i < nr; i++) {
-        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
-        const plumb_fall_report *rep = &row->report;
-        json_t *o = jobj(j);
-        json_t *vals = jobj(j), *vals_si = jobj(j);
-        for (size_t a = 0; a < na; a++) {
-            jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, row_value(sw, row, a)));
-            jset(j, vals_si, plumb_sweep_axis(sw, a)->key, jreal(j, row->value_si[a]));
-        }
-        jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */
-        jset(j, o, "values_si", vals_si);
-        if (row->status != PLUMB_OK) {
-            /* no figures: why, as the command line would print it */
-            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
-            row_error_text(row, why, sizeof why);
-            json_t *e = jobj(j);
-            jset(j, e, "message", jstr(j, why));
-            jset(j, e, "kind", jstr(j, plumb_strerror(row->status)));
-            jset(j, e, "computation_failed",
-                 json_boolean(!plumb_status_is_input_error(row->status)));
-            jset(j, o, "error", e);
-            jpush(j, rows, o);
-            continue;
-        }
-        plumbp_j_items_into(j, o, rep, ia[i]);
-        jpush(j, rows, o);
-    }
-    jset(j, root, "rows", rows);
-    jset(j, root, "profile", plumbp_j_profile(j, first_computed_row(sw)->report.profile));
-    jset(j, root, "cautions", j_cautions(j));
-    return root;
 }
 
 plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
@@ -888,7 +772,7 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
 {
     plumb_report_options def;
     opt = plumbp_opts_or_default(opt, &def);
-    if (!out || !sw || plumb_sweep_row_count(sw) == 0 || !first_computed_row(sw))
+    if (!out || !sw || plumb_sweep_row_count(sw) == 0 || !plumbp_sweep_first_row(sw))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no sweep to write");
     size_t nr = plumb_sweep_row_count(sw);
     item_air **ia = calloc(nr, sizeof *ia);
@@ -900,7 +784,7 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
             st = plumbp_prepare_fall(&plumb_sweep_row_at(sw, i)->report, &ia[i], diag);
     if (st == PLUMB_OK && opt->format == PLUMB_FORMAT_JSON) {
         jctx j = {0, 0};
-        st = emit_json(out, &j, j_sweep(&j, opt, sw, ia), diag);
+        st = emit_json(out, &j, plumbp_sweep_json(&j, opt, sw, ia), diag);
     } else if (st == PLUMB_OK) {
         writer w;
         char *buf;
@@ -908,7 +792,7 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
         st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
         if (st == PLUMB_OK) {
             if (opt->format == PLUMB_FORMAT_CSV)
-                csv_sweep(&w, sw);
+                plumbp_sweep_csv(&w, sw);
             else
                 text_sweep(&w, opt, sw);
             st = plumbp_writer_close(&w, &buf, &len, out, diag);

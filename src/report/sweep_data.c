@@ -1,0 +1,130 @@
+/*
+ * sweep_data.c - a sweep for programs (plumb_report_sweep, sweep_table.c):
+ * CSV, one line per row and item, and JSON, every row with its values and
+ * its fall report or its error.
+ */
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "report/common.h"
+#include "report/sweep_int.h"
+
+static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
+{
+    char line[PLUMB_WARNING * 2 + 64];
+    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
+    csv_comment(w, line);
+}
+
+void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
+{
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    const plumb_sweep_row *r0 = plumbp_sweep_first_row(sw);
+    const plumb_profile *p = r0->report.profile;
+    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    plumbp_csv_cautions(w);
+    snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(p),
+             plumb_profile_path(p), plumb_profile_sha256(p));
+    csv_comment(w, text);
+    const plumb_item_report *first = &r0->report.items[0];
+    for (size_t k = 0; k < first->n_verdicts; k++) {
+        const plumb_criterion *c = first->verdicts[k].criterion;
+        snprintf(text, sizeof text, "criterion %s: %s, limit %s, source: %s, status %s", c->id,
+                 c->name, plumbp_csv_limit(w, c->energy_limit_j), c->source[0] ? c->source : "not given",
+                 c->status[0] ? c->status : "not given");
+        csv_comment(w, text);
+    }
+    plumbp_each_sweep_warning(w, sw, csv_sweep_warning);
+    if (plumb_sweep_failed_count(sw) > 0) {
+        snprintf(text, sizeof text, "%zu of %zu rows could not be computed: their figures are "
+                 "empty and the last column says why", plumb_sweep_failed_count(sw), nr);
+        csv_comment(w, text);
+    }
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "",
+                 unit_shown(w, ax->unit));
+        csv_field(w, text);
+        put(w, ",");
+    }
+    size_t n_cols = plumbp_csv_header_cols(w, first);
+    put(w, ",error\n");
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        if (row->status != PLUMB_OK) {
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
+            for (size_t c = 0; c < n_cols; c++)
+                put(w, ",");
+            plumbp_sweep_row_error(row, why, sizeof why);
+            csv_field(w, why);
+            put(w, "\n");
+            continue;
+        }
+        for (size_t it = 0; it < row->report.n_items; it++) {
+            for (size_t a = 0; a < na; a++)
+                put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
+            plumbp_csv_item_cols(w, &row->report.items[it],
+                                 plumb_profile_item_number(row->report.profile, it));
+            put(w, ",\n");
+        }
+    }
+}
+
+json_t *plumbp_sweep_json(jctx *j, const plumb_report_options *opt, const plumb_sweep *sw,
+                          item_air *const *ia)
+{
+    json_t *root = jobj(j);
+    if (opt->version)
+        jset(j, root, "plumb_version", jstr(j, opt->version));
+    size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
+    json_t *vary = jarr(j);
+    for (size_t a = 0; a < na; a++) {
+        const plumb_range *ax = plumb_sweep_axis(sw, a);
+        json_t *o = jobj(j);
+        jset(j, o, "key", jstr(j, ax->key));
+        jset(j, o, "unit", jstr(j, ax->unit));
+        jset(j, o, "from", jreal(j, ax->from));
+        jset(j, o, "to", jreal(j, ax->to));
+        jset(j, o, "step", jreal(j, ax->step));
+        jset(j, o, "count", json_integer((json_int_t)ax->n));
+        jpush(j, vary, o);
+    }
+    jset(j, root, "vary", vary);
+    jset(j, root, "failed_rows", jint(j, plumb_sweep_failed_count(sw)));
+    json_t *rows = jarr(j);
+    for (size_t i = 0; i < nr; i++) {
+        const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+        const plumb_fall_report *rep = &row->report;
+        json_t *o = jobj(j);
+        json_t *vals = jobj(j), *vals_si = jobj(j);
+        for (size_t a = 0; a < na; a++) {
+            jset(j, vals, plumb_sweep_axis(sw, a)->key, jreal(j, plumbp_sweep_row_value(sw, row, a)));
+            jset(j, vals_si, plumb_sweep_axis(sw, a)->key, jreal(j, row->value_si[a]));
+        }
+        jset(j, o, "values_as_given", vals); /* in each range's unit, see "vary" */
+        jset(j, o, "values_si", vals_si);
+        if (row->status != PLUMB_OK) {
+            /* no figures: why, as the command line would print it */
+            char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
+            plumbp_sweep_row_error(row, why, sizeof why);
+            json_t *e = jobj(j);
+            jset(j, e, "message", jstr(j, why));
+            jset(j, e, "kind", jstr(j, plumb_strerror(row->status)));
+            jset(j, e, "computation_failed",
+                 json_boolean(!plumb_status_is_input_error(row->status)));
+            jset(j, o, "error", e);
+            jpush(j, rows, o);
+            continue;
+        }
+        plumbp_j_items_into(j, o, rep, ia[i]);
+        jpush(j, rows, o);
+    }
+    jset(j, root, "rows", rows);
+    jset(j, root, "profile", plumbp_j_profile(j, plumbp_sweep_first_row(sw)->report.profile));
+    jset(j, root, "cautions", j_cautions(j));
+    return root;
+}
