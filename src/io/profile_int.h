@@ -2,8 +2,9 @@
  * profile_int.h - what the files of the profile module share: profile.c
  * (loading, building, interpreting and reading a profile back),
  * profile_schema.c (the schema of the keys; a numeric key's dimension
- * and range are its row's in the key table, io/keys.h), profile_set.c
- * (dotted key paths: --set overrides, key dimensions and units),
+ * and range are its row's in the key table, io/keys.h), profile_keypath.c
+ * (dotted key paths, key dimensions and units), profile_set.c (--set
+ * overrides),
  * profile_item.c (a payload or item: drag, shape, descent devices,
  * glide), profile_scene.c (release, site, atmosphere, wind, turbulence),
  * profile_study.c (criteria, uncertainty, zone, job), profile_spec.c (a
@@ -165,9 +166,12 @@ static inline int plumbp_table_misses(const plumb_atm_spec *a, double lo_m, doub
 int plumbp_std_temperature_fails(double dt_k, double lo_m, double hi_m, double *at_m, double *t_k,
                                  plumb_status *st);
 
-/* profile_set.c */
+/* profile_keypath.c */
+/* Index of the item of list whose name is `name`, or -1. */
+long plumbp_item_named(const plumby_node *list, const char *name);
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag);
+/* profile_set.c */
 /* How the --set options of one command number an inventory's items: as
  * the profile is written, before any --set removes or adds one, so that
  * items[N] is the same item in every --set. Slot k is items[k + 1]: its
