@@ -57,6 +57,16 @@ typedef struct sheet_doc {
 /* The body's width. */
 static inline double sheet_width(const sheet_doc *d) { return d->right - d->left; }
 
+/* The formatter of the sheet's units, and of the other system (beside). */
+static inline writer *sheet_primary(sheet_doc *d)
+{
+    return d->opt->units == PLUMB_UNITS_US ? &d->us : &d->si;
+}
+static inline writer *sheet_secondary(sheet_doc *d)
+{
+    return d->opt->units == PLUMB_UNITS_US ? &d->si : &d->us;
+}
+
 /* Text at (x, y) in width w (0: no wrapping): `markup` in pango markup,
  * `font` a pango font description ("DejaVu Sans Bold 9"). Draws only when
  * draw is 1; returns the height. */

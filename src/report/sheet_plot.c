@@ -333,7 +333,7 @@ double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, d
         sheet_stroke(d, SHEET_SOLID, 1.2);
     }
     cairo_restore(d->cr);
-    writer *P = d->opt->units == PLUMB_UNITS_US ? &d->us : &d->si;
+    writer *P = sheet_primary(d);
     double ly = a.y + a.h + AX_BOTTOM;
     ly += legend(d, x, ly, w, SHEET_SOLID, 1.8,
                  sheet_fmt(d, "%s: the planned fall, landing %s from the release point after %s s",

@@ -1,8 +1,9 @@
 /*
  * sheet_sections.c - the sections of the PDF sheet that sheet.c draws in
- * order: 1 the header, 2 the answer (verdicts, the zone), 6 the
- * inventory table, 7 the inputs and what the model assumes, 8 the
- * cautions, and the frames of the pictures (sheet_plot.c, sheet_plan.c).
+ * order: the header, the answer (verdicts, the zone), the inputs and what
+ * the model assumes, the cautions, and the frames of the pictures
+ * (sheet_plot.c, sheet_plan.c); a kit's inventory table is
+ * sheet_inventory.c's.
  */
 #include <math.h>
 #include <stdarg.h>
@@ -141,8 +142,6 @@ void sheet_section_header(sheet_doc *d, const plumb_brief *b)
 
 /* ---- 2. the answer -------------------------------------------------------------- */
 
-static writer *primary(sheet_doc *d) { return d->opt->units == PLUMB_UNITS_US ? &d->us : &d->si; }
-static writer *secondary(sheet_doc *d) { return d->opt->units == PLUMB_UNITS_US ? &d->si : &d->us; }
 
 static void answer_line(sheet_doc *d, const char *label, const char *value)
 {
@@ -162,7 +161,7 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
     char font[64], bold[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, 11.0);
-    writer *P = primary(d), *S = secondary(d);
+    writer *P = sheet_primary(d), *S = sheet_secondary(d);
     if (!b->zone) {
         sheet_para(d, bold, sheet_esc(d, b->no_zone));
         return;
@@ -225,7 +224,7 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
     char font[64], bold[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
-    writer *P = primary(d);
+    writer *P = sheet_primary(d);
     double w = sheet_width(d);
     double cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
     static const char *const head[5] = {"Criterion", "Energy", "Limit", "Ratio", "Verdict"};
@@ -280,7 +279,7 @@ static void criteria_sources(sheet_doc *d, const plumb_brief *b)
     char font[64], bold[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 9.0);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
-    writer *P = primary(d);
+    writer *P = sheet_primary(d);
     double key_w = 22.0, w = sheet_width(d) - key_w;
     d->y += GAP / 2.0;
     double first = 0.0;
@@ -313,7 +312,7 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
 {
     char font[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
-    writer *P = primary(d), *S = secondary(d);
+    writer *P = sheet_primary(d), *S = sheet_secondary(d);
     const plumb_item_report *it = &b->fall->items[b->order[0]];
     const plumb_fall_result *r = &it->result;
     sheet_heading(d, "The answer", 120.0);
@@ -337,331 +336,6 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
     else
         sheet_para(d, font, "No criterion was judged.");
     criteria_sources(d, b);
-}
-
-/* ---- 6. the inventory ------------------------------------------------------------ */
-
-enum { TABLE_COLS = 6 + PLUMB_MAX_VERDICTS };
-
-/* The table's type: 8 pt, smaller by half points to 6.5 pt when the
- * columns' longest words do not fit the width beside each other; past
- * that the ratio columns go on in further tables (below the first, each
- * with the items' numbers and names), as the text report splits its
- * criteria. */
-#define TABLE_PT_MAX SHEET_SMALL
-#define TABLE_PT_MIN 6.5
-/* Space between columns, pt (table_row leaves it at each column's right). */
-#define TABLE_PAD 4.0
-
-/* One table of section 6: the criteria k0 .. k1 - 1 as ratio columns;
- * `full` adds mass, energy, verdict and drift (the first table). */
-typedef struct inv_table {
-    size_t k0, k1;
-    int full;
-    size_t n;          /* columns */
-    double pt;         /* type size */
-    double cx[TABLE_COLS]; /* column starts, fractions of the width */
-} inv_table;
-
-/* The column of the full list (#, item, mass, energy, C1..Cn, verdict,
- * drift) that column c of table t shows. */
-static size_t table_col(const plumb_brief *b, const inv_table *t, size_t c)
-{
-    if (c < 2)
-        return c;
-    if (t->full) {
-        if (c < 4)
-            return c;
-        if (c < 4 + (t->k1 - t->k0))
-            return 4 + t->k0 + (c - 4);
-        return 4 + b->n_criteria + (c - 4 - (t->k1 - t->k0));
-    }
-    return 4 + t->k0 + (c - 2);
-}
-
-static void table_fonts(double pt, char *font, char *bold, size_t size)
-{
-    snprintf(font, size, "%s %.1f", SHEET_FONT, pt);
-    snprintf(bold, size, "%s Bold %.1f", SHEET_FONT, pt);
-}
-
-/* The text of the ratio cells, one per criterion: kept here, not in the
- * ring of sheet_fmt, which 32 criteria would go round. */
-typedef struct ratio_store {
-    char cell[PLUMB_MAX_VERDICTS][48];
-} ratio_store;
-
-/* The header of every column (the full list), as markup. */
-static void inventory_header_cells(const plumb_brief *b, const char **cells, ratio_store *rs)
-{
-    cells[0] = "#";
-    cells[1] = "Item";
-    cells[2] = "Mass";
-    cells[3] = "Impact energy";
-    for (size_t k = 0; k < b->n_criteria; k++) {
-        /* the key of section 2's list of criteria: an id does not fit a
-         * ratio's column without being broken */
-        snprintf(rs->cell[k], sizeof rs->cell[k], "Ratio to\nC%zu", k + 1);
-        cells[4 + k] = rs->cell[k];
-    }
-    cells[4 + b->n_criteria] = "Verdict";
-    cells[5 + b->n_criteria] = "Drift";
-}
-
-/* Row r (worst first), every column of the full list, as markup. The
- * strings other than the ratios live in the ring of sheet_fmt: use them
- * before making another row. */
-static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, const char **cells,
-                                ratio_store *rs)
-{
-    writer *P = primary(d);
-    const plumb_item_report *it = &b->fall->items[b->order[r]];
-    int exceeds = 0;
-    cells[0] = sheet_fmt(d, "%zu", plumb_profile_item_number(b->profile, b->order[r]));
-    cells[1] = sheet_esc(d, it->spec->name);
-    cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
-    cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
-    for (size_t k = 0; k < b->n_criteria; k++) {
-        cells[4 + k] = "-";
-        for (size_t v = 0; v < it->n_verdicts; v++)
-            if (it->verdicts[v].criterion == b->criteria[k]) {
-                snprintf(rs->cell[k], sizeof rs->cell[k], "%s\n%s",
-                         num(P, it->verdicts[v].ratio, RATIO_SIG),
-                         it->verdicts[v].exceeds ? "exceeds" : "within");
-                cells[4 + k] = rs->cell[k];
-                exceeds |= it->verdicts[v].exceeds;
-            }
-    }
-    cells[4 + b->n_criteria] = exceeds ? "<b>exceeds</b>" : "within all";
-    cells[5 + b->n_criteria] =
-        it->result.drift_m < DRIFT_SHOWN_M
-            ? "none"
-            : sheet_fmt(d, "%s toward %s", plumbp_t_len(P, it->result.drift_m),
-                        plumbp_t_bearing(P, it->result.bearing_deg));
-}
-
-/* Widens need[c] to the widest word of each cell (words end at a space or
- * a line break; a number and its unit are joined by a no-break space and
- * stay one word), in font. */
-static void widest_words(sheet_doc *d, const char *const *cells, size_t n, const char *font,
-                         double *need)
-{
-    for (size_t c = 0; c < n; c++) {
-        char word[FMT_LEN];
-        const char *p = cells[c];
-        while (*p) {
-            size_t len = strcspn(p, " \n");
-            if (len > 0 && len < sizeof word) {
-                memcpy(word, p, len);
-                word[len] = '\0';
-                double w = sheet_text_width(d, font, word);
-                if (w > need[c])
-                    need[c] = w;
-            }
-            p += len;
-            p += strspn(p, " \n");
-        }
-    }
-}
-
-/* The widest word of every column of the full list at TABLE_PT_MAX, pt,
- * without the space between columns: a word's width at another size is
- * taken in proportion (with 3 % to spare for the hinting). */
-static void inventory_words(sheet_doc *d, const plumb_brief *b, double *need8)
-{
-    size_t n = 6 + b->n_criteria;
-    char font[64], bold[64];
-    table_fonts(TABLE_PT_MAX, font, bold, sizeof font);
-    const char *cells[TABLE_COLS];
-    ratio_store rs;
-    for (size_t c = 0; c < n; c++)
-        need8[c] = 0.0;
-    inventory_header_cells(b, cells, &rs);
-    widest_words(d, cells, n, bold, need8);
-    for (size_t r = 0; r < b->fall->n_items; r++) {
-        inventory_row_cells(d, b, r, cells, &rs);
-        widest_words(d, cells, n, font, need8);
-    }
-}
-
-/* What column c of t needs at its size, pt. */
-static double col_need(const plumb_brief *b, const inv_table *t, const double *need8, size_t c,
-                       double pt)
-{
-    return need8[table_col(b, t, c)] * pt / TABLE_PT_MAX * 1.03 + TABLE_PAD + 1.0;
-}
-
-/* The size of t (its type from TABLE_PT_MAX down to TABLE_PT_MIN) at
- * which every column holds its widest word within the width W, or 0
- * when none does. */
-static double table_fits(const plumb_brief *b, inv_table *t, const double *need8, double W)
-{
-    t->n = (t->full ? 6 : 2) + (t->k1 - t->k0);
-    for (double pt = TABLE_PT_MAX; pt >= TABLE_PT_MIN - 1e-9; pt -= 0.5) {
-        double total = 0.0;
-        for (size_t c = 0; c < t->n; c++)
-            total += col_need(b, t, need8, c, pt);
-        if (total <= W)
-            return pt;
-    }
-    return 0.0;
-}
-
-/* t's column starts: each column as wide as its widest word, so that no
- * word is broken inside it ("exceeds", "(616.7 ft·lbf)" stay whole); the
- * width left over goes to the columns that want more than their words,
- * most to the item's name, as the shares below say. A table that does not
- * fit even so (one criterion with words too wide) is squeezed, and pango
- * breaks what it must. */
-static void table_columns(const plumb_brief *b, inv_table *t, const double *need8, double W)
-{
-    double want[TABLE_COLS], need[TABLE_COLS], width[TABLE_COLS], total = 0.0, more = 0.0;
-    size_t nk = t->k1 - t->k0;
-    double ratio_w = 0.085, item_w = (t->full ? 0.47 : 0.83) - ratio_w * (double)nk;
-    if (item_w < 0.16)
-        item_w = 0.16;
-    for (size_t c = 0; c < t->n; c++) {
-        size_t f = table_col(b, t, c);
-        want[c] = f == 0 ? 0.035 : f == 1 ? item_w : f == 2 ? 0.095 : f == 3 ? 0.14
-                  : f < 4 + b->n_criteria ? ratio_w : f == 4 + b->n_criteria ? 0.09 : 0.12;
-        need[c] = col_need(b, t, need8, c, t->pt);
-        total += need[c];
-        more += fmax(want[c] * W - need[c], 0.0);
-    }
-    for (size_t c = 0; c < t->n; c++) {
-        if (total > W)
-            width[c] = need[c] * W / total;
-        else
-            width[c] = need[c] + (W - total) * (more > 0.0 ? fmax(want[c] * W - need[c], 0.0) / more
-                                                           : (c == 1 ? 1.0 : 0.0));
-    }
-    t->cx[0] = 0.0;
-    for (size_t c = 1; c < t->n; c++)
-        t->cx[c] = t->cx[c - 1] + width[c - 1] / W;
-}
-
-/* Splits the criteria into tables: the first with as many ratio columns
- * as fit beside the item's figures, the others with as many as fit beside
- * its number and name (at least one each). Returns how many tables. */
-static size_t inventory_tables(const plumb_brief *b, const double *need8, double W,
-                               inv_table *tables)
-{
-    size_t nt = 0, k0 = 0;
-    do {
-        inv_table *t = &tables[nt];
-        memset(t, 0, sizeof *t);
-        t->full = nt == 0;
-        t->k0 = k0;
-        size_t k1 = b->n_criteria;
-        for (;; k1--) {
-            t->k1 = k1;
-            t->pt = table_fits(b, t, need8, W);
-            if (t->pt > 0.0 || k1 <= k0 + 1)
-                break;
-        }
-        if (t->pt <= 0.0)
-            t->pt = TABLE_PT_MIN;
-        t->k1 = k1;
-        t->n = (t->full ? 6 : 2) + (t->k1 - t->k0);
-        table_columns(b, t, need8, W);
-        k0 = k1;
-        nt++;
-    } while (k0 < b->n_criteria && nt < PLUMB_MAX_VERDICTS);
-    return nt;
-}
-
-static double table_row(sheet_doc *d, const plumb_brief *b, const inv_table *t,
-                        const char *const *all, const char *font, int draw)
-{
-    double w = sheet_width(d), h = 0.0;
-    for (size_t c = 0; c < t->n; c++) {
-        double cw = (c + 1 < t->n ? t->cx[c + 1] : 1.0) * w - t->cx[c] * w - TABLE_PAD;
-        double ch = sheet_text(d, d->left + t->cx[c] * w, d->y, cw, font,
-                               all[table_col(b, t, c)], draw);
-        if (ch > h)
-            h = ch;
-    }
-    return h;
-}
-
-static void inventory_header(sheet_doc *d, const plumb_brief *b, const inv_table *t,
-                             const char *bold)
-{
-    const char *cells[TABLE_COLS];
-    ratio_store rs;
-    inventory_header_cells(b, cells, &rs);
-    double h = table_row(d, b, t, cells, bold, 0);
-    sheet_need(d, h + 16.0);
-    table_row(d, b, t, cells, bold, 1);
-    d->y += h + 1.0;
-    cairo_move_to(d->cr, d->left, d->y);
-    cairo_line_to(d->cr, d->right, d->y);
-    sheet_stroke(d, SHEET_SOLID, 0.6);
-    d->y += 2.0;
-}
-
-void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
-{
-    writer *P = primary(d);
-    sheet_heading(d, "Every item, worst first", 60.0);
-    /* markup made once: each name escaped once (sheet_fmt without \x02
-     * escapes what it is given, so a note built of two would escape the
-     * inner one twice: "nuts &amp;amp; bolts") */
-    const char *zone_note = "";
-    if (b->zone) {
-        const plumb_zone_item *zi = &b->zone->items[b->zone_item];
-        zone_note = sheet_fmt(d, "\x02 The clearance zone is set by %s (largest clearance radius, "
-                                 "%s).",
-                              sheet_esc(d, zi->name),
-                              sheet_fmt(d, "%s",
-                                        plumbp_t_len(P, zi->result->zone.clearance_radius_m)));
-    }
-    const char *note = sheet_fmt(
-        d, "\x02%zu items, sorted by their largest ratio to a criterion. Worst: %s.%s",
-        b->fall->n_items, sheet_esc(d, b->fall->items[b->order[0]].spec->name), zone_note);
-    char body[64];
-    snprintf(body, sizeof body, "%s %.1f", SHEET_FONT, SHEET_BODY);
-    sheet_para(d, body, note);
-    if (b->n_criteria > 0) { /* the key of the ratio columns */
-        char key[FMT_LEN] = "";
-        size_t len = 0;
-        for (size_t k = 0; k < b->n_criteria && len < sizeof key; k++)
-            len += (size_t)snprintf(key + len, sizeof key - len, "%sC%zu %s", k ? ", " : "", k + 1,
-                                    sheet_id(d, body, b->criteria[k]->id, sheet_width(d)));
-        sheet_para(d, body, sheet_fmt(d, "\x02Ratio columns: %s (their sources are in section 2).",
-                                      key));
-    }
-    double need8[TABLE_COLS];
-    inv_table tables[PLUMB_MAX_VERDICTS];
-    inventory_words(d, b, need8);
-    size_t nt = inventory_tables(b, need8, sheet_width(d), tables);
-    for (size_t ti = 0; ti < nt; ti++) {
-        const inv_table *t = &tables[ti];
-        char font[64], bold[64];
-        table_fonts(t->pt, font, bold, sizeof font);
-        d->running = d->heading;
-        if (nt > 1) {
-            d->y += ti > 0 ? GAP : 0.0;
-            sheet_need(d, 60.0);
-            sheet_para(d, body, sheet_fmt(d, "Ratios to C%zu to C%zu%s", t->k0 + 1, t->k1,
-                                          ti + 1 < nt ? "" : " (the last of the ratio columns)"));
-        }
-        inventory_header(d, b, t, bold);
-        for (size_t r = 0; r < b->fall->n_items; r++) {
-            const char *cells[TABLE_COLS];
-            ratio_store rs;
-            inventory_row_cells(d, b, r, cells, &rs);
-            double h = table_row(d, b, t, cells, font, 0);
-            if (d->y + h > d->bottom) {
-                sheet_new_page(d);
-                inventory_header(d, b, t, bold);
-                inventory_row_cells(d, b, r, cells, &rs); /* the page's footer used the ring */
-            }
-            table_row(d, b, t, cells, font, 1);
-            d->y += h + 1.5;
-        }
-    }
-    d->running = NULL;
 }
 
 /* ---- 7. inputs and assumptions; 8. cautions ---------------------------------------- */
@@ -769,7 +443,7 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
         sheet_para(d, font, sheet_esc(d, b->no_zone));
         return;
     }
-    writer *P = primary(d);
+    writer *P = sheet_primary(d);
     const plumb_zone_result *z = b->zone->items[b->zone_item].result;
     const plumb_zone_stats *s = &z->zone;
     const plumb_fall_spec *spec = b->fall->items[b->zone_item].spec;
