@@ -646,6 +646,12 @@ int cli_beside_self(const char *rel, char *buf, size_t size)
     if (!slash)
         return 0;
     *slash = '\0';
+    /* "../x" taken off the directory, so that reports name the file
+     * without "build/.." (the sheet's file list) */
+    while (strncmp(rel, "../", 3) == 0 && (slash = strrchr(exe, '/')) && slash != exe) {
+        *slash = '\0';
+        rel += 3;
+    }
     int len = snprintf(buf, size, "%s/%s", exe, rel);
     return len > 0 && (size_t)len < size;
 }

@@ -358,6 +358,9 @@ check(r_target in p1, f"page 1 has the clearance radius around the target {r_tar
 r_land = sig4(z["landing"]["circle"]["clearance_radius_m"]) + " m"
 check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
 check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
+# the files are named as a reader would find them: no "build/.." (the
+# criteria found beside the program in a source tree)
+check("/../" not in text, "no file named through '..'")
 for v in ("exceeds",):
     check(v in p1, f"page 1 has the verdict word '{v}'")
 
