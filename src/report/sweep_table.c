@@ -485,8 +485,11 @@ static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const
         double lo = a1->from < a1->to ? a1->from : a1->to, hi = a1->from < a1->to ? a1->to : a1->from;
         int out = b->value < lo || b->value > hi;
         *beyond |= out;
+        /* rounded to the side that keeps within the limit, as plumb limit
+         * gives it: down for "up to", up for "from" */
         snprintf(c, NUMBUF, "%s %s%s", b->limit_is_upper_bound ? "up to" : "from",
-                 plumbp_gnum(w, b->value, 4), out ? "*" : "");
+                 plumbp_gnum(w, plumbp_round_safe(b->value, 4, b->limit_is_upper_bound), 4),
+                 out ? "*" : "");
         return c;
     }
     case PLUMB_LIMIT_UNLIMITED: return "never reached";
