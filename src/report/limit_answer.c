@@ -45,6 +45,19 @@ static const char *t_metric(writer *w, plumb_metric m, double x)
                                      : plumbp_t_energy(w, x);
 }
 
+/* The metric at a found answer, which meets the limit (inverse.h): each
+ * figure rounded down as the limit is (plumbp_t_limit), so that the answer
+ * never reads as above the limit it meets (30.59 J is 22.56 ft·lbf, not
+ * the 22.57 that rounding to the nearest gives beside a limit of 22.56). */
+static const char *t_metric_met(writer *w, plumb_metric m, double x)
+{
+    int was = w->strict;
+    w->strict = 1;
+    const char *b = t_metric(w, m, x);
+    w->strict = was;
+    return b;
+}
+
 static const char *outcome_word(plumb_limit_outcome o)
 {
     return o == PLUMB_LIMIT_FOUND       ? "found"
@@ -141,7 +154,7 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
                      "%s = %s gives the limit, %s %s; %s values stay within it (scanned %s, %zu "
                      "values)",
                      key, t_limit_value(w, key, r->dim, r->value_si, r->limit_is_upper_bound),
-                     metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
+                     metric_word(rep->metric), t_metric_met(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher", scanned, r->n_scanned);
         } else {
             char list[PLUMB_LIMIT_TEXT];
@@ -193,7 +206,7 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                      t_given_value(w, rep->key, r, r->limit_is_upper_bound));
             wrapped(w, "  ", text);
             snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
-                     metric_word(rep->metric), t_metric(w, rep->metric, r->metric_at_value),
+                     metric_word(rep->metric), t_metric_met(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher",
                      r->n_crossings < 2           ? "."
                      : r->limit_is_upper_bound ? ", down to the next crossing."

@@ -137,6 +137,11 @@ static inline const char *unit_shown(writer *w, const char *u)
 {
     char *b = slot(w);
     size_t n = 0;
+    /* a temperature as every report writes it */
+    if (strcmp(u, "degC") == 0 || strcmp(u, "degF") == 0) {
+        snprintf(b, NUMBUF, "\xC2\xB0%c", u[3]);
+        return b;
+    }
     for (const char *p = u; *p && n + 3 < NUMBUF;) {
         const char *sup = NULL;
         size_t skip = 0;
