@@ -187,14 +187,21 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
     if (s->impact_point_fixed)
         sheet_para(d, font, "The uncertain inputs do not move the impact point: the radii are "
                             "one fall's drift.");
+    /* a kit's landing figures are those of the item that sets the
+     * clearance, which may not be the worst item named above: say whose */
+    char lands[PLUMB_NAME + 80] = "Where things land";
+    if (b->zone->n_items > 1)
+        snprintf(lands, sizeof lands, "Where %s lands (the item that sets the clearance)",
+                 b->zone->items[b->zone_item].name);
+    const char *its = b->zone->n_items > 1 ? "its " : "";
     if (s->landing_circle_m > 0.0) {
         double lx = s->landing_centre_m[0] - s->release_m[0];
         double ly = s->landing_centre_m[1] - s->release_m[1];
         sheet_para(d, font,
-                   sheet_fmt(d, "Where things land: %s%% of impacts within %s (%s) of their "
+                   sheet_fmt(d, "%s: %s%% of %simpacts within %s (%s) of their "
                                 "centre, %s toward %s of the drop point (the landing circle, "
                                 "upper %s%% bound%s).",
-                             plumbp_trimmed(P, 100.0 * z->confidence, 2),
+                             lands, plumbp_trimmed(P, 100.0 * z->confidence, 2), its,
                              plumbp_t_len(P, s->landing_circle_m),
                              plumbp_t_len(S, s->landing_circle_m), plumbp_t_len(P, hypot(lx, ly)),
                              plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
@@ -202,10 +209,11 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                              s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
     }
     sheet_para(d, font,
-               sheet_fmt(d, "%s95%% of impacts within an ellipse of semi-axes %s "
+               sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s "
                             "and %s (major axis toward %s) around the mean impact point, %s toward "
                             "%s of the drop point.",
-                         s->landing_circle_m > 0.0 ? "" : "Where things land: ",
+                         s->landing_circle_m > 0.0 ? "" : lands,
+                         s->landing_circle_m > 0.0 ? "" : ": ", its,
                          plumbp_t_len(P, s->semi_major_m), plumbp_t_len(P, s->semi_minor_m),
                          plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));

@@ -662,6 +662,14 @@ bt = pages_text(both)
 check(any(sha256(DRONE) in p for p in bt) and any(sha256(KIT) in p for p in bt),
       "two profiles: both hashes in the footers")
 check(sum("1. Job, date and inputs" in p for p in bt) == 2, "two profiles: two headers")
+# a kit's landing figures are those of the item that sets the clearance,
+# named there (not the worst item that section 2 opens with); the zone's
+# JSON says which item sets the kit's clearance
+_, kz, _ = plumb("zone", KIT, "--samples", "500", "--format", "json")
+setter = json.loads(kz)["kit"]["set_by"]
+flat = re.sub(r"\s+", " ", " ".join(bt))
+check(f"Where {setter} lands (the item that sets the clearance):" in flat,
+      f"kit sheet: the landing figures name {setter!r}")
 os.remove(both)
 
 # ---- errors: nothing written ----------------------------------------------------------
