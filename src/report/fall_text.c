@@ -769,6 +769,27 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         snprintf(line, sizeof line, "%s: %s toward %s", drift->spec->name,
                  plumbp_t_len(w, drift->result.drift_m),
                  plumbp_t_bearing(w, drift->result.bearing_deg));
+    /* a plate's glide is not in the fall (judge.c warns): the largest
+     * sideways travel it may add, beside the drift computed */
+    const plumb_item_report *plate = NULL;
+    double glide = 0.0;
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_fall_spec *s = rep->items[i].spec;
+        double g = s->glide.mode != PLUMB_GLIDE_OFF && s->n_descent == 0
+                       ? plumb_glide_ratio_max(s->glide.mode) * s->release_m[2]
+                       : 0.0;
+        if (g > glide) {
+            glide = g;
+            plate = &rep->items[i];
+        }
+    }
+    if (plate) {
+        size_t len = strlen(line);
+        snprintf(line + len, sizeof line - len,
+                 "; not counting the glide of %s, a plate, which may carry it up to %s "
+                 "sideways (see Warnings)",
+                 plate->spec->name, plumbp_t_len(w, glide));
+    }
     wrapped(w, "Largest drift  ", line);
 
     for (size_t i = 0; i < rep->n_items; i++) {

@@ -265,4 +265,13 @@ d = json.loads(j) if rc == 0 else {}
 check(rc == 0 and (d.get("descent") or {}).get("steady_speed_m_s", 0) is None,
       f"JSON steady_speed_m_s null above the cap (README, JSON): {(d.get('descent') or {}).keys()}")
 
+# A kit with a tumbling plate: the largest drift line says the fall leaves
+# out the plate's glide, up to 1.375 x the height fallen (Smith 1970): from
+# the demo mast's 41.5 m, 57.06 m
+rc, out, err = plumb("fall", os.path.join(HERE, "..", "..", "profiles", "demo", "tower-kit.yaml"))
+line = " ".join(out.split("Largest drift", 1)[-1].split("\n\n")[0].split())
+want = f"{1.375 * 41.5:.2f} m"
+check(rc == 0 and "not counting the glide of cable tie bundle, a plate" in line and want in line,
+      f"largest drift qualified by the plate's glide up to {want}: {line!r}")
+
 finish()
