@@ -117,11 +117,15 @@ static void text_comparison(writer *w, const plumb_item_report *it)
 {
     const plumb_fall_result *r = &it->result;
     put(w, "\nFor comparison\n");
-    if (r->terminal_speed_m_s > 0.0)
-        put(w, "  terminal speed   %s in still air at the strike level%s\n",
-            plumbp_t_speed(w, r->terminal_speed_m_s),
-            plumbp_si_bracket(w, r->terminal_speed_m_s, "m/s"));
-    else if (plumbp_body_cd_area(&it->spec->drag) > 0.0 ||
+    if (r->terminal_speed_m_s > 0.0) {
+        char line[NUMBUF * 4];
+        snprintf(line, sizeof line, "%s in still air at the strike level%s%s",
+                 plumbp_t_speed(w, r->terminal_speed_m_s),
+                 /* the body's own: the devices' is the steady descent below */
+                 it->spec->n_descent ? ", without the descent devices" : "",
+                 plumbp_si_bracket(w, r->terminal_speed_m_s, "m/s"));
+        wrapped(w, "  terminal speed   ", line);
+    } else if (plumbp_body_cd_area(&it->spec->drag) > 0.0 ||
              it->spec->drag.model != PLUMB_DRAG_FIXED)
         put(w, "  terminal speed   none up to %s: too little drag for the weight\n",
             plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S));
