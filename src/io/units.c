@@ -44,6 +44,7 @@
 
 #include <udunits2.h>
 
+#include "plumb/suggest.h"
 #include "plumb/units.h"
 #include "core/internal.h"
 #include "io/units_int.h"
@@ -574,6 +575,49 @@ double plumbp_units_compass_bearing(const char *text)
     return -1.0;
 }
 
+/* A compass point for a word that is not one, into buf: the point of a
+ * direction written out ("West", "north-east") or the nearest by
+ * spelling ("SWW": WSW); NULL when none is near. */
+static const char *compass_hint(const char *text, char *buf, size_t size)
+{
+    static const char *const words[] = {"NORTH", "EAST", "SOUTH", "WEST"};
+    static const char *const points[] = {"N", "E", "S", "W"};
+    char up[32];
+    size_t n = 0;
+    for (const char *p = text; *p && n + 1 < sizeof up; p++) {
+        if (*p == '-' || *p == ' ' || *p == '_')
+            continue;
+        if (!isalpha((unsigned char)*p))
+            return NULL;
+        up[n++] = (char)toupper((unsigned char)*p);
+    }
+    up[n] = '\0';
+    if (n == 0)
+        return NULL;
+    /* words written out: NORTHEAST is NE, SOUTHSOUTHWEST is SSW */
+    char pt[8];
+    size_t k = 0, at = 0;
+    while (at < n && k + 1 < sizeof pt) {
+        size_t w = 0;
+        while (w < 4 && strncmp(up + at, words[w], strlen(words[w])) != 0)
+            w++;
+        if (w == 4)
+            break;
+        pt[k++] = points[w][0];
+        at += strlen(words[w]);
+    }
+    pt[k] = '\0';
+    if (at == n && k > 0 && plumbp_units_compass_bearing(pt) >= 0.0) {
+        snprintf(buf, size, "%s", pt);
+        return buf;
+    }
+    const char *near = plumb_suggest_closest(up, compass_points, 16);
+    if (!near || strlen(up) > 4)
+        return NULL;
+    snprintf(buf, size, "%s", near);
+    return buf;
+}
+
 /*
  * Parses "NUMBER UNIT" (see units.h). Statuses: PLUMB_EINVAL for a NULL
  * argument or a dimension out of range; PLUMB_EPARSE for an empty text, a
@@ -622,6 +666,14 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
                            "names a direction (wind.from, release.velocity.heading take one); "
                            "here give a number of degrees (as a direction, %s is \"%g deg\")",
                            dims[want].example, shown, shown, bearing);
+    char hint[8];
+    if (end == shown && want == PLUMB_DIM_ANGLE && compass_hint(shown, hint, sizeof hint))
+        return PLUMB_RAISE(diag, PLUMB_EPARSE,
+                           "expected an angle (e.g. \"%s\"); found \"%.*s\", which does not "
+                           "start with a number; a direction (wind.from, "
+                           "release.velocity.heading) may be one of the 16 compass points: did "
+                           "you mean %s?",
+                           dims[want].example, UNITS_SHOW_MAX, shown, hint);
     if (end == shown)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
                            "expected %s %s (e.g. \"%s\"); found \"%.*s\", which does not start "

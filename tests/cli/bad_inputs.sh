@@ -104,6 +104,12 @@ refused "--set with an unknown key" "plumb: --set:1:9: release.hieght: " "did yo
 refused "--set with a bare number" "plumb: --set:1:16: release.height: " \
   -- fall "$good" --set release.height=30 --format json
 # (the command line may refuse this one itself, as a usage error)
+# a direction written as a word or a misspelt point: the 16-point rose's
+# abbreviation suggested (N, NNE, ... NNW; common practice, no source)
+refused "--set wind.from=West" "plumb: --set:1:11: wind.from: " "did you mean W?" \
+  -- fall "$good" --set "wind.from=West"
+refused "--set wind.from=SWW" "plumb: --set:1:11: wind.from: " "16 compass points: did you mean SSW?" \
+  -- fall "$good" --set "wind.from=SWW"
 refused "--set without =" "KEY=VALUE" \
   -- fall "$good" --set release.height --format json
 refused "--set with malformed YAML" "plumb: --set:1:" "malformed YAML" \
