@@ -82,6 +82,14 @@ const plumb_criterion *plumb_criteria_find(const plumb_criteria *set, const char
  * an argument is NULL. Can't fail. */
 const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const char *id);
 
+/* Every id as near to `id` as the nearest (plumb_criteria_nearest), in
+ * name order, written into buf as "'a'", "'a' or 'b'", "'a', 'b' or 'c'" (cut
+ * with "..." where buf ends), so that "en397" names both EN 397 criteria.
+ * Returns how many; 0 (buf "") for an empty set or a NULL argument. Can't
+ * fail. */
+size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, char *buf,
+                                  size_t size);
+
 /* Judges an energy against a criterion. Can't fail. */
 void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out);
 

@@ -117,6 +117,34 @@ const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const c
     return &set->c[best];
 }
 
+size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, char *buf,
+                                  size_t size)
+{
+    if (buf && size)
+        buf[0] = '\0';
+    const plumb_criterion *best = plumb_criteria_nearest(set, id);
+    if (!best || !buf || size == 0)
+        return 0;
+    int d = id_distance(id, best->id);
+    size_t n = 0, total = 0, len = 0;
+    for (size_t i = 0; i < set->n; i++)
+        total += id_distance(id, set->c[i].id) == d;
+    for (size_t i = 0; i < set->n && len < size; i++) {
+        if (id_distance(id, set->c[i].id) != d)
+            continue;
+        const char *sep = n == 0 ? "" : n + 1 == total ? " or " : ", ";
+        int w = snprintf(buf + len, size - len, "%s'%s'", sep, set->c[i].id);
+        if (w < 0 || (size_t)w >= size - len) {
+            if (size >= 4)
+                memcpy(buf + size - 4, "...", 4);
+            return n + 1;
+        }
+        len += (size_t)w;
+        n++;
+    }
+    return n;
+}
+
 void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out)
 {
     if (!out)

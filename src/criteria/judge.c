@@ -66,10 +66,12 @@ static plumb_status unknown_criterion(const char *name, size_t index,
         }
         len += (size_t)snprintf(ids + len, sizeof ids - len, "%s%s", i ? ", " : "", id);
     }
+    char near[CRIT_LIST_MAX];
+    plumb_criteria_nearest_ids(criteria, name, near, sizeof near);
     return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
-                          "unknown criterion '%s'; did you mean '%s'? (the criteria directory "
+                          "unknown criterion '%s'; did you mean %s? (the criteria directory "
                           "has %zu: %s)",
-                          name, plumb_criteria_nearest(criteria, name)->id, n, ids);
+                          name, near, n, ids);
 }
 
 /* Names the helmet-test criteria among the verdicts in one sentence, or

@@ -192,14 +192,19 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
     plumb_status st = plumb_units_parse(s->units, text, dim, &x, diag);
     if (st != PLUMB_OK) {
         /* no number: perhaps a criterion's id mistyped ("en397-shock") */
+        /* or its start: "en397" for the EN 397 criteria */
+        char near[PLUMB_DIAG_MSG / 2] = "";
         int id_like = metric == PLUMB_METRIC_ENERGY && !isdigit((unsigned char)text[0]) &&
-                      strchr(text, '-') && !strpbrk(text, " \t");
-        const plumb_criterion *near = id_like ? plumb_criteria_nearest(s->criteria, text) : NULL;
-        if (near)
+                      !strpbrk(text, " \t") &&
+                      (strchr(text, '-') ||
+                       (strlen(text) >= 3 && plumb_criteria_nearest(s->criteria, text) &&
+                        strncmp(plumb_criteria_nearest(s->criteria, text)->id, text,
+                                strlen(text)) == 0));
+        if (id_like && plumb_criteria_nearest_ids(s->criteria, text, near, sizeof near) > 0)
             return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, option,
                                   "'%s' is neither an energy with its unit nor a criterion's "
                                   "id; did you mean %s?",
-                                  text, near->id);
+                                  text, near);
         static const char more[] = " (or a criterion's id)";
         size_t len = diag ? strlen(diag->message) : 0;
         if (diag && metric == PLUMB_METRIC_ENERGY && len + sizeof more <= sizeof diag->message)

@@ -233,7 +233,11 @@ refused "--set a latitude to a compass point" "plumb: --set:1:15: site.latitude:
   "a compass point names a direction" -- fall "$good" --set "site.latitude=NE" --format json
 # a criterion's id mistyped in --energy-max gets the nearest id (issue 9)
 refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
-  "did you mean en397-shock-49j?" -- limit "$good" --find release.height --energy-max en397-shock --format json
+  "did you mean 'en397-shock-49j'?" -- limit "$good" --find release.height --energy-max en397-shock --format json
+# the start of two ids names both (EN 397 has two criteria here)
+refused "limit --energy-max with the start of two ids" "--energy-max" \
+  "did you mean 'en397-penetration-29j' or 'en397-shock-49j'?" \
+  -- limit "$good" --find release.height --energy-max en397 --format json
 
 # ---- a misspelt option or command gets the nearest one (issue 9) -----------
 # Every option each command's --help lists, misspelt by dropping its first
