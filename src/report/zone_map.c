@@ -249,7 +249,11 @@ json_t *plumbp_zone_geojson(jctx *j, const plumb_report_options *opt,
     json_t *root = jobj(j);
     jset(j, root, "type", jstr(j, "FeatureCollection"));
     json_t *pr = jobj(j);
-    jset(j, pr, "generator", jstr(j, opt->version ? opt->version : PLUMB_VERSION));
+    const char *version = opt->version ? opt->version : PLUMB_VERSION;
+    char generator[64];
+    snprintf(generator, sizeof generator, "plumb %s", version);
+    jset(j, pr, "generator", jstr(j, generator));
+    jset(j, pr, "plumb_version", jstr(j, version)); /* as every JSON report names it */
     jset(j, pr, "profile", jstr(j, rep->profile_name));
     jset(j, pr, "profile_path", jstr(j, rep->profile_path));
     jset(j, pr, "profile_sha256", jstr(j, rep->profile_sha256));
