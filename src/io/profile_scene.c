@@ -73,13 +73,21 @@ plumb_status plumbp_profile_read_release_site(loader *L, plumb_fall_spec *base)
 
     static const char *const cart[] = {"east", "north", "up"}, *const polar[] = {"speed", "heading",
                                                                                  "climb"};
-    int has_cart = 0;
-    for (size_t i = 0; i < 3; i++)
-        has_cart |= plumby_get(&vm, cart[i]) != NULL;
-    for (size_t i = 0; i < 3; i++)
-        if (has_cart && (st = plumby_forbid(&vm, polar[i],
-                                            "together with east/north/up (give east, north, up or "
-                                            "speed, heading, climb)")) != PLUMB_OK)
+    int has_cart = 0, n_cart = 0, n_polar = 0;
+    for (size_t i = 0; i < 3; i++) {
+        n_cart += plumby_get(&vm, cart[i]) != NULL;
+        n_polar += plumby_get(&vm, polar[i]) != NULL;
+    }
+    has_cart = n_cart > 0;
+    /* both forms: the key refused is one of the form given less fully
+     * (speed and heading with a stray east: the east) */
+    for (size_t i = 0; has_cart && n_polar > 0 && i < 3; i++)
+        if ((st = n_polar > n_cart
+                      ? plumby_forbid(&vm, cart[i], "together with speed/heading/climb (give "
+                                                    "east, north, up or speed, heading, climb)")
+                      : plumby_forbid(&vm, polar[i], "together with east/north/up (give east, "
+                                                     "north, up or speed, heading, climb)")) !=
+            PLUMB_OK)
             return st;
     if (has_cart || !vm.node || (!plumby_get(&vm, "speed") && !plumby_get(&vm, "heading") &&
                                  !plumby_get(&vm, "climb"))) {
