@@ -382,6 +382,14 @@ static plumb_status slot_resolve(plumbp_set_items *nb, plumby_node *root, keypat
                          "any item a --set added, there %s %zu item%s (the next is items[%zu])",
                          k + 1, nb->n == 1 ? "is" : "are", nb->n, nb->n == 1 ? "" : "s",
                          nb->n + 1);
+    if (k == nb->n && list && kp->n > 1 && strcmp(kp->seg[1].name, "name") != 0)
+        /* one key of an item that is not there: a typo of N more often than
+         * a new item, which begins with its name */
+        return set_raise(diag, PLUMB_EKEY, line, s->col, key,
+                         "the profile has %zu item%s (items[1] to items[%zu]), so items[%zu] "
+                         "would be a new one: add it whole (--set 'items[%zu]={name: ..., "
+                         "mass: ..., ...}') or by its name first (--set 'items[%zu].name=...')",
+                         nb->n, nb->n == 1 ? "" : "s", nb->n, k + 1, k + 1, k + 1);
     if (k >= nb->n) {
         /* a new item, at the end (past it, with no list yet: tree_put says so) */
         s->index = list ? (long)list->n : (long)k;

@@ -222,6 +222,19 @@ rc=$?
 if [ $rc -eq 3 ] && grep -q "item 2 (balloon): " "$tmp/err"; then ok
 else bad "zone failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
 
+# one key of an item past the end: a typo of N more often than a new item,
+# refused saying how many there are (the mast kit has 6)
+"$bin" fall profiles/demo/tower-kit.yaml --set 'items[7].mass=1 kg' >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 2 ] && grep -q "the profile has 6 items (items\[1\] to items\[6\]), so items\[7\] would be a new one" "$tmp/err"; then ok
+else bad "items[7].mass on a 6-item kit: exit $rc, $(cat "$tmp/err")"; fi
+# a new item begun by its name is still added
+"$bin" fall profiles/demo/tower-kit.yaml --set 'items[7].name=spare shackle' --set 'items[7].mass=0.4 kg' \
+  --set 'items[7].drag={cd: 1, area: 0.002 m^2}' >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 0 ] && grep -q "^ *7 spare shackle" "$tmp/out"; then ok
+else bad "a new items[7] by its name: exit $rc, $(head -c 300 "$tmp/err")"; fi
+
 # the zone numbers its items as the profile is written too: after items[2]
 # is removed, the headings, the kit table, JSON and CSV name 1, 3, 4 ...
 kit=profiles/demo/tower-kit.yaml
