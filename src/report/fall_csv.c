@@ -32,15 +32,17 @@ void plumbp_csv_cautions(writer *w)
 
 /* The names of one item's columns, in US and SI units. item_number is the
  * item's number as items[N] counts it: as the profile is written, so after
- * --set 'items[2]=~' the rows are 1, 3 ... (design.md section 5). */
+ * --set 'items[2]=~' the rows are 1, 3 ... (design.md section 5). The
+ * descent devices' steady speed (every device open, as JSON
+ * steady_speed_m_s) and peak drag force are empty without a device. */
 static const char csv_item_cols_us[] =
     "item_number,name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
     "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"
-    "drag_free_speed_ft_s,drag_free_energy_ft_lbf";
+    "drag_free_speed_ft_s,drag_free_energy_ft_lbf,steady_speed_ft_s,peak_force_lbf";
 static const char csv_item_cols_si[] =
     "item_number,name,mass_kg,time_s,speed_m_s,energy_j,energy_ft_lbf,momentum_kg_m_s,"
     "angle_deg,drift_m,bearing_deg,east_m,north_m,terminal_speed_m_s,apex_m,"
-    "drag_free_speed_m_s,drag_free_energy_j";
+    "drag_free_speed_m_s,drag_free_energy_j,steady_speed_m_s,peak_force_n";
 
 /* The header of one item's columns (after any leading columns the caller
  * wrote), the line left open; returns how many columns it names. */
@@ -81,6 +83,7 @@ static const char *csv_bearing(writer *w, const plumb_fall_result *r)
 void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
 {
     const plumb_fall_result *r = &it->result;
+    int dev = it->spec->n_descent > 0;
     put(w, "%zu,", number);
     csv_field(w, it->spec->name);
     if (w->us) {
@@ -96,6 +99,9 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
         /* The ring holds RING numbers: the rest in a second call. */
         put(w, ",%s,%s,%s", csvnum(w, r->apex_m / ft), csvnum(w, r->drag_free_speed_m_s / ft),
             csvnum(w, r->drag_free_energy_j / PLUMB_FT_LBF_J));
+        put(w, ",%s,%s",
+            dev && r->steady_speed_m_s > 0.0 ? csvnum(w, r->steady_speed_m_s / ft) : "",
+            dev ? csvnum(w, r->peak_force_n / LBF_N) : "");
     } else {
         put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
             csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
@@ -105,6 +111,8 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
             r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s) : "");
         put(w, ",%s,%s,%s", csvnum(w, r->apex_m), csvnum(w, r->drag_free_speed_m_s),
             csvnum(w, r->drag_free_energy_j));
+        put(w, ",%s,%s", dev && r->steady_speed_m_s > 0.0 ? csvnum(w, r->steady_speed_m_s) : "",
+            dev ? csvnum(w, r->peak_force_n) : "");
     }
     for (size_t k = 0; k < it->n_verdicts; k++)
         put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), plumbp_verdict_word(&it->verdicts[k]));

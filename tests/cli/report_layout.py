@@ -285,4 +285,21 @@ rc, out, err = plumb("fall", fast, "--set", "payload.drag.cd=0.3")
 check(rc == 0 and "The air speed reaches Mach" in " ".join(out.split()),
       "with drag: the Mach warning")
 
+# CSV carries the descent devices' figures as JSON does (the CSV's 10
+# figures against JSON's full double), empty for a payload without one
+import csv as _csv  # noqa: E402
+demo = os.path.join(HERE, "..", "..", "profiles", "demo")
+rc, c, _ = plumb("fall", os.path.join(demo, "drone-canopy.yaml"), "--format", "csv")
+rows = list(_csv.DictReader(l for l in c.splitlines() if not l.startswith("#")))
+rc2, j, _ = plumb("fall", os.path.join(demo, "drone-canopy.yaml"), "--format", "json")
+dj = (json.loads(j) if rc2 == 0 else {}).get("descent") or {}
+check(rc == 0 and rows and dj and
+      abs(float(rows[0]["steady_speed_m_s"]) - dj["steady_speed_m_s"]) <= 1e-9 * dj["steady_speed_m_s"]
+      and abs(float(rows[0]["peak_force_n"]) - dj["peak_force_n"]) <= 1e-9 * dj["peak_force_n"],
+      f"CSV steady_speed_m_s and peak_force_n as JSON's: {rows[:1]} {dj.get('steady_speed_m_s')}")
+rc, c, _ = plumb("fall", os.path.join(demo, "hand-tool.yaml"), "--format", "csv")
+rows = list(_csv.DictReader(l for l in c.splitlines() if not l.startswith("#")))
+check(rc == 0 and rows and rows[0]["steady_speed_m_s"] == "" and rows[0]["peak_force_n"] == "",
+      "CSV descent columns empty without a device")
+
 finish()
