@@ -143,6 +143,14 @@ void sheet_section_header(sheet_doc *d, const plumb_brief *b)
 /* ---- 2. the answer -------------------------------------------------------------- */
 
 
+/* A figure in the other system beside the sheet's own: US beside SI in
+ * parentheses, SI beside US in brackets, as the text reports give them
+ * (README, --units). */
+static const char *beside(sheet_doc *d, const char *other)
+{
+    return sheet_fmt(d, d->opt->units == PLUMB_UNITS_US ? "[%s]" : "(%s)", other);
+}
+
 static void answer_line(sheet_doc *d, const char *label, const char *value)
 {
     char big[64], lab[64];
@@ -173,9 +181,9 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
     if (b->zone->n_items > 1)
         snprintf(who, sizeof who, " (set by %s, the item with the largest radius)",
                  b->zone->items[b->zone_item].name);
-    sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s (%s) around the planned drop point",
+    sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s %s around the planned drop point",
                                   plumbp_t_len(P, s->clearance_radius_m),
-                                  plumbp_t_len(S, s->clearance_radius_m)));
+                                  beside(d, plumbp_t_len(S, s->clearance_radius_m))));
     sheet_para(d, font, sheet_fmt(d, "%s%% of impacts fall within this radius, taken as the upper "
                                      "%s%% confidence bound from %zu samples%s%s%s%s.",
                                   plumbp_trimmed(P, 100.0 * z->confidence, 2),
@@ -198,12 +206,13 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
         double lx = s->landing_centre_m[0] - s->release_m[0];
         double ly = s->landing_centre_m[1] - s->release_m[1];
         sheet_para(d, font,
-                   sheet_fmt(d, "%s: %s%% of %simpacts within %s (%s) of their "
+                   sheet_fmt(d, "%s: %s%% of %simpacts within %s %s of their "
                                 "centre, %s toward %s of the drop point (the landing circle, "
                                 "upper %s%% bound%s).",
                              lands, plumbp_trimmed(P, 100.0 * z->confidence, 2), its,
                              plumbp_t_len(P, s->landing_circle_m),
-                             plumbp_t_len(S, s->landing_circle_m), plumbp_t_len(P, hypot(lx, ly)),
+                             beside(d, plumbp_t_len(S, s->landing_circle_m)),
+                             plumbp_t_len(P, hypot(lx, ly)),
                              plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
                              plumbp_trimmed(P, 100.0 * z->ci_level, 2),
                              s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
@@ -219,12 +228,12 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
     if (z->has_target)
         sheet_para(d, font,
-                   sheet_fmt(d, "Released to land on the target (%s, %s): keep clear %s (%s) "
+                   sheet_fmt(d, "Released to land on the target (%s, %s): keep clear %s %s "
                                 "around the target.",
                              plumbp_t_offset(P, z->target_m[0], "east", "west"),
                              plumbp_t_offset(P, z->target_m[1], "north", "south"),
                              plumbp_t_len(P, z->at_target.clearance_radius_m),
-                             plumbp_t_len(S, z->at_target.clearance_radius_m)));
+                             beside(d, plumbp_t_len(S, z->at_target.clearance_radius_m))));
 }
 
 static void verdict_table(sheet_doc *d, const plumb_item_report *it)
@@ -327,14 +336,14 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
     if (b->fall->n_items > 1)
         sheet_para(d, font, sheet_fmt(d, "For the worst of %zu items, %s (every item is in "
                                          "section 6).", b->fall->n_items, it->spec->name));
-    answer_line(d, "Impact speed", sheet_fmt(d, "%s (%s)", plumbp_t_speed(P, r->speed_m_s),
-                                             plumbp_t_speed(S, r->speed_m_s)));
+    answer_line(d, "Impact speed", sheet_fmt(d, "%s %s", plumbp_t_speed(P, r->speed_m_s),
+                                             beside(d, plumbp_t_speed(S, r->speed_m_s))));
     answer_line(d, "Impact energy", sheet_fmt(d, "%s", plumbp_t_energy(P, r->energy_j)));
     answer_line(d, "Time of fall", sheet_fmt(d, "%s s", num(P, r->time_s, TEXT_SIG)));
     answer_line(d, "Drift", r->drift_m < DRIFT_SHOWN_M
                                 ? "none: lands below the release point"
-                                : sheet_fmt(d, "%s (%s) toward %s", plumbp_t_len(P, r->drift_m),
-                                            plumbp_t_len(S, r->drift_m),
+                                : sheet_fmt(d, "%s %s toward %s", plumbp_t_len(P, r->drift_m),
+                                            beside(d, plumbp_t_len(S, r->drift_m)),
                                             plumbp_t_bearing(P, r->bearing_deg)));
     d->y += GAP / 2.0;
     zone_answer(d, b);

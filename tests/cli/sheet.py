@@ -422,6 +422,10 @@ check(rc == 0, f"letter, us: exit {rc}: {err}")
 check(pdfinfo(pdf_us).get("Page size", "").startswith("612 x 792 pts"), "letter paper")
 tu = " ".join(pages_text(pdf_us))
 check(speed_us in tu and re.search(r"\d ft\b", tu), "US units: ft/s first, a scale in ft")
+# SI beside US in brackets, as the text report gives it (README, --units)
+check(re.search(r"\d ft/s \[[\d.]+ m/s\]", tu) and re.search(r"Keep clear: [\d.]+ ft \[[\d.]+ m\]", tu),
+      "US sheet: SI figures in brackets beside US ones")
+check(re.search(r"\d m/s \([\d.]+ ft/s\)", text), "SI sheet: US figures in parentheses")
 # the wind arrow's speed in the text report's display unit: mph (knots)
 # under --units us, m/s in SI, the same figure as `plumb fall` at the
 # release height (issue 9: "wind in knots or mph where a person expects them")
