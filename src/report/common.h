@@ -46,6 +46,9 @@ json_t *plumbp_j_profile(jctx *j, const plumb_profile *p);
 void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const item_air *ia);
 json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall_report *rep,
                       const item_air *ia);
+/* fall_descent_text.c: the "Descent devices" block of an item (who: the
+ * item's name in an inventory, or NULL). */
+void plumbp_text_descent(writer *w, const plumb_item_report *it, const char *who);
 void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,
                         const char *name);
 const char *plumbp_status_note(const plumb_criterion *c);

@@ -1,7 +1,8 @@
 /*
  * fall_text.c - the text report of a fall: one item in full (impact,
- * verdicts, descent device, inputs, air, solver) or an inventory as a
- * table with the worst item named (plumb_report_fall, report.c).
+ * verdicts, descent devices (fall_descent_text.c), inputs, air, solver)
+ * or an inventory as a table with the worst item named
+ * (plumb_report_fall, report.c).
  */
 #include <math.h>
 #include <stdio.h>
@@ -140,185 +141,6 @@ static void text_comparison(writer *w, const plumb_item_report *it)
             num(w, 100.0 * fabs(r->drag_work_j) / r->drag_free_energy_j, RATIO_SIG));
     if (r->apex_m > it->spec->release_m[2])
         put(w, "  highest point    %s above the strike level\n", plumbp_t_len(w, r->apex_m));
-}
-
-static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, size_t size)
-{
-    char fill[NUMBUF * 2];
-    w->exact = 1;
-    if (d->fill_constant > 0.0)
-        snprintf(fill, sizeof fill, "fills in n D0 / v with n = %s",
-                 plumbp_gnum(w, d->fill_constant, 3));
-    else if (d->fill_time_s > 0.0)
-        snprintf(fill, sizeof fill, "fills in %s" NBSP "s",
-                 plumbp_gnum(w, d->fill_time_s, TEXT_SIG));
-    else
-        snprintf(fill, sizeof fill, "opens at once");
-    if (d->trigger == PLUMB_DEPLOY_AFTER)
-        snprintf(buf, size, "deploys %s" NBSP "s after release, %s",
-                 plumbp_gnum(w, d->deploy_value, TEXT_SIG), fill);
-    else
-        snprintf(buf, size, "deploys below %s, %s", plumbp_t_len(w, d->deploy_value), fill);
-    w->exact = 0;
-}
-
-/* The inflation curve of a device and where its figures come from. */
-static void text_inflation(writer *w, const plumb_descent_spec *d)
-{
-    char line[NUMBUF * 8];
-    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
-    double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
-    if (!(d->fill_time_s > 0.0) && !(d->fill_constant > 0.0)) {
-        /* no fill: the deploy rule already says "opens at once" */
-        if (ci)
-            wrapped(w, "                   canopy: ", ci->name);
-        return;
-    }
-    w->exact = 1;
-    snprintf(line, sizeof line, "%s%sdrag area grows as (t/t_f)^%s over the fill (Knacke 1991)%s",
-             ci ? ci->name : "", ci ? " canopy: " : "", plumbp_gnum(w, j, 3),
-             d->inflation_exponent > 0.0 ? "" : "; linear: no canopy type or exponent given");
-    w->exact = 0;
-    wrapped(w, "                   ", line);
-    if (ci)
-        wrapped(w, "                   source: ", ci->source);
-}
-
-/* Pflanz's hand estimate beside the integrated peak. */
-static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall_result *r,
-                        size_t i, double weight_n)
-{
-    char line[NUMBUF * 10];
-    if (!(r->fill_time_s[i] > 0.0)) {
-        wrapped(w, "                   ", "opens at once: no fill, so no Pflanz estimate");
-        return;
-    }
-    if (d->opening_factor > 0.0)
-        snprintf(line, sizeof line,
-                 "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
-                 "X1 %s, C_x %s: opening force %s (%s" NBSP "g)",
-                 num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
-                 num(w, r->pflanz_x1[i], 3), num(w, d->opening_factor, 3),
-                 plumbp_t_force(w, r->pflanz_force_n[i]),
-                 num(w, r->pflanz_force_n[i] / weight_n, 3));
-    else
-        snprintf(line, sizeof line,
-                 "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
-                 "X1 %s: X1 q1 CdS0 %s, times C_x (not known: give canopy or opening_factor)",
-                 num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
-                 num(w, r->pflanz_x1[i], 3),
-                 plumbp_t_force(w, r->pflanz_x1[i] * r->pflanz_q1s_n[i]));
-    wrapped(w, "                   ", line);
-}
-
-/* "the drogue and the parachute do not open", "the parachute does not
- * open": the devices i0..n of s that never open, by kind; by number when
- * two of them are of one kind. */
-static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
-                             size_t size)
-{
-    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
-    size_t closed = 0, last = 0;
-    int same = 0;
-    for (size_t i = 0; i < n; i++) {
-        if (r->deployed[i])
-            continue;
-        closed++;
-        last = i;
-        for (size_t k = i + 1; k < n; k++)
-            same |= !r->deployed[k] && s->descent[i].kind == s->descent[k].kind;
-    }
-    if (same) {
-        /* two of a kind: counted, since their names would not tell them apart */
-        if (closed == n)
-            snprintf(buf, size, "none of the %zu devices opens", n);
-        else
-            snprintf(buf, size, "%zu of the %zu devices do not open", closed, n);
-        return;
-    }
-    size_t len = (size_t)snprintf(buf, size, "the");
-    size_t seen = 0;
-    for (size_t i = 0; i < n && len < size; i++) {
-        if (r->deployed[i])
-            continue;
-        len += (size_t)snprintf(buf + len, size - len, "%s %s",
-                                seen == 0 ? "" : i == last ? " and the" : ", the",
-                                plumb_descent_kind_name(s->descent[i].kind));
-        seen++;
-    }
-    if (len < size)
-        snprintf(buf + len, size - len, " %s", closed > 1 ? "do not open" : "does not open");
-}
-
-/* The steady descent speed, worded by what this fall deployed: a device
- * that never opens gives none, so with no device open the figure does not
- * apply; with some open, the figure (with every device open, as in JSON
- * steady_speed_m_s) is not what this fall reaches, and says so. */
-static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_result *r)
-{
-    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
-    char closed[NUMBUF * 2], line[NUMBUF * 5];
-    if (r->n_deployed == 0) {
-        devices_not_open(s, r, closed, sizeof closed);
-        snprintf(line, sizeof line, "does not apply (%s before impact)", closed);
-    } else if (r->n_deployed >= n) {
-        if (r->steady_speed_m_s > 0.0)
-            snprintf(line, sizeof line, "%s with the %s open, at the strike level",
-                     plumbp_t_speed(w, r->steady_speed_m_s),
-                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
-        else
-            snprintf(line, sizeof line, "none up to %s even with the %s open: too little drag",
-                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S),
-                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
-    } else {
-        devices_not_open(s, r, closed, sizeof closed);
-        if (r->steady_speed_m_s > 0.0)
-            snprintf(line, sizeof line,
-                     "%s with every device open, at the strike level; not this fall's: %s "
-                     "before impact",
-                     plumbp_t_speed(w, r->steady_speed_m_s), closed);
-        else
-            snprintf(line, sizeof line,
-                     "none up to %s even with every device open: too little drag; and %s "
-                     "before impact",
-                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), closed);
-    }
-    wrapped(w, "  steady descent   ", line);
-}
-
-static void text_descent(writer *w, const plumb_item_report *it, const char *who)
-{
-    const plumb_fall_spec *s = it->spec;
-    const plumb_fall_result *r = &it->result;
-    if (s->n_descent == 0)
-        return;
-    put(w, "\nDescent devices%s%s\n", who ? " of " : "", who ? who : "");
-    for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
-        const plumb_descent_spec *d = &s->descent[i];
-        char rule[NUMBUF * 4], line[NUMBUF * 8], lead[32];
-        text_deploy_rule(w, d, rule, sizeof rule);
-        snprintf(lead, sizeof lead, "  %-16s ", plumb_descent_kind_name(d->kind));
-        w->exact = 1;
-        snprintf(line, sizeof line, "Cd %s on %s; %s", plumbp_gnum(w, d->cd, INPUT_SIG),
-                 plumbp_t_area(w, d->area_m2), rule);
-        w->exact = 0;
-        wrapped(w, lead, line);
-        text_inflation(w, d);
-        if (r->deployed[i])
-            snprintf(line, sizeof line,
-                     "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
-                     "air speed",
-                     num(w, r->deploy_time_s[i], TEXT_SIG), plumbp_t_len(w, r->deploy_height_m[i]),
-                     plumbp_t_speed(w, r->deploy_speed_m_s[i]));
-        else
-            snprintf(line, sizeof line, "does not open before impact");
-        wrapped(w, "                   ", line);
-        if (r->deployed[i])
-            text_pflanz(w, d, r, i, s->mass_kg * PLUMB_G0_M_S2);
-    }
-    put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
-        plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
-    text_steady(w, s, r);
 }
 
 /* Drag as understood, in one line of prose. */
@@ -578,7 +400,7 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
     text_impact(w, it);
     text_verdicts(w, it);
     text_comparison(w, it);
-    text_descent(w, it, NULL);
+    plumbp_text_descent(w, it, NULL);
     if (it->n_warnings) {
         put(w, "\nWarnings\n");
         for (size_t i = 0; i < it->n_warnings; i++) {
@@ -799,7 +621,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     for (size_t i = 0; i < rep->n_items; i++) {
         if (rep->items[i].spec->n_descent == 0)
             continue;
-        text_descent(w, &rep->items[i], rep->items[i].spec->name);
+        plumbp_text_descent(w, &rep->items[i], rep->items[i].spec->name);
     }
 
     int any_warning = 0;
