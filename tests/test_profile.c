@@ -1851,6 +1851,52 @@ static void test_every_profile_in_tests_bad_fails_where_its_comment_says(void **
     assert_true(checked >= 30);
 }
 
+/* plumb lint's check (plumb_profile_lint_buffer): every error of a file,
+ * in file order, each at its place; an error that only follows from one
+ * set aside (a required key now missing) is not counted; a good profile
+ * has none. (The invented profile's three mistakes: a unit in the wrong
+ * case, a misspelt key, a humidity above 100 %.) */
+static void test_lint_finds_every_error_in_file_order(void **state)
+{
+    (void)state;
+    static const char text[] = "name: lint test\n"
+                               "payload:\n"
+                               "  mass: 2 Kg\n"
+                               "  drag: {cd: 0.9, area: 0.004 m^2}\n"
+                               "release:\n"
+                               "  height: 30 m\n"
+                               "wind:\n"
+                               "  form: 270 deg\n"
+                               "atmosphere:\n"
+                               "  humidity: 150 %\n";
+    plumb_diag errs[8];
+    size_t n = 99;
+    assert_int_not_equal(plumb_profile_lint_buffer("t.yaml", text, strlen(text), units, NULL, 0,
+                                                   errs, 8, &n),
+                         PLUMB_OK);
+    assert_int_equal(n, 3);
+    static const struct { const char *key; int line, col; } want[] = {
+        {"payload.mass", 3, 9}, {"wind.form", 8, 3}, {"atmosphere.humidity", 10, 13}};
+    for (size_t i = 0; i < 3; i++) {
+        assert_string_equal(errs[i].key, want[i].key);
+        assert_int_equal(errs[i].line, want[i].line);
+        assert_int_equal(errs[i].col, want[i].col);
+        assert_string_equal(errs[i].file, "t.yaml");
+    }
+    /* at most max */
+    assert_int_not_equal(plumb_profile_lint_buffer("t.yaml", text, strlen(text), units, NULL, 0,
+                                                   errs, 2, &n),
+                         PLUMB_OK);
+    assert_int_equal(n, 2);
+    /* a good profile: none */
+    static const char good[] = "payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.004 m^2}}\n"
+                               "release: {height: 30 m}\n";
+    assert_int_equal(plumb_profile_lint_buffer("g.yaml", good, strlen(good), units, NULL, 0, errs,
+                                               8, &n),
+                     PLUMB_OK);
+    assert_int_equal(n, 0);
+}
+
 int main(void)
 {
     enum { N_BAD = sizeof bad_cases / sizeof bad_cases[0] };
@@ -1902,6 +1948,7 @@ int main(void)
         cmocka_unit_test(test_accessors_accept_null),
         cmocka_unit_test(test_bundled_demo_and_payload_profiles_load),
         cmocka_unit_test(test_every_profile_in_tests_bad_fails_where_its_comment_says),
+        cmocka_unit_test(test_lint_finds_every_error_in_file_order),
     };
     enum { N_FIXED = sizeof fixed / sizeof fixed[0] };
     static struct CMUnitTest tests[N_FIXED + N_BAD];

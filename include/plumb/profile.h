@@ -90,6 +90,21 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets,
                                 plumb_profile **out, plumb_diag *diag);
 
+/* Checks a profile as plumb_profile_load does, but goes on past an error:
+ * each error found in the file is set aside (its key or value left out)
+ * and the profile checked again, so that every error is found, not only
+ * the first the loader meets; an error that only follows from one set
+ * aside (the key now missing) is not counted. Up to max diagnostics go
+ * into errs[0 .. *n), in file order. Returns PLUMB_OK when the profile
+ * loads (*n 0), else the status of the first error found. */
+plumb_status plumb_profile_lint(const char *path, const plumb_units *units,
+                                const char *const *sets, size_t n_sets, plumb_diag *errs,
+                                size_t max, size_t *n);
+/* The same for the len bytes at buf, named `name` in diagnostics. */
+plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
+                                       const plumb_units *units, const char *const *sets,
+                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n);
+
 /* Loads and checks a profile from the len bytes at buf (not necessarily
  * NUL-terminated), as plumb_profile_load does from a file: `name` stands
  * for the file in diagnostics and reports ("<stdin>"), and the SHA-256 is

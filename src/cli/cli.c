@@ -491,7 +491,7 @@ plumb_status cli_write_output(const char *path, const char *buf, size_t len, plu
 
 /* Reads standard input to its end into a malloc'd buffer (*buf, *len);
  * more than `max` bytes is PLUMB_ERANGE, a read error PLUMB_EIO. */
-static plumb_status cli_read_stdin(size_t max, char **buf, size_t *len, plumb_diag *diag)
+plumb_status cli_read_stdin(size_t max, char **buf, size_t *len, plumb_diag *diag)
 {
     *buf = NULL;
     *len = 0;

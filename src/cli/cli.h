@@ -127,6 +127,8 @@ int cli_usage_error(const char *cmd, const char *fmt, ...)
 /* Prints "plumb: " + the formatted diagnostic to stderr; returns 2 for an
  * input error (plumb_status_is_input_error), else 3. */
 int cli_fail(const plumb_diag *diag);
+/* Standard input read whole into *buf (malloc'd), at most max bytes. */
+plumb_status cli_read_stdin(size_t max, char **buf, size_t *len, plumb_diag *diag);
 
 /* An output file being written (cli_outfile_open, cli_outfile_close). */
 typedef struct cli_outfile {

@@ -244,6 +244,108 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
+/* The errors of a parsed profile, as plumb_profile_lint_buffer says. */
+static plumb_status lint_tree(const char *name, const char *sha, const plumby_node *tree,
+                             const plumb_units *units, const char *const *sets, size_t n_sets,
+                             plumb_diag *errs, size_t max, size_t *n)
+{
+    plumb_status first = PLUMB_OK;
+    while (*n < max) {
+        plumby_node *copy = plumby_copy(tree);
+        if (!copy) {
+            first = first != PLUMB_OK ? first : PLUMB_ENOMEM;
+            break;
+        }
+        /* the errors found so far set aside: a later one is checked as if
+         * they were not written */
+        for (size_t i = 0; i < *n; i++)
+            (void)plumby_remove_at(copy, errs[i].line, errs[i].col);
+        plumb_profile *p = NULL;
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        plumb_status st = build(name, sha, copy, NULL, units, sets, n_sets, &p, &d);
+        plumb_profile_free(p);
+        if (st == PLUMB_OK)
+            break;
+        int seen = 0; /* the same key again: missing now that it was set aside */
+        for (size_t i = 0; i < *n; i++)
+            seen |= strcmp(errs[i].key, d.key) == 0 ||
+                    (errs[i].line == d.line && errs[i].col == d.col);
+        if (*n > 0 && (seen || !plumb_status_is_input_error(st) || strcmp(d.file, name) != 0))
+            break;
+        errs[(*n)++] = d;
+        if (first == PLUMB_OK)
+            first = st;
+        plumby_node *probe = plumby_copy(tree);
+        int removable = probe && d.line > 0 && strcmp(d.file, name) == 0 &&
+                        plumby_remove_at(probe, d.line, d.col);
+        plumby_free(probe);
+        if (!removable)
+            break;
+    }
+    /* in file order */
+    for (size_t i = 1; i < *n; i++)
+        for (size_t j = i; j > 0 && (errs[j].line < errs[j - 1].line ||
+                                     (errs[j].line == errs[j - 1].line &&
+                                      errs[j].col < errs[j - 1].col)); j--) {
+            plumb_diag t = errs[j];
+            errs[j] = errs[j - 1];
+            errs[j - 1] = t;
+        }
+    return first;
+}
+
+plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
+                                       const plumb_units *units, const char *const *sets,
+                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n)
+{
+    if (n)
+        *n = 0;
+    if (!name || (!buf && len > 0) || !units || !errs || max == 0 || !n ||
+        (n_sets > 0 && !sets))
+        return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint_buffer: NULL argument");
+    if (len > PLUMB_PROFILE_MAX_BYTES) {
+        *n = 1;
+        return PLUMB_RAISE_AT(&errs[0], PLUMB_ERANGE, name, 0, 0, NULL,
+                              "the profile has %zu bytes; at most %u bytes are accepted", len,
+                              PLUMB_PROFILE_MAX_BYTES);
+    }
+    char sha[PLUMBP_SHA256_HEX];
+    plumbp_sha256_hex(buf ? buf : "", len, sha);
+    plumby_node *tree;
+    plumb_diag_clear(&errs[0]);
+    plumb_status st = plumby_parse(buf ? buf : "", len, name, PLUMBY_FROM_FILE, 0, NULL, &tree,
+                                   &errs[0]);
+    if (st != PLUMB_OK) {
+        *n = 1;
+        return st;
+    }
+    st = lint_tree(name, sha, tree, units, sets, n_sets, errs, max, n);
+    plumby_free(tree);
+    return st;
+}
+
+plumb_status plumb_profile_lint(const char *path, const plumb_units *units,
+                                const char *const *sets, size_t n_sets, plumb_diag *errs,
+                                size_t max, size_t *n)
+{
+    if (n)
+        *n = 0;
+    if (!path || !errs || max == 0 || !n)
+        return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint: NULL argument");
+    char *buf;
+    size_t len;
+    plumb_diag_clear(&errs[0]);
+    plumb_status st = plumby_read_file(path, PLUMB_PROFILE_MAX_BYTES, &buf, &len, &errs[0]);
+    if (st != PLUMB_OK) {
+        *n = 1;
+        return st;
+    }
+    st = plumb_profile_lint_buffer(path, buf, len, units, sets, n_sets, errs, max, n);
+    free(buf);
+    return st;
+}
+
 plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t len,
                                        const plumb_units *units, const char *const *sets,
                                        size_t n_sets, plumb_profile **out, plumb_diag *diag)

@@ -98,6 +98,17 @@ else
   bad "a tab before and inside a trailing comment: $(cat "$tmp/stderr")"
 fi
 
+# ---- lint lists every error of a file, in file order (issue 9) ----------------
+printf 'payload:\n  mass: 2 Kg\n  drag: {cd: 0.9, area: 0.004 m^2}\nrelease:\n  height: 30 m\nwind:\n  form: 270 deg\natmosphere:\n  humidity: 150 %%\n' >"$tmp/three.yaml"
+"$bin" lint "$tmp/three.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+rc=$?
+got=$(sed -n 's/^plumb: [^:]*:\([0-9]*:[0-9]*\): \([^:]*\):.*/\1 \2/p' "$tmp/stderr" | tr '\n' ';')
+if [ $rc -eq 2 ] && [ "$got" = "2:9 payload.mass;7:3 wind.form;9:13 atmosphere.humidity;" ] && [ ! -s "$tmp/stdout" ]; then
+  pass=$((pass + 1))
+else
+  bad "lint of three errors: exit $rc, got '$got': $(cat "$tmp/stderr")"
+fi
+
 # ---- overrides --------------------------------------------------------------
 refused "--set with an unknown key" "plumb: --set:1:9: release.hieght: " "did you mean 'release.height'" \
   -- fall "$good" --set release.hieght=30m --format json
