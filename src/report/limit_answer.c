@@ -38,11 +38,18 @@ static const char *metric_unit_key(plumb_metric m)
     return m == PLUMB_METRIC_SPEED ? "m_s" : m == PLUMB_METRIC_DRIFT ? "m" : "j";
 }
 
+/* The formatter of a metric's figure. */
+typedef const char *(*metric_fmt)(writer *, double);
+static metric_fmt metric_formatter(plumb_metric m)
+{
+    return m == PLUMB_METRIC_SPEED ? plumbp_t_speed
+           : m == PLUMB_METRIC_DRIFT ? plumbp_t_len
+                                     : plumbp_t_energy;
+}
+
 static const char *t_metric(writer *w, plumb_metric m, double x)
 {
-    return m == PLUMB_METRIC_SPEED   ? plumbp_t_speed(w, x)
-           : m == PLUMB_METRIC_DRIFT ? plumbp_t_len(w, x)
-                                     : plumbp_t_energy(w, x);
+    return metric_formatter(m)(w, x);
 }
 
 /* The metric at a found answer, which meets the limit (inverse.h): each
@@ -51,11 +58,7 @@ static const char *t_metric(writer *w, plumb_metric m, double x)
  * the 22.57 that rounding to the nearest gives beside a limit of 22.56). */
 static const char *t_metric_met(writer *w, plumb_metric m, double x)
 {
-    int was = w->strict;
-    w->strict = 1;
-    const char *b = t_metric(w, m, x);
-    w->strict = was;
-    return b;
+    return plumbp_t_limit(w, metric_formatter(m), x);
 }
 
 static const char *outcome_word(plumb_limit_outcome o)
@@ -116,10 +119,7 @@ static const char *t_given_value(writer *w, const char *key, const plumb_limit_r
  * side), as the header states it. */
 static const char *t_the_limit(writer *w, const plumb_limit_report *rep)
 {
-    return plumbp_t_limit(w, rep->metric == PLUMB_METRIC_SPEED   ? plumbp_t_speed
-                             : rep->metric == PLUMB_METRIC_DRIFT ? plumbp_t_len
-                                                                 : plumbp_t_energy,
-                          rep->limit);
+    return plumbp_t_limit(w, metric_formatter(rep->metric), rep->limit);
 }
 
 /* Why, in words, with every figure in the writer's units: what the solver
