@@ -198,7 +198,7 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
     /* no drag at all (a fixed Cd of 0, no device): no coefficient to doubt */
     const plumb_drag_spec *dr = &item->spec->drag;
     int has_drag = dr->model != PLUMB_DRAG_FIXED || item->spec->n_descent > 0 ||
-                   (dr->area_m2 > 0.0 ? dr->cd * dr->area_m2 : dr->cd_area_m2) > 0.0;
+                   plumb_drag_cd_area(dr, 0.0) > 0.0;
     if (has_drag && r->max_mach > WARN_MACH)
         add_warning(item,
                     "The air speed reaches Mach %.2f on the way (above %.1f): the drag "

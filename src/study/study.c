@@ -194,12 +194,11 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
         /* no number: perhaps a criterion's id mistyped ("en397-shock") */
         /* or its start: "en397" for the EN 397 criteria */
         char near[PLUMB_DIAG_MSG / 2] = "";
+        const plumb_criterion *c = plumb_criteria_nearest(s->criteria, text);
         int id_like = metric == PLUMB_METRIC_ENERGY && !isdigit((unsigned char)text[0]) &&
                       !strpbrk(text, " \t") &&
                       (strchr(text, '-') ||
-                       (strlen(text) >= 3 && plumb_criteria_nearest(s->criteria, text) &&
-                        strncmp(plumb_criteria_nearest(s->criteria, text)->id, text,
-                                strlen(text)) == 0));
+                       (strlen(text) >= 3 && c && strncmp(c->id, text, strlen(text)) == 0));
         if (id_like && plumb_criteria_nearest_ids(s->criteria, text, near, sizeof near) > 0)
             return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, option,
                                   "'%s' is neither an energy with its unit nor a criterion's "
