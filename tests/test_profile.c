@@ -1872,7 +1872,7 @@ static void test_lint_finds_every_error_in_file_order(void **state)
     plumb_diag errs[8];
     size_t n = 99;
     assert_int_not_equal(plumb_profile_lint_buffer("t.yaml", text, strlen(text), units, NULL, 0,
-                                                   errs, 8, &n),
+                                                   errs, 8, &n, NULL),
                          PLUMB_OK);
     assert_int_equal(n, 3);
     static const struct { const char *key; int line, col; } want[] = {
@@ -1885,16 +1885,20 @@ static void test_lint_finds_every_error_in_file_order(void **state)
     }
     /* at most max */
     assert_int_not_equal(plumb_profile_lint_buffer("t.yaml", text, strlen(text), units, NULL, 0,
-                                                   errs, 2, &n),
+                                                   errs, 2, &n, NULL),
                          PLUMB_OK);
     assert_int_equal(n, 2);
     /* a good profile: none */
     static const char good[] = "payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.004 m^2}}\n"
                                "release: {height: 30 m}\n";
+    plumb_profile *p = NULL;
     assert_int_equal(plumb_profile_lint_buffer("g.yaml", good, strlen(good), units, NULL, 0, errs,
-                                               8, &n),
+                                               8, &n, &p),
                      PLUMB_OK);
     assert_int_equal(n, 0);
+    assert_non_null(p); /* the profile that loaded, the caller's */
+    assert_true(plumb_profile_item(p, 0)->mass_kg == 2.0);
+    plumb_profile_free(p);
 }
 
 int main(void)

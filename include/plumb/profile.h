@@ -96,14 +96,16 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
  * the first the loader meets; an error that only follows from one set
  * aside (the key now missing) is not counted. Up to max diagnostics go
  * into errs[0 .. *n), in file order. Returns PLUMB_OK when the profile
- * loads (*n 0), else the status of the first error found. */
+ * loads (*n 0; *out, if out is not NULL, the profile, the caller's to
+ * free), else the status of the first error found (*out NULL). */
 plumb_status plumb_profile_lint(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets, plumb_diag *errs,
-                                size_t max, size_t *n);
+                                size_t max, size_t *n, plumb_profile **out);
 /* The same for the len bytes at buf, named `name` in diagnostics. */
 plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
                                        const plumb_units *units, const char *const *sets,
-                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n);
+                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                       plumb_profile **out);
 
 /* Loads and checks a profile from the len bytes at buf (not necessarily
  * NUL-terminated), as plumb_profile_load does from a file: `name` stands

@@ -21,18 +21,15 @@ static const char usage[] =
 /* At most this many errors are listed per profile. */
 enum { LINT_MAX = 16 };
 
-/* Loads the profile for the checks after it, and lists the errors of the
- * file (plumb_profile_lint) when it does not load. */
+/* Loads the profile for the checks after it, or lists the errors of the
+ * file (plumb_profile_lint) when it does not load; one load either way. */
 static plumb_status lint_load(const cli_args *a, const char *path, const plumb_units *units,
                               plumb_profile **prof, plumb_diag *errs, size_t *n_errs)
 {
     *prof = NULL;
     *n_errs = 0;
-    if (strcmp(path, "-") != 0) {
-        plumb_status st = plumb_profile_lint(path, units, a->sets, a->n_sets, errs, LINT_MAX,
-                                             n_errs);
-        return st == PLUMB_OK ? cli_profile_load(a, path, units, prof, &errs[0]) : st;
-    }
+    if (strcmp(path, "-") != 0)
+        return plumb_profile_lint(path, units, a->sets, a->n_sets, errs, LINT_MAX, n_errs, prof);
     char *buf;
     size_t len;
     plumb_status st = cli_read_stdin(PLUMB_PROFILE_MAX_BYTES, &buf, &len, &errs[0]);
@@ -41,10 +38,7 @@ static plumb_status lint_load(const cli_args *a, const char *path, const plumb_u
         return st;
     }
     st = plumb_profile_lint_buffer(CLI_STDIN_NAME, buf, len, units, a->sets, a->n_sets, errs,
-                                   LINT_MAX, n_errs);
-    if (st == PLUMB_OK)
-        st = plumb_profile_load_buffer(CLI_STDIN_NAME, buf, len, units, a->sets, a->n_sets, prof,
-                                       &errs[0]);
+                                   LINT_MAX, n_errs, prof);
     free(buf);
     return st;
 }

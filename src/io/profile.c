@@ -247,7 +247,7 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
 /* The errors of a parsed profile, as plumb_profile_lint_buffer says. */
 static plumb_status lint_tree(const char *name, const char *sha, const plumby_node *tree,
                              const plumb_units *units, const char *const *sets, size_t n_sets,
-                             plumb_diag *errs, size_t max, size_t *n)
+                             plumb_diag *errs, size_t max, size_t *n, plumb_profile **out)
 {
     plumb_status first = PLUMB_OK;
     while (*n < max) {
@@ -264,7 +264,10 @@ static plumb_status lint_tree(const char *name, const char *sha, const plumby_no
         plumb_diag d;
         plumb_diag_clear(&d);
         plumb_status st = build(name, sha, copy, NULL, units, sets, n_sets, &p, &d);
-        plumb_profile_free(p);
+        if (st == PLUMB_OK && *n == 0 && out)
+            *out = p; /* the profile as written loads: the caller's */
+        else
+            plumb_profile_free(p);
         if (st == PLUMB_OK)
             break;
         int seen = 0; /* the same key again: missing now that it was set aside */
@@ -297,10 +300,13 @@ static plumb_status lint_tree(const char *name, const char *sha, const plumby_no
 
 plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
                                        const plumb_units *units, const char *const *sets,
-                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n)
+                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                       plumb_profile **out)
 {
     if (n)
         *n = 0;
+    if (out)
+        *out = NULL;
     if (!name || (!buf && len > 0) || !units || !errs || max == 0 || !n ||
         (n_sets > 0 && !sets))
         return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint_buffer: NULL argument");
@@ -320,17 +326,19 @@ plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t
         *n = 1;
         return st;
     }
-    st = lint_tree(name, sha, tree, units, sets, n_sets, errs, max, n);
+    st = lint_tree(name, sha, tree, units, sets, n_sets, errs, max, n, out);
     plumby_free(tree);
     return st;
 }
 
 plumb_status plumb_profile_lint(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets, plumb_diag *errs,
-                                size_t max, size_t *n)
+                                size_t max, size_t *n, plumb_profile **out)
 {
     if (n)
         *n = 0;
+    if (out)
+        *out = NULL;
     if (!path || !errs || max == 0 || !n)
         return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint: NULL argument");
     char *buf;
@@ -341,7 +349,7 @@ plumb_status plumb_profile_lint(const char *path, const plumb_units *units,
         *n = 1;
         return st;
     }
-    st = plumb_profile_lint_buffer(path, buf, len, units, sets, n_sets, errs, max, n);
+    st = plumb_profile_lint_buffer(path, buf, len, units, sets, n_sets, errs, max, n, out);
     free(buf);
     return st;
 }
