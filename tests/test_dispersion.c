@@ -547,6 +547,26 @@ static void check_moments(const double *x, size_t n, double mean, double var, do
     assert_abs(got.var, var, 5.0 * var * sqrt((kurtosis - 1.0) / (double)n));
 }
 
+/* A normal near the top of a wind speed's range (the sea-level speed of
+ * sound, US Std Atm 1976) is cut there and only there: the end at 0 lies
+ * 33 sd below and cuts nothing worth reporting. */
+static void test_a_normal_is_reported_cut_only_where_its_range_cuts_it(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    drone_spec(&s);
+    s.wind.profile = PLUMB_WIND_UNIFORM;
+    plumb_uncertainty u[1] = {unc("wind.speed", PLUMB_DIST_NORMAL, 330.0, 10.0, 0.0)};
+    plumb_sampler *sm = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_sampler_alloc(&s, u, 1, "t.yaml", &sm, &d), PLUMB_OK);
+    double lo = 0.0, hi = 0.0;
+    assert_true(plumb_sampler_truncated(sm, 0, &lo, &hi));
+    assert_true(isinf(lo) && lo < 0.0);
+    assert_abs(hi, PLUMB_SOUND_SPEED_SL_M_S, 0.0);
+    plumb_sampler_free(sm);
+}
+
 /* Each distribution's sample mean and variance against its definition. */
 static void test_every_distribution_matches_its_mean_and_variance(void **state)
 {
@@ -573,6 +593,8 @@ static void test_every_distribution_matches_its_mean_and_variance(void **state)
     assert_false(plumb_sampler_truncated(sm, 1, &lo, &hi)); /* uniform: not truncated */
     assert_true(plumb_sampler_truncated(sm, 3, &lo, &hi));
     assert_abs(lo, 0.0, 0.0);
+    /* the speed of sound bounds a wind speed too, but 148 sd away it cuts
+     * nothing worth reporting (plumb_sampler_truncated) */
     assert_true(isinf(hi));
     const size_t n = 100000;
     double *x = malloc(6 * n * sizeof *x);
@@ -1014,6 +1036,7 @@ int main(void)
         cmocka_unit_test(test_binned_percentiles_match_an_exact_sort_of_1e5_samples),
         cmocka_unit_test(test_release_point_puts_the_median_impact_on_the_target),
         cmocka_unit_test(test_every_distribution_matches_its_mean_and_variance),
+        cmocka_unit_test(test_a_normal_is_reported_cut_only_where_its_range_cuts_it),
         cmocka_unit_test(test_direction_sectors_across_north_and_polar_velocity),
         cmocka_unit_test(test_a_sample_draw_depends_on_seed_and_index_only),
         cmocka_unit_test(test_clopper_pearson_matches_closed_forms_and_beta_quantiles),

@@ -22,6 +22,10 @@
 /* Sea-level standard temperature K and pressure Pa (US Std Atm 1976). */
 #define PLUMB_T0_K 288.15
 #define PLUMB_P0_PA 101325.0
+/* Speed of sound at sea level in the standard atmosphere, m/s (US Std Atm
+ * 1976, Table 1: Cs = 340.294 m/s at 0 m). The largest release and wind
+ * speed a profile may give: the drag model is for subsonic air speeds. */
+#define PLUMB_SOUND_SPEED_SL_M_S 340.294
 /* Geometric altitude of the top of the 1976 model, m. */
 #define PLUMB_STD1976_TOP_M 86000.0
 /* Geometric altitude of the bottom of the 1976 model's tables, m

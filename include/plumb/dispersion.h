@@ -116,7 +116,10 @@ void plumb_sampler_free(plumb_sampler *s);
 size_t plumb_sampler_count(const plumb_sampler *s);
 
 /* 1 when entry i is a normal distribution truncated to [*lo, *hi] (either
- * may be infinite), else 0. lo, hi may be NULL. Can't fail. */
+ * may be infinite), else 0. An end of the key's range that cuts off less
+ * than 1e-12 of the distribution (past about 7 sd) is still enforced but
+ * given here as infinite, and an entry with no other end is not counted as
+ * truncated. lo, hi may be NULL. Can't fail. */
 int plumb_sampler_truncated(const plumb_sampler *s, size_t i, double *lo, double *hi);
 
 /* Draws sample `index` of the stream `seed`: *out = base with the drawn

@@ -185,7 +185,7 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     }
 
     const plumby_node *v = pr->value;
-    char rtext[96];
+    char rtext[160];
     plumby_range_text(range, dim, rtext, sizeof rtext);
     if (v->kind == PLUMBY_SCALAR) {
         char a[PLUMB_DIAG_MSG], b[PLUMB_DIAG_MSG];

@@ -159,7 +159,7 @@ plumb_status plumbp_vary_refusal(const plumbp_vary *v, double x, const plumb_fal
     const char *unit = plumb_dim_si_unit(k->dim);
     int bare = !*unit || strcmp(unit, "1") == 0;
     if (!plumby_range_ok(k->range, x)) {
-        char r[96];
+        char r[160];
         plumby_range_text(k->range, k->dim, r, sizeof r);
         return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, v->key, "must be %s, found %.6g%s%s", r, x,
                                bare ? "" : " ", bare ? "" : unit);

@@ -300,6 +300,8 @@ void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_ope
     case PLUMBY_R_LATITUDE: *lo = -90.0; *hi = 90.0; break;
     case PLUMBY_R_LONGITUDE: *lo = -180.0; *hi = 180.0; break;
     case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
+    case PLUMBY_R_SUBSONIC: *lo = -PLUMB_SOUND_SPEED_SL_M_S; *hi = PLUMB_SOUND_SPEED_SL_M_S; break;
+    case PLUMBY_R_SUBSONIC_NONNEG: *lo = 0.0; *hi = PLUMB_SOUND_SPEED_SL_M_S; break;
     }
 }
 
@@ -332,6 +334,14 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
     case PLUMBY_R_LONGITUDE: snprintf(buf, size, "-180%s .. 180%s", u, u); break;
     case PLUMBY_R_ALTITUDE:
         snprintf(buf, size, "%g%s .. %g%s", PLUMB_STD1976_BOTTOM_M, u, PLUMB_STD1976_TOP_M, u);
+        break;
+    case PLUMBY_R_SUBSONIC:
+    case PLUMBY_R_SUBSONIC_NONNEG:
+        snprintf(buf, size,
+                 "%g%s .. %g%s (below the speed of sound at sea level: the drag model is for "
+                 "subsonic air speeds)",
+                 range == PLUMBY_R_SUBSONIC ? -PLUMB_SOUND_SPEED_SL_M_S : 0.0, u,
+                 PLUMB_SOUND_SPEED_SL_M_S, u);
         break;
     }
     return buf;
@@ -466,7 +476,7 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
     if (st != PLUMB_OK)
         return st;
     if (!plumby_range_ok(range, v)) {
-        char r[96];
+        char r[160];
         plumby_range_text(range, dim, r, sizeof r);
         return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
                             "must be %s, found '%s'", r, node->text);

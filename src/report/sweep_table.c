@@ -715,7 +715,10 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         size_t k1 = k0, used = lead_w;
         while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wcrit[k1++] + SWEEP_GAP;
-        put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
+        if (k1 == k0 + 1)
+            put(w, "\nAgainst the criterion C%zu (ratio = energy / limit)\n", k1);
+        else
+            put(w, "\nAgainst the criteria, C%zu to C%zu (ratio = energy / limit)\n", k0 + 1, k1);
         sweep_top_heads(w, &c, khead);
         sweep_heads(w, sw, &c, khead, 1);
         for (size_t k = k0; k < k1; k++) {

@@ -37,6 +37,10 @@
 /* Least fraction of a normal distribution that must lie inside the key's
  * range for truncation to be accepted. */
 #define TRUNC_MIN_MASS 0.5
+/* A tail of a normal beyond an end of the key's range that is reported as
+ * cutting it: smaller tails (past about 7 sd, e.g. a wind speed's bound at
+ * the speed of sound) are still enforced but not worth a line. */
+#define TRUNC_TAIL_SHOWN 1e-12
 /* Level of the impact ellipse. */
 #define ELLIPSE_LEVEL 0.95
 /* Degrees in a full turn. */
@@ -93,6 +97,7 @@ typedef struct entry {
     size_t offset;           /* TGT_FIELD: byte offset of the double in the spec */
     key_rule rule;           /* range and angle flag */
     int truncated;           /* normal with a finite end of range */
+    int cut_lo, cut_hi;      /* which ends cut a tail above TRUNC_TAIL_SHOWN */
     double a, c, b;          /* uniform/triangular: lo, mode, hi, unwrapped for angles */
     double cum[PLUMB_MAX_ATTITUDES]; /* choice: cumulative weights, the last 1 */
 } entry;

@@ -70,12 +70,12 @@ size_t plumb_sampler_count(const plumb_sampler *s)
 
 int plumb_sampler_truncated(const plumb_sampler *s, size_t i, double *lo, double *hi)
 {
-    if (!s || i >= s->n || !s->e[i].truncated)
+    if (!s || i >= s->n || !s->e[i].truncated || !(s->e[i].cut_lo || s->e[i].cut_hi))
         return 0;
     if (lo)
-        *lo = s->e[i].rule.lo;
+        *lo = s->e[i].cut_lo ? s->e[i].rule.lo : -HUGE_VAL;
     if (hi)
-        *hi = s->e[i].rule.hi;
+        *hi = s->e[i].cut_hi ? s->e[i].rule.hi : HUGE_VAL;
     return 1;
 }
 
@@ -205,6 +205,8 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
                                       "recognition: give a smaller sd or a uniform or "
                                       "triangular distribution", mean, sd, 100.0 * mass,
                                       range_text(r, rt, sizeof rt));
+            e->cut_lo = gsl_cdf_ugaussian_P((r->lo - mean) / sd) > TRUNC_TAIL_SHOWN;
+            e->cut_hi = gsl_cdf_ugaussian_Q((r->hi - mean) / sd) > TRUNC_TAIL_SHOWN;
         } else if (r->lo_open && !(mean > r->lo)) {
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "normal: the mean must be > %g", r->lo);

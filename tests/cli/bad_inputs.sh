@@ -114,6 +114,10 @@ refused "--set with an unknown key" "plumb: --set:1:9: release.hieght: " "did yo
   -- fall "$good" --set release.hieght=30m --format json
 refused "--set with a bare number" "plumb: --set:1:16: release.height: " \
   -- fall "$good" --set release.height=30 --format json
+# a release speed above the sea-level speed of sound (340.294 m/s, US Std
+# Atm 1976): outside the subsonic drag model, refused with its bound
+refused "--set release.velocity.up=-400 m/s" "plumb: --set:1:21: release.velocity.up: " \
+  "must be -340.294 m/s .. 340.294 m/s" -- fall "$good" --set 'release.velocity.up=-400 m/s' --format json
 # (the command line may refuse this one itself, as a usage error)
 # a direction written as a word or a misspelt point: the 16-point rose's
 # abbreviation suggested (N, NNE, ... NNW; common practice, no source)
