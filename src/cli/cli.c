@@ -9,6 +9,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/stat.h>
 #include <unistd.h>
 
@@ -23,23 +24,28 @@ typedef struct cli_common {
     int takes_value;
     const char *arg;         /* its value in the help */
     const char *help;        /* lines split by '\n' */
+    const char *pdf_help;    /* its help where the command writes a PDF (no --format), or NULL */
 } cli_common;
 
 static const cli_common common_options[] = {
     {"--set", NULL, CLI_SET, 1, "KEY=VALUE",
      "override a profile value, same keys and units as the YAML\n"
-     "(e.g. --set release.height=\"30 ft\"); repeatable"},
-    {"--format", NULL, CLI_FORMAT, 1, "FORMAT", "text (default), json or csv"},
+     "(e.g. --set release.height=\"30 ft\"); repeatable", NULL},
+    {"--format", NULL, CLI_FORMAT, 1, "FORMAT", "text (default), json or csv", NULL},
     {"--units", NULL, CLI_UNITS, 1, "SYSTEM",
-     "si (default) or us: display units of text and CSV\n(JSON is always SI)"},
+     "si (default) or us: display units of text and CSV\n(JSON is always SI)",
+     "si (default) or us: the units on the sheet (SI in\nbrackets beside US)"},
     {"--output", "-o", CLI_OUTPUT, 1, "FILE",
-     "write the report to FILE (atomically), not to standard\noutput"},
-    {"--quiet", NULL, CLI_QUIET, 0, NULL, "no notices on standard error"},
+     "write the report to FILE (atomically), not to standard\noutput; "
+     "a .json, .csv or .txt name sets the format",
+     "write the PDF to FILE (atomically); a name ending in\n.txt, .json, .csv or .geojson "
+     "is refused"},
+    {"--quiet", NULL, CLI_QUIET, 0, NULL, "no notices on standard error", NULL},
     {"--criteria-dir", NULL, CLI_CRITERIA, 1, "DIR",
      "the criteria files (default: $PLUMB_CRITERIA_DIR, or the\n"
-     "installed or built-in profiles/criteria)"},
-    {"--help", "-h", 0, 0, NULL, "this help"},
-    {"--version", NULL, 0, 0, NULL, "the program version"},
+     "installed or built-in profiles/criteria)", NULL},
+    {"--help", "-h", 0, 0, NULL, "this help", NULL},
+    {"--version", NULL, 0, 0, NULL, "the program version", NULL},
 };
 enum { N_COMMON = sizeof common_options / sizeof common_options[0] };
 
@@ -83,11 +89,12 @@ static void cli_print_options(unsigned accept, const cli_option *extra, size_t n
         const cli_common *c = &common_options[i];
         if (c->bit && !(accept & c->bit))
             continue;
+        const char *help = c->pdf_help && !(accept & CLI_FORMAT) ? c->pdf_help : c->help;
         cli_print_option(c->alias, c->name, c->arg,
                          c->bit == CLI_FORMAT && (accept & CLI_GEOJSON)
                              ? "text (default), json, csv or geojson (RFC 7946,\n"
                                "needs site.latitude and site.longitude)"
-                             : c->help);
+                             : help);
     }
 }
 
@@ -202,6 +209,78 @@ static int cli_unknown_option(const char *cmd, const char *arg, unsigned accept,
     return cli_usage_error(cmd, "unknown option '%s'", arg);
 }
 
+/* The report formats a file name's extension names (case ignored); the
+ * sheet's PDF is NAME_PDF. */
+#define NAME_PDF (-1)
+static const struct {
+    const char *ext;
+    int format;
+    const char *what;
+} name_formats[] = {
+    {"txt", PLUMB_FORMAT_TEXT, "a text file"},
+    {"text", PLUMB_FORMAT_TEXT, "a text file"},
+    {"json", PLUMB_FORMAT_JSON, "a JSON file"},
+    {"csv", PLUMB_FORMAT_CSV, "a CSV file"},
+    {"geojson", PLUMB_FORMAT_GEOJSON, "a GeoJSON file"},
+    {"pdf", NAME_PDF, "a PDF file"},
+};
+enum { N_NAME_FORMATS = sizeof name_formats / sizeof name_formats[0] };
+
+/* "a JSON file" for PLUMB_FORMAT_JSON. */
+static const char *format_what(plumb_format f)
+{
+    for (int k = 0; k < N_NAME_FORMATS; k++)
+        if (name_formats[k].format == (int)f)
+            return name_formats[k].what;
+    return "another format";
+}
+
+/* The entry of name_formats that -o's file name names, or -1 (no
+ * extension, or one that names no report format). */
+static int output_name_format(const char *path)
+{
+    const char *base = strrchr(path, '/');
+    base = base ? base + 1 : path;
+    const char *dot = strrchr(base, '.');
+    if (!dot || dot == base)
+        return -1;
+    for (int k = 0; k < N_NAME_FORMATS; k++)
+        if (strcasecmp(dot + 1, name_formats[k].ext) == 0)
+            return k;
+    return -1;
+}
+
+/* -o's name and the format agree: a .json, .csv, .txt (or .geojson) name
+ * chooses the format when --format is not given, and contradicts one that
+ * is; a command that writes a PDF (no --format) refuses a report's
+ * extension. A person naming a file zone.json expects JSON in it. */
+static int check_output_name(cli_args *a, unsigned accept, int format_given)
+{
+    if (!a->output || strcmp(a->output, "-") == 0)
+        return CLI_GO_ON;
+    int k = output_name_format(a->output);
+    if (k < 0)
+        return CLI_GO_ON;
+    int want = name_formats[k].format;
+    if (!(accept & CLI_FORMAT)) {
+        if (want == NAME_PDF)
+            return CLI_GO_ON;
+        return cli_usage_error(a->cmd, "-o %s names %s, but the sheet is a PDF: give a name "
+                               "ending in .pdf", a->output, name_formats[k].what);
+    }
+    if (want == NAME_PDF || (want == PLUMB_FORMAT_GEOJSON && !(accept & CLI_GEOJSON)))
+        return cli_usage_error(a->cmd, "-o %s names %s, which this command does not write "
+                               "(--format text, json%s csv%s%s)", a->output, name_formats[k].what,
+                               accept & CLI_GEOJSON ? "," : " or",
+                               accept & CLI_GEOJSON ? " or geojson" : "",
+                               want == NAME_PDF ? "; the PDF is plumb sheet's" : "");
+    if (format_given && (int)a->format != want)
+        return cli_usage_error(a->cmd, "-o %s names %s, but --format asks for %s: make them "
+                               "agree", a->output, name_formats[k].what, format_what(a->format));
+    a->format = (plumb_format)want;
+    return CLI_GO_ON;
+}
+
 int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t n_extra,
               const char *usage, cli_args *a)
 {
@@ -217,7 +296,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
         fprintf(stderr, "plumb: out of memory\n");
         return CLI_EXIT_FAILED;
     }
-    int options_done = 0;
+    int options_done = 0, format_given = 0;
     for (int i = 1; i < argc; i++) {
         const char *arg = argv[i];
         if (options_done || arg[0] != '-' || strcmp(arg, "-") == 0) {
@@ -295,6 +374,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
             }
             a->sets[a->n_sets++] = value;
         } else if (strcmp(name, "--format") == 0) {
+            format_given = 1;
             if (strcmp(value, "text") == 0)
                 a->format = PLUMB_FORMAT_TEXT;
             else if (strcmp(value, "json") == 0)
@@ -335,7 +415,10 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
             a->criteria_dir = value;
         }
     }
-    return CLI_GO_ON;
+    int rc = check_output_name(a, accept, format_given);
+    if (rc != CLI_GO_ON)
+        cli_args_free(a);
+    return rc;
 }
 
 int cli_same_file(const char *out, const char *in)

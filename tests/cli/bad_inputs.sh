@@ -384,5 +384,41 @@ refused "a one-way sweep of 20000 rows" "plumb: <command line>: --vary: " \
   "20000 values make more than 10000 rows" \
   -- sweep "$tmp/no-criterion.yaml" --vary "release.height=1 m:20000 m:1 m"
 
+# ---- -o's file name and the format agree (issue 9) -------------------------
+# A report's extension chooses the format; one that contradicts --format, or
+# names what the command does not write, is refused (exit 2, nothing written).
+abs_criteria=$PWD/profiles/criteria
+named() {
+  name=$1 file=$2 want=$3
+  shift 3
+  rm -rf "$tmp/named"
+  mkdir "$tmp/named" || exit 2
+  (cd "$tmp/named" && PLUMB_CRITERIA_DIR=$abs_criteria "$bin" "$@" -o "$file" \
+    >"$tmp/stdout" 2>"$tmp/stderr")
+  rc=$?
+  left=$(ls -A "$tmp/named")
+  if [ $rc -eq 2 ] && grep -F -q -e "$want" "$tmp/stderr" && [ -z "$left" ]; then
+    pass=$((pass + 1))
+  else
+    bad "$name: exit $rc, left '$left': $(head -n 1 "$tmp/stderr")"
+  fi
+}
+named "sheet -o x.txt" x.txt "-o x.txt names a text file, but the sheet is a PDF" sheet "$PWD/$good"
+named "fall -o x.json --format csv" x.json "but --format asks for a CSV file" fall "$PWD/$good" --format csv
+named "fall -o x.pdf" x.pdf "the PDF is plumb sheet's" fall "$PWD/$good"
+named "air -o a.geojson" a.geojson "names a GeoJSON file, which this command does not write" air
+rm -rf "$tmp/named"
+mkdir "$tmp/named"
+for pair in "r.json:{" "R.CSV:# " "r.txt:plumb "; do
+  file=${pair%%:*} head=${pair#*:}
+  if (cd "$tmp/named" && PLUMB_CRITERIA_DIR=$abs_criteria "$bin" fall "$OLDPWD/$good" \
+    -o "$file" --quiet) &&
+    [ "$(head -c ${#head} "$tmp/named/$file")" = "$head" ]; then
+    pass=$((pass + 1))
+  else
+    bad "fall -o $file: the file does not start with '$head'"
+  fi
+done
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
