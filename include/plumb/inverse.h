@@ -36,6 +36,7 @@
 #include "plumb/trajectory.h"
 #include "plumb/atmosphere.h"
 #include "plumb/criteria.h"
+#include "plumb/judge.h"
 
 typedef enum plumb_metric {
     PLUMB_METRIC_ENERGY = 0,   /* impact energy, J */
@@ -104,8 +105,11 @@ typedef struct plumb_limit_report {
     size_t n_items;                      /* one answer per item */
     const plumb_limit_result *results;   /* borrowed array of n_items */
     const plumb_criterion *criterion_info; /* that criterion (source, status), or NULL;
-                                            borrowed (new field, last, so older
-                                            initialisers still compile) */
+                                            borrowed */
+    const plumb_item_report *falls;      /* borrowed array of n_items, or NULL: each item's
+                                            fall at its answer (at the profile's own
+                                            value when none is found), judged: the
+                                            report gives its warnings (0.4.0) */
 } plumb_limit_report;
 
 /* Defaults as documented on each field. Can't fail. */
@@ -123,5 +127,17 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
                                size_t item, const char *key, plumb_metric metric, double limit,
                                const plumb_limit_options *opt, plumb_trajectory *traj,
                                plumb_limit_result *res, plumb_diag *diag);
+
+/* The fall of item `item` with `key` set to x (SI unit of its dimension),
+ * computed as plumb_limit_solve computes each of its falls: for the fall at
+ * an answer (its warnings, plumb_item_judge). Fills *spec with the item's
+ * spec so set, *air with the air's spec, *result with the fall. The key's
+ * errors are plumb_limit_solve's; a value the profile refuses is its input
+ * error (PLUMB_ERANGE, PLUMB_EINVAL ...), a fall that fails its status. */
+plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units *units,
+                                 size_t item, const char *key, double x,
+                                 plumb_trajectory *traj, plumb_fall_spec *spec,
+                                 plumb_atm_spec *air, plumb_fall_result *result,
+                                 plumb_diag *diag);
 
 #endif /* PLUMB_INVERSE_H */

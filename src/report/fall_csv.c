@@ -15,7 +15,7 @@
 
 
 
-static void csv_warning_line(writer *w, const char *who, const char *text)
+void plumbp_csv_warning_line(writer *w, const char *who, const char *text)
 {
     char line[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 16];
     snprintf(line, sizeof line, "warning: %s%s%s", who, who[0] ? ": " : "", text);
@@ -141,7 +141,7 @@ void plumbp_csv_fall(writer *w, const plumb_fall_report *rep)
                  c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }
-    plumbp_each_warning(w, rep, csv_warning_line);
+    plumbp_each_warning(w, rep, plumbp_csv_warning_line);
 
     csv_header(w, first);
     for (size_t i = 0; i < rep->n_items; i++)

@@ -176,6 +176,40 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
     }
 }
 
+/* 1 when a fall at an answer has warnings. */
+static int limit_has_warnings(const plumb_limit_report *rep)
+{
+    int any = 0;
+    for (size_t i = 0; rep->falls && i < rep->n_items; i++)
+        any |= rep->falls[i].spec && rep->falls[i].n_warnings > 0;
+    return any;
+}
+
+/* Calls fn for each distinct warning of the falls at the answers. */
+static void each_limit_warning(writer *w, const plumb_limit_report *rep, warning_fn fn)
+{
+    if (!limit_has_warnings(rep))
+        return;
+    /* the items without a fall (key not applicable) carry no warnings, and
+     * plumbp_each_warning names an item by its spec: give them the
+     * profile's for the name only */
+    plumb_item_report *copy = malloc(rep->n_items * sizeof *copy);
+    if (!copy) {
+        w->nomem = 1;
+        return;
+    }
+    for (size_t i = 0; i < rep->n_items; i++) {
+        copy[i] = rep->falls[i];
+        if (!copy[i].spec) {
+            copy[i].spec = plumb_profile_item(rep->profile, i);
+            copy[i].n_warnings = 0;
+        }
+    }
+    plumb_fall_report fr = {rep->profile, rep->n_items, copy};
+    plumbp_each_warning(w, &fr, fn);
+    free(copy);
+}
+
 static void text_limit_answer(writer *w, const plumb_report_options *opt,
                               const plumb_limit_report *rep)
 {
@@ -205,10 +239,14 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                      t_limit_value(w, rep->key, r->dim, r->value_si, r->limit_is_upper_bound),
                      t_given_value(w, rep->key, r, r->limit_is_upper_bound));
             wrapped(w, "  ", text);
+            /* another crossing on the side that keeps within the limit? */
+            int next = r->n_crossings > 1 &&
+                       (r->limit_is_upper_bound ? r->value_si > r->crossings_si[0]
+                                                : r->value_si < r->crossings_si[r->n_crossings - 1]);
             snprintf(text, sizeof text, "there the %s is %s; %s values keep within the limit%s",
                      metric_word(rep->metric), t_metric_met(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher",
-                     r->n_crossings < 2           ? "."
+                     !next                     ? "."
                      : r->limit_is_upper_bound ? ", down to the next crossing."
                                                : ", up to the next crossing.");
             wrapped(w, "  ", text);
@@ -242,6 +280,18 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                  r->evaluations);
         wrapped(w, "  ", text);
     }
+    if (limit_has_warnings(rep)) {
+        size_t found = 0, applies = 0;
+        for (size_t i = 0; i < rep->n_items; i++) {
+            found += rep->results[i].outcome == PLUMB_LIMIT_FOUND;
+            applies += rep->results[i].outcome != PLUMB_LIMIT_NOT_APPLICABLE;
+        }
+        put(w, "\nWarnings, of the fall %s\n",
+            found == applies ? "at the answer"
+            : found == 0     ? "at the profile's own value (no value meets the limit)"
+                             : "at each item's answer, or at its own value if none");
+        each_limit_warning(w, rep, plumbp_text_warning_line);
+    }
     plumbp_text_profile(w, p);
     plumbp_caution_lines_text(w);
 }
@@ -262,6 +312,7 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
                  c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
         csv_comment(w, line);
     }
+    each_limit_warning(w, rep, plumbp_csv_warning_line);
     put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
            "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
@@ -360,6 +411,12 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
             jset(j, o, "values_scanned", jint(j, r->n_scanned));
         }
         jset(j, o, "explanation", jstr(j, j_explain(j, rep, r, text, sizeof text)));
+        /* the fall at the answer (at the profile's own value where none is
+         * found): its warnings */
+        json_t *warn = jarr(j);
+        for (size_t k = 0; rep->falls && rep->falls[i].spec && k < rep->falls[i].n_warnings; k++)
+            jpush(j, warn, jwarning(j, rep->falls[i].warnings[k]));
+        jset(j, o, "warnings", warn);
         jpush(j, items, o);
     }
     jset(j, lim, "items", items);

@@ -4,6 +4,7 @@
  * method, R. P. Brent 1973, through GSL's gsl_root_fsolver_brent).
  */
 #include <math.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -68,7 +69,23 @@ typedef struct solver_ctx {
     plumb_fall_spec *work;     /* copies of all of tmpl's items (the loader checks a value
                                   against every item), owned */
     plumb_atmosphere *atm;     /* tmpl's air, owned (keys that leave the air) */
+    /* plumb_limit_fall_at: the spec, air and fall of the last evaluation */
+    plumb_fall_spec *keep_spec;
+    plumb_atm_spec *keep_air;
+    plumb_fall_result *keep_result;
 } solver_ctx;
+
+/* Keeps what the last evaluation computed, when asked to. */
+static void keep(solver_ctx *c, const plumb_fall_spec *spec, const plumb_atm_spec *air,
+                 const plumb_fall_result *r)
+{
+    if (c->keep_spec)
+        *c->keep_spec = *spec;
+    if (c->keep_air)
+        *c->keep_air = *air;
+    if (c->keep_result)
+        *c->keep_result = *r;
+}
 
 void plumb_limit_options_init(plumb_limit_options *opt)
 {
@@ -272,6 +289,8 @@ static double eval_slow(solver_ctx *c, double x)
     plumb_fall_result r;
     st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);
     plumb_atmosphere_free(atm);
+    if (st == PLUMB_OK)
+        keep(c, plumb_profile_item(p, c->item), plumb_profile_atmosphere(p), &r);
     if (p != c->own_tmpl)
         plumb_profile_free(p);
     return eval_done(c, st, &r, &d);
@@ -313,6 +332,8 @@ static double eval_fast(solver_ctx *c, double x)
     } else {
         st = plumb_trajectory_run(c->traj, spec, c->atm, &r, &d);
     }
+    if (st == PLUMB_OK)
+        keep(c, spec, &as, &r);
     return eval_done(c, st, &r, &d);
 }
 
@@ -378,21 +399,19 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
                           double base, const key_range *r_, plumb_limit_result *res);
 
-plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
-                               size_t item, const char *key, plumb_metric metric, double limit,
-                               const plumb_limit_options *opt, plumb_trajectory *traj,
-                               plumb_limit_result *res, plumb_diag *diag)
+/* Checks the key and sets up c for evaluations of item `item` with `key`
+ * set (plumb_limit_solve, plumb_limit_fall_at): *base is the profile's
+ * own value. PLUMB_OK with *na set for an inventory item whose drag does
+ * not use the key (res, if not NULL, then says so). Free with ctx_close. */
+static plumb_status ctx_open(solver_ctx *c, const plumb_profile *profile,
+                             const plumb_units *units, size_t item, const char *key,
+                             plumb_trajectory *traj, double *base, int *na,
+                             plumb_limit_result *res, plumb_diag *diag)
 {
-    plumb_limit_options defaults;
-    if (!opt) {
-        plumb_limit_options_init(&defaults);
-        opt = &defaults;
-    }
-    memset(res, 0, sizeof *res);
+    *na = 0;
+    memset(c, 0, sizeof *c);
     if (item >= plumb_profile_item_count(profile))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "item %zu does not exist", item);
-    if (!(limit > 0.0) || !isfinite(limit))
-        return PLUMB_RAISE(diag, PLUMB_EINVAL, "the limit must be a finite value > 0");
     plumb_dim dim;
     plumb_status st = plumb_profile_key_dim(key, &dim, diag);
     if (st != PLUMB_OK)
@@ -407,42 +426,98 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
     if (dim == PLUMB_DIM_ANGLE)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
                                "a direction does not change the answer one way; use `plumb sweep` over it");
-    solver_ctx c = {.profile = profile, .units = units, .item = item, .dim = dim, .metric = metric,
-                    .limit = limit, .traj = traj, .max_evals = opt->max_evaluations, .diag = diag};
+    *c = (solver_ctx){.profile = profile, .units = units, .item = item, .dim = dim,
+                      .traj = traj, .max_evals = SIZE_MAX, .diag = diag};
     if (plumb_profile_is_inventory(profile) && starts_with(key, "payload."))
-        snprintf(c.set_key, sizeof c.set_key, "items[%zu].%s",
+        snprintf(c->set_key, sizeof c->set_key, "items[%zu].%s",
                  plumb_profile_item_number(profile, item),
                  key + strlen("payload.")); /* items[N] as the profile is written */
     else
-        plumbp_strlcpy(c.set_key, key, sizeof c.set_key);
-    double base;
-    if (!base_value(profile, item, key, &base)) {
+        plumbp_strlcpy(c->set_key, key, sizeof c->set_key);
+    if (!base_value(profile, item, key, base)) {
         if (plumb_profile_is_inventory(profile) && starts_with(key, "payload.")) {
-            res->outcome = PLUMB_LIMIT_NOT_APPLICABLE;
-            res->dim = dim;
-            snprintf(res->explanation, sizeof res->explanation,
-                     "this item's drag does not use %s", key);
+            *na = 1;
+            if (res) {
+                res->outcome = PLUMB_LIMIT_NOT_APPLICABLE;
+                res->dim = dim;
+                snprintf(res->explanation, sizeof res->explanation,
+                         "this item's drag does not use %s", key);
+            }
             return PLUMB_OK;
         }
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
                                "this key cannot be solved for (it is not a single input of the fall)");
     }
-    const plumb_fall_spec *spec = plumb_profile_item(profile, item);
-    key_range r = range_of(key, dim, spec, base);
     /* The fast path (io/vary.h): the key set on copies of the resolved
      * specs of the first profile the loader derives with it (the first
      * evaluation), or of a profile built in code, which has no text.
      * Keys it cannot set go through plumb_profile_derive every time. */
-    st = plumbp_vary_is_template(profile) ? take_template(&c, profile, NULL) : PLUMB_OK;
-    if (st == PLUMB_OK && plumbp_vary_is_template(profile) && !c.fast)
+    st = plumbp_vary_is_template(profile) ? take_template(c, profile, NULL) : PLUMB_OK;
+    if (st == PLUMB_OK && plumbp_vary_is_template(profile) && !c->fast)
         st = PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
                              "a profile built in code cannot vary this key: only the profile "
                              "loader derives it (read the profile from a file to vary it)");
-    if (st == PLUMB_OK)
+    return st;
+}
+
+static void ctx_close(solver_ctx *c)
+{
+    plumb_atmosphere_free(c->atm);
+    free(c->work);
+    plumb_profile_free(c->own_tmpl);
+}
+
+plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
+                               size_t item, const char *key, plumb_metric metric, double limit,
+                               const plumb_limit_options *opt, plumb_trajectory *traj,
+                               plumb_limit_result *res, plumb_diag *diag)
+{
+    plumb_limit_options defaults;
+    if (!opt) {
+        plumb_limit_options_init(&defaults);
+        opt = &defaults;
+    }
+    memset(res, 0, sizeof *res);
+    if (!(limit > 0.0) || !isfinite(limit))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "the limit must be a finite value > 0");
+    solver_ctx c;
+    double base = 0.0;
+    int na = 0;
+    plumb_status st = ctx_open(&c, profile, units, item, key, traj, &base, &na, res, diag);
+    if (st == PLUMB_OK && !na) {
+        c.metric = metric;
+        c.limit = limit;
+        c.max_evals = opt->max_evaluations;
+        key_range r = range_of(key, c.dim, plumb_profile_item(profile, item), base);
         st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
-    plumb_atmosphere_free(c.atm);
-    free(c.work);
-    plumb_profile_free(c.own_tmpl);
+    }
+    ctx_close(&c);
+    return st;
+}
+
+plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units *units,
+                                 size_t item, const char *key, double x,
+                                 plumb_trajectory *traj, plumb_fall_spec *spec,
+                                 plumb_atm_spec *air, plumb_fall_result *result,
+                                 plumb_diag *diag)
+{
+    solver_ctx c;
+    double base = 0.0;
+    int na = 0;
+    plumb_status st = ctx_open(&c, profile, units, item, key, traj, &base, &na, NULL, diag);
+    if (st == PLUMB_OK && na)
+        st = PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "this item's drag does not use %s", key);
+    if (st == PLUMB_OK) {
+        c.keep_spec = spec;
+        c.keep_air = air;
+        c.keep_result = result;
+        double f = eval_at(x, &c);
+        if (c.fail != PLUMB_OK)
+            st = c.fail;
+        else if (isnan(f))
+            st = diag && diag->status != PLUMB_OK ? diag->status : PLUMB_ENUMERIC;
+    }
+    ctx_close(&c);
     return st;
 }
 

@@ -25,6 +25,8 @@ struct plumb_study {
     plumb_item_report *items;       /* the falls (plumb_study_fall) */
     plumb_fall_report fall;
     plumb_limit_result *limits;     /* the limits (plumb_study_limit) */
+    plumb_fall_spec *limit_specs;   /* each item's spec at its answer */
+    plumb_item_report *limit_falls; /* the fall there, judged (its warnings) */
     plumb_limit_report limit;
     char limit_key[PLUMB_DIAG_KEY];
     plumb_zone_result *zones;       /* the zones (plumb_study_zone) */
@@ -38,6 +40,8 @@ void plumb_study_free(plumb_study *s)
         return;
     free(s->items);
     free(s->limits);
+    free(s->limit_specs);
+    free(s->limit_falls);
     free(s->zones);
     free(s->zone_items);
     plumb_trajectory_free(s->traj);
@@ -248,6 +252,43 @@ static plumb_status given_unit(const plumb_study *s, size_t item, const char *ke
     return PLUMB_OK;
 }
 
+/* The fall of item i at its answer (the profile's own value when there is
+ * none), judged as plumb fall judges a fall, for the warnings that qualify
+ * the answer (Mach, a device that does not open there ...). An item the
+ * key does not apply to gets an empty report. A value the solve computed
+ * that cannot be computed again is PLUMB_ENUMERIC. */
+static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, plumb_diag *diag)
+{
+    const plumb_limit_result *r = &s->limits[i];
+    plumb_item_report *it = &s->limit_falls[i];
+    memset(it, 0, sizeof *it);
+    if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE)
+        return PLUMB_OK;
+    double x = r->outcome == PLUMB_LIMIT_FOUND ? r->value_si : r->base_value_si;
+    plumb_atm_spec air;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumb_limit_fall_at(s->profile, s->units, i, key, x, s->traj,
+                                          &s->limit_specs[i], &air, &it->result, &d);
+    plumb_atmosphere *atm = NULL;
+    if (st == PLUMB_OK)
+        st = plumb_atmosphere_alloc(&air, &atm, &d);
+    if (st == PLUMB_ENOMEM) {
+        if (diag)
+            *diag = d;
+        return st;
+    }
+    if (st != PLUMB_OK)
+        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
+                               "the fall at the answer could not be computed again: %s",
+                               d.message);
+    it->spec = &s->limit_specs[i];
+    it->shape = plumb_profile_item_shape(s->profile, i);
+    st = plumb_item_judge(it, s->profile, s->criteria, atm, diag);
+    plumb_atmosphere_free(atm);
+    return st;
+}
+
 plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric metric,
                                double limit, const plumb_criterion *criterion,
                                const plumb_limit_options *opt, const plumb_limit_report **out,
@@ -259,20 +300,28 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     if (st != PLUMB_OK)
         return at_option(diag, st, NULL);
     free(s->limits);
-    if (!(s->limits = calloc(s->n_items ? s->n_items : 1, sizeof *s->limits)))
+    free(s->limit_specs);
+    free(s->limit_falls);
+    size_t n = s->n_items ? s->n_items : 1;
+    s->limits = calloc(n, sizeof *s->limits);
+    s->limit_specs = calloc(n, sizeof *s->limit_specs);
+    s->limit_falls = calloc(n, sizeof *s->limit_falls);
+    if (!s->limits || !s->limit_specs || !s->limit_falls)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     for (size_t i = 0; i < s->n_items; i++) {
         st = plumb_limit_solve(s->profile, s->units, i, key, metric, limit, opt, s->traj,
                                &s->limits[i], diag);
         if (st == PLUMB_OK)
             st = given_unit(s, i, key, kd, &s->limits[i], diag);
+        if (st == PLUMB_OK)
+            st = judge_limit_fall(s, i, key, diag);
         if (st != PLUMB_OK)
             return st;
     }
     plumbp_strlcpy(s->limit_key, key, sizeof s->limit_key);
     s->limit = (plumb_limit_report){s->profile, s->limit_key, metric, limit,
                                     criterion ? criterion->id : NULL, s->n_items, s->limits,
-                                    criterion};
+                                    criterion, s->limit_falls};
     *out = &s->limit;
     return PLUMB_OK;
 }

@@ -172,4 +172,32 @@ for what, args, outcomes in CASES:
     check(rc_b == 0 and j_si == j_us and ex == [r["explanation"] for r in r_si],
           f"{what}: JSON the same in SI and US, its explanation in SI:\n{ex}")
 
+# The warnings of the fall at the answer (issue 9: limit reports printed
+# none). At 500 kJ a 20 kg weight strikes at sqrt(2 E / m) = 223.6 m/s,
+# Mach 0.657 in sea-level air (a = 340.294 m/s, U.S. Standard Atmosphere
+# 1976), above the Mach 0.5 of the warning; its own 10 m fall (14 m/s) is
+# far below it, so the warning comes from the answer's fall, not the
+# profile's.
+IRON = os.path.join(HERE, "profiles", "iron-weight.yaml")
+rc, out, _ = plumb("fall", IRON)
+check(rc == 0 and "Mach" not in out, "iron weight: no Mach warning at its own 10 m")
+rc, out, _ = plumb("limit", IRON, "--find", "release.height", "--energy-max", "500kJ")
+words = " ".join(out.split())
+check(rc == 0 and "Warnings, of the fall at the answer - The air speed reaches Mach 0.6" in words,
+      f"limit text: the Mach warning of the fall at the answer:\n{out}")
+rc, out, _ = plumb("limit", IRON, "--find", "release.height", "--energy-max", "500kJ",
+                   "--format", "csv")
+check(rc == 0 and "\n# warning: The air speed reaches Mach 0.6" in out,
+      f"limit CSV: the Mach warning as a comment line:\n{out}")
+rc, out, _ = plumb("limit", IRON, "--find", "release.height", "--energy-max", "500kJ",
+                   "--format", "json")
+warn = json.loads(out)["limit"]["items"][0].get("warnings", []) if rc == 0 else []
+check(any(x.startswith("The air speed reaches Mach 0.6") for x in warn),
+      f"limit JSON: the item's warnings hold the Mach warning: {warn}")
+# where no value meets the limit, the warnings are those of the profile's
+# own value, and the heading says so
+rc, out, _ = plumb("limit", TOOL, "--find", "release.height", "--energy-max", "0.01J")
+check(rc == 0 and "Warnings, of the fall at the profile's own value (no value meets the limit)"
+      in out, f"limit text: warnings of the own value where none is found:\n{out}")
+
 finish()
