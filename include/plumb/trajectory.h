@@ -150,7 +150,9 @@ typedef struct plumb_fall_result {
                                   0 when it has none (plumb_terminal_speed's errors: no drag) */
     double drag_free_speed_m_s;/* sqrt(v0^2 + 2 g H): speed without drag, m/s */
     double drag_free_energy_j; /* 1/2 m v0^2 + m g H: energy without drag, J */
-    double drag_work_j;        /* work done by drag on the body, J (negative) */
+    double drag_work_j;        /* work done by drag on the body, J: negative when the air
+                                  takes energy from it, positive when a wind drives it
+                                  faster than its fall alone would */
     double max_mach;           /* largest Mach number of the relative air speed on the way */
     double min_re, max_re;     /* Reynolds number range seen (sphere models), else 0 */
     /* descent device figures (n_descent > 0), indexed as the spec's

@@ -135,10 +135,16 @@ static void text_comparison(writer *w, const plumb_item_report *it)
     put(w, "  without drag     %s, %s%s\n", plumbp_t_speed(w, r->drag_free_speed_m_s),
         plumbp_t_energy(w, r->drag_free_energy_j),
         it->spec->volume_m3 > 0.0 ? " (and without buoyancy)" : "");
-    if (r->drag_free_energy_j > 0.0 && r->drag_work_j != 0.0)
+    /* the air's work on the body: taken from it, or, in a wind that
+     * drives it faster than it would fall, given to it */
+    if (r->drag_free_energy_j > 0.0 && r->drag_work_j < 0.0)
         put(w, "  drag took        %s, %s %% of the drag-free energy\n",
-            plumbp_t_energy(w, fabs(r->drag_work_j)),
-            num(w, 100.0 * fabs(r->drag_work_j) / r->drag_free_energy_j, RATIO_SIG));
+            plumbp_t_energy(w, -r->drag_work_j),
+            num(w, -100.0 * r->drag_work_j / r->drag_free_energy_j, RATIO_SIG));
+    else if (r->drag_free_energy_j > 0.0 && r->drag_work_j > 0.0)
+        put(w, "  wind added       %s, %s %% above the drag-free energy\n",
+            plumbp_t_energy(w, r->drag_work_j),
+            num(w, 100.0 * r->drag_work_j / r->drag_free_energy_j, RATIO_SIG));
     if (r->apex_m > it->spec->release_m[2])
         put(w, "  highest point    %s above the strike level\n", plumbp_t_len(w, r->apex_m));
 }

@@ -285,6 +285,20 @@ rc, out, err = plumb("fall", fast, "--set", "payload.drag.cd=0.3")
 check(rc == 0 and "The air speed reaches Mach" in " ".join(out.split()),
       "with drag: the Mach warning")
 
+# The air's work on the body (work-energy theorem): impact energy = the
+# drag-free energy (m g h from rest) + the work of drag. In a 60 mph wind
+# a foam board gains energy from the air: the text says "wind added", not
+# "drag took", and its figure is energy_j - drag_free.energy_j.
+board = os.path.join(PROF, "foam-board.yaml")
+rc, j, _ = plumb("fall", board, "--format", "json")
+d = json.loads(j) if rc == 0 else {}
+gain = d["impact"]["energy_j"] - d["drag_free"]["energy_j"] if d else 0.0
+rc, out, _ = plumb("fall", board)
+m = re.search(r"wind added +([0-9.]+) J", out)
+check(rc == 0 and gain > 0 and abs(d["drag_work_j"] - gain) <= 1e-6 * d["impact"]["energy_j"]
+      and "drag took" not in out and m and abs(float(m.group(1)) - gain) <= 5e-4 * gain,
+      f"wind adds energy: 'wind added {gain:.4g} J': {m and m.group(0)}")
+
 # CSV carries the descent devices' figures as JSON does (the CSV's 10
 # figures against JSON's full double), empty for a payload without one
 import csv as _csv  # noqa: E402
