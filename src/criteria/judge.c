@@ -164,6 +164,22 @@ static void note_downwash(plumb_item_report *item, const plumb_atmosphere *atm)
                     dw.v_hover_m_s);
 }
 
+/* Where a fall's W20 comes from, in words: the mean wind at 20 ft, an
+ * intensity word's (MIL-F-8785C: light 15 kn, moderate 30 kn, severe 45 kn
+ * at 20 ft), or the profile's own wind.turbulence.w20. */
+static const char *w20_source(const plumb_turbulence_spec *tb)
+{
+    if (tb->w20_m_s <= 0.0)
+        return "the mean wind at 20 ft";
+    if (tb->w20_m_s == PLUMB_TURB_W20_LIGHT_M_S)
+        return "that of light turbulence (MIL-F-8785C)";
+    if (tb->w20_m_s == PLUMB_TURB_W20_MODERATE_M_S)
+        return "that of moderate turbulence (MIL-F-8785C)";
+    if (tb->w20_m_s == PLUMB_TURB_W20_SEVERE_M_S)
+        return "that of severe turbulence (MIL-F-8785C)";
+    return "as wind.turbulence.w20 gives it";
+}
+
 plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
                               const plumb_criteria *criteria, const plumb_atmosphere *atm,
                               plumb_diag *diag)
@@ -244,20 +260,21 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     atan(1.0 / 1.375) * 180.0 / PLUMB_PI);
     note_downwash(item, atm);
     const plumb_turbulence_spec *tb = &item->spec->turbulence;
+    const char *w20_from = w20_source(tb);
     if (one_fall && tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)
         add_warning(item,
                     "Gusts of the %s model (wind.turbulence) with W20 = " PLUMBP_Q_AIR
-                    ", the mean wind at 20 ft, apply only to plumb zone, where every sample "
+                    ", %s, apply only to plumb zone, where every sample "
                     "falls through its own realisation; this single fall uses the mean wind.",
                     tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
-                    plumb_fall_w20(item->spec));
+                    plumb_fall_w20(item->spec), w20_from);
     else if (one_fall && tb->model != PLUMB_TURB_NONE)
         add_warning(item,
                     "Gusts: this fall went through one realisation of the %s model with "
-                    "W20 = " PLUMBP_Q_AIR " (the mean wind at 20 ft), a sum of %zu random "
+                    "W20 = " PLUMBP_Q_AIR ", %s, a sum of %zu random "
                     "Fourier modes per component.",
                     tb->model == PLUMB_TURB_DRYDEN ? "Dryden" : "von Karman",
-                    plumb_fall_w20(item->spec), tb->n_modes);
+                    plumb_fall_w20(item->spec), w20_from, tb->n_modes);
     warn_helmet_tests(item);
     return PLUMB_OK;
 }

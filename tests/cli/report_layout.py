@@ -299,6 +299,19 @@ check(rc == 0 and gain > 0 and abs(d["drag_work_j"] - gain) <= 1e-6 * d["impact"
       and "drag took" not in out and m and abs(float(m.group(1)) - gain) <= 5e-4 * gain,
       f"wind adds energy: 'wind added {gain:.4g} J': {m and m.group(0)}")
 
+# Where W20 comes from, in the gust note: an intensity word's W20 is 15,
+# 30 or 45 kn at 20 ft (MIL-F-8785C; 1 kn = 1852/3600 m/s by definition),
+# not "the mean wind at 20 ft", which is the default: the hand tool's power
+# law, 9.5 m/s x (6.096 m / 10 m)^0.143 = 8.85 m/s.
+tool = os.path.join(HERE, "..", "..", "profiles", "demo", "hand-tool.yaml")
+for setting, want in (("wind.turbulence.intensity=moderate",
+                       f"W20 = {30 * 1852 / 3600:.1f} m/s, that of moderate turbulence (MIL-F-8785C),"),
+                      ("wind.turbulence.w20=3 m/s", "W20 = 3.00 m/s, as wind.turbulence.w20 gives it,"),
+                      ("wind.turbulence.model=dryden",
+                       f"W20 = {9.5 * (20 * 0.3048 / 10) ** 0.143:.2f} m/s, the mean wind at 20 ft,")):
+    rc, out, _ = plumb("fall", tool, "--set", setting)
+    check(rc == 0 and want in " ".join(out.split()), f"gust note with {setting}: wants {want!r}")
+
 # CSV carries the descent devices' figures as JSON does (the CSV's 10
 # figures against JSON's full double), empty for a payload without one
 import csv as _csv  # noqa: E402
