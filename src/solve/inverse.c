@@ -59,6 +59,7 @@ typedef struct solver_ctx {
     plumb_status fail;
     plumb_diag *diag;
     int out_of_range;   /* the last x was refused by the profile's checks */
+    char refused_key[PLUMB_DIAG_KEY]; /* the key whose check refused it ("" if none named) */
     /* the fast path: the key set on copies of a template's resolved specs
      * (io/vary.h); the template is the first profile the loader derives
      * with the key set, or a profile built in code */
@@ -205,6 +206,7 @@ static double eval_done(solver_ctx *c, plumb_status st, const plumb_fall_result 
     if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE || st == PLUMB_EBUDGET ||
         st == PLUMB_ENOLAND) {
         c->out_of_range = 1;
+        plumbp_strlcpy(c->refused_key, d->key, sizeof c->refused_key);
         if (c->diag)
             *c->diag = *d;
         return NAN;
@@ -225,9 +227,10 @@ static double eval_refused(solver_ctx *c, plumb_status st, const plumb_diag *d)
 {
     if (c->diag)
         *c->diag = *d;
-    if (plumb_status_is_input_error(st))
+    if (plumb_status_is_input_error(st)) {
         c->out_of_range = 1;
-    else
+        plumbp_strlcpy(c->refused_key, d->key, sizeof c->refused_key);
+    } else
         c->fail = st;
     return NAN;
 }
@@ -550,6 +553,11 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
     double xs[SCAN_POINTS + 1], fs[SCAN_POINTS + 1];
     size_t n = 0;
     int base_done = 0;
+    /* values below the lowest computed that the profile refused (a device
+     * set to open below a height, above a lower release): the key whose
+     * check refused the last of them */
+    int low_refused = 0;
+    char low_key[PLUMB_DIAG_KEY] = "";
     for (size_t i = 0; i < SCAN_POINTS; i++) {
         double x = scan_value(&r, r.lo, r.hi, i, SCAN_POINTS);
         if (!base_done && x >= base) {
@@ -562,8 +570,13 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
         double fx = eval_at(x, c);
         if (c->fail != PLUMB_OK)
             return c->fail;
-        if (isnan(fx))
+        if (isnan(fx)) {
+            if (c->out_of_range && n == 0) {
+                low_refused = 1;
+                plumbp_strlcpy(low_key, c->refused_key, sizeof low_key);
+            }
             continue; /* refused by the profile: outside its range */
+        }
         xs[n] = x;
         fs[n++] = fx;
     }
@@ -590,12 +603,22 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
     if (res->n_crossings == 0) {
         res->outcome = fs[0] <= 0.0 ? PLUMB_LIMIT_UNLIMITED : PLUMB_LIMIT_IMPOSSIBLE;
         /* the figures (range scanned, the metric at its top) say the rest */
-        if (strcmp(key, "release.height") == 0)
+        if (low_refused && res->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
+            if (low_key[0] && strcmp(low_key, key) != 0)
+                snprintf(res->explanation, sizeof res->explanation,
+                         "lower values are refused by the profile's check of %s, so the "
+                         "scan starts there", low_key);
+            else
+                plumbp_strlcpy(res->explanation,
+                               "lower values are refused by the profile, so the scan starts "
+                               "there", sizeof res->explanation);
+        } else if (strcmp(key, "release.height") == 0) {
             plumbp_strlcpy(res->explanation,
                            res->outcome == PLUMB_LIMIT_UNLIMITED
                                ? "it levels off as the fall reaches its terminal speed"
                                : "even at (almost) zero height the limit is exceeded",
                            sizeof res->explanation);
+        }
         return PLUMB_OK;
     }
     /* The answer: the crossing nearest the profile's own value. */

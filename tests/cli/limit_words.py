@@ -200,4 +200,16 @@ rc, out, _ = plumb("limit", TOOL, "--find", "release.height", "--energy-max", "0
 check(rc == 0 and "Warnings, of the fall at the profile's own value (no value meets the limit)"
       in out, f"limit text: warnings of the own value where none is found:\n{out}")
 
+# A scan that starts above the key's own lower end because the profile
+# refuses lower values (a parachute set to open below 40 m needs a higher
+# release) must say so, not "even at (almost) zero height": a 2.5 kg
+# parcel dropped 3 m strikes with at most m g h = 73.5 J < 80 J.
+LOW = os.path.join(HERE, "profiles", "low-canopy.yaml")
+rc, out, _ = plumb("limit", LOW, "--find", "release.height", "--energy-max", "80J")
+words = " ".join(out.split())
+m = re.search(r"scanned from ([0-9.]+) m", words)
+check(rc == 0 and "zero height" not in words and m and float(m.group(1)) > 40.0 and
+      "lower values are refused by the profile's check of descent.deploy.below" in words,
+      f"limit over a refused low range says why it starts at {m and m.group(1)} m:\n{out}")
+
 finish()
