@@ -373,10 +373,10 @@ static const bad_case bad_cases[] = {
     /* atmosphere */
     {"test_temperature_offset_below_absolute_zero_at_the_site_is_refused",
      GOOD "atmosphere: {temperature_offset: @@-300 K}\n", NULL, PLUMB_ERANGE,
-     "atmosphere.temperature_offset", "above 0 K"},
+     "atmosphere.temperature_offset", "must be -100 K .. 100 K"},
     {"test_temperature_offset_below_absolute_zero_at_the_release_height_only_is_refused",
      PAYLOAD "release:\n  height: 12 km\natmosphere: {temperature_offset: @@-250 K}\n", NULL,
-     PLUMB_ERANGE, "atmosphere.temperature_offset", "above 0 K"},
+     PLUMB_ERANGE, "atmosphere.temperature_offset", "must be -100 K .. 100 K"},
     {"test_surface_lapse_that_freezes_the_air_below_zero_kelvin_is_refused",
      PAYLOAD "release:\n  height: 10 km\natmosphere: {model: surface, pressure: 101 kPa, "
              "temperature: 250 K, lapse_rate: @@30 K/km}\n",

@@ -26,6 +26,13 @@
  * 1976, Table 1: Cs = 340.294 m/s at 0 m). The largest release and wind
  * speed a profile may give: the drag model is for subsonic air speeds. */
 #define PLUMB_SOUND_SPEED_SL_M_S 340.294
+/* The largest temperature offset from the 1976 atmosphere a profile may
+ * give, K. Surface air on Earth has been recorded from -89.2 degC (Vostok,
+ * 1983) to 56.7 degC (Death Valley, 1913; WMO archive of weather and
+ * climate extremes, from memory): -104 K to +42 K from the standard 15 degC;
+ * 100 K either way spans them (the colder side nearly) and keeps the 1976
+ * model's coldest layer (186.87 K at 86 km) above 0 K. */
+#define PLUMB_TEMP_OFFSET_MAX_K 100.0
 /* Geometric altitude of the top of the 1976 model, m. */
 #define PLUMB_STD1976_TOP_M 86000.0
 /* Geometric altitude of the bottom of the 1976 model's tables, m

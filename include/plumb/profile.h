@@ -219,6 +219,13 @@ const plumb_zone_spec *plumb_profile_zone(const plumb_profile *p);
  * key that exists but is not numeric (e.g. "wind.profile"). */
 plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *diag);
 
+/* Checks si (SI unit of the key's dimension) against the key's range, the
+ * one the profile loader applies: PLUMB_ERANGE saying the range for a value
+ * outside it (or not finite), PLUMB_EKEY / PLUMB_EINVAL as
+ * plumb_profile_key_dim. For options that set a profile key's quantity
+ * (plumb air --temperature-offset). */
+plumb_status plumb_profile_key_check(const char *key, double si, plumb_diag *diag);
+
 /* Address of the double that a numeric key sets in a fall spec (for
  * sampling and root finding on a copy of a spec), or NULL when the key is
  * not a per-fall numeric input. Keys under payload.* refer to the item. */

@@ -119,17 +119,34 @@ int cli_usage_error(const char *cmd, const char *fmt, ...)
     return CLI_EXIT_INPUT;
 }
 
-plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+static plumb_status option_vstatus(plumb_diag *diag, plumb_status st, const char *option,
+                                   const char *fmt, va_list ap)
 {
     plumb_diag_clear(diag);
-    diag->status = PLUMB_EINVAL;
+    diag->status = st;
     snprintf(diag->file, sizeof diag->file, "<command line>");
     snprintf(diag->key, sizeof diag->key, "%s", option);
+    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    return st;
+}
+
+plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+{
     va_list ap;
     va_start(ap, fmt);
-    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    plumb_status st = option_vstatus(diag, PLUMB_EINVAL, option, fmt, ap);
     va_end(ap);
-    return PLUMB_EINVAL;
+    return st;
+}
+
+plumb_status cli_option_status(plumb_diag *diag, plumb_status st, const char *option,
+                               const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    st = option_vstatus(diag, st, option, fmt, ap);
+    va_end(ap);
+    return st;
 }
 
 plumb_status cli_parse_whole(const char *option, const char *text, double lo, double hi,

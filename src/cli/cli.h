@@ -110,6 +110,13 @@ plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *
     __attribute__((format(printf, 3, 4)))
 #endif
     ;
+/* The same with status st (PLUMB_ERANGE, PLUMB_ENOMEM ...); returns st. */
+plumb_status cli_option_status(plumb_diag *diag, plumb_status st, const char *option,
+                               const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 4, 5)))
+#endif
+    ;
 
 /* An option's value that must be a whole number in [lo, hi]: digits, or a
  * number in exponent form that is a whole number ("1e5"). PLUMB_OK with

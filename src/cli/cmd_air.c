@@ -4,7 +4,6 @@
  * mean sea level, with an optional temperature offset: temperature,
  * pressure, density, Sutherland viscosity and speed of sound.
  */
-#include <stdarg.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -31,28 +30,6 @@ static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
     return plumb_report_air_table(out, &job->opt, &job->table, diag);
 }
 
-static plumb_status option_error(plumb_diag *diag, plumb_status st, const char *option,
-                                 const char *fmt, ...)
-#if defined(__GNUC__)
-    __attribute__((format(printf, 4, 5)))
-#endif
-    ;
-
-static plumb_status option_error(plumb_diag *diag, plumb_status st, const char *option,
-                                 const char *fmt, ...)
-{
-    char msg[PLUMB_DIAG_MSG];
-    va_list ap;
-    va_start(ap, fmt);
-    vsnprintf(msg, sizeof msg, fmt, ap);
-    va_end(ap);
-    plumb_diag_clear(diag);
-    diag->status = st;
-    snprintf(diag->key, sizeof diag->key, "%s", option);
-    snprintf(diag->message, sizeof diag->message, "%s", msg);
-    return st;
-}
-
 /* One quantity of an option, with its unit. */
 static plumb_status quantity(const plumb_units *units, const char *option, const char *part,
                              const char *text, plumb_dim dim, double *out, plumb_diag *diag)
@@ -61,7 +38,7 @@ static plumb_status quantity(const plumb_units *units, const char *option, const
     plumb_diag_clear(&d);
     plumb_status st = plumb_units_parse(units, text, dim, out, &d);
     if (st != PLUMB_OK)
-        return option_error(diag, st, option, "%s%s'%s': %s", part, part[0] ? " " : "", text,
+        return cli_option_status(diag, st, option, "%s%s'%s': %s", part, part[0] ? " " : "", text,
                             d.message[0] ? d.message : plumb_strerror(st));
     return PLUMB_OK;
 }
@@ -85,11 +62,19 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
     if (st == PLUMB_OK && dt_text)
         st = quantity(units, "--temperature-offset", "", dt_text, PLUMB_DIM_TEMP_DIFF, &dt,
                       &diag);
+    if (st == PLUMB_OK && dt_text) {
+        /* the profile's range for atmosphere.temperature_offset */
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        st = plumb_profile_key_check("atmosphere.temperature_offset", dt, &d);
+        if (st != PLUMB_OK)
+            st = cli_option_status(&diag, st, "--temperature-offset", "'%s': %s", dt_text, d.message);
+    }
     if (st == PLUMB_OK) {
         n = alt.n;
         rows = calloc(n, sizeof *rows);
         if (!rows)
-            st = option_error(&diag, PLUMB_ENOMEM, "--alt", "out of memory for %zu rows", n);
+            st = cli_option_status(&diag, PLUMB_ENOMEM, "--alt", "out of memory for %zu rows", n);
     }
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
         double alt_m = 0.0;
@@ -98,7 +83,7 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
             break;
         plumb_status s = plumb_std1976(alt_m, dt, &rows[i]);
         if (s != PLUMB_OK)
-            st = option_error(&diag, s,
+            st = cli_option_status(&diag, s,
                               alt_text ? "--alt" : dt_text ? "--temperature-offset" : "",
                               "no air at %g m above sea level with a temperature offset of "
                               "%g K: %s (the model spans -5 km to 86 km and needs a positive "

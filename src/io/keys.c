@@ -88,7 +88,7 @@ const plumbp_key plumbp_key_table[] = {
      SHARED | PLUMBP_KEY_LOADER},
     /* WGS 84; only for map output (plumb zone --format geojson) */
     {"site.longitude", D(ANGLE), 0, R(LONGITUDE), 0, ZONE, W(ALWAYS), 0, 0},
-    {"atmosphere.temperature_offset", D(TEMP_DIFF), 0, R(ANY), 0, AIR(temperature_offset_k),
+    {"atmosphere.temperature_offset", D(TEMP_DIFF), 0, R(TEMP_OFFSET), 0, AIR(temperature_offset_k),
      W(AIR_OFFSET), 0, AIRK | CHECKED},
     {"atmosphere.pressure", D(PRESSURE), 0, R(POSITIVE), 0, AIR(station_pressure_pa),
      W(AIR_SURFACE), 0, AIRK},

@@ -6,6 +6,7 @@
  * given in (plumb_profile_key_unit) and where (plumb_profile_key_origin).
  */
 #include <stdarg.h>
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -190,6 +191,29 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
     *dim = s->type == PLUMBY_T_NUM ? plumby_num_dim(s) : PLUMB_DIM_NONE;
     return PLUMB_OK;
+}
+
+plumb_status plumb_profile_key_check(const char *key, double si, plumb_diag *diag)
+{
+    keypath kp;
+    if (!key)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_key_check: NULL key");
+    plumb_status st = plumbp_profile_keypath_resolve(key, &kp, NULL, 0, diag);
+    if (st != PLUMB_OK)
+        return st;
+    const kseg *leaf = &kp.seg[kp.n - 1];
+    const plumby_schema *s = leaf->schema;
+    if (s && s->type == PLUMBY_T_LIST && leaf->index != KSEG_NONE)
+        s = &s->sub[0];
+    if (!s || s->type != PLUMBY_T_NUM)
+        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
+    plumby_range range = plumby_num_range(s);
+    if (isfinite(si) && plumby_range_ok(range, si))
+        return PLUMB_OK;
+    char r[160];
+    plumby_range_text(range, plumby_num_dim(s), r, sizeof r);
+    return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, key, "must be %s, found %g %s", r, si,
+                           plumb_dim_si_unit(plumby_num_dim(s)));
 }
 
 /* A direction is an angle of any value (wind.from, a heading, a wind

@@ -302,6 +302,7 @@ void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_ope
     case PLUMBY_R_ALTITUDE: *lo = PLUMB_STD1976_BOTTOM_M; *hi = PLUMB_STD1976_TOP_M; break;
     case PLUMBY_R_SUBSONIC: *lo = -PLUMB_SOUND_SPEED_SL_M_S; *hi = PLUMB_SOUND_SPEED_SL_M_S; break;
     case PLUMBY_R_SUBSONIC_NONNEG: *lo = 0.0; *hi = PLUMB_SOUND_SPEED_SL_M_S; break;
+    case PLUMBY_R_TEMP_OFFSET: *lo = -PLUMB_TEMP_OFFSET_MAX_K; *hi = PLUMB_TEMP_OFFSET_MAX_K; break;
     }
 }
 
@@ -342,6 +343,11 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
                  "subsonic air speeds)",
                  range == PLUMBY_R_SUBSONIC ? -PLUMB_SOUND_SPEED_SL_M_S : 0.0, u,
                  PLUMB_SOUND_SPEED_SL_M_S, u);
+        break;
+    case PLUMBY_R_TEMP_OFFSET:
+        snprintf(buf, size,
+                 "-%g%s .. %g%s (air on Earth: surface records lie within 100 K of the "
+                 "standard 15 degC)", PLUMB_TEMP_OFFSET_MAX_K, u, PLUMB_TEMP_OFFSET_MAX_K, u);
         break;
     }
     return buf;

@@ -118,6 +118,10 @@ refused "--set with a bare number" "plumb: --set:1:16: release.height: " \
 # Atm 1976): outside the subsonic drag model, refused with its bound
 refused "--set release.velocity.up=-400 m/s" "plumb: --set:1:21: release.velocity.up: " \
   "must be -340.294 m/s .. 340.294 m/s" -- fall "$good" --set 'release.velocity.up=-400 m/s' --format json
+# plumb air's offset has the profile key's range (-100 K .. 100 K) and names
+# the command line as every option error does
+refused "air --temperature-offset -200 K" "plumb: <command line>: --temperature-offset: " \
+  "must be -100 K .. 100 K" -- air --temperature-offset "-200 K"
 # (the command line may refuse this one itself, as a usage error)
 # a direction written as a word or a misspelt point: the 16-point rose's
 # abbreviation suggested (N, NNE, ... NNW; common practice, no source)
