@@ -242,10 +242,17 @@ static plumb_status read_device(const loader *L, const plumby_map *dm, plumb_des
         d->trigger = PLUMB_DEPLOY_BELOW;
         if ((st = plumby_num(&dep, "below", 1, 0.0, &d->deploy_value, NULL)) != PLUMB_OK)
             return st;
-        if (plumbp_deploy_not_below(d, L->height_m))
+        if (plumbp_deploy_not_below(d, L->height_m)) {
+            /* the release height as it was written (30 ft, not 9.144 m) */
+            plumby_map rm;
+            plumby_sub(&L->root, "release", &rm);
+            const plumby_node *h = plumby_get(&rm, "height");
+            char hm[32];
+            snprintf(hm, sizeof hm, "%.6g m", L->height_m);
             return plumby_raise_value(&dep, "below", PLUMB_ERANGE,
-                                      "must be below the release height %.6g m, found '%s'",
-                                      L->height_m, plumby_get(&dep, "below")->text);
+                                      "must be below the release height %s, found '%s'",
+                                      h && h->text ? h->text : hm, plumby_get(&dep, "below")->text);
+        }
     }
     int has_ft = plumby_get(dm, "fill_time") != NULL, has_fc = plumby_get(dm, "fill_constant") != NULL;
     if (has_ft && has_fc)

@@ -702,9 +702,11 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
         if ((st = observe(&r)) != PLUMB_OK)
             return st;
         if (r.y[IZ] > rise_cap && r.y[IVZ] > 0.0)
+            /* no figure: the height here is only where the search stops,
+             * not the top of the rise, and physics knows no display units */
             return PLUMB_RAISE(diag, PLUMB_ENOLAND,
-                               "the object never reaches the strike level: it rises to %.1f m at t=%.2f s "
-                               "(buoyancy exceeds its weight)", r.y[IZ], r.t);
+                               "the object never reaches the strike level: its buoyancy exceeds "
+                               "its weight, so it rises instead of falling");
         if (r.t >= t_event) {
             if (t_event >= w->opt.max_time_s)
                 return PLUMB_RAISE(diag, PLUMB_EBUDGET,
