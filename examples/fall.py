@@ -72,6 +72,7 @@ class FallResult(ctypes.Structure):
                 ("peak_force_n", ctypes.c_double),
                 ("peak_load_g", ctypes.c_double),
                 ("steady_speed_m_s", ctypes.c_double),
+                ("steady_opened_m_s", ctypes.c_double),
                 ("solver", SolverStats)]
 
 

@@ -175,6 +175,9 @@ typedef struct plumb_fall_result {
     double peak_load_g;        /* largest drag force / (m g0) */
     double steady_speed_m_s;   /* terminal speed with all devices open, at strike level, m/s;
                                   0 when there is none */
+    double steady_opened_m_s;  /* the same with only the devices this fall opened: equal to
+                                  steady_speed_m_s when all opened, 0 when none did or
+                                  there is none (0.4.0) */
     plumb_solver_stats solver; /* cost of the integration */
 } plumb_fall_result;
 

@@ -475,10 +475,22 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
             vt = 0.0;
     res->terminal_speed_m_s = vt;
     double vs = vt;
-    if (s->n_descent &&
-        plumbp_traj_terminal_speed(s, atm, 0.0, 1, r->w->root, r->w->min, &vs) != PLUMB_OK)
+    if (s->n_descent && plumbp_traj_terminal_speed(s, atm, 0.0, PLUMBP_ALL_DEVICES, r->w->root,
+                                                   r->w->min, &vs) != PLUMB_OK)
         vs = 0.0;
     res->steady_speed_m_s = vs;
+    /* with only the devices this fall opened (some did not) */
+    unsigned opened = 0;
+    for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++)
+        if (res->deployed[i])
+            opened |= 1u << i;
+    double vo = 0.0;
+    if (res->n_deployed >= s->n_descent)
+        vo = vs;
+    else if (opened && plumbp_traj_terminal_speed(s, atm, 0.0, opened, r->w->root, r->w->min,
+                                                  &vo) != PLUMB_OK)
+        vo = 0.0;
+    res->steady_opened_m_s = vo;
     res->peak_load_g = res->peak_force_n / (s->mass_kg * PLUMB_G0_M_S2);
     res->solver.steps = r->steps;
     res->solver.rhs_evaluations = r->ctx->evals;

@@ -139,8 +139,13 @@ double plumbp_traj_body_cda(const plumb_drag_spec *d);
 plumb_status plumbp_traj_check_spec(const plumb_fall_spec *s, plumb_diag *diag);
 
 /* trajectory_terminal.c */
+/* The terminal speed at z_m with the descent devices whose bits are set
+ * in `devices` open (bit i: descent[i]; 0: the body alone;
+ * PLUMBP_ALL_DEVICES: every one); a device replaced by the next one
+ * (disreefs_previous) counts only when that one is not open. */
+#define PLUMBP_ALL_DEVICES (~0u)
 plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                        double z_m, int with_devices, gsl_root_fsolver *root,
+                                        double z_m, unsigned devices, gsl_root_fsolver *root,
                                         gsl_min_fminimizer *mz, double *v_m_s);
 
 #endif

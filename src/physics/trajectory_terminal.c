@@ -111,7 +111,7 @@ static double term_local_max(term_ctx *c, gsl_min_fminimizer *mz, double a, doub
 /* The lowest root of the drag balance (see above) into *v_m_s, which may
  * lie above TERMINAL_MAX_M_S (the caller checks). */
 static plumb_status terminal_root(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                  double z_m, int with_devices, gsl_root_fsolver *root,
+                                  double z_m, unsigned devices, gsl_root_fsolver *root,
                                   gsl_min_fminimizer *mz, double *v_m_s)
 {
     term_ctx c = {.spec = spec};
@@ -120,12 +120,14 @@ static plumb_status terminal_root(const plumb_fall_spec *spec, const plumb_atmos
         return PLUMB_RAISE(NULL, PLUMB_EOUTSIDE, "altitude %.1f m is outside the atmosphere model", alt);
     double g = plumb_gravity_at(&spec->gravity, alt);
     c.g_net_m_s2 = g * (1.0 - c.air.rho_kg_m3 * spec->volume_m3 / spec->mass_kg);
-    if (with_devices)
-        for (size_t i = 0; i < spec->n_descent; i++) {
-            if (i + 1 < spec->n_descent && spec->descent[i + 1].disreefs_previous)
-                continue; /* replaced by the next device */
-            c.extra_m2 += spec->descent[i].cd * spec->descent[i].area_m2;
-        }
+    for (size_t i = 0; i < spec->n_descent && i < PLUMB_MAX_DESCENT; i++) {
+        if (!(devices & (1u << i)))
+            continue;
+        if (i + 1 < spec->n_descent && (devices & (1u << (i + 1))) &&
+            spec->descent[i + 1].disreefs_previous)
+            continue; /* replaced by the next device, open too */
+        c.extra_m2 += spec->descent[i].cd * spec->descent[i].area_m2;
+    }
     if (!(c.g_net_m_s2 > 0.0))
         return PLUMB_RAISE(NULL, PLUMB_ENOLAND, "buoyancy exceeds weight: no terminal speed");
     if (spec->drag.model == PLUMB_DRAG_FIXED) {
@@ -182,11 +184,11 @@ static plumb_status terminal_root(const plumb_fall_spec *spec, const plumb_atmos
  * small that the closed form overflows), has no terminal speed:
  * PLUMB_ENOSOLUTION, never a huge number, *v_m_s untouched. */
 plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb_atmosphere *atm,
-                                        double z_m, int with_devices, gsl_root_fsolver *root,
+                                        double z_m, unsigned devices, gsl_root_fsolver *root,
                                         gsl_min_fminimizer *mz, double *v_m_s)
 {
     double v = 0.0;
-    plumb_status st = terminal_root(spec, atm, z_m, with_devices, root, mz, &v);
+    plumb_status st = terminal_root(spec, atm, z_m, devices, root, mz, &v);
     if (st != PLUMB_OK)
         return st;
     if (!(v <= TERMINAL_MAX_M_S))
@@ -201,8 +203,8 @@ plumb_status plumb_terminal_speed(const plumb_fall_spec *spec, const plumb_atmos
 {
     gsl_root_fsolver *root = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
     gsl_min_fminimizer *mz = gsl_min_fminimizer_alloc(gsl_min_fminimizer_brent);
-    plumb_status st = root && mz ? plumbp_traj_terminal_speed(spec, atm, z_m, with_devices, root,
-                                                              mz, v_m_s)
+    unsigned all = with_devices ? PLUMBP_ALL_DEVICES : 0u;
+    plumb_status st = root && mz ? plumbp_traj_terminal_speed(spec, atm, z_m, all, root, mz, v_m_s)
                                  : PLUMB_RAISE(NULL, PLUMB_ENOMEM, "out of memory");
     if (root)
         gsl_root_fsolver_free(root);

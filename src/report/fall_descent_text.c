@@ -118,6 +118,45 @@ static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *
         snprintf(buf + len, size - len, " %s", closed > 1 ? "do not open" : "does not open");
 }
 
+/* The bits of descent[0 .. n). */
+#define PLUMBP_ALL_MASK(n) ((n) >= 32 ? ~0u : (1u << (n)) - 1u)
+
+/* "the parachute", "the drogue and the parachute": the devices of `mask`
+ * that count in a steady descent, named as the text names them; *note
+ * " (it replaces the drogue)" for one a later device replaces, else "". */
+typedef struct counted {
+    char names[NUMBUF * 2];
+    char note[NUMBUF];
+} counted;
+
+static void devices_counted(const plumb_fall_spec *s, unsigned mask, counted *c)
+{
+    char *buf = c->names;
+    size_t size = sizeof c->names;
+    c->note[0] = '\0';
+    size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
+    size_t len = 0, seen = 0, count = 0;
+    const char *replaced = NULL;
+    buf[0] = '\0';
+    for (size_t i = 0; i < n; i++)
+        count += (mask >> i) & 1u;
+    for (size_t i = 0; i < n && len < size; i++) {
+        if (!((mask >> i) & 1u))
+            continue;
+        if (i + 1 < n && ((mask >> (i + 1)) & 1u) && s->descent[i + 1].disreefs_previous) {
+            replaced = plumb_descent_kind_name(s->descent[i].kind);
+            count--;
+            continue;
+        }
+        len += (size_t)snprintf(buf + len, size - len, "%s%s",
+                                seen == 0 ? "the " : seen + 1 == count ? " and the " : ", the ",
+                                plumb_descent_kind_name(s->descent[i].kind));
+        seen++;
+    }
+    if (replaced)
+        snprintf(c->note, sizeof c->note, " (it replaces the %s)", replaced);
+}
+
 /* The steady descent speed, worded by what this fall deployed: a device
  * that never opens gives none, so with no device open the figure does not
  * apply; with some open, the figure (with every device open, as in JSON
@@ -125,31 +164,47 @@ static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *
 static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_result *r)
 {
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
-    char closed[NUMBUF * 2], line[NUMBUF * 5];
+    char closed[NUMBUF * 2], line[NUMBUF * 12];
+    counted all, opened;
+    unsigned open_mask = 0;
+    for (size_t i = 0; i < n; i++)
+        if (r->deployed[i])
+            open_mask |= 1u << i;
+    devices_counted(s, PLUMBP_ALL_MASK(n), &all);
     if (r->n_deployed == 0) {
         devices_not_open(s, r, closed, sizeof closed);
         snprintf(line, sizeof line, "does not apply (%s before impact)", closed);
     } else if (r->n_deployed >= n) {
         if (r->steady_speed_m_s > 0.0)
-            snprintf(line, sizeof line, "%s with the %s open, at the strike level",
-                     plumbp_t_speed(w, r->steady_speed_m_s),
-                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
+            snprintf(line, sizeof line, "%s with %s open%s, at the strike level",
+                     plumbp_t_speed(w, r->steady_speed_m_s), all.names, all.note);
         else
-            snprintf(line, sizeof line, "none up to %s even with the %s open: too little drag",
-                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S),
-                     n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
+            snprintf(line, sizeof line, "none up to %s even with %s open%s: too little drag",
+                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), all.names, all.note);
     } else {
+        /* some opened: the speed with those, this fall's, then with all */
         devices_not_open(s, r, closed, sizeof closed);
-        if (r->steady_speed_m_s > 0.0)
+        devices_counted(s, open_mask, &opened);
+        char with_opened[NUMBUF * 3];
+        if (r->steady_opened_m_s > 0.0)
+            snprintf(with_opened, sizeof with_opened, "%s with %s open, as in this fall",
+                     plumbp_t_speed(w, r->steady_opened_m_s), opened.names);
+        else
+            snprintf(with_opened, sizeof with_opened, "none up to %s with %s open",
+                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), opened.names);
+        if (strcmp(opened.names, all.names) == 0) /* the same devices count: one figure */
+            snprintf(line, sizeof line, "%s (%s before impact), at the strike level",
+                     with_opened, closed);
+        else if (r->steady_speed_m_s > 0.0)
             snprintf(line, sizeof line,
-                     "%s with every device open, at the strike level; not this fall's: %s "
-                     "before impact",
-                     plumbp_t_speed(w, r->steady_speed_m_s), closed);
+                     "%s (%s before impact); %s with %s open%s; at the strike level",
+                     with_opened, closed, plumbp_t_speed(w, r->steady_speed_m_s), all.names,
+                     all.note);
         else
             snprintf(line, sizeof line,
-                     "none up to %s even with every device open: too little drag; and %s "
-                     "before impact",
-                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), closed);
+                     "%s (%s before impact); none up to %s even with %s open%s",
+                     with_opened, closed, plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), all.names,
+                     all.note);
     }
     wrapped(w, "  steady descent   ", line);
 }

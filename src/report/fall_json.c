@@ -143,6 +143,9 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
     /* null when there is none, as terminal_speed_m_s */
     jset(j, o, "steady_speed_m_s",
          r->steady_speed_m_s > 0.0 ? jreal(j, r->steady_speed_m_s) : json_null());
+    /* with only the devices this fall opened: null when none opened */
+    jset(j, o, "steady_speed_opened_m_s",
+         r->steady_opened_m_s > 0.0 ? jreal(j, r->steady_opened_m_s) : json_null());
     return o;
 }
 

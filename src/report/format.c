@@ -65,6 +65,8 @@ plumb_status plumbp_check_item(const plumb_item_report *it, plumb_diag *diag)
         plumbp_need_finite(&fc, "peak drag force", r->peak_force_n);
         plumbp_need_finite(&fc, "peak load factor", r->peak_load_g);
         plumbp_need_finite(&fc, "steady descent speed", r->steady_speed_m_s);
+        plumbp_need_finite(&fc, "steady descent speed with the devices opened",
+                           r->steady_opened_m_s);
     }
     for (size_t i = 0; i < it->n_verdicts; i++) {
         plumbp_need_finite(&fc, "judged energy", it->verdicts[i].energy_j);
