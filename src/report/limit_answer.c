@@ -232,8 +232,12 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
         put(w, "\n");
-        if (plumb_profile_is_inventory(p))
-            put(w, "%s\n", plumb_profile_item(p, i)->name);
+        if (plumb_profile_is_inventory(p)) {
+            /* numbered as items[N] counts them, the name wrapped */
+            char lead[32];
+            snprintf(lead, sizeof lead, "Item %zu  ", plumb_profile_item_number(p, i));
+            wrapped(w, lead, plumb_profile_item(p, i)->name);
+        }
         if (r->outcome == PLUMB_LIMIT_FOUND) {
             snprintf(text, sizeof text, "%s = %s%s", rep->key,
                      t_limit_value(w, rep->key, r->dim, r->value_si, r->limit_is_upper_bound),
@@ -313,7 +317,7 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
         csv_comment(w, line);
     }
     each_limit_warning(w, rep, plumbp_csv_warning_line);
-    put(w, "name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
+    put(w, "item_number,name,key,outcome,value,unit,value_si,metric,limit_si,metric_at_value_si,"
            "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
@@ -324,6 +328,7 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
             v = (shown){(r->value_si - r->given_offset_si) / r->given_scale_si,
                         unit_shown(w, r->given_unit)};
         int found = r->outcome == PLUMB_LIMIT_FOUND; /* else no value: empty fields */
+        put(w, "%zu,", plumb_profile_item_number(rep->profile, i));
         csv_field(w, plumb_profile_item(rep->profile, i)->name);
         put(w, ",");
         csv_field(w, rep->key);
@@ -377,6 +382,7 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
         json_t *o = jobj(j);
         const char *u = plumb_dim_si_unit(r->dim);
         jset(j, o, "name", jstr(j, plumb_profile_item(rep->profile, i)->name));
+        jset(j, o, "item_number", jint(j, plumb_profile_item_number(rep->profile, i)));
         jset(j, o, "outcome", jstr(j, outcome_word(r->outcome)));
         char k_value[64], k_base[64];
         snprintf(k_value, sizeof k_value, "%s_at_value_%s", metric_stem(rep->metric),

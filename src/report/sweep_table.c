@@ -312,19 +312,28 @@ static void sweep_top_heads(writer *w, const sweep_cols *c, const key_head *kh)
 
 static void sweep_name_continued(writer *w, const sweep_cols *c, const char *rest);
 
+/* An item's cell: its number as items[N] counts it, then its name
+ * ("2 torque wrench 1/2 in"), as the fall's table numbers it. */
+static const char *item_label(const plumb_sweep_row *row, size_t it, char *buf, size_t size)
+{
+    snprintf(buf, size, "%zu %s", plumb_profile_item_number(row->report.profile, it),
+             row->report.items[it].spec->name);
+    return buf;
+}
+
 /* The leading columns of item `it` of a row: the values on the row's first
- * line only, then the first line of the item's name. Returns the rest of
- * the name, for sweep_name_continued. */
+ * line only, then the first line of the item's cell (item_label, made in
+ * label[size]). Returns the rest of the cell, for sweep_name_continued. */
 static const char *sweep_lead(writer *w, const sweep_cols *c, const plumb_sweep_row *row,
-                              size_t it)
+                              size_t it, char *label, size_t size)
 {
     for (size_t a = 0; a < c->na; a++)
         pad(w, it == 0 ? plumbp_gnum(w, plumbp_sweep_row_value(c->sw, row, a), 8) : "",
             c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (!c->inv)
         return "";
-    char part[PLUMB_NAME];
-    const char *rest = wrap_cell(row->report.items[it].spec->name, c->name_w, part, sizeof part);
+    char part[PLUMB_NAME + 24];
+    const char *rest = wrap_cell(item_label(row, it, label, size), c->name_w, part, sizeof part);
     put(w, "  ");
     if (!c->own_line) {
         pad(w, part, c->name_w, 0);
@@ -637,8 +646,9 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 wkey[a] = shown_width(plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8));
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            if (shown_width(item->spec->name) > name_w)
-                name_w = shown_width(item->spec->name);
+            char label[PLUMB_NAME + 24];
+            if (shown_width(item_label(row, it, label, sizeof label)) > name_w)
+                name_w = shown_width(label);
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
                     wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
@@ -701,7 +711,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            const char *rest = sweep_lead(w, &c, row, it);
+            char label[PLUMB_NAME + 24];
+            const char *rest = sweep_lead(w, &c, row, it, label, sizeof label);
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
@@ -736,7 +747,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 continue;
             for (size_t it = 0; it < row->report.n_items; it++) {
                 const plumb_item_report *item = &row->report.items[it];
-                const char *rest = sweep_lead(w, &c, row, it);
+                char label[PLUMB_NAME + 24];
+                const char *rest = sweep_lead(w, &c, row, it, label, sizeof label);
                 for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
                     ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1);
                 put(w, "\n");

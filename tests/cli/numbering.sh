@@ -168,6 +168,23 @@ rc=$?
 if [ $rc -eq 2 ] && grep -q "items\[2\] was removed by --set 1" "$tmp/err"; then ok
 else bad "sweep --vary items[2] after items[2]=~: exit $rc, $(cat "$tmp/err")"; fi
 # a loader's message names the item as written
+# limit numbers its answers as written too: after items[2]=~ the text's
+# headings are Item 1 and Item 3, the CSV's and JSON's item_number 1 and 3
+"$bin" limit "$inv" --set 'items[2]=~' --find payload.mass --energy-max 20J >"$tmp/lim.txt" \
+  2>"$tmp/err"
+heads=$(sed -n 's/^Item \([0-9]*\)  \(.*\)/\1 \2/p' "$tmp/lim.txt" | tr '\n' ';')
+"$bin" limit "$inv" --set 'items[2]=~' --find payload.mass --energy-max 20J --format csv \
+  >"$tmp/lim.csv" 2>>"$tmp/err"
+"$bin" limit "$inv" --set 'items[2]=~' --find payload.mass --energy-max 20J --format json \
+  >"$tmp/lim.json" 2>>"$tmp/err"
+if [ "$heads" = "1 pin punch;3 glove;" ] && "$py" - "$tmp/lim.csv" "$tmp/lim.json" <<'EOF'
+import csv, json, sys
+rows = list(csv.DictReader(l for l in open(sys.argv[1]) if not l.startswith("#")))
+assert [(r["item_number"], r["name"]) for r in rows] == [("1", "pin punch"), ("3", "glove")], rows
+items = json.load(open(sys.argv[2]))["limit"]["items"]
+assert [(i["item_number"], i["name"]) for i in items] == [(1, "pin punch"), (3, "glove")], items
+EOF
+then ok; else bad "limit after items[2]=~: headings '$heads' ($(cat "$tmp/err"))"; fi
 "$bin" fall "$inv" --set 'items[2]=~' --set 'items[3].mass=-1 kg' >"$tmp/out" 2>"$tmp/err"
 rc=$?
 if [ $rc -eq 2 ] && grep -q "^plumb: --set:2:15: items\[3\]\.mass: must be > 0 kg" "$tmp/err"; then ok

@@ -113,9 +113,10 @@ try:
                 cur += " " + cell.strip()
         if cur is not None:
             names.append(cur)
-        for n in NAMES:
-            check(names.count(n) >= 6, f"sweep long names --units {units}: "
-                  f"'{n}' whole {names.count(n)} times of 6 (3 rows, 2 tables)")
+        # each cell is the item's number as items[N] counts it, then its name
+        for k, n in enumerate(NAMES):
+            check(names.count(f"{k + 1} {n}") >= 6, f"sweep long names --units {units}: "
+                  f"'{k + 1} {n}' whole {names.count(f'{k + 1} {n}')} times of 6 (3 rows, 2 tables)")
         rc, out, err = plumb("fall", path, "--units", units)
         check(rc == 0, f"fall long names --units {units}: {err.strip()}")
         check(not wide(out), f"long names --units {units}: wide lines {wide(out)[:3]}")
