@@ -668,9 +668,15 @@ static void test_direction_sectors_across_north_and_polar_velocity(void **state)
         w[i] = v[0] < 180.0 ? v[0] : v[0] - 360.0;
         w[n + i] = v[1] < 180.0 ? v[1] + 360.0 : v[1];
         assert_true(out.wind.from_deg == v[0]);
-        double h = v[1] * (PLUMB_PI / 180.0);
-        assert_rel(out.velocity_m_s[0], v[2] * sin(h), 1e-15);
-        assert_rel(out.velocity_m_s[1], v[2] * cos(h), 1e-15);
+        /* the reference: the heading brought within 180 deg of 0 (exactly),
+         * then sin and cos in long double; sin of a heading near 360 deg
+         * taken in double radians loses the argument's rounding, which is
+         * large beside a small sine (the sampler reduces in degrees first,
+         * plumbp_sincos_deg) */
+        double d360 = v[1] >= 180.0 ? v[1] - 360.0 : v[1]; /* exact (Sterbenz) */
+        long double h = (long double)d360 * (3.14159265358979323846264338327950288L / 180.0L);
+        assert_rel(out.velocity_m_s[0], (double)((long double)v[2] * sinl(h)), 1e-15);
+        assert_rel(out.velocity_m_s[1], (double)((long double)v[2] * cosl(h)), 1e-15);
         assert_rel(out.velocity_m_s[2], s.velocity_m_s[2], 0.0); /* climb not uncertain */
     }
     assert_abs((double)north_of_zero / (double)n, 0.5, 5.0 * sqrt(0.25 / (double)n));

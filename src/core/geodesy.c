@@ -115,3 +115,26 @@ plumb_status plumb_geodesy_inverse(double lat0, double lon0, double lat, double 
                            PLUMB_GEODESY_RANGE_M);
     return PLUMB_OK;
 }
+
+void plumbp_sincos_deg(double deg, double *s, double *c)
+{
+    if (!isfinite(deg)) {
+        *s = *c = NAN;
+        return;
+    }
+    double q = nearbyint(deg / 90.0);
+    double r = (deg - 90.0 * q) * RAD;
+    double sr = sin(r), cr = cos(r);
+    int quadrant = (int)fmod(q, 4.0);
+    if (quadrant < 0)
+        quadrant += 4;
+    switch (quadrant) {
+    case 0: *s = sr; *c = cr; break;
+    case 1: *s = cr; *c = -sr; break;
+    case 2: *s = -sr; *c = -cr; break;
+    default: *s = -cr; *c = sr; break;
+    }
+    /* + 0.0 turns a -0 (cos 90 deg reduced) into +0 */
+    *s += 0.0;
+    *c += 0.0;
+}

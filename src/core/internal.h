@@ -80,4 +80,10 @@ void plumbp_warning_vadd(char *slots, size_t slot_size, size_t max, size_t *n, c
 /* True when x is neither NaN nor infinite. */
 int plumbp_finite(double x);
 
+/* sin and cos of an angle in degrees, reduced to +-45 deg around the
+ * nearest multiple of 90 deg first, so that the cardinal directions are
+ * exact (a heading of 90 deg has a north component of 0, not 6e-17).
+ * NaN for a value that is not finite. Can't fail (core/geodesy.c). */
+void plumbp_sincos_deg(double deg, double *s, double *c);
+
 #endif /* PLUMB_INTERNAL_H */

@@ -106,9 +106,10 @@ plumb_status plumbp_profile_read_release_site(loader *L, plumb_fall_spec *base)
         if ((st = plumby_num(&vm, "heading", 1, 0.0, &heading, NULL)) != PLUMB_OK ||
             (st = plumby_num(&vm, "climb", 0, 0.0, &climb, NULL)) != PLUMB_OK)
             return st;
-        double h = heading * PLUMB_PI / 180.0;
-        base->velocity_m_s[0] = speed * sin(h);
-        base->velocity_m_s[1] = speed * cos(h);
+        double sh, ch;
+        plumbp_sincos_deg(heading, &sh, &ch);
+        base->velocity_m_s[0] = speed * sh;
+        base->velocity_m_s[1] = speed * ch;
         base->velocity_m_s[2] = climb;
     }
 

@@ -24,9 +24,8 @@
 #include <string.h>
 
 #include "plumb/wind.h"
+#include "core/internal.h"
 
-/* Degrees to radians. */
-#define WIND_RAD_PER_DEG (3.14159265358979323846 / 180.0)
 /* Defaults: anemometer height 10 m (WMO-No. 8 standard exposure); power-law
  * exponent 1/7 (common practice for neutral air over open land); roughness
  * length 0.03 m (Davenport-Wieringa class "open"). */
@@ -34,33 +33,11 @@
 #define WIND_DEFAULT_EXPONENT (1.0 / 7.0)
 #define WIND_DEFAULT_ROUGHNESS_M 0.03
 
-/* sin and cos of an angle in degrees, reduced to +-45 deg around the nearest
- * multiple of 90 deg first, so that the cardinal directions are exact. */
-static void sincos_deg(double deg, double *s, double *c)
-{
-    if (!isfinite(deg)) {
-        *s = *c = NAN;
-        return;
-    }
-    double q = nearbyint(deg / 90.0);
-    double r = (deg - 90.0 * q) * WIND_RAD_PER_DEG;
-    double sr = sin(r), cr = cos(r);
-    int quadrant = (int)fmod(q, 4.0);
-    if (quadrant < 0)
-        quadrant += 4;
-    switch (quadrant) {
-    case 0: *s = sr; *c = cr; break;
-    case 1: *s = cr; *c = -sr; break;
-    case 2: *s = -sr; *c = -cr; break;
-    default: *s = -cr; *c = sr; break;
-    }
-}
-
 void plumb_wind_components(double speed_m_s, double from_deg, double *east_m_s,
                            double *north_m_s)
 {
     double s, c;
-    sincos_deg(from_deg, &s, &c);
+    plumbp_sincos_deg(from_deg, &s, &c);
     /* + 0.0 turns a -0 (e.g. the north component of a west wind) into +0. */
     *east_m_s = -speed_m_s * s + 0.0;
     *north_m_s = -speed_m_s * c + 0.0;

@@ -46,7 +46,6 @@
 /* Degrees in a full turn. */
 #define FULL_TURN_DEG 360.0
 #define DEG_PER_RAD (180.0 / PLUMB_PI)
-#define RAD_PER_DEG (PLUMB_PI / 180.0)
 
 /* Histogram layout: 2^SK_SUB_BITS bins per octave, SK_OCTAVES octaves,
  * floor 2^-SK_FLOOR_SHIFT of the pilot scale. */

@@ -501,9 +501,10 @@ plumb_status plumb_sampler_draw(plumb_sampler *s, unsigned long seed, size_t ind
         }
     }
     if (s->has_speed || s->has_heading) {
-        double h = heading * RAD_PER_DEG;
-        out->velocity_m_s[0] = speed * sin(h);
-        out->velocity_m_s[1] = speed * cos(h);
+        double sh, ch;
+        plumbp_sincos_deg(heading, &sh, &ch);
+        out->velocity_m_s[0] = speed * sh;
+        out->velocity_m_s[1] = speed * ch;
     }
     if (s->has_climb)
         out->velocity_m_s[2] = climb;

@@ -337,6 +337,16 @@ check(rc == 0 and rc2 == 0 and abs(dj["steady_speed_opened_m_s"] - vo) <= 1e-4 *
       f"{vo:.2f} m/s with the drogue open, as in this fall (the parachute does not open before "
       "impact)" in words, f"partial deployment: the opened devices' steady speed {vo:.4f}: {dj}")
 
+# A release heading due east in a wind from due west: nothing pushes the
+# fall north or south (symmetry), so the north offset is exactly 0, not
+# float noise like 3.3e-16 printed in the CSV (the cardinal directions'
+# sine and cosine are exact).
+rc, j, _ = plumb("fall", tool, "--set", "release.velocity.heading=90 deg",
+                 "--set", "wind.from=270 deg", "--format", "json")
+d = json.loads(j) if rc == 0 else {}
+check(rc == 0 and d["impact"]["point_m"][1] == 0.0 and d["impact"]["velocity_m_s"][1] == 0.0,
+      f"due-east fall in a west wind: north exactly 0: {d.get('impact', {}).get('point_m')}")
+
 # CSV carries the descent devices' figures as JSON does (the CSV's 10
 # figures against JSON's full double), empty for a payload without one
 import csv as _csv  # noqa: E402
