@@ -353,6 +353,8 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
     else
         sheet_para(d, font, "No criterion was judged.");
     criteria_sources(d, b);
+    if (b->fall->n_items == 1) /* a kit's are in its table's section */
+        sheet_descent_figures(d, b);
 }
 
 /* ---- 7. inputs and assumptions; 8. cautions ---------------------------------------- */
@@ -399,6 +401,7 @@ plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
     if (st == PLUMB_OK) {
         text_block(d, buf, "\nInputs as understood\n", "\nProfile  ");
+        sheet_descent_inputs(d, b);
         if (strstr(buf, "\nWarnings\n")) {
             d->y += GAP;
             sheet_para(d, sheet_fmt(d, "%s Bold %.1f", SHEET_FONT, SHEET_BODY), "Warnings");
