@@ -182,7 +182,7 @@ void sheet_descent_inputs(sheet_doc *d, const plumb_brief *b)
     char note[PLUMB_NAME + 64] = "";
     if (plumb_profile_is_inventory(b->profile) && shared > 0)
         snprintf(note, sizeof note, " (%s)",
-                 shared == f->n_items ? "every item's" : "every item's without its own");
+                 shared == f->n_items ? "for every item" : "for every item without its own");
     const plumb_fall_spec *s = shared ? f->items[first].spec : NULL;
     for (size_t i = 0; s && i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
         char key[DEVICE_KEY];
