@@ -68,8 +68,8 @@ int plumbp_descent_inflation(writer *w, const plumb_descent_spec *d, char *buf, 
 /* A fall's figures of device i: line stretch (or "does not open before
  * impact"); fill time and Pflanz's opening force (deployed devices only;
  * weight_n = m g0); the peak drag force with its load in g; the steady
- * descent, worded by which devices opened; the devices that did not open
- * by kind ("the parachute does not open"). */
+ * descent, worded by which devices opened ("does not apply (the
+ * parachute does not open before impact)"). */
 void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_result *r, size_t i, char *buf,
                             size_t size);
 void plumbp_descent_pflanz(writer *w, writer *o, const plumb_descent_spec *d,
@@ -78,8 +78,6 @@ void plumbp_descent_pflanz(writer *w, writer *o, const plumb_descent_spec *d,
 void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char *buf, size_t size);
 void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
                            const plumb_fall_result *r, char *buf, size_t size);
-void plumbp_descent_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
-                             size_t size);
 void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,
                         const char *name);
 const char *plumbp_status_note(const plumb_criterion *c);

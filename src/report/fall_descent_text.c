@@ -152,7 +152,7 @@ void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char 
 /* "the drogue and the parachute do not open", "the parachute does not
  * open": the devices i0..n of s that never open, by kind; by number when
  * two of them are of one kind. */
-void plumbp_descent_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
+static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
                              size_t size)
 {
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
@@ -198,7 +198,7 @@ void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
     char closed[NUMBUF * 2];
     if (r->n_deployed == 0) {
-        plumbp_descent_not_open(s, r, closed, sizeof closed);
+        devices_not_open(s, r, closed, sizeof closed);
         snprintf(line, size, "does not apply (%s before impact)", closed);
     } else if (r->n_deployed >= n) {
         if (r->steady_speed_m_s > 0.0)
@@ -210,7 +210,7 @@ void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
                      plumbp_t_beside(w, o, plumbp_t_speed, PLUMB_TERMINAL_MAX_M_S),
                      n > 1 ? "devices" : plumb_descent_kind_name(s->descent[0].kind));
     } else {
-        plumbp_descent_not_open(s, r, closed, sizeof closed);
+        devices_not_open(s, r, closed, sizeof closed);
         if (r->steady_speed_m_s > 0.0)
             snprintf(line, size,
                      "%s with every device open, at the strike level; not this fall's: %s "
