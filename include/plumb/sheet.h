@@ -9,11 +9,13 @@
  *
  * Each brief gives, in this order: 1 the header (job, date and time of
  * the calculation, prepared and checked by, version, the SHA-256 of the
- * profile and of every criteria file, the seed), 2 the answer, 3 a side
- * view of the fall, 4 impact energy against drop height with each
- * criterion's limit, 5 the plan view of the clearance zone, 6 for an
- * inventory the table of items worst first, 7 the inputs as understood
- * and the model's assumptions, 8 the cautions in full. Every page has a
+ * profile and of every criteria file, the seed), 2 the answer (with what
+ * the fall made of each descent device), 3 a side view of the fall, 4
+ * impact energy against drop height with each criterion's limit, 5 the
+ * plan view of the clearance zone, 6 for an inventory the table of items
+ * worst first (and each item's descent devices), 7 the inputs as
+ * understood (each descent device keyed as the profile writes it) and the
+ * model's assumptions, 8 the cautions in full. Every page has a
  * footer: the short caution and the deference to local codes and
  * competent or licensed practice, "page n of m" and the profile's SHA-256.
  * Nothing relies on colour: lines differ by weight and dash, and every

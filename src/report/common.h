@@ -49,6 +49,35 @@ json_t *plumbp_j_fall(jctx *j, const plumb_report_options *opt, const plumb_fall
 /* fall_descent_text.c: the "Descent devices" block of an item (who: the
  * item's name in an inventory, or NULL). */
 void plumbp_text_descent(writer *w, const plumb_item_report *it, const char *who);
+/* A quantity t(w, x), with t(o, x) beside it when o is given: "[...]"
+ * after US figures, "(...)" after SI ones, as the sheet gives them; o
+ * takes w's rounding for the call (an input echoed exactly is echoed so
+ * in both). A slot of w's ring. */
+const char *plumbp_t_beside(writer *w, writer *o, const char *(*t)(writer *, double), double x);
+/* Its sentences, one each into buf (size bytes), for the text report and
+ * the PDF sheet alike. o: NULL, or the other unit system's writer, whose
+ * figure is then given beside each of w's ("21.49 ft/s [6.550 m/s]",
+ * "6.550 m/s (21.49 ft/s)"). A device's inputs: "Cd 0.78 on 0.9503 m²";
+ * "deploys below 40 m, fills in 0.6 s"; its inflation curve ("" when
+ * none, then returns 0, and buf holds the canopy type's name if any). */
+void plumbp_descent_size(writer *w, writer *o, const plumb_descent_spec *d, char *buf,
+                         size_t size);
+void plumbp_descent_rule(writer *w, writer *o, const plumb_descent_spec *d, char *buf,
+                         size_t size);
+int plumbp_descent_inflation(writer *w, const plumb_descent_spec *d, char *buf, size_t size);
+/* A fall's figures of device i: line stretch (or "does not open before
+ * impact"); fill time and Pflanz's opening force (deployed devices only;
+ * weight_n = m g0); the peak drag force with its load in g; the steady
+ * descent, worded by which devices opened ("does not apply (the
+ * parachute does not open before impact)"). */
+void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_result *r, size_t i, char *buf,
+                            size_t size);
+void plumbp_descent_pflanz(writer *w, writer *o, const plumb_descent_spec *d,
+                           const plumb_fall_result *r, size_t i, double weight_n, char *buf,
+                           size_t size);
+void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char *buf, size_t size);
+void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
+                           const plumb_fall_result *r, char *buf, size_t size);
 void plumbp_text_header(writer *w, const plumb_report_options *opt, const char *what,
                         const char *name);
 const char *plumbp_status_note(const plumb_criterion *c);

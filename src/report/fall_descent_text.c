@@ -2,7 +2,12 @@
  * fall_descent_text.c - the descent devices of a fall in the text report
  * (fall_text.c): each device's deploy rule, inflation, line stretch and
  * Pflanz's opening-force estimate, the peak drag force and the steady
- * descent, worded by which devices this fall opened.
+ * descent, worded by which devices this fall opened. Its sentences are
+ * built by plumbp_descent_* (common.h) so that the PDF sheet (sheet_*.c)
+ * says the same in the same words; given a second writer `o`, each figure
+ * with a unit has the other system's beside it (US first, SI in brackets;
+ * SI first, US in parentheses), as the sheet gives its figures. The text
+ * report passes NULL and shows its own units only.
  */
 #include <math.h>
 #include <stdio.h>
@@ -10,7 +15,27 @@
 
 #include "report/common.h"
 
-static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, size_t size)
+/* common.h: the sheet's "6.550 m/s (21.49 ft/s)", the text's "6.550 m/s". */
+const char *plumbp_t_beside(writer *w, writer *o, const char *(*t)(writer *, double), double x)
+{
+    if (!o)
+        return t(w, x);
+    int exact = o->exact, sig = o->sig, strict = o->strict;
+    o->exact = w->exact;
+    o->sig = w->sig;
+    o->strict = w->strict;
+    char *b = slot(w);
+    snprintf(b, NUMBUF, w->us ? "%s [%s]" : "%s (%s)", t(w, x), t(o, x));
+    o->exact = exact;
+    o->sig = sig;
+    o->strict = strict;
+    if (o->bad)
+        w->bad = 1;
+    return b;
+}
+
+void plumbp_descent_rule(writer *w, writer *o, const plumb_descent_spec *d, char *buf,
+                         size_t size)
 {
     char fill[NUMBUF * 2];
     w->exact = 1;
@@ -26,8 +51,35 @@ static void text_deploy_rule(writer *w, const plumb_descent_spec *d, char *buf, 
         snprintf(buf, size, "deploys %s" NBSP "s after release, %s",
                  plumbp_gnum(w, d->deploy_value, TEXT_SIG), fill);
     else
-        snprintf(buf, size, "deploys below %s, %s", plumbp_t_len(w, d->deploy_value), fill);
+        snprintf(buf, size, "deploys below %s, %s",
+                 plumbp_t_beside(w, o, plumbp_t_len, d->deploy_value), fill);
     w->exact = 0;
+}
+
+void plumbp_descent_size(writer *w, writer *o, const plumb_descent_spec *d, char *buf,
+                         size_t size)
+{
+    w->exact = 1;
+    snprintf(buf, size, "Cd %s on %s", plumbp_gnum(w, d->cd, INPUT_SIG),
+             plumbp_t_beside(w, o, plumbp_t_area, d->area_m2));
+    w->exact = 0;
+}
+
+int plumbp_descent_inflation(writer *w, const plumb_descent_spec *d, char *buf, size_t size)
+{
+    const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
+    double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
+    if (!(d->fill_time_s > 0.0) && !(d->fill_constant > 0.0)) {
+        /* no fill: the deploy rule already says "opens at once" */
+        snprintf(buf, size, "%s", ci ? ci->name : "");
+        return 0;
+    }
+    w->exact = 1;
+    snprintf(buf, size, "%s%sdrag area grows as (t/t_f)^%s over the fill (Knacke 1991)%s",
+             ci ? ci->name : "", ci ? " canopy: " : "", plumbp_gnum(w, j, 3),
+             d->inflation_exponent > 0.0 ? "" : "; linear: no canopy type or exponent given");
+    w->exact = 0;
+    return 1;
 }
 
 /* The inflation curve of a device and where its figures come from. */
@@ -35,48 +87,66 @@ static void text_inflation(writer *w, const plumb_descent_spec *d)
 {
     char line[NUMBUF * 8];
     const plumb_canopy_info *ci = plumb_canopy_info_of(d->canopy);
-    double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
-    if (!(d->fill_time_s > 0.0) && !(d->fill_constant > 0.0)) {
-        /* no fill: the deploy rule already says "opens at once" */
+    if (!plumbp_descent_inflation(w, d, line, sizeof line)) {
         if (ci)
-            wrapped(w, "                   canopy: ", ci->name);
+            wrapped(w, "                   canopy: ", line);
         return;
     }
-    w->exact = 1;
-    snprintf(line, sizeof line, "%s%sdrag area grows as (t/t_f)^%s over the fill (Knacke 1991)%s",
-             ci ? ci->name : "", ci ? " canopy: " : "", plumbp_gnum(w, j, 3),
-             d->inflation_exponent > 0.0 ? "" : "; linear: no canopy type or exponent given");
-    w->exact = 0;
     wrapped(w, "                   ", line);
     if (ci)
         wrapped(w, "                   source: ", ci->source);
 }
 
-/* Pflanz's hand estimate beside the integrated peak. */
-static void text_pflanz(writer *w, const plumb_descent_spec *d, const plumb_fall_result *r,
-                        size_t i, double weight_n)
+/* A force with its load in g: "70.16 N (3.71 g)"; beside the other
+ * system's "70.16 N (15.77 lbf), 3.71 g". */
+static const char *force_g(writer *w, writer *o, double n, double g)
 {
-    char line[NUMBUF * 10];
-    if (!(r->fill_time_s[i] > 0.0)) {
-        wrapped(w, "                   ", "opens at once: no fill, so no Pflanz estimate");
-        return;
-    }
-    if (d->opening_factor > 0.0)
-        snprintf(line, sizeof line,
+    char *b = slot(w);
+    snprintf(b, NUMBUF, o ? "%s, %s" NBSP "g" : "%s (%s" NBSP "g)",
+             plumbp_t_beside(w, o, plumbp_t_force, n), num(w, g, 3));
+    return b;
+}
+
+void plumbp_descent_pflanz(writer *w, writer *o, const plumb_descent_spec *d,
+                           const plumb_fall_result *r, size_t i, double weight_n, char *buf,
+                           size_t size)
+{
+    if (!(r->fill_time_s[i] > 0.0))
+        snprintf(buf, size, "opens at once: no fill, so no Pflanz estimate");
+    else if (d->opening_factor > 0.0)
+        snprintf(buf, size,
                  "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
-                 "X1 %s, C_x %s: opening force %s (%s" NBSP "g)",
+                 "X1 %s, C_x %s: opening force %s",
                  num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
                  num(w, r->pflanz_x1[i], 3), num(w, d->opening_factor, 3),
-                 plumbp_t_force(w, r->pflanz_force_n[i]),
-                 num(w, r->pflanz_force_n[i] / weight_n, 3));
+                 force_g(w, o, r->pflanz_force_n[i], r->pflanz_force_n[i] / weight_n));
     else
-        snprintf(line, sizeof line,
+        snprintf(buf, size,
                  "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
                  "X1 %s: X1 q1 CdS0 %s, times C_x (not known: give canopy or opening_factor)",
                  num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
                  num(w, r->pflanz_x1[i], 3),
-                 plumbp_t_force(w, r->pflanz_x1[i] * r->pflanz_q1s_n[i]));
-    wrapped(w, "                   ", line);
+                 plumbp_t_beside(w, o, plumbp_t_force, r->pflanz_x1[i] * r->pflanz_q1s_n[i]));
+}
+
+void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_result *r, size_t i, char *buf,
+                            size_t size)
+{
+    if (r->deployed[i])
+        snprintf(buf, size,
+                 "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
+                 "air speed",
+                 num(w, r->deploy_time_s[i], TEXT_SIG),
+                 plumbp_t_beside(w, o, plumbp_t_len, r->deploy_height_m[i]),
+                 plumbp_t_beside(w, o, plumbp_t_speed, r->deploy_speed_m_s[i]));
+    else
+        snprintf(buf, size, "does not open before impact");
+}
+
+void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char *buf, size_t size)
+{
+    snprintf(buf, size, "%s, integrated along the fall",
+             force_g(w, o, r->peak_force_n, r->peak_load_g));
 }
 
 /* "the drogue and the parachute do not open", "the parachute does not
@@ -159,12 +229,13 @@ static void devices_counted(const plumb_fall_spec *s, unsigned mask, counted *c)
 
 /* The steady descent speed, worded by what this fall deployed: a device
  * that never opens gives none, so with no device open the figure does not
- * apply; with some open, the figure (with every device open, as in JSON
- * steady_speed_m_s) is not what this fall reaches, and says so. */
-static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_result *r)
+ * apply; with some open, the speed with those (JSON
+ * steady_speed_opened_m_s) and then with every one (steady_speed_m_s). */
+void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
+                           const plumb_fall_result *r, char *line, size_t size)
 {
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
-    char closed[NUMBUF * 2], line[NUMBUF * 12];
+    char closed[NUMBUF * 2];
     counted all, opened;
     unsigned open_mask = 0;
     for (size_t i = 0; i < n; i++)
@@ -173,40 +244,41 @@ static void text_steady(writer *w, const plumb_fall_spec *s, const plumb_fall_re
     devices_counted(s, PLUMBP_ALL_MASK(n), &all);
     if (r->n_deployed == 0) {
         devices_not_open(s, r, closed, sizeof closed);
-        snprintf(line, sizeof line, "does not apply (%s before impact)", closed);
+        snprintf(line, size, "does not apply (%s before impact)", closed);
     } else if (r->n_deployed >= n) {
         if (r->steady_speed_m_s > 0.0)
-            snprintf(line, sizeof line, "%s with %s open%s, at the strike level",
-                     plumbp_t_speed(w, r->steady_speed_m_s), all.names, all.note);
+            snprintf(line, size, "%s with %s open%s, at the strike level",
+                     plumbp_t_beside(w, o, plumbp_t_speed, r->steady_speed_m_s), all.names,
+                     all.note);
         else
-            snprintf(line, sizeof line, "none up to %s even with %s open%s: too little drag",
-                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), all.names, all.note);
+            snprintf(line, size, "none up to %s even with %s open%s: too little drag",
+                     plumbp_t_beside(w, o, plumbp_t_speed, PLUMB_TERMINAL_MAX_M_S), all.names,
+                     all.note);
     } else {
         /* some opened: the speed with those, this fall's, then with all */
         devices_not_open(s, r, closed, sizeof closed);
         devices_counted(s, open_mask, &opened);
-        char with_opened[NUMBUF * 3];
+        char with_opened[NUMBUF * 4];
         if (r->steady_opened_m_s > 0.0)
             snprintf(with_opened, sizeof with_opened, "%s with %s open, as in this fall",
-                     plumbp_t_speed(w, r->steady_opened_m_s), opened.names);
+                     plumbp_t_beside(w, o, plumbp_t_speed, r->steady_opened_m_s), opened.names);
         else
             snprintf(with_opened, sizeof with_opened, "none up to %s with %s open",
-                     plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), opened.names);
+                     plumbp_t_beside(w, o, plumbp_t_speed, PLUMB_TERMINAL_MAX_M_S), opened.names);
         if (strcmp(opened.names, all.names) == 0) /* the same devices count: one figure */
-            snprintf(line, sizeof line, "%s (%s before impact), at the strike level",
-                     with_opened, closed);
+            snprintf(line, size, "%s (%s before impact), at the strike level", with_opened,
+                     closed);
         else if (r->steady_speed_m_s > 0.0)
-            snprintf(line, sizeof line,
-                     "%s (%s before impact); %s with %s open%s; at the strike level",
-                     with_opened, closed, plumbp_t_speed(w, r->steady_speed_m_s), all.names,
+            snprintf(line, size, "%s (%s before impact); %s with %s open%s; at the strike level",
+                     with_opened, closed,
+                     plumbp_t_beside(w, o, plumbp_t_speed, r->steady_speed_m_s), all.names,
                      all.note);
         else
-            snprintf(line, sizeof line,
-                     "%s (%s before impact); none up to %s even with %s open%s",
-                     with_opened, closed, plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S), all.names,
+            snprintf(line, size, "%s (%s before impact); none up to %s even with %s open%s",
+                     with_opened, closed,
+                     plumbp_t_beside(w, o, plumbp_t_speed, PLUMB_TERMINAL_MAX_M_S), all.names,
                      all.note);
     }
-    wrapped(w, "  steady descent   ", line);
 }
 
 void plumbp_text_descent(writer *w, const plumb_item_report *it, const char *who)
@@ -218,28 +290,23 @@ void plumbp_text_descent(writer *w, const plumb_item_report *it, const char *who
     put(w, "\nDescent devices%s%s\n", who ? " of " : "", who ? who : "");
     for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
         const plumb_descent_spec *d = &s->descent[i];
-        char rule[NUMBUF * 4], line[NUMBUF * 8], lead[32];
-        text_deploy_rule(w, d, rule, sizeof rule);
+        char rule[NUMBUF * 4], size[NUMBUF * 2], line[NUMBUF * 8], lead[32];
+        plumbp_descent_rule(w, NULL, d, rule, sizeof rule);
+        plumbp_descent_size(w, NULL, d, size, sizeof size);
         snprintf(lead, sizeof lead, "  %-16s ", plumb_descent_kind_name(d->kind));
-        w->exact = 1;
-        snprintf(line, sizeof line, "Cd %s on %s; %s", plumbp_gnum(w, d->cd, INPUT_SIG),
-                 plumbp_t_area(w, d->area_m2), rule);
-        w->exact = 0;
+        snprintf(line, sizeof line, "%s; %s", size, rule);
         wrapped(w, lead, line);
         text_inflation(w, d);
-        if (r->deployed[i])
-            snprintf(line, sizeof line,
-                     "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
-                     "air speed",
-                     num(w, r->deploy_time_s[i], TEXT_SIG), plumbp_t_len(w, r->deploy_height_m[i]),
-                     plumbp_t_speed(w, r->deploy_speed_m_s[i]));
-        else
-            snprintf(line, sizeof line, "does not open before impact");
+        plumbp_descent_opening(w, NULL, r, i, line, sizeof line);
         wrapped(w, "                   ", line);
-        if (r->deployed[i])
-            text_pflanz(w, d, r, i, s->mass_kg * PLUMB_G0_M_S2);
+        if (r->deployed[i]) {
+            plumbp_descent_pflanz(w, NULL, d, r, i, s->mass_kg * PLUMB_G0_M_S2, line, sizeof line);
+            wrapped(w, "                   ", line);
+        }
     }
-    put(w, "  peak drag force  %s (%s" NBSP "g), integrated along the fall\n",
-        plumbp_t_force(w, r->peak_force_n), num(w, r->peak_load_g, 3));
-    text_steady(w, s, r);
+    char line[NUMBUF * 5];
+    plumbp_descent_peak(w, NULL, r, line, sizeof line);
+    put(w, "  peak drag force  %s\n", line);
+    plumbp_descent_steady(w, NULL, s, r, line, sizeof line);
+    wrapped(w, "  steady descent   ", line);
 }

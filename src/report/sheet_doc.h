@@ -2,7 +2,8 @@
  * sheet_doc.h - what the files of the PDF sheet share (sheet.c: the
  * document; sheet_page.c: its text, pages and footers; sheet_sections.c:
  * its text sections; sheet_plot.c: the side view and the energy plot;
- * sheet_plan.c: the plan view). Internal to libplumb-sheet.
+ * sheet_plan.c: the plan view; sheet_inventory.c: a kit's table;
+ * sheet_descent.c: the descent devices). Internal to libplumb-sheet.
  *
  * Units on the page are PostScript points (1/72 in), y downwards.
  */
@@ -186,5 +187,11 @@ plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag
 void sheet_section_cautions(sheet_doc *d);
 void sheet_section_plots(sheet_doc *d, const plumb_brief *b);
 void sheet_section_plan(sheet_doc *d, const plumb_brief *b);
+/* The descent devices (sheet_descent.c): what each item's fall made of
+ * them (section 2 for one item, the inventory's section for a kit), and
+ * each device as understood (the inputs' section). Nothing when no item
+ * has a device. */
+void sheet_descent_figures(sheet_doc *d, const plumb_brief *b);
+void sheet_descent_inputs(sheet_doc *d, const plumb_brief *b);
 
 #endif /* PLUMB_SHEET_DOC_H */

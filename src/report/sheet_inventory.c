@@ -333,5 +333,7 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
             d->y += h + 1.5;
         }
     }
+    d->running = d->heading;
+    sheet_descent_figures(d, b);
     d->running = NULL;
 }

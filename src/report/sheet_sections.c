@@ -353,6 +353,8 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
     else
         sheet_para(d, font, "No criterion was judged.");
     criteria_sources(d, b);
+    if (b->fall->n_items == 1) /* a kit's are in its table's section */
+        sheet_descent_figures(d, b);
 }
 
 /* ---- 7. inputs and assumptions; 8. cautions ---------------------------------------- */
@@ -399,12 +401,16 @@ plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
     if (st == PLUMB_OK) {
         text_block(d, buf, "\nInputs as understood\n", "\nProfile  ");
+        sheet_descent_inputs(d, b);
+        /* each title kept with its first lines, never alone at a page's foot */
         if (strstr(buf, "\nWarnings\n")) {
             d->y += GAP;
+            sheet_need(d, 3.0 * SHEET_BODY * 1.5);
             sheet_para(d, sheet_fmt(d, "%s Bold %.1f", SHEET_FONT, SHEET_BODY), "Warnings");
             text_block(d, buf, "\nWarnings\n", "\nInputs as understood\n");
         }
         d->y += GAP;
+        sheet_need(d, 4.0 * SHEET_BODY * 1.5);
         sheet_para(d, sheet_fmt(d, "%s Bold %.1f", SHEET_FONT, SHEET_BODY), "The model assumes");
         for (size_t i = 0; i < sizeof assumptions / sizeof assumptions[0]; i++)
             sheet_para(d, font, sheet_fmt(d, "\u2022 %s", assumptions[i]));

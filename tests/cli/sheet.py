@@ -24,6 +24,13 @@ which wrote it):
 - on the energy-against-height plot no criterion's label lies over a curve
   (the page's stroked polylines, read from its content stream) or over
   another label (pdftotext -bbox-layout), with two and with eight criteria.
+- the descent devices: each as understood in the inputs (keyed descent[i]
+  or items[N].descent[i], in deployment order) and what the fall made of
+  it in section 2 (a kit: its table's section), SI and --units us, as
+  `plumb fall --format json` gives them; a canopy that does not open says
+  so; the steady descent against sqrt(2 m g / (rho CdA)) at the U.S.
+  Standard Atmosphere 1976's density; on those pages no words drawn over
+  words (pdftotext -bbox).
 A profile without `uncertainty:` says "no clearance zone: inputs carry no
 uncertainty" in its zone section and still makes a sheet.
 """
@@ -657,6 +664,252 @@ gap = re.sub(r"\s+", " ", "".join(pages_text(pdf_gap)))
 check("no curve at drop heights up to 40.00 m; its parachute deploys below that height" in gap,
       "a curve starting above a deploy height says why")
 os.remove(pdf_gap)
+
+# ---- descent devices: as understood and as the fall used them -----------------------
+# A signed sheet names the canopy assumed: each device as understood in
+# the inputs' section (kind, Cd, area and the diameter it came from, the
+# deploy rule, the fill, the canopy type), keyed as the profile writes it
+# (descent[i], items[N].descent[i]), and what the fall made of it (section
+# 2 for a single payload, the inventory's section for a kit): line
+# stretch or "does not open before impact", Pflanz's opening force, the
+# peak drag force in N and g, the steady descent. Each figure is that of
+# `plumb fall --format json` for the same profile, to the text report's
+# digits, with the other unit system's beside it (US first and SI in
+# brackets under --units us, as the rest of the sheet).
+FT = 0.3048                      # international foot, m (1959 agreement; NIST SP 811 B.8)
+LBF = 0.45359237 * 9.80665       # pound-force, N (avoirdupois pound under standard gravity)
+
+
+def sig(x, n):
+    """x to n significant digits, trailing zeros kept (the text report's num())."""
+    dec = max(0, n - 1 - int(math.floor(math.log10(abs(x))))) if x != 0 else 0
+    return f"{x:.{dec}f}"
+
+
+def g4(x):
+    """An input echoed under --units us: 4 significant digits, zeros dropped (%.4g)."""
+    return f"{x:.4g}"
+
+
+def rho_1976(z_m):
+    """Air density of the U.S. Standard Atmosphere 1976 in its first layer
+    (NOAA-S/T 76-1562, eqs. 18, 33a, 42; transcribed): geopotential height
+    H = r0 z / (r0 + z), T = 288.15 - 0.0065 H, p = 101325 (T / 288.15)^(g0 M0
+    / (R* L)), rho = p M0 / (R* T)."""
+    r0, g0, m0, rs, lapse = 6356766.0, 9.80665, 0.0289644, 8.31432, 0.0065
+    h = r0 * z_m / (r0 + z_m)
+    t = 288.15 - lapse * h
+    p = 101325.0 * (t / 288.15) ** (g0 * m0 / (rs * lapse))
+    return p * m0 / (rs * t)
+
+
+def between(flat, start, end):
+    """The squeezed text from the heading `start` to the next `end`."""
+    a = flat.find(squeeze(start))
+    z = flat.find(squeeze(end), a + 1) if a >= 0 else -1
+    return flat[a:z] if a >= 0 and z > a else ""
+
+
+def words_overlap(pdf):
+    """Pairs of words whose boxes (pdftotext -bbox, 0.6 pt in from each
+    side) overlap on a page that holds the descent devices: text drawn
+    over text."""
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    bad = []
+    for n, page in enumerate(re.findall(r"<page [^>]*>(.*?)</page>", html, re.S), 1):
+        ws = [([float(m.group(i)) for i in range(1, 5)], unescape(m.group(5)))
+              for m in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                                   r'yMax="([\d.]+)">(.*?)</word>', page)]
+        if "devices" not in [w for _, w in ws]:
+            continue
+        ws.sort(key=lambda b: b[0][1])
+        for i, (a, ta) in enumerate(ws):
+            for b, tb in ws[i + 1:]:
+                if b[1] + 0.6 >= a[3] - 0.6:
+                    break
+                if a[0] + 0.6 < b[2] - 0.6 and b[0] + 0.6 < a[2] - 0.6:
+                    bad.append(f"page {n}: {ta!r} over {tb!r}")
+    return bad
+
+
+def check_pages(pdf, what):
+    """Every page keeps its footer; nothing outside the margins or over other text."""
+    ps = pages_text(pdf)
+    for i, p in enumerate(ps, 1):
+        check(f"page {i} of {len(ps)}" in p and "competent or licensed person" in p,
+              f"{what}: page {i}: 'page {i} of {len(ps)}' and the footer's caution")
+    out = bbox_outside(pdf)
+    check(not out, f"{what}: text outside the margins: {out[:5]}")
+    n, bad = grey_margins_blank(pdf)
+    check(n == len(ps) and not bad, f"{what}: grey renders, margins not blank on {bad}")
+    ov = words_overlap(pdf)
+    check(not ov, f"{what}: words drawn over words: {ov[:5]}")
+    return ps
+
+
+# a drone parcel under a 1.5 m canopy opening below 40 m
+parcel = os.path.join(tmp, "parcel.yaml")
+with open(parcel, "w") as f:
+    f.write("name: survey parcel\npayload:\n  mass: 2.385 kg\n"
+            "  drag: {cd: 1.05, area: 0.0317 m^2}\n"
+            "descent: {kind: parachute, cd: 0.8, diameter: 1.5 m, deploy: {below: 40 m}, "
+            "fill_time: 0.6 s}\nrelease: {height: 121.6 m}\nsite: {elevation: 213 m}\n"
+            "criteria: [eu-c1-80j]\n")
+_, pj, _ = plumb("fall", parcel, "--format", "json")
+pj = json.loads(pj)
+dev = pj["descent"]["devices"][0]
+area = math.pi * 1.5 ** 2 / 4.0  # a circle's area from its diameter, pi D^2 / 4
+check(dev["deployed"] and abs(dev["area_m2"] - area) < 1e-12 * area,
+      f"parcel: plumb fall opens the canopy of pi D^2/4 = {area} m²: {dev['area_m2']}")
+ls = dev["line_stretch"]
+steady = pj["descent"]["steady_speed_m_s"]
+for units in ("si", "us"):
+    pdf_p = os.path.join(tmp, f"parcel-{units}.pdf")
+    rc, _, err = run("sheet", parcel, "-o", pdf_p, "--units", units)
+    check(rc == 0, f"parcel, {units}: exit {rc}: {err}")
+    ps = check_pages(pdf_p, f"parcel, {units}")
+    flat = squeeze(" ".join(ps))
+    us = units == "us"
+
+    def pair(si_text, us_text):
+        return f"{us_text} [{si_text}]" if us else f"{si_text} ({us_text})"
+
+    answer = between(flat, "2. The answer", "3. Side view")
+    inputs = between(flat, "6. Inputs as understood", "The model assumes")
+    want_in = ("descent[0], parachute: Cd 0.8 on "
+               + pair(f"{area:.6g} m²", f"{g4(area / FT ** 2)} ft²") + ", from a diameter of "
+               + pair("1.5 m", f"{g4(1.5 / FT)} ft") + "; deploys below "
+               + pair("40 m", f"{g4(40 / FT)} ft") + ", fills in 0.6 s")
+    check(squeeze(want_in) in inputs, f"parcel, {units}: the device as understood in the inputs: "
+                                      f"{want_in!r}")
+    want_open = ("descent[0], parachute: opens; line stretch " + sig(ls["time_s"], 4)
+                 + " s after release, " + pair(f"{sig(ls['height_m'], 4)} m",
+                                               f"{sig(ls['height_m'] / FT, 4)} ft")
+                 + " above the strike level, at " + pair(f"{sig(ls['airspeed_m_s'], 4)} m/s",
+                                                         f"{sig(ls['airspeed_m_s'] / FT, 4)} ft/s")
+                 + f" air speed; fill time {sig(dev['fill_time_used_s'], 4)} s")
+    check(squeeze(want_open) in answer, f"parcel, {units}: section 2 says when and where it "
+                                        f"opened: {want_open!r}")
+    pk = pj["descent"]["peak_force_n"]
+    want_peak = ("Peak drag force " + pair(f"{sig(pk, 4)} N", f"{sig(pk / LBF, 4)} lbf")
+                 + f", {sig(pj['descent']['peak_load_g'], 3)} g, integrated along the fall.")
+    check(squeeze(want_peak) in answer, f"parcel, {units}: the peak drag force: {want_peak!r}")
+    want_st = ("Steady descent " + pair(f"{sig(steady, 4)} m/s", f"{sig(steady / FT, 4)} ft/s")
+               + " with the parachute open, at the strike level.")
+    check(squeeze(want_st) in answer, f"parcel, {units}: the steady descent: {want_st!r}")
+    os.remove(pdf_p)
+# the steady descent against its closed form, v = sqrt(2 m g / (rho sum CdA))
+# (terminal speed: weight equals drag), the canopy's CdA and the body's in
+# parallel, rho the U.S. Standard Atmosphere 1976 at the strike level
+air = pj["inputs"]["atmosphere"]["strike_level"]["density_kg_m3"]
+rho = rho_1976(213.0)
+check(abs(air - rho) < 1e-5 * rho, f"parcel: the strike level's air {air} is the 1976 standard's {rho}")
+cda = 0.8 * area + 1.05 * 0.0317
+v = math.sqrt(2 * 2.385 * 9.80665 / (rho * cda))
+check(abs(steady - v) < 1e-5 * v and sig(v, 4) in sig(steady, 4),
+      f"parcel: steady descent {steady} m/s, closed form {v} m/s")
+# and the canopy alone, with the body made drag-free (cd 0)
+_, pj0, _ = plumb("fall", parcel, "--format", "json", "--set", "payload.drag.cd=0")
+s0 = json.loads(pj0)["descent"]["steady_speed_m_s"]
+v0 = math.sqrt(2 * 2.385 * 9.80665 / (rho * 0.8 * area))
+pdf_0 = os.path.join(tmp, "parcel0.pdf")
+rc, _, err = run("sheet", parcel, "-o", pdf_0, "--set", "payload.drag.cd=0")
+flat = squeeze(" ".join(pages_text(pdf_0)))
+check(rc == 0 and abs(s0 - v0) < 1e-5 * v0
+      and squeeze(f"Steady descent {sig(v0, 4)} m/s ({sig(v0 / FT, 4)} ft/s)") in flat,
+      f"parcel, canopy alone: the sheet gives sqrt(2 m g / (rho Cd A)) = {v0} m/s (JSON {s0})")
+os.remove(pdf_0)
+
+# a canopy that does not open: the sheet says so, in the text report's words
+pdf_n = os.path.join(tmp, "noopen.pdf")
+late = ("--set", "descent.deploy=~", "--set", "descent.deploy.after=30 s")
+rc, _, err = run("sheet", parcel, "-o", pdf_n, *late)
+check(rc == 0, f"a canopy that does not open: exit {rc}: {err}")
+_, nj, _ = plumb("fall", parcel, "--format", "json", *late)
+_, nt, _ = plumb("fall", parcel, *late)
+nflat = re.sub(r"\s+", " ", nt)
+m_st = re.search(r"steady descent (.*?) Warnings", nflat)
+answer = between(squeeze(" ".join(check_pages(pdf_n, "no opening"))), "2. The answer", "3. Side view")
+check(not json.loads(nj)["descent"]["devices"][0]["deployed"]
+      and squeeze("descent[0], parachute: does not open before impact.") in answer,
+      "a canopy that does not open: section 2 says 'does not open before impact'")
+check(m_st is not None and m_st.group(1).startswith("does not apply")
+      and squeeze(f"Steady descent {m_st.group(1)}.") in answer,
+      f"a canopy that does not open: the steady descent in the text report's words: "
+      f"{m_st.group(1) if m_st else None!r}")
+os.remove(pdf_n)
+
+# the demo canopy: a canopy type, so Pflanz's opening force in N and in g
+can = os.path.join(ROOT, "profiles/demo/drone-canopy.yaml")
+_, cj, _ = plumb("fall", can, "--format", "json")
+cdev = json.loads(cj)["descent"]["devices"][0]
+pf = cdev["pflanz"]
+pdf_c = os.path.join(tmp, "canopy-us.pdf")
+rc, _, err = run("sheet", can, "-o", pdf_c, "--samples", "400", "--units", "us")
+cflat = squeeze(" ".join(check_pages(pdf_c, "canopy, us")))
+check(rc == 0 and squeeze(f"opening force {sig(pf['opening_force_n'] / LBF, 4)} lbf "
+                          f"[{sig(pf['opening_force_n'], 4)} N], {sig(pf['opening_load_g'], 3)} g")
+      in between(cflat, "2. The answer", "3. Side view"),
+      "canopy, us: Pflanz's opening force in lbf [N] and g, as plumb fall's JSON")
+check(squeeze(f"from a diameter of {g4(1.1 / FT)} ft [1.1 m]; deploys 1.2 s after release, fills in "
+              "n D0 / v with n = 8; flat-circular canopy: drag area grows as (t/t_f)^6") in cflat,
+      "canopy, us: the canopy type and its inflation in the inputs")
+os.remove(pdf_c)
+
+# a kit: items with their own devices (two on one item, the second not
+# opening) and an item taking the profile's `descent:`
+kitd = os.path.join(tmp, "kitd.yaml")
+with open(kitd, "w") as f:
+    f.write('name: canopies & kit\nitems:\n'
+            '  - name: "beacon <A>"\n    mass: 2.385 kg\n    drag: {cd: 0.93, area: 0.0217 m^2}\n'
+            '    descent:\n'
+            '      - {kind: drogue, cd: 0.6, area: 0.2 m^2, deploy: {after: 0.5 s}}\n'
+            '      - {kind: parachute, cd: 0.8, diameter: 1.3 m, deploy: {after: 9.5 s}, '
+            'canopy: flat-circular}\n'
+            '  - name: spanner\n    mass: 0.312 kg\n    drag: {cd: 1.0, area: 0.0031 m^2}\n'
+            '  - name: marker bag\n    mass: 1.93 kg\n    drag: {cd: 1.05, area: 0.0187 m^2}\n'
+            '    descent: {kind: streamer, cd: 0.35, area: 0.12 m^2, deploy: {after: 1.1 s}, '
+            'fill_time: 0.3 s}\n'
+            'descent: {kind: parachute, cd: 0.8, diameter: 1.5 m, deploy: {below: 40 m}, '
+            'fill_time: 0.6 s}\n'
+            'release: {height: 63.2 m}\ncriteria: [eu-c1-80j, us-part107-cat3]\n')
+_, kj, _ = plumb("fall", kitd, "--format", "json")
+kitems = json.loads(kj)["items"]
+for units in ("si", "us"):
+    pdf_k = os.path.join(tmp, f"kitd-{units}.pdf")
+    rc, _, err = run("sheet", kitd, "-o", pdf_k, "--units", units)
+    check(rc == 0, f"kit with devices, {units}: exit {rc}: {err}")
+    flat = squeeze(" ".join(check_pages(pdf_k, f"kit with devices, {units}")))
+    us = units == "us"
+    sec6 = between(flat, "6. Every item", "7. Inputs as understood")
+    inputs = between(flat, "7. Inputs as understood", "The model assumes")
+    # each item's devices keyed as the profile writes them, in deployment
+    # order; the profile's descent: once
+    keys = [("descent[0] (for every item without its own), parachute:", "descent[0]"),
+            ("items[1].descent[0] (beacon <A>), drogue:", "items[1]"),
+            ("items[1].descent[1] (beacon <A>), parachute:", "items[1]"),
+            ("items[3].descent[0] (marker bag), streamer:", "items[3]")]
+    at = [inputs.find(squeeze(k)) for k, _ in keys]
+    check(all(p >= 0 for p in at) and at == sorted(at) and inputs.count(squeeze(keys[0][0])) == 1,
+          f"kit, {units}: every device as understood, keyed and in order: {at}")
+    for it in kitems:
+        own = it["name"] != "spanner"
+        for i, dv in enumerate(it["descent"]["devices"]):
+            key = f"items[{it['item_number']}].descent[{i}]" if own else f"descent[{i}]"
+            if dv["deployed"]:
+                h = dv["line_stretch"]["height_m"]
+                hs = f"{sig(h / FT, 4)} ft [{sig(h, 4)} m]" if us else f"{sig(h, 4)} m ({sig(h / FT, 4)} ft)"
+                want = (f"{key}, {dv['kind']}: opens; line stretch {sig(dv['line_stretch']['time_s'], 4)}"
+                        f" s after release, {hs} above the strike level")
+            else:
+                want = f"{key}, {dv['kind']}: does not open before impact."
+            check(squeeze(want) in sec6, f"kit, {units}: {it['name']}: {want!r} in section 6")
+        # the first figure is this fall's: with the devices it opened
+        st = it["descent"]["steady_speed_opened_m_s"] or it["descent"]["steady_speed_m_s"]
+        sts = f"{sig(st / FT, 4)} ft/s [{sig(st, 4)} m/s]" if us else f"{sig(st, 4)} m/s ({sig(st / FT, 4)} ft/s)"
+        check(squeeze(f"Steady descent {sts}") in sec6,
+              f"kit, {units}: {it['name']}: steady descent {sts} in section 6")
+    os.remove(pdf_k)
 
 # ---- several profiles: one document ------------------------------------------------
 both = os.path.join(tmp, "both.pdf")
