@@ -7,33 +7,34 @@
  *
  * Setting an error aside is an edit of a copy of the parsed tree, never of
  * the text:
- *   - a numeric value that is refused (a bare number, a wrong unit, out of
- *     range, refused against another key) is replaced by a stand-in of
- *     the key's dimension in its range: the number written, in SI units,
- *     when it is one the key takes (so that checks against other keys see
- *     what the user most likely meant), else a plain value (1, 0.5, 0 ...)
- *     that the loader does not refuse at that place. The key stays
- *     written, so that nothing that depends on its presence changes;
- *   - a word refused with a did-you-mean is replaced by that word;
- *   - anything else (an unknown key, a map where a value was wanted, text)
- *     is left out.
+ *   - a value that is refused (a bare number, a wrong unit, out of range,
+ *     refused against another key, a word not in the key's list) is
+ *     replaced by a stand-in the loader takes at that place, so that the
+ *     key stays written and nothing that depends on its presence changes.
+ *     A number's stand-ins, tried in order: the number written, in SI
+ *     units, when it is one the key takes (what the user most likely
+ *     meant), then plain values (1, 0.5, 0, 10, 100 ... in the key's
+ *     range); a word's: its did-you-mean, then the key's words;
+ *   - anything else (an unknown key, a map where a value was wanted, text,
+ *     a list's item) is left out.
  * An error that is only a consequence of one set aside is not listed:
- *   - a required key now missing because its value was left out: the
- *     value gets a stand-in if the key is numeric, else the check stops;
+ *   - one that another stand-in of the same key avoids (a deploy height
+ *     of 60 m "not below" a release height -3 m stood in as 1 m): the
+ *     other stand-in is kept from then on, and the first is not tried
+ *     again, so that the check cannot go back and forth;
+ *   - a required key now missing because its value was left out: a
+ *     numeric one gets a stand-in, else the check stops;
  *   - a required key now missing whose misspelt twin (the unknown key of
  *     the same map whose did-you-mean it is) was listed: the misspelt key
- *     is read as the right one from then on, and its value is checked;
+ *     is read as the right one from then on, and its value checked;
+ *   - a list or map found wanting once a part of it was left out (a
+ *     choice of one attitude once the other was): left out in turn;
  *   - a key missing under a map that was left out, or missing where a key
  *     of the same name was written one level too high: the check stops;
  *   - an error at the place of a stand-in: the check stops.
  * A required numeric key missing on its own is listed and given a stand-in
  * where it should be, so that the check goes on. An error outside the file
  * (a --set), or one that is not the user's (out of memory), stops it.
- *
- * Limits: a stand-in is a guess; a check of one key against another may
- * still meet the guess instead of the user's value (a release height given
- * as -3 m checked as 1 m against a deploy height of 60 m) and list an error
- * that would not remain once the first is fixed.
  */
 #include <math.h>
 #include <stdio.h>
@@ -44,13 +45,12 @@
 #include "io/profile_int.h"
 
 /* Most edits of one check (each error listed makes at most one, each
- * consequence turns one into another). */
-enum { LINT_EDITS = 64 };
+ * consequence turns one into another), and most stand-ins of one. */
+enum { LINT_EDITS = 64, LINT_CANDS = 12 };
 
 typedef enum ed_kind {
     ED_REMOVE = 0, /* the pair or list item left out */
-    ED_NUMBER,     /* its value replaced by a stand-in number */
-    ED_WORD,       /* its value replaced by the word in `name` */
+    ED_STAND,      /* its value replaced by a stand-in */
     ED_RENAME,     /* the pair read under the key `name` */
     ED_INSERT      /* key `name` added to the map at `key`'s parent, with a stand-in */
 } ed_kind;
@@ -59,9 +59,11 @@ typedef struct edit {
     ed_kind kind;
     int line, col;              /* the error's place: the pair's key or value, or the map */
     char key[PLUMB_DIAG_KEY];   /* the error's dotted key */
-    char name[PLUMB_DIAG_KEY];  /* ED_WORD: the word; ED_RENAME, ED_INSERT: the key */
-    char text[96];              /* ED_NUMBER, ED_INSERT: the stand-in as written */
-    int listed;                 /* 1: the error is listed (0: a consequence) */
+    char name[PLUMB_DIAG_KEY];  /* ED_RENAME, ED_INSERT: the key */
+    char cand[LINT_CANDS][64];  /* ED_STAND, ED_INSERT: the stand-ins as written */
+    size_t n_cand;              /* entries in cand */
+    size_t cur;                 /* the stand-in in use */
+    unsigned dropped;           /* bit i: cand[i] is not to be used again */
 } edit;
 
 typedef struct lint_run {
@@ -213,7 +215,7 @@ static plumb_status apply_one(plumby_node *root, const edit *e)
                                ? node_at(root, parent) : NULL;
         if (!map || map->kind != PLUMBY_MAP || plumby_find(map, e->name))
             return PLUMB_OK;
-        plumby_node *v = scalar(e->text, e->line, e->col);
+        plumby_node *v = scalar(e->cand[e->cur], e->line, e->col);
         if (!v)
             return PLUMB_ENOMEM;
         if (plumby_map_push(map, e->name, e->line, e->col, PLUMBY_FROM_FILE, v) != PLUMB_OK) {
@@ -242,11 +244,10 @@ static plumb_status apply_one(plumby_node *root, const edit *e)
         }
         parent->n--;
         return PLUMB_OK;
-    case ED_NUMBER:
-    case ED_WORD: {
+    case ED_STAND: {
         const plumby_node *old = *slot;
-        plumby_node *v = scalar(e->kind == ED_NUMBER ? e->text : e->name,
-                                old ? old->line : e->line, old ? old->col : e->col);
+        plumby_node *v = scalar(e->cand[e->cur], old ? old->line : e->line,
+                                old ? old->col : e->col);
         if (!v)
             return PLUMB_ENOMEM;
         plumby_free(*slot);
@@ -302,69 +303,144 @@ static plumb_status try_build(const lint_run *r, size_t n, plumb_diag *d, plumb_
     return st;
 }
 
-/* The stand-ins of a numeric key, in the order tried: the number written
- * (node, may be NULL), in SI units if it has a unit the key takes, then
- * plain values. Those in the key's range go into v (at most 10); their
- * count. */
-static size_t stand_ins(const lint_run *r, const plumby_schema *s, const plumby_node *node,
-                        const char *dkey, double v[10])
+/* Adds a stand-in to e unless it has it or is full. */
+static void add_cand(edit *e, const char *text)
 {
+    for (size_t i = 0; i < e->n_cand; i++)
+        if (strcmp(e->cand[i], text) == 0)
+            return;
+    if (e->n_cand < LINT_CANDS && strlen(text) < sizeof e->cand[0])
+        plumbp_strlcpy(e->cand[e->n_cand++], text, sizeof e->cand[0]);
+}
+
+/* The stand-ins of key e->key, of schema s, whose value was node (NULL:
+ * it is missing) into e->cand, in the order tried (the top of this file):
+ * how many. */
+static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
+                        const plumby_node *node)
+{
+    e->n_cand = 0;
+    e->cur = 0;
+    e->dropped = 0;
+    const char *text = node && node->kind == PLUMBY_SCALAR ? node->text : NULL;
+    if (s && s->type == PLUMBY_T_WORD && s->words) {
+        const char *best = text ? plumb_suggest_closest(text, s->words, s->n_words) : NULL;
+        if (best)
+            add_cand(e, best);
+        for (size_t i = 0; i < s->n_words; i++)
+            add_cand(e, s->words[i]);
+        return e->n_cand;
+    }
+    if (!s || s->type != PLUMBY_T_NUM)
+        return 0;
     plumb_dim dim = plumby_num_dim(s);
     plumby_range range = plumby_num_range(s);
     double c[12];
-    size_t nc = 0, n = 0;
-    if (node && node->kind == PLUMBY_SCALAR && node->text) {
+    size_t nc = 0;
+    if (text) {
         plumby_ctx ctx;
         memset(&ctx, 0, sizeof ctx);
         ctx.file = r->name;
         ctx.units = r->units;
         double q;
         char *end;
-        if (plumby_quantity(&ctx, node, dim, dkey, &q) == PLUMB_OK)
+        if (plumby_quantity(&ctx, node, dim, e->key, &q) == PLUMB_OK)
             c[nc++] = q;
-        q = strtod(node->text, &end);
-        if (end != node->text)
+        q = strtod(text, &end);
+        if (end != text)
             c[nc++] = q;
     }
     static const double plain[] = {1.0, 0.5, 0.0, 10.0, 100.0, 0.1, 1000.0, 0.01};
     for (size_t i = 0; i < sizeof plain / sizeof plain[0]; i++)
         c[nc++] = plain[i];
-    for (size_t i = 0; i < nc && n < 10; i++) {
-        int dup = 0;
-        for (size_t j = 0; j < n; j++)
-            dup |= v[j] == c[i];
-        if (isfinite(c[i]) && plumby_range_ok(range, c[i]) && !dup)
-            v[n++] = c[i];
+    int bare = dim == PLUMB_DIM_NONE || dim == PLUMB_DIM_FRACTION;
+    for (size_t i = 0; i < nc; i++) {
+        if (!isfinite(c[i]) || !plumby_range_ok(range, c[i]))
+            continue;
+        char t[64];
+        snprintf(t, sizeof t, "%.17g%s%s", c[i], bare ? "" : " ",
+                 bare ? "" : plumb_dim_si_unit(dim));
+        add_cand(e, t);
     }
-    return n;
+    return e->n_cand;
 }
 
-/* Makes edit e (its kind, line, col and key set, n_ed edits before it) a
- * stand-in for the numeric key of schema s, whose value node was `node`
- * (NULL: it is missing): the first stand-in after which the check no
- * longer stops at the same place. 0 when none does (e unchanged). */
-static int give_stand_in(lint_run *r, edit *e, const plumby_schema *s, const plumby_node *node)
+/* 1 when error d is at the place of a stand-in (any when e is NULL, else
+ * e's). */
+static int at_stand_in(const lint_run *r, const edit *e, const plumb_diag *d)
 {
-    if (!s || s->type != PLUMBY_T_NUM)
-        return 0;
-    double v[10];
-    size_t n = stand_ins(r, s, node, e->key, v);
-    plumb_dim dim = plumby_num_dim(s);
-    int bare = dim == PLUMB_DIM_NONE || dim == PLUMB_DIM_FRACTION;
-    edit keep = *e;
-    for (size_t i = 0; i < n; i++) {
-        snprintf(e->text, sizeof e->text, "%.17g%s%s", v[i], bare ? "" : " ",
-                 bare ? "" : plumb_dim_si_unit(dim));
-        plumb_diag d;
-        size_t at = (size_t)(e - r->ed) + 1;
-        plumb_status st = try_build(r, at > r->n_ed ? at : r->n_ed, &d, NULL);
-        if (st == PLUMB_ENOMEM)
-            break;
-        if (st == PLUMB_OK || d.line != e->line || d.col != e->col ||
-            strcmp(d.key, e->key) != 0)
+    for (size_t i = 0; i < r->n_ed; i++) {
+        const edit *x = &r->ed[i];
+        if ((e ? x == e : x->kind != ED_REMOVE) && x->line == d->line && x->col == d->col)
             return 1;
     }
-    *e = keep;
+    return e && e->line == d->line && e->col == d->col;
+}
+
+/* Makes e (its line, col and key set; a new edit at r->ed[r->n_ed] or one
+ * of them) a stand-in of this kind (ED_STAND, ED_INSERT) for the key of
+ * schema s, whose value node was `node` (NULL: missing): the first of its
+ * stand-ins after which the check no longer stops at its place. 0 when
+ * none does (e's kind unchanged). */
+static int give_stand_in(lint_run *r, edit *e, ed_kind kind, const plumby_schema *s,
+                         const plumby_node *node)
+{
+    ed_kind was = e->kind;
+    e->kind = kind;
+    size_t n = stand_ins(r, e, s, node);
+    size_t upto = (size_t)(e - r->ed) + 1;
+    if (upto < r->n_ed)
+        upto = r->n_ed;
+    for (size_t i = 0; i < n; i++) {
+        e->cur = i;
+        plumb_diag d;
+        plumb_status st = try_build(r, upto, &d, NULL);
+        if (st == PLUMB_ENOMEM)
+            break;
+        if (st == PLUMB_OK || !at_stand_in(r, e, &d))
+            return 1;
+        e->dropped |= 1u << i;
+    }
+    e->n_cand = 0;
+    e->kind = was;
+    return 0;
+}
+
+/* 1 when the two errors are the same. */
+static int same_error(const plumb_diag *a, const plumb_diag *b)
+{
+    return a->status == b->status && a->line == b->line && a->col == b->col &&
+           strcmp(a->key, b->key) == 0 && strcmp(a->message, b->message) == 0;
+}
+
+/* Whether error d follows from a stand-in: 1 when another stand-in of one
+ * key avoids it (that one is used from then on, the one before never
+ * again); 0 when every other gives d again (or stops at a stand-in's
+ * place), so that d is an error of its own. */
+static int follows_from_stand_in(lint_run *r, const plumb_diag *d)
+{
+    for (size_t i = 0; i < r->n_ed; i++) {
+        edit *e = &r->ed[i];
+        if (e->kind != ED_STAND && e->kind != ED_INSERT)
+            continue;
+        size_t keep = e->cur;
+        for (size_t k = 0; k < e->n_cand; k++) {
+            if (k == keep || (e->dropped & (1u << k)))
+                continue;
+            e->cur = k;
+            plumb_diag d2;
+            plumb_status st = try_build(r, r->n_ed, &d2, NULL);
+            if (st == PLUMB_ENOMEM)
+                break;
+            if (st != PLUMB_OK && (!plumb_status_is_input_error(st) || at_stand_in(r, NULL, &d2)))
+                continue;
+            if (st == PLUMB_OK || !same_error(&d2, d)) {
+                e->dropped |= 1u << keep;
+                return 1;
+            }
+        }
+        e->cur = keep;
+    }
     return 0;
 }
 
@@ -388,17 +464,17 @@ static int absent_consequence(lint_run *r, const plumb_diag *d)
                 const plumby_node *old = NULL;
                 if (t && find_at(t, e->line, e->col, e->key, &parent, &j))
                     old = parent->kind == PLUMBY_MAP ? parent->pairs[j].value : parent->items[j];
-                e->kind = ED_NUMBER;
-                int ok = give_stand_in(r, e, schema_of(e->key), old);
+                int ok = give_stand_in(r, e, ED_STAND, schema_of(e->key), old);
                 plumby_free(t);
                 if (ok)
                     return 1;
-                e->kind = ED_REMOVE;
             }
             return -1;
         }
         if (key_holds(e->key, d->key))
             return -1; /* under a map left out */
+        if (e->kind == ED_REMOVE && key_holds(d->key, e->key))
+            return -1; /* a map left out in turn (above), now missing */
         if (e->kind != ED_REMOVE || !dsplit || !split_key(e->key, epar, sizeof epar, &elast))
             continue;
         if (strcmp(epar, dpar) == 0) {
@@ -438,30 +514,24 @@ static int set_aside(lint_run *r, const plumb_diag *d)
     plumby_node *t = edited(r, r->n_ed);
     plumby_node *parent;
     size_t i;
-    if (!t || !find_at(t, d->line, d->col, d->key, &parent, &i)) {
-        plumby_free(t);
-        return 0;
-    }
-    const plumby_node *v = parent->kind == PLUMBY_MAP ? parent->pairs[i].value : parent->items[i];
-    const plumby_schema *s = schema_of(d->key);
-    edit *e = new_edit(r, d, ED_NUMBER);
-    int ok = e != NULL;
-    if (ok && s && s->type == PLUMBY_T_NUM && give_stand_in(r, e, s, v)) {
-        r->n_ed++;
-    } else if (ok && s && s->type == PLUMBY_T_WORD && s->words && v &&
-               v->kind == PLUMBY_SCALAR && v->text &&
-               plumb_suggest_closest(v->text, s->words, s->n_words)) {
-        e->kind = ED_WORD;
-        plumbp_strlcpy(e->name,
-                       plumb_suggest_closest(v->text, s->words, s->n_words),
-                       sizeof e->name);
-        r->n_ed++;
-    } else if (ok) {
-        e->kind = ED_REMOVE;
+    edit *e = NULL;
+    if (t && find_at(t, d->line, d->col, d->key, &parent, &i) && (e = new_edit(r, d, ED_REMOVE))) {
+        const plumby_node *v =
+            parent->kind == PLUMBY_MAP ? parent->pairs[i].value : parent->items[i];
+        (void)give_stand_in(r, e, ED_STAND, schema_of(d->key), v);
         r->n_ed++;
     }
     plumby_free(t);
-    return ok;
+    return e != NULL;
+}
+
+/* 1 when error d is about a map or list that holds a part left out. */
+static int holds_left_out(const lint_run *r, const plumb_diag *d)
+{
+    for (size_t i = 0; i < r->n_ed; i++)
+        if (r->ed[i].kind == ED_REMOVE && key_holds(d->key, r->ed[i].key))
+            return 1;
+    return 0;
 }
 
 /* 1 when error d is at the place of a stand-in, or a key already listed. */
@@ -470,10 +540,7 @@ static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag 
     for (size_t i = 0; i < n; i++)
         if (strcmp(errs[i].key, d->key) == 0)
             return 1;
-    for (size_t i = 0; i < r->n_ed; i++)
-        if (r->ed[i].kind != ED_REMOVE && r->ed[i].line == d->line && r->ed[i].col == d->col)
-            return 1;
-    return 0;
+    return at_stand_in(r, NULL, d);
 }
 
 plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const plumby_node *tree,
@@ -494,7 +561,7 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
     r->n_sets = n_sets;
     plumb_status first = PLUMB_OK;
     /* each pass lists an error or turns a consequence into an edit */
-    for (size_t pass = 0; *n < max && pass < 2 * LINT_EDITS; pass++) {
+    for (size_t pass = 0; *n < max && pass < 4 * LINT_EDITS; pass++) {
         plumb_diag d;
         plumb_profile *p = NULL;
         plumb_status st = try_build(r, r->n_ed, &d, r->n_ed == 0 && out ? &p : NULL);
@@ -511,6 +578,8 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             }
             break;
         }
+        if (follows_from_stand_in(r, &d))
+            continue;
         plumby_node *t = edited(r, r->n_ed);
         plumby_node *parent;
         size_t i;
@@ -533,13 +602,22 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             if (!e)
                 break;
             plumbp_strlcpy(e->name, last, sizeof e->name);
-            if (!give_stand_in(r, e, schema_of(d.key), NULL))
+            if (!give_stand_in(r, e, ED_INSERT, schema_of(d.key), NULL))
                 break;
             r->n_ed++;
             continue;
         }
         if (no_progress(r, &d, errs, *n))
             break;
+        if (holds_left_out(r, &d)) {
+            /* a list or map found wanting once a part of it was left out:
+             * left out as well, not listed */
+            edit *e = new_edit(r, &d, ED_REMOVE);
+            if (!e)
+                break;
+            r->n_ed++;
+            continue;
+        }
         errs[(*n)++] = d;
         if (first == PLUMB_OK)
             first = st;
