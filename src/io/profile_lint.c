@@ -413,37 +413,6 @@ static int same_error(const plumb_diag *a, const plumb_diag *b)
            strcmp(a->key, b->key) == 0 && strcmp(a->message, b->message) == 0;
 }
 
-/* Whether error d follows from a stand-in: 1 when another stand-in of one
- * key avoids it (that one is used from then on, the one before never
- * again); 0 when every other gives d again (or stops at a stand-in's
- * place), so that d is an error of its own. */
-static int follows_from_stand_in(lint_run *r, const plumb_diag *d)
-{
-    for (size_t i = 0; i < r->n_ed; i++) {
-        edit *e = &r->ed[i];
-        if (e->kind != ED_STAND && e->kind != ED_INSERT)
-            continue;
-        size_t keep = e->cur;
-        for (size_t k = 0; k < e->n_cand; k++) {
-            if (k == keep || (e->dropped & (1u << k)))
-                continue;
-            e->cur = k;
-            plumb_diag d2;
-            plumb_status st = try_build(r, r->n_ed, &d2, NULL);
-            if (st == PLUMB_ENOMEM)
-                break;
-            if (st != PLUMB_OK && (!plumb_status_is_input_error(st) || at_stand_in(r, NULL, &d2)))
-                continue;
-            if (st == PLUMB_OK || !same_error(&d2, d)) {
-                e->dropped |= 1u << keep;
-                return 1;
-            }
-        }
-        e->cur = keep;
-    }
-    return 0;
-}
-
 /* What an error about a key that is not written (a required key missing,
  * or a check of a map) follows from: 1 when it is a consequence of an
  * edit, now changed so that the check goes on; -1 when it is one and the
@@ -523,6 +492,68 @@ static int set_aside(lint_run *r, const plumb_diag *d)
     }
     plumby_free(t);
     return e != NULL;
+}
+
+/* The first error of the check once error d (written in the tree) is set
+ * aside as well: 1 with *ref, or with *loads 1 when the profile then
+ * loads; 0 when d cannot be set aside or the check then fails otherwise.
+ * The edits are as before. */
+static int error_after(lint_run *r, const plumb_diag *d, plumb_diag *ref, int *loads)
+{
+    size_t n0 = r->n_ed;
+    *loads = 0;
+    if (!set_aside(r, d) || r->n_ed == n0) {
+        r->n_ed = n0;
+        return 0;
+    }
+    plumb_status st = try_build(r, r->n_ed, ref, NULL);
+    r->n_ed = n0;
+    *loads = st == PLUMB_OK;
+    return st == PLUMB_OK || plumb_status_is_input_error(st);
+}
+
+/* Whether error d follows from a stand-in: 1 when another stand-in of one
+ * key avoids it (that one is used from then on, the one before never
+ * again); 0 when none does, so that d is an error of its own. Another
+ * stand-in avoids d when the profile then loads, or when the check then
+ * stops where it would stop with d set aside: not at an error of that
+ * stand-in's own making, met before d (an unknown wind profile stood in
+ * as 'table' would stop at the table missing, and prove nothing). */
+static int follows_from_stand_in(lint_run *r, const plumb_diag *d)
+{
+    plumb_diag ref;
+    int ref_loads = 0, have_ref = -1;
+    for (size_t i = 0; i < r->n_ed; i++) {
+        edit *e = &r->ed[i];
+        if (e->kind != ED_STAND && e->kind != ED_INSERT)
+            continue;
+        size_t keep = e->cur;
+        for (size_t k = 0; k < e->n_cand; k++) {
+            if (k == keep || (e->dropped & (1u << k)))
+                continue;
+            e->cur = k;
+            plumb_diag d2;
+            plumb_status st = try_build(r, r->n_ed, &d2, NULL);
+            if (st == PLUMB_ENOMEM)
+                break;
+            if (st != PLUMB_OK && (!plumb_status_is_input_error(st) || at_stand_in(r, NULL, &d2) ||
+                                   same_error(&d2, d)))
+                continue;
+            if (st != PLUMB_OK) {
+                if (have_ref < 0) {
+                    e->cur = keep;
+                    have_ref = error_after(r, d, &ref, &ref_loads);
+                    e->cur = k;
+                }
+                if (!have_ref || ref_loads || !same_error(&d2, &ref))
+                    continue;
+            }
+            e->dropped |= 1u << keep;
+            return 1;
+        }
+        e->cur = keep;
+    }
+    return 0;
 }
 
 /* 1 when error d is about a map or list that holds a part left out. */

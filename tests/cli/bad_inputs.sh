@@ -170,6 +170,12 @@ lint_lists "of a deploy height above the release" "$tmp/deploy2.yaml" \
 # refused as "not used with profile uniform"
 printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.01 m^2}}\nrelease: {height: 30 m}\nwind: {profile: xyz, speed: 5 kn, from: 270 deg, exponent: 0.2}\n' >"$tmp/xyz.yaml"
 lint_lists "of an unknown wind profile with an exponent" "$tmp/xyz.yaml" "3:17 wind.profile;"
+# a misspelt wind profile among bare numbers of the wind: another stand-in
+# of the profile ('table') stops before the bare speed, at errors of its own
+# making (table missing, speed "not used"), which prove nothing
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.01 m^2}}\nrelease: {height: 30 m}\nwind:\n  profile: powr\n  speed: 8\n  from: westerly\n  reference_height: 10\n  exponent: 0.143\n' >"$tmp/wind.yaml"
+lint_lists "of a misspelt wind profile and three wind values" "$tmp/wind.yaml" \
+  "4:12 wind.profile;5:10 wind.speed;6:9 wind.from;7:21 wind.reference_height;"
 # a required key missing on its own is listed, and the check goes on
 printf 'payload:\n  drag: {cd: 0.9, area: 0.01}\nrelease:\n  height: 30\nsite: {latitude: 95 deg}\n' >"$tmp/no-mass.yaml"
 lint_lists "of a missing mass and three more" "$tmp/no-mass.yaml" \
