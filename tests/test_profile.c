@@ -1901,6 +1901,84 @@ static void test_lint_finds_every_error_in_file_order(void **state)
     plumb_profile_free(p);
 }
 
+/* lint goes on past a refused required value (it gets a stand-in, not a
+ * hole that the loader would report as a missing key), and does not list
+ * what follows from an error already listed: the mass missing once its
+ * misspelt key 'mas' is set aside, or a deploy height "not below" the
+ * stand-in of a refused release height. Positions are those of the
+ * values (keys for 'mas') in the text, counted from 1 as libyaml does. */
+static void test_lint_goes_on_past_refused_required_values(void **state)
+{
+    (void)state;
+    static const struct {
+        const char *text;
+        size_t n;
+        struct { const char *key; int line, col; } want[4];
+    } cases[] = {
+        {"name: four\n"
+         "payload:\n"
+         "  mass: 1 m\n"
+         "  drag: {cd: 0.5, area: 0.01}\n"
+         "release:\n"
+         "  height: -3 m\n"
+         "wind: {speed: 5 kn, from: westerly}\n",
+         4,
+         {{"payload.mass", 3, 9}, {"payload.drag.area", 4, 25}, {"release.height", 6, 11},
+          {"wind.from", 7, 27}}},
+        {"name: typos\n"
+         "payload:\n"
+         "  mas: 1 kg\n"
+         "  drag: {cd: -1, area: 0.01 m^2}\n"
+         "release:\n"
+         "  height: 120\n"
+         "wind: {profile: powr, speed: 5 kn, from: 270 deg}\n",
+         4,
+         {{"payload.mas", 3, 3}, {"payload.drag.cd", 4, 14}, {"release.height", 6, 11},
+          {"wind.profile", 7, 17}}},
+        {"name: heigth\n"
+         "payload: {mass: 1 kg, drag: {cd: 0.5, area: 0.01 m^2}}\n"
+         "release:\n"
+         "  heigth: 30 m\n",
+         1,
+         {{"release.heigth", 4, 3}}},
+        {"payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.01 m^2}}\n"
+         "descent: {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: {below: 60 m}}\n"
+         "release: {height: -3 m}\n",
+         1,
+         {{"release.height", 3, 19}}},
+    };
+    for (size_t c = 0; c < sizeof cases / sizeof cases[0]; c++) {
+        plumb_diag errs[16];
+        size_t n = 99;
+        plumb_profile *p = NULL;
+        assert_int_not_equal(plumb_profile_lint_buffer("t.yaml", cases[c].text,
+                                                       strlen(cases[c].text), units, NULL, 0,
+                                                       errs, 16, &n, &p),
+                             PLUMB_OK);
+        assert_null(p);
+        assert_int_equal(n, cases[c].n);
+        for (size_t i = 0; i < n; i++) {
+            assert_string_equal(errs[i].key, cases[c].want[i].key);
+            assert_int_equal(errs[i].line, cases[c].want[i].line);
+            assert_int_equal(errs[i].col, cases[c].want[i].col);
+            assert_string_equal(errs[i].file, "t.yaml");
+        }
+        /* plumb fall's loader: the first error it meets, alone */
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        assert_int_not_equal(plumb_profile_load_buffer("t.yaml", cases[c].text,
+                                                       strlen(cases[c].text), units, NULL, 0, &p,
+                                                       &d),
+                             PLUMB_OK);
+        assert_null(p);
+        int among = 0;
+        for (size_t i = 0; i < n; i++)
+            among |= strcmp(d.key, errs[i].key) == 0 && d.line == errs[i].line &&
+                     d.col == errs[i].col;
+        assert_true(among);
+    }
+}
+
 int main(void)
 {
     enum { N_BAD = sizeof bad_cases / sizeof bad_cases[0] };
@@ -1953,6 +2031,7 @@ int main(void)
         cmocka_unit_test(test_bundled_demo_and_payload_profiles_load),
         cmocka_unit_test(test_every_profile_in_tests_bad_fails_where_its_comment_says),
         cmocka_unit_test(test_lint_finds_every_error_in_file_order),
+        cmocka_unit_test(test_lint_goes_on_past_refused_required_values),
     };
     enum { N_FIXED = sizeof fixed / sizeof fixed[0] };
     static struct CMUnitTest tests[N_FIXED + N_BAD];

@@ -91,10 +91,12 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 plumb_profile **out, plumb_diag *diag);
 
 /* Checks a profile as plumb_profile_load does, but goes on past an error:
- * each error found in the file is set aside (its key or value left out)
- * and the profile checked again, so that every error is found, not only
- * the first the loader meets; an error that only follows from one set
- * aside (the key now missing) is not counted. Up to max diagnostics go
+ * each error found in the file is set aside (a refused value replaced by
+ * a stand-in the loader takes there, anything else left out) and the
+ * profile checked again, so that every error is found, not only the first
+ * the loader meets; an error that only follows from one set aside (a
+ * required key then missing, a check that another stand-in passes) is not
+ * counted. Up to max diagnostics go
  * into errs[0 .. *n), in file order. Returns PLUMB_OK when the profile
  * loads (*n 0; *out, if out is not NULL, the profile, the caller's to
  * free), else the status of the first error found (*out NULL). */

@@ -221,6 +221,13 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     return PLUMB_OK;
 }
 
+plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node *tree,
+                                  const plumb_units *units, const char *const *sets,
+                                  size_t n_sets, plumb_profile **out, plumb_diag *diag)
+{
+    return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
+}
+
 plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets, plumb_profile **out,
                                 plumb_diag *diag)
@@ -242,60 +249,6 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     if (st != PLUMB_OK)
         return st;
     return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
-}
-
-/* The errors of a parsed profile, as plumb_profile_lint_buffer says. */
-static plumb_status lint_tree(const char *name, const char *sha, const plumby_node *tree,
-                             const plumb_units *units, const char *const *sets, size_t n_sets,
-                             plumb_diag *errs, size_t max, size_t *n, plumb_profile **out)
-{
-    plumb_status first = PLUMB_OK;
-    while (*n < max) {
-        plumby_node *copy = plumby_copy(tree);
-        if (!copy) {
-            first = first != PLUMB_OK ? first : PLUMB_ENOMEM;
-            break;
-        }
-        /* the errors found so far set aside: a later one is checked as if
-         * they were not written */
-        for (size_t i = 0; i < *n; i++)
-            (void)plumby_remove_at(copy, errs[i].line, errs[i].col);
-        plumb_profile *p = NULL;
-        plumb_diag d;
-        plumb_diag_clear(&d);
-        plumb_status st = build(name, sha, copy, NULL, units, sets, n_sets, &p, &d);
-        if (st == PLUMB_OK && *n == 0 && out)
-            *out = p; /* the profile as written loads: the caller's */
-        else
-            plumb_profile_free(p);
-        if (st == PLUMB_OK)
-            break;
-        int seen = 0; /* the same key again: missing now that it was set aside */
-        for (size_t i = 0; i < *n; i++)
-            seen |= strcmp(errs[i].key, d.key) == 0 ||
-                    (errs[i].line == d.line && errs[i].col == d.col);
-        if (*n > 0 && (seen || !plumb_status_is_input_error(st) || strcmp(d.file, name) != 0))
-            break;
-        errs[(*n)++] = d;
-        if (first == PLUMB_OK)
-            first = st;
-        plumby_node *probe = plumby_copy(tree);
-        int removable = probe && d.line > 0 && strcmp(d.file, name) == 0 &&
-                        plumby_remove_at(probe, d.line, d.col);
-        plumby_free(probe);
-        if (!removable)
-            break;
-    }
-    /* in file order */
-    for (size_t i = 1; i < *n; i++)
-        for (size_t j = i; j > 0 && (errs[j].line < errs[j - 1].line ||
-                                     (errs[j].line == errs[j - 1].line &&
-                                      errs[j].col < errs[j - 1].col)); j--) {
-            plumb_diag t = errs[j];
-            errs[j] = errs[j - 1];
-            errs[j - 1] = t;
-        }
-    return first;
 }
 
 plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
@@ -326,7 +279,7 @@ plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t
         *n = 1;
         return st;
     }
-    st = lint_tree(name, sha, tree, units, sets, n_sets, errs, max, n, out);
+    st = plumbp_profile_lint_tree(name, sha, tree, units, sets, n_sets, errs, max, n, out);
     plumby_free(tree);
     return st;
 }

@@ -200,6 +200,19 @@ plumb_status plumbp_set_items_seed(plumbp_set_items *numbering, plumby_node *roo
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
                                       plumbp_set_items *numbering, plumb_diag *diag);
 
+/* profile.c: applies sets to tree (owned), checks and interprets it into
+ * *out, as plumb_profile_load does after parsing. */
+plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node *tree,
+                                  const plumb_units *units, const char *const *sets,
+                                  size_t n_sets, plumb_profile **out, plumb_diag *diag);
+
+/* profile_lint.c: the errors of a parsed profile (tree, not changed), as
+ * plumb_profile_lint_buffer lists them. */
+plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const plumby_node *tree,
+                                      const plumb_units *units, const char *const *sets,
+                                      size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                      plumb_profile **out);
+
 /* profile_item.c */
 /* A fixed drag given as cd and area (area_m2 > 0: cd_area_m2 = cd x area)
  * or as cd_area: its cd_area_m2 and the source text that names the values. */

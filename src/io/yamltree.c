@@ -159,45 +159,6 @@ static char *dup_text(const char *s, size_t n)
     return d;
 }
 
-int plumby_remove_at(plumby_node *root, int line, int col)
-{
-    if (!root)
-        return 0;
-    for (size_t i = 0; i < root->n; i++) {
-        int here;
-        plumby_node *child;
-        if (root->kind == PLUMBY_MAP) {
-            plumby_pair *p = &root->pairs[i];
-            child = p->value;
-            here = (p->line == line && p->col == col) ||
-                   (child && child->line == line && child->col == col);
-        } else if (root->kind == PLUMBY_SEQ) {
-            child = root->items[i];
-            here = child && child->line == line && child->col == col &&
-                   child->kind == PLUMBY_SCALAR;
-        } else {
-            return 0;
-        }
-        if (here) {
-            if (root->kind == PLUMBY_MAP) {
-                free(root->pairs[i].key);
-                plumby_free(root->pairs[i].value);
-                memmove(&root->pairs[i], &root->pairs[i + 1],
-                        (root->n - i - 1) * sizeof *root->pairs);
-            } else {
-                plumby_free(root->items[i]);
-                memmove(&root->items[i], &root->items[i + 1],
-                        (root->n - i - 1) * sizeof *root->items);
-            }
-            root->n--;
-            return 1;
-        }
-        if (child && plumby_remove_at(child, line, col))
-            return 1;
-    }
-    return 0;
-}
-
 plumby_node *plumby_copy(const plumby_node *node)
 {
     plumby_node *c = plumby_new(node->kind, node->line, node->col, node->origin);

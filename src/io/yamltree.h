@@ -95,12 +95,6 @@ plumby_node *plumby_copy(const plumby_node *node);
 /* Frees a tree. Accepts NULL. */
 void plumby_free(plumby_node *node);
 
-/* Removes from the tree the map pair whose key or value starts at
- * line:col, or the list item that does (the place a diagnostic names), so
- * that a check can go on past it. 1 when one was removed, 0 when nothing
- * starts there (or it is the root). Can't fail. */
-int plumby_remove_at(plumby_node *root, int line, int col);
-
 /* Appends an item to a list node (takes ownership on success). */
 plumb_status plumby_seq_push(plumby_node *seq, plumby_node *item);
 

@@ -87,6 +87,16 @@ for f in tests/bad/*.yaml; do
   else
     refused "$f" "plumb: $f:$pos: " "$sub" -- fall "$f" --format json
   fi
+  # one fault: lint lists it alone, nothing that follows from setting it
+  # aside (a required key then missing, a list then too short)
+  "$bin" lint "$f" >"$tmp/stdout" 2>"$tmp/stderr"
+  rc=$?
+  if [ $rc -eq 2 ] && [ "$(grep -c '^plumb: ' "$tmp/stderr")" -eq 1 ] &&
+    grep -F -q -e "plumb: $f:$pos: ${key:+$key: }" "$tmp/stderr"; then
+    pass=$((pass + 1))
+  else
+    bad "lint $f: exit $rc, expected its one fault at $pos${key:+ $key}: $(cat "$tmp/stderr")"
+  fi
 done
 [ "$n_bad" -ge 30 ] && pass=$((pass + 1)) || bad "tests/bad holds $n_bad profiles, expected at least 30"
 
@@ -107,6 +117,77 @@ if [ $rc -eq 2 ] && [ "$got" = "2:9 payload.mass;7:3 wind.form;9:13 atmosphere.h
   pass=$((pass + 1))
 else
   bad "lint of three errors: exit $rc, got '$got': $(cat "$tmp/stderr")"
+fi
+
+# lint_lists NAME FILE WANT: plumb lint FILE exits 2, prints nothing on
+# stdout and lists exactly the errors WANT ("LINE:COL KEY;" each, in file
+# order). The positions are those of the values (or keys) in the printf
+# text, counted from 1 as libyaml counts them.
+lint_lists() {
+  "$bin" lint "$2" >"$tmp/stdout" 2>"$tmp/stderr"
+  rc=$?
+  got=$(sed -n 's/^plumb: [^:]*:\([0-9]*:[0-9]*\): \([^:]*\):.*/\1 \2/p' "$tmp/stderr" | tr '\n' ';')
+  if [ $rc -eq 2 ] && [ "$got" = "$3" ] && [ ! -s "$tmp/stdout" ] &&
+    [ "$(grep -c '^plumb: ' "$tmp/stderr")" -eq "$(printf '%s' "$3" | tr -cd ';' | wc -c)" ]; then
+    pass=$((pass + 1))
+  else
+    bad "lint $1: exit $rc, got '$got', expected '$3': $(cat "$tmp/stderr")"
+  fi
+}
+# a refused required value (release.height out of range, payload.mass in
+# metres) does not end the check: the area's bare number and the wind's
+# word are found too
+printf 'name: four\npayload:\n  mass: 1 m\n  drag: {cd: 0.5, area: 0.01}\nrelease:\n  height: -3 m\nwind: {speed: 5 kn, from: westerly}\n' >"$tmp/four.yaml"
+lint_lists "of four errors, two of required keys" "$tmp/four.yaml" \
+  "3:9 payload.mass;4:25 payload.drag.area;6:11 release.height;7:27 wind.from;"
+printf 'name: three\npayload:\n  mass: 1 m\n  drag: {cd: 0.5, area: 0.01}\nrelease:\n  height: 3 m\nwind: {speed: 5 kn, from: westerly}\n' >"$tmp/three-b.yaml"
+lint_lists "of three errors, the height fixed" "$tmp/three-b.yaml" \
+  "3:9 payload.mass;4:25 payload.drag.area;7:27 wind.from;"
+# a misspelt key, a bare height, a misspelt word and a cd out of range: the
+# mass then missing is the typo's consequence, not listed
+printf 'name: typos\npayload:\n  mas: 1 kg\n  drag: {cd: -1, area: 0.01 m^2}\nrelease:\n  height: 120\nwind: {profile: powr, speed: 5 kn, from: 270 deg}\n' >"$tmp/typos.yaml"
+lint_lists "of a typo, a bare height, a word and a cd" "$tmp/typos.yaml" \
+  "3:3 payload.mas;4:14 payload.drag.cd;6:11 release.height;7:17 wind.profile;"
+# release: given with its one key misspelt: the typo alone, never
+# "release.height ... (release is not given)" at 1:1
+printf 'name: heigth\npayload:\n  mass: 1 kg\n  drag: {cd: 0.5, area: 0.01 m^2}\nrelease:\n  heigth: 30 m\n' >"$tmp/heigth.yaml"
+lint_lists "of a misspelt release.height" "$tmp/heigth.yaml" "6:3 release.heigth;"
+if grep -F -q "is not given" "$tmp/stderr"; then
+  bad "lint of a misspelt release.height says release is not given: $(cat "$tmp/stderr")"
+else
+  pass=$((pass + 1))
+fi
+# a deploy height checked against the release height's stand-in is not an
+# error of its own: -3 m refused, 60 m not "at or above" what stood in
+printf 'payload:\n  mass: 2 kg\n  drag: {cd: 0.9, area: 0.01 m^2}\ndescent:\n  kind: parachute\n  cd: 0.8\n  area: 1.2 m^2\n  deploy: {below: 60 m}\nrelease:\n  height: -3 m\nwind: {speed: 5 kn, from: 270 dg}\n' >"$tmp/deploy.yaml"
+lint_lists "of a negative height under a deploy height" "$tmp/deploy.yaml" \
+  "10:11 release.height;11:27 wind.from;"
+# ... but a deploy height above a valid release height is
+printf 'payload:\n  mass: 2\n  drag: {cd: 0.9, area: 0.01 m^2}\ndescent:\n  kind: parachute\n  cd: 0.8\n  area: 1.2 m^2\n  deploy: {below: 60 m}\nrelease:\n  height: 30 m\n' >"$tmp/deploy2.yaml"
+lint_lists "of a deploy height above the release" "$tmp/deploy2.yaml" \
+  "2:9 payload.mass;8:19 descent.deploy.below;"
+# a word with no did-you-mean: the exponent of the profile meant is not
+# refused as "not used with profile uniform"
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.01 m^2}}\nrelease: {height: 30 m}\nwind: {profile: xyz, speed: 5 kn, from: 270 deg, exponent: 0.2}\n' >"$tmp/xyz.yaml"
+lint_lists "of an unknown wind profile with an exponent" "$tmp/xyz.yaml" "3:17 wind.profile;"
+# a misspelt wind profile among bare numbers of the wind: another stand-in
+# of the profile ('table') stops before the bare speed, at errors of its own
+# making (table missing, speed "not used"), which prove nothing
+printf 'payload: {mass: 2 kg, drag: {cd: 0.9, area: 0.01 m^2}}\nrelease: {height: 30 m}\nwind:\n  profile: powr\n  speed: 8\n  from: westerly\n  reference_height: 10\n  exponent: 0.143\n' >"$tmp/wind.yaml"
+lint_lists "of a misspelt wind profile and three wind values" "$tmp/wind.yaml" \
+  "4:12 wind.profile;5:10 wind.speed;6:9 wind.from;7:21 wind.reference_height;"
+# a required key missing on its own is listed, and the check goes on
+printf 'payload:\n  drag: {cd: 0.9, area: 0.01}\nrelease:\n  height: 30\nsite: {latitude: 95 deg}\n' >"$tmp/no-mass.yaml"
+lint_lists "of a missing mass and three more" "$tmp/no-mass.yaml" \
+  "2:3 payload.mass;2:25 payload.drag.area;4:11 release.height;5:18 site.latitude;"
+# plumb fall still stops at the first error the loader meets
+"$bin" fall "$tmp/four.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+rc=$?
+if [ $rc -eq 2 ] && [ "$(grep -c '^plumb: ' "$tmp/stderr")" -eq 1 ] &&
+  grep -F -q "four.yaml:6:11: release.height: must be > 0 m" "$tmp/stderr" && [ ! -s "$tmp/stdout" ]; then
+  pass=$((pass + 1))
+else
+  bad "fall of four errors: exit $rc: $(cat "$tmp/stderr")"
 fi
 
 # ---- overrides --------------------------------------------------------------

@@ -1,0 +1,669 @@
+/*
+ * profile_lint.c - every error of a profile, for `plumb lint`
+ * (plumb_profile_lint_buffer, profile.h): the profile is built again and
+ * again (profile.c, plumbp_profile_build), each time with the errors found
+ * so far set aside, until it loads, no progress is made or max errors are
+ * listed; then the errors are sorted into file order.
+ *
+ * Setting an error aside is an edit of a copy of the parsed tree, never of
+ * the text:
+ *   - a value that is refused (a bare number, a wrong unit, out of range,
+ *     refused against another key, a word not in the key's list) is
+ *     replaced by a stand-in the loader takes at that place, so that the
+ *     key stays written and nothing that depends on its presence changes.
+ *     A number's stand-ins, tried in order: the number written, in SI
+ *     units, when it is one the key takes (what the user most likely
+ *     meant), then plain values (1, 0.5, 0, 10, 100 ... in the key's
+ *     range); a word's: its did-you-mean, then the key's words;
+ *   - anything else (an unknown key, a map where a value was wanted, text,
+ *     a list's item) is left out.
+ * An error that is only a consequence of one set aside is not listed:
+ *   - one that another stand-in of the same key avoids (a deploy height
+ *     of 60 m "not below" a release height -3 m stood in as 1 m): the
+ *     other stand-in is kept from then on, and the first is not tried
+ *     again, so that the check cannot go back and forth;
+ *   - a required key now missing because its value was left out: a
+ *     numeric one gets a stand-in, else the check stops;
+ *   - a required key now missing whose misspelt twin (the unknown key of
+ *     the same map whose did-you-mean it is) was listed: the misspelt key
+ *     is read as the right one from then on, and its value checked;
+ *   - a list or map found wanting once a part of it was left out (a
+ *     choice of one attitude once the other was): left out in turn;
+ *   - a key missing under a map that was left out, or missing where a key
+ *     of the same name was written one level too high: the check stops;
+ *   - an error at the place of a stand-in: the check stops.
+ * A required numeric key missing on its own is listed and given a stand-in
+ * where it should be, so that the check goes on. An error outside the file
+ * (a --set), or one that is not the user's (out of memory), stops it.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include "plumb/suggest.h"
+#include "io/profile_int.h"
+
+/* Most edits of one check (each error listed makes at most one, each
+ * consequence turns one into another), and most stand-ins of one. */
+enum { LINT_EDITS = 64, LINT_CANDS = 12 };
+
+typedef enum ed_kind {
+    ED_REMOVE = 0, /* the pair or list item left out */
+    ED_STAND,      /* its value replaced by a stand-in */
+    ED_RENAME,     /* the pair read under the key `name` */
+    ED_INSERT      /* key `name` added to the map at `key`'s parent, with a stand-in */
+} ed_kind;
+
+typedef struct edit {
+    ed_kind kind;
+    int line, col;              /* the error's place: the pair's key or value, or the map */
+    char key[PLUMB_DIAG_KEY];   /* the error's dotted key */
+    char name[PLUMB_DIAG_KEY];  /* ED_RENAME, ED_INSERT: the key */
+    char cand[LINT_CANDS][64];  /* ED_STAND, ED_INSERT: the stand-ins as written */
+    size_t n_cand;              /* entries in cand */
+    size_t cur;                 /* the stand-in in use */
+    unsigned dropped;           /* bit i: cand[i] is not to be used again */
+} edit;
+
+typedef struct lint_run {
+    const char *name, *sha;
+    const plumby_node *tree;
+    const plumb_units *units;
+    const char *const *sets;
+    size_t n_sets;
+    edit ed[LINT_EDITS];
+    size_t n_ed;
+} lint_run;
+
+/* 1 when the dotted key ends with the map key `name` as a whole part. */
+static int key_ends_with(const char *dkey, const char *name)
+{
+    size_t a = strlen(dkey), b = strlen(name);
+    return b > 0 && b <= a && strcmp(dkey + a - b, name) == 0 && (a == b || dkey[a - b - 1] == '.');
+}
+
+/* 1 when `key` names a map or list that holds `under` ("payload" holds
+ * "payload.drag.cd", "descent" holds "descent[0].cd"). */
+static int key_holds(const char *key, const char *under)
+{
+    size_t n = strlen(key);
+    return strncmp(key, under, n) == 0 && (under[n] == '.' || under[n] == '[');
+}
+
+/* The node an error at line:col with dotted key dkey is about: a pair
+ * whose key or value starts there and whose key ends dkey, or (for a key
+ * ending in ']') a list item that starts there. *parent and *idx say
+ * where it is. 0 when there is none. */
+static int find_at(plumby_node *n, int line, int col, const char *dkey, plumby_node **parent,
+                   size_t *idx)
+{
+    size_t klen = strlen(dkey);
+    int item_key = klen > 0 && dkey[klen - 1] == ']';
+    for (size_t i = 0; i < n->n; i++) {
+        plumby_node *child;
+        int here;
+        if (n->kind == PLUMBY_MAP) {
+            const plumby_pair *p = &n->pairs[i];
+            child = p->value;
+            here = key_ends_with(dkey, p->key) &&
+                   ((p->line == line && p->col == col) ||
+                    (child && child->line == line && child->col == col));
+        } else if (n->kind == PLUMBY_SEQ) {
+            child = n->items[i];
+            here = item_key && child && child->line == line && child->col == col;
+        } else {
+            return 0;
+        }
+        if (here) {
+            *parent = n;
+            *idx = i;
+            return 1;
+        }
+        if (child && find_at(child, line, col, dkey, parent, idx))
+            return 1;
+    }
+    return 0;
+}
+
+/* The schema of a dotted key (a list item's for "descent[0]"), or NULL. */
+static const plumby_schema *schema_of(const char *dkey)
+{
+    keypath kp;
+    if (!dkey[0] || plumbp_profile_keypath_resolve(dkey, &kp, NULL, 0, NULL) != PLUMB_OK ||
+        kp.n == 0)
+        return NULL;
+    const kseg *s = &kp.seg[kp.n - 1];
+    const plumby_schema *sc = s->schema;
+    if (sc && s->index >= 0 && sc->type == PLUMBY_T_LIST && sc->n_sub)
+        sc = &sc->sub[0];
+    return sc;
+}
+
+/* The schema of the map at a dotted key ("" the top), or NULL. */
+static const plumby_schema *map_schema(const char *dkey)
+{
+    const plumby_schema *s = dkey[0] ? schema_of(dkey) : plumbp_profile_schema();
+    return s && (s->type == PLUMBY_T_MAP || s->type == PLUMBY_T_MAP_OR_LIST) ? s : NULL;
+}
+
+/* The node at a dotted key in the tree, or NULL. */
+static plumby_node *node_at(plumby_node *root, const char *dkey)
+{
+    if (!dkey[0])
+        return root;
+    keypath kp;
+    if (plumbp_profile_keypath_resolve(dkey, &kp, NULL, 0, NULL) != PLUMB_OK)
+        return NULL;
+    plumby_node *n = root;
+    for (size_t i = 0; i < kp.n; i++) {
+        if (!n || n->kind != PLUMBY_MAP)
+            return NULL;
+        plumby_pair *p = plumby_find(n, kp.seg[i].name);
+        if (!p)
+            return NULL;
+        n = p->value;
+        if (kp.seg[i].index == KSEG_NAMED)
+            return NULL;
+        if (kp.seg[i].index >= 0) {
+            if (!n || n->kind != PLUMBY_SEQ || (size_t)kp.seg[i].index >= n->n)
+                return NULL;
+            n = n->items[kp.seg[i].index];
+        }
+    }
+    return n;
+}
+
+/* Splits a dotted key into the key of its map (parent[size]) and its last
+ * part, a plain key name (not a list item). 0 when it has no such part. */
+static int split_key(const char *dkey, char *parent, size_t size, const char **last)
+{
+    const char *dot = strrchr(dkey, '.');
+    *last = dot ? dot + 1 : dkey;
+    if (!**last || strpbrk(*last, "[]"))
+        return 0;
+    size_t n = dot ? (size_t)(dot - dkey) : 0;
+    if (n >= size)
+        return 0;
+    memcpy(parent, dkey, n);
+    parent[n] = '\0';
+    return 1;
+}
+
+/* A new scalar node with text at a place; NULL when out of memory. */
+static plumby_node *scalar(const char *text, int line, int col)
+{
+    plumby_node *v = plumby_new(PLUMBY_SCALAR, line, col, PLUMBY_FROM_FILE);
+    size_t n = strlen(text);
+    if (v && !(v->text = malloc(n + 1))) {
+        plumby_free(v);
+        return NULL;
+    }
+    if (v)
+        memcpy(v->text, text, n + 1);
+    return v;
+}
+
+/* Applies one edit to a tree; PLUMB_ENOMEM is its only failure (an edit
+ * that finds nothing to change changes nothing). */
+static plumb_status apply_one(plumby_node *root, const edit *e)
+{
+    if (e->kind == ED_INSERT) {
+        char parent[PLUMB_DIAG_KEY];
+        const char *last;
+        plumby_node *map = split_key(e->key, parent, sizeof parent, &last)
+                               ? node_at(root, parent) : NULL;
+        if (!map || map->kind != PLUMBY_MAP || plumby_find(map, e->name))
+            return PLUMB_OK;
+        plumby_node *v = scalar(e->cand[e->cur], e->line, e->col);
+        if (!v)
+            return PLUMB_ENOMEM;
+        if (plumby_map_push(map, e->name, e->line, e->col, PLUMBY_FROM_FILE, v) != PLUMB_OK) {
+            plumby_free(v);
+            return PLUMB_ENOMEM;
+        }
+        return PLUMB_OK;
+    }
+    plumby_node *parent;
+    size_t i;
+    if (!find_at(root, e->line, e->col, e->key, &parent, &i))
+        return PLUMB_OK;
+    int map = parent->kind == PLUMBY_MAP;
+    plumby_node **slot = map ? &parent->pairs[i].value : &parent->items[i];
+    switch (e->kind) {
+    case ED_REMOVE:
+        if (map) {
+            free(parent->pairs[i].key);
+            plumby_free(parent->pairs[i].value);
+            memmove(&parent->pairs[i], &parent->pairs[i + 1],
+                    (parent->n - i - 1) * sizeof *parent->pairs);
+        } else {
+            plumby_free(parent->items[i]);
+            memmove(&parent->items[i], &parent->items[i + 1],
+                    (parent->n - i - 1) * sizeof *parent->items);
+        }
+        parent->n--;
+        return PLUMB_OK;
+    case ED_STAND: {
+        const plumby_node *old = *slot;
+        plumby_node *v = scalar(e->cand[e->cur], old ? old->line : e->line,
+                                old ? old->col : e->col);
+        if (!v)
+            return PLUMB_ENOMEM;
+        plumby_free(*slot);
+        *slot = v;
+        return PLUMB_OK;
+    }
+    case ED_RENAME: {
+        if (!map)
+            return PLUMB_OK;
+        size_t n = strlen(e->name);
+        char *k = malloc(n + 1);
+        if (!k)
+            return PLUMB_ENOMEM;
+        memcpy(k, e->name, n + 1);
+        free(parent->pairs[i].key);
+        parent->pairs[i].key = k;
+        return PLUMB_OK;
+    }
+    case ED_INSERT:
+        break;
+    }
+    return PLUMB_OK;
+}
+
+/* A copy of the tree with the first n edits applied, or NULL when out of
+ * memory. */
+static plumby_node *edited(const lint_run *r, size_t n)
+{
+    plumby_node *copy = plumby_copy(r->tree);
+    for (size_t i = 0; copy && i < n; i++)
+        if (apply_one(copy, &r->ed[i]) != PLUMB_OK) {
+            plumby_free(copy);
+            copy = NULL;
+        }
+    return copy;
+}
+
+/* Builds the tree with the first n edits: the status, *d its first error,
+ * *out (may be NULL) the profile when it loads. */
+static plumb_status try_build(const lint_run *r, size_t n, plumb_diag *d, plumb_profile **out)
+{
+    plumb_profile *p = NULL;
+    plumb_diag_clear(d);
+    plumby_node *copy = edited(r, n);
+    if (!copy)
+        return PLUMB_RAISE(d, PLUMB_ENOMEM, "out of memory checking the profile");
+    plumb_status st = plumbp_profile_build(r->name, r->sha, copy, r->units, r->sets, r->n_sets,
+                                           &p, d);
+    if (out && st == PLUMB_OK)
+        *out = p;
+    else
+        plumb_profile_free(p);
+    return st;
+}
+
+/* Adds a stand-in to e unless it has it or is full. */
+static void add_cand(edit *e, const char *text)
+{
+    for (size_t i = 0; i < e->n_cand; i++)
+        if (strcmp(e->cand[i], text) == 0)
+            return;
+    if (e->n_cand < LINT_CANDS && strlen(text) < sizeof e->cand[0])
+        plumbp_strlcpy(e->cand[e->n_cand++], text, sizeof e->cand[0]);
+}
+
+/* The stand-ins of key e->key, of schema s, whose value was node (NULL:
+ * it is missing) into e->cand, in the order tried (the top of this file):
+ * how many. */
+static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
+                        const plumby_node *node)
+{
+    e->n_cand = 0;
+    e->cur = 0;
+    e->dropped = 0;
+    const char *text = node && node->kind == PLUMBY_SCALAR ? node->text : NULL;
+    if (s && s->type == PLUMBY_T_WORD && s->words) {
+        const char *best = text ? plumb_suggest_closest(text, s->words, s->n_words) : NULL;
+        if (best)
+            add_cand(e, best);
+        for (size_t i = 0; i < s->n_words; i++)
+            add_cand(e, s->words[i]);
+        return e->n_cand;
+    }
+    if (!s || s->type != PLUMBY_T_NUM)
+        return 0;
+    plumb_dim dim = plumby_num_dim(s);
+    plumby_range range = plumby_num_range(s);
+    double c[12];
+    size_t nc = 0;
+    if (text) {
+        plumby_ctx ctx;
+        memset(&ctx, 0, sizeof ctx);
+        ctx.file = r->name;
+        ctx.units = r->units;
+        double q;
+        char *end;
+        if (plumby_quantity(&ctx, node, dim, e->key, &q) == PLUMB_OK)
+            c[nc++] = q;
+        q = strtod(text, &end);
+        if (end != text)
+            c[nc++] = q;
+    }
+    static const double plain[] = {1.0, 0.5, 0.0, 10.0, 100.0, 0.1, 1000.0, 0.01};
+    for (size_t i = 0; i < sizeof plain / sizeof plain[0]; i++)
+        c[nc++] = plain[i];
+    int bare = dim == PLUMB_DIM_NONE || dim == PLUMB_DIM_FRACTION;
+    for (size_t i = 0; i < nc; i++) {
+        if (!isfinite(c[i]) || !plumby_range_ok(range, c[i]))
+            continue;
+        char t[64];
+        snprintf(t, sizeof t, "%.17g%s%s", c[i], bare ? "" : " ",
+                 bare ? "" : plumb_dim_si_unit(dim));
+        add_cand(e, t);
+    }
+    return e->n_cand;
+}
+
+/* 1 when error d is at the place of a stand-in (any when e is NULL, else
+ * e's). */
+static int at_stand_in(const lint_run *r, const edit *e, const plumb_diag *d)
+{
+    for (size_t i = 0; i < r->n_ed; i++) {
+        const edit *x = &r->ed[i];
+        if ((e ? x == e : x->kind != ED_REMOVE) && x->line == d->line && x->col == d->col)
+            return 1;
+    }
+    return e && e->line == d->line && e->col == d->col;
+}
+
+/* Makes e (its line, col and key set; a new edit at r->ed[r->n_ed] or one
+ * of them) a stand-in of this kind (ED_STAND, ED_INSERT) for the key of
+ * schema s, whose value node was `node` (NULL: missing): the first of its
+ * stand-ins after which the check no longer stops at its place. 0 when
+ * none does (e's kind unchanged). */
+static int give_stand_in(lint_run *r, edit *e, ed_kind kind, const plumby_schema *s,
+                         const plumby_node *node)
+{
+    ed_kind was = e->kind;
+    e->kind = kind;
+    size_t n = stand_ins(r, e, s, node);
+    size_t upto = (size_t)(e - r->ed) + 1;
+    if (upto < r->n_ed)
+        upto = r->n_ed;
+    for (size_t i = 0; i < n; i++) {
+        e->cur = i;
+        plumb_diag d;
+        plumb_status st = try_build(r, upto, &d, NULL);
+        if (st == PLUMB_ENOMEM)
+            break;
+        if (st == PLUMB_OK || !at_stand_in(r, e, &d))
+            return 1;
+        e->dropped |= 1u << i;
+    }
+    e->n_cand = 0;
+    e->kind = was;
+    return 0;
+}
+
+/* 1 when the two errors are the same. */
+static int same_error(const plumb_diag *a, const plumb_diag *b)
+{
+    return a->status == b->status && a->line == b->line && a->col == b->col &&
+           strcmp(a->key, b->key) == 0 && strcmp(a->message, b->message) == 0;
+}
+
+/* What an error about a key that is not written (a required key missing,
+ * or a check of a map) follows from: 1 when it is a consequence of an
+ * edit, now changed so that the check goes on; -1 when it is one and the
+ * check cannot go on; 0 when it is an error of its own. */
+static int absent_consequence(lint_run *r, const plumb_diag *d)
+{
+    char dpar[PLUMB_DIAG_KEY], epar[PLUMB_DIAG_KEY];
+    const char *dlast, *elast;
+    int dsplit = split_key(d->key, dpar, sizeof dpar, &dlast);
+    for (size_t i = 0; i < r->n_ed; i++) {
+        edit *e = &r->ed[i];
+        if (strcmp(e->key, d->key) == 0) {
+            /* its value left out: a numeric one gets a stand-in */
+            if (e->kind == ED_REMOVE) {
+                plumby_node *t = edited(r, i);
+                plumby_node *parent;
+                size_t j;
+                const plumby_node *old = NULL;
+                if (t && find_at(t, e->line, e->col, e->key, &parent, &j))
+                    old = parent->kind == PLUMBY_MAP ? parent->pairs[j].value : parent->items[j];
+                int ok = give_stand_in(r, e, ED_STAND, schema_of(e->key), old);
+                plumby_free(t);
+                if (ok)
+                    return 1;
+            }
+            return -1;
+        }
+        if (key_holds(e->key, d->key))
+            return -1; /* under a map left out */
+        if (e->kind == ED_REMOVE && key_holds(d->key, e->key))
+            return -1; /* a map left out in turn (above), now missing */
+        if (e->kind != ED_REMOVE || !dsplit || !split_key(e->key, epar, sizeof epar, &elast))
+            continue;
+        if (strcmp(epar, dpar) == 0) {
+            /* its misspelt twin: read under the name it should have */
+            const plumby_schema *ms = map_schema(dpar);
+            const char *best = ms && !plumby_schema_child(ms, elast)
+                                   ? plumby_schema_suggest(ms, elast) : NULL;
+            if (best && strcmp(best, dlast) == 0) {
+                e->kind = ED_RENAME;
+                plumbp_strlcpy(e->name, dlast, sizeof e->name);
+                return 1;
+            }
+        } else if (strcmp(elast, dlast) == 0 && (!epar[0] || key_holds(epar, dpar))) {
+            return -1; /* written one level too high */
+        }
+    }
+    return 0;
+}
+
+/* A new edit for error d; NULL when there is no room. */
+static edit *new_edit(lint_run *r, const plumb_diag *d, ed_kind kind)
+{
+    if (r->n_ed >= LINT_EDITS)
+        return NULL;
+    edit *e = &r->ed[r->n_ed];
+    memset(e, 0, sizeof *e);
+    e->kind = kind;
+    e->line = d->line;
+    e->col = d->col;
+    plumbp_strlcpy(e->key, d->key, sizeof e->key);
+    return e;
+}
+
+/* Sets aside error d, found at a written node: 1 done, 0 no way to. */
+static int set_aside(lint_run *r, const plumb_diag *d)
+{
+    plumby_node *t = edited(r, r->n_ed);
+    plumby_node *parent;
+    size_t i;
+    edit *e = NULL;
+    if (t && find_at(t, d->line, d->col, d->key, &parent, &i) && (e = new_edit(r, d, ED_REMOVE))) {
+        const plumby_node *v =
+            parent->kind == PLUMBY_MAP ? parent->pairs[i].value : parent->items[i];
+        (void)give_stand_in(r, e, ED_STAND, schema_of(d->key), v);
+        r->n_ed++;
+    }
+    plumby_free(t);
+    return e != NULL;
+}
+
+/* The first error of the check once error d (written in the tree) is set
+ * aside as well: 1 with *ref, or with *loads 1 when the profile then
+ * loads; 0 when d cannot be set aside or the check then fails otherwise.
+ * The edits are as before. */
+static int error_after(lint_run *r, const plumb_diag *d, plumb_diag *ref, int *loads)
+{
+    size_t n0 = r->n_ed;
+    *loads = 0;
+    if (!set_aside(r, d) || r->n_ed == n0) {
+        r->n_ed = n0;
+        return 0;
+    }
+    plumb_status st = try_build(r, r->n_ed, ref, NULL);
+    r->n_ed = n0;
+    *loads = st == PLUMB_OK;
+    return st == PLUMB_OK || plumb_status_is_input_error(st);
+}
+
+/* Whether error d follows from a stand-in: 1 when another stand-in of one
+ * key avoids it (that one is used from then on, the one before never
+ * again); 0 when none does, so that d is an error of its own. Another
+ * stand-in avoids d when the profile then loads, or when the check then
+ * stops where it would stop with d set aside: not at an error of that
+ * stand-in's own making, met before d (an unknown wind profile stood in
+ * as 'table' would stop at the table missing, and prove nothing). */
+static int follows_from_stand_in(lint_run *r, const plumb_diag *d)
+{
+    plumb_diag ref;
+    int ref_loads = 0, have_ref = -1;
+    for (size_t i = 0; i < r->n_ed; i++) {
+        edit *e = &r->ed[i];
+        if (e->kind != ED_STAND && e->kind != ED_INSERT)
+            continue;
+        size_t keep = e->cur;
+        for (size_t k = 0; k < e->n_cand; k++) {
+            if (k == keep || (e->dropped & (1u << k)))
+                continue;
+            e->cur = k;
+            plumb_diag d2;
+            plumb_status st = try_build(r, r->n_ed, &d2, NULL);
+            if (st == PLUMB_ENOMEM)
+                break;
+            if (st != PLUMB_OK && (!plumb_status_is_input_error(st) || at_stand_in(r, NULL, &d2) ||
+                                   same_error(&d2, d)))
+                continue;
+            if (st != PLUMB_OK) {
+                if (have_ref < 0) {
+                    e->cur = keep;
+                    have_ref = error_after(r, d, &ref, &ref_loads);
+                    e->cur = k;
+                }
+                if (!have_ref || ref_loads || !same_error(&d2, &ref))
+                    continue;
+            }
+            e->dropped |= 1u << keep;
+            return 1;
+        }
+        e->cur = keep;
+    }
+    return 0;
+}
+
+/* 1 when error d is about a map or list that holds a part left out. */
+static int holds_left_out(const lint_run *r, const plumb_diag *d)
+{
+    for (size_t i = 0; i < r->n_ed; i++)
+        if (r->ed[i].kind == ED_REMOVE && key_holds(d->key, r->ed[i].key))
+            return 1;
+    return 0;
+}
+
+/* 1 when error d is at the place of a stand-in, or a key already listed. */
+static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag *errs, size_t n)
+{
+    for (size_t i = 0; i < n; i++)
+        if (strcmp(errs[i].key, d->key) == 0)
+            return 1;
+    return at_stand_in(r, NULL, d);
+}
+
+plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const plumby_node *tree,
+                                      const plumb_units *units, const char *const *sets,
+                                      size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                      plumb_profile **out)
+{
+    lint_run *r = calloc(1, sizeof *r);
+    if (!r) {
+        *n = 1;
+        return PLUMB_RAISE(&errs[0], PLUMB_ENOMEM, "out of memory checking the profile");
+    }
+    r->name = name;
+    r->sha = sha;
+    r->tree = tree;
+    r->units = units;
+    r->sets = sets;
+    r->n_sets = n_sets;
+    plumb_status first = PLUMB_OK;
+    /* each pass lists an error or turns a consequence into an edit */
+    for (size_t pass = 0; *n < max && pass < 4 * LINT_EDITS; pass++) {
+        plumb_diag d;
+        plumb_profile *p = NULL;
+        plumb_status st = try_build(r, r->n_ed, &d, r->n_ed == 0 && out ? &p : NULL);
+        if (st == PLUMB_OK) {
+            if (out)
+                *out = p; /* the profile as written loads: the caller's */
+            break;
+        }
+        if (!plumb_status_is_input_error(st) || strcmp(d.file, name) != 0 || d.line <= 0) {
+            /* not in the file, or not the user's: listed only when first */
+            if (*n == 0) {
+                errs[(*n)++] = d;
+                first = st;
+            }
+            break;
+        }
+        if (follows_from_stand_in(r, &d))
+            continue;
+        plumby_node *t = edited(r, r->n_ed);
+        plumby_node *parent;
+        size_t i;
+        int written = t && find_at(t, d.line, d.col, d.key, &parent, &i);
+        plumby_free(t);
+        if (!written) {
+            int c = absent_consequence(r, &d);
+            if (c > 0)
+                continue;
+            if (c < 0 || no_progress(r, &d, errs, *n))
+                break;
+            errs[(*n)++] = d;
+            if (first == PLUMB_OK)
+                first = st;
+            /* a numeric key missing on its own: a stand-in where it belongs */
+            char parent_key[PLUMB_DIAG_KEY];
+            const char *last;
+            edit *e = split_key(d.key, parent_key, sizeof parent_key, &last)
+                          ? new_edit(r, &d, ED_INSERT) : NULL;
+            if (!e)
+                break;
+            plumbp_strlcpy(e->name, last, sizeof e->name);
+            if (!give_stand_in(r, e, ED_INSERT, schema_of(d.key), NULL))
+                break;
+            r->n_ed++;
+            continue;
+        }
+        if (no_progress(r, &d, errs, *n))
+            break;
+        if (holds_left_out(r, &d)) {
+            /* a list or map found wanting once a part of it was left out:
+             * left out as well, not listed */
+            edit *e = new_edit(r, &d, ED_REMOVE);
+            if (!e)
+                break;
+            r->n_ed++;
+            continue;
+        }
+        errs[(*n)++] = d;
+        if (first == PLUMB_OK)
+            first = st;
+        if (!set_aside(r, &d))
+            break;
+    }
+    free(r);
+    /* in file order */
+    for (size_t i = 1; i < *n; i++)
+        for (size_t j = i; j > 0 && (errs[j].line < errs[j - 1].line ||
+                                     (errs[j].line == errs[j - 1].line &&
+                                      errs[j].col < errs[j - 1].col)); j--) {
+            plumb_diag t = errs[j];
+            errs[j] = errs[j - 1];
+            errs[j - 1] = t;
+        }
+    return first;
+}
