@@ -129,15 +129,17 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
                                plumb_limit_result *res, plumb_diag *diag);
 
 /* The fall of item `item` with `key` set to x (SI unit of its dimension),
- * computed as plumb_limit_solve computes each of its falls: for the fall at
- * an answer (its warnings, plumb_item_judge). Fills *spec with the item's
- * spec so set, *air with the air's spec, *result with the fall. The key's
- * errors are plumb_limit_solve's; a value the profile refuses is its input
- * error (PLUMB_ERANGE, PLUMB_EINVAL ...), a fall that fails its status. */
+ * computed as plumb_limit_solve computes each of its falls and judged
+ * against `criteria` as plumb fall judges a fall (plumb_item_judge): for
+ * the warnings of the fall at an answer. *judged gets the result, the
+ * verdicts and the warnings; its spec is the profile's own item (for its
+ * name: the fall's own spec, with the key set, does not outlive the call).
+ * The key's errors are plumb_limit_solve's; a value the profile refuses is
+ * its input error (PLUMB_ERANGE, PLUMB_EINVAL ...), a fall that fails its
+ * status, a judgement that fails plumb_item_judge's. */
 plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units *units,
                                  size_t item, const char *key, double x,
-                                 plumb_trajectory *traj, plumb_fall_spec *spec,
-                                 plumb_atm_spec *air, plumb_fall_result *result,
-                                 plumb_diag *diag);
+                                 plumb_trajectory *traj, const plumb_criteria *criteria,
+                                 plumb_item_report *judged, plumb_diag *diag);
 
 #endif /* PLUMB_INVERSE_H */

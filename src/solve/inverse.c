@@ -70,22 +70,28 @@ typedef struct solver_ctx {
     plumb_fall_spec *work;     /* copies of all of tmpl's items (the loader checks a value
                                   against every item), owned */
     plumb_atmosphere *atm;     /* tmpl's air, owned (keys that leave the air) */
-    /* plumb_limit_fall_at: the spec, air and fall of the last evaluation */
-    plumb_fall_spec *keep_spec;
-    plumb_atm_spec *keep_air;
-    plumb_fall_result *keep_result;
+    /* plumb_limit_fall_at: the fall of the last evaluation judged into
+     * *judged against *criteria, while its spec and air are alive (a
+     * derived profile's wind and air tables go with it) */
+    const plumb_criteria *criteria;
+    plumb_item_report *judged;
+    plumb_status judge_status;
 } solver_ctx;
 
-/* Keeps what the last evaluation computed, when asked to. */
-static void keep(solver_ctx *c, const plumb_fall_spec *spec, const plumb_atm_spec *air,
+/* Judges the evaluation's fall into c->judged, when asked to; the report
+ * then names the caller's item (its spec outlives this fall's). */
+static void keep(solver_ctx *c, const plumb_fall_spec *spec, const plumb_atmosphere *atm,
                  const plumb_fall_result *r)
 {
-    if (c->keep_spec)
-        *c->keep_spec = *spec;
-    if (c->keep_air)
-        *c->keep_air = *air;
-    if (c->keep_result)
-        *c->keep_result = *r;
+    if (!c->judged)
+        return;
+    plumb_item_report *it = c->judged;
+    memset(it, 0, sizeof *it);
+    it->spec = spec;
+    it->shape = plumb_profile_item_shape(c->profile, c->item);
+    it->result = *r;
+    c->judge_status = plumb_item_judge(it, c->profile, c->criteria, atm, c->diag);
+    it->spec = plumb_profile_item(c->profile, c->item);
 }
 
 void plumb_limit_options_init(plumb_limit_options *opt)
@@ -291,9 +297,9 @@ static double eval_slow(solver_ctx *c, double x)
     }
     plumb_fall_result r;
     st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);
-    plumb_atmosphere_free(atm);
     if (st == PLUMB_OK)
-        keep(c, plumb_profile_item(p, c->item), plumb_profile_atmosphere(p), &r);
+        keep(c, plumb_profile_item(p, c->item), atm, &r);
+    plumb_atmosphere_free(atm);
     if (p != c->own_tmpl)
         plumb_profile_free(p);
     return eval_done(c, st, &r, &d);
@@ -331,12 +337,14 @@ static double eval_fast(solver_ctx *c, double x)
         if (st != PLUMB_OK)
             return eval_slow(c, x);
         st = plumb_trajectory_run(c->traj, spec, atm, &r, &d);
+        if (st == PLUMB_OK)
+            keep(c, spec, atm, &r);
         plumb_atmosphere_free(atm);
     } else {
         st = plumb_trajectory_run(c->traj, spec, c->atm, &r, &d);
+        if (st == PLUMB_OK)
+            keep(c, spec, c->atm, &r);
     }
-    if (st == PLUMB_OK)
-        keep(c, spec, &as, &r);
     return eval_done(c, st, &r, &d);
 }
 
@@ -500,9 +508,8 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
 
 plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units *units,
                                  size_t item, const char *key, double x,
-                                 plumb_trajectory *traj, plumb_fall_spec *spec,
-                                 plumb_atm_spec *air, plumb_fall_result *result,
-                                 plumb_diag *diag)
+                                 plumb_trajectory *traj, const plumb_criteria *criteria,
+                                 plumb_item_report *judged, plumb_diag *diag)
 {
     solver_ctx c;
     double base = 0.0;
@@ -511,14 +518,15 @@ plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units
     if (st == PLUMB_OK && na)
         st = PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "this item's drag does not use %s", key);
     if (st == PLUMB_OK) {
-        c.keep_spec = spec;
-        c.keep_air = air;
-        c.keep_result = result;
+        c.criteria = criteria;
+        c.judged = judged;
         double f = eval_at(x, &c);
         if (c.fail != PLUMB_OK)
             st = c.fail;
         else if (isnan(f))
             st = diag && diag->status != PLUMB_OK ? diag->status : PLUMB_ENUMERIC;
+        else
+            st = c.judge_status;
     }
     ctx_close(&c);
     return st;

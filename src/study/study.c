@@ -25,7 +25,6 @@ struct plumb_study {
     plumb_item_report *items;       /* the falls (plumb_study_fall) */
     plumb_fall_report fall;
     plumb_limit_result *limits;     /* the limits (plumb_study_limit) */
-    plumb_fall_spec *limit_specs;   /* each item's spec at its answer */
     plumb_item_report *limit_falls; /* the fall there, judged (its warnings) */
     plumb_limit_report limit;
     char limit_key[PLUMB_DIAG_KEY];
@@ -40,7 +39,6 @@ void plumb_study_free(plumb_study *s)
         return;
     free(s->items);
     free(s->limits);
-    free(s->limit_specs);
     free(s->limit_falls);
     free(s->zones);
     free(s->zone_items);
@@ -265,28 +263,20 @@ static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, 
     if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE)
         return PLUMB_OK;
     double x = r->outcome == PLUMB_LIMIT_FOUND ? r->value_si : r->base_value_si;
-    plumb_atm_spec air;
     plumb_diag d;
     plumb_diag_clear(&d);
-    plumb_status st = plumb_limit_fall_at(s->profile, s->units, i, key, x, s->traj,
-                                          &s->limit_specs[i], &air, &it->result, &d);
-    plumb_atmosphere *atm = NULL;
+    plumb_status st = plumb_limit_fall_at(s->profile, s->units, i, key, x, s->traj, s->criteria,
+                                          it, &d);
     if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(&air, &atm, &d);
-    if (st == PLUMB_ENOMEM) {
+        return PLUMB_OK;
+    memset(it, 0, sizeof *it);
+    if (st == PLUMB_ENOMEM || st == PLUMB_EKEY) {
         if (diag)
             *diag = d;
         return st;
     }
-    if (st != PLUMB_OK)
-        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
-                               "the fall at the answer could not be computed again: %s",
-                               d.message);
-    it->spec = &s->limit_specs[i];
-    it->shape = plumb_profile_item_shape(s->profile, i);
-    st = plumb_item_judge(it, s->profile, s->criteria, atm, diag);
-    plumb_atmosphere_free(atm);
-    return st;
+    return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
+                           "the fall at the answer could not be computed again: %s", d.message);
 }
 
 plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric metric,
@@ -300,13 +290,11 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     if (st != PLUMB_OK)
         return at_option(diag, st, NULL);
     free(s->limits);
-    free(s->limit_specs);
     free(s->limit_falls);
     size_t n = s->n_items ? s->n_items : 1;
     s->limits = calloc(n, sizeof *s->limits);
-    s->limit_specs = calloc(n, sizeof *s->limit_specs);
     s->limit_falls = calloc(n, sizeof *s->limit_falls);
-    if (!s->limits || !s->limit_specs || !s->limit_falls)
+    if (!s->limits || !s->limit_falls)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     for (size_t i = 0; i < s->n_items; i++) {
         st = plumb_limit_solve(s->profile, s->units, i, key, metric, limit, opt, s->traj,
