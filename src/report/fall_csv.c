@@ -128,7 +128,7 @@ static void csv_item_row(writer *w, const plumb_item_report *it, size_t number)
 void plumbp_csv_fall(writer *w, const plumb_fall_report *rep)
 {
     const plumb_item_report *first = &rep->items[0];
-    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    char text[PLUMB_CRIT_TEXT * 4 + PLUMB_DIAG_FILE + NUMBUF * 2], quoted[PLUMB_CRIT_TEXT * 2];
     plumbp_csv_cautions(w);
     snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(rep->profile),
              plumb_profile_path(rep->profile), plumb_profile_sha256(rep->profile));
@@ -138,7 +138,7 @@ void plumbp_csv_fall(writer *w, const plumb_fall_report *rep)
         snprintf(text, sizeof text,
                  "criterion %s: %s, kind %s, limit %s, source: %s, status %s", c->id, c->name,
                  plumbp_crit_kind_name(c->kind), plumbp_csv_limit(w, c->energy_limit_j),
-                 c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
+                 plumbp_t_source(w, c, quoted, sizeof quoted), c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }
     plumbp_each_warning(w, rep, plumbp_csv_warning_line);

@@ -106,8 +106,9 @@ static void text_verdicts(writer *w, const plumb_item_report *it)
                  plumbp_verdict_word(v),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "");
         wrapped(w, "           ", line);
-        char src[PLUMB_CRIT_TEXT + 2 * PLUMB_CRIT_ID + 64];
-        snprintf(src, sizeof src, "%s [%s]%s%s%s", c->source[0] ? c->source : "source not given",
+        char src[PLUMB_CRIT_TEXT * 2 + 2 * PLUMB_CRIT_ID + 64], quoted[PLUMB_CRIT_TEXT * 2];
+        snprintf(src, sizeof src, "%s [%s]%s%s%s",
+                 c->source[0] ? plumbp_t_source(w, c, quoted, sizeof quoted) : "source not given",
                  c->id, plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
                  plumbp_status_note(c)[0] ? ")" : "");
         wrapped(w, "           source: ", src);
@@ -567,12 +568,12 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         for (size_t k = 0; k < nv; k++) {
             const plumb_criterion *c = first->verdicts[k].criterion;
             char lead[32], lim[NUMBUF * 2];
-            char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 3];
+            char line[PLUMB_CRIT_TEXT * 4 + PLUMB_CRIT_ID + NUMBUF * 3], quoted[PLUMB_CRIT_TEXT * 2];
             snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
             text_limit(w, c, lim, sizeof lim);
             snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s%s%s%s", c->name, c->id, lim,
                      c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
-                     c->source[0] ? c->source : "not given", plumbp_status_note(c)[0] ? " (" : "",
+                     plumbp_t_source(w, c, quoted, sizeof quoted), plumbp_status_note(c)[0] ? " (" : "",
                      plumbp_status_note(c), plumbp_status_note(c)[0] ? ")" : "");
             wrapped(w, lead, line);
         }

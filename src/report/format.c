@@ -11,9 +11,11 @@
  * of mercury (NIST SP 811, 2008, Appendix B.8: 1 inHg = 3.386389e3 Pa).
  * Energy is always shown in both joules and foot pound-force.
  */
+#include <ctype.h>
 #include <float.h>
 #include <math.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
 
 #include "report/format.h"
@@ -531,4 +533,66 @@ size_t plumb_report_warning(const char *warning, plumb_unit_system units, char *
     if (buf && size > 0)
         plumbp_strlcpy(buf, whole, size);
     return strlen(whole);
+}
+
+/* The SI quantities a criterion's source quotes from its standard ("5.0 kg
+ * striker, 1 m drop, at most 5.0 kN transmitted") with, in a US report, the
+ * US figure in brackets after each, to 3 significant digits ("5.0 kg
+ * [11.0 lb] striker, 1 m [3.28 ft] drop"): the quote stays as the standard
+ * words it. A number counts when it starts a word and its unit, after one
+ * space, ends one; "g" (a load factor) and times are left alone. */
+static const struct {
+    const char *si, *us;
+    double per_us; /* SI units in one US unit */
+} quoted_units[] = {
+    {"m/s", "ft/s", PLUMB_FT_M},
+    {"kN", "lbf", PLUMB_LB_KG * PLUMB_G0_M_S2 / 1000.0},
+    {"kg", "lb", PLUMB_LB_KG},
+    {"N", "lbf", PLUMB_LB_KG * PLUMB_G0_M_S2},
+    {"J", "ft\xC2\xB7lbf", PLUMB_FT_LBF_J},
+    {"m", "ft", PLUMB_FT_M},
+};
+
+static int word_char(char c)
+{
+    return isalnum((unsigned char)c) || c == '/' || c == '.' || c == '_';
+}
+
+const char *plumbp_t_source(writer *w, const plumb_criterion *c, char *buf, size_t size)
+{
+    const char *s = c->source[0] ? c->source : "not given";
+    if (!w->us || !c->source[0]) {
+        snprintf(buf, size, "%s", s);
+        return buf;
+    }
+    size_t o = 0;
+    for (const char *p = s; *p && o + 1 < size;) {
+        int starts = isdigit((unsigned char)*p) && (p == s || !word_char(p[-1]));
+        if (starts) {
+            char *end;
+            double x = strtod(p, &end);
+            size_t k = 0, ulen = 0;
+            if (end[0] == ' ')
+                for (k = 0; k < sizeof quoted_units / sizeof quoted_units[0]; k++) {
+                    ulen = strlen(quoted_units[k].si);
+                    if (strncmp(end + 1, quoted_units[k].si, ulen) == 0 &&
+                        !word_char(end[1 + ulen]))
+                        break;
+                }
+            if (end[0] == ' ' && k < sizeof quoted_units / sizeof quoted_units[0] &&
+                isfinite(x)) {
+                int n = snprintf(buf + o, size - o, "%.*s [%s" NBSP "%s]",
+                                 (int)(end + 1 + ulen - p), p,
+                                 num(w, x / quoted_units[k].per_us, 3), quoted_units[k].us);
+                if (n < 0 || (size_t)n >= size - o)
+                    break;
+                o += (size_t)n;
+                p = end + 1 + ulen;
+                continue;
+            }
+        }
+        buf[o++] = *p++;
+    }
+    buf[o < size ? o : size - 1] = '\0';
+    return buf;
 }

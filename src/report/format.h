@@ -101,4 +101,9 @@ const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size
  * returns 0 when a mark could not be read or a figure is not finite. */
 int plumbp_warning_plain(const char *text, int us, char *out, size_t size);
 
+/* A criterion's source ("not given" when empty) into buf: in a US report
+ * each SI figure it quotes from its standard gets the US one in brackets
+ * after it ("5.0 kg [11.0 lb] striker"). Returns buf. */
+const char *plumbp_t_source(writer *w, const plumb_criterion *c, char *buf, size_t size);
+
 #endif /* PLUMB_REPORT_FORMAT_H */

@@ -222,8 +222,8 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
     wrapped(w, "  ", text);
     const plumb_criterion *c = rep->criterion_info;
     if (c) {
-        char src[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + 64];
-        snprintf(src, sizeof src, "%s: %s%s%s%s%s", c->id, c->source[0] ? c->source : "not given",
+        char src[PLUMB_CRIT_TEXT * 4 + PLUMB_CRIT_ID + 64], quoted[PLUMB_CRIT_TEXT * 2];
+        snprintf(src, sizeof src, "%s: %s%s%s%s%s", c->id, plumbp_t_source(w, c, quoted, sizeof quoted),
                  plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
                  plumbp_status_note(c)[0] ? ")" : "",
                  c->kind == PLUMB_CRIT_HELMET_TEST ? "; a helmet test, not a safe limit" : "");
@@ -309,11 +309,11 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
     csv_comment(w, text);
     const plumb_criterion *c = rep->criterion_info;
     if (c) {
-        char line[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF * 2];
+        char line[PLUMB_CRIT_TEXT * 4 + PLUMB_CRIT_ID + NUMBUF * 2], quoted[PLUMB_CRIT_TEXT * 2];
         snprintf(line, sizeof line,
                  "criterion %s: %s, kind %s, limit %s, source: %s, status %s", c->id, c->name,
                  plumbp_crit_kind_name(c->kind), plumbp_csv_limit(w, c->energy_limit_j),
-                 c->source[0] ? c->source : "not given", c->status[0] ? c->status : "not given");
+                 plumbp_t_source(w, c, quoted, sizeof quoted), c->status[0] ? c->status : "not given");
         csv_comment(w, line);
     }
     each_limit_warning(w, rep, plumbp_csv_warning_line);

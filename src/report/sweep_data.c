@@ -23,7 +23,7 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
     const plumb_sweep_row *r0 = plumbp_sweep_first_row(sw);
     const plumb_profile *p = r0->report.profile;
-    char text[PLUMB_CRIT_TEXT * 2 + PLUMB_DIAG_FILE + NUMBUF * 2];
+    char text[PLUMB_CRIT_TEXT * 4 + PLUMB_DIAG_FILE + NUMBUF * 2], quoted[PLUMB_CRIT_TEXT * 2];
     plumbp_csv_cautions(w);
     snprintf(text, sizeof text, "profile: %s (%s), sha256 %s", plumb_profile_name(p),
              plumb_profile_path(p), plumb_profile_sha256(p));
@@ -32,7 +32,8 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
         snprintf(text, sizeof text, "criterion %s: %s, limit %s, source: %s, status %s", c->id,
-                 c->name, plumbp_csv_limit(w, c->energy_limit_j), c->source[0] ? c->source : "not given",
+                 c->name, plumbp_csv_limit(w, c->energy_limit_j),
+                 plumbp_t_source(w, c, quoted, sizeof quoted),
                  c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }

@@ -115,12 +115,14 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
     put(w, "\nCriteria (ratio = energy / limit)\n");
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
-        char lead[32], text[PLUMB_CRIT_TEXT * 2 + PLUMB_CRIT_ID + NUMBUF + 64];
+        char lead[32], text[PLUMB_CRIT_TEXT * 4 + PLUMB_CRIT_ID + NUMBUF + 64];
+        char quoted[PLUMB_CRIT_TEXT * 2];
         snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
         snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
                  plumbp_t_limit_energy(w, c->energy_limit_j),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
-                 c->source[0] ? c->source : "source not given", c->id,
+                 c->source[0] ? plumbp_t_source(w, c, quoted, sizeof quoted) : "source not given",
+                 c->id,
                  plumbp_status_note(c)[0] ? " (" : "", plumbp_status_note(c),
                  plumbp_status_note(c)[0] ? ")" : "");
         wrapped(w, lead, text);

@@ -347,6 +347,18 @@ d = json.loads(j) if rc == 0 else {}
 check(rc == 0 and d["impact"]["point_m"][1] == 0.0 and d["impact"]["velocity_m_s"][1] == 0.0,
       f"due-east fall in a west wind: north exactly 0: {d.get('impact', {}).get('point_m')}")
 
+# A criterion's test method is quoted from its standard in SI; a US report
+# gives the US figure in brackets after each (1 lb = 0.45359237 kg, 1 ft =
+# 0.3048 m, 1 lbf = 4.4482216152605 N: exact, NIST SP 811 B.8), the SI
+# report leaves the quote as it is.
+rc, us, _ = plumb("fall", tool, "--units", "us")
+rc2, si, _ = plumb("fall", tool)
+us_w, si_w = " ".join(us.split()), " ".join(si.split())
+want = (f"5.0 kg [{5.0 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.2f} ft] drop, at most "
+        f"5.0 kN [{round(5000 / 4.4482216152605, -1):.0f} lbf] transmitted")
+check(rc == 0 and rc2 == 0 and want in us_w and "5.0 kg striker, 1 m drop, at most 5.0 kN "
+      "transmitted" in si_w, f"criterion test method: US figures beside the quote: {want!r}")
+
 # CSV carries the descent devices' figures as JSON does (the CSV's 10
 # figures against JSON's full double), empty for a payload without one
 import csv as _csv  # noqa: E402
