@@ -792,6 +792,58 @@ static void test_the_plate_glide_rule_prints_its_ratio_whole_and_rounds_up(void 
     free(out);
 }
 
+/* A zone without a scatter allowance (zone.scatter 0, its default) says
+ * so in every format instead of "+ 0 m scatter allowance ..., as given":
+ * the text says none was given and that bounce and deflection are not
+ * included, CSV has a "# scatter:" line, JSON "scatter_included": false
+ * (README "Profile keys", zone.scatter). With an allowance, as before. */
+static void test_no_scatter_allowance_is_said_in_every_format(void **state)
+{
+    (void)state;
+    plumb_zone_result r = base;
+    r.zone.scatter_m = 0.0;
+    r.zone.clearance_radius_m = r.zone.radius_conf.hi;
+    r.zone.landing_radius.hi_open = 0;
+    r.zone.landing_circle_m = r.zone.landing_radius.hi;
+    r.zone.landing.open = 0;
+    r.at_target.scatter_m = 0.0; /* both passes share the zone's allowance */
+    r.at_target.clearance_radius_m = r.at_target.radius_conf.hi;
+    plumb_zone_item item = {"marker bag", &r, 0};
+    plumb_zone_report rep = single(&item);
+    for (int pass = 0; pass < 2; pass++) {
+        int none = pass == 0;
+        item.result = none ? &r : &base;
+        for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+            char *out = good(&rep, PLUMB_FORMAT_TEXT, (plumb_unit_system)u);
+            char *flat = squeeze(out);
+            const char *said = "+ none no scatter allowance given (zone.scatter): bounce and "
+                               "deflection are not included";
+            assert_true((strstr(flat, said) != NULL) == none);
+            assert_true((strstr(flat, "scatter allowance for bounce and deflection, as given") !=
+                         NULL) == !none);
+            if (none) {
+                assert_non_null(strstr(flat, ", the upper bound: no scatter allowance"));
+                assert_non_null(strstr(flat, " part, no scatter allowance added"));
+                assert_null(strstr(flat, "+ scatter "));
+            }
+            free(flat);
+            free(out);
+            out = good(&rep, PLUMB_FORMAT_CSV, (plumb_unit_system)u);
+            assert_true((strstr(out, "\n# scatter: none given (zone.scatter): bounce and "
+                                     "deflection are not included") != NULL) == none);
+            free(out);
+        }
+        char *out = good(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI);
+        json_t *root = json_loads(out, 0, NULL);
+        assert_non_null(root);
+        json_t *inc = json_object_get(json_object_get(root, "zone"), "scatter_included");
+        assert_true(json_is_boolean(inc));
+        assert_true(json_is_true(inc) == !none);
+        json_decref(root);
+        free(out);
+    }
+}
+
 /* ---- refusals ----------------------------------------------------------------------------- */
 
 static void refused(const plumb_zone_report *rep, const char *part)
@@ -946,6 +998,7 @@ int main(void)
         cmocka_unit_test(test_clearance_figures_are_rounded_up_and_their_sums_add_up_as_printed),
         cmocka_unit_test(test_radii_areas_and_rules_are_rounded_up_and_intervals_widened),
         cmocka_unit_test(test_the_plate_glide_rule_prints_its_ratio_whole_and_rounds_up),
+        cmocka_unit_test(test_no_scatter_allowance_is_said_in_every_format),
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
         cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
         cmocka_unit_test(test_the_samples_file_reads_back_and_quotes_names),

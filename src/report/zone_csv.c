@@ -146,6 +146,10 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
            "figures do not depend on the number)\n", r0->samples, r0->seed,
         csvnum(w, r0->confidence), csvnum(w, r0->ci_level), rep->threads,
         rep->threads == 1 ? "" : "s");
+    /* a scatter allowance of 0 is no allowance: said, not left as a 0 row */
+    if (!(r0->zone.scatter_m > 0.0))
+        put(w, "# scatter: none given (zone.scatter): bounce and deflection are not included in "
+               "the clearance radius, the landing circle or the landing area\n");
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;

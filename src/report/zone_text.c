@@ -430,7 +430,7 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
             lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s",
             plumbp_t_clear(w, plumbp_t_area, lr->buffered.area_m2));
     } else {
-        put(w, "  polygon         %s in %zu part%s; no scatter allowance to add as a buffer\n",
+        put(w, "  polygon         %s in %zu part%s, no scatter allowance added\n",
             plumbp_t_clear(w, plumbp_t_area, lr->polygon.area_m2),
             lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s");
     }
@@ -552,10 +552,10 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
     put(w, "Kit clearance radius at %s:\n", pct(w, k->confidence));
     wrapped(w, "  ", line);
     if (!l->zone.landing_radius.hi_open) {
-        snprintf(line, sizeof line, "largest landing circle %s (%s the scatter allowance), "
+        snprintf(line, sizeof line, "largest landing circle %s (%s scatter allowance), "
                  "set by %s", t_clear_sum(w, l->zone.landing_circle_m, l->zone.landing_radius.hi,
                                              l->zone.scatter_m).total,
-                 l->zone.scatter_m > 0.0 ? "with" : "no",
+                 l->zone.scatter_m > 0.0 ? "with the" : "no",
                  rep->items[rep->kit_landing_item].name);
         wrapped(w, "  ", line);
     }
