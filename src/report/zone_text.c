@@ -91,7 +91,7 @@ static clear_sum t_clear_sum(writer *w, double total_m, double bound_m, double s
         w->bad = 1;
     double b = len_shown(w, bound_m), sc = len_shown(w, scatter_m), t = b + sc;
     int d = LEN_DEC;
-    if (t > 0.0 && TEXT_SIG - 1 - (int)floor(log10(t)) < d)
+    if (t > 0.0 && plumbp_finite(t) && TEXT_SIG - 1 - (int)floor(log10(t)) < d)
         d = TEXT_SIG - 1 - (int)floor(log10(t));
     if (d < 0)
         d = 0;
