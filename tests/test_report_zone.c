@@ -741,7 +741,7 @@ static void test_radii_areas_and_rules_are_rounded_up_and_intervals_widened(void
     z->landing_radius.hi_open = 0;
     z->landing_radius.value = 54.80078;
     z->landing.open = 0;
-    z->landing.polygon.area_m2 = 6646.4468;
+    z->landing.polygon.area_m2 = 6646.446812345; /* 10 figures: ...812 to nearest */
     z->landing.buffered.area_m2 = 7632.2;
     z->drop_height_m = 23.70004;
     z->ballistic_throw_m = 18.8412;
@@ -764,12 +764,32 @@ static void test_radii_areas_and_rules_are_rounded_up_and_intervals_widened(void
     assert_true(at_least(csv_value(out, "marker bag,radius_p50"), 73.3319 * f));
     assert_true(at_least(csv_value(out, "marker bag,radius_max"), 150.6207 * f));
     assert_true(at_least(csv_value(out, "marker bag,drop_height"), 23.70004 * f));
-    assert_true(at_least(csv_value(out, "marker bag,landing_area"), 6646.4468 * f * f));
+    assert_true(at_least(csv_value(out, "marker bag,landing_area"), 6646.446812345 * f * f));
     /* the low end of the interval, in the column after the value */
     const char *row = strstr(out, "marker bag,radius_p50,");
     double lo = strtod(strchr(row + strlen("marker bag,radius_p50,"), ',') + 1, NULL);
     assert_true(lo <= 72.7190 * f);
     free(out);
+    /* the --regions-out CSV: the landing region's area rounded up too */
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mf = open_memstream(&buf, &len);
+    assert_non_null(mf);
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_report_zone_regions(mf, &rep, &d), PLUMB_OK);
+    assert_int_equal(fclose(mf), 0);
+    size_t rows = 0;
+    for (const char *l = strstr(buf, "\nmarker bag,landing_region,"); l;
+         l = strstr(l + 1, "\nmarker bag,landing_region,")) {
+        const char *c = l + 1;
+        for (int k = 0; k < 8; k++) /* area_m2 is the 9th column */
+            c = strchr(c, ',') + 1;
+        assert_true(strtod(c, NULL) == 6646.446813); /* 10 figures, up */
+        rows++;
+    }
+    assert_true(rows > 0);
+    free(buf);
 }
 
 /* A zone's plate glide: Smith 1970's largest ratio, 1.375, printed as it
