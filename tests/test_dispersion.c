@@ -362,6 +362,115 @@ static void test_zone_is_identical_for_one_two_and_three_threads(void **state)
     plumb_atmosphere_free(atm);
 }
 
+/* ---- descent devices that do not open ---------------------------------------- */
+
+/* A bag under a parachute that opens `after_s` after release, from 30 m. */
+static void late_chute_spec(plumb_fall_spec *s, double after_s)
+{
+    drag_free_spec(s, 1.213, 30.0);
+    s->drag.cd = 0.93;
+    s->descent[0].kind = PLUMB_DESCENT_PARACHUTE;
+    s->descent[0].cd = 0.78;
+    s->descent[0].area_m2 = 1.47;
+    s->descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s->descent[0].deploy_value = after_s;
+    s->descent[0].fill_time_s = 0.8;
+    s->n_descent = 1;
+}
+
+typedef struct times {
+    size_t n;
+    double t[600];
+} times;
+
+static int keep_time(void *user, int pass, size_t index, const plumb_zone_sample *smp)
+{
+    times *tm = user;
+    if (pass == 0 && index < 600) {
+        tm->t[index] = smp->time_s;
+        tm->n = index + 1;
+    }
+    return 0;
+}
+
+/* The zone says when a device did not open before impact in some samples
+ * (as plumb fall does for its one fall), with the count. The count is
+ * checked by logic, not by the deployed[] flags it is made from: a device
+ * set to open `after` a time opens if and only if the body is still in
+ * the air then, so it stayed shut in exactly the samples whose drawn
+ * deploy time (plumb_sampler_draw, the same (seed, index) stream as the
+ * zone's: dispersion.h) is at least their impact time. A warning is part
+ * of the result, so it too is the same for one and three threads. */
+static void test_a_device_that_does_not_open_in_some_samples_is_counted_in_a_warning(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_std_air(15.0);
+    plumb_fall_spec s;
+    late_chute_spec(&s, 2.9);
+    /* deploy times around the fall time (about 2.6 s from 30 m) */
+    plumb_uncertainty u[2] = {unc("descent.deploy.after", PLUMB_DIST_UNIFORM, 1.3, 4.7, 0.0),
+                              unc("wind.speed", PLUMB_DIST_UNIFORM, 0.5, 6.1, 0.0)};
+    plumb_zone_spec z = zone_spec(600, 8311, 0.9);
+    static times tm;
+    static plumb_zone_result r[2];
+    for (int k = 0; k < 2; k++) {
+        plumb_zone_options o;
+        plumb_zone_options_init(&o);
+        o.threads = k == 0 ? 1 : 3;
+        o.block_samples = 64;
+        o.on_sample = keep_time;
+        o.sample_user = &tm;
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        if (plumb_zone_run(&s, atm, u, 2, &z, NULL, 0, &o, &r[k], &d) != PLUMB_OK)
+            fail_msg("%s: %s", d.key, d.message);
+    }
+    assert_memory_equal(&r[0], &r[1], sizeof r[0]);
+    assert_int_equal(tm.n, 600);
+    plumb_sampler *smp = NULL;
+    plumb_diag d;
+    assert_int_equal(plumb_sampler_alloc(&s, u, 2, NULL, &smp, &d), PLUMB_OK);
+    size_t shut = 0;
+    for (size_t i = 0; i < 600; i++) {
+        plumb_fall_spec drawn;
+        assert_int_equal(plumb_sampler_draw(smp, z.seed, i, &drawn, NULL, NULL, &d), PLUMB_OK);
+        shut += drawn.descent[0].deploy_value >= tm.t[i];
+    }
+    plumb_sampler_free(smp);
+    assert_true(shut > 0 && shut < 600); /* some open, some do not */
+    char want[160];
+    snprintf(want, sizeof want, "The parachute (descent[0]) did not open before impact in %zu of "
+             "600 samples (%.1f %%): those land at the speed of a fall without it.", shut,
+             100.0 * (double)shut / 600.0);
+    size_t found = 0;
+    for (size_t i = 0; i < r[0].n_warnings; i++)
+        found += strcmp(r[0].warnings[i], want) == 0;
+    if (found != 1)
+        fail_msg("no warning \"%s\" (%zu warnings; first: %s)", want, r[0].n_warnings,
+                 r[0].n_warnings ? r[0].warnings[0] : "");
+
+    /* opening 60 s after release from 30 m: every fall lands first (each
+     * impact time is below 60 s), so none opens, and the warning says so */
+    late_chute_spec(&s, 60.0);
+    plumb_uncertainty w[1] = {unc("wind.speed", PLUMB_DIST_UNIFORM, 0.5, 6.1, 0.0)};
+    plumb_zone_options o;
+    plumb_zone_options_init(&o);
+    o.on_sample = keep_time;
+    o.sample_user = &tm;
+    assert_int_equal(plumb_zone_run(&s, atm, w, 1, &z, NULL, 0, &o, &r[0], &d), PLUMB_OK);
+    for (size_t i = 0; i < 600; i++)
+        assert_true(tm.t[i] < 60.0);
+    assert_int_equal(r[0].n_warnings, 1);
+    assert_string_equal(r[0].warnings[0], "The parachute (descent[0]) did not open before impact "
+                                          "in any of the 600 samples: every figure is that of a "
+                                          "fall without it.");
+    /* opening at once (after 0 s): every one opens, no warning */
+    late_chute_spec(&s, 0.0);
+    assert_int_equal(plumb_zone_run(&s, atm, w, 1, &z, NULL, 0, &o, &r[0], &d), PLUMB_OK);
+    assert_int_equal(r[0].n_warnings, 0);
+    plumb_atmosphere_free(atm);
+}
+
 /* ---- 4. histogram against an exact sort -------------------------------------- */
 
 typedef struct collected {
@@ -1039,6 +1148,7 @@ int main(void)
         cmocka_unit_test(test_intervals_cover_the_true_values_in_at_least_93_percent_of_200_runs),
         cmocka_unit_test(test_exceedance_follows_the_criterion_wording_at_the_limit),
         cmocka_unit_test(test_zone_is_identical_for_one_two_and_three_threads),
+        cmocka_unit_test(test_a_device_that_does_not_open_in_some_samples_is_counted_in_a_warning),
         cmocka_unit_test(test_binned_percentiles_match_an_exact_sort_of_1e5_samples),
         cmocka_unit_test(test_release_point_puts_the_median_impact_on_the_target),
         cmocka_unit_test(test_every_distribution_matches_its_mean_and_variance),

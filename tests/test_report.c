@@ -1114,6 +1114,51 @@ static void test_inventory_names_the_worst_item_and_the_largest_drift(void **sta
     plumb_profile_free(p);
 }
 
+/* The glide a plate may add to its drift is a distance to keep clear: it
+ * is rounded up at its last digit shown, never to nearest. Smith 1970:
+ * a tumbling plate glides up to 1.375 x the height fallen (the ratio of
+ * plumb_glide_ratio_max, plumb/glide.h); from 150 ft that is 206.25 ft
+ * exactly (1.375 x 150, a closed form), shown to 4 figures as 206.3 ft,
+ * not 206.2 ft; 150 ft = 45.72 m and 1.375 x 45.72 = 62.865 m, shown as
+ * 62.87 m (1 ft = 0.3048 m, 1959 agreement). */
+static void test_a_plates_glide_distance_is_rounded_up(void **state)
+{
+    fixture *fx = *state;
+    plumb_profile *p = load_profile(fx, "plate.yaml",
+                                    "name: Test kit\n"
+                                    "items:\n"
+                                    "  - {name: Radio, mass: 0.412 kg, drag: {cd_area: 0.0063 m^2}}\n"
+                                    "  - {name: Plate, mass: 0.0613 kg, drag: {cd_area: 0.0213 m^2},"
+                                    " glide: tumble}\n"
+                                    "release: {height: 150 ft}\n"
+                                    "criteria: [us-part107-cat3]\n");
+    assert_rel(plumb_glide_ratio_max(PLUMB_GLIDE_TUMBLE), 1.375, 1e-15); /* Smith 1970 */
+    plumb_item_report it[2];
+    plumb_diag diag;
+    for (size_t i = 0; i < 2; i++) {
+        hand_built(&it[i], p, 9.73 + 3.1 * (double)i);
+        it[i].spec = plumb_profile_item(p, i);
+        it[i].shape = plumb_profile_item_shape(p, i);
+        it[i].result.drift_m = 3.917;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_item_judge(&it[i], p, fx->crit, NULL, &diag), PLUMB_OK);
+    }
+    plumb_status st;
+    const char *want[2] = {"which may carry it up to 62.87 m sideways",
+                           "which may carry it up to 206.3 ft sideways"};
+    for (int u = 0; u < 2; u++) {
+        char *text = fall_report(p, it, 2, PLUMB_FORMAT_TEXT,
+                                 u ? PLUMB_UNITS_US : PLUMB_UNITS_SI, &st, &diag);
+        assert_int_equal(st, PLUMB_OK);
+        char *flat = squeeze(text);
+        if (!strstr(flat, want[u]))
+            fail_msg("no \"%s\" in:\n%s", want[u], text);
+        free(flat);
+        free(text);
+    }
+    plumb_profile_free(p);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -1139,6 +1184,7 @@ int main(void)
         cmocka_unit_test(test_csv_quotes_a_name_with_a_comma_as_rfc_4180_says),
         cmocka_unit_test(test_us_units_csv_names_columns_in_feet_and_pounds),
         cmocka_unit_test(test_inventory_names_the_worst_item_and_the_largest_drift),
+        cmocka_unit_test(test_a_plates_glide_distance_is_rounded_up),
         cmocka_unit_test(test_the_longest_warnings_of_a_fall_are_whole_in_the_fall_and_its_zone),
         cmocka_unit_test(test_helmet_tests_too_many_to_name_are_counted_not_cut),
         cmocka_unit_test(test_a_warning_that_does_not_fit_says_so),

@@ -26,6 +26,7 @@
  *   - 14 CFR 107.130(a)(1): 25 ft lbf; EN 397 shock absorption test: 49 J
  *     (references.md, transcribed; a helmet test, not a safe limit).
  */
+#include <float.h>
 #include <math.h>
 #include <stdarg.h>
 #include <stddef.h>
@@ -617,6 +618,252 @@ static void test_a_drop_from_rest_says_there_is_no_throw(void **state)
     free(out);
 }
 
+/* ---- keep-clear figures rounded up -------------------------------------------------- */
+
+/* The number after the first `label` in s (squeezed text), and its
+ * decimals; fails when there is none. */
+static double number_after(const char *s, const char *label, int *decimals)
+{
+    const char *at = strstr(s, label);
+    if (!at)
+        fail_msg("no \"%s\" in:\n%s", label, s);
+    at += strlen(label);
+    char *end = NULL;
+    double v = strtod(at, &end);
+    assert_true(end && end > at);
+    const char *dot = memchr(at, '.', (size_t)(end - at));
+    *decimals = dot ? (int)(end - dot - 1) : 0;
+    return v;
+}
+
+/* 1 when a printed figure is at least x, to within the round-off that
+ * plumbp_round_safe leaves as it is (16 units in the last place: a
+ * figure computed as 7.7997621000000006 is the decimal 7.7997621). */
+static int at_least(double printed, double x)
+{
+    return printed >= x - 32.0 * DBL_EPSILON * fabs(x);
+}
+
+/* A sum "T = B + C" as printed: each figure at least the one it stands
+ * for (x 1 ft = 0.3048 m, 1959 agreement, in US units), all three at one
+ * decimal place, the printed parts adding up to the printed total exactly
+ * (decimal arithmetic) and the total within one unit of its last digit
+ * per part of the true total. Rounding a distance to keep clear away from
+ * the safe side: common practice, no source. */
+static void assert_sum_rounded_up(const char *flat, const char *total_label, const char *bound_label,
+                                  const char *scatter_label, double bound, double scatter, double f)
+{
+    int dt, db, ds;
+    double t = number_after(flat, total_label, &dt);
+    double b = number_after(strstr(flat, total_label), bound_label, &db);
+    double c = number_after(strstr(strstr(flat, total_label), bound_label), scatter_label, &ds);
+    assert_int_equal(db, dt);
+    assert_int_equal(ds, dt);
+    double unit = pow(10.0, -dt);
+    if (!(at_least(t, (bound + scatter) * f) && at_least(b, bound * f) && at_least(c, scatter * f)))
+        fail_msg("%g = %g + %g is below %.17g = %.17g + %.17g", t, b, c, (bound + scatter) * f,
+                 bound * f, scatter * f);
+    assert_true(llround(t / unit) == llround(b / unit) + llround(c / unit));
+    assert_true(t <= (bound + scatter) * f + 2.0 * unit);
+}
+
+static void test_clearance_figures_are_rounded_up_and_their_sums_add_up_as_printed(void **state)
+{
+    (void)state;
+    /* bounds and allowances whose nearest rounding falls below them: the
+     * brief's 98.3359 m + 3 m (printed 101.3 m to nearest), sums crossing
+     * a power of ten, and a small one */
+    const double bound[] = {98.3359, 56.64453125, 9.99961, 0.98765, 1234.5671, 99.9951};
+    const double scatter[] = {3.0, 2.0, 1.7, 0.0004, 3.0, 0.0049};
+    for (size_t k = 0; k < sizeof bound / sizeof bound[0]; k++) {
+        plumb_zone_result r = base;
+        plumb_zone_stats *z = &r.zone;
+        z->radius_conf.hi = bound[k];
+        z->radius_conf.value = 0.97 * bound[k];
+        z->scatter_m = scatter[k];
+        z->clearance_radius_m = bound[k] + scatter[k];
+        z->landing_radius.hi_open = 0;
+        z->landing_radius.hi = 0.61 * bound[k];
+        z->landing_radius.value = 0.58 * bound[k];
+        z->landing_circle_m = z->landing_radius.hi + scatter[k];
+        plumb_zone_item item = {"marker bag", &r, 0};
+        plumb_zone_report rep = single(&item);
+        for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+            double f = u == PLUMB_UNITS_US ? 1.0 / FT_M : 1.0;
+            char *out = good(&rep, PLUMB_FORMAT_TEXT, (plumb_unit_system)u);
+            char *flat = squeeze(out);
+            assert_sum_rounded_up(flat, "Clearance radius at 90 %: ", "= ", "+ ", bound[k],
+                                  scatter[k], f);
+            assert_sum_rounded_up(flat, "landing circle ", "= upper bound ", "+ scatter ",
+                                  z->landing_radius.hi, scatter[k], f);
+            free(flat);
+            free(out);
+            /* CSV: CSV_DIGITS figures, each rounded up */
+            out = good(&rep, PLUMB_FORMAT_CSV, (plumb_unit_system)u);
+            assert_true(at_least(csv_value(out, "marker bag,clearance_radius"),
+                                 z->clearance_radius_m * f));
+            assert_true(at_least(csv_value(out, "marker bag,landing_circle"),
+                                 z->landing_circle_m * f));
+            assert_true(at_least(csv_value(out, "marker bag,scatter"), scatter[k] * f));
+            free(out);
+        }
+    }
+    /* the brief's case, in words: 98.3359 m + 3 m = 101.3359 m shows as
+     * 101.4 m = 98.4 m + 3.0 m (4 figures rounded up), never 101.3 m */
+    plumb_zone_result r = base;
+    r.zone.radius_conf.hi = 98.3359;
+    r.zone.scatter_m = 3.0;
+    r.zone.clearance_radius_m = 101.3359;
+    plumb_zone_item item = {"marker bag", &r, 0};
+    plumb_zone_report rep = single(&item);
+    char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    assert_non_null(strstr(out, "Clearance radius at 90 %: 101.4 m\n  = 98.4 m "));
+    assert_non_null(strstr(out, "\n  + 3.0 m        scatter allowance"));
+    free(out);
+}
+
+/* Every other distance to keep clear is rounded up at its last digit
+ * shown, and a radius's interval is widened (its low end rounded down),
+ * in text and CSV: the radii, the largest, the landing circle's radius,
+ * the polygon's areas, the simple rules. Each value below is one whose
+ * nearest rounding falls on the other side (4 figures, at most 3
+ * decimals: 73.3319 -> 73.34, not 73.33). Common practice, no source. */
+static void test_radii_areas_and_rules_are_rounded_up_and_intervals_widened(void **state)
+{
+    (void)state;
+    plumb_zone_result r = base;
+    plumb_zone_stats *z = &r.zone;
+    z->radius[0].value = 73.3319;
+    z->radius[0].lo = 72.7190;
+    z->radius[0].hi = 74.0214;
+    z->radius[0].lo_open = z->radius[0].hi_open = 0;
+    z->radius_max_m = 150.6207;
+    z->landing_radius.hi_open = 0;
+    z->landing_radius.value = 54.80078;
+    z->landing.open = 0;
+    z->landing.polygon.area_m2 = 6646.446812345; /* 10 figures: ...812 to nearest */
+    z->landing.buffered.area_m2 = 7632.2;
+    z->drop_height_m = 23.70004;
+    z->ballistic_throw_m = 18.8412;
+    z->glide_ratio_max = 0.0;
+    plumb_zone_item item = {"marker bag", &r, 0};
+    plumb_zone_report rep = single(&item);
+    char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    char *flat = squeeze(out);
+    const char *want[] = {"50 % 73.34 m 72.71 – 74.03 m", "largest 150.7 m",
+                          "circle radius 54.81 m,", "polygon 6647 m² in", "7633 m²",
+                          "radius = drop height 23.71 m", "drag-free throw 18.85 m:"};
+    for (size_t i = 0; i < sizeof want / sizeof want[0]; i++)
+        if (!strstr(flat, want[i]))
+            fail_msg("no \"%s\" in:\n%s", want[i], out);
+    free(flat);
+    free(out);
+    out = good(&rep, PLUMB_FORMAT_CSV, PLUMB_UNITS_US);
+    assert_non_null(strstr(out, ",radius_p50,")); /* the row, then its figures */
+    double f = 1.0 / FT_M;                         /* 1 ft = 0.3048 m */
+    assert_true(at_least(csv_value(out, "marker bag,radius_p50"), 73.3319 * f));
+    assert_true(at_least(csv_value(out, "marker bag,radius_max"), 150.6207 * f));
+    assert_true(at_least(csv_value(out, "marker bag,drop_height"), 23.70004 * f));
+    assert_true(at_least(csv_value(out, "marker bag,landing_area"), 6646.446812345 * f * f));
+    /* the low end of the interval, in the column after the value */
+    const char *row = strstr(out, "marker bag,radius_p50,");
+    double lo = strtod(strchr(row + strlen("marker bag,radius_p50,"), ',') + 1, NULL);
+    assert_true(lo <= 72.7190 * f);
+    free(out);
+    /* the --regions-out CSV: the landing region's area rounded up too */
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mf = open_memstream(&buf, &len);
+    assert_non_null(mf);
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_report_zone_regions(mf, &rep, &d), PLUMB_OK);
+    assert_int_equal(fclose(mf), 0);
+    size_t rows = 0;
+    for (const char *l = strstr(buf, "\nmarker bag,landing_region,"); l;
+         l = strstr(l + 1, "\nmarker bag,landing_region,")) {
+        const char *c = l + 1;
+        for (int k = 0; k < 8; k++) /* area_m2 is the 9th column */
+            c = strchr(c, ',') + 1;
+        assert_true(strtod(c, NULL) == 6646.446813); /* 10 figures, up */
+        rows++;
+    }
+    assert_true(rows > 0);
+    free(buf);
+}
+
+/* A zone's plate glide: Smith 1970's largest ratio, 1.375, printed as it
+ * is (not 1.38), and the distance 1.375 x 150 ft = 206.25 ft rounded up
+ * to 206.3 ft (closed form; 1 ft = 0.3048 m). */
+static void test_the_plate_glide_rule_prints_its_ratio_whole_and_rounds_up(void **state)
+{
+    (void)state;
+    plumb_zone_result r = base;
+    r.zone.glide_ratio_max = 1.375;
+    r.zone.drop_height_m = 150.0 * FT_M;
+    plumb_zone_item item = {"marker bag", &r, 0};
+    plumb_zone_report rep = single(&item);
+    char *out = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_US);
+    char *flat = squeeze(out);
+    if (!strstr(flat, "plate glide up to 206.3 ft (1.375 x the drop height)"))
+        fail_msg("no plate glide of 206.3 ft, 1.375 x, in:\n%s", out);
+    assert_non_null(strstr(flat, "range of glide ratios 0 to 1.375 ("));
+    free(flat);
+    free(out);
+}
+
+/* A zone without a scatter allowance (zone.scatter 0, its default) says
+ * so in every format instead of "+ 0 m scatter allowance ..., as given":
+ * the text says none was given and that bounce and deflection are not
+ * included, CSV has a "# scatter:" line, JSON "scatter_included": false
+ * (README "Profile keys", zone.scatter). With an allowance, as before. */
+static void test_no_scatter_allowance_is_said_in_every_format(void **state)
+{
+    (void)state;
+    plumb_zone_result r = base;
+    r.zone.scatter_m = 0.0;
+    r.zone.clearance_radius_m = r.zone.radius_conf.hi;
+    r.zone.landing_radius.hi_open = 0;
+    r.zone.landing_circle_m = r.zone.landing_radius.hi;
+    r.zone.landing.open = 0;
+    r.at_target.scatter_m = 0.0; /* both passes share the zone's allowance */
+    r.at_target.clearance_radius_m = r.at_target.radius_conf.hi;
+    plumb_zone_item item = {"marker bag", &r, 0};
+    plumb_zone_report rep = single(&item);
+    for (int pass = 0; pass < 2; pass++) {
+        int none = pass == 0;
+        item.result = none ? &r : &base;
+        for (int u = PLUMB_UNITS_SI; u <= PLUMB_UNITS_US; u++) {
+            char *out = good(&rep, PLUMB_FORMAT_TEXT, (plumb_unit_system)u);
+            char *flat = squeeze(out);
+            const char *said = "+ none no scatter allowance given (zone.scatter): bounce and "
+                               "deflection are not included";
+            assert_true((strstr(flat, said) != NULL) == none);
+            assert_true((strstr(flat, "scatter allowance for bounce and deflection, as given") !=
+                         NULL) == !none);
+            if (none) {
+                assert_non_null(strstr(flat, ", the upper bound: no scatter allowance"));
+                assert_non_null(strstr(flat, " part, no scatter allowance added"));
+                assert_null(strstr(flat, "+ scatter "));
+            }
+            free(flat);
+            free(out);
+            out = good(&rep, PLUMB_FORMAT_CSV, (plumb_unit_system)u);
+            assert_true((strstr(out, "\n# scatter: none given (zone.scatter): bounce and "
+                                     "deflection are not included") != NULL) == none);
+            free(out);
+        }
+        char *out = good(&rep, PLUMB_FORMAT_JSON, PLUMB_UNITS_SI);
+        json_t *root = json_loads(out, 0, NULL);
+        assert_non_null(root);
+        json_t *inc = json_object_get(json_object_get(root, "zone"), "scatter_included");
+        assert_true(json_is_boolean(inc));
+        assert_true(json_is_true(inc) == !none);
+        json_decref(root);
+        free(out);
+    }
+}
+
 /* ---- refusals ----------------------------------------------------------------------------- */
 
 static void refused(const plumb_zone_report *rep, const char *part)
@@ -768,6 +1015,10 @@ int main(void)
         cmocka_unit_test(test_inventory_json_names_the_item_with_the_largest_clearance_radius),
         cmocka_unit_test(test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it),
         cmocka_unit_test(test_a_drop_from_rest_says_there_is_no_throw),
+        cmocka_unit_test(test_clearance_figures_are_rounded_up_and_their_sums_add_up_as_printed),
+        cmocka_unit_test(test_radii_areas_and_rules_are_rounded_up_and_intervals_widened),
+        cmocka_unit_test(test_the_plate_glide_rule_prints_its_ratio_whole_and_rounds_up),
+        cmocka_unit_test(test_no_scatter_allowance_is_said_in_every_format),
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
         cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
         cmocka_unit_test(test_the_samples_file_reads_back_and_quotes_names),

@@ -603,7 +603,8 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
                  plumbp_t_len(w, drift->result.drift_m),
                  plumbp_t_bearing(w, drift->result.bearing_deg));
     /* a plate's glide is not in the fall (judge.c warns): the largest
-     * sideways travel it may add, beside the drift computed */
+     * sideways travel it may add, beside the drift computed; a distance to
+     * keep clear, so rounded up */
     const plumb_item_report *plate = NULL;
     double glide = 0.0;
     for (size_t i = 0; i < rep->n_items; i++) {
@@ -621,7 +622,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         snprintf(line + len, sizeof line - len,
                  "; not counting the glide of %s, a plate, which may carry it up to %s "
                  "sideways (see Warnings)",
-                 plate->spec->name, plumbp_t_len(w, glide));
+                 plate->spec->name, plumbp_t_clear(w, plumbp_t_len, glide));
     }
     wrapped(w, "Largest drift  ", line);
 

@@ -154,6 +154,17 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip)
     int d = ax > 0.0 ? sig - 1 - (int)floor(log10(ax)) : 0;
     if (d > dec)
         d = dec;
+    if (w->round_dir && ax > 0.0) {
+        /* at the last digit shown, toward the safe side; a figure rounded
+         * up to the next power of ten (9.9996 -> 10.000) shows one decimal
+         * fewer, as its figures say */
+        x = d < 0 ? plumbp_round_safe(x, sig, w->round_dir < 0)
+                  : plumbp_round_safe_at(x, d, w->round_dir < 0);
+        ax = fabs(x);
+        int d2 = ax > 0.0 ? sig - 1 - (int)floor(log10(ax)) : 0;
+        if (d2 < d)
+            d = d2;
+    }
     if (d < 0)
         return num(w, x, sig);
     snprintf(b, NUMBUF, "%.*f", d, x);
@@ -180,6 +191,35 @@ double plumbp_round_safe(double x, int sig, int round_down)
     if (fabs(q - whole) <= 16.0 * DBL_EPSILON * fabs(q))
         return whole * scale;
     return (round_down ? floor(q) : ceil(q)) * scale;
+}
+
+/* x rounded at `dec` decimals (a negative dec: to tens, hundreds ...),
+ * down or up: plumbp_round_safe counted in decimals rather than in
+ * significant figures, for a figure printed to a fixed decimal place. */
+double plumbp_round_safe_at(double x, int dec, int round_down)
+{
+    if (x == 0.0 || !plumbp_finite(x))
+        return x;
+    return plumbp_round_safe(x, (int)floor(log10(fabs(x))) + 1 + dec, round_down);
+}
+
+/* x in the display units through t, each figure rounded at its last digit
+ * shown toward the safe side: dir +1 up (a keep-clear distance: a radius,
+ * a landing circle, a glide; the top of its interval), -1 down (the
+ * bottom of that interval). */
+const char *plumbp_t_round(writer *w, const char *(*t)(writer *, double), double x, int dir)
+{
+    int was = w->round_dir;
+    w->round_dir = dir;
+    const char *b = t(w, x);
+    w->round_dir = was;
+    return b;
+}
+
+/* A keep-clear distance through t, rounded up (plumbp_t_round). */
+const char *plumbp_t_clear(writer *w, const char *(*t)(writer *, double), double x)
+{
+    return plumbp_t_round(w, t, x, 1);
 }
 
 /* An upper limit in the display units, each figure rounded down: the
@@ -232,6 +272,10 @@ static const char *qty(writer *w, double x)
 {
     if (w->strict)
         return num(w, plumbp_round_safe(x, TEXT_SIG, 1), TEXT_SIG);
+    if (w->round_dir) {
+        int sig = w->sig ? w->sig : TEXT_SIG;
+        return num(w, plumbp_round_safe(x, sig, w->round_dir < 0), sig);
+    }
     if (!w->exact)
         return num(w, x, w->sig ? w->sig : TEXT_SIG);
     return plumbp_gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);
@@ -478,9 +522,9 @@ static const char *warning_qty(writer *w, char kind, double x)
 const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size)
 {
     size_t n = 0;
-    int was_sig = w->sig, was_exact = w->exact, was_strict = w->strict;
+    int was_sig = w->sig, was_exact = w->exact, was_strict = w->strict, was_dir = w->round_dir;
     w->sig = WARNING_SIG;
-    w->exact = w->strict = 0;
+    w->exact = w->strict = w->round_dir = 0;
     if (size == 0)
         return out;
     out[0] = '\0';
@@ -511,6 +555,7 @@ const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size
     w->sig = was_sig;
     w->exact = was_exact;
     w->strict = was_strict;
+    w->round_dir = was_dir;
     return out;
 }
 

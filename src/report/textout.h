@@ -40,6 +40,9 @@ typedef struct writer {
     int bad;                 /* a non-finite figure was asked for */
     int exact;               /* 1: echoing inputs (see qty) */
     int strict;              /* 1: an upper limit, rounded down (see qty) */
+    int round_dir;           /* +1: a keep-clear distance, rounded up; -1: the low end
+                                of its interval, rounded down; 0: to nearest (see qty,
+                                plumbp_t_round) */
     int sig;                 /* figures of a computed quantity; 0: TEXT_SIG (see qty) */
     int nomem;               /* an allocation failed: the report is refused */
     char ring[RING][NUMBUF]; /* formatted numbers, reused round-robin */

@@ -41,11 +41,27 @@ static void csv_row(writer *w, const csv_item *item, const char *quantity, doubl
     put(w, "\n");
 }
 
+/* A keep-clear figure (a radius, a landing circle, an area, a rule's
+ * radius) at CSV_DIGITS figures rounded up, and its interval widened (the
+ * low end rounded down): no distance to keep clear below the one computed. */
+static double up(double x)
+{
+    return plumbp_round_safe(x, CSV_DIGITS, 0);
+}
+
+static void csv_clear_row(writer *w, const csv_item *item, const char *quantity, double value,
+                          const double *lo, const double *hi, const char *unit)
+{
+    double l = lo ? plumbp_round_safe(*lo, CSV_DIGITS, 1) : 0.0, h = hi ? up(*hi) : 0.0;
+    csv_row(w, item, quantity, up(value), lo ? &l : NULL, hi ? &h : NULL, unit);
+}
+
 static void csv_quantile(writer *w, const csv_item *item, const char *name,
-                         const plumb_zone_quantile *q, double scale, const char *unit)
+                         const plumb_zone_quantile *q, double scale, const char *unit, int clear)
 {
     double lo = q->lo * scale, hi = q->hi * scale;
-    csv_row(w, item, name, q->value * scale, q->lo_open ? NULL : &lo, q->hi_open ? NULL : &hi, unit);
+    (clear ? csv_clear_row : csv_row)(w, item, name, q->value * scale, q->lo_open ? NULL : &lo,
+                                      q->hi_open ? NULL : &hi, unit);
 }
 
 static void csv_stats(writer *w, const csv_item *item, const char *prefix, const plumb_zone_stats *z,
@@ -75,28 +91,28 @@ static void csv_stats(writer *w, const csv_item *item, const char *prefix, const
     for (int i = 0; i < PLUMB_ZONE_RADII; i++) {
         char name[32];
         snprintf(name, sizeof name, "radius_%s", plumbp_zone_radius_names[i]);
-        csv_quantile(w, item, Q(name), &z->radius[i], L, lu);
+        csv_quantile(w, item, Q(name), &z->radius[i], L, lu, 1);
     }
-    csv_row(w, item, Q("radius_max"), z->radius_max_m * L, NULL, NULL, lu);
-    csv_quantile(w, item, Q("radius_at_confidence"), &z->radius_conf, L, lu);
-    csv_row(w, item, Q("scatter"), z->scatter_m * L, NULL, NULL, lu);
-    csv_row(w, item, Q("clearance_radius"), z->clearance_radius_m * L, NULL, NULL, lu);
+    csv_clear_row(w, item, Q("radius_max"), z->radius_max_m * L, NULL, NULL, lu);
+    csv_quantile(w, item, Q("radius_at_confidence"), &z->radius_conf, L, lu, 1);
+    csv_clear_row(w, item, Q("scatter"), z->scatter_m * L, NULL, NULL, lu);
+    csv_clear_row(w, item, Q("clearance_radius"), z->clearance_radius_m * L, NULL, NULL, lu);
     csv_row(w, item, Q("landing_centre_east"), z->landing_centre_m[0] * L, NULL, NULL, lu);
     csv_row(w, item, Q("landing_centre_north"), z->landing_centre_m[1] * L, NULL, NULL, lu);
-    csv_quantile(w, item, Q("landing_radius"), &z->landing_radius, L, lu);
+    csv_quantile(w, item, Q("landing_radius"), &z->landing_radius, L, lu, 1);
     if (!z->landing_radius.hi_open)
-        csv_row(w, item, Q("landing_circle"), z->landing_circle_m * L, NULL, NULL, lu);
+        csv_clear_row(w, item, Q("landing_circle"), z->landing_circle_m * L, NULL, NULL, lu);
     if (!z->landing.open) {
         double A = L * L;
         const char *au = w->us ? "ft\xC2\xB2" : "m\xC2\xB2"; /* as the text and sweep CSV */
-        csv_row(w, item, Q("landing_area"), z->landing.polygon.area_m2 * A, NULL, NULL, au);
-        csv_row(w, item, Q("landing_area_buffered"), z->landing.buffered.area_m2 * A, NULL, NULL,
-                au);
+        csv_clear_row(w, item, Q("landing_area"), z->landing.polygon.area_m2 * A, NULL, NULL, au);
+        csv_clear_row(w, item, Q("landing_area_buffered"), z->landing.buffered.area_m2 * A, NULL,
+                      NULL, au);
     }
     for (int i = 0; i < PLUMB_ZONE_ENERGIES; i++) {
         char name[32];
         snprintf(name, sizeof name, "energy_%s", plumbp_zone_energy_names[i]);
-        csv_quantile(w, item, Q(name), &z->energy[i], E, eu);
+        csv_quantile(w, item, Q(name), &z->energy[i], E, eu, 0);
     }
     csv_row(w, item, Q("energy_max"), z->energy_max_j * E, NULL, NULL, eu);
     for (size_t i = 0; i < z->n_exceedance; i++) {
@@ -106,11 +122,11 @@ static void csv_stats(writer *w, const csv_item *item, const char *prefix, const
         csv_row(w, item, Q(name), x->probability, &x->lo, &x->hi, "probability");
     }
     if (!target_pass) {
-        csv_row(w, item, Q("drop_height"), z->drop_height_m * L, NULL, NULL, lu);
-        csv_row(w, item, Q("ballistic_throw"), z->ballistic_throw_m * L, NULL, NULL, lu);
+        csv_clear_row(w, item, Q("drop_height"), z->drop_height_m * L, NULL, NULL, lu);
+        csv_clear_row(w, item, Q("ballistic_throw"), z->ballistic_throw_m * L, NULL, NULL, lu);
         if (z->glide_ratio_max > 0.0)
-            csv_row(w, item, Q("plate_glide"), z->glide_ratio_max * z->drop_height_m * L, NULL,
-                    NULL, lu);
+            csv_clear_row(w, item, Q("plate_glide"), z->glide_ratio_max * z->drop_height_m * L,
+                          NULL, NULL, lu);
         csv_row(w, item, Q("max_release_speed"), z->max_release_speed_m_s * L, NULL, NULL,
                 w->us ? "ft/s" : "m/s");
     }
@@ -130,6 +146,10 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
            "figures do not depend on the number)\n", r0->samples, r0->seed,
         csvnum(w, r0->confidence), csvnum(w, r0->ci_level), rep->threads,
         rep->threads == 1 ? "" : "s");
+    /* a scatter allowance of 0 is no allowance: said, not left as a 0 row */
+    if (!(r0->zone.scatter_m > 0.0))
+        put(w, "# scatter: none given (zone.scatter): bounce and deflection are not included in "
+               "the clearance radius, the landing circle or the landing area\n");
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;
@@ -143,13 +163,13 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
         const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
         put(w, "# kit: clearance radius at confidence %s: %s %s, set by %s (the item with the largest "
                "radius; every item's zone lies within it); ", csvnum(w, kr->confidence),
-            csvnum(w, len_shown(w, kr->zone.clearance_radius_m)), len_unit(w),
+            csvnum(w, up(len_shown(w, kr->zone.clearance_radius_m))), len_unit(w),
             rep->items[rep->kit_item].name);
         if (lr->zone.landing_radius.hi_open)
             put(w, "largest landing circle open (more samples needed to bound it)\n");
         else
             put(w, "largest landing circle %s %s, set by %s\n",
-                csvnum(w, len_shown(w, lr->zone.landing_circle_m)), len_unit(w),
+                csvnum(w, up(len_shown(w, lr->zone.landing_circle_m))), len_unit(w),
                 rep->items[rep->kit_landing_item].name);
     }
     for (size_t i = 0; i < rep->n_items; i++) {
@@ -188,11 +208,11 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
         const csv_item ki = {item_number(rep, rep->kit_item), rep->items[rep->kit_item].name};
         const csv_item li = {item_number(rep, rep->kit_landing_item),
                              rep->items[rep->kit_landing_item].name};
-        csv_row(w, &ki, "kit_clearance_radius",
-                len_shown(w, kr->zone.clearance_radius_m), NULL, NULL, len_unit(w));
+        csv_clear_row(w, &ki, "kit_clearance_radius",
+                      len_shown(w, kr->zone.clearance_radius_m), NULL, NULL, len_unit(w));
         if (!lr->zone.landing_radius.hi_open)
-            csv_row(w, &li, "kit_landing_circle",
-                    len_shown(w, lr->zone.landing_circle_m), NULL, NULL, len_unit(w));
+            csv_clear_row(w, &li, "kit_landing_circle",
+                          len_shown(w, lr->zone.landing_circle_m), NULL, NULL, len_unit(w));
     }
 }
 

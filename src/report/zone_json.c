@@ -124,6 +124,9 @@ static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
     jset(j, o, "radius_at_confidence", conf);
     jset(j, o, "radius_bound_m", jreal(j, z->radius_conf.hi));
     jset(j, o, "scatter_m", jreal(j, z->scatter_m));
+    /* false: no scatter allowance (zone.scatter 0 or not given), so bounce
+     * and deflection are not in the clearance radius */
+    jset(j, o, "scatter_included", json_boolean(z->scatter_m > 0.0));
     jset(j, o, "clearance_radius_m", jreal(j, z->clearance_radius_m));
     json_t *en = jobj(j), *eci = jobj(j);
     for (int i = 0; i < PLUMB_ZONE_ENERGIES; i++) {

@@ -315,8 +315,11 @@ static void csv_vertex(writer *w, const char *item, const shape *s, size_t part,
     csv_field(w, s->pass);
     put(w, ",%zu,%zu,%s,%s,%s,%s,%s\n", part + 1, k + 1, csvnum(w, v[0]), csvnum(w, v[1]),
         csvnum(w, s->p),
-        csvnum(w, s->region ? s->region->area_m2 : PLUMB_PI * s->radius_m * s->radius_m),
-        csvnum(w, s->scatter_m));
+        /* the area and the allowance of a shape to keep clear: rounded up */
+        csvnum(w, plumbp_round_safe(s->region ? s->region->area_m2
+                                              : PLUMB_PI * s->radius_m * s->radius_m,
+                                    CSV_DIGITS, 0)),
+        csvnum(w, plumbp_round_safe(s->scatter_m, CSV_DIGITS, 0)));
 }
 
 static void csv_shape(void *user, const char *item, int kit, const shape *s)

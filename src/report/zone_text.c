@@ -63,6 +63,52 @@ static const char *t_len(writer *w, double m)
     return b;
 }
 
+/* A keep-clear distance (a radius, a landing circle, a rule's radius, a
+ * glide): rounded up at its last digit shown, so that no distance to keep
+ * clear prints below the figure computed. */
+static const char *t_clear(writer *w, double m)
+{
+    return plumbp_t_clear(w, t_len, m);
+}
+
+/* A keep-clear sum as printed, "total = bound + scatter" (a clearance
+ * radius, a landing circle): the figures of the total (TEXT_SIG, at most
+ * LEN_DEC decimals, at least a whole unit) fix one decimal place, each
+ * part is rounded up at it and the total is the sum of the printed parts.
+ * So the line adds up as printed, and neither the total nor a part is
+ * below the figure it stands for (the total may be one unit of its last
+ * digit above the true total rounded up). The kit's table shows the same
+ * total. */
+typedef struct clear_sum {
+    const char *total, *bound, *scatter; /* each with its unit */
+} clear_sum;
+
+static clear_sum t_clear_sum(writer *w, double total_m, double bound_m, double scatter_m)
+{
+    /* the total, bound + scatter as the result defines it, is checked as
+     * every figure is, though the parts are what is printed */
+    if (!plumbp_finite(total_m))
+        w->bad = 1;
+    double b = len_shown(w, bound_m), sc = len_shown(w, scatter_m), t = b + sc;
+    int d = LEN_DEC;
+    if (t > 0.0 && plumbp_finite(t) && TEXT_SIG - 1 - (int)floor(log10(t)) < d)
+        d = TEXT_SIG - 1 - (int)floor(log10(t));
+    if (d < 0)
+        d = 0;
+    double bu = plumbp_round_safe_at(b, d, 0), su = plumbp_round_safe_at(sc, d, 0);
+    clear_sum c;
+    char *p = slot(w);
+    snprintf(p, NUMBUF, "%s %s", plumbp_fixed(w, bu + su, d), len_unit(w));
+    c.total = p;
+    p = slot(w);
+    snprintf(p, NUMBUF, "%s %s", plumbp_fixed(w, bu, d), len_unit(w));
+    c.bound = p;
+    p = slot(w);
+    snprintf(p, NUMBUF, "%s %s", plumbp_fixed(w, su, d), len_unit(w));
+    c.scatter = p;
+    return c;
+}
+
 static const char *t_energy(writer *w, double j)
 {
     char *b = slot(w);
@@ -225,12 +271,20 @@ static void text_inputs(writer *w, const plumb_zone_result *r)
 
 /* ---- text --------------------------------------------------------------- */
 
+/* A percentile's interval; widened at the digits shown (the low end
+ * rounded down, the high end up) when `widen`: the interval of a
+ * keep-clear distance, whose high end is the bound the clearance uses. */
 static const char *t_interval(writer *w, const plumb_zone_quantile *q, double scale,
-                              const char *unit)
+                              const char *unit, int widen)
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%s%s – %s %s%s", q->lo_open ? "(open) " : "",
-             fig(w, q->lo * scale, LEN_DEC), fig(w, q->hi * scale, LEN_DEC),
+    int was = w->round_dir;
+    w->round_dir = widen ? -1 : 0;
+    const char *lo = fig(w, q->lo * scale, LEN_DEC);
+    w->round_dir = widen ? 1 : 0;
+    const char *hi = fig(w, q->hi * scale, LEN_DEC);
+    w->round_dir = was;
+    snprintf(b, NUMBUF, "%s%s – %s %s%s", q->lo_open ? "(open) " : "", lo, hi,
              unit, q->hi_open ? " (open: more samples needed)" : "");
     return b;
 }
@@ -253,20 +307,28 @@ static void text_radii(writer *w, const plumb_zone_stats *z, double level, const
     put(w, "  %-8s %-12s %s interval\n", "", "radius", pct(w, level));
     for (int i = 0; i < PLUMB_ZONE_RADII; i++) {
         const plumb_zone_quantile *q = &z->radius[i];
-        put(w, "  %-8s %-12s %s\n", pct(w, q->p), t_len(w, q->value),
-            t_interval(w, q, len_shown(w, 1.0), len_unit(w)));
+        put(w, "  %-8s %-12s %s\n", pct(w, q->p), t_clear(w, q->value),
+            t_interval(w, q, len_shown(w, 1.0), len_unit(w), 1));
     }
-    put(w, "  %-8s %s\n\n", "largest", t_len(w, z->radius_max_m));
+    put(w, "  %-8s %s\n\n", "largest", t_clear(w, z->radius_max_m));
 }
 
 static void text_clearance(writer *w, const plumb_zone_stats *z, double confidence, double level,
                            const char *around)
 {
-    put(w, "Clearance radius at %s%s: %s\n", pct(w, confidence), around, t_len(w, z->clearance_radius_m));
+    clear_sum c = t_clear_sum(w, z->clearance_radius_m, z->radius_conf.hi, z->scatter_m);
+    put(w, "Clearance radius at %s%s: %s\n", pct(w, confidence), around, c.total);
     put(w, "  = %-12s upper %s bound of the %s radius (estimate %s)\n",
-        t_len(w, z->radius_conf.hi), pct(w, level), pct(w, confidence), t_len(w, z->radius_conf.value));
-    put(w, "  + %-12s scatter allowance for bounce and deflection, as given\n\n",
-        t_len(w, z->scatter_m));
+        c.bound, pct(w, level), pct(w, confidence), t_clear(w, z->radius_conf.value));
+    if (z->scatter_m > 0.0)
+        put(w, "  + %-12s scatter allowance for bounce and deflection, as given\n\n",
+            c.scatter);
+    else {
+        /* zone.scatter not given (or 0): nothing was added, and it says so */
+        wrapped(w, "  + none         ", "no scatter allowance given (zone.scatter): bounce and "
+                "deflection are not included");
+        put(w, "\n");
+    }
 }
 
 static void text_cloud(writer *w, const plumb_zone_stats *z)
@@ -308,7 +370,7 @@ static void text_energy(writer *w, const plumb_zone_stats *z, double level)
     for (int i = 0; i < PLUMB_ZONE_ENERGIES; i++) {
         const plumb_zone_quantile *q = &z->energy[i];
         put(w, "  %-8s %-26s %s\n", pct(w, q->p), t_energy(w, q->value),
-            t_interval(w, q, w->us ? 1.0 / PLUMB_FT_LBF_J : 1.0, w->us ? "ft·lbf" : "J"));
+            t_interval(w, q, w->us ? 1.0 / PLUMB_FT_LBF_J : 1.0, w->us ? "ft·lbf" : "J", 0));
     }
     put(w, "  %-8s %s\n\n", "largest", t_energy(w, z->energy_max_j));
 }
@@ -349,19 +411,28 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
     if (q->hi_open) {
         put(w, "  circle radius   open: more samples needed to bound it\n");
     } else {
-        put(w, "  circle radius   %s, %s interval %s\n", t_len(w, q->value), pct(w, level),
-            t_interval(w, q, len_shown(w, 1.0), len_unit(w)));
-        put(w, "  landing circle  %s = upper bound %s + scatter %s\n",
-            t_len(w, z->landing_circle_m), t_len(w, q->hi), t_len(w, z->scatter_m));
+        put(w, "  circle radius   %s, %s interval %s\n", t_clear(w, q->value), pct(w, level),
+            t_interval(w, q, len_shown(w, 1.0), len_unit(w), 1));
+        clear_sum c = t_clear_sum(w, z->landing_circle_m, q->hi, z->scatter_m);
+        if (z->scatter_m > 0.0)
+            put(w, "  landing circle  %s = upper bound %s + scatter %s\n", c.total, c.bound,
+                c.scatter);
+        else
+            put(w, "  landing circle  %s, the upper bound: no scatter allowance\n", c.total);
     }
+    /* the areas too are keep-clear figures: rounded up */
     if (lr->open) {
         put(w, "  polygon         open: more samples needed to bound it\n");
-    } else {
+    } else if (z->scatter_m > 0.0) {
         put(w, "  polygon         %s in %zu part%s; with the scatter allowance as a buffer\n"
                "                  %s\n",
-            plumbp_t_area(w, lr->polygon.area_m2),
+            plumbp_t_clear(w, plumbp_t_area, lr->polygon.area_m2),
             lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s",
-            plumbp_t_area(w, lr->buffered.area_m2));
+            plumbp_t_clear(w, plumbp_t_area, lr->buffered.area_m2));
+    } else {
+        put(w, "  polygon         %s in %zu part%s, no scatter allowance added\n",
+            plumbp_t_clear(w, plumbp_t_area, lr->polygon.area_m2),
+            lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s");
     }
     snprintf(line, sizeof line,
              "the first %zu samples fix the centre and a density grid; the other %zu are "
@@ -377,7 +448,7 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
 static void text_rules(writer *w, const plumb_zone_stats *z)
 {
     put(w, "Simple rules, beside the computed radius\n");
-    put(w, "  %-26s %s\n", "radius = drop height", t_len(w, z->drop_height_m));
+    put(w, "  %-26s %s\n", "radius = drop height", t_clear(w, z->drop_height_m));
     char line[256];
     if (z->glide_ratio_max > 0.0) {
         /* the published source of the largest ratio: a tumbling plate's
@@ -387,8 +458,9 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
                  "up to %s (%s x the drop height): a plate gliding in still air, published "
                  "range of glide ratios 0 to %s (%s); \"radius = drop height\" is not "
                  "conservative for it",
-                 t_len(w, z->glide_ratio_max * z->drop_height_m),
-                 num(w, z->glide_ratio_max, 3), num(w, z->glide_ratio_max, 4),
+                 t_clear(w, z->glide_ratio_max * z->drop_height_m),
+                 plumbp_gnum(w, z->glide_ratio_max, INPUT_SIG),
+                 plumbp_gnum(w, z->glide_ratio_max, INPUT_SIG),
                  tumbling ? "tumbling plates, Smith 1970"
                           : "fluttering plates, Tinklenberg et al. 2023");
         wrapped(w, "  plate glide                ", line);
@@ -402,7 +474,7 @@ static void text_rules(writer *w, const plumb_zone_stats *z)
         snprintf(line, sizeof line,
                  "%s: the range, without drag or wind, of the sample released fastest (%s, "
                  "in its own direction)",
-                 t_len(w, z->ballistic_throw_m), speed);
+                 t_clear(w, z->ballistic_throw_m), speed);
     for (char *c = line; *c; c++)
         if (*c == ' ' && c > line && c[-1] >= '0' && c[-1] <= '9')
             *c = NBSP_CHAR;
@@ -474,12 +546,16 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
     char line[512];
     snprintf(line, sizeof line, "%s around the planned drop point, set by %s (the item with "
              "the largest radius; every item's zone lies within it)",
-             t_len(w, k->zone.clearance_radius_m), rep->items[rep->kit_item].name);
+             t_clear_sum(w, k->zone.clearance_radius_m, k->zone.radius_conf.hi,
+                         k->zone.scatter_m).total,
+             rep->items[rep->kit_item].name);
     put(w, "Kit clearance radius at %s:\n", pct(w, k->confidence));
     wrapped(w, "  ", line);
     if (!l->zone.landing_radius.hi_open) {
-        snprintf(line, sizeof line, "largest landing circle %s (with the scatter allowance), "
-                 "set by %s", t_len(w, l->zone.landing_circle_m),
+        snprintf(line, sizeof line, "largest landing circle %s (%s scatter allowance), "
+                 "set by %s", t_clear_sum(w, l->zone.landing_circle_m, l->zone.landing_radius.hi,
+                                             l->zone.scatter_m).total,
+                 l->zone.scatter_m > 0.0 ? "with the" : "no",
                  rep->items[rep->kit_landing_item].name);
         wrapped(w, "  ", line);
     }
@@ -503,8 +579,11 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
         const char *rest = wrap_cell(rep->items[i].name, name_w, part, sizeof part);
         put(w, "%*zu ", LEAD_W - 1, item_number(rep, i));
         pad(w, part, name_w, 0);
-        put(w, "%*s%-*s %s\n", GAP_W, "", FIG_W, t_len(w, z->clearance_radius_m),
-            z->landing_radius.hi_open ? "open" : t_len(w, z->landing_circle_m));
+        put(w, "%*s%-*s %s\n", GAP_W, "", FIG_W,
+            t_clear_sum(w, z->clearance_radius_m, z->radius_conf.hi, z->scatter_m).total,
+            z->landing_radius.hi_open ? "open"
+                                      : t_clear_sum(w, z->landing_circle_m, z->landing_radius.hi,
+                                                      z->scatter_m).total);
         cell_continued(w, LEAD_W, rest, name_w);
     }
     put(w, "\n");

@@ -77,6 +77,7 @@ typedef struct rec {
     double release_speed_m_s;/* |v0| */
     double throw_m;          /* drag-free throw from the release */
     int attitude;            /* index of the attitude drawn, or -1 */
+    unsigned closed;         /* bit i: descent[i] did not open before impact */
 } rec;
 
 /* What the pilot keeps: the four histogrammed values. */
@@ -113,6 +114,7 @@ typedef struct acc {
     double att_e[PLUMB_MAX_ATTITUDES], att_r[PLUMB_MAX_ATTITUDES];
     size_t exceed[PLUMB_ZONE_MAX_CRITERIA];
     size_t redraws[PLUMB_ZONE_MAX_INPUTS];
+    size_t closed[PLUMB_MAX_DESCENT]; /* samples in which descent[i] did not open */
     size_t steps, evals;
     sketch sk[PV_N];
     sketch skc;              /* distance from the landing centre, samples >= train */
@@ -231,6 +233,10 @@ static void compute_block(worker *w, slot *sl)
         r->release_speed_m_s = sqrt(v[0] * v[0] + v[1] * v[1] + v[2] * v[2]);
         r->throw_m = ballistic_throw(&spec);
         r->attitude = w->sampler->choice >= 0 ? (int)vals[w->sampler->choice] : -1;
+        r->closed = 0;
+        for (size_t dv = 0; dv < spec.n_descent && dv < PLUMB_MAX_DESCENT; dv++)
+            if (!res.deployed[dv])
+                r->closed |= 1u << dv;
         sl->steps += res.solver.steps;
         sl->evals += res.solver.rhs_evaluations;
         sl->n_ok = k + 1;
@@ -312,6 +318,9 @@ static void merge_slot(pass *ps, slot *sl)
             if (rad > a->att_r[ak])
                 a->att_r[ak] = rad;
         }
+        for (size_t d = 0; d < PLUMB_MAX_DESCENT; d++)
+            if (r->closed & (1u << d))
+                a->closed[d]++;
         for (size_t c = 0; c < ps->n_crit; c++) {
             plumb_verdict verdict;
             plumb_criterion_judge(ps->crit[c], r->energy_j, &verdict);
@@ -505,6 +514,40 @@ void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
     va_end(ap);
 }
 
+/* Warns of each descent device that did not open before impact in some
+ * samples of pass 0 (the second pass, released elsewhere on the same
+ * heights and times, opens the same devices): the figures then mix falls
+ * with and without it. The count is an integer sum, so it is the same for
+ * any thread count. */
+static void warn_closed(plumb_zone_result *res, const plumb_fall_spec *base, const acc *a)
+{
+    size_t n = a->n;
+    for (size_t d = 0; d < base->n_descent && d < PLUMB_MAX_DESCENT; d++) {
+        size_t k = a->closed[d];
+        const char *kind = plumb_descent_kind_name(base->descent[d].kind);
+        if (k == 0)
+            continue;
+        if (k == n) {
+            plumb_zone_add_warning(res, "The %s (descent[%zu]) did not open before impact in "
+                                   "any of the %zu samples: every figure is that of a fall "
+                                   "without it.", kind, d, n);
+            continue;
+        }
+        /* a share that never reads as 0 % or 100 % when it is neither */
+        double pct = 100.0 * (double)k / (double)n;
+        char share[32];
+        if (pct < 0.1)
+            snprintf(share, sizeof share, "under 0.1 %%");
+        else if (pct > 99.9)
+            snprintf(share, sizeof share, "over 99.9 %%");
+        else
+            snprintf(share, sizeof share, "%.1f %%", pct);
+        plumb_zone_add_warning(res, "The %s (descent[%zu]) did not open before impact in %zu "
+                               "of %zu samples (%s): those land at the speed of a fall "
+                               "without it.", kind, d, k, n, share);
+    }
+}
+
 /* Names the attitudes of a pass's statistics from the choice entry. */
 static void name_attitudes(const plumb_uncertainty *u, size_t n_u, plumb_zone_stats *z)
 {
@@ -555,6 +598,7 @@ static plumb_status do_pass(run *rn, pass *ps, plumb_diag *diag)
     a->r_max = a->e_max = a->speed_max = a->throw_at_max = 0.0;
     memset(a->exceed, 0, sizeof a->exceed);
     memset(a->redraws, 0, sizeof a->redraws);
+    memset(a->closed, 0, sizeof a->closed);
     memset(a->att_n, 0, sizeof a->att_n);
     memset(a->att_e, 0, sizeof a->att_e);
     memset(a->att_r, 0, sizeof a->att_r);
@@ -786,6 +830,7 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
                      "the drift of one fall, not a zone. Give the uncertainty of the wind, "
                      "the release point or the release velocity to size one.",
                 PLUMB_ZONE_FIXED_M);
+        warn_closed(res, base, &ps.a);
     }
     /* Pass 1: released where the median impact falls on the target. */
     if (st == PLUMB_OK && zone->has_target) {

@@ -269,10 +269,11 @@ check(rc == 0 and (d.get("descent") or {}).get("steady_speed_m_s", 0) is None,
 
 # A kit with a tumbling plate: the largest drift line says the fall leaves
 # out the plate's glide, up to 1.375 x the height fallen (Smith 1970): from
-# the demo mast's 41.5 m, 57.06 m
+# the demo mast's 41.5 m, 57.0625 m, a distance to keep clear and so
+# rounded up at the 4 figures shown: 57.07 m (not 57.06 m)
 rc, out, err = plumb("fall", os.path.join(HERE, "..", "..", "profiles", "demo", "tower-kit.yaml"))
 line = " ".join(out.split("Largest drift", 1)[-1].split("\n\n")[0].split())
-want = f"{1.375 * 41.5:.2f} m"
+want = f"{math.ceil(1.375 * 41.5 * 100) / 100:.2f} m"
 check(rc == 0 and "not counting the glide of cable tie bundle, a plate" in line and want in line,
       f"largest drift qualified by the plate's glide up to {want}: {line!r}")
 

@@ -153,6 +153,42 @@ try:
             else:
                 check(squeeze(w) in flat, f"zone {label} text: lacks the whole warning {w!r}")
         check(CUT not in flat, f"zone {label} text: a warning is marked cut")
+    # A parachute set to open 60 s after release from 30 m: every fall has
+    # landed by then (plumb fall warns that it does not open), and the zone
+    # says so in every format, with the count of samples (the count itself
+    # is checked by logic in test_dispersion.c); the same with the deploy
+    # time uncertain, so that only some samples open it.
+    late = os.path.join(tmp, "late.yaml")
+    with open(late, "w") as f:
+        f.write("""name: bag under a late parachute
+payload: {mass: 1.213 kg, drag: {cd: 0.93, area: 0.0187 m^2, source: invented test value}}
+descent: {kind: parachute, cd: 0.78, area: 1.47 m^2, deploy: {after: 60 s}, fill_time: 0.8 s}
+release: {height: 30 m}
+wind: {speed: 3.1 m/s, from: 250 deg}
+uncertainty:
+  wind.speed: {normal: [3.1 m/s, 0.9 m/s]}
+""")
+    ws = fall_warnings(late).get("bag under a late parachute", [])
+    check(any("(descent[0]) does not open before impact" in w for w in ws),
+          f"late chute: plumb fall warns it does not open: {ws}")
+    every = ("The parachute (descent[0]) did not open before impact in any of the 400 samples: "
+             "every figure is that of a fall without it.")
+    some = ("--set", "uncertainty.descent.deploy.after={uniform: [1.3 s, 4.7 s]}")
+    for args, want in (((), every), (some, " of 400 samples (")):
+        run = ("zone", late, "--samples", "400", "--threads", "2") + args
+        rc, out, err = plumb(*run, "--format", "json")
+        zw = json.loads(out)["zone"]["warnings"] if rc == 0 else []
+        check(rc == 0 and any(want in w and "parachute (descent[0]) did not open" in w
+                              for w in zw), f"late chute {args}: JSON warning {want!r}: {zw}")
+        for units in ("si", "us"):
+            rc, out, err = plumb(*run, "--format", "csv", "--units", units)
+            warn = [l for l in out.splitlines() if "did not open before impact" in l]
+            check(rc == 0 and len(warn) == 1 and warn[0].startswith(
+                  "# warning: bag under a late parachute: The parachute (descent[0])")
+                  and want in warn[0], f"late chute {args} csv {units}: {warn}")
+            rc, out, err = plumb(*run, "--units", units)
+            check(rc == 0 and want in squeeze(out.split("Uncertain inputs")[0]),
+                  f"late chute {args} text {units}: a warning {want!r} before the inputs")
 finally:
     shutil.rmtree(tmp)
 finish()
