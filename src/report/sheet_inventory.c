@@ -286,7 +286,7 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
                                  "%s).",
                               sheet_esc(d, zi->name),
                               sheet_fmt(d, "%s",
-                                        plumbp_t_len(P, zi->result->zone.clearance_radius_m)));
+                                        plumbp_t_clear(P, plumbp_t_len, zi->result->zone.clearance_radius_m)));
     }
     const char *note = sheet_fmt(
         d, "\x02%zu items, sorted by their largest ratio to a criterion. Worst: %s.%s",

@@ -182,8 +182,8 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
         snprintf(who, sizeof who, " (set by %s, the item with the largest radius)",
                  b->zone->items[b->zone_item].name);
     sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s %s around the planned drop point",
-                                  plumbp_t_len(P, s->clearance_radius_m),
-                                  beside(d, plumbp_t_len(S, s->clearance_radius_m))));
+                                  plumbp_t_clear(P, plumbp_t_len, s->clearance_radius_m),
+                                  beside(d, plumbp_t_clear(S, plumbp_t_len, s->clearance_radius_m))));
     sheet_para(d, font, sheet_fmt(d, "%s%% of impacts fall within this radius, taken as the upper "
                                      "%s%% confidence bound from %zu samples%s%s%s%s.",
                                   plumbp_trimmed(P, 100.0 * z->confidence, 2),
@@ -210,8 +210,8 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                                 "centre, %s toward %s of the drop point (the landing circle, "
                                 "upper %s%% bound%s).",
                              lands, plumbp_trimmed(P, 100.0 * z->confidence, 2), its,
-                             plumbp_t_len(P, s->landing_circle_m),
-                             beside(d, plumbp_t_len(S, s->landing_circle_m)),
+                             plumbp_t_clear(P, plumbp_t_len, s->landing_circle_m),
+                             beside(d, plumbp_t_clear(S, plumbp_t_len, s->landing_circle_m)),
                              plumbp_t_len(P, hypot(lx, ly)),
                              plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
                              plumbp_trimmed(P, 100.0 * z->ci_level, 2),
@@ -232,8 +232,8 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                                 "around the target.",
                              plumbp_t_offset(P, z->target_m[0], "east", "west"),
                              plumbp_t_offset(P, z->target_m[1], "north", "south"),
-                             plumbp_t_len(P, z->at_target.clearance_radius_m),
-                             beside(d, plumbp_t_len(S, z->at_target.clearance_radius_m))));
+                             plumbp_t_clear(P, plumbp_t_len, z->at_target.clearance_radius_m),
+                             beside(d, plumbp_t_clear(S, plumbp_t_len, z->at_target.clearance_radius_m))));
 }
 
 static void verdict_table(sheet_doc *d, const plumb_item_report *it)
@@ -486,14 +486,14 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
     *c = (sheet_circle){{s->centre_m[0], s->centre_m[1]}, s->clearance_radius_m, SHEET_SOLID, 1.8,
                         ""};
     snprintf(c->label, sizeof c->label, "heavy solid circle: keep clear, %s around the drop point",
-             sheet_fmt(d, "%s", plumbp_t_len(P, s->clearance_radius_m)));
+             sheet_fmt(d, "%s", plumbp_t_clear(P, plumbp_t_len, s->clearance_radius_m)));
     /* the 90 % radius around the drop point */
     c = &pv.circles[pv.n_circles++];
     *c = (sheet_circle){{s->centre_m[0], s->centre_m[1]}, s->radius[1].value, SHEET_DASHED, 0.8,
                         ""};
     snprintf(c->label, sizeof c->label, "dashed circle: %s%% of impacts within %s of the drop point",
              sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->radius[1].p, 2)),
-             sheet_fmt(d, "%s", plumbp_t_len(P, s->radius[1].value)));
+             sheet_fmt(d, "%s", plumbp_t_clear(P, plumbp_t_len, s->radius[1].value)));
     /* where things land: the landing circle around the impacts' centre */
     if (s->landing_circle_m > 0.0) {
         c = &pv.circles[pv.n_circles++];
@@ -502,7 +502,7 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
         snprintf(c->label, sizeof c->label,
                  "thin solid circle: where things land, %s%% of impacts within %s of their centre",
                  sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * z->confidence, 2)),
-                 sheet_fmt(d, "%s", plumbp_t_len(P, s->landing_circle_m)));
+                 sheet_fmt(d, "%s", plumbp_t_clear(P, plumbp_t_len, s->landing_circle_m)));
     }
     if (z->has_target) {
         pv.has_target = 1;
@@ -516,7 +516,7 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                             SHEET_DASHDOT, 1.2, ""};
         snprintf(c->label, sizeof c->label,
                  "dash-dot circle: keep clear, %s around the target when released to land on it",
-                 sheet_fmt(d, "%s", plumbp_t_len(P, z->at_target.clearance_radius_m)));
+                 sheet_fmt(d, "%s", plumbp_t_clear(P, plumbp_t_len, z->at_target.clearance_radius_m)));
     }
     /* the landing region: the polygon holding the zone's share of the
      * impacts, with the scatter allowance as a buffer, one entry per ring */

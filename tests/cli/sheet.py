@@ -91,6 +91,13 @@ def sig4(x):
     return f"{x:.{dec}f}"
 
 
+def sig4_up(x):
+    """x > 0 rounded up at 4 significant digits: a distance to keep clear is
+    never printed below the bound computed."""
+    dec = max(0, 3 - int(math.floor(math.log10(x))))
+    return f"{math.ceil(x * 10 ** dec - 1e-9) / 10 ** dec:.{dec}f}"
+
+
 def sha256(path):
     with open(path, "rb") as f:
         return hashlib.sha256(f.read()).hexdigest()
@@ -358,11 +365,11 @@ for what, fig in (("speed", speed), ("energy", energy), ("time", tfall + " s"),
 import json  # noqa: E402
 _, zj, _ = plumb("zone", DRONE, "--samples", "1000", "--seed", "7", "--format", "json")
 z = json.loads(zj)["zone"]
-r_drop = sig4(z["clearance_radius_m"]) + " m"
-r_target = sig4(z["target"]["clearance_radius_m"]) + " m"
+r_drop = sig4_up(z["clearance_radius_m"]) + " m"
+r_target = sig4_up(z["target"]["clearance_radius_m"]) + " m"
 check(r_drop in p1, f"page 1 has the clearance radius {r_drop} of plumb zone")
 check(r_target in p1, f"page 1 has the clearance radius around the target {r_target}")
-r_land = sig4(z["landing"]["circle"]["clearance_radius_m"]) + " m"
+r_land = sig4_up(z["landing"]["circle"]["clearance_radius_m"]) + " m"
 check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
 check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
 # the files are named as a reader would find them: no "build/.." (the
