@@ -579,6 +579,16 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
     return PLUMB_OK;
 }
 
+/* GSL's name of a method (gsl_odeiv2_step_type name). */
+static const char *stepper_name(plumb_stepper kind)
+{
+    switch (kind) {
+    case PLUMB_STEPPER_RKF45: return "rkf45";
+    case PLUMB_STEPPER_MSBDF: return "msbdf";
+    default: return "rk8pd";
+    }
+}
+
 plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *spec,
                                   const plumb_atmosphere *atm, plumb_fall_result *res,
                                   plumb_diag *diag)
@@ -617,8 +627,12 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
         return st2;
     if (diag) {
         plumb_diag second = *diag;
-        return PLUMB_RAISE(diag, st, "%s; run again with another method: %s", first.message,
-                           second.message);
+        /* both methods tried: say what each met, not what to try */
+        return PLUMB_RAISE(diag, st,
+                           "the fall could not be computed by either method: %s with %s, then "
+                           "%s with %s",
+                           first.message, stepper_name(kind), second.message,
+                           stepper_name(other));
     }
     return st;
 }
