@@ -93,4 +93,8 @@ double plumb_drag_sphere_cgw(double re);
  * fixed drag), m^2. */
 double plumb_drag_cd_area(const plumb_drag_spec *spec, double re);
 
+/* The drag area as the profile gives it, cd x area or cd_area, m^2,
+ * whatever the model (a fixed drag's CdA at any Re). Can't fail. */
+double plumb_drag_given_cd_area(const plumb_drag_spec *spec);
+
 #endif /* PLUMB_DRAG_H */

@@ -83,8 +83,13 @@ double plumb_drag_cd_area(const plumb_drag_spec *spec, double re)
         return re > 0.0 ? plumb_drag_sphere_cgw(re) * spec->area_m2 : 0.0;
     case PLUMB_DRAG_FIXED:
     default:
-        return spec->area_m2 > 0.0 ? spec->cd * spec->area_m2 : spec->cd_area_m2;
+        return plumb_drag_given_cd_area(spec);
     }
+}
+
+double plumb_drag_given_cd_area(const plumb_drag_spec *spec)
+{
+    return spec->area_m2 > 0.0 ? spec->cd * spec->area_m2 : spec->cd_area_m2;
 }
 
 /* Reynolds-number intervals outside which Cd(Re) Re^2 never decreases, so

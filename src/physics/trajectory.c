@@ -470,7 +470,7 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
     res->drag_free_speed_m_s = sqrt(v0sq + 2.0 * g_mid * H);
     res->drag_free_energy_j = 0.5 * s->mass_kg * v0sq + s->mass_kg * g_mid * H;
     double vt = 0.0;
-    if (plumbp_traj_body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)
+    if (plumb_drag_given_cd_area(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)
         if (plumbp_traj_terminal_speed(s, atm, 0.0, 0, r->w->root, r->w->min, &vt) != PLUMB_OK)
             vt = 0.0;
     res->terminal_speed_m_s = vt;
@@ -563,7 +563,7 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
                            "the fall fails its energy balance: kinetic energy gained %.9g J, work "
                            "of gravity, buoyancy and drag %.9g J (method %s)",
                            gained, work, res->solver.method);
-    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (plumbp_traj_body_cda(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
+    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (plumb_drag_given_cd_area(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
         double vt_top, vt_max = w->ctx.vt_max_m_s;
         if (plumbp_traj_terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK &&
             vt_top > vt_max)

@@ -135,7 +135,6 @@ int plumbp_traj_jac_time(double t, const double y[], double *dfdy, double dfdt[]
 int plumbp_traj_rhs_henon(double s, const double u[], double du[], void *params);
 
 /* trajectory_work.c */
-double plumbp_traj_body_cda(const plumb_drag_spec *d);
 plumb_status plumbp_traj_check_spec(const plumb_fall_spec *s, plumb_diag *diag);
 
 /* trajectory_terminal.c */

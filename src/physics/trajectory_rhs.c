@@ -21,7 +21,7 @@ void plumbp_traj_ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_
     c->spec = spec;
     c->atm = atm;
     c->inv_m = 1.0 / spec->mass_kg;
-    c->body_cda_m2 = plumbp_traj_body_cda(&spec->drag);
+    c->body_cda_m2 = plumb_drag_given_cd_area(&spec->drag);
     c->sphere = spec->drag.model != PLUMB_DRAG_FIXED;
     c->n_dev = spec->n_descent;
     c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;

@@ -131,7 +131,7 @@ static plumb_status terminal_root(const plumb_fall_spec *spec, const plumb_atmos
     if (!(c.g_net_m_s2 > 0.0))
         return PLUMB_RAISE(NULL, PLUMB_ENOLAND, "buoyancy exceeds weight: no terminal speed");
     if (spec->drag.model == PLUMB_DRAG_FIXED) {
-        double cda = plumbp_traj_body_cda(&spec->drag) + c.extra_m2;
+        double cda = plumb_drag_given_cd_area(&spec->drag) + c.extra_m2;
         if (!(cda > 0.0))
             return PLUMB_RAISE(NULL, PLUMB_ENOSOLUTION, "no drag: no terminal speed");
         *v_m_s = sqrt(2.0 * spec->mass_kg * c.g_net_m_s2 / (c.air.rho_kg_m3 * cda));

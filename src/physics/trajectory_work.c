@@ -107,10 +107,6 @@ const plumb_path_point *plumb_trajectory_path(const plumb_trajectory *traj, size
 
 /* ---- spec checks ---------------------------------------------------------- */
 
-double plumbp_traj_body_cda(const plumb_drag_spec *d)
-{
-    return d->area_m2 > 0.0 ? d->cd * d->area_m2 : d->cd_area_m2;
-}
 
 /* The key of descent device i, numbered as the profile's keys count them
  * (descent[0] is the first), with the rest of the key: "descent[1].area". */
@@ -134,7 +130,7 @@ plumb_status plumbp_traj_check_spec(const plumb_fall_spec *s, plumb_diag *diag)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.volume", "volume must be >= 0 m^3");
     const plumb_drag_spec *d = &s->drag;
     if (d->model == PLUMB_DRAG_FIXED) {
-        double cda = plumbp_traj_body_cda(d);
+        double cda = plumb_drag_given_cd_area(d);
         if (!(cda >= 0.0) || !isfinite(cda) || !(d->cd >= 0.0 && d->cd <= 10.0))
             return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "payload.drag", "drag must be finite with 0 <= cd <= 10 and CdA >= 0");
     } else if (!(d->diameter_m > 0.0) || !(d->area_m2 > 0.0) || !isfinite(d->area_m2)) {

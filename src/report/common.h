@@ -95,7 +95,6 @@ const char *plumbp_shape_kind_name(plumb_shape_kind k);
 const char *plumbp_attitude_name(plumb_attitude a);
 const char *plumbp_atm_model_name(plumb_atm_model m);
 const char *plumbp_wind_profile_name(plumb_wind_profile p);
-double plumbp_body_cd_area(const plumb_drag_spec *d);
 long plumbp_strictest(const plumb_item_report *it);
 size_t plumbp_worst_item(const plumb_fall_report *rep);
 size_t plumbp_largest_drift_item(const plumb_fall_report *rep);

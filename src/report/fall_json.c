@@ -163,7 +163,7 @@ static json_t *j_inputs(jctx *j, const plumb_item_report *it, const plumb_profil
     if (d->model == PLUMB_DRAG_FIXED) {
         jset(j, drag, "cd", jreal(j, d->cd));
         jset(j, drag, "area_m2", jreal(j, d->area_m2));
-        jset(j, drag, "cd_area_m2", jreal(j, plumbp_body_cd_area(d)));
+        jset(j, drag, "cd_area_m2", jreal(j, plumb_drag_given_cd_area(d)));
     } else {
         jset(j, drag, "diameter_m", jreal(j, d->diameter_m));
         jset(j, drag, "reynolds_min", jreal(j, it->result.min_re));

@@ -127,7 +127,7 @@ static void text_comparison(writer *w, const plumb_item_report *it)
                  it->spec->n_descent ? ", without the descent devices" : "",
                  plumbp_si_bracket(w, r->terminal_speed_m_s, "m/s"));
         wrapped(w, "  terminal speed   ", line);
-    } else if (plumbp_body_cd_area(&it->spec->drag) > 0.0 ||
+    } else if (plumb_drag_given_cd_area(&it->spec->drag) > 0.0 ||
              it->spec->drag.model != PLUMB_DRAG_FIXED)
         put(w, "  terminal speed   none up to %s: too little drag for the weight\n",
             plumbp_t_speed(w, PLUMB_TERMINAL_MAX_M_S));
@@ -189,11 +189,11 @@ static void text_drag(writer *w, const plumb_item_report *it, char *buf, size_t 
                  d->model == PLUMB_DRAG_SPHERE_CGW ? "Clift, Grace & Weber (1978)"
                                                    : "Morrison (2010)",
                  plumbp_sci(w, r->min_re, 3), plumbp_sci(w, r->max_re, 3));
-    } else if (plumbp_body_cd_area(d) == 0.0) {
+    } else if (plumb_drag_given_cd_area(d) == 0.0) {
         snprintf(how, sizeof how, "none (drag-free)");
     } else if (d->area_m2 > 0.0) {
         snprintf(how, sizeof how, "Cd %s on %s, CdA %s", plumbp_gnum(w, d->cd, INPUT_SIG),
-                 plumbp_t_area(w, d->area_m2), plumbp_t_area(w, plumbp_body_cd_area(d)));
+                 plumbp_t_area(w, d->area_m2), plumbp_t_area(w, plumb_drag_given_cd_area(d)));
     } else {
         snprintf(how, sizeof how, "CdA %s", plumbp_t_area(w, d->cd_area_m2));
     }

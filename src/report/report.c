@@ -133,11 +133,6 @@ const char *plumbp_wind_profile_name(plumb_wind_profile p)
     }
 }
 
-/* Effective fixed CdA of the body, m^2 (fixed model only). */
-double plumbp_body_cd_area(const plumb_drag_spec *d)
-{
-    return d->area_m2 > 0.0 ? d->cd * d->area_m2 : d->cd_area_m2;
-}
 
 /* Index of the strictest criterion (lowest limit) among the verdicts of an
  * item, or -1 when there are none. */
