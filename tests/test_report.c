@@ -1159,12 +1159,65 @@ static void test_a_plates_glide_distance_is_rounded_up(void **state)
     plumb_profile_free(p);
 }
 
+/* plumb verify's report: a check that fails is said to, in text and JSON,
+ * beside the count; one whose figure is not finite is refused (the JSON
+ * could not hold it). The figures here are invented for the writer. */
+static void test_a_failed_verify_check_is_reported_as_failed(void **state)
+{
+    (void)state;
+    plumb_check c[2];
+    memset(c, 0, sizeof c);
+    snprintf(c[0].name, sizeof c[0].name, "a check that holds");
+    snprintf(c[0].source, sizeof c[0].source, "a source");
+    c[0].status = "transcribed";
+    c[0].unit = "m/s";
+    c[0].published = 1.0;
+    c[0].computed = 1.0;
+    c[0].tolerance = 1e-3;
+    c[0].passed = 1;
+    c[1] = c[0];
+    snprintf(c[1].name, sizeof c[1].name, "a check that fails");
+    c[1].computed = 1.5;
+    c[1].passed = 0;
+    for (int f = 0; f < 2; f++) {
+        char *buf = NULL;
+        size_t len = 0;
+        FILE *out = open_memstream(&buf, &len);
+        plumb_report_options opt = {f ? PLUMB_FORMAT_JSON : PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI,
+                                    NULL};
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_report_verify(out, &opt, c, 2, &diag), PLUMB_OK);
+        fclose(out);
+        if (f) {
+            assert_non_null(strstr(buf, "\"failed\": 1"));
+            assert_non_null(strstr(buf, "\"passed\": false"));
+        } else {
+            assert_non_null(strstr(buf, "FAILED a check that fails"));
+            assert_non_null(strstr(buf, "verify: 1 passed, 1 failed"));
+            assert_non_null(strstr(buf, "Cautions"));
+        }
+        free(buf);
+    }
+    c[1].computed = NAN;
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *out = open_memstream(&buf, &len);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_verify(out, NULL, c, 2, &diag), PLUMB_ENUMERIC);
+    fclose(out);
+    assert_int_equal(len, 0);
+    free(buf);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_cautions_say_what_design_section_7_requires),
         cmocka_unit_test(test_cautions_appear_in_text_json_and_csv_fall_reports),
         cmocka_unit_test(test_cautions_appear_in_air_reports_of_every_format),
+        cmocka_unit_test(test_a_failed_verify_check_is_reported_as_failed),
         cmocka_unit_test(test_non_finite_impact_speed_is_refused_with_nothing_written),
         cmocka_unit_test(test_infinite_energy_ratio_is_refused_with_nothing_written),
         cmocka_unit_test(test_non_finite_air_density_is_refused_with_nothing_written),

@@ -30,5 +30,6 @@
 #include "plumb/dispersion.h"
 #include "plumb/study.h"
 #include "plumb/brief.h"
+#include "plumb/verify.h"
 
 #endif /* PLUMB_PLUMB_H */

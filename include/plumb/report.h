@@ -21,6 +21,7 @@
 #include "plumb/atmosphere.h"
 #include "plumb/trajectory.h"
 #include "plumb/criteria.h"
+#include "plumb/verify.h"
 #include "plumb/profile.h"
 #include "plumb/judge.h"
 #include "plumb/sweep.h"
@@ -72,6 +73,12 @@ typedef struct plumb_air_table {
  * offset in every format. PLUMB_ENUMERIC if any figure is not finite. */
 plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
                                     const plumb_air_table *table, plumb_diag *diag);
+
+/* Writes the published reference checks (`plumb verify`, verify.h):
+ * each check's figure against its source's, the count of those that
+ * pass, and the cautions. PLUMB_ENUMERIC if a figure is not finite. */
+plumb_status plumb_report_verify(FILE *out, const plumb_report_options *opt,
+                                 const plumb_check *checks, size_t n, plumb_diag *diag);
 
 /* The same for rows with no temperature offset. */
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,

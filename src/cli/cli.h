@@ -26,7 +26,7 @@
 #include <time.h>
 #include "plumb/plumb.h"
 
-enum { CLI_EXIT_OK = 0, CLI_EXIT_INPUT = 2, CLI_EXIT_FAILED = 3 };
+enum { CLI_EXIT_OK = 0, CLI_EXIT_CHECK_FAILED = 1, CLI_EXIT_INPUT = 2, CLI_EXIT_FAILED = 3 };
 
 /* cli_parse's "carry on" result: not an exit status. */
 #define CLI_GO_ON (-1)
@@ -274,6 +274,7 @@ int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx,
 /* The subcommands (cmd_<name>.c). */
 int cmd_fall(int argc, char **argv);
 int cmd_air(int argc, char **argv);
+int cmd_verify(int argc, char **argv);
 int cmd_lint(int argc, char **argv);
 int cmd_sweep(int argc, char **argv);
 int cmd_limit(int argc, char **argv);

@@ -17,6 +17,7 @@ static const cli_command commands[] = {
     {"zone", cmd_zone, "clearance zone by Monte Carlo over the profile's uncertainty"},
     {"sheet", cli_sheet_exec, "the printable safety sheet: one PDF of one or more profiles (-o FILE)"},
     {"air", cmd_air, "air properties by altitude (--alt 0m:20km:1km)"},
+    {"verify", cmd_verify, "published reference checks of this build (exit 1 on a failure)"},
     {"lint", cmd_lint, "validate profiles"},
 };
 enum { N_COMMANDS = sizeof commands / sizeof commands[0] };
@@ -28,7 +29,7 @@ static void usage(FILE *f)
                "arrives, where it lands, and which published criteria that breaks.\n\n"
                "Commands:\n");
     for (size_t i = 0; i < N_COMMANDS; i++)
-        fprintf(f, "  %-6s %s\n", commands[i].name, commands[i].help);
+        fprintf(f, "  %-7s %s\n", commands[i].name, commands[i].help);
     fprintf(f, "\n'plumb COMMAND --help' describes a command and its options.\n"
                "Every report is an engineering estimate; see SAFETY.md.\n");
 }

@@ -1,0 +1,113 @@
+/*
+ * verify_report.c - the published reference checks (`plumb verify`,
+ * include/plumb/verify.h) in text, CSV and JSON, with the cautions.
+ */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "report/common.h"
+
+/* "1.2250 kg/m^3": a figure to the digits that tell it from its
+ * neighbour, with its unit. */
+static const char *figure(writer *w, double x, const char *unit, int digits)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%.*g%s%s", digits, x, unit[0] ? NBSP : "", unit_shown(w, unit));
+    return b;
+}
+
+static void text_verify(writer *w, const plumb_report_options *opt, const plumb_check *c,
+                        size_t n)
+{
+    plumbp_text_header(w, opt, "verify", "published reference checks of this build");
+    size_t failed = 0;
+    for (size_t i = 0; i < n; i++) {
+        char line[PLUMB_CHECK_TEXT * 2 + NUMBUF * 4];
+        put(w, "\n  %-6s %s\n", c[i].passed ? "ok" : "FAILED", c[i].name);
+        snprintf(line, sizeof line, "computed %s, published %s, within %s; %s (%s)",
+                 figure(w, c[i].computed, c[i].unit, 12), figure(w, c[i].published, c[i].unit, 12),
+                 figure(w, c[i].tolerance, c[i].unit, 3), c[i].source, c[i].status);
+        wrapped(w, "         ", line);
+        failed += !c[i].passed;
+    }
+    put(w, "\nverify: %zu passed, %zu failed\n", n - failed, failed);
+    if (failed)
+        wrapped(w, "",
+                "A failed check means this build does not compute what the published sources "
+                "give: do not rely on its figures until the cause is found.");
+    plumbp_caution_lines_text(w);
+}
+
+static void csv_verify(writer *w, const plumb_check *c, size_t n)
+{
+    plumbp_csv_cautions(w);
+    put(w, "name,passed,computed,published,tolerance,unit,source,status\n");
+    for (size_t i = 0; i < n; i++) {
+        csv_field(w, c[i].name);
+        put(w, ",%s,%s,%s,%s,", c[i].passed ? "true" : "false", csvnum(w, c[i].computed),
+            csvnum(w, c[i].published), csvnum(w, c[i].tolerance));
+        csv_field(w, c[i].unit);
+        put(w, ",");
+        csv_field(w, c[i].source);
+        put(w, ",");
+        csv_field(w, c[i].status);
+        put(w, "\n");
+    }
+}
+
+plumb_status plumb_report_verify(FILE *out, const plumb_report_options *opt,
+                                 const plumb_check *checks, size_t n, plumb_diag *diag)
+{
+    plumb_report_options def;
+    opt = plumbp_opts_or_default(opt, &def);
+    if (!out || (n > 0 && !checks))
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "no checks to write");
+    for (size_t i = 0; i < n; i++) {
+        finite_check fc = {diag, NULL, PLUMB_OK};
+        plumbp_need_finite(&fc, "published value", checks[i].published);
+        plumbp_need_finite(&fc, "tolerance", checks[i].tolerance);
+        /* a computed figure that is not finite is a failed check, shown as
+         * such in text; JSON has no NaN: the check is refused instead */
+        plumbp_need_finite(&fc, "computed value", checks[i].computed);
+        if (fc.status != PLUMB_OK)
+            return fc.status;
+    }
+    if (opt->format == PLUMB_FORMAT_JSON) {
+        jctx j = {0, 0};
+        json_t *root = jobj(&j);
+        if (opt->version)
+            jset(&j, root, "plumb_version", jstr(&j, opt->version));
+        json_t *arr = jarr(&j);
+        size_t failed = 0;
+        for (size_t i = 0; i < n; i++) {
+            json_t *o = jobj(&j);
+            jset(&j, o, "name", jstr(&j, checks[i].name));
+            jset(&j, o, "passed", json_boolean(checks[i].passed));
+            jset(&j, o, "computed", jreal(&j, checks[i].computed));
+            jset(&j, o, "published", jreal(&j, checks[i].published));
+            jset(&j, o, "tolerance", jreal(&j, checks[i].tolerance));
+            jset(&j, o, "unit", jstr(&j, checks[i].unit));
+            jset(&j, o, "source", jstr(&j, checks[i].source));
+            jset(&j, o, "status", jstr(&j, checks[i].status));
+            jpush(&j, arr, o);
+            failed += !checks[i].passed;
+        }
+        jset(&j, root, "checks", arr);
+        jset(&j, root, "passed", jint(&j, n - failed));
+        jset(&j, root, "failed", jint(&j, failed));
+        jset(&j, root, "cautions", j_cautions(&j));
+        return emit_json(out, &j, root, diag);
+    }
+    writer w;
+    char *buf;
+    size_t len;
+    plumb_status st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+    if (st != PLUMB_OK)
+        return st;
+    if (opt->format == PLUMB_FORMAT_CSV)
+        csv_verify(&w, checks, n);
+    else
+        text_verify(&w, opt, checks, n);
+    return plumbp_writer_close(&w, &buf, &len, out, diag);
+}

@@ -1,0 +1,98 @@
+#!/usr/bin/python3
+"""`plumb verify` (design.md section 6: published reference checks,
+text/JSON, exit 1 on a failure). On a sound build every check passes and
+the command exits 0. The published values it compares with are checked
+here against the sources themselves, written out independently of the
+library's table:
+  - U.S. Standard Atmosphere 1976 (NOAA-S/T 76-1562), Table I, transcribed:
+    rho(0) = 1.2250 kg/m^3, T(1000 m) = 281.651 K, p(2000 m) = 79501 Pa,
+    rho(11000 m) = 0.36480, p(20000 m) = 5529.3 Pa, T(32000 m) = 228.490 K,
+    rho(50000 m) = 1.0269e-3, rho(86000 m) = 6.958e-6; Table 2:
+    mu(0) = 1.7894e-5 Pa s;
+  - WGS 84 normal gravity (NIMA TR8350.2, eq. 4-1, transcribed): 9.7803253359
+    m/s^2 at the equator, 9.8321849378 at the pole;
+  - Morrison's sphere drag Cd(200) = 0.767731559965325 (transcribed);
+  - Pflanz's X1 (A 1, j 1) = 0.4593, (A 0.1, j 6) = 0.1880 (computed from
+    its closed form, references-physics.md 1b);
+  - the closed forms of a fall (v = sqrt(2 g h), t = sqrt(2 h / g);
+    v_t = sqrt(2 m g / (rho CdA)), v(y) = v_t sqrt(1 - exp(-2 g y / v_t^2)),
+    g0 = 9.80665 m/s^2), recomputed here.
+Every format carries the cautions; text fits 80 columns; arguments are a
+usage error (exit 2).
+Usage: verify.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
+"""
+import csv
+import io
+import json
+import math
+import os
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
+from plumbcli import check, finish, plumb  # noqa: E402
+
+G0 = 9.80665
+VT = math.sqrt(2 * 2.0 * G0 / (1.225 * 0.02))
+# name: the published value as the source prints it (its last digit sets
+# the tolerance a check may take: one unit there), or a closed form with
+# the solver's accuracy (relative 1e-6 at most)
+PUBLISHED = {
+    "air density at 0 m": "1.2250",
+    "air temperature at 1000 m": "281.651",
+    "air pressure at 2000 m": "79501",
+    "air density at 11000 m": "0.36480",
+    "air pressure at 20000 m": "5529.3",
+    "air temperature at 32000 m": "228.490",
+    "air density at 50000 m": "1.0269e-3",
+    "air density at 86000 m": "6.958e-6",
+    "air viscosity at 0 m": "1.7894e-5",
+    "normal gravity at the equator": "9.7803253359",
+    "normal gravity at the pole": "9.8321849378",
+    "sphere drag coefficient at Re 200": "0.767731559965325",
+    "Pflanz force-reduction factor X1 at A 1, j 1": "0.4593",
+    "Pflanz force-reduction factor X1 at A 0.1, j 6": "0.1880",
+    "terminal speed, 2 kg, CdA 0.02 m^2, 1.225 kg/m^3": VT,
+    "impact speed after 30 m, 2 kg, CdA 0.02 m^2, 1.225 kg/m^3":
+        VT * math.sqrt(1 - math.exp(-2 * G0 * 30 / VT ** 2)),
+    "impact speed after 30 m without drag": math.sqrt(2 * G0 * 30),
+    "fall time of 30 m without drag": math.sqrt(2 * 30 / G0),
+}
+
+
+def last_digit(text):
+    """One unit of the last digit of a number as printed: "6.958e-6" -> 1e-9."""
+    mant, _, exp = text.partition("e")
+    dec = len(mant.split(".")[1]) if "." in mant else 0
+    return 10.0 ** (int(exp or 0) - dec)
+
+
+rc, out, err = plumb("verify", "--format", "json")
+d = json.loads(out) if rc == 0 else {}
+checks = {c["name"]: c for c in d.get("checks", [])}
+check(rc == 0 and d.get("failed") == 0 and d.get("passed") == len(PUBLISHED),
+      f"verify: exit 0, every check passed: exit {rc}, {d.get('passed')} passed, "
+      f"{d.get('failed')} failed ({err.strip()})")
+check(set(checks) == set(PUBLISHED), f"the checks are the ones listed: {sorted(checks)}")
+for name, given in PUBLISHED.items():
+    c = checks.get(name, {})
+    value = float(given) if isinstance(given, str) else given
+    most = last_digit(given) if isinstance(given, str) else 1e-6 * value
+    ok = (c.get("passed") is True and abs(c["published"] - value) <= 1e-12 * abs(value)
+          and abs(c["computed"] - value) <= c["tolerance"] <= most * (1 + 1e-9)
+          and c.get("source"))
+    check(ok, f"{name}: published {value!r}, the check says {c}")
+check(d.get("cautions") and len(d["cautions"]) >= 4, "JSON carries the cautions")
+
+rc, out, _ = plumb("verify")
+check(rc == 0 and "verify: 18 passed, 0 failed" in out and "Cautions" in out and
+      all(len(l) <= 80 for l in out.splitlines()),
+      f"text: the count, the cautions, 80 columns: {out[-300:]}")
+rc, out, _ = plumb("verify", "--format", "csv")
+rows = list(csv.DictReader(io.StringIO("".join(l + "\n" for l in out.splitlines()
+                                               if not l.startswith("#")))))
+check(rc == 0 and out.startswith("# ") and len(rows) == len(PUBLISHED) and
+      all(r["passed"] == "true" for r in rows), f"CSV: cautions and a row per check: {rows[:1]}")
+rc, out, err = plumb("verify", "extra")
+check(rc == 2 and not out and "takes no arguments" in err, f"verify extra: usage error ({err})")
+
+finish()
