@@ -175,11 +175,13 @@ plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const 
 #undef KP_COL
 }
 
-plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *diag)
+/* The schema of a numeric key's value (a table row's when the key names a
+ * row), or PLUMB_EKEY / PLUMB_EINVAL as plumb_profile_key_dim; a count
+ * (zone.samples) is numeric only when counts is 1. */
+static plumb_status numeric_schema(const char *key, int counts, const plumby_schema **out,
+                                   plumb_diag *diag)
 {
     keypath kp;
-    if (!key || !dim)
-        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_key_dim: NULL argument");
     plumb_status st = plumbp_profile_keypath_resolve(key, &kp, NULL, 0, diag);
     if (st != PLUMB_OK)
         return st;
@@ -187,26 +189,32 @@ plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *
     const plumby_schema *s = leaf->schema;
     if (s && s->type == PLUMBY_T_LIST && leaf->index != KSEG_NONE)
         s = &s->sub[0];
-    if (!s || (s->type != PLUMBY_T_NUM && s->type != PLUMBY_T_COUNT))
+    if (!s || (s->type != PLUMBY_T_NUM && !(counts && s->type == PLUMBY_T_COUNT)))
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
+    *out = s;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_profile_key_dim(const char *key, plumb_dim *dim, plumb_diag *diag)
+{
+    if (!key || !dim)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_key_dim: NULL argument");
+    const plumby_schema *s = NULL;
+    plumb_status st = numeric_schema(key, 1, &s, diag);
+    if (st != PLUMB_OK)
+        return st;
     *dim = s->type == PLUMBY_T_NUM ? plumby_num_dim(s) : PLUMB_DIM_NONE;
     return PLUMB_OK;
 }
 
 plumb_status plumb_profile_key_check(const char *key, double si, plumb_diag *diag)
 {
-    keypath kp;
     if (!key)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_profile_key_check: NULL key");
-    plumb_status st = plumbp_profile_keypath_resolve(key, &kp, NULL, 0, diag);
+    const plumby_schema *s = NULL;
+    plumb_status st = numeric_schema(key, 0, &s, diag);
     if (st != PLUMB_OK)
         return st;
-    const kseg *leaf = &kp.seg[kp.n - 1];
-    const plumby_schema *s = leaf->schema;
-    if (s && s->type == PLUMBY_T_LIST && leaf->index != KSEG_NONE)
-        s = &s->sub[0];
-    if (!s || s->type != PLUMBY_T_NUM)
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "'%s' is not a numeric key", key);
     plumby_range range = plumby_num_range(s);
     if (isfinite(si) && plumby_range_ok(range, si))
         return PLUMB_OK;
