@@ -217,7 +217,9 @@ typedef struct plumb_zone_stats {
     plumb_zone_exceedance exceedance[PLUMB_ZONE_MAX_CRITERIA]; /* in the caller's order */
     plumb_zone_quantile displacement[2]; /* median of impact - planned release point,
                                             east and north (component-wise), m */
-    double drop_height_m;     /* planned release height: the "radius = height" rule, m */
+    double drop_height_m;     /* the "radius = height" rule's height: the planned release
+                                 height, or the largest drawn when it is uncertain, m */
+    double planned_height_m;  /* the planned release height, m (0.4.0) */
     double glide_ratio_max;   /* a plate's largest glide, sideways travel / height fallen
                                  (plumb/glide.h); 0: no glide */
     double max_release_speed_m_s; /* largest release speed sampled, m/s */

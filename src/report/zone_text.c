@@ -448,7 +448,13 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
 static void text_rules(writer *w, const plumb_zone_stats *z)
 {
     put(w, "Simple rules, beside the computed radius\n");
-    put(w, "  %-26s %s\n", "radius = drop height", t_clear(w, z->drop_height_m));
+    if (z->drop_height_m > z->planned_height_m) {
+        char text[NUMBUF * 3];
+        snprintf(text, sizeof text, "%s, the largest release height drawn (planned %s)",
+                 t_clear(w, z->drop_height_m), plumbp_t_len(w, z->planned_height_m));
+        wrapped(w, "  radius = drop height       ", text);
+    } else
+        put(w, "  %-26s %s\n", "radius = drop height", t_clear(w, z->drop_height_m));
     char line[256];
     if (z->glide_ratio_max > 0.0) {
         /* the published source of the largest ratio: a tumbling plate's

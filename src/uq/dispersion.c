@@ -76,6 +76,7 @@ typedef struct rec {
     double energy_j, speed_m_s, time_s;
     double release_speed_m_s;/* |v0| */
     double throw_m;          /* drag-free throw from the release */
+    double height_m;         /* the release height drawn, m */
     int attitude;            /* index of the attitude drawn, or -1 */
     unsigned closed;         /* bit i: descent[i] did not open before impact */
 } rec;
@@ -110,6 +111,7 @@ typedef struct acc {
     double me, mn, cee, cnn, cen; /* Welford: means and co-moments of (dx, dy) */
     double r_max, e_max;
     double speed_max, throw_at_max;
+    double height_max;       /* the largest release height drawn */
     size_t att_n[PLUMB_MAX_ATTITUDES];
     double att_e[PLUMB_MAX_ATTITUDES], att_r[PLUMB_MAX_ATTITUDES];
     size_t exceed[PLUMB_ZONE_MAX_CRITERIA];
@@ -232,6 +234,7 @@ static void compute_block(worker *w, slot *sl)
         const double *v = spec.velocity_m_s;
         r->release_speed_m_s = sqrt(v[0] * v[0] + v[1] * v[1] + v[2] * v[2]);
         r->throw_m = ballistic_throw(&spec);
+        r->height_m = spec.release_m[2];
         r->attitude = w->sampler->choice >= 0 ? (int)vals[w->sampler->choice] : -1;
         r->closed = 0;
         for (size_t dv = 0; dv < spec.n_descent && dv < PLUMB_MAX_DESCENT; dv++)
@@ -327,6 +330,8 @@ static void merge_slot(pass *ps, slot *sl)
             if (verdict.exceeds)
                 a->exceed[c]++;
         }
+        if (a->n == 1 || r->height_m > a->height_max)
+            a->height_max = r->height_m;
         if (a->n == 1 || r->release_speed_m_s > a->speed_max ||
             (r->release_speed_m_s == a->speed_max && r->throw_m > a->throw_at_max)) {
             a->speed_max = r->release_speed_m_s;
@@ -468,7 +473,9 @@ static plumb_status finish_stats(pass *ps, const plumb_fall_spec *base, const pl
     }
     read_quantile(&a->sk[PV_DX], n, 0.5, level, &z->displacement[0]);
     read_quantile(&a->sk[PV_DY], n, 0.5, level, &z->displacement[1]);
-    z->drop_height_m = base->release_m[2];
+    /* the rules' drop height: the largest drawn when the height is uncertain */
+    z->drop_height_m = a->height_max > base->release_m[2] ? a->height_max : base->release_m[2];
+    z->planned_height_m = base->release_m[2];
     z->glide_ratio_max =
         base->n_descent == 0 ? plumb_glide_ratio_max(base->glide.mode) : 0.0;
     z->max_release_speed_m_s = a->speed_max;
@@ -595,7 +602,7 @@ static plumb_status do_pass(run *rn, pass *ps, plumb_diag *diag)
     acc *a = &ps->a;
     a->n = 0;
     a->me = a->mn = a->cee = a->cnn = a->cen = 0.0;
-    a->r_max = a->e_max = a->speed_max = a->throw_at_max = 0.0;
+    a->r_max = a->e_max = a->speed_max = a->throw_at_max = a->height_max = 0.0;
     memset(a->exceed, 0, sizeof a->exceed);
     memset(a->redraws, 0, sizeof a->redraws);
     memset(a->closed, 0, sizeof a->closed);
