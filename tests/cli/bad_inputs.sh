@@ -505,5 +505,19 @@ for pair in "r.json:{" "R.CSV:# " "r.txt:plumb "; do
   fi
 done
 
+# ---- -o given twice ----------------------------------------------------------
+# Keeping only the last -o would leave the report the user named first
+# unwritten in silence: a second -o is refused (exit 2, nothing written).
+# (refused adds its own -o after these arguments.)
+refused "fall -o given twice" "plumb fall: -o may be given once" \
+  -- fall "$good" -o "$tmp/first.txt"
+refused "fall --output then -o" "-o may be given once" \
+  -- fall "$good" --output="$tmp/first.txt"
+if [ -e "$tmp/first.txt" ]; then
+  bad "a refused second -o wrote the first file"
+else
+  pass=$((pass + 1))
+fi
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
