@@ -40,9 +40,43 @@ static int key_char(char c)
  * named ("items[box of M12 bolts]", KSEG_NAMED, found in the tree later).
  * Errors are located at (file, line 1, column of the fault) when file is
  * not NULL. */
+static plumb_status keypath_resolve(const char *key, keypath *kp, const char *file,
+                                    int file_line, plumb_diag *diag, char *fix, size_t fix_size);
+
+/* The whole key the user most likely meant, when a part of it is unknown:
+ * the part at key[start, end) replaced by `with`, and the rest of the key
+ * kept and itself corrected, so that "relase.height" suggests
+ * "release.height", not "release". Writes fix ("" when the corrected key
+ * does not resolve either) and returns whether it found one. */
+static int whole_key_fix(const char *key, size_t start, size_t end, const char *with,
+                         char *fix, size_t fix_size)
+{
+    char cand[PLUMB_DIAG_KEY];
+    fix[0] = '\0';
+    int n = snprintf(cand, sizeof cand, "%.*s%s%s", (int)start, key, with, key + end);
+    if (n < 0 || (size_t)n >= sizeof cand)
+        return 0;
+    keypath kp;
+    char deeper[PLUMB_DIAG_KEY];
+    if (keypath_resolve(cand, &kp, NULL, 0, NULL, deeper, sizeof deeper) == PLUMB_OK)
+        plumbp_strlcpy(fix, cand, fix_size);
+    else if (deeper[0])
+        plumbp_strlcpy(fix, deeper, fix_size);
+    return fix[0] != '\0';
+}
+
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag)
 {
+    char fix[PLUMB_DIAG_KEY];
+    return keypath_resolve(key, kp, file, file_line, diag, fix, sizeof fix);
+}
+
+/* fix: the corrected whole key of an unknown one, or "" (whole_key_fix). */
+static plumb_status keypath_resolve(const char *key, keypath *kp, const char *file,
+                                    int file_line, plumb_diag *diag, char *fix, size_t fix_size)
+{
+    fix[0] = '\0';
     const plumby_schema *cur = plumbp_profile_schema();
     size_t pos = 0;
     int line = file ? file_line : 0;
@@ -84,12 +118,21 @@ plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const 
         const plumby_schema *child = plumby_schema_child(cur, s->name);
         if (!child) {
             const char *best = plumby_schema_suggest(cur, s->name);
+            if (best && whole_key_fix(key, start, pos, best, fix, fix_size))
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s' (did you mean '%s'?)", key, fix);
             if (best)
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s' (did you mean '%.*s%s'?)", key,
                                       (int)start, key, best);
             char path[PLUMB_DIAG_KEY];
             const char *under = plumby_schema_nested(cur, s->name, path, sizeof path);
+            char moved[PLUMB_DIAG_KEY];
+            snprintf(moved, sizeof moved, "%s.%s", under ? under : "", s->name);
+            if (under && whole_key_fix(key, start, pos, moved, fix, fix_size))
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s': '%s' is a key of '%s' (did you mean "
+                                      "'%s'?)", key, s->name, under, fix);
             if (under)
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s': '%s' is a key of '%s' (did you mean "

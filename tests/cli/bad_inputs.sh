@@ -288,6 +288,18 @@ refused "--vary an unknown key" "plumb: <command line>: --vary release.heigth: "
   "did you mean 'release.height'?" -- sweep "$good" --vary "release.heigth=1m:3m:1m" --format json
 refused "limit --find an unknown key" "plumb: <command line>: --find release.heigth: " \
   "did you mean 'release.height'?" -- limit "$good" --find release.heigth --energy-max 40J --format json
+# a misspelt first part: the did-you-mean is the whole key, the rest kept
+# (and itself corrected), never the one part ('release')
+refused "--vary a misspelt first part" "plumb: <command line>: --vary relase.height: " \
+  "did you mean 'release.height'?" -- sweep "$good" --vary "relase.height=1m:2m:1m" --format json
+refused "--find a misspelt first part" "plumb: <command line>: --find relase.height: " \
+  "did you mean 'release.height'?" -- limit "$good" --find relase.height --energy-max 40J --format json
+refused "--set a misspelt first part" "plumb: --set:1:1: relase.height: " \
+  "did you mean 'release.height'?" -- fall "$good" --set "relase.height=1m" --format json
+refused "--vary two misspelt parts" "did you mean 'release.height'?" \
+  -- sweep "$good" --vary "relase.hieght=1m:2m:1m" --format json
+refused "--vary a misspelt middle part" "did you mean 'payload.drag.cd'?" \
+  -- sweep "$good" --vary "payload.dragg.cd=0.5:1:0.5" --format json
 refused "limit --find items[3].mass names --find" "plumb: <command line>: --find items[3].mass: " \
   "find payload.mass instead" -- limit "$inv" --find "items[3].mass" --energy-max 40J --format json
 mkdir "$tmp/sheet-out"
