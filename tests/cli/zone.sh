@@ -283,8 +283,14 @@ refused 2 "--confidence 150%" "$cl: --confidence:" -- zone "$prof" --confidence 
 refused 2 "--confidence abc" "$cl: --confidence:" -- zone "$prof" --confidence abc
 refused 2 "--target without units" "$cl: --target: east:" -- zone "$prof" --target 40,-12
 refused 2 "--target without a comma" "$cl: --target:" -- zone "$prof" --target 40m
-refused 2 "--target in mixed units" "$cl: --target: east and north in different units" \
-  -- zone "$prof" --target 40m,-12ft
+# a target too far from the site for the map (10 km, PLUMB_GEODESY_RANGE_M):
+# refused before the run, naming --target, or zone.target where --set gave it
+refused 2 "--target off the geojson map" "$cl: --target: the target (20000m,0m)" \
+  -- zone "$prof" --set "site={latitude: 52.1 deg, longitude: 4.3 deg}" --target 20000m,0m \
+  --samples 300 --format geojson
+refused 2 "zone.target off the geojson map" "plumb: --set:2:13: zone.target: the target" \
+  -- zone "$prof" --set "site={latitude: 52.1 deg, longitude: 4.3 deg}" \
+  --set "zone.target={east: 20 km, north: 0 m}" --samples 300 --format geojson
 refused 2 "--target not a length" "$cl: --target:" -- zone "$prof" --target 4kg,2kg
 refused 2 "--format xml" "--format" -- zone "$prof" --format xml
 refused 2 "unknown option" "unknown option" -- zone "$prof" --sample 10
@@ -314,5 +320,16 @@ refused 3 "a buoyant sample never lands: exit 3" "never reaches the strike level
 
 total=$((pass + fail))
 [ "$total" -gt 0 ] || fail=1
+# --target takes east and north each in its own unit of length: 20 km and
+# -300 ft are 20000 m and -91.44 m (1 ft = 0.3048 m exactly, 1959 agreement)
+if "$bin" zone "$prof" --samples 400 --target 20km,-300ft --format json >"$tmp/mixed.json" \
+  2>"$tmp/stderr" && $py - "$tmp/mixed.json" <<'PY'
+import json, sys
+t = json.load(open(sys.argv[1]))["zone"]["target"]["target_m"]
+sys.exit(0 if abs(t[0] - 20000.0) < 1e-9 and abs(t[1] + 300 * 0.3048) < 1e-9 else 1)
+PY
+then ok; else bad "--target 20km,-300ft: $(head -n 1 "$tmp/stderr") $(grep -A2 target_m "$tmp/mixed.json")"; fi
+rm -f "$tmp/mixed.json"
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
