@@ -348,6 +348,18 @@ static int profile_gave(const plumb_zone_spec *zone, const plumb_zone_spec *give
     return 0;
 }
 
+/* How directly the setting `key` of zone was given: 3 by the caller over
+ * the profile (a command-line option), 2 by --set, 1 in the profile's
+ * file, 0 not at all (its default). */
+static int zone_key_rank(const plumb_study *s, const plumb_zone_spec *zone, const char *key)
+{
+    if (!profile_gave(zone, plumb_profile_zone(s->profile), key))
+        return 3;
+    int line = 0, col = 0;
+    const char *file = plumb_profile_key_origin(s->profile, key, &line, &col);
+    return !file ? 0 : strcmp(file, PLUMB_DIAG_SET_FILE) == 0 ? 2 : 1;
+}
+
 plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_zone_spec *zone,
                                              const plumb_zone_options *opt, plumb_diag *diag)
 {
@@ -356,6 +368,25 @@ plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_z
     plumb_status st = plumb_zone_check(zone, opt, &d);
     if (st == PLUMB_OK)
         return PLUMB_OK;
+    /* Too few samples for the confidence: the fault is the one of the two
+     * given last (an option over --set over the file over a default), so
+     * `--set zone.confidence=0.999` over a file's samples is told at that
+     * --set, as zone.confidence, not at the file's zone.samples. */
+    if (strcmp(d.key, "zone.samples") == 0 && zone->samples >= 1 &&
+        zone->samples <= PLUMB_ZONE_MAX_SAMPLES &&
+        zone_key_rank(s, zone, "zone.confidence") > zone_key_rank(s, zone, "zone.samples")) {
+        plumb_zone_options dflt;
+        if (!opt) {
+            plumb_zone_options_init(&dflt);
+            opt = &dflt;
+        }
+        plumbp_strlcpy(d.key, "zone.confidence", sizeof d.key);
+        snprintf(d.message, sizeof d.message,
+                 "the %g %% radius needs at least %zu samples to bound it at %g %% confidence, "
+                 "and the zone has %zu (zone.samples)", 100.0 * zone->confidence,
+                 plumb_zone_min_samples(zone->confidence, opt->ci_level), 100.0 * opt->ci_level,
+                 zone->samples);
+    }
     const char *file = NULL;
     if (profile_gave(zone, plumb_profile_zone(s->profile), d.key))
         file = plumb_profile_key_origin(s->profile, d.key, &d.line, &d.col);

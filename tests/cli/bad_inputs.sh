@@ -314,6 +314,25 @@ elif [ $rc -eq 2 ] && [ -z "$(ls -A "$tmp/sheet-out")" ] &&
 else
   bad "sheet - --samples 300: exit $rc, $(cat "$tmp/stderr")"
 fi
+# a zone.confidence from --set that the file's zone.samples cannot bound is
+# told at that --set as zone.confidence, in sheet as in zone (sheet has no
+# --confidence to name). 0.999 at 95 % needs ceil(ln(0.025)/ln(0.999)) = 3688
+# samples (order statistics; the binomial bound, closed form).
+{ cat "$good"; printf 'zone: {samples: 1000}\n'; } >"$tmp/thousand.yaml"
+refused "zone --set zone.confidence over the file's samples" \
+  "plumb: --set:1:17: zone.confidence: the 99.9 % radius needs at least 3688 samples" \
+  -- zone "$tmp/thousand.yaml" --set zone.confidence=0.999 --threads 1
+if [ -x "$(dirname "$bin")/plumb-sheet" ]; then
+  refused "sheet --set zone.confidence over the file's samples" \
+    "plumb: --set:1:17: zone.confidence: the 99.9 % radius needs at least 3688 samples" \
+    -- sheet "$tmp/thousand.yaml" --set zone.confidence=0.999
+  if grep -q -e '--confidence' "$tmp/stderr"; then bad "sheet names --confidence: $(cat "$tmp/stderr")"
+  else pass=$((pass + 1)); fi
+fi
+# both by --set: the samples are named, at their own --set
+refused "--set zone.samples below a --set confidence" \
+  "plumb: --set:2:14: zone.samples: 1000 samples cannot bound the 99.9 % radius" \
+  -- zone "$tmp/thousand.yaml" --set zone.confidence=0.999 --set zone.samples=1000 --threads 1
 # with several --set, the error names which: the N-th --set is line N of
 # the "--set" pseudo-file (issue 9)
 refused "the second --set is wrong" "plumb: --set:2:14: payload.mass: " \
