@@ -337,6 +337,40 @@ plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const c
     return PLUMB_OK;
 }
 
+void plumbp_profile_key_spelt(const plumb_profile *p, size_t item, const char *key, char *out,
+                              size_t size)
+{
+    plumbp_strlcpy(out, key ? key : "", size);
+    if (!p || !key || !p->tree || strncmp(key, "descent[", 8) != 0)
+        return;
+    char *end = NULL;
+    unsigned long j = strtoul(key + 8, &end, 10);
+    if (end == key + 8 || *end != ']')
+        return;
+    const char *rest = end + 1;
+    /* the item's own descent: first; else the profile's, shared */
+    char prefix[64] = "";
+    const plumby_node *dev = NULL;
+    const plumby_pair *items = p->inventory ? plumby_find(p->tree, PLUMBY_ITEMS_KEY) : NULL;
+    if (items && items->value->kind == PLUMBY_SEQ && item < items->value->n &&
+        items->value->items[item]->kind == PLUMBY_MAP) {
+        const plumby_pair *d = plumby_find(items->value->items[item], "descent");
+        if (d) {
+            dev = d->value;
+            snprintf(prefix, sizeof prefix, "%s[%zu].", PLUMBY_ITEMS_KEY,
+                     p->item_no && item < p->n_item_no ? p->item_no[item] : item + 1);
+        }
+    }
+    if (!dev) {
+        const plumby_pair *d = plumby_find(p->tree, "descent");
+        dev = d ? d->value : NULL;
+    }
+    if (dev && dev->kind == PLUMBY_MAP && j == 0)
+        snprintf(out, size, "%sdescent%s", prefix, rest);
+    else if (dev && dev->kind == PLUMBY_SEQ)
+        snprintf(out, size, "%sdescent[%lu]%s", prefix, j, rest);
+}
+
 const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, int *line,
                                      int *col)
 {

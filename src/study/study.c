@@ -13,6 +13,7 @@
 #include "plumb/study.h"
 #include "core/internal.h"
 #include "study/study_internal.h"
+#include "io/profile_int.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -396,6 +397,40 @@ plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_z
     return st;
 }
 
+/* A zone's fall failed (a sample out of a range, a device deployed above
+ * the release): its key as the profile wrote it ("descent.deploy.below",
+ * not the run's "descent[0].deploy.below", for a `descent:` of one map),
+ * and where it was given: for a sampled key, its uncertainty entry (in the
+ * file or a --set); else the key's own value (file or --set); else the
+ * profile. */
+static void zone_error_origin(const plumb_profile *p, size_t item, const plumb_uncertainty *unc,
+                              size_t n_u, plumb_diag *diag)
+{
+    const char *file = NULL;
+    int line = 0, col = 0;
+    char key[PLUMB_DIAG_KEY];
+    plumbp_profile_key_spelt(p, item, diag->key, key, sizeof key);
+    for (size_t k = 0; diag->key[0] && k < n_u; k++) {
+        char ek[PLUMB_DIAG_KEY];
+        plumbp_profile_key_spelt(p, item, unc[k].key, ek, sizeof ek);
+        if (strcmp(ek, key) != 0 && strcmp(unc[k].key, key) != 0)
+            continue;
+        file = unc[k].from_set ? PLUMB_DIAG_SET_FILE : plumb_profile_path(p);
+        line = unc[k].line;
+        col = unc[k].col;
+        snprintf(diag->key, sizeof diag->key, "uncertainty.%.*s", PLUMB_DIAG_KEY - 13,
+                 unc[k].key);
+        break;
+    }
+    if (!file && diag->key[0]) {
+        file = plumb_profile_key_origin(p, key, &line, &col);
+        plumbp_strlcpy(diag->key, key, sizeof diag->key);
+    }
+    plumbp_strlcpy(diag->file, file ? file : plumb_profile_path(p), sizeof diag->file);
+    diag->line = file ? line : 0;
+    diag->col = file ? col : 0;
+}
+
 plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
                               const plumb_zone_options *opt, plumb_study_item_fn on_item,
                               void *user, const plumb_zone_report **out, plumb_diag *diag)
@@ -449,9 +484,9 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
          * safe limit; a drag table used beyond its range), as plumb fall gives */
         for (size_t k = 0; st == PLUMB_OK && k < probe.n_warnings; k++)
             plumb_zone_add_warning(&s->zones[i], "%s", probe.warnings[k]);
+        if (st != PLUMB_OK && diag && diag->file[0] == '\0')
+            zone_error_origin(s->profile, i, unc, n_u, diag);
         if (st != PLUMB_OK && diag) {
-            if (diag->file[0] == '\0')
-                plumbp_strlcpy(diag->file, plumb_profile_path(s->profile), sizeof diag->file);
             if (plumb_profile_is_inventory(s->profile)) {
                 /* "item 2 (spanner): " before the message, which is cut to fit */
                 char prefix[PLUMB_NAME + 32];

@@ -297,6 +297,45 @@ refused 2 "unknown option" "unknown option" -- zone "$prof" --sample 10
 refused 2 "no profile" "needs a PROFILE" -- zone
 refused 2 "missing profile" "nosuch.yaml" -- zone "$tmp/nosuch.yaml"
 
+# a fall of the zone refused (a device deploying above the release): the
+# key as the profile wrote it (`descent:` one map: descent.deploy.below, not
+# descent[0]...) and where its value was given, in the file or a --set
+# (invented parcel; 100 m release, deploy below 60 m; a 50-170 m draw must
+# reach above 100 m within 400 samples: P(no) = (50/120)^400, nil)
+parcel=$tmp/parcel.yaml
+cat >"$parcel" <<'EOF'
+# Invented test scenario: a parcel under a parachute.
+name: Parcel
+payload:
+  mass: 2.17 kg
+  drag: {cd: 1.04, area: 0.053 m^2}
+descent:
+  kind: parachute
+  cd: 0.8
+  area: 1.2 m^2
+  deploy: {below: 60 m}
+  fill_time: 0.8 s
+release:
+  height: 100 m
+wind: {speed: 5 m/s, from: 270 deg}
+uncertainty:
+  wind.speed: {normal: [5 m/s, 1 m/s]}
+  descent.fill_time: {uniform: [0.7 s, 0.9 s]}
+EOF
+refused 2 "a sampled deploy height by --set: at that --set" \
+  "plumb: --set:1:13: uncertainty.descent.deploy.below: sample " \
+  -- zone "$parcel" --samples 400 --set "uncertainty.descent.deploy.below={uniform: [50 m, 170 m]}"
+refused 2 "a fixed deploy height by --set under a sampled release: at that --set" \
+  "plumb: --set:2:22: descent.deploy.below: sample " \
+  -- zone "$parcel" --samples 400 --set "uncertainty.release.height={uniform: [40 m, 100 m]}" \
+  --set "descent.deploy.below=65 m"
+sed 's/^  descent.fill_time: .*/  descent.deploy.below: {uniform: [50 m, 170 m]}/' "$parcel" >"$tmp/parcel2.yaml"
+refused 2 "a sampled deploy height in the file: at its line" \
+  "plumb: $tmp/parcel2.yaml:17:3: uncertainty.descent.deploy.below: sample " \
+  -- zone "$tmp/parcel2.yaml" --samples 400
+if grep -q 'descent\[0\]' "$tmp/stderr"; then bad "descent[0] for a one-map descent: $(cat "$tmp/stderr")"
+else ok; fi
+
 # bad uncertainty in the profile: the loader's or the sampler's message with
 # file:line:col: key
 badp() { # badp NAME LINE -- writes $tmp/bad.yaml with the uncertainty line replaced
