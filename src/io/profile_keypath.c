@@ -128,7 +128,9 @@ static plumb_status keypath_resolve(const char *key, keypath *kp, const char *fi
             char path[PLUMB_DIAG_KEY];
             const char *under = plumby_schema_nested(cur, s->name, path, sizeof path);
             char moved[PLUMB_DIAG_KEY];
-            snprintf(moved, sizeof moved, "%s.%s", under ? under : "", s->name);
+            if ((size_t)snprintf(moved, sizeof moved, "%.*s.%s", PLUMB_DIAG_KEY / 2,
+                                 under ? under : "", s->name) >= sizeof moved)
+                under = NULL; /* too long to suggest: the plain message below */
             if (under && whole_key_fix(key, start, pos, moved, fix, fix_size))
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s': '%s' is a key of '%s' (did you mean "
