@@ -330,14 +330,31 @@ static void test_zone_settings_are_refused_where_they_were_given(void **state)
     plumb_study_free(st);
     plumb_profile_free(p);
 
-    /* a default (100 000 samples) too few for a confidence the caller asks */
+    /* a default (100 000 samples) too few for a confidence the caller asks:
+     * the confidence, given last, is the fault; 0.99999^N <= 0.025 needs
+     * N >= 368 887 */
     st = settings_study(f, "", NULL, 0, &p);
     z = *plumb_profile_zone(p);
     z.confidence = 0.99999;
     assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
-    assert_string_equal(d.key, "zone.samples");
+    assert_string_equal(d.key, "zone.confidence");
     assert_string_equal(d.file, "settings.yaml");
     assert_int_equal(d.line, 0);
+    assert_non_null(strstr(d.message, "at least 368887 samples"));
+    plumb_study_free(st);
+    plumb_profile_free(p);
+
+    /* a --set confidence over the file's samples: at that --set, as the
+     * confidence (0.999^N <= 0.025 needs N >= 3688) */
+    const char *conf[] = {"zone.confidence=0.999"};
+    st = settings_study(f, "zone:\n  samples: 1000\n", conf, 1, &p);
+    z = *plumb_profile_zone(p);
+    assert_int_equal(plumb_study_zone_check_settings(st, &z, &opt, &d), PLUMB_EINVAL);
+    assert_string_equal(d.key, "zone.confidence");
+    assert_string_equal(d.file, PLUMB_DIAG_SET_FILE);
+    assert_int_equal(d.line, 1);
+    assert_int_equal(d.col, (int)strlen("zone.confidence=") + 1);
+    assert_non_null(strstr(d.message, "at least 3688 samples"));
     plumb_study_free(st);
     plumb_profile_free(p);
 }

@@ -1010,10 +1010,32 @@ static void test_foot_pounds_mean_foot_pound_force_where_an_energy_is_wanted(voi
     assert_int_equal(plumb_units_parse(u, "11 ft lb", PLUMB_DIM_MASS, &x, &d), PLUMB_EUNIT);
 }
 
+static void test_inch_pounds_mean_inch_pound_force_where_an_energy_is_wanted(void **state)
+{
+    /* NIST SP 811 (2008) B.8, exact by the 1959 agreement: 1 in = 0.0254 m,
+     * 1 lbf = 4.4482216152605 N; so 300 in lbf = 25 ft lbf = 33.895 J. */
+    const plumb_units *u = *state;
+    const char *const spellings[] = {"300 in lb", "300 in-lbs", "300 inch-pounds", "300 in·lb",
+                                     "300 in lbf"};
+    for (size_t i = 0; i < sizeof spellings / sizeof spellings[0]; i++) {
+        double j = 0.0;
+        plumb_diag d;
+        assert_int_equal(plumb_units_parse(u, spellings[i], PLUMB_DIM_ENERGY, &j, &d), PLUMB_OK);
+        assert_rel(j, 300.0 * 0.0254 * 4.4482216152605, 1e-14);
+        assert_rel(j, 25.0 * 0.3048 * 4.4482216152605, 1e-14);
+        assert_abs(j, 33.895, 5e-4); /* 33.8954... J, to the 3 decimals quoted */
+    }
+    /* a length times a mass where a mass is wanted: still refused */
+    double x = 0.0;
+    plumb_diag d;
+    assert_int_equal(plumb_units_parse(u, "300 in lb", PLUMB_DIM_MASS, &x, &d), PLUMB_EUNIT);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_foot_pounds_mean_foot_pound_force_where_an_energy_is_wanted),
+        cmocka_unit_test(test_inch_pounds_mean_inch_pound_force_where_an_energy_is_wanted),
         cmocka_unit_test(test_mph_is_the_mile_per_hour_not_the_milliphot),
         cmocka_unit_test(test_every_knot_spelling_is_the_nautical_mile_per_hour),
         cmocka_unit_test(test_kt_is_the_knot_and_not_the_kilotonne),

@@ -416,6 +416,11 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 return cli_usage_error(a->cmd, "--units must be si or us, found '%s'", value);
             }
         } else if (strcmp(name, "--output") == 0) {
+            if (a->output) { /* keeping the last would drop a report the user asked for */
+                cli_args_free(a);
+                return cli_usage_error(a->cmd, "-o may be given once, found '%s' and '%s'",
+                                       a->output, value);
+            }
             if (value[0] == '\0') {
                 cli_args_free(a);
                 return cli_usage_error(a->cmd, "%s needs a file name", arg[1] == 'o' ? "-o" : name);

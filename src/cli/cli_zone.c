@@ -47,21 +47,8 @@ static plumb_status parse_confidence(const char *text, double *out, plumb_diag *
     return PLUMB_OK;
 }
 
-/* The unit part of "NUMBER UNIT", spaces trimmed, into buf. */
-static void unit_part(const char *text, char *buf, size_t size)
-{
-    char *end = NULL;
-    (void)strtod(text, &end);
-    const char *u = end ? end : text;
-    while (*u == ' ')
-        u++;
-    snprintf(buf, size, "%s", u);
-    size_t n = strlen(buf);
-    while (n > 0 && buf[n - 1] == ' ')
-        buf[--n] = '\0';
-}
-
-/* "E,N", each a length with its unit, both in the same unit. */
+/* "E,N", each a length with its unit, each in any unit of length
+ * ("20km,0m": east and north are converted apart). */
 static plumb_status parse_target(const plumb_units *units, const char *text, double out[2],
                                  plumb_diag *diag)
 {
@@ -72,19 +59,43 @@ static plumb_status parse_target(const plumb_units *units, const char *text, dou
     char part[2][PLUMB_DIAG_MSG / 2];
     snprintf(part[0], sizeof part[0], "%.*s", (int)(comma - text), text);
     snprintf(part[1], sizeof part[1], "%s", comma + 1);
-    char unit[2][64];
     for (int k = 0; k < 2; k++) {
         plumb_diag d;
         plumb_diag_clear(&d);
         if (plumb_units_parse(units, part[k], PLUMB_DIM_LENGTH, &out[k], &d) != PLUMB_OK)
             return cli_option_error(diag, "--target", "%s: %s", k == 0 ? "east" : "north",
                              d.message[0] ? d.message : "expected a length with its unit");
-        unit_part(part[k], unit[k], sizeof unit[k]);
     }
-    if (strcmp(unit[0], unit[1]) != 0)
-        return cli_option_error(diag, "--target", "east and north in different units ('%s' and '%s'); "
-                                           "give both in one unit", unit[0], unit[1]);
     return PLUMB_OK;
+}
+
+/* With --format geojson the target is put on the map: one too far from the
+ * site for the map conversion is refused before the run, naming where it
+ * came from (--target, or the profile's zone.target), not after it with a
+ * bare "a point ... from the site". */
+static plumb_status target_on_map(const cli_zone_opts *zo, const cli_study *cs,
+                                  const plumb_zone_spec *z, plumb_diag *diag)
+{
+    double ll[2];
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    if (plumb_geodesy_forward(z->site_deg[0], z->site_deg[1], z->target_m[0], z->target_m[1],
+                              ll, &d) == PLUMB_OK)
+        return PLUMB_OK;
+    if (zo->target)
+        return cli_option_error(diag, "--target", "the target (%s) on the --format geojson map: "
+                                "%s", zo->target, d.message);
+    int line = 0, col = 0;
+    const char *file = plumb_profile_key_origin(cs->profile, "zone.target", &line, &col);
+    plumb_diag_clear(diag);
+    diag->status = PLUMB_EINVAL;
+    snprintf(diag->file, sizeof diag->file, "%s", file ? file : plumb_profile_path(cs->profile));
+    diag->line = line;
+    diag->col = col;
+    snprintf(diag->key, sizeof diag->key, "zone.target");
+    snprintf(diag->message, sizeof diag->message, "the target on the --format geojson map: %.*s",
+             (int)sizeof diag->message - 48, d.message);
+    return PLUMB_EINVAL;
 }
 
 /* ---- progress ---------------------------------------------------------------- */
@@ -311,6 +322,9 @@ static plumb_status settings(cli_zone_run *r, const cli_study *cs, plumb_diag *d
                  "site.longitude (WGS 84 degrees)");
         return PLUMB_EINVAL;
     }
+    if (r->a->format == PLUMB_FORMAT_GEOJSON && z->has_target &&
+        (st = target_on_map(zo, cs, z, diag)) != PLUMB_OK)
+        return st;
     st = plumb_study_zone_check_settings(cs->study, z, &r->opt, diag);
     if (st != PLUMB_OK)
         cli_zone_at_option(zo, diag);

@@ -171,6 +171,13 @@ int plumbp_std_temperature_fails(double dt_k, double lo_m, double hi_m, double *
 long plumbp_item_named(const plumby_node *list, const char *name);
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag);
+/* `key` of item `item` (from 0) as p's file wrote it, into out[size]: a
+ * descent device's "descent[N].X" is "descent.X" where the profile gave
+ * `descent:` as one map, and an item's own device is items[M].descent...;
+ * any other key is copied. For a diagnostic after a fall or a zone, whose
+ * keys name devices by index. Can't fail. */
+void plumbp_profile_key_spelt(const plumb_profile *p, size_t item, const char *key, char *out,
+                              size_t size);
 /* profile_set.c */
 /* How the --set options of one command number an inventory's items: as
  * the profile is written, before any --set removes or adds one, so that

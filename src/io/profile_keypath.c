@@ -40,9 +40,43 @@ static int key_char(char c)
  * named ("items[box of M12 bolts]", KSEG_NAMED, found in the tree later).
  * Errors are located at (file, line 1, column of the fault) when file is
  * not NULL. */
+static plumb_status keypath_resolve(const char *key, keypath *kp, const char *file,
+                                    int file_line, plumb_diag *diag, char *fix, size_t fix_size);
+
+/* The whole key the user most likely meant, when a part of it is unknown:
+ * the part at key[start, end) replaced by `with`, and the rest of the key
+ * kept and itself corrected, so that "relase.height" suggests
+ * "release.height", not "release". Writes fix ("" when the corrected key
+ * does not resolve either) and returns whether it found one. */
+static int whole_key_fix(const char *key, size_t start, size_t end, const char *with,
+                         char *fix, size_t fix_size)
+{
+    char cand[PLUMB_DIAG_KEY];
+    fix[0] = '\0';
+    int n = snprintf(cand, sizeof cand, "%.*s%s%s", (int)start, key, with, key + end);
+    if (n < 0 || (size_t)n >= sizeof cand)
+        return 0;
+    keypath kp;
+    char deeper[PLUMB_DIAG_KEY];
+    if (keypath_resolve(cand, &kp, NULL, 0, NULL, deeper, sizeof deeper) == PLUMB_OK)
+        plumbp_strlcpy(fix, cand, fix_size);
+    else if (deeper[0])
+        plumbp_strlcpy(fix, deeper, fix_size);
+    return fix[0] != '\0';
+}
+
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag)
 {
+    char fix[PLUMB_DIAG_KEY];
+    return keypath_resolve(key, kp, file, file_line, diag, fix, sizeof fix);
+}
+
+/* fix: the corrected whole key of an unknown one, or "" (whole_key_fix). */
+static plumb_status keypath_resolve(const char *key, keypath *kp, const char *file,
+                                    int file_line, plumb_diag *diag, char *fix, size_t fix_size)
+{
+    fix[0] = '\0';
     const plumby_schema *cur = plumbp_profile_schema();
     size_t pos = 0;
     int line = file ? file_line : 0;
@@ -84,12 +118,23 @@ plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const 
         const plumby_schema *child = plumby_schema_child(cur, s->name);
         if (!child) {
             const char *best = plumby_schema_suggest(cur, s->name);
+            if (best && whole_key_fix(key, start, pos, best, fix, fix_size))
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s' (did you mean '%s'?)", key, fix);
             if (best)
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s' (did you mean '%.*s%s'?)", key,
                                       (int)start, key, best);
             char path[PLUMB_DIAG_KEY];
             const char *under = plumby_schema_nested(cur, s->name, path, sizeof path);
+            char moved[PLUMB_DIAG_KEY];
+            if ((size_t)snprintf(moved, sizeof moved, "%.*s.%s", PLUMB_DIAG_KEY / 2,
+                                 under ? under : "", s->name) >= sizeof moved)
+                under = NULL; /* too long to suggest: the plain message below */
+            if (under && whole_key_fix(key, start, pos, moved, fix, fix_size))
+                return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
+                                      "unknown key '%s': '%s' is a key of '%s' (did you mean "
+                                      "'%s'?)", key, s->name, under, fix);
             if (under)
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, s->col, key,
                                       "unknown key '%s': '%s' is a key of '%s' (did you mean "
@@ -300,6 +345,40 @@ plumb_status plumb_profile_key_unit(const plumb_profile *p, size_t item, const c
         end++;
     plumbp_strlcpy(unit, end, size);
     return PLUMB_OK;
+}
+
+void plumbp_profile_key_spelt(const plumb_profile *p, size_t item, const char *key, char *out,
+                              size_t size)
+{
+    plumbp_strlcpy(out, key ? key : "", size);
+    if (!p || !key || !p->tree || strncmp(key, "descent[", 8) != 0)
+        return;
+    char *end = NULL;
+    unsigned long j = strtoul(key + 8, &end, 10);
+    if (end == key + 8 || *end != ']')
+        return;
+    const char *rest = end + 1;
+    /* the item's own descent: first; else the profile's, shared */
+    char prefix[64] = "";
+    const plumby_node *dev = NULL;
+    const plumby_pair *items = p->inventory ? plumby_find(p->tree, PLUMBY_ITEMS_KEY) : NULL;
+    if (items && items->value->kind == PLUMBY_SEQ && item < items->value->n &&
+        items->value->items[item]->kind == PLUMBY_MAP) {
+        const plumby_pair *d = plumby_find(items->value->items[item], "descent");
+        if (d) {
+            dev = d->value;
+            snprintf(prefix, sizeof prefix, "%s[%zu].", PLUMBY_ITEMS_KEY,
+                     p->item_no && item < p->n_item_no ? p->item_no[item] : item + 1);
+        }
+    }
+    if (!dev) {
+        const plumby_pair *d = plumby_find(p->tree, "descent");
+        dev = d ? d->value : NULL;
+    }
+    if (dev && dev->kind == PLUMBY_MAP && j == 0)
+        snprintf(out, size, "%sdescent%s", prefix, rest);
+    else if (dev && dev->kind == PLUMBY_SEQ)
+        snprintf(out, size, "%sdescent[%lu]%s", prefix, j, rest);
 }
 
 const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, int *line,

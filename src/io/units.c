@@ -297,11 +297,23 @@ static int has_number_factor(const char *unit)
  * `want`. `shown` is the whole quantity as the user wrote it, `number` its
  * number, both for messages. Writes *si_out only on success. */
 /* The trade writes an energy in "foot-pounds" (14 CFR 107.120 says
- * "11 foot-pounds"), which read literally is a length times a mass: where
- * an energy is wanted these spellings mean the foot pound-force. */
-static const char *const foot_pound_words[] = {
-    "ft lb", "ft-lb", "ft lbs", "ft-lbs", "ft·lb", "ft·lbs", "ft*lb", "ft.lb",
-    "foot-pound", "foot-pounds", "foot pound", "foot pounds", "ft-pound", "ft-pounds",
+ * "11 foot-pounds"), and a small one, a torque wrench's, in "inch-pounds",
+ * which read literally are a length times a mass: where an energy is
+ * wanted these spellings mean the foot and the inch pound-force. */
+static const struct {
+    const char *word;
+    const char *unit;
+} pound_force_words[] = {
+    {"ft lb", "ft lbf"},       {"ft-lb", "ft lbf"},      {"ft lbs", "ft lbf"},
+    {"ft-lbs", "ft lbf"},      {"ft·lb", "ft lbf"},      {"ft·lbs", "ft lbf"},
+    {"ft*lb", "ft lbf"},       {"ft.lb", "ft lbf"},      {"foot-pound", "ft lbf"},
+    {"foot-pounds", "ft lbf"}, {"foot pound", "ft lbf"}, {"foot pounds", "ft lbf"},
+    {"ft-pound", "ft lbf"},    {"ft-pounds", "ft lbf"},  {"in lb", "in lbf"},
+    {"in-lb", "in lbf"},       {"in lbs", "in lbf"},     {"in-lbs", "in lbf"},
+    {"in·lb", "in lbf"},       {"in·lbs", "in lbf"},     {"in*lb", "in lbf"},
+    {"in.lb", "in lbf"},       {"inch-pound", "in lbf"}, {"inch-pounds", "in lbf"},
+    {"inch pound", "in lbf"},  {"inch pounds", "in lbf"}, {"in-pound", "in lbf"},
+    {"in-pounds", "in lbf"},
 };
 
 static plumb_status convert(const plumb_units *units, double value, const char *unit,
@@ -309,9 +321,9 @@ static plumb_status convert(const plumb_units *units, double value, const char *
                             double *si_out, plumb_diag *diag)
 {
     if (want == PLUMB_DIM_ENERGY)
-        for (size_t i = 0; i < sizeof foot_pound_words / sizeof foot_pound_words[0]; i++)
-            if (strcmp(unit, foot_pound_words[i]) == 0) {
-                unit = "ft lbf";
+        for (size_t i = 0; i < sizeof pound_force_words / sizeof pound_force_words[0]; i++)
+            if (strcmp(unit, pound_force_words[i].word) == 0) {
+                unit = pound_force_words[i].unit;
                 break;
             }
     char w[UNITS_SHOW_MAX + 64];

@@ -13,6 +13,7 @@
 #include "plumb/study.h"
 #include "core/internal.h"
 #include "study/study_internal.h"
+#include "io/profile_int.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -348,6 +349,18 @@ static int profile_gave(const plumb_zone_spec *zone, const plumb_zone_spec *give
     return 0;
 }
 
+/* How directly the setting `key` of zone was given: 3 by the caller over
+ * the profile (a command-line option), 2 by --set, 1 in the profile's
+ * file, 0 not at all (its default). */
+static int zone_key_rank(const plumb_study *s, const plumb_zone_spec *zone, const char *key)
+{
+    if (!profile_gave(zone, plumb_profile_zone(s->profile), key))
+        return 3;
+    int line = 0, col = 0;
+    const char *file = plumb_profile_key_origin(s->profile, key, &line, &col);
+    return !file ? 0 : strcmp(file, PLUMB_DIAG_SET_FILE) == 0 ? 2 : 1;
+}
+
 plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_zone_spec *zone,
                                              const plumb_zone_options *opt, plumb_diag *diag)
 {
@@ -356,6 +369,25 @@ plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_z
     plumb_status st = plumb_zone_check(zone, opt, &d);
     if (st == PLUMB_OK)
         return PLUMB_OK;
+    /* Too few samples for the confidence: the fault is the one of the two
+     * given last (an option over --set over the file over a default), so
+     * `--set zone.confidence=0.999` over a file's samples is told at that
+     * --set, as zone.confidence, not at the file's zone.samples. */
+    if (strcmp(d.key, "zone.samples") == 0 && zone->samples >= 1 &&
+        zone->samples <= PLUMB_ZONE_MAX_SAMPLES &&
+        zone_key_rank(s, zone, "zone.confidence") > zone_key_rank(s, zone, "zone.samples")) {
+        plumb_zone_options dflt;
+        if (!opt) {
+            plumb_zone_options_init(&dflt);
+            opt = &dflt;
+        }
+        plumbp_strlcpy(d.key, "zone.confidence", sizeof d.key);
+        snprintf(d.message, sizeof d.message,
+                 "the %g %% radius needs at least %zu samples to bound it at %g %% confidence, "
+                 "and the zone has %zu (zone.samples)", 100.0 * zone->confidence,
+                 plumb_zone_min_samples(zone->confidence, opt->ci_level), 100.0 * opt->ci_level,
+                 zone->samples);
+    }
     const char *file = NULL;
     if (profile_gave(zone, plumb_profile_zone(s->profile), d.key))
         file = plumb_profile_key_origin(s->profile, d.key, &d.line, &d.col);
@@ -363,6 +395,40 @@ plumb_status plumb_study_zone_check_settings(const plumb_study *s, const plumb_z
     if (diag)
         *diag = d;
     return st;
+}
+
+/* A zone's fall failed (a sample out of a range, a device deployed above
+ * the release): its key as the profile wrote it ("descent.deploy.below",
+ * not the run's "descent[0].deploy.below", for a `descent:` of one map),
+ * and where it was given: for a sampled key, its uncertainty entry (in the
+ * file or a --set); else the key's own value (file or --set); else the
+ * profile. */
+static void zone_error_origin(const plumb_profile *p, size_t item, const plumb_uncertainty *unc,
+                              size_t n_u, plumb_diag *diag)
+{
+    const char *file = NULL;
+    int line = 0, col = 0;
+    char key[PLUMB_DIAG_KEY];
+    plumbp_profile_key_spelt(p, item, diag->key, key, sizeof key);
+    for (size_t k = 0; diag->key[0] && k < n_u; k++) {
+        char ek[PLUMB_DIAG_KEY];
+        plumbp_profile_key_spelt(p, item, unc[k].key, ek, sizeof ek);
+        if (strcmp(ek, key) != 0 && strcmp(unc[k].key, key) != 0)
+            continue;
+        file = unc[k].from_set ? PLUMB_DIAG_SET_FILE : plumb_profile_path(p);
+        line = unc[k].line;
+        col = unc[k].col;
+        snprintf(diag->key, sizeof diag->key, "uncertainty.%.*s", PLUMB_DIAG_KEY - 13,
+                 unc[k].key);
+        break;
+    }
+    if (!file && diag->key[0]) {
+        file = plumb_profile_key_origin(p, key, &line, &col);
+        plumbp_strlcpy(diag->key, key, sizeof diag->key);
+    }
+    plumbp_strlcpy(diag->file, file ? file : plumb_profile_path(p), sizeof diag->file);
+    diag->line = file ? line : 0;
+    diag->col = file ? col : 0;
 }
 
 plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
@@ -418,9 +484,9 @@ plumb_status plumb_study_zone(plumb_study *s, const plumb_zone_spec *zone,
          * safe limit; a drag table used beyond its range), as plumb fall gives */
         for (size_t k = 0; st == PLUMB_OK && k < probe.n_warnings; k++)
             plumb_zone_add_warning(&s->zones[i], "%s", probe.warnings[k]);
+        if (st != PLUMB_OK && diag && diag->file[0] == '\0')
+            zone_error_origin(s->profile, i, unc, n_u, diag);
         if (st != PLUMB_OK && diag) {
-            if (diag->file[0] == '\0')
-                plumbp_strlcpy(diag->file, plumb_profile_path(s->profile), sizeof diag->file);
             if (plumb_profile_is_inventory(s->profile)) {
                 /* "item 2 (spanner): " before the message, which is cut to fit */
                 char prefix[PLUMB_NAME + 32];

@@ -288,6 +288,18 @@ refused "--vary an unknown key" "plumb: <command line>: --vary release.heigth: "
   "did you mean 'release.height'?" -- sweep "$good" --vary "release.heigth=1m:3m:1m" --format json
 refused "limit --find an unknown key" "plumb: <command line>: --find release.heigth: " \
   "did you mean 'release.height'?" -- limit "$good" --find release.heigth --energy-max 40J --format json
+# a misspelt first part: the did-you-mean is the whole key, the rest kept
+# (and itself corrected), never the one part ('release')
+refused "--vary a misspelt first part" "plumb: <command line>: --vary relase.height: " \
+  "did you mean 'release.height'?" -- sweep "$good" --vary "relase.height=1m:2m:1m" --format json
+refused "--find a misspelt first part" "plumb: <command line>: --find relase.height: " \
+  "did you mean 'release.height'?" -- limit "$good" --find relase.height --energy-max 40J --format json
+refused "--set a misspelt first part" "plumb: --set:1:1: relase.height: " \
+  "did you mean 'release.height'?" -- fall "$good" --set "relase.height=1m" --format json
+refused "--vary two misspelt parts" "did you mean 'release.height'?" \
+  -- sweep "$good" --vary "relase.hieght=1m:2m:1m" --format json
+refused "--vary a misspelt middle part" "did you mean 'payload.drag.cd'?" \
+  -- sweep "$good" --vary "payload.dragg.cd=0.5:1:0.5" --format json
 refused "limit --find items[3].mass names --find" "plumb: <command line>: --find items[3].mass: " \
   "find payload.mass instead" -- limit "$inv" --find "items[3].mass" --energy-max 40J --format json
 mkdir "$tmp/sheet-out"
@@ -302,6 +314,25 @@ elif [ $rc -eq 2 ] && [ -z "$(ls -A "$tmp/sheet-out")" ] &&
 else
   bad "sheet - --samples 300: exit $rc, $(cat "$tmp/stderr")"
 fi
+# a zone.confidence from --set that the file's zone.samples cannot bound is
+# told at that --set as zone.confidence, in sheet as in zone (sheet has no
+# --confidence to name). 0.999 at 95 % needs ceil(ln(0.025)/ln(0.999)) = 3688
+# samples (order statistics; the binomial bound, closed form).
+{ cat "$good"; printf 'zone: {samples: 1000}\n'; } >"$tmp/thousand.yaml"
+refused "zone --set zone.confidence over the file's samples" \
+  "plumb: --set:1:17: zone.confidence: the 99.9 % radius needs at least 3688 samples" \
+  -- zone "$tmp/thousand.yaml" --set zone.confidence=0.999 --threads 1
+if [ -x "$(dirname "$bin")/plumb-sheet" ]; then
+  refused "sheet --set zone.confidence over the file's samples" \
+    "plumb: --set:1:17: zone.confidence: the 99.9 % radius needs at least 3688 samples" \
+    -- sheet "$tmp/thousand.yaml" --set zone.confidence=0.999
+  if grep -q -e '--confidence' "$tmp/stderr"; then bad "sheet names --confidence: $(cat "$tmp/stderr")"
+  else pass=$((pass + 1)); fi
+fi
+# both by --set: the samples are named, at their own --set
+refused "--set zone.samples below a --set confidence" \
+  "plumb: --set:2:14: zone.samples: 1000 samples cannot bound the 99.9 % radius" \
+  -- zone "$tmp/thousand.yaml" --set zone.confidence=0.999 --set zone.samples=1000 --threads 1
 # with several --set, the error names which: the N-th --set is line N of
 # the "--set" pseudo-file (issue 9)
 refused "the second --set is wrong" "plumb: --set:2:14: payload.mass: " \
@@ -504,6 +535,20 @@ for pair in "r.json:{" "R.CSV:# " "r.txt:plumb "; do
     bad "fall -o $file: the file does not start with '$head'"
   fi
 done
+
+# ---- -o given twice ----------------------------------------------------------
+# Keeping only the last -o would leave the report the user named first
+# unwritten in silence: a second -o is refused (exit 2, nothing written).
+# (refused adds its own -o after these arguments.)
+refused "fall -o given twice" "plumb fall: -o may be given once" \
+  -- fall "$good" -o "$tmp/first.txt"
+refused "fall --output then -o" "-o may be given once" \
+  -- fall "$good" --output="$tmp/first.txt"
+if [ -e "$tmp/first.txt" ]; then
+  bad "a refused second -o wrote the first file"
+else
+  pass=$((pass + 1))
+fi
 
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

@@ -74,5 +74,19 @@ PY
 check_json 0.3048 "$p" --find release.height --energy-max 40J --set 'release.height=100 ft'
 check_json 0.51444444444444444 profiles/demo/drone-release.yaml --find wind.speed --drift-max 60m --set 'wind.speed=9 kn'
 
+# --energy-max in inch pound-force as well as foot pound-force: 300 in lbf =
+# 25 ft lbf = 300 x 0.0254 m x 4.4482216152605 N = 33.8954 J (exact by the
+# 1959 agreement; NIST SP 811 B.8). Both spellings the trade writes.
+for e in "300 in lb" "25 ft lb"; do
+  "$bin" limit "$p" --find release.height --energy-max "$e" --format json >"$tmp/e" 2>&1 ||
+    { bad "--energy-max '$e' refused: $(head -n 1 "$tmp/e")"; continue; }
+  if /usr/bin/python3 - "$tmp/e" <<'PY'
+import json, sys
+j = json.load(open(sys.argv[1]))["limit"]["energy_max_j"]
+sys.exit(0 if abs(j / (300 * 0.0254 * 4.4482216152605) - 1) < 1e-12 and abs(j - 33.895) < 5e-4 else 1)
+PY
+  then ok; else bad "--energy-max '$e' is not 33.895 J:"; grep energy_max "$tmp/e"; fi
+done
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

@@ -188,6 +188,60 @@ try:
 finally:
     shutil.rmtree(tmp)
 
+# ---- a zone's landing polygon: within 80 columns, never a long decimal ----------
+# A bucket of bolts in a steady wind with a scatter allowance (the polygon's
+# line with its buffer was 81 columns in US units), and a dense ball dropped
+# in still air whose impacts all land on one point (its polygon of near zero
+# area printed "0.000000001682 ft²"). Invented scenarios; the 80 columns and
+# "under 0.01" are common practice, no source.
+BOLTS = """name: Bucket of bolts
+payload:
+  mass: 25 lb                  # invented
+  drag: {cd_area: 0.5 ft^2}    # invented
+release:
+  height: 65 ft
+wind: {profile: uniform, speed: 20 kn, from: NW}
+uncertainty:
+  payload.drag.cd_area: {uniform: [0.4 ft^2, 0.6 ft^2]}
+  wind.speed: {normal: [20 kn, 3 kn]}
+zone: {scatter: 2 ft}
+"""
+BALL = """name: Dense ball
+payload:
+  mass: 10 kg                  # invented
+  shape: {kind: sphere, diameter: 0.1 m}
+release:
+  height: 20 m
+"""
+tmp = tempfile.mkdtemp(prefix="plumb-width.", dir=os.environ.get("TMPDIR"))
+try:
+    for name, text, extra in (("bolts", BOLTS, []),
+                              ("ball", BALL, ["--set", "uncertainty.payload.mass="
+                                              "{uniform: [9 kg, 11 kg]}"])):
+        path = os.path.join(tmp, name + ".yaml")
+        with open(path, "w") as f:
+            f.write(text)
+        for units in ("si", "us"):
+            rc, out, err = plumb("zone", path, "--samples", "2000", "--threads", "1",
+                                 "--units", units, *extra)
+            what = f"zone {name} --units {units}"
+            check(rc == 0, f"{what}: exit {rc} {err.strip()[:200]}")
+            check(not wide(out), f"{what}: wide lines {wide(out)[:3]}")
+            area = r"(under 0\.01|\d{1,6}(\.\d{1,4})?) (m²|ft²)"
+            poly = [l for l in out.splitlines() if l.startswith("  polygon ")]
+            check(len(poly) == 1 and re.match(r"^  polygon +" + area + r" in \d+ parts?", poly[0]),
+                  f"{what}: polygon line {poly}")
+            if name == "ball":
+                check(poly and "under 0.01 " + ("ft²" if units == "us" else "m²") in poly[0],
+                      f"{what}: a polygon of near zero area is not 'under 0.01': {poly}")
+            else:  # the buffered area, on the line after, is a figure too
+                i = out.splitlines().index(poly[0]) if poly else -1
+                nxt = out.splitlines()[i + 1] if poly else ""
+                check(re.match(r"^ {18}" + area + " with the scatter allowance as a buffer$", nxt),
+                      f"{what}: buffered polygon line {nxt!r}")
+finally:
+    shutil.rmtree(tmp)
+
 # ---- US units throughout ----------------------------------------------------------
 for prof in DEMO:
     rc, out, err = plumb("fall", prof, "--units", "us")

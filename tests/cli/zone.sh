@@ -283,13 +283,58 @@ refused 2 "--confidence 150%" "$cl: --confidence:" -- zone "$prof" --confidence 
 refused 2 "--confidence abc" "$cl: --confidence:" -- zone "$prof" --confidence abc
 refused 2 "--target without units" "$cl: --target: east:" -- zone "$prof" --target 40,-12
 refused 2 "--target without a comma" "$cl: --target:" -- zone "$prof" --target 40m
-refused 2 "--target in mixed units" "$cl: --target: east and north in different units" \
-  -- zone "$prof" --target 40m,-12ft
+# a target too far from the site for the map (10 km, PLUMB_GEODESY_RANGE_M):
+# refused before the run, naming --target, or zone.target where --set gave it
+refused 2 "--target off the geojson map" "$cl: --target: the target (20000m,0m)" \
+  -- zone "$prof" --set "site={latitude: 52.1 deg, longitude: 4.3 deg}" --target 20000m,0m \
+  --samples 300 --format geojson
+refused 2 "zone.target off the geojson map" "plumb: --set:2:13: zone.target: the target" \
+  -- zone "$prof" --set "site={latitude: 52.1 deg, longitude: 4.3 deg}" \
+  --set "zone.target={east: 20 km, north: 0 m}" --samples 300 --format geojson
 refused 2 "--target not a length" "$cl: --target:" -- zone "$prof" --target 4kg,2kg
 refused 2 "--format xml" "--format" -- zone "$prof" --format xml
 refused 2 "unknown option" "unknown option" -- zone "$prof" --sample 10
 refused 2 "no profile" "needs a PROFILE" -- zone
 refused 2 "missing profile" "nosuch.yaml" -- zone "$tmp/nosuch.yaml"
+
+# a fall of the zone refused (a device deploying above the release): the
+# key as the profile wrote it (`descent:` one map: descent.deploy.below, not
+# descent[0]...) and where its value was given, in the file or a --set
+# (invented parcel; 100 m release, deploy below 60 m; a 50-170 m draw must
+# reach above 100 m within 400 samples: P(no) = (50/120)^400, nil)
+parcel=$tmp/parcel.yaml
+cat >"$parcel" <<'EOF'
+# Invented test scenario: a parcel under a parachute.
+name: Parcel
+payload:
+  mass: 2.17 kg
+  drag: {cd: 1.04, area: 0.053 m^2}
+descent:
+  kind: parachute
+  cd: 0.8
+  area: 1.2 m^2
+  deploy: {below: 60 m}
+  fill_time: 0.8 s
+release:
+  height: 100 m
+wind: {speed: 5 m/s, from: 270 deg}
+uncertainty:
+  wind.speed: {normal: [5 m/s, 1 m/s]}
+  descent.fill_time: {uniform: [0.7 s, 0.9 s]}
+EOF
+refused 2 "a sampled deploy height by --set: at that --set" \
+  "plumb: --set:1:13: uncertainty.descent.deploy.below: sample " \
+  -- zone "$parcel" --samples 400 --set "uncertainty.descent.deploy.below={uniform: [50 m, 170 m]}"
+refused 2 "a fixed deploy height by --set under a sampled release: at that --set" \
+  "plumb: --set:2:22: descent.deploy.below: sample " \
+  -- zone "$parcel" --samples 400 --set "uncertainty.release.height={uniform: [40 m, 100 m]}" \
+  --set "descent.deploy.below=65 m"
+sed 's/^  descent.fill_time: .*/  descent.deploy.below: {uniform: [50 m, 170 m]}/' "$parcel" >"$tmp/parcel2.yaml"
+refused 2 "a sampled deploy height in the file: at its line" \
+  "plumb: $tmp/parcel2.yaml:17:3: uncertainty.descent.deploy.below: sample " \
+  -- zone "$tmp/parcel2.yaml" --samples 400
+if grep -q 'descent\[0\]' "$tmp/stderr"; then bad "descent[0] for a one-map descent: $(cat "$tmp/stderr")"
+else ok; fi
 
 # bad uncertainty in the profile: the loader's or the sampler's message with
 # file:line:col: key
@@ -314,5 +359,16 @@ refused 3 "a buoyant sample never lands: exit 3" "never reaches the strike level
 
 total=$((pass + fail))
 [ "$total" -gt 0 ] || fail=1
+# --target takes east and north each in its own unit of length: 20 km and
+# -300 ft are 20000 m and -91.44 m (1 ft = 0.3048 m exactly, 1959 agreement)
+if "$bin" zone "$prof" --samples 400 --target 20km,-300ft --format json >"$tmp/mixed.json" \
+  2>"$tmp/stderr" && $py - "$tmp/mixed.json" <<'PY'
+import json, sys
+t = json.load(open(sys.argv[1]))["zone"]["target"]["target_m"]
+sys.exit(0 if abs(t[0] - 20000.0) < 1e-9 and abs(t[1] + 300 * 0.3048) < 1e-9 else 1)
+PY
+then ok; else bad "--target 20km,-300ft: $(head -n 1 "$tmp/stderr") $(grep -A2 target_m "$tmp/mixed.json")"; fi
+rm -f "$tmp/mixed.json"
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
