@@ -9,6 +9,9 @@
 #include "report/common.h"
 #include "report/sweep_int.h"
 
+/* A reason a boundary has no answer, as a line (reason_text). */
+enum { REASON_TEXT = PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16 };
+
 /* A two-way sweep as its boundary: for each value of the first input and
  * each criterion, the value of the second at which the limit is reached
  * (plumb_sweep_find_boundaries). The full figures are in CSV and JSON. */
@@ -36,6 +39,78 @@ static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const
     }
 }
 
+/* The number of boundaries with an answer. */
+static size_t boundary_answers(const plumb_sweep *sw, size_t nc)
+{
+    size_t n = 0;
+    for (size_t i = 0; i < plumb_sweep_axis(sw, 0)->n; i++)
+        for (size_t k = 0; k < nc; k++)
+            n += plumb_sweep_boundary_at(sw, i, k)->status == PLUMB_OK;
+    return n;
+}
+
+/* The distinct reasons of the boundaries with no answer that the sweep
+ * kept, into seen[] (PLUMB_SWEEP_BOUNDARY_REASONS long) if not NULL;
+ * *other 1 when some boundary's reason was not kept. */
+static size_t reason_count(const plumb_sweep *sw, size_t nc, const plumb_diag **seen, int *other)
+{
+    const plumb_diag *mine[PLUMB_SWEEP_BOUNDARY_REASONS];
+    size_t n = 0;
+    *other = 0;
+    if (!seen)
+        seen = mine;
+    for (size_t i = 0; i < plumb_sweep_axis(sw, 0)->n; i++)
+        for (size_t k = 0; k < nc; k++) {
+            if (plumb_sweep_boundary_at(sw, i, k)->status == PLUMB_OK)
+                continue;
+            const plumb_diag *why = plumb_sweep_boundary_why(sw, i, k);
+            size_t e = 0;
+            while (why && e < n && seen[e] != why)
+                e++;
+            if (!why)
+                *other = 1;
+            else if (e == n && n < PLUMB_SWEEP_BOUNDARY_REASONS)
+                seen[n++] = why;
+        }
+    return n;
+}
+
+/* A reason as a clause: the diagnostic, without the key when it is the
+ * one solved for (the sentence names it); when none was kept, where to
+ * find it. */
+static void reason_text(const plumb_diag *why, const plumb_range *a1, char *buf, size_t size)
+{
+    if (!why)
+        snprintf(buf, size, "%s", "another reason: `plumb limit` with --set at that value "
+                 "says which");
+    else if (!why->file[0] && strcmp(why->key, a1->key) == 0)
+        snprintf(buf, size, "%s", why->message);
+    else
+        plumb_diag_format(why, buf, size);
+}
+
+/* The legend of "-": no answer at that value, and each reason once. */
+static void missing_reasons(writer *w, const plumb_sweep *sw, size_t nc)
+{
+    const plumb_diag *seen[PLUMB_SWEEP_BOUNDARY_REASONS];
+    int other;
+    size_t n = reason_count(sw, nc, seen, &other);
+    char why[REASON_TEXT], text[REASON_TEXT + 64];
+    if (n + (size_t)other == 1) {
+        reason_text(n ? seen[0] : NULL, plumb_sweep_axis(sw, 1), why, sizeof why);
+        snprintf(text, sizeof text, "no answer at that value: %s", why);
+        wrapped(w, "  - = ", text);
+        return;
+    }
+    put(w, "  - = no answer at that value, for these reasons:\n");
+    for (size_t e = 0; e <= n; e++) {
+        if (e == n && !other)
+            break;
+        reason_text(e < n ? seen[e] : NULL, plumb_sweep_axis(sw, 1), why, sizeof why);
+        wrapped(w, "      ", why);
+    }
+}
+
 void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
 {
     const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
@@ -46,13 +121,31 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
     }
     const plumb_sweep_row *r0 = plumbp_sweep_first_row(sw);
     int inv = r0->report.n_items > 1;
-    char text[PLUMB_NAME + PLUMB_DIAG_KEY * 2 + 3 * PLUMB_UNIT_TEXT + 320];
+    char text[PLUMB_NAME + PLUMB_DIAG_KEY * 3 + 3 * PLUMB_UNIT_TEXT + REASON_TEXT + 320];
+    char who[PLUMB_NAME + PLUMB_DIAG_KEY + 64] = "";
+    const char *name = r0->report.items[plumb_sweep_boundary_item(sw)].spec->name;
+    const char *item_key = plumb_sweep_boundary_item_key(sw);
+    /* the item judged, and why that one: no other item depends on its key */
+    if (inv && item_key)
+        snprintf(who, sizeof who, " (%s, the item whose %s is varied)", name, item_key);
+    else if (inv)
+        snprintf(who, sizeof who, " (the item with the highest energy, %s)", name);
+    int other;
+    if (boundary_answers(sw, nc) == 0 && reason_count(sw, nc, NULL, &other) == 1 && !other) {
+        /* one reason for every value: said once, not as a table of dashes */
+        char why[REASON_TEXT];
+        reason_text(plumb_sweep_boundary_why(sw, 0, 0), a1, why, sizeof why);
+        snprintf(text, sizeof text, "Where each limit is reached%s: not found for %s; %s.", who,
+                 a1->key, why);
+        put(w, "\n");
+        wrapped(w, "", text);
+        put(w, "Every row's figures are in --format csv and --format json.\n");
+        return;
+    }
     snprintf(text, sizeof text,
-             "Where each limit is reached%s%s%s: the %s%s%s%s at which the impact energy "
+             "Where each limit is reached%s: the %s%s%s%s at which the impact energy "
              "equals the criterion's limit, for each %s%s%s%s (plumb limit's solver); within "
-             "the limit up to or from that value.",
-             inv ? " (the item with the highest energy, " : "",
-             inv ? r0->report.items[plumb_sweep_boundary_item(sw)].spec->name : "", inv ? ")" : "",
+             "the limit up to or from that value.", who,
              a1->key, a1->unit[0] ? " (" : "", unit_shown(w, a1->unit), a1->unit[0] ? ")" : "",
              a0->key, a0->unit[0] ? " (" : "", unit_shown(w, a0->unit), a0->unit[0] ? ")" : "");
     put(w, "\n");
@@ -108,6 +201,6 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
         put(w, "  * = beyond the range swept (%s to %s)\n", plumbp_gnum(w, a1->from, 8),
             plumbp_gnum(w, a1->to, 8));
     if (missing)
-        put(w, "  - = no answer at that value (the value is refused or a fall fails there)\n");
+        missing_reasons(w, sw, nc);
     put(w, "Every row's figures are in --format csv and --format json.\n");
 }
