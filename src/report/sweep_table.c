@@ -426,6 +426,16 @@ void plumbp_sweep_row_error(const plumb_sweep_row *row, char *buf, size_t size)
 }
 
 
+/* The header of the warnings' marks, and room for a row's marks. */
+#define MARK_HEAD "warn"
+enum { MARK_TEXT = 128 };
+
+/* The marks of item `it` of row i ("W1,W3"), "" when it has no warning. */
+static const char *row_mark(const sweep_marks *m, size_t i, size_t it, char *buf, size_t size)
+{
+    return plumbp_sweep_mark(m, i, it, "W", ",", buf, size);
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
@@ -510,6 +520,19 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         figs_w += wnum[k] + SWEEP_GAP;
     for (size_t k = 0; k < nv; k++)
         crit_w += wcrit[k] + SWEEP_GAP;
+    /* the warnings' marks ("W1,W2"), last on each line of a row that has
+     * warnings, in a column only when some row does */
+    sweep_marks marks;
+    plumbp_sweep_marks_open(w, sw, &marks);
+    size_t wmark = 0;
+    for (size_t i = 0; marks.n_distinct && i < nr; i++)
+        for (size_t it = 0; it < plumb_sweep_row_at(sw, i)->report.n_items; it++) {
+            char mark[MARK_TEXT];
+            size_t mw = shown_width(row_mark(&marks, i, it, mark, sizeof mark));
+            wmark = mw > wmark ? mw : wmark;
+        }
+    if (marks.n_distinct)
+        wmark = SWEEP_GAP + (wmark > shown_width(MARK_HEAD) ? wmark : shown_width(MARK_HEAD));
     if (inv) {
         size_t room = TABLE_WIDTH > keys_w + figs_w + SWEEP_GAP
                           ? TABLE_WIDTH - keys_w - figs_w - SWEEP_GAP
@@ -518,7 +541,14 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         c.name_w = c.own_line ? TABLE_WIDTH - keys_w - SWEEP_GAP : name_w < room ? name_w : room;
     }
     size_t lead_w = keys_w + (inv && !c.own_line ? SWEEP_GAP + c.name_w : 0);
-    int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
+    /* the marks beside the figures where they fit as the table is, the
+     * items' names kept in their column; else beside the verdicts, in the
+     * criteria's own tables; with neither, the Warnings block lists every
+     * row */
+    int fig_marks = wmark && (c.own_line ? keys_w : lead_w) + figs_w + wmark <= TABLE_WIDTH;
+    int inline_crit = lead_w + figs_w + crit_w + (fig_marks ? wmark : 0) <= TABLE_WIDTH &&
+                      (fig_marks || !wmark);
+    int marked = fig_marks || (wmark && nv > 0);
     sweep_top_heads(w, &c, khead);
     sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++) {
@@ -535,6 +565,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         snprintf(h, sizeof h, "C%zu", k + 1);
         pad(w, h, wcrit[k] + SWEEP_GAP, 1);
     }
+    if (fig_marks)
+        put(w, "%*s%s", SWEEP_GAP, "", MARK_HEAD);
     put(w, "\n");
     sweep_heads(w, sw, &c, khead, 2);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
@@ -554,19 +586,24 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            char label[PLUMB_NAME + 24];
+            char label[PLUMB_NAME + 24], mark[MARK_TEXT];
             const char *rest = sweep_lead(w, &c, row, it, label, sizeof label);
+            row_mark(&marks, i, it, mark, sizeof mark);
+            mark[fig_marks ? sizeof mark - 1 : 0] = '\0';
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
-                ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == item->n_verdicts);
+                ratio_cell(w, &item->verdicts[k], wratio[k],
+                           k + 1 == item->n_verdicts && !mark[0]);
+            if (mark[0])
+                put(w, "%*s%s", SWEEP_GAP, "", mark);
             put(w, "\n");
             sweep_name_continued(w, &c, rest);
         }
     }
     /* the verdicts, in blocks of as many criteria as fit */
     for (size_t k0 = 0; !inline_crit && k0 < nv;) {
-        size_t k1 = k0, used = lead_w;
+        size_t k1 = k0, used = lead_w + wmark;
         while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wcrit[k1++] + SWEEP_GAP;
         if (k1 == k0 + 1)
@@ -580,6 +617,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             snprintf(h, sizeof h, "C%zu", k + 1);
             pad(w, h, wcrit[k] + SWEEP_GAP, 1);
         }
+        if (wmark)
+            put(w, "%*s%s", SWEEP_GAP, "", MARK_HEAD);
         put(w, "\n");
         sweep_heads(w, sw, &c, khead, 2);
         ratio_heads(w, k0, k1, wratio);
@@ -590,10 +629,13 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 continue;
             for (size_t it = 0; it < row->report.n_items; it++) {
                 const plumb_item_report *item = &row->report.items[it];
-                char label[PLUMB_NAME + 24];
+                char label[PLUMB_NAME + 24], mark[MARK_TEXT];
                 const char *rest = sweep_lead(w, &c, row, it, label, sizeof label);
+                row_mark(&marks, i, it, mark, sizeof mark);
                 for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
-                    ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1);
+                    ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1 && !mark[0]);
+                if (mark[0])
+                    put(w, "%*s%s", SWEEP_GAP, "", mark);
                 put(w, "\n");
                 sweep_name_continued(w, &c, rest);
             }
@@ -619,10 +661,11 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
     }
     text_criteria_legend(w, first);
-    if (plumbp_sweep_has_warnings(sw)) {
-        put(w, "\nWarnings\n");
-        plumbp_each_sweep_warning(w, sw, plumbp_sweep_text_warning);
+    if (marks.n_distinct) {
+        put(w, "\nWarnings (each marked beside the rows it is about)\n");
+        plumbp_sweep_text_warnings(w, &marks, marked);
     }
+    plumbp_sweep_marks_close(&marks);
     put(w, "\nEach row is exactly what `plumb fall` gives with --set at that value.\n");
     plumbp_text_profile(w, p);
     plumbp_caution_lines_text(w);
