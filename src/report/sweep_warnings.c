@@ -57,7 +57,9 @@ void plumbp_sweep_marks_close(sweep_marks *m)
     plumbp_said_free(m->s, m->n);
     free(m->num);
     free(m->row_start);
+    const plumb_sweep *sw = m->sw; /* still the sweep's: an empty set of marks */
     memset(m, 0, sizeof *m);
+    m->sw = sw;
 }
 
 const char *plumbp_sweep_mark(const sweep_marks *m, size_t row, size_t item, const char *prefix,
