@@ -662,7 +662,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     }
     text_criteria_legend(w, first);
     if (marks.n_distinct) {
-        put(w, "\nWarnings (each marked beside the rows it is about)\n");
+        put(w, "\nWarnings%s\n", marked ? " (each marked beside the rows it is about)" : "");
         plumbp_sweep_text_warnings(w, &marks, marked);
     }
     plumbp_sweep_marks_close(&marks);
