@@ -291,6 +291,73 @@ static void test_a_row_that_never_lands_is_that_rows_error(void **state)
     plumb_profile_free(p);
 }
 
+/* The boundary of a two-way sweep of an inventory over items[N].X is
+ * that of item N: inventory.yaml's items are pin punch (1), chain sling
+ * (2, the highest energy) and glove (3), so over items[3].mass the
+ * boundaries are the glove's, and plumb_sweep_boundary_item_key names
+ * the key. Over a direction no value marks a limit: every boundary has
+ * the same reason, kept once, naming the key. A height the profile
+ * refuses (-5 m: release.height must be > 0, profile format) keeps the
+ * loader's reason. Without boundaries, and for NULL, both say nothing. */
+static void test_a_boundary_is_of_the_item_its_key_names_and_keeps_why_it_is_missing(void **state)
+{
+    (void)state;
+    plumb_profile *p = test_profile("inventory.yaml");
+    char dir[512];
+    snprintf(dir, sizeof dir, "%s/profiles/criteria", plumbt_srcdir());
+    plumb_criteria *crit = NULL;
+    plumb_trajectory *traj = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &crit, &d), PLUMB_OK);
+    assert_int_equal(plumb_trajectory_alloc(NULL, &traj), PLUMB_OK);
+    plumb_range r[2];
+    assert_int_equal(plumb_range_parse_key(units, "release.height=-5m:15m:10m", &r[0], &d),
+                     PLUMB_OK);
+    assert_int_equal(plumb_range_parse_key(units, "items[3].mass=0.05kg:0.25kg:0.1kg", &r[1], &d),
+                     PLUMB_OK);
+    plumb_sweep *s = NULL;
+    assert_int_equal(plumb_sweep_run(p, units, crit, r, 2, traj, &s, &d), PLUMB_OK);
+    assert_null(plumb_sweep_boundary_item_key(s));
+    assert_null(plumb_sweep_boundary_why(s, 0, 0));
+    assert_int_equal(plumb_sweep_find_boundaries(s, p, units, traj, &d), PLUMB_OK);
+    assert_int_equal(plumb_sweep_boundary_item(s), 2);
+    assert_string_equal(plumb_sweep_boundary_item_key(s), "items[3].mass");
+    assert_true(plumb_sweep_boundary_criteria(s) > 0);
+    /* -5 m refused by the loader, with its reason; 5 m and 15 m answered */
+    assert_int_not_equal(plumb_sweep_boundary_at(s, 0, 0)->status, PLUMB_OK);
+    const plumb_diag *why = plumb_sweep_boundary_why(s, 0, 0);
+    assert_non_null(why);
+    assert_string_equal(why->key, "release.height");
+    for (size_t i = 1; i < 3; i++) {
+        assert_int_equal(plumb_sweep_boundary_at(s, i, 0)->status, PLUMB_OK);
+        assert_null(plumb_sweep_boundary_why(s, i, 0));
+    }
+    plumb_sweep_free(s);
+
+    /* over a direction: one reason for every boundary, naming the key */
+    assert_int_equal(plumb_range_parse_key(units, "release.height=5m:15m:10m", &r[0], &d),
+                     PLUMB_OK);
+    assert_int_equal(plumb_range_parse_key(units, "wind.from=0deg:90deg:45deg", &r[1], &d),
+                     PLUMB_OK);
+    assert_int_equal(plumb_sweep_run(p, units, crit, r, 2, traj, &s, &d), PLUMB_OK);
+    assert_int_equal(plumb_sweep_find_boundaries(s, p, units, traj, &d), PLUMB_OK);
+    assert_null(plumb_sweep_boundary_item_key(s));
+    const plumb_diag *first = plumb_sweep_boundary_why(s, 0, 0);
+    assert_non_null(first);
+    assert_int_equal(first->status, PLUMB_EINVAL);
+    assert_string_equal(first->key, "wind.from");
+    for (size_t i = 0; i < 2; i++)
+        for (size_t k = 0; k < plumb_sweep_boundary_criteria(s); k++)
+            assert_ptr_equal(plumb_sweep_boundary_why(s, i, k), first);
+    plumb_sweep_free(s);
+    assert_null(plumb_sweep_boundary_item_key(NULL));
+    assert_null(plumb_sweep_boundary_why(NULL, 0, 0));
+    plumb_trajectory_free(traj);
+    plumb_criteria_free(crit);
+    plumb_profile_free(p);
+}
+
 /* A direction's range may start or end at a compass point. On the
  * 16-point rose each point is 360/16 = 22.5 deg clockwise from the one
  * before, N = 0 (the rose's definition; common practice, no source): NW is
@@ -355,6 +422,7 @@ int main(void)
         cmocka_unit_test(test_two_ranges_past_the_row_cap_are_refused_before_running),
         cmocka_unit_test(test_a_row_that_never_lands_is_that_rows_error),
         cmocka_unit_test(test_a_direction_range_may_run_between_compass_points),
+        cmocka_unit_test(test_a_boundary_is_of_the_item_its_key_names_and_keeps_why_it_is_missing),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

@@ -140,9 +140,14 @@ const plumb_sweep_row *plumb_sweep_row_at(const plumb_sweep *s, size_t i);
  * criterion's limit: plumb_limit_solve on the profile derived with the
  * first input set to that value (the text "KEY=<value> <unit>" of --set),
  * so each boundary is exactly what `plumb limit --set KEY=<value> --find
- * KEY2 --energy-max ID` gives. The item is the one with the highest impact
- * energy in the first computed row (the only one for a single payload);
- * the criteria are that item's verdicts there, in order. */
+ * KEY2 --energy-max ID` gives. The item is the one a varied key belongs
+ * to (items[N].X: the second key's, else the first's), whose limit the
+ * key moves: another item does not depend on it; else the one with the
+ * highest impact energy in the first computed row (the only one for a
+ * single payload). The criteria are that item's verdicts there, in order.
+ * A boundary with no answer keeps why (plumb_sweep_boundary_why): the
+ * value refused, the fall that failed, or the key the solver cannot solve
+ * for (a direction: no one value of it marks a limit). */
 typedef struct plumb_sweep_boundary {
     plumb_status status;            /* PLUMB_OK, or why there is no answer (the first
                                        value refused, a fall failed ...) */
@@ -167,5 +172,21 @@ size_t plumb_sweep_boundary_criteria(const plumb_sweep *s);
 const plumb_criterion *plumb_sweep_boundary_criterion(const plumb_sweep *s, size_t k);
 size_t plumb_sweep_boundary_item(const plumb_sweep *s);
 const plumb_sweep_boundary *plumb_sweep_boundary_at(const plumb_sweep *s, size_t i0, size_t k);
+
+/* The varied key (items[N].X) that named the item the boundaries are of,
+ * or NULL when it is the item with the highest energy (or there are no
+ * boundaries). Borrowed from the sweep. Can't fail. (Added after 0.3.0.) */
+const char *plumb_sweep_boundary_item_key(const plumb_sweep *s);
+
+/* Distinct reasons a sweep keeps for boundaries with no answer. */
+enum { PLUMB_SWEEP_BOUNDARY_REASONS = 8 };
+
+/* Why boundary (i0, k) has no answer: the diagnostic of the value the
+ * profile refused or of plumb_limit_solve. NULL when it has an answer,
+ * is out of range, or its reason is not one of the first
+ * PLUMB_SWEEP_BOUNDARY_REASONS distinct ones kept (its status still says
+ * what kind of failure it was). Borrowed from the sweep. Can't fail.
+ * (Added after 0.3.0.) */
+const plumb_diag *plumb_sweep_boundary_why(const plumb_sweep *s, size_t i0, size_t k);
 
 #endif /* PLUMB_SWEEP_H */

@@ -11,13 +11,6 @@
 #include "report/common.h"
 #include "report/sweep_int.h"
 
-static void csv_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
-{
-    char line[PLUMB_WARNING * 2 + 64];
-    snprintf(line, sizeof line, "warning: %s (%zu of %zu rows)", text, rows, of);
-    csv_comment(w, line);
-}
-
 void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
@@ -37,7 +30,9 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
                  c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }
-    plumbp_each_sweep_warning(w, sw, csv_sweep_warning);
+    sweep_marks marks;
+    plumbp_sweep_marks_open(w, sw, &marks);
+    plumbp_sweep_csv_warnings(w, &marks);
     if (plumb_sweep_failed_count(sw) > 0) {
         snprintf(text, sizeof text, "%zu of %zu rows could not be computed: their figures are "
                  "empty and the last column says why", plumb_sweep_failed_count(sw), nr);
@@ -51,14 +46,14 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
         put(w, ",");
     }
     size_t n_cols = plumbp_csv_header_cols(w, first);
-    put(w, ",error\n");
+    put(w, ",warnings,error\n");
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         if (row->status != PLUMB_OK) {
             char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
             for (size_t a = 0; a < na; a++)
                 put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
-            for (size_t c = 0; c < n_cols; c++)
+            for (size_t c = 0; c < n_cols + 1; c++) /* the figures, then no warnings */
                 put(w, ",");
             plumbp_sweep_row_error(row, why, sizeof why);
             csv_field(w, why);
@@ -70,9 +65,11 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
                 put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
             plumbp_csv_item_cols(w, &row->report.items[it],
                                  plumb_profile_item_number(row->report.profile, it));
-            put(w, ",\n");
+            char mark[128]; /* this row's and item's warnings by number, "1;3" */
+            put(w, ",%s,\n", plumbp_sweep_mark(&marks, i, it, "", ";", mark, sizeof mark));
         }
     }
+    plumbp_sweep_marks_close(&marks);
 }
 
 json_t *plumbp_sweep_json(jctx *j, const plumb_report_options *opt, const plumb_sweep *sw,

@@ -1,20 +1,60 @@
 /*
  * report/sweep_int.h - what the sweep's writers share (internal):
- * sweep_table.c (text, and plumb_report_sweep) and sweep_data.c (CSV,
- * JSON).
+ * sweep_table.c (text, and plumb_report_sweep), sweep_boundary_text.c
+ * (a two-way table's boundary), sweep_warnings.c (the warnings over the
+ * rows) and sweep_data.c (CSV, JSON).
  */
 #ifndef PLUMB_REPORT_SWEEP_INT_H
 #define PLUMB_REPORT_SWEEP_INT_H
 
 #include "report/common.h"
 
+/* Numeric columns of a sweep row, and the spaces between columns. */
+enum {
+    SWEEP_NUM_COLS = 6,
+    SWEEP_GAP = 2,
+    SWEEP_KEY_COL = 15,
+    SWEEP_KEY_HEAD = 16,
+    SWEEP_NAME_MIN = 4,
+    SWEEP_NAME_ROOM = 12 /* narrower than this, a name goes on a line of its own */
+};
+
 /* Row `row`'s value of axis a as shown: a direction swept through north
  * as the bearing it is (0 to 360 deg), any other value as it is. */
 double plumbp_sweep_row_value(const plumb_sweep *sw, const plumb_sweep_row *row, size_t a);
 
-/* Each warning of the rows once, with how many rows give it, to fn. */
-void plumbp_each_sweep_warning(writer *w, const plumb_sweep *sw,
-                               void (*fn)(writer *w, const char *text, size_t rows, size_t of));
+/* sweep_warnings.c: the warnings of every row and item (said_warning,
+ * in row order), each sentence numbered from 1 in order of first
+ * appearance. */
+typedef struct sweep_marks {
+    const plumb_sweep *sw;
+    said_warning *s;       /* every warning of every row and item, n of them */
+    size_t n;
+    size_t *num;           /* s[e]'s number, 1 .. n_distinct */
+    size_t n_distinct;
+    size_t *row_start;     /* row r's are s[row_start[r] .. row_start[r + 1]) */
+} sweep_marks;
+
+/* Makes m for sw; 0 when out of memory (w->nomem set, m empty). Close
+ * with plumbp_sweep_marks_close either way. */
+int plumbp_sweep_marks_open(writer *w, const plumb_sweep *sw, sweep_marks *m);
+void plumbp_sweep_marks_close(sweep_marks *m);
+
+/* The numbers of the warnings of row `row`, item `item` (SIZE_MAX: of any
+ * item), ascending, each after `prefix` and separated by `sep` ("W1,W3"
+ * for text, "1;3" for CSV) in buf; "" when it has none. */
+const char *plumbp_sweep_mark(const sweep_marks *m, size_t row, size_t item, const char *prefix,
+                              const char *sep, char *buf, size_t size);
+
+/* The text's Warnings block, "  W1  SENTENCE (2 of 5 rows: 20 m, 40 m)"
+ * (so many rows, and how many more are marked W1; or, when the table had
+ * no room for marks, `marked` 0, where to find them), and the CSV's "# warning 1: SENTENCE (2 of 5 rows)"
+ * lines. */
+void plumbp_sweep_text_warnings(writer *w, const sweep_marks *m, int marked);
+void plumbp_sweep_csv_warnings(writer *w, const sweep_marks *m);
+
+/* sweep_boundary_text.c: the boundary block of a two-way sweep's text. */
+void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw);
 
 /* The first row with figures (plumb_sweep_run fails when there is none). */
 const plumb_sweep_row *plumbp_sweep_first_row(const plumb_sweep *sw);

@@ -97,15 +97,6 @@ shown plumbp_show_key(const writer *w, const char *key, plumb_dim dim, double si
     return plumbp_show_dim(w, dim, si);
 }
 
-/* Numeric columns of a sweep row, and the spaces between columns. */
-enum {
-    SWEEP_NUM_COLS = 6,
-    SWEEP_GAP = 2,
-    SWEEP_KEY_COL = 15,
-    SWEEP_KEY_HEAD = 16,
-    SWEEP_NAME_MIN = 4,
-    SWEEP_NAME_ROOM = 12 /* narrower than this, a name goes on a line of its own */
-};
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
@@ -402,54 +393,6 @@ static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int 
     }
 }
 
-/* Calls fn once for each distinct warning of any row and item of a sweep
- * as shown (the same sentence from rows whose figures differ only beyond
- * the digits shown is one), with the number of rows it appears in. */
-void plumbp_each_sweep_warning(writer *w, const plumb_sweep *sw,
-                               void (*fn)(writer *w, const char *text, size_t rows, size_t of))
-{
-    size_t nr = plumb_sweep_row_count(sw), n = 0;
-    const plumb_fall_report **reps = calloc(nr ? nr : 1, sizeof *reps);
-    if (!reps) {
-        w->nomem = 1;
-        return;
-    }
-    for (size_t i = 0; i < nr; i++)
-        reps[i] = &plumb_sweep_row_at(sw, i)->report;
-    said_warning *s = plumbp_said_warnings(w, reps, nr, &n);
-    for (size_t e = 0; s && e < n; e++) {
-        if (plumbp_said_before(s, e) < e)
-            continue;
-        size_t rows = 0, last = SIZE_MAX;
-        for (size_t f = e; f < n; f++)
-            if (s[f].report != last && strcmp(s[f].text, s[e].text) == 0) {
-                last = s[f].report;
-                rows++;
-            }
-        fn(w, s[e].text, rows, nr);
-    }
-    plumbp_said_free(s, n);
-    free(reps);
-}
-
-static void text_sweep_warning(writer *w, const char *text, size_t rows, size_t of)
-{
-    char line[PLUMB_WARNING * 2 + 64];
-    snprintf(line, sizeof line, "%s (%zu of %zu rows)", text, rows, of);
-    wrapped(w, "  - ", line);
-}
-
-static int sweep_has_warnings(const plumb_sweep *sw)
-{
-    for (size_t i = 0; i < plumb_sweep_row_count(sw); i++) {
-        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, i)->report;
-        for (size_t it = 0; it < rep->n_items; it++)
-            if (rep->items[it].n_warnings)
-                return 1;
-    }
-    return 0;
-}
-
 /* The first row with figures (plumb_sweep_run fails when there is none). */
 const plumb_sweep_row *plumbp_sweep_first_row(const plumb_sweep *sw)
 {
@@ -482,107 +425,15 @@ void plumbp_sweep_row_error(const plumb_sweep_row *row, char *buf, size_t size)
     plumb_diag_format(&row->error, buf, size);
 }
 
-/* A two-way sweep as its boundary: for each value of the first input and
- * each criterion, the value of the second at which the limit is reached
- * (plumb_sweep_find_boundaries). The full figures are in CSV and JSON. */
-static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const plumb_range *a1,
-                                 int *beyond)
-{
-    if (!b || b->status != PLUMB_OK)
-        return "-";
-    switch (b->outcome) {
-    case PLUMB_LIMIT_FOUND: {
-        char *c = slot(w);
-        double lo = a1->from < a1->to ? a1->from : a1->to, hi = a1->from < a1->to ? a1->to : a1->from;
-        int out = b->value < lo || b->value > hi;
-        *beyond |= out;
-        /* rounded to the side that keeps within the limit, as plumb limit
-         * gives it: down for "up to", up for "from" */
-        snprintf(c, NUMBUF, "%s %s%s", b->limit_is_upper_bound ? "up to" : "from",
-                 plumbp_gnum(w, plumbp_round_safe(b->value, 4, b->limit_is_upper_bound), 4),
-                 out ? "*" : "");
-        return c;
-    }
-    case PLUMB_LIMIT_UNLIMITED: return "never reached";
-    case PLUMB_LIMIT_IMPOSSIBLE: return "exceeded throughout";
-    default: return "n/a";
-    }
-}
 
-static void text_boundary(writer *w, const plumb_sweep *sw)
+/* The header of the warnings' marks, and room for a row's marks. */
+#define MARK_HEAD "warn"
+enum { MARK_TEXT = 128 };
+
+/* The marks of item `it` of row i ("W1,W3"), "" when it has no warning. */
+static const char *row_mark(const sweep_marks *m, size_t i, size_t it, char *buf, size_t size)
 {
-    const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
-    size_t nc = plumb_sweep_boundary_criteria(sw);
-    if (nc == 0) {
-        put(w, "\nNo boundary was computed; every figure is in --format csv or json.\n");
-        return;
-    }
-    const plumb_sweep_row *r0 = plumbp_sweep_first_row(sw);
-    int inv = r0->report.n_items > 1;
-    char text[PLUMB_NAME + PLUMB_DIAG_KEY * 2 + 3 * PLUMB_UNIT_TEXT + 320];
-    snprintf(text, sizeof text,
-             "Where each limit is reached%s%s%s: the %s%s%s%s at which the impact energy "
-             "equals the criterion's limit, for each %s%s%s%s (plumb limit's solver); within "
-             "the limit up to or from that value.",
-             inv ? " (the item with the highest energy, " : "",
-             inv ? r0->report.items[plumb_sweep_boundary_item(sw)].spec->name : "", inv ? ")" : "",
-             a1->key, a1->unit[0] ? " (" : "", unit_shown(w, a1->unit), a1->unit[0] ? ")" : "",
-             a0->key, a0->unit[0] ? " (" : "", unit_shown(w, a0->unit), a0->unit[0] ? ")" : "");
-    put(w, "\n");
-    wrapped(w, "", text);
-    /* Columns headed C1..Cn as in the legend below; each as wide as its
-     * widest cell, in blocks of as many as fit in TABLE_WIDTH columns. */
-    const plumb_item_report *it0 = &r0->report.items[0];
-    size_t wk = shown_width(a0->key) > SWEEP_KEY_COL ? shown_width(a0->key) : SWEEP_KEY_COL;
-    size_t wc[PLUMB_MAX_VERDICTS];
-    char head[PLUMB_MAX_VERDICTS][PLUMB_CRIT_ID + 8];
-    int missing = 0, beyond = 0;
-    for (size_t i = 0; i < a0->n; i++)
-        if (shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8)) > wk)
-            wk = shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8));
-    for (size_t k = 0; k < nc && k < PLUMB_MAX_VERDICTS; k++) {
-        const plumb_criterion *c = plumb_sweep_boundary_criterion(sw, k);
-        snprintf(head[k], sizeof head[k], "%s", c->id);
-        for (size_t v = 0; v < it0->n_verdicts; v++)
-            if (strcmp(it0->verdicts[v].criterion->id, c->id) == 0)
-                snprintf(head[k], sizeof head[k], "C%zu", v + 1);
-        wc[k] = shown_width(head[k]);
-        for (size_t i = 0; i < a0->n; i++) {
-            int dummy = 0;
-            size_t cw = shown_width(boundary_cell(w, plumb_sweep_boundary_at(sw, i, k), a1, &dummy));
-            if (cw > wc[k])
-                wc[k] = cw;
-        }
-    }
-    if (nc > PLUMB_MAX_VERDICTS)
-        nc = PLUMB_MAX_VERDICTS;
-    for (size_t k0 = 0; k0 < nc;) {
-        size_t k1 = k0, used = wk;
-        while (k1 < nc && (k1 == k0 || used + wc[k1] + SWEEP_GAP <= TABLE_WIDTH))
-            used += wc[k1++] + SWEEP_GAP;
-        if (k0 > 0)
-            put(w, "\n");
-        pad(w, a0->key, wk, 1);
-        for (size_t k = k0; k < k1; k++)
-            pad(w, head[k], wc[k] + SWEEP_GAP, 1);
-        put(w, "\n");
-        for (size_t i = 0; i < a0->n; i++) {
-            pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), wk, 1);
-            for (size_t k = k0; k < k1; k++) {
-                const plumb_sweep_boundary *b = plumb_sweep_boundary_at(sw, i, k);
-                missing |= !b || b->status != PLUMB_OK;
-                pad(w, boundary_cell(w, b, a1, &beyond), wc[k] + SWEEP_GAP, 1);
-            }
-            put(w, "\n");
-        }
-        k0 = k1;
-    }
-    if (beyond)
-        put(w, "  * = beyond the range swept (%s to %s)\n", plumbp_gnum(w, a1->from, 8),
-            plumbp_gnum(w, a1->to, 8));
-    if (missing)
-        put(w, "  - = no answer at that value (the value is refused or a fall fails there)\n");
-    put(w, "Every row's figures are in --format csv and --format json.\n");
+    return plumbp_sweep_mark(m, i, it, "W", ",", buf, size);
 }
 
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
@@ -669,6 +520,19 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         figs_w += wnum[k] + SWEEP_GAP;
     for (size_t k = 0; k < nv; k++)
         crit_w += wcrit[k] + SWEEP_GAP;
+    /* the warnings' marks ("W1,W2"), last on each line of a row that has
+     * warnings, in a column only when some row does */
+    sweep_marks marks;
+    plumbp_sweep_marks_open(w, sw, &marks);
+    size_t wmark = 0;
+    for (size_t i = 0; marks.n_distinct && i < nr; i++)
+        for (size_t it = 0; it < plumb_sweep_row_at(sw, i)->report.n_items; it++) {
+            char mark[MARK_TEXT];
+            size_t mw = shown_width(row_mark(&marks, i, it, mark, sizeof mark));
+            wmark = mw > wmark ? mw : wmark;
+        }
+    if (marks.n_distinct)
+        wmark = SWEEP_GAP + (wmark > shown_width(MARK_HEAD) ? wmark : shown_width(MARK_HEAD));
     if (inv) {
         size_t room = TABLE_WIDTH > keys_w + figs_w + SWEEP_GAP
                           ? TABLE_WIDTH - keys_w - figs_w - SWEEP_GAP
@@ -677,7 +541,14 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         c.name_w = c.own_line ? TABLE_WIDTH - keys_w - SWEEP_GAP : name_w < room ? name_w : room;
     }
     size_t lead_w = keys_w + (inv && !c.own_line ? SWEEP_GAP + c.name_w : 0);
-    int inline_crit = lead_w + figs_w + crit_w <= TABLE_WIDTH;
+    /* the marks beside the figures where they fit as the table is, the
+     * items' names kept in their column; else beside the verdicts, in the
+     * criteria's own tables; with neither, the Warnings block lists every
+     * row */
+    int fig_marks = wmark && (c.own_line ? keys_w : lead_w) + figs_w + wmark <= TABLE_WIDTH;
+    int inline_crit = lead_w + figs_w + crit_w + (fig_marks ? wmark : 0) <= TABLE_WIDTH &&
+                      (fig_marks || !wmark);
+    int marked = fig_marks || (wmark && nv > 0);
     sweep_top_heads(w, &c, khead);
     sweep_heads(w, sw, &c, khead, 1);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++) {
@@ -694,6 +565,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         snprintf(h, sizeof h, "C%zu", k + 1);
         pad(w, h, wcrit[k] + SWEEP_GAP, 1);
     }
+    if (fig_marks)
+        put(w, "%*s%s", SWEEP_GAP, "", MARK_HEAD);
     put(w, "\n");
     sweep_heads(w, sw, &c, khead, 2);
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
@@ -713,19 +586,24 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
-            char label[PLUMB_NAME + 24];
+            char label[PLUMB_NAME + 24], mark[MARK_TEXT];
             const char *rest = sweep_lead(w, &c, row, it, label, sizeof label);
+            row_mark(&marks, i, it, mark, sizeof mark);
+            mark[fig_marks ? sizeof mark - 1 : 0] = '\0';
             for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
                 pad(w, sweep_num_cell(w, item, (int)k), wnum[k] + SWEEP_GAP, 1);
             for (size_t k = 0; inline_crit && k < item->n_verdicts; k++)
-                ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == item->n_verdicts);
+                ratio_cell(w, &item->verdicts[k], wratio[k],
+                           k + 1 == item->n_verdicts && !mark[0]);
+            if (mark[0])
+                put(w, "%*s%s", SWEEP_GAP, "", mark);
             put(w, "\n");
             sweep_name_continued(w, &c, rest);
         }
     }
     /* the verdicts, in blocks of as many criteria as fit */
     for (size_t k0 = 0; !inline_crit && k0 < nv;) {
-        size_t k1 = k0, used = lead_w;
+        size_t k1 = k0, used = lead_w + wmark;
         while (k1 < nv && (k1 == k0 || used + wcrit[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wcrit[k1++] + SWEEP_GAP;
         if (k1 == k0 + 1)
@@ -739,6 +617,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             snprintf(h, sizeof h, "C%zu", k + 1);
             pad(w, h, wcrit[k] + SWEEP_GAP, 1);
         }
+        if (wmark)
+            put(w, "%*s%s", SWEEP_GAP, "", MARK_HEAD);
         put(w, "\n");
         sweep_heads(w, sw, &c, khead, 2);
         ratio_heads(w, k0, k1, wratio);
@@ -749,10 +629,13 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 continue;
             for (size_t it = 0; it < row->report.n_items; it++) {
                 const plumb_item_report *item = &row->report.items[it];
-                char label[PLUMB_NAME + 24];
+                char label[PLUMB_NAME + 24], mark[MARK_TEXT];
                 const char *rest = sweep_lead(w, &c, row, it, label, sizeof label);
+                row_mark(&marks, i, it, mark, sizeof mark);
                 for (size_t k = k0; k < k1 && k < item->n_verdicts; k++)
-                    ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1);
+                    ratio_cell(w, &item->verdicts[k], wratio[k], k + 1 == k1 && !mark[0]);
+                if (mark[0])
+                    put(w, "%*s%s", SWEEP_GAP, "", mark);
                 put(w, "\n");
                 sweep_name_continued(w, &c, rest);
             }
@@ -760,7 +643,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         k0 = k1;
     }
     if (na == 2)
-        text_boundary(w, sw);
+        plumbp_sweep_text_boundary(w, sw);
     if (n_failed) {
         put(w, "\nRows not computed (%zu of %zu)\n", n_failed, nr);
         size_t k = 0;
@@ -778,10 +661,11 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         }
     }
     text_criteria_legend(w, first);
-    if (sweep_has_warnings(sw)) {
-        put(w, "\nWarnings\n");
-        plumbp_each_sweep_warning(w, sw, text_sweep_warning);
+    if (marks.n_distinct) {
+        put(w, "\nWarnings%s\n", marked ? " (each marked beside the rows it is about)" : "");
+        plumbp_sweep_text_warnings(w, &marks, marked);
     }
+    plumbp_sweep_marks_close(&marks);
     put(w, "\nEach row is exactly what `plumb fall` gives with --set at that value.\n");
     plumbp_text_profile(w, p);
     plumbp_caution_lines_text(w);

@@ -43,9 +43,15 @@ struct plumb_sweep {
     plumb_fall_spec *work;      /* tmpl's items, copied and varied row by row */
     plumb_atmosphere *air;      /* tmpl's air, owned: rows whose keys leave the air share it */
     /* the boundary of a two-way sweep (sweep_boundary.c), owned */
-    size_t n_bcrit, b_item;
+    size_t n_bcrit, b_item, b_axis; /* b_axis: the axis whose key names b_item, or
+                                       PLUMB_MAX_AXES (the item with the highest energy) */
     const plumb_criterion *bcrit[PLUMB_MAX_VERDICTS];
     plumb_sweep_boundary *bounds; /* [value of the first input][criterion] */
+    /* why a boundary has no answer: the distinct diagnostics, and for each
+     * boundary the index of its own (PLUMBP_NO_WHY: none kept) */
+    plumb_diag bwhy[PLUMB_SWEEP_BOUNDARY_REASONS];
+    size_t n_bwhy;
+    unsigned char *bwhy_of;
 };
 
 static const char *trim(char *s)
@@ -304,20 +310,32 @@ void plumb_sweep_free(plumb_sweep *s)
     free(s->profiles);
     free(s->atms);
     free(s->bounds);
+    free(s->bwhy_of);
     free(s);
 }
 
 /* ---- the boundary's storage (sweep_boundary.c fills it) ------------------------ */
 
-plumb_sweep_boundary *plumbp_sweep_boundaries_alloc(plumb_sweep *s, size_t item,
+plumb_sweep_boundary *plumbp_sweep_boundaries_alloc(plumb_sweep *s, size_t item, size_t axis,
                                                     const plumb_criterion *const *crit, size_t n)
 {
+    size_t cells = (s->axes[0].n ? s->axes[0].n : 1) * (n ? n : 1);
     free(s->bounds);
+    free(s->bwhy_of);
     s->n_bcrit = 0;
-    s->bounds = calloc((s->axes[0].n ? s->axes[0].n : 1) * (n ? n : 1), sizeof *s->bounds);
-    if (!s->bounds)
+    s->n_bwhy = 0;
+    s->bounds = calloc(cells, sizeof *s->bounds);
+    s->bwhy_of = malloc(cells);
+    if (!s->bounds || !s->bwhy_of) {
+        free(s->bounds);
+        free(s->bwhy_of);
+        s->bounds = NULL;
+        s->bwhy_of = NULL;
         return NULL;
+    }
+    memset(s->bwhy_of, PLUMBP_NO_WHY, cells);
     s->b_item = item;
+    s->b_axis = axis;
     s->n_bcrit = n;
     for (size_t k = 0; k < n; k++)
         s->bcrit[k] = crit[k];
@@ -337,6 +355,33 @@ const plumb_criterion *plumb_sweep_boundary_criterion(const plumb_sweep *s, size
 size_t plumb_sweep_boundary_item(const plumb_sweep *s)
 {
     return s ? s->b_item : 0;
+}
+
+const char *plumb_sweep_boundary_item_key(const plumb_sweep *s)
+{
+    return s && s->bounds && s->b_axis < s->n_axes ? s->axes[s->b_axis].key : NULL;
+}
+
+void plumbp_sweep_boundary_why(plumb_sweep *s, size_t i0, size_t k, const plumb_diag *d)
+{
+    size_t e = 0;
+    while (e < s->n_bwhy && !(s->bwhy[e].status == d->status &&
+                              strcmp(s->bwhy[e].key, d->key) == 0 &&
+                              strcmp(s->bwhy[e].message, d->message) == 0))
+        e++;
+    if (e == s->n_bwhy && e < PLUMB_SWEEP_BOUNDARY_REASONS)
+        s->bwhy[s->n_bwhy++] = *d;
+    if (e < s->n_bwhy)
+        s->bwhy_of[i0 * s->n_bcrit + k] = (unsigned char)e;
+}
+
+const plumb_diag *plumb_sweep_boundary_why(const plumb_sweep *s, size_t i0, size_t k)
+{
+    const plumb_sweep_boundary *b = plumb_sweep_boundary_at(s, i0, k);
+    if (!b || b->status == PLUMB_OK)
+        return NULL;
+    unsigned char e = s->bwhy_of[i0 * s->n_bcrit + k];
+    return e < s->n_bwhy ? &s->bwhy[e] : NULL;
 }
 
 const plumb_sweep_boundary *plumb_sweep_boundary_at(const plumb_sweep *s, size_t i0, size_t k)

@@ -221,12 +221,16 @@ try:
     for units in ("si", "us"):
         rc, out, err = plumb(*vary, "--units", units, "--format", "csv")
         check(rc == 0, f"sweep --units {units}: exit {rc} {err.strip()[:200]}")
-        sw = [l for l in out.splitlines() if l.startswith("# warning: ")]
-        said = [l[:l.rfind(" (")] for l in sw]
+        # numbered "# warning N: " in order, N the rows' `warnings` column
+        sw = [l for l in out.splitlines() if re.match(r"# warning \d+: ", l)]
+        check([int(l.split()[2][:-1]) for l in sw] == list(range(1, len(sw) + 1)),
+              f"sweep --units {units}: warnings numbered 1 .. N in order: {sw}")
+        body = [l.split(": ", 1)[1] for l in sw]  # the sentence, without its number
+        said = [b[:b.rfind(" (")] for b in body]
         check(len(said) == len(set(said)), f"sweep --units {units}: a sentence said twice: {sw}")
         check(len(sw) == 4 and all(l.endswith("(3 of 3 rows)") for l in sw),
               f"sweep --units {units}: each warning once, in 3 of 3 rows: {sw}")
-        for l in ours([x[len("# warning: "):] for x in said]):
+        for l in ours(said):
             bad = SI_UNIT if units == "us" else US_UNIT
             check(not bad.search(l.replace("the mean wind at 20 ft", "")),
                   f"sweep --units {units}: a unit of the other system in {l!r}")
