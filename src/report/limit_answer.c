@@ -324,9 +324,16 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
         /* value and unit: in the unit the key was given in, when it was
          * given in one, else in the report's units */
         shown v = plumbp_show_key(w, rep->key, r->dim, r->value_si);
-        if (r->given_unit[0] && r->given_scale_si != 0.0)
+        int down = r->limit_is_upper_bound, v_down = down;
+        if (r->given_unit[0] && r->given_scale_si != 0.0) {
             v = (shown){(r->value_si - r->given_offset_si) / r->given_scale_si,
                         unit_shown(w, r->given_unit)};
+            v_down = r->given_scale_si < 0.0 ? !down : down;
+        }
+        /* the answer's CSV_DIGITS figures rounded toward the side that
+         * meets the limit, as the text's are: fed back, it meets it */
+        v.x = plumbp_round_safe(v.x, CSV_DIGITS, v_down);
+        double value_si = plumbp_round_safe(r->value_si, CSV_DIGITS, down);
         int found = r->outcome == PLUMB_LIMIT_FOUND; /* else no value: empty fields */
         put(w, "%zu,", plumb_profile_item_number(rep->profile, i));
         csv_field(w, plumb_profile_item(rep->profile, i)->name);
@@ -334,7 +341,7 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
         csv_field(w, rep->key);
         put(w, ",%s,%s,", outcome_word(r->outcome), found ? csvnum(w, v.x) : "");
         csv_field(w, v.unit);
-        put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", found ? csvnum(w, r->value_si) : "",
+        put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", found ? csvnum(w, value_si) : "",
             metric_word(rep->metric), csvnum(w, rep->limit),
             found ? csvnum(w, r->metric_at_value) : "", csvnum(w, r->base_value_si),
             csvnum(w, r->metric_at_base), r->n_crossings, r->evaluations);

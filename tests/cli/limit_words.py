@@ -212,4 +212,29 @@ check(rc == 0 and "zero height" not in words and m and float(m.group(1)) > 40.0 
       "lower values are refused by the profile's check of descent.deploy.below" in words,
       f"limit over a refused low range says why it starts at {m and m.group(1)} m:\n{out}")
 
+# The CSV's answer is rounded toward the side that meets the limit, as the
+# text's is (its 10 figures to nearest could fall on the other side: the
+# drone canopy's 1.106628756 m, fed back, exceeded its limit): against the
+# JSON's full double, down when lower values meet the limit, else up; and
+# fed back through plumb fall --set it meets the limit (ratio <= 1).
+CLIMB = os.path.join(HERE, "profiles", "climbing-drone.yaml")
+for args in ([CLIMB, "--find", "descent.diameter", "--energy-max", "us-part107-cat3",
+              "--set", "wind.speed=0 m/s"],
+             [CANOPY, "--find", "descent.diameter", "--energy-max", "us-part107-cat3"],
+             [TOOL, "--find", "release.height", "--energy-max", "40J"],
+             [TOOL, "--find", "payload.mass", "--energy-max", "40J"]):
+    rc, c, _ = plumb("limit", *args, "--format", "csv")
+    rc2, j, _ = plumb("limit", *args, "--format", "json")
+    rows = list(csv.DictReader(io.StringIO("".join(l + "\n" for l in c.splitlines()
+                                                   if not l.startswith("#")))))
+    it = json.loads(j)["limit"]["items"][0] if rc2 == 0 else {}
+    v, vj = float(rows[0]["value_si"]), it.get("value_si", 0.0)
+    side_ok = v <= vj if it.get("lower_values_meet_limit") else v >= vj
+    rc3, f, _ = plumb("fall", args[0], *args[5:], "--set",
+                      f"{args[2]}={rows[0]['value']} {rows[0]['unit']}", "--format", "json")
+    limit_j = 33.895448708285009 if "us-part107-cat3" in args else 40.0
+    e = json.loads(f)["impact"]["energy_j"] if rc3 == 0 else float("inf")
+    check(rc == 0 and side_ok and e <= limit_j,
+          f"limit CSV {args[2]}: {rows[0]['value']} (JSON {vj!r}) fed back gives {e} J <= {limit_j}")
+
 finish()
