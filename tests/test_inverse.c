@@ -419,15 +419,16 @@ static void test_an_item_whose_drag_lacks_the_key_is_not_applicable(void **state
     plumb_profile_free(p);
 }
 
-/* A shared key is checked against every item, as the loader checks it: a
- * release height is refused at or below any item's deploy height (README,
- * descent.deploy.below: below the release height). For the drag-free
+/* Each item is answered against its own checks: a release height at or
+ * below an item's deploy height is refused for that item (README,
+ * descent.deploy.below: below the release height), but it is no bound on
+ * another item's answer, since each item falls alone. For the drag-free
  * spanner of an inventory whose radio opens a streamer below 17.3 m, the
- * height for 250 J by the work-energy theorem, H = E/(m g0) = 10.69 m, is
- * such a height: no height the profile takes meets the limit. Between the
- * deploy height and the profile's 31.6 m, the spanner's energy m g0 H
- * (405 to 739 J) crosses 500 J at H = E/(m g0) = 21.38 m. */
-static void test_a_shared_key_is_checked_against_every_item(void **state)
+ * height for 250 J by the work-energy theorem, H = E/(m g0) = 10.69 m, lies
+ * below the radio's deploy height and is the spanner's answer; so is
+ * 21.38 m for 500 J. The radio's own scan starts above its 17.3 m and its
+ * explanation names the check that bounds it. */
+static void test_each_item_is_answered_against_its_own_checks(void **state)
 {
     (void)state;
     plumb_profile *p = load("name: kit with a streamer\n"
@@ -445,13 +446,22 @@ static void test_a_shared_key_is_checked_against_every_item(void **state)
     assert_int_equal(plumb_limit_solve(p, units, 0, "release.height", PLUMB_METRIC_ENERGY, 250.0,
                                        NULL, traj, &r, &d),
                      PLUMB_OK);
-    assert_int_equal(r.outcome, PLUMB_LIMIT_IMPOSSIBLE);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_FOUND);
+    assert_rel(r.value_si, 250.0 / (MASS_KG * G0), 1e-9);
     plumb_diag_clear(&d);
     assert_int_equal(plumb_limit_solve(p, units, 0, "release.height", PLUMB_METRIC_ENERGY, 500.0,
                                        NULL, traj, &r, &d),
                      PLUMB_OK);
     assert_int_equal(r.outcome, PLUMB_LIMIT_FOUND);
     assert_rel(r.value_si, 500.0 / (MASS_KG * G0), 1e-9);
+    /* the radio: 0.1 J is below what any height above 17.3 m gives */
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_limit_solve(p, units, 1, "release.height", PLUMB_METRIC_ENERGY, 0.1,
+                                       NULL, traj, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_IMPOSSIBLE);
+    assert_true(r.scan_lo_si > 17.3);
+    assert_non_null(strstr(r.explanation, "descent.deploy.below"));
     plumb_profile_free(p);
 }
 
@@ -525,7 +535,7 @@ int main(void)
         cmocka_unit_test(test_a_speed_limit_above_terminal_speed_is_unlimited_and_says_so),
         cmocka_unit_test(test_an_energy_below_the_release_energy_is_impossible_and_says_so),
         cmocka_unit_test(test_an_item_whose_drag_lacks_the_key_is_not_applicable),
-        cmocka_unit_test(test_a_shared_key_is_checked_against_every_item),
+        cmocka_unit_test(test_each_item_is_answered_against_its_own_checks),
         cmocka_unit_test(test_bad_limits_items_and_keys_are_refused_with_their_reason),
         cmocka_unit_test(test_running_out_of_falls_is_a_numerical_failure_naming_the_key),
     };

@@ -67,8 +67,7 @@ typedef struct solver_ctx {
     plumb_profile *own_tmpl;   /* the template when derived here, owned */
     int fast;                  /* 1: the key is set on copies of tmpl's specs */
     plumbp_vary vary;
-    plumb_fall_spec *work;     /* copies of all of tmpl's items (the loader checks a value
-                                  against every item), owned */
+    plumb_fall_spec *work;     /* a copy of tmpl's item solved for, owned */
     plumb_atmosphere *atm;     /* tmpl's air, owned (keys that leave the air) */
     /* plumb_limit_fall_at: the fall of the last evaluation judged into
      * *judged against *criteria, while its spec and air are alive (a
@@ -249,7 +248,7 @@ static plumb_status take_template(solver_ctx *c, const plumb_profile *p, plumb_p
     c->tmpl = p;
     c->own_tmpl = own;
     c->fast = plumbp_vary_init(&c->vary, p, c->set_key);
-    if (c->fast && !(c->work = malloc(plumb_profile_item_count(p) * sizeof *c->work)))
+    if (c->fast && !(c->work = malloc(sizeof *c->work)))
         return PLUMB_RAISE(c->diag, PLUMB_ENOMEM, "out of memory");
     if (c->fast && !plumbp_vary_air(&c->vary)) {
         plumb_diag d;
@@ -313,18 +312,20 @@ static double eval_slow(solver_ctx *c, double x)
  * diagnostic. */
 static double eval_fast(solver_ctx *c, double x)
 {
-    size_t n = plumb_profile_item_count(c->tmpl);
-    memcpy(c->work, plumb_profile_item(c->tmpl, 0), n * sizeof *c->work);
+    /* only the item solved for: the answer is each item's own, so a value
+     * another item's checks refuse (a release below another item's
+     * deploy.below) is no bound on this one's */
+    memcpy(c->work, plumb_profile_item(c->tmpl, c->item), sizeof *c->work);
     plumb_atm_spec as = *plumb_profile_atmosphere(c->tmpl);
     int coded = plumbp_vary_is_template(c->tmpl);
-    if (!plumbp_vary_set(&c->vary, x, c->work, n, &as)) {
+    if (!plumbp_vary_set(&c->vary, x, c->work, 1, &as)) {
         if (!coded)
             return eval_slow(c, x);
         plumb_diag why;
         plumb_diag_clear(&why);
-        return eval_refused(c, plumbp_vary_refusal(&c->vary, x, c->work, n, &as, &why), &why);
+        return eval_refused(c, plumbp_vary_refusal(&c->vary, x, c->work, 1, &as, &why), &why);
     }
-    const plumb_fall_spec *spec = &c->work[c->item];
+    const plumb_fall_spec *spec = &c->work[0];
     plumb_diag d;
     plumb_diag_clear(&d);
     plumb_fall_result r;
@@ -517,6 +518,12 @@ plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units
     plumb_status st = ctx_open(&c, profile, units, item, key, traj, &base, &na, NULL, diag);
     if (st == PLUMB_OK && na)
         st = PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key, "this item's drag does not use %s", key);
+    if (st == PLUMB_OK && !c.tmpl) {
+        /* the profile's own value first, as the solve began: it makes the
+         * template whose item alone a value is checked against */
+        (void)eval_at(base, &c);
+        st = c.fail;
+    }
     if (st == PLUMB_OK) {
         c.criteria = criteria;
         c.judged = judged;

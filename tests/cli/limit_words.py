@@ -217,6 +217,20 @@ check(rc == 0 and "zero height" not in words and m and float(m.group(1)) > 40.0 
 # drone canopy's 1.106628756 m, fed back, exceeded its limit): against the
 # JSON's full double, down when lower values meet the limit, else up; and
 # fed back through plumb fall --set it meets the limit (ratio <= 1).
+# In an inventory each item is answered against its own checks: the bag's
+# parachute (deploy below 60 m) bounds the bag's release height only; the
+# wrench (2.4 kg, no device) meets 25 ft·lbf = 33.895 J near 1.4 m (m g0 H
+# = 33.895 J gives H = 1.44 m; its drag takes a little, the wind adds a
+# little), far below the bag's 60 m.
+BAG = os.path.join(HERE, "profiles", "kit-bag.yaml")
+rc, out, err = plumb("limit", BAG, "--find", "release.height", "--energy-max", "us-part107-cat3",
+                     "--format", "json")
+items = json.loads(out)["limit"]["items"] if rc == 0 else []
+h = items[0].get("value_si", 0.0) if items else 0.0
+check(rc == 0 and items[0]["outcome"] == "found" and 1.3 < h < 1.6 and
+      items[2]["outcome"] == "impossible" and items[2]["scanned_from_si"] > 60.0 and
+      "descent.deploy.below" in items[2]["explanation"],
+      f"kit limit: each item against its own checks: {h} m; {items[2:] if items else err}")
 CLIMB = os.path.join(HERE, "profiles", "climbing-drone.yaml")
 for args in ([CLIMB, "--find", "descent.diameter", "--energy-max", "us-part107-cat3",
               "--set", "wind.speed=0 m/s"],
