@@ -429,31 +429,47 @@ static plumb_status ctx_open(solver_ctx *c, const plumb_profile *profile,
     if (st != PLUMB_OK)
         return st;
     if (starts_with(key, "items[")) {
+        /* an item's own key is found for each item: payload.X, or descent.X
+         * for its descent device */
         const char *rest = strchr(key, ']');
+        int dev = rest && starts_with(rest + 1, ".descent");
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
-                               "find payload%s instead: the answer is given for each item of the "
+                               "find %s%s instead: the answer is given for each item of the "
                                "inventory, by name",
-                               rest && rest[1] == '.' ? rest + 1 : ".KEY");
+                               dev ? "" : "payload",
+                               rest && rest[1] == '.' ? rest + (dev ? 2 : 1) : ".KEY");
     }
     if (dim == PLUMB_DIM_ANGLE)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, key,
                                "a direction does not change the answer one way; use `plumb sweep` over it");
     *c = (solver_ctx){.profile = profile, .units = units, .item = item, .dim = dim,
                       .traj = traj, .max_evals = SIZE_MAX, .diag = diag};
-    if (plumb_profile_is_inventory(profile) && starts_with(key, "payload."))
+    int inv = plumb_profile_is_inventory(profile);
+    char own[PLUMB_DIAG_KEY + 16];
+    int line, col;
+    snprintf(own, sizeof own, "items[%zu].descent", plumb_profile_item_number(profile, item));
+    if (inv && starts_with(key, "payload."))
         snprintf(c->set_key, sizeof c->set_key, "items[%zu].%s",
                  plumb_profile_item_number(profile, item),
                  key + strlen("payload.")); /* items[N] as the profile is written */
+    else if (inv && starts_with(key, "descent") &&
+             plumb_profile_key_origin(profile, own, &line, &col))
+        snprintf(c->set_key, sizeof c->set_key, "%s%s", own, key + strlen("descent"));
     else
-        plumbp_strlcpy(c->set_key, key, sizeof c->set_key);
+        plumbp_strlcpy(c->set_key, key, sizeof c->set_key); /* shared, or a single payload */
     if (!base_value(profile, item, key, base)) {
-        if (plumb_profile_is_inventory(profile) && starts_with(key, "payload.")) {
+        int dev = starts_with(key, "descent");
+        if (inv && (starts_with(key, "payload.") || dev)) {
             *na = 1;
             if (res) {
                 res->outcome = PLUMB_LIMIT_NOT_APPLICABLE;
                 res->dim = dim;
-                snprintf(res->explanation, sizeof res->explanation,
-                         "this item's drag does not use %s", key);
+                if (dev)
+                    snprintf(res->explanation, sizeof res->explanation,
+                             "this item has no descent device: %s does not apply", key);
+                else
+                    snprintf(res->explanation, sizeof res->explanation,
+                             "this item's drag does not use %s", key);
             }
             return PLUMB_OK;
         }

@@ -21,6 +21,7 @@ Usage: limit_words.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 import csv
 import io
 import json
+import math
 import os
 import re
 import sys
@@ -231,6 +232,21 @@ check(rc == 0 and items[0]["outcome"] == "found" and 1.3 < h < 1.6 and
       items[2]["outcome"] == "impossible" and items[2]["scanned_from_si"] > 60.0 and
       "descent.deploy.below" in items[2]["explanation"],
       f"kit limit: each item against its own checks: {h} m; {items[2:] if items else err}")
+# an item's own canopy is found for that item (--find descent.X; the
+# others have none, which the answer says), and fed back through --set
+# items[3].descent.diameter it meets the limit
+rc, out, err = plumb("limit", BAG, "--find", "descent.diameter", "--energy-max", "80J",
+                     "--format", "json")
+items = json.loads(out)["limit"]["items"] if rc == 0 else []
+d3 = items[2].get("value_si", 0.0) if items else 0.0
+d3s = (math.floor if items and items[2].get("lower_values_meet_limit") else math.ceil)(d3 * 1e6) / 1e6
+rc2, f, _ = plumb("fall", BAG, "--set", f"items[3].descent.diameter={d3s:.6f} m", "--format", "json")
+e3 = json.loads(f)["items"][2]["impact"]["energy_j"] if rc2 == 0 else 1e9
+check(rc == 0 and items[0]["outcome"] == "not applicable" and "no descent device" in
+      items[0]["explanation"] and items[2]["outcome"] == "found" and e3 <= 80.0,
+      f"kit limit on the bag's own canopy: {d3} m gives {e3} J ({err.strip()})")
+rc, out, err = plumb("limit", BAG, "--find", "items[3].descent.diameter", "--energy-max", "80J")
+check(rc == 2 and "find descent.diameter instead" in err, f"items[3].descent: {err.strip()}")
 CLIMB = os.path.join(HERE, "profiles", "climbing-drone.yaml")
 for args in ([CLIMB, "--find", "descent.diameter", "--energy-max", "us-part107-cat3",
               "--set", "wind.speed=0 m/s"],
