@@ -33,6 +33,13 @@
  * 100 K either way spans them (the colder side nearly) and keeps the 1976
  * model's coldest layer (186.87 K at 86 km) above 0 K. */
 #define PLUMB_TEMP_OFFSET_MAX_K 100.0
+/* The range of an air temperature a profile may give, K: surface air has
+ * been recorded from -89.2 degC (183.95 K) to 56.7 degC (329.85 K) (WMO
+ * archive of weather and climate extremes, from memory), and the 1976
+ * atmosphere's coldest layer is 186.87 K; 150 K to 400 K spans both with
+ * room, and refuses a temperature typed in the wrong unit (20 K for 20 degC). */
+#define PLUMB_AIR_TEMPERATURE_MIN_K 150.0
+#define PLUMB_AIR_TEMPERATURE_MAX_K 400.0
 /* Geometric altitude of the top of the 1976 model, m. */
 #define PLUMB_STD1976_TOP_M 86000.0
 /* Geometric altitude of the bottom of the 1976 model's tables, m

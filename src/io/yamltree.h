@@ -139,7 +139,8 @@ typedef enum plumby_range {
     PLUMBY_R_ALTITUDE,    /* PLUMB_STD1976_BOTTOM_M .. PLUMB_STD1976_TOP_M, the span of the 1976 atmosphere */
     PLUMBY_R_SUBSONIC,    /* -PLUMB_SOUND_SPEED_SL_M_S .. PLUMB_SOUND_SPEED_SL_M_S */
     PLUMBY_R_SUBSONIC_NONNEG, /* 0 .. PLUMB_SOUND_SPEED_SL_M_S */
-    PLUMBY_R_TEMP_OFFSET  /* -PLUMB_TEMP_OFFSET_MAX_K .. PLUMB_TEMP_OFFSET_MAX_K */
+    PLUMBY_R_TEMP_OFFSET, /* -PLUMB_TEMP_OFFSET_MAX_K .. PLUMB_TEMP_OFFSET_MAX_K */
+    PLUMBY_R_AIR_TEMPERATURE /* PLUMB_AIR_TEMPERATURE_MIN_K .. PLUMB_AIR_TEMPERATURE_MAX_K */
 } plumby_range;
 
 /* A row of the key table (io/keys.h), which describes every numeric key of

@@ -303,6 +303,10 @@ void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_ope
     case PLUMBY_R_SUBSONIC: *lo = -PLUMB_SOUND_SPEED_SL_M_S; *hi = PLUMB_SOUND_SPEED_SL_M_S; break;
     case PLUMBY_R_SUBSONIC_NONNEG: *lo = 0.0; *hi = PLUMB_SOUND_SPEED_SL_M_S; break;
     case PLUMBY_R_TEMP_OFFSET: *lo = -PLUMB_TEMP_OFFSET_MAX_K; *hi = PLUMB_TEMP_OFFSET_MAX_K; break;
+    case PLUMBY_R_AIR_TEMPERATURE:
+        *lo = PLUMB_AIR_TEMPERATURE_MIN_K;
+        *hi = PLUMB_AIR_TEMPERATURE_MAX_K;
+        break;
     }
 }
 
@@ -348,6 +352,11 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
         snprintf(buf, size,
                  "-%g%s .. %g%s (air on Earth: surface records lie within 100 K of the "
                  "standard 15 degC)", PLUMB_TEMP_OFFSET_MAX_K, u, PLUMB_TEMP_OFFSET_MAX_K, u);
+        break;
+    case PLUMBY_R_AIR_TEMPERATURE:
+        snprintf(buf, size,
+                 "%g%s .. %g%s (-123 degC .. 127 degC: air on Earth; was the unit meant degC "
+                 "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u);
         break;
     }
     return buf;

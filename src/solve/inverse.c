@@ -127,6 +127,11 @@ static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec 
         r = (key_range){RANGE_SIGNED, -MAX_SPEED_M_S, MAX_SPEED_M_S};
     } else if (starts_with(key, "release.position.")) {
         r = (key_range){RANGE_SIGNED, -MAX_OFFSET_M, MAX_OFFSET_M};
+    } else if (dim == PLUMB_DIM_TEMPERATURE && k) {
+        double lo, hi;
+        int lo_open;
+        plumbp_key_bounds(k, &lo, &hi, &lo_open);
+        r = (key_range){RANGE_BOUNDED, lo, hi};
     } else if (dim == PLUMB_DIM_TEMP_DIFF) {
         r = (key_range){RANGE_SIGNED, -MAX_TEMP_DIFF_K, MAX_TEMP_DIFF_K};
     } else if (dim == PLUMB_DIM_FRACTION) {
