@@ -689,9 +689,13 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
     if (end == shown)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
                            "expected %s %s (e.g. \"%s\"); found \"%.*s\", which does not start "
-                           "with a number",
+                           "with a number%s",
                            dims[want].article, dims[want].name, dims[want].example, UNITS_SHOW_MAX,
-                           shown);
+                           shown,
+                           want == PLUMB_DIM_ANGLE
+                               ? "; a direction (wind.from, release.velocity.heading) may also "
+                                 "be one of the 16 compass points, N, NNE, NE ... NNW"
+                               : "");
     if (err == ERANGE)
         return PLUMB_RAISE(diag, PLUMB_ERANGE, "the number in \"%.*s\" is too %s for a double",
                            UNITS_SHOW_MAX, shown, fabs(value) > 1.0 ? "large" : "small");

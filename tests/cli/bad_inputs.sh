@@ -203,6 +203,10 @@ refused "--set release.velocity.up=-400 m/s" "plumb: --set:1:21: release.velocit
 # the command line as every option error does
 refused "air --temperature-offset -200 K" "plumb: <command line>: --temperature-offset: " \
   "must be -100 K .. 100 K" -- air --temperature-offset "-200 K"
+# a direction that is neither a number nor near a compass point says that
+# the 16 points are taken too
+refused "--set wind.from=westerly" "plumb: --set:1:11: wind.from: " \
+  "may also be one of the 16 compass points" -- fall "$good" --set 'wind.from=westerly' --format json
 # (the command line may refuse this one itself, as a usage error)
 # a direction written as a word or a misspelt point: the 16-point rose's
 # abbreviation suggested (N, NNE, ... NNW; common practice, no source)
