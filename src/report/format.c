@@ -626,8 +626,8 @@ const char *plumbp_t_source(writer *w, const plumb_criterion *c, char *buf, size
                 }
             if (end[0] == ' ' && k < sizeof quoted_units / sizeof quoted_units[0] &&
                 isfinite(x)) {
-                int n = snprintf(buf + o, size - o, "%.*s [%s" NBSP "%s]",
-                                 (int)(end + 1 + ulen - p), p,
+                int n = snprintf(buf + o, size - o, "%.*s" NBSP "%s [%s" NBSP "%s]",
+                                 (int)(end - p), p, quoted_units[k].si,
                                  num(w, x / quoted_units[k].per_us, 3), quoted_units[k].us);
                 if (n < 0 || (size_t)n >= size - o)
                     break;

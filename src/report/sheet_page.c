@@ -26,10 +26,28 @@ static const char footer_caution[] =
 
 /* ---- text ------------------------------------------------------------------ */
 
+/* The formatters' number-unit join (NBSP_CHAR) as a no-break space,
+ * U+00A0, into out. */
+static void join_nbsp(const char *in, char *out, size_t size)
+{
+    size_t j = 0;
+    for (const char *p = in; *p && j + 3 < size; p++) {
+        if (*p == NBSP_CHAR) {
+            out[j++] = '\xC2';
+            out[j++] = '\xA0';
+        } else {
+            out[j++] = *p;
+        }
+    }
+    out[j] = '\0';
+}
+
 const char *sheet_esc(sheet_doc *d, const char *s)
 {
     char *b = d->ring[d->next++ % SHEET_RING];
-    gchar *e = g_markup_escape_text(s, -1);
+    char joined[FMT_LEN];
+    join_nbsp(s, joined, sizeof joined);
+    gchar *e = g_markup_escape_text(joined, -1);
     snprintf(b, FMT_LEN, "%s", e ? e : "");
     g_free(e);
     return b;
@@ -43,18 +61,8 @@ const char *sheet_fmt(sheet_doc *d, const char *fmt, ...)
     va_start(ap, fmt);
     vsnprintf(raw, sizeof raw, markup ? fmt + 1 : fmt, ap);
     va_end(ap);
-    /* the formatters' number-unit join becomes a no-break space, U+00A0 */
     char joined[FMT_LEN];
-    size_t j = 0;
-    for (const char *p = raw; *p && j + 3 < sizeof joined; p++) {
-        if (*p == NBSP_CHAR) {
-            joined[j++] = '\xC2';
-            joined[j++] = '\xA0';
-        } else {
-            joined[j++] = *p;
-        }
-    }
-    joined[j] = '\0';
+    join_nbsp(raw, joined, sizeof joined);
     if (markup) {
         char *b = d->ring[d->next++ % SHEET_RING];
         snprintf(b, FMT_LEN, "%s", joined);

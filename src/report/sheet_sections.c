@@ -189,7 +189,10 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                                   plumbp_trimmed(P, 100.0 * z->confidence, 2),
                                   plumbp_trimmed(P, 100.0 * z->ci_level, 2), z->samples,
                                   s->scatter_m > 0.0 ? ", plus a scatter allowance of " : "",
-                                  s->scatter_m > 0.0 ? plumbp_t_len(P, s->scatter_m) : "",
+                                  s->scatter_m > 0.0
+                                      ? sheet_fmt(d, "%s %s", plumbp_t_len(P, s->scatter_m),
+                                                  beside(d, plumbp_t_len(S, s->scatter_m)))
+                                      : "",
                                   s->scatter_m > 0.0 ? " for bounce and roll" : "", who));
     double dx = s->mean_m[0] - s->release_m[0], dy = s->mean_m[1] - s->release_m[1];
     if (s->impact_point_fixed)
@@ -302,13 +305,15 @@ static void criteria_sources(sheet_doc *d, const plumb_brief *b)
     double first = 0.0;
     for (size_t k = 0; k < b->n_criteria; k++) {
         const plumb_criterion *c = b->criteria[k];
+        char quoted[PLUMB_CRIT_TEXT * 2]; /* the test method's SI figures, US beside them */
         const char *body = sheet_fmt(
             d, "\x02<b>%s</b> %s: limit %s%s; applies to %s; source: %s (%s).",
             sheet_esc(d, c->name), sheet_id(d, font, c->id, w),
             sheet_fmt(d, "%s", plumbp_t_limit_energy(P, c->energy_limit_j)),
             c->kind == PLUMB_CRIT_HELMET_TEST ? " (a helmet test, not a safe limit)" : "",
             c->applies_to[0] ? sheet_esc(d, c->applies_to) : "not given",
-            c->source[0] ? sheet_esc(d, c->source) : "not given", sheet_esc(d, status_words(c)));
+            sheet_esc(d, plumbp_t_source(P, c, quoted, sizeof quoted)),
+            sheet_esc(d, status_words(c)));
         double h = sheet_text(d, d->left + key_w, d->y, w, font, body, 0);
         if (k == 0) { /* the title kept with the first entry */
             first = sheet_text(d, d->left, d->y, sheet_width(d), bold, "Criteria and their sources",

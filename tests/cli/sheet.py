@@ -973,6 +973,19 @@ check(r.returncode == 3 and "plumb-sheet" in r.stderr and "not installed" in r.s
 shutil.rmtree(lone)
 os.rmdir(d)
 
+# --units us: a criterion's test method quoted in SI gets its US figures
+# in brackets (1 lb = 0.45359237 kg, 1 ft = 0.3048 m, exact), the scatter
+# allowance its SI one, and no control character reaches the page
+us_pdf = os.path.join(tmp, "tool-us.pdf")
+rc, _, err = plumb("sheet", os.path.join(ROOT, "profiles", "demo", "hand-tool.yaml"), "-o", us_pdf,
+                   "--units", "us", "--samples", "2000", "--quiet")
+us_text = " ".join(pages_text(us_pdf)) if rc == 0 else ""
+check(rc == 0 and f"5.0 kg [{5 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.2f} ft] drop" in us_text
+      and "scatter allowance of 9.843 ft [3.000 m]" in us_text and "\x1f" not in us_text
+      and " 1F" not in us_text, f"US sheet: SI quotes with US beside them ({err.strip()})")
+if os.path.exists(us_pdf):
+    os.remove(us_pdf)
+
 os.remove(pdf)
 shutil.rmtree(tmp)
 finish()
