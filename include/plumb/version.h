@@ -11,7 +11,7 @@
 #define PLUMB_VERSION_H
 
 /* MAJOR.MINOR.PATCH of these headers. */
-#define PLUMB_VERSION "0.3.0"
+#define PLUMB_VERSION "0.4.0"
 
 /* The version of the library actually linked or loaded, "MAJOR.MINOR.PATCH",
  * a static string. Can't fail. */
