@@ -451,10 +451,82 @@ static void test_a_report_with_a_figure_not_finite_is_not_written(void **state)
     plumb_study_free(st);
 }
 
+/* Calls of this session's functions with bad arguments (their headers'
+ * contracts): lint of NULL and of an oversize buffer (PLUMB_PROFILE_MAX_BYTES,
+ * profile.h), a key check of NULL, verify into NULL, a verify report of no
+ * checks, the derivation of a profile built in code (it has no text), and
+ * surface air whose lapse rate takes the temperature below 0 K above the
+ * station (an ideal gas has no such air). */
+static void test_this_sessions_calls_refuse_bad_arguments(void **state)
+{
+    (void)state;
+    plumb_diag d, errs[4];
+    size_t n = 9;
+    plumb_profile *p = (plumb_profile *)&n; /* not NULL: must be reset */
+    assert_int_equal(plumb_profile_lint_buffer(NULL, "", 0, units, NULL, 0, errs, 4, &n, &p),
+                     PLUMB_EINVAL);
+    assert_null(p);
+    assert_int_equal(n, 0);
+    assert_int_equal(plumb_profile_lint(NULL, units, NULL, 0, errs, 4, &n, NULL), PLUMB_EINVAL);
+    size_t big = (size_t)PLUMB_PROFILE_MAX_BYTES + 1;
+    char *buf = malloc(big);
+    assert_non_null(buf);
+    memset(buf, '#', big);
+    assert_int_equal(plumb_profile_lint_buffer("big.yaml", buf, big, units, NULL, 0, errs, 4, &n,
+                                               NULL),
+                     PLUMB_ERANGE);
+    assert_int_equal(n, 1);
+    assert_non_null(strstr(errs[0].message, "at most"));
+    free(buf);
+
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_profile_key_check(NULL, 1.0, &d), PLUMB_EINVAL);
+    assert_int_equal(plumb_profile_key_check("release.height", -1.0, &d), PLUMB_ERANGE);
+    assert_non_null(strstr(d.message, "must be > 0 m"));
+    assert_int_equal(plumb_verify(NULL, 0, NULL, &d), PLUMB_EINVAL);
+    char *out = NULL;
+    size_t len = 0;
+    FILE *f = open_memstream(&out, &len);
+    assert_int_equal(plumb_report_verify(f, NULL, NULL, 1, &d), PLUMB_EINVAL);
+    fclose(f);
+    assert_int_equal(len, 0);
+    free(out);
+
+    plumb_fall_spec spec;
+    memset(&spec, 0, sizeof spec);
+    spec.mass_kg = 1.0;
+    spec.drag.model = PLUMB_DRAG_FIXED;
+    spec.drag.cd_area_m2 = 0.01;
+    spec.release_m[2] = 10.0;
+    plumb_wind_spec_init(&spec.wind);
+    plumb_atm_spec air;
+    plumb_atm_spec_init(&air);
+    plumb_profile *coded = NULL, *derived = NULL;
+    assert_int_equal(plumb_profile_from_spec(&spec, &air, NULL, 0, &coded, &d), PLUMB_OK);
+    const char *sets[1] = {"release.height=20 m"};
+    assert_int_equal(plumb_profile_derive(coded, units, sets, 1, &derived, &d), PLUMB_EINVAL);
+    assert_null(derived);
+    assert_non_null(strstr(d.message, "built in code"));
+    plumb_profile_free(coded);
+
+    /* surface air at 250 K falling 30 K/km: none above 8.3 km */
+    air.model = PLUMB_ATM_SURFACE;
+    air.station_pressure_pa = 101325.0;
+    air.station_temperature_k = 250.0;
+    air.lapse_rate_k_m = 0.030;
+    plumb_atmosphere *atm = NULL;
+    if (plumb_atmosphere_alloc(&air, &atm, &d) == PLUMB_OK) {
+        plumb_air a;
+        assert_int_equal(plumb_atmosphere_at(atm, 9000.0, &a), PLUMB_ERANGE);
+        plumb_atmosphere_free(atm);
+    }
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_loading_and_opening_refuse_null_arguments),
+        cmocka_unit_test(test_this_sessions_calls_refuse_bad_arguments),
         cmocka_unit_test(test_the_air_refuses_altitudes_outside_the_1976_model),
         cmocka_unit_test(test_a_fall_refuses_specs_that_break_its_contract),
         cmocka_unit_test(test_writers_refuse_a_missing_report_or_stream),

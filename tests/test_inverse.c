@@ -416,6 +416,15 @@ static void test_an_item_whose_drag_lacks_the_key_is_not_applicable(void **state
                      PLUMB_OK);
     assert_int_equal(r.outcome, PLUMB_LIMIT_NOT_APPLICABLE);
     assert_non_null(strstr(r.explanation, "does not use payload.drag.cd"));
+    /* and there is no fall at an answer for it (inverse.h, plumb_limit_fall_at) */
+    plumb_item_report *judged = calloc(1, sizeof *judged);
+    assert_non_null(judged);
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_limit_fall_at(p, units, 1, "payload.drag.cd", 1.0, traj, NULL, judged,
+                                         &d),
+                     PLUMB_EINVAL);
+    assert_non_null(strstr(d.message, "does not use payload.drag.cd"));
+    free(judged);
     plumb_profile_free(p);
 }
 
