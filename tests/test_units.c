@@ -312,6 +312,22 @@ static void test_lapse_rates_are_differences_per_height(void **state)
     assert_rel(parse_ok(state, "3.56 degF/kft", PLUMB_DIM_LAPSE),
                3.56 / 1.8 / (1000.0 * FT_M), EXACT);
     assert_rel(parse_ok(state, "0.0098 K/m", PLUMB_DIM_LAPSE), 0.0098, EXACT);
+    /* Per a count of a unit, as lapse rates are quoted ("3.57 degF per
+     * 1000 ft" is the 1976 gradient in US units) and as US reports print
+     * them: the count divides, it does not multiply (udunits2 alone reads
+     * "K/1000 m" as (K/1000) m). 1 ft = 0.3048 m exactly (NIST SP 811 B.9). */
+    assert_rel(parse_ok(state, "3.57 degF/1000ft", PLUMB_DIM_LAPSE),
+               3.57 / 1.8 / (1000.0 * FT_M), EXACT);
+    assert_rel(parse_ok(state, "3.57 °F/1000 ft", PLUMB_DIM_LAPSE),
+               3.57 / 1.8 / (1000.0 * FT_M), EXACT);
+    assert_rel(parse_ok(state, "6.5 K/1000 m", PLUMB_DIM_LAPSE), 0.0065, EXACT);
+    assert_rel(parse_ok(state, "0.65 degC/100m", PLUMB_DIM_LAPSE), 0.0065, EXACT);
+    /* Any other number in the unit still scales silently in udunits2. */
+    parse_fails(state, "6.5 K/1000", PLUMB_DIM_LAPSE, PLUMB_EUNIT, "contains a number");
+    parse_fails(state, "6.5 K/1000 m 3", PLUMB_DIM_LAPSE, PLUMB_EUNIT, "contains a number");
+    parse_fails(state, "6.5 K/1.5 m", PLUMB_DIM_LAPSE, PLUMB_EUNIT, "contains a number");
+    parse_fails(state, "6.5 K/1000 m/s", PLUMB_DIM_LAPSE, PLUMB_EUNIT, "contains a number");
+    parse_fails(state, "6.5 K/0 m", PLUMB_DIM_LAPSE, PLUMB_EUNIT, "");
     parse_fails(state, "6.5 K", PLUMB_DIM_LAPSE, PLUMB_EUNIT, "(a temperature)");
 }
 

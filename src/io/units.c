@@ -291,6 +291,41 @@ static int has_number_factor(const char *unit)
     return 0;
 }
 
+/* A count in the denominator: "degF/1000 ft", "K/100m", the way a lapse
+ * rate is quoted per thousand feet (and the way plumb's US reports print
+ * it). udunits2 reads "K/1000 m" as (K/1000) m, a product, so the count
+ * and the unit after it are put in brackets: "K/(1000 m)". Only a whole
+ * number above zero right after the one "/", with a unit after it, is
+ * taken; *without gets the text with the count left out, for the check
+ * for stray numbers. Returns 1 when rewritten, 0 when the unit has no such
+ * denominator, -1 when the result does not fit. */
+static int per_count(const char *unit, char *with, char *without, size_t cap)
+{
+    const char *slash = strchr(unit, '/');
+    if (!slash || slash == unit || strchr(slash + 1, '/'))
+        return 0;
+    const char *n = slash + 1;
+    while (*n == ' ')
+        n++;
+    const char *e = n;
+    while (isdigit((unsigned char)*e))
+        e++;
+    if (e == n || *n == '0')
+        return 0;
+    const char *tail = e;
+    while (*tail == ' ')
+        tail++;
+    if (*tail == '\0' || isdigit((unsigned char)*tail) || *tail == '.' || *tail == '^' ||
+        *tail == '*' || *tail == '(' || *tail == ')' || *tail == '-' || *tail == '+')
+        return 0;
+    int head = (int)(slash - unit);
+    int a = snprintf(with, cap, "%.*s/(%.*s %s)", head, unit, (int)(e - n), n, tail);
+    int b = snprintf(without, cap, "%.*s/%s", head, unit, tail);
+    if (a < 0 || b < 0 || (size_t)a >= cap || (size_t)b >= cap)
+        return -1;
+    return 1;
+}
+
 /* ---- conversion ------------------------------------------------------------ */
 
 /* Converts value in unit text `unit` (trimmed, may be "") to the SI unit of
@@ -351,8 +386,13 @@ static plumb_status convert(const plumb_units *units, double value, const char *
     int sign = want == PLUMB_DIM_ANGLE ? plumbp_units_compass_letter(unit) : 0;
     if (sign != 0)
         return plumbp_units_raise_compass(diag, sign, shown, number);
+    char per[UNITS_EXPANDED_MAX], check[UNITS_EXPANDED_MAX];
+    const char *checked = unit; /* the text judged for stray numbers */
+    int has_per = per_count(unit, per, check, sizeof per);
+    if (has_per > 0)
+        checked = check;
     char expanded[UNITS_EXPANDED_MAX];
-    if (rewrite_unit(unit, expanded, sizeof expanded) != 0)
+    if (has_per < 0 || rewrite_unit(has_per > 0 ? per : unit, expanded, sizeof expanded) != 0)
         return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; the unit in \"%.*s...\" is too long",
                            w, UNITS_SHOW_MAX, shown);
 
@@ -379,7 +419,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
                                             : "a logarithmic unit");
         goto done;
     }
-    if (has_number_factor(unit)) {
+    if (has_number_factor(checked)) {
         st = PLUMB_RAISE(diag, PLUMB_EUNIT,
                          "expected %s; the unit \"%.*s\" in \"%.*s\" contains a number "
                          "(write one number, then the unit)",

@@ -41,7 +41,7 @@ static const char *const dim_units[PLUMB_DIM_COUNT] = {
     [PLUMB_DIM_TEMP_DIFF] = "K, degC, degF",
     [PLUMB_DIM_PRESSURE] = "Pa, hPa, kPa, bar, mbar, inHg, psi",
     [PLUMB_DIM_DENSITY] = "kg/m^3, g/cm^3, lb/ft^3",
-    [PLUMB_DIM_LAPSE] = "K/m, K/km, degC/km",
+    [PLUMB_DIM_LAPSE] = "K/m, K/km, degC/km, degF/1000 ft",
     [PLUMB_DIM_FRACTION] = "%",
 };
 
