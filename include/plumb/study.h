@@ -39,7 +39,9 @@ typedef struct plumb_study plumb_study;
 /* Opens a study of a loaded profile: builds its atmosphere and a
  * trajectory workspace (opt NULL: the defaults of plumb fall) and checks
  * that every criterion the profile names is in the set (PLUMB_EKEY at the
- * entry, with the nearest id). On error *out is NULL and nothing is
+ * entry, with the nearest id), and that no item is buoyant: PLUMB_ERANGE
+ * at its volume key when the air it displaces at the strike level weighs
+ * at least as much as it does. On error *out is NULL and nothing is
  * leaked. */
 plumb_status plumb_study_open(const plumb_profile *profile, const plumb_criteria *criteria,
                               const plumb_units *units, const plumb_trajectory_options *opt,

@@ -232,12 +232,22 @@ zone: {samples: 400}
 EOF
 "$bin" fall "$tmp/buoy.yaml" >"$tmp/out" 2>"$tmp/err"
 rc=$?
-if [ $rc -eq 3 ] && grep -q "buoy.yaml: items\[2\]: " "$tmp/err"; then ok
-else bad "fall failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
+# A buoyant object is an input fault (exit 2), said at the item's volume:
+# 1.225 kg/m^3 x 0.05 m^3 = 0.06125 kg of air (US Std Atm 1976 sea level)
+# is more than its 0.012 kg (Archimedes' principle).
+if [ $rc -eq 2 ] && grep -q "buoy.yaml:10:13: items\[2\].volume: .* 0.06125 kg of air" "$tmp/err" &&
+   [ ! -s "$tmp/out" ]; then ok
+else bad "fall refusing the second item: exit $rc, $(cat "$tmp/err")"; fi
 "$bin" zone "$tmp/buoy.yaml" >"$tmp/out" 2>"$tmp/err"
 rc=$?
-if [ $rc -eq 3 ] && grep -q "item 2 (balloon): " "$tmp/err"; then ok
-else bad "zone failing on the second item: exit $rc, $(cat "$tmp/err")"; fi
+if [ $rc -eq 2 ] && grep -q "buoy.yaml:10:13: items\[2\].volume: " "$tmp/err"; then ok
+else bad "zone refusing the second item: exit $rc, $(cat "$tmp/err")"; fi
+# A volume given by --set is named there.
+"$bin" fall "$tmp/buoy.yaml" --set 'items[2].volume=0.001 m^3' --set 'items[1].volume=1 m^3' \
+  >"$tmp/out" 2>"$tmp/err"
+rc=$?
+if [ $rc -eq 2 ] && grep -q "^plumb: --set:2:[0-9]*: items\[1\].volume: " "$tmp/err"; then ok
+else bad "a buoyant item by --set: exit $rc, $(cat "$tmp/err")"; fi
 
 # one key of an item past the end: a typo of N more often than a new item,
 # refused saying how many there are (the mast kit has 6)
