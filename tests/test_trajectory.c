@@ -597,6 +597,50 @@ static void test_step_and_time_budgets_are_errors_not_numbers(void **state)
     plumb_atmosphere_free(atm);
 }
 
+/* A fall that cannot end within the time budget is refused before it is
+ * integrated, by a bound no fall can beat: in constant air the closed-form
+ * time of the fall from rest (closed_time) is H / v_t + (v_t / g) ln 2 for
+ * large g H / v_t^2, and the refusal comes only below H / (sqrt 2 v_t)
+ * of the budget. Budget 100 s, v_t 1 m/s. */
+static void test_a_fall_longer_than_its_budget_is_refused_at_once(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory_options o;
+    plumb_trajectory_options_init(&o);
+    o.max_time_s = 100.0;
+    plumb_trajectory *w = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&o, &w), PLUMB_OK);
+    const double g = PLUMB_G0_M_S2, m = 0.002, vt = 1.0, rho = PLUMBT_CONST_RHO;
+    plumb_fall_spec s;
+    plumb_fall_result r;
+    plumb_diag d;
+    /* 200 m takes 200.07 s: refused before integrating, saying why */
+    base_spec(&s, m, 2.0 * m * g / (rho * vt * vt), 200.0);
+    assert_true(closed_time(200.0, vt, g) > 200.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EBUDGET);
+    assert_non_null(strstr(d.message, "falls too slowly"));
+    assert_non_null(strstr(d.message, "terminal speed is at most 1 m/s"));
+    /* thrown down at 50 m/s it still takes 199.6 s (slowed within
+     * v_t^2 / (2 g) ln(v0^2 / v_t^2 - 1) = 0.4 m): refused the same way */
+    s.velocity_m_s[2] = -50.0;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EBUDGET);
+    assert_non_null(strstr(d.message, "falls too slowly"));
+    /* 130 m takes 130.07 s, over the budget but not by the bound: the
+     * integration finds it */
+    base_spec(&s, m, 2.0 * m * g / (rho * vt * vt), 130.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_EBUDGET);
+    assert_null(strstr(d.message, "falls too slowly"));
+    assert_non_null(strstr(d.message, "time budget"));
+    /* 95 m takes 95.07 s: computed, and on the closed form */
+    base_spec(&s, m, 2.0 * m * g / (rho * vt * vt), 95.0);
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_rel(r.time_s, closed_time(95.0, vt, g), 1e-8);
+    assert_true(r.time_s >= 95.0 / (sqrt(2.0) * vt));
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_path_outside_the_atmosphere_is_a_range_error(void **state)
 {
     (void)state;
@@ -1005,6 +1049,7 @@ int main(void)
         cmocka_unit_test(test_invalid_specs_are_refused),
         cmocka_unit_test(test_buoyant_object_never_lands_and_says_so),
         cmocka_unit_test(test_step_and_time_budgets_are_errors_not_numbers),
+        cmocka_unit_test(test_a_fall_longer_than_its_budget_is_refused_at_once),
         cmocka_unit_test(test_path_outside_the_atmosphere_is_a_range_error),
         cmocka_unit_test(test_recorded_path_starts_at_release_and_ends_on_the_ground),
         cmocka_unit_test(test_stiff_light_fall_switches_to_msbdf_and_stays_accurate),
