@@ -589,71 +589,6 @@ static const char *stepper_name(plumb_stepper kind)
     }
 }
 
-/* Heights sampled for the thinnest air of a path (a table atmosphere need
- * not thin upward everywhere). */
-#define OUTLAST_SAMPLES 64
-
-/* The least time a fall of spec can take in air of density rho_kg_m3 or
- * more everywhere on its path (see outlasts_budget); *vt_m_s the terminal
- * speed in that air. */
-static double least_fall_time(const plumb_fall_spec *spec, double cda, double g,
-                              double rho_kg_m3, double *vt_m_s)
-{
-    double vt = sqrt(2.0 * spec->mass_kg * g / (rho_kg_m3 * cda));
-    const double *v = spec->velocity_m_s;
-    double s0sq = v[0] * v[0] + v[1] * v[1] + v[2] * v[2];
-    double d0 = s0sq > 2.0 * vt * vt ? vt * vt / (2.0 * g) * log(s0sq / (vt * vt) - 1.0) : 0.0;
-    *vt_m_s = vt;
-    return (spec->release_m[2] - d0) / (M_SQRT2 * vt);
-}
-
-/* A fall that cannot end within the time budget, known before it is
- * integrated: a feather-light object in deep air would otherwise run both
- * methods to their budgets (seconds of work) before failing. Only where a
- * bound is rigorous: fixed drag, still air vertically (no rotor wake, no
- * gusts). Descending at speed s, the drag is at least 1/2 rho CdA s^2 (the
- * relative speed is at least the vertical one), so with g the largest
- * gravity of the path (at the strike level) and v_t = sqrt(2 m g /
- * (rho CdA)) in the thinnest air of the path, ds/dt <= g (1 - s^2 / v_t^2)
- * (buoyancy and devices only slow it). A start faster than sqrt 2 v_t
- * slows to it within d0 = v_t^2 / (2 g) ln(s0^2 / v_t^2 - 1), and the
- * speed never climbs back above it; so the fall of H takes at least
- * (H - d0) / (sqrt 2 v_t). The air at the top of the path is tried first
- * (one look, the thinnest in any air that thins upward); only a fall that
- * outlasts the budget there has its path's air sampled. 1 when the fall
- * cannot end in time; *t_min_s and *vt_m_s then say why. */
-static int outlasts_budget(const plumb_trajectory *w, const plumb_fall_spec *spec,
-                           const plumb_atmosphere *atm, double *t_min_s, double *vt_m_s)
-{
-    if (spec->drag.model != PLUMB_DRAG_FIXED || spec->turbulence.n_modes > 0 ||
-        (spec->downwash.aircraft_mass_kg > 0.0 && spec->downwash.disk_area_m2 > 0.0))
-        return 0;
-    double cda = plumb_drag_given_cd_area(&spec->drag);
-    double H = spec->release_m[2];
-    if (!(cda > 0.0) || !(H > 0.0))
-        return 0;
-    double g = plumb_gravity_at(&spec->gravity, spec->site_elevation_m);
-    double up = spec->velocity_m_s[2] > 0.0 ? spec->velocity_m_s[2] : 0.0;
-    double top = H + up * up / (2.0 * g); /* no higher than a drag-free rise */
-    plumb_air air;
-    if (plumb_atmosphere_at(atm, spec->site_elevation_m + top, &air) != PLUMB_OK)
-        return 0;
-    double rho = air.rho_kg_m3;
-    if (!(least_fall_time(spec, cda, g, rho, vt_m_s) > w->opt.max_time_s))
-        return 0;
-    for (int i = 0; i < OUTLAST_SAMPLES; i++) {
-        if (plumb_atmosphere_at(atm, spec->site_elevation_m + top * i / OUTLAST_SAMPLES, &air) !=
-            PLUMB_OK)
-            return 0;
-        rho = fmin(rho, air.rho_kg_m3);
-    }
-    double t_min = least_fall_time(spec, cda, g, rho, vt_m_s);
-    if (!isfinite(t_min) || t_min <= w->opt.max_time_s)
-        return 0;
-    *t_min_s = t_min;
-    return 1;
-}
-
 plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *spec,
                                   const plumb_atmosphere *atm, plumb_fall_result *res,
                                   plumb_diag *diag)
@@ -662,7 +597,7 @@ plumb_status plumb_trajectory_run(plumb_trajectory *w, const plumb_fall_spec *sp
     if (st != PLUMB_OK)
         return st;
     double t_min, vt_top;
-    if (outlasts_budget(w, spec, atm, &t_min, &vt_top))
+    if (plumbp_traj_outlasts_budget(&w->opt, spec, atm, &t_min, &vt_top))
         return PLUMB_RAISE(diag, PLUMB_EBUDGET,
                            "the object falls too slowly to be followed: its terminal speed is at "
                            "most %.3g m/s (in the thinnest air of its path), so the fall of %.6g m "

@@ -147,4 +147,12 @@ plumb_status plumbp_traj_terminal_speed(const plumb_fall_spec *spec, const plumb
                                         double z_m, unsigned devices, gsl_root_fsolver *root,
                                         gsl_min_fminimizer *mz, double *v_m_s);
 
+/* trajectory_terminal.c: 1 when the fall of spec cannot end within
+ * opt->max_time_s, by a bound no fall beats (fixed drag, no vertical air
+ * motion; see there); *t_min_s the least time, *vt_m_s the terminal speed
+ * in the thinnest air of the path. 0 when it may end in time or no bound
+ * applies. */
+int plumbp_traj_outlasts_budget(const plumb_trajectory_options *opt, const plumb_fall_spec *spec,
+                                const plumb_atmosphere *atm, double *t_min_s, double *vt_m_s);
+
 #endif
