@@ -41,7 +41,7 @@ typedef struct plumb_item_report {
 typedef struct plumb_fall_report {
     const plumb_profile *profile;   /* borrowed: name, path, sha256, inputs */
     size_t n_items;                 /* 1 unless inventory */
-    plumb_item_report *items;       /* borrowed array of n_items */
+    const plumb_item_report *items; /* borrowed array of n_items */
 } plumb_fall_report;
 
 /* Checks that every criterion the profile names is in the set: PLUMB_EKEY

@@ -190,24 +190,8 @@ static void each_limit_warning(writer *w, const plumb_limit_report *rep, warning
 {
     if (!limit_has_warnings(rep))
         return;
-    /* the items without a fall (key not applicable) carry no warnings, and
-     * plumbp_each_warning names an item by its spec: give them the
-     * profile's for the name only */
-    plumb_item_report *copy = malloc(rep->n_items * sizeof *copy);
-    if (!copy) {
-        w->nomem = 1;
-        return;
-    }
-    for (size_t i = 0; i < rep->n_items; i++) {
-        copy[i] = rep->falls[i];
-        if (!copy[i].spec) {
-            copy[i].spec = plumb_profile_item(rep->profile, i);
-            copy[i].n_warnings = 0;
-        }
-    }
-    plumb_fall_report fr = {rep->profile, rep->n_items, copy};
+    plumb_fall_report fr = {rep->profile, rep->n_items, rep->falls};
     plumbp_each_warning(w, &fr, fn);
-    free(copy);
 }
 
 static void text_limit_answer(writer *w, const plumb_report_options *opt,

@@ -31,6 +31,7 @@ struct plumb_sweep {
     size_t n_rows;
     size_t n_failed;            /* rows without figures (status != PLUMB_OK) */
     plumb_sweep_row *rows;
+    plumb_item_report **items;  /* one per row, owned: the row's report.items */
     plumb_profile **profiles;   /* one per row, owned (the template's row: see tmpl) */
     plumb_atmosphere **atms;    /* one per row, owned unless it is `air` (verdict warnings
                                    use it) */
@@ -296,8 +297,8 @@ void plumb_sweep_free(plumb_sweep *s)
     if (!s)
         return;
     for (size_t i = 0; i < s->n_rows; i++) {
-        if (s->rows)
-            free(s->rows[i].report.items);
+        if (s->items)
+            free(s->items[i]);
         if (s->profiles && s->profiles[i] != s->tmpl)
             plumb_profile_free(s->profiles[i]);
         if (s->atms && s->atms[i] != s->air)
@@ -307,6 +308,7 @@ void plumb_sweep_free(plumb_sweep *s)
     plumb_atmosphere_free(s->air);
     free(s->work);
     free(s->rows);
+    free(s->items);
     free(s->profiles);
     free(s->atms);
     free(s->bounds);
@@ -507,15 +509,15 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         st = derive_row(s, r, base, units, rd);
     const plumb_profile *p = s->profiles[r];
     size_t n = st == PLUMB_OK ? plumb_profile_item_count(p) : 0;
+    plumb_item_report *items = NULL;
     if (st == PLUMB_OK) {
-        row->report.profile = p;
-        row->report.items = calloc(n ? n : 1, sizeof *row->report.items);
-        if (!row->report.items)
+        items = s->items[r] = calloc(n ? n : 1, sizeof *items);
+        if (!items)
             return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
-        row->report.n_items = n;
+        row->report = (plumb_fall_report){p, n, items};
     }
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
-        plumb_item_report *it = &row->report.items[i];
+        plumb_item_report *it = &items[i];
         it->spec = plumb_profile_item(p, i);
         it->shape = plumb_profile_item_shape(p, i);
         st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, rd);
@@ -539,7 +541,8 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         row->status = st;
         /* no figures for this row: its profile and air go too (the
          * template stays for the rows after it) */
-        free(row->report.items);
+        free(items);
+        s->items[r] = NULL;
         memset(&row->report, 0, sizeof row->report);
         if (s->atms[r] != s->air)
             plumb_atmosphere_free(s->atms[r]);
@@ -597,10 +600,11 @@ plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_
     s->n_axes = n_axes;
     memcpy(s->axes, axes, n_axes * sizeof *axes);
     s->rows = calloc(total, sizeof *s->rows);
+    s->items = calloc(total, sizeof *s->items);
     s->profiles = calloc(total, sizeof *s->profiles);
     s->atms = calloc(total, sizeof *s->atms);
     s->n_rows = total;
-    if (!s->rows || !s->profiles || !s->atms) {
+    if (!s->rows || !s->items || !s->profiles || !s->atms) {
         plumb_sweep_free(s);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     }

@@ -288,13 +288,15 @@ static plumb_status given_unit(const plumb_study *s, size_t item, const char *ke
 /* The fall of item i at its answer (the profile's own value when there is
  * none), judged as plumb fall judges a fall, for the warnings that qualify
  * the answer (Mach, a device that does not open there ...). An item the
- * key does not apply to gets an empty report. A value the solve computed
+ * key does not apply to gets a report with its spec (for its name) and
+ * nothing else. A value the solve computed
  * that cannot be computed again is PLUMB_ENUMERIC. */
 static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, plumb_diag *diag)
 {
     const plumb_limit_result *r = &s->limits[i];
     plumb_item_report *it = &s->limit_falls[i];
     memset(it, 0, sizeof *it);
+    it->spec = plumb_profile_item(s->profile, i); /* its name, at least */
     if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE)
         return PLUMB_OK;
     double x = r->outcome == PLUMB_LIMIT_FOUND ? r->value_si : r->base_value_si;
@@ -305,6 +307,7 @@ static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, 
     if (st == PLUMB_OK)
         return PLUMB_OK;
     memset(it, 0, sizeof *it);
+    it->spec = plumb_profile_item(s->profile, i);
     if (st == PLUMB_ENOMEM || st == PLUMB_EKEY) {
         if (diag)
             *diag = d;
