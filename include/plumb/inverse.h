@@ -48,8 +48,10 @@ typedef enum plumb_limit_outcome {
     PLUMB_LIMIT_FOUND = 0,     /* value is where the limit is just met */
     PLUMB_LIMIT_UNLIMITED,     /* the limit is met everywhere in the range */
     PLUMB_LIMIT_IMPOSSIBLE,    /* the limit is broken everywhere in the range */
-    PLUMB_LIMIT_NOT_APPLICABLE /* an inventory item without the key (a shape length of an
+    PLUMB_LIMIT_NOT_APPLICABLE, /* an inventory item without the key (a shape length of an
                                   item whose drag is given) */
+    PLUMB_LIMIT_NOT_ASKED      /* an inventory item another than the one asked for
+                                  (plumb_study_limit with an items[N] key); no figures */
 } plumb_limit_outcome;
 
 typedef struct plumb_limit_options {
@@ -127,6 +129,16 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
                                size_t item, const char *key, plumb_metric metric, double limit,
                                const plumb_limit_options *opt, plumb_trajectory *traj,
                                plumb_limit_result *res, plumb_diag *diag);
+
+/* The key as `plumb fall --set` takes it for item `item` (from 0) of
+ * profile, into out (size bytes): for an inventory, an item's own key
+ * "payload.X" is "items[N].X" and "descent.X" is "items[N].descent.X" when
+ * the item has its own descent device; any other key is itself. Re-running
+ * `plumb fall --set SETKEY=VALUE` at an answer meets the limit.
+ * PLUMB_EINVAL for NULL arguments or an item out of range; can't fail
+ * otherwise. */
+plumb_status plumb_limit_set_key(const plumb_profile *profile, size_t item, const char *key,
+                                 char *out, size_t size);
 
 /* The fall of item `item` with `key` set to x (SI unit of its dimension),
  * computed as plumb_limit_solve computes each of its falls and judged

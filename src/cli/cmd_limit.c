@@ -17,7 +17,9 @@ static const char usage[] =
     "wind.speed, ...) at which the impact energy, impact speed or drift just meets\n"
     "the limit; or why no value in the physical range does. Give --find and exactly\n"
     "one of the limits. PROFILE '-' is read from standard input.\n"
-    "Re-running `plumb fall --set KEY=VALUE` at the value found meets the limit.\n"
+    "In an inventory, payload.X is answered for each item and items[N].X (or\n"
+    "items[NAME].X) for that item only, each under the key --set takes: re-running\n"
+    "`plumb fall --set KEY=VALUE` at the value found meets the limit.\n"
     "Exit status: 0 done, 2 input error, 3 the computation failed; nothing is written\n"
     "on an error.\n";
 

@@ -66,6 +66,7 @@ static const char *outcome_word(plumb_limit_outcome o)
     return o == PLUMB_LIMIT_FOUND       ? "found"
            : o == PLUMB_LIMIT_UNLIMITED ? "unlimited"
            : o == PLUMB_LIMIT_IMPOSSIBLE ? "impossible"
+           : o == PLUMB_LIMIT_NOT_ASKED  ? "not asked"
                                          : "not applicable";
 }
 
@@ -126,9 +127,10 @@ static const char *t_the_limit(writer *w, const plumb_limit_report *rep)
  * returned as numbers (the range scanned, the crossings, the metric) and
  * its words without figures (r->explanation), into buf. The text and CSV
  * reports word it in the report's units; the JSON in SI, as all of the
- * JSON (design.md section 6). */
+ * JSON (design.md section 6). label: the key as the answer names it, as
+ * `plumb fall --set` takes it (items[N].X for an item of an inventory). */
 static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_result *r,
-                    char *buf, size_t size)
+                    const char *label, char *buf, size_t size)
 {
     const char *key = rep->key, *note = r->explanation;
     const char *sep = note[0] ? "; " : "";
@@ -140,12 +142,12 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
         snprintf(buf, size,
                  "the %s stays below the limit of %s for every %s scanned %s (%zu values); at "
                  "the top of that range it is %s%s%s",
-                 metric_word(rep->metric), t_the_limit(w, rep), key, scanned, r->n_scanned,
+                 metric_word(rep->metric), t_the_limit(w, rep), label, scanned, r->n_scanned,
                  t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
         break;
     case PLUMB_LIMIT_IMPOSSIBLE:
         snprintf(buf, size, "the %s exceeds the limit of %s for every %s scanned %s (%zu values)%s%s",
-                 metric_word(rep->metric), t_the_limit(w, rep), key, scanned, r->n_scanned, sep,
+                 metric_word(rep->metric), t_the_limit(w, rep), label, scanned, r->n_scanned, sep,
                  note);
         break;
     case PLUMB_LIMIT_FOUND:
@@ -153,7 +155,7 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
             snprintf(buf, size,
                      "%s = %s gives the limit, %s %s; %s values stay within it (scanned %s, %zu "
                      "values)",
-                     key, t_limit_value(w, key, r->dim, r->value_si, r->limit_is_upper_bound),
+                     label, t_limit_value(w, key, r->dim, r->value_si, r->limit_is_upper_bound),
                      metric_word(rep->metric), t_metric_met(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher", scanned, r->n_scanned);
         } else {
@@ -166,7 +168,7 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
             snprintf(buf, size,
                      "the %s is not monotonic in %s: it crosses the limit at %s (scanned %s, %zu "
                      "values); %s below the first crossing, and alternately beyond",
-                     metric_word(rep->metric), key, list, scanned, r->n_scanned,
+                     metric_word(rep->metric), label, list, scanned, r->n_scanned,
                      r->within_at_low_end ? "within" : "exceeded");
         }
         break;
@@ -194,13 +196,31 @@ static void each_limit_warning(writer *w, const plumb_limit_report *rep, warning
     plumbp_each_warning(w, &fr, fn);
 }
 
+/* The key the answer is for, as `plumb fall --set` takes it: one item's
+ * own (items[N].X) when only that item was asked, else the key solved for
+ * each item (payload.X). */
+static void asked_key(const plumb_limit_report *rep, char *out, size_t size)
+{
+    size_t asked = 0, which = 0;
+    for (size_t i = 0; i < rep->n_items; i++)
+        if (rep->results[i].outcome != PLUMB_LIMIT_NOT_ASKED) {
+            asked++;
+            which = i;
+        }
+    if (asked == 1 && rep->n_items > 1)
+        plumb_limit_set_key(rep->profile, which, rep->key, out, size);
+    else
+        plumbp_strlcpy(out, rep->key, size);
+}
+
 static void text_limit_answer(writer *w, const plumb_report_options *opt,
                               const plumb_limit_report *rep)
 {
     const plumb_profile *p = rep->profile;
     plumbp_text_header(w, opt, "limit", plumb_profile_name(p));
-    char text[EXPLAIN_TEXT];
-    snprintf(text, sizeof text, "the %s of %s at which the %s is %s%s%s%s", "value", rep->key,
+    char text[EXPLAIN_TEXT], asked[PLUMB_DIAG_KEY + 16];
+    asked_key(rep, asked, sizeof asked);
+    snprintf(text, sizeof text, "the %s of %s at which the %s is %s%s%s%s", "value", asked,
              metric_word(rep->metric), t_the_limit(w, rep), rep->criterion ? " (criterion " : "", rep->criterion ? rep->criterion : "",
              rep->criterion ? ")" : "");
     wrapped(w, "  ", text);
@@ -215,6 +235,10 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
     }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
+        if (r->outcome == PLUMB_LIMIT_NOT_ASKED)
+            continue;
+        char set_key[PLUMB_DIAG_KEY + 16];
+        plumb_limit_set_key(p, i, rep->key, set_key, sizeof set_key);
         put(w, "\n");
         if (plumb_profile_is_inventory(p)) {
             /* numbered as items[N] counts them, the name wrapped */
@@ -223,7 +247,7 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
             wrapped(w, lead, plumb_profile_item(p, i)->name);
         }
         if (r->outcome == PLUMB_LIMIT_FOUND) {
-            snprintf(text, sizeof text, "%s = %s%s", rep->key,
+            snprintf(text, sizeof text, "%s = %s%s", set_key,
                      t_limit_value(w, rep->key, r->dim, r->value_si, r->limit_is_upper_bound),
                      t_given_value(w, rep->key, r, r->limit_is_upper_bound));
             wrapped(w, "  ", text);
@@ -253,14 +277,14 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                 wrapped(w, "  ", text);
             }
         } else if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE) {
-            explain(w, rep, r, text, sizeof text);
+            explain(w, rep, r, set_key, text, sizeof text);
             wrapped(w, "  ", text);
             continue;
         } else {
-            put(w, "  %s: %s\n", rep->key,
+            put(w, "  %s: %s\n", set_key,
                 r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"
                                                     : "no value meets the limit");
-            explain(w, rep, r, text, sizeof text);
+            explain(w, rep, r, set_key, text, sizeof text);
             wrapped(w, "  ", text);
         }
         snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu falls computed)",
@@ -272,7 +296,8 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
         size_t found = 0, applies = 0;
         for (size_t i = 0; i < rep->n_items; i++) {
             found += rep->results[i].outcome == PLUMB_LIMIT_FOUND;
-            applies += rep->results[i].outcome != PLUMB_LIMIT_NOT_APPLICABLE;
+            applies += rep->results[i].outcome != PLUMB_LIMIT_NOT_APPLICABLE &&
+                       rep->results[i].outcome != PLUMB_LIMIT_NOT_ASKED;
         }
         put(w, "\nWarnings, of the fall %s\n",
             found == applies ? "at the answer"
@@ -305,6 +330,10 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
            "base_value_si,metric_at_base_si,crossings,evaluations,explanation\n");
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
+        if (r->outcome == PLUMB_LIMIT_NOT_ASKED)
+            continue;
+        char set_key[PLUMB_DIAG_KEY + 16];
+        plumb_limit_set_key(rep->profile, i, rep->key, set_key, sizeof set_key);
         /* value and unit: in the unit the key was given in, when it was
          * given in one, else in the report's units */
         shown v = plumbp_show_key(w, rep->key, r->dim, r->value_si);
@@ -322,14 +351,14 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
         put(w, "%zu,", plumb_profile_item_number(rep->profile, i));
         csv_field(w, plumb_profile_item(rep->profile, i)->name);
         put(w, ",");
-        csv_field(w, rep->key);
+        csv_field(w, set_key); /* as `plumb fall --set` takes it */
         put(w, ",%s,%s,", outcome_word(r->outcome), found ? csvnum(w, v.x) : "");
         csv_field(w, v.unit);
         put(w, ",%s,%s,%s,%s,%s,%s,%zu,%zu,", found ? csvnum(w, value_si) : "",
             metric_word(rep->metric), csvnum(w, rep->limit),
             found ? csvnum(w, r->metric_at_value) : "", csvnum(w, r->base_value_si),
             csvnum(w, r->metric_at_base), r->n_crossings, r->evaluations);
-        explain(w, rep, r, text, sizeof text);
+        explain(w, rep, r, set_key, text, sizeof text);
         csv_field(w, text);
         put(w, "\n");
     }
@@ -338,11 +367,11 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
 /* The explanation of the JSON: in SI, whatever --units says (design.md
  * section 6), words joined by plain spaces. */
 static const char *j_explain(jctx *j, const plumb_limit_report *rep, const plumb_limit_result *r,
-                             char *buf, size_t size)
+                             const char *label, char *buf, size_t size)
 {
     writer si;
     memset(&si, 0, sizeof si); /* no stream: only its figures are used */
-    explain(&si, rep, r, buf, size);
+    explain(&si, rep, r, label, buf, size);
     for (char *c = buf; *c; c++)
         if (*c == NBSP_CHAR)
             *c = ' ';
@@ -370,10 +399,15 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
     json_t *items = jarr(j);
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_limit_result *r = &rep->results[i];
+        if (r->outcome == PLUMB_LIMIT_NOT_ASKED)
+            continue;
         json_t *o = jobj(j);
         const char *u = plumb_dim_si_unit(r->dim);
+        char set_key[PLUMB_DIAG_KEY + 16];
+        plumb_limit_set_key(rep->profile, i, rep->key, set_key, sizeof set_key);
         jset(j, o, "name", jstr(j, plumb_profile_item(rep->profile, i)->name));
         jset(j, o, "item_number", jint(j, plumb_profile_item_number(rep->profile, i)));
+        jset(j, o, "set_key", jstr(j, set_key));
         jset(j, o, "outcome", jstr(j, outcome_word(r->outcome)));
         char k_value[64], k_base[64];
         snprintf(k_value, sizeof k_value, "%s_at_value_%s", metric_stem(rep->metric),
@@ -407,7 +441,7 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
             jset(j, o, "scanned_to_si", jreal(j, r->scan_hi_si));
             jset(j, o, "values_scanned", jint(j, r->n_scanned));
         }
-        jset(j, o, "explanation", jstr(j, j_explain(j, rep, r, text, sizeof text)));
+        jset(j, o, "explanation", jstr(j, j_explain(j, rep, r, set_key, text, sizeof text)));
         /* the fall at the answer (at the profile's own value where none is
          * found): its warnings */
         json_t *warn = jarr(j);

@@ -450,18 +450,7 @@ static plumb_status ctx_open(solver_ctx *c, const plumb_profile *profile,
     *c = (solver_ctx){.profile = profile, .units = units, .item = item, .dim = dim,
                       .traj = traj, .max_evals = SIZE_MAX, .diag = diag};
     int inv = plumb_profile_is_inventory(profile);
-    char own[PLUMB_DIAG_KEY + 16];
-    int line, col;
-    snprintf(own, sizeof own, "items[%zu].descent", plumb_profile_item_number(profile, item));
-    if (inv && starts_with(key, "payload."))
-        snprintf(c->set_key, sizeof c->set_key, "items[%zu].%s",
-                 plumb_profile_item_number(profile, item),
-                 key + strlen("payload.")); /* items[N] as the profile is written */
-    else if (inv && starts_with(key, "descent") &&
-             plumb_profile_key_origin(profile, own, &line, &col))
-        snprintf(c->set_key, sizeof c->set_key, "%s%s", own, key + strlen("descent"));
-    else
-        plumbp_strlcpy(c->set_key, key, sizeof c->set_key); /* shared, or a single payload */
+    plumb_limit_set_key(profile, item, key, c->set_key, sizeof c->set_key);
     if (!base_value(profile, item, key, base)) {
         int dev = starts_with(key, "descent");
         if (inv && (starts_with(key, "payload.") || dev)) {
@@ -491,6 +480,27 @@ static plumb_status ctx_open(solver_ctx *c, const plumb_profile *profile,
                              "a profile built in code cannot vary this key: only the profile "
                              "loader derives it (read the profile from a file to vary it)");
     return st;
+}
+
+plumb_status plumb_limit_set_key(const plumb_profile *profile, size_t item, const char *key,
+                                 char *out, size_t size)
+{
+    if (!profile || !key || !out || size == 0 || item >= plumb_profile_item_count(profile))
+        return PLUMB_RAISE(NULL, PLUMB_EINVAL, "plumb_limit_set_key: no such item or key");
+    int inv = plumb_profile_is_inventory(profile);
+    size_t number = plumb_profile_item_number(profile, item);
+    char own[PLUMB_DIAG_KEY + 16];
+    int line, col;
+    snprintf(own, sizeof own, "items[%zu].descent", number);
+    if (inv && starts_with(key, "payload."))
+        snprintf(out, size, "items[%zu].%s", number,
+                 key + strlen("payload.")); /* items[N] as the profile is written */
+    else if (inv && starts_with(key, "descent") &&
+             plumb_profile_key_origin(profile, own, &line, &col))
+        snprintf(out, size, "%s%s", own, key + strlen("descent"));
+    else
+        plumbp_strlcpy(out, key, size); /* shared, or a single payload */
+    return PLUMB_OK;
 }
 
 static void ctx_close(solver_ctx *c)

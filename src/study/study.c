@@ -317,6 +317,50 @@ static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, 
                            "the fall at the answer could not be computed again: %s", d.message);
 }
 
+/* An items[N] or items[NAME] key asks for one item of an inventory: *only
+ * is that item (SIZE_MAX for any other key, asked of every item) and
+ * solved the key solved for it, the item's own payload.X or descent.X. */
+static plumb_status asked_item(const plumb_study *s, const char *key, size_t *only,
+                               char *solved, size_t size, plumb_diag *diag)
+{
+    *only = SIZE_MAX;
+    if (strncmp(key, "items[", 6) != 0) {
+        plumbp_strlcpy(solved, key, size);
+        return PLUMB_OK;
+    }
+    const char *open = key + 6, *close = strchr(open, ']');
+    if (!plumb_profile_is_inventory(s->profile))
+        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
+                              "%s: the profile has one payload, not items: find payload.%s",
+                              key, close && close[1] == '.' ? close + 2 : "KEY");
+    if (!close || close[1] != '.' || close == open)
+        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
+                              "%s: expected items[N].KEY or items[NAME].KEY, e.g. items[1].mass",
+                              key);
+    size_t len = (size_t)(close - open), digits = strspn(open, "0123456789");
+    for (size_t i = 0; i < s->n_items && *only == SIZE_MAX; i++) {
+        const char *name = plumb_profile_item(s->profile, i)->name;
+        if (digits == len ? strtoul(open, NULL, 10) == plumb_profile_item_number(s->profile, i)
+                          : strlen(name) == len && strncmp(name, open, len) == 0)
+            *only = i;
+    }
+    if (*only == SIZE_MAX && digits == len)
+        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
+                              "%s: the profile has %zu items (items[1] to items[%zu])", key,
+                              s->n_items, s->n_items);
+    if (*only == SIZE_MAX)
+        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
+                              "%s: no item is named '%.*s' (give its number, items[1] to "
+                              "items[%zu], or its name as the profile writes it)",
+                              key, (int)len, open, s->n_items);
+    const char *rest = close + 2;
+    if (strncmp(rest, "descent", 7) == 0 && (rest[7] == '.' || rest[7] == '['))
+        snprintf(solved, size, "%s", rest);
+    else
+        snprintf(solved, size, "payload.%s", rest);
+    return PLUMB_OK;
+}
+
 plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric metric,
                                double limit, const plumb_criterion *criterion,
                                const plumb_limit_options *opt, const plumb_limit_report **out,
@@ -327,6 +371,11 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     plumb_status st = plumb_profile_key_dim(key, &kd, diag);
     if (st != PLUMB_OK)
         return at_option(diag, st, NULL);
+    size_t only;
+    char solved[PLUMB_DIAG_KEY];
+    if ((st = asked_item(s, key, &only, solved, sizeof solved, diag)) != PLUMB_OK)
+        return st;
+    key = solved;
     free(s->limits);
     free(s->limit_falls);
     size_t n = s->n_items ? s->n_items : 1;
@@ -335,6 +384,12 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     if (!s->limits || !s->limit_falls)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
     for (size_t i = 0; i < s->n_items; i++) {
+        if (only != SIZE_MAX && i != only) {
+            s->limits[i].outcome = PLUMB_LIMIT_NOT_ASKED;
+            s->limits[i].dim = kd;
+            s->limit_falls[i].spec = plumb_profile_item(s->profile, i);
+            continue;
+        }
         st = plumb_limit_solve(s->profile, s->units, i, key, metric, limit, opt, s->traj,
                                &s->limits[i], diag);
         if (st == PLUMB_OK)

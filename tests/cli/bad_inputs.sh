@@ -254,8 +254,14 @@ refused "--set an item by a name it does not have" "plumb: --set:1:1: items[glov
   "did you mean 'glove'?" -- fall "$inv" --set "items[glov].mass=0.4 kg" --format json
 refused "--vary items[0]" "items[0].mass: " "items are numbered from 1" \
   -- sweep "$inv" --vary "items[0].mass=0.1kg:0.3kg:0.1kg" --format json
-refused "limit --find items[2].mass" "<command line>: --find items[2].mass: " "find payload.mass instead" \
-  -- limit "$inv" --find "items[2].mass" --energy-max 40J --format json
+refused "limit --find an item past the end" "<command line>: --find: items[4].mass: " \
+  "the profile has 3 items (items[1] to items[3])" \
+  -- limit "$inv" --find "items[4].mass" --energy-max 40J --format json
+refused "limit --find an item by a name it does not have" "<command line>: --find: items[glov].mass: " \
+  "no item is named 'glov'" -- limit "$inv" --find "items[glov].mass" --energy-max 40J --format json
+refused "limit --find items[N] of a single payload" "<command line>: --find: items[1].mass: " \
+  "the profile has one payload, not items: find payload.mass" \
+  -- limit "$good" --find "items[1].mass" --energy-max 40J --format json
 refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
 # a --set of drag stands instead of the file's shape and the other way round
@@ -304,8 +310,6 @@ refused "--vary two misspelt parts" "did you mean 'release.height'?" \
   -- sweep "$good" --vary "relase.hieght=1m:2m:1m" --format json
 refused "--vary a misspelt middle part" "did you mean 'payload.drag.cd'?" \
   -- sweep "$good" --vary "payload.dragg.cd=0.5:1:0.5" --format json
-refused "limit --find items[3].mass names --find" "plumb: <command line>: --find items[3].mass: " \
-  "find payload.mass instead" -- limit "$inv" --find "items[3].mass" --energy-max 40J --format json
 mkdir "$tmp/sheet-out"
 [ -x "$(dirname "$bin")/plumb-sheet" ] &&  # built with cairo and pango
 "$bin" sheet - --samples 300 -o "$tmp/sheet-out/x.pdf" <"$good" >"$tmp/stdout" 2>"$tmp/stderr"

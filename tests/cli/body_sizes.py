@@ -138,7 +138,7 @@ rc_si, si, _ = plumb(*args)
 rc_us, us, _ = plumb(*args, "--units", "us")
 shim_us = flat(us.split("shim plate")[1].split("Profile")[0]) if "shim plate" in us else ""
 shim_si = flat(si.split("shim plate")[1].split("Profile")[0]) if "shim plate" in si else ""
-m = re.search(r"payload\.shape\.thickness = ([\d.]+) in \(([\d.]+) m, the unit it was given in\)",
+m = re.search(r"items\[\d+\]\.shape\.thickness = ([\d.]+) in \(([\d.]+) m, the unit it was given in\)",
               shim_us)
 check(rc_us == 0 and m and abs(float(m.group(1)) * INCH / float(m.group(2)) - 1) < 2e-6,
       f"limit US: the thickness in inches and in the metres it was given in:\n{shim_us}")

@@ -245,8 +245,14 @@ e3 = json.loads(f)["items"][2]["impact"]["energy_j"] if rc2 == 0 else 1e9
 check(rc == 0 and items[0]["outcome"] == "not applicable" and "no descent device" in
       items[0]["explanation"] and items[2]["outcome"] == "found" and e3 <= 80.0,
       f"kit limit on the bag's own canopy: {d3} m gives {e3} J ({err.strip()})")
-rc, out, err = plumb("limit", BAG, "--find", "items[3].descent.diameter", "--energy-max", "80J")
-check(rc == 2 and "find descent.diameter instead" in err, f"items[3].descent: {err.strip()}")
+# asked of item 3 alone (items[3].descent.X), the same answer, and only it
+rc, out, err = plumb("limit", BAG, "--find", "items[3].descent.diameter", "--energy-max", "80J",
+                     "--format", "json")
+one = json.loads(out)["limit"]["items"] if rc == 0 else []
+check(rc == 0 and len(one) == 1 and one[0]["item_number"] == 3 and
+      one[0]["set_key"] == "items[3].descent.diameter" and
+      abs(one[0].get("value_si", 0.0) - d3) <= 1e-9 * d3,
+      f"items[3].descent: {one} ({err.strip()})")
 CLIMB = os.path.join(HERE, "profiles", "climbing-drone.yaml")
 for args in ([CLIMB, "--find", "descent.diameter", "--energy-max", "us-part107-cat3",
               "--set", "wind.speed=0 m/s"],

@@ -185,6 +185,31 @@ items = json.load(open(sys.argv[2]))["limit"]["items"]
 assert [(i["item_number"], i["name"]) for i in items] == [(1, "pin punch"), (3, "glove")], items
 EOF
 then ok; else bad "limit after items[2]=~: headings '$heads' ($(cat "$tmp/err"))"; fi
+# limit --find items[N].KEY (or items[NAME].KEY) answers that item only,
+# under the key `plumb fall --set` takes; fed back (the CSV value, rounded
+# to the safe side), the glove's impact energy meets the 20 J limit
+"$bin" limit "$inv" --find 'items[3].mass' --energy-max 20J --format csv >"$tmp/l3.csv" 2>"$tmp/err"
+"$bin" limit "$inv" --find 'items[glove].mass' --energy-max 20J --format json >"$tmp/l3.json" 2>>"$tmp/err"
+"$bin" limit "$inv" --find 'items[3].mass' --energy-max 20J >"$tmp/l3.txt" 2>>"$tmp/err"
+"$bin" limit "$inv" --find payload.mass --energy-max 20J --format csv >"$tmp/lall.csv" 2>>"$tmp/err"
+v=$("$py" -c 'import csv,sys; r=list(csv.DictReader(l for l in open(sys.argv[1]) if not l.startswith("#"))); print(r[0]["value"])' "$tmp/l3.csv" 2>>"$tmp/err")
+"$bin" fall "$inv" --set "items[3].mass=$v kg" --format json >"$tmp/f3.json" 2>>"$tmp/err"
+if grep -q "^  the value of items\[3\]\.mass at which" "$tmp/l3.txt" &&
+   grep -q "^  items\[3\]\.mass = " "$tmp/l3.txt" && ! grep -q "^Item [12] " "$tmp/l3.txt" &&
+   "$py" - "$tmp/l3.csv" "$tmp/l3.json" "$tmp/lall.csv" "$tmp/f3.json" <<'EOF'
+import csv, json, sys
+def rows(p):
+    return list(csv.DictReader(l for l in open(p) if not l.startswith("#")))
+one = rows(sys.argv[1])
+assert [(r["item_number"], r["key"], r["outcome"]) for r in one] == [("3", "items[3].mass", "found")], one
+items = json.load(open(sys.argv[2]))["limit"]["items"]
+assert [(i["item_number"], i["name"], i["set_key"]) for i in items] == [(3, "glove", "items[3].mass")], items
+assert abs(items[0]["value_si"] - float(one[0]["value_si"])) <= 1e-9 * items[0]["value_si"]
+assert [r["key"] for r in rows(sys.argv[3])] == ["items[1].mass", "items[2].mass", "items[3].mass"]
+glove = [i for i in json.load(open(sys.argv[4]))["items"] if i["name"] == "glove"][0]
+assert 19.99 <= glove["impact"]["energy_j"] <= 20.0, glove["impact"]["energy_j"]
+EOF
+then ok; else bad "limit --find items[3].mass: $(cat "$tmp/err") $(cat "$tmp/l3.txt")"; fi
 "$bin" fall "$inv" --set 'items[2]=~' --set 'items[3].mass=-1 kg' >"$tmp/out" 2>"$tmp/err"
 rc=$?
 if [ $rc -eq 2 ] && grep -q "^plumb: --set:2:15: items\[3\]\.mass: must be > 0 kg" "$tmp/err"; then ok
