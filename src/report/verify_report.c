@@ -13,17 +13,25 @@
 #include "report/common.h"
 
 /* "1.2250 kg/m^3": a figure to the digits that tell it from its
- * neighbour, with its unit. */
-static const char *figure(writer *w, double x, const char *unit, int digits)
+ * neighbour, with its unit; with `zeros`, trailing zeros kept, so that
+ * figures side by side show the same number of digits. */
+static const char *figure_as(writer *w, double x, const char *unit, int digits, int zeros)
 {
     char *b = slot(w);
-    snprintf(b, NUMBUF, "%.*g%s%s", digits, x, unit[0] ? NBSP : "", unit_shown(w, unit));
+    snprintf(b, NUMBUF, zeros ? "%#.*g%s%s" : "%.*g%s%s", digits, x, unit[0] ? NBSP : "",
+             unit_shown(w, unit));
     return b;
 }
 
-/* Significant digits of a US customary figure in the text: enough to
- * read, no more than the coarsest factor converting to it holds (NIST SP
- * 811's conventional inch of mercury, 3.386 389 E+03 Pa, 7 figures). */
+static const char *figure(writer *w, double x, const char *unit, int digits)
+{
+    return figure_as(w, x, unit, digits, 0);
+}
+
+/* Significant digits of a US customary figure in the text, zeros kept:
+ * enough to read, no more than the coarsest factor converting to it holds
+ * (NIST SP 811's conventional inch of mercury, 3.386 389 E+03 Pa, 7
+ * figures). */
 #define US_SIG 7
 
 /* The US customary value of a check's SI figure x in unit `unit`: 1 with
@@ -66,7 +74,7 @@ static const char *us_bracket(writer *w, const char *unit, double x, char *buf, 
     shown us;
     buf[0] = '\0';
     if (w->us && us_figure(w, unit, x, &us))
-        snprintf(buf, size, " [%s]", figure(w, us.x, us.unit, US_SIG));
+        snprintf(buf, size, " [%s]", figure_as(w, us.x, us.unit, US_SIG, 1));
     return buf;
 }
 

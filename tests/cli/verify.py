@@ -143,7 +143,7 @@ for name, unit, si in (("air temperature at 1000 m", "K", 281.651),
                        ("air density at 0 m", "kg/m^3", 1.225),
                        ("normal gravity at the pole", "m/s^2", 9.8321849378)):
     us_unit, conv, _ = US[unit]
-    want = f"[{conv(si):.7g} {us_unit}]"
+    want = f"[{conv(si):#.7g} {us_unit}]"
     check(rc == 0 and want in flat, f"verify --units us text: {name} published {si} {unit} "
           f"shows {want} (7 figures)")
 check(rc == 0 and "verify: 18 passed, 0 failed" in out and
