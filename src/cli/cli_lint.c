@@ -19,7 +19,8 @@ static plumb_status lint_load(const cli_args *a, const char *path, const plumb_u
     *prof = NULL;
     *n_errs = 0;
     if (strcmp(path, "-") != 0)
-        return plumb_profile_lint(path, units, a->sets, a->n_sets, errs, CLI_LINT_MAX, n_errs, prof);
+        return plumb_profile_lint(path, units, a->sets, a->n_sets, errs, CLI_LINT_MAX, n_errs,
+                                  prof);
     char *buf;
     size_t len;
     plumb_status st = cli_read_stdin(PLUMB_PROFILE_MAX_BYTES, &buf, &len, &errs[0]);

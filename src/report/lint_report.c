@@ -66,13 +66,31 @@ size_t plumb_report_diag_message(const plumb_diag *error, plumb_unit_system unit
     return n < 0 ? 0 : (size_t)n;
 }
 
+/* 1 when s is UTF-8 by its byte patterns (lead byte, then as many
+ * continuation bytes as it announces). */
+static int utf8_ok(const char *s)
+{
+    for (const unsigned char *p = (const unsigned char *)s; *p;) {
+        int more = *p < 0x80          ? 0
+                   : (*p >> 5) == 6   ? 1
+                   : (*p >> 4) == 14  ? 2
+                   : (*p >> 3) == 30  ? 3
+                                      : -1;
+        if (more < 0)
+            return 0;
+        for (p++; more > 0; more--, p++)
+            if ((*p & 0xC0) != 0x80)
+                return 0;
+    }
+    return 1;
+}
+
 /* A string for JSON; one that is not UTF-8 (a file name of other bytes)
- * with '?' for each byte above ASCII rather than no report. */
+ * with '?' for each byte above ASCII, rather than no report. */
 static json_t *jtext_safe(jctx *j, const char *s)
 {
-    json_t *v = json_string(s ? s : "");
-    if (v)
-        return v;
+    if (utf8_ok(s))
+        return jstr(j, s);
     char *c = strdup(s);
     if (!c) {
         j->nomem = 1;
@@ -81,7 +99,7 @@ static json_t *jtext_safe(jctx *j, const char *s)
     for (char *p = c; *p; p++)
         if ((unsigned char)*p >= 0x80)
             *p = '?';
-    v = jstr(j, c);
+    json_t *v = jstr(j, c);
     free(c);
     return v;
 }

@@ -116,6 +116,15 @@ rc, out, _ = plumb("lint", GOOD, missing, "--format", "json")
 e = json.loads(out)["profiles"][1] if out.startswith("{") else {}
 check(rc == 2 and e.get("ok") is False and e["errors"][0]["file"] == missing and
       e["errors"][0]["line"] is None, f"an unreadable profile is listed, line null: {e}")
+# a file name that is not UTF-8 still gives JSON (RFC 8259 requires UTF-8):
+# '?' for its bytes above ASCII
+odd = os.path.join(tmp, os.fsdecode(b"b\xffd.yaml"))
+shutil.copy(BAD[0], odd)
+rc, out, _ = plumb("lint", odd, "--format", "json")
+e = json.loads(out)["profiles"][0] if out.startswith("{") else {}
+check(rc == 2 and e.get("name") == os.path.join(tmp, "b?d.yaml"),
+      f"a name that is not UTF-8 is written with '?': {e.get('name')!r}")
+os.remove(odd)
 # standard input is named <stdin>
 with open(BAD[0], encoding="utf-8") as f:
     rc, out, _ = plumb("lint", "-", "--format", "json", stdin=f)
