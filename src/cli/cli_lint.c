@@ -38,7 +38,7 @@ static plumb_status lint_load(const cli_args *a, const char *path, const plumb_u
  * text prints its errors (with --units us, a range's US limits). Returns
  * its exit status. The criteria set is loaded on first need into *crit. */
 int cli_lint_one(const cli_args *a, const plumb_units *units, const char *path,
-                    plumb_criteria **crit, plumb_diag *errs, plumb_lint_entry *e)
+                 plumb_criteria **crit, plumb_diag *errs, plumb_lint_entry *e)
 {
     size_t n = 0;
     plumb_diag_clear(&errs[0]);
