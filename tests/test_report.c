@@ -1211,6 +1211,109 @@ static void test_a_failed_verify_check_is_reported_as_failed(void **state)
     free(buf);
 }
 
+/* ---- plumb lint's report ------------------------------------------------ */
+
+static plumb_diag range_error(const char *key, const char *message)
+{
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    d.status = PLUMB_ERANGE;
+    snprintf(d.file, sizeof d.file, "a.yaml");
+    d.line = 8;
+    d.col = 62;
+    snprintf(d.key, sizeof d.key, "%s", key);
+    snprintf(d.message, sizeof d.message, "%s", message);
+    return d;
+}
+
+/* In US units a value outside its key's range gets the range again in US
+ * units: 150 K .. 400 K is -189.67 degF .. 260.33 degF (t/degF = 1.8 T/K -
+ * 459.67, NIST SP 811, 2008, B.8), the sea-level speed of sound 340.294
+ * m/s (U.S. Standard Atmosphere 1976, Table I, transcribed) is 1116.450 ft/s
+ * by the international foot 0.3048 m, shown rounded down to 1116.45; > 0 kg
+ * is > 0 lb. Another message of the key, an angle and SI get nothing. */
+static void test_a_range_error_gets_its_limits_in_us_units(void **state)
+{
+    (void)state;
+    char buf[PLUMB_DIAG_MSG + 200];
+    plumb_diag t = range_error("atmosphere.temperature",
+                               "must be 150 K .. 400 K (-123 degC .. 127 degC: air on Earth; was "
+                               "the unit meant degC or degF?), found '20 K'");
+    size_t n = plumb_report_diag_message(&t, PLUMB_UNITS_US, buf, sizeof buf);
+    assert_int_equal(n, strlen(buf));
+    assert_non_null(strstr(buf, "found '20 K' [US: -189.67 \u00b0F .. 260.33 \u00b0F]"));
+    plumb_report_diag_message(&t, PLUMB_UNITS_SI, buf, sizeof buf);
+    assert_string_equal(buf, t.message);
+    plumb_diag v = range_error("release.velocity.speed",
+                               "must be 0 m/s .. 340.294 m/s (below the speed of sound at sea "
+                               "level: the drag model is for subsonic air speeds), found '1e6 m/s'");
+    plumb_report_diag_message(&v, PLUMB_UNITS_US, buf, sizeof buf);
+    assert_non_null(strstr(buf, "[US: 0 ft/s .. 1116.45 ft/s]"));
+    plumb_diag m = range_error("items[3].mass", "must be > 0 kg, found '-0.68 kg'");
+    plumb_report_diag_message(&m, PLUMB_UNITS_US, buf, sizeof buf);
+    assert_string_equal(buf, "must be > 0 kg, found '-0.68 kg' [US: > 0 lb]");
+    plumb_diag other = range_error("descent.deploy.below",
+                                   "must be below the release height 27.4 m, found '40 m'");
+    plumb_report_diag_message(&other, PLUMB_UNITS_US, buf, sizeof buf);
+    assert_string_equal(buf, other.message);
+    plumb_diag angle = range_error("site.latitude", "must be -90 deg .. 90 deg, found '95 deg'");
+    plumb_report_diag_message(&angle, PLUMB_UNITS_US, buf, sizeof buf);
+    assert_string_equal(buf, angle.message);
+    assert_int_equal(plumb_report_diag_message(NULL, PLUMB_UNITS_US, NULL, 0), 0);
+}
+
+/* The lint report: JSON gives each error's parts apart (null for a line
+ * not known) and the cautions; CSV a row per error and per good profile
+ * after the cautions; an entry without its name is refused, nothing
+ * written. */
+static void test_a_lint_report_gives_each_errors_parts_apart(void **state)
+{
+    (void)state;
+    plumb_diag e[2] = {range_error("payload.mass", "must be > 0 kg, found '-2 kg'"),
+                       range_error("release.height", "a made-up message")};
+    e[1].line = e[1].col = 0;
+    plumb_lint_entry ent[2] = {{"good.yaml", NULL, 0, 1}, {"a.yaml", e, 2, 0}};
+    const char *want[3] = {"\"line\": null", "# a.yaml: the first 2 errors are listed",
+                           "good.yaml: ok\n"};
+    for (int f = 0; f < 3; f++) {
+        char *buf = NULL;
+        size_t len = 0;
+        FILE *out = open_memstream(&buf, &len);
+        plumb_report_options opt = {f == 0 ? PLUMB_FORMAT_JSON
+                                    : f == 1 ? PLUMB_FORMAT_CSV : PLUMB_FORMAT_TEXT,
+                                    PLUMB_UNITS_US, "9.9.9"};
+        plumb_diag diag;
+        plumb_diag_clear(&diag);
+        assert_int_equal(plumb_report_lint(out, &opt, ent, 2, &diag), PLUMB_OK);
+        fclose(out);
+        assert_non_null(strstr(buf, want[f]));
+        if (f == 0) {
+            assert_non_null(strstr(buf, "\"column\": 62"));
+            assert_non_null(strstr(buf, "\"message\": \"must be > 0 kg, found '-2 kg'\""));
+            assert_non_null(strstr(buf, "\"failed\": 1"));
+            assert_non_null(strstr(buf, "\"cautions\""));
+        } else if (f == 1) {
+            assert_non_null(strstr(buf, "good.yaml,true,,,,,\n"));
+            assert_non_null(strstr(buf, "a.yaml,false,a.yaml,8,62,payload.mass,\"must be > 0 kg, "
+                                        "found '-2 kg' [US: > 0 lb]\"\n"));
+            assert_non_null(strstr(buf, "a.yaml,false,a.yaml,,,release.height,"));
+        } else {
+            assert_null(strstr(buf, "a.yaml"));
+        }
+        free(buf);
+    }
+    ent[0].profile = NULL;
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *out = open_memstream(&buf, &len);
+    plumb_diag diag;
+    plumb_diag_clear(&diag);
+    assert_int_equal(plumb_report_lint(out, NULL, ent, 2, &diag), PLUMB_EINVAL);
+    fclose(out);
+    assert_int_equal(len, 0);
+    free(buf);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -1218,6 +1321,8 @@ int main(void)
         cmocka_unit_test(test_cautions_appear_in_text_json_and_csv_fall_reports),
         cmocka_unit_test(test_cautions_appear_in_air_reports_of_every_format),
         cmocka_unit_test(test_a_failed_verify_check_is_reported_as_failed),
+        cmocka_unit_test(test_a_range_error_gets_its_limits_in_us_units),
+        cmocka_unit_test(test_a_lint_report_gives_each_errors_parts_apart),
         cmocka_unit_test(test_non_finite_impact_speed_is_refused_with_nothing_written),
         cmocka_unit_test(test_infinite_energy_ratio_is_refused_with_nothing_written),
         cmocka_unit_test(test_non_finite_air_density_is_refused_with_nothing_written),

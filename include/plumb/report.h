@@ -80,6 +80,41 @@ plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
 plumb_status plumb_report_verify(FILE *out, const plumb_report_options *opt,
                                  const plumb_check *checks, size_t n, plumb_diag *diag);
 
+/* One profile of a lint report (`plumb lint`): its name and the errors
+ * found in it (plumb_profile_lint, then the air and the criteria). */
+typedef struct plumb_lint_entry {
+    const char *profile;        /* its name as given; "<stdin>" for standard input */
+    const plumb_diag *errors;   /* borrowed: n_errors diagnostics, in file order */
+    size_t n_errors;            /* 0: the profile is good */
+    int listed_all;             /* 1: every error found is listed; 0: the list stopped
+                                   at the most the checker was asked for, so there
+                                   may be more */
+} plumb_lint_entry;
+
+/* Writes a lint report of n profiles. Text: "PROFILE: ok" for each good
+ * profile, nothing else (the command line prints the errors on standard
+ * error). JSON: plumb_version, "profiles" (each "name", "ok" and
+ * "errors", each error's "file", "line", "column", "key" and "message"
+ * apart, null when not known; "listed_all"), "passed" and "failed" (good
+ * and bad profiles) and "cautions"; messages as the library gives them,
+ * SI. CSV: the cautions and any list cut short as "# " lines, then one row
+ * per error (profile,ok,file,line,column,key,message) and one per good
+ * profile (its error columns empty); messages as
+ * plumb_report_diag_message gives them in the report's units.
+ * PLUMB_EINVAL for a NULL argument, PLUMB_ENOMEM, PLUMB_EWRITE. */
+plumb_status plumb_report_lint(FILE *out, const plumb_report_options *opt,
+                               const plumb_lint_entry *entries, size_t n, plumb_diag *diag);
+
+/* An error's message as a report in `units` gives it: the message itself;
+ * in US units, for a value outside the range of its key (the profile
+ * keys' table, README "Profile keys"), the range is given again in US
+ * customary units after it ("must be > 0 m^2, found '-0.0217 m^2' [US:
+ * > 0 ft²]"), each limit rounded toward the inside of the range. Writes
+ * at most size bytes to buf ('\0'-terminated when size > 0) and returns
+ * the length of the whole, as snprintf does. Can't fail. */
+size_t plumb_report_diag_message(const plumb_diag *error, plumb_unit_system units, char *buf,
+                                 size_t size);
+
 /* The same for rows with no temperature offset. */
 plumb_status plumb_report_air(FILE *out, const plumb_report_options *opt,
                               const plumb_air *rows, size_t n_rows, plumb_diag *diag);

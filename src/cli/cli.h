@@ -271,6 +271,19 @@ plumb_status cli_render(plumb_status (*make)(FILE *out, const void *ctx, plumb_d
 int cli_emit(const cli_args *a, plumb_status (*make)(FILE *out, const void *ctx, plumb_diag *diag),
              const void *ctx);
 
+/* `plumb lint` (cli_lint.c): at most this many errors are listed per
+ * profile. */
+enum { CLI_LINT_MAX = 16 };
+
+/* Checks the profile `path` ("-": standard input) into *e, its errors in
+ * errs (CLI_LINT_MAX of the caller's, which e points to); in text, or for
+ * an error that is not the input's, prints them on standard error (with
+ * --units us, a range's US limits after the message). The criteria set is
+ * loaded on first need into *crit (the caller frees it). Returns the
+ * profile's exit status: 0 good, 2 bad, 3 a check that failed. */
+int cli_lint_one(const cli_args *a, const plumb_units *units, const char *path,
+                 plumb_criteria **crit, plumb_diag *errs, plumb_lint_entry *e);
+
 /* The subcommands (cmd_<name>.c). */
 int cmd_fall(int argc, char **argv);
 int cmd_air(int argc, char **argv);

@@ -1,8 +1,9 @@
 /*
  * cmd_lint.c - `plumb lint PROFILE...`: checks profiles as `plumb fall`
- * reads them (YAML, keys, units and ranges by plumb_profile_load, the
- * atmosphere by plumb_atmosphere_alloc, the named criteria by
- * plumb_item_judge) without computing a fall.
+ * reads them (cli_lint.c: YAML, keys, units and ranges by
+ * plumb_profile_lint, the atmosphere, the named criteria) without
+ * computing a fall, and reports them all in one report
+ * (plumb_report_lint).
  */
 #include <stdio.h>
 #include <stdlib.h>
@@ -13,115 +14,95 @@
 static const char usage[] =
     "Usage: plumb lint PROFILE... [OPTIONS]\n"
     "Checks each profile as `plumb fall` reads it - YAML, keys, units, ranges, the\n"
-    "atmosphere and the named criteria - without computing a fall. Prints\n"
-    "\"PROFILE: ok\" for each good profile; each bad one gets its located errors on\n"
-    "standard error, every one found in file order, and the exit status is 2. A\n"
-    "PROFILE '-' is read from standard input (once).\n";
+    "atmosphere and the named criteria - without computing a fall. Text prints\n"
+    "\"PROFILE: ok\" for each good profile (not with --quiet); each bad one gets its\n"
+    "located errors on standard error, every one found in file order (up to 16).\n"
+    "JSON and CSV are one report of every profile, its errors in it (file, line,\n"
+    "column, key, message apart) with the cautions; on standard error only a count\n"
+    "of the bad ones (not with --quiet). The exit status is 2 when any profile is\n"
+    "bad, yet the report is written all the same, to standard output or -o FILE\n"
+    "(atomically): the errors found are what lint reports, not a failure to\n"
+    "report. A usage error writes nothing; a failed check (out of memory) exits 3\n"
+    "and writes nothing.\n"
+    "--units us: a value outside its key's range gets the range again in US\n"
+    "customary units after the message (\"[US: > 0 lb]\"), in text and CSV; nothing\n"
+    "else changes (profiles are read in the units they are written in; JSON is SI).\n"
+    "A PROFILE '-' is read from standard input (once).\n";
 
-/* At most this many errors are listed per profile. */
-enum { LINT_MAX = 16 };
+typedef struct lint_job {
+    plumb_report_options opt;
+    const plumb_lint_entry *e;
+    size_t n;
+} lint_job;
 
-/* Loads the profile for the checks after it, or lists the errors of the
- * file (plumb_profile_lint) when it does not load; one load either way. */
-static plumb_status lint_load(const cli_args *a, const char *path, const plumb_units *units,
-                              plumb_profile **prof, plumb_diag *errs, size_t *n_errs)
+static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
 {
-    *prof = NULL;
-    *n_errs = 0;
-    if (strcmp(path, "-") != 0)
-        return plumb_profile_lint(path, units, a->sets, a->n_sets, errs, LINT_MAX, n_errs, prof);
-    char *buf;
-    size_t len;
-    plumb_status st = cli_read_stdin(PLUMB_PROFILE_MAX_BYTES, &buf, &len, &errs[0]);
-    if (st != PLUMB_OK) {
-        *n_errs = 1;
-        return st;
-    }
-    st = plumb_profile_lint_buffer(CLI_STDIN_NAME, buf, len, units, a->sets, a->n_sets, errs,
-                                   LINT_MAX, n_errs, prof);
-    free(buf);
-    return st;
+    const lint_job *job = ctx;
+    return plumb_report_lint(out, &job->opt, job->e, job->n, diag);
 }
 
-/* Checks one profile; prints every error the loader finds in it, in file
- * order, or its one error of the air or the criteria, and returns the exit
- * status. The criteria set is loaded on first need into *crit. */
-static int lint_one(const cli_args *a, const plumb_units *units, const char *path,
-                    plumb_criteria **crit)
+/* Lints every profile of a into one report; returns the exit status. */
+static int lint_all(const cli_args *a, plumb_units *units)
 {
-    plumb_diag errs[LINT_MAX];
-    size_t n = 0;
-    plumb_diag_clear(&errs[0]);
-    plumb_profile *prof = NULL;
-    plumb_atmosphere *atm = NULL;
-    plumb_status st = lint_load(a, path, units, &prof, errs, &n);
-    if (st == PLUMB_OK)
-        st = plumb_atmosphere_alloc(plumb_profile_atmosphere(prof), &atm, &errs[0]);
-    if (st == PLUMB_OK && plumb_profile_criteria_count(prof) > 0) {
-        char dir[CLI_PATH_MAX];
-        if (!*crit)
-            st = plumb_criteria_load_dir(cli_criteria_dir(a, dir, sizeof dir), units, crit,
-                                         &errs[0]);
-        if (st == PLUMB_OK)
-            st = plumb_profile_criteria_check(prof, *crit, &errs[0]);
-    }
-    plumb_atmosphere_free(atm);
-    plumb_profile_free(prof);
-    const char *name = strcmp(path, "-") == 0 ? CLI_STDIN_NAME : path;
-    if (st == PLUMB_OK) {
-        if (!a->quiet)
-            printf("%s: ok\n", name);
-        return CLI_EXIT_OK;
-    }
+    plumb_diag *errs = calloc(a->n_args * CLI_LINT_MAX, sizeof *errs);
+    plumb_lint_entry *e = calloc(a->n_args, sizeof *e);
+    plumb_criteria *crit = NULL;
     int rc = CLI_EXIT_OK;
-    for (size_t i = 0; i < (n ? n : 1); i++) {
-        if (errs[i].file[0] == '\0')
-            snprintf(errs[i].file, sizeof errs[i].file, "%s", name);
-        int one = cli_fail(&errs[i]);
-        rc = one > rc ? one : rc;
+    size_t bad = 0;
+    if (!errs || !e) {
+        fprintf(stderr, "plumb: out of memory\n");
+        rc = CLI_EXIT_FAILED;
     }
+    for (size_t i = 0; rc != CLI_EXIT_FAILED && i < a->n_args; i++) {
+        int one = cli_lint_one(a, units, a->args[i], &crit, errs + i * CLI_LINT_MAX, &e[i]);
+        rc = one > rc ? one : rc;
+        bad += e[i].n_errors > 0;
+    }
+    plumb_criteria_free(crit);
+    if (rc != CLI_EXIT_FAILED && !(a->quiet && !a->output && a->format == PLUMB_FORMAT_TEXT)) {
+        lint_job job = {cli_report_options(a), e, a->n_args};
+        int wrc = cli_emit(a, write_report, &job);
+        rc = wrc > rc ? wrc : rc;
+    }
+    if (rc == CLI_EXIT_INPUT && a->format != PLUMB_FORMAT_TEXT && !a->quiet)
+        fprintf(stderr, "plumb lint: errors in %zu of %zu profiles, listed in the report\n",
+                bad, a->n_args);
+    free(e);
+    free(errs);
     return rc;
 }
 
 int cmd_lint(int argc, char **argv)
 {
     cli_args a;
-    int rc = cli_parse(argc, argv, CLI_SET | CLI_QUIET | CLI_CRITERIA, NULL, 0, usage, &a);
+    int rc = cli_parse(argc, argv,
+                       CLI_SET | CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET | CLI_CRITERIA,
+                       NULL, 0, usage, &a);
     if (rc != CLI_GO_ON)
         return rc;
-    if (a.n_args == 0) {
-        rc = cli_usage_error(a.cmd, "needs at least one PROFILE");
-        cli_args_free(&a);
-        return rc;
-    }
-    size_t n_stdin = 0;
-    for (size_t i = 0; i < a.n_args; i++)
+    size_t n_stdin = 0, same = a.n_args;
+    for (size_t i = 0; i < a.n_args; i++) {
         n_stdin += strcmp(a.args[i], "-") == 0;
-    if (n_stdin > 1) {
+        if (a.output && same == a.n_args && cli_same_file(a.output, a.args[i]))
+            same = i;
+    }
+    if (a.n_args == 0)
+        rc = cli_usage_error(a.cmd, "needs at least one PROFILE");
+    else if (n_stdin > 1)
         rc = cli_usage_error(a.cmd, "'-' (standard input) may be given once, found %zu times",
                              n_stdin);
+    else if (same < a.n_args)
+        rc = cli_usage_error(a.cmd, "-o %s would overwrite the profile", a.output);
+    if (rc != CLI_GO_ON) {
         cli_args_free(&a);
         return rc;
     }
     plumb_diag diag;
-    plumb_diag_clear(&diag);
     plumb_units *units = NULL;
-    plumb_criteria *crit = NULL;
-    if (plumb_units_alloc(&units, &diag) != PLUMB_OK) {
+    if (plumb_units_alloc(&units, &diag) != PLUMB_OK)
         rc = cli_fail(&diag);
-    } else {
-        rc = CLI_EXIT_OK;
-        for (size_t i = 0; i < a.n_args; i++) {
-            int one = lint_one(&a, units, a.args[i], &crit);
-            if (one > rc)
-                rc = one;
-        }
-        if (fflush(stdout) != 0) {
-            fprintf(stderr, "plumb: cannot write to standard output\n");
-            rc = CLI_EXIT_FAILED; /* not the user's input */
-        }
-    }
-    plumb_criteria_free(crit);
+    else
+        rc = lint_all(&a, units);
     plumb_units_free(units);
     cli_args_free(&a);
     return rc;

@@ -13,6 +13,11 @@ static const char usage[] =
     "WGS 84 normal gravity, Morrison's sphere drag, Pflanz's opening-force factor\n"
     "and the closed forms of a fall in constant air, each computed by plumb and\n"
     "compared with its source.\n"
+    "The checks are made and their values published in SI, and stay so: --units us\n"
+    "adds each computed and published figure's US customary value beside it, in\n"
+    "brackets in the text (7 significant figures), in the columns computed_us,\n"
+    "published_us and unit_us in CSV; a figure without a unit or in seconds has\n"
+    "none. JSON is always SI.\n"
     "Exit status: 0 every check passed, 1 a check failed, 2 usage error, 3 a check\n"
     "could not be computed.\n";
 
@@ -31,7 +36,7 @@ static plumb_status write_report(FILE *out, const void *ctx, plumb_diag *diag)
 int cmd_verify(int argc, char **argv)
 {
     cli_args a;
-    int rc = cli_parse(argc, argv, CLI_FORMAT | CLI_OUTPUT | CLI_QUIET, NULL, 0, usage, &a);
+    int rc = cli_parse(argc, argv, CLI_FORMAT | CLI_UNITS | CLI_OUTPUT | CLI_QUIET, NULL, 0, usage, &a);
     if (rc != CLI_GO_ON)
         return rc;
     if (a.n_args > 0) {

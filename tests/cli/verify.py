@@ -19,6 +19,13 @@ library's table:
     g0 = 9.80665 m/s^2), recomputed here.
 Every format carries the cautions; text fits 80 columns; arguments are a
 usage error (exit 2).
+--units us adds US customary figures beside the SI ones (text in
+brackets, CSV in columns of their own; JSON stays SI, design.md section
+6). They are checked against conversions written out here from NIST SP
+811 (2008), Appendix B.8: the international foot 0.3048 m and pound
+0.45359237 kg (exact, 1959 agreement), standard gravity 9.80665 m/s^2
+(exact; the pound-force is the pound under it), t/degF = 1.8 T/K - 459.67,
+the conventional inch of mercury 3.386 389 E+03 Pa.
 Usage: verify.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import csv
@@ -92,6 +99,63 @@ rows = list(csv.DictReader(io.StringIO("".join(l + "\n" for l in out.splitlines(
                                                if not l.startswith("#")))))
 check(rc == 0 and out.startswith("# ") and len(rows) == len(PUBLISHED) and
       all(r["passed"] == "true" for r in rows), f"CSV: cautions and a row per check: {rows[:1]}")
+# --units us: the published values stay SI; the US figure beside each is
+# its conversion by NIST SP 811's factors (see the top of this file)
+FT, LB, G0_EXACT, INHG = 0.3048, 0.45359237, 9.80665, 3386.389
+US = {  # SI unit: (US unit, SI -> US, size of the figure for the tolerance)
+    "m/s": ("ft/s", lambda x: x / FT, abs),
+    "m/s^2": ("ft/s²", lambda x: x / FT, abs),
+    "kg/m^3": ("lb/ft³", lambda x: x * FT ** 3 / LB, abs),
+    "K": ("°F", lambda x: 1.8 * x - 459.67, lambda f: abs(f) + 459.67),
+    "Pa": ("inHg", lambda x: x / INHG, abs),
+    "Pa s": ("lbf·s/ft²", lambda x: x * FT ** 2 / (LB * G0_EXACT), abs),
+}
+rc, out, _ = plumb("verify", "--units", "us", "--format", "csv")
+urows = list(csv.DictReader(io.StringIO("".join(l + "\n" for l in out.splitlines()
+                                                if not l.startswith("#")))))
+check(rc == 0 and out.startswith("# ") and len(urows) == len(PUBLISHED),
+      f"verify --units us CSV: exit 0, cautions, a row per check ({rc}, {len(urows)})")
+for r in urows:
+    unit = r["unit"]
+    if unit in ("", "s"):
+        check(r["computed_us"] == r["published_us"] == r["unit_us"] == "",
+              f"{r['name']}: no US figure for a unit the same in both systems ({r})")
+        continue
+    want = US.get(unit)
+    if not want:
+        check(False, f"{r['name']}: unit {unit!r} has no US conversion in this test")
+        continue
+    us_unit, conv, size = want
+    ok = r["unit_us"] == us_unit
+    for col in ("computed", "published"):
+        si = float(r[col])  # 10 significant figures each, so 2e-9 relative
+        exp = conv(si)
+        ok = ok and abs(float(r[col + "_us"]) - exp) <= 2e-9 * size(exp)
+    check(ok, f"{r['name']}: US figures {r['computed_us']}, {r['published_us']} "
+          f"{r['unit_us']} are {r['computed']}, {r['published']} {unit} by NIST SP 811")
+    check(r["published"] == next(x for x in rows if x["name"] == r["name"])["published"],
+          f"{r['name']}: the published value stays SI under --units us")
+rc, out, _ = plumb("verify", "--units", "us")
+flat = " ".join(out.split())
+for name, unit, si in (("air temperature at 1000 m", "K", 281.651),
+                       ("air pressure at 2000 m", "Pa", 79501.0),
+                       ("air viscosity at 0 m", "Pa s", 1.7894e-5),
+                       ("air density at 0 m", "kg/m^3", 1.225),
+                       ("normal gravity at the pole", "m/s^2", 9.8321849378)):
+    us_unit, conv, _ = US[unit]
+    want = f"[{conv(si):#.7g} {us_unit}]"
+    check(rc == 0 and want in flat, f"verify --units us text: {name} published {si} {unit} "
+          f"shows {want} (7 figures)")
+check(rc == 0 and "verify: 18 passed, 0 failed" in out and
+      all(len(l) <= 80 for l in out.splitlines()) and "Cautions" in out,
+      "verify --units us text: the count, the cautions, 80 columns")
+check("[" not in flat.split("fall time of 30 m without drag")[1].split("ok ")[0],
+      "verify --units us text: seconds get no bracket")
+rc1, j_si, _ = plumb("verify", "--format", "json")
+rc2, j_us, _ = plumb("verify", "--format", "json", "--units", "us")
+check(rc1 == rc2 == 0 and json.loads(j_si) == json.loads(j_us),
+      "verify JSON is SI whatever --units says (design.md section 6)")
+
 rc, out, err = plumb("verify", "extra")
 check(rc == 2 and not out and "takes no arguments" in err, f"verify extra: usage error ({err})")
 

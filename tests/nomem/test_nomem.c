@@ -574,12 +574,38 @@ static void test_loading_units_criteria_and_profiles_fails_cleanly_at_every_allo
     study_done(&sc);
 }
 
+/* A lint report of two profiles (a good one, one with a range error and a
+ * name that is not UTF-8, which JSON writes with '?'). */
+typedef struct lint_result {
+    plumb_lint_entry e[2];
+    plumb_diag err;
+} lint_result;
+
+static plumb_status call_report_lint(void *ctx, plumb_diag *d)
+{
+    report_ctx *c = ctx;
+    const lint_result *r = c->result;
+    plumb_report_options o = {c->format, c->units, "9.9.9"};
+    return plumb_report_lint(fx.sink, &o, r->e, 2, d);
+}
+
 static void test_a_spec_built_in_code_and_a_bare_fall_fail_cleanly_at_every_allocation(void **s)
 {
     (void)s;
     each_allocation_fails_in_turn("plumb_study_open_spec", call_study_from_spec, NULL);
     each_allocation_fails_in_turn("plumb_trajectory_run with a path", call_trajectory, NULL);
     each_allocation_fails_in_turn("air table", call_air_table, NULL);
+    lint_result lr;
+    memset(&lr, 0, sizeof lr);
+    lr.err.status = PLUMB_ERANGE;
+    snprintf(lr.err.file, sizeof lr.err.file, "b\xff.yaml");
+    lr.err.line = 4;
+    lr.err.col = 9;
+    snprintf(lr.err.key, sizeof lr.err.key, "payload.mass");
+    snprintf(lr.err.message, sizeof lr.err.message, "must be > 0 kg, found '-2 kg'");
+    lr.e[0] = (plumb_lint_entry){"good.yaml", NULL, 0, 1};
+    lr.e[1] = (plumb_lint_entry){"b\xff.yaml", &lr.err, 1, 1};
+    every_report("lint report", call_report_lint, &lr);
 }
 
 static void test_every_fall_and_its_reports_fail_cleanly_at_every_allocation(void **s)
