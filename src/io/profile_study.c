@@ -2,7 +2,8 @@
  * profile_study.c - reading what a profile asks of the study: the
  * criteria to judge by, the uncertainty of each numeric key (a
  * distribution per key), the zone map (samples, seed, confidence,
- * target) and the job it is for.
+ * target) and the job it is for; and whether an item sinks at all in the
+ * study's air (plumbp_profile_item_sinks).
  */
 #include <limits.h>
 #include <math.h>
@@ -14,6 +15,7 @@
 #include "io/attitude.h"
 #include "io/profile_int.h"
 #include "io/units_int.h"
+#include "io/vary.h"
 
 plumb_status plumbp_profile_read_criteria(loader *L)
 {
@@ -362,3 +364,35 @@ plumb_status plumbp_profile_read_job(loader *L)
     return PLUMB_OK;
 }
 
+/* An object whose volume displaces at least its own mass of air at the
+ * strike level, the densest air of its path, floats or rises: it never
+ * lands, which is a fault of the inputs (a volume or a mass mistyped), not
+ * of the computation. Said with the key and where it was given. The weight
+ * of the displaced air, rho V g, is Archimedes' principle. */
+plumb_status plumbp_profile_item_sinks(const plumb_profile *p, size_t i,
+                                       const plumb_atmosphere *atm, plumb_diag *diag)
+{
+    const plumb_fall_spec *spec = plumb_profile_item(p, i);
+    if (!(spec->volume_m3 > 0.0))
+        return PLUMB_OK;
+    plumb_air air;
+    if (plumb_atmosphere_at(atm, spec->site_elevation_m, &air) != PLUMB_OK)
+        return PLUMB_OK; /* outside the air: the fall itself says so */
+    double displaced = air.rho_kg_m3 * spec->volume_m3;
+    if (displaced < spec->mass_kg)
+        return PLUMB_OK;
+    char key[PLUMB_DIAG_KEY];
+    if (plumb_profile_is_inventory(p))
+        snprintf(key, sizeof key, "items[%zu].volume", plumb_profile_item_number(p, i));
+    else
+        snprintf(key, sizeof key, "payload.volume");
+    int line = 0, col = 0;
+    const char *file = plumb_profile_key_origin(p, key, &line, &col);
+    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file ? file : plumb_profile_path(p), line,
+                          col, key,
+                          "a volume of %.4g m³ displaces %.4g kg of air at the strike level "
+                          "(%.4g kg/m³), at least the object's mass of %.4g kg: it would float "
+                          "or rise, never land. Check the mass and the volume (the object's own, "
+                          "for buoyancy; leave it out to neglect buoyancy)",
+                          spec->volume_m3, displaced, air.rho_kg_m3, spec->mass_kg);
+}

@@ -97,4 +97,12 @@ plumb_status plumbp_profile_variant(const plumb_profile *tmpl, const plumb_fall_
                                     const plumb_atm_spec *atm, plumb_profile **out,
                                     plumb_diag *diag);
 
+/* profile_study.c: PLUMB_ERANGE at item i's volume key when the air it
+ * displaces at the strike level (atm) weighs at least as much as the item:
+ * it would float or rise, never land, a fault of the inputs (the study
+ * refuses such a profile; a sweep row with such a value is that row's
+ * error). PLUMB_OK otherwise. */
+plumb_status plumbp_profile_item_sinks(const plumb_profile *p, size_t i,
+                                       const plumb_atmosphere *atm, plumb_diag *diag);
+
 #endif /* PLUMB_IO_VARY_H */

@@ -520,7 +520,15 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         plumb_item_report *it = &items[i];
         it->spec = plumb_profile_item(p, i);
         it->shape = plumb_profile_item_shape(p, i);
-        st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, rd);
+        st = plumbp_profile_item_sinks(p, i, s->atms[r], rd);
+        for (size_t a = 0; st != PLUMB_OK && a < s->n_axes; a++)
+            if (strcmp(rd->key, s->axes[a].key) == 0) {
+                /* the volume is the row's own value, from --vary */
+                plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
+                rd->line = rd->col = 0;
+            }
+        if (st == PLUMB_OK)
+            st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, rd);
         if (st == PLUMB_OK)
             st = plumb_item_judge(it, p, crit, s->atms[r], rd);
         if (st != PLUMB_OK && plumb_profile_is_inventory(p)) {

@@ -14,6 +14,7 @@
 #include "core/internal.h"
 #include "study/study_internal.h"
 #include "io/profile_int.h"
+#include "io/vary.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -49,38 +50,6 @@ void plumb_study_free(plumb_study *s)
     free(s);
 }
 
-/* An object whose volume displaces at least its own mass of air at the
- * strike level, the densest air of its path, floats or rises: it never
- * lands, which is a fault of the inputs (a volume or a mass mistyped), not
- * of the computation. Said with the key and where it was given. The weight
- * of the displaced air, rho V g, is Archimedes' principle. */
-static plumb_status check_sinks(const plumb_study *s, size_t i, plumb_diag *diag)
-{
-    const plumb_fall_spec *spec = plumb_profile_item(s->profile, i);
-    if (!(spec->volume_m3 > 0.0))
-        return PLUMB_OK;
-    plumb_air air;
-    if (plumb_atmosphere_at(s->atm, spec->site_elevation_m, &air) != PLUMB_OK)
-        return PLUMB_OK; /* outside the air: the fall itself says so */
-    double displaced = air.rho_kg_m3 * spec->volume_m3;
-    if (displaced < spec->mass_kg)
-        return PLUMB_OK;
-    char key[PLUMB_DIAG_KEY];
-    if (plumb_profile_is_inventory(s->profile))
-        snprintf(key, sizeof key, "items[%zu].volume", plumb_profile_item_number(s->profile, i));
-    else
-        snprintf(key, sizeof key, "payload.volume");
-    int line = 0, col = 0;
-    const char *file = plumb_profile_key_origin(s->profile, key, &line, &col);
-    return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, file ? file : plumb_profile_path(s->profile), line,
-                          col, key,
-                          "a volume of %.4g m³ displaces %.4g kg of air at the strike level "
-                          "(%.4g kg/m³), at least the object's mass of %.4g kg: it would float "
-                          "or rise, never land. Check the mass and the volume (the object's own, "
-                          "for buoyancy; leave it out to neglect buoyancy)",
-                          spec->volume_m3, displaced, air.rho_kg_m3, spec->mass_kg);
-}
-
 plumb_status plumb_study_open(const plumb_profile *profile, const plumb_criteria *criteria,
                               const plumb_units *units, const plumb_trajectory_options *opt,
                               plumb_study **out, plumb_diag *diag)
@@ -99,7 +68,7 @@ plumb_status plumb_study_open(const plumb_profile *profile, const plumb_criteria
     if (st == PLUMB_OK)
         st = plumb_atmosphere_alloc(plumb_profile_atmosphere(profile), &s->atm, diag);
     for (size_t i = 0; st == PLUMB_OK && i < s->n_items; i++)
-        st = check_sinks(s, i, diag);
+        st = plumbp_profile_item_sinks(s->profile, i, s->atm, diag);
     if (st == PLUMB_OK && (st = plumb_trajectory_alloc(opt, &s->traj)) != PLUMB_OK)
         st = plumbp_raise(diag, st, NULL, 0, 0, NULL, "cannot make the trajectory workspace: %s",
                           plumb_strerror(st));

@@ -274,6 +274,25 @@ rc=$?
 if [ $rc -eq 2 ] && grep -q "^plumb: --set:2:[0-9]*: items\[1\].volume: " "$tmp/err"; then ok
 else bad "a buoyant item by --set: exit $rc, $(cat "$tmp/err")"; fi
 
+# a sweep row whose value makes the item buoyant is that row's input error,
+# worded as plumb fall --set words it (0.05 m^3 x 1.225 kg/m^3 = 0.06125 kg
+# of air, more than the balloon's 0.012 kg)
+"$bin" sweep "$tmp/buoy.yaml" --set 'items[2].volume=0.001 m^3' \
+  --vary 'items[2].volume=0.001m^3:0.05m^3:0.049m^3' --format json \
+  >"$tmp/sw.json" 2>"$tmp/err"
+rc=$?
+"$bin" fall "$tmp/buoy.yaml" --set 'items[2].volume=0.05 m^3' >/dev/null 2>"$tmp/ferr"
+if [ $rc -eq 3 ] && "$py" - "$tmp/sw.json" "$tmp/ferr" <<'EOF'
+import json, sys
+rows = json.load(open(sys.argv[1]))["rows"]
+fall = open(sys.argv[2]).read().split("items[2].volume: ", 1)[1].strip()
+assert "items" in rows[0] and "error" in rows[1], rows
+e = rows[1]["error"]
+assert e["kind"] == "value out of range" and not e["computation_failed"], e
+assert e["message"] == "--vary: items[2].volume: item balloon: " + fall, (e["message"], fall)
+EOF
+then ok; else bad "a buoyant sweep row: exit $rc, $(cat "$tmp/err")"; fi
+
 # one key of an item past the end: a typo of N more often than a new item,
 # refused saying how many there are (the mast kit has 6)
 "$bin" fall profiles/demo/tower-kit.yaml --set 'items[7].mass=1 kg' >"$tmp/out" 2>"$tmp/err"
