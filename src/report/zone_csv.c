@@ -153,8 +153,9 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;
+        char quoted[PLUMB_CRIT_TEXT * 2];
         put(w, "# criterion %s: %s, limit %s, source: %s, status %s\n", cr->id, cr->name,
-            plumbp_csv_limit(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
+            plumbp_csv_limit(w, cr->energy_limit_j), plumbp_t_source(w, cr, quoted, sizeof quoted),
             cr->status[0] ? cr->status : "not given");
     }
     if (rep->inventory) {
