@@ -299,7 +299,10 @@ json_t *plumbp_zone_json_report(jctx *j, const plumb_report_options *opt,
         jset(j, kit, "landing_circle_m", lr->zone.landing_radius.hi_open
                                              ? json_null()
                                              : jreal(j, lr->zone.landing_circle_m));
-        jset(j, kit, "landing_circle_set_by", jstr(j, rep->items[rep->kit_landing_item].name));
+        /* an open circle is set by no item: null, as the text's and CSV's "open" */
+        jset(j, kit, "landing_circle_set_by", lr->zone.landing_radius.hi_open
+                                                  ? json_null()
+                                                  : jstr(j, rep->items[rep->kit_landing_item].name));
         jset(j, root, "kit", kit);
     }
     jset(j, root, "cautions", j_cautions(j));
