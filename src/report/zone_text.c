@@ -335,7 +335,7 @@ static void text_cloud(writer *w, const plumb_zone_stats *z)
 {
     put(w, "  mean impact     %s\n", t_point(w, z->mean_m));
     double b2 = z->bearing_deg + 180.0;
-    if (z->semi_major_m == 0.0) {
+    if (!zone_has_ellipse(z)) {
         put(w, "  95 %% ellipse    none: every sample lands on the same point\n");
         return;
     }
