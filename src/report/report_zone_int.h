@@ -28,7 +28,9 @@ extern const char *const plumbp_zone_energy_names[PLUMB_ZONE_ENERGIES];
  * has no bearing either. */
 static inline int zone_has_ellipse(const plumb_zone_stats *z)
 {
-    return z->semi_major_m > 0.0;
+    /* != rather than >: a non-finite axis is not "none" but a figure the
+     * writers refuse (PLUMB_ENUMERIC) */
+    return z->semi_major_m != 0.0;
 }
 
 /* Item i's number, as items[N] names it (plumb_zone_item). */
