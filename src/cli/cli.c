@@ -25,27 +25,32 @@ typedef struct cli_common {
     const char *arg;         /* its value in the help */
     const char *help;        /* lines split by '\n' */
     const char *pdf_help;    /* its help where the command writes a PDF (no --format), or NULL */
+    const char *geo_help;    /* its help where the command also writes GeoJSON, or NULL */
 } cli_common;
 
 static const cli_common common_options[] = {
     {"--set", NULL, CLI_SET, 1, "KEY=VALUE",
      "override a profile value, same keys and units as the YAML\n"
-     "(e.g. --set release.height=\"30 ft\"); repeatable", NULL},
-    {"--format", NULL, CLI_FORMAT, 1, "FORMAT", "text (default), json or csv", NULL},
+     "(e.g. --set release.height=\"30 ft\"); repeatable", NULL, NULL},
+    {"--format", NULL, CLI_FORMAT, 1, "FORMAT", "text (default), json or csv", NULL,
+     "text (default), json, csv or geojson (RFC 7946,\n"
+     "needs site.latitude and site.longitude)"},
     {"--units", NULL, CLI_UNITS, 1, "SYSTEM",
      "si (default) or us: display units of text and CSV\n(JSON is always SI)",
-     "si (default) or us: the units on the sheet (SI in\nbrackets beside US)"},
+     "si (default) or us: the units on the sheet (SI in\nbrackets beside US)", NULL},
     {"--output", "-o", CLI_OUTPUT, 1, "FILE",
      "write the report to FILE (atomically), not to standard\noutput; "
      "a .json, .csv or .txt name sets the format",
      "write the PDF to FILE (atomically); a name ending in\n.txt, .json, .csv or .geojson "
-     "is refused"},
-    {"--quiet", NULL, CLI_QUIET, 0, NULL, "no notices on standard error", NULL},
+     "is refused",
+     "write the report to FILE (atomically), not to standard\noutput; "
+     "a .json, .csv, .txt or .geojson name sets the\nformat"},
+    {"--quiet", NULL, CLI_QUIET, 0, NULL, "no notices on standard error", NULL, NULL},
     {"--criteria-dir", NULL, CLI_CRITERIA, 1, "DIR",
      "the criteria files (default: $PLUMB_CRITERIA_DIR, or the\n"
-     "installed or built-in profiles/criteria)", NULL},
-    {"--help", "-h", 0, 0, NULL, "this help", NULL},
-    {"--version", NULL, 0, 0, NULL, "the program version", NULL},
+     "installed or built-in profiles/criteria)", NULL, NULL},
+    {"--help", "-h", 0, 0, NULL, "this help", NULL, NULL},
+    {"--version", NULL, 0, 0, NULL, "the program version", NULL, NULL},
 };
 enum { N_COMMON = sizeof common_options / sizeof common_options[0] };
 
@@ -89,12 +94,10 @@ static void cli_print_options(unsigned accept, const cli_option *extra, size_t n
         const cli_common *c = &common_options[i];
         if (c->bit && !(accept & c->bit))
             continue;
-        const char *help = c->pdf_help && !(accept & CLI_FORMAT) ? c->pdf_help : c->help;
-        cli_print_option(c->alias, c->name, c->arg,
-                         c->bit == CLI_FORMAT && (accept & CLI_GEOJSON)
-                             ? "text (default), json, csv or geojson (RFC 7946,\n"
-                               "needs site.latitude and site.longitude)"
-                             : help);
+        const char *help = c->pdf_help && !(accept & CLI_FORMAT) ? c->pdf_help
+                           : c->geo_help && (accept & CLI_GEOJSON) ? c->geo_help
+                                                                    : c->help;
+        cli_print_option(c->alias, c->name, c->arg, help);
     }
 }
 

@@ -45,7 +45,9 @@ static json_t *j_impact(jctx *j, const plumb_fall_result *r)
     jset(j, o, "angle_deg", jreal(j, r->angle_deg));
     jset(j, o, "point_m", jvec(j, r->point_m, 2));
     jset(j, o, "drift_m", jreal(j, r->drift_m));
-    jset(j, o, "bearing_deg", jreal(j, r->bearing_deg));
+    /* design.md section 6 fixes the key as a number: 0 for a drift the text
+     * calls none (README.md, plumb fall), as the CSV leaves it empty */
+    jset(j, o, "bearing_deg", jreal(j, r->drift_m < DRIFT_SHOWN_M ? 0.0 : r->bearing_deg));
     jset(j, o, "velocity_m_s", jvec(j, r->velocity_m_s, 3));
     return o;
 }

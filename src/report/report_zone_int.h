@@ -20,6 +20,19 @@
 extern const char *const plumbp_zone_radius_names[PLUMB_ZONE_RADII];
 extern const char *const plumbp_zone_energy_names[PLUMB_ZONE_ENERGIES];
 
+/* A 95 % ellipse, and so a bearing of its major axis, only when the
+ * samples spread: when every sample lands on the same point the covariance
+ * is zero and its axis (atan2(0, 0): east) means nothing. The text then
+ * says "none", the CSV leaves the bearing empty and JSON gives null; the
+ * landing polygon's grid, laid along the same samples' principal axis,
+ * has no bearing either. */
+static inline int zone_has_ellipse(const plumb_zone_stats *z)
+{
+    /* != rather than >: a non-finite axis is not "none" but a figure the
+     * writers refuse (PLUMB_ENUMERIC) */
+    return z->semi_major_m != 0.0;
+}
+
 /* Item i's number, as items[N] names it (plumb_zone_item). */
 static inline size_t item_number(const plumb_zone_report *rep, size_t i)
 {

@@ -29,16 +29,25 @@ typedef struct csv_item {
     const char *name;
 } csv_item;
 
-static void csv_row(writer *w, const csv_item *item, const char *quantity, double value,
-                    const double *lo, const double *hi, const char *unit)
+/* A row; a NULL value, lo or hi leaves its cell empty (a figure that does
+ * not exist, such as the bearing of an ellipse that does not). */
+static void csv_row_of(writer *w, const csv_item *item, const char *quantity, const double *value,
+                       const double *lo, const double *hi, const char *unit)
 {
     put(w, "%zu,", item->number);
     csv_field(w, item->name);
     put(w, ",");
     csv_field(w, quantity);
-    put(w, ",%s,%s,%s,", csvnum(w, value), lo ? csvnum(w, *lo) : "", hi ? csvnum(w, *hi) : "");
+    put(w, ",%s,%s,%s,", value ? csvnum(w, *value) : "", lo ? csvnum(w, *lo) : "",
+        hi ? csvnum(w, *hi) : "");
     csv_field(w, unit);
     put(w, "\n");
+}
+
+static void csv_row(writer *w, const csv_item *item, const char *quantity, double value,
+                    const double *lo, const double *hi, const char *unit)
+{
+    csv_row_of(w, item, quantity, &value, lo, hi, unit);
 }
 
 /* A keep-clear figure (a radius, a landing circle, an area, a rule's
@@ -87,7 +96,8 @@ static void csv_stats(writer *w, const csv_item *item, const char *prefix, const
     csv_row(w, item, Q("mean_north"), z->mean_m[1] * L, NULL, NULL, lu);
     csv_row(w, item, Q("ellipse95_semi_major"), z->semi_major_m * L, NULL, NULL, lu);
     csv_row(w, item, Q("ellipse95_semi_minor"), z->semi_minor_m * L, NULL, NULL, lu);
-    csv_row(w, item, Q("ellipse95_bearing"), z->bearing_deg, NULL, NULL, "deg");
+    csv_row_of(w, item, Q("ellipse95_bearing"), zone_has_ellipse(z) ? &z->bearing_deg : NULL, NULL,
+               NULL, "deg");
     for (int i = 0; i < PLUMB_ZONE_RADII; i++) {
         char name[32];
         snprintf(name, sizeof name, "radius_%s", plumbp_zone_radius_names[i]);
@@ -153,8 +163,9 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
     /* the criteria of the exceedance rows, with their source and status */
     for (size_t k = 0; k < r0->zone.n_exceedance; k++) {
         const plumb_criterion *cr = r0->zone.exceedance[k].criterion;
+        char quoted[PLUMB_CRIT_TEXT * 2];
         put(w, "# criterion %s: %s, limit %s, source: %s, status %s\n", cr->id, cr->name,
-            plumbp_csv_limit(w, cr->energy_limit_j), cr->source[0] ? cr->source : "not given",
+            plumbp_csv_limit(w, cr->energy_limit_j), plumbp_t_source(w, cr, quoted, sizeof quoted),
             cr->status[0] ? cr->status : "not given");
     }
     if (rep->inventory) {

@@ -83,7 +83,7 @@ static json_t *j_landing(jctx *j, const plumb_zone_stats *z)
         jset(j, pg, "calibration_rank", jint(j, lr->rank));
         jset(j, pg, "calibration_inside", jint(j, lr->inside));
         jset(j, pg, "cell_m", jpair(j, lr->cell_m[0], lr->cell_m[1]));
-        jset(j, pg, "axis_bearing_deg", jreal(j, lr->axis_deg));
+        jset(j, pg, "axis_bearing_deg", zone_has_ellipse(z) ? jreal(j, lr->axis_deg) : json_null());
         jset(j, pg, "rings_m", j_rings(j, &lr->polygon));
         jset(j, pg, "scatter_m", jreal(j, lr->buffer_m));
         jset(j, pg, "buffered_area_m2", jreal(j, lr->buffered.area_m2));
@@ -106,7 +106,7 @@ static void j_stats_into(jctx *j, json_t *o, const plumb_zone_stats *z)
     json_t *el = jobj(j);
     jset(j, el, "semi_major_m", jreal(j, z->semi_major_m));
     jset(j, el, "semi_minor_m", jreal(j, z->semi_minor_m));
-    jset(j, el, "bearing_deg", jreal(j, z->bearing_deg));
+    jset(j, el, "bearing_deg", zone_has_ellipse(z) ? jreal(j, z->bearing_deg) : json_null());
     jset(j, el, "chi2", jreal(j, z->ellipse_chi2));
     jset(j, o, "ellipse95", el);
     json_t *rad = jobj(j), *rci = jobj(j);
@@ -299,7 +299,10 @@ json_t *plumbp_zone_json_report(jctx *j, const plumb_report_options *opt,
         jset(j, kit, "landing_circle_m", lr->zone.landing_radius.hi_open
                                              ? json_null()
                                              : jreal(j, lr->zone.landing_circle_m));
-        jset(j, kit, "landing_circle_set_by", jstr(j, rep->items[rep->kit_landing_item].name));
+        /* an open circle is set by no item: null, as the text's and CSV's "open" */
+        jset(j, kit, "landing_circle_set_by", lr->zone.landing_radius.hi_open
+                                                  ? json_null()
+                                                  : jstr(j, rep->items[rep->kit_landing_item].name));
         jset(j, root, "kit", kit);
     }
     jset(j, root, "cautions", j_cautions(j));

@@ -335,7 +335,7 @@ static void text_cloud(writer *w, const plumb_zone_stats *z)
 {
     put(w, "  mean impact     %s\n", t_point(w, z->mean_m));
     double b2 = z->bearing_deg + 180.0;
-    if (z->semi_major_m == 0.0) {
+    if (!zone_has_ellipse(z)) {
         put(w, "  95 %% ellipse    none: every sample lands on the same point\n");
         return;
     }
@@ -386,10 +386,11 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
         const plumb_criterion *c = x->criterion;
         put(w, "  %-9s %s – %s, %zu of %zu samples above %s\n", pct(w, x->probability),
             pct(w, x->lo), pct(w, x->hi), x->count, z->samples, plumbp_t_limit_energy(w, c->energy_limit_j));
-        char src[2 * PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 128];
+        char src[3 * PLUMB_CRIT_TEXT + PLUMB_CRIT_ID + 128], quoted[PLUMB_CRIT_TEXT * 2];
         const char *note = status_note_of(c->status);
+        /* the source's own figures, with their US values under --units us */
         snprintf(src, sizeof src, "%s [%s]; source: %s%s%s%s%s", c->name, c->id,
-                 c->source[0] ? c->source : "not given", note[0] ? " (" : "", note,
+                 plumbp_t_source(w, c, quoted, sizeof quoted), note[0] ? " (" : "", note,
                  note[0] ? ")" : "",
                  c->kind == PLUMB_CRIT_HELMET_TEST
                      ? " (the energy a helmet is tested to, not a safe limit)" : "");

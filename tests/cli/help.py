@@ -12,7 +12,9 @@ way round, every option the list names must be accepted. --help itself
 must go to standard output with status 0 (design.md section 6), and no
 line of plumb --help or of any command's --help is wider than 80
 characters (issue 9; 80 columns: the classic terminal width, VT100 /
-ECMA-48 default line; common practice, no source).
+ECMA-48 default line; common practice, no source). The help of -o names
+exactly the file-name extensions that set the command's format, as the
+command itself takes or refuses them.
 Usage: help.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import glob
@@ -85,6 +87,37 @@ for cmd in commands:
             check(opt in names, f"{cmd} accepts {opt} but its --help does not list it")
     for opt in sorted(names):
         check(accepted(cmd, opt), f"{cmd} --help lists {opt}, which {cmd} refuses")
+
+# -o's help names every extension that sets the format, and only those
+# (issue 9: zone's said ".json, .csv or .txt" but -o d.geojson writes
+# GeoJSON). Which a command takes is asked of the command itself: a name it
+# refuses is answered "-o NAME names ..." before anything is read or
+# written (the profile named does not exist; the directory neither).
+def o_help(help_text):
+    """The help of -o, its continuation lines joined."""
+    lines = help_text.split("\nOptions:\n", 1)[-1].splitlines()
+    for k, line in enumerate(lines):
+        if line.startswith("  -o, --output"):
+            more = lines[k + 1:]
+            end = next((n for n, l in enumerate(more) if not l.startswith(" " * 10)), len(more))
+            return " ".join([line] + more[:end])
+    return ""
+
+
+missing = os.path.join(ROOT, "no-such-dir-help", "none.yaml")
+for cmd in commands:
+    rc, out, err = plumb(cmd, "--help")
+    if "--format" not in listed(out) or "-o" not in listed(out):
+        continue
+    text = o_help(out)
+    for ext in ("txt", "json", "csv", "geojson"):
+        name = os.path.join(ROOT, "no-such-dir-help", "x." + ext)
+        rc, o2, e2 = plumb(cmd, missing, "-o", name)
+        takes = f"-o {name} names" not in e2
+        check(takes == bool(re.search(r"\." + ext + r"\b", text)),
+              f"{cmd}: -o x.{ext} {'sets' if takes else 'is refused as'} the format, "
+              f"but -o's help {'does not name' if takes else 'names'} .{ext}: {text!r}")
+    check("sets the" in text, f"{cmd}: -o's help says a name sets the format: {text!r}")
 
 # Every --help fits an 80-column terminal, counted in characters (not
 # bytes: "ft·lbf" is six wide).

@@ -16,7 +16,10 @@
     v = sqrt(2 m g / (rho (CdA_body + Cd S))) (balance of weight and drag,
     e.g. Knacke, Parachute Recovery Systems Design Manual, 1991, ch. 5:
     from memory) with the U.S. Standard Atmosphere 1976 sea-level density
-    1.225 kg/m^3 and standard gravity 9.80665 m/s^2 (CGPM 1901).
+    1.225 kg/m^3 and standard gravity 9.80665 m/s^2 (CGPM 1901);
+  - a criterion's test method, quoted from its standard in SI, carries the
+    US figures in brackets under --units us in fall and zone (text and the
+    zone CSV's comment lines), by the exact factors of NIST SP 811 B.8.
 Usage: report_layout.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import json
@@ -359,6 +362,19 @@ want = (f"5.0 kg [{5.0 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.2f} ft] 
         f"5.0 kN [{round(5000 / 4.4482216152605, -1):.0f} lbf] transmitted")
 check(rc == 0 and rc2 == 0 and want in us_w and "5.0 kg striker, 1 m drop, at most 5.0 kN "
       "transmitted" in si_w, f"criterion test method: US figures beside the quote: {want!r}")
+# The same in a zone's exceedance rows: the text and the CSV's criterion
+# comment lines (issue 9: they quoted the source in SI only under --units us).
+zone_run = ("zone", tool, "--samples", "400", "--threads", "1")
+for fmt in ("text", "csv"):
+    rc, us, _ = plumb(*zone_run, "--format", fmt, "--units", "us")
+    rc2, si, _ = plumb(*zone_run, "--format", fmt)
+    if fmt == "csv":  # the criterion comment lines, one each
+        us = "\n".join(l for l in us.splitlines() if l.startswith("# criterion en397-shock-49j:"))
+        si = "\n".join(l for l in si.splitlines() if l.startswith("# criterion en397-shock-49j:"))
+    us_w, si_w = " ".join(us.split()), " ".join(si.split())
+    check(rc == 0 and rc2 == 0 and want in us_w and "5.0 kg striker, 1 m drop, at most 5.0 kN "
+          "transmitted" in si_w,
+          f"zone {fmt}: criterion test method, US figures beside the quote: {want!r} in {us_w[-900:]!r}")
 
 # CSV carries the descent devices' figures as JSON does (the CSV's 10
 # figures against JSON's full double), empty for a payload without one

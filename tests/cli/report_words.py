@@ -2,7 +2,10 @@
 """How reports word places and units (issue 9, "Reports that state what
 they computed"):
   - no "0 m S": a coordinate that prints as zero has no south or west;
-  - no bearing when there is no drift (text and CSV);
+  - no bearing when there is no drift (text and CSV; 0 in JSON, which
+    keeps the key a number, below the 5 mm the text calls none), nor for
+    a zone's ellipse when every sample lands on one point (text "none",
+    CSV empty, JSON null);
   - one spelling of square metres ("m²") in text and CSV, whatever the
     user typed ("m^2", "m2").
 Sources: a fall with no wind and no release velocity has no horizontal
@@ -13,6 +16,7 @@ Usage: report_words.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import csv
 import io
+import json
 import os
 import sys
 
@@ -52,6 +56,65 @@ rc, out, err = plumb("sweep", LIGHT, "--vary", "release.height=10m:20m:10m", "--
 rows = list(csv.DictReader(io.StringIO("\n".join(l for l in out.splitlines() if not l.startswith("#")))))
 check(rc == 0 and len(rows) == 2 and all(r["bearing_deg"] == "" for r in rows),
       "sweep CSV: no bearing for no drift")
+
+# JSON keeps bearing_deg a number (design.md section 6): 0 for a drift the
+# text calls none, below 0.005 m (README.md, plumb fall). A wind of 1.37 mm/s
+# from the north moves a fall from rest at most w T (its horizontal speed
+# never exceeds the wind's: drag pulls it toward the air's velocity), under
+# 5 mm, but not nothing; 2.3 m/s moves it due south, bearing 180 (issue 9:
+# JSON gave 180 for the negligible drift too).
+def fall_json(*args):
+    rc, out, err = plumb("fall", LIGHT, "--set", "wind.from=N", *args, "--format", "json")
+    return json.loads(out)["impact"] if rc == 0 else {}
+w = 0.00137
+i = fall_json("--set", f"wind.speed={w} m/s")
+check(i and 0.0 < i["drift_m"] <= w * i["time_s"] < 0.005 and i["bearing_deg"] == 0,
+      f"fall JSON: bearing 0 for a drift under 5 mm: {i}")
+rc, out, err = plumb("fall", LIGHT, "--set", "wind.from=N", "--set", f"wind.speed={w} m/s")
+check(rc == 0 and "drift      none" in out, "fall text: the same drift is none")
+i = fall_json("--set", "wind.speed=2.3 m/s")
+check(i and i["drift_m"] > 0.005 and abs(i["bearing_deg"] - 180.0) < 1e-6,
+      f"fall JSON: a wind from the north carries it due south, bearing 180: {i}")
+rc, out, err = plumb("sweep", LIGHT, "--set", "wind.from=N", "--set", f"wind.speed={w} m/s",
+                     "--vary", "release.height=10m:20m:10m", "--format", "json")
+rows = json.loads(out)["rows"] if rc == 0 else []
+check(len(rows) == 2 and all(0.0 < r["impact"]["drift_m"] < 0.005 and r["impact"]["bearing_deg"] == 0
+                             for r in rows), f"sweep JSON: bearing 0 for a drift under 5 mm: {rows}")
+
+# No ellipse, so no bearing, in a zone whose samples all land on one point:
+# only the mass uncertain, dropped from rest in still air, every fall is
+# vertical (x(t) = 0 above). The text says "none"; CSV leaves the bearing
+# cell empty, JSON keeps its keys with null (issue 9: "90", east, the
+# atan2(0, 0) of a zero covariance). A wind that varies spreads them along
+# its line (from 270 deg: east-west, bearing 90), and the bearing is given.
+ZONE = ("zone", LIGHT, "--samples", "2000", "--threads", "1")
+MASS = ("--set", "uncertainty.payload.mass={normal: [0.047 kg, 0.0042 kg]}")
+WIND = ("--set", "wind.from=270 deg", "--set", "wind.speed=3.1 m/s",
+        "--set", "uncertainty.wind.speed={normal: [3.1 m/s, 0.8 m/s]}")
+for unc, spread in ((MASS, False), (WIND, True)):
+    what = "wind" if spread else "mass only"
+    rc, out, err = plumb(*ZONE, *unc)
+    check(rc == 0 and ("95 % ellipse    none" in out) != spread, f"zone text, {what}: ellipse {err}")
+    rc, out, err = plumb(*ZONE, *unc, "--format", "csv")
+    rows = {r["quantity"]: r for r in csv.DictReader(
+        io.StringIO("\n".join(l for l in out.splitlines() if not l.startswith("#"))))}
+    b = rows.get("ellipse95_bearing", {}).get("value")
+    check(rc == 0 and (b == "" if not spread else abs(float(b) - 90.0) < 1.0),
+          f"zone CSV, {what}: ellipse95_bearing {b!r}")
+    rc, out, err = plumb(*ZONE, *unc, "--format", "json")
+    z = json.loads(out)["zone"] if rc == 0 else {}
+    el = z.get("ellipse95", {})
+    pg = z.get("landing", {}).get("polygon", {})
+    check(set(el) >= {"semi_major_m", "semi_minor_m", "bearing_deg"} and "axis_bearing_deg" in pg,
+          f"zone JSON, {what}: the ellipse and polygon keep their keys: {el} {sorted(pg)}")
+    if spread:
+        check(el.get("semi_major_m", 0) > 0 and abs(el.get("bearing_deg", 0) - 90.0) < 1.0
+              and isinstance(pg.get("axis_bearing_deg"), float),
+              f"zone JSON, {what}: bearings given: {el} {pg.get('axis_bearing_deg')}")
+    else:
+        check(el.get("semi_major_m") == 0 and el.get("bearing_deg", 0) is None
+              and pg.get("axis_bearing_deg", 0) is None,
+              f"zone JSON, {what}: no bearing without an ellipse: {el} {pg.get('axis_bearing_deg')}")
 
 # ---- one spelling of square metres ---------------------------------------------------
 runs = [
