@@ -96,6 +96,27 @@ PY
   else bad "$prof: $msg"; fi
 done
 
+# ---- the README shows what it prints --------------------------------------------
+# The indented block after "$ python3 examples/fall.py PROFILE" in README.md
+# is the script's output for that profile, word for word (issue 9: examples
+# that cannot go stale).
+if "$py" - README.md "$py" "$so" <<'PY'
+import subprocess, sys
+lines = open(sys.argv[1]).read().splitlines()
+at = [i for i, l in enumerate(lines) if l.startswith("    $ python3 examples/fall.py ")]
+assert len(at) == 1, f"{len(at)} fall.py examples in README"
+shown = []
+for l in lines[at[0] + 1:]:
+    if not l.startswith("    "):
+        break
+    shown.append(l[4:])
+prof = lines[at[0]].split()[-1]
+run = subprocess.run([sys.argv[2], "examples/fall.py", "--lib", sys.argv[3], prof],
+                     capture_output=True, text=True)
+assert run.returncode == 0 and run.stdout.splitlines() == shown, (shown, run.stdout, run.stderr)
+PY
+then ok; else bad "README's examples/fall.py block differs from what it prints"; fi
+
 # ---- an input error reaches Python whole ---------------------------------------
 bad_prof=tests/bad/nan.yaml
 "$py" examples/fall.py --lib "$so" "$bad_prof" >"$tmp/out" 2>"$tmp/err"
