@@ -143,15 +143,13 @@ plumb_status plumb_report_air_table(FILE *out, const plumb_report_options *opt,
         return emit_json(out, &j, root, diag);
     }
     writer w;
-    char *buf;
-    size_t len;
-    plumb_status st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+    plumb_status st = plumbp_writer_open(&w, opt->units, diag);
     if (st != PLUMB_OK)
         return st;
     if (opt->format == PLUMB_FORMAT_CSV)
         csv_air(&w, rows, n_rows, dt_k);
     else
         text_air(&w, opt, rows, n_rows, dt_k);
-    return plumbp_writer_close(&w, &buf, &len, out, diag);
+    return plumbp_writer_close(&w, out, diag);
 }
 

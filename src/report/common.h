@@ -119,9 +119,6 @@ void plumbp_each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn)
 void plumbp_text_warning_line(writer *w, const char *who, const char *text);
 /* "# warning: WHO: TEXT" (fall_csv.c). */
 void plumbp_csv_warning_line(writer *w, const char *who, const char *text);
-plumb_status plumbp_writer_open(writer *w, char **buf, size_t *len, plumb_unit_system units,
-                                plumb_diag *diag);
-plumb_status plumbp_writer_close(writer *w, char **buf, size_t *len, FILE *out, plumb_diag *diag);
 const plumb_report_options *plumbp_opts_or_default(const plumb_report_options *opt,
                                                    plumb_report_options *def);
 plumb_status plumbp_prepare_fall(const plumb_fall_report *rep, item_air **ia, plumb_diag *diag);

@@ -469,14 +469,12 @@ plumb_status plumb_report_limit(FILE *out, const plumb_report_options *opt,
         return emit_json(out, &j, j_limit(&j, opt, rep), diag);
     }
     writer w;
-    char *buf;
-    size_t len;
-    plumb_status st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+    plumb_status st = plumbp_writer_open(&w, opt->units, diag);
     if (st != PLUMB_OK)
         return st;
     if (opt->format == PLUMB_FORMAT_CSV)
         csv_limit(&w, rep);
     else
         text_limit_answer(&w, opt, rep);
-    return plumbp_writer_close(&w, &buf, &len, out, diag);
+    return plumbp_writer_close(&w, out, diag);
 }

@@ -195,9 +195,7 @@ plumb_status plumb_report_lint(FILE *out, const plumb_report_options *opt,
         return emit_json(out, &j, j_lint(&j, opt, entries, n), diag);
     }
     writer w;
-    char *buf;
-    size_t len;
-    plumb_status st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+    plumb_status st = plumbp_writer_open(&w, opt->units, diag);
     if (st != PLUMB_OK)
         return st;
     if (opt->format == PLUMB_FORMAT_CSV) {
@@ -207,5 +205,5 @@ plumb_status plumb_report_lint(FILE *out, const plumb_report_options *opt,
             if (entries[i].n_errors == 0)
                 put(&w, "%s: ok\n", entries[i].profile);
     }
-    return plumbp_writer_close(&w, &buf, &len, out, diag);
+    return plumbp_writer_close(&w, out, diag);
 }

@@ -284,17 +284,16 @@ void plumbp_text_warning_line(writer *w, const char *who, const char *text)
 /* ---- output: all or nothing ---------------------------------------------- */
 
 /* Opens the memory stream a text or CSV report is made in. */
-plumb_status plumbp_writer_open(writer *w, char **buf, size_t *len, plumb_unit_system units,
-                                plumb_diag *diag)
+plumb_status plumbp_writer_open(writer *w, plumb_unit_system units, plumb_diag *diag)
 {
-    if (!writer_start(w, buf, len, units == PLUMB_UNITS_US))
+    if (!writer_start(w, units == PLUMB_UNITS_US))
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
     return PLUMB_OK;
 }
 
-plumb_status plumbp_writer_close(writer *w, char **buf, size_t *len, FILE *out, plumb_diag *diag)
+plumb_status plumbp_writer_close(writer *w, FILE *out, plumb_diag *diag)
 {
-    int failed = !writer_finish(w, buf, len);
+    int failed = !writer_finish(w);
     plumb_status st = PLUMB_OK;
     if (w->bad)
         st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no report "
@@ -302,9 +301,9 @@ plumb_status plumbp_writer_close(writer *w, char **buf, size_t *len, FILE *out, 
     else if (failed || w->nomem)
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the report");
     else
-        st = emit(out, *buf, *len, diag);
-    free(*buf);
-    *buf = NULL;
+        st = emit(out, w->buf, w->len, diag);
+    free(w->buf);
+    w->buf = NULL;
     return st;
 }
 
@@ -368,9 +367,7 @@ plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
         st = emit_json(out, &j, root, diag);
     } else if (st == PLUMB_OK) {
         writer w;
-        char *buf;
-        size_t len;
-        st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+        st = plumbp_writer_open(&w, opt->units, diag);
         if (st == PLUMB_OK) {
             if (opt->format == PLUMB_FORMAT_CSV)
                 plumbp_csv_fall(&w, rep);
@@ -378,7 +375,7 @@ plumb_status plumb_report_fall(FILE *out, const plumb_report_options *opt,
                 plumbp_text_inventory(&w, opt, rep, ia);
             else
                 plumbp_text_single(&w, opt, rep, ia);
-            st = plumbp_writer_close(&w, &buf, &len, out, diag);
+            st = plumbp_writer_close(&w, out, diag);
         }
     }
     free(ia);

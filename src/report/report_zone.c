@@ -91,22 +91,11 @@ plumb_status plumb_report_zone(FILE *out, const plumb_report_options *opt_in,
         return st != PLUMB_OK ? st : emit_json(out, &j, root, diag);
     }
     writer w;
-    char *buf;
-    size_t len;
-    if (!writer_start(&w, &buf, &len, opt->units == PLUMB_UNITS_US))
-        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the zone report");
+    if ((st = plumbp_writer_open(&w, opt->units, diag)) != PLUMB_OK)
+        return st;
     if (opt->format == PLUMB_FORMAT_CSV)
         plumbp_zone_csv_report(&w, rep);
     else
         plumbp_zone_text_report(&w, opt, rep);
-    int failed = !writer_finish(&w, &buf, &len);
-    if (w.bad)
-        st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a zone figure is not a finite number; no report "
-                                               "written");
-    else if (failed || !buf)
-        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the zone report");
-    else
-        st = emit(out, buf, len, diag);
-    free(buf);
-    return st;
+    return plumbp_writer_close(&w, out, diag);
 }

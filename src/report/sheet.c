@@ -244,10 +244,10 @@ plumb_status plumb_sheet_write(FILE *out, const plumb_sheet_options *opt,
     d.right = d.pw - MARGIN;
     d.top = MARGIN;
     d.bottom = d.ph - MARGIN - FOOTER_BAND;
-    if (!writer_start(&d.si, &d.sbuf, &d.slen, 0) || !writer_start(&d.us, &d.ubuf, &d.ulen, 1)) {
+    if (!writer_start(&d.si, 0) || !writer_start(&d.us, 1)) {
         if (d.si.f)
             fclose(d.si.f);
-        free(d.sbuf);
+        free(d.si.buf);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
     }
     plumb_status st = one_pass(&d, briefs, n, NULL, diag);
@@ -257,10 +257,10 @@ plumb_status plumb_sheet_write(FILE *out, const plumb_sheet_options *opt,
         st = one_pass(&d, briefs, n, &m, diag);
     }
     int bad = d.si.bad || d.us.bad;
-    writer_finish(&d.si, &d.sbuf, &d.slen);
-    writer_finish(&d.us, &d.ubuf, &d.ulen);
-    free(d.sbuf);
-    free(d.ubuf);
+    writer_finish(&d.si);
+    writer_finish(&d.us);
+    free(d.si.buf);
+    free(d.us.buf);
     if (st == PLUMB_OK && bad)
         st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a figure is not a finite number; no sheet written");
     if (st == PLUMB_OK && (fwrite(m.p, 1, m.len, out) != m.len || fflush(out) != 0))

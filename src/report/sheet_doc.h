@@ -49,8 +49,6 @@ typedef struct sheet_doc {
     int section;                 /* the last section's number (sheet_heading) */
     char heading[96];            /* the last section's numbered title */
     writer si, us;               /* number formatters, SI and US customary */
-    char *sbuf, *ubuf;
-    size_t slen, ulen;
     char ring[SHEET_RING][FMT_LEN];  /* sheet_fmt's strings, reused round-robin */
     unsigned next;
 } sheet_doc;

@@ -691,15 +691,13 @@ plumb_status plumb_report_sweep(FILE *out, const plumb_report_options *opt,
         st = emit_json(out, &j, plumbp_sweep_json(&j, opt, sw, ia), diag);
     } else if (st == PLUMB_OK) {
         writer w;
-        char *buf;
-        size_t len;
-        st = plumbp_writer_open(&w, &buf, &len, opt->units, diag);
+        st = plumbp_writer_open(&w, opt->units, diag);
         if (st == PLUMB_OK) {
             if (opt->format == PLUMB_FORMAT_CSV)
                 plumbp_sweep_csv(&w, sw);
             else
                 text_sweep(&w, opt, sw);
-            st = plumbp_writer_close(&w, &buf, &len, out, diag);
+            st = plumbp_writer_close(&w, out, diag);
         }
     }
     for (size_t i = 0; i < nr; i++)

@@ -15,6 +15,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "plumb/report.h"
 #include "core/internal.h"
 
 /* Significant digits of text figures; digits of CSV numbers. */
@@ -36,6 +37,8 @@ enum { RING = 48, NUMBUF = 96 };
 
 typedef struct writer {
     FILE *f;                 /* memory stream being written */
+    char *buf;               /* its text (writer_finish), the writer's to free */
+    size_t len;
     int us;                  /* 1: US customary display units */
     int bad;                 /* a non-finite figure was asked for */
     int exact;               /* 1: echoing inputs (see qty) */
@@ -379,27 +382,35 @@ static inline void csv_comment(writer *w, const char *text)
 }
 
 /* Opens the memory stream a report is made in. */
-static inline int writer_start(writer *w, char **buf, size_t *len, int us)
+/* report.c: a text or CSV report made in memory and written all or
+ * nothing. plumbp_writer_open starts w (US units for PLUMB_UNITS_US;
+ * PLUMB_ENOMEM when it cannot); plumbp_writer_close ends it and writes its
+ * text to out, or refuses it: PLUMB_ENUMERIC when a figure was not finite,
+ * PLUMB_ENOMEM when memory ran out on the way, PLUMB_EWRITE when out
+ * fails. Either way w's text is freed. */
+plumb_status plumbp_writer_open(writer *w, plumb_unit_system units, plumb_diag *diag);
+plumb_status plumbp_writer_close(writer *w, FILE *out, plumb_diag *diag);
+
+static inline int writer_start(writer *w, int us)
 {
     memset(w, 0, sizeof *w);
-    *buf = NULL;
-    *len = 0;
     w->us = us;
-    w->f = open_memstream(buf, len);
+    w->f = open_memstream(&w->buf, &w->len);
     return w->f != NULL;
 }
 
 /* Closes the stream and turns the number-unit joins into spaces; returns
  * 0 when the stream failed. */
-static inline int writer_finish(writer *w, char **buf, size_t *len)
+static inline int writer_finish(writer *w)
 {
     int ok = !ferror(w->f);
     if (fclose(w->f) != 0)
         ok = 0;
-    for (size_t i = 0; *buf && i < *len; i++)
-        if ((*buf)[i] == NBSP_CHAR)
-            (*buf)[i] = ' ';
-    return ok && *buf;
+    w->f = NULL;
+    for (size_t i = 0; w->buf && i < w->len; i++)
+        if (w->buf[i] == NBSP_CHAR)
+            w->buf[i] = ' ';
+    return ok && w->buf;
 }
 
 #endif /* PLUMB_TEXTOUT_H */

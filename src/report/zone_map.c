@@ -344,10 +344,9 @@ plumb_status plumb_report_zone_regions(FILE *out, const plumb_zone_report *rep, 
     if (!out || !rep || rep->n_items == 0 || !rep->items)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "no zone report to write");
     writer w;
-    char *buf;
-    size_t len;
-    if (!writer_start(&w, &buf, &len, 0))
-        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the regions file");
+    plumb_status st = plumbp_writer_open(&w, PLUMB_UNITS_SI, diag);
+    if (st != PLUMB_OK)
+        return st;
     size_t nc;
     const char *const *c = plumb_cautions(&nc);
     for (size_t i = 0; i < nc; i++)
@@ -364,15 +363,5 @@ plumb_status plumb_report_zone_regions(FILE *out, const plumb_zone_report *rep, 
     csvctx cc = {&w};
     for (size_t i = 0; i < rep->n_items; i++)
         each_shape(rep->items[i].result, rep->items[i].name, rep->inventory, csv_shape, &cc);
-    int failed = !writer_finish(&w, &buf, &len);
-    plumb_status st;
-    if (w.bad)
-        st = PLUMB_RAISE(diag, PLUMB_ENUMERIC, "a region figure is not a finite number; nothing "
-                                               "written");
-    else if (failed || !buf)
-        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the regions file");
-    else
-        st = emit(out, buf, len, diag);
-    free(buf);
-    return st;
+    return plumbp_writer_close(&w, out, diag);
 }
