@@ -382,6 +382,22 @@ const char *plumbp_t_area(writer *w, double m2)
     return b;
 }
 
+/* Smallest region area shown as a number, in the display unit (m² or
+ * ft²): below it a fixed-point figure would be a long row of zeros
+ * ("0.000000001682 ft²" for impacts that all land on one point). */
+#define AREA_SHOWN_MIN 0.01
+
+const char *plumbp_t_region_area(writer *w, double m2)
+{
+    double in_unit = w->us ? m2 / (PLUMB_FT_M * PLUMB_FT_M) : m2;
+    if (!(in_unit >= AREA_SHOWN_MIN) && in_unit >= 0.0) {
+        char *b = slot(w);
+        snprintf(b, NUMBUF, "under" NBSP "0.01" NBSP "%s", w->us ? "ft²" : "m²");
+        return b;
+    }
+    return plumbp_t_clear(w, plumbp_t_area, m2);
+}
+
 const char *plumbp_t_force(writer *w, double n)
 {
     char *b = slot(w);

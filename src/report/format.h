@@ -83,6 +83,10 @@ const char *plumbp_t_limit_energy(writer *w, double j);
 const char *plumbp_csv_limit(writer *w, double j);
 const char *plumbp_t_mass(writer *w, double kg);
 const char *plumbp_t_area(writer *w, double m2);
+/* A landing region's area, a keep-clear figure (rounded up); one of (near)
+ * zero area reads "under 0.01 m²" (ft² in US units), which is as safe and
+ * reads as a person on site expects, not as a row of zeros. */
+const char *plumbp_t_region_area(writer *w, double m2);
 const char *plumbp_t_force(writer *w, double n);
 const char *plumbp_t_temp(writer *w, double k);
 const char *plumbp_t_press(writer *w, double pa);

@@ -533,11 +533,9 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                               1.3, ""};
         if (r == 0)
             snprintf(pg->label, sizeof pg->label,
-                     "dotted outline: the landing region, %s%% of impacts inside (%s %s)",
+                     "dotted outline: the landing region, %s%% of impacts inside (%s)",
                      sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->landing.p, 2)),
-                     sheet_fmt(d, "%s", num(P, P->us ? rg->area_m2 / (PLUMB_FT_M * PLUMB_FT_M)
-                                                     : rg->area_m2, TEXT_SIG)),
-                     P->us ? "ft\u00B2" : "m\u00B2");
+                     sheet_fmt(d, "%s", plumbp_t_region_area(P, rg->area_m2)));
     }
     pv.n_points = b->n_points[0];
     pv.points_m = b->points_m[0];

@@ -986,6 +986,46 @@ check(rc == 0 and f"5.0 kg [{5 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.
 if os.path.exists(us_pdf):
     os.remove(us_pdf)
 
+# ---- the landing region's area, as a person on site reads it ---------------------
+# Issue 9: a still-air vertical drop with no scatter lands every sample on
+# one point, a region of (near) zero area; the plan view's legend gave it
+# as "0.0000000001563 m²". It now reads as the text report's polygon line
+# does ("under 0.01 m²", the same helper, format.c), and a region of some
+# size gives the text report's buffered figure, rounded up, digit for digit.
+still = os.path.join(tmp, "still.yaml")
+with open(still, "w") as f:
+    f.write("name: still-air drop\npayload:\n  mass: 1.14 kg\n  drag: {cd: 0.99, area: 0.0049 m^2}\n"
+            "release: {height: 31.6 m}\nwind: {speed: 8.3 m/s, from: 250 deg}\n"
+            "criteria: [en397-shock-49j]\nuncertainty:\n  payload.drag.cd: {uniform: [0.99, 1.28]}\n"
+            "  wind.from: \"250 deg +- 20 deg\"\n"
+            "zone: {samples: 600, seed: 7, confidence: 0.99, scatter: 0 m}\n")
+for units, unit in (("si", "m²"), ("us", "ft²")):
+    calm = ("--set", "wind.speed=0 m/s", "--units", units)
+    _, zt, _ = plumb("zone", still, *calm)
+    zt = zt.replace("\u00a0", " ")
+    pdf_s = os.path.join(tmp, f"still-{units}.pdf")
+    rc, _, err = run("sheet", still, "-o", pdf_s, *calm)
+    st = " ".join(check_pages(pdf_s, f"still air, {units}")) if rc == 0 else ""
+    m_area = re.search(r"dotted outline: the landing region, [\d.]+% of impacts inside \(([^)]*)\)", st)
+    check(rc == 0 and f"polygon under 0.01 {unit} in 1 part" in re.sub(r" +", " ", zt)
+          and m_area is not None and m_area.group(1) == f"under 0.01 {unit}",
+          f"still air, {units}: the landing region 'under 0.01 {unit}' as in the text report, "
+          f"found {m_area.group(1) if m_area else None!r} ({err.strip()})")
+    if os.path.exists(pdf_s):
+        os.remove(pdf_s)
+# in a wind, the region has an area: the text report's polygon figure
+_, zt, _ = plumb("zone", still)
+m_poly = re.search(r"polygon\s+(\S+ m²) in 1 part", zt.replace("\u00a0", " "))
+pdf_s = os.path.join(tmp, "still-wind.pdf")
+rc, _, err = run("sheet", still, "-o", pdf_s)
+st = " ".join(pages_text(pdf_s)) if rc == 0 else ""
+check(m_poly is not None and f"of impacts inside ({m_poly.group(1)})" in st,
+      f"wind: the landing region's area as the text report's polygon line "
+      f"{m_poly.group(1) if m_poly else None!r}")
+if os.path.exists(pdf_s):
+    os.remove(pdf_s)
+os.remove(still)
+
 os.remove(pdf)
 shutil.rmtree(tmp)
 finish()
