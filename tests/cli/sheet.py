@@ -717,18 +717,21 @@ def between(flat, start, end):
     return flat[a:z] if a >= 0 and z > a else ""
 
 
+def page_words(pdf):
+    """Each page's words as (box, text), from pdftotext -bbox: a turned
+    word's box is the page's box around it."""
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    return [[([float(m.group(i)) for i in range(1, 5)], unescape(m.group(5)))
+             for m in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                                  r'yMax="([\d.]+)">(.*?)</word>', page)]
+            for page in re.findall(r"<page [^>]*>(.*?)</page>", html, re.S)]
+
+
 def words_overlap(pdf):
     """Pairs of words whose boxes (pdftotext -bbox, 0.6 pt in from each
-    side) overlap on a page that holds the descent devices: text drawn
-    over text."""
-    html = tool("pdftotext", "-bbox", pdf, "-")
+    side) overlap, on every page: text drawn over text."""
     bad = []
-    for n, page in enumerate(re.findall(r"<page [^>]*>(.*?)</page>", html, re.S), 1):
-        ws = [([float(m.group(i)) for i in range(1, 5)], unescape(m.group(5)))
-              for m in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
-                                   r'yMax="([\d.]+)">(.*?)</word>', page)]
-        if "devices" not in [w for _, w in ws]:
-            continue
+    for n, ws in enumerate(page_words(pdf), 1):
         ws.sort(key=lambda b: b[0][1])
         for i, (a, ta) in enumerate(ws):
             for b, tb in ws[i + 1:]:
@@ -736,6 +739,58 @@ def words_overlap(pdf):
                     break
                 if a[0] + 0.6 < b[2] - 0.6 and b[0] + 0.6 < a[2] - 0.6:
                     bad.append(f"page {n}: {ta!r} over {tb!r}")
+    return bad
+
+
+def page_frames(pdf, page):
+    """The stroked rectangles of one page larger than 100 x 60 pt (the
+    plots' frames), as (x0, y0, x1, y1) from the top left: "x y w h re"
+    then "S" in its content stream (see page_paths)."""
+    one = os.path.join(tmp, "page.pdf")
+    subprocess.run(["pdfseparate", "-f", str(page), "-l", str(page), pdf, one], check=True)
+    with open(one, "rb") as f:
+        data = f.read()
+    os.remove(one)
+    out = []
+    for m in re.finditer(rb"stream\r?\n(.*?)\r?\nendstream", data, re.S):
+        try:
+            body = zlib.decompress(m.group(1)).decode("latin-1")
+        except zlib.error:
+            continue
+        for r in re.finditer(r"(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re\s+S\b", body):
+            x, y, w, h = (float(r.group(i)) for i in range(1, 5))
+            if w > 100 and h > 60:
+                out.append((x, y, x + w, y + h))
+    return out
+
+
+def text_clashes(pdf):
+    """Issue 9, a new user's review: text must not touch text or the rules
+    of the page. Returns what is wrong:
+    - words drawn over words (words_overlap), on every page;
+    - a word crossed by a heading's rule (a stroked line across the body,
+      margin to margin, 15 mm from each edge);
+    - a plot's y title reaching above or below the frame: it was centred
+      on the frame however long it was, and "impact energy, ft·lbf
+      (logarithmic scale)" beside a short frame ran over the heading. Its
+      words are those left of the frame with a letter (the tick labels are
+      figures) in a box as wide as an 8-pt line is tall (turned a quarter;
+      9.3 pt in DejaVu Sans), which the heading's words are not."""
+    bad = words_overlap(pdf)
+    width = float(re.search(r"Page size:\s+([\d.]+)", tool("pdfinfo", pdf)).group(1))
+    left, right = 15.0 * 72.0 / 25.4, width - 15.0 * 72.0 / 25.4
+    for n, ws in enumerate(page_words(pdf), 1):
+        for path in page_paths(pdf, n):
+            for (x0, y0), (x1, y1) in zip(path, path[1:]):
+                if abs(y0 - y1) < 0.01 and abs(min(x0, x1) - left) < 1 and abs(max(x0, x1) - right) < 1:
+                    bad += [f"page {n}: the rule at y {y0:.1f} crosses {t!r}" for b, t in ws
+                            if b[1] + 0.6 < y0 < b[3] - 0.6 and b[0] < right and b[2] > left]
+        for fx0, fy0, fx1, fy1 in page_frames(pdf, n):
+            bad += [f"page {n}: y title word {t!r} at {b[1]:.1f}-{b[3]:.1f} outside its frame "
+                    f"{fy0:.1f}-{fy1:.1f}" for b, t in ws
+                    if re.search(r"[^\W\d_]", t) and 8.0 < b[2] - b[0] < 10.5
+                    and fx0 - 60 < b[0] and b[2] < fx0
+                    and b[3] > fy0 - 30 and b[1] < fy1 and (b[1] < fy0 or b[3] > fy1)]
     return bad
 
 
@@ -749,8 +804,8 @@ def check_pages(pdf, what):
     check(not out, f"{what}: text outside the margins: {out[:5]}")
     n, bad = grey_margins_blank(pdf)
     check(n == len(ps) and not bad, f"{what}: grey renders, margins not blank on {bad}")
-    ov = words_overlap(pdf)
-    check(not ov, f"{what}: words drawn over words: {ov[:5]}")
+    ov = text_clashes(pdf)
+    check(not ov, f"{what}: text over text or a rule: {ov[:5]}")
     return ps
 
 
@@ -985,6 +1040,27 @@ check(rc == 0 and f"5.0 kg [{5 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.
       and " 1F" not in us_text, f"US sheet: SI quotes with US beside them ({err.strip()})")
 if os.path.exists(us_pdf):
     os.remove(us_pdf)
+
+# ---- the demonstration sheets: no text over text, a rule or past a frame -----------
+# Issue 9's review: on A4 and letter, SI and US, a single payload and a
+# kit, every page keeps its footer and cautions and no text touches other
+# text or a heading's rule (text_clashes). The kit's energy plot, four
+# curves and a logarithmic axis over a short frame, put its y title over
+# the heading "4. Impact energy against drop height" in US units and above
+# the frame in SI.
+DEMO = os.path.join(ROOT, "profiles", "demo")
+for name, combos in (("tower-kit", (("a4", "si"), ("a4", "us"), ("letter", "us"))),
+                     ("drone-release", (("letter", "us"),)),
+                     ("hand-tool", (("a4", "si"),)),
+                     ("drone-canopy", (("letter", "si"),))):
+    for paper, units in combos:
+        pdf_d = os.path.join(tmp, f"{name}-{paper}-{units}.pdf")
+        rc, _, err = run("sheet", os.path.join(DEMO, name + ".yaml"), "-o", pdf_d, "--samples", "500",
+                         "--paper", paper, "--units", units)
+        check(rc == 0, f"{name}, {paper}, {units}: exit {rc}: {err}")
+        if rc == 0:
+            check_pages(pdf_d, f"{name}, {paper}, {units}")
+            os.remove(pdf_d)
 
 # ---- the landing region's area, as a person on site reads it ---------------------
 # Issue 9: a still-air vertical drop with no scatter lands every sample on
