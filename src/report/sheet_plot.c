@@ -26,7 +26,7 @@
  * the frame's height (so it never reaches the heading above), pt. */
 #define YTITLE_EDGE 2.0
 #define YTITLE_GAP 4.0
-#define YTITLE_CLEAR 3.0
+#define YTITLE_CLEAR 1.0
 #define LEGEND_LINE 22.0
 /* The energy axis is logarithmic when the largest energy shown is more
  * than this many times the lowest limit. */

@@ -742,10 +742,9 @@ def words_overlap(pdf):
     return bad
 
 
-def page_frames(pdf, page):
-    """The stroked rectangles of one page larger than 100 x 60 pt (the
-    plots' frames), as (x0, y0, x1, y1) from the top left: "x y w h re"
-    then "S" in its content stream (see page_paths)."""
+def page_rects(pdf, page):
+    """The stroked rectangles of one page, as (x0, y0, x1, y1) from the top
+    left: "x y w h re" then "S" in its content stream (see page_paths)."""
     one = os.path.join(tmp, "page.pdf")
     subprocess.run(["pdfseparate", "-f", str(page), "-l", str(page), pdf, one], check=True)
     with open(one, "rb") as f:
@@ -759,8 +758,7 @@ def page_frames(pdf, page):
             continue
         for r in re.finditer(r"(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re\s+S\b", body):
             x, y, w, h = (float(r.group(i)) for i in range(1, 5))
-            if w > 100 and h > 60:
-                out.append((x, y, x + w, y + h))
+            out.append((x, y, x + w, y + h))
     return out
 
 
@@ -770,6 +768,7 @@ def text_clashes(pdf):
     - words drawn over words (words_overlap), on every page;
     - a word crossed by a heading's rule (a stroked line across the body,
       margin to margin, 15 mm from each edge);
+    - a scale bar's labels less than 2 pt above the next bar;
     - a plot's y title reaching above or below the frame: it was centred
       on the frame however long it was, and "impact energy, ft·lbf
       (logarithmic scale)" beside a short frame ran over the heading. Its
@@ -785,12 +784,19 @@ def text_clashes(pdf):
                 if abs(y0 - y1) < 0.01 and abs(min(x0, x1) - left) < 1 and abs(max(x0, x1) - right) < 1:
                     bad += [f"page {n}: the rule at y {y0:.1f} crosses {t!r}" for b, t in ws
                             if b[1] + 0.6 < y0 < b[3] - 0.6 and b[0] < right and b[2] > left]
-        for fx0, fy0, fx1, fy1 in page_frames(pdf, n):
+        rects = page_rects(pdf, n)
+        # the plots' frames: larger than 100 x 60 pt
+        for fx0, fy0, fx1, fy1 in [r for r in rects if r[2] - r[0] > 100 and r[3] - r[1] > 60]:
             bad += [f"page {n}: y title word {t!r} at {b[1]:.1f}-{b[3]:.1f} outside its frame "
                     f"{fy0:.1f}-{fy1:.1f}" for b, t in ws
                     if re.search(r"[^\W\d_]", t) and 8.0 < b[2] - b[0] < 10.5
                     and fx0 - 60 < b[0] and b[2] < fx0
                     and b[3] > fy0 - 30 and b[1] < fy1 and (b[1] < fy0 or b[3] > fy1)]
+        # the plan view's scale bars (3 pt tall): the labels of the metre
+        # bar ended 0.7 pt above the foot bar under them
+        for bx0, by0, bx1, by1 in [r for r in rects if abs(r[3] - r[1] - 3.0) < 0.01]:
+            bad += [f"page {n}: {t!r} {by0 - b[3]:.1f} pt above a scale bar" for b, t in ws
+                    if b[0] < bx1 and bx0 < b[2] and by0 - 2.0 < b[3] <= by0 + 0.6]
     return bad
 
 
