@@ -490,12 +490,6 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     double hp = worst->spec->release_m[2];
     double px_plan = sheet_ax_x(&a, hp * ls);
     add_seg(&ob, px_plan, a.y, px_plan, a.y + a.h, COST_PLANNED, -1);
-    /* kept: sheet_fmt's ring is reused before the line is drawn */
-    char pl_text[FMT_LEN];
-    snprintf(pl_text, sizeof pl_text, "%s", sheet_fmt(d, "planned %s", plumbp_t_len(P, hp)));
-    double pl_w = sheet_text_width(d, font, pl_text);
-    double pl_x = px_plan + 3.0 + pl_w + 4.0 > a.x + a.w ? px_plan - pl_w - 5.0 : px_plan + 2.0;
-    add_box(&ob, pl_x, a.y + 2.0, pl_x + pl_w + 2.0, a.y + 11.0, COST_LABEL);
     /* each criterion: a horizontal line with its name and where it is
      * reached, from the lowest line up */
     double mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
@@ -545,6 +539,30 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
             }
         }
     }
+    /* the planned height's label beside its line, at the top of the plot
+     * or at its foot, right of the line or left of it: the first place
+     * clear of the curves and the limits' lines (the top right unless a
+     * curve runs there; kept: sheet_fmt's ring is reused before it is drawn) */
+    char pl_text[FMT_LEN];
+    snprintf(pl_text, sizeof pl_text, "%s", sheet_fmt(d, "planned %s", plumbp_t_len(P, hp)));
+    double pl_w = sheet_text_width(d, font, pl_text), pl_x = 0.0, pl_y = 0.0, pl_best = HUGE_VAL;
+    for (int k = 0; k < 4; k++) {
+        double cx = k % 2 == 0 ? px_plan + 2.0 : px_plan - pl_w - 5.0;
+        double cy = k < 2 ? a.y + 2.0 : a.y + a.h - 11.0;
+        if (cx < a.x + 1.0 || cx + pl_w + 2.0 > a.x + a.w - 1.0)
+            continue;
+        double c = label_cost(&ob, -2, cx, cy, cx + pl_w + 2.0, cy + 9.0, cy); /* -2: no owner */
+        if (c < pl_best) {
+            pl_best = c;
+            pl_x = cx;
+            pl_y = cy;
+        }
+    }
+    if (pl_best == HUGE_VAL) { /* no room either side: where it was */
+        pl_x = px_plan + 3.0 + pl_w + 4.0 > a.x + a.w ? px_plan - pl_w - 5.0 : px_plan + 2.0;
+        pl_y = a.y + 2.0;
+    }
+    add_box(&ob, pl_x, pl_y, pl_x + pl_w + 2.0, pl_y + 9.0, COST_LABEL);
     /* each label on one line, or on two ("ID: LIMIT," / "reached at H"),
      * which fits where one line does not */
     char text[PLUMB_MAX_VERDICTS][2][FMT_LEN / 4];
@@ -637,10 +655,10 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     cairo_line_to(d->cr, px_plan, a.y + a.h);
     sheet_stroke(d, SHEET_DOTTED, 1.2);
     cairo_set_source_rgb(d->cr, 1, 1, 1);
-    cairo_rectangle(d->cr, pl_x, a.y + 2.0, pl_w + 2.0, 9.0);
+    cairo_rectangle(d->cr, pl_x, pl_y, pl_w + 2.0, 9.0);
     cairo_fill(d->cr);
     cairo_set_source_rgb(d->cr, 0, 0, 0);
-    sheet_text_at(d, pl_x + 1.0, a.y + 2.0, 0, font, pl_text);
+    sheet_text_at(d, pl_x + 1.0, pl_y, 0, font, pl_text);
     /* the legend */
     double ly = a.y + a.h + AX_BOTTOM;
     for (size_t p = 0; p < b->n_plots; p++) {

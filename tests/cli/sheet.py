@@ -1068,6 +1068,41 @@ for name, combos in (("tower-kit", (("a4", "si"), ("a4", "us"), ("letter", "us")
             check_pages(pdf_d, f"{name}, {paper}, {units}")
             os.remove(pdf_d)
 
+# A kit of long names, a long job map and a 14 kg item (five-figure
+# energies in ft·lbf): the header's site, wrapped to two lines, was
+# overwritten by "Calculated:"; the energy plot's "planned" label was drawn
+# at the top of the plot over the heaviest item's curve (energy_plot_clash
+# counts it as a label).
+longk = os.path.join(tmp, "longk.yaml")
+with open(longk, "w") as f:
+    f.write('name: Kit for the mast crew at the northern relay station number seventeen\n'
+            'job: {title: "Relay station 17, upper antenna feeder and all its clamps", '
+            'site: "Northern relay station seventeen, upper platform, west face", '
+            'reference: "PTW-2026-000123456789-REV-C", prepared_by: "A. Very-Long-Name Preparer", '
+            'checked_by: "B. Another-Long-Name Checker"}\nitems:\n'
+            '  - name: Hydraulic_torque_wrench_with_reaction_arm_and_square_drive_cassette_XJ9000\n'
+            '    mass: 14.2 kg\n    drag: {cd: 1.0, area: 0.031 m^2}\n'
+            '  - name: box of stainless steel M16 bolts, nuts and washers for the antenna clamps\n'
+            '    mass: 6.385 kg\n    drag: {cd: 1.05, area: 0.0227 m^2}\n'
+            '  - name: radio\n    mass: 0.413 kg\n    drag: {cd: 1.0, area: 0.0042 m^2}\n'
+            '  - name: tie\n    mass: 0.087 kg\n    drag: {cd: 1.0, area: 0.0117 m^2}\n'
+            '  - name: spare\n    mass: 0.9 kg\n    drag: {cd: 1.0, area: 0.006 m^2}\n'
+            'release: {height: 120 m}\nwind: {speed: 7.1 m/s, from: 300 deg}\n'
+            'criteria: [en397-shock-49j, z89-type2-30j, ddesb-fragment-58ftlbf]\n'
+            'uncertainty:\n  wind.speed: {normal: [7.1 m/s, 1.5 m/s]}\n'
+            'zone: {samples: 500, seed: 3, confidence: 0.99, scatter: 2 m}\n')
+for paper, units in (("a4", "si"), ("letter", "us")):
+    pdf_l = os.path.join(tmp, f"longk-{paper}-{units}.pdf")
+    rc, _, err = run("sheet", longk, "-o", pdf_l, "--paper", paper, "--units", units)
+    check(rc == 0, f"long names, {paper}, {units}: exit {rc}: {err}")
+    if rc == 0:
+        check_pages(pdf_l, f"long names, {paper}, {units}")
+        nl, nc, clash = energy_plot_clash(pdf_l)
+        check(nl >= 4 and nc == 4 and not clash,
+              f"long names, {paper}, {units}: {nl} labels, {nc} curves on the energy plot: {clash}")
+        os.remove(pdf_l)
+os.remove(longk)
+
 # ---- the landing region's area, as a person on site reads it ---------------------
 # Issue 9: a still-air vertical drop with no scatter lands every sample on
 # one point, a region of (near) zero area; the plan view's legend gave it
