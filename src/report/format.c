@@ -293,6 +293,19 @@ const char *plumbp_t_len(writer *w, double m)
     return b;
 }
 
+/* A length of a zone's spread (format.h): TEXT_SIG figures, none below a
+ * millimetre (or a thousandth of a foot). */
+#define ZONE_LEN_DEC 3
+
+const char *plumbp_t_zone_len(writer *w, double m)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s" NBSP "%s",
+             plumbp_trim_to(w, w->us ? m / PLUMB_FT_M : m, TEXT_SIG, ZONE_LEN_DEC, 0),
+             w->us ? "ft" : "m");
+    return b;
+}
+
 /* A size of the body itself (a shape's edges, length, diameter and
  * thickness, a sphere's diameter): m, or in US units inches, as a tool or
  * a box is measured (heights and distances stay in feet). */

@@ -69,6 +69,12 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
 int plumbp_shows_zero(const char *s);
 const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
+/* A length of a zone's spread of samples (an ellipse's semi-axes, a
+ * radius): TEXT_SIG figures but no digit below a millimetre (a thousandth
+ * of a foot), which a spread is not known finer than: a semi-axis of
+ * (nearly) nothing reads "0 m", not "0.000002872 ft". The text report's
+ * zone and the sheet share it. */
+const char *plumbp_t_zone_len(writer *w, double m);
 const char *plumbp_t_size(writer *w, double m);
 const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg);
 const char *plumbp_t_speed(writer *w, double v);

@@ -228,7 +228,8 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                             "%s of the drop point.",
                          s->landing_circle_m > 0.0 ? "" : lands,
                          s->landing_circle_m > 0.0 ? "" : ": ", its,
-                         plumbp_t_len(P, s->semi_major_m), plumbp_t_len(P, s->semi_minor_m),
+                         plumbp_t_zone_len(P, s->semi_major_m),
+                         plumbp_t_zone_len(P, s->semi_minor_m),
                          plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
     if (z->has_target)

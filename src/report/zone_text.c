@@ -58,9 +58,7 @@ static const char *fig(writer *w, double x, int dec)
  * figures. Speeds are the shared plumbp_t_speed. */
 static const char *t_len(writer *w, double m)
 {
-    char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s", fig(w, len_shown(w, m), LEN_DEC), len_unit(w));
-    return b;
+    return plumbp_t_zone_len(w, m);
 }
 
 /* A keep-clear distance (a radius, a landing circle, a rule's radius, a

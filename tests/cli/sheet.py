@@ -1100,6 +1100,18 @@ for paper, units in (("a4", "si"), ("letter", "us")):
         nl, nc, clash = energy_plot_clash(pdf_l)
         check(nl >= 4 and nc == 4 and not clash,
               f"long names, {paper}, {units}: {nl} labels, {nc} curves on the energy plot: {clash}")
+        # only the wind speed is uncertain: the impacts lie on a line, and
+        # the ellipse's semi-minor axis, nothing, read "0.000002872 ft";
+        # its semi-axes are now the text report's, to the millimetre
+        # (thousandth of a foot)
+        _, zt, _ = plumb("zone", longk, "--units", units)
+        axes = re.findall(r"semi-major (\S+ (?:m|ft)), semi-minor (\S+ (?:m|ft))",
+                          zt.replace("\u00a0", " "))
+        m_ax = re.search(r"ellipse of semi-axes (\S+ (?:m|ft)) and (\S+ (?:m|ft))",
+                         " ".join(pages_text(pdf_l)))
+        check(m_ax is not None and m_ax.groups() in axes,
+              f"long names, {paper}, {units}: the ellipse's semi-axes "
+              f"{m_ax.groups() if m_ax else None} as the text report's {axes}")
         os.remove(pdf_l)
 os.remove(longk)
 
