@@ -293,6 +293,19 @@ const char *plumbp_t_len(writer *w, double m)
     return b;
 }
 
+/* A length of a zone's spread (format.h): TEXT_SIG figures, none below a
+ * millimetre (or a thousandth of a foot). */
+#define ZONE_LEN_DEC 3
+
+const char *plumbp_t_zone_len(writer *w, double m)
+{
+    char *b = slot(w);
+    snprintf(b, NUMBUF, "%s" NBSP "%s",
+             plumbp_trim_to(w, w->us ? m / PLUMB_FT_M : m, TEXT_SIG, ZONE_LEN_DEC, 0),
+             w->us ? "ft" : "m");
+    return b;
+}
+
 /* A size of the body itself (a shape's edges, length, diameter and
  * thickness, a sphere's diameter): m, or in US units inches, as a tool or
  * a box is measured (heights and distances stay in feet). */
@@ -380,6 +393,22 @@ const char *plumbp_t_area(writer *w, double m2)
     else
         snprintf(b, NUMBUF, "%s" NBSP "m²", qty(w, m2));
     return b;
+}
+
+/* Smallest region area shown as a number, in the display unit (m² or
+ * ft²): below it a fixed-point figure would be a long row of zeros
+ * ("0.000000001682 ft²" for impacts that all land on one point). */
+#define AREA_SHOWN_MIN 0.01
+
+const char *plumbp_t_region_area(writer *w, double m2)
+{
+    double in_unit = w->us ? m2 / (PLUMB_FT_M * PLUMB_FT_M) : m2;
+    if (!(in_unit >= AREA_SHOWN_MIN) && in_unit >= 0.0) {
+        char *b = slot(w);
+        snprintf(b, NUMBUF, "under" NBSP "0.01" NBSP "%s", w->us ? "ft²" : "m²");
+        return b;
+    }
+    return plumbp_t_clear(w, plumbp_t_area, m2);
 }
 
 const char *plumbp_t_force(writer *w, double n)

@@ -69,6 +69,12 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
 int plumbp_shows_zero(const char *s);
 const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
+/* A length of a zone's spread of samples (an ellipse's semi-axes, a
+ * radius): TEXT_SIG figures but no digit below a millimetre (a thousandth
+ * of a foot), which a spread is not known finer than: a semi-axis of
+ * (nearly) nothing reads "0 m", not "0.000002872 ft". The text report's
+ * zone and the sheet share it. */
+const char *plumbp_t_zone_len(writer *w, double m);
 const char *plumbp_t_size(writer *w, double m);
 const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg);
 const char *plumbp_t_speed(writer *w, double v);
@@ -83,6 +89,10 @@ const char *plumbp_t_limit_energy(writer *w, double j);
 const char *plumbp_csv_limit(writer *w, double j);
 const char *plumbp_t_mass(writer *w, double kg);
 const char *plumbp_t_area(writer *w, double m2);
+/* A landing region's area, a keep-clear figure (rounded up); one of (near)
+ * zero area reads "under 0.01 m²" (ft² in US units), which is as safe and
+ * reads as a person on site expects, not as a row of zeros. */
+const char *plumbp_t_region_area(writer *w, double m2);
 const char *plumbp_t_force(writer *w, double n);
 const char *plumbp_t_temp(writer *w, double k);
 const char *plumbp_t_press(writer *w, double pa);

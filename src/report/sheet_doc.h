@@ -117,7 +117,11 @@ double sheet_ax_x(const sheet_axes *a, double v);
 double sheet_ax_y(const sheet_axes *a, double v);
 /* A tick step of about `span / n` rounded to 1, 2 or 5 times a power of ten. */
 double sheet_nice_step(double span, double n);
-void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, const char *ylabel);
+/* The frame, grid, ticks and titles. The y title is wrapped to the
+ * frame's height (it never reaches past the frame, into the heading above
+ * it); when it and the tick labels need more room than the plot gives at
+ * the left, a->x moves right (and a->w shrinks) to make it. */
+void sheet_draw_axes(sheet_doc *d, sheet_axes *a, const char *xlabel, const char *ylabel);
 
 /* The sections drawn by sheet_plot.c and sheet_plan.c; each returns the
  * height used. */

@@ -45,7 +45,8 @@ static void arrow(sheet_doc *d, double x0, double y0, double x1, double y1, doub
 }
 
 /* The scale bar: a round length about a fifth of the view, in `unit_m`
- * metres per unit, labelled. Returns its height. */
+ * metres per unit, labelled. Returns its height: the bar, its labels and
+ * a gap, so that a second bar (feet) does not touch the labels above it. */
 static double scale_bar(sheet_doc *d, double x, double y, double pt_per_m, double view_m,
                         double unit_m, const char *unit)
 {
@@ -61,7 +62,7 @@ static double scale_bar(sheet_doc *d, double x, double y, double pt_per_m, doubl
     sheet_stroke(d, SHEET_SOLID, 0.6);
     sheet_text_at(d, x, y + 4.0, 2, font, "0");
     sheet_text_at(d, x + w, y + 4.0, 2, font, sheet_fmt(d, "%g %s", len, unit));
-    return 14.0;
+    return 4.0 + sheet_text(d, 0.0, 0.0, 0.0, font, "0", 0) + 3.0;
 }
 
 double sheet_plan_view(sheet_doc *d, const sheet_plan *p, double x, double y, double w, double h)

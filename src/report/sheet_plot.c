@@ -19,6 +19,14 @@
 #define AX_TOP 6.0
 #define AX_RIGHT 8.0
 #define TICK 3.0
+/* Between a y tick label and its tick, pt. */
+#define TICK_GAP 2.0
+/* The y title: its distance from the plot's left edge, the gap between
+ * it and the widest y tick label, and the room kept clear at each end of
+ * the frame's height (so it never reaches the heading above), pt. */
+#define YTITLE_EDGE 2.0
+#define YTITLE_GAP 4.0
+#define YTITLE_CLEAR 1.0
 #define LEGEND_LINE 22.0
 /* The energy axis is logarithmic when the largest energy shown is more
  * than this many times the lowest limit. */
@@ -53,15 +61,67 @@ static const char *tick_text(sheet_doc *d, double v, double step)
     return sheet_fmt(d, "%.*f", dec, v);
 }
 
-void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, const char *ylabel)
+/* The y ticks' values and their label steps: on a logarithmic axis 1, 2
+ * and 5 times each power of ten in the range; else multiples of a nice
+ * step. Returns how many (at most SHEET_YTICKS). */
+enum { SHEET_YTICKS = 64 };
+static size_t y_ticks(const sheet_axes *a, double *v, double *step)
+{
+    size_t n = 0;
+    if (a->ylog) {
+        for (double dec = pow(10.0, floor(log10(a->y0))); dec <= a->y1 && n < SHEET_YTICKS - 3;
+             dec *= 10.0)
+            for (int m = 0; m < 3; m++) {
+                double t = dec * (m == 0 ? 1.0 : m == 1 ? 2.0 : 5.0);
+                if (t >= a->y0 * (1.0 - 1e-9) && t <= a->y1 * (1.0 + 1e-9)) {
+                    v[n] = t;
+                    step[n++] = t < 1.0 ? pow(10.0, floor(log10(t))) : 1.0;
+                }
+            }
+        return n;
+    }
+    double sy = sheet_nice_step(a->y1 - a->y0, 5.0);
+    for (double t = ceil(a->y0 / sy) * sy; t <= a->y1 + sy * 1e-9 && n < SHEET_YTICKS;
+         t += sy) {
+        v[n] = t;
+        step[n++] = sy;
+    }
+    return n;
+}
+
+void sheet_draw_axes(sheet_doc *d, sheet_axes *a, const char *xlabel_in, const char *ylabel_in)
 {
     char font[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 8.0);
+    /* kept: the titles may be sheet_fmt's, whose ring the tick labels reuse */
+    char xlabel[FMT_LEN], ylabel[FMT_LEN];
+    snprintf(xlabel, sizeof xlabel, "%s", xlabel_in);
+    snprintf(ylabel, sizeof ylabel, "%s", ylabel_in);
     cairo_t *cr = d->cr;
+    /* the room at the left: the y title (wrapped to the frame's height,
+     * at most two lines in practice), a gap, the widest tick label; the
+     * frame moves right when AX_LEFT is not enough */
+    double yv[SHEET_YTICKS], ys[SHEET_YTICKS], tick_w = 0.0;
+    size_t n_yt = y_ticks(a, yv, ys);
+    for (size_t t = 0; t < n_yt; t++)
+        tick_w = fmax(tick_w, sheet_text_width(d, font, tick_text(d, yv[t], ys[t])));
+    double title_len = fmax(a->h - 2.0 * YTITLE_CLEAR, 1.0);
+    /* too long for one line: a closing remark in brackets goes on the
+     * second ("impact energy, J" / "(logarithmic scale)") */
+    char *paren = strstr(ylabel, " (");
+    if (paren && sheet_text_width(d, font, sheet_esc(d, ylabel)) > title_len)
+        *paren = '\n';
+    double title_h = sheet_text(d, 0.0, 0.0, title_len, font, sheet_esc(d, ylabel), 0);
+    double room = YTITLE_EDGE + title_h + YTITLE_GAP + tick_w + TICK + TICK_GAP;
+    double left = a->x - AX_LEFT; /* the plot's own left edge */
+    if (room > AX_LEFT) {
+        a->x += room - AX_LEFT;
+        a->w -= room - AX_LEFT;
+    }
     cairo_set_source_rgb(cr, 0, 0, 0);
     cairo_rectangle(cr, a->x, a->y, a->w, a->h);
     sheet_stroke(d, SHEET_SOLID, 0.7);
-    double sx = sheet_nice_step(a->x1 - a->x0, 6.0), sy = sheet_nice_step(a->y1 - a->y0, 5.0);
+    double sx = sheet_nice_step(a->x1 - a->x0, 6.0);
     for (double v = ceil(a->x0 / sx) * sx; v <= a->x1 + sx * 1e-9; v += sx) {
         double px = sheet_ax_x(a, v);
         cairo_move_to(cr, px, a->y + a->h);
@@ -74,28 +134,8 @@ void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, cons
         cairo_set_source_rgb(cr, 0, 0, 0);
         sheet_text_at(d, px, a->y + a->h + TICK + 1.0, 2, font, tick_text(d, v, sx));
     }
-    double ylog_ticks[64];
-    size_t n_yt = 0;
-    if (a->ylog) /* 1, 2, 5 times each power of ten in the range */
-        for (double dec = pow(10.0, floor(log10(a->y0))); dec <= a->y1 && n_yt < 60; dec *= 10.0)
-            for (int m = 0; m < 3; m++) {
-                double v = dec * (m == 0 ? 1.0 : m == 1 ? 2.0 : 5.0);
-                if (v >= a->y0 * (1.0 - 1e-9) && v <= a->y1 * (1.0 + 1e-9))
-                    ylog_ticks[n_yt++] = v;
-            }
-    for (size_t t = 0;; t++) {
-        double v;
-        if (a->ylog) {
-            if (t >= n_yt)
-                break;
-            v = ylog_ticks[t];
-            sy = v < 1.0 ? pow(10.0, floor(log10(v))) : 1.0;
-        } else {
-            v = ceil(a->y0 / sy) * sy + (double)t * sy;
-            if (v > a->y1 + sy * 1e-9)
-                break;
-        }
-        double py = sheet_ax_y(a, v);
+    for (size_t t = 0; t < n_yt; t++) {
+        double py = sheet_ax_y(a, yv[t]);
         cairo_move_to(cr, a->x - TICK, py);
         cairo_line_to(cr, a->x, py);
         sheet_stroke(d, SHEET_SOLID, 0.6);
@@ -104,17 +144,20 @@ void sheet_draw_axes(sheet_doc *d, const sheet_axes *a, const char *xlabel, cons
         cairo_set_source_rgb(cr, 0.82, 0.82, 0.82);
         sheet_stroke(d, SHEET_SOLID, 0.3);
         cairo_set_source_rgb(cr, 0, 0, 0);
-        sheet_text_at(d, a->x - TICK - 2.0, py - 4.5, 1, font, tick_text(d, v, sy));
+        sheet_text_at(d, a->x - TICK - TICK_GAP, py - 4.5, 1, font, tick_text(d, yv[t], ys[t]));
     }
     sheet_text_at(d, a->x + a->w / 2.0, a->y + a->h + TICK + 11.0, 2, font, sheet_esc(d, xlabel));
-    /* the y title, turned a quarter */
+    /* the y title, turned a quarter, centred on the frame's height and
+     * never longer than it: it stays clear of the heading above the plot */
     cairo_save(cr);
-    double tw = sheet_text_width(d, font, sheet_esc(d, ylabel));
-    cairo_translate(cr, a->x - AX_LEFT + 2.0, a->y + a->h / 2.0 + tw / 2.0);
+    sheet_text(d, 0.0, 0.0, title_len, font, sheet_esc(d, ylabel), 0);
+    pango_layout_set_alignment(d->layout, PANGO_ALIGN_CENTER);
+    cairo_translate(cr, left + YTITLE_EDGE, a->y + a->h / 2.0 + title_len / 2.0);
     cairo_rotate(cr, -3.14159265358979323846 / 2.0);
     cairo_move_to(cr, 0.0, 0.0);
     pango_cairo_update_layout(cr, d->layout);
     pango_cairo_show_layout(cr, d->layout);
+    pango_layout_set_alignment(d->layout, PANGO_ALIGN_LEFT);
     cairo_restore(cr);
     pango_cairo_update_layout(cr, d->layout);
 }
@@ -447,12 +490,6 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     double hp = worst->spec->release_m[2];
     double px_plan = sheet_ax_x(&a, hp * ls);
     add_seg(&ob, px_plan, a.y, px_plan, a.y + a.h, COST_PLANNED, -1);
-    /* kept: sheet_fmt's ring is reused before the line is drawn */
-    char pl_text[FMT_LEN];
-    snprintf(pl_text, sizeof pl_text, "%s", sheet_fmt(d, "planned %s", plumbp_t_len(P, hp)));
-    double pl_w = sheet_text_width(d, font, pl_text);
-    double pl_x = px_plan + 3.0 + pl_w + 4.0 > a.x + a.w ? px_plan - pl_w - 5.0 : px_plan + 2.0;
-    add_box(&ob, pl_x, a.y + 2.0, pl_x + pl_w + 2.0, a.y + 11.0, COST_LABEL);
     /* each criterion: a horizontal line with its name and where it is
      * reached, from the lowest line up */
     double mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
@@ -502,6 +539,30 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
             }
         }
     }
+    /* the planned height's label beside its line, at the top of the plot
+     * or at its foot, right of the line or left of it: the first place
+     * clear of the curves and the limits' lines (the top right unless a
+     * curve runs there; kept: sheet_fmt's ring is reused before it is drawn) */
+    char pl_text[FMT_LEN];
+    snprintf(pl_text, sizeof pl_text, "%s", sheet_fmt(d, "planned %s", plumbp_t_len(P, hp)));
+    double pl_w = sheet_text_width(d, font, pl_text), pl_x = 0.0, pl_y = 0.0, pl_best = HUGE_VAL;
+    for (int k = 0; k < 4; k++) {
+        double cx = k % 2 == 0 ? px_plan + 2.0 : px_plan - pl_w - 5.0;
+        double cy = k < 2 ? a.y + 2.0 : a.y + a.h - 11.0;
+        if (cx < a.x + 1.0 || cx + pl_w + 2.0 > a.x + a.w - 1.0)
+            continue;
+        double c = label_cost(&ob, -2, cx, cy, cx + pl_w + 2.0, cy + 9.0, cy); /* -2: no owner */
+        if (c < pl_best) {
+            pl_best = c;
+            pl_x = cx;
+            pl_y = cy;
+        }
+    }
+    if (pl_best == HUGE_VAL) { /* no room either side: where it was */
+        pl_x = px_plan + 3.0 + pl_w + 4.0 > a.x + a.w ? px_plan - pl_w - 5.0 : px_plan + 2.0;
+        pl_y = a.y + 2.0;
+    }
+    add_box(&ob, pl_x, pl_y, pl_x + pl_w + 2.0, pl_y + 9.0, COST_LABEL);
     /* each label on one line, or on two ("ID: LIMIT," / "reached at H"),
      * which fits where one line does not */
     char text[PLUMB_MAX_VERDICTS][2][FMT_LEN / 4];
@@ -594,10 +655,10 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     cairo_line_to(d->cr, px_plan, a.y + a.h);
     sheet_stroke(d, SHEET_DOTTED, 1.2);
     cairo_set_source_rgb(d->cr, 1, 1, 1);
-    cairo_rectangle(d->cr, pl_x, a.y + 2.0, pl_w + 2.0, 9.0);
+    cairo_rectangle(d->cr, pl_x, pl_y, pl_w + 2.0, 9.0);
     cairo_fill(d->cr);
     cairo_set_source_rgb(d->cr, 0, 0, 0);
-    sheet_text_at(d, pl_x + 1.0, a.y + 2.0, 0, font, pl_text);
+    sheet_text_at(d, pl_x + 1.0, pl_y, 0, font, pl_text);
     /* the legend */
     double ly = a.y + a.h + AX_BOTTOM;
     for (size_t p = 0; p < b->n_plots; p++) {

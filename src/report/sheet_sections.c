@@ -39,20 +39,24 @@ static const char *or_blank(sheet_doc *d, const char *s)
     return s && s[0] ? sheet_esc(d, s) : "";
 }
 
-/* "label: value" with a line to write on when the value is blank. */
-static void field(sheet_doc *d, double x, double y, double w, const char *label, const char *value,
-                  int sign)
+/* "label: value" with a line to write on when the value is blank. A
+ * value too long for its room wraps (a field with a signature keeps the
+ * right half for it). Returns the height it takes beyond one line, for
+ * the caller to move the next row down by. */
+static double field(sheet_doc *d, double x, double y, double w, const char *label,
+                    const char *value, int sign)
 {
     char font[64], bold[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
     double lw = sheet_text_width(d, bold, sheet_esc(d, label)) + 4.0;
-    sheet_text(d, x, y, 0.0, bold, sheet_esc(d, label), 1);
+    double lh = sheet_text(d, x, y, 0.0, bold, sheet_esc(d, label), 1), h = lh;
+    double room = (sign ? x + w * 0.5 : x + w) - (x + lw);
     if (value[0])
-        sheet_text(d, x + lw, y, w - lw, font, value, 1);
+        h = fmax(h, sheet_text(d, x + lw, y, room, font, value, 1));
     double base = y + SHEET_BODY * 1.35;
     /* a line for the name when none is given, then one to sign on */
-    double from = value[0] ? x + lw + sheet_text_width(d, font, value) + 8.0 : x + lw;
+    double from = value[0] ? x + lw + fmin(sheet_text_width(d, font, value), room) + 8.0 : x + lw;
     double name_end = sign && !value[0] ? x + w * 0.5 : x + w;
     if (!value[0]) {
         cairo_move_to(d->cr, from, base);
@@ -67,6 +71,7 @@ static void field(sheet_doc *d, double x, double y, double w, const char *label,
         cairo_line_to(d->cr, x + w, base);
         sheet_stroke(d, SHEET_SOLID, 0.5);
     }
+    return h - lh;
 }
 
 static void when_text(const plumb_sheet_options *o, char *buf, size_t size)
@@ -116,22 +121,19 @@ void sheet_section_header(sheet_doc *d, const plumb_brief *b)
     char when[160];
     when_text(d->opt, when, sizeof when);
     double row = SHEET_BODY * 2.0, half = (w - 12.0) / 2.0;
-    field(d, d->left, d->y, half, "Site:", or_blank(d, job->site), 0);
-    field(d, d->left + half + 12.0, d->y, half, "Reference:", or_blank(d, job->reference), 0);
-    d->y += row;
-    field(d, d->left, d->y, w, "Calculated:", sheet_esc(d, when), 0);
-    d->y += row;
-    field(d, d->left, d->y, w, "Prepared by:", or_blank(d, job->prepared_by), 1);
-    d->y += row;
-    field(d, d->left, d->y, w, "Checked by:", or_blank(d, job->checked_by), 1);
-    d->y += row;
+    double more = field(d, d->left, d->y, half, "Site:", or_blank(d, job->site), 0);
+    more = fmax(more, field(d, d->left + half + 12.0, d->y, half, "Reference:",
+                            or_blank(d, job->reference), 0));
+    d->y += row + more;
+    d->y += row + field(d, d->left, d->y, w, "Calculated:", sheet_esc(d, when), 0);
+    d->y += row + field(d, d->left, d->y, w, "Prepared by:", or_blank(d, job->prepared_by), 1);
+    d->y += row + field(d, d->left, d->y, w, "Checked by:", or_blank(d, job->checked_by), 1);
     const plumb_zone_result *z = b->zone ? b->zone->items[b->zone_item].result : NULL;
     const char *prog = sheet_fmt(d, "plumb %s", d->opt->version ? d->opt->version : "");
     const char *seed = z ? sheet_fmt(d, "%lu, %zu samples", z->seed, z->samples)
                          : "none (no clearance zone)";
-    field(d, d->left, d->y, half, "Program:", prog, 0);
-    field(d, d->left + half + 12.0, d->y, half, "Seed:", seed, 0);
-    d->y += row;
+    more = field(d, d->left, d->y, half, "Program:", prog, 0);
+    d->y += row + fmax(more, field(d, d->left + half + 12.0, d->y, half, "Seed:", seed, 0));
     file_row(d, "Profile", plumb_profile_path(b->profile), plumb_profile_sha256(b->profile));
     for (size_t i = 0; i < b->n_criteria; i++) {
         const plumb_criterion *c = b->criteria[i];
@@ -226,7 +228,8 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                             "%s of the drop point.",
                          s->landing_circle_m > 0.0 ? "" : lands,
                          s->landing_circle_m > 0.0 ? "" : ": ", its,
-                         plumbp_t_len(P, s->semi_major_m), plumbp_t_len(P, s->semi_minor_m),
+                         plumbp_t_zone_len(P, s->semi_major_m),
+                         plumbp_t_zone_len(P, s->semi_minor_m),
                          plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
     if (z->has_target)
@@ -533,11 +536,9 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                               1.3, ""};
         if (r == 0)
             snprintf(pg->label, sizeof pg->label,
-                     "dotted outline: the landing region, %s%% of impacts inside (%s %s)",
+                     "dotted outline: the landing region, %s%% of impacts inside (%s)",
                      sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->landing.p, 2)),
-                     sheet_fmt(d, "%s", num(P, P->us ? rg->area_m2 / (PLUMB_FT_M * PLUMB_FT_M)
-                                                     : rg->area_m2, TEXT_SIG)),
-                     P->us ? "ft\u00B2" : "m\u00B2");
+                     sheet_fmt(d, "%s", plumbp_t_region_area(P, rg->area_m2)));
     }
     pv.n_points = b->n_points[0];
     pv.points_m = b->points_m[0];

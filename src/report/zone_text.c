@@ -58,9 +58,7 @@ static const char *fig(writer *w, double x, int dec)
  * figures. Speeds are the shared plumbp_t_speed. */
 static const char *t_len(writer *w, double m)
 {
-    char *b = slot(w);
-    snprintf(b, NUMBUF, "%s %s", fig(w, len_shown(w, m), LEN_DEC), len_unit(w));
-    return b;
+    return plumbp_t_zone_len(w, m);
 }
 
 /* A keep-clear distance (a radius, a landing circle, a rule's radius, a
@@ -399,24 +397,6 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
     put(w, "\n");
 }
 
-/* Smallest region area the text shows as a number, in the display unit
- * (m² or ft²): below it a fixed-point figure would be a long row of zeros
- * ("0.000000001682 ft²" for impacts that all land on one point). */
-#define AREA_SHOWN_MIN 0.01
-
-/* A landing region's area, a keep-clear figure (rounded up); one of (near)
- * zero area reads "under 0.01 m²", which is as safe and fits the line. */
-static const char *t_region_area(writer *w, double m2)
-{
-    double in_unit = w->us ? m2 / (PLUMB_FT_M * PLUMB_FT_M) : m2;
-    if (!(in_unit >= AREA_SHOWN_MIN) && in_unit >= 0.0) {
-        char *b = slot(w);
-        snprintf(b, NUMBUF, "under" NBSP "0.01" NBSP "%s", w->us ? "ft²" : "m²");
-        return b;
-    }
-    return plumbp_t_clear(w, plumbp_t_area, m2);
-}
-
 /* Where the impacts land: the circle around the cloud's centre and the
  * polygon, each holding the confidence's share of impacts. */
 static void text_landing(writer *w, const plumb_zone_stats *z, double confidence, double level)
@@ -447,12 +427,12 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
          * parts; with the scatter allowance as a buffer" would pass 80 */
         put(w, "  polygon         %s in %zu part%s\n"
                "                  %s with the scatter allowance as a buffer\n",
-            t_region_area(w, lr->polygon.area_m2),
+            plumbp_t_region_area(w, lr->polygon.area_m2),
             lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s",
-            t_region_area(w, lr->buffered.area_m2));
+            plumbp_t_region_area(w, lr->buffered.area_m2));
     } else {
         put(w, "  polygon         %s in %zu part%s, no scatter allowance added\n",
-            t_region_area(w, lr->polygon.area_m2),
+            plumbp_t_region_area(w, lr->polygon.area_m2),
             lr->polygon.n_rings, lr->polygon.n_rings == 1 ? "" : "s");
     }
     snprintf(line, sizeof line,
