@@ -36,7 +36,7 @@ static void test_x1_matches_the_tabulated_closed_form(void **state)
     };
     for (size_t i = 0; i < sizeof rows / sizeof *rows; i++)
         assert_abs(plumb_pflanz_x1(rows[i].a, rows[i].j, NULL), rows[i].x1, 0.00006);
-    /* exact spot values, same section */
+    /* exact spot values of the same closed form (computed) */
     assert_abs(plumb_pflanz_x1(1.0, 2.0, NULL), 9.0 / 16.0, 1e-15);
     assert_abs(plumb_pflanz_x1(1.0, 1.0, NULL), 0.459279, 5e-7);
     assert_abs(plumb_pflanz_x1(10.0, 1.0, NULL), 0.907029, 5e-7);
