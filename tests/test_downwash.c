@@ -1,9 +1,9 @@
 /*
  * test_downwash.c - the rotor wake under a hovering multirotor
  * (plumb/downwash.h) against actuator-disk momentum theory (Glauert;
- * Leishman 2006 ch. 2), the test vectors of shared/references-physics.md
- * section 4a (computed there from those formulas), the round-jet law it
- * decays by, and a fall through a wide wake.
+ * Leishman 2006 ch. 2), test vectors computed independently from those
+ * formulas (not published figures), the round-jet law it decays by, and a
+ * fall through a wide wake.
  */
 #include <math.h>
 #include <stdarg.h>
@@ -27,7 +27,8 @@ static plumb_downwash wake(double m_kg, double a_m2, double ve, double vn)
     return dw;
 }
 
-/* references-physics.md 4a: v_i = sqrt(T / (2 rho A)), rho 1.225. */
+/* Momentum theory v_i = sqrt(T / (2 rho A)), rho 1.225; vectors computed
+ * from it (not published figures). */
 static void test_hover_induced_velocity_is_momentum_theory(void **state)
 {
     (void)state;
@@ -65,8 +66,8 @@ static void test_centreline_runs_from_v_i_at_the_disk_toward_twice_v_i(void **st
 }
 
 /* Far below, the round-jet law U_c = B U_J d_w / x with U_J = 2 v_i
- * (references-physics.md 4a: crossover z_c = B d_w = 2.08 m for the 2 kg
- * quad at B 5.8; here B 6.11), and the momentum-flux form B sqrt(4T/(pi rho)) / x. */
+ * (computed: crossover z_c = B d_w = 2.08 m for the 2 kg quad at B 5.8;
+ * here B 6.11), and the momentum-flux form B sqrt(4T/(pi rho)) / x. */
 static void test_far_wake_decays_as_a_round_jet(void **state)
 {
     (void)state;
@@ -80,7 +81,8 @@ static void test_far_wake_decays_as_a_round_jet(void **state)
     assert_rel(dw.wake_d_m, 0.359, 2e-3);
 }
 
-/* Glauert, disk edge-on (references-physics.md 4a, 2 kg quad, v_h 6.285):
+/* Glauert, disk edge-on (Leishman 2006 ch. 2; the relation and the skew
+ * angle from memory, the values computed from them), 2 kg quad, v_h 6.285:
  * V 2, 5, 10, 15 m/s give v_i 6.128, 5.378, 3.704, 2.595 and skew
  * atan(V / v_i) 18.1, 42.9, 69.7, 80.2 deg; the wake leans downwind. */
 static void test_forward_flight_lowers_v_i_and_skews_the_wake(void **state)

@@ -4,9 +4,10 @@
  * Sources:
  *  - Morrison, "Data Correlation for Drag Coefficient for Sphere" (Michigan
  *    Technological University 2010, eq. 1): Cd(200) = 0.767731559965325
- *    (transcribed, shared/references.md).
+ *    (transcribed).
  *  - Clift, Grace & Weber (1978) Table 5.2: for 4e5 < Re <= 1e6,
- *    Cd = 0.1 log10(Re) - 0.49 (transcribed, shared/references.md).
+ *    Cd = 0.1 log10(Re) - 0.49 (transcribed from several codes that print
+ *    the table).
  *  - Gunn & Kinzer, J. Meteorology 6, 243-248 (1949): terminal speeds of
  *    water drops in stagnant air near sea level (test air 1013 hPa, 20 degC,
  *    50 % RH from memory); drops up to 1 mm are close to rigid spheres.
@@ -97,7 +98,8 @@ static void test_cd_re_squared_only_falls_inside_the_named_crisis_intervals(void
 static void test_morrison_sits_on_the_subcritical_plateau_near_re_1e5(void **state)
 {
     (void)state;
-    /* shared/references.md: plateau about 0.4-0.47 near Re = 1e5; crisis 2e5-4e5 */
+    /* Sphere drag: plateau about 0.4-0.47 near Re = 1e5, crisis 2e5-4e5
+     * (from memory; no source recorded for these bands) */
     double cd = plumb_drag_sphere_morrison(1e5);
     assert_true(cd > 0.40 && cd < 0.50);
     assert_true(plumb_drag_sphere_morrison(5e5) < 0.3);
@@ -249,10 +251,10 @@ static void test_a_long_strip_broadside_gets_about_1_5_not_the_square_plate_valu
 
 /* Square prism along the flow (a square bar end-on), Cd on its end by L/D:
  * L/D 1 the cube face-on, 1.05 (Munson et al., Fundamentals of Fluid
- * Mechanics, 6th ed., Fig. 9.20, transcribed; Palmer Table 5-3 via
- * shared/references.md, transcribed); 1.5 -> 0.97, 2 -> 0.87, 2.5 -> 0.90,
- * 3 -> 0.93, 4 -> 0.95, 5 -> 0.95 (DNVGL-RP-N103 Table B-2, transcribed
- * from a public copy). The face is square, so the plate factor is 1. */
+ * Mechanics, 6th ed., Fig. 9.20, transcribed; Palmer, Table 5-3, Re 1e5,
+ * transcribed, no fuller citation of Palmer recorded); 1.5 -> 0.97,
+ * 2 -> 0.87, 2.5 -> 0.90, 3 -> 0.93, 4 -> 0.95, 5 -> 0.95 (DNVGL-RP-N103
+ * Table B-2, transcribed from a public copy). The face is square, so the plate factor is 1. */
 static void test_square_bar_end_on_cd_follows_the_published_prism_rows(void **state)
 {
     (void)state;

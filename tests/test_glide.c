@@ -1,9 +1,10 @@
 /*
  * test_glide.c - plates that glide sideways (plumb/glide.h): the published
- * glide ratios (Smith 1970; Tinklenberg et al. 2023), the plate I* test
- * vectors of shared/references-physics.md 5a (computed there from the
- * definition of Andersen et al. 2005), and the zone's glide displacement
- * against the distribution it is drawn from.
+ * glide ratios (Smith 1970; Tinklenberg et al. 2023), plate I* test
+ * vectors computed from the definition I* = rho_s h / (rho_f l) of
+ * A. Andersen, U. Pesavento, Z. J. Wang, J. Fluid Mech. 541 (2005) 65-90
+ * (the definition from memory; the vectors not published figures), and
+ * the zone's glide displacement against the distribution it is drawn from.
  */
 #include <math.h>
 #include <stdarg.h>
@@ -33,7 +34,8 @@ static void test_glide_ratios_are_the_published_ones(void **state)
     assert_abs(plumb_glide_ratio_max(PLUMB_GLIDE_OFF), 0.0, 0.0);
 }
 
-/* references-physics.md 5a: I* = rho_s h / (rho_f l). */
+/* I* = rho_s h / (rho_f l) (Andersen et al. 2005; definition from memory),
+ * computed for these plates (not published figures). */
 static void test_plate_istar_matches_the_computed_vectors(void **state)
 {
     (void)state;

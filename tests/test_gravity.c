@@ -19,8 +19,7 @@ static double g_at(double lat_deg, double alt_m)
     return plumb_gravity_at(&g, alt_m);
 }
 
-/* NIMA TR8350.2 (3rd ed.): gamma_e = 9.7803253359 m/s^2
- * (transcribed in references.md). */
+/* NIMA TR8350.2 (3rd ed.): gamma_e = 9.7803253359 m/s^2 (transcribed). */
 static void test_gravity_at_the_equator_is_wgs84_gamma_e(void **state)
 {
     (void)state;
@@ -35,12 +34,13 @@ static void test_gravity_at_both_poles_is_wgs84_gamma_p(void **state)
     assert_abs(g_at(-90.0, 0.0), 9.8321849378, 1e-10);
 }
 
-/* No WGS 84 value at 45 deg in references.md. GRS 80 (H. Moritz, Geodetic
- * Reference System 1980, Bull. Geodesique 54, 1980) gives 9.806199203 m/s^2
- * at 45 deg (transcribed from several codes), and its equator and pole
- * values 9.7803267715 and 9.832186368 m/s^2 (transcribed) sit 1.4356e-6 and
- * 1.4302e-6 m/s^2 above WGS 84's; at 45 deg (sin^2 = 1/2) the gap is their
- * mean to a few 1e-9 m/s^2 (the printed digits). */
+/* No WGS 84 value at 45 deg was transcribed from NIMA TR8350.2. GRS 80
+ * (H. Moritz, Geodetic Reference System 1980, Bull. Geodesique 54, 1980)
+ * gives 9.806199203 m/s^2 at 45 deg (transcribed from several codes), and
+ * its equator and pole values 9.7803267715 and 9.832186368 m/s^2
+ * (transcribed) sit 1.4356e-6 and 1.4302e-6 m/s^2 above WGS 84's; at
+ * 45 deg (sin^2 = 1/2) the gap is their mean to a few 1e-9 m/s^2 (the
+ * printed digits). */
 static void test_gravity_at_45_deg_sits_the_grs80_gap_below_grs80(void **state)
 {
     (void)state;
@@ -49,7 +49,7 @@ static void test_gravity_at_45_deg_sits_the_grs80_gap_below_grs80(void **state)
     assert_abs(g_at(-45.0, 0.0), g_at(45.0, 0.0), 0.0); /* symmetric in latitude */
 }
 
-/* Free-air gradient 3.086e-6 s^-2 (references.md, NIMA TR8350.2). */
+/* Free-air gradient 3.086e-6 s^-2 (NIMA TR8350.2, transcribed). */
 static void test_gravity_falls_by_the_free_air_gradient_with_altitude(void **state)
 {
     (void)state;

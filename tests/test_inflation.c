@@ -1,9 +1,10 @@
 /*
  * test_inflation.c - canopy inflation curves and Pflanz's opening-force
  * estimate (plumb/inflation.h) against the method's closed form, an
- * independent integration with GSL, and the worked cases of
- * shared/references-physics.md section 1 (computed there from the method,
- * with a separate Runge-Kutta check; not published figures).
+ * independent integration with GSL, and worked cases computed
+ * independently from the method (Knacke, Parachute Recovery Systems Design
+ * Manual, NWC TP 6575, 1991, ch. 5), with a separate Runge-Kutta check;
+ * not published figures.
  */
 #include <math.h>
 #include <stdarg.h>
@@ -22,8 +23,9 @@
 #include "plumb/atmosphere.h"
 #include "plumb_test.h"
 
-/* X_1 table, shared/references-physics.md 1b (computed from Pflanz's
- * assumptions; checked there by RK4 to 6 digits). */
+/* X_1 table computed from the closed form under Pflanz's assumptions
+ * (checked by an independent RK4 integration to 6 digits; not a published
+ * table: Knacke's chart has only j = 1/2, 1, 2). */
 static void test_x1_matches_the_tabulated_closed_form(void **state)
 {
     (void)state;
@@ -34,7 +36,7 @@ static void test_x1_matches_the_tabulated_closed_form(void **state)
     };
     for (size_t i = 0; i < sizeof rows / sizeof *rows; i++)
         assert_abs(plumb_pflanz_x1(rows[i].a, rows[i].j, NULL), rows[i].x1, 0.00006);
-    /* exact spot values, same section */
+    /* exact spot values of the same closed form (computed) */
     assert_abs(plumb_pflanz_x1(1.0, 2.0, NULL), 9.0 / 16.0, 1e-15);
     assert_abs(plumb_pflanz_x1(1.0, 1.0, NULL), 0.459279, 5e-7);
     assert_abs(plumb_pflanz_x1(10.0, 1.0, NULL), 0.907029, 5e-7);
@@ -189,7 +191,7 @@ static void test_a_bad_second_device_is_named_descent_1(void **state)
     plumb_atmosphere_free(atm);
 }
 
-/* Worked case, shared/references-physics.md 1c (computed there): 10 kg,
+/* Worked case (computed independently; not a published figure): 10 kg,
  * D0 2.0 m, C_D0 0.80, v_1 20 m/s, n 8, j 6, rho 1.225. Pflanz (no
  * gravity): A 0.40601, X_1 0.54719. Integrated as a vertical descent with
  * gravity the peak is 565.6 N (0.918 q_1 (CdS)_0): with j = 6 the canopy

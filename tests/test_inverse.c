@@ -12,7 +12,8 @@
  *   - standard gravity g0 = 9.80665 m/s^2 (3rd CGPM, 1901), used without a
  *     latitude (README, site.latitude).
  *   - constant density, vertical fall from rest with quadratic drag
- *     (references.md, "Closed forms"): v_t = sqrt(2 m g / (rho Cd A)),
+ *     (closed-form solution of m dv/dt = m g - rho Cd A v^2 / 2):
+ *     v_t = sqrt(2 m g / (rho Cd A)),
  *     v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)), so
  *     H(v) = -(v_t^2/(2 g)) ln(1 - v^2/v_t^2); v(H) < v_t for every H.
  * The range scanned is inverse.h's: three decades either way of the

@@ -13,7 +13,8 @@
  *   - EN 397:2012+A1:2012 shock absorption test energy 49 J (a 5.0 kg
  *     striker dropped 1 m; from memory, not confirmed in the standard; a
  *     helmet test, not a safe limit).
- *   - U.S. Standard Atmosphere 1976, Table I at 0 m (references.md).
+ *   - U.S. Standard Atmosphere 1976 (NOAA-S/T 76-1562), Table I at 0 m
+ *     (transcribed).
  *   - IEEE 754-2008 section 5.12.2: 17 significant decimal digits recover
  *     any binary64 value exactly.
  *   - RFC 4180 section 2: fields containing commas or quotes are quoted,
@@ -911,7 +912,7 @@ static void test_json_numbers_read_back_to_the_same_double(void **state)
 static void test_air_json_rows_carry_the_1976_sea_level_values(void **state)
 {
     (void)state;
-    /* U.S. Standard Atmosphere 1976, Table I, 0 m (references.md). */
+    /* U.S. Standard Atmosphere 1976 (NOAA-S/T 76-1562), Table I, 0 m (transcribed). */
     plumb_air row = {0.0, 288.15, 101325.0, 1.2250, 1.7894e-5, 340.294};
     char *buf = NULL;
     size_t len = 0;

@@ -23,8 +23,9 @@
  *   - README "plumb zone": JSON "worst" names the item with the largest
  *     clearance radius; an interval end that N samples cannot bound is
  *     "open" (JSON null).
- *   - 14 CFR 107.130(a)(1): 25 ft lbf; EN 397 shock absorption test: 49 J
- *     (references.md, transcribed; a helmet test, not a safe limit).
+ *   - 14 CFR 107.130(a)(1): 25 ft lbf (seen); EN 397:2012+A1:2012
+ *     Industrial safety helmets, shock absorption test: 49 J (from memory,
+ *     not confirmed in the standard; a helmet test, not a safe limit).
  */
 #include <float.h>
 #include <math.h>

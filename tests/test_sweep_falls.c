@@ -16,7 +16,8 @@
  *   - 14 CFR 107.130(a)(1): 25 ft lbf (profiles/criteria/us-part107-cat3).
  *   - work-energy theorem, drag-free fall from rest: E = m g0 H,
  *     g0 = 9.80665 m/s^2 (3rd CGPM, 1901).
- *   - constant density, fall from rest (references.md, "Closed forms"):
+ *   - constant density, fall from rest (closed-form solution of
+ *     m dv/dt = m g - rho Cd A v^2 / 2):
  *     v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)), v_t = sqrt(2 m g / (rho Cd A)).
  * Tolerances: 1e-12 for a drag-free fall (a polynomial in time, followed
  * exactly by the 8th-order stepper; issue 8), 1e-9 for a fall in drag (the

@@ -2,9 +2,9 @@
  * test_trajectory.c - the fall integrator against closed forms.
  *
  * Sources:
- *  - Vertical fall with quadratic drag in constant air (shared/references.md,
- *    "Closed forms"; any mechanics text, e.g. Marion & Thornton, Classical
- *    Dynamics, sec. 2.4):
+ *  - Vertical fall with quadratic drag in constant air (closed forms of
+ *    m dv/dt = m g - rho CdA v^2 / 2; any mechanics text, e.g. Marion &
+ *    Thornton, Classical Dynamics, sec. 2.4):
  *      v_t = sqrt(2 m g / (rho CdA)),  v(y) = v_t sqrt(1 - exp(-2 g y / v_t^2)),
  *      y(t) = (v_t^2 / g) ln cosh(g t / v_t).
  *  - Drag-free projectile: v = sqrt(v0^2 + 2 g H), E = m g H (+ 1/2 m v0^2),
@@ -277,7 +277,7 @@ static void test_impact_point_agrees_with_a_much_tighter_run(void **state)
 static void test_parachute_descends_at_body_plus_canopy_terminal_speed(void **state)
 {
     (void)state;
-    /* Closed-form terminal speed with CdA = body + canopy (shared/references.md). */
+    /* Closed-form terminal speed sqrt(2 m g / (rho CdA)), CdA = body + canopy. */
     plumb_atmosphere *atm = plumbt_constant_air();
     plumb_trajectory *w = workspace();
     const double g = PLUMB_G0_M_S2, m = 2.07, rho = PLUMBT_CONST_RHO;
@@ -753,7 +753,7 @@ static void test_sphere_terminal_speed_balances_weight_and_morrison_drag(void **
  * 4.6e10 m/s for 1.3 kg in sea-level air (rho 1.225 kg/m^3, U.S. Standard
  * Atmosphere 1976, Table I, transcribed), nor the smallest CdA a double
  * holds, where 2 m g / (rho CdA) overflows. The same body under a canopy
- * has the closed-form speed of the canopy's CdS alone (shared/references.md). */
+ * has the closed-form speed of the canopy's CdS alone, sqrt(2 m g / (rho CdS)). */
 static void test_a_body_without_drag_has_no_terminal_speed(void **state)
 {
     (void)state;

@@ -1,11 +1,12 @@
 /*
  * test_turbulence.c - low-altitude gusts (plumb/turbulence.h) against the
- * MIL-F-8785C / MIL-HDBK-1797 formulas: the parameter and spectrum test
- * vectors of shared/references-physics.md 3c (computed there from the
- * formulas), the spectra's normalisation by GSL quadrature, and the
- * statistics of many realisations against the models' closed-form
- * correlations (Dryden: exponential forms; von Karman: the Bessel K_1/3
- * form, via GSL) and the truncated spectrum's cosine transform (GSL QAWO).
+ * MIL-F-8785C / MIL-HDBK-1797 formulas (transcribed from library
+ * documentation; see turbulence.h): parameter and spectrum test vectors
+ * computed independently from those formulas (not published figures), the
+ * spectra's normalisation by GSL quadrature, and the statistics of many
+ * realisations against the models' closed-form correlations (Dryden:
+ * exponential forms; von Karman: the Bessel K_1/3 form, via GSL) and the
+ * truncated spectrum's cosine transform (GSL QAWO).
  */
 #include <math.h>
 #include <stdarg.h>
@@ -29,7 +30,8 @@
 
 #define KN 0.514444444444444 /* m/s per knot */
 
-/* references-physics.md 3c: L_u (m) and sigma_u / sigma_w by height. */
+/* L_u (m) and sigma_u / sigma_w by height, computed from the MIL-F-8785C
+ * low-altitude forms (transcribed; not published figures). */
 static void test_length_scales_and_intensities_match_the_mil_vectors(void **state)
 {
     (void)state;
@@ -52,7 +54,8 @@ static void test_length_scales_and_intensities_match_the_mil_vectors(void **stat
     assert_rel(plumb_turbulence_length(PLUMB_TURB_W, 900.0), 304.8, 1e-12);
 }
 
-/* references-physics.md 3c: spectra at h 100 ft, W20 30 kn (sigma_w
+/* Dryden and von Karman spectra of MIL-F-8785C (transcribed), computed at
+ * h 100 ft, W20 30 kn (not published figures; sigma_w
  * 1.54333, sigma_u 2.64812 m/s, L_w 30.48 m, L_u 153.9756 m). */
 static void test_spectra_match_the_tabulated_values(void **state)
 {

@@ -110,14 +110,15 @@ static void test_power_law_with_exponent_0_equals_uniform(void **state)
 }
 
 /* Power law s = s_ref (z / z_ref)^alpha (wind.h): s_ref at z_ref, s_ref 2^alpha
- * at 2 z_ref; default alpha 1/7 (common practice, references.md). */
+ * at 2 z_ref; default alpha 1/7 (common practice, no source). */
 static void test_power_law_gives_reference_speed_at_z_ref_and_2_alpha_at_twice(void **state)
 {
     (void)state;
     plumb_wind_spec w = spec_of(PLUMB_WIND_POWER, 6.15, 312.0);
     assert_rel(w.exponent, 1.0 / 7.0, 1e-15);
     w.ref_height_m = 12.5;
-    w.exponent = 0.16; /* Hellmann, flat open coast (references.md) */
+    w.exponent = 0.16; /* Hellmann exponent, neutral air, flat open coast
+                          (transcribed; the table's publication not recorded) */
     assert_rel(speed_at(&w, 12.5), 6.15, 1e-15);
     assert_rel(speed_at(&w, 25.0), 6.15 * pow(2.0, 0.16), 1e-15);
     assert_rel(speed_at(&w, 3.7), 6.15 * pow(3.7 / 12.5, 0.16), 1e-15);
@@ -129,7 +130,9 @@ static void test_power_law_gives_reference_speed_at_z_ref_and_2_alpha_at_twice(v
 
 /* Log law s = s_ref ln(z/z0) / ln(z_ref/z0) (wind.h): s_ref at z_ref; 0 at
  * and below z0 and at and below z = 0. z0 = 0.25 m: Davenport-Wieringa
- * "rough" (references.md). */
+ * "rough" (transcribed; the classification of J. Wieringa, "Updating the
+ * Davenport roughness classification", J. Wind Eng. Ind. Aerodyn. 41
+ * (1992), citation from memory). */
 static void test_log_law_gives_reference_speed_at_z_ref_and_calm_at_z0(void **state)
 {
     (void)state;

@@ -9,8 +9,9 @@
  *     v_i = sqrt(T / (2 rho A))        induced velocity at the disk
  *     2 v_i                            far-wake velocity, wake area A/2
  *
- * Along the wake, at depth d below the rotor plane (plumb's construction,
- * not a published fit; shared/references-physics.md section 4):
+ * Along the wake, at depth d below the rotor plane (plumb's construction
+ * from momentum theory and the round-jet law, not a published fit; the
+ * source of each part is named with it):
  *  - near: the axial velocity of the vortex cylinder that an actuator disk
  *    of radius R = sqrt(A/pi) sheds, u_n = v_i (1 + d / sqrt(d^2 + R^2))
  *    (classical vortex-theory result, from memory): v_i at the disk, 2 v_i

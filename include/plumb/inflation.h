@@ -12,7 +12,7 @@
  * stretch (Knacke, Parachute Recovery Systems Design Manual, NWC TP 6575,
  * Naval Weapons Center 1991, ch. 5; the form and t_f = n D0 / v seen in a
  * transcription, the per-type values of j, n and C_x from memory: see the
- * table in inflation.c and shared/references-physics.md section 1).
+ * table in inflation.c).
  *
  * Pflanz's method (as Knacke presents it): horizontal deployment, no
  * gravity, constant density, point mass. With the ballistic parameter

@@ -4,7 +4,10 @@
  * as a sum of random Fourier modes.
  *
  * Model (below 1000 ft; h in ft, clamped to 10 ft .. 1000 ft; formulas
- * seen in transcriptions: shared/references-physics.md section 3):
+ * transcribed from general-purpose library documentation: the Modelica
+ * Standard Library's DrydenContinuousTurbulence and the MathWorks Aerospace
+ * Blockset's turbulence blocks, among others; the specifications' section
+ * numbers and the 10 ft clamp from memory):
  *
  *     sigma_w = 0.1 W20          (W20: mean wind at 20 ft; light 15 kn,
  *                                 moderate 30 kn, severe 45 kn)

@@ -17,15 +17,14 @@
  *  - Sphere Cd(Re), standard drag curve: R. Clift, J. R. Grace, M. E. Weber,
  *    Bubbles, Drops, and Particles, Academic Press 1978, Table 5.2
  *    (piecewise in w = log10 Re; coefficients from memory except the
- *    4e5 < Re <= 1e6 piece, 0.1 w - 0.49, which shared/references.md
- *    transcribes and which a widely copied version gets wrong).
+ *    4e5 < Re <= 1e6 piece, 0.1 w - 0.49, transcribed from several codes
+ *    that print the table; a widely copied version gets it wrong).
  *  - Bluff bodies: frontal-area Cd at subcritical Re, by aspect ratio, from
  *    the tables below, each row with its source and status: White, Fluid
  *    Mechanics, Table 7.3 (after Hoerner, Fluid-Dynamic Drag, 1965; from
  *    memory), Munson et al., Fundamentals of Fluid Mechanics, 6th ed.,
  *    Fig. 9.20, DNVGL-RP-N103 (2017) Table B-2 and the Aeronautical
- *    Engineer Data Book Fig. 5.13 (transcribed; shared/references.md and
- *    shared/references-physics.md).
+ *    Engineer Data Book Fig. 5.13(b), Hoerner-type data (transcribed).
  *  - Tumbling: Cauchy's surface-area formula (mean projected area of a
  *    convex body over all orientations = surface area / 4; see
  *    Tsukerman & Veomett, arXiv:1604.05815). No published tumbling Cd was
@@ -156,10 +155,10 @@ static const cd_row plate_rows[] = {
 };
 /* Square prism (a square bar or block) with its axis along the flow, Cd on
  * its square end, by length over side L/D. L/D 0 is the square plate above;
- * L/D 1 the cube face-on, 1.05, where Munson and Palmer (Table 5-3, via
- * shared/references-physics.md) agree, DNVGL-RP-N103 gives 1.15 and White
- * 1.07 (from memory); L/D 1.5 to 5 DNVGL-RP-N103 (the row's name, "square rod
- * parallel to flow", is from memory). */
+ * L/D 1 the cube face-on, 1.05, where Munson and Palmer (Table 5-3, Re 1e5;
+ * transcribed; no fuller citation of Palmer recorded) agree, DNVGL-RP-N103
+ * gives 1.15 and White 1.07 (from memory); L/D 1.5 to 5 DNVGL-RP-N103 (the
+ * row's name, "square rod parallel to flow", is from memory). */
 static const cd_row prism_rows[] = {
     {0.0, 1.18, SRC_WHITE}, {1.0, 1.05, SRC_MUNSON}, {1.5, 0.97, SRC_DNV}, {2.0, 0.87, SRC_DNV},
     {2.5, 0.90, SRC_DNV},   {3.0, 0.93, SRC_DNV},    {4.0, 0.95, SRC_DNV}, {5.0, 0.95, SRC_DNV},

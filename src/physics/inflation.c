@@ -11,10 +11,11 @@
  * method (seen in a transcription). The per-type exponents j, fill
  * constants n and opening-force coefficients C_x below are FROM MEMORY
  * (Knacke's drag-area-vs-time figure and Table 5-1), not confirmed in the
- * primary text: shared/references-physics.md section 1a lists each with
- * its confidence. The closed form of X_1 is derived from Pflanz's
- * assumptions (computed; it matches a Runge-Kutta integration to 6
- * digits, same section).
+ * primary text; confidence in them, also from memory: j about 1 (ribbon,
+ * ringslot) medium, j about 6 (solid textile) low to medium, the other j
+ * and every n low, C_x not graded. The closed form of X_1 is derived from
+ * Pflanz's assumptions (computed; it matches a 4th-order Runge-Kutta
+ * integration to 6 digits at A = 0.1, 1, 10 and j = 1/2, 1, 2, 6).
  */
 #include <math.h>
 #include <string.h>

@@ -4,20 +4,21 @@
 # Python, from its published formula; the source is named beside each
 # check. Inputs are invented and deliberately not round.
 #
-# Sources (see /work/shared/references.md):
+# Sources:
 #   - work-energy theorem, drag-free fall: 1/2 m v^2 = 1/2 m v0^2 + m g H for
 #     any direction of the release velocity v0, so the height for an impact
 #     energy E is H = E/(m g) - v0^2/(2 g); standard gravity g0 = 9.80665
 #     m/s^2 (3rd CGPM, 1901, by definition).
 #   - drag-free projectile: a level throw at v0 from H lands after
 #     t = sqrt(2 H / g), v0 t from the release point.
-#   - WGS 84 normal gravity (NIMA TR8350.2, eq. 4-1, transcribed in
-#     references.md) less the free-air gradient 3.086e-6 s^-2 per metre:
+#   - WGS 84 normal gravity (NIMA TR8350.2, eq. 4-1, transcribed) less the
+#     free-air gradient 3.086e-6 s^-2 per metre (NIMA TR8350.2, transcribed):
 #     g(alt) = gamma(phi) - c alt, so the work of gravity from H to 0 with
 #     the strike level at elevation e is m (gamma H - c (e H + H^2/2)),
 #     and H for an energy is the smaller root of that quadratic.
 #   - constant density, vertical fall from rest with quadratic drag
-#     (references.md "Closed forms"): v_t = sqrt(2 m g / (rho Cd A)),
+#     (closed-form solution of m dv/dt = m g - rho Cd A v^2 / 2):
+#     v_t = sqrt(2 m g / (rho Cd A)),
 #     v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)), hence
 #     H(v) = -(v_t^2 / (2 g)) ln(1 - v^2 / v_t^2), and from
 #     y(t) = (v_t^2/g) ln cosh(g t / v_t): t(H) = (v_t/g) arccosh(exp(g H / v_t^2)).
@@ -99,7 +100,7 @@ CONSTANTS = {
     "g0": 9.80665,
     # 1 ft and 1 ft lbf by definition (1959 agreement)
     "FT": 0.3048, "FT_LBF": 0.3048 * 0.45359237 * 9.80665,
-    # WGS 84 normal gravity (NIMA TR8350.2, references.md), free-air gradient
+    # WGS 84 normal gravity (NIMA TR8350.2, transcribed), free-air gradient
     "GAMMA_E": 9.7803253359, "K_WGS": 0.00193185265241, "E2_WGS": 0.00669437999013,
     "FREE_AIR": 3.086e-6,
 }
@@ -325,7 +326,7 @@ if run sweep "$tmp/air.yaml" --vary release.height=4.37m:187.3m:13.9m --format j
   check "sweep, constant air: speeds v_t sqrt(1 - exp(-2 g H / v_t^2))" \
     "[r['impact']['speed_m_s'] for r in $rows]" \
     "[vt*sqrt(1-exp(-2*g0*(4.37 + i*13.9)/vt**2)) for i in range(14)]" 1e-9 \
-    "constant-density closed form v(H) (references.md)" $air
+    "constant-density closed form v(H)" $air
   check "sweep, constant air: energies 1/2 m v(H)^2" \
     "[r['impact']['energy_j'] for r in $rows]" \
     "[0.5*m*vt**2*(1-exp(-2*g0*(4.37 + i*13.9)/vt**2)) for i in range(14)]" 2e-9 \
@@ -333,10 +334,10 @@ if run sweep "$tmp/air.yaml" --vary release.height=4.37m:187.3m:13.9m --format j
   check "sweep, constant air: times (v_t/g) arccosh(exp(g H / v_t^2))" \
     "[r['impact']['time_s'] for r in $rows]" \
     "[vt/g0*acosh(exp(g0*(4.37 + i*13.9)/vt**2)) for i in range(14)]" 1e-9 \
-    "constant-density closed form y(t) = (v_t^2/g) ln cosh(g t/v_t) (references.md)" $air
+    "constant-density closed form y(t) = (v_t^2/g) ln cosh(g t/v_t)" $air
   check "sweep, constant air: terminal speed sqrt(2 m g / (rho Cd A))" \
     "[r['terminal_speed_m_s'] for r in $rows]" "[vt]*14" 1e-12 \
-    "terminal speed, drag balance (references.md)" $air
+    "terminal speed, drag balance m g = 1/2 rho Cd A v_t^2" $air
 fi
 
 # ---- evaluate ------------------------------------------------------------------

@@ -13,7 +13,8 @@ library's table:
     m/s^2 at the equator, 9.8321849378 at the pole;
   - Morrison's sphere drag Cd(200) = 0.767731559965325 (transcribed);
   - Pflanz's X1 (A 1, j 1) = 0.4593, (A 0.1, j 6) = 0.1880 (computed from
-    its closed form, references-physics.md 1b);
+    its closed form under Pflanz's assumptions, the method as Knacke,
+    NWC TP 6575 (1991), ch. 5 presents it; not published figures);
   - the closed forms of a fall (v = sqrt(2 g h), t = sqrt(2 h / g);
     v_t = sqrt(2 m g / (rho CdA)), v(y) = v_t sqrt(1 - exp(-2 g y / v_t^2)),
     g0 = 9.80665 m/s^2), recomputed here.
