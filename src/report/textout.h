@@ -235,8 +235,6 @@ static inline void verdict_cell(writer *w, size_t gap, size_t ratio_w, const cha
         pad(w, word, VERDICT_W, 0);
 }
 
-/* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
- * indented to the width of `lead`. */
 /* 1 when a word looks like the unit of the number before it ("m",
  * "m^2", "kg", "ft·lbf"): short and starting with a letter. */
 static inline int unit_like(const char *p, size_t len)
@@ -244,6 +242,72 @@ static inline int unit_like(const char *p, size_t len)
     return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
 }
 
+/* Shown characters of the first len bytes of s (see shown_width). */
+static inline size_t shown_width_n(const char *s, size_t len)
+{
+    size_t n = 0;
+    for (size_t i = 0; i < len && s[i]; i++)
+        if (((unsigned char)s[i] & 0xC0) != 0x80)
+            n++;
+    return n;
+}
+
+static inline int breaks_after_char(unsigned char c)
+{
+    return c == '-' || c == '/' || c == '_';
+}
+
+/* 1 when a word of p (len bytes, words parted by spaces) may be broken
+ * after its byte i: after a '-' or '/' inside a word (the break after a
+ * hyphen or a solidus of Unicode UAX #14, line breaking classes HY and
+ * SY), or an '_' (common practice for names, no source); never after a
+ * leading sign, at a word's end, inside a run of them ("--"), nor in a
+ * figure ("1/2", "10-20"). */
+static inline int break_after(const char *p, size_t i, size_t len)
+{
+    if (!breaks_after_char((unsigned char)p[i]) || i == 0 || i + 1 >= len)
+        return 0;
+    unsigned char a = (unsigned char)p[i - 1], b = (unsigned char)p[i + 1];
+    if (a == ' ' || a == NBSP_CHAR || b == ' ' || b == NBSP_CHAR || b == '\0' ||
+        breaks_after_char(b))
+        return 0;
+    return !(isdigit(a) && isdigit(b));
+}
+
+/* The longest head of the word p (len bytes, no spaces) that is at most
+ * `room` shown characters and ends at a break (break_after), in bytes; 0
+ * when there is none. With `hard`, when there is none, the whole
+ * characters that fit (at least one): the word is broken where the line
+ * ends, its rest going on the next line, never dropped. */
+static inline size_t word_head(const char *p, size_t len, size_t room, int hard)
+{
+    size_t shown = 0, brk = 0, fit = 0;
+    for (size_t i = 0; i < len; i++) {
+        if (((unsigned char)p[i] & 0xC0) != 0x80) {
+            if (shown == room)
+                break;
+            shown++;
+        }
+        if (break_after(p, i, len))
+            brk = i + 1;
+        if (i + 1 == len || ((unsigned char)p[i + 1] & 0xC0) != 0x80)
+            fit = i + 1;
+    }
+    if (brk || !hard)
+        return brk;
+    if (fit == 0) /* no room at all: one character, so the text moves on */
+        while (fit < len && (fit == 0 || ((unsigned char)p[fit] & 0xC0) == 0x80))
+            fit++;
+    return fit;
+}
+
+/* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
+ * indented to the width of `lead`. A number stays on the line of its unit;
+ * a word longer than a whole line (an item's name without spaces) is
+ * broken after a hyphen, slash or underscore (word_head), as much of it as
+ * fits on the line it starts, and only where it has none where the line
+ * ends: no line is wider than TEXT_WIDTH unless the lead is, and no word
+ * is cut short. */
 static inline void wrapped(writer *w, const char *lead, const char *text)
 {
     size_t indent = shown_width(lead);
@@ -257,30 +321,39 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
         if (!*p)
             break;
         size_t len = strcspn(p, " ");
-        char word[PLUMB_WARNING * 2];
-        size_t cut = len < sizeof word - 1 ? len : sizeof word - 1;
-        memcpy(word, p, cut);
-        word[cut] = '\0';
-        size_t ww = shown_width(word);
+        size_t ww = shown_width_n(p, len);
         /* a number and its unit stay on one line: fit them as one */
         size_t need = ww;
         const char *next = p + len;
         while (*next == ' ')
             next++;
         size_t nlen = strcspn(next, " ");
-        if (cut > 0 && isdigit((unsigned char)word[cut - 1]) && unit_like(next, nlen)) {
-            char unit[32];
-            size_t ucut = nlen < sizeof unit - 1 ? nlen : sizeof unit - 1;
-            memcpy(unit, next, ucut);
-            unit[ucut] = '\0';
-            need += 1 + shown_width(unit);
-        }
-        if (!first && col + 1 + need > TEXT_WIDTH) {
+        if (isdigit((unsigned char)p[len - 1]) && unit_like(next, nlen))
+            need += 1 + shown_width_n(next, nlen);
+        if (indent + ww > TEXT_WIDTH) {
+            /* too long for any line: broken, its first piece on this line */
+            for (;;) {
+                size_t used = col + (first ? 0 : 1);
+                size_t room = TEXT_WIDTH > used ? TEXT_WIDTH - used : 0;
+                if (ww <= room)
+                    break;
+                size_t head = word_head(p, len, room, first);
+                if (head > 0) {
+                    put(w, "%s%.*s", first ? "" : " ", (int)head, p);
+                    p += head;
+                    len -= head;
+                    ww = shown_width_n(p, len);
+                }
+                put(w, "\n%*s", (int)indent, "");
+                col = indent;
+                first = 1;
+            }
+        } else if (!first && col + 1 + need > TEXT_WIDTH) {
             put(w, "\n%*s", (int)indent, "");
             col = indent;
             first = 1;
         }
-        put(w, "%s%s", first ? "" : " ", word);
+        put(w, "%s%.*s", first ? "" : " ", (int)len, p);
         col += ww + (first ? 0 : 1);
         first = 0;
         p += len;
@@ -289,32 +362,45 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
 }
 
 /* The first line of s word-wrapped to `width` shown characters, into
- * part; a word longer than the width is broken. Returns the rest of s
- * (past the spaces that end the line), "" when s fits. */
+ * part. The line ends at its last space, or after a hyphen, slash or
+ * underscore (break_after) when that fills it better (the last space, if
+ * any, in its first half); a word longer than the width with none of
+ * these is broken where the line ends. Returns the rest of s (past the
+ * spaces that end the line), "" when s fits. */
 static inline const char *wrap_cell(const char *s, size_t width, char *part, size_t size)
 {
-    size_t n = 0, shown = 0, last_space = 0;
-    const char *p = s, *cut = NULL;
-    while (*p && n + 1 < size) {
-        unsigned char c = (unsigned char)*p;
+    size_t n = 0, shown = 0, len = strlen(s);
+    size_t space = 0, space_shown = 0, brk = 0;
+    int has_space = 0;
+    while (s[n] && n + 1 < size) {
+        unsigned char c = (unsigned char)s[n];
         if ((c & 0xC0) != 0x80) {
             if (shown == width)
                 break;
             shown++;
         }
         if (c == ' ') {
-            last_space = n;
-            cut = p;
+            space = n;
+            space_shown = shown - 1;
+            has_space = 1;
+        } else if (break_after(s, n, len)) {
+            brk = n + 1;
         }
-        part[n++] = *p++;
+        n++;
     }
     /* a multi-byte character is never split */
-    while (*p && ((unsigned char)*p & 0xC0) == 0x80 && n + 1 < size)
-        part[n++] = *p++;
-    if (*p && *p != ' ' && cut) {
-        n = last_space;
-        p = cut;
+    while (s[n] && ((unsigned char)s[n] & 0xC0) == 0x80 && n + 1 < size)
+        n++;
+    if (s[n] && s[n] != ' ') {
+        if (has_space && (brk < space || 2 * space_shown >= width))
+            n = space;
+        else if (brk)
+            n = brk;
+        else if (has_space)
+            n = space;
     }
+    const char *p = s + n;
+    memcpy(part, s, n);
     while (n > 0 && part[n - 1] == ' ')
         n--;
     part[n] = '\0';
