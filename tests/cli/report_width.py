@@ -218,7 +218,7 @@ def joined(cur, piece):
 
 def flat(out):
     """The text with its lines joined, a hyphen-broken word made whole."""
-    return " ".join(re.sub(r"(?<=[-/_])\n +", "", out).split())
+    return " ".join(re.sub(r"(?<=[-/_])\n *", "", out).split())
 
 
 def table_names(lines):
@@ -280,6 +280,10 @@ try:
             (("sweep", path, "--vary", "release.height=5m:25m:10m"), 3),
             (("sweep", path, "--vary", "release.height=10m:40m:10m",
               "--vary", "wind.speed=0kn:20kn:10kn"), 12),
+            # the item named in the varied key: the key's column and the
+            # boundary table are headed by its last part, "mass"
+            (("sweep", path, "--vary", f"items[{LONG}].mass=0.1kg:0.3kg:0.1kg",
+              "--vary", "release.height=10m:20m:10m"), 6),
             (("limit", path, "--find", "release.height", "--energy-max", "40J"), 0),
             (("limit", path, "--find", "release.height", "--drift-max", "2m"), 0),
             (("zone", path, "--samples", "400", "--threads", "1"), 1)]
