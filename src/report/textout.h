@@ -122,14 +122,48 @@ static inline const char *csvnum(writer *w, double x)
     return b;
 }
 
-/* Characters shown for a UTF-8 string: bytes that do not continue a
- * multi-byte sequence. */
+/* The character starting at s (UTF-8, as the loader accepts it): its
+ * length in bytes into *len (at least 1, never past a NUL), and the
+ * columns it takes on a terminal: 2 for an East Asian wide or fullwidth
+ * character, 0 for a combining mark, 1 otherwise (Unicode UAX #11 East
+ * Asian Width, classes W and F, and general categories Mn and Me: the
+ * main blocks of each, from memory of EastAsianWidth.txt, checked against
+ * Python's unicodedata by tests/cli/report_width.py). */
+static inline size_t char_cols(const char *s, size_t *len)
+{
+    const unsigned char *p = (const unsigned char *)s;
+    size_t n = p[0] < 0x80 ? 1 : p[0] >= 0xF0 ? 4 : p[0] >= 0xE0 ? 3 : p[0] >= 0xC0 ? 2 : 1;
+    unsigned long c = n == 1 ? p[0] : (unsigned long)(p[0] & (0x7F >> n));
+    for (size_t i = 1; i < n; i++) {
+        if ((p[i] & 0xC0) != 0x80) { /* cut short: what there is, as one */
+            n = i;
+            break;
+        }
+        c = (c << 6) | (p[i] & 0x3Fu);
+    }
+    *len = n;
+    if ((c >= 0x0300 && c <= 0x036F) || (c >= 0x1AB0 && c <= 0x1AFF) ||
+        (c >= 0x1DC0 && c <= 0x1DFF) || (c >= 0x20D0 && c <= 0x20FF) ||
+        (c >= 0xFE00 && c <= 0xFE0F) || (c >= 0xFE20 && c <= 0xFE2F))
+        return 0;
+    if ((c >= 0x1100 && c <= 0x115F) || (c >= 0x2E80 && c <= 0x303E) ||
+        (c >= 0x3041 && c <= 0x33FF) || (c >= 0x3400 && c <= 0x4DBF) ||
+        (c >= 0x4E00 && c <= 0x9FFF) || (c >= 0xA000 && c <= 0xA4CF) ||
+        (c >= 0xA960 && c <= 0xA97F) || (c >= 0xAC00 && c <= 0xD7A3) ||
+        (c >= 0xF900 && c <= 0xFAFF) || (c >= 0xFE10 && c <= 0xFE19) ||
+        (c >= 0xFE30 && c <= 0xFE6F) || (c >= 0xFF00 && c <= 0xFF60) ||
+        (c >= 0xFFE0 && c <= 0xFFE6) || (c >= 0x1F300 && c <= 0x1F64F) ||
+        (c >= 0x1F900 && c <= 0x1F9FF) || (c >= 0x20000 && c <= 0x3FFFD))
+        return 2;
+    return 1;
+}
+
+/* Columns a UTF-8 string takes on a terminal (char_cols). */
 static inline size_t shown_width(const char *s)
 {
-    size_t n = 0;
-    for (const unsigned char *p = (const unsigned char *)s; *p; p++)
-        if ((*p & 0xC0) != 0x80)
-            n++;
+    size_t n = 0, len;
+    for (; *s; s += len)
+        n += char_cols(s, &len);
     return n;
 }
 
@@ -242,13 +276,12 @@ static inline int unit_like(const char *p, size_t len)
     return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
 }
 
-/* Shown characters of the first len bytes of s (see shown_width). */
+/* Columns of the first len bytes of s (see shown_width). */
 static inline size_t shown_width_n(const char *s, size_t len)
 {
-    size_t n = 0;
-    for (size_t i = 0; i < len && s[i]; i++)
-        if (((unsigned char)s[i] & 0xC0) != 0x80)
-            n++;
+    size_t n = 0, cl;
+    for (size_t i = 0; i < len && s[i]; i += cl)
+        n += char_cols(s + i, &cl);
     return n;
 }
 
@@ -281,23 +314,22 @@ static inline int break_after(const char *p, size_t i, size_t len)
  * ends, its rest going on the next line, never dropped. */
 static inline size_t word_head(const char *p, size_t len, size_t room, int hard)
 {
-    size_t shown = 0, brk = 0, fit = 0;
-    for (size_t i = 0; i < len; i++) {
-        if (((unsigned char)p[i] & 0xC0) != 0x80) {
-            if (shown == room)
-                break;
-            shown++;
-        }
+    size_t shown = 0, brk = 0, fit = 0, cl;
+    for (size_t i = 0; i < len; i += cl) {
+        size_t cw = char_cols(p + i, &cl);
+        if (shown + cw > room)
+            break;
+        shown += cw;
         if (break_after(p, i, len))
             brk = i + 1;
-        if (i + 1 == len || ((unsigned char)p[i + 1] & 0xC0) != 0x80)
-            fit = i + 1;
+        fit = i + cl < len ? i + cl : len;
     }
     if (brk || !hard)
         return brk;
-    if (fit == 0) /* no room at all: one character, so the text moves on */
-        while (fit < len && (fit == 0 || ((unsigned char)p[fit] & 0xC0) == 0x80))
-            fit++;
+    if (fit == 0 && len > 0) { /* no room at all: one character, so the text moves on */
+        (void)char_cols(p, &cl);
+        fit = cl < len ? cl : len;
+    }
     return fit;
 }
 
@@ -369,28 +401,23 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
  * spaces that end the line), "" when s fits. */
 static inline const char *wrap_cell(const char *s, size_t width, char *part, size_t size)
 {
-    size_t n = 0, shown = 0, len = strlen(s);
+    size_t n = 0, shown = 0, len = strlen(s), cl;
     size_t space = 0, space_shown = 0, brk = 0;
     int has_space = 0;
-    while (s[n] && n + 1 < size) {
-        unsigned char c = (unsigned char)s[n];
-        if ((c & 0xC0) != 0x80) {
-            if (shown == width)
-                break;
-            shown++;
-        }
-        if (c == ' ') {
+    for (; s[n]; n += cl) {
+        size_t cw = char_cols(s + n, &cl);
+        /* a multi-byte character is never split */
+        if (shown + cw > width || n + cl + 1 > size)
+            break;
+        if (s[n] == ' ') {
             space = n;
-            space_shown = shown - 1;
+            space_shown = shown;
             has_space = 1;
         } else if (break_after(s, n, len)) {
             brk = n + 1;
         }
-        n++;
+        shown += cw;
     }
-    /* a multi-byte character is never split */
-    while (s[n] && ((unsigned char)s[n] & 0xC0) == 0x80 && n + 1 < size)
-        n++;
     if (s[n] && s[n] != ' ') {
         if (has_space && (brk < space || 2 * space_shown >= width))
             n = space;
@@ -398,6 +425,8 @@ static inline const char *wrap_cell(const char *s, size_t width, char *part, siz
             n = brk;
         else if (has_space)
             n = space;
+        else if (n == 0 && size > 4) /* not even one character fits: one, so the text moves on */
+            (void)char_cols(s, &n);
     }
     const char *p = s + n;
     memcpy(part, s, n);

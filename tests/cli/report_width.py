@@ -205,7 +205,14 @@ finally:
 # every line of every command within 80 columns, the name broken after a
 # hyphen (Unicode UAX #14: a break opportunity after HY), put back whole
 # when its lines are joined. 80 columns: common practice, no source.
+# Item 4 takes a name of 39 East Asian wide characters (78 columns: two
+# each, UAX #11 class W, as Python's unicodedata gives it), which the
+# reports counted as one column each (lines of up to 114 columns); it may
+# be broken between any two of them (UAX #14: class ID, a break
+# opportunity before and after an ideograph).
 LONG = "Stabila-type-aluminium-box-section-spirit-level-600mm-with-magnetic-base-and-end-caps"
+WIDE = "双方向無線機と予備電池と充電器とアンテナと肩掛けストラップ付きの収納ケース一式"
+IDEO = "\u3000-\u9fff\uac00-\ud7a3\uff00-\uff60"
 
 
 def joined(cur, piece):
@@ -270,9 +277,11 @@ try:
     old = re.findall(r"^  - name: (.*)$", src, re.M)
     check(len(old) >= 5, f"tower-kit.yaml has five items: {old}")
     src = src.replace(f"  - name: {old[4]}\n", f"  - name: {LONG}\n", 1)
+    src = src.replace(f"  - name: {old[3]}\n", f"  - name: {WIDE}\n", 1)
     check(LONG in src and len(LONG) == 85 and " " not in LONG, "the long name is in the profile")
+    check(WIDE in src and shown(WIDE) == 78, f"the wide name is in the profile, {shown(WIDE)} columns")
     path = os.path.join(tmp, "long-word.yaml")
-    with open(path, "w") as f:
+    with open(path, "w", encoding="utf-8") as f:
         f.write(src)
     # each command, and the fewest whole names its tables hold (fall: the
     # figures and the criteria table; sweep: one row per value, each table)
@@ -294,7 +303,7 @@ try:
             check(rc == 0 and out, f"{what}: exit {rc} {err.strip()[:200]}")
             w = wide(out)
             check(not w, f"{what}: {len(w)} lines over {WIDTH} columns:\n" + "\n".join(w[:5]))
-            # every place the name starts, it is whole: in a table's column
+            # every place a name starts, it is whole: in a table's column
             # or in the text around it, never cut nor broken mid-word
             starts = out.count(LONG[:8])
             names = table_names(out.splitlines())
@@ -304,6 +313,13 @@ try:
                   f"{what}: the name starts {starts} times, whole {whole} times in tables "
                   f"(at least {in_tables}) and {in_text} in the text; table cells "
                   f"{[n for n in names if n.startswith(LONG[:8])][:3]}")
+            # the wide name's characters, the only ideographs of the report,
+            # read in order: the name whole each time, as often as the other
+            ideo = "".join(re.findall(f"[{IDEO}]", out))
+            k = len(ideo) // len(WIDE)
+            check(k >= max(in_tables, 1) and ideo == WIDE * k,
+                  f"{what}: the wide name {k} times whole (at least {max(in_tables, 1)}), "
+                  f"{len(ideo) - k * len(WIDE)} characters over")
         rc, out, err = plumb("air", "--alt", "0m:3000m:500m", "--units", units)
         check(rc == 0 and not wide(out), f"air --units {units}: {err.strip()} {wide(out)[:3]}")
     rc, out, err = plumb("verify")
