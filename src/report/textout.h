@@ -218,7 +218,7 @@ static inline const char *status_note_of(const char *status)
     return "";
 }
 
-/* s padded with spaces to `width` shown characters, left or right aligned. */
+/* s padded with spaces to `width` columns, left or right aligned. */
 static inline void pad(writer *w, const char *s, size_t width, int right)
 {
     size_t n = shown_width(s);
@@ -308,7 +308,7 @@ static inline int break_after(const char *p, size_t i, size_t len)
 }
 
 /* The longest head of the word p (len bytes, no spaces) that is at most
- * `room` shown characters and ends at a break (break_after), in bytes; 0
+ * `room` columns wide and ends at a break (break_after), in bytes; 0
  * when there is none. With `hard`, when there is none, the whole
  * characters that fit (at least one): the word is broken where the line
  * ends, its rest going on the next line, never dropped. */
@@ -393,8 +393,7 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
     put(w, "\n");
 }
 
-/* The first line of s word-wrapped to `width` shown characters, into
- * part. The line ends at its last space, or after a hyphen, slash or
+/* The first line of s word-wrapped to `width` columns, into part. The line ends at its last space, or after a hyphen, slash or
  * underscore (break_after) when that fills it better (the last space, if
  * any, in its first half); a word longer than the width with none of
  * these is broken where the line ends. Returns the rest of s (past the
@@ -440,7 +439,7 @@ static inline const char *wrap_cell(const char *s, size_t width, char *part, siz
 
 /* The continuation lines of a table cell wrapped in its column (an item's
  * name in the tables of fall, sweep and zone): the rest of the cell after
- * its first line (wrap_cell), `width` shown characters a line, each line
+ * its first line (wrap_cell), `width` columns a line, each line
  * `indent` spaces in. Writes nothing when rest is "". */
 static inline void cell_continued(writer *w, size_t indent, const char *rest, size_t width)
 {
