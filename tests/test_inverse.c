@@ -401,6 +401,69 @@ static void test_an_energy_below_the_release_energy_is_impossible_and_says_so(vo
     plumb_profile_free(p);
 }
 
+/* Issue 9 (new-user review): a drift limit with no wind and no sideways
+ * release velocity was "unlimited" because "it levels off as the fall
+ * reaches its terminal speed". Nothing acts sideways on the body: drag
+ * lies along its velocity relative to still air, vertical from rest, so
+ * the drift is 0 at every height (Newton's first law; closed form), and
+ * the answer says so, not the terminal speed. */
+static void test_a_drift_nothing_moves_sideways_is_unlimited_and_says_why(void **state)
+{
+    (void)state;
+    plumb_profile *p = constant_air();
+    plumb_limit_result r;
+    plumb_diag d;
+    assert_int_equal(solve(p, "release.height", PLUMB_METRIC_DRIFT, 2.137, NULL, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_UNLIMITED);
+    assert_int_equal(r.n_crossings, 0);
+    assert_abs(r.metric_at_base, 0.0, 0.0);
+    assert_abs(r.metric_at_scan_hi, 0.0, 0.0);
+    assert_non_null(strstr(r.explanation, "there is no wind and no sideways release velocity: "
+                                          "nothing moves it sideways, so no height gives a drift"));
+    assert_null(strstr(r.explanation, "terminal speed"));
+    plumb_profile_free(p);
+    /* the same for a key other than the height: "no value of" it */
+    p = constant_air();
+    assert_int_equal(solve(p, "payload.mass", PLUMB_METRIC_DRIFT, 2.137, NULL, &r, &d), PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_UNLIMITED);
+    assert_non_null(strstr(r.explanation, "so no value of payload.mass gives a drift"));
+    plumb_profile_free(p);
+}
+
+/* Thrown sideways at 7.3 m/s in still constant air, the body drifts, but
+ * never 5000 m: drag only slows the sideways speed, and |v| >= |v_x| gives
+ * v_x <= v0 / (1 + k v0 t / m), k = rho Cd A / 2, so the drift is at most
+ * (m / k) ln(1 + k v0 t / m) = 213.8 m x ln(1 + 0.03415 t/s), under 5000 m
+ * for any fall shorter than 4e8 s (comparison of the ODEs; closed form).
+ * Unlimited, then, but not for want of a sideways push, nor because of the
+ * terminal speed, which bounds a speed, not a distance (issue 9). */
+static void test_a_drift_that_moves_sideways_is_not_explained_by_terminal_speed(void **state)
+{
+    (void)state;
+    plumb_profile *p = load("name: constant-air payload thrown\n"
+                            "payload: {mass: 2.385 kg, drag: {cd: 0.87, area: 0.0213 m^2}}\n"
+                            "release:\n"
+                            "  height: 31.6 m\n"
+                            "  velocity: {east: 7.3 m/s, north: 0 m/s, up: 0 m/s}\n"
+                            "atmosphere:\n"
+                            "  model: table\n"
+                            "  table:\n"
+                            "    - {altitude: -1000 m, density: 1.2041 kg/m^3, temperature: 293.15 K}\n"
+                            "    - {altitude: 40000 m, density: 1.2041 kg/m^3, temperature: 293.15 K}\n");
+    plumb_limit_result r;
+    plumb_diag d;
+    assert_int_equal(solve(p, "release.height", PLUMB_METRIC_DRIFT, 5000.0, NULL, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_UNLIMITED);
+    double k = 0.5 * RHO * CD * AREA_M2;
+    assert_true(r.metric_at_scan_hi > 0.0);
+    assert_true(r.metric_at_scan_hi < (MASS_KG / k) * log(1.0 + k * 7.3 * 4e8 / MASS_KG));
+    assert_null(strstr(r.explanation, "terminal speed"));
+    assert_null(strstr(r.explanation, "nothing moves it sideways"));
+    plumb_profile_free(p);
+}
+
 static void test_an_item_whose_drag_lacks_the_key_is_not_applicable(void **state)
 {
     (void)state;
@@ -544,6 +607,8 @@ int main(void)
         cmocka_unit_test(test_a_coarse_tolerance_still_reports_a_value_that_meets_the_limit),
         cmocka_unit_test(test_a_speed_limit_above_terminal_speed_is_unlimited_and_says_so),
         cmocka_unit_test(test_an_energy_below_the_release_energy_is_impossible_and_says_so),
+        cmocka_unit_test(test_a_drift_nothing_moves_sideways_is_unlimited_and_says_why),
+        cmocka_unit_test(test_a_drift_that_moves_sideways_is_not_explained_by_terminal_speed),
         cmocka_unit_test(test_an_item_whose_drag_lacks_the_key_is_not_applicable),
         cmocka_unit_test(test_each_item_is_answered_against_its_own_checks),
         cmocka_unit_test(test_bad_limits_items_and_keys_are_refused_with_their_reason),

@@ -596,6 +596,24 @@ static const bad_case bad_cases[] = {
     {"test_override_into_a_list_without_an_index_is_refused", GOOD,
      "atmosphere.table@@.density=1 kg/m^3", PLUMB_EPARSE, "atmosphere.table.density",
      "give an index"},
+    /* the user's own index given as a dotted part is moved into brackets
+     * (issue 9: "items.2.mass" was answered "e.g. items[1].2.mass"); the
+     * key syntax of README.md, "Profile keys": a list's index in brackets,
+     * items counted from 1 */
+    {"test_an_index_given_as_a_dotted_part_is_suggested_in_brackets",
+     "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
+     "items@@.2.mass=1 kg", PLUMB_EPARSE, "items.2.mass",
+     "'items' is a list: give an index, e.g. items[2].mass"},
+    {"test_an_item_zero_given_as_a_dotted_part_is_suggested_as_the_first",
+     "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
+     "items@@.0.mass=1 kg", PLUMB_EPARSE, "items.0.mass",
+     "'items' is a list: give an index, e.g. items[1].mass"},
+    {"test_a_list_index_given_as_a_dotted_part_is_suggested_in_brackets", GOOD,
+     "atmosphere.table@@.3.density=1 kg/m^3", PLUMB_EPARSE, "atmosphere.table.3.density",
+     "'table' is a list: give an index, e.g. atmosphere.table[3].density"},
+    {"test_a_list_without_an_index_is_suggested_with_its_whole_key", GOOD,
+     "atmosphere.table@@.density=1 kg/m^3", PLUMB_EPARSE, "atmosphere.table.density",
+     "'table' is a list: give an index, e.g. atmosphere.table[0].density"},
     /* items are numbered from 1 in --set and --vary, as in the reports (issue 9) */
     {"test_item_zero_is_refused_since_items_count_from_one",
      "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,

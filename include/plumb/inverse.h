@@ -75,8 +75,11 @@ typedef struct plumb_limit_result {
     int within_at_low_end;        /* 1: the lowest value scanned meets the limit */
     size_t evaluations;           /* falls computed */
     /* Why, in words without figures or units, "" when the figures say it
-     * all: "it levels off as the fall reaches its terminal speed" (unlimited
-     * release height), "even at (almost) zero height the limit is exceeded"
+     * all: "it levels off as the fall reaches its terminal speed"
+     * (unlimited release height, energy or speed), "there is no wind and
+     * no sideways release velocity: nothing moves it sideways, ..." (an
+     * unlimited drift that is 0 at every value scanned), "even at
+     * (almost) zero height the limit is exceeded"
      * (impossible release height), "this item's drag does not use KEY"
      * (not applicable). The report writers word the figures (the range
      * scanned, the crossings, the metric) in the report's units from the

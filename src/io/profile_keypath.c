@@ -197,11 +197,25 @@ static plumb_status keypath_resolve(const char *key, keypath *kp, const char *fi
         pos++;
         switch (child->type) {
         case PLUMBY_T_LIST:
-            if (s->index == KSEG_NONE)
+            if (s->index == KSEG_NONE) {
+                int from_one = kp->n == 1 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0;
+                const char *rest = key + pos;
+                size_t nd = strspn(rest, "0123456789");
+                /* the whole key as it should be written: the user's own
+                 * index, given as a dotted part (items.2.mass), moved into
+                 * brackets (items[2].mass), an item 0, which does not
+                 * exist, as the first (items[1]) */
+                if (nd > 0 && nd <= 7 && (rest[nd] == '.' || rest[nd] == '\0')) {
+                    long given = strtol(rest, NULL, 10);
+                    return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos - 1), key,
+                                          "'%s' is a list: give an index, e.g. %.*s[%ld]%s",
+                                          s->name, (int)(pos - 1), key,
+                                          from_one && given == 0 ? 1L : given, rest + nd);
+                }
                 return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, file, line, KP_COL(pos - 1), key,
-                                      "'%s' is a list: give an index, e.g. %s[%d].%s", s->name,
-                                      s->name, kp->n == 1 && strcmp(s->name, PLUMBY_ITEMS_KEY) == 0,
-                                      key + pos);
+                                      "'%s' is a list: give an index, e.g. %.*s[%d].%s", s->name,
+                                      (int)(pos - 1), key, from_one, rest);
+            }
             cur = &child->sub[0];
             if (cur->type != PLUMBY_T_MAP)
                 return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, KP_COL(pos), key,

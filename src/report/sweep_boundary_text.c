@@ -111,6 +111,20 @@ static void missing_reasons(writer *w, const plumb_sweep *sw, size_t nc)
     }
 }
 
+/* The last dotted part of a key, after its last dot outside brackets
+ * ("mass" of "items[box of M12 bolts].mass"). */
+static const char *key_last_part(const char *key)
+{
+    const char *last = key;
+    int depth = 0;
+    for (const char *p = key; *p; p++) {
+        depth += *p == '[' ? 1 : *p == ']' ? -1 : 0;
+        if (*p == '.' && depth == 0 && p[1])
+            last = p + 1;
+    }
+    return last;
+}
+
 void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
 {
     const plumb_range *a0 = plumb_sweep_axis(sw, 0), *a1 = plumb_sweep_axis(sw, 1);
@@ -153,13 +167,9 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
     /* Columns headed C1..Cn as in the legend below; each as wide as its
      * widest cell, in blocks of as many as fit in TABLE_WIDTH columns. */
     const plumb_item_report *it0 = &r0->report.items[0];
-    size_t wk = shown_width(a0->key) > SWEEP_KEY_COL ? shown_width(a0->key) : SWEEP_KEY_COL;
-    size_t wc[PLUMB_MAX_VERDICTS];
+    size_t wc[PLUMB_MAX_VERDICTS], wc_max = 0;
     char head[PLUMB_MAX_VERDICTS][PLUMB_CRIT_ID + 8];
     int missing = 0, beyond = 0;
-    for (size_t i = 0; i < a0->n; i++)
-        if (shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8)) > wk)
-            wk = shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8));
     for (size_t k = 0; k < nc && k < PLUMB_MAX_VERDICTS; k++) {
         const plumb_criterion *c = plumb_sweep_boundary_criterion(sw, k);
         snprintf(head[k], sizeof head[k], "%s", c->id);
@@ -173,16 +183,27 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
             if (cw > wc[k])
                 wc[k] = cw;
         }
+        wc_max = wc[k] > wc_max ? wc[k] : wc_max;
     }
     if (nc > PLUMB_MAX_VERDICTS)
         nc = PLUMB_MAX_VERDICTS;
+    /* The key's column is headed by the whole key, or by its last part
+     * when the whole leaves no room beside it for a criterion's column
+     * (an item named in the key: the sentence above names it whole). */
+    const char *khead = a0->key;
+    if (shown_width(khead) + wc_max + SWEEP_GAP > TABLE_WIDTH)
+        khead = key_last_part(khead);
+    size_t wk = shown_width(khead) > SWEEP_KEY_COL ? shown_width(khead) : SWEEP_KEY_COL;
+    for (size_t i = 0; i < a0->n; i++)
+        if (shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8)) > wk)
+            wk = shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8));
     for (size_t k0 = 0; k0 < nc;) {
         size_t k1 = k0, used = wk;
         while (k1 < nc && (k1 == k0 || used + wc[k1] + SWEEP_GAP <= TABLE_WIDTH))
             used += wc[k1++] + SWEEP_GAP;
         if (k0 > 0)
             put(w, "\n");
-        pad(w, a0->key, wk, 1);
+        pad(w, khead, wk, 1);
         for (size_t k = k0; k < k1; k++)
             pad(w, head[k], wc[k] + SWEEP_GAP, 1);
         put(w, "\n");

@@ -125,14 +125,48 @@ static inline const char *csvnum(writer *w, double x)
     return b;
 }
 
-/* Characters shown for a UTF-8 string: bytes that do not continue a
- * multi-byte sequence. */
+/* The character starting at s (UTF-8, as the loader accepts it): its
+ * length in bytes into *len (at least 1, never past a NUL), and the
+ * columns it takes on a terminal: 2 for an East Asian wide or fullwidth
+ * character, 0 for a combining mark, 1 otherwise (Unicode UAX #11 East
+ * Asian Width, classes W and F, and general categories Mn and Me: the
+ * main blocks of each, from memory of EastAsianWidth.txt, checked against
+ * Python's unicodedata by tests/cli/report_width.py). */
+static inline size_t char_cols(const char *s, size_t *len)
+{
+    const unsigned char *p = (const unsigned char *)s;
+    size_t n = p[0] < 0x80 ? 1 : p[0] >= 0xF0 ? 4 : p[0] >= 0xE0 ? 3 : p[0] >= 0xC0 ? 2 : 1;
+    unsigned long c = n == 1 ? p[0] : (unsigned long)(p[0] & (0x7F >> n));
+    for (size_t i = 1; i < n; i++) {
+        if ((p[i] & 0xC0) != 0x80) { /* cut short: what there is, as one */
+            n = i;
+            break;
+        }
+        c = (c << 6) | (p[i] & 0x3Fu);
+    }
+    *len = n;
+    if ((c >= 0x0300 && c <= 0x036F) || (c >= 0x1AB0 && c <= 0x1AFF) ||
+        (c >= 0x1DC0 && c <= 0x1DFF) || (c >= 0x20D0 && c <= 0x20FF) ||
+        (c >= 0xFE00 && c <= 0xFE0F) || (c >= 0xFE20 && c <= 0xFE2F))
+        return 0;
+    if ((c >= 0x1100 && c <= 0x115F) || (c >= 0x2E80 && c <= 0x303E) ||
+        (c >= 0x3041 && c <= 0x33FF) || (c >= 0x3400 && c <= 0x4DBF) ||
+        (c >= 0x4E00 && c <= 0x9FFF) || (c >= 0xA000 && c <= 0xA4CF) ||
+        (c >= 0xA960 && c <= 0xA97F) || (c >= 0xAC00 && c <= 0xD7A3) ||
+        (c >= 0xF900 && c <= 0xFAFF) || (c >= 0xFE10 && c <= 0xFE19) ||
+        (c >= 0xFE30 && c <= 0xFE6F) || (c >= 0xFF00 && c <= 0xFF60) ||
+        (c >= 0xFFE0 && c <= 0xFFE6) || (c >= 0x1F300 && c <= 0x1F64F) ||
+        (c >= 0x1F900 && c <= 0x1F9FF) || (c >= 0x20000 && c <= 0x3FFFD))
+        return 2;
+    return 1;
+}
+
+/* Columns a UTF-8 string takes on a terminal (char_cols). */
 static inline size_t shown_width(const char *s)
 {
-    size_t n = 0;
-    for (const unsigned char *p = (const unsigned char *)s; *p; p++)
-        if ((*p & 0xC0) != 0x80)
-            n++;
+    size_t n = 0, len;
+    for (; *s; s += len)
+        n += char_cols(s, &len);
     return n;
 }
 
@@ -187,7 +221,7 @@ static inline const char *status_note_of(const char *status)
     return "";
 }
 
-/* s padded with spaces to `width` shown characters, left or right aligned. */
+/* s padded with spaces to `width` columns, left or right aligned. */
 static inline void pad(writer *w, const char *s, size_t width, int right)
 {
     size_t n = shown_width(s);
@@ -238,8 +272,6 @@ static inline void verdict_cell(writer *w, size_t gap, size_t ratio_w, const cha
         pad(w, word, VERDICT_W, 0);
 }
 
-/* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
- * indented to the width of `lead`. */
 /* 1 when a word looks like the unit of the number before it ("m",
  * "m^2", "kg", "ft·lbf"): short and starting with a letter. */
 static inline int unit_like(const char *p, size_t len)
@@ -247,6 +279,70 @@ static inline int unit_like(const char *p, size_t len)
     return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
 }
 
+/* Columns of the first len bytes of s (see shown_width). */
+static inline size_t shown_width_n(const char *s, size_t len)
+{
+    size_t n = 0, cl;
+    for (size_t i = 0; i < len && s[i]; i += cl)
+        n += char_cols(s + i, &cl);
+    return n;
+}
+
+static inline int breaks_after_char(unsigned char c)
+{
+    return c == '-' || c == '/' || c == '_';
+}
+
+/* 1 when a word of p (len bytes, words parted by spaces) may be broken
+ * after its byte i: after a '-' or '/' inside a word (the break after a
+ * hyphen or a solidus of Unicode UAX #14, line breaking classes HY and
+ * SY), or an '_' (common practice for names, no source); never after a
+ * leading sign, at a word's end, inside a run of them ("--"), nor in a
+ * figure ("1/2", "10-20"). */
+static inline int break_after(const char *p, size_t i, size_t len)
+{
+    if (!breaks_after_char((unsigned char)p[i]) || i == 0 || i + 1 >= len)
+        return 0;
+    unsigned char a = (unsigned char)p[i - 1], b = (unsigned char)p[i + 1];
+    if (a == ' ' || a == NBSP_CHAR || b == ' ' || b == NBSP_CHAR || b == '\0' ||
+        breaks_after_char(b))
+        return 0;
+    return !(isdigit(a) && isdigit(b));
+}
+
+/* The longest head of the word p (len bytes, no spaces) that is at most
+ * `room` columns wide and ends at a break (break_after), in bytes; 0
+ * when there is none. With `hard`, when there is none, the whole
+ * characters that fit (at least one): the word is broken where the line
+ * ends, its rest going on the next line, never dropped. */
+static inline size_t word_head(const char *p, size_t len, size_t room, int hard)
+{
+    size_t shown = 0, brk = 0, fit = 0, cl;
+    for (size_t i = 0; i < len; i += cl) {
+        size_t cw = char_cols(p + i, &cl);
+        if (shown + cw > room)
+            break;
+        shown += cw;
+        if (break_after(p, i, len))
+            brk = i + 1;
+        fit = i + cl < len ? i + cl : len;
+    }
+    if (brk || !hard)
+        return brk;
+    if (fit == 0 && len > 0) { /* no room at all: one character, so the text moves on */
+        (void)char_cols(p, &cl);
+        fit = cl < len ? cl : len;
+    }
+    return fit;
+}
+
+/* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
+ * indented to the width of `lead`. A number stays on the line of its unit;
+ * a word longer than a whole line (an item's name without spaces) is
+ * broken after a hyphen, slash or underscore (word_head), as much of it as
+ * fits on the line it starts, and only where it has none where the line
+ * ends: no line is wider than TEXT_WIDTH unless the lead is, and no word
+ * is cut short. */
 static inline void wrapped(writer *w, const char *lead, const char *text)
 {
     size_t indent = shown_width(lead);
@@ -260,30 +356,39 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
         if (!*p)
             break;
         size_t len = strcspn(p, " ");
-        char word[PLUMB_WARNING * 2];
-        size_t cut = len < sizeof word - 1 ? len : sizeof word - 1;
-        memcpy(word, p, cut);
-        word[cut] = '\0';
-        size_t ww = shown_width(word);
+        size_t ww = shown_width_n(p, len);
         /* a number and its unit stay on one line: fit them as one */
         size_t need = ww;
         const char *next = p + len;
         while (*next == ' ')
             next++;
         size_t nlen = strcspn(next, " ");
-        if (cut > 0 && isdigit((unsigned char)word[cut - 1]) && unit_like(next, nlen)) {
-            char unit[32];
-            size_t ucut = nlen < sizeof unit - 1 ? nlen : sizeof unit - 1;
-            memcpy(unit, next, ucut);
-            unit[ucut] = '\0';
-            need += 1 + shown_width(unit);
-        }
-        if (!first && col + 1 + need > TEXT_WIDTH) {
+        if (isdigit((unsigned char)p[len - 1]) && unit_like(next, nlen))
+            need += 1 + shown_width_n(next, nlen);
+        if (indent + ww > TEXT_WIDTH) {
+            /* too long for any line: broken, its first piece on this line */
+            for (;;) {
+                size_t used = col + (first ? 0 : 1);
+                size_t room = TEXT_WIDTH > used ? TEXT_WIDTH - used : 0;
+                if (ww <= room)
+                    break;
+                size_t head = word_head(p, len, room, first);
+                if (head > 0) {
+                    put(w, "%s%.*s", first ? "" : " ", (int)head, p);
+                    p += head;
+                    len -= head;
+                    ww = shown_width_n(p, len);
+                }
+                put(w, "\n%*s", (int)indent, "");
+                col = indent;
+                first = 1;
+            }
+        } else if (!first && col + 1 + need > TEXT_WIDTH) {
             put(w, "\n%*s", (int)indent, "");
             col = indent;
             first = 1;
         }
-        put(w, "%s%s", first ? "" : " ", word);
+        put(w, "%s%.*s", first ? "" : " ", (int)len, p);
         col += ww + (first ? 0 : 1);
         first = 0;
         p += len;
@@ -291,33 +396,42 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
     put(w, "\n");
 }
 
-/* The first line of s word-wrapped to `width` shown characters, into
- * part; a word longer than the width is broken. Returns the rest of s
- * (past the spaces that end the line), "" when s fits. */
+/* The first line of s word-wrapped to `width` columns, into part. The line ends at its last space, or after a hyphen, slash or
+ * underscore (break_after) when that fills it better (the last space, if
+ * any, in its first half); a word longer than the width with none of
+ * these is broken where the line ends. Returns the rest of s (past the
+ * spaces that end the line), "" when s fits. */
 static inline const char *wrap_cell(const char *s, size_t width, char *part, size_t size)
 {
-    size_t n = 0, shown = 0, last_space = 0;
-    const char *p = s, *cut = NULL;
-    while (*p && n + 1 < size) {
-        unsigned char c = (unsigned char)*p;
-        if ((c & 0xC0) != 0x80) {
-            if (shown == width)
-                break;
-            shown++;
+    size_t n = 0, shown = 0, len = strlen(s), cl;
+    size_t space = 0, space_shown = 0, brk = 0;
+    int has_space = 0;
+    for (; s[n]; n += cl) {
+        size_t cw = char_cols(s + n, &cl);
+        /* a multi-byte character is never split */
+        if (shown + cw > width || n + cl + 1 > size)
+            break;
+        if (s[n] == ' ') {
+            space = n;
+            space_shown = shown;
+            has_space = 1;
+        } else if (break_after(s, n, len)) {
+            brk = n + 1;
         }
-        if (c == ' ') {
-            last_space = n;
-            cut = p;
-        }
-        part[n++] = *p++;
+        shown += cw;
     }
-    /* a multi-byte character is never split */
-    while (*p && ((unsigned char)*p & 0xC0) == 0x80 && n + 1 < size)
-        part[n++] = *p++;
-    if (*p && *p != ' ' && cut) {
-        n = last_space;
-        p = cut;
+    if (s[n] && s[n] != ' ') {
+        if (has_space && (brk < space || 2 * space_shown >= width))
+            n = space;
+        else if (brk)
+            n = brk;
+        else if (has_space)
+            n = space;
+        else if (n == 0 && size > 4) /* not even one character fits: one, so the text moves on */
+            (void)char_cols(s, &n);
     }
+    const char *p = s + n;
+    memcpy(part, s, n);
     while (n > 0 && part[n - 1] == ' ')
         n--;
     part[n] = '\0';
@@ -328,7 +442,7 @@ static inline const char *wrap_cell(const char *s, size_t width, char *part, siz
 
 /* The continuation lines of a table cell wrapped in its column (an item's
  * name in the tables of fall, sweep and zone): the rest of the cell after
- * its first line (wrap_cell), `width` shown characters a line, each line
+ * its first line (wrap_cell), `width` columns a line, each line
  * `indent` spaces in. Writes nothing when rest is "". */
 static inline void cell_continued(writer *w, size_t indent, const char *rest, size_t width)
 {

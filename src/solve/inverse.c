@@ -570,6 +570,44 @@ plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units
     return st;
 }
 
+/* 1 when the spec's wind is calm at every height: a speed of 0, or a
+ * table of calm rows. */
+static int wind_calm(const plumb_wind_spec *wind)
+{
+    if (wind->profile != PLUMB_WIND_TABLE)
+        return wind->speed_m_s == 0.0;
+    for (size_t i = 0; i < wind->table_n; i++)
+        if (wind->table_east_m_s[i] != 0.0 || wind->table_north_m_s[i] != 0.0)
+            return 0;
+    return 1;
+}
+
+/* Why a drift stays within its limit over all of the scan (fs: drift -
+ * limit at the n values scanned), in words: the drift is 0 at every value
+ * and the spec has no wind and no sideways release velocity, so nothing
+ * moves the item sideways. "" otherwise: the figures say the rest (a
+ * drift need not level off: the thinner air of a higher release carries
+ * it further). Never the terminal speed, which bounds a fall's speed and
+ * energy, not how far it is carried. */
+static void drift_unlimited_why(const plumb_fall_spec *spec, const char *key, const double *fs,
+                                size_t n, double limit, plumb_limit_result *res)
+{
+    int moved = 0;
+    for (size_t i = 0; i < n; i++)
+        moved |= fs[i] + limit != 0.0;
+    int calm = spec && wind_calm(&spec->wind);
+    int thrown = spec && (spec->velocity_m_s[0] != 0.0 || spec->velocity_m_s[1] != 0.0);
+    char what[PLUMB_DIAG_KEY + 16];
+    if (strcmp(key, "release.height") == 0)
+        plumbp_strlcpy(what, "height", sizeof what);
+    else
+        snprintf(what, sizeof what, "value of %s", key);
+    if (!moved && calm && !thrown)
+        snprintf(res->explanation, sizeof res->explanation,
+                 "there is no wind and no sideways release velocity: nothing moves it sideways, "
+                 "so no %s gives a drift as large as the limit", what);
+}
+
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
 static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
@@ -658,6 +696,8 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
                 plumbp_strlcpy(res->explanation,
                                "lower values are refused by the profile, so the scan starts "
                                "there", sizeof res->explanation);
+        } else if (metric == PLUMB_METRIC_DRIFT && res->outcome == PLUMB_LIMIT_UNLIMITED) {
+            drift_unlimited_why(plumb_profile_item(profile, c->item), key, fs, n, limit, res);
         } else if (strcmp(key, "release.height") == 0) {
             plumbp_strlcpy(res->explanation,
                            res->outcome == PLUMB_LIMIT_UNLIMITED

@@ -18,6 +18,7 @@ import re
 import shutil
 import sys
 import tempfile
+import unicodedata
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
 from plumbcli import check, finish, plumb  # noqa: E402
@@ -27,8 +28,16 @@ DEMO = sorted(glob.glob(os.path.join(ROOT, "profiles", "demo", "*.yaml")))
 WIDTH = 80
 
 
+def shown(line):
+    """Columns a line takes on a terminal: a wide or full-width character
+    two, a combining mark none, any other one (Unicode UAX #11 East Asian
+    Width, W and F; general category Mn, Me)."""
+    return sum(0 if unicodedata.category(c) in ("Mn", "Me") else
+               2 if unicodedata.east_asian_width(c) in ("W", "F") else 1 for c in line)
+
+
 def wide(out):
-    return [l for l in out.splitlines() if len(l) > WIDTH]
+    return [l for l in out.splitlines() if shown(l) > WIDTH]
 
 
 check(len(DEMO) >= 4, f"demo profiles found: {DEMO}")
@@ -185,6 +194,136 @@ try:
         for k, n in enumerate(NAMES):
             check(re.search(r"==== \d+ " + re.escape(n) + " ", flat),
                   f"zone long names --units {units}: no heading '==== N {n}'")
+finally:
+    shutil.rmtree(tmp)
+
+# ---- a long name without spaces: broken at its hyphens, never cut ------------
+# The new-user review of issue 9: item 5 of tower-kit.yaml renamed to an 85
+# character name with no space ran past 80 columns in the warnings, the
+# inputs, the zone's kit table and limit's "Item 5" line, and the fall's
+# kit table cut it mid-word ("aluminium-bo" / "x-section..."). Expected:
+# every line of every command within 80 columns, the name broken after a
+# hyphen (Unicode UAX #14: a break opportunity after HY), put back whole
+# when its lines are joined. 80 columns: common practice, no source.
+# Item 4 takes a name of 39 East Asian wide characters (78 columns: two
+# each, UAX #11 class W, as Python's unicodedata gives it), which the
+# reports counted as one column each (lines of up to 114 columns); it may
+# be broken between any two of them (UAX #14: class ID, a break
+# opportunity before and after an ideograph).
+LONG = "Stabila-type-aluminium-box-section-spirit-level-600mm-with-magnetic-base-and-end-caps"
+WIDE = "双方向無線機と予備電池と充電器とアンテナと肩掛けストラップ付きの収納ケース一式"
+IDEO = "\u3000-\u9fff\uac00-\ud7a3\uff00-\uff60"
+
+
+def joined(cur, piece):
+    """A name's lines put back together: the line after a break at a hyphen,
+    slash or underscore follows on directly, after a space with a space."""
+    if cur is None:
+        return piece
+    return cur + piece if cur[-1:] in "-/_" else cur + " " + piece
+
+
+def flat(out):
+    """The text with its lines joined, a hyphen-broken word made whole."""
+    return " ".join(re.sub(r"(?<=[-/_])\n *", "", out).split())
+
+
+def table_names(lines):
+    """The item names in the tables of a fall, sweep or zone text report:
+    a row with figures after its name cell starts an item (the cell begins
+    with its number), a line with the name cell alone continues it."""
+    names, i = [], 0
+    while i < len(lines):
+        l = lines[i]
+        kind = ("fall" if l.startswith("   # item") and "clearance" not in l else
+                "zone" if re.match(r"^ +# item +clearance +landing circle$", l) else
+                "sweep" if re.search(r"\S  item  ", l) else None)
+        i += 1
+        if kind is None:
+            continue
+        col = (l.index("item") if kind == "fall" else l.index("clearance") if kind == "zone"
+               else l.index(" item ") + 1)
+        cur = None
+        for l in lines[i:]:
+            if not l.strip():
+                break
+            i += 1
+            if kind == "fall":
+                cell = l[col:].split("  ")[0].strip() if len(l) > col else ""
+                start = re.match(r"^ {0,3}\d+ ", l)
+            elif kind == "zone":
+                cell, start = l[:col].strip(), l[col:].strip()
+                cell = re.sub(r"^\d+ ", "", cell) if start else cell
+            else:
+                cell, rest = (l[col:] + "  ").split("  ", 1) if len(l) > col else ("", "")
+                start = rest.strip()
+                cell = re.sub(r"^\d+ ", "", cell.strip()) if start else cell.strip()
+            if not cell:
+                continue
+            if start:
+                if cur is not None:
+                    names.append(cur)
+                cur = cell
+            else:
+                cur = joined(cur, cell)
+        if cur is not None:
+            names.append(cur)
+    return names
+
+
+tmp = tempfile.mkdtemp(prefix="plumb-width.", dir=os.environ.get("TMPDIR"))
+try:
+    src = open(os.path.join(ROOT, "profiles", "demo", "tower-kit.yaml")).read()
+    old = re.findall(r"^  - name: (.*)$", src, re.M)
+    check(len(old) >= 5, f"tower-kit.yaml has five items: {old}")
+    src = src.replace(f"  - name: {old[4]}\n", f"  - name: {LONG}\n", 1)
+    src = src.replace(f"  - name: {old[3]}\n", f"  - name: {WIDE}\n", 1)
+    check(LONG in src and len(LONG) == 85 and " " not in LONG, "the long name is in the profile")
+    check(WIDE in src and shown(WIDE) == 78, f"the wide name is in the profile, {shown(WIDE)} columns")
+    path = os.path.join(tmp, "long-word.yaml")
+    with open(path, "w", encoding="utf-8") as f:
+        f.write(src)
+    # each command, and the fewest whole names its tables hold (fall: the
+    # figures and the criteria table; sweep: one row per value, each table)
+    runs = [(("fall", path), 2),
+            (("sweep", path, "--vary", "release.height=5m:25m:10m"), 3),
+            (("sweep", path, "--vary", "release.height=10m:40m:10m",
+              "--vary", "wind.speed=0kn:20kn:10kn"), 12),
+            # the item named in the varied key: the key's column and the
+            # boundary table are headed by its last part, "mass"
+            (("sweep", path, "--vary", f"items[{LONG}].mass=0.1kg:0.3kg:0.1kg",
+              "--vary", "release.height=10m:20m:10m"), 6),
+            (("limit", path, "--find", "release.height", "--energy-max", "40J"), 0),
+            (("limit", path, "--find", "release.height", "--drift-max", "2m"), 0),
+            (("zone", path, "--samples", "400", "--threads", "1"), 1)]
+    for units in ("si", "us"):
+        for args, in_tables in runs:
+            what = f"long word: {' '.join(a for a in args if a != path)} --units {units}"
+            rc, out, err = plumb(*args, "--units", units)
+            check(rc == 0 and out, f"{what}: exit {rc} {err.strip()[:200]}")
+            w = wide(out)
+            check(not w, f"{what}: {len(w)} lines over {WIDTH} columns:\n" + "\n".join(w[:5]))
+            # every place a name starts, it is whole: in a table's column
+            # or in the text around it, never cut nor broken mid-word
+            starts = out.count(LONG[:8])
+            names = table_names(out.splitlines())
+            in_text = flat(out).count(LONG)
+            whole = names.count(LONG)
+            check(starts >= 1 and whole + in_text == starts and whole >= in_tables,
+                  f"{what}: the name starts {starts} times, whole {whole} times in tables "
+                  f"(at least {in_tables}) and {in_text} in the text; table cells "
+                  f"{[n for n in names if n.startswith(LONG[:8])][:3]}")
+            # the wide name's characters, the only ideographs of the report,
+            # read in order: the name whole each time, as often as the other
+            ideo = "".join(re.findall(f"[{IDEO}]", out))
+            k = len(ideo) // len(WIDE)
+            check(k >= max(in_tables, 1) and ideo == WIDE * k,
+                  f"{what}: the wide name {k} times whole (at least {max(in_tables, 1)}), "
+                  f"{len(ideo) - k * len(WIDE)} characters over")
+        rc, out, err = plumb("air", "--alt", "0m:3000m:500m", "--units", units)
+        check(rc == 0 and not wide(out), f"air --units {units}: {err.strip()} {wide(out)[:3]}")
+    rc, out, err = plumb("verify")
+    check(rc == 0 and out and not wide(out), f"verify: exit {rc} {err.strip()} {wide(out)[:3]}")
 finally:
     shutil.rmtree(tmp)
 
