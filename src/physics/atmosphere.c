@@ -53,6 +53,7 @@
 #include "plumb/atmosphere.h"
 #include "plumb/constants.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 
 /* surface model: how far below and above the station it is valid, m (our
  * choice: the 1976 tables' depth below sea level, and one troposphere). */
@@ -143,17 +144,28 @@ static double std_m_ratio_at(double alt_m)
     return std_m_ratio[k] + f * (std_m_ratio[k + 1] - std_m_ratio[k]);
 }
 
-/* Dry 1976 state at geometric alt_m (assumed in range): molecular-scale
- * temperature, kinetic temperature, pressure. */
-static void std1976_dry(double alt_m, double *tm_k, double *t_k, double *p_pa)
+/* The 1976 layer at geometric alt_m (assumed in range), the height into
+ * it and the molecular-scale temperature there: the first half of
+ * std1976_dry, which a layer with a lapse rate ends with
+ * pow(b->t_k / tm, ATM_GMR / b->lapse_k_m). */
+static const atm_layer *std1976_layer(double alt_m, double *dh_m, double *tm_k)
 {
     double h = geopotential_m(alt_m);
     size_t i = ATM_N_LAYERS - 1;
     while (i > 0 && h < std_layers[i].h_m)
         i--;
     const atm_layer *b = &std_layers[i];
-    double dh = h - b->h_m;
-    double tm = b->t_k + b->lapse_k_m * dh;
+    *dh_m = h - b->h_m;
+    *tm_k = b->t_k + b->lapse_k_m * *dh_m;
+    return b;
+}
+
+/* Dry 1976 state at geometric alt_m (assumed in range): molecular-scale
+ * temperature, kinetic temperature, pressure. */
+static void std1976_dry(double alt_m, double *tm_k, double *t_k, double *p_pa)
+{
+    double dh, tm;
+    const atm_layer *b = std1976_layer(alt_m, &dh, &tm);
     if (b->lapse_k_m == 0.0)
         *p_pa = b->p_pa * exp(-ATM_GMR * dh / b->t_k);
     else
@@ -493,6 +505,29 @@ static plumb_status table_air(const plumb_atmosphere *a, double alt_m, plumb_air
     double p = exp(ln_rho) * PLUMB_RAIR_J_KG_K * tm;
     air_fill(alt_m, t, tm, p, a->rh, out);
     return PLUMB_OK;
+}
+
+plumb_status plumbp_atmosphere_at_pow(const plumb_atmosphere *atm, double alt_m, double x,
+                                      double e, plumb_air *out, double *x_pow_e)
+{
+    if (atm && out && atm->model == PLUMB_ATM_STD1976 && in_range(alt_m, atm->lo_m, atm->hi_m)) {
+        /* std1976_air with the caller's pow beside the pressure's */
+        double dh, tm;
+        const atm_layer *b = std1976_layer(alt_m, &dh, &tm);
+        if (b->lapse_k_m != 0.0) {
+            double ratio = pow(b->t_k / tm, ATM_GMR / b->lapse_k_m);
+            *x_pow_e = pow(x, e);
+            double p = b->p_pa * ratio;
+            double t = tm * std_m_ratio_at(alt_m) + atm->dt_k;
+            tm += atm->dt_k;
+            if (t > 0.0) {
+                air_fill(alt_m, t, tm, p, atm->rh, out);
+                return PLUMB_OK;
+            }
+        }
+    }
+    *x_pow_e = pow(x, e);
+    return plumb_atmosphere_at(atm, alt_m, out);
 }
 
 plumb_status plumb_atmosphere_at(const plumb_atmosphere *atm, double alt_m, plumb_air *out)

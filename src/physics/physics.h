@@ -6,7 +6,9 @@
 #define PLUMB_PHYSICS_INTERNAL_H
 
 #include <stddef.h>
+#include "plumb/atmosphere.h"
 #include "plumb/drag.h"
+#include "plumb/wind.h"
 
 /* One evaluation of the fall's right-hand side (trajectory_rhs.c) at time t_s
  * and state y (x, y, z, vx, vy, vz, W), into f; for measuring its cost
@@ -15,6 +17,30 @@ struct plumb_fall_spec;
 struct plumb_atmosphere;
 int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmosphere *atm,
                     double t_s, const double y[7], double f[7]);
+
+/* The air at alt_m, as plumb_atmosphere_at gives it (the same figures
+ * and errors), and pow(x, e) beside it: where the air needs a pow() of its
+ * own (the 1976 layers with a lapse rate) the two are issued together, so
+ * that the processor overlaps them; the fall's right-hand side asks for
+ * the power-law wind this way (atmosphere.c). *x_pow_e is set in any
+ * case. */
+plumb_status plumbp_atmosphere_at_pow(const plumb_atmosphere *atm, double alt_m, double x,
+                                      double e, plumb_air *out, double *x_pow_e);
+
+/* The power-law wind speed at z_m is spec->speed_m_s * pow(*x, *e):
+ * returns 1 and sets *x and *e for a power profile and z_m > 0, else
+ * returns 0. The one place of the formula, for plumb_wind_speed_at
+ * (wind.c) and the fall's right-hand side (inline: it is called at every
+ * evaluation). Can't fail. */
+static inline int plumbp_wind_power_terms(const plumb_wind_spec *spec, double z_m, double *x,
+                                          double *e)
+{
+    if (spec->profile != PLUMB_WIND_POWER || !(z_m > 0.0))
+        return 0;
+    *x = z_m / spec->ref_height_m;
+    *e = spec->exponent;
+    return 1;
+}
 
 /* The Reynolds-number intervals of a sphere drag model on which
  * Cd(Re) Re^2 may decrease (drag.c), sorted and disjoint; outside them the

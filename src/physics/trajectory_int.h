@@ -82,6 +82,11 @@ struct fall_ctx {
     plumb_downwash dw;          /* the rotor wake at release, if any */
     int turb;                   /* 1: realised gusts are added to the wind */
     double w20_m_s;             /* their W20 */
+    /* the air, gravity and mean wind at the last height (height_terms) */
+    int memo_ok;                /* 1: the fields below hold */
+    double memo_z;              /* y[IZ] they are for, m (compared bit for bit) */
+    plumb_air memo_air;
+    double memo_g, memo_we, memo_wn;
 };
 
 

@@ -25,6 +25,7 @@
 
 #include "plumb/wind.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 
 /* Defaults: anemometer height 10 m (WMO-No. 8 standard exposure); power-law
  * exponent 1/7 (common practice for neutral air over open land); roughness
@@ -91,8 +92,11 @@ double plumb_wind_speed_at(const plumb_wind_spec *spec, double z_m)
     switch (spec->profile) {
     case PLUMB_WIND_UNIFORM:
         return spec->speed_m_s;
-    case PLUMB_WIND_POWER:
-        return spec->speed_m_s * pow(z_m / spec->ref_height_m, spec->exponent);
+    case PLUMB_WIND_POWER: {
+        double x, e;
+        plumbp_wind_power_terms(spec, z_m, &x, &e);
+        return spec->speed_m_s * pow(x, e);
+    }
     case PLUMB_WIND_LOG:
         if (!(z_m > spec->roughness_m))
             return 0.0;
