@@ -446,9 +446,21 @@ void sheet_section_cautions(sheet_doc *d)
 
 /* ---- the pictures' sections --------------------------------------------------------- */
 
+/* Under the energy plot of a kit with more items than it draws: which are. */
+static void sheet_plotted_note(sheet_doc *d, const plumb_brief *b)
+{
+    if (b->fall->n_items <= b->n_plots)
+        return;
+    sheet_para(d, sheet_fmt(d, "%s %.1f", SHEET_FONT, SHEET_BODY),
+               sheet_fmt(d, "The %zu worst of the %zu items are drawn (highest ratio to the "
+                            "strictest criterion first); \u201cEvery item, worst first\u201d "
+                            "lists them all.", b->n_plots, b->fall->n_items));
+}
+
 void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
 {
     double w = sheet_width(d);
+    double note = b->fall->n_items > b->n_plots ? 30.0 : 0.0;
     sheet_heading(d, "Side view of the fall", 220.0);
     d->y += sheet_side_view(d, b, d->left, d->y, w, 215.0);
     /* taller with more criteria, so that their labels find room beside
@@ -457,7 +469,8 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
     double h = 250.0 + 14.0 * (b->n_criteria > 3 ? (double)(b->n_criteria - 3) : 0.0);
     if (h > 370.0)
         h = 370.0;
-    sheet_heading(d, "Impact energy against drop height", h + 10.0);
+    sheet_heading(d, "Impact energy against drop height", h + 10.0 + note);
+    sheet_plotted_note(d, b);
     d->y += sheet_energy_plot(d, b, d->left, d->y, w, h);
 }
 
