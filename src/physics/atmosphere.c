@@ -144,32 +144,32 @@ static double std_m_ratio_at(double alt_m)
     return std_m_ratio[k] + f * (std_m_ratio[k + 1] - std_m_ratio[k]);
 }
 
-/* The 1976 layer at geometric alt_m (assumed in range), the height into
- * it and the molecular-scale temperature there: the first half of
- * std1976_dry, which a layer with a lapse rate ends with
- * pow(b->t_k / tm, ATM_GMR / b->lapse_k_m). */
-static const atm_layer *std1976_layer(double alt_m, double *dh_m, double *tm_k)
+/* A caller's pow(x, e) taken beside the air's own (plumbp_atmosphere_at_pow). */
+typedef struct side_pow {
+    double x, e;
+    double *out;
+} side_pow;
+
+/* Dry 1976 state at geometric alt_m (assumed in range): molecular-scale
+ * temperature, kinetic temperature, pressure. A side pow (sp, may be
+ * NULL) is issued right after the pressure's, so that the processor
+ * overlaps the two. */
+static void std1976_dry(double alt_m, double *tm_k, double *t_k, double *p_pa,
+                        const side_pow *sp)
 {
     double h = geopotential_m(alt_m);
     size_t i = ATM_N_LAYERS - 1;
     while (i > 0 && h < std_layers[i].h_m)
         i--;
     const atm_layer *b = &std_layers[i];
-    *dh_m = h - b->h_m;
-    *tm_k = b->t_k + b->lapse_k_m * *dh_m;
-    return b;
-}
-
-/* Dry 1976 state at geometric alt_m (assumed in range): molecular-scale
- * temperature, kinetic temperature, pressure. */
-static void std1976_dry(double alt_m, double *tm_k, double *t_k, double *p_pa)
-{
-    double dh, tm;
-    const atm_layer *b = std1976_layer(alt_m, &dh, &tm);
+    double dh = h - b->h_m;
+    double tm = b->t_k + b->lapse_k_m * dh;
     if (b->lapse_k_m == 0.0)
         *p_pa = b->p_pa * exp(-ATM_GMR * dh / b->t_k);
     else
         *p_pa = b->p_pa * pow(b->t_k / tm, ATM_GMR / b->lapse_k_m);
+    if (sp)
+        *sp->out = pow(sp->x, sp->e);
     *tm_k = tm;
     *t_k = tm * std_m_ratio_at(alt_m);
 }
@@ -209,13 +209,14 @@ static int in_range(double x, double lo, double hi)
     return x >= lo && x <= hi; /* false for NaN */
 }
 
-static plumb_status std1976_air(double alt_m, double dt_k, double rh, plumb_air *out)
+static plumb_status std1976_air(double alt_m, double dt_k, double rh, plumb_air *out,
+                                const side_pow *sp)
 {
     if (!in_range(alt_m, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M))
         return PLUMB_RAISE(NULL, PLUMB_ERANGE, "altitude outside the 1976 model's %g..%g m",
                            PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M);
     double tm, t, p;
-    std1976_dry(alt_m, &tm, &t, &p);
+    std1976_dry(alt_m, &tm, &t, &p, sp);
     t += dt_k;
     tm += dt_k;
     if (!(t > 0.0))
@@ -228,7 +229,7 @@ plumb_status plumb_std1976(double alt_m, double dt_k, plumb_air *out)
 {
     if (!out || !isfinite(dt_k))
         return PLUMB_RAISE(NULL, PLUMB_EINVAL, "plumb_std1976: NULL output or non-finite offset");
-    return std1976_air(alt_m, dt_k, 0.0, out);
+    return std1976_air(alt_m, dt_k, 0.0, out, NULL);
 }
 
 double plumb_sutherland_viscosity(double t_k)
@@ -267,7 +268,7 @@ static plumb_status check_offset(double dt_k, double lo_m, double hi_m, plumb_di
     }
     for (size_t i = 0; i < n; i++) {
         double tm, t, p;
-        std1976_dry(at[i], &tm, &t, &p);
+        std1976_dry(at[i], &tm, &t, &p, NULL);
         if (!(t + dt_k > 0.0))
             return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, "atmosphere.temperature_offset",
                                    "an offset of %g K makes the temperature %g K at %.0f m; "
@@ -496,7 +497,7 @@ static plumb_status table_air(const plumb_atmosphere *a, double alt_m, plumb_air
         tm = t;
     } else {
         double p_std;
-        std1976_dry(alt_m, &tm, &t, &p_std);
+        std1976_dry(alt_m, &tm, &t, &p_std, NULL);
         t += a->dt_k;
         tm += a->dt_k;
     }
@@ -510,21 +511,10 @@ static plumb_status table_air(const plumb_atmosphere *a, double alt_m, plumb_air
 plumb_status plumbp_atmosphere_at_pow(const plumb_atmosphere *atm, double alt_m, double x,
                                       double e, plumb_air *out, double *x_pow_e)
 {
-    if (atm && out && atm->model == PLUMB_ATM_STD1976 && in_range(alt_m, atm->lo_m, atm->hi_m)) {
-        /* std1976_air with the caller's pow beside the pressure's */
-        double dh, tm;
-        const atm_layer *b = std1976_layer(alt_m, &dh, &tm);
-        if (b->lapse_k_m != 0.0) {
-            double ratio = pow(b->t_k / tm, ATM_GMR / b->lapse_k_m);
-            *x_pow_e = pow(x, e);
-            double p = b->p_pa * ratio;
-            double t = tm * std_m_ratio_at(alt_m) + atm->dt_k;
-            tm += atm->dt_k;
-            if (t > 0.0) {
-                air_fill(alt_m, t, tm, p, atm->rh, out);
-                return PLUMB_OK;
-            }
-        }
+    if (atm && out && atm->model == PLUMB_ATM_STD1976 && in_range(alt_m, atm->lo_m, atm->hi_m) &&
+        in_range(alt_m, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M)) {
+        side_pow sp = {x, e, x_pow_e};
+        return std1976_air(alt_m, atm->dt_k, atm->rh, out, &sp);
     }
     *x_pow_e = pow(x, e);
     return plumb_atmosphere_at(atm, alt_m, out);
@@ -544,6 +534,6 @@ plumb_status plumb_atmosphere_at(const plumb_atmosphere *atm, double alt_m, plum
         return table_air(atm, alt_m, out);
     case PLUMB_ATM_STD1976:
     default:
-        return std1976_air(alt_m, atm->dt_k, atm->rh, out);
+        return std1976_air(alt_m, atm->dt_k, atm->rh, out, NULL);
     }
 }
