@@ -27,6 +27,10 @@ int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmos
 plumb_status plumbp_atmosphere_at_pow(const plumb_atmosphere *atm, double alt_m, double x,
                                       double e, plumb_air *out, double *x_pow_e);
 
+/* 1 when the wind is calm at every height: a speed of 0, or a table of
+ * calm rows (wind.c). Can't fail. */
+int plumbp_wind_calm(const plumb_wind_spec *w);
+
 /* The power-law wind speed at z_m is spec->speed_m_s * pow(*x, *e):
  * returns 1 and sets *x and *e for a power profile and z_m > 0, else
  * returns 0. The one place of the formula, for plumb_wind_speed_at

@@ -525,15 +525,6 @@ static plumb_status buoyancy_work(const plumb_fall_spec *s, const plumb_atmosphe
     return PLUMB_OK;
 }
 
-static int calm(const plumb_wind_spec *w)
-{
-    if (w->profile != PLUMB_WIND_TABLE)
-        return w->speed_m_s == 0.0;
-    for (size_t i = 0; i < w->table_n; i++)
-        if (w->table_east_m_s[i] != 0.0 || w->table_north_m_s[i] != 0.0)
-            return 0;
-    return 1;
-}
 
 /* The checks every fall passes before its figures are given:
  *  - the work-energy theorem, 1/2 m (v^2 - v0^2) = m g_mid H + W_buoyancy
@@ -563,7 +554,7 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
                            "the fall fails its energy balance: kinetic energy gained %.9g J, work "
                            "of gravity, buoyancy and drag %.9g J (method %s)",
                            gained, work, res->solver.method);
-    if (v0sq == 0.0 && calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (plumb_drag_given_cd_area(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
+    if (v0sq == 0.0 && plumbp_wind_calm(&s->wind) && !w->ctx.dw.on && !w->ctx.turb && (plumb_drag_given_cd_area(&s->drag) > 0.0 || s->drag.model != PLUMB_DRAG_FIXED)) {
         double vt_top, vt_max = w->ctx.vt_max_m_s;
         if (plumbp_traj_terminal_speed(s, atm, H, 0, w->root, w->min, &vt_top) == PLUMB_OK &&
             vt_top > vt_max)

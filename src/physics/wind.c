@@ -123,3 +123,13 @@ void plumb_wind_at(const plumb_wind_spec *spec, double z_m, double *east_m_s, do
     if (s != 0.0)
         plumb_wind_components(s, spec->from_deg, east_m_s, north_m_s);
 }
+
+int plumbp_wind_calm(const plumb_wind_spec *w)
+{
+    if (w->profile != PLUMB_WIND_TABLE)
+        return w->speed_m_s == 0.0;
+    for (size_t i = 0; i < w->table_n; i++)
+        if (w->table_east_m_s[i] != 0.0 || w->table_north_m_s[i] != 0.0)
+            return 0;
+    return 1;
+}

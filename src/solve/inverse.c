@@ -17,6 +17,7 @@
 #include "core/internal.h"
 #include "io/keys.h"
 #include "io/vary.h"
+#include "physics/physics.h"
 
 /* Values scanned for changes of sign before Brent refines them: 10 per
  * decade over a positive key's 6 decades. */
@@ -570,18 +571,6 @@ plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units
     return st;
 }
 
-/* 1 when the spec's wind is calm at every height: a speed of 0, or a
- * table of calm rows. */
-static int wind_calm(const plumb_wind_spec *wind)
-{
-    if (wind->profile != PLUMB_WIND_TABLE)
-        return wind->speed_m_s == 0.0;
-    for (size_t i = 0; i < wind->table_n; i++)
-        if (wind->table_east_m_s[i] != 0.0 || wind->table_north_m_s[i] != 0.0)
-            return 0;
-    return 1;
-}
-
 /* Why a drift stays within its limit over all of the scan (fs: drift -
  * limit at the n values scanned), in words: the drift is 0 at every value
  * and the spec has no wind and no sideways release velocity, so nothing
@@ -595,7 +584,7 @@ static void drift_unlimited_why(const plumb_fall_spec *spec, const char *key, co
     int moved = 0;
     for (size_t i = 0; i < n; i++)
         moved |= fs[i] + limit != 0.0;
-    int calm = spec && wind_calm(&spec->wind);
+    int calm = spec && plumbp_wind_calm(&spec->wind);
     int thrown = spec && (spec->velocity_m_s[0] != 0.0 || spec->velocity_m_s[1] != 0.0);
     char what[PLUMB_DIAG_KEY + 16];
     if (strcmp(key, "release.height") == 0)
