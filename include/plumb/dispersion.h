@@ -1,5 +1,6 @@
 /*
- * plumb/dispersion.h - the Monte Carlo clearance zone (design.md section 3).
+ * plumb/dispersion.h - the Monte Carlo clearance zone (README.md "plumb
+ * zone").
  *
  * N falls are computed, each with its uncertain inputs drawn from the
  * profile's `uncertainty:` distributions. Sample i draws from its own

@@ -1,6 +1,6 @@
 /*
  * plumb/geodesy.h - local east/north metres to WGS 84 latitude and
- * longitude and back, for map output (design.md section 3).
+ * longitude and back, for map output (README.md "plumb zone", "On a map").
  *
  * Method: the Gauss mid-latitude formulas on the WGS 84 ellipsoid (a =
  * 6378137 m, f = 1/298.257223563; NIMA TR8350.2, 3rd ed., 2000, table 3.1).

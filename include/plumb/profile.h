@@ -1,11 +1,11 @@
 /*
  * plumb/profile.h - payload profiles: strict YAML (libyaml) into fall specs.
  *
- * The format is design.md section 5. Every dimensional value carries its
- * unit; unknown keys are errors with a did-you-mean; duplicate keys,
- * anchors and aliases, tabs, invalid UTF-8, files over 1 MiB and empty
- * files are refused. Every error fills the diagnostic with file, line,
- * column and the dotted key.
+ * The format is README.md's "Profiles" and "Profile keys". Every
+ * dimensional value carries its unit; unknown keys are errors with a
+ * did-you-mean; duplicate keys, anchors and aliases, tabs, invalid UTF-8,
+ * files over 1 MiB and empty files are refused. Every error fills the
+ * diagnostic with file, line, column and the dotted key.
  *
  * Overrides ("KEY=VALUE", as `--set`) replace or add a scalar at a dotted
  * key path before the profile is interpreted, with the same units and

@@ -1,7 +1,8 @@
 /*
  * plumb/region.h - where things land: a region of the ground that holds a
  * stated fraction p of the impact points, from a stream of points, with a
- * distribution-free bound on its coverage (design.md section 3).
+ * distribution-free bound on its coverage (README.md "plumb zone", "Where
+ * the impacts land").
  *
  * Method: split conformal prediction (J. Lei, J. Robins, L. Wasserman,
  * "Distribution-free prediction sets", JASA 108 (2013) 278-287). The

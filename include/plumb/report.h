@@ -1,10 +1,10 @@
 /*
  * plumb/report.h - text, JSON (jansson) and CSV reports, and the cautions.
  *
- * Every report in every format carries the cautions of design.md section 7
- * (SAFETY.md holds the full text): text and CSV as closing lines (CSV as
- * "# " comment lines), JSON as the "cautions" array. JSON is always SI with
- * unit-suffixed keys; --units changes text and CSV only.
+ * Every report in every format carries the cautions (README.md "Cautions";
+ * SAFETY.md section 1 holds the full text): text and CSV as closing lines
+ * (CSV as "# " comment lines), JSON as the "cautions" array. JSON is always
+ * SI with unit-suffixed keys; --units changes text and CSV only.
  * Reports never contain NaN or infinity: a non-finite figure makes the
  * writer fail with PLUMB_ENUMERIC before anything is written.
  *

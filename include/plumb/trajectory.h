@@ -3,7 +3,7 @@
  *
  * Frame: x east, y north, z up, metres; z = 0 is the strike level, whose
  * height above MSL is site_elevation_m. Air is taken at elevation + z.
- * Equation of motion (design.md section 2):
+ * Equation of motion (README.md "The model"):
  *
  *     m dv/dt = -m g(alt) z^ - 1/2 rho(alt) CdA(t, Re) |v - w(z)| (v - w(z))
  *               + rho(alt) V g(alt) z^                     (buoyancy, V > 0)

@@ -1,7 +1,7 @@
 /*
  * cli.h - what every plumb subcommand shares (internal to the command line,
  * not part of libplumb): option parsing, error printing with the exit
- * statuses of design.md section 6, atomic output files and the lookup of
+ * statuses of README.md "Exit status", atomic output files and the lookup of
  * the criteria directory. The command line uses libplumb's public API only.
  *
  * Exit statuses: 0 done; 2 usage or input error (nothing written); 3 the

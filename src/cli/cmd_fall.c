@@ -1,7 +1,8 @@
 /*
  * cmd_fall.c - `plumb fall PROFILE`: the fall of the profile's payload (or
  * of each item of an inventory) from its release point, judged against the
- * named criteria, as text, JSON or CSV (design.md sections 2, 4 and 6).
+ * named criteria, as text, JSON or CSV (README.md "plumb fall", "The
+ * model" and "Criteria").
  *
  * The work is the study's (plumb/study.h): this handler parses the
  * options, opens the study, asks for the falls and writes the report.

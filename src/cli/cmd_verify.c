@@ -1,7 +1,7 @@
 /*
  * cmd_verify.c - `plumb verify`: the library's published reference checks
  * (include/plumb/verify.h) in text, JSON or CSV. Exit status 1 when a
- * check fails (design.md section 6), 3 when one cannot be computed.
+ * check fails (README.md "Exit status"), 3 when one cannot be computed.
  */
 #include <stdio.h>
 

@@ -1,7 +1,7 @@
 /*
  * cmd_zone.c - `plumb zone PROFILE`: the Monte Carlo clearance zone of the
  * profile's payload (or of each item of an inventory) over its
- * `uncertainty:` distributions (design.md section 3; the method is in
+ * `uncertainty:` distributions (README.md "plumb zone"; the method is in
  * include/plumb/dispersion.h).
  *
  * Defaults come from the profile's `zone:` map; --samples, --seed,

@@ -1,7 +1,8 @@
 /*
  * main.c - the plumb command line: a table of subcommands over libplumb
- * (design.md section 6). Each subcommand lives in cmd_<name>.c; what they
- * share (option parsing, atomic output, error printing) is in cli.c.
+ * (README.md "Command reference"). Each subcommand lives in cmd_<name>.c;
+ * what they share (option parsing, atomic output, error printing) is in
+ * cli.c.
  */
 #include <stdio.h>
 #include <string.h>

@@ -1,5 +1,5 @@
 /*
- * criteria.c - named impact-energy criteria (design.md section 4) and
+ * criteria.c - named impact-energy criteria (README.md "Criteria") and
  * verdicts.
  *
  * Each criterion is one strict YAML file (yamltree.c: no unknown or

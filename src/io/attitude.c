@@ -2,7 +2,8 @@
  * attitude.c - the attitude of a payload as an uncertain input
  * (src/io/attitude.h): a weighted choice among attitudes, each with its
  * drag, so one zone covers the attitude that falls fastest (the highest
- * energy) and the one that drifts farthest (design.md section 3).
+ * energy) and the one that drifts farthest (README.md "plumb zone",
+ * "Attitude").
  *
  * Named attitudes take the drag of the item's shape in that attitude
  * (plumb_drag_from_shape, drag.h: tumbling = Cauchy's mean projected

@@ -1,6 +1,6 @@
 /*
- * profile.c - strict YAML payload profiles into fall specs (design.md
- * section 5; the numeric keys are described once, in the key table
+ * profile.c - strict YAML payload profiles into fall specs (README.md
+ * "Profiles"; the numeric keys are described once, in the key table
  * src/io/keys.c, whose rows the schema in profile_schema.c names and
  * tests/test_keys.c holds to it; the README's "Profile keys" table
  * documents them for users).

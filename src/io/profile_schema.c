@@ -1,12 +1,12 @@
 /*
- * profile_schema.c - the schema of a payload profile (design.md section
- * 5): every key, its kind of value and the words it takes. A numeric key
- * is not described here: its leaf names its row of the one key table
- * (src/io/keys.c), which gives its dimension and range; tests/test_keys.c
- * checks that every numeric leaf names the row of its own key and that
- * every row is reached from here. plumby_check (yamltree_schema.c) holds a
- * profile to the schema; the README's "Profile keys" table documents the
- * same keys for users.
+ * profile_schema.c - the schema of a payload profile (README.md
+ * "Profiles"): every key, its kind of value and the words it takes. A
+ * numeric key is not described here: its leaf names its row of the one
+ * key table (src/io/keys.c), which gives its dimension and range;
+ * tests/test_keys.c checks that every numeric leaf names the row of its
+ * own key and that every row is reached from here. plumby_check
+ * (yamltree_schema.c) holds a profile to the schema; the README's
+ * "Profile keys" table documents the same keys for users.
  */
 #include <stddef.h>
 

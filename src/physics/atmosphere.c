@@ -31,8 +31,8 @@
  *  - Humidity uses e = RH e_s(T), capped at p (vapour cannot exceed the total
  *    pressure), and Tv from T_M; e_s is 0 below the Magnus pole (T < 30 K).
  *  - surface: dz is the geometric height above the station, the height the
- *    profile's lapse rate is quoted per (and the plain reading of design.md
- *    section 2), with the hydrostatic law at constant g0. Given the 1976
+ *    profile's lapse rate is quoted per (as README.md "The model" states
+ *    it), with the hydrostatic law at constant g0. Given the 1976
  *    sea-level values it is the 1976 troposphere with geometric height in
  *    place of geopotential height (a difference of dz^2 / r0: 0.16 m at
  *    1 km).

@@ -1,6 +1,6 @@
 /*
  * trajectory.c - the 3-D fall of a point mass through moving air
- * (design.md section 2; equations in include/plumb/trajectory.h).
+ * (README.md "The model"; equations in include/plumb/trajectory.h).
  *
  * Method: GSL gsl_odeiv2 evolve/control/step (rk8pd by default: Prince &
  * Dormand, J. Comp. Appl. Math. 7, 1981) over segments bounded by the

@@ -32,9 +32,9 @@ void plumbp_csv_cautions(writer *w)
 
 /* The names of one item's columns, in US and SI units. item_number is the
  * item's number as items[N] counts it: as the profile is written, so after
- * --set 'items[2]=~' the rows are 1, 3 ... (design.md section 5). The
- * descent devices' steady speed (every device open, as JSON
- * steady_speed_m_s) and peak drag force are empty without a device. */
+ * --set 'items[2]=~' the rows are 1, 3 ... (README.md "Profile keys",
+ * "Inventory"). The descent devices' steady speed (every device open, as
+ * JSON steady_speed_m_s) and peak drag force are empty without a device. */
 static const char csv_item_cols_us[] =
     "item_number,name,mass_lb,time_s,speed_ft_s,speed_mph,energy_ft_lbf,energy_j,momentum_lbf_s,"
     "angle_deg,drift_ft,bearing_deg,east_ft,north_ft,terminal_speed_ft_s,apex_ft,"

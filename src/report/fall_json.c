@@ -1,8 +1,9 @@
 /*
  * fall_json.c - the JSON report of a fall (jansson), always SI with the
- * unit-suffixed keys of design.md section 6; numbers with 17 significant
- * digits, enough for any IEEE 754 double to read back exactly (IEEE
- * 754-2008, section 5.12.2). The item object is shared with the sweep.
+ * unit-suffixed keys README.md "plumb fall" fixes; numbers with 17
+ * significant digits, enough for any IEEE 754 double to read back exactly
+ * (IEEE 754-2008, section 5.12.2). The item object is shared with the
+ * sweep.
  */
 #include <math.h>
 #include <stdio.h>
@@ -45,8 +46,8 @@ static json_t *j_impact(jctx *j, const plumb_fall_result *r)
     jset(j, o, "angle_deg", jreal(j, r->angle_deg));
     jset(j, o, "point_m", jvec(j, r->point_m, 2));
     jset(j, o, "drift_m", jreal(j, r->drift_m));
-    /* design.md section 6 fixes the key as a number: 0 for a drift the text
-     * calls none (README.md, plumb fall), as the CSV leaves it empty */
+    /* README.md "plumb fall" fixes the key as a number: 0 for a drift the
+     * text calls none, as the CSV leaves it empty */
     jset(j, o, "bearing_deg", jreal(j, r->drift_m < DRIFT_SHOWN_M ? 0.0 : r->bearing_deg));
     jset(j, o, "velocity_m_s", jvec(j, r->velocity_m_s, 3));
     return o;
@@ -294,8 +295,8 @@ json_t *plumbp_j_profile(jctx *j, const plumb_profile *p)
 
 /* One shape for a single payload and a kit: a single payload is a kit of
  * one ("inventory", "items", "worst", "largest_drift" always there), and
- * keeps its figures at the top level of o too, where design.md section 6
- * fixes them. Used by the fall report and by every row of a sweep. */
+ * keeps its figures at the top level of o too, where README.md "plumb
+ * fall" fixes them. Used by the fall report and by every row of a sweep. */
 void plumbp_j_items_into(jctx *j, json_t *o, const plumb_fall_report *rep, const item_air *ia)
 {
     int kit = plumb_profile_is_inventory(rep->profile);

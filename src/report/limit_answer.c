@@ -127,8 +127,9 @@ static const char *t_the_limit(writer *w, const plumb_limit_report *rep)
  * returned as numbers (the range scanned, the crossings, the metric) and
  * its words without figures (r->explanation), into buf. The text and CSV
  * reports word it in the report's units; the JSON in SI, as all of the
- * JSON (design.md section 6). label: the key as the answer names it, as
- * `plumb fall --set` takes it (items[N].X for an item of an inventory). */
+ * JSON (README.md "Common options", --units). label: the key as the
+ * answer names it, as `plumb fall --set` takes it (items[N].X for an item
+ * of an inventory). */
 static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_result *r,
                     const char *label, char *buf, size_t size)
 {
@@ -364,8 +365,8 @@ static void csv_limit(writer *w, const plumb_limit_report *rep)
     }
 }
 
-/* The explanation of the JSON: in SI, whatever --units says (design.md
- * section 6), words joined by plain spaces. */
+/* The explanation of the JSON: in SI, whatever --units says (README.md
+ * "Common options"), words joined by plain spaces. */
 static const char *j_explain(jctx *j, const plumb_limit_report *rep, const plumb_limit_result *r,
                              const char *label, char *buf, size_t size)
 {

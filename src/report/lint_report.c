@@ -1,8 +1,8 @@
 /*
  * lint_report.c - the report of `plumb lint` (plumb_report_lint): which
  * profiles are good and every error found in the others, in text, JSON and
- * CSV, with the cautions in JSON and CSV as in every report (design.md
- * section 7); and an error's message in the report's units
+ * CSV, with the cautions in JSON and CSV as in every report (README.md
+ * "Cautions"); and an error's message in the report's units
  * (plumb_report_diag_message): a value outside its key's range gets the
  * range again in US customary units, converted by plumbp_show_key (the
  * international foot 0.3048 m and pound 0.45359237 kg, NIST SP 811, 2008,

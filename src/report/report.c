@@ -11,7 +11,7 @@
  * or, for JSON, as a jansson tree; only when it is complete, and every
  * figure in it has been found finite, is it copied to the caller's stream.
  * So a refused report writes nothing at all. Units and number forms are
- * those of format.c; JSON is always SI (design.md section 6).
+ * those of format.c; JSON is always SI (README.md "Common options").
  */
 #include <math.h>
 #include <stdint.h>
@@ -23,7 +23,7 @@
 #include "plumb/wind.h"
 #include "report/common.h"
 
-/* ---- the cautions (design.md section 7; SAFETY.md has the full text) ---- */
+/* ---- the cautions (README.md "Cautions", SAFETY.md section 1) ----------- */
 
 static const char *const cautions[] = {
     "These figures are an engineering estimate from a point-mass model, not a measurement.",

@@ -2,7 +2,7 @@
  * sheet_page.c - the PDF sheet's text and pages: pango markup set and
  * measured, escaped and formatted strings (the text report's formatters,
  * format.c), line styles, and the pages with their footers (page n of m
- * and the short caution, design.md section 7), headings and paragraphs
+ * and the short caution, SAFETY.md section 1), headings and paragraphs
  * kept together.
  */
 #include <math.h>
@@ -17,7 +17,8 @@
 #include "report/sheet_doc.h"
 #include "report/common.h"
 
-/* The short caution of every footer (design.md section 7). */
+/* The short caution of every footer (SAFETY.md section 1; README.md "plumb
+ * sheet"). */
 static const char footer_caution[] =
     "An engineering estimate from a point-mass model, not a measurement: real objects deflect, "
     "bounce, break and tumble, and energy limits are not guarantees of safety. Follow local codes "

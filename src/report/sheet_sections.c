@@ -17,7 +17,8 @@
 #include "report/sheet_doc.h"
 #include "report/common.h"
 
-/* What the model assumes (design.md section 2), for section 7. */
+/* What the model assumes (README.md "The model", SAFETY.md section 3), for
+ * section 7 of the sheet. */
 static const char *const assumptions[] = {
     "The payload is a point mass: its drag is a drag coefficient on a reference area (or a "
     "shape's correlation), with no lift, spin or tumbling dynamics beyond the attitude stated.",

@@ -1,6 +1,6 @@
 /*
  * dispersion.c - the Monte Carlo clearance zone (include/plumb/dispersion.h,
- * design.md section 3).
+ * README.md "plumb zone").
  *
  * Methods and sources:
  *  - Random streams: sample i of seed s uses outputs 2i+1 and 2i+2 of the
