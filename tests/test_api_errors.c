@@ -401,7 +401,8 @@ static void test_set_keys_that_cannot_name_a_value_are_refused(void **state)
 }
 
 /* A hand-made report whose figure is not finite is never written
- * (design.md section 7: never print NaN); an item without its spec is refused. */
+ * (README.md "Common options": never NaN or infinity); an item without
+ * its spec is refused. */
 static void test_a_report_with_a_figure_not_finite_is_not_written(void **state)
 {
     (void)state;

@@ -225,7 +225,7 @@ static void test_speed_of_sound_at_sea_level_is_340_294_m_s(void **state)
     assert_abs(std_at(0.0, 0.0).a_m_s, 340.294, 0.001);
 }
 
-/* Design section 2: T = T_std + dT, p = p_std, rho = p / (R T), so rho
+/* plumb/atmosphere.h: T = T_std + dT, p = p_std, rho = p / (R T), so rho
  * scales by T_std / (T_std + dT). */
 static void test_temperature_offset_keeps_pressure_and_scales_density(void **state)
 {
@@ -259,7 +259,7 @@ static void test_default_spec_is_dry_standard_1976_over_minus_5_to_86_km(void **
     assert_int_equal(spec.model, PLUMB_ATM_STD1976);
     assert_abs(spec.temperature_offset_k, 0.0, 0.0);
     assert_abs(spec.relative_humidity, 0.0, 0.0);
-    assert_abs(spec.lapse_rate_k_m, 0.0065, 0.0); /* design section 2 default */
+    assert_abs(spec.lapse_rate_k_m, 0.0065, 0.0); /* README.md "Profile keys" */
     assert_null(spec.table_alt_m);
     plumb_atmosphere *atm = make(&spec);
     double lo, hi;

@@ -322,7 +322,7 @@ static void drone_uncertainty(plumb_uncertainty *u)
     u[6] = unc("payload.mass", PLUMB_DIST_NORMAL, 0.485, 0.031, 0.0);
 }
 
-/* design.md section 3: each sample's stream comes from (seed, index), so
+/* README.md "plumb zone": each sample's stream comes from (seed, index), so
  * the result is the same for any thread count and block size, and for the
  * same seed on every run (compared byte for byte). */
 static void test_zone_is_identical_for_one_two_and_three_threads(void **state)

@@ -59,7 +59,7 @@ static void test_gravity_falls_by_the_free_air_gradient_with_altitude(void **sta
 }
 
 /* Without a latitude: standard gravity 9.80665 m/s^2 (CGPM 1901; US Std Atm
- * 1976 Table 2), the same at every altitude (design section 2). */
+ * 1976 Table 2), the same at every altitude (README.md "The model"). */
 static void test_gravity_without_latitude_is_g0_at_every_altitude(void **state)
 {
     (void)state;

@@ -287,7 +287,7 @@ static void test_written_forms_of_a_key_find_its_row(void **state)
 }
 
 /* When a key applies: drag.cd only with cd and area, descent[1] only
- * with two devices (design.md section 5). */
+ * with two devices (README.md "Profile keys"). */
 static void test_a_key_reaches_the_spec_only_where_it_applies(void **state)
 {
     plumb_fall_spec s;

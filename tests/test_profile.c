@@ -7,13 +7,13 @@
  * characters); the marker is removed before the file is written, so the
  * expected position is stated by the text itself. The keys are those of
  * README "Profile keys" (src/io/keys.c describes the numeric ones once,
- * tests/test_keys.c holds it to the loader); positive loads use the design.md section 5
- * example. Reference values: the navigation convention east = s sin(h),
- * north = s cos(h) (heading clockwise from north); the meteorological wind
- * convention w = -s (sin from, cos from) (WMO No. 8, from memory); the
- * canopy area S0 = pi D0^2 / 4 (Knacke, NWC TP 6575, 1991); the foot,
- * 0.3048 m exactly (1959 international yard and pound agreement); degC to
- * K, + 273.15 exactly (SI Brochure, 9th ed.).
+ * tests/test_keys.c holds it to the loader); positive loads use a full
+ * example with every top-level map. Reference values: the navigation
+ * convention east = s sin(h), north = s cos(h) (heading clockwise from
+ * north); the meteorological wind convention w = -s (sin from, cos from)
+ * (WMO No. 8, from memory); the canopy area S0 = pi D0^2 / 4 (Knacke,
+ * NWC TP 6575, 1991); the foot, 0.3048 m exactly (1959 international yard
+ * and pound agreement); degC to K, + 273.15 exactly (SI Brochure, 9th ed.).
  * The files in tests/bad/ are loaded too, each against the expectation in
  * its first line: "# expect: SUBSTRING @ LINE:COL key=KEY".
  */
@@ -935,7 +935,8 @@ static void test_items_are_numbered_from_one_and_by_name_in_overrides(void **sta
     plumb_profile_free(p);
 }
 
-/* design.md section 5: items are numbered one way everywhere. After
+/* README.md "Profile keys", "Inventory": items are numbered one way
+ * everywhere. After
  * --set 'items[2]=~' the items keep the numbers of the profile as written
  * (1 and 3), an added item takes the next (4), a profile derived from it
  * (a sweep's row, a limit's fall) counts items[N] the same way, and a
@@ -1004,8 +1005,10 @@ static void test_null_arguments_are_invalid(void **state)
 
 /* ---- positive loads ---------------------------------------------------- */
 
-/* design.md section 5, verbatim (comments included). */
-static const char section5[] =
+/* A full example of the format (README.md "Profiles"): every top-level
+ * map, a parachute, the shape alternative and the other choices in
+ * end-of-line comments, as a user writes them. */
+static const char full_example[] =
     "name: Torque wrench, 3/4 in drive\n"
     "payload:\n"
     "  mass: 2.4 kg\n"
@@ -1039,10 +1042,10 @@ static const char section5[] =
     "  wind.speed: {normal: [8 m/s, 2 m/s]}\n"
     "zone: {samples: 100000, seed: 7, confidence: 0.999, scatter: 2 m}\n";
 
-static void test_design_md_section_5_example_loads_with_every_value_in_si(void **state)
+static void test_full_example_loads_with_every_value_in_si(void **state)
 {
     (void)state;
-    plumb_profile *p = load_ok(section5, NULL, 0);
+    plumb_profile *p = load_ok(full_example, NULL, 0);
     assert_string_equal(plumb_profile_name(p), "Torque wrench, 3/4 in drive");
     assert_int_equal(plumb_profile_is_inventory(p), 0);
     assert_int_equal(plumb_profile_item_count(p), 1);
@@ -1088,7 +1091,7 @@ static void test_design_md_section_5_example_loads_with_every_value_in_si(void *
     assert_int_equal(u0->kind, PLUMB_DIST_UNIFORM);
     assert_rel(u0->param[0], 0.7, 1e-15);
     assert_rel(u0->param[1], 1.1, 1e-15);
-    assert_int_equal(u0->line, line_of(section5, "  payload.drag.cd:"));
+    assert_int_equal(u0->line, line_of(full_example, "  payload.drag.cd:"));
     assert_int_equal(u0->col, 3);
     const plumb_uncertainty *u1 = plumb_profile_uncertainty(p, 1);
     assert_string_equal(u1->key, "wind.speed");
@@ -1107,9 +1110,9 @@ static void test_design_md_section_5_example_loads_with_every_value_in_si(void *
 static void test_sha256_is_of_the_file_bytes(void **state)
 {
     (void)state;
-    plumb_profile *p = load_ok(section5, NULL, 0);
+    plumb_profile *p = load_ok(full_example, NULL, 0);
     char want[PLUMBP_SHA256_HEX];
-    plumbp_sha256_hex(section5, strlen(section5), want);
+    plumbp_sha256_hex(full_example, strlen(full_example), want);
     assert_string_equal(plumb_profile_sha256(p), want);
     assert_int_equal(strlen(plumb_profile_sha256(p)), 64);
     assert_int_equal(strspn(plumb_profile_sha256(p), "0123456789abcdef"), 64);
@@ -1189,7 +1192,8 @@ static void test_feet_and_degrees_celsius_are_converted_to_si(void **state)
     assert_rel(a->station_alt_m, 1234.0, 1e-15);
     assert_rel(a->station_pressure_pa, 87600.0, 1e-14);
     assert_rel(a->station_temperature_k, 12.5 + 273.15, 1e-14);
-    /* default lapse 6.5 K/km, the 1976 troposphere (design.md section 2) */
+    /* default lapse 6.5 K/km (README.md "Profile keys"), that of the 1976
+     * troposphere (U.S. Standard Atmosphere 1976, Table 4, layer 0) */
     assert_rel(a->lapse_rate_k_m, 0.0065, 1e-12);
     plumb_profile_free(p);
 }
@@ -2016,7 +2020,7 @@ int main(void)
         cmocka_unit_test(test_items_are_numbered_from_one_and_by_name_in_overrides),
         cmocka_unit_test(test_items_keep_their_numbers_as_written_after_a_removal),
         cmocka_unit_test(test_null_arguments_are_invalid),
-        cmocka_unit_test(test_design_md_section_5_example_loads_with_every_value_in_si),
+        cmocka_unit_test(test_full_example_loads_with_every_value_in_si),
         cmocka_unit_test(test_sha256_is_of_the_file_bytes),
         cmocka_unit_test(test_name_defaults_to_the_file_stem),
         cmocka_unit_test(test_defaults_fill_site_air_wind_and_zone),

@@ -19,7 +19,8 @@
  *     any binary64 value exactly.
  *   - RFC 4180 section 2: fields containing commas or quotes are quoted,
  *     quotes doubled.
- *   - design.md sections 6 and 7: the JSON keys and the cautions.
+ *   - README.md "plumb fall" and "Cautions", SAFETY.md section 1: the JSON
+ *     keys and the cautions.
  * The fall results are hand-built (not computed): these tests check what
  * the report does with figures, not the physics that made them.
  */
@@ -234,7 +235,7 @@ static plumb_item_report judged_spanner(fixture *fx, const plumb_profile *p, dou
 
 /* ---- cautions ----------------------------------------------------------- */
 
-static void test_cautions_say_what_design_section_7_requires(void **state)
+static void test_cautions_make_every_point_of_safety_md_section_1(void **state)
 {
     (void)state;
     size_t n = 0;
@@ -246,7 +247,7 @@ static void test_cautions_say_what_design_section_7_requires(void **state)
         strcat(all, c[i]);
         strcat(all, " ");
     }
-    /* design.md section 7, point by point. */
+    /* SAFETY.md section 1 (README.md "Cautions"), point by point. */
     assert_non_null(strstr(all, "engineering estimate"));
     assert_non_null(strstr(all, "point-mass model"));
     assert_non_null(strstr(all, "deflect, bounce, break and tumble"));
@@ -521,8 +522,9 @@ static void test_unknown_named_criterion_is_a_key_error_with_did_you_mean(void *
 }
 
 /* A criterion named by --set is reported in "--set", at its column in the
- * argument (design.md section 6: the file is the profile's path, "--set"
- * for an override), even when the profile has no criteria key. */
+ * argument (README.md "Exit status", DEVELOPERS.md "Errors": the file is
+ * the profile's path, "--set" for an override), even when the profile has
+ * no criteria key. */
 static void test_unknown_criterion_from_set_names_set_and_the_nearest_id(void **state)
 {
     fixture *fx = *state;
@@ -849,7 +851,7 @@ static void test_a_warnings_figures_are_shown_in_the_units_asked_for(void **stat
 
 /* ---- JSON ---------------------------------------------------------------- */
 
-static void test_json_has_the_keys_of_design_section_6(void **state)
+static void test_json_has_the_fixed_keys_of_plumb_fall(void **state)
 {
     fixture *fx = *state;
     plumb_profile *p = load_profile(fx, "spanner.yaml", spanner_yaml);
@@ -1318,7 +1320,7 @@ static void test_a_lint_report_gives_each_errors_parts_apart(void **state)
 int main(void)
 {
     const struct CMUnitTest tests[] = {
-        cmocka_unit_test(test_cautions_say_what_design_section_7_requires),
+        cmocka_unit_test(test_cautions_make_every_point_of_safety_md_section_1),
         cmocka_unit_test(test_cautions_appear_in_text_json_and_csv_fall_reports),
         cmocka_unit_test(test_cautions_appear_in_air_reports_of_every_format),
         cmocka_unit_test(test_a_failed_verify_check_is_reported_as_failed),
@@ -1336,7 +1338,7 @@ int main(void)
         cmocka_unit_test(test_mach_above_one_half_gives_a_warning),
         cmocka_unit_test(test_reynolds_number_beyond_morrison_range_gives_a_warning),
         cmocka_unit_test(test_helmet_test_criterion_is_labelled_not_a_safe_limit),
-        cmocka_unit_test(test_json_has_the_keys_of_design_section_6),
+        cmocka_unit_test(test_json_has_the_fixed_keys_of_plumb_fall),
         cmocka_unit_test(test_json_numbers_read_back_to_the_same_double),
         cmocka_unit_test(test_air_json_rows_carry_the_1976_sea_level_values),
         cmocka_unit_test(test_air_table_states_its_temperature_offset_in_every_format),

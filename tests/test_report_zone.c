@@ -11,7 +11,7 @@
  * are test_dispersion.c's).
  *
  * Sources of the checked values:
- *   - design.md section 7 / report.h: the cautions (plumb_cautions) in every
+ *   - SAFETY.md section 1 / report.h: the cautions (plumb_cautions) in every
  *     report, text and CSV as closing or "# " lines, JSON as "cautions";
  *     reports never contain NaN or infinity; a non-finite figure makes the
  *     writer fail with PLUMB_ENUMERIC before anything is written.

@@ -1,6 +1,6 @@
 /*
  * test_wind.c - wind direction convention and speed profiles against their
- * closed forms (plumb/wind.h; design section 2).
+ * closed forms (plumb/wind.h; README.md "The model").
  */
 #include <math.h>
 #include <stdarg.h>
@@ -183,7 +183,7 @@ static void test_table_wind_interpolates_components_linearly_in_height(void **st
     assert_abs(n, -0.6, 0.0);
 }
 
-/* Design section 2: w = 0 at and below z = 0 for every profile. */
+/* README.md "The model": w = 0 at and below z = 0 for every profile. */
 static void test_every_profile_is_calm_at_and_below_the_strike_level(void **state)
 {
     (void)state;

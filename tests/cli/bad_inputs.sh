@@ -2,7 +2,7 @@
 # Bad input at the command line: every malformed profile in tests/bad/, bad
 # --set overrides, bad `plumb air --alt` ranges, and files that are not
 # profiles (a directory, a missing file, /proc/self/mem, an oversize file,
-# an empty file). Each must exit with status 2 (design.md section 6), say
+# an empty file). Each must exit with status 2 (README.md "Exit status"), say
 # where on stderr as `plumb: FILE:LINE:COL: KEY: message`, and write
 # nothing: no -o file, no temporary file beside it.
 #

@@ -6,7 +6,7 @@
 # 22.5 deg clockwise from the one before, N = 0 (the rose's definition;
 # common practice, no source), so NW is 315 deg and NE 45 deg: each check
 # compares the report with the same degrees written out, which must be
-# identical. Errors name the option (design.md section 6: exit 2).
+# identical. Errors name the option (README.md "Exit status": exit 2).
 #
 #   sh tests/cli/directions.sh PLUMB
 #

@@ -1,7 +1,7 @@
 #!/bin/sh
 # Golden-file tests of the plumb command line (the jq practice: run a
 # command, compare its output byte for byte with an expected file, under
-# LC_ALL=C). Also: every output carries the cautions (design.md section 7),
+# LC_ALL=C). Also: every output carries the cautions (README.md "Cautions"),
 # --help and --version, usage errors exit 2, -o writes atomically and the
 # same bytes as standard output, and nothing is written on an error.
 #
@@ -25,7 +25,7 @@ ok() { pass=$((pass + 1)); }
 bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
 
 # The cautions, as phrases that survive word wrapping once line ends and
-# runs of spaces are squeezed (design.md section 7).
+# runs of spaces are squeezed (README.md "Cautions", SAFETY.md section 1).
 has_cautions() {
   flat=$(tr '\n' ' ' <"$1" | tr -s ' ')
   for phrase in "engineering estimate from a point-mass model" \

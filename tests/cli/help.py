@@ -9,7 +9,7 @@ each command, each candidate is tried on the command line: unless plumb
 answers "unknown option", the command accepts it, and then it must have a
 line of its own in the "Options:" list of `plumb COMMAND --help`. The other
 way round, every option the list names must be accepted. --help itself
-must go to standard output with status 0 (design.md section 6), and no
+must go to standard output with status 0 (README.md "Common options"), and no
 line of plumb --help or of any command's --help is wider than 80
 characters (issue 9; 80 columns: the classic terminal width, VT100 /
 ECMA-48 default line; common practice, no source). The help of -o names

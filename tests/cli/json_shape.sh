@@ -2,7 +2,7 @@
 # One JSON shape for a single payload and a kit (issue 9): every fall
 # report, and every row of a sweep, has "inventory", "items", "worst" and
 # "largest_drift"; a single payload is a kit of one whose item is the same
-# object as its top-level figures (kept where design.md section 6 fixes
+# object as its top-level figures (kept where README.md "plumb fall" fixes
 # them), in the zone JSON too; and no zone JSON depends on the thread
 # count.
 . "$(dirname "$0")/lib/setup.sh"

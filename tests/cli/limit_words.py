@@ -9,7 +9,7 @@ kind of limit (--energy-max, --speed-max, --drift-max):
     given in, where the answer says so;
   - every figure of the US explanation is the SI run's figure converted by
     an independent factor, to the digits printed;
-  - the JSON is SI whatever --units says (design.md section 6): the same
+  - the JSON is SI whatever --units says (README.md "Common options"): the same
     bytes from --units si and --units us;
   - no line of the text is wider than 80 columns.
 Factors (exact by definition; NIST SP 811 (2008), Appendix B.8, seen):

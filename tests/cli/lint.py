@@ -1,6 +1,7 @@
 #!/usr/bin/python3
 """`plumb lint --format json|csv`, `--units us` and `-o` (issue 9,
-"Commands that behave like Unix tools"; design.md sections 6 and 7).
+"Commands that behave like Unix tools"; README.md "plumb lint" and
+"Cautions").
 
 What each check is measured against:
   - where an error is: the `# expect: ... @ LINE:COL key=KEY` line each file
@@ -9,7 +10,7 @@ What each check is measured against:
   - what an error says: the same errors in the same order as the text
     format prints on standard error (`plumb: FILE:LINE:COL: KEY: MESSAGE`,
     the form DEVELOPERS.md "Errors" fixes), so the formats cannot disagree;
-  - the cautions: the list every report carries (design.md section 7),
+  - the cautions: the list every report carries (README.md "Cautions"),
     taken from `plumb verify --format json`, a report of another writer;
   - US limits (`--units us`): the sea-level speed of sound 340.294 m/s
     (U.S. Standard Atmosphere 1976, Table I, transcribed) over the
@@ -80,7 +81,7 @@ d = json.loads(out) if out.startswith("{") else {}
 check(rc == 2 and rc_t == 2, f"lint with bad profiles exits 2 in text and JSON ({rc_t}, {rc})")
 check(d.get("plumb_version") and d["plumb_version"] in version,
       f"JSON names plumb_version {d.get('plumb_version')!r} ({version.strip()})")
-check(d.get("cautions") == CAUTIONS, "JSON carries the cautions of every report (design.md 7)")
+check(d.get("cautions") == CAUTIONS, "JSON carries the cautions of every report (README.md Cautions)")
 profs = d.get("profiles", [])
 check([p.get("name") for p in profs] == args, f"one entry per profile, in order: {profs!r:.200}")
 check(d.get("passed") == 1 and d.get("failed") == len(BAD),
@@ -108,7 +109,7 @@ check(rc == 2 and err == "", f"JSON --quiet: nothing on stderr, still exit 2 ({e
 rc, out, _ = plumb("lint", GOOD, "--format", "json")
 check(rc == 0 and json.loads(out).get("failed") == 0, f"all good: exit 0, failed 0 ({rc})")
 rc, out_us, _ = plumb("lint", *args, "--format", "json", "--units", "us")
-check(rc == 2 and json.loads(out_us) == d, "JSON is SI whatever --units says (design.md 6)")
+check(rc == 2 and json.loads(out_us) == d, "JSON is SI whatever --units says (README.md Common options)")
 
 # a file that cannot be read is an error of that profile, in the report
 missing = os.path.join(tmp, "no-such.yaml")

@@ -6,7 +6,7 @@ drag, or so little that drag balances its weight at no speed up to
 PLUMB_TERMINAL_MAX_M_S (1e6 m/s). `plumb fall` then prints "none" in text,
 null in JSON (README: `terminal_speed_m_s` is null when there is none; the
 steady descent speed under devices likewise), an empty CSV field, never a
-huge number; the keys of design.md section 6 stay.
+huge number; the keys README.md "plumb fall" fixes stay.
 
 Sources of the checked values:
   - work-energy theorem, no drag: v = sqrt(v0^2 + 2 g0 H), g0 = 9.80665
@@ -32,7 +32,7 @@ THROWN = os.path.join(HERE, "profiles", "thrown.yaml")
 CANOPY = os.path.join(HERE, "profiles", "canopy.yaml")
 G0 = 9.80665
 V_DRAG_FREE = math.sqrt(3.0 ** 2 + 11.0 ** 2 + 2.0 * G0 * 12.0)
-SECTION6 = ("impact", "terminal_speed_m_s", "apex_m", "drag_free", "criteria", "cautions")
+FIXED_KEYS = ("impact", "terminal_speed_m_s", "apex_m", "drag_free", "criteria", "cautions")
 
 
 def numbers_above_bound(line):
@@ -57,7 +57,7 @@ for label, sets, tiny in [
     rc, out, err = plumb("fall", THROWN, *sets, "--format", "json")
     d = json.loads(out) if rc == 0 and out else {}
     check(d.get("terminal_speed_m_s", 0) is None, f"{label}: JSON terminal_speed_m_s is null")
-    check(all(k in d for k in SECTION6), f"{label}: JSON keeps the keys of design.md 6")
+    check(all(k in d for k in FIXED_KEYS), f"{label}: JSON keeps the fixed keys (README.md plumb fall)")
     v = d.get("impact", {}).get("speed_m_s", 0.0)
     check(abs(v - V_DRAG_FREE) <= 1e-9 * V_DRAG_FREE,
           f"{label}: lands at sqrt(v0^2 + 2 g H) = {V_DRAG_FREE} m/s (got {v})")

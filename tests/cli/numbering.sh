@@ -1,9 +1,10 @@
 #!/bin/sh
-# An inventory's items are numbered one way everywhere (design.md section 5,
-# issue 9): the text report counts rows from 1, so `--set items[2].X`
-# changes the second row, `--vary items[3].X` the third, and an item may be
-# named instead (`items[chain sling].mass`). Checked on the invented
-# tests/cli/profiles/inventory.yaml (pin punch, chain sling, glove):
+# An inventory's items are numbered one way everywhere (README.md "Profile
+# keys", "Inventory"; issue 9): the text report counts rows from 1, so
+# `--set items[2].X` changes the second row, `--vary items[3].X` the third,
+# and an item may be named instead (`items[chain sling].mass`). Checked on
+# the invented tests/cli/profiles/inventory.yaml (pin punch, chain sling,
+# glove):
 # - the text report's row 2 is the item `--set items[2]` changed;
 # - in the JSON, only the second item's mass_kg changes, to the value set;
 # - naming the item gives the same report as numbering it;
@@ -124,7 +125,7 @@ if [ $rc -eq 2 ] && grep -q '^plumb: --set:2:1: items\[5\]\.mass: items\[5\] is 
 then ok; else bad "items[5] of three after items[1]=~: exit $rc, $(cat "$tmp/err")"; fi
 
 # ---- the reports keep the numbers as written after a removal ----------------
-# (design.md section 5: one numbering in reports and in --set) after
+# (README.md "Profile keys": one numbering in reports and in --set) after
 # items[2]=~ the text rows, the CSV's item_number column and the JSON's
 # item_number are 1 and 3, the numbers --set items[N] takes; an added item
 # is 4. A sweep's --vary items[3] after the removal varies the glove (its

@@ -57,8 +57,8 @@ rows = list(csv.DictReader(io.StringIO("\n".join(l for l in out.splitlines() if 
 check(rc == 0 and len(rows) == 2 and all(r["bearing_deg"] == "" for r in rows),
       "sweep CSV: no bearing for no drift")
 
-# JSON keeps bearing_deg a number (design.md section 6): 0 for a drift the
-# text calls none, below 0.005 m (README.md, plumb fall). A wind of 1.37 mm/s
+# JSON keeps bearing_deg a number (README.md "plumb fall"): 0 for a drift
+# the text calls none, below 0.005 m. A wind of 1.37 mm/s
 # from the north moves a fall from rest at most w T (its horizontal speed
 # never exceeds the wind's: drag pulls it toward the air's velocity), under
 # 5 mm, but not nothing; 2.3 m/s moves it due south, bearing 180 (issue 9:

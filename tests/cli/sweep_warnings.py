@@ -9,11 +9,11 @@ unchanged), and for the parachute the meaning of `descent.deploy: {after:
 release cannot open in a fall that lasts less than 3 s, so every row whose
 impact time is under 3 s must carry the warning that it did not open, and
 a fall over twice that long (the canopy has had 3 s to open) must not.
-Also: every line at most 80 columns (design.md section 7 keeps the printed
-sheet's width; TABLE_WIDTH), each table's marks in the column of its
-`warn` header, the warnings numbered W1 ... in the block with the rows
-listed, and the CSV's `warnings` column holding the numbers of the
-`# warning N:` lines.
+Also: every line at most 80 columns (the classic terminal width, VT100 /
+ECMA-48 default line; common practice, no source; TABLE_WIDTH), each
+table's marks in the column of its `warn` header, the warnings numbered
+W1 ... in the block with the rows listed, and the CSV's `warnings` column
+holding the numbers of the `# warning N:` lines.
 """
 import csv
 import io

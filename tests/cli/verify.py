@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""`plumb verify` (design.md section 6: published reference checks,
+"""`plumb verify` (README.md "plumb verify": published reference checks,
 text/JSON, exit 1 on a failure). On a sound build every check passes and
 the command exits 0. The published values it compares with are checked
 here against the sources themselves, written out independently of the
@@ -21,12 +21,12 @@ library's table:
 Every format carries the cautions; text fits 80 columns; arguments are a
 usage error (exit 2).
 --units us adds US customary figures beside the SI ones (text in
-brackets, CSV in columns of their own; JSON stays SI, design.md section
-6). They are checked against conversions written out here from NIST SP
-811 (2008), Appendix B.8: the international foot 0.3048 m and pound
-0.45359237 kg (exact, 1959 agreement), standard gravity 9.80665 m/s^2
-(exact; the pound-force is the pound under it), t/degF = 1.8 T/K - 459.67,
-the conventional inch of mercury 3.386 389 E+03 Pa.
+brackets, CSV in columns of their own; JSON stays SI, README.md
+"plumb verify"). They are checked against conversions written out here
+from NIST SP 811 (2008), Appendix B.8: the international foot 0.3048 m
+and pound 0.45359237 kg (exact, 1959 agreement), standard gravity
+9.80665 m/s^2 (exact; the pound-force is the pound under it), t/degF =
+1.8 T/K - 459.67, the conventional inch of mercury 3.386 389 E+03 Pa.
 Usage: verify.py PATH/TO/plumb   (prints `cli: N passed, N failed`)
 """
 import csv
@@ -155,7 +155,7 @@ check("[" not in flat.split("fall time of 30 m without drag")[1].split("ok ")[0]
 rc1, j_si, _ = plumb("verify", "--format", "json")
 rc2, j_us, _ = plumb("verify", "--format", "json", "--units", "us")
 check(rc1 == rc2 == 0 and json.loads(j_si) == json.loads(j_us),
-      "verify JSON is SI whatever --units says (design.md section 6)")
+      "verify JSON is SI whatever --units says (README.md plumb verify)")
 
 rc, out, err = plumb("verify", "extra")
 check(rc == 2 and not out and "takes no arguments" in err, f"verify extra: usage error ({err})")

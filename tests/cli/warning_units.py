@@ -10,7 +10,7 @@ turbulence):
     zone carry US units (lbf, ft², mph with knots for speeds of air) and no
     SI unit, and the same sentences in both commands;
   - without it, SI (N, m², m/s), and angles as ° in both, never "deg";
-  - JSON is SI whatever --units says (design.md section 6), and the SI
+  - JSON is SI whatever --units says (README.md "Common options"), and the SI
     and US sentences state the same figures to their printed precision;
   - the gusts' W20 of `intensity: light` is 15 kn (MIL-F-8785C low-altitude
     light turbulence, as README.md "Gusts" gives it; from memory), printed

@@ -1,6 +1,6 @@
 #!/bin/sh
-# `plumb zone` end to end on invented test profiles (design.md sections 3
-# and 6): the zone is the same for 1, 2 and 3 threads and for the same seed
+# `plumb zone` end to end on invented test profiles (README.md "plumb
+# zone"): the zone is the same for 1, 2 and 3 threads and for the same seed
 # twice, byte for byte (the JSON names no thread count); the cautions are in every
 # format; JSON has the documented keys, no NaN or infinity, the seed and the
 # profile's SHA-256 (checked with sha256sum, FIPS 180-4); --samples-out

@@ -1,6 +1,6 @@
 #!/usr/bin/python3
 """Cross-check of `plumb fall --format json` against an independent
-integration of the same equations (design.md section 2) with SciPy's
+integration of the same equations (README.md "The model") with SciPy's
 solve_ivp (DOP853, Hairer, Norsett & Wanner, Solving ODEs I, 1993), its
 event location on the dense output for the impact, and a separate
 implementation, written here from the published definitions, of:
