@@ -1,14 +1,26 @@
 #!/bin/sh
-# No tracked file cites a check value by pointing at a notes file outside
-# the repository ("shared/references.md", "references-physics.md 3c" ...):
-# a reader of the repository cannot open those. Each value names its
-# publication, with its status, in the repository itself (DEVELOPERS.md,
-# "Unit tests"). Scans every file `git ls-files` lists (every file under
-# the source root when it is not a git checkout), text files only.
+# No tracked file points at a document outside the repository, which a
+# reader of the repository cannot open (DEVELOPERS.md, the opening and
+# "Unit tests"):
+#  - a notes file of check values ("shared/references.md",
+#    "references-physics.md 3c" ...): each value names its publication,
+#    with its status, in the repository itself;
+#  - the team's design notes, by file name in any case ("design.md section
+#    6", "Design.MD"), in an identifier ("test_design_md_section_5_...",
+#    "..._of_design_section_6") or as "design section 2": a fact of the
+#    contract names the README.md, SAFETY.md or DEVELOPERS.md section that
+#    states it, a method its publication;
+#  - anything in the team's shared folder ("../shared/...",
+#    "/work/shared/...", such as its tools): none of it ships with plumb. A
+#    document that must describe that tooling would need its line added to
+#    the allowed list below, with the reason; there is none today.
+# Scans every file `git ls-files` lists (every file under the source root
+# when it is not a git checkout), text files only.
 #
 # Allowed: tests/test_criteria.c's line that refuses such paths in
 # criteria files, and this script. Also shows the scan failing on planted
-# pointers, so that this test can fail.
+# pointers of each form, and passing lines that only look alike, so that
+# this test can fail and does not cry wolf.
 #
 #   sh tests/cli/no_outside_refs.sh PLUMB
 #
@@ -23,7 +35,7 @@ trap 'rm -rf "$tmp"' EXIT
 trap 'exit 2' INT TERM
 
 self=tests/cli/no_outside_refs.sh
-pattern='shared/references|references[-_.a-z0-9]*\.md'
+pattern='shared/references|references[-_.a-z0-9]*\.md|design[._]md|design[ _]section[ _]?[0-9]|(\.\./|/work/)shared/'
 # The one line allowed: test_criteria.c's refusal of such paths.
 allowed='^tests/test_criteria\.c:[0-9]*: *if \(strstr\(text, "references\.md"\) \|\| strstr\(text, "\.\./"\) \|\| strstr\(text, "shared/"\)\)$'
 
@@ -40,15 +52,17 @@ else
   find . -type f ! -path './.git/*' ! -path './build/*' | sed 's|^\./||' >"$tmp/files"
 fi
 
-# 1. The tree names no outside notes file.
+# 1. The tree points at nothing outside the repository.
 scan . <"$tmp/files" >"$tmp/hits"
 if [ -s "$tmp/hits" ]; then
-  bad "$(wc -l <"$tmp/hits") place(s) point at notes outside the repository; cite the publication instead:"
+  bad "$(wc -l <"$tmp/hits") place(s) point outside the repository; name the README.md, SAFETY.md or DEVELOPERS.md section, or the publication, instead:"
   cat "$tmp/hits"
 else ok; fi
 
-# 2. The scan finds planted pointers of each form, and lets the allowed
-#    refusal line through only in tests/test_criteria.c.
+# 2. The scan finds planted pointers of each form, lets the allowed
+#    refusal line through only in tests/test_criteria.c, and passes lines
+#    that only look like pointers (a publication's title, in-repo
+#    sections, a system path).
 mkdir -p "$tmp/tree/tests" "$tmp/tree/src"
 printf '/* rho = 1.2250 (shared/references.md) */\n' >"$tmp/tree/src/a.c"
 printf '# L_u by height (references-physics.md 3c)\n' >"$tmp/tree/src/b.py"
@@ -57,11 +71,23 @@ printf '/* Table I (References.md) */\n' >"$tmp/tree/src/d.h"
 printf '%s\n' '        if (strstr(text, "references.md") || strstr(text, "../") || strstr(text, "shared/"))' \
   >"$tmp/tree/tests/test_criteria.c"
 cp "$tmp/tree/tests/test_criteria.c" "$tmp/tree/src/e.c"
-printf 'src/a.c\nsrc/b.py\nc.md\nsrc/d.h\ntests/test_criteria.c\nsrc/e.c\n' | scan "$tmp/tree" >"$tmp/hits"
-for f in src/a.c src/b.py c.md src/d.h src/e.c; do
+printf '/* The JSON keys (design.md section 6). */\n' >"$tmp/tree/src/f.c"
+printf '# every report carries the cautions (Design.MD 7)\n' >"$tmp/tree/tests/g.py"
+printf 'static void test_design_md_section_5_example_loads(void **state)\n' >"$tmp/tree/tests/h.c"
+printf '/* Design section 2: w = 0 at and below z = 0. */\n' >"$tmp/tree/tests/i.c"
+printf 'static void test_json_has_the_keys_of_design_section_6(void **state)\n' >"$tmp/tree/tests/m.c"
+printf 'Run ../shared/tools/check-contract before a merge.\n' >"$tmp/tree/j.md"
+printf '# the layers: /work/shared/style.md\n' >"$tmp/tree/src/k.sh"
+printf '%s\n' '/* Knacke, Parachute Recovery Systems Design Manual (NWC TP 6575). */' \
+  '/* README.md "The model", SAFETY.md section 1, DEVELOPERS.md "Layers". */' \
+  '/* criteria installed in /usr/local/share/plumb/criteria/ */' >"$tmp/tree/src/l.c"
+printf 'src/a.c\nsrc/b.py\nc.md\nsrc/d.h\ntests/test_criteria.c\nsrc/e.c\nsrc/f.c\ntests/g.py\ntests/h.c\ntests/i.c\nj.md\nsrc/k.sh\nsrc/l.c\ntests/m.c\n' |
+  scan "$tmp/tree" >"$tmp/hits"
+for f in src/a.c src/b.py c.md src/d.h src/e.c src/f.c tests/g.py tests/h.c tests/i.c j.md src/k.sh tests/m.c; do
   if grep -q "^$f:" "$tmp/hits"; then ok; else bad "a pointer planted in $f was not found"; fi
 done
 if grep -q '^tests/test_criteria.c:' "$tmp/hits"; then bad "the allowed refusal line was flagged"; else ok; fi
+if grep -q '^src/l.c:' "$tmp/hits"; then bad "a line that is no pointer was flagged: $(grep '^src/l.c:' "$tmp/hits")"; else ok; fi
 
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
