@@ -8,9 +8,10 @@
  * expected position is stated by the text itself. The keys are those of
  * README "Profile keys" (src/io/keys.c describes the numeric ones once,
  * tests/test_keys.c holds it to the loader); positive loads use a full
- * example with every top-level map. Reference values: the navigation
- * convention east = s sin(h), north = s cos(h) (heading clockwise from
- * north); the meteorological wind convention w = -s (sin from, cos from)
+ * example (a payload under a parachute, with every map of a one-payload
+ * profile but job:). Reference values: the navigation convention
+ * east = s sin(h), north = s cos(h) (heading clockwise from north); the
+ * meteorological wind convention w = -s (sin from, cos from)
  * (WMO No. 8, from memory); the canopy area S0 = pi D0^2 / 4 (Knacke,
  * NWC TP 6575, 1991); the foot, 0.3048 m exactly (1959 international yard
  * and pound agreement); degC to K, + 273.15 exactly (SI Brochure, 9th ed.).
@@ -1005,9 +1006,10 @@ static void test_null_arguments_are_invalid(void **state)
 
 /* ---- positive loads ---------------------------------------------------- */
 
-/* A full example of the format (README.md "Profiles"): every top-level
- * map, a parachute, the shape alternative and the other choices in
- * end-of-line comments, as a user writes them. */
+/* A full example of the format (README.md "Profiles"): a payload under a
+ * parachute, with release, site, air, wind, criteria, uncertainty and
+ * zone, and the alternatives in end-of-line comments as a user writes
+ * them. */
 static const char full_example[] =
     "name: Torque wrench, 3/4 in drive\n"
     "payload:\n"
