@@ -197,6 +197,41 @@ static void test_nearest_criterion_is_the_closest_id_by_edit_distance(void **sta
     plumb_criteria_free(none);
 }
 
+/* plumb_criteria_check_id: a known id is taken; an unknown one gets the
+ * message plumb fall and plumb lint give, naming the nearest ids (the
+ * distances of the test above) and the ids there are; an empty set says
+ * none are loaded. */
+static void test_check_id_names_the_nearest_ids_of_an_unknown_one(void **state)
+{
+    (void)state;
+    const char *dir = new_dir();
+    const char *const ids[] = {"ddesb-fragment-58ftlbf", "eu-c1-80j", "us-part107-cat3"};
+    for (size_t i = 0; i < 3; i++) {
+        char name[64];
+        snprintf(name, sizeof name, "%s.yaml", ids[i]);
+        put(dir, name, GOOD_CRIT);
+    }
+    plumb_criteria *set;
+    plumb_diag d;
+    char msg[PLUMB_DIAG_MSG];
+    assert_int_equal(plumb_criteria_load_dir(dir, units, &set, &d), PLUMB_OK);
+    assert_int_equal(plumb_criteria_check_id(set, "eu-c1-80j", msg, sizeof msg), PLUMB_OK);
+    assert_string_equal(msg, "");
+    assert_int_equal(plumb_criteria_check_id(set, "eu-c2", msg, sizeof msg), PLUMB_EKEY);
+    assert_string_equal(msg, "unknown criterion 'eu-c2'; did you mean 'eu-c1-80j'? (the "
+                             "criteria directory has 3: ddesb-fragment-58ftlbf, eu-c1-80j, "
+                             "us-part107-cat3)");
+    assert_int_equal(plumb_criteria_check_id(set, NULL, msg, sizeof msg), PLUMB_EINVAL);
+    assert_int_equal(plumb_criteria_check_id(set, "eu-c2", NULL, 8), PLUMB_EINVAL);
+    assert_int_equal(plumb_criteria_check_id(set, "eu-c2", msg, 0), PLUMB_EINVAL);
+    plumb_criteria_free(set);
+    plumb_criteria *none;
+    assert_int_equal(plumb_criteria_load_dir(new_dir(), units, &none, &d), PLUMB_OK);
+    assert_int_equal(plumb_criteria_check_id(none, "eu-c2", msg, sizeof msg), PLUMB_EKEY);
+    assert_string_equal(msg, "unknown criterion 'eu-c2'; no criteria are loaded");
+    plumb_criteria_free(none);
+}
+
 static void test_bundled_part_107_category_3_limit_is_25_ft_lbf(void **state)
 {
     (void)state;
@@ -569,6 +604,7 @@ int main(void)
         cmocka_unit_test(test_null_arguments_are_invalid),
         cmocka_unit_test(test_verdict_ratio_and_exceeds_follow_the_definition),
         cmocka_unit_test(test_nearest_criterion_is_the_closest_id_by_edit_distance),
+        cmocka_unit_test(test_check_id_names_the_nearest_ids_of_an_unknown_one),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

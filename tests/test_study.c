@@ -18,6 +18,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <unistd.h>
 #include <cmocka.h>
 
 #include "plumb/plumb.h"
@@ -124,6 +125,78 @@ static void test_a_study_refuses_an_unknown_criterion_when_opened(void **state)
     assert_null(st);
     assert_string_equal(d.key, "criteria[0]");
     assert_non_null(strstr(d.message, "us-part107-cat"));
+}
+
+/* plumb_study_lint: an unknown criterion id is listed with the profile's
+ * other errors, in file order, at the id's own line and column (counted
+ * here in the text), and the second unknown id keeps its index; the
+ * criteria are loaded only for a profile that names one, and a set that
+ * does not load is listed last. Positions: YAML 1.2 counts lines and
+ * columns from 1, as libyaml's marks plus one. */
+static void test_lint_lists_an_unknown_criterion_with_the_other_errors(void **state)
+{
+    fixture *f = *state;
+    static const char text[] = "name: lint of criteria\n"
+                               "payload:\n"
+                               "  mass: 2.385\n"
+                               "  drag: {cd_area: 0.019 m^2}\n"
+                               "release: {height: 31.6 m}\n"
+                               "criteria: [eu-c9, us-part107-cat3, en397]\n"
+                               "zone: {samples: -4}\n";
+    plumb_diag errs[8];
+    size_t n = 0;
+    plumb_criteria *set = f->criteria;
+    assert_int_not_equal(plumb_study_lint("t.yaml", text, strlen(text), f->units, NULL, 0, NULL,
+                                          &set, errs, 8, &n),
+                         PLUMB_OK);
+    assert_int_equal(n, 4);
+    static const struct { int line, col; const char *key; } want[] = {
+        {3, 9, "payload.mass"}, {6, 12, "criteria[0]"}, {6, 36, "criteria[2]"},
+        {7, 17, "zone.samples"}};
+    for (size_t i = 0; i < 4; i++) {
+        assert_int_equal(errs[i].line, want[i].line);
+        assert_int_equal(errs[i].col, want[i].col);
+        assert_string_equal(errs[i].key, want[i].key);
+        assert_string_equal(errs[i].file, "t.yaml");
+    }
+    assert_int_equal(errs[1].status, PLUMB_EKEY);
+    assert_non_null(strstr(errs[1].message, "unknown criterion 'eu-c9'; did you mean 'eu-c1-80j'?"));
+    assert_non_null(strstr(errs[2].message, "'en397-penetration-29j' or 'en397-shock-49j'"));
+    assert_ptr_equal(set, f->criteria);
+
+    /* no criteria given: the set is loaded from the directory on first
+     * need only, and one that does not load comes last */
+    char dir[512];
+    assert_non_null(plumbt_mkdtemp("lint", dir, sizeof dir));
+    char missing[600];
+    snprintf(missing, sizeof missing, "%s/none", dir);
+    static const char good[] = "payload:\n"
+                               "  mass: 2.385 kg\n"
+                               "  drag: {cd_area: 0.019 m^2}\n"
+                               "release: {height: 31.6 m}\n";
+    set = NULL;
+    assert_int_equal(plumb_study_lint("g.yaml", good, strlen(good), f->units, NULL, 0, missing,
+                                      &set, errs, 8, &n),
+                     PLUMB_OK);
+    assert_int_equal(n, 0);
+    assert_null(set);
+    assert_int_not_equal(plumb_study_lint("t.yaml", text, strlen(text), f->units, NULL, 0,
+                                          missing, &set, errs, 8, &n),
+                         PLUMB_OK);
+    assert_null(set);
+    assert_int_equal(n, 3);
+    assert_string_equal(errs[1].key, "zone.samples");
+    assert_string_equal(errs[2].file, missing);
+    assert_int_equal(errs[2].status, PLUMB_EIO);
+    assert_int_equal(rmdir(dir), 0);
+
+    assert_int_equal(plumb_study_lint(NULL, text, strlen(text), f->units, NULL, 0, missing,
+                                      &set, errs, 8, &n),
+                     PLUMB_EINVAL);
+    assert_int_equal(plumb_study_lint("t.yaml", text, strlen(text), f->units, NULL, 0, NULL,
+                                      &set, errs, 8, &n),
+                     PLUMB_EINVAL);
+    assert_int_equal(n, 1);
 }
 
 /* The limit through the study: the drag-free mass for 913.7 J of a weight
@@ -365,6 +438,7 @@ int main(void)
         cmocka_unit_test(test_a_spec_built_in_code_is_run_judged_and_reported),
         cmocka_unit_test(test_a_code_built_profile_is_traced_by_the_hash_of_its_inputs),
         cmocka_unit_test(test_a_study_refuses_an_unknown_criterion_when_opened),
+        cmocka_unit_test(test_lint_lists_an_unknown_criterion_with_the_other_errors),
         cmocka_unit_test(test_the_study_limit_meets_the_work_energy_theorem),
         cmocka_unit_test(test_a_sweep_of_a_spec_built_in_code_runs_every_row),
         cmocka_unit_test(test_a_study_of_a_profile_gives_the_closed_form_in_constant_air),

@@ -90,6 +90,18 @@ const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const c
 size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, char *buf,
                                   size_t size);
 
+/* Checks that the set has a criterion of this id, as a profile's
+ * `criteria:` names it: PLUMB_OK (msg "") when it does; else PLUMB_EKEY
+ * and msg (size bytes) what was expected: "unknown criterion 'ID'; did
+ * you mean 'A' or 'B'? (the criteria directory has N: ...)", the nearest
+ * ids (plumb_criteria_nearest_ids) and as many of the set's ids as fit,
+ * or "unknown criterion 'ID'; no criteria are loaded" for an empty or
+ * NULL set. It is the message of plumb_profile_criteria_check and of
+ * plumb_study_lint, which place it at the id in the profile.
+ * PLUMB_EINVAL for a NULL id or msg, or size 0. */
+plumb_status plumb_criteria_check_id(const plumb_criteria *set, const char *id, char *msg,
+                                     size_t size);
+
 /* Judges an energy against a criterion. Can't fail. */
 void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out);
 

@@ -81,7 +81,7 @@ plumb_status plumb_report_verify(FILE *out, const plumb_report_options *opt,
                                  const plumb_check *checks, size_t n, plumb_diag *diag);
 
 /* One profile of a lint report (`plumb lint`): its name and the errors
- * found in it (plumb_profile_lint, then the air and the criteria). */
+ * found in it (plumb_study_lint: the file, its criteria, then the air). */
 typedef struct plumb_lint_entry {
     const char *profile;        /* its name as given; "<stdin>" for standard input */
     const plumb_diag *errors;   /* borrowed: n_errors diagnostics, in file order */

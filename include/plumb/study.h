@@ -10,6 +10,8 @@
  *   plumb_study_sweep  the same over one or two ranges of an input
  *   plumb_study_limit  the value of an input at which a limit is just met
  *   plumb_study_zone   the clearance zone under the profile's uncertainty
+ * and, before a study can be opened, plumb_study_lint: every error of a
+ * profile that would keep it from opening (`plumb lint`).
  * A command-line handler, a test, a script (through the shared library)
  * or another program calls these the same way.
  *
@@ -130,5 +132,29 @@ plumb_status plumb_study_zone_check_settings(const plumb_study *study,
 plumb_status plumb_study_zone(plumb_study *study, const plumb_zone_spec *zone,
                               const plumb_zone_options *opt, plumb_study_item_fn on_item,
                               void *user, const plumb_zone_report **out, plumb_diag *diag);
+
+/* Checks a profile as plumb fall takes it (plumb_profile_load, then
+ * plumb_study_open), without computing a fall, for `plumb lint`: every
+ * error of the file (plumb_profile_lint), with each criterion it names
+ * checked against the criteria as it is read (plumb_criteria_check_id),
+ * so that an unknown id is listed in its place among the other errors,
+ * at its line and column with the nearest ids, however many other keys
+ * are wrong; then, when the profile loads, its atmosphere
+ * (plumb_atmosphere_alloc). buf NULL: the file at `name` is read; else
+ * the len bytes at buf stand for it, named `name` ("<stdin>").
+ * The criteria are *criteria. When it is NULL they are loaded from
+ * criteria_dir when the profile names one (a profile that names none
+ * does not need them), and are then the caller's to free
+ * (plumb_criteria_free), so that one set serves a run over many
+ * profiles; a set that does not load is listed as the profile's last
+ * error, and its ids go unchecked.
+ * Up to max diagnostics go into errs[0 .. *n), the profile's own in file
+ * order. Returns PLUMB_OK when the profile is good (*n 0), else the
+ * status of the first error. PLUMB_EINVAL (one diagnostic) for a NULL
+ * name, units, errs, n or criteria, max 0, or sets NULL with n_sets > 0. */
+plumb_status plumb_study_lint(const char *name, const char *buf, size_t len,
+                              const plumb_units *units, const char *const *sets, size_t n_sets,
+                              const char *criteria_dir, plumb_criteria **criteria,
+                              plumb_diag *errs, size_t max, size_t *n);
 
 #endif /* PLUMB_STUDY_H */

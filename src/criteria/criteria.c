@@ -145,6 +145,42 @@ size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, cha
     return n;
 }
 
+/* Most bytes of the list of criterion ids an unknown-criterion message
+ * quotes; a longer list ends in "...". */
+#define CRIT_LIST_MAX 300
+
+plumb_status plumb_criteria_check_id(const plumb_criteria *set, const char *id, char *msg,
+                                     size_t size)
+{
+    if (!id || !msg || size == 0)
+        return PLUMB_EINVAL;
+    msg[0] = '\0';
+    if (plumb_criteria_find(set, id))
+        return PLUMB_OK;
+    size_t n = plumb_criteria_count(set);
+    if (n == 0) {
+        snprintf(msg, size, "unknown criterion '%s'; no criteria are loaded", id);
+        return PLUMB_EKEY;
+    }
+    /* the ids there are, as many as fit */
+    char ids[CRIT_LIST_MAX];
+    size_t len = 0;
+    ids[0] = '\0';
+    for (size_t i = 0; i < n; i++) {
+        const char *c = set->c[i].id;
+        if (len + strlen(c) + 2 + sizeof ", ..." > sizeof ids) {
+            snprintf(ids + len, sizeof ids - len, ", ...");
+            break;
+        }
+        len += (size_t)snprintf(ids + len, sizeof ids - len, "%s%s", i ? ", " : "", c);
+    }
+    char near[CRIT_LIST_MAX];
+    plumb_criteria_nearest_ids(set, id, near, sizeof near);
+    snprintf(msg, size, "unknown criterion '%s'; did you mean %s? (the criteria directory has "
+             "%zu: %s)", id, near, n, ids);
+    return PLUMB_EKEY;
+}
+
 void plumb_criterion_judge(const plumb_criterion *c, double energy_j, plumb_verdict *out)
 {
     if (!out)

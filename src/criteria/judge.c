@@ -37,41 +37,20 @@ static void add_warning(plumb_item_report *item, const char *fmt, ...)
     va_end(ap);
 }
 
-/* Most bytes of the list of criterion ids an unknown-criterion message
- * quotes; a longer list ends in "...". */
-#define CRIT_LIST_MAX 300
-
+/* PLUMB_EKEY located at the profile's index-th criterion, which the set
+ * does not have (plumb_criteria_check_id's message). */
 static plumb_status unknown_criterion(const char *name, size_t index,
                                       const plumb_profile *profile,
                                       const plumb_criteria *criteria, plumb_diag *diag)
 {
-    size_t n = plumb_criteria_count(criteria);
-    char key[PLUMB_DIAG_KEY];
+    char key[PLUMB_DIAG_KEY], msg[PLUMB_DIAG_MSG];
     snprintf(key, sizeof key, "criteria[%zu]", index);
     int line, col;
     plumb_profile_criterion_position(profile, index, &line, &col);
     const char *file = plumb_profile_criterion_file(profile, index);
-    if (n == 0)
-        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
-                              "unknown criterion '%s'; no criteria are loaded", name);
-    /* the ids there are, as many as fit */
-    char ids[CRIT_LIST_MAX];
-    size_t len = 0;
-    ids[0] = '\0';
-    for (size_t i = 0; i < n; i++) {
-        const char *id = plumb_criteria_get(criteria, i)->id;
-        if (len + strlen(id) + 2 + sizeof ", ..." > sizeof ids) {
-            snprintf(ids + len, sizeof ids - len, ", ...");
-            break;
-        }
-        len += (size_t)snprintf(ids + len, sizeof ids - len, "%s%s", i ? ", " : "", id);
-    }
-    char near[CRIT_LIST_MAX];
-    plumb_criteria_nearest_ids(criteria, name, near, sizeof near);
-    return PLUMB_RAISE_AT(diag, PLUMB_EKEY, file, line, col, key,
-                          "unknown criterion '%s'; did you mean %s? (the criteria directory "
-                          "has %zu: %s)",
-                          name, near, n, ids);
+    plumb_status st = plumb_criteria_check_id(criteria, name, msg, sizeof msg);
+    return PLUMB_RAISE_AT(diag, st == PLUMB_OK ? PLUMB_EKEY : st, file, line, col, key, "%s",
+                          msg);
 }
 
 /* Names the helmet-test criteria among the verdicts in one sentence, or

@@ -155,8 +155,8 @@ static plumb_status interpret(loader *L)
 /* Applies sets to tree (owned), checks and interprets it into *out. */
 static plumb_status build(const char *path, const char *sha, plumby_node *tree,
                           const plumb_profile *base, const plumb_units *units,
-                          const char *const *sets, size_t n_sets, plumb_profile **out,
-                          plumb_diag *diag)
+                          const char *const *sets, size_t n_sets, const plumbp_id_check *check,
+                          plumb_profile **out, plumb_diag *diag)
 {
     plumb_status st;
     plumbp_set_items numbering;
@@ -208,6 +208,7 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     L.ctx.item_no = p->item_no;
     L.ctx.n_item_no = p->n_item_no;
     L.p = p;
+    L.check = check;
     st = plumby_check(&L.ctx, tree, plumbp_profile_schema(), "");
     if (st == PLUMB_OK) {
         plumby_map_init(&L.root, &L.ctx, tree, plumbp_profile_schema(), "");
@@ -223,9 +224,10 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
 
 plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node *tree,
                                   const plumb_units *units, const char *const *sets,
-                                  size_t n_sets, plumb_profile **out, plumb_diag *diag)
+                                  size_t n_sets, const plumbp_id_check *check,
+                                  plumb_profile **out, plumb_diag *diag)
 {
-    return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
+    return build(path, sha, tree, NULL, units, sets, n_sets, check, out, diag);
 }
 
 plumb_status plumb_profile_load(const char *path, const plumb_units *units,
@@ -248,21 +250,15 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     free(buf);
     if (st != PLUMB_OK)
         return st;
-    return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
+    return build(path, sha, tree, NULL, units, sets, n_sets, NULL, out, diag);
 }
 
-plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
-                                       const plumb_units *units, const char *const *sets,
-                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
-                                       plumb_profile **out)
+/* The lint of the len bytes at buf, named name (plumbp_profile_lint_checked). */
+static plumb_status lint_bytes(const char *name, const char *buf, size_t len,
+                               const plumb_units *units, const char *const *sets, size_t n_sets,
+                               const plumbp_id_check *check, plumb_diag *errs, size_t max,
+                               size_t *n, plumb_profile **out)
 {
-    if (n)
-        *n = 0;
-    if (out)
-        *out = NULL;
-    if (!name || (!buf && len > 0) || !units || !errs || max == 0 || !n ||
-        (n_sets > 0 && !sets))
-        return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint_buffer: NULL argument");
     if (len > PLUMB_PROFILE_MAX_BYTES) {
         *n = 1;
         return PLUMB_RAISE_AT(&errs[0], PLUMB_ERANGE, name, 0, 0, NULL,
@@ -279,32 +275,69 @@ plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t
         *n = 1;
         return st;
     }
-    st = plumbp_profile_lint_tree(name, sha, tree, units, sets, n_sets, errs, max, n, out);
+    st = plumbp_profile_lint_tree(name, sha, tree, units, sets, n_sets, check, errs, max, n, out);
     plumby_free(tree);
     return st;
+}
+
+plumb_status plumbp_profile_lint_checked(const char *name, const char *buf, size_t len,
+                                         const plumb_units *units, const char *const *sets,
+                                         size_t n_sets, const plumbp_id_check *check,
+                                         plumb_diag *errs, size_t max, size_t *n,
+                                         plumb_profile **out)
+{
+    if (n)
+        *n = 0;
+    if (out)
+        *out = NULL;
+    if (!name || !units || !errs || max == 0 || !n || (n_sets > 0 && !sets))
+        return PLUMB_RAISE(errs, PLUMB_EINVAL, "%s: NULL argument",
+                           buf ? "plumb_profile_lint_buffer" : "plumb_profile_lint");
+    if (buf)
+        return lint_bytes(name, buf, len, units, sets, n_sets, check, errs, max, n, out);
+    char *text;
+    plumb_diag_clear(&errs[0]);
+    plumb_status st = plumby_read_file(name, PLUMB_PROFILE_MAX_BYTES, &text, &len, &errs[0]);
+    if (st != PLUMB_OK) {
+        *n = 1;
+        return st;
+    }
+    st = lint_bytes(name, text, len, units, sets, n_sets, check, errs, max, n, out);
+    free(text);
+    return st;
+}
+
+plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
+                                       const plumb_units *units, const char *const *sets,
+                                       size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                       plumb_profile **out)
+{
+    if (!buf && len == 0)
+        buf = ""; /* an empty buffer, not a file to read */
+    if (!buf) {
+        if (n)
+            *n = 0;
+        if (out)
+            *out = NULL;
+        return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint_buffer: NULL argument");
+    }
+    return plumbp_profile_lint_checked(name, buf, len, units, sets, n_sets, NULL, errs, max, n,
+                                       out);
 }
 
 plumb_status plumb_profile_lint(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets, plumb_diag *errs,
                                 size_t max, size_t *n, plumb_profile **out)
 {
-    if (n)
-        *n = 0;
-    if (out)
-        *out = NULL;
-    if (!path || !errs || max == 0 || !n)
+    if (!path) {
+        if (n)
+            *n = 0;
+        if (out)
+            *out = NULL;
         return PLUMB_RAISE(errs, PLUMB_EINVAL, "plumb_profile_lint: NULL argument");
-    char *buf;
-    size_t len;
-    plumb_diag_clear(&errs[0]);
-    plumb_status st = plumby_read_file(path, PLUMB_PROFILE_MAX_BYTES, &buf, &len, &errs[0]);
-    if (st != PLUMB_OK) {
-        *n = 1;
-        return st;
     }
-    st = plumb_profile_lint_buffer(path, buf, len, units, sets, n_sets, errs, max, n, out);
-    free(buf);
-    return st;
+    return plumbp_profile_lint_checked(path, NULL, 0, units, sets, n_sets, NULL, errs, max, n,
+                                       out);
 }
 
 plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t len,
@@ -326,7 +359,7 @@ plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t
                                    diag);
     if (st != PLUMB_OK)
         return st;
-    return build(name, sha, tree, NULL, units, sets, n_sets, out, diag);
+    return build(name, sha, tree, NULL, units, sets, n_sets, NULL, out, diag);
 }
 
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,
@@ -344,7 +377,7 @@ plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *
     plumby_node *tree = plumby_copy(base->tree);
     if (!tree)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory copying the profile");
-    return build(base->path, base->sha256, tree, base, units, sets, n_sets, out, diag);
+    return build(base->path, base->sha256, tree, base, units, sets, n_sets, NULL, out, diag);
 }
 
 /* ---- accessors --------------------------------------------------------- */

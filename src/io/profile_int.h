@@ -89,8 +89,21 @@ typedef struct keypath {
 
 /* ---- interpretation ---------------------------------------------------- */
 
+/* A check the loader makes of each criterion id a profile names, as it
+ * reads it, for a caller above io that knows the criteria set (io does
+ * not; plumb_study_lint, study/lint.c): criterion returns PLUMB_OK to take
+ * the id, else an input error status with msg (size bytes) what was
+ * expected, which the loader raises at the id (its file or --set, line,
+ * column and key criteria[i]), so that plumb lint lists an unknown id in
+ * file order with the profile's other errors. */
+typedef struct plumbp_id_check {
+    plumb_status (*criterion)(void *ctx, const char *id, char *msg, size_t size);
+    void *ctx; /* the caller's, passed back */
+} plumbp_id_check;
+
 typedef struct loader {
     plumby_ctx ctx;
+    const plumbp_id_check *check; /* NULL: the ids are checked later (study) */
     plumb_profile *p;
     plumby_map root;
     double height_m;        /* release.height */
@@ -208,16 +221,28 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
                                       plumbp_set_items *numbering, plumb_diag *diag);
 
 /* profile.c: applies sets to tree (owned), checks and interprets it into
- * *out, as plumb_profile_load does after parsing. */
+ * *out, as plumb_profile_load does after parsing; check (may be NULL) the
+ * check of each criterion id. */
 plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node *tree,
                                   const plumb_units *units, const char *const *sets,
-                                  size_t n_sets, plumb_profile **out, plumb_diag *diag);
+                                  size_t n_sets, const plumbp_id_check *check,
+                                  plumb_profile **out, plumb_diag *diag);
+
+/* profile.c: plumb_profile_lint (buf NULL: the file at name is read) and
+ * plumb_profile_lint_buffer (the len bytes at buf), each criterion id
+ * checked as it is read by check (may be NULL). */
+plumb_status plumbp_profile_lint_checked(const char *name, const char *buf, size_t len,
+                                         const plumb_units *units, const char *const *sets,
+                                         size_t n_sets, const plumbp_id_check *check,
+                                         plumb_diag *errs, size_t max, size_t *n,
+                                         plumb_profile **out);
 
 /* profile_lint.c: the errors of a parsed profile (tree, not changed), as
- * plumb_profile_lint_buffer lists them. */
+ * plumb_profile_lint_buffer lists them; check as for plumbp_profile_build. */
 plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const plumby_node *tree,
                                       const plumb_units *units, const char *const *sets,
-                                      size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                      size_t n_sets, const plumbp_id_check *check,
+                                      plumb_diag *errs, size_t max, size_t *n,
                                       plumb_profile **out);
 
 /* profile_item.c */

@@ -72,6 +72,7 @@ typedef struct lint_run {
     const plumb_units *units;
     const char *const *sets;
     size_t n_sets;
+    const plumbp_id_check *check; /* of the criteria ids, or NULL */
     edit ed[LINT_EDITS];
     size_t n_ed;
 } lint_run;
@@ -285,6 +286,35 @@ static plumby_node *edited(const lint_run *r, size_t n)
     return copy;
 }
 
+/* The key of error d as the file counts its lists: a list item left out
+ * (the first n edits) moves the items after it up one in the edited
+ * tree, so that the loader names "criteria[1]" of the file "criteria[0]";
+ * the index of d's key in that list is raised by the items left out
+ * before d (in file order). */
+static void renumber(const lint_run *r, size_t n, plumb_diag *d)
+{
+    for (size_t i = 0; i < n; i++) {
+        const edit *e = &r->ed[i];
+        size_t klen = strlen(e->key);
+        const char *open = strrchr(e->key, '[');
+        if (e->kind != ED_REMOVE || klen == 0 || e->key[klen - 1] != ']' || !open)
+            continue;
+        size_t plen = (size_t)(open - e->key); /* the list's key, "criteria" */
+        const char *idx = d->key + plen;
+        if (strncmp(d->key, e->key, plen) != 0 || *idx != '[' ||
+            (e->line > d->line || (e->line == d->line && e->col >= d->col)))
+            continue;
+        char *end;
+        unsigned long k = strtoul(idx + 1, &end, 10);
+        if (end == idx + 1 || *end != ']')
+            continue;
+        char key[PLUMB_DIAG_KEY];
+        int w = snprintf(key, sizeof key, "%.*s[%lu]%s", (int)plen, d->key, k + 1, end + 1);
+        if (w > 0 && (size_t)w < sizeof key)
+            memcpy(d->key, key, (size_t)w + 1);
+    }
+}
+
 /* Builds the tree with the first n edits: the status, *d its first error,
  * *out (may be NULL) the profile when it loads. */
 static plumb_status try_build(const lint_run *r, size_t n, plumb_diag *d, plumb_profile **out)
@@ -295,7 +325,8 @@ static plumb_status try_build(const lint_run *r, size_t n, plumb_diag *d, plumb_
     if (!copy)
         return PLUMB_RAISE(d, PLUMB_ENOMEM, "out of memory checking the profile");
     plumb_status st = plumbp_profile_build(r->name, r->sha, copy, r->units, r->sets, r->n_sets,
-                                           &p, d);
+                                           r->check, &p, d);
+    renumber(r, n, d);
     if (out && st == PLUMB_OK)
         *out = p;
     else
@@ -576,7 +607,8 @@ static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag 
 
 plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const plumby_node *tree,
                                       const plumb_units *units, const char *const *sets,
-                                      size_t n_sets, plumb_diag *errs, size_t max, size_t *n,
+                                      size_t n_sets, const plumbp_id_check *check,
+                                      plumb_diag *errs, size_t max, size_t *n,
                                       plumb_profile **out)
 {
     lint_run *r = calloc(1, sizeof *r);
@@ -590,6 +622,7 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
     r->units = units;
     r->sets = sets;
     r->n_sets = n_sets;
+    r->check = check;
     plumb_status first = PLUMB_OK;
     /* each pass lists an error or turns a consequence into an edit */
     for (size_t pass = 0; *n < max && pass < 4 * LINT_EDITS; pass++) {

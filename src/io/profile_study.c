@@ -40,6 +40,13 @@ plumb_status plumbp_profile_read_criteria(loader *L)
             if (strcmp(L->p->criteria[j], id) == 0)
                 return plumby_raise(&L->ctx, it->origin, it->line, it->col, key, PLUMB_EKEY,
                                     "criterion '%s' is listed twice (also criteria[%zu])", id, j);
+        if (L->check && L->check->criterion) {
+            char msg[PLUMB_DIAG_MSG];
+            msg[0] = '\0';
+            st = L->check->criterion(L->check->ctx, id, msg, sizeof msg);
+            if (st != PLUMB_OK)
+                return plumby_raise(&L->ctx, it->origin, it->line, it->col, key, st, "%s", msg);
+        }
         if (!(L->p->criteria[i] = malloc(strlen(id) + 1)))
             return nomem(L);
         memcpy(L->p->criteria[i], id, strlen(id) + 1);

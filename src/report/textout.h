@@ -310,39 +310,84 @@ static inline int break_after(const char *p, size_t i, size_t len)
     return !(isdigit(a) && isdigit(b));
 }
 
-/* The longest head of the word p (len bytes, no spaces) that is at most
- * `room` columns wide and ends at a break (break_after), in bytes; 0
- * when there is none. With `hard`, when there is none, the whole
- * characters that fit (at least one): the word is broken where the line
- * ends, its rest going on the next line, never dropped. */
-static inline size_t word_head(const char *p, size_t len, size_t room, int hard)
+/* 1 when a word of p (len bytes) may be broken between its character at
+ * byte i (cl bytes) and the next: after a hyphen, solidus or underscore
+ * (break_after), or between two East Asian wide characters (char_cols 2:
+ * ideographs, kana, Hangul, UAX #14 class ID, a break opportunity before
+ * and after each; written without a mark, as CJK text is). */
+static inline int break_between(const char *p, size_t i, size_t cl, size_t len)
 {
-    size_t shown = 0, brk = 0, fit = 0, cl;
+    if (cl == 1)
+        return break_after(p, i, len);
+    size_t ncl;
+    return i + cl < len && p[i + cl] != '\0' && char_cols(p + i, &ncl) == 2 &&
+           char_cols(p + i + cl, &ncl) == 2;
+}
+
+/* The mark that ends a line where a word was cut with no break
+ * opportunity there (an 85-letter part number): a backslash, one column.
+ * Not a hyphen: the reports break names after their own hyphens, so an
+ * added one could not be told from the name's, and the name could not be
+ * read back whole (or typed into --set items[NAME]); a backslash is the
+ * line continuation of the shell and of C, and what a terminal editor
+ * (Emacs) shows at the edge of a continued line (from memory). */
+#define CUT_MARK "\\"
+#define CUT_MARK_COLS 1
+
+/* The longest head of p (n bytes) of whole characters at most `cols`
+ * columns wide, in bytes; a zero-width mark stays with its base. */
+static inline size_t head_within(const char *p, size_t n, size_t cols)
+{
+    size_t m = 0, shown = 0, cl;
+    while (m < n && p[m]) {
+        size_t cw = char_cols(p + m, &cl);
+        if (shown + cw > cols || m + cl > n) /* a character is never split */
+            break;
+        shown += cw;
+        m += cl;
+    }
+    return m;
+}
+
+/* The longest head of the word p (len bytes, no spaces) that is at most
+ * `room` columns wide and ends at a break (break_between), in bytes; 0
+ * when there is none. With `hard`, when there is none, the whole
+ * characters that fit with the cut mark after them (at least one): the
+ * word is cut where the line ends, *cut set to 1 so that the caller
+ * writes CUT_MARK after the head, and its rest goes on the next line,
+ * never dropped. *cut is 0 otherwise. */
+static inline size_t word_head(const char *p, size_t len, size_t room, int hard, int *cut)
+{
+    size_t shown = 0, brk = 0, cl;
+    *cut = 0;
     for (size_t i = 0; i < len; i += cl) {
         size_t cw = char_cols(p + i, &cl);
         if (shown + cw > room)
             break;
         shown += cw;
-        if (break_after(p, i, len))
-            brk = i + 1;
-        fit = i + cl < len ? i + cl : len;
+        if (break_between(p, i, cl, len))
+            brk = i + cl;
     }
     if (brk || !hard)
         return brk;
-    if (fit == 0 && len > 0) { /* no room at all: one character, so the text moves on */
-        (void)char_cols(p, &cl);
-        fit = cl < len ? cl : len;
+    size_t fit = room > CUT_MARK_COLS ? head_within(p, len, room - CUT_MARK_COLS) : 0;
+    if (fit > 0) {
+        *cut = 1;
+        return fit;
     }
-    return fit;
+    /* no room even for one character and the mark: one, so the text moves on */
+    (void)char_cols(p, &cl);
+    return cl < len ? cl : len;
 }
 
 /* Writes text after `lead`, word-wrapped at TEXT_WIDTH, continuation lines
  * indented to the width of `lead`. A number stays on the line of its unit;
  * a word longer than a whole line (an item's name without spaces) is
- * broken after a hyphen, slash or underscore (word_head), as much of it as
- * fits on the line it starts, and only where it has none where the line
- * ends: no line is wider than TEXT_WIDTH unless the lead is, and no word
- * is cut short. */
+ * broken after a hyphen, slash or underscore or between wide characters
+ * (word_head), as much of it as fits on the line it starts, and only where
+ * it has none is it cut where the line ends, the cut marked (CUT_MARK): no
+ * line is wider than TEXT_WIDTH unless the lead is, and no word is cut
+ * short. */
 static inline void wrapped(writer *w, const char *lead, const char *text)
 {
     size_t indent = shown_width(lead);
@@ -372,9 +417,10 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
                 size_t room = TEXT_WIDTH > used ? TEXT_WIDTH - used : 0;
                 if (ww <= room)
                     break;
-                size_t head = word_head(p, len, room, first);
+                int cut;
+                size_t head = word_head(p, len, room, first, &cut);
                 if (head > 0) {
-                    put(w, "%s%.*s", first ? "" : " ", (int)head, p);
+                    put(w, "%s%.*s%s", first ? "" : " ", (int)head, p, cut ? CUT_MARK : "");
                     p += head;
                     len -= head;
                     ww = shown_width_n(p, len);
@@ -396,11 +442,16 @@ static inline void wrapped(writer *w, const char *lead, const char *text)
     put(w, "\n");
 }
 
-/* The first line of s word-wrapped to `width` columns, into part. The line ends at its last space, or after a hyphen, slash or
- * underscore (break_after) when that fills it better (the last space, if
- * any, in its first half); a word longer than the width with none of
- * these is broken where the line ends. Returns the rest of s (past the
- * spaces that end the line), "" when s fits. */
+/* The first line of s word-wrapped to `width` columns, into part. The
+ * line ends at its last space, or at a break inside a word (after a
+ * hyphen, slash or underscore, or between wide characters:
+ * break_between) when that fills it better (the last space, if any, in its
+ * first half); a word longer than the width with none of these is cut
+ * where the line ends, the cut marked (CUT_MARK, within the width), rather
+ * than moved down whole to a line it would not fit either ("5" alone above
+ * the name of item 5).
+ * Returns the rest of s (past the spaces that end the line), "" when s
+ * fits. */
 static inline const char *wrap_cell(const char *s, size_t width, char *part, size_t size)
 {
     size_t n = 0, shown = 0, len = strlen(s), cl;
@@ -415,25 +466,48 @@ static inline const char *wrap_cell(const char *s, size_t width, char *part, siz
             space = n;
             space_shown = shown;
             has_space = 1;
-        } else if (break_after(s, n, len)) {
-            brk = n + 1;
+        } else if (break_between(s, n, cl, len)) {
+            brk = n + cl;
         }
         shown += cw;
     }
+    int cut = 0;
+    /* the word after the last space is cut wherever it goes: here */
+    int must_cut = has_space && shown_width_n(s + space + 1, strcspn(s + space + 1, " ")) > width;
     if (s[n] && s[n] != ' ') {
-        if (has_space && (brk < space || 2 * space_shown >= width))
+        int hard = 0;
+        if (must_cut && brk > space)
+            n = brk;
+        else if (must_cut)
+            hard = 1;
+        else if (has_space && (brk < space || 2 * space_shown >= width))
             n = space;
         else if (brk)
             n = brk;
         else if (has_space)
             n = space;
-        else if (n == 0 && size > 4) /* not even one character fits: one, so the text moves on */
-            (void)char_cols(s, &n);
+        else
+            hard = 1;
+        if (hard && n == 0 && size > 4) {
+            (void)char_cols(s, &n); /* not even one character fits: one, so the text moves on */
+        } else if (hard && width > CUT_MARK_COLS && size > sizeof CUT_MARK) {
+            /* cut, with room for the mark in the width and in part */
+            size_t bytes = size - sizeof CUT_MARK;
+            size_t m = head_within(s, n < bytes ? n : bytes, width - CUT_MARK_COLS);
+            if (m > 0) {
+                n = m;
+                cut = 1;
+            }
+        }
     }
     const char *p = s + n;
     memcpy(part, s, n);
     while (n > 0 && part[n - 1] == ' ')
         n--;
+    if (cut) {
+        memcpy(part + n, CUT_MARK, sizeof CUT_MARK - 1);
+        n += sizeof CUT_MARK - 1;
+    }
     part[n] = '\0';
     while (*p == ' ')
         p++;

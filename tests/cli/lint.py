@@ -183,6 +183,87 @@ check(rc == 2 and open(prof, encoding="utf-8").read() == before and "overwrite" 
       f"-o naming a profile linted: usage error, the profile untouched ({err})")
 os.remove(prof)
 
+# ---- an unknown criterion among the profile's other errors --------------------
+# A profile with a bare-number mass, two unknown criterion ids and a wind
+# speed in a length: every error in one run, in file order, each at the
+# line and column where its text starts in the file (found here in the
+# text), in all three formats; an unknown id's message is the one `plumb
+# fall` gives for it once the rest is fixed (the nearest ids), and the
+# second id keeps its own index, criteria[2].
+MIXED = """name: crane hook block
+payload:
+  mass: 2.385
+  drag: {cd: 0.9, area: 0.021 m^2}
+release:
+  height: 31.6 m
+criteria: [eu-c9, us-part107-cat3, en397]
+wind:
+  profile: uniform
+  speed: 7.3 furlong
+  from: 270 deg
+"""
+mixed = os.path.join(tmp, "mixed.yaml")
+with open(mixed, "w", encoding="utf-8") as f:
+    f.write(MIXED)
+
+
+def place(text, needle):
+    """1-based line and column where needle first starts in text."""
+    for i, l in enumerate(text.splitlines()):
+        if needle in l:
+            return i + 1, l.index(needle) + 1
+    return None
+
+
+want = [(mixed,) + place(MIXED, "2.385") + ("payload.mass",),
+        (mixed,) + place(MIXED, "eu-c9") + ("criteria[0]",),
+        (mixed,) + place(MIXED, "en397") + ("criteria[2]",),
+        (mixed,) + place(MIXED, "7.3 furlong") + ("wind.speed",)]
+fixed = os.path.join(tmp, "fixed.yaml")
+with open(fixed, "w", encoding="utf-8") as f:
+    f.write(MIXED.replace("2.385\n", "2.385 kg\n").replace("7.3 furlong", "7.3 m/s"))
+fall_msgs = []
+for ids in ("[eu-c9]", "[en397]"):
+    rc, _, err = plumb("fall", fixed, "--set", f"criteria={ids}")
+    m = re.search(r": criteria\[0\]: (unknown criterion .*)$", err, re.M)
+    fall_msgs.append(m.group(1) if rc == 2 and m else None)
+check(all(fall_msgs) and "did you mean 'eu-c1-80j'?" in fall_msgs[0] and
+      "'en397-penetration-29j' or 'en397-shock-49j'" in fall_msgs[1],
+      f"plumb fall names the nearest ids of an unknown criterion: {fall_msgs}")
+rc_t, out_t, err_t = plumb("lint", mixed)
+text_errs = stderr_errors(err_t)
+check(rc_t == 2 and out_t == "" and [e[:4] for e in text_errs] == want,
+      f"text: the bad mass, both unknown ids and the wind speed, in file order at their "
+      f"places: {text_errs} / {want}")
+check(len(text_errs) == 4 and [text_errs[1][4], text_errs[2][4]] == fall_msgs,
+      f"text: an unknown id's message is plumb fall's: {[e[4] for e in text_errs[1:3]]}")
+rc, out, _ = plumb("lint", mixed, "--format", "json")
+d = json.loads(out) if out.startswith("{") else {}
+jerrs = [(e["file"], e["line"], e["column"], e["key"], e["message"])
+         for p in d.get("profiles", []) for e in p.get("errors", [])]
+check(rc == 2 and jerrs == text_errs and d["profiles"][0]["listed_all"] is True,
+      f"JSON: the same errors as the text, in order: {jerrs}")
+rc, out, _ = plumb("lint", mixed, "--format", "csv")
+cerrs = [(r["file"], int(r["line"]), int(r["column"]), r["key"], r["message"])
+         for r in csv_rows(out)]
+check(rc == 2 and cerrs == text_errs, f"CSV: the same errors as the text, in order: {cerrs}")
+# block style, read from standard input; the unknown ids alone
+with open(fixed, encoding="utf-8") as f:
+    block = f.read().replace("criteria: [eu-c9, us-part107-cat3, en397]",
+                             "criteria:\n  - eu-c9\n  - us-part107-cat3\n  - en397")
+blockf = os.path.join(tmp, "block.yaml")
+with open(blockf, "w", encoding="utf-8") as f:
+    f.write(block)
+with open(blockf, encoding="utf-8") as f:
+    rc, _, err = plumb("lint", "-", stdin=f)
+got = [e[:4] for e in stderr_errors(err)]
+check(rc == 2 and got == [("<stdin>",) + place(block, "eu-c9") + ("criteria[0]",),
+                          ("<stdin>",) + place(block, "en397") + ("criteria[2]",)],
+      f"block list from stdin: both unknown ids, each at its place: {got}")
+# the good ids alone: the profile is good
+rc, _, err = plumb("lint", fixed, "--set", "criteria=[us-part107-cat3]")
+check(rc == 0 and err == "", f"known ids only: exit 0 ({rc}, {err})")
+
 # ---- usage errors -------------------------------------------------------------
 dest = os.path.join(tmp, "x.json")
 rc, out, err = plumb("lint", GOOD, "--format", "xml", "-o", dest)

@@ -217,9 +217,12 @@ IDEO = "\u3000-\u9fff\uac00-\ud7a3\uff00-\uff60"
 
 def joined(cur, piece):
     """A name's lines put back together: the line after a break at a hyphen,
-    slash or underscore follows on directly, after a space with a space."""
+    slash or underscore follows on directly, after a space with a space;
+    a cut marked with a backslash loses its mark and follows on directly."""
     if cur is None:
         return piece
+    if cur.endswith("\\"):
+        return cur[:-1] + piece
     return cur + piece if cur[-1:] in "-/_" else cur + " " + piece
 
 
@@ -324,6 +327,64 @@ try:
         check(rc == 0 and not wide(out), f"air --units {units}: {err.strip()} {wide(out)[:3]}")
     rc, out, err = plumb("verify")
     check(rc == 0 and out and not wide(out), f"verify: exit {rc} {err.strip()} {wide(out)[:3]}")
+finally:
+    shutil.rmtree(tmp)
+
+# ---- a long name with no break opportunity: cut at the edge, the cut marked -----
+# Item 5 of tower-kit.yaml renamed to an 86-letter name with no space,
+# hyphen, slash or underscore, so that it can only be cut where the line
+# ends; item 4 to a CJK name of 39 wide characters (78 columns, UAX #11
+# class W, as Python's unicodedata gives it). Expected in the fall, zone
+# and sweep text: every line within 80 columns (common practice, no
+# source); each cut of the Latin name marked with a backslash at the line's
+# end (plumb's own mark: a hyphen could not be told from the name's own),
+# the mark counted in the width, so that the name is whole once each
+# marked line is joined to the next without its mark; the CJK name broken
+# between ideographs (UAX #14: class ID, a break opportunity before and
+# after each) with no mark, and never inside a character (the output is
+# valid UTF-8: the decoding in plumbcli is strict).
+NOBRK = ("Stabilatypealuminiumboxsectionspiritlevel600mmwithmagneticbase"
+         "andendcapsforthemastcrew")
+tmp = tempfile.mkdtemp(prefix="plumb-width.", dir=os.environ.get("TMPDIR"))
+try:
+    src = open(os.path.join(ROOT, "profiles", "demo", "tower-kit.yaml")).read()
+    old = re.findall(r"^  - name: (.*)$", src, re.M)
+    src = src.replace(f"  - name: {old[4]}\n", f"  - name: {NOBRK}\n", 1)
+    src = src.replace(f"  - name: {old[3]}\n", f"  - name: {WIDE}\n", 1)
+    check(NOBRK in src and len(NOBRK) >= 85 and not re.search(r"[-/_ \\]", NOBRK),
+          "the long name without a break character is in the profile")
+    path = os.path.join(tmp, "no-break.yaml")
+    with open(path, "w", encoding="utf-8") as f:
+        f.write(src)
+    runs = [(("fall", path), 2),
+            (("sweep", path, "--vary", "release.height=5m:25m:10m"), 3),
+            (("sweep", path, "--vary", f"items[{NOBRK}].mass=0.1kg:0.3kg:0.1kg",
+              "--vary", "release.height=10m:20m:10m"), 6),
+            (("zone", path, "--samples", "400", "--threads", "1"), 1)]
+    for units in ("si", "us"):
+        for args, in_tables in runs:
+            what = f"no break: {' '.join(a for a in args if a != path)} --units {units}"
+            rc, out, err = plumb(*args, "--units", units)
+            check(rc == 0 and out, f"{what}: exit {rc} {err.strip()[:200]}")
+            w = wide(out)
+            check(not w, f"{what}: {len(w)} lines over {WIDTH} columns:\n" + "\n".join(w[:5]))
+            marks = [l for l in out.splitlines() if re.search(r"[a-z0-9]\\( |$)", l)]
+            check(len(marks) >= 2, f"{what}: the cuts of the name are marked: {marks[:3]}")
+            starts = out.count(NOBRK[:8])
+            names = table_names(out.splitlines())
+            in_text = " ".join(re.sub(r"\\\n *", "", out).split()).count(NOBRK)
+            whole = names.count(NOBRK)
+            check(starts >= 1 and whole + in_text == starts and whole >= in_tables,
+                  f"{what}: the name starts {starts} times, whole {whole} times in tables "
+                  f"(at least {in_tables}) and {in_text} in the text; table cells "
+                  f"{[n for n in names if n.startswith(NOBRK[:8])][:3]}")
+            ideo = "".join(re.findall(f"[{IDEO}]", out))
+            k = len(ideo) // len(WIDE)
+            check(k >= max(in_tables, 1) and ideo == WIDE * k,
+                  f"{what}: the wide name {k} times whole, "
+                  f"{len(ideo) - k * len(WIDE)} characters over")
+            check(not re.search(f"[{IDEO}]\\\\", out),
+                  f"{what}: a break between ideographs is not marked")
 finally:
     shutil.rmtree(tmp)
 
