@@ -207,30 +207,44 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
         snprintf(lands, sizeof lands, "Where %s lands (the item that sets the clearance)",
                  b->zone->items[b->zone_item].name);
     const char *its = b->zone->n_items > 1 ? "its " : "";
-    if (s->landing_circle_m > 0.0) {
+    int said = 0; /* "Where things land" said by the circle's paragraph */
+    if (s->landing_radius.hi_open) {
+        /* no circle to draw: say so, what it leaves and what to do, in
+         * the text report's words (plumbp_landing_open) */
+        char open[1024];
+        sheet_para(d, font, sheet_fmt(d, "%s: no landing circle, %s", lands,
+                                      plumbp_landing_open(z, open, sizeof open)));
+        said = 1;
+    } else if (s->landing_circle_m > 0.0) {
         double lx = s->landing_centre_m[0] - s->release_m[0];
         double ly = s->landing_centre_m[1] - s->release_m[1];
         sheet_para(d, font,
                    sheet_fmt(d, "%s: %s%% of %simpacts within %s %s of their "
-                                "centre, %s toward %s of the drop point (the landing circle, "
+                                "centre, %s %s toward %s of the drop point (the landing circle, "
                                 "upper %s%% bound%s).",
                              lands, plumbp_trimmed(P, 100.0 * z->confidence, 2), its,
                              plumbp_t_clear(P, plumbp_t_len, s->landing_circle_m),
                              beside(d, plumbp_t_clear(S, plumbp_t_len, s->landing_circle_m)),
                              plumbp_t_len(P, hypot(lx, ly)),
+                             beside(d, plumbp_t_len(S, hypot(lx, ly))),
                              plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
                              plumbp_trimmed(P, 100.0 * z->ci_level, 2),
                              s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
+        said = 1;
     }
+    /* each length with the other system's beside it, as every other
+     * length of this section (beside) */
     sheet_para(d, font,
-               sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s "
-                            "and %s (major axis toward %s) around the mean impact point, %s toward "
-                            "%s of the drop point.",
-                         s->landing_circle_m > 0.0 ? "" : lands,
-                         s->landing_circle_m > 0.0 ? "" : ": ", its,
+               sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s %s "
+                            "and %s %s (major axis toward %s) around the mean impact point, %s %s "
+                            "toward %s of the drop point.",
+                         said ? "" : lands, said ? "" : ": ", its,
                          plumbp_t_zone_len(P, s->semi_major_m),
+                         beside(d, plumbp_t_zone_len(S, s->semi_major_m)),
                          plumbp_t_zone_len(P, s->semi_minor_m),
+                         beside(d, plumbp_t_zone_len(S, s->semi_minor_m)),
                          plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
+                         beside(d, plumbp_t_len(S, hypot(dx, dy))),
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
     if (z->has_target)
         sheet_para(d, font,
@@ -480,9 +494,25 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
 
 void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
 {
-    char font[64];
+    char font[64], body[64];
     snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, 11.0);
-    sheet_heading(d, "Plan view of the clearance zone", b->zone ? 330.0 : 20.0);
+    snprintf(body, sizeof body, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    /* what the zone could not bound is not drawn, and the legend says why
+     * (the text report's words, PLUMBP_OPEN_BOUND) */
+    char missing[256] = "";
+    if (b->zone) {
+        const plumb_zone_stats *zs = &b->zone->items[b->zone_item].result->zone;
+        int circle = zs->landing_radius.hi_open, region = zs->landing.open;
+        if (circle || region)
+            snprintf(missing, sizeof missing, "%s%s%s",
+                     circle ? "The landing circle is not drawn, " PLUMBP_OPEN_BOUND ". " : "",
+                     region ? "The landing region is not drawn, " PLUMBP_OPEN_BOUND ". " : "",
+                     circle ? "Section 2 says what that leaves for the exclusion zone and what "
+                              "to do." : "");
+    }
+    double note = missing[0] ? sheet_text(d, d->left, d->y, sheet_width(d), body,
+                                          sheet_esc(d, missing), 0) + GAP / 2.0 : 0.0;
+    sheet_heading(d, "Plan view of the clearance zone", b->zone ? 330.0 + note : 20.0);
     if (!b->zone) {
         sheet_para(d, font, sheet_esc(d, b->no_zone));
         return;
@@ -496,6 +526,8 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                    sheet_fmt(d, "The zone of %s, the item with the largest clearance radius; "
                                 "section %d names every item.", b->zone->items[b->zone_item].name,
                              d->section + 1));
+    if (missing[0])
+        sheet_para(d, body, sheet_esc(d, missing));
     sheet_plan pv;
     memset(&pv, 0, sizeof pv);
     pv.drop_m[0] = s->release_m[0];
