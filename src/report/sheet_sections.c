@@ -256,6 +256,21 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                              beside(d, plumbp_t_clear(S, plumbp_t_len, z->at_target.clearance_radius_m))));
 }
 
+/* The verdict table's columns, fractions of the width, and its header
+ * row: drawn again at the top of every page the table goes on to, its
+ * first cell marked "(continued)" there. */
+static const double verdict_cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
+
+static void verdict_header(sheet_doc *d, const char *bold, int continued)
+{
+    static const char *const head[5] = {"Criterion", "Energy", "Limit", "Ratio", "Verdict"};
+    double w = sheet_width(d);
+    for (int c = 0; c < 5; c++)
+        sheet_text(d, d->left + verdict_cx[c] * w, d->y, 0.0, bold,
+                   c == 0 && continued ? "Criterion (continued)" : head[c], 1);
+    d->y += SHEET_BODY * 1.5;
+}
+
 static void verdict_table(sheet_doc *d, const plumb_item_report *it)
 {
     char font[64], bold[64];
@@ -263,28 +278,31 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
     writer *P = sheet_primary(d);
     double w = sheet_width(d);
-    double cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
-    static const char *const head[5] = {"Criterion", "Energy", "Limit", "Ratio", "Verdict"};
+    const double *cx = verdict_cx;
     sheet_need(d, 30.0);
-    for (int c = 0; c < 5; c++)
-        sheet_text(d, d->left + cx[c] * w, d->y, 0.0, bold, head[c], 1);
-    d->y += SHEET_BODY * 1.5;
+    verdict_header(d, bold, 0);
     for (size_t k = 0; k < it->n_verdicts; k++) {
         const plumb_verdict *v = &it->verdicts[k];
-        /* the id in one piece: "[z89-" / "type2-30j]" cannot be searched */
-        const char *name = sheet_fmt(d, "\x02%s %s%s", sheet_esc(d, v->criterion->name),
-                                     sheet_id(d, font, v->criterion->id, cx[1] * w - 6.0),
-                                     v->criterion->kind == PLUMB_CRIT_HELMET_TEST
-                                         ? " (a helmet test, not a safe limit)" : "");
+        /* the id in one piece: "[z89-" / "type2-30j]" cannot be searched;
+         * kept out of the ring, which a new page's footer goes round */
+        char name[FMT_LEN], energy[FMT_LEN];
+        snprintf(name, sizeof name, "%s",
+                 sheet_fmt(d, "\x02%s %s%s", sheet_esc(d, v->criterion->name),
+                           sheet_id(d, font, v->criterion->id, cx[1] * w - 6.0),
+                           v->criterion->kind == PLUMB_CRIT_HELMET_TEST
+                               ? " (a helmet test, not a safe limit)" : ""));
+        snprintf(energy, sizeof energy, "%s", sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)));
         double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
         double h2 = sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
-                               sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 0);
+                               energy, 0);
         if (h2 > h)
             h = h2;
-        sheet_need(d, h);
+        if (d->y + h > d->bottom) {
+            sheet_new_page(d);
+            verdict_header(d, bold, 1);
+        }
         sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 1);
-        sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
-                   sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 1);
+        sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font, energy, 1);
         sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font,
                    sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)), 1);
         sheet_text(d, d->left + cx[3] * w, d->y, 0.0, font,
@@ -338,8 +356,14 @@ static void criteria_sources(sheet_doc *d, const plumb_brief *b)
             sheet_need(d, first + h);
             d->y += sheet_text(d, d->left, d->y, sheet_width(d), bold,
                                "Criteria and their sources", 1) + 2.0;
-        } else {
-            sheet_need(d, h);
+        } else if (d->y + h > d->bottom) {
+            /* the list goes on: its title again, marked, over the rest */
+            char keep[FMT_LEN];
+            snprintf(keep, sizeof keep, "%s", body); /* the new page's footer uses the ring */
+            sheet_new_page(d);
+            d->y += sheet_text(d, d->left, d->y, sheet_width(d), bold,
+                               "Criteria and their sources (continued)", 1) + 2.0;
+            body = sheet_fmt(d, "\x02%s", keep);
         }
         sheet_text(d, d->left, d->y, key_w, font, sheet_fmt(d, "C%zu", k + 1), 1);
         sheet_text(d, d->left + key_w, d->y, w, font, body, 1);
