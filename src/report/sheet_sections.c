@@ -211,9 +211,15 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
     if (s->landing_radius.hi_open) {
         /* no circle to draw: say so, what it leaves and what to do, in
          * the text report's words (plumbp_landing_open) */
-        char open[1024];
-        sheet_para(d, font, sheet_fmt(d, "%s: no landing circle, %s", lands,
-                                      plumbp_landing_open(z, open, sizeof open)));
+        char open[1024], kept[FMT_LEN];
+        const char *esc = sheet_fmt(d, "%s: no landing circle, %s", lands,
+                                    plumbp_landing_open(z, open, sizeof open));
+        /* the option kept whole: pango would break it after its "--" */
+        const char *opt = strstr(esc, "--samples");
+        if (opt)
+            snprintf(kept, sizeof kept, "%.*s<span allow_breaks=\"false\">--samples</span>%s",
+                     (int)(opt - esc), esc, opt + strlen("--samples"));
+        sheet_para(d, font, opt ? kept : esc);
         said = 1;
     } else if (s->landing_circle_m > 0.0) {
         double lx = s->landing_centre_m[0] - s->release_m[0];
