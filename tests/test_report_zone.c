@@ -587,6 +587,64 @@ static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it
     free(si);
 }
 
+/* Issue 9: a landing circle the samples do not bound says what that
+ * leaves and what to do, in the words the sheet uses too: how many were
+ * counted, how many it takes, the whole clearance radius kept clear, and
+ * a sample count that bounds it. A 90 % circle at 95 % confidence needs
+ * 0.9^n <= 0.025 (the largest of n samples bounds the quantile; order
+ * statistics, closed form): n >= 36; with max(1, N / 4) samples fixing
+ * the centre (dispersion.h, landing_training), N = 47 is the smallest run
+ * that counts 36. Where that run is past PLUMB_ZONE_MAX_SAMPLES, a lower
+ * confidence is the advice. A kit's text says its largest circle is open. */
+static void test_an_open_landing_circle_says_what_it_leaves_and_what_to_do(void **state)
+{
+    (void)state;
+    plumb_zone_result open = base;
+    open.samples = open.zone.samples = 40;
+    open.zone.landing_training = 10;
+    open.confidence = 0.9;
+    open.ci_level = 0.95;
+    open.zone.landing_radius.hi_open = 1;
+    open.zone.landing_circle_m = 0.0;
+    plumb_zone_item item = {"marker bag", &open, 0};
+    plumb_zone_report rep = single(&item);
+    char *raw = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    char *t = squeeze(raw);
+    assert_non_null(strstr(t, "circle radius open: more samples needed to bound it; only 30 of "
+                              "the 40 samples are counted against its centre, and bounding it "
+                              "takes at least 36. Keep the whole clearance radius around the drop "
+                              "point clear: do not narrow the exclusion zone to where the impacts "
+                              "seem to land. For a landing circle, run the zone with 47 samples "
+                              "or more (zone.samples or --samples)."));
+    free(raw);
+    free(t);
+    /* 1 - 4e-8: n = ceil(ln 0.025 / ln(1 - 4e-8)) = 92 221 985 counted
+     * (evaluated in Python's math.log), which takes more than
+     * PLUMB_ZONE_MAX_SAMPLES = 1e8 in all (n / (1 - 1/4) > 1.2e8) */
+    open.confidence = 1.0 - 4e-8;
+    open.samples = open.zone.samples = 92221985u + 100u;
+    open.zone.landing_training = 4096;
+    raw = good(&rep, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    t = squeeze(raw);
+    assert_non_null(strstr(t, "only 92217989 of the 92222085 samples are counted against its "
+                              "centre, and bounding it takes at least 92221985."));
+    assert_non_null(strstr(t, "For a landing circle, run the zone at a lower confidence "
+                              "(zone.confidence)."));
+    free(raw);
+    free(t);
+    /* a kit whose landing circles are open says so */
+    open = base;
+    open.zone.landing_radius.hi_open = 1;
+    open.zone.landing_circle_m = 0.0;
+    plumb_zone_item items[2] = {{"marker bag", &open, 0}, {"radio", &open, 0}};
+    plumb_zone_report kit = single(items);
+    kit.inventory = 1;
+    kit.n_items = 2;
+    raw = good(&kit, PLUMB_FORMAT_TEXT, PLUMB_UNITS_SI);
+    assert_non_null(strstr(raw, "\n  largest landing circle open: more samples needed to bound it\n"));
+    free(raw);
+}
+
 /* A zone dropped from rest has no throw: the drag-free throw rule says so
  * plainly instead of "0 m ... (0 m/s, in its own direction)" (issue 9);
  * with a release velocity it gives the range and the speed. The range of
@@ -1023,6 +1081,7 @@ int main(void)
         cmocka_unit_test(test_empty_and_inconsistent_reports_are_refused_with_nothing_written),
         cmocka_unit_test(test_a_stream_that_cannot_be_written_is_a_write_error),
         cmocka_unit_test(test_the_samples_file_reads_back_and_quotes_names),
+        cmocka_unit_test(test_an_open_landing_circle_says_what_it_leaves_and_what_to_do),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

@@ -306,6 +306,33 @@ const char *plumbp_t_zone_len(writer *w, double m)
     return b;
 }
 
+/* format.h. The centre is fixed by m = min(pilot, max(1, N / 4)) samples
+ * (plumb_zone_stats.landing_training) and the circle bounded from the
+ * other N - m, which must number plumb_zone_min_samples(confidence,
+ * ci_level); N - max(1, N / 4) >= that is enough whatever the pilot, so
+ * the smallest such N is a run that bounds it. */
+const char *plumbp_landing_open(const plumb_zone_result *r, char *out, size_t size)
+{
+    const plumb_zone_stats *z = &r->zone;
+    size_t need = plumb_zone_min_samples(r->confidence, r->ci_level);
+    size_t counted = z->samples > z->landing_training ? z->samples - z->landing_training : 0;
+    size_t n = need;
+    while (n <= PLUMB_ZONE_MAX_SAMPLES && n - (n / 4 > 1 ? n / 4 : 1) < need)
+        n++;
+    char todo[160];
+    if (n <= PLUMB_ZONE_MAX_SAMPLES)
+        snprintf(todo, sizeof todo, "For a landing circle, run the zone with %zu samples or more "
+                 "(zone.samples or --samples).", n);
+    else
+        snprintf(todo, sizeof todo, "For a landing circle, run the zone at a lower confidence "
+                 "(zone.confidence).");
+    snprintf(out, size, PLUMBP_OPEN_BOUND "; only %zu of the %zu samples are counted against its "
+             "centre, and bounding it takes at least %zu. Keep the whole clearance radius around "
+             "the drop point clear: do not narrow the exclusion zone to where the impacts seem "
+             "to land. %s", counted, z->samples, need, todo);
+    return out;
+}
+
 /* A size of the body itself (a shape's edges, length, diameter and
  * thickness, a sphere's diameter): m, or in US units inches, as a tool or
  * a box is measured (heights and distances stay in feet). */

@@ -9,6 +9,7 @@
 #define PLUMB_REPORT_FORMAT_H
 
 #include "plumb/constants.h"
+#include "plumb/dispersion.h"
 #include "plumb/error.h"
 #include "plumb/report.h"
 #include "report/textout.h"
@@ -113,6 +114,18 @@ const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size
 /* The same in a writer of its own (JSON, GeoJSON: us 0), plain spaces;
  * returns 0 when a mark could not be read or a figure is not finite. */
 int plumbp_warning_plain(const char *text, int us, char *out, size_t size);
+
+/* A landing circle the zone's samples do not bound (landing_radius.hi_open):
+ * the short words of the text report's line ("open: more samples needed
+ * to bound it"), then into out what that leaves for the exclusion zone
+ * and what to do: how many samples were counted against the circle's
+ * centre and how many it takes (plumb_zone_min_samples), that the whole
+ * clearance radius around the drop point is to be kept clear, and a
+ * number of samples that bounds it. The text report's zone and the sheet
+ * both say it in these words (one function, so that they cannot
+ * diverge). Writes at most size bytes to out and returns it. */
+#define PLUMBP_OPEN_BOUND "open: more samples needed to bound it"
+const char *plumbp_landing_open(const plumb_zone_result *r, char *out, size_t size);
 
 /* A criterion's source ("not given" when empty) into buf: in a US report
  * each SI figure it quotes from its standard gets the US one in brackets

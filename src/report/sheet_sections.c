@@ -208,30 +208,50 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
         snprintf(lands, sizeof lands, "Where %s lands (the item that sets the clearance)",
                  b->zone->items[b->zone_item].name);
     const char *its = b->zone->n_items > 1 ? "its " : "";
-    if (s->landing_circle_m > 0.0) {
+    int said = 0; /* "Where things land" said by the circle's paragraph */
+    if (s->landing_radius.hi_open) {
+        /* no circle to draw: say so, what it leaves and what to do, in
+         * the text report's words (plumbp_landing_open) */
+        char open[1024], kept[FMT_LEN];
+        const char *esc = sheet_fmt(d, "%s: no landing circle, %s", lands,
+                                    plumbp_landing_open(z, open, sizeof open));
+        /* the option kept whole: pango would break it after its "--" */
+        const char *opt = strstr(esc, "--samples");
+        if (opt)
+            snprintf(kept, sizeof kept, "%.*s<span allow_breaks=\"false\">--samples</span>%s",
+                     (int)(opt - esc), esc, opt + strlen("--samples"));
+        sheet_para(d, font, opt ? kept : esc);
+        said = 1;
+    } else if (s->landing_circle_m > 0.0) {
         double lx = s->landing_centre_m[0] - s->release_m[0];
         double ly = s->landing_centre_m[1] - s->release_m[1];
         sheet_para(d, font,
                    sheet_fmt(d, "%s: %s%% of %simpacts within %s %s of their "
-                                "centre, %s toward %s of the drop point (the landing circle, "
+                                "centre, %s %s toward %s of the drop point (the landing circle, "
                                 "upper %s%% bound%s).",
                              lands, plumbp_trimmed(P, 100.0 * z->confidence, 2), its,
                              plumbp_t_clear(P, plumbp_t_len, s->landing_circle_m),
                              beside(d, plumbp_t_clear(S, plumbp_t_len, s->landing_circle_m)),
                              plumbp_t_len(P, hypot(lx, ly)),
+                             beside(d, plumbp_t_len(S, hypot(lx, ly))),
                              plumbp_t_bearing(P, atan2(lx, ly) * DEG_PER_RAD),
                              plumbp_trimmed(P, 100.0 * z->ci_level, 2),
                              s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
+        said = 1;
     }
+    /* each length with the other system's beside it, as every other
+     * length of this section (beside) */
     sheet_para(d, font,
-               sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s "
-                            "and %s (major axis toward %s) around the mean impact point, %s toward "
-                            "%s of the drop point.",
-                         s->landing_circle_m > 0.0 ? "" : lands,
-                         s->landing_circle_m > 0.0 ? "" : ": ", its,
+               sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s %s "
+                            "and %s %s (major axis toward %s) around the mean impact point, %s %s "
+                            "toward %s of the drop point.",
+                         said ? "" : lands, said ? "" : ": ", its,
                          plumbp_t_zone_len(P, s->semi_major_m),
+                         beside(d, plumbp_t_zone_len(S, s->semi_major_m)),
                          plumbp_t_zone_len(P, s->semi_minor_m),
+                         beside(d, plumbp_t_zone_len(S, s->semi_minor_m)),
                          plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
+                         beside(d, plumbp_t_len(S, hypot(dx, dy))),
                          plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
     if (z->has_target)
         sheet_para(d, font,
@@ -243,6 +263,21 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                              beside(d, plumbp_t_clear(S, plumbp_t_len, z->at_target.clearance_radius_m))));
 }
 
+/* The verdict table's columns, fractions of the width, and its header
+ * row: drawn again at the top of every page the table goes on to, its
+ * first cell marked "(continued)" there. */
+static const double verdict_cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
+
+static void verdict_header(sheet_doc *d, const char *bold, int continued)
+{
+    static const char *const head[5] = {"Criterion", "Energy", "Limit", "Ratio", "Verdict"};
+    double w = sheet_width(d);
+    for (int c = 0; c < 5; c++)
+        sheet_text(d, d->left + verdict_cx[c] * w, d->y, 0.0, bold,
+                   c == 0 && continued ? "Criterion (continued)" : head[c], 1);
+    d->y += SHEET_BODY * 1.5;
+}
+
 static void verdict_table(sheet_doc *d, const plumb_item_report *it)
 {
     char font[64], bold[64];
@@ -250,28 +285,31 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
     writer *P = sheet_primary(d);
     double w = sheet_width(d);
-    double cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
-    static const char *const head[5] = {"Criterion", "Energy", "Limit", "Ratio", "Verdict"};
+    const double *cx = verdict_cx;
     sheet_need(d, 30.0);
-    for (int c = 0; c < 5; c++)
-        sheet_text(d, d->left + cx[c] * w, d->y, 0.0, bold, head[c], 1);
-    d->y += SHEET_BODY * 1.5;
+    verdict_header(d, bold, 0);
     for (size_t k = 0; k < it->n_verdicts; k++) {
         const plumb_verdict *v = &it->verdicts[k];
-        /* the id in one piece: "[z89-" / "type2-30j]" cannot be searched */
-        const char *name = sheet_fmt(d, "\x02%s %s%s", sheet_esc(d, v->criterion->name),
-                                     sheet_id(d, font, v->criterion->id, cx[1] * w - 6.0),
-                                     v->criterion->kind == PLUMB_CRIT_HELMET_TEST
-                                         ? " (a helmet test, not a safe limit)" : "");
+        /* the id in one piece: "[z89-" / "type2-30j]" cannot be searched;
+         * kept out of the ring, which a new page's footer goes round */
+        char name[FMT_LEN], energy[FMT_LEN];
+        snprintf(name, sizeof name, "%s",
+                 sheet_fmt(d, "\x02%s %s%s", sheet_esc(d, v->criterion->name),
+                           sheet_id(d, font, v->criterion->id, cx[1] * w - 6.0),
+                           v->criterion->kind == PLUMB_CRIT_HELMET_TEST
+                               ? " (a helmet test, not a safe limit)" : ""));
+        snprintf(energy, sizeof energy, "%s", sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)));
         double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
         double h2 = sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
-                               sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 0);
+                               energy, 0);
         if (h2 > h)
             h = h2;
-        sheet_need(d, h);
+        if (d->y + h > d->bottom) {
+            sheet_new_page(d);
+            verdict_header(d, bold, 1);
+        }
         sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 1);
-        sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
-                   sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)), 1);
+        sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font, energy, 1);
         sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font,
                    sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)), 1);
         sheet_text(d, d->left + cx[3] * w, d->y, 0.0, font,
@@ -325,8 +363,14 @@ static void criteria_sources(sheet_doc *d, const plumb_brief *b)
             sheet_need(d, first + h);
             d->y += sheet_text(d, d->left, d->y, sheet_width(d), bold,
                                "Criteria and their sources", 1) + 2.0;
-        } else {
-            sheet_need(d, h);
+        } else if (d->y + h > d->bottom) {
+            /* the list goes on: its title again, marked, over the rest */
+            char keep[FMT_LEN];
+            snprintf(keep, sizeof keep, "%s", body); /* the new page's footer uses the ring */
+            sheet_new_page(d);
+            d->y += sheet_text(d, d->left, d->y, sheet_width(d), bold,
+                               "Criteria and their sources (continued)", 1) + 2.0;
+            body = sheet_fmt(d, "\x02%s", keep);
         }
         sheet_text(d, d->left, d->y, key_w, font, sheet_fmt(d, "C%zu", k + 1), 1);
         sheet_text(d, d->left + key_w, d->y, w, font, body, 1);
@@ -481,9 +525,25 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
 
 void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
 {
-    char font[64];
+    char font[64], body[64];
     snprintf(font, sizeof font, "%s Bold %.1f", SHEET_FONT, 11.0);
-    sheet_heading(d, "Plan view of the clearance zone", b->zone ? 330.0 : 20.0);
+    snprintf(body, sizeof body, "%s %.1f", SHEET_FONT, SHEET_BODY);
+    /* what the zone could not bound is not drawn, and the legend says why
+     * (the text report's words, PLUMBP_OPEN_BOUND) */
+    char missing[256] = "";
+    if (b->zone) {
+        const plumb_zone_stats *zs = &b->zone->items[b->zone_item].result->zone;
+        int circle = zs->landing_radius.hi_open, region = zs->landing.open;
+        if (circle || region)
+            snprintf(missing, sizeof missing, "%s%s%s",
+                     circle ? "The landing circle is not drawn, " PLUMBP_OPEN_BOUND ". " : "",
+                     region ? "The landing region is not drawn, " PLUMBP_OPEN_BOUND ". " : "",
+                     circle ? "Section 2 says what that leaves for the exclusion zone and what "
+                              "to do." : "");
+    }
+    double note = missing[0] ? sheet_text(d, d->left, d->y, sheet_width(d), body,
+                                          sheet_esc(d, missing), 0) + GAP / 2.0 : 0.0;
+    sheet_heading(d, "Plan view of the clearance zone", b->zone ? 330.0 + note : 20.0);
     if (!b->zone) {
         sheet_para(d, font, sheet_esc(d, b->no_zone));
         return;
@@ -497,6 +557,8 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                    sheet_fmt(d, "The zone of %s, the item with the largest clearance radius; "
                                 "section %d names every item.", b->zone->items[b->zone_item].name,
                              d->section + 1));
+    if (missing[0])
+        sheet_para(d, body, sheet_esc(d, missing));
     sheet_plan pv;
     memset(&pv, 0, sizeof pv);
     pv.drop_m[0] = s->release_m[0];

@@ -177,7 +177,7 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
             csvnum(w, up(len_shown(w, kr->zone.clearance_radius_m))), len_unit(w),
             rep->items[rep->kit_item].name);
         if (lr->zone.landing_radius.hi_open)
-            put(w, "largest landing circle open (more samples needed to bound it)\n");
+            put(w, "largest landing circle " PLUMBP_OPEN_BOUND "\n");
         else
             put(w, "largest landing circle %s %s, set by %s\n",
                 csvnum(w, up(len_shown(w, lr->zone.landing_circle_m))), len_unit(w),

@@ -399,8 +399,10 @@ static void text_exceedance(writer *w, const plumb_zone_stats *z, double level)
 
 /* Where the impacts land: the circle around the cloud's centre and the
  * polygon, each holding the confidence's share of impacts. */
-static void text_landing(writer *w, const plumb_zone_stats *z, double confidence, double level)
+static void text_landing(writer *w, const plumb_zone_result *r)
 {
+    const plumb_zone_stats *z = &r->zone;
+    double confidence = r->confidence, level = r->ci_level;
     const plumb_zone_quantile *q = &z->landing_radius;
     const plumb_region_result *lr = &z->landing;
     put(w, "Where %s of the impacts land, wherever that is on the ground\n", pct(w, confidence));
@@ -408,7 +410,8 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
     put(w, "  circle centre   %s (mean of the first %zu samples)\n",
         t_point(w, z->landing_centre_m), z->landing_training);
     if (q->hi_open) {
-        put(w, "  circle radius   open: more samples needed to bound it\n");
+        /* what an open circle leaves and what to do: the sheet's words too */
+        wrapped(w, "  circle radius   ", plumbp_landing_open(r, line, sizeof line));
     } else {
         put(w, "  circle radius   %s, %s interval %s\n", t_clear(w, q->value), pct(w, level),
             t_interval(w, q, len_shown(w, 1.0), len_unit(w), 1));
@@ -421,7 +424,7 @@ static void text_landing(writer *w, const plumb_zone_stats *z, double confidence
     }
     /* the areas too are keep-clear figures: rounded up */
     if (lr->open) {
-        put(w, "  polygon         open: more samples needed to bound it\n");
+        put(w, "  polygon         " PLUMBP_OPEN_BOUND "\n");
     } else if (z->scatter_m > 0.0) {
         /* the buffered area on a line of its own: "under 0.01 ft² in 3
          * parts; with the scatter allowance as a buffer" would pass 80 */
@@ -511,7 +514,7 @@ static void text_item(writer *w, const plumb_zone_result *r)
     put(w, "\n");
     text_radii(w, z, r->ci_level, "the planned drop point");
     text_clearance(w, z, r->confidence, r->ci_level, "");
-    text_landing(w, z, r->confidence, r->ci_level);
+    text_landing(w, r);
     text_rules(w, z);
     text_energy(w, z, r->ci_level);
     text_attitudes(w, z);
@@ -565,6 +568,8 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
                  l->zone.scatter_m > 0.0 ? "with the" : "no",
                  rep->items[rep->kit_landing_item].name);
         wrapped(w, "  ", line);
+    } else {
+        wrapped(w, "  ", "largest landing circle " PLUMBP_OPEN_BOUND);
     }
     /* The table keeps to TABLE_WIDTH columns: a long name is wrapped onto
      * continuation lines of its own column, never cut, as in the tables of
