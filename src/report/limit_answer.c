@@ -451,6 +451,12 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
             jset(j, o, "scanned_from_si", jreal(j, r->scan_lo_si));
             jset(j, o, "scanned_to_si", jreal(j, r->scan_hi_si));
             jset(j, o, "values_scanned", jint(j, r->n_scanned));
+            /* the metric at the highest value computed: for "not reached",
+             * how far below the limit the scan ended */
+            char k_top[64];
+            snprintf(k_top, sizeof k_top, "%s_at_scanned_to_%s", metric_stem(rep->metric),
+                     metric_unit_key(rep->metric));
+            jset(j, o, k_top, jreal(j, r->metric_at_scan_hi));
         }
         jset(j, o, "explanation", jstr(j, j_explain(j, rep, r, set_key, text, sizeof text)));
         /* the fall at the answer (at the profile's own value where none is
