@@ -625,8 +625,9 @@ static void not_reached_why(const char *key, plumb_status top_out, const char *t
     size_t size = sizeof res->explanation;
     switch (top_out) {
     case PLUMB_OK:
-        snprintf(e, size, "higher %s are above the top of the air model (U.S. Standard "
-                          "Atmosphere 1976), so the scan ends there", what);
+        snprintf(e, size, "higher %s are above the highest altitude plumb's air models "
+                          "reach (the top of the U.S. Standard Atmosphere 1976), so the scan "
+                          "ends there", what);
         break;
     case PLUMB_EOUTSIDE:
         snprintf(e, size, "the falls from higher %s leave the air model's range, so the scan "
