@@ -464,6 +464,49 @@ static void test_a_drift_that_moves_sideways_is_not_explained_by_terminal_speed(
     plumb_profile_free(p);
 }
 
+/* A fall that cannot be computed at the top of the scan (here past a
+ * fall-time budget of 47.3 s) leaves those heights out; it does not fail
+ * the answer. Drag-free, thrown east at 7.3 m/s: the fall lasts
+ * T = sqrt(2 H / g0) and drifts 7.3 m/s x T (closed form, uniform motion
+ * sideways, free fall down), so heights above g0 T^2 / 2 = 10 970 m run
+ * past the budget, and a drift of 413.7 m (T = 56.67 s) is not reached at
+ * any height computed: "not reached", with the highest height computed and
+ * its drift, never "unlimited" nor a failure. */
+static void test_a_fall_past_its_budget_at_the_scan_top_gives_not_reached(void **state)
+{
+    (void)state;
+    plumb_profile *p = drag_free("{east: 7.3 m/s, north: 0 m/s, up: 0 m/s}");
+    plumb_trajectory_options to;
+    plumb_trajectory_options_init(&to);
+    to.max_time_s = 47.3;
+    plumb_trajectory *short_traj = NULL;
+    assert_int_equal(plumb_trajectory_alloc(&to, &short_traj), PLUMB_OK);
+    plumb_limit_result r;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_limit_solve(p, units, 0, "release.height", PLUMB_METRIC_DRIFT, 413.7,
+                                       NULL, short_traj, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_NOT_REACHED);
+    assert_int_equal(r.n_crossings, 0);
+    assert_true(r.within_at_low_end);
+    /* the scan: 0.0316 m x 10^(i/10) (inverse.h); the highest of them
+     * under 10 970 m is i = 55, 9 992 m */
+    double h_max = 0.5 * G0 * 47.3 * 47.3;
+    assert_rel(r.scan_hi_si, HEIGHT_M / 1e3 * pow(10.0, 5.5), 1e-12);
+    assert_true(r.scan_hi_si < h_max && r.scan_hi_si * pow(10.0, 0.1) > h_max);
+    assert_rel(r.metric_at_scan_hi, 7.3 * sqrt(2.0 * r.scan_hi_si / G0), 1e-9);
+    assert_non_null(strstr(r.explanation, "step or time budget"));
+    /* the same solve with the default budget (86 400 s) finds the height
+     * of the closed form, H = g0 (413.7 / 7.3)^2 / 2 = 15 748 m */
+    assert_int_equal(solve(p, "release.height", PLUMB_METRIC_DRIFT, 413.7, NULL, &r, &d),
+                     PLUMB_OK);
+    assert_int_equal(r.outcome, PLUMB_LIMIT_FOUND);
+    assert_rel(r.value_si, 0.5 * G0 * (413.7 / 7.3) * (413.7 / 7.3), 1e-9);
+    plumb_trajectory_free(short_traj);
+    plumb_profile_free(p);
+}
+
 static void test_an_item_whose_drag_lacks_the_key_is_not_applicable(void **state)
 {
     (void)state;
@@ -609,6 +652,7 @@ int main(void)
         cmocka_unit_test(test_an_energy_below_the_release_energy_is_impossible_and_says_so),
         cmocka_unit_test(test_a_drift_nothing_moves_sideways_is_unlimited_and_says_why),
         cmocka_unit_test(test_a_drift_that_moves_sideways_is_not_explained_by_terminal_speed),
+        cmocka_unit_test(test_a_fall_past_its_budget_at_the_scan_top_gives_not_reached),
         cmocka_unit_test(test_an_item_whose_drag_lacks_the_key_is_not_applicable),
         cmocka_unit_test(test_each_item_is_answered_against_its_own_checks),
         cmocka_unit_test(test_bad_limits_items_and_keys_are_refused_with_their_reason),

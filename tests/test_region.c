@@ -18,6 +18,13 @@
  *  - The buffer holds every point within the buffer distance of the region
  *    (the Minkowski sum with a disc): the region's vertices moved out by
  *    the distance in 16 directions lie inside the buffered polygon.
+ *  - The main axis: a bivariate normal whose major axis (sd a) is turned to
+ *    bearing beta has that axis as its covariance's major eigenvector
+ *    (closed form: S = R diag(a^2, b^2) R'); the sample estimate's angle
+ *    has asymptotic sd sqrt(l1 l2) / ((l1 - l2) sqrt(n)) rad (T. W.
+ *    Anderson, Ann. Math. Statist. 34 (1963) 122-148; from memory). The
+ *    major axis of a 2 x 2 covariance lies at atan2(2 S_en, S_ee - S_nn) / 2
+ *    from east (eigenvectors of a symmetric 2 x 2 matrix, closed form).
  */
 #include <math.h>
 #include <stdarg.h>
@@ -140,6 +147,84 @@ static void region_of_a_tilted_normal_holds_p_and_is_near_the_ellipse(void **sta
     assert_true(r.polygon.area_m2 <= 1.10 * ell);
 }
 
+/* n points of a normal with sds a (major) and b, its major axis at bearing
+ * beta_deg from north, centred on (mx, my), added to reg. */
+static void add_turned_normal(plumb_region *reg, gsl_rng *g, size_t n, double a, double b,
+                              double beta_deg, double mx, double my)
+{
+    double th = (90.0 - beta_deg) * PLUMB_PI / 180.0; /* from east toward north */
+    for (size_t i = 0; i < n; i++) {
+        double u = gsl_ran_gaussian(g, a), v = gsl_ran_gaussian(g, b);
+        plumb_region_add(reg, mx + u * cos(th) - v * sin(th), my + u * sin(th) + v * cos(th));
+    }
+}
+
+/* The bearing from north, [0, 180), of the major axis of covariance
+ * (see, snn, sen): closed form. */
+static double major_bearing(double see, double snn, double sen)
+{
+    double th = 0.5 * atan2(2.0 * sen, see - snn) * 180.0 / PLUMB_PI;
+    return fmod(90.0 - th + 360.0, 180.0);
+}
+
+/* Smallest difference of two axis bearings (mod 180), deg. */
+static double axis_diff(double x, double y)
+{
+    double d = fmod(fabs(x - y), 180.0);
+    return d > 90.0 ? 180.0 - d : d;
+}
+
+static void main_axis_is_the_principal_axis_of_all_the_points(void **state)
+{
+    (void)state;
+    static plumb_region_result r;
+    plumb_region *reg = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_region_alloc(&reg, &d), PLUMB_OK);
+    gsl_rng *g = gsl_rng_alloc(gsl_rng_mt19937);
+    /* 40 000 points, sds 23.7 m and 6.1 m, major axis at 37.3 deg: the
+     * estimate's sd is sqrt(l1 l2) / ((l1 - l2) sqrt(n)) = 0.079 deg
+     * (Anderson 1963), so 0.4 deg is 5 sd */
+    const double a = 23.7, b = 6.1, beta = 37.3;
+    double sd_deg = a * b / ((a * a - b * b) * sqrt(40000.0)) * 180.0 / PLUMB_PI;
+    assert_true(5.0 * sd_deg < 0.4);
+    gsl_rng_set(g, 31);
+    assert_int_equal(plumb_region_reset(reg, 1024, &d), PLUMB_OK);
+    add_turned_normal(reg, g, 40000, a, b, beta, 412.6, -87.9);
+    assert_int_equal(plumb_region_finish(reg, 0.9, 0.95, 0.0, &r, &d), PLUMB_OK);
+    assert_false(r.open);
+    assert_true(axis_diff(r.axis_deg, beta) <= 0.4);
+    assert_true(r.axis_deg >= 0.0 && r.axis_deg < 180.0);
+
+    /* the first 1 024 points (the training points that fix the grid) from
+     * a cloud turned 90 deg the other way, then 38 976 from the one above:
+     * the axis is the mixture's, S = (1024 S1 + 38976 S2) / 40000 (both
+     * centred on the same point), not the training points' 127.3 deg */
+    gsl_rng_set(g, 47);
+    assert_int_equal(plumb_region_reset(reg, 1024, &d), PLUMB_OK);
+    add_turned_normal(reg, g, 1024, a, b, beta + 90.0, 412.6, -87.9);
+    add_turned_normal(reg, g, 38976, a, b, beta, 412.6, -87.9);
+    /* (the grid those training points fix may leave the region open: the
+     * axis is given all the same) */
+    assert_int_equal(plumb_region_finish(reg, 0.9, 0.95, 0.0, &r, &d), PLUMB_OK);
+    double w1 = 1024.0 / 40000.0, w2 = 1.0 - w1, see = 0.0, snn = 0.0, sen = 0.0;
+    const double betas[2] = {beta + 90.0, beta}, ws[2] = {w1, w2};
+    for (int k = 0; k < 2; k++) {
+        double th = (90.0 - betas[k]) * PLUMB_PI / 180.0, c = cos(th), s = sin(th);
+        /* R diag(a^2, b^2) R' */
+        see += ws[k] * (a * a * c * c + b * b * s * s);
+        snn += ws[k] * (a * a * s * s + b * b * c * c);
+        sen += ws[k] * (a * a - b * b) * c * s;
+    }
+    double want = major_bearing(see, snn, sen);
+    assert_true(axis_diff(want, beta) < 1e-9); /* turned the same way: the mix's axis is beta */
+    assert_true(axis_diff(r.axis_deg, want) <= 0.4);
+    assert_true(axis_diff(r.axis_deg, beta + 90.0) > 80.0);
+    gsl_rng_free(g);
+    plumb_region_free(reg);
+}
+
 static void coverage_fails_no_more_often_than_the_level_allows(void **state)
 {
     (void)state;
@@ -241,6 +326,7 @@ int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(region_of_a_tilted_normal_holds_p_and_is_near_the_ellipse),
+        cmocka_unit_test(main_axis_is_the_principal_axis_of_all_the_points),
         cmocka_unit_test(coverage_fails_no_more_often_than_the_level_allows),
         cmocka_unit_test(buffer_holds_every_point_within_the_distance),
         cmocka_unit_test(too_few_points_leave_the_region_open),

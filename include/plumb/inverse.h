@@ -19,6 +19,12 @@
  * profile's resolved specs, with the loader's checks, and rebuild the air
  * only for a key that changes it (the rest go through the loader each
  * time).
+ * A fall that cannot be computed at a scanned value (above the air
+ * model, past its budget, or failing) leaves that value out of the scan
+ * rather than failing the answer; when such values, or the air model's
+ * top, end the scan above every value computed and the limit is met
+ * throughout, the outcome is "not reached" (within the values that can be
+ * computed), never "unlimited".
  * Where no value in the range meets the limit the result says why
  * (unlimited, or impossible even at the edge of the range), in figures
  * and, where the figures do not say it, in words without figures: the
@@ -50,8 +56,14 @@ typedef enum plumb_limit_outcome {
     PLUMB_LIMIT_IMPOSSIBLE,    /* the limit is broken everywhere in the range */
     PLUMB_LIMIT_NOT_APPLICABLE, /* an inventory item without the key (a shape length of an
                                   item whose drag is given) */
-    PLUMB_LIMIT_NOT_ASKED      /* an inventory item another than the one asked for
+    PLUMB_LIMIT_NOT_ASKED,     /* an inventory item another than the one asked for
                                   (plumb_study_limit with an items[N] key); no figures */
+    PLUMB_LIMIT_NOT_REACHED    /* the limit is met at every value that can be computed,
+                                  but the scan stopped at the edge of what can be: higher
+                                  values leave the air model (its top, or a fall above
+                                  it), run past the fall's budget, or fail; scan_hi_si is
+                                  the highest value computed, metric_at_scan_hi its
+                                  metric, explanation says why it goes no higher */
 } plumb_limit_outcome;
 
 typedef struct plumb_limit_options {
@@ -62,7 +74,7 @@ typedef struct plumb_limit_options {
 enum { PLUMB_LIMIT_TEXT = 512, PLUMB_LIMIT_MAX_CROSSINGS = 8, PLUMB_LIMIT_UNIT = 32 };
 
 typedef struct plumb_limit_result {
-    plumb_limit_outcome outcome;  /* found, unlimited or impossible */
+    plumb_limit_outcome outcome;  /* found, unlimited, not reached or impossible */
     double value_si;              /* the key's value where the limit is met (found), SI unit of its dimension */
     plumb_dim dim;                /* the key's dimension */
     double metric_at_value;       /* the metric there (found) */

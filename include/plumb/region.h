@@ -73,8 +73,13 @@ typedef struct plumb_region_result {
                                  outside the grid: no polygon */
     size_t rank;              /* u: the calibration score rank used */
     size_t inside;            /* calibration points inside the polygon (>= rank) */
-    double cell_m[2];         /* density cell sides along the axes, m */
-    double axis_deg;          /* bearing of the grid's first axis from north, deg */
+    double cell_m[2];         /* density cell sides along the grid's axes (the training
+                                 points' principal axes), m */
+    double axis_deg;          /* bearing from north, [0, 180) deg, of the main axis of the
+                                 landing region: the major principal axis of the sample
+                                 covariance of every point added (K. Pearson 1901), in
+                                 the order added; 90 (east) when the points do not
+                                 spread */
     double buffer_m;          /* buffer distance, m */
     plumb_region_polygon polygon;  /* the region (when not open) */
     plumb_region_polygon buffered; /* the region with the buffer (when not open) */

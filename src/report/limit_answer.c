@@ -65,6 +65,7 @@ static const char *outcome_word(plumb_limit_outcome o)
 {
     return o == PLUMB_LIMIT_FOUND       ? "found"
            : o == PLUMB_LIMIT_UNLIMITED ? "unlimited"
+           : o == PLUMB_LIMIT_NOT_REACHED ? "not reached"
            : o == PLUMB_LIMIT_IMPOSSIBLE ? "impossible"
            : o == PLUMB_LIMIT_NOT_ASKED  ? "not asked"
                                          : "not applicable";
@@ -144,6 +145,15 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
                  "the %s stays below the limit of %s for every %s scanned %s (%zu values); at "
                  "the top of that range it is %s%s%s",
                  metric_word(rep->metric), t_the_limit(w, rep), label, scanned, r->n_scanned,
+                 t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+        break;
+    case PLUMB_LIMIT_NOT_REACHED:
+        snprintf(buf, size,
+                 "not reached within the values of %s that can be computed: the %s stays "
+                 "below the limit of %s for every value computed %s (%zu values); at the "
+                 "highest, %s, it is %s%s%s",
+                 label, metric_word(rep->metric), t_the_limit(w, rep), scanned, r->n_scanned,
+                 t_value(w, key, r->dim, r->scan_hi_si),
                  t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
         break;
     case PLUMB_LIMIT_IMPOSSIBLE:
@@ -283,8 +293,9 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
             continue;
         } else {
             put(w, "  %s: %s\n", set_key,
-                r->outcome == PLUMB_LIMIT_UNLIMITED ? "no limit in the physical range"
-                                                    : "no value meets the limit");
+                r->outcome == PLUMB_LIMIT_UNLIMITED     ? "no limit in the physical range"
+                : r->outcome == PLUMB_LIMIT_NOT_REACHED ? "the limit is not reached"
+                                                        : "no value meets the limit");
             explain(w, rep, r, set_key, text, sizeof text);
             wrapped(w, "  ", text);
         }
@@ -441,6 +452,12 @@ static json_t *j_limit(jctx *j, const plumb_report_options *opt, const plumb_lim
             jset(j, o, "scanned_from_si", jreal(j, r->scan_lo_si));
             jset(j, o, "scanned_to_si", jreal(j, r->scan_hi_si));
             jset(j, o, "values_scanned", jint(j, r->n_scanned));
+            /* the metric at the highest value computed: for "not reached",
+             * how far below the limit the scan ended */
+            char k_top[64];
+            snprintf(k_top, sizeof k_top, "%s_at_scanned_to_%s", metric_stem(rep->metric),
+                     metric_unit_key(rep->metric));
+            jset(j, o, k_top, jreal(j, r->metric_at_scan_hi));
         }
         jset(j, o, "explanation", jstr(j, j_explain(j, rep, r, set_key, text, sizeof text)));
         /* the fall at the answer (at the profile's own value where none is

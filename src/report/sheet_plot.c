@@ -534,6 +534,8 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
                 }
             } else if (r->outcome == PLUMB_LIMIT_UNLIMITED) {
                 snprintf(where[q], sizeof where[q], ", not reached at any height");
+            } else if (r->outcome == PLUMB_LIMIT_NOT_REACHED) {
+                snprintf(where[q], sizeof where[q], ", not reached at any height computed");
             } else if (r->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
                 snprintf(where[q], sizeof where[q], ", exceeded at every height");
             }

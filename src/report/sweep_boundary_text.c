@@ -34,6 +34,7 @@ static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const
         return c;
     }
     case PLUMB_LIMIT_UNLIMITED: return "never reached";
+    case PLUMB_LIMIT_NOT_REACHED: return "not reached";
     case PLUMB_LIMIT_IMPOSSIBLE: return "exceeded throughout";
     default: return "n/a";
     }

@@ -45,6 +45,7 @@ typedef enum range_kind {
 typedef struct key_range {
     range_kind kind;
     double lo, hi;
+    int at_air_top;   /* 1: hi is the air model's top, not the end of the span */
 } key_range;
 
 typedef struct solver_ctx {
@@ -59,7 +60,10 @@ typedef struct solver_ctx {
     size_t evals, max_evals;
     plumb_status fail;
     plumb_diag *diag;
-    int out_of_range;   /* the last x was refused by the profile's checks */
+    int out_of_range;   /* the last x was refused by the profile's checks, or its
+                           fall could not be computed (left_out says which) */
+    plumb_status left_out; /* why the last x was left out: an input error (refused), or
+                              the fall's PLUMB_EOUTSIDE, EBUDGET, ENOLAND, ENUMERIC */
     char refused_key[PLUMB_DIAG_KEY]; /* the key whose check refused it ("" if none named) */
     /* the fast path: the key set on copies of a template's resolved specs
      * (io/vary.h); the template is the first profile the loader derives
@@ -117,35 +121,38 @@ static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec 
 {
     const plumbp_key *k = plumbp_key_find(key, NULL, NULL);
     double span = starts_with(key, "descent") ? DEVICE_SPAN : SPAN;
-    key_range r = {RANGE_POSITIVE, base / span, base * span};
+    key_range r = {RANGE_POSITIVE, base / span, base * span, 0};
     if (strcmp(key, "release.height") == 0) {
         double top = PLUMB_STD1976_TOP_M - spec->site_elevation_m;
-        if (r.hi > top)
+        if (r.hi >= top) {
             r.hi = top;
+            r.at_air_top = 1;
+        }
     } else if (strcmp(key, "site.elevation") == 0) {
-        r = (key_range){RANGE_BOUNDED, PLUMB_STD1976_BOTTOM_M, PLUMB_STD1976_TOP_M - spec->release_m[2]};
+        r = (key_range){RANGE_BOUNDED, PLUMB_STD1976_BOTTOM_M,
+                        PLUMB_STD1976_TOP_M - spec->release_m[2], 1};
     } else if (starts_with(key, "release.velocity.") && strcmp(key, "release.velocity.speed") != 0) {
-        r = (key_range){RANGE_SIGNED, -MAX_SPEED_M_S, MAX_SPEED_M_S};
+        r = (key_range){RANGE_SIGNED, -MAX_SPEED_M_S, MAX_SPEED_M_S, 0};
     } else if (starts_with(key, "release.position.")) {
-        r = (key_range){RANGE_SIGNED, -MAX_OFFSET_M, MAX_OFFSET_M};
+        r = (key_range){RANGE_SIGNED, -MAX_OFFSET_M, MAX_OFFSET_M, 0};
     } else if (dim == PLUMB_DIM_TEMPERATURE && k) {
         double lo, hi;
         int lo_open;
         plumbp_key_bounds(k, &lo, &hi, &lo_open);
-        r = (key_range){RANGE_BOUNDED, lo, hi};
+        r = (key_range){RANGE_BOUNDED, lo, hi, 0};
     } else if (dim == PLUMB_DIM_TEMP_DIFF) {
-        r = (key_range){RANGE_SIGNED, -MAX_TEMP_DIFF_K, MAX_TEMP_DIFF_K};
+        r = (key_range){RANGE_SIGNED, -MAX_TEMP_DIFF_K, MAX_TEMP_DIFF_K, 0};
     } else if (dim == PLUMB_DIM_FRACTION) {
-        r = (key_range){RANGE_BOUNDED, 0.0, 1.0};
+        r = (key_range){RANGE_BOUNDED, 0.0, 1.0, 0};
     } else if (k && (k->range == PLUMBY_R_CD || k->range == PLUMBY_R_CD_POSITIVE)) {
-        r = (key_range){RANGE_BOUNDED, 0.0, PLUMBY_CD_MAX};
+        r = (key_range){RANGE_BOUNDED, 0.0, PLUMBY_CD_MAX, 0};
     } else if (strcmp(key, "wind.speed") == 0) {
-        r = (key_range){RANGE_NONNEG, 0.0, MAX_WIND_M_S};
+        r = (key_range){RANGE_NONNEG, 0.0, MAX_WIND_M_S, 0};
     } else if (dim == PLUMB_DIM_SPEED) {
-        r = (key_range){RANGE_NONNEG, 0.0, MAX_SPEED_M_S};
+        r = (key_range){RANGE_NONNEG, 0.0, MAX_SPEED_M_S, 0};
     } else if (dim == PLUMB_DIM_TIME || dim == PLUMB_DIM_NONE || !(base > 0.0)) {
         double hi = base > 0.0 ? base * SPAN : 1.0;
-        r = (key_range){RANGE_NONNEG, 0.0, hi};
+        r = (key_range){RANGE_NONNEG, 0.0, hi, 0};
     }
     return r;
 }
@@ -209,14 +216,21 @@ static int base_value(const plumb_profile *p, size_t item, const char *key, doub
     return 1;
 }
 
-/* The falls's status into the context: metric - limit, or NaN. */
+/* The falls's status into the context: metric - limit, or NaN. A fall
+ * that cannot be computed at x (it leaves the air model, runs past its
+ * budget, never lands, or fails on both steppers: PLUMB_ENUMERIC) leaves
+ * x out of the scan, as a value the profile refuses does: one value that
+ * cannot be computed is no reason to fail the answer at the others (the
+ * solve says so when such values end the scan). Anything else (out of
+ * memory) stops the solve. */
 static double eval_done(solver_ctx *c, plumb_status st, const plumb_fall_result *r,
                         const plumb_diag *d)
 {
     c->evals++;
     if (st == PLUMB_EINVAL || st == PLUMB_ERANGE || st == PLUMB_EOUTSIDE || st == PLUMB_EBUDGET ||
-        st == PLUMB_ENOLAND) {
+        st == PLUMB_ENOLAND || st == PLUMB_ENUMERIC) {
         c->out_of_range = 1;
+        c->left_out = st;
         plumbp_strlcpy(c->refused_key, d->key, sizeof c->refused_key);
         if (c->diag)
             *c->diag = *d;
@@ -240,6 +254,7 @@ static double eval_refused(solver_ctx *c, plumb_status st, const plumb_diag *d)
         *c->diag = *d;
     if (plumb_status_is_input_error(st)) {
         c->out_of_range = 1;
+        c->left_out = st;
         plumbp_strlcpy(c->refused_key, d->key, sizeof c->refused_key);
     } else
         c->fail = st;
@@ -597,6 +612,50 @@ static void drift_unlimited_why(const plumb_fall_spec *spec, const char *key, co
                  "so no %s gives a drift as large as the limit", what);
 }
 
+/* Why a scan whose every value meets the limit goes no higher, in words
+ * without figures (the report writers give the highest value computed and
+ * its metric): top_out, why the values above the highest computed were
+ * left out (PLUMB_OK: the range ends at the air model's top), top_key the
+ * key whose check refused them ("" if none named). */
+static void not_reached_why(const char *key, plumb_status top_out, const char *top_key,
+                            plumb_limit_result *res)
+{
+    const char *what = strcmp(key, "release.height") == 0 ? "heights" : "values";
+    char *e = res->explanation;
+    size_t size = sizeof res->explanation;
+    switch (top_out) {
+    case PLUMB_OK:
+        snprintf(e, size, "higher %s are above the highest altitude plumb's air models "
+                          "reach (the top of the U.S. Standard Atmosphere 1976), so the scan "
+                          "ends there", what);
+        break;
+    case PLUMB_EOUTSIDE:
+        snprintf(e, size, "the falls from higher %s leave the air model's range, so the scan "
+                          "ends there", what);
+        break;
+    case PLUMB_EBUDGET:
+        snprintf(e, size, "the falls from higher %s run past the fall's step or time budget, "
+                          "so the scan ends there", what);
+        break;
+    case PLUMB_ENOLAND:
+        snprintf(e, size, "from higher %s the object never reaches the strike level, so the "
+                          "scan ends there", what);
+        break;
+    case PLUMB_ENUMERIC:
+        snprintf(e, size, "the falls from higher %s could not be computed (the integration "
+                          "failed on both methods), so the scan ends there", what);
+        break;
+    default:
+        if (top_key[0] && strcmp(top_key, key) != 0)
+            snprintf(e, size, "higher %s are refused by the profile's check of %s, so the scan "
+                              "ends there", what, top_key);
+        else
+            snprintf(e, size, "higher %s are refused by the profile, so the scan ends there",
+                     what);
+        break;
+    }
+}
+
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
 static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
@@ -616,8 +675,13 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
         return c->fail;
     if (isnan(f0) && diag && plumb_status_is_input_error(diag->status))
         return diag->status; /* the profile cannot be re-made at its own value (built in code) */
-    if (isnan(f0))
-        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key, "the profile's own value cannot be computed");
+    if (isnan(f0)) {
+        char why[PLUMB_DIAG_MSG];
+        plumbp_strlcpy(why, diag ? diag->message : "", sizeof why);
+        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
+                               "the profile's own value cannot be computed%s%s", why[0] ? ": " : "",
+                               why);
+    }
     res->metric_at_base = f0 + limit;
 
     /* Scan the range, then refine every change of sign with Brent's
@@ -631,6 +695,10 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
      * check refused the last of them */
     int low_refused = 0;
     char low_key[PLUMB_DIAG_KEY] = "";
+    /* values above the highest computed that were left out: why the first
+     * of them was (PLUMB_OK: none), and the key whose check refused it */
+    plumb_status top_out = PLUMB_OK;
+    char top_key[PLUMB_DIAG_KEY] = "";
     for (size_t i = 0; i < SCAN_POINTS; i++) {
         double x = scan_value(&r, r.lo, r.hi, i, SCAN_POINTS);
         if (!base_done && x >= base) {
@@ -648,8 +716,14 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
                 low_refused = 1;
                 plumbp_strlcpy(low_key, c->refused_key, sizeof low_key);
             }
-            continue; /* refused by the profile: outside its range */
+            if (n > 0 && x > base && top_out == PLUMB_OK) {
+                top_out = c->left_out;
+                plumbp_strlcpy(top_key, c->refused_key, sizeof top_key);
+            }
+            continue; /* refused by the profile, or not computable: left out */
         }
+        if (x > base)
+            top_out = PLUMB_OK; /* computed again above a value left out */
         xs[n] = x;
         fs[n++] = fx;
     }
@@ -675,6 +749,17 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
     res->metric_at_scan_hi = fs[n - 1] + limit;
     if (res->n_crossings == 0) {
         res->outcome = fs[0] <= 0.0 ? PLUMB_LIMIT_UNLIMITED : PLUMB_LIMIT_IMPOSSIBLE;
+        if (res->outcome == PLUMB_LIMIT_UNLIMITED && (top_out != PLUMB_OK || r.at_air_top)) {
+            /* met at every value computed, but the scan ends at the edge of
+             * what can be computed: a larger value may yet break it */
+            res->outcome = PLUMB_LIMIT_NOT_REACHED;
+            not_reached_why(key, top_out, top_key, res);
+            size_t len = strlen(res->explanation);
+            if (metric != PLUMB_METRIC_DRIFT && strcmp(key, "release.height") == 0)
+                snprintf(res->explanation + len, sizeof res->explanation - len,
+                         "; below that it levels off as the fall reaches its terminal speed");
+            return PLUMB_OK;
+        }
         /* the figures (range scanned, the metric at its top) say the rest */
         if (low_refused && res->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
             if (low_key[0] && strcmp(low_key, key) != 0)

@@ -25,6 +25,18 @@
  *              empty cell, directed with the region on their left; with no
  *              corner-only contacts every grid vertex starts at most one
  *              edge, so the edges link into simple counter-clockwise rings.
+ *   axis       the bearing of the landing region's main axis (axis_deg) is
+ *              the major principal axis of the sample covariance of every
+ *              point added, training and calibration alike (K. Pearson,
+ *              "On lines and planes of closest fit", Phil. Mag. 2 (1901)
+ *              559-572): for the 2 x 2 covariance S, the major axis lies at
+ *              theta = atan2(2 S_en, S_ee - S_nn) / 2 from east. The sums
+ *              are updated point by point (B. P. Welford, Technometrics 4
+ *              (1962) 419-420, its co-moment form), in the order the points
+ *              are added, which the zone makes the sample order: the same
+ *              bits for any thread count. The grid's own axes follow the
+ *              training points only, as split conformal needs (a grid fixed
+ *              before the calibration points are seen).
  */
 #include <math.h>
 #include <stdint.h>
@@ -60,6 +72,8 @@ struct plumb_region {
     int trained;
     double (*train)[2];           /* m training points */
     double c[2];                  /* training mean */
+    double all_mean[2];           /* mean of every point added (east, north), m */
+    double all_m2[3];             /* their sums of squared deviations: ee, nn, en, m^2 */
     double cs, sn;                /* cos, sin of the grid's first axis from east */
     double u0, v0, du, dv;        /* grid corner and cell sides in the axes frame */
     double *dens;                 /* G x G, cell (i, j) at i + G j */
@@ -116,6 +130,8 @@ plumb_status plumb_region_reset(plumb_region *r, size_t training, plumb_diag *di
     r->n = r->n_cal = r->outside = 0;
     r->trained = 0;
     r->c[0] = r->c[1] = 0.0;
+    r->all_mean[0] = r->all_mean[1] = 0.0;
+    r->all_m2[0] = r->all_m2[1] = r->all_m2[2] = 0.0;
     memset(r->dens, 0, (size_t)G * G * sizeof *r->dens);
     memset(r->count, 0, (size_t)G * G * sizeof *r->count);
     return PLUMB_OK;
@@ -211,10 +227,23 @@ static void train(plumb_region *r)
     r->trained = 1;
 }
 
+/* Welford's update of the mean and co-moments by the k-th point (k >= 1). */
+static void moments_add(plumb_region *r, size_t k, double east, double north)
+{
+    double de = east - r->all_mean[0], dn = north - r->all_mean[1];
+    r->all_mean[0] += de / (double)k;
+    r->all_mean[1] += dn / (double)k;
+    double de2 = east - r->all_mean[0], dn2 = north - r->all_mean[1];
+    r->all_m2[0] += de * de2;
+    r->all_m2[1] += dn * dn2;
+    r->all_m2[2] += de * dn2;
+}
+
 void plumb_region_add(plumb_region *r, double east, double north)
 {
     if (r->m == 0)
         return; /* not reset yet: nothing to fill */
+    moments_add(r, r->n + 1, east, north);
     if (!r->trained) {
         r->train[r->n][0] = east;
         r->train[r->n][1] = north;
@@ -458,7 +487,9 @@ plumb_status plumb_region_finish(plumb_region *r, double p, double level, double
         return PLUMB_OK;
     out->cell_m[0] = r->du;
     out->cell_m[1] = r->dv;
-    double bearing = fmod(90.0 - atan2(r->sn, r->cs) * DEG_PER_RAD + 360.0, 180.0);
+    /* the major principal axis of all the points (see the top of the file) */
+    double theta = 0.5 * atan2(2.0 * r->all_m2[2], r->all_m2[0] - r->all_m2[1]);
+    double bearing = fmod(90.0 - theta * DEG_PER_RAD + 360.0, 180.0);
     out->axis_deg = bearing >= 180.0 ? 0.0 : bearing;
     size_t lo = 0, u = 0;
     if (plumb_quantile_ranks(r->n_cal, p, level, &lo, &u) != PLUMB_OK || u > r->n_cal)

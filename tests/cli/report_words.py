@@ -116,6 +116,20 @@ for unc, spread in ((MASS, False), (WIND, True)):
               and pg.get("axis_bearing_deg", 0) is None,
               f"zone JSON, {what}: no bearing without an ellipse: {el} {pg.get('axis_bearing_deg')}")
 
+# the polygon's main axis is the major principal axis of the sample
+# covariance of every impact (K. Pearson, Phil. Mag. 2 (1901) 559-572), as
+# the 95 % ellipse's is: one figure computed twice (the zone's statistics,
+# the landing region's own moments), the same to rounding, for a cloud
+# spread both ways (wind speed and direction uncertain), not a line
+rc, out, err = plumb(*ZONE, *WIND, "--set", "uncertainty.wind.from={normal: [270 deg, 23 deg]}",
+                     "--format", "json")
+z = json.loads(out)["zone"] if rc == 0 else {}
+ab = z.get("landing", {}).get("polygon", {}).get("axis_bearing_deg")
+eb = z.get("ellipse95", {}).get("bearing_deg")
+check(isinstance(ab, float) and isinstance(eb, float)
+      and abs((ab - eb + 90.0) % 180.0 - 90.0) < 1e-6,
+      f"zone JSON: the polygon's axis {ab} is the ellipse's {eb} (all samples)")
+
 # ---- one spelling of square metres ---------------------------------------------------
 runs = [
     ("fall", THROWN),
