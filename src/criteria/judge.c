@@ -214,6 +214,7 @@ static void warn_device_at_impact(plumb_item_report *item, size_t i)
         break;
     }
     case PLUMB_DEVICE_OPEN:
+    case PLUMB_DEVICE_REPLACED: /* the next device's state says what held at impact */
         break;
     }
 }

@@ -750,10 +750,19 @@ plumb_device_state plumb_fall_device_at_impact(const plumb_fall_spec *spec,
                                                plumb_device_at_impact *out)
 {
     plumb_device_at_impact c = {PLUMB_DEVICE_NOT_DEPLOYED, 0.0, 0.0, 0.0};
-    if (spec && res && i < spec->n_descent && i < PLUMB_MAX_DESCENT) {
+    size_t nd = spec && spec->n_descent < PLUMB_MAX_DESCENT ? spec->n_descent : PLUMB_MAX_DESCENT;
+    if (spec && res && i < nd) {
         const plumb_descent_spec *d = &spec->descent[i];
         c.cds_full_m2 = d->cd * d->area_m2;
-        if (res->deployed[i]) {
+        if (!res->deployed[i]) {
+            /* not deployed: the zero figures above */
+        } else if (i + 1 < nd && spec->descent[i + 1].disreefs_previous && res->deployed[i + 1]) {
+            /* released at the next device's line stretch (trajectory_rhs.c) */
+            double tf = res->fill_time_s[i];
+            double since = res->deploy_time_s[i + 1] - res->deploy_time_s[i];
+            c.state = PLUMB_DEVICE_REPLACED;
+            c.fill_fraction = tf > 0.0 && since < tf ? (since > 0.0 ? since / tf : 0.0) : 1.0;
+        } else {
             /* the integrator stops at t_ls + t_f as an event computed the
              * same way, so an impact after the fill compares >= exactly */
             double tf = res->fill_time_s[i], since = res->time_s - res->deploy_time_s[i];
@@ -778,13 +787,10 @@ unsigned plumb_fall_opened_devices(const plumb_fall_spec *spec, const plumb_fall
 {
     unsigned opened = 0;
     size_t nd = spec->n_descent < PLUMB_MAX_DESCENT ? spec->n_descent : PLUMB_MAX_DESCENT;
-    for (size_t i = 0; i < nd; i++) {
-        int replaced = i + 1 < nd && spec->descent[i + 1].disreefs_previous && res->deployed[i + 1];
-        if (plumb_fall_device_at_impact(spec, res, i, NULL) == PLUMB_DEVICE_OPEN && !replaced)
+    for (size_t i = nd; i-- > 0;) {
+        plumb_device_state st = plumb_fall_device_at_impact(spec, res, i, NULL);
+        if (st == PLUMB_DEVICE_OPEN || (st == PLUMB_DEVICE_REPLACED && (opened & (2u << i))))
             opened |= 1u << i;
     }
-    for (size_t i = 0; i + 1 < nd; i++)
-        if ((opened & (1u << (i + 1))) && spec->descent[i + 1].disreefs_previous)
-            opened |= 1u << i;
     return opened;
 }

@@ -213,12 +213,13 @@ static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *
     size_t closed = 0, filling = 0;
     int same = 0;
     for (size_t i = 0; i < n; i++) {
-        if (st[i] == PLUMB_DEVICE_OPEN)
-            continue;
+        if (st[i] != PLUMB_DEVICE_NOT_DEPLOYED && st[i] != PLUMB_DEVICE_FILLING)
+            continue; /* open, or replaced by the next device */
         closed += st[i] == PLUMB_DEVICE_NOT_DEPLOYED;
         filling += st[i] == PLUMB_DEVICE_FILLING;
         for (size_t k = i + 1; k < n; k++)
-            same |= st[k] != PLUMB_DEVICE_OPEN && s->descent[i].kind == s->descent[k].kind;
+            same |= (st[k] == PLUMB_DEVICE_NOT_DEPLOYED || st[k] == PLUMB_DEVICE_FILLING) &&
+                    s->descent[i].kind == s->descent[k].kind;
     }
     buf[0] = '\0';
     if (same) {

@@ -115,9 +115,10 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
         plumb_device_at_impact at;
         plumb_device_state st = plumb_fall_device_at_impact(s, r, i, &at);
         json_t *ai = jobj(j);
-        jset(j, ai, "state", jstr(j, st == PLUMB_DEVICE_OPEN      ? "open"
-                                     : st == PLUMB_DEVICE_FILLING ? "filling"
-                                                                  : "not_deployed"));
+        jset(j, ai, "state", jstr(j, st == PLUMB_DEVICE_OPEN       ? "open"
+                                     : st == PLUMB_DEVICE_FILLING  ? "filling"
+                                     : st == PLUMB_DEVICE_REPLACED ? "replaced"
+                                                                   : "not_deployed"));
         jset(j, ai, "fill_fraction", jreal(j, at.fill_fraction));
         jset(j, ai, "drag_area_m2", jreal(j, at.cds_m2));
         jset(j, ai, "drag_area_full_m2", jreal(j, at.cds_full_m2));
@@ -144,7 +145,7 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
                          : json_null());
                 /* the estimate is a full fill's: false when the canopy was still
                  * filling at impact, so the force shown was never felt */
-                jset(j, pf, "full_fill_reached", json_boolean(st == PLUMB_DEVICE_OPEN));
+                jset(j, pf, "full_fill_reached", json_boolean(at.fill_fraction >= 1.0));
                 jset(j, dv, "pflanz", pf);
             } else {
                 jset(j, dv, "pflanz", json_null());

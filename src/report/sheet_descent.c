@@ -84,7 +84,8 @@ static void item_figures(sheet_doc *d, const plumb_brief *b, size_t k, const cha
                                   sizeof pflanz);
         /* a device not open at impact says so in bold: the fall above is
          * without it, or with its canopy part-filled */
-        int is_open = plumb_fall_device_at_impact(s, r, i, NULL) == PLUMB_DEVICE_OPEN;
+        plumb_device_state st = plumb_fall_device_at_impact(s, r, i, NULL);
+        int is_open = st == PLUMB_DEVICE_OPEN || st == PLUMB_DEVICE_REPLACED;
         para_in(d, indent, font,
                 sheet_fmt(d, "\x02<b>%s</b>, %s: %s%s%s%s%s.", sheet_esc(d, key),
                           plumb_descent_kind_name(s->descent[i].kind),

@@ -243,7 +243,8 @@ static void compute_block(worker *w, slot *sl)
             switch (plumb_fall_device_at_impact(&spec, &res, dv, NULL)) {
             case PLUMB_DEVICE_NOT_DEPLOYED: r->closed |= 1u << dv; break;
             case PLUMB_DEVICE_FILLING: r->filling |= 1u << dv; break;
-            case PLUMB_DEVICE_OPEN: break;
+            case PLUMB_DEVICE_OPEN:
+            case PLUMB_DEVICE_REPLACED: break;
             }
         sl->steps += res.solver.steps;
         sl->evals += res.solver.rhs_evaluations;
