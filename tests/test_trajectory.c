@@ -1027,6 +1027,92 @@ static void test_a_crisis_ball_from_rest_settles_at_the_lowest_root(void **state
     plumb_atmosphere_free(atm);
 }
 
+/* A canopy still filling at impact (plumb_fall_device_at_impact). The body
+ * has no drag of its own, so up to line stretch the fall is exactly
+ * drag-free: z = H - g t^2 / 2, v = g t (elementary mechanics), and the
+ * canopy only slows it afterwards, so the impact comes no sooner than
+ * sqrt(2 H / g). The deploy time is set 0.154 s before that and the fill
+ * (0.43 s, linear: CdS = CdS0 t / t_f, Knacke 1991 with j = 1) cannot end
+ * first: the fill fraction at impact is (t_impact - t_stretch) / t_f, the
+ * definition of the fill time. */
+static void test_a_canopy_still_filling_at_impact_is_not_open(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_constant_air();
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    const double h = 27.4, g = PLUMB_G0_M_S2;
+    base_spec(&s, 3.17, 0.0, h);
+    const double t0 = sqrt(2.0 * h / g), td = t0 - 0.154, tf = 0.43;
+    s.n_descent = 1;
+    s.descent[0].cd = 0.81;
+    s.descent[0].area_m2 = 1.93;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = td;
+    s.descent[0].fill_time_s = tf;
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_OK);
+    assert_true(r.deployed[0]);
+    assert_rel(r.deploy_time_s[0], td, 1e-12);
+    assert_rel(r.deploy_height_m[0], h - 0.5 * g * td * td, 1e-9); /* drag-free */
+    assert_rel(r.deploy_speed_m_s[0], g * td, 1e-9);
+    assert_true(r.time_s >= t0 * (1.0 - 1e-9) && r.time_s < td + tf);
+    plumb_device_at_impact at;
+    assert_int_equal(plumb_fall_device_at_impact(&s, &r, 0, &at), PLUMB_DEVICE_FILLING);
+    double frac = (r.time_s - r.deploy_time_s[0]) / r.fill_time_s[0];
+    assert_rel(at.fill_fraction, frac, 1e-12);
+    assert_rel(at.cds_full_m2, 0.81 * 1.93, 1e-15);
+    assert_rel(at.cds_m2, 0.81 * 1.93 * frac, 1e-12); /* linear fill */
+    /* nothing opened: no steady speed of this fall's; the all-open one stays */
+    assert_int_equal(plumb_fall_opened_devices(&s, &r), 0u);
+    assert_true(r.steady_opened_m_s == 0.0 && r.steady_speed_m_s > 0.0);
+
+    /* the same state read from times alone: the fill ending exactly at
+     * impact is open, an instant later still filling; no fill time opens
+     * at once; an index past the devices is not deployed */
+    plumb_fall_result x = r;
+    x.time_s = x.deploy_time_s[0] + x.fill_time_s[0];
+    assert_int_equal(plumb_fall_device_at_impact(&s, &x, 0, &at), PLUMB_DEVICE_OPEN);
+    assert_true(at.fill_fraction == 1.0 && at.cds_m2 == at.cds_full_m2);
+    assert_int_equal(plumb_fall_opened_devices(&s, &x), 1u);
+    x.time_s = nextafter(x.time_s, 0.0);
+    assert_int_equal(plumb_fall_device_at_impact(&s, &x, 0, NULL), PLUMB_DEVICE_FILLING);
+    x.fill_time_s[0] = 0.0;
+    assert_int_equal(plumb_fall_device_at_impact(&s, &x, 0, NULL), PLUMB_DEVICE_OPEN);
+    assert_int_equal(plumb_fall_device_at_impact(&s, &x, 1, &at), PLUMB_DEVICE_NOT_DEPLOYED);
+    assert_true(at.cds_m2 == 0.0 && at.fill_fraction == 0.0);
+    x.deployed[0] = 0;
+    assert_int_equal(plumb_fall_device_at_impact(&s, &x, 0, NULL), PLUMB_DEVICE_NOT_DEPLOYED);
+
+    /* a main that replaces a drogue: the drogue is replaced once the main
+     * reaches line stretch, and counts as open only with the main open */
+    plumb_fall_spec two = s;
+    two.n_descent = 2;
+    two.descent[1] = s.descent[0];
+    two.descent[1].disreefs_previous = 1;
+    plumb_fall_result y;
+    memset(&y, 0, sizeof y);
+    y.deployed[0] = y.deployed[1] = 1;
+    y.deploy_time_s[0] = 1.1;
+    y.fill_time_s[0] = 0.2;
+    y.deploy_time_s[1] = 1.4;
+    y.fill_time_s[1] = 0.5;
+    y.time_s = 1.7; /* the main 60 % filled */
+    assert_int_equal(plumb_fall_device_at_impact(&two, &y, 0, &at), PLUMB_DEVICE_REPLACED);
+    assert_true(at.fill_fraction == 1.0 && at.cds_m2 == 0.0);
+    assert_int_equal(plumb_fall_device_at_impact(&two, &y, 1, &at), PLUMB_DEVICE_FILLING);
+    assert_rel(at.fill_fraction, 0.3 / 0.5, 1e-12);
+    assert_int_equal(plumb_fall_opened_devices(&two, &y), 0u);
+    y.time_s = 2.3;
+    assert_int_equal(plumb_fall_opened_devices(&two, &y), 3u);
+    y.deployed[1] = 0; /* the main never opens: the drogue is open */
+    assert_int_equal(plumb_fall_device_at_impact(&two, &y, 0, NULL), PLUMB_DEVICE_OPEN);
+    assert_int_equal(plumb_fall_opened_devices(&two, &y), 1u);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -1064,6 +1150,7 @@ int main(void)
         cmocka_unit_test(test_a_fall_faster_than_its_terminal_speed_is_an_error),
         cmocka_unit_test(test_terminal_speed_is_the_lowest_root_in_the_drag_crisis),
         cmocka_unit_test(test_a_crisis_ball_from_rest_settles_at_the_lowest_root),
+        cmocka_unit_test(test_a_canopy_still_filling_at_impact_is_not_open),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_gsl, NULL);
 }

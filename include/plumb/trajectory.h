@@ -175,11 +175,52 @@ typedef struct plumb_fall_result {
     double peak_load_g;        /* largest drag force / (m g0) */
     double steady_speed_m_s;   /* terminal speed with all devices open, at strike level, m/s;
                                   0 when there is none */
-    double steady_opened_m_s;  /* the same with only the devices this fall opened: equal to
-                                  steady_speed_m_s when all opened, 0 when none did or
-                                  there is none (0.4.0) */
+    double steady_opened_m_s;  /* the same with only the devices this fall opened, that is
+                                  filled before impact (plumb_fall_opened_devices: one
+                                  still filling has not opened): equal to steady_speed_m_s
+                                  when all opened, 0 when none did or there is none
+                                  (0.4.0) */
     plumb_solver_stats solver; /* cost of the integration */
 } plumb_fall_result;
+
+/* A descent device's state at the instant of impact, one concept for every
+ * report (fall, sweep, limit, zone, sheet): it never reached line stretch;
+ * it reached line stretch but the impact came before the end of its fill
+ * time, so its canopy was still filling; it had filled; or a later device
+ * that replaces it (disreefs_previous: a main after a drogue) reached line
+ * stretch, so it was gone at impact. */
+typedef enum plumb_device_state {
+    PLUMB_DEVICE_NOT_DEPLOYED = 0, /* no line stretch before impact */
+    PLUMB_DEVICE_FILLING,          /* line stretch, impact before t_ls + t_f */
+    PLUMB_DEVICE_OPEN,             /* filled before impact (or no fill time) */
+    PLUMB_DEVICE_REPLACED          /* released at the line stretch of the next device */
+} plumb_device_state;
+
+typedef struct plumb_device_at_impact {
+    plumb_device_state state;
+    double fill_fraction;      /* (t_impact - t_ls) / t_f while filling, in [0, 1);
+                                  1 when open; when replaced, the same at the next
+                                  device's line stretch, at most 1; 0 when not deployed */
+    double cds_m2;             /* the canopy's drag area CdS at impact, m^2: the full one
+                                  times plumb_inflation_fraction(fill_fraction, j); 0 when
+                                  not deployed or replaced */
+    double cds_full_m2;        /* the full canopy's cd x area, m^2 */
+} plumb_device_at_impact;
+
+/* The state of descent[i] at the impact of the fall res of spec (by its
+ * line-stretch time, fill time and impact time: open when
+ * t_impact >= t_ls + t_f). out may be NULL. Returns the state; an index
+ * past spec->n_descent is PLUMB_DEVICE_NOT_DEPLOYED with zero figures.
+ * Can't fail. */
+plumb_device_state plumb_fall_device_at_impact(const plumb_fall_spec *spec,
+                                               const plumb_fall_result *res, size_t i,
+                                               plumb_device_at_impact *out);
+
+/* The devices of res that count in its steady_opened_m_s, bit i for
+ * descent[i]: those open at impact (PLUMB_DEVICE_OPEN), and one replaced
+ * by a device that is (as the all-open figure counts it; the terminal
+ * speed then takes the later one). Can't fail. */
+unsigned plumb_fall_opened_devices(const plumb_fall_spec *spec, const plumb_fall_result *res);
 
 /* One recorded point of the path. */
 typedef struct plumb_path_point {

@@ -159,6 +159,45 @@ static const char *w20_source(const plumb_turbulence_spec *tb)
     return "as wind.turbulence.w20 gives it";
 }
 
+/* A device not open at impact (plumb_fall_device_at_impact): one that never
+ * reached line stretch, or one whose canopy was still filling, with how far
+ * along its fill time and drag area it was, since the impact figures are
+ * then those of a part-filled canopy and its steady descent and Pflanz's
+ * opening force (a full fill's) were never reached. */
+static void warn_device_at_impact(plumb_item_report *item, size_t i)
+{
+    const plumb_fall_spec *s = item->spec;
+    const plumb_fall_result *r = &item->result;
+    const char *kind = plumb_descent_kind_name(s->descent[i].kind);
+    plumb_device_at_impact at;
+    switch (plumb_fall_device_at_impact(s, r, i, &at)) {
+    case PLUMB_DEVICE_NOT_DEPLOYED:
+        add_warning(item,
+                    "The %s (descent[%zu]) does not open before impact: the figures are "
+                    "those of a fall without it.", kind, i);
+        break;
+    case PLUMB_DEVICE_FILLING: {
+        double pct_area = at.cds_full_m2 > 0.0 ? 100.0 * at.cds_m2 / at.cds_full_m2 : 0.0;
+        int pflanz = s->descent[i].opening_factor > 0.0 && r->pflanz_force_n[i] > 0.0;
+        add_warning(item,
+                    "The %s (descent[%zu]) was still filling at impact: line stretch at %.4f s, "
+                    "impact at %.4f s, %.4f s into its %.4f s fill time (%.1f %%); its drag area "
+                    "was " PLUMBP_Q_AREA " of the full " PLUMBP_Q_AREA " (%.2g %%). The impact "
+                    "figures are this part-filled fall's; its steady descent was not reached%s.",
+                    kind, i, r->deploy_time_s[i], r->time_s, r->time_s - r->deploy_time_s[i],
+                    r->fill_time_s[i], 100.0 * at.fill_fraction, at.cds_m2, at.cds_full_m2,
+                    pct_area,
+                    pflanz ? ", and Pflanz's opening force is that of a full fill, which this "
+                             "fall did not make"
+                           : "");
+        break;
+    }
+    case PLUMB_DEVICE_OPEN:
+    case PLUMB_DEVICE_REPLACED: /* the next device's state says what held at impact */
+        break;
+    }
+}
+
 plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *profile,
                               const plumb_criteria *criteria, const plumb_atmosphere *atm,
                               plumb_diag *diag)
@@ -215,11 +254,7 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     "The shape's aspect ratio lies outside the handbook table its drag "
                     "coefficient comes from; the table's end value is used.");
     for (size_t i = 0; i < item->spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
-        if (!r->deployed[i])
-            add_warning(item,
-                    "The %s (descent[%zu]) does not open before impact: the figures are "
-                    "those of a fall without it.",
-                    plumb_descent_kind_name(item->spec->descent[i].kind), i);
+        warn_device_at_impact(item, i);
     const plumb_glide_spec *gl = &item->spec->glide;
     char why[96] = "as the profile says";
     if (gl->from_shape)

@@ -479,13 +479,12 @@ static plumb_status finish(runner *r, const plumb_atmosphere *atm)
                                                    r->w->min, &vs) != PLUMB_OK)
         vs = 0.0;
     res->steady_speed_m_s = vs;
-    /* with only the devices this fall opened (some did not) */
-    unsigned opened = 0;
+    /* with only the devices this fall opened (plumb_fall_opened_devices) */
+    unsigned opened = plumb_fall_opened_devices(s, res), all = 0;
     for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++)
-        if (res->deployed[i])
-            opened |= 1u << i;
+        all |= 1u << i;
     double vo = 0.0;
-    if (res->n_deployed >= s->n_descent)
+    if (opened == all)
         vo = vs;
     else if (opened && plumbp_traj_terminal_speed(s, atm, 0.0, opened, r->w->root, r->w->min,
                                                   &vo) != PLUMB_OK)
@@ -744,4 +743,54 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
             restart(&r);
         }
     }
+}
+
+plumb_device_state plumb_fall_device_at_impact(const plumb_fall_spec *spec,
+                                               const plumb_fall_result *res, size_t i,
+                                               plumb_device_at_impact *out)
+{
+    plumb_device_at_impact c = {PLUMB_DEVICE_NOT_DEPLOYED, 0.0, 0.0, 0.0};
+    size_t nd = spec && spec->n_descent < PLUMB_MAX_DESCENT ? spec->n_descent : PLUMB_MAX_DESCENT;
+    if (spec && res && i < nd) {
+        const plumb_descent_spec *d = &spec->descent[i];
+        c.cds_full_m2 = d->cd * d->area_m2;
+        if (!res->deployed[i]) {
+            /* not deployed: the zero figures above */
+        } else if (i + 1 < nd && spec->descent[i + 1].disreefs_previous && res->deployed[i + 1]) {
+            /* released at the next device's line stretch (trajectory_rhs.c) */
+            double tf = res->fill_time_s[i];
+            double since = res->deploy_time_s[i + 1] - res->deploy_time_s[i];
+            c.state = PLUMB_DEVICE_REPLACED;
+            c.fill_fraction = tf > 0.0 && since < tf ? (since > 0.0 ? since / tf : 0.0) : 1.0;
+        } else {
+            /* the integrator stops at t_ls + t_f as an event computed the
+             * same way, so an impact after the fill compares >= exactly */
+            double tf = res->fill_time_s[i], since = res->time_s - res->deploy_time_s[i];
+            if (tf > 0.0 && since < tf) {
+                c.state = PLUMB_DEVICE_FILLING;
+                c.fill_fraction = since > 0.0 ? since / tf : 0.0;
+                double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
+                c.cds_m2 = c.cds_full_m2 * plumb_inflation_fraction(c.fill_fraction, j);
+            } else {
+                c.state = PLUMB_DEVICE_OPEN;
+                c.fill_fraction = 1.0;
+                c.cds_m2 = c.cds_full_m2;
+            }
+        }
+    }
+    if (out)
+        *out = c;
+    return c.state;
+}
+
+unsigned plumb_fall_opened_devices(const plumb_fall_spec *spec, const plumb_fall_result *res)
+{
+    unsigned opened = 0;
+    size_t nd = spec->n_descent < PLUMB_MAX_DESCENT ? spec->n_descent : PLUMB_MAX_DESCENT;
+    for (size_t i = nd; i-- > 0;) {
+        plumb_device_state st = plumb_fall_device_at_impact(spec, res, i, NULL);
+        if (st == PLUMB_DEVICE_OPEN || (st == PLUMB_DEVICE_REPLACED && (opened & (2u << i))))
+            opened |= 1u << i;
+    }
+    return opened;
 }

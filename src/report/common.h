@@ -66,13 +66,16 @@ void plumbp_descent_rule(writer *w, writer *o, const plumb_descent_spec *d, char
                          size_t size);
 int plumbp_descent_inflation(writer *w, const plumb_descent_spec *d, char *buf, size_t size);
 /* A fall's figures of device i: line stretch (or "does not open before
- * impact"); fill time and Pflanz's opening force (deployed devices only;
- * weight_n = m g0); the peak drag force with its load in g; the steady
- * descent, worded by which devices opened ("does not apply (the
- * parachute does not open before impact)"). */
-void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_result *r, size_t i, char *buf,
-                            size_t size);
-void plumbp_descent_pflanz(writer *w, writer *o, const plumb_descent_spec *d,
+ * impact"), and how far its canopy had filled when one was still filling
+ * at impact (plumb_fall_device_at_impact); fill time and Pflanz's opening
+ * force (deployed devices only; weight_n = m g0), said to be a full
+ * fill's when the canopy was still filling; the peak drag force with its
+ * load in g; the steady descent, worded by which devices opened ("does
+ * not apply (the parachute does not open before impact)", "not reached
+ * (the parachute is still filling at impact); ..."). */
+void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_spec *s,
+                            const plumb_fall_result *r, size_t i, char *buf, size_t size);
+void plumbp_descent_pflanz(writer *w, writer *o, const plumb_fall_spec *s,
                            const plumb_fall_result *r, size_t i, double weight_n, char *buf,
                            size_t size);
 void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char *buf, size_t size);

@@ -107,40 +107,58 @@ static const char *force_g(writer *w, writer *o, double n, double g)
     return b;
 }
 
-void plumbp_descent_pflanz(writer *w, writer *o, const plumb_descent_spec *d,
+void plumbp_descent_pflanz(writer *w, writer *o, const plumb_fall_spec *s,
                            const plumb_fall_result *r, size_t i, double weight_n, char *buf,
                            size_t size)
 {
+    const plumb_descent_spec *d = &s->descent[i];
+    /* a canopy still filling at impact never felt the full opening */
+    const char *unfilled = plumb_fall_device_at_impact(s, r, i, NULL) == PLUMB_DEVICE_FILLING
+                               ? ", for a full fill, which this fall did not reach"
+                               : "";
     if (!(r->fill_time_s[i] > 0.0))
         snprintf(buf, size, "opens at once: no fill, so no Pflanz estimate");
     else if (d->opening_factor > 0.0)
         snprintf(buf, size,
                  "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
-                 "X1 %s, C_x %s: opening force %s",
+                 "X1 %s, C_x %s: opening force %s%s",
                  num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
                  num(w, r->pflanz_x1[i], 3), num(w, d->opening_factor, 3),
-                 force_g(w, o, r->pflanz_force_n[i], r->pflanz_force_n[i] / weight_n));
+                 force_g(w, o, r->pflanz_force_n[i], r->pflanz_force_n[i] / weight_n), unfilled);
     else
         snprintf(buf, size,
                  "fill time %s" NBSP "s; Pflanz's hand estimate (weightless, horizontal): A %s, "
-                 "X1 %s: X1 q1 CdS0 %s, times C_x (not known: give canopy or opening_factor)",
+                 "X1 %s: X1 q1 CdS0 %s, times C_x (not known: give canopy or "
+                 "opening_factor)%s",
                  num(w, r->fill_time_s[i], TEXT_SIG), num(w, r->pflanz_a[i], 3),
                  num(w, r->pflanz_x1[i], 3),
-                 plumbp_t_beside(w, o, plumbp_t_force, r->pflanz_x1[i] * r->pflanz_q1s_n[i]));
+                 plumbp_t_beside(w, o, plumbp_t_force, r->pflanz_x1[i] * r->pflanz_q1s_n[i]),
+                 unfilled);
 }
 
-void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_result *r, size_t i, char *buf,
-                            size_t size)
+void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_spec *s,
+                            const plumb_fall_result *r, size_t i, char *buf, size_t size)
 {
-    if (r->deployed[i])
-        snprintf(buf, size,
-                 "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
-                 "air speed",
-                 num(w, r->deploy_time_s[i], TEXT_SIG),
-                 plumbp_t_beside(w, o, plumbp_t_len, r->deploy_height_m[i]),
-                 plumbp_t_beside(w, o, plumbp_t_speed, r->deploy_speed_m_s[i]));
-    else
+    plumb_device_at_impact at;
+    plumb_device_state st = plumb_fall_device_at_impact(s, r, i, &at);
+    if (st == PLUMB_DEVICE_NOT_DEPLOYED) {
         snprintf(buf, size, "does not open before impact");
+        return;
+    }
+    int len = snprintf(buf, size,
+                       "line stretch %s" NBSP "s after release, %s above the strike level, at %s "
+                       "air speed",
+                       num(w, r->deploy_time_s[i], TEXT_SIG),
+                       plumbp_t_beside(w, o, plumbp_t_len, r->deploy_height_m[i]),
+                       plumbp_t_beside(w, o, plumbp_t_speed, r->deploy_speed_m_s[i]));
+    if (st == PLUMB_DEVICE_FILLING && len >= 0 && (size_t)len < size)
+        snprintf(buf + len, size - (size_t)len,
+                 "; still filling at impact, %s" NBSP "s later: %s" NBSP "%% of its fill time, "
+                 "drag area %s of the full %s",
+                 num(w, r->time_s - r->deploy_time_s[i], TEXT_SIG),
+                 num(w, 100.0 * at.fill_fraction, 3),
+                 plumbp_t_beside(w, o, plumbp_t_area, at.cds_m2),
+                 plumbp_t_beside(w, o, plumbp_t_area, at.cds_full_m2));
 }
 
 void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char *buf, size_t size)
@@ -149,43 +167,87 @@ void plumbp_descent_peak(writer *w, writer *o, const plumb_fall_result *r, char 
              force_g(w, o, r->peak_force_n, r->peak_load_g));
 }
 
-/* "the drogue and the parachute do not open", "the parachute does not
- * open": the devices i0..n of s that never open, by kind; by number when
- * two of them are of one kind. */
+/* The state of each of the n devices of r at impact (plumb/trajectory.h). */
+static void device_states(const plumb_fall_spec *s, const plumb_fall_result *r, size_t n,
+                          plumb_device_state st[PLUMB_MAX_DESCENT])
+{
+    for (size_t i = 0; i < n; i++)
+        st[i] = plumb_fall_device_at_impact(s, r, i, NULL);
+}
+
+/* "the parachute", "the drogue and the parachute": the devices in state
+ * `want`, by kind, then the verb for one or for several; appended at
+ * buf + *len. */
+static void devices_in_state(const plumb_fall_spec *s, const plumb_device_state *st, size_t n,
+                             plumb_device_state want, const char *one, const char *several,
+                             char *buf, size_t size, size_t *len)
+{
+    size_t count = 0, seen = 0;
+    for (size_t i = 0; i < n; i++)
+        count += st[i] == want;
+    for (size_t i = 0; i < n && *len < size; i++) {
+        if (st[i] != want)
+            continue;
+        int w = snprintf(buf + *len, size - *len, "%s%s",
+                         seen == 0 ? "the " : seen + 1 == count ? " and the " : ", the ",
+                         plumb_descent_kind_name(s->descent[i].kind));
+        *len += w > 0 ? (size_t)w : 0;
+        seen++;
+    }
+    if (*len < size) {
+        int w = snprintf(buf + *len, size - *len, " %s", count > 1 ? several : one);
+        *len += w > 0 ? (size_t)w : 0;
+    }
+}
+
+/* "the parachute does not open before impact", "the parachute is still
+ * filling at impact", "the drogue does not open before impact and the
+ * parachute is still filling at impact": the devices of s not open at
+ * impact, by kind and state; counted when two of them are of one kind. */
 static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
                              size_t size)
 {
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
-    size_t closed = 0, last = 0;
+    plumb_device_state st[PLUMB_MAX_DESCENT];
+    device_states(s, r, n, st);
+    size_t closed = 0, filling = 0;
     int same = 0;
     for (size_t i = 0; i < n; i++) {
-        if (r->deployed[i])
-            continue;
-        closed++;
-        last = i;
+        if (st[i] != PLUMB_DEVICE_NOT_DEPLOYED && st[i] != PLUMB_DEVICE_FILLING)
+            continue; /* open, or replaced by the next device */
+        closed += st[i] == PLUMB_DEVICE_NOT_DEPLOYED;
+        filling += st[i] == PLUMB_DEVICE_FILLING;
         for (size_t k = i + 1; k < n; k++)
-            same |= !r->deployed[k] && s->descent[i].kind == s->descent[k].kind;
+            same |= (st[k] == PLUMB_DEVICE_NOT_DEPLOYED || st[k] == PLUMB_DEVICE_FILLING) &&
+                    s->descent[i].kind == s->descent[k].kind;
     }
+    buf[0] = '\0';
     if (same) {
         /* two of a kind: counted, since their names would not tell them apart */
-        if (closed == n)
-            snprintf(buf, size, "none of the %zu devices opens", n);
+        if (closed && filling)
+            snprintf(buf, size, "%zu of the %zu devices %s not open before impact and %zu %s "
+                     "still filling at impact", closed, n, closed > 1 ? "do" : "does", filling,
+                     filling > 1 ? "are" : "is");
+        else if (closed == n)
+            snprintf(buf, size, "none of the %zu devices opens before impact", n);
+        else if (closed)
+            snprintf(buf, size, "%zu of the %zu devices do not open before impact", closed, n);
+        else if (filling == n)
+            snprintf(buf, size, "all %zu devices are still filling at impact", n);
         else
-            snprintf(buf, size, "%zu of the %zu devices do not open", closed, n);
+            snprintf(buf, size, "%zu of the %zu devices %s still filling at impact", filling, n,
+                     filling > 1 ? "are" : "is");
         return;
     }
-    size_t len = (size_t)snprintf(buf, size, "the");
-    size_t seen = 0;
-    for (size_t i = 0; i < n && len < size; i++) {
-        if (r->deployed[i])
-            continue;
-        len += (size_t)snprintf(buf + len, size - len, "%s %s",
-                                seen == 0 ? "" : i == last ? " and the" : ", the",
-                                plumb_descent_kind_name(s->descent[i].kind));
-        seen++;
-    }
-    if (len < size)
-        snprintf(buf + len, size - len, " %s", closed > 1 ? "do not open" : "does not open");
+    size_t len = 0;
+    if (closed)
+        devices_in_state(s, st, n, PLUMB_DEVICE_NOT_DEPLOYED, "does not open before impact",
+                         "do not open before impact", buf, size, &len);
+    if (closed && filling && len < size)
+        len += (size_t)snprintf(buf + len, size - len, " and ");
+    if (filling)
+        devices_in_state(s, st, n, PLUMB_DEVICE_FILLING, "is still filling at impact",
+                         "are still filling at impact", buf, size, &len);
 }
 
 /* The bits of descent[0 .. n). */
@@ -227,25 +289,33 @@ static void devices_counted(const plumb_fall_spec *s, unsigned mask, counted *c)
         snprintf(c->note, sizeof c->note, " (it replaces the %s)", replaced);
 }
 
-/* The steady descent speed, worded by what this fall deployed: a device
- * that never opens gives none, so with no device open the figure does not
- * apply; with some open, the speed with those (JSON
- * steady_speed_opened_m_s) and then with every one (steady_speed_m_s). */
+/* The steady descent speed, worded by what this fall opened: a device
+ * that never opens, or whose canopy is still filling at impact
+ * (plumb_fall_device_at_impact), gives none in this fall, so with no
+ * device open the figure does not apply, or is not reached while one is
+ * still filling (the speed with every device fully open follows); with
+ * some open, the speed with those (JSON steady_speed_opened_m_s) and then
+ * with every one (steady_speed_m_s). */
 void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
                            const plumb_fall_result *r, char *line, size_t size)
 {
     size_t n = s->n_descent < PLUMB_MAX_DESCENT ? s->n_descent : PLUMB_MAX_DESCENT;
-    char closed[NUMBUF * 2];
+    char closed[NUMBUF * 4];
     counted all, opened;
-    unsigned open_mask = 0;
+    unsigned open_mask = plumb_fall_opened_devices(s, r);
+    int filling = 0;
     for (size_t i = 0; i < n; i++)
-        if (r->deployed[i])
-            open_mask |= 1u << i;
+        filling |= plumb_fall_device_at_impact(s, r, i, NULL) == PLUMB_DEVICE_FILLING;
     devices_counted(s, PLUMBP_ALL_MASK(n), &all);
-    if (r->n_deployed == 0) {
+    if (open_mask == 0) {
         devices_not_open(s, r, closed, sizeof closed);
-        snprintf(line, size, "does not apply (%s before impact)", closed);
-    } else if (r->n_deployed >= n) {
+        if (filling && r->steady_speed_m_s > 0.0)
+            snprintf(line, size, "not reached (%s); %s with %s fully open%s, at the strike "
+                     "level", closed, plumbp_t_beside(w, o, plumbp_t_speed, r->steady_speed_m_s),
+                     all.names, all.note);
+        else
+            snprintf(line, size, "does not apply (%s)", closed);
+    } else if (open_mask == PLUMBP_ALL_MASK(n)) {
         if (r->steady_speed_m_s > 0.0)
             snprintf(line, size, "%s with %s open%s, at the strike level",
                      plumbp_t_beside(w, o, plumbp_t_speed, r->steady_speed_m_s), all.names,
@@ -266,15 +336,14 @@ void plumbp_descent_steady(writer *w, writer *o, const plumb_fall_spec *s,
             snprintf(with_opened, sizeof with_opened, "none up to %s with %s open",
                      plumbp_t_beside(w, o, plumbp_t_speed, PLUMB_TERMINAL_MAX_M_S), opened.names);
         if (strcmp(opened.names, all.names) == 0) /* the same devices count: one figure */
-            snprintf(line, size, "%s (%s before impact), at the strike level", with_opened,
-                     closed);
+            snprintf(line, size, "%s (%s), at the strike level", with_opened, closed);
         else if (r->steady_speed_m_s > 0.0)
-            snprintf(line, size, "%s (%s before impact); %s with %s open%s; at the strike level",
+            snprintf(line, size, "%s (%s); %s with %s open%s; at the strike level",
                      with_opened, closed,
                      plumbp_t_beside(w, o, plumbp_t_speed, r->steady_speed_m_s), all.names,
                      all.note);
         else
-            snprintf(line, size, "%s (%s before impact); none up to %s even with %s open%s",
+            snprintf(line, size, "%s (%s); none up to %s even with %s open%s",
                      with_opened, closed,
                      plumbp_t_beside(w, o, plumbp_t_speed, PLUMB_TERMINAL_MAX_M_S), all.names,
                      all.note);
@@ -297,10 +366,10 @@ void plumbp_text_descent(writer *w, const plumb_item_report *it, const char *who
         snprintf(line, sizeof line, "%s; %s", size, rule);
         wrapped(w, lead, line);
         text_inflation(w, d);
-        plumbp_descent_opening(w, NULL, r, i, line, sizeof line);
+        plumbp_descent_opening(w, NULL, s, r, i, line, sizeof line);
         wrapped(w, "                   ", line);
         if (r->deployed[i]) {
-            plumbp_descent_pflanz(w, NULL, d, r, i, s->mass_kg * PLUMB_G0_M_S2, line, sizeof line);
+            plumbp_descent_pflanz(w, NULL, s, r, i, s->mass_kg * PLUMB_G0_M_S2, line, sizeof line);
             wrapped(w, "                   ", line);
         }
     }

@@ -111,6 +111,18 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
                                                       : "linear fill: no canopy type or exponent given"));
         jset(j, dv, "inflation", inf);
         jset(j, dv, "deployed", json_boolean(r->deployed[i]));
+        /* its state at impact: a canopy still filling is not open */
+        plumb_device_at_impact at;
+        plumb_device_state st = plumb_fall_device_at_impact(s, r, i, &at);
+        json_t *ai = jobj(j);
+        jset(j, ai, "state", jstr(j, st == PLUMB_DEVICE_OPEN       ? "open"
+                                     : st == PLUMB_DEVICE_FILLING  ? "filling"
+                                     : st == PLUMB_DEVICE_REPLACED ? "replaced"
+                                                                   : "not_deployed"));
+        jset(j, ai, "fill_fraction", jreal(j, at.fill_fraction));
+        jset(j, ai, "drag_area_m2", jreal(j, at.cds_m2));
+        jset(j, ai, "drag_area_full_m2", jreal(j, at.cds_full_m2));
+        jset(j, dv, "at_impact", ai);
         if (r->deployed[i]) {
             json_t *ls = jobj(j);
             jset(j, ls, "time_s", jreal(j, r->deploy_time_s[i]));
@@ -131,6 +143,9 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
                      d->opening_factor > 0.0
                          ? jreal(j, r->pflanz_force_n[i] / (s->mass_kg * PLUMB_G0_M_S2))
                          : json_null());
+                /* the estimate is a full fill's: false when the canopy was still
+                 * filling at impact, so the force shown was never felt */
+                jset(j, pf, "full_fill_reached", json_boolean(at.fill_fraction >= 1.0));
                 jset(j, dv, "pflanz", pf);
             } else {
                 jset(j, dv, "pflanz", json_null());
@@ -146,7 +161,8 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
     /* null when there is none, as terminal_speed_m_s */
     jset(j, o, "steady_speed_m_s",
          r->steady_speed_m_s > 0.0 ? jreal(j, r->steady_speed_m_s) : json_null());
-    /* with only the devices this fall opened: null when none opened */
+    /* with only the devices this fall opened (filled before impact,
+     * plumb_fall_opened_devices): null when none opened */
     jset(j, o, "steady_speed_opened_m_s",
          r->steady_opened_m_s > 0.0 ? jreal(j, r->steady_opened_m_s) : json_null());
     return o;

@@ -78,17 +78,19 @@ static void item_figures(sheet_doc *d, const plumb_brief *b, size_t k, const cha
     for (size_t i = 0; i < s->n_descent && i < PLUMB_MAX_DESCENT; i++) {
         char key[DEVICE_KEY], open[NUMBUF * 8], pflanz[NUMBUF * 8] = "";
         device_key(b->profile, k, i, key, sizeof key);
-        plumbp_descent_opening(P, S, r, i, open, sizeof open);
+        plumbp_descent_opening(P, S, s, r, i, open, sizeof open);
         if (r->deployed[i])
-            plumbp_descent_pflanz(P, S, &s->descent[i], r, i, s->mass_kg * PLUMB_G0_M_S2, pflanz,
+            plumbp_descent_pflanz(P, S, s, r, i, s->mass_kg * PLUMB_G0_M_S2, pflanz,
                                   sizeof pflanz);
-        /* a device that does not open says so in bold: the fall above is
-         * without it */
+        /* a device not open at impact says so in bold: the fall above is
+         * without it, or with its canopy part-filled */
+        plumb_device_state st = plumb_fall_device_at_impact(s, r, i, NULL);
+        int is_open = st == PLUMB_DEVICE_OPEN || st == PLUMB_DEVICE_REPLACED;
         para_in(d, indent, font,
                 sheet_fmt(d, "\x02<b>%s</b>, %s: %s%s%s%s%s.", sheet_esc(d, key),
                           plumb_descent_kind_name(s->descent[i].kind),
-                          r->deployed[i] ? "opens; " : "<b>",
-                          sheet_fmt(d, "%s", open), r->deployed[i] ? "" : "</b>",
+                          is_open ? "opens; " : "<b>",
+                          sheet_fmt(d, "%s", open), is_open ? "" : "</b>",
                           pflanz[0] ? "; " : "", sheet_fmt(d, "%s", pflanz)));
     }
     char line[NUMBUF * 5];

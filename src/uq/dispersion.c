@@ -79,6 +79,7 @@ typedef struct rec {
     double height_m;         /* the release height drawn, m */
     int attitude;            /* index of the attitude drawn, or -1 */
     unsigned closed;         /* bit i: descent[i] did not open before impact */
+    unsigned filling;        /* bit i: descent[i] was still filling at impact */
 } rec;
 
 /* What the pilot keeps: the four histogrammed values. */
@@ -117,6 +118,7 @@ typedef struct acc {
     size_t exceed[PLUMB_ZONE_MAX_CRITERIA];
     size_t redraws[PLUMB_ZONE_MAX_INPUTS];
     size_t closed[PLUMB_MAX_DESCENT]; /* samples in which descent[i] did not open */
+    size_t filling[PLUMB_MAX_DESCENT];/* ... in which it was still filling at impact */
     size_t steps, evals;
     sketch sk[PV_N];
     sketch skc;              /* distance from the landing centre, samples >= train */
@@ -236,10 +238,14 @@ static void compute_block(worker *w, slot *sl)
         r->throw_m = ballistic_throw(&spec);
         r->height_m = spec.release_m[2];
         r->attitude = w->sampler->choice >= 0 ? (int)vals[w->sampler->choice] : -1;
-        r->closed = 0;
+        r->closed = r->filling = 0;
         for (size_t dv = 0; dv < spec.n_descent && dv < PLUMB_MAX_DESCENT; dv++)
-            if (!res.deployed[dv])
-                r->closed |= 1u << dv;
+            switch (plumb_fall_device_at_impact(&spec, &res, dv, NULL)) {
+            case PLUMB_DEVICE_NOT_DEPLOYED: r->closed |= 1u << dv; break;
+            case PLUMB_DEVICE_FILLING: r->filling |= 1u << dv; break;
+            case PLUMB_DEVICE_OPEN:
+            case PLUMB_DEVICE_REPLACED: break;
+            }
         sl->steps += res.solver.steps;
         sl->evals += res.solver.rhs_evaluations;
         sl->n_ok = k + 1;
@@ -321,9 +327,12 @@ static void merge_slot(pass *ps, slot *sl)
             if (rad > a->att_r[ak])
                 a->att_r[ak] = rad;
         }
-        for (size_t d = 0; d < PLUMB_MAX_DESCENT; d++)
+        for (size_t d = 0; d < PLUMB_MAX_DESCENT; d++) {
             if (r->closed & (1u << d))
                 a->closed[d]++;
+            if (r->filling & (1u << d))
+                a->filling[d]++;
+        }
         for (size_t c = 0; c < ps->n_crit; c++) {
             plumb_verdict verdict;
             plumb_criterion_judge(ps->crit[c], r->energy_j, &verdict);
@@ -521,18 +530,33 @@ void plumb_zone_add_warning(plumb_zone_result *res, const char *fmt, ...)
     va_end(ap);
 }
 
-/* Warns of each descent device that did not open before impact in some
+/* "3.5 %": a share of n that never reads as 0 % or 100 % when it is
+ * neither. */
+static void share_of(size_t k, size_t n, char *buf, size_t size)
+{
+    double pct = 100.0 * (double)k / (double)n;
+    if (pct < 0.1)
+        snprintf(buf, size, "under 0.1 %%");
+    else if (pct > 99.9)
+        snprintf(buf, size, "over 99.9 %%");
+    else
+        snprintf(buf, size, "%.1f %%", pct);
+}
+
+/* Warns of each descent device that was not fully open at impact in some
  * samples of pass 0 (the second pass, released elsewhere on the same
- * heights and times, opens the same devices): the figures then mix falls
- * with and without it. The count is an integer sum, so it is the same for
- * any thread count. */
+ * heights and times, opens the same devices): those that never opened
+ * and those still filling (plumb_fall_device_at_impact), counted apart
+ * and together, since the figures then mix falls under the open canopy
+ * with falls without it or under a part-filled one. The counts are
+ * integer sums, so they are the same for any thread count. */
 static void warn_closed(plumb_zone_result *res, const plumb_fall_spec *base, const acc *a)
 {
     size_t n = a->n;
     for (size_t d = 0; d < base->n_descent && d < PLUMB_MAX_DESCENT; d++) {
-        size_t k = a->closed[d];
+        size_t k = a->closed[d], f = a->filling[d];
         const char *kind = plumb_descent_kind_name(base->descent[d].kind);
-        if (k == 0)
+        if (k + f == 0)
             continue;
         if (k == n) {
             plumb_zone_add_warning(res, "The %s (descent[%zu]) did not open before impact in "
@@ -540,18 +564,21 @@ static void warn_closed(plumb_zone_result *res, const plumb_fall_spec *base, con
                                    "without it.", kind, d, n);
             continue;
         }
-        /* a share that never reads as 0 % or 100 % when it is neither */
-        double pct = 100.0 * (double)k / (double)n;
-        char share[32];
-        if (pct < 0.1)
-            snprintf(share, sizeof share, "under 0.1 %%");
-        else if (pct > 99.9)
-            snprintf(share, sizeof share, "over 99.9 %%");
-        else
-            snprintf(share, sizeof share, "%.1f %%", pct);
-        plumb_zone_add_warning(res, "The %s (descent[%zu]) did not open before impact in %zu "
-                               "of %zu samples (%s): those land at the speed of a fall "
-                               "without it.", kind, d, k, n, share);
+        char share[32], share_k[32], share_f[32];
+        share_of(k, n, share_k, sizeof share_k);
+        if (f == 0) {
+            plumb_zone_add_warning(res, "The %s (descent[%zu]) did not open before impact in "
+                                   "%zu of %zu samples (%s): those land at the speed of a fall "
+                                   "without it.", kind, d, k, n, share_k);
+            continue;
+        }
+        share_of(k + f, n, share, sizeof share);
+        share_of(f, n, share_f, sizeof share_f);
+        plumb_zone_add_warning(res, "The %s (descent[%zu]) was not fully open at impact in %zu "
+                               "of %zu samples (%s): in %zu (%s) it did not open before impact, "
+                               "in %zu (%s) it was still filling. Those land faster than under "
+                               "the open %s: without it, or under a part-filled canopy.",
+                               kind, d, k + f, n, share, k, share_k, f, share_f, kind);
     }
 }
 
@@ -606,6 +633,7 @@ static plumb_status do_pass(run *rn, pass *ps, plumb_diag *diag)
     memset(a->exceed, 0, sizeof a->exceed);
     memset(a->redraws, 0, sizeof a->redraws);
     memset(a->closed, 0, sizeof a->closed);
+    memset(a->filling, 0, sizeof a->filling);
     memset(a->att_n, 0, sizeof a->att_n);
     memset(a->att_e, 0, sizeof a->att_e);
     memset(a->att_r, 0, sizeof a->att_r);

@@ -173,13 +173,19 @@ uncertainty:
           f"late chute: plumb fall warns it does not open: {ws}")
     every = ("The parachute (descent[0]) did not open before impact in any of the 400 samples: "
              "every figure is that of a fall without it.")
+    # with the deploy time uncertain over the fall time (about 2.6 s), some
+    # samples never open it and some are still filling (0.8 s) at impact:
+    # one warning gives both counts (checked by logic in test_dispersion.c)
     some = ("--set", "uncertainty.descent.deploy.after={uniform: [1.3 s, 4.7 s]}")
-    for args, want in (((), every), (some, " of 400 samples (")):
+    part = (" of 400 samples (", "parachute (descent[0]) was not fully open at impact in ",
+            ") it did not open before impact, in ", ") it was still filling.")
+    for args, want in (((), (every, "parachute (descent[0]) did not open")), (some, part)):
         run = ("zone", late, "--samples", "400", "--threads", "2") + args
         rc, out, err = plumb(*run, "--format", "json")
         zw = json.loads(out)["zone"]["warnings"] if rc == 0 else []
-        check(rc == 0 and any(want in w and "parachute (descent[0]) did not open" in w
-                              for w in zw), f"late chute {args}: JSON warning {want!r}: {zw}")
+        check(rc == 0 and any(all(p in w for p in want) for w in zw),
+              f"late chute {args}: JSON warning {want!r}: {zw}")
+        want = want[0]
         for units in ("si", "us"):
             rc, out, err = plumb(*run, "--format", "csv", "--units", units)
             warn = [l for l in out.splitlines() if "did not open before impact" in l]
