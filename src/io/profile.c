@@ -228,6 +228,41 @@ plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node
     return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
+/* Most errors of a profile looked through for the first in file order. */
+enum { FIRST_ERROR_LOOK = 64 };
+
+/* After a load of the text buf failed with an input error in the file
+ * itself (st, *diag), the error reported is the first of the file in file
+ * order, the one `plumb lint` lists first (profile_lint.c), rather than
+ * the first the loader met: it reads the release, the air and the wind
+ * before the payload, so a wind speed at line 8 would hide a mass at line
+ * 3. An error of a --set, or not the user's, is kept: the check stops
+ * there. When the errors cannot be listed (out of memory), the loader's
+ * own error stands, which is an error of the file too. */
+static plumb_status first_in_file(const char *name, const char *buf, size_t len,
+                                  const plumb_units *units, const char *const *sets,
+                                  size_t n_sets, plumb_status st, plumb_diag *diag)
+{
+    if (!diag || !plumb_status_is_input_error(st) || diag->line <= 0 ||
+        strcmp(diag->file, PLUMB_DIAG_SET_FILE) == 0)
+        return st;
+    plumb_diag *errs = calloc(FIRST_ERROR_LOOK, sizeof *errs);
+    if (!errs)
+        return st;
+    size_t n = 0;
+    (void)plumb_profile_lint_buffer(name, buf, len, units, sets, n_sets, errs, FIRST_ERROR_LOOK,
+                                    &n, NULL);
+    /* errs is in file order: the first of the same file, if earlier */
+    const plumb_diag *e = n > 0 ? &errs[0] : NULL;
+    if (e && plumb_status_is_input_error(e->status) && strcmp(e->file, diag->file) == 0 &&
+        e->line > 0 && (e->line < diag->line || (e->line == diag->line && e->col < diag->col))) {
+        *diag = *e;
+        st = e->status;
+    }
+    free(errs);
+    return st;
+}
+
 plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets, plumb_profile **out,
                                 plumb_diag *diag)
@@ -245,10 +280,12 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     plumbp_sha256_hex(buf, len, sha);
     plumby_node *tree;
     st = plumby_parse(buf, len, path, PLUMBY_FROM_FILE, 0, NULL, &tree, diag);
-    free(buf);
+    if (st == PLUMB_OK)
+        st = build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
     if (st != PLUMB_OK)
-        return st;
-    return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
+        st = first_in_file(path, buf, len, units, sets, n_sets, st, diag);
+    free(buf);
+    return st;
 }
 
 plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
@@ -326,7 +363,8 @@ plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t
                                    diag);
     if (st != PLUMB_OK)
         return st;
-    return build(name, sha, tree, NULL, units, sets, n_sets, out, diag);
+    st = build(name, sha, tree, NULL, units, sets, n_sets, out, diag);
+    return st == PLUMB_OK ? st : first_in_file(name, buf, len, units, sets, n_sets, st, diag);
 }
 
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,

@@ -20,6 +20,9 @@
 #include "io/units_int.h"
 #include "io/yamltree.h"
 
+/* 0 degC in kelvin, exactly (BIPM SI Brochure, 9th ed., 2019, 2.3.1). */
+#define CELSIUS_ZERO_K 273.15
+
 /* ---- schema ------------------------------------------------------------ */
 
 plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line, int col,
@@ -354,9 +357,13 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
                  "standard 15 degC)", PLUMB_TEMP_OFFSET_MAX_K, u, PLUMB_TEMP_OFFSET_MAX_K, u);
         break;
     case PLUMBY_R_AIR_TEMPERATURE:
+        /* the bounds in degC exactly (-123.15 .. 126.85), never rounded
+         * outward: "127 degC" would name a temperature that is refused */
         snprintf(buf, size,
-                 "%g%s .. %g%s (-123 degC .. 127 degC: air on Earth; was the unit meant degC "
-                 "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u);
+                 "%g%s .. %g%s (%g degC .. %g degC: air on Earth; was the unit meant degC "
+                 "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u,
+                 PLUMB_AIR_TEMPERATURE_MIN_K - CELSIUS_ZERO_K,
+                 PLUMB_AIR_TEMPERATURE_MAX_K - CELSIUS_ZERO_K);
         break;
     }
     return buf;
