@@ -588,12 +588,22 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
         *out = bearing; /* angles are read in degrees (units.h) */
         return PLUMB_OK;
     }
-    plumb_status st = plumby_quantity(ctx, node, dim, key, &v);
+    /* what the key accepts, so that no message suggests a value it refuses */
+    char r[160];
+    plumby_range_text(range, dim, r, sizeof r);
+    plumbp_accept acc = {0.0, 0.0, 0, 0, r};
+    plumby_range_bounds(range, &acc.lo, &acc.hi, &acc.lo_open, &acc.hi_open);
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumbp_units_parse_in(ctx->units, node->text, dim,
+                                            range == PLUMBY_R_ANY ? NULL : &acc, &v, &d);
     if (st != PLUMB_OK)
-        return st;
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, st, "%s",
+                            d.message[0] ? d.message : plumb_strerror(st));
+    if (!plumbp_finite(v))
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "expected a finite number, found '%s'", node->text);
     if (!plumby_range_ok(range, v)) {
-        char r[160];
-        plumby_range_text(range, dim, r, sizeof r);
         return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
                             "must be %s, found '%s'", r, node->text);
     }
