@@ -160,6 +160,42 @@ static plumb_status interpret(loader *L)
     return PLUMB_OK;
 }
 
+/* The checks before the profile is interpreted: a --set's own value
+ * first (given_sets), then, of the keys and kinds the schema refuses
+ * (plumby_check, in file order) and the numbers whose unit or range is
+ * wrong (with all_values: a profile derived from a checked one has only
+ * its new --set values to check), the first in file order. The loader
+ * reads the release, air and wind before the payload: without this a
+ * wind speed at line 8 would hide a mass at line 3. Required keys
+ * missing and values refused against another key are found later, in the
+ * loader's order. */
+static plumb_status check(const plumby_ctx *ctx, const plumby_node *tree, int all_values,
+                          int given_sets)
+{
+    const plumby_schema *schema = plumbp_profile_schema();
+    plumb_status st = given_sets ? plumby_check_values(ctx, tree, schema, 1) : PLUMB_OK;
+    if (st != PLUMB_OK)
+        return st;
+    st = plumby_check(ctx, tree, schema, "");
+    if (!all_values || tree->kind != PLUMBY_MAP)
+        return st;
+    plumb_diag dv;
+    plumb_diag_clear(&dv);
+    plumby_ctx c = *ctx;
+    c.diag = &dv;
+    plumb_status sv = plumby_check_values(&c, tree, schema, 0);
+    if (sv == PLUMB_OK)
+        return st;
+    const plumb_diag *ds = ctx->diag;
+    if (st != PLUMB_OK && ds &&
+        (strcmp(ds->file, dv.file) != 0 || ds->line < dv.line ||
+         (ds->line == dv.line && ds->col <= dv.col)))
+        return st; /* the schema's error is first (or a --set's) */
+    if (ctx->diag)
+        *ctx->diag = dv;
+    return sv;
+}
+
 /* Applies sets to tree (owned), checks and interprets it into *out. */
 static plumb_status build(const char *path, const char *sha, plumby_node *tree,
                           const plumb_profile *base, const plumb_units *units,
@@ -233,9 +269,7 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     L.ctx.removed = removed;
     L.ctx.n_removed = n_removed;
     L.p = p;
-    st = n_sets ? plumby_check_set_values(&L.ctx, tree, plumbp_profile_schema()) : PLUMB_OK;
-    if (st == PLUMB_OK)
-        st = plumby_check(&L.ctx, tree, plumbp_profile_schema(), "");
+    st = check(&L.ctx, tree, base == NULL, n_sets > 0);
     if (st == PLUMB_OK) {
         plumby_map_init(&L.root, &L.ctx, tree, plumbp_profile_schema(), "");
         st = interpret(&L);
@@ -256,41 +290,6 @@ plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node
     return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
-/* Most errors of a profile looked through for the first in file order. */
-enum { FIRST_ERROR_LOOK = 64 };
-
-/* After a load of the text buf failed with an input error in the file
- * itself (st, *diag), the error reported is the first of the file in file
- * order, the one `plumb lint` lists first (profile_lint.c), rather than
- * the first the loader met: it reads the release, the air and the wind
- * before the payload, so a wind speed at line 8 would hide a mass at line
- * 3. An error of a --set, or not the user's, is kept: the check stops
- * there. When the errors cannot be listed (out of memory), the loader's
- * own error stands, which is an error of the file too. */
-static plumb_status first_in_file(const char *name, const char *buf, size_t len,
-                                  const plumb_units *units, const char *const *sets,
-                                  size_t n_sets, plumb_status st, plumb_diag *diag)
-{
-    if (!diag || !plumb_status_is_input_error(st) || diag->line <= 0 ||
-        strcmp(diag->file, PLUMB_DIAG_SET_FILE) == 0)
-        return st;
-    plumb_diag *errs = calloc(FIRST_ERROR_LOOK, sizeof *errs);
-    if (!errs)
-        return st;
-    size_t n = 0;
-    (void)plumb_profile_lint_buffer(name, buf, len, units, sets, n_sets, errs, FIRST_ERROR_LOOK,
-                                    &n, NULL);
-    /* errs is in file order: the first of the same file, if earlier */
-    const plumb_diag *e = n > 0 ? &errs[0] : NULL;
-    if (e && plumb_status_is_input_error(e->status) && strcmp(e->file, diag->file) == 0 &&
-        e->line > 0 && (e->line < diag->line || (e->line == diag->line && e->col < diag->col))) {
-        *diag = *e;
-        st = e->status;
-    }
-    free(errs);
-    return st;
-}
-
 plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets, plumb_profile **out,
                                 plumb_diag *diag)
@@ -308,12 +307,10 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     plumbp_sha256_hex(buf, len, sha);
     plumby_node *tree;
     st = plumby_parse(buf, len, path, PLUMBY_FROM_FILE, 0, NULL, &tree, diag);
-    if (st == PLUMB_OK)
-        st = build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
-    if (st != PLUMB_OK)
-        st = first_in_file(path, buf, len, units, sets, n_sets, st, diag);
     free(buf);
-    return st;
+    if (st != PLUMB_OK)
+        return st;
+    return build(path, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
 plumb_status plumb_profile_lint_buffer(const char *name, const char *buf, size_t len,
@@ -391,8 +388,7 @@ plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t
                                    diag);
     if (st != PLUMB_OK)
         return st;
-    st = build(name, sha, tree, NULL, units, sets, n_sets, out, diag);
-    return st == PLUMB_OK ? st : first_in_file(name, buf, len, units, sets, n_sets, st, diag);
+    return build(name, sha, tree, NULL, units, sets, n_sets, out, diag);
 }
 
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,

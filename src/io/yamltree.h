@@ -199,15 +199,17 @@ plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line,
                           const char *key, plumb_status status, const char *fmt, ...)
     PLUMBP_PRINTF(7, 8);
 
-/* Checks every number of the tree that a --set gave (origin
- * PLUMBY_FROM_SET) on its own, its unit and its key's range, before
- * anything else is read: an error in a --set's own value is told first
- * (the earliest --set's), not a consequence elsewhere of what that --set
- * replaced (drag: given by --set over a shape: lacks its cd). Errors as
- * plumby_num_node; an unknown key or a value of the wrong kind is left to
- * plumby_check. */
-plumb_status plumby_check_set_values(const plumby_ctx *ctx, const plumby_node *node,
-                                     const plumby_schema *s);
+/* Checks the numbers of the tree on their own, each its unit and its
+ * key's range, and raises the earliest error in line and column order:
+ * with only_set, those a --set gave (origin PLUMBY_FROM_SET), so that an
+ * error in a --set's own value is told first (the earliest --set's), not
+ * a consequence elsewhere of what that --set replaced (drag: given by
+ * --set over a shape: lacks its cd); else all of them, so that of the
+ * values a file gets wrong the first in file order is told, whatever
+ * order the loader reads the keys in. Errors as plumby_num_node; an
+ * unknown key or a value of the wrong kind is left to plumby_check. */
+plumb_status plumby_check_values(const plumby_ctx *ctx, const plumby_node *node,
+                                 const plumby_schema *s, int only_set);
 
 /* The child of a MAP or MAP_OR_LIST schema with this name, or NULL. */
 const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *name);

@@ -286,17 +286,19 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
     return PLUMB_OK;
 }
 
-/* The values of one tree node given by --set, checked on their own (their
- * unit and range), the earliest error (in --set order) kept in *best. */
+/* The numbers of one tree node (only those a --set gave when only_set),
+ * checked on their own (their unit and range), the earliest error (in
+ * line and column order) kept in *best. */
 static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plumby_schema *s,
-                       const char *key, plumb_diag *best, plumb_status *best_st)
+                       const char *key, int only_set, plumb_diag *best, plumb_status *best_st)
 {
     char sub_key[PLUMB_DIAG_KEY];
     if (!node || !s)
         return;
     switch (s->type) {
     case PLUMBY_T_NUM: {
-        if (node->kind != PLUMBY_SCALAR || node->origin != PLUMBY_FROM_SET || plumby_is_null(node))
+        if (node->kind != PLUMBY_SCALAR || (only_set && node->origin != PLUMBY_FROM_SET) ||
+            plumby_is_null(node))
             return;
         plumb_diag d;
         plumb_diag_clear(&d);
@@ -317,7 +319,7 @@ static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plu
             for (size_t i = 0; i < node->n; i++) {
                 plumby_key_join(sub_key, sizeof sub_key, key, node->pairs[i].key, 0);
                 set_values(ctx, node->pairs[i].value, plumby_schema_child(s, node->pairs[i].key),
-                           sub_key, best, best_st);
+                           sub_key, only_set, best, best_st);
             }
         } else if (node->kind == PLUMBY_SEQ && s->type == PLUMBY_T_MAP_OR_LIST) {
             for (size_t i = 0; i < node->n; i++) {
@@ -327,7 +329,7 @@ static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plu
                     char item_key[PLUMB_DIAG_KEY];
                     plumby_key_join(item_key, sizeof item_key, sub_key, it->pairs[k].key, 0);
                     set_values(ctx, it->pairs[k].value, plumby_schema_child(s, it->pairs[k].key),
-                               item_key, best, best_st);
+                               item_key, only_set, best, best_st);
                 }
             }
         }
@@ -339,7 +341,7 @@ static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plu
             size_t at = ctx->item_no && i < ctx->n_item_no && strcmp(key, PLUMBY_ITEMS_KEY) == 0
                             ? ctx->item_no[i] - 1 : i;
             plumby_key_join(sub_key, sizeof sub_key, key, NULL, at);
-            set_values(ctx, node->items[i], &s->sub[0], sub_key, best, best_st);
+            set_values(ctx, node->items[i], &s->sub[0], sub_key, only_set, best, best_st);
         }
         return;
     default:
@@ -347,13 +349,13 @@ static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plu
     }
 }
 
-plumb_status plumby_check_set_values(const plumby_ctx *ctx, const plumby_node *node,
-                                     const plumby_schema *s)
+plumb_status plumby_check_values(const plumby_ctx *ctx, const plumby_node *node,
+                                 const plumby_schema *s, int only_set)
 {
     plumb_diag best;
     plumb_diag_clear(&best);
     plumb_status st = PLUMB_OK;
-    set_values(ctx, node, s, "", &best, &st);
+    set_values(ctx, node, s, "", only_set, &best, &st);
     if (st != PLUMB_OK && ctx->diag)
         *ctx->diag = best;
     return st;
