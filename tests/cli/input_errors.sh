@@ -144,6 +144,8 @@ refused "a bare negative mass" "no unit of a mass brings into range: must be > 0
   -- fall "$good" --set "payload.mass=-5"
 refused "a latitude of 95 N" 'write "95 deg" (out of range here too: must be -90 deg .. 90 deg)' \
   -- fall "$good" --set "site.latitude=95 N"
+refused "a latitude of 95,5 deg" 'use a decimal point: "95.5 deg" (out of range here too: must be -90 deg .. 90 deg)' \
+  -- fall "$good" --set "site.latitude=95,5 deg"
 refused "a latitude that is a word" "must be -90 deg .. 90 deg" '!270 deg' \
   -- fall "$good" --set "site.latitude=north"
 
