@@ -1240,7 +1240,7 @@ static void test_a_range_error_gets_its_limits_in_us_units(void **state)
     (void)state;
     char buf[PLUMB_DIAG_MSG + 200];
     plumb_diag t = range_error("atmosphere.temperature",
-                               "must be 150 K .. 400 K (-123 degC .. 127 degC: air on Earth; was "
+                               "must be 150 K .. 400 K (-123.15 degC .. 126.85 degC: air on Earth; was "
                                "the unit meant degC or degF?), found '20 K'");
     size_t n = plumb_report_diag_message(&t, PLUMB_UNITS_US, buf, sizeof buf);
     assert_int_equal(n, strlen(buf));

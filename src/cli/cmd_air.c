@@ -67,8 +67,15 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
         plumb_diag d;
         plumb_diag_clear(&d);
         st = plumb_profile_key_check("atmosphere.temperature_offset", dt, &d);
-        if (st != PLUMB_OK)
-            st = cli_option_status(&diag, st, "--temperature-offset", "'%s': %s", dt_text, d.message);
+        /* "200 K is out of range: must be ...", after what was written
+         * when that is not the same number ('360 degF': 200 K is ...) */
+        char *end = NULL;
+        double written = strtod(dt_text, &end);
+        if (st != PLUMB_OK && end != dt_text && written == dt)
+            st = cli_option_status(&diag, st, "--temperature-offset", "%s", d.message);
+        else if (st != PLUMB_OK)
+            st = cli_option_status(&diag, st, "--temperature-offset", "'%s': %s", dt_text,
+                                   d.message);
     }
     if (st == PLUMB_OK) {
         n = alt.n;

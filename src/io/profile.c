@@ -108,6 +108,14 @@ static plumb_status interpret(loader *L)
     if (items && payload)
         return plumby_forbid(&L->root, "items",
                              "together with payload (a profile has payload: or items:)");
+    const plumby_removal *gone = plumby_removed(&L->ctx, "items");
+    if (!gone)
+        gone = plumby_removed(&L->ctx, "payload");
+    if (!items && !payload && gone)
+        return plumby_raise(&L->ctx, PLUMBY_FROM_SET, gone->line, gone->col, "payload",
+                            PLUMB_EKEY, "this --set removed %s, and a profile needs "
+                            "payload: or items:; give payload: {mass: ..., drag: ...} with "
+                            "another --set, or leave %s in", gone->key, gone->key);
     if (!items && !payload)
         return plumby_missing(&L->root, "payload",
                               "give payload: {mass: ..., drag: ...}, or items: for an inventory");
@@ -152,6 +160,42 @@ static plumb_status interpret(loader *L)
     return PLUMB_OK;
 }
 
+/* The checks before the profile is interpreted: a --set's own value
+ * first (given_sets), then, of the keys and kinds the schema refuses
+ * (plumby_check, in file order) and the numbers whose unit or range is
+ * wrong (with all_values: a profile derived from a checked one has only
+ * its new --set values to check), the first in file order. The loader
+ * reads the release, air and wind before the payload: without this a
+ * wind speed at line 8 would hide a mass at line 3. Required keys
+ * missing and values refused against another key are found later, in the
+ * loader's order. */
+static plumb_status check_tree(const plumby_ctx *ctx, const plumby_node *tree, int all_values,
+                               int given_sets)
+{
+    const plumby_schema *schema = plumbp_profile_schema();
+    plumb_status st = given_sets ? plumby_check_values(ctx, tree, schema, 1) : PLUMB_OK;
+    if (st != PLUMB_OK)
+        return st;
+    st = plumby_check(ctx, tree, schema, "");
+    if (!all_values || tree->kind != PLUMBY_MAP)
+        return st;
+    plumb_diag dv;
+    plumb_diag_clear(&dv);
+    plumby_ctx c = *ctx;
+    c.diag = &dv;
+    plumb_status sv = plumby_check_values(&c, tree, schema, 0);
+    if (sv == PLUMB_OK)
+        return st;
+    const plumb_diag *ds = ctx->diag;
+    if (st != PLUMB_OK && ds &&
+        (strcmp(ds->file, dv.file) != 0 || ds->line < dv.line ||
+         (ds->line == dv.line && ds->col <= dv.col)))
+        return st; /* the schema's error is first (or a --set's) */
+    if (ctx->diag)
+        *ctx->diag = dv;
+    return sv;
+}
+
 /* Applies sets to tree (owned), checks and interprets it into *out. */
 static plumb_status build(const char *path, const char *sha, plumby_node *tree,
                           const plumb_profile *base, const plumb_units *units,
@@ -167,26 +211,40 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
         plumby_free(tree);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
     }
+    /* the keys a --set removed, so that a required key then missing is
+     * told at that --set (plumby_missing) */
+    plumby_removal *removed = n_sets ? calloc(n_sets, sizeof *removed) : NULL;
+    size_t n_removed = 0;
+    if (n_sets && !removed) {
+        plumbp_set_items_free(&numbering);
+        plumby_free(tree);
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
+    }
     for (size_t i = 0; i < n_sets; i++) {
         if (!sets[i]) {
             plumbp_set_items_free(&numbering);
             plumby_free(tree);
+            free(removed);
             return PLUMB_RAISE(diag, PLUMB_EINVAL, "override %zu is NULL", i);
         }
         if (tree->kind != PLUMBY_MAP)
             break; /* reported by the check below */
-        if ((st = plumbp_profile_apply_set(tree, sets[i], (int)i + 1, &numbering, diag)) !=
-            PLUMB_OK) {
+        if ((st = plumbp_profile_apply_set(tree, sets[i], (int)i + 1, &numbering,
+                                           &removed[n_removed], diag)) != PLUMB_OK) {
             plumbp_set_items_free(&numbering);
             plumby_free(tree);
+            free(removed);
             return st;
         }
+        if (removed[n_removed].key[0])
+            n_removed++;
     }
     plumb_profile *p = calloc(1, sizeof *p);
     size_t plen = strlen(path);
     if (!p || !(p->path = malloc(plen + 1))) {
         plumbp_set_items_free(&numbering);
         free(p);
+        free(removed);
         plumby_free(tree);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
     }
@@ -196,6 +254,7 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     plumbp_set_items_free(&numbering);
     if (st != PLUMB_OK) {
         plumb_profile_free(p);
+        free(removed);
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
     }
     plumbp_strlcpy(p->sha256, sha, sizeof p->sha256);
@@ -207,13 +266,16 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     L.ctx.diag = diag;
     L.ctx.item_no = p->item_no;
     L.ctx.n_item_no = p->n_item_no;
+    L.ctx.removed = removed;
+    L.ctx.n_removed = n_removed;
     L.p = p;
     L.check = check;
-    st = plumby_check(&L.ctx, tree, plumbp_profile_schema(), "");
+    st = check_tree(&L.ctx, tree, base == NULL, n_sets > 0);
     if (st == PLUMB_OK) {
         plumby_map_init(&L.root, &L.ctx, tree, plumbp_profile_schema(), "");
         st = interpret(&L);
     }
+    free(removed);
     if (st != PLUMB_OK) {
         plumb_profile_free(p);
         return st;

@@ -217,8 +217,12 @@ plumb_status plumbp_set_items_numbers(plumbp_set_items *numbering, plumby_node *
  * after the command's --set). PLUMB_ENOMEM is the only failure. */
 plumb_status plumbp_set_items_seed(plumbp_set_items *numbering, plumby_node *root,
                                    const plumb_profile *base);
+/* Applies the override `arg`, the line-th --set (from 1). A removal
+ * (KEY=~) fills *removal (may be NULL) with the key, items[N] numbered as
+ * written; otherwise removal->key is "". */
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
-                                      plumbp_set_items *numbering, plumb_diag *diag);
+                                      plumbp_set_items *numbering, plumby_removal *removal,
+                                      plumb_diag *diag);
 
 /* profile.c: applies sets to tree (owned), checks and interprets it into
  * *out, as plumb_profile_load does after parsing; check (may be NULL) the

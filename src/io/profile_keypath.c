@@ -279,8 +279,9 @@ plumb_status plumb_profile_key_check(const char *key, double si, plumb_diag *dia
         return PLUMB_OK;
     char r[160];
     plumby_range_text(range, plumby_num_dim(s), r, sizeof r);
-    return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, key, "must be %s, found %g %s", r, si,
-                           plumb_dim_si_unit(plumby_num_dim(s)));
+    const char *u = plumb_dim_si_unit(plumby_num_dim(s));
+    return PLUMB_RAISE_KEY(diag, PLUMB_ERANGE, key, "%g%s%s is out of range: must be %s", si,
+                           strcmp(u, "1") == 0 ? "" : " ", strcmp(u, "1") == 0 ? "" : u, r);
 }
 
 /* A direction is an angle of any value (wind.from, a heading, a wind

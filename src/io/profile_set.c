@@ -489,8 +489,11 @@ static plumb_status check_payload_or_items(plumby_node *root, const keypath *kp,
 
 /* Applies the override `arg`, the line-th --set (counted from 1). */
 plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int line,
-                                      plumbp_set_items *numbering, plumb_diag *diag)
+                                      plumbp_set_items *numbering, plumby_removal *removal,
+                                      plumb_diag *diag)
 {
+    if (removal)
+        removal->key[0] = '\0';
     if (!numbering->ready && slots_capture(numbering, root) != 0)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory applying --set %d", line);
     const char *eq = strchr(arg, '=');
@@ -528,6 +531,18 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
         vlen--;
     if ((vlen == 1 && val[lead] == '~') || (vlen == 4 && strncmp(val + lead, "null", 4) == 0)) {
         tree_remove(root, &kp);
+        if (removal) {
+            /* the key as the loader names it: an item by its number as
+             * written (items[glove].mass is items[2].mass) */
+            const char *rest = on_items && kp.seg[0].index != KSEG_NONE ? strchr(key, ']') : NULL;
+            if (rest && slot >= 0)
+                snprintf(removal->key, sizeof removal->key, "%s[%ld]%s", PLUMBY_ITEMS_KEY,
+                         slot + 1, rest + 1);
+            else if (!rest)
+                plumbp_strlcpy(removal->key, key, sizeof removal->key);
+            removal->line = line;
+            removal->col = col0 + 1 + (int)lead;
+        }
         if (whole_item && slot >= 0) {
             numbering->node[slot] = NULL;
             numbering->removed_by[slot] = line;

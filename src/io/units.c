@@ -352,8 +352,8 @@ static const struct {
 };
 
 static plumb_status convert(const plumb_units *units, double value, const char *unit,
-                            plumb_dim want, const char *shown, const char *number,
-                            double *si_out, plumb_diag *diag)
+                            plumb_dim want, const plumbp_accept *acc, const char *shown,
+                            const char *number, double *si_out, plumb_diag *diag)
 {
     if (want == PLUMB_DIM_ENERGY)
         for (size_t i = 0; i < sizeof pound_force_words / sizeof pound_force_words[0]; i++)
@@ -369,11 +369,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
             *si_out = value;
             return PLUMB_OK;
         }
-        return PLUMB_RAISE(diag, PLUMB_EUNIT,
-                           "expected %s %s with its unit (e.g. \"%.*s %s\"); found a bare number "
-                           "\"%.*s\"",
-                           dims[want].article, dims[want].name, UNITS_SHOW_MAX, number,
-                           dims[want].si, UNITS_SHOW_MAX, number);
+        return plumbp_units_raise_bare(units, acc, diag, want, number);
     }
     if (want == PLUMB_DIM_NONE) {
         if (strcmp(unit, "1") == 0) {
@@ -385,7 +381,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
     }
     int sign = want == PLUMB_DIM_ANGLE ? plumbp_units_compass_letter(unit) : 0;
     if (sign != 0)
-        return plumbp_units_raise_compass(diag, sign, shown, number);
+        return plumbp_units_raise_compass(units, acc, diag, sign, shown, number);
     char per[UNITS_EXPANDED_MAX], check[UNITS_EXPANDED_MAX];
     const char *checked = unit; /* the text judged for stray numbers */
     int has_per = per_count(unit, per, check, sizeof per);
@@ -401,7 +397,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
                            UNITS_SHOW_MAX, shown);
     if (!parsed)
-        return plumbp_units_raise_unknown(diag, want, unit, shown, number);
+        return plumbp_units_raise_unknown(units, acc, diag, want, unit, shown, number);
 
     unit_shape shape;
     plumb_status st = PLUMB_OK;
@@ -449,7 +445,7 @@ static plumb_status convert(const plumb_units *units, double value, const char *
     if (want == PLUMB_DIM_FRACTION && shape.rad_power != 0)
         ok = 0;
     if (!ok) {
-        st = plumbp_units_raise_wrong(units, diag, want, use, &shape, unit, shown, number);
+        st = plumbp_units_raise_wrong(units, acc, diag, want, use, &shape, unit, shown, number);
         goto done;
     }
     cv = ut_get_converter(use, units->ref[want]);
@@ -683,6 +679,29 @@ static const char *compass_hint(const char *text, char *buf, size_t size)
 plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb_dim want,
                                double *si_out, plumb_diag *diag)
 {
+    return plumbp_units_parse_in(units, text, want, NULL, si_out, diag);
+}
+
+int plumbp_units_fits(const plumb_units *units, const plumbp_accept *acc, plumb_dim want,
+                      const char *text)
+{
+    if (!acc)
+        return 1;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    double v = 0.0;
+    plumb_status st = plumbp_units_parse_in(units, text, want, NULL, &v, &d);
+    if (st == PLUMB_ENOMEM)
+        return -1;
+    if (st != PLUMB_OK)
+        return 0;
+    return (acc->lo_open ? v > acc->lo : v >= acc->lo) &&
+           (acc->hi_open ? v < acc->hi : v <= acc->hi);
+}
+
+plumb_status plumbp_units_parse_in(const plumb_units *units, const char *text, plumb_dim want,
+                                   const plumbp_accept *acc, double *si_out, plumb_diag *diag)
+{
     if (!units || !text || !si_out)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_parse: %s is NULL",
                            !units ? "units" : !text ? "text" : "si_out");
@@ -695,9 +714,11 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
     if (len >= sizeof shown)
         return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected %s %s, found a text of more than %d bytes",
                            dims[want].article, dims[want].name, UNITS_TEXT_MAX);
+    char eg[UNITS_SHOW_MAX + 160];
     if (len == 0)
-        return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected %s %s (e.g. \"%s\"); found an empty value",
-                           dims[want].article, dims[want].name, dims[want].example);
+        return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected %s %s (%s); found an empty value",
+                           dims[want].article, dims[want].name,
+                           plumbp_units_example(units, acc, want, eg, sizeof eg));
 
     const char *p = shown;
     if (*p == '+' || *p == '-')
@@ -714,23 +735,26 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
     double bearing = want == PLUMB_DIM_ANGLE ? plumbp_units_compass_bearing(shown) : -1.0;
     if (end == shown && bearing >= 0.0)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected an angle (e.g. \"%s\"); found \"%s\": a compass point "
+                           "expected an angle (%s); found \"%s\": a compass point "
                            "names a direction (wind.from, release.velocity.heading take one); "
                            "here give a number of degrees (as a direction, %s is \"%g deg\")",
-                           dims[want].example, shown, shown, bearing);
+                           plumbp_units_example(units, acc, want, eg, sizeof eg), shown, shown,
+                           bearing);
     char hint[8];
     if (end == shown && want == PLUMB_DIM_ANGLE && compass_hint(shown, hint, sizeof hint))
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected an angle (e.g. \"%s\"); found \"%.*s\", which does not "
+                           "expected an angle (%s); found \"%.*s\", which does not "
                            "start with a number; a direction (wind.from, "
                            "release.velocity.heading) may be one of the 16 compass points: did "
                            "you mean %s?",
-                           dims[want].example, UNITS_SHOW_MAX, shown, hint);
+                           plumbp_units_example(units, acc, want, eg, sizeof eg), UNITS_SHOW_MAX,
+                           shown, hint);
     if (end == shown)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected %s %s (e.g. \"%s\"); found \"%.*s\", which does not start "
+                           "expected %s %s (%s); found \"%.*s\", which does not start "
                            "with a number%s",
-                           dims[want].article, dims[want].name, dims[want].example, UNITS_SHOW_MAX,
+                           dims[want].article, dims[want].name,
+                           plumbp_units_example(units, acc, want, eg, sizeof eg), UNITS_SHOW_MAX,
                            shown,
                            want == PLUMB_DIM_ANGLE
                                ? "; a direction (wind.from, release.velocity.heading) may also "
@@ -744,7 +768,7 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
                            dims[want].article, dims[want].name, UNITS_SHOW_MAX, shown);
 
     if (end[0] == ',' && isdigit((unsigned char)end[1]))
-        return plumbp_units_raise_comma(diag, want, shown, end);
+        return plumbp_units_raise_comma(units, acc, diag, want, shown, end);
 
     char number[UNITS_TEXT_MAX + 1];
     char unit[UNITS_TEXT_MAX + 1];
@@ -755,7 +779,7 @@ plumb_status plumb_units_parse(const plumb_units *units, const char *text, plumb
                       unit[0] == '-'))
         return PLUMB_RAISE(diag, PLUMB_EPARSE, "expected one number then a unit, found \"%.*s\"",
                            UNITS_SHOW_MAX, shown);
-    return convert(units, value, unit, want, shown, number, si_out, diag);
+    return convert(units, value, unit, want, acc, shown, number, si_out, diag);
 }
 
 /*
@@ -784,5 +808,5 @@ plumb_status plumb_units_to_si(const plumb_units *units, double value, const cha
     char shown[sizeof number + UNITS_TEXT_MAX + 2];
     snprintf(number, sizeof number, "%.10g", value);
     snprintf(shown, sizeof shown, "%s%s%s", number, len ? " " : "", trimmed);
-    return convert(units, value, trimmed, want, shown, number, si_out, diag);
+    return convert(units, value, trimmed, want, NULL, shown, number, si_out, diag);
 }

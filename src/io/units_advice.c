@@ -272,48 +272,68 @@ static void advise(plumb_dim want, const char *unit, int unknown, unit_advice *a
 }
 
 /* The end of a wrong-unit message: "; did you mean \"5 kg\"? (note)", or
- * the units of the wanted dimension. */
-static void advice_tail(plumb_dim want, const char *number, const unit_advice *adv, char *buf,
-                        size_t size)
+ * the units of the wanted dimension. A value the key would refuse is not
+ * offered: the unit is named, and the range. -1 when udunits2 ran out of
+ * memory, else 0. */
+static int advice_tail(const plumb_units *units, const plumbp_accept *acc, plumb_dim want,
+                       const char *number, const unit_advice *adv, char *buf, size_t size)
 {
-    if (adv->use[0])
+    int fits = 1;
+    if (adv->use[0]) {
+        char q[UNITS_SHOW_MAX * 2 + 2];
+        snprintf(q, sizeof q, "%.*s %s", UNITS_SHOW_MAX, number, adv->use);
+        if ((fits = plumbp_units_fits(units, acc, want, q)) < 0)
+            return -1;
+    }
+    if (adv->use[0] && fits)
         snprintf(buf, size, "; did you mean \"%.*s %s\"?%s%s%s", UNITS_SHOW_MAX, number,
                  adv->use, adv->note[0] ? " (" : "", adv->note, adv->note[0] ? ")" : "");
+    else if (adv->use[0])
+        snprintf(buf, size, "; the unit meant is probably %s%s%s%s, but \"%.*s %s\" is out of "
+                 "range too: must be %s", adv->use, adv->note[0] ? " (" : "", adv->note,
+                 adv->note[0] ? ")" : "", UNITS_SHOW_MAX, number, adv->use, acc->range);
     else if (dim_units[want][0])
         snprintf(buf, size, "%s%s%s; units of %s %s: %s", adv->note[0] ? " (" : "", adv->note,
                  adv->note[0] ? ")" : "", dims[want].article, dims[want].name, dim_units[want]);
     else
         buf[0] = '\0';
+    return 0;
 }
 
 /* Raises the "unknown unit" error, with the unit of the wanted dimension
  * that was probably meant, or the list of them. */
-plumb_status plumbp_units_raise_unknown(plumb_diag *diag, plumb_dim want, const char *unit,
+plumb_status plumbp_units_raise_unknown(const plumb_units *units, const plumbp_accept *acc,
+                                        plumb_diag *diag, plumb_dim want, const char *unit,
                                         const char *shown, const char *number)
 {
-    char w[UNITS_SHOW_MAX + 64], tail[UNITS_SHOW_MAX * 5];
+    char w[UNITS_SHOW_MAX + 64], tail[UNITS_SHOW_MAX * 5 + 256];
     plumbp_units_describe_want(want, w, sizeof w);
     unit_advice adv;
     advise(want, unit, 1, &adv);
-    advice_tail(want, number, &adv, tail, sizeof tail);
+    if (advice_tail(units, acc, want, number, &adv, tail, sizeof tail) < 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
+                           UNITS_SHOW_MAX, shown);
     return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; unknown unit \"%.*s\" in \"%.*s\"%s", w,
                        UNITS_SHOW_MAX, unit, UNITS_SHOW_MAX, shown, tail);
 }
 
 /* Raises the error of a unit of another dimension: what it measures, in
  * words, and what was probably meant. */
-plumb_status plumbp_units_raise_wrong(const plumb_units *units, plumb_diag *diag, plumb_dim want,
-                                      const ut_unit *unit, const unit_shape *shape,
-                                      const char *text, const char *shown, const char *number)
+plumb_status plumbp_units_raise_wrong(const plumb_units *units, const plumbp_accept *acc,
+                                      plumb_diag *diag, plumb_dim want, const ut_unit *unit,
+                                      const unit_shape *shape, const char *text,
+                                      const char *shown, const char *number)
 {
-    char w[UNITS_SHOW_MAX + 64], found[128], tail[UNITS_SHOW_MAX * 5];
+    char w[UNITS_SHOW_MAX + 64], found[128], tail[UNITS_SHOW_MAX * 5 + 256];
     plumbp_units_describe_want(want, w, sizeof w);
     unit_advice adv;
     advise(want, text, 0, &adv);
     if (describe_unit(units, unit, shape, found, sizeof found) != 0)
         snprintf(found, sizeof found, "a unit that is not %s %s", dims[want].article,
                  dims[want].name);
-    advice_tail(want, number, &adv, tail, sizeof tail);
+    if (advice_tail(units, acc, want, number, &adv, tail, sizeof tail) < 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
+                           UNITS_SHOW_MAX, shown);
     return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" (%s%s%s)%s", w,
                        UNITS_SHOW_MAX, shown, found, adv.why ? ": " : "", adv.why ? adv.why : "",
                        tail);
@@ -344,26 +364,48 @@ int plumbp_units_compass_letter(const char *unit)
 
 /* Raises the error of a compass letter after an angle, with the signed
  * angle it means. */
-plumb_status plumbp_units_raise_compass(plumb_diag *diag, int sign, const char *shown,
+plumb_status plumbp_units_raise_compass(const plumb_units *units, const plumbp_accept *acc,
+                                        plumb_diag *diag, int sign, const char *shown,
                                         const char *number)
 {
     const char *digits = number[0] == '+' || number[0] == '-' ? number + 1 : number;
     int negative = (number[0] == '-') != (sign < 0);
+    char q[UNITS_SHOW_MAX + 8], out[UNITS_SHOW_MAX + 200] = "";
+    snprintf(q, sizeof q, "%s%.*s deg", negative ? "-" : "", UNITS_SHOW_MAX, digits);
+    int fits = plumbp_units_fits(units, acc, PLUMB_DIM_ANGLE, q);
+    if (fits < 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading \"%.*s\"", UNITS_SHOW_MAX,
+                           shown);
+    if (!fits)
+        snprintf(out, sizeof out, " (out of range here too: must be %s)", acc->range);
     return PLUMB_RAISE(diag, PLUMB_EUNIT,
                        "expected an angle (deg), found \"%.*s\": compass letters are not units; "
                        "a latitude or longitude is a signed number of degrees, north and east "
-                       "positive: write \"%s%.*s deg\"; a direction is degrees clockwise from "
+                       "positive: write \"%s\"%s; a direction is degrees clockwise from "
                        "north (\"%.*s deg\") or a compass point alone (\"NE\")",
-                       UNITS_SHOW_MAX, shown, negative ? "-" : "", UNITS_SHOW_MAX, digits,
-                       UNITS_SHOW_MAX, digits);
+                       UNITS_SHOW_MAX, shown, q, out, UNITS_SHOW_MAX, digits);
 }
 
 /* Raises the error of a number written with a comma ("6,5 m", "1,500 m"):
  * plumb reads a decimal point and no thousands separator. `end` is where
  * strtod stopped in `shown`, at the comma. */
-plumb_status plumbp_units_raise_comma(plumb_diag *diag, plumb_dim want, const char *shown,
+/* " (out of range here too: must be RANGE)" after a suggested quantity
+ * that acc refuses, else "" (also when udunits2 runs out of memory: the
+ * message is an input error's either way). Returns buf. */
+static const char *refused_note(const plumb_units *units, const plumbp_accept *acc,
+                                plumb_dim want, const char *text, char *buf, size_t size)
+{
+    buf[0] = '\0';
+    if (plumbp_units_fits(units, acc, want, text) == 0)
+        snprintf(buf, size, " (out of range here too: must be %s)", acc->range);
+    return buf;
+}
+
+plumb_status plumbp_units_raise_comma(const plumb_units *units, const plumbp_accept *acc,
+                                      plumb_diag *diag, plumb_dim want, const char *shown,
                                       const char *end)
 {
+    char n1[200], n2[200];
     char w[UNITS_SHOW_MAX + 64];
     plumbp_units_describe_want(want, w, sizeof w);
     const char *q = end;
@@ -392,18 +434,82 @@ plumb_status plumbp_units_raise_comma(plumb_diag *diag, plumb_dim want, const ch
     as_point[a] = as_plain[b] = '\0';
     if (commas == 1 && !point && !threes)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
-                           "expected %s, found \"%.*s\": use a decimal point: \"%.*s\"", w,
-                           UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point);
+                           "expected %s, found \"%.*s\": use a decimal point: \"%.*s\"%s", w,
+                           UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point,
+                           refused_note(units, acc, want, as_point, n1, sizeof n1));
     if (commas == 1 && !point)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
                            "expected %s, found \"%.*s\": numbers take a decimal point and no "
-                           "thousands separator: write \"%.*s\" or \"%.*s\", whichever is meant",
-                           w, UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point, UNITS_SHOW_MAX,
-                           as_plain);
+                           "thousands separator: write \"%.*s\"%s or \"%.*s\"%s, whichever is "
+                           "meant",
+                           w, UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point,
+                           refused_note(units, acc, want, as_point, n1, sizeof n1),
+                           UNITS_SHOW_MAX, as_plain,
+                           refused_note(units, acc, want, as_plain, n2, sizeof n2));
     return PLUMB_RAISE(diag, PLUMB_EPARSE,
                        "expected %s, found \"%.*s\": numbers take a decimal point and no "
-                       "thousands separator%s%.*s%s",
+                       "thousands separator%s%.*s%s%s",
                        w, UNITS_SHOW_MAX, shown, threes && commas > 0 ? ": write \"" : "",
                        threes && commas > 0 ? UNITS_SHOW_MAX : 0, as_plain,
-                       threes && commas > 0 ? "\"" : "");
+                       threes && commas > 0 ? "\"" : "",
+                       threes && commas > 0 ? refused_note(units, acc, want, as_plain, n1,
+                                                           sizeof n1) : "");
+}
+
+const char *plumbp_units_example(const plumb_units *units, const plumbp_accept *acc,
+                                 plumb_dim want, char *buf, size_t size)
+{
+    if (plumbp_units_fits(units, acc, want, dims[want].example) != 0)
+        snprintf(buf, size, "e.g. \"%s\"", dims[want].example);
+    else
+        snprintf(buf, size, "must be %s", acc->range);
+    return buf;
+}
+
+plumb_status plumbp_units_raise_bare(const plumb_units *units, const plumbp_accept *acc,
+                                     plumb_diag *diag, plumb_dim want, const char *number)
+{
+    /* the SI unit first, then the others of the dimension's list */
+    const char *cand[UNITS_CANDIDATES];
+    char store[UNITS_SHOW_MAX * 2];
+    size_t n = 0;
+    plumbp_strlcpy(store, dim_units[want], sizeof store);
+    for (char *p = store; *p && n < UNITS_CANDIDATES;) {
+        cand[n++] = p;
+        char *comma = strstr(p, ", ");
+        if (!comma)
+            break;
+        *comma = '\0';
+        p = comma + 2;
+    }
+    char eg[2][UNITS_SHOW_MAX * 2 + 2];
+    size_t n_eg = 0;
+    snprintf(eg[0], sizeof eg[0], "%.*s %s", UNITS_SHOW_MAX, number, dims[want].si);
+    int fits = plumbp_units_fits(units, acc, want, eg[0]);
+    if (fits > 0)
+        n_eg = 1;
+    for (size_t i = 0; fits == 0 && i < n && n_eg < 2; i++) {
+        if (strcmp(cand[i], dims[want].si) == 0)
+            continue;
+        snprintf(eg[n_eg], sizeof eg[n_eg], "%.*s %s", UNITS_SHOW_MAX, number, cand[i]);
+        int f = plumbp_units_fits(units, acc, want, eg[n_eg]);
+        if (f < 0)
+            fits = -1;
+        else if (f > 0)
+            n_eg++;
+    }
+    if (fits < 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading \"%.*s\"", UNITS_SHOW_MAX,
+                           number);
+    if (n_eg == 0)
+        return PLUMB_RAISE(diag, PLUMB_EUNIT,
+                           "expected %s %s with its unit (SI: %s); found a bare number \"%.*s\", "
+                           "which no unit of %s %s brings into range: must be %s",
+                           dims[want].article, dims[want].name, dims[want].si, UNITS_SHOW_MAX,
+                           number, dims[want].article, dims[want].name, acc->range);
+    return PLUMB_RAISE(diag, PLUMB_EUNIT,
+                       "expected %s %s with its unit (e.g. \"%s\"%s%s%s); found a bare number "
+                       "\"%.*s\"",
+                       dims[want].article, dims[want].name, eg[0], n_eg > 1 ? " or \"" : "",
+                       n_eg > 1 ? eg[1] : "", n_eg > 1 ? "\"" : "", UNITS_SHOW_MAX, number);
 }

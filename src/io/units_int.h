@@ -199,7 +199,43 @@ static inline int same_dimension(const plumb_units *units, const ut_unit *a, con
     return same;
 }
 
+/* ---- what a key accepts ----------------------------------------------------- */
+
+/* The values a key accepts, in SI, so that a message never suggests one
+ * the key would refuse ("45 K" for an air temperature of at least 150 K).
+ * NULL where a quantity is read for no key: any value that converts. */
+typedef struct plumbp_accept {
+    double lo, hi;          /* bounds in SI (-HUGE_VAL, HUGE_VAL: none) */
+    int lo_open, hi_open;   /* 1: the bound itself is refused */
+    const char *range;      /* the bounds as the key's range message gives them */
+} plumbp_accept;
+
+/* 1 when the quantity `text` (number and unit) reads as dimension want and
+ * acc accepts it (always when acc is NULL), 0 when not, -1 when udunits2
+ * ran out of memory. Can't fail otherwise. */
+int plumbp_units_fits(const plumb_units *units, const plumbp_accept *acc, plumb_dim want,
+                      const char *text);
+
+/* plumb_units_parse for a key that accepts acc (may be NULL): the same
+ * value and errors; only the values the messages suggest differ. */
+plumb_status plumbp_units_parse_in(const plumb_units *units, const char *text, plumb_dim want,
+                                   const plumbp_accept *acc, double *si_out, plumb_diag *diag);
+
 /* ---- the messages (units_advice.c) ---------------------------------------- */
+
+/* Raises PLUMB_EUNIT for a bare number where want needs a unit, with an
+ * example of the number and a unit that acc accepts: the SI unit, else
+ * (45 for an air temperature) the others of the dimension that do ("45
+ * degC" or "45 degF"), else none, with the range. Returns the status
+ * raised (PLUMB_ENOMEM when udunits2 ran out of memory). */
+plumb_status plumbp_units_raise_bare(const plumb_units *units, const plumbp_accept *acc,
+                                     plumb_diag *diag, plumb_dim want, const char *number);
+
+/* An example of dimension want for a message, that acc accepts:
+ * "e.g. \"30 m\"", or "must be RANGE" when the usual example is refused
+ * (an angle of 270 deg for a latitude). Returns buf. */
+const char *plumbp_units_example(const plumb_units *units, const plumbp_accept *acc,
+                                 plumb_dim want, char *buf, size_t size);
 
 /* What a caller wanted, for messages: "a mass (kg)", "a fraction (a bare
  * number or \"%\")", "a bare number". Can't fail. */
@@ -209,15 +245,17 @@ void plumbp_units_describe_want(plumb_dim want, char *buf, size_t size);
  * with the unit of dimension want probably meant or the list of them.
  * `shown` is the quantity as written, `number` its number. Returns the
  * status raised. */
-plumb_status plumbp_units_raise_unknown(plumb_diag *diag, plumb_dim want, const char *unit,
+plumb_status plumbp_units_raise_unknown(const plumb_units *units, const plumbp_accept *acc,
+                                        plumb_diag *diag, plumb_dim want, const char *unit,
                                         const char *shown, const char *number);
 
 /* Raises PLUMB_EUNIT for `unit` (parsed from the text `text`, of the given
  * shape), which is not of dimension want: what it measures, in words, and
  * what was probably meant. Returns the status raised. */
-plumb_status plumbp_units_raise_wrong(const plumb_units *units, plumb_diag *diag, plumb_dim want,
-                                      const ut_unit *unit, const unit_shape *shape,
-                                      const char *text, const char *shown, const char *number);
+plumb_status plumbp_units_raise_wrong(const plumb_units *units, const plumbp_accept *acc,
+                                      plumb_diag *diag, plumb_dim want, const ut_unit *unit,
+                                      const unit_shape *shape, const char *text,
+                                      const char *shown, const char *number);
 
 /* The bearing in degrees of a 16-point compass point written alone ("NE",
  * any case; N = 0, clockwise in steps of 22.5 deg), or -1. Can't fail. */
@@ -230,13 +268,15 @@ int plumbp_units_compass_letter(const char *unit);
 /* Raises PLUMB_EUNIT for a compass letter (sign from
  * plumbp_units_compass_letter) after an angle, with the signed angle it
  * means. Returns the status raised. */
-plumb_status plumbp_units_raise_compass(plumb_diag *diag, int sign, const char *shown,
+plumb_status plumbp_units_raise_compass(const plumb_units *units, const plumbp_accept *acc,
+                                        plumb_diag *diag, int sign, const char *shown,
                                         const char *number);
 
 /* Raises PLUMB_EPARSE for a number written with a comma ("6,5 m",
  * "1,500 m"); `end` is where strtod stopped in `shown`, at the comma.
  * Returns the status raised. */
-plumb_status plumbp_units_raise_comma(plumb_diag *diag, plumb_dim want, const char *shown,
+plumb_status plumbp_units_raise_comma(const plumb_units *units, const plumbp_accept *acc,
+                                      plumb_diag *diag, plumb_dim want, const char *shown,
                                       const char *end);
 
 #endif /* PLUMB_UNITS_INT_H */

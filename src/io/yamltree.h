@@ -175,6 +175,14 @@ plumby_range plumby_num_range(const plumby_schema *s);
 #define PLUMBY_CD_MAX 10.0
 
 /* Everything a checker or reader needs to raise a located error. */
+/* A key a --set removed (KEY=~ or KEY=null): a required key then missing
+ * is that --set's doing, and is told at it. */
+typedef struct plumby_removal {
+    char key[PLUMB_DIAG_KEY];      /* the dotted key removed, items[N] as written */
+    int line, col;                 /* the --set (line of the "--set" pseudo-file) and
+                                      the column of its ~ */
+} plumby_removal;
+
 typedef struct plumby_ctx {
     const char *file;              /* file name for PLUMBY_FROM_FILE nodes */
     const plumb_units *units;      /* for numbers with units */
@@ -182,12 +190,26 @@ typedef struct plumby_ctx {
     const size_t *item_no;         /* the top-level items' numbers, from 1, as items[N]
                                       counts them (NULL: place in the list + 1) */
     size_t n_item_no;              /* entries in item_no */
+    const plumby_removal *removed; /* the keys --set options removed (may be NULL) */
+    size_t n_removed;              /* entries in removed */
 } plumby_ctx;
 
 /* Raises status at a position of the given origin. */
 plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line, int col,
                           const char *key, plumb_status status, const char *fmt, ...)
     PLUMBP_PRINTF(7, 8);
+
+/* Checks the numbers of the tree on their own, each its unit and its
+ * key's range, and raises the earliest error in line and column order:
+ * with only_set, those a --set gave (origin PLUMBY_FROM_SET), so that an
+ * error in a --set's own value is told first (the earliest --set's), not
+ * a consequence elsewhere of what that --set replaced (drag: given by
+ * --set over a shape: lacks its cd); else all of them, so that of the
+ * values a file gets wrong the first in file order is told, whatever
+ * order the loader reads the keys in. Errors as plumby_num_node; an
+ * unknown key or a value of the wrong kind is left to plumby_check. */
+plumb_status plumby_check_values(const plumby_ctx *ctx, const plumby_node *node,
+                                 const plumby_schema *s, int only_set);
 
 /* The child of a MAP or MAP_OR_LIST schema with this name, or NULL. */
 const plumby_schema *plumby_schema_child(const plumby_schema *map, const char *name);
@@ -258,7 +280,12 @@ const plumby_node *plumby_get(const plumby_map *m, const char *name);
 /* The sub-map `name` of m, absent or not (reported at m then). */
 void plumby_sub(const plumby_map *m, const char *name, plumby_map *out);
 
-/* PLUMB_EKEY "required key ... is missing", at the map. */
+/* The removal by a --set of the dotted key, or of a map that holds it
+ * ("release" holds "release.height"); NULL when no --set removed it. */
+const plumby_removal *plumby_removed(const plumby_ctx *ctx, const char *key);
+
+/* PLUMB_EKEY "required key ... is missing", at the map, or at the --set
+ * that removed it (plumby_removed). */
 plumb_status plumby_missing(const plumby_map *m, const char *name, const char *why);
 
 /* PLUMB_EKEY at key `name` when it is present: it is not used here

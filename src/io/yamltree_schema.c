@@ -20,6 +20,9 @@
 #include "io/units_int.h"
 #include "io/yamltree.h"
 
+/* 0 degC in kelvin, exactly (BIPM SI Brochure, 9th ed., 2019, 2.3.1). */
+#define CELSIUS_ZERO_K 273.15
+
 /* ---- schema ------------------------------------------------------------ */
 
 plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line, int col,
@@ -283,6 +286,81 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
     return PLUMB_OK;
 }
 
+/* The numbers of one tree node (only those a --set gave when only_set),
+ * checked on their own (their unit and range), the earliest error (in
+ * line and column order) kept in *best. */
+static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plumby_schema *s,
+                       const char *key, int only_set, plumb_diag *best, plumb_status *best_st)
+{
+    char sub_key[PLUMB_DIAG_KEY];
+    if (!node || !s)
+        return;
+    switch (s->type) {
+    case PLUMBY_T_NUM: {
+        if (node->kind != PLUMBY_SCALAR || (only_set && node->origin != PLUMBY_FROM_SET) ||
+            plumby_is_null(node))
+            return;
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        plumby_ctx c = *ctx;
+        c.diag = &d;
+        double v;
+        plumb_status st = plumby_num_node(&c, node, s, key, &v);
+        if (st != PLUMB_OK && (*best_st == PLUMB_OK || d.line < best->line ||
+                               (d.line == best->line && d.col < best->col))) {
+            *best = d;
+            *best_st = st;
+        }
+        return;
+    }
+    case PLUMBY_T_MAP:
+    case PLUMBY_T_MAP_OR_LIST:
+        if (node->kind == PLUMBY_MAP) {
+            for (size_t i = 0; i < node->n; i++) {
+                plumby_key_join(sub_key, sizeof sub_key, key, node->pairs[i].key, 0);
+                set_values(ctx, node->pairs[i].value, plumby_schema_child(s, node->pairs[i].key),
+                           sub_key, only_set, best, best_st);
+            }
+        } else if (node->kind == PLUMBY_SEQ && s->type == PLUMBY_T_MAP_OR_LIST) {
+            for (size_t i = 0; i < node->n; i++) {
+                plumby_key_join(sub_key, sizeof sub_key, key, NULL, i);
+                const plumby_node *it = node->items[i];
+                for (size_t k = 0; it->kind == PLUMBY_MAP && k < it->n; k++) {
+                    char item_key[PLUMB_DIAG_KEY];
+                    plumby_key_join(item_key, sizeof item_key, sub_key, it->pairs[k].key, 0);
+                    set_values(ctx, it->pairs[k].value, plumby_schema_child(s, it->pairs[k].key),
+                               item_key, only_set, best, best_st);
+                }
+            }
+        }
+        return;
+    case PLUMBY_T_LIST:
+        if (node->kind != PLUMBY_SEQ || !s->n_sub)
+            return;
+        for (size_t i = 0; i < node->n; i++) {
+            size_t at = ctx->item_no && i < ctx->n_item_no && strcmp(key, PLUMBY_ITEMS_KEY) == 0
+                            ? ctx->item_no[i] - 1 : i;
+            plumby_key_join(sub_key, sizeof sub_key, key, NULL, at);
+            set_values(ctx, node->items[i], &s->sub[0], sub_key, only_set, best, best_st);
+        }
+        return;
+    default:
+        return;
+    }
+}
+
+plumb_status plumby_check_values(const plumby_ctx *ctx, const plumby_node *node,
+                                 const plumby_schema *s, int only_set)
+{
+    plumb_diag best;
+    plumb_diag_clear(&best);
+    plumb_status st = PLUMB_OK;
+    set_values(ctx, node, s, "", only_set, &best, &st);
+    if (st != PLUMB_OK && ctx->diag)
+        *ctx->diag = best;
+    return st;
+}
+
 void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_open,
                          int *hi_open)
 {
@@ -354,9 +432,13 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
                  "standard 15 degC)", PLUMB_TEMP_OFFSET_MAX_K, u, PLUMB_TEMP_OFFSET_MAX_K, u);
         break;
     case PLUMBY_R_AIR_TEMPERATURE:
+        /* the bounds in degC exactly (-123.15 .. 126.85), never rounded
+         * outward: "127 degC" would name a temperature that is refused */
         snprintf(buf, size,
-                 "%g%s .. %g%s (-123 degC .. 127 degC: air on Earth; was the unit meant degC "
-                 "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u);
+                 "%g%s .. %g%s (%g degC .. %g degC: air on Earth; was the unit meant degC "
+                 "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u,
+                 PLUMB_AIR_TEMPERATURE_MIN_K - CELSIUS_ZERO_K,
+                 PLUMB_AIR_TEMPERATURE_MAX_K - CELSIUS_ZERO_K);
         break;
     }
     return buf;
@@ -428,11 +510,32 @@ void plumby_sub(const plumby_map *m, const char *name, plumby_map *out)
     }
 }
 
+const plumby_removal *plumby_removed(const plumby_ctx *ctx, const char *key)
+{
+    for (size_t i = 0; ctx && ctx->removed && i < ctx->n_removed; i++) {
+        const char *r = ctx->removed[i].key;
+        size_t n = strlen(r);
+        if (n > 0 && strncmp(key, r, n) == 0 &&
+            (key[n] == '\0' || key[n] == '.' || key[n] == '['))
+            return &ctx->removed[i];
+    }
+    return NULL;
+}
+
 plumb_status plumby_missing(const plumby_map *m, const char *name, const char *why)
 {
     char key[PLUMB_DIAG_KEY];
     plumby_key_join(key, sizeof key, m->key, name, 0);
     const char *where = m->key[0] ? m->key : "the top level";
+    const plumby_removal *r = plumby_removed(m->ctx, key);
+    if (r && strcmp(r->key, key) == 0)
+        return plumby_raise(m->ctx, PLUMBY_FROM_SET, r->line, r->col, key, PLUMB_EKEY,
+                            "required key '%s' is missing from %s: this --set removed it%s%s",
+                            name, where, why ? "; " : "", why ? why : "");
+    if (r)
+        return plumby_raise(m->ctx, PLUMBY_FROM_SET, r->line, r->col, key, PLUMB_EKEY,
+                            "required key '%s' of %s is missing: this --set removed %s%s%s",
+                            name, where, r->key, why ? "; " : "", why ? why : "");
     if (!m->node)
         return plumby_raise(m->ctx, m->origin, m->line, m->col, key, PLUMB_EKEY,
                             "required key '%s' is missing (%s is not given)%s%s", name, where,
@@ -487,12 +590,22 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
         *out = bearing; /* angles are read in degrees (units.h) */
         return PLUMB_OK;
     }
-    plumb_status st = plumby_quantity(ctx, node, dim, key, &v);
+    /* what the key accepts, so that no message suggests a value it refuses */
+    char r[160];
+    plumby_range_text(range, dim, r, sizeof r);
+    plumbp_accept acc = {0.0, 0.0, 0, 0, r};
+    plumby_range_bounds(range, &acc.lo, &acc.hi, &acc.lo_open, &acc.hi_open);
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    plumb_status st = plumbp_units_parse_in(ctx->units, node->text, dim,
+                                            range == PLUMBY_R_ANY ? NULL : &acc, &v, &d);
     if (st != PLUMB_OK)
-        return st;
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, st, "%s",
+                            d.message[0] ? d.message : plumb_strerror(st));
+    if (!plumbp_finite(v))
+        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
+                            "expected a finite number, found '%s'", node->text);
     if (!plumby_range_ok(range, v)) {
-        char r[160];
-        plumby_range_text(range, dim, r, sizeof r);
         return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
                             "must be %s, found '%s'", r, node->text);
     }

@@ -27,6 +27,31 @@ static void air_model_text(writer *w, double dt_k, char *buf, size_t size)
             *p = ' ';
 }
 
+/* Decimals of the altitude column: at least `least` (the column's usual
+ * 1 mm, or 0.01 ft), more when neighbouring rows lie closer than that, so
+ * that every row a user asked for (--alt 0m:1m:0.00001m) is labelled with
+ * its own altitude rather than seven rows of "0": the smallest step
+ * between rows, in the unit shown (`per` metres), sets it. At most 9: a
+ * range has at most 100 000 values (README.md, plumb air), so a finer
+ * step is not one a user asked for. */
+static int alt_decimals(const plumb_air *rows, size_t n, double per, int least)
+{
+    double d_min = HUGE_VAL;
+    for (size_t i = 1; i < n; i++) {
+        double d = fabs(rows[i].alt_m - rows[i - 1].alt_m) / per;
+        if (d > 0.0 && d < d_min)
+            d_min = d;
+    }
+    int dec = least;
+    if (d_min < HUGE_VAL) {
+        /* the slack keeps a step of 1e-5 that reads 0.99999999e-5 at 5 */
+        double need = ceil(-log10(d_min) - 1e-6);
+        if (need > dec)
+            dec = need > 9.0 ? 9 : (int)need;
+    }
+    return dec;
+}
+
 static void text_air(writer *w, const plumb_report_options *opt, const plumb_air *rows,
                      size_t n, double dt_k)
 {
@@ -39,18 +64,28 @@ static void text_air(writer *w, const plumb_report_options *opt, const plumb_air
                            "sound speed"};
     const char *si[] = {"m", "K", "Pa", "kg/m³", "Pa·s", "m/s"};
     const char *us[] = {"ft", "°F", "inHg", "lb/ft³", "lbf·s/ft²", "ft/s"};
-    put(w, "\n");
-    for (size_t k = 0; k < 6; k++)
-        pad(w, heads[k], COL_W, 1);
-    put(w, "\n");
-    for (size_t k = 0; k < 6; k++)
-        pad(w, w->us ? us[k] : si[k], COL_W, 1);
-    put(w, "\n");
     double ft = PLUMB_FT_M, ft2 = ft * ft, ft3 = ft2 * ft;
+    double alt_per = w->us ? ft : 1.0;
+    int alt_dec = alt_decimals(rows, n, alt_per, w->us ? 2 : 3);
+    /* the altitude column widens when its decimals need it, so that two
+     * columns never run together */
+    size_t alt_w = COL_W;
+    for (size_t i = 0; i < n; i++) {
+        size_t len = strlen(plumbp_trimmed(w, rows[i].alt_m / alt_per, alt_dec)) + 2;
+        if (len > alt_w)
+            alt_w = len;
+    }
+    put(w, "\n");
+    for (size_t k = 0; k < 6; k++)
+        pad(w, heads[k], k ? COL_W : alt_w, 1);
+    put(w, "\n");
+    for (size_t k = 0; k < 6; k++)
+        pad(w, w->us ? us[k] : si[k], k ? COL_W : alt_w, 1);
+    put(w, "\n");
     for (size_t i = 0; i < n; i++) {
         const plumb_air *a = &rows[i];
         if (w->us) {
-            pad(w, plumbp_trimmed(w, a->alt_m / ft, 2), COL_W, 1);
+            pad(w, plumbp_trimmed(w, a->alt_m / ft, alt_dec), alt_w, 1);
             pad(w, plumbp_fixed(w, a->t_k * FAHRENHEIT_PER_K - FAHRENHEIT_ZERO_OFFSET, 2), COL_W,
                 1);
             pad(w, num(w, a->p_pa / INHG_PA, 5), COL_W, 1);
@@ -58,7 +93,7 @@ static void text_air(writer *w, const plumb_report_options *opt, const plumb_air
             pad(w, plumbp_sci(w, a->mu_pa_s * ft2 / LBF_N, 5), COL_W, 1);
             pad(w, plumbp_fixed(w, a->a_m_s / ft, 1), COL_W, 1);
         } else {
-            pad(w, plumbp_trimmed(w, a->alt_m, 3), COL_W, 1);
+            pad(w, plumbp_trimmed(w, a->alt_m, alt_dec), alt_w, 1);
             pad(w, plumbp_fixed(w, a->t_k, 3), COL_W, 1);
             pad(w, num(w, a->p_pa, 6), COL_W, 1);
             pad(w, num(w, a->rho_kg_m3, 5), COL_W, 1);

@@ -161,13 +161,18 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
         return RANGE_ERROR(diag, PLUMB_ERANGE, what,
                            "'%s' makes more values than can be counted, far more than %u; use "
                            "a larger STEP", text, PLUMB_RANGE_MAX_VALUES);
-    if (!(span < (double)PLUMB_RANGE_MAX_VALUES))
+    /* the values counted once, here, for every range (--vary, a
+     * direction's range, --alt): the relative slack lets 0:1:0.1 end on 1 despite
+     * rounding, and the limit is checked on that count, never on the span
+     * before it (0m:1m:0.00001m spans 99999.99999999999 steps and makes
+     * 100001 values) */
+    double count = floor(span * (1.0 + 1e-12) + 1e-12) + 1.0;
+    if (!(count <= (double)PLUMB_RANGE_MAX_VALUES))
         return RANGE_ERROR(diag, PLUMB_ERANGE, what,
                            "'%s' makes %s%.*g values, more than %u; use a larger STEP", text,
-                           span < 1e12 ? "" : "about ", span < 1e12 ? 12 : 2, floor(span) + 1.0,
+                           count < 1e12 ? "" : "about ", count < 1e12 ? 12 : 2, count,
                            PLUMB_RANGE_MAX_VALUES);
-    /* the relative slack lets 0:1:0.1 end on 1 despite rounding */
-    out->n = (size_t)floor(span * (1.0 + 1e-12) + 1e-12) + 1;
+    out->n = (size_t)count;
     return PLUMB_OK;
 }
 

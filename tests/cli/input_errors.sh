@@ -1,0 +1,216 @@
+#!/bin/sh
+# Which error bad input gets, and what it suggests (a user review): the
+# first error in file order, never one the loader happened to meet first;
+# a --set that removed a required key or gave a bad value named as that
+# --set; a suggested value the key accepts; a range's count checked on the
+# values it makes; a range's bounds rounded inward. Each refusal exits 2
+# (README.md "Exit status"), says `plumb: FILE:LINE:COL: KEY: message` on
+# stderr, one line, and writes nothing.
+#
+#   sh tests/cli/input_errors.sh PLUMB
+#
+# Ends with one line `cli: N passed, N failed`; exit 0 only if none failed.
+. "$(dirname "$0")/lib/setup.sh"
+good=profiles/payloads/torque-wrench.yaml
+inv=tests/cli/profiles/inventory.yaml
+
+tmp=$(mktemp -d "${TMPDIR:-/tmp}/plumb-inerr.XXXXXX") || exit 2
+trap 'rm -rf "$tmp"' EXIT
+trap 'exit 2' INT TERM
+
+pass=0
+fail=0
+bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
+
+# refused NAME WANT... -- ARGS...: runs plumb ARGS with -o into an empty
+# directory; passes when the status is 2, stderr is one `plumb: ` line
+# holding every WANT (fixed strings; a WANT starting with ! must be
+# absent), stdout is empty and the directory is still empty.
+refused() {
+  name=$1
+  shift
+  n_wants=0
+  while [ $# -gt 0 ] && [ "$1" != "--" ]; do
+    n_wants=$((n_wants + 1))
+    eval "want_$n_wants=\$1"
+    shift
+  done
+  shift
+  out=$tmp/out.$$
+  rm -rf "$out"
+  mkdir "$out" || exit 2
+  "$bin" "$@" -o "$out/result" >"$tmp/stdout" 2>"$tmp/stderr" <"${stdin:-/dev/null}"
+  rc=$?
+  why=""
+  [ $rc -eq 2 ] || why="exit status $rc, expected 2"
+  [ -z "$why" ] && [ "$(grep -c '^plumb: ' "$tmp/stderr")" -ne 1 ] &&
+    why="$(grep -c '^plumb: ' "$tmp/stderr") error lines, expected 1"
+  i=1
+  while [ $i -le $n_wants ]; do
+    eval "w=\$want_$i"
+    case $w in
+      !*) [ -z "$why" ] && grep -F -q -e "${w#!}" "$tmp/stderr" && why="stderr holds '${w#!}'" ;;
+      *) [ -z "$why" ] && ! grep -F -q -e "$w" "$tmp/stderr" && why="stderr lacks '$w'" ;;
+    esac
+    i=$((i + 1))
+  done
+  if [ -z "$why" ] && [ -n "$(ls -A "$out")" ]; then
+    why="wrote $(ls -A "$out" | head -n 3 | tr '\n' ' ')"
+  fi
+  if [ -z "$why" ] && [ -s "$tmp/stdout" ]; then
+    why="printed to stdout"
+  fi
+  if [ -n "$why" ]; then
+    bad "$name: $why"
+    sed -n '1,3s/^/  stderr: /p' "$tmp/stderr"
+  else
+    pass=$((pass + 1))
+  fi
+  rm -rf "$out"
+}
+
+# ---- 1. the first error in file order --------------------------------------
+# mass -5 kg (line 3), cd 11 (line 4, above the key's 10) and a wind of
+# 400 m/s (line 8, above the sea-level speed of sound 340.294 m/s, U.S.
+# Standard Atmosphere 1976, Table I): three errors; the loader reads the
+# wind before the payload, but the one reported is line 3's.
+printf 'name: three\npayload:\n  mass: -5 kg\n  drag: {cd: 11, area: 0.01 m^2}\nrelease:\n  height: 30 m\nwind:\n  speed: 400 m/s\n  from: 270 deg\n' \
+  >"$tmp/three.yaml"
+refused "fall of three errors" "plumb: $tmp/three.yaml:3:9: payload.mass: must be > 0 kg" \
+  "!wind.speed" -- fall "$tmp/three.yaml"
+# the same from standard input, and in every command that loads a profile
+stdin=$tmp/three.yaml
+refused "fall - of three errors" ":3:9: payload.mass: must be > 0 kg" -- fall -
+stdin=
+refused "sweep of three errors" "three.yaml:3:9: payload.mass: " \
+  -- sweep "$tmp/three.yaml" --vary "release.height=10m:20m:5m"
+refused "zone of three errors" "three.yaml:3:9: payload.mass: " -- zone "$tmp/three.yaml"
+# fall's one error is lint's first
+"$bin" lint "$tmp/three.yaml" >"$tmp/lint.out" 2>"$tmp/lint.err"
+"$bin" fall "$tmp/three.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+if [ "$(sed -n 1p "$tmp/lint.err")" = "$(cat "$tmp/stderr")" ] &&
+   [ "$(grep -c '^plumb: ' "$tmp/lint.err")" -eq 3 ]; then
+  pass=$((pass + 1))
+else
+  bad "fall's error is not lint's first of three: $(cat "$tmp/stderr") / $(cat "$tmp/lint.err")"
+fi
+# an inventory: the second item's cd (line 6) before the release height
+# (line 9) and a misspelt wind key (line 11)
+printf 'name: kit\nitems:\n  - name: a\n    mass: 1 kg\n    drag: {cd: 0.9, area: 0.01 m^2}\n  - {name: b, mass: 2 kg, drag: {cd: -1, area: 0.01 m^2}}\nrelease:\n  velocity: {east: 1 m/s}\n  height: -30 m\nwind:\n  sped: 5 m/s\n' \
+  >"$tmp/kit.yaml"
+refused "fall of an inventory's three errors" "kit.yaml:6:38: items[2].drag.cd: " \
+  -- fall "$tmp/kit.yaml"
+
+# ---- 2. a suggestion the key accepts -----------------------------------------
+# atmosphere.temperature takes 150 K .. 400 K (README.md "Profile keys"): a
+# bare 45 is not offered as 45 K; 45 degC = 318.15 K and 45 degF = 280.372 K
+# are in range (NIST SP 811, 2008, B.9: T/K = t/degC + 273.15,
+# t/degC = (t/degF - 32) / 1.8). 290 K is in range: offered as it was.
+printf 'name: warm\npayload: {mass: 2.385 kg, drag: {cd: 0.9, area: 0.0113 m^2}}\nrelease: {height: 31.6 m}\natmosphere:\n  model: surface\n  pressure: 1002.5 hPa\n  temperature: 45\n' \
+  >"$tmp/warm.yaml"
+refused "a bare temperature of 45" "warm.yaml:7:16: atmosphere.temperature: " \
+  'e.g. "45 degC" or "45 degF"' '!"45 K"' -- fall "$tmp/warm.yaml"
+refused "a bare temperature of 290" 'e.g. "290 K"' \
+  -- fall "$tmp/warm.yaml" --set atmosphere.temperature=290
+# no unit brings -300 into 150 K .. 400 K (-300 degF is 88.7 K): no example
+refused "a bare temperature of -300" "no unit of a temperature brings into range" '!e.g.' \
+  -- fall "$tmp/warm.yaml" --set atmosphere.temperature=-300
+# every value a message offers is taken by that key: run it (on the same
+# profile with a temperature of 12.5 degC)
+sed 's/temperature: 45$/temperature: 12.5 degC/' "$tmp/warm.yaml" >"$tmp/mild.yaml"
+for case in "atmosphere.temperature=45" "atmosphere.temperature=290" \
+            "atmosphere.temperature=45 C" "release.height=31.6" "payload.mass=2.385 KG" \
+            "site.latitude=54.2 N" "site.latitude=6,5 deg"; do
+  "$bin" fall "$tmp/mild.yaml" --set "$case" >"$tmp/stdout" 2>"$tmp/stderr"
+  offered=$(sed -n 's/.*\(did you mean\|e\.g\.\|write\|decimal point:\) "\([^"]*\)".*/\2/p' "$tmp/stderr")
+  if [ -z "$offered" ]; then
+    bad "--set '$case' offers no value: $(cat "$tmp/stderr")"
+    continue
+  fi
+  if "$bin" fall "$tmp/mild.yaml" --set "${case%%=*}=$offered" >"$tmp/stdout" 2>"$tmp/stderr2"; then
+    pass=$((pass + 1))
+  else
+    bad "--set '$case' offers '$offered', which is refused: $(cat "$tmp/stderr2")"
+  fi
+done
+# a value the key refuses is not offered: the unit meant is named, with the
+# range (a mass > 0 kg; a latitude -90 deg .. 90 deg)
+refused "a negative mass in KG" "the unit meant is probably kg" '"-5 kg" is out of range too: must be > 0 kg' \
+  '!did you mean' -- fall "$good" --set "payload.mass=-5 KG"
+refused "a temperature of 45 k" "the unit meant is probably K" \
+  '"45 K" is out of range too: must be 150 K .. 400 K' '!did you mean' \
+  -- fall "$tmp/mild.yaml" --set "atmosphere.temperature=45 k"
+refused "a bare negative mass" "no unit of a mass brings into range: must be > 0 kg" '!e.g.' \
+  -- fall "$good" --set "payload.mass=-5"
+refused "a latitude of 95 N" 'write "95 deg" (out of range here too: must be -90 deg .. 90 deg)' \
+  -- fall "$good" --set "site.latitude=95 N"
+refused "a latitude of 95,5 deg" 'use a decimal point: "95.5 deg" (out of range here too: must be -90 deg .. 90 deg)' \
+  -- fall "$good" --set "site.latitude=95,5 deg"
+refused "a latitude that is a word" "must be -90 deg .. 90 deg" '!270 deg' \
+  -- fall "$good" --set "site.latitude=north"
+
+# ---- 3. a required key a --set removed -----------------------------------------
+refused "--set release.height=~" "plumb: --set:1:16: release.height: " "this --set removed it" \
+  "!$good" -- fall "$good" --set "release.height=~"
+refused "the second --set removes the height" "plumb: --set:2:16: release.height: " \
+  "this --set removed it" -- fall "$good" --set "wind.speed=3 m/s" --set "release.height=null"
+refused "--set release=~" "plumb: --set:1:9: release.height: " "this --set removed release" \
+  -- fall "$good" --set "release=~"
+refused "--set items=~" "plumb: --set:1:7: payload: " "this --set removed items" "!$inv" \
+  -- fall "$inv" --set "items=~"
+refused "--set items[glove].mass=~" "plumb: --set:1:19: items[3].mass: " "this --set removed it" \
+  -- fall "$inv" --set "items[glove].mass=~"
+refused "--set payload.drag=~" "plumb: --set:1:14: payload.drag: " "this --set removed it" \
+  -- fall "$good" --set "payload.drag=~"
+
+# ---- 4. a --set's own value first ----------------------------------------------
+printf 'name: rod (invented)\npayload:\n  mass: 0.5 kg\n  shape: {kind: cylinder, length: 0.3 m, diameter: 0.02 m}\nrelease: {height: 10 m}\n' \
+  >"$tmp/shape.yaml"
+refused "--set drag.area in KG over a shape" "plumb: --set:1:19: payload.drag.area: " \
+  'unknown unit "KG"' "!required key 'cd'" -- fall "$tmp/shape.yaml" --set "payload.drag.area=5 KG"
+refused "two bad --set values: the first" "plumb: --set:1:14: payload.mass: " \
+  -- fall "$tmp/shape.yaml" --set "payload.mass=heavy" --set "payload.drag.area=5 KG"
+refused "a bad --set value and a bad file" "plumb: --set:1:12: wind.speed: " \
+  -- fall "$tmp/three.yaml" --set "wind.speed=9 KT"
+
+# ---- 5. a range's count --------------------------------------------------------
+# 0 m to 1 m by 0.00001 m is 1/0.00001 + 1 = 100001 values: one more than
+# the 100000 a range may make (README.md, plumb air); to 0.99999 m, 100000.
+refused "air 0m:1m:0.00001m" "--alt: '0m:1m:0.00001m' makes 100001 values, more than 100000" \
+  -- air --alt 0m:1m:0.00001m
+refused "sweep by the same count" "makes 100001 values, more than 100000" \
+  -- sweep "$good" --vary "release.height=1m:2m:0.00001m"
+"$bin" air --alt 0m:0.99999m:0.00001m --format csv >"$tmp/air.csv" 2>"$tmp/stderr"
+n=$(grep -c '^[0-9]' "$tmp/air.csv")
+[ "$n" -eq 100000 ] && pass=$((pass + 1)) || bad "air 0m:0.99999m:0.00001m: $n rows, expected 100000"
+# the text table labels each row with its own altitude
+"$bin" air --alt 0m:0.99999m:0.00001m >"$tmp/air.txt" 2>"$tmp/stderr"
+n=$(awk '$2 ~ /^[0-9.]+$/ && $1 ~ /^[0-9.]+$/ { print $1 }' "$tmp/air.txt" | sort -u | wc -l)
+[ "$n" -eq 100000 ] && pass=$((pass + 1)) || bad "air text 0m:0.99999m:0.00001m: $n distinct altitudes, expected 100000"
+if grep -q '^ *0.00001  ' "$tmp/air.txt" && grep -q '^ *0.99999  ' "$tmp/air.txt"; then
+  pass=$((pass + 1))
+else
+  bad "air text lacks the altitudes 0.00001 and 0.99999: $(sed -n 5,7p "$tmp/air.txt")"
+fi
+# ... in US units too: 0.0001 m is 0.000328 ft (0.3048 m the foot)
+"$bin" air --alt 0m:0.01m:0.0001m --units us >"$tmp/air.txt" 2>"$tmp/stderr"
+n=$(awk '$2 ~ /^[0-9.]+$/ && $1 ~ /^[0-9.]+$/ { print $1 }' "$tmp/air.txt" | sort -u | wc -l)
+[ "$n" -eq 101 ] && pass=$((pass + 1)) || bad "air --units us by 0.0001 m: $n distinct altitudes, expected 101"
+
+# ---- 6. ranges in words ----------------------------------------------------------
+# 150 K .. 400 K is -123.15 degC .. 126.85 degC (NIST SP 811, 2008, B.9):
+# never rounded outward to 127 degC, which the key refuses
+printf 'name: hot\npayload: {mass: 2.385 kg, drag: {cd: 0.9, area: 0.0113 m^2}}\nrelease: {height: 31.6 m}\natmosphere: {model: surface, pressure: 1002.5 hPa, temperature: 500 K}\n' \
+  >"$tmp/hot.yaml"
+refused "a temperature of 500 K" "hot.yaml:4:65: atmosphere.temperature: must be 150 K .. 400 K" \
+  "-123.15 degC .. 126.85 degC" "!127 degC" -- fall "$tmp/hot.yaml"
+refused "--temperature-offset 200K" \
+  "plumb: <command line>: --temperature-offset: 200 K is out of range: must be -100 K .. 100 K" \
+  "!found" -- air --temperature-offset 200K
+# 360 degF as a difference is 200 K (NIST SP 811 B.9: 1 degF = 1/1.8 K)
+refused "--temperature-offset 360 degF" \
+  "plumb: <command line>: --temperature-offset: '360 degF': 200 K is out of range" \
+  -- air --temperature-offset "360 degF"
+
+echo "cli: $pass passed, $fail failed"
+[ "$fail" -eq 0 ]
