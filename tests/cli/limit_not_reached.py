@@ -10,14 +10,14 @@ steel ball released 118 m above a strike level at 230 m, uniform wind
 9.4 m/s.
 Sources:
   - U.S. Standard Atmosphere 1976 ends at 86 km geometric altitude
-    (NOAA/NASA/USAF 1976, section 1.2, seen; design.md section 2): the
+    (NOAA/NASA/USAF 1976, section 1.2, seen; README.md, "The model"): the
     highest release it can follow here is 86 000 m - 230 m = 85 770 m.
   - inverse.h (the contract): re-running `plumb fall --set KEY=VALUE` at
     the answer meets the limit; the answer is rounded to the side that
     meets it; Brent's tolerance 1e-10 relative on the key.
   - Uniform horizontal wind w, released at rest: the horizontal velocity
     relative to the air, r = u - w, obeys dr/dt = -(rho Cd A / 2m) |v - w| r
-    (design.md section 2), so it decays from -w towards 0 without changing
+    (README.md, "The model"), so it decays from -w towards 0 without changing
     sign: 0 <= u < w, and the drift is below w T (T the fall time).
   - The lag behind the wind, closed form: falling from rest in still air
     with quadratic drag, v_z = v_t tanh(t / tau), tau = v_t / g; with
