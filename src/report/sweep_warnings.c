@@ -134,12 +134,10 @@ static void row_label(writer *w, const plumb_sweep *sw, size_t r, char *buf, siz
     size_t len = 0;
     buf[0] = '\0';
     for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
-        const plumb_range *ax = plumb_sweep_axis(sw, a);
-        const char *u = unit_shown(w, ax->unit);
+        const char *u = plumbp_sweep_axis_unit(w, sw, a);
+        double x = plumbp_sweep_row_shown(w, sw, plumb_sweep_row_at(sw, r), a);
         int k = snprintf(buf + len, size - len, "%s%s%s%s", a ? ", " : "",
-                         plumbp_gnum(w, plumbp_sweep_row_value(sw, plumb_sweep_row_at(sw, r), a),
-                                     8),
-                         u[0] ? " " : "", u);
+                         plumbp_sweep_num(w, sw, a, x, 8), u[0] ? " " : "", u);
         if (k < 0 || (size_t)k >= size - len)
             return;
         len += (size_t)k;
