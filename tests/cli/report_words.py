@@ -128,9 +128,17 @@ runs = [
 for args in runs:
     for fmt in ("text", "csv"):
         rc, out, err = plumb(*args, "--format", fmt)
-        odd = [s for s in ("m^2", "m2 ", "m2,", "m2)", "sq m", "m**2") if s in out]
+        # a CSV header names its columns with ASCII unit suffixes, as
+        # density_kg_m3 does (the sweep's varied key: descent.area_m2);
+        # only the rest is checked for the spelling of a figure's unit
+        head = next((l for l in out.splitlines() if not l.startswith("#")), "")
+        body = out.replace(head, "", 1) if fmt == "csv" else out
+        odd = [s for s in ("m^2", "m2 ", "m2,", "m2)", "sq m", "m**2") if s in body]
+        if fmt == "csv" and args[0] == "sweep":
+            check(head.startswith("descent.area_m2,item_number,"),
+                  f"sweep csv: the varied area's column is descent.area_m2: {head[:40]!r}")
         # fall and zone CSV name no area; everything else shows one
-        shown = "m²" in out or (fmt == "csv" and args[0] in ("fall", "zone"))
+        shown = "m²" in out or (fmt == "csv" and args[0] in ("fall", "zone", "sweep"))
         check(rc == 0 and shown and not odd,
               f"{' '.join(args[:1])} {fmt}: square metres spelt {odd} ({err.strip()})")
 
