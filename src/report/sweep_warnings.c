@@ -118,8 +118,8 @@ void plumbp_sweep_csv_warnings(writer *w, const sweep_marks *m)
     size_t nr = plumb_sweep_row_count(m->sw);
     for (size_t d = 1; d <= m->n_distinct; d++) {
         char line[PLUMB_WARNING * 2 + 96];
-        snprintf(line, sizeof line, "warning %zu: %s (%zu of %zu rows)", d, sentence(m, d),
-                 rows_with(m, d), nr);
+        snprintf(line, sizeof line, "warning %zu: %s (%zu of %zu row%s)", d, sentence(m, d),
+                 rows_with(m, d), nr, plumbp_s(nr));
         csv_comment(w, line);
     }
 }
@@ -195,7 +195,11 @@ void plumbp_sweep_text_warnings(writer *w, const sweep_marks *m, int marked)
         char line[PLUMB_WARNING * 2 + sizeof rows + 16];
         size_t n = rows_with(m, d), len = 0, listed = 0, in_list = 0;
         if (n == nr) {
-            snprintf(rows, sizeof rows, "all %zu rows", nr);
+            /* "all 4 rows", "the one row" */
+            if (nr == 1)
+                snprintf(rows, sizeof rows, "the one row");
+            else
+                snprintf(rows, sizeof rows, "all %zu rows", nr);
         } else {
             snprintf(rows, sizeof rows, "%zu of %zu rows: ", n, nr);
             len = strlen(rows);

@@ -7,7 +7,9 @@ they computed"):
     a zone's ellipse when every sample lands on one point (text "none",
     CSV empty, JSON null);
   - one spelling of square metres ("m²") in text and CSV, whatever the
-    user typed ("m^2", "m2").
+    user typed ("m^2", "m2");
+  - a count of one takes the singular: "1 step", "1 sample", never
+    "1 steps" (English grammar).
 Sources: a fall with no wind and no release velocity has no horizontal
 motion, so no drift and no direction (closed form: x(t) = 0); the SI
 brochure (BIPM, 9th edition, 2019, section 5.4.3) writes the square metre
@@ -18,6 +20,7 @@ import csv
 import io
 import json
 import os
+import re
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
@@ -141,5 +144,23 @@ for args in runs:
         shown = "m²" in out or (fmt == "csv" and args[0] in ("fall", "zone", "sweep"))
         check(rc == 0 and shown and not odd,
               f"{' '.join(args[:1])} {fmt}: square metres spelt {odd} ({err.strip()})")
+
+# ---- one, not "1 steps" ---------------------------------------------------------
+# a fall of 1 cm takes the solver one step; a zone of 1 sample is refused
+# saying so; a sweep of one value says "one value"
+ONE = r"(?<![\d.])1 (step|sample|row|value|draw|evaluation|device|item|error|fall|time)s\b"
+for args in [("fall", THROWN, "--set", "release.height=0.01m"),
+             ("fall", THROWN, "--set", "release.height=0.01m", "--units", "us"),
+             ("zone", THROWN, "--samples", "1", "--set",
+              "uncertainty={payload.drag.cd: {uniform: [0.7, 0.9]}}"),
+             ("sweep", THROWN, "--vary", "release.height=2m:2m:1m"),
+             ("sweep", THROWN, "--vary", "release.height=2m:2m:1m", "--format", "csv"),
+             ("sweep", THROWN, "--vary", "release.height=2m:2m:1m", "--units", "us")]:
+    rc, out, err = plumb(*args)
+    found = re.findall(ONE, " ".join((out + err).split()))
+    check(rc in (0, 2) and (out or err) and not found,
+          f"{' '.join(args[:1] + args[2:])}: a plural after one: {found} (exit {rc})")
+rc, out, err = plumb("fall", THROWN, "--set", "release.height=0.01m")
+check(rc == 0 and re.search(r"solver +\w+, 1 step, ", out), "fall of 1 cm: '1 step,'")
 
 finish()
