@@ -145,6 +145,26 @@ for args in runs:
         check(rc == 0 and shown and not odd,
               f"{' '.join(args[:1])} {fmt}: square metres spelt {odd} ({err.strip()})")
 
+# ---- a per-item warning: no capital after a colon ------------------------------
+# "cable tie bundle: Plate-like: ..." put a sentence's capital after a colon;
+# the sentence is given whole and the items it is about after it, in
+# brackets, as the sweep's Warnings give rows and items (README.md "plumb
+# fall").
+KIT = os.path.join(os.path.dirname(os.path.dirname(HERE)), "profiles", "demo", "tower-kit.yaml")
+with open(KIT, encoding="utf-8") as f:
+    names = re.findall(r"^  - name: (.+?)\s*$", f.read(), re.M)
+for fmt in ("text", "csv"):
+    rc, out, err = plumb("fall", KIT, "--format", fmt)
+    lines = out.split("\nWarnings\n", 1)[-1].split("\n\n")[0].split("\n  - ") \
+        if fmt == "text" else [l for l in out.splitlines() if l.startswith("# warning: ")]
+    flat_lines = [" ".join(l.split()) for l in lines]
+    colon_cap = [l for l in flat_lines for n in names if re.search(re.escape(n) + r": [A-Z]", l)]
+    check(rc == 0 and len(names) >= 3 and not colon_cap,
+          f"fall {fmt}: an item's name then a capital after a colon: {colon_cap[:2]}")
+    check(any(re.search(r"is used\. \([^()]*" + re.escape(names[4]) + r"\)$", l)
+              for l in flat_lines),
+          f"fall {fmt}: the items after the sentence, in brackets: {flat_lines[:2]}")
+
 # ---- one, not "1 steps" ---------------------------------------------------------
 # a fall of 1 cm takes the solver one step; a zone of 1 sample is refused
 # saying so; a sweep of one value says "one value"
