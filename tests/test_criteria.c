@@ -328,7 +328,7 @@ static void test_bundled_criteria_are_never_rounded_toward_the_lenient_side(void
     }
     assert_null(plumb_criteria_find(set, "z89-type2-31j"));
     /* Nor does an id show a figure above its limit: "ddesb-fragment-79j"
-     * named a 78.64 J (58 ft lbf) limit. An id ending in <N>j has N <= the
+     * named a 78.637 J (58 ft lbf) limit. An id ending in <N>j has N <= the
      * limit in J; the old id is unknown, with the new one suggested. */
     for (size_t i = 0; i < plumb_criteria_count(set); i++) {
         const plumb_criterion *c = plumb_criteria_get(set, i);

@@ -290,6 +290,26 @@ static void test_a_row_that_never_lands_is_that_rows_error(void **state)
     assert_string_equal(d.file, "--vary");
     assert_string_equal(d.key, "release.height");
     plumb_trajectory_free(traj);
+
+    /* No row computed, the first for its input (-2 m: release.height must
+     * be > 0, README.md "Profile keys") and the others because their falls
+     * failed (a step budget of 3 steps, too few for a fall of metres): the
+     * sweep failed as a computation, whichever way the range runs (README.md
+     * "plumb sweep": exit 2 only when every row's input is at fault). */
+    plumb_trajectory_options topt;
+    plumb_trajectory_options_init(&topt);
+    topt.max_steps = 3;
+    assert_int_equal(plumb_trajectory_alloc(&topt, &traj), PLUMB_OK);
+    const char *mixed[] = {"release.height=-2m:10m:4m", "release.height=10m:-2m:-4m"};
+    for (size_t k = 0; k < 2; k++) {
+        assert_int_equal(plumb_range_parse_key(units, mixed[k], &r, &d), PLUMB_OK);
+        plumb_diag_clear(&d);
+        plumb_status st = plumb_sweep_run(p, units, crit, &r, 1, traj, &s, &d);
+        assert_null(s);
+        assert_false(plumb_status_is_input_error(st));
+        assert_false(plumb_status_is_input_error(d.status));
+    }
+    plumb_trajectory_free(traj);
     plumb_criteria_free(crit);
     plumb_profile_free(p);
 }

@@ -8,8 +8,9 @@
  * The values and their sources: U.S. Standard Atmosphere 1976
  * (NOAA-S/T 76-1562, Table I and Table 2, transcribed), WGS 84 normal
  * gravity (NIMA TR8350.2, eq. 4-1, transcribed), Morrison's sphere drag
- * (F. A. Morrison, An Introduction to Fluid Mechanics, CUP 2013,
- * transcribed), the closed forms of a fall in constant air (v_t =
+ * (F. A. Morrison, "Data Correlation for Drag Coefficient for Sphere",
+ * Michigan Technological University, 2010, eq. (1), the correlation
+ * plumb uses: physics/drag.c; transcribed), the closed forms of a fall in constant air (v_t =
  * sqrt(2 m g / (rho Cd A)), v(y) = v_t sqrt(1 - exp(-2 g y / v_t^2)), and
  * without drag v = sqrt(2 g h), t = sqrt(2 h / g)), and Pflanz's
  * force-reduction factor X_1 from its closed form (Knacke, NWC TP 6575,

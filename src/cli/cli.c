@@ -229,6 +229,15 @@ static int cli_unknown_option(const char *cmd, const char *arg, unsigned accept,
     return cli_usage_error(cmd, "unknown option '%s'", arg);
 }
 
+/* "--samples may be given once, found '100' and '200'": an option that
+ * takes one value, given again. Last-wins would drop the first value in
+ * silence (a second -o, a report the user asked for); returns 2. */
+static int cli_repeated(const char *cmd, const char *name, const char *first,
+                        const char *second)
+{
+    return cli_usage_error(cmd, "%s may be given once, found '%s' and '%s'", name, first, second);
+}
+
 /* The report formats a file name's extension names (case ignored); the
  * sheet's PDF is NAME_PDF. */
 #define NAME_PDF (-1)
@@ -270,6 +279,14 @@ static int output_name_format(const char *path)
     return -1;
 }
 
+int cli_profile_name(const char *path)
+{
+    const char *base = strrchr(path, '/');
+    base = base ? base + 1 : path;
+    const char *dot = strrchr(base, '.');
+    return dot && dot != base && (strcasecmp(dot + 1, "yaml") == 0 || strcasecmp(dot + 1, "yml") == 0);
+}
+
 /* -o's name and the format agree: a .json, .csv, .txt (or .geojson) name
  * chooses the format when --format is not given, and contradicts one that
  * is; a command that writes a PDF (no --format) refuses a report's
@@ -278,6 +295,13 @@ static int check_output_name(cli_args *a, unsigned accept, int format_given)
 {
     if (!a->output || strcmp(a->output, "-") == 0)
         return CLI_GO_ON;
+    if (cli_profile_name(a->output))
+        return cli_usage_error(a->cmd, "-o %s names a profile (.yaml, .yml): a report would "
+                               "overwrite it; give %s", a->output,
+                               !(accept & CLI_FORMAT) ? "a name ending in .pdf"
+                               : accept & CLI_GEOJSON ? "a name ending in .txt, .json, .csv or "
+                                                        ".geojson"
+                                                      : "a name ending in .txt, .json or .csv");
     int k = output_name_format(a->output);
     if (k < 0)
         return CLI_GO_ON;
@@ -317,6 +341,7 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
         return CLI_EXIT_FAILED;
     }
     int options_done = 0, format_given = 0;
+    const char *given[N_COMMON] = {NULL}; /* each common option's value, once given */
     for (int i = 1; i < argc; i++) {
         const char *arg = argv[i];
         if (options_done || arg[0] != '-' || strcmp(arg, "-") == 0) {
@@ -361,6 +386,14 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 return cli_usage_error(a->cmd, "%s needs a value (%s)", name, c->arg);
             }
             name = c->name; /* -o is --output from here on */
+            /* one value only: a second would silently replace the first */
+            if (c->takes_value && c->bit != CLI_SET) {
+                if (given[k]) {
+                    cli_args_free(a);
+                    return cli_repeated(a->cmd, c->alias ? c->alias : c->name, given[k], value);
+                }
+                given[k] = value;
+            }
         }
         for (size_t k = 0; !found && k < n_extra; k++) {
             cli_option *o = &extra[k];
@@ -372,6 +405,10 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 cli_args_free(a);
                 return cli_usage_error(a->cmd, "%s needs a value (%s)", name,
                                        o->arg ? o->arg : "see --help");
+            }
+            if (o->max == 0 && o->value) {
+                cli_args_free(a);
+                return cli_repeated(a->cmd, name, o->value, value);
             }
             if (o->max > 0 && o->n_values >= o->max) {
                 cli_args_free(a);
@@ -419,11 +456,6 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
                 return cli_usage_error(a->cmd, "--units must be si or us, found '%s'", value);
             }
         } else if (strcmp(name, "--output") == 0) {
-            if (a->output) { /* keeping the last would drop a report the user asked for */
-                cli_args_free(a);
-                return cli_usage_error(a->cmd, "-o may be given once, found '%s' and '%s'",
-                                       a->output, value);
-            }
             if (value[0] == '\0') {
                 cli_args_free(a);
                 return cli_usage_error(a->cmd, "%s needs a file name", arg[1] == 'o' ? "-o" : name);

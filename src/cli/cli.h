@@ -55,9 +55,9 @@ typedef struct cli_option {
     const char *name;        /* "--alt" */
     const char *arg;         /* its value in the help, "FROM:TO:STEP" */
     const char *help;        /* what it does; lines split by '\n' */
-    size_t max;              /* 0: may be given again, the last wins; n (at most
-                                CLI_OPTION_VALUES): at most n times, all kept */
-    const char *value;       /* the last value given, NULL until given; points into argv */
+    size_t max;              /* 0: given once (a second is refused, exit 2); n (at
+                                most CLI_OPTION_VALUES): at most n times, all kept */
+    const char *value;       /* the (last) value given, NULL until given; points into argv */
     const char *values[CLI_OPTION_VALUES]; /* with max > 0, every value, in order */
     size_t n_values;         /* how many times it was given */
 } cli_option;
@@ -89,7 +89,10 @@ typedef struct cli_command {
  * common options the subcommand takes; `extra` lists its own n_extra
  * options with values. `usage` is the subcommand's help text; --help
  * prints it on standard output, then an "Options:" list made from `extra`
- * and the accepted common options, so no option goes unlisted.
+ * and the accepted common options, so no option goes unlisted. An option
+ * that takes one value (every common one but --set; an extra one with max
+ * 0) given twice is a usage error naming it, never last-wins; so is an -o
+ * name ending in .yaml or .yml (cli_profile_name).
  * Returns CLI_GO_ON when the caller should carry on, else an exit status:
  * 0 after --help or --version, 2 after a usage error (already printed).
  * On CLI_GO_ON the caller owns *a and frees it with cli_args_free. */
@@ -241,6 +244,10 @@ void cli_rows_progress_step(void *user, size_t done, size_t total);
 /* 1 when path `out` is an existing file that is the same file as `in`
  * (0 when `in` is "-", standard input). */
 int cli_same_file(const char *out, const char *in);
+
+/* 1 when the name of path ends in .yaml or .yml (case ignored): a
+ * profile's name, which no report may be written to. */
+int cli_profile_name(const char *path);
 
 /* Writes into buf (size bytes) the path `rel` taken from the running
  * program's directory (/proc/self/exe); 0 when there is no such path or

@@ -221,7 +221,8 @@ static int samples_row(void *user, int pass, size_t index, const plumb_zone_samp
 
 /* ---- the run ---------------------------------------------------------------- */
 
-/* A side file (--samples-out, --regions-out) must not be the profile or -o. */
+/* A side file (--samples-out, --regions-out) must not be the profile, a
+ * profile's name (.yaml) or -o. */
 static int check_side(const cli_args *a, const char *opt, const char *file, const char *path)
 {
     if (!file)
@@ -230,6 +231,9 @@ static int check_side(const cli_args *a, const char *opt, const char *file, cons
         return cli_usage_error(a->cmd, "%s needs a file name", opt);
     if (cli_same_file(file, path))
         return cli_usage_error(a->cmd, "%s %s would overwrite the profile", opt, file);
+    if (cli_profile_name(file))
+        return cli_usage_error(a->cmd, "%s %s names a profile (.yaml, .yml): the CSV would "
+                               "overwrite it; give a name ending in .csv", opt, file);
     if (a->output && (strcmp(a->output, file) == 0 || cli_same_file(a->output, file)))
         return cli_usage_error(a->cmd, "-o and %s name the same file", opt);
     return CLI_GO_ON;

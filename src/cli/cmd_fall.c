@@ -15,7 +15,7 @@
 static const char usage[] =
     "Usage: plumb fall PROFILE [OPTIONS]\n"
     "The fall of the profile's payload from its release point: impact speed, energy\n"
-    "(J and ft-lbf), time, drift and bearing, momentum and angle, with a verdict for\n"
+    "(J and ft·lbf), time, drift and bearing, momentum and angle, with a verdict for\n"
     "each criterion the profile names (all criteria when it names none). An inventory\n"
     "profile (items:) gives one row per item and names the worst. PROFILE '-' is read\n"
     "from standard input.\n"

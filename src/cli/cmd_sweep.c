@@ -20,11 +20,12 @@ static const char usage[] =
     "  --vary release.height=2m:60m:2m     --vary wind.speed=0kn:25kn:5kn\n"
     "Every row is exactly what `plumb fall --set KEY=VALUE` gives for that value.\n"
     "PROFILE '-' is read from standard input.\n"
-    "A row that cannot be computed (a value out of range, a fall that never lands)\n"
-    "is reported with its value and why, and the other rows are still given.\n"
-    "Exit status: 0 done; 2 input error (a bad range, or no row can be computed for\n"
-    "one), nothing written; 3 the report is written but some rows could not be\n"
-    "computed, or no row could (then nothing is written).\n";
+    "A row that cannot be computed (a value out of range, an object that floats, a\n"
+    "fall that fails) is reported with its value and why, and the other rows are\n"
+    "still given.\n"
+    "Exit status: 0 done; 2 input error (a bad range, or every row's input at\n"
+    "fault), nothing written; 3 the report is written but some rows could not be\n"
+    "computed, or no row could and a fall failed (then nothing is written).\n";
 
 typedef struct sweep_job {
     plumb_report_options opt;

@@ -34,6 +34,13 @@ plumb_status plumbp_vraise(plumb_diag *diag, plumb_status status, const char *fi
 #define PLUMB_RAISE_AT(diag, status, file, line, col, key, ...) \
     plumbp_raise((diag), (status), (file), (line), (col), (key), __VA_ARGS__)
 
+/* The plural ending of a count's noun: "" for one, "s" otherwise ("1
+ * step", "41 steps"), for every message and report. Can't fail. */
+static inline const char *plumbp_s(size_t n)
+{
+    return n == 1 ? "" : "s";
+}
+
 /* Copies src into dst of size n, always NUL-terminated; returns dst. */
 char *plumbp_strlcpy(char *dst, const char *src, size_t n);
 

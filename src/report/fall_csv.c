@@ -17,8 +17,8 @@
 
 void plumbp_csv_warning_line(writer *w, const char *who, const char *text)
 {
-    char line[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 16];
-    snprintf(line, sizeof line, "warning: %s%s%s", who, who[0] ? ": " : "", text);
+    char joined[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 8], line[sizeof joined + 16];
+    snprintf(line, sizeof line, "warning: %s", plumbp_who_text(joined, sizeof joined, who, text));
     csv_comment(w, line);
 }
 

@@ -390,8 +390,9 @@ static void text_inputs(writer *w, const plumb_item_report *it, const plumb_prof
 static void text_solver(writer *w, const plumb_item_report *it)
 {
     const plumb_solver_stats *st = &it->result.solver;
-    put(w, "  solver      %s, %zu steps, %zu right-hand-side evaluations\n",
-        st->method ? st->method : "unknown", st->steps, st->rhs_evaluations);
+    put(w, "  solver      %s, %zu step%s, %zu right-hand-side evaluation%s\n",
+        st->method ? st->method : "unknown", st->steps, plumbp_s(st->steps), st->rhs_evaluations,
+        plumbp_s(st->rhs_evaluations));
 }
 
 void plumbp_text_profile(writer *w, const plumb_profile *p)
@@ -661,8 +662,8 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         evals += rep->items[i].result.solver.rhs_evaluations;
     }
     const char *method = first->result.solver.method;
-    put(w, "  solver      %s, %zu steps, %zu right-hand-side evaluations in all\n",
-        method ? method : "unknown", steps, evals);
+    put(w, "  solver      %s, %zu step%s, %zu right-hand-side evaluation%s in all\n",
+        method ? method : "unknown", steps, plumbp_s(steps), evals, plumbp_s(evals));
     plumbp_text_profile(w, rep->profile);
     plumbp_caution_lines_text(w);
 }

@@ -132,4 +132,12 @@ const char *plumbp_landing_open(const plumb_zone_result *r, char *out, size_t si
  * after it ("5.0 kg [11.0 lb] striker"). Returns buf. */
 const char *plumbp_t_source(writer *w, const plumb_criterion *c, char *buf, size_t size);
 
+/* A warning and the items it is about into buf (size bytes): the
+ * sentence whole, then the items in brackets, "The shape's aspect ratio
+ * ... is used. (torque wrench, cable tie bundle)", as the sweep's Warnings
+ * give the rows and items after the sentence; "who: The ..." put a
+ * capital after a colon. Just text when who is "". Returns buf. Defined
+ * in report.c. */
+const char *plumbp_who_text(char *buf, size_t size, const char *who, const char *text);
+
 #endif /* PLUMB_REPORT_FORMAT_H */

@@ -274,11 +274,16 @@ void plumbp_each_warning(writer *w, const plumb_fall_report *rep, warning_fn fn)
     plumbp_said_free(s, n);
 }
 
+const char *plumbp_who_text(char *buf, size_t size, const char *who, const char *text)
+{
+    snprintf(buf, size, who[0] ? "%s (%s)" : "%s", text, who);
+    return buf;
+}
+
 void plumbp_text_warning_line(writer *w, const char *who, const char *text)
 {
     char line[PLUMB_NAME * 4 + PLUMB_WARNING * 2 + 8];
-    snprintf(line, sizeof line, "%s%s%s", who, who[0] ? ": " : "", text);
-    wrapped(w, "  - ", line);
+    wrapped(w, "  - ", plumbp_who_text(line, sizeof line, who, text));
 }
 
 /* ---- output: all or nothing ---------------------------------------------- */

@@ -15,9 +15,10 @@ enum { REASON_TEXT = PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16 };
 /* A two-way sweep as its boundary: for each value of the first input and
  * each criterion, the value of the second at which the limit is reached
  * (plumb_sweep_find_boundaries). The full figures are in CSV and JSON. */
-static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const plumb_range *a1,
+static const char *boundary_cell(writer *w, const plumb_sweep *sw, const plumb_sweep_boundary *b,
                                  int *beyond)
 {
+    const plumb_range *a1 = plumb_sweep_axis(sw, 1);
     if (!b || b->status != PLUMB_OK)
         return "-";
     switch (b->outcome) {
@@ -28,8 +29,11 @@ static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const
         *beyond |= out;
         /* rounded to the side that keeps within the limit, as plumb limit
          * gives it: down for "up to", up for "from" */
+        /* in the unit of the table's column (plumbp_sweep_si_shown); a
+         * scale of the opposite sign (none so far) would round the other way */
+        double x = plumbp_sweep_si_shown(w, sw, 1, b->value, b->value_si);
         snprintf(c, NUMBUF, "%s %s%s", b->limit_is_upper_bound ? "up to" : "from",
-                 plumbp_gnum(w, plumbp_round_safe(b->value, 4, b->limit_is_upper_bound), 4),
+                 plumbp_sweep_num(w, sw, 1, plumbp_round_safe(x, 4, b->limit_is_upper_bound), 4),
                  out ? "*" : "");
         return c;
     }
@@ -38,6 +42,13 @@ static const char *boundary_cell(writer *w, const plumb_sweep_boundary *b, const
     case PLUMB_LIMIT_IMPOSSIBLE: return "exceeded throughout";
     default: return "n/a";
     }
+}
+
+/* Value i of the first input as the table shows it. */
+static const char *first_value(writer *w, const plumb_sweep *sw, size_t i)
+{
+    const plumb_sweep_row *row = plumb_sweep_row_at(sw, i * plumb_sweep_axis(sw, 1)->n);
+    return plumbp_sweep_num(w, sw, 0, plumbp_sweep_row_shown(w, sw, row, 0), 8);
 }
 
 /* The number of boundaries with an answer. */
@@ -157,12 +168,13 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
         put(w, "Every row's figures are in --format csv and --format json.\n");
         return;
     }
+    const char *u0 = plumbp_sweep_axis_unit(w, sw, 0), *u1 = plumbp_sweep_axis_unit(w, sw, 1);
     snprintf(text, sizeof text,
              "Where each limit is reached%s: the %s%s%s%s at which the impact energy "
              "equals the criterion's limit, for each %s%s%s%s (plumb limit's solver); within "
              "the limit up to or from that value.", who,
-             a1->key, a1->unit[0] ? " (" : "", unit_shown(w, a1->unit), a1->unit[0] ? ")" : "",
-             a0->key, a0->unit[0] ? " (" : "", unit_shown(w, a0->unit), a0->unit[0] ? ")" : "");
+             a1->key, u1[0] ? " (" : "", u1, u1[0] ? ")" : "",
+             a0->key, u0[0] ? " (" : "", u0, u0[0] ? ")" : "");
     put(w, "\n");
     wrapped(w, "", text);
     /* Columns headed C1..Cn as in the legend below; each as wide as its
@@ -180,7 +192,7 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
         wc[k] = shown_width(head[k]);
         for (size_t i = 0; i < a0->n; i++) {
             int dummy = 0;
-            size_t cw = shown_width(boundary_cell(w, plumb_sweep_boundary_at(sw, i, k), a1, &dummy));
+            size_t cw = shown_width(boundary_cell(w, sw, plumb_sweep_boundary_at(sw, i, k), &dummy));
             if (cw > wc[k])
                 wc[k] = cw;
         }
@@ -195,9 +207,11 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
     if (shown_width(khead) + wc_max + SWEEP_GAP > TABLE_WIDTH)
         khead = key_last_part(khead);
     size_t wk = shown_width(khead) > SWEEP_KEY_COL ? shown_width(khead) : SWEEP_KEY_COL;
+    /* the first input's values, each from the first row of its value (row
+     * i * a1->n: the first range varies slowest) */
     for (size_t i = 0; i < a0->n; i++)
-        if (shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8)) > wk)
-            wk = shown_width(plumbp_gnum(w, plumb_range_value(a0, i), 8));
+        if (shown_width(first_value(w, sw, i)) > wk)
+            wk = shown_width(first_value(w, sw, i));
     for (size_t k0 = 0; k0 < nc;) {
         size_t k1 = k0, used = wk;
         while (k1 < nc && (k1 == k0 || used + wc[k1] + SWEEP_GAP <= TABLE_WIDTH))
@@ -209,19 +223,22 @@ void plumbp_sweep_text_boundary(writer *w, const plumb_sweep *sw)
             pad(w, head[k], wc[k] + SWEEP_GAP, 1);
         put(w, "\n");
         for (size_t i = 0; i < a0->n; i++) {
-            pad(w, plumbp_gnum(w, plumb_range_value(a0, i), 8), wk, 1);
+            pad(w, first_value(w, sw, i), wk, 1);
             for (size_t k = k0; k < k1; k++) {
                 const plumb_sweep_boundary *b = plumb_sweep_boundary_at(sw, i, k);
                 missing |= !b || b->status != PLUMB_OK;
-                pad(w, boundary_cell(w, b, a1, &beyond), wc[k] + SWEEP_GAP, 1);
+                pad(w, boundary_cell(w, sw, b, &beyond), wc[k] + SWEEP_GAP, 1);
             }
             put(w, "\n");
         }
         k0 = k1;
     }
-    if (beyond)
-        put(w, "  * = beyond the range swept (%s to %s)\n", plumbp_gnum(w, a1->from, 8),
-            plumbp_gnum(w, a1->to, 8));
+    if (beyond) { /* the second input's first and last values: rows 0 and a1->n - 1 */
+        const plumb_sweep_row *lo = plumb_sweep_row_at(sw, 0), *hi = plumb_sweep_row_at(sw, a1->n - 1);
+        put(w, "  * = beyond the range swept (%s to %s)\n",
+            plumbp_sweep_num(w, sw, 1, plumbp_sweep_row_shown(w, sw, lo, 1), 8),
+            plumbp_sweep_num(w, sw, 1, plumbp_sweep_row_shown(w, sw, hi, 1), 8));
+    }
     if (missing)
         missing_reasons(w, sw, nc);
     put(w, "Every row's figures are in --format csv and --format json.\n");

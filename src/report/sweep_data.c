@@ -3,6 +3,7 @@
  * CSV, one line per row and item, and JSON, every row with its values and
  * its fall report or its error.
  */
+#include <ctype.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -10,6 +11,69 @@
 
 #include "report/common.h"
 #include "report/sweep_int.h"
+
+/* A unit as the end of a CSV header, as every other header ends
+ * (speed_m_s, energy_ft_lbf, density_lb_ft3, temperature_degf): lower
+ * case, "°" as "deg", "²" and "³" as 2 and 3, any other mark between
+ * words one '_'. "" for no unit. */
+static void csv_unit_suffix(const char *u, char *buf, size_t size)
+{
+    size_t n = 0;
+    int gap = 0;
+    for (const unsigned char *p = (const unsigned char *)u; *p && n + 4 < size;) {
+        const char *put_s = NULL;
+        size_t skip = 1;
+        if (p[0] == 0xC2 && p[1] == 0xB0)
+            put_s = "deg", skip = 2;
+        else if (p[0] == 0xC2 && p[1] == 0xB2)
+            put_s = "2", skip = 2;
+        else if (p[0] == 0xC2 && p[1] == 0xB3)
+            put_s = "3", skip = 2;
+        else if (isalnum(*p))
+            put_s = NULL;
+        else if (*p == '^')
+            put_s = "";
+        else
+            put_s = "_";
+        if (put_s && strcmp(put_s, "_") == 0) {
+            gap = n > 0;
+        } else {
+            if (gap)
+                buf[n++] = '_';
+            gap = 0;
+            if (put_s)
+                for (const char *q = put_s; *q && n + 1 < size; q++)
+                    buf[n++] = *q;
+            else
+                buf[n++] = (char)tolower(*p);
+        }
+        while (skip-- > 0 && *p)
+            p++;
+    }
+    buf[n] = '\0';
+}
+
+/* The header of a varied key's column: "release.height_ft", the key and
+ * its unit's suffix (csv_unit_suffix), then the comma. */
+static void csv_key_head(writer *w, const char *key, const char *unit)
+{
+    char suffix[PLUMB_UNIT_TEXT * 2], text[PLUMB_DIAG_KEY + sizeof suffix + 2];
+    csv_unit_suffix(unit, suffix, sizeof suffix);
+    snprintf(text, sizeof text, "%s%s%s", key, suffix[0] ? "_" : "", suffix);
+    csv_field(w, text);
+    put(w, ",");
+}
+
+/* A row's varied values: each as the text shows it (the report's units),
+ * then as typed when that is another unit (plumbp_sweep_axis_as_typed). */
+static void csv_key_cells(writer *w, const plumb_sweep *sw, const plumb_sweep_row *row)
+{
+    for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
+        put(w, "%s,", csvnum(w, plumbp_sweep_row_shown(w, sw, row, a)));
+        if (!plumbp_sweep_axis_as_typed(w, sw, a))
+            put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
+    }
+}
 
 void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
 {
@@ -40,10 +104,9 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
     }
     for (size_t a = 0; a < na; a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
-        snprintf(text, sizeof text, "%s%s%s", ax->key, ax->unit[0] ? " " : "",
-                 unit_shown(w, ax->unit));
-        csv_field(w, text);
-        put(w, ",");
+        csv_key_head(w, ax->key, plumbp_sweep_axis_unit(w, sw, a));
+        if (!plumbp_sweep_axis_as_typed(w, sw, a))
+            csv_key_head(w, ax->key, unit_shown(w, ax->unit));
     }
     size_t n_cols = plumbp_csv_header_cols(w, first);
     put(w, ",warnings,error\n");
@@ -51,8 +114,7 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         if (row->status != PLUMB_OK) {
             char why[PLUMB_DIAG_FILE + PLUMB_DIAG_KEY + PLUMB_DIAG_MSG + 16];
-            for (size_t a = 0; a < na; a++)
-                put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
+            csv_key_cells(w, sw, row);
             for (size_t c = 0; c < n_cols + 1; c++) /* the figures, then no warnings */
                 put(w, ",");
             plumbp_sweep_row_error(row, why, sizeof why);
@@ -61,8 +123,7 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
             continue;
         }
         for (size_t it = 0; it < row->report.n_items; it++) {
-            for (size_t a = 0; a < na; a++)
-                put(w, "%s,", csvnum(w, plumbp_sweep_row_value(sw, row, a)));
+            csv_key_cells(w, sw, row);
             plumbp_csv_item_cols(w, &row->report.items[it],
                                  plumb_profile_item_number(row->report.profile, it));
             char mark[128]; /* this row's and item's warnings by number, "1;3" */

@@ -23,6 +23,25 @@ enum {
  * as the bearing it is (0 to 360 deg), any other value as it is. */
 double plumbp_sweep_row_value(const plumb_sweep *sw, const plumb_sweep_row *row, size_t a);
 
+/* How a varied value is shown in text and CSV: in the unit the range was
+ * typed in when that is the report's unit for the key (the same numbers),
+ * else in the report's unit (plumbp_show_key: a US report is US
+ * throughout, ft for a height typed in m, mph for a wind typed in kn);
+ * the values as typed stay in the text's range line, in a CSV column of
+ * their own and in JSON's values_as_given. plumbp_sweep_axis_as_typed
+ * says which; plumbp_sweep_axis_unit is the unit shown;
+ * plumbp_sweep_si_shown a value (typed, and si, the same in SI) as shown;
+ * plumbp_sweep_row_shown row's; plumbp_sweep_num a shown value: with
+ * `sig` significant digits as typed; converted, with as many as keep the
+ * steps apart (at least TEXT_SIG: a converted value is no exact input). */
+int plumbp_sweep_axis_as_typed(const writer *w, const plumb_sweep *sw, size_t a);
+const char *plumbp_sweep_axis_unit(writer *w, const plumb_sweep *sw, size_t a);
+double plumbp_sweep_si_shown(const writer *w, const plumb_sweep *sw, size_t a, double typed,
+                             double si);
+double plumbp_sweep_row_shown(const writer *w, const plumb_sweep *sw, const plumb_sweep_row *row,
+                              size_t a);
+const char *plumbp_sweep_num(writer *w, const plumb_sweep *sw, size_t a, double x, int sig);
+
 /* sweep_warnings.c: the warnings of every row and item (said_warning,
  * in row order), each sentence numbered from 1 in order of first
  * appearance. */

@@ -57,11 +57,6 @@ shown plumbp_show_dim(const writer *w, plumb_dim dim, double si)
     }
 }
 
-/* 1 when `key` (in any written form: items[N].shape.length,
- * payload.shape.edges[1]) is a size of the body itself: a shape's
- * diameter, length, edges or thickness, or a sphere drag model's
- * diameter. A canopy's diameter is not: it is sized with its area. */
-
 /* Axis a's value v as shown: a direction swept through north (wind.from
  * NW:NE:22.5deg runs 315 to 405 deg, io/vary.h) as the bearing it is, from
  * 0 to 360 deg; any other value as it is. */
@@ -77,6 +72,10 @@ double plumbp_sweep_row_value(const plumb_sweep *sw, const plumb_sweep_row *row,
 {
     return shown_value(plumb_sweep_axis(sw, a), row->value[a]);
 }
+/* 1 when `key` (in any written form: items[N].shape.length,
+ * payload.shape.edges[1]) is a size of the body itself: a shape's
+ * diameter, length, edges or thickness, or a sphere drag model's
+ * diameter. A canopy's diameter is not: it is sized with its area. */
 static int body_size_key(const char *key)
 {
     const plumbp_key *k = plumbp_key_find(key, NULL, NULL);
@@ -97,6 +96,90 @@ shown plumbp_show_key(const writer *w, const char *key, plumb_dim dim, double si
     return plumbp_show_dim(w, dim, si);
 }
 
+
+/* ---- the varied values as shown ------------------------------------------ */
+
+/* A varied value in the report's units (plumbp_show_key, as `plumb limit`
+ * gives its answer): a US report is US throughout, whatever unit the
+ * range was typed in. A direction keeps to 0 .. 360 deg. */
+static shown axis_display(const writer *w, const plumb_range *ax, double si)
+{
+    shown v = plumbp_show_key(w, ax->key, ax->dim, si);
+    if (plumbp_key_is_direction(ax->key) && ax->dim == PLUMB_DIM_ANGLE) {
+        v.x = fmod(v.x, 360.0);
+        v.x += v.x < 0.0 ? 360.0 : 0.0;
+    }
+    return v;
+}
+
+/* 1 when the display value of `si` is `typed` itself (to 1e-12): the
+ * range was typed in the unit the report shows, in any spelling. */
+static int same_number(const writer *w, const plumb_range *ax, double typed, double si)
+{
+    double x = axis_display(w, ax, si).x, t = shown_value(ax, typed);
+    double scale = fabs(t) > 1.0 ? fabs(t) : 1.0;
+    return fabs(x - t) <= 1e-12 * scale;
+}
+
+int plumbp_sweep_axis_as_typed(const writer *w, const plumb_sweep *sw, size_t a)
+{
+    const plumb_range *ax = plumb_sweep_axis(sw, a);
+    size_t nr = plumb_sweep_row_count(sw);
+    if (!ax->unit[0] || nr == 0)
+        return 1;
+    /* the first row holds every range's FROM, the last every range's last
+     * value: two values of each range (one when it has one) */
+    const plumb_sweep_row *first = plumb_sweep_row_at(sw, 0), *last = plumb_sweep_row_at(sw, nr - 1);
+    return same_number(w, ax, first->value[a], first->value_si[a]) &&
+           same_number(w, ax, last->value[a], last->value_si[a]);
+}
+
+const char *plumbp_sweep_axis_unit(writer *w, const plumb_sweep *sw, size_t a)
+{
+    const plumb_range *ax = plumb_sweep_axis(sw, a);
+    if (plumbp_sweep_axis_as_typed(w, sw, a))
+        return unit_shown(w, ax->unit);
+    return axis_display(w, ax, 0.0).unit;
+}
+
+double plumbp_sweep_si_shown(const writer *w, const plumb_sweep *sw, size_t a, double typed,
+                             double si)
+{
+    const plumb_range *ax = plumb_sweep_axis(sw, a);
+    return plumbp_sweep_axis_as_typed(w, sw, a) ? shown_value(ax, typed) : axis_display(w, ax, si).x;
+}
+
+double plumbp_sweep_row_shown(const writer *w, const plumb_sweep *sw, const plumb_sweep_row *row,
+                              size_t a)
+{
+    return plumbp_sweep_si_shown(w, sw, a, row->value[a], row->value_si[a]);
+}
+
+/* Significant digits of a converted range: enough that its steps stay
+ * apart (2 beyond the ratio of its largest value to its step), at least
+ * TEXT_SIG, at most CSV_DIGITS. */
+static int converted_sig(const writer *w, const plumb_sweep *sw, size_t a)
+{
+    const plumb_range *ax = plumb_sweep_axis(sw, a);
+    size_t nr = plumb_sweep_row_count(sw);
+    if (ax->n < 2 || nr == 0)
+        return TEXT_SIG;
+    double x0 = axis_display(w, ax, plumb_sweep_row_at(sw, 0)->value_si[a]).x;
+    double x1 = axis_display(w, ax, plumb_sweep_row_at(sw, nr - 1)->value_si[a]).x;
+    double step = fabs(x1 - x0) / (double)(ax->n - 1);
+    double big = fabs(x0) > fabs(x1) ? fabs(x0) : fabs(x1);
+    if (!(step > 0.0) || !(big > 0.0))
+        return TEXT_SIG;
+    double sig = ceil(log10(big / step)) + 2.0;
+    return sig < TEXT_SIG ? TEXT_SIG : sig > CSV_DIGITS ? CSV_DIGITS : (int)sig;
+}
+
+const char *plumbp_sweep_num(writer *w, const plumb_sweep *sw, size_t a, double x, int sig)
+{
+    if (plumbp_sweep_axis_as_typed(w, sw, a))
+        return plumbp_gnum(w, x, sig);
+    return plumbp_gnum(w, x, converted_sig(w, sw, a));
+}
 
 /* "C1".."Cn" legend of the criteria a row was judged against. */
 static void text_criteria_legend(writer *w, const plumb_item_report *first)
@@ -273,7 +356,7 @@ static void sweep_heads(writer *w, const plumb_sweep *sw, const sweep_cols *c,
                         const key_head *kh, int line)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, line == 2 ? unit_shown(w, plumb_sweep_axis(sw, a)->unit) : kh[a].line[kh[a].n - 1],
+        pad(w, line == 2 ? plumbp_sweep_axis_unit(w, sw, a) : kh[a].line[kh[a].n - 1],
             c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (c->inv && !c->own_line) {
         put(w, "  ");
@@ -321,7 +404,8 @@ static const char *sweep_lead(writer *w, const sweep_cols *c, const plumb_sweep_
                               size_t it, char *label, size_t size)
 {
     for (size_t a = 0; a < c->na; a++)
-        pad(w, it == 0 ? plumbp_gnum(w, plumbp_sweep_row_value(c->sw, row, a), 8) : "",
+        pad(w, it == 0 ? plumbp_sweep_num(w, c->sw, a, plumbp_sweep_row_shown(w, c->sw, row, a), 8)
+                       : "",
             c->wkey[a] + (a ? SWEEP_GAP : 1), 1);
     if (!c->inv)
         return "";
@@ -413,9 +497,10 @@ static void row_values(writer *w, const plumb_sweep *sw, const plumb_sweep_row *
     for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
         const plumb_range *ax = plumb_sweep_axis(sw, a);
         size_t len = strlen(b);
+        const char *u = plumbp_sweep_axis_unit(w, sw, a);
         snprintf(b + len, size - len, "%s%s = %s%s%s", a ? ", " : "", ax->key,
-                 plumbp_gnum(w, shown_value(ax, row->value[a]), 10), ax->unit[0] ? " " : "",
-                 unit_shown(w, ax->unit));
+                 plumbp_sweep_num(w, sw, a, plumbp_sweep_row_shown(w, sw, row, a), 10),
+                 u[0] ? " " : "", u);
     }
 }
 
@@ -436,6 +521,60 @@ static const char *row_mark(const sweep_marks *m, size_t i, size_t it, char *buf
     return plumbp_sweep_mark(m, i, it, "W", ",", buf, size);
 }
 
+/* "release.height from 20 to 60 m in steps of 20 m (3 values)"; a range
+ * in another unit than the report's is given in the report's, then as
+ * typed: "from 65.62 to 196.9 ft in steps of 65.62 ft (3 values; typed as
+ * 20 to 60 m in steps of 20 m)". A direction through north says which
+ * way it turns; a range whose steps stop short of TO says so; one value
+ * is "at 20 m (one value)". */
+static void range_line(writer *w, const plumb_sweep *sw, size_t a, char *line, size_t size)
+{
+    const plumb_range *ax = plumb_sweep_axis(sw, a);
+    size_t nr = plumb_sweep_row_count(sw);
+    double last = plumb_range_value(ax, ax->n - 1);
+    const char *tu = unit_shown(w, ax->unit), *tsp = tu[0] ? " " : "";
+    /* a direction through north: its bearings, and which way it turns */
+    int north = shown_value(ax, 360.0) == 0.0 && floor(ax->from / 360.0) != floor(last / 360.0);
+    const char *turn = !north ? "" : ax->step > 0.0 ? " clockwise through north"
+                                                    : " anticlockwise through north";
+    char typed[2 * PLUMB_UNIT_TEXT + NUMBUF * 4], shortof[PLUMB_UNIT_TEXT + NUMBUF + 32] = "";
+    if (last != ax->to)
+        snprintf(shortof, sizeof shortof, "; the steps stop short of %s%s%s",
+                 plumbp_gnum(w, ax->to, 10), tsp, tu);
+    if (ax->n == 1)
+        snprintf(typed, sizeof typed, "%s%s%s", plumbp_gnum(w, shown_value(ax, ax->from), 10),
+                 tsp, tu);
+    else
+        snprintf(typed, sizeof typed, "%s to %s%s%s%s in steps of %s%s%s",
+                 plumbp_gnum(w, shown_value(ax, ax->from), 10),
+                 plumbp_gnum(w, shown_value(ax, last), 10), tsp, tu, turn,
+                 plumbp_gnum(w, ax->step, 10), tsp, tu);
+    if (plumbp_sweep_axis_as_typed(w, sw, a)) {
+        if (ax->n == 1)
+            snprintf(line, size, "%s at %s (one value)%s", ax->key, typed, shortof);
+        else
+            snprintf(line, size, "%s from %s (%zu values)%s", ax->key, typed, ax->n, shortof);
+        return;
+    }
+    const char *u = plumbp_sweep_axis_unit(w, sw, a), *sp = u[0] ? " " : "";
+    const plumb_sweep_row *r0 = plumb_sweep_row_at(sw, 0), *rn = plumb_sweep_row_at(sw, nr - 1);
+    double x0 = plumbp_sweep_row_shown(w, sw, r0, a), x1 = plumbp_sweep_row_shown(w, sw, rn, a);
+    if (ax->n == 1) {
+        snprintf(line, size, "%s at %s%s%s (one value; typed as %s)%s", ax->key,
+                 plumbp_sweep_num(w, sw, a, x0, TEXT_SIG), sp, u, typed, shortof);
+        return;
+    }
+    /* the step from the values unwrapped, so a direction turning through
+     * north keeps its sign */
+    double step = (plumbp_show_key(w, ax->key, ax->dim, rn->value_si[a]).x -
+                   plumbp_show_key(w, ax->key, ax->dim, r0->value_si[a]).x) /
+                  (double)(ax->n - 1);
+    snprintf(line, size, "%s from %s to %s%s%s%s in steps of %s%s%s (%zu values; typed as %s)%s",
+             ax->key, plumbp_sweep_num(w, sw, a, x0, TEXT_SIG),
+             plumbp_sweep_num(w, sw, a, x1, TEXT_SIG), sp, u, turn,
+             plumbp_sweep_num(w, sw, a, step, TEXT_SIG), sp, u, ax->n, typed, shortof);
+}
+
 static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_sweep *sw)
 {
     size_t na = plumb_sweep_axis_count(sw), nr = plumb_sweep_row_count(sw);
@@ -445,23 +584,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     const plumb_item_report *first = &r0->report.items[0];
     plumbp_text_header(w, opt, "sweep", plumb_profile_name(p));
     for (size_t a = 0; a < na; a++) {
-        const plumb_range *ax = plumb_sweep_axis(sw, a);
-        double last = plumb_range_value(ax, ax->n - 1);
-        const char *u = unit_shown(w, ax->unit);
-        char line[PLUMB_DIAG_KEY + 2 * PLUMB_UNIT_TEXT + NUMBUF * 4];
-        /* wrapped: a long key (an item's name) must not run past the edge */
-        /* a direction through north: its bearings, and which way it turns */
-        int north = shown_value(ax, 360.0) == 0.0 &&
-                    floor(ax->from / 360.0) != floor(last / 360.0);
-        snprintf(line, sizeof line, "%s from %s to %s%s%s%s in steps of %s%s%s (%zu values)%s%s%s%s",
-                 ax->key, plumbp_gnum(w, shown_value(ax, ax->from), 10),
-                 plumbp_gnum(w, shown_value(ax, last), 10), u[0] ? " " : "", u,
-                 north ? (ax->step > 0.0 ? " clockwise through north"
-                                         : " anticlockwise through north") : "",
-                 plumbp_gnum(w, ax->step, 10), u[0] ? " " : "", u, ax->n,
-                 last != ax->to ? "; the steps stop short of " : "",
-                 last != ax->to ? plumbp_gnum(w, ax->to, 10) : "",
-                 last != ax->to && u[0] ? " " : "", last != ax->to ? u : "");
+        char line[PLUMB_DIAG_KEY + 4 * PLUMB_UNIT_TEXT + NUMBUF * 8];
+        range_line(w, sw, a, line, sizeof line);
         wrapped(w, a ? "  and " : "  over ", line);
     }
     put(w, "\n");
@@ -481,10 +605,9 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     const char *const *units = w->us ? units_us : units_si;
     sweep_key_heads(sw, na, khead);
     for (size_t a = 0; a < na; a++) {
-        const plumb_range *ax = plumb_sweep_axis(sw, a);
         wkey[a] = key_head_width(&khead[a]);
-        if (shown_width(unit_shown(w, ax->unit)) > wkey[a])
-            wkey[a] = shown_width(unit_shown(w, ax->unit));
+        if (shown_width(plumbp_sweep_axis_unit(w, sw, a)) > wkey[a])
+            wkey[a] = shown_width(plumbp_sweep_axis_unit(w, sw, a));
     }
     for (size_t k = 0; k < SWEEP_NUM_COLS; k++)
         wnum[k] = shown_width(heads[k]) > shown_width(units[k]) ? shown_width(heads[k])
@@ -494,9 +617,11 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
     size_t name_w = SWEEP_NAME_MIN;
     for (size_t i = 0; i < nr; i++) {
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
-        for (size_t a = 0; a < na; a++)
-            if (shown_width(plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8)) > wkey[a])
-                wkey[a] = shown_width(plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8));
+        for (size_t a = 0; a < na; a++) {
+            const char *v = plumbp_sweep_num(w, sw, a, plumbp_sweep_row_shown(w, sw, row, a), 8);
+            if (shown_width(v) > wkey[a])
+                wkey[a] = shown_width(v);
+        }
         for (size_t it = 0; it < row->report.n_items; it++) {
             const plumb_item_report *item = &row->report.items[it];
             char label[PLUMB_NAME + 24];
@@ -579,7 +704,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
         const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
         if (row->status != PLUMB_OK) {
             for (size_t a = 0; a < na; a++)
-                pad(w, plumbp_gnum(w, plumbp_sweep_row_value(sw, row, a), 8),
+                pad(w, plumbp_sweep_num(w, sw, a, plumbp_sweep_row_shown(w, sw, row, a), 8),
                     wkey[a] + (a ? SWEEP_GAP : 1), 1);
             put(w, "  not computed, see (%zu) below\n", ++n_failed);
             continue;

@@ -118,8 +118,8 @@ void plumbp_sweep_csv_warnings(writer *w, const sweep_marks *m)
     size_t nr = plumb_sweep_row_count(m->sw);
     for (size_t d = 1; d <= m->n_distinct; d++) {
         char line[PLUMB_WARNING * 2 + 96];
-        snprintf(line, sizeof line, "warning %zu: %s (%zu of %zu rows)", d, sentence(m, d),
-                 rows_with(m, d), nr);
+        snprintf(line, sizeof line, "warning %zu: %s (%zu of %zu row%s)", d, sentence(m, d),
+                 rows_with(m, d), nr, plumbp_s(nr));
         csv_comment(w, line);
     }
 }
@@ -134,12 +134,10 @@ static void row_label(writer *w, const plumb_sweep *sw, size_t r, char *buf, siz
     size_t len = 0;
     buf[0] = '\0';
     for (size_t a = 0; a < plumb_sweep_axis_count(sw); a++) {
-        const plumb_range *ax = plumb_sweep_axis(sw, a);
-        const char *u = unit_shown(w, ax->unit);
+        const char *u = plumbp_sweep_axis_unit(w, sw, a);
+        double x = plumbp_sweep_row_shown(w, sw, plumb_sweep_row_at(sw, r), a);
         int k = snprintf(buf + len, size - len, "%s%s%s%s", a ? ", " : "",
-                         plumbp_gnum(w, plumbp_sweep_row_value(sw, plumb_sweep_row_at(sw, r), a),
-                                     8),
-                         u[0] ? " " : "", u);
+                         plumbp_sweep_num(w, sw, a, x, 8), u[0] ? " " : "", u);
         if (k < 0 || (size_t)k >= size - len)
             return;
         len += (size_t)k;
@@ -197,7 +195,11 @@ void plumbp_sweep_text_warnings(writer *w, const sweep_marks *m, int marked)
         char line[PLUMB_WARNING * 2 + sizeof rows + 16];
         size_t n = rows_with(m, d), len = 0, listed = 0, in_list = 0;
         if (n == nr) {
-            snprintf(rows, sizeof rows, "all %zu rows", nr);
+            /* "all 4 rows", "the one row" */
+            if (nr == 1)
+                snprintf(rows, sizeof rows, "the one row");
+            else
+                snprintf(rows, sizeof rows, "all %zu rows", nr);
         } else {
             snprintf(rows, sizeof rows, "%zu of %zu rows: ", n, nr);
             len = strlen(rows);

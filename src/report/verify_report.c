@@ -12,14 +12,23 @@
 
 #include "report/common.h"
 
-/* "1.2250 kg/m^3": a figure to the digits that tell it from its
+/* A check's SI unit as the reports spell units, in text and CSV alike:
+ * "kg/m³", "m/s²" (unit_shown), and the product "Pa·s" as the air table
+ * writes it and as the US column writes "lbf·s/ft²". JSON keeps the
+ * check's own ASCII spelling. */
+static const char *check_unit(writer *w, const char *unit)
+{
+    return strcmp(unit, "Pa s") == 0 ? "Pa·s" : unit_shown(w, unit);
+}
+
+/* "1.2250 kg/m³": a figure to the digits that tell it from its
  * neighbour, with its unit; with `zeros`, trailing zeros kept, so that
  * figures side by side show the same number of digits. */
 static const char *figure_as(writer *w, double x, const char *unit, int digits, int zeros)
 {
     char *b = slot(w);
     snprintf(b, NUMBUF, zeros ? "%#.*g%s%s" : "%.*g%s%s", digits, x, unit[0] ? NBSP : "",
-             unit_shown(w, unit));
+             check_unit(w, unit));
     return b;
 }
 
@@ -113,7 +122,7 @@ static void csv_verify(writer *w, const plumb_check *c, size_t n)
         csv_field(w, c[i].name);
         put(w, ",%s,%s,%s,%s,", c[i].passed ? "true" : "false", csvnum(w, c[i].computed),
             csvnum(w, c[i].published), csvnum(w, c[i].tolerance));
-        csv_field(w, c[i].unit);
+        csv_field(w, check_unit(w, c[i].unit));
         put(w, ",");
         csv_field(w, c[i].source);
         put(w, ",");

@@ -195,8 +195,9 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
         const plumb_zone_result *r = rep->items[i].result;
         for (size_t k = 0; k < r->n_inputs; k++)
             if (r->inputs[k].truncated)
-                put(w, "# %s: %s: normal truncated to its range, %zu draws redrawn\n",
-                    rep->items[i].name, r->inputs[k].key, r->inputs[k].redraws);
+                put(w, "# %s: %s: normal truncated to its range, %zu draw%s redrawn\n",
+                    rep->items[i].name, r->inputs[k].key, r->inputs[k].redraws,
+                    plumbp_s(r->inputs[k].redraws));
     }
     put(w, "item_number,item,quantity,value,ci_low,ci_high,unit\n");
     for (size_t i = 0; i < rep->n_items; i++) {

@@ -522,12 +522,17 @@ static void text_item(writer *w, const plumb_zone_result *r)
     if (r->has_target) {
         const plumb_zone_stats *t = &r->at_target;
         put(w, "Target %s\n", t_point(w, r->target_m));
-        put(w, "  release at      %s puts the median impact on the target\n",
-            t_point(w, r->aim_release_m));
+        /* wrapped: with --units us, long figures and a large run pass 80
+         * columns (TEXT_WIDTH), continuation lines under the figures */
+        char text[2 * NUMBUF + 96];
+        snprintf(text, sizeof text, "%s puts the median impact on the target",
+                 t_point(w, r->aim_release_m));
+        wrapped(w, "  release at      ", text);
         double med[2] = {t->release_m[0] + t->displacement[0].value,
                          t->release_m[1] + t->displacement[1].value};
-        put(w, "  median impact   %s, in a run of %zu samples released there\n", t_point(w, med),
-            t->samples);
+        snprintf(text, sizeof text, "%s, in a run of %zu sample%s released there",
+                 t_point(w, med), t->samples, plumbp_s(t->samples));
+        wrapped(w, "  median impact   ", text);
         text_cloud(w, t);
         put(w, "\n");
         text_radii(w, t, r->ci_level, "the target, released at that point");

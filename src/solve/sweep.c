@@ -651,14 +651,22 @@ plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_
     }
     if (s->n_failed == total) {
         /* No row has figures: the range itself is at fault (a key the
-         * profile cannot take, every value out of range) or nothing
-         * lands; report the first row's error, naming its values. */
-        plumb_status st = s->rows[0].status;
+         * profile cannot take, every value out of range, an object that
+         * floats at every value) or the falls failed. An input error only
+         * when every row's is one (README.md "plumb sweep"): a fall that
+         * failed is reported before them, whichever way the range runs.
+         * The first such row's error, naming its values. */
+        size_t first = 0;
+        while (first < total && plumb_status_is_input_error(s->rows[first].status))
+            first++;
+        if (first == total)
+            first = 0;
+        plumb_status st = s->rows[first].status;
         if (diag) {
-            *diag = s->rows[0].error;
+            *diag = s->rows[first].error;
             char at[PLUMB_MAX_AXES * (PLUMB_DIAG_KEY + 64) + 16] = "", one[PLUMB_DIAG_KEY + 64];
             for (size_t a = 0; a < n_axes; a++) {
-                plumb_range_set_text(&s->axes[a], 0, one, sizeof one);
+                plumb_range_set_text(&s->axes[a], s->rows[first].index[a], one, sizeof one);
                 snprintf(at + strlen(at), sizeof at - strlen(at), "%s%s", a ? ", " : "", one);
             }
             char msg[PLUMB_DIAG_MSG + sizeof at + 64];

@@ -74,7 +74,8 @@ static const check_def checks[] = {
     {"normal gravity at the pole", "WGS 84 (NIMA TR8350.2, eq. 4-1)", "transcribed", "m/s^2",
      9.8321849378, 1e-10, K_GRAVITY, {90.0, 0.0}},
     {"sphere drag coefficient at Re 200",
-     "F. A. Morrison, An Introduction to Fluid Mechanics (CUP 2013)", "transcribed", "",
+     "F. A. Morrison, Data Correlation for Drag Coefficient for Sphere (Michigan "
+     "Technological University, 2010), eq. (1)", "transcribed", "",
      0.767731559965325, 1e-15, K_MORRISON, {200.0, 0.0}},
     {"Pflanz force-reduction factor X1 at A 1, j 1",
      "Knacke, NWC TP 6575 (1991), Pflanz's method; X1 from its closed form", "computed", "",

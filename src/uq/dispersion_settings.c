@@ -60,8 +60,9 @@ plumb_status plumb_zone_check(const plumb_zone_spec *z, const plumb_zone_options
     size_t need = plumb_zone_min_samples(z->confidence, o->ci_level);
     if (z->samples < need)
         return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, "zone.samples",
-                               "%zu samples cannot bound the %g %% radius at %g %% confidence; "
-                               "at least %zu are needed", z->samples, 100.0 * z->confidence,
+                               "%zu sample%s cannot bound the %g %% radius at %g %% confidence; "
+                               "at least %zu are needed", z->samples, plumbp_s(z->samples),
+                               100.0 * z->confidence,
                                100.0 * o->ci_level, need);
     return PLUMB_OK;
 }

@@ -559,5 +559,100 @@ else
   pass=$((pass + 1))
 fi
 
+# ---- an option that takes one value, given twice ----------------------------
+# Last-wins would use the second value and drop the first in silence
+# (--samples 100 --samples 200): every single-valued option of every command
+# is refused when repeated (exit 2, naming it, nothing written); --set and
+# --vary stay repeatable (README.md "Common options").
+zp=profiles/demo/drone-release.yaml
+twice() { # NAME OPTION CMD ARGS... : ARGS already hold OPTION twice
+  n=$1 opt=$2
+  shift 2
+  refused "$n" "may be given once" "$opt" -- "$@"
+}
+twice "fall --format twice" --format fall "$good" --format json --format csv
+twice "fall --units twice" --units fall "$good" --units us --units=si
+twice "fall --criteria-dir twice" --criteria-dir fall "$good" --criteria-dir a --criteria-dir b
+twice "sweep --format twice" --format sweep "$good" --vary release.height=2m:4m:1m \
+  --format csv --format json
+twice "sweep --units twice" --units sweep "$good" --vary release.height=2m:4m:1m --units us \
+  --units us
+twice "limit --find twice" --find limit "$good" --find release.height --find payload.mass \
+  --energy-max 40J
+twice "limit --energy-max twice" --energy-max limit "$good" --find release.height \
+  --energy-max 40J --energy-max 60J
+twice "limit --speed-max twice" --speed-max limit "$good" --find release.height \
+  --speed-max 8m/s --speed-max 9m/s
+twice "limit --drift-max twice" --drift-max limit "$good" --find release.height \
+  --drift-max 8m --drift-max 9m
+twice "zone --samples twice" --samples zone "$zp" --samples 100 --samples 200
+twice "zone --seed twice" --seed zone "$zp" --seed 1 --seed=2
+twice "zone --threads twice" --threads zone "$zp" --threads 1 --threads 2
+twice "zone --confidence twice" --confidence zone "$zp" --confidence 0.9 --confidence 0.99
+twice "zone --target twice" --target zone "$zp" --target 1m,2m --target 3m,4m
+twice "zone --samples-out twice" --samples-out zone "$zp" --samples-out "$tmp/s1.csv" \
+  --samples-out "$tmp/s2.csv"
+twice "zone --regions-out twice" --regions-out zone "$zp" --regions-out "$tmp/r1.csv" \
+  --regions-out "$tmp/r2.csv"
+twice "air --alt twice" --alt air --alt 0m:1km:1km --alt 0m:2km:1km
+twice "air --temperature-offset twice" --temperature-offset air --temperature-offset 5K \
+  --temperature-offset 10K
+twice "verify --format twice" --format verify --format json --format text
+twice "lint --format twice" --format lint "$good" --format json --format csv
+twice "sheet --paper twice" --paper sheet "$good" --paper a4 --paper letter
+twice "sheet --samples twice" --samples sheet "$zp" --samples 100 --samples 200
+twice "sheet --seed twice" --seed sheet "$zp" --seed 1 --seed 2
+for f in s1 s2 r1 r2; do
+  if [ -e "$tmp/$f.csv" ]; then bad "a refused zone wrote $f.csv"; else pass=$((pass + 1)); fi
+done
+# repeatable ones stay repeatable
+if "$bin" fall "$good" --set release.height=3.1m --set payload.mass=1.37kg --format json \
+  >"$tmp/stdout" 2>"$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "fall with --set twice was refused: $(head -n 1 "$tmp/stderr")"
+fi
+
+# ---- -o naming a profile ------------------------------------------------------
+# A report written over another YAML file destroys a profile (only the one
+# being read was protected): an -o name ending in .yaml or .yml is refused
+# (exit 2, the file left as it was), as are zone's side files.
+yamlout() { # NAME FILE WANT ARGS...
+  name=$1 file=$2 want=$3
+  shift 3
+  rm -rf "$tmp/named"
+  mkdir "$tmp/named" || exit 2
+  printf 'name: kept\n' >"$tmp/named/$file"
+  (cd "$tmp/named" && PLUMB_CRITERIA_DIR=$abs_criteria "$bin" "$@" \
+    >"$tmp/stdout" 2>"$tmp/stderr")
+  rc=$?
+  left=$(ls -A "$tmp/named")
+  if [ $rc -eq 2 ] && grep -F -q -e "$want" "$tmp/stderr" && [ "$left" = "$file" ] &&
+    [ "$(cat "$tmp/named/$file")" = "name: kept" ] && [ ! -s "$tmp/stdout" ]; then
+    pass=$((pass + 1))
+  else
+    bad "$name: exit $rc, left '$left': $(head -n 1 "$tmp/stderr")"
+  fi
+}
+yamlout "fall -o B.yaml" B.yaml "-o B.yaml names a profile (.yaml, .yml)" \
+  fall "$PWD/$good" -o B.yaml
+yamlout "fall --output=B.yml --format json" B.yml "give a name ending in .txt, .json or .csv" \
+  fall "$PWD/$good" --output=B.yml --format json
+yamlout "zone -o B.YAML" B.YAML "give a name ending in .txt, .json, .csv or .geojson" \
+  zone "$PWD/$zp" --samples 50 --threads 1 -o B.YAML
+yamlout "zone --samples-out s.yaml" s.yaml "--samples-out s.yaml names a profile" \
+  zone "$PWD/$zp" --samples 50 --threads 1 --samples-out s.yaml
+yamlout "zone --regions-out r.yml" r.yml "--regions-out r.yml names a profile" \
+  zone "$PWD/$zp" --samples 50 --threads 1 --regions-out r.yml
+yamlout "sweep -o B.yaml" B.yaml "names a profile" \
+  sweep "$PWD/$good" --vary release.height=2m:4m:1m -o B.yaml
+yamlout "limit -o B.yaml" B.yaml "names a profile" \
+  limit "$PWD/$good" --find release.height --energy-max 40J -o B.yaml
+yamlout "air -o B.yaml" B.yaml "names a profile" air -o B.yaml
+yamlout "verify -o B.yaml" B.yaml "names a profile" verify -o B.yaml
+yamlout "lint -o B.yaml" B.yaml "names a profile" lint "$PWD/$good" -o B.yaml
+yamlout "sheet -o B.yaml" B.yaml "give a name ending in .pdf" sheet "$PWD/$good" -o B.yaml
+rm -rf "$tmp/named"
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

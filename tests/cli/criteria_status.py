@@ -74,4 +74,32 @@ with tempfile.TemporaryDirectory(prefix="plumb-elsewhere.", dir=os.environ.get("
     check(r.returncode == 0 and "us-part107-cat3" in r.stdout,
           f"run from another directory finds the criteria: exit {r.returncode} {r.stderr.strip()}")
 
+# README.md "Criteria": a figure in foot-pounds is given in joules too, to
+# the digits shown, by 1 ft·lbf = 1.3558179483 J (NIST SP 811 (2008), B.8:
+# 0.3048 m x 0.45359237 kg x 9.80665 m/s^2); a report prints the limit
+# rounded down to 4 figures (README.md "Criteria"), so both are checked
+# against the closed form and the README and the report cannot disagree.
+import math  # noqa: E402
+import re  # noqa: E402
+FT_LBF_J = 0.3048 * 0.45359237 * 9.80665
+with open(os.path.join(ROOT, "README.md"), encoding="utf-8") as f:
+    readme = f.read()
+rows = re.findall(r"^\| `([a-z0-9-]+)` \| \w[\w-]* \| ([\d.]+) ft·lbf \(([\d.]+) J\) \|", readme, re.M)
+check(len(rows) >= 3, f"README's criteria table has its ft·lbf rows: {rows}")
+for cid, ftlbf, joules in rows:
+    dec = len(joules.split(".")[1]) if "." in joules else 0
+    exact = float(ftlbf) * FT_LBF_J
+    check(f"{exact:.{dec}f}" == joules,
+          f"README: {cid}: {ftlbf} ft·lbf is {exact:.6f} J, the table says {joules} J")
+    rc, out, err = plumb("fall", THROWN, "--set", f"criteria=[{cid}]")
+    mag = math.floor(math.log10(exact))
+    down = math.floor(exact / 10 ** (mag - 3)) * 10 ** (mag - 3)
+    want = f"limit {down:.{max(0, 3 - mag)}f} J"
+    check(rc == 0 and want in flat(out), f"fall names {cid}'s limit rounded down: {want!r}")
+    # and the table's figure cut to the report's 4 figures is the report's
+    # (78.64 J in the table beside 78.63 J in every report read as two limits)
+    shown = math.floor(float(joules) / 10 ** (mag - 3) + 1e-9) * 10 ** (mag - 3)
+    check(f"limit {shown:.{max(0, 3 - mag)}f} J" == want,
+          f"README's {joules} J reads as the report's {want!r} cut to 4 figures")
+
 finish()

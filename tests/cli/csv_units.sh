@@ -1,9 +1,10 @@
 #!/bin/sh
 # One spelling of a unit in every CSV plumb writes (issue 9: "one spelling
 # of square metres"): the zone CSV's unit column spells an area "m²" (or
-# "ft²" with --units us) as the text reports and the sweep CSV's header do,
-# never "m2"/"ft2"; column names keep their ASCII suffixes (area_m2 in the
-# --regions-out CSV, as mass_kg in the fall CSV). The US figure is the SI
+# "ft²" with --units us) as the text reports do, never "m2"/"ft2"; column
+# names keep their ASCII suffixes (area_m2 in the --regions-out CSV, as
+# mass_kg in the fall CSV), the sweep's varied key's too
+# (payload.drag.area_m2: the key, '_', its unit's suffix, no space). The US figure is the SI
 # one over 0.3048² (the international foot is 0.3048 m exactly: NIST SP
 # 811 (2008) B.8).
 #
@@ -44,6 +45,7 @@ for name, table in (("si", si), ("us", us)):
     bad = sorted({r[6] for r in table[1:] if re.search(r"[a-z][23]\b", r[6])})
     check(not bad, f"zone CSV ({name}) spells a unit with a bare digit: {bad}")
 sw = rows("sweep.csv")
-check(sw[0][0] == "payload.drag.area m²", f"sweep CSV axis column {sw[0][0]!r}")
+check(sw[0][0] == "payload.drag.area_m2" and sw[0][1] == "item_number",
+      f"sweep CSV axis column {sw[0][:2]!r}")
 finish()
 PY

@@ -130,6 +130,15 @@ for cmd in [None] + commands:
           f"{len(wide)} wider lines {[(len(l), l) for l in wide[:3]]}")
 check(len(commands) >= 7, f"the width check covered every command: {commands}")
 
+# One spelling of the foot-pound-force, as every report writes it: ft·lbf
+# (NIST SP 811 (2008), 6.1.4: a product of units with a centred dot),
+# never "ft-lbf" or "ft lbf" in a help's prose (typed values may take any).
+for cmd in [None] + commands:
+    rc, out, err = plumb(*([cmd] if cmd else []), "--help")
+    prose = re.sub(r'"[^"]*"', "", out)  # an example value as typed may be spelt any way
+    check(rc == 0 and not re.search(r"ft[- ]lbf", prose),
+          f"plumb {cmd or ''} --help spells ft·lbf: {re.findall(r'.*ft[- ]lbf.*', prose)[:2]}")
+
 # The options the issue found missing (issue 9), by name.
 for cmd, opts in [("sweep", ["--vary"]), ("limit", ["--find", "--energy-max", "--speed-max", "--drift-max"])]:
     rc, out, err = plumb(cmd, "--help")

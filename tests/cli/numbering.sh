@@ -10,8 +10,9 @@
 # - naming the item gives the same report as numbering it;
 # - a sweep over items[3].mass varies the glove: its momentum over its
 #   speed is the mass of the row (p = m v), the other items do not change;
-# - a fall or zone that fails on the second item (a balloon lighter than
-#   the air it displaces, which never lands: exit 3) names items[2] / item 2.
+# - a fall or zone refused for the second item (a balloon lighter than
+#   the air it displaces, which never lands: an input error, exit 2) names
+#   items[2] / item 2.
 #
 #   sh tests/cli/numbering.sh PLUMB
 #

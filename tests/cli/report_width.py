@@ -1,6 +1,7 @@
 #!/usr/bin/python3
 """What a text report looks like on a terminal (issue 9):
-  - no line of a fall, air, limit or zone text report is wider than 80
+  - no line of any command's text report (fall, limit, zone, with and
+    without a target, sweep, lint, air, verify) is wider than 80
     characters, over the demo profiles in SI and US units (80 columns:
     the classic terminal width, VT100 / ECMA-48 default line; common
     practice, no source);
@@ -46,7 +47,13 @@ for prof in DEMO:
     for units in ("si", "us"):
         runs = [("fall", prof), ("limit", prof, "--find", "release.height",
                                  "--energy-max", "40J"),
-                ("zone", prof, "--samples", "400", "--threads", "1")]
+                ("zone", prof, "--samples", "400", "--threads", "1"),
+                # a target's lines hold two points and the run's size: with
+                # --units us "median impact 131.2 ft E, 32.81 ft N, in a run
+                # of 1000 samples released there" was 81 columns
+                ("zone", prof, "--samples", "1000", "--threads", "1", "--target", "-30m,-30m"),
+                ("sweep", prof, "--vary", "release.height=2m:10m:4m"),
+                ("lint", prof)]
         for args in runs:
             rc, out, err = plumb(*args, "--units", units)
             check(rc in (0, 3) and (out or rc == 3),
@@ -54,6 +61,13 @@ for prof in DEMO:
             w = wide(out)
             check(not w, f"{args[0]} {name} --units {units}: {len(w)} lines over "
                   f"{WIDTH} columns:\n" + "\n".join(w[:5]))
+# the commands without a profile, in both unit systems
+for units in ("si", "us"):
+    for args in [("air",), ("air", "--alt", "0m:3km:1km"), ("verify",)]:
+        rc, out, err = plumb(*args, "--units", units)
+        w = wide(out)
+        check(rc == 0 and out and not w, f"{' '.join(args)} --units {units}: exit {rc}, "
+              f"{len(w)} lines over {WIDTH} columns:\n" + "\n".join(w[:5]))
 # a one-way sweep against every bundled criterion: the ratios that do not fit
 # beside the figures go in blocks of their own, each within 80 columns
 ALL_CRITERIA = "criteria=[" + ", ".join(sorted(

@@ -7,7 +7,9 @@ they computed"):
     a zone's ellipse when every sample lands on one point (text "none",
     CSV empty, JSON null);
   - one spelling of square metres ("m²") in text and CSV, whatever the
-    user typed ("m^2", "m2").
+    user typed ("m^2", "m2");
+  - a count of one takes the singular: "1 step", "1 sample", never
+    "1 steps" (English grammar).
 Sources: a fall with no wind and no release velocity has no horizontal
 motion, so no drift and no direction (closed form: x(t) = 0); the SI
 brochure (BIPM, 9th edition, 2019, section 5.4.3) writes the square metre
@@ -18,6 +20,7 @@ import csv
 import io
 import json
 import os
+import re
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
@@ -142,10 +145,56 @@ runs = [
 for args in runs:
     for fmt in ("text", "csv"):
         rc, out, err = plumb(*args, "--format", fmt)
-        odd = [s for s in ("m^2", "m2 ", "m2,", "m2)", "sq m", "m**2") if s in out]
+        # a CSV header names its columns with ASCII unit suffixes, as
+        # density_kg_m3 does (the sweep's varied key: descent.area_m2);
+        # only the rest is checked for the spelling of a figure's unit
+        head = next((l for l in out.splitlines() if not l.startswith("#")), "")
+        body = out.replace(head, "", 1) if fmt == "csv" else out
+        odd = [s for s in ("m^2", "m2 ", "m2,", "m2)", "sq m", "m**2") if s in body]
+        if fmt == "csv" and args[0] == "sweep":
+            check(head.startswith("descent.area_m2,item_number,"),
+                  f"sweep csv: the varied area's column is descent.area_m2: {head[:40]!r}")
         # fall and zone CSV name no area; everything else shows one
-        shown = "m²" in out or (fmt == "csv" and args[0] in ("fall", "zone"))
+        shown = "m²" in out or (fmt == "csv" and args[0] in ("fall", "zone", "sweep"))
         check(rc == 0 and shown and not odd,
               f"{' '.join(args[:1])} {fmt}: square metres spelt {odd} ({err.strip()})")
+
+# ---- a per-item warning: no capital after a colon ------------------------------
+# "cable tie bundle: Plate-like: ..." put a sentence's capital after a colon;
+# the sentence is given whole and the items it is about after it, in
+# brackets, as the sweep's Warnings give rows and items (README.md "plumb
+# fall").
+KIT = os.path.join(os.path.dirname(os.path.dirname(HERE)), "profiles", "demo", "tower-kit.yaml")
+with open(KIT, encoding="utf-8") as f:
+    names = re.findall(r"^  - name: (.+?)\s*$", f.read(), re.M)
+for fmt in ("text", "csv"):
+    rc, out, err = plumb("fall", KIT, "--format", fmt)
+    lines = out.split("\nWarnings\n", 1)[-1].split("\n\n")[0].split("\n  - ") \
+        if fmt == "text" else [l for l in out.splitlines() if l.startswith("# warning: ")]
+    flat_lines = [" ".join(l.split()) for l in lines]
+    colon_cap = [l for l in flat_lines for n in names if re.search(re.escape(n) + r": [A-Z]", l)]
+    check(rc == 0 and len(names) >= 3 and not colon_cap,
+          f"fall {fmt}: an item's name then a capital after a colon: {colon_cap[:2]}")
+    check(any(re.search(r"is used\. \([^()]*" + re.escape(names[4]) + r"\)$", l)
+              for l in flat_lines),
+          f"fall {fmt}: the items after the sentence, in brackets: {flat_lines[:2]}")
+
+# ---- one, not "1 steps" ---------------------------------------------------------
+# a fall of 1 cm takes the solver one step; a zone of 1 sample is refused
+# saying so; a sweep of one value says "one value"
+ONE = r"(?<![\d.])1 (step|sample|row|value|draw|evaluation|device|item|error|fall|time)s\b"
+for args in [("fall", THROWN, "--set", "release.height=0.01m"),
+             ("fall", THROWN, "--set", "release.height=0.01m", "--units", "us"),
+             ("zone", THROWN, "--samples", "1", "--set",
+              "uncertainty={payload.drag.cd: {uniform: [0.7, 0.9]}}"),
+             ("sweep", THROWN, "--vary", "release.height=2m:2m:1m"),
+             ("sweep", THROWN, "--vary", "release.height=2m:2m:1m", "--format", "csv"),
+             ("sweep", THROWN, "--vary", "release.height=2m:2m:1m", "--units", "us")]:
+    rc, out, err = plumb(*args)
+    found = re.findall(ONE, " ".join((out + err).split()))
+    check(rc in (0, 2) and (out or err) and not found,
+          f"{' '.join(args[:1] + args[2:])}: a plural after one: {found} (exit {rc})")
+rc, out, err = plumb("fall", THROWN, "--set", "release.height=0.01m")
+check(rc == 0 and re.search(r"solver +\w+, 1 step, ", out), "fall of 1 cm: '1 step,'")
 
 finish()

@@ -105,11 +105,11 @@ check(rc == 0 and out.startswith("# ") and len(rows) == len(PUBLISHED) and
 FT, LB, G0_EXACT, INHG = 0.3048, 0.45359237, 9.80665, 3386.389
 US = {  # SI unit: (US unit, SI -> US, size of the figure for the tolerance)
     "m/s": ("ft/s", lambda x: x / FT, abs),
-    "m/s^2": ("ft/s²", lambda x: x / FT, abs),
-    "kg/m^3": ("lb/ft³", lambda x: x * FT ** 3 / LB, abs),
+    "m/s²": ("ft/s²", lambda x: x / FT, abs),
+    "kg/m³": ("lb/ft³", lambda x: x * FT ** 3 / LB, abs),
     "K": ("°F", lambda x: 1.8 * x - 459.67, lambda f: abs(f) + 459.67),
     "Pa": ("inHg", lambda x: x / INHG, abs),
-    "Pa s": ("lbf·s/ft²", lambda x: x * FT ** 2 / (LB * G0_EXACT), abs),
+    "Pa·s": ("lbf·s/ft²", lambda x: x * FT ** 2 / (LB * G0_EXACT), abs),
 }
 rc, out, _ = plumb("verify", "--units", "us", "--format", "csv")
 urows = list(csv.DictReader(io.StringIO("".join(l + "\n" for l in out.splitlines()
@@ -136,13 +136,24 @@ for r in urows:
           f"{r['unit_us']} are {r['computed']}, {r['published']} {unit} by NIST SP 811")
     check(r["published"] == next(x for x in rows if x["name"] == r["name"])["published"],
           f"{r['name']}: the published value stays SI under --units us")
+# one spelling of units in a CSV, as the text and every other CSV write
+# them (the zone CSV's "m²"): the SI column like the US one, "kg/m³" beside
+# "lb/ft³", never "kg/m^3" (it mixed the two)
+check(all(r["unit"] in US or r["unit"] in ("", "s") for r in urows) and
+      not [r["unit"] for r in urows if "^" in r["unit"] or " " in r["unit"]],
+      f"verify CSV: SI units spelt as the US ones: {sorted({r['unit'] for r in urows})}")
+# the sphere-drag check cites what plumb computes: eq. (1) of Morrison's
+# 2010 handout (src/physics/drag.c, README.md "Sources"), not her book
+src = checks.get("sphere drag coefficient at Re 200", {}).get("source", "")
+check("Data Correlation for Drag Coefficient for Sphere" in src and "2010" in src
+      and "2013" not in src, f"the sphere-drag check's source: {src!r}")
 rc, out, _ = plumb("verify", "--units", "us")
 flat = " ".join(out.split())
 for name, unit, si in (("air temperature at 1000 m", "K", 281.651),
                        ("air pressure at 2000 m", "Pa", 79501.0),
-                       ("air viscosity at 0 m", "Pa s", 1.7894e-5),
-                       ("air density at 0 m", "kg/m^3", 1.225),
-                       ("normal gravity at the pole", "m/s^2", 9.8321849378)):
+                       ("air viscosity at 0 m", "Pa·s", 1.7894e-5),
+                       ("air density at 0 m", "kg/m³", 1.225),
+                       ("normal gravity at the pole", "m/s²", 9.8321849378)):
     us_unit, conv, _ = US[unit]
     want = f"[{conv(si):#.7g} {us_unit}]"
     check(rc == 0 and want in flat, f"verify --units us text: {name} published {si} {unit} "
