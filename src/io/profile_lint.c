@@ -25,8 +25,10 @@
  *   - a required key now missing because its value was left out: a
  *     numeric one gets a stand-in, else the check stops;
  *   - a required key now missing whose misspelt twin (the unknown key of
- *     the same map whose did-you-mean it is) was listed: the misspelt key
- *     is read as the right one from then on, and its value checked;
+ *     the same map whose did-you-mean it is) was listed, or the twin of
+ *     a key the map takes instead of it (deploy: {belw: 20 m}, with
+ *     "after" missing: "give after: TIME or below: HEIGHT"): the misspelt
+ *     key is read as the right one from then on, and its value checked;
  *   - a list or map found wanting once a part of it was left out (a
  *     choice of one attitude once the other was): left out in turn;
  *   - a key missing under a map that was left out, or missing where a key
@@ -40,6 +42,7 @@
  * rows of an air table, leaves its section out). An error outside the file
  * (a --set), or one that is not the user's (out of memory), stops it.
  */
+#include <ctype.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -455,6 +458,20 @@ static int same_error(const plumb_diag *a, const plumb_diag *b)
            strcmp(a->key, b->key) == 0 && strcmp(a->message, b->message) == 0;
 }
 
+/* 1 when text names the key `word` as a whole word (not "cd" in
+ * "cd_area"). */
+static int names_word(const char *text, const char *word)
+{
+    size_t n = strlen(word);
+    for (const char *p = text; n > 0 && (p = strstr(p, word)) != NULL; p++) {
+        int before = p > text && (isalnum((unsigned char)p[-1]) || p[-1] == '_');
+        int after = isalnum((unsigned char)p[n]) || p[n] == '_';
+        if (!before && !after)
+            return 1;
+    }
+    return 0;
+}
+
 /* What an error about a key that is not written (a required key missing,
  * or a check of a map) follows from: 1 when it is a consequence of an
  * edit, now changed so that the check goes on; -1 when it is one and the
@@ -489,13 +506,15 @@ static int absent_consequence(lint_run *r, const plumb_diag *d)
         if (e->kind != ED_REMOVE || !dsplit || !split_key(e->key, epar, sizeof epar, &elast))
             continue;
         if (strcmp(epar, dpar) == 0) {
-            /* its misspelt twin: read under the name it should have */
+            /* its misspelt twin, or the twin of one of the keys the map
+             * takes instead of it (the message names them: "give after:
+             * TIME or below: HEIGHT"): read under the name it should have */
             const plumby_schema *ms = map_schema(dpar);
             const char *best = ms && !plumby_schema_child(ms, elast)
                                    ? plumby_schema_suggest(ms, elast) : NULL;
-            if (best && strcmp(best, dlast) == 0) {
+            if (best && (strcmp(best, dlast) == 0 || names_word(d->message, best))) {
                 e->kind = ED_RENAME;
-                plumbp_strlcpy(e->name, dlast, sizeof e->name);
+                plumbp_strlcpy(e->name, best, sizeof e->name);
                 return 1;
             }
         } else if (strcmp(elast, dlast) == 0 && (!epar[0] || key_holds(epar, dpar))) {
