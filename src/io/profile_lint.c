@@ -30,7 +30,9 @@
  *     "after" missing: "give after: TIME or below: HEIGHT"): the misspelt
  *     key is read as the right one from then on, and its value checked;
  *   - a list or map found wanting once a part of it was left out (a
- *     choice of one attitude once the other was): left out in turn;
+ *     choice of one attitude once the other was), or an uncertain input
+ *     (uncertainty.descent.cd) of a top-level section left out: left out
+ *     in turn;
  *   - a key missing under a map that was left out, or missing where a key
  *     of the same name was written one level too high, and an error at
  *     the place of a stand-in: the check cannot go on in that section, so
@@ -626,6 +628,24 @@ static int holds_left_out(const lint_run *r, const plumb_diag *d)
     return 0;
 }
 
+/* 1 when error d is about an uncertain input under a top-level section
+ * left out ("uncertainty.descent.cd" once descent is): no longer given,
+ * only because the section is left out. */
+static int uncertain_in_left_out(const lint_run *r, const plumb_diag *d)
+{
+    static const char unc[] = "uncertainty.";
+    if (strncmp(d->key, unc, sizeof unc - 1) != 0)
+        return 0;
+    const char *in = d->key + sizeof unc - 1;
+    for (size_t i = 0; i < r->n_ed; i++) {
+        const edit *e = &r->ed[i];
+        if (e->kind == ED_REMOVE && e->key[strcspn(e->key, ".[")] == '\0' &&
+            (strcmp(in, e->key) == 0 || key_holds(e->key, in)))
+            return 1;
+    }
+    return 0;
+}
+
 /* 1 when error d is at the place of a stand-in, or a key already listed. */
 static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag *errs, size_t n)
 {
@@ -765,9 +785,10 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
                 continue;
             break;
         }
-        if (holds_left_out(r, &d)) {
-            /* a list or map found wanting once a part of it was left out:
-             * left out as well, not listed */
+        if (holds_left_out(r, &d) || uncertain_in_left_out(r, &d)) {
+            /* a list or map found wanting once a part of it was left out,
+             * or an uncertain input of a section left out: left out as
+             * well, not listed */
             edit *e = new_edit(r, &d, ED_REMOVE);
             if (!e)
                 break;

@@ -331,6 +331,26 @@ want = [place(TABLE, "[{altitude") + ("atmosphere.table",),
         place(TABLE, "bar-baz") + ("criteria[1]",)]
 check(got == want, f"an air table of one row, then the other sections: {got} / {want}")
 
+# a descent whose deploy is no map, which no stand-in mends: left out after
+# its error, the check goes on; the uncertainty of its cd, given in the
+# file, is not then "not given"
+DESC = """name: descent left out
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 31.6 m}
+descent: {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: 5}
+wind: {speed: 800 mph}
+uncertainty:
+  descent.cd: {uniform: [0.7, 0.9]}
+criteria: [foo]
+"""
+desc = write("desc.yaml", DESC)
+got = [e[1:4] for e in lint_all(desc, "a descent left out")]
+want = [place(DESC, "5}") + ("descent.deploy",),
+        place(DESC, "800 mph") + ("wind.speed",),
+        place(DESC, "foo") + ("criteria[0]",)]
+check(got == want, f"a deploy that is no map, then the wind and the id, not the cd's "
+      f"uncertainty: {got} / {want}")
+
 # 2. a misspelt key that meant one of its map's alternatives: the other
 # alternative then missing is its consequence, not listed; the misspelt
 # key's value is checked under the name meant (a bare 20 where a length
