@@ -84,9 +84,11 @@ const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const c
 
 /* Every id as near to `id` as the nearest (plumb_criteria_nearest), in
  * name order, written into buf as "'a'", "'a' or 'b'", "'a', 'b' or 'c'" (cut
- * with "..." where buf ends), so that "en397" names both EN 397 criteria.
- * Returns how many; 0 (buf "") for an empty set or a NULL argument. Can't
- * fail. */
+ * with "..." where buf ends), so that "en397" names both EN 397 criteria;
+ * only when that distance is near enough to suggest, by the rule of every
+ * did-you-mean (plumb/suggest.h: at most PLUMB_SUGGEST_MAX_EDITS, and at
+ * most half the longer word). Returns how many; 0 (buf "") when none is
+ * near, for an empty set or a NULL argument. Can't fail. */
 size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, char *buf,
                                   size_t size);
 
@@ -95,8 +97,12 @@ size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, cha
  * and msg (size bytes) what was expected: "unknown criterion 'ID'; did
  * you mean 'A' or 'B'? (the criteria directory has N: ...)", the nearest
  * ids (plumb_criteria_nearest_ids) and as many of the set's ids as fit,
- * or "unknown criterion 'ID'; no criteria are loaded" for an empty or
- * NULL set. It is the message of plumb_profile_criteria_check and of
+ * or without the did-you-mean when no id is near ("unknown criterion
+ * 'ID'; the criteria directory has N: ..."); for a former id of a bundled
+ * criterion whose new id is in the set, "criterion 'ID' was renamed 'NEW'
+ * (why): give 'NEW'" (a former id is not taken: its limit changed); or
+ * "unknown criterion 'ID'; no criteria are loaded" for an empty or NULL
+ * set. It is the message of plumb_profile_criteria_check and of
  * plumb_study_lint, which place it at the id in the profile.
  * PLUMB_EINVAL for a NULL id or msg, or size 0. */
 plumb_status plumb_criteria_check_id(const plumb_criteria *set, const char *id, char *msg,

@@ -49,6 +49,12 @@ char *plumbp_strlcpy(char *dst, const char *src, size_t n);
  * did-you-mean scored its own way (criteria ids, units). Can't fail. */
 int plumbp_edit_distance(const char *a, const char *b);
 
+/* 1 when a word d edits away from a candidate, the longer of the two
+ * `longer` characters, is near enough to suggest: the rule of
+ * plumb_suggest_closest (plumb/suggest.h), for a distance scored another
+ * way (criteria ids). Can't fail. */
+int plumbp_suggest_near(int d, size_t longer);
+
 /* A quantity in a warning sentence: the sentence is made below the report
  * layer, which alone knows the display units (--units si|us), so a figure
  * with a unit is kept as a mark, its kind and its SI value, and the report

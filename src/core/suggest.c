@@ -39,6 +39,11 @@ int plumbp_edit_distance(const char *a, const char *b)
     return row[lb] > SUGGEST_FAR ? SUGGEST_FAR : row[lb];
 }
 
+int plumbp_suggest_near(int d, size_t longer)
+{
+    return d >= 0 && d <= PLUMB_SUGGEST_MAX_EDITS && 2 * (size_t)d <= longer;
+}
+
 const char *plumb_suggest_closest(const char *word, const char *const *candidates, size_t n)
 {
     if (!word || !candidates)
@@ -51,7 +56,7 @@ const char *plumb_suggest_closest(const char *word, const char *const *candidate
             continue;
         int d = plumbp_edit_distance(word, candidates[i]);
         size_t longer = strlen(candidates[i]) > len ? strlen(candidates[i]) : len;
-        if (d < best_d && 2 * (size_t)d <= longer) {
+        if (d < best_d && plumbp_suggest_near(d, longer)) {
             best_d = d;
             best = candidates[i];
         }

@@ -117,6 +117,14 @@ const plumb_criterion *plumb_criteria_nearest(const plumb_criteria *set, const c
     return &set->c[best];
 }
 
+/* 1 when criterion c is as near to the typed id as d and near enough to
+ * suggest (plumbp_suggest_near: the did-you-mean rule of every message). */
+static int near_at(const char *typed, const plumb_criterion *c, int d)
+{
+    size_t lt = strlen(typed), li = strlen(c->id);
+    return id_distance(typed, c->id) == d && plumbp_suggest_near(d, lt > li ? lt : li);
+}
+
 size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, char *buf,
                                   size_t size)
 {
@@ -128,9 +136,10 @@ size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, cha
     int d = id_distance(id, best->id);
     size_t n = 0, total = 0, len = 0;
     for (size_t i = 0; i < set->n; i++)
-        total += id_distance(id, set->c[i].id) == d;
+        if (near_at(id, &set->c[i], d))
+            total++;
     for (size_t i = 0; i < set->n && len < size; i++) {
-        if (id_distance(id, set->c[i].id) != d)
+        if (!near_at(id, &set->c[i], d))
             continue;
         const char *sep = n == 0 ? "" : n + 1 == total ? " or " : ", ";
         int w = snprintf(buf + len, size - len, "%s'%s'", sep, set->c[i].id);
@@ -149,6 +158,23 @@ size_t plumb_criteria_nearest_ids(const plumb_criteria *set, const char *id, cha
  * quotes; a longer list ends in "...". */
 #define CRIT_LIST_MAX 300
 
+/* Former ids of bundled criteria: a profile written before a rename
+ * names the old id, and is told the new one and why it changed (not only
+ * a did-you-mean, which a far rename would not get). A former id is never
+ * taken in place of the new one: the limit changed with it. From the
+ * renames in the history of profiles/criteria/. */
+static const struct former_id {
+    const char *id;     /* the former id */
+    const char *now;    /* the id it was renamed */
+    const char *why;    /* the reason, said after the new id */
+} former_ids[] = {
+    {"z89-type2-31j", "z89-type2-30j",
+     "its limit 31 J was the test energy 30.625 J rounded toward the lenient side; it is "
+     "now 30.6 J, rounded toward the strict side"},
+    {"ddesb-fragment-79j", "ddesb-fragment-58ftlbf",
+     "its id showed 79 J, above the published limit of 58 ft lbf, 78.64 J"},
+};
+
 plumb_status plumb_criteria_check_id(const plumb_criteria *set, const char *id, char *msg,
                                      size_t size)
 {
@@ -162,6 +188,12 @@ plumb_status plumb_criteria_check_id(const plumb_criteria *set, const char *id, 
         snprintf(msg, size, "unknown criterion '%s'; no criteria are loaded", id);
         return PLUMB_EKEY;
     }
+    for (size_t i = 0; i < ARRAY_LEN(former_ids); i++)
+        if (strcmp(id, former_ids[i].id) == 0 && plumb_criteria_find(set, former_ids[i].now)) {
+            snprintf(msg, size, "criterion '%s' was renamed '%s' (%s): give '%s'", id,
+                     former_ids[i].now, former_ids[i].why, former_ids[i].now);
+            return PLUMB_EKEY;
+        }
     /* the ids there are, as many as fit */
     char ids[CRIT_LIST_MAX];
     size_t len = 0;
@@ -175,9 +207,12 @@ plumb_status plumb_criteria_check_id(const plumb_criteria *set, const char *id, 
         len += (size_t)snprintf(ids + len, sizeof ids - len, "%s%s", i ? ", " : "", c);
     }
     char near[CRIT_LIST_MAX];
-    plumb_criteria_nearest_ids(set, id, near, sizeof near);
-    snprintf(msg, size, "unknown criterion '%s'; did you mean %s? (the criteria directory has "
-             "%zu: %s)", id, near, n, ids);
+    if (plumb_criteria_nearest_ids(set, id, near, sizeof near) > 0)
+        snprintf(msg, size, "unknown criterion '%s'; did you mean %s? (the criteria directory "
+                 "has %zu: %s)", id, near, n, ids);
+    else
+        snprintf(msg, size, "unknown criterion '%s'; the criteria directory has %zu: %s", id, n,
+                 ids);
     return PLUMB_EKEY;
 }
 

@@ -25,17 +25,26 @@
  *   - a required key now missing because its value was left out: a
  *     numeric one gets a stand-in, else the check stops;
  *   - a required key now missing whose misspelt twin (the unknown key of
- *     the same map whose did-you-mean it is) was listed: the misspelt key
- *     is read as the right one from then on, and its value checked;
+ *     the same map whose did-you-mean it is) was listed, or the twin of
+ *     a key the map takes instead of it (deploy: {belw: 20 m}, with
+ *     "after" missing: "give after: TIME or below: HEIGHT"): the misspelt
+ *     key is read as the right one from then on, and its value checked;
  *   - a list or map found wanting once a part of it was left out (a
- *     choice of one attitude once the other was): left out in turn;
+ *     choice of one attitude once the other was), or an uncertain input
+ *     (uncertainty.descent.cd) of a top-level section left out: left out
+ *     in turn;
  *   - a key missing under a map that was left out, or missing where a key
- *     of the same name was written one level too high: the check stops;
- *   - an error at the place of a stand-in: the check stops.
+ *     of the same name was written one level too high, and an error at
+ *     the place of a stand-in: the check cannot go on in that section, so
+ *     the top-level section that holds it (atmosphere, wind, descent ...)
+ *     is left out and the check goes on with the others; it stops when the
+ *     profile needs the section (payload, release).
  * A required numeric key missing on its own is listed and given a stand-in
- * where it should be, so that the check goes on. An error outside the file
+ * where it should be, so that the check goes on (a key of no stand-in, the
+ * rows of an air table, leaves its section out). An error outside the file
  * (a --set), or one that is not the user's (out of memory), stops it.
  */
+#include <ctype.h>
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -366,7 +375,7 @@ static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
         return 0;
     plumb_dim dim = plumby_num_dim(s);
     plumby_range range = plumby_num_range(s);
-    double c[12];
+    double c[12]; /* the written value twice, the plain ones, the middle */
     size_t nc = 0;
     if (text) {
         plumby_ctx ctx;
@@ -384,6 +393,13 @@ static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
     static const double plain[] = {1.0, 0.5, 0.0, 10.0, 100.0, 0.1, 1000.0, 0.01};
     for (size_t i = 0; i < sizeof plain / sizeof plain[0]; i++)
         c[nc++] = plain[i];
+    /* a range none of the plain values is in (air temperature, 150 K ..
+     * 400 K): its middle */
+    double lo, hi;
+    int lo_open, hi_open;
+    plumby_range_bounds(range, &lo, &hi, &lo_open, &hi_open);
+    if (isfinite(lo) && isfinite(hi))
+        c[nc++] = 0.5 * (lo + hi);
     int bare = dim == PLUMB_DIM_NONE || dim == PLUMB_DIM_FRACTION;
     for (size_t i = 0; i < nc; i++) {
         if (!isfinite(c[i]) || !plumby_range_ok(range, c[i]))
@@ -444,6 +460,20 @@ static int same_error(const plumb_diag *a, const plumb_diag *b)
            strcmp(a->key, b->key) == 0 && strcmp(a->message, b->message) == 0;
 }
 
+/* 1 when text names the key `word` as a whole word (not "cd" in
+ * "cd_area"). */
+static int names_word(const char *text, const char *word)
+{
+    size_t n = strlen(word);
+    for (const char *p = text; n > 0 && (p = strstr(p, word)) != NULL; p++) {
+        int before = p > text && (isalnum((unsigned char)p[-1]) || p[-1] == '_');
+        int after = isalnum((unsigned char)p[n]) || p[n] == '_';
+        if (!before && !after)
+            return 1;
+    }
+    return 0;
+}
+
 /* What an error about a key that is not written (a required key missing,
  * or a check of a map) follows from: 1 when it is a consequence of an
  * edit, now changed so that the check goes on; -1 when it is one and the
@@ -478,13 +508,15 @@ static int absent_consequence(lint_run *r, const plumb_diag *d)
         if (e->kind != ED_REMOVE || !dsplit || !split_key(e->key, epar, sizeof epar, &elast))
             continue;
         if (strcmp(epar, dpar) == 0) {
-            /* its misspelt twin: read under the name it should have */
+            /* its misspelt twin, or the twin of one of the keys the map
+             * takes instead of it (the message names them: "give after:
+             * TIME or below: HEIGHT"): read under the name it should have */
             const plumby_schema *ms = map_schema(dpar);
             const char *best = ms && !plumby_schema_child(ms, elast)
                                    ? plumby_schema_suggest(ms, elast) : NULL;
-            if (best && strcmp(best, dlast) == 0) {
+            if (best && (strcmp(best, dlast) == 0 || names_word(d->message, best))) {
                 e->kind = ED_RENAME;
-                plumbp_strlcpy(e->name, dlast, sizeof e->name);
+                plumbp_strlcpy(e->name, best, sizeof e->name);
                 return 1;
             }
         } else if (strcmp(elast, dlast) == 0 && (!epar[0] || key_holds(epar, dpar))) {
@@ -596,6 +628,24 @@ static int holds_left_out(const lint_run *r, const plumb_diag *d)
     return 0;
 }
 
+/* 1 when error d is about an uncertain input under a top-level section
+ * left out ("uncertainty.descent.cd" once descent is): no longer given,
+ * only because the section is left out. */
+static int uncertain_in_left_out(const lint_run *r, const plumb_diag *d)
+{
+    static const char unc[] = "uncertainty.";
+    if (strncmp(d->key, unc, sizeof unc - 1) != 0)
+        return 0;
+    const char *in = d->key + sizeof unc - 1;
+    for (size_t i = 0; i < r->n_ed; i++) {
+        const edit *e = &r->ed[i];
+        if (e->kind == ED_REMOVE && e->key[strcspn(e->key, ".[")] == '\0' &&
+            (strcmp(in, e->key) == 0 || key_holds(e->key, in)))
+            return 1;
+    }
+    return 0;
+}
+
 /* 1 when error d is at the place of a stand-in, or a key already listed. */
 static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag *errs, size_t n)
 {
@@ -603,6 +653,59 @@ static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag 
         if (strcmp(errs[i].key, d->key) == 0)
             return 1;
     return at_stand_in(r, NULL, d);
+}
+
+/* Where the check would stop at error d (a consequence it cannot go on
+ * past, or an error at a stand-in's place), the top-level section that
+ * holds d ("atmosphere" of "atmosphere.table") is left out instead, so
+ * that the check goes on with the other sections: 1 done, 0 when it
+ * cannot be (d is of the top level, the section is already left out, or
+ * the profile needs it: with it left out the check would stop at a
+ * top-level key missing, "payload" once "items" is gone, or at a key
+ * under it). What the section holds past d is not checked. */
+static int leave_out_section(lint_run *r, const plumb_diag *d)
+{
+    char top[PLUMB_DIAG_KEY];
+    size_t n = strcspn(d->key, ".[");
+    if (n == 0 || n >= sizeof top || r->n_ed >= LINT_EDITS)
+        return 0;
+    memcpy(top, d->key, n);
+    top[n] = '\0';
+    for (size_t i = 0; i < r->n_ed; i++)
+        if (r->ed[i].kind == ED_REMOVE && strcmp(r->ed[i].key, top) == 0)
+            return 0;
+    plumby_node *t = edited(r, r->n_ed);
+    const plumby_pair *p = t && t->kind == PLUMBY_MAP ? plumby_find(t, top) : NULL;
+    if (!p) {
+        plumby_free(t);
+        return 0;
+    }
+    edit *e = &r->ed[r->n_ed];
+    memset(e, 0, sizeof *e);
+    e->kind = ED_REMOVE;
+    e->line = p->line;
+    e->col = p->col;
+    plumbp_strlcpy(e->key, top, sizeof e->key);
+    plumby_free(t);
+    r->n_ed++;
+    plumb_diag d2;
+    plumb_status st = try_build(r, r->n_ed, &d2, NULL);
+    if (st == PLUMB_OK)
+        return 1;
+    int ok = plumb_status_is_input_error(st) && strcmp(d2.file, r->name) == 0 && d2.line > 0 &&
+             !at_stand_in(r, NULL, &d2) && strcmp(d2.key, top) != 0 && !key_holds(top, d2.key);
+    if (ok) {
+        plumby_node *t2 = edited(r, r->n_ed);
+        plumby_node *parent;
+        size_t j;
+        /* a key missing at the top level is one the section stood for */
+        ok = (t2 && find_at(t2, d2.line, d2.col, d2.key, &parent, &j)) ||
+             strcspn(d2.key, ".[") < strlen(d2.key);
+        plumby_free(t2);
+    }
+    if (!ok)
+        r->n_ed--;
+    return ok;
 }
 
 plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const plumby_node *tree,
@@ -653,8 +756,11 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             int c = absent_consequence(r, &d);
             if (c > 0)
                 continue;
-            if (c < 0 || no_progress(r, &d, errs, *n))
+            if (c < 0 || no_progress(r, &d, errs, *n)) {
+                if (leave_out_section(r, &d))
+                    continue;
                 break;
+            }
             errs[(*n)++] = d;
             if (first == PLUMB_OK)
                 first = st;
@@ -666,16 +772,23 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             if (!e)
                 break;
             plumbp_strlcpy(e->name, last, sizeof e->name);
-            if (!give_stand_in(r, e, ED_INSERT, schema_of(d.key), NULL))
+            if (!give_stand_in(r, e, ED_INSERT, schema_of(d.key), NULL)) {
+                if (leave_out_section(r, &d))
+                    continue;
                 break;
+            }
             r->n_ed++;
             continue;
         }
-        if (no_progress(r, &d, errs, *n))
+        if (no_progress(r, &d, errs, *n)) {
+            if (leave_out_section(r, &d))
+                continue;
             break;
-        if (holds_left_out(r, &d)) {
-            /* a list or map found wanting once a part of it was left out:
-             * left out as well, not listed */
+        }
+        if (holds_left_out(r, &d) || uncertain_in_left_out(r, &d)) {
+            /* a list or map found wanting once a part of it was left out,
+             * or an uncertain input of a section left out: left out as
+             * well, not listed */
             edit *e = new_edit(r, &d, ED_REMOVE);
             if (!e)
                 break;

@@ -264,6 +264,160 @@ check(rc == 2 and got == [("<stdin>",) + place(block, "eu-c9") + ("criteria[0]",
 rc, _, err = plumb("lint", fixed, "--set", "criteria=[us-part107-cat3]")
 check(rc == 0 and err == "", f"known ids only: exit 0 ({rc}, {err})")
 
+# ---- what lint goes on past, and what it leaves out ----------------------------
+# README.md "plumb lint": every error of a profile, in file order, leaving
+# out those that follow from one listed. Each case is checked in the three
+# formats (the JSON and CSV errors are the text's); the places are found
+# in the profile's text here.
+
+
+def lint_all(path, what):
+    """The text errors of `plumb lint path`, once the JSON and CSV are
+    checked to list the same ones, each format exiting 2."""
+    rc_t, out_t, err_t = plumb("lint", path)
+    errs = stderr_errors(err_t)
+    rc_j, out_j, _ = plumb("lint", path, "--format", "json")
+    d = json.loads(out_j) if out_j.startswith("{") else {}
+    jerrs = [(e["file"], e["line"], e["column"], e["key"], e["message"])
+             for p in d.get("profiles", []) for e in p.get("errors", [])]
+    rc_c, out_c, _ = plumb("lint", path, "--format", "csv")
+    cerrs = [(r["file"], int(r["line"]), int(r["column"]), r["key"], r["message"])
+             for r in csv_rows(out_c) if r["ok"] == "false"]
+    check((rc_t, rc_j, rc_c) == (2, 2, 2) and out_t == "" and jerrs == errs and cerrs == errs,
+          f"{what}: exit 2 in text, JSON and CSV, the same errors in each: "
+          f"{(rc_t, rc_j, rc_c)} {errs} / {jerrs} / {cerrs}")
+    return errs
+
+
+def write(name, text):
+    path = os.path.join(tmp, name)
+    with open(path, "w", encoding="utf-8") as f:
+        f.write(text)
+    return path
+
+
+# the criteria directory's ids: its files' names (README.md "Criteria":
+# "its id is the file name")
+CRIT_IDS = sorted(f[:-5] for f in os.listdir("profiles/criteria") if f.endswith(".yaml"))
+
+# 1. an air section in error does not end the check: the pressure missing
+# and the temperature refused (500 degF is 533 K, above the 400 K of the
+# key's range) are listed, then the wind speed (800 mph, 357.6 m/s, above
+# the 340.294 m/s of sea level) and both unknown criterion ids
+PROBE = """name: lint probe
+payload: {mass: 2 kg, shape: {kind: sphere, diameter: 0.1 m}}
+release: {height: 20 m}
+atmosphere: {model: surface, temperature: 500 degF}
+wind: {speed: 800 mph}
+criteria: [foo, bar-baz]
+"""
+probe = write("probe.yaml", PROBE)
+got = [e[1:4] for e in lint_all(probe, "an air section in error")]
+want = [place(PROBE, "{model: surface") + ("atmosphere.pressure",),
+        place(PROBE, "500 degF") + ("atmosphere.temperature",),
+        place(PROBE, "800 mph") + ("wind.speed",),
+        place(PROBE, "foo") + ("criteria[0]",),
+        place(PROBE, "bar-baz") + ("criteria[1]",)]
+check(got == want, f"the air's two errors, then the wind speed and both ids: {got} / {want}")
+# an air table of one row, which no stand-in mends: its error, then the
+# other sections' errors
+TABLE = PROBE.replace("{model: surface, temperature: 500 degF}",
+                      "{model: table, table: [{altitude: 0 m, density: 1.225 kg/m^3}]}")
+table = write("table.yaml", TABLE)
+got = [e[1:4] for e in lint_all(table, "an air table of one row")]
+want = [place(TABLE, "[{altitude") + ("atmosphere.table",),
+        place(TABLE, "800 mph") + ("wind.speed",),
+        place(TABLE, "foo") + ("criteria[0]",),
+        place(TABLE, "bar-baz") + ("criteria[1]",)]
+check(got == want, f"an air table of one row, then the other sections: {got} / {want}")
+
+# a descent whose deploy is no map, which no stand-in mends: left out after
+# its error, the check goes on; the uncertainty of its cd, given in the
+# file, is not then "not given"
+DESC = """name: descent left out
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 31.6 m}
+descent: {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: 5}
+wind: {speed: 800 mph}
+uncertainty:
+  descent.cd: {uniform: [0.7, 0.9]}
+criteria: [foo]
+"""
+desc = write("desc.yaml", DESC)
+got = [e[1:4] for e in lint_all(desc, "a descent left out")]
+want = [place(DESC, "5}") + ("descent.deploy",),
+        place(DESC, "800 mph") + ("wind.speed",),
+        place(DESC, "foo") + ("criteria[0]",)]
+check(got == want, f"a deploy that is no map, then the wind and the id, not the cd's "
+      f"uncertainty: {got} / {want}")
+
+# 2. a misspelt key that meant one of its map's alternatives: the other
+# alternative then missing is its consequence, not listed; the misspelt
+# key's value is checked under the name meant (a bare 20 where a length
+# is wanted)
+ALT = """name: alternatives
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+descent: {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: {below: 20 m}}
+release: {height: 31.6 m}
+"""
+for name, text, typo, meant, more in (
+        ("belw", ALT.replace("below:", "belw:"), "belw", "descent.deploy.belw", []),
+        ("belw-bare", ALT.replace("below: 20 m", "belw: 20"), "belw", "descent.deploy.belw",
+         [("20}", "descent.deploy.below")]),
+        ("shap", ALT.replace("drag: {cd_area: 0.0113 m^2}",
+                             "shap: {kind: sphere, diameter: 0.12 m}"), "shap", "payload.shap", []),
+        ("cd_are", ALT.replace("cd_area:", "cd_are:"), "cd_are", "payload.drag.cd_are", []),
+        ("diamter", ALT.replace("area: 1.2 m^2", "diamter: 1.24 m"), "diamter",
+         "descent.diamter", [])):
+    path = write(name + ".yaml", text)
+    errs = lint_all(path, f"a misspelt '{typo}'")
+    want = [place(text, typo) + (meant,)] + [place(text, n) + (k,) for n, k in more]
+    check([e[1:4] for e in errs] == want and "did you mean" in errs[0][4],
+          f"'{typo}': the misspelt key alone (and its value's own error), not the "
+          f"alternative missing: {errs} / {want}")
+
+# 3. an unknown id near no id: no did-you-mean, the directory's ids once
+# (the profile without its air section, which lint listed in full before)
+NOATM = PROBE.replace("atmosphere: {model: surface, temperature: 500 degF}\n", "")
+noatm = write("noatm.yaml", NOATM)
+errs = lint_all(noatm, "unknown ids near none")
+ids = [e for e in errs if e[3].startswith("criteria[")]
+check(len(ids) == 2 and CRIT_IDS and
+      all("did you mean" not in e[4] and all(e[4].count(i) == 1 for i in CRIT_IDS) for e in ids),
+      f"foo, bar-baz: no did-you-mean, each of the {len(CRIT_IDS)} ids once: {ids}")
+# ... while a near one still names only the nearest (eu-c2: 2 edits from
+# eu-c1, within PLUMB_SUGGEST_MAX_EDITS 3 and half its length)
+near = write("near.yaml", NOATM.replace("[foo, bar-baz]", "[eu-c2]"))
+errs = lint_all(near, "an id near one")
+check(len(errs) == 2 and "did you mean 'eu-c1-80j'?" in errs[1][4] and
+      errs[1][4].count("'eu-c1-80j'") == 1 and "'us-part107-cat3'" not in errs[1][4],
+      f"eu-c2: did you mean 'eu-c1-80j' alone: {errs[-1:]}")
+
+# 4. a former id is told its new one and why. The renames are those the
+# criteria files state: z89-type2-30j.yaml "was called z89-type2-31j" (31 J
+# rounded up from 30.625 J); ddesb-fragment-58ftlbf.yaml's limit "never the
+# rounded 79 J"
+with open("profiles/criteria/z89-type2-30j.yaml", encoding="utf-8") as f:
+    z89 = f.read()
+check("was called z89-type2-31j" in z89, "the Z89 file states its former id")
+OLD = NOATM.replace("[foo, bar-baz]", "[z89-type2-31j, ddesb-fragment-79j]")
+old = write("old.yaml", OLD)
+errs = lint_all(old, "former ids")
+msgs = {e[3]: e[4] for e in errs}
+check(len(errs) == 3 and
+      "criterion 'z89-type2-31j' was renamed 'z89-type2-30j'" in msgs.get("criteria[0]", "") and
+      "lenient" in msgs.get("criteria[0]", "") and
+      "criterion 'ddesb-fragment-79j' was renamed 'ddesb-fragment-58ftlbf'" in
+      msgs.get("criteria[1]", "") and "79 J" in msgs.get("criteria[1]", ""),
+      f"former ids: renamed to what, and why: {msgs}")
+rc, _, err = plumb("fall", write("old-fall.yaml", """name: former id
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 31.6 m}
+criteria: [z89-type2-31j]
+"""))
+check(rc == 2 and "was renamed 'z89-type2-30j'" in err,
+      f"plumb fall refuses a former id with the same words, exit 2 ({rc}, {err})")
+
 # ---- usage errors -------------------------------------------------------------
 dest = os.path.join(tmp, "x.json")
 rc, out, err = plumb("lint", GOOD, "--format", "xml", "-o", dest)
