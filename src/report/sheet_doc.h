@@ -183,7 +183,7 @@ void sheet_new_page(sheet_doc *d);
 
 /* The sections that are text (sheet_sections.c), in the sheet's order. */
 void sheet_section_header(sheet_doc *d, const plumb_brief *b);
-void sheet_section_answer(sheet_doc *d, const plumb_brief *b);
+plumb_status sheet_section_answer(sheet_doc *d, const plumb_brief *b, plumb_diag *diag);
 void sheet_section_inventory(sheet_doc *d, const plumb_brief *b);
 plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag *diag);
 void sheet_section_cautions(sheet_doc *d);
