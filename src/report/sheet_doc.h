@@ -103,7 +103,9 @@ typedef enum sheet_line {
     SHEET_SOLID = 0,   /* the planned fall, the clearance radius */
     SHEET_DASHED,      /* drag-free path, criteria limits */
     SHEET_DOTTED,      /* comparisons: ellipse, planned height */
-    SHEET_DASHDOT
+    SHEET_DASHDOT,
+    SHEET_DASHDOTDOT,  /* the energy plot's third item */
+    SHEET_LONGDASH     /* the energy plot's fourth item: long dashes, short gaps */
 } sheet_line;
 void sheet_stroke(sheet_doc *d, sheet_line style, double width);
 
