@@ -186,7 +186,12 @@ static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, co
     int exceeds = 0;
     cells[0] = sheet_fmt(d, "%zu", plumb_profile_item_number(b->profile, b->order[r]));
     cells[1] = sheet_esc(d, it->spec->name);
-    cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
+    /* the mass as the text report's table gives it (TEXT_SIG figures, no
+     * padding zeros: "0.9 kg", not "0.9000 kg", which claims a precision
+     * the profile did not give) */
+    cells[2] = sheet_fmt(d, "%s %s",
+                         plumbp_gnum(P, it->spec->mass_kg / (P->us ? PLUMB_LB_KG : 1.0), TEXT_SIG),
+                         P->us ? "lb" : "kg");
     cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
     for (size_t k = 0; k < b->n_criteria; k++) {
         cells[4 + k] = "-";

@@ -65,6 +65,10 @@ static double field(sheet_doc *d, double x, double y, double w, const char *labe
         sheet_stroke(d, SHEET_SOLID, 0.5);
         from = name_end + 8.0;
     }
+    /* the signature at one column, given a name or not, so that every
+     * signed row's lines stand under each other */
+    if (sign)
+        from = x + w * 0.5 + 8.0;
     if (sign) {
         sheet_text(d, from, y, 0.0, font, "signature", 1);
         from += sheet_text_width(d, font, "signature") + 4.0;
@@ -805,9 +809,12 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                               1.3, ""};
         if (r == 0)
             snprintf(pg->label, sizeof pg->label,
-                     "dotted outline: the landing region, %s%% of impacts inside (%s)",
+                     "dotted outline: the landing region, %s%% of impacts inside (%s%s)",
                      sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->landing.p, 2)),
-                     sheet_fmt(d, "%s", plumbp_t_region_area(P, rg->area_m2)));
+                     sheet_fmt(d, "%s", plumbp_t_region_area(P, rg->area_m2)),
+                     /* the text report's words for the buffered area */
+                     s->scatter_m > 0.0 ? " with the scatter allowance as a buffer"
+                                        : ", no scatter allowance added");
     }
     pv.n_points = b->n_points[0];
     pv.points_m = b->points_m[0];

@@ -2,7 +2,9 @@
 after its own '_', '-' or '/', and cuts one with none where the column
 ends, marking each cut with a trailing backslash as the text reports do
 (src/report/textout.h, CUT_MARK); the name column stays within a cap (it
-took half the page for one 57-letter name). Read back with poppler's
+took half the page for one 57-letter name); the masses without padding
+zeros, and "Prepared by" and "Checked by" with their signatures in one
+column whether a name is given or not. Read back with poppler's
 pdftotext -bbox (independent of cairo and pango, which wrote it).
 """
 import os
@@ -73,6 +75,17 @@ check(len(ps) >= 2 and all(t.endswith("\\") for _, _, t in ps[:-1]) and not ps[-
 check("".join(t.rstrip("\\") for _, _, t in ps) == BARE, "its lines, marks taken off, make it up whole")
 widest = max((x1 - x0 for x0, x1, _ in ps), default=BODY_W)
 check(widest < 0.35 * BODY_W, f"the cut name within the cap: {widest:.0f} pt of {BODY_W:.0f}")
+
+# the masses as the text report's table gives them (plumb fall: %.4g),
+# not padded with zeros the profile did not give
+plain = re.sub(r"\s+", " ", subprocess.run(["pdftotext", pdf, "-"], capture_output=True,
+                                           text=True).stdout.replace("\u00a0", " "))
+for m in ("0.9 kg", "0.381 kg", "0.212 kg"):
+    check(m in plain, f"the table's mass '{m}'")
+check("0.9000 kg" not in plain and "0.2120 kg" not in plain, "no mass padded with zeros")
+# "Prepared by" with a name and "Checked by" without: one signature column
+sig = [x0 for x0, _, t in words if t == "signature"]
+check(len(sig) == 2 and abs(sig[0] - sig[1]) < 0.5, f"the signature lines under each other: {sig}")
 
 shutil.rmtree(tmp)
 finish()

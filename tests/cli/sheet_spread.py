@@ -14,6 +14,8 @@ back with poppler's pdftotext (independent of cairo and pango):
   still-mass.yaml: only the mass uncertain, from rest, no wind) gives no
   bearing for an ellipse it does not have ("every sample lands on the same
   point", as the text report says) and no bare "Keep clear: 0 m";
+- the landing region's area says whether the scatter allowance is in it
+  (profiles/demo/drone-canopy.yaml has one);
 - on every page the footer's short caution.
 """
 import json
@@ -106,7 +108,17 @@ for line in block.splitlines():
         words = squeeze(rest).split(";")[0]
         check(f"{key} {words}" in text, f"the uncertain input '{key} {words}' on the sheet")
 check(NO_SCATTER in text, "no zone.scatter: the sheet says bounce and deflection are not included")
+check(re.search(r"of impacts inside \([^)]*, no scatter allowance added\)", text) is not None,
+      "no zone.scatter: the landing region's area says no allowance was added")
 footers(pages, "late canopy")
+
+# ---- with a scatter allowance: the landing region's area includes it, and says so
+pages = sheet(os.path.join(os.path.dirname(os.path.dirname(HERE)), "profiles/demo/drone-canopy.yaml"),
+              "canopy.pdf")
+text = " ".join(pages)
+check(re.search(r"of impacts inside \([^)]* with the scatter allowance as a buffer\)", text)
+      is not None, "zone.scatter given: the landing region's area is said to include it")
+check(NO_SCATTER not in text, "zone.scatter given: not said to be missing")
 
 # ---- every sample on one point -----------------------------------------------------
 pages = sheet(STILL, "still.pdf")
