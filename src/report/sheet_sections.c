@@ -316,14 +316,14 @@ static void verdict_header(sheet_doc *d, const char *bold, int continued)
     d->y += SHEET_BODY * 1.5;
 }
 
-/* The zone's exceedance of criterion c, when the zone is of the item
- * judged in the verdict table (it): NULL otherwise. */
+/* The zone's exceedance of criterion c for item (an index of the fall
+ * report, as of the zone's items): NULL when there is none. */
 static const plumb_zone_exceedance *zone_share(const plumb_brief *b, size_t item,
                                                const plumb_criterion *c)
 {
-    if (!b->zone || b->zone_item != item)
+    if (!b->zone || item >= b->zone->n_items)
         return NULL;
-    const plumb_zone_stats *z = &b->zone->items[b->zone_item].result->zone;
+    const plumb_zone_stats *z = &b->zone->items[item].result->zone;
     for (size_t i = 0; i < z->n_exceedance; i++)
         if (z->exceedance[i].criterion == c ||
             strcmp(z->exceedance[i].criterion->id, c->id) == 0)
@@ -495,12 +495,14 @@ static void input_list(sheet_doc *d, const char *font, const char *text)
 }
 
 /* "Spread over N samples": what the zone's samples say beside the planned
- * fall's figures above. The energy at 50, 95 and 99 % (the zone's own
- * figures, plumbp_t_zone_energy), the share of samples above each
- * criterion's limit with its upper bound, the zone's warnings in the text
- * report's words (plumbp_t_warning) and the uncertain inputs the radius
- * rests on, as `plumb zone` echoes them (its text report of the zone's
- * item, read back). Nothing when there is no zone. */
+ * fall's figures above, for the item those are of (a kit's worst). The
+ * energy at 50, 95 and 99 % (the zone's own figures,
+ * plumbp_t_zone_energy), the share of samples above each criterion's
+ * limit with its upper bound, the zone's warnings in the text report's
+ * words (plumbp_t_warning; of a kit, the worst item's and the one's that
+ * sets the clearance, each named) and the uncertain inputs the radius
+ * rests on, as `plumb zone` echoes them (its text report of the item that
+ * sets the clearance, read back). Nothing when there is no zone. */
 static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag *diag)
 {
     if (!b->zone)
@@ -509,14 +511,15 @@ static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag 
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 9.0);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
     writer *P = sheet_primary(d);
-    const plumb_zone_item *zi = &b->zone->items[b->zone_item];
-    const plumb_zone_result *r = zi->result;
+    int kit = b->zone->n_items > 1;
+    size_t worst = b->order[0] < b->zone->n_items ? b->order[0] : b->zone_item;
+    const plumb_zone_item *zi = &b->zone->items[b->zone_item], *zw = &b->zone->items[worst];
+    const plumb_zone_result *r = zw->result;
     const plumb_zone_stats *z = &r->zone;
     d->y += GAP / 2.0;
     sheet_need(d, 5.0 * SHEET_BODY * 1.4);
-    sheet_para(d, bold, b->zone->n_items > 1
-                            ? sheet_fmt(d, "Spread over %zu samples of %s, the item that sets "
-                                           "the clearance", z->samples, zi->name)
+    sheet_para(d, bold, kit ? sheet_fmt(d, "Spread over %zu samples of %s, the item judged above",
+                                        z->samples, zw->name)
                             : sheet_fmt(d, "Spread over %zu samples", z->samples));
     const plumb_zone_quantile *e = z->energy;
     sheet_para(d, font,
@@ -538,13 +541,20 @@ static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag 
                              sheet_esc(d, plumbp_t_pct(P, x->hi)),
                              sheet_esc(d, plumbp_t_pct(P, r->ci_level))));
     }
-    if (r->n_warnings > 0) {
+    const plumb_zone_item *warned[2] = {zw, zi};
+    size_t n_warned = zi != zw ? 2 : 1;
+    if (zw->result->n_warnings > 0 || (n_warned > 1 && zi->result->n_warnings > 0)) {
         sheet_need(d, 3.0 * SHEET_BODY * 1.4);
         sheet_para(d, bold, "The zone's warnings");
-        for (size_t i = 0; i < r->n_warnings; i++) {
+    }
+    for (size_t k = 0; k < n_warned; k++) {
+        const plumb_zone_result *wr = warned[k]->result;
+        for (size_t i = 0; i < wr->n_warnings; i++) {
             char text[PLUMB_ZONE_WARNING * 2];
-            sheet_para(d, font, sheet_fmt(d, "\u2022 %s",
-                                          plumbp_t_warning(P, r->warnings[i], text, sizeof text)));
+            plumbp_t_warning(P, wr->warnings[i], text, sizeof text);
+            /* a kit's each named, as the text report heads each item's */
+            sheet_para(d, font, kit ? sheet_fmt(d, "\u2022 %s: %s", warned[k]->name, text)
+                                    : sheet_fmt(d, "\u2022 %s", text));
         }
     }
     /* the inputs as plumb zone echoes them: its text report of this item */
@@ -564,7 +574,9 @@ static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag 
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
     if (st == PLUMB_OK) {
         sheet_need(d, 3.0 * SHEET_BODY * 1.4);
-        sheet_para(d, bold, "The uncertain inputs the clearance radius rests on");
+        sheet_para(d, bold, kit ? sheet_fmt(d, "The uncertain inputs the clearance radius "
+                                               "rests on (of %s, the item that sets it)", zi->name)
+                                : "The uncertain inputs the clearance radius rests on");
         input_list(d, font, buf);
     }
     free(buf);

@@ -14,6 +14,8 @@ back with poppler's pdftotext (independent of cairo and pango):
   still-mass.yaml: only the mass uncertain, from rest, no wind) gives no
   bearing for an ellipse it does not have ("every sample lands on the same
   point", as the text report says) and no bare "Keep clear: 0 m";
+- a kit (profiles/demo/tower-kit.yaml): the spread and the verdicts
+  shares are of the worst item, the one the verdict table judges;
 - the landing region's area says whether the scatter allowance is in it
   (profiles/demo/drone-canopy.yaml has one);
 - on every page the footer's short caution.
@@ -119,6 +121,19 @@ text = " ".join(pages)
 check(re.search(r"of impacts inside \([^)]* with the scatter allowance as a buffer\)", text)
       is not None, "zone.scatter given: the landing region's area is said to include it")
 check(NO_SCATTER not in text, "zone.scatter given: not said to be missing")
+
+# ---- a kit: the spread is of the item the verdict table judges (the worst),
+# not only of the one that sets the clearance
+KIT = os.path.join(os.path.dirname(os.path.dirname(HERE)), "profiles/demo/tower-kit.yaml")
+pages = sheet(KIT, "kit.pdf")
+text = " ".join(pages)
+rc, out, err = plumb("fall", KIT, "--format", "json")
+worst = json.loads(out)["worst"]
+worst = worst["name"] if isinstance(worst, dict) else worst
+check(f"samples of {worst}, the item judged above" in text,
+      f"kit: the spread is of the worst item, {worst}")
+check(re.search(r"(within|exceeds) \(nominal\) [\d.]+ % of samples above", pages[0]) is not None,
+      "kit: the worst item's verdicts carry its share of samples above")
 
 # ---- every sample on one point -----------------------------------------------------
 pages = sheet(STILL, "still.pdf")
