@@ -55,7 +55,8 @@ typedef struct plumb_brief_plot {
     size_t n_deploy;             /* descent devices deployed: where, on the path */
     double deploy_d_m[PLUMB_MAX_DESCENT], deploy_z_m[PLUMB_MAX_DESCENT];
     size_t deploy_device[PLUMB_MAX_DESCENT]; /* [k]: which descent[] deployed there */
-    size_t n_curve;              /* energy against drop height */
+    size_t n_curve;              /* energy against drop height, over the same
+                                    heights for every plotted item */
     double curve_h_m[PLUMB_BRIEF_CURVE], curve_e_j[PLUMB_BRIEF_CURVE];
     int curve_ok[PLUMB_BRIEF_CURVE]; /* 0: no fall at that height (a gap in the curve) */
     size_t n_limits;             /* one per verdict of the item, in its order */

@@ -9,8 +9,10 @@
  *
  * Each brief gives, in this order: 1 the header (job, date and time of
  * the calculation, prepared and checked by, version, the SHA-256 of the
- * profile and of every criteria file, the seed), 2 the answer (with what
- * the fall made of each descent device), 3 a side view of the fall, 4
+ * profile and of every criteria file, the seed), 2 the answer (with the
+ * zone's spread beside the planned fall: energy percentiles, the share of
+ * samples above each limit, the zone's warnings and uncertain inputs; and
+ * what the fall made of each descent device), 3 a side view of the fall, 4
  * impact energy against drop height with each criterion's limit, 5 the
  * plan view of the clearance zone, 6 for an inventory the table of items
  * worst first (and each item's descent devices), 7 the inputs as

@@ -306,6 +306,35 @@ const char *plumbp_t_zone_len(writer *w, double m)
     return b;
 }
 
+/* Decimals of a zone's energies (a millijoule) and percents (a hundredth). */
+#define ZONE_ENERGY_DEC 3
+#define ZONE_PCT_DEC 2
+
+const char *plumbp_t_zone_energy(writer *w, double j)
+{
+    char *b = slot(w);
+    if (w->us)
+        snprintf(b, NUMBUF, "%s ft·lbf (%s J)",
+                 plumbp_trim_to(w, j / PLUMB_FT_LBF_J, TEXT_SIG, ZONE_ENERGY_DEC, 0),
+                 plumbp_trim_to(w, j, TEXT_SIG, ZONE_ENERGY_DEC, 0));
+    else
+        snprintf(b, NUMBUF, "%s J (%s ft·lbf)", plumbp_trim_to(w, j, TEXT_SIG, ZONE_ENERGY_DEC, 0),
+                 plumbp_trim_to(w, j / PLUMB_FT_LBF_J, TEXT_SIG, ZONE_ENERGY_DEC, 0));
+    return b;
+}
+
+const char *plumbp_t_pct(writer *w, double p)
+{
+    char *b = slot(w);
+    double x = 100.0 * p;
+    /* a small non-zero share keeps two figures rather than rounding to 0 */
+    if (x > 0.0 && x < 0.5 * pow(10.0, -ZONE_PCT_DEC))
+        snprintf(b, NUMBUF, "%.2g %%", x);
+    else
+        snprintf(b, NUMBUF, "%s %%", plumbp_trim_to(w, x, TEXT_SIG, ZONE_PCT_DEC, 1));
+    return b;
+}
+
 /* format.h. The centre is fixed by m = min(pilot, max(1, N / 4)) samples
  * (plumb_zone_stats.landing_training) and the circle bounded from the
  * other N - m, which must number plumb_zone_min_samples(confidence,

@@ -76,6 +76,13 @@ const char *plumbp_t_len(writer *w, double m);
  * (nearly) nothing reads "0 m", not "0.000002872 ft". The text report's
  * zone and the sheet share it. */
 const char *plumbp_t_zone_len(writer *w, double m);
+/* A zone's energy percentile, "59.43 J (43.84 ft·lbf)": TEXT_SIG figures,
+ * no digit below a millijoule; and a zone's share or probability p (a
+ * fraction) as a percent, "37.2 %", no digit below a hundredth of a
+ * percent, a small non-zero share kept at two figures. The text report's
+ * zone and the sheet share them. */
+const char *plumbp_t_zone_energy(writer *w, double j);
+const char *plumbp_t_pct(writer *w, double p);
 const char *plumbp_t_size(writer *w, double m);
 const char *plumbp_t_offset(writer *w, double x, const char *pos, const char *neg);
 const char *plumbp_t_speed(writer *w, double v);
@@ -125,6 +132,10 @@ int plumbp_warning_plain(const char *text, int us, char *out, size_t size);
  * both say it in these words (one function, so that they cannot
  * diverge). Writes at most size bytes to out and returns it. */
 #define PLUMBP_OPEN_BOUND "open: more samples needed to bound it"
+/* What a zone without zone.scatter leaves out, in the words of the text
+ * report and the sheet. */
+#define PLUMBP_NO_SCATTER \
+    "no scatter allowance given (zone.scatter): bounce and deflection are not included"
 const char *plumbp_landing_open(const plumb_zone_result *r, char *out, size_t size);
 
 /* A criterion's source ("not given" when empty) into buf: in a US report

@@ -45,7 +45,9 @@ static plumb_status draw_all(sheet_doc *d, const plumb_brief *const *briefs, siz
         d->y = d->top;
         plumbp_strlcpy(d->footer_hash, plumb_profile_sha256(b->profile), sizeof d->footer_hash);
         sheet_section_header(d, b);
-        sheet_section_answer(d, b);
+        st = sheet_section_answer(d, b, diag);
+        if (st != PLUMB_OK)
+            break;
         sheet_section_plots(d, b);
         sheet_section_plan(d, b);
         if (b->fall->n_items > 1)

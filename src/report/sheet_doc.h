@@ -103,7 +103,9 @@ typedef enum sheet_line {
     SHEET_SOLID = 0,   /* the planned fall, the clearance radius */
     SHEET_DASHED,      /* drag-free path, criteria limits */
     SHEET_DOTTED,      /* comparisons: ellipse, planned height */
-    SHEET_DASHDOT
+    SHEET_DASHDOT,
+    SHEET_DASHDOTDOT,  /* the energy plot's third item */
+    SHEET_LONGDASH     /* the energy plot's fourth item: long dashes, short gaps */
 } sheet_line;
 void sheet_stroke(sheet_doc *d, sheet_line style, double width);
 
@@ -183,7 +185,7 @@ void sheet_new_page(sheet_doc *d);
 
 /* The sections that are text (sheet_sections.c), in the sheet's order. */
 void sheet_section_header(sheet_doc *d, const plumb_brief *b);
-void sheet_section_answer(sheet_doc *d, const plumb_brief *b);
+plumb_status sheet_section_answer(sheet_doc *d, const plumb_brief *b, plumb_diag *diag);
 void sheet_section_inventory(sheet_doc *d, const plumb_brief *b);
 plumb_status sheet_section_inputs(sheet_doc *d, const plumb_brief *b, plumb_diag *diag);
 void sheet_section_cautions(sheet_doc *d);

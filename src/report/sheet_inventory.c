@@ -24,6 +24,101 @@ enum { TABLE_COLS = 6 + PLUMB_MAX_VERDICTS };
 #define TABLE_PT_MIN 6.5
 /* Space between columns, pt (table_row leaves it at each column's right). */
 #define TABLE_PAD 4.0
+/* The widest the item's name asks its column to be, as a share of the
+ * width: a name wider than that is broken (name_lines), so that one long
+ * name without spaces does not take half the page from the figures. */
+#define NAME_CAP 0.3
+
+/* 1 when a name may break after byte c, as the text reports break a word
+ * (textout.h, break_after): after a hyphen, a slash or an underscore. */
+static int name_break(char c)
+{
+    return c == '-' || c == '/' || c == '_';
+}
+
+/* s[0..n) escaped for pango markup into out (size bytes, cut short at a
+ * whole entity), appended at *o. Uses no ring: a row's cells live in
+ * sheet_fmt's ring while its name is laid out. */
+static void esc_into(char *out, size_t size, size_t *o, const char *s, size_t n)
+{
+    for (size_t i = 0; i < n && *o + 7 < size; i++) {
+        const char *ent = s[i] == '&' ? "&amp;" : s[i] == '<' ? "&lt;" : s[i] == '>' ? "&gt;"
+                                                : NULL;
+        if (ent)
+            *o += (size_t)snprintf(out + *o, size - *o, "%s", ent);
+        else
+            out[(*o)++] = s[i];
+    }
+    out[*o] = '\0';
+}
+
+/* The width of name[0..n) in font, as text, with `mark` after it. */
+static double piece_width(sheet_doc *d, const char *font, const char *name, size_t n,
+                          const char *mark)
+{
+    char buf[FMT_LEN];
+    size_t o = 0;
+    esc_into(buf, sizeof buf, &o, name, n);
+    esc_into(buf, sizeof buf, &o, mark, strlen(mark));
+    return sheet_text_width(d, font, buf);
+}
+
+/* The item's name as markup into out (size bytes) in lines of at most w
+ * points in font: its words as pango wraps them, a word wider than w
+ * broken after its own '-', '/' or '_' (as much as fits on each line),
+ * and only a piece with none cut where the line ends, the cut marked with
+ * CUT_MARK ('\\') as the text reports mark theirs (textout.h): no
+ * character added or dropped but the marks. */
+static const char *name_lines(sheet_doc *d, const char *font, const char *name, double w,
+                              char *out, size_t size)
+{
+    size_t o = 0;
+    out[0] = '\0';
+    const char *p = name;
+    while (*p && o + 8 < size) {
+        size_t sp = strcspn(p, " ");
+        size_t len = sp;
+        /* a word that fits is left to pango */
+        while (len > 0 && piece_width(d, font, p, len, "") > w && o + 8 < size) {
+            /* the longest head ending at a break character that fits */
+            size_t brk = 0, fit = 0;
+            for (size_t i = 1; i <= len; i++) {
+                if (i < len && (p[i] & 0xC0) == 0x80)
+                    continue; /* inside a character */
+                if (piece_width(d, font, p, i, "") > w)
+                    break;
+                if (name_break(p[i - 1]))
+                    brk = i;
+            }
+            if (!brk) {
+                /* none: as many whole characters as fit with the mark */
+                for (size_t i = 1; i <= len; i++) {
+                    if (i < len && (p[i] & 0xC0) == 0x80)
+                        continue;
+                    if (piece_width(d, font, p, i, CUT_MARK) > w)
+                        break;
+                    fit = i;
+                }
+                if (!fit) /* no room even for one: one, so the name moves on */
+                    while (fit < len && (fit == 0 || (p[fit] & 0xC0) == 0x80))
+                        fit++;
+            }
+            size_t head = brk ? brk : fit;
+            esc_into(out, size, &o, p, head);
+            esc_into(out, size, &o, brk ? "\n" : CUT_MARK "\n", brk ? 1 : 2);
+            p += head;
+            len -= head;
+            sp -= head;
+        }
+        esc_into(out, size, &o, p, len);
+        p += sp;
+        if (*p == ' ') {
+            esc_into(out, size, &o, " ", 1);
+            p++;
+        }
+    }
+    return out;
+}
 
 /* One table of section 6: the criteria k0 .. k1 - 1 as ratio columns;
  * `full` adds mass, energy, verdict and drift (the first table). */
@@ -91,7 +186,12 @@ static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, co
     int exceeds = 0;
     cells[0] = sheet_fmt(d, "%zu", plumb_profile_item_number(b->profile, b->order[r]));
     cells[1] = sheet_esc(d, it->spec->name);
-    cells[2] = sheet_fmt(d, "%s", plumbp_t_mass(P, it->spec->mass_kg));
+    /* the mass as the text report's table gives it (TEXT_SIG figures, no
+     * padding zeros: "0.9 kg", not "0.9000 kg", which claims a precision
+     * the profile did not give) */
+    cells[2] = sheet_fmt(d, "%s %s",
+                         plumbp_gnum(P, it->spec->mass_kg / (P->us ? PLUMB_LB_KG : 1.0), TEXT_SIG),
+                         P->us ? "lb" : "kg");
     cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
     for (size_t k = 0; k < b->n_criteria; k++) {
         cells[4 + k] = "-";
@@ -150,10 +250,29 @@ static void inventory_words(sheet_doc *d, const plumb_brief *b, double *need8)
         need8[c] = 0.0;
     inventory_header_cells(b, cells, &rs);
     widest_words(d, cells, n, bold, need8);
+    double name_need = need8[1];
     for (size_t r = 0; r < b->fall->n_items; r++) {
         inventory_row_cells(d, b, r, cells, &rs);
+        double item = need8[1];
         widest_words(d, cells, n, font, need8);
+        need8[1] = item; /* the name's, below */
+        /* the name: its widest piece between breaks, up to the cap */
+        const char *nm = b->fall->items[b->order[r]].spec->name;
+        for (const char *q = nm; *q;) {
+            size_t len = 0;
+            while (q[len] && q[len] != ' ' && !(len > 0 && name_break(q[len - 1])))
+                len++;
+            if (len > 0) {
+                double pw = piece_width(d, font, q, len, "");
+                if (pw > name_need)
+                    name_need = pw;
+            }
+            q += len;
+            q += strspn(q, " ");
+        }
     }
+    double cap = NAME_CAP * sheet_width(d);
+    need8[1] = name_need < cap ? name_need : cap;
 }
 
 /* What column c of t needs at its size, pt. */
@@ -207,6 +326,16 @@ static void table_columns(const plumb_brief *b, inv_table *t, const double *need
             width[c] = need[c] + (W - total) * (more > 0.0 ? fmax(want[c] * W - need[c], 0.0) / more
                                                            : (c == 1 ? 1.0 : 0.0));
     }
+    /* the name's column no wider than its cap (unless its need is), the
+     * rest to the other columns alike */
+    double cap = fmax(NAME_CAP * W, need[1]);
+    if (t->n > 2 && width[1] > cap) {
+        double extra = (width[1] - cap) / (double)(t->n - 1);
+        width[1] = cap;
+        for (size_t c = 0; c < t->n; c++)
+            if (c != 1)
+                width[c] += extra;
+    }
     t->cx[0] = 0.0;
     for (size_t c = 1; c < t->n; c++)
         t->cx[c] = t->cx[c - 1] + width[c - 1] / W;
@@ -242,14 +371,19 @@ static size_t inventory_tables(const plumb_brief *b, const double *need8, double
     return nt;
 }
 
+/* A row of t; `name` the item's name as given (NULL: the header row),
+ * drawn in lines of its column (name_lines). */
 static double table_row(sheet_doc *d, const plumb_brief *b, const inv_table *t,
-                        const char *const *all, const char *font, int draw)
+                        const char *const *all, const char *name, const char *font, int draw)
 {
     double w = sheet_width(d), h = 0.0;
     for (size_t c = 0; c < t->n; c++) {
         double cw = (c + 1 < t->n ? t->cx[c + 1] : 1.0) * w - t->cx[c] * w - TABLE_PAD;
+        size_t f = table_col(b, t, c);
+        char lines[FMT_LEN];
         double ch = sheet_text(d, d->left + t->cx[c] * w, d->y, cw, font,
-                               all[table_col(b, t, c)], draw);
+                               f == 1 && name ? name_lines(d, font, name, cw, lines, sizeof lines)
+                                              : all[f], draw);
         if (ch > h)
             h = ch;
     }
@@ -262,9 +396,9 @@ static void inventory_header(sheet_doc *d, const plumb_brief *b, const inv_table
     const char *cells[TABLE_COLS];
     ratio_store rs;
     inventory_header_cells(b, cells, &rs);
-    double h = table_row(d, b, t, cells, bold, 0);
+    double h = table_row(d, b, t, cells, NULL, bold, 0);
     sheet_need(d, h + 16.0);
-    table_row(d, b, t, cells, bold, 1);
+    table_row(d, b, t, cells, NULL, bold, 1);
     d->y += h + 1.0;
     cairo_move_to(d->cr, d->left, d->y);
     cairo_line_to(d->cr, d->right, d->y);
@@ -323,13 +457,14 @@ void sheet_section_inventory(sheet_doc *d, const plumb_brief *b)
             const char *cells[TABLE_COLS];
             ratio_store rs;
             inventory_row_cells(d, b, r, cells, &rs);
-            double h = table_row(d, b, t, cells, font, 0);
+            const char *name = b->fall->items[b->order[r]].spec->name;
+            double h = table_row(d, b, t, cells, name, font, 0);
             if (d->y + h > d->bottom) {
                 sheet_new_page(d);
                 inventory_header(d, b, t, bold);
                 inventory_row_cells(d, b, r, cells, &rs); /* the page's footer used the ring */
             }
-            table_row(d, b, t, cells, font, 1);
+            table_row(d, b, t, cells, name, font, 1);
             d->y += h + 1.5;
         }
     }

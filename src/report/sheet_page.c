@@ -129,7 +129,8 @@ void sheet_text_at(sheet_doc *d, double x, double y, int align, const char *font
 
 void sheet_stroke(sheet_doc *d, sheet_line style, double width)
 {
-    static const double dash[] = {5.0, 3.0}, dot[] = {1.0, 2.5}, dashdot[] = {6.0, 2.5, 1.0, 2.5};
+    static const double dash[] = {5.0, 3.0}, dot[] = {1.0, 2.5}, dashdot[] = {6.0, 2.5, 1.0, 2.5},
+                        dashdotdot[] = {6.0, 2.0, 1.0, 2.0, 1.0, 2.0}, longdash[] = {12.0, 2.5};
     cairo_set_line_width(d->cr, width);
     switch (style) {
     case SHEET_DASHED: cairo_set_dash(d->cr, dash, 2, 0.0); break;
@@ -138,6 +139,8 @@ void sheet_stroke(sheet_doc *d, sheet_line style, double width)
         cairo_set_dash(d->cr, dot, 2, 0.0);
         break;
     case SHEET_DASHDOT: cairo_set_dash(d->cr, dashdot, 4, 0.0); break;
+    case SHEET_DASHDOTDOT: cairo_set_dash(d->cr, dashdotdot, 6, 0.0); break;
+    case SHEET_LONGDASH: cairo_set_dash(d->cr, longdash, 2, 0.0); break;
     default: cairo_set_dash(d->cr, NULL, 0, 0.0); break;
     }
     cairo_stroke(d->cr);

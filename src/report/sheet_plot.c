@@ -187,8 +187,10 @@ static void polyline(sheet_doc *d, const sheet_axes *a, const double *x, const d
     }
 }
 
+/* The energy plot's curves: none dashed like the limits' lines nor dotted
+ * like the planned height's, and none like another. */
 static const sheet_line item_styles[PLUMB_BRIEF_PLOTTED] = {SHEET_SOLID, SHEET_DASHDOT,
-                                                            SHEET_DOTTED, SHEET_DASHED};
+                                                            SHEET_DASHDOTDOT, SHEET_LONGDASH};
 
 /* ---- where the limits' labels go -----------------------------------------------
  * Each label is a box tried along its own line, just above or below it,
@@ -675,7 +677,9 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     ly += legend(d, x, ly, w, SHEET_DOTTED, 1.2, "the planned drop height");
     if (ylog)
         ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
-                         "The energy axis is logarithmic: each step up is ten times the energy.",
+                         "The energy axis is logarithmic: its marks are at 1, 2 and 5 times "
+                         "each power of ten, and equal distances up are equal ratios of energy "
+                         "(10 to 100 as far as 100 to 1000).",
                          1) + 1.5;
     /* a curve with no figures at some heights says why, rather than
      * leaving a gap the reader might take for zero energy */

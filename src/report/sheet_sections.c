@@ -65,6 +65,10 @@ static double field(sheet_doc *d, double x, double y, double w, const char *labe
         sheet_stroke(d, SHEET_SOLID, 0.5);
         from = name_end + 8.0;
     }
+    /* the signature at one column, given a name or not, so that every
+     * signed row's lines stand under each other */
+    if (sign)
+        from = x + w * 0.5 + 8.0;
     if (sign) {
         sheet_text(d, from, y, 0.0, font, "signature", 1);
         from += sheet_text_width(d, font, "signature") + 4.0;
@@ -184,19 +188,38 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
     if (b->zone->n_items > 1)
         snprintf(who, sizeof who, " (set by %s, the item with the largest radius)",
                  b->zone->items[b->zone_item].name);
-    sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s %s around the planned drop point",
-                                  plumbp_t_clear(P, plumbp_t_len, s->clearance_radius_m),
-                                  beside(d, plumbp_t_clear(S, plumbp_t_len, s->clearance_radius_m))));
-    sheet_para(d, font, sheet_fmt(d, "%s%% of impacts fall within this radius, taken as the upper "
-                                     "%s%% confidence bound from %zu samples%s%s%s%s.",
-                                  plumbp_trimmed(P, 100.0 * z->confidence, 2),
-                                  plumbp_trimmed(P, 100.0 * z->ci_level, 2), z->samples,
-                                  s->scatter_m > 0.0 ? ", plus a scatter allowance of " : "",
-                                  s->scatter_m > 0.0
-                                      ? sheet_fmt(d, "%s %s", plumbp_t_len(P, s->scatter_m),
-                                                  beside(d, plumbp_t_len(S, s->scatter_m)))
-                                      : "",
-                                  s->scatter_m > 0.0 ? " for bounce and roll" : "", who));
+    const char *keep = plumbp_t_clear(P, plumbp_t_len, s->clearance_radius_m);
+    if (plumbp_shows_zero(keep)) {
+        /* a bare "0 m" would read as "nothing to keep clear": it is
+         * "no spread computed", and says what it leaves out */
+        sheet_para(d, bold, sheet_fmt(d, "Keep clear: no spread computed (%s %s); keep clear as "
+                                         "local practice requires",
+                                      keep, beside(d, plumbp_t_clear(S, plumbp_t_len,
+                                                                     s->clearance_radius_m))));
+        sheet_para(d, font, sheet_fmt(d, "The %zu samples give no distance to keep clear: every "
+                                         "sample lands on the same point%s, so %s is not a safe "
+                                         "distance; " PLUMBP_NO_SCATTER ". Give the uncertainty "
+                                         "of the wind, the release point or the release "
+                                         "velocity, or a scatter allowance, to size one.",
+                                      z->samples, who, keep));
+    } else {
+        sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s %s around the planned drop point", keep,
+                                      beside(d, plumbp_t_clear(S, plumbp_t_len,
+                                                               s->clearance_radius_m))));
+        sheet_para(d, font,
+                   sheet_fmt(d, "%s%% of impacts fall within this radius, taken as the upper "
+                                "%s%% confidence bound from %zu samples%s%s%s%s%s.",
+                             plumbp_trimmed(P, 100.0 * z->confidence, 2),
+                             plumbp_trimmed(P, 100.0 * z->ci_level, 2), z->samples,
+                             s->scatter_m > 0.0 ? ", plus a scatter allowance of " : "",
+                             s->scatter_m > 0.0
+                                 ? sheet_fmt(d, "%s %s", plumbp_t_len(P, s->scatter_m),
+                                             beside(d, plumbp_t_len(S, s->scatter_m)))
+                                 : "",
+                             s->scatter_m > 0.0 ? " for bounce and roll" : "", who,
+                             /* the text report's words when nothing was added */
+                             s->scatter_m > 0.0 ? "" : "; " PLUMBP_NO_SCATTER));
+    }
     double dx = s->mean_m[0] - s->release_m[0], dy = s->mean_m[1] - s->release_m[1];
     if (s->impact_point_fixed)
         sheet_para(d, font, "The uncertain inputs do not move the impact point: the radii are "
@@ -239,20 +262,35 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                              s->scatter_m > 0.0 ? ", with the scatter allowance" : ""));
         said = 1;
     }
-    /* each length with the other system's beside it, as every other
-     * length of this section (beside) */
-    sheet_para(d, font,
-               sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s %s "
-                            "and %s %s (major axis toward %s) around the mean impact point, %s %s "
-                            "toward %s of the drop point.",
-                         said ? "" : lands, said ? "" : ": ", its,
-                         plumbp_t_zone_len(P, s->semi_major_m),
-                         beside(d, plumbp_t_zone_len(S, s->semi_major_m)),
-                         plumbp_t_zone_len(P, s->semi_minor_m),
-                         beside(d, plumbp_t_zone_len(S, s->semi_minor_m)),
-                         plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
-                         beside(d, plumbp_t_len(S, hypot(dx, dy))),
-                         plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
+    if (s->semi_major_m == 0.0) {
+        /* no spread, no ellipse and no bearing of its axis (the text
+         * report's "none: every sample lands on the same point") */
+        const char *off = plumbp_t_len(P, hypot(dx, dy));
+        sheet_para(d, font,
+                   plumbp_shows_zero(off)
+                       ? sheet_fmt(d, "%s%severy sample lands on the same point, the drop "
+                                      "point (no 95%% ellipse).", said ? "" : lands,
+                                 said ? "" : ": ")
+                       : sheet_fmt(d, "%s%severy sample lands on the same point, %s %s toward "
+                                      "%s of the drop point (no 95%% ellipse).",
+                                   said ? "" : lands, said ? "" : ": ", off,
+                                   beside(d, plumbp_t_len(S, hypot(dx, dy))),
+                                   plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
+    } else
+        /* each length with the other system's beside it, as every other
+         * length of this section (beside) */
+        sheet_para(d, font,
+                   sheet_fmt(d, "%s%s95%% of %simpacts within an ellipse of semi-axes %s %s "
+                                "and %s %s (major axis toward %s) around the mean impact point, "
+                                "%s %s toward %s of the drop point.",
+                             said ? "" : lands, said ? "" : ": ", its,
+                             plumbp_t_zone_len(P, s->semi_major_m),
+                             beside(d, plumbp_t_zone_len(S, s->semi_major_m)),
+                             plumbp_t_zone_len(P, s->semi_minor_m),
+                             beside(d, plumbp_t_zone_len(S, s->semi_minor_m)),
+                             plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
+                             beside(d, plumbp_t_len(S, hypot(dx, dy))),
+                             plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
     if (z->has_target)
         sheet_para(d, font,
                    sheet_fmt(d, "Released to land on the target (%s, %s): keep clear %s %s "
@@ -278,11 +316,27 @@ static void verdict_header(sheet_doc *d, const char *bold, int continued)
     d->y += SHEET_BODY * 1.5;
 }
 
-static void verdict_table(sheet_doc *d, const plumb_item_report *it)
+/* The zone's exceedance of criterion c for item (an index of the fall
+ * report, as of the zone's items): NULL when there is none. */
+static const plumb_zone_exceedance *zone_share(const plumb_brief *b, size_t item,
+                                               const plumb_criterion *c)
 {
-    char font[64], bold[64];
+    if (!b->zone || item >= b->zone->n_items)
+        return NULL;
+    const plumb_zone_stats *z = &b->zone->items[item].result->zone;
+    for (size_t i = 0; i < z->n_exceedance; i++)
+        if (z->exceedance[i].criterion == c ||
+            strcmp(z->exceedance[i].criterion->id, c->id) == 0)
+            return &z->exceedance[i];
+    return NULL;
+}
+
+static void verdict_table(sheet_doc *d, const plumb_brief *b, const plumb_item_report *it)
+{
+    char font[64], bold[64], small[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
     snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
+    snprintf(small, sizeof small, "%s %.1f", SHEET_FONT, SHEET_SMALL);
     writer *P = sheet_primary(d);
     double w = sheet_width(d);
     const double *cx = verdict_cx;
@@ -299,11 +353,24 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
                            v->criterion->kind == PLUMB_CRIT_HELMET_TEST
                                ? " (a helmet test, not a safe limit)" : ""));
         snprintf(energy, sizeof energy, "%s", sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)));
+        /* the planned fall's verdict is one fall: beside it, the share of
+         * the zone's samples above the same limit, so that a nominal
+         * "within" is never the only verdict read */
+        const plumb_zone_exceedance *x = zone_share(b, b->order[0], v->criterion);
+        char share[FMT_LEN] = "";
+        if (x)
+            snprintf(share, sizeof share, "%s",
+                     sheet_fmt(d, "(nominal) %s of samples above", plumbp_t_pct(P, x->probability)));
+        double vw = (1.0 - cx[4]) * w;
         double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
         double h2 = sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
                                energy, 0);
+        double hv = sheet_text(d, d->left + cx[4] * w, d->y, vw, font, "within", 0);
+        double hs = share[0] ? sheet_text(d, d->left + cx[4] * w, d->y, vw, small, share, 0) : 0.0;
         if (h2 > h)
             h = h2;
+        if (hv + hs > h)
+            h = hv + hs;
         if (d->y + h > d->bottom) {
             sheet_new_page(d);
             verdict_header(d, bold, 1);
@@ -316,6 +383,8 @@ static void verdict_table(sheet_doc *d, const plumb_item_report *it)
                    sheet_fmt(d, "%s", num(P, v->ratio, RATIO_SIG)), 1);
         sheet_text(d, d->left + cx[4] * w, d->y, 0.0, v->exceeds ? bold : font,
                    v->exceeds ? "exceeds" : "within", 1);
+        if (share[0])
+            sheet_text(d, d->left + cx[4] * w, d->y + hv, vw, small, share, 1);
         d->y += h + 2.0;
     }
 }
@@ -378,7 +447,143 @@ static void criteria_sources(sheet_doc *d, const plumb_brief *b)
     }
 }
 
-void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
+
+/* The "Uncertain inputs" block of a zone's text report as a list: each
+ * key (in mono) with its distribution, the report's continuation lines
+ * joined, so that the sheet wraps it to its own width. */
+static void input_list(sheet_doc *d, const char *font, const char *text)
+{
+    const char *a = strstr(text, "\nUncertain inputs\n");
+    if (!a)
+        return;
+    a += strlen("\nUncertain inputs\n");
+    const char *end = strstr(a, "\n\n");
+    if (!end)
+        end = a + strlen(a);
+    char entry[FMT_LEN] = "";
+    size_t n = 0;
+    while (a < end) {
+        const char *nl = memchr(a, '\n', (size_t)(end - a));
+        size_t len = nl ? (size_t)(nl - a) : (size_t)(end - a);
+        size_t ind = 0;
+        while (ind < len && a[ind] == ' ')
+            ind++;
+        /* a new entry is indented two, its continuation lines further */
+        if (ind <= 2 && n > 0) {
+            sheet_para(d, font, sheet_fmt(d, "\x02\u2022 %s", entry));
+            n = 0;
+        }
+        const char *t = a + ind, *te = a + len;
+        if (ind <= 2) {
+            const char *k = t;
+            while (t < te && *t != ' ')
+                t++;
+            const char *r = t;
+            while (r < te && *r == ' ')
+                r++;
+            n = (size_t)snprintf(entry, sizeof entry, "<tt>%s</tt> %s",
+                                 sheet_esc(d, sheet_fmt(d, "%.*s", (int)(t - k), k)),
+                                 sheet_fmt(d, "%.*s", (int)(te - r), r));
+        } else if (n > 0 && n < sizeof entry) {
+            n += (size_t)snprintf(entry + n, sizeof entry - n, " %s",
+                                  sheet_fmt(d, "%.*s", (int)(te - t), t));
+        }
+        a += len + (nl ? 1 : 0);
+    }
+    if (n > 0)
+        sheet_para(d, font, sheet_fmt(d, "\x02\u2022 %s", entry));
+}
+
+/* "Spread over N samples": what the zone's samples say beside the planned
+ * fall's figures above, for the item those are of (a kit's worst). The
+ * energy at 50, 95 and 99 % (the zone's own figures,
+ * plumbp_t_zone_energy), the share of samples above each criterion's
+ * limit with its upper bound, the zone's warnings in the text report's
+ * words (plumbp_t_warning; of a kit, the worst item's and the one's that
+ * sets the clearance, each named) and the uncertain inputs the radius
+ * rests on, as `plumb zone` echoes them (its text report of the item that
+ * sets the clearance, read back). Nothing when there is no zone. */
+static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag *diag)
+{
+    if (!b->zone)
+        return PLUMB_OK;
+    char font[64], bold[64];
+    snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, 9.0);
+    snprintf(bold, sizeof bold, "%s Bold %.1f", SHEET_FONT, SHEET_BODY);
+    writer *P = sheet_primary(d);
+    int kit = b->zone->n_items > 1;
+    size_t worst = b->order[0] < b->zone->n_items ? b->order[0] : b->zone_item;
+    const plumb_zone_item *zi = &b->zone->items[b->zone_item], *zw = &b->zone->items[worst];
+    const plumb_zone_result *r = zw->result;
+    const plumb_zone_stats *z = &r->zone;
+    d->y += GAP / 2.0;
+    sheet_need(d, 5.0 * SHEET_BODY * 1.4);
+    sheet_para(d, bold, kit ? sheet_fmt(d, "Spread over %zu samples of %s, the item judged above",
+                                        z->samples, zw->name)
+                            : sheet_fmt(d, "Spread over %zu samples", z->samples));
+    const plumb_zone_quantile *e = z->energy;
+    sheet_para(d, font,
+               sheet_fmt(d, "Impact energy: %s at %s, %s at %s, %s at %s of samples; largest %s. "
+                            "The figures above are the planned fall's.",
+                         plumbp_t_zone_energy(P, e[0].value), plumbp_t_pct(P, e[0].p),
+                         plumbp_t_zone_energy(P, e[1].value), plumbp_t_pct(P, e[1].p),
+                         plumbp_t_zone_energy(P, e[2].value), plumbp_t_pct(P, e[2].p),
+                         plumbp_t_zone_energy(P, z->energy_max_j)));
+    for (size_t i = 0; i < z->n_exceedance; i++) {
+        const plumb_zone_exceedance *x = &z->exceedance[i];
+        const plumb_criterion *c = x->criterion;
+        sheet_para(d, font,
+                   sheet_fmt(d, "\x02\u2022 %s %s, limit %s: <b>%s of samples above</b> (%zu of "
+                                "%zu; up to %s, upper %s bound).",
+                             sheet_esc(d, c->name), sheet_id(d, font, c->id, sheet_width(d)),
+                             sheet_esc(d, sheet_fmt(d, "%s", plumbp_t_limit_energy(P, c->energy_limit_j))),
+                             sheet_esc(d, plumbp_t_pct(P, x->probability)), x->count, z->samples,
+                             sheet_esc(d, plumbp_t_pct(P, x->hi)),
+                             sheet_esc(d, plumbp_t_pct(P, r->ci_level))));
+    }
+    const plumb_zone_item *warned[2] = {zw, zi};
+    size_t n_warned = zi != zw ? 2 : 1;
+    if (zw->result->n_warnings > 0 || (n_warned > 1 && zi->result->n_warnings > 0)) {
+        sheet_need(d, 3.0 * SHEET_BODY * 1.4);
+        sheet_para(d, bold, "The zone's warnings");
+    }
+    for (size_t k = 0; k < n_warned; k++) {
+        const plumb_zone_result *wr = warned[k]->result;
+        for (size_t i = 0; i < wr->n_warnings; i++) {
+            char text[PLUMB_ZONE_WARNING * 2];
+            plumbp_t_warning(P, wr->warnings[i], text, sizeof text);
+            /* a kit's each named, as the text report heads each item's */
+            sheet_para(d, font, kit ? sheet_fmt(d, "\u2022 %s: %s", warned[k]->name, text)
+                                    : sheet_fmt(d, "\u2022 %s", text));
+        }
+    }
+    /* the inputs as plumb zone echoes them: its text report of this item */
+    plumb_zone_report one = *b->zone;
+    one.inventory = 0;
+    one.n_items = 1;
+    one.items = zi;
+    one.kit_item = one.kit_landing_item = 0;
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *mem = open_memstream(&buf, &len);
+    if (!mem)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
+    plumb_report_options ro = {PLUMB_FORMAT_TEXT, d->opt->units, d->opt->version};
+    plumb_status st = plumb_report_zone(mem, &ro, &one, diag);
+    if (fclose(mem) != 0 && st == PLUMB_OK)
+        st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory making the sheet");
+    if (st == PLUMB_OK) {
+        sheet_need(d, 3.0 * SHEET_BODY * 1.4);
+        sheet_para(d, bold, kit ? sheet_fmt(d, "The uncertain inputs the clearance radius "
+                                               "rests on (of %s, the item that sets it)", zi->name)
+                                : "The uncertain inputs the clearance radius rests on");
+        input_list(d, font, buf);
+    }
+    free(buf);
+    return st;
+}
+
+plumb_status sheet_section_answer(sheet_doc *d, const plumb_brief *b, plumb_diag *diag)
 {
     char font[64];
     snprintf(font, sizeof font, "%s %.1f", SHEET_FONT, SHEET_BODY);
@@ -402,12 +607,16 @@ void sheet_section_answer(sheet_doc *d, const plumb_brief *b)
     zone_answer(d, b);
     d->y += GAP / 2.0;
     if (it->n_verdicts > 0)
-        verdict_table(d, it);
+        verdict_table(d, b, it);
     else
         sheet_para(d, font, "No criterion was judged.");
+    plumb_status st = spread_block(d, b, diag);
+    if (st != PLUMB_OK)
+        return st;
     criteria_sources(d, b);
     if (b->fall->n_items == 1) /* a kit's are in its table's section */
         sheet_descent_figures(d, b);
+    return PLUMB_OK;
 }
 
 /* ---- 7. inputs and assumptions; 8. cautions ---------------------------------------- */
@@ -612,9 +821,12 @@ void sheet_section_plan(sheet_doc *d, const plumb_brief *b)
                               1.3, ""};
         if (r == 0)
             snprintf(pg->label, sizeof pg->label,
-                     "dotted outline: the landing region, %s%% of impacts inside (%s)",
+                     "dotted outline: the landing region, %s%% of impacts inside (%s%s)",
                      sheet_fmt(d, "%s", plumbp_trimmed(P, 100.0 * s->landing.p, 2)),
-                     sheet_fmt(d, "%s", plumbp_t_region_area(P, rg->area_m2)));
+                     sheet_fmt(d, "%s", plumbp_t_region_area(P, rg->area_m2)),
+                     /* the text report's words for the buffered area */
+                     s->scatter_m > 0.0 ? " with the scatter allowance as a buffer"
+                                        : ", no scatter allowance added");
     }
     pv.n_points = b->n_points[0];
     pv.points_m = b->points_m[0];

@@ -24,9 +24,6 @@
 #include "report/zone_map.h"
 #include "report/report_zone_int.h"
 
-/* Percent per unit fraction. */
-#define PERCENT 100.0
-
 /* ---- writer ---------------------------------------------------------------- */
 
 
@@ -45,11 +42,9 @@ static const char *fig(writer *w, double x, int dec)
     return plumbp_trim_to(w, x, TEXT_SIG, dec, 0);
 }
 
-/* Decimals figures are shown to: a millimetre, a millijoule, a hundredth
- * of a percent, input digits. */
+/* Decimals figures are shown to: a millimetre, input digits (energies and
+ * percents: plumbp_t_zone_energy, plumbp_t_pct). */
 #define LEN_DEC 3
-#define ENERGY_DEC 3
-#define PCT_DEC 2
 #define INPUT_DEC 9
 
 /* Lengths and energies of a zone keep TEXT_SIG figures but no digit below
@@ -109,14 +104,7 @@ static clear_sum t_clear_sum(writer *w, double total_m, double bound_m, double s
 
 static const char *t_energy(writer *w, double j)
 {
-    char *b = slot(w);
-    if (w->us)
-        snprintf(b, NUMBUF, "%s ft·lbf (%s J)", fig(w, j / PLUMB_FT_LBF_J, ENERGY_DEC),
-                 fig(w, j, ENERGY_DEC));
-    else
-        snprintf(b, NUMBUF, "%s J (%s ft·lbf)", fig(w, j, ENERGY_DEC),
-                 fig(w, j / PLUMB_FT_LBF_J, ENERGY_DEC));
-    return b;
+    return plumbp_t_zone_energy(w, j);
 }
 
 
@@ -289,14 +277,7 @@ static const char *t_interval(writer *w, const plumb_zone_quantile *q, double sc
 
 static const char *pct(writer *w, double p)
 {
-    char *b = slot(w);
-    double x = PERCENT * p;
-    /* a small non-zero bound keeps two figures rather than rounding to 0 */
-    if (x > 0.0 && x < 0.5 * pow(10.0, -PCT_DEC))
-        snprintf(b, NUMBUF, "%.2g %%", x);
-    else
-        snprintf(b, NUMBUF, "%s %%", trim(w, x, TEXT_SIG, PCT_DEC));
-    return b;
+    return plumbp_t_pct(w, p);
 }
 
 static void text_radii(writer *w, const plumb_zone_stats *z, double level, const char *from)
@@ -323,8 +304,7 @@ static void text_clearance(writer *w, const plumb_zone_stats *z, double confiden
             c.scatter);
     else {
         /* zone.scatter not given (or 0): nothing was added, and it says so */
-        wrapped(w, "  + none         ", "no scatter allowance given (zone.scatter): bounce and "
-                "deflection are not included");
+        wrapped(w, "  + none         ", PLUMBP_NO_SCATTER);
         put(w, "\n");
     }
 }

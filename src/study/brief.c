@@ -20,7 +20,8 @@
 /* Points of the drag-free path (closed form, evenly spaced in time). */
 #define FREE_POINTS 64
 /* The energy curve runs to this many times the planned height at least, and
- * past a limit height found below LIMIT_REACH times it by LIMIT_MARGIN. */
+ * past a limit height found below LIMIT_REACH times it by LIMIT_MARGIN;
+ * every plotted item's curve runs to the largest of these heights. */
 #define CURVE_SPAN 2.0
 #define LIMIT_REACH 10.0
 #define LIMIT_MARGIN 1.25
@@ -155,14 +156,17 @@ static plumb_status make_paths(const plumb_study *study, plumb_trajectory *traj,
 }
 
 /* For each criterion of the item, the drop height at which its limit is
- * reached (plumb limit --find release.height), then the energy at a
- * series of heights up to past the planned one and the limits found. */
-static plumb_status make_curve(plumb_study *study, const plumb_item_report *it, plumb_brief_plot *pl,
-                               plumb_diag *diag)
+ * reached (plumb limit --find release.height); *top is raised to the
+ * height its curve should reach: past the planned one and the limits
+ * found. */
+static plumb_status make_limits(plumb_study *study, const plumb_item_report *it,
+                                plumb_brief_plot *pl, double *top, plumb_diag *diag)
 {
     const plumb_profile *prof = plumb_study_profile(study);
     plumb_trajectory *traj = plumbp_study_trajectory(study);
-    double H = it->spec->release_m[2], top = CURVE_SPAN * H;
+    double H = it->spec->release_m[2];
+    if (CURVE_SPAN * H > *top)
+        *top = CURVE_SPAN * H;
     pl->n_limits = it->n_verdicts;
     for (size_t k = 0; k < it->n_verdicts; k++) {
         plumb_limit_result *r = &pl->limits[k];
@@ -173,9 +177,18 @@ static plumb_status make_curve(plumb_study *study, const plumb_item_report *it, 
         if (st != PLUMB_OK)
             return st;
         if (r->outcome == PLUMB_LIMIT_FOUND && r->value_si < LIMIT_REACH * H &&
-            LIMIT_MARGIN * r->value_si > top)
-            top = LIMIT_MARGIN * r->value_si;
+            LIMIT_MARGIN * r->value_si > *top)
+            *top = LIMIT_MARGIN * r->value_si;
     }
+    return PLUMB_OK;
+}
+
+/* The item's energy at a series of heights from 0 to top: every plotted
+ * item over the same heights, so that no curve stops short of another. */
+static void make_curve(plumb_study *study, const plumb_item_report *it, plumb_brief_plot *pl,
+                       double top)
+{
+    plumb_trajectory *traj = plumbp_study_trajectory(study);
     pl->n_curve = PLUMB_BRIEF_CURVE;
     /* from zero height, where the impact energy is the release's kinetic
      * energy 1/2 m |v0|^2 (no fall, nothing to integrate) */
@@ -201,7 +214,6 @@ static plumb_status make_curve(plumb_study *study, const plumb_item_report *it, 
                           isfinite(res.energy_j);
         pl->curve_e_j[i] = pl->curve_ok[i] ? res.energy_j : 0.0;
     }
-    return PLUMB_OK;
 }
 
 /* ---- the zone's impact points ------------------------------------------------ */
@@ -350,13 +362,16 @@ plumb_status plumb_brief_alloc(plumb_study *study, const plumb_brief_options *op
     topt.record_path = 1;
     if (st == PLUMB_OK && plumb_trajectory_alloc(&topt, &traj) != PLUMB_OK)
         st = PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
+    double top = 0.0; /* the height every curve reaches */
     for (size_t i = 0; st == PLUMB_OK && i < n && i < PLUMB_BRIEF_PLOTTED; i++) {
         plumb_brief_plot *pl = &b->plots[b->n_plots++];
         pl->item = b->order[i];
         st = make_paths(study, traj, &b->fall->items[pl->item], pl, diag);
         if (st == PLUMB_OK)
-            st = make_curve(study, &b->fall->items[pl->item], pl, diag);
+            st = make_limits(study, &b->fall->items[pl->item], pl, &top, diag);
     }
+    for (size_t i = 0; st == PLUMB_OK && i < b->n_plots; i++)
+        make_curve(study, &b->fall->items[b->plots[i].item], &b->plots[i], top);
     plumb_trajectory_free(traj);
     if (st == PLUMB_OK)
         st = make_zone(study, opt, b, diag);

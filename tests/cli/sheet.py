@@ -1137,6 +1137,8 @@ os.remove(longk)
 # as "0.0000000001563 m²". It now reads as the text report's polygon line
 # does ("under 0.01 m²", the same helper, format.c), and a region of some
 # size gives the text report's buffered figure, rounded up, digit for digit.
+# Both say, as the text report does, that no scatter allowance was added
+# (zone.scatter 0 m): the area is not the buffered one.
 still = os.path.join(tmp, "still.yaml")
 with open(still, "w") as f:
     f.write("name: still-air drop\npayload:\n  mass: 1.14 kg\n  drag: {cd: 0.99, area: 0.0049 m^2}\n"
@@ -1153,7 +1155,7 @@ for units, unit in (("si", "m²"), ("us", "ft²")):
     st = " ".join(check_pages(pdf_s, f"still air, {units}")) if rc == 0 else ""
     m_area = re.search(r"dotted outline: the landing region, [\d.]+% of impacts inside \(([^)]*)\)", st)
     check(rc == 0 and f"polygon under 0.01 {unit} in 1 part" in re.sub(r" +", " ", zt)
-          and m_area is not None and m_area.group(1) == f"under 0.01 {unit}",
+          and m_area is not None and m_area.group(1) == f"under 0.01 {unit}, no scatter allowance added",
           f"still air, {units}: the landing region 'under 0.01 {unit}' as in the text report, "
           f"found {m_area.group(1) if m_area else None!r} ({err.strip()})")
     if os.path.exists(pdf_s):
@@ -1164,7 +1166,7 @@ m_poly = re.search(r"polygon\s+(\S+ m²) in 1 part", zt.replace("\u00a0", " "))
 pdf_s = os.path.join(tmp, "still-wind.pdf")
 rc, _, err = run("sheet", still, "-o", pdf_s)
 st = " ".join(pages_text(pdf_s)) if rc == 0 else ""
-check(m_poly is not None and f"of impacts inside ({m_poly.group(1)})" in st,
+check(m_poly is not None and f"of impacts inside ({m_poly.group(1)}, no scatter allowance added)" in st,
       f"wind: the landing region's area as the text report's polygon line "
       f"{m_poly.group(1) if m_poly else None!r}")
 if os.path.exists(pdf_s):
