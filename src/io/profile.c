@@ -187,6 +187,12 @@ static plumb_status check_tree(const plumby_ctx *ctx, const plumby_node *tree, i
     if (sv == PLUMB_OK)
         return st;
     const plumb_diag *ds = ctx->diag;
+    if (!plumb_status_is_input_error(sv)) {
+        /* out of memory is the machine's failure, whichever error is first */
+        if (ctx->diag)
+            *ctx->diag = dv;
+        return sv;
+    }
     if (st != PLUMB_OK && ds &&
         (strcmp(ds->file, dv.file) != 0 || ds->line < dv.line ||
          (ds->line == dv.line && ds->col <= dv.col)))

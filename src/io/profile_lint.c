@@ -84,6 +84,8 @@ typedef struct lint_run {
     const plumbp_id_check *check; /* of the criteria ids, or NULL */
     edit ed[LINT_EDITS];
     size_t n_ed;
+    plumb_diag *machine; /* the first failure of the machine (out of memory)
+                          * in any build, the lint's answer; status 0: none */
 } lint_run;
 
 /* 1 when the dotted key ends with the map key `name` as a whole part. */
@@ -283,7 +285,7 @@ static plumb_status apply_one(plumby_node *root, const edit *e)
 }
 
 /* A copy of the tree with the first n edits applied, or NULL when out of
- * memory. */
+ * memory (then r->machine says so: the lint fails with it). */
 static plumby_node *edited(const lint_run *r, size_t n)
 {
     plumby_node *copy = plumby_copy(r->tree);
@@ -292,6 +294,8 @@ static plumby_node *edited(const lint_run *r, size_t n)
             plumby_free(copy);
             copy = NULL;
         }
+    if (!copy && r->machine->status == PLUMB_OK)
+        PLUMB_RAISE(r->machine, PLUMB_ENOMEM, "out of memory checking the profile");
     return copy;
 }
 
@@ -331,10 +335,16 @@ static plumb_status try_build(const lint_run *r, size_t n, plumb_diag *d, plumb_
     plumb_profile *p = NULL;
     plumb_diag_clear(d);
     plumby_node *copy = edited(r, n);
+    plumb_status st =
+        copy ? plumbp_profile_build(r->name, r->sha, copy, r->units, r->sets, r->n_sets, r->check,
+                                    &p, d)
+             : PLUMB_RAISE(d, PLUMB_ENOMEM, "out of memory checking the profile");
+    /* a build that failed for want of memory says nothing of the input,
+     * whichever helper asked for it: the whole lint fails with it */
+    if (st != PLUMB_OK && !plumb_status_is_input_error(st) && r->machine->status == PLUMB_OK)
+        *r->machine = *d;
     if (!copy)
-        return PLUMB_RAISE(d, PLUMB_ENOMEM, "out of memory checking the profile");
-    plumb_status st = plumbp_profile_build(r->name, r->sha, copy, r->units, r->sets, r->n_sets,
-                                           r->check, &p, d);
+        return st;
     renumber(r, n, d);
     if (out && st == PLUMB_OK)
         *out = p;
@@ -384,8 +394,13 @@ static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
         ctx.units = r->units;
         double q;
         char *end;
-        if (plumby_quantity(&ctx, node, dim, e->key, &q) == PLUMB_OK)
+        plumb_diag dq;
+        ctx.diag = &dq;
+        plumb_status sq = plumby_quantity(&ctx, node, dim, e->key, &q);
+        if (sq == PLUMB_OK)
             c[nc++] = q;
+        else if (!plumb_status_is_input_error(sq) && r->machine->status == PLUMB_OK)
+            *r->machine = dq; /* out of memory: the lint fails with it */
         q = strtod(text, &end);
         if (end != text)
             c[nc++] = q;
@@ -726,9 +741,13 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
     r->sets = sets;
     r->n_sets = n_sets;
     r->check = check;
+    plumb_diag machine;
+    plumb_diag_clear(&machine);
+    r->machine = &machine;
     plumb_status first = PLUMB_OK;
     /* each pass lists an error or turns a consequence into an edit */
-    for (size_t pass = 0; *n < max && pass < 4 * LINT_EDITS; pass++) {
+    for (size_t pass = 0; *n < max && pass < 4 * LINT_EDITS && machine.status == PLUMB_OK;
+         pass++) {
         plumb_diag d;
         plumb_profile *p = NULL;
         plumb_status st = try_build(r, r->n_ed, &d, r->n_ed == 0 && out ? &p : NULL);
@@ -737,7 +756,15 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
                 *out = p; /* the profile as written loads: the caller's */
             break;
         }
-        if (!plumb_status_is_input_error(st) || strcmp(d.file, name) != 0 || d.line <= 0) {
+        if (!plumb_status_is_input_error(st)) {
+            /* the machine failed (out of memory), not the input: the
+             * list so far is not the whole of it, so it is not given */
+            errs[0] = d;
+            *n = 1;
+            first = st;
+            break;
+        }
+        if (strcmp(d.file, name) != 0 || d.line <= 0) {
             /* not in the file, or not the user's: listed only when first */
             if (*n == 0) {
                 errs[(*n)++] = d;
@@ -802,6 +829,15 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             break;
     }
     free(r);
+    if (machine.status != PLUMB_OK) {
+        errs[0] = machine;
+        *n = 1;
+        if (out) {
+            plumb_profile_free(*out);
+            *out = NULL;
+        }
+        return machine.status;
+    }
     /* in file order */
     for (size_t i = 1; i < *n; i++)
         for (size_t j = i; j > 0 && (errs[j].line < errs[j - 1].line ||

@@ -91,7 +91,7 @@ static const struct {
 
 /* Describes what `unit` measures, in words: "a length", "an angle", "an
  * electric charge". Returns 0, or -1 (buf untouched) when it is none of the
- * quantities named in units_int.h. */
+ * quantities named in units_int.h, -2 when udunits2 ran out of memory. */
 static int describe_unit(const plumb_units *units, const ut_unit *unit, const unit_shape *shape,
                          char *buf, size_t size)
 {
@@ -101,13 +101,19 @@ static int describe_unit(const plumb_units *units, const ut_unit *unit, const un
     }
     for (size_t i = 0; i < sizeof describe_order / sizeof describe_order[0]; i++) {
         plumb_dim d = describe_order[i];
-        if (same_dimension(units, unit, units->ref[d]) > 0) {
+        int same = same_dimension(units, unit, units->ref[d]);
+        if (same < 0)
+            return -2;
+        if (same > 0) {
             snprintf(buf, size, "%s %s", dims[d].article, dims[d].name);
             return 0;
         }
     }
     for (size_t i = 0; i < N_OTHER; i++) {
-        if (units->other[i] && same_dimension(units, unit, units->other[i]) > 0) {
+        int same = units->other[i] ? same_dimension(units, unit, units->other[i]) : 0;
+        if (same < 0)
+            return -2;
+        if (same > 0) {
             /* udunits2 takes the radian for a number: rad/s is a frequency */
             int angular = shape->rad_power != 0 && strcmp(other_quantities[i].ud, "1/s") == 0;
             snprintf(buf, size, "%s", angular ? "an angular speed" : other_quantities[i].what);
@@ -328,10 +334,11 @@ plumb_status plumbp_units_raise_wrong(const plumb_units *units, const plumbp_acc
     plumbp_units_describe_want(want, w, sizeof w);
     unit_advice adv;
     advise(want, text, 0, &adv);
-    if (describe_unit(units, unit, shape, found, sizeof found) != 0)
+    int described = describe_unit(units, unit, shape, found, sizeof found);
+    if (described == -1)
         snprintf(found, sizeof found, "a unit that is not %s %s", dims[want].article,
                  dims[want].name);
-    if (advice_tail(units, acc, want, number, &adv, tail, sizeof tail) < 0)
+    if (described == -2 || advice_tail(units, acc, want, number, &adv, tail, sizeof tail) < 0)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
                            UNITS_SHOW_MAX, shown);
     return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" (%s%s%s)%s", w,
@@ -390,15 +397,16 @@ plumb_status plumbp_units_raise_compass(const plumb_units *units, const plumbp_a
  * plumb reads a decimal point and no thousands separator. `end` is where
  * strtod stopped in `shown`, at the comma. */
 /* " (out of range here too: must be RANGE)" after a suggested quantity
- * that acc refuses, else "" (also when udunits2 runs out of memory: the
- * message is an input error's either way). Returns buf. */
-static const char *refused_note(const plumb_units *units, const plumbp_accept *acc,
-                                plumb_dim want, const char *text, char *buf, size_t size)
+ * that acc refuses, else "". Returns 0, or -1 when udunits2 ran out of
+ * memory (the message would lack its note: the caller fails instead). */
+static int refused_note(const plumb_units *units, const plumbp_accept *acc, plumb_dim want,
+                        const char *text, char *buf, size_t size)
 {
     buf[0] = '\0';
-    if (plumbp_units_fits(units, acc, want, text) == 0)
+    int fits = plumbp_units_fits(units, acc, want, text);
+    if (fits == 0)
         snprintf(buf, size, " (out of range here too: must be %s)", acc->range);
-    return buf;
+    return fits < 0 ? -1 : 0;
 }
 
 plumb_status plumbp_units_raise_comma(const plumb_units *units, const plumbp_accept *acc,
@@ -432,28 +440,28 @@ plumb_status plumbp_units_raise_comma(const plumb_units *units, const plumbp_acc
             as_plain[b++] = *c;
     }
     as_point[a] = as_plain[b] = '\0';
+    if (refused_note(units, acc, want, as_point, n1, sizeof n1) < 0 ||
+        refused_note(units, acc, want, as_plain, n2, sizeof n2) < 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading \"%.*s\"", UNITS_SHOW_MAX,
+                           shown);
     if (commas == 1 && !point && !threes)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
                            "expected %s, found \"%.*s\": use a decimal point: \"%.*s\"%s", w,
-                           UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point,
-                           refused_note(units, acc, want, as_point, n1, sizeof n1));
+                           UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point, n1);
     if (commas == 1 && !point)
         return PLUMB_RAISE(diag, PLUMB_EPARSE,
                            "expected %s, found \"%.*s\": numbers take a decimal point and no "
                            "thousands separator: write \"%.*s\"%s or \"%.*s\"%s, whichever is "
                            "meant",
-                           w, UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point,
-                           refused_note(units, acc, want, as_point, n1, sizeof n1),
-                           UNITS_SHOW_MAX, as_plain,
-                           refused_note(units, acc, want, as_plain, n2, sizeof n2));
+                           w, UNITS_SHOW_MAX, shown, UNITS_SHOW_MAX, as_point, n1, UNITS_SHOW_MAX,
+                           as_plain, n2);
     return PLUMB_RAISE(diag, PLUMB_EPARSE,
                        "expected %s, found \"%.*s\": numbers take a decimal point and no "
                        "thousands separator%s%.*s%s%s",
                        w, UNITS_SHOW_MAX, shown, threes && commas > 0 ? ": write \"" : "",
                        threes && commas > 0 ? UNITS_SHOW_MAX : 0, as_plain,
                        threes && commas > 0 ? "\"" : "",
-                       threes && commas > 0 ? refused_note(units, acc, want, as_plain, n1,
-                                                           sizeof n1) : "");
+                       threes && commas > 0 ? n2 : "");
 }
 
 const char *plumbp_units_example(const plumb_units *units, const plumbp_accept *acc,

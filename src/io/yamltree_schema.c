@@ -306,8 +306,13 @@ static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plu
         c.diag = &d;
         double v;
         plumb_status st = plumby_num_node(&c, node, s, key, &v);
-        if (st != PLUMB_OK && (*best_st == PLUMB_OK || d.line < best->line ||
-                               (d.line == best->line && d.col < best->col))) {
+        /* the first in file order, but out of memory before any: the
+         * machine failed, and the list would not be the input's */
+        int machine = st != PLUMB_OK && !plumb_status_is_input_error(st);
+        int best_machine = *best_st != PLUMB_OK && !plumb_status_is_input_error(*best_st);
+        if (st != PLUMB_OK && !best_machine &&
+            (machine || *best_st == PLUMB_OK || d.line < best->line ||
+             (d.line == best->line && d.col < best->col))) {
             *best = d;
             *best_st = st;
         }

@@ -66,6 +66,14 @@ plumb_status plumb_study_lint(const char *name, const char *buf, size_t len,
     plumb_profile_free(prof);
     if (st != PLUMB_OK && *n == 0)
         *n = 1; /* an error is never without its diagnostic */
+    if (lc.failed && !plumb_status_is_input_error(lc.load_err.status) &&
+        (st == PLUMB_OK || plumb_status_is_input_error(st))) {
+        /* the set failed to load for want of memory, not for its files:
+         * the machine's failure, not a list of the input's errors */
+        errs[0] = lc.load_err;
+        *n = 1;
+        return lc.load_err.status;
+    }
     if (lc.failed && *n < max && (st == PLUMB_OK || plumb_status_is_input_error(st))) {
         errs[(*n)++] = lc.load_err;
         if (st == PLUMB_OK)

@@ -574,6 +574,44 @@ static void test_loading_units_criteria_and_profiles_fails_cleanly_at_every_allo
     study_done(&sc);
 }
 
+/* plumb lint's check of a profile with errors of many kinds (invented):
+ * a unit of no known kind ("5 kilos": the advice of the unit meant), a
+ * decimal comma, a compass letter after an angle, a bare number whose
+ * suggestions are checked against the key's range, a misspelt key, an
+ * unknown criterion (the did-you-mean), with the criteria set loaded by
+ * the lint itself (set_loaded 0) or given. The whole list, or
+ * PLUMB_ENOMEM with its diagnostic: never a shorter list that does not
+ * say what it lacks. */
+static const char lint_text[] = "name: lint of many errors\n"
+                                "payload:\n"
+                                "  mass: 5 kilos\n"
+                                "  shape: {kind: sphere, diamter: 0.1 m}\n"
+                                "release:\n"
+                                "  height: 6,5 m\n"
+                                "site: {latitude: 54.2 N, longitude: 9.1 deg}\n"
+                                "atmosphere: {model: surface, pressure: 1013 hPa, temperature: 45}\n"
+                                "criteria: [eu-c2, en397]\n";
+
+static plumb_status call_study_lint(void *ctx, plumb_diag *d)
+{
+    const int *given = ctx;
+    plumb_diag errs[16];
+    size_t n = 0;
+    plumb_criteria *set = *given ? fx.criteria : NULL;
+    plumb_status st = plumb_study_lint("<lint>", lint_text, sizeof lint_text - 1, fx.units, NULL,
+                                       0, fx.dir, &set, errs, 16, &n);
+    if (!*given)
+        plumb_criteria_free(set);
+    if (st == PLUMB_OK)
+        return PLUMB_EINVAL; /* the profile has errors: a lint that finds none is wrong */
+    if (plumb_status_is_input_error(st))
+        return n >= 7 ? PLUMB_OK : PLUMB_EKEY; /* its list, at least one per line in error */
+    for (size_t i = 0; i < n; i++)
+        if (errs[i].status == st)
+            *d = errs[i];
+    return st;
+}
+
 /* A lint report of two profiles (a good one, one with a range error and a
  * name that is not UTF-8, which JSON writes with '?'). */
 typedef struct lint_result {
@@ -606,6 +644,10 @@ static void test_a_spec_built_in_code_and_a_bare_fall_fail_cleanly_at_every_allo
     lr.e[0] = (plumb_lint_entry){"good.yaml", NULL, 0, 1};
     lr.e[1] = (plumb_lint_entry){"b\xff.yaml", &lr.err, 1, 1};
     every_report("lint report", call_report_lint, &lr);
+    static int loaded_by_lint = 0, given = 1;
+    each_allocation_fails_in_turn("plumb_study_lint, set loaded", call_study_lint,
+                                  &loaded_by_lint);
+    each_allocation_fails_in_turn("plumb_study_lint, set given", call_study_lint, &given);
 }
 
 static void test_every_fall_and_its_reports_fail_cleanly_at_every_allocation(void **s)
