@@ -469,6 +469,11 @@ static void test_this_sessions_calls_refuse_bad_arguments(void **state)
     assert_null(p);
     assert_int_equal(n, 0);
     assert_int_equal(plumb_profile_lint(NULL, units, NULL, 0, errs, 4, &n, NULL), PLUMB_EINVAL);
+    /* a buffer NULL with bytes said to be in it (an empty one is "") */
+    assert_int_equal(plumb_profile_lint_buffer("x.yaml", NULL, 5, units, NULL, 0, errs, 4, &n, &p),
+                     PLUMB_EINVAL);
+    assert_null(p);
+    assert_non_null(strstr(errs[0].message, "NULL argument"));
     size_t big = (size_t)PLUMB_PROFILE_MAX_BYTES + 1;
     char *buf = malloc(big);
     assert_non_null(buf);
@@ -508,6 +513,12 @@ static void test_this_sessions_calls_refuse_bad_arguments(void **state)
     assert_int_equal(plumb_profile_derive(coded, units, sets, 1, &derived, &d), PLUMB_EINVAL);
     assert_null(derived);
     assert_non_null(strstr(d.message, "built in code"));
+    /* a set key for an item the profile has not, or no key at all */
+    char key[64];
+    assert_int_equal(plumb_limit_set_key(coded, 1, "release.height", key, sizeof key),
+                     PLUMB_EINVAL);
+    assert_int_equal(plumb_limit_set_key(coded, 0, NULL, key, sizeof key), PLUMB_EINVAL);
+    assert_int_equal(plumb_limit_set_key(coded, 0, "release.height", key, 0), PLUMB_EINVAL);
     plumb_profile_free(coded);
 
     /* surface air at 250 K falling 30 K/km: none above 8.3 km */
