@@ -276,6 +276,8 @@ refused "--set shape over a drag, with a bad unit in it" "plumb: --set:1:40: pay
   -- fall "$good" --set "payload.shape={kind: sphere, diameter: 5 KG}" --format json
 refused "--set payload.mass on an inventory" "plumb: --set:1:1: payload.mass: " \
   "items[N].mass" "items[NAME].mass" -- fall "$inv" --set "payload.mass=1 kg" --format json
+refused "--set payload on an inventory" "plumb: --set:1:1: payload: " \
+  "not used together with items" "--set items=~" -- fall "$inv" --set "payload={mass: 1 kg}" --format json
 refused "--set items[1].mass on a single payload" "plumb: --set:1:1: items[1].mass: " \
   "payload.mass" -- fall "$good" --set "items[1].mass=1 kg" --format json
 for s in "payload.drag={cd: 1, area: 0.0105 m^2}" "payload.drag.cd_area=0.0105 m^2"; do
