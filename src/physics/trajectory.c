@@ -548,6 +548,11 @@ static plumb_status verify(plumb_trajectory *w, const plumb_fall_spec *s, const 
     double gained = res->energy_j - 0.5 * s->mass_kg * v0sq;
     double work = s->mass_kg * g_mid * H - wb + res->drag_work_j;
     double scale = fmax(0.5 * s->mass_kg * v0sq + s->mass_kg * g_mid * H, fabs(res->drag_work_j));
+    if (!isfinite(gained) || !isfinite(work) || !isfinite(scale))
+        return PLUMB_RAISE(diag, PLUMB_ENUMERIC,
+                           "the fall's energies are beyond what a double can hold (mass %.6g kg, "
+                           "height %.6g m): no figure of it can be checked",
+                           s->mass_kg, H);
     if (!(fabs(gained - work) <= w->opt.energy_check_tol * scale))
         return PLUMB_RAISE(diag, PLUMB_ENUMERIC,
                            "the fall fails its energy balance: kinetic energy gained %.9g J, work "

@@ -168,6 +168,18 @@ else
 fi
 chmod 755 "$tmp/ro"
 
+# ---- a mass whose energies overflow a double: exit 3, no "inf" printed -----
+# 1e308 lb is 4.5e307 kg: m g H is beyond DBL_MAX (IEEE 754 binary64,
+# about 1.8e308), so no figure of the fall can be checked (README, "Exit
+# status": a computation that fails says so; no NaN or inf is printed).
+for f in text json csv; do
+  "$bin" fall "$prof" --set "payload.mass=1e308 lb" --format $f >"$tmp/stdout" 2>"$tmp/stderr"
+  rc=$?
+  if [ $rc -eq 3 ] && [ ! -s "$tmp/stdout" ] && grep -q "beyond what a double can hold" "$tmp/stderr" &&
+     ! grep -q -i -w -E "inf|nan" "$tmp/stderr"; then ok
+  else bad "an overflowing mass ($f): exit $rc, $(cat "$tmp/stderr")"; fi
+done
+
 check "/dev/null is still a character device" test -c /dev/null
 
 echo "cli: $pass passed, $fail failed, $skip skipped"
