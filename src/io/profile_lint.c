@@ -23,7 +23,9 @@
  *     other stand-in is kept from then on, and the first is not tried
  *     again, so that the check cannot go back and forth;
  *   - a required key now missing because its value was left out: a
- *     numeric one gets a stand-in, else the check stops;
+ *     numeric one gets a stand-in, else the check stops; "payload"
+ *     missing once "items" was left out (a profile has one of the two)
+ *     gets a stand-in, so that the check goes on;
  *   - a required key now missing whose misspelt twin (the unknown key of
  *     the same map whose did-you-mean it is) was listed, or the twin of
  *     a key the map takes instead of it (deploy: {belw: 20 m}, with
@@ -489,6 +491,8 @@ static int names_word(const char *text, const char *word)
     return 0;
 }
 
+static int insert_stand_in(lint_run *r, const plumb_diag *d);
+
 /* What an error about a key that is not written (a required key missing,
  * or a check of a map) follows from: 1 when it is a consequence of an
  * edit, now changed so that the check goes on; -1 when it is one and the
@@ -498,6 +502,13 @@ static int absent_consequence(lint_run *r, const plumb_diag *d)
     char dpar[PLUMB_DIAG_KEY], epar[PLUMB_DIAG_KEY];
     const char *dlast, *elast;
     int dsplit = split_key(d->key, dpar, sizeof dpar, &dlast);
+    /* "payload" missing once "items" was left out: the profile gave its
+     * objects as items (src/io/profile.c, payload: or items:), so that is
+     * not an error of its own; a stand-in payload lets the check go on */
+    if (strcmp(d->key, "payload") == 0)
+        for (size_t i = 0; i < r->n_ed; i++)
+            if (r->ed[i].kind == ED_REMOVE && strcmp(r->ed[i].key, "items") == 0)
+                return insert_stand_in(r, d) > 0 ? 1 : -1;
     for (size_t i = 0; i < r->n_ed; i++) {
         edit *e = &r->ed[i];
         if (strcmp(e->key, d->key) == 0) {
@@ -553,6 +564,24 @@ static edit *new_edit(lint_run *r, const plumb_diag *d, ed_kind kind)
     e->col = d->col;
     plumbp_strlcpy(e->key, d->key, sizeof e->key);
     return e;
+}
+
+/* A stand-in inserted for the key missing of error d, where it belongs:
+ * 1 done (a new edit), 0 when no stand-in lets the check go on, -1 when
+ * no edit can be made (no room, or d's key is a list's item). */
+static int insert_stand_in(lint_run *r, const plumb_diag *d)
+{
+    char parent_key[PLUMB_DIAG_KEY];
+    const char *last;
+    edit *e = split_key(d->key, parent_key, sizeof parent_key, &last)
+                  ? new_edit(r, d, ED_INSERT) : NULL;
+    if (!e)
+        return -1;
+    plumbp_strlcpy(e->name, last, sizeof e->name);
+    if (!give_stand_in(r, e, ED_INSERT, schema_of(d->key), NULL))
+        return 0;
+    r->n_ed++;
+    return 1;
 }
 
 /* Sets aside error d, found at a written node: 1 done, 0 no way to. */
@@ -792,19 +821,11 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             if (first == PLUMB_OK)
                 first = st;
             /* a numeric key missing on its own: a stand-in where it belongs */
-            char parent_key[PLUMB_DIAG_KEY];
-            const char *last;
-            edit *e = split_key(d.key, parent_key, sizeof parent_key, &last)
-                          ? new_edit(r, &d, ED_INSERT) : NULL;
-            if (!e)
+            int ins = insert_stand_in(r, &d);
+            if (ins == 0 && leave_out_section(r, &d))
+                continue;
+            if (ins <= 0)
                 break;
-            plumbp_strlcpy(e->name, last, sizeof e->name);
-            if (!give_stand_in(r, e, ED_INSERT, schema_of(d.key), NULL)) {
-                if (leave_out_section(r, &d))
-                    continue;
-                break;
-            }
-            r->n_ed++;
             continue;
         }
         if (no_progress(r, &d, errs, *n)) {

@@ -461,8 +461,8 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     const plumb_item_report *first = &rep->items[0];
     size_t nv = first->n_verdicts;
     plumbp_text_header(w, opt, "fall, inventory", plumb_profile_name(rep->profile));
-    put(w, "%zu items, each falling alone under the same release, site, air and wind.\n",
-        rep->n_items);
+    put(w, "%zu item%s, each falling alone under the same release, site, air and wind.\n",
+        rep->n_items, plumbp_s(rep->n_items));
 
     /* Columns: number, item name, five figures, then one per criterion.
      * The table keeps to TABLE_WIDTH columns: a long name is wrapped onto

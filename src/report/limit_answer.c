@@ -142,33 +142,35 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
     switch (r->outcome) {
     case PLUMB_LIMIT_UNLIMITED:
         snprintf(buf, size,
-                 "the %s stays below the limit of %s for every %s scanned %s (%zu values); at "
+                 "the %s stays below the limit of %s for every %s scanned %s (%zu value%s); at "
                  "the top of that range it is %s%s%s",
                  metric_word(rep->metric), t_the_limit(w, rep), label, scanned, r->n_scanned,
-                 t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+                 plumbp_s(r->n_scanned), t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
         break;
     case PLUMB_LIMIT_NOT_REACHED:
         snprintf(buf, size,
                  "not reached within the values of %s that can be computed: the %s stays "
-                 "below the limit of %s for every value computed %s (%zu values); at the "
+                 "below the limit of %s for every value computed %s (%zu value%s); at the "
                  "highest, %s, it is %s%s%s",
                  label, metric_word(rep->metric), t_the_limit(w, rep), scanned, r->n_scanned,
-                 t_value(w, key, r->dim, r->scan_hi_si),
+                 plumbp_s(r->n_scanned), t_value(w, key, r->dim, r->scan_hi_si),
                  t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
         break;
     case PLUMB_LIMIT_IMPOSSIBLE:
-        snprintf(buf, size, "the %s exceeds the limit of %s for every %s scanned %s (%zu values)%s%s",
-                 metric_word(rep->metric), t_the_limit(w, rep), label, scanned, r->n_scanned, sep,
-                 note);
+        snprintf(buf, size,
+                 "the %s exceeds the limit of %s for every %s scanned %s (%zu value%s)%s%s",
+                 metric_word(rep->metric), t_the_limit(w, rep), label, scanned, r->n_scanned,
+                 plumbp_s(r->n_scanned), sep, note);
         break;
     case PLUMB_LIMIT_FOUND:
         if (r->n_crossings < 2) {
             snprintf(buf, size,
                      "%s = %s gives the limit, %s %s; %s values stay within it (scanned %s, %zu "
-                     "values)",
+                     "value%s)",
                      label, t_limit_value(w, key, r->dim, r->value_si, r->limit_is_upper_bound),
                      metric_word(rep->metric), t_metric_met(w, rep->metric, r->metric_at_value),
-                     r->limit_is_upper_bound ? "lower" : "higher", scanned, r->n_scanned);
+                     r->limit_is_upper_bound ? "lower" : "higher", scanned, r->n_scanned,
+                     plumbp_s(r->n_scanned));
         } else {
             char list[PLUMB_LIMIT_TEXT];
             size_t len = 0;
@@ -178,8 +180,9 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
                                         t_value(w, key, r->dim, r->crossings_si[k]));
             snprintf(buf, size,
                      "the %s is not monotonic in %s: it crosses the limit at %s (scanned %s, %zu "
-                     "values); %s below the first crossing, and alternately beyond",
+                     "value%s); %s below the first crossing, and alternately beyond",
                      metric_word(rep->metric), label, list, scanned, r->n_scanned,
+                     plumbp_s(r->n_scanned),
                      r->within_at_low_end ? "within" : "exceeded");
         }
         break;
@@ -299,9 +302,9 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
             explain(w, rep, r, set_key, text, sizeof text);
             wrapped(w, "  ", text);
         }
-        snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu falls computed)",
+        snprintf(text, sizeof text, "the profile's own value %s gives %s (%zu fall%s computed)",
                  t_value(w, rep->key, r->dim, r->base_value_si), t_metric(w, rep->metric, r->metric_at_base),
-                 r->evaluations);
+                 r->evaluations, plumbp_s(r->evaluations));
         wrapped(w, "  ", text);
     }
     if (limit_has_warnings(rep)) {

@@ -186,9 +186,12 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;
         for (size_t k = 0; k < r->n_warnings; k++) {
-            char text[PLUMB_ZONE_WARNING * 2];
-            put(w, "# warning: %s: %s\n", rep->items[i].name,
-                plumbp_t_warning(w, r->warnings[k], text, sizeof text));
+            /* as plumb fall's CSV says it: the sentence whole, then the
+             * item it is said of in brackets, in a kit (plumbp_who_text) */
+            char text[PLUMB_ZONE_WARNING * 2], line[PLUMB_NAME + PLUMB_ZONE_WARNING * 2 + 8];
+            put(w, "# warning: %s\n",
+                plumbp_who_text(line, sizeof line, rep->inventory ? rep->items[i].name : "",
+                                plumbp_t_warning(w, r->warnings[k], text, sizeof text)));
         }
     }
     for (size_t i = 0; i < rep->n_items; i++) {

@@ -283,9 +283,11 @@ json_t *plumbp_zone_geojson(jctx *j, const plumb_report_options *opt,
             char buf[PLUMB_NAME + PLUMB_ZONE_WARNING * 2 + 4], text[PLUMB_ZONE_WARNING * 2];
             if (!plumbp_warning_plain(rep->items[i].result->warnings[k], 0, text, sizeof text))
                 j->bad = 1;
-            snprintf(buf, sizeof buf, "%s%s%s", rep->inventory ? rep->items[i].name : "",
-                     rep->inventory ? ": " : "", text);
-            jpush(j, warn, jstr(j, buf));
+            /* the sentence whole, then the item in brackets, as plumb fall
+             * says it (plumbp_who_text) */
+            jpush(j, warn, jstr(j, plumbp_who_text(buf, sizeof buf,
+                                                   rep->inventory ? rep->items[i].name : "",
+                                                   text)));
         }
     jset(j, pr, "warnings", warn);
     jset(j, pr, "cautions", j_cautions(j));

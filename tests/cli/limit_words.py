@@ -24,7 +24,9 @@ import json
 import math
 import os
 import re
+import shutil
 import sys
+import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
 from plumbcli import HERE, ROOT, check, finish, plumb  # noqa: E402
@@ -272,5 +274,37 @@ for args in ([CLIMB, "--find", "descent.diameter", "--energy-max", "us-part107-c
     e = json.loads(f)["impact"]["energy_j"] if rc3 == 0 else float("inf")
     check(rc == 0 and side_ok and e <= limit_j,
           f"limit CSV {args[2]}: {rows[0]['value']} (JSON {vj!r}) fed back gives {e} J <= {limit_j}")
+
+# One value scanned: a bag under a parachute set to open below 29.5 m,
+# let go 30 m above a site at 85 970 m, so 30 m is the top of the U.S.
+# Standard Atmosphere 1976 (86 km geometric, NOAA/NASA/USAF 1976, section
+# 1.2, seen; README.md "The model"): lower heights are refused by the
+# deploy height, higher ones are above the air model, and only the
+# profile's own value is computed. The count is said in the singular
+# (invented test scenario; "1 values" before the fix).
+ONE = """name: bag at the top of the air model
+payload: {mass: 1.2 kg, drag: {cd: 0.93, area: 0.0187 m^2, source: invented test value}}
+descent: {kind: parachute, cd: 0.78, area: 1.47 m^2, deploy: {below: 29.5 m}, fill_time: 0.8 s}
+release: {height: 30 m}
+site: {elevation: 85970 m}
+"""
+tmp = tempfile.mkdtemp(prefix="plumb-limit-words.", dir=os.environ.get("TMPDIR"))
+try:
+    one = os.path.join(tmp, "one.yaml")
+    with open(one, "w") as f:
+        f.write(ONE)
+    for units in ("si", "us"):
+        rc, out, err = plumb("limit", one, "--find", "release.height", "--energy-max", "0.1J",
+                             "--units", units)
+        flat = " ".join(out.split())
+        check(rc == 0 and "(1 value)" in flat and not re.search(r"\b1 values\b", flat),
+              f"one value scanned, --units {units}: '(1 value)', never '1 values': {flat[:500]} "
+              f"({err.strip()})")
+    rc, out, _ = plumb("limit", one, "--find", "release.height", "--energy-max", "0.1J",
+                       "--format", "json")
+    check(rc == 0 and json.loads(out)["limit"]["items"][0].get("values_scanned") == 1,
+          f"one value scanned: JSON values_scanned 1: {out[:300]}")
+finally:
+    shutil.rmtree(tmp)
 
 finish()

@@ -351,6 +351,23 @@ want = [place(DESC, "5}") + ("descent.deploy",),
 check(got == want, f"a deploy that is no map, then the wind and the id, not the cd's "
       f"uncertainty: {got} / {want}")
 
+# items written but refused (an empty list, a map where a list of maps is
+# wanted): "payload" then missing only follows from setting items aside (a
+# profile has payload: or items:, README.md "plumb lint"), so it is not
+# listed, and the check goes on with the other sections (the 800 mph wind
+# speed, above the 340.294 m/s of sea level)
+ITEMS = """name: items refused
+items: []
+release: {height: 31.6 m}
+wind: {speed: 800 mph}
+"""
+for name, value, key in (("items-empty", "[]", "items"), ("items-map", "{a: 1}", "items")):
+    text = ITEMS.replace("items: []", f"items: {value}")
+    got = [e[1:4] for e in lint_all(write(name + ".yaml", text), f"items: {value}")]
+    want = [place(text, value) + (key,), place(text, "800 mph") + ("wind.speed",)]
+    check(got == want, f"items: {value}: its own error and the wind's, not 'payload' "
+          f"missing: {got} / {want}")
+
 # 2. a misspelt key that meant one of its map's alternatives: the other
 # alternative then missing is its consequence, not listed; the misspelt
 # key's value is checked under the name meant (a bare 20 where a length

@@ -21,7 +21,9 @@ import io
 import json
 import os
 import re
+import shutil
 import sys
+import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "lib"))
 from plumbcli import HERE, check, finish, plumb  # noqa: E402
@@ -196,5 +198,22 @@ for args in [("fall", THROWN, "--set", "release.height=0.01m"),
           f"{' '.join(args[:1] + args[2:])}: a plural after one: {found} (exit {rc})")
 rc, out, err = plumb("fall", THROWN, "--set", "release.height=0.01m")
 check(rc == 0 and re.search(r"solver +\w+, 1 step, ", out), "fall of 1 cm: '1 step,'")
+
+# A kit of one item (invented): "1 item", never "1 items".
+tmp = tempfile.mkdtemp(prefix="plumb-report-words.", dir=os.environ.get("TMPDIR"))
+try:
+    kit1 = os.path.join(tmp, "kit1.yaml")
+    with open(kit1, "w") as f:
+        f.write("name: kit of one\nitems:\n  - name: bag\n    mass: 1.2 kg\n"
+                "    drag: {cd: 0.93, area: 0.0187 m^2, source: invented test value}\n"
+                "release: {height: 30 m}\n")
+    for units in ("si", "us"):
+        rc, out, err = plumb("fall", kit1, "--units", units)
+        found = re.findall(ONE, " ".join((out + err).split()))
+        check(rc == 0 and re.search(r"^1 item, each falling alone", out, re.M) and not found,
+              f"fall of a kit of one, --units {units}: '1 item,', no plural after one: {found} "
+              f"(exit {rc}) {out[:200]}")
+finally:
+    shutil.rmtree(tmp)
 
 finish()

@@ -139,8 +139,8 @@ try:
         if fmt == "text":
             return text_warnings(out)
         if fmt == "csv":
-            name = "pouch let go from a moving multirotor in gusts"
-            return csv_warnings(out, "# warning: " if cmd == "fall" else f"# warning: {name}: ")
+            # one profile: the sentence alone in both (plumbp_who_text)
+            return csv_warnings(out, "# warning: ")
         try:
             d = json.loads(out)
         except ValueError:
