@@ -231,7 +231,8 @@ static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *
         else if (closed == n)
             snprintf(buf, size, "none of the %zu devices opens before impact", n);
         else if (closed)
-            snprintf(buf, size, "%zu of the %zu devices do not open before impact", closed, n);
+            snprintf(buf, size, "%zu of the %zu devices %s not open before impact", closed, n,
+                     closed > 1 ? "do" : "does");
         else if (filling == n)
             snprintf(buf, size, "all %zu devices are still filling at impact", n);
         else
