@@ -723,7 +723,10 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
     double h = 250.0 + 14.0 * (b->n_criteria > 3 ? (double)(b->n_criteria - 3) : 0.0);
     if (h > 370.0)
         h = 370.0;
-    sheet_heading(d, "Impact energy against drop height", h + 10.0 + note);
+    /* and room for a key of the limits' labels, two to a row, when they
+     * do not fit beside their lines */
+    double key = b->n_criteria > 1 ? 11.5 * (double)((b->n_criteria + 1) / 2) : 0.0;
+    sheet_heading(d, "Impact energy against drop height", h + 10.0 + note + key);
     sheet_plotted_note(d, b);
     d->y += sheet_energy_plot(d, b, d->left, d->y, w, h);
 }
