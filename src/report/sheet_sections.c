@@ -603,11 +603,14 @@ static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag 
             }
             if (zone_warning_said(P, b, warned, idx, k, i, text))
                 continue;
-            for (size_t k2 = k; kit && k2 < n_warned; k2++)
+            /* named in the profile's order, as the text reports name them */
+            for (size_t j = 0; kit && j < n_warned; j++) {
+                size_t k2 = n_warned == 2 && idx[0] > idx[1] ? 1 - j : j;
                 if (zone_warning_has(P, warned[k2]->result, text) &&
                     !fall_warning_has(P, b, idx[k2], text))
                     snprintf(who + strlen(who), sizeof who - strlen(who), "%s%s",
                              who[0] ? ", " : "", warned[k2]->name);
+            }
             if (!heading) {
                 sheet_need(d, 3.0 * SHEET_BODY * 1.4);
                 sheet_para(d, bold, "The zone's warnings");

@@ -152,6 +152,33 @@ per_item = [f"{it['name']}: {w[:30]}" for it in fall_items for w in sorted(said)
             if f"{it['name']}: {w[:30]}" in flat]
 check(not per_item, f"kit: no warning as 'item: sentence': {per_item}")
 
+# ---- a kit of two whose zones give the same warning (a late canopy,
+# which their falls do not give): said once, with both items, in the
+# profile's order, as `plumb zone` gives it word for word
+latekit = os.path.join(tmp, "latekit.yaml")
+with open(LATE) as f:
+    late = f.read()
+with open(latekit, "w") as f:
+    f.write(late.replace("payload:\n  mass: 1.93 kg\n  drag: {cd: 1.05, area: 0.0187 m^2}\n",
+                         "items:\n  - name: marker A\n    mass: 1.93 kg\n"
+                         "    drag: {cd: 1.05, area: 0.0187 m^2}\n  - name: marker B\n"
+                         "    mass: 1.95 kg\n    drag: {cd: 1.05, area: 0.0187 m^2}\n")
+            .replace("  payload.mass: {uniform: [1.7 kg, 2.2 kg]}\n", "")
+            .replace("samples: 2000", "samples: 500"))
+pages = sheet(latekit, "latekit.pdf")
+flat = squeeze(" ".join(pages))
+rc, zout, err = plumb("zone", latekit, "--format", "json")
+zk = json.loads(zout)["items"]
+shared = [squeeze(w) for w in zk[0]["zone"]["warnings"]
+          if "did not open before impact" in w and w in zk[1]["zone"]["warnings"]]
+check(len(zk) == 2 and len(shared) == 1, f"two items' zones give the same late-canopy warning: {shared}")
+for w in shared:
+    check(flat.count(w[:60]) == 1, f"the shared warning said once: {flat.count(w[:60])}")
+    check(w + " (marker A, marker B)" in flat, "the shared warning names both items, in order")
+    check(f"marker A: {w[:30]}" not in flat and f"marker B: {w[:30]}" not in flat,
+          "the shared warning not once per item")
+os.remove(latekit)
+
 # ---- every sample on one point -----------------------------------------------------
 pages = sheet(STILL, "still.pdf")
 text = " ".join(pages)
