@@ -13,7 +13,8 @@
  * zone's spread beside the planned fall: energy percentiles, the share of
  * samples above each limit, the zone's warnings and uncertain inputs; and
  * what the fall made of each descent device), 3 a side view of the fall, 4
- * impact energy against drop height with each criterion's limit, 5 the
+ * impact energy against drop height with each criterion's limit (named
+ * beside its line, or numbered there and named in a key below), 5 the
  * plan view of the clearance zone, 6 for an inventory the table of items
  * worst first (and each item's descent devices), 7 the inputs as
  * understood (each descent device keyed as the profile writes it) and the

@@ -209,6 +209,11 @@ enum { LABEL_SEGS = PLUMB_BRIEF_PLOTTED * PLUMB_BRIEF_CURVE + PLUMB_MAX_VERDICTS
 #define COST_TWO_LINES 40.0 /* a label on two lines rather than one */
 #define LABEL_CLEAR 1.5    /* pt kept clear around a label */
 #define LEADER_IN 6.0      /* the leader's place from the label's left, pt */
+/* A label is beside its line when no more than this far from it, pt;
+ * when one cannot be, or only over a curve, a circle or another label,
+ * every line is numbered instead and the labels go to a key below. */
+#define LABEL_NEAR 3.0
+#define KEY_FONT 7.5       /* the lines' numbers, pt */
 
 typedef struct label_obstacles {
     size_t n_segs, n_boxes;
@@ -403,10 +408,12 @@ double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, d
     return ly - y + 4.0;
 }
 
-double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h)
+/* The energy plot at (x, y), w x h; key: the limits' lines numbered, their
+ * labels in a key below. *want_key: 1 when the labels found no place
+ * beside their lines clear of the curves and of one another. */
+static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y, double w,
+                          double h, int key, int *want_key)
 {
-    if (b->n_plots == 0)
-        return 0.0;
     int us = d->opt->units == PLUMB_UNITS_US;
     double ls = us ? 1.0 / PLUMB_FT_M : 1.0, es = us ? 1.0 / PLUMB_FT_LBF_J : 1.0;
     const char *lu = us ? "ft" : "m", *eu = us ? "ft\u00B7lbf" : "J";
@@ -427,6 +434,8 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
      * lines and where the curves cross them can be read */
     int ylog = b->n_criteria > 0 && emax > LOG_RATIO * lmin;
     size_t n_leg = b->n_plots + 2;
+    /* the key, when there is one, goes below this: the plot keeps its
+     * height (sheet_section_plots keeps room for it) */
     double legend_h = 11.0 * (double)n_leg + 6.0 + (ylog ? 11.0 : 0.0);
     sheet_axes a = {x + AX_LEFT, y + AX_TOP, w - AX_LEFT - AX_RIGHT, h - AX_TOP - AX_BOTTOM - legend_h,
                     0.0, hmax * ls, 0.0, emax * 1.12 * es, ylog};
@@ -594,11 +603,13 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
     }
     /* placed from the lowest line up, then from the highest down: the
      * order with the lesser cost is drawn */
-    double lx_[PLUMB_MAX_VERDICTS], ly_[PLUMB_MAX_VERDICTS], best_total = HUGE_VAL;
+    double lx_[PLUMB_MAX_VERDICTS], ly_[PLUMB_MAX_VERDICTS], lc_[PLUMB_MAX_VERDICTS],
+        best_total = HUGE_VAL;
     int lv_[PLUMB_MAX_VERDICTS];
     for (int order = 0; order < 2; order++) {
         label_obstacles trial = ob;
-        double total = 0.0, px_[PLUMB_MAX_VERDICTS], py_[PLUMB_MAX_VERDICTS];
+        double total = 0.0, px_[PLUMB_MAX_VERDICTS], py_[PLUMB_MAX_VERDICTS],
+               pc_[PLUMB_MAX_VERDICTS];
         int pv_[PLUMB_MAX_VERDICTS];
         for (size_t i = 0; i < b->n_criteria; i++) {
             size_t q = order == 0 ? i : b->n_criteria - 1 - i;
@@ -618,6 +629,7 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
                 }
             }
             total += cost;
+            pc_[q] = cost;
             label_claim(&trial, px_[q], py_[q], tw[q][pv_[q]], th[q][pv_[q]], line_y[q]);
         }
         if (total < best_total) {
@@ -625,9 +637,42 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
             memcpy(lx_, px_, sizeof lx_);
             memcpy(ly_, py_, sizeof ly_);
             memcpy(lv_, pv_, sizeof lv_);
+            memcpy(lc_, pc_, sizeof lc_);
         }
     }
+    *want_key = 0;
     for (size_t q = 0; q < b->n_criteria; q++) {
+        double lh = th[q][lv_[q]], py = line_y[q], ty = ly_[q];
+        double gap = ty + lh < py ? py - (ty + lh) : ty > py ? ty - py : 0.0;
+        if (gap > LABEL_NEAR || lc_[q] >= COST_PLANNED)
+            *want_key = 1;
+    }
+    /* numbered lines: each number on its own line, as far right as it is
+     * clear of the curves, the circles and the other numbers */
+    char kfont[64];
+    snprintf(kfont, sizeof kfont, "%s Bold %.1f", SHEET_FONT, KEY_FONT);
+    for (size_t q = 0; key && q < b->n_criteria; q++) {
+        const char *num_s = sheet_fmt(d, "%zu", b->n_criteria - q); /* 1: the highest line */
+        double nw = sheet_text_width(d, kfont, num_s) + 2.0, nh = KEY_FONT + 1.5;
+        double py = line_y[q], ny = py - nh / 2.0, bx = a.x + a.w - nw - 2.0, bc = HUGE_VAL;
+        for (double cx = a.x + a.w - nw - 2.0; cx >= a.x + 2.0; cx -= 2.0) {
+            double c = label_cost(&ob, (int)q, cx, ny, cx + nw, ny + nh, py) +
+                       0.5 * (a.x + a.w - nw - 2.0 - cx);
+            if (c < bc) {
+                bc = c;
+                bx = cx;
+            }
+        }
+        add_box(&ob, bx, ny, bx + nw, ny + nh, COST_LABEL);
+        cairo_set_source_rgb(d->cr, 1, 1, 1);
+        cairo_rectangle(d->cr, bx, ny, nw, nh);
+        cairo_fill(d->cr);
+        cairo_set_source_rgb(d->cr, 0, 0, 0);
+        cairo_rectangle(d->cr, bx, ny, nw, nh);
+        sheet_stroke(d, SHEET_SOLID, 0.5);
+        sheet_text_at(d, bx + 1.0, ny + (nh - KEY_FONT * 1.25) / 2.0, 0, kfont, num_s);
+    }
+    for (size_t q = 0; !key && q < b->n_criteria; q++) {
         double tx = lx_[q], ty = ly_[q], w_ = tw[q][lv_[q]], lh = th[q][lv_[q]], py = line_y[q];
         /* a white ground so the grid does not cross the words */
         cairo_set_source_rgb(d->cr, 1, 1, 1);
@@ -672,8 +717,25 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
                                plumbp_t_energy(P, it->result.energy_j), plumbp_t_len(P, hp)));
     }
     ly += legend(d, x, ly, w, SHEET_DASHED, 0.8,
-                 "each criterion's energy limit, named on the line; a circle where the "
-                 "first curve reaches it (plumb limit --find release.height)");
+                 key ? "each criterion's energy limit, numbered at the line and named below; "
+                       "a circle where the first curve reaches it (plumb limit --find "
+                       "release.height)"
+                     : "each criterion's energy limit, named on the line; a circle where the "
+                       "first curve reaches it (plumb limit --find release.height)");
+    if (key) { /* two columns, from the highest line down */
+        double col = (w - LEGEND_LINE) / 2.0, row_h = 0.0;
+        for (size_t i = 0; i < b->n_criteria; i++) {
+            size_t q = b->n_criteria - 1 - i;
+            double cx = x + LEGEND_LINE + (double)(i % 2) * col;
+            double th_ = sheet_text(d, cx, ly, col - 6.0, font,
+                                    sheet_fmt(d, "\x02<b>%zu</b>  %s", i + 1, text[q][0]), 1);
+            row_h = fmax(row_h, th_);
+            if (i % 2 == 1 || i + 1 == b->n_criteria) {
+                ly += row_h + 1.5;
+                row_h = 0.0;
+            }
+        }
+    }
     ly += legend(d, x, ly, w, SHEET_DOTTED, 1.2, "the planned drop height");
     if (ylog)
         ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font,
@@ -714,4 +776,17 @@ double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y,
         ly += sheet_text(d, x + LEGEND_LINE, ly, w - LEGEND_LINE, font, why, 1) + 1.5;
     }
     return ly - y + 4.0;
+}
+
+double sheet_energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h)
+{
+    if (b->n_plots == 0)
+        return 0.0;
+    /* laid out once unseen, to learn whether the labels fit beside their
+     * lines; then drawn, with a key when they do not */
+    int want_key = 0, unused = 0;
+    cairo_push_group(d->cr);
+    energy_plot(d, b, x, y, w, h, 0, &want_key);
+    cairo_pattern_destroy(cairo_pop_group(d->cr));
+    return energy_plot(d, b, x, y, w, h, want_key, &unused);
 }

@@ -494,6 +494,51 @@ static void input_list(sheet_doc *d, const char *font, const char *text)
         sheet_para(d, font, sheet_fmt(d, "\x02\u2022 %s", entry));
 }
 
+/* 1 when a zone's warnings, shown, include text. */
+static int zone_warning_has(writer *P, const plumb_zone_result *r, const char *text)
+{
+    for (size_t i = 0; i < r->n_warnings; i++) {
+        char t[PLUMB_ZONE_WARNING * 2];
+        if (strcmp(plumbp_t_warning(P, r->warnings[i], t, sizeof t), text) == 0)
+            return 1;
+    }
+    return 0;
+}
+
+/* 1 when the fall of the kit's item `item` gives the warning text too:
+ * section 7's list of warnings says it. */
+static int fall_warning_has(writer *P, const plumb_brief *b, size_t item, const char *text)
+{
+    if (item >= b->fall->n_items)
+        return 0;
+    const plumb_item_report *it = &b->fall->items[item];
+    for (size_t i = 0; i < it->n_warnings; i++) {
+        char t[PLUMB_WARNING * 2];
+        if (strcmp(plumbp_t_warning(P, it->warnings[i], t, sizeof t), text) == 0)
+            return 1;
+    }
+    return 0;
+}
+
+/* 1 when the zone's warning i of warned[k] (shown as text) was said here
+ * already (an earlier
+ * warning of the same words, of this item or of an earlier one, that
+ * was said here). */
+static int zone_warning_said(writer *P, const plumb_brief *b, const plumb_zone_item *const *warned,
+                             const size_t *idx, size_t k, size_t i, const char *text)
+{
+    for (size_t k0 = 0; k0 <= k; k0++) {
+        const plumb_zone_result *r = warned[k0]->result;
+        for (size_t i0 = 0; i0 < (k0 < k ? r->n_warnings : i); i0++) {
+            char t[PLUMB_ZONE_WARNING * 2];
+            if (strcmp(plumbp_t_warning(P, r->warnings[i0], t, sizeof t), text) == 0 &&
+                !fall_warning_has(P, b, idx[k0], text))
+                return 1;
+        }
+    }
+    return 0;
+}
+
 /* "Spread over N samples": what the zone's samples say beside the planned
  * fall's figures above, for the item those are of (a kit's worst). The
  * energy at 50, 95 and 99 % (the zone's own figures,
@@ -541,21 +586,49 @@ static plumb_status spread_block(sheet_doc *d, const plumb_brief *b, plumb_diag 
                              sheet_esc(d, plumbp_t_pct(P, x->hi)),
                              sheet_esc(d, plumbp_t_pct(P, r->ci_level))));
     }
+    /* each warning once, with the items it concerns ("sentence. (item,
+     * item)", as the text reports say it); one the fall of that item
+     * gives too is left to section 7's list, which says it once for all */
     const plumb_zone_item *warned[2] = {zw, zi};
-    size_t n_warned = zi != zw ? 2 : 1;
-    if (zw->result->n_warnings > 0 || (n_warned > 1 && zi->result->n_warnings > 0)) {
-        sheet_need(d, 3.0 * SHEET_BODY * 1.4);
-        sheet_para(d, bold, "The zone's warnings");
-    }
+    size_t n_warned = zi != zw ? 2 : 1, idx[2] = {worst, b->zone_item};
+    int heading = 0, in_falls = 0;
     for (size_t k = 0; k < n_warned; k++) {
         const plumb_zone_result *wr = warned[k]->result;
         for (size_t i = 0; i < wr->n_warnings; i++) {
-            char text[PLUMB_ZONE_WARNING * 2];
+            char text[PLUMB_ZONE_WARNING * 2], who[PLUMB_NAME * 2 + 8] = "";
             plumbp_t_warning(P, wr->warnings[i], text, sizeof text);
-            /* a kit's each named, as the text report heads each item's */
-            sheet_para(d, font, kit ? sheet_fmt(d, "\u2022 %s: %s", warned[k]->name, text)
+            if (fall_warning_has(P, b, idx[k], text)) {
+                in_falls = 1;
+                continue;
+            }
+            if (zone_warning_said(P, b, warned, idx, k, i, text))
+                continue;
+            /* named in the profile's order, as the text reports name them */
+            for (size_t j = 0; kit && j < n_warned; j++) {
+                size_t k2 = n_warned == 2 && idx[0] > idx[1] ? 1 - j : j;
+                if (zone_warning_has(P, warned[k2]->result, text) &&
+                    !fall_warning_has(P, b, idx[k2], text))
+                    snprintf(who + strlen(who), sizeof who - strlen(who), "%s%s",
+                             who[0] ? ", " : "", warned[k2]->name);
+            }
+            if (!heading) {
+                sheet_need(d, 3.0 * SHEET_BODY * 1.4);
+                sheet_para(d, bold, "The zone's warnings");
+                heading = 1;
+            }
+            sheet_para(d, font, kit ? sheet_fmt(d, "\u2022 %s (%s)", text, who)
                                     : sheet_fmt(d, "\u2022 %s", text));
         }
+    }
+    if (in_falls) {
+        if (!heading) {
+            sheet_need(d, 3.0 * SHEET_BODY * 1.4);
+            sheet_para(d, bold, "The zone's warnings");
+        }
+        sheet_para(d, font, sheet_fmt(d, "\u2022 %s the fall%s warnings too: section 7 lists "
+                                         "them once%s.", heading ? "The others are" : "They are",
+                                      kit ? "s'" : "'s",
+                                      kit ? ", with the items they concern" : ""));
     }
     /* the inputs as plumb zone echoes them: its text report of this item */
     plumb_zone_report one = *b->zone;
@@ -723,7 +796,10 @@ void sheet_section_plots(sheet_doc *d, const plumb_brief *b)
     double h = 250.0 + 14.0 * (b->n_criteria > 3 ? (double)(b->n_criteria - 3) : 0.0);
     if (h > 370.0)
         h = 370.0;
-    sheet_heading(d, "Impact energy against drop height", h + 10.0 + note);
+    /* and room for a key of the limits' labels, two to a row, when they
+     * do not fit beside their lines */
+    double key = b->n_criteria > 1 ? 11.5 * (double)((b->n_criteria + 1) / 2) : 0.0;
+    sheet_heading(d, "Impact energy against drop height", h + 10.0 + note + key);
     sheet_plotted_note(d, b);
     d->y += sheet_energy_plot(d, b, d->left, d->y, w, h);
 }

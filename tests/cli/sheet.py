@@ -23,7 +23,10 @@ which wrote it):
   no text box (pdftotext -bbox) lies outside them;
 - on the energy-against-height plot no criterion's label lies over a curve
   (the page's stroked polylines, read from its content stream) or over
-  another label (pdftotext -bbox-layout), with two and with eight criteria.
+  another label (pdftotext -bbox-layout), with two and with eight criteria;
+  with eight criteria every limit's label sits within 6 pt of its own line
+  (the line's height from the axis's tick labels and the limit's energy),
+  or the line carries a number within 6 pt and the key below names it.
 - the descent devices: each as understood in the inputs (keyed descent[i]
   or items[N].descent[i], in deployment order) and what the fall made of
   it in section 2 (a kit: its table's section), SI and --units us, as
@@ -332,6 +335,99 @@ def energy_plot_clash(pdf):
     return 0, 0, ["no energy plot found"]
 
 
+FT_LBF_J = 0.3048 * 4.4482216152605  # NIST SP 811 (2008), B.9: 1 ft = 0.3048 m, 1 lbf
+
+
+def criterion_limit_j(cid):
+    """A criteria file's energy_limit in J (its own line, "N J" or "N ft lbf")."""
+    with open(os.path.join(CRIT, cid + ".yaml")) as f:
+        m = re.search(r"^energy_limit:\s*([\d.]+)\s*(J|ft lbf)\s*$", f.read(), re.M)
+    return float(m.group(1)) * (FT_LBF_J if m.group(2) == "ft lbf" else 1.0)
+
+
+def limit_labels_near(pdf, ids, near=6.0, us=False):
+    """Each criterion's label on the energy plot within `near` pt of its
+    own limit line, or the line numbered within `near` pt and the key
+    under the plot naming it ("N  ID: ..."). The line's height: the y tick
+    labels' centres fitted against their values (log10 of them on a
+    logarithmic axis), then the limit's energy from its criteria file
+    (in ft·lbf when us).
+    Returns (labels beside their lines, keyed, problems)."""
+    html = tool("pdftotext", "-bbox-layout", pdf, "-")
+    for page in re.findall(r"<page [^>]*>(.*?)</page>", html, re.S):
+        lines = []
+        for ln in re.finditer(r"<line [^>]*>(.*?)</line>", page, re.S):
+            run = []
+            for w in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                                 r'yMax="([\d.]+)">(.*?)</word>', ln.group(1)):
+                b = [float(w.group(i)) for i in range(1, 5)]
+                if run and b[0] - run[-1][0][2] > 0.45 * (b[3] - b[1]):
+                    lines.append(run)
+                    run = []
+                run.append((b, unescape(w.group(5)).replace("\u00a0", " ")))
+            if run:
+                lines.append(run)
+        words = [w for r in lines for w in r]
+        lines = [([min(b[0] for b, _ in r), min(b[1] for b, _ in r), max(b[2] for b, _ in r),
+                   max(b[3] for b, _ in r)], " ".join(t for _, t in r)) for r in lines]
+        head = [b for b, t in lines if t.startswith("4. Impact energy against drop height")]
+        foot = [b for b, t in lines if t.startswith("drop height above the strike level")]
+        if not head or not foot:
+            continue
+        top, bottom = head[0][3], foot[0][1]
+        num = re.compile(r"\d+(\.\d+)?$")
+        xrow = [b for b, t in words if num.match(t) and bottom - 14 < b[1] < bottom]
+        x_left = min(b[0] for b in xrow)  # the x axis's first tick label, under the frame
+        cand = [(b, t) for b, t in words
+                if num.match(t) and top < b[1] and b[3] < bottom - 12 and b[2] < x_left + 2]
+        # the y tick labels: right-aligned, so the most numbers ending at one x
+        right = max((b[2] for b, _ in cand), default=0.0,
+                    key=lambda r: sum(abs(o[2] - r) < 0.6 for o, _ in cand))
+        yt = [((b[1] + b[3]) / 2, float(t)) for b, t in cand if abs(b[2] - right) < 0.6]
+        logax = "logarithmic scale" in " ".join(t for _, t in words)
+        if len(yt) < 3:
+            return 0, 0, [f"y tick labels not found: {yt}"]
+        xs = [math.log10(v) if logax else v for _, v in yt]
+        ys = [y for y, _ in yt]
+        mx, my = sum(xs) / len(xs), sum(ys) / len(ys)
+        slope = sum((a - mx) * (c - my) for a, c in zip(xs, ys)) / sum((a - mx) ** 2 for a in xs)
+        resid = max(abs(my + slope * (a - mx) - c) for a, c in zip(xs, ys))
+        problems = [] if resid < 1.0 else [f"the y ticks fit the axis only to {resid:.2f} pt"]
+        beside = keyed = 0
+        for cid in ids:
+            e = criterion_limit_j(cid) / (FT_LBF_J if us else 1.0)
+            yl = my + slope * ((math.log10(e) if logax else e) - mx)
+            own = [b for b, t in lines if top < b[1] < bottom and t.startswith(cid + ": ")]
+            # the key's entry: "N  ID: ...", its number a word of its own
+            key = [str(int(float(t))) for b, _ in lines if b[1] > bottom
+                   for nb, t in words if num.match(t) and abs(nb[1] - b[1]) < 2 and
+                   b[0] - 25 < nb[2] <= b[0] + 0.5
+                   if _.startswith(cid + ": ")]
+            if own:
+                b = list(own[0])
+                for o, t in lines:  # the label's second line
+                    if (re.match(r"(reached at|not reached|exceeded at) ", t) and
+                            abs(o[0] - b[0]) < 3 and 0 <= o[1] - b[3] < 4):
+                        b[3] = o[3]
+                gap = max(b[1] - yl, yl - b[3], 0.0)
+                if gap <= near:
+                    beside += 1
+                else:
+                    problems.append(f"{cid}: label {gap:.1f} pt from its line (at {yl:.1f})")
+            elif key:
+                n = key[0]
+                marks = [bb for bb, t in words if t == n and top < bb[1] < bottom and
+                         bb[0] > x_left and abs((bb[1] + bb[3]) / 2 - yl) <= near]
+                if marks:
+                    keyed += 1
+                else:
+                    problems.append(f"{cid}: keyed {n}, but no {n} within {near} pt of its line")
+            else:
+                problems.append(f"{cid}: neither labelled on the plot nor in the key")
+        return beside, keyed, problems
+    return 0, 0, ["no energy plot found"]
+
+
 def no_leftovers(d, keep=()):
     return sorted(set(os.listdir(d)) - set(keep)) == []
 
@@ -515,7 +611,12 @@ pdf_crowd = os.path.join(tmp, "crowd.pdf")
 rc, _, err = run("sheet", crowd, "-o", pdf_crowd)
 check(rc == 0, f"eight criteria: exit {rc}: {err}")
 nl, nc, clash = energy_plot_clash(pdf_crowd)
-check(nl >= 9 and nc == 4 and not clash, f"eight criteria: {nl} labels, {nc} curves: {clash}")
+ids8 = sorted(n[:-5] for n in os.listdir(CRIT) if n.endswith(".yaml"))
+near, keyed, far = limit_labels_near(pdf_crowd, ids8)
+check(nl + keyed >= 9 and nc == 4 and not clash,
+      f"eight criteria: {nl} labels, {keyed} in the key, {nc} curves: {clash}")
+check(near + keyed == 8 and not far,
+      f"eight criteria: each label beside its line or keyed: {near} beside, {keyed} keyed, {far}")
 check(not bbox_outside(pdf_crowd), "eight criteria: no text outside the margins")
 os.remove(crowd)
 os.remove(pdf_crowd)
@@ -1105,8 +1206,14 @@ for paper, units in (("a4", "si"), ("letter", "us")):
     if rc == 0:
         check_pages(pdf_l, f"long names, {paper}, {units}")
         nl, nc, clash = energy_plot_clash(pdf_l)
-        check(nl >= 4 and nc == 4 and not clash,
-              f"long names, {paper}, {units}: {nl} labels, {nc} curves on the energy plot: {clash}")
+        near, keyed, far = limit_labels_near(
+            pdf_l, ["en397-shock-49j", "z89-type2-30j", "ddesb-fragment-58ftlbf"], us=units == "us")
+        check(nl + keyed >= 4 and nc == 4 and not clash,
+              f"long names, {paper}, {units}: {nl} labels, {keyed} in the key, {nc} curves on the "
+              f"energy plot: {clash}")
+        check(near + keyed == 3 and not far,
+              f"long names, {paper}, {units}: each label beside its line or keyed: {near} beside, "
+              f"{keyed} keyed, {far}")
         # only the wind speed is uncertain: the impacts lie on a line, and
         # the ellipse's semi-minor axis, nothing, read "0.000002872 ft";
         # its semi-axes are now the text report's, to the millimetre

@@ -15,7 +15,11 @@ back with poppler's pdftotext (independent of cairo and pango):
   bearing for an ellipse it does not have ("every sample lands on the same
   point", as the text report says) and no bare "Keep clear: 0 m";
 - a kit (profiles/demo/tower-kit.yaml): the spread and the verdicts
-  shares are of the worst item, the one the verdict table judges;
+  shares are of the worst item, the one the verdict table judges; every
+  warning of its falls (`plumb fall --format json`) and of its zones
+  (`plumb zone --format json`) is said exactly once on the whole sheet,
+  never as "item: sentence" once per item (the text report says a shared
+  warning once, "sentence. (item, item)", README "Warnings");
 - the landing region's area says whether the scatter allowance is in it
   (profiles/demo/drone-canopy.yaml has one);
 - on every page the footer's short caution.
@@ -134,6 +138,46 @@ check(f"samples of {worst}, the item judged above" in text,
       f"kit: the spread is of the worst item, {worst}")
 check(re.search(r"(within|exceeds) \(nominal\) [\d.]+ % of samples above", pages[0]) is not None,
       "kit: the worst item's verdicts carry its share of samples above")
+fall_items = json.loads(out)["items"]
+rc, zout, err = plumb("zone", KIT, "--format", "json")
+said = {squeeze(w) for it in fall_items for w in it["warnings"]}
+said |= {squeeze(w) for it in json.loads(zout)["items"] for w in it["zone"]["warnings"]}
+check(len(said) >= 3, f"kit: the profile's falls and zones warn: {len(said)} warnings")
+flat = squeeze(text)
+for w in sorted(said):
+    # its first 60 characters: a warning is not split across a page there
+    n = flat.count(w[:60])
+    check(n == 1, f"kit: said once on the sheet, not {n} times: {w[:60]}")
+per_item = [f"{it['name']}: {w[:30]}" for it in fall_items for w in sorted(said)
+            if f"{it['name']}: {w[:30]}" in flat]
+check(not per_item, f"kit: no warning as 'item: sentence': {per_item}")
+
+# ---- a kit of two whose zones give the same warning (a late canopy,
+# which their falls do not give): said once, with both items, in the
+# profile's order, as `plumb zone` gives it word for word
+latekit = os.path.join(tmp, "latekit.yaml")
+with open(LATE) as f:
+    late = f.read()
+with open(latekit, "w") as f:
+    f.write(late.replace("payload:\n  mass: 1.93 kg\n  drag: {cd: 1.05, area: 0.0187 m^2}\n",
+                         "items:\n  - name: marker A\n    mass: 1.93 kg\n"
+                         "    drag: {cd: 1.05, area: 0.0187 m^2}\n  - name: marker B\n"
+                         "    mass: 1.95 kg\n    drag: {cd: 1.05, area: 0.0187 m^2}\n")
+            .replace("  payload.mass: {uniform: [1.7 kg, 2.2 kg]}\n", "")
+            .replace("samples: 2000", "samples: 500"))
+pages = sheet(latekit, "latekit.pdf")
+flat = squeeze(" ".join(pages))
+rc, zout, err = plumb("zone", latekit, "--format", "json")
+zk = json.loads(zout)["items"]
+shared = [squeeze(w) for w in zk[0]["zone"]["warnings"]
+          if "did not open before impact" in w and w in zk[1]["zone"]["warnings"]]
+check(len(zk) == 2 and len(shared) == 1, f"two items' zones give the same late-canopy warning: {shared}")
+for w in shared:
+    check(flat.count(w[:60]) == 1, f"the shared warning said once: {flat.count(w[:60])}")
+    check(w + " (marker A, marker B)" in flat, "the shared warning names both items, in order")
+    check(f"marker A: {w[:30]}" not in flat and f"marker B: {w[:30]}" not in flat,
+          "the shared warning not once per item")
+os.remove(latekit)
 
 # ---- every sample on one point -----------------------------------------------------
 pages = sheet(STILL, "still.pdf")
