@@ -203,7 +203,8 @@ static void devices_in_state(const plumb_fall_spec *s, const plumb_device_state 
 /* "the parachute does not open before impact", "the parachute is still
  * filling at impact", "the drogue does not open before impact and the
  * parachute is still filling at impact": the devices of s not open at
- * impact, by kind and state; counted when two of them are of one kind. */
+ * impact, by kind and state; counted when one of them shares its kind
+ * with another device, open or not. */
 static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *r, char *buf,
                              size_t size)
 {
@@ -217,9 +218,8 @@ static void devices_not_open(const plumb_fall_spec *s, const plumb_fall_result *
             continue; /* open, or replaced by the next device */
         closed += st[i] == PLUMB_DEVICE_NOT_DEPLOYED;
         filling += st[i] == PLUMB_DEVICE_FILLING;
-        for (size_t k = i + 1; k < n; k++)
-            same |= (st[k] == PLUMB_DEVICE_NOT_DEPLOYED || st[k] == PLUMB_DEVICE_FILLING) &&
-                    s->descent[i].kind == s->descent[k].kind;
+        for (size_t k = 0; k < n; k++) /* open or not: "the drogue" would not say which */
+            same |= k != i && s->descent[i].kind == s->descent[k].kind;
     }
     buf[0] = '\0';
     if (same) {

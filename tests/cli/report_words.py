@@ -198,6 +198,17 @@ for args in [("fall", THROWN, "--set", "release.height=0.01m"),
           f"{' '.join(args[:1] + args[2:])}: a plural after one: {found} (exit {rc})")
 rc, out, err = plumb("fall", THROWN, "--set", "release.height=0.01m")
 check(rc == 0 and re.search(r"solver +\w+, 1 step, ", out), "fall of 1 cm: '1 step,'")
+# two drogues, the second deployed after impact (60 s; the fall from 63.2 m
+# under the first takes a few seconds): "the drogue does not open" beside
+# "with the drogue open" would not say which; counted, with the verb
+# agreeing with its count
+TWO = os.path.join(HERE, "profiles", "two-devices.yaml")
+rc, out, err = plumb("fall", TWO, "--set", "descent[1].kind=drogue",
+                     "--set", "descent[1].deploy.after=60 s")
+flat = " ".join(out.split())
+check(rc == 0 and "(1 of the 2 devices does not open before impact)" in flat and
+      "the drogue does not open" not in flat,
+      f"two drogues, one open: counted, '1 of the 2 devices does not open' (exit {rc}) {err}")
 
 # A kit of one item (invented): "1 item", never "1 items".
 tmp = tempfile.mkdtemp(prefix="plumb-report-words.", dir=os.environ.get("TMPDIR"))
