@@ -22,6 +22,9 @@
 /* Sea-level standard temperature K and pressure Pa (US Std Atm 1976). */
 #define PLUMB_T0_K 288.15
 #define PLUMB_P0_PA 101325.0
+/* 0 degC in kelvin, exact (the definition of the Celsius scale; BIPM SI
+ * Brochure, 9th ed., 2019, 2.3.1). */
+#define PLUMB_CELSIUS_ZERO_K 273.15
 /* Speed of sound at sea level in the standard atmosphere, m/s (US Std Atm
  * 1976, Table 1: Cs = 340.294 m/s at 0 m). The largest release and wind
  * speed a profile may give: the drag model is for subsonic air speeds. */

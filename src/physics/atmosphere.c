@@ -61,8 +61,6 @@
 #define ATM_SURFACE_ABOVE_M 11000.0
 /* Default lapse rate of the surface model, K/m (US Std Atm 1976, layer 0). */
 #define ATM_DEFAULT_LAPSE_K_M 0.0065
-/* 0 deg C in kelvin, exact (definition of the Celsius scale). */
-#define ATM_CELSIUS_ZERO_K 273.15
 /* Magnus constants over water (Alduchov & Eskridge 1996): Pa, -, deg C. */
 #define ATM_MAGNUS_E0_PA 610.94
 #define ATM_MAGNUS_A 17.625
@@ -177,7 +175,7 @@ static void std1976_dry(double alt_m, double *tm_k, double *t_k, double *p_pa,
 /* Saturation vapour pressure over water at t_k, Pa (Magnus, A&E 1996). */
 static double magnus_pa(double t_k)
 {
-    double t_c = t_k - ATM_CELSIUS_ZERO_K;
+    double t_c = t_k - PLUMB_CELSIUS_ZERO_K;
     if (t_c <= -ATM_MAGNUS_B_C)
         return 0.0;
     return ATM_MAGNUS_E0_PA * exp(ATM_MAGNUS_A * t_c / (t_c + ATM_MAGNUS_B_C));

@@ -29,8 +29,8 @@
 #define INHG_PA 3386.389
 /* Pascals per hectopascal. */
 #define HPA_PA 100.0
-/* Kelvin to degree Celsius offset, K (ITS-90 definition of the Celsius scale). */
-#define CELSIUS_ZERO_K 273.15
+/* Kelvin to degree Celsius offset, K (constants.h). */
+#define CELSIUS_ZERO_K PLUMB_CELSIUS_ZERO_K
 /* Fahrenheit scale: T(degF) = T(K) x 9/5 - 459.67 (NIST SP 811, B.8). */
 #define FAHRENHEIT_PER_K 1.8
 #define FAHRENHEIT_ZERO_OFFSET 459.67
