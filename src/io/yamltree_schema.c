@@ -20,9 +20,6 @@
 #include "io/units_int.h"
 #include "io/yamltree.h"
 
-/* 0 degC in kelvin, exactly (BIPM SI Brochure, 9th ed., 2019, 2.3.1). */
-#define CELSIUS_ZERO_K 273.15
-
 /* ---- schema ------------------------------------------------------------ */
 
 plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line, int col,
@@ -442,20 +439,22 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
         snprintf(buf, size,
                  "%g%s .. %g%s (%g degC .. %g degC: air on Earth; was the unit meant degC "
                  "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u,
-                 PLUMB_AIR_TEMPERATURE_MIN_K - CELSIUS_ZERO_K,
-                 PLUMB_AIR_TEMPERATURE_MAX_K - CELSIUS_ZERO_K);
+                 PLUMB_AIR_TEMPERATURE_MIN_K - PLUMB_CELSIUS_ZERO_K,
+                 PLUMB_AIR_TEMPERATURE_MAX_K - PLUMB_CELSIUS_ZERO_K);
         break;
     }
     return buf;
 }
 
-plumb_status plumby_quantity(const plumby_ctx *ctx, const plumby_node *node, plumb_dim dim,
-                             const char *key, double *out)
+/* plumby_quantity with what the key accepts (acc, or NULL), so that no
+ * message suggests a value it refuses. */
+static plumb_status quantity_in(const plumby_ctx *ctx, const plumby_node *node, plumb_dim dim,
+                                const plumbp_accept *acc, const char *key, double *out)
 {
     plumb_diag d;
     plumb_diag_clear(&d);
     double v = 0.0;
-    plumb_status st = plumb_units_parse(ctx->units, node->text, dim, &v, &d);
+    plumb_status st = plumbp_units_parse_in(ctx->units, node->text, dim, acc, &v, &d);
     if (st != PLUMB_OK)
         return plumby_raise(ctx, node->origin, node->line, node->col, key, st, "%s",
                             d.message[0] ? d.message : plumb_strerror(st));
@@ -464,6 +463,12 @@ plumb_status plumby_quantity(const plumby_ctx *ctx, const plumby_node *node, plu
                             "expected a finite number, found '%s'", node->text);
     *out = v;
     return PLUMB_OK;
+}
+
+plumb_status plumby_quantity(const plumby_ctx *ctx, const plumby_node *node, plumb_dim dim,
+                             const char *key, double *out)
+{
+    return quantity_in(ctx, node, dim, NULL, key, out);
 }
 
 /* ---- reading ----------------------------------------------------------- */
@@ -600,16 +605,9 @@ plumb_status plumby_num_node(const plumby_ctx *ctx, const plumby_node *node,
     plumby_range_text(range, dim, r, sizeof r);
     plumbp_accept acc = {0.0, 0.0, 0, 0, r};
     plumby_range_bounds(range, &acc.lo, &acc.hi, &acc.lo_open, &acc.hi_open);
-    plumb_diag d;
-    plumb_diag_clear(&d);
-    plumb_status st = plumbp_units_parse_in(ctx->units, node->text, dim,
-                                            range == PLUMBY_R_ANY ? NULL : &acc, &v, &d);
+    plumb_status st = quantity_in(ctx, node, dim, range == PLUMBY_R_ANY ? NULL : &acc, key, &v);
     if (st != PLUMB_OK)
-        return plumby_raise(ctx, node->origin, node->line, node->col, key, st, "%s",
-                            d.message[0] ? d.message : plumb_strerror(st));
-    if (!plumbp_finite(v))
-        return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
-                            "expected a finite number, found '%s'", node->text);
+        return st;
     if (!plumby_range_ok(range, v)) {
         return plumby_raise(ctx, node->origin, node->line, node->col, key, PLUMB_ERANGE,
                             "must be %s, found '%s'", r, node->text);
