@@ -156,6 +156,8 @@ static plumb_status one_pass(sheet_doc *d, const plumb_brief *const *briefs, siz
     d->page = 0;
     if (st == PLUMB_OK)
         st = draw_all(d, briefs, n, diag);
+    if (st == PLUMB_OK && d->no_glyph[0])
+        st = PLUMB_RAISE(diag, PLUMB_EWRITE, "cannot make the PDF: %s", d->no_glyph);
     g_object_unref(d->layout);
     d->layout = NULL;
     cairo_status_t cs = cairo_status(d->cr);

@@ -51,6 +51,10 @@ typedef struct sheet_doc {
     writer si, us;               /* number formatters, SI and US customary */
     char ring[SHEET_RING][FMT_LEN];  /* sheet_fmt's strings, reused round-robin */
     unsigned next;
+    /* The first text set with characters no installed font has (pango
+     * would draw each as an empty box), and them: "" while there is none;
+     * the sheet is refused when it is not (sheet_page.c, sheet.c). */
+    char no_glyph[480];
 } sheet_doc;
 
 /* The body's width. */

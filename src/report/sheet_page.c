@@ -87,6 +87,73 @@ const char *sheet_id(sheet_doc *d, const char *font, const char *id, double w)
     return sheet_fmt(d, "\x02<span allow_breaks=\"false\">%s</span>", plain);
 }
 
+/* Characters listed by name in the message of a text no font can draw. */
+enum { GLYPHS_LISTED = 6, GLYPH_TEXT_CHARS = 40 };
+
+/* The text just set, checked for characters that no installed font has:
+ * pango draws each as an empty box, so a name in another script would be
+ * lost from the signed sheet (README.md "plumb sheet": a missing font
+ * exits 3). The first such text, shortened to GLYPH_TEXT_CHARS
+ * characters on one line, and its characters as U+XXXX, go into
+ * d->no_glyph, which makes the sheet fail. Pango marks such a glyph with
+ * PANGO_GLYPH_UNKNOWN_FLAG over the character's code point (Pango
+ * reference, PangoGlyph, PANGO_GET_UNKNOWN_GLYPH). */
+static void check_glyphs(sheet_doc *d)
+{
+    if (d->no_glyph[0] || pango_layout_get_unknown_glyphs_count(d->layout) == 0)
+        return;
+    gunichar seen[GLYPHS_LISTED];
+    size_t n_seen = 0, n_more = 0;
+    PangoLayoutIter *it = pango_layout_get_iter(d->layout);
+    do {
+        PangoGlyphItem *run = pango_layout_iter_get_run_readonly(it);
+        for (int i = 0; run && i < run->glyphs->num_glyphs; i++) {
+            PangoGlyph g = run->glyphs->glyphs[i].glyph;
+            gunichar c = g & ~PANGO_GLYPH_UNKNOWN_FLAG;
+            if (!(g & PANGO_GLYPH_UNKNOWN_FLAG) || c > 0x10FFFF)
+                continue;
+            size_t k = 0;
+            while (k < n_seen && seen[k] != c)
+                k++;
+            if (k < n_seen)
+                continue;
+            if (n_seen < GLYPHS_LISTED)
+                seen[n_seen++] = c;
+            else
+                n_more++;
+        }
+    } while (pango_layout_iter_next_run(it));
+    pango_layout_iter_free(it);
+    char chars[GLYPHS_LISTED * 12 + 32] = "";
+    size_t len = 0;
+    int private_use = n_seen > 0;
+    for (size_t k = 0; k < n_seen; k++) {
+        len += (size_t)snprintf(chars + len, sizeof chars - len, "%sU+%04X", k ? " " : "",
+                                (unsigned)seen[k]);
+        private_use = private_use && g_unichar_type(seen[k]) == G_UNICODE_PRIVATE_USE;
+    }
+    if (n_more)
+        snprintf(chars + len, sizeof chars - len, " and %zu more", n_more);
+    /* the text on one line, cut at a character's boundary */
+    const char *text = pango_layout_get_text(d->layout);
+    const char *end = text + strlen(text);
+    if (g_utf8_strlen(text, -1) > GLYPH_TEXT_CHARS)
+        end = g_utf8_offset_to_pointer(text, GLYPH_TEXT_CHARS);
+    char line[GLYPH_TEXT_CHARS * 4 + 8];
+    size_t j = 0;
+    for (const char *p = text; p < end && j + 1 < sizeof line; p++)
+        line[j++] = (*p == '\n' || *p == '\t' || *p == '\r') ? ' ' : *p;
+    line[j] = '\0';
+    snprintf(d->no_glyph, sizeof d->no_glyph,
+             "no installed font has the characters %s of '%s%s' (they would print as empty "
+             "boxes); %s",
+             n_seen ? chars : "(not named by pango)", line, *end ? "..." : "",
+             private_use ? "they are private-use characters, which only a font made for them "
+                           "has: write the text without them"
+                         : "install a font that has them (on Debian: apt-get install "
+                           "fonts-wqy-microhei for Chinese, Japanese and Korean)");
+}
+
 static void set_markup(sheet_doc *d, double w, const char *font, const char *markup)
 {
     PangoFontDescription *fd = pango_font_description_from_string(font);
@@ -95,6 +162,7 @@ static void set_markup(sheet_doc *d, double w, const char *font, const char *mar
     pango_layout_set_width(d->layout, w > 0.0 ? (int)(w * PANGO_SCALE) : -1);
     pango_layout_set_wrap(d->layout, PANGO_WRAP_WORD_CHAR);
     pango_layout_set_markup(d->layout, markup, -1);
+    check_glyphs(d);
 }
 
 double sheet_text(sheet_doc *d, double x, double y, double w, const char *font, const char *markup,
