@@ -16,7 +16,9 @@
 #include "plumb/sheet.h"
 #include "report/format.h"
 
-/* The type: one family, embedded; sizes in points. */
+/* The type: one family, embedded; a character it lacks comes from an
+ * installed font that has it (fontconfig's fallback), and a text with one
+ * that no font has is refused (sheet_page.c). Sizes in points. */
 #define SHEET_FONT "DejaVu Sans"
 #define SHEET_MONO "DejaVu Sans Mono"
 #define SHEET_BODY 10.0
