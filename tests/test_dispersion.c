@@ -686,6 +686,38 @@ static void test_a_normal_is_reported_cut_only_where_its_range_cuts_it(void **st
     plumb_sampler_free(sm);
 }
 
+/* A distribution of zero width gives every sample the same value: a zone
+ * needs spread (README.md, "plumb zone"), so each form is refused at its
+ * entry (file, line, column, key), even beside an input that varies. */
+static void test_a_zero_width_distribution_is_refused_at_its_key(void **state)
+{
+    (void)state;
+    plumb_fall_spec s;
+    drone_spec(&s);
+    s.wind.profile = PLUMB_WIND_UNIFORM;
+    const plumb_uncertainty zero[] = {
+        unc("wind.speed", PLUMB_DIST_NORMAL, 6.3, 0.0, 0.0),
+        unc("wind.speed", PLUMB_DIST_UNIFORM, 6.3, 6.3, 0.0),
+        unc("wind.speed", PLUMB_DIST_TRIANGULAR, 6.3, 6.3, 6.3),
+        unc("wind.from", PLUMB_DIST_UNIFORM, 247.0, 247.0, 0.0),
+    };
+    for (size_t k = 0; k < sizeof zero / sizeof zero[0]; k++) {
+        plumb_uncertainty u[2] = {unc("release.position.east", PLUMB_DIST_NORMAL, 0.0, 1.7, 0.0),
+                                  zero[k]};
+        u[1].line = 23;
+        plumb_sampler *sm = NULL;
+        plumb_diag d;
+        memset(&d, 0, sizeof d);
+        assert_int_equal(plumb_sampler_alloc(&s, u, 2, "t.yaml", &sm, &d), PLUMB_EINVAL);
+        assert_null(sm);
+        assert_string_equal(d.key, zero[k].key);
+        assert_string_equal(d.file, "t.yaml");
+        assert_int_equal(d.line, 23);
+        assert_int_equal(d.col, 3);
+        assert_non_null(strstr(d.message, "zero width"));
+    }
+}
+
 /* Each distribution's sample mean and variance against its definition. */
 static void test_every_distribution_matches_its_mean_and_variance(void **state)
 {
@@ -1153,6 +1185,7 @@ int main(void)
 {
     const struct CMUnitTest tests[] = {
         cmocka_unit_test(test_drag_free_drift_with_normal_release_velocity_is_rayleigh),
+        cmocka_unit_test(test_a_zero_width_distribution_is_refused_at_its_key),
         cmocka_unit_test(test_ballistic_throw_includes_the_upward_release_component),
         cmocka_unit_test(test_ellipse_major_axis_follows_the_larger_spread),
         cmocka_unit_test(test_intervals_cover_the_true_values_in_at_least_93_percent_of_200_runs),

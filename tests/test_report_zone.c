@@ -569,7 +569,10 @@ static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it
     const char *kit = strstr(si, "\n# kit: clearance radius at confidence 0.9: ");
     assert_non_null(kit);
     assert_true(kit < strstr(si, "\nitem_number,item,quantity,"));
-    assert_non_null(strstr(kit, ", set by tag line, orange (the item with the largest radius"));
+    /* the claim is of the clearance circles, all around the drop point */
+    assert_non_null(strstr(kit, ", set by tag line, orange (the largest of the items' clearance "
+                                "radii: every item's clearance circle, around the same point, "
+                                "lies within it)"));
     assert_non_null(strstr(kit, "largest landing circle "));
     assert_non_null(strstr(strstr(us, "\n# kit: "), " ft, set by radio\n"));
     free(si);

@@ -21,6 +21,17 @@
  * Table 5.2) ends with its 4e5 < Re < 1e6 piece. */
 #define MORRISON_RE_MAX 1.0e6
 #define CGW_RE_MAX 1.0e6
+/* Height above the strike level past which the power and log wind laws are
+ * no model of the wind: the top of the atmospheric boundary layer, "up to
+ * around 1 km" above the ground, the free atmosphere above it (Wikipedia,
+ * "Log wind profile", read in a copy; the same article limits the log law
+ * itself to the surface layer, "the lowest 100 m"). The layer's depth
+ * varies from a few hundred metres to a few kilometres with the day and
+ * the weather (from memory: R. B. Stull, An Introduction to Boundary Layer
+ * Meteorology, 1988, ch. 1); 1 km is a round middle value, chosen to mark
+ * a fall that is mostly outside the layer, not to split hairs below it
+ * (SAFETY.md section 3.3 says the rest). */
+#define WIND_LAW_TOP_M 1000.0
 
 /* ---- verdicts and warnings ---------------------------------------------- */
 
@@ -273,6 +284,19 @@ plumb_status plumb_item_judge(plumb_item_report *item, const plumb_profile *prof
                     gl->mode == PLUMB_GLIDE_TUMBLE ? "tumble" : "flutter", why,
                     atan(1.0 / 1.375) * 180.0 / PLUMB_PI);
     note_downwash(item, atm);
+    /* the highest point of the fall: the release height before it is
+     * computed (plumb zone's judging), its apex after */
+    const plumb_wind_spec *wd = &item->spec->wind;
+    double top_m = item->spec->release_m[2] > r->apex_m ? item->spec->release_m[2] : r->apex_m;
+    if ((wd->profile == PLUMB_WIND_POWER || wd->profile == PLUMB_WIND_LOG) &&
+        wd->speed_m_s > 0.0 && top_m > WIND_LAW_TOP_M)
+        add_warning(item,
+                    "The fall reaches above " PLUMBP_Q_LENGTH ", about the top of the "
+                    "atmospheric boundary layer: the %s law (wind.profile) describes the wind "
+                    "near the ground and is extrapolated above it, so the drift is uncertain. "
+                    "Give the wind aloft as a table (wind.profile: table), from a forecast or "
+                    "a sounding.",
+                    WIND_LAW_TOP_M, wd->profile == PLUMB_WIND_POWER ? "power" : "log");
     const plumb_turbulence_spec *tb = &item->spec->turbulence;
     const char *w20_from = w20_source(tb);
     if (one_fall && tb->model != PLUMB_TURB_NONE && tb->n_modes == 0)

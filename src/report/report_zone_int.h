@@ -9,6 +9,8 @@
 #ifndef PLUMB_REPORT_ZONE_INT_H
 #define PLUMB_REPORT_ZONE_INT_H
 
+#include <math.h>
+
 #include <jansson.h>
 
 #include "plumb/constants.h"
@@ -47,6 +49,34 @@ static inline double len_shown(const writer *w, double m)
 static inline const char *len_unit(const writer *w)
 {
     return w->us ? "ft" : "m";
+}
+
+/* How far from the planned drop point a kit item's landing circle
+ * reaches: its centre's distance from that point plus its radius (the
+ * scatter allowance included, as landing_circle_m has it), m. The kit's
+ * clearance radius is the largest of the items' clearance radii, circles
+ * all around the drop point, so each of those lies within it; a landing
+ * circle lies around its item's own centre, is another estimate from
+ * other samples (the first landing_training fix its centre, the rest are
+ * counted), and can reach beyond it. The writers say which, and how far.
+ * Sets *item to the bounded circle that reaches farthest and returns 1;
+ * 0 when every circle is open. */
+static inline int kit_landing_reach(const plumb_zone_report *rep, size_t *item, double *reach_m)
+{
+    int any = 0;
+    for (size_t i = 0; i < rep->n_items; i++) {
+        const plumb_zone_stats *z = &rep->items[i].result->zone;
+        if (z->landing_radius.hi_open)
+            continue;
+        double r = hypot(z->landing_centre_m[0] - z->release_m[0],
+                         z->landing_centre_m[1] - z->release_m[1]) + z->landing_circle_m;
+        if (!any || r > *reach_m) {
+            *item = i;
+            *reach_m = r;
+            any = 1;
+        }
+    }
+    return any;
 }
 
 static inline const char *dist_word(plumb_dist_kind k)

@@ -199,8 +199,9 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
         sheet_para(d, font, sheet_fmt(d, "The %zu samples give no distance to keep clear: every "
                                          "sample lands on the same point%s, so %s is not a safe "
                                          "distance; " PLUMBP_NO_SCATTER ". Give the uncertainty "
-                                         "of the wind, the release point or the release "
-                                         "velocity, or a scatter allowance, to size one.",
+                                         "of an input that moves the impact point (the warning "
+                                         "impact_point_fixed says which), or a scatter "
+                                         "allowance, to size one.",
                                       z->samples, who, keep));
     } else {
         sheet_para(d, bold, sheet_fmt(d, "Keep clear: %s %s around the planned drop point", keep,

@@ -172,8 +172,9 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
         /* the kit as a whole, as the text and JSON give it */
         const plumb_zone_result *kr = rep->items[rep->kit_item].result;
         const plumb_zone_result *lr = rep->items[rep->kit_landing_item].result;
-        put(w, "# kit: clearance radius at confidence %s: %s %s, set by %s (the item with the largest "
-               "radius; every item's zone lies within it); ", csvnum(w, kr->confidence),
+        put(w, "# kit: clearance radius at confidence %s: %s %s, set by %s (the largest of the "
+               "items' clearance radii: every item's clearance circle, around the same point, "
+               "lies within it); ", csvnum(w, kr->confidence),
             csvnum(w, up(len_shown(w, kr->zone.clearance_radius_m))), len_unit(w),
             rep->items[rep->kit_item].name);
         if (lr->zone.landing_radius.hi_open)
@@ -182,6 +183,17 @@ void plumbp_zone_csv_report(writer *w, const plumb_zone_report *rep)
             put(w, "largest landing circle %s %s, set by %s\n",
                 csvnum(w, up(len_shown(w, lr->zone.landing_circle_m))), len_unit(w),
                 rep->items[rep->kit_landing_item].name);
+        /* the landing circles lie around their own centres (kit_landing_reach) */
+        size_t ri = 0;
+        double reach = 0.0;
+        if (kit_landing_reach(rep, &ri, &reach))
+            put(w, "# kit: the landing circle reaching farthest from the drop point, %s's, reaches "
+                   "%s %s, %s\n", rep->items[ri].name, csvnum(w, up(len_shown(w, reach))),
+                len_unit(w),
+                reach > kr->zone.clearance_radius_m
+                    ? "beyond the kit clearance radius (another estimate of where the impacts "
+                      "land, around the item's own centre): fence it to keep that circle clear too"
+                    : "within the kit clearance radius");
     }
     for (size_t i = 0; i < rep->n_items; i++) {
         const plumb_zone_result *r = rep->items[i].result;

@@ -538,14 +538,31 @@ static void text_kit(writer *w, const plumb_zone_report *rep)
     const plumb_zone_result *k = rep->items[rep->kit_item].result;
     const plumb_zone_result *l = rep->items[rep->kit_landing_item].result;
     put(w, "==== The kit\n\n");
-    char line[512];
-    snprintf(line, sizeof line, "%s around the planned drop point, set by %s (the item with "
-             "the largest radius; every item's zone lies within it)",
+    char line[1024];
+    snprintf(line, sizeof line, "%s around the planned drop point, set by %s (the largest of "
+             "the items' clearance radii: every item's clearance circle, around the same "
+             "point, lies within it)",
              t_clear_sum(w, k->zone.clearance_radius_m, k->zone.radius_conf.hi,
                          k->zone.scatter_m).total,
              rep->items[rep->kit_item].name);
     put(w, "Kit clearance radius at %s:\n", pct(w, k->confidence));
     wrapped(w, "  ", line);
+    /* the landing circles lie around their own centres (kit_landing_reach) */
+    size_t ri = 0;
+    double reach = 0.0;
+    if (kit_landing_reach(rep, &ri, &reach)) {
+        if (reach > k->zone.clearance_radius_m)
+            snprintf(line, sizeof line, "the landing circles lie around each item's own centre "
+                     "and are another estimate of where %s land: %s's reaches %s from the drop "
+                     "point, beyond this radius; fence %s to keep it clear too",
+                     pct(w, k->confidence), rep->items[ri].name, t_clear(w, reach),
+                     t_clear(w, reach));
+        else
+            snprintf(line, sizeof line, "every item's landing circle, around its own centre, "
+                     "lies within it too (the farthest, %s's, reaches %s from the drop point)",
+                     rep->items[ri].name, t_clear(w, reach));
+        wrapped(w, "  ", line);
+    }
     if (!l->zone.landing_radius.hi_open) {
         snprintf(line, sizeof line, "largest landing circle %s (%s scatter allowance), "
                  "set by %s", t_clear_sum(w, l->zone.landing_circle_m, l->zone.landing_radius.hi,

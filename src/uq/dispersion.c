@@ -550,6 +550,36 @@ static void share_of(size_t k, size_t n, char *buf, size_t size)
  * and together, since the figures then mix falls under the open canopy
  * with falls without it or under a part-filled one. The counts are
  * integer sums, so they are the same for any thread count. */
+/* What to give so that a zone whose impact point did not move gets one,
+ * said of what the profile holds: a drag-free payload is not moved by the
+ * wind (nothing in the equation of motion couples them, README.md
+ * "Physics"), and a calm wind has no direction or shape to vary. */
+static const char *fixed_advice(const plumb_fall_spec *base, const plumb_uncertainty *u, size_t n_u)
+{
+    int wind = 0, wind_speed = 0, drag_varies = 0;
+    for (size_t i = 0; i < n_u; i++) {
+        wind |= strncmp(u[i].key, "wind.", 5) == 0;
+        wind_speed |= strcmp(u[i].key, "wind.speed") == 0;
+        drag_varies |= strncmp(u[i].key, "payload.drag.", 13) == 0 ||
+                       u[i].kind == PLUMB_DIST_CHOICE;
+    }
+    const plumb_drag_spec *d = &base->drag;
+    int has_drag = d->model != PLUMB_DRAG_FIXED || base->n_descent > 0 ||
+                   plumb_drag_cd_area(d, 0.0) > 0.0 || drag_varies;
+    if (!wind)
+        return "Give the uncertainty of the wind, the release point or the release velocity "
+               "to size one.";
+    if (!has_drag)
+        return "The payload has no drag, so the wind, uncertain as it is, does not move it: "
+               "give the uncertainty of the release point or the release velocity to size one.";
+    if (!wind_speed && base->wind.profile != PLUMB_WIND_TABLE && !(base->wind.speed_m_s > 0.0))
+        return "The wind is calm (wind.speed 0) and its speed is not uncertain, so its other "
+               "uncertain inputs move nothing: give the uncertainty of the wind speed, the "
+               "release point or the release velocity to size one.";
+    return "The wind is uncertain but moves it by less than that: give the uncertainty of "
+           "the release point or the release velocity to size one.";
+}
+
 static void warn_closed(plumb_zone_result *res, const plumb_fall_spec *base, const acc *a)
 {
     size_t n = a->n;
@@ -806,9 +836,8 @@ plumb_status plumb_zone_run(const plumb_fall_spec *base, const plumb_atmosphere 
             plumb_zone_add_warning(
                 res, "impact_point_fixed: the uncertain inputs do not move the impact point "
                      "(every sample lands within " PLUMBP_Q_SMALL " of the same point), so the radii are "
-                     "the drift of one fall, not a zone. Give the uncertainty of the wind, "
-                     "the release point or the release velocity to size one.",
-                PLUMB_ZONE_FIXED_M);
+                     "the drift of one fall, not a zone. %s",
+                PLUMB_ZONE_FIXED_M, fixed_advice(base, u, n_u));
         warn_closed(res, base, &ps.a);
     }
     /* Pass 1: released where the median impact falls on the target. */

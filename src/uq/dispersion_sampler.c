@@ -168,6 +168,25 @@ static const char *at(const plumb_uncertainty *u, const char *source)
     return u->from_set ? PLUMB_DIAG_SET_FILE : source;
 }
 
+/* A distribution of zero width (a normal of sd 0, a uniform or triangular
+ * whose ends meet, "x +- 0"): every sample takes the same value, so it
+ * gives the zone no spread. Refused like any input whose sampling has no
+ * effect, whether or not other inputs vary: a zone needs the spread of its
+ * inputs and is never a radius from identical falls (README.md, "plumb
+ * zone"), and a zero width among real ones is almost surely a slip (an sd
+ * typed as 0, a range whose ends were copied), not a way to fix the input,
+ * which leaving it out of `uncertainty:` does. */
+static plumb_status zero_width(const plumb_uncertainty *u, const char *source, const char *why,
+                               plumb_diag *diag)
+{
+    return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
+                          "sampling it has no effect: the %s distribution has zero width (%s), "
+                          "so every sample takes the same value. A zone needs the spread of "
+                          "its inputs, never a radius from identical falls: give its real "
+                          "spread, or leave the key out of `uncertainty:`",
+                          dist_name(u->kind), why);
+}
+
 /* Checks an entry's distribution against its rule; fills e->a, b, c and
  * e->truncated. */
 static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
@@ -188,6 +207,8 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
         if (sd < 0.0)
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "normal: the standard deviation must be >= 0, found %g", sd);
+        if (sd == 0.0)
+            return zero_width(u, source, "its standard deviation is 0", diag);
         e->truncated = !r->angle && (isfinite(r->lo) || isfinite(r->hi));
         if (!e->truncated)
             return PLUMB_OK;
@@ -195,22 +216,17 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "normal: the mean %g lies outside the key's range (%s)",
                                   mean, range_text(r, rt, sizeof rt));
-        if (sd > 0.0) {
-            double mass = gsl_cdf_ugaussian_P((r->hi - mean) / sd) -
-                          gsl_cdf_ugaussian_P((r->lo - mean) / sd);
-            if (!(mass >= TRUNC_MIN_MASS))
-                return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
-                                      "normal [%g, %g]: only %.0f%% of it lies in the key's range "
-                                      "(%s); truncating it there would change it beyond "
-                                      "recognition: give a smaller sd or a uniform or "
-                                      "triangular distribution", mean, sd, 100.0 * mass,
-                                      range_text(r, rt, sizeof rt));
-            e->cut_lo = gsl_cdf_ugaussian_P((r->lo - mean) / sd) > TRUNC_TAIL_SHOWN;
-            e->cut_hi = gsl_cdf_ugaussian_Q((r->hi - mean) / sd) > TRUNC_TAIL_SHOWN;
-        } else if (r->lo_open && !(mean > r->lo)) {
+        double mass = gsl_cdf_ugaussian_P((r->hi - mean) / sd) -
+                      gsl_cdf_ugaussian_P((r->lo - mean) / sd);
+        if (!(mass >= TRUNC_MIN_MASS))
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
-                                  "normal: the mean must be > %g", r->lo);
-        }
+                                  "normal [%g, %g]: only %.0f%% of it lies in the key's range "
+                                  "(%s); truncating it there would change it beyond "
+                                  "recognition: give a smaller sd or a uniform or "
+                                  "triangular distribution", mean, sd, 100.0 * mass,
+                                  range_text(r, rt, sizeof rt));
+        e->cut_lo = gsl_cdf_ugaussian_P((r->lo - mean) / sd) > TRUNC_TAIL_SHOWN;
+        e->cut_hi = gsl_cdf_ugaussian_Q((r->hi - mean) / sd) > TRUNC_TAIL_SHOWN;
         return PLUMB_OK;
     }
     case PLUMB_DIST_UNIFORM:
@@ -231,6 +247,11 @@ static plumb_status check_dist(entry *e, const char *source, plumb_diag *diag)
                                   "%s: the low end %g is above the high end %g", dist_name(u->kind),
                                   a, b);
         }
+        if (b == a)
+            return zero_width(u, source, u->kind == PLUMB_DIST_UNIFORM
+                                             ? "its low and high ends are the same value, or its tolerance is 0"
+                                             : "its low end, mode and high end are the same value",
+                              diag);
         if (u->kind == PLUMB_DIST_TRIANGULAR && !(c >= a && c <= b))
             return PLUMB_RAISE_AT(diag, PLUMB_EINVAL, at(u, source), u->line, u->col, u->key,
                                   "triangular: the mode %g must lie between the low end %g and "

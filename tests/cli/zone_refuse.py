@@ -11,6 +11,15 @@
   says "impact_point_fixed": true.
 - A criterion that is a helmet test energy carries its note ("not a safe
   limit") in the zone's "warnings", as plumb fall's JSON does.
+- An uncertainty of zero width (normal sd 0, uniform or triangular whose
+  ends meet, "x +- 0") is no uncertainty either (README.md, "plumb zone"):
+  refused with exit 2 at its file:line:col and key, saying "zero width",
+  alone or beside an input that varies, from the profile or from --set;
+  nothing written.
+- The impact_point_fixed advice says what is the case: the wind uncertain
+  but the payload without drag (the wind cannot move it: the drag is the
+  only force that couples them, README.md "Physics"), or a calm wind whose
+  direction alone is uncertain, is not told to give the wind's uncertainty.
 """
 import json
 import shutil
@@ -71,5 +80,61 @@ if rc == 0:
     check(z["impact_point_fixed"] is False and
           not any(w.startswith("impact_point_fixed") for w in z["warnings"]),
           "wind uncertain: the impact point is not fixed")
+# Zero width: each form, at the key's line and column, nothing written.
+ZERO = ["{normal: [8 m/s, 0 m/s]}", "{uniform: [8 m/s, 8 m/s]}", '"8 m/s +- 0 m/s"',
+        "{triangular: [8 m/s, 8 m/s, 8 m/s]}", "{normal: [17.9 mph, 0 mph]}"]
+for z in ZERO:
+    for other in ("", "  release.position.east: {normal: [0 m, 1.3 m]}\n"):
+        zp = os.path.join(tmp, "zero.yaml")
+        with open(zp, "w") as f:
+            f.write("# Invented test scenario: a zone whose wind has no spread.\n"
+                    "payload: {mass: 5 kg, drag: {cd: 1, area: 0.01 m^2}}\n"
+                    "release: {height: 10 m}\n"
+                    "wind: {speed: 8 m/s}\n"
+                    "uncertainty:\n" + other +
+                    "  wind.speed: " + z + "\n")
+        line = 7 if other else 6  # after the comment and the map's own line
+        out = os.path.join(tmp, "zero.txt")
+        rc, so, se = plumb("zone", zp, "--samples", "400", "-o", out)
+        what = f"{z}{' beside a varying input' if other else ''}"
+        check(rc == 2, f"zero width {what}: exit 2, got {rc}: {se}")
+        check(se.startswith(f"plumb: {zp}:{line}:3: wind.speed: ") and "zero width" in se,
+              f"zero width {what}: refused at its key, says zero width: {se}")
+        check(so == "" and not os.path.exists(out), f"zero width {what}: nothing written")
+rc, so, se = plumb("zone", bare, "--set", "uncertainty.wind.from={uniform: [250 deg, 250 deg]}",
+                   "--set", "wind.speed=4 m/s", "--format", "json")
+check(rc == 2 and "--set" in se and "wind.from" in se and "zero width" in se and so == "",
+      f"zero width from --set: refused there: {rc} {se}")
+
+# The advice of impact_point_fixed says what is the case.
+def fixed_warning(profile_text, *extra):
+    path = os.path.join(tmp, "fixed.yaml")
+    with open(path, "w") as f:
+        f.write(profile_text)
+    rc, so, se = plumb("zone", path, "--format", "json", "--threads", "1", *extra)
+    check(rc == 0, f"runs: {rc} {se}")
+    if rc != 0:
+        return ""
+    ws = [w for w in json.loads(so)["zone"]["warnings"] if w.startswith("impact_point_fixed")]
+    check(len(ws) == 1, f"one impact_point_fixed warning: {ws}")
+    return ws[0] if ws else ""
+
+w = fixed_warning("# Invented: a drag-free 5 kg mass in an uncertain wind.\n"
+                  "payload: {mass: 5 kg, drag: {cd: 0, area: 0.01 m^2}}\n"
+                  "release: {height: 10 m}\nwind: {speed: 5 m/s}\n"
+                  "uncertainty:\n  wind.speed: {normal: [5 m/s, 1 m/s]}\n"
+                  "zone: {samples: 400, seed: 3}\n")
+check("no drag" in w and "does not move it" in w and "uncertainty of the wind" not in w,
+      f"drag-free: the wind cannot move it, not 'give the wind's uncertainty': {w}")
+w = fixed_warning("# Invented: a calm wind whose direction alone is uncertain.\n"
+                  "payload: {mass: 5 kg, drag: {cd: 1, area: 0.01 m^2}}\n"
+                  "release: {height: 10 m}\n"
+                  "uncertainty:\n  wind.from: {uniform: [200 deg, 300 deg]}\n"
+                  "zone: {samples: 400, seed: 3}\n")
+check("calm" in w and "uncertainty of the wind speed" in w,
+      f"calm wind: says it is calm, asks for the wind speed's uncertainty: {w}")
+w = fixed_warning(open(bare).read(), "--set", UNC)
+check("Give the uncertainty of the wind, the release point or the release velocity" in w,
+      f"mass only: asks for the wind, release point or velocity: {w}")
 shutil.rmtree(tmp)
 finish()
