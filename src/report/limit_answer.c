@@ -139,6 +139,39 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
     char scanned[NUMBUF * 3];
     snprintf(scanned, sizeof scanned, "from %s to %s", t_value(w, key, r->dim, r->scan_lo_si),
              t_value(w, key, r->dim, r->scan_hi_si));
+    /* a scan left with one value computed (the profile's own, every other
+     * refused or not computable) is no range: "from 30 m to 30 m" would
+     * read as one; it is worded as the single value it is */
+    int single = r->n_scanned == 1 && r->outcome != PLUMB_LIMIT_FOUND;
+    const char *only = t_value(w, key, r->dim, r->scan_hi_si);
+    if (single) {
+        switch (r->outcome) {
+        case PLUMB_LIMIT_UNLIMITED:
+            snprintf(buf, size,
+                     "the %s stays below the limit of %s at the only value of %s that could be "
+                     "computed, %s, where it is %s%s%s",
+                     metric_word(rep->metric), t_the_limit(w, rep), label, only,
+                     t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+            return;
+        case PLUMB_LIMIT_NOT_REACHED:
+            snprintf(buf, size,
+                     "not reached within the values of %s that can be computed: the %s stays "
+                     "below the limit of %s at the only value that could be computed, %s, "
+                     "where it is %s%s%s",
+                     label, metric_word(rep->metric), t_the_limit(w, rep), only,
+                     t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+            return;
+        case PLUMB_LIMIT_IMPOSSIBLE:
+            snprintf(buf, size,
+                     "the %s exceeds the limit of %s at the only value of %s that could be "
+                     "computed, %s, where it is %s%s%s",
+                     metric_word(rep->metric), t_the_limit(w, rep), label, only,
+                     t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+            return;
+        default:
+            break;
+        }
+    }
     switch (r->outcome) {
     case PLUMB_LIMIT_UNLIMITED:
         snprintf(buf, size,

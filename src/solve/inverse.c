@@ -656,6 +656,18 @@ static void not_reached_why(const char *key, plumb_status top_out, const char *t
     }
 }
 
+/* Why the scan starts where it does when lower values were refused, in
+ * words without figures: low_key is the key whose check refused them (""
+ * if none named). */
+static void low_refused_why(const char *key, const char *low_key, char *e, size_t size)
+{
+    if (low_key[0] && strcmp(low_key, key) != 0)
+        snprintf(e, size, "lower values are refused by the profile's check of %s, so the "
+                          "scan starts there", low_key);
+    else
+        snprintf(e, size, "lower values are refused by the profile, so the scan starts there");
+}
+
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
 static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
@@ -755,21 +767,22 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
             res->outcome = PLUMB_LIMIT_NOT_REACHED;
             not_reached_why(key, top_out, top_key, res);
             size_t len = strlen(res->explanation);
-            if (metric != PLUMB_METRIC_DRIFT && strcmp(key, "release.height") == 0)
+            if (n == 1 && low_refused) {
+                /* one value computed: nothing is seen to level off, and the
+                 * scan ends below it as well as above */
+                snprintf(res->explanation + len, sizeof res->explanation - len, "; ");
+                len = strlen(res->explanation);
+                low_refused_why(key, low_key, res->explanation + len,
+                                sizeof res->explanation - len);
+            } else if (n > 1 && metric != PLUMB_METRIC_DRIFT &&
+                       strcmp(key, "release.height") == 0)
                 snprintf(res->explanation + len, sizeof res->explanation - len,
                          "; below that it levels off as the fall reaches its terminal speed");
             return PLUMB_OK;
         }
         /* the figures (range scanned, the metric at its top) say the rest */
-        if (low_refused && res->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
-            if (low_key[0] && strcmp(low_key, key) != 0)
-                snprintf(res->explanation, sizeof res->explanation,
-                         "lower values are refused by the profile's check of %s, so the "
-                         "scan starts there", low_key);
-            else
-                plumbp_strlcpy(res->explanation,
-                               "lower values are refused by the profile, so the scan starts "
-                               "there", sizeof res->explanation);
+        if (low_refused && (res->outcome == PLUMB_LIMIT_IMPOSSIBLE || n == 1)) {
+            low_refused_why(key, low_key, res->explanation, sizeof res->explanation);
         } else if (metric == PLUMB_METRIC_DRIFT && res->outcome == PLUMB_LIMIT_UNLIMITED) {
             drift_unlimited_why(plumb_profile_item(profile, c->item), key, fs, n, limit, res);
         } else if (strcmp(key, "release.height") == 0) {
