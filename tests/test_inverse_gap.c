@@ -223,7 +223,8 @@ static void test_the_report_says_why_the_answer_stops_short(void **state)
                 *out++ = *c;
         *out = '\0';
         assert_non_null(strstr(flat, "the limit is crossed between this value and the next "
-                                     "heights computed"));
+                                     "height computed, which exceeds it, but the heights "
+                                     "just beyond this one cannot be computed"));
         assert_non_null(strstr(flat, "so the answer stops at the last value computed that "
                                      "meets the limit"));
         free(buf);

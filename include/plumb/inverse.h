@@ -100,8 +100,8 @@ typedef struct plumb_limit_result {
      * (almost) zero height the limit is exceeded"
      * (impossible release height), "this item's drag does not use KEY"
      * (not applicable), "the limit is crossed between this value and the
-     * next ... computed, ... but the values just beyond this one cannot be
-     * computed: ..." (found, short of a crossing whose bracket holds
+     * next value computed, ... but the values just beyond this one cannot
+     * be computed: ..." (found, short of a crossing whose bracket holds
      * values left out). The report writers word the figures (the range
      * scanned, the crossings, the metric) in the report's units from the
      * fields of this struct. */

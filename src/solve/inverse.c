@@ -784,7 +784,8 @@ static void gap_words(const char *key, const gap_why *g, plumb_limit_result *res
     snprintf(res->explanation, sizeof res->explanation,
              "the limit is crossed between this value and the next %s computed, which "
              "exceeds it, but the %s just beyond this one cannot be computed: %s; so the answer "
-             "stops at the last value computed that meets the limit", what, what, why);
+             "stops at the last value computed that meets the limit",
+             strcmp(key, "release.height") == 0 ? "height" : "value", what, why);
 }
 
 /* Why the scan starts where it does when lower values were refused, in
