@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""A limit answer's words are in the report's units (issue 9: "--units us is
-US throughout a report"): for every kind of answer (found, found at several
+"""A limit answer's words are in the report's units (--units us is
+US throughout a report): for every kind of answer (found, found at several
 crossings, not reached at the top of the range scanned, exceeded all the
 way down, already over at zero height, not applicable to an item) and every
 kind of limit (--energy-max, --speed-max, --drift-max):
@@ -175,8 +175,8 @@ for what, args, outcomes in CASES:
     check(rc_b == 0 and j_si == j_us and ex == [r["explanation"] for r in r_si],
           f"{what}: JSON the same in SI and US, its explanation in SI:\n{ex}")
 
-# The warnings of the fall at the answer (issue 9: limit reports printed
-# none). At 500 kJ a 20 kg weight strikes at sqrt(2 E / m) = 223.6 m/s,
+# The warnings of the fall at the answer (limit reports once printed
+# none, though that fall is the one a user would make). At 500 kJ a 20 kg weight strikes at sqrt(2 E / m) = 223.6 m/s,
 # Mach 0.657 in sea-level air (a = 340.294 m/s, U.S. Standard Atmosphere
 # 1976), above the Mach 0.5 of the warning; its own 10 m fall (14 m/s) is
 # far below it, so the warning comes from the answer's fall, not the

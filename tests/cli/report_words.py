@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""How reports word places and units (issue 9, "Reports that state what
-they computed"):
+"""How reports word places and units (a report states what it
+computed, no more):
   - no "0 m S": a coordinate that prints as zero has no south or west;
   - no bearing when there is no drift (text and CSV; 0 in JSON, which
     keeps the key a number, below the 5 mm the text calls none), nor for
@@ -66,8 +66,8 @@ check(rc == 0 and len(rows) == 2 and all(r["bearing_deg"] == "" for r in rows),
 # the text calls none, below 0.005 m. A wind of 1.37 mm/s
 # from the north moves a fall from rest at most w T (its horizontal speed
 # never exceeds the wind's: drag pulls it toward the air's velocity), under
-# 5 mm, but not nothing; 2.3 m/s moves it due south, bearing 180 (issue 9:
-# JSON gave 180 for the negligible drift too).
+# 5 mm, but not nothing; 2.3 m/s moves it due south, bearing 180 (JSON
+# once gave 180 for the negligible drift too).
 def fall_json(*args):
     rc, out, err = plumb("fall", LIGHT, "--set", "wind.from=N", *args, "--format", "json")
     return json.loads(out)["impact"] if rc == 0 else {}
@@ -89,8 +89,8 @@ check(len(rows) == 2 and all(0.0 < r["impact"]["drift_m"] < 0.005 and r["impact"
 # No ellipse, so no bearing, in a zone whose samples all land on one point:
 # only the mass uncertain, dropped from rest in still air, every fall is
 # vertical (x(t) = 0 above). The text says "none"; CSV leaves the bearing
-# cell empty, JSON keeps its keys with null (issue 9: "90", east, the
-# atan2(0, 0) of a zero covariance). A wind that varies spreads them along
+# cell empty, JSON keeps its keys with null (it once gave "90", east,
+# the atan2(0, 0) of a zero covariance). A wind that varies spreads them along
 # its line (from 270 deg: east-west, bearing 90), and the bearing is given.
 ZONE = ("zone", LIGHT, "--samples", "2000", "--threads", "1")
 MASS = ("--set", "uncertainty.payload.mass={normal: [0.047 kg, 0.0042 kg]}")
