@@ -1429,6 +1429,26 @@ if rc == 0:
 shutil.rmtree(crit16)
 os.remove(long16)
 
+# ---- a drogue cut away while still filling is not "opens" -------------------------
+# tests/cli/profiles/two-devices.yaml with a 0.8 s drogue fill and the
+# parachute at 0.9 s: the drogue is cut away 0.4 s into its fill, at
+# (0.9 - 0.5) / 0.8 = 50 % (README.md, "fill_fraction"; line stretch comes
+# at the `after` times). The sheet says so, in bold as a device that did
+# not open, never "drogue: opens", as `plumb fall` says it.
+cut_pdf = os.path.join(tmp, "cut.pdf")
+rc, _, err = run("sheet", os.path.join(ROOT, "tests", "cli", "profiles", "two-devices.yaml"),
+                 "--set", "descent[0].fill_time=0.8 s", "--set", "descent[1].deploy.after=0.9 s",
+                 "-o", cut_pdf)
+check(rc == 0, f"sheet of a drogue cut away while filling: exit {rc}: {err}")
+if rc == 0:
+    cut = " ".join(pages_text(cut_pdf))
+    check("descent[0], drogue: line stretch 0.5000 s" in cut and "drogue: opens" not in cut
+          and "cut away while still filling, at the parachute's line stretch 0.4000 s later: "
+              "50.0 % of its fill time" in cut
+          and "descent[1], parachute: opens;" in cut,
+          f"sheet: the drogue cut away part-filled, not 'opens': {cut[:4000]}")
+    os.remove(cut_pdf)
+
 os.remove(pdf)
 shutil.rmtree(tmp)
 finish()
