@@ -386,13 +386,13 @@ static double eval_at(double x, void *params)
     return c->fast ? eval_fast(c, x) : eval_slow(c, x);
 }
 
-/* Where Brent's method met a value it could not compute (brent): the
- * ends of its last bracket, w on the side that meets the limit (f(w) <=
- * 0), z on the other, and x between them, the value left out. */
+/* Where Brent's method met a value it could not compute (brent): w, the
+ * end of its last bracket on the side that meets the limit (f(w) <= 0),
+ * and x, the value left out, between w and the bracket's other end. */
 typedef struct bracket_gap {
     int hit;          /* 1: the refinement stopped at a value left out */
     double w;         /* the end that meets the limit */
-    double x;         /* the value left out, between w and z */
+    double x;         /* the value left out */
 } bracket_gap;
 
 /* Brent's method on [a, b] (f(a), f(b) of opposite signs) to rel_tol. The
