@@ -166,7 +166,7 @@ static void test_a_fall_refuses_specs_that_break_its_contract(void **state)
     s.descent[0].cd = 0.0; /* 0 < cd <= 10 */
     s.descent[0].area_m2 = 0.95;
     assert_raised(plumb_trajectory_run(traj, &s, atm, &r, &d), PLUMB_EINVAL, d);
-    assert_string_equal(d.key, "descent[0]"); /* numbered as the keys are (issue 9) */
+    assert_string_equal(d.key, "descent[0]"); /* numbered as the keys are */
 
     s.descent[0].cd = 0.78;
     s.descent[0].fill_time_s = -0.5;

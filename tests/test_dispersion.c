@@ -1023,7 +1023,7 @@ static void test_bad_uncertainty_is_refused_with_its_key_and_location(void **sta
 }
 
 /* An entry given by a --set is located in "--set", its line the number of
- * that --set (issue 9); the others in the file named, even beside it. */
+ * that --set, where it can be corrected; the others in the file named, even beside it. */
 static void test_bad_uncertainty_from_a_set_names_the_set(void **state)
 {
     (void)state;

@@ -168,7 +168,7 @@ static void canopy_spec(plumb_fall_spec *s, double m, double h)
 }
 
 /* A bad second device is named as the profile's keys count devices,
- * descent[1] (from 0, README "descent"), not "device 2" (issue 9). */
+ * descent[1] (from 0, README "descent"), not "device 2", which no key is called. */
 static void test_a_bad_second_device_is_named_descent_1(void **state)
 {
     (void)state;

@@ -401,7 +401,7 @@ static void test_an_energy_below_the_release_energy_is_impossible_and_says_so(vo
     plumb_profile_free(p);
 }
 
-/* Issue 9 (new-user review): a drift limit with no wind and no sideways
+/* A new user's review: a drift limit with no wind and no sideways
  * release velocity was "unlimited" because "it levels off as the fall
  * reaches its terminal speed". Nothing acts sideways on the body: drag
  * lies along its velocity relative to still air, vertical from rest, so
@@ -437,7 +437,7 @@ static void test_a_drift_nothing_moves_sideways_is_unlimited_and_says_why(void *
  * (m / k) ln(1 + k v0 t / m) = 213.8 m x ln(1 + 0.03415 t/s), under 5000 m
  * for any fall shorter than 4e8 s (comparison of the ODEs; closed form).
  * Unlimited, then, but not for want of a sideways push, nor because of the
- * terminal speed, which bounds a speed, not a distance (issue 9). */
+ * terminal speed, which bounds a speed, not a distance. */
 static void test_a_drift_that_moves_sideways_is_not_explained_by_terminal_speed(void **state)
 {
     (void)state;

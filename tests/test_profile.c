@@ -513,7 +513,7 @@ static const bad_case bad_cases[] = {
     {"test_negative_scatter_is_refused", GOOD "zone: {scatter: @@-2 m}\n", NULL, PLUMB_ERANGE,
      "zone.scatter", ">= 0 m"},
     /* inventory */
-    /* items are numbered from 1, as the reports number them (issue 9) */
+    /* items are numbered from 1, as the reports number them */
     {"test_bad_mass_of_the_third_item_names_items_3_mass",
      "items:\n" ITEM("a", "1.2 kg") ITEM("b", "0.7 kg") ITEM("c", "@@-1 kg") RELEASE, NULL,
      PLUMB_ERANGE, "items[3].mass", "> 0 kg"},
@@ -598,7 +598,7 @@ static const bad_case bad_cases[] = {
      "atmosphere.table@@.density=1 kg/m^3", PLUMB_EPARSE, "atmosphere.table.density",
      "give an index"},
     /* the user's own index given as a dotted part is moved into brackets
-     * (issue 9: "items.2.mass" was answered "e.g. items[1].2.mass"); the
+     * ("items.2.mass" was once answered "e.g. items[1].2.mass"); the
      * key syntax of README.md, "Profile keys": a list's index in brackets,
      * items counted from 1 */
     {"test_an_index_given_as_a_dotted_part_is_suggested_in_brackets",
@@ -615,7 +615,7 @@ static const bad_case bad_cases[] = {
     {"test_a_list_without_an_index_is_suggested_with_its_whole_key", GOOD,
      "atmosphere.table@@.density=1 kg/m^3", PLUMB_EPARSE, "atmosphere.table.density",
      "'table' is a list: give an index, e.g. atmosphere.table[0].density"},
-    /* items are numbered from 1 in --set and --vary, as in the reports (issue 9) */
+    /* items are numbered from 1 in --set and --vary, as in the reports */
     {"test_item_zero_is_refused_since_items_count_from_one",
      "items:\n" ITEM("spanner", "0.43 kg") ITEM("glove", "0.071 kg") RELEASE,
      "items[@@0].mass=0.4 kg", PLUMB_ERANGE, "items[0].mass",
@@ -847,7 +847,7 @@ static void test_a_direction_sector_may_run_through_north(void **state)
 {
     (void)state;
     /* uniform [LO, HI] with LO > HI on an angle is the sector from LO
-     * clockwise to HI (issue 4: "a direction sector wraps through north") */
+     * clockwise to HI (a direction sector may wrap through north) */
     plumb_profile *p = load_ok("payload:\n  mass: 1.373 kg\n  drag: {cd: 0.91, area: 0.0113 m^2}\n"
                                "release: {height: 17.3 m}\nwind: {speed: 4.1 m/s, from: 355 deg}\n"
                                "uncertainty:\n  wind.from: {uniform: [340 deg, 15 deg]}\n",
@@ -874,7 +874,7 @@ static void test_utf8_byte_order_mark_is_skipped(void **state)
 
 /* YAML 1.2.2 (6.1, 6.6) forbids tabs only as indentation: a tab that
  * separates a value from its comment, or lies inside the comment, or
- * between a key and its value, is white space (issue 9: "a tab inside a
+ * between a key and its value, is white space ("a tab inside a
  * trailing comment is not an indentation error"). */
 static void test_tabs_around_and_in_a_trailing_comment_are_accepted(void **state)
 {
@@ -897,7 +897,7 @@ static void test_tabs_around_and_in_a_trailing_comment_are_accepted(void **state
     plumb_profile_free(p);
 }
 
-/* Issue 9: the text report numbers an inventory's rows 1, 2, 3, so
+/* The text report numbers an inventory's rows 1, 2, 3, so
  * items[1] is the first row everywhere, and an item may be named. */
 #define KIT "items:\n" ITEM("spanner", "0.43 kg") ITEM("box of M12 bolts", "2.6 kg") \
             ITEM("glove", "0.071 kg") RELEASE
@@ -1515,7 +1515,8 @@ static void test_override_adds_an_uncertainty_entry(void **state)
     plumb_profile_free(p);
 }
 
-/* Where an entry was given, for the sampler's messages (issue 9): the file's
+/* Where an entry was given, for the sampler's messages (an error is
+ * named where it can be corrected): the file's
  * at its key; one a --set adds at its key in that --set (line = which
  * --set, column in it); one whose value a --set gives again at that value. */
 static void test_uncertainty_entries_know_where_they_were_given(void **state)

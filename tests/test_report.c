@@ -667,7 +667,7 @@ static void assert_whole_in_a_zone(const plumb_item_report *it)
  * fourth powers must stay finite), with room to spare in the slot. The Mach figure (%.2f) is given six integer digits: Mach
  * 98765 is 3.4e7 m/s, beyond the terminal speeds plumb computes. Before
  * this test a zone kept 320 bytes of each and cut the glide and downwash
- * warnings mid-word (issue 9). */
+ * warnings mid-word. */
 static void test_the_longest_warnings_of_a_fall_are_whole_in_the_fall_and_its_zone(void **state)
 {
     fixture *fx = *state;

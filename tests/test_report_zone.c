@@ -590,7 +590,7 @@ static void test_inventory_csv_gives_the_kit_clearance_and_the_item_that_sets_it
     free(si);
 }
 
-/* Issue 9: a landing circle the samples do not bound says what that
+/* A landing circle the samples do not bound says what that
  * leaves and what to do, in the words the sheet uses too: how many were
  * counted, how many it takes, the whole clearance radius kept clear, and
  * a sample count that bounds it. A 90 % circle at 95 % confidence needs
@@ -649,7 +649,7 @@ static void test_an_open_landing_circle_says_what_it_leaves_and_what_to_do(void 
 }
 
 /* A zone dropped from rest has no throw: the drag-free throw rule says so
- * plainly instead of "0 m ... (0 m/s, in its own direction)" (issue 9);
+ * plainly instead of "0 m ... (0 m/s, in its own direction)";
  * with a release velocity it gives the range and the speed. The range of
  * a drag-free throw is kinematics (v t, t the fall time). */
 static void test_a_drop_from_rest_says_there_is_no_throw(void **state)

@@ -354,7 +354,7 @@ static plumb_study *settings_study(fixture *f, const char *zone, const char *con
     return st;
 }
 
-/* Zone settings are refused where they were given (issue 9): the file's
+/* Zone settings are refused where they were given (where they can be corrected): the file's
  * line and column, the --set's, the profile alone for a default or the
  * caller's own value. Too few samples: the 99 % radius needs
  * 0.99^N <= 0.025, N >= 368 (the order-statistic bound of dispersion.h). */

@@ -20,7 +20,7 @@
  *     m dv/dt = m g - rho Cd A v^2 / 2):
  *     v(H) = v_t sqrt(1 - exp(-2 g H / v_t^2)), v_t = sqrt(2 m g / (rho Cd A)).
  * Tolerances: 1e-12 for a drag-free fall (a polynomial in time, followed
- * exactly by the 8th-order stepper; issue 8), 1e-9 for a fall in drag (the
+ * exactly by the 8th-order stepper), 1e-9 for a fall in drag (the
  * documented accuracy of a fall, README "The model"); rows against a
  * direct fall: bit for bit (sweep.h).
  */

@@ -525,7 +525,7 @@ static void suggestion_reads_as(void **state, const char *message, plumb_dim dim
     (void)parse_ok(state, text, dim);
 }
 
-/* Issue 9's cases. Unit symbols are case-sensitive: M is the prefix mega, m
+/* Cases a new user met. Unit symbols are case-sensitive: M is the prefix mega, m
  * the metre, K the kelvin, k the prefix kilo (BIPM SI Brochure, 9th ed.,
  * 2019, tables 2 and 7; seen). A suggestion is a unit of the dimension
  * wanted, so never the kelvin for a mass nor the gram for a length. */

@@ -2,7 +2,7 @@
  * test_vary.c - an input set on copies of a resolved profile (src/io/vary.c)
  * against the profile loader (plumb_profile_derive with "KEY=VALUE UNIT").
  *
- * The reference is the contract of sweep.h and of issue 8: a sweep row (and
+ * The reference is the contract of sweep.h: a sweep row (and
  * a limit's evaluation) is bit for bit what `plumb fall --set KEY=VALUE`
  * gives. So for every key the fast path takes, on profiles that exercise
  * what the loader derives from the key (cd x area and its source text, a

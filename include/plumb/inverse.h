@@ -25,6 +25,12 @@
  * top, end the scan above every value computed and the limit is met
  * throughout, the outcome is "not reached" (within the values that can be
  * computed), never "unlimited".
+ * A fall that cannot be computed (or a value the profile refuses) inside
+ * the bracket of a crossing leaves that value out as well: the refinement
+ * closes in on it from the side that meets the limit, and where it cannot
+ * get past, the answer is the last value computed that meets the limit,
+ * with explanation saying why it stops short of the crossing (found, with
+ * words); never a failed answer for a value that need not be computed.
  * Where no value in the range meets the limit the result says why
  * (unlimited, or impossible even at the edge of the range), in figures
  * and, where the figures do not say it, in words without figures: the
@@ -93,7 +99,10 @@ typedef struct plumb_limit_result {
      * unlimited drift that is 0 at every value scanned), "even at
      * (almost) zero height the limit is exceeded"
      * (impossible release height), "this item's drag does not use KEY"
-     * (not applicable). The report writers word the figures (the range
+     * (not applicable), "the limit is crossed between this value and the
+     * next value computed, ... but the values just beyond this one cannot
+     * be computed: ..." (found, short of a crossing whose bracket holds
+     * values left out). The report writers word the figures (the range
      * scanned, the crossings, the metric) in the report's units from the
      * fields of this struct. */
     char explanation[PLUMB_LIMIT_TEXT];

@@ -193,7 +193,9 @@ typedef enum plumb_device_state {
     PLUMB_DEVICE_NOT_DEPLOYED = 0, /* no line stretch before impact */
     PLUMB_DEVICE_FILLING,          /* line stretch, impact before t_ls + t_f */
     PLUMB_DEVICE_OPEN,             /* filled before impact (or no fill time) */
-    PLUMB_DEVICE_REPLACED          /* released at the line stretch of the next device */
+    PLUMB_DEVICE_REPLACED          /* released at the line stretch of the next device; with
+                                      fill_fraction < 1 it was cut away while still
+                                      filling, and the reports say so */
 } plumb_device_state;
 
 typedef struct plumb_device_at_impact {

@@ -68,7 +68,8 @@ static int run(const cli_args *a, const cli_option *o)
                                &job.rep, &diag);
     if (st != PLUMB_OK && strcmp(diag.key, o[OPT_FIND].value) == 0 &&
         (!diag.file[0] || strcmp(diag.file, "<command line>") == 0)) {
-        /* an error in the key --find gave is that option's (issue 9) */
+        /* an error in the key --find gave is that option's: the user typed it
+         * there, not in the profile */
         snprintf(diag.file, sizeof diag.file, "<command line>");
         diag.line = diag.col = 0;
         char key[sizeof diag.key];

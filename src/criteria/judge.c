@@ -12,6 +12,7 @@
 #include "plumb/judge.h"
 #include "plumb/trajectory.h"
 #include "core/internal.h"
+#include "physics/physics.h"
 
 /* Mach number above which the report warns: drag coefficients measured in
  * incompressible flow no longer hold (common practice, no source). */
@@ -203,8 +204,31 @@ static void warn_device_at_impact(plumb_item_report *item, size_t i)
                            : "");
         break;
     }
+    case PLUMB_DEVICE_REPLACED: {
+        /* a device that filled before the next one replaced it did its
+         * work, and the next device's state says what held at impact; one
+         * cut away while still filling never reached its full drag area,
+         * so its figures (Pflanz's force, a full fill's) were never felt */
+        if (!(at.fill_fraction < 1.0) || i + 1 >= s->n_descent)
+            break;
+        double cds = plumbp_device_cds_at(&s->descent[i], at.fill_fraction);
+        double pct_area = at.cds_full_m2 > 0.0 ? 100.0 * cds / at.cds_full_m2 : 0.0;
+        int pflanz = s->descent[i].opening_factor > 0.0 && r->pflanz_force_n[i] > 0.0;
+        add_warning(item,
+                    "The %s (descent[%zu]) was cut away while still filling: the %s "
+                    "(descent[%zu]) reached line stretch at %.4f s, %.4f s into the %s's "
+                    "%.4f s fill time (%.1f %%), when the %s's drag area was " PLUMBP_Q_AREA " of "
+                    "the full " PLUMBP_Q_AREA " (%.2g %%). It never filled%s.",
+                    kind, i, plumb_descent_kind_name(s->descent[i + 1].kind), i + 1,
+                    r->deploy_time_s[i + 1], r->deploy_time_s[i + 1] - r->deploy_time_s[i],
+                    kind, r->fill_time_s[i], 100.0 * at.fill_fraction, kind, cds, at.cds_full_m2,
+                    pct_area,
+                    pflanz ? ": Pflanz's opening force for it is that of a full fill, which "
+                             "this fall did not make"
+                           : "");
+        break;
+    }
     case PLUMB_DEVICE_OPEN:
-    case PLUMB_DEVICE_REPLACED: /* the next device's state says what held at impact */
         break;
     }
 }

@@ -27,6 +27,15 @@ int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmos
 plumb_status plumbp_atmosphere_at_pow(const plumb_atmosphere *atm, double alt_m, double x,
                                       double e, plumb_air *out, double *x_pow_e);
 
+/* The drag area CdS of descent device d at fill_fraction of its fill
+ * time, m^2: the full cd x area times plumb_inflation_fraction(fraction,
+ * j), j its inflation exponent (1, a linear fill, when none is given).
+ * The one place of the formula, for the area of a canopy still filling at
+ * impact (plumb_fall_device_at_impact) and of one cut away while still
+ * filling (the warning and the text that say so). Can't fail. */
+struct plumb_descent_spec;
+double plumbp_device_cds_at(const struct plumb_descent_spec *d, double fill_fraction);
+
 /* 1 when the wind is calm at every height: a speed of 0, or a table of
  * calm rows (wind.c). Can't fail. */
 int plumbp_wind_calm(const plumb_wind_spec *w);

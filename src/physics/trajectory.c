@@ -750,6 +750,12 @@ static plumb_status run_with(plumb_trajectory *w, const plumb_fall_spec *spec,
     }
 }
 
+double plumbp_device_cds_at(const plumb_descent_spec *d, double fill_fraction)
+{
+    double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
+    return d->cd * d->area_m2 * plumb_inflation_fraction(fill_fraction, j);
+}
+
 plumb_device_state plumb_fall_device_at_impact(const plumb_fall_spec *spec,
                                                const plumb_fall_result *res, size_t i,
                                                plumb_device_at_impact *out)
@@ -774,8 +780,7 @@ plumb_device_state plumb_fall_device_at_impact(const plumb_fall_spec *spec,
             if (tf > 0.0 && since < tf) {
                 c.state = PLUMB_DEVICE_FILLING;
                 c.fill_fraction = since > 0.0 ? since / tf : 0.0;
-                double j = d->inflation_exponent > 0.0 ? d->inflation_exponent : 1.0;
-                c.cds_m2 = c.cds_full_m2 * plumb_inflation_fraction(c.fill_fraction, j);
+                c.cds_m2 = plumbp_device_cds_at(d, c.fill_fraction);
             } else {
                 c.state = PLUMB_DEVICE_OPEN;
                 c.fill_fraction = 1.0;

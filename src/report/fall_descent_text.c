@@ -14,6 +14,7 @@
 #include <string.h>
 
 #include "report/common.h"
+#include "physics/physics.h"
 
 /* common.h: the sheet's "6.550 m/s (21.49 ft/s)", the text's "6.550 m/s". */
 const char *plumbp_t_beside(writer *w, writer *o, const char *(*t)(writer *, double), double x)
@@ -112,9 +113,15 @@ void plumbp_descent_pflanz(writer *w, writer *o, const plumb_fall_spec *s,
                            size_t size)
 {
     const plumb_descent_spec *d = &s->descent[i];
-    /* a canopy still filling at impact never felt the full opening */
-    const char *unfilled = plumb_fall_device_at_impact(s, r, i, NULL) == PLUMB_DEVICE_FILLING
+    /* a canopy still filling at impact, or cut away while still filling,
+     * never felt the full opening */
+    plumb_device_at_impact at;
+    plumb_device_state st = plumb_fall_device_at_impact(s, r, i, &at);
+    const char *unfilled = st == PLUMB_DEVICE_FILLING
                                ? ", for a full fill, which this fall did not reach"
+                           : st == PLUMB_DEVICE_REPLACED && at.fill_fraction < 1.0
+                               ? ", for a full fill, which it did not reach before it was cut "
+                                 "away"
                                : "";
     if (!(r->fill_time_s[i] > 0.0))
         snprintf(buf, size, "opens at once: no fill, so no Pflanz estimate");
@@ -158,6 +165,19 @@ void plumbp_descent_opening(writer *w, writer *o, const plumb_fall_spec *s,
                  num(w, r->time_s - r->deploy_time_s[i], TEXT_SIG),
                  num(w, 100.0 * at.fill_fraction, 3),
                  plumbp_t_beside(w, o, plumbp_t_area, at.cds_m2),
+                 plumbp_t_beside(w, o, plumbp_t_area, at.cds_full_m2));
+    /* replaced before the end of its fill: cut away part-filled, worded as
+     * the filling canopy above, at the next device's line stretch */
+    if (st == PLUMB_DEVICE_REPLACED && at.fill_fraction < 1.0 && i + 1 < s->n_descent &&
+        len >= 0 && (size_t)len < size)
+        snprintf(buf + len, size - (size_t)len,
+                 "; cut away while still filling, at the %s's line stretch %s" NBSP "s later: "
+                 "%s" NBSP "%% of its fill time, drag area %s of the full %s",
+                 plumb_descent_kind_name(s->descent[i + 1].kind),
+                 num(w, r->deploy_time_s[i + 1] - r->deploy_time_s[i], TEXT_SIG),
+                 num(w, 100.0 * at.fill_fraction, 3),
+                 plumbp_t_beside(w, o, plumbp_t_area, plumbp_device_cds_at(&s->descent[i],
+                                                                          at.fill_fraction)),
                  plumbp_t_beside(w, o, plumbp_t_area, at.cds_full_m2));
 }
 

@@ -111,12 +111,15 @@ static json_t *j_descent(jctx *j, const plumb_item_report *it)
                                                       : "linear fill: no canopy type or exponent given"));
         jset(j, dv, "inflation", inf);
         jset(j, dv, "deployed", json_boolean(r->deployed[i]));
-        /* its state at impact: a canopy still filling is not open */
+        /* its state at impact: a canopy still filling is not open; one
+         * replaced before the end of its fill was cut away part-filled */
         plumb_device_at_impact at;
         plumb_device_state st = plumb_fall_device_at_impact(s, r, i, &at);
         json_t *ai = jobj(j);
         jset(j, ai, "state", jstr(j, st == PLUMB_DEVICE_OPEN       ? "open"
                                      : st == PLUMB_DEVICE_FILLING  ? "filling"
+                                     : st == PLUMB_DEVICE_REPLACED && at.fill_fraction < 1.0
+                                         ? "cut_away_filling"
                                      : st == PLUMB_DEVICE_REPLACED ? "replaced"
                                                                    : "not_deployed"));
         jset(j, ai, "fill_fraction", jreal(j, at.fill_fraction));

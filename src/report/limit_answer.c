@@ -139,6 +139,39 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
     char scanned[NUMBUF * 3];
     snprintf(scanned, sizeof scanned, "from %s to %s", t_value(w, key, r->dim, r->scan_lo_si),
              t_value(w, key, r->dim, r->scan_hi_si));
+    /* a scan left with one value computed (the profile's own, every other
+     * refused or not computable) is no range: "from 30 m to 30 m" would
+     * read as one; it is worded as the single value it is */
+    int single = r->n_scanned == 1 && r->outcome != PLUMB_LIMIT_FOUND;
+    const char *only = t_value(w, key, r->dim, r->scan_hi_si);
+    if (single) {
+        switch (r->outcome) {
+        case PLUMB_LIMIT_UNLIMITED:
+            snprintf(buf, size,
+                     "the %s stays below the limit of %s at the only value of %s that could be "
+                     "computed, %s, where it is %s%s%s",
+                     metric_word(rep->metric), t_the_limit(w, rep), label, only,
+                     t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+            return;
+        case PLUMB_LIMIT_NOT_REACHED:
+            snprintf(buf, size,
+                     "not reached within the values of %s that can be computed: the %s stays "
+                     "below the limit of %s at the only value that could be computed, %s, "
+                     "where it is %s%s%s",
+                     label, metric_word(rep->metric), t_the_limit(w, rep), only,
+                     t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+            return;
+        case PLUMB_LIMIT_IMPOSSIBLE:
+            snprintf(buf, size,
+                     "the %s exceeds the limit of %s at the only value of %s that could be "
+                     "computed, %s, where it is %s%s%s",
+                     metric_word(rep->metric), t_the_limit(w, rep), label, only,
+                     t_metric(w, rep->metric, r->metric_at_scan_hi), sep, note);
+            return;
+        default:
+            break;
+        }
+    }
     switch (r->outcome) {
     case PLUMB_LIMIT_UNLIMITED:
         snprintf(buf, size,
@@ -166,11 +199,11 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
         if (r->n_crossings < 2) {
             snprintf(buf, size,
                      "%s = %s gives the limit, %s %s; %s values stay within it (scanned %s, %zu "
-                     "value%s)",
+                     "value%s)%s%s",
                      label, t_limit_value(w, key, r->dim, r->value_si, r->limit_is_upper_bound),
                      metric_word(rep->metric), t_metric_met(w, rep->metric, r->metric_at_value),
                      r->limit_is_upper_bound ? "lower" : "higher", scanned, r->n_scanned,
-                     plumbp_s(r->n_scanned));
+                     plumbp_s(r->n_scanned), sep, note);
         } else {
             char list[PLUMB_LIMIT_TEXT];
             size_t len = 0;
@@ -180,10 +213,10 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
                                         t_value(w, key, r->dim, r->crossings_si[k]));
             snprintf(buf, size,
                      "the %s is not monotonic in %s: it crosses the limit at %s (scanned %s, %zu "
-                     "value%s); %s below the first crossing, and alternately beyond",
+                     "value%s); %s below the first crossing, and alternately beyond%s%s",
                      metric_word(rep->metric), label, list, scanned, r->n_scanned,
                      plumbp_s(r->n_scanned),
-                     r->within_at_low_end ? "within" : "exceeded");
+                     r->within_at_low_end ? "within" : "exceeded", sep, note);
         }
         break;
     default: /* not applicable: no figures */
@@ -276,6 +309,11 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                      : r->limit_is_upper_bound ? ", down to the next crossing."
                                                : ", up to the next crossing.");
             wrapped(w, "  ", text);
+            if (r->explanation[0]) {
+                /* the answer stops short of the crossing: why (inverse.h) */
+                snprintf(text, sizeof text, "%s.", r->explanation);
+                wrapped(w, "  ", text);
+            }
             if (r->n_crossings > 1) {
                 char list[PLUMB_LIMIT_TEXT];
                 size_t len = 0;

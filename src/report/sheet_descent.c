@@ -83,9 +83,12 @@ static void item_figures(sheet_doc *d, const plumb_brief *b, size_t k, const cha
             plumbp_descent_pflanz(P, S, s, r, i, s->mass_kg * PLUMB_G0_M_S2, pflanz,
                                   sizeof pflanz);
         /* a device not open at impact says so in bold: the fall above is
-         * without it, or with its canopy part-filled */
-        plumb_device_state st = plumb_fall_device_at_impact(s, r, i, NULL);
-        int is_open = st == PLUMB_DEVICE_OPEN || st == PLUMB_DEVICE_REPLACED;
+         * without it, or with its canopy part-filled; so does one cut away
+         * while still filling, which never opened fully */
+        plumb_device_at_impact at;
+        plumb_device_state st = plumb_fall_device_at_impact(s, r, i, &at);
+        int is_open = st == PLUMB_DEVICE_OPEN ||
+                      (st == PLUMB_DEVICE_REPLACED && !(at.fill_fraction < 1.0));
         para_in(d, indent, font,
                 sheet_fmt(d, "\x02<b>%s</b>, %s: %s%s%s%s%s.", sheet_esc(d, key),
                           plumb_descent_kind_name(s->descent[i].kind),

@@ -44,7 +44,10 @@ const char *plumbp_sweep_num(writer *w, const plumb_sweep *sw, size_t a, double 
 
 /* sweep_warnings.c: the warnings of every row and item (said_warning,
  * in row order), each sentence numbered from 1 in order of first
- * appearance. */
+ * appearance. Sentences that differ only in their figures (a canopy still
+ * filling at impact, so far along its fill time in each row) are one
+ * warning, numbered once: said with each figure that differs as its
+ * least and greatest over the rows ("46.3 to 70.1 %"). */
 typedef struct sweep_marks {
     const plumb_sweep *sw;
     said_warning *s;       /* every warning of every row and item, n of them */
@@ -52,6 +55,7 @@ typedef struct sweep_marks {
     size_t *num;           /* s[e]'s number, 1 .. n_distinct */
     size_t n_distinct;
     size_t *row_start;     /* row r's are s[row_start[r] .. row_start[r + 1]) */
+    char **said;           /* warning d's sentence over its rows, said[d - 1] */
 } sweep_marks;
 
 /* Makes m for sw; 0 when out of memory (w->nomem set, m empty). Close

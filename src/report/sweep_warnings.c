@@ -7,6 +7,7 @@
  * the rows it is in) and the CSV (sweep_data.c: a `warnings` column of
  * numbers, "# warning N: ..." above the header).
  */
+#include <ctype.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -14,6 +15,123 @@
 
 #include "report/common.h"
 #include "report/sweep_int.h"
+
+/* ---- one warning over the rows: the same sentence, other figures -------- */
+
+/* 1 when a figure (a number a row can change) starts at t + i, its end at
+ * *end: digits, a decimal part and an exponent, after the start, a space,
+ * a no-break space or "(", and not followed by a letter; so "descent[0]",
+ * "eu-c1-80j" and "MIL-F-8785C" are words of the sentence, not figures. */
+static int figure_at(const char *t, size_t i, size_t *end)
+{
+    size_t k = i;
+    if (i > 0 && t[i - 1] != ' ' && t[i - 1] != '(' && t[i - 1] != NBSP_CHAR)
+        return 0;
+    if (t[k] == '-')
+        k++;
+    if (!isdigit((unsigned char)t[k]))
+        return 0;
+    while (isdigit((unsigned char)t[k]))
+        k++;
+    if (t[k] == '.' && isdigit((unsigned char)t[k + 1]))
+        for (k++; isdigit((unsigned char)t[k]);)
+            k++;
+    if ((t[k] == 'e' || t[k] == 'E') &&
+        (isdigit((unsigned char)t[k + 1]) ||
+         ((t[k + 1] == '-' || t[k + 1] == '+') && isdigit((unsigned char)t[k + 2]))))
+        for (k += 2; isdigit((unsigned char)t[k]);)
+            k++;
+    if (isalpha((unsigned char)t[k]) || t[k] == '_' || t[k] == '[')
+        return 0;
+    *end = k;
+    return 1;
+}
+
+/* 1 when a and b are the same sentence but for their figures. */
+static int same_but_figures(const char *a, const char *b)
+{
+    size_t i = 0, j = 0, ea, eb;
+    for (;;) {
+        int fa = figure_at(a, i, &ea), fb = figure_at(b, j, &eb);
+        if (fa != fb)
+            return 0;
+        if (fa) {
+            i = ea;
+            j = eb;
+            continue;
+        }
+        if (a[i] != b[j])
+            return 0;
+        if (!a[i])
+            return 1;
+        i++;
+        j++;
+    }
+}
+
+/* The k-th figure of t (from 0): its start in *at, its length returned
+ * (0 when there is none). */
+static size_t figure_k(const char *t, size_t k, const char **at)
+{
+    size_t end;
+    for (size_t i = 0; t[i];) {
+        if (figure_at(t, i, &end)) {
+            if (k-- == 0) {
+                *at = t + i;
+                return end - i;
+            }
+            i = end;
+        } else {
+            i++;
+        }
+    }
+    return 0;
+}
+
+/* Warning d's sentence over its rows into out: that of its first row,
+ * each figure that differs between the rows said as its least and
+ * greatest, "46.3 to 70.1" (each as a row printed it). */
+static void said_over_rows(const sweep_marks *m, size_t d, char *out, size_t size)
+{
+    size_t first = 0;
+    while (first < m->n && m->num[first] != d)
+        first++;
+    const char *t = m->s[first].text;
+    size_t len = 0, i = 0, k = 0, end;
+    out[0] = '\0';
+    while (t[i] && len + 1 < size) {
+        if (!figure_at(t, i, &end)) {
+            out[len++] = t[i++];
+            out[len] = '\0';
+            continue;
+        }
+        const char *lo = t + i, *hi = t + i;
+        size_t lo_n = end - i, hi_n = end - i;
+        double lo_x = strtod(lo, NULL), hi_x = lo_x;
+        for (size_t e = first + 1; e < m->n; e++) {
+            const char *at;
+            size_t n;
+            if (m->num[e] != d || !(n = figure_k(m->s[e].text, k, &at)))
+                continue;
+            double x = strtod(at, NULL);
+            if (x < lo_x) {
+                lo = at, lo_n = n, lo_x = x;
+            } else if (x > hi_x) {
+                hi = at, hi_n = n, hi_x = x;
+            }
+        }
+        int w;
+        if (lo == hi || (lo_n == hi_n && memcmp(lo, hi, lo_n) == 0))
+            w = snprintf(out + len, size - len, "%.*s", (int)lo_n, lo);
+        else
+            w = snprintf(out + len, size - len, "%.*s to %.*s", (int)lo_n, lo, (int)hi_n, hi);
+        if (w < 0 || (size_t)w >= size - len)
+            break; /* never cut inside a figure: the sentence ends before it */
+        len += (size_t)w;
+        i = end;
+        k++;
+    }
+}
 
 int plumbp_sweep_marks_open(writer *w, const plumb_sweep *sw, sweep_marks *m)
 {
@@ -38,11 +156,28 @@ int plumbp_sweep_marks_open(writer *w, const plumb_sweep *sw, sweep_marks *m)
         plumbp_sweep_marks_close(m);
         return 0;
     }
-    /* a sentence's number is that of its first appearance; s is in row
-     * order, so row r's warnings are s[row_start[r] .. row_start[r + 1]) */
+    /* a sentence's number is that of its first appearance, figures
+     * aside; s is in row order, so row r's warnings are
+     * s[row_start[r] .. row_start[r + 1]) */
     for (size_t e = 0; e < m->n; e++) {
-        size_t b = plumbp_said_before(m->s, e);
+        size_t b = 0;
+        while (b < e && !same_but_figures(m->s[b].text, m->s[e].text))
+            b++;
         m->num[e] = b < e ? m->num[b] : ++m->n_distinct;
+    }
+    if (!(m->said = calloc(m->n_distinct ? m->n_distinct : 1, sizeof *m->said))) {
+        w->nomem = 1;
+        plumbp_sweep_marks_close(m);
+        return 0;
+    }
+    for (size_t d = 1; d <= m->n_distinct; d++) {
+        size_t size = PLUMB_WARNING * 4;
+        if (!(m->said[d - 1] = malloc(size))) {
+            w->nomem = 1;
+            plumbp_sweep_marks_close(m);
+            return 0;
+        }
+        said_over_rows(m, d, m->said[d - 1], size);
     }
     for (size_t r = 0, e = 0; r <= nr; r++) {
         while (e < m->n && m->s[e].report < r)
@@ -54,6 +189,9 @@ int plumbp_sweep_marks_open(writer *w, const plumb_sweep *sw, sweep_marks *m)
 
 void plumbp_sweep_marks_close(sweep_marks *m)
 {
+    for (size_t d = 0; m->said && d < m->n_distinct; d++)
+        free(m->said[d]);
+    free(m->said);
     plumbp_said_free(m->s, m->n);
     free(m->num);
     free(m->row_start);
@@ -95,14 +233,23 @@ static int row_has(const sweep_marks *m, size_t r, size_t d)
     return 0;
 }
 
-/* The first sentence numbered d. */
+/* Warning d's sentence over its rows. */
 static const char *sentence(const sweep_marks *m, size_t d)
+{
+    return m->said && d >= 1 && d <= m->n_distinct && m->said[d - 1] ? m->said[d - 1] : "";
+}
+
+/* 1 when warning d's sentence gives figures as ranges over its rows. */
+static int ranged(const sweep_marks *m, size_t d)
 {
     for (size_t e = 0; e < m->n; e++)
         if (m->num[e] == d)
-            return m->s[e].text;
-    return "";
+            return strcmp(m->s[e].text, sentence(m, d)) != 0;
+    return 0;
 }
+
+/* The words after the rows of a warning whose figures are ranges. */
+#define RANGED_NOTE "; a figure that differs between them given as its least to its greatest"
 
 /* The number of rows with warning d. */
 static size_t rows_with(const sweep_marks *m, size_t d)
@@ -117,9 +264,9 @@ void plumbp_sweep_csv_warnings(writer *w, const sweep_marks *m)
 {
     size_t nr = plumb_sweep_row_count(m->sw);
     for (size_t d = 1; d <= m->n_distinct; d++) {
-        char line[PLUMB_WARNING * 2 + 96];
-        snprintf(line, sizeof line, "warning %zu: %s (%zu of %zu row%s)", d, sentence(m, d),
-                 rows_with(m, d), nr, plumbp_s(nr));
+        char line[PLUMB_WARNING * 4 + 160];
+        snprintf(line, sizeof line, "warning %zu: %s (%zu of %zu row%s%s)", d, sentence(m, d),
+                 rows_with(m, d), nr, plumbp_s(nr), ranged(m, d) ? RANGED_NOTE : "");
         csv_comment(w, line);
     }
 }
@@ -192,7 +339,7 @@ void plumbp_sweep_text_warnings(writer *w, const sweep_marks *m, int marked)
     int one_way = plumb_sweep_axis_count(sw) == 1;
     for (size_t d = 1; d <= m->n_distinct; d++) {
         char rows[LISTED_ROWS * 2 * (NUMBUF + PLUMB_UNIT_TEXT + 8) + 96], lead[72];
-        char line[PLUMB_WARNING * 2 + sizeof rows + 16];
+        char line[PLUMB_WARNING * 4 + sizeof rows + 16];
         size_t n = rows_with(m, d), len = 0, listed = 0, in_list = 0;
         if (n == nr) {
             /* "all 4 rows", "the one row" */
@@ -241,6 +388,10 @@ void plumbp_sweep_text_warnings(writer *w, const sweep_marks *m, int marked)
         snprintf(widest, sizeof widest, "W%zu", m->n_distinct);
         snprintf(lead, sizeof lead, "  %-*s  ", (int)strlen(widest), label);
         item_list(m, d, rows, sizeof rows);
+        if (ranged(m, d)) {
+            size_t at = strlen(rows);
+            append(rows, sizeof rows, &at, RANGED_NOTE);
+        }
         snprintf(line, sizeof line, "%s (%s)", sentence(m, d), rows);
         wrapped(w, lead, line);
     }

@@ -65,6 +65,7 @@ typedef struct solver_ctx {
     plumb_status left_out; /* why the last x was left out: an input error (refused), or
                               the fall's PLUMB_EOUTSIDE, EBUDGET, ENOLAND, ENUMERIC */
     char refused_key[PLUMB_DIAG_KEY]; /* the key whose check refused it ("" if none named) */
+    double last_x;             /* the value of the last evaluation */
     /* the fast path: the key set on copies of a template's resolved specs
      * (io/vary.h); the template is the first profile the loader derives
      * with the key set, or a profile built in code */
@@ -376,6 +377,7 @@ static double eval_at(double x, void *params)
 {
     solver_ctx *c = params;
     c->out_of_range = 0;
+    c->last_x = x;
     if (c->evals >= c->max_evals) {
         c->fail = PLUMB_RAISE_KEY(c->diag, PLUMB_ENUMERIC, c->set_key,
                                   "no answer within %zu falls", c->max_evals);
@@ -384,20 +386,48 @@ static double eval_at(double x, void *params)
     return c->fast ? eval_fast(c, x) : eval_slow(c, x);
 }
 
+/* Where Brent's method met a value it could not compute (brent): w, the
+ * end of its last bracket on the side that meets the limit (f(w) <= 0),
+ * and x, the value left out, between w and the bracket's other end. */
+typedef struct bracket_gap {
+    int hit;          /* 1: the refinement stopped at a value left out */
+    double w;         /* the end that meets the limit */
+    double x;         /* the value left out */
+} bracket_gap;
+
 /* Brent's method on [a, b] (f(a), f(b) of opposite signs) to rel_tol. The
  * answer is the end of the final bracket on the side that meets the limit
- * (f <= 0), so the value reported is never one that breaks it. */
+ * (f <= 0), so the value reported is never one that breaks it. A value in
+ * the bracket whose fall is left out (eval_done: it cannot be computed, or
+ * the profile refuses it) has no sign to refine by: the search stops
+ * there with gap->hit set, the last bracket and that value in *gap, and
+ * *root the bracket's end that meets the limit. */
 static plumb_status brent(solver_ctx *c, double a, double fa, double b, double fb, double rel_tol,
-                          double *root)
+                          double *root, bracket_gap *gap)
 {
     gsl_function F = {eval_at, c};
     gsl_root_fsolver *s = gsl_root_fsolver_alloc(gsl_root_fsolver_brent);
     if (!s)
         return PLUMB_RAISE(c->diag, PLUMB_ENOMEM, "out of memory");
     double lo = a < b ? a : b, hi = a < b ? b : a;
+    double f_lo = a < b ? fa : fb;
+    gap->hit = 0;
     int rc = gsl_root_fsolver_set(s, &F, lo, hi);
     for (int it = 0; rc == GSL_SUCCESS && it < MAX_ITER; it++) {
+        /* the bracket before this step: a step whose fall is left out
+         * returns GSL_EBADFUNC and leaves the bracket as it was */
+        double x_lo = gsl_root_fsolver_x_lower(s), x_hi = gsl_root_fsolver_x_upper(s);
         rc = gsl_root_fsolver_iterate(s);
+        if (rc == GSL_EBADFUNC && c->fail == PLUMB_OK && c->out_of_range) {
+            /* the left-out value is the one evaluated last, inside the bracket */
+            double x = c->last_x;
+            gap->hit = 1;
+            gap->w = f_lo <= 0.0 ? x_lo : x_hi;
+            gap->x = x > x_lo && x < x_hi ? x : 0.5 * (x_lo + x_hi);
+            *root = gap->w;
+            gsl_root_fsolver_free(s);
+            return PLUMB_OK;
+        }
         if (rc != GSL_SUCCESS)
             break;
         rc = gsl_root_test_interval(gsl_root_fsolver_x_lower(s), gsl_root_fsolver_x_upper(s), 0.0,
@@ -407,7 +437,6 @@ static plumb_status brent(solver_ctx *c, double a, double fa, double b, double f
         if (rc == GSL_CONTINUE)
             rc = GSL_SUCCESS;
     }
-    double f_lo = a < b ? fa : fb;
     *root = f_lo <= 0.0 ? gsl_root_fsolver_x_lower(s) : gsl_root_fsolver_x_upper(s);
     gsl_root_fsolver_free(s);
     if (c->fail != PLUMB_OK)
@@ -416,6 +445,73 @@ static plumb_status brent(solver_ctx *c, double a, double fa, double b, double f
         return PLUMB_RAISE_KEY(c->diag, PLUMB_ENUMERIC, c->set_key, "root finder failed: %s",
                                gsl_strerror(rc));
     return PLUMB_OK;
+}
+
+/* Why a crossing was refined no further (refine), for its words. */
+typedef struct gap_why {
+    int unrefined;                /* 1: the answer stops short of the crossing */
+    plumb_status left_out;        /* why the values beyond it were left out */
+    char refused_key[PLUMB_DIAG_KEY]; /* the key whose check refused them, or "" */
+} gap_why;
+
+/* Halvings at most while closing in on values left out inside a bracket:
+ * 2^-60 of the bracket is below a double's resolution of its ends. */
+#define MAX_GAP_HALVINGS 60
+
+/* The crossing in [a, b] (f(a), f(b) of opposite signs), by Brent's method
+ * (brent). Where a value inside has a fall that is left out, there is no
+ * sign to go by: the search closes in on it by halving from the side that
+ * meets the limit, as long as the values there can be computed, and goes
+ * back to Brent's method in any smaller bracket it finds. When it cannot
+ * get past the values left out, *root is the last value computed that
+ * meets the limit and why->unrefined says why the answer stops there:
+ * every value reported meets the limit, as brent's answers do. */
+static plumb_status refine(solver_ctx *c, double a, double fa, double b, double fb, double rel_tol,
+                           double *root, gap_why *why)
+{
+    memset(why, 0, sizeof *why);
+    for (;;) {
+        bracket_gap gap = {0, 0.0, 0.0};
+        plumb_status st = brent(c, a, fa, b, fb, rel_tol, root, &gap);
+        if (st != PLUMB_OK || !gap.hit)
+            return st;
+        /* the first value left out names the reason */
+        if (!why->unrefined) {
+            why->unrefined = 1;
+            why->left_out = c->left_out;
+            plumbp_strlcpy(why->refused_key, c->refused_key, sizeof why->refused_key);
+        }
+        double w = gap.w, x = gap.x;
+        int again = 0;
+        for (int k = 0; k < MAX_GAP_HALVINGS &&
+                        fabs(x - w) > rel_tol * fmax(fabs(w), fabs(x)); k++) {
+            double m = 0.5 * (w + x);
+            double fm = eval_at(m, c);
+            if (c->fail != PLUMB_OK)
+                return c->fail;
+            if (isnan(fm)) {
+                x = m; /* left out too: the gap begins nearer */
+            } else if (fm <= 0.0) {
+                w = m; /* still within: the answer moves up to it */
+            } else {
+                /* beyond the limit, and computed: the crossing is in
+                 * [w, m], which Brent's method refines again */
+                a = w;
+                fa = eval_at(w, c);
+                if (c->fail != PLUMB_OK)
+                    return c->fail;
+                b = m;
+                fb = fm;
+                again = !isnan(fa);
+                break;
+            }
+        }
+        if (!again) {
+            *root = w;
+            return PLUMB_OK;
+        }
+        why->unrefined = 0; /* past the gap: refined after all */
+    }
 }
 
 /* The scan's i-th value of n over [lo, hi]: geometric for a positive
@@ -656,6 +752,54 @@ static void not_reached_why(const char *key, plumb_status top_out, const char *t
     }
 }
 
+/* Why the answer stops short of the crossing (refine), in words without
+ * figures, into res->explanation: the values beyond it, toward those
+ * that break the limit, were left out, and why. */
+static void gap_words(const char *key, const gap_why *g, plumb_limit_result *res)
+{
+    const char *what = strcmp(key, "release.height") == 0 ? "heights" : "values";
+    char why[PLUMB_DIAG_KEY + 64];
+    switch (g->left_out) {
+    case PLUMB_EOUTSIDE:
+        snprintf(why, sizeof why, "their falls leave the air model's range");
+        break;
+    case PLUMB_EBUDGET:
+        snprintf(why, sizeof why, "their falls run past the fall's step or time budget");
+        break;
+    case PLUMB_ENOLAND:
+        snprintf(why, sizeof why, "from them the object never reaches the strike level");
+        break;
+    case PLUMB_ENUMERIC:
+        snprintf(why, sizeof why, "their falls could not be computed (the integration failed "
+                                  "on both methods)");
+        break;
+    default:
+        if (g->refused_key[0] && strcmp(g->refused_key, key) != 0)
+            snprintf(why, sizeof why, "they are refused by the profile's check of %s",
+                     g->refused_key);
+        else
+            snprintf(why, sizeof why, "they are refused by the profile");
+        break;
+    }
+    snprintf(res->explanation, sizeof res->explanation,
+             "the limit is crossed between this value and the next %s computed, which "
+             "exceeds it, but the %s just beyond this one cannot be computed: %s; so the answer "
+             "stops at the last value computed that meets the limit",
+             strcmp(key, "release.height") == 0 ? "height" : "value", what, why);
+}
+
+/* Why the scan starts where it does when lower values were refused, in
+ * words without figures: low_key is the key whose check refused them (""
+ * if none named). */
+static void low_refused_why(const char *key, const char *low_key, char *e, size_t size)
+{
+    if (low_key[0] && strcmp(low_key, key) != 0)
+        snprintf(e, size, "lower values are refused by the profile's check of %s, so the "
+                          "scan starts there", low_key);
+    else
+        snprintf(e, size, "lower values are refused by the profile, so the scan starts there");
+}
+
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
 static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
@@ -732,11 +876,13 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
         fs[n++] = f0;
     }
     double x_lo = xs[0], x_hi = xs[n - 1];
+    gap_why gaps[PLUMB_LIMIT_MAX_CROSSINGS];
     for (size_t i = 1; i < n && res->n_crossings < PLUMB_LIMIT_MAX_CROSSINGS; i++) {
         if ((fs[i - 1] > 0.0) == (fs[i] > 0.0))
             continue;
         double root = NAN;
-        st = brent(c, xs[i - 1], fs[i - 1], xs[i], fs[i], opt->rel_tol, &root);
+        st = refine(c, xs[i - 1], fs[i - 1], xs[i], fs[i], opt->rel_tol, &root,
+                    &gaps[res->n_crossings]);
         if (st != PLUMB_OK)
             return st;
         res->crossings_si[res->n_crossings++] = root;
@@ -755,21 +901,22 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
             res->outcome = PLUMB_LIMIT_NOT_REACHED;
             not_reached_why(key, top_out, top_key, res);
             size_t len = strlen(res->explanation);
-            if (metric != PLUMB_METRIC_DRIFT && strcmp(key, "release.height") == 0)
+            if (n == 1 && low_refused) {
+                /* one value computed: nothing is seen to level off, and the
+                 * scan ends below it as well as above */
+                snprintf(res->explanation + len, sizeof res->explanation - len, "; ");
+                len = strlen(res->explanation);
+                low_refused_why(key, low_key, res->explanation + len,
+                                sizeof res->explanation - len);
+            } else if (n > 1 && metric != PLUMB_METRIC_DRIFT &&
+                       strcmp(key, "release.height") == 0)
                 snprintf(res->explanation + len, sizeof res->explanation - len,
                          "; below that it levels off as the fall reaches its terminal speed");
             return PLUMB_OK;
         }
         /* the figures (range scanned, the metric at its top) say the rest */
-        if (low_refused && res->outcome == PLUMB_LIMIT_IMPOSSIBLE) {
-            if (low_key[0] && strcmp(low_key, key) != 0)
-                snprintf(res->explanation, sizeof res->explanation,
-                         "lower values are refused by the profile's check of %s, so the "
-                         "scan starts there", low_key);
-            else
-                plumbp_strlcpy(res->explanation,
-                               "lower values are refused by the profile, so the scan starts "
-                               "there", sizeof res->explanation);
+        if (low_refused && (res->outcome == PLUMB_LIMIT_IMPOSSIBLE || n == 1)) {
+            low_refused_why(key, low_key, res->explanation, sizeof res->explanation);
         } else if (metric == PLUMB_METRIC_DRIFT && res->outcome == PLUMB_LIMIT_UNLIMITED) {
             drift_unlimited_why(plumb_profile_item(profile, c->item), key, fs, n, limit, res);
         } else if (strcmp(key, "release.height") == 0) {
@@ -796,6 +943,12 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
     res->evaluations = c->evals;
     if (c->fail != PLUMB_OK)
         return c->fail;
+    if (isnan(froot)) /* computed before, so not expected: never a figure of NaN */
+        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
+                               "the fall at the answer, computed before, could not be computed "
+                               "again");
+    if (gaps[best].unrefined)
+        gap_words(key, &gaps[best], res);
     res->outcome = PLUMB_LIMIT_FOUND;
     res->value_si = root;
     res->metric_at_value = froot + limit;

@@ -100,7 +100,7 @@ for f in tests/bad/*.yaml; do
 done
 [ "$n_bad" -ge 30 ] && pass=$((pass + 1)) || bad "tests/bad holds $n_bad profiles, expected at least 30"
 
-# ---- tabs that are white space, not indentation (issue 9) --------------------
+# ---- tabs that are white space, not indentation -----------------------------
 printf 'payload:\n  mass: 2.385 kg\t# scale reading\n  drag: {cd_area: 0.0113 m^2}  # a\tcomment\nrelease:\n  height: 27.4 m\n' >"$tmp/tab-comment.yaml"
 if "$bin" lint "$tmp/tab-comment.yaml" >"$tmp/stdout" 2>"$tmp/stderr"; then
   pass=$((pass + 1))
@@ -108,7 +108,7 @@ else
   bad "a tab before and inside a trailing comment: $(cat "$tmp/stderr")"
 fi
 
-# ---- lint lists every error of a file, in file order (issue 9) ----------------
+# ---- lint lists every error of a file, in file order ------------------------
 printf 'payload:\n  mass: 2 Kg\n  drag: {cd: 0.9, area: 0.004 m^2}\nrelease:\n  height: 30 m\nwind:\n  form: 270 deg\natmosphere:\n  humidity: 150 %%\n' >"$tmp/three.yaml"
 "$bin" lint "$tmp/three.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
 rc=$?
@@ -224,7 +224,7 @@ refused "--set with a value out of range" "plumb: --set:1:17: payload.drag.cd: "
 refused "--set naming an unknown criterion" "plumb: --set:1:11: criteria[0]: " \
   "did you mean 'eu-c1-80j'" -- fall tests/cli/profiles/thrown.yaml --set "criteria=[eu-c2]" --format json
 # an error in a --set value names --set and the key, and suggests a unit
-# of the key's own dimension (issue 9)
+# of the key's own dimension
 refused "--set with a unit in capitals" "plumb: --set:1:14: payload.mass: " \
   'did you mean "5 kg"?' "case-sensitive" -- fall "$good" --set "payload.mass=5 KG" --format json
 refused "--set with a mega for a metre" "plumb: --set:1:16: release.height: " \
@@ -247,7 +247,7 @@ refused "--set with a compass letter" "plumb: --set:1:15: site.latitude: " \
   'write "54.2 deg"' -- fall "$good" --set "site.latitude=54.2 N" --format json
 refused "--set with a word that is not a number" "plumb: --set:1:14: payload.mass: " \
   "does not start with a number" -- fall "$good" --set "payload.mass=heavy" --format json
-# items are numbered from 1, as the reports number them (issue 9)
+# items are numbered from 1, as the reports number them
 inv=tests/cli/profiles/inventory.yaml
 refused "--set items[0]" "plumb: --set:1:7: items[0].mass: " "items are numbered from 1" \
   -- fall "$inv" --set "items[0].mass=0.4 kg" --format json
@@ -267,7 +267,7 @@ refused "--set past the end of a list" "plumb: --set:1:1: descent[1].cd: " \
   -- fall "$good" --set "descent[1].cd=0.8" --format json
 # a --set of drag stands instead of the file's shape and the other way round
 # (README: a key given instead of another replaces it); an error in its own
-# value is at --set, and payload.X on an inventory names the --set (issue 9)
+# value is at --set, and payload.X on an inventory names the --set
 printf 'name: rod (invented)\npayload:\n  mass: 0.5 kg\n  shape: {kind: cylinder, length: 0.3 m, diameter: 0.02 m}\nrelease: {height: 10 m}\n' \
   >"$tmp/shape.yaml"
 refused "--set drag over a shape, with a bad unit in it" "plumb: --set:1:28: payload.drag.area: " \
@@ -294,7 +294,8 @@ if "$bin" fall "$good" --set "payload.shape.kind=sphere" --set "payload.shape.di
 else
   bad "--set payload.shape.kind over a drag: $(cat "$tmp/stderr")"
 fi
-# an error in what an option gave names that option (issue 9): an unknown
+# an error in what an option gave names that option, where it can be
+# corrected: an unknown
 # --vary or --find key, and a sheet's --samples too few for the zone's
 # confidence, also with the profile on standard input
 refused "--vary an unknown key" "plumb: <command line>: --vary release.heigth: " \
@@ -345,7 +346,7 @@ refused "--set zone.samples below a --set confidence" \
   "plumb: --set:2:14: zone.samples: 1000 samples cannot bound the 99.9 % radius" \
   -- zone "$tmp/thousand.yaml" --set zone.confidence=0.999 --set zone.samples=1000 --threads 1
 # with several --set, the error names which: the N-th --set is line N of
-# the "--set" pseudo-file (issue 9)
+# the "--set" pseudo-file
 refused "the second --set is wrong" "plumb: --set:2:14: payload.mass: " \
   "does not start with a number" -- fall "$good" --set release.height=30m --set "payload.mass=heavy" --format json
 refused "the third --set names an unknown key" "plumb: --set:3:9: release.hieght: " \
@@ -354,7 +355,7 @@ refused "the third --set names an unknown key" "plumb: --set:3:9: release.hieght
 refused "--set a direction with a compass letter" "plumb: --set:1:11: wind.from: " \
   'a compass point alone ("NE")' -- fall "$good" --set "wind.from=54.2 N" --format json
 # a direction may be a compass point alone, as the latitude's message says
-# (issue 9): on the 16-point compass rose each point is 360/16 = 22.5 deg
+# on the 16-point compass rose each point is 360/16 = 22.5 deg
 # clockwise from the one before, N = 0 (the rose's definition, common
 # practice, no source), so NE is 45 deg and SSW 202.5 deg: the report is
 # the same as for the degrees. A latitude is not a direction: refused.
@@ -373,7 +374,7 @@ for pair in "NE:45 deg" "ssw:202.5 deg"; do
 done
 refused "--set a latitude to a compass point" "plumb: --set:1:15: site.latitude: " \
   "a compass point names a direction" -- fall "$good" --set "site.latitude=NE" --format json
-# a criterion's id mistyped in --energy-max gets the nearest id (issue 9)
+# a criterion's id mistyped in --energy-max gets the nearest id
 refused "limit --energy-max with a mistyped criterion" "plumb: <command line>: --energy-max: " \
   "did you mean 'en397-shock-49j'?" -- limit "$good" --find release.height --energy-max en397-shock --format json
 # the start of two ids names both (EN 397 has two criteria here)
@@ -381,7 +382,7 @@ refused "limit --energy-max with the start of two ids" "--energy-max" \
   "did you mean 'en397-penetration-29j' or 'en397-shock-49j'?" \
   -- limit "$good" --find release.height --energy-max en397 --format json
 
-# ---- a misspelt option or command gets the nearest one (issue 9) -----------
+# ---- a misspelt option or command gets the nearest one ---------------------
 # Every option each command's --help lists, misspelt by dropping its first
 # letter ("--format" -> "--ormat", one edit): refused as unknown with the
 # option meant suggested, exit 2, nothing written.
@@ -465,7 +466,7 @@ refused "an uncertain attitude and an uncertain drag coefficient" \
   -- zone "$tmp/attitude-and-cd.yaml" --format json --threads 1
 
 # The same refusals of an uncertainty given by --set name that --set (the
-# N-th --set is line N of "--set", issue 9): a new entry at its key, a
+# N-th --set is line N of "--set"): a new entry at its key, a
 # value given over one of the file at the value; one in the file still
 # names the file when a --set is also given.
 printf '%s\n  release.velocity.speed: "3 m/s +- 1 m/s"\n  wind.from: {uniform: [10 deg, 50 deg]}\n' \
@@ -511,7 +512,7 @@ refused "a one-way sweep of 20000 rows" "plumb: <command line>: --vary: " \
   "20000 values make more than 10000 rows" \
   -- sweep "$tmp/no-criterion.yaml" --vary "release.height=1 m:20000 m:1 m"
 
-# ---- -o's file name and the format agree (issue 9) -------------------------
+# ---- -o's file name and the format agree -----------------------------------
 # A report's extension chooses the format; one that contradicts --format, or
 # names what the command does not write, is refused (exit 2, nothing written).
 abs_criteria=$PWD/profiles/criteria

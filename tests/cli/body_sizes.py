@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""The size of the body itself is in inches in a US report (issue 9,
-"--units us is US throughout a report"): a shape's edges, length,
+"""The size of the body itself is in inches in a US report (--units us is
+US throughout a report: a US reader should convert nothing): a shape's edges, length,
 diameter and thickness and a sphere's diameter, as a tool or a box is
 measured, while heights and distances stay in feet and a canopy's diameter
 in feet beside its area in ft². In the text (fall, limit; a zone's

@@ -1,6 +1,6 @@
 #!/bin/sh
-# One spelling of a unit in every CSV plumb writes (issue 9: "one spelling
-# of square metres"): the zone CSV's unit column spells an area "m²" (or
+# One spelling of a unit in every CSV plumb writes (a program reading
+# several of them matches one spelling of square metres): the zone CSV's unit column spells an area "m²" (or
 # "ft²" with --units us) as the text reports do, never "m2"/"ft2"; column
 # names keep their ASCII suffixes (area_m2 in the --regions-out CSV, as
 # mass_kg in the fall CSV), the sweep's varied key's too

@@ -98,8 +98,8 @@ done
 
 # ---- the README shows what it prints --------------------------------------------
 # The indented block after "$ python3 examples/fall.py PROFILE" in README.md
-# is the script's output for that profile, word for word (issue 9: examples
-# that cannot go stale).
+# is the script's output for that profile, word for word (an example
+# that is run cannot go stale).
 if "$py" - README.md "$py" "$so" <<'PY'
 import subprocess, sys
 lines = open(sys.argv[1]).read().splitlines()

@@ -11,7 +11,7 @@ line of its own in the "Options:" list of `plumb COMMAND --help`. The other
 way round, every option the list names must be accepted. --help itself
 must go to standard output with status 0 (README.md "Common options"), and no
 line of plumb --help or of any command's --help is wider than 80
-characters (issue 9; 80 columns: the classic terminal width, VT100 /
+characters (80 columns: the classic terminal width, VT100 /
 ECMA-48 default line; common practice, no source). The help of -o names
 exactly the file-name extensions that set the command's format, as the
 command itself takes or refuses them.
@@ -89,8 +89,8 @@ for cmd in commands:
         check(accepted(cmd, opt), f"{cmd} --help lists {opt}, which {cmd} refuses")
 
 # -o's help names every extension that sets the format, and only those
-# (issue 9: zone's said ".json, .csv or .txt" but -o d.geojson writes
-# GeoJSON). Which a command takes is asked of the command itself: a name it
+# (zone's once said ".json, .csv or .txt" though -o d.geojson writes
+# GeoJSON: a help that leaves one out hides it). Which a command takes is asked of the command itself: a name it
 # refuses is answered "-o NAME names ..." before anything is read or
 # written (the profile named does not exist; the directory neither).
 def o_help(help_text):
@@ -139,7 +139,7 @@ for cmd in [None] + commands:
     check(rc == 0 and not re.search(r"ft[- ]lbf", prose),
           f"plumb {cmd or ''} --help spells ft·lbf: {re.findall(r'.*ft[- ]lbf.*', prose)[:2]}")
 
-# The options the issue found missing (issue 9), by name.
+# The options that were once missing from these commands' help, by name.
 for cmd, opts in [("sweep", ["--vary"]), ("limit", ["--find", "--energy-max", "--speed-max", "--drift-max"])]:
     rc, out, err = plumb(cmd, "--help")
     for opt in opts:

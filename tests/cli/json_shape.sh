@@ -1,5 +1,6 @@
 #!/bin/sh
-# One JSON shape for a single payload and a kit (issue 9): every fall
+# One JSON shape for a single payload and a kit (a program reads
+# either the same way): every fall
 # report, and every row of a sweep, has "inventory", "items", "worst" and
 # "largest_drift"; a single payload is a kit of one whose item is the same
 # object as its top-level figures (kept where README.md "plumb fall" fixes

@@ -1,6 +1,6 @@
 #!/bin/sh
 # `plumb limit` answers in the unit the profile gave the key in as well as
-# in the report's units (issue 9). Conversions checked against their
+# in the report's units (the answer is read back into that profile). Conversions checked against their
 # definitions: the international foot is 0.3048 m exactly (1959
 # agreement), the knot 1852/3600 m/s (international nautical mile, 1929).
 . "$(dirname "$0")/lib/setup.sh"

@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""A limit answer's words are in the report's units (issue 9: "--units us is
-US throughout a report"): for every kind of answer (found, found at several
+"""A limit answer's words are in the report's units (--units us is
+US throughout a report): for every kind of answer (found, found at several
 crossings, not reached at the top of the range scanned, exceeded all the
 way down, already over at zero height, not applicable to an item) and every
 kind of limit (--energy-max, --speed-max, --drift-max):
@@ -175,8 +175,8 @@ for what, args, outcomes in CASES:
     check(rc_b == 0 and j_si == j_us and ex == [r["explanation"] for r in r_si],
           f"{what}: JSON the same in SI and US, its explanation in SI:\n{ex}")
 
-# The warnings of the fall at the answer (issue 9: limit reports printed
-# none). At 500 kJ a 20 kg weight strikes at sqrt(2 E / m) = 223.6 m/s,
+# The warnings of the fall at the answer (limit reports once printed
+# none, though that fall is the one a user would make). At 500 kJ a 20 kg weight strikes at sqrt(2 E / m) = 223.6 m/s,
 # Mach 0.657 in sea-level air (a = 340.294 m/s, U.S. Standard Atmosphere
 # 1976), above the Mach 0.5 of the warning; its own 10 m fall (14 m/s) is
 # far below it, so the warning comes from the answer's fall, not the
@@ -280,8 +280,8 @@ for args in ([CLIMB, "--find", "descent.diameter", "--energy-max", "us-part107-c
 # Standard Atmosphere 1976 (86 km geometric, NOAA/NASA/USAF 1976, section
 # 1.2, seen; README.md "The model"): lower heights are refused by the
 # deploy height, higher ones are above the air model, and only the
-# profile's own value is computed. The count is said in the singular
-# (invented test scenario; "1 values" before the fix).
+# profile's own value is computed. It is said as one value, never as
+# "1 values" (invented test scenario).
 ONE = """name: bag at the top of the air model
 payload: {mass: 1.2 kg, drag: {cd: 0.93, area: 0.0187 m^2, source: invented test value}}
 descent: {kind: parachute, cd: 0.78, area: 1.47 m^2, deploy: {below: 29.5 m}, fill_time: 0.8 s}
@@ -297,13 +297,34 @@ try:
         rc, out, err = plumb("limit", one, "--find", "release.height", "--energy-max", "0.1J",
                              "--units", units)
         flat = " ".join(out.split())
-        check(rc == 0 and "(1 value)" in flat and not re.search(r"\b1 values\b", flat),
-              f"one value scanned, --units {units}: '(1 value)', never '1 values': {flat[:500]} "
+        check(rc == 0 and "the only value of release.height" in flat
+              and not re.search(r"\b1 values\b", flat),
+              f"one value scanned, --units {units}: 'the only value', never '1 values': {flat[:500]} "
               f"({err.strip()})")
     rc, out, _ = plumb("limit", one, "--find", "release.height", "--energy-max", "0.1J",
                        "--format", "json")
     check(rc == 0 and json.loads(out)["limit"]["items"][0].get("values_scanned") == 1,
           f"one value scanned: JSON values_scanned 1: {out[:300]}")
+    # One value is no range: worded as the single height it is, never "from
+    # 30 m to 30 m" (before the fix), in every format; and nothing is said
+    # to level off, which one value cannot show. 30 m = 98.4252 ft (1 ft =
+    # 0.3048 m exactly, NIST SP 811 (2008), B.8), to the 6 figures shown.
+    expl = json.loads(out)["limit"]["items"][0].get("explanation", "") if rc == 0 else ""
+    for fmt, units, height in (("text", "si", "30 m"), ("text", "us", "98.4252 ft"),
+                               ("csv", "si", "30 m"), ("json", "si", "30 m")):
+        for limit_j, outcome in (("0.1J", "exceeds the limit"),
+                                 ("400J", "not reached within the values")):
+            rc, out, err = plumb("limit", one, "--find", "release.height", "--energy-max",
+                                 limit_j, "--units", units, "--format", fmt)
+            flat = " ".join(out.split())
+            check(rc == 0 and f"the only value{'' if 'not' in outcome else ' of release.height'}"
+                  f" that could be computed, {height}, where it is" in flat
+                  and outcome in flat and f"from {height} to {height}" not in flat
+                  and "levels off" not in flat
+                  and "lower values are refused by the profile's check of "
+                      "descent.deploy.below" in flat,
+                  f"one value scanned, {fmt} --units {units} --energy-max {limit_j}: a single "
+                  f"height, why the scan ends below and above it: {flat[:900]} ({err.strip()})")
 finally:
     shutil.rmtree(tmp)
 

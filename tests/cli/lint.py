@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""`plumb lint --format json|csv`, `--units us` and `-o` (issue 9,
-"Commands that behave like Unix tools"; README.md "plumb lint" and
+"""`plumb lint --format json|csv`, `--units us` and `-o` (as
+the other commands take them; README.md "plumb lint" and
 "Cautions").
 
 What each check is measured against:

@@ -10,6 +10,10 @@
 #    "..._of_design_section_6") or as "design section 2": a fact of the
 #    contract names the README.md, SAFETY.md or DEVELOPERS.md section that
 #    states it, a method its publication;
+#  - an issue of the team's tracker by its number ("(issue 9)", "Issue 8:",
+#    "issues 4"): the tracker is outside the repository too, so a comment
+#    says the reason itself (why the code or the test is like that), not
+#    where it was asked for;
 #  - anything in the team's shared folder ("../shared/...",
 #    "/work/shared/...", such as its tools): none of it ships with plumb. A
 #    document that must describe that tooling would need its line added to
@@ -35,7 +39,7 @@ trap 'rm -rf "$tmp"' EXIT
 trap 'exit 2' INT TERM
 
 self=tests/cli/no_outside_refs.sh
-pattern='shared/references|references[-_.a-z0-9]*\.md|design[._]md|design[ _]section[ _]?[0-9]|(\.\./|/work/)shared/'
+pattern='shared/references|references[-_.a-z0-9]*\.md|design[._]md|design[ _]section[ _]?[0-9]|(\.\./|/work/)shared/|(^|[^a-z0-9_])issues? #?[0-9]'
 # The one line allowed: test_criteria.c's refusal of such paths.
 allowed='^tests/test_criteria\.c:[0-9]*: *if \(strstr\(text, "references\.md"\) \|\| strstr\(text, "\.\./"\) \|\| strstr\(text, "shared/"\)\)$'
 
@@ -55,7 +59,7 @@ fi
 # 1. The tree points at nothing outside the repository.
 scan . <"$tmp/files" >"$tmp/hits"
 if [ -s "$tmp/hits" ]; then
-  bad "$(wc -l <"$tmp/hits") place(s) point outside the repository; name the README.md, SAFETY.md or DEVELOPERS.md section, or the publication, instead:"
+  bad "$(wc -l <"$tmp/hits") place(s) point outside the repository; name the README.md, SAFETY.md or DEVELOPERS.md section, the publication, or the reason itself, instead:"
   cat "$tmp/hits"
 else ok; fi
 
@@ -78,12 +82,16 @@ printf '/* Design section 2: w = 0 at and below z = 0. */\n' >"$tmp/tree/tests/i
 printf 'static void test_json_has_the_keys_of_design_section_6(void **state)\n' >"$tmp/tree/tests/m.c"
 printf 'Run ../shared/tools/check-contract before a merge.\n' >"$tmp/tree/j.md"
 printf '# the layers: /work/shared/style.md\n' >"$tmp/tree/src/k.sh"
+printf '    /* an error in the key --find gave is that option'"'"'s (issue 9) */\n' >"$tmp/tree/src/n.c"
+printf '"""Issue 10: the zone where things land."""\n' >"$tmp/tree/tests/o.py"
+printf '# tracked as issue #12\n' >"$tmp/tree/tests/p.sh"
 printf '%s\n' '/* Knacke, Parachute Recovery Systems Design Manual (NWC TP 6575). */' \
   '/* README.md "The model", SAFETY.md section 1, DEVELOPERS.md "Layers". */' \
-  '/* criteria installed in /usr/local/share/plumb/criteria/ */' >"$tmp/tree/src/l.c"
-printf 'src/a.c\nsrc/b.py\nc.md\nsrc/d.h\ntests/test_criteria.c\nsrc/e.c\nsrc/f.c\ntests/g.py\ntests/h.c\ntests/i.c\nj.md\nsrc/k.sh\nsrc/l.c\ntests/m.c\n' |
+  '/* criteria installed in /usr/local/share/plumb/criteria/ */' \
+  '/* soft tissue 3 cm deep; the issue is 2 things at once; reissue 4 */' >"$tmp/tree/src/l.c"
+printf 'src/a.c\nsrc/b.py\nc.md\nsrc/d.h\ntests/test_criteria.c\nsrc/e.c\nsrc/f.c\ntests/g.py\ntests/h.c\ntests/i.c\nj.md\nsrc/k.sh\nsrc/l.c\ntests/m.c\nsrc/n.c\ntests/o.py\ntests/p.sh\n' |
   scan "$tmp/tree" >"$tmp/hits"
-for f in src/a.c src/b.py c.md src/d.h src/e.c src/f.c tests/g.py tests/h.c tests/i.c j.md src/k.sh tests/m.c; do
+for f in src/a.c src/b.py c.md src/d.h src/e.c src/f.c tests/g.py tests/h.c tests/i.c j.md src/k.sh tests/m.c src/n.c tests/o.py tests/p.sh; do
   if grep -q "^$f:" "$tmp/hits"; then ok; else bad "a pointer planted in $f was not found"; fi
 done
 if grep -q '^tests/test_criteria.c:' "$tmp/hits"; then bad "the allowed refusal line was flagged"; else ok; fi

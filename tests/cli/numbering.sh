@@ -1,6 +1,7 @@
 #!/bin/sh
 # An inventory's items are numbered one way everywhere (README.md "Profile
-# keys", "Inventory"; issue 9): the text report counts rows from 1, so
+# keys", "Inventory": a number read in a report is the one to type): the
+# text report counts rows from 1, so
 # `--set items[2].X` changes the second row, `--vary items[3].X` the third,
 # and an item may be named instead (`items[chain sling].mass`). Checked on
 # the invented tests/cli/profiles/inventory.yaml (pin punch, chain sling,
@@ -81,7 +82,7 @@ else
 fi
 
 # ---- items[N] is the same item in every --set of one command -------------
-# (issue 9) N counts the items of the profile as written: after
+# N counts the items of the profile as written: after
 # `items[2]=~` (the chain sling removed), `items[3]` is still the glove,
 # not the item that moved up into third place; a second use of items[2]
 # is refused, naming the --set that removed it.
@@ -226,7 +227,7 @@ if "$bin" fall "$inv" --set 'items=~' \
 else bad "items[1] after items=~: $(cat "$tmp/err")"; fi
 
 # ---- descent devices count from 0, as their keys do ------------------------
-# (issue 9) A device that does not open is named by its key: on the demo
+# A device that does not open is named by its key: on the demo
 # canopy, a second device set to open 60 s after a release 90 m up is
 # descent[1]: under the first canopy the load sinks at about 6.5 m/s, so
 # it lands after roughly 90 / 6.5 = 14 s, long before.

@@ -5,7 +5,7 @@
 Each range is checked in the unit it was typed in, counted without
 overflow, and refused (exit 2, the option named, nothing written) for a
 zero step, a step of the wrong sign, or too many values, before anything
-runs. The regression kept fixed (issue 9): `--vary
+runs. The regression kept fixed: `--vary
 atmosphere.table[0].temperature=0degC:30degC:-20degC` passed the sign
 check (-20 degC read as +253.15 K), counted about 2^64 values, and with two
 such ranges the row cap was passed by wrap-around and the writer looped

@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""The layout of the text reports a person reads on a terminal (issue 9):
+"""The layout of the text reports a person reads on a terminal (80 columns):
   - the title line "plumb VERSION - what: NAME" of fall, sweep, limit and
     zone wraps a long profile name onto continuation lines indented under
     its first character, every line within 80 columns, the name whole
@@ -366,7 +366,7 @@ want = (f"5.0 kg [{5.0 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.2f} ft] 
 check(rc == 0 and rc2 == 0 and want in us_w and "5.0 kg striker, 1 m drop, at most 5.0 kN "
       "transmitted" in si_w, f"criterion test method: US figures beside the quote: {want!r}")
 # The same in a zone's exceedance rows: the text and the CSV's criterion
-# comment lines (issue 9: they quoted the source in SI only under --units us).
+# comment lines (they once quoted the source in SI only under --units us).
 zone_run = ("zone", tool, "--samples", "400", "--threads", "1")
 for fmt in ("text", "csv"):
     rc, us, _ = plumb(*zone_run, "--format", fmt, "--units", "us")

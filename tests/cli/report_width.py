@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""What a text report looks like on a terminal (issue 9):
+"""What a text report looks like on a terminal (80 columns):
   - no line of any command's text report (fall, limit, zone, with and
     without a target, sweep, lint, air, verify) is wider than 80
     characters, over the demo profiles in SI and US units (80 columns:
@@ -171,8 +171,8 @@ try:
                 check(any(x == n for x in names),
                       f"long names --units {units}: '{n}' not whole in {names}")
         # the zone's kit table: a row with figures after the name starts an
-        # item, a line with the name column alone continues it (issue 9: the
-        # names were cut at 30 characters)
+        # item, a line with the name column alone continues it (the
+        # names were once cut at 30 characters)
         rc, out, err = plumb("zone", path, "--samples", "400", "--threads", "1",
                              "--units", units)
         check(rc == 0, f"zone long names --units {units}: exit {rc} {err.strip()[:200]}")
@@ -189,7 +189,7 @@ try:
             col = lines[head[0]].index("clearance")
             cell, figs = l[:col].strip(), l[col:].strip()
             if figs:
-                # the item's number, as items[N] (issue 9), before its name
+                # the item's number, as items[N] counts it, before its name
                 num, _, cell = cell.partition(" ")
                 check(num.isdigit(), f"zone kit table row without its number: {l!r}")
             if figs:
@@ -212,7 +212,7 @@ finally:
     shutil.rmtree(tmp)
 
 # ---- a long name without spaces: broken at its hyphens, never cut ------------
-# The new-user review of issue 9: item 5 of tower-kit.yaml renamed to an 85
+# A new user's review: item 5 of tower-kit.yaml renamed to an 85
 # character name with no space ran past 80 columns in the warnings, the
 # inputs, the zone's kit table and limit's "Item 5" line, and the fall's
 # kit table cut it mid-word ("aluminium-bo" / "x-section..."). Expected:

@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""How reports word places and units (issue 9, "Reports that state what
-they computed"):
+"""How reports word places and units (a report states what it
+computed, no more):
   - no "0 m S": a coordinate that prints as zero has no south or west;
   - no bearing when there is no drift (text and CSV; 0 in JSON, which
     keeps the key a number, below the 5 mm the text calls none), nor for
@@ -66,8 +66,8 @@ check(rc == 0 and len(rows) == 2 and all(r["bearing_deg"] == "" for r in rows),
 # the text calls none, below 0.005 m. A wind of 1.37 mm/s
 # from the north moves a fall from rest at most w T (its horizontal speed
 # never exceeds the wind's: drag pulls it toward the air's velocity), under
-# 5 mm, but not nothing; 2.3 m/s moves it due south, bearing 180 (issue 9:
-# JSON gave 180 for the negligible drift too).
+# 5 mm, but not nothing; 2.3 m/s moves it due south, bearing 180 (JSON
+# once gave 180 for the negligible drift too).
 def fall_json(*args):
     rc, out, err = plumb("fall", LIGHT, "--set", "wind.from=N", *args, "--format", "json")
     return json.loads(out)["impact"] if rc == 0 else {}
@@ -89,8 +89,8 @@ check(len(rows) == 2 and all(0.0 < r["impact"]["drift_m"] < 0.005 and r["impact"
 # No ellipse, so no bearing, in a zone whose samples all land on one point:
 # only the mass uncertain, dropped from rest in still air, every fall is
 # vertical (x(t) = 0 above). The text says "none"; CSV leaves the bearing
-# cell empty, JSON keeps its keys with null (issue 9: "90", east, the
-# atan2(0, 0) of a zero covariance). A wind that varies spreads them along
+# cell empty, JSON keeps its keys with null (it once gave "90", east,
+# the atan2(0, 0) of a zero covariance). A wind that varies spreads them along
 # its line (from 270 deg: east-west, bearing 90), and the bearing is given.
 ZONE = ("zone", LIGHT, "--samples", "2000", "--threads", "1")
 MASS = ("--set", "uncertainty.payload.mass={normal: [0.047 kg, 0.0042 kg]}")
@@ -209,6 +209,51 @@ flat = " ".join(out.split())
 check(rc == 0 and "(1 of the 2 devices does not open before impact)" in flat and
       "the drogue does not open" not in flat,
       f"two drogues, one open: counted, '1 of the 2 devices does not open' (exit {rc}) {err}")
+
+# A drogue cut away while still filling (invented: tests/cli/profiles/
+# two-devices.yaml with a 0.8 s fill and the parachute at 0.9 s) is said
+# to be cut away part-filled, never "replaced" as one that filled: the
+# drogue and the parachute reach line stretch at their `after` times, 0.5 s
+# and 0.9 s, so the cut comes (0.9 - 0.5) / 0.8 = 50 % into its fill time
+# (README.md, "fill_fraction"); its drag area there, on the linear fill
+# Knacke gives with no canopy type, (t / t_f)^1 (Knacke, Parachute Recovery
+# Systems Design Manual, 1991, seen through README.md "The model"), is
+# 0.5 x 0.6 x 0.2 m^2 = 0.06 m^2 of the full 0.12 m^2.
+CUT = ["fall", TWO, "--set", "descent[0].fill_time=0.8 s", "--set",
+       "descent[1].deploy.after=0.9 s"]
+rc, out, err = plumb(*CUT)
+flat = " ".join(out.split())
+check(rc == 0 and "cut away while still filling, at the parachute's line stretch 0.4000 s "
+      "later: 50.0 % of its fill time, drag area 0.06000 m² of the full 0.1200 m²" in flat
+      and "for a full fill, which it did not reach before it was cut away" in flat,
+      f"drogue cut away while filling, text: its part fill at the cut (exit {rc}) {err} {flat[:3000]}")
+WARN = ("The drogue (descent[0]) was cut away while still filling: the parachute "
+        "(descent[1]) reached line stretch at 0.9000 s, 0.4000 s into the drogue's 0.8000 s "
+        "fill time (50.0 %), when the drogue's drag area was 0.0600 m² of the full 0.120 m² "
+        "(50 %).")
+check(WARN in flat, f"drogue cut away while filling, text warning: {flat[:3000]}")
+rc, out, err = plumb(*CUT, "--format", "json")
+doc = json.loads(out) if rc == 0 else {}
+devs = doc.get("descent", {}).get("devices", [{}, {}])
+ai = devs[0].get("at_impact", {})
+check(ai.get("state") == "cut_away_filling" and abs(ai.get("fill_fraction", 0) - 0.5) <= 1e-12
+      and devs[1].get("at_impact", {}).get("state") == "open"
+      and devs[0].get("pflanz", {}).get("full_fill_reached") is False
+      and any(w.startswith(WARN) for w in doc.get("warnings", [])),
+      f"drogue cut away while filling, JSON: state, fill fraction 0.5, warning: {ai} "
+      f"{doc.get('warnings')}")
+rc, out, err = plumb(*CUT, "--format", "csv")
+check(rc == 0 and any(l.startswith("# warning: " + WARN) for l in out.splitlines()),
+      f"drogue cut away while filling, CSV warning line: {out[:1500]}")
+# a drogue that filled before the parachute replaced it (0.8 s fill, the
+# parachute at 1.5 s, 1.25 fill times later) is "replaced", with no warning
+rc, out, err = plumb("fall", TWO, "--set", "descent[0].fill_time=0.8 s", "--set",
+                     "descent[1].deploy.after=1.5 s", "--format", "json")
+doc = json.loads(out) if rc == 0 else {}
+devs = doc.get("descent", {}).get("devices", [{}])
+check(devs[0].get("at_impact", {}).get("state") == "replaced"
+      and not any("cut away" in w for w in doc.get("warnings", [])),
+      f"drogue that filled, then replaced: 'replaced', no cut-away warning: {devs[0]}")
 
 # A kit of one item (invented): "1 item", never "1 items".
 tmp = tempfile.mkdtemp(prefix="plumb-report-words.", dir=os.environ.get("TMPDIR"))

@@ -202,7 +202,7 @@ def criterion_file(cid):
 
 
 def check_sources(pdf, ids, report, what):
-    """Issue 9: every criterion used shows its source in full as its file
+    """Every criterion used shows its source in full as its file
     gives it, and the status of its figure in the words of the text report
     `report` ("figure from memory, not confirmed in the source"), in its own
     entry of the sheet's list of criteria (after "[id]: limit", before the
@@ -285,7 +285,7 @@ def seg_in_box(p, q, box):
 
 
 def energy_plot_clash(pdf):
-    """Issue 9: the criteria's labels on the energy-against-height plot
+    """The criteria's labels on the energy-against-height plot
     must not overprint its curves nor one another. The plot is found by
     its heading and x-axis title (pdftotext -bbox-layout), its labels are
     its lines of text "ID: LIMIT ...", its curves the polylines of more
@@ -538,7 +538,7 @@ check(re.search(r"\d ft/s \[[\d.]+ m/s\]", tu) and re.search(r"Keep clear: [\d.]
 check(re.search(r"\d m/s \([\d.]+ ft/s\)", text), "SI sheet: US figures in parentheses")
 # the wind arrow's speed in the text report's display unit: mph (knots)
 # under --units us, m/s in SI, the same figure as `plumb fall` at the
-# release height (issue 9: "wind in knots or mph where a person expects them")
+# release height (wind in knots or mph, where a person expects them)
 for rep, sheet_text, what in ((fall_us, tu, "US"), (fall_si, text, "SI")):
     wm = re.search(r"([\d.]+ (?:mph \([\d.]+ kn\)|m/s)) from (\S+ \(\w+\)) at\s+the\s+release\s+height",
                    re.sub(r"\s+", " ", rep.replace("\u00a0", " ")))
@@ -864,7 +864,7 @@ def page_rects(pdf, page):
 
 
 def text_clashes(pdf):
-    """Issue 9, a new user's review: text must not touch text or the rules
+    """A new user's review: text must not touch text or the rules
     of the page. Returns what is wrong:
     - words drawn over words (words_overlap), on every page;
     - a word crossed by a heading's rule (a stroked line across the body,
@@ -1149,7 +1149,7 @@ if os.path.exists(us_pdf):
     os.remove(us_pdf)
 
 # ---- the demonstration sheets: no text over text, a rule or past a frame -----------
-# Issue 9's review: on A4 and letter, SI and US, a single payload and a
+# A new user's review: on A4 and letter, SI and US, a single payload and a
 # kit, every page keeps its footer and cautions and no text touches other
 # text or a heading's rule (text_clashes). The kit's energy plot, four
 # curves and a logarithmic axis over a short frame, put its y title over
@@ -1217,7 +1217,7 @@ for paper, units in (("a4", "si"), ("letter", "us")):
         # only the wind speed is uncertain: the impacts lie on a line, and
         # the ellipse's semi-minor axis, nothing, read "0.000002872 ft";
         # its semi-axes are now the text report's, to the millimetre
-        # (thousandth of a foot), and (issue 9) the other system's beside
+        # (thousandth of a foot), and the other system's beside
         # each, as the sheet gives every other length: SI in brackets after
         # US, US in parentheses after SI, each the text report's figure in
         # that system for the same item
@@ -1239,7 +1239,7 @@ for paper, units in (("a4", "si"), ("letter", "us")):
 os.remove(longk)
 
 # ---- the landing region's area, as a person on site reads it ---------------------
-# Issue 9: a still-air vertical drop with no scatter lands every sample on
+# A still-air vertical drop with no scatter lands every sample on
 # one point, a region of (near) zero area; the plan view's legend gave it
 # as "0.0000000001563 m²". It now reads as the text report's polygon line
 # does ("under 0.01 m²", the same helper, format.c), and a region of some
@@ -1281,7 +1281,7 @@ if os.path.exists(pdf_s):
 os.remove(still)
 
 # ---- --units us: the landing figures with SI beside them ---------------------------
-# Issue 9: the ellipse's semi-axes and the offsets of the ellipse and the
+# The ellipse's semi-axes and the offsets of the ellipse and the
 # landing circle from the drop point were in feet only on a US sheet; each
 # now has metres in brackets after it, as every other length of section 2.
 # Each pair agrees through the international foot, 0.3048 m exactly (1959
@@ -1313,7 +1313,7 @@ if os.path.exists(pdf_e):
     os.remove(pdf_e)
 
 # ---- an open landing circle says so, in the text report's words -------------------
-# Issue 9: with too few samples counted against its centre, the landing
+# With too few samples counted against its centre, the landing
 # circle has no upper bound (JSON: "open", a kit's landing_circle_set_by
 # null) and the sheet drew nothing and said nothing. A 90 % circle at 95 %
 # confidence needs 0.9^n <= 0.025 (the largest of n samples bounds the
@@ -1374,7 +1374,7 @@ for what, prof, lands in opencase:
 os.remove(okit)
 
 # ---- a criteria table that goes on to a new page repeats its header ---------------
-# Issue 9: a single payload judged against 16 criteria (invented copies of
+# A single payload judged against 16 criteria (invented copies of
 # eu-c1-80j with limits 15 x 1.13^i J, i = 1 .. 16, one decimal: spread
 # so that the energy plot's labels find room) has a verdict table that
 # does not fit the rest of page 1;
@@ -1428,6 +1428,26 @@ if rc == 0:
     os.remove(pdf16)
 shutil.rmtree(crit16)
 os.remove(long16)
+
+# ---- a drogue cut away while still filling is not "opens" -------------------------
+# tests/cli/profiles/two-devices.yaml with a 0.8 s drogue fill and the
+# parachute at 0.9 s: the drogue is cut away 0.4 s into its fill, at
+# (0.9 - 0.5) / 0.8 = 50 % (README.md, "fill_fraction"; line stretch comes
+# at the `after` times). The sheet says so, in bold as a device that did
+# not open, never "drogue: opens", as `plumb fall` says it.
+cut_pdf = os.path.join(tmp, "cut.pdf")
+rc, _, err = run("sheet", os.path.join(ROOT, "tests", "cli", "profiles", "two-devices.yaml"),
+                 "--set", "descent[0].fill_time=0.8 s", "--set", "descent[1].deploy.after=0.9 s",
+                 "-o", cut_pdf)
+check(rc == 0, f"sheet of a drogue cut away while filling: exit {rc}: {err}")
+if rc == 0:
+    cut = " ".join(pages_text(cut_pdf))
+    check("descent[0], drogue: line stretch 0.5000 s" in cut and "drogue: opens" not in cut
+          and "cut away while still filling, at the parachute's line stretch 0.4000 s later: "
+              "50.0 % of its fill time" in cut
+          and "descent[1], parachute: opens;" in cut,
+          f"sheet: the drogue cut away part-filled, not 'opens': {cut[:4000]}")
+    os.remove(cut_pdf)
 
 os.remove(pdf)
 shutil.rmtree(tmp)

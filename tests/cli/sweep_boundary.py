@@ -1,4 +1,5 @@
-"""The text of a two-way `plumb sweep` is its boundary (issue 11): for each
+"""The text of a two-way `plumb sweep` is its boundary (what a
+crew reads off such a table): for each
 value of the first input and each criterion, the value of the second at
 which the impact energy reaches the limit. Checked against a closed form,
 the work-energy theorem for a drag-free fall from rest (1/2 m v^2 = m g H,

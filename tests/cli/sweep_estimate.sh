@@ -1,6 +1,7 @@
 #!/bin/sh
 # A sweep that will take long says so on standard error, estimated from its
-# first rows, and its report is the same (issue 9). The thresholds are
+# first rows, and its report is the same (the
+# estimate is on standard error only). The thresholds are
 # lowered with PLUMB_TEST_ESTIMATE_TIMES (tests only, DEVELOPERS.md) so a
 # small sweep counts as long.
 . "$(dirname "$0")/lib/setup.sh"

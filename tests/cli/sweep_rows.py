@@ -79,8 +79,8 @@ check(rc == 3 and "not computed, see (1) below" in out and "Rows not computed (2
       and "payload.volume = 0.042 m" in out and "it would float or rise" in out,
       f"text lists the failed rows:\n{out[:900]}")
 
-# every ratio in the text table has its verdict word beside it (issue 9:
-# a ratio printed as 1.00 must not hide its side of the limit)
+# every ratio in the text table has its verdict word beside it (a
+# ratio printed as 1.00 must not hide its side of the limit)
 rc, out, err = plumb("sweep", THROWN, "--vary", "release.height=2m:20m:9m",
                      "--set", "criteria=[ddesb-fragment-58ftlbf, eu-c1-80j]")
 # the ratios sit in the main table when it fits 80 columns, else in the

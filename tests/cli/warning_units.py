@@ -1,6 +1,6 @@
 #!/usr/bin/python3
-"""A warning's figures in the report's units (issue 9, "--units us is US
-throughout a report"). The rotor-downwash and gust warnings are made below
+"""A warning's figures in the report's units (--units us is US
+throughout a report). The rotor-downwash and gust warnings are made below
 the report layer; before the fix they were written in SI whatever --units
 said ("hover thrust 62.3 N over 0.93 m^2 gives v_i 5.27 m/s", "W20 7.72
 m/s", "leans 74 deg"), and plumb zone copied them so. Checked here, on an

@@ -263,7 +263,8 @@ refused 2 "--samples too few for the confidence" "$cl: --samples: 100 samples ca
 refused 2 "--confidence too high for the samples" "$cl: --confidence:" \
   -- zone "$prof" --confidence 0.999
 # the same settings from the profile or a --set are refused where they were
-# given (issue 9: an error in a --set value names that --set)
+# given (an error in a --set value names that --set, where it can be
+# corrected)
 refused 2 "zone.samples too few, by --set" \
   "plumb: --set:2:14: zone.samples: 100 samples cannot bound the 99 % radius" \
   -- zone "$prof" --set zone.seed=5 --set zone.samples=100

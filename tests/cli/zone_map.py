@@ -1,4 +1,4 @@
-"""issue 10: the zone where things land, and on a map.
+"""The zone where things land, and on a map.
 
 Checks, each against something outside plumb:
 - Coverage on a closed form: a drag-free fall (cd_area 0) from H with the
@@ -268,7 +268,7 @@ if rc == 0:
 # upper bound needs P(all m counted samples below the 90 % quantile) =
 # 0.9^m <= 0.025 (two-sided 95 %), i.e. m >= 36 (order statistics, closed
 # form). 40 samples, some of them training, count fewer: the circle is open,
-# and no item sets an open circle (issue 9: JSON named the first item).
+# and no item sets an open circle (JSON once named the first item).
 rc, so, se = plumb("zone", kit, "--samples", "40", "--format", "json", "--threads", "2")
 if rc == 0:
     d = json.loads(so)

@@ -1,4 +1,4 @@
-"""issue 10: what a zone says when its inputs cannot make one.
+"""What a zone says when its inputs cannot make one.
 
 - A profile with no `uncertainty:` map is refused in every format (GeoJSON
   too, before its need of a site on the map), with

@@ -1,5 +1,6 @@
 #!/usr/bin/python3
-"""A zone's warnings, whole (issue 9): plumb zone carries the warnings of
+"""A zone's warnings, whole (a cut warning hides what it warns of):
+plumb zone carries the warnings of
 each item's fall (the glide of a plate, the rotor downwash) and must print
 every one of them whole, as plumb fall does, in text, JSON and CSV; none
 may end cut mid-word or carry the library's mark of a cut warning. Before

@@ -811,7 +811,8 @@ static unsigned long allocations_of(call_fn call, void *ctx)
     return failalloc_recorded();
 }
 
-/* Issue 8: nothing is allocated per fall or per sample; the workspaces are
+/* Nothing is allocated per fall or per sample (memory stays flat as the
+ * samples grow, README "plumb zone"); the workspaces are
  * made once. A study's fall allocates nothing once the study is open, and
  * a zone of 8 times the samples makes as many allocations. */
 static void test_nothing_is_allocated_per_fall_or_per_sample(void **s)
