@@ -26,7 +26,9 @@ which wrote it):
   another label (pdftotext -bbox-layout), with two and with eight criteria;
   with eight criteria every limit's label sits within 6 pt of its own line
   (the line's height from the axis's tick labels and the limit's energy),
-  or the line carries a number within 6 pt and the key below names it.
+  or the line carries a number within 6 pt and the key below names it;
+  with four flat curves running along the lines (items thrown down at
+  their terminal speed), every number's box is clear of every curve.
 - the descent devices: each as understood in the inputs (keyed descent[i]
   or items[N].descent[i], in deployment order) and what the fall made of
   it in section 2 (a kit: its table's section), SI and --units us, as
@@ -843,9 +845,10 @@ def words_overlap(pdf):
     return bad
 
 
-def page_rects(pdf, page):
+def page_rects(pdf, page, ops="S"):
     """The stroked rectangles of one page, as (x0, y0, x1, y1) from the top
-    left: "x y w h re" then "S" in its content stream (see page_paths)."""
+    left: "x y w h re" then "S" in its content stream (see page_paths); with
+    ops="SB" those filled and stroked at once ("B") too."""
     one = os.path.join(tmp, "page.pdf")
     subprocess.run(["pdfseparate", "-f", str(page), "-l", str(page), pdf, one], check=True)
     with open(one, "rb") as f:
@@ -857,7 +860,7 @@ def page_rects(pdf, page):
             body = zlib.decompress(m.group(1)).decode("latin-1")
         except zlib.error:
             continue
-        for r in re.finditer(r"(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re\s+S\b", body):
+        for r in re.finditer(r"(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re\s+[" + ops + r"]\b", body):
             x, y, w, h = (float(r.group(i)) for i in range(1, 5))
             out.append((x, y, x + w, y + h))
     return out
@@ -1428,6 +1431,77 @@ if rc == 0:
     os.remove(pdf16)
 shutil.rmtree(crit16)
 os.remove(long16)
+
+
+def key_numbers_over_curves(pdf):
+    """The numbers of the limits' lines on the energy plot when a key names
+    them: each figure (pdftotext -bbox) inside a small box, white and
+    outlined (the page's "re ... B", page_rects). A curve (a polyline of more than 5
+    points, most of it between the plot's heading and its x axis's title,
+    page_paths) that crosses a number's box is hidden under it.
+    Returns (numbers found, curves found, clashes)."""
+    for n, ws in enumerate(page_words(pdf), 1):
+        flat = [t for _, t in ws]
+        try:
+            i = next(i for i in range(len(flat)) if flat[i:i + 3] == ["Impact", "energy", "against"])
+            j = next(j for j in range(i, len(flat)) if flat[j:j + 4] == ["drop", "height", "above", "the"])
+        except StopIteration:
+            continue
+        top, bottom = ws[i][0][3], ws[j][0][1]
+        boxes = [r for r in page_rects(pdf, n, "SB") if r[2] - r[0] < 20 and 6 < r[3] - r[1] < 12
+                 and top < r[1] < bottom]
+        numbers = [(r, t) for r in boxes for b, t in ws if re.fullmatch(r"\d+", t)
+                   and r[0] <= (b[0] + b[2]) / 2 <= r[2] and r[1] <= (b[1] + b[3]) / 2 <= r[3]]
+        curves = [p for p in page_paths(pdf, n) if len(p) > 5 and
+                  sum(top < y < bottom for _, y in p) > len(p) / 2]
+        clashes = [f"number {t} at {tuple(round(v, 1) for v in r)} over a curve" for r, t in numbers
+                   if any(seg_in_box(c[k], c[k + 1], r) for c in curves for k in range(len(c) - 1))]
+        return len(numbers), len(curves), clashes
+    return 0, 0, ["no energy plot found"]
+
+
+# ---- numbered limit lines where flat curves run along them --------------------
+# Four items thrown down at 12 m/s, each at its own terminal speed, so
+# that its energy is the same from every height (1/2 m v^2: a flat curve)
+# and runs along or between the lines of the eight criteria: at 30.00 J
+# between en397-penetration-29j (29.4 J) and z89-type2-30j (30.6 J), on
+# us-part107-cat3 (33.89 J), at 51.50 J between en397-shock-49j and
+# z89-type1-54j, at 79.30 J between ddesb-fragment-58ftlbf (78.63 J) and
+# eu-c1-80j. Each item's m = 2 E / v^2 and CdA = 2 m g / (rho v^2), with
+# rho = 1.225 kg/m^3, the sea-level density of the U.S. Standard Atmosphere
+# 1976 (the curves need only run near the lines). The labels cannot sit
+# beside their lines, so the lines are numbered; each number sat in a box
+# on its own line, over the curve that runs along it, and hid it. Every
+# number must be clear of every curve, within 6 pt of its line, and named
+# in the key.
+flatp = os.path.join(tmp, "flat.yaml")
+with open(flatp, "w") as f:
+    f.write("name: flat curves\nitems:\n")
+    for nm, e_j in (("sandbag", 30.0), ("tarp bundle", 51.5), ("hard hat", 33.89),
+                    ("rope bag", 79.3)):
+        kg = 2.0 * e_j / 12.0 ** 2
+        f.write(f"  - name: {nm}\n    mass: {kg:.4f} kg\n"
+                f"    drag: {{cd: 1.0, area: {2.0 * kg * 9.81 / (1.225 * 12.0 ** 2):.5f} m^2}}\n")
+    f.write("release: {height: 25 m, velocity: {east: 0 m/s, north: 0 m/s, up: -12 m/s}}\n"
+            "criteria: [" + ", ".join(ids8) + "]\n")
+for units in ("si", "us"):
+    pdf_flat = os.path.join(tmp, f"flat-{units}.pdf")
+    rc, _, err = run("sheet", flatp, "-o", pdf_flat, "--units", units)
+    check(rc == 0, f"flat curves, {units}: exit {rc}: {err}")
+    if rc != 0:
+        continue
+    nn, nc, clash = key_numbers_over_curves(pdf_flat)
+    check(nn == 8 and nc == 4 and not clash,
+          f"flat curves, {units}: {nn} numbered lines, {nc} curves, every number clear of them: {clash}")
+    near, keyed, far = limit_labels_near(pdf_flat, ids8, us=units == "us")
+    check(keyed == 8 and not far,
+          f"flat curves, {units}: each line's number within 6 pt of it and named in the key: "
+          f"{near} beside, {keyed} keyed, {far}")
+    nl, nc, clash = energy_plot_clash(pdf_flat)
+    check(nc == 4 and not clash, f"flat curves, {units}: no label over a curve or a label: {clash}")
+    check_pages(pdf_flat, f"flat curves, {units}")
+    os.remove(pdf_flat)
+os.remove(flatp)
 
 os.remove(pdf)
 shutil.rmtree(tmp)
