@@ -430,6 +430,38 @@ def limit_labels_near(pdf, ids, near=6.0, us=False):
     return 0, 0, ["no energy plot found"]
 
 
+def verdict_cells(pdf):
+    """The verdict table's cells that carry the zone's share (pdftotext
+    -bbox words): the verdict with "(nominal)" right of it on
+    its line, then "N % of samples above" whole on the one line under it,
+    from the verdict's left edge. The note took three lines of a narrow
+    column ("(nominal) 100 %" / "of samples" / "above"). Returns (cells
+    found, problems)."""
+    cells, bad = 0, []
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    for n, page in enumerate(re.findall(r"<page [^>]*>(.*?)</page>", html, re.S), 1):
+        ws = [([float(m.group(i)) for i in range(1, 5)], unescape(m.group(5)))
+              for m in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                                   r'yMax="([\d.]+)">(.*?)</word>', page)]
+        for i, (b, t) in enumerate(ws):
+            if t != "(nominal)":
+                continue
+            cells += 1
+            vb, vt = ws[i - 1]
+            share = ws[i + 1:i + 6]
+            one_line = (vt in ("exceeds", "within") and vb[2] < b[0] and
+                        vb[1] < (b[1] + b[3]) / 2 < vb[3])
+            whole = (len(share) == 5 and re.fullmatch(r"[\d.]+", share[0][1]) is not None and
+                     [x for _, x in share[1:]] == ["%", "of", "samples", "above"] and
+                     all(abs(sb[1] - share[0][0][1]) < 0.5 for sb, _ in share) and
+                     abs(share[0][0][0] - vb[0]) < 1.0 and vb[3] - 1.0 < share[0][0][1] < vb[3] + 4.0)
+            if not (one_line and whole):
+                bad.append(f"page {n}: {vt} {t} then {[x for _, x in share]}: "
+                           f"(nominal) beside the verdict {one_line}, the share on one line under "
+                           f"it {whole}")
+    return cells, bad
+
+
 def no_leftovers(d, keep=()):
     return sorted(set(os.listdir(d)) - set(keep)) == []
 
@@ -467,6 +499,10 @@ r_drop = sig4_up(z["clearance_radius_m"]) + " m"
 r_target = sig4_up(z["target"]["clearance_radius_m"]) + " m"
 check(r_drop in p1, f"page 1 has the clearance radius {r_drop} of plumb zone")
 check(r_target in p1, f"page 1 has the clearance radius around the target {r_target}")
+# each criterion's row: "exceeds (nominal)" / "100 % of samples above",
+# two lines (the drone's two criteria, A4, SI)
+cells, bad = verdict_cells(pdf)
+check(cells == 2 and not bad, f"A4, SI: each verdict's note on two lines: {cells} cells, {bad}")
 r_land = sig4_up(z["landing"]["circle"]["clearance_radius_m"]) + " m"
 check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
 check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
@@ -549,6 +585,8 @@ for rep, sheet_text, what in ((fall_us, tu, "US"), (fall_si, text, "SI")):
           f"{wm.group(0) if wm else '(none found in plumb fall)'}")
 check("the way the wind blows" in tu and not re.search(r"wind blows, [\d.]+ ft/s", tu),
       "US: the wind arrow is not in ft/s")
+cells, bad = verdict_cells(pdf_us)
+check(cells == 2 and not bad, f"letter, US: each verdict's note on two lines: {cells} cells, {bad}")
 check(not bbox_outside(pdf_us), "letter: no text outside the margins")
 n, bad = grey_margins_blank(pdf_us)
 check(not bad, f"letter: margins blank in grey, not on {bad}")
@@ -1404,13 +1442,18 @@ rc, _, err = run("sheet", long16, "-o", pdf16, env={"PLUMB_CRITERIA_DIR": crit16
 check(rc == 0, f"16 criteria: exit {rc}: {err}")
 if rc == 0:
     check_pages(pdf16, "16 criteria")
-    row = re.compile(r"(\d+\.\d+) J \([\d.]+ ft·lbf\)\s+(\d+\.\d+) J\s+[\d.]+\s+(?:exceeds|within)\s*$")
+    # a row: its energy and limit in J, ratio and verdict, then the line
+    # under it with each in ft·lbf (each cell on two lines)
+    row = re.compile(r"(\d+\.\d+) J\s+(\d+\.\d+) J\s+[\d.]+\s+(?:exceeds|within)\s*$")
+    row_us = re.compile(r"^\[t\d\d-limit\]\s+\([\d.]+ ft·lbf\)\s+\([\d.]+ ft·lbf\)$")
     head = re.compile(r"^Criterion( \(continued\))?\s+Energy\s+Limit\s+Ratio\s+Verdict\s*$")
     limits, table_pages, bad = [], [], []
     src_pages = []
     for n, pg in enumerate(tool("pdftotext", "-layout", pdf16, "-").split("\f"), 1):
         lines = [ln.strip() for ln in pg.splitlines() if ln.strip()]
         rows = [i for i, ln in enumerate(lines) if row.search(ln)]
+        bad += [f"page {n}: no ft·lbf figures under {lines[i]!r}" for i in rows
+                if i + 1 >= len(lines) or not row_us.match(lines[i + 1])]
         heads = [i for i, ln in enumerate(lines) if head.match(ln)]
         if rows:
             table_pages.append(n)
