@@ -291,14 +291,22 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                              plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
                              beside(d, plumbp_t_len(S, hypot(dx, dy))),
                              plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
-    if (z->has_target)
+    if (z->has_target) {
+        /* the point, then the same point in the other system beside it,
+         * as every other length of this section */
+        char other[FMT_LEN];
+        snprintf(other, sizeof other, "%s",
+                 beside(d, sheet_fmt(d, "%s, %s",
+                                     plumbp_t_offset(S, z->target_m[0], "east", "west"),
+                                     plumbp_t_offset(S, z->target_m[1], "north", "south"))));
         sheet_para(d, font,
-                   sheet_fmt(d, "Released to land on the target (%s, %s): keep clear %s %s "
+                   sheet_fmt(d, "Released to land on the target at %s, %s %s: keep clear %s %s "
                                 "around the target.",
                              plumbp_t_offset(P, z->target_m[0], "east", "west"),
-                             plumbp_t_offset(P, z->target_m[1], "north", "south"),
+                             plumbp_t_offset(P, z->target_m[1], "north", "south"), other,
                              plumbp_t_clear(P, plumbp_t_len, z->at_target.clearance_radius_m),
                              beside(d, plumbp_t_clear(S, plumbp_t_len, z->at_target.clearance_radius_m))));
+    }
 }
 
 /* The verdict table's columns, fractions of the width, and its header

@@ -1350,6 +1350,30 @@ check(rc == 0 and me is not None and all(agrees(me.group(i), me.group(i + 1)) fo
 mc = re.search(r"of their centre, ([\d.]+ ft) \[([\d.]+ m)\] toward", et)
 check(mc is not None and agrees(mc.group(1), mc.group(2)),
       f"drone, us: the landing circle's offset in ft with m beside: {mc.groups() if mc else None}")
+# The target's position had no second unit ("Released to land on the
+# target (20.00 m west, 0 m north)"): it now has the other system's beside
+# it, as every length of section 2, US in parentheses after SI and SI in
+# brackets after US. The sheet's own figures are zone.target's (the zone's
+# JSON target_m, to 4 significant digits), the others agree with them
+# through the international foot (agrees).
+_, tj, _ = plumb("zone", DRONE, "--samples", "500", "--format", "json")
+tgt = json.loads(tj)["zone"]["target"]["target_m"]
+want = [sig4(abs(v)) for v in tgt]
+for sheet_words, o, c, u1, u2 in ((" ".join(pages_text(pdf)), r"\(", r"\)", "m", "ft"),
+                                  (et, r"\[", r"\]", "ft", "m")):
+    mt = re.search(r"Released to land on the target at ([\d.]+ " + u1 + r") (east|west), ([\d.]+ " + u1
+                   + r") (north|south) " + o + r"([\d.]+ " + u2 + r") (east|west), ([\d.]+ " + u2
+                   + r") (north|south)" + c + r": keep clear", sheet_words)
+    g = mt.groups() if mt else None
+    ok = mt is not None and g[1] == g[5] and g[3] == g[7]
+    if ok:
+        if u1 == "m":
+            ok = [g[0].split()[0], g[2].split()[0]] == want and agrees(g[4], g[0]) and agrees(g[6], g[2])
+        else:
+            ok = [g[4].split()[0], g[6].split()[0]] == want and agrees(g[0], g[4]) and agrees(g[2], g[6])
+        ok = ok and g[1] == ("west" if tgt[0] < 0 else "east") and g[3] == ("south" if tgt[1] < 0 else "north")
+    check(ok, f"drone, {u1} first: the target's position with {u2} beside it, "
+              f"{want} m from zone.target: {g}")
 if os.path.exists(pdf_e):
     os.remove(pdf_e)
 
