@@ -214,6 +214,11 @@ enum { LABEL_SEGS = PLUMB_BRIEF_PLOTTED * PLUMB_BRIEF_CURVE + PLUMB_MAX_VERDICTS
  * every line is numbered instead and the labels go to a key below. */
 #define LABEL_NEAR 3.0
 #define KEY_FONT 7.5       /* the lines' numbers, pt */
+/* The numbers of a key go right of the frame, where no curve runs: each in
+ * a box that its own line, drawn on past the frame, runs into. */
+#define KEY_GAP 2.0        /* between the frame and the first box, and between boxes, pt */
+#define KEY_SHIFT 3.5      /* a box's centre at most this far above or below its line, pt */
+#define KEY_SLOTS 6        /* boxes side by side at most */
 
 typedef struct label_obstacles {
     size_t n_segs, n_boxes;
@@ -336,6 +341,62 @@ static void place_label(const label_obstacles *o, const sheet_axes *a, int owner
     }
 }
 
+/* Where the numbers of the lines at py[0..n-1] (page y, any order) go:
+ * each box nh tall, its centre ky[i] within KEY_SHIFT of its line and
+ * at least 1 pt of it above and below the line, so that the line ends
+ * in it; its slot ks[i], 0 next to the frame. From the top line down,
+ * each takes the first slot, nearest its line, where its box touches
+ * no other box, no other line runs through it and its own line runs
+ * through no other box on its way from the frame; where there is no such
+ * place (lines a point or two apart), the one that breaks these least,
+ * a box over a box last of all. Returns the slots used. Can't fail. */
+static int key_layout(const double *py, size_t n, double nh, double ymin, double ymax,
+                      double *ky, int *ks)
+{
+    size_t ord[PLUMB_MAX_VERDICTS];
+    for (size_t i = 0; i < n; i++)
+        ord[i] = i;
+    for (size_t i = 1; i < n; i++) /* the top line first */
+        for (size_t j = i; j > 0 && py[ord[j]] < py[ord[j - 1]]; j--) {
+            size_t t = ord[j];
+            ord[j] = ord[j - 1];
+            ord[j - 1] = t;
+        }
+    int used = 0;
+    for (size_t i = 0; i < n; i++) {
+        size_t q = ord[i];
+        double best = HUGE_VAL;
+        ky[q] = py[q];
+        ks[q] = 0;
+        for (int s = 0; s < KEY_SLOTS && best > 0.0; s++)
+            for (int k = 0; k <= (int)(4.0 * KEY_SHIFT) && best > 0.0; k++) {
+                /* 0, +0.5, -0.5, +1, ... pt from the line */
+                double cy = py[q] + (k % 2 ? 0.5 : -0.5) * (double)((k + 1) / 2);
+                cy = fmin(fmax(cy, ymin + nh / 2.0), ymax - nh / 2.0);
+                if (fabs(cy - py[q]) > nh / 2.0 - 1.0)
+                    continue;
+                double bad = 0.0;
+                for (size_t j = 0; j < i; j++) {
+                    size_t p = ord[j];
+                    if (ks[p] == s) /* a number over a number: far the worst */
+                        bad += 100.0 * fmax(0.0, nh + 1.0 - fabs(ky[p] - cy));
+                    else if (ks[p] > s) /* p's line runs past this box */
+                        bad += fmax(0.0, nh / 2.0 + 0.5 - fabs(py[p] - cy));
+                    else /* this line runs past p's box */
+                        bad += fmax(0.0, nh / 2.0 + 0.5 - fabs(py[q] - ky[p]));
+                }
+                if (bad < best) {
+                    best = bad;
+                    ky[q] = cy;
+                    ks[q] = s;
+                }
+            }
+        if (ks[q] + 1 > used)
+            used = ks[q] + 1;
+    }
+    return used;
+}
+
 double sheet_side_view(sheet_doc *d, const plumb_brief *b, double x, double y, double w, double h)
 {
     if (b->n_plots == 0)
@@ -446,6 +507,33 @@ static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y
         a.y1 = top <= dec ? dec : top <= 2.0 * dec ? 2.0 * dec : top <= 5.0 * dec ? 5.0 * dec
                                                                                : 10.0 * dec;
     }
+    size_t byy[PLUMB_MAX_VERDICTS];
+    for (size_t k = 0; k < b->n_criteria; k++)
+        byy[k] = k;
+    for (size_t k = 1; k < b->n_criteria; k++) /* by limit, lowest first */
+        for (size_t j = k; j > 0 && b->criteria[byy[j]]->energy_limit_j <
+                                        b->criteria[byy[j - 1]]->energy_limit_j; j--) {
+            size_t t = byy[j];
+            byy[j] = byy[j - 1];
+            byy[j - 1] = t;
+        }
+    /* numbered lines: their numbers right of the frame, which gives up
+     * the room they take (the heights of the lines do not change) */
+    char kfont[64];
+    snprintf(kfont, sizeof kfont, "%s Bold %.1f", SHEET_FONT, KEY_FONT);
+    double key_y[PLUMB_MAX_VERDICTS], key_w = 0.0, key_h = KEY_FONT + 1.5;
+    int key_slot[PLUMB_MAX_VERDICTS];
+    if (key && b->n_criteria > 0) {
+        double py[PLUMB_MAX_VERDICTS];
+        for (size_t q = 0; q < b->n_criteria; q++)
+            py[q] = sheet_ax_y(&a, b->criteria[byy[q]]->energy_limit_j * es);
+        /* as wide as the widest number: the highest, which has the most
+         * digits, and every digit of DejaVu Sans is as wide as another */
+        key_w = sheet_text_width(d, kfont, sheet_fmt(d, "%zu", b->n_criteria)) + 3.0;
+        int slots = key_layout(py, b->n_criteria, key_h, a.y - AX_TOP + 1.0, a.y + a.h + TICK,
+                               key_y, key_slot);
+        a.w -= KEY_GAP + (double)slots * (key_w + KEY_GAP);
+    }
     sheet_draw_axes(d, &a, sheet_fmt(d, "drop height above the strike level, %s", lu),
                     sheet_fmt(d, "impact energy, %s%s", eu, ylog ? " (logarithmic scale)" : ""));
     char font[64], bold[64];
@@ -504,22 +592,15 @@ static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y
     /* each criterion: a horizontal line with its name and where it is
      * reached, from the lowest line up */
     double mark_x[PLUMB_MAX_VERDICTS], mark_y[PLUMB_MAX_VERDICTS];
-    size_t n_marks = 0, byy[PLUMB_MAX_VERDICTS];
+    size_t n_marks = 0;
     char where[PLUMB_MAX_VERDICTS][FMT_LEN / 8];
-    for (size_t k = 0; k < b->n_criteria; k++)
-        byy[k] = k;
-    for (size_t k = 1; k < b->n_criteria; k++) /* by limit, lowest first */
-        for (size_t j = k; j > 0 && b->criteria[byy[j]]->energy_limit_j <
-                                        b->criteria[byy[j - 1]]->energy_limit_j; j--) {
-            size_t t = byy[j];
-            byy[j] = byy[j - 1];
-            byy[j - 1] = t;
-        }
     for (size_t q = 0; q < b->n_criteria; q++) { /* every line first, then the words */
         const plumb_criterion *c = b->criteria[byy[q]];
         double py = sheet_ax_y(&a, c->energy_limit_j * es);
         cairo_move_to(d->cr, a.x, py);
-        cairo_line_to(d->cr, a.x + a.w, py);
+        /* numbered: on past the frame into its number's box */
+        cairo_line_to(d->cr, key ? a.x + a.w + KEY_GAP + (double)key_slot[q] * (key_w + KEY_GAP)
+                                 : a.x + a.w, py);
         sheet_stroke(d, SHEET_DASHED, 0.8);
         add_seg(&ob, a.x, py, a.x + a.w, py, COST_LINE, (int)q);
         where[q][0] = '\0';
@@ -647,30 +728,19 @@ static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y
         if (gap > LABEL_NEAR || lc_[q] >= COST_PLANNED)
             *want_key = 1;
     }
-    /* numbered lines: each number on its own line, as far right as it is
-     * clear of the curves, the circles and the other numbers */
-    char kfont[64];
-    snprintf(kfont, sizeof kfont, "%s Bold %.1f", SHEET_FONT, KEY_FONT);
+    /* numbered lines: each number right of the frame, in a box its line
+     * runs into (key_layout) */
     for (size_t q = 0; key && q < b->n_criteria; q++) {
         const char *num_s = sheet_fmt(d, "%zu", b->n_criteria - q); /* 1: the highest line */
-        double nw = sheet_text_width(d, kfont, num_s) + 2.0, nh = KEY_FONT + 1.5;
-        double py = line_y[q], ny = py - nh / 2.0, bx = a.x + a.w - nw - 2.0, bc = HUGE_VAL;
-        for (double cx = a.x + a.w - nw - 2.0; cx >= a.x + 2.0; cx -= 2.0) {
-            double c = label_cost(&ob, (int)q, cx, ny, cx + nw, ny + nh, py) +
-                       0.5 * (a.x + a.w - nw - 2.0 - cx);
-            if (c < bc) {
-                bc = c;
-                bx = cx;
-            }
-        }
-        add_box(&ob, bx, ny, bx + nw, ny + nh, COST_LABEL);
+        double bx = a.x + a.w + KEY_GAP + (double)key_slot[q] * (key_w + KEY_GAP);
+        double ny = key_y[q] - key_h / 2.0;
         cairo_set_source_rgb(d->cr, 1, 1, 1);
-        cairo_rectangle(d->cr, bx, ny, nw, nh);
+        cairo_rectangle(d->cr, bx, ny, key_w, key_h);
         cairo_fill(d->cr);
         cairo_set_source_rgb(d->cr, 0, 0, 0);
-        cairo_rectangle(d->cr, bx, ny, nw, nh);
+        cairo_rectangle(d->cr, bx, ny, key_w, key_h);
         sheet_stroke(d, SHEET_SOLID, 0.5);
-        sheet_text_at(d, bx + 1.0, ny + (nh - KEY_FONT * 1.25) / 2.0, 0, kfont, num_s);
+        sheet_text_at(d, bx + key_w / 2.0, ny + (key_h - KEY_FONT * 1.25) / 2.0, 2, kfont, num_s);
     }
     for (size_t q = 0; !key && q < b->n_criteria; q++) {
         double tx = lx_[q], ty = ly_[q], w_ = tw[q][lv_[q]], lh = th[q][lv_[q]], py = line_y[q];
@@ -717,7 +787,7 @@ static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y
                                plumbp_t_energy(P, it->result.energy_j), plumbp_t_len(P, hp)));
     }
     ly += legend(d, x, ly, w, SHEET_DASHED, 0.8,
-                 key ? "each criterion's energy limit, numbered at the line and named below; "
+                 key ? "each criterion's energy limit, numbered at its right end and named below; "
                        "a circle where the first curve reaches it (plumb limit --find "
                        "release.height)"
                      : "each criterion's energy limit, named on the line; a circle where the "

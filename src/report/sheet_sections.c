@@ -292,20 +292,32 @@ static void zone_answer(sheet_doc *d, const plumb_brief *b)
                              plumbp_t_bearing(P, s->bearing_deg), plumbp_t_len(P, hypot(dx, dy)),
                              beside(d, plumbp_t_len(S, hypot(dx, dy))),
                              plumbp_t_bearing(P, atan2(dx, dy) * DEG_PER_RAD)));
-    if (z->has_target)
+    if (z->has_target) {
+        /* the point, then the same point in the other system beside it,
+         * as every other length of this section */
+        char other[FMT_LEN];
+        snprintf(other, sizeof other, "%s",
+                 beside(d, sheet_fmt(d, "%s, %s",
+                                     plumbp_t_offset(S, z->target_m[0], "east", "west"),
+                                     plumbp_t_offset(S, z->target_m[1], "north", "south"))));
         sheet_para(d, font,
-                   sheet_fmt(d, "Released to land on the target (%s, %s): keep clear %s %s "
+                   sheet_fmt(d, "Released to land on the target at %s, %s %s: keep clear %s %s "
                                 "around the target.",
                              plumbp_t_offset(P, z->target_m[0], "east", "west"),
-                             plumbp_t_offset(P, z->target_m[1], "north", "south"),
+                             plumbp_t_offset(P, z->target_m[1], "north", "south"), other,
                              plumbp_t_clear(P, plumbp_t_len, z->at_target.clearance_radius_m),
                              beside(d, plumbp_t_clear(S, plumbp_t_len, z->at_target.clearance_radius_m))));
+    }
 }
 
 /* The verdict table's columns, fractions of the width, and its header
  * row: drawn again at the top of every page the table goes on to, its
- * first cell marked "(continued)" there. */
-static const double verdict_cx[5] = {0.0, 0.38, 0.58, 0.77, 0.86};
+ * first cell marked "(continued)" there. The energy and the limit each on
+ * two lines, the figure in the other unit system under the sheet's own;
+ * the verdict as wide as its two lines, "exceeds (nominal)" and, whole,
+ * "N % of samples above" (about 112 pt for a wide share, "0.0012 %", in
+ * 8-pt DejaVu Sans; the column is 117 pt on A4). */
+static const double verdict_cx[5] = {0.0, 0.38, 0.53, 0.68, 0.77};
 
 static void verdict_header(sheet_doc *d, const char *bold, int continued)
 {
@@ -358,18 +370,27 @@ static void verdict_table(sheet_doc *d, const plumb_brief *b, const plumb_item_r
          * the zone's samples above the same limit, so that a nominal
          * "within" is never the only verdict read */
         const plumb_zone_exceedance *x = zone_share(b, b->order[0], v->criterion);
-        char share[FMT_LEN] = "";
+        char share[FMT_LEN] = "", verdict[FMT_LEN], limit[FMT_LEN];
         if (x)
             snprintf(share, sizeof share, "%s",
-                     sheet_fmt(d, "(nominal) %s of samples above", plumbp_t_pct(P, x->probability)));
+                     sheet_fmt(d, "%s of samples above", plumbp_t_pct(P, x->probability)));
+        /* "(nominal)" beside the verdict it qualifies, in the share's size */
+        snprintf(verdict, sizeof verdict, "%s",
+                 sheet_fmt(d, "\x02%s%s%s%s", v->exceeds ? "<b>exceeds</b>" : "within",
+                           x ? " <span size=\"" : "",
+                           x ? sheet_fmt(d, "%d", (int)(SHEET_SMALL * PANGO_SCALE)) : "",
+                           x ? "\">(nominal)</span>" : ""));
+        snprintf(limit, sizeof limit, "%s",
+                 sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)));
         double vw = (1.0 - cx[4]) * w;
         double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
         double h2 = sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
                                energy, 0);
-        double hv = sheet_text(d, d->left + cx[4] * w, d->y, vw, font, "within", 0);
+        double h3 = sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font,
+                               limit, 0);
+        double hv = sheet_text(d, d->left + cx[4] * w, d->y, vw, font, verdict, 0);
         double hs = share[0] ? sheet_text(d, d->left + cx[4] * w, d->y, vw, small, share, 0) : 0.0;
-        if (h2 > h)
-            h = h2;
+        h = fmax(h, fmax(h2, h3));
         if (hv + hs > h)
             h = hv + hs;
         if (d->y + h > d->bottom) {
@@ -378,12 +399,10 @@ static void verdict_table(sheet_doc *d, const plumb_brief *b, const plumb_item_r
         }
         sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 1);
         sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font, energy, 1);
-        sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font,
-                   sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)), 1);
+        sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font, limit, 1);
         sheet_text(d, d->left + cx[3] * w, d->y, 0.0, font,
                    sheet_fmt(d, "%s", num(P, v->ratio, RATIO_SIG)), 1);
-        sheet_text(d, d->left + cx[4] * w, d->y, 0.0, v->exceeds ? bold : font,
-                   v->exceeds ? "exceeds" : "within", 1);
+        sheet_text(d, d->left + cx[4] * w, d->y, vw, font, verdict, 1);
         if (share[0])
             sheet_text(d, d->left + cx[4] * w, d->y + hv, vw, small, share, 1);
         d->y += h + 2.0;

@@ -26,7 +26,9 @@ which wrote it):
   another label (pdftotext -bbox-layout), with two and with eight criteria;
   with eight criteria every limit's label sits within 6 pt of its own line
   (the line's height from the axis's tick labels and the limit's energy),
-  or the line carries a number within 6 pt and the key below names it.
+  or the line carries a number within 6 pt and the key below names it;
+  with four flat curves running along the lines (items thrown down at
+  their terminal speed), every number's box is clear of every curve.
 - the descent devices: each as understood in the inputs (keyed descent[i]
   or items[N].descent[i], in deployment order) and what the fall made of
   it in section 2 (a kit: its table's section), SI and --units us, as
@@ -428,6 +430,38 @@ def limit_labels_near(pdf, ids, near=6.0, us=False):
     return 0, 0, ["no energy plot found"]
 
 
+def verdict_cells(pdf):
+    """The verdict table's cells that carry the zone's share (pdftotext
+    -bbox words): the verdict with "(nominal)" right of it on
+    its line, then "N % of samples above" whole on the one line under it,
+    from the verdict's left edge. The note took three lines of a narrow
+    column ("(nominal) 100 %" / "of samples" / "above"). Returns (cells
+    found, problems)."""
+    cells, bad = 0, []
+    html = tool("pdftotext", "-bbox", pdf, "-")
+    for n, page in enumerate(re.findall(r"<page [^>]*>(.*?)</page>", html, re.S), 1):
+        ws = [([float(m.group(i)) for i in range(1, 5)], unescape(m.group(5)))
+              for m in re.finditer(r'<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" '
+                                   r'yMax="([\d.]+)">(.*?)</word>', page)]
+        for i, (b, t) in enumerate(ws):
+            if t != "(nominal)":
+                continue
+            cells += 1
+            vb, vt = ws[i - 1]
+            share = ws[i + 1:i + 6]
+            one_line = (vt in ("exceeds", "within") and vb[2] < b[0] and
+                        vb[1] < (b[1] + b[3]) / 2 < vb[3])
+            whole = (len(share) == 5 and re.fullmatch(r"[\d.]+", share[0][1]) is not None and
+                     [x for _, x in share[1:]] == ["%", "of", "samples", "above"] and
+                     all(abs(sb[1] - share[0][0][1]) < 0.5 for sb, _ in share) and
+                     abs(share[0][0][0] - vb[0]) < 1.0 and vb[3] - 1.0 < share[0][0][1] < vb[3] + 4.0)
+            if not (one_line and whole):
+                bad.append(f"page {n}: {vt} {t} then {[x for _, x in share]}: "
+                           f"(nominal) beside the verdict {one_line}, the share on one line under "
+                           f"it {whole}")
+    return cells, bad
+
+
 def no_leftovers(d, keep=()):
     return sorted(set(os.listdir(d)) - set(keep)) == []
 
@@ -465,6 +499,10 @@ r_drop = sig4_up(z["clearance_radius_m"]) + " m"
 r_target = sig4_up(z["target"]["clearance_radius_m"]) + " m"
 check(r_drop in p1, f"page 1 has the clearance radius {r_drop} of plumb zone")
 check(r_target in p1, f"page 1 has the clearance radius around the target {r_target}")
+# each criterion's row: "exceeds (nominal)" / "100 % of samples above",
+# two lines (the drone's two criteria, A4, SI)
+cells, bad = verdict_cells(pdf)
+check(cells == 2 and not bad, f"A4, SI: each verdict's note on two lines: {cells} cells, {bad}")
 r_land = sig4_up(z["landing"]["circle"]["clearance_radius_m"]) + " m"
 check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
 check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
@@ -547,6 +585,8 @@ for rep, sheet_text, what in ((fall_us, tu, "US"), (fall_si, text, "SI")):
           f"{wm.group(0) if wm else '(none found in plumb fall)'}")
 check("the way the wind blows" in tu and not re.search(r"wind blows, [\d.]+ ft/s", tu),
       "US: the wind arrow is not in ft/s")
+cells, bad = verdict_cells(pdf_us)
+check(cells == 2 and not bad, f"letter, US: each verdict's note on two lines: {cells} cells, {bad}")
 check(not bbox_outside(pdf_us), "letter: no text outside the margins")
 n, bad = grey_margins_blank(pdf_us)
 check(not bad, f"letter: margins blank in grey, not on {bad}")
@@ -843,9 +883,10 @@ def words_overlap(pdf):
     return bad
 
 
-def page_rects(pdf, page):
+def page_rects(pdf, page, ops="S"):
     """The stroked rectangles of one page, as (x0, y0, x1, y1) from the top
-    left: "x y w h re" then "S" in its content stream (see page_paths)."""
+    left: "x y w h re" then "S" in its content stream (see page_paths); with
+    ops="SB" those filled and stroked at once ("B") too."""
     one = os.path.join(tmp, "page.pdf")
     subprocess.run(["pdfseparate", "-f", str(page), "-l", str(page), pdf, one], check=True)
     with open(one, "rb") as f:
@@ -857,7 +898,7 @@ def page_rects(pdf, page):
             body = zlib.decompress(m.group(1)).decode("latin-1")
         except zlib.error:
             continue
-        for r in re.finditer(r"(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re\s+S\b", body):
+        for r in re.finditer(r"(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re\s+[" + ops + r"]\b", body):
             x, y, w, h = (float(r.group(i)) for i in range(1, 5))
             out.append((x, y, x + w, y + h))
     return out
@@ -1309,6 +1350,30 @@ check(rc == 0 and me is not None and all(agrees(me.group(i), me.group(i + 1)) fo
 mc = re.search(r"of their centre, ([\d.]+ ft) \[([\d.]+ m)\] toward", et)
 check(mc is not None and agrees(mc.group(1), mc.group(2)),
       f"drone, us: the landing circle's offset in ft with m beside: {mc.groups() if mc else None}")
+# The target's position had no second unit ("Released to land on the
+# target (20.00 m west, 0 m north)"): it now has the other system's beside
+# it, as every length of section 2, US in parentheses after SI and SI in
+# brackets after US. The sheet's own figures are zone.target's (the zone's
+# JSON target_m, to 4 significant digits), the others agree with them
+# through the international foot (agrees).
+_, tj, _ = plumb("zone", DRONE, "--samples", "500", "--format", "json")
+tgt = json.loads(tj)["zone"]["target"]["target_m"]
+want = [sig4(abs(v)) for v in tgt]
+for sheet_words, o, c, u1, u2 in ((" ".join(pages_text(pdf)), r"\(", r"\)", "m", "ft"),
+                                  (et, r"\[", r"\]", "ft", "m")):
+    mt = re.search(r"Released to land on the target at ([\d.]+ " + u1 + r") (east|west), ([\d.]+ " + u1
+                   + r") (north|south) " + o + r"([\d.]+ " + u2 + r") (east|west), ([\d.]+ " + u2
+                   + r") (north|south)" + c + r": keep clear", sheet_words)
+    g = mt.groups() if mt else None
+    ok = mt is not None and g[1] == g[5] and g[3] == g[7]
+    if ok:
+        if u1 == "m":
+            ok = [g[0].split()[0], g[2].split()[0]] == want and agrees(g[4], g[0]) and agrees(g[6], g[2])
+        else:
+            ok = [g[4].split()[0], g[6].split()[0]] == want and agrees(g[0], g[4]) and agrees(g[2], g[6])
+        ok = ok and g[1] == ("west" if tgt[0] < 0 else "east") and g[3] == ("south" if tgt[1] < 0 else "north")
+    check(ok, f"drone, {u1} first: the target's position with {u2} beside it, "
+              f"{want} m from zone.target: {g}")
 if os.path.exists(pdf_e):
     os.remove(pdf_e)
 
@@ -1401,13 +1466,18 @@ rc, _, err = run("sheet", long16, "-o", pdf16, env={"PLUMB_CRITERIA_DIR": crit16
 check(rc == 0, f"16 criteria: exit {rc}: {err}")
 if rc == 0:
     check_pages(pdf16, "16 criteria")
-    row = re.compile(r"(\d+\.\d+) J \([\d.]+ ft·lbf\)\s+(\d+\.\d+) J\s+[\d.]+\s+(?:exceeds|within)\s*$")
+    # a row: its energy and limit in J, ratio and verdict, then the line
+    # under it with each in ft·lbf (each cell on two lines)
+    row = re.compile(r"(\d+\.\d+) J\s+(\d+\.\d+) J\s+[\d.]+\s+(?:exceeds|within)\s*$")
+    row_us = re.compile(r"^\[t\d\d-limit\]\s+\([\d.]+ ft·lbf\)\s+\([\d.]+ ft·lbf\)$")
     head = re.compile(r"^Criterion( \(continued\))?\s+Energy\s+Limit\s+Ratio\s+Verdict\s*$")
     limits, table_pages, bad = [], [], []
     src_pages = []
     for n, pg in enumerate(tool("pdftotext", "-layout", pdf16, "-").split("\f"), 1):
         lines = [ln.strip() for ln in pg.splitlines() if ln.strip()]
         rows = [i for i, ln in enumerate(lines) if row.search(ln)]
+        bad += [f"page {n}: no ft·lbf figures under {lines[i]!r}" for i in rows
+                if i + 1 >= len(lines) or not row_us.match(lines[i + 1])]
         heads = [i for i, ln in enumerate(lines) if head.match(ln)]
         if rows:
             table_pages.append(n)
@@ -1448,6 +1518,77 @@ if rc == 0:
           and "descent[1], parachute: opens;" in cut,
           f"sheet: the drogue cut away part-filled, not 'opens': {cut[:4000]}")
     os.remove(cut_pdf)
+
+
+def key_numbers_over_curves(pdf):
+    """The numbers of the limits' lines on the energy plot when a key names
+    them: each figure (pdftotext -bbox) inside a small box, white and
+    outlined (the page's "re ... B", page_rects). A curve (a polyline of more than 5
+    points, most of it between the plot's heading and its x axis's title,
+    page_paths) that crosses a number's box is hidden under it.
+    Returns (numbers found, curves found, clashes)."""
+    for n, ws in enumerate(page_words(pdf), 1):
+        flat = [t for _, t in ws]
+        try:
+            i = next(i for i in range(len(flat)) if flat[i:i + 3] == ["Impact", "energy", "against"])
+            j = next(j for j in range(i, len(flat)) if flat[j:j + 4] == ["drop", "height", "above", "the"])
+        except StopIteration:
+            continue
+        top, bottom = ws[i][0][3], ws[j][0][1]
+        boxes = [r for r in page_rects(pdf, n, "SB") if r[2] - r[0] < 20 and 6 < r[3] - r[1] < 12
+                 and top < r[1] < bottom]
+        numbers = [(r, t) for r in boxes for b, t in ws if re.fullmatch(r"\d+", t)
+                   and r[0] <= (b[0] + b[2]) / 2 <= r[2] and r[1] <= (b[1] + b[3]) / 2 <= r[3]]
+        curves = [p for p in page_paths(pdf, n) if len(p) > 5 and
+                  sum(top < y < bottom for _, y in p) > len(p) / 2]
+        clashes = [f"number {t} at {tuple(round(v, 1) for v in r)} over a curve" for r, t in numbers
+                   if any(seg_in_box(c[k], c[k + 1], r) for c in curves for k in range(len(c) - 1))]
+        return len(numbers), len(curves), clashes
+    return 0, 0, ["no energy plot found"]
+
+
+# ---- numbered limit lines where flat curves run along them --------------------
+# Four items thrown down at 12 m/s, each at its own terminal speed, so
+# that its energy is the same from every height (1/2 m v^2: a flat curve)
+# and runs along or between the lines of the eight criteria: at 30.00 J
+# between en397-penetration-29j (29.4 J) and z89-type2-30j (30.6 J), on
+# us-part107-cat3 (33.89 J), at 51.50 J between en397-shock-49j and
+# z89-type1-54j, at 79.30 J between ddesb-fragment-58ftlbf (78.63 J) and
+# eu-c1-80j. Each item's m = 2 E / v^2 and CdA = 2 m g / (rho v^2), with
+# rho = 1.225 kg/m^3, the sea-level density of the U.S. Standard Atmosphere
+# 1976 (the curves need only run near the lines). The labels cannot sit
+# beside their lines, so the lines are numbered; each number sat in a box
+# on its own line, over the curve that runs along it, and hid it. Every
+# number must be clear of every curve, within 6 pt of its line, and named
+# in the key.
+flatp = os.path.join(tmp, "flat.yaml")
+with open(flatp, "w") as f:
+    f.write("name: flat curves\nitems:\n")
+    for nm, e_j in (("sandbag", 30.0), ("tarp bundle", 51.5), ("hard hat", 33.89),
+                    ("rope bag", 79.3)):
+        kg = 2.0 * e_j / 12.0 ** 2
+        f.write(f"  - name: {nm}\n    mass: {kg:.4f} kg\n"
+                f"    drag: {{cd: 1.0, area: {2.0 * kg * 9.81 / (1.225 * 12.0 ** 2):.5f} m^2}}\n")
+    f.write("release: {height: 25 m, velocity: {east: 0 m/s, north: 0 m/s, up: -12 m/s}}\n"
+            "criteria: [" + ", ".join(ids8) + "]\n")
+for units in ("si", "us"):
+    pdf_flat = os.path.join(tmp, f"flat-{units}.pdf")
+    rc, _, err = run("sheet", flatp, "-o", pdf_flat, "--units", units)
+    check(rc == 0, f"flat curves, {units}: exit {rc}: {err}")
+    if rc != 0:
+        continue
+    nn, nc, clash = key_numbers_over_curves(pdf_flat)
+    check(nn == 8 and nc == 4 and not clash,
+          f"flat curves, {units}: {nn} numbered lines, {nc} curves, every number clear of them: {clash}")
+    near, keyed, far = limit_labels_near(pdf_flat, ids8, us=units == "us")
+    check(keyed == 8 and not far,
+          f"flat curves, {units}: each line's number within 6 pt of it and named in the key: "
+          f"{near} beside, {keyed} keyed, {far}")
+    nl, nc, clash = energy_plot_clash(pdf_flat)
+    check(nc == 4 and not clash, f"flat curves, {units}: no label over a curve or a label: {clash}")
+    check_pages(pdf_flat, f"flat curves, {units}")
+    os.remove(pdf_flat)
+os.remove(flatp)
 
 os.remove(pdf)
 shutil.rmtree(tmp)
