@@ -387,6 +387,7 @@ void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_ope
         *lo = PLUMB_AIR_TEMPERATURE_MIN_K;
         *hi = PLUMB_AIR_TEMPERATURE_MAX_K;
         break;
+    case PLUMBY_R_MASS: *lo = 0.0; *hi = PLUMB_MASS_MAX_KG; *lo_open = 1; break;
     }
 }
 
@@ -441,6 +442,11 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
                  "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u,
                  PLUMB_AIR_TEMPERATURE_MIN_K - PLUMB_CELSIUS_ZERO_K,
                  PLUMB_AIR_TEMPERATURE_MAX_K - PLUMB_CELSIUS_ZERO_K);
+        break;
+    case PLUMBY_R_MASS:
+        snprintf(buf, size,
+                 "> 0%s and <= %g%s (%g t: five times the heaviest single lift yet made)", u,
+                 PLUMB_MASS_MAX_KG, u, PLUMB_MASS_MAX_KG / 1000.0);
         break;
     }
     return buf;

@@ -212,5 +212,40 @@ refused "--temperature-offset 360 degF" \
   "plumb: <command line>: --temperature-offset: '360 degF': 200 K is out of range" \
   -- air --temperature-offset "360 degF"
 
+# ---- 7. a mass beyond any lift ----------------------------------------------------
+# payload.mass (an item's, the downwash's aircraft_mass) is at most 1e8 kg
+# (README.md "Profile keys"): 1e308 lb (4.5e307 kg) passed the old "> 0"
+# and failed only in the fall, exit 3. It is an input error at its line
+# and column, naming the key and the range; in US units too: 1e8 kg is
+# 220462262.2 lb (NIST SP 811, 2008, B.8: 1 lb = 0.45359237 kg exactly),
+# shown rounded inward, 2.20462e+08 lb.
+printf 'name: huge
+payload:
+  mass: 1e308 lb
+  drag: {cd: 0.9, area: 0.0113 m^2}
+release: {height: 31.6 m}
+' \
+  >"$tmp/huge.yaml"
+refused "a mass of 1e308 lb" "plumb: $tmp/huge.yaml:3:9: payload.mass: must be > 0 kg and <= 1e+08 kg" \
+  "found '1e308 lb'" -- fall "$tmp/huge.yaml"
+refused "a mass just above 1e8 kg" "plumb: --set:1:14: payload.mass: must be > 0 kg and <= 1e+08 kg" \
+  -- fall "$tmp/huge.yaml" --set "payload.mass=100000001 kg"
+refused "an item's mass of 2e8 kg" "plumb: --set:1:15: items[2].mass: must be > 0 kg and <= 1e+08 kg" \
+  -- fall "$inv" --set "items[2].mass=2e8 kg"
+refused "an aircraft of 1e9 kg" "release.downwash.aircraft_mass: must be > 0 kg and <= 1e+08 kg" \
+  -- fall "$good" --set "release.downwash={aircraft_mass: 1e9 kg, disk_area: 1.2 m^2}"
+"$bin" lint --units us "$tmp/huge.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+if grep -q -F "[US: > 0 lb and <= 2.20462e+08 lb]" "$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "lint --units us: the mass's range in pounds: $(cat "$tmp/stderr")"
+fi
+# the bound itself is a mass like any other: 1e8 kg falls
+if "$bin" fall "$tmp/huge.yaml" --set "payload.mass=1e8 kg" >"$tmp/stdout" 2>"$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "a mass of 1e8 kg is refused: $(cat "$tmp/stderr")"
+fi
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
