@@ -663,11 +663,15 @@ static int follows_from_stand_in(lint_run *r, const plumb_diag *d)
     return 0;
 }
 
-/* 1 when error d is about a map or list that holds a part left out. */
+/* 1 when error d is about a map or list that holds a part left out, or
+ * a value stood in: what it says of the whole follows from the stand-in
+ * (an air table "spans 100 m .. 1000 m" once its refused second altitude,
+ * 0 m, is stood in as 1000 m), not from the file. */
 static int holds_left_out(const lint_run *r, const plumb_diag *d)
 {
     for (size_t i = 0; i < r->n_ed; i++)
-        if (r->ed[i].kind == ED_REMOVE && key_holds(d->key, r->ed[i].key))
+        if ((r->ed[i].kind == ED_REMOVE || r->ed[i].kind == ED_STAND) &&
+            key_holds(d->key, r->ed[i].key))
             return 1;
     return 0;
 }

@@ -101,6 +101,52 @@ printf 'name: kit\nitems:\n  - name: a\n    mass: 1 kg\n    drag: {cd: 0.9, area
 refused "fall of an inventory's three errors" "kit.yaml:6:38: items[2].drag.cd: " \
   -- fall "$tmp/kit.yaml"
 
+# a required key missing (payload.mass, the payload map at line 3) and a
+# value refused against another key (a deploy height at line 8 not below
+# the release height of line 10) are told before a roughness refused
+# against its reference height (line 15): the loader meets the wind
+# before the payload and the descent, but the error told is the first in
+# file order, lint's first (a roughness length must be below the height
+# of the log law's reference speed: the law is for heights above it; a
+# deploy height must be below the release)
+printf 'name: missing\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\nwind:\n  profile: log\n  speed: 5 m/s\n  reference_height: 10 m\n  roughness: 20 m\n' \
+  >"$tmp/missing.yaml"
+refused "a missing mass before a refused roughness" \
+  "plumb: $tmp/missing.yaml:3:3: payload.mass: required key 'mass' is missing" \
+  "!wind.roughness" -- fall "$tmp/missing.yaml"
+refused "the same with an unrelated --set" ":3:3: payload.mass: required key 'mass' is missing" \
+  -- fall "$tmp/missing.yaml" --set "wind.speed=3.7 m/s"
+stdin=$tmp/missing.yaml
+refused "the same from standard input" "plumb: <stdin>:3:3: payload.mass: " -- fall -
+stdin=
+refused "sweep of the same" "missing.yaml:3:3: payload.mass: " \
+  -- sweep "$tmp/missing.yaml" --vary "release.height=10m:20m:5m"
+refused "limit of the same" "missing.yaml:3:3: payload.mass: " \
+  -- limit "$tmp/missing.yaml" --find release.height --energy-max 40J
+refused "zone of the same" "missing.yaml:3:3: payload.mass: " -- zone "$tmp/missing.yaml"
+printf 'name: cross\npayload:\n  mass: 2.385 kg\n  drag: {cd: 0.9, area: 0.0113 m^2}\ndescent:\n  cd: 0.8\n  area: 1.2 m^2\n  deploy: {below: 60 m}\nrelease:\n  height: 31.6 m\nwind:\n  profile: log\n  speed: 5 m/s\n  reference_height: 10 m\n  roughness: 20 m\n' \
+  >"$tmp/cross.yaml"
+refused "a refused deploy height before a refused roughness" \
+  "plumb: $tmp/cross.yaml:8:19: descent.deploy.below: must be below the release height" \
+  "!wind.roughness" -- fall "$tmp/cross.yaml"
+# a required key missing (line 3) before a number out of range (line 7,
+# a wind of 400 m/s above the sea-level speed of sound, 340.294 m/s, U.S.
+# Standard Atmosphere 1976, Table I), which the schema's check meets first
+printf 'name: m2\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\nwind:\n  speed: 400 m/s\n' \
+  >"$tmp/m2.yaml"
+refused "a missing mass before a wind out of range" "m2.yaml:3:3: payload.mass: " "!wind.speed" \
+  -- fall "$tmp/m2.yaml"
+for f in missing cross m2; do
+  "$bin" lint "$tmp/$f.yaml" >"$tmp/lint.out" 2>"$tmp/lint.err"
+  "$bin" fall "$tmp/$f.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+  if [ "$(sed -n 1p "$tmp/lint.err")" = "$(cat "$tmp/stderr")" ] &&
+     [ "$(grep -c '^plumb: ' "$tmp/lint.err")" -eq 2 ]; then
+    pass=$((pass + 1))
+  else
+    bad "$f: fall's error is not lint's first of two: $(cat "$tmp/stderr") / $(cat "$tmp/lint.err")"
+  fi
+done
+
 # ---- 2. a suggestion the key accepts -----------------------------------------
 # atmosphere.temperature takes 150 K .. 400 K (README.md "Profile keys"): a
 # bare 45 is not offered as 45 K; 45 degC = 318.15 K and 45 degF = 280.372 K

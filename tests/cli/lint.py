@@ -156,7 +156,12 @@ check(rc == 2 and f"[US: 0 ft/s .. {hi:.2f} ft/s]" in err,
 lo_f, hi_f = 1.8 * 150 - 459.67, 1.8 * 400 - 459.67
 check(f"[US: {lo_f:.2f} °F .. {hi_f:.2f} °F]" in err,
       f"--units us: 150 K .. 400 K is {lo_f:.2f} .. {hi_f:.2f} degF: {err}")
-check("[US: > 0 lb]" in err and "payload.drag.cd: must be 0 .. 10 (0: drag-free), found '-0.2'\n"
+# a mass is > 0 kg and at most 1e8 kg (README.md "Profile keys"): 1e8 kg
+# is 220462262.2 lb (NIST SP 811, 2008, B.8: 1 lb = 0.45359237 kg exactly),
+# 6 figures toward the inside
+mass_hi = math.floor(1e8 / 0.45359237 / 1e3) * 1e3
+check(f"[US: > 0 lb and <= {mass_hi:.6g} lb]" in err and
+      "payload.drag.cd: must be 0 .. 10 (0: drag-free), found '-0.2'\n"
       in err, f"--units us: > 0 kg is > 0 lb; a bare number gets nothing: {err}")
 rc, out, _ = plumb("lint", *BAD, "--units", "us", "--format", "csv")
 check(rc == 2 and any(r["message"].endswith(f"[US: 0 ft/s .. {hi:.2f} ft/s]")
