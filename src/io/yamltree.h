@@ -208,7 +208,9 @@ plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line,
  * --set over a shape: lacks its cd); else all of them, so that of the
  * values a file gets wrong the first in file order is told, whatever
  * order the loader reads the keys in. Errors as plumby_num_node; an
- * unknown key or a value of the wrong kind is left to plumby_check. */
+ * unknown key or a value of the wrong kind is left to plumby_check, but
+ * with only_set a value a --set gave is checked by plumby_check as well
+ * (payload.drag=5: a --set of the wrong kind is its own error too). */
 plumb_status plumby_check_values(const plumby_ctx *ctx, const plumby_node *node,
                                  const plumby_schema *s, int only_set);
 

@@ -218,6 +218,37 @@ refused "two bad --set values: the first" "plumb: --set:1:14: payload.mass: " \
   -- fall "$tmp/shape.yaml" --set "payload.mass=heavy" --set "payload.drag.area=5 KG"
 refused "a bad --set value and a bad file" "plumb: --set:1:12: wind.speed: " \
   -- fall "$tmp/three.yaml" --set "wind.speed=9 KT"
+# a --set of the wrong kind is its own value too: told before the file's
+# errors, however early they stand (an unknown key at line 3, a drag of
+# the wrong kind at line 4, a mass out of range at line 3), as a --set's
+# unit or range is (README.md "Exit status": a --set's own value first)
+printf 'name: typo\npayload:\n  mas: 2.385 kg\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\n' \
+  >"$tmp/typo.yaml"
+printf 'name: kind\npayload:\n  mass: 2.385 kg\n  drag: 7\nrelease:\n  height: 31.6 m\nwind: {speed: 3 m/s}\n' \
+  >"$tmp/kind.yaml"
+refused "--set release=5 over an unknown key" "plumb: --set:1:9: release: expected a map" \
+  "!payload.mas" -- fall "$tmp/typo.yaml" --set "release=5"
+refused "--set wind.speed={a: 1} over a drag of the wrong kind" \
+  "plumb: --set:1:12: wind.speed: expected a speed" "!payload.drag" \
+  -- fall "$tmp/kind.yaml" --set "wind.speed={a: 1}"
+refused "--set wind=[1] over a drag of the wrong kind" "plumb: --set:1:6: wind: expected a map" \
+  -- fall "$tmp/kind.yaml" --set "wind=[1]"
+refused "--set payload.drag=5 over a mass out of range" "plumb: --set:1:14: payload.drag: expected a map" \
+  "!payload.mass" -- fall "$tmp/three.yaml" --set "payload.drag=5"
+refused "--set wind.profile=powr over an unknown key" "plumb: --set:1:14: wind.profile: " \
+  "did you mean 'power'" -- fall "$tmp/typo.yaml" --set "wind.profile=powr"
+# of two bad --set values, the first --set's, whatever the kind of either
+refused "a wrong kind after a wrong unit" "plumb: --set:1:12: wind.speed: " \
+  -- fall "$good" --set "wind.speed=9 KT" --set "payload.drag=5"
+refused "a wrong unit after a wrong kind" "plumb: --set:1:14: payload.drag: " \
+  -- fall "$good" --set "payload.drag=5" --set "wind.speed=9 KT"
+# lint tells the same first
+"$bin" lint "$tmp/typo.yaml" --set "release=5" >"$tmp/stdout" 2>"$tmp/stderr"
+if grep -q "^plumb: --set:1:9: release: expected a map" "$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "lint of a --set of the wrong kind: $(cat "$tmp/stderr")"
+fi
 
 # ---- 5. a range's count --------------------------------------------------------
 # 0 m to 1 m by 0.00001 m is 1/0.00001 + 1 = 100001 values: one more than
