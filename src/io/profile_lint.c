@@ -35,6 +35,12 @@
  *     choice of one attitude once the other was), or an uncertain input
  *     (uncertainty.descent.cd) of a top-level section left out: left out
  *     in turn;
+ *   - an error of another section whose message names a part left out
+ *     (release.position.latitude "needs the site's: site.latitude and
+ *     site.longitude" once site is): its map (release.position) is left
+ *     out in turn, so that the check goes on;
+ *   - an error about a list or map that holds a value stood in (an air
+ *     table's span once its refused altitude is stood in): left out;
  *   - a key missing under a map that was left out, or missing where a key
  *     of the same name was written one level too high, and an error at
  *     the place of a stand-in: the check cannot go on in that section, so
@@ -694,6 +700,67 @@ static int uncertain_in_left_out(const lint_run *r, const plumb_diag *d)
     return 0;
 }
 
+/* 1 when text names key as a key: the dotted key itself as a whole
+ * ("site.longitude"), or a key under it ("site.latitude" for "site"); a
+ * top-level name alone is a word of the text ("the site's"), not a key. */
+static int names_key(const char *text, const char *key)
+{
+    size_t n = strlen(key);
+    int dotted = strpbrk(key, ".[") != NULL;
+    for (const char *p = text; n > 0 && (p = strstr(p, key)) != NULL; p++) {
+        int before = p > text && (isalnum((unsigned char)p[-1]) || p[-1] == '_' || p[-1] == '.');
+        int after = isalnum((unsigned char)p[n]) || p[n] == '_';
+        if (!before && !after && (dotted || p[n] == '.' || p[n] == '['))
+            return 1;
+    }
+    return 0;
+}
+
+/* 1 when error d, about a key outside every part left out, follows from
+ * one left out: its message names it (release.position.latitude "needs
+ * the site's: site.latitude and site.longitude" once site, a list where
+ * a map belongs, is left out). Not an error of the file as written: with
+ * the part as the user meant it, it would not be made. */
+static int follows_from_left_out(const lint_run *r, const plumb_diag *d)
+{
+    for (size_t i = 0; i < r->n_ed; i++) {
+        const edit *e = &r->ed[i];
+        if (e->kind != ED_REMOVE || strcmp(e->key, d->key) == 0 || key_holds(e->key, d->key) ||
+            key_holds(d->key, e->key))
+            continue;
+        if (names_key(d->message, e->key))
+            return 1;
+    }
+    return 0;
+}
+
+/* Leaves out error d's key as a consequence (not listed): the map that
+ * holds it when that is below a top-level section (release.position for
+ * release.position.latitude: a point given by half of its keys is an
+ * error of its own), else the key. 1 done, 0 no room. */
+static int leave_out_consequence(lint_run *r, const plumb_diag *d)
+{
+    char parent[PLUMB_DIAG_KEY], grand[PLUMB_DIAG_KEY];
+    const char *last, *plast;
+    edit *e = new_edit(r, d, ED_REMOVE);
+    if (!e)
+        return 0;
+    if (split_key(d->key, parent, sizeof parent, &last) && strpbrk(parent, ".[") &&
+        split_key(parent, grand, sizeof grand, &plast)) {
+        plumby_node *t = edited(r, r->n_ed);
+        plumby_node *g = t ? node_at(t, grand) : NULL;
+        const plumby_pair *p = g && g->kind == PLUMBY_MAP ? plumby_find(g, plast) : NULL;
+        if (p) {
+            e->line = p->line;
+            e->col = p->col;
+            plumbp_strlcpy(e->key, parent, sizeof e->key);
+        }
+        plumby_free(t);
+    }
+    r->n_ed++;
+    return 1;
+}
+
 /* 1 when error d is at the place of a stand-in, or a key already listed. */
 static int no_progress(const lint_run *r, const plumb_diag *d, const plumb_diag *errs, size_t n)
 {
@@ -845,6 +912,12 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             if (!e)
                 break;
             r->n_ed++;
+            continue;
+        }
+        if (follows_from_left_out(r, &d)) {
+            /* a consequence in another section of a part left out */
+            if (!leave_out_consequence(r, &d))
+                break;
             continue;
         }
         errs[(*n)++] = d;

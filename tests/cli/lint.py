@@ -356,6 +356,49 @@ want = [place(DESC, "5}") + ("descent.deploy",),
 check(got == want, f"a deploy that is no map, then the wind and the id, not the cd's "
       f"uncertainty: {got} / {want}")
 
+# a site that is no map, left out after its error: a point given by
+# latitude and longitude (release.position, zone.target) then "needs the
+# site's: site.latitude and site.longitude", a consequence of the site
+# left out, not an error of the file: not listed; the check goes on past
+# it to the wind's roughness, refused against its reference height (the
+# log law holds above the roughness length, README.md "Profile keys":
+# roughness < reference_height)
+SITE = """name: site left out
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release:
+  height: 31.6 m
+  position: {latitude: 54.2001 deg, longitude: -2.6101 deg}
+site: [54.2 deg, -2.61 deg]
+zone:
+  samples: 1000
+  target: {latitude: 54.2002 deg, longitude: -2.6102 deg}
+wind: {profile: log, speed: 5 m/s, reference_height: 10 m, roughness: 20 m}
+"""
+site = write("site.yaml", SITE)
+got = [e[1:4] for e in lint_all(site, "a site left out")]
+want = [place(SITE, "[54.2 deg") + ("site",),
+        place(SITE, "20 m}") + ("wind.roughness",)]
+check(got == want, f"a site that is no map, then the wind's roughness, not the points that "
+      f"need the site: {got} / {want}")
+
+# an air table whose second altitude is refused (0 m after 100 m): the
+# stand-in that sets it aside gives the table a span the file does not
+# ("100 m .. 1000 m"), which is not listed: the altitude alone
+TAB = """name: table out of order
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 27.4 m}
+atmosphere:
+  model: table
+  table:
+    - {altitude: 100 m, density: 1.2 kg/m^3}
+    - {altitude: 0 m, density: 1.19 kg/m^3}
+"""
+tab = write("tab.yaml", TAB)
+errs = lint_all(tab, "an air table out of order")
+check([e[1:4] for e in errs] == [place(TAB, "0 m, density: 1.19") +
+                                 ("atmosphere.table[1].altitude",)],
+      f"a table out of order: the altitude alone, no span of a stand-in: {errs}")
+
 # items written but refused (an empty list, a map where a list of maps is
 # wanted): "payload" then missing only follows from setting items aside (a
 # profile has payload: or items:, README.md "plumb lint"), so it is not
