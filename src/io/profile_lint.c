@@ -23,7 +23,10 @@
  *     other stand-in is kept from then on, and the first is not tried
  *     again, so that the check cannot go back and forth;
  *   - a required key now missing because its value was left out: a
- *     numeric one gets a stand-in, else the check stops; "payload"
+ *     numeric one gets a stand-in, a map below a section an empty map
+ *     (descent.deploy: 5), whose required keys then get stand-ins in turn
+ *     (its section's other keys are still checked), else the check
+ *     stops; "payload"
  *     missing once "items" was left out (a profile has one of the two)
  *     gets a stand-in, so that the check goes on;
  *   - a required key now missing whose misspelt twin (the unknown key of
@@ -64,6 +67,9 @@
 /* Most edits of one check (each error listed makes at most one, each
  * consequence turns one into another), and most stand-ins of one. */
 enum { LINT_EDITS = 64, LINT_CANDS = 12 };
+/* The stand-in of a map: an empty map (apply_one). */
+#define MAP_STAND_IN "{}"
+
 
 typedef enum ed_kind {
     ED_REMOVE = 0, /* the pair or list item left out */
@@ -266,8 +272,10 @@ static plumb_status apply_one(plumby_node *root, const edit *e)
         return PLUMB_OK;
     case ED_STAND: {
         const plumby_node *old = *slot;
-        plumby_node *v = scalar(e->cand[e->cur], old ? old->line : e->line,
-                                old ? old->col : e->col);
+        int line = old ? old->line : e->line, col = old ? old->col : e->col;
+        plumby_node *v = strcmp(e->cand[e->cur], MAP_STAND_IN) == 0
+                             ? plumby_new(PLUMBY_MAP, line, col, PLUMBY_FROM_FILE)
+                             : scalar(e->cand[e->cur], line, col);
         if (!v)
             return PLUMB_ENOMEM;
         plumby_free(*slot);
@@ -389,6 +397,13 @@ static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
             add_cand(e, s->words[i]);
         return e->n_cand;
     }
+    if (s && s->type == PLUMBY_T_MAP && strpbrk(e->key, ".[")) {
+        /* a map below a section (descent.deploy: 5): an empty one, whose
+         * required keys then get stand-ins (absent_consequence), so that
+         * the rest of the section is still checked */
+        add_cand(e, MAP_STAND_IN);
+        return e->n_cand;
+    }
     if (!s || s->type != PLUMBY_T_NUM)
         return 0;
     plumb_dim dim = plumby_num_dim(s);
@@ -447,6 +462,14 @@ static int at_stand_in(const lint_run *r, const edit *e, const plumb_diag *d)
     return e && e->line == d->line && e->col == d->col;
 }
 
+/* 1 when e stands in an empty map for a value and error d is a key
+ * missing from it (given a stand-in in turn by absent_consequence). */
+static int map_stand_in_wants(const edit *e, const plumb_diag *d)
+{
+    return (e->kind == ED_STAND || e->kind == ED_INSERT) && e->cur < e->n_cand &&
+           strcmp(e->cand[e->cur], MAP_STAND_IN) == 0 && key_holds(e->key, d->key);
+}
+
 /* Makes e (its line, col and key set; a new edit at r->ed[r->n_ed] or one
  * of them) a stand-in of this kind (ED_STAND, ED_INSERT) for the key of
  * schema s, whose value node was `node` (NULL: missing): the first of its
@@ -467,7 +490,7 @@ static int give_stand_in(lint_run *r, edit *e, ed_kind kind, const plumby_schema
         plumb_status st = try_build(r, upto, &d, NULL);
         if (st == PLUMB_ENOMEM)
             break;
-        if (st == PLUMB_OK || !at_stand_in(r, e, &d))
+        if (st == PLUMB_OK || !at_stand_in(r, e, &d) || map_stand_in_wants(e, &d))
             return 1;
         e->dropped |= 1u << i;
     }
@@ -499,6 +522,21 @@ static int names_word(const char *text, const char *word)
 
 static int insert_stand_in(lint_run *r, const plumb_diag *d);
 
+/* Edit i, a value left out, made a stand-in (give_stand_in): 1 done. */
+static int stand_in_removed(lint_run *r, size_t i)
+{
+    edit *e = &r->ed[i];
+    plumby_node *t = edited(r, i);
+    plumby_node *parent;
+    size_t j;
+    const plumby_node *old = NULL;
+    if (t && find_at(t, e->line, e->col, e->key, &parent, &j))
+        old = parent->kind == PLUMBY_MAP ? parent->pairs[j].value : parent->items[j];
+    int ok = give_stand_in(r, e, ED_STAND, schema_of(e->key), old);
+    plumby_free(t);
+    return ok;
+}
+
 /* What an error about a key that is not written (a required key missing,
  * or a check of a map) follows from: 1 when it is a consequence of an
  * edit, now changed so that the check goes on; -1 when it is one and the
@@ -517,24 +555,19 @@ static int absent_consequence(lint_run *r, const plumb_diag *d)
                 return insert_stand_in(r, d) > 0 ? 1 : -1;
     for (size_t i = 0; i < r->n_ed; i++) {
         edit *e = &r->ed[i];
-        if (strcmp(e->key, d->key) == 0) {
-            /* its value left out: a numeric one gets a stand-in */
-            if (e->kind == ED_REMOVE) {
-                plumby_node *t = edited(r, i);
-                plumby_node *parent;
-                size_t j;
-                const plumby_node *old = NULL;
-                if (t && find_at(t, e->line, e->col, e->key, &parent, &j))
-                    old = parent->kind == PLUMBY_MAP ? parent->pairs[j].value : parent->items[j];
-                int ok = give_stand_in(r, e, ED_STAND, schema_of(e->key), old);
-                plumby_free(t);
-                if (ok)
-                    return 1;
-            }
-            return -1;
+        if (strcmp(e->key, d->key) == 0)
+            /* its value left out: a numeric one gets a stand-in, a map
+             * below a section an empty one */
+            return e->kind == ED_REMOVE && stand_in_removed(r, i) ? 1 : -1;
+        if (map_stand_in_wants(e, d))
+            return insert_stand_in(r, d) > 0 ? 1 : -1; /* under a map stood in */
+        if (key_holds(e->key, d->key)) {
+            /* under a map left out: an empty one in its place, when it is
+             * a map below a section, so that the rest of it is checked */
+            const plumby_schema *ms = schema_of(e->key);
+            return e->kind == ED_REMOVE && ms && ms->type == PLUMBY_T_MAP &&
+                           stand_in_removed(r, i) ? 1 : -1;
         }
-        if (key_holds(e->key, d->key))
-            return -1; /* under a map left out */
         if (e->kind == ED_REMOVE && key_holds(d->key, e->key))
             return -1; /* a map left out in turn (above), now missing */
         if (e->kind != ED_REMOVE || !dsplit || !split_key(e->key, epar, sizeof epar, &elast))
@@ -600,7 +633,11 @@ static int set_aside(lint_run *r, const plumb_diag *d)
     if (t && find_at(t, d->line, d->col, d->key, &parent, &i) && (e = new_edit(r, d, ED_REMOVE))) {
         const plumby_node *v =
             parent->kind == PLUMBY_MAP ? parent->pairs[i].value : parent->items[i];
-        (void)give_stand_in(r, e, ED_STAND, schema_of(d->key), v);
+        const plumby_schema *sc = schema_of(d->key);
+        /* a map is left out (an optional one is then simply not given);
+         * only one then missing gets an empty map (absent_consequence) */
+        if (!(sc && sc->type == PLUMBY_T_MAP))
+            (void)give_stand_in(r, e, ED_STAND, sc, v);
         r->n_ed++;
     }
     plumby_free(t);

@@ -356,6 +356,46 @@ want = [place(DESC, "5}") + ("descent.deploy",),
 check(got == want, f"a deploy that is no map, then the wind and the id, not the cd's "
       f"uncertainty: {got} / {want}")
 
+# a deploy that is no map, in a section that has another error: an empty
+# deploy map, its trigger stood in, stands in for it, so that the rest
+# of the descent is still checked (fill_time and fill_constant together,
+# README.md "Profile keys": not with fill_constant); of two devices, the
+# second's deploy height above the release (below < release.height)
+DEP = """name: deploy no map
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 131.6 m}
+descent: {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: 5, fill_time: 1 s, fill_constant: 8}
+"""
+got = [e[1:4] for e in lint_all(write("dep.yaml", DEP), "a deploy that is no map")]
+want = [place(DEP, "5, fill") + ("descent.deploy",),
+        place(DEP, "fill_constant") + ("descent.fill_constant",)]
+check(got == want, f"a deploy that is no map, then the descent's own other error: {got} / {want}")
+DEP2 = """name: two devices
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 131.6 m}
+descent:
+  - {kind: drogue, cd: 0.8, area: 0.2 m^2, deploy: 5}
+  - {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: {below: 200 m}}
+"""
+got = [e[1:4] for e in lint_all(write("dep2.yaml", DEP2), "a first device's deploy no map")]
+want = [place(DEP2, "5}") + ("descent[0].deploy",),
+        place(DEP2, "200 m") + ("descent[1].deploy.below",)]
+check(got == want, f"the first device's deploy, then the second device's: {got} / {want}")
+# an optional map that is no map is left out, not stood in (its required
+# keys would then stand in for an aircraft of our making): the release's
+# other error (a speed without its heading) is still found
+DW = """name: downwash no map
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release:
+  height: 31.6 m
+  downwash: [25 kg, 1.2 m^2]
+  velocity: {speed: 3 m/s}
+"""
+got = [e[1:4] for e in lint_all(write("dw.yaml", DW), "a downwash that is no map")]
+want = [place(DW, "[25 kg") + ("release.downwash",),
+        place(DW, "{speed") + ("release.velocity.heading",)]
+check(got == want, f"a downwash that is no map, then the velocity's heading: {got} / {want}")
+
 # a site that is no map, left out after its error: a point given by
 # latitude and longitude (release.position, zone.target) then "needs the
 # site's: site.latitude and site.longitude", a consequence of the site
