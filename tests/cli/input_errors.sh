@@ -136,7 +136,18 @@ printf 'name: m2\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  hei
   >"$tmp/m2.yaml"
 refused "a missing mass before a wind out of range" "m2.yaml:3:3: payload.mass: " "!wind.speed" \
   -- fall "$tmp/m2.yaml"
-for f in missing cross m2; do
+# an unknown criterion id (line 2) before a required key missing (line 4):
+# the loader checks no ids (the study does, once the profile loads), but
+# the error told is still the first in file order, lint's first
+printf 'name: crit\ncriteria: [en397-shok-49j]\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\n' \
+  >"$tmp/crit.yaml"
+refused "an unknown id before a missing mass" "plumb: $tmp/crit.yaml:2:12: criteria[0]: unknown criterion" \
+  "did you mean 'en397-shock-49j'" "!payload.mass" -- fall "$tmp/crit.yaml"
+stdin=$tmp/crit.yaml
+refused "the same from standard input" "plumb: <stdin>:2:12: criteria[0]: " -- fall -
+stdin=
+refused "zone of the same" "crit.yaml:2:12: criteria[0]: " -- zone "$tmp/crit.yaml"
+for f in missing cross m2 crit; do
   "$bin" lint "$tmp/$f.yaml" >"$tmp/lint.out" 2>"$tmp/lint.err"
   "$bin" fall "$tmp/$f.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
   if [ "$(sed -n 1p "$tmp/lint.err")" = "$(cat "$tmp/stderr")" ] &&
