@@ -1234,7 +1234,9 @@ static plumb_diag range_error(const char *key, const char *message)
  * 459.67, NIST SP 811, 2008, B.8), the sea-level speed of sound 340.294
  * m/s (U.S. Standard Atmosphere 1976, Table I, transcribed) is 1116.450 ft/s
  * by the international foot 0.3048 m, shown rounded down to 1116.45; > 0 kg
- * is > 0 lb. Another message of the key, an angle and SI get nothing. */
+ * is > 0 lb, and 1e8 kg, a mass's bound, 220462262.2 lb (NIST SP 811,
+ * 2008, B.8: 1 lb = 0.45359237 kg exactly), shown rounded down to 6
+ * figures. Another message of the key, an angle and SI get nothing. */
 static void test_a_range_error_gets_its_limits_in_us_units(void **state)
 {
     (void)state;
@@ -1252,9 +1254,9 @@ static void test_a_range_error_gets_its_limits_in_us_units(void **state)
                                "level: the drag model is for subsonic air speeds), found '1e6 m/s'");
     plumb_report_diag_message(&v, PLUMB_UNITS_US, buf, sizeof buf);
     assert_non_null(strstr(buf, "[US: 0 ft/s .. 1116.45 ft/s]"));
-    plumb_diag m = range_error("items[3].mass", "must be > 0 kg, found '-0.68 kg'");
+    plumb_diag m = range_error("items[3].mass", "must be > 0 kg and <= 1e+08 kg (100000 t: five times the heaviest single lift yet made), found '-0.68 kg'");
     plumb_report_diag_message(&m, PLUMB_UNITS_US, buf, sizeof buf);
-    assert_string_equal(buf, "must be > 0 kg, found '-0.68 kg' [US: > 0 lb]");
+    assert_string_equal(buf, "must be > 0 kg and <= 1e+08 kg (100000 t: five times the heaviest single lift yet made), found '-0.68 kg' [US: > 0 lb and <= 2.20462e+08 lb]");
     plumb_diag other = range_error("descent.deploy.below",
                                    "must be below the release height 27.4 m, found '40 m'");
     plumb_report_diag_message(&other, PLUMB_UNITS_US, buf, sizeof buf);
@@ -1272,7 +1274,7 @@ static void test_a_range_error_gets_its_limits_in_us_units(void **state)
 static void test_a_lint_report_gives_each_errors_parts_apart(void **state)
 {
     (void)state;
-    plumb_diag e[2] = {range_error("payload.mass", "must be > 0 kg, found '-2 kg'"),
+    plumb_diag e[2] = {range_error("payload.mass", "must be > 0 kg and <= 1e+08 kg (100000 t: five times the heaviest single lift yet made), found '-2 kg'"),
                        range_error("release.height", "a made-up message")};
     e[1].line = e[1].col = 0;
     plumb_lint_entry ent[2] = {{"good.yaml", NULL, 0, 1}, {"a.yaml", e, 2, 0}};
@@ -1292,13 +1294,13 @@ static void test_a_lint_report_gives_each_errors_parts_apart(void **state)
         assert_non_null(strstr(buf, want[f]));
         if (f == 0) {
             assert_non_null(strstr(buf, "\"column\": 62"));
-            assert_non_null(strstr(buf, "\"message\": \"must be > 0 kg, found '-2 kg'\""));
+            assert_non_null(strstr(buf, "\"message\": \"must be > 0 kg and <= 1e+08 kg (100000 t: five times the heaviest single lift yet made), found '-2 kg'\""));
             assert_non_null(strstr(buf, "\"failed\": 1"));
             assert_non_null(strstr(buf, "\"cautions\""));
         } else if (f == 1) {
             assert_non_null(strstr(buf, "good.yaml,true,,,,,\n"));
-            assert_non_null(strstr(buf, "a.yaml,false,a.yaml,8,62,payload.mass,\"must be > 0 kg, "
-                                        "found '-2 kg' [US: > 0 lb]\"\n"));
+            assert_non_null(strstr(buf, "a.yaml,false,a.yaml,8,62,payload.mass,\"must be > 0 kg and <= 1e+08 kg (100000 t: five times the heaviest single lift yet made), "
+                                        "found '-2 kg' [US: > 0 lb and <= 2.20462e+08 lb]\"\n"));
             assert_non_null(strstr(buf, "a.yaml,false,a.yaml,,,release.height,"));
         } else {
             assert_null(strstr(buf, "a.yaml"));

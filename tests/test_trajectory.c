@@ -568,6 +568,25 @@ static void test_buoyant_object_never_lands_and_says_so(void **state)
     plumb_atmosphere_free(atm);
 }
 
+/* A profile refuses such a mass (PLUMB_MASS_MAX_KG, tests/cli/failures.sh);
+ * a spec built in code is refused by the fall: 4.5e307 kg x g x 30 m is
+ * beyond DBL_MAX, about 1.8e308 (IEEE 754 binary64), so no figure of the
+ * fall can be checked and none is given (README.md, "Exit status"). */
+static void test_a_mass_whose_energies_overflow_a_double_is_a_failed_fall(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_std_air(0.0);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 4.536e307, 0.018, 30.0);
+    plumb_fall_result r;
+    plumb_diag d;
+    assert_int_equal(plumb_trajectory_run(w, &s, atm, &r, &d), PLUMB_ENUMERIC);
+    assert_non_null(strstr(d.message, "beyond what a double can hold"));
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
 static void test_step_and_time_budgets_are_errors_not_numbers(void **state)
 {
     (void)state;
@@ -1134,6 +1153,7 @@ int main(void)
         cmocka_unit_test(test_devices_opening_out_of_listed_order_keep_their_own_figures),
         cmocka_unit_test(test_invalid_specs_are_refused),
         cmocka_unit_test(test_buoyant_object_never_lands_and_says_so),
+        cmocka_unit_test(test_a_mass_whose_energies_overflow_a_double_is_a_failed_fall),
         cmocka_unit_test(test_step_and_time_budgets_are_errors_not_numbers),
         cmocka_unit_test(test_a_fall_longer_than_its_budget_is_refused_at_once),
         cmocka_unit_test(test_path_outside_the_atmosphere_is_a_range_error),

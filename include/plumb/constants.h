@@ -43,6 +43,15 @@
  * room, and refuses a temperature typed in the wrong unit (20 K for 20 degC). */
 #define PLUMB_AIR_TEMPERATURE_MIN_K 150.0
 #define PLUMB_AIR_TEMPERATURE_MAX_K 400.0
+/* The largest mass a profile may give, kg (payload.mass, an item's mass,
+ * release.downwash.aircraft_mass): 100 000 t, five times the heaviest
+ * single lift yet made (about 20 000 t, a shipyard gantry crane, 2008;
+ * from memory) and far above any load lifted over people or any aircraft
+ * (about 640 t; from memory). A plausibility bound (common practice, no
+ * source): it refuses a mass typed with a wrong exponent or unit as an
+ * input error, where an unbounded one (1e308 lb) failed only in the fall,
+ * its energies beyond what a double holds. */
+#define PLUMB_MASS_MAX_KG 1.0e8
 /* Geometric altitude of the top of the 1976 model, m. */
 #define PLUMB_STD1976_TOP_M 86000.0
 /* Geometric altitude of the bottom of the 1976 model's tables, m

@@ -85,7 +85,9 @@ typedef struct plumb_profile plumb_profile;
  * (may be NULL when n_sets is 0). In keys, an inventory's items count
  * from 1 ("items[1]" is the first, plumb_profile_item(p, 0)) or are named
  * ("items[glove].mass"); other lists count from 0 ("descent[0]"). On
- * error *out is NULL, diag is filled, nothing is leaked. */
+ * error *out is NULL, diag is filled (a --set's own value first, else the
+ * file's first error in file order, plumb_profile_lint's first), nothing
+ * is leaked. */
 plumb_status plumb_profile_load(const char *path, const plumb_units *units,
                                 const char *const *sets, size_t n_sets,
                                 plumb_profile **out, plumb_diag *diag);

@@ -478,11 +478,45 @@ int cli_parse(int argc, char **argv, unsigned accept, cli_option *extra, size_t 
     return rc;
 }
 
+/* The profile did not load, for *diag (status st): when that is an error
+ * of the file, the error told is instead `plumb lint`'s first
+ * (plumb_study_lint: the file's errors and the ids under criteria:, in
+ * file order) if it comes before it, so that an unknown criterion id at
+ * line 2 is not hidden by a key missing at line 4 (the loader checks
+ * no ids; the study does, once the profile loads). buf: the bytes of
+ * standard input, else NULL (the file at path is read). */
+static plumb_status lint_first(const cli_args *a, const char *path, const char *buf, size_t len,
+                               const plumb_units *units, plumb_status st, plumb_diag *diag)
+{
+    if (!plumb_status_is_input_error(st) || diag->line <= 0 ||
+        strcmp(diag->file, PLUMB_DIAG_SET_FILE) == 0)
+        return st;
+    plumb_diag *errs = calloc(CLI_LINT_MAX, sizeof *errs);
+    if (!errs)
+        return st; /* the load's own error stands */
+    plumb_criteria *crit = NULL;
+    char dir[CLI_PATH_MAX];
+    size_t n = 0;
+    plumb_status sl = plumb_study_lint(buf ? CLI_STDIN_NAME : path, buf, len, units, a->sets,
+                                       a->n_sets, cli_criteria_dir(a, dir, sizeof dir), &crit,
+                                       errs, CLI_LINT_MAX, &n);
+    if (plumb_status_is_input_error(sl) && n > 0 && strcmp(errs[0].file, diag->file) == 0 &&
+        errs[0].line > 0 &&
+        (errs[0].line < diag->line || (errs[0].line == diag->line && errs[0].col < diag->col))) {
+        *diag = errs[0];
+        st = sl;
+    }
+    plumb_criteria_free(crit);
+    free(errs);
+    return st;
+}
+
 plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
                               plumb_profile **out, plumb_diag *diag)
 {
     if (strcmp(path, "-") != 0)
-        return plumb_profile_load(path, units, a->sets, a->n_sets, out, diag);
+        return lint_first(a, path, NULL, 0, units,
+                          plumb_profile_load(path, units, a->sets, a->n_sets, out, diag), diag);
     *out = NULL;
     char *buf;
     size_t len;
@@ -490,6 +524,8 @@ plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_u
     if (st != PLUMB_OK)
         return st;
     st = plumb_profile_load_buffer(CLI_STDIN_NAME, buf, len, units, a->sets, a->n_sets, out, diag);
+    if (buf)
+        st = lint_first(a, path, buf, len, units, st, diag);
     free(buf);
     return st;
 }

@@ -176,7 +176,9 @@ plumb_status cli_write_output(const char *path, const char *buf, size_t len, plu
  * standard input, read to its end (at most PLUMB_PROFILE_MAX_BYTES), named
  * "<stdin>" in diagnostics and reports, its SHA-256 that of the bytes
  * read. Standard input can be read only once. Errors as
- * plumb_profile_load (PLUMB_EIO when standard input cannot be read). */
+ * plumb_profile_load (PLUMB_EIO when standard input cannot be read), but
+ * an error of the file is `plumb lint`'s first (plumb_study_lint), so that
+ * an unknown criterion id before it is told first. */
 plumb_status cli_profile_load(const cli_args *a, const char *path, const plumb_units *units,
                               plumb_profile **out, plumb_diag *diag);
 

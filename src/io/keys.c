@@ -36,7 +36,7 @@ enum {
 /* key, dim, count, range, angle, home, offset, when, shapes, effects; in the
  * order of plumbp_key_id (keys.h) */
 const plumbp_key plumbp_key_table[] = {
-    {"payload.mass", D(MASS), 0, R(POSITIVE), 0, SPEC(mass_kg), W(ALWAYS), 0, PLUMBP_KEY_GLIDE},
+    {"payload.mass", D(MASS), 0, R(MASS), 0, SPEC(mass_kg), W(ALWAYS), 0, PLUMBP_KEY_GLIDE},
     {"payload.volume", D(VOLUME), 0, R(NONNEG), 0, SPEC(volume_m3), W(ALWAYS), 0, 0},
     {"payload.drag.cd", D(NONE), 0, R(CD), 0, SPEC(drag.cd), W(CD_AND_AREA), 0, DRAG},
     {"payload.drag.area", D(AREA), 0, R(POSITIVE), 0, SPEC(drag.area_m2), W(CD_AND_AREA), 0, DRAG},
@@ -72,7 +72,7 @@ const plumbp_key plumbp_key_table[] = {
     {"release.velocity.heading", D(ANGLE), 0, R(ANY), 1, DERIVED, W(ALWAYS), 0,
      SHARED | PLUMBP_KEY_VELOCITY},
     {"release.velocity.climb", D(SPEED), 0, R(SUBSONIC), 0, SPEC(velocity_m_s[2]), W(ALWAYS), 0, SHARED | CHECKED},
-    {"release.downwash.aircraft_mass", D(MASS), 0, R(POSITIVE), 0,
+    {"release.downwash.aircraft_mass", D(MASS), 0, R(MASS), 0,
      SPEC(downwash.aircraft_mass_kg), W(ALWAYS), 0, SHARED},
     {"release.downwash.disk_area", D(AREA), 0, R(POSITIVE), 0, SPEC(downwash.disk_area_m2),
      W(ALWAYS), 0, SHARED},

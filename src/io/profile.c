@@ -168,7 +168,7 @@ static plumb_status interpret(loader *L)
  * reads the release, air and wind before the payload: without this a
  * wind speed at line 8 would hide a mass at line 3. Required keys
  * missing and values refused against another key are found later, in the
- * loader's order. */
+ * loader's order: first_in_file puts them in file order. */
 static plumb_status check_tree(const plumby_ctx *ctx, const plumby_node *tree, int all_values,
                                int given_sets)
 {
@@ -200,6 +200,42 @@ static plumb_status check_tree(const plumby_ctx *ctx, const plumby_node *tree, i
     if (ctx->diag)
         *ctx->diag = dv;
     return sv;
+}
+
+/* Most errors the lint lists to find the first in file order (as many as
+ * `plumb lint` lists). */
+enum { FIRST_LINT_MAX = 16 };
+
+/* The interpreter failed with *diag, an error in the file: the loader
+ * meets a required key missing or a value refused against another key in
+ * its own order (release, air and wind before the payload), so the error
+ * told is instead the first in file order of those the lint lists
+ * (plumbp_profile_lint_tree, which sorts them; `plumb lint`'s first),
+ * found from tree as it was read (before sets) and the same sets. Its
+ * status; out of memory is the machine's failure, told as such. */
+static plumb_status first_in_file(const char *path, const char *sha, const plumby_node *tree,
+                                  const plumb_units *units, const char *const *sets,
+                                  size_t n_sets, const plumbp_id_check *check, plumb_status st,
+                                  plumb_diag *diag)
+{
+    plumb_diag *errs = calloc(FIRST_LINT_MAX, sizeof *errs);
+    if (!errs)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
+    size_t n = 0;
+    plumb_status sl = plumbp_profile_lint_tree(path, sha, tree, units, sets, n_sets, check, errs,
+                                               FIRST_LINT_MAX, &n, NULL);
+    if (!plumb_status_is_input_error(sl) && sl != PLUMB_OK) {
+        if (diag)
+            *diag = errs[0];
+        st = sl;
+    } else if (sl != PLUMB_OK && n > 0 && strcmp(errs[0].file, path) == 0 && errs[0].line > 0 &&
+               (errs[0].line < diag->line ||
+                (errs[0].line == diag->line && errs[0].col < diag->col))) {
+        *diag = errs[0];
+        st = sl;
+    }
+    free(errs);
+    return st;
 }
 
 /* Applies sets to tree (owned), checks and interprets it into *out. */
@@ -290,6 +326,27 @@ static plumb_status build(const char *path, const char *sha, plumby_node *tree,
     return PLUMB_OK;
 }
 
+/* build, for a profile read from a file (not the lint's own builds nor a
+ * derived profile): an error in the file is told as the first in file
+ * order (first_in_file), found from a copy of tree as it was read (build
+ * changes and frees tree). */
+static plumb_status build_in_order(const char *path, const char *sha, plumby_node *tree,
+                                   const plumb_units *units, const char *const *sets,
+                                   size_t n_sets, plumb_profile **out, plumb_diag *diag)
+{
+    plumby_node *as_read = plumby_copy(tree);
+    if (!as_read) {
+        plumby_free(tree);
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory loading the profile");
+    }
+    plumb_status st = build(path, sha, tree, NULL, units, sets, n_sets, NULL, out, diag);
+    if (plumb_status_is_input_error(st) && diag && strcmp(diag->file, path) == 0 &&
+        diag->line > 0)
+        st = first_in_file(path, sha, as_read, units, sets, n_sets, NULL, st, diag);
+    plumby_free(as_read);
+    return st;
+}
+
 plumb_status plumbp_profile_build(const char *path, const char *sha, plumby_node *tree,
                                   const plumb_units *units, const char *const *sets,
                                   size_t n_sets, const plumbp_id_check *check,
@@ -318,7 +375,7 @@ plumb_status plumb_profile_load(const char *path, const plumb_units *units,
     free(buf);
     if (st != PLUMB_OK)
         return st;
-    return build(path, sha, tree, NULL, units, sets, n_sets, NULL, out, diag);
+    return build_in_order(path, sha, tree, units, sets, n_sets, out, diag);
 }
 
 /* The lint of the len bytes at buf, named name (plumbp_profile_lint_checked). */
@@ -427,7 +484,7 @@ plumb_status plumb_profile_load_buffer(const char *name, const char *buf, size_t
                                    diag);
     if (st != PLUMB_OK)
         return st;
-    return build(name, sha, tree, NULL, units, sets, n_sets, NULL, out, diag);
+    return build_in_order(name, sha, tree, units, sets, n_sets, out, diag);
 }
 
 plumb_status plumb_profile_derive(const plumb_profile *base, const plumb_units *units,

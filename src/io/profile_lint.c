@@ -23,7 +23,10 @@
  *     other stand-in is kept from then on, and the first is not tried
  *     again, so that the check cannot go back and forth;
  *   - a required key now missing because its value was left out: a
- *     numeric one gets a stand-in, else the check stops; "payload"
+ *     numeric one gets a stand-in, a map below a section an empty map
+ *     (descent.deploy: 5), whose required keys then get stand-ins in turn
+ *     (its section's other keys are still checked), else the check
+ *     stops; "payload"
  *     missing once "items" was left out (a profile has one of the two)
  *     gets a stand-in, so that the check goes on;
  *   - a required key now missing whose misspelt twin (the unknown key of
@@ -35,6 +38,12 @@
  *     choice of one attitude once the other was), or an uncertain input
  *     (uncertainty.descent.cd) of a top-level section left out: left out
  *     in turn;
+ *   - an error of another section whose message names a part left out
+ *     (release.position.latitude "needs the site's: site.latitude and
+ *     site.longitude" once site is): its map (release.position) is left
+ *     out in turn, so that the check goes on;
+ *   - an error about a list or map that holds a value stood in (an air
+ *     table's span once its refused altitude is stood in): left out;
  *   - a key missing under a map that was left out, or missing where a key
  *     of the same name was written one level too high, and an error at
  *     the place of a stand-in: the check cannot go on in that section, so
@@ -58,6 +67,9 @@
 /* Most edits of one check (each error listed makes at most one, each
  * consequence turns one into another), and most stand-ins of one. */
 enum { LINT_EDITS = 64, LINT_CANDS = 12 };
+/* The stand-in of a map: an empty map (apply_one). */
+#define MAP_STAND_IN "{}"
+
 
 typedef enum ed_kind {
     ED_REMOVE = 0, /* the pair or list item left out */
@@ -260,8 +272,10 @@ static plumb_status apply_one(plumby_node *root, const edit *e)
         return PLUMB_OK;
     case ED_STAND: {
         const plumby_node *old = *slot;
-        plumby_node *v = scalar(e->cand[e->cur], old ? old->line : e->line,
-                                old ? old->col : e->col);
+        int line = old ? old->line : e->line, col = old ? old->col : e->col;
+        plumby_node *v = strcmp(e->cand[e->cur], MAP_STAND_IN) == 0
+                             ? plumby_new(PLUMBY_MAP, line, col, PLUMBY_FROM_FILE)
+                             : scalar(e->cand[e->cur], line, col);
         if (!v)
             return PLUMB_ENOMEM;
         plumby_free(*slot);
@@ -383,6 +397,13 @@ static size_t stand_ins(const lint_run *r, edit *e, const plumby_schema *s,
             add_cand(e, s->words[i]);
         return e->n_cand;
     }
+    if (s && s->type == PLUMBY_T_MAP && strpbrk(e->key, ".[")) {
+        /* a map below a section (descent.deploy: 5): an empty one, whose
+         * required keys then get stand-ins (absent_consequence), so that
+         * the rest of the section is still checked */
+        add_cand(e, MAP_STAND_IN);
+        return e->n_cand;
+    }
     if (!s || s->type != PLUMBY_T_NUM)
         return 0;
     plumb_dim dim = plumby_num_dim(s);
@@ -441,6 +462,14 @@ static int at_stand_in(const lint_run *r, const edit *e, const plumb_diag *d)
     return e && e->line == d->line && e->col == d->col;
 }
 
+/* 1 when e stands in an empty map for a value and error d is a key
+ * missing from it (given a stand-in in turn by absent_consequence). */
+static int map_stand_in_wants(const edit *e, const plumb_diag *d)
+{
+    return (e->kind == ED_STAND || e->kind == ED_INSERT) && e->cur < e->n_cand &&
+           strcmp(e->cand[e->cur], MAP_STAND_IN) == 0 && key_holds(e->key, d->key);
+}
+
 /* Makes e (its line, col and key set; a new edit at r->ed[r->n_ed] or one
  * of them) a stand-in of this kind (ED_STAND, ED_INSERT) for the key of
  * schema s, whose value node was `node` (NULL: missing): the first of its
@@ -461,7 +490,7 @@ static int give_stand_in(lint_run *r, edit *e, ed_kind kind, const plumby_schema
         plumb_status st = try_build(r, upto, &d, NULL);
         if (st == PLUMB_ENOMEM)
             break;
-        if (st == PLUMB_OK || !at_stand_in(r, e, &d))
+        if (st == PLUMB_OK || !at_stand_in(r, e, &d) || map_stand_in_wants(e, &d))
             return 1;
         e->dropped |= 1u << i;
     }
@@ -493,6 +522,21 @@ static int names_word(const char *text, const char *word)
 
 static int insert_stand_in(lint_run *r, const plumb_diag *d);
 
+/* Edit i, a value left out, made a stand-in (give_stand_in): 1 done. */
+static int stand_in_removed(lint_run *r, size_t i)
+{
+    edit *e = &r->ed[i];
+    plumby_node *t = edited(r, i);
+    plumby_node *parent;
+    size_t j;
+    const plumby_node *old = NULL;
+    if (t && find_at(t, e->line, e->col, e->key, &parent, &j))
+        old = parent->kind == PLUMBY_MAP ? parent->pairs[j].value : parent->items[j];
+    int ok = give_stand_in(r, e, ED_STAND, schema_of(e->key), old);
+    plumby_free(t);
+    return ok;
+}
+
 /* What an error about a key that is not written (a required key missing,
  * or a check of a map) follows from: 1 when it is a consequence of an
  * edit, now changed so that the check goes on; -1 when it is one and the
@@ -511,24 +555,19 @@ static int absent_consequence(lint_run *r, const plumb_diag *d)
                 return insert_stand_in(r, d) > 0 ? 1 : -1;
     for (size_t i = 0; i < r->n_ed; i++) {
         edit *e = &r->ed[i];
-        if (strcmp(e->key, d->key) == 0) {
-            /* its value left out: a numeric one gets a stand-in */
-            if (e->kind == ED_REMOVE) {
-                plumby_node *t = edited(r, i);
-                plumby_node *parent;
-                size_t j;
-                const plumby_node *old = NULL;
-                if (t && find_at(t, e->line, e->col, e->key, &parent, &j))
-                    old = parent->kind == PLUMBY_MAP ? parent->pairs[j].value : parent->items[j];
-                int ok = give_stand_in(r, e, ED_STAND, schema_of(e->key), old);
-                plumby_free(t);
-                if (ok)
-                    return 1;
-            }
-            return -1;
+        if (strcmp(e->key, d->key) == 0)
+            /* its value left out: a numeric one gets a stand-in, a map
+             * below a section an empty one */
+            return e->kind == ED_REMOVE && stand_in_removed(r, i) ? 1 : -1;
+        if (map_stand_in_wants(e, d))
+            return insert_stand_in(r, d) > 0 ? 1 : -1; /* under a map stood in */
+        if (key_holds(e->key, d->key)) {
+            /* under a map left out: an empty one in its place, when it is
+             * a map below a section, so that the rest of it is checked */
+            const plumby_schema *ms = schema_of(e->key);
+            return e->kind == ED_REMOVE && ms && ms->type == PLUMBY_T_MAP &&
+                           stand_in_removed(r, i) ? 1 : -1;
         }
-        if (key_holds(e->key, d->key))
-            return -1; /* under a map left out */
         if (e->kind == ED_REMOVE && key_holds(d->key, e->key))
             return -1; /* a map left out in turn (above), now missing */
         if (e->kind != ED_REMOVE || !dsplit || !split_key(e->key, epar, sizeof epar, &elast))
@@ -594,7 +633,11 @@ static int set_aside(lint_run *r, const plumb_diag *d)
     if (t && find_at(t, d->line, d->col, d->key, &parent, &i) && (e = new_edit(r, d, ED_REMOVE))) {
         const plumby_node *v =
             parent->kind == PLUMBY_MAP ? parent->pairs[i].value : parent->items[i];
-        (void)give_stand_in(r, e, ED_STAND, schema_of(d->key), v);
+        const plumby_schema *sc = schema_of(d->key);
+        /* a map is left out (an optional one is then simply not given);
+         * only one then missing gets an empty map (absent_consequence) */
+        if (!(sc && sc->type == PLUMBY_T_MAP))
+            (void)give_stand_in(r, e, ED_STAND, sc, v);
         r->n_ed++;
     }
     plumby_free(t);
@@ -663,11 +706,15 @@ static int follows_from_stand_in(lint_run *r, const plumb_diag *d)
     return 0;
 }
 
-/* 1 when error d is about a map or list that holds a part left out. */
+/* 1 when error d is about a map or list that holds a part left out, or
+ * a value stood in: what it says of the whole follows from the stand-in
+ * (an air table "spans 100 m .. 1000 m" once its refused second altitude,
+ * 0 m, is stood in as 1000 m), not from the file. */
 static int holds_left_out(const lint_run *r, const plumb_diag *d)
 {
     for (size_t i = 0; i < r->n_ed; i++)
-        if (r->ed[i].kind == ED_REMOVE && key_holds(d->key, r->ed[i].key))
+        if ((r->ed[i].kind == ED_REMOVE || r->ed[i].kind == ED_STAND) &&
+            key_holds(d->key, r->ed[i].key))
             return 1;
     return 0;
 }
@@ -688,6 +735,67 @@ static int uncertain_in_left_out(const lint_run *r, const plumb_diag *d)
             return 1;
     }
     return 0;
+}
+
+/* 1 when text names key as a key: the dotted key itself as a whole
+ * ("site.longitude"), or a key under it ("site.latitude" for "site"); a
+ * top-level name alone is a word of the text ("the site's"), not a key. */
+static int names_key(const char *text, const char *key)
+{
+    size_t n = strlen(key);
+    int dotted = strpbrk(key, ".[") != NULL;
+    for (const char *p = text; n > 0 && (p = strstr(p, key)) != NULL; p++) {
+        int before = p > text && (isalnum((unsigned char)p[-1]) || p[-1] == '_' || p[-1] == '.');
+        int after = isalnum((unsigned char)p[n]) || p[n] == '_';
+        if (!before && !after && (dotted || p[n] == '.' || p[n] == '['))
+            return 1;
+    }
+    return 0;
+}
+
+/* 1 when error d, about a key outside every part left out, follows from
+ * one left out: its message names it (release.position.latitude "needs
+ * the site's: site.latitude and site.longitude" once site, a list where
+ * a map belongs, is left out). Not an error of the file as written: with
+ * the part as the user meant it, it would not be made. */
+static int follows_from_left_out(const lint_run *r, const plumb_diag *d)
+{
+    for (size_t i = 0; i < r->n_ed; i++) {
+        const edit *e = &r->ed[i];
+        if (e->kind != ED_REMOVE || strcmp(e->key, d->key) == 0 || key_holds(e->key, d->key) ||
+            key_holds(d->key, e->key))
+            continue;
+        if (names_key(d->message, e->key))
+            return 1;
+    }
+    return 0;
+}
+
+/* Leaves out error d's key as a consequence (not listed): the map that
+ * holds it when that is below a top-level section (release.position for
+ * release.position.latitude: a point given by half of its keys is an
+ * error of its own), else the key. 1 done, 0 no room. */
+static int leave_out_consequence(lint_run *r, const plumb_diag *d)
+{
+    char parent[PLUMB_DIAG_KEY], grand[PLUMB_DIAG_KEY];
+    const char *last, *plast;
+    edit *e = new_edit(r, d, ED_REMOVE);
+    if (!e)
+        return 0;
+    if (split_key(d->key, parent, sizeof parent, &last) && strpbrk(parent, ".[") &&
+        split_key(parent, grand, sizeof grand, &plast)) {
+        plumby_node *t = edited(r, r->n_ed);
+        plumby_node *g = t ? node_at(t, grand) : NULL;
+        const plumby_pair *p = g && g->kind == PLUMBY_MAP ? plumby_find(g, plast) : NULL;
+        if (p) {
+            e->line = p->line;
+            e->col = p->col;
+            plumbp_strlcpy(e->key, parent, sizeof e->key);
+        }
+        plumby_free(t);
+    }
+    r->n_ed++;
+    return 1;
 }
 
 /* 1 when error d is at the place of a stand-in, or a key already listed. */
@@ -841,6 +949,12 @@ plumb_status plumbp_profile_lint_tree(const char *name, const char *sha, const p
             if (!e)
                 break;
             r->n_ed++;
+            continue;
+        }
+        if (follows_from_left_out(r, &d)) {
+            /* a consequence in another section of a part left out */
+            if (!leave_out_consequence(r, &d))
+                break;
             continue;
         }
         errs[(*n)++] = d;

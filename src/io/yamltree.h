@@ -140,7 +140,8 @@ typedef enum plumby_range {
     PLUMBY_R_SUBSONIC,    /* -PLUMB_SOUND_SPEED_SL_M_S .. PLUMB_SOUND_SPEED_SL_M_S */
     PLUMBY_R_SUBSONIC_NONNEG, /* 0 .. PLUMB_SOUND_SPEED_SL_M_S */
     PLUMBY_R_TEMP_OFFSET, /* -PLUMB_TEMP_OFFSET_MAX_K .. PLUMB_TEMP_OFFSET_MAX_K */
-    PLUMBY_R_AIR_TEMPERATURE /* PLUMB_AIR_TEMPERATURE_MIN_K .. PLUMB_AIR_TEMPERATURE_MAX_K */
+    PLUMBY_R_AIR_TEMPERATURE, /* PLUMB_AIR_TEMPERATURE_MIN_K .. PLUMB_AIR_TEMPERATURE_MAX_K */
+    PLUMBY_R_MASS         /* > 0 .. PLUMB_MASS_MAX_KG */
 } plumby_range;
 
 /* A row of the key table (io/keys.h), which describes every numeric key of
@@ -207,7 +208,9 @@ plumb_status plumby_raise(const plumby_ctx *ctx, plumby_origin origin, int line,
  * --set over a shape: lacks its cd); else all of them, so that of the
  * values a file gets wrong the first in file order is told, whatever
  * order the loader reads the keys in. Errors as plumby_num_node; an
- * unknown key or a value of the wrong kind is left to plumby_check. */
+ * unknown key or a value of the wrong kind is left to plumby_check, but
+ * with only_set a value a --set gave is checked by plumby_check as well
+ * (payload.drag=5: a --set of the wrong kind is its own error too). */
 plumb_status plumby_check_values(const plumby_ctx *ctx, const plumby_node *node,
                                  const plumby_schema *s, int only_set);
 

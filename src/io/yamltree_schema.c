@@ -283,15 +283,42 @@ plumb_status plumby_check(const plumby_ctx *ctx, const plumby_node *node,
     return PLUMB_OK;
 }
 
+/* Error d (status st) kept in *best when it comes before it in line and
+ * column order; out of memory before any: the machine failed, and the
+ * list would not be the input's. */
+static void keep_first(const plumb_diag *d, plumb_status st, plumb_diag *best,
+                       plumb_status *best_st)
+{
+    int machine = st != PLUMB_OK && !plumb_status_is_input_error(st);
+    int best_machine = *best_st != PLUMB_OK && !plumb_status_is_input_error(*best_st);
+    if (st != PLUMB_OK && !best_machine &&
+        (machine || *best_st == PLUMB_OK || d->line < best->line ||
+         (d->line == best->line && d->col < best->col))) {
+        *best = *d;
+        *best_st = st;
+    }
+}
+
 /* The numbers of one tree node (only those a --set gave when only_set),
  * checked on their own (their unit and range), the earliest error (in
- * line and column order) kept in *best. */
+ * line and column order) kept in *best. With only_set, a value a --set
+ * gave is checked against the schema too (plumby_check: its kind, and
+ * the keys and words of what it holds), so that a --set of the wrong
+ * kind (payload.drag=5) is told first as a --set's own unit or range is,
+ * not after an error the file has elsewhere. */
 static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plumby_schema *s,
                        const char *key, int only_set, plumb_diag *best, plumb_status *best_st)
 {
     char sub_key[PLUMB_DIAG_KEY];
     if (!node || !s)
         return;
+    if (only_set && node->origin == PLUMBY_FROM_SET) {
+        plumb_diag d;
+        plumb_diag_clear(&d);
+        plumby_ctx c = *ctx;
+        c.diag = &d;
+        keep_first(&d, plumby_check(&c, node, s, key), best, best_st);
+    }
     switch (s->type) {
     case PLUMBY_T_NUM: {
         if (node->kind != PLUMBY_SCALAR || (only_set && node->origin != PLUMBY_FROM_SET) ||
@@ -302,17 +329,7 @@ static void set_values(const plumby_ctx *ctx, const plumby_node *node, const plu
         plumby_ctx c = *ctx;
         c.diag = &d;
         double v;
-        plumb_status st = plumby_num_node(&c, node, s, key, &v);
-        /* the first in file order, but out of memory before any: the
-         * machine failed, and the list would not be the input's */
-        int machine = st != PLUMB_OK && !plumb_status_is_input_error(st);
-        int best_machine = *best_st != PLUMB_OK && !plumb_status_is_input_error(*best_st);
-        if (st != PLUMB_OK && !best_machine &&
-            (machine || *best_st == PLUMB_OK || d.line < best->line ||
-             (d.line == best->line && d.col < best->col))) {
-            *best = d;
-            *best_st = st;
-        }
+        keep_first(&d, plumby_num_node(&c, node, s, key, &v), best, best_st);
         return;
     }
     case PLUMBY_T_MAP:
@@ -387,6 +404,7 @@ void plumby_range_bounds(plumby_range range, double *lo, double *hi, int *lo_ope
         *lo = PLUMB_AIR_TEMPERATURE_MIN_K;
         *hi = PLUMB_AIR_TEMPERATURE_MAX_K;
         break;
+    case PLUMBY_R_MASS: *lo = 0.0; *hi = PLUMB_MASS_MAX_KG; *lo_open = 1; break;
     }
 }
 
@@ -441,6 +459,11 @@ const char *plumby_range_text(plumby_range range, plumb_dim dim, char *buf, size
                  "or degF?)", PLUMB_AIR_TEMPERATURE_MIN_K, u, PLUMB_AIR_TEMPERATURE_MAX_K, u,
                  PLUMB_AIR_TEMPERATURE_MIN_K - PLUMB_CELSIUS_ZERO_K,
                  PLUMB_AIR_TEMPERATURE_MAX_K - PLUMB_CELSIUS_ZERO_K);
+        break;
+    case PLUMBY_R_MASS:
+        snprintf(buf, size,
+                 "> 0%s and <= %g%s (%g t: five times the heaviest single lift yet made)", u,
+                 PLUMB_MASS_MAX_KG, u, PLUMB_MASS_MAX_KG / 1000.0);
         break;
     }
     return buf;

@@ -36,7 +36,10 @@ static int range_us(writer *w, const char *key, plumb_dim dim, plumby_range r, c
         return 1;
     }
     const char *hs = plumbp_gnum(w, plumbp_round_safe(h.x, INPUT_SIG, 1), INPUT_SIG);
-    snprintf(buf, size, "%s %s .. %s %s", ls, l.unit, hs, h.unit);
+    if (lo_open) /* "> 0 lb and <= 2.205e+08 lb", as the SI range says it */
+        snprintf(buf, size, "> %s %s and %s %s %s", ls, l.unit, hi_open ? "<" : "<=", hs, h.unit);
+    else
+        snprintf(buf, size, "%s %s .. %s %s", ls, l.unit, hs, h.unit);
     return 1;
 }
 

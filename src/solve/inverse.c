@@ -155,6 +155,14 @@ static key_range range_of(const char *key, plumb_dim dim, const plumb_fall_spec 
         double hi = base > 0.0 ? base * SPAN : 1.0;
         r = (key_range){RANGE_NONNEG, 0.0, hi, 0};
     }
+    if (r.kind == RANGE_POSITIVE && k) {
+        /* never past the key's own bound (a mass: PLUMB_MASS_MAX_KG) */
+        double lo, hi;
+        int lo_open;
+        plumbp_key_bounds(k, &lo, &hi, &lo_open);
+        if (r.hi > hi)
+            r.hi = hi;
+    }
     return r;
 }
 

@@ -101,6 +101,63 @@ printf 'name: kit\nitems:\n  - name: a\n    mass: 1 kg\n    drag: {cd: 0.9, area
 refused "fall of an inventory's three errors" "kit.yaml:6:38: items[2].drag.cd: " \
   -- fall "$tmp/kit.yaml"
 
+# a required key missing (payload.mass, the payload map at line 3) and a
+# value refused against another key (a deploy height at line 8 not below
+# the release height of line 10) are told before a roughness refused
+# against its reference height (line 15): the loader meets the wind
+# before the payload and the descent, but the error told is the first in
+# file order, lint's first (a roughness length must be below the height
+# of the log law's reference speed: the law is for heights above it; a
+# deploy height must be below the release)
+printf 'name: missing\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\nwind:\n  profile: log\n  speed: 5 m/s\n  reference_height: 10 m\n  roughness: 20 m\n' \
+  >"$tmp/missing.yaml"
+refused "a missing mass before a refused roughness" \
+  "plumb: $tmp/missing.yaml:3:3: payload.mass: required key 'mass' is missing" \
+  "!wind.roughness" -- fall "$tmp/missing.yaml"
+refused "the same with an unrelated --set" ":3:3: payload.mass: required key 'mass' is missing" \
+  -- fall "$tmp/missing.yaml" --set "wind.speed=3.7 m/s"
+stdin=$tmp/missing.yaml
+refused "the same from standard input" "plumb: <stdin>:3:3: payload.mass: " -- fall -
+stdin=
+refused "sweep of the same" "missing.yaml:3:3: payload.mass: " \
+  -- sweep "$tmp/missing.yaml" --vary "release.height=10m:20m:5m"
+refused "limit of the same" "missing.yaml:3:3: payload.mass: " \
+  -- limit "$tmp/missing.yaml" --find release.height --energy-max 40J
+refused "zone of the same" "missing.yaml:3:3: payload.mass: " -- zone "$tmp/missing.yaml"
+printf 'name: cross\npayload:\n  mass: 2.385 kg\n  drag: {cd: 0.9, area: 0.0113 m^2}\ndescent:\n  cd: 0.8\n  area: 1.2 m^2\n  deploy: {below: 60 m}\nrelease:\n  height: 31.6 m\nwind:\n  profile: log\n  speed: 5 m/s\n  reference_height: 10 m\n  roughness: 20 m\n' \
+  >"$tmp/cross.yaml"
+refused "a refused deploy height before a refused roughness" \
+  "plumb: $tmp/cross.yaml:8:19: descent.deploy.below: must be below the release height" \
+  "!wind.roughness" -- fall "$tmp/cross.yaml"
+# a required key missing (line 3) before a number out of range (line 7,
+# a wind of 400 m/s above the sea-level speed of sound, 340.294 m/s, U.S.
+# Standard Atmosphere 1976, Table I), which the schema's check meets first
+printf 'name: m2\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\nwind:\n  speed: 400 m/s\n' \
+  >"$tmp/m2.yaml"
+refused "a missing mass before a wind out of range" "m2.yaml:3:3: payload.mass: " "!wind.speed" \
+  -- fall "$tmp/m2.yaml"
+# an unknown criterion id (line 2) before a required key missing (line 4):
+# the loader checks no ids (the study does, once the profile loads), but
+# the error told is still the first in file order, lint's first
+printf 'name: crit\ncriteria: [en397-shok-49j]\npayload:\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\n' \
+  >"$tmp/crit.yaml"
+refused "an unknown id before a missing mass" "plumb: $tmp/crit.yaml:2:12: criteria[0]: unknown criterion" \
+  "did you mean 'en397-shock-49j'" "!payload.mass" -- fall "$tmp/crit.yaml"
+stdin=$tmp/crit.yaml
+refused "the same from standard input" "plumb: <stdin>:2:12: criteria[0]: " -- fall -
+stdin=
+refused "zone of the same" "crit.yaml:2:12: criteria[0]: " -- zone "$tmp/crit.yaml"
+for f in missing cross m2 crit; do
+  "$bin" lint "$tmp/$f.yaml" >"$tmp/lint.out" 2>"$tmp/lint.err"
+  "$bin" fall "$tmp/$f.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+  if [ "$(sed -n 1p "$tmp/lint.err")" = "$(cat "$tmp/stderr")" ] &&
+     [ "$(grep -c '^plumb: ' "$tmp/lint.err")" -eq 2 ]; then
+    pass=$((pass + 1))
+  else
+    bad "$f: fall's error is not lint's first of two: $(cat "$tmp/stderr") / $(cat "$tmp/lint.err")"
+  fi
+done
+
 # ---- 2. a suggestion the key accepts -----------------------------------------
 # atmosphere.temperature takes 150 K .. 400 K (README.md "Profile keys"): a
 # bare 45 is not offered as 45 K; 45 degC = 318.15 K and 45 degF = 280.372 K
@@ -172,6 +229,37 @@ refused "two bad --set values: the first" "plumb: --set:1:14: payload.mass: " \
   -- fall "$tmp/shape.yaml" --set "payload.mass=heavy" --set "payload.drag.area=5 KG"
 refused "a bad --set value and a bad file" "plumb: --set:1:12: wind.speed: " \
   -- fall "$tmp/three.yaml" --set "wind.speed=9 KT"
+# a --set of the wrong kind is its own value too: told before the file's
+# errors, however early they stand (an unknown key at line 3, a drag of
+# the wrong kind at line 4, a mass out of range at line 3), as a --set's
+# unit or range is (README.md "Exit status": a --set's own value first)
+printf 'name: typo\npayload:\n  mas: 2.385 kg\n  drag: {cd: 0.9, area: 0.0113 m^2}\nrelease:\n  height: 31.6 m\n' \
+  >"$tmp/typo.yaml"
+printf 'name: kind\npayload:\n  mass: 2.385 kg\n  drag: 7\nrelease:\n  height: 31.6 m\nwind: {speed: 3 m/s}\n' \
+  >"$tmp/kind.yaml"
+refused "--set release=5 over an unknown key" "plumb: --set:1:9: release: expected a map" \
+  "!payload.mas" -- fall "$tmp/typo.yaml" --set "release=5"
+refused "--set wind.speed={a: 1} over a drag of the wrong kind" \
+  "plumb: --set:1:12: wind.speed: expected a speed" "!payload.drag" \
+  -- fall "$tmp/kind.yaml" --set "wind.speed={a: 1}"
+refused "--set wind=[1] over a drag of the wrong kind" "plumb: --set:1:6: wind: expected a map" \
+  -- fall "$tmp/kind.yaml" --set "wind=[1]"
+refused "--set payload.drag=5 over a mass out of range" "plumb: --set:1:14: payload.drag: expected a map" \
+  "!payload.mass" -- fall "$tmp/three.yaml" --set "payload.drag=5"
+refused "--set wind.profile=powr over an unknown key" "plumb: --set:1:14: wind.profile: " \
+  "did you mean 'power'" -- fall "$tmp/typo.yaml" --set "wind.profile=powr"
+# of two bad --set values, the first --set's, whatever the kind of either
+refused "a wrong kind after a wrong unit" "plumb: --set:1:12: wind.speed: " \
+  -- fall "$good" --set "wind.speed=9 KT" --set "payload.drag=5"
+refused "a wrong unit after a wrong kind" "plumb: --set:1:14: payload.drag: " \
+  -- fall "$good" --set "payload.drag=5" --set "wind.speed=9 KT"
+# lint tells the same first
+"$bin" lint "$tmp/typo.yaml" --set "release=5" >"$tmp/stdout" 2>"$tmp/stderr"
+if grep -q "^plumb: --set:1:9: release: expected a map" "$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "lint of a --set of the wrong kind: $(cat "$tmp/stderr")"
+fi
 
 # ---- 5. a range's count --------------------------------------------------------
 # 0 m to 1 m by 0.00001 m is 1/0.00001 + 1 = 100001 values: one more than
@@ -211,6 +299,41 @@ refused "--temperature-offset 200K" \
 refused "--temperature-offset 360 degF" \
   "plumb: <command line>: --temperature-offset: '360 degF': 200 K is out of range" \
   -- air --temperature-offset "360 degF"
+
+# ---- 7. a mass beyond any lift ----------------------------------------------------
+# payload.mass (an item's, the downwash's aircraft_mass) is at most 1e8 kg
+# (README.md "Profile keys"): 1e308 lb (4.5e307 kg) passed the old "> 0"
+# and failed only in the fall, exit 3. It is an input error at its line
+# and column, naming the key and the range; in US units too: 1e8 kg is
+# 220462262.2 lb (NIST SP 811, 2008, B.8: 1 lb = 0.45359237 kg exactly),
+# shown rounded inward, 2.20462e+08 lb.
+printf 'name: huge
+payload:
+  mass: 1e308 lb
+  drag: {cd: 0.9, area: 0.0113 m^2}
+release: {height: 31.6 m}
+' \
+  >"$tmp/huge.yaml"
+refused "a mass of 1e308 lb" "plumb: $tmp/huge.yaml:3:9: payload.mass: must be > 0 kg and <= 1e+08 kg" \
+  "found '1e308 lb'" -- fall "$tmp/huge.yaml"
+refused "a mass just above 1e8 kg" "plumb: --set:1:14: payload.mass: must be > 0 kg and <= 1e+08 kg" \
+  -- fall "$tmp/huge.yaml" --set "payload.mass=100000001 kg"
+refused "an item's mass of 2e8 kg" "plumb: --set:1:15: items[2].mass: must be > 0 kg and <= 1e+08 kg" \
+  -- fall "$inv" --set "items[2].mass=2e8 kg"
+refused "an aircraft of 1e9 kg" "release.downwash.aircraft_mass: must be > 0 kg and <= 1e+08 kg" \
+  -- fall "$good" --set "release.downwash={aircraft_mass: 1e9 kg, disk_area: 1.2 m^2}"
+"$bin" lint --units us "$tmp/huge.yaml" >"$tmp/stdout" 2>"$tmp/stderr"
+if grep -q -F "[US: > 0 lb and <= 2.20462e+08 lb]" "$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "lint --units us: the mass's range in pounds: $(cat "$tmp/stderr")"
+fi
+# the bound itself is a mass like any other: 1e8 kg falls
+if "$bin" fall "$tmp/huge.yaml" --set "payload.mass=1e8 kg" >"$tmp/stdout" 2>"$tmp/stderr"; then
+  pass=$((pass + 1))
+else
+  bad "a mass of 1e8 kg is refused: $(cat "$tmp/stderr")"
+fi
 
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

@@ -156,7 +156,12 @@ check(rc == 2 and f"[US: 0 ft/s .. {hi:.2f} ft/s]" in err,
 lo_f, hi_f = 1.8 * 150 - 459.67, 1.8 * 400 - 459.67
 check(f"[US: {lo_f:.2f} °F .. {hi_f:.2f} °F]" in err,
       f"--units us: 150 K .. 400 K is {lo_f:.2f} .. {hi_f:.2f} degF: {err}")
-check("[US: > 0 lb]" in err and "payload.drag.cd: must be 0 .. 10 (0: drag-free), found '-0.2'\n"
+# a mass is > 0 kg and at most 1e8 kg (README.md "Profile keys"): 1e8 kg
+# is 220462262.2 lb (NIST SP 811, 2008, B.8: 1 lb = 0.45359237 kg exactly),
+# 6 figures toward the inside
+mass_hi = math.floor(1e8 / 0.45359237 / 1e3) * 1e3
+check(f"[US: > 0 lb and <= {mass_hi:.6g} lb]" in err and
+      "payload.drag.cd: must be 0 .. 10 (0: drag-free), found '-0.2'\n"
       in err, f"--units us: > 0 kg is > 0 lb; a bare number gets nothing: {err}")
 rc, out, _ = plumb("lint", *BAD, "--units", "us", "--format", "csv")
 check(rc == 2 and any(r["message"].endswith(f"[US: 0 ft/s .. {hi:.2f} ft/s]")
@@ -350,6 +355,89 @@ want = [place(DESC, "5}") + ("descent.deploy",),
         place(DESC, "foo") + ("criteria[0]",)]
 check(got == want, f"a deploy that is no map, then the wind and the id, not the cd's "
       f"uncertainty: {got} / {want}")
+
+# a deploy that is no map, in a section that has another error: an empty
+# deploy map, its trigger stood in, stands in for it, so that the rest
+# of the descent is still checked (fill_time and fill_constant together,
+# README.md "Profile keys": not with fill_constant); of two devices, the
+# second's deploy height above the release (below < release.height)
+DEP = """name: deploy no map
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 131.6 m}
+descent: {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: 5, fill_time: 1 s, fill_constant: 8}
+"""
+got = [e[1:4] for e in lint_all(write("dep.yaml", DEP), "a deploy that is no map")]
+want = [place(DEP, "5, fill") + ("descent.deploy",),
+        place(DEP, "fill_constant") + ("descent.fill_constant",)]
+check(got == want, f"a deploy that is no map, then the descent's own other error: {got} / {want}")
+DEP2 = """name: two devices
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 131.6 m}
+descent:
+  - {kind: drogue, cd: 0.8, area: 0.2 m^2, deploy: 5}
+  - {kind: parachute, cd: 0.8, area: 1.2 m^2, deploy: {below: 200 m}}
+"""
+got = [e[1:4] for e in lint_all(write("dep2.yaml", DEP2), "a first device's deploy no map")]
+want = [place(DEP2, "5}") + ("descent[0].deploy",),
+        place(DEP2, "200 m") + ("descent[1].deploy.below",)]
+check(got == want, f"the first device's deploy, then the second device's: {got} / {want}")
+# an optional map that is no map is left out, not stood in (its required
+# keys would then stand in for an aircraft of our making): the release's
+# other error (a speed without its heading) is still found
+DW = """name: downwash no map
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release:
+  height: 31.6 m
+  downwash: [25 kg, 1.2 m^2]
+  velocity: {speed: 3 m/s}
+"""
+got = [e[1:4] for e in lint_all(write("dw.yaml", DW), "a downwash that is no map")]
+want = [place(DW, "[25 kg") + ("release.downwash",),
+        place(DW, "{speed") + ("release.velocity.heading",)]
+check(got == want, f"a downwash that is no map, then the velocity's heading: {got} / {want}")
+
+# a site that is no map, left out after its error: a point given by
+# latitude and longitude (release.position, zone.target) then "needs the
+# site's: site.latitude and site.longitude", a consequence of the site
+# left out, not an error of the file: not listed; the check goes on past
+# it to the wind's roughness, refused against its reference height (the
+# log law holds above the roughness length, README.md "Profile keys":
+# roughness < reference_height)
+SITE = """name: site left out
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release:
+  height: 31.6 m
+  position: {latitude: 54.2001 deg, longitude: -2.6101 deg}
+site: [54.2 deg, -2.61 deg]
+zone:
+  samples: 1000
+  target: {latitude: 54.2002 deg, longitude: -2.6102 deg}
+wind: {profile: log, speed: 5 m/s, reference_height: 10 m, roughness: 20 m}
+"""
+site = write("site.yaml", SITE)
+got = [e[1:4] for e in lint_all(site, "a site left out")]
+want = [place(SITE, "[54.2 deg") + ("site",),
+        place(SITE, "20 m}") + ("wind.roughness",)]
+check(got == want, f"a site that is no map, then the wind's roughness, not the points that "
+      f"need the site: {got} / {want}")
+
+# an air table whose second altitude is refused (0 m after 100 m): the
+# stand-in that sets it aside gives the table a span the file does not
+# ("100 m .. 1000 m"), which is not listed: the altitude alone
+TAB = """name: table out of order
+payload: {mass: 2.385 kg, drag: {cd_area: 0.0113 m^2}}
+release: {height: 27.4 m}
+atmosphere:
+  model: table
+  table:
+    - {altitude: 100 m, density: 1.2 kg/m^3}
+    - {altitude: 0 m, density: 1.19 kg/m^3}
+"""
+tab = write("tab.yaml", TAB)
+errs = lint_all(tab, "an air table out of order")
+check([e[1:4] for e in errs] == [place(TAB, "0 m, density: 1.19") +
+                                 ("atmosphere.table[1].altitude",)],
+      f"a table out of order: the altitude alone, no span of a stand-in: {errs}")
 
 # items written but refused (an empty list, a map where a list of maps is
 # wanted): "payload" then missing only follows from setting items aside (a
