@@ -133,8 +133,9 @@ const char *plumby_expected(const plumby_schema *s, char *buf, size_t size)
         else if (dim == PLUMB_DIM_FRACTION)
             snprintf(buf, size, "a fraction (0.5, or 50 %%)");
         else
-            snprintf(buf, size, "a %s with its unit (SI: %s)", plumb_dim_name(dim),
-                     plumb_dim_si_unit(dim));
+            snprintf(buf, size, "%s %s with its unit (SI: %s)",
+                     (unsigned)dim < (unsigned)PLUMB_DIM_COUNT ? dims[dim].article : "a",
+                     plumb_dim_name(dim), plumb_dim_si_unit(dim));
         break;
     }
     case PLUMBY_T_COUNT:
