@@ -114,6 +114,17 @@ static inline const char *num(writer *w, double x, int sig)
     return b;
 }
 
+/* A number for CSV: sig significant digits, shortest form. */
+static inline const char *csvnum_at(writer *w, double x, int sig)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    snprintf(b, NUMBUF, "%.*g", sig, x == 0.0 ? 0.0 : x);
+    return b;
+}
+
 /* A number for CSV: CSV_DIGITS significant digits, shortest form. */
 static inline const char *csvnum(writer *w, double x)
 {
