@@ -62,10 +62,11 @@ static void text_impact(writer *w, const plumb_item_report *it)
         plumbp_t_energy_at(w, r->energy_j, plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG)));
     put(w, "  time       %s s after release\n", num(w, r->time_s, TEXT_SIG));
     if (r->drift_m < DRIFT_SHOWN_M)
-        put(w, "  drift      none: lands below the release point\n");
+        put(w, "  drift      %s: lands below the release point\n", plumbp_t_drift(w, r->drift_m, 1));
     else
-        put(w, "  drift      %s toward %s from the release point%s\n", plumbp_t_len(w, r->drift_m),
-            plumbp_t_bearing(w, r->bearing_deg), plumbp_si_bracket(w, r->drift_m, "m"));
+        put(w, "  drift      %s toward %s from the release point%s\n",
+            plumbp_t_drift(w, r->drift_m, 1), plumbp_t_bearing(w, r->bearing_deg),
+            plumbp_si_bracket(w, r->drift_m, "m"));
     const plumb_fall_spec *s = it->spec;
     if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
         put(w, "  lands at   %s, %s of the planned drop point\n",
@@ -540,7 +541,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         pad(w, num(w, r->speed_m_s / conv_len, TEXT_SIG), NUM_W, 1);
         pad(w, num(w, w->us ? e_ftlbf : e_j, esig), NUM_W, 1);
         pad(w, num(w, w->us ? e_j : e_ftlbf, esig), NUM_W, 1);
-        pad(w, plumbp_fixed(w, r->drift_m / conv_len, 2), NUM_W, 1);
+        pad(w, plumbp_t_drift(w, r->drift_m, 0), NUM_W, 1); /* as the single fall's */
         for (size_t k = 0; inline_crit && k < nv; k++)
             inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == nv);
         put(w, "\n");

@@ -420,6 +420,19 @@ const char *plumbp_t_len(writer *w, double m)
     return b;
 }
 
+/* format.h */
+const char *plumbp_t_drift(writer *w, double m, int unit)
+{
+    if (m < DRIFT_SHOWN_M) {
+        char *b = slot(w);
+        snprintf(b, NUMBUF, "none");
+        return b;
+    }
+    if (unit)
+        return plumbp_t_len(w, m);
+    return qty(w, w->us ? m / PLUMB_FT_M : m);
+}
+
 /* A length of a zone's spread (format.h): TEXT_SIG figures, none below a
  * millimetre (or a thousandth of a foot). */
 #define ZONE_LEN_DEC 3
@@ -759,6 +772,13 @@ const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size
             int k = snprintf(out + n, size - n, "%s", shown);
             n = k < 0 ? n : (size_t)k < size - n ? n + (size_t)k : size - 1;
             p = end + 1;
+        } else if (*p == ' ' && n > 0 && isdigit((unsigned char)out[n - 1]) &&
+                   unit_like(p + 1, strcspn(p + 1, " "))) {
+            /* a number written into the sentence with its unit or % ("1.5000 s",
+             * "40.3 %"): joined as the marks' are, so no line parts them */
+            out[n++] = NBSP_CHAR;
+            out[n] = '\0';
+            p++;
         } else {
             out[n++] = *p++;
             out[n] = '\0';

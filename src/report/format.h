@@ -70,6 +70,11 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
 int plumbp_shows_zero(const char *s);
 const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
+/* A fall's drift, one formatter for every report that gives it: "none"
+ * below DRIFT_SHOWN_M (it lands below its release point), else the length
+ * as plumbp_t_len gives it (TEXT_SIG figures), with its unit, or the
+ * number alone when unit is 0 (a table's column, under its unit). */
+const char *plumbp_t_drift(writer *w, double m, int unit);
 /* A length of a zone's spread of samples (an ellipse's semi-axes, a
  * radius): TEXT_SIG figures but no digit below a millimetre (a thousandth
  * of a foot), which a spread is not known finer than: a semi-axis of

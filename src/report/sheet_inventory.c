@@ -208,8 +208,8 @@ static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, co
     cells[4 + b->n_criteria] = exceeds ? "<b>exceeds</b>" : "within all";
     cells[5 + b->n_criteria] =
         it->result.drift_m < DRIFT_SHOWN_M
-            ? "none"
-            : sheet_fmt(d, "%s toward %s", plumbp_t_len(P, it->result.drift_m),
+            ? plumbp_t_drift(P, it->result.drift_m, 1)
+            : sheet_fmt(d, "%s toward %s", plumbp_t_drift(P, it->result.drift_m, 1),
                         plumbp_t_bearing(P, it->result.bearing_deg));
 }
 

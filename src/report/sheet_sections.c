@@ -699,8 +699,9 @@ plumb_status sheet_section_answer(sheet_doc *d, const plumb_brief *b, plumb_diag
                                                                         TEXT_SIG))));
     answer_line(d, "Time of fall", sheet_fmt(d, "%s s", num(P, r->time_s, TEXT_SIG)));
     answer_line(d, "Drift", r->drift_m < DRIFT_SHOWN_M
-                                ? "none: lands below the release point"
-                                : sheet_fmt(d, "%s %s toward %s", plumbp_t_len(P, r->drift_m),
+                                ? sheet_fmt(d, "%s: lands below the release point",
+                                            plumbp_t_drift(P, r->drift_m, 1))
+                                : sheet_fmt(d, "%s %s toward %s", plumbp_t_drift(P, r->drift_m, 1),
                                             beside(d, plumbp_t_len(S, r->drift_m)),
                                             plumbp_t_bearing(P, r->bearing_deg)));
     d->y += GAP / 2.0;

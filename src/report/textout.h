@@ -284,10 +284,13 @@ static inline void verdict_cell(writer *w, size_t gap, size_t ratio_w, const cha
 }
 
 /* 1 when a word looks like the unit of the number before it ("m",
- * "m^2", "kg", "ft·lbf"): short and starting with a letter. */
+ * "m^2", "kg", "ft·lbf", "%", "%)"): short and starting with a letter or
+ * a percent sign (SI Brochure, 9th ed., 2019, 5.4.7: a space between the
+ * number and %, which is as much the number's as a unit is). */
 static inline int unit_like(const char *p, size_t len)
 {
-    return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
+    return len > 0 && len <= 8 &&
+           (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80 || p[0] == '%');
 }
 
 /* Columns of the first len bytes of s (see shown_width). */
