@@ -559,13 +559,30 @@ static inline const char *compass(double bearing_deg)
     return points[(size_t)k % COMPASS_POINTS];
 }
 
+/* 1 when a text cell starts with a character a spreadsheet may take as
+ * the start of a formula (= + - @, a tab or a carriage return: OWASP,
+ * "CSV Injection", owasp.org/www-community/attacks/CSV_Injection). */
+static inline int csv_formula_start(const char *s)
+{
+    return s[0] != '\0' && strchr("=+-@\t\r", s[0]) != NULL;
+}
+
+/* A TEXT cell of every CSV report (a name, a key, a unit, a message),
+ * quoted as RFC 4180 asks when it holds a comma, quote or line end. A text
+ * that a spreadsheet would read as a formula ("=1+2 formula", "@SUM(...)",
+ * "-2+3") is neutralised as OWASP's "CSV Injection" guidance recommends: a
+ * single quote before it, so the cell shows as text and no formula runs.
+ * Numbers never go through here (csvnum, put), so a negative number stays
+ * a number. README.md "plumb fall", CSV. */
 static inline void csv_field(writer *w, const char *s)
 {
+    const char *lead = csv_formula_start(s) ? "'" : "";
     if (strpbrk(s, ",\"\r\n") == NULL) {
-        put(w, "%s", s);
+        put(w, "%s%s", lead, s);
         return;
     }
     fputc('"', w->f);
+    fputs(lead, w->f);
     for (const char *p = s; *p; p++) {
         if (*p == '"')
             fputc('"', w->f);
