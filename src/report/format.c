@@ -320,9 +320,15 @@ static int sides_agree(double e, double l, int exceeds, int strict)
  * shows which side it is on (equal only when they are). */
 static int shown_agree(double xs, double ls, double x, double l, int exceeds, int strict)
 {
+    /* a figure equal to its limit to within the round-off of its
+     * conversions (a few units in the last place, as plumbp_round_safe
+     * takes a whole number) is at the limit: shown equal to it, its verdict
+     * word tells the side, rather than with the 17 figures that would */
+    if (fabs(x - l) <= 16.0 * DBL_EPSILON * fmax(fabs(x), fabs(l)))
+        return xs == ls || sides_agree(xs, ls, exceeds, strict);
     if (!sides_agree(xs, ls, exceeds, strict))
         return 0;
-    return x == l || ((xs < ls) == (x < l) && xs != ls);
+    return (xs < ls) == (x < l) && xs != ls;
 }
 
 /* 1 when v's energy at esig figures (to the nearest) and its limit at lsig
