@@ -84,6 +84,10 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
 {
     const plumb_fall_result *r = &it->result;
     int dev = it->spec->n_descent > 0;
+    /* the energy, each ratio and (in the comment lines) each limit with the
+     * figures that show which side of the limit the energy is (README.md
+     * "Criteria"), CSV_DIGITS at least */
+    int esig = plumbp_energy_sig(it->verdicts, it->n_verdicts, CSV_DIGITS);
     put(w, "%zu,", number);
     csv_field(w, it->spec->name);
     if (w->us) {
@@ -91,7 +95,7 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
         put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
             csvnum(w, it->spec->mass_kg / PLUMB_LB_KG), csvnum(w, r->time_s),
             csvnum(w, r->speed_m_s / ft), csvnum(w, r->speed_m_s / MPH_M_S),
-            csvnum(w, r->energy_j / PLUMB_FT_LBF_J), csvnum(w, r->energy_j),
+            csvnum_at(w, r->energy_j / PLUMB_FT_LBF_J, esig), csvnum_at(w, r->energy_j, esig),
             csvnum(w, r->momentum_kg_m_s / LBF_N), csvnum(w, r->angle_deg),
             csvnum(w, r->drift_m / ft), csv_bearing(w, r),
             csvnum(w, r->point_m[0] / ft), csvnum(w, r->point_m[1] / ft),
@@ -105,7 +109,7 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
     } else {
         put(w, ",%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s,%s",
             csvnum(w, it->spec->mass_kg), csvnum(w, r->time_s), csvnum(w, r->speed_m_s),
-            csvnum(w, r->energy_j), csvnum(w, r->energy_j / PLUMB_FT_LBF_J),
+            csvnum_at(w, r->energy_j, esig), csvnum_at(w, r->energy_j / PLUMB_FT_LBF_J, esig),
             csvnum(w, r->momentum_kg_m_s), csvnum(w, r->angle_deg), csvnum(w, r->drift_m),
             csv_bearing(w, r), csvnum(w, r->point_m[0]), csvnum(w, r->point_m[1]),
             r->terminal_speed_m_s > 0.0 ? csvnum(w, r->terminal_speed_m_s) : "");
@@ -115,7 +119,9 @@ void plumbp_csv_item_cols(writer *w, const plumb_item_report *it, size_t number)
             dev ? csvnum(w, r->peak_force_n) : "");
     }
     for (size_t k = 0; k < it->n_verdicts; k++)
-        put(w, ",%s,%s", csvnum(w, it->verdicts[k].ratio), plumbp_verdict_word(&it->verdicts[k]));
+        put(w, ",%s,%s",
+            csvnum_at(w, it->verdicts[k].ratio, plumbp_ratio_sig(&it->verdicts[k], CSV_DIGITS)),
+            plumbp_verdict_word(&it->verdicts[k]));
 }
 
 /* One item's columns, ending the row. */
@@ -137,7 +143,8 @@ void plumbp_csv_fall(writer *w, const plumb_fall_report *rep)
         const plumb_criterion *c = first->verdicts[k].criterion;
         snprintf(text, sizeof text,
                  "criterion %s: %s, kind %s, limit %s, source: %s, status %s", c->id, c->name,
-                 plumbp_crit_kind_name(c->kind), plumbp_csv_limit(w, c->energy_limit_j),
+                 plumbp_crit_kind_name(c->kind),
+                 plumbp_csv_limit_at(w, c->energy_limit_j, plumbp_report_limit_sig(rep, k, CSV_DIGITS)),
                  plumbp_t_source(w, c, quoted, sizeof quoted), c->status[0] ? c->status : "not given");
         csv_comment(w, text);
     }

@@ -56,13 +56,17 @@ static void text_impact(writer *w, const plumb_item_report *it)
     else
         put(w, "  speed      %s (%s km/h)\n", plumbp_t_speed(w, r->speed_m_s),
             num(w, r->speed_m_s / KMH_M_S, TEXT_SIG));
-    put(w, "  energy     %s\n", plumbp_t_energy(w, r->energy_j));
+    /* as many figures as the criteria below need to show its side of each
+     * limit (plumbp_energy_sig), so that the one figure reads the same */
+    put(w, "  energy     %s\n",
+        plumbp_t_energy_at(w, r->energy_j, plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG)));
     put(w, "  time       %s s after release\n", num(w, r->time_s, TEXT_SIG));
     if (r->drift_m < DRIFT_SHOWN_M)
-        put(w, "  drift      none: lands below the release point\n");
+        put(w, "  drift      %s: lands below the release point\n", plumbp_t_drift(w, r->drift_m, 1));
     else
-        put(w, "  drift      %s toward %s from the release point%s\n", plumbp_t_len(w, r->drift_m),
-            plumbp_t_bearing(w, r->bearing_deg), plumbp_si_bracket(w, r->drift_m, "m"));
+        put(w, "  drift      %s toward %s from the release point%s\n",
+            plumbp_t_drift(w, r->drift_m, 1), plumbp_t_bearing(w, r->bearing_deg),
+            plumbp_si_bracket(w, r->drift_m, "m"));
     const plumb_fall_spec *s = it->spec;
     if (s->release_m[0] != 0.0 || s->release_m[1] != 0.0)
         put(w, "  lands at   %s, %s of the planned drop point\n",
@@ -76,10 +80,11 @@ static void text_impact(writer *w, const plumb_item_report *it)
     put(w, "  angle      %s° below horizontal\n", plumbp_fixed(w, r->angle_deg, 1));
 }
 
-/* A criterion's limit, rounded down in both units (the strict side). */
-static void text_limit(writer *w, const plumb_criterion *c, char *buf, size_t size)
+/* A criterion's limit, rounded down in both units (the strict side), to
+ * sig significant figures. */
+static void text_limit(writer *w, const plumb_criterion *c, int sig, char *buf, size_t size)
 {
-    snprintf(buf, size, "limit %s", plumbp_t_limit_energy(w, c->energy_limit_j));
+    snprintf(buf, size, "limit %s", plumbp_t_limit_energy_at(w, c->energy_limit_j, sig));
 }
 
 /* How sure the criterion's figure is, when it is not read in the source
@@ -95,14 +100,18 @@ static void text_verdicts(writer *w, const plumb_item_report *it)
         put(w, "\nCriteria\n  none judged\n");
         return;
     }
-    put(w, "\nCriteria, against %s at impact\n", plumbp_t_energy(w, it->result.energy_j));
+    /* the energy and each limit with the figures that show which side of
+     * it the energy is (README.md "Criteria"): never "78.64 J" within a
+     * limit of "78.63 J" */
+    int esig = plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG);
+    put(w, "\nCriteria, against %s at impact\n", plumbp_t_energy_at(w, it->result.energy_j, esig));
     for (size_t i = 0; i < it->n_verdicts; i++) {
         const plumb_verdict *v = &it->verdicts[i];
         const plumb_criterion *c = v->criterion;
         char lim[NUMBUF * 2], line[NUMBUF * 4];
-        text_limit(w, c, lim, sizeof lim);
+        text_limit(w, c, plumbp_limit_sig(v, esig, TEXT_SIG), lim, sizeof lim);
         put(w, "  %-8s %s\n", v->exceeds ? "EXCEEDS" : "WITHIN", c->name);
-        snprintf(line, sizeof line, "%s, ratio %s, %s%s", lim, num(w, v->ratio, RATIO_SIG),
+        snprintf(line, sizeof line, "%s, ratio %s, %s%s", lim, plumbp_t_ratio(w, v),
                  plumbp_verdict_word(v),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "");
         wrapped(w, "           ", line);
@@ -429,7 +438,7 @@ void plumbp_text_single(writer *w, const plumb_report_options *opt, const plumb_
 static void inventory_verdict(writer *w, const plumb_verdict *v, size_t gap, size_t ratio_w,
                               int last)
 {
-    verdict_cell(w, gap, ratio_w, num(w, v->ratio, RATIO_SIG), v->exceeds ? "EXCEEDS" : "within",
+    verdict_cell(w, gap, ratio_w, plumbp_t_ratio(w, v), v->exceeds ? "EXCEEDS" : "within",
                  last);
 }
 
@@ -485,7 +494,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     for (size_t k = 0; k < nv && k < PLUMB_MAX_VERDICTS; k++) {
         rw[k] = shown_width("ratio");
         for (size_t i = 0; i < rep->n_items; i++) {
-            size_t n = shown_width(num(w, rep->items[i].verdicts[k].ratio, RATIO_SIG));
+            size_t n = shown_width(plumbp_t_ratio(w, &rep->items[i].verdicts[k]));
             if (n > rw[k])
                 rw[k] = n;
         }
@@ -527,11 +536,12 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
         pad(w, part, name_w, 0);
         double conv_len = w->us ? PLUMB_FT_M : 1.0;
         double e_j = r->energy_j, e_ftlbf = r->energy_j / PLUMB_FT_LBF_J;
+        int esig = plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG);
         pad(w, plumbp_gnum(w, it->spec->mass_kg / (w->us ? PLUMB_LB_KG : 1.0), TEXT_SIG), NUM_W, 1);
         pad(w, num(w, r->speed_m_s / conv_len, TEXT_SIG), NUM_W, 1);
-        pad(w, num(w, w->us ? e_ftlbf : e_j, TEXT_SIG), NUM_W, 1);
-        pad(w, num(w, w->us ? e_j : e_ftlbf, TEXT_SIG), NUM_W, 1);
-        pad(w, plumbp_fixed(w, r->drift_m / conv_len, 2), NUM_W, 1);
+        pad(w, num(w, w->us ? e_ftlbf : e_j, esig), NUM_W, 1);
+        pad(w, num(w, w->us ? e_j : e_ftlbf, esig), NUM_W, 1);
+        pad(w, plumbp_t_drift(w, r->drift_m, 0), NUM_W, 1); /* as the single fall's */
         for (size_t k = 0; inline_crit && k < nv; k++)
             inventory_verdict(w, &it->verdicts[k], CRIT_GAP, rw[k], k + 1 == nv);
         put(w, "\n");
@@ -571,7 +581,7 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
             char lead[32], lim[NUMBUF * 2];
             char line[PLUMB_CRIT_TEXT * 4 + PLUMB_CRIT_ID + NUMBUF * 3], quoted[PLUMB_CRIT_TEXT * 2];
             snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
-            text_limit(w, c, lim, sizeof lim);
+            text_limit(w, c, plumbp_report_limit_sig(rep, k, TEXT_SIG), lim, sizeof lim);
             snprintf(line, sizeof line, "%s [%s]: %s%s; source: %s%s%s%s", c->name, c->id, lim,
                      c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
                      plumbp_t_source(w, c, quoted, sizeof quoted), plumbp_status_note(c)[0] ? " (" : "",
@@ -586,10 +596,13 @@ void plumbp_text_inventory(writer *w, const plumb_report_options *opt, const plu
     long sk = plumbp_strictest(worst);
     if (sk >= 0)
         snprintf(line, sizeof line, "%s: %s at %s, %s times the strictest limit, C%ld of %s: %s",
-                 worst->spec->name, plumbp_t_energy(w, worst->result.energy_j),
+                 worst->spec->name,
+                 plumbp_t_energy_at(w, worst->result.energy_j,
+                                    plumbp_energy_sig(worst->verdicts, worst->n_verdicts, TEXT_SIG)),
                  plumbp_t_speed(w, worst->result.speed_m_s),
-                 num(w, worst->verdicts[sk].ratio, RATIO_SIG), sk + 1,
-                 plumbp_t_limit_energy(w, worst->verdicts[sk].criterion->energy_limit_j),
+                 plumbp_t_ratio(w, &worst->verdicts[sk]), sk + 1,
+                 plumbp_t_limit_energy_at(w, worst->verdicts[sk].criterion->energy_limit_j,
+                                          plumbp_report_limit_sig(rep, (size_t)sk, TEXT_SIG)),
                  plumbp_verdict_word(&worst->verdicts[sk]));
     else
         snprintf(line, sizeof line, "%s: %s at %s", worst->spec->name,

@@ -238,14 +238,21 @@ const char *plumbp_t_limit_energy(writer *w, double j)
     return plumbp_t_limit(w, plumbp_t_energy, j);
 }
 
-/* A criterion's energy limit in a CSV comment, CSV_DIGITS figures rounded
- * down (the strict side): "33.89544871 J", or with --units us
+/* A criterion's energy limit in a CSV comment, CSV_DIGITS (or sig) figures
+ * rounded down (the strict side): "33.89544871 J", or with --units us
  * "25 ft·lbf (33.89544871 J)". */
 const char *plumbp_csv_limit(writer *w, double j)
 {
-    char si[32], us[32]; /* CSV_DIGITS figures and an exponent */
-    snprintf(si, sizeof si, "%s", csvnum(w, plumbp_round_safe(j, CSV_DIGITS, 1)));
-    snprintf(us, sizeof us, "%s", csvnum(w, plumbp_round_safe(j / PLUMB_FT_LBF_J, CSV_DIGITS, 1)));
+    return plumbp_csv_limit_at(w, j, CSV_DIGITS);
+}
+
+const char *plumbp_csv_limit_at(writer *w, double j, int sig)
+{
+    char si[40], us[40]; /* up to 17 figures and an exponent */
+    snprintf(si, sizeof si, "%.*g", sig, plumbp_round_safe(j, sig, 1));
+    snprintf(us, sizeof us, "%.*g", sig, plumbp_round_safe(j / PLUMB_FT_LBF_J, sig, 1));
+    if (!plumbp_finite(j))
+        w->bad = 1;
     char *b = slot(w);
     if (w->us)
         snprintf(b, NUMBUF, "%s ft·lbf (%s J)", us, si);
@@ -271,7 +278,8 @@ const char *plumbp_gnum(writer *w, double x, int sig)
 static const char *qty(writer *w, double x)
 {
     if (w->strict)
-        return num(w, plumbp_round_safe(x, TEXT_SIG, 1), TEXT_SIG);
+        return num(w, plumbp_round_safe(x, w->sig ? w->sig : TEXT_SIG, 1),
+                   w->sig ? w->sig : TEXT_SIG);
     if (w->round_dir) {
         int sig = w->sig ? w->sig : TEXT_SIG;
         return num(w, plumbp_round_safe(x, sig, w->round_dir < 0), sig);
@@ -279,6 +287,131 @@ static const char *qty(writer *w, double x)
     if (!w->exact)
         return num(w, x, w->sig ? w->sig : TEXT_SIG);
     return plumbp_gnum(w, x, w->us ? TEXT_SIG : INPUT_SIG);
+}
+
+/* ---- a figure beside the limit it is judged against -------------------- */
+
+/* The most figures a compared pair is given: a double's 17 tell any two
+ * apart that differ at all. */
+#define PAIR_SIG_MAX 17
+
+/* x to `sig` significant figures, to the nearest, as num and csvnum show
+ * it (%.*g rounds as num's fixed decimals do), read back. */
+static double shown_nearest(double x, int sig)
+{
+    char b[64];
+    snprintf(b, sizeof b, "%.*g", sig, x);
+    return strtod(b, NULL);
+}
+
+/* 1 when a figure shown as e beside a limit shown as l reads as the
+ * verdict says: exceeds when above it (at or above it for a limit worded
+ * "less than", plumb_criterion.strict), within otherwise. */
+static int sides_agree(double e, double l, int exceeds, int strict)
+{
+    if (exceeds)
+        return strict ? e >= l : e > l;
+    return strict ? e < l : e <= l;
+}
+
+/* 1 when a figure x and a limit l, shown as xs and ls, read as the
+ * verdict says and on the same side of each other as they are: a figure
+ * below its limit is shown below it, not equal to it, so that the pair
+ * shows which side it is on (equal only when they are). */
+static int shown_agree(double xs, double ls, double x, double l, int exceeds, int strict)
+{
+    /* a figure equal to its limit to within the round-off of its
+     * conversions (a few units in the last place, as plumbp_round_safe
+     * takes a whole number) is at the limit: shown equal to it, its verdict
+     * word tells the side, rather than with the 17 figures that would */
+    if (fabs(x - l) <= 16.0 * DBL_EPSILON * fmax(fabs(x), fabs(l)))
+        return xs == ls || sides_agree(xs, ls, exceeds, strict);
+    if (!sides_agree(xs, ls, exceeds, strict))
+        return 0;
+    return (xs < ls) == (x < l) && xs != ls;
+}
+
+/* 1 when v's energy at esig figures (to the nearest) and its limit at lsig
+ * (rounded down, as every report prints a limit: plumbp_t_limit) read as
+ * its verdict, in joules and in foot pound-force alike (a report shows
+ * both). */
+static int pair_agrees(const plumb_verdict *v, int esig, int lsig)
+{
+    static const double per_unit[2] = {1.0, PLUMB_FT_LBF_J};
+    const plumb_criterion *c = v->criterion;
+    for (size_t u = 0; u < 2; u++) {
+        double e = v->energy_j / per_unit[u], l = c->energy_limit_j / per_unit[u];
+        if (!shown_agree(shown_nearest(e, esig), plumbp_round_safe(l, lsig, 1), e, l, v->exceeds,
+                         c->strict))
+            return 0;
+    }
+    return 1;
+}
+
+int plumbp_energy_sig(const plumb_verdict *v, size_t n, int base)
+{
+    for (int sig = base; sig < PAIR_SIG_MAX; sig++) {
+        size_t k = 0;
+        while (k < n && pair_agrees(&v[k], sig, sig))
+            k++;
+        if (k == n)
+            return sig;
+    }
+    return PAIR_SIG_MAX;
+}
+
+int plumbp_limit_sig(const plumb_verdict *v, int esig, int base)
+{
+    for (int sig = base; sig < PAIR_SIG_MAX; sig++)
+        if (pair_agrees(v, esig, sig))
+            return sig;
+    return PAIR_SIG_MAX;
+}
+
+int plumbp_ratio_sig(const plumb_verdict *v, int base)
+{
+    for (int sig = base; sig < PAIR_SIG_MAX; sig++)
+        if (shown_agree(shown_nearest(v->ratio, sig), 1.0, v->ratio, 1.0, v->exceeds,
+                        v->criterion->strict))
+            return sig;
+    return PAIR_SIG_MAX;
+}
+
+int plumbp_report_limit_sig(const plumb_fall_report *rep, size_t k, int base)
+{
+    int sig = base;
+    for (size_t i = 0; rep->items && i < rep->n_items; i++) {
+        const plumb_item_report *it = &rep->items[i];
+        if (k >= it->n_verdicts)
+            continue;
+        int s = plumbp_limit_sig(&it->verdicts[k],
+                                 plumbp_energy_sig(it->verdicts, it->n_verdicts, base), base);
+        sig = s > sig ? s : sig;
+    }
+    return sig;
+}
+
+const char *plumbp_t_ratio(writer *w, const plumb_verdict *v)
+{
+    return num(w, v->ratio, plumbp_ratio_sig(v, RATIO_SIG));
+}
+
+const char *plumbp_t_energy_at(writer *w, double j, int sig)
+{
+    int was = w->sig;
+    w->sig = sig;
+    const char *b = plumbp_t_energy(w, j);
+    w->sig = was;
+    return b;
+}
+
+const char *plumbp_t_limit_energy_at(writer *w, double j, int sig)
+{
+    int was = w->sig;
+    w->sig = sig;
+    const char *b = plumbp_t_limit_energy(w, j);
+    w->sig = was;
+    return b;
 }
 
 /* ---- text: quantities in the chosen units ------------------------------ */
@@ -291,6 +424,19 @@ const char *plumbp_t_len(writer *w, double m)
     else
         snprintf(b, NUMBUF, "%s" NBSP "m", qty(w, m));
     return b;
+}
+
+/* format.h */
+const char *plumbp_t_drift(writer *w, double m, int unit)
+{
+    if (m < DRIFT_SHOWN_M) {
+        char *b = slot(w);
+        snprintf(b, NUMBUF, "none");
+        return b;
+    }
+    if (unit)
+        return plumbp_t_len(w, m);
+    return qty(w, w->us ? m / PLUMB_FT_M : m);
 }
 
 /* A length of a zone's spread (format.h): TEXT_SIG figures, none below a
@@ -632,6 +778,13 @@ const char *plumbp_t_warning(writer *w, const char *text, char *out, size_t size
             int k = snprintf(out + n, size - n, "%s", shown);
             n = k < 0 ? n : (size_t)k < size - n ? n + (size_t)k : size - 1;
             p = end + 1;
+        } else if (*p == ' ' && n > 0 && isdigit((unsigned char)out[n - 1]) &&
+                   unit_like(p + 1, strcspn(p + 1, " "))) {
+            /* a number written into the sentence with its unit or % ("1.5000 s",
+             * "40.3 %"): joined as the marks' are, so no line parts them */
+            out[n++] = NBSP_CHAR;
+            out[n] = '\0';
+            p++;
         } else {
             out[n++] = *p++;
             out[n] = '\0';

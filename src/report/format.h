@@ -70,6 +70,11 @@ const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
 int plumbp_shows_zero(const char *s);
 const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
+/* A fall's drift, one formatter for every report that gives it: "none"
+ * below DRIFT_SHOWN_M (it lands below its release point), else the length
+ * as plumbp_t_len gives it (TEXT_SIG figures), with its unit, or the
+ * number alone when unit is 0 (a table's column, under its unit). */
+const char *plumbp_t_drift(writer *w, double m, int unit);
 /* A length of a zone's spread of samples (an ellipse's semi-axes, a
  * radius): TEXT_SIG figures but no digit below a millimetre (a thousandth
  * of a foot), which a spread is not known finer than: a semi-axis of
@@ -94,7 +99,35 @@ const char *plumbp_t_round(writer *w, const char *(*t)(writer *, double), double
 const char *plumbp_t_clear(writer *w, const char *(*t)(writer *, double), double x);
 const char *plumbp_t_limit(writer *w, const char *(*t)(writer *, double), double x);
 const char *plumbp_t_limit_energy(writer *w, double j);
+/* A figure beside the limit it is judged against never reads as the
+ * other side of it: the limit is printed rounded down (the strict side,
+ * plumbp_t_limit) and the figure to the nearest, so at a limit the two
+ * may print the wrong way round ("78.64 J" within a limit of "78.63 J").
+ * These give the significant figures, at least `base`, at which both
+ * read as the verdict says, in J and ft·lbf alike (README.md
+ * "Criteria"). plumbp_energy_sig: the figures of the energy judged by
+ * v[0..n) so that each limit at as many agrees with it;
+ * plumbp_limit_sig: those of v's limit beside the energy shown at esig
+ * (at most esig when esig came from plumbp_energy_sig); plumbp_ratio_sig:
+ * those of v's ratio, read against 1. Can't fail. */
+int plumbp_energy_sig(const plumb_verdict *v, size_t n, int base);
+int plumbp_limit_sig(const plumb_verdict *v, int esig, int base);
+int plumbp_ratio_sig(const plumb_verdict *v, int base);
+/* v's ratio at plumbp_ratio_sig(v, RATIO_SIG) figures: "1.00" when that
+ * reads as v's verdict, "0.99992" or "1.0001" when it would not. */
+const char *plumbp_t_ratio(writer *w, const plumb_verdict *v);
+/* Energy (plumbp_t_energy) and a limit (plumbp_t_limit_energy) at sig
+ * significant figures. */
+const char *plumbp_t_energy_at(writer *w, double j, int sig);
+const char *plumbp_t_limit_energy_at(writer *w, double j, int sig);
 const char *plumbp_csv_limit(writer *w, double j);
+/* The same to sig figures (plumbp_limit_sig against the CSV's energies). */
+const char *plumbp_csv_limit_at(writer *w, double j, int sig);
+/* The figures criterion k's limit is given with beside a report's items:
+ * as many as the item that needs the most to show its side of it
+ * (plumbp_limit_sig against its energy at plumbp_energy_sig(..., base)),
+ * at least base. */
+int plumbp_report_limit_sig(const plumb_fall_report *rep, size_t k, int base);
 const char *plumbp_t_mass(writer *w, double kg);
 const char *plumbp_t_area(writer *w, double m2);
 /* A landing region's area, a keep-clear figure (rounded up); one of (near)

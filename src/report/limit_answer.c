@@ -117,6 +117,32 @@ static const char *t_given_value(writer *w, const char *key, const plumb_limit_r
     return b;
 }
 
+/* 1 when the values just below crossing k of r meet the limit: the low
+ * end's verdict, turned at each crossing below k (the rule that sets
+ * limit_is_upper_bound for the answer, inverse.c). A crossing is printed
+ * rounded toward that side (t_limit_value), as the answer is, so the
+ * answer and the same crossing in the list read the same. */
+static int crossing_within_below(const plumb_limit_result *r, size_t k)
+{
+    int within = r->within_at_low_end;
+    for (size_t i = 0; i < k; i++)
+        within = !within;
+    return within;
+}
+
+/* The crossings of r, comma-separated, each rounded toward the side that
+ * meets the limit (crossing_within_below), into list. */
+static void crossing_list(writer *w, const char *key, const plumb_limit_result *r, char *list,
+                          size_t size)
+{
+    size_t len = 0;
+    list[0] = '\0';
+    for (size_t k = 0; k < r->n_crossings && len + NUMBUF < size; k++)
+        len += (size_t)snprintf(list + len, size - len, "%s%s", k ? ", " : "",
+                                t_limit_value(w, key, r->dim, r->crossings_si[k],
+                                              crossing_within_below(r, k)));
+}
+
 /* The limit in the report's units, each figure rounded down (the strict
  * side), as the header states it. */
 static const char *t_the_limit(writer *w, const plumb_limit_report *rep)
@@ -206,11 +232,7 @@ static void explain(writer *w, const plumb_limit_report *rep, const plumb_limit_
                      plumbp_s(r->n_scanned), sep, note);
         } else {
             char list[PLUMB_LIMIT_TEXT];
-            size_t len = 0;
-            list[0] = '\0';
-            for (size_t k = 0; k < r->n_crossings && len + NUMBUF < sizeof list; k++)
-                len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", k ? ", " : "",
-                                        t_value(w, key, r->dim, r->crossings_si[k]));
+            crossing_list(w, key, r, list, sizeof list);
             snprintf(buf, size,
                      "the %s is not monotonic in %s: it crosses the limit at %s (scanned %s, %zu "
                      "value%s); %s below the first crossing, and alternately beyond%s%s",
@@ -309,23 +331,20 @@ static void text_limit_answer(writer *w, const plumb_report_options *opt,
                      : r->limit_is_upper_bound ? ", down to the next crossing."
                                                : ", up to the next crossing.");
             wrapped(w, "  ", text);
-            if (r->explanation[0]) {
-                /* the answer stops short of the crossing: why (inverse.h) */
-                snprintf(text, sizeof text, "%s.", r->explanation);
-                wrapped(w, "  ", text);
-            }
             if (r->n_crossings > 1) {
                 char list[PLUMB_LIMIT_TEXT];
-                size_t len = 0;
-                list[0] = '\0';
-                for (size_t k = 0; k < r->n_crossings && len + NUMBUF < sizeof list; k++)
-                    len += (size_t)snprintf(list + len, sizeof list - len, "%s%s", k ? ", " : "",
-                                            t_value(w, rep->key, r->dim, r->crossings_si[k]));
+                crossing_list(w, rep->key, r, list, sizeof list);
                 snprintf(text, sizeof text,
                          "the %s is not monotonic in %s: it crosses the limit at %s; %s at the "
                          "low end of the range and alternately between the crossings.",
                          metric_word(rep->metric), rep->key, list,
                          r->within_at_low_end ? "within" : "exceeded");
+                wrapped(w, "  ", text);
+            }
+            /* why the answer stops short of its crossing, or why a crossing
+             * is there (a canopy that does not fill): inverse.h */
+            if (r->explanation[0]) {
+                snprintf(text, sizeof text, "%s.", r->explanation);
                 wrapped(w, "  ", text);
             }
         } else if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE) {

@@ -189,6 +189,11 @@ double sheet_plan_view(sheet_doc *d, const sheet_plan *p, double x, double y, do
 void sheet_end_page(sheet_doc *d);
 void sheet_new_page(sheet_doc *d);
 
+/* The figures criterion c's limit is shown with on the sheet: as many as
+ * the item of the fall that needs the most to show its side of it
+ * (plumbp_limit_sig), as the tables give its energy (sheet_sections.c). */
+int sheet_limit_sig(const plumb_brief *b, const plumb_criterion *c);
+
 /* The sections that are text (sheet_sections.c), in the sheet's order. */
 void sheet_section_header(sheet_doc *d, const plumb_brief *b);
 plumb_status sheet_section_answer(sheet_doc *d, const plumb_brief *b, plumb_diag *diag);

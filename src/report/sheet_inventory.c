@@ -192,13 +192,14 @@ static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, co
     cells[2] = sheet_fmt(d, "%s %s",
                          plumbp_gnum(P, it->spec->mass_kg / (P->us ? PLUMB_LB_KG : 1.0), TEXT_SIG),
                          P->us ? "lb" : "kg");
-    cells[3] = sheet_fmt(d, "%s", plumbp_t_energy(P, it->result.energy_j));
+    cells[3] = sheet_fmt(d, "%s", plumbp_t_energy_at(P, it->result.energy_j,
+                                                       plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG)));
     for (size_t k = 0; k < b->n_criteria; k++) {
         cells[4 + k] = "-";
         for (size_t v = 0; v < it->n_verdicts; v++)
             if (it->verdicts[v].criterion == b->criteria[k]) {
                 snprintf(rs->cell[k], sizeof rs->cell[k], "%s\n%s",
-                         num(P, it->verdicts[v].ratio, RATIO_SIG),
+                         plumbp_t_ratio(P, &it->verdicts[v]),
                          it->verdicts[v].exceeds ? "exceeds" : "within");
                 cells[4 + k] = rs->cell[k];
                 exceeds |= it->verdicts[v].exceeds;
@@ -207,8 +208,8 @@ static void inventory_row_cells(sheet_doc *d, const plumb_brief *b, size_t r, co
     cells[4 + b->n_criteria] = exceeds ? "<b>exceeds</b>" : "within all";
     cells[5 + b->n_criteria] =
         it->result.drift_m < DRIFT_SHOWN_M
-            ? "none"
-            : sheet_fmt(d, "%s toward %s", plumbp_t_len(P, it->result.drift_m),
+            ? plumbp_t_drift(P, it->result.drift_m, 1)
+            : sheet_fmt(d, "%s toward %s", plumbp_t_drift(P, it->result.drift_m, 1),
                         plumbp_t_bearing(P, it->result.bearing_deg));
 }
 

@@ -667,7 +667,8 @@ static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y
         /* the limit in the axis's unit only (both are in section 2): a
          * shorter label finds a clear place more often */
         char lim[FMT_LEN / 8];
-        snprintf(lim, sizeof lim, "%s", plumbp_t_limit_energy(P, c->energy_limit_j));
+        snprintf(lim, sizeof lim, "%s",
+                 plumbp_t_limit_energy_at(P, c->energy_limit_j, sheet_limit_sig(b, c)));
         char *other = strstr(lim, " (");
         if (other)
             *other = '\0';
@@ -784,7 +785,10 @@ static double energy_plot(sheet_doc *d, const plumb_brief *b, double x, double y
         const plumb_item_report *it = &b->fall->items[b->plots[p].item];
         ly += legend(d, x, ly, w, item_styles[p], p == 0 ? 1.8 : 1.1,
                      sheet_fmt(d, "%s: %s at the planned %s", it->spec->name,
-                               plumbp_t_energy(P, it->result.energy_j), plumbp_t_len(P, hp)));
+                               plumbp_t_energy_at(P, it->result.energy_j,
+                                                  plumbp_energy_sig(it->verdicts, it->n_verdicts,
+                                                                    TEXT_SIG)),
+                               plumbp_t_len(P, hp)));
     }
     ly += legend(d, x, ly, w, SHEET_DASHED, 0.8,
                  key ? "each criterion's energy limit, numbered at its right end and named below; "

@@ -365,7 +365,11 @@ static void verdict_table(sheet_doc *d, const plumb_brief *b, const plumb_item_r
                            sheet_id(d, font, v->criterion->id, cx[1] * w - 6.0),
                            v->criterion->kind == PLUMB_CRIT_HELMET_TEST
                                ? " (a helmet test, not a safe limit)" : ""));
-        snprintf(energy, sizeof energy, "%s", sheet_fmt(d, "%s", plumbp_t_energy(P, v->energy_j)));
+        /* the energy and the limit with the figures that show which side
+         * of it the energy is (plumbp_energy_sig; README.md "Criteria") */
+        int esig = plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG);
+        snprintf(energy, sizeof energy, "%s",
+                 sheet_fmt(d, "%s", plumbp_t_energy_at(P, v->energy_j, esig)));
         /* the planned fall's verdict is one fall: beside it, the share of
          * the zone's samples above the same limit, so that a nominal
          * "within" is never the only verdict read */
@@ -381,7 +385,9 @@ static void verdict_table(sheet_doc *d, const plumb_brief *b, const plumb_item_r
                            x ? sheet_fmt(d, "%d", (int)(SHEET_SMALL * PANGO_SCALE)) : "",
                            x ? "\">(nominal)</span>" : ""));
         snprintf(limit, sizeof limit, "%s",
-                 sheet_fmt(d, "%s", plumbp_t_limit_energy(P, v->criterion->energy_limit_j)));
+                 sheet_fmt(d, "%s", plumbp_t_limit_energy_at(
+                                       P, v->criterion->energy_limit_j,
+                                       plumbp_limit_sig(v, esig, TEXT_SIG))));
         double vw = (1.0 - cx[4]) * w;
         double h = sheet_text(d, d->left, d->y, cx[1] * w - 6.0, font, name, 0);
         double h2 = sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font,
@@ -401,7 +407,7 @@ static void verdict_table(sheet_doc *d, const plumb_brief *b, const plumb_item_r
         sheet_text(d, d->left + cx[1] * w, d->y, (cx[2] - cx[1]) * w - 4.0, font, energy, 1);
         sheet_text(d, d->left + cx[2] * w, d->y, (cx[3] - cx[2]) * w - 4.0, font, limit, 1);
         sheet_text(d, d->left + cx[3] * w, d->y, 0.0, font,
-                   sheet_fmt(d, "%s", num(P, v->ratio, RATIO_SIG)), 1);
+                   sheet_fmt(d, "%s", plumbp_t_ratio(P, v)), 1);
         sheet_text(d, d->left + cx[4] * w, d->y, vw, font, verdict, 1);
         if (share[0])
             sheet_text(d, d->left + cx[4] * w, d->y + hv, vw, small, share, 1);
@@ -418,6 +424,24 @@ static const char *status_words(const plumb_criterion *c)
     if (note[0])
         return note;
     return strcmp(c->status, "seen") == 0 ? "figure seen in the source" : "status not given";
+}
+
+/* sheet_doc.h */
+int sheet_limit_sig(const plumb_brief *b, const plumb_criterion *c)
+{
+    int sig = TEXT_SIG;
+    for (size_t i = 0; b->fall && i < b->fall->n_items; i++) {
+        const plumb_item_report *it = &b->fall->items[i];
+        for (size_t k = 0; k < it->n_verdicts; k++) {
+            if (it->verdicts[k].criterion != c && strcmp(it->verdicts[k].criterion->id, c->id) != 0)
+                continue;
+            int s = plumbp_limit_sig(&it->verdicts[k],
+                                     plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG),
+                                     TEXT_SIG);
+            sig = s > sig ? s : sig;
+        }
+    }
+    return sig;
 }
 
 /* Every criterion used, keyed C1..Cn (the inventory's ratio columns),
@@ -440,7 +464,7 @@ static void criteria_sources(sheet_doc *d, const plumb_brief *b)
         const char *body = sheet_fmt(
             d, "\x02<b>%s</b> %s: limit %s%s; applies to %s; source: %s (%s).",
             sheet_esc(d, c->name), sheet_id(d, font, c->id, w),
-            sheet_fmt(d, "%s", plumbp_t_limit_energy(P, c->energy_limit_j)),
+            sheet_fmt(d, "%s", plumbp_t_limit_energy_at(P, c->energy_limit_j, sheet_limit_sig(b, c))),
             c->kind == PLUMB_CRIT_HELMET_TEST ? " (a helmet test, not a safe limit)" : "",
             c->applies_to[0] ? sheet_esc(d, c->applies_to) : "not given",
             sheet_esc(d, plumbp_t_source(P, c, quoted, sizeof quoted)),
@@ -689,11 +713,15 @@ plumb_status sheet_section_answer(sheet_doc *d, const plumb_brief *b, plumb_diag
                                          "section 6).", b->fall->n_items, it->spec->name));
     answer_line(d, "Impact speed", sheet_fmt(d, "%s %s", plumbp_t_speed(P, r->speed_m_s),
                                              beside(d, plumbp_t_speed(S, r->speed_m_s))));
-    answer_line(d, "Impact energy", sheet_fmt(d, "%s", plumbp_t_energy(P, r->energy_j)));
+    answer_line(d, "Impact energy",
+                sheet_fmt(d, "%s", plumbp_t_energy_at(P, r->energy_j,
+                                                      plumbp_energy_sig(it->verdicts, it->n_verdicts,
+                                                                        TEXT_SIG))));
     answer_line(d, "Time of fall", sheet_fmt(d, "%s s", num(P, r->time_s, TEXT_SIG)));
     answer_line(d, "Drift", r->drift_m < DRIFT_SHOWN_M
-                                ? "none: lands below the release point"
-                                : sheet_fmt(d, "%s %s toward %s", plumbp_t_len(P, r->drift_m),
+                                ? sheet_fmt(d, "%s: lands below the release point",
+                                            plumbp_t_drift(P, r->drift_m, 1))
+                                : sheet_fmt(d, "%s %s toward %s", plumbp_t_drift(P, r->drift_m, 1),
                                             beside(d, plumbp_t_len(S, r->drift_m)),
                                             plumbp_t_bearing(P, r->bearing_deg)));
     d->y += GAP / 2.0;

@@ -88,8 +88,15 @@ void plumbp_sweep_csv(writer *w, const plumb_sweep *sw)
     const plumb_item_report *first = &r0->report.items[0];
     for (size_t k = 0; k < first->n_verdicts; k++) {
         const plumb_criterion *c = first->verdicts[k].criterion;
+        int sig = CSV_DIGITS; /* as many figures as the row that needs the most */
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            int s = row->status == PLUMB_OK ? plumbp_report_limit_sig(&row->report, k, CSV_DIGITS)
+                                            : CSV_DIGITS;
+            sig = s > sig ? s : sig;
+        }
         snprintf(text, sizeof text, "criterion %s: %s, limit %s, source: %s, status %s", c->id,
-                 c->name, plumbp_csv_limit(w, c->energy_limit_j),
+                 c->name, plumbp_csv_limit_at(w, c->energy_limit_j, sig),
                  plumbp_t_source(w, c, quoted, sizeof quoted),
                  c->status[0] ? c->status : "not given");
         csv_comment(w, text);

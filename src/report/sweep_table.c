@@ -181,9 +181,12 @@ const char *plumbp_sweep_num(writer *w, const plumb_sweep *sw, size_t a, double 
     return plumbp_gnum(w, x, converted_sig(w, sw, a));
 }
 
-/* "C1".."Cn" legend of the criteria a row was judged against. */
-static void text_criteria_legend(writer *w, const plumb_item_report *first)
+/* "C1".."Cn" legend of the criteria a row was judged against, each limit
+ * with the figures the row that needs the most takes to show its side of
+ * it (plumbp_limit_sig; a row's energy at plumbp_energy_sig). */
+static void text_criteria_legend(writer *w, const plumb_sweep *sw, const plumb_item_report *first)
 {
+    size_t nr = plumb_sweep_row_count(sw);
     if (first->n_verdicts == 0)
         return;
     put(w, "\nCriteria (ratio = energy / limit)\n");
@@ -191,9 +194,16 @@ static void text_criteria_legend(writer *w, const plumb_item_report *first)
         const plumb_criterion *c = first->verdicts[k].criterion;
         char lead[32], text[PLUMB_CRIT_TEXT * 4 + PLUMB_CRIT_ID + NUMBUF + 64];
         char quoted[PLUMB_CRIT_TEXT * 2];
+        int sig = TEXT_SIG;
+        for (size_t i = 0; i < nr; i++) {
+            const plumb_sweep_row *row = plumb_sweep_row_at(sw, i);
+            int s = row->status == PLUMB_OK ? plumbp_report_limit_sig(&row->report, k, TEXT_SIG)
+                                            : TEXT_SIG;
+            sig = s > sig ? s : sig;
+        }
         snprintf(lead, sizeof lead, "  C%zu  ", k + 1);
         snprintf(text, sizeof text, "%s, limit %s%s; %s [%s]%s%s%s", c->name,
-                 plumbp_t_limit_energy(w, c->energy_limit_j),
+                 plumbp_t_limit_energy_at(w, c->energy_limit_j, sig),
                  c->kind == PLUMB_CRIT_HELMET_TEST ? " (helmet test, not a safe limit)" : "",
                  c->source[0] ? plumbp_t_source(w, c, quoted, sizeof quoted) : "source not given",
                  c->id,
@@ -441,7 +451,7 @@ static void sweep_name_continued(writer *w, const sweep_cols *c, const char *res
  * (verdict_cell), SWEEP_GAP spaces before. */
 static void ratio_cell(writer *w, const plumb_verdict *v, size_t ratio_w, int last)
 {
-    verdict_cell(w, SWEEP_GAP, ratio_w, num(w, v->ratio, RATIO_SIG),
+    verdict_cell(w, SWEEP_GAP, ratio_w, plumbp_t_ratio(w, v),
                  v->exceeds ? "EXCEEDS" : "within", last);
 }
 
@@ -460,13 +470,16 @@ static const char *sweep_num_cell(writer *w, const plumb_item_report *item, int 
 {
     const plumb_fall_result *r = &item->result;
     double ft = PLUMB_FT_M;
+    /* the energy with the figures that show its side of each limit */
+    int esig = k == 1 || k == 2 ? plumbp_energy_sig(item->verdicts, item->n_verdicts, TEXT_SIG)
+                                : TEXT_SIG;
     switch (k) {
     case 0:
         return num(w, w->us ? r->speed_m_s / ft : r->speed_m_s, TEXT_SIG);
     case 1:
-        return num(w, w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j, TEXT_SIG);
+        return num(w, w->us ? r->energy_j / PLUMB_FT_LBF_J : r->energy_j, esig);
     case 2:
-        return num(w, w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J, TEXT_SIG);
+        return num(w, w->us ? r->energy_j : r->energy_j / PLUMB_FT_LBF_J, esig);
     case 3:
         return num(w, r->time_s, TEXT_SIG);
     case 4:
@@ -631,8 +644,8 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
                 if (shown_width(sweep_num_cell(w, item, (int)k)) > wnum[k])
                     wnum[k] = shown_width(sweep_num_cell(w, item, (int)k));
             for (size_t k = 0; k < nv && k < item->n_verdicts; k++)
-                if (shown_width(num(w, item->verdicts[k].ratio, RATIO_SIG)) > wratio[k])
-                    wratio[k] = shown_width(num(w, item->verdicts[k].ratio, RATIO_SIG));
+                if (shown_width(plumbp_t_ratio(w, &item->verdicts[k])) > wratio[k])
+                    wratio[k] = shown_width(plumbp_t_ratio(w, &item->verdicts[k]));
         }
     }
     for (size_t k = 0; k < nv; k++)
@@ -785,7 +798,7 @@ static void text_sweep(writer *w, const plumb_report_options *opt, const plumb_s
             wrapped(w, lead, text);
         }
     }
-    text_criteria_legend(w, first);
+    text_criteria_legend(w, sw, first);
     if (marks.n_distinct) {
         put(w, "\nWarnings%s\n", marked ? " (each marked beside the rows it is about)" : "");
         plumbp_sweep_text_warnings(w, &marks, marked);

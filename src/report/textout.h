@@ -114,6 +114,17 @@ static inline const char *num(writer *w, double x, int sig)
     return b;
 }
 
+/* A number for CSV: sig significant digits, shortest form. */
+static inline const char *csvnum_at(writer *w, double x, int sig)
+{
+    int ok;
+    char *b = num_slot(w, x, &ok);
+    if (!ok)
+        return b;
+    snprintf(b, NUMBUF, "%.*g", sig, x == 0.0 ? 0.0 : x);
+    return b;
+}
+
 /* A number for CSV: CSV_DIGITS significant digits, shortest form. */
 static inline const char *csvnum(writer *w, double x)
 {
@@ -273,10 +284,13 @@ static inline void verdict_cell(writer *w, size_t gap, size_t ratio_w, const cha
 }
 
 /* 1 when a word looks like the unit of the number before it ("m",
- * "m^2", "kg", "ft·lbf"): short and starting with a letter. */
+ * "m^2", "kg", "ft·lbf", "%", "%)"): short and starting with a letter or
+ * a percent sign (SI Brochure, 9th ed., 2019, 5.4.7: a space between the
+ * number and %, which is as much the number's as a unit is). */
 static inline int unit_like(const char *p, size_t len)
 {
-    return len > 0 && len <= 8 && (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80);
+    return len > 0 && len <= 8 &&
+           (isalpha((unsigned char)p[0]) || (unsigned char)p[0] >= 0x80 || p[0] == '%');
 }
 
 /* Columns of the first len bytes of s (see shown_width). */
@@ -545,13 +559,30 @@ static inline const char *compass(double bearing_deg)
     return points[(size_t)k % COMPASS_POINTS];
 }
 
+/* 1 when a text cell starts with a character a spreadsheet may take as
+ * the start of a formula (= + - @, a tab or a carriage return: OWASP,
+ * "CSV Injection", owasp.org/www-community/attacks/CSV_Injection). */
+static inline int csv_formula_start(const char *s)
+{
+    return s[0] != '\0' && strchr("=+-@\t\r", s[0]) != NULL;
+}
+
+/* A TEXT cell of every CSV report (a name, a key, a unit, a message),
+ * quoted as RFC 4180 asks when it holds a comma, quote or line end. A text
+ * that a spreadsheet would read as a formula ("=1+2 formula", "@SUM(...)",
+ * "-2+3") is neutralised as OWASP's "CSV Injection" guidance recommends: a
+ * single quote before it, so the cell shows as text and no formula runs.
+ * Numbers never go through here (csvnum, put), so a negative number stays
+ * a number. README.md "plumb fall", CSV. */
 static inline void csv_field(writer *w, const char *s)
 {
+    const char *lead = csv_formula_start(s) ? "'" : "";
     if (strpbrk(s, ",\"\r\n") == NULL) {
-        put(w, "%s", s);
+        put(w, "%s%s", lead, s);
         return;
     }
     fputc('"', w->f);
+    fputs(lead, w->f);
     for (const char *p = s; *p; p++) {
         if (*p == '"')
             fputc('"', w->f);

@@ -81,7 +81,20 @@ typedef struct solver_ctx {
     const plumb_criteria *criteria;
     plumb_item_report *judged;
     plumb_status judge_status;
+    /* the last fall computed had a canopy still filling at impact: the
+     * device index + 1 of the first such, 0 when none */
+    size_t filling;
 } solver_ctx;
+
+/* descent[i] + 1 for the first device of r still filling at impact
+ * (plumb_fall_device_at_impact), 0 when none is. */
+static size_t filling_device(const plumb_fall_spec *spec, const plumb_fall_result *r)
+{
+    for (size_t i = 0; i < spec->n_descent && i < PLUMB_MAX_DESCENT; i++)
+        if (plumb_fall_device_at_impact(spec, r, i, NULL) == PLUMB_DEVICE_FILLING)
+            return i + 1;
+    return 0;
+}
 
 /* Judges the evaluation's fall into c->judged, when asked to; the report
  * then names the caller's item (its spec outlives this fall's). */
@@ -326,6 +339,7 @@ static double eval_slow(solver_ctx *c, double x)
     }
     plumb_fall_result r;
     st = plumb_trajectory_run(c->traj, plumb_profile_item(p, c->item), atm, &r, &d);
+    c->filling = st == PLUMB_OK ? filling_device(plumb_profile_item(p, c->item), &r) : 0;
     if (st == PLUMB_OK)
         keep(c, plumb_profile_item(p, c->item), atm, &r);
     plumb_atmosphere_free(atm);
@@ -376,6 +390,7 @@ static double eval_fast(solver_ctx *c, double x)
         if (st == PLUMB_OK)
             keep(c, spec, c->atm, &r);
     }
+    c->filling = st == PLUMB_OK ? filling_device(spec, &r) : 0;
     return eval_done(c, st, &r, &d);
 }
 
@@ -386,6 +401,7 @@ static double eval_at(double x, void *params)
     solver_ctx *c = params;
     c->out_of_range = 0;
     c->last_x = x;
+    c->filling = 0;
     if (c->evals >= c->max_evals) {
         c->fail = PLUMB_RAISE_KEY(c->diag, PLUMB_ENUMERIC, c->set_key,
                                   "no answer within %zu falls", c->max_evals);
@@ -808,6 +824,35 @@ static void low_refused_why(const char *key, const char *low_key, char *e, size_
         snprintf(e, size, "lower values are refused by the profile, so the scan starts there");
 }
 
+/* The words of a crossing (k, counted from 0) at which the limit is broken
+ * on one side because descent[dev] is still filling at impact there
+ * (above: the side that breaks it is the higher values), appended to
+ * res->explanation. For a key of the canopy's size
+ * the reason: its fill time t_f = n D0 / v (Knacke 1991, README.md
+ * "Canopy inflation") grows with its diameter, so a larger canopy may not
+ * fill before impact. */
+static void filling_crossing(const plumb_fall_spec *spec, const char *key, size_t k, size_t dev,
+                             int above, plumb_limit_result *res)
+{
+    static const char *const ordinal[PLUMB_LIMIT_MAX_CROSSINGS] = {
+        "first", "second", "third", "fourth", "fifth", "sixth", "seventh", "eighth"};
+    char who[32];
+    if (spec->n_descent > 1)
+        snprintf(who, sizeof who, "descent[%zu]", dev);
+    else
+        plumbp_strlcpy(who, "the canopy", sizeof who);
+    const char *dot = strrchr(key, '.');
+    int size_key = starts_with(key, "descent") && dot &&
+                   (strcmp(dot, ".diameter") == 0 || strcmp(dot, ".area") == 0);
+    size_t len = strlen(res->explanation);
+    snprintf(res->explanation + len, sizeof res->explanation - len,
+             "%s%s the %s crossing the limit is broken because %s does not fill before impact: "
+             "it is still filling when the object lands%s",
+             len ? "; " : "", above ? "above" : "below", ordinal[k % PLUMB_LIMIT_MAX_CROSSINGS],
+             who,
+             size_key ? " (its fill time, n D0 / v, grows with its diameter)" : "");
+}
+
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
 static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
@@ -835,11 +880,13 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
                                why);
     }
     res->metric_at_base = f0 + limit;
+    size_t fill0 = c->filling;
 
     /* Scan the range, then refine every change of sign with Brent's
      * method: a metric need not be monotonic in its key (a canopy that
      * opens only above some height, wind that adds to the impact speed). */
     double xs[SCAN_POINTS + 1], fs[SCAN_POINTS + 1];
+    size_t fl[SCAN_POINTS + 1]; /* the fall's canopy still filling at impact (c->filling) */
     size_t n = 0;
     int base_done = 0;
     /* values below the lowest computed that the profile refused (a device
@@ -856,6 +903,7 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
         if (!base_done && x >= base) {
             if (x != base) {
                 xs[n] = base;
+                fl[n] = fill0;
                 fs[n++] = f0;
             }
             base_done = 1;
@@ -877,10 +925,12 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
         if (x > base)
             top_out = PLUMB_OK; /* computed again above a value left out */
         xs[n] = x;
+        fl[n] = c->filling;
         fs[n++] = fx;
     }
     if (!base_done) {
         xs[n] = base;
+        fl[n] = fill0;
         fs[n++] = f0;
     }
     double x_lo = xs[0], x_hi = xs[n - 1];
@@ -893,6 +943,13 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
                     &gaps[res->n_crossings]);
         if (st != PLUMB_OK)
             return st;
+        /* a crossing beyond which a canopy has not filled at impact, on
+         * the side that breaks the limit: it breaks it for want of the
+         * canopy (on the other side it may be filling too, further along) */
+        size_t out = fs[i] > 0.0 ? i : i - 1;
+        if (fl[out])
+            filling_crossing(plumb_profile_item(profile, c->item), key, res->n_crossings,
+                             fl[out] - 1, out == i, res);
         res->crossings_si[res->n_crossings++] = root;
     }
     res->evaluations = c->evals;
