@@ -219,10 +219,19 @@ enum { LABEL_SEGS = PLUMB_BRIEF_PLOTTED * PLUMB_BRIEF_CURVE + PLUMB_MAX_VERDICTS
 #define KEY_GAP 2.0        /* between the frame and the first box, and between boxes, pt */
 #define KEY_SHIFT 3.5      /* a box's centre at most this far above or below its line, pt */
 #define KEY_SLOTS 6        /* boxes side by side at most */
+/* Relative gap (of the largest coordinate, plus 1 pt) by which a segment's
+ * bounds and a box must lie apart for label_cost to skip seg_in_box. With
+ * the segment wholly left of the box by more than this, seg_in_box's
+ * x0 - s[0] and s[2] - s[0] differ by far more than their rounding
+ * (2^-52 of the largest coordinate), so its first ratio exceeds 1 and it
+ * returns 0; the same holds for each side and for a segment in either
+ * direction. The skip changes no answer, only the time. */
+#define BOX_APART 1e-9
 
 typedef struct label_obstacles {
     size_t n_segs, n_boxes;
     double seg[LABEL_SEGS][4], seg_cost[LABEL_SEGS];
+    double seg_box[LABEL_SEGS][4];      /* each segment's bounds, widened (add_seg) */
     int seg_owner[LABEL_SEGS];          /* the criterion whose line it is, or -1 */
     double box[LABEL_BOXES][4], box_cost[LABEL_BOXES];
 } label_obstacles;
@@ -232,8 +241,11 @@ static void add_seg(label_obstacles *o, double x0, double y0, double x1, double 
 {
     if (o->n_segs >= LABEL_SEGS)
         return;
-    double *s = o->seg[o->n_segs];
+    double *s = o->seg[o->n_segs], *b = o->seg_box[o->n_segs];
     s[0] = x0, s[1] = y0, s[2] = x1, s[3] = y1;
+    double m = BOX_APART * (1.0 + fmax(fmax(fabs(x0), fabs(x1)), fmax(fabs(y0), fabs(y1))));
+    b[0] = fmin(x0, x1) - m, b[1] = fmin(y0, y1) - m, b[2] = fmax(x0, x1) + m,
+    b[3] = fmax(y0, y1) + m;
     o->seg_cost[o->n_segs] = cost;
     o->seg_owner[o->n_segs++] = owner;
 }
@@ -280,9 +292,18 @@ static double label_cost(const label_obstacles *o, int owner, double x0, double 
 {
     double c = 0.0, cx0 = x0 - LABEL_CLEAR, cy0 = y0 - LABEL_CLEAR, cx1 = x1 + LABEL_CLEAR,
            cy1 = y1 + LABEL_CLEAR;
-    for (size_t i = 0; i < o->n_segs; i++)
+    /* A segment whose bounds lie apart from the box by more than rounding
+     * is not clipped: seg_in_box would say 0 (see BOX_APART). Most of a
+     * curve's segments are, for each of the many places tried. */
+    double m = BOX_APART * (1.0 + fmax(fmax(fabs(cx0), fabs(cx1)), fmax(fabs(cy0), fabs(cy1))));
+    double bx0 = cx0 - m, by0 = cy0 - m, bx1 = cx1 + m, by1 = cy1 + m;
+    for (size_t i = 0; i < o->n_segs; i++) {
+        const double *sb = o->seg_box[i];
+        if (sb[2] < bx0 || sb[0] > bx1 || sb[3] < by0 || sb[1] > by1)
+            continue;
         if (o->seg_owner[i] != owner && seg_in_box(o->seg[i], cx0, cy0, cx1, cy1))
             c += o->seg_cost[i];
+    }
     for (size_t i = 0; i < o->n_boxes; i++) {
         const double *b = o->box[i];
         if (b[0] < cx1 && b[2] > cx0 && b[1] < cy1 && b[3] > cy0)

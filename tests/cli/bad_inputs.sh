@@ -24,48 +24,8 @@ pass=0
 fail=0
 bad() { fail=$((fail + 1)); echo "FAIL: $*"; }
 
-# refused NAME WANT... -- ARGS...: runs plumb ARGS with -o into an empty
-# directory; passes when the status is 2, stderr holds every WANT (fixed
-# strings), and the directory is still empty.
-refused() {
-  name=$1
-  shift
-  n_wants=0
-  while [ $# -gt 0 ] && [ "$1" != "--" ]; do
-    n_wants=$((n_wants + 1))
-    eval "want_$n_wants=\$1"
-    shift
-  done
-  shift
-  out=$tmp/out.$$
-  rm -rf "$out"
-  mkdir "$out" || exit 2
-  "$bin" "$@" -o "$out/result" >"$tmp/stdout" 2>"$tmp/stderr"
-  rc=$?
-  why=""
-  [ $rc -eq 2 ] || why="exit status $rc, expected 2"
-  i=1
-  while [ $i -le $n_wants ]; do
-    eval "w=\$want_$i"
-    if [ -z "$why" ] && ! grep -F -q -e "$w" "$tmp/stderr"; then
-      why="stderr lacks '$w'"
-    fi
-    i=$((i + 1))
-  done
-  if [ -z "$why" ] && [ -n "$(ls -A "$out")" ]; then
-    why="wrote $(ls -A "$out" | head -n 3 | tr '\n' ' ')"
-  fi
-  if [ -z "$why" ] && [ -s "$tmp/stdout" ]; then
-    why="printed to stdout"
-  fi
-  if [ -n "$why" ]; then
-    bad "$name: $why"
-    sed -n '1,3s/^/  stderr: /p' "$tmp/stderr"
-  else
-    pass=$((pass + 1))
-  fi
-  rm -rf "$out"
-}
+# refused NAME WANT... -- ARGS...: lib/refused.sh
+. "$here/lib/refused.sh"
 
 # ---- every malformed profile ----------------------------------------------
 n_bad=0
