@@ -212,5 +212,46 @@ refused "--temperature-offset 360 degF" \
   "plumb: <command line>: --temperature-offset: '360 degF': 200 K is out of range" \
   -- air --temperature-offset "360 degF"
 
+# ---- 7. one key, one --set -------------------------------------------------------
+# A repeated --format or -o is refused rather than the last silently winning
+# (README.md "Common options"); so is a key two --set options give: the
+# same key, an item by its name and by its number (glove is items[3] of
+# the inventory), a map that would drop a key an earlier --set gave in it,
+# a key an earlier --set gave in its map's value, and a key standing
+# instead of one an earlier --set gave (descent.area / descent.diameter).
+refused "release.height twice" "plumb: --set:2:1: release.height: " "--set 1" "--set 2" \
+  -- fall "$good" --set "release.height=10m" --set "release.height=20m"
+refused "glove's mass by name and by number" "plumb: --set:2:1: items[3].mass: " \
+  "--set 1 (as 'items[glove].mass')" -- fall "$inv" --set "items[glove].mass=2kg" \
+  --set "items[3].mass=3kg"
+refused "glove's mass by number and by name" "plumb: --set:2:1: items[glove].mass: " "--set 1" \
+  -- fall "$inv" --set "items[3].mass=2kg" --set "items[glove].mass=3kg"
+refused "release after release.height" "plumb: --set:2:1: release: " "--set 1 sets 'release.height'" \
+  -- fall "$good" --set "release.height=10m" --set "release={height: 20 m}"
+refused "release.height after release" "plumb: --set:2:1: release.height: " "--set 1 ('release')" \
+  -- fall "$good" --set "release={height: 20 m}" --set "release.height=10m"
+refused "a removal after a key inside" "plumb: --set:2:1: release.velocity: " "--set 1" \
+  -- fall "$good" --set "release.velocity.up=1m/s" --set "release.velocity=~"
+refused "payload.shape after payload.drag" "plumb: --set:2:1: payload.shape: " \
+  "stands instead of drag, which --set 1 sets" \
+  -- fall "$good" --set "payload.drag={cd: 0.9, area: 0.01 m^2}" \
+  --set "payload.shape={kind: sphere, diameter: 0.1 m}"
+# keys of two maps, a key a map given whole did not give, a list removed
+# then given anew, a key removed then one standing instead of it: each
+# --set is taken
+for sets in "release.height=10m|wind.speed=3 m/s" \
+            "release={height: 20 m}|release.velocity.up=1m/s" \
+            "items=~|items[1]={name: a, mass: 1 kg, drag: {cd_area: 0.01 m^2}}" \
+            "items[1].mass=1kg|items[2].mass=2kg" \
+            "payload.drag=~|payload.shape={kind: sphere, diameter: 0.11 m}"; do
+  p=$good
+  case $sets in items*) p=$inv ;; esac
+  if "$bin" fall "$p" --set "${sets%%|*}" --set "${sets#*|}" >"$tmp/stdout" 2>"$tmp/stderr"; then
+    pass=$((pass + 1))
+  else
+    bad "--set '${sets%%|*}' --set '${sets#*|}' refused: $(cat "$tmp/stderr")"
+  fi
+done
+
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]
