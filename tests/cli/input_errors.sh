@@ -176,7 +176,7 @@ refused "a bad --set value and a bad file" "plumb: --set:1:12: wind.speed: " \
 # ---- 5. a range's count --------------------------------------------------------
 # 0 m to 1 m by 0.00001 m is 1/0.00001 + 1 = 100001 values: one more than
 # the 100000 a range may make (README.md, plumb air); to 0.99999 m, 100000.
-refused "air 0m:1m:0.00001m" "--alt: '0m:1m:0.00001m' makes 100001 values, more than 100000" \
+refused "air 0m:1m:0.00001m" "--alt:1:1: '0m:1m:0.00001m' makes 100001 values, more than 100000" \
   -- air --alt 0m:1m:0.00001m
 refused "sweep by the same count" "makes 100001 values, more than 100000" \
   -- sweep "$good" --vary "release.height=1m:2m:0.00001m"
@@ -205,11 +205,11 @@ printf 'name: hot\npayload: {mass: 2.385 kg, drag: {cd: 0.9, area: 0.0113 m^2}}\
 refused "a temperature of 500 K" "hot.yaml:4:65: atmosphere.temperature: must be 150 K .. 400 K" \
   "-123.15 degC .. 126.85 degC" "!127 degC" -- fall "$tmp/hot.yaml"
 refused "--temperature-offset 200K" \
-  "plumb: <command line>: --temperature-offset: 200 K is out of range: must be -100 K .. 100 K" \
+  "plumb: --temperature-offset:1:1: 200 K is out of range: must be -100 K .. 100 K" \
   "!found" -- air --temperature-offset 200K
 # 360 degF as a difference is 200 K (NIST SP 811 B.9: 1 degF = 1/1.8 K)
 refused "--temperature-offset 360 degF" \
-  "plumb: <command line>: --temperature-offset: '360 degF': 200 K is out of range" \
+  "plumb: --temperature-offset:1:1: '360 degF': 200 K is out of range" \
   -- air --temperature-offset "360 degF"
 
 # ---- 7. one key, one --set -------------------------------------------------------
@@ -250,6 +250,31 @@ for sets in "release.height=10m|wind.speed=3 m/s" \
     pass=$((pass + 1))
   else
     bad "--set '${sets%%|*}' --set '${sets#*|}' refused: $(cat "$tmp/stderr")"
+  fi
+done
+
+# ---- 8. a value on the command line located as a --set is -------------------------
+# README.md "Exit status": OPTION:N:COL:, the N-th of that option, COL where
+# the part at fault starts in its value; then the key. The second --vary's
+# STEP: "release.height=" is 15 characters, "10m:20m:" 8, so STEP is at 24.
+refused "the second --vary's STEP" "plumb: --vary:2:24: release.height: STEP '-1m' goes the wrong way" \
+  -- sweep "$good" --vary "wind.speed=1m/s:2m/s:1m/s" --vary "release.height=10m:20m:-1m"
+refused "--alt's TO" "plumb: --alt:1:4: TO '10x': " -- air --alt "0m:10x:1m"
+refused "--energy-max of a mass" "plumb: --energy-max:1:1: expected an energy" \
+  -- limit "$good" --find release.height --energy-max 5kg
+refused "--find an item by a wrong name" "plumb: --find:1:7: items[glov].mass: no item is named" \
+  -- limit "$inv" --find "items[glov].mass" --energy-max 5J
+refused "--samples not a number" "plumb: --samples:1:1: expected a whole number" \
+  -- zone "$good" --samples x
+# a sweep's row that cannot be computed says where its value came from the
+# same way, in every format: the first --vary, at FROM (after
+# "payload.mass=", column 14)
+for fmt in text csv json; do
+  "$bin" sweep "$good" --vary "payload.mass=-1kg:1kg:1kg" --format $fmt >"$tmp/rows.$fmt" 2>"$tmp/stderr"
+  if grep -q -e "--vary:1:14: payload.mass: must be > 0 kg" "$tmp/rows.$fmt"; then
+    pass=$((pass + 1))
+  else
+    bad "a failed row in $fmt is not at --vary:1:14: $(grep -e '--vary' "$tmp/rows.$fmt" | head -n 2)"
   fi
 done
 
