@@ -260,11 +260,11 @@ typedef struct head_piece {
     int glue;
 } head_piece;
 
-/* h on lines of at most SWEEP_KEY_HEAD shown characters, split after a
- * dot outside brackets, a part longer than that wrapped at its spaces
- * (wrap_cell); packed from the end, so that the name line holds as much
- * of the key's tail as fits. */
-static void key_head_lines(const char *h, key_head *kh)
+/* h on lines of at most `limit` (up to SWEEP_KEY_HEAD) shown characters,
+ * split after a dot outside brackets, a part longer than SWEEP_KEY_HEAD
+ * wrapped at its spaces (wrap_cell); packed from the end, so that the name
+ * line holds as much of the key's tail as fits. */
+static void key_head_lines(const char *h, size_t limit, key_head *kh)
 {
     head_piece piece[PLUMB_DIAG_KEY];
     size_t np = 0;
@@ -292,7 +292,7 @@ static void key_head_lines(const char *h, key_head *kh)
     for (size_t i = np; i-- > 0;) {
         char joined[2 * PLUMB_DIAG_KEY];
         snprintf(joined, sizeof joined, "%s%s", piece[i].text, cur);
-        if (cur[0] && (!piece[i].glue || shown_width(joined) > SWEEP_KEY_HEAD ||
+        if (cur[0] && (!piece[i].glue || shown_width(joined) > limit ||
                        strlen(joined) >= sizeof cur) && nl + 1 < KEY_HEAD_LINES) {
             snprintf(lines[nl++], sizeof lines[0], "%s", cur);
             snprintf(cur, sizeof cur, "%s", piece[i].text);
@@ -308,7 +308,9 @@ static void key_head_lines(const char *h, key_head *kh)
 
 /* The headers of the varied keys' columns: each key, or its last part when
  * it is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
- * table name the whole keys), so the figures and names keep their room;
+ * table name the whole keys), so the figures and names keep their room,
+ * but never for an item's key (items[2].mass is one item's, not every
+ * item's mass, which "mass" beside the item column would read as);
  * but never the same header twice: a last part shared by two keys
  * (items[1].mass, items[2].mass) or by a figure's column (speed) takes the
  * parts before it until it is told apart. A header wider than
@@ -321,7 +323,11 @@ static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
     for (size_t a = 0; a < na; a++) {
         const char *key = plumb_sweep_axis(sw, a)->key;
         parts[a] = 1;
-        head[a] = shown_width(key) > SWEEP_KEY_HEAD || na > 1 ? key_suffix(key, 1) : key;
+        /* an item's key keeps its item: "mass" alone, beside the item
+         * column, reads as every item's mass */
+        int item = strncmp(key, "items[", 6) == 0;
+        head[a] = !item && (shown_width(key) > SWEEP_KEY_HEAD || na > 1) ? key_suffix(key, 1)
+                                                                         : key;
     }
     /* every clashing header grows at once, so two keys that share their
      * last part are both told apart, not only the first */
@@ -336,8 +342,11 @@ static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
                 changed = 1;
             }
     }
+    /* an item's key in a two-way table: a dotted part a line, so that
+     * its column is no wider than its parts (items[2]. above mass) */
     for (size_t a = 0; a < na; a++)
-        key_head_lines(head[a], &kh[a]);
+        key_head_lines(head[a],
+                       na > 1 && strncmp(head[a], "items[", 6) == 0 ? 1 : SWEEP_KEY_HEAD, &kh[a]);
 }
 
 /* The widest line of a key's header. */
