@@ -316,16 +316,46 @@ static void key_head_lines(const char *h, size_t limit, key_head *kh)
  * parts before it until it is told apart. A header wider than
  * SWEEP_KEY_HEAD goes on lines of their own above the name line
  * (key_head_lines). */
+/* An item named in its key's brackets, by its number (items[5].mass: the
+ * item column beside it names it, the lines above the table the key as
+ * typed), so that its column stays narrow; into buf, from the first
+ * computed row's items. Returns buf, or key when it gives a number or no
+ * row names the item. */
+static const char *item_key_narrow(const plumb_sweep *sw, const char *key, char *buf,
+                                   size_t size)
+{
+    const char *close = strncmp(key, "items[", 6) == 0 ? strchr(key + 6, ']') : NULL;
+    size_t len = close ? (size_t)(close - (key + 6)) : 0;
+    if (!close || strspn(key + 6, "0123456789") == len)
+        return key;
+    for (size_t r = 0; r < plumb_sweep_row_count(sw); r++) {
+        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, r)->report;
+        for (size_t i = 0; rep->profile && i < rep->n_items; i++) {
+            const char *name = rep->items[i].spec->name;
+            if (strlen(name) == len && strncmp(name, key + 6, len) == 0) {
+                snprintf(buf, size, "items[%zu]%s", plumb_profile_item_number(rep->profile, i),
+                         close + 1);
+                return buf;
+            }
+        }
+    }
+    return key;
+}
+
 static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
 {
     const char *head[PLUMB_MAX_AXES];
     size_t parts[PLUMB_MAX_AXES];
+    char narrow[PLUMB_MAX_AXES][PLUMB_DIAG_KEY];
+    const char *base[PLUMB_MAX_AXES]; /* the key each head is a part of */
     for (size_t a = 0; a < na; a++) {
-        const char *key = plumb_sweep_axis(sw, a)->key;
+        const char *key = item_key_narrow(sw, plumb_sweep_axis(sw, a)->key, narrow[a],
+                                          sizeof narrow[a]);
         parts[a] = 1;
         /* an item's key keeps its item: "mass" alone, beside the item
          * column, reads as every item's mass */
         int item = strncmp(key, "items[", 6) == 0;
+        base[a] = key;
         head[a] = !item && (shown_width(key) > SWEEP_KEY_HEAD || na > 1) ? key_suffix(key, 1)
                                                                          : key;
     }
@@ -335,10 +365,10 @@ static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
         int grow[PLUMB_MAX_AXES];
         changed = 0;
         for (size_t a = 0; a < na; a++)
-            grow[a] = head[a] != plumb_sweep_axis(sw, a)->key && key_head_clashes(head, na, a);
+            grow[a] = head[a] != base[a] && key_head_clashes(head, na, a);
         for (size_t a = 0; a < na; a++)
             if (grow[a]) {
-                head[a] = key_suffix(plumb_sweep_axis(sw, a)->key, ++parts[a]);
+                head[a] = key_suffix(base[a], ++parts[a]);
                 changed = 1;
             }
     }

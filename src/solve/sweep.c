@@ -598,6 +598,24 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
     return PLUMB_OK;
 }
 
+/* key into out (size bytes) with an item named in its brackets turned into
+ * its number, items[glove].mass into items[3].mass, so that two --vary of
+ * one item's key are one key however each names the item; any other key
+ * (or a profile NULL, or a name no item has) is copied. Can't fail. */
+static void key_numbered(const plumb_profile *p, const char *key, char *out, size_t size)
+{
+    snprintf(out, size, "%s", key);
+    const char *close = strncmp(key, "items[", 6) == 0 ? strchr(key + 6, ']') : NULL;
+    size_t len = close ? (size_t)(close - (key + 6)) : 0;
+    for (size_t i = 0; p && close && i < plumb_profile_item_count(p); i++) {
+        const char *name = plumb_profile_item(p, i)->name;
+        if (strlen(name) == len && strncmp(name, key + 6, len) == 0) {
+            snprintf(out, size, "items[%zu]%s", plumb_profile_item_number(p, i), close + 1);
+            return;
+        }
+    }
+}
+
 plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *units,
                              const plumb_criteria *criteria, const plumb_range *axes,
                              size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
@@ -616,9 +634,17 @@ plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_
     *out = NULL;
     if (n_axes < 1 || n_axes > PLUMB_MAX_AXES)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "a sweep takes one or two --vary ranges");
-    if (n_axes == 2 && strcmp(axes[0].key, axes[1].key) == 0)
+    char k0[PLUMB_DIAG_KEY], k1[PLUMB_DIAG_KEY];
+    if (n_axes == 2) {
+        key_numbered(profile, axes[0].key, k0, sizeof k0);
+        key_numbered(profile, axes[1].key, k1, sizeof k1);
+    }
+    if (n_axes == 2 && strcmp(k0, k1) == 0)
         return plumb_diag_option(diag, PLUMB_EINVAL, "--vary", 2, 1, axes[1].key,
-                                 "the same key as --vary 1: vary each key once");
+                                 "the same key as --vary 1%s%s%s: vary each key once",
+                                 strcmp(axes[0].key, axes[1].key) ? " ('" : "",
+                                 strcmp(axes[0].key, axes[1].key) ? axes[0].key : "",
+                                 strcmp(axes[0].key, axes[1].key) ? "')" : "");
     /* The rows in double: a product of two counts never wraps. */
     double rows = 1.0;
     for (size_t a = 0; a < n_axes; a++) {

@@ -236,6 +236,10 @@ refused "payload.shape after payload.drag" "plumb: --set:2:1: payload.shape: " \
   "stands instead of drag, which --set 1 sets" \
   -- fall "$good" --set "payload.drag={cd: 0.9, area: 0.01 m^2}" \
   --set "payload.shape={kind: sphere, diameter: 0.1 m}"
+# the same for two --vary of one item's key, by its name and its number
+refused "--vary glove's mass by name and by number" \
+  "plumb: --vary:2:1: items[3].mass: the same key as --vary 1 ('items[glove].mass')" \
+  -- sweep "$inv" --vary "items[glove].mass=1kg:2kg:1kg" --vary "items[3].mass=1kg:2kg:1kg"
 # keys of two maps, a key a map given whole did not give, a list removed
 # then given anew, a key removed then one standing instead of it: each
 # --set is taken
