@@ -316,10 +316,11 @@ static void key_head_lines(const char *h, size_t limit, key_head *kh)
  * parts before it until it is told apart. A header wider than
  * SWEEP_KEY_HEAD goes on lines of their own above the name line
  * (key_head_lines). */
-/* An item named in its key's brackets, by its number (items[5].mass: the
- * item column beside it names it, the lines above the table the key as
- * typed), so that its column stays narrow; into buf, from the first
- * computed row's items. Returns buf, or key when it gives a number or no
+/* An item named in its key's brackets with a word too long for a header
+ * line (SWEEP_KEY_HEAD), by its number (items[5].mass: the item column
+ * beside it names it, the lines above the table the key as typed), so
+ * that its column stays narrow; into buf, from the first computed row's
+ * items. Returns buf, or key when its words fit, it gives a number or no
  * row names the item. */
 static const char *item_key_narrow(const plumb_sweep *sw, const char *key, char *buf,
                                    size_t size)
@@ -327,6 +328,18 @@ static const char *item_key_narrow(const plumb_sweep *sw, const char *key, char 
     const char *close = strncmp(key, "items[", 6) == 0 ? strchr(key + 6, ']') : NULL;
     size_t len = close ? (size_t)(close - (key + 6)) : 0;
     if (!close || strspn(key + 6, "0123456789") == len)
+        return key;
+    int too_long = 0; /* a word of "items[NAME]." wider than a header line */
+    for (const char *w = key; w < close + 2 && *w;) {
+        size_t n = strcspn(w, " ");
+        if (w + n > close + 2)
+            n = (size_t)(close + 2 - w);
+        char word[PLUMB_DIAG_KEY];
+        snprintf(word, sizeof word, "%.*s", (int)n, w);
+        too_long = too_long || shown_width(word) > SWEEP_KEY_HEAD;
+        w += n + (w[n] == ' ');
+    }
+    if (!too_long)
         return key;
     for (size_t r = 0; r < plumb_sweep_row_count(sw); r++) {
         const plumb_fall_report *rep = &plumb_sweep_row_at(sw, r)->report;

@@ -342,12 +342,12 @@ case $head in
   *"items[2]. height mass item"*) ok ;;
   *) bad "two-way sweep of items[2].mass: the column head is '$head'" ;;
 esac
-# an item the key names is headed by its number (chain sling is items[2])
+# an item the key names is named so, a word a line
 "$bin" sweep "$inv" --vary 'release.height=20ft:40ft:20ft' --vary 'items[chain sling].mass=8oz:12oz:4oz' \
   --units us >"$tmp/two.txt" 2>"$tmp/err"
-head=$(grep -B 1 -m 1 ' item ' "$tmp/two.txt" | tr -s ' \n' '  ')
+head=$(grep -B 2 -m 1 ' item ' "$tmp/two.txt" | tr -s ' \n' '  ')
 case $head in
-  *"items[2]. height mass item"*) ok ;;
+  *"items[chain sling]. height mass item"*) ok ;;
   *) bad "two-way sweep of items[chain sling].mass: the column head is '$head'" ;;
 esac
 "$bin" sweep "$inv" --vary 'release.height=20ft:40ft:20ft' --vary 'items[2].mass=8oz:12oz:4oz' \
