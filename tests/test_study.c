@@ -245,8 +245,9 @@ static void test_the_study_limit_meets_the_work_energy_theorem(void **state)
     /* not a quantity of the metric's dimension, nor an id: located at the option */
     assert_int_not_equal(plumb_study_limit_value(st, PLUMB_METRIC_SPEED, "8 m", "--speed-max",
                                                  &limit, &c, &d), PLUMB_OK);
-    assert_string_equal(d.file, "<command line>");
-    assert_string_equal(d.key, "--speed-max");
+    assert_string_equal(d.file, "--speed-max");
+    assert_int_equal(d.line, 1);
+    assert_int_equal(d.col, 1);
     assert_int_equal(plumb_study_limit_value(st, PLUMB_METRIC_DRIFT, "-3 m", "--drift-max",
                                              &limit, &c, &d), PLUMB_ERANGE);
     /* an unknown key */

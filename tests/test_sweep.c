@@ -47,20 +47,37 @@ static int group_teardown(void **state)
 
 /* Parses a range that must be refused; checks the status, that the
  * diagnostic names the option and the command line, and a message part. */
-static void refused(const char *text, plumb_dim dim, const char *what, plumb_status want,
-                    const char *part)
+/* Refused, located as README.md "Exit status" says: the option ("--vary"
+ * of what "--vary x") as the file, line 1, the key ("x") apart; col, when
+ * not 0, the column in text of the part at fault. */
+static void refused_at(const char *text, plumb_dim dim, const char *what, plumb_status want,
+                       const char *part, int col)
 {
     plumb_range r;
     plumb_diag d;
     plumb_diag_clear(&d);
     plumb_status st = plumb_range_parse(units, text, dim, what, &r, &d);
-    if (st != want || strcmp(d.key, what) != 0 || !strstr(d.message, part))
-        fprintf(stderr, "range '%s': status %d, key '%s', message '%s'\n", text, (int)st, d.key,
-                d.message);
+    const char *sp = strchr(what, ' ');
+    char option[64];
+    snprintf(option, sizeof option, "%.*s", sp ? (int)(sp - what) : (int)strlen(what), what);
+    if (st != want || strcmp(d.file, option) != 0 || !strstr(d.message, part) ||
+        (col && d.col != col))
+        fprintf(stderr, "range '%s': status %d, at %s:%d:%d, key '%s', message '%s'\n", text,
+                (int)st, d.file, d.line, d.col, d.key, d.message);
     assert_int_equal(st, want);
-    assert_string_equal(d.key, what);
-    assert_string_equal(d.file, "<command line>");
+    assert_string_equal(d.file, option);
+    assert_string_equal(d.key, sp ? sp + 1 : "");
+    assert_int_equal(d.line, 1);
+    assert_true(d.col >= 1);
+    if (col)
+        assert_int_equal(d.col, col);
     assert_non_null(strstr(d.message, part));
+}
+
+static void refused(const char *text, plumb_dim dim, const char *what, plumb_status want,
+                    const char *part)
+{
+    refused_at(text, dim, what, want, part, 0);
 }
 
 /* The i-th value of r in SI; fails the test when it cannot be had. */
@@ -172,6 +189,11 @@ static void test_malformed_ranges_are_refused(void **state)
     refused("2m:20m", PLUMB_DIM_LENGTH, "--alt", PLUMB_EPARSE, "FROM:TO:STEP");
     refused("2m:20m:1m:1m", PLUMB_DIM_LENGTH, "--alt", PLUMB_EPARSE, "three parts");
     refused("2m:20s:1m", PLUMB_DIM_LENGTH, "--alt", PLUMB_EUNIT, "TO");
+    /* the column of the part at fault: TO at 4, STEP at 8 (after the
+     * spaces around it, which are not the part) */
+    refused_at("2m:20s:1m", PLUMB_DIM_LENGTH, "--alt", PLUMB_EUNIT, "TO", 4);
+    refused_at("2m:20m: -1m", PLUMB_DIM_LENGTH, "--vary release.height", PLUMB_ERANGE,
+               "positive STEP", 9);
 }
 
 /* Closed form: 0.1 x 3 typed as 0:1:0.1 is "0.3", and 11 values end on 1. */
@@ -217,7 +239,9 @@ static void test_two_ranges_past_the_row_cap_are_refused_before_running(void **s
     assert_int_equal(plumb_sweep_run(NULL, units, NULL, ax, 2, NULL, &s, &d), PLUMB_ERANGE);
     assert_null(s);
     assert_non_null(strstr(d.message, "10100 rows"));
-    assert_string_equal(d.key, "--vary");
+    /* at the second --vary, which takes the rows past the cap */
+    assert_string_equal(d.file, "--vary");
+    assert_int_equal(d.line, 2);
 }
 
 /* Loads tests/cli/profiles/<name> of the source tree. */
@@ -417,15 +441,23 @@ static void test_a_direction_range_may_run_between_compass_points(void **state)
     plumb_diag_clear(&d);
     assert_int_equal(plumb_range_parse_key(units, "wind.from=315deg:45deg:22.5deg", &r, &d),
                      PLUMB_ERANGE);
-    assert_string_equal(d.key, "--vary wind.from");
+    /* README.md "Exit status": --vary:1:COL:, COL the STEP's in the whole
+     * KEY=FROM:TO:STEP: "wind.from=" is 10 characters, "315deg:" 7,
+     * "45deg:" 6 */
+    assert_string_equal(d.file, "--vary");
+    assert_string_equal(d.key, "wind.from");
+    assert_int_equal(d.col, 24);
     /* a compass point is no step, and no latitude */
     plumb_diag_clear(&d);
     assert_int_equal(plumb_range_parse_key(units, "wind.from=N:E:NE", &r, &d), PLUMB_EPARSE);
-    assert_string_equal(d.key, "--vary wind.from");
+    assert_string_equal(d.file, "--vary");
+    assert_string_equal(d.key, "wind.from");
+    assert_int_equal(d.col, 15);
     assert_non_null(strstr(d.message, "STEP 'NE' is a compass point"));
     plumb_diag_clear(&d);
     assert_int_equal(plumb_range_parse_key(units, "site.latitude=N:E:1deg", &r, &d), PLUMB_EPARSE);
-    assert_string_equal(d.key, "--vary site.latitude");
+    assert_string_equal(d.file, "--vary");
+    assert_string_equal(d.key, "site.latitude");
     assert_non_null(strstr(d.message, "FROM 'N'"));
 }
 

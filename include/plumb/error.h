@@ -14,6 +14,7 @@
 #define PLUMB_ERROR_H
 
 #include <stddef.h>
+#include <stdarg.h>
 
 typedef enum plumb_status {
     PLUMB_OK = 0,        /* done */
@@ -38,12 +39,15 @@ typedef enum plumb_status {
 enum { PLUMB_DIAG_FILE = 256, PLUMB_DIAG_KEY = 128, PLUMB_DIAG_MSG = 512 };
 
 /* The file of a diagnostic in a --set KEY=VALUE override: its line is
- * which --set (counted from 1), its column the column in that argument. */
+ * which --set (counted from 1), its column the column in that argument.
+ * An error in the value of any other command-line option is located the
+ * same way (plumb_diag_option): the option as its file ("--vary",
+ * "--alt"), which of its values as its line, the column in that value. */
 #define PLUMB_DIAG_SET_FILE "--set"
 
 typedef struct plumb_diag {
     plumb_status status;            /* status of the failure, PLUMB_OK if none */
-    char file[PLUMB_DIAG_FILE];     /* input file, PLUMB_DIAG_SET_FILE, "<command line>" or "" */
+    char file[PLUMB_DIAG_FILE];     /* input file, PLUMB_DIAG_SET_FILE, an option ("--vary") or "" */
     int line;                       /* 1-based line in file, 0 if not known */
     int col;                        /* 1-based column in file, 0 if not known */
     char key[PLUMB_DIAG_KEY];       /* dotted profile key, e.g. "payload.mass", or "" */
@@ -61,6 +65,27 @@ int plumb_status_is_input_error(plumb_status status);
 
 /* Resets a diagnostic to "no error". Accepts NULL. */
 void plumb_diag_clear(plumb_diag *diag);
+
+/* Fills diag with an error in the value of the command-line option
+ * `option` ("--vary"), README.md "Exit status": the option as the file,
+ * `index` (from 1; the second --vary is 2) as the line, `col` (1-based,
+ * in that value: where the part at fault starts) as the column, `key`
+ * (a profile key the value is for, or NULL) and the message. An index or
+ * column below 1 is taken as 1. Returns status; accepts a NULL diag. */
+plumb_status plumb_diag_option(plumb_diag *diag, plumb_status status, const char *option,
+                               int index, int col, const char *key, const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 7, 8)))
+#endif
+    ;
+
+/* The same with a va_list. */
+plumb_status plumb_diag_voption(plumb_diag *diag, plumb_status status, const char *option,
+                                int index, int col, const char *key, const char *fmt, va_list ap)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 7, 0)))
+#endif
+    ;
 
 /* Formats "file:line:col: key: message" into buf (always NUL-terminated
  * when size > 0), leaving out the parts that are not known. Returns the

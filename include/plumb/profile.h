@@ -9,7 +9,11 @@
  *
  * Overrides ("KEY=VALUE", as `--set`) replace or add a scalar at a dotted
  * key path before the profile is interpreted, with the same units and
- * checks as the YAML; their diagnostics name the file "--set".
+ * checks as the YAML; their diagnostics name the file "--set". Each key is
+ * given by one override of a call: a second of the same key (an item by
+ * its name or its number), of a map around it, of a key standing instead
+ * of it, or of a key the first gave in its value, is PLUMB_EINVAL at the
+ * second (README.md "Common options").
  *
  * Ownership: a plumb_profile owns everything it returns (specs, tables,
  * strings); nothing points into libyaml's buffers. Pointers returned are

@@ -89,8 +89,8 @@ plumb_status plumb_study_sweep_boundaries(plumb_study *study, plumb_sweep *sweep
 /* A limit given as text: a criterion's id (energy only) or a quantity of
  * the metric's dimension ("25 ft lbf", "8 m/s", "30 m"), > 0. `option`
  * names it in messages ("--energy-max"). *criterion is the criterion or
- * NULL. Errors PLUMB_EUNIT, PLUMB_EPARSE, PLUMB_ERANGE, located at
- * "<command line>" and the option. */
+ * NULL. Errors PLUMB_EUNIT, PLUMB_EPARSE, PLUMB_ERANGE, located at the
+ * option (plumb_diag_option: "--energy-max:1:1:"). */
 plumb_status plumb_study_limit_value(const plumb_study *study, plumb_metric metric,
                                      const char *text, const char *option, double *limit,
                                      const plumb_criterion **criterion, plumb_diag *diag);
@@ -98,7 +98,8 @@ plumb_status plumb_study_limit_value(const plumb_study *study, plumb_metric metr
 /* For every item, the value of `key` at which `metric` just meets `limit`
  * (plumb_limit_solve, opt NULL: defaults); criterion, if not NULL, is
  * where the limit came from. An unknown or non-numeric key is PLUMB_EKEY
- * or PLUMB_EINVAL located at "<command line>". */
+ * or PLUMB_EINVAL; an items[N] no item answers is located at --find
+ * (plumb_diag_option: "--find:1:7:", the item's number or name). */
 plumb_status plumb_study_limit(plumb_study *study, const char *key, plumb_metric metric,
                                double limit, const plumb_criterion *criterion,
                                const plumb_limit_options *opt, const plumb_limit_report **out,

@@ -52,8 +52,9 @@ typedef struct plumb_range {
 
 /* Parses "FROM:TO:STEP" (each a quantity of dimension dim, e.g.
  * "2m:60m:2m" or "0 kn:25 kn:5 kn") into *out; `what` names the option
- * for messages ("--vary release.height", "--alt"), which go in the
- * diagnostic's key with the file "<command line>". STEP must not be zero
+ * and, after a space, the key it varies ("--vary release.height",
+ * "--alt"): an error is located at the option (plumb_diag_option, index
+ * 1, the column in text of the part at fault), with the key. STEP must not be zero
  * and must lead from FROM towards TO (negative when TO < FROM); all three
  * of the same dimension (STEP a difference for a temperature); at most
  * PLUMB_RANGE_MAX_VALUES values.
@@ -63,8 +64,9 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
                                const char *what, plumb_range *out, plumb_diag *diag);
 
 /* Parses "KEY=FROM:TO:STEP" for a numeric profile key (its dimension
- * from plumb_profile_key_dim), as the value of --vary: messages name
- * "--vary KEY". */
+ * from plumb_profile_key_dim), as the value of --vary: errors are located
+ * at "--vary", index 1 (the caller gives the N-th --vary its N), the
+ * column in text, with KEY. */
 plumb_status plumb_range_parse_key(const plumb_units *units, const char *text,
                                    plumb_range *out, plumb_diag *diag);
 

@@ -122,34 +122,37 @@ int cli_usage_error(const char *cmd, const char *fmt, ...)
     return CLI_EXIT_INPUT;
 }
 
-static plumb_status option_vstatus(plumb_diag *diag, plumb_status st, const char *option,
-                                   const char *fmt, va_list ap)
-{
-    plumb_diag_clear(diag);
-    diag->status = st;
-    snprintf(diag->file, sizeof diag->file, "<command line>");
-    snprintf(diag->key, sizeof diag->key, "%s", option);
-    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
-    return st;
-}
-
-plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *fmt, ...)
+/* Every error in an option's value goes through plumb_diag_voption, so
+ * that it reads OPTION:1:COL: as a --set's does (README.md "Exit status");
+ * an option of a command is given once, so its index is 1. */
+plumb_status cli_option_error(plumb_diag *diag, const char *option, int col, const char *fmt, ...)
 {
     va_list ap;
     va_start(ap, fmt);
-    plumb_status st = option_vstatus(diag, PLUMB_EINVAL, option, fmt, ap);
+    plumb_diag_clear(diag);
+    plumb_status st = plumb_diag_voption(diag, PLUMB_EINVAL, option, 1, col, NULL, fmt, ap);
     va_end(ap);
     return st;
 }
 
-plumb_status cli_option_status(plumb_diag *diag, plumb_status st, const char *option,
+plumb_status cli_option_status(plumb_diag *diag, plumb_status st, const char *option, int col,
                                const char *fmt, ...)
 {
     va_list ap;
     va_start(ap, fmt);
-    st = option_vstatus(diag, st, option, fmt, ap);
+    plumb_diag_clear(diag);
+    st = plumb_diag_voption(diag, st, option, 1, col, NULL, fmt, ap);
     va_end(ap);
     return st;
+}
+
+void cli_option_blame(plumb_diag *diag, const char *option, const char *key)
+{
+    char msg[PLUMB_DIAG_MSG], k[PLUMB_DIAG_KEY]; /* key may be diag->key */
+    snprintf(msg, sizeof msg, "%s", diag->message);
+    snprintf(k, sizeof k, "%s", key ? key : "");
+    int col = diag->file[0] ? 1 : diag->col;
+    plumb_diag_option(diag, diag->status, option, 1, col, key ? k : NULL, "%s", msg);
 }
 
 plumb_status cli_parse_whole(const char *option, const char *text, double lo, double hi,
@@ -160,7 +163,7 @@ plumb_status cli_parse_whole(const char *option, const char *text, double lo, do
     double v = text[0] == '\0' || text[0] == ' ' ? 0.0 : strtod(text, &end);
     if (text[0] == '\0' || text[0] == ' ' || !end || *end != '\0' || errno == ERANGE ||
         !(v == v) || v != (double)(long long)v || v < lo || v > hi)
-        return cli_option_error(diag, option, "expected a whole number from %.0f to %.0f, found "
+        return cli_option_error(diag, option, 1, "expected a whole number from %.0f to %.0f, found "
                                               "'%s'", lo, hi, text);
     *out = v;
     return PLUMB_OK;

@@ -106,20 +106,28 @@ void cli_args_free(cli_args *a);
  * this program's version. Can't fail. */
 plumb_report_options cli_report_options(const cli_args *a);
 
-/* Fills diag with an error in an option's value, at "<command line>" with
- * the option as its key; returns PLUMB_EINVAL. */
-plumb_status cli_option_error(plumb_diag *diag, const char *option, const char *fmt, ...)
-#if defined(__GNUC__)
-    __attribute__((format(printf, 3, 4)))
-#endif
-    ;
-/* The same with status st (PLUMB_ERANGE, PLUMB_ENOMEM ...); returns st. */
-plumb_status cli_option_status(plumb_diag *diag, plumb_status st, const char *option,
-                               const char *fmt, ...)
+/* Fills diag with an error in an option's value (plumb_diag_option): the
+ * option as the file, 1 as the line (an option is given once), col the
+ * column in the value where the part at fault starts; returns
+ * PLUMB_EINVAL. */
+plumb_status cli_option_error(plumb_diag *diag, const char *option, int col, const char *fmt, ...)
 #if defined(__GNUC__)
     __attribute__((format(printf, 4, 5)))
 #endif
     ;
+/* The same with status st (PLUMB_ERANGE, PLUMB_ENOMEM ...); returns st. */
+plumb_status cli_option_status(plumb_diag *diag, plumb_status st, const char *option, int col,
+                               const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 5, 6)))
+#endif
+    ;
+
+/* Moves an error the library raised over a value an option gave (a
+ * profile key's check of --samples, an answer about --find's key) to that
+ * option, OPTION:1:COL: (the column kept when the error had no file),
+ * with key (may be NULL) and the status and message kept. */
+void cli_option_blame(plumb_diag *diag, const char *option, const char *key);
 
 /* An option's value that must be a whole number in [lo, hi]: digits, or a
  * number in exponent form that is a whole number ("1e5"). PLUMB_OK with

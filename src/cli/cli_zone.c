@@ -36,12 +36,12 @@ static plumb_status parse_confidence(const char *text, double *out, plumb_diag *
     double v = text[0] ? strtod(text, &end) : 0.0;
     int percent = end && *end == '%' && end[1] == '\0';
     if (!text[0] || !end || (*end != '\0' && !percent) || errno == ERANGE)
-        return cli_option_error(diag, "--confidence", "expected a fraction such as 0.99 or a percent "
+        return cli_option_error(diag, "--confidence", 1, "expected a fraction such as 0.99 or a percent "
                                                "such as 99%%, found '%s'", text);
     if (percent)
         v /= PERCENT;
     if (!(v > 0.0 && v < 1.0))
-        return cli_option_error(diag, "--confidence", "expected 0 < confidence < 1 (0 %% to 100 %%), "
+        return cli_option_error(diag, "--confidence", 1, "expected 0 < confidence < 1 (0 %% to 100 %%), "
                                                "found '%s'", text);
     *out = v;
     return PLUMB_OK;
@@ -54,7 +54,7 @@ static plumb_status parse_target(const plumb_units *units, const char *text, dou
 {
     const char *comma = strchr(text, ',');
     if (!comma || strchr(comma + 1, ','))
-        return cli_option_error(diag, "--target", "expected EAST,NORTH with units, e.g. 40m,-12m, "
+        return cli_option_error(diag, "--target", 1, "expected EAST,NORTH with units, e.g. 40m,-12m, "
                                            "found '%s'", text);
     char part[2][PLUMB_DIAG_MSG / 2];
     snprintf(part[0], sizeof part[0], "%.*s", (int)(comma - text), text);
@@ -63,7 +63,8 @@ static plumb_status parse_target(const plumb_units *units, const char *text, dou
         plumb_diag d;
         plumb_diag_clear(&d);
         if (plumb_units_parse(units, part[k], PLUMB_DIM_LENGTH, &out[k], &d) != PLUMB_OK)
-            return cli_option_error(diag, "--target", "%s: %s", k == 0 ? "east" : "north",
+            return cli_option_error(diag, "--target", k == 0 ? 1 : (int)(comma - text) + 2,
+                                    "%s: %s", k == 0 ? "east" : "north",
                              d.message[0] ? d.message : "expected a length with its unit");
     }
     return PLUMB_OK;
@@ -83,7 +84,7 @@ static plumb_status target_on_map(const cli_zone_opts *zo, const cli_study *cs,
                               ll, &d) == PLUMB_OK)
         return PLUMB_OK;
     if (zo->target)
-        return cli_option_error(diag, "--target", "the target (%s) on the --format geojson map: "
+        return cli_option_error(diag, "--target", 1, "the target (%s) on the --format geojson map: "
                                 "%s", zo->target, d.message);
     int line = 0, col = 0;
     const char *file = plumb_profile_key_origin(cs->profile, "zone.target", &line, &col);
@@ -191,7 +192,7 @@ static plumb_status samples_open(cli_zone_samples *s, plumb_diag *diag)
 {
     const char *slash = strrchr(s->path, '/');
     if (*(slash ? slash + 1 : s->path) == '\0')
-        return cli_option_error(diag, "--samples-out", "cannot write '%s'", s->path);
+        return cli_option_error(diag, "--samples-out", 1, "cannot write '%s'", s->path);
     plumb_status st = cli_outfile_open(&s->out, s->path, "cannot write the samples", diag);
     if (st == PLUMB_OK)
         st = plumb_report_zone_samples_head(s->out.f, diag);
@@ -278,9 +279,7 @@ void cli_zone_at_option(const cli_zone_opts *zo, plumb_diag *diag)
         by = zo->target ? "--target" : NULL;
     if (!by)
         return;
-    snprintf(diag->file, sizeof diag->file, "<command line>");
-    diag->line = diag->col = 0;
-    snprintf(diag->key, sizeof diag->key, "%s", by);
+    cli_option_blame(diag, by, NULL);
 }
 
 /* The option values over the profile's `zone:` map, checked. */

@@ -70,7 +70,7 @@ void cli_zone_init(cli_zone_run *r, const cli_args *a, const cli_zone_opts *zo);
 /* Gets r ready to run on an open study: every option value read and put
  * over the profile's `zone:` map, the settings checked by the study
  * (plumb_study_zone_check_settings; an error in a value an option gave
- * names that option at "<command line>"), --format geojson refused without
+ * names that option as OPTION:N:COL:, README "Exit status"), --format geojson refused without
  * the site, the --samples-out file opened and progress hooked into r->opt
  * (unless --quiet). PLUMB_EINVAL, PLUMB_EWRITE, PLUMB_ENOMEM. */
 plumb_status cli_zone_start(cli_zone_run *r, const cli_study *cs, plumb_diag *diag);

@@ -38,7 +38,7 @@ static plumb_status quantity(const plumb_units *units, const char *option, const
     plumb_diag_clear(&d);
     plumb_status st = plumb_units_parse(units, text, dim, out, &d);
     if (st != PLUMB_OK)
-        return cli_option_status(diag, st, option, "%s%s'%s': %s", part, part[0] ? " " : "", text,
+        return cli_option_status(diag, st, option, 1, "%s%s'%s': %s", part, part[0] ? " " : "", text,
                             d.message[0] ? d.message : plumb_strerror(st));
     return PLUMB_OK;
 }
@@ -72,16 +72,16 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
         char *end = NULL;
         double written = strtod(dt_text, &end);
         if (st != PLUMB_OK && end != dt_text && written == dt)
-            st = cli_option_status(&diag, st, "--temperature-offset", "%s", d.message);
+            st = cli_option_status(&diag, st, "--temperature-offset", 1, "%s", d.message);
         else if (st != PLUMB_OK)
-            st = cli_option_status(&diag, st, "--temperature-offset", "'%s': %s", dt_text,
+            st = cli_option_status(&diag, st, "--temperature-offset", 1, "'%s': %s", dt_text,
                                    d.message);
     }
     if (st == PLUMB_OK) {
         n = alt.n;
         rows = calloc(n, sizeof *rows);
         if (!rows)
-            st = cli_option_status(&diag, PLUMB_ENOMEM, "--alt", "out of memory for %zu rows", n);
+            st = cli_option_status(&diag, PLUMB_ENOMEM, "--alt", 1, "out of memory for %zu rows", n);
     }
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
         double alt_m = 0.0;
@@ -91,7 +91,7 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
         plumb_status s = plumb_std1976(alt_m, dt, &rows[i]);
         if (s != PLUMB_OK)
             st = cli_option_status(&diag, s,
-                              alt_text ? "--alt" : dt_text ? "--temperature-offset" : "",
+                              alt_text ? "--alt" : dt_text ? "--temperature-offset" : "", 1,
                               "no air at %g m above sea level with a temperature offset of "
                               "%g K: %s (the model spans -5 km to 86 km and needs a positive "
                               "temperature)", alt_m, dt, plumb_strerror(s));

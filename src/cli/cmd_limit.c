@@ -66,16 +66,9 @@ static int run(const cli_args *a, const cli_option *o)
     if (st == PLUMB_OK)
         st = plumb_study_limit(cs.study, o[OPT_FIND].value, metric, limit, criterion, NULL,
                                &job.rep, &diag);
-    if (st != PLUMB_OK && strcmp(diag.key, o[OPT_FIND].value) == 0 &&
-        (!diag.file[0] || strcmp(diag.file, "<command line>") == 0)) {
-        /* an error in the key --find gave is that option's: the user typed it
-         * there, not in the profile */
-        snprintf(diag.file, sizeof diag.file, "<command line>");
-        diag.line = diag.col = 0;
-        char key[sizeof diag.key];
-        snprintf(key, sizeof key, "--find %s", o[OPT_FIND].value);
-        snprintf(diag.key, sizeof diag.key, "%s", key);
-    }
+    /* an error in the key --find gave, not located, is that option's */
+    if (st != PLUMB_OK && strcmp(diag.key, o[OPT_FIND].value) == 0 && !diag.file[0])
+        cli_option_blame(&diag, o[OPT_FIND].name, diag.key);
     int rc = st == PLUMB_OK ? cli_emit(a, write_report, &job) : cli_fail(&diag);
     cli_study_close(&cs);
     return rc;

@@ -66,7 +66,7 @@ static plumb_status read_options(const cli_args *a, const cli_option *o, plumb_s
     plumb_brief_options_init(bo);
     const char *paper = o[OPT_PAPER].value;
     if (paper && strcmp(paper, "a4") != 0 && strcmp(paper, "letter") != 0)
-        return cli_option_error(diag, "--paper", "expected a4 or letter, found '%s'", paper);
+        return cli_option_error(diag, "--paper", 1, "expected a4 or letter, found '%s'", paper);
     so->paper = paper && strcmp(paper, "letter") == 0 ? PLUMB_PAPER_LETTER : PLUMB_PAPER_A4;
     double v = 0.0;
     plumb_status st = PLUMB_OK;

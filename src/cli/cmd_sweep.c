@@ -54,7 +54,9 @@ static int run(const cli_args *a, const char *const *vary, size_t n_vary)
     /* a bad range is the command line's error; ranges are read with the
      * study's units before any fall is run */
     for (size_t i = 0; st == PLUMB_OK && i < n_vary; i++)
-        st = plumb_range_parse_key(cs.units, vary[i], &axes[i], &diag);
+        if ((st = plumb_range_parse_key(cs.units, vary[i], &axes[i], &diag)) != PLUMB_OK &&
+            strcmp(diag.file, "--vary") == 0)
+            diag.line = (int)i + 1; /* the i-th --vary (README.md "Exit status") */
     if (st == PLUMB_OK) {
         cli_rows_progress e;
         int timed = cli_rows_progress_start(&e, "sweep", "rows") && !a->quiet;

@@ -87,6 +87,23 @@ plumb_status plumbp_raise(plumb_diag *diag, plumb_status status, const char *fil
     return status;
 }
 
+plumb_status plumb_diag_voption(plumb_diag *diag, plumb_status status, const char *option,
+                                int index, int col, const char *key, const char *fmt, va_list ap)
+{
+    return plumbp_vraise(diag, status, option, index > 0 ? index : 1, col > 0 ? col : 1, key,
+                         fmt, ap);
+}
+
+plumb_status plumb_diag_option(plumb_diag *diag, plumb_status status, const char *option,
+                               int index, int col, const char *key, const char *fmt, ...)
+{
+    va_list ap;
+    va_start(ap, fmt);
+    plumb_diag_voption(diag, status, option, index, col, key, fmt, ap);
+    va_end(ap);
+    return status;
+}
+
 char *plumbp_strlcpy(char *dst, const char *src, size_t n)
 {
     if (n == 0)

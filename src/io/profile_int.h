@@ -203,7 +203,20 @@ typedef struct plumbp_set_items {
     size_t n, cap;
     plumby_node **node;
     int *removed_by;
+    /* the key each --set of this call set or removed, items[N] numbered
+     * as written (an item's name turned into its number), so that two of
+     * one key are refused (profile_set.c, set_twice) */
+    struct plumbp_set_key *keys;
+    size_t n_keys, cap_keys;
 } plumbp_set_items;
+
+/* One --set's key (plumbp_set_items.keys). */
+typedef struct plumbp_set_key {
+    char key[PLUMB_DIAG_KEY];    /* resolved: "items[5].mass", "descent[0].area" */
+    char typed[PLUMB_DIAG_KEY];  /* as the --set wrote it */
+    int line;                    /* which --set, from 1 */
+    int removed;                 /* 1: KEY=~, a removal */
+} plumbp_set_key;
 
 void plumbp_set_items_free(plumbp_set_items *numbering);
 /* Once the --set options are applied: p's item_no, n_slots and

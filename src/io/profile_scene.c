@@ -96,6 +96,16 @@ plumb_status plumbp_profile_read_release_site(loader *L, plumb_fall_spec *base)
                 return st;
     } else {
         double speed, heading, climb;
+        const plumby_node *climb_given = plumby_get(&vm, "climb");
+        if (!plumby_get(&vm, "speed") && climb_given && !plumby_get(&vm, "heading") &&
+            climb_given->kind == PLUMBY_SCALAR) {
+            /* a climb alone is most often a throw straight up or down */
+            char why[PLUMB_DIAG_MSG / 2];
+            snprintf(why, sizeof why, "heading and climb come with a speed; a purely vertical "
+                                      "throw is written with up, as in {up: %.60s}",
+                     climb_given->text);
+            return plumby_missing(&vm, "speed", why);
+        }
         if (!plumby_get(&vm, "speed"))
             return plumby_missing(&vm, "speed", "heading and climb come with a speed");
         if ((st = plumby_num(&vm, "speed", 1, 0.0, &speed, NULL)) != PLUMB_OK)

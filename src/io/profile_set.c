@@ -229,6 +229,138 @@ static void tree_remove(plumby_node *root, const keypath *kp)
     }
 }
 
+/* ---- one key, one --set ------------------------------------------------- */
+
+/* The first nseg segments of kp as one key, items[N] numbered as the
+ * profile is written (slot: the item's slot, from 0; -1 when kp names no
+ * item) and one descent given as a map called descent[0], so that
+ * items[glove].mass and items[3].mass, descent.area and descent[0].area,
+ * are one key. `last` (may be NULL) replaces the name of the last
+ * segment. Can't fail (a key too long is cut, which only makes two keys
+ * compare unequal). */
+static void key_resolved(const keypath *kp, size_t nseg, long slot, const char *last, char *out,
+                         size_t size)
+{
+    size_t len = 0;
+    out[0] = '\0';
+    for (size_t i = 0; i < nseg && len < size; i++) {
+        const kseg *s = &kp->seg[i];
+        const char *name = last && i + 1 == nseg ? last : s->name;
+        int n;
+        if (i == 0 && slot >= 0)
+            n = snprintf(out + len, size - len, "%s[%ld]", name, slot + 1);
+        else if (s->index >= 0)
+            n = snprintf(out + len, size - len, "%s%s[%ld]", i ? "." : "", name, s->index);
+        else if (i + 1 < nseg && s->schema && s->schema->type == PLUMBY_T_MAP_OR_LIST)
+            n = snprintf(out + len, size - len, "%s%s[0]", i ? "." : "", name);
+        else
+            n = snprintf(out + len, size - len, "%s%s", i ? "." : "", name);
+        if (n < 0)
+            return;
+        len += (size_t)n;
+    }
+}
+
+/* 1 when key `inner` lies inside key `outer` (release.height in release,
+ * descent[0].area in descent). */
+static int key_within(const char *inner, const char *outer)
+{
+    size_t n = strlen(outer);
+    return strncmp(inner, outer, n) == 0 && (inner[n] == '.' || inner[n] == '[');
+}
+
+/* The node at kp in root (its item segment already resolved to a place in
+ * the list, as tree_remove reads it), or NULL. */
+static const plumby_node *tree_at(const plumby_node *root, const keypath *kp)
+{
+    const plumby_node *cur = root;
+    for (size_t i = 0; cur && i < kp->n; i++) {
+        const kseg *s = &kp->seg[i];
+        const plumby_pair *pair = cur->kind == PLUMBY_MAP ? plumby_find(cur, s->name) : NULL;
+        if (!pair)
+            return NULL;
+        const plumby_node *v = pair->value;
+        if (s->index != KSEG_NONE && v->kind == PLUMBY_SEQ) {
+            if (s->index < 0 || (size_t)s->index >= v->n)
+                return NULL;
+            cur = v->items[s->index];
+        } else if (s->index > 0 || s->index == KSEG_NAMED) {
+            return NULL;
+        } else {
+            cur = v;
+        }
+    }
+    return cur;
+}
+
+/* Two --set options of one key would let the last silently win, as a
+ * second --format would (README.md "Common options": a repeated option is
+ * refused): refuses the line-th --set of `key` (resolved: key_resolved)
+ * when an earlier one sets the same key; sets a key inside it (the whole
+ * map, release, would drop the earlier release.height); or gives this key
+ * in its own value (release={height: ...} then release.height). A key set
+ * inside a map an earlier --set gave whole, which that --set did not
+ * give, adds to it and is taken (release={height: 10 m} then
+ * release.velocity.up). kp (resolved in root) finds the node now there. */
+static plumb_status set_twice(const plumbp_set_items *nb, const plumby_node *root,
+                              const keypath *kp, const char *resolved, const char *typed, int line,
+                              plumb_diag *diag)
+{
+    const plumby_node *now = NULL;
+    int looked = 0;
+    for (size_t i = 0; i < nb->n_keys; i++) {
+        const plumbp_set_key *e = &nb->keys[i];
+        char same[PLUMB_DIAG_KEY + 64] = "";
+        if (strcmp(e->typed, typed) != 0)
+            snprintf(same, sizeof same, " (as '%s')", e->typed);
+        if (strcmp(e->key, resolved) == 0)
+            return set_raise(diag, PLUMB_EINVAL, line, 1, typed,
+                             "set twice, by --set %d%s and by this --set %d: give each key once "
+                             "(the last would silently replace the first)",
+                             e->line, same, line);
+        if (key_within(e->key, resolved) && !e->removed)
+            return set_raise(diag, PLUMB_EINVAL, line, 1, typed,
+                             "this --set %d replaces all of %s, in which --set %d sets '%s': "
+                             "that value would be silently lost; give it in this --set's value, "
+                             "or set the keys one by one",
+                             line, typed, e->line, e->typed);
+        if (key_within(resolved, e->key)) {
+            if (!looked) {
+                now = tree_at(root, kp);
+                looked = 1;
+            }
+            if (now && now->origin == PLUMBY_FROM_SET && now->line == e->line)
+                return set_raise(diag, PLUMB_EINVAL, line, 1, typed,
+                                 "set twice: --set %d ('%s') gives it in its value, and this "
+                                 "--set %d again: give each key once (the last would silently "
+                                 "replace the first)",
+                                 e->line, e->typed, line);
+        }
+    }
+    return PLUMB_OK;
+}
+
+/* Keeps the key of the line-th --set (removed: KEY=~) for set_twice. -1
+ * out of memory. */
+static int set_key_push(plumbp_set_items *nb, const char *resolved, const char *typed, int line,
+                        int removed)
+{
+    if (nb->n_keys == nb->cap_keys) {
+        size_t cap = nb->cap_keys ? 2 * nb->cap_keys : 8;
+        plumbp_set_key *k2 = realloc(nb->keys, cap * sizeof *k2);
+        if (!k2)
+            return -1;
+        nb->keys = k2;
+        nb->cap_keys = cap;
+    }
+    plumbp_set_key *k = &nb->keys[nb->n_keys++];
+    plumbp_strlcpy(k->key, resolved, sizeof k->key);
+    plumbp_strlcpy(k->typed, typed, sizeof k->typed);
+    k->line = line;
+    k->removed = removed;
+    return 0;
+}
+
 /* Keys that stand instead of one another in the same map: an override of
  * one replaces the others, so `--set descent.area=1.2m^2` works on a
  * profile that gives the canopy's diameter (and `plumb limit --find
@@ -248,8 +380,13 @@ static const struct { const char *parent, *key, *drops[2]; } alternatives[] = {
 };
 
 /* Drops what the key of kp stands instead of, and what any key on its way
- * does (payload.shape.kind replaces the profile's payload.drag). */
-static void drop_alternatives(plumby_node *root, const keypath *kp)
+ * does (payload.shape.kind replaces the profile's payload.drag). A key an
+ * earlier --set of this call gave (nb: its keys; slot as key_resolved
+ * takes it) is not dropped: the line-th --set `key` is refused instead,
+ * since the earlier one would be silently lost. */
+static plumb_status drop_alternatives(plumby_node *root, const keypath *kp,
+                                      const plumbp_set_items *nb, long slot, const char *key,
+                                      int line, plumb_diag *diag)
 {
     for (size_t n = 2; n <= kp->n; n++) {
         const kseg *last = &kp->seg[n - 1], *parent = &kp->seg[n - 2];
@@ -265,6 +402,17 @@ static void drop_alternatives(plumby_node *root, const keypath *kp)
             if (strcmp(parent->name, PLUMBY_ITEMS_KEY) == 0 && n != 2)
                 continue;
             for (size_t k = 0; k < 2 && alternatives[i].drops[k]; k++) {
+                char dropped[PLUMB_DIAG_KEY];
+                key_resolved(kp, n, slot, alternatives[i].drops[k], dropped, sizeof dropped);
+                for (size_t e = 0; e < nb->n_keys; e++)
+                    if (!nb->keys[e].removed && (strcmp(nb->keys[e].key, dropped) == 0 ||
+                                                 key_within(nb->keys[e].key, dropped)))
+                        return set_raise(diag, PLUMB_EINVAL, line, 1, key,
+                                         "stands instead of %s, which --set %d sets ('%s'): "
+                                         "that value would be silently lost; give one of "
+                                         "the two",
+                                         alternatives[i].drops[k], nb->keys[e].line,
+                                         nb->keys[e].typed);
                 keypath other = *kp;
                 other.n = n;
                 plumbp_strlcpy(other.seg[n - 1].name, alternatives[i].drops[k],
@@ -273,6 +421,7 @@ static void drop_alternatives(plumby_node *root, const keypath *kp)
             }
         }
     }
+    return PLUMB_OK;
 }
 
 /* Applies one "KEY=VALUE" to the tree; VALUE ~ or null removes KEY; a key
@@ -300,6 +449,7 @@ void plumbp_set_items_free(plumbp_set_items *numbering)
         return;
     free(numbering->node);
     free(numbering->removed_by);
+    free(numbering->keys);
     memset(numbering, 0, sizeof *numbering);
 }
 
@@ -515,7 +665,7 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
         return st;
     int whole_item = on_items && kp.n == 1 && kp.seg[0].index != KSEG_NONE;
     plumby_node *target = NULL;
-    long slot = -1;
+    long slot = -1, typed_index = kp.seg[0].index;
     if (on_items && kp.seg[0].index != KSEG_NONE) {
         if ((st = slot_resolve(numbering, root, &kp, key, line, &target, diag)) != PLUMB_OK)
             return st;
@@ -526,10 +676,24 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
     if (strspn(val, " ") == strlen(val))
         return set_raise(diag, PLUMB_EPARSE, line, col0 + 1, key,
                          "expected a value after '=', found nothing");
+    /* the key resolved: an item by its number as written (a new one's is
+     * the number typed); an unknown name is tree_put's error */
+    long key_slot = !on_items || kp.seg[0].index == KSEG_NONE ? -1
+                    : typed_index >= 0                       ? typed_index
+                                                             : slot;
+    char resolved[PLUMB_DIAG_KEY];
+    key_resolved(&kp, kp.n, key_slot, NULL, resolved, sizeof resolved);
+    int known = !(on_items && kp.seg[0].index != KSEG_NONE && key_slot < 0);
+    if (known && (st = set_twice(numbering, root, &kp, resolved, key, line, diag)) != PLUMB_OK)
+        return st;
     size_t lead = strspn(val, " "), vlen = strlen(val + lead);
     while (vlen > 0 && val[lead + vlen - 1] == ' ')
         vlen--;
-    if ((vlen == 1 && val[lead] == '~') || (vlen == 4 && strncmp(val + lead, "null", 4) == 0)) {
+    int removing = (vlen == 1 && val[lead] == '~') ||
+                   (vlen == 4 && strncmp(val + lead, "null", 4) == 0);
+    if (known && set_key_push(numbering, resolved, key, line, removing) != 0)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory applying --set %d", line);
+    if (removing) {
         tree_remove(root, &kp);
         if (removal) {
             /* the key as the loader names it: an item by its number as
@@ -562,7 +726,8 @@ plumb_status plumbp_profile_apply_set(plumby_node *root, const char *arg, int li
     st = tree_put(root, &kp, key, node, diag);
     if (st != PLUMB_OK)
         return st;
-    drop_alternatives(root, &kp);
+    if ((st = drop_alternatives(root, &kp, numbering, key_slot, key, line, diag)) != PLUMB_OK)
+        return st;
     if (on_items && kp.seg[0].index == KSEG_NONE && kp.n == 1) {
         /* the whole list given: later --set options count it as given */
         if (slots_capture(numbering, root) != 0)

@@ -78,6 +78,27 @@ static const char *unc_reason(const char *key)
            "chosen does not use it)";
 }
 
+/* The ways "+-" is mistyped, most specific first: "5 m/s +/- 1 m/s" is
+ * read as no tolerance at all. */
+static const char *const plus_minus_slips[] = {"+/-", "-/+", "+ -", "-+"};
+
+/* 1 when text holds a slip of "+-" (plus_minus_slips) and no "+-": out
+ * (size bytes) is text with it written "+-". */
+static int plus_minus_slip(const char *text, char *out, size_t size)
+{
+    if (strstr(text, "+-") || strstr(text, "\xc2\xb1"))
+        return 0;
+    for (size_t i = 0; i < sizeof plus_minus_slips / sizeof plus_minus_slips[0]; i++) {
+        const char *at = strstr(text, plus_minus_slips[i]);
+        if (!at)
+            continue;
+        int n = snprintf(out, size, "%.*s+-%s", (int)(at - text), text,
+                         at + strlen(plus_minus_slips[i]));
+        return n > 0 && (size_t)n < size;
+    }
+    return 0;
+}
+
 /* Splits "VALUE +- TOL" (or "±") into two scalar nodes' texts. */
 static int split_plus_minus(const char *t, char *a, char *b, size_t size)
 {
@@ -197,12 +218,15 @@ static plumb_status read_one_uncertainty(loader *L, const plumby_pair *pr, plumb
     char rtext[160];
     plumby_range_text(range, dim, rtext, sizeof rtext);
     if (v->kind == PLUMBY_SCALAR) {
-        char a[PLUMB_DIAG_MSG], b[PLUMB_DIAG_MSG];
+        char a[PLUMB_DIAG_MSG], b[PLUMB_DIAG_MSG], fix[PLUMB_DIAG_MSG / 2 + 64] = "";
+        if (!plumby_is_null(v) && plus_minus_slip(v->text, a, sizeof a))
+            snprintf(fix, sizeof fix, "; did you mean \"%.*s\"? (the tolerance is written "
+                                      "+- or \xc2\xb1)", PLUMB_DIAG_MSG / 2 - 8, a);
         if (plumby_is_null(v) || !split_plus_minus(v->text, a, b, sizeof a))
             return plumby_raise(ctx, v->origin, v->line, v->col, dkey, PLUMB_EINVAL,
                                 "expected {normal: [MEAN, SD]}, {uniform: [LO, HI]}, {triangular: "
-                                "[LO, MODE, HI]} or \"VALUE +- TOL\", found %s",
-                                plumby_describe(v, rtext, sizeof rtext));
+                                "[LO, MODE, HI]} or \"VALUE +- TOL\", found %s%s",
+                                plumby_describe(v, rtext, sizeof rtext), fix);
         plumby_node na = *v, nb = *v;
         na.text = a;
         nb.text = b;

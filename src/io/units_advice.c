@@ -69,6 +69,10 @@ static const struct {
     {"kmh", PLUMB_DIM_SPEED, "km/h", NULL},
     {"kmph", PLUMB_DIM_SPEED, "km/h", NULL},
     {"mps", PLUMB_DIM_SPEED, "m/s", NULL},
+    /* the prime and double prime, feet and inches in a drawing, read as
+     * the arcminute and arcsecond (BIPM SI Brochure, 9th ed., table 8) */
+    {"'", PLUMB_DIM_LENGTH, "ft", "' is the arcminute"},
+    {"\"", PLUMB_DIM_LENGTH, "in", "\" is the arcsecond"},
 };
 
 #define N_HINTS (sizeof unit_hints / sizeof unit_hints[0])

@@ -1,7 +1,7 @@
 /*
  * lint_report.c - the report of `plumb lint` (plumb_report_lint): which
  * profiles are good and every error found in the others, in text, JSON and
- * CSV, with the cautions in JSON and CSV as in every report (README.md
+ * CSV, with the cautions in every format as in every report (README.md
  * "Cautions"); and an error's message in the report's units
  * (plumb_report_diag_message): a value outside its key's range gets the
  * range again in US customary units, converted by plumbp_show_key (the
@@ -207,6 +207,10 @@ plumb_status plumb_report_lint(FILE *out, const plumb_report_options *opt,
         for (size_t i = 0; i < n; i++)
             if (entries[i].n_errors == 0)
                 put(&w, "%s: ok\n", entries[i].profile);
+        /* every report in every format carries the cautions (README.md
+         * "Cautions"): a profile that loads is not one whose figures are
+         * safe to act on */
+        plumbp_caution_lines_text(&w);
     }
     return plumbp_writer_close(&w, out, diag);
 }

@@ -270,11 +270,11 @@ typedef struct head_piece {
     int glue;
 } head_piece;
 
-/* h on lines of at most SWEEP_KEY_HEAD shown characters, split after a
- * dot outside brackets, a part longer than that wrapped at its spaces
- * (wrap_cell); packed from the end, so that the name line holds as much
- * of the key's tail as fits. */
-static void key_head_lines(const char *h, key_head *kh)
+/* h on lines of at most `limit` (up to SWEEP_KEY_HEAD) shown characters,
+ * split after a dot outside brackets, a part longer than SWEEP_KEY_HEAD
+ * wrapped at its spaces (wrap_cell); packed from the end, so that the name
+ * line holds as much of the key's tail as fits. */
+static void key_head_lines(const char *h, size_t limit, key_head *kh)
 {
     head_piece piece[PLUMB_DIAG_KEY];
     size_t np = 0;
@@ -302,7 +302,7 @@ static void key_head_lines(const char *h, key_head *kh)
     for (size_t i = np; i-- > 0;) {
         char joined[2 * PLUMB_DIAG_KEY];
         snprintf(joined, sizeof joined, "%s%s", piece[i].text, cur);
-        if (cur[0] && (!piece[i].glue || shown_width(joined) > SWEEP_KEY_HEAD ||
+        if (cur[0] && (!piece[i].glue || shown_width(joined) > limit ||
                        strlen(joined) >= sizeof cur) && nl + 1 < KEY_HEAD_LINES) {
             snprintf(lines[nl++], sizeof lines[0], "%s", cur);
             snprintf(cur, sizeof cur, "%s", piece[i].text);
@@ -318,20 +318,69 @@ static void key_head_lines(const char *h, key_head *kh)
 
 /* The headers of the varied keys' columns: each key, or its last part when
  * it is longer than SWEEP_KEY_HEAD or is one of two (the lines above the
- * table name the whole keys), so the figures and names keep their room;
+ * table name the whole keys), so the figures and names keep their room,
+ * but never for an item's key (items[2].mass is one item's, not every
+ * item's mass, which "mass" beside the item column would read as);
  * but never the same header twice: a last part shared by two keys
  * (items[1].mass, items[2].mass) or by a figure's column (speed) takes the
  * parts before it until it is told apart. A header wider than
  * SWEEP_KEY_HEAD goes on lines of their own above the name line
  * (key_head_lines). */
+/* An item named in its key's brackets with a word too long for a header
+ * line (SWEEP_KEY_HEAD), by its number (items[5].mass: the item column
+ * beside it names it, the lines above the table the key as typed), so
+ * that its column stays narrow; into buf, from the first computed row's
+ * items. Returns buf, or key when its words fit, it gives a number or no
+ * row names the item. */
+static const char *item_key_narrow(const plumb_sweep *sw, const char *key, char *buf,
+                                   size_t size)
+{
+    const char *close = strncmp(key, "items[", 6) == 0 ? strchr(key + 6, ']') : NULL;
+    size_t len = close ? (size_t)(close - (key + 6)) : 0;
+    if (!close || strspn(key + 6, "0123456789") == len)
+        return key;
+    int too_long = 0; /* a word of "items[NAME]." wider than a header line */
+    for (const char *w = key; w < close + 2 && *w;) {
+        size_t n = strcspn(w, " ");
+        if (w + n > close + 2)
+            n = (size_t)(close + 2 - w);
+        char word[PLUMB_DIAG_KEY];
+        snprintf(word, sizeof word, "%.*s", (int)n, w);
+        too_long = too_long || shown_width(word) > SWEEP_KEY_HEAD;
+        w += n + (w[n] == ' ');
+    }
+    if (!too_long)
+        return key;
+    for (size_t r = 0; r < plumb_sweep_row_count(sw); r++) {
+        const plumb_fall_report *rep = &plumb_sweep_row_at(sw, r)->report;
+        for (size_t i = 0; rep->profile && i < rep->n_items; i++) {
+            const char *name = rep->items[i].spec->name;
+            if (strlen(name) == len && strncmp(name, key + 6, len) == 0) {
+                snprintf(buf, size, "items[%zu]%s", plumb_profile_item_number(rep->profile, i),
+                         close + 1);
+                return buf;
+            }
+        }
+    }
+    return key;
+}
+
 static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
 {
     const char *head[PLUMB_MAX_AXES];
     size_t parts[PLUMB_MAX_AXES];
+    char narrow[PLUMB_MAX_AXES][PLUMB_DIAG_KEY];
+    const char *base[PLUMB_MAX_AXES]; /* the key each head is a part of */
     for (size_t a = 0; a < na; a++) {
-        const char *key = plumb_sweep_axis(sw, a)->key;
+        const char *key = item_key_narrow(sw, plumb_sweep_axis(sw, a)->key, narrow[a],
+                                          sizeof narrow[a]);
         parts[a] = 1;
-        head[a] = shown_width(key) > SWEEP_KEY_HEAD || na > 1 ? key_suffix(key, 1) : key;
+        /* an item's key keeps its item: "mass" alone, beside the item
+         * column, reads as every item's mass */
+        int item = strncmp(key, "items[", 6) == 0;
+        base[a] = key;
+        head[a] = !item && (shown_width(key) > SWEEP_KEY_HEAD || na > 1) ? key_suffix(key, 1)
+                                                                         : key;
     }
     /* every clashing header grows at once, so two keys that share their
      * last part are both told apart, not only the first */
@@ -339,15 +388,18 @@ static void sweep_key_heads(const plumb_sweep *sw, size_t na, key_head *kh)
         int grow[PLUMB_MAX_AXES];
         changed = 0;
         for (size_t a = 0; a < na; a++)
-            grow[a] = head[a] != plumb_sweep_axis(sw, a)->key && key_head_clashes(head, na, a);
+            grow[a] = head[a] != base[a] && key_head_clashes(head, na, a);
         for (size_t a = 0; a < na; a++)
             if (grow[a]) {
-                head[a] = key_suffix(plumb_sweep_axis(sw, a)->key, ++parts[a]);
+                head[a] = key_suffix(base[a], ++parts[a]);
                 changed = 1;
             }
     }
+    /* an item's key in a two-way table: a dotted part a line, so that
+     * its column is no wider than its parts (items[2]. above mass) */
     for (size_t a = 0; a < na; a++)
-        key_head_lines(head[a], &kh[a]);
+        key_head_lines(head[a],
+                       na > 1 && strncmp(head[a], "items[", 6) == 0 ? 1 : SWEEP_KEY_HEAD, &kh[a]);
 }
 
 /* The widest line of a key's header. */

@@ -65,28 +65,46 @@ static const char *trim(char *s)
     return s;
 }
 
-#define RANGE_ERROR(diag, st, what, ...) \
-    PLUMB_RAISE_AT((diag), (st), "<command line>", 0, 0, (what), __VA_ARGS__)
+/* An error in a range, at its option (plumb_diag_option): `what` is the
+ * option, then after a space the key it varies ("--vary release.height",
+ * "--alt"); col the column in the range's text where the part at fault
+ * starts (plumb_range_parse_key adds the key's). Returns st. */
+PLUMBP_PRINTF(5, 6)
+static plumb_status range_error(plumb_diag *diag, plumb_status st, const char *what, int col,
+                                const char *fmt, ...)
+{
+    char option[PLUMB_DIAG_KEY];
+    const char *sp = strchr(what, ' ');
+    snprintf(option, sizeof option, "%.*s", sp ? (int)(sp - what) : (int)strlen(what), what);
+    va_list ap;
+    va_start(ap, fmt);
+    plumb_diag_voption(diag, st, option, 1, col, sp ? sp + 1 : NULL, fmt, ap);
+    va_end(ap);
+    return st;
+}
+#define RANGE_ERROR(diag, st, what, col, ...) range_error((diag), (st), (what), (col), __VA_ARGS__)
 
-/* Splits "FROM:TO:STEP" of `text` into buf, the three parts trimmed. */
+/* Splits "FROM:TO:STEP" of `text` into buf, the three parts trimmed, and
+ * the column in text where each starts (cols, 1-based). */
 static plumb_status range_split(const char *text, const char *what, char *buf, size_t size,
-                                const char *parts[3], plumb_diag *diag)
+                                const char *parts[3], int cols[3], plumb_diag *diag)
 {
     if (snprintf(buf, size, "%s", text) >= (int)size)
-        return RANGE_ERROR(diag, PLUMB_EPARSE, what, "range too long: '%s'", text);
+        return RANGE_ERROR(diag, PLUMB_EPARSE, what, 1, "range too long: '%s'", text);
     char *p = buf;
     for (int i = 0; i < 3; i++) {
         char *colon = strchr(p, ':');
         if (i < 2 && !colon)
-            return RANGE_ERROR(diag, PLUMB_EPARSE, what,
+            return RANGE_ERROR(diag, PLUMB_EPARSE, what, 1,
                                "expected FROM:TO:STEP, each with its unit (e.g. 2m:60m:2m); "
                                "found '%s'", text);
         if (i == 2 && colon)
-            return RANGE_ERROR(diag, PLUMB_EPARSE, what,
+            return RANGE_ERROR(diag, PLUMB_EPARSE, what, (int)(colon - buf) + 1,
                                "expected FROM:TO:STEP, three parts; found '%s'", text);
         if (colon)
             *colon = '\0';
         parts[i] = trim(p);
+        cols[i] = (int)(parts[i] - buf) + 1;
         if (colon)
             p = colon + 1;
     }
@@ -98,7 +116,8 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
 {
     char buf[256];
     const char *parts[3];
-    plumb_status st = range_split(text, what, buf, sizeof buf, parts, diag);
+    int cols[3];
+    plumb_status st = range_split(text, what, buf, sizeof buf, parts, cols, diag);
     if (st != PLUMB_OK)
         return st;
     static const char *const names[3] = {"FROM", "TO", "STEP"};
@@ -112,7 +131,8 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
         plumb_diag_clear(&d);
         st = plumb_units_parse(units, parts[i], dims[i], &si[i], &d);
         if (st != PLUMB_OK)
-            return RANGE_ERROR(diag, st, what, "%s '%s': %s", names[i], parts[i], d.message);
+            return RANGE_ERROR(diag, st, what, cols[i], "%s '%s': %s", names[i], parts[i],
+                               d.message);
         char *end = NULL;
         num[i] = strtod(parts[i], &end);
         char rest[PLUMB_UNIT_TEXT];
@@ -147,10 +167,10 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
     }
     /* Signs and the count in the unit the values are counted in. */
     if (out->step == 0.0)
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what, "STEP must not be zero, found '%s'",
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, cols[2], "STEP must not be zero, found '%s'",
                            parts[2]);
     if ((out->to > out->from && out->step < 0.0) || (out->to < out->from && out->step > 0.0))
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, cols[2],
                            "STEP '%s' goes the wrong way: from %s %s to %s needs a %s STEP",
                            parts[2], parts[0], out->to > out->from ? "up" : "down", parts[1],
                            out->to > out->from ? "positive" : "negative");
@@ -158,7 +178,7 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
      * near the largest double do not overflow their difference */
     double span = out->to / out->step - out->from / out->step;
     if (!plumbp_finite(span))
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, 1,
                            "'%s' makes more values than can be counted, far more than %u; use "
                            "a larger STEP", text, PLUMB_RANGE_MAX_VALUES);
     /* the values counted once, here, for every range (--vary, a
@@ -168,7 +188,7 @@ plumb_status plumb_range_parse(const plumb_units *units, const char *text, plumb
      * 100001 values) */
     double count = floor(span * (1.0 + 1e-12) + 1e-12) + 1.0;
     if (!(count <= (double)PLUMB_RANGE_MAX_VALUES))
-        return RANGE_ERROR(diag, PLUMB_ERANGE, what,
+        return RANGE_ERROR(diag, PLUMB_ERANGE, what, 1,
                            "'%s' makes %s%.*g values, more than %u; use a larger STEP", text,
                            count < 1e12 ? "" : "about ", count < 1e12 ? 12 : 2, count,
                            PLUMB_RANGE_MAX_VALUES);
@@ -190,12 +210,13 @@ static plumb_status direction_range(const plumb_units *units, const char *text, 
 {
     char split[256];
     const char *parts[3];
-    plumb_status st = range_split(text, what, split, sizeof split, parts, diag);
+    int cols[3];
+    plumb_status st = range_split(text, what, split, sizeof split, parts, cols, diag);
     if (st != PLUMB_OK)
         return st;
     double from = plumbp_direction_bearing(parts[0]), to = plumbp_direction_bearing(parts[1]);
     if (plumbp_direction_bearing(parts[2]) >= 0.0)
-        return RANGE_ERROR(diag, PLUMB_EPARSE, what,
+        return RANGE_ERROR(diag, PLUMB_EPARSE, what, cols[2],
                            "STEP '%s' is a compass point, a direction; a step is an angle "
                            "turned, e.g. 22.5 deg (one point of 16) or -22.5 deg "
                            "(anticlockwise)", parts[2]);
@@ -212,11 +233,11 @@ static plumb_status direction_range(const plumb_units *units, const char *text, 
             v[i] = given[i];
         else if ((st = plumb_units_parse(units, parts[i], PLUMB_DIM_ANGLE, &v[i], &d)) !=
                  PLUMB_OK)
-            return RANGE_ERROR(diag, st, what, "%s '%s': %s", i ? "TO" : "FROM", parts[i],
+            return RANGE_ERROR(diag, st, what, cols[i], "%s '%s': %s", i ? "TO" : "FROM", parts[i],
                                d.message);
     }
     if ((st = plumb_units_parse(units, parts[2], PLUMB_DIM_ANGLE, &step, &d)) != PLUMB_OK)
-        return RANGE_ERROR(diag, st, what, "STEP '%s': %s", parts[2], d.message);
+        return RANGE_ERROR(diag, st, what, cols[2], "STEP '%s': %s", parts[2], d.message);
     /* angles are read in degrees (units.h) */
     if (step > 0.0 && v[1] < v[0])
         v[1] += 360.0;
@@ -224,7 +245,7 @@ static plumb_status direction_range(const plumb_units *units, const char *text, 
         v[1] -= 360.0;
     if (snprintf(buf, size, "%.*g deg:%.*g deg:%.*g deg", RANGE_DIGITS, v[0], RANGE_DIGITS, v[1],
                  RANGE_DIGITS, step) >= (int)size)
-        return RANGE_ERROR(diag, PLUMB_EPARSE, what, "range too long: '%s'", text);
+        return RANGE_ERROR(diag, PLUMB_EPARSE, what, 1, "range too long: '%s'", text);
     return PLUMB_OK;
 }
 
@@ -233,14 +254,14 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
 {
     const char *eq = strchr(text, '=');
     if (!eq || eq == text)
-        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, "--vary",
-                              "expected KEY=FROM:TO:STEP (e.g. release.height=2m:60m:2m), found '%s'",
-                              text);
+        return RANGE_ERROR(diag, PLUMB_EPARSE, "--vary", 1,
+                           "expected KEY=FROM:TO:STEP (e.g. release.height=2m:60m:2m), found '%s'",
+                           text);
     char key[PLUMB_DIAG_KEY];
     size_t klen = (size_t)(eq - text);
     if (klen >= sizeof key)
-        return PLUMB_RAISE_AT(diag, PLUMB_EPARSE, "<command line>", 0, 0, "--vary",
-                              "the key of '%.40s...' is too long", text);
+        return RANGE_ERROR(diag, PLUMB_EPARSE, "--vary", 1, "the key of '%.40s...' is too long",
+                           text);
     memcpy(key, text, klen);
     key[klen] = '\0';
     plumb_dim dim;
@@ -248,11 +269,12 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
     snprintf(what, sizeof what, "--vary %s", key);
     plumb_status st = plumb_profile_key_dim(key, &dim, diag);
     if (st != PLUMB_OK) {
-        /* the key is the option's: named as every other --vary error is */
-        if (diag && (!diag->file[0] || strcmp(diag->file, "<command line>") == 0)) {
-            plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
-            diag->line = diag->col = 0;
-            plumbp_strlcpy(diag->key, what, sizeof diag->key);
+        /* the key is the option's: located as every other --vary error is,
+         * at the column of its part at fault when the key's check knew it */
+        if (diag && !diag->file[0]) {
+            char msg[PLUMB_DIAG_MSG];
+            plumbp_strlcpy(msg, diag->message, sizeof msg);
+            plumb_diag_option(diag, st, "--vary", 1, diag->col, key, "%s", msg);
         }
         return st;
     }
@@ -260,13 +282,18 @@ plumb_status plumb_range_parse_key(const plumb_units *units, const char *text, p
     const char *range = eq + 1;
     if (plumbp_key_is_direction(key)) {
         st = direction_range(units, range, what, turned, sizeof turned, diag);
-        if (st != PLUMB_OK)
-            return st;
-        range = turned;
+        if (st == PLUMB_OK && strcmp(turned, range) != 0)
+            range = turned; /* compass points turned: a column in it is not the text's */
+        else if (st == PLUMB_OK)
+            turned[0] = '\0';
     }
-    st = plumb_range_parse(units, range, dim, what, out, diag);
+    if (st == PLUMB_OK)
+        st = plumb_range_parse(units, range, dim, what, out, diag);
     if (st == PLUMB_OK)
         plumbp_strlcpy(out->key, key, sizeof out->key);
+    else if (diag && strcmp(diag->file, "--vary") == 0)
+        /* the column in the whole KEY=FROM:TO:STEP */
+        diag->col = range == turned ? (int)klen + 2 : diag->col + (int)klen + 1;
     return st;
 }
 
@@ -425,11 +452,11 @@ static plumb_status derive_row(plumb_sweep *s, size_t r, const plumb_profile *ba
         set_ptrs[a] = sets[a];
     }
     plumb_status st = plumb_profile_derive(base, units, set_ptrs, s->n_axes, &s->profiles[r], rd);
-    if (st != PLUMB_OK && strcmp(rd->file, "--set") == 0) {
-        /* the override is the sweep's own, made from --vary */
+    if (st != PLUMB_OK && strcmp(rd->file, "--set") == 0)
+        /* the override is the sweep's own, made from the line-th --vary,
+         * KEY=VALUE as it wrote KEY=FROM:TO:STEP: the line and column are
+         * that --vary's (the value's column is its FROM's) */
         plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
-        rd->line = rd->col = 0;
-    }
     if (st != PLUMB_OK)
         return st;
     if (!s->tmpl) {
@@ -528,9 +555,12 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
         st = plumbp_profile_item_sinks(p, i, s->atms[r], rd);
         for (size_t a = 0; st != PLUMB_OK && a < s->n_axes; a++)
             if (strcmp(rd->key, s->axes[a].key) == 0) {
-                /* the volume is the row's own value, from --vary */
-                plumbp_strlcpy(rd->file, "--vary", sizeof rd->file);
-                rd->line = rd->col = 0;
+                /* the volume is the row's own value, from the a-th --vary:
+                 * at its FROM, after KEY= */
+                char msg[PLUMB_DIAG_MSG];
+                plumbp_strlcpy(msg, rd->message, sizeof msg);
+                plumb_diag_option(rd, st, "--vary", (int)a + 1, (int)strlen(s->axes[a].key) + 2,
+                                  s->axes[a].key, "%s", msg);
             }
         if (st == PLUMB_OK)
             st = plumb_trajectory_run(traj, it->spec, s->atms[r], &it->result, rd);
@@ -568,6 +598,24 @@ static plumb_status run_row(plumb_sweep *s, size_t r, const plumb_profile *base,
     return PLUMB_OK;
 }
 
+/* key into out (size bytes) with an item named in its brackets turned into
+ * its number, items[glove].mass into items[3].mass, so that two --vary of
+ * one item's key are one key however each names the item; any other key
+ * (or a profile NULL, or a name no item has) is copied. Can't fail. */
+static void key_numbered(const plumb_profile *p, const char *key, char *out, size_t size)
+{
+    snprintf(out, size, "%s", key);
+    const char *close = strncmp(key, "items[", 6) == 0 ? strchr(key + 6, ']') : NULL;
+    size_t len = close ? (size_t)(close - (key + 6)) : 0;
+    for (size_t i = 0; p && close && i < plumb_profile_item_count(p); i++) {
+        const char *name = plumb_profile_item(p, i)->name;
+        if (strlen(name) == len && strncmp(name, key + 6, len) == 0) {
+            snprintf(out, size, "items[%zu]%s", plumb_profile_item_number(p, i), close + 1);
+            return;
+        }
+    }
+}
+
 plumb_status plumb_sweep_run(const plumb_profile *profile, const plumb_units *units,
                              const plumb_criteria *criteria, const plumb_range *axes,
                              size_t n_axes, plumb_trajectory *traj, plumb_sweep **out,
@@ -586,25 +634,36 @@ plumb_status plumb_sweep_run_progress(const plumb_profile *profile, const plumb_
     *out = NULL;
     if (n_axes < 1 || n_axes > PLUMB_MAX_AXES)
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "a sweep takes one or two --vary ranges");
-    if (n_axes == 2 && strcmp(axes[0].key, axes[1].key) == 0)
-        return PLUMB_RAISE_KEY(diag, PLUMB_EINVAL, axes[0].key, "the same key is varied twice");
+    char k0[PLUMB_DIAG_KEY], k1[PLUMB_DIAG_KEY];
+    if (n_axes == 2) {
+        key_numbered(profile, axes[0].key, k0, sizeof k0);
+        key_numbered(profile, axes[1].key, k1, sizeof k1);
+    }
+    if (n_axes == 2 && strcmp(k0, k1) == 0)
+        return plumb_diag_option(diag, PLUMB_EINVAL, "--vary", 2, 1, axes[1].key,
+                                 "the same key as --vary 1%s%s%s: vary each key once",
+                                 strcmp(axes[0].key, axes[1].key) ? " ('" : "",
+                                 strcmp(axes[0].key, axes[1].key) ? axes[0].key : "",
+                                 strcmp(axes[0].key, axes[1].key) ? "')" : "");
     /* The rows in double: a product of two counts never wraps. */
     double rows = 1.0;
     for (size_t a = 0; a < n_axes; a++) {
         if (axes[a].n < 1 || axes[a].n > PLUMB_RANGE_MAX_VALUES)
-            return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, axes[a].key,
-                                  "a range has 1 to %u values, found %zu",
-                                  PLUMB_RANGE_MAX_VALUES, axes[a].n);
+            return plumb_diag_option(diag, PLUMB_ERANGE, "--vary", (int)a + 1,
+                                     (int)strlen(axes[a].key) + 2, axes[a].key,
+                                     "a range has 1 to %u values, found %zu",
+                                     PLUMB_RANGE_MAX_VALUES, axes[a].n);
         rows *= (double)axes[a].n;
     }
     if (rows > (double)PLUMB_SWEEP_MAX_ROWS) {
+        /* at the --vary that takes the rows past the limit */
         if (n_axes == 2)
-            return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, "--vary",
-                                  "%zu x %zu values make %.0f rows, more than %u; use larger "
-                                  "steps", axes[0].n, axes[1].n, rows, PLUMB_SWEEP_MAX_ROWS);
-        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, "--vary",
-                              "%zu values make more than %u rows; use a larger step", axes[0].n,
-                              PLUMB_SWEEP_MAX_ROWS);
+            return plumb_diag_option(diag, PLUMB_ERANGE, "--vary", 2, 1, NULL,
+                                     "%zu x %zu values make %.0f rows, more than %u; use larger "
+                                     "steps", axes[0].n, axes[1].n, rows, PLUMB_SWEEP_MAX_ROWS);
+        return plumb_diag_option(diag, PLUMB_ERANGE, "--vary", 1, 1, NULL,
+                                 "%zu values make more than %u rows; use a larger step",
+                                 axes[0].n, PLUMB_SWEEP_MAX_ROWS);
     }
     size_t total = (size_t)rows;
     plumb_sweep *s = calloc(1, sizeof *s);

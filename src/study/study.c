@@ -167,13 +167,16 @@ plumb_status plumb_study_sweep_boundaries(plumb_study *s, plumb_sweep *sweep, pl
     return plumb_sweep_find_boundaries(sweep, s->profile, s->units, s->traj, diag);
 }
 
+/* An error in an option's value (its unit, its key), moved to that
+ * option (plumb_diag_option: OPTION:1:COL:), its key, column and message
+ * kept. */
 static plumb_status at_option(plumb_diag *diag, plumb_status st, const char *option)
 {
     if (diag) {
-        if (!diag->file[0])
-            plumbp_strlcpy(diag->file, "<command line>", sizeof diag->file);
-        if (!diag->key[0] && option)
-            plumbp_strlcpy(diag->key, option, sizeof diag->key);
+        char msg[PLUMB_DIAG_MSG], key[PLUMB_DIAG_KEY];
+        plumbp_strlcpy(msg, diag->message, sizeof msg);
+        plumbp_strlcpy(key, diag->key, sizeof key);
+        plumb_diag_option(diag, st, option, 1, diag->col, key[0] ? key : NULL, "%s", msg);
     }
     return st;
 }
@@ -206,7 +209,7 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
                       (strchr(text, '-') ||
                        (strlen(text) >= 3 && c && strncmp(c->id, text, strlen(text)) == 0));
         if (id_like && plumb_criteria_nearest_ids(s->criteria, text, near, sizeof near) > 0)
-            return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, option,
+            return plumb_diag_option(diag, PLUMB_EKEY, option, 1, 1, NULL,
                                   "'%s' is neither an energy with its unit nor a criterion's "
                                   "id; did you mean %s?",
                                   text, near);
@@ -219,8 +222,8 @@ plumb_status plumb_study_limit_value(const plumb_study *s, plumb_metric metric,
         return at_option(diag, st, option);
     }
     if (!(x > 0.0))
-        return PLUMB_RAISE_AT(diag, PLUMB_ERANGE, "<command line>", 0, 0, option,
-                              "the limit must be > 0, found '%s'", text);
+        return plumb_diag_option(diag, PLUMB_ERANGE, option, 1, 1, NULL,
+                                 "the limit must be > 0, found '%s'", text);
     *limit = x;
     return PLUMB_OK;
 }
@@ -299,13 +302,12 @@ static plumb_status asked_item(const plumb_study *s, const char *key, size_t *on
     }
     const char *open = key + 6, *close = strchr(open, ']');
     if (!plumb_profile_is_inventory(s->profile))
-        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
-                              "%s: the profile has one payload, not items: find payload.%s",
-                              key, close && close[1] == '.' ? close + 2 : "KEY");
+        return plumb_diag_option(diag, PLUMB_EKEY, "--find", 1, 1, key,
+                                 "the profile has one payload, not items: find payload.%s",
+                                 close && close[1] == '.' ? close + 2 : "KEY");
     if (!close || close[1] != '.' || close == open)
-        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
-                              "%s: expected items[N].KEY or items[NAME].KEY, e.g. items[1].mass",
-                              key);
+        return plumb_diag_option(diag, PLUMB_EKEY, "--find", 1, 1, key,
+                                 "expected items[N].KEY or items[NAME].KEY, e.g. items[1].mass");
     size_t len = (size_t)(close - open), digits = strspn(open, "0123456789");
     for (size_t i = 0; i < s->n_items && *only == SIZE_MAX; i++) {
         const char *name = plumb_profile_item(s->profile, i)->name;
@@ -313,15 +315,16 @@ static plumb_status asked_item(const plumb_study *s, const char *key, size_t *on
                           : strlen(name) == len && strncmp(name, open, len) == 0)
             *only = i;
     }
+    /* the item's number or name starts at column 7, after "items[" */
     if (*only == SIZE_MAX && digits == len)
-        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
-                              "%s: the profile has %zu items (items[1] to items[%zu])", key,
-                              s->n_items, s->n_items);
+        return plumb_diag_option(diag, PLUMB_EKEY, "--find", 1, 7, key,
+                                 "the profile has %zu items (items[1] to items[%zu])",
+                                 s->n_items, s->n_items);
     if (*only == SIZE_MAX)
-        return PLUMB_RAISE_AT(diag, PLUMB_EKEY, "<command line>", 0, 0, "--find",
-                              "%s: no item is named '%.*s' (give its number, items[1] to "
-                              "items[%zu], or its name as the profile writes it)",
-                              key, (int)len, open, s->n_items);
+        return plumb_diag_option(diag, PLUMB_EKEY, "--find", 1, 7, key,
+                                 "no item is named '%.*s' (give its number, items[1] to "
+                                 "items[%zu], or its name as the profile writes it)",
+                                 (int)len, open, s->n_items);
     const char *rest = close + 2;
     if (strncmp(rest, "descent", 7) == 0 && (rest[7] == '.' || rest[7] == '['))
         snprintf(solved, size, "%s", rest);
@@ -339,7 +342,7 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
     plumb_dim kd;
     plumb_status st = plumb_profile_key_dim(key, &kd, diag);
     if (st != PLUMB_OK)
-        return at_option(diag, st, NULL);
+        return at_option(diag, st, "--find");
     size_t only;
     char solved[PLUMB_DIAG_KEY];
     if ((st = asked_item(s, key, &only, solved, sizeof solved, diag)) != PLUMB_OK)

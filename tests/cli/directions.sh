@@ -88,9 +88,9 @@ case $out in
   *"from 45 to 315 deg anticlockwise through north"*) pass=$((pass + 1)) ;;
   *) bad "sweep anticlockwise through north: '$(echo "$out" | cut -c1-200)'" ;;
 esac
-refused "--vary with a compass STEP" "<command line>: --vary wind.from: STEP 'NE' is a compass point" \
+refused "--vary with a compass STEP" "plumb: --vary:1:15: wind.from: STEP 'NE' is a compass point" \
   -- sweep "$prof" --vary "wind.from=N:E:NE"
-refused "--vary a latitude between compass points" "--vary site.latitude: FROM 'N'" \
+refused "--vary a latitude between compass points" "plumb: --vary:1:15: site.latitude: FROM 'N'" \
   -- sweep "$prof" --vary "site.latitude=N:S:10deg"
 
 # ---- uncertainty: a compass point where a direction is given -----------------

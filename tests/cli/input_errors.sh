@@ -220,7 +220,7 @@ fi
 # ---- 5. a range's count --------------------------------------------------------
 # 0 m to 1 m by 0.00001 m is 1/0.00001 + 1 = 100001 values: one more than
 # the 100000 a range may make (README.md, plumb air); to 0.99999 m, 100000.
-refused "air 0m:1m:0.00001m" "--alt: '0m:1m:0.00001m' makes 100001 values, more than 100000" \
+refused "air 0m:1m:0.00001m" "--alt:1:1: '0m:1m:0.00001m' makes 100001 values, more than 100000" \
   -- air --alt 0m:1m:0.00001m
 refused "sweep by the same count" "makes 100001 values, more than 100000" \
   -- sweep "$good" --vary "release.height=1m:2m:0.00001m"
@@ -249,11 +249,11 @@ printf 'name: hot\npayload: {mass: 2.385 kg, drag: {cd: 0.9, area: 0.0113 m^2}}\
 refused "a temperature of 500 K" "hot.yaml:4:65: atmosphere.temperature: must be 150 K .. 400 K" \
   "-123.15 degC .. 126.85 degC" "!127 degC" -- fall "$tmp/hot.yaml"
 refused "--temperature-offset 200K" \
-  "plumb: <command line>: --temperature-offset: 200 K is out of range: must be -100 K .. 100 K" \
+  "plumb: --temperature-offset:1:1: 200 K is out of range: must be -100 K .. 100 K" \
   "!found" -- air --temperature-offset 200K
 # 360 degF as a difference is 200 K (NIST SP 811 B.9: 1 degF = 1/1.8 K)
 refused "--temperature-offset 360 degF" \
-  "plumb: <command line>: --temperature-offset: '360 degF': 200 K is out of range" \
+  "plumb: --temperature-offset:1:1: '360 degF': 200 K is out of range" \
   -- air --temperature-offset "360 degF"
 
 # ---- 7. a mass beyond any lift ----------------------------------------------------
@@ -290,6 +290,76 @@ if "$bin" fall "$tmp/huge.yaml" --set "payload.mass=1e8 kg" >"$tmp/stdout" 2>"$t
 else
   bad "a mass of 1e8 kg is refused: $(cat "$tmp/stderr")"
 fi
+
+# ---- 8. one key, one --set -------------------------------------------------------
+# A repeated --format or -o is refused rather than the last silently winning
+# (README.md "Common options"); so is a key two --set options give: the
+# same key, an item by its name and by its number (glove is items[3] of
+# the inventory), a map that would drop a key an earlier --set gave in it,
+# a key an earlier --set gave in its map's value, and a key standing
+# instead of one an earlier --set gave (descent.area / descent.diameter).
+refused "release.height twice" "plumb: --set:2:1: release.height: " "--set 1" "--set 2" \
+  -- fall "$good" --set "release.height=10m" --set "release.height=20m"
+refused "glove's mass by name and by number" "plumb: --set:2:1: items[3].mass: " \
+  "--set 1 (as 'items[glove].mass')" -- fall "$inv" --set "items[glove].mass=2kg" \
+  --set "items[3].mass=3kg"
+refused "glove's mass by number and by name" "plumb: --set:2:1: items[glove].mass: " "--set 1" \
+  -- fall "$inv" --set "items[3].mass=2kg" --set "items[glove].mass=3kg"
+refused "release after release.height" "plumb: --set:2:1: release: " "--set 1 sets 'release.height'" \
+  -- fall "$good" --set "release.height=10m" --set "release={height: 20 m}"
+refused "release.height after release" "plumb: --set:2:1: release.height: " "--set 1 ('release')" \
+  -- fall "$good" --set "release={height: 20 m}" --set "release.height=10m"
+refused "a removal after a key inside" "plumb: --set:2:1: release.velocity: " "--set 1" \
+  -- fall "$good" --set "release.velocity.up=1m/s" --set "release.velocity=~"
+refused "payload.shape after payload.drag" "plumb: --set:2:1: payload.shape: " \
+  "stands instead of drag, which --set 1 sets" \
+  -- fall "$good" --set "payload.drag={cd: 0.9, area: 0.01 m^2}" \
+  --set "payload.shape={kind: sphere, diameter: 0.1 m}"
+# the same for two --vary of one item's key, by its name and its number
+refused "--vary glove's mass by name and by number" \
+  "plumb: --vary:2:1: items[3].mass: the same key as --vary 1 ('items[glove].mass')" \
+  -- sweep "$inv" --vary "items[glove].mass=1kg:2kg:1kg" --vary "items[3].mass=1kg:2kg:1kg"
+# keys of two maps, a key a map given whole did not give, a list removed
+# then given anew, a key removed then one standing instead of it: each
+# --set is taken
+for sets in "release.height=10m|wind.speed=3 m/s" \
+            "release={height: 20 m}|release.velocity.up=1m/s" \
+            "items=~|items[1]={name: a, mass: 1 kg, drag: {cd_area: 0.01 m^2}}" \
+            "items[1].mass=1kg|items[2].mass=2kg" \
+            "payload.drag=~|payload.shape={kind: sphere, diameter: 0.11 m}"; do
+  p=$good
+  case $sets in items*) p=$inv ;; esac
+  if "$bin" fall "$p" --set "${sets%%|*}" --set "${sets#*|}" >"$tmp/stdout" 2>"$tmp/stderr"; then
+    pass=$((pass + 1))
+  else
+    bad "--set '${sets%%|*}' --set '${sets#*|}' refused: $(cat "$tmp/stderr")"
+  fi
+done
+
+# ---- 9. a value on the command line located as a --set is -------------------------
+# README.md "Exit status": OPTION:N:COL:, the N-th of that option, COL where
+# the part at fault starts in its value; then the key. The second --vary's
+# STEP: "release.height=" is 15 characters, "10m:20m:" 8, so STEP is at 24.
+refused "the second --vary's STEP" "plumb: --vary:2:24: release.height: STEP '-1m' goes the wrong way" \
+  -- sweep "$good" --vary "wind.speed=1m/s:2m/s:1m/s" --vary "release.height=10m:20m:-1m"
+refused "--alt's TO" "plumb: --alt:1:4: TO '10x': " -- air --alt "0m:10x:1m"
+refused "--energy-max of a mass" "plumb: --energy-max:1:1: expected an energy" \
+  -- limit "$good" --find release.height --energy-max 5kg
+refused "--find an item by a wrong name" "plumb: --find:1:7: items[glov].mass: no item is named" \
+  -- limit "$inv" --find "items[glov].mass" --energy-max 5J
+refused "--samples not a number" "plumb: --samples:1:1: expected a whole number" \
+  -- zone "$good" --samples x
+# a sweep's row that cannot be computed says where its value came from the
+# same way, in every format: the first --vary, at FROM (after
+# "payload.mass=", column 14)
+for fmt in text csv json; do
+  "$bin" sweep "$good" --vary "payload.mass=-1kg:1kg:1kg" --format $fmt >"$tmp/rows.$fmt" 2>"$tmp/stderr"
+  if grep -q -e "--vary:1:14: payload.mass: must be > 0 kg" "$tmp/rows.$fmt"; then
+    pass=$((pass + 1))
+  else
+    bad "a failed row in $fmt is not at --vary:1:14: $(grep -e '--vary' "$tmp/rows.$fmt" | head -n 2)"
+  fi
+done
 
 echo "cli: $pass passed, $fail failed"
 [ "$fail" -eq 0 ]

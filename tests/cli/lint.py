@@ -133,6 +133,13 @@ e = json.loads(out)["profiles"][0] if out.startswith("{") else {}
 check(rc == 2 and e.get("name") == "<stdin>" and e["errors"][0]["file"] == "<stdin>" and
       e["errors"][0]["line"] == expected(BAD[0])[0], f"'-' is <stdin> in the report: {e}")
 
+# ---- text: the cautions too (README.md "Cautions": every report, every format)
+# after the ok lines, each caution's words in the text (wrapped, so compared
+# with the whitespace folded)
+text_flat = " ".join(out_t.split())
+check(out_t.startswith(f"{GOOD}: ok\n") and "\nCautions\n" in out_t and
+      all(" ".join(c.split()) in text_flat for c in CAUTIONS),
+      f"text: the ok lines, then the cautions: {out_t[:300]!r}")
 # ---- CSV --------------------------------------------------------------------
 rc, out, _ = plumb("lint", *args, "--format", "csv")
 comments = [l[2:] for l in out.splitlines() if l.startswith("# ")]
@@ -237,7 +244,7 @@ check(all(fall_msgs) and "did you mean 'eu-c1-80j'?" in fall_msgs[0] and
       f"plumb fall names the nearest ids of an unknown criterion: {fall_msgs}")
 rc_t, out_t, err_t = plumb("lint", mixed)
 text_errs = stderr_errors(err_t)
-check(rc_t == 2 and out_t == "" and [e[:4] for e in text_errs] == want,
+check(rc_t == 2 and ": ok\n" not in out_t and [e[:4] for e in text_errs] == want,
       f"text: the bad mass, both unknown ids and the wind speed, in file order at their "
       f"places: {text_errs} / {want}")
 check(len(text_errs) == 4 and [text_errs[1][4], text_errs[2][4]] == fall_msgs,
@@ -288,7 +295,8 @@ def lint_all(path, what):
     rc_c, out_c, _ = plumb("lint", path, "--format", "csv")
     cerrs = [(r["file"], int(r["line"]), int(r["column"]), r["key"], r["message"])
              for r in csv_rows(out_c) if r["ok"] == "false"]
-    check((rc_t, rc_j, rc_c) == (2, 2, 2) and out_t == "" and jerrs == errs and cerrs == errs,
+    check((rc_t, rc_j, rc_c) == (2, 2, 2) and ": ok\n" not in out_t and
+          out_t.startswith("\nCautions\n") and jerrs == errs and cerrs == errs,
           f"{what}: exit 2 in text, JSON and CSV, the same errors in each: "
           f"{(rc_t, rc_j, rc_c)} {errs} / {jerrs} / {cerrs}")
     return errs

@@ -5,7 +5,9 @@
 Each range is checked in the unit it was typed in, counted without
 overflow, and refused (exit 2, the option named, nothing written) for a
 zero step, a step of the wrong sign, or too many values, before anything
-runs. The regression kept fixed: `--vary
+runs; the error is located as a --set's is (README.md "Exit status"):
+`--vary:N:COL:`, the N-th --vary, COL where the part at fault starts
+(STEP for a step of the wrong sign), then the key. The regression kept fixed: `--vary
 atmosphere.table[0].temperature=0degC:30degC:-20degC` passed the sign
 check (-20 degC read as +253.15 K), counted about 2^64 values, and with two
 such ranges the row cap was passed by wrap-around and the writer looped
@@ -63,17 +65,17 @@ T = "atmosphere.temperature"
 
 # ---- a temperature range is checked in degC / degF --------------------------
 refused(["sweep", SURFACE, "--vary", f"{T}=0degC:30degC:-20degC"],
-        ["<command line>: --vary atmosphere.temperature: ", "positive STEP"],
+        ["--vary:1:37: atmosphere.temperature: ", "positive STEP"],
         "degC range with a negative step")
 refused(["sweep", SURFACE, "--vary", f"{T}=0degC:30degC:-20degC",
          "--vary", "atmosphere.temperature_offset=0degC:30degC:-20degC"],
-        ["--vary atmosphere.temperature: "], "two such ranges (the writer used to loop for ever)")
+        ["--vary:1:37: atmosphere.temperature: "], "two such ranges (the writer used to loop for ever)")
 refused(["sweep", SURFACE, "--vary", f"{T}=86degF:14degF:18degF"],
-        ["--vary atmosphere.temperature: ", "negative STEP"], "degF range down with a positive step")
+        ["--vary:1:38: atmosphere.temperature: ", "negative STEP"], "degF range down with a positive step")
 refused(["sweep", SURFACE, "--vary", f"{T}=0degC:30degC:0degC"],
-        ["--vary atmosphere.temperature: ", "must not be zero"], "zero step")
+        ["--vary:1:37: atmosphere.temperature: ", "must not be zero"], "zero step")
 refused(["sweep", SURFACE, "--vary", f"{T}=0degC:30degC:1e-20degC"],
-        ["--vary atmosphere.temperature: ", "more than 100000"], "a count past any integer")
+        ["--vary:1:24: atmosphere.temperature: ", "more than 100000"], "a count past any integer")
 # 101 x 100 values: 10100 rows, more than the 10000 of a sweep
 refused(["sweep", SURFACE, "--vary", "release.height=1m:101m:1m",
          "--vary", "payload.mass=1kg:100kg:1kg"], ["10100 rows", "more than 10000"],
@@ -118,15 +120,15 @@ alts = [r["altitude_m"] for r in json.loads(so)["rows"]] if rc == 0 else None
 want = [i * 250 * 0.3048 for i in range(5)]
 check(alts is not None and len(alts) == 5 and all(abs(a - b) <= 1e-9 for a, b in zip(alts, want)),
       f"air --alt in feet: {alts}, want {want}")
-refused(["air", "--alt", "0m:20km:-1km"], ["<command line>: --alt: ", "positive STEP"],
+refused(["air", "--alt", "0m:20km:-1km"], ["--alt:1:9: ", "positive STEP"],
         "air --alt with a step of the wrong sign")
-refused(["air", "--alt", "0m:20km:0km"], ["--alt: ", "must not be zero"], "air --alt zero step")
-refused(["air", "--alt", "0m:20km:0.1m"], ["--alt: ", "200001 values"], "air --alt too many rows")
+refused(["air", "--alt", "0m:20km:0km"], ["--alt:1:9: ", "must not be zero"], "air --alt zero step")
+refused(["air", "--alt", "0m:20km:0.1m"], ["--alt:1:1: ", "200001 values"], "air --alt too many rows")
 # counts past what a double holds are refused without printing "inf", and
 # ends near the largest double (1.8e308, IEEE 754) are counted exactly
-refused(["air", "--alt", "0m:1e300m:1e-300m"], ["--alt: ", "more values than can be counted"],
+refused(["air", "--alt", "0m:1e300m:1e-300m"], ["--alt:1:1: ", "more values than can be counted"],
         "air --alt a count past the largest double")
-refused(["air", "--alt", "-1e308m:1e308m:1e300m"], ["--alt: ", "makes 200000001 values"],
+refused(["air", "--alt", "-1e308m:1e308m:1e300m"], ["--alt:1:1: ", "makes 200000001 values"],
         "air --alt ends near the largest double")
 rc, so, se = plumb("air", "--alt", "0m:1e300m:1e-300m")
 check("inf" not in se and "nan" not in se, f"no inf or nan in the message: {se.strip()!r}")

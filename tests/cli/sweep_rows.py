@@ -91,11 +91,13 @@ table = [l for l in block.splitlines() if l.strip()[:1].isdigit()]
 check(len(table) == 3 and all(l.count("EXCEEDS") + l.count("within") == 2 for l in table),
       f"sweep text gives a verdict beside each of two ratios:\n" + "\n".join(table))
 
-# an out-of-range value in one row: the rest still given
+# an out-of-range value in one row: the rest still given; the row's error
+# is located at the first --vary's FROM, column 16 after "release.height="
+# (README.md "Exit status")
 rc, out, err = plumb("sweep", THROWN, "--vary", "release.height=0m:8m:4m", "--format", "json")
 d = json.loads(out) if out else {"rows": []}
 e = d["rows"][0].get("error", {}) if d["rows"] else {}
-check(rc == 3 and len(d["rows"]) == 3 and "--vary: release.height: " in e.get("message", "")
+check(rc == 3 and len(d["rows"]) == 3 and "--vary:1:16: release.height: " in e.get("message", "")
       and e.get("computation_failed") is False and "impact" in d["rows"][1],
       f"release.height = 0 m is that row's error: exit {rc}, {e}")
 

@@ -253,14 +253,16 @@ refused() {
   fi
 }
 
-cl="<command line>"
-refused 2 "--samples 0" "$cl: --samples: expected a whole number" -- zone "$prof" --samples 0
-refused 2 "--samples abc" "$cl: --samples:" -- zone "$prof" --samples abc
-refused 2 "--samples 1.5" "$cl: --samples:" -- zone "$prof" --samples 1.5
-refused 2 "--samples too many" "$cl: --samples:" -- zone "$prof" --samples 200000000
-refused 2 "--samples too few for the confidence" "$cl: --samples: 100 samples cannot bound" \
+# an option's value is located as a --set is (README.md "Exit status"):
+# OPTION:1:COL:, COL where the part at fault starts (north after the comma)
+refused 2 "--target with a bare north" "plumb: --target:1:5: north: " -- zone "$prof" --target 40m,-12
+refused 2 "--samples 0" "--samples:1:1: expected a whole number" -- zone "$prof" --samples 0
+refused 2 "--samples abc" "--samples:1:1: " -- zone "$prof" --samples abc
+refused 2 "--samples 1.5" "--samples:1:1: " -- zone "$prof" --samples 1.5
+refused 2 "--samples too many" "--samples:1:1: " -- zone "$prof" --samples 200000000
+refused 2 "--samples too few for the confidence" "--samples:1:1: 100 samples cannot bound" \
   -- zone "$prof" --samples 100
-refused 2 "--confidence too high for the samples" "$cl: --confidence:" \
+refused 2 "--confidence too high for the samples" "--confidence:1:1: " \
   -- zone "$prof" --confidence 0.999
 # the same settings from the profile or a --set are refused where they were
 # given (an error in a --set value names that --set, where it can be
@@ -273,26 +275,26 @@ refused 2 "zone.samples too few, in the file" \
   "plumb: $tmp/few.yaml:21:17: zone.samples: 100 samples cannot bound" -- zone "$tmp/few.yaml"
 refused 2 "zone.seed above 2^53, by --set" "plumb: --set:1:11: zone.seed: expected a seed from 0 to 2^53-1" \
   -- zone "$prof" --set zone.seed=9007199254740992
-refused 2 "--seed -1" "$cl: --seed:" -- zone "$prof" --seed -1
-refused 2 "--seed x" "$cl: --seed:" -- zone "$prof" --seed x
-refused 2 "--seed above 2^53" "$cl: --seed:" -- zone "$prof" --seed 9007199254740992
-refused 2 "--threads 0" "$cl: --threads:" -- zone "$prof" --threads 0
-refused 2 "--threads many" "$cl: --threads:" -- zone "$prof" --threads 5000
-refused 2 "--confidence 1" "$cl: --confidence:" -- zone "$prof" --confidence 1
-refused 2 "--confidence 0" "$cl: --confidence:" -- zone "$prof" --confidence 0
-refused 2 "--confidence 150%" "$cl: --confidence:" -- zone "$prof" --confidence 150%
-refused 2 "--confidence abc" "$cl: --confidence:" -- zone "$prof" --confidence abc
-refused 2 "--target without units" "$cl: --target: east:" -- zone "$prof" --target 40,-12
-refused 2 "--target without a comma" "$cl: --target:" -- zone "$prof" --target 40m
+refused 2 "--seed -1" "--seed:1:1: " -- zone "$prof" --seed -1
+refused 2 "--seed x" "--seed:1:1: " -- zone "$prof" --seed x
+refused 2 "--seed above 2^53" "--seed:1:1: " -- zone "$prof" --seed 9007199254740992
+refused 2 "--threads 0" "--threads:1:1: " -- zone "$prof" --threads 0
+refused 2 "--threads many" "--threads:1:1: " -- zone "$prof" --threads 5000
+refused 2 "--confidence 1" "--confidence:1:1: " -- zone "$prof" --confidence 1
+refused 2 "--confidence 0" "--confidence:1:1: " -- zone "$prof" --confidence 0
+refused 2 "--confidence 150%" "--confidence:1:1: " -- zone "$prof" --confidence 150%
+refused 2 "--confidence abc" "--confidence:1:1: " -- zone "$prof" --confidence abc
+refused 2 "--target without units" "--target:1:1: east:" -- zone "$prof" --target 40,-12
+refused 2 "--target without a comma" "--target:1:1: " -- zone "$prof" --target 40m
 # a target too far from the site for the map (10 km, PLUMB_GEODESY_RANGE_M):
 # refused before the run, naming --target, or zone.target where --set gave it
-refused 2 "--target off the geojson map" "$cl: --target: the target (20000m,0m)" \
+refused 2 "--target off the geojson map" "--target:1:1: the target (20000m,0m)" \
   -- zone "$prof" --set "site={latitude: 52.1 deg, longitude: 4.3 deg}" --target 20000m,0m \
   --samples 300 --format geojson
 refused 2 "zone.target off the geojson map" "plumb: --set:2:13: zone.target: the target" \
   -- zone "$prof" --set "site={latitude: 52.1 deg, longitude: 4.3 deg}" \
   --set "zone.target={east: 20 km, north: 0 m}" --samples 300 --format geojson
-refused 2 "--target not a length" "$cl: --target:" -- zone "$prof" --target 4kg,2kg
+refused 2 "--target not a length" "--target:1:1: " -- zone "$prof" --target 4kg,2kg
 refused 2 "--format xml" "--format" -- zone "$prof" --format xml
 refused 2 "unknown option" "unknown option" -- zone "$prof" --sample 10
 refused 2 "no profile" "needs a PROFILE" -- zone
