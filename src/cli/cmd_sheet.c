@@ -3,11 +3,10 @@
  * sheet of one or more profiles, one PDF (include/plumb/sheet.h).
  *
  * The work is the study's and the brief's (plumb/brief.h): this handler
- * parses the options, opens a study and gathers a brief per profile, and
- * has the sheet drawn into memory; the file is written (atomically) only
- * when the whole document is made. The date and time of the calculation
- * are now, or SOURCE_DATE_EPOCH when it is set (reproducible builds), so
- * two runs with it set give the same bytes.
+ * parses the options, opens a study and a brief per profile, has the sheet
+ * drawn into memory and written (atomically) only when whole. The time of
+ * the calculation is now, or SOURCE_DATE_EPOCH when set (reproducible
+ * builds: two runs with it set give the same bytes).
  */
 #include <stdio.h>
 #include <stdlib.h>
@@ -36,9 +35,8 @@ static const char usage[] =
 
 enum { OPT_PAPER, OPT_SAMPLES, OPT_SEED, N_OPT };
 
-/* A zone of more falls than this gets a note on standard error first: it
- * takes seconds (measured: about 15 s for 100 000 falls of the drone demo
- * on one busy core). */
+/* More zone falls than this get a note on standard error first: seconds
+ * (measured: about 15 s for 100 000 falls of the drone demo, one core). */
 #define NOTE_FALLS 50000.0
 
 typedef struct sheet_job {
