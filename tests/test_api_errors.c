@@ -534,6 +534,57 @@ static void test_this_sessions_calls_refuse_bad_arguments(void **state)
     }
 }
 
+/* Whether s is well-formed UTF-8 (RFC 3629 section 4: a lead byte and
+ * as many continuation bytes as it announces; no stray continuation). */
+static int utf8_well_formed(const char *s)
+{
+    for (const unsigned char *u = (const unsigned char *)s; *u;) {
+        size_t need = *u < 0x80 ? 1 : *u >= 0xF0 ? 4 : *u >= 0xE0 ? 3 : *u >= 0xC0 ? 2 : 0;
+        if (need == 0)
+            return 0;
+        for (size_t k = 1; k < need; k++)
+            if ((u[k] & 0xC0) != 0x80)
+                return 0;
+        u += need;
+    }
+    return 1;
+}
+
+/* A message or key too long for its buffer is cut at the end of a whole
+ * character, never inside one: an item's name in Chinese (three bytes a
+ * character in UTF-8, RFC 3629) or with accents (two bytes) repeated past
+ * PLUMB_DIAG_MSG and PLUMB_DIAG_KEY, at every offset of the cut, is still
+ * well-formed UTF-8 and keeps all it can. */
+static void test_a_cut_message_ends_in_a_whole_character(void **state)
+{
+    (void)state;
+    static const char *const chars[] = {"\xc3\xa9", "\xe6\x89\xad", "\xf0\x9f\xaa\x9b"};
+    char text[2 * PLUMB_DIAG_MSG + 8];
+    for (size_t c = 0; c < sizeof chars / sizeof *chars; c++) {
+        size_t w = strlen(chars[c]);
+        for (size_t shift = 0; shift < w; shift++) {
+            size_t n = 0;
+            memset(text, 'a', shift);
+            n = shift;
+            while (n + w < sizeof text) {
+                memcpy(text + n, chars[c], w);
+                n += w;
+            }
+            text[n] = '\0';
+            plumb_diag d;
+            plumb_diag_clear(&d);
+            assert_int_equal(plumb_diag_option(&d, PLUMB_EINVAL, "--vary", 1, 1, text, "%s", text),
+                             PLUMB_EINVAL);
+            assert_true(utf8_well_formed(d.message));
+            assert_true(utf8_well_formed(d.key));
+            /* all that fits: at most one character short of the buffer */
+            assert_true(strlen(d.message) + w >= sizeof d.message - 1);
+            assert_true(strlen(d.key) + w >= sizeof d.key - 1);
+            assert_memory_equal(d.message, text, strlen(d.message));
+        }
+    }
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -548,6 +599,7 @@ int main(void)
         cmocka_unit_test(test_sweeps_samplers_and_zones_refuse_bad_arguments),
         cmocka_unit_test(test_set_keys_that_cannot_name_a_value_are_refused),
         cmocka_unit_test(test_a_report_with_a_figure_not_finite_is_not_written),
+        cmocka_unit_test(test_a_cut_message_ends_in_a_whole_character),
     };
     return cmocka_run_group_tests(tests, setup, teardown);
 }

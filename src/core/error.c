@@ -63,6 +63,22 @@ int plumb_diag_format(const plumb_diag *diag, char *buf, size_t size)
     return snprintf(buf, size, "%s%s", where, msg);
 }
 
+/* The length of s[0..len) without a last UTF-8 character that a cut at
+ * len left unfinished (RFC 3629 section 3: a lead byte 110xxxxx starts two
+ * bytes, 1110xxxx three, 11110xxx four; 10xxxxxx continues), so that a
+ * message or key cut to its buffer never ends in half a character. */
+static size_t utf8_whole(const char *s, size_t len)
+{
+    size_t i = len;
+    while (i > 0 && ((unsigned char)s[i - 1] & 0xC0) == 0x80 && len - i < 3)
+        i--;
+    if (i == 0)
+        return len;
+    unsigned char lead = (unsigned char)s[i - 1];
+    size_t need = lead >= 0xF0 ? 4 : lead >= 0xE0 ? 3 : lead >= 0xC0 ? 2 : 1;
+    return (i - 1) + need > len ? i - 1 : len;
+}
+
 plumb_status plumbp_vraise(plumb_diag *diag, plumb_status status, const char *file, int line,
                            int col, const char *key, const char *fmt, va_list ap)
 {
@@ -73,7 +89,9 @@ plumb_status plumbp_vraise(plumb_diag *diag, plumb_status status, const char *fi
     diag->line = line;
     diag->col = col;
     plumbp_strlcpy(diag->key, key ? key : "", sizeof diag->key);
-    vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    int len = vsnprintf(diag->message, sizeof diag->message, fmt, ap);
+    if (len >= (int)sizeof diag->message) /* cut: at a character's end */
+        diag->message[utf8_whole(diag->message, sizeof diag->message - 1)] = '\0';
     return status;
 }
 
@@ -110,7 +128,7 @@ char *plumbp_strlcpy(char *dst, const char *src, size_t n)
         return dst;
     size_t len = strlen(src);
     if (len >= n)
-        len = n - 1;
+        len = utf8_whole(src, n - 1);
     memcpy(dst, src, len);
     dst[len] = '\0';
     return dst;
