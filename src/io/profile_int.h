@@ -182,6 +182,9 @@ int plumbp_std_temperature_fails(double dt_k, double lo_m, double hi_m, double *
 /* profile_keypath.c */
 /* Index of the item of list whose name is `name`, or -1. */
 long plumbp_item_named(const plumby_node *list, const char *name);
+/* The node at kp in root, an item segment by its place in the list or by
+ * its name, or NULL: the walk of tree_remove, reading. Can't fail. */
+const plumby_node *plumbp_tree_get(const plumby_node *root, const keypath *kp);
 plumb_status plumbp_profile_keypath_resolve(const char *key, keypath *kp, const char *file,
                                             int file_line, plumb_diag *diag);
 /* `key` of item `item` (from 0) as p's file wrote it, into out[size]: a

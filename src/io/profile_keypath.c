@@ -305,9 +305,8 @@ double plumbp_direction_bearing(const char *text)
 
 /* ---- the unit a key was given in -------------------------------------- */
 
-/* The node at a resolved key path in a tree, or NULL: the walk of
- * tree_remove, reading. */
-static const plumby_node *tree_get(const plumby_node *root, const keypath *kp)
+/* profile_int.h */
+const plumby_node *plumbp_tree_get(const plumby_node *root, const keypath *kp)
 {
     const plumby_node *cur = root;
     for (size_t i = 0; cur && i < kp->n; i++) {
@@ -339,7 +338,7 @@ static const plumby_node *key_node(const plumb_profile *p, size_t item, const ch
     keypath kp;
     if (!p->tree || plumbp_profile_keypath_resolve(full, &kp, NULL, 0, NULL) != PLUMB_OK)
         return NULL;
-    const plumby_node *n = tree_get(p->tree, &kp);
+    const plumby_node *n = plumbp_tree_get(p->tree, &kp);
     return n && n->kind == PLUMBY_SCALAR ? n : NULL;
 }
 
@@ -414,7 +413,7 @@ const char *plumb_profile_key_origin(const plumb_profile *p, const char *key, in
             return NULL;
         kp.seg[0].index = at;
     }
-    const plumby_node *n = tree_get(p->tree, &kp);
+    const plumby_node *n = plumbp_tree_get(p->tree, &kp);
     if (!n)
         return NULL;
     *line = n->line;

@@ -269,30 +269,6 @@ static int key_within(const char *inner, const char *outer)
     return strncmp(inner, outer, n) == 0 && (inner[n] == '.' || inner[n] == '[');
 }
 
-/* The node at kp in root (its item segment already resolved to a place in
- * the list, as tree_remove reads it), or NULL. */
-static const plumby_node *tree_at(const plumby_node *root, const keypath *kp)
-{
-    const plumby_node *cur = root;
-    for (size_t i = 0; cur && i < kp->n; i++) {
-        const kseg *s = &kp->seg[i];
-        const plumby_pair *pair = cur->kind == PLUMBY_MAP ? plumby_find(cur, s->name) : NULL;
-        if (!pair)
-            return NULL;
-        const plumby_node *v = pair->value;
-        if (s->index != KSEG_NONE && v->kind == PLUMBY_SEQ) {
-            if (s->index < 0 || (size_t)s->index >= v->n)
-                return NULL;
-            cur = v->items[s->index];
-        } else if (s->index > 0 || s->index == KSEG_NAMED) {
-            return NULL;
-        } else {
-            cur = v;
-        }
-    }
-    return cur;
-}
-
 /* Two --set options of one key would let the last silently win, as a
  * second --format would (README.md "Common options": a repeated option is
  * refused): refuses the line-th --set of `key` (resolved: key_resolved)
@@ -326,7 +302,7 @@ static plumb_status set_twice(const plumbp_set_items *nb, const plumby_node *roo
                              line, typed, e->line, e->typed);
         if (key_within(resolved, e->key)) {
             if (!looked) {
-                now = tree_at(root, kp);
+                now = plumbp_tree_get(root, kp);
                 looked = 1;
             }
             if (now && now->origin == PLUMBY_FROM_SET && now->line == e->line)
