@@ -167,9 +167,10 @@ typedef struct unit_advice {
 /* Most candidates of one dimension (its list plus its alias words). */
 #define UNITS_CANDIDATES 48
 
-/* The units of dimension want that a did-you-mean may offer, into cand[];
- * their text lives in store. Returns how many. */
-static size_t candidates(plumb_dim want, const char **cand, char *store, size_t size)
+/* The units of dimension want's list (dim_units: the SI unit first), into
+ * cand[] (at most UNITS_CANDIDATES); their text lives in store. Returns
+ * how many. */
+static size_t listed_units(plumb_dim want, const char **cand, char *store, size_t size)
 {
     size_t n = 0;
     plumbp_strlcpy(store, dim_units[want], size);
@@ -181,6 +182,15 @@ static size_t candidates(plumb_dim want, const char **cand, char *store, size_t 
         *comma = '\0';
         p = comma + 2;
     }
+    return n;
+}
+
+/* The units of dimension want that a did-you-mean may offer, into cand[]:
+ * its list, then the words that name units of it; their text lives in
+ * store. Returns how many. */
+static size_t candidates(plumb_dim want, const char **cand, char *store, size_t size)
+{
+    size_t n = listed_units(want, cand, store, size);
     plumb_dim alias_dim = want == PLUMB_DIM_TEMP_DIFF ? PLUMB_DIM_TEMPERATURE : want;
     for (size_t i = 0; i < N_ALIASES && n < UNITS_CANDIDATES; i++)
         if (aliases[i].dim == alias_dim)
@@ -484,16 +494,7 @@ plumb_status plumbp_units_raise_bare(const plumb_units *units, const plumbp_acce
     /* the SI unit first, then the others of the dimension's list */
     const char *cand[UNITS_CANDIDATES];
     char store[UNITS_SHOW_MAX * 2];
-    size_t n = 0;
-    plumbp_strlcpy(store, dim_units[want], sizeof store);
-    for (char *p = store; *p && n < UNITS_CANDIDATES;) {
-        cand[n++] = p;
-        char *comma = strstr(p, ", ");
-        if (!comma)
-            break;
-        *comma = '\0';
-        p = comma + 2;
-    }
+    size_t n = listed_units(want, cand, store, sizeof store);
     char eg[2][UNITS_SHOW_MAX * 2 + 2];
     size_t n_eg = 0;
     snprintf(eg[0], sizeof eg[0], "%.*s %s", UNITS_SHOW_MAX, number, dims[want].si);
