@@ -429,19 +429,13 @@ static const char *status_words(const plumb_criterion *c)
 /* sheet_doc.h */
 int sheet_limit_sig(const plumb_brief *b, const plumb_criterion *c)
 {
-    int sig = TEXT_SIG;
-    for (size_t i = 0; b->fall && i < b->fall->n_items; i++) {
-        const plumb_item_report *it = &b->fall->items[i];
-        for (size_t k = 0; k < it->n_verdicts; k++) {
-            if (it->verdicts[k].criterion != c && strcmp(it->verdicts[k].criterion->id, c->id) != 0)
-                continue;
-            int s = plumbp_limit_sig(&it->verdicts[k],
-                                     plumbp_energy_sig(it->verdicts, it->n_verdicts, TEXT_SIG),
-                                     TEXT_SIG);
-            sig = s > sig ? s : sig;
-        }
-    }
-    return sig;
+    /* every item is judged against the profile's criteria in one order,
+     * as the text report reads them (plumbp_report_limit_sig's k) */
+    const plumb_item_report *first = b->fall && b->fall->n_items ? &b->fall->items[0] : NULL;
+    for (size_t k = 0; first && k < first->n_verdicts; k++)
+        if (first->verdicts[k].criterion == c || strcmp(first->verdicts[k].criterion->id, c->id) == 0)
+            return plumbp_report_limit_sig(b->fall, k, TEXT_SIG);
+    return TEXT_SIG;
 }
 
 /* Every criterion used, keyed C1..Cn (the inventory's ratio columns),
