@@ -12,17 +12,21 @@
 
 #include "plumb/constants.h"
 #include "plumb/gravity.h"
+#include "physics/physics.h"
 
 /* Degrees to radians. */
 #define GRAVITY_RAD_PER_DEG (3.14159265358979323846 / 180.0)
 
-double plumb_gravity_at(const plumb_gravity *g, double alt_m)
+double plumbp_gravity_normal(const plumb_gravity *g)
 {
     if (!g || !g->has_latitude)
         return PLUMB_G0_M_S2;
     double s = sin(g->latitude_deg * GRAVITY_RAD_PER_DEG);
     double s2 = s * s;
-    double gamma = PLUMB_WGS84_GAMMA_E * (1.0 + PLUMB_WGS84_K * s2) /
-                   sqrt(1.0 - PLUMB_WGS84_E2 * s2);
-    return gamma - PLUMB_FREE_AIR_GRADIENT_S2 * alt_m;
+    return PLUMB_WGS84_GAMMA_E * (1.0 + PLUMB_WGS84_K * s2) / sqrt(1.0 - PLUMB_WGS84_E2 * s2);
+}
+
+double plumb_gravity_at(const plumb_gravity *g, double alt_m)
+{
+    return plumbp_gravity_from(g, plumbp_gravity_normal(g), alt_m);
 }

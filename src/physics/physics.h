@@ -7,7 +7,9 @@
 
 #include <stddef.h>
 #include "plumb/atmosphere.h"
+#include "plumb/constants.h"
 #include "plumb/drag.h"
+#include "plumb/gravity.h"
 #include "plumb/wind.h"
 
 /* One evaluation of the fall's right-hand side (trajectory_rhs.c) at time t_s
@@ -36,9 +38,37 @@ plumb_status plumbp_atmosphere_at_pow(const plumb_atmosphere *atm, double alt_m,
 struct plumb_descent_spec;
 double plumbp_device_cds_at(const struct plumb_descent_spec *d, double fill_fraction);
 
+/* The part of plumb_gravity_at(g, alt) that is the same at every
+ * altitude: WGS 84 normal gravity on the ellipsoid gamma(phi) with a
+ * latitude, else g0, m/s^2 (gravity.c). A fall takes it once (its sin and
+ * sqrt were a tenth of a zone's time when taken at every evaluation of
+ * the right-hand side). Can't fail. */
+double plumbp_gravity_normal(const plumb_gravity *g);
+
+/* plumb_gravity_at(g, alt_m) from normal_m_s2 = plumbp_gravity_normal(g):
+ * the same figure bit for bit (it is plumb_gravity_at's own last step).
+ * Can't fail. */
+static inline double plumbp_gravity_from(const plumb_gravity *g, double normal_m_s2,
+                                         double alt_m)
+{
+    if (!g || !g->has_latitude)
+        return normal_m_s2;
+    return normal_m_s2 - PLUMB_FREE_AIR_GRADIENT_S2 * alt_m;
+}
+
 /* 1 when the wind is calm at every height: a speed of 0, or a table of
  * calm rows (wind.c). Can't fail. */
 int plumbp_wind_calm(const plumb_wind_spec *w);
+
+/* The log-law wind's ln(z_ref / z0), the same at every height (wind.c).
+ * Can't fail. */
+double plumbp_wind_log_span(const plumb_wind_spec *spec);
+
+/* plumb_wind_speed_at(spec, z_m) given log_span =
+ * plumbp_wind_log_span(spec) (read for a log profile only): the same
+ * figure bit for bit, with one log() instead of two. For the fall's
+ * right-hand side, which takes the span once per fall. Can't fail. */
+double plumbp_wind_speed_span(const plumb_wind_spec *spec, double z_m, double log_span);
 
 /* The power-law wind speed at z_m is spec->speed_m_s * pow(*x, *e):
  * returns 1 and sets *x and *e for a power profile and z_m > 0, else

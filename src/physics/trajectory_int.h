@@ -73,6 +73,7 @@ struct fall_ctx {
     double air_lo_m, air_hi_m;  /* altitudes the air model covers */
     int wind_table;             /* 1: table wind, components looked up */
     double wind_dir[2];         /* else: east, north components of a unit wind */
+    double wind_log_span;       /* log-law wind: plumbp_wind_log_span (else unused) */
     size_t n_dev;
     device_state dev[PLUMB_MAX_DESCENT];
     size_t evals;               /* RHS evaluations */
@@ -82,6 +83,7 @@ struct fall_ctx {
     plumb_downwash dw;          /* the rotor wake at release, if any */
     int turb;                   /* 1: realised gusts are added to the wind */
     double w20_m_s;             /* their W20 */
+    double g_normal_m_s2;       /* plumbp_gravity_normal of the spec's gravity */
     /* the air, gravity and mean wind at the last height (height_terms) */
     int memo_ok;                /* 1: the fields below hold */
     double memo_z;              /* y[IZ] they are for, m (compared bit for bit) */

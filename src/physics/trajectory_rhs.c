@@ -27,7 +27,10 @@ void plumbp_traj_ctx_init(fall_ctx *c, const plumb_fall_spec *spec, const plumb_
     c->wind_table = spec->wind.profile == PLUMB_WIND_TABLE;
     plumb_atmosphere_range(atm, &c->air_lo_m, &c->air_hi_m);
     plumb_wind_components(1.0, spec->wind.from_deg, &c->wind_dir[0], &c->wind_dir[1]);
+    if (spec->wind.profile == PLUMB_WIND_LOG)
+        c->wind_log_span = plumbp_wind_log_span(&spec->wind);
     c->w20_m_s = plumb_fall_w20(spec);
+    c->g_normal_m_s2 = plumbp_gravity_normal(&spec->gravity);
     c->turb = spec->turbulence.model != PLUMB_TURB_NONE && spec->turbulence.n_modes > 0 &&
               c->w20_m_s > 0.0;
     if (spec->downwash.aircraft_mass_kg > 0.0 && spec->downwash.disk_area_m2 > 0.0) {
@@ -106,11 +109,12 @@ static int height_terms(fall_ctx *c, const double y[], local *L, double *we, dou
         c->fail_alt_m = alt;
         return GSL_EDOM;
     }
-    L->g = plumb_gravity_at(&s->gravity, alt);
+    L->g = plumbp_gravity_from(&s->gravity, c->g_normal_m_s2, alt);
     if (c->wind_table) {
         plumb_wind_at(&s->wind, zw, we, wn);
     } else {
-        double w = power ? s->wind.speed_m_s * x_e : plumb_wind_speed_at(&s->wind, zw);
+        double w = power ? s->wind.speed_m_s * x_e
+                         : plumbp_wind_speed_span(&s->wind, zw, c->wind_log_span);
         *we = w * c->wind_dir[0];
         *wn = w * c->wind_dir[1];
     }

@@ -85,6 +85,12 @@ static void table_at(const plumb_wind_spec *w, double z_m, double *east, double 
     *north = w->table_north_m_s[lo] + f * (w->table_north_m_s[hi] - w->table_north_m_s[lo]);
 }
 
+/* The log-law speed at z_m > z0, given log_span = ln(z_ref / z0). */
+static double log_speed(const plumb_wind_spec *spec, double z_m, double log_span)
+{
+    return spec->speed_m_s * log(z_m / spec->roughness_m) / log_span;
+}
+
 double plumb_wind_speed_at(const plumb_wind_spec *spec, double z_m)
 {
     if (!(z_m > 0.0)) /* calm at and below the strike level (and for NaN) */
@@ -100,12 +106,25 @@ double plumb_wind_speed_at(const plumb_wind_spec *spec, double z_m)
     case PLUMB_WIND_LOG:
         if (!(z_m > spec->roughness_m))
             return 0.0;
-        return spec->speed_m_s * log(z_m / spec->roughness_m) /
-               log(spec->ref_height_m / spec->roughness_m);
+        return log_speed(spec, z_m, plumbp_wind_log_span(spec));
     case PLUMB_WIND_TABLE:
     default:
         return 0.0;
     }
+}
+
+double plumbp_wind_log_span(const plumb_wind_spec *spec)
+{
+    return log(spec->ref_height_m / spec->roughness_m);
+}
+
+double plumbp_wind_speed_span(const plumb_wind_spec *spec, double z_m, double log_span)
+{
+    if (spec->profile != PLUMB_WIND_LOG)
+        return plumb_wind_speed_at(spec, z_m);
+    if (!(z_m > 0.0) || !(z_m > spec->roughness_m))
+        return 0.0;
+    return log_speed(spec, z_m, log_span);
 }
 
 void plumb_wind_at(const plumb_wind_spec *spec, double z_m, double *east_m_s, double *north_m_s)
