@@ -11,6 +11,7 @@
 
 #include "plumb/constants.h"
 #include "plumb/gravity.h"
+#include "physics/physics.h"
 #include "plumb_test.h"
 
 static double g_at(double lat_deg, double alt_m)
@@ -69,6 +70,28 @@ static void test_gravity_without_latitude_is_g0_at_every_altitude(void **state)
     assert_abs(plumb_gravity_at(NULL, 123.4), 9.80665, 0.0);
 }
 
+/* The fall takes the altitude-free part once (plumbp_gravity_normal,
+ * physics.h): at the equator it is gamma_e = 9.7803253359 m/s^2 (NIMA
+ * TR8350.2, 3rd ed., transcribed), without a latitude g0 = 9.80665 m/s^2
+ * (CGPM 1901); less the free-air gradient it is plumb_gravity_at's figure,
+ * by its contract bit for bit. */
+static void test_normal_gravity_taken_once_gives_the_same_gravity(void **state)
+{
+    (void)state;
+    plumb_gravity eq = {1, 0.0}, at = {1, 55.1}, none = {0, 55.1};
+    assert_abs(plumbp_gravity_normal(&eq), 9.7803253359, 1e-10);
+    assert_abs(plumbp_gravity_normal(&none), 9.80665, 0.0);
+    assert_abs(plumbp_gravity_normal(NULL), 9.80665, 0.0);
+    double n = plumbp_gravity_normal(&at);
+    const double alt[] = {-398.7, 0.0, 351.5, 2468.3};
+    for (size_t k = 0; k < sizeof alt / sizeof alt[0]; k++) {
+        double g = plumbp_gravity_from(&at, n, alt[k]);
+        assert_rel(n - g, 3.086e-6 * alt[k], 1e-9);
+        assert_true(g == plumb_gravity_at(&at, alt[k]));
+        assert_abs(plumbp_gravity_from(&none, plumbp_gravity_normal(&none), alt[k]), 9.80665, 0.0);
+    }
+}
+
 int main(void)
 {
     const struct CMUnitTest tests[] = {
@@ -77,6 +100,7 @@ int main(void)
         cmocka_unit_test(test_gravity_at_45_deg_sits_the_grs80_gap_below_grs80),
         cmocka_unit_test(test_gravity_falls_by_the_free_air_gradient_with_altitude),
         cmocka_unit_test(test_gravity_without_latitude_is_g0_at_every_altitude),
+        cmocka_unit_test(test_normal_gravity_taken_once_gives_the_same_gravity),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_gsl, NULL);
 }

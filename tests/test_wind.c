@@ -10,6 +10,7 @@
 #include <cmocka.h>
 
 #include "plumb/wind.h"
+#include "physics/physics.h"
 #include "plumb_test.h"
 
 static plumb_wind_spec spec_of(plumb_wind_profile profile, double speed, double from)
@@ -148,6 +149,35 @@ static void test_log_law_gives_reference_speed_at_z_ref_and_calm_at_z0(void **st
     assert_true(speed_at(&w, 0.26) > 0.0);
 }
 
+/* The fall's right-hand side takes ln(z_ref/z0) once per fall
+ * (plumbp_wind_log_span, physics.h): with it the speed is the log law's
+ * closed form (wind.h; z0 = 0.25 m as above) and, by its contract,
+ * plumb_wind_speed_at's figure bit for bit, calm at and below z0; other
+ * profiles ignore the span. */
+static void test_log_law_with_its_span_taken_once_is_the_same_speed(void **state)
+{
+    (void)state;
+    plumb_wind_spec w = spec_of(PLUMB_WIND_LOG, 6.83, 118.0);
+    w.roughness_m = 0.25;
+    w.ref_height_m = 12.7;
+    double span = plumbp_wind_log_span(&w);
+    assert_rel(span, log(12.7 / 0.25), 1e-15);
+    const double z[] = {0.2500001, 0.73, 3.96, 12.7, 41.5, 388.2};
+    for (size_t k = 0; k < sizeof z / sizeof z[0]; k++) {
+        double s = plumbp_wind_speed_span(&w, z[k], span);
+        assert_rel(s, 6.83 * log(z[k] / 0.25) / log(12.7 / 0.25), 1e-14);
+        assert_true(s == plumb_wind_speed_at(&w, z[k]));
+    }
+    assert_abs(plumbp_wind_speed_span(&w, 0.25, span), 0.0, 0.0);
+    assert_abs(plumbp_wind_speed_span(&w, 0.11, span), 0.0, 0.0);
+    assert_abs(plumbp_wind_speed_span(&w, -1.3, span), 0.0, 0.0);
+    assert_abs(plumbp_wind_speed_span(&w, NAN, span), 0.0, 0.0);
+    plumb_wind_spec p = spec_of(PLUMB_WIND_POWER, 6.83, 118.0);
+    assert_rel(plumbp_wind_speed_span(&p, 41.5, 0.0), 6.83 * pow(41.5 / 10.0, 1.0 / 7.0), 1e-15);
+    plumb_wind_spec u = spec_of(PLUMB_WIND_UNIFORM, 6.83, 118.0);
+    assert_abs(plumbp_wind_speed_span(&u, 41.5, 0.0), 6.83, 0.0);
+}
+
 /* Table: east and north components linear in height, held beyond the ends
  * (wind.h). */
 static void test_table_wind_interpolates_components_linearly_in_height(void **state)
@@ -233,6 +263,7 @@ int main(void)
         cmocka_unit_test(test_power_law_with_exponent_0_equals_uniform),
         cmocka_unit_test(test_power_law_gives_reference_speed_at_z_ref_and_2_alpha_at_twice),
         cmocka_unit_test(test_log_law_gives_reference_speed_at_z_ref_and_calm_at_z0),
+        cmocka_unit_test(test_log_law_with_its_span_taken_once_is_the_same_speed),
         cmocka_unit_test(test_table_wind_interpolates_components_linearly_in_height),
         cmocka_unit_test(test_every_profile_is_calm_at_and_below_the_strike_level),
         cmocka_unit_test(test_default_wind_is_calm_with_documented_defaults),
