@@ -156,9 +156,13 @@ static void std1976_dry(double alt_m, double *tm_k, double *t_k, double *p_pa,
                         const side_pow *sp)
 {
     double h = geopotential_m(alt_m);
-    size_t i = ATM_N_LAYERS - 1;
-    while (i > 0 && h < std_layers[i].h_m)
-        i--;
+    /* the highest layer whose base is at or below h, else the first:
+     * searched upward, as most falls stay in the lowest layer (the same
+     * layer as a downward search for every h but NaN, which the callers
+     * never pass: they check the range) */
+    size_t i = 0;
+    while (i + 1 < ATM_N_LAYERS && h >= std_layers[i + 1].h_m)
+        i++;
     const atm_layer *b = &std_layers[i];
     double dh = h - b->h_m;
     double tm = b->t_k + b->lapse_k_m * dh;
