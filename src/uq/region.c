@@ -416,6 +416,18 @@ static int by_density(const void *a, const void *b)
     return (x->i > y->i) - (x->i < y->i);
 }
 
+/* hypot(gu, gv) <= s, with hypot's own figure: a zero leg gives the other
+ * one exactly (C11 F.10.4.3: hypot(x, +-0) is fabs(x)), so the call is
+ * needed only off the rows and columns of the cell. */
+static int within(double gu, double gv, double s)
+{
+    if (gu == 0.0)
+        return gv <= s;
+    if (gv == 0.0)
+        return gu <= s;
+    return hypot(gu, gv) <= s;
+}
+
 /* Every buffer cell within buffer_m of a region cell (distance between the
  * cell rectangles), on a grid covering the region plus the buffer. */
 static void buffer_mask(plumb_region *r, const unsigned char *reg, double s, frame *bf)
@@ -462,9 +474,12 @@ static void buffer_mask(plumb_region *r, const unsigned char *reg, double s, fra
             for (int b = b0; b <= b1; b++) {
                 double gv = fmax(0.0, fabs(bf->v0 + (b + 0.5) * bf->dv - vc) - hv);
                 for (int a = a0; a <= a1; a++) {
+                    unsigned char *cell = &m[a + bf->nu * b];
+                    if (*cell)
+                        continue; /* marked by a neighbour already: the test could not unmark it */
                     double gu = fmax(0.0, fabs(bf->u0 + (a + 0.5) * bf->du - uc) - hu);
-                    if (!edge || hypot(gu, gv) <= s)
-                        m[a + bf->nu * b] = 1;
+                    if (!edge || within(gu, gv, s))
+                        *cell = 1;
                 }
             }
         }
