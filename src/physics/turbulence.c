@@ -196,10 +196,13 @@ void plumb_turbulence_at(const plumb_turbulence_spec *t, double w20_m_s, double 
     double amp = sqrt(2.0 / (double)t->n_modes);
     double zeta_uv = zeta_u_fast(t->zeta_cheb, z_m);
     double zeta_w = plumb_turbulence_zeta(PLUMB_TURB_W, z_m);
+    /* u and v share one sigma (and its pow()), taken once */
+    double sigma_uv = plumb_turbulence_sigma(PLUMB_TURB_U, w20_m_s, z_m);
+    double sigma_w = plumb_turbulence_sigma(PLUMB_TURB_W, w20_m_s, z_m);
     for (int a = 0; a < 3; a++) {
         double zeta = a == PLUMB_TURB_W ? zeta_w : zeta_uv, s = 0.0;
         for (size_t i = 0; i < t->n_modes; i++)
             s += cos(t->kappa[a][i] * zeta + t->omega_s[a][i] * t_s + t->phase[a][i]);
-        g_m_s[a] = plumb_turbulence_sigma((plumb_turbulence_axis)a, w20_m_s, z_m) * amp * s;
+        g_m_s[a] = (a == PLUMB_TURB_W ? sigma_w : sigma_uv) * amp * s;
     }
 }
