@@ -407,7 +407,12 @@ static double eval_at(double x, void *params)
                                   "no answer within %zu falls", c->max_evals);
         return NAN;
     }
-    return c->fast ? eval_fast(c, x) : eval_slow(c, x);
+    /* the scan reads the metric and the canopy's state at impact, never
+     * the peak force: only a fall judged for the report locates it */
+    int was = plumbp_traj_peak_unread(c->traj, c->judged == NULL);
+    double f = c->fast ? eval_fast(c, x) : eval_slow(c, x);
+    plumbp_traj_peak_unread(c->traj, was);
+    return f;
 }
 
 /* Where Brent's method met a value it could not compute (brent): w, the
