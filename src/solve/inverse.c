@@ -17,6 +17,7 @@
 #include "core/internal.h"
 #include "io/keys.h"
 #include "io/vary.h"
+#include "solve/inverse_internal.h"
 #include "physics/physics.h"
 
 /* Values scanned for changes of sign before Brent refines them: 10 per
@@ -81,6 +82,7 @@ typedef struct solver_ctx {
     const plumb_criteria *criteria;
     plumb_item_report *judged;
     plumb_status judge_status;
+    plumb_diag *judge_diag;    /* why the judging failed; NULL: diag */
     /* the last fall computed had a canopy still filling at impact: the
      * device index + 1 of the first such, 0 when none */
     size_t filling;
@@ -108,7 +110,8 @@ static void keep(solver_ctx *c, const plumb_fall_spec *spec, const plumb_atmosph
     it->spec = spec;
     it->shape = plumb_profile_item_shape(c->profile, c->item);
     it->result = *r;
-    c->judge_status = plumb_item_judge(it, c->profile, c->criteria, atm, c->diag);
+    c->judge_status = plumb_item_judge(it, c->profile, c->criteria, atm,
+                                       c->judge_diag ? c->judge_diag : c->diag);
     it->spec = plumb_profile_item(c->profile, c->item);
 }
 
@@ -651,10 +654,13 @@ static void ctx_close(solver_ctx *c)
     plumb_profile_free(c->own_tmpl);
 }
 
-plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
-                               size_t item, const char *key, plumb_metric metric, double limit,
-                               const plumb_limit_options *opt, plumb_trajectory *traj,
-                               plumb_limit_result *res, plumb_diag *diag)
+plumb_status plumbp_limit_solve_judged(const plumb_profile *profile, const plumb_units *units,
+                                      size_t item, const char *key, plumb_metric metric,
+                                      double limit, const plumb_limit_options *opt,
+                                      plumb_trajectory *traj, const plumb_criteria *criteria,
+                                      plumb_item_report *judged, plumb_status *judge_st,
+                                      plumb_diag *judge_diag, plumb_limit_result *res,
+                                      plumb_diag *diag)
 {
     plumb_limit_options defaults;
     if (!opt) {
@@ -662,6 +668,8 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
         opt = &defaults;
     }
     memset(res, 0, sizeof *res);
+    if (judge_st)
+        *judge_st = PLUMB_OK;
     if (!(limit > 0.0) || !isfinite(limit))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "the limit must be a finite value > 0");
     solver_ctx c;
@@ -672,11 +680,25 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
         c.metric = metric;
         c.limit = limit;
         c.max_evals = opt->max_evaluations;
+        c.criteria = criteria;
+        c.judged = judged;
+        c.judge_diag = judge_diag;
         key_range r = range_of(key, c.dim, plumb_profile_item(profile, item), base);
         st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
+        if (judge_st)
+            *judge_st = c.judge_status;
     }
     ctx_close(&c);
     return st;
+}
+
+plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
+                               size_t item, const char *key, plumb_metric metric, double limit,
+                               const plumb_limit_options *opt, plumb_trajectory *traj,
+                               plumb_limit_result *res, plumb_diag *diag)
+{
+    return plumbp_limit_solve_judged(profile, units, item, key, metric, limit, opt, traj, NULL,
+                                     NULL, NULL, NULL, res, diag);
 }
 
 plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units *units,
@@ -872,7 +894,13 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
     res->dim = dim;
     res->base_value_si = base;
 
+    /* The fall to judge for the report (plumbp_limit_solve_judged) is the
+     * answer's, or the profile's own when there is none: both are
+     * evaluations of the solve, judged as they are made rather than
+     * computed again. */
+    plumb_item_report *judged = c->judged;
     double f0 = eval_at(base, c);
+    c->judged = NULL;
     if (c->fail != PLUMB_OK)
         return c->fail;
     if (isnan(f0) && diag && plumb_status_is_input_error(diag->status))
@@ -1009,6 +1037,7 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
             best = k;
     }
     double root = res->crossings_si[best];
+    c->judged = judged;
     double froot = eval_at(root, c);
     res->evaluations = c->evals;
     if (c->fail != PLUMB_OK)
