@@ -23,4 +23,15 @@ plumb_status plumbp_limit_solve_judged(const plumb_profile *profile, const plumb
                                       plumb_diag *judge_diag, plumb_limit_result *res,
                                       plumb_diag *diag);
 
+/* plumb_limit_solve for each of limits[0 .. n) (res[k], its status st[k],
+ * its diagnostic diags[k]): the same results, figures and counts of falls
+ * as n solves of their own, with the scan of the key's range, which does
+ * not depend on the limit, made once (the sheet's drop heights for each
+ * criterion, a two-way sweep's boundary). Can't fail otherwise. */
+void plumbp_limit_solve_many(const plumb_profile *profile, const plumb_units *units,
+                             size_t item, const char *key, plumb_metric metric,
+                             const double *limits, size_t n, const plumb_limit_options *opt,
+                             plumb_trajectory *traj, plumb_limit_result *res, plumb_status *st,
+                             plumb_diag *diags);
+
 #endif /* PLUMB_INVERSE_INTERNAL_H */
