@@ -38,6 +38,7 @@
 
 #include "plumb/plumb.h"
 #include "plumb_test.h"
+#include "solve/inverse_internal.h"
 
 /* Standard gravity, m/s^2 (3rd CGPM, 1901). */
 #define G0 9.80665
@@ -627,6 +628,38 @@ static void test_bad_limits_items_and_keys_are_refused_with_their_reason(void **
     plumb_profile_free(p);
 }
 
+/* solve/inverse_internal.h, plumbp_limit_solve_many: each limit's result
+ * is the one a solve of its own gives, bit for bit, its count of falls
+ * included, though the scan is made once; a limit that is refused is
+ * refused alone. The constant-air body's release height for 3 energies,
+ * one of them below any the scan reaches (none found) and one refused. */
+static void test_limits_solved_together_are_those_solved_one_by_one(void **state)
+{
+    (void)state;
+    plumb_profile *p = constant_air();
+    const double lim[4] = {301.7, 88.25, -4.0, 0.731};
+    plumb_limit_result many[4], one;
+    plumb_status st[4];
+    plumb_diag d[4], d1;
+    for (int k = 0; k < 4; k++)
+        plumb_diag_clear(&d[k]);
+    plumbp_limit_solve_many(p, units, 0, "release.height", PLUMB_METRIC_ENERGY, lim, 4, NULL,
+                            traj, many, st, d);
+    for (int k = 0; k < 4; k++) {
+        plumb_diag_clear(&d1);
+        plumb_status st1 = plumb_limit_solve(p, units, 0, "release.height", PLUMB_METRIC_ENERGY,
+                                             lim[k], NULL, traj, &one, &d1);
+        assert_int_equal(st[k], st1);
+        assert_memory_equal(&many[k], &one, sizeof one);
+        if (st1 != PLUMB_OK)
+            assert_string_equal(d[k].message, d1.message);
+    }
+    assert_int_equal(st[2], PLUMB_EINVAL);
+    assert_int_equal(many[0].outcome, PLUMB_LIMIT_FOUND);
+    assert_true(many[0].evaluations > 61); /* inverse.h: 61 values scanned, then Brent */
+    plumb_profile_free(p);
+}
+
 static void test_running_out_of_falls_is_a_numerical_failure_naming_the_key(void **state)
 {
     (void)state;
@@ -657,6 +690,7 @@ int main(void)
         cmocka_unit_test(test_each_item_is_answered_against_its_own_checks),
         cmocka_unit_test(test_bad_limits_items_and_keys_are_refused_with_their_reason),
         cmocka_unit_test(test_running_out_of_falls_is_a_numerical_failure_naming_the_key),
+        cmocka_unit_test(test_limits_solved_together_are_those_solved_one_by_one),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

@@ -22,6 +22,7 @@
 
 #include "plumb/plumb.h"
 #include "plumb_test.h"
+#include "physics/physics.h"
 
 static void base_spec(plumb_fall_spec *s, double mass_kg, double cda_m2, double h_m)
 {
@@ -381,6 +382,52 @@ static void test_peak_force_is_located_between_steps_not_sampled(void **state)
     plumb_diag d;
     assert_int_equal(plumb_trajectory_run(w, &s, atm, &b, &d), PLUMB_OK);
     assert_rel(a.peak_force_n, b.peak_force_n, 1e-8);
+    plumb_trajectory_free(w);
+    plumb_atmosphere_free(atm);
+}
+
+/* physics.h, plumbp_traj_peak_unread: a fall whose peak force is left
+ * unread (the limit's scan) has every other figure the same, bit for bit;
+ * its peak is the largest at the accepted points, which the located one
+ * (between them) can only exceed. A 1.83 kg body thrown under a canopy
+ * that fills in power-law wind, and the same spec 1.83 g light (the
+ * force has a local maximum at almost every step there). */
+static void test_a_fall_with_its_peak_unread_has_every_other_figure_the_same(void **state)
+{
+    (void)state;
+    plumb_atmosphere *atm = plumbt_std_air(6.5);
+    plumb_trajectory *w = workspace();
+    plumb_fall_spec s;
+    base_spec(&s, 1.83, 0.0, 142.0);
+    s.drag.cd = 1.05;
+    s.drag.area_m2 = 0.0187;
+    s.velocity_m_s[0] = 6.1;
+    s.velocity_m_s[1] = -2.2;
+    s.wind.profile = PLUMB_WIND_POWER;
+    s.wind.speed_m_s = 6.4;
+    s.wind.from_deg = 200.0;
+    s.n_descent = 1;
+    s.descent[0].cd = 0.78;
+    s.descent[0].area_m2 = 0.95;
+    s.descent[0].trigger = PLUMB_DEPLOY_AFTER;
+    s.descent[0].deploy_value = 1.7;
+    s.descent[0].fill_time_s = 0.65;
+    for (int light = 0; light < 2; light++) {
+        s.mass_kg = light ? 1.83e-3 : 1.83;
+        plumb_fall_result on, off;
+        plumb_diag d;
+        assert_int_equal(plumbp_traj_peak_unread(w, 0), 0);
+        assert_int_equal(plumb_trajectory_run(w, &s, atm, &on, &d), PLUMB_OK);
+        assert_int_equal(plumbp_traj_peak_unread(w, 1), 0);
+        assert_int_equal(plumb_trajectory_run(w, &s, atm, &off, &d), PLUMB_OK);
+        assert_int_equal(plumbp_traj_peak_unread(w, 0), 1);
+        assert_true(off.peak_force_n > 0.0 && off.peak_force_n <= on.peak_force_n);
+        assert_true(off.solver.rhs_evaluations < on.solver.rhs_evaluations);
+        off.peak_force_n = on.peak_force_n;
+        off.peak_load_g = on.peak_load_g;
+        off.solver.rhs_evaluations = on.solver.rhs_evaluations;
+        assert_memory_equal(&off, &on, sizeof on);
+    }
     plumb_trajectory_free(w);
     plumb_atmosphere_free(atm);
 }
@@ -1171,6 +1218,7 @@ int main(void)
         cmocka_unit_test(test_terminal_speed_is_the_lowest_root_in_the_drag_crisis),
         cmocka_unit_test(test_a_crisis_ball_from_rest_settles_at_the_lowest_root),
         cmocka_unit_test(test_a_canopy_still_filling_at_impact_is_not_open),
+        cmocka_unit_test(test_a_fall_with_its_peak_unread_has_every_other_figure_the_same),
     };
     return cmocka_run_group_tests(tests, plumbt_setup_gsl, NULL);
 }

@@ -193,6 +193,46 @@ static void test_lengths_match_the_1959_definitions(void **state)
     assert_rel(parse_ok(state, "3.18 km", PLUMB_DIM_LENGTH), 3180.0, EXACT);
 }
 
+/* units.h, plumb_units_to_si_n: each value as plumb_units_to_si gives it,
+ * the same double, the unit read once. Feet: 0.3048 m exactly (NIST SP
+ * 811 B.8); degC: K = degC + 273.15 (NIST SP 811 4.2.1.1). Of values one
+ * of which is below absolute zero, the error is that value's own, and the
+ * values before it are converted. */
+static void test_values_converted_together_are_those_converted_one_by_one(void **state)
+{
+    const double ft[5] = {30.7, -2.35, 0.0, 1e5, 17.125};
+    double si[5], one;
+    plumb_diag d;
+    assert_int_equal(plumb_units_to_si_n(*state, ft, 5, " ft ", PLUMB_DIM_LENGTH, si, &d),
+                     PLUMB_OK);
+    for (int i = 0; i < 5; i++) {
+        assert_rel(si[i], ft[i] * FT_M, EXACT);
+        assert_int_equal(plumb_units_to_si(*state, ft[i], " ft ", PLUMB_DIM_LENGTH, &one, &d),
+                         PLUMB_OK);
+        assert_memory_equal(&si[i], &one, sizeof one);
+    }
+    double c[4] = {21.5, -40.0, -300.0, 8.0};
+    double k[4] = {SENTINEL, SENTINEL, SENTINEL, SENTINEL};
+    plumb_diag alone;
+    assert_int_equal(plumb_units_to_si(*state, -300.0, "degC", PLUMB_DIM_TEMPERATURE, &one,
+                                       &alone), PLUMB_ERANGE);
+    assert_int_equal(plumb_units_to_si_n(*state, c, 4, "degC", PLUMB_DIM_TEMPERATURE, k, &d),
+                     PLUMB_ERANGE);
+    assert_string_equal(d.message, alone.message);
+    assert_rel(k[0], 294.65, EXACT);
+    assert_rel(k[1], 233.15, EXACT);
+    assert_true(k[2] == SENTINEL && k[3] == SENTINEL);
+    /* in place, as plumb_range_values_si converts */
+    assert_int_equal(plumb_units_to_si_n(*state, c, 2, "degC", PLUMB_DIM_TEMPERATURE, c, &d),
+                     PLUMB_OK);
+    assert_memory_equal(c, k, 2 * sizeof *c);
+    /* nothing to read or nowhere to write (units.h: errors as plumb_units_to_si's) */
+    assert_int_equal(plumb_units_to_si_n(*state, NULL, 1, "m", PLUMB_DIM_LENGTH, k, &d),
+                     PLUMB_EINVAL);
+    assert_int_equal(plumb_units_to_si_n(*state, c, 1, "m", PLUMB_DIM_LENGTH, NULL, &d),
+                     PLUMB_EINVAL);
+}
+
 static void test_aliases_replace_whole_words_only(void **state)
 {
     /* "min" holds "mi" and "in", "kft" holds "ft", "inHg" holds "in": each
@@ -1106,6 +1146,7 @@ int main(void)
         cmocka_unit_test(test_a_decimal_comma_is_explained),
         cmocka_unit_test(test_every_listed_unit_reads_as_its_dimension),
         cmocka_unit_test(test_the_reciprocal_of_a_unit_is_not_that_unit),
+        cmocka_unit_test(test_values_converted_together_are_those_converted_one_by_one),
     };
     return cmocka_run_group_tests(tests, group_setup, group_teardown);
 }

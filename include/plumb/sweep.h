@@ -81,6 +81,12 @@ double plumb_range_value(const plumb_range *r, size_t i);
 plumb_status plumb_range_value_si(const plumb_range *r, const plumb_units *units, size_t i,
                                   double *si_out, plumb_diag *diag);
 
+/* Every value of the range in SI, si_out[0 .. r->n): plumb_range_value_si
+ * of each, the same doubles, with the unit read once (plumb_units_to_si_n).
+ * The only failure is PLUMB_ENOMEM. */
+plumb_status plumb_range_values_si(const plumb_range *r, const plumb_units *units,
+                                   double *si_out, plumb_diag *diag);
+
 /* "KEY=<value> <unit>" for the i-th value, as --set takes it. */
 void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size);
 

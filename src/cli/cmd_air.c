@@ -77,24 +77,24 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
             st = cli_option_status(&diag, st, "--temperature-offset", 1, "'%s': %s", dt_text,
                                    d.message);
     }
+    double *alt_m = NULL;
     if (st == PLUMB_OK) {
         n = alt.n;
         rows = calloc(n, sizeof *rows);
-        if (!rows)
+        alt_m = calloc(n, sizeof *alt_m);
+        if (!rows || !alt_m)
             st = cli_option_status(&diag, PLUMB_ENOMEM, "--alt", 1, "out of memory for %zu rows", n);
     }
+    if (st == PLUMB_OK)
+        st = plumb_range_values_si(&alt, units, alt_m, &diag);
     for (size_t i = 0; st == PLUMB_OK && i < n; i++) {
-        double alt_m = 0.0;
-        st = plumb_range_value_si(&alt, units, i, &alt_m, &diag);
-        if (st != PLUMB_OK)
-            break;
-        plumb_status s = plumb_std1976(alt_m, dt, &rows[i]);
+        plumb_status s = plumb_std1976(alt_m[i], dt, &rows[i]);
         if (s != PLUMB_OK)
             st = cli_option_status(&diag, s,
                               alt_text ? "--alt" : dt_text ? "--temperature-offset" : "", 1,
                               "no air at %g m above sea level with a temperature offset of "
                               "%g K: %s (the model spans -5 km to 86 km and needs a positive "
-                              "temperature)", alt_m, dt, plumb_strerror(s));
+                              "temperature)", alt_m[i], dt, plumb_strerror(s));
     }
     int rc;
     if (st == PLUMB_OK) {
@@ -109,6 +109,7 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
         rc = cli_fail(&diag);
     }
     free(rows);
+    free(alt_m);
     plumb_units_free(units);
     return rc;
 }

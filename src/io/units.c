@@ -351,10 +351,33 @@ static const struct {
     {"in-pounds", "in lbf"},
 };
 
+static plumb_status convert_n(const plumb_units *units, const double *values, size_t n,
+                              const char *unit, plumb_dim want, const plumbp_accept *acc,
+                              const char *shown, const char *number, double *si_out,
+                              plumb_diag *diag, size_t *done);
+
+/* values[0] in unit to SI (*si_out); shown and number are how it was
+ * written, for the messages. */
 static plumb_status convert(const plumb_units *units, double value, const char *unit,
                             plumb_dim want, const plumbp_accept *acc, const char *shown,
                             const char *number, double *si_out, plumb_diag *diag)
 {
+    size_t done = 0;
+    return convert_n(units, &value, 1, unit, want, acc, shown, number, si_out, diag, &done);
+}
+
+/* values[0 .. n) in one unit to SI (si_out[0 .. n)), the unit read and its
+ * converter made once; shown and number are how values[0] was written,
+ * for the messages. A later value the checks after the conversion refuse
+ * (too large, below absolute zero) stops it with *done the values
+ * converted, so that the caller can convert that one alone for its own
+ * message. */
+static plumb_status convert_n(const plumb_units *units, const double *values, size_t n,
+                              const char *unit, plumb_dim want, const plumbp_accept *acc,
+                              const char *shown, const char *number, double *si_out,
+                              plumb_diag *diag, size_t *done)
+{
+    *done = 0;
     if (want == PLUMB_DIM_ENERGY)
         for (size_t i = 0; i < sizeof pound_force_words / sizeof pound_force_words[0]; i++)
             if (strcmp(unit, pound_force_words[i].word) == 0) {
@@ -366,14 +389,16 @@ static plumb_status convert(const plumb_units *units, double value, const char *
 
     if (unit[0] == '\0') {
         if (want == PLUMB_DIM_NONE || want == PLUMB_DIM_FRACTION) {
-            *si_out = value;
+            memcpy(si_out, values, n * sizeof *si_out);
+            *done = n;
             return PLUMB_OK;
         }
         return plumbp_units_raise_bare(units, acc, diag, want, number);
     }
     if (want == PLUMB_DIM_NONE) {
         if (strcmp(unit, "1") == 0) {
-            *si_out = value;
+            memcpy(si_out, values, n * sizeof *si_out);
+            *done = n;
             return PLUMB_OK;
         }
         return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s, found \"%.*s\" with a unit", w,
@@ -459,19 +484,25 @@ static plumb_status convert(const plumb_units *units, double value, const char *
                          UNITS_SHOW_MAX, unit);
         goto done;
     }
-    double si = cv_convert_double(cv, value);
-    if (!plumbp_finite(si)) {
-        st = PLUMB_RAISE(diag, PLUMB_ERANGE, "\"%.*s\" is too large once converted to %s",
-                         UNITS_SHOW_MAX, shown, dims[want].si);
-        goto done;
+    for (size_t i = 0; i < n; i++) {
+        double si = cv_convert_double(cv, values[i]);
+        int bad = !plumbp_finite(si) || (want == PLUMB_DIM_TEMPERATURE && si < 0.0);
+        if (bad && i > 0)
+            goto done; /* the caller converts values[i] alone, for its message */
+        if (!plumbp_finite(si)) {
+            st = PLUMB_RAISE(diag, PLUMB_ERANGE, "\"%.*s\" is too large once converted to %s",
+                             UNITS_SHOW_MAX, shown, dims[want].si);
+            goto done;
+        }
+        if (want == PLUMB_DIM_TEMPERATURE && si < 0.0) {
+            st = PLUMB_RAISE(diag, PLUMB_ERANGE,
+                             "expected %s, found \"%.*s\", which is %.6g K: below absolute zero",
+                             w, UNITS_SHOW_MAX, shown, si);
+            goto done;
+        }
+        si_out[i] = si;
+        *done = i + 1;
     }
-    if (want == PLUMB_DIM_TEMPERATURE && si < 0.0) {
-        st = PLUMB_RAISE(diag, PLUMB_ERANGE,
-                         "expected %s, found \"%.*s\", which is %.6g K: below absolute zero", w,
-                         UNITS_SHOW_MAX, shown, si);
-        goto done;
-    }
-    *si_out = si;
 done:
     cv_free(cv);
     ut_free(interval);
@@ -809,4 +840,40 @@ plumb_status plumb_units_to_si(const plumb_units *units, double value, const cha
     snprintf(number, sizeof number, "%.10g", value);
     snprintf(shown, sizeof shown, "%s%s%s", number, len ? " " : "", trimmed);
     return convert(units, value, trimmed, want, NULL, shown, number, si_out, diag);
+}
+
+plumb_status plumb_units_to_si_n(const plumb_units *units, const double *values, size_t n,
+                                 const char *unit, plumb_dim want, double *si_out,
+                                 plumb_diag *diag)
+{
+    if (!values || !si_out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_to_si_n: %s is NULL",
+                           !values ? "values" : "si_out");
+    size_t i = 0;
+    while (i < n) {
+        /* the first value of what is left alone, with every check and the
+         * message of its own text; then the rest by the same converter */
+        plumb_status st = plumb_units_to_si(units, values[i], unit, want, &si_out[i], diag);
+        if (st != PLUMB_OK)
+            return st;
+        i++;
+        size_t k;
+        for (k = 0; k < n - i && plumbp_finite(values[i + k]); k++)
+            ;
+        if (k == 0)
+            continue; /* values[i] is not finite: its own message */
+        char trimmed[UNITS_TEXT_MAX + 1];
+        copy_trimmed(trimmed, sizeof trimmed, unit, unit + strlen(unit));
+        char number[32];
+        char shown[sizeof number + UNITS_TEXT_MAX + 2];
+        snprintf(number, sizeof number, "%.10g", values[i]);
+        snprintf(shown, sizeof shown, "%s%s%s", number, trimmed[0] ? " " : "", trimmed);
+        size_t done = 0;
+        st = convert_n(units, &values[i], k, trimmed, want, NULL, shown, number, &si_out[i],
+                       diag, &done);
+        if (st != PLUMB_OK)
+            return st;
+        i += done;
+    }
+    return PLUMB_OK;
 }

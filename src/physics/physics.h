@@ -20,6 +20,21 @@ struct plumb_atmosphere;
 int plumbp_fall_rhs(const struct plumb_fall_spec *spec, const struct plumb_atmosphere *atm,
                     double t_s, const double y[7], double f[7]);
 
+/* Whether the falls run on workspace w locate their peak drag force
+ * between accepted points (trajectory.c, track_peak: Brent's search with
+ * a side step per trial, which is most of the cost of a slow fall under a
+ * canopy, where the force has a local maximum at almost every step). With
+ * unread = 1 a fall's peak_force_n is only the largest force at its
+ * accepted points, peak_load_g with it, and rhs_evaluations leaves out
+ * the search's; every other figure is the same bit for bit (the search
+ * runs on its own stepper from copies of accepted points and changes no
+ * state the fall goes on from). Only a fall whose search itself would fail
+ * (a side step that cannot be taken from an accepted point, not seen) is
+ * then computed instead of failing. For a caller that reads neither figure
+ * (the limit's scan, inverse.c). Returns the previous setting. Can't fail. */
+struct plumb_trajectory;
+int plumbp_traj_peak_unread(struct plumb_trajectory *w, int unread);
+
 /* The air at alt_m, as plumb_atmosphere_at gives it (the same figures
  * and errors), and pow(x, e) beside it: where the air needs a pow() of its
  * own (the 1976 layers with a lapse rate) the two are issued together, so

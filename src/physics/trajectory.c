@@ -200,7 +200,7 @@ static plumb_status observe(runner *r)
     double force = 0.5 * L.air.rho_kg_m3 * L.cda * L.vr_abs * L.vr_abs;
     if (force > res->peak_force_n)
         res->peak_force_n = force;
-    if (r->ctx->n_dev) {
+    if (r->ctx->n_dev && !r->w->peak_unread) {
         plumb_status st = track_peak(r, force);
         if (st != PLUMB_OK)
             return st;

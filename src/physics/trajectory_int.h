@@ -132,6 +132,8 @@ struct plumb_trajectory {
     gsl_min_fminimizer *min;       /* terminal speed: Brent minimiser */
     plumb_path_point *path;
     size_t path_n, path_cap;
+    int peak_unread;               /* 1: the caller reads neither peak_force_n nor peak_load_g
+                                      (plumbp_traj_peak_unread) */
 };
 
 /* trajectory_rhs.c */

@@ -59,6 +59,13 @@ void plumb_trajectory_free(plumb_trajectory *traj)
     free(traj);
 }
 
+int plumbp_traj_peak_unread(plumb_trajectory *w, int unread)
+{
+    int was = w->peak_unread;
+    w->peak_unread = unread;
+    return was;
+}
+
 plumb_status plumb_trajectory_alloc(const plumb_trajectory_options *opt, plumb_trajectory **out)
 {
     *out = NULL;

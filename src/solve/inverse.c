@@ -17,6 +17,7 @@
 #include "core/internal.h"
 #include "io/keys.h"
 #include "io/vary.h"
+#include "solve/inverse_internal.h"
 #include "physics/physics.h"
 
 /* Values scanned for changes of sign before Brent refines them: 10 per
@@ -47,6 +48,24 @@ typedef struct key_range {
     double lo, hi;
     int at_air_top;   /* 1: hi is the air model's top, not the end of the span */
 } key_range;
+
+/* What a scan found (scan, solve): the values computed, in increasing
+ * order, with the metric at each (not less the limit) and the canopy
+ * still filling there, and why it starts and ends where it does. */
+typedef struct scan_memo {
+    int done;                  /* 1: filled */
+    double xs[SCAN_POINTS + 1], ms[SCAN_POINTS + 1];
+    size_t fl[SCAN_POINTS + 1]; /* c->filling at each */
+    size_t n;
+    double m0;                 /* the metric at the profile's own value */
+    size_t fill0;
+    int low_refused;           /* values below the lowest computed were refused */
+    char low_key[PLUMB_DIAG_KEY]; /* the key whose check refused the last of them */
+    plumb_status top_out;      /* why the values above the highest computed were left out */
+    char top_key[PLUMB_DIAG_KEY];
+    size_t evals;              /* falls computed by its end */
+    plumb_diag diag;           /* the diagnostic as it left it */
+} scan_memo;
 
 typedef struct solver_ctx {
     const plumb_profile *profile;
@@ -81,6 +100,8 @@ typedef struct solver_ctx {
     const plumb_criteria *criteria;
     plumb_item_report *judged;
     plumb_status judge_status;
+    plumb_diag *judge_diag;    /* why the judging failed; NULL: diag */
+    scan_memo *memo;           /* a scan shared by several limits, or NULL */
     /* the last fall computed had a canopy still filling at impact: the
      * device index + 1 of the first such, 0 when none */
     size_t filling;
@@ -108,7 +129,8 @@ static void keep(solver_ctx *c, const plumb_fall_spec *spec, const plumb_atmosph
     it->spec = spec;
     it->shape = plumb_profile_item_shape(c->profile, c->item);
     it->result = *r;
-    c->judge_status = plumb_item_judge(it, c->profile, c->criteria, atm, c->diag);
+    c->judge_status = plumb_item_judge(it, c->profile, c->criteria, atm,
+                                       c->judge_diag ? c->judge_diag : c->diag);
     it->spec = plumb_profile_item(c->profile, c->item);
 }
 
@@ -407,7 +429,12 @@ static double eval_at(double x, void *params)
                                   "no answer within %zu falls", c->max_evals);
         return NAN;
     }
-    return c->fast ? eval_fast(c, x) : eval_slow(c, x);
+    /* the scan reads the metric and the canopy's state at impact, never
+     * the peak force: only a fall judged for the report locates it */
+    int was = plumbp_traj_peak_unread(c->traj, c->judged == NULL);
+    double f = c->fast ? eval_fast(c, x) : eval_slow(c, x);
+    plumbp_traj_peak_unread(c->traj, was);
+    return f;
 }
 
 /* Where Brent's method met a value it could not compute (brent): w, the
@@ -646,10 +673,13 @@ static void ctx_close(solver_ctx *c)
     plumb_profile_free(c->own_tmpl);
 }
 
-plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
-                               size_t item, const char *key, plumb_metric metric, double limit,
-                               const plumb_limit_options *opt, plumb_trajectory *traj,
-                               plumb_limit_result *res, plumb_diag *diag)
+plumb_status plumbp_limit_solve_judged(const plumb_profile *profile, const plumb_units *units,
+                                      size_t item, const char *key, plumb_metric metric,
+                                      double limit, const plumb_limit_options *opt,
+                                      plumb_trajectory *traj, const plumb_criteria *criteria,
+                                      plumb_item_report *judged, plumb_status *judge_st,
+                                      plumb_diag *judge_diag, plumb_limit_result *res,
+                                      plumb_diag *diag)
 {
     plumb_limit_options defaults;
     if (!opt) {
@@ -657,6 +687,8 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
         opt = &defaults;
     }
     memset(res, 0, sizeof *res);
+    if (judge_st)
+        *judge_st = PLUMB_OK;
     if (!(limit > 0.0) || !isfinite(limit))
         return PLUMB_RAISE(diag, PLUMB_EINVAL, "the limit must be a finite value > 0");
     solver_ctx c;
@@ -667,11 +699,80 @@ plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *
         c.metric = metric;
         c.limit = limit;
         c.max_evals = opt->max_evaluations;
+        c.criteria = criteria;
+        c.judged = judged;
+        c.judge_diag = judge_diag;
         key_range r = range_of(key, c.dim, plumb_profile_item(profile, item), base);
         st = solve(&c, profile, key, metric, limit, opt, base, &r, res);
+        if (judge_st)
+            *judge_st = c.judge_status;
     }
     ctx_close(&c);
     return st;
+}
+
+void plumbp_limit_solve_many(const plumb_profile *profile, const plumb_units *units,
+                             size_t item, const char *key, plumb_metric metric,
+                             const double *limits, size_t n, const plumb_limit_options *opt,
+                             plumb_trajectory *traj, plumb_limit_result *res, plumb_status *st,
+                             plumb_diag *diags)
+{
+    plumb_limit_options defaults;
+    if (!opt) {
+        plumb_limit_options_init(&defaults);
+        opt = &defaults;
+    }
+    size_t first = n; /* the first limit that can be solved for */
+    for (size_t k = 0; k < n; k++) {
+        memset(&res[k], 0, sizeof res[k]);
+        st[k] = PLUMB_OK;
+        if (!(limits[k] > 0.0) || !isfinite(limits[k]))
+            st[k] = PLUMB_RAISE(&diags[k], PLUMB_EINVAL, "the limit must be a finite value > 0");
+        else if (first == n)
+            first = k;
+    }
+    if (first == n)
+        return;
+    solver_ctx c;
+    double base = 0.0;
+    int na = 0;
+    plumb_status open = ctx_open(&c, profile, units, item, key, traj, &base, &na, &res[first],
+                                 &diags[first]);
+    scan_memo memo;
+    memo.done = 0;
+    key_range r = {RANGE_POSITIVE, 0.0, 0.0, 0};
+    if (open == PLUMB_OK && !na)
+        r = range_of(key, c.dim, plumb_profile_item(profile, item), base);
+    for (size_t k = first; k < n; k++) {
+        if (st[k] != PLUMB_OK)
+            continue;
+        if (open != PLUMB_OK || na || (k > first && !memo.done)) {
+            /* the same for every limit: the key's refusal, an item it does
+             * not apply to, a scan that failed (it does not depend on the
+             * limit) */
+            st[k] = k == first ? open : st[first];
+            res[k] = res[first];
+            diags[k] = diags[first];
+            continue;
+        }
+        c.diag = &diags[k];
+        c.fail = PLUMB_OK;
+        c.metric = metric;
+        c.limit = limits[k];
+        c.max_evals = opt->max_evaluations;
+        c.memo = &memo;
+        st[k] = solve(&c, profile, key, metric, limits[k], opt, base, &r, &res[k]);
+    }
+    ctx_close(&c);
+}
+
+plumb_status plumb_limit_solve(const plumb_profile *profile, const plumb_units *units,
+                               size_t item, const char *key, plumb_metric metric, double limit,
+                               const plumb_limit_options *opt, plumb_trajectory *traj,
+                               plumb_limit_result *res, plumb_diag *diag)
+{
+    return plumbp_limit_solve_judged(profile, units, item, key, metric, limit, opt, traj, NULL,
+                                     NULL, NULL, NULL, res, diag);
 }
 
 plumb_status plumb_limit_fall_at(const plumb_profile *profile, const plumb_units *units,
@@ -854,6 +955,94 @@ static void filling_crossing(const plumb_fall_spec *spec, const char *key, size_
 }
 
 /* The scan and the refinement (plumb_limit_solve, after its checks). */
+/* Scans the range (solve): the metric itself (the limit set to 0 while
+ * it runs, so that metric - limit is the metric exactly) at the profile's
+ * own value and at every value scanned, into *sm. The scan does not
+ * depend on the limit, so several limits share one (plumbp_limit_solve_many). */
+static plumb_status scan(solver_ctx *c, const char *key, double base, const key_range *r,
+                         scan_memo *sm)
+{
+    plumb_diag *diag = c->diag;
+    double limit = c->limit;
+    c->limit = 0.0;
+    /* The fall to judge for the report (plumbp_limit_solve_judged) is the
+     * answer's, or the profile's own when there is none: both are
+     * evaluations of the solve, judged as they are made rather than
+     * computed again (c->judged is set for those two only). */
+    double f0 = eval_at(base, c);
+    c->limit = limit;
+    if (c->fail != PLUMB_OK)
+        return c->fail;
+    if (isnan(f0) && diag && plumb_status_is_input_error(diag->status))
+        return diag->status; /* the profile cannot be re-made at its own value (built in code) */
+    if (isnan(f0)) {
+        char why[PLUMB_DIAG_MSG];
+        plumbp_strlcpy(why, diag ? diag->message : "", sizeof why);
+        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
+                               "the profile's own value cannot be computed%s%s", why[0] ? ": " : "",
+                               why);
+    }
+    sm->m0 = f0;
+    size_t fill0 = sm->fill0 = c->filling;
+
+    double *xs = sm->xs, *fs = sm->ms;
+    size_t *fl = sm->fl;
+    size_t n = 0;
+    int base_done = 0;
+    sm->low_refused = 0;
+    sm->low_key[0] = '\0';
+    sm->top_out = PLUMB_OK;
+    sm->top_key[0] = '\0';
+    plumb_item_report *keep_judged = c->judged;
+    c->judged = NULL;
+    c->limit = 0.0;
+    for (size_t i = 0; i < SCAN_POINTS; i++) {
+        double x = scan_value(r, r->lo, r->hi, i, SCAN_POINTS);
+        if (!base_done && x >= base) {
+            if (x != base) {
+                xs[n] = base;
+                fl[n] = fill0;
+                fs[n++] = f0;
+            }
+            base_done = 1;
+        }
+        double fx = eval_at(x, c);
+        if (c->fail != PLUMB_OK)
+            break;
+        if (isnan(fx)) {
+            if (c->out_of_range && n == 0) {
+                sm->low_refused = 1;
+                plumbp_strlcpy(sm->low_key, c->refused_key, sizeof sm->low_key);
+            }
+            if (n > 0 && x > base && sm->top_out == PLUMB_OK) {
+                sm->top_out = c->left_out;
+                plumbp_strlcpy(sm->top_key, c->refused_key, sizeof sm->top_key);
+            }
+            continue; /* refused by the profile, or not computable: left out */
+        }
+        if (x > base)
+            sm->top_out = PLUMB_OK; /* computed again above a value left out */
+        xs[n] = x;
+        fl[n] = c->filling;
+        fs[n++] = fx;
+    }
+    c->limit = limit;
+    c->judged = keep_judged;
+    if (c->fail != PLUMB_OK)
+        return c->fail;
+    if (!base_done) {
+        xs[n] = base;
+        fl[n] = fill0;
+        fs[n++] = f0;
+    }
+    sm->n = n;
+    sm->evals = c->evals;
+    if (diag)
+        sm->diag = *diag;
+    sm->done = 1;
+    return PLUMB_OK;
+}
+
 static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const char *key,
                           plumb_metric metric, double limit, const plumb_limit_options *opt,
                           double base, const key_range *r_, plumb_limit_result *res)
@@ -867,72 +1056,38 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
     res->dim = dim;
     res->base_value_si = base;
 
-    double f0 = eval_at(base, c);
-    if (c->fail != PLUMB_OK)
-        return c->fail;
-    if (isnan(f0) && diag && plumb_status_is_input_error(diag->status))
-        return diag->status; /* the profile cannot be re-made at its own value (built in code) */
-    if (isnan(f0)) {
-        char why[PLUMB_DIAG_MSG];
-        plumbp_strlcpy(why, diag ? diag->message : "", sizeof why);
-        return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
-                               "the profile's own value cannot be computed%s%s", why[0] ? ": " : "",
-                               why);
-    }
-    res->metric_at_base = f0 + limit;
-    size_t fill0 = c->filling;
-
     /* Scan the range, then refine every change of sign with Brent's
      * method: a metric need not be monotonic in its key (a canopy that
-     * opens only above some height, wind that adds to the impact speed). */
-    double xs[SCAN_POINTS + 1], fs[SCAN_POINTS + 1];
-    size_t fl[SCAN_POINTS + 1]; /* the fall's canopy still filling at impact (c->filling) */
-    size_t n = 0;
-    int base_done = 0;
-    /* values below the lowest computed that the profile refused (a device
-     * set to open below a height, above a lower release): the key whose
-     * check refused the last of them */
-    int low_refused = 0;
-    char low_key[PLUMB_DIAG_KEY] = "";
-    /* values above the highest computed that were left out: why the first
-     * of them was (PLUMB_OK: none), and the key whose check refused it */
-    plumb_status top_out = PLUMB_OK;
-    char top_key[PLUMB_DIAG_KEY] = "";
-    for (size_t i = 0; i < SCAN_POINTS; i++) {
-        double x = scan_value(&r, r.lo, r.hi, i, SCAN_POINTS);
-        if (!base_done && x >= base) {
-            if (x != base) {
-                xs[n] = base;
-                fl[n] = fill0;
-                fs[n++] = f0;
-            }
-            base_done = 1;
-        }
-        double fx = eval_at(x, c);
-        if (c->fail != PLUMB_OK)
-            return c->fail;
-        if (isnan(fx)) {
-            if (c->out_of_range && n == 0) {
-                low_refused = 1;
-                plumbp_strlcpy(low_key, c->refused_key, sizeof low_key);
-            }
-            if (n > 0 && x > base && top_out == PLUMB_OK) {
-                top_out = c->left_out;
-                plumbp_strlcpy(top_key, c->refused_key, sizeof top_key);
-            }
-            continue; /* refused by the profile, or not computable: left out */
-        }
-        if (x > base)
-            top_out = PLUMB_OK; /* computed again above a value left out */
-        xs[n] = x;
-        fl[n] = c->filling;
-        fs[n++] = fx;
+     * opens only above some height, wind that adds to the impact speed).
+     * A scan shared by several limits is made once; each limit's figures
+     * and count of falls are then those of a solve of its own. */
+    scan_memo own;
+    scan_memo *sm = c->memo ? c->memo : &own;
+    if (!c->memo)
+        own.done = 0;
+    plumb_item_report *judged = c->judged;
+    if (!sm->done) {
+        st = scan(c, key, base, &r, sm);
+        if (st != PLUMB_OK)
+            return st;
+    } else {
+        c->evals = sm->evals;
+        if (diag)
+            *diag = sm->diag;
     }
-    if (!base_done) {
-        xs[n] = base;
-        fl[n] = fill0;
-        fs[n++] = f0;
-    }
+    c->judged = NULL;
+    double f0 = sm->m0 - limit;
+    res->metric_at_base = f0 + limit;
+    const double *xs = sm->xs;
+    const size_t *fl = sm->fl; /* the fall's canopy still filling at impact (c->filling) */
+    double fs[SCAN_POINTS + 1] = {0.0};
+    size_t n = sm->n;
+    for (size_t i = 0; i < n; i++)
+        fs[i] = sm->ms[i] - limit;
+    int low_refused = sm->low_refused;
+    const char *low_key = sm->low_key;
+    plumb_status top_out = sm->top_out;
+    const char *top_key = sm->top_key;
     double x_lo = xs[0], x_hi = xs[n - 1];
     gap_why gaps[PLUMB_LIMIT_MAX_CROSSINGS];
     for (size_t i = 1; i < n && res->n_crossings < PLUMB_LIMIT_MAX_CROSSINGS; i++) {
@@ -1004,6 +1159,7 @@ static plumb_status solve(solver_ctx *c, const plumb_profile *profile, const cha
             best = k;
     }
     double root = res->crossings_si[best];
+    c->judged = judged;
     double froot = eval_at(root, c);
     res->evaluations = c->evals;
     if (c->fail != PLUMB_OK)

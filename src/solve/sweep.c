@@ -318,6 +318,16 @@ plumb_status plumb_range_value_si(const plumb_range *r, const plumb_units *units
     return plumb_units_to_si(units, v, r->unit, r->dim, si_out, diag);
 }
 
+plumb_status plumb_range_values_si(const plumb_range *r, const plumb_units *units,
+                                   double *si_out, plumb_diag *diag)
+{
+    for (size_t i = 0; i < r->n; i++)
+        si_out[i] = plumb_range_value(r, i);
+    if (!r->unit[0])
+        return PLUMB_OK;
+    return plumb_units_to_si_n(units, si_out, r->n, r->unit, r->dim, si_out, diag);
+}
+
 void plumb_range_set_text(const plumb_range *r, size_t i, char *buf, size_t size)
 {
     snprintf(buf, size, "%s=%.*g%s%s", r->key, RANGE_DIGITS, plumb_range_value(r, i),

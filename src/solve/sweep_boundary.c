@@ -14,6 +14,7 @@
 #include "core/internal.h"
 #include "io/keys.h"
 #include "solve/sweep_internal.h"
+#include "solve/inverse_internal.h"
 
 /* The item of `profile` that key names (items[N].X, N as the profile is
  * written, or items[NAME].X), into *item, with the key as the limit solver
@@ -119,6 +120,19 @@ plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *pr
         if (st == PLUMB_ENOMEM) /* a failure of the machine, not a row's outcome */
             return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
         plumb_diag refused = d; /* why the value was refused, for each criterion */
+        /* every criterion's limit from one scan of the key (plumbp_limit_solve_many) */
+        double lim[PLUMB_MAX_VERDICTS];
+        plumb_limit_result lres[PLUMB_MAX_VERDICTS];
+        plumb_status lst[PLUMB_MAX_VERDICTS];
+        plumb_diag ld[PLUMB_MAX_VERDICTS];
+        if (st == PLUMB_OK && a1->dim != PLUMB_DIM_ANGLE) {
+            for (size_t k = 0; k < n; k++) {
+                lim[k] = crit[k]->energy_limit_j;
+                plumb_diag_clear(&ld[k]);
+            }
+            plumbp_limit_solve_many(derived, units, item, key1, PLUMB_METRIC_ENERGY, lim, n, NULL,
+                                    traj, lres, lst, ld);
+        }
         for (size_t k = 0; k < n; k++) {
             plumb_sweep_boundary *bk = &b[i * n + k];
             bk->status = st;
@@ -126,16 +140,17 @@ plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *pr
                 plumbp_sweep_boundary_why(s, i, k, &refused);
                 continue;
             }
-            plumb_limit_result res;
+            const plumb_limit_result *res = &lres[k];
             plumb_diag_clear(&d);
-            if (a1->dim == PLUMB_DIM_ANGLE) /* plumb limit's refusal, said for a sweep */
+            if (a1->dim == PLUMB_DIM_ANGLE) { /* plumb limit's refusal, said for a sweep */
                 bk->status = PLUMB_RAISE_KEY(&d, PLUMB_EINVAL, a1->key,
                                              "a direction does not raise or lower the energy "
                                              "one way, so no one value of it marks a limit "
                                              "(read each row's verdict)");
-            else
-                bk->status = plumb_limit_solve(derived, units, item, key1, PLUMB_METRIC_ENERGY,
-                                               crit[k]->energy_limit_j, NULL, traj, &res, &d);
+            } else {
+                bk->status = lst[k];
+                d = ld[k];
+            }
             if (bk->status == PLUMB_ENOMEM) {
                 plumb_profile_free(derived);
                 return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory");
@@ -144,12 +159,12 @@ plumb_status plumb_sweep_find_boundaries(plumb_sweep *s, const plumb_profile *pr
                 plumbp_sweep_boundary_why(s, i, k, &d);
                 continue;
             }
-            bk->outcome = res.outcome;
-            bk->limit_is_upper_bound = res.limit_is_upper_bound;
-            if (res.outcome == PLUMB_LIMIT_FOUND) {
-                bk->value_si = res.value_si;
+            bk->outcome = res->outcome;
+            bk->limit_is_upper_bound = res->limit_is_upper_bound;
+            if (res->outcome == PLUMB_LIMIT_FOUND) {
+                bk->value_si = res->value_si;
                 if (mapped) {
-                    bk->value = (res.value_si - off) / scale;
+                    bk->value = (res->value_si - off) / scale;
                 } else { /* a unit that cannot be read back: no value rather than a wrong one */
                     bk->status = PLUMB_EUNIT;
                 }

@@ -16,6 +16,7 @@
 #include "plumb/constants.h"
 #include "core/internal.h"
 #include "study/study_internal.h"
+#include "solve/inverse_internal.h"
 
 /* Points of the drag-free path (closed form, evenly spaced in time). */
 #define FREE_POINTS 64
@@ -168,14 +169,24 @@ static plumb_status make_limits(plumb_study *study, const plumb_item_report *it,
     if (CURVE_SPAN * H > *top)
         *top = CURVE_SPAN * H;
     pl->n_limits = it->n_verdicts;
+    /* one scan of the heights for every criterion (plumbp_limit_solve_many) */
+    double lim[PLUMB_MAX_VERDICTS];
+    plumb_status sts[PLUMB_MAX_VERDICTS];
+    plumb_diag ds[PLUMB_MAX_VERDICTS];
+    for (size_t k = 0; k < it->n_verdicts; k++) {
+        lim[k] = it->verdicts[k].criterion->energy_limit_j;
+        plumb_diag_clear(&ds[k]);
+    }
+    plumbp_limit_solve_many(prof, plumbp_study_units(study), pl->item, "release.height",
+                            PLUMB_METRIC_ENERGY, lim, it->n_verdicts, NULL, traj, pl->limits, sts,
+                            ds);
     for (size_t k = 0; k < it->n_verdicts; k++) {
         plumb_limit_result *r = &pl->limits[k];
-        plumb_status st = plumb_limit_solve(prof, plumbp_study_units(study), pl->item,
-                                            "release.height", PLUMB_METRIC_ENERGY,
-                                            it->verdicts[k].criterion->energy_limit_j, NULL, traj,
-                                            r, diag);
-        if (st != PLUMB_OK)
-            return st;
+        if (sts[k] != PLUMB_OK) {
+            if (diag)
+                *diag = ds[k];
+            return sts[k];
+        }
         if (r->outcome == PLUMB_LIMIT_FOUND && r->value_si < LIMIT_REACH * H &&
             LIMIT_MARGIN * r->value_si > *top)
             *top = LIMIT_MARGIN * r->value_si;

@@ -15,6 +15,7 @@
 #include "study/study_internal.h"
 #include "io/profile_int.h"
 #include "io/vary.h"
+#include "solve/inverse_internal.h"
 
 struct plumb_study {
     const plumb_profile *profile;   /* borrowed, or own_profile */
@@ -259,34 +260,27 @@ static plumb_status given_unit(const plumb_study *s, size_t item, const char *ke
 
 /* The fall of item i at its answer (the profile's own value when there is
  * none), judged as plumb fall judges a fall, for the warnings that qualify
- * the answer (Mach, a device that does not open there ...). An item the
- * key does not apply to gets a report with its spec (for its name) and
- * nothing else. A value the solve computed
- * that cannot be computed again is PLUMB_ENUMERIC. */
-static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, plumb_diag *diag)
+ * the answer (Mach, a device that does not open there ...): the solve
+ * judged it (plumbp_limit_solve_judged), jst and jd say how that went. An
+ * item the key does not apply to gets a report with its spec (for its
+ * name) and nothing else. */
+static plumb_status judge_limit_fall(plumb_study *s, size_t i, const char *key, plumb_status jst,
+                                     const plumb_diag *jd, plumb_diag *diag)
 {
-    const plumb_limit_result *r = &s->limits[i];
     plumb_item_report *it = &s->limit_falls[i];
+    if (jst == PLUMB_OK && s->limits[i].outcome != PLUMB_LIMIT_NOT_APPLICABLE)
+        return PLUMB_OK;
     memset(it, 0, sizeof *it);
     it->spec = plumb_profile_item(s->profile, i); /* its name, at least */
-    if (r->outcome == PLUMB_LIMIT_NOT_APPLICABLE)
+    if (jst == PLUMB_OK)
         return PLUMB_OK;
-    double x = r->outcome == PLUMB_LIMIT_FOUND ? r->value_si : r->base_value_si;
-    plumb_diag d;
-    plumb_diag_clear(&d);
-    plumb_status st = plumb_limit_fall_at(s->profile, s->units, i, key, x, s->traj, s->criteria,
-                                          it, &d);
-    if (st == PLUMB_OK)
-        return PLUMB_OK;
-    memset(it, 0, sizeof *it);
-    it->spec = plumb_profile_item(s->profile, i);
-    if (st == PLUMB_ENOMEM || st == PLUMB_EKEY) {
+    if (jst == PLUMB_ENOMEM || jst == PLUMB_EKEY) {
         if (diag)
-            *diag = d;
-        return st;
+            *diag = *jd;
+        return jst;
     }
     return PLUMB_RAISE_KEY(diag, PLUMB_ENUMERIC, key,
-                           "the fall at the answer could not be computed again: %s", d.message);
+                           "the fall at the answer could not be computed again: %s", jd->message);
 }
 
 /* An items[N] or items[NAME] key asks for one item of an inventory: *only
@@ -362,12 +356,16 @@ plumb_status plumb_study_limit(plumb_study *s, const char *key, plumb_metric met
             s->limit_falls[i].spec = plumb_profile_item(s->profile, i);
             continue;
         }
-        st = plumb_limit_solve(s->profile, s->units, i, key, metric, limit, opt, s->traj,
-                               &s->limits[i], diag);
+        plumb_status jst = PLUMB_OK;
+        plumb_diag jd;
+        plumb_diag_clear(&jd);
+        st = plumbp_limit_solve_judged(s->profile, s->units, i, key, metric, limit, opt, s->traj,
+                                       s->criteria, &s->limit_falls[i], &jst, &jd,
+                                       &s->limits[i], diag);
         if (st == PLUMB_OK)
             st = given_unit(s, i, key, kd, &s->limits[i], diag);
         if (st == PLUMB_OK)
-            st = judge_limit_fall(s, i, key, diag);
+            st = judge_limit_fall(s, i, key, jst, &jd, diag);
         if (st != PLUMB_OK)
             return st;
     }
