@@ -1026,6 +1026,79 @@ static void test_alloc_fails_cleanly_when_an_alias_is_undefined(void **state)
     unlink(path);
 }
 
+/* ---- plumb_units_alloc_deferred --------------------------------------------- */
+
+static void test_deferred_alloc_refuses_a_null_out_pointer(void **state)
+{
+    (void)state;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_units_alloc_deferred(NULL, &d), PLUMB_EINVAL);
+    check_diag(&d, PLUMB_EINVAL, "plumb_units_alloc_deferred: out is NULL");
+}
+
+/* A deferred handle reads what a loaded one reads, the database loaded at
+ * its first quantity. 1 ft = 0.3048 m, 1 lbf = 4.4482216152605 N exactly
+ * (1959 yard and pound agreement; 3rd CGPM, 1901: g0 = 9.80665 m/s^2). */
+static void test_deferred_alloc_reads_quantities_as_a_loaded_handle(void **state)
+{
+    (void)state;
+    plumb_units *u = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_units_alloc_deferred(&u, &d), PLUMB_OK);
+    assert_non_null(u);
+    assert_int_equal(plumb_units_load_error(u, &d), PLUMB_OK);
+    double v = 0.0;
+    assert_int_equal(plumb_units_parse(u, "31.6 ft", PLUMB_DIM_LENGTH, &v, &d), PLUMB_OK);
+    assert_rel(v, 31.6 * FT_M, EXACT);
+    assert_int_equal(plumb_units_to_si(u, 2.385, "lbf", PLUMB_DIM_FORCE, &v, &d), PLUMB_OK);
+    assert_rel(v, 2.385 * 4.4482216152605, EXACT);
+    assert_int_equal(plumb_units_load_error(u, &d), PLUMB_OK);
+    plumb_units_free(u);
+}
+
+/* Without a database: no error until a quantity needs it (a text that is
+ * no number needs none); then that quantity's error is plumb_units_alloc's,
+ * the same at every later call, even once the database is back (a failed
+ * load is not tried again), and plumb_units_load_error tells it. */
+static void test_deferred_alloc_without_a_database_fails_at_the_first_unit_read(void **state)
+{
+    (void)state;
+    const char *old = getenv("UDUNITS2_XML_PATH");
+    char saved[1024] = "";
+    if (old)
+        snprintf(saved, sizeof saved, "%s", old);
+    assert_int_equal(setenv("UDUNITS2_XML_PATH", "/nonexistent/plumb/udunits2.xml", 1), 0);
+    plumb_units *u = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_units_alloc_deferred(&u, &d), PLUMB_OK);
+    double v = 7.5;
+    assert_int_equal(plumb_units_parse(u, "heavy", PLUMB_DIM_MASS, &v, &d), PLUMB_EPARSE);
+    assert_int_equal(plumb_units_load_error(u, &d), PLUMB_OK);
+    plumb_diag_clear(&d);
+    plumb_status st = plumb_units_parse(u, "2.385 kg", PLUMB_DIM_MASS, &v, &d);
+    if (old)
+        setenv("UDUNITS2_XML_PATH", saved, 1);
+    else
+        unsetenv("UDUNITS2_XML_PATH");
+    assert_int_equal(st, PLUMB_EIO);
+    check_diag(&d, PLUMB_EIO,
+               "cannot load the udunits2 unit database: cannot open the database named by "
+               "UDUNITS2_XML_PATH");
+    assert_rel(v, 7.5, EXACT); /* untouched */
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_units_to_si(u, 31.6, "ft", PLUMB_DIM_LENGTH, &v, &d), PLUMB_EIO);
+    check_diag(&d, PLUMB_EIO, "cannot open the database named by UDUNITS2_XML_PATH");
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_units_load_error(u, &d), PLUMB_EIO);
+    check_diag(&d, PLUMB_EIO, "cannot open the database named by UDUNITS2_XML_PATH");
+    assert_int_equal(plumb_units_load_error(u, NULL), PLUMB_EIO);
+    assert_int_equal(plumb_units_load_error(NULL, NULL), PLUMB_OK);
+    plumb_units_free(u);
+}
+
 /* ---- group ----------------------------------------------------------------- */
 
 static int group_setup(void **state)
@@ -1141,6 +1214,9 @@ int main(void)
         cmocka_unit_test(test_alloc_fails_cleanly_on_a_database_without_the_radian),
         cmocka_unit_test(test_alloc_fails_cleanly_on_a_database_without_the_kilogram),
         cmocka_unit_test(test_alloc_fails_cleanly_when_an_alias_is_undefined),
+        cmocka_unit_test(test_deferred_alloc_refuses_a_null_out_pointer),
+        cmocka_unit_test(test_deferred_alloc_reads_quantities_as_a_loaded_handle),
+        cmocka_unit_test(test_deferred_alloc_without_a_database_fails_at_the_first_unit_read),
         cmocka_unit_test(test_a_suggested_unit_is_of_the_wanted_dimension),
         cmocka_unit_test(test_a_compass_letter_after_an_angle_is_explained),
         cmocka_unit_test(test_a_decimal_comma_is_explained),

@@ -538,7 +538,7 @@ plumb_status cli_study_open(const cli_args *a, const char *path, cli_study *cs, 
     char dir[CLI_PATH_MAX];
     memset(cs, 0, sizeof *cs);
     plumb_diag_clear(diag);
-    plumb_status st = plumb_units_alloc(&cs->units, diag);
+    plumb_status st = plumb_units_alloc_deferred(&cs->units, diag);
     if (st == PLUMB_OK)
         st = cli_profile_load(a, path, cs->units, &cs->profile, diag);
     if (st == PLUMB_OK)
@@ -546,9 +546,19 @@ plumb_status cli_study_open(const cli_args *a, const char *path, cli_study *cs, 
                                      &cs->criteria, diag);
     if (st == PLUMB_OK)
         st = plumb_study_open(cs->profile, cs->criteria, cs->units, NULL, &cs->study, diag);
+    st = cli_units_error(cs->units, st, diag);
     if (st != PLUMB_OK && diag->status == PLUMB_OK)
         diag->status = st;
     return st;
+}
+
+plumb_status cli_units_error(const plumb_units *units, plumb_status st, plumb_diag *diag)
+{
+    plumb_diag ld;
+    if (st == PLUMB_OK || plumb_units_load_error(units, &ld) == PLUMB_OK)
+        return st;
+    *diag = ld;
+    return ld.status;
 }
 
 void cli_study_close(cli_study *cs)

@@ -201,8 +201,17 @@ typedef struct cli_study {
 } cli_study;
 
 /* Opens all of a cli_study in that order; on error the diagnostic says
- * why and cs holds only what was made (cli_study_close frees it). */
+ * why and cs holds only what was made (cli_study_close frees it). The
+ * units' database is loaded at the first quantity read
+ * (plumb_units_alloc_deferred): a profile refused before any (YAML, a
+ * key) costs no load. */
 plumb_status cli_study_open(const cli_args *a, const char *path, cli_study *cs, plumb_diag *diag);
+
+/* What to tell of a failure st (*diag) of a run over deferred units: the
+ * failed load of their database (*diag replaced, its status returned),
+ * told as plumb_units_alloc tells it, rather than the quantity it made
+ * unreadable; else st, *diag untouched. */
+plumb_status cli_units_error(const plumb_units *units, plumb_status st, plumb_diag *diag);
 
 /* Frees everything a cli_study holds. */
 void cli_study_close(cli_study *cs);

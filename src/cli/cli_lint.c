@@ -37,6 +37,9 @@ int cli_lint_one(const cli_args *a, const plumb_units *units, const char *path,
     *e = (plumb_lint_entry){strcmp(path, "-") == 0 ? CLI_STDIN_NAME : path, errs, 0, 1};
     if (st == PLUMB_OK)
         return CLI_EXIT_OK;
+    plumb_diag ld;
+    if (plumb_units_load_error(units, &ld) != PLUMB_OK)
+        return cli_fail(&ld); /* told alone, with no report (cmd_lint.c) */
     e->n_errors = n ? n : 1;
     e->listed_all = e->n_errors < CLI_LINT_MAX;
     int rc = CLI_EXIT_OK;

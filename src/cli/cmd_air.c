@@ -55,7 +55,7 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
     double dt = 0.0;
     size_t n = 0;
 
-    plumb_status st = plumb_units_alloc(&units, &diag);
+    plumb_status st = plumb_units_alloc_deferred(&units, &diag);
     if (st == PLUMB_OK)
         st = plumb_range_parse(units, alt_text ? alt_text : AIR_DEFAULT_ALT, PLUMB_DIM_LENGTH,
                                "--alt", &alt, &diag);
@@ -96,6 +96,7 @@ static int run(const cli_args *a, const char *alt_text, const char *dt_text)
                               "%g K: %s (the model spans -5 km to 86 km and needs a positive "
                               "temperature)", alt_m[i], dt, plumb_strerror(s));
     }
+    st = cli_units_error(units, st, &diag);
     int rc;
     if (st == PLUMB_OK) {
         air_job job;

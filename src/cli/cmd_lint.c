@@ -53,18 +53,23 @@ static int lint_all(const cli_args *a, plumb_units *units)
         fprintf(stderr, "plumb: out of memory\n");
         rc = CLI_EXIT_FAILED;
     }
-    for (size_t i = 0; rc != CLI_EXIT_FAILED && i < a->n_args; i++) {
+    /* a failed load of the units' database ends the run, told alone
+     * (cli_lint_one), with no report: as if it had come first */
+    int no_db = 0;
+    for (size_t i = 0; rc != CLI_EXIT_FAILED && !no_db && i < a->n_args; i++) {
         int one = cli_lint_one(a, units, a->args[i], &crit, errs + i * CLI_LINT_MAX, &e[i]);
         rc = one > rc ? one : rc;
         bad += e[i].n_errors > 0;
+        no_db = plumb_units_load_error(units, NULL) != PLUMB_OK;
     }
     plumb_criteria_free(crit);
-    if (rc != CLI_EXIT_FAILED && !(a->quiet && !a->output && a->format == PLUMB_FORMAT_TEXT)) {
+    if (rc != CLI_EXIT_FAILED && !no_db &&
+        !(a->quiet && !a->output && a->format == PLUMB_FORMAT_TEXT)) {
         lint_job job = {cli_report_options(a), e, a->n_args};
         int wrc = cli_emit(a, write_report, &job);
         rc = wrc > rc ? wrc : rc;
     }
-    if (rc == CLI_EXIT_INPUT && a->format != PLUMB_FORMAT_TEXT && !a->quiet)
+    if (rc == CLI_EXIT_INPUT && !no_db && a->format != PLUMB_FORMAT_TEXT && !a->quiet)
         fprintf(stderr, "plumb lint: errors in %zu of %zu profiles, listed in the report\n",
                 bad, a->n_args);
     free(e);
@@ -99,7 +104,7 @@ int cmd_lint(int argc, char **argv)
     }
     plumb_diag diag;
     plumb_units *units = NULL;
-    if (plumb_units_alloc(&units, &diag) != PLUMB_OK)
+    if (plumb_units_alloc_deferred(&units, &diag) != PLUMB_OK)
         rc = cli_fail(&diag);
     else
         rc = lint_all(&a, units);

@@ -351,6 +351,8 @@ static const struct {
     {"in-pounds", "in lbf"},
 };
 
+static plumb_status units_load(const plumb_units *units, plumb_diag *diag);
+
 static plumb_status convert_n(const plumb_units *units, const double *values, size_t n,
                               const char *unit, plumb_dim want, const plumbp_accept *acc,
                               const char *shown, const char *number, double *si_out,
@@ -417,6 +419,9 @@ static plumb_status convert_n(const plumb_units *units, const double *values, si
         return PLUMB_RAISE(diag, PLUMB_EUNIT, "expected %s; the unit in \"%.*s...\" is too long",
                            w, UNITS_SHOW_MAX, shown);
 
+    plumb_status loaded = units_load(units, diag);
+    if (loaded != PLUMB_OK)
+        return loaded;
     ut_unit *parsed = ut_parse(units->sys, expanded, UT_UTF8);
     if (!parsed && ut_out_of_memory())
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading the unit of \"%.*s\"",
@@ -524,21 +529,32 @@ static const char *ut_status_text(ut_status s)
     }
 }
 
+/* Frees what a load made, leaving the handle as before it. */
+static void units_unload(plumb_units *u)
+{
+    for (int d = 0; d < PLUMB_DIM_COUNT; d++) {
+        ut_free(u->ref[d]);
+        u->ref[d] = NULL;
+    }
+    for (size_t i = 0; i < N_OTHER; i++) {
+        ut_free(u->other[i]);
+        u->other[i] = NULL;
+    }
+    ut_free(u->radian);
+    ut_free(u->one);
+    ut_free_system(u->sys);
+    u->radian = u->one = NULL;
+    u->sys = NULL;
+}
+
 /*
  * Loads the default udunits2 database and builds the reference units.
  * Every alias is parsed and checked against the dimension it claims, so a
  * database that lacks or redefines one fails here (PLUMB_EIO), not later.
- * On error *out is NULL and everything made so far is freed.
+ * On error everything made so far is freed.
  */
-plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
+static plumb_status units_read(plumb_units *u, plumb_diag *diag)
 {
-    if (!out)
-        return PLUMB_RAISE(diag, PLUMB_EINVAL, "plumb_units_alloc: out is NULL");
-    *out = NULL;
-    plumb_units *u = calloc(1, sizeof *u);
-    if (!u)
-        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory allocating the unit system");
-
     plumb_status st = PLUMB_OK;
     ut_set_error_message_handler(ut_ignore);
     u->sys = ut_read_xml(NULL);
@@ -596,24 +612,71 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
             goto fail;
         }
     }
-    *out = u;
     return PLUMB_OK;
 fail:
-    plumb_units_free(u);
+    units_unload(u);
     return st;
+}
+
+/* The database of a handle, loaded at its first need: PLUMB_OK once
+ * loaded; else the status of the failed load with its diagnostic, the
+ * same at every call (a failed load is not tried again). */
+static plumb_status units_load(const plumb_units *units, plumb_diag *diag)
+{
+    plumb_units *u = units->self;
+    if (u->state == UNITS_NOT_LOADED) {
+        plumb_diag_clear(&u->load_diag);
+        u->state = units_read(u, &u->load_diag) == PLUMB_OK ? UNITS_LOADED : UNITS_FAILED;
+    }
+    if (u->state == UNITS_LOADED)
+        return PLUMB_OK;
+    if (diag)
+        *diag = u->load_diag;
+    return u->load_diag.status;
+}
+
+/* A handle whose database is not loaded yet; `fn` names the caller in
+ * the message for a NULL out. */
+static plumb_status units_new(plumb_units **out, const char *fn, plumb_diag *diag)
+{
+    if (!out)
+        return PLUMB_RAISE(diag, PLUMB_EINVAL, "%s: out is NULL", fn);
+    *out = NULL;
+    plumb_units *u = calloc(1, sizeof *u);
+    if (!u)
+        return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory allocating the unit system");
+    u->self = u;
+    *out = u;
+    return PLUMB_OK;
+}
+
+plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag)
+{
+    plumb_status st = units_new(out, "plumb_units_alloc", diag);
+    if (st == PLUMB_OK && (st = units_load(*out, diag)) != PLUMB_OK) {
+        plumb_units_free(*out);
+        *out = NULL;
+    }
+    return st;
+}
+
+plumb_status plumb_units_alloc_deferred(plumb_units **out, plumb_diag *diag)
+{
+    return units_new(out, "plumb_units_alloc_deferred", diag);
+}
+
+plumb_status plumb_units_load_error(const plumb_units *units, plumb_diag *diag)
+{
+    if (!units || units->state != UNITS_FAILED)
+        return PLUMB_OK;
+    return units_load(units, diag);
 }
 
 void plumb_units_free(plumb_units *units)
 {
     if (!units)
         return;
-    for (int d = 0; d < PLUMB_DIM_COUNT; d++)
-        ut_free(units->ref[d]);
-    for (size_t i = 0; i < N_OTHER; i++)
-        ut_free(units->other[i]);
-    ut_free(units->radian);
-    ut_free(units->one);
-    ut_free_system(units->sys);
+    units_unload(units);
     free(units);
 }
 

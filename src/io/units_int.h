@@ -61,7 +61,22 @@ static const struct {
 
 #define N_OTHER (sizeof other_quantities / sizeof other_quantities[0])
 
+/* Where a handle's database stands: its load is deferred to the first
+ * quantity that needs it (plumb_units_alloc_deferred), or done at once
+ * (plumb_units_alloc). */
+typedef enum units_state {
+    UNITS_NOT_LOADED = 0,  /* not needed yet: sys and the units below are NULL */
+    UNITS_LOADED,          /* sys and the units below made */
+    UNITS_FAILED           /* the load failed (load_diag): every later quantity fails so too */
+} units_state;
+
 struct plumb_units {
+    /* This handle, writable: the callers hold it const (it reads the same
+     * quantities the same way, loaded or not), and the first quantity that
+     * needs the database loads it through here. */
+    plumb_units *self;
+    units_state state;
+    plumb_diag load_diag;            /* why the load failed, when state is UNITS_FAILED */
     ut_system *sys;                  /* the udunits2 unit system (owned) */
     ut_unit *ref[PLUMB_DIM_COUNT];   /* SI reference unit of each dimension (owned) */
     ut_unit *radian;                 /* the radian, to tell angles from numbers (owned) */

@@ -225,6 +225,20 @@ static plumb_status call_units_alloc(void *ctx, plumb_diag *d)
     return st;
 }
 
+/* A deferred handle, its database loaded by its first quantity: each
+ * allocation of the load fails as plumb_units_alloc's does. */
+static plumb_status call_units_deferred(void *ctx, plumb_diag *d)
+{
+    (void)ctx;
+    plumb_units *u = NULL;
+    double v = 0.0;
+    plumb_status st = plumb_units_alloc_deferred(&u, d);
+    if (st == PLUMB_OK)
+        st = plumb_units_parse(u, "31.6 ft", PLUMB_DIM_LENGTH, &v, d);
+    plumb_units_free(u);
+    return st;
+}
+
 /* Quantities of several kinds: a plain unit, a prefixed one, an offset
  * temperature as a difference (the interval path), a compound. */
 static plumb_status call_units_parse(void *ctx, plumb_diag *d)
@@ -560,6 +574,7 @@ static void test_loading_units_criteria_and_profiles_fails_cleanly_at_every_allo
 {
     (void)s;
     each_allocation_fails_in_turn("plumb_units_alloc", call_units_alloc, NULL);
+    each_allocation_fails_in_turn("plumb_units_alloc_deferred", call_units_deferred, NULL);
     each_allocation_fails_in_turn("plumb_units_parse", call_units_parse, NULL);
     each_allocation_fails_in_turn("plumb_criteria_load_dir", call_criteria_load, NULL);
     for (size_t i = 0; i < N_PROFILES; i++) {
