@@ -77,6 +77,7 @@ check(CAUTIONS and rc == 0, "the reference cautions and version are read")
 args = [GOOD] + BAD
 rc_t, out_t, err_t = plumb("lint", *args)
 rc, out, err = plumb("lint", *args, "--format", "json")
+report = {"json": out}  # for the -o checks below: the same command, run once
 d = json.loads(out) if out.startswith("{") else {}
 check(rc == 2 and rc_t == 2, f"lint with bad profiles exits 2 in text and JSON ({rc_t}, {rc})")
 check(d.get("plumb_version") and d["plumb_version"] in version,
@@ -142,6 +143,7 @@ check(out_t.startswith(f"{GOOD}: ok\n") and "\nCautions\n" in out_t and
       f"text: the ok lines, then the cautions: {out_t[:300]!r}")
 # ---- CSV --------------------------------------------------------------------
 rc, out, _ = plumb("lint", *args, "--format", "csv")
+report["csv"] = out
 comments = [l[2:] for l in out.splitlines() if l.startswith("# ")]
 rows = csv_rows(out)
 check(rc == 2 and out.startswith("# ") and comments[:len(CAUTIONS)] == CAUTIONS,
@@ -180,7 +182,7 @@ check(rc == 2 and "[US:" not in err, "SI: no US limits")
 for name, fmt in (("r.json", "json"), ("r.csv", "csv"), ("r.txt", "text")):
     dest = os.path.join(tmp, name)
     rc, out, err = plumb("lint", *args, "-o", dest, "--quiet")
-    _, want, _ = plumb("lint", *args, "--format", fmt)
+    want = report[fmt] if fmt in report else plumb("lint", *args, "--format", fmt)[1]
     got = open(dest, encoding="utf-8").read() if os.path.exists(dest) else None
     check(rc == 2 and out == "" and got == want,
           f"-o {name}: exit 2, the {fmt} report whole in the file, nothing on stdout ({rc})")

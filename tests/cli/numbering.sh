@@ -315,17 +315,21 @@ else bad "a new items[7] by its name: exit $rc, $(head -c 300 "$tmp/err")"; fi
 # the zone numbers its items as the profile is written too: after items[2]
 # is removed, the headings, the kit table, JSON and CSV name 1, 3, 4 ...
 kit=profiles/demo/tower-kit.yaml
-"$bin" zone "$kit" --samples 400 --quiet --set 'items[2]=~' >"$tmp/z.txt" 2>"$tmp/err"
+# 50 samples at 90 % confidence (47 bound the landing circle, order
+# statistics): the numbers checked are the items', not the zone's figures,
+# and the profile's 99 % would want 368 or more.
+few="--samples 50 --set zone.confidence=0.9"
+"$bin" zone "$kit" $few --quiet --set 'items[2]=~' >"$tmp/z.txt" 2>"$tmp/err"
 rc=$?
 heads=$(sed -n 's/^==== \([0-9][0-9]*\) .*/\1/p' "$tmp/z.txt" | tr '\n' ' ')
 if [ $rc -eq 0 ] && [ "$heads" = "1 3 4 5 6 " ]; then ok
 else bad "zone headings after removing items[2]: exit $rc, numbers '$heads'"; fi
 rows=$(sed -n '/^ *# item *clearance/,/^$/p' "$tmp/z.txt" | sed -n 's/^ *\([0-9][0-9]*\) .*/\1/p' | tr '\n' ' ')
 if [ "$rows" = "1 3 4 5 6 " ]; then ok; else bad "zone kit table numbers '$rows'"; fi
-"$bin" zone "$kit" --samples 400 --quiet --set 'items[2]=~' --format json >"$tmp/z.json" 2>"$tmp/err"
+"$bin" zone "$kit" $few --quiet --set 'items[2]=~' --format json >"$tmp/z.json" 2>"$tmp/err"
 nums=$(python3 -c 'import json,sys; print(" ".join(str(i["item_number"]) for i in json.load(open(sys.argv[1]))["items"]))' "$tmp/z.json" 2>&1)
 if [ "$nums" = "1 3 4 5 6" ]; then ok; else bad "zone JSON item_number '$nums'"; fi
-"$bin" zone "$kit" --samples 400 --quiet --set 'items[2]=~' --format csv >"$tmp/z.csv" 2>"$tmp/err"
+"$bin" zone "$kit" $few --quiet --set 'items[2]=~' --format csv >"$tmp/z.csv" 2>"$tmp/err"
 nums=$(grep -v '^#' "$tmp/z.csv" | sed 1d | grep -v ',kit_' | cut -d, -f1 | uniq | tr '\n' ' ')
 if [ "$nums" = "1 3 4 5 6 " ]; then ok; else bad "zone CSV item_number '$nums'"; fi
 

@@ -36,7 +36,13 @@ THROWN = os.path.join(PROF, "thrown.yaml")
 
 # ---- no "0 m S" ----------------------------------------------------------------
 # a target 0.1 mm south of the east axis prints as 0 m north/south: no S
-rc, out, err = plumb("zone", THROWN, "--samples", "2000", "--threads", "1",
+# 500 samples in the zones below: a round count over the 490 that bound
+# the landing polygon at 99 % and 95 % confidence (100 fix its centre,
+# 390 are counted against it; plumb's own message at 400, which leaves
+# the polygon open and its axis_bearing_deg out of the JSON checked
+# below); the words checked (no "0 m S", "none", the bearings, the
+# spelling of m²) do not depend on how many more.
+rc, out, err = plumb("zone", THROWN, "--samples", "500", "--threads", "1",
                      "--set", "uncertainty={payload.drag.cd: {uniform: [0.7, 0.9]}}",
                      "--target", "40m,-0.0001m")
 check(rc == 0 and "Target 40.00 m E, 0 m N" in out and " 0 m S" not in out
@@ -92,7 +98,7 @@ check(len(rows) == 2 and all(0.0 < r["impact"]["drift_m"] < 0.005 and r["impact"
 # cell empty, JSON keeps its keys with null (it once gave "90", east,
 # the atan2(0, 0) of a zero covariance). A wind that varies spreads them along
 # its line (from 270 deg: east-west, bearing 90), and the bearing is given.
-ZONE = ("zone", LIGHT, "--samples", "2000", "--threads", "1")
+ZONE = ("zone", LIGHT, "--samples", "500", "--threads", "1")
 MASS = ("--set", "uncertainty.payload.mass={normal: [0.047 kg, 0.0042 kg]}")
 WIND = ("--set", "wind.from=270 deg", "--set", "wind.speed=3.1 m/s",
         "--set", "uncertainty.wind.speed={normal: [3.1 m/s, 0.8 m/s]}")
@@ -141,7 +147,7 @@ runs = [
     ("sweep", CANOPY, "--vary", "descent.area=0.8m^2:1.2m^2:0.2m^2"),
     ("sweep", CANOPY, "--vary", "descent.area=0.8m2:1.2m2:0.2m2"),
     ("limit", CANOPY, "--find", "descent.area", "--speed-max", "5.5m/s"),
-    ("zone", CANOPY, "--samples", "2000", "--threads", "1",
+    ("zone", CANOPY, "--samples", "500", "--threads", "1",
      "--set", "uncertainty={descent.area: {uniform: [0.8 m^2, 1.1 m^2]}}"),
 ]
 for args in runs:
@@ -193,10 +199,12 @@ for args in [("fall", THROWN, "--set", "release.height=0.01m"),
              ("sweep", THROWN, "--vary", "release.height=2m:2m:1m", "--format", "csv"),
              ("sweep", THROWN, "--vary", "release.height=2m:2m:1m", "--units", "us")]:
     rc, out, err = plumb(*args)
+    if args == ("fall", THROWN, "--set", "release.height=0.01m"):
+        one_cm = (rc, out)  # checked for '1 step,' below: the same run
     found = re.findall(ONE, " ".join((out + err).split()))
     check(rc in (0, 2) and (out or err) and not found,
           f"{' '.join(args[:1] + args[2:])}: a plural after one: {found} (exit {rc})")
-rc, out, err = plumb("fall", THROWN, "--set", "release.height=0.01m")
+rc, out = one_cm
 check(rc == 0 and re.search(r"solver +\w+, 1 step, ", out), "fall of 1 cm: '1 step,'")
 # two drogues, the second deployed after impact (60 s; the fall from 63.2 m
 # under the first takes a few seconds): "the drogue does not open" beside

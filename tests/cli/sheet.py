@@ -151,6 +151,9 @@ def bbox_outside(pdf):
     return out
 
 
+DARK = bytes(range(200))  # grey levels darker than 200 of 255
+
+
 def grey_margins_blank(pdf, dpi=50):
     """Renders every page in grey (pdftoppm -gray, PGM) and checks that the
     band inside 14 mm of each edge is white. Returns (pages, bad pages)."""
@@ -169,13 +172,12 @@ def grey_margins_blank(pdf, dpi=50):
         w, h = int(m.group(1)), int(m.group(2))
         px = data[m.end():]
         band = int(MARGIN_PT / 72.0 * dpi)
-        dark = 0
-        for y in range(h):
-            row = px[y * w:(y + 1) * w]
-            if y < band or y >= h - band:
-                dark += sum(1 for v in row if v < 200)
-            else:
-                dark += sum(1 for v in row[:band] if v < 200) + sum(1 for v in row[w - band:] if v < 200)
+        # the bytes below 200 counted by deleting them (bytes.translate, in
+        # C: a Python loop over each pixel cost more than the render)
+        top = px[:band * w] + px[(h - band) * w:h * w]
+        sides = b"".join(px[y * w:y * w + band] + px[(y + 1) * w - band:(y + 1) * w]
+                         for y in range(band, h - band))
+        dark = sum(len(b) - len(b.translate(None, DARK)) for b in (top, sides))
         if dark:
             bad.append(name)
     return n, bad
@@ -276,18 +278,28 @@ def page_streams(pdf, page):
     return pages[page - 1] if 1 <= page <= len(pages) else []
 
 
+# page_paths' tokens, compiled once (it reads some 250000 per run), and its
+# answers kept for the same bytes and page (several checks read a page)
+_TOKEN = re.compile(r"\(.*?\)|\S+")
+_NUMBER = re.compile(r"-?[\d.]+")
+_paths = {}
+
+
 def page_paths(pdf, page):
     """The stroked polylines of one page, as lists of (x, y) in points from
     the top left: the page's content streams (page_streams; cairo writes
     them Flate-compressed under one page-wide "1 0 0 -1 0 H cm", so a
     path's coordinates are pdftotext -bbox's) read for m / l ... S."""
+    key = (_bytes_key(pdf), page)
+    if key in _paths:
+        return [list(p) for p in _paths[key]]
     paths = []
     for body in page_streams(pdf, page):
         if not body.lstrip().startswith("1 0 0 -1 0 "):
             continue
         cur, nums = [], []
-        for tok in re.findall(r"\(.*?\)|\S+", body):
-            if re.fullmatch(r"-?[\d.]+", tok):
+        for tok in _TOKEN.findall(body):
+            if _NUMBER.fullmatch(tok):
                 nums.append(float(tok))
                 continue
             if tok == "m":
@@ -300,7 +312,8 @@ def page_paths(pdf, page):
             elif tok in ("n", "f", "f*", "B", "W"):
                 cur = []
             nums = []
-    return paths
+    _paths[key] = paths
+    return [list(p) for p in paths]
 
 
 def seg_in_box(p, q, box):
@@ -504,7 +517,10 @@ def no_leftovers(d, keep=()):
 
 # ---- the drone release: a single payload with a zone and a target -----------
 pdf = os.path.join(tmp, "drone.pdf")
-rc, out, err = run("sheet", DRONE, "-o", pdf, "--samples", "1000", "--seed", "7")
+# 500 samples: the fewest round count for which seed 7's landing circle is
+# closed (at 400 it is open, and "within ... of their centre" is not
+# written); the zone's JSON below is run with the same samples and seed.
+rc, out, err = run("sheet", DRONE, "-o", pdf, "--samples", "500", "--seed", "7")
 check(rc == 0 and os.path.exists(pdf), f"sheet of the drone release: exit {rc}: {err}")
 pages = pages_text(pdf)
 info = pdfinfo(pdf)
@@ -529,7 +545,7 @@ for what, fig in (("speed", speed), ("energy", energy), ("time", tfall + " s"),
 
 # the clearance figures as plumb zone --format json gives them, same seed
 import json  # noqa: E402
-_, zj, _ = plumb("zone", DRONE, "--samples", "1000", "--seed", "7", "--format", "json")
+_, zj, _ = plumb("zone", DRONE, "--samples", "500", "--seed", "7", "--format", "json")
 z = json.loads(zj)["zone"]
 r_drop = sig4_up(z["clearance_radius_m"]) + " m"
 r_target = sig4_up(z["target"]["clearance_radius_m"]) + " m"
@@ -541,7 +557,7 @@ cells, bad = verdict_cells(pdf)
 check(cells == 2 and not bad, f"A4, SI: each verdict's note on two lines: {cells} cells, {bad}")
 r_land = sig4_up(z["landing"]["circle"]["clearance_radius_m"]) + " m"
 check(f"within {r_land} (" in p1 and "of their centre" in p1, f"page 1 has the landing circle {r_land}")
-check("Seed: 7, 1000 samples" in text, "the seed and samples are stated")
+check("Seed: 7, 500 samples" in text, "the seed and samples are stated")
 # the files are named as a reader would find them: no "build/.." (the
 # criteria found beside the program in a source tree)
 check("/../" not in text, "no file named through '..'")
@@ -593,7 +609,7 @@ check(n == m and not bad, f"grey renders: {n} pages, margins not blank on {bad}"
 
 # reproducible: the same bytes twice
 pdf2 = os.path.join(tmp, "drone2.pdf")
-run("sheet", DRONE, "-o", pdf2, "--samples", "1000", "--seed", "7")
+run("sheet", DRONE, "-o", pdf2, "--samples", "500", "--seed", "7")
 with open(pdf, "rb") as a, open(pdf2, "rb") as b:
     check(a.read() == b.read(), "SOURCE_DATE_EPOCH: two runs byte for byte the same")
 os.remove(pdf2)
@@ -1149,7 +1165,13 @@ for units in ("si", "us"):
 
 # ---- several profiles: one document ------------------------------------------------
 both = os.path.join(tmp, "both.pdf")
-rc, _, err = run("sheet", DRONE, KIT, "-o", both, "--samples", "500")
+# At 90 % confidence 47 samples bound the landing circle (the closed forms
+# of the open-circle check below); 50 keep it closed and the kit's setter
+# (the cable tie bundle) other than its worst item (the box of M12 bolts),
+# as at the profile's own 99 %: these checks are of the document's
+# parts, not of the confidence, and the zone's JSON has the same --set.
+FEW = ("--samples", "50", "--set", "zone.confidence=0.9")
+rc, _, err = run("sheet", DRONE, KIT, "-o", both, *FEW)
 check(rc == 0, f"two profiles: exit {rc}: {err}")
 bt = pages_text(both)
 check(any(sha256(DRONE) in p for p in bt) and any(sha256(KIT) in p for p in bt),
@@ -1158,7 +1180,7 @@ check(sum("1. Job, date and inputs" in p for p in bt) == 2, "two profiles: two h
 # a kit's landing figures are those of the item that sets the clearance,
 # named there (not the worst item that section 2 opens with); the zone's
 # JSON says which item sets the kit's clearance
-_, kz, _ = plumb("zone", KIT, "--samples", "500", "--format", "json")
+_, kz, _ = plumb("zone", KIT, *FEW, "--format", "json")
 setter = json.loads(kz)["kit"]["set_by"]
 flat = re.sub(r"\s+", " ", " ".join(bt))
 check(f"Where {setter} lands (the item that sets the clearance):" in flat,
@@ -1179,14 +1201,17 @@ rc, _, err = run("sheet", "-", "-", "-o", bad_pdf)
 check(rc == 2 and "once" in err and no_leftovers(d), f"'-' twice: exit {rc}")
 rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "10")
 check(rc == 2 and no_leftovers(d), f"too few samples for the confidence: exit {rc}: {err}")
+# 368 samples, the fewest that bound the drone's 99 % radius at 95 %
+# confidence (plumb's message at 10 above): a sheet that would be written
+# but for the error checked.
 rc, _, err = run("sheet", DRONE, "-o", os.path.join(d, "no", "such", "dir.pdf"), "--samples",
-                 "500")
+                 "368")
 check(rc == 3 and "plumb:" in err and no_leftovers(d), f"unwritable output: exit {rc} (want 3)")
 # no fonts at all (an empty fontconfig configuration): exit 3, a clear message
 conf = os.path.join(tmp, "empty.conf")
 with open(conf, "w") as f:
     f.write('<?xml version="1.0"?>\n<!DOCTYPE fontconfig SYSTEM "fonts.dtd">\n<fontconfig></fontconfig>\n')
-rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "500", env={"FONTCONFIG_FILE": conf})
+rc, _, err = run("sheet", DRONE, "-o", bad_pdf, "--samples", "368", env={"FONTCONFIG_FILE": conf})
 check(rc == 3 and "DejaVu Sans" in err and no_leftovers(d),
       f"no font: exit {rc} (want 3), message {err.strip()[-120:]!r}")
 os.remove(conf)
@@ -1195,7 +1220,7 @@ os.remove(conf)
 lone = os.path.join(tmp, "lone")
 os.mkdir(lone)
 shutil.copy(PLUMB, os.path.join(lone, "plumb"))
-r = subprocess.run([os.path.join(lone, "plumb"), "sheet", DRONE, "-o", bad_pdf, "--samples", "500"],
+r = subprocess.run([os.path.join(lone, "plumb"), "sheet", DRONE, "-o", bad_pdf, "--samples", "368"],
                    capture_output=True, text=True, env=dict(os.environ, LC_ALL="C"), timeout=60)
 check(r.returncode == 3 and "plumb-sheet" in r.stderr and "not installed" in r.stderr
       and no_leftovers(d), f"no plumb-sheet: exit {r.returncode} (want 3), {r.stderr.strip()!r}")
@@ -1206,8 +1231,11 @@ os.rmdir(d)
 # in brackets (1 lb = 0.45359237 kg, 1 ft = 0.3048 m, exact), the scatter
 # allowance its SI one, and no control character reaches the page
 us_pdf = os.path.join(tmp, "tool-us.pdf")
+# 400 samples, not 2000: a round count over the 368 that bound the 99 %
+# radius at 95 % confidence; the quotes checked are the criterion's and the
+# profile's, the same at any count
 rc, _, err = plumb("sheet", os.path.join(ROOT, "profiles", "demo", "hand-tool.yaml"), "-o", us_pdf,
-                   "--units", "us", "--samples", "2000", "--quiet")
+                   "--units", "us", "--samples", "400", "--quiet")
 us_text = " ".join(pages_text(us_pdf)) if rc == 0 else ""
 check(rc == 0 and f"5.0 kg [{5 / 0.45359237:.1f} lb] striker, 1 m [{1 / 0.3048:.2f} ft] drop" in us_text
       and "scatter allowance of 9.843 ft [3.000 m]" in us_text and "\x1f" not in us_text

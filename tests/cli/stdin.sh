@@ -52,7 +52,10 @@ same "fall text" fall "$prof"
 same "fall csv" fall "$prof" --format csv
 same "sweep" sweep "$prof" --vary release.height=40m:90m:25m --format json
 same "limit" limit "$prof" --find descent.area --energy-max 40J --format json
-same "zone" zone "$prof" --samples 2000 --seed 11 --threads 1 --format json
+# 600 samples, not 2000: the fewest round count for which seed 11 closes
+# the landing circle and polygon (at 500 the polygon is open), so every
+# part of the zone report is compared
+same "zone" zone "$prof" --samples 600 --seed 11 --threads 1 --format json
 same "lint" lint "$prof"
 
 # The SHA-256 is of the bytes read (coreutils sha256sum, FIPS 180-4).
