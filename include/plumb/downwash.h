@@ -62,7 +62,6 @@ typedef struct plumb_downwash {
     double wake_d_m;          /* d_w = sqrt(2 A / pi) */
     double skew_rad;          /* chi, from the vertical */
     double dir[2];            /* unit horizontal direction the wake leans (east, north) */
-    double axis[3];           /* unit wake axis (sin chi dir, -cos chi), east, north, up */
     double origin_m[3];       /* rotor hub at release, m */
     double aircraft_v_m_s[2]; /* aircraft's horizontal velocity, m/s */
 } plumb_downwash;

@@ -33,10 +33,6 @@ void plumb_downwash_init(const plumb_downwash_spec *spec, double rho_kg_m3, doub
         out->dir[0] = v_rel_m_s[0] / V;
         out->dir[1] = v_rel_m_s[1] / V;
     }
-    double sc = sin(out->skew_rad), cc = cos(out->skew_rad);
-    out->axis[0] = sc * out->dir[0];
-    out->axis[1] = sc * out->dir[1];
-    out->axis[2] = -cc;
     memcpy(out->origin_m, release_m, 3 * sizeof *release_m);
     out->aircraft_v_m_s[0] = aircraft_v_m_s[0];
     out->aircraft_v_m_s[1] = aircraft_v_m_s[1];
@@ -74,8 +70,9 @@ void plumb_downwash_at(const plumb_downwash *dw, double t_s, const double p_m[3]
     double rx = p_m[0] - (dw->origin_m[0] + dw->aircraft_v_m_s[0] * t_s);
     double ry = p_m[1] - (dw->origin_m[1] + dw->aircraft_v_m_s[1] * t_s);
     double rz = p_m[2] - dw->origin_m[2];
-    /* wake axis: a = (sin chi dir, -cos chi), resolved with the wake */
-    double ax = dw->axis[0], ay = dw->axis[1], az = dw->axis[2];
+    /* wake axis: a = (sin chi dir, -cos chi) */
+    double sc = sin(dw->skew_rad), cc = cos(dw->skew_rad);
+    double ax = sc * dw->dir[0], ay = sc * dw->dir[1], az = -cc;
     double s = rx * ax + ry * ay + rz * az; /* distance along the axis */
     double px = rx - s * ax, py = ry - s * ay, pz = rz - s * az;
     double r2 = px * px + py * py + pz * pz;
