@@ -83,7 +83,9 @@ plumb_status plumb_range_value_si(const plumb_range *r, const plumb_units *units
 
 /* Every value of the range in SI, si_out[0 .. r->n): plumb_range_value_si
  * of each, the same doubles, with the unit read once (plumb_units_to_si_n).
- * The only failure is PLUMB_ENOMEM. */
+ * Fails with PLUMB_EINVAL for a NULL argument, PLUMB_ENOMEM, or the failed
+ * load of a deferred units handle's database (plumb_units_load_error); on
+ * failure si_out may hold values still in the range's own unit: discard it. */
 plumb_status plumb_range_values_si(const plumb_range *r, const plumb_units *units,
                                    double *si_out, plumb_diag *diag);
 

@@ -55,9 +55,10 @@ plumb_status plumb_units_alloc(plumb_units **out, plumb_diag *diag);
  * call given the handle, such as a profile's load at its first quantity),
  * so that a run that reads none (a malformed profile, a usage error) does
  * not pay for it (some 5 ms; 25 ms under AddressSanitizer). A failed load
- * is that call's error, with plumb_units_alloc's diagnostic, and every
- * later call's: it is not tried again, and plumb_units_load_error tells
- * it. On error (PLUMB_ENOMEM, or PLUMB_EINVAL for a NULL out) *out is
+ * is that call's error, with plumb_units_alloc's diagnostic, and that of
+ * every later call that reads a unit (a bare number or fraction read
+ * without one needs no database): it is not tried again, and
+ * plumb_units_load_error tells it. On error (PLUMB_ENOMEM, or PLUMB_EINVAL for a NULL out) *out is
  * NULL and nothing is leaked. Since the load happens in whichever call
  * comes first, the handle, like udunits2, is for one thread at a time. */
 plumb_status plumb_units_alloc_deferred(plumb_units **out, plumb_diag *diag);

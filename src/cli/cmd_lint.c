@@ -53,8 +53,9 @@ static int lint_all(const cli_args *a, plumb_units *units)
         fprintf(stderr, "plumb: out of memory\n");
         rc = CLI_EXIT_FAILED;
     }
-    /* a failed load of the units' database ends the run, told alone
-     * (cli_lint_one), with no report: as if it had come first */
+    /* a failed load of the units' database ends the run (cli_lint_one)
+     * with no report; in text form, the diagnostics of the profiles
+     * linted before it have already gone to stderr */
     int no_db = 0;
     for (size_t i = 0; rc != CLI_EXIT_FAILED && !no_db && i < a->n_args; i++) {
         int one = cli_lint_one(a, units, a->args[i], &crit, errs + i * CLI_LINT_MAX, &e[i]);

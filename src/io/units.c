@@ -391,7 +391,7 @@ static plumb_status convert_n(const plumb_units *units, const double *values, si
 
     if (unit[0] == '\0') {
         if (want == PLUMB_DIM_NONE || want == PLUMB_DIM_FRACTION) {
-            memcpy(si_out, values, n * sizeof *si_out);
+            memmove(si_out, values, n * sizeof *si_out);
             *done = n;
             return PLUMB_OK;
         }
@@ -399,7 +399,7 @@ static plumb_status convert_n(const plumb_units *units, const double *values, si
     }
     if (want == PLUMB_DIM_NONE) {
         if (strcmp(unit, "1") == 0) {
-            memcpy(si_out, values, n * sizeof *si_out);
+            memmove(si_out, values, n * sizeof *si_out);
             *done = n;
             return PLUMB_OK;
         }
