@@ -25,6 +25,7 @@
 #include <cmocka.h>
 #include <udunits2.h>
 
+#include "plumb/profile.h"
 #include "plumb/units.h"
 #include "plumb_test.h"
 
@@ -1099,6 +1100,41 @@ static void test_deferred_alloc_without_a_database_fails_at_the_first_unit_read(
     plumb_units_free(u);
 }
 
+/* A profile whose first quantity is a bare number, read through a deferred
+ * handle without a database: the bare number's advice (which units would
+ * bring it into range) needs the database, so the error is the failed
+ * load's (PLUMB_EIO, plumb_units_alloc's words), not a bare-number
+ * PLUMB_EUNIT that says no unit fits. */
+static void test_deferred_alloc_without_a_database_fails_a_bare_number_with_the_load_error(
+    void **state)
+{
+    (void)state;
+    const char *old = getenv("UDUNITS2_XML_PATH");
+    char saved[1024] = "";
+    if (old)
+        snprintf(saved, sizeof saved, "%s", old);
+    assert_int_equal(setenv("UDUNITS2_XML_PATH", "/nonexistent/plumb/udunits2.xml", 1), 0);
+    plumb_units *u = NULL;
+    plumb_diag d;
+    plumb_diag_clear(&d);
+    assert_int_equal(plumb_units_alloc_deferred(&u, &d), PLUMB_OK);
+    static const char text[] = "name: bare mass\npayload:\n  mass: 12\n"
+                               "  drag: {cd: 1.0, area: 0.01 m^2}\nrelease: {height: 10 m}\n";
+    plumb_profile *p = NULL;
+    plumb_status st = plumb_profile_load_buffer("bare.yaml", text, sizeof text - 1, u, NULL, 0,
+                                                &p, &d);
+    if (old)
+        setenv("UDUNITS2_XML_PATH", saved, 1);
+    else
+        unsetenv("UDUNITS2_XML_PATH");
+    assert_null(p);
+    assert_int_equal(st, PLUMB_EIO);
+    assert_int_equal(d.status, PLUMB_EIO);
+    assert_non_null(strstr(d.message, "cannot open the database named by UDUNITS2_XML_PATH"));
+    assert_string_equal(d.file, "bare.yaml"); /* where a unit was first needed */
+    plumb_units_free(u);
+}
+
 /* ---- group ----------------------------------------------------------------- */
 
 static int group_setup(void **state)
@@ -1217,6 +1253,7 @@ int main(void)
         cmocka_unit_test(test_deferred_alloc_refuses_a_null_out_pointer),
         cmocka_unit_test(test_deferred_alloc_reads_quantities_as_a_loaded_handle),
         cmocka_unit_test(test_deferred_alloc_without_a_database_fails_at_the_first_unit_read),
+        cmocka_unit_test(test_deferred_alloc_without_a_database_fails_a_bare_number_with_the_load_error),
         cmocka_unit_test(test_a_suggested_unit_is_of_the_wanted_dimension),
         cmocka_unit_test(test_a_compass_letter_after_an_angle_is_explained),
         cmocka_unit_test(test_a_decimal_comma_is_explained),

@@ -511,6 +511,11 @@ plumb_status plumbp_units_raise_bare(const plumb_units *units, const plumbp_acce
         else if (f > 0)
             n_eg++;
     }
+    /* a deferred database that failed to load (plumbp_units_fits reads it
+     * as "does not fit"): its own error, not advice on the bare number */
+    plumb_status loaded = plumb_units_load_error(units, diag);
+    if (loaded != PLUMB_OK)
+        return loaded;
     if (fits < 0)
         return PLUMB_RAISE(diag, PLUMB_ENOMEM, "out of memory reading \"%.*s\"", UNITS_SHOW_MAX,
                            number);
