@@ -396,22 +396,25 @@ const char *plumbp_t_ratio(writer *w, const plumb_verdict *v)
     return num(w, v->ratio, plumbp_ratio_sig(v, RATIO_SIG));
 }
 
-const char *plumbp_t_energy_at(writer *w, double j, int sig)
+/* f(w, j) with `sig` figures in place of w->sig. */
+static const char *with_sig(writer *w, double j, int sig,
+                            const char *(*f)(writer *, double))
 {
     int was = w->sig;
     w->sig = sig;
-    const char *b = plumbp_t_energy(w, j);
+    const char *b = f(w, j);
     w->sig = was;
     return b;
 }
 
+const char *plumbp_t_energy_at(writer *w, double j, int sig)
+{
+    return with_sig(w, j, sig, plumbp_t_energy);
+}
+
 const char *plumbp_t_limit_energy_at(writer *w, double j, int sig)
 {
-    int was = w->sig;
-    w->sig = sig;
-    const char *b = plumbp_t_limit_energy(w, j);
-    w->sig = was;
-    return b;
+    return with_sig(w, j, sig, plumbp_t_limit_energy);
 }
 
 /* ---- text: quantities in the chosen units ------------------------------ */

@@ -68,7 +68,6 @@ const char *plumbp_trimmed(writer *w, double x, int dec);
  * zeros dropped when `strip`. */
 const char *plumbp_trim_to(writer *w, double x, int sig, int dec, int strip);
 int plumbp_shows_zero(const char *s);
-const char *plumbp_gnum(writer *w, double x, int sig);
 const char *plumbp_t_len(writer *w, double m);
 /* A fall's drift, one formatter for every report that gives it: "none"
  * below DRIFT_SHOWN_M (it lands below its release point), else the length

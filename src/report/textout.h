@@ -114,15 +114,14 @@ static inline const char *num(writer *w, double x, int sig)
     return b;
 }
 
+/* x in the shortest of %g's forms with `sig` significant digits ("0.9");
+ * format.c. */
+const char *plumbp_gnum(writer *w, double x, int sig);
+
 /* A number for CSV: sig significant digits, shortest form. */
 static inline const char *csvnum_at(writer *w, double x, int sig)
 {
-    int ok;
-    char *b = num_slot(w, x, &ok);
-    if (!ok)
-        return b;
-    snprintf(b, NUMBUF, "%.*g", sig, x == 0.0 ? 0.0 : x);
-    return b;
+    return plumbp_gnum(w, x, sig);
 }
 
 /* A number for CSV: CSV_DIGITS significant digits, shortest form. */
